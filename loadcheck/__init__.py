@@ -1,0 +1,49 @@
+"""loadcheck: aircraft weight and balance.
+
+Check a loading against every limit of an aircraft at ramp, takeoff, landing and zero
+fuel and along the whole fuel burn. Advisory only: the aircraft's approved flight manual
+and its current weight-and-balance record govern, and the pilot in command decides.
+"""
+
+from __future__ import annotations
+
+__version__ = "0.1.0"
+
+from .aircraft import Aircraft, Envelope, EmptyWeight, Limits, Mac, Station, StationGroup, Tank, Units
+from .caution import MECHANIC_CAUTION, PILOT_CAUTION
+from .check import check_loading
+from .errors import FileFormatError, InputError, LoadcheckError, UnitError, UnknownNameError
+from .files import load_aircraft, load_check_inputs, load_loading
+from .loading import Burn, Loading, ResolvedLoading, resolve_loading
+from .results import CheckResult, Condition, Finding
+
+__all__ = [
+    "__version__",
+    "Aircraft",
+    "Envelope",
+    "EmptyWeight",
+    "Limits",
+    "Mac",
+    "Station",
+    "StationGroup",
+    "Tank",
+    "Units",
+    "Burn",
+    "Loading",
+    "ResolvedLoading",
+    "resolve_loading",
+    "check_loading",
+    "load_aircraft",
+    "load_loading",
+    "load_check_inputs",
+    "CheckResult",
+    "Condition",
+    "Finding",
+    "LoadcheckError",
+    "InputError",
+    "FileFormatError",
+    "UnitError",
+    "UnknownNameError",
+    "PILOT_CAUTION",
+    "MECHANIC_CAUTION",
+]

@@ -1,0 +1,428 @@
+"""The aircraft: units, empty-weight record, limits, stations, tanks and CG envelopes.
+
+These pydantic models mirror the aircraft file described in DESIGN.md field by field. A
+model that exists is valid: every field is checked here, at the boundary, and an error
+names the field path and the bad value. Any mass, arm or fuel quantity may be written
+with a unit (``"20 kg"``); it is converted to the aircraft's own units on the way in
+with the exact constants of :mod:`loadcheck.units`.
+"""
+
+from __future__ import annotations
+
+import datetime as dt
+import hashlib
+import json
+from functools import cached_property
+from typing import Annotated, Any, Literal
+
+from pydantic import (
+    BaseModel,
+    BeforeValidator,
+    ConfigDict,
+    Field,
+    PrivateAttr,
+    ValidationInfo,
+    WithJsonSchema,
+    field_validator,
+    model_validator,
+)
+
+from .envelope import Axis, EnvelopeShape, polygon_problem
+from .fuel import FuelGrade, default_density
+from .units import ArmUnit, MassUnit, VolumeUnit, canonical_unit, convert, parse_quantity, unit_kind
+
+__all__ = [
+    "Units",
+    "EmptyWeight",
+    "Limits",
+    "Mac",
+    "Station",
+    "StationGroup",
+    "Tank",
+    "Envelope",
+    "Aircraft",
+    "StationKind",
+    "HistoryEntry",
+]
+
+StationKind = Literal["seat", "baggage", "cargo", "ballast", "other"]
+
+_ID_PATTERN = r"^[A-Za-z0-9_][A-Za-z0-9_.-]*$"
+
+
+class _Model(BaseModel):
+    """Common configuration: unknown keys are errors (a misspelt limit must not vanish)."""
+
+    model_config = ConfigDict(extra="forbid", frozen=True, allow_inf_nan=False)
+
+
+def _quantity_reader(kind: str, unit_field: str) -> Any:
+    """A before-validator turning ``"20 kg"`` into a number in the aircraft's unit.
+
+    The aircraft's units reach nested models through the validation context
+    (``context={"units": Units}``); without it only plain numbers are accepted.
+    """
+
+    def read(value: Any, info: ValidationInfo) -> Any:
+        if not isinstance(value, str):
+            return value
+        quantity = parse_quantity(value)
+        if quantity.unit is None:
+            return quantity.value
+        units = (info.context or {}).get("units")
+        if units is None:
+            raise ValueError("a unit can be written here only when the file's [units] table is valid")
+        if unit_kind(quantity.unit) != kind:
+            raise ValueError(f"expected a {kind}, got the unit {quantity.unit!r}")
+        return convert(quantity.value, quantity.unit, getattr(units, unit_field))
+
+    return BeforeValidator(read)
+
+
+_QUANTITY_SCHEMA = WithJsonSchema({"anyOf": [{"type": "number"}, {"type": "string"}]})
+Mass = Annotated[float, _quantity_reader("mass", "mass"), _QUANTITY_SCHEMA]
+"""A mass [aircraft mass unit]; a string with a unit is converted."""
+Arm = Annotated[float, _quantity_reader("length", "arm"), _QUANTITY_SCHEMA]
+"""A distance from the datum [aircraft arm unit]; a string with a unit is converted."""
+Volume = Annotated[float, _quantity_reader("volume", "fuel_volume"), _QUANTITY_SCHEMA]
+"""A fuel volume [aircraft fuel volume unit]; a string with a unit is converted."""
+
+
+def _unit_name(value: Any) -> Any:
+    if isinstance(value, str):
+        try:
+            return canonical_unit(value)
+        except ValueError:
+            return value  # let the Literal report the valid choices
+    return value
+
+
+class Units(_Model):
+    """The units every number of an aircraft file is written in."""
+
+    mass: Annotated[MassUnit, BeforeValidator(_unit_name)] = Field(description="mass unit: lb or kg")
+    arm: Annotated[ArmUnit, BeforeValidator(_unit_name)] = Field(description="arm unit: in, mm, cm or m")
+    fuel_volume: Annotated[VolumeUnit, BeforeValidator(_unit_name)] = Field(
+        description="fuel volume unit: usgal, impgal or l"
+    )
+
+    @property
+    def moment(self) -> str:
+        """Name of the moment unit, e.g. ``lb*in``."""
+        return f"{self.mass}*{self.arm}"
+
+
+class EmptyWeight(_Model):
+    """The current basic empty weight record."""
+
+    weight: Mass = Field(gt=0, description="basic empty weight [mass unit]")
+    arm: Arm = Field(description="empty-weight CG, distance aft of datum [arm unit]")
+    lateral_arm: Arm | None = Field(None, description="empty-weight lateral CG, + right [arm unit]")
+    date: dt.date | None = Field(None, description="date of the record")
+    basis: str | None = Field(None, description="what the empty weight includes (unusable fuel, oil)")
+    cg_range: tuple[Arm, Arm] | None = Field(
+        None, description="empty-weight CG range from the flight manual, if given [arm unit]"
+    )
+
+    @property
+    def moment(self) -> float:
+        """Empty-weight moment [mass unit * arm unit]."""
+        return self.weight * self.arm
+
+
+class Limits(_Model):
+    """Weight limits from the flight manual; the CG limits are the envelopes."""
+
+    max_takeoff_weight: Mass = Field(gt=0, description="maximum takeoff weight [mass unit]")
+    max_ramp_weight: Mass | None = Field(None, gt=0, description="defaults to max takeoff [mass unit]")
+    max_landing_weight: Mass | None = Field(None, gt=0, description="defaults to max takeoff [mass unit]")
+    max_zero_fuel_weight: Mass | None = Field(None, gt=0, description="optional [mass unit]")
+    min_flight_weight: Mass | None = Field(None, ge=0, description="optional [mass unit]")
+    zero_fuel_cg: Literal["warning", "limit"] = Field(
+        "warning", description="'limit' only where the flight manual limits the zero-fuel CG"
+    )
+
+    @property
+    def ramp(self) -> float:
+        """Maximum ramp weight in force [mass unit]."""
+        return self.max_ramp_weight if self.max_ramp_weight is not None else self.max_takeoff_weight
+
+    @property
+    def landing(self) -> float:
+        """Maximum landing weight in force [mass unit]."""
+        return self.max_landing_weight if self.max_landing_weight is not None else self.max_takeoff_weight
+
+    @model_validator(mode="after")
+    def _ordered(self) -> Limits:
+        if self.max_ramp_weight is not None and self.max_ramp_weight < self.max_takeoff_weight:
+            raise ValueError("max_ramp_weight is below max_takeoff_weight")
+        if self.min_flight_weight is not None and self.min_flight_weight >= self.max_takeoff_weight:
+            raise ValueError("min_flight_weight is not below max_takeoff_weight")
+        return self
+
+
+class Mac(_Model):
+    """Mean aerodynamic chord, for CG in percent of MAC."""
+
+    leading_edge_arm: Arm = Field(description="arm of the MAC's leading edge [arm unit]")
+    length: Arm = Field(gt=0, description="length of the MAC [arm unit]")
+
+    def percent(self, arm: float) -> float:
+        """CG position in percent of MAC: 100 * (arm - LEMAC) / MAC.
+
+        FAA-H-8083-1B chapter 2 (percent of MAC formula).
+        """
+        return 100.0 * (arm - self.leading_edge_arm) / self.length
+
+
+class Station(_Model):
+    """A place where people, baggage, cargo or ballast are carried."""
+
+    id: str = Field(pattern=_ID_PATTERN, description="short name used in loadings")
+    label: str | None = Field(None, description="name printed in tables")
+    kind: StationKind = "other"
+    arm: Arm = Field(description="distance aft of datum [arm unit]")
+    lateral_arm: Arm | None = Field(None, description="distance right of centreline [arm unit]")
+    max_weight: Mass | None = Field(None, ge=0, description="[mass unit]")
+    min_weight: Mass | None = Field(None, ge=0, description="[mass unit]")
+
+    @property
+    def name(self) -> str:
+        """Label, or id where no label is given."""
+        return self.label or self.id
+
+    @model_validator(mode="after")
+    def _min_below_max(self) -> Station:
+        if self.min_weight is not None and self.max_weight is not None and self.min_weight > self.max_weight:
+            raise ValueError("min_weight is above max_weight")
+        return self
+
+
+class StationGroup(_Model):
+    """Several stations under one combined limit (e.g. all baggage areas)."""
+
+    id: str | None = Field(None, pattern=_ID_PATTERN)
+    label: str
+    stations: list[str] = Field(min_length=1)
+    max_weight: Mass | None = Field(None, ge=0, description="[mass unit]")
+    min_weight: Mass | None = Field(None, ge=0, description="[mass unit]")
+
+    @model_validator(mode="after")
+    def _has_limit(self) -> StationGroup:
+        if self.max_weight is None and self.min_weight is None:
+            raise ValueError("a station group needs max_weight or min_weight")
+        if self.min_weight is not None and self.max_weight is not None and self.min_weight > self.max_weight:
+            raise ValueError("min_weight is above max_weight")
+        return self
+
+
+class Tank(_Model):
+    """A fuel tank: usable capacity, arm (fixed or by quantity) and fuel density."""
+
+    id: str = Field(pattern=_ID_PATTERN)
+    label: str | None = None
+    arm: Arm | None = Field(None, description="distance aft of datum [arm unit]; or give arm_table")
+    lateral_arm: Arm | None = Field(None, description="distance right of centreline [arm unit]")
+    usable: Volume = Field(gt=0, description="usable capacity [fuel volume unit]")
+    fuel: FuelGrade | None = Field(None, description="fuel grade giving the default density")
+    density: float | None = Field(None, gt=0, description="[mass unit per fuel volume unit]")
+    levels: dict[str, Volume] = Field(default_factory=dict, description="named fill levels [fuel volume unit]")
+    arm_table: list[tuple[Volume, Arm]] | None = Field(
+        None, description="quantity [fuel volume unit] -> arm [arm unit], linear between points"
+    )
+
+    @property
+    def name(self) -> str:
+        """Label, or id where no label is given."""
+        return self.label or self.id
+
+    @field_validator("levels")
+    @classmethod
+    def _level_names(cls, levels: dict[str, float]) -> dict[str, float]:
+        for name, quantity in levels.items():
+            if name.lower() == "full":
+                raise ValueError("'full' is built in and cannot be redefined as a level")
+            if quantity < 0:
+                raise ValueError(f"level {name!r} is negative ({quantity})")
+        return levels
+
+    @model_validator(mode="after")
+    def _consistent(self) -> Tank:
+        if self.fuel is None and self.density is None:
+            raise ValueError("give the fuel grade (fuel = 'avgas' or 'jet') or its density")
+        if self.arm is None and self.arm_table is None:
+            raise ValueError("give the tank's arm or its arm_table")
+        for name, quantity in self.levels.items():
+            if quantity > self.usable:
+                raise ValueError(f"level {name!r} ({quantity}) is above the usable capacity ({self.usable})")
+        if self.arm_table is not None:
+            table = self.arm_table
+            if len(table) < 2:
+                raise ValueError("arm_table needs at least two points")
+            quantities = [q for q, _ in table]
+            if any(b <= a for a, b in zip(quantities, quantities[1:])):
+                raise ValueError("arm_table quantities must increase strictly from point to point")
+            if quantities[0] < 0 or quantities[-1] > self.usable * (1 + 1e-12):
+                raise ValueError(f"arm_table quantities must lie within 0 and the usable capacity ({self.usable})")
+        return self
+
+    def arm_at(self, quantity: float) -> float:
+        """Arm of the fuel in this tank at a quantity [arm unit].
+
+        Linear interpolation in ``arm_table``; beyond the table's ends the end arm holds.
+        """
+        if self.arm_table is None:
+            assert self.arm is not None
+            return self.arm
+        table = self.arm_table
+        if quantity <= table[0][0]:
+            return table[0][1]
+        for (q0, a0), (q1, a1) in zip(table, table[1:]):
+            if quantity <= q1:
+                return a0 + (a1 - a0) * (quantity - q0) / (q1 - q0)
+        return table[-1][1]
+
+    def arm_knots(self) -> list[float]:
+        """Quantities at which the arm's slope may change [fuel volume unit]."""
+        return [q for q, _ in self.arm_table] if self.arm_table else []
+
+
+class Envelope(_Model):
+    """A certified CG envelope: a polygon on two axes, for one category."""
+
+    category: str = Field(min_length=1)
+    label: str | None = None
+    axes: tuple[Axis, Axis] = Field(description="x and y axes, from arm, moment, mac, lateral_arm, weight")
+    points: list[tuple[float, float]] = Field(min_length=3, description="corners in the axes' units")
+    moment_scale: float = Field(1.0, gt=0, description="a moment axis is read as moment / moment_scale")
+    _shape: EnvelopeShape | None = PrivateAttr(None)
+
+    @model_validator(mode="after")
+    def _valid_polygon(self) -> Envelope:
+        if self.axes[0] == self.axes[1]:
+            raise ValueError(f"the two axes must differ (both are {self.axes[0]!r})")
+        if "weight" not in self.axes and set(self.axes) != {"arm", "lateral_arm"}:
+            raise ValueError("an envelope needs a weight axis, or the axes lateral_arm and arm")
+        problem = polygon_problem(self.points)
+        if problem:
+            raise ValueError(f"the envelope polygon is not usable: {problem}")
+        return self
+
+    @property
+    def is_lateral(self) -> bool:
+        """True for an envelope that limits the lateral CG."""
+        return "lateral_arm" in self.axes
+
+    @property
+    def shape(self) -> EnvelopeShape:
+        """The prepared geometry (built by the aircraft, which knows the MAC)."""
+        assert self._shape is not None, "envelope geometry is built by Aircraft validation"
+        return self._shape
+
+
+class HistoryEntry(_Model):
+    """One earlier empty-weight record, kept when a new one is made current."""
+
+    recorded: dt.datetime | dt.date = Field(description="when the new record replaced this one")
+    reason: str = Field(description="weighing, alteration or other")
+    previous: EmptyWeight
+    inputs: dict[str, Any] = Field(default_factory=dict, description="what the new record was computed from")
+
+
+class Aircraft(_Model):
+    """An aircraft data file (DESIGN.md, 'Aircraft file')."""
+
+    format: Literal[1] = 1
+    name: str = Field(min_length=1)
+    registration: str | None = None
+    units: Units
+    empty: EmptyWeight
+    limits: Limits
+    mac: Mac | None = None
+    station: list[Station] = Field(default_factory=list)
+    station_group: list[StationGroup] = Field(default_factory=list)
+    tank: list[Tank] = Field(default_factory=list)
+    envelope: list[Envelope] = Field(min_length=1)
+    history: list[HistoryEntry] = Field(default_factory=list)
+    standard_occupant_weight: Mass | None = Field(
+        None, gt=0, description="weight per occupant for the extreme-loading checks [mass unit]"
+    )
+    max_continuous_power_hp: float | None = Field(
+        None, gt=0, description="maximum except takeoff power, for the minimum fuel for balance [hp]"
+    )
+
+    @model_validator(mode="after")
+    def _cross_references(self) -> Aircraft:
+        problems: list[str] = []
+        seen: dict[str, str] = {}
+        for where, items in (("station", self.station), ("tank", self.tank)):
+            for index, item in enumerate(items):
+                if item.id in seen:
+                    problems.append(f"{where}[{index}].id: {item.id!r} is used twice (also a {seen[item.id]})")
+                seen[item.id] = where
+        stations = {s.id for s in self.station}
+        for index, group in enumerate(self.station_group):
+            for name in group.stations:
+                if name not in stations:
+                    known = ", ".join(sorted(stations)) or "none"
+                    problems.append(f"station_group[{index}].stations: unknown station {name!r} (known: {known})")
+        has_lateral = self.empty.lateral_arm is not None or any(
+            item.lateral_arm is not None for item in [*self.station, *self.tank]
+        )
+        for index, envelope in enumerate(self.envelope):
+            if "mac" in envelope.axes and self.mac is None:
+                problems.append(f"envelope[{index}].axes: a 'mac' axis needs the aircraft's [mac] table")
+            if envelope.is_lateral and not has_lateral:
+                problems.append(
+                    f"envelope[{index}].axes: a lateral envelope needs lateral arms, "
+                    "and no empty weight, station or tank gives one"
+                )
+        if problems:
+            raise ValueError("\n".join(problems))
+        for envelope in self.envelope:
+            envelope._shape = EnvelopeShape(envelope.axes, envelope.points, envelope.moment_scale, self.mac)
+        return self
+
+    # -- look-ups -------------------------------------------------------------------
+
+    @cached_property
+    def stations(self) -> dict[str, Station]:
+        """Stations by id."""
+        return {s.id: s for s in self.station}
+
+    @cached_property
+    def tanks(self) -> dict[str, Tank]:
+        """Tanks by id."""
+        return {t.id: t for t in self.tank}
+
+    @property
+    def categories(self) -> list[str]:
+        """Categories in file order; the first is the default."""
+        return list(dict.fromkeys(e.category for e in self.envelope))
+
+    def envelopes_for(self, category: str) -> list[Envelope]:
+        """All envelopes of one category (every one must hold)."""
+        return [e for e in self.envelope if e.category == category]
+
+    @property
+    def has_lateral(self) -> bool:
+        """True where the aircraft limits the lateral CG."""
+        return any(e.is_lateral for e in self.envelope)
+
+    def density(self, tank: Tank) -> float:
+        """Fuel density of a tank [mass unit per fuel volume unit]."""
+        if tank.density is not None:
+            return tank.density
+        assert tank.fuel is not None
+        return default_density(tank.fuel, self.units.mass, self.units.fuel_volume)
+
+    @property
+    def useful_load(self) -> float:
+        """Maximum takeoff weight less basic empty weight [mass unit]."""
+        return self.limits.max_takeoff_weight - self.empty.weight
+
+    @cached_property
+    def fingerprint(self) -> str:
+        """SHA-256 of the canonical JSON of the aircraft data (first 16 hex digits)."""
+        canonical = json.dumps(self.model_dump(mode="json"), sort_keys=True, separators=(",", ":"))
+        return hashlib.sha256(canonical.encode()).hexdigest()[:16]

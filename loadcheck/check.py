@@ -1,0 +1,423 @@
+"""The pilot's loading check: every condition, every limit, the whole burn path.
+
+:func:`check_loading` is the one entry point. It resolves the loading against the
+aircraft, computes the moment table and the four conditions (:mod:`loadcheck.balance`),
+tests each against the weight limits and the category's envelopes, follows the fuel
+burn from takeoff to landing as the curve it is (:mod:`loadcheck.envelope`), and returns
+a frozen :class:`~loadcheck.results.CheckResult`.
+
+Severity (DESIGN.md): every exceedance is a ``limit``, except the zero-fuel CG outside
+the envelope (a ``warning`` unless the aircraft file sets ``zero_fuel_cg = "limit"``),
+landing fuel below the reserve, and things taken for granted (a tank not mentioned is
+empty), which are warnings.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Sequence
+
+from .aircraft import Aircraft
+from .balance import CONDITIONS, MassState, burn_pieces, condition_states, fuel_state, moment_items, payload_state
+from .caution import PILOT_CAUTION
+from .display import fmt
+from .envelope import EnvelopeShape, path_excursions
+from .loading import Loading, ResolvedLoading, resolve_loading
+from .results import (
+    AircraftInfo,
+    BurnPath,
+    CheckResult,
+    Condition,
+    ConditionName,
+    Excursion,
+    Finding,
+    Item,
+    LeavePoint,
+    Margins,
+    Severity,
+    UnitsInfo,
+)
+
+__all__ = ["check_loading", "WEIGHT_TOLERANCE"]
+
+WEIGHT_TOLERANCE = 1e-9
+"""A weight equal to its limit within this fraction of the limit is within the limit."""
+
+_WORDS = {"ramp": "ramp", "takeoff": "takeoff", "landing": "landing", "zero_fuel": "zero fuel"}
+
+
+def check_loading(
+    aircraft: Aircraft, loading: Loading | ResolvedLoading, *, category: str | None = None
+) -> CheckResult:
+    """Check a loading against every limit of the aircraft.
+
+    Parameters
+    ----------
+    aircraft : the aircraft, with its current empty-weight record
+    loading : a loading (resolved here) or an already resolved one
+    category : envelope category; default the loading's, else the aircraft's first
+
+    Returns
+    -------
+    CheckResult
+        ``ok`` is true exactly when no finding has severity ``limit``.
+
+    Raises
+    ------
+    UnknownNameError, InputError
+        When the loading cannot be used with this aircraft (see
+        :func:`~loadcheck.loading.resolve_loading`).
+
+    References
+    ----------
+    FAA-H-8083-1B chapter 2 (sum of moments, CG = total moment / total weight);
+    AC 43.13-1B chapter 10 section 1 (loading conditions).
+    """
+    resolved = loading if isinstance(loading, ResolvedLoading) else resolve_loading(loading, aircraft, category=category)
+    units = aircraft.units
+    shapes = [e.shape for e in aircraft.envelopes_for(resolved.category)]
+    findings: list[Finding] = []
+    states = condition_states(aircraft, resolved)
+
+    conditions = [
+        _condition(aircraft, resolved, shapes, name, *states[name], findings)  # type: ignore[arg-type]
+        for name in CONDITIONS
+    ]
+    burn_path = _burn_path(aircraft, resolved, shapes, conditions, findings)
+    findings.extend(_station_findings(aircraft, resolved))
+
+    landing_fuel = conditions[2].fuel
+    if resolved.reserve is not None and landing_fuel < resolved.reserve * (1 - WEIGHT_TOLERANCE):
+        findings.append(
+            Finding(
+                code="reserve",
+                severity="warning",
+                condition="landing",
+                message=(
+                    f"landing fuel {fmt(landing_fuel, units.fuel_volume)} is below the reserve of "
+                    f"{fmt(resolved.reserve, units.fuel_volume)} by "
+                    f"{fmt(resolved.reserve - landing_fuel, units.fuel_volume, 'up')}"
+                ),
+                excess=resolved.reserve - landing_fuel,
+                unit=units.fuel_volume,
+                limit=resolved.reserve,
+            )
+        )
+    findings.extend(Finding(code="assumption", severity="warning", message=note) for note in resolved.notes)
+
+    items = [
+        Item(
+            id=i.id, name=i.name, kind=i.kind, weight=i.weight, arm=i.arm, moment=i.moment,
+            lateral_arm=i.lateral_arm, lateral_moment=i.lateral_moment, fuel_volume=i.fuel_volume,
+        )
+        for i in moment_items(aircraft, resolved)
+    ]
+    return CheckResult(
+        ok=not any(f.severity == "limit" for f in findings),
+        category=resolved.category,
+        aircraft=AircraftInfo(
+            name=aircraft.name,
+            registration=aircraft.registration,
+            fingerprint=aircraft.fingerprint,
+            empty_weight_date=aircraft.empty.date.isoformat() if aircraft.empty.date else None,
+        ),
+        items=items,
+        conditions=conditions,
+        burn_path=burn_path,
+        findings=findings,
+        units=UnitsInfo(mass=units.mass, arm=units.arm, fuel_volume=units.fuel_volume, moment=units.moment),
+        caution=PILOT_CAUTION,
+    )
+
+
+# -- conditions -----------------------------------------------------------------------
+
+
+def _weight_limits(aircraft: Aircraft, name: str) -> list[tuple[str, float, str]]:
+    limits = aircraft.limits
+    table: dict[str, list[tuple[str, float | None, str]]] = {
+        "ramp": [("max_ramp_weight", limits.ramp, "maximum ramp weight")],
+        "takeoff": [("max_takeoff_weight", limits.max_takeoff_weight, "maximum takeoff weight")],
+        "landing": [("max_landing_weight", limits.landing, "maximum landing weight")],
+        "zero_fuel": [("max_zero_fuel_weight", limits.max_zero_fuel_weight, "maximum zero-fuel weight")],
+    }
+    return [(code, value, words) for code, value, words in table[name] if value is not None]
+
+
+def _envelope_state(shape: EnvelopeShape, name: str, state: MassState) -> MassState:
+    """The state tested against an envelope: at ramp, weight is held to the envelope's top.
+
+    The envelope is a flight envelope; before taxi the aircraft may be heavier than its
+    top by the taxi fuel. Its ramp weight is held to the maximum ramp weight and its CG
+    to the envelope's limits at the envelope's highest weight (common practice).
+    """
+    top = shape.max_weight
+    if name != "ramp" or top is None or state.weight <= top:
+        return state
+    return MassState(top, state.arm * top, state.lateral_arm * top)
+
+
+def _condition(
+    aircraft: Aircraft,
+    resolved: ResolvedLoading,
+    shapes: Sequence[EnvelopeShape],
+    name: ConditionName,
+    state: MassState,
+    quantities: dict[str, float],
+    findings: list[Finding],
+) -> Condition:
+    units = aircraft.units
+    where = _WORDS[name]
+    ok = True
+    weight_limits = _weight_limits(aircraft, name)
+    for code, limit, words in weight_limits:
+        if state.weight > limit * (1 + WEIGHT_TOLERANCE):
+            ok = False
+            excess = state.weight - limit
+            findings.append(
+                Finding(
+                    code=code, severity="limit", condition=name,
+                    message=(
+                        f"{where} weight {fmt(state.weight, units.mass)} exceeds the {words} "
+                        f"{fmt(limit, units.mass)} by {fmt(excess, units.mass, 'up')}"
+                    ),
+                    excess=excess, unit=units.mass, limit=limit, side="above",
+                )
+            )
+    minimum = aircraft.limits.min_flight_weight
+    if name in ("takeoff", "landing") and minimum is not None and state.weight < minimum * (1 - WEIGHT_TOLERANCE):
+        ok = False
+        findings.append(
+            Finding(
+                code="min_flight_weight", severity="limit", condition=name,
+                message=(
+                    f"{where} weight {fmt(state.weight, units.mass)} is below the minimum flight weight "
+                    f"{fmt(minimum, units.mass)} by {fmt(minimum - state.weight, units.mass, 'up')}"
+                ),
+                excess=minimum - state.weight, unit=units.mass, limit=minimum, side="below",
+            )
+        )
+    severity: Severity = "warning" if name == "zero_fuel" and aircraft.limits.zero_fuel_cg == "warning" else "limit"
+    for envelope, shape in zip(aircraft.envelopes_for(resolved.category), shapes):
+        tested = _envelope_state(shape, name, state)
+        if not shape.covers(tested.weight, tested.moment, tested.lateral_moment):
+            ok = False
+            findings.append(_outside_finding(aircraft, shape, envelope.label, name, tested, severity))
+
+    fuel_mass = sum(q * resolved.density[t] for t, q in quantities.items())
+    has_lateral = aircraft.has_lateral
+    weight_limit = min((value for _, value, _ in weight_limits), default=None)
+    return Condition(
+        condition=name,
+        weight=state.weight,
+        arm=state.arm,
+        moment=state.moment,
+        lateral_arm=state.lateral_arm if has_lateral else None,
+        lateral_moment=state.lateral_moment if has_lateral else None,
+        mac_percent=aircraft.mac.percent(state.arm) if aircraft.mac else None,
+        fuel=sum(quantities.values()),
+        fuel_weight=fuel_mass,
+        max_weight=weight_limit,
+        ok=ok,
+        margins=_margins(shapes, name, state, weight_limit),
+    )
+
+
+def _pick(intervals: list[tuple[float, float]], value: float) -> tuple[float, float]:
+    """The interval holding ``value``, else the nearest one."""
+    return min(intervals, key=lambda iv: max(iv[0] - value, value - iv[1], 0.0))
+
+
+def _margins(shapes: Sequence[EnvelopeShape], name: str, state: MassState, weight_limit: float | None) -> Margins:
+    values: dict[str, float] = {}
+
+    def keep(key: str, value: float) -> None:
+        values[key] = min(values.get(key, value), value)
+
+    if weight_limit is not None:
+        keep("weight", weight_limit - state.weight)
+    for shape in shapes:
+        tested = _envelope_state(shape, name, state)
+        weight, arm, lateral = tested.weight, tested.arm, tested.lateral_arm
+        if shape.is_lateral:
+            across = shape.slice(weight, arm, lateral, "lateral")
+            if across:
+                lo, hi = _pick(across, lateral)
+                keep("left", lateral - lo)
+                keep("right", hi - lateral)
+        else:
+            along = shape.slice(weight, arm, lateral, "arm")
+            if along:
+                lo, hi = _pick(along, arm)
+                keep("forward", arm - lo)
+                keep("aft", hi - arm)
+        if name != "ramp":
+            heights = shape.slice(weight, arm, lateral, "weight")
+            if heights:
+                keep("weight", _pick(heights, weight)[1] - weight)
+    return Margins(**values)
+
+
+def _outside_finding(
+    aircraft: Aircraft,
+    shape: EnvelopeShape,
+    label: str | None,
+    name: ConditionName,
+    state: MassState,
+    severity: Severity,
+) -> Finding:
+    """Say in plain words where a point outside an envelope lies, and by how much."""
+    units = aircraft.units
+    where = _WORDS[name]
+    weight, arm, lateral = state.weight, state.arm, state.lateral_arm
+    envelope = f"the {label} envelope" if label else "the envelope"
+    at_weight = f" at {fmt(weight, units.mass)}"
+    side, excess, limit, unit = "outside", None, None, None
+
+    across = shape.slice(weight, arm, lateral, "lateral") if shape.is_lateral else shape.slice(weight, arm, lateral, "arm")
+    value = lateral if shape.is_lateral else arm
+    if across:
+        low, high = across[0][0], across[-1][1]
+        if value < low:
+            side, excess, limit = ("left" if shape.is_lateral else "forward"), low - value, low
+        elif value > high:
+            side, excess, limit = ("right" if shape.is_lateral else "aft"), value - high, high
+        else:
+            lo, hi = _pick(across, value)
+            nearest = lo if value < lo else hi
+            excess, limit = abs(value - nearest), nearest
+        unit = units.arm
+    else:
+        heights = shape.slice(weight, arm, lateral, "weight")
+        if heights:
+            if weight > heights[-1][1]:
+                side, excess, limit = "above", weight - heights[-1][1], heights[-1][1]
+            elif weight < heights[0][0]:
+                side, excess, limit = "below", heights[0][0] - weight, heights[0][0]
+            unit = units.mass
+    cg = "lateral CG" if shape.is_lateral else "CG"
+    if side in ("forward", "aft", "left", "right"):
+        text = (
+            f"{where} {cg} {fmt(value, units.arm)} is {side} of the {side} limit "
+            f"{fmt(limit, units.arm)}{at_weight} of {envelope} by {fmt(excess, units.arm, 'up')}"  # type: ignore[arg-type]
+        )
+    elif side in ("above", "below") and excess is not None:
+        text = (
+            f"{where} weight {fmt(weight, units.mass)} is {side} {envelope} at CG {fmt(arm, units.arm)} "
+            f"by {fmt(excess, units.mass, 'up')}"
+        )
+    elif excess is not None:
+        text = (
+            f"{where} {cg} {fmt(value, units.arm)} falls between two parts of {envelope}{at_weight}, "
+            f"{fmt(excess, units.arm, 'up')} from the nearest limit"
+        )
+    else:
+        text = f"{where} point ({fmt(weight, units.mass)}, CG {fmt(arm, units.arm)}) is outside {envelope}"
+    if severity == "warning":
+        text += " (warning: the zero-fuel CG is not a limit for this aircraft)"
+    return Finding(
+        code="envelope", severity=severity, condition=name, message=text,
+        excess=excess, unit=unit, limit=limit, side=side, subject=label,
+    )
+
+
+# -- burn path --------------------------------------------------------------------------
+
+
+def _burn_path(
+    aircraft: Aircraft,
+    resolved: ResolvedLoading,
+    shapes: Sequence[EnvelopeShape],
+    conditions: Sequence[Condition],
+    findings: list[Finding],
+) -> BurnPath:
+    start, end = resolved.taxi, resolved.taxi + resolved.trip
+    takeoff, landing = conditions[1], conditions[2]
+    takeoff_in = not any(f.code == "envelope" and f.condition == "takeoff" for f in findings)
+    landing_in = not any(f.code == "envelope" and f.condition == "landing" for f in findings)
+    if end <= start:
+        return BurnPath(ok=takeoff_in)
+    stretches = path_excursions(shapes, burn_pieces(aircraft, resolved, start, end))
+    if not stretches:
+        return BurnPath(ok=True)
+    units = aircraft.units
+    payload = payload_state(aircraft, resolved)
+
+    def state_at(burned: float) -> tuple[MassState, dict[str, float]]:
+        quantities = resolved.plan.quantities(burned)
+        return payload + fuel_state(aircraft, resolved.density, quantities), quantities
+
+    excursions = []
+    for begin, finish in stretches:
+        excursions.append(
+            Excursion(
+                from_burned=takeoff.weight - state_at(begin)[0].weight,
+                to_burned=takeoff.weight - state_at(finish)[0].weight,
+            )
+        )
+    first_state, first_quantities = state_at(stretches[0][0])
+    leaves = LeavePoint(
+        fuel_burned=takeoff.weight - first_state.weight,
+        fuel_remaining=first_state.weight - payload.weight,
+        weight=first_state.weight,
+        arm=first_state.arm,
+        lateral_arm=first_state.lateral_arm if aircraft.has_lateral else None,
+        fuel_burned_volume=stretches[0][0] - start,
+        fuel_remaining_volume=sum(first_quantities.values()),
+    )
+    scale = max(1.0, end)
+    for (begin, finish), excursion in zip(stretches, excursions):
+        if (not takeoff_in and begin - start <= 1e-9 * scale) or (not landing_in and end - finish <= 1e-9 * scale):
+            continue  # the same excursion is already reported at takeoff or landing
+        state, quantities = state_at(begin)
+        findings.append(
+            Finding(
+                code="burn_path", severity="limit",
+                message=(
+                    f"the CG leaves the envelope during the fuel burn after "
+                    f"{fmt(excursion.from_burned, units.mass, 'down')} of fuel is burned "
+                    f"(at {fmt(state.weight, units.mass)}, CG {fmt(state.arm, units.arm)}, "
+                    f"{fmt(sum(quantities.values()), units.fuel_volume)} on board) and stays out until "
+                    f"{fmt(excursion.to_burned, units.mass, 'up')} is burned"
+                ),
+                excess=excursion.to_burned - excursion.from_burned,
+                unit=units.mass,
+            )
+        )
+    return BurnPath(ok=False, leaves_at=leaves, excursions=excursions)
+
+
+# -- stations and groups ------------------------------------------------------------------
+
+
+def _station_findings(aircraft: Aircraft, resolved: ResolvedLoading) -> list[Finding]:
+    mass = aircraft.units.mass
+    findings = []
+    subjects = [(s.id, s.name, [s.id], s.max_weight, s.min_weight, "station") for s in aircraft.station]
+    subjects += [
+        (g.id or g.label, g.label, g.stations, g.max_weight, g.min_weight, "group") for g in aircraft.station_group
+    ]
+    for key, label, members, most, least, kind in subjects:
+        loaded = sum(resolved.stations.get(m, 0.0) for m in members)
+        if most is not None and loaded > most * (1 + WEIGHT_TOLERANCE) + 1e-12:
+            findings.append(
+                Finding(
+                    code=f"{kind}_max", severity="limit",
+                    message=(
+                        f"{label}: {fmt(loaded, mass)} exceeds the maximum {fmt(most, mass)} "
+                        f"by {fmt(loaded - most, mass, 'up')}"
+                    ),
+                    excess=loaded - most, unit=mass, limit=most, side="above", subject=key,
+                )
+            )
+        if least is not None and loaded < least * (1 - WEIGHT_TOLERANCE):
+            findings.append(
+                Finding(
+                    code=f"{kind}_min", severity="limit",
+                    message=(
+                        f"{label}: {fmt(loaded, mass)} is below the minimum {fmt(least, mass)} "
+                        f"by {fmt(least - loaded, mass, 'up')}"
+                    ),
+                    excess=least - loaded, unit=mass, limit=least, side="below", subject=key,
+                )
+            )
+    return findings

@@ -1,0 +1,220 @@
+"""The ``loadcheck`` command line: parse arguments, load files, call the library, render.
+
+Exit status (DESIGN.md): 0 within limits, 1 a limit is exceeded, 2 the input could not be
+used. Errors in the input are printed to stderr with the file, the field and the value,
+never as a traceback (set LOADCHECK_DEBUG=1 to see one).
+"""
+
+from __future__ import annotations
+
+import functools
+import json
+import os
+import sys
+from collections.abc import Callable
+from pathlib import Path
+from typing import Annotated, Any, Literal, TypeVar
+
+import typer
+from pydantic import ValidationError
+from rich.console import Console
+
+from . import __version__
+from .errors import InputError, LoadcheckError, Problem
+
+__all__ = ["app", "main"]
+
+EXIT_OK, EXIT_LIMIT, EXIT_INPUT = 0, 1, 2
+
+app = typer.Typer(
+    name="loadcheck",
+    help=(
+        "Aircraft weight and balance: check a loading against every limit at ramp, takeoff, "
+        "landing and zero fuel and along the whole fuel burn.\n\n"
+        "Advisory only: the approved flight manual and the current weight-and-balance record "
+        "govern, and the pilot in command decides."
+    ),
+    no_args_is_help=True,
+    add_completion=False,
+    pretty_exceptions_enable=False,
+    rich_markup_mode=None,
+    context_settings={"help_option_names": ["-h", "--help"]},
+)
+
+F = TypeVar("F", bound=Callable[..., Any])
+
+
+def _console(stderr: bool = False) -> Console:
+    console = Console(stderr=stderr, highlight=False)
+    if not console.is_terminal:
+        console = Console(stderr=stderr, highlight=False, width=max(console.width, 120))
+    return console
+
+
+def _fail_input(lines: list[str]) -> None:
+    err = _console(stderr=True)
+    for line in lines:
+        err.print(f"error: {line}", markup=False, soft_wrap=True)
+    raise typer.Exit(EXIT_INPUT)
+
+
+def input_errors(func: F) -> F:
+    """Turn bad input into exit 2 with a plain message, never a traceback."""
+
+    @functools.wraps(func)
+    def wrapper(*args: Any, **kwargs: Any) -> Any:
+        try:
+            return func(*args, **kwargs)
+        except LoadcheckError as error:
+            _fail_input(error.lines())
+        except ValidationError as error:
+            from .files import problems_from_validation
+
+            _fail_input([p.describe() for p in problems_from_validation(error)])
+        except (typer.Exit, typer.Abort, KeyboardInterrupt):
+            raise
+        except Exception as error:  # a bug must never read as "within limits" (0) or "exceeded" (1)
+            if os.environ.get("LOADCHECK_DEBUG"):
+                raise
+            _fail_input([f"internal error ({type(error).__name__}: {error}); no result was produced. "
+                         "Please report it; LOADCHECK_DEBUG=1 shows the traceback."])
+
+    return wrapper  # type: ignore[return-value]
+
+
+def _assignments(values: list[str], option: str) -> dict[str, str]:
+    """``["front=340", "bag1=20 kg"]`` -> ``{"front": "340", "bag1": "20 kg"}``."""
+    result: dict[str, str] = {}
+    problems = []
+    for value in values:
+        name, sep, amount = value.partition("=")
+        if not sep or not name.strip() or not amount.strip():
+            problems.append(Problem(option, "expected NAME=VALUE", value=value, expected="e.g. front=340 or bag1='20 kg'"))
+            continue
+        result[name.strip()] = amount.strip()
+    if problems:
+        raise InputError(problems)
+    return result
+
+
+def _version(value: bool) -> None:
+    if value:
+        typer.echo(f"loadcheck {__version__}")
+        raise typer.Exit()
+
+
+@app.callback()
+def _main(
+    version: Annotated[bool, typer.Option("--version", callback=_version, is_eager=True, help="Show the version.")] = False,
+) -> None:
+    """Aircraft weight and balance."""
+
+
+@app.command()
+@input_errors
+def check(
+    aircraft: Annotated[Path, typer.Argument(help="Aircraft file (TOML), or a loading file that names its aircraft.")],
+    loading: Annotated[Path | None, typer.Argument(help="Loading file (TOML); optional.")] = None,
+    load: Annotated[list[str], typer.Option("--load", "-l", help="STATION=WEIGHT; repeat. e.g. front=340, bag1='20 kg'.")] = [],  # noqa: B006
+    fuel: Annotated[list[str], typer.Option("--fuel", "-f", help="TANK=QUANTITY; repeat. A volume, 'full', a level name or '120 lb'.")] = [],  # noqa: B006
+    taxi: Annotated[str | None, typer.Option(help="Fuel used before takeoff (volume, or with a unit).")] = None,
+    trip: Annotated[str | None, typer.Option(help="Fuel used from takeoff to landing.")] = None,
+    trip_time: Annotated[str | None, typer.Option("--trip-time", help="Flight time, e.g. 2:15; with --rate.")] = None,
+    rate: Annotated[str | None, typer.Option(help="Fuel used per hour, with --trip-time.")] = None,
+    order: Annotated[str | None, typer.Option(help="'together', or tank ids in burn order: aux,mains.")] = None,
+    reserve: Annotated[str | None, typer.Option(help="Warn when landing fuel is below this.")] = None,
+    category: Annotated[str | None, typer.Option("--category", "-c", help="Envelope category (default: the file's first).")] = None,
+    json_out: Annotated[bool, typer.Option("--json", help="Print one JSON object instead of tables.")] = False,
+) -> None:
+    """Check a loading: moment table, ramp/takeoff/landing/zero-fuel conditions, the burn path.
+
+    Examples:
+
+      loadcheck check sample_aircraft/trainer4/aircraft.toml sample_aircraft/trainer4/within.toml
+
+      loadcheck check trainer.toml --load front=340 --load rear=150 --fuel mains=tabs --taxi 1.2 --trip 18
+
+      loadcheck check sample_aircraft/twin6/leaves_path.toml --json
+
+    Exit status: 0 within limits, 1 a limit is exceeded, 2 the input could not be used.
+    """
+    from .check import check_loading
+    from .files import load_check_inputs
+
+    burn: dict[str, Any] = {}
+    for key, value in (("taxi", taxi), ("trip", trip), ("trip_time", trip_time), ("rate", rate), ("reserve", reserve)):
+        if value is not None:
+            burn[key] = value
+    if order is not None:
+        burn["order"] = "together" if order.strip() == "together" else [t.strip() for t in order.split(",") if t.strip()]
+    inputs = load_check_inputs(
+        aircraft, loading, load=_assignments(load, "--load"), fuel=_assignments(fuel, "--fuel"),
+        burn=burn, category=category,
+    )
+    for note in inputs.notes:
+        _console(stderr=True).print(f"note: {note}", markup=False)
+    result = check_loading(inputs.aircraft, inputs.loading)
+    if json_out:
+        typer.echo(result.model_dump_json(indent=2, exclude_none=True))
+    else:
+        from .render.terminal import render_check
+
+        render_check(result, _console())
+    raise typer.Exit(EXIT_OK if result.ok else EXIT_LIMIT)
+
+
+@app.command()
+@input_errors
+def validate(
+    files: Annotated[list[Path], typer.Argument(help="Aircraft and loading files to check.")],
+) -> None:
+    """Check aircraft and loading files and report every problem at once.
+
+    A loading file that names its aircraft is checked against it too (station, tank and
+    level names, capacities).
+
+    Example:
+
+      loadcheck validate sample_aircraft/*/*.toml
+    """
+    from .files import validate_file
+
+    console = _console()
+    failed = False
+    for path in files:
+        try:
+            summary = validate_file(path)
+        except LoadcheckError as error:
+            failed = True
+            for line in error.lines():
+                _console(stderr=True).print(f"error: {line}", markup=False, soft_wrap=True)
+            continue
+        console.print(f"ok: {path}: {summary}", markup=False)
+    raise typer.Exit(EXIT_INPUT if failed else EXIT_OK)
+
+
+@app.command()
+@input_errors
+def schema(
+    kind: Annotated[Literal["aircraft", "loading", "all"], typer.Argument(help="Which file's schema.")] = "all",
+) -> None:
+    """Print the JSON Schema of the aircraft and loading files, for editors.
+
+    Example:
+
+      loadcheck schema aircraft > aircraft.schema.json
+    """
+    from .aircraft import Aircraft
+    from .loading import Loading
+
+    schemas = {"aircraft": Aircraft.model_json_schema(), "loading": Loading.model_json_schema()}
+    typer.echo(json.dumps(schemas if kind == "all" else schemas[kind], indent=2))
+
+
+def main() -> None:
+    """Entry point of the console script."""
+    app(prog_name="loadcheck")
+
+
+if __name__ == "__main__":  # pragma: no cover
+    sys.exit(main())

@@ -1,0 +1,93 @@
+"""Exceptions raised by loadcheck.
+
+Every error a user can cause is a :class:`LoadcheckError` (also a ``ValueError``).
+Errors carry structured fields (file, dotted field path, value, what was expected) and
+build their message from them, so the command line can print them without a traceback.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+from pathlib import Path
+from typing import Any
+
+__all__ = [
+    "LoadcheckError",
+    "Problem",
+    "InputError",
+    "FileFormatError",
+    "UnitError",
+    "UnknownNameError",
+]
+
+
+@dataclass(frozen=True)
+class Problem:
+    """One thing wrong with an input.
+
+    Attributes
+    ----------
+    field : dotted path of the field, e.g. ``station[2].max_weight`` ("" for the whole file)
+    message : what is wrong, in plain words
+    value : the offending value, if there is one
+    expected : what would have been accepted, if that can be said briefly
+    """
+
+    field: str
+    message: str
+    value: Any = None
+    expected: str | None = None
+
+    def describe(self) -> str:
+        """Return ``field: message (got value; expected ...)`` for display."""
+        parts = [self.message]
+        if self.value is not None:
+            parts.append(f"got {self.value!r}")
+        if self.expected:
+            parts.append(f"expected {self.expected}")
+        text = "; ".join(parts)
+        return f"{self.field}: {text}" if self.field else text
+
+
+class LoadcheckError(ValueError):
+    """Base class of every error loadcheck raises for bad input."""
+
+    def __init__(self, problems: list[Problem] | Problem | str, file: str | Path | None = None):
+        if isinstance(problems, str):
+            problems = [Problem("", problems)]
+        elif isinstance(problems, Problem):
+            problems = [problems]
+        self.problems: list[Problem] = list(problems)
+        self.file: str | None = str(file) if file is not None else None
+        super().__init__(self._text())
+
+    def with_file(self, file: str | Path) -> LoadcheckError:
+        """Return the same error, attributed to ``file`` (keeps an existing attribution)."""
+        if self.file is None:
+            self.file = str(file)
+            self.args = (self._text(),)
+        return self
+
+    def lines(self) -> list[str]:
+        """One line per problem, each prefixed with the file name where known."""
+        prefix = f"{self.file}: " if self.file else ""
+        return [prefix + p.describe() for p in self.problems]
+
+    def _text(self) -> str:
+        return "\n".join(self.lines())
+
+
+class InputError(LoadcheckError):
+    """A value in an aircraft, loading or other input file cannot be used."""
+
+
+class FileFormatError(LoadcheckError):
+    """A file is missing, unreadable, too large, not UTF-8 or not valid TOML/CSV."""
+
+
+class UnitError(LoadcheckError):
+    """A unit is unknown or a quantity cannot be read or converted."""
+
+
+class UnknownNameError(LoadcheckError):
+    """A station, tank, category, fill level or registration that does not exist."""

@@ -1,0 +1,319 @@
+"""Reading and writing loadcheck's files, with errors that name the file and field.
+
+Reading: :func:`read_toml` refuses files that are missing, too large, not UTF-8 or not
+valid TOML, with the line and column from the TOML parser. :func:`load_aircraft` and
+:func:`load_loading` validate the content and turn every pydantic error into a
+:class:`~loadcheck.errors.Problem` with a dotted field path (``station[2].max_weight``).
+
+Writing: :func:`write_atomic` writes a whole file or nothing: the new content goes to a
+temporary file in the same folder, is flushed to disk, and replaces the old file in one
+``os.replace``; if anything fails the old file is left byte for byte.
+"""
+
+from __future__ import annotations
+
+import os
+import tempfile
+from dataclasses import dataclass, field
+import tomllib
+from collections.abc import Mapping
+from pathlib import Path
+from typing import Any
+
+from pydantic import BaseModel, ValidationError
+
+from .aircraft import Aircraft, Units
+from .errors import FileFormatError, InputError, LoadcheckError, Problem
+from .loading import Loading, ResolvedLoading, apply_overrides, resolve_loading
+
+__all__ = [
+    "MAX_FILE_BYTES",
+    "read_toml",
+    "read_text",
+    "load_aircraft",
+    "parse_aircraft",
+    "load_loading",
+    "parse_loading",
+    "problems_from_validation",
+    "write_atomic",
+    "file_kind",
+    "CheckInputs",
+    "load_check_inputs",
+    "validate_file",
+]
+
+MAX_FILE_BYTES = 5 * 1024 * 1024
+"""Largest input file read [bytes]; aircraft and loading files are a few kilobytes."""
+
+
+def read_text(path: str | Path, *, limit: int = MAX_FILE_BYTES) -> str:
+    """Read a UTF-8 text file, refusing missing, oversized, binary or non-UTF-8 files.
+
+    Raises
+    ------
+    FileFormatError
+        With the file name and the reason.
+    """
+    path = Path(path)
+    try:
+        if path.is_dir():
+            raise FileFormatError("is a folder, not a file", file=path)
+        size = path.stat().st_size
+        if size > limit:
+            raise FileFormatError(f"file is too large ({size:,} bytes; at most {limit:,})", file=path)
+        raw = path.read_bytes()
+    except FileNotFoundError:
+        raise FileFormatError("file not found", file=path) from None
+    except PermissionError:
+        raise FileFormatError("permission denied", file=path) from None
+    except OSError as error:
+        raise FileFormatError(f"cannot read the file: {error.strerror or error}", file=path) from None
+    if b"\x00" in raw:
+        raise FileFormatError("this is a binary file, not a text file", file=path)
+    try:
+        return raw.decode("utf-8-sig")
+    except UnicodeDecodeError as error:
+        raise FileFormatError(f"not UTF-8 text (bad byte at offset {error.start})", file=path) from None
+
+
+def read_toml(path: str | Path) -> dict[str, Any]:
+    """Read a TOML file into plain data.
+
+    Raises
+    ------
+    FileFormatError
+        With the parser's message, which gives the line and column.
+    """
+    text = read_text(path)
+    try:
+        return tomllib.loads(text)
+    except tomllib.TOMLDecodeError as error:
+        raise FileFormatError(f"TOML syntax error: {error}", file=path) from None
+
+
+def _field_path(location: tuple[Any, ...]) -> str:
+    text = ""
+    for part in location:
+        if isinstance(part, int):
+            text += f"[{part}]"
+        elif part in ("function-before[read(), float]",) or str(part).startswith(("function-", "union[", "literal[")):
+            continue
+        else:
+            text += f".{part}" if text else str(part)
+    return text
+
+
+def problems_from_validation(error: ValidationError, data: Any = None) -> list[Problem]:
+    """Turn a pydantic ValidationError into problems with dotted field paths."""
+    problems: list[Problem] = []
+    seen: set[tuple[str, str]] = set()
+    for item in error.errors(include_url=False):
+        location = tuple(item.get("loc", ()))
+        # a union tries several types: report the field once, with the first reason
+        location = tuple(p for p in location if not (isinstance(p, str) and ("[" in p or p in ("str", "float", "int"))))
+        field = _field_path(location)
+        message = str(item.get("msg", "invalid value")).removeprefix("Value error, ")
+        if item.get("type") == "missing":
+            message = "this field is required"
+        elif item.get("type") == "extra_forbidden":
+            message = "unknown field (misspelt?)"
+        key = (field, message)
+        if key in seen:
+            continue
+        seen.add(key)
+        value = item.get("input") if item.get("type") not in ("missing", "model_type", "dict_type") else None
+        if isinstance(value, (dict, list)):
+            value = None
+        if not field and "\n" in message:
+            for line in message.splitlines():
+                where, _, text = line.partition(": ")
+                problems.append(Problem(where, text) if text else Problem("", line))
+            continue
+        if not field and ": " in message and message.split(": ", 1)[0].replace("_", "").replace(".", "").replace("[", "").replace("]", "").isalnum():
+            where, _, text = message.partition(": ")
+            problems.append(Problem(where, text))
+            continue
+        problems.append(Problem(field, message, value))
+    return problems
+
+
+def _validate(model: type[BaseModel], data: Any, file: str | Path | None, context: dict[str, Any] | None = None) -> Any:
+    try:
+        return model.model_validate(data, context=context)
+    except ValidationError as error:
+        raise InputError(problems_from_validation(error, data), file=file) from None
+    except LoadcheckError as error:
+        raise error.with_file(file) if file else error from None
+
+
+def parse_aircraft(data: Mapping[str, Any], file: str | Path | None = None) -> Aircraft:
+    """Validate aircraft data (as read from TOML) into an :class:`Aircraft`."""
+    if not isinstance(data, Mapping):
+        raise InputError("an aircraft file must be a TOML table", file=file)
+    context: dict[str, Any] = {}
+    try:
+        context["units"] = Units.model_validate(data.get("units"))
+    except ValidationError:
+        pass  # reported with everything else below
+    result: Aircraft = _validate(Aircraft, data, file, context)
+    return result
+
+
+def load_aircraft(path: str | Path) -> Aircraft:
+    """Read and validate an aircraft file.
+
+    Raises
+    ------
+    FileFormatError, InputError
+        Naming the file, every bad field and its value.
+    """
+    return parse_aircraft(read_toml(path), path)
+
+
+def parse_loading(data: Mapping[str, Any], file: str | Path | None = None) -> Loading:
+    """Validate loading data (as read from TOML) into a :class:`Loading`."""
+    result: Loading = _validate(Loading, data, file)
+    return result
+
+
+def load_loading(path: str | Path | None, **overrides: Any) -> tuple[Loading, Path | None]:
+    """Read a loading file (or none) with command-line values on top.
+
+    Parameters
+    ----------
+    path : the loading file, or None for a loading made of the overrides alone
+    overrides : ``load``, ``fuel``, ``burn`` mappings and ``category`` (see
+        :func:`~loadcheck.loading.apply_overrides`)
+
+    Returns
+    -------
+    (Loading, Path or None)
+        The loading, and the aircraft file it names (resolved against the loading
+        file's folder), if it names one.
+    """
+    data = read_toml(path) if path is not None else {}
+    merged = apply_overrides(data, **overrides)
+    loading = parse_loading(merged, path)
+    aircraft_path = None
+    if loading.aircraft:
+        base = Path(path).parent if path is not None else Path.cwd()
+        aircraft_path = base / loading.aircraft
+    return loading, aircraft_path
+
+
+@dataclass(frozen=True)
+class CheckInputs:
+    """An aircraft and a loading resolved against it, ready to check."""
+
+    aircraft: Aircraft
+    loading: ResolvedLoading
+    loading_file: Path | None = None
+    notes: list[str] = field(default_factory=list)
+
+
+def load_check_inputs(
+    aircraft_path: str | Path, loading_path: str | Path | None = None, **overrides: Any
+) -> CheckInputs:
+    """Read an aircraft and a loading (file and/or overrides) and resolve one against the other.
+
+    ``aircraft_path`` may also be a loading file that names its aircraft
+    (``aircraft = "trainer.toml"``), when no separate loading file is given.
+
+    Raises
+    ------
+    LoadcheckError
+        Naming the file (or "command line") and every problem found.
+    """
+    notes: list[str] = []
+    data = read_toml(aircraft_path)
+    if loading_path is None and file_kind(data) == "loading":
+        loading_path = aircraft_path
+        loading, named = load_loading(loading_path, **overrides)
+        if named is None:
+            raise InputError(
+                Problem("aircraft", "this loading file names no aircraft file; give the aircraft file first"),
+                file=loading_path,
+            )
+        aircraft = load_aircraft(named)
+    else:
+        aircraft = parse_aircraft(data, aircraft_path)
+        loading, named = load_loading(loading_path, **overrides)
+        if named is not None and named.resolve() != Path(aircraft_path).resolve():
+            notes.append(f"the loading names {named}, but {aircraft_path} was given and is used")
+    try:
+        resolved = resolve_loading(loading, aircraft, category=overrides.get("category"))
+    except LoadcheckError as error:
+        raise error.with_file(loading_path if loading_path is not None else "command line") from None
+    return CheckInputs(aircraft, resolved, Path(loading_path) if loading_path else None, notes)
+
+
+def validate_file(path: str | Path) -> str:
+    """Validate one aircraft or loading file; return a one-line summary.
+
+    A loading that names its aircraft is resolved against it (names, capacities).
+
+    Raises
+    ------
+    LoadcheckError
+        Listing every problem found in the file.
+    """
+    data = read_toml(path)
+    kind = file_kind(data)
+    if kind == "aircraft":
+        aircraft = parse_aircraft(data, path)
+        return (
+            f"aircraft {aircraft.name!r}, {len(aircraft.station)} stations, {len(aircraft.tank)} tanks, "
+            f"categories {', '.join(aircraft.categories)}"
+        )
+    if kind == "loading":
+        inputs = load_check_inputs(path) if data.get("aircraft") else None
+        if inputs is None:
+            parse_loading(data, path)
+            return "loading (names no aircraft, so station and tank names were not checked)"
+        return f"loading for {inputs.aircraft.name!r}"
+    raise InputError("cannot tell what this file is: no [units]/[empty]/[[envelope]] (aircraft) "
+                     "and no [load]/[fuel]/[burn] (loading)", file=path)
+
+
+def file_kind(data: Mapping[str, Any]) -> str:
+    """Guess what a TOML file holds: ``aircraft``, ``loading`` or ``unknown``."""
+    if "units" in data or "envelope" in data or "empty" in data:
+        return "aircraft"
+    if any(k in data for k in ("load", "fuel", "burn", "aircraft")):
+        return "loading"
+    return "unknown"
+
+
+def write_atomic(path: str | Path, content: str | bytes) -> None:
+    """Replace a file's content all at once, or leave it as it was.
+
+    The content is written to a temporary file beside the target, flushed and synced,
+    then renamed over the target (``os.replace``, atomic on POSIX and Windows). On any
+    error the temporary file is removed and the target is untouched.
+
+    Raises
+    ------
+    FileFormatError
+        When the file cannot be written (full disk, no permission), naming the file.
+    """
+    path = Path(path)
+    data = content.encode("utf-8") if isinstance(content, str) else content
+    folder = path.parent if str(path.parent) else Path(".")
+    try:
+        handle, temporary = tempfile.mkstemp(prefix=f".{path.name}.", suffix=".tmp", dir=folder)
+    except OSError as error:
+        raise FileFormatError(f"cannot write here: {error.strerror or error}", file=path) from None
+    try:
+        with os.fdopen(handle, "wb") as stream:
+            stream.write(data)
+            stream.flush()
+            os.fsync(stream.fileno())
+        if path.exists():
+            os.chmod(temporary, path.stat().st_mode & 0o7777)
+        os.replace(temporary, path)
+    except OSError as error:
+        try:
+            os.unlink(temporary)
+        except OSError:
+            pass
+        raise FileFormatError(f"could not write the file, it is unchanged: {error.strerror or error}", file=path) from None

@@ -1,0 +1,345 @@
+"""A loading: what is in each station and tank, and how the fuel is burned.
+
+:class:`Loading` mirrors the loading file of DESIGN.md; values may be written with a
+unit. :func:`resolve_loading` checks a loading against one aircraft (station, tank,
+level and category names; tank capacities; fuel available for the burn) and returns a
+:class:`ResolvedLoading` with every amount in the aircraft's own units.
+
+Fuel burn (DESIGN.md, "Conditions checked"): with the order ``together`` every tank gives
+fuel in proportion to what it held at engine start; with a list, each tank is emptied to
+zero before the next one feeds. Taxi fuel comes out the same way, before takeoff.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Mapping
+from dataclasses import dataclass, field
+from typing import Annotated, Any, Literal
+
+from pydantic import BaseModel, BeforeValidator, ConfigDict, Field, field_validator, model_validator
+
+from .aircraft import Aircraft
+from .errors import InputError, Problem, UnknownNameError
+from .units import Quantity, convert, parse_duration_hours, parse_quantity, unit_kind
+
+__all__ = ["Burn", "Loading", "ResolvedLoading", "BurnPlan", "resolve_loading", "apply_overrides"]
+
+Amount = Annotated[float | str, Field(union_mode="left_to_right")]
+"""A number in the aircraft's unit, or a string with a unit (``"20 kg"``)."""
+
+
+def _check_amount(value: Any, kinds: tuple[str, ...]) -> Any:
+    """Syntax check of an amount: a non-negative finite number with a unit of ``kinds``."""
+    quantity = parse_quantity(value)
+    if quantity.value < 0:
+        raise ValueError(f"must not be negative (got {value!r})")
+    if quantity.unit is not None and unit_kind(quantity.unit) not in kinds:
+        raise ValueError(f"expected a {' or '.join(kinds)}, got the unit {quantity.unit!r}")
+    return value
+
+
+def _mass_amount(value: Any) -> Any:
+    return _check_amount(value, ("mass",))
+
+
+def _fuel_amount(value: Any) -> Any:
+    return _check_amount(value, ("mass", "volume"))
+
+
+def _fuel_start(value: Any) -> Any:
+    """A tank's fuel at engine start: an amount, ``full`` or a fill-level name."""
+    if isinstance(value, str) and value.strip() and not value.strip()[0] in "0123456789.+-":
+        return value.strip()  # 'full' or a level name, looked up against the tank later
+    return _fuel_amount(value)
+
+
+MassAmount = Annotated[float | str, BeforeValidator(_mass_amount)]
+FuelAmount = Annotated[float | str, BeforeValidator(_fuel_amount)]
+FuelStart = Annotated[float | str, BeforeValidator(_fuel_start)]
+
+
+class _Model(BaseModel):
+    model_config = ConfigDict(extra="forbid", frozen=True, allow_inf_nan=False)
+
+
+class Burn(_Model):
+    """How fuel is used: taxi before takeoff, trip from takeoff to landing."""
+
+    taxi: FuelAmount | None = Field(None, description="fuel used before takeoff [fuel volume unit, or with unit]")
+    trip: FuelAmount | None = Field(None, description="fuel used from takeoff to landing [fuel volume unit]")
+    trip_time: float | str | None = Field(None, description="'2:15', '2.25 h' or hours; needs rate")
+    rate: FuelAmount | None = Field(None, description="fuel used per hour with trip_time [fuel volume unit / h]")
+    order: Literal["together"] | list[str] = Field("together", description="'together' or tank ids in burn order")
+    reserve: FuelAmount | None = Field(None, description="warn when landing fuel is below it [fuel volume unit]")
+
+    @field_validator("trip_time", mode="before")
+    @classmethod
+    def _duration(cls, value: Any) -> Any:
+        if value is not None:
+            parse_duration_hours(value)
+        return value
+
+    @field_validator("order")
+    @classmethod
+    def _distinct(cls, value: Any) -> Any:
+        if isinstance(value, list):
+            if not value:
+                raise ValueError("an empty burn order burns nothing; give tank ids or 'together'")
+            repeated = sorted({t for t in value if value.count(t) > 1})
+            if repeated:
+                raise ValueError(f"tank(s) named twice in the burn order: {', '.join(repeated)}")
+        return value
+
+    @model_validator(mode="after")
+    def _trip_given_once(self) -> Burn:
+        if self.trip is not None and self.trip_time is not None:
+            raise ValueError("give trip or trip_time with rate, not both")
+        if self.trip_time is not None and self.rate is None:
+            raise ValueError("trip_time needs rate (fuel per hour)")
+        if self.rate is not None and self.trip_time is None:
+            raise ValueError("rate is used only with trip_time")
+        return self
+
+
+class Loading(_Model):
+    """A loading file (DESIGN.md, 'Loading file')."""
+
+    format: Literal[1] = 1
+    aircraft: str | None = Field(None, description="aircraft file, relative to this file")
+    category: str | None = None
+    label: str | None = Field(None, description="free text: flight, booking reference")
+    fuel_density: float | None = Field(None, gt=0, description="overrides every tank [mass unit / volume unit]")
+    load: dict[str, MassAmount] = Field(default_factory=dict, description="mass per station [mass unit]")
+    fuel: dict[str, FuelStart] = Field(
+        default_factory=dict,
+        description="quantity per tank at engine start: number [fuel volume unit], 'full', a level, '120 lb'",
+    )
+    burn: Burn = Field(default_factory=Burn)
+
+
+def apply_overrides(
+    data: dict[str, Any],
+    *,
+    load: Mapping[str, str] | None = None,
+    fuel: Mapping[str, str] | None = None,
+    burn: Mapping[str, Any] | None = None,
+    category: str | None = None,
+) -> dict[str, Any]:
+    """Return loading-file data with command-line values laid on top (they win)."""
+    merged = {key: (dict(value) if isinstance(value, dict) else value) for key, value in data.items()}
+    for table, values in (("load", load), ("fuel", fuel), ("burn", burn)):
+        if values:
+            merged.setdefault(table, {})
+            merged[table].update(values)
+    if category is not None:
+        merged["category"] = category
+    return merged
+
+
+@dataclass(frozen=True)
+class BurnPlan:
+    """Tank quantities as fuel is burned from engine start.
+
+    Parameters
+    ----------
+    start : quantity in each tank at engine start [fuel volume unit]
+    order : None to burn every tank together (in proportion to what it held at engine
+        start), or tank ids emptied one after another
+    """
+
+    start: Mapping[str, float]
+    order: tuple[str, ...] | None = None
+
+    @property
+    def burnable(self) -> float:
+        """Fuel the burn order can use [fuel volume unit]."""
+        tanks = self.start if self.order is None else self.order
+        return sum(self.start[t] for t in tanks)
+
+    def quantities(self, burned: float) -> dict[str, float]:
+        """Quantity in each tank after ``burned`` has been used [fuel volume unit]."""
+        left = dict(self.start)
+        if self.order is None:
+            total = self.burnable
+            share = 0.0 if total <= 0 else max(0.0, 1.0 - burned / total)
+            return {tank: quantity * share for tank, quantity in left.items()}
+        remaining = burned
+        for tank in self.order:
+            used = min(left[tank], remaining)
+            left[tank] -= used
+            remaining -= used
+        return left
+
+    def breakpoints(self) -> list[float]:
+        """Fuel burned at which a tank runs dry in a sequential burn [fuel volume unit]."""
+        if self.order is None:
+            return []
+        points, burned = [], 0.0
+        for tank in self.order:
+            burned += self.start[tank]
+            points.append(burned)
+        return points
+
+
+@dataclass(frozen=True)
+class ResolvedLoading:
+    """A loading checked against one aircraft, every amount in the aircraft's units.
+
+    Attributes
+    ----------
+    category : envelope category to check
+    stations : mass per station id [mass unit]
+    fuel : quantity per tank at engine start, every tank present [fuel volume unit]
+    density : density per tank [mass unit per fuel volume unit]
+    taxi, trip : fuel used before takeoff and from takeoff to landing [fuel volume unit]
+    reserve : landing fuel below which to warn [fuel volume unit] or None
+    plan : the burn order
+    notes : things taken for granted, reported as warnings
+    """
+
+    category: str
+    stations: dict[str, float]
+    fuel: dict[str, float]
+    density: dict[str, float]
+    taxi: float
+    trip: float
+    reserve: float | None
+    plan: BurnPlan
+    notes: list[str] = field(default_factory=list)
+
+
+def resolve_loading(loading: Loading, aircraft: Aircraft, *, category: str | None = None) -> ResolvedLoading:
+    """Check a loading against an aircraft and convert it to the aircraft's units.
+
+    Parameters
+    ----------
+    loading : the loading, as read from a file or built in code
+    aircraft : the aircraft it is for
+    category : overrides the loading's category; default: the aircraft's first
+
+    Returns
+    -------
+    ResolvedLoading
+
+    Raises
+    ------
+    UnknownNameError
+        An unknown station, tank, fill level or category (the message lists the known ones).
+    InputError
+        Fuel above a tank's usable capacity, more fuel burned than the burn order can
+        use, or an amount in a unit that does not fit. Every problem is reported at once.
+    """
+    units = aircraft.units
+    problems: list[Problem] = []
+    unknown: list[Problem] = []
+
+    chosen = category or loading.category or aircraft.categories[0]
+    if chosen not in aircraft.categories:
+        unknown.append(Problem("category", f"unknown category {chosen!r}", expected=", ".join(aircraft.categories)))
+
+    stations: dict[str, float] = {}
+    for name, amount in loading.load.items():
+        if name not in aircraft.stations:
+            unknown.append(Problem(f"load.{name}", f"unknown station {name!r}", expected=_known(aircraft.stations)))
+            continue
+        quantity = parse_quantity(amount)
+        stations[name] = quantity.value if quantity.unit is None else convert(quantity.value, quantity.unit, units.mass)
+
+    density = {t.id: loading.fuel_density or aircraft.density(t) for t in aircraft.tank}
+    fuel: dict[str, float] = {t.id: 0.0 for t in aircraft.tank}
+    notes: list[str] = []
+    for name, amount in loading.fuel.items():
+        tank = aircraft.tanks.get(name)
+        if tank is None:
+            unknown.append(Problem(f"fuel.{name}", f"unknown tank {name!r}", expected=_known(aircraft.tanks)))
+            continue
+        if isinstance(amount, str) and amount.strip().lower() == "full":
+            fuel[name] = tank.usable
+            continue
+        if isinstance(amount, str) and amount in tank.levels:
+            fuel[name] = tank.levels[amount]
+            continue
+        if isinstance(amount, str) and amount[0].isalpha():
+            levels = ", ".join(["full", *tank.levels])
+            unknown.append(Problem(f"fuel.{name}", f"unknown fill level {amount!r} for tank {name!r}", expected=levels))
+            continue
+        quantity = parse_quantity(amount)
+        volume = _to_volume(quantity, density[name], units.mass, units.fuel_volume)
+        if volume > tank.usable * (1 + 1e-9):
+            problems.append(
+                Problem(
+                    f"fuel.{name}",
+                    f"{volume:g} {units.fuel_volume} is above the tank's usable capacity",
+                    value=amount,
+                    expected=f"at most {tank.usable:g} {units.fuel_volume}",
+                )
+            )
+        fuel[name] = min(volume, tank.usable)
+    missing = [t.id for t in aircraft.tank if t.id not in loading.fuel]
+    if missing and loading.fuel:
+        notes.append(f"no fuel given for {', '.join(missing)}; taken as empty")
+    elif aircraft.tank and not loading.fuel:
+        notes.append("no fuel given; every tank taken as empty")
+
+    order: tuple[str, ...] | None = None
+    if isinstance(loading.burn.order, list):
+        bad = [t for t in loading.burn.order if t not in aircraft.tanks]
+        if bad:
+            unknown.append(Problem("burn.order", f"unknown tank(s) {', '.join(map(repr, bad))}", expected=_known(aircraft.tanks)))
+        else:
+            order = tuple(loading.burn.order)
+            idle = [t for t in aircraft.tanks if t not in order and fuel[t] > 0]
+            if idle:
+                notes.append(f"tank(s) {', '.join(idle)} not in the burn order: their fuel is not used in flight")
+    if unknown:
+        raise UnknownNameError(unknown + problems)
+    if problems:
+        raise InputError(problems)
+
+    plan = BurnPlan(fuel, order)
+    burn = loading.burn
+    mean_density = _mean_density(fuel, density)
+
+    def volume_of(amount: float | str | None, where: str) -> float:
+        if amount is None:
+            return 0.0
+        return _to_volume(parse_quantity(amount), mean_density, units.mass, units.fuel_volume)
+
+    taxi = volume_of(burn.taxi, "burn.taxi")
+    if burn.trip_time is not None:
+        trip = parse_duration_hours(burn.trip_time) * volume_of(burn.rate, "burn.rate")
+    else:
+        trip = volume_of(burn.trip, "burn.trip")
+    if burn.trip is None and burn.trip_time is None:
+        notes.append("no trip fuel given; landing is checked at the takeoff fuel")
+    reserve = None if burn.reserve is None else volume_of(burn.reserve, "burn.reserve")
+    if taxi + trip > plan.burnable * (1 + 1e-9):
+        raise InputError(
+            Problem(
+                "burn",
+                f"taxi and trip fuel ({taxi + trip:g} {units.fuel_volume}) exceed the fuel the burn order can use",
+                expected=f"at most {plan.burnable:g} {units.fuel_volume}",
+            )
+        )
+    return ResolvedLoading(chosen, stations, fuel, density, taxi, trip, reserve, plan, notes)
+
+
+def _known(names: Mapping[str, Any]) -> str:
+    return ", ".join(names) or "none"
+
+
+def _to_volume(quantity: Quantity, density: float, mass_unit: str, volume_unit: str) -> float:
+    """A fuel amount as a volume [volume unit]; a mass is divided by the density."""
+    if quantity.unit is None:
+        return quantity.value
+    if unit_kind(quantity.unit) == "volume":
+        return convert(quantity.value, quantity.unit, volume_unit)
+    return convert(quantity.value, quantity.unit, mass_unit) / density
+
+
+def _mean_density(fuel: Mapping[str, float], density: Mapping[str, float]) -> float:
+    """Density of the fuel on board, by volume [mass unit per volume unit]."""
+    volume = sum(fuel.values())
+    if volume <= 0:
+        return next(iter(density.values()), 1.0)
+    return sum(fuel[t] * density[t] for t in fuel) / volume

@@ -1,0 +1,165 @@
+"""Rich terminal output of a loading check: moment table, conditions, findings, caution.
+
+Renderers compute nothing: every figure comes from the result; they only round (in the
+safe direction for margins and excesses, see :mod:`loadcheck.display`) and lay out.
+Meaning never rests on colour alone: every verdict is also written in words.
+"""
+
+from __future__ import annotations
+
+from rich.console import Console, Group
+from rich.panel import Panel
+from rich.table import Table
+from rich.text import Text
+
+from ..display import fmt
+from ..results import CheckResult, Condition
+
+__all__ = ["render_check", "caution_text"]
+
+_NAMES = {"ramp": "Ramp", "takeoff": "Takeoff", "landing": "Landing", "zero_fuel": "Zero fuel"}
+_OK_STYLE, _LIMIT_STYLE, _WARN_STYLE = "bold green", "bold red", "bold yellow"
+
+
+def caution_text(caution: str) -> Text:
+    """The caution, set apart at the end of every human-readable output."""
+    return Text(f"CAUTION: {caution}", style="italic")
+
+
+def _moment_table(result: CheckResult) -> Table:
+    units = result.units
+    lateral = any(i.lateral_arm is not None for i in result.items)
+    table = Table(title="Moment table (engine start)", title_justify="left", expand=False)
+    table.add_column("Item")
+    table.add_column(f"Weight ({units.mass})", justify="right")
+    table.add_column(f"Arm ({units.arm})", justify="right")
+    table.add_column(f"Moment ({units.moment})", justify="right")
+    if lateral:
+        table.add_column(f"Lat. arm [{units.arm}, + right]", justify="right")
+        table.add_column(f"Lat. moment ({units.moment})", justify="right")
+    for item in result.items:
+        name = item.name
+        if item.fuel_volume is not None:
+            name += f" ({fmt(item.fuel_volume, units.fuel_volume)})"
+        row = [name, fmt(item.weight, units.mass, with_unit=False), fmt(item.arm, units.arm, with_unit=False),
+               fmt(item.moment, units.moment, with_unit=False)]
+        if lateral:
+            row += [fmt(item.lateral_arm or 0.0, units.arm, with_unit=False),
+                    fmt(item.lateral_moment or 0.0, units.moment, with_unit=False)]
+        table.add_row(*row)
+    ramp = result.condition("ramp")
+    total = ["Total at ramp", fmt(ramp.weight, units.mass, with_unit=False), fmt(ramp.arm, units.arm, with_unit=False),
+             fmt(ramp.moment, units.moment, with_unit=False)]
+    if lateral:
+        total += [fmt(ramp.lateral_arm or 0.0, units.arm, with_unit=False),
+                  fmt(ramp.lateral_moment or 0.0, units.moment, with_unit=False)]
+    table.add_section()
+    table.add_row(*total, style="bold")
+    return table
+
+
+def _margin(value: float | None, unit: str) -> str:
+    return "" if value is None else fmt(value, unit, "down", with_unit=False)
+
+
+def _conditions_table(result: CheckResult) -> Table:
+    units = result.units
+    conditions = result.conditions
+    mac = any(c.mac_percent is not None for c in conditions)
+    lateral = any(c.lateral_arm is not None for c in conditions)
+    table = Table(title=f"Conditions ({result.category} category)", title_justify="left")
+    table.add_column("Condition")
+    table.add_column(f"Fuel ({units.fuel_volume})", justify="right")
+    table.add_column(f"Weight ({units.mass})", justify="right")
+    table.add_column(f"CG ({units.arm})", justify="right")
+    if mac:
+        table.add_column("CG (%MAC)", justify="right")
+    if lateral:
+        table.add_column(f"Lat. CG ({units.arm})", justify="right")
+    table.add_column(f"Fwd margin ({units.arm})", justify="right")
+    table.add_column(f"Aft margin ({units.arm})", justify="right")
+    if lateral:
+        table.add_column(f"Left / right margin ({units.arm})", justify="right")
+    table.add_column(f"Weight margin ({units.mass})", justify="right")
+    table.add_column("Result")
+    for condition in conditions:
+        table.add_row(*_condition_row(condition, result, mac, lateral))
+    return table
+
+
+def _condition_row(c: Condition, result: CheckResult, mac: bool, lateral: bool) -> list[str | Text]:
+    units = result.units
+    row: list[str | Text] = [
+        _NAMES[c.condition],
+        fmt(c.fuel, units.fuel_volume, with_unit=False),
+        fmt(c.weight, units.mass, with_unit=False),
+        fmt(c.arm, units.arm, with_unit=False),
+    ]
+    if mac:
+        row.append("" if c.mac_percent is None else fmt(c.mac_percent, "%MAC", with_unit=False))
+    if lateral:
+        row.append("" if c.lateral_arm is None else fmt(c.lateral_arm, units.arm, with_unit=False))
+    row += [_margin(c.margins.forward, units.arm), _margin(c.margins.aft, units.arm)]
+    if lateral:
+        row.append(f"{_margin(c.margins.left, units.arm)} / {_margin(c.margins.right, units.arm)}")
+    row.append(_margin(c.margins.weight, units.mass))
+    if c.ok:
+        row.append(Text("within", style=_OK_STYLE))
+    else:
+        only_warnings = all(
+            f.severity == "warning" for f in result.findings if f.condition == c.condition
+        )
+        row.append(Text("OUTSIDE (warning)" if only_warnings else "OUTSIDE", style=_WARN_STYLE if only_warnings else _LIMIT_STYLE))
+    return row
+
+
+def _burn_line(result: CheckResult) -> Text:
+    path = result.burn_path
+    units = result.units
+    if path.ok:
+        return Text("Fuel burn, takeoff to landing: the CG stays inside the envelope all the way.")
+    leave = path.leaves_at
+    if leave is None:
+        return Text("Fuel burn, takeoff to landing: the takeoff point is already outside the envelope.", style=_LIMIT_STYLE)
+    return Text(
+        f"Fuel burn, takeoff to landing: the CG leaves the envelope after {fmt(leave.fuel_burned, units.mass, 'down')} "
+        f"burned ({fmt(leave.fuel_remaining_volume, units.fuel_volume)} remaining; "
+        f"{fmt(leave.weight, units.mass)} at CG {fmt(leave.arm, units.arm)}).",
+        style=_LIMIT_STYLE,
+    )
+
+
+def _findings(result: CheckResult) -> Group | Text:
+    if not result.findings:
+        return Text("No findings.")
+    lines = []
+    for finding in result.findings:
+        tag = "LIMIT  " if finding.severity == "limit" else "WARNING"
+        style = _LIMIT_STYLE if finding.severity == "limit" else _WARN_STYLE
+        line = Text()
+        line.append(f"{tag} ", style=style)
+        line.append(finding.message)
+        lines.append(line)
+    return Group(Text("Findings", style="bold"), *lines)
+
+
+def render_check(result: CheckResult, console: Console) -> None:
+    """Print a check: header, moment table, conditions, burn path, findings, verdict, caution."""
+    info = result.aircraft
+    header = info.name + (f" · {info.registration}" if info.registration else "")
+    header += f" · {result.category} category · data {info.fingerprint}"
+    if info.empty_weight_date:
+        header += f" · empty weight of {info.empty_weight_date}"
+    console.print(Text(header, style="bold"))
+    console.print(_moment_table(result))
+    console.print(_conditions_table(result))
+    console.print(Text("Margins are rounded down; an excess is rounded up.", style="dim"))
+    console.print(_burn_line(result))
+    console.print(_findings(result))
+    verdict = (
+        Text("WITHIN LIMITS: every condition, the burn path and every weight limit hold.", style=_OK_STYLE)
+        if result.ok
+        else Text(f"OUT OF LIMITS: {len(result.limits_exceeded)} limit(s) exceeded.", style=_LIMIT_STYLE)
+    )
+    console.print(Panel(verdict, expand=False))
+    console.print(caution_text(result.caution))

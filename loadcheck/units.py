@@ -1,0 +1,236 @@
+"""Units, exact conversion constants and quantities written with a unit.
+
+All conversions use exact defined constants:
+
+* 1 lb = 0.45359237 kg (international avoirdupois pound, 1959 agreement;
+  NIST SP 811, 2008 edition, appendix B.8)
+* 1 in = 25.4 mm (international inch, same agreement; NIST SP 811 B.8)
+* 1 US gal = 231 in^3 = 3.785411784 L (NIST SP 811 B.8; NIST Handbook 44 appendix C)
+* 1 imp gal = 4.54609 L (UK Weights and Measures Act 1985; NIST SP 811 B.8)
+
+A quantity typed by a user may carry its unit: ``"20 kg"``, ``"48 usgal"``, ``"180lb"``.
+"""
+
+from __future__ import annotations
+
+import math
+import re
+from dataclasses import dataclass
+from typing import Literal
+
+from .errors import UnitError
+
+__all__ = [
+    "MassUnit",
+    "ArmUnit",
+    "VolumeUnit",
+    "Quantity",
+    "KG_PER_LB",
+    "MM_PER_IN",
+    "L_PER_USGAL",
+    "L_PER_IMPGAL",
+    "MASS_UNITS",
+    "ARM_UNITS",
+    "VOLUME_UNITS",
+    "parse_quantity",
+    "convert",
+    "unit_kind",
+    "canonical_unit",
+    "parse_duration_hours",
+]
+
+MassUnit = Literal["lb", "kg"]
+ArmUnit = Literal["in", "mm", "cm", "m"]
+VolumeUnit = Literal["usgal", "impgal", "l"]
+
+KG_PER_LB = 0.45359237
+"""Exact: kilograms in one international pound [kg/lb]."""
+MM_PER_IN = 25.4
+"""Exact: millimetres in one international inch [mm/in]."""
+L_PER_USGAL = 3.785411784
+"""Exact: litres in one US liquid gallon [L/US gal]."""
+L_PER_IMPGAL = 4.54609
+"""Exact: litres in one imperial gallon [L/imp gal]."""
+
+# Size of each unit in the base unit of its kind (kg, mm, L).
+MASS_UNITS: dict[str, float] = {"lb": KG_PER_LB, "kg": 1.0}
+ARM_UNITS: dict[str, float] = {"in": MM_PER_IN, "mm": 1.0, "cm": 10.0, "m": 1000.0}
+VOLUME_UNITS: dict[str, float] = {"usgal": L_PER_USGAL, "impgal": L_PER_IMPGAL, "l": 1.0}
+
+_KINDS: dict[str, dict[str, float]] = {
+    "mass": MASS_UNITS,
+    "length": ARM_UNITS,
+    "volume": VOLUME_UNITS,
+}
+
+# Spellings accepted on input, folded to the canonical unit names above. A bare "gal" is
+# refused on purpose: US and imperial gallons differ by 20 %.
+_ALIASES: dict[str, str] = {
+    "lb": "lb", "lbs": "lb", "pound": "lb", "pounds": "lb",
+    "kg": "kg", "kgs": "kg", "kilogram": "kg", "kilograms": "kg",
+    "in": "in", "inch": "in", "inches": "in",
+    "mm": "mm", "cm": "cm", "m": "m",
+    "usgal": "usgal", "us gal": "usgal",
+    "impgal": "impgal", "imp gal": "impgal",
+    "l": "l", "litre": "l", "litres": "l", "liter": "l", "liters": "l",
+}
+
+_QUANTITY_RE = re.compile(r"^\s*([-+]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][-+]?\d+)?)\s*([A-Za-z][A-Za-z ]*?)?\s*$")
+
+
+@dataclass(frozen=True)
+class Quantity:
+    """A number with an optional unit, as a user typed it.
+
+    Attributes
+    ----------
+    value : the number [unit]
+    unit : canonical unit name, or None where none was written
+    """
+
+    value: float
+    unit: str | None = None
+
+    @property
+    def kind(self) -> str | None:
+        """``"mass"``, ``"length"``, ``"volume"`` or None for a bare number."""
+        return unit_kind(self.unit) if self.unit else None
+
+
+def canonical_unit(text: str) -> str:
+    """Return the canonical name of a unit spelling (``"lbs"`` -> ``"lb"``).
+
+    Raises
+    ------
+    UnitError
+        If the spelling is not a unit loadcheck knows; the message lists the known units.
+
+    Examples
+    --------
+    >>> canonical_unit("Litres")
+    'l'
+    """
+    key = " ".join(text.strip().lower().split())
+    if key in _ALIASES:
+        return _ALIASES[key]
+    known = ", ".join(sorted({*MASS_UNITS, *ARM_UNITS, *VOLUME_UNITS}))
+    raise UnitError(f"unknown unit {text!r} (known units: {known})")
+
+
+def unit_kind(unit: str) -> str:
+    """Return ``"mass"``, ``"length"`` or ``"volume"`` for a canonical unit name."""
+    for kind, table in _KINDS.items():
+        if unit in table:
+            return kind
+    raise UnitError(f"unknown unit {unit!r}")
+
+
+def parse_quantity(text: str | float | int) -> Quantity:
+    """Read a number, optionally followed by a unit.
+
+    Parameters
+    ----------
+    text : ``"20 kg"``, ``"48usgal"``, ``"180"`` or a plain number
+
+    Returns
+    -------
+    Quantity
+        Value and canonical unit (None for a bare number).
+
+    Raises
+    ------
+    UnitError
+        If the text is not a finite number with an optional known unit.
+
+    Examples
+    --------
+    >>> parse_quantity("20 kg")
+    Quantity(value=20.0, unit='kg')
+    >>> parse_quantity(12)
+    Quantity(value=12.0, unit=None)
+    """
+    if isinstance(text, bool):
+        raise UnitError(f"expected a number, got {text!r}")
+    if isinstance(text, (int, float)):
+        value = float(text)
+        unit = None
+    else:
+        match = _QUANTITY_RE.match(str(text))
+        if not match:
+            raise UnitError(f"cannot read {text!r} as a number with an optional unit (e.g. '20 kg')")
+        value = float(match.group(1))
+        unit = canonical_unit(match.group(2)) if match.group(2) else None
+    if not math.isfinite(value):
+        raise UnitError(f"{text!r} is not a finite number")
+    return Quantity(value, unit)
+
+
+def convert(value: float, from_unit: str, to_unit: str) -> float:
+    """Convert ``value`` between two units of the same kind with exact constants.
+
+    Parameters
+    ----------
+    value : amount [from_unit]
+    from_unit, to_unit : canonical unit names of one kind (mass, length or volume)
+
+    Returns
+    -------
+    float
+        The amount [to_unit].
+
+    Raises
+    ------
+    UnitError
+        If the units are of different kinds.
+
+    Examples
+    --------
+    >>> convert(1.0, "usgal", "l")
+    3.785411784
+    >>> round(convert(100.0, "kg", "lb"), 6)
+    220.462262
+    """
+    if from_unit == to_unit:
+        return value
+    kind_from, kind_to = unit_kind(from_unit), unit_kind(to_unit)
+    if kind_from != kind_to:
+        raise UnitError(f"cannot convert {from_unit} ({kind_from}) to {to_unit} ({kind_to})")
+    table = _KINDS[kind_from]
+    return value * table[from_unit] / table[to_unit]
+
+
+_DURATION_RE = re.compile(r"^\s*(\d+):([0-5]\d)\s*$")
+_DURATION_UNIT_RE = re.compile(r"^\s*(\d+(?:\.\d*)?|\.\d+)\s*(h|hr|hours?|min|minutes?)\s*$", re.I)
+
+
+def parse_duration_hours(text: str | float | int) -> float:
+    """Read a duration and return it in hours.
+
+    Accepts ``"2:15"`` (hours:minutes), ``"2.25 h"``, ``"135 min"`` or a number of hours.
+
+    Raises
+    ------
+    UnitError
+        If the text is not a non-negative duration.
+
+    Examples
+    --------
+    >>> parse_duration_hours("2:15")
+    2.25
+    >>> parse_duration_hours("90 min")
+    1.5
+    """
+    if isinstance(text, bool):
+        raise UnitError(f"expected a duration, got {text!r}")
+    if isinstance(text, (int, float)):
+        hours = float(text)
+    elif match := _DURATION_RE.match(text):
+        hours = int(match.group(1)) + int(match.group(2)) / 60.0
+    elif match := _DURATION_UNIT_RE.match(text):
+        number = float(match.group(1))
+        hours = number if match.group(2).lower().startswith("h") else number / 60.0
+    else:
+        raise UnitError(f"cannot read {text!r} as a duration (e.g. '2:15', '2.25 h', '135 min')")
+    if not math.isfinite(hours) or hours < 0:
+        raise UnitError(f"duration {text!r} must be a finite, non-negative time")
+    return hours
