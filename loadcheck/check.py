@@ -201,7 +201,8 @@ def _condition(
         tested = _envelope_state(shape, name, state)
         if not shape.covers(tested.weight, tested.moment, tested.lateral_moment):
             ok = False
-            findings.append(_outside_finding(aircraft, shape, envelope.label, name, tested, severity))
+            label = envelope.label or f"the {resolved.category}-category envelope"
+            findings.append(_outside_finding(aircraft, shape, label, name, tested, severity))
 
     fuel_mass = sum(q * resolved.density[t] for t, q in quantities.items())
     has_lateral = aircraft.has_lateral
@@ -260,60 +261,76 @@ def _margins(shapes: Sequence[EnvelopeShape], name: str, state: MassState, weigh
 def _outside_finding(
     aircraft: Aircraft,
     shape: EnvelopeShape,
-    label: str | None,
+    label: str,
     name: ConditionName,
     state: MassState,
     severity: Severity,
 ) -> Finding:
-    """Say in plain words where a point outside an envelope lies, and by how much."""
+    """Say in plain words where a point outside an envelope lies, and by how much.
+
+    The CG is compared with the limits at the point's weight (forward/aft, or left/right
+    for a lateral envelope); a weight beyond the envelope's weight range is reported as
+    above or below it, with the CG compared at the envelope's top or bottom as well.
+    """
     units = aircraft.units
     where = _WORDS[name]
     weight, arm, lateral = state.weight, state.arm, state.lateral_arm
-    envelope = f"the {label} envelope" if label else "the envelope"
-    at_weight = f" at {fmt(weight, units.mass)}"
-    side, excess, limit, unit = "outside", None, None, None
+    cg, value = ("lateral CG", lateral) if shape.is_lateral else ("CG", arm)
+    sides = ("left", "right") if shape.is_lateral else ("forward", "aft")
+    vary = "lateral" if shape.is_lateral else "arm"
 
-    across = shape.slice(weight, arm, lateral, "lateral") if shape.is_lateral else shape.slice(weight, arm, lateral, "arm")
-    value = lateral if shape.is_lateral else arm
-    if across:
-        low, high = across[0][0], across[-1][1]
+    def across(at_weight: float) -> tuple[str, float, float] | None:
+        intervals = shape.slice(at_weight, arm, lateral, vary)
+        if not intervals:
+            return None
+        low, high = intervals[0][0], intervals[-1][1]
         if value < low:
-            side, excess, limit = ("left" if shape.is_lateral else "forward"), low - value, low
-        elif value > high:
-            side, excess, limit = ("right" if shape.is_lateral else "aft"), value - high, high
-        else:
-            lo, hi = _pick(across, value)
-            nearest = lo if value < lo else hi
-            excess, limit = abs(value - nearest), nearest
-        unit = units.arm
-    else:
-        heights = shape.slice(weight, arm, lateral, "weight")
-        if heights:
-            if weight > heights[-1][1]:
-                side, excess, limit = "above", weight - heights[-1][1], heights[-1][1]
-            elif weight < heights[0][0]:
-                side, excess, limit = "below", heights[0][0] - weight, heights[0][0]
-            unit = units.mass
-    cg = "lateral CG" if shape.is_lateral else "CG"
-    if side in ("forward", "aft", "left", "right"):
+            return sides[0], low - value, low
+        if value > high:
+            return sides[1], value - high, high
+        lo, hi = _pick(intervals, value)
+        if lo <= value <= hi:
+            return None
+        nearest = lo if value < lo else hi
+        return "outside", abs(value - nearest), nearest
+
+    band = shape.weight_range
+    side, excess, limit, unit = "outside", None, None, None
+    text = ""
+    if band is not None and not band[0] <= weight <= band[1]:
+        edge = band[1] if weight > band[1] else band[0]
+        side = "above" if weight > band[1] else "below"
+        excess, limit, unit = abs(weight - edge), edge, units.mass
         text = (
-            f"{where} {cg} {fmt(value, units.arm)} is {side} of the {side} limit "
-            f"{fmt(limit, units.arm)}{at_weight} of {envelope} by {fmt(excess, units.arm, 'up')}"  # type: ignore[arg-type]
-        )
-    elif side in ("above", "below") and excess is not None:
-        text = (
-            f"{where} weight {fmt(weight, units.mass)} is {side} {envelope} at CG {fmt(arm, units.arm)} "
+            f"{where} weight {fmt(weight, units.mass)} is {side} {label}, whose "
+            f"{'highest' if side == 'above' else 'lowest'} weight is {fmt(edge, units.mass)}, "
             f"by {fmt(excess, units.mass, 'up')}"
         )
-    elif excess is not None:
-        text = (
-            f"{where} {cg} {fmt(value, units.arm)} falls between two parts of {envelope}{at_weight}, "
-            f"{fmt(excess, units.arm, 'up')} from the nearest limit"
-        )
+        there = across(edge)
+        if there is not None:
+            text += (
+                f"; its {cg} {fmt(value, units.arm)} is also {there[0]} of the limit there "
+                f"({fmt(there[2], units.arm)}) by {fmt(there[1], units.arm, 'up')}"
+            )
     else:
-        text = f"{where} point ({fmt(weight, units.mass)}, CG {fmt(arm, units.arm)}) is outside {envelope}"
+        found = across(weight)
+        if found is not None:
+            side, excess, limit = found
+            unit = units.arm
+            if side == "outside":
+                text = (
+                    f"{where} {cg} {fmt(value, units.arm)} falls in a gap of {label} at {fmt(weight, units.mass)}, "
+                    f"{fmt(excess, units.arm, 'up')} from the nearest limit ({fmt(limit, units.arm)})"
+                )
+            else:
+                text = (
+                    f"{where} {cg} {fmt(value, units.arm)} is {side} of the {side} limit of {label} "
+                    f"({fmt(limit, units.arm)} at {fmt(weight, units.mass)}) by {fmt(excess, units.arm, 'up')}"
+                )
+        else:
+            text = f"{where} point ({fmt(weight, units.mass)}, {cg} {fmt(value, units.arm)}) is outside {label}"
     if severity == "warning":
-        text += " (warning: the zero-fuel CG is not a limit for this aircraft)"
+        text += " (a warning: the zero-fuel CG is not a limit for this aircraft)"
     return Finding(
         code="envelope", severity=severity, condition=name, message=text,
         excess=excess, unit=unit, limit=limit, side=side, subject=label,

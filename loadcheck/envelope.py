@@ -121,9 +121,16 @@ class EnvelopeShape:
     @property
     def max_weight(self) -> float | None:
         """Highest weight of the polygon, where weight is an axis [mass unit]."""
+        band = self.weight_range
+        return None if band is None else band[1]
+
+    @property
+    def weight_range(self) -> tuple[float, float] | None:
+        """Lowest and highest weight of the polygon, where weight is an axis [mass unit]."""
         if "weight" not in self.axes:
             return None
-        return float(self.corners[:, self.axes.index("weight")].max())
+        column = self.corners[:, self.axes.index("weight")]
+        return float(column.min()), float(column.max())
 
     def _axis(self, axis: str, weight: np.ndarray, moment: np.ndarray, lateral: np.ndarray) -> np.ndarray:
         if axis == "weight":

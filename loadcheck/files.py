@@ -193,7 +193,7 @@ def load_loading(path: str | Path | None, **overrides: Any) -> tuple[Loading, Pa
     """
     data = read_toml(path) if path is not None else {}
     merged = apply_overrides(data, **overrides)
-    loading = parse_loading(merged, path)
+    loading = parse_loading(merged, path if path is not None else "command line")
     aircraft_path = None
     if loading.aircraft:
         base = Path(path).parent if path is not None else Path.cwd()

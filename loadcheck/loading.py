@@ -32,7 +32,7 @@ def _check_amount(value: Any, kinds: tuple[str, ...]) -> Any:
     """Syntax check of an amount: a non-negative finite number with a unit of ``kinds``."""
     quantity = parse_quantity(value)
     if quantity.value < 0:
-        raise ValueError(f"must not be negative (got {value!r})")
+        raise ValueError("must not be negative")
     if quantity.unit is not None and unit_kind(quantity.unit) not in kinds:
         raise ValueError(f"expected a {' or '.join(kinds)}, got the unit {quantity.unit!r}")
     return value
@@ -235,7 +235,7 @@ def resolve_loading(loading: Loading, aircraft: Aircraft, *, category: str | Non
 
     chosen = category or loading.category or aircraft.categories[0]
     if chosen not in aircraft.categories:
-        unknown.append(Problem("category", f"unknown category {chosen!r}", expected=", ".join(aircraft.categories)))
+        unknown.append(Problem("category", f"unknown category {chosen!r}", expected=_known(dict.fromkeys(aircraft.categories))))
 
     stations: dict[str, float] = {}
     for name, amount in loading.load.items():
@@ -260,7 +260,7 @@ def resolve_loading(loading: Loading, aircraft: Aircraft, *, category: str | Non
             fuel[name] = tank.levels[amount]
             continue
         if isinstance(amount, str) and amount[0].isalpha():
-            levels = ", ".join(["full", *tank.levels])
+            levels = _known(dict.fromkeys(["full", *tank.levels]))
             unknown.append(Problem(f"fuel.{name}", f"unknown fill level {amount!r} for tank {name!r}", expected=levels))
             continue
         quantity = parse_quantity(amount)
@@ -325,7 +325,7 @@ def resolve_loading(loading: Loading, aircraft: Aircraft, *, category: str | Non
 
 
 def _known(names: Mapping[str, Any]) -> str:
-    return ", ".join(names) or "none"
+    return "one of " + ", ".join(names) if names else "none is defined"
 
 
 def _to_volume(quantity: Quantity, density: float, mass_unit: str, volume_unit: str) -> float:

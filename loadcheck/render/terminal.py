@@ -35,7 +35,7 @@ def _moment_table(result: CheckResult) -> Table:
     table.add_column(f"Arm ({units.arm})", justify="right")
     table.add_column(f"Moment ({units.moment})", justify="right")
     if lateral:
-        table.add_column(f"Lat. arm [{units.arm}, + right]", justify="right")
+        table.add_column(f"Lat. arm ({units.arm}, + right)", justify="right")
         table.add_column(f"Lat. moment ({units.moment})", justify="right")
     for item in result.items:
         name = item.name

@@ -1,0 +1,156 @@
+"""Aircraft file validation: every bad field is an error naming its path."""
+
+from __future__ import annotations
+
+import pytest
+
+from loadcheck.errors import InputError
+from loadcheck.files import parse_aircraft
+
+from .helpers import sample_data, simple_aircraft
+
+
+def _problems(data) -> str:
+    with pytest.raises(InputError) as info:
+        parse_aircraft(data, "test.toml")
+    return str(info.value)
+
+
+def test_samples_load(trainer, tandem, twin):
+    assert trainer.categories == ["normal", "utility"]
+    assert tandem.units.mass == "kg" and tandem.units.arm == "mm" and tandem.units.fuel_volume == "l"
+    assert twin.envelope[0].axes == ("moment", "weight")
+
+
+def test_defaults_of_limits(trainer, tandem):
+    assert tandem.limits.ramp == tandem.limits.max_takeoff_weight == 680
+    assert tandem.limits.landing == 680
+    assert trainer.limits.ramp == 2457
+
+
+def test_quantities_with_units_are_converted():
+    aircraft = simple_aircraft(empty={"weight": "500 kg", "arm": "1 m"})
+    assert aircraft.empty.weight == pytest.approx(500 / 0.45359237)
+    assert aircraft.empty.arm == pytest.approx(1000 / 25.4)
+
+
+def test_unknown_unit_lists_choices():
+    data = sample_data("trainer4/aircraft.toml")
+    data["units"]["mass"] = "stone"
+    text = _problems(data)
+    assert "units.mass" in text and "'lb' or 'kg'" in text and "stone" in text
+
+
+def test_misspelt_field_is_an_error_not_ignored():
+    data = sample_data("trainer4/aircraft.toml")
+    data["station"][0]["max_wieght"] = 400
+    assert "station[0].max_wieght" in _problems(data)
+
+
+@pytest.mark.parametrize("value", [-5, float("nan"), float("inf")])
+def test_negative_or_nan_station_limit(value):
+    data = sample_data("trainer4/aircraft.toml")
+    data["station"][2]["max_weight"] = value
+    text = _problems(data)
+    assert "test.toml: station[2].max_weight" in text
+
+
+def test_every_problem_is_reported_at_once():
+    data = sample_data("trainer4/aircraft.toml")
+    data["empty"]["weight"] = -1
+    data["tank"][0]["usable"] = 0
+    text = _problems(data)
+    assert "empty.weight" in text and "tank[0].usable" in text
+
+
+def test_self_intersecting_envelope():
+    data = sample_data("trainer4/aircraft.toml")
+    data["envelope"][0]["points"] = [[35, 1500], [47, 2450], [47, 1500], [35, 2450]]
+    text = _problems(data)
+    assert "envelope[0]" in text and "Self-intersection" in text
+
+
+def test_degenerate_envelope():
+    data = sample_data("trainer4/aircraft.toml")
+    data["envelope"][0]["points"] = [[35, 1500], [40, 2000], [45, 2500]]
+    assert "envelope[0]" in _problems(data)
+
+
+def test_envelope_with_two_points():
+    data = sample_data("trainer4/aircraft.toml")
+    data["envelope"][0]["points"] = [[35, 1500], [40, 2000]]
+    assert "envelope[0].points" in _problems(data)
+
+
+def test_closed_ring_is_accepted():
+    aircraft = simple_aircraft(envelope=[{"category": "normal", "axes": ["arm", "weight"],
+                                          "points": [[35, 900], [35, 2000], [48, 2000], [48, 900], [35, 900]]}])
+    assert len(aircraft.envelope[0].shape.corners) == 4
+
+
+def test_mac_axis_needs_mac():
+    text = _problems({**sample_data("trainer4/aircraft.toml"), "mac": None,
+                      "envelope": [{"category": "normal", "axes": ["mac", "weight"],
+                                    "points": [[10, 1500], [10, 2450], [30, 2450], [30, 1500]]}]})
+    assert "envelope[0].axes" in text and "[mac]" in text
+
+
+def test_lateral_envelope_without_lateral_arms_fails_closed():
+    data = sample_data("trainer4/aircraft.toml")
+    data["envelope"].append({"category": "normal", "axes": ["lateral_arm", "weight"],
+                             "points": [[-3, 1500], [-3, 2450], [3, 2450], [3, 1500]]})
+    assert "lateral arms" in _problems(data)
+
+
+def test_duplicate_ids():
+    data = sample_data("trainer4/aircraft.toml")
+    data["tank"][0]["id"] = "front"
+    assert "used twice" in _problems(data)
+
+
+def test_group_names_unknown_station():
+    data = sample_data("trainer4/aircraft.toml")
+    data["station_group"][0]["stations"] = ["bag1", "bag3"]
+    text = _problems(data)
+    assert "station_group[0].stations" in text and "bag3" in text and "bag2" in text
+
+
+def test_tank_needs_grade_or_density():
+    data = sample_data("trainer4/aircraft.toml")
+    del data["tank"][0]["fuel"]
+    assert "fuel grade" in _problems(data)
+
+
+def test_level_above_capacity():
+    data = sample_data("trainer4/aircraft.toml")
+    data["tank"][0]["levels"] = {"tabs": 60}
+    assert "above the usable capacity" in _problems(data)
+
+
+@pytest.mark.parametrize(
+    "table, words",
+    [([[0, 46], [30, 47], [20, 48]], "increase"), ([[0, 46], [60, 48]], "usable"), ([[0, 46]], "two points")],
+)
+def test_bad_arm_tables(table, words):
+    data = sample_data("trainer4/aircraft.toml")
+    data["tank"][0]["arm_table"] = table
+    assert words in _problems(data)
+
+
+def test_arm_table_interpolates():
+    aircraft = simple_aircraft(tank=[{"id": "main", "usable": 40, "fuel": "avgas", "arm_table": [[0, 44], [40, 48]]}])
+    tank = aircraft.tanks["main"]
+    assert tank.arm_at(0) == 44 and tank.arm_at(40) == 48 and tank.arm_at(10) == pytest.approx(45)
+
+
+def test_missing_max_takeoff_weight():
+    data = sample_data("trainer4/aircraft.toml")
+    del data["limits"]["max_takeoff_weight"]
+    assert "limits.max_takeoff_weight: this field is required" in _problems(data)
+
+
+def test_fingerprint_changes_with_data(trainer):
+    data = sample_data("trainer4/aircraft.toml")
+    data["empty"]["weight"] += 1
+    assert parse_aircraft(data).fingerprint != trainer.fingerprint
+    assert parse_aircraft(sample_data("trainer4/aircraft.toml")).fingerprint == trainer.fingerprint

@@ -1,0 +1,196 @@
+"""The loading check on the sample aircraft: verdicts, findings, severities, burn path."""
+
+from __future__ import annotations
+
+import pytest
+
+from loadcheck import check_loading, load_check_inputs
+from loadcheck.errors import InputError, UnknownNameError
+from loadcheck.loading import Loading
+
+from loadcheck.files import parse_aircraft
+
+from .helpers import sample, sample_data, simple_aircraft
+
+
+def run(name: str):
+    inputs = load_check_inputs(sample(name))
+    return check_loading(inputs.aircraft, inputs.loading)
+
+
+def codes(result) -> list[tuple[str, str, str | None]]:
+    return [(f.code, f.severity, f.condition) for f in result.findings]
+
+
+@pytest.mark.parametrize(
+    "name", ["trainer4/within.toml", "tandem2/solo.toml", "twin6/within.toml", "tandem2/aft_ballast.toml"]
+)
+def test_within_limits(name):
+    result = run(name)
+    assert result.ok, result.findings
+    assert all(f.severity == "warning" for f in result.findings)
+
+
+def test_over_weight():
+    result = run("trainer4/over_weight.toml")
+    assert not result.ok
+    found = codes(result)
+    assert ("max_takeoff_weight", "limit", "takeoff") in found
+    assert ("max_ramp_weight", "limit", "ramp") in found
+    takeoff = next(f for f in result.findings if f.code == "max_takeoff_weight")
+    assert takeoff.excess == pytest.approx(result.condition("takeoff").weight - 2450)
+
+
+def test_utility_category_aft_limit():
+    result = run("trainer4/utility_aft.toml")
+    assert result.category == "utility"
+    aft = [f for f in result.findings if f.code == "envelope" and f.condition == "takeoff"]
+    assert aft and aft[0].side == "aft" and aft[0].excess == pytest.approx(result.condition("takeoff").arm - 40.4)
+    # the same loading in the normal category is within limits
+    inputs = load_check_inputs(sample("trainer4/utility_aft.toml"), category="normal")
+    assert check_loading(inputs.aircraft, inputs.loading).ok
+
+
+def test_baggage_group_limit():
+    result = run("trainer4/baggage_group.toml")
+    assert codes(result) == [("group_max", "limit", None)]
+    assert result.findings[0].excess == pytest.approx(15.0)
+
+
+def test_minimum_front_seat_weight():
+    result = run("tandem2/light_solo.toml")
+    assert codes(result) == [("station_min", "limit", None)]
+    assert result.findings[0].excess == pytest.approx(55 - 115 * 0.45359237)
+
+
+def test_aft_heavy_then_ballast():
+    heavy = run("tandem2/aft_heavy.toml")
+    assert not heavy.ok and {f.side for f in heavy.findings if f.code == "envelope"} == {"aft"}
+    assert run("tandem2/aft_ballast.toml").ok
+
+
+def test_non_convex_burn_path_leaves_between_inside_ends():
+    result = run("twin6/leaves_path.toml")
+    takeoff, landing = result.condition("takeoff"), result.condition("landing")
+    assert takeoff.ok and landing.ok
+    assert not result.burn_path.ok and not result.ok
+    leave = result.burn_path.leaves_at
+    assert leave is not None
+    # it leaves on the forward limit just above the 5,000 lb corner (86.0 in there)
+    assert 5000.0 < leave.weight < takeoff.weight
+    assert leave.arm == pytest.approx(86.0, abs=0.01)
+    assert leave.fuel_burned == pytest.approx(takeoff.weight - leave.weight)
+    assert [f.code for f in result.findings] == ["burn_path"]
+
+
+def test_only_zero_fuel_weight_fails():
+    result = run("twin6/zero_fuel_heavy.toml")
+    assert [c.condition for c in result.conditions if not c.ok] == ["zero_fuel"]
+    assert codes(result) == [("max_zero_fuel_weight", "limit", "zero_fuel")]
+    assert not result.ok
+
+
+def test_zero_fuel_cg_is_a_warning_unless_the_file_says_limit():
+    warned = run("tandem2/aft_ballast.toml")
+    assert warned.ok
+    assert codes(warned) == [("envelope", "warning", "zero_fuel")]
+    assert not warned.condition("zero_fuel").ok
+    data = sample_data("tandem2/aircraft.toml")
+    data["limits"]["zero_fuel_cg"] = "limit"
+    aircraft = parse_aircraft(data)
+    inputs = load_check_inputs(sample("tandem2/aft_ballast.toml"))
+    strict = check_loading(aircraft, inputs.loading)
+    assert not strict.ok and codes(strict) == [("envelope", "limit", "zero_fuel")]
+
+
+def test_ok_false_exactly_when_a_limit_finding_exists():
+    for name in ["trainer4/within.toml", "trainer4/over_weight.toml", "tandem2/aft_ballast.toml",
+                 "twin6/leaves_path.toml", "twin6/zero_fuel_heavy.toml"]:
+        result = run(name)
+        assert result.ok == (not any(f.severity == "limit" for f in result.findings))
+
+
+def test_sequential_burn_empties_tanks_in_order(twin):
+    loading = Loading(load={"row1": 380}, fuel={"mains": 100, "aux": 40}, burn={"taxi": 2, "trip": 50, "order": ["aux", "mains"]})
+    result = check_loading(twin, loading)
+    assert result.condition("landing").fuel == pytest.approx(88.0)
+    # the aux tank (aft, 104 in) empties first: landing moment has only mains fuel left
+    landing = result.condition("landing")
+    expected_fuel_moment = 88.0 * 6.0 * 95.0
+    payload = 3680 * 84.5 + 380 * 88
+    assert landing.moment == pytest.approx(payload + expected_fuel_moment)
+
+
+def test_together_burn_is_proportional(twin):
+    loading = Loading(load={"row1": 380}, fuel={"mains": 100, "aux": 40}, burn={"trip": 70})
+    landing = check_loading(twin, loading).condition("landing")
+    # half of each tank is left
+    assert landing.moment == pytest.approx(3680 * 84.5 + 380 * 88 + 50 * 6 * 95 + 20 * 6 * 104)
+
+
+def test_trip_time_and_rate(tandem):
+    loading = Loading(load={"front": 80}, fuel={"wing": "full"}, burn={"trip_time": "1:30", "rate": 20})
+    assert check_loading(tandem, loading).condition("landing").fuel == pytest.approx(50.0)
+
+
+def test_fuel_as_mass_and_level(trainer):
+    loading = Loading(load={"front": 200}, fuel={"mains": "120 lb"})
+    assert check_loading(trainer, loading).condition("ramp").fuel == pytest.approx(20.0)
+    loading = Loading(load={"front": 200}, fuel={"mains": "tabs"})
+    assert check_loading(trainer, loading).condition("ramp").fuel == pytest.approx(34.0)
+
+
+def test_reserve_warning(trainer):
+    loading = Loading(load={"front": 200}, fuel={"mains": 20}, burn={"trip": 15, "reserve": 8})
+    result = check_loading(trainer, loading)
+    assert result.ok and ("reserve", "warning", "landing") in codes(result)
+
+
+def test_ramp_may_exceed_envelope_top_up_to_max_ramp(trainer):
+    # ramp weight between max takeoff (2,450) and max ramp (2,457): ramp is within limits
+    loading = Loading(load={"front": 340, "rear": 130}, fuel={"mains": "full"}, burn={"taxi": 1.2, "trip": 10})
+    result = check_loading(trainer, loading)
+    ramp = result.condition("ramp")
+    assert 2450 < ramp.weight <= 2457
+    assert ramp.ok
+
+
+@pytest.mark.parametrize(
+    "loading, error, words",
+    [
+        (Loading(load={"frnt": 100}), UnknownNameError, "unknown station 'frnt'"),
+        (Loading(fuel={"aux": 10}), UnknownNameError, "unknown tank 'aux'"),
+        (Loading(fuel={"mains": "brim"}), UnknownNameError, "unknown fill level 'brim'"),
+        (Loading(category="acrobatic"), UnknownNameError, "one of normal, utility"),
+        (Loading(fuel={"mains": 51}), InputError, "above the tank's usable capacity"),
+        (Loading(fuel={"mains": 10}, burn={"trip": 20}), InputError, "exceed the fuel"),
+    ],
+)
+def test_loading_errors(trainer, loading, error, words):
+    with pytest.raises(error, match=words):
+        check_loading(trainer, loading)
+
+
+def test_loading_syntax_errors():
+    with pytest.raises(ValueError, match="negative"):
+        Loading(load={"front": -1})
+    with pytest.raises(ValueError):
+        Loading(load={"front": float("nan")})
+    with pytest.raises(ValueError, match="expected a mass"):
+        Loading(load={"front": "3 usgal"})
+    with pytest.raises(ValueError, match="trip_time needs rate"):
+        Loading(burn={"trip_time": "1:00"})
+
+
+def test_untold_tank_is_taken_as_empty_with_a_warning(twin):
+    result = check_loading(twin, Loading(load={"row1": 300}, fuel={"mains": 50}))
+    assert any(f.code == "assumption" and "aux" in f.message for f in result.findings)
+
+
+def test_margins_on_simple_box():
+    aircraft = simple_aircraft()
+    result = check_loading(aircraft, Loading(load={"front": 200}))
+    ramp = result.condition("ramp")
+    assert ramp.margins.forward == pytest.approx(ramp.arm - 35.0)
+    assert ramp.margins.aft == pytest.approx(48.0 - ramp.arm)
+    assert ramp.margins.weight == pytest.approx(2000.0 - ramp.weight)

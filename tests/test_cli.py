@@ -1,0 +1,217 @@
+"""The command line through typer's CliRunner: exit codes, JSON fields, bad input."""
+
+from __future__ import annotations
+
+import json
+import shutil
+import subprocess
+import sys
+from pathlib import Path
+
+import pytest
+from typer.testing import CliRunner
+
+from loadcheck.caution import PILOT_CAUTION
+from loadcheck.cli import app
+
+from .helpers import sample
+
+runner = CliRunner()
+TRAINER = str(sample("trainer4/aircraft.toml"))
+
+
+def invoke(*args: str):
+    return runner.invoke(app, list(args))
+
+
+def test_check_within_limits_prints_tables_and_caution():
+    result = invoke("check", TRAINER, str(sample("trainer4/within.toml")))
+    assert result.exit_code == 0, result.output
+    assert "WITHIN LIMITS" in result.output
+    assert "2,413.9" in result.output  # takeoff weight
+    assert "CAUTION" in result.output and "pilot in command" in result.output
+
+
+def test_loading_file_alone_names_its_aircraft():
+    result = invoke("check", str(sample("twin6/leaves_path.toml")))
+    assert result.exit_code == 1
+    assert "leaves the envelope" in result.output
+
+
+def test_json_fields_follow_design():
+    result = invoke("check", str(sample("twin6/leaves_path.toml")), "--json")
+    assert result.exit_code == 1
+    data = json.loads(result.stdout)
+    assert set(data) >= {"ok", "category", "items", "conditions", "burn_path", "findings", "units", "caution"}
+    assert data["ok"] is False and data["category"] == "normal"
+    assert {"name", "weight", "arm", "moment"} <= set(data["items"][0])
+    assert [c["condition"] for c in data["conditions"]] == ["ramp", "takeoff", "landing", "zero_fuel"]
+    for condition in data["conditions"]:
+        assert {"condition", "weight", "arm", "moment", "mac_percent", "ok"} <= set(condition)
+    leave = data["burn_path"]["leaves_at"]
+    assert data["burn_path"]["ok"] is False
+    assert {"fuel_burned", "fuel_remaining", "weight", "arm"} <= set(leave)
+    assert {"code", "severity", "message"} <= set(data["findings"][0])
+    assert data["units"]["mass"] == "lb"
+    assert data["caution"] == PILOT_CAUTION
+
+
+def test_options_alone_and_on_top_of_a_file():
+    result = invoke("check", TRAINER, "--load", "front=340", "--load", "rear=150", "--fuel", "mains=tabs",
+                    "--taxi", "1.2", "--trip", "18", "--json")
+    assert result.exit_code == 0, result.output
+    data = json.loads(result.stdout)
+    assert data["conditions"][0]["fuel"] == 34.0
+    over = invoke("check", TRAINER, str(sample("trainer4/within.toml")), "--load", "rear=400", "--json")
+    assert over.exit_code == 1
+    assert any(f["code"] == "max_takeoff_weight" for f in json.loads(over.stdout)["findings"])
+
+
+def test_category_option():
+    result = invoke("check", TRAINER, str(sample("trainer4/utility_aft.toml")), "--category", "normal", "--json")
+    assert result.exit_code == 0
+    assert json.loads(result.stdout)["category"] == "normal"
+
+
+def test_trip_time_rate_order_reserve_options():
+    result = invoke("check", str(sample("twin6/aircraft.toml")), "--load", "row1=380", "--fuel", "mains=full",
+                    "--fuel", "aux=40", "--trip-time", "1:30", "--rate", "30", "--order", "aux,mains",
+                    "--reserve", "100", "--json")
+    data = json.loads(result.stdout)
+    assert result.exit_code == 0
+    assert data["conditions"][2]["fuel"] == pytest.approx(95.0)
+    assert any(f["code"] == "reserve" for f in data["findings"])
+
+
+def _bad(tmp_path: Path, text: str | bytes, name: str = "aircraft.toml") -> str:
+    path = tmp_path / name
+    if isinstance(text, bytes):
+        path.write_bytes(text)
+    else:
+        path.write_text(text)
+    return str(path)
+
+
+def _assert_input_error(result, *words: str):
+    assert result.exit_code == 2, result.output
+    assert "Traceback" not in result.output
+    for word in words:
+        assert word in result.output, result.output
+
+
+def test_missing_file():
+    _assert_input_error(invoke("check", "no/such/file.toml"), "no/such/file.toml", "not found")
+
+
+def test_toml_syntax_error_gives_the_line(tmp_path):
+    path = _bad(tmp_path, 'format = 1\nname = "x"\n[units\nmass = "lb"\n')
+    _assert_input_error(invoke("check", path), "aircraft.toml", "TOML syntax error", "line 3")
+
+
+def test_unknown_station_lists_the_known_ones():
+    _assert_input_error(invoke("check", TRAINER, "--load", "frnt=100"), "frnt", "front, rear, bag1, bag2")
+
+
+@pytest.mark.parametrize("value", ["-20", "nan", "inf"])
+def test_negative_or_nan_weight(value):
+    _assert_input_error(invoke("check", TRAINER, "--load", f"front={value}"), "load.front", value)
+
+
+def test_negative_weight_in_a_file(tmp_path):
+    text = Path(sample("trainer4/within.toml")).read_text().replace("front = 340", "front = -340")
+    text = text.replace('aircraft = "aircraft.toml"', f'aircraft = "{TRAINER}"')
+    _assert_input_error(invoke("check", _bad(tmp_path, text, "loading.toml")), "loading.toml", "load.front", "-340")
+
+
+def test_unknown_unit(tmp_path):
+    text = Path(TRAINER).read_text().replace('mass = "lb"', 'mass = "lbm"')
+    _assert_input_error(invoke("check", _bad(tmp_path, text)), "aircraft.toml", "units.mass", "lbm")
+    _assert_input_error(invoke("check", TRAINER, "--load", "front=20 kgs x"), "load.front")
+
+
+def test_self_intersecting_envelope(tmp_path):
+    text = Path(TRAINER).read_text().replace(
+        "points = [[35.5, 1500], [35.5, 1900], [39.0, 2450], [47.0, 2450], [47.0, 1500]]",
+        "points = [[35.5, 1500], [47.0, 2450], [47.0, 1500], [35.5, 2450]]",
+    )
+    _assert_input_error(invoke("check", _bad(tmp_path, text)), "envelope[0]", "Self-intersection")
+
+
+def test_degenerate_envelope(tmp_path):
+    text = Path(TRAINER).read_text().replace(
+        "points = [[35.5, 1500], [35.5, 1900], [39.0, 2450], [47.0, 2450], [47.0, 1500]]",
+        "points = [[35.5, 1500], [40.0, 2000], [44.5, 2500]]",
+    )
+    _assert_input_error(invoke("check", _bad(tmp_path, text)), "envelope[0]", "not usable")
+
+
+def test_fuel_above_capacity():
+    _assert_input_error(invoke("check", TRAINER, "--fuel", "mains=55"), "fuel.mains", "usable capacity", "50")
+
+
+def test_unknown_category():
+    _assert_input_error(invoke("check", TRAINER, "--category", "aerobatic"), "category", "normal, utility")
+
+
+def test_unknown_fill_level():
+    _assert_input_error(invoke("check", TRAINER, "--fuel", "mains=brim"), "fuel.mains", "brim", "full, tabs")
+
+
+def test_binary_and_non_utf8_files(tmp_path):
+    _assert_input_error(invoke("check", _bad(tmp_path, b"\x00\x01\x02")), "binary")
+    _assert_input_error(invoke("check", _bad(tmp_path, b"name = '\xe9'\n")), "UTF-8")
+
+
+def test_empty_file(tmp_path):
+    _assert_input_error(invoke("check", _bad(tmp_path, "")), "aircraft.toml")
+
+
+def test_bad_assignment_syntax():
+    _assert_input_error(invoke("check", TRAINER, "--load", "front"), "--load", "NAME=VALUE")
+
+
+def test_validate_reports_everything(tmp_path):
+    text = Path(TRAINER).read_text().replace("weight = 1684.0", "weight = -1").replace("usable = 50.0", "usable = 0")
+    bad = _bad(tmp_path, text)
+    result = invoke("validate", TRAINER, str(sample("twin6/within.toml")), bad)
+    assert result.exit_code == 2
+    assert "empty.weight" in result.output and "tank[0].usable" in result.output
+    assert "ok: " in result.output
+
+
+def test_validate_all_samples():
+    files = sorted(str(p) for p in sample("").glob("*/*.toml"))
+    result = invoke("validate", *files)
+    assert result.exit_code == 0, result.output
+
+
+def test_schema_is_json_schema():
+    result = invoke("schema")
+    data = json.loads(result.stdout)
+    assert data["aircraft"]["title"] == "Aircraft" and "envelope" in data["aircraft"]["properties"]
+    assert json.loads(invoke("schema", "loading").stdout)["title"] == "Loading"
+
+
+def test_version_and_help():
+    assert invoke("--version").exit_code == 0
+    help_text = invoke("check", "--help").output
+    assert "Examples" in help_text and "--load" in help_text
+
+
+def test_python_dash_m_and_no_matplotlib_on_a_plain_check():
+    code = (
+        "import sys, runpy; sys.argv=['loadcheck','check',%r,'--load','front=300'];"
+        "import loadcheck.cli as c\n"
+        "try:\n c.main()\nexcept SystemExit as e:\n code=e.code\n"
+        "print('MPL' if 'matplotlib' in sys.modules else 'NOMPL', code)" % TRAINER
+    )
+    out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=False)
+    assert "NOMPL 0" in out.stdout, out.stdout + out.stderr
+    run = subprocess.run([sys.executable, "-m", "loadcheck", "--version"], capture_output=True, text=True, check=False)
+    assert run.returncode == 0 and "loadcheck" in run.stdout
+
+
+@pytest.mark.skipif(shutil.which("loadcheck") is None, reason="console script not installed")
+def test_console_script_exit_code_for_a_limit():
+    run = subprocess.run(["loadcheck", "check", str(sample("trainer4/over_weight.toml"))], capture_output=True, text=True, check=False)
+    assert run.returncode == 1

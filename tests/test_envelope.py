@@ -1,0 +1,115 @@
+"""Envelope geometry: inclusive limits, slices, and the exact burn-path test."""
+
+from __future__ import annotations
+
+import numpy as np
+import pytest
+
+from loadcheck.envelope import EnvelopeShape, PathPiece, path_excursions, polygon_problem
+
+SQUARE = [[35.0, 1000.0], [35.0, 2000.0], [48.0, 2000.0], [48.0, 1000.0]]
+# non-convex: forward limit 35 in to 1,500 lb, moves aft to 40 in at 1,800, then holds
+NOTCH = [[35.0, 1000.0], [35.0, 1500.0], [40.0, 1800.0], [40.0, 2000.0], [48.0, 2000.0], [48.0, 1000.0]]
+
+
+def arm_shape(points=SQUARE) -> EnvelopeShape:
+    return EnvelopeShape(("arm", "weight"), points)
+
+
+def covers(shape: EnvelopeShape, arm: float, weight: float) -> bool:
+    return bool(shape.covers(weight, arm * weight, 0.0))
+
+
+@pytest.mark.parametrize("arm, weight", SQUARE + [[35.0, 1500.0], [41.5, 2000.0], [48.0, 1234.5], [41.5, 1000.0]])
+def test_vertices_and_edges_are_inside(arm, weight):
+    assert covers(arm_shape(), arm, weight)
+
+
+@pytest.mark.parametrize("arm, weight", [[34.99, 1500.0], [48.01, 1500.0], [40.0, 2000.5], [40.0, 999.0]])
+def test_just_outside(arm, weight):
+    assert not covers(arm_shape(), arm, weight)
+
+
+def test_sloped_edge_point_inside_despite_rounding():
+    # a point computed on the sloped forward edge of the notch shape, through a moment
+    shape = arm_shape(NOTCH)
+    weight = 1650.0
+    arm = 35.0 + (weight - 1500.0) / 300.0 * 5.0
+    moment = arm * weight
+    assert bool(shape.covers(weight, moment, 0.0))
+    assert not bool(shape.covers(weight, (arm - 1e-5) * weight, 0.0))
+
+
+def test_polygon_problem_reasons():
+    assert polygon_problem(SQUARE) is None
+    assert "Self-intersection" in polygon_problem([[0, 0], [1, 1], [1, 0], [0, 1]])
+    assert polygon_problem([[0, 0], [1, 1], [2, 2]]) is not None
+    assert "three" in polygon_problem([[0, 0], [1, 1], [0, 0]])
+
+
+def test_slice_along_arm_and_weight():
+    shape = arm_shape(NOTCH)
+    assert shape.slice(1650.0, 40.0, 0.0, "arm") == [pytest.approx((37.5, 48.0))]
+    assert shape.slice(1000.0 - 1, 40.0, 0.0, "arm") == []
+    lo, hi = shape.slice(0.0, 42.0, 0.0, "weight")[0]
+    assert (lo, hi) == (pytest.approx(1000.0), pytest.approx(2000.0))
+    assert shape.slice(0.0, 37.5, 0.0, "weight")[0][1] == pytest.approx(1650.0)
+    # at arm 36 the weight range stops at the sloped forward limit
+    assert shape.slice(0.0, 36.0, 0.0, "weight")[0][1] == pytest.approx(1560.0)
+    assert shape.slice(1500.0, 40.0, 0.0, "lateral") is None
+
+
+def test_slice_on_moment_axes():
+    corners = [[a * w / 1000, w] for a, w in NOTCH]
+    shape = EnvelopeShape(("moment", "weight"), corners, moment_scale=1000)
+    # at 1,500 lb the forward limit is 35 in, in moment terms as well
+    lo, hi = shape.slice(1500.0, 40.0, 0.0, "arm")[0]
+    assert lo == pytest.approx(35.0) and hi == pytest.approx(48.0)
+
+
+def _straight_path(start: tuple[float, float], end: tuple[float, float]) -> PathPiece:
+    """A path from (arm, weight) to (arm, weight), straight in moment-weight space."""
+    (a0, w0), (a1, w1) = start, end
+    m0, m1 = a0 * w0, a1 * w1
+    return PathPiece(0.0, 1.0, np.array([w0, w1 - w0]), np.array([m0, m1 - m0, 0.0]), np.array([0.0, 0.0]))
+
+
+def test_path_cutting_a_non_convex_corner_is_caught():
+    shape = arm_shape(NOTCH)
+    # both ends inside; the straight line passes forward of the corner at (40, 1800)
+    piece = _straight_path((41.0, 1950.0), (36.0, 1400.0))
+    assert covers(shape, 41.0, 1950.0) and covers(shape, 36.0, 1400.0)
+    out = path_excursions([shape], [piece])
+    assert len(out) == 1
+    begin, end = out[0]
+    w, m, _ = piece.state(begin)
+    # it leaves on the vertical forward limit at 40 in
+    assert m / w == pytest.approx(40.0, abs=1e-9)
+    assert 0.0 < begin < end < 1.0
+
+
+def test_path_inside_a_convex_envelope_stays_inside():
+    assert path_excursions([arm_shape()], [_straight_path((36.0, 1100.0), (47.0, 1990.0))]) == []
+
+
+def test_path_along_an_edge_is_inside():
+    assert path_excursions([arm_shape()], [_straight_path((35.0, 1100.0), (35.0, 1990.0))]) == []
+
+
+def test_crossings_agree_with_dense_sampling():
+    rng = np.random.default_rng(7)
+    shape = arm_shape(NOTCH)
+    for _ in range(200):
+        a0, a1 = rng.uniform(33, 50, 2)
+        w0, w1 = rng.uniform(950, 2050, 2)
+        piece = _straight_path((a0, w0), (a1, w1))
+        out = path_excursions([shape], [piece])
+        u = np.linspace(0, 1, 4001)
+        w = w0 + (w1 - w0) * u
+        m = a0 * w0 + (a1 * w1 - a0 * w0) * u
+        inside = shape.covers(w, m, np.zeros_like(w))
+        for k in np.flatnonzero(~inside):
+            assert any(b - 1e-9 <= u[k] <= e + 1e-9 for b, e in out), (a0, w0, a1, w1, u[k])
+        for b, e in out:
+            mid = 0.5 * (b + e)
+            assert not bool(shape.covers(*piece.state(mid)))

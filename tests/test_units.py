@@ -1,0 +1,94 @@
+"""Units: exact constants checked against pint (a general-purpose unit library on PyPI,
+whose definitions follow NIST SP 811) and against the NIST SP 811 (2008) appendix B.8
+values themselves."""
+
+from __future__ import annotations
+
+import math
+
+import pint
+import pytest
+from hypothesis import given
+from hypothesis import strategies as st
+
+from loadcheck.errors import UnitError
+from loadcheck.units import (
+    KG_PER_LB,
+    L_PER_IMPGAL,
+    L_PER_USGAL,
+    MM_PER_IN,
+    Quantity,
+    canonical_unit,
+    convert,
+    parse_duration_hours,
+    parse_quantity,
+)
+
+ureg = pint.UnitRegistry()
+PINT_NAMES = {"lb": "pound", "kg": "kilogram", "in": "inch", "mm": "millimeter", "cm": "centimeter",
+              "m": "meter", "usgal": "gallon", "impgal": "imperial_gallon", "l": "liter"}
+
+
+def test_constants_are_the_exact_nist_values():
+    # NIST SP 811 (2008) appendix B.8: exact definitions
+    assert KG_PER_LB == 0.45359237
+    assert MM_PER_IN == 25.4
+    assert L_PER_USGAL == 3.785411784
+    assert L_PER_IMPGAL == 4.54609
+
+
+@pytest.mark.parametrize(
+    "a, b",
+    [("lb", "kg"), ("kg", "lb"), ("in", "mm"), ("mm", "in"), ("cm", "in"), ("m", "in"),
+     ("usgal", "l"), ("l", "usgal"), ("impgal", "l"), ("impgal", "usgal")],
+)
+def test_conversions_agree_with_pint(a, b):
+    expected = ureg.Quantity(123.456, PINT_NAMES[a]).to(PINT_NAMES[b]).magnitude
+    assert convert(123.456, a, b) == pytest.approx(expected, rel=1e-12)
+
+
+@given(st.floats(-1e6, 1e6, allow_nan=False), st.sampled_from(["lb", "kg"]), st.sampled_from(["lb", "kg"]))
+def test_mass_round_trip(value, a, b):
+    assert convert(convert(value, a, b), b, a) == pytest.approx(value, rel=1e-12, abs=1e-9)
+
+
+def test_convert_refuses_different_kinds():
+    with pytest.raises(UnitError, match="cannot convert"):
+        convert(1.0, "lb", "in")
+
+
+@pytest.mark.parametrize(
+    "text, expected",
+    [("20 kg", Quantity(20.0, "kg")), ("48usgal", Quantity(48.0, "usgal")), ("180", Quantity(180.0, None)),
+     (" 1.5e2 lbs ", Quantity(150.0, "lb")), ("40 L", Quantity(40.0, "l")), (12, Quantity(12.0, None)),
+     ("-3 in", Quantity(-3.0, "in"))],
+)
+def test_parse_quantity(text, expected):
+    assert parse_quantity(text) == expected
+
+
+@pytest.mark.parametrize("text", ["twenty kg", "20 kgg", "", "nan", "inf kg", "1e400 lb", "20 gal"])
+def test_parse_quantity_refuses(text):
+    with pytest.raises(UnitError):
+        parse_quantity(text)
+
+
+def test_bare_gallon_is_refused_as_ambiguous():
+    with pytest.raises(UnitError, match="known units"):
+        canonical_unit("gal")
+
+
+def test_parse_quantity_refuses_bool():
+    with pytest.raises(UnitError):
+        parse_quantity(True)
+
+
+@pytest.mark.parametrize("text, hours", [("2:15", 2.25), ("0:45", 0.75), ("1.5 h", 1.5), ("90 min", 1.5), (2, 2.0)])
+def test_durations(text, hours):
+    assert math.isclose(parse_duration_hours(text), hours)
+
+
+@pytest.mark.parametrize("text", ["2:75", "soon", "-1", -1.0])
+def test_bad_durations(text):
+    with pytest.raises(UnitError):
+        parse_duration_hours(text)
