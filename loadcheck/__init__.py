@@ -9,7 +9,7 @@ from __future__ import annotations
 
 __version__ = "0.1.0"
 
-from .aircraft import Aircraft, Envelope, EmptyWeight, Limits, Mac, Station, StationGroup, Tank, Units
+from .aircraft import Aircraft, EmptyWeight, Envelope, Limits, Mac, Station, StationGroup, Tank, Units
 from .caution import MECHANIC_CAUTION, PILOT_CAUTION
 from .check import check_loading
 from .errors import FileFormatError, InputError, LoadcheckError, UnitError, UnknownNameError
@@ -18,32 +18,32 @@ from .loading import Burn, Loading, ResolvedLoading, resolve_loading
 from .results import CheckResult, Condition, Finding
 
 __all__ = [
-    "__version__",
+    "MECHANIC_CAUTION",
+    "PILOT_CAUTION",
     "Aircraft",
-    "Envelope",
+    "Burn",
+    "CheckResult",
+    "Condition",
     "EmptyWeight",
+    "Envelope",
+    "FileFormatError",
+    "Finding",
+    "InputError",
     "Limits",
+    "LoadcheckError",
+    "Loading",
     "Mac",
+    "ResolvedLoading",
     "Station",
     "StationGroup",
     "Tank",
+    "UnitError",
     "Units",
-    "Burn",
-    "Loading",
-    "ResolvedLoading",
-    "resolve_loading",
+    "UnknownNameError",
+    "__version__",
     "check_loading",
     "load_aircraft",
-    "load_loading",
     "load_check_inputs",
-    "CheckResult",
-    "Condition",
-    "Finding",
-    "LoadcheckError",
-    "InputError",
-    "FileFormatError",
-    "UnitError",
-    "UnknownNameError",
-    "PILOT_CAUTION",
-    "MECHANIC_CAUTION",
+    "load_loading",
+    "resolve_loading",
 ]

@@ -32,17 +32,17 @@ from .fuel import FuelGrade, default_density
 from .units import ArmUnit, MassUnit, VolumeUnit, canonical_unit, convert, parse_quantity, unit_kind
 
 __all__ = [
-    "Units",
+    "Aircraft",
     "EmptyWeight",
+    "Envelope",
+    "HistoryEntry",
     "Limits",
     "Mac",
     "Station",
     "StationGroup",
-    "Tank",
-    "Envelope",
-    "Aircraft",
     "StationKind",
-    "HistoryEntry",
+    "Tank",
+    "Units",
 ]
 
 StationKind = Literal["seat", "baggage", "cargo", "ballast", "other"]
@@ -355,11 +355,12 @@ class Aircraft(_Model):
     def _cross_references(self) -> Aircraft:
         problems: list[str] = []
         seen: dict[str, str] = {}
-        for where, items in (("station", self.station), ("tank", self.tank)):
-            for index, item in enumerate(items):
-                if item.id in seen:
-                    problems.append(f"{where}[{index}].id: {item.id!r} is used twice (also a {seen[item.id]})")
-                seen[item.id] = where
+        named = [("station", index, s.id) for index, s in enumerate(self.station)]
+        named += [("tank", index, t.id) for index, t in enumerate(self.tank)]
+        for where, index, name in named:
+            if name in seen:
+                problems.append(f"{where}[{index}].id: {name!r} is used twice (also a {seen[name]})")
+            seen[name] = where
         stations = {s.id for s in self.station}
         for index, group in enumerate(self.station_group):
             for name in group.stations:
@@ -367,8 +368,8 @@ class Aircraft(_Model):
                     known = ", ".join(sorted(stations)) or "none"
                     problems.append(f"station_group[{index}].stations: unknown station {name!r} (known: {known})")
         has_lateral = self.empty.lateral_arm is not None or any(
-            item.lateral_arm is not None for item in [*self.station, *self.tank]
-        )
+            s.lateral_arm is not None for s in self.station
+        ) or any(t.lateral_arm is not None for t in self.tank)
         for index, envelope in enumerate(self.envelope):
             if "mac" in envelope.axes and self.mac is None:
                 problems.append(f"envelope[{index}].axes: a 'mac' axis needs the aircraft's [mac] table")

@@ -19,7 +19,7 @@ from .aircraft import Aircraft
 from .envelope import PathPiece
 from .loading import ResolvedLoading
 
-__all__ = ["MassState", "MomentItem", "moment_items", "payload_state", "fuel_state", "condition_states", "burn_pieces"]
+__all__ = ["MassState", "MomentItem", "burn_pieces", "condition_states", "fuel_state", "moment_items", "payload_state"]
 
 CONDITIONS = ("ramp", "takeoff", "landing", "zero_fuel")
 

@@ -2,7 +2,7 @@
 
 from __future__ import annotations
 
-__all__ = ["PILOT_CAUTION", "MECHANIC_CAUTION"]
+__all__ = ["MECHANIC_CAUTION", "PILOT_CAUTION"]
 
 PILOT_CAUTION = (
     "Advisory computation only. The aircraft's approved flight manual and its current "

@@ -20,7 +20,7 @@ from .aircraft import Aircraft
 from .balance import CONDITIONS, MassState, burn_pieces, condition_states, fuel_state, moment_items, payload_state
 from .caution import PILOT_CAUTION
 from .display import fmt
-from .envelope import EnvelopeShape, path_excursions
+from .envelope import EnvelopeShape, Vary, path_excursions
 from .loading import Loading, ResolvedLoading, resolve_loading
 from .results import (
     AircraftInfo,
@@ -37,7 +37,7 @@ from .results import (
     UnitsInfo,
 )
 
-__all__ = ["check_loading", "WEIGHT_TOLERANCE"]
+__all__ = ["WEIGHT_TOLERANCE", "check_loading"]
 
 WEIGHT_TOLERANCE = 1e-9
 """A weight equal to its limit within this fraction of the limit is within the limit."""
@@ -277,7 +277,7 @@ def _outside_finding(
     weight, arm, lateral = state.weight, state.arm, state.lateral_arm
     cg, value = ("lateral CG", lateral) if shape.is_lateral else ("CG", arm)
     sides = ("left", "right") if shape.is_lateral else ("forward", "aft")
-    vary = "lateral" if shape.is_lateral else "arm"
+    vary: Vary = "lateral" if shape.is_lateral else "arm"
 
     def across(at_weight: float) -> tuple[str, float, float] | None:
         intervals = shape.slice(at_weight, arm, lateral, vary)
@@ -295,7 +295,10 @@ def _outside_finding(
         return "outside", abs(value - nearest), nearest
 
     band = shape.weight_range
-    side, excess, limit, unit = "outside", None, None, None
+    side: str = "outside"
+    excess: float | None = None
+    limit: float | None = None
+    unit: str | None = None
     text = ""
     if band is not None and not band[0] <= weight <= band[1]:
         edge = band[1] if weight > band[1] else band[0]
@@ -348,7 +351,7 @@ def _burn_path(
     findings: list[Finding],
 ) -> BurnPath:
     start, end = resolved.taxi, resolved.taxi + resolved.trip
-    takeoff, landing = conditions[1], conditions[2]
+    takeoff = conditions[1]
     takeoff_in = not any(f.code == "envelope" and f.condition == "takeoff" for f in findings)
     landing_in = not any(f.code == "envelope" and f.condition == "landing" for f in findings)
     if end <= start:

@@ -155,7 +155,7 @@ def check(
         _console(stderr=True).print(f"note: {note}", markup=False)
     result = check_loading(inputs.aircraft, inputs.loading)
     if json_out:
-        typer.echo(result.model_dump_json(indent=2, exclude_none=True))
+        typer.echo(result.to_json())
     else:
         from .render.terminal import render_check
 
@@ -217,4 +217,4 @@ def main() -> None:
 
 
 if __name__ == "__main__":  # pragma: no cover
-    sys.exit(main())
+    main()

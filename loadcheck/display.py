@@ -12,7 +12,7 @@ from __future__ import annotations
 import math
 from typing import Literal
 
-__all__ = ["DECIMALS", "decimals", "round_safe", "fmt"]
+__all__ = ["DECIMALS", "decimals", "fmt", "round_safe"]
 
 Direction = Literal["nearest", "up", "down"]
 

@@ -41,12 +41,13 @@ if TYPE_CHECKING:
     from .aircraft import Mac
 
 __all__ = [
-    "Axis",
     "TOLERANCE",
+    "Axis",
     "EnvelopeShape",
     "PathPiece",
-    "polygon_problem",
+    "Vary",
     "path_excursions",
+    "polygon_problem",
 ]
 
 Axis = Literal["arm", "moment", "mac", "lateral_arm", "weight"]
@@ -290,7 +291,7 @@ class PathPiece:
     weight, moment, lateral : polynomial coefficients in u = (burned - start) / (end - start)
     """
 
-    __slots__ = ("start", "end", "weight", "moment", "lateral")
+    __slots__ = ("end", "lateral", "moment", "start", "weight")
 
     def __init__(self, start: float, end: float, weight: np.ndarray, moment: np.ndarray, lateral: np.ndarray):
         self.start, self.end = start, end

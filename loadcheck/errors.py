@@ -12,10 +12,10 @@ from pathlib import Path
 from typing import Any
 
 __all__ = [
+    "FileFormatError",
+    "InputError",
     "LoadcheckError",
     "Problem",
-    "InputError",
-    "FileFormatError",
     "UnitError",
     "UnknownNameError",
 ]

@@ -14,9 +14,9 @@ from __future__ import annotations
 
 import os
 import tempfile
-from dataclasses import dataclass, field
 import tomllib
 from collections.abc import Mapping
+from dataclasses import dataclass, field
 from pathlib import Path
 from typing import Any
 
@@ -28,18 +28,18 @@ from .loading import Loading, ResolvedLoading, apply_overrides, resolve_loading
 
 __all__ = [
     "MAX_FILE_BYTES",
-    "read_toml",
-    "read_text",
+    "CheckInputs",
+    "file_kind",
     "load_aircraft",
-    "parse_aircraft",
+    "load_check_inputs",
     "load_loading",
+    "parse_aircraft",
     "parse_loading",
     "problems_from_validation",
-    "write_atomic",
-    "file_kind",
-    "CheckInputs",
-    "load_check_inputs",
+    "read_text",
+    "read_toml",
     "validate_file",
+    "write_atomic",
 ]
 
 MAX_FILE_BYTES = 5 * 1024 * 1024

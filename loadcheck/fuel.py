@@ -13,7 +13,7 @@ from typing import Literal
 
 from .units import convert
 
-__all__ = ["FuelGrade", "FUEL_DENSITY_LB_PER_USGAL", "default_density"]
+__all__ = ["FUEL_DENSITY_LB_PER_USGAL", "FuelGrade", "default_density"]
 
 FuelGrade = Literal["avgas", "mogas", "jet"]
 

@@ -22,7 +22,7 @@ from .aircraft import Aircraft
 from .errors import InputError, Problem, UnknownNameError
 from .units import Quantity, convert, parse_duration_hours, parse_quantity, unit_kind
 
-__all__ = ["Burn", "Loading", "ResolvedLoading", "BurnPlan", "resolve_loading", "apply_overrides"]
+__all__ = ["Burn", "BurnPlan", "Loading", "ResolvedLoading", "apply_overrides", "resolve_loading"]
 
 Amount = Annotated[float | str, Field(union_mode="left_to_right")]
 """A number in the aircraft's unit, or a string with a unit (``"20 kg"``)."""
@@ -48,7 +48,7 @@ def _fuel_amount(value: Any) -> Any:
 
 def _fuel_start(value: Any) -> Any:
     """A tank's fuel at engine start: an amount, ``full`` or a fill-level name."""
-    if isinstance(value, str) and value.strip() and not value.strip()[0] in "0123456789.+-":
+    if isinstance(value, str) and value.strip() and value.strip()[0] not in "0123456789.+-":
         return value.strip()  # 'full' or a level name, looked up against the tank later
     return _fuel_amount(value)
 

@@ -1,49 +1,82 @@
-"""Result models of a loading check (the JSON fields of DESIGN.md, "Results")."""
+"""Result models of a loading check (the JSON fields of DESIGN.md, "Results").
+
+Results are frozen dataclasses rather than pydantic models: they are built by our own
+code from validated inputs, so they need no validation, and plain dataclasses keep the
+start-up of a command-line check within its budget (benchmarks/startup.py).
+:meth:`Result.to_dict` gives the JSON form, leaving out fields that are None.
+"""
 
 from __future__ import annotations
 
-from typing import Literal
-
-from pydantic import BaseModel, ConfigDict, Field
+import json
+from dataclasses import dataclass, field, fields
+from typing import Any, Literal
 
 __all__ = [
-    "ConditionName",
-    "Severity",
-    "Item",
-    "Margins",
-    "Condition",
-    "LeavePoint",
-    "Excursion",
-    "BurnPath",
-    "Finding",
     "AircraftInfo",
-    "UnitsInfo",
+    "BurnPath",
     "CheckResult",
+    "Condition",
+    "ConditionName",
+    "Excursion",
+    "Finding",
+    "Item",
+    "LeavePoint",
+    "Margins",
+    "Severity",
+    "UnitsInfo",
 ]
 
 ConditionName = Literal["ramp", "takeoff", "landing", "zero_fuel"]
 Severity = Literal["limit", "warning"]
 
 
-class _Result(BaseModel):
-    model_config = ConfigDict(frozen=True)
+class Result:
+    """Base of the result dataclasses: JSON conversion."""
+
+    def to_dict(self) -> dict[str, Any]:
+        """The result as JSON-ready data; fields that are None are left out."""
+        return {f.name: _plain(getattr(self, f.name)) for f in fields(self)  # type: ignore[arg-type]
+                if getattr(self, f.name) is not None}
+
+    def to_json(self, indent: int | None = 2) -> str:
+        """The result as a JSON document."""
+        return json.dumps(self.to_dict(), indent=indent)
 
 
-class Item(_Result):
-    """One line of the moment table."""
+def _plain(value: Any) -> Any:
+    if isinstance(value, Result):
+        return value.to_dict()
+    if isinstance(value, list):
+        return [_plain(v) for v in value]
+    return value
+
+
+
+
+@dataclass(frozen=True, kw_only=True, slots=True)
+class Item(Result):
+    """One line of the moment table.
+
+    Attributes: weight [mass unit]; arm [arm unit, aft of datum]; moment [mass unit *
+    arm unit]; lateral_arm [arm unit, + right] and lateral_moment where the aircraft
+    limits the lateral CG; fuel_volume [fuel volume unit] for fuel lines; kind is one of
+    empty, seat, baggage, cargo, ballast, other, fuel.
+    """
 
     id: str
     name: str
-    kind: str = Field(description="empty, seat, baggage, cargo, ballast, other or fuel")
-    weight: float = Field(description="[mass unit]")
-    arm: float = Field(description="[arm unit]")
-    moment: float = Field(description="[mass unit * arm unit]")
-    lateral_arm: float | None = Field(None, description="[arm unit], + right")
-    lateral_moment: float | None = Field(None, description="[mass unit * arm unit]")
-    fuel_volume: float | None = Field(None, description="fuel only [fuel volume unit]")
+    kind: str
+    weight: float
+    arm: float
+    moment: float
+    lateral_arm: float | None = None
+    lateral_moment: float | None = None
+    fuel_volume: float | None = None
 
 
-class Margins(_Result):
+@dataclass(frozen=True, kw_only=True, slots=True)
+class Margins(Result):
     """Room left to each limit at a condition; negative where the limit is exceeded.
 
     forward/aft: CG to the forward/aft limit at this weight [arm unit]; left/right: lateral
@@ -58,65 +91,90 @@ class Margins(_Result):
     weight: float | None = None
 
 
-class Condition(_Result):
-    """One of ramp, takeoff, landing, zero fuel."""
+@dataclass(frozen=True, kw_only=True, slots=True)
+class Condition(Result):
+    """One of ramp, takeoff, landing, zero fuel.
+
+    Attributes: weight [mass unit]; arm = CG [arm unit]; moment [mass unit * arm unit];
+    lateral_arm [arm unit, + right]; mac_percent [% MAC]; fuel [fuel volume unit] and
+    fuel_weight [mass unit] on board; max_weight, the weight limit in force [mass unit];
+    ok, inside the envelope and the weight limits.
+    """
 
     condition: ConditionName
-    weight: float = Field(description="[mass unit]")
-    arm: float = Field(description="CG [arm unit]")
-    moment: float = Field(description="[mass unit * arm unit]")
-    lateral_arm: float | None = Field(None, description="lateral CG [arm unit], + right")
+    weight: float
+    arm: float
+    moment: float
+    lateral_arm: float | None = None
     lateral_moment: float | None = None
-    mac_percent: float | None = Field(None, description="CG in percent of MAC")
-    fuel: float = Field(description="fuel on board [fuel volume unit]")
-    fuel_weight: float = Field(description="fuel on board [mass unit]")
-    max_weight: float | None = Field(None, description="the weight limit that applies [mass unit]")
-    ok: bool = Field(description="inside the envelope and the weight limits")
+    mac_percent: float | None = None
+    fuel: float
+    fuel_weight: float
+    max_weight: float | None = None
+    ok: bool
     margins: Margins
 
 
-class LeavePoint(_Result):
-    """Where the fuel-burn path first leaves the envelope."""
+@dataclass(frozen=True, kw_only=True, slots=True)
+class LeavePoint(Result):
+    """Where the fuel-burn path first leaves the envelope.
 
-    fuel_burned: float = Field(description="fuel burned since takeoff [mass unit]")
-    fuel_remaining: float = Field(description="fuel on board [mass unit]")
-    weight: float = Field(description="[mass unit]")
-    arm: float = Field(description="[arm unit]")
+    Attributes: fuel_burned since takeoff and fuel_remaining on board [mass unit];
+    weight [mass unit]; arm [arm unit]; the same fuel amounts as volumes
+    [fuel volume unit].
+    """
+
+    fuel_burned: float
+    fuel_remaining: float
+    weight: float
+    arm: float
     lateral_arm: float | None = None
-    fuel_burned_volume: float = Field(description="[fuel volume unit]")
-    fuel_remaining_volume: float = Field(description="[fuel volume unit]")
+    fuel_burned_volume: float
+    fuel_remaining_volume: float
 
 
-class Excursion(_Result):
-    """A stretch of the burn path outside the envelope."""
+@dataclass(frozen=True, kw_only=True, slots=True)
+class Excursion(Result):
+    """A stretch of the burn path outside the envelope: fuel burned since takeoff where it
+    leaves and where it returns [mass unit]."""
 
-    from_burned: float = Field(description="fuel burned since takeoff where it leaves [mass unit]")
-    to_burned: float = Field(description="fuel burned since takeoff where it returns [mass unit]")
+    from_burned: float
+    to_burned: float
 
 
-class BurnPath(_Result):
+@dataclass(frozen=True, kw_only=True, slots=True)
+class BurnPath(Result):
     """The fuel-burn path from takeoff to landing."""
 
     ok: bool
     leaves_at: LeavePoint | None = None
-    excursions: list[Excursion] = Field(default_factory=list)
+    excursions: list[Excursion] = field(default_factory=list)
 
 
-class Finding(_Result):
-    """A limit exceeded (severity ``limit``) or something to note (``warning``)."""
+@dataclass(frozen=True, kw_only=True, slots=True)
+class Finding(Result):
+    """A limit exceeded (severity ``limit``) or something to note (``warning``).
+
+    Attributes: code (max_takeoff_weight, envelope, burn_path, station_max, group_min,
+    reserve, assumption, ...); condition where it applies; message in plain words;
+    excess, by how much, in ``unit``; limit, the limit's value in ``unit``; side
+    (forward, aft, left, right, above, below, outside); subject, the station, group or
+    envelope concerned.
+    """
 
     code: str
     severity: Severity
     condition: ConditionName | None = None
     message: str
-    excess: float | None = Field(None, description="by how much, in ``unit``")
+    excess: float | None = None
     unit: str | None = None
-    limit: float | None = Field(None, description="the limit's value, in ``unit`` where it is a mass")
-    side: str | None = Field(None, description="forward, aft, left, right, above, below or outside")
-    subject: str | None = Field(None, description="the station, group or envelope concerned")
+    limit: float | None = None
+    side: str | None = None
+    subject: str | None = None
 
 
-class AircraftInfo(_Result):
+@dataclass(frozen=True, kw_only=True, slots=True)
+class AircraftInfo(Result):
     """Which aircraft data was used."""
 
     name: str
@@ -125,7 +183,8 @@ class AircraftInfo(_Result):
     empty_weight_date: str | None = None
 
 
-class UnitsInfo(_Result):
+@dataclass(frozen=True, kw_only=True, slots=True)
+class UnitsInfo(Result):
     """Units of every number in the result."""
 
     mass: str
@@ -134,10 +193,11 @@ class UnitsInfo(_Result):
     moment: str
 
 
-class CheckResult(_Result):
+@dataclass(frozen=True, kw_only=True, slots=True)
+class CheckResult(Result):
     """The answer to "is this loading within limits?" (DESIGN.md, "Results")."""
 
-    ok: bool = Field(description="true only when no finding has severity 'limit'")
+    ok: bool
     category: str
     aircraft: AircraftInfo
     items: list[Item]

@@ -21,22 +21,22 @@ from typing import Literal
 from .errors import UnitError
 
 __all__ = [
-    "MassUnit",
-    "ArmUnit",
-    "VolumeUnit",
-    "Quantity",
-    "KG_PER_LB",
-    "MM_PER_IN",
-    "L_PER_USGAL",
-    "L_PER_IMPGAL",
-    "MASS_UNITS",
     "ARM_UNITS",
+    "KG_PER_LB",
+    "L_PER_IMPGAL",
+    "L_PER_USGAL",
+    "MASS_UNITS",
+    "MM_PER_IN",
     "VOLUME_UNITS",
-    "parse_quantity",
-    "convert",
-    "unit_kind",
+    "ArmUnit",
+    "MassUnit",
+    "Quantity",
+    "VolumeUnit",
     "canonical_unit",
+    "convert",
     "parse_duration_hours",
+    "parse_quantity",
+    "unit_kind",
 ]
 
 MassUnit = Literal["lb", "kg"]

@@ -6,9 +6,8 @@ import pytest
 
 from loadcheck import check_loading, load_check_inputs
 from loadcheck.errors import InputError, UnknownNameError
-from loadcheck.loading import Loading
-
 from loadcheck.files import parse_aircraft
+from loadcheck.loading import Loading
 
 from .helpers import sample, sample_data, simple_aircraft
 

@@ -15,7 +15,7 @@ from rich.text import Text
 from ..display import fmt
 from ..results import CheckResult, Condition
 
-__all__ = ["render_check", "caution_text"]
+__all__ = ["caution_text", "render_check"]
 
 _NAMES = {"ramp": "Ramp", "takeoff": "Takeoff", "landing": "Landing", "zero_fuel": "Zero fuel"}
 _OK_STYLE, _LIMIT_STYLE, _WARN_STYLE = "bold green", "bold red", "bold yellow"
