@@ -201,7 +201,8 @@ def _condition(
         tested = _envelope_state(shape, name, state)
         if not shape.covers(tested.weight, tested.moment, tested.lateral_moment):
             ok = False
-            label = envelope.label or f"the {resolved.category}-category envelope"
+            label = f"the {envelope.label or resolved.category + '-category'} envelope"
+            label = label.replace("envelope envelope", "envelope")
             findings.append(_outside_finding(aircraft, shape, label, name, tested, severity))
 
     fuel_mass = sum(q * resolved.density[t] for t, q in quantities.items())
@@ -251,7 +252,7 @@ def _margins(shapes: Sequence[EnvelopeShape], name: str, state: MassState, weigh
                 lo, hi = _pick(along, arm)
                 keep("forward", arm - lo)
                 keep("aft", hi - arm)
-        if name != "ramp":
+        if name != "ramp" and not shape.is_lateral:
             heights = shape.slice(weight, arm, lateral, "weight")
             if heights:
                 keep("weight", _pick(heights, weight)[1] - weight)

@@ -47,7 +47,7 @@ F = TypeVar("F", bound=Callable[..., Any])
 def _console(stderr: bool = False) -> Console:
     console = Console(stderr=stderr, highlight=False)
     if not console.is_terminal:
-        console = Console(stderr=stderr, highlight=False, width=max(console.width, 120))
+        console = Console(stderr=stderr, highlight=False, width=max(console.width, 160))
     return console
 
 

@@ -81,7 +81,8 @@ class Margins(Result):
 
     forward/aft: CG to the forward/aft limit at this weight [arm unit]; left/right: lateral
     CG to the lateral limits [arm unit]; weight: to the lower of the weight limit and the
-    envelope's top at this CG [mass unit]. None where no envelope gives that limit.
+    longitudinal envelope's top at this CG [mass unit]. None where no envelope gives that
+    limit.
     """
 
     forward: float | None = None
