@@ -417,6 +417,10 @@ class Aircraft(_Model):
         assert tank.fuel is not None
         return default_density(tank.fuel, self.units.mass, self.units.fuel_volume)
 
+    def usable_fuel_weight(self, tank: Tank) -> float:
+        """Weight of a tank's usable fuel at its default density [mass unit]."""
+        return tank.usable * self.density(tank)
+
     @property
     def useful_load(self) -> float:
         """Maximum takeoff weight less basic empty weight [mass unit]."""

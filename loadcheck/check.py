@@ -33,6 +33,7 @@ from .results import (
     Item,
     LeavePoint,
     Margins,
+    PathSample,
     Severity,
     UnitsInfo,
 )
@@ -355,35 +356,49 @@ def _burn_path(
     takeoff = conditions[1]
     takeoff_in = not any(f.code == "envelope" and f.condition == "takeoff" for f in findings)
     landing_in = not any(f.code == "envelope" and f.condition == "landing" for f in findings)
-    if end <= start:
-        return BurnPath(ok=takeoff_in)
-    stretches = path_excursions(shapes, burn_pieces(aircraft, resolved, start, end))
-    if not stretches:
-        return BurnPath(ok=True)
     units = aircraft.units
     payload = payload_state(aircraft, resolved)
+    lateral = aircraft.has_lateral
 
     def state_at(burned: float) -> tuple[MassState, dict[str, float]]:
         quantities = resolved.plan.quantities(burned)
         return payload + fuel_state(aircraft, resolved.density, quantities), quantities
 
-    excursions = []
-    for begin, finish in stretches:
-        excursions.append(
-            Excursion(
-                from_burned=takeoff.weight - state_at(begin)[0].weight,
-                to_burned=takeoff.weight - state_at(finish)[0].weight,
+    stretches = path_excursions(shapes, burn_pieces(aircraft, resolved, start, end)) if end > start else []
+    marks = {start + (end - start) * k / 40 for k in range(41)}
+    marks.update(b for stretch in stretches for b in stretch)
+    samples = []
+    for burned in sorted(marks):
+        state = state_at(burned)[0]
+        samples.append(
+            PathSample(
+                fuel_burned=takeoff.weight - state.weight, weight=state.weight, arm=state.arm,
+                lateral_arm=state.lateral_arm if lateral else None,
             )
         )
+    if not stretches:
+        return BurnPath(ok=takeoff_in if end <= start else True, samples=samples)
+
+    excursions = [
+        Excursion(from_burned=takeoff.weight - state_at(b)[0].weight, to_burned=takeoff.weight - state_at(e)[0].weight)
+        for b, e in stretches
+    ]
     first_state, first_quantities = state_at(stretches[0][0])
+    middle = state_at(0.5 * (stretches[0][0] + stretches[0][1]))[0]
+    left = next(
+        (i for i, e in enumerate(aircraft.envelope)
+         if e.category == resolved.category and not e.shape.covers(middle.weight, middle.moment, middle.lateral_moment)),
+        None,
+    )
     leaves = LeavePoint(
         fuel_burned=takeoff.weight - first_state.weight,
         fuel_remaining=first_state.weight - payload.weight,
         weight=first_state.weight,
         arm=first_state.arm,
-        lateral_arm=first_state.lateral_arm if aircraft.has_lateral else None,
+        lateral_arm=first_state.lateral_arm if lateral else None,
         fuel_burned_volume=stretches[0][0] - start,
         fuel_remaining_volume=sum(first_quantities.values()),
+        envelope=left,
     )
     scale = max(1.0, end)
     for (begin, finish), excursion in zip(stretches, excursions):
@@ -404,7 +419,7 @@ def _burn_path(
                 unit=units.mass,
             )
         )
-    return BurnPath(ok=False, leaves_at=leaves, excursions=excursions)
+    return BurnPath(ok=False, leaves_at=leaves, excursions=excursions, samples=samples)
 
 
 # -- stations and groups ------------------------------------------------------------------

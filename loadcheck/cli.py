@@ -10,7 +10,6 @@ from __future__ import annotations
 import functools
 import json
 import os
-import sys
 from collections.abc import Callable
 from pathlib import Path
 from typing import Annotated, Any, Literal, TypeVar
@@ -125,6 +124,9 @@ def check(
     reserve: Annotated[str | None, typer.Option(help="Warn when landing fuel is below this.")] = None,
     category: Annotated[str | None, typer.Option("--category", "-c", help="Envelope category (default: the file's first).")] = None,
     json_out: Annotated[bool, typer.Option("--json", help="Print one JSON object instead of tables.")] = False,
+    chart: Annotated[Path | None, typer.Option(help="Write the envelope chart: .png, .svg or .pdf.")] = None,
+    sheet: Annotated[Path | None, typer.Option(help="Write a printable load sheet (.html).")] = None,
+    plot: Annotated[bool, typer.Option("--plot", help="Draw a small text plot of the envelope under the tables.")] = False,
 ) -> None:
     """Check a loading: moment table, ramp/takeoff/landing/zero-fuel conditions, the burn path.
 
@@ -154,13 +156,68 @@ def check(
     for note in inputs.notes:
         _console(stderr=True).print(f"note: {note}", markup=False)
     result = check_loading(inputs.aircraft, inputs.loading)
+    if chart is not None or sheet is not None:
+        _write_pictures(inputs, result, chart, sheet)
     if json_out:
         typer.echo(result.to_json())
     else:
         from .render.terminal import render_check
 
-        render_check(result, _console())
+        console = _console()
+        render_check(result, console)
+        if plot:
+            from .render.textplot import text_plot
+
+            for line in text_plot(inputs.aircraft, result):
+                console.print(line, markup=False, highlight=False)
     raise typer.Exit(EXIT_OK if result.ok else EXIT_LIMIT)
+
+
+def _write_pictures(inputs: Any, result: Any, chart: Path | None, sheet: Path | None) -> None:
+    """Write the chart and/or the load sheet; report each file written on stderr."""
+    from .files import write_atomic
+    from .render.chart import check_figure, figure_svg, save_figure
+
+    if sheet is not None and sheet.suffix.lower() not in (".html", ".htm"):
+        raise InputError(Problem("--sheet", "a load sheet is an HTML file", value=str(sheet), expected="a name ending in .html"))
+    figure = check_figure(inputs.aircraft, result, inputs.label)
+    err = _console(stderr=True)
+    if chart is not None:
+        save_figure(figure, chart)
+        err.print(f"chart written: {chart}", markup=False)
+    if sheet is not None:
+        from .render.sheet import load_sheet_html
+
+        write_atomic(sheet, load_sheet_html(result, figure_svg(figure), loading_label=inputs.label))
+        err.print(f"load sheet written: {sheet}", markup=False)
+
+
+@app.command()
+@input_errors
+def show(
+    aircraft: Annotated[Path, typer.Argument(help="Aircraft file (TOML).")],
+    chart: Annotated[Path | None, typer.Option(help="Write a chart of the envelopes: .png, .svg or .pdf.")] = None,
+    category: Annotated[str | None, typer.Option("--category", "-c", help="Category to draw in full.")] = None,
+) -> None:
+    """Show an aircraft's data: units, empty weight, limits, stations, tanks, envelopes.
+
+    Example:
+
+      loadcheck show sample_aircraft/twin6/aircraft.toml --chart twin-envelope.png
+    """
+    from .caution import PILOT_CAUTION
+    from .files import load_aircraft
+    from .render.terminal import render_aircraft
+
+    data = load_aircraft(aircraft)
+    if category is not None and category not in data.categories:
+        raise InputError(Problem("--category", f"unknown category {category!r}", expected="one of " + ", ".join(data.categories)))
+    render_aircraft(data, _console(), PILOT_CAUTION)
+    if chart is not None:
+        from .render.chart import envelope_figure, save_figure
+
+        save_figure(envelope_figure(data, category), chart)
+        _console(stderr=True).print(f"chart written: {chart}", markup=False)
 
 
 @app.command()

@@ -209,6 +209,7 @@ class CheckInputs:
     loading: ResolvedLoading
     loading_file: Path | None = None
     notes: list[str] = field(default_factory=list)
+    label: str | None = None
 
 
 def load_check_inputs(
@@ -244,7 +245,8 @@ def load_check_inputs(
         resolved = resolve_loading(loading, aircraft, category=overrides.get("category"))
     except LoadcheckError as error:
         raise error.with_file(loading_path if loading_path is not None else "command line") from None
-    return CheckInputs(aircraft, resolved, Path(loading_path) if loading_path else None, notes)
+    label = loading.label or (Path(loading_path).stem if loading_path is not None else None)
+    return CheckInputs(aircraft, resolved, Path(loading_path) if loading_path else None, notes, label)
 
 
 def validate_file(path: str | Path) -> str:

@@ -15,6 +15,7 @@ from typing import Any, Literal
 __all__ = [
     "AircraftInfo",
     "BurnPath",
+    "PathSample",
     "CheckResult",
     "Condition",
     "ConditionName",
@@ -122,7 +123,7 @@ class LeavePoint(Result):
 
     Attributes: fuel_burned since takeoff and fuel_remaining on board [mass unit];
     weight [mass unit]; arm [arm unit]; the same fuel amounts as volumes
-    [fuel volume unit].
+    [fuel volume unit]; envelope, the index in the aircraft file of the envelope it leaves.
     """
 
     fuel_burned: float
@@ -132,6 +133,7 @@ class LeavePoint(Result):
     lateral_arm: float | None = None
     fuel_burned_volume: float
     fuel_remaining_volume: float
+    envelope: int | None = None
 
 
 @dataclass(frozen=True, kw_only=True, slots=True)
@@ -144,12 +146,29 @@ class Excursion(Result):
 
 
 @dataclass(frozen=True, kw_only=True, slots=True)
+class PathSample(Result):
+    """A point of the fuel-burn path, for drawing it: fuel burned since takeoff and
+    weight [mass unit]; CG and lateral CG [arm unit]."""
+
+    fuel_burned: float
+    weight: float
+    arm: float
+    lateral_arm: float | None = None
+
+
+@dataclass(frozen=True, kw_only=True, slots=True)
 class BurnPath(Result):
-    """The fuel-burn path from takeoff to landing."""
+    """The fuel-burn path from takeoff to landing.
+
+    ``samples`` are points along the path (evenly spaced in fuel burned, plus every
+    point where it leaves or re-enters an envelope) for charts; the verdict does not
+    rest on them.
+    """
 
     ok: bool
     leaves_at: LeavePoint | None = None
     excursions: list[Excursion] = field(default_factory=list)
+    samples: list[PathSample] = field(default_factory=list)
 
 
 @dataclass(frozen=True, kw_only=True, slots=True)

@@ -12,10 +12,11 @@ from rich.panel import Panel
 from rich.table import Table
 from rich.text import Text
 
+from ..aircraft import Aircraft
 from ..display import fmt
 from ..results import CheckResult, Condition
 
-__all__ = ["caution_text", "render_check"]
+__all__ = ["caution_text", "render_aircraft", "render_check"]
 
 _NAMES = {"ramp": "Ramp", "takeoff": "Takeoff", "landing": "Landing", "zero_fuel": "Zero fuel"}
 _OK_STYLE, _LIMIT_STYLE, _WARN_STYLE = "bold green", "bold red", "bold yellow"
@@ -163,3 +164,77 @@ def render_check(result: CheckResult, console: Console) -> None:
     )
     console.print(Panel(verdict, expand=False))
     console.print(caution_text(result.caution))
+
+
+def render_aircraft(aircraft: Aircraft, console: Console, caution: str) -> None:
+    """Print an aircraft's data: units, empty weight, limits, stations, groups, tanks, envelopes."""
+    units = aircraft.units
+    empty = aircraft.empty
+    limits = aircraft.limits
+    console.print(Text(aircraft.name + (f" · {aircraft.registration}" if aircraft.registration else ""), style="bold"))
+    console.print(f"Units: mass {units.mass}, arm {units.arm} (aft of datum; lateral + right), fuel {units.fuel_volume}"
+                  f" · data {aircraft.fingerprint}")
+    record = Table(title="Empty-weight record and limits", title_justify="left", show_header=False)
+    record.add_column("What")
+    record.add_column("Value", justify="right")
+    record.add_row("Basic empty weight", fmt(empty.weight, units.mass))
+    record.add_row("Empty-weight CG", fmt(empty.arm, units.arm))
+    if empty.lateral_arm is not None:
+        record.add_row("Empty-weight lateral CG", fmt(empty.lateral_arm, units.arm))
+    record.add_row("Empty-weight moment", fmt(empty.moment, units.moment))
+    record.add_row("Record dated", str(empty.date or "not dated"))
+    if empty.basis:
+        record.add_row("Basis", empty.basis)
+    record.add_row("Useful load (max takeoff less empty)", fmt(aircraft.useful_load, units.mass))
+    record.add_row("Max ramp weight", fmt(limits.ramp, units.mass))
+    record.add_row("Max takeoff weight", fmt(limits.max_takeoff_weight, units.mass))
+    record.add_row("Max landing weight", fmt(limits.landing, units.mass))
+    if limits.max_zero_fuel_weight is not None:
+        record.add_row("Max zero-fuel weight", fmt(limits.max_zero_fuel_weight, units.mass))
+    if limits.min_flight_weight is not None:
+        record.add_row("Min flight weight", fmt(limits.min_flight_weight, units.mass))
+    record.add_row("Zero-fuel CG", "a limit" if limits.zero_fuel_cg == "limit" else "checked as a warning")
+    if aircraft.mac:
+        record.add_row("MAC", f"{fmt(aircraft.mac.length, units.arm)} from {fmt(aircraft.mac.leading_edge_arm, units.arm)}")
+    console.print(record)
+
+    stations = Table(title="Stations", title_justify="left")
+    for column in ("Id", "Label", "Kind", f"Arm ({units.arm})", f"Lat. arm ({units.arm})", f"Min ({units.mass})",
+                   f"Max ({units.mass})"):
+        stations.add_column(column)
+    for s in aircraft.station:
+        stations.add_row(s.id, s.name, s.kind, fmt(s.arm, units.arm, with_unit=False),
+                         "" if s.lateral_arm is None else fmt(s.lateral_arm, units.arm, with_unit=False),
+                         "" if s.min_weight is None else fmt(s.min_weight, units.mass, with_unit=False),
+                         "" if s.max_weight is None else fmt(s.max_weight, units.mass, with_unit=False))
+    console.print(stations)
+    if aircraft.station_group:
+        groups = Table(title="Station groups", title_justify="left")
+        for column in ("Label", "Stations", f"Min ({units.mass})", f"Max ({units.mass})"):
+            groups.add_column(column)
+        for g in aircraft.station_group:
+            groups.add_row(g.label, ", ".join(g.stations),
+                           "" if g.min_weight is None else fmt(g.min_weight, units.mass, with_unit=False),
+                           "" if g.max_weight is None else fmt(g.max_weight, units.mass, with_unit=False))
+        console.print(groups)
+    if aircraft.tank:
+        tanks = Table(title="Fuel tanks", title_justify="left")
+        for column in ("Id", "Label", f"Arm ({units.arm})", f"Usable ({units.fuel_volume})", f"Usable ({units.mass})",
+                       "Fuel", "Levels"):
+            tanks.add_column(column)
+        for t in aircraft.tank:
+            arm = (fmt(t.arm_at(t.usable), units.arm, with_unit=False) if t.arm_table is None
+                   else "table: " + ", ".join(f"{q:g}->{a:g}" for q, a in t.arm_table))
+            density = f"{t.fuel or ''} {aircraft.density(t):.3g} {units.mass}/{units.fuel_volume}".strip()
+            tanks.add_row(t.id, t.name, arm, fmt(t.usable, units.fuel_volume, with_unit=False),
+                          fmt(aircraft.usable_fuel_weight(t), units.mass, with_unit=False), density,
+                          ", ".join(f"{k} {v:g}" for k, v in t.levels.items()))
+        console.print(tanks)
+    envelopes = Table(title="CG envelopes (the first category is the default)", title_justify="left")
+    for column in ("Category", "Label", "Axes (x, y)", "Corners"):
+        envelopes.add_column(column)
+    for e in aircraft.envelope:
+        axes = ", ".join(e.axes) + (f" (moment / {e.moment_scale:g})" if "moment" in e.axes and e.moment_scale != 1 else "")
+        envelopes.add_row(e.category, e.label or "", axes, "  ".join(f"({x:g}, {y:g})" for x, y in e.points))
+    console.print(envelopes)
+    console.print(caution_text(caution))

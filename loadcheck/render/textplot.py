@@ -1,0 +1,71 @@
+"""A small text picture of the envelope and the condition points, for a terminal.
+
+Characters only: the envelope outline in ``#`` (other categories are not drawn), the burn
+path in ``.``, the conditions as ``R`` (ramp), ``T`` (takeoff), ``L`` (landing), ``Z``
+(zero fuel), ``X`` where the path leaves. Resolution is one character: the tables above
+it carry the numbers.
+"""
+
+from __future__ import annotations
+
+from ..aircraft import Aircraft, Envelope
+from ..results import CheckResult
+
+__all__ = ["text_plot"]
+
+_MARKS = {"ramp": "R", "takeoff": "T", "landing": "L", "zero_fuel": "Z"}
+
+
+def text_plot(aircraft: Aircraft, result: CheckResult, width: int = 64, height: int = 18) -> list[str]:
+    """Lines of a character plot of the first envelope of the category, longitudinal first."""
+    chosen = sorted(aircraft.envelopes_for(result.category), key=lambda e: e.is_lateral)
+    lines: list[str] = []
+    for envelope in chosen:
+        lines += _panel(envelope, result, width, height) + [""]
+    return lines
+
+
+def _xy(envelope: Envelope, weight: float, arm: float, lateral: float | None) -> tuple[float, float]:
+    x, y = envelope.shape.coords(weight, arm * weight, (lateral or 0.0) * weight)
+    return float(x), float(y)
+
+
+def _panel(envelope: Envelope, result: CheckResult, width: int, height: int) -> list[str]:
+    corners = [tuple(map(float, c)) for c in envelope.shape.corners]
+    points = {c.condition: _xy(envelope, c.weight, c.arm, c.lateral_arm) for c in result.conditions}
+    path = [_xy(envelope, s.weight, s.arm, s.lateral_arm) for s in result.burn_path.samples]
+    xs = [p[0] for p in corners] + [p[0] for p in points.values()]
+    ys = [p[1] for p in corners] + [p[1] for p in points.values()]
+    x0, x1, y0, y1 = min(xs), max(xs), min(ys), max(ys)
+    pad_x, pad_y = (x1 - x0) * 0.05 or 1.0, (y1 - y0) * 0.05 or 1.0
+    x0, x1, y0, y1 = x0 - pad_x, x1 + pad_x, y0 - pad_y, y1 + pad_y
+    grid = [[" "] * width for _ in range(height)]
+
+    def cell(x: float, y: float) -> tuple[int, int]:
+        col = round((x - x0) / (x1 - x0) * (width - 1))
+        row = round((y1 - y) / (y1 - y0) * (height - 1))
+        return min(max(row, 0), height - 1), min(max(col, 0), width - 1)
+
+    def put(x: float, y: float, mark: str) -> None:
+        row, col = cell(x, y)
+        grid[row][col] = mark
+
+    for (ax, ay), (bx, by) in zip(corners, corners[1:] + corners[:1]):
+        steps = 2 * max(width, height)
+        for k in range(steps + 1):
+            put(ax + (bx - ax) * k / steps, ay + (by - ay) * k / steps, "#")
+    for x, y in path:
+        put(x, y, ".")
+    leave = result.burn_path.leaves_at
+    if leave is not None:
+        put(*_xy(envelope, leave.weight, leave.arm, leave.lateral_arm), "X")
+    for name, (x, y) in points.items():
+        put(x, y, _MARKS[name])
+    x_name, y_name = envelope.axes
+    title = f"{envelope.label or ('lateral' if envelope.is_lateral else 'longitudinal')} envelope: {y_name} (up) against {x_name} (across)"
+    rows = [title, f"{y1:>10.4g} +" + "-" * width + "+"]
+    rows += [" " * 11 + "|" + "".join(r) + "|" for r in grid]
+    rows.append(f"{y0:>10.4g} +" + "-" * width + "+")
+    rows.append(" " * 12 + f"{x0:<.4g}".ljust(width - 8) + f"{x1:>.4g}")
+    rows.append(" " * 12 + "R ramp  T takeoff  L landing  Z zero fuel  . burn path  X leaves")
+    return rows
