@@ -109,6 +109,9 @@ class EnvelopeShape:
         self.polygon = shapely.Polygon(corners)
         normal = (corners - self.origin) / self.span
         self._edges = np.stack([normal, np.roll(normal, -1, axis=0)], axis=1)  # (n, 2 ends, xy)
+        (x1, y1), (x2, y2) = self._edges[:, 0].T, self._edges[:, 1].T
+        # weights of the edge-crossing polynomial's basis (see loadcheck.batch)
+        self.edge_weights = np.stack([y2 - y1, (x2 - x1) * y1 - (y2 - y1) * x1, -(x2 - x1)])  # (3, n)
         self.covering = shapely.Polygon(normal).buffer(TOLERANCE, quad_segs=16)
         shapely.prepare(self.covering)
 

@@ -1,0 +1,104 @@
+"""Throughput of the vectorised engine (loadcheck.batch) against its floor and the single check.
+
+Run on demand:  python benchmarks/batch.py [--n 1000000] [--loop 10000]
+
+Printed side by side in one run:
+- loadings per second of ``batch.evaluate`` (four conditions, every limit, burn path) at N;
+- the floor: the same numpy arithmetic for the four conditions plus one
+  ``shapely.intersects_xy`` call per condition on the same arrays, and the ratio to it
+  (target: within 3x; at least 1,000,000 loadings per second);
+- the speed-up over calling ``check_loading`` in a Python loop (target: at least 50x at 10^4);
+- peak memory of the process at N (target: under 1 GiB).
+"""
+
+from __future__ import annotations
+
+import argparse
+import resource
+import time
+from pathlib import Path
+
+import numpy as np
+import shapely
+
+from loadcheck import check_loading, load_aircraft
+from loadcheck.batch import evaluate
+from loadcheck.loading import Loading
+
+ROOT = Path(__file__).resolve().parent.parent
+CASES = [("trainer4", None), ("twin6", ("aux", "mains"))]
+
+
+def random_loadings(aircraft, n: int, order, seed: int = 1):
+    rng = np.random.default_rng(seed)
+    stations = np.stack([rng.uniform(0, (s.max_weight or 200) * 1.05, n) for s in aircraft.station], axis=1)
+    fuel = np.stack([rng.uniform(0, t.usable, n) for t in aircraft.tank], axis=1)
+    ids = [t.id for t in aircraft.tank]
+    burnable = fuel.sum(1) if order is None else fuel[:, [ids.index(x) for x in order]].sum(1)
+    taxi = np.minimum(rng.uniform(0, 2, n), burnable)
+    trip = (burnable - taxi) * rng.uniform(0, 1, n)
+    return stations, fuel, taxi, trip
+
+
+def floor(aircraft, stations, fuel, taxi, trip) -> float:
+    """Plain numpy weight/moment for four conditions plus one intersects_xy per condition."""
+    start = time.perf_counter()
+    arms = np.array([s.arm for s in aircraft.station])
+    tank_arms = np.array([t.arm_at(t.usable) for t in aircraft.tank])
+    rho = np.array([aircraft.density(t) for t in aircraft.tank])
+    pay_w = aircraft.empty.weight + stations.sum(1)
+    pay_m = aircraft.empty.moment + stations @ arms
+    total = fuel.sum(1)
+    shape = aircraft.envelopes_for(aircraft.categories[0])[0].shape
+    for burned in (np.zeros_like(taxi), taxi, taxi + trip, total):
+        share = np.clip(1 - burned / np.where(total > 0, total, 1), 0, 1)[:, None]
+        w = pay_w + (fuel * share * rho).sum(1)
+        m = pay_m + (fuel * share * rho) @ tank_arms
+        x, y = shape.coords(w, m, np.zeros_like(w))
+        shapely.intersects_xy(shape.covering, (x - shape.origin[0]) / shape.span[0], (y - shape.origin[1]) / shape.span[1])
+    return time.perf_counter() - start
+
+
+def loop(aircraft, stations, fuel, taxi, trip, order) -> float:
+    start = time.perf_counter()
+    for i in range(len(taxi)):
+        check_loading(aircraft, Loading(
+            load={s.id: stations[i, j] for j, s in enumerate(aircraft.station)},
+            fuel={t.id: fuel[i, j] for j, t in enumerate(aircraft.tank)},
+            burn={"taxi": taxi[i], "trip": trip[i], "order": list(order) if order else "together"},
+        ))
+    return time.perf_counter() - start
+
+
+def main() -> None:
+    parser = argparse.ArgumentParser(description=__doc__.splitlines()[0])
+    parser.add_argument("--n", type=int, default=1_000_000)
+    parser.add_argument("--loop", type=int, default=10_000)
+    parser.add_argument("--repeat", type=int, default=3)
+    args = parser.parse_args()
+    for name, order in CASES:
+        aircraft = load_aircraft(ROOT / "sample_aircraft" / name / "aircraft.toml")
+        data = random_loadings(aircraft, args.n, order)
+        evaluate(aircraft, *(a[:1000] for a in data), order=order)  # warm up
+        engine, base = float("inf"), float("inf")
+        for _ in range(args.repeat):  # best of several: this machine is shared and noisy
+            start = time.perf_counter()
+            result = evaluate(aircraft, *data, order=order)
+            engine = min(engine, time.perf_counter() - start)
+            base = min(base, floor(aircraft, *data))
+        small = tuple(a[: args.loop] for a in data)
+        start = time.perf_counter()
+        evaluate(aircraft, *small, order=order)
+        engine_small = time.perf_counter() - start
+        single = loop(aircraft, *small, order)
+        print(f"{name} (burn order {'together' if order is None else ', '.join(order)}), N = {args.n:,}:")
+        print(f"  batch engine:     {engine:6.2f} s  {args.n / engine:12,.0f} loadings/s  (within limits: {result.ok.mean():.1%})")
+        print(f"  floor:            {base:6.2f} s  {args.n / base:12,.0f} loadings/s  ratio engine/floor {engine / base:.2f}")
+        print(f"  single-check loop at N = {args.loop:,}: {single:.2f} s; batch {engine_small * 1000:.0f} ms; "
+              f"speed-up {single / engine_small:,.0f}x")
+    peak = resource.getrusage(resource.RUSAGE_SELF).ru_maxrss / 1024
+    print(f"peak memory of this process: {peak:,.0f} MiB")
+
+
+if __name__ == "__main__":
+    main()

@@ -1,0 +1,533 @@
+"""Vectorised evaluation of many loadings of one aircraft at once (numpy + shapely).
+
+:func:`evaluate` takes arrays (N loadings x stations, N x tanks, taxi, trip) in the
+aircraft's own units and returns arrays: weight, arm, moment (and lateral CG) of each
+condition, the verdict of each condition and limit, the burn-path verdict and the first
+limit exceeded. It applies the same rules as :func:`loadcheck.check.check_loading`, and
+the tests hold the two to the same verdict on large random sets
+(``tests/test_batch.py``).
+
+The burn path is checked exactly, not by sampling. For every axis pair an envelope may
+use (weight against arm, moment, %MAC or lateral arm; lateral arm against arm), the
+condition "the path meets an edge line" is a polynomial of degree at most two in the
+fuel burned (after multiplying through by the positive weight), also for tanks whose
+arm moves with quantity. Its roots are found in closed form for all loadings at once.
+A piece of path on which no root falls on an actual edge stays on one side of the
+boundary, so one containment test at its middle settles it; the few pieces that do
+touch an edge are split at every root and each part is tested at its middle, as the
+single check does.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Sequence
+from dataclasses import dataclass, fields
+from typing import Any
+
+import numpy as np
+import shapely
+
+from .aircraft import Aircraft, Envelope
+from .check import WEIGHT_TOLERANCE
+
+__all__ = ["BatchResult", "evaluate", "CONDITIONS"]
+
+CONDITIONS = ("ramp", "takeoff", "landing", "zero_fuel")
+_EDGE_SLACK = 1e-9  # how far past an edge's ends a crossing still counts (scaled units)
+
+
+@dataclass(frozen=True)
+class BatchResult:
+    """Arrays of N results (one per loading).
+
+    Attributes
+    ----------
+    weight, moment, arm, lateral_arm : per condition, shape (N,) [mass unit, mass unit *
+        arm unit, arm unit, arm unit]
+    condition_ok : per condition, inside its envelope(s) and weight limits
+    envelope_ok : per condition, inside every envelope of the category
+    limit_ok : per weight limit code (``max_takeoff_weight`` ...) and ``stations``
+        (every station and group limit), True where it holds
+    burn_path_ok : the whole path from takeoff to landing inside the envelopes
+    valid : the row could be used (no negative, NaN, over-capacity or over-burn input)
+    ok : valid and no limit exceeded (the single check's ``ok``)
+    first_finding : code of the first limit exceeded, in the single check's order
+        ("" where none, "input" where the row is not valid)
+    first_condition : the condition of that finding ("" where none applies)
+    """
+
+    weight: dict[str, np.ndarray]
+    moment: dict[str, np.ndarray]
+    arm: dict[str, np.ndarray]
+    lateral_arm: dict[str, np.ndarray]
+    condition_ok: dict[str, np.ndarray]
+    envelope_ok: dict[str, np.ndarray]
+    limit_ok: dict[str, np.ndarray]
+    burn_path_ok: np.ndarray
+    valid: np.ndarray
+    ok: np.ndarray
+    first_finding: np.ndarray
+    first_condition: np.ndarray
+
+
+# -- fuel ---------------------------------------------------------------------------------
+
+
+def _quantities(fuel: np.ndarray, burned: np.ndarray, order: Sequence[int] | None) -> np.ndarray:
+    """Tank quantities after ``burned`` (shape (N, K)) from ``fuel`` (N, T): (N, K, T)."""
+    start = fuel[:, None, :]
+    if order is None:
+        total = fuel.sum(axis=1)[:, None]
+        with np.errstate(divide="ignore", invalid="ignore"):
+            share = np.where(total > 0, np.clip(1.0 - burned / total, 0.0, 1.0), 0.0)
+        return start * share[:, :, None]
+    left = np.broadcast_to(start, (*burned.shape, fuel.shape[1])).copy()
+    remaining = burned.copy()
+    for tank in order:
+        used = np.minimum(left[:, :, tank], remaining)
+        left[:, :, tank] -= used
+        remaining -= used
+    return left
+
+
+def _tank_arms(aircraft: Aircraft, quantities: np.ndarray) -> np.ndarray:
+    """Arm of each tank's fuel at the given quantities (..., T) [arm unit]."""
+    arms = np.empty_like(quantities)
+    for index, tank in enumerate(aircraft.tank):
+        if tank.arm_table is None:
+            arms[..., index] = tank.arm
+        else:
+            table = np.asarray(tank.arm_table, dtype=float)
+            arms[..., index] = np.interp(quantities[..., index], table[:, 0], table[:, 1])
+    return arms
+
+
+# -- geometry -------------------------------------------------------------------------------
+
+
+def _covers(envelope: Envelope, weight: np.ndarray, moment: np.ndarray, lateral: np.ndarray) -> np.ndarray:
+    return envelope.shape.covers(weight, moment, lateral)
+
+
+def _fraction(envelope: Envelope, axis: str, w: np.ndarray, m: np.ndarray, lat: np.ndarray) -> tuple[np.ndarray, bool]:
+    """Numerator coefficients (..., 3) of an axis and whether its denominator is W."""
+    shape = envelope.shape
+    if axis == "weight":
+        return w, False
+    if axis == "moment":
+        return m / shape.moment_scale, False
+    if axis == "arm":
+        return m, True
+    if axis == "lateral_arm":
+        return lat, True
+    assert shape.mac is not None
+    return (m - shape.mac.leading_edge_arm * w) * (100.0 / shape.mac.length), True
+
+
+def _times(a: np.ndarray, b: np.ndarray) -> np.ndarray:
+    """Product of polynomials given as (..., 3) coefficient arrays, truncated to degree 2.
+
+    Used only where the product is of degree two at most (one factor is linear, the
+    other at most linear), so nothing is lost.
+    """
+    out = np.empty_like(a)
+    out[..., 0] = a[..., 0] * b[..., 0]
+    out[..., 1] = a[..., 0] * b[..., 1] + a[..., 1] * b[..., 0]
+    out[..., 2] = a[..., 0] * b[..., 2] + a[..., 1] * b[..., 1] + a[..., 2] * b[..., 0]
+    return out
+
+
+def _edge_polynomials(envelope: Envelope, w: np.ndarray, m: np.ndarray, lat: np.ndarray) -> np.ndarray:
+    """Coefficients (K, 3, E) of "the path meets edge line e", lowest power first.
+
+    For an edge from (x1, y1) to (x2, y2) in the envelope's scaled axes, with x = Nx/Dx and
+    y = Ny/Dy along the path, the condition (y2-y1)(x-x1) - (x2-x1)(y-y1) = 0 times Dx Dy
+    is a combination of three basis polynomials, Nx Dy, Dx Dy and Ny Dx, with weights
+    (y2-y1), (x2-x1) y1 - (y2-y1) x1 and -(x2-x1); where Dx = Dy (= W) the common factor
+    is dropped and the basis is Nx, D, Ny. Every basis polynomial is of degree two at most.
+    """
+    shape = envelope.shape
+    (nx, x_over_w), (ny, y_over_w) = (_fraction(envelope, a, w, m, lat) for a in shape.axes)
+    one = np.zeros_like(w)
+    one[..., 0] = 1.0
+    dx = w if x_over_w else one
+    dy = w if y_over_w else one
+    nx = (nx - shape.origin[0] * dx) / shape.span[0]
+    ny = (ny - shape.origin[1] * dy) / shape.span[1]
+    if x_over_w == y_over_w:
+        basis = np.stack([nx, dx, ny], axis=-1)
+    elif x_over_w:  # Dy = 1
+        basis = np.stack([nx, dx, _times(ny, dx)], axis=-1)
+    else:  # Dx = 1
+        basis = np.stack([_times(nx, dy), dy, ny], axis=-1)
+    k = basis.shape[0]
+    return (basis.reshape(k * 3, 3) @ shape.edge_weights).reshape(k, 3, -1)  # one matrix product
+
+
+def _quadratic_roots(a: np.ndarray, b: np.ndarray, c: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """Real roots of a u^2 + b u + c (NaN where there is none), numerically stable."""
+    size = np.maximum(np.maximum(np.abs(a), np.abs(b)), np.abs(c))
+    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+        quadratic = np.abs(a) > 1e-13 * size
+        disc = b * b - 4.0 * a * c
+        disc = np.where((disc < 0) & (disc > -1e-12 * b * b), 0.0, disc)
+        root = np.sqrt(np.where(disc >= 0, disc, np.nan))
+        q = -0.5 * (b + np.copysign(root, b))
+        r1 = np.where(quadratic, q / a, np.where(np.abs(b) > 1e-13 * size, -c / b, np.nan))
+        r2 = np.where(quadratic, c / q, np.nan)
+    return r1, r2
+
+
+def _edge_position(envelope: Envelope, edges: np.ndarray, w: np.ndarray, m: np.ndarray, lat: np.ndarray) -> np.ndarray:
+    """Where points fall along edges, projected: 0 at an edge's start, 1 at its end."""
+    shape = envelope.shape
+    x, y = shape.coords(w, m, lat)
+    x = (x - shape.origin[0]) / shape.span[0]
+    y = (y - shape.origin[1]) / shape.span[1]
+    start, end = shape._edges[edges, 0], shape._edges[edges, 1]
+    d = end - start
+    return ((x - start[:, 0]) * d[:, 0] + (y - start[:, 1]) * d[:, 1]) / (d * d).sum(axis=1)
+
+
+def _polyval(c: np.ndarray, u: np.ndarray) -> np.ndarray:
+    return c[..., 0] + u * (c[..., 1] + u * c[..., 2])
+
+
+# -- evaluation -----------------------------------------------------------------------------
+
+
+CHUNK = 32_768
+"""Loadings evaluated together; larger batches are cut into chunks of this size so that
+the working arrays stay in cache and memory stays bounded."""
+
+
+def evaluate(
+    aircraft: Aircraft,
+    stations: np.ndarray,
+    fuel: np.ndarray,
+    taxi: np.ndarray,
+    trip: np.ndarray,
+    *,
+    order: Sequence[str] | None = None,
+    category: str | None = None,
+    density: Sequence[float] | None = None,
+) -> BatchResult:
+    """Evaluate N loadings of one aircraft.
+
+    Parameters
+    ----------
+    aircraft : the aircraft
+    stations : (N, S) weight at each station, in ``aircraft.station`` order [mass unit]
+    fuel : (N, T) quantity in each tank at engine start, ``aircraft.tank`` order [fuel volume unit]
+    taxi, trip : (N,) fuel used before takeoff and from takeoff to landing [fuel volume unit]
+    order : None to burn together, or tank ids in burn order
+    category : envelope category (default the aircraft's first)
+    density : per tank [mass unit per fuel volume unit] (default the tanks' own)
+
+    Returns
+    -------
+    BatchResult
+    """
+    stations = np.atleast_2d(np.asarray(stations, dtype=float))
+    n = stations.shape[0]
+    fuel = np.asarray(fuel, dtype=float).reshape(n, len(aircraft.tank))
+    taxi = np.broadcast_to(np.asarray(taxi, dtype=float), (n,))
+    trip = np.broadcast_to(np.asarray(trip, dtype=float), (n,))
+    if n <= CHUNK:
+        return _evaluate(aircraft, stations, fuel, taxi, trip, order, category, density)
+    parts = [
+        _evaluate(aircraft, stations[i : i + CHUNK], fuel[i : i + CHUNK], taxi[i : i + CHUNK], trip[i : i + CHUNK],
+                  order, category, density)
+        for i in range(0, n, CHUNK)
+    ]
+
+    def join(field: str) -> Any:
+        first = getattr(parts[0], field)
+        if isinstance(first, dict):
+            return {k: np.concatenate([getattr(p, field)[k] for p in parts]) for k in first}
+        return np.concatenate([getattr(p, field) for p in parts])
+
+    return BatchResult(**{f.name: join(f.name) for f in fields(BatchResult)})
+
+
+def _evaluate(
+    aircraft: Aircraft,
+    stations: np.ndarray,
+    fuel: np.ndarray,
+    taxi: np.ndarray,
+    trip: np.ndarray,
+    order: Sequence[str] | None,
+    category: str | None,
+    density: Sequence[float] | None,
+) -> BatchResult:
+    n = stations.shape[0]
+    fuel = np.asarray(fuel, dtype=float).reshape(n, len(aircraft.tank))
+    taxi = np.broadcast_to(np.asarray(taxi, dtype=float), (n,)).copy()
+    trip = np.broadcast_to(np.asarray(trip, dtype=float), (n,)).copy()
+    category = category or aircraft.categories[0]
+    envelopes = aircraft.envelopes_for(category)
+    if not envelopes:
+        raise ValueError(f"unknown category {category!r}")
+    tank_index = {t.id: i for i, t in enumerate(aircraft.tank)}
+    order_index = None if order is None else [tank_index[t] for t in order]
+    rho = np.array(density if density is not None else [aircraft.density(t) for t in aircraft.tank], dtype=float)
+    usable = np.array([t.usable for t in aircraft.tank], dtype=float)
+    burnable = fuel.sum(axis=1) if order_index is None else fuel[:, order_index].sum(axis=1)
+
+    finite = np.isfinite(stations).all(axis=1) & np.isfinite(fuel).all(axis=1) & np.isfinite(taxi) & np.isfinite(trip)
+    valid = (
+        finite
+        & (stations >= 0).all(axis=1)
+        & (fuel >= 0).all(axis=1)
+        & (fuel <= usable * (1 + 1e-9)).all(axis=1)
+        & (taxi >= 0)
+        & (trip >= 0)
+        & (taxi + trip <= burnable * (1 + 1e-9))
+    )
+    stations = np.where(np.isfinite(stations), stations, 0.0)
+    fuel = np.where(np.isfinite(fuel), np.clip(fuel, 0.0, usable), 0.0)
+    taxi = np.where(np.isfinite(taxi), np.maximum(taxi, 0.0), 0.0)
+    trip = np.where(np.isfinite(trip), np.maximum(trip, 0.0), 0.0)
+
+    # payload: empty weight and every station (the zero-fuel state)
+    empty = aircraft.empty
+    arms = np.array([s.arm for s in aircraft.station], dtype=float)
+    lats = np.array([s.lateral_arm or 0.0 for s in aircraft.station], dtype=float)
+    tank_lats = np.array([t.lateral_arm or 0.0 for t in aircraft.tank], dtype=float)
+    pay_w = empty.weight + stations.sum(axis=1)
+    pay_m = empty.weight * empty.arm + stations @ arms
+    pay_l = empty.weight * (empty.lateral_arm or 0.0) + stations @ lats
+
+    burned = np.stack([np.zeros(n), taxi, taxi + trip], axis=1)
+    q = _quantities(fuel, burned, order_index)  # (N, 3, T)
+    mass = q * rho
+    tank_arm = _tank_arms(aircraft, q)
+    weight = {"zero_fuel": pay_w}
+    moment = {"zero_fuel": pay_m}
+    lateral = {"zero_fuel": pay_l}
+    for k, name in enumerate(("ramp", "takeoff", "landing")):
+        weight[name] = pay_w + mass[:, k].sum(axis=1)
+        moment[name] = pay_m + (mass[:, k] * tank_arm[:, k]).sum(axis=1)
+        lateral[name] = pay_l + mass[:, k] @ tank_lats
+
+    limits = aircraft.limits
+    limit_ok: dict[str, np.ndarray] = {}
+    weight_limits = {
+        "ramp": [("max_ramp_weight", limits.ramp)],
+        "takeoff": [("max_takeoff_weight", limits.max_takeoff_weight)],
+        "landing": [("max_landing_weight", limits.landing)],
+        "zero_fuel": [("max_zero_fuel_weight", limits.max_zero_fuel_weight)],
+    }
+    weight_ok: dict[str, np.ndarray] = {}
+    minimum_ok: dict[str, np.ndarray] = {}
+    for name in CONDITIONS:
+        good = np.ones(n, dtype=bool)
+        for code, value in weight_limits[name]:
+            if value is not None:
+                limit_ok[code] = weight[name] <= value * (1 + WEIGHT_TOLERANCE)
+                good &= limit_ok[code]
+        weight_ok[name] = good
+        minimum_ok[name] = np.ones(n, dtype=bool)
+        if name in ("takeoff", "landing") and limits.min_flight_weight is not None:
+            minimum_ok[name] = weight[name] >= limits.min_flight_weight * (1 - WEIGHT_TOLERANCE)
+    if limits.min_flight_weight is not None:
+        limit_ok["min_flight_weight"] = minimum_ok["takeoff"] & minimum_ok["landing"]
+
+    envelope_ok: dict[str, np.ndarray] = {}
+    per_envelope: dict[str, list[np.ndarray]] = {}
+    for name in CONDITIONS:
+        inside = []
+        for envelope in envelopes:
+            w, m, lat = weight[name], moment[name], lateral[name]
+            top = envelope.shape.max_weight
+            if name == "ramp" and top is not None:
+                clamp = w > top
+                scale = np.where(clamp, top / w, 1.0)
+                w, m, lat = w * scale, m * scale, lat * scale
+            inside.append(_covers(envelope, w, m, lat))
+        per_envelope[name] = inside
+        envelope_ok[name] = np.logical_and.reduce(inside)
+
+    condition_ok = {name: weight_ok[name] & minimum_ok[name] & envelope_ok[name] for name in CONDITIONS}
+
+    station_findings = _station_findings(aircraft, stations)
+    limit_ok["stations"] = ~station_findings.any(axis=1)
+
+    path_ok = _burn_path_ok(aircraft, envelopes, fuel, taxi, trip, order_index, rho, tank_lats, pay_w, pay_m, pay_l)
+    path_ok = np.where(trip > 0, path_ok, envelope_ok["takeoff"])
+
+    zero_fuel_cg_is_limit = limits.zero_fuel_cg == "limit"
+    first_finding = np.full(n, "", dtype=object)
+    first_condition = np.full(n, "", dtype=object)
+    open_rows = np.ones(n, dtype=bool)
+
+    def mark(rows: np.ndarray, code: str, condition: str = "") -> None:
+        nonlocal open_rows
+        hit = open_rows & rows
+        first_finding[hit] = code
+        first_condition[hit] = condition
+        open_rows = open_rows & ~hit
+
+    for name in CONDITIONS:
+        for code, value in weight_limits[name]:
+            if value is not None:
+                mark(~limit_ok[code], code, name)
+        mark(~minimum_ok[name], "min_flight_weight", name)
+        if name != "zero_fuel" or zero_fuel_cg_is_limit:
+            for inside in per_envelope[name]:
+                mark(~inside, "envelope", name)
+    mark(~path_ok, "burn_path")
+    codes = _station_codes(aircraft)
+    for column, code in enumerate(codes):
+        mark(station_findings[:, column], code)
+    first_finding[~valid] = "input"
+    first_condition[~valid] = ""
+
+    ok = valid & (first_finding == "")
+    return BatchResult(
+        weight=weight,
+        moment=moment,
+        arm={k: moment[k] / weight[k] for k in CONDITIONS},
+        lateral_arm={k: lateral[k] / weight[k] for k in CONDITIONS},
+        condition_ok=condition_ok,
+        envelope_ok=envelope_ok,
+        limit_ok=limit_ok,
+        burn_path_ok=path_ok,
+        valid=valid,
+        ok=ok,
+        first_finding=first_finding,
+        first_condition=first_condition,
+    )
+
+
+def _station_codes(aircraft: Aircraft) -> list[str]:
+    codes = []
+    for station in aircraft.station:
+        codes += ["station_max", "station_min"]
+    for group in aircraft.station_group:
+        codes += ["group_max", "group_min"]
+    return codes
+
+
+def _station_findings(aircraft: Aircraft, stations: np.ndarray) -> np.ndarray:
+    """(N, 2 x (stations + groups)) True where a max (then min) limit is exceeded."""
+    columns = []
+    index = {s.id: i for i, s in enumerate(aircraft.station)}
+    subjects = [([index[s.id]], s.max_weight, s.min_weight) for s in aircraft.station]
+    subjects += [([index[m] for m in g.stations], g.max_weight, g.min_weight) for g in aircraft.station_group]
+    for members, most, least in subjects:
+        loaded = stations[:, members].sum(axis=1)
+        columns.append(loaded > most * (1 + WEIGHT_TOLERANCE) + 1e-12 if most is not None else np.zeros(len(loaded), bool))
+        columns.append(loaded < least * (1 - WEIGHT_TOLERANCE) if least is not None else np.zeros(len(loaded), bool))
+    if not columns:
+        return np.zeros((stations.shape[0], 0), dtype=bool)
+    return np.stack(columns, axis=1)
+
+
+def _burn_path_ok(
+    aircraft: Aircraft,
+    envelopes: Sequence[Envelope],
+    fuel: np.ndarray,
+    taxi: np.ndarray,
+    trip: np.ndarray,
+    order: Sequence[int] | None,
+    rho: np.ndarray,
+    tank_lats: np.ndarray,
+    pay_w: np.ndarray,
+    pay_m: np.ndarray,
+    pay_l: np.ndarray,
+) -> np.ndarray:
+    """True where the path from takeoff to landing stays inside every envelope."""
+    n = fuel.shape[0]
+    start, end = taxi, taxi + trip
+    cuts = [start, end]
+    if order is not None:
+        running = np.zeros(n)
+        for tank in order:
+            running = running + fuel[:, tank]
+            cuts.append(running.copy())
+    total = fuel.sum(axis=1) if order is None else None
+    for index, tank in enumerate(aircraft.tank):
+        for knot in tank.arm_knots():
+            held = fuel[:, index]
+            with np.errstate(divide="ignore", invalid="ignore"):
+                if order is None:
+                    assert total is not None
+                    t = np.where(held > knot, total * (1.0 - knot / held), np.nan)
+                elif index in order:
+                    before = sum(fuel[:, j] for j in order[: order.index(index)]) if order.index(index) else 0.0
+                    t = np.where(held > knot, before + held - knot, np.nan)
+                else:
+                    t = np.full(n, np.nan)
+            cuts.append(t)
+    points = np.stack(cuts, axis=1)
+    points = np.where(np.isfinite(points), np.clip(points, start[:, None], end[:, None]), end[:, None])
+    points.sort(axis=1)
+    live = points[:, 1:] - points[:, :-1] > 0  # (N, P)
+    rows, cols = np.nonzero(live)
+    if len(rows) == 0:
+        return np.ones(n, dtype=bool)
+    a, b = points[rows, cols], points[rows, cols + 1]  # the K live pieces
+    piece_fuel = fuel[rows]
+
+    qa = _quantities(piece_fuel, a[:, None], order)[:, 0]
+    qb = _quantities(piece_fuel, b[:, None], order)[:, 0]
+    arm_a, arm_b = _tank_arms(aircraft, qa), _tank_arms(aircraft, qb)
+    k = len(a)
+    w, m, lat = np.zeros((k, 3)), np.zeros((k, 3)), np.zeros((k, 3))
+    w[:, 0], m[:, 0], lat[:, 0] = pay_w[rows], pay_m[rows], pay_l[rows]
+    for t in range(qa.shape[1]):  # a few tanks: a loop beats reductions over a short axis
+        ma, dm = qa[:, t] * rho[t], (qb[:, t] - qa[:, t]) * rho[t]
+        arm, da = arm_a[:, t], arm_b[:, t] - arm_a[:, t]
+        w[:, 0] += ma
+        w[:, 1] += dm
+        m[:, 0] += ma * arm
+        m[:, 1] += ma * da + dm * arm
+        m[:, 2] += dm * da
+        lat[:, 0] += ma * tank_lats[t]
+        lat[:, 1] += dm * tank_lats[t]
+
+    # pieces that touch no edge stay on one side of the boundary: their middle settles them
+    inside = np.ones(len(a), dtype=bool)
+    for envelope in envelopes:
+        inside &= _covers(envelope, _polyval(w, 0.5), _polyval(m, 0.5), _polyval(lat, 0.5))
+    touched = np.zeros(len(a), dtype=bool)
+    candidates = []
+    for envelope in envelopes:
+        f = _edge_polynomials(envelope, w, m, lat)  # (K, 3, E)
+        c, b, q = f[:, 0], f[:, 1], f[:, 2]
+        # only where the polynomial can vanish on [0, 1]: a sign change between the ends,
+        # or a turning point inside with the other sign
+        with np.errstate(divide="ignore", invalid="ignore"):
+            turn = -b / (2.0 * q)
+            maybe = (c * (q + b + c) <= 0) | ((turn > 0) & (turn < 1) & (c * (c + turn * (b + turn * q)) <= 0))
+        k_all, e_all = np.nonzero(maybe)
+        if len(k_all) == 0:
+            continue
+        for r in _quadratic_roots(q[k_all, e_all], b[k_all, e_all], c[k_all, e_all]):
+            in_piece = (r >= -1e-12) & (r <= 1 + 1e-12)
+            if not in_piece.any():
+                continue
+            k, e = k_all[in_piece], e_all[in_piece]
+            u = np.clip(r[in_piece], 0.0, 1.0)
+            s = _edge_position(envelope, e, _polyval(w[k], u), _polyval(m[k], u), _polyval(lat[k], u))
+            touched[k[(s >= -_EDGE_SLACK) & (s <= 1 + _EDGE_SLACK)]] = True
+            column = np.full(f.shape[0] * f.shape[2], np.nan)
+            column[k * f.shape[2] + e] = u
+            candidates.append(column.reshape(f.shape[0], f.shape[2]))
+    # pieces that touch an edge: split at every root, test each part at its middle
+    hit = np.nonzero(touched)[0]
+    if len(hit):
+        cuts_u = np.concatenate([np.zeros((len(hit), 1)), *(c[hit] for c in candidates), np.ones((len(hit), 1))], axis=1)
+        cuts_u = np.sort(np.where(np.isfinite(cuts_u), cuts_u, 1.0), axis=1)
+        lo, hi = cuts_u[:, :-1], cuts_u[:, 1:]
+        mids = 0.5 * (lo + hi)
+        sub = [_polyval(c[hit][:, None, :], mids) for c in (w, m, lat)]
+        good = hi - lo <= 1e-12
+        both = np.ones(mids.shape, dtype=bool)
+        for envelope in envelopes:
+            both &= _covers(envelope, *sub)
+        inside[hit] = (good | both).all(axis=1)
+    result = np.ones(n, dtype=bool)
+    np.logical_and.at(result, rows, inside)
+    return result

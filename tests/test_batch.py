@@ -1,0 +1,128 @@
+"""The vectorised engine agrees with the single check on every loading."""
+
+from __future__ import annotations
+
+import numpy as np
+import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
+
+from loadcheck import check_loading, load_aircraft
+from loadcheck.batch import CONDITIONS, evaluate
+from loadcheck.loading import Loading
+
+from .helpers import sample, simple_aircraft
+
+AIRCRAFT = {name: load_aircraft(sample(f"{name}/aircraft.toml")) for name in ("trainer4", "tandem2", "twin6", "heli2")}
+ORDERS = {"trainer4": [None], "tandem2": [None], "twin6": [None, ("aux", "mains"), ("mains", "aux")], "heli2": [None]}
+
+
+def single(aircraft, stations, fuel, taxi, trip, order, category):
+    return check_loading(
+        aircraft,
+        Loading(
+            category=category,
+            load={s.id: float(stations[j]) for j, s in enumerate(aircraft.station)},
+            fuel={t.id: float(fuel[j]) for j, t in enumerate(aircraft.tank)},
+            burn={"taxi": float(taxi), "trip": float(trip), "order": list(order) if order else "together"},
+        ),
+    )
+
+
+def assert_agree(aircraft, stations, fuel, taxi, trip, order=None, category=None):
+    category = category or aircraft.categories[0]
+    batch = evaluate(aircraft, stations, fuel, taxi, trip, order=order, category=category)
+    for i in range(len(taxi)):
+        result = single(aircraft, stations[i], fuel[i], taxi[i], trip[i], order, category)
+        first = next(((f.code, f.condition or "") for f in result.findings if f.severity == "limit"), ("", ""))
+        assert (batch.first_finding[i], batch.first_condition[i]) == first, i
+        assert batch.ok[i] == result.ok, i
+        assert batch.burn_path_ok[i] == result.burn_path.ok, i
+        for condition in result.conditions:
+            name = condition.condition
+            assert batch.condition_ok[name][i] == condition.ok, (i, name)
+            assert batch.weight[name][i] == pytest.approx(condition.weight, rel=1e-12)
+            assert batch.arm[name][i] == pytest.approx(condition.arm, rel=1e-12)
+
+
+def random_rows(aircraft, order, seed, n):
+    rng = np.random.default_rng(seed)
+    stations = np.stack([rng.uniform(0, (s.max_weight or 200) * 1.1, n) for s in aircraft.station], axis=1)
+    fuel = np.stack([rng.uniform(0, t.usable, n) for t in aircraft.tank], axis=1)
+    ids = [t.id for t in aircraft.tank]
+    burnable = fuel.sum(1) if order is None else fuel[:, [ids.index(x) for x in order]].sum(1)
+    taxi = np.minimum(rng.uniform(0, 2, n), burnable)
+    trip = (burnable - taxi) * rng.uniform(0, 1, n)
+    trip[rng.uniform(size=n) < 0.05] = 0.0
+    return stations, fuel, taxi, trip
+
+
+@settings(max_examples=12, deadline=None)
+@given(st.sampled_from(sorted(AIRCRAFT)), st.integers(0, 2**32 - 1), st.data())
+def test_random_loadings_agree(name, seed, data):
+    aircraft = AIRCRAFT[name]
+    order = data.draw(st.sampled_from(ORDERS[name]))
+    category = data.draw(st.sampled_from(aircraft.categories))
+    assert_agree(aircraft, *random_rows(aircraft, order, seed, 60), order=order, category=category)
+
+
+def test_points_exactly_on_limits_agree():
+    # the simple box (35..48 in, 900..2000 lb): CG put exactly on the aft or forward limit
+    aircraft = simple_aircraft(tank=[{"id": "main", "arm": 48.0, "usable": 40, "fuel": "avgas"}],
+                               station=[{"id": "front", "arm": 35.0}, {"id": "rear", "arm": 70.0}, {"id": "nose", "arm": 0.0}])
+    rows = []
+    for front in np.linspace(0, 400, 21):
+        w0, m0 = 1000.0 + front, 40_000.0 + 35.0 * front
+        rows.append([front, (48.0 * w0 - m0) / (70.0 - 48.0), 0.0])  # aft limit, fuel at the aft limit too
+        rows.append([front, 0.0, (m0 - 35.0 * w0) / 35.0])  # forward limit
+    stations = np.array(rows)
+    fuel = np.full((len(rows), 1), 20.0)
+    taxi, trip = np.full(len(rows), 1.0), np.full(len(rows), 15.0)
+    batch = evaluate(aircraft, stations, np.zeros((len(rows), 1)), np.zeros(len(rows)), np.zeros(len(rows)))
+    assert batch.envelope_ok["zero_fuel"][batch.weight["zero_fuel"] <= 2000].all()
+    assert_agree(aircraft, stations, fuel, taxi, trip)
+
+
+def test_path_running_along_an_edge_agrees():
+    # everything at 35 in: the CG sits on the forward limit for the whole burn
+    aircraft = simple_aircraft(empty={"weight": 1000.0, "arm": 35.0},
+                               tank=[{"id": "main", "arm": 35.0, "usable": 40, "fuel": "avgas"}])
+    stations = np.array([[200.0, 0.0, 0.0], [0.0, 0.0, 0.0]])
+    fuel = np.array([[40.0], [10.0]])
+    batch = evaluate(aircraft, stations, fuel, np.array([1.0, 0.0]), np.array([30.0, 10.0]))
+    assert batch.burn_path_ok.all() and batch.ok.all()
+    assert_agree(aircraft, stations, fuel, np.array([1.0, 0.0]), np.array([30.0, 10.0]))
+
+
+def test_path_grazing_a_notch_corner_agrees():
+    notch = [[35.0, 900.0], [35.0, 1500.0], [40.0, 1800.0], [40.0, 2000.0], [48.0, 2000.0], [48.0, 900.0]]
+    aircraft = simple_aircraft(envelope=[{"category": "normal", "axes": ["arm", "weight"], "points": notch}],
+                               tank=[{"id": "main", "arm": 55.0, "usable": 100, "fuel": "avgas"}])
+    rng = np.random.default_rng(3)
+    n = 300
+    stations = np.stack([rng.uniform(0, 400, n), rng.uniform(0, 150, n), rng.uniform(0, 100, n)], axis=1)
+    fuel = rng.uniform(0, 100, (n, 1))
+    taxi = np.zeros(n)
+    trip = fuel[:, 0] * rng.uniform(0.3, 1.0, n)
+    assert_agree(aircraft, stations, fuel, taxi, trip)
+    assert not evaluate(aircraft, stations, fuel, taxi, trip).burn_path_ok.all()
+
+
+def test_bad_rows_are_marked_not_raised():
+    aircraft = AIRCRAFT["trainer4"]
+    stations = np.array([[340.0, 150.0, 0.0, 0.0], [np.nan, 0, 0, 0], [-5.0, 0, 0, 0], [300.0, 0, 0, 0]])
+    fuel = np.array([[30.0], [30.0], [30.0], [80.0]])
+    result = evaluate(aircraft, stations, fuel, np.zeros(4), np.full(4, 10.0))
+    assert result.valid.tolist() == [True, False, False, False]
+    assert result.first_finding.tolist()[1:] == ["input"] * 3
+    assert result.ok.tolist() == [True, False, False, False]
+
+
+def test_large_batches_are_chunked_identically():
+    aircraft = AIRCRAFT["twin6"]
+    data = random_rows(aircraft, ("aux", "mains"), 11, 70_000)
+    whole = evaluate(aircraft, *data, order=("aux", "mains"))
+    part = evaluate(aircraft, *(a[-500:] for a in data), order=("aux", "mains"))
+    assert (whole.ok[-500:] == part.ok).all()
+    for name in CONDITIONS:
+        assert np.array_equal(whole.weight[name][-500:], part.weight[name])
