@@ -25,12 +25,12 @@ from dataclasses import dataclass, fields
 from typing import Any
 
 import numpy as np
-import shapely
 
 from .aircraft import Aircraft, Envelope
 from .check import WEIGHT_TOLERANCE
+from .loading import ResolvedLoading
 
-__all__ = ["BatchResult", "evaluate", "CONDITIONS"]
+__all__ = ["BatchResult", "LoadingArrays", "evaluate", "evaluate_arrays", "loading_arrays", "CONDITIONS"]
 
 CONDITIONS = ("ramp", "takeoff", "landing", "zero_fuel")
 _EDGE_SLACK = 1e-9  # how far past an edge's ends a crossing still counts (scaled units)
@@ -68,6 +68,69 @@ class BatchResult:
     ok: np.ndarray
     first_finding: np.ndarray
     first_condition: np.ndarray
+
+
+@dataclass(frozen=True)
+class LoadingArrays:
+    """One resolved loading as the engine's arrays (the rows of a batch of one).
+
+    Attributes
+    ----------
+    stations : (S,) weight per station, ``aircraft.station`` order [mass unit]
+    fuel : (T,) quantity per tank at engine start [fuel volume unit]
+    taxi, trip : [fuel volume unit]
+    order : None (together) or tank ids in burn order
+    density : (T,) per tank [mass unit per fuel volume unit]
+    category : envelope category
+    """
+
+    stations: np.ndarray
+    fuel: np.ndarray
+    taxi: float
+    trip: float
+    order: tuple[str, ...] | None
+    density: np.ndarray
+    category: str
+
+
+def loading_arrays(aircraft: Aircraft, loading: ResolvedLoading) -> LoadingArrays:
+    """The engine's arrays for one resolved loading."""
+    return LoadingArrays(
+        stations=np.array([loading.stations.get(s.id, 0.0) for s in aircraft.station], dtype=float),
+        fuel=np.array([loading.fuel[t.id] for t in aircraft.tank], dtype=float),
+        taxi=loading.taxi,
+        trip=loading.trip,
+        order=loading.plan.order,
+        density=np.array([loading.density[t.id] for t in aircraft.tank], dtype=float),
+        category=loading.category,
+    )
+
+
+def evaluate_arrays(
+    aircraft: Aircraft,
+    base: LoadingArrays,
+    *,
+    stations: np.ndarray | None = None,
+    fuel: np.ndarray | None = None,
+    taxi: np.ndarray | None = None,
+    trip: np.ndarray | None = None,
+) -> BatchResult:
+    """Evaluate variations of one loading: any array given replaces the base's value.
+
+    The arrays given must have N rows (stations (N, S), fuel (N, T), taxi and trip (N,));
+    the others are repeated from ``base``.
+    """
+    n = next(len(a) for a in (stations, fuel, taxi, trip) if a is not None)
+    return evaluate(
+        aircraft,
+        stations if stations is not None else np.tile(base.stations, (n, 1)),
+        fuel if fuel is not None else np.tile(base.fuel, (n, 1)),
+        taxi if taxi is not None else np.full(n, base.taxi),
+        trip if trip is not None else np.full(n, base.trip),
+        order=base.order,
+        category=base.category,
+        density=base.density,
+    )
 
 
 # -- fuel ---------------------------------------------------------------------------------
@@ -189,7 +252,7 @@ def _edge_position(envelope: Envelope, edges: np.ndarray, w: np.ndarray, m: np.n
     return ((x - start[:, 0]) * d[:, 0] + (y - start[:, 1]) * d[:, 1]) / (d * d).sum(axis=1)
 
 
-def _polyval(c: np.ndarray, u: np.ndarray) -> np.ndarray:
+def _polyval(c: np.ndarray, u: np.ndarray | float) -> np.ndarray:
     return c[..., 0] + u * (c[..., 1] + u * c[..., 2])
 
 
@@ -210,7 +273,7 @@ def evaluate(
     *,
     order: Sequence[str] | None = None,
     category: str | None = None,
-    density: Sequence[float] | None = None,
+    density: Sequence[float] | np.ndarray | None = None,
 ) -> BatchResult:
     """Evaluate N loadings of one aircraft.
 
@@ -258,7 +321,7 @@ def _evaluate(
     trip: np.ndarray,
     order: Sequence[str] | None,
     category: str | None,
-    density: Sequence[float] | None,
+    density: Sequence[float] | np.ndarray | None,
 ) -> BatchResult:
     n = stations.shape[0]
     fuel = np.asarray(fuel, dtype=float).reshape(n, len(aircraft.tank))
@@ -312,7 +375,7 @@ def _evaluate(
 
     limits = aircraft.limits
     limit_ok: dict[str, np.ndarray] = {}
-    weight_limits = {
+    weight_limits: dict[str, list[tuple[str, float | None]]] = {
         "ramp": [("max_ramp_weight", limits.ramp)],
         "takeoff": [("max_takeoff_weight", limits.max_takeoff_weight)],
         "landing": [("max_landing_weight", limits.landing)],
@@ -351,7 +414,7 @@ def _evaluate(
     condition_ok = {name: weight_ok[name] & minimum_ok[name] & envelope_ok[name] for name in CONDITIONS}
 
     station_findings = _station_findings(aircraft, stations)
-    limit_ok["stations"] = ~station_findings.any(axis=1)
+    limit_ok["stations"] = np.asarray(~station_findings.any(axis=1))
 
     path_ok = _burn_path_ok(aircraft, envelopes, fuel, taxi, trip, order_index, rho, tank_lats, pay_w, pay_m, pay_l)
     path_ok = np.where(trip > 0, path_ok, envelope_ok["takeoff"])
@@ -374,8 +437,8 @@ def _evaluate(
                 mark(~limit_ok[code], code, name)
         mark(~minimum_ok[name], "min_flight_weight", name)
         if name != "zero_fuel" or zero_fuel_cg_is_limit:
-            for inside in per_envelope[name]:
-                mark(~inside, "envelope", name)
+            for inside_one in per_envelope[name]:
+                mark(~inside_one, "envelope", name)
     mark(~path_ok, "burn_path")
     codes = _station_codes(aircraft)
     for column, code in enumerate(codes):
@@ -401,12 +464,7 @@ def _evaluate(
 
 
 def _station_codes(aircraft: Aircraft) -> list[str]:
-    codes = []
-    for station in aircraft.station:
-        codes += ["station_max", "station_min"]
-    for group in aircraft.station_group:
-        codes += ["group_max", "group_min"]
-    return codes
+    return ["station_max", "station_min"] * len(aircraft.station) + ["group_max", "group_min"] * len(aircraft.station_group)
 
 
 def _station_findings(aircraft: Aircraft, stations: np.ndarray) -> np.ndarray:
@@ -447,8 +505,8 @@ def _burn_path_ok(
             running = running + fuel[:, tank]
             cuts.append(running.copy())
     total = fuel.sum(axis=1) if order is None else None
-    for index, tank in enumerate(aircraft.tank):
-        for knot in tank.arm_knots():
+    for index, tank_data in enumerate(aircraft.tank):
+        for knot in tank_data.arm_knots():
             held = fuel[:, index]
             with np.errstate(divide="ignore", invalid="ignore"):
                 if order is None:
@@ -473,19 +531,19 @@ def _burn_path_ok(
     qa = _quantities(piece_fuel, a[:, None], order)[:, 0]
     qb = _quantities(piece_fuel, b[:, None], order)[:, 0]
     arm_a, arm_b = _tank_arms(aircraft, qa), _tank_arms(aircraft, qb)
-    k = len(a)
-    w, m, lat = np.zeros((k, 3)), np.zeros((k, 3)), np.zeros((k, 3))
+    count = len(a)
+    w, m, lat = np.zeros((count, 3)), np.zeros((count, 3)), np.zeros((count, 3))
     w[:, 0], m[:, 0], lat[:, 0] = pay_w[rows], pay_m[rows], pay_l[rows]
-    for t in range(qa.shape[1]):  # a few tanks: a loop beats reductions over a short axis
-        ma, dm = qa[:, t] * rho[t], (qb[:, t] - qa[:, t]) * rho[t]
-        arm, da = arm_a[:, t], arm_b[:, t] - arm_a[:, t]
+    for ti in range(qa.shape[1]):  # a few tanks: a loop beats reductions over a short axis
+        ma, dm = qa[:, ti] * rho[ti], (qb[:, ti] - qa[:, ti]) * rho[ti]
+        arm, da = arm_a[:, ti], arm_b[:, ti] - arm_a[:, ti]
         w[:, 0] += ma
         w[:, 1] += dm
         m[:, 0] += ma * arm
         m[:, 1] += ma * da + dm * arm
         m[:, 2] += dm * da
-        lat[:, 0] += ma * tank_lats[t]
-        lat[:, 1] += dm * tank_lats[t]
+        lat[:, 0] += ma * tank_lats[ti]
+        lat[:, 1] += dm * tank_lats[ti]
 
     # pieces that touch no edge stay on one side of the boundary: their middle settles them
     inside = np.ones(len(a), dtype=bool)

@@ -21,7 +21,7 @@ from .balance import CONDITIONS, MassState, burn_pieces, condition_states, fuel_
 from .caution import PILOT_CAUTION
 from .display import fmt
 from .envelope import EnvelopeShape, Vary, path_excursions
-from .loading import Loading, ResolvedLoading, resolve_loading
+from .loading import Loading, ResolvedLoading, require_usable, resolve_loading
 from .results import (
     AircraftInfo,
     BurnPath,
@@ -73,7 +73,11 @@ def check_loading(
     FAA-H-8083-1B chapter 2 (sum of moments, CG = total moment / total weight);
     AC 43.13-1B chapter 10 section 1 (loading conditions).
     """
-    resolved = loading if isinstance(loading, ResolvedLoading) else resolve_loading(loading, aircraft, category=category)
+    if isinstance(loading, ResolvedLoading):
+        require_usable(loading, aircraft)  # a loading resolved by hand is held to the same rules
+        resolved = loading
+    else:
+        resolved = resolve_loading(loading, aircraft, category=category)
     units = aircraft.units
     shapes = [e.shape for e in aircraft.envelopes_for(resolved.category)]
     findings: list[Finding] = []

@@ -109,21 +109,58 @@ def _main(
     """Aircraft weight and balance."""
 
 
+# Options shared by `check` and the `plan` commands.
+AircraftArg = Annotated[Path, typer.Argument(help="Aircraft file (TOML), or a loading file that names its aircraft.")]
+LoadingArg = Annotated[Path | None, typer.Argument(help="Loading file (TOML); optional.")]
+LoadOpt = Annotated[list[str], typer.Option("--load", "-l", help="STATION=WEIGHT; repeat. e.g. front=340, bag1='20 kg'.")]
+FuelOpt = Annotated[list[str], typer.Option("--fuel", "-f", help="TANK=QUANTITY; repeat. A volume, 'full', a level name or '120 lb'.")]
+TaxiOpt = Annotated[str | None, typer.Option(help="Fuel used before takeoff (volume, or with a unit).")]
+TripOpt = Annotated[str | None, typer.Option(help="Fuel used from takeoff to landing.")]
+TripTimeOpt = Annotated[str | None, typer.Option("--trip-time", help="Flight time, e.g. 2:15; with --rate.")]
+RateOpt = Annotated[str | None, typer.Option(help="Fuel used per hour (with --trip-time).")]
+OrderOpt = Annotated[str | None, typer.Option(help="'together', or tank ids in burn order: aux,mains.")]
+ReserveOpt = Annotated[str | None, typer.Option(help="Warn when landing fuel is below this.")]
+CategoryOpt = Annotated[str | None, typer.Option("--category", "-c", help="Envelope category (default: the file's first).")]
+JsonOpt = Annotated[bool, typer.Option("--json", help="Print one JSON object instead of tables.")]
+
+
+def _inputs(
+    aircraft: Path, loading: Path | None, load: list[str], fuel: list[str], taxi: str | None, trip: str | None,
+    trip_time: str | None, rate: str | None, order: str | None, reserve: str | None, category: str | None,
+) -> Any:
+    """Read the files and lay the options over them (loadcheck.files.load_check_inputs)."""
+    from .files import load_check_inputs
+
+    burn: dict[str, Any] = {}
+    for key, value in (("taxi", taxi), ("trip", trip), ("trip_time", trip_time), ("rate", rate), ("reserve", reserve)):
+        if value is not None:
+            burn[key] = value
+    if order is not None:
+        burn["order"] = "together" if order.strip() == "together" else [t.strip() for t in order.split(",") if t.strip()]
+    inputs = load_check_inputs(
+        aircraft, loading, load=_assignments(load, "--load"), fuel=_assignments(fuel, "--fuel"),
+        burn=burn, category=category,
+    )
+    for note in inputs.notes:
+        _console(stderr=True).print(f"note: {note}", markup=False)
+    return inputs
+
+
 @app.command()
 @input_errors
 def check(
-    aircraft: Annotated[Path, typer.Argument(help="Aircraft file (TOML), or a loading file that names its aircraft.")],
-    loading: Annotated[Path | None, typer.Argument(help="Loading file (TOML); optional.")] = None,
-    load: Annotated[list[str], typer.Option("--load", "-l", help="STATION=WEIGHT; repeat. e.g. front=340, bag1='20 kg'.")] = [],  # noqa: B006
-    fuel: Annotated[list[str], typer.Option("--fuel", "-f", help="TANK=QUANTITY; repeat. A volume, 'full', a level name or '120 lb'.")] = [],  # noqa: B006
-    taxi: Annotated[str | None, typer.Option(help="Fuel used before takeoff (volume, or with a unit).")] = None,
-    trip: Annotated[str | None, typer.Option(help="Fuel used from takeoff to landing.")] = None,
-    trip_time: Annotated[str | None, typer.Option("--trip-time", help="Flight time, e.g. 2:15; with --rate.")] = None,
-    rate: Annotated[str | None, typer.Option(help="Fuel used per hour, with --trip-time.")] = None,
-    order: Annotated[str | None, typer.Option(help="'together', or tank ids in burn order: aux,mains.")] = None,
-    reserve: Annotated[str | None, typer.Option(help="Warn when landing fuel is below this.")] = None,
-    category: Annotated[str | None, typer.Option("--category", "-c", help="Envelope category (default: the file's first).")] = None,
-    json_out: Annotated[bool, typer.Option("--json", help="Print one JSON object instead of tables.")] = False,
+    aircraft: AircraftArg,
+    loading: LoadingArg = None,
+    load: LoadOpt = [],  # noqa: B006
+    fuel: FuelOpt = [],  # noqa: B006
+    taxi: TaxiOpt = None,
+    trip: TripOpt = None,
+    trip_time: TripTimeOpt = None,
+    rate: RateOpt = None,
+    order: OrderOpt = None,
+    reserve: ReserveOpt = None,
+    category: CategoryOpt = None,
+    json_out: JsonOpt = False,
     chart: Annotated[Path | None, typer.Option(help="Write the envelope chart: .png, .svg or .pdf.")] = None,
     sheet: Annotated[Path | None, typer.Option(help="Write a printable load sheet (.html).")] = None,
     plot: Annotated[bool, typer.Option("--plot", help="Draw a small text plot of the envelope under the tables.")] = False,
@@ -141,20 +178,8 @@ def check(
     Exit status: 0 within limits, 1 a limit is exceeded, 2 the input could not be used.
     """
     from .check import check_loading
-    from .files import load_check_inputs
 
-    burn: dict[str, Any] = {}
-    for key, value in (("taxi", taxi), ("trip", trip), ("trip_time", trip_time), ("rate", rate), ("reserve", reserve)):
-        if value is not None:
-            burn[key] = value
-    if order is not None:
-        burn["order"] = "together" if order.strip() == "together" else [t.strip() for t in order.split(",") if t.strip()]
-    inputs = load_check_inputs(
-        aircraft, loading, load=_assignments(load, "--load"), fuel=_assignments(fuel, "--fuel"),
-        burn=burn, category=category,
-    )
-    for note in inputs.notes:
-        _console(stderr=True).print(f"note: {note}", markup=False)
+    inputs = _inputs(aircraft, loading, load, fuel, taxi, trip, trip_time, rate, order, reserve, category)
     result = check_loading(inputs.aircraft, inputs.loading)
     if chart is not None or sheet is not None:
         _write_pictures(inputs, result, chart, sheet)
@@ -266,6 +291,214 @@ def schema(
 
     schemas = {"aircraft": Aircraft.model_json_schema(), "loading": Loading.model_json_schema()}
     typer.echo(json.dumps(schemas if kind == "all" else schemas[kind], indent=2))
+
+
+plan_app = typer.Typer(
+    help=(
+        "Planning answers: most fuel, longest trip, most payload, fuel to leave behind, least ballast, "
+        "weight shift, fuel against payload. Each honours every limit the check enforces.\n\n"
+        "Exit status: 0 an answer was found, 1 no amount brings the loading within limits, 2 bad input."
+    ),
+    no_args_is_help=True,
+)
+app.add_typer(plan_app, name="plan")
+
+StationOpt = Annotated[str | None, typer.Option("--station", "-s", help="Station id.")]
+FillOpt = Annotated[str | None, typer.Option(help="Tanks in the order they are filled: mains,aux (default: reverse burn order).")]
+
+
+def _fill(fill: str | None) -> list[str] | None:
+    return None if fill is None else [t.strip() for t in fill.split(",") if t.strip()]
+
+
+def _answer(result: Any, json_out: bool) -> None:
+    if json_out:
+        typer.echo(result.to_json())
+    else:
+        from .render.terminal import render_plan
+
+        render_plan(result, _console())
+    raise typer.Exit(EXIT_OK if result.feasible else EXIT_LIMIT)
+
+
+def _need(value: Any, option: str) -> Any:
+    if value is None:
+        raise InputError(Problem(option, "this option is required here"))
+    return value
+
+
+@plan_app.command("fuel")
+@input_errors
+def plan_fuel(
+    aircraft: AircraftArg, loading: LoadingArg = None, load: LoadOpt = [], fuel: FuelOpt = [],  # noqa: B006
+    taxi: TaxiOpt = None, trip: TripOpt = None, trip_time: TripTimeOpt = None, rate: RateOpt = None,
+    order: OrderOpt = None, reserve: ReserveOpt = None, category: CategoryOpt = None, fill: FillOpt = None,
+    json_out: JsonOpt = False,
+) -> None:
+    """The most fuel at engine start for which the whole flight is within limits.
+
+    Example:
+
+      loadcheck plan fuel sample_aircraft/trainer4/within.toml
+    """
+    from .planning import most_fuel
+
+    inputs = _inputs(aircraft, loading, load, fuel, taxi, trip, trip_time, rate, order, reserve, category)
+    _answer(most_fuel(inputs.aircraft, inputs.loading, fill=_fill(fill)), json_out)
+
+
+@plan_app.command("trip")
+@input_errors
+def plan_trip(
+    aircraft: AircraftArg, loading: LoadingArg = None, load: LoadOpt = [], fuel: FuelOpt = [],  # noqa: B006
+    taxi: TaxiOpt = None, order: OrderOpt = None, category: CategoryOpt = None, fill: FillOpt = None,
+    rate: Annotated[str | None, typer.Option(help="Fuel used per hour [fuel volume unit].")] = None,
+    reserve: Annotated[str, typer.Option(help="Fuel to land with [fuel volume unit].")] = "0",
+    json_out: JsonOpt = False,
+) -> None:
+    """The longest trip the most fuel allows at a burn rate, landing with a reserve.
+
+    Example:
+
+      loadcheck plan trip sample_aircraft/trainer4/within.toml --rate 9.5 --reserve 8
+    """
+    from .planning import longest_trip
+    from .units import read_amount
+
+    inputs = _inputs(aircraft, loading, load, fuel, taxi, None, None, None, order, None, category)
+    volume = inputs.aircraft.units.fuel_volume
+    result = longest_trip(inputs.aircraft, inputs.loading, rate=read_amount(_need(rate, "--rate"), volume, "--rate"),
+                          reserve=read_amount(reserve, volume, "--reserve"), fill=_fill(fill))
+    _answer(result, json_out)
+
+
+@plan_app.command("payload")
+@input_errors
+def plan_payload(
+    aircraft: AircraftArg, loading: LoadingArg = None, load: LoadOpt = [], fuel: FuelOpt = [],  # noqa: B006
+    taxi: TaxiOpt = None, trip: TripOpt = None, trip_time: TripTimeOpt = None, rate: RateOpt = None,
+    order: OrderOpt = None, reserve: ReserveOpt = None, category: CategoryOpt = None, station: StationOpt = None,
+    json_out: JsonOpt = False,
+) -> None:
+    """The most weight a station can take with everything else as given.
+
+    Example:
+
+      loadcheck plan payload sample_aircraft/trainer4/within.toml --station bag1
+    """
+    from .planning import most_payload
+
+    inputs = _inputs(aircraft, loading, load, fuel, taxi, trip, trip_time, rate, order, reserve, category)
+    _answer(most_payload(inputs.aircraft, inputs.loading, _need(station, "--station")), json_out)
+
+
+@plan_app.command("leave")
+@input_errors
+def plan_leave(
+    aircraft: AircraftArg, loading: LoadingArg = None, load: LoadOpt = [], fuel: FuelOpt = [],  # noqa: B006
+    taxi: TaxiOpt = None, trip: TripOpt = None, trip_time: TripTimeOpt = None, rate: RateOpt = None,
+    order: OrderOpt = None, reserve: ReserveOpt = None, category: CategoryOpt = None, station: StationOpt = None,
+    payload: Annotated[str | None, typer.Option(help="Weight to carry at the station (mass, or with a unit).")] = None,
+    fill: FillOpt = None, json_out: JsonOpt = False,
+) -> None:
+    """The fuel to leave behind to carry a payload at a station.
+
+    Example:
+
+      loadcheck plan leave sample_aircraft/twin6/within.toml --station row3 --payload 340
+    """
+    from .planning import fuel_to_leave
+    from .units import read_amount
+
+    inputs = _inputs(aircraft, loading, load, fuel, taxi, trip, trip_time, rate, order, reserve, category)
+    weight = read_amount(_need(payload, "--payload"), inputs.aircraft.units.mass, "--payload")
+    _answer(fuel_to_leave(inputs.aircraft, inputs.loading, _need(station, "--station"), weight, fill=_fill(fill)), json_out)
+
+
+@plan_app.command("ballast")
+@input_errors
+def plan_ballast(
+    aircraft: AircraftArg, loading: LoadingArg = None, load: LoadOpt = [], fuel: FuelOpt = [],  # noqa: B006
+    taxi: TaxiOpt = None, trip: TripOpt = None, trip_time: TripTimeOpt = None, rate: RateOpt = None,
+    order: OrderOpt = None, reserve: ReserveOpt = None, category: CategoryOpt = None, station: StationOpt = None,
+    json_out: JsonOpt = False,
+) -> None:
+    """The least ballast (at the aircraft's ballast station, or --station) that brings the loading within limits.
+
+    Example:
+
+      loadcheck plan ballast sample_aircraft/tandem2/aft_heavy.toml
+    """
+    from .planning import least_ballast
+
+    inputs = _inputs(aircraft, loading, load, fuel, taxi, trip, trip_time, rate, order, reserve, category)
+    _answer(least_ballast(inputs.aircraft, inputs.loading, station), json_out)
+
+
+@plan_app.command("shift")
+@input_errors
+def plan_shift(
+    aircraft: AircraftArg, loading: LoadingArg = None, load: LoadOpt = [], fuel: FuelOpt = [],  # noqa: B006
+    taxi: TaxiOpt = None, trip: TripOpt = None, trip_time: TripTimeOpt = None, rate: RateOpt = None,
+    order: OrderOpt = None, reserve: ReserveOpt = None, category: CategoryOpt = None,
+    source: Annotated[str | None, typer.Option("--from", help="Station the weight comes from.")] = None,
+    to: Annotated[str | None, typer.Option("--to", help="Station it goes to.")] = None,
+    target: Annotated[str | None, typer.Option(help="CG to reach (arm, or with a unit); default: back within limits.")] = None,
+    condition: Annotated[str, typer.Option(help="Condition whose CG --target sets: ramp, takeoff, landing, zero_fuel.")] = "takeoff",
+    json_out: JsonOpt = False,
+) -> None:
+    """Weight to move from one station to another: to a target CG, or back within limits.
+
+    Example:
+
+      loadcheck plan shift sample_aircraft/tandem2/aft_heavy.toml --from baggage --to front
+    """
+    from .planning import weight_shift
+    from .units import read_amount
+
+    if condition not in ("ramp", "takeoff", "landing", "zero_fuel"):
+        raise InputError(Problem("--condition", f"unknown condition {condition!r}", expected="ramp, takeoff, landing or zero_fuel"))
+    inputs = _inputs(aircraft, loading, load, fuel, taxi, trip, trip_time, rate, order, reserve, category)
+    arm = None if target is None else read_amount(target, inputs.aircraft.units.arm, "--target")
+    result = weight_shift(inputs.aircraft, inputs.loading, _need(source, "--from"), _need(to, "--to"),
+                          target_arm=arm, condition=condition)  # type: ignore[arg-type]
+    _answer(result, json_out)
+
+
+@plan_app.command("table")
+@input_errors
+def plan_table(
+    aircraft: AircraftArg, loading: LoadingArg = None, load: LoadOpt = [], fuel: FuelOpt = [],  # noqa: B006
+    taxi: TaxiOpt = None, trip: TripOpt = None, trip_time: TripTimeOpt = None, rate: RateOpt = None,
+    order: OrderOpt = None, reserve: ReserveOpt = None, category: CategoryOpt = None, station: StationOpt = None,
+    steps: Annotated[int, typer.Option(min=2, max=201, help="Rows of payload.")] = 11,
+    fill: FillOpt = None,
+    chart: Annotated[Path | None, typer.Option(help="Also draw it: .png, .svg or .pdf.")] = None,
+    json_out: JsonOpt = False,
+) -> None:
+    """Allowed ramp fuel against payload added at a station, as a table (and a chart).
+
+    Example:
+
+      loadcheck plan table sample_aircraft/trainer4/within.toml --station rear --chart fuel-payload.png
+    """
+    from .planning import fuel_payload_table
+
+    inputs = _inputs(aircraft, loading, load, fuel, taxi, trip, trip_time, rate, order, reserve, category)
+    name = _need(station, "--station")
+    rows = fuel_payload_table(inputs.aircraft, inputs.loading, name, steps=steps, fill=_fill(fill))
+    if chart is not None:
+        from .render.chart import fuel_payload_figure, save_figure
+
+        save_figure(fuel_payload_figure(inputs.aircraft, rows, name), chart)
+        _console(stderr=True).print(f"chart written: {chart}", markup=False)
+    if json_out:
+        typer.echo(json.dumps([r.to_dict() for r in rows], indent=2))
+    else:
+        from .render.terminal import render_table
+
+        render_table(inputs.aircraft, rows, name, _console())
+    raise typer.Exit(EXIT_OK if any(r.most is not None for r in rows) else EXIT_LIMIT)
 
 
 def main() -> None:

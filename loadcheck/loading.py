@@ -274,7 +274,7 @@ def resolve_loading(loading: Loading, aircraft: Aircraft, *, category: str | Non
                     expected=f"at most {tank.usable:g} {units.fuel_volume}",
                 )
             )
-        fuel[name] = min(volume, tank.usable)
+        fuel[name] = volume
     missing = [t.id for t in aircraft.tank if t.id not in loading.fuel]
     if missing and loading.fuel:
         notes.append(f"no fuel given for {', '.join(missing)}; taken as empty")
@@ -313,15 +313,40 @@ def resolve_loading(loading: Loading, aircraft: Aircraft, *, category: str | Non
     if burn.trip is None and burn.trip_time is None:
         notes.append("no trip fuel given; landing is checked at the takeoff fuel")
     reserve = None if burn.reserve is None else volume_of(burn.reserve, "burn.reserve")
-    if taxi + trip > plan.burnable * (1 + 1e-9):
-        raise InputError(
-            Problem(
-                "burn",
-                f"taxi and trip fuel ({taxi + trip:g} {units.fuel_volume}) exceed the fuel the burn order can use",
-                expected=f"at most {plan.burnable:g} {units.fuel_volume}",
-            )
-        )
-    return ResolvedLoading(chosen, stations, fuel, density, taxi, trip, reserve, plan, notes)
+    resolved = ResolvedLoading(chosen, stations, fuel, density, taxi, trip, reserve, plan, notes)
+    require_usable(resolved, aircraft)
+    return resolved
+
+
+def require_usable(loading: ResolvedLoading, aircraft: Aircraft) -> None:
+    """Fail closed on a resolved loading that no flight can have.
+
+    Raises
+    ------
+    InputError
+        Fuel above a tank's usable capacity or below zero, a negative station weight, or
+        more taxi and trip fuel than the burn order can use.
+    """
+    units = aircraft.units
+    problems = []
+    for tank in aircraft.tank:
+        quantity = loading.fuel.get(tank.id, 0.0)
+        if not (0.0 <= quantity <= tank.usable * (1 + 1e-9)):
+            problems.append(Problem(f"fuel.{tank.id}", "outside 0 and the tank's usable capacity", value=quantity,
+                                    expected=f"0 to {tank.usable:g} {units.fuel_volume}"))
+    for station, weight in loading.stations.items():
+        if not weight >= 0.0:
+            problems.append(Problem(f"load.{station}", "must not be negative", value=weight))
+    if not (loading.taxi >= 0 and loading.trip >= 0):
+        problems.append(Problem("burn", "taxi and trip fuel must not be negative"))
+    elif loading.taxi + loading.trip > loading.plan.burnable * (1 + 1e-9):
+        problems.append(Problem(
+            "burn",
+            f"taxi and trip fuel ({loading.taxi + loading.trip:g} {units.fuel_volume}) exceed the fuel the burn order can use",
+            expected=f"at most {loading.plan.burnable:g} {units.fuel_volume}",
+        ))
+    if problems:
+        raise InputError(problems)
 
 
 def _known(names: Mapping[str, Any]) -> str:

@@ -234,3 +234,25 @@ def parse_duration_hours(text: str | float | int) -> float:
     if not math.isfinite(hours) or hours < 0:
         raise UnitError(f"duration {text!r} must be a finite, non-negative time")
     return hours
+
+
+def read_amount(text: str | float, unit: str, field: str = "") -> float:
+    """Read a typed amount into ``unit``: a bare number is already in it.
+
+    Raises
+    ------
+    UnitError
+        Naming ``field`` when the text is not a number or its unit is of another kind.
+
+    Examples
+    --------
+    >>> round(read_amount("20 kg", "lb"), 3)
+    44.092
+    """
+    try:
+        quantity = parse_quantity(text)
+        if quantity.unit is None:
+            return quantity.value
+        return convert(quantity.value, quantity.unit, unit)
+    except UnitError as error:
+        raise UnitError([p.__class__(field or p.field, p.message, text) for p in error.problems]) from None

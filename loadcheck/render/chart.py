@@ -27,7 +27,7 @@ if TYPE_CHECKING:
     from matplotlib.axes import Axes
     from matplotlib.figure import Figure
 
-__all__ = ["FORMATS", "check_figure", "envelope_figure", "save_figure", "figure_svg"]
+__all__ = ["FORMATS", "check_figure", "envelope_figure", "fuel_payload_figure", "save_figure", "figure_svg"]
 
 FORMATS = ("png", "svg", "pdf")
 
@@ -176,6 +176,34 @@ def envelope_figure(aircraft: Aircraft, category: str | None = None) -> Figure:
     """A chart of the aircraft's envelopes alone (the chosen category, others fainter)."""
     chosen = category or aircraft.categories[0]
     return _figure(aircraft, chosen, _title(aircraft, f"{chosen} category envelope"), None)
+
+
+def fuel_payload_figure(aircraft: Aircraft, rows: Sequence[Any], station: str) -> Figure:
+    """Allowed ramp fuel against payload added at a station; the region within limits shaded."""
+    from matplotlib.figure import Figure
+
+    units = aircraft.units
+    figure = Figure(figsize=(6.4, 4.8), layout="constrained")
+    ax = figure.add_subplot(1, 1, 1)
+    payloads = [row.payload for row in rows]
+    step = (payloads[1] - payloads[0]) if len(payloads) > 1 else 1.0
+    labelled = False
+    for row in rows:
+        for interval in row.intervals:
+            ax.fill_between([row.payload - step / 2, row.payload + step / 2], interval.low, interval.high,
+                            color="#CFE3F2", edgecolor="#1B3A57", linewidth=0.6, hatch="//",
+                            label=None if labelled else "within limits", gid="within-limits")
+            labelled = True
+    most = [(row.payload, row.most) for row in rows if row.most is not None]
+    if most:
+        ax.plot([p for p, _ in most], [m for _, m in most], marker="o", color="#1B3A57", label="most ramp fuel",
+                gid="most-fuel")
+    ax.set_xlabel(f"Weight added at {station} ({units.mass})")
+    ax.set_ylabel(f"Ramp fuel ({units.fuel_volume})")
+    ax.grid(True, color="#DDDDDD", linewidth=0.6)
+    ax.legend(fontsize=8)
+    figure.suptitle(_title(aircraft, f"ramp fuel against payload at {station}"), fontsize=11)
+    return figure
 
 
 def save_figure(figure: Any, path: str | Path) -> None:

@@ -7,6 +7,8 @@ Meaning never rests on colour alone: every verdict is also written in words.
 
 from __future__ import annotations
 
+from typing import TYPE_CHECKING
+
 from rich.console import Console, Group
 from rich.panel import Panel
 from rich.table import Table
@@ -16,7 +18,10 @@ from ..aircraft import Aircraft
 from ..display import fmt
 from ..results import CheckResult, Condition
 
-__all__ = ["caution_text", "render_aircraft", "render_check"]
+if TYPE_CHECKING:
+    from ..planning import PlanResult, TableRow
+
+__all__ = ["caution_text", "render_aircraft", "render_check", "render_plan", "render_table"]
 
 _NAMES = {"ramp": "Ramp", "takeoff": "Takeoff", "landing": "Landing", "zero_fuel": "Zero fuel"}
 _OK_STYLE, _LIMIT_STYLE, _WARN_STYLE = "bold green", "bold red", "bold yellow"
@@ -238,3 +243,48 @@ def render_aircraft(aircraft: Aircraft, console: Console, caution: str) -> None:
         envelopes.add_row(e.category, e.label or "", axes, "  ".join(f"({x:g}, {y:g})" for x, y in e.points))
     console.print(envelopes)
     console.print(caution_text(caution))
+
+
+def render_plan(result: PlanResult, console: Console) -> None:
+    """Print a planning answer: the answer, every feasible stretch, what limits it, the check at it."""
+    console.print(Text(result.question[:1].upper() + result.question[1:], style="bold"))
+    style = _OK_STYLE if result.feasible else _LIMIT_STYLE
+    console.print(Text(f"{result.variable}: {result.answer_display}", style=style))
+    if result.governing:
+        console.print(f"limited by: {result.governing}", markup=False)
+    for key, value in result.extra.items():
+        console.print(f"{key}: {value}", markup=False)
+    if len(result.intervals) > 1:
+        console.print("The values within limits form more than one stretch:", markup=False)
+    if result.intervals:
+        stretches = Table(title=f"{result.variable} within limits ({result.unit})", title_justify="left")
+        stretches.add_column("from", justify="right")
+        stretches.add_column("to", justify="right")
+        for interval in result.intervals:
+            stretches.add_row(fmt(interval.low, result.unit, "up", with_unit=False),
+                              fmt(interval.high, result.unit, "down", with_unit=False))
+        console.print(stretches)
+        console.print(Text("Stretches are rounded inward: the ends shown are within limits.", style="dim"))
+    if result.check is not None:
+        console.print(_conditions_table(result.check))
+    console.print(caution_text(result.caution))
+
+
+def render_table(aircraft: Aircraft, rows: list[TableRow], station: str, console: Console) -> None:
+    """Print allowed ramp fuel against payload at a station."""
+    units = aircraft.units
+    table = Table(title=f"Ramp fuel within limits against weight added at {station}", title_justify="left")
+    table.add_column(f"Added at {station} ({units.mass})", justify="right")
+    table.add_column(f"Most ramp fuel ({units.fuel_volume})", justify="right")
+    table.add_column(f"Ramp fuel within limits ({units.fuel_volume})")
+    for row in rows:
+        most = "none" if row.most is None else fmt(row.most, units.fuel_volume, "down", with_unit=False)
+        stretches = ", ".join(
+            f"{fmt(i.low, units.fuel_volume, 'up', with_unit=False)} to {fmt(i.high, units.fuel_volume, 'down', with_unit=False)}"
+            for i in row.intervals
+        ) or "none"
+        table.add_row(fmt(row.payload, units.mass, with_unit=False), most, stretches)
+    console.print(table)
+    from ..caution import PILOT_CAUTION
+
+    console.print(caution_text(PILOT_CAUTION))

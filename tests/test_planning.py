@@ -1,0 +1,186 @@
+"""Planning answers checked against brute force with the plain check, a published
+weight-shift example, the two-stretch case and impossible requests."""
+
+from __future__ import annotations
+
+import numpy as np
+import pytest
+from hypothesis import HealthCheck, given, settings
+from hypothesis import strategies as st
+from typer.testing import CliRunner
+
+from loadcheck import check_loading, load_check_inputs
+from loadcheck import planning as P
+from loadcheck.cli import app
+from loadcheck.display import round_safe
+from loadcheck.errors import InputError, UnknownNameError
+from loadcheck.files import parse_aircraft
+from loadcheck.loading import Loading, resolve_loading
+
+from .helpers import sample
+
+runner = CliRunner()
+TRAINER = load_check_inputs(sample("trainer4/within.toml")).aircraft
+TWIN = load_check_inputs(sample("twin6/within.toml")).aircraft
+
+
+def _ok(aircraft, loading) -> bool:
+    try:
+        return check_loading(aircraft, loading).ok
+    except ValueError:
+        return False
+
+
+def _brute(aircraft, make, low, high, n=301):
+    """Feasible grid values found with the plain single check."""
+    return [x for x in np.linspace(low, high, n) if _ok(aircraft, make(x))]
+
+
+trainer_loads = st.fixed_dictionaries({
+    "front": st.floats(120, 420), "rear": st.floats(0, 380), "bag1": st.floats(0, 60), "bag2": st.floats(0, 40),
+    "trip": st.floats(0, 30), "category": st.sampled_from(["normal", "utility"]),
+})
+
+
+@settings(max_examples=8, deadline=None, suppress_health_check=[HealthCheck.too_slow])
+@given(trainer_loads)
+def test_most_fuel_agrees_with_brute_force_and_is_never_unsafe(v):
+    loading = resolve_loading(Loading(category=v["category"], load={k: v[k] for k in ("front", "rear", "bag1", "bag2")},
+                                      fuel={"mains": 50}, burn={"taxi": 1, "trip": v["trip"]}), TRAINER)
+    answer = P.most_fuel(TRAINER, loading)
+    fill = lambda x: P._fuel_loading(TRAINER, loading, None, x)  # noqa: E731
+    feasible = _brute(TRAINER, fill, 0.0, 50.0)
+    if not feasible:
+        grid_step = 50.0 / 300
+        assert answer.answer is None or answer.intervals[-1].high - answer.intervals[-1].low < 2 * grid_step
+        return
+    assert answer.answer is not None
+    # never on the unsafe side: the answer and its displayed rounding are within limits
+    assert _ok(TRAINER, fill(answer.answer))
+    assert _ok(TRAINER, fill(round_safe(answer.answer, 1, "down")))
+    # and not short of the brute-force best by more than the tolerance (0.1 lb = 0.017 gal)
+    assert answer.answer >= max(feasible) - 0.1 / 6.0
+
+
+twin_loads = st.fixed_dictionaries({
+    "row1": st.floats(150, 440), "row2": st.floats(0, 440), "row3": st.floats(0, 400), "nose": st.floats(0, 250),
+    "aft": st.floats(0, 200), "trip": st.floats(5, 80), "order": st.sampled_from([["aux", "mains"], "together"]),
+})
+
+
+@settings(max_examples=6, deadline=None, suppress_health_check=[HealthCheck.too_slow])
+@given(twin_loads, st.sampled_from(["row1", "row3", "nose", "aft"]))
+def test_most_payload_agrees_with_brute_force(v, station):
+    load = {k: v[k] for k in ("row1", "row2", "row3", "nose", "aft")}
+    loading = resolve_loading(Loading(load=load, fuel={"mains": 100, "aux": 40},
+                                      burn={"taxi": 2, "trip": v["trip"], "order": v["order"]}), TWIN)
+    answer = P.most_payload(TWIN, loading, station)
+    top = TWIN.stations[station].max_weight
+    make = lambda x: P._with(loading, stations={**loading.stations, station: x})  # noqa: E731
+    feasible = _brute(TWIN, make, 0.0, top, 201)
+    if answer.answer is None:
+        assert not feasible
+        return
+    assert _ok(TWIN, make(answer.answer)) and _ok(TWIN, make(round_safe(answer.answer, 1, "down")))
+    if feasible:
+        assert answer.answer >= max(feasible) - 0.1
+
+
+def test_two_stretches_of_fuel_on_the_non_convex_envelope():
+    inputs = load_check_inputs(sample("twin6/two_stretches.toml"))
+    answer = P.most_fuel(inputs.aircraft, inputs.loading)
+    assert len(answer.intervals) == 2
+    (a, b), (c, d) = ((i.low, i.high) for i in answer.intervals)
+    assert a < b < c < d
+    fill = lambda x: P._fuel_loading(inputs.aircraft, inputs.loading, ["mains", "aux"], x)  # noqa: E731
+    for x in (a, b, c, d, (a + b) / 2, (c + d) / 2):
+        assert _ok(inputs.aircraft, fill(x))
+    gap = check_loading(inputs.aircraft, fill((b + c) / 2))
+    assert not gap.ok and not gap.burn_path.ok
+    # brute force finds the same two stretches
+    grid = np.linspace(0, 140, 1401)
+    good = np.array([_ok(inputs.aircraft, fill(x)) for x in grid])
+    assert np.count_nonzero(np.diff(good.astype(int)) == 1) + int(good[0]) == 2
+
+
+def test_published_weight_shift_example():
+    # FAA-H-8083-25 (Pilot's Handbook of Aeronautical Knowledge), Weight and Balance
+    # chapter, weight shifting: 7,800 lb at CG 81.5 in, aft limit 80.5 in; cargo moved from
+    # station 150 to station 30. Weight shifted = 7,800 x 1.0 / 120 = 65 lb.
+    aircraft = parse_aircraft({
+        "name": "Shift example", "units": {"mass": "lb", "arm": "in", "fuel_volume": "usgal"},
+        "empty": {"weight": 7300.0, "arm": (7800 * 81.5 - 500 * 150) / 7300},
+        "limits": {"max_takeoff_weight": 8000},
+        "station": [{"id": "fwd", "arm": 30.0, "kind": "cargo"}, {"id": "aft", "arm": 150.0, "kind": "cargo"}],
+        "envelope": [{"category": "normal", "axes": ["arm", "weight"],
+                      "points": [[70.0, 5000], [70.0, 8000], [80.5, 8000], [80.5, 5000]]}],
+    })
+    loading = resolve_loading(Loading(load={"aft": 500}), aircraft)
+    assert check_loading(aircraft, loading).condition("takeoff").arm == pytest.approx(81.5)
+    to_limit = P.weight_shift(aircraft, loading, "aft", "fwd", target_arm=80.5)
+    assert to_limit.answer == pytest.approx(65.0, abs=1e-9)
+    assert to_limit.check.condition("takeoff").arm == pytest.approx(80.5)
+    least = P.weight_shift(aircraft, loading, "aft", "fwd")
+    assert least.answer == pytest.approx(65.0, abs=0.1) and least.check.ok
+
+
+def test_ballast_brings_the_tandem_within_limits():
+    inputs = load_check_inputs(sample("tandem2/aft_heavy.toml"))
+    answer = P.least_ballast(inputs.aircraft, inputs.loading)
+    assert answer.feasible and answer.check.ok
+    less = P._with(inputs.loading, stations={**inputs.loading.stations, "ballast": answer.answer - 0.2})
+    assert not check_loading(inputs.aircraft, less).ok
+    # ballast aft of the CG cannot help an aft CG
+    wrong = P.least_ballast(inputs.aircraft, inputs.loading, "baggage")
+    assert not wrong.feasible and "no amount can" in wrong.answer_display
+
+
+def test_longest_trip_and_fuel_to_leave():
+    inputs = load_check_inputs(sample("trainer4/within.toml"))
+    trip = P.longest_trip(inputs.aircraft, inputs.loading, rate=9.5, reserve=8.0)
+    fuel = P.most_fuel(inputs.aircraft, inputs.loading)
+    assert trip.answer == pytest.approx(fuel.answer - inputs.loading.taxi - 8.0, abs=0.02)
+    assert trip.extra["time at the rate"] == "3:14"
+    leave = P.fuel_to_leave(inputs.aircraft, inputs.loading, "rear", 220.0)
+    assert leave.feasible and leave.answer > 0
+    lighter = P._fuel_loading(inputs.aircraft, P._with(inputs.loading, stations={**inputs.loading.stations, "rear": 220.0}),
+                              None, 34.0 - leave.answer)
+    assert check_loading(inputs.aircraft, lighter).ok
+
+
+def test_impossible_requests():
+    inputs = load_check_inputs(sample("trainer4/within.toml"))
+    with pytest.raises(UnknownNameError, match="unknown station 'cargo'"):
+        P.most_payload(inputs.aircraft, inputs.loading, "cargo")
+    with pytest.raises(InputError, match="no ballast station"):
+        P.least_ballast(inputs.aircraft, inputs.loading)
+    far = P.weight_shift(inputs.aircraft, inputs.loading, "bag1", "front", target_arm=10.0)
+    assert not far.feasible and "no solution" in far.answer_display
+
+
+@pytest.mark.parametrize(
+    "args, code, words",
+    [
+        (["plan", "payload", "trainer4/within.toml", "--station", "nowhere"], 2, "unknown station"),
+        (["plan", "ballast", "trainer4/within.toml"], 2, "no ballast station"),
+        (["plan", "ballast", "tandem2/aft_heavy.toml", "--station", "baggage"], 1, "no amount can"),
+        (["plan", "shift", "tandem2/aft_heavy.toml", "--from", "baggage", "--to", "front", "--target", "2 m"], 1, "no solution"),
+        (["plan", "fuel", "twin6/two_stretches.toml"], 0, "more than one stretch"),
+        (["plan", "ballast", "tandem2/aft_heavy.toml"], 0, "ballast at ballast"),
+        (["plan", "payload", "trainer4/within.toml"], 2, "--station"),
+    ],
+)
+def test_plan_command_line(args, code, words):
+    args = [str(sample(a)) if a.endswith(".toml") else a for a in args]
+    result = runner.invoke(app, args)
+    assert result.exit_code == code, result.output
+    assert words in result.output
+    assert "Traceback" not in result.output
+
+
+def test_plan_table_and_chart(tmp_path):
+    result = runner.invoke(app, ["plan", "table", str(sample("trainer4/within.toml")), "--station", "rear", "--steps", "4",
+                                 "--chart", str(tmp_path / "t.svg")])
+    assert result.exit_code == 0, result.output
+    assert "Most ramp fuel" in result.output
+    assert 'id="within-limits' in (tmp_path / "t.svg").read_text()
