@@ -185,6 +185,8 @@ class Station(_Model):
     lateral_arm: Arm | None = Field(None, description="distance right of centreline [arm unit]")
     max_weight: Mass | None = Field(None, ge=0, description="[mass unit]")
     min_weight: Mass | None = Field(None, ge=0, description="[mass unit]")
+    seats: int | None = Field(None, ge=1, le=50, description="number of seats (seat stations), for the extreme checks")
+    controls: bool = Field(False, description="a pilot's seat: equipped with flight controls")
 
     @property
     def name(self) -> str:
@@ -326,7 +328,24 @@ class HistoryEntry(_Model):
     recorded: dt.datetime | dt.date = Field(description="when the new record replaced this one")
     reason: str = Field(description="weighing, alteration or other")
     previous: EmptyWeight
+    new_weight: Mass | None = Field(None, description="the weight of the record that replaced it [mass unit]")
+    new_arm: Arm | None = Field(None, description="the arm of the record that replaced it [arm unit]")
     inputs: dict[str, Any] = Field(default_factory=dict, description="what the new record was computed from")
+
+
+class EquipmentItem(_Model):
+    """An item of installed equipment in the empty weight (the equipment list)."""
+
+    id: str = Field(pattern=_ID_PATTERN)
+    label: str | None = None
+    weight: Mass = Field(ge=0, description="[mass unit]")
+    arm: Arm = Field(description="[arm unit]")
+    lateral_arm: Arm | None = Field(None, description="[arm unit], + right")
+
+    @property
+    def name(self) -> str:
+        """Label, or id where no label is given."""
+        return self.label or self.id
 
 
 class Aircraft(_Model):
@@ -344,6 +363,8 @@ class Aircraft(_Model):
     tank: list[Tank] = Field(default_factory=list)
     envelope: list[Envelope] = Field(min_length=1)
     history: list[HistoryEntry] = Field(default_factory=list)
+    equipment: list[EquipmentItem] = Field(default_factory=list, description="installed equipment list")
+    rotorcraft: bool = Field(False, description="true for a helicopter or gyroplane (negligible-change rule)")
     standard_occupant_weight: Mass | None = Field(
         None, gt=0, description="weight per occupant for the extreme-loading checks [mass unit]"
     )
@@ -357,6 +378,10 @@ class Aircraft(_Model):
         seen: dict[str, str] = {}
         named = [("station", index, s.id) for index, s in enumerate(self.station)]
         named += [("tank", index, t.id) for index, t in enumerate(self.tank)]
+        equipment_ids = [e.id for e in self.equipment]
+        for index, name in enumerate(equipment_ids):
+            if equipment_ids.index(name) != index:
+                problems.append(f"equipment[{index}].id: {name!r} is used twice")
         for where, index, name in named:
             if name in seen:
                 problems.append(f"{where}[{index}].id: {name!r} is used twice (also a {seen[name]})")

@@ -94,7 +94,7 @@ def moment_items(aircraft: Aircraft, loading: ResolvedLoading) -> list[MomentIte
         )
     ]
     for station in aircraft.station:
-        if station.id in loading.stations:
+        if loading.stations.get(station.id, 0.0) != 0.0:
             items.append(
                 MomentItem(
                     station.id, station.name, station.kind, loading.stations[station.id], station.arm,

@@ -136,6 +136,23 @@ class EnvelopeShape:
         column = self.corners[:, self.axes.index("weight")]
         return float(column.min()), float(column.max())
 
+    def arm_range(self) -> tuple[float, float]:
+        """Most forward and most rearward CG arm anywhere on the envelope [arm unit].
+
+        The arm is a linear-fractional function of the axes, so its extremes lie at corners.
+        """
+        columns = {axis: self.corners[:, i] for i, axis in enumerate(self.axes)}
+        if "arm" in columns:
+            arms = columns["arm"]
+        elif "mac" in columns:
+            assert self.mac is not None
+            arms = self.mac.leading_edge_arm + columns["mac"] * self.mac.length / 100.0
+        elif "moment" in columns and "weight" in columns:
+            arms = columns["moment"] * self.moment_scale / columns["weight"]
+        else:
+            raise ValueError("this envelope does not limit the longitudinal CG")
+        return float(arms.min()), float(arms.max())
+
     def _axis(self, axis: str, weight: np.ndarray, moment: np.ndarray, lateral: np.ndarray) -> np.ndarray:
         if axis == "weight":
             return weight

@@ -273,14 +273,29 @@ def validate_file(path: str | Path) -> str:
             parse_loading(data, path)
             return "loading (names no aircraft, so station and tank names were not checked)"
         return f"loading for {inputs.aircraft.name!r}"
-    raise InputError("cannot tell what this file is: no [units]/[empty]/[[envelope]] (aircraft) "
-                     "and no [load]/[fuel]/[burn] (loading)", file=path)
+    if kind in ("readings", "changes"):
+        named = data.get("aircraft")
+        if not named:
+            from .alterations import Changes
+            from .weighing import Readings
+
+            _validate(Readings if kind == "readings" else Changes, data, path)
+            return f"{kind} (names no aircraft, so tanks, equipment and units were not checked)"
+        aircraft = load_aircraft(Path(path).parent / str(named))
+        (load_readings if kind == "readings" else load_changes)(path, aircraft)
+        return f"{kind} for {aircraft.name!r}"
+    raise InputError("cannot tell what this file is: no [units]/[empty]/[[envelope]] (aircraft), no [load]/[fuel]/[burn] "
+                     "(loading), no [[point]] (readings) and no [[change]] (changes)", file=path)
 
 
 def file_kind(data: Mapping[str, Any]) -> str:
-    """Guess what a TOML file holds: ``aircraft``, ``loading`` or ``unknown``."""
+    """Guess what a TOML file holds: ``aircraft``, ``loading``, ``readings``, ``changes`` or ``unknown``."""
     if "units" in data or "envelope" in data or "empty" in data:
         return "aircraft"
+    if "point" in data:
+        return "readings"
+    if "change" in data:
+        return "changes"
     if any(k in data for k in ("load", "fuel", "burn", "aircraft")):
         return "loading"
     return "unknown"
@@ -319,3 +334,93 @@ def write_atomic(path: str | Path, content: str | bytes) -> None:
         except OSError:
             pass
         raise FileFormatError(f"could not write the file, it is unchanged: {error.strerror or error}", file=path) from None
+
+
+# -- the mechanic's files ------------------------------------------------------------------
+
+
+def load_readings(path: str | Path, aircraft: Aircraft) -> Any:
+    """Read and validate a readings file (quantities with units use the aircraft's units)."""
+    from .weighing import Readings
+
+    return _validate(Readings, read_toml(path), path, {"units": aircraft.units})
+
+
+def load_changes(path: str | Path, aircraft: Aircraft) -> Any:
+    """Read and validate a changes file (quantities with units use the aircraft's units)."""
+    from .alterations import Changes
+
+    return _validate(Changes, read_toml(path), path, {"units": aircraft.units})
+
+
+def _plain(value: Any) -> Any:
+    """Data fit for TOML: no None values (TOML has no null)."""
+    if isinstance(value, dict):
+        return {k: _plain(v) for k, v in value.items() if v is not None}
+    if isinstance(value, list):
+        return [_plain(v) for v in value if v is not None]
+    return value
+
+
+def write_new_record(
+    path: str | Path,
+    original: bytes,
+    *,
+    weight: float,
+    arm: float,
+    lateral_arm: float | None,
+    date: Any,
+    reason: str,
+    inputs: Mapping[str, Any],
+    equipment: list[dict[str, Any]] | None = None,
+) -> None:
+    """Make a new empty-weight record current and keep the old one in ``[[history]]``.
+
+    The file keeps its comments and layout (tomlkit). It is written atomically
+    (:func:`write_atomic`), and only if it still holds exactly ``original``: a file that
+    changed since it was read is refused, and nothing is written. The new content is
+    validated as an aircraft file before it replaces the old one.
+
+    Raises
+    ------
+    FileFormatError
+        The file changed since it was read, or could not be written (it is unchanged).
+    """
+    import datetime as dt
+
+    import tomlkit
+
+    path = Path(path)
+    doc = tomlkit.parse(original.decode("utf-8-sig"))
+    previous = _plain(dict(doc["empty"].unwrap()))  # type: ignore[union-attr]
+    entry = tomlkit.table()
+    entry["recorded"] = dt.datetime.now().astimezone().replace(microsecond=0)
+    entry["reason"] = reason
+    entry["new_weight"] = round(weight, 4)
+    entry["new_arm"] = round(arm, 4)
+    entry["previous"] = previous
+    entry["inputs"] = _plain(dict(inputs))
+    empty = doc["empty"]
+    empty["weight"] = round(weight, 4)  # type: ignore[index]
+    empty["arm"] = round(arm, 4)  # type: ignore[index]
+    if lateral_arm is not None:
+        empty["lateral_arm"] = round(lateral_arm, 4)  # type: ignore[index]
+    if date is not None:
+        empty["date"] = date  # type: ignore[index]
+    if "history" not in doc:
+        doc["history"] = tomlkit.aot()
+    doc["history"].append(entry)  # type: ignore[union-attr]
+    if equipment is not None:
+        table = tomlkit.aot()
+        for item in equipment:
+            table.append(_plain(item))
+        doc["equipment"] = table
+    text = tomlkit.dumps(doc)
+    parse_aircraft(tomllib.loads(text), path)  # fail closed: never write a file we could not read back
+    try:
+        current = path.read_bytes()
+    except OSError as error:
+        raise FileFormatError(f"cannot read the file again before writing: {error.strerror or error}", file=path) from None
+    if current != original:
+        raise FileFormatError("the file changed since it was read; nothing was written (run the command again)", file=path)
+    write_atomic(path, text)

@@ -50,6 +50,8 @@ __all__ = [
     "MASS_TOLERANCE",
     "feasible_intervals",
     "limit_words",
+    "ScheduleCase",
+    "loading_schedule",
 ]
 
 MASS_TOLERANCE = 0.1
@@ -546,3 +548,131 @@ def fuel_payload_table(
         answer = most_fuel(aircraft, _with(loading, stations={**loading.stations, station: already + float(payload)}), fill=fill)
         rows.append(TableRow(payload=float(payload), intervals=answer.intervals, most=answer.answer))
     return rows
+
+
+# -- the loading schedule (AC 43.13-1B 10-18) ----------------------------------------------
+
+
+@dataclass(frozen=True, kw_only=True, slots=True)
+class ScheduleCase(Result):
+    """One of the three loading conditions of AC 43.13-1B 10-18.
+
+    Attributes: question; occupants per seat station (count); load per station [mass
+    unit]; fuel per tank [fuel volume unit]; check of that loading; notes.
+    """
+
+    question: str
+    occupants: dict[str, int]
+    load: dict[str, float]
+    fuel: dict[str, float]
+    check: CheckResult
+    notes: list[str] = field(default_factory=list)
+
+
+def _seat_order(aircraft: Aircraft) -> list[str]:
+    seats = [s for s in aircraft.station if s.kind == "seat"]
+    pilots = [s for s in seats if s.controls] or seats[:1]
+    return [s.id for s in pilots] + [s.id for s in seats if s not in pilots]
+
+
+def _empty_loading(aircraft: Aircraft, category: str, fuel: dict[str, float]) -> ResolvedLoading:
+    density = {t.id: aircraft.density(t) for t in aircraft.tank}
+    full = {t.id: fuel.get(t.id, 0.0) for t in aircraft.tank}
+    return ResolvedLoading(category, {}, full, density, 0.0, 0.0, None, BurnPlan(full, None))
+
+
+def _seat_occupants(aircraft: Aircraft, loading: ResolvedLoading, occupant: float) -> tuple[ResolvedLoading, dict[str, int]]:
+    """Seat occupants one at a time, pilot's seat first, while the loading stays within limits."""
+    counts: dict[str, int] = {}
+    for station_id in _seat_order(aircraft):
+        station = aircraft.stations[station_id]
+        for _ in range(station.seats or 1):
+            trial = _with(loading, stations={**loading.stations, station_id: loading.stations.get(station_id, 0.0) + occupant})
+            if not check_loading(aircraft, trial).ok:
+                break
+            loading = trial
+            counts[station_id] = counts.get(station_id, 0) + 1
+    return loading, counts
+
+
+def _fill_baggage(aircraft: Aircraft, loading: ResolvedLoading) -> ResolvedLoading:
+    for station in aircraft.station:
+        if station.kind not in ("baggage", "cargo"):
+            continue
+        answer = most_payload(aircraft, loading, station.id)
+        if answer.answer is not None:
+            loading = _with(loading, stations={**loading.stations, station.id: round_safe(answer.answer, 1, "down")})
+    return loading
+
+
+def _schedule_case(aircraft: Aircraft, question: str, loading: ResolvedLoading, occupants: dict[str, int],
+                   notes: list[str]) -> ScheduleCase:
+    return ScheduleCase(question=question, occupants=occupants, load=dict(loading.stations), fuel=dict(loading.fuel),
+                        check=check_loading(aircraft, loading), notes=notes)
+
+
+def loading_schedule(aircraft: Aircraft, *, category: str | None = None, occupant_weight: float | None = None) -> list[ScheduleCase]:
+    """AC 43.13-1B paragraph 10-18: the three loading conditions to settle when placards do not.
+
+    1. With full fuel: how many occupants and how much baggage.
+    2. With every seat filled: how much fuel and baggage.
+    3. With maximum baggage: how much fuel, how many occupants and where they sit.
+
+    Occupants are seated one at a time at the standard occupant weight, the pilot's seat
+    first, while the loading stays within every limit; baggage is then the most each
+    baggage station takes; fuel is the most the tanks take in proportion to capacity. No
+    taxi or trip fuel is burned (the loading at engine start is what is checked, with the
+    zero-fuel condition).
+    """
+    from .extremes import STANDARD_OCCUPANT_LB
+    from .units import convert
+
+    chosen = category or aircraft.categories[0]
+    occupant = occupant_weight or aircraft.standard_occupant_weight or convert(STANDARD_OCCUPANT_LB, "lb", aircraft.units.mass)
+    mass = aircraft.units.mass
+    cases = []
+
+    full = _empty_loading(aircraft, chosen, {t.id: t.usable for t in aircraft.tank})
+    seated, counts = _seat_occupants(aircraft, full, occupant)
+    cases.append(_schedule_case(aircraft, "with full fuel: occupants and baggage", _fill_baggage(aircraft, seated), counts,
+                                [f"occupants at {occupant:g} {mass} each"]))
+
+    everyone = _empty_loading(aircraft, chosen, {})
+    counts = {}
+    for station_id in _seat_order(aircraft):
+        station = aircraft.stations[station_id]
+        counts[station_id] = station.seats or 1
+        everyone = _with(everyone, stations={**everyone.stations, station_id: counts[station_id] * occupant})
+    fuel = most_fuel(aircraft, everyone)
+    notes = [f"every seat filled at {occupant:g} {mass}"]
+    if fuel.answer is None:
+        notes.append("no fuel load is within limits with every seat filled")
+        cases.append(_schedule_case(aircraft, "with every seat filled: fuel and baggage", everyone, counts, notes))
+    else:
+        fuelled = _fuel_loading(aircraft, everyone, None, round_safe(fuel.answer, 1, "down"))
+        cases.append(_schedule_case(aircraft, "with every seat filled: fuel and baggage", _fill_baggage(aircraft, fuelled),
+                                    counts, notes))
+
+    bags = _empty_loading(aircraft, chosen, {})
+    for station in aircraft.station:
+        if station.kind in ("baggage", "cargo") and station.max_weight is not None:
+            room = station.max_weight
+            for group in aircraft.station_group:
+                if station.id in group.stations and group.max_weight is not None:
+                    used = sum(bags.stations.get(s, 0.0) for s in group.stations)
+                    room = min(room, group.max_weight - used)
+            bags = _with(bags, stations={**bags.stations, station.id: max(0.0, room)})
+    pilot = _seat_order(aircraft)[:1]
+    if pilot:
+        bags = _with(bags, stations={**bags.stations, pilot[0]: occupant})
+    fuel = most_fuel(aircraft, bags)
+    notes = ["baggage at each station's maximum (within group limits); the pilot aboard"]
+    if fuel.answer is None:
+        notes.append("no fuel load is within limits with maximum baggage")
+        cases.append(_schedule_case(aircraft, "with maximum baggage: fuel and occupants", bags, {pilot[0]: 1} if pilot else {}, notes))
+    else:
+        fuelled = _fuel_loading(aircraft, bags, None, round_safe(fuel.answer, 1, "down"))
+        without_pilot = _with(fuelled, stations={k: v for k, v in fuelled.stations.items() if k not in pilot})
+        seated, counts = _seat_occupants(aircraft, without_pilot, occupant)
+        cases.append(_schedule_case(aircraft, "with maximum baggage: fuel and occupants", seated, counts, notes))
+    return cases

@@ -10,11 +10,12 @@ from __future__ import annotations
 
 import datetime as dt
 from html import escape
+from typing import Any
 
 from ..display import fmt
 from ..results import CheckResult
 
-__all__ = ["load_sheet_html"]
+__all__ = ["load_sheet_html", "mechanic_sheet_html"]
 
 _NAMES = {"ramp": "Ramp", "takeoff": "Takeoff", "landing": "Landing", "zero_fuel": "Zero fuel"}
 
@@ -154,5 +155,84 @@ def load_sheet_html(
         "<tr><td>Date</td><td><span class='line'>&nbsp;</span></td></tr>",
         "</table>",
         "</body></html>",
+    ]
+    return "\n".join(parts)
+
+
+def _table(head: list[str], rows: list[list[str]]) -> str:
+    out = ["<table><tr>" + "".join(f"<th>{escape(h)}</th>" for h in head) + "</tr>"]
+    for row in rows:
+        out.append("<tr>" + "".join(f"<td{' class=n' if i else ''}>{escape(c)}</td>" for i, c in enumerate(row)) + "</tr>")
+    out.append("</table>")
+    return "\n".join(out)
+
+
+def mechanic_sheet_html(result: Any, units: Any, *, extremes: Any = None, source: str | None = None,
+                        when: dt.datetime | None = None) -> str:
+    """A printable record of a weighing or an equipment change, for the mechanic to sign.
+
+    Holds the inputs, the corrections or changes, the new empty-weight record and the change
+    from the current one, the extreme-loading checks where given, blank lines for name,
+    certificate number and signature, and the caution that the record is made and signed
+    under the local authority's rules.
+    """
+    when = when or dt.datetime.now().astimezone()
+    weighing = hasattr(result, "points")
+    title = ("Weighing record" if weighing else "Equipment change record") + f": {result.aircraft}"
+    if result.registration:
+        title += f" ({result.registration})"
+    m, a, mo = units.mass, units.arm, units.moment
+
+    def n(value: float, unit: str) -> str:
+        return fmt(value, unit, with_unit=False)
+
+    parts = [
+        "<!DOCTYPE html>", '<html lang="en"><head><meta charset="utf-8">', f"<title>{escape(title)}</title>",
+        f"<style>{_STYLE}</style></head><body>", f"<h1>{escape(title)}</h1>",
+        f"<p>Computed {escape(when.strftime('%Y-%m-%d %H:%M %Z').strip())}"
+        + (f" from <code>{escape(source)}</code>" if source else "") + "</p>",
+    ]
+    if weighing:
+        parts.append("<h2>Weighing points</h2>")
+        parts.append(_table(["Point", f"Reading ({m})", f"Tare ({m})", f"Net ({m})", f"Arm ({a})", f"Moment ({mo})"],
+                            [[p.label, n(p.reading, m), n(p.tare, m), n(p.net, m), n(p.arm, a), n(p.moment, mo)]
+                             for p in result.points]))
+        if result.corrections:
+            parts.append("<h2>Corrections</h2>")
+            parts.append(_table(["Item", "", f"Weight ({m})", f"Arm ({a})", f"Moment ({mo})"],
+                                [[c.label, c.action, n(c.weight, m), n(c.arm, a), n(c.moment, mo)] for c in result.corrections]))
+        records = [("As weighed", result.as_weighed), ("New basic empty weight", result.new), ("Previous record", result.previous)]
+    else:
+        parts.append("<h2>Changes</h2>")
+        parts.append(_table(["Action", "Item", f"Weight ({m})", f"Arm ({a})", f"New arm ({a})", f"Moment change ({mo})"],
+                            [[c.action, c.label, n(c.weight, m), n(c.arm, a), "" if c.new_arm is None else n(c.new_arm, a),
+                              n(c.moment_change, mo)] for c in result.lines]))
+        records = [("Previous record", result.previous), ("New basic empty weight", result.new)]
+        verdict = {True: "negligible", False: "not negligible", None: "cannot be judged"}[result.negligible.overall]
+        parts.append(f"<p>AC 43.13-1B 10-2 c: the change is {escape(verdict)} ({escape(result.negligible.weight_threshold)}; "
+                     f"{escape(result.negligible.cg_threshold)}).</p>")
+    parts.append("<h2>Empty-weight record</h2>")
+    parts.append(_table(["", f"Weight ({m})", f"Arm ({a})", f"Moment ({mo})"],
+                        [[name, n(r.weight, m), n(r.arm, a), n(r.moment, mo)] for name, r in records]))
+    parts.append(f"<p>Change: weight {escape(fmt(result.change_weight, m))}, CG {escape(fmt(result.change_arm, a))}; "
+                 f"useful load {escape(fmt(result.useful_load, m))}.</p>")
+    for warning in getattr(result, "warnings", []):
+        parts.append(f"<p class='limit'>WARNING: {escape(warning)}</p>")
+    if extremes is not None:
+        parts.append("<h2>Weight and balance extremes (AC 43.13-1B 10-17)</h2>")
+        for case in (extremes.forward, extremes.rearward):
+            ramp = case.check.condition("ramp")
+            parts.append(f"<p><b>Most {case.side} loading</b>: {escape(fmt(ramp.weight, m))} at CG {escape(fmt(ramp.arm, a))}: "
+                         f"{'within limits' if case.ok else 'NOT within limits'}</p>")
+            parts.append(_table(["Item", f"Weight ({m})", f"Arm ({a})", f"Moment ({mo})"],
+                                [[i.name, n(i.weight, m), n(i.arm, a), n(i.moment, mo)] for i in case.check.items]))
+    parts += [
+        f"<p class='caution'>CAUTION: {escape(result.caution)}</p>",
+        "<table class='sign'>",
+        "<tr><td>Name</td><td><span class='line'>&nbsp;</span></td></tr>",
+        "<tr><td>Certificate number</td><td><span class='line'>&nbsp;</span></td></tr>",
+        "<tr><td>Signature</td><td><span class='line'>&nbsp;</span></td></tr>",
+        "<tr><td>Date</td><td><span class='line'>&nbsp;</span></td></tr>",
+        "</table>", "</body></html>",
     ]
     return "\n".join(parts)

@@ -7,7 +7,7 @@ Meaning never rests on colour alone: every verdict is also written in words.
 
 from __future__ import annotations
 
-from typing import TYPE_CHECKING
+from typing import TYPE_CHECKING, Any
 
 from rich.console import Console, Group
 from rich.panel import Panel
@@ -21,7 +21,17 @@ from ..results import CheckResult, Condition
 if TYPE_CHECKING:
     from ..planning import PlanResult, TableRow
 
-__all__ = ["caution_text", "render_aircraft", "render_check", "render_plan", "render_table"]
+__all__ = [
+    "caution_text",
+    "render_aircraft",
+    "render_alteration",
+    "render_check",
+    "render_extremes",
+    "render_plan",
+    "render_schedule",
+    "render_table",
+    "render_weighing",
+]
 
 _NAMES = {"ramp": "Ramp", "takeoff": "Takeoff", "landing": "Landing", "zero_fuel": "Zero fuel"}
 _OK_STYLE, _LIMIT_STYLE, _WARN_STYLE = "bold green", "bold red", "bold yellow"
@@ -288,3 +298,115 @@ def render_table(aircraft: Aircraft, rows: list[TableRow], station: str, console
     from ..caution import PILOT_CAUTION
 
     console.print(caution_text(PILOT_CAUTION))
+
+
+def _record_table(title: str, rows: list[tuple[str, Any]], units: Any) -> Table:
+    table = Table(title=title, title_justify="left")
+    table.add_column("")
+    table.add_column(f"Weight ({units.mass})", justify="right")
+    table.add_column(f"Arm ({units.arm})", justify="right")
+    table.add_column(f"Moment ({units.moment})", justify="right")
+    for name, record in rows:
+        table.add_row(name, fmt(record.weight, units.mass, with_unit=False), fmt(record.arm, units.arm, with_unit=False),
+                      fmt(record.moment, units.moment, with_unit=False))
+    return table
+
+
+def render_weighing(result: Any, units: Any, console: Console) -> None:
+    """Print a weighing: points, as-weighed, corrections, new record, change."""
+    console.print(Text(f"Weighing of {result.aircraft}" + (f" · {result.registration}" if result.registration else ""),
+                       style="bold"))
+    points = Table(title="Weighing points", title_justify="left")
+    for column in ("Point", f"Reading ({units.mass})", f"Tare ({units.mass})", f"Net ({units.mass})",
+                   f"Arm ({units.arm})", f"Moment ({units.moment})"):
+        points.add_column(column, justify="left" if column == "Point" else "right")
+    for p in result.points:
+        points.add_row(p.label, fmt(p.reading, units.mass, with_unit=False), fmt(p.tare, units.mass, with_unit=False),
+                       fmt(p.net, units.mass, with_unit=False), fmt(p.arm, units.arm, with_unit=False),
+                       fmt(p.moment, units.moment, with_unit=False))
+    console.print(points)
+    if result.formula_cg is not None:
+        console.print(f"As-weighed CG by the FAA-H-8083-1 formula for this gear and datum: {fmt(result.formula_cg, units.arm)}",
+                      markup=False)
+    corrections = Table(title="Corrections to the as-weighed aircraft", title_justify="left")
+    for column in ("Item", "", f"Weight ({units.mass})", f"Arm ({units.arm})", f"Moment ({units.moment})"):
+        corrections.add_column(column, justify="right" if "(" in column else "left")
+    for c in result.corrections:
+        corrections.add_row(c.label, c.action, fmt(c.weight, units.mass, with_unit=False), fmt(c.arm, units.arm, with_unit=False),
+                            fmt(c.moment, units.moment, with_unit=False))
+    rows = [("As weighed", result.as_weighed), ("New basic empty weight", result.new), ("Current record", result.previous)]
+    if result.corrections:
+        console.print(corrections)
+    console.print(_record_table("Empty-weight record", rows, units))
+    _changes_line(result, units, console)
+    for warning in result.warnings:
+        console.print(Text("WARNING ", style=_WARN_STYLE) + Text(warning))
+    console.print(caution_text(result.caution))
+
+
+def _changes_line(result: Any, units: Any, console: Console) -> None:
+    console.print(
+        f"Change from the current record: weight {fmt(result.change_weight, units.mass)}, CG {fmt(result.change_arm, units.arm)}; "
+        f"useful load {fmt(result.useful_load, units.mass)} ({fmt(result.change_useful_load, units.mass)})",
+        markup=False,
+    )
+
+
+def render_alteration(result: Any, units: Any, console: Console) -> None:
+    """Print equipment changes: each change's moment, the new record, negligibility."""
+    console.print(Text(f"Equipment changes to {result.aircraft}" + (f" · {result.registration}" if result.registration else ""),
+                       style="bold"))
+    table = Table(title="Changes", title_justify="left")
+    for column in ("Action", "Item", f"Weight ({units.mass})", f"Arm ({units.arm})", f"New arm ({units.arm})",
+                   f"Weight change ({units.mass})", f"Moment change ({units.moment})"):
+        table.add_column(column, justify="right" if "(" in column else "left")
+    for line in result.lines:
+        table.add_row(line.action, line.label, fmt(line.weight, units.mass, with_unit=False), fmt(line.arm, units.arm, with_unit=False),
+                      "" if line.new_arm is None else fmt(line.new_arm, units.arm, with_unit=False),
+                      fmt(line.weight_change, units.mass, with_unit=False), fmt(line.moment_change, units.moment, with_unit=False))
+    console.print(table)
+    console.print(_record_table("Empty-weight record", [("Current record", result.previous), ("After the changes", result.new)], units))
+    _changes_line(result, units, console)
+    n = result.negligible
+    verdict = {True: "negligible", False: "not negligible", None: "cannot be judged"}[n.overall]
+    console.print(f"AC 43.13-1B 10-2 c: the change is {verdict} (weight: {'yes' if n.weight else 'no'}, "
+                  f"{n.weight_threshold}; CG: {'cannot be judged' if n.cg is None else ('yes' if n.cg else 'no')}, {n.cg_threshold})",
+                  markup=False)
+    console.print(caution_text(result.caution))
+
+
+def render_extremes(result: Any, console: Console) -> None:
+    """Print the forward and rearward extreme loadings, each with its moment table and verdict."""
+    console.print(Text(f"Weight and balance extremes of {result.aircraft} ({result.category} category)", style="bold"))
+    for case in (result.forward, result.rearward):
+        console.print(Text(f"Most {case.side} loading (sorted against the {case.side} limit "
+                           f"{fmt(case.limit_arm, case.check.units.arm)})", style="bold"))
+        for note in case.notes:
+            console.print(f"  {note}", markup=False)
+        console.print(_moment_table(case.check))
+        ramp = case.check.condition("ramp")
+        words = "within limits" if case.ok else "NOT within limits"
+        console.print(Text(f"{case.side} extreme: {fmt(ramp.weight, case.check.units.mass)} at CG "
+                           f"{fmt(ramp.arm, case.check.units.arm)}: {words}", style=_OK_STYLE if case.ok else _LIMIT_STYLE))
+        for finding in case.check.findings:
+            if finding.severity == "limit" and finding.condition in ("ramp", None):
+                console.print(f"  LIMIT {finding.message}", markup=False)
+    console.print(caution_text(result.caution))
+
+
+def render_schedule(cases: list[Any], aircraft: Aircraft, console: Console, caution: str) -> None:
+    """Print the three loading conditions of AC 43.13-1B 10-18."""
+    units = aircraft.units
+    for case in cases:
+        console.print(Text(case.question[:1].upper() + case.question[1:], style="bold"))
+        for note in case.notes:
+            console.print(f"  {note}", markup=False)
+        seats = ", ".join(f"{aircraft.stations[s].name}: {n}" for s, n in case.occupants.items()) or "none"
+        console.print(f"  occupants: {seats}", markup=False)
+        other = [f"{aircraft.stations[s].name} {fmt(w, units.mass, 'down')}" for s, w in case.load.items()
+                 if aircraft.stations[s].kind != "seat"]
+        console.print(f"  baggage and cargo: {', '.join(other) or 'none'}", markup=False)
+        fuel = ", ".join(f"{aircraft.tanks[t].name} {fmt(q, units.fuel_volume, 'down')}" for t, q in case.fuel.items())
+        console.print(f"  fuel: {fuel or 'none'}", markup=False)
+        console.print(_conditions_table(case.check))
+    console.print(caution_text(caution))

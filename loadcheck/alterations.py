@@ -1,0 +1,224 @@
+"""Equipment changes and the empty-weight history.
+
+Method (AC 43.13-1B chapter 10; FAA-H-8083-1B chapter 2, "added or removed weight"): each
+change adds its moment to the empty-weight moment: an installed item adds weight x arm,
+a removed item takes its weight x arm away, a relocated item adds weight x (new arm - old
+arm). The new empty-weight CG is the new moment over the new weight.
+
+A change is negligible by AC 43.13-1B paragraph 10-2 c when the weight changes by no more
+than 1 lb (empty weight under 5,000 lb), 2 lb (5,000 to 50,000 lb) or 5 lb (over
+50,000 lb), and the CG moves by less than 0.05 % of the MAC (fixed wing) or 0.2 % of the
+maximum allowable CG range (rotorcraft).
+"""
+
+from __future__ import annotations
+
+import datetime as dt
+from dataclasses import dataclass, field
+from typing import Any, Literal
+
+from pydantic import BaseModel, ConfigDict, Field, model_validator
+
+from .aircraft import Aircraft, Arm, Mass
+from .caution import MECHANIC_CAUTION
+from .errors import InputError, Problem, UnknownNameError
+from .results import Result
+from .units import convert
+from .weighing import Record
+
+__all__ = ["Change", "Changes", "ChangeLine", "AlterResult", "alter", "negligible_weight_lb", "Negligible"]
+
+
+class _Model(BaseModel):
+    model_config = ConfigDict(extra="forbid", frozen=True, allow_inf_nan=False)
+
+
+class Change(_Model):
+    """One equipment change."""
+
+    action: Literal["install", "remove", "relocate"]
+    item: str = Field(pattern=r"^[A-Za-z0-9_][A-Za-z0-9_.-]*$", description="equipment id")
+    label: str | None = None
+    weight: Mass | None = Field(None, ge=0, description="install only [mass unit]")
+    arm: Arm | None = Field(None, description="install only [arm unit]")
+    lateral_arm: Arm | None = Field(None, description="install only [arm unit], + right")
+    new_arm: Arm | None = Field(None, description="relocate only [arm unit]")
+    new_lateral_arm: Arm | None = Field(None, description="relocate only [arm unit]")
+
+    @model_validator(mode="after")
+    def _complete(self) -> Change:
+        if self.action == "install" and (self.weight is None or self.arm is None):
+            raise ValueError("an installed item needs its weight and arm")
+        if self.action == "relocate" and self.new_arm is None and self.new_lateral_arm is None:
+            raise ValueError("a relocated item needs its new_arm")
+        if self.action != "install" and (self.weight is not None or self.arm is not None):
+            raise ValueError(f"a {self.action}d item's weight and arm come from the equipment list; leave them out")
+        if self.action != "relocate" and (self.new_arm is not None or self.new_lateral_arm is not None):
+            raise ValueError("new_arm is only for action = 'relocate'")
+        return self
+
+
+class Changes(_Model):
+    """A changes file: what was installed, removed or relocated (docs/mechanic.md)."""
+
+    format: Literal[1] = 1
+    aircraft: str | None = None
+    date: dt.date | None = None
+    description: str | None = None
+    change: list[Change] = Field(min_length=1)
+
+
+@dataclass(frozen=True, kw_only=True, slots=True)
+class ChangeLine(Result):
+    """One change with its effect: weight and moment added (negative when taken away)."""
+
+    action: str
+    item: str
+    label: str
+    weight: float
+    arm: float
+    weight_change: float
+    moment_change: float
+    new_arm: float | None = None
+
+
+@dataclass(frozen=True, kw_only=True, slots=True)
+class Negligible(Result):
+    """AC 43.13-1B 10-2 c: is the change negligible?"""
+
+    weight: bool
+    cg: bool | None
+    weight_threshold: str
+    cg_threshold: str
+
+    @property
+    def overall(self) -> bool | None:
+        """True when both are negligible; None when the CG rule cannot be applied."""
+        if self.cg is None:
+            return None if self.weight else False
+        return self.weight and self.cg
+
+
+@dataclass(frozen=True, kw_only=True, slots=True)
+class AlterResult(Result):
+    """The outcome of equipment changes (not yet the record: ``--write`` makes it so)."""
+
+    aircraft: str
+    registration: str | None
+    lines: list[ChangeLine]
+    previous: Record
+    new: Record
+    change_weight: float
+    change_arm: float
+    change_useful_load: float
+    useful_load: float
+    negligible: Negligible
+    equipment: list[dict[str, object]] = field(default_factory=list)
+    caution: str = MECHANIC_CAUTION
+
+
+def negligible_weight_lb(empty_weight_lb: float) -> float:
+    """The negligible weight change for an empty weight [lb] (AC 43.13-1B 10-2 c)."""
+    if empty_weight_lb < 5000:
+        return 1.0
+    if empty_weight_lb <= 50_000:
+        return 2.0
+    return 5.0
+
+
+def _negligible(aircraft: Aircraft, weight_change: float, arm_change: float) -> Negligible:
+    units = aircraft.units
+    empty_lb = convert(aircraft.empty.weight, units.mass, "lb")
+    limit_lb = negligible_weight_lb(empty_lb)
+    weight_ok = abs(convert(weight_change, units.mass, "lb")) <= limit_lb + 1e-12
+    weight_words = f"{limit_lb:g} lb or less (empty weight {empty_lb:,.0f} lb)"
+    if aircraft.rotorcraft:
+        arms = [a for e in aircraft.envelope if not e.is_lateral and "arm" in e.axes
+                for a in e.shape.corners[:, e.axes.index("arm")]]
+        if not arms:
+            return Negligible(weight=weight_ok, cg=None, weight_threshold=weight_words,
+                              cg_threshold="0.2 % of the CG range: no arm-weight envelope gives the range")
+        cg_range = max(arms) - min(arms)
+        threshold = 0.002 * cg_range
+        return Negligible(weight=weight_ok, cg=abs(arm_change) < threshold, weight_threshold=weight_words,
+                          cg_threshold=f"less than 0.2 % of the {cg_range:g} {units.arm} CG range ({threshold:.4f} {units.arm})")
+    if aircraft.mac is None:
+        return Negligible(weight=weight_ok, cg=None, weight_threshold=weight_words,
+                          cg_threshold="0.05 % MAC: the aircraft file gives no MAC, so this cannot be judged")
+    threshold = 0.0005 * aircraft.mac.length
+    return Negligible(weight=weight_ok, cg=abs(arm_change) < threshold, weight_threshold=weight_words,
+                      cg_threshold=f"less than 0.05 % MAC ({threshold:.4f} {units.arm})")
+
+
+def alter(aircraft: Aircraft, changes: Changes) -> AlterResult:
+    """Apply equipment changes to the empty-weight record (in memory).
+
+    Raises
+    ------
+    UnknownNameError
+        A removed or relocated item that is not in the equipment list (the message lists
+        the items there), or an installed item whose id is already there.
+    InputError
+        When the changes leave no empty weight.
+
+    References
+    ----------
+    AC 43.13-1B chapter 10 (10-2 c, negligible change); FAA-H-8083-1B chapter 2.
+    """
+    equipment: dict[str, dict[str, Any]] = {e.id: e.model_dump() for e in aircraft.equipment}
+    lines: list[ChangeLine] = []
+    problems: list[Problem] = []
+    empty = aircraft.empty
+    weight, moment = empty.weight, empty.moment
+    lateral = empty.weight * (empty.lateral_arm or 0.0)
+    for index, change in enumerate(changes.change):
+        where = f"change[{index}].item"
+        known = "one of " + ", ".join(equipment) if equipment else "the equipment list is empty"
+        if change.action == "install":
+            if change.item in equipment:
+                problems.append(Problem(where, f"item {change.item!r} is already installed; remove or relocate it instead"))
+                continue
+            assert change.weight is not None and change.arm is not None
+            item: dict[str, Any] = {"id": change.item, "label": change.label, "weight": change.weight, "arm": change.arm,
+                    "lateral_arm": change.lateral_arm}
+            equipment[change.item] = item
+            dw, dm, dl = change.weight, change.weight * change.arm, change.weight * (change.lateral_arm or 0.0)
+            lines.append(ChangeLine(action="install", item=change.item, label=change.label or change.item,
+                                    weight=change.weight, arm=change.arm, weight_change=dw, moment_change=dm))
+        else:
+            if change.item not in equipment:
+                problems.append(Problem(where, f"unknown item {change.item!r} to {change.action}", expected=known))
+                continue
+            item = equipment[change.item]
+            w, a, la = float(item["weight"]), float(item["arm"]), float(item.get("lateral_arm") or 0.0)
+            label = change.label or item.get("label") or change.item
+            if change.action == "remove":
+                del equipment[change.item]
+                dw, dm, dl = -w, -w * a, -w * la
+                lines.append(ChangeLine(action="remove", item=change.item, label=str(label), weight=w, arm=a,
+                                        weight_change=dw, moment_change=dm))
+            else:
+                new_arm = change.new_arm if change.new_arm is not None else a
+                new_lat = change.new_lateral_arm if change.new_lateral_arm is not None else la
+                equipment[change.item] = {**item, "arm": new_arm, "lateral_arm": new_lat if new_lat else item.get("lateral_arm")}
+                dw, dm, dl = 0.0, w * (new_arm - a), w * (new_lat - la)
+                lines.append(ChangeLine(action="relocate", item=change.item, label=str(label), weight=w, arm=a,
+                                        weight_change=0.0, moment_change=dm, new_arm=new_arm))
+        weight += dw
+        moment += dm
+        lateral += dl
+    if problems:
+        raise UnknownNameError(problems)
+    if weight <= 0:
+        raise InputError(Problem("change", "the changes leave no empty weight"))
+    previous = Record(weight=empty.weight, arm=empty.arm, moment=empty.moment, lateral_arm=empty.lateral_arm)
+    new = Record(weight=weight, arm=moment / weight, moment=moment,
+                 lateral_arm=lateral / weight if empty.lateral_arm is not None else None)
+    useful = aircraft.limits.max_takeoff_weight - weight
+    return AlterResult(
+        aircraft=aircraft.name, registration=aircraft.registration, lines=lines, previous=previous, new=new,
+        change_weight=weight - empty.weight, change_arm=new.arm - empty.arm,
+        change_useful_load=useful - aircraft.useful_load, useful_load=useful,
+        negligible=_negligible(aircraft, weight - empty.weight, new.arm - empty.arm),
+        equipment=[{k: v for k, v in item.items() if v is not None} for item in equipment.values()],
+    )
