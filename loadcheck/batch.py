@@ -28,6 +28,7 @@ import numpy as np
 
 from .aircraft import Aircraft, Envelope
 from .check import WEIGHT_TOLERANCE
+from .envelope import quadratic_roots
 from .loading import ResolvedLoading
 
 __all__ = ["BatchResult", "LoadingArrays", "evaluate", "evaluate_arrays", "loading_arrays", "CONDITIONS"]
@@ -170,86 +171,6 @@ def _tank_arms(aircraft: Aircraft, quantities: np.ndarray) -> np.ndarray:
 
 def _covers(envelope: Envelope, weight: np.ndarray, moment: np.ndarray, lateral: np.ndarray) -> np.ndarray:
     return envelope.shape.covers(weight, moment, lateral)
-
-
-def _fraction(envelope: Envelope, axis: str, w: np.ndarray, m: np.ndarray, lat: np.ndarray) -> tuple[np.ndarray, bool]:
-    """Numerator coefficients (..., 3) of an axis and whether its denominator is W."""
-    shape = envelope.shape
-    if axis == "weight":
-        return w, False
-    if axis == "moment":
-        return m / shape.moment_scale, False
-    if axis == "arm":
-        return m, True
-    if axis == "lateral_arm":
-        return lat, True
-    assert shape.mac is not None
-    return (m - shape.mac.leading_edge_arm * w) * (100.0 / shape.mac.length), True
-
-
-def _times(a: np.ndarray, b: np.ndarray) -> np.ndarray:
-    """Product of polynomials given as (..., 3) coefficient arrays, truncated to degree 2.
-
-    Used only where the product is of degree two at most (one factor is linear, the
-    other at most linear), so nothing is lost.
-    """
-    out = np.empty_like(a)
-    out[..., 0] = a[..., 0] * b[..., 0]
-    out[..., 1] = a[..., 0] * b[..., 1] + a[..., 1] * b[..., 0]
-    out[..., 2] = a[..., 0] * b[..., 2] + a[..., 1] * b[..., 1] + a[..., 2] * b[..., 0]
-    return out
-
-
-def _edge_polynomials(envelope: Envelope, w: np.ndarray, m: np.ndarray, lat: np.ndarray) -> np.ndarray:
-    """Coefficients (K, 3, E) of "the path meets edge line e", lowest power first.
-
-    For an edge from (x1, y1) to (x2, y2) in the envelope's scaled axes, with x = Nx/Dx and
-    y = Ny/Dy along the path, the condition (y2-y1)(x-x1) - (x2-x1)(y-y1) = 0 times Dx Dy
-    is a combination of three basis polynomials, Nx Dy, Dx Dy and Ny Dx, with weights
-    (y2-y1), (x2-x1) y1 - (y2-y1) x1 and -(x2-x1); where Dx = Dy (= W) the common factor
-    is dropped and the basis is Nx, D, Ny. Every basis polynomial is of degree two at most.
-    """
-    shape = envelope.shape
-    (nx, x_over_w), (ny, y_over_w) = (_fraction(envelope, a, w, m, lat) for a in shape.axes)
-    one = np.zeros_like(w)
-    one[..., 0] = 1.0
-    dx = w if x_over_w else one
-    dy = w if y_over_w else one
-    nx = (nx - shape.origin[0] * dx) / shape.span[0]
-    ny = (ny - shape.origin[1] * dy) / shape.span[1]
-    if x_over_w == y_over_w:
-        basis = np.stack([nx, dx, ny], axis=-1)
-    elif x_over_w:  # Dy = 1
-        basis = np.stack([nx, dx, _times(ny, dx)], axis=-1)
-    else:  # Dx = 1
-        basis = np.stack([_times(nx, dy), dy, ny], axis=-1)
-    k = basis.shape[0]
-    return (basis.reshape(k * 3, 3) @ shape.edge_weights).reshape(k, 3, -1)  # one matrix product
-
-
-def _quadratic_roots(a: np.ndarray, b: np.ndarray, c: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
-    """Real roots of a u^2 + b u + c (NaN where there is none), numerically stable."""
-    size = np.maximum(np.maximum(np.abs(a), np.abs(b)), np.abs(c))
-    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
-        quadratic = np.abs(a) > 1e-13 * size
-        disc = b * b - 4.0 * a * c
-        disc = np.where((disc < 0) & (disc > -1e-12 * b * b), 0.0, disc)
-        root = np.sqrt(np.where(disc >= 0, disc, np.nan))
-        q = -0.5 * (b + np.copysign(root, b))
-        r1 = np.where(quadratic, q / a, np.where(np.abs(b) > 1e-13 * size, -c / b, np.nan))
-        r2 = np.where(quadratic, c / q, np.nan)
-    return r1, r2
-
-
-def _edge_position(envelope: Envelope, edges: np.ndarray, w: np.ndarray, m: np.ndarray, lat: np.ndarray) -> np.ndarray:
-    """Where points fall along edges, projected: 0 at an edge's start, 1 at its end."""
-    shape = envelope.shape
-    x, y = shape.coords(w, m, lat)
-    x = (x - shape.origin[0]) / shape.span[0]
-    y = (y - shape.origin[1]) / shape.span[1]
-    start, end = shape._edges[edges, 0], shape._edges[edges, 1]
-    d = end - start
-    return ((x - start[:, 0]) * d[:, 0] + (y - start[:, 1]) * d[:, 1]) / (d * d).sum(axis=1)
 
 
 def _polyval(c: np.ndarray, u: np.ndarray | float) -> np.ndarray:
@@ -552,7 +473,7 @@ def _burn_path_ok(
     touched = np.zeros(len(a), dtype=bool)
     candidates = []
     for envelope in envelopes:
-        f = _edge_polynomials(envelope, w, m, lat)  # (K, 3, E)
+        f = envelope.shape.edge_polynomials(w, m, lat)  # (K, 3, E)
         c, b, q = f[:, 0], f[:, 1], f[:, 2]
         # only where the polynomial can vanish on [0, 1]: a sign change between the ends,
         # or a turning point inside with the other sign
@@ -562,13 +483,13 @@ def _burn_path_ok(
         k_all, e_all = np.nonzero(maybe)
         if len(k_all) == 0:
             continue
-        for r in _quadratic_roots(q[k_all, e_all], b[k_all, e_all], c[k_all, e_all]):
+        for r in quadratic_roots(q[k_all, e_all], b[k_all, e_all], c[k_all, e_all]):
             in_piece = (r >= -1e-12) & (r <= 1 + 1e-12)
             if not in_piece.any():
                 continue
             k, e = k_all[in_piece], e_all[in_piece]
             u = np.clip(r[in_piece], 0.0, 1.0)
-            s = _edge_position(envelope, e, _polyval(w[k], u), _polyval(m[k], u), _polyval(lat[k], u))
+            s = envelope.shape.edge_position(e, _polyval(w[k], u), _polyval(m[k], u), _polyval(lat[k], u))
             touched[k[(s >= -_EDGE_SLACK) & (s <= 1 + _EDGE_SLACK)]] = True
             column = np.full(f.shape[0] * f.shape[2], np.nan)
             column[k * f.shape[2] + e] = u

@@ -368,17 +368,16 @@ def _burn_path(
         quantities = resolved.plan.quantities(burned)
         return payload + fuel_state(aircraft, resolved.density, quantities), quantities
 
-    stretches = path_excursions(shapes, burn_pieces(aircraft, resolved, start, end)) if end > start else []
+    pieces = burn_pieces(aircraft, resolved, start, end) if end > start else []
+    stretches = path_excursions(shapes, pieces)
     marks = {start + (end - start) * k / 40 for k in range(41)}
     marks.update(b for stretch in stretches for b in stretch)
     samples = []
     for burned in sorted(marks):
-        state = state_at(burned)[0]
+        piece = next((p for p in pieces if p.start <= burned <= p.end), None)
+        w, m, lat = piece.at(burned) if piece is not None else (takeoff.weight, takeoff.moment, takeoff.lateral_moment or 0.0)
         samples.append(
-            PathSample(
-                fuel_burned=takeoff.weight - state.weight, weight=state.weight, arm=state.arm,
-                lateral_arm=state.lateral_arm if lateral else None,
-            )
+            PathSample(fuel_burned=takeoff.weight - w, weight=w, arm=m / w, lateral_arm=lat / w if lateral else None)
         )
     if not stretches:
         return BurnPath(ok=takeoff_in if end <= start else True, samples=samples)

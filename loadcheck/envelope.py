@@ -23,9 +23,10 @@ polygon, measured after scaling each axis by the envelope's extent on it: one pa
 that sits exactly on a limit line to the outside.
 
 Along the fuel burn, W is linear and M and L are at most quadratic in the fuel burned
-(quadratic only for tanks whose arm moves with quantity), so the path crosses an edge
-where a polynomial of degree at most three has a root. The path is split at every such
-root and each piece is tested at its middle: an exact test of the curve, not sampling.
+(quadratic only for tanks whose arm moves with quantity), so the path meets an edge line
+where a polynomial of degree at most two has a root (:meth:`EnvelopeShape.edge_polynomials`).
+The path is split at every such root and each piece is tested at its middle: an exact
+test of the curve, not sampling. The vectorised engine uses the same polynomials.
 """
 
 from __future__ import annotations
@@ -35,7 +36,6 @@ from typing import TYPE_CHECKING, Literal
 
 import numpy as np
 import shapely
-from numpy.polynomial import polynomial as P
 
 if TYPE_CHECKING:
     from .aircraft import Mac
@@ -225,81 +225,157 @@ class EnvelopeShape:
         start, step = point(0.0), point(1.0) - point(0.0)
         if not np.any(step):
             return None
-        # parameter range that spans the polygon's bounding box, with room to spare
-        bounds = np.array([self.origin, self.origin + self.span])
-        moving = step != 0
-        ends = (bounds[:, moving] - start[moving]) / step[moving]
-        low, high = ends.min() - 1.0, ends.max() + 1.0
-        line = shapely.LineString([start + low * step, start + high * step])
-        pieces = shapely.get_parts(self.polygon.intersection(line))
+        return self._line_intervals((start - self.origin) / self.span, step / self.span)
+
+    def _line_intervals(self, a: np.ndarray, d: np.ndarray) -> list[tuple[float, float]]:
+        """Parameters s where the scaled line a + s d lies inside the polygon, as intervals.
+
+        The line is cut at every edge it crosses (and at the ends of edges it runs along);
+        each stretch between cuts is inside or outside as its middle is (containment with
+        the same tolerance as everywhere else); a lone cut that touches the polygon from
+        outside gives a zero-length interval.
+        """
+        first, second = self._edges[:, 0], self._edges[:, 1]
+        e = second - first
+        w = first - a
+        denom = d[0] * e[:, 1] - d[1] * e[:, 0]
+        with np.errstate(divide="ignore", invalid="ignore"):
+            s = (w[:, 0] * e[:, 1] - w[:, 1] * e[:, 0]) / denom
+            t = (w[:, 0] * d[1] - w[:, 1] * d[0]) / denom
+        scale = float(np.abs(d).max())
+        crossing = (np.abs(denom) > 1e-14 * scale) & (t >= -1e-12) & (t <= 1 + 1e-12)
+        cuts = list(s[crossing])
+        along = (np.abs(denom) <= 1e-14 * scale) & (np.abs(w[:, 0] * d[1] - w[:, 1] * d[0]) <= 1e-12 * scale)
+        if along.any():
+            norm = float(d @ d)
+            cuts += list(((first[along] - a) @ d) / norm) + list(((second[along] - a) @ d) / norm)
+        if not cuts:
+            return []
+        points = np.unique(np.asarray(cuts, dtype=float))
+        mids = 0.5 * (points[:-1] + points[1:])
+        # one containment call for every middle and every cut point
+        probe = np.concatenate([mids, points])
+        inside = shapely.intersects_xy(self.covering, a[0] + probe * d[0], a[1] + probe * d[1])
+        inside_mid, inside_cut = inside[: len(mids)], inside[len(mids):]
         intervals: list[tuple[float, float]] = []
-        norm = float(step @ step)
-        for piece in pieces:
-            xy = shapely.get_coordinates(piece)
-            if len(xy) == 0:
-                continue
-            values = (xy - start) @ step / norm
-            intervals.append((float(values.min()), float(values.max())))
-        intervals.sort()
-        merged: list[tuple[float, float]] = []
-        for lo, hi in intervals:
-            if merged and lo <= merged[-1][1]:
-                merged[-1] = (merged[-1][0], max(hi, merged[-1][1]))
+        for k in np.flatnonzero(inside_mid):
+            lo, hi = float(points[k]), float(points[k + 1])
+            if intervals and intervals[-1][1] == lo:
+                intervals[-1] = (intervals[-1][0], hi)
             else:
-                merged.append((lo, hi))
-        return merged
+                intervals.append((lo, hi))
+        for k in np.flatnonzero(inside_cut):  # a cut touching the polygon from outside
+            if (k == 0 or not inside_mid[k - 1]) and (k == len(mids) or not inside_mid[k]):
+                intervals.append((float(points[k]), float(points[k])))
+        return sorted(intervals)
 
     # -- fuel-burn path -------------------------------------------------------------
 
-    def _fraction(self, axis: str, w: np.ndarray, m: np.ndarray, lat: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
-        """Numerator and denominator polynomials of an axis (coefficients, low first)."""
-        one = np.array([1.0])
+    def _fraction(self, axis: str, w: np.ndarray, m: np.ndarray, lat: np.ndarray) -> tuple[np.ndarray, bool]:
+        """Numerator coefficients (..., 3) of an axis along a path, and whether its denominator is W."""
         if axis == "weight":
-            return w, one
+            return w, False
         if axis == "moment":
-            return m / self.moment_scale, one
+            return m / self.moment_scale, False
         if axis == "arm":
-            return m, w
+            return m, True
         if axis == "lateral_arm":
-            return lat, w
+            return lat, True
         assert self.mac is not None
-        return P.polysub(m, self.mac.leading_edge_arm * w) * (100.0 / self.mac.length), w
+        return (m - self.mac.leading_edge_arm * w) * (100.0 / self.mac.length), True
+
+    def edge_polynomials(self, w: np.ndarray, m: np.ndarray, lat: np.ndarray) -> np.ndarray:
+        """Coefficients (..., 3, E) of "the path meets edge line e", lowest power first.
+
+        ``w``, ``m``, ``lat``: weight, moment and lateral moment along a path piece as
+        (..., 3) coefficient arrays in the piece parameter u. For an edge from (x1, y1) to
+        (x2, y2) in the scaled axes, with x = Nx/Dx and y = Ny/Dy along the path, the
+        condition (y2-y1)(x-x1) - (x2-x1)(y-y1) = 0 times Dx Dy (both positive) combines
+        three basis polynomials, Nx Dy, Dx Dy and Ny Dx, with weights (y2-y1),
+        (x2-x1) y1 - (y2-y1) x1 and -(x2-x1); where Dx = Dy the common factor is dropped
+        and the basis is Nx, D, Ny. For every axis pair an envelope may use (one axis is
+        weight, or the pair is lateral arm and arm) each basis polynomial is of degree two
+        at most, so the condition is a quadratic.
+        """
+        (nx, x_over_w), (ny, y_over_w) = (self._fraction(a, w, m, lat) for a in self.axes)
+        one = np.zeros_like(w)
+        one[..., 0] = 1.0
+        dx = w if x_over_w else one
+        dy = w if y_over_w else one
+        nx = (nx - self.origin[0] * dx) / self.span[0]
+        ny = (ny - self.origin[1] * dy) / self.span[1]
+        if x_over_w == y_over_w:
+            basis = np.stack([nx, dx, ny], axis=-1)
+        elif x_over_w:  # Dy = 1
+            basis = np.stack([nx, dx, _times(ny, dx)], axis=-1)
+        else:  # Dx = 1
+            basis = np.stack([_times(nx, dy), dy, ny], axis=-1)
+        shape = basis.shape[:-2]
+        flat = basis.reshape(-1, 3) @ self.edge_weights  # one matrix product for every edge
+        return flat.reshape(*shape, 3, -1)
+
+    def edge_position(self, edges: np.ndarray, w: np.ndarray, m: np.ndarray, lat: np.ndarray) -> np.ndarray:
+        """Where points fall along edges, projected: 0 at an edge's start, 1 at its end."""
+        x, y = self.coords(w, m, lat)
+        x = (x - self.origin[0]) / self.span[0]
+        y = (y - self.origin[1]) / self.span[1]
+        start, end = self._edges[edges, 0], self._edges[edges, 1]
+        d = end - start
+        return ((x - start[..., 0]) * d[..., 0] + (y - start[..., 1]) * d[..., 1]) / (d * d).sum(axis=-1)
 
     def crossings(self, weight: np.ndarray, moment: np.ndarray, lateral: np.ndarray) -> list[float]:
         """Parameters u in [0, 1] where a path piece meets an edge line of the envelope.
 
         Parameters
         ----------
-        weight, moment, lateral : polynomial coefficients (lowest power first) of the
-            loading state along the piece, in the piece parameter u in [0, 1]
+        weight, moment, lateral : polynomial coefficients (lowest power first, at most
+            three) of the loading state along the piece, in the piece parameter u in [0, 1]
         """
-        (nx, dx), (ny, dy) = (self._fraction(a, weight, moment, lateral) for a in self.axes)
-        # scale each axis the way the covering polygon is scaled
-        nx = P.polysub(nx, self.origin[0] * dx) / self.span[0]
-        ny = P.polysub(ny, self.origin[1] * dy) / self.span[1]
+        w, m, lat = (_pad3(c) for c in (weight, moment, lateral))
+        f = self.edge_polynomials(w, m, lat)  # (3, E)
         found: list[float] = []
-        for (x1, y1), (x2, y2) in self._edges:
-            # (y2 - y1)(x - x1) - (x2 - x1)(y - y1) = 0, multiplied by dx * dy > 0
-            f = P.polysub(
-                (y2 - y1) * P.polymul(P.polysub(nx, x1 * dx), dy),
-                (x2 - x1) * P.polymul(P.polysub(ny, y1 * dy), dx),
-            )
-            found.extend(_roots_in_unit_interval(f))
+        for roots in quadratic_roots(f[2], f[1], f[0]):
+            found += [float(r) for r in roots if -1e-12 <= r <= 1 + 1e-12]
         return found
 
 
-def _roots_in_unit_interval(coefficients: np.ndarray) -> list[float]:
-    c = np.array(coefficients, dtype=float)
-    size = np.abs(c).max(initial=0.0)
-    if size == 0.0:
-        return []  # the piece runs along the edge line: no crossing
-    c[np.abs(c) < 1e-14 * size] = 0.0
-    c = np.trim_zeros(c, "b")
-    if len(c) < 2:
-        return []
-    roots = P.polyroots(c)
-    near_real = roots[np.abs(roots.imag) <= 1e-7].real
-    return [float(r) for r in near_real if -1e-12 <= r <= 1 + 1e-12]
+def _pad3(coefficients: np.ndarray) -> np.ndarray:
+    out = np.zeros(3)
+    c = np.asarray(coefficients, dtype=float)[:3]
+    out[: len(c)] = c
+    return out
+
+
+def _times(a: np.ndarray, b: np.ndarray) -> np.ndarray:
+    """Product of polynomials given as (..., 3) coefficient arrays, truncated to degree 2.
+
+    Used only where the product is of degree two at most (one factor is linear, the
+    other at most linear), so nothing is lost.
+    """
+    out = np.empty_like(a)
+    out[..., 0] = a[..., 0] * b[..., 0]
+    out[..., 1] = a[..., 0] * b[..., 1] + a[..., 1] * b[..., 0]
+    out[..., 2] = a[..., 0] * b[..., 2] + a[..., 1] * b[..., 1] + a[..., 2] * b[..., 0]
+    return out
+
+
+def quadratic_roots(a: np.ndarray, b: np.ndarray, c: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """Real roots of a u^2 + b u + c, elementwise (NaN where there is none).
+
+    The stable form (q = -(b + sign(b) sqrt(b^2 - 4ac)) / 2; roots q/a and c/q) avoids
+    cancellation; a leading coefficient below 1e-13 of the largest is taken as zero (the
+    linear root), a discriminant a hair below zero as a double root (a path grazing an edge).
+    """
+    size = np.maximum(np.maximum(np.abs(a), np.abs(b)), np.abs(c))
+    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+        quadratic = np.abs(a) > 1e-13 * size
+        disc = b * b - 4.0 * a * c
+        disc = np.where((disc < 0) & (disc > -1e-12 * b * b), 0.0, disc)
+        root = np.sqrt(np.where(disc >= 0, disc, np.nan))
+        q = -0.5 * (b + np.copysign(root, b))
+        r1 = np.where(quadratic, q / a, np.where(np.abs(b) > 1e-13 * size, -c / b, np.nan))
+        r2 = np.where(quadratic, c / q, np.nan)
+    return r1, r2
 
 
 class PathPiece:
@@ -308,22 +384,29 @@ class PathPiece:
     Attributes
     ----------
     start, end : fuel burned since engine start at the piece's ends [fuel volume unit]
-    weight, moment, lateral : polynomial coefficients in u = (burned - start) / (end - start)
+    weight, moment, lateral : polynomial coefficients (three, lowest power first) in
+        u = (burned - start) / (end - start)
     """
 
-    __slots__ = ("end", "lateral", "moment", "start", "weight")
+    __slots__ = ("start", "end", "weight", "moment", "lateral")
 
     def __init__(self, start: float, end: float, weight: np.ndarray, moment: np.ndarray, lateral: np.ndarray):
         self.start, self.end = start, end
-        self.weight, self.moment, self.lateral = weight, moment, lateral
+        self.weight, self.moment, self.lateral = _pad3(weight), _pad3(moment), _pad3(lateral)
 
     def state(self, u: float) -> tuple[float, float, float]:
         """Weight, moment and lateral moment at parameter u."""
+        w, m, lat = self.weight, self.moment, self.lateral
         return (
-            float(P.polyval(u, self.weight)),
-            float(P.polyval(u, self.moment)),
-            float(P.polyval(u, self.lateral)),
+            float(w[0] + u * (w[1] + u * w[2])),
+            float(m[0] + u * (m[1] + u * m[2])),
+            float(lat[0] + u * (lat[1] + u * lat[2])),
         )
+
+    def at(self, burned: float) -> tuple[float, float, float]:
+        """Weight, moment and lateral moment after ``burned`` fuel [fuel volume unit]."""
+        length = self.end - self.start
+        return self.state((burned - self.start) / length if length > 0 else 0.0)
 
 
 def path_excursions(shapes: Sequence[EnvelopeShape], pieces: Sequence[PathPiece]) -> list[tuple[float, float]]:

@@ -36,9 +36,9 @@ class Result:
     """Base of the result dataclasses: JSON conversion."""
 
     def to_dict(self) -> dict[str, Any]:
-        """The result as JSON-ready data; fields that are None are left out."""
+        """The result as JSON-ready data; fields that are None, and drawing data, are left out."""
         return {f.name: _plain(getattr(self, f.name)) for f in fields(self)  # type: ignore[arg-type]
-                if getattr(self, f.name) is not None}
+                if getattr(self, f.name) is not None and not f.metadata.get("drawing")}
 
     def to_json(self, indent: int | None = 2) -> str:
         """The result as a JSON document."""
@@ -162,13 +162,13 @@ class BurnPath(Result):
 
     ``samples`` are points along the path (evenly spaced in fuel burned, plus every
     point where it leaves or re-enters an envelope) for charts; the verdict does not
-    rest on them.
+    rest on them, and they are left out of the JSON form.
     """
 
     ok: bool
     leaves_at: LeavePoint | None = None
     excursions: list[Excursion] = field(default_factory=list)
-    samples: list[PathSample] = field(default_factory=list)
+    samples: list[PathSample] = field(default_factory=list, metadata={"drawing": True})
 
 
 @dataclass(frozen=True, kw_only=True, slots=True)

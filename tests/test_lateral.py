@@ -107,8 +107,12 @@ def test_constant_arm_table_equals_fixed_arm(arm, fuel, share, order):
                                   {"id": "aux", "arm": 50.0, "usable": 10, "fuel": "avgas"}])
     burn = {"trip": (fuel + 5) * share, "order": "together" if order == "together" else ["main", "aux"]}
     loading = Loading(load={"front": 200}, fuel={"main": fuel, "aux": 5}, burn=burn)
-    a, b = check_loading(fixed, loading), check_loading(table, loading)
-    assert a.to_dict() == b.to_dict() | {"aircraft": a.to_dict()["aircraft"]}
+    first, second = check_loading(fixed, loading), check_loading(table, loading)
+    a, b = first.to_dict(), second.to_dict()
+    assert a == b | {"aircraft": a["aircraft"]}
+    # the drawing samples may differ in the last bits (the table cuts the path into more pieces)
+    for x, y in zip(first.burn_path.samples, second.burn_path.samples, strict=True):
+        assert x.to_dict() == pytest.approx(y.to_dict(), rel=1e-12, abs=1e-9)
 
 
 def _sump(table: bool):
