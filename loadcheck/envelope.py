@@ -109,6 +109,7 @@ class EnvelopeShape:
         self.polygon = shapely.Polygon(corners)
         normal = (corners - self.origin) / self.span
         self._edges = np.stack([normal, np.roll(normal, -1, axis=0)], axis=1)  # (n, 2 ends, xy)
+        self._edge_list = [(float(p[0]), float(p[1]), float(q[0] - p[0]), float(q[1] - p[1])) for p, q in self._edges]
         (x1, y1), (x2, y2) = self._edges[:, 0].T, self._edges[:, 1].T
         # weights of the edge-crossing polynomial's basis (see loadcheck.batch)
         self.edge_weights = np.stack([y2 - y1, (x2 - x1) * y1 - (y2 - y1) * x1, -(x2 - x1)])  # (3, n)
@@ -235,23 +236,22 @@ class EnvelopeShape:
         the same tolerance as everywhere else); a lone cut that touches the polygon from
         outside gives a zero-length interval.
         """
-        first, second = self._edges[:, 0], self._edges[:, 1]
-        e = second - first
-        w = first - a
-        denom = d[0] * e[:, 1] - d[1] * e[:, 0]
-        with np.errstate(divide="ignore", invalid="ignore"):
-            s = (w[:, 0] * e[:, 1] - w[:, 1] * e[:, 0]) / denom
-            t = (w[:, 0] * d[1] - w[:, 1] * d[0]) / denom
-        scale = float(np.abs(d).max())
-        crossing = (np.abs(denom) > 1e-14 * scale) & (t >= -1e-12) & (t <= 1 + 1e-12)
-        cuts = list(s[crossing])
-        along = (np.abs(denom) <= 1e-14 * scale) & (np.abs(w[:, 0] * d[1] - w[:, 1] * d[0]) <= 1e-12 * scale)
-        if along.any():
-            norm = float(d @ d)
-            cuts += list(((first[along] - a) @ d) / norm) + list(((second[along] - a) @ d) / norm)
-        if not cuts:
-            return []
-        points = np.unique(np.asarray(cuts, dtype=float))
+        ax, ay = float(a[0]), float(a[1])
+        dx, dy = float(d[0]), float(d[1])
+        scale = max(abs(dx), abs(dy))
+        cuts: list[float] = []
+        for x1, y1, ex, ey in self._edge_list:  # a handful of edges: plain floats beat numpy here
+            wx, wy = x1 - ax, y1 - ay
+            denom = dx * ey - dy * ex
+            if abs(denom) > 1e-14 * scale:
+                t = (wx * dy - wy * dx) / denom
+                if -1e-12 <= t <= 1 + 1e-12:
+                    cuts.append((wx * ey - wy * ex) / denom)
+            elif abs(wx * dy - wy * dx) <= 1e-12 * scale:  # the line runs along this edge
+                norm = dx * dx + dy * dy
+                cuts.append((wx * dx + wy * dy) / norm)
+                cuts.append(((wx + ex) * dx + (wy + ey) * dy) / norm)
+        points = np.array(sorted(set(cuts)))
         mids = 0.5 * (points[:-1] + points[1:])
         # one containment call for every middle and every cut point
         probe = np.concatenate([mids, points])
