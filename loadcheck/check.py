@@ -47,7 +47,7 @@ _WORDS = {"ramp": "ramp", "takeoff": "takeoff", "landing": "landing", "zero_fuel
 
 
 def check_loading(
-    aircraft: Aircraft, loading: Loading | ResolvedLoading, *, category: str | None = None
+    aircraft: Aircraft, loading: Loading | ResolvedLoading, *, category: str | None = None, samples: bool = True
 ) -> CheckResult:
     """Check a loading against every limit of the aircraft.
 
@@ -56,6 +56,8 @@ def check_loading(
     aircraft : the aircraft, with its current empty-weight record
     loading : a loading (resolved here) or an already resolved one
     category : envelope category; default the loading's, else the aircraft's first
+    samples : compute points along the burn path for drawing it (``burn_path.samples``);
+        the verdict never depends on them
 
     Returns
     -------
@@ -87,7 +89,7 @@ def check_loading(
         _condition(aircraft, resolved, shapes, name, *states[name], findings)  # type: ignore[arg-type]
         for name in CONDITIONS
     ]
-    burn_path = _burn_path(aircraft, resolved, shapes, conditions, findings)
+    burn_path = _burn_path(aircraft, resolved, shapes, conditions, findings, samples)
     findings.extend(_station_findings(aircraft, resolved))
 
     landing_fuel = conditions[2].fuel
@@ -355,6 +357,7 @@ def _burn_path(
     shapes: Sequence[EnvelopeShape],
     conditions: Sequence[Condition],
     findings: list[Finding],
+    with_samples: bool = True,
 ) -> BurnPath:
     start, end = resolved.taxi, resolved.taxi + resolved.trip
     takeoff = conditions[1]
@@ -370,10 +373,10 @@ def _burn_path(
 
     pieces = burn_pieces(aircraft, resolved, start, end) if end > start else []
     stretches = path_excursions(shapes, pieces)
-    marks = {start + (end - start) * k / 40 for k in range(41)}
+    marks = {start + (end - start) * k / 40 for k in range(41)} if with_samples else set()
     marks.update(b for stretch in stretches for b in stretch)
     samples = []
-    for burned in sorted(marks):
+    for burned in sorted(marks) if with_samples else []:
         piece = next((p for p in pieces if p.start <= burned <= p.end), None)
         w, m, lat = piece.at(burned) if piece is not None else (takeoff.weight, takeoff.moment, takeoff.lateral_moment or 0.0)
         samples.append(

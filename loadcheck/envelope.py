@@ -109,6 +109,7 @@ class EnvelopeShape:
         self.polygon = shapely.Polygon(corners)
         normal = (corners - self.origin) / self.span
         self._edges = np.stack([normal, np.roll(normal, -1, axis=0)], axis=1)  # (n, 2 ends, xy)
+        self._origin_span = ((float(self.origin[0]), float(self.origin[1])), (float(self.span[0]), float(self.span[1])))
         self._edge_list = [(float(p[0]), float(p[1]), float(q[0] - p[0]), float(q[1] - p[1])) for p, q in self._edges]
         (x1, y1), (x2, y2) = self._edges[:, 0].T, self._edges[:, 1].T
         # weights of the edge-crossing polynomial's basis (see loadcheck.batch)
@@ -178,17 +179,16 @@ class EnvelopeShape:
             shapely.intersects_xy(self.covering, (x - self.origin[0]) / self.span[0], (y - self.origin[1]) / self.span[1])
         )
 
-    def _at(self, weight: float, arm: float, lateral_arm: float) -> np.ndarray:
-        """Envelope coordinates of a CG position (arm, lateral arm) at a weight."""
-        return np.array(
-            [float(v) for v in self.coords(weight, arm * weight, lateral_arm * weight)]
-            if weight != 0
-            else [self._axis_at_zero_weight(a, arm, lateral_arm) for a in self.axes]
-        )
+    def _at(self, weight: float, arm: float, lateral_arm: float) -> tuple[float, float]:
+        """Envelope coordinates of a CG position (arm, lateral arm) at a weight (plain floats)."""
+        x, y = (self._axis_at(a, weight, arm, lateral_arm) for a in self.axes)
+        return x, y
 
-    def _axis_at_zero_weight(self, axis: str, arm: float, lateral_arm: float) -> float:
-        if axis in ("weight", "moment"):
-            return 0.0
+    def _axis_at(self, axis: str, weight: float, arm: float, lateral_arm: float) -> float:
+        if axis == "weight":
+            return weight
+        if axis == "moment":
+            return arm * weight / self.moment_scale
         if axis == "arm":
             return arm
         if axis == "lateral_arm":
@@ -216,19 +216,21 @@ class EnvelopeShape:
             lateral arm with the other two held, so the line is straight on the envelope.
         """
 
-        def point(value: float) -> np.ndarray:
+        def point(value: float) -> tuple[float, float]:
             if vary == "arm":
                 return self._at(weight, value, lateral_arm)
             if vary == "weight":
                 return self._at(value, arm, lateral_arm)
             return self._at(weight, arm, value)
 
-        start, step = point(0.0), point(1.0) - point(0.0)
-        if not np.any(step):
+        (x0, y0), (x1, y1) = point(0.0), point(1.0)
+        sx, sy = x1 - x0, y1 - y0
+        if sx == 0.0 and sy == 0.0:
             return None
-        return self._line_intervals((start - self.origin) / self.span, step / self.span)
+        (ox, oy), (wx, wy) = self._origin_span
+        return self._line_intervals((x0 - ox) / wx, (y0 - oy) / wy, sx / wx, sy / wy)
 
-    def _line_intervals(self, a: np.ndarray, d: np.ndarray) -> list[tuple[float, float]]:
+    def _line_intervals(self, ax: float, ay: float, dx: float, dy: float) -> list[tuple[float, float]]:
         """Parameters s where the scaled line a + s d lies inside the polygon, as intervals.
 
         The line is cut at every edge it crosses (and at the ends of edges it runs along);
@@ -236,8 +238,6 @@ class EnvelopeShape:
         the same tolerance as everywhere else); a lone cut that touches the polygon from
         outside gives a zero-length interval.
         """
-        ax, ay = float(a[0]), float(a[1])
-        dx, dy = float(d[0]), float(d[1])
         scale = max(abs(dx), abs(dy))
         cuts: list[float] = []
         for x1, y1, ex, ey in self._edge_list:  # a handful of edges: plain floats beat numpy here
@@ -255,7 +255,7 @@ class EnvelopeShape:
         mids = 0.5 * (points[:-1] + points[1:])
         # one containment call for every middle and every cut point
         probe = np.concatenate([mids, points])
-        inside = shapely.intersects_xy(self.covering, a[0] + probe * d[0], a[1] + probe * d[1])
+        inside = shapely.intersects_xy(self.covering, ax + probe * dx, ay + probe * dy)
         inside_mid, inside_cut = inside[: len(mids)], inside[len(mids):]
         intervals: list[tuple[float, float]] = []
         for k in np.flatnonzero(inside_mid):
@@ -388,7 +388,7 @@ class PathPiece:
         u = (burned - start) / (end - start)
     """
 
-    __slots__ = ("start", "end", "weight", "moment", "lateral")
+    __slots__ = ("end", "lateral", "moment", "start", "weight")
 
     def __init__(self, start: float, end: float, weight: np.ndarray, moment: np.ndarray, lateral: np.ndarray):
         self.start, self.end = start, end

@@ -108,6 +108,9 @@ class Loading(_Model):
     aircraft: str | None = Field(None, description="aircraft file, relative to this file")
     category: str | None = None
     label: str | None = Field(None, description="free text: flight, booking reference")
+    registration: str | None = Field(None, description="the aircraft, by registration, in a fleet")
+    reference: str | None = Field(None, description="flight or booking reference")
+    pilot: str | None = Field(None, description="the pilot in command")
     fuel_density: float | None = Field(None, gt=0, description="overrides every tank [mass unit / volume unit]")
     load: dict[str, MassAmount] = Field(default_factory=dict, description="mass per station [mass unit]")
     fuel: dict[str, FuelStart] = Field(

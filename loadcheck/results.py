@@ -37,12 +37,27 @@ class Result:
 
     def to_dict(self) -> dict[str, Any]:
         """The result as JSON-ready data; fields that are None, and drawing data, are left out."""
-        return {f.name: _plain(getattr(self, f.name)) for f in fields(self)  # type: ignore[arg-type]
-                if getattr(self, f.name) is not None and not f.metadata.get("drawing")}
+        out = {}
+        for name in _names(type(self)):
+            value = getattr(self, name)
+            if value is not None:
+                out[name] = _plain(value)
+        return out
 
     def to_json(self, indent: int | None = 2) -> str:
         """The result as a JSON document."""
         return json.dumps(self.to_dict(), indent=indent)
+
+
+_NAMES: dict[type, tuple[str, ...]] = {}
+
+
+def _names(cls: type) -> tuple[str, ...]:
+    names = _NAMES.get(cls)
+    if names is None:
+        names = tuple(f.name for f in fields(cls) if not f.metadata.get("drawing"))  # type: ignore[arg-type]
+        _NAMES[cls] = names
+    return names
 
 
 def _plain(value: Any) -> Any:
@@ -51,8 +66,6 @@ def _plain(value: Any) -> Any:
     if isinstance(value, list):
         return [_plain(v) for v in value]
     return value
-
-
 
 
 @dataclass(frozen=True, kw_only=True, slots=True)

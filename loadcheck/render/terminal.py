@@ -27,6 +27,8 @@ __all__ = [
     "render_alteration",
     "render_check",
     "render_extremes",
+    "render_fleet",
+    "render_fleet_list",
     "render_plan",
     "render_schedule",
     "render_table",
@@ -410,3 +412,54 @@ def render_schedule(cases: list[Any], aircraft: Aircraft, console: Console, caut
         console.print(f"  fuel: {fuel or 'none'}", markup=False)
         console.print(_conditions_table(case.check))
     console.print(caution_text(caution))
+
+
+def render_fleet(flights: list[Any], console: Console) -> None:
+    """One line per flight: registration, reference, takeoff and landing, verdict, first finding."""
+    table = Table(title="Flights", title_justify="left")
+    for column in ("Line", "Registration", "Reference", "Takeoff", "Landing", "Result", "First finding"):
+        table.add_column(column, justify="right" if column == "Line" else "left")
+    for flight in flights:
+        row = flight.row
+        if flight.result is None:
+            table.add_row(str(row.line), row.registration or "", row.reference or "", "", "",
+                          Text("INPUT ERROR", style=_WARN_STYLE), "; ".join(flight.problems)[:160])
+            continue
+        result = flight.result
+        units = result["units"]
+        conditions = {c["condition"]: c for c in result["conditions"]}
+        takeoff, landing = conditions["takeoff"], conditions["landing"]
+        first = next((f["message"] for f in result["findings"] if f["severity"] == "limit"), "")
+        table.add_row(
+            str(row.line), row.registration or "", row.reference or "",
+            f"{fmt(takeoff['weight'], units['mass'])} / {fmt(takeoff['arm'], units['arm'])}",
+            f"{fmt(landing['weight'], units['mass'])} / {fmt(landing['arm'], units['arm'])}",
+            Text("within", style=_OK_STYLE) if result["ok"] else Text("OUT", style=_LIMIT_STYLE), first,
+        )
+    console.print(table)
+    out = sum(1 for f in flights if f.result is not None and not f.ok)
+    bad = sum(1 for f in flights if f.result is None)
+    console.print(f"{len(flights)} flight(s): {len(flights) - out - bad} within limits, {out} out of limits, "
+                  f"{bad} could not be used.", markup=False)
+    from ..caution import PILOT_CAUTION
+
+    console.print(caution_text(PILOT_CAUTION))
+
+
+def render_fleet_list(lines: list[Any], folder: Any, console: Console) -> None:
+    """The fleet listing: one row per aircraft file."""
+    from ..caution import PILOT_CAUTION
+
+    table = Table(title=f"Fleet in {folder}", title_justify="left")
+    for column in ("Registration", "Aircraft", "Empty weight", "Record of", "Useful load", "Data", "Problems"):
+        table.add_column(column)
+    for line in lines:
+        unit = line.mass_unit or ""
+        table.add_row(
+            line.registration or "?", line.name or line.file,
+            fmt(line.empty_weight, unit) if line.empty_weight is not None else "",
+            line.record_date or "", fmt(line.useful_load, unit) if line.useful_load is not None else "",
+            line.fingerprint or "", Text("\n".join(line.problems), style=_WARN_STYLE) if line.problems else "none",
+        )
+    console.print(table)
+    console.print(caution_text(PILOT_CAUTION))

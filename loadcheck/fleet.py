@@ -1,0 +1,436 @@
+"""A fleet of aircraft addressed by registration, and a day of loadings checked against it.
+
+The fleet is a folder of aircraft files (searched with its sub-folders). Loadings come
+from a CSV file (one row per flight; columns documented in docs/fleet.md) or a folder of
+loading files. Each flight is resolved against its aircraft and checked with
+:func:`~loadcheck.check.check_loading`; a row that cannot be used is reported with its line
+number and reason, never skipped, and the other rows are still checked.
+"""
+
+from __future__ import annotations
+
+import csv
+import datetime as dt
+import io
+import re
+from collections.abc import Iterable, Iterator
+from dataclasses import dataclass, field
+from pathlib import Path
+from typing import Any
+
+from .aircraft import Aircraft
+from .check import check_loading
+from .errors import FileFormatError, InputError, LoadcheckError, Problem
+from .files import file_kind, parse_aircraft, parse_loading, read_text, read_toml
+from .loading import Loading, resolve_loading
+
+__all__ = [
+    "FleetEntry",
+    "Fleet",
+    "FleetRow",
+    "Flight",
+    "load_fleet",
+    "read_loadings",
+    "check_flights",
+    "RESERVED_COLUMNS",
+    "MAX_CSV_BYTES",
+    "FleetLine",
+    "fleet_listing",
+    "record_age_days",
+]
+
+MAX_CSV_BYTES = 50 * 1024 * 1024
+"""Largest loadings CSV read [bytes] (about half a million flights)."""
+
+RESERVED_COLUMNS = ("registration", "reference", "pilot", "date", "category", "label",
+                    "taxi", "trip", "trip_time", "rate", "order", "reserve")
+"""CSV columns that are not station or tank ids."""
+
+_HEADER = re.compile(r"^\s*([^\[\]]+?)\s*(?:\[\s*([^\]]+?)\s*\])?\s*$")
+
+
+@dataclass(frozen=True)
+class FleetEntry:
+    """One aircraft file of the fleet: its data, or why it cannot be used."""
+
+    path: Path
+    registration: str | None
+    aircraft: Aircraft | None
+    problems: list[str] = field(default_factory=list)
+
+
+@dataclass(frozen=True)
+class Fleet:
+    """The aircraft of a folder, by registration."""
+
+    folder: Path
+    entries: list[FleetEntry]
+
+    @property
+    def duplicates(self) -> dict[str, list[Path]]:
+        """Registrations found in more than one file."""
+        seen: dict[str, list[Path]] = {}
+        for entry in self.entries:
+            if entry.registration:
+                seen.setdefault(entry.registration, []).append(entry.path)
+        return {reg: paths for reg, paths in seen.items() if len(paths) > 1}
+
+    def aircraft(self, registration: str) -> Aircraft:
+        """The usable aircraft of a registration.
+
+        Raises
+        ------
+        InputError
+            Unknown registration (the known ones listed), one found in two files, or one
+            whose file does not validate.
+        """
+        if registration in self.duplicates:
+            files = ", ".join(str(p) for p in self.duplicates[registration])
+            raise InputError(Problem("registration", f"{registration!r} is in more than one fleet file ({files})"))
+        entry = next((e for e in self.entries if e.registration == registration), None)
+        if entry is None:
+            known = ", ".join(sorted(e.registration for e in self.entries if e.registration)) or "none"
+            raise InputError(Problem("registration", f"unknown registration {registration!r}", expected="one of " + known))
+        if entry.aircraft is None:
+            raise InputError(Problem("registration", f"the file of {registration!r} ({entry.path}) does not validate"))
+        return entry.aircraft
+
+    @property
+    def station_and_tank_ids(self) -> set[str]:
+        """Every station and tank id of any usable aircraft."""
+        ids: set[str] = set()
+        for entry in self.entries:
+            if entry.aircraft is not None:
+                ids |= set(entry.aircraft.stations) | set(entry.aircraft.tanks)
+        return ids
+
+
+def load_fleet(folder: str | Path) -> Fleet:
+    """Read every aircraft file under a folder (loadings and other files are passed over).
+
+    Raises
+    ------
+    FileFormatError
+        When the folder does not exist or holds no aircraft file.
+    """
+    folder = Path(folder)
+    if not folder.is_dir():
+        raise FileFormatError("not a folder of aircraft files", file=folder)
+    entries = []
+    for path in sorted(folder.rglob("*.toml")):
+        try:
+            data = read_toml(path)
+        except LoadcheckError as error:
+            entries.append(FleetEntry(path, None, None, error.lines()))
+            continue
+        if file_kind(data) != "aircraft":
+            continue
+        registration = data.get("registration") if isinstance(data.get("registration"), str) else None
+        try:
+            aircraft = parse_aircraft(data, path)
+        except LoadcheckError as error:
+            entries.append(FleetEntry(path, registration, None, error.lines()))
+            continue
+        problems = [] if registration else [f"{path}: no registration; the fleet cannot address this aircraft"]
+        entries.append(FleetEntry(path, registration, aircraft, problems))
+    if not entries:
+        raise FileFormatError("holds no aircraft file", file=folder)
+    return Fleet(folder, entries)
+
+
+@dataclass(frozen=True)
+class FleetRow:
+    """One flight as read: where it came from and its loading, or why it cannot be used."""
+
+    line: int
+    source: str
+    registration: str | None
+    reference: str | None
+    pilot: str | None
+    loading: Loading | None
+    problems: list[str] = field(default_factory=list)
+
+
+def _split_header(name: str) -> tuple[str, str | None]:
+    match = _HEADER.match(name or "")
+    if not match:
+        return (name or "").strip(), None
+    return match.group(1).strip(), match.group(2)
+
+
+def _csv_rows(path: Path, fleet: Fleet) -> tuple[list[FleetRow], list[str]]:
+    text = read_text(path, limit=MAX_CSV_BYTES)
+    reader = csv.reader(io.StringIO(text, newline=""))
+    try:
+        header = next(reader)
+    except StopIteration:
+        raise FileFormatError("the CSV file is empty: it needs a header row", file=path) from None
+    except csv.Error as error:
+        raise FileFormatError(f"not a readable CSV file: {error}", file=path) from None
+    columns = [_split_header(h) for h in header]
+    names = [c[0] for c in columns]
+    file_problems: list[str] = []
+    if "registration" not in names:
+        raise FileFormatError("the CSV header has no 'registration' column", file=path)
+    repeated = sorted({n for n in names if names.count(n) > 1})
+    if repeated:
+        raise FileFormatError(f"column(s) named twice in the header: {', '.join(repeated)}", file=path)
+    known = fleet.station_and_tank_ids
+    unknown = [n for n in names if n and n not in RESERVED_COLUMNS and n not in known]
+    for name in unknown:
+        file_problems.append(f"{path}: unknown column {name!r}: not a station or tank of any fleet aircraft, nor one of "
+                             f"{', '.join(RESERVED_COLUMNS)}; rows with a value in it are refused")
+    if not names or all(not n for n in names):
+        raise FileFormatError("the CSV header is empty", file=path)
+    rows = []
+    try:
+        for record in reader:
+            line = reader.line_num
+            if not any(cell.strip() for cell in record):
+                continue
+            rows.append(_csv_row(path, line, columns, record, fleet, set(unknown)))
+    except csv.Error as error:
+        raise FileFormatError(f"CSV error at line {reader.line_num}: {error}", file=path) from None
+    return rows, file_problems
+
+
+def _csv_row(path: Path, line: int, columns: list[tuple[str, str | None]], record: list[str], fleet: Fleet,
+             unknown: set[str]) -> FleetRow:
+    where = f"{path}:{line}"
+    problems: list[str] = []
+    if len(record) != len(columns):
+        problems.append(f"{where}: {len(record)} cells where the header has {len(columns)} columns")
+    cells = {name: (cell.strip(), unit) for (name, unit), cell in zip(columns, record)}
+    registration = cells.get("registration", ("", None))[0] or None
+    reference = cells.get("reference", ("", None))[0] or None
+    pilot = cells.get("pilot", ("", None))[0] or None
+    if registration is None:
+        problems.append(f"{where}: no registration")
+    aircraft = None
+    if registration is not None:
+        try:
+            aircraft = fleet.aircraft(registration)
+        except LoadcheckError as error:
+            problems += [f"{where}: {p.describe()}" for p in error.problems]
+    data: dict[str, Any] = {"load": {}, "fuel": {}, "burn": {}}
+    for name, (value, unit) in cells.items():
+        if not value or name in ("registration", "reference", "pilot", "date"):
+            continue
+        text = f"{value} {unit}" if unit and _bare_number(value) else value
+        if name in unknown:
+            problems.append(f"{where}: value {value!r} in unknown column {name!r}")
+        elif name in ("category", "label"):
+            data[name] = value
+        elif name == "order":
+            data["burn"]["order"] = "together" if value == "together" else [t.strip() for t in re.split(r"[;|/ ]+", value) if t.strip()]
+        elif name in RESERVED_COLUMNS:
+            data["burn"][name] = text
+        elif aircraft is not None:
+            if name in aircraft.stations:
+                data["load"][name] = text
+            elif name in aircraft.tanks:
+                data["fuel"][name] = text
+            else:
+                problems.append(f"{where}: column {name!r} is not a station or tank of {registration} "
+                                f"(its stations: {', '.join(aircraft.stations)}; tanks: {', '.join(aircraft.tanks)})")
+    loading = None
+    if not problems:
+        try:
+            loading = parse_loading(data, where)
+        except LoadcheckError as error:
+            problems += error.lines()
+    return FleetRow(line, str(path), registration, reference, pilot, loading, problems)
+
+
+def _bare_number(text: str) -> bool:
+    try:
+        float(text)
+    except ValueError:
+        return False
+    return True
+
+
+def _folder_rows(folder: Path) -> list[FleetRow]:
+    rows = []
+    for index, path in enumerate(sorted(folder.rglob("*.toml")), start=1):
+        try:
+            data = read_toml(path)
+            if file_kind(data) != "loading":
+                continue
+            loading = parse_loading(data, path)
+            registration, reference, pilot = loading.registration, loading.reference or path.stem, loading.pilot
+            rows.append(FleetRow(index, str(path), registration, reference, pilot, loading,
+                                 [] if registration else [f"{path}: a fleet loading file names its aircraft by registration = ..."]))
+        except LoadcheckError as error:
+            rows.append(FleetRow(index, str(path), None, path.stem, None, None, error.lines()))
+    return rows
+
+
+def read_loadings(source: str | Path, fleet: Fleet) -> tuple[list[FleetRow], list[str]]:
+    """Read a day of loadings: a CSV file, or a folder of loading files.
+
+    Returns
+    -------
+    (rows, file problems)
+        Every row, usable or not; and problems of the file as a whole (an unknown column).
+
+    Raises
+    ------
+    FileFormatError
+        When the source cannot be read at all (missing, not CSV, no header, no
+        registration column).
+    """
+    source = Path(source)
+    if source.is_dir():
+        return _folder_rows(source), []
+    return _csv_rows(source, fleet)
+
+
+@dataclass(frozen=True)
+class Flight:
+    """The outcome of one flight: the check's JSON form, or the reasons it could not be made."""
+
+    row: FleetRow
+    result: dict[str, Any] | None
+    problems: list[str]
+    record_id: int | None = None
+
+    @property
+    def ok(self) -> bool:
+        """Checked and within limits."""
+        return self.result is not None and bool(self.result["ok"])
+
+    def to_dict(self) -> dict[str, Any]:
+        """The JSON Lines object: the fields of ``check --json`` and where the flight came from."""
+        head: dict[str, Any] = {"line": self.row.line, "source": self.row.source, "registration": self.row.registration,
+                                "reference": self.row.reference, "pilot": self.row.pilot}
+        if self.result is None:
+            return {**head, "ok": False, "input_error": self.problems}
+        body = dict(self.result)
+        if self.record_id is not None:
+            body["record"] = self.record_id
+        return {**head, **body}
+
+
+CHUNK = 256
+"""Flights checked, recorded (one transaction) and reported together."""
+
+_FLEET: Fleet | None = None  # the fleet, inherited by worker processes
+
+
+def _check_one(row: FleetRow) -> tuple[dict[str, Any] | None, list[str]]:
+    assert _FLEET is not None
+    if row.problems or row.loading is None or row.registration is None:
+        return None, row.problems or ["this row cannot be used"]
+    try:
+        aircraft = _FLEET.aircraft(row.registration)
+        result = check_loading(aircraft, resolve_loading(row.loading, aircraft), samples=False)
+    except LoadcheckError as error:
+        return None, [f"{row.source}:{row.line}: {p.describe()}" for p in error.problems]
+    return result.to_dict(), []
+
+
+def _check_chunk(rows: list[FleetRow]) -> list[tuple[dict[str, Any] | None, list[str]]]:
+    return [_check_one(row) for row in rows]
+
+
+def check_flights(
+    fleet: Fleet, rows: Iterable[FleetRow], log: Any = None, version: str = "", workers: int = 1
+) -> Iterator[Flight]:
+    """Check every usable row, in order; record each check in ``log`` where one is given.
+
+    Flights go in chunks of :data:`CHUNK`: a chunk is checked (by ``workers`` processes
+    where more than one is asked for and the platform can fork), recorded in one
+    transaction, and only then yielded, so everything reported has been recorded, and an
+    interrupted batch leaves every earlier chunk recorded whole.
+    """
+    global _FLEET
+    _FLEET = fleet
+    rows = list(rows)
+    chunks = [rows[i : i + CHUNK] for i in range(0, len(rows), CHUNK)]
+    pool = None
+    if workers > 1 and len(chunks) > 1:
+        import multiprocessing
+
+        if "fork" in multiprocessing.get_all_start_methods():
+            from concurrent.futures import ProcessPoolExecutor
+
+            pool = ProcessPoolExecutor(max_workers=workers, mp_context=multiprocessing.get_context("fork"))
+    try:
+        outcomes = pool.map(_check_chunk, chunks) if pool is not None else map(_check_chunk, chunks)
+        for chunk, results in zip(chunks, outcomes):
+            ids: list[int | None] = [None] * len(chunk)
+            if log is not None:
+                entries = []
+                for index, (row, (result, _)) in enumerate(zip(chunk, results)):
+                    if result is None or row.loading is None or row.registration is None:
+                        continue
+                    aircraft = fleet.aircraft(row.registration)
+                    entries.append((index, {
+                        "aircraft_data": (lambda a=aircraft: a.model_dump(mode="json")),
+                        "fingerprint": aircraft.fingerprint,
+                        "inputs": row.loading.model_dump(mode="json", exclude_none=True), "result": result,
+                        "registration": row.registration, "reference": row.reference, "pilot": row.pilot,
+                        "source": f"{row.source}:{row.line}", "version": version,
+                    }))
+                for (index, _), record_id in zip(entries, log.add_many([e for _, e in entries])):
+                    ids[index] = record_id
+            for row, (result, problems), record_id in zip(chunk, results, ids):
+                yield Flight(row, result, problems, record_id)
+    finally:
+        if pool is not None:
+            pool.shutdown(cancel_futures=True)
+        _FLEET = None
+
+
+def record_age_days(aircraft: Aircraft, today: dt.date | None = None) -> int | None:
+    """Days since the empty-weight record's date (None where the record is not dated)."""
+    if aircraft.empty.date is None:
+        return None
+    return ((today or dt.date.today()) - aircraft.empty.date).days
+
+
+@dataclass(frozen=True)
+class FleetLine:
+    """One aircraft of a fleet listing: its figures (mass unit of its own file) and problems."""
+
+    file: str
+    registration: str | None
+    name: str | None
+    empty_weight: float | None
+    record_date: str | None
+    useful_load: float | None
+    fingerprint: str | None
+    mass_unit: str | None
+    problems: list[str]
+    usable: bool
+
+    def to_dict(self) -> dict[str, Any]:
+        """JSON form."""
+        return {k: getattr(self, k) for k in self.__dataclass_fields__}
+
+
+def fleet_listing(fleet: Fleet, max_age_days: int, today: dt.date | None = None) -> list[FleetLine]:
+    """The fleet, aircraft by aircraft, with every problem flagged."""
+    duplicates = fleet.duplicates
+    lines = []
+    for entry in fleet.entries:
+        flags = list(entry.problems)
+        if entry.registration in duplicates:
+            others = ", ".join(str(p) for p in duplicates[entry.registration] if p != entry.path)
+            flags.append(f"registration also in {others}")
+        a = entry.aircraft
+        age = record_age_days(a, today) if a is not None else None
+        if a is not None and age is None:
+            flags.append("the empty-weight record is not dated")
+        elif age is not None and age > max_age_days:
+            flags.append(f"empty-weight record is {age} days old (more than {max_age_days})")
+        lines.append(FleetLine(
+            file=str(entry.path), registration=entry.registration, name=a.name if a else None,
+            empty_weight=a.empty.weight if a else None,
+            record_date=a.empty.date.isoformat() if a and a.empty.date else None,
+            useful_load=a.useful_load if a else None, fingerprint=a.fingerprint if a else None,
+            mass_unit=a.units.mass if a else None, problems=flags,
+            usable=a is not None and entry.registration not in duplicates,
+        ))
+    return lines

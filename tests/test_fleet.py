@@ -1,0 +1,264 @@
+"""The dispatcher's side: fleet, batch check, the record of checks."""
+
+from __future__ import annotations
+
+import csv
+import json
+import os
+import shutil
+import signal
+import sqlite3
+import subprocess
+import sys
+import time
+from pathlib import Path
+
+import pytest
+from typer.testing import CliRunner
+
+from loadcheck import check_loading, load_aircraft
+from loadcheck.cli import app
+from loadcheck.fleet import check_flights, load_fleet, read_loadings
+from loadcheck.loading import Loading
+from loadcheck.records import RecordLog, results_match
+
+from .helpers import SAMPLES, sample
+
+runner = CliRunner()
+DAY = sample("fleet_day.csv")
+
+
+@pytest.fixture
+def records(tmp_path, monkeypatch):
+    path = tmp_path / "records.sqlite3"
+    monkeypatch.setenv("LOADCHECK_RECORDS", str(path))
+    return path
+
+
+def _json_lines(text: str) -> list[dict]:
+    return [json.loads(line) for line in text.splitlines() if line.startswith("{")]
+
+
+def test_fleet_list():
+    result = runner.invoke(app, ["fleet", "list", str(SAMPLES), "--json"])
+    assert result.exit_code == 0, result.output
+    data = json.loads(result.stdout)
+    regs = {a["registration"]: a for a in data["aircraft"]}
+    assert {"DEMO-4T", "DEMO-2T", "DEMO-6P", "DEMO-H2"} <= set(regs)
+    assert regs["DEMO-4T"]["useful_load"] == pytest.approx(766.0)
+    old = runner.invoke(app, ["fleet", "list", str(SAMPLES), "--max-age", "30", "--json"])
+    assert any("days old" in p for a in json.loads(old.stdout)["aircraft"] for p in a["problems"])
+
+
+def test_fleet_list_flags_duplicates_and_bad_files(tmp_path):
+    shutil.copy(sample("trainer4/aircraft.toml"), tmp_path / "a.toml")
+    shutil.copy(sample("trainer4/aircraft.toml"), tmp_path / "b.toml")
+    (tmp_path / "c.toml").write_text('format = 1\nname = "broken"\n[units]\nmass = "lb"\n')
+    result = runner.invoke(app, ["fleet", "list", str(tmp_path), "--json"])
+    assert result.exit_code == 2
+    entries = {Path(a["file"]).name: a for a in json.loads(result.stdout)["aircraft"]}
+    assert any("registration also in" in p for p in entries["a.toml"]["problems"])
+    assert any("limits" in p or "required" in p for p in entries["c.toml"]["problems"])
+
+
+def test_batch_agrees_row_by_row_with_single_checks(records):
+    result = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(DAY), "--json"])
+    assert result.exit_code == 2  # the sample day has malformed rows
+    lines = _json_lines(result.stdout)
+    with open(DAY, newline="") as handle:
+        rows = list(csv.DictReader(handle))
+    assert len(lines) == len(rows) >= 50
+    fleet = load_fleet(SAMPLES)
+    checked = [line for line in lines if "input_error" not in line]
+    assert len(checked) >= 50
+    for line in checked:
+        aircraft = fleet.aircraft(line["registration"])
+        raw = rows[line["line"] - 2]
+        load, fuel, burn = {}, {}, {}
+        for key, value in raw.items():
+            name, _, unit = key.partition(" [")
+            if not value or name in ("registration", "reference", "pilot"):
+                continue
+            text = f"{value} {unit.rstrip(']')}" if unit else value
+            if name in aircraft.stations:
+                load[name] = text
+            elif name in aircraft.tanks:
+                fuel[name] = text
+            elif name == "order":
+                burn["order"] = "together" if value == "together" else value.split(";")
+            else:
+                burn[name] = text
+        single = check_loading(aircraft, Loading(load=load, fuel=fuel, burn=burn)).to_dict()
+        assert results_match({k: line[k] for k in single}, single), line["line"]
+    bad = {line["line"]: " ".join(line["input_error"]) for line in lines if "input_error" in line}
+    assert any("unknown registration 'DEMO-XX'" in v for v in bad.values())
+    assert any("'heavy'" in v for v in bad.values())
+    assert any("must not be negative" in v for v in bad.values())
+    assert any("not a station or tank of DEMO-2T" in v for v in bad.values())
+    assert all(f"fleet_day.csv:{n}" in v for n, v in bad.items())
+    # every usable flight was recorded, once
+    with RecordLog(records) as log:
+        assert len(list(log.find())) == len(checked)
+
+
+def test_summary_table_and_exit_codes(records, tmp_path):
+    good = tmp_path / "good.csv"
+    good.write_text("registration,reference,front,rear,mains,taxi,trip\nDEMO-4T,R1,340,150,tabs,1.2,18\nDEMO-4T,R2,200,0,30,1,10\n")
+    ok = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(good)])
+    assert ok.exit_code == 0 and "2 flight(s): 2 within limits" in ok.output
+    over = tmp_path / "over.csv"
+    over.write_text("registration,reference,front,rear,bag1,mains\nDEMO-4T,R3,380,340,100,full\n")
+    result = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(over)])
+    assert result.exit_code == 1 and "OUT" in result.output and "maximum ramp weight" in result.output
+
+
+def test_units_in_headers(records, tmp_path):
+    day = tmp_path / "day.csv"
+    day.write_text("registration,reference,front [kg],mains [l],trip [l]\nDEMO-4T,R1,100,100,40\n")
+    line = _json_lines(runner.invoke(app, ["fleet", "check", str(SAMPLES), str(day), "--json"]).stdout)[0]
+    front = next(i for i in line["items"] if i["id"] == "front")
+    assert front["weight"] == pytest.approx(100 / 0.45359237)
+    assert line["conditions"][0]["fuel"] == pytest.approx(100 / 3.785411784)
+
+
+@pytest.mark.parametrize(
+    "text, words",
+    [
+        ("registration,reference,bag9\nDEMO-4T,R1,20\n", "unknown column 'bag9'"),
+        ("registration,front\nDEMO-ZZ,170\n", "unknown registration 'DEMO-ZZ'"),
+        ("registration,front\nDEMO-4T,lots\n", "'lots'"),
+        ("reference,front\nR1,170\n", "no 'registration' column"),
+        ("", "empty"),
+    ],
+)
+def test_bad_csv_input(records, tmp_path, text, words):
+    day = tmp_path / "day.csv"
+    day.write_text(text)
+    result = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(day)])
+    assert result.exit_code == 2 and words in result.output and "Traceback" not in result.output
+
+
+def test_duplicate_registration_rows_are_refused(records, tmp_path):
+    fleet = tmp_path / "fleet"
+    fleet.mkdir()
+    shutil.copy(sample("trainer4/aircraft.toml"), fleet / "a.toml")
+    shutil.copy(sample("trainer4/aircraft.toml"), fleet / "b.toml")
+    day = tmp_path / "day.csv"
+    day.write_text("registration,front,mains\nDEMO-4T,170,30\n")
+    result = runner.invoke(app, ["fleet", "check", str(fleet), str(day)])
+    assert result.exit_code == 2 and "in more than one fleet file" in result.output and "day.csv:2" in result.output
+
+
+def test_folder_of_loading_files(records, tmp_path):
+    folder = tmp_path / "day"
+    folder.mkdir()
+    (folder / "one.toml").write_text('registration = "DEMO-2T"\nreference = "F1"\n[load]\nfront = 80\n[fuel]\nwing = "full"\n')
+    (folder / "two.toml").write_text('[load]\nfront = 80\n')
+    result = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(folder), "--json"])
+    lines = _json_lines(result.stdout)
+    assert result.exit_code == 2 and len(lines) == 2
+    assert lines[0]["reference"] == "F1" and lines[0]["ok"] is True
+    assert "registration" in " ".join(lines[1]["input_error"])
+
+
+def test_record_survives_an_edit_and_verify_reproduces_it(tmp_path, records):
+    shutil.copytree(sample("trainer4"), tmp_path / "trainer4")
+    aircraft = tmp_path / "trainer4" / "aircraft.toml"
+    loading = tmp_path / "trainer4" / "within.toml"
+    first = runner.invoke(app, ["check", str(aircraft), str(loading), "--record", str(records), "--json"])
+    assert first.exit_code == 0, first.output
+    aircraft.write_text(aircraft.read_text().replace("weight = 1684.0", "weight = 1750.0"))
+    with RecordLog(records) as log:
+        (record,) = list(log.find())
+    assert record.result["conditions"][0]["weight"] == pytest.approx(json.loads(first.stdout)["conditions"][0]["weight"])
+    verify = runner.invoke(app, ["records", "verify", str(record.id), "--db", str(records)])
+    assert verify.exit_code == 0 and "reproduced" in verify.output
+    shown = runner.invoke(app, ["records", "show", str(record.id), "--db", str(records)])
+    assert json.loads(shown.stdout)["inputs"]["load"]["front"] == 340
+
+
+def test_records_are_never_rewritten(records):
+    with RecordLog(records) as log:
+        log.add(aircraft_data={"x": 1}, fingerprint="f", inputs={}, result={"ok": True})
+    db = sqlite3.connect(records)
+    with pytest.raises(sqlite3.DatabaseError, match="never rewritten"):
+        db.execute("UPDATE checks SET ok = 0")
+    with pytest.raises(sqlite3.DatabaseError, match="never deleted"):
+        db.execute("DELETE FROM checks")
+    assert db.execute("PRAGMA journal_mode").fetchone()[0] == "wal"
+
+
+def test_export_and_list(records):
+    runner.invoke(app, ["fleet", "check", str(SAMPLES), str(DAY)])
+    listing = runner.invoke(app, ["records", "list", "--registration", "DEMO-6P"])
+    assert listing.exit_code == 0 and "DEMO-6P" in listing.output and "DEMO-4T" not in listing.output
+    exported = runner.invoke(app, ["records", "export", "--format", "csv", "--registration", "DEMO-2T"])
+    rows = list(csv.DictReader(exported.stdout.splitlines()))
+    assert rows and all(r["registration"] == "DEMO-2T" for r in rows)
+    jsonl = runner.invoke(app, ["records", "export", "--since", "2000-01-01", "--until", "2999-12-31"])
+    assert len(_json_lines(jsonl.stdout)) == len(rows) + sum(1 for _ in _json_lines(jsonl.stdout) if _["registration"] != "DEMO-2T")
+    none = runner.invoke(app, ["records", "export", "--until", "2000-01-01"])
+    assert none.stdout == ""
+    assert runner.invoke(app, ["records", "show", "999999"]).exit_code == 2
+
+
+def _run_fleet(db: Path, csv_path: Path) -> subprocess.Popen:
+    return subprocess.Popen([sys.executable, "-m", "loadcheck", "fleet", "check", str(SAMPLES), str(csv_path),
+                             "--record", str(db), "--json"], stdout=subprocess.DEVNULL, stderr=subprocess.PIPE, text=True)
+
+
+def test_two_writers_lose_nothing(tmp_path):
+    db = tmp_path / "records.sqlite3"
+    a, b = _run_fleet(db, DAY), _run_fleet(db, DAY)
+    errors = [p.communicate(timeout=120)[1] for p in (a, b)]
+    assert a.returncode == 2 and b.returncode == 2
+    assert not any("could not record" in e or "cannot use the record database" in e for e in errors), errors
+    with RecordLog(db) as log:
+        found = list(log.find())
+    fleet = load_fleet(SAMPLES)
+    usable = sum(1 for flight in check_flights(fleet, read_loadings(DAY, fleet)[0]) if flight.result is not None)
+    assert len(found) == 2 * usable
+    assert len({r.id for r in found}) == len(found)
+
+
+def test_an_interrupted_batch_leaves_every_record_whole(tmp_path):
+    big = tmp_path / "big.csv"
+    with open(DAY, newline="") as handle:
+        reader = csv.DictReader(handle)
+        rows = list(reader)
+        fields = reader.fieldnames
+    with open(big, "w", newline="") as out:
+        writer = csv.DictWriter(out, fieldnames=fields)
+        writer.writeheader()
+        for i in range(20_000):
+            writer.writerow(rows[i % len(rows)])
+    db = tmp_path / "records.sqlite3"
+    process = _run_fleet(db, big)
+    deadline = time.time() + 60
+    count = 0
+    while time.time() < deadline and count == 0:
+        time.sleep(0.2)
+        if db.exists():
+            try:
+                count = sqlite3.connect(db, timeout=1).execute("SELECT count(*) FROM checks").fetchone()[0]
+            except sqlite3.Error:
+                count = 0
+    process.send_signal(signal.SIGKILL)
+    process.wait(30)
+    connection = sqlite3.connect(db)
+    assert connection.execute("PRAGMA integrity_check").fetchone()[0] == "ok"
+    with RecordLog(db) as log:
+        found = list(log.find())
+    assert found and len(found) < 20_000
+    for record in found[:: max(1, len(found) // 20)]:
+        assert "conditions" in record.result and record.inputs
+        assert runner.invoke(app, ["records", "verify", str(record.id), "--db", str(db)]).exit_code == 0
+
+
+def test_library_check_flights_in_order(records):
+    fleet = load_fleet(SAMPLES)
+    rows, _ = read_loadings(DAY, fleet)
+    flights = list(check_flights(fleet, rows))
+    assert [f.row.line for f in flights] == [r.line for r in rows]
+    assert load_aircraft(sample("twin6/aircraft.toml")).registration == "DEMO-6P"
+    assert os.environ["LOADCHECK_RECORDS"] == str(records)
