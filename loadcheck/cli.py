@@ -594,7 +594,10 @@ def weigh(
 
     data, original = _read_aircraft_bytes(aircraft)
     parsed = load_readings(readings, data)
-    result = compute(data, parsed)
+    try:
+        result = compute(data, parsed)
+    except LoadcheckError as error:
+        raise error.with_file(readings) from None
     _mechanic_sheet(sheet, result, data, readings)
     if json_out:
         typer.echo(result.to_json())
@@ -632,7 +635,10 @@ def alter(
 
     data, original = _read_aircraft_bytes(aircraft)
     parsed = load_changes(changes, data)
-    result = compute(data, parsed)
+    try:
+        result = compute(data, parsed)
+    except LoadcheckError as error:
+        raise error.with_file(changes) from None
     _mechanic_sheet(sheet, result, data, changes)
     if json_out:
         typer.echo(result.to_json())

@@ -235,7 +235,15 @@ def load_check_inputs(
                 Problem("aircraft", "this loading file names no aircraft file; give the aircraft file first"),
                 file=loading_path,
             )
-        aircraft = load_aircraft(named)
+        try:
+            named_data = read_toml(named)
+        except LoadcheckError as error:
+            reason = "; ".join(p.describe() for p in error.problems)
+            raise InputError(Problem("aircraft", f"names {named}, which cannot be read: {reason}"),
+                             file=loading_path) from None
+        if file_kind(named_data) != "aircraft":
+            raise InputError(Problem("aircraft", f"names {named}, which is not an aircraft file"), file=loading_path)
+        aircraft = parse_aircraft(named_data, named)
     else:
         aircraft = parse_aircraft(data, aircraft_path)
         loading, named = load_loading(loading_path, **overrides)

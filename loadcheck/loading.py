@@ -132,8 +132,9 @@ def apply_overrides(
     merged = {key: (dict(value) if isinstance(value, dict) else value) for key, value in data.items()}
     for table, values in (("load", load), ("fuel", fuel), ("burn", burn)):
         if values:
-            merged.setdefault(table, {})
-            merged[table].update(values)
+            existing = merged.setdefault(table, {})
+            if isinstance(existing, dict):  # a table of the wrong type is left for validation to report
+                existing.update(values)
     if category is not None:
         merged["category"] = category
     return merged

@@ -186,7 +186,7 @@ class RecordLog:
                 )
                 ids.append(int(cursor.lastrowid or 0))
             self._db.execute("COMMIT")
-        except sqlite3.Error as error:
+        except (sqlite3.Error, TypeError, ValueError) as error:
             if self._db.in_transaction:
                 self._db.execute("ROLLBACK")
             raise FileFormatError(f"could not record the checks (nothing of this batch was recorded): {error}",

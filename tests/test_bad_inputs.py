@@ -1,0 +1,81 @@
+"""The bad-input corpus (tests/bad_inputs/): every malformed file gives exit 2, a message
+naming the file and the field, no traceback, and leaves every file untouched."""
+
+from __future__ import annotations
+
+import hashlib
+import shutil
+import tomllib
+from pathlib import Path
+
+import pytest
+from typer.testing import CliRunner
+
+from loadcheck.cli import app
+
+from .helpers import SAMPLES, sample
+
+HERE = Path(__file__).parent / "bad_inputs"
+CASES = tomllib.loads((HERE / "manifest.toml").read_text())["case"]
+runner = CliRunner()
+
+
+def _digest(folder: Path) -> dict[str, str]:
+    return {str(p): hashlib.sha256(p.read_bytes()).hexdigest() for p in sorted(folder.rglob("*")) if p.is_file()}
+
+
+def test_the_corpus_is_large_enough():
+    assert len(CASES) >= 60
+    assert {c["kind"] for c in CASES} >= {"aircraft", "loading", "readings", "changes", "csv"}
+
+
+@pytest.mark.parametrize("case", CASES, ids=[c["file"] for c in CASES])
+def test_bad_input(case, tmp_path, monkeypatch):
+    monkeypatch.setenv("LOADCHECK_RECORDS", str(tmp_path / "records.sqlite3"))
+    bad = tmp_path / case["file"]
+    shutil.copy(HERE / case["file"], bad)
+    shutil.copy(sample("trainer4/aircraft.toml"), tmp_path / "trainer.toml")
+    trainer = str(tmp_path / "trainer.toml")
+    before = _digest(tmp_path)
+    samples_before = _digest(SAMPLES)
+    kind = case["kind"]
+    if kind == "aircraft":
+        args = ["check", str(bad), "--load", "front=170"]
+    elif kind == "loading":
+        args = ["check", trainer, str(bad)]
+    elif kind == "loading_alone":
+        args = ["check", str(bad)]
+    elif kind == "readings":
+        args = ["weigh", trainer, str(bad), "--write"]
+    elif kind == "changes":
+        args = ["alter", trainer, str(bad), "--write"]
+    else:
+        args = ["fleet", "check", str(SAMPLES), str(bad)]
+    result = runner.invoke(app, args)
+    output = result.output
+    assert result.exit_code == 2, output
+    assert "Traceback" not in output and "internal error" not in output, output
+    assert case["file"] in output, output
+    for words in case["words"]:
+        assert words in output, (words, output)
+    assert _digest(tmp_path) == before | {k: v for k, v in _digest(tmp_path).items() if k.endswith(".sqlite3") or "-wal" in k or "-shm" in k}
+    assert _digest(SAMPLES) == samples_before
+
+
+def test_a_100_megabyte_file(tmp_path):
+    big = tmp_path / "big.toml"
+    with open(big, "w") as handle:
+        handle.write("# padding\n" * 10_500_000)
+    result = runner.invoke(app, ["check", str(big)])
+    assert result.exit_code == 2 and "too large" in result.output and "big.toml" in result.output
+    csv_file = tmp_path / "big.csv"
+    with open(csv_file, "w") as handle:
+        handle.write("registration,front\n")
+        handle.write("DEMO-4T,170\n" * 9_000_000)
+    result = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(csv_file), "--no-record"])
+    assert result.exit_code == 2 and "too large" in result.output
+
+
+def test_a_folder_and_a_missing_file():
+    assert "is a folder" in runner.invoke(app, ["check", str(SAMPLES)]).output
+    assert "not found" in runner.invoke(app, ["check", "missing.toml"]).output
