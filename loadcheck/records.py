@@ -138,7 +138,7 @@ class RecordLog:
                 action()
                 return
             except sqlite3.OperationalError as error:
-                if "locked" not in str(error) and "busy" not in str(error) or attempt == attempts - 1:
+                if ("locked" not in str(error) and "busy" not in str(error)) or attempt == attempts - 1:
                     raise
                 time.sleep(0.05 * (1 + attempt % 5))
 

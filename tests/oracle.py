@@ -63,6 +63,9 @@ def scaled_distance(px: float, py: float, polygon: list[tuple[float, float]]) ->
         bx, by = polygon[(i + 1) % len(polygon)][0] / sx, polygon[(i + 1) % len(polygon)][1] / sy
         x, y = px / sx, py / sy
         dx, dy = bx - ax, by - ay
+        if dx == 0 and dy == 0:  # a repeated corner
+            best = min(best, math.hypot(x - ax, y - ay))
+            continue
         t = max(0.0, min(1.0, ((x - ax) * dx + (y - ay) * dy) / (dx * dx + dy * dy)))
         best = min(best, math.hypot(x - ax - t * dx, y - ay - t * dy))
     return best

@@ -14,7 +14,6 @@ from __future__ import annotations
 
 import math
 import random
-from collections import Counter
 from fractions import Fraction as F
 
 import pytest
@@ -120,7 +119,7 @@ def compare(seed: int) -> list[str]:
 
 
 def test_oracle_agrees(oracle_cases):
-    disagreements, undecided = [], Counter()
+    disagreements: list[str] = []
     for seed in range(oracle_cases):
         disagreements += compare(seed)
         if len(disagreements) > 20:
