@@ -173,7 +173,7 @@ def check(
 
       loadcheck check sample_aircraft/trainer4/aircraft.toml sample_aircraft/trainer4/within.toml
 
-      loadcheck check trainer.toml --load front=340 --load rear=150 --fuel mains=tabs --taxi 1.2 --trip 18
+      loadcheck check sample_aircraft/trainer4/aircraft.toml --load front=340 --load rear=150 --fuel mains=tabs --taxi 1.2 --trip 18
 
       loadcheck check sample_aircraft/twin6/leaves_path.toml --json
 
