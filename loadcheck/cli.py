@@ -300,6 +300,10 @@ def validate(
                 _console(stderr=True).print(f"error: {line}", markup=False, soft_wrap=True)
             continue
         console.print(f"ok: {path}: {summary}", markup=False)
+    from .caution import PILOT_CAUTION
+    from .render.terminal import caution_text
+
+    console.print(caution_text(PILOT_CAUTION))
     raise typer.Exit(EXIT_INPUT if failed else EXIT_OK)
 
 
@@ -900,7 +904,12 @@ def records_list(db: DbOpt = None, since: SinceOpt = None, until: UntilOpt = Non
         for r in log.find(since=_date(since, "--since"), until=_date(until, "--until"), registration=registration):
             table.add_row(str(r.id), r.checked_at[:19], r.registration or "", r.reference or "", r.pilot or "",
                           "within limits" if r.ok else "OUT OF LIMITS", r.fingerprint)
-    _console().print(table)
+    from .caution import PILOT_CAUTION
+    from .render.terminal import caution_text
+
+    console = _console()
+    console.print(table)
+    console.print(caution_text(PILOT_CAUTION))
 
 
 @records_app.command("show")
@@ -973,13 +982,18 @@ def records_verify(record_id: Annotated[int, typer.Argument(help="Record id.")],
     loading = parse_loading(record.inputs, f"record {record_id}")
     again = check_loading(aircraft, resolve_loading(loading, aircraft)).to_dict()
     same = results_match(record.result, again) and aircraft.fingerprint == record.fingerprint
+    from .caution import PILOT_CAUTION
+    from .render.terminal import caution_text
+
     console = _console()
     if same:
         console.print(f"record {record_id}: reproduced; the same result "
                       f"({'within limits' if again['ok'] else 'out of limits'}) from the recorded inputs and aircraft data "
                       f"{record.fingerprint}", markup=False)
+        console.print(caution_text(PILOT_CAUTION))
         raise typer.Exit(EXIT_OK)
     console.print(f"record {record_id}: NOT reproduced; recomputing gives a different result", markup=False)
+    console.print(caution_text(PILOT_CAUTION))
     raise typer.Exit(EXIT_LIMIT)
 
 

@@ -322,3 +322,45 @@ def test_readings_with_units_and_fuel_item():
     assert result.as_weighed.weight == pytest.approx(430.0)
     assert result.as_weighed.arm == pytest.approx(30 * 4200 / 430)
     assert result.corrections[0].weight == pytest.approx(2 * 3.785411784 * aircraft.density(aircraft.tanks["wing"]))
+
+
+def _ac_example_aircraft():
+    """The aircraft of AC 43.13-1B figures 10-10 to 10-14 (oil, 17 lb at -49 in, in the empty weight)."""
+    return parse_aircraft({
+        "name": "AC 43.13-1B chapter 10 example", "units": {"mass": "lb", "arm": "in", "fuel_volume": "usgal"},
+        "empty": {"weight": 1169 + 17, "arm": (1169 * 10.6 - 17 * 49) / (1169 + 17)},
+        "limits": {"max_takeoff_weight": 2100}, "max_continuous_power_hp": 165,
+        "station": [{"id": "front", "arm": 16, "kind": "seat", "seats": 2, "controls": True},
+                    {"id": "rear", "arm": 48, "kind": "seat", "seats": 2},
+                    {"id": "bag", "arm": 75.5, "kind": "baggage", "max_weight": 100}],
+        "tank": [{"id": "main", "arm": 22, "usable": 40, "fuel": "avgas"}],
+        "envelope": [{"category": "normal", "axes": ["arm", "weight"],
+                      "points": [[8.5, 1000], [8.5, 2100], [21.9, 2100], [21.9, 1000]]}],
+    })
+
+
+def test_ac_43_13_1b_figures_10_12_to_10_14_loading_schedule():
+    aircraft = _ac_example_aircraft()
+    full_fuel, all_seats, max_baggage = loading_schedule(aircraft)
+    # figure 10-12: with full fuel, the pilot, two passengers and 100 lb of baggage (2,036 lb).
+    # The AC seats both passengers behind; we seat the second in front: the same count and
+    # baggage, and both loadings are within limits.
+    assert full_fuel.fuel == {"main": 40.0}
+    assert sum(full_fuel.occupants.values()) == 3 and full_fuel.load["bag"] == pytest.approx(100.0)
+    assert full_fuel.check.condition("ramp").weight == pytest.approx(2036.0) and full_fuel.check.ok
+    # figure 10-13: with every seat filled, 39 US gal of fuel and no baggage: 2,100 lb, 38,466 in-lb.
+    # The figure prints the CG as +18.6 in, which does not follow from its own totals:
+    # 38,466 / 2,100 = 18.32 in. We check the totals and their quotient.
+    assert all_seats.occupants == {"front": 2, "rear": 2}
+    assert all_seats.fuel["main"] == pytest.approx(39.0, abs=0.1)
+    assert all_seats.load.get("bag", 0.0) == pytest.approx(0.0, abs=0.1)
+    ramp = all_seats.check.condition("ramp")
+    assert ramp.weight == pytest.approx(2100.0, abs=0.6) and ramp.moment == pytest.approx(38466.0, abs=1.0)
+    assert ramp.arm == pytest.approx(38466.0 / 2100.0, abs=0.01)
+    # figure 10-14: with maximum baggage, full fuel and two passengers, one front and one rear:
+    # 2,036 lb, 37,988 in-lb, CG 18.7 in
+    assert max_baggage.fuel == {"main": 40.0}
+    assert max_baggage.occupants == {"front": 2, "rear": 1}
+    ramp = max_baggage.check.condition("ramp")
+    assert ramp.weight == pytest.approx(2036.0) and ramp.moment == pytest.approx(37988.0, abs=1.0)
+    assert round(ramp.arm, 1) == 18.7
