@@ -25,7 +25,7 @@ def test_samples_load(trainer, tandem, twin):
 def test_defaults_of_limits(trainer, tandem):
     assert tandem.limits.ramp == tandem.limits.max_takeoff_weight == 680
     assert tandem.limits.landing == 680
-    assert trainer.limits.ramp == 2457
+    assert trainer.limits.ramp == 2408
 
 
 def test_quantities_with_units_are_converted():

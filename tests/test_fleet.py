@@ -45,7 +45,7 @@ def test_fleet_list():
     data = json.loads(result.stdout)
     regs = {a["registration"]: a for a in data["aircraft"]}
     assert {"DEMO-4T", "DEMO-2T", "DEMO-6P", "DEMO-H2"} <= set(regs)
-    assert regs["DEMO-4T"]["useful_load"] == pytest.approx(766.0)
+    assert regs["DEMO-4T"]["useful_load"] == pytest.approx(748.0)
     old = runner.invoke(app, ["fleet", "list", str(SAMPLES), "--max-age", "30", "--json"])
     assert any("days old" in p for a in json.loads(old.stdout)["aircraft"] for p in a["problems"])
 
@@ -167,7 +167,7 @@ def test_record_survives_an_edit_and_verify_reproduces_it(tmp_path, records):
     loading = tmp_path / "trainer4" / "within.toml"
     first = runner.invoke(app, ["check", str(aircraft), str(loading), "--record", str(records), "--json"])
     assert first.exit_code == 0, first.output
-    aircraft.write_text(aircraft.read_text().replace("weight = 1684.0", "weight = 1750.0"))
+    aircraft.write_text(aircraft.read_text().replace("weight = 1652.0", "weight = 1750.0"))
     with RecordLog(records) as log:
         (record,) = list(log.find())
     assert record.result["conditions"][0]["weight"] == pytest.approx(json.loads(first.stdout)["conditions"][0]["weight"])

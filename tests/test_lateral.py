@@ -50,8 +50,8 @@ def test_heavy_solo_on_the_left_is_left_of_the_limit():
 def test_lateral_moment_by_hand():
     result = run("heli2/dual.toml")
     ramp = result.condition("ramp")
-    # 920*0.3 + 170*-12.2 + 190*12.2 + 10*-11.0 + 177*-12.0
-    expected = 276.0 - 2074.0 + 2318.0 - 110.0 - 2124.0
+    # 884*0.3 + 170*-12.2 + 190*12.2 + 10*-11.0 + 177*-12.0
+    expected = 884 * 0.3 - 2074.0 + 2318.0 - 110.0 - 2124.0
     assert ramp.lateral_moment == pytest.approx(expected)
     assert ramp.lateral_arm == pytest.approx(expected / ramp.weight)
 

@@ -158,7 +158,7 @@ def test_alteration_arithmetic_and_negligible():
     ]})
     result = alter(aircraft, changes)
     assert result.change_weight == pytest.approx(4.2 - 18.0)
-    assert result.new.moment == pytest.approx(aircraft.empty.moment + 4.2 * 14.8 - 18.0 * 46.0 + 2.4 * (118.0 - 134.0))
+    assert result.new.moment == pytest.approx(aircraft.empty.moment + 4.2 * 14.8 - 18.0 * 48.0 + 2.4 * (118.0 - 140.0))
     assert result.change_useful_load == pytest.approx(18.0 - 4.2)
     assert result.negligible.overall is False
     tiny = alter(aircraft, Changes.model_validate({"change": [{"action": "install", "item": "placard", "weight": 0.05, "arm": 40.0}]}))

@@ -24,7 +24,7 @@ loadings = st.fixed_dictionaries(
         "rear": st.floats(0, 400),
         "bag1": st.floats(0, 130),
         "bag2": st.floats(0, 60),
-        "fuel": st.floats(0, 50),
+        "fuel": st.floats(0, 48),
         "taxi": st.floats(0, 2),
         "trip_share": st.floats(0, 1),
     }
