@@ -109,17 +109,7 @@ def test_empty_weight_cg_range_warning():
 
 def test_ac_43_13_1b_figures_10_10_and_10_11():
     # AC 43.13-1B figures 10-10 and 10-11; oil (17 lb at -49 in) is part of the empty weight here
-    aircraft = parse_aircraft({
-        "name": "AC 43.13-1B figure example", "units": {"mass": "lb", "arm": "in", "fuel_volume": "usgal"},
-        "empty": {"weight": 1169 + 17, "arm": (1169 * 10.6 - 17 * 49) / (1169 + 17)},
-        "limits": {"max_takeoff_weight": 2100}, "max_continuous_power_hp": 165,
-        "station": [{"id": "front", "arm": 16, "kind": "seat", "seats": 2, "controls": True},
-                    {"id": "rear", "arm": 48, "kind": "seat", "seats": 2},
-                    {"id": "bag", "arm": 75.5, "kind": "baggage", "max_weight": 100}],
-        "tank": [{"id": "main", "arm": 22, "usable": 40, "fuel": "avgas"}],
-        "envelope": [{"category": "normal", "axes": ["arm", "weight"],
-                      "points": [[8.5, 1000], [8.5, 2100], [21.9, 2100], [21.9, 1000]]}],
-    })
+    aircraft = _ac_example_aircraft()
     result = extremes(aircraft)
     forward = result.forward.check.condition("ramp")
     # figure 10-10: 1,439 lb, 16,104 in-lb, +11.2 in; the figure rounds the 82.5 lb of fuel to 83 lb
