@@ -997,9 +997,27 @@ def records_verify(record_id: Annotated[int, typer.Argument(help="Record id.")],
     raise typer.Exit(EXIT_LIMIT)
 
 
+def _just(name: str) -> typer.Typer | None:
+    """The application with only the command ``name`` (and the version option), or None.
+
+    typer builds every command of an application each time it starts; building just the
+    one asked for keeps a plain ``loadcheck check`` quick to start (benchmarks/startup.py).
+    """
+    import copy
+
+    small = copy.copy(app)
+    small.registered_commands = [c for c in app.registered_commands
+                                 if (c.name or c.callback.__name__.replace("_", "-")) == name]  # type: ignore[union-attr]
+    small.registered_groups = [g for g in app.registered_groups if g.name == name]
+    return small if small.registered_commands or small.registered_groups else None
+
+
 def main() -> None:
     """Entry point of the console script."""
-    app(prog_name="loadcheck")
+    words = [w for w in sys.argv[1:] if not w.startswith("-")]
+    first = sys.argv[1] if len(sys.argv) > 1 else ""
+    chosen = _just(words[0]) if words and first == words[0] else None
+    (chosen or app)(prog_name="loadcheck")
 
 
 if __name__ == "__main__":  # pragma: no cover

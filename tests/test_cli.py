@@ -215,3 +215,19 @@ def test_python_dash_m_and_no_matplotlib_on_a_plain_check():
 def test_console_script_exit_code_for_a_limit():
     run = subprocess.run(["loadcheck", "check", str(sample("trainer4/over_weight.toml"))], capture_output=True, text=True, check=False)
     assert run.returncode == 1
+
+
+@pytest.mark.parametrize(
+    "args, code, words",
+    [
+        (["check", str(sample("trainer4/within.toml")), "--json"], 0, '"ok": true'),
+        (["plan", "fuel", str(sample("trainer4/within.toml"))], 0, "ramp fuel"),
+        (["--version"], 0, "loadcheck"),
+        (["nope"], 2, "No such command"),
+        ([], 2, "Usage"),
+    ],
+)
+def test_the_console_entry_builds_just_the_command_asked_for(args, code, words):
+    run = subprocess.run([sys.executable, "-m", "loadcheck", *args], capture_output=True, text=True, check=False)
+    assert run.returncode == code, run.stderr
+    assert words in run.stdout + run.stderr
