@@ -441,7 +441,8 @@ def _burn_path_ok(
             cuts.append(t)
     points = np.stack(cuts, axis=1)
     points = np.where(np.isfinite(points), np.clip(points, start[:, None], end[:, None]), end[:, None])
-    points.sort(axis=1)
+    if points.shape[1] > 2:  # two columns (takeoff, landing) are in order already
+        points.sort(axis=1)
     live = points[:, 1:] - points[:, :-1] > 0  # (N, P)
     rows, cols = np.nonzero(live)
     if len(rows) == 0:
@@ -508,5 +509,5 @@ def _burn_path_ok(
             both &= _covers(envelope, *sub)
         inside[hit] = (good | both).all(axis=1)
     result = np.ones(n, dtype=bool)
-    np.logical_and.at(result, rows, inside)
+    result[rows[~inside]] = False  # a loading is out if any of its pieces is
     return result
