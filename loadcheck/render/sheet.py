@@ -36,7 +36,8 @@ td.n { text-align: right; font-variant-numeric: tabular-nums; }
 @page { size: auto; margin: 12mm; }
 @media print {
   body { margin: 0; font-size: 9pt; }
-  .chart { page-break-inside: avoid; }
+  .chart { page-break-inside: avoid; break-inside: avoid; }
+  .chart svg { max-height: 170mm; }
   table { page-break-inside: avoid; }
 }
 """
@@ -145,7 +146,7 @@ def load_sheet_html(
 
     if chart_svg:
         svg = chart_svg[chart_svg.find("<svg"):]
-        parts.append(f"<h2>Envelope</h2><div class='chart'>{svg}</div>")
+        parts.append(f"<div class='chart'><h2>Envelope</h2>{svg}</div>")
 
     parts += [
         f"<p class='caution'>CAUTION: {escape(result.caution)}</p>",
