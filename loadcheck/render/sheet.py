@@ -162,8 +162,10 @@ def load_sheet_html(
 
 def _table(head: list[str], rows: list[list[str]]) -> str:
     out = ["<table><tr>" + "".join(f"<th>{escape(h)}</th>" for h in head) + "</tr>"]
+    numeric = ["(" in h for h in head]  # columns with a unit hold numbers
     for row in rows:
-        out.append("<tr>" + "".join(f"<td{' class=n' if i else ''}>{escape(c)}</td>" for i, c in enumerate(row)) + "</tr>")
+        out.append("<tr>" + "".join(f"<td{' class=n' if numeric[i] else ''}>{escape(c)}</td>" for i, c in enumerate(row))
+                   + "</tr>")
     out.append("</table>")
     return "\n".join(out)
 
