@@ -134,6 +134,11 @@ def apply_overrides(
         if values:
             existing = merged.setdefault(table, {})
             if isinstance(existing, dict):  # a table of the wrong type is left for validation to report
+                if table == "burn" and "trip" in values:  # a trip given here replaces the file's trip time
+                    existing.pop("trip_time", None)
+                    existing.pop("rate", None)
+                if table == "burn" and "trip_time" in values:  # and a trip time replaces its trip
+                    existing.pop("trip", None)
                 existing.update(values)
     if category is not None:
         merged["category"] = category

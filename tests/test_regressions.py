@@ -2,6 +2,9 @@
 
 from __future__ import annotations
 
+import json
+
+import pytest
 from typer.testing import CliRunner
 
 from loadcheck.cli import app
@@ -17,3 +20,13 @@ def test_load_table_given_as_a_list_with_command_line_loads(tmp_path):
     path.write_text("load = []\n")
     result = runner.invoke(app, ["check", str(sample("trainer4/aircraft.toml")), str(path), "--load", "front=100"])
     assert result.exit_code == 2 and "load" in result.output and "internal error" not in result.output
+
+
+def test_trip_time_on_the_command_line_replaces_the_files_trip():
+    # a --trip-time/--rate laid over a loading file with `trip` was refused as "both given"
+    result = runner.invoke(app, ["check", str(sample("trainer4/within.toml")), "--trip-time", "1:00", "--rate", "9", "--json"])
+    assert result.exit_code == 0, result.output
+    landing = json.loads(result.stdout)["conditions"][2]
+    assert landing["fuel"] == pytest.approx(32 - 1.2 - 9)  # tabs, less taxi, less one hour at 9 gal/h
+    back = runner.invoke(app, ["check", str(sample("tandem2/solo.toml")), "--trip", "10", "--json"])
+    assert back.exit_code == 0, back.output
