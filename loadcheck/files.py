@@ -13,6 +13,7 @@ temporary file in the same folder, is flushed to disk, and replaces the old file
 from __future__ import annotations
 
 import os
+import re
 import tempfile
 import tomllib
 from collections.abc import Mapping
@@ -91,49 +92,48 @@ def read_toml(path: str | Path) -> dict[str, Any]:
         raise FileFormatError(f"TOML syntax error: {error}", file=path) from None
 
 
+_TAG = re.compile(r"\[|^(str|float|int|bool)$")  # pydantic's names for union branches and wrapped validators
+_PATH_PREFIX = re.compile(r"^([A-Za-z_][\w.\[\]]*): (.+)$")
+
+
 def _field_path(location: tuple[Any, ...]) -> str:
+    """``("station", 2, "max_weight")`` -> ``station[2].max_weight``."""
     text = ""
     for part in location:
         if isinstance(part, int):
             text += f"[{part}]"
-        elif part in ("function-before[read(), float]",) or str(part).startswith(("function-", "union[", "literal[")):
-            continue
-        else:
+        elif not _TAG.search(str(part)):
             text += f".{part}" if text else str(part)
     return text
 
 
-def problems_from_validation(error: ValidationError, data: Any = None) -> list[Problem]:
-    """Turn a pydantic ValidationError into problems with dotted field paths."""
+def problems_from_validation(error: ValidationError) -> list[Problem]:
+    """Turn a pydantic ValidationError into problems with dotted field paths.
+
+    A union field is reported once, with its first reason. Whole-model checks (a group
+    naming an unknown station) come as lines ``path: message``; each becomes a problem
+    of that path.
+    """
     problems: list[Problem] = []
     seen: set[tuple[str, str]] = set()
     for item in error.errors(include_url=False):
-        location = tuple(item.get("loc", ()))
-        # a union tries several types: report the field once, with the first reason
-        location = tuple(p for p in location if not (isinstance(p, str) and ("[" in p or p in ("str", "float", "int"))))
-        field = _field_path(location)
+        field = _field_path(tuple(item.get("loc", ())))
+        kind = item.get("type")
         message = str(item.get("msg", "invalid value")).removeprefix("Value error, ")
-        if item.get("type") == "missing":
+        if kind == "missing":
             message = "this field is required"
-        elif item.get("type") == "extra_forbidden":
+        elif kind == "extra_forbidden":
             message = "unknown field (misspelt?)"
-        key = (field, message)
-        if key in seen:
+        if (field, message) in seen:
             continue
-        seen.add(key)
-        value = item.get("input") if item.get("type") not in ("missing", "model_type", "dict_type") else None
-        if isinstance(value, (dict, list)):
-            value = None
-        if not field and "\n" in message:
+        seen.add((field, message))
+        if not field:
             for line in message.splitlines():
-                where, _, text = line.partition(": ")
-                problems.append(Problem(where, text) if text else Problem("", line))
+                match = _PATH_PREFIX.match(line)
+                problems.append(Problem(match.group(1), match.group(2)) if match else Problem("", line))
             continue
-        if not field and ": " in message and message.split(": ", 1)[0].replace("_", "").replace(".", "").replace("[", "").replace("]", "").isalnum():
-            where, _, text = message.partition(": ")
-            problems.append(Problem(where, text))
-            continue
-        problems.append(Problem(field, message, value))
+        value = item.get("input") if kind not in ("missing", "model_type", "dict_type") else None
+        problems.append(Problem(field, message, None if isinstance(value, (dict, list)) else value))
     return problems
 
 
@@ -141,7 +141,7 @@ def _validate(model: type[BaseModel], data: Any, file: str | Path | None, contex
     try:
         return model.model_validate(data, context=context)
     except ValidationError as error:
-        raise InputError(problems_from_validation(error, data), file=file) from None
+        raise InputError(problems_from_validation(error), file=file) from None
     except LoadcheckError as error:
         raise error.with_file(file) if file else error from None
 

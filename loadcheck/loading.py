@@ -309,19 +309,19 @@ def resolve_loading(loading: Loading, aircraft: Aircraft, *, category: str | Non
     burn = loading.burn
     mean_density = _mean_density(fuel, density)
 
-    def volume_of(amount: float | str | None, where: str) -> float:
+    def volume_of(amount: float | str | None) -> float:
         if amount is None:
             return 0.0
         return _to_volume(parse_quantity(amount), mean_density, units.mass, units.fuel_volume)
 
-    taxi = volume_of(burn.taxi, "burn.taxi")
+    taxi = volume_of(burn.taxi)
     if burn.trip_time is not None:
-        trip = parse_duration_hours(burn.trip_time) * volume_of(burn.rate, "burn.rate")
+        trip = parse_duration_hours(burn.trip_time) * volume_of(burn.rate)
     else:
-        trip = volume_of(burn.trip, "burn.trip")
+        trip = volume_of(burn.trip)
     if burn.trip is None and burn.trip_time is None:
         notes.append("no trip fuel given; landing is checked at the takeoff fuel")
-    reserve = None if burn.reserve is None else volume_of(burn.reserve, "burn.reserve")
+    reserve = None if burn.reserve is None else volume_of(burn.reserve)
     resolved = ResolvedLoading(chosen, stations, fuel, density, taxi, trip, reserve, plan, notes)
     require_usable(resolved, aircraft)
     return resolved
