@@ -337,7 +337,14 @@ def _evaluate(
     station_findings = _station_findings(aircraft, stations)
     limit_ok["stations"] = np.asarray(~station_findings.any(axis=1))
 
-    path_ok = _burn_path_ok(aircraft, envelopes, fuel, taxi, trip, order_index, rho, tank_lats, pay_w, pay_m, pay_l)
+    # a path with an end outside is out already; only paths with both ends inside need the exact test
+    path_ok = envelope_ok["takeoff"] & envelope_ok["landing"]
+    open_path = np.flatnonzero(path_ok & (trip > 0))
+    if len(open_path):
+        path_ok[open_path] = _burn_path_ok(
+            aircraft, envelopes, fuel[open_path], taxi[open_path], trip[open_path], order_index, rho, tank_lats,
+            pay_w[open_path], pay_m[open_path], pay_l[open_path],
+        )
     path_ok = np.where(trip > 0, path_ok, envelope_ok["takeoff"])
 
     zero_fuel_cg_is_limit = limits.zero_fuel_cg == "limit"
