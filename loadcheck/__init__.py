@@ -17,6 +17,32 @@ from .files import load_aircraft, load_check_inputs, load_loading
 from .loading import Burn, Loading, ResolvedLoading, resolve_loading
 from .results import CheckResult, Condition, Finding
 
+# The other jobs' entry points load on first use (PEP 562), so that a plain check does not
+# pay for building the models it does not use.
+_LAZY = {
+    "alter": "alterations",
+    "evaluate": "batch",
+    "extremes": "extremes",
+    "fuel_payload_table": "planning",
+    "fuel_to_leave": "planning",
+    "least_ballast": "planning",
+    "loading_schedule": "planning",
+    "longest_trip": "planning",
+    "most_fuel": "planning",
+    "most_payload": "planning",
+    "weigh": "weighing",
+    "weight_shift": "planning",
+}
+
+
+def __getattr__(name: str) -> object:
+    if name in _LAZY:
+        import importlib
+
+        return getattr(importlib.import_module(f".{_LAZY[name]}", __name__), name)
+    raise AttributeError(f"module {__name__!r} has no attribute {name!r}")
+
+
 __all__ = [
     "MECHANIC_CAUTION",
     "PILOT_CAUTION",

@@ -231,3 +231,11 @@ def test_the_console_entry_builds_just_the_command_asked_for(args, code, words):
     run = subprocess.run([sys.executable, "-m", "loadcheck", *args], capture_output=True, text=True, check=False)
     assert run.returncode == code, run.stderr
     assert words in run.stdout + run.stderr
+
+
+def test_public_api_exposes_every_job_without_loading_them_at_start():
+    code = ("import sys, loadcheck\nassert 'loadcheck.planning' not in sys.modules\n"
+            "from loadcheck import most_fuel, weigh, alter, extremes, evaluate, loading_schedule\n"
+            "print(most_fuel.__module__)")
+    run = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=False)
+    assert run.returncode == 0 and "loadcheck.planning" in run.stdout, run.stderr
