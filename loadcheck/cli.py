@@ -111,8 +111,8 @@ def _main(
 
 
 # Options shared by `check` and the `plan` commands.
-AircraftArg = Annotated[Path, typer.Argument(help="Aircraft file (TOML), or a loading file that names its aircraft.")]
-LoadingArg = Annotated[Path | None, typer.Argument(help="Loading file (TOML); optional.")]
+AircraftArg = Annotated[Path, typer.Argument(metavar="AIRCRAFT", help="Aircraft file (TOML), or a loading file that names its aircraft.")]
+LoadingArg = Annotated[Path | None, typer.Argument(metavar="LOADING", help="Loading file (TOML); optional.")]
 LoadOpt = Annotated[list[str], typer.Option("--load", "-l", help="STATION=WEIGHT; repeat. e.g. front=340, bag1='20 kg'.")]
 FuelOpt = Annotated[list[str], typer.Option("--fuel", "-f", help="TANK=QUANTITY; repeat. A volume, 'full', a level name or '120 lb'.")]
 TaxiOpt = Annotated[str | None, typer.Option(help="Fuel used before takeoff (volume, or with a unit).")]
