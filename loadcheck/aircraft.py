@@ -28,7 +28,7 @@ from pydantic import (
 )
 
 from .envelope import Axis, EnvelopeShape, polygon_problem
-from .fuel import FuelGrade, default_density
+from .fuel import FuelGrade, default_density, grade_name
 from .units import ArmUnit, MassUnit, VolumeUnit, canonical_unit, convert, parse_quantity, unit_kind
 
 __all__ = [
@@ -226,7 +226,9 @@ class Tank(_Model):
     arm: Arm | None = Field(None, description="distance aft of datum [arm unit]; or give arm_table")
     lateral_arm: Arm | None = Field(None, description="distance right of centreline [arm unit]")
     usable: Volume = Field(gt=0, description="usable capacity [fuel volume unit]")
-    fuel: FuelGrade | None = Field(None, description="fuel grade giving the default density")
+    fuel: Annotated[FuelGrade, BeforeValidator(grade_name)] | None = Field(
+        None, description="fuel grade giving the default density: avgas, mogas or jet (Jet A, Jet A-1, 100LL accepted)"
+    )
     density: float | None = Field(None, gt=0, description="[mass unit per fuel volume unit]")
     levels: dict[str, Volume] = Field(default_factory=dict, description="named fill levels [fuel volume unit]")
     arm_table: list[tuple[Volume, Arm]] | None = Field(

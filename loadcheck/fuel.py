@@ -46,3 +46,24 @@ def default_density(grade: str, mass_unit: str, volume_unit: str) -> float:
     per_usgal = FUEL_DENSITY_LB_PER_USGAL[grade]
     mass = convert(per_usgal, "lb", mass_unit)
     return mass / convert(1.0, "usgal", volume_unit)
+
+
+_SPELLINGS = {
+    "avgas": "avgas", "100ll": "avgas", "avgas 100ll": "avgas", "avgas100ll": "avgas", "100/130": "avgas",
+    "mogas": "mogas",
+    "jet": "jet", "jet-a": "jet", "jet a": "jet", "jet_a": "jet", "jeta": "jet",
+    "jet-a1": "jet", "jet a-1": "jet", "jet a1": "jet", "jet-a-1": "jet", "jet_a1": "jet", "jeta1": "jet",
+}
+
+
+def grade_name(text: object) -> object:
+    """The grade a common spelling stands for (``"Jet A-1"`` -> ``"jet"``); others unchanged.
+
+    Examples
+    --------
+    >>> grade_name("100LL"), grade_name("Jet A-1"), grade_name("diesel")
+    ('avgas', 'jet', 'diesel')
+    """
+    if isinstance(text, str):
+        return _SPELLINGS.get(" ".join(text.strip().lower().split()), text)
+    return text
