@@ -28,6 +28,7 @@ from pydantic import (
 )
 
 from .envelope import Axis, EnvelopeShape, polygon_problem
+from .errors import Problem, UnknownNameError
 from .fuel import FuelGrade, default_density, grade_name
 from .units import ArmUnit, MassUnit, VolumeUnit, canonical_unit, convert, parse_quantity, unit_kind
 
@@ -427,6 +428,20 @@ class Aircraft(_Model):
     def categories(self) -> list[str]:
         """Categories in file order; the first is the default."""
         return list(dict.fromkeys(e.category for e in self.envelope))
+
+    def category(self, name: str | None = None) -> str:
+        """The category asked for, or the default (the file's first).
+
+        Raises
+        ------
+        UnknownNameError
+            For a category no envelope has, listing the known ones (fail closed).
+        """
+        chosen = name or self.categories[0]
+        if chosen not in self.categories:
+            raise UnknownNameError(Problem("category", f"unknown category {chosen!r}",
+                                           expected="one of " + ", ".join(self.categories)))
+        return chosen
 
     def envelopes_for(self, category: str) -> list[Envelope]:
         """All envelopes of one category (every one must hold)."""

@@ -248,10 +248,8 @@ def _evaluate(
     fuel = np.asarray(fuel, dtype=float).reshape(n, len(aircraft.tank))
     taxi = np.broadcast_to(np.asarray(taxi, dtype=float), (n,)).copy()
     trip = np.broadcast_to(np.asarray(trip, dtype=float), (n,)).copy()
-    category = category or aircraft.categories[0]
+    category = aircraft.category(category)
     envelopes = aircraft.envelopes_for(category)
-    if not envelopes:
-        raise ValueError(f"unknown category {category!r}")
     tank_index = {t.id: i for i, t in enumerate(aircraft.tank)}
     order_index = None if order is None else [tank_index[t] for t in order]
     rho = np.array(density if density is not None else [aircraft.density(t) for t in aircraft.tank], dtype=float)

@@ -263,8 +263,7 @@ def show(
     from .render.terminal import render_aircraft
 
     data = load_aircraft(aircraft)
-    if category is not None and category not in data.categories:
-        raise InputError(Problem("--category", f"unknown category {category!r}", expected="one of " + ", ".join(data.categories)))
+    data.category(category)  # fail on an unknown category before printing anything
     render_aircraft(data, _console(), PILOT_CAUTION)
     if chart is not None:
         from .render.chart import envelope_figure, save_figure
@@ -748,8 +747,6 @@ def schedule(
 
     data = load_aircraft(aircraft)
     weight = None if occupant is None else read_amount(occupant, data.units.mass, "--occupant")
-    if category is not None and category not in data.categories:
-        raise InputError(Problem("--category", f"unknown category {category!r}", expected="one of " + ", ".join(data.categories)))
     cases = loading_schedule(data, category=category, occupant_weight=weight)
     if json_out:
         typer.echo(json.dumps({"cases": [c.to_dict() for c in cases], "caution": MECHANIC_CAUTION}, indent=2, default=str))

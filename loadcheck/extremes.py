@@ -27,7 +27,7 @@ from .loading import BurnPlan, ResolvedLoading
 from .results import CheckResult, Result
 from .units import convert
 
-__all__ = ["ExtremeCase", "ExtremesResult", "extremes", "minimum_fuel", "STANDARD_OCCUPANT_LB"]
+__all__ = ["ExtremeCase", "ExtremesResult", "extremes", "minimum_fuel", "standard_occupant", "STANDARD_OCCUPANT_LB"]
 
 STANDARD_OCCUPANT_LB = 170.0
 """Standard occupant weight used by AC 43.13-1B figures 10-10 and 10-11 [lb]."""
@@ -64,6 +64,12 @@ class ExtremesResult(Result):
     def ok(self) -> bool:
         """Both extremes within limits."""
         return self.forward.ok and self.rearward.ok
+
+
+def standard_occupant(aircraft: Aircraft, given: float | None = None) -> float:
+    """The occupant weight to use [mass unit]: given, else the aircraft file's, else 170 lb
+    (the standard occupant of AC 43.13-1B figures 10-10 to 10-14)."""
+    return given or aircraft.standard_occupant_weight or convert(STANDARD_OCCUPANT_LB, "lb", aircraft.units.mass)
 
 
 def minimum_fuel(aircraft: Aircraft, meto_hp: float) -> float:
@@ -157,10 +163,8 @@ def extremes(aircraft: Aircraft, *, category: str | None = None, occupant_weight
     ----------
     AC 43.13-1B chapter 10, paragraph 10-17 and figures 10-10, 10-11; 10-2 p (minimum fuel).
     """
-    chosen = category or aircraft.categories[0]
-    if chosen not in aircraft.categories:
-        raise InputError(Problem("category", f"unknown category {chosen!r}", expected="one of " + ", ".join(aircraft.categories)))
-    occupant = occupant_weight or aircraft.standard_occupant_weight or convert(STANDARD_OCCUPANT_LB, "lb", aircraft.units.mass)
+    chosen = aircraft.category(category)
+    occupant = standard_occupant(aircraft, occupant_weight)
     hp = meto_hp if meto_hp is not None else aircraft.max_continuous_power_hp
     min_fuel = minimum_fuel(aircraft, hp) if hp is not None else None
     forward_limit, rear_limit = _limits(aircraft, chosen)

@@ -243,8 +243,10 @@ def resolve_loading(loading: Loading, aircraft: Aircraft, *, category: str | Non
     unknown: list[Problem] = []
 
     chosen = category or loading.category or aircraft.categories[0]
-    if chosen not in aircraft.categories:
-        unknown.append(Problem("category", f"unknown category {chosen!r}", expected=_known(dict.fromkeys(aircraft.categories))))
+    try:
+        aircraft.category(chosen)
+    except UnknownNameError as error:
+        unknown += error.problems
 
     stations: dict[str, float] = {}
     for name, amount in loading.load.items():

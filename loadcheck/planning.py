@@ -624,11 +624,10 @@ def loading_schedule(aircraft: Aircraft, *, category: str | None = None, occupan
     taxi or trip fuel is burned (the loading at engine start is what is checked, with the
     zero-fuel condition).
     """
-    from .extremes import STANDARD_OCCUPANT_LB
-    from .units import convert
+    from .extremes import standard_occupant
 
-    chosen = category or aircraft.categories[0]
-    occupant = occupant_weight or aircraft.standard_occupant_weight or convert(STANDARD_OCCUPANT_LB, "lb", aircraft.units.mass)
+    chosen = aircraft.category(category)
+    occupant = standard_occupant(aircraft, occupant_weight)
     mass = aircraft.units.mass
     cases = []
 

@@ -174,7 +174,7 @@ def check_figure(aircraft: Aircraft, result: CheckResult, loading_label: str | N
 
 def envelope_figure(aircraft: Aircraft, category: str | None = None) -> Figure:
     """A chart of the aircraft's envelopes alone (the chosen category, others fainter)."""
-    chosen = category or aircraft.categories[0]
+    chosen = aircraft.category(category)
     return _figure(aircraft, chosen, _title(aircraft, f"{chosen} category envelope"), None)
 
 
