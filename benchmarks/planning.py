@@ -15,15 +15,15 @@ from loadcheck import planning as P
 ROOT = Path(__file__).resolve().parent.parent / "sample_aircraft"
 
 QUESTIONS = [
-    ("trainer4/within.toml", "most fuel", lambda a, l: P.most_fuel(a, l)),
-    ("trainer4/within.toml", "longest trip", lambda a, l: P.longest_trip(a, l, rate=9.5, reserve=8)),
-    ("trainer4/within.toml", "most payload bag1", lambda a, l: P.most_payload(a, l, "bag1")),
-    ("trainer4/within.toml", "fuel to leave, rear 220 lb", lambda a, l: P.fuel_to_leave(a, l, "rear", 220.0)),
-    ("twin6/two_stretches.toml", "most fuel (two stretches)", lambda a, l: P.most_fuel(a, l)),
-    ("twin6/within.toml", "most payload nose", lambda a, l: P.most_payload(a, l, "nose")),
-    ("tandem2/aft_heavy.toml", "least ballast", lambda a, l: P.least_ballast(a, l)),
-    ("tandem2/aft_heavy.toml", "weight shift", lambda a, l: P.weight_shift(a, l, "baggage", "front")),
-    ("heli2/solo_heavy_right.toml", "most payload bag_left", lambda a, l: P.most_payload(a, l, "bag_left")),
+    ("trainer4/within.toml", "most fuel", lambda a, ld: P.most_fuel(a, ld)),
+    ("trainer4/within.toml", "longest trip", lambda a, ld: P.longest_trip(a, ld, rate=9.5, reserve=8)),
+    ("trainer4/within.toml", "most payload bag1", lambda a, ld: P.most_payload(a, ld, "bag1")),
+    ("trainer4/within.toml", "fuel to leave, rear 220 lb", lambda a, ld: P.fuel_to_leave(a, ld, "rear", 220.0)),
+    ("twin6/two_stretches.toml", "most fuel (two stretches)", lambda a, ld: P.most_fuel(a, ld)),
+    ("twin6/within.toml", "most payload nose", lambda a, ld: P.most_payload(a, ld, "nose")),
+    ("tandem2/aft_heavy.toml", "least ballast", lambda a, ld: P.least_ballast(a, ld)),
+    ("tandem2/aft_heavy.toml", "weight shift", lambda a, ld: P.weight_shift(a, ld, "baggage", "front")),
+    ("heli2/solo_heavy_right.toml", "most payload bag_left", lambda a, ld: P.most_payload(a, ld, "bag_left")),
 ]
 
 

@@ -184,7 +184,7 @@ def check(
     inputs = _inputs(aircraft, loading, load, fuel, taxi, trip, trip_time, rate, order, reserve, category)
     result = check_loading(inputs.aircraft, inputs.loading)
     if record is not None:
-        _record_single(record, inputs, result, aircraft, loading, load, fuel, taxi, trip, trip_time, rate, order, reserve, category)
+        _record_single(record, inputs, result)
     if chart is not None or sheet is not None:
         _write_pictures(inputs, result, chart, sheet)
     if json_out:
@@ -202,26 +202,18 @@ def check(
     raise typer.Exit(EXIT_OK if result.ok else EXIT_LIMIT)
 
 
-def _record_single(record: str, inputs: Any, result: Any, aircraft: Path, loading: Path | None, *options: Any) -> None:
+def _record_single(record: str, inputs: Any, result: Any) -> None:
     """Record one check: the loading as given (file and options merged) and the full result."""
-    from .files import load_loading
     from .records import RecordLog, default_path
 
-    load, fuel, taxi, trip, trip_time, rate, order, reserve, category = options
-    burn = {k: v for k, v in (("taxi", taxi), ("trip", trip), ("trip_time", trip_time), ("rate", rate), ("reserve", reserve))
-            if v is not None}
-    if order is not None:
-        burn["order"] = "together" if order.strip() == "together" else [t.strip() for t in order.split(",") if t.strip()]
-    source = loading if loading is not None else (aircraft if inputs.loading_file == aircraft else None)
-    given, _ = load_loading(source, load=_assignments(load, "--load"), fuel=_assignments(fuel, "--fuel"), burn=burn,
-                            category=category)
+    given = inputs.given
     path = default_path() if record == "default" else Path(record)
     with RecordLog(path) as log:
         record_id = log.add(
             aircraft_data=inputs.aircraft.model_dump(mode="json"), fingerprint=inputs.aircraft.fingerprint,
             inputs=given.model_dump(mode="json", exclude_none=True), result=result.to_dict(),
             registration=inputs.aircraft.registration, reference=given.reference or given.label, pilot=given.pilot,
-            source=str(source) if source else "command line", version=__version__,
+            source=str(inputs.loading_file or "command line"), version=__version__,
         )
     _console(stderr=True).print(f"recorded as {record_id} in {path}", markup=False)
 
@@ -540,19 +532,6 @@ OccupantOpt = Annotated[str | None, typer.Option(help="Standard occupant weight 
 MetoOpt = Annotated[float | None, typer.Option(help="Maximum-except-takeoff power [hp] for the minimum fuel (default: the file's).")]
 
 
-def _read_aircraft_bytes(path: Path) -> tuple[Any, bytes]:
-    import tomllib as _toml
-
-    from .files import parse_aircraft, read_text
-
-    text = read_text(path)
-    try:
-        data = _toml.loads(text)
-    except _toml.TOMLDecodeError as error:
-        raise InputError(Problem("", f"TOML syntax error: {error}"), file=path) from None
-    return parse_aircraft(data, path), path.read_bytes()
-
-
 def _mechanic_sheet(sheet: Path | None, result: Any, aircraft: Any, source: Path) -> None:
     if sheet is None:
         return
@@ -592,10 +571,10 @@ def weigh(
 
       loadcheck weigh sample_aircraft/trainer4/aircraft.toml sample_aircraft/trainer4/weighing.toml
     """
-    from .files import load_readings, read_toml, write_new_record
+    from .files import load_aircraft_for_update, load_readings, read_toml, write_new_record
     from .weighing import weigh as compute
 
-    data, original = _read_aircraft_bytes(aircraft)
+    data, original = load_aircraft_for_update(aircraft)
     parsed = load_readings(readings, data)
     try:
         result = compute(data, parsed)
@@ -634,9 +613,9 @@ def alter(
       loadcheck alter sample_aircraft/trainer4/aircraft.toml sample_aircraft/trainer4/changes.toml
     """
     from .alterations import alter as compute
-    from .files import load_changes, read_toml, write_new_record
+    from .files import load_aircraft_for_update, load_changes, read_toml, write_new_record
 
-    data, original = _read_aircraft_bytes(aircraft)
+    data, original = load_aircraft_for_update(aircraft)
     parsed = load_changes(changes, data)
     try:
         result = compute(data, parsed)

@@ -32,6 +32,7 @@ __all__ = [
     "CheckInputs",
     "file_kind",
     "load_aircraft",
+    "load_aircraft_for_update",
     "load_check_inputs",
     "load_loading",
     "parse_aircraft",
@@ -159,6 +160,20 @@ def parse_aircraft(data: Mapping[str, Any], file: str | Path | None = None) -> A
     return result
 
 
+def load_aircraft_for_update(path: str | Path) -> tuple[Aircraft, bytes]:
+    """Read an aircraft file for changing it: the model and the exact bytes read.
+
+    The bytes go back to :func:`write_new_record`, which refuses to write if the file no
+    longer holds them.
+    """
+    text = read_text(path)
+    try:
+        data = tomllib.loads(text)
+    except tomllib.TOMLDecodeError as error:
+        raise FileFormatError(f"TOML syntax error: {error}", file=path) from None
+    return parse_aircraft(data, path), text.encode("utf-8")
+
+
 def load_aircraft(path: str | Path) -> Aircraft:
     """Read and validate an aircraft file.
 
@@ -210,6 +225,7 @@ class CheckInputs:
     loading_file: Path | None = None
     notes: list[str] = field(default_factory=list)
     label: str | None = None
+    given: Loading | None = None  # the loading as given (file and options merged), for the record
 
 
 def load_check_inputs(
@@ -254,7 +270,7 @@ def load_check_inputs(
     except LoadcheckError as error:
         raise error.with_file(loading_path if loading_path is not None else "command line") from None
     label = loading.label or (Path(loading_path).stem if loading_path is not None else None)
-    return CheckInputs(aircraft, resolved, Path(loading_path) if loading_path else None, notes, label)
+    return CheckInputs(aircraft, resolved, Path(loading_path) if loading_path else None, notes, label, loading)
 
 
 def validate_file(path: str | Path) -> str:
@@ -399,7 +415,7 @@ def write_new_record(
     import tomlkit
 
     path = Path(path)
-    doc = tomlkit.parse(original.decode("utf-8-sig"))
+    doc = tomlkit.parse(original.decode("utf-8"))
     previous = _plain(dict(doc["empty"].unwrap()))  # type: ignore[union-attr]
     entry = tomlkit.table()
     entry["recorded"] = dt.datetime.now().astimezone().replace(microsecond=0)
@@ -429,6 +445,6 @@ def write_new_record(
         current = path.read_bytes()
     except OSError as error:
         raise FileFormatError(f"cannot read the file again before writing: {error.strerror or error}", file=path) from None
-    if current != original:
+    if current.decode("utf-8-sig", errors="replace").encode("utf-8") != original:
         raise FileFormatError("the file changed since it was read; nothing was written (run the command again)", file=path)
     write_atomic(path, text)
