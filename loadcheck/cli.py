@@ -910,33 +910,22 @@ def records_export(
 
       loadcheck records export --format csv --since 2026-11-01 --out november.csv
     """
-    import csv
-    import io
+    from .caution import PILOT_CAUTION
+    from .records import export_text
+    from .render.terminal import caution_text
 
-    buffer = io.StringIO()
     with _log(db) as log:
-        found = log.find(since=_date(since, "--since"), until=_date(until, "--until"), registration=registration)
-        if format == "jsonl":
-            for r in found:
-                buffer.write(json.dumps({**r.summary(), "inputs": r.inputs, "result": r.result}, separators=(",", ":")) + "\n")
-        else:
-            writer = csv.writer(buffer)
-            head = ["id", "checked_at", "registration", "reference", "pilot", "source", "category", "ok", "fingerprint",
-                    "takeoff_weight", "takeoff_arm", "landing_weight", "landing_arm", "first_finding"]
-            writer.writerow(head)
-            for r in found:
-                conditions = {c["condition"]: c for c in r.result.get("conditions", [])}
-                first = next((f["message"] for f in r.result.get("findings", []) if f["severity"] == "limit"), "")
-                writer.writerow([r.id, r.checked_at, r.registration, r.reference, r.pilot, r.source, r.category, r.ok,
-                                 r.fingerprint, conditions.get("takeoff", {}).get("weight"), conditions.get("takeoff", {}).get("arm"),
-                                 conditions.get("landing", {}).get("weight"), conditions.get("landing", {}).get("arm"), first])
+        text = export_text(log.find(since=_date(since, "--since"), until=_date(until, "--until"),
+                                    registration=registration), format)
     if out is None:
-        typer.echo(buffer.getvalue(), nl=False)
+        typer.echo(text, nl=False)
     else:
         from .files import write_atomic
 
-        write_atomic(out, buffer.getvalue())
+        write_atomic(out, text)
         _console(stderr=True).print(f"written: {out}", markup=False)
+    if format == "csv":  # JSON Lines carry the caution inside each result; CSV rows have no room for it
+        _console(stderr=True).print(caution_text(PILOT_CAUTION))
 
 
 @records_app.command("verify")

@@ -15,20 +15,22 @@ rewritten. Several processes may write at once: SQLite serialises them (each wai
 
 from __future__ import annotations
 
+import csv
 import datetime as dt
+import io
 import json
 import math
 import os
 import sqlite3
 import time
-from collections.abc import Callable, Iterator
+from collections.abc import Callable, Iterable, Iterator
 from dataclasses import dataclass
 from pathlib import Path
 from typing import Any
 
 from .errors import FileFormatError, InputError, Problem
 
-__all__ = ["Record", "RecordLog", "default_path", "results_match"]
+__all__ = ["Record", "RecordLog", "default_path", "export_text", "results_match"]
 
 _SCHEMA = """
 CREATE TABLE IF NOT EXISTS aircraft_data (
@@ -90,7 +92,7 @@ class Record:
     version: str
 
     def summary(self) -> dict[str, Any]:
-        """The record without its inputs and result, for listings and CSV."""
+        """The record without its inputs and result, for listings."""
         return {k: getattr(self, k) for k in ("id", "checked_at", "registration", "reference", "pilot", "source",
                                               "category", "ok", "fingerprint", "version")}
 
@@ -242,6 +244,35 @@ class RecordLog:
                  f"result, version FROM checks{where} ORDER BY id")
         for row in self._db.execute(query, args):
             yield self._row(row)
+
+
+_CSV_HEAD = ["id", "checked_at", "registration", "reference", "pilot", "source", "category", "ok", "fingerprint",
+             "takeoff_weight", "takeoff_arm", "landing_weight", "landing_arm", "first_finding"]
+
+
+def _csv_row(record: Record) -> list[Any]:
+    """One record's key figures: takeoff and landing weight and arm, the first limit finding."""
+    conditions = {c["condition"]: c for c in record.result.get("conditions", [])}
+    takeoff, landing = conditions.get("takeoff", {}), conditions.get("landing", {})
+    first = next((f["message"] for f in record.result.get("findings", []) if f["severity"] == "limit"), "")
+    return [record.id, record.checked_at, record.registration, record.reference, record.pilot, record.source,
+            record.category, record.ok, record.fingerprint, takeoff.get("weight"), takeoff.get("arm"),
+            landing.get("weight"), landing.get("arm"), first]
+
+
+def export_text(records: Iterable[Record], format: str) -> str:
+    """Records as JSON Lines (``jsonl``: everything) or CSV (``csv``: one line of key figures each)."""
+    buffer = io.StringIO()
+    if format == "jsonl":
+        for r in records:
+            buffer.write(json.dumps({**r.summary(), "inputs": r.inputs, "result": r.result}, separators=(",", ":")) + "\n")
+    elif format == "csv":
+        writer = csv.writer(buffer)
+        writer.writerow(_CSV_HEAD)
+        writer.writerows(_csv_row(r) for r in records)
+    else:
+        raise ValueError(f"unknown export format {format!r} (csv or jsonl)")
+    return buffer.getvalue()
 
 
 def results_match(a: Any, b: Any, rel: float = 1e-9) -> bool:

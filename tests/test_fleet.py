@@ -195,6 +195,8 @@ def test_export_and_list(records):
     exported = runner.invoke(app, ["records", "export", "--format", "csv", "--registration", "DEMO-2T"])
     rows = list(csv.DictReader(exported.stdout.splitlines()))
     assert rows and all(r["registration"] == "DEMO-2T" for r in rows)
+    assert all(float(r["takeoff_weight"]) > 0 and float(r["landing_arm"]) > 0 for r in rows)
+    assert "Advisory computation only" in exported.stderr  # CSV rows have no room for the caution
     jsonl = runner.invoke(app, ["records", "export", "--since", "2000-01-01", "--until", "2999-12-31"])
     assert len(_json_lines(jsonl.stdout)) == len(rows) + sum(1 for _ in _json_lines(jsonl.stdout) if _["registration"] != "DEMO-2T")
     none = runner.invoke(app, ["records", "export", "--until", "2000-01-01"])
