@@ -192,13 +192,12 @@ def check(
     else:
         from .render.terminal import render_check
 
-        console = _console()
-        render_check(result, console)
+        lines: list[str] = []
         if plot:
             from .render.textplot import text_plot
 
-            for line in text_plot(inputs.aircraft, result):
-                console.print(line, markup=False, highlight=False)
+            lines = text_plot(inputs.aircraft, result)
+        render_check(result, _console(), lines)
     raise typer.Exit(EXIT_OK if result.ok else EXIT_LIMIT)
 
 
@@ -516,7 +515,11 @@ def plan_table(
         save_figure(fuel_payload_figure(inputs.aircraft, rows, name), chart)
         _console(stderr=True).print(f"chart written: {chart}", markup=False)
     if json_out:
-        typer.echo(json.dumps([r.to_dict() for r in rows], indent=2))
+        from .caution import PILOT_CAUTION
+
+        units = inputs.aircraft.units
+        typer.echo(json.dumps({"station": name, "rows": [r.to_dict() for r in rows],
+                               "units": {"mass": units.mass, "fuel_volume": units.fuel_volume}, "caution": PILOT_CAUTION}, indent=2))
     else:
         from .render.terminal import render_table
 

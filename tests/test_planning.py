@@ -3,6 +3,8 @@ weight-shift example, the two-stretch case and impossible requests."""
 
 from __future__ import annotations
 
+import json
+
 import numpy as np
 import pytest
 from hypothesis import HealthCheck, given, settings
@@ -185,3 +187,8 @@ def test_plan_table_and_chart(tmp_path):
     assert result.exit_code == 0, result.output
     assert "Most ramp fuel" in result.output
     assert 'id="within-limits' in (tmp_path / "t.svg").read_text()
+    as_json = runner.invoke(app, ["plan", "table", str(sample("trainer4/within.toml")), "--station", "rear",
+                                  "--steps", "3", "--json"])
+    table = json.loads(as_json.stdout)
+    assert table["station"] == "rear" and len(table["rows"]) == 3
+    assert table["units"]["mass"] == "lb" and "flight manual" in table["caution"]

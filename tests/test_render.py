@@ -159,6 +159,7 @@ def test_text_plot_marks_every_condition():
     assert "#" in body and "." in body
     out = runner.invoke(app, ["check", str(sample("trainer4/within.toml")), "--plot"])
     assert "R ramp" in out.output
+    assert out.output.index("R ramp") < out.output.index("CAUTION")  # the caution stays last
 
 
 def test_show_lists_everything(tmp_path):

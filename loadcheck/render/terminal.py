@@ -7,6 +7,7 @@ Meaning never rests on colour alone: every verdict is also written in words.
 
 from __future__ import annotations
 
+from collections.abc import Sequence
 from typing import TYPE_CHECKING, Any
 
 from rich.console import Console, Group
@@ -161,8 +162,9 @@ def _findings(result: CheckResult) -> Group | Text:
     return Group(Text("Findings", style="bold"), *lines)
 
 
-def render_check(result: CheckResult, console: Console) -> None:
-    """Print a check: header, moment table, conditions, burn path, findings, verdict, caution."""
+def render_check(result: CheckResult, console: Console, plot: Sequence[str] = ()) -> None:
+    """Print a check: header, moment table, conditions, burn path, findings, verdict, the
+    lines of a text plot if given, and last the caution."""
     info = result.aircraft
     header = info.name + (f" · {info.registration}" if info.registration else "")
     header += f" · {result.category} category · data {info.fingerprint}"
@@ -180,6 +182,8 @@ def render_check(result: CheckResult, console: Console) -> None:
         else Text(f"OUT OF LIMITS: {len(result.limits_exceeded)} limit(s) exceeded.", style=_LIMIT_STYLE)
     )
     console.print(Panel(verdict, expand=False))
+    for line in plot:
+        console.print(line, markup=False, highlight=False)
     console.print(caution_text(result.caution))
 
 
