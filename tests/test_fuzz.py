@@ -52,6 +52,10 @@ values = st.recursive(
 documents = st.dictionaries(st.sampled_from(FIELDS), values, max_size=10)
 
 
+FUZZ = settings(max_examples=EXAMPLES, deadline=None,
+                suppress_health_check=[HealthCheck.too_slow, HealthCheck.data_too_large])
+
+
 def _toml(data: dict) -> str | None:
     try:
         return tomlkit.dumps(data)
@@ -64,7 +68,7 @@ def _assert_clean(result) -> None:
     assert "Traceback" not in result.output and "internal error" not in result.output, result.output
 
 
-@settings(max_examples=EXAMPLES, deadline=None, suppress_health_check=[HealthCheck.too_slow, HealthCheck.data_too_large])
+@FUZZ
 @given(documents)
 def test_random_aircraft_documents(tmp_path_factory, data):
     text = _toml(data)
@@ -76,7 +80,7 @@ def test_random_aircraft_documents(tmp_path_factory, data):
         _assert_clean(runner.invoke(app, args))
 
 
-@settings(max_examples=EXAMPLES, deadline=None, suppress_health_check=[HealthCheck.too_slow, HealthCheck.data_too_large])
+@FUZZ
 @given(documents)
 def test_random_loading_documents(tmp_path_factory, data):
     text = _toml(data)
@@ -101,7 +105,7 @@ def _paths(data, prefix=()):
             yield from _paths(value, (*prefix, index))
 
 
-@settings(max_examples=EXAMPLES, deadline=None, suppress_health_check=[HealthCheck.too_slow, HealthCheck.data_too_large])
+@FUZZ
 @given(st.sampled_from(["trainer4", "tandem2", "twin6", "heli2"]), st.data())
 def test_mutated_sample_aircraft(tmp_path_factory, name, draw):
     data = copy.deepcopy(sample_data(f"{name}/aircraft.toml"))
@@ -144,7 +148,7 @@ headers = st.lists(st.sampled_from(["registration", "reference", "pilot", "front
                                     "category", "ballast", "nowhere", "front [parsec]"]), min_size=1, max_size=8, unique=True)
 
 
-@settings(max_examples=EXAMPLES, deadline=None, suppress_health_check=[HealthCheck.too_slow, HealthCheck.data_too_large])
+@FUZZ
 @given(headers, st.lists(st.lists(cells, min_size=0, max_size=9), max_size=6))
 def test_random_csv_shapes(tmp_path_factory, header, rows):
     import csv
