@@ -468,6 +468,16 @@ class Aircraft(_Model):
         """Maximum takeoff weight less basic empty weight [mass unit]."""
         return self.limits.max_takeoff_weight - self.empty.weight
 
+    def with_empty(self, weight: float, arm: float, lateral_arm: float | None = None) -> Aircraft:
+        """This aircraft with a new empty weight [mass unit] and CG [arm unit] (the lateral
+        arm kept where none is given), validated afresh: nothing derived or cached from the
+        old record (fingerprint, envelope shapes) carries over."""
+        data = self.model_dump()
+        data["empty"] = {**data["empty"], "weight": weight, "arm": arm}
+        if lateral_arm is not None:
+            data["empty"]["lateral_arm"] = lateral_arm
+        return type(self).model_validate(data)
+
     @cached_property
     def fingerprint(self) -> str:
         """SHA-256 of the canonical JSON of the aircraft data (first 16 hex digits)."""

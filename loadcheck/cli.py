@@ -535,6 +535,33 @@ OccupantOpt = Annotated[str | None, typer.Option(help="Standard occupant weight 
 MetoOpt = Annotated[float | None, typer.Option(help="Maximum-except-takeoff power [hp] for the minimum fuel (default: the file's).")]
 
 
+def _new_empty_weight(
+    aircraft: Path, source: Path, read: Callable[[Path, Any], Any], compute: Callable[[Any, Any], Any],
+    render: Callable[[Any, Any, Any], None], reason: str, write: bool, sheet: Path | None, json_out: bool,
+) -> None:
+    """A new empty-weight record from a weighing or equipment changes: read the aircraft
+    (once) and ``source``, compute, print, and with ``write`` keep it in the aircraft file."""
+    from .files import load_aircraft_for_update, read_toml, write_new_record
+
+    data, original = load_aircraft_for_update(aircraft)
+    parsed = read(source, data)
+    try:
+        result = compute(data, parsed)
+    except LoadcheckError as error:
+        raise error.with_file(source) from None
+    _mechanic_sheet(sheet, result, data, source)
+    if json_out:
+        typer.echo(result.to_json())
+    else:
+        render(result, data.units, _console())
+    if write:
+        write_new_record(aircraft, original, weight=result.new.weight, arm=result.new.arm, lateral_arm=result.new.lateral_arm,
+                         date=parsed.date, reason=reason, inputs={"file": str(source), **read_toml(source)},
+                         equipment=getattr(result, "equipment", None))  # only equipment changes alter the list
+        _console(stderr=True).print(f"new empty-weight record written to {aircraft}; the old one is in its history", markup=False)
+    raise typer.Exit(EXIT_OK)
+
+
 def _mechanic_sheet(sheet: Path | None, result: Any, aircraft: Any, source: Path) -> None:
     if sheet is None:
         return
@@ -544,11 +571,8 @@ def _mechanic_sheet(sheet: Path | None, result: Any, aircraft: Any, source: Path
 
     if sheet.suffix.lower() not in (".html", ".htm"):
         raise InputError(Problem("--sheet", "the record is an HTML file", value=str(sheet), expected="a name ending in .html"))
-    after = aircraft.model_copy(update={"empty": aircraft.empty.model_copy(update={
-        "weight": result.new.weight, "arm": result.new.arm,
-        "lateral_arm": result.new.lateral_arm if result.new.lateral_arm is not None else aircraft.empty.lateral_arm})})
     try:
-        checks = extremes(after)
+        checks = extremes(aircraft.with_empty(result.new.weight, result.new.arm, result.new.lateral_arm))
     except LoadcheckError as error:
         _console(stderr=True).print(f"note: the extreme checks were left out of the record: {error}", markup=False)
         checks = None
@@ -574,27 +598,11 @@ def weigh(
 
       loadcheck weigh sample_aircraft/trainer4/aircraft.toml sample_aircraft/trainer4/weighing.toml
     """
-    from .files import load_aircraft_for_update, load_readings, read_toml, write_new_record
+    from .files import load_readings
+    from .render.terminal import render_weighing
     from .weighing import weigh as compute
 
-    data, original = load_aircraft_for_update(aircraft)
-    parsed = load_readings(readings, data)
-    try:
-        result = compute(data, parsed)
-    except LoadcheckError as error:
-        raise error.with_file(readings) from None
-    _mechanic_sheet(sheet, result, data, readings)
-    if json_out:
-        typer.echo(result.to_json())
-    else:
-        from .render.terminal import render_weighing
-
-        render_weighing(result, data.units, _console())
-    if write:
-        write_new_record(aircraft, original, weight=result.new.weight, arm=result.new.arm, lateral_arm=result.new.lateral_arm,
-                         date=parsed.date, reason="weighing", inputs={"file": str(readings), **read_toml(readings)})
-        _console(stderr=True).print(f"new empty-weight record written to {aircraft}; the old one is in its history", markup=False)
-    raise typer.Exit(EXIT_OK)
+    _new_empty_weight(aircraft, readings, load_readings, compute, render_weighing, "weighing", write, sheet, json_out)
 
 
 @app.command()
@@ -616,27 +624,10 @@ def alter(
       loadcheck alter sample_aircraft/trainer4/aircraft.toml sample_aircraft/trainer4/changes.toml
     """
     from .alterations import alter as compute
-    from .files import load_aircraft_for_update, load_changes, read_toml, write_new_record
+    from .files import load_changes
+    from .render.terminal import render_alteration
 
-    data, original = load_aircraft_for_update(aircraft)
-    parsed = load_changes(changes, data)
-    try:
-        result = compute(data, parsed)
-    except LoadcheckError as error:
-        raise error.with_file(changes) from None
-    _mechanic_sheet(sheet, result, data, changes)
-    if json_out:
-        typer.echo(result.to_json())
-    else:
-        from .render.terminal import render_alteration
-
-        render_alteration(result, data.units, _console())
-    if write:
-        write_new_record(aircraft, original, weight=result.new.weight, arm=result.new.arm, lateral_arm=result.new.lateral_arm,
-                         date=parsed.date, reason="alteration", inputs={"file": str(changes), **read_toml(changes)},
-                         equipment=result.equipment)
-        _console(stderr=True).print(f"new empty-weight record written to {aircraft}; the old one is in its history", markup=False)
-    raise typer.Exit(EXIT_OK)
+    _new_empty_weight(aircraft, changes, load_changes, compute, render_alteration, "alteration", write, sheet, json_out)
 
 
 @app.command()
@@ -651,28 +642,22 @@ def history(
 
       loadcheck history sample_aircraft/trainer4/aircraft.toml
     """
-    from rich.table import Table
-
     from .caution import MECHANIC_CAUTION
     from .files import load_aircraft
-    from .render.terminal import caution_text
 
     data = load_aircraft(aircraft)
     units = data.units
-    rows = [(str(h.recorded), h.reason, h.previous.weight, h.previous.arm, str(h.previous.date or "")) for h in data.history]
-    rows.append(("current", "", data.empty.weight, data.empty.arm, str(data.empty.date or "")))
+    rows = [{"replaced": str(h.recorded), "reason": h.reason, "weight": h.previous.weight, "arm": h.previous.arm,
+             "date": str(h.previous.date or "")} for h in data.history]
+    rows.append({"replaced": "current", "reason": "", "weight": data.empty.weight, "arm": data.empty.arm,
+                 "date": str(data.empty.date or "")})
     if json_out:
-        typer.echo(json.dumps({"records": [dict(zip(("replaced", "reason", "weight", "arm", "date"), r)) for r in rows],
-                               "units": {"mass": units.mass, "arm": units.arm}, "caution": MECHANIC_CAUTION}, indent=2))
-        raise typer.Exit(EXIT_OK)
-    table = Table(title=f"Empty-weight records of {data.name}", title_justify="left")
-    for column in ("Replaced", "Why", f"Weight ({units.mass})", f"Arm ({units.arm})", "Record of"):
-        table.add_column(column)
-    for replaced, reason, weight, arm, date in rows:
-        table.add_row(replaced, reason, f"{weight:,.1f}", f"{arm:.2f}", date)
-    console = _console()
-    console.print(table)
-    console.print(caution_text(MECHANIC_CAUTION))
+        typer.echo(json.dumps({"records": rows, "units": {"mass": units.mass, "arm": units.arm},
+                               "caution": MECHANIC_CAUTION}, indent=2))
+    else:
+        from .render.terminal import render_history
+
+        render_history(data, rows, _console(), MECHANIC_CAUTION)
 
 
 @app.command()

@@ -30,3 +30,18 @@ def test_trip_time_on_the_command_line_replaces_the_files_trip():
     assert landing["fuel"] == pytest.approx(32 - 1.2 - 9)  # tabs, less taxi, less one hour at 9 gal/h
     back = runner.invoke(app, ["check", str(sample("tandem2/solo.toml")), "--trip", "10", "--json"])
     assert back.exit_code == 0, back.output
+
+
+def test_a_new_empty_weight_carries_no_cached_fingerprint():
+    # the mechanic's record built the weighed aircraft with model_copy, which copied the
+    # cached fingerprint (and envelope shapes) of the old empty-weight record
+    from loadcheck.extremes import extremes
+    from loadcheck.files import load_aircraft
+
+    before = load_aircraft(sample("trainer4/aircraft.toml"))
+    old = before.fingerprint
+    after = before.with_empty(before.empty.weight + 25.0, before.empty.arm + 0.5)
+    assert after.fingerprint != old
+    assert after.empty.weight == before.empty.weight + 25.0 and after.empty.date == before.empty.date
+    assert before.with_empty(before.empty.weight, before.empty.arm).fingerprint == old
+    assert extremes(after).to_dict() != extremes(before).to_dict()

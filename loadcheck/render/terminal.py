@@ -30,6 +30,7 @@ __all__ = [
     "render_extremes",
     "render_fleet",
     "render_fleet_list",
+    "render_history",
     "render_plan",
     "render_schedule",
     "render_table",
@@ -316,6 +317,18 @@ def _record_table(title: str, rows: list[tuple[str, Any]], units: Any) -> Table:
         table.add_row(name, fmt(record.weight, units.mass, with_unit=False), fmt(record.arm, units.arm, with_unit=False),
                       fmt(record.moment, units.moment, with_unit=False))
     return table
+
+
+def render_history(aircraft: Aircraft, rows: list[dict[str, Any]], console: Console, caution: str) -> None:
+    """Print the empty-weight records, oldest first, then the current one, then the caution."""
+    units = aircraft.units
+    table = Table(title=f"Empty-weight records of {aircraft.name}", title_justify="left")
+    for column in ("Replaced", "Why", f"Weight ({units.mass})", f"Arm ({units.arm})", "Record of"):
+        table.add_column(column)
+    for row in rows:
+        table.add_row(row["replaced"], row["reason"], f"{row['weight']:,.1f}", f"{row['arm']:.2f}", row["date"])
+    console.print(table)
+    console.print(caution_text(caution))
 
 
 def render_weighing(result: Any, units: Any, console: Console) -> None:
