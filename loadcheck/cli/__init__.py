@@ -1,0 +1,48 @@
+"""The ``loadcheck`` command line: one module per user (pilot, mechanic, dispatcher).
+
+Commands parse their arguments, call one library job and render its result; they hold no
+arithmetic and no validation of their own. The library never imports this package.
+"""
+
+from __future__ import annotations
+
+import sys
+
+import typer
+
+from . import dispatcher, mechanic, pilot  # each registers its commands
+from .common import app
+
+__all__ = ["app", "main"]
+
+_USERS = [pilot.__name__, mechanic.__name__, dispatcher.__name__]
+# help lists the pilot's commands first, then the mechanic's, then the dispatcher's
+app.registered_commands.sort(key=lambda c: _USERS.index(c.callback.__module__))  # type: ignore[union-attr]
+app.registered_groups.sort(key=lambda g: ["plan", "fleet", "records"].index(g.name or ""))
+
+
+def _just(name: str) -> typer.Typer | None:
+    """The application with only the command ``name`` (and the version option), or None.
+
+    typer builds every command of an application each time it starts; building just the
+    one asked for keeps a plain ``loadcheck check`` quick to start (benchmarks/startup.py).
+    """
+    import copy
+
+    small = copy.copy(app)
+    small.registered_commands = [c for c in app.registered_commands
+                                 if (c.name or c.callback.__name__.replace("_", "-")) == name]  # type: ignore[union-attr]
+    small.registered_groups = [g for g in app.registered_groups if g.name == name]
+    return small if small.registered_commands or small.registered_groups else None
+
+
+def main() -> None:
+    """Entry point of the console script."""
+    words = [w for w in sys.argv[1:] if not w.startswith("-")]
+    first = sys.argv[1] if len(sys.argv) > 1 else ""
+    chosen = _just(words[0]) if words and first == words[0] else None
+    (chosen or app)(prog_name="loadcheck")
+
+
+if __name__ == "__main__":  # pragma: no cover
+    main()

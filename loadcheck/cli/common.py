@@ -1,0 +1,155 @@
+"""What every command shares: the application, the console, input errors, the loading options.
+
+Exit status (DESIGN.md): 0 within limits, 1 a limit is exceeded, 2 the input could not be
+used. Errors in the input are printed to stderr with the file, the field and the value,
+never as a traceback (set LOADCHECK_DEBUG=1 to see one).
+"""
+
+from __future__ import annotations
+
+import functools
+import os
+from collections.abc import Callable
+from pathlib import Path
+from typing import Annotated, Any, TypeVar
+
+import typer
+from pydantic import ValidationError
+from rich.console import Console
+
+from .. import __version__
+from ..errors import InputError, LoadcheckError, Problem
+
+__all__ = [
+    "EXIT_INPUT", "EXIT_LIMIT", "EXIT_OK", "AircraftArg", "CategoryOpt", "FuelOpt", "JsonOpt", "LoadOpt", "LoadingArg",
+    "OrderOpt", "RateOpt", "ReserveOpt", "TaxiOpt", "TripOpt", "TripTimeOpt", "app", "input_errors",
+]
+
+EXIT_OK, EXIT_LIMIT, EXIT_INPUT = 0, 1, 2
+
+app = typer.Typer(
+    name="loadcheck",
+    help=(
+        "Aircraft weight and balance: check a loading against every limit at ramp, takeoff, "
+        "landing and zero fuel and along the whole fuel burn.\n\n"
+        "Advisory only: the approved flight manual and the current weight-and-balance record "
+        "govern, and the pilot in command decides."
+    ),
+    no_args_is_help=True,
+    add_completion=False,
+    pretty_exceptions_enable=False,
+    rich_markup_mode=None,
+    context_settings={"help_option_names": ["-h", "--help"]},
+)
+
+F = TypeVar("F", bound=Callable[..., Any])
+
+
+def _console(stderr: bool = False) -> Console:
+    console = Console(stderr=stderr, highlight=False)
+    if not console.is_terminal:
+        console = Console(stderr=stderr, highlight=False, width=max(console.width, 160))
+    return console
+
+
+def _fail_input(lines: list[str]) -> None:
+    err = _console(stderr=True)
+    for line in lines:
+        err.print(f"error: {line}", markup=False, soft_wrap=True)
+    raise typer.Exit(EXIT_INPUT)
+
+
+def input_errors(func: F) -> F:
+    """Turn bad input into exit 2 with a plain message, never a traceback."""
+
+    @functools.wraps(func)
+    def wrapper(*args: Any, **kwargs: Any) -> Any:
+        try:
+            return func(*args, **kwargs)
+        except LoadcheckError as error:
+            _fail_input(error.lines())
+        except ValidationError as error:
+            from ..files import problems_from_validation
+
+            _fail_input([p.describe() for p in problems_from_validation(error)])
+        except (typer.Exit, typer.Abort, KeyboardInterrupt):
+            raise
+        except Exception as error:  # a bug must never read as "within limits" (0) or "exceeded" (1)
+            if os.environ.get("LOADCHECK_DEBUG"):
+                raise
+            _fail_input([f"internal error ({type(error).__name__}: {error}); no result was produced. "
+                         "Please report it; LOADCHECK_DEBUG=1 shows the traceback."])
+
+    return wrapper  # type: ignore[return-value]
+
+
+def _assignments(values: list[str], option: str) -> dict[str, str]:
+    """``["front=340", "bag1=20 kg"]`` -> ``{"front": "340", "bag1": "20 kg"}``."""
+    result: dict[str, str] = {}
+    problems = []
+    for value in values:
+        name, sep, amount = value.partition("=")
+        if not sep or not name.strip() or not amount.strip():
+            problems.append(Problem(option, "expected NAME=VALUE", value=value, expected="e.g. front=340 or bag1='20 kg'"))
+            continue
+        result[name.strip()] = amount.strip()
+    if problems:
+        raise InputError(problems)
+    return result
+
+
+def _version(value: bool) -> None:
+    if value:
+        typer.echo(f"loadcheck {__version__}")
+        raise typer.Exit()
+
+
+@app.callback()
+def _main(
+    version: Annotated[bool, typer.Option("--version", callback=_version, is_eager=True, help="Show the version.")] = False,
+) -> None:
+    """Aircraft weight and balance."""
+
+
+# Options shared by `check` and the `plan` commands.
+AircraftArg = Annotated[Path, typer.Argument(metavar="AIRCRAFT", help="Aircraft file (TOML), or a loading file that names its aircraft.")]
+LoadingArg = Annotated[Path | None, typer.Argument(metavar="LOADING", help="Loading file (TOML); optional.")]
+LoadOpt = Annotated[list[str], typer.Option("--load", "-l", help="STATION=WEIGHT; repeat. e.g. front=340, bag1='20 kg'.")]
+FuelOpt = Annotated[list[str], typer.Option("--fuel", "-f", help="TANK=QUANTITY; repeat. A volume, 'full', a level name or '120 lb'.")]
+TaxiOpt = Annotated[str | None, typer.Option(help="Fuel used before takeoff (volume, or with a unit).")]
+TripOpt = Annotated[str | None, typer.Option(help="Fuel used from takeoff to landing.")]
+TripTimeOpt = Annotated[str | None, typer.Option("--trip-time", help="Flight time, e.g. 2:15; with --rate.")]
+RateOpt = Annotated[str | None, typer.Option(help="Fuel used per hour (with --trip-time).")]
+OrderOpt = Annotated[str | None, typer.Option(help="'together', or tank ids in burn order: aux,mains.")]
+ReserveOpt = Annotated[str | None, typer.Option(help="Warn when landing fuel is below this.")]
+CategoryOpt = Annotated[str | None, typer.Option("--category", "-c", help="Envelope category (default: the file's first).")]
+JsonOpt = Annotated[bool, typer.Option("--json", help="Print one JSON object instead of tables.")]
+
+
+def _inputs(
+    aircraft: Path, loading: Path | None, load: list[str], fuel: list[str], taxi: str | None, trip: str | None,
+    trip_time: str | None, rate: str | None, order: str | None, reserve: str | None, category: str | None,
+) -> Any:
+    """Read the files and lay the options over them (loadcheck.files.load_check_inputs)."""
+    from ..files import load_check_inputs
+
+    burn: dict[str, Any] = {}
+    for key, value in (("taxi", taxi), ("trip", trip), ("trip_time", trip_time), ("rate", rate), ("reserve", reserve)):
+        if value is not None:
+            burn[key] = value
+    if order is not None:
+        burn["order"] = "together" if order.strip() == "together" else [t.strip() for t in order.split(",") if t.strip()]
+    inputs = load_check_inputs(
+        aircraft, loading, load=_assignments(load, "--load"), fuel=_assignments(fuel, "--fuel"),
+        burn=burn, category=category,
+    )
+    for note in inputs.notes:
+        _console(stderr=True).print(f"note: {note}", markup=False)
+    return inputs
+
+
+
+def _need(value: Any, option: str) -> Any:
+    if value is None:
+        raise InputError(Problem(option, "this option is required here"))
+    return value

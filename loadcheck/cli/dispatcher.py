@@ -1,0 +1,250 @@
+"""The dispatcher's commands: the fleet and the log of checks."""
+
+from __future__ import annotations
+
+import json
+import os
+import sys
+from pathlib import Path
+from typing import Annotated, Any, Literal
+
+import typer
+
+from .. import __version__
+from ..errors import InputError, Problem
+from .common import (
+    EXIT_INPUT,
+    EXIT_LIMIT,
+    EXIT_OK,
+    JsonOpt,
+    _console,
+    app,
+    input_errors,
+)
+
+# -- the dispatcher's commands ---------------------------------------------------------------
+
+fleet_app = typer.Typer(help="A fleet of aircraft files addressed by registration, and a day of loadings.",
+                        no_args_is_help=True)
+app.add_typer(fleet_app, name="fleet")
+records_app = typer.Typer(help="The record of checks: list, show, export, verify (reproduce).", no_args_is_help=True)
+app.add_typer(records_app, name="records")
+
+DbOpt = Annotated[Path | None, typer.Option("--db", help="Record database (default: $LOADCHECK_RECORDS or the user data folder).")]
+
+
+@fleet_app.command("list")
+@input_errors
+def fleet_list(
+    folder: Annotated[Path, typer.Argument(help="Folder of aircraft files (sub-folders searched too).")],
+    max_age: Annotated[int, typer.Option(min=1, help="Flag empty-weight records older than this many days.")] = 1095,
+    json_out: JsonOpt = False,
+) -> None:
+    """Each aircraft: registration, empty weight, record date, useful load, data fingerprint, problems.
+
+    Exit status: 0 every file usable, 2 a file does not validate or a registration is in two files.
+
+    Example:
+
+      loadcheck fleet list sample_aircraft
+    """
+    from ..caution import PILOT_CAUTION
+    from ..fleet import fleet_listing, load_fleet
+
+    lines = fleet_listing(load_fleet(folder), max_age)
+    if json_out:
+        typer.echo(json.dumps({"aircraft": [line.to_dict() for line in lines], "caution": PILOT_CAUTION}, indent=2))
+    else:
+        from ..render.terminal import render_fleet_list
+
+        render_fleet_list(lines, folder, _console())
+    bad = not all(line.usable for line in lines)
+    raise typer.Exit(EXIT_INPUT if bad else EXIT_OK)
+
+
+@fleet_app.command("check")
+@input_errors
+def fleet_check(
+    folder: Annotated[Path, typer.Argument(help="Folder of aircraft files (the fleet).")],
+    loadings: Annotated[Path, typer.Argument(help="Loadings: a CSV file (one row per flight) or a folder of loading files.")],
+    record: Annotated[Path | None, typer.Option(help="Record database (default: $LOADCHECK_RECORDS or the user data folder).")] = None,
+    no_record: Annotated[bool, typer.Option("--no-record", help="Do not record the checks.")] = False,
+    json_out: Annotated[bool, typer.Option("--json", help="Print JSON Lines: one object per flight.")] = False,
+) -> None:
+    """Check a day of loadings against the fleet; record every check.
+
+    Exit status: 0 every flight within limits, 1 a flight is out of limits, 2 a row could not
+    be used (the other rows are still checked and reported).
+
+    Example:
+
+      loadcheck fleet check sample_aircraft sample_aircraft/fleet_day.csv --no-record
+    """
+    from contextlib import nullcontext
+
+    from rich.progress import Progress
+
+    from ..fleet import check_flights, load_fleet, read_loadings
+    from ..records import RecordLog, default_path
+
+    fleet = load_fleet(folder)
+    rows, file_problems = read_loadings(loadings, fleet)
+    err = _console(stderr=True)
+    for problem in file_problems:
+        err.print(f"error: {problem}", markup=False, soft_wrap=True)
+    log = None if no_record else RecordLog(record or default_path())
+    flights = []
+    show_progress = len(rows) > 200 and err.is_terminal and not json_out
+    with (Progress(console=err, transient=True) if show_progress else nullcontext()) as progress:
+        task = progress.add_task("checking", total=len(rows)) if progress is not None else None  # type: ignore[union-attr]
+        try:
+            for flight in check_flights(fleet, rows, log, __version__, workers=os.cpu_count() or 1):
+                flights.append(flight)
+                if json_out:
+                    sys.stdout.write(json.dumps(flight.to_dict(), separators=(",", ":")) + "\n")
+                if progress is not None and task is not None:
+                    progress.advance(task)
+            sys.stdout.flush()
+        finally:
+            if log is not None:
+                log.close()
+    bad = [f for f in flights if f.result is None]
+    for flight in bad:
+        for problem in flight.problems:
+            err.print(f"error: {problem}", markup=False, soft_wrap=True)
+    if not json_out:
+        from ..render.terminal import render_fleet
+
+        render_fleet(flights, _console())
+    if log is not None:
+        err.print(f"{len(flights) - len(bad)} check(s) recorded in {log.path}", markup=False)
+    if bad or file_problems:
+        raise typer.Exit(EXIT_INPUT)
+    raise typer.Exit(EXIT_OK if all(f.ok for f in flights) else EXIT_LIMIT)
+
+
+def _date(text: str | None, option: str) -> Any:
+    if text is None:
+        return None
+    import datetime as dt
+
+    try:
+        return dt.date.fromisoformat(text)
+    except ValueError:
+        raise InputError(Problem(option, "expected a date", value=text, expected="YYYY-MM-DD")) from None
+
+
+SinceOpt = Annotated[str | None, typer.Option(help="From this date (YYYY-MM-DD, UTC).")]
+UntilOpt = Annotated[str | None, typer.Option(help="To this date, inclusive.")]
+RegOpt = Annotated[str | None, typer.Option("--registration", "-r", help="Only this aircraft.")]
+
+
+def _log(db: Path | None) -> Any:
+    from ..records import RecordLog, default_path
+
+    path = db or default_path()
+    if not path.exists():
+        raise InputError(Problem("--db", f"no record database at {path}"))
+    return RecordLog(path)
+
+
+@records_app.command("list")
+@input_errors
+def records_list(db: DbOpt = None, since: SinceOpt = None, until: UntilOpt = None, registration: RegOpt = None) -> None:
+    """List recorded checks.
+
+    Example:
+
+      loadcheck records list --registration DEMO-4T --since 2026-11-01
+    """
+    from rich.table import Table
+
+    with _log(db) as log:
+        table = Table(title=f"Records in {log.path}", title_justify="left")
+        for column in ("Id", "Checked (UTC)", "Registration", "Reference", "Pilot", "Result", "Data"):
+            table.add_column(column)
+        for r in log.find(since=_date(since, "--since"), until=_date(until, "--until"), registration=registration):
+            table.add_row(str(r.id), r.checked_at[:19], r.registration or "", r.reference or "", r.pilot or "",
+                          "within limits" if r.ok else "OUT OF LIMITS", r.fingerprint)
+    from ..caution import PILOT_CAUTION
+    from ..render.terminal import caution_text
+
+    console = _console()
+    console.print(table)
+    console.print(caution_text(PILOT_CAUTION))
+
+
+@records_app.command("show")
+@input_errors
+def records_show(record_id: Annotated[int, typer.Argument(help="Record id.")], db: DbOpt = None) -> None:
+    """Show one record: its inputs and its full result (JSON)."""
+    with _log(db) as log:
+        record = log.get(record_id)
+    typer.echo(json.dumps({**record.summary(), "inputs": record.inputs, "result": record.result}, indent=2))
+
+
+@records_app.command("export")
+@input_errors
+def records_export(
+    db: DbOpt = None, since: SinceOpt = None, until: UntilOpt = None, registration: RegOpt = None,
+    format: Annotated[Literal["csv", "jsonl"], typer.Option(help="csv (one line per record) or jsonl (everything).")] = "jsonl",
+    out: Annotated[Path | None, typer.Option(help="Write to this file (default: standard output).")] = None,
+) -> None:
+    """Export records between dates or for one registration, as CSV or JSON Lines.
+
+    Example:
+
+      loadcheck records export --format csv --since 2026-11-01 --out november.csv
+    """
+    from ..caution import PILOT_CAUTION
+    from ..records import export_text
+    from ..render.terminal import caution_text
+
+    with _log(db) as log:
+        text = export_text(log.find(since=_date(since, "--since"), until=_date(until, "--until"),
+                                    registration=registration), format)
+    if out is None:
+        typer.echo(text, nl=False)
+    else:
+        from ..files import write_atomic
+
+        write_atomic(out, text)
+        _console(stderr=True).print(f"written: {out}", markup=False)
+    if format == "csv":  # JSON Lines carry the caution inside each result; CSV rows have no room for it
+        _console(stderr=True).print(caution_text(PILOT_CAUTION))
+
+
+@records_app.command("verify")
+@input_errors
+def records_verify(record_id: Annotated[int, typer.Argument(help="Record id.")], db: DbOpt = None) -> None:
+    """Recompute a recorded check from its stored inputs and aircraft data; say whether it matches.
+
+    Exit status: 0 the same result, 1 a different one, 2 bad input.
+    """
+    from ..check import check_loading
+    from ..files import parse_aircraft, parse_loading
+    from ..loading import resolve_loading
+    from ..records import results_match
+
+    with _log(db) as log:
+        record = log.get(record_id)
+        data = log.aircraft_data(record.fingerprint)
+    aircraft = parse_aircraft(data, f"record {record_id}")
+    loading = parse_loading(record.inputs, f"record {record_id}")
+    again = check_loading(aircraft, resolve_loading(loading, aircraft)).to_dict()
+    same = results_match(record.result, again) and aircraft.fingerprint == record.fingerprint
+    from ..caution import PILOT_CAUTION
+    from ..render.terminal import caution_text
+
+    console = _console()
+    if same:
+        console.print(f"record {record_id}: reproduced; the same result "
+                      f"({'within limits' if again['ok'] else 'out of limits'}) from the recorded inputs and aircraft data "
+                      f"{record.fingerprint}", markup=False)
+        console.print(caution_text(PILOT_CAUTION))
+        raise typer.Exit(EXIT_OK)
+    console.print(f"record {record_id}: NOT reproduced; recomputing gives a different result", markup=False)
+    console.print(caution_text(PILOT_CAUTION))
+    raise typer.Exit(EXIT_LIMIT)
+
+
