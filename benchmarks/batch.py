@@ -22,7 +22,7 @@ import numpy as np
 import shapely
 
 from loadcheck import check_loading, load_aircraft
-from loadcheck.batch import evaluate
+from loadcheck.engine import evaluate
 from loadcheck.loading import Loading
 
 ROOT = Path(__file__).resolve().parent.parent

@@ -21,7 +21,7 @@ from .results import CheckResult, Condition, Finding
 # pay for building the models it does not use.
 _LAZY = {
     "alter": "alterations",
-    "evaluate": "batch",
+    "evaluate": "engine",
     "extremes": "extremes",
     "fuel_payload_table": "planning",
     "fuel_to_leave": "planning",

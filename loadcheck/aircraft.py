@@ -15,6 +15,7 @@ import json
 from functools import cached_property
 from typing import Annotated, Any, Literal
 
+import numpy as np
 from pydantic import (
     BaseModel,
     BeforeValidator,
@@ -271,21 +272,16 @@ class Tank(_Model):
                 raise ValueError(f"arm_table quantities must lie within 0 and the usable capacity ({self.usable})")
         return self
 
-    def arm_at(self, quantity: float) -> float:
-        """Arm of the fuel in this tank at a quantity [arm unit].
+    def arm_at(self, quantity: Any) -> Any:
+        """Arm of the fuel in this tank at a quantity, or at an array of them [arm unit].
 
         Linear interpolation in ``arm_table``; beyond the table's ends the end arm holds.
         """
         if self.arm_table is None:
             assert self.arm is not None
-            return self.arm
+            return self.arm if np.ndim(quantity) == 0 else np.full(np.shape(quantity), self.arm)
         table = self.arm_table
-        if quantity <= table[0][0]:
-            return table[0][1]
-        for (q0, a0), (q1, a1) in zip(table, table[1:]):
-            if quantity <= q1:
-                return a0 + (a1 - a0) * (quantity - q0) / (q1 - q0)
-        return table[-1][1]
+        return np.interp(quantity, [q for q, _ in table], [a for _, a in table])  # type: ignore[no-any-return]
 
     def arm_knots(self) -> list[float]:
         """Quantities at which the arm's slope may change [fuel volume unit]."""

@@ -16,11 +16,13 @@ from __future__ import annotations
 
 from collections.abc import Sequence
 
-from .aircraft import Aircraft
-from .balance import CONDITIONS, MassState, burn_pieces, condition_states, fuel_state, moment_items, payload_state
+import numpy as np
+
+from .aircraft import Aircraft, Envelope
+from .balance import moment_items
 from .caution import PILOT_CAUTION
-from .display import fmt
-from .envelope import EnvelopeShape, Vary, path_excursions
+from .engine import CONDITIONS, WEIGHT_TOLERANCE, Evaluation, envelope_state, evaluate, load_limits, loading_arrays, path_states, weight_limits
+from .envelope import EnvelopeShape, Vary
 from .loading import Loading, ResolvedLoading, require_usable, resolve_loading
 from .results import (
     AircraftInfo,
@@ -30,26 +32,37 @@ from .results import (
     ConditionName,
     Excursion,
     Finding,
-    Item,
     LeavePoint,
     Margins,
     PathSample,
     Severity,
     UnitsInfo,
 )
+from .words import (
+    ZERO_FUEL_WARNING,
+    burn_path_message,
+    envelope_gap_message,
+    envelope_point_message,
+    envelope_side_message,
+    envelope_weight_message,
+    load_limit_message,
+    reserve_message,
+    weight_limit_message,
+)
 
 __all__ = ["WEIGHT_TOLERANCE", "check_loading"]
 
-WEIGHT_TOLERANCE = 1e-9
-"""A weight equal to its limit within this fraction of the limit is within the limit."""
-
-_WORDS = {"ramp": "ramp", "takeoff": "takeoff", "landing": "landing", "zero_fuel": "zero fuel"}
+_SAMPLES = 40  # evenly spaced points along the burn path for drawing it, besides where it leaves
 
 
 def check_loading(
     aircraft: Aircraft, loading: Loading | ResolvedLoading, *, category: str | None = None, samples: bool = True
 ) -> CheckResult:
     """Check a loading against every limit of the aircraft.
+
+    The verdicts are the engine's (:func:`loadcheck.engine.evaluate` on this one loading);
+    this function adds the explanation: the moment table, margins to each limit, every
+    finding in words, and where the burn path leaves the envelope.
 
     Parameters
     ----------
@@ -81,45 +94,29 @@ def check_loading(
     else:
         resolved = resolve_loading(loading, aircraft, category=category)
     units = aircraft.units
-    shapes = [e.shape for e in aircraft.envelopes_for(resolved.category)]
+    rows = loading_arrays(aircraft, resolved)
+    found = evaluate(aircraft, rows.stations[None, :], rows.fuel[None, :], np.array([rows.taxi]), np.array([rows.trip]),
+                     order=rows.order, category=resolved.category, density=rows.density, explain=True)
+    envelopes = aircraft.envelopes_for(resolved.category)
     findings: list[Finding] = []
-    states = condition_states(aircraft, resolved)
-
-    conditions = [
-        _condition(aircraft, resolved, shapes, name, *states[name], findings)  # type: ignore[arg-type]
-        for name in CONDITIONS
-    ]
-    burn_path = _burn_path(aircraft, resolved, shapes, conditions, findings, samples)
-    findings.extend(_station_findings(aircraft, resolved))
+    conditions = [_condition(aircraft, found, envelopes, name, findings) for name in CONDITIONS]  # type: ignore[arg-type]
+    burn_path = _burn_path(aircraft, resolved, found, conditions, findings, samples)
+    findings.extend(_load_findings(aircraft, resolved, found))
 
     landing_fuel = conditions[2].fuel
     if resolved.reserve is not None and landing_fuel < resolved.reserve * (1 - WEIGHT_TOLERANCE):
         findings.append(
             Finding(
-                code="reserve",
-                severity="warning",
-                condition="landing",
-                message=(
-                    f"landing fuel {fmt(landing_fuel, units.fuel_volume)} is below the reserve of "
-                    f"{fmt(resolved.reserve, units.fuel_volume)} by "
-                    f"{fmt(resolved.reserve - landing_fuel, units.fuel_volume, 'up')}"
-                ),
-                excess=resolved.reserve - landing_fuel,
-                unit=units.fuel_volume,
-                limit=resolved.reserve,
+                code="reserve", severity="warning", condition="landing",
+                message=reserve_message(landing_fuel, resolved.reserve, units.fuel_volume),
+                excess=resolved.reserve - landing_fuel, unit=units.fuel_volume, limit=resolved.reserve,
             )
         )
     findings.extend(Finding(code="assumption", severity="warning", message=note) for note in resolved.notes)
-
-    items = [
-        Item(
-            id=i.id, name=i.name, kind=i.kind, weight=i.weight, arm=i.arm, moment=i.moment,
-            lateral_arm=i.lateral_arm, lateral_moment=i.lateral_moment, fuel_volume=i.fuel_volume,
-        )
-        for i in moment_items(aircraft, resolved)
-    ]
+    ok = not any(f.severity == "limit" for f in findings)
+    assert ok == bool(found.ok[0]), "the explanation must carry the engine's verdict"
     return CheckResult(
-        ok=not any(f.severity == "limit" for f in findings),
+        ok=ok,
         category=resolved.category,
         aircraft=AircraftInfo(
             name=aircraft.name,
@@ -127,7 +124,7 @@ def check_loading(
             fingerprint=aircraft.fingerprint,
             empty_weight_date=aircraft.empty.date.isoformat() if aircraft.empty.date else None,
         ),
-        items=items,
+        items=moment_items(aircraft, resolved),
         conditions=conditions,
         burn_path=burn_path,
         findings=findings,
@@ -139,95 +136,58 @@ def check_loading(
 # -- conditions -----------------------------------------------------------------------
 
 
-def _weight_limits(aircraft: Aircraft, name: str) -> list[tuple[str, float, str]]:
-    limits = aircraft.limits
-    table: dict[str, list[tuple[str, float | None, str]]] = {
-        "ramp": [("max_ramp_weight", limits.ramp, "maximum ramp weight")],
-        "takeoff": [("max_takeoff_weight", limits.max_takeoff_weight, "maximum takeoff weight")],
-        "landing": [("max_landing_weight", limits.landing, "maximum landing weight")],
-        "zero_fuel": [("max_zero_fuel_weight", limits.max_zero_fuel_weight, "maximum zero-fuel weight")],
-    }
-    return [(code, value, words) for code, value, words in table[name] if value is not None]
-
-
-def _envelope_state(shape: EnvelopeShape, name: str, state: MassState) -> MassState:
-    """The state tested against an envelope: at ramp, weight is held to the envelope's top.
-
-    The envelope is a flight envelope; before taxi the aircraft may be heavier than its
-    top by the taxi fuel. Its ramp weight is held to the maximum ramp weight and its CG
-    to the envelope's limits at the envelope's highest weight (common practice).
-    """
-    top = shape.max_weight
-    if name != "ramp" or top is None or state.weight <= top:
-        return state
-    return MassState(top, state.arm * top, state.lateral_arm * top)
-
-
 def _condition(
     aircraft: Aircraft,
-    resolved: ResolvedLoading,
-    shapes: Sequence[EnvelopeShape],
+    found: Evaluation,
+    envelopes: Sequence[Envelope],
     name: ConditionName,
-    state: MassState,
-    quantities: dict[str, float],
     findings: list[Finding],
 ) -> Condition:
     units = aircraft.units
-    where = _WORDS[name]
-    ok = True
-    weight_limits = _weight_limits(aircraft, name)
-    for code, limit, words in weight_limits:
-        if state.weight > limit * (1 + WEIGHT_TOLERANCE):
-            ok = False
-            excess = state.weight - limit
+    weight, moment, lateral = float(found.weight[name][0]), float(found.moment[name][0]), float(found.lateral_moment[name][0])
+    table = weight_limits(aircraft)[name]
+    for (code, limit), good in zip(table, found.weight_ok[name], strict=True):
+        if not good[0]:
             findings.append(
                 Finding(
                     code=code, severity="limit", condition=name,
-                    message=(
-                        f"{where} weight {fmt(state.weight, units.mass)} exceeds the {words} "
-                        f"{fmt(limit, units.mass)} by {fmt(excess, units.mass, 'up')}"
-                    ),
-                    excess=excess, unit=units.mass, limit=limit, side="above",
+                    message=weight_limit_message(name, weight, code, limit, units.mass),
+                    excess=weight - limit, unit=units.mass, limit=limit, side="above",
                 )
             )
-    minimum = aircraft.limits.min_flight_weight
-    if name in ("takeoff", "landing") and minimum is not None and state.weight < minimum * (1 - WEIGHT_TOLERANCE):
-        ok = False
+    if not found.min_weight_ok[name][0]:
+        minimum = aircraft.limits.min_flight_weight
+        assert minimum is not None
         findings.append(
             Finding(
                 code="min_flight_weight", severity="limit", condition=name,
-                message=(
-                    f"{where} weight {fmt(state.weight, units.mass)} is below the minimum flight weight "
-                    f"{fmt(minimum, units.mass)} by {fmt(minimum - state.weight, units.mass, 'up')}"
-                ),
-                excess=minimum - state.weight, unit=units.mass, limit=minimum, side="below",
+                message=weight_limit_message(name, weight, "min_flight_weight", minimum, units.mass),
+                excess=minimum - weight, unit=units.mass, limit=minimum, side="below",
             )
         )
     severity: Severity = "warning" if name == "zero_fuel" and aircraft.limits.zero_fuel_cg == "warning" else "limit"
-    for envelope, shape in zip(aircraft.envelopes_for(resolved.category), shapes):
-        tested = _envelope_state(shape, name, state)
-        if not shape.covers(tested.weight, tested.moment, tested.lateral_moment):
-            ok = False
-            label = f"the {envelope.label or resolved.category + '-category'} envelope"
+    for envelope, inside in zip(envelopes, found.envelope_inside[name], strict=True):
+        if not inside[0]:
+            tested = envelope_state(envelope.shape, name, weight, moment, lateral)
+            label = f"the {envelope.label or envelope.category + '-category'} envelope"
             label = label.replace("envelope envelope", "envelope")
-            findings.append(_outside_finding(aircraft, shape, label, name, tested, severity))
+            findings.append(_outside_finding(aircraft, envelope.shape, label, name, *tested, severity))
 
-    fuel_mass = sum(q * resolved.density[t] for t, q in quantities.items())
     has_lateral = aircraft.has_lateral
-    weight_limit = min((value for _, value, _ in weight_limits), default=None)
+    weight_limit = min((value for _, value in table), default=None)
     return Condition(
         condition=name,
-        weight=state.weight,
-        arm=state.arm,
-        moment=state.moment,
-        lateral_arm=state.lateral_arm if has_lateral else None,
-        lateral_moment=state.lateral_moment if has_lateral else None,
-        mac_percent=aircraft.mac.percent(state.arm) if aircraft.mac else None,
-        fuel=sum(quantities.values()),
-        fuel_weight=fuel_mass,
+        weight=weight,
+        arm=moment / weight,
+        moment=moment,
+        lateral_arm=lateral / weight if has_lateral else None,
+        lateral_moment=lateral if has_lateral else None,
+        mac_percent=aircraft.mac.percent(moment / weight) if aircraft.mac else None,
+        fuel=float(found.fuel[name][0].sum()),
+        fuel_weight=float(found.fuel_weight[name][0]),
         max_weight=weight_limit,
-        ok=ok,
-        margins=_margins(shapes, name, state, weight_limit),
+        ok=bool(found.condition_ok[name][0]),
+        margins=_margins([e.shape for e in envelopes], name, weight, moment, lateral, weight_limit),
     )
 
 
@@ -236,33 +196,35 @@ def _pick(intervals: list[tuple[float, float]], value: float) -> tuple[float, fl
     return min(intervals, key=lambda iv: max(iv[0] - value, value - iv[1], 0.0))
 
 
-def _margins(shapes: Sequence[EnvelopeShape], name: str, state: MassState, weight_limit: float | None) -> Margins:
+def _margins(
+    shapes: Sequence[EnvelopeShape], name: str, weight: float, moment: float, lateral: float, weight_limit: float | None
+) -> Margins:
     values: dict[str, float] = {}
 
     def keep(key: str, value: float) -> None:
         values[key] = min(values.get(key, value), value)
 
     if weight_limit is not None:
-        keep("weight", weight_limit - state.weight)
+        keep("weight", weight_limit - weight)
     for shape in shapes:
-        tested = _envelope_state(shape, name, state)
-        weight, arm, lateral = tested.weight, tested.arm, tested.lateral_arm
+        w, m, lat = envelope_state(shape, name, weight, moment, lateral)
+        arm, lateral_arm = m / w, lat / w
         if shape.is_lateral:
-            across = shape.slice(weight, arm, lateral, "lateral")
+            across = shape.slice(w, arm, lateral_arm, "lateral")
             if across:
-                lo, hi = _pick(across, lateral)
-                keep("left", lateral - lo)
-                keep("right", hi - lateral)
+                lo, hi = _pick(across, lateral_arm)
+                keep("left", lateral_arm - lo)
+                keep("right", hi - lateral_arm)
         else:
-            along = shape.slice(weight, arm, lateral, "arm")
+            along = shape.slice(w, arm, lateral_arm, "arm")
             if along:
                 lo, hi = _pick(along, arm)
                 keep("forward", arm - lo)
                 keep("aft", hi - arm)
         if name != "ramp" and not shape.is_lateral:
-            heights = shape.slice(weight, arm, lateral, "weight")
+            heights = shape.slice(w, arm, lateral_arm, "weight")
             if heights:
-                keep("weight", _pick(heights, weight)[1] - weight)
+                keep("weight", _pick(heights, w)[1] - w)
     return Margins(**values)
 
 
@@ -271,7 +233,9 @@ def _outside_finding(
     shape: EnvelopeShape,
     label: str,
     name: ConditionName,
-    state: MassState,
+    weight: float,
+    moment: float,
+    lateral_moment: float,
     severity: Severity,
 ) -> Finding:
     """Say in plain words where a point outside an envelope lies, and by how much.
@@ -281,9 +245,8 @@ def _outside_finding(
     above or below it, with the CG compared at the envelope's top or bottom as well.
     """
     units = aircraft.units
-    where = _WORDS[name]
-    weight, arm, lateral = state.weight, state.arm, state.lateral_arm
-    cg, value = ("lateral CG", lateral) if shape.is_lateral else ("CG", arm)
+    arm, lateral = moment / weight, lateral_moment / weight
+    value = lateral if shape.is_lateral else arm
     sides = ("left", "right") if shape.is_lateral else ("forward", "aft")
     vary: Vary = "lateral" if shape.is_lateral else "arm"
 
@@ -307,41 +270,26 @@ def _outside_finding(
     excess: float | None = None
     limit: float | None = None
     unit: str | None = None
-    text = ""
     if band is not None and not band[0] <= weight <= band[1]:
         edge = band[1] if weight > band[1] else band[0]
         side = "above" if weight > band[1] else "below"
         excess, limit, unit = abs(weight - edge), edge, units.mass
-        text = (
-            f"{where} weight {fmt(weight, units.mass)} is {side} {label}, whose "
-            f"{'highest' if side == 'above' else 'lowest'} weight is {fmt(edge, units.mass)}, "
-            f"by {fmt(excess, units.mass, 'up')}"
-        )
         there = across(edge)
-        if there is not None:
-            text += (
-                f"; its {cg} {fmt(value, units.arm)} is also {there[0]} of the limit there "
-                f"({fmt(there[2], units.arm)}) by {fmt(there[1], units.arm, 'up')}"
-            )
+        text = envelope_weight_message(name, label, weight, edge, units.mass,
+                                       None if there is None else (there[0], value, there[2], units.arm))
     else:
         found = across(weight)
         if found is not None:
             side, excess, limit = found
             unit = units.arm
             if side == "outside":
-                text = (
-                    f"{where} {cg} {fmt(value, units.arm)} falls in a gap of {label} at {fmt(weight, units.mass)}, "
-                    f"{fmt(excess, units.arm, 'up')} from the nearest limit ({fmt(limit, units.arm)})"
-                )
+                text = envelope_gap_message(name, label, shape.is_lateral, value, limit, weight, units.arm, units.mass)
             else:
-                text = (
-                    f"{where} {cg} {fmt(value, units.arm)} is {side} of the {side} limit of {label} "
-                    f"({fmt(limit, units.arm)} at {fmt(weight, units.mass)}) by {fmt(excess, units.arm, 'up')}"
-                )
+                text = envelope_side_message(name, label, shape.is_lateral, side, value, limit, weight, units.arm, units.mass)
         else:
-            text = f"{where} point ({fmt(weight, units.mass)}, {cg} {fmt(value, units.arm)}) is outside {label}"
+            text = envelope_point_message(name, label, shape.is_lateral, weight, value, units.arm, units.mass)
     if severity == "warning":
-        text += " (a warning: the zero-fuel CG is not a limit for this aircraft)"
+        text += ZERO_FUEL_WARNING
     return Finding(
         code="envelope", severity=severity, condition=name, message=text,
         excess=excess, unit=unit, limit=limit, side=side, subject=label,
@@ -354,73 +302,70 @@ def _outside_finding(
 def _burn_path(
     aircraft: Aircraft,
     resolved: ResolvedLoading,
-    shapes: Sequence[EnvelopeShape],
+    found: Evaluation,
     conditions: Sequence[Condition],
     findings: list[Finding],
     with_samples: bool = True,
 ) -> BurnPath:
     start, end = resolved.taxi, resolved.taxi + resolved.trip
     takeoff = conditions[1]
-    takeoff_in = not any(f.code == "envelope" and f.condition == "takeoff" for f in findings)
-    landing_in = not any(f.code == "envelope" and f.condition == "landing" for f in findings)
+    takeoff_in = bool(found.envelope_ok["takeoff"][0])
+    landing_in = bool(found.envelope_ok["landing"][0])
+    ok = bool(found.burn_path_ok[0])
     units = aircraft.units
-    payload = payload_state(aircraft, resolved)
     lateral = aircraft.has_lateral
+    assert found.path_outside is not None
+    stretches = found.path_outside[0]
+    rows = loading_arrays(aircraft, resolved)
 
-    def state_at(burned: float) -> tuple[MassState, dict[str, float]]:
-        quantities = resolved.plan.quantities(burned)
-        return payload + fuel_state(aircraft, resolved.density, quantities), quantities
-
-    pieces = burn_pieces(aircraft, resolved, start, end) if end > start else []
-    stretches = path_excursions(shapes, pieces)
-    marks = {start + (end - start) * k / 40 for k in range(41)} if with_samples else set()
-    marks.update(b for stretch in stretches for b in stretch)
-    samples = []
-    for burned in sorted(marks) if with_samples else []:
-        piece = next((p for p in pieces if p.start <= burned <= p.end), None)
-        w, m, lat = piece.at(burned) if piece is not None else (takeoff.weight, takeoff.moment, takeoff.lateral_moment or 0.0)
-        samples.append(
-            PathSample(fuel_burned=takeoff.weight - w, weight=w, arm=m / w, lateral_arm=lat / w if lateral else None)
+    marks = [start + (end - start) * k / _SAMPLES for k in range(_SAMPLES + 1)] if with_samples and end > start else []
+    ends = [b for stretch in stretches for b in stretch]
+    middle = [0.5 * (stretches[0][0] + stretches[0][1])] if stretches else []
+    points = sorted(set(marks + ends)) + middle
+    if points:
+        weights, moments, laterals, quantities = path_states(
+            aircraft, rows.stations, rows.fuel, np.array(points), order=rows.order, density=rows.density
         )
+    state = {b: (float(weights[i]), float(moments[i]), float(laterals[i]), float(quantities[i].sum()))
+             for i, b in enumerate(points)} if points else {}
+    samples = [
+        PathSample(fuel_burned=takeoff.weight - state[b][0], weight=state[b][0], arm=state[b][1] / state[b][0],
+                   lateral_arm=state[b][2] / state[b][0] if lateral else None)
+        for b in sorted(set(marks + ends))
+    ] if with_samples else []
     if not stretches:
-        return BurnPath(ok=takeoff_in if end <= start else True, samples=samples)
+        return BurnPath(ok=ok, samples=samples)
 
-    excursions = [
-        Excursion(from_burned=takeoff.weight - state_at(b)[0].weight, to_burned=takeoff.weight - state_at(e)[0].weight)
-        for b, e in stretches
-    ]
-    first_state, first_quantities = state_at(stretches[0][0])
-    middle = state_at(0.5 * (stretches[0][0] + stretches[0][1]))[0]
+    excursions = [Excursion(from_burned=takeoff.weight - state[b][0], to_burned=takeoff.weight - state[e][0])
+                  for b, e in stretches]
+    first = state[stretches[0][0]]
+    w_mid, m_mid, l_mid, _ = state[middle[0]]
     left = next(
         (i for i, e in enumerate(aircraft.envelope)
-         if e.category == resolved.category and not e.shape.covers(middle.weight, middle.moment, middle.lateral_moment)),
+         if e.category == resolved.category and not e.shape.covers(w_mid, m_mid, l_mid)),
         None,
     )
+    payload_weight = float(found.weight["zero_fuel"][0])
     leaves = LeavePoint(
-        fuel_burned=takeoff.weight - first_state.weight,
-        fuel_remaining=first_state.weight - payload.weight,
-        weight=first_state.weight,
-        arm=first_state.arm,
-        lateral_arm=first_state.lateral_arm if lateral else None,
+        fuel_burned=takeoff.weight - first[0],
+        fuel_remaining=first[0] - payload_weight,
+        weight=first[0],
+        arm=first[1] / first[0],
+        lateral_arm=first[2] / first[0] if lateral else None,
         fuel_burned_volume=stretches[0][0] - start,
-        fuel_remaining_volume=sum(first_quantities.values()),
+        fuel_remaining_volume=first[3],
         envelope=left,
     )
     scale = max(1.0, end)
-    for (begin, finish), excursion in zip(stretches, excursions):
+    for (begin, finish), excursion in zip(stretches, excursions, strict=True):
         if (not takeoff_in and begin - start <= 1e-9 * scale) or (not landing_in and end - finish <= 1e-9 * scale):
             continue  # the same excursion is already reported at takeoff or landing
-        state, quantities = state_at(begin)
+        w, m, _, on_board = state[begin]
         findings.append(
             Finding(
                 code="burn_path", severity="limit",
-                message=(
-                    f"the CG leaves the envelope during the fuel burn after "
-                    f"{fmt(excursion.from_burned, units.mass, 'down')} of fuel is burned "
-                    f"(at {fmt(state.weight, units.mass)}, CG {fmt(state.arm, units.arm)}, "
-                    f"{fmt(sum(quantities.values()), units.fuel_volume)} on board) and stays out until "
-                    f"{fmt(excursion.to_burned, units.mass, 'up')} is burned"
-                ),
+                message=burn_path_message(excursion.from_burned, excursion.to_burned, w, m / w, on_board,
+                                          units.mass, units.arm, units.fuel_volume),
                 excess=excursion.to_burned - excursion.from_burned,
                 unit=units.mass,
             )
@@ -431,35 +376,20 @@ def _burn_path(
 # -- stations and groups ------------------------------------------------------------------
 
 
-def _station_findings(aircraft: Aircraft, resolved: ResolvedLoading) -> list[Finding]:
+def _load_findings(aircraft: Aircraft, resolved: ResolvedLoading, found: Evaluation) -> list[Finding]:
     mass = aircraft.units.mass
+    ids = [s.id for s in aircraft.station]
     findings = []
-    subjects = [(s.id, s.name, [s.id], s.max_weight, s.min_weight, "station") for s in aircraft.station]
-    subjects += [
-        (g.id or g.label, g.label, g.stations, g.max_weight, g.min_weight, "group") for g in aircraft.station_group
-    ]
-    for key, label, members, most, least, kind in subjects:
-        loaded = sum(resolved.stations.get(m, 0.0) for m in members)
-        if most is not None and loaded > most * (1 + WEIGHT_TOLERANCE) + 1e-12:
-            findings.append(
-                Finding(
-                    code=f"{kind}_max", severity="limit",
-                    message=(
-                        f"{label}: {fmt(loaded, mass)} exceeds the maximum {fmt(most, mass)} "
-                        f"by {fmt(loaded - most, mass, 'up')}"
-                    ),
-                    excess=loaded - most, unit=mass, limit=most, side="above", subject=key,
-                )
+    for column, rule in enumerate(load_limits(aircraft)):
+        if not found.load_exceeded[0, column]:
+            continue
+        loaded = sum(resolved.stations.get(ids[i], 0.0) for i in rule.members)
+        findings.append(
+            Finding(
+                code=rule.code, severity="limit",
+                message=load_limit_message(rule.label, loaded, rule.limit, rule.is_max, mass),
+                excess=abs(loaded - rule.limit), unit=mass, limit=rule.limit,
+                side="above" if rule.is_max else "below", subject=rule.subject,
             )
-        if least is not None and loaded < least * (1 - WEIGHT_TOLERANCE):
-            findings.append(
-                Finding(
-                    code=f"{kind}_min", severity="limit",
-                    message=(
-                        f"{label}: {fmt(loaded, mass)} is below the minimum {fmt(least, mass)} "
-                        f"by {fmt(least - loaded, mass, 'up')}"
-                    ),
-                    excess=least - loaded, unit=mass, limit=least, side="below", subject=key,
-                )
-            )
+        )
     return findings

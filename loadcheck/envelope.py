@@ -25,8 +25,8 @@ that sits exactly on a limit line to the outside.
 Along the fuel burn, W is linear and M and L are at most quadratic in the fuel burned
 (quadratic only for tanks whose arm moves with quantity), so the path meets an edge line
 where a polynomial of degree at most two has a root (:meth:`EnvelopeShape.edge_polynomials`).
-The path is split at every such root and each piece is tested at its middle: an exact
-test of the curve, not sampling. The vectorised engine uses the same polynomials.
+The engine (:mod:`loadcheck.engine`) splits the path at every such root and tests each
+piece at its middle: an exact test of the curve, not sampling.
 """
 
 from __future__ import annotations
@@ -44,9 +44,7 @@ __all__ = [
     "TOLERANCE",
     "Axis",
     "EnvelopeShape",
-    "PathPiece",
     "Vary",
-    "path_excursions",
     "polygon_problem",
 ]
 
@@ -112,7 +110,7 @@ class EnvelopeShape:
         self._origin_span = ((float(self.origin[0]), float(self.origin[1])), (float(self.span[0]), float(self.span[1])))
         self._edge_list = [(float(p[0]), float(p[1]), float(q[0] - p[0]), float(q[1] - p[1])) for p, q in self._edges]
         (x1, y1), (x2, y2) = self._edges[:, 0].T, self._edges[:, 1].T
-        # weights of the edge-crossing polynomial's basis (see loadcheck.batch)
+        # weights of the edge-crossing polynomial's basis (see loadcheck.engine)
         self.edge_weights = np.stack([y2 - y1, (x2 - x1) * y1 - (y2 - y1) * x1, -(x2 - x1)])  # (3, n)
         self.covering = shapely.Polygon(normal).buffer(TOLERANCE, quad_segs=16)
         shapely.prepare(self.covering)
@@ -323,28 +321,6 @@ class EnvelopeShape:
         d = end - start
         return ((x - start[..., 0]) * d[..., 0] + (y - start[..., 1]) * d[..., 1]) / (d * d).sum(axis=-1)
 
-    def crossings(self, weight: np.ndarray, moment: np.ndarray, lateral: np.ndarray) -> list[float]:
-        """Parameters u in [0, 1] where a path piece meets an edge line of the envelope.
-
-        Parameters
-        ----------
-        weight, moment, lateral : polynomial coefficients (lowest power first, at most
-            three) of the loading state along the piece, in the piece parameter u in [0, 1]
-        """
-        w, m, lat = (_pad3(c) for c in (weight, moment, lateral))
-        f = self.edge_polynomials(w, m, lat)  # (3, E)
-        found: list[float] = []
-        for roots in quadratic_roots(f[2], f[1], f[0]):
-            found += [float(r) for r in roots if -1e-12 <= r <= 1 + 1e-12]
-        return found
-
-
-def _pad3(coefficients: np.ndarray) -> np.ndarray:
-    out = np.zeros(3)
-    c = np.asarray(coefficients, dtype=float)[:3]
-    out[: len(c)] = c
-    return out
-
 
 def _times(a: np.ndarray, b: np.ndarray) -> np.ndarray:
     """Product of polynomials given as (..., 3) coefficient arrays, truncated to degree 2.
@@ -376,69 +352,3 @@ def quadratic_roots(a: np.ndarray, b: np.ndarray, c: np.ndarray) -> tuple[np.nda
         r1 = np.where(quadratic, q / a, np.where(np.abs(b) > 1e-13 * size, -c / b, np.nan))
         r2 = np.where(quadratic, c / q, np.nan)
     return r1, r2
-
-
-class PathPiece:
-    """One piece of the fuel-burn path on which every tank drains linearly.
-
-    Attributes
-    ----------
-    start, end : fuel burned since engine start at the piece's ends [fuel volume unit]
-    weight, moment, lateral : polynomial coefficients (three, lowest power first) in
-        u = (burned - start) / (end - start)
-    """
-
-    __slots__ = ("end", "lateral", "moment", "start", "weight")
-
-    def __init__(self, start: float, end: float, weight: np.ndarray, moment: np.ndarray, lateral: np.ndarray):
-        self.start, self.end = start, end
-        self.weight, self.moment, self.lateral = _pad3(weight), _pad3(moment), _pad3(lateral)
-
-    def state(self, u: float) -> tuple[float, float, float]:
-        """Weight, moment and lateral moment at parameter u."""
-        w, m, lat = self.weight, self.moment, self.lateral
-        return (
-            float(w[0] + u * (w[1] + u * w[2])),
-            float(m[0] + u * (m[1] + u * m[2])),
-            float(lat[0] + u * (lat[1] + u * lat[2])),
-        )
-
-    def at(self, burned: float) -> tuple[float, float, float]:
-        """Weight, moment and lateral moment after ``burned`` fuel [fuel volume unit]."""
-        length = self.end - self.start
-        return self.state((burned - self.start) / length if length > 0 else 0.0)
-
-
-def path_excursions(shapes: Sequence[EnvelopeShape], pieces: Sequence[PathPiece]) -> list[tuple[float, float]]:
-    """Stretches of the fuel-burn path that lie outside any of the envelopes.
-
-    Parameters
-    ----------
-    shapes : every envelope that must hold
-    pieces : the path, in burn order
-
-    Returns
-    -------
-    list of (from, to)
-        Fuel burned since engine start where each excursion begins and ends
-        [fuel volume unit]; empty when the whole path is inside.
-    """
-    outside: list[tuple[float, float]] = []
-    for piece in pieces:
-        cuts = {0.0, 1.0}
-        for shape in shapes:
-            cuts.update(min(max(u, 0.0), 1.0) for u in shape.crossings(piece.weight, piece.moment, piece.lateral))
-        ordered = sorted(cuts)
-        length = piece.end - piece.start
-        for a, b in zip(ordered, ordered[1:]):
-            if b - a <= 1e-12:
-                continue
-            w, m, lat = piece.state(0.5 * (a + b))
-            if all(bool(shape.covers(w, m, lat)) for shape in shapes):
-                continue
-            begin, end = piece.start + a * length, piece.start + b * length
-            if outside and abs(outside[-1][1] - begin) <= 1e-9 * max(1.0, abs(begin)):
-                outside[-1] = (outside[-1][0], end)
-            else:
-                outside.append((begin, end))
-    return outside

@@ -2,8 +2,8 @@
 
 Every answer honours every limit the check enforces (four conditions, the whole burn
 path, weight, station and group limits, tank capacities, the chosen category), because
-feasibility is decided by the vectorised engine (:mod:`loadcheck.batch`), which agrees with
-:func:`~loadcheck.check.check_loading` on every loading.
+feasibility is decided by the engine (:mod:`loadcheck.engine`), the same engine that
+:func:`~loadcheck.check.check_loading` runs on one loading.
 
 Method: the quantity asked about (ramp fuel, a station's weight, ballast, weight moved)
 is one number x. The set of x for which the loading is within limits is found on a grid
@@ -28,10 +28,10 @@ from typing import Literal
 import numpy as np
 
 from .aircraft import Aircraft
-from .batch import BatchResult, LoadingArrays, evaluate_arrays, loading_arrays
 from .caution import PILOT_CAUTION
 from .check import check_loading
 from .display import fmt, round_safe
+from .engine import Evaluation, LoadingArrays, evaluate_arrays, loading_arrays
 from .errors import InputError, Problem, UnknownNameError
 from .loading import BurnPlan, ResolvedLoading
 from .results import CheckResult, Finding, Result
@@ -157,7 +157,7 @@ def feasible_intervals(
     return intervals
 
 
-def _ok(result: BatchResult) -> np.ndarray:
+def _ok(result: Evaluation) -> np.ndarray:
     return result.ok
 
 

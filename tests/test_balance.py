@@ -20,45 +20,62 @@ import pytest
 from hypothesis import given
 from hypothesis import strategies as st
 
-from loadcheck.balance import MassState, MomentItem
 from loadcheck.check import check_loading
 from loadcheck.loading import Loading
 
 from .helpers import simple_aircraft
 
 
+def _mass(weight: float, arm: float, stations: dict[str, float], loads: dict[str, float]):
+    """The zero-fuel condition of an aircraft of ``weight`` at ``arm`` (its empty weight)
+    carrying ``loads`` at stations of the given arms, as the check computes it."""
+    aircraft = simple_aircraft(
+        empty={"weight": weight, "arm": arm},
+        limits={"max_takeoff_weight": 1e7},
+        station=[{"id": k, "arm": a, "kind": "cargo"} for k, a in stations.items()],
+        envelope=[{"category": "normal", "axes": ["arm", "weight"], "points": [[-1e4, 1], [-1e4, 1e7], [1e4, 1e7], [1e4, 1]]}],
+    )
+    return check_loading(aircraft, Loading(load=loads, fuel={"main": 0})).condition("zero_fuel")
+
+
 def test_faa_h_8083_1a_chapter_5_weight_shift_to_78_5_in():
     # FAA-H-8083-1A ch. 5: 8,000 lb, 616,000 in-lb; 100 lb from sta 30 to sta 150
-    before = MassState(8000.0, 616_000.0)
-    moved = MassState(0.0, MomentItem("x", "x", "cargo", 100.0, 150.0).moment - MomentItem("x", "x", "cargo", 100.0, 30.0).moment)
-    after = before + moved
-    assert moved.moment == 12_000.0
+    stations = {"sta30": 30.0, "sta150": 150.0}
+    rest = 8000.0 - 100.0
+    before = _mass(rest, (616_000.0 - 100.0 * 30.0) / rest, stations, {"sta30": 100.0})
+    after = _mass(rest, (616_000.0 - 100.0 * 30.0) / rest, stations, {"sta150": 100.0})
+    assert before.moment == pytest.approx(616_000.0, rel=1e-12) and before.arm == pytest.approx(77.0, rel=1e-12)
+    assert after.moment - before.moment == pytest.approx(12_000.0, rel=1e-12)
     assert after.arm == pytest.approx(78.5, abs=1e-12)
 
 
 def test_phak_weight_shift_to_the_aft_limit():
     # FAA-H-8083-25, Weight and Balance chapter: 7,800 lb at 81.5 in, aft limit 80.5 in,
-    # cargo moved from station 150 to station 30 -> 65 lb
-    weight, cg, limit, distance = 7800.0, 81.5, 80.5, 150.0 - 30.0
-    shifted = weight * (cg - limit) / distance  # the published relation, solved for weight
-    assert shifted == pytest.approx(65.0, abs=1e-12)
-    after = MassState(weight, weight * cg) + MassState(0.0, shifted * 30.0 - shifted * 150.0)
-    assert after.arm == pytest.approx(limit, abs=1e-12)
+    # cargo moved from station 150 to station 30 -> 65 lb brings the CG to the limit
+    stations = {"sta30": 30.0, "sta150": 150.0}
+    rest = 7800.0 - 65.0
+    empty_arm = (7800.0 * 81.5 - 65.0 * 150.0) / rest
+    assert _mass(rest, empty_arm, stations, {"sta150": 65.0}).arm == pytest.approx(81.5, abs=1e-12)
+    assert _mass(rest, empty_arm, stations, {"sta30": 65.0}).arm == pytest.approx(80.5, abs=1e-12)
 
 
 @given(
     st.floats(500, 10_000), st.floats(0, 200), st.floats(1, 500), st.floats(-100, 300), st.floats(-100, 300)
 )
-def test_weight_shift_relation_agrees_with_sum_of_moments(total, cg, shifted, from_arm, to_arm):
+def test_weight_shift_relation_agrees_with_the_check(total, cg, shifted, from_arm, to_arm):
     # FAA-H-8083-1B ch. 2: CG change = weight shifted x distance / total weight
-    after = MassState(total, total * cg) + MassState(0.0, shifted * (to_arm - from_arm))
-    assert after.arm - cg == pytest.approx(shifted * (to_arm - from_arm) / total, rel=1e-9, abs=1e-9)
+    stations = {"a": from_arm, "b": to_arm}
+    rest = total - shifted if total > shifted else total
+    empty_arm = (total * cg - shifted * from_arm) / rest
+    before = _mass(rest, empty_arm, stations, {"a": shifted})
+    after = _mass(rest, empty_arm, stations, {"b": shifted})
+    assert after.arm - before.arm == pytest.approx(shifted * (to_arm - from_arm) / before.weight, rel=1e-9, abs=1e-9)
 
 
 @given(st.floats(500, 10_000), st.floats(0, 200), st.floats(1, 400), st.floats(-100, 300))
-def test_added_weight_relation_agrees_with_sum_of_moments(total, cg, added, arm):
+def test_added_weight_relation_agrees_with_the_check(total, cg, added, arm):
     # FAA-H-8083-1B ch. 2: weight added / new total weight = CG change / (arm - old CG)
-    after = MassState(total, total * cg) + MassState(added, added * arm)
+    after = _mass(total, cg, {"x": arm}, {"x": added})
     assert after.arm - cg == pytest.approx(added * (arm - cg) / (total + added), rel=1e-9, abs=1e-9)
 
 

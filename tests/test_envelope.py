@@ -5,7 +5,10 @@ from __future__ import annotations
 import numpy as np
 import pytest
 
-from loadcheck.envelope import EnvelopeShape, PathPiece, path_excursions, polygon_problem
+from loadcheck.engine import evaluate
+from loadcheck.envelope import EnvelopeShape, polygon_problem
+
+from .helpers import simple_aircraft
 
 SQUARE = [[35.0, 1000.0], [35.0, 2000.0], [48.0, 2000.0], [48.0, 1000.0]]
 # non-convex: forward limit 35 in to 1,500 lb, moves aft to 40 in at 1,800, then holds
@@ -67,33 +70,52 @@ def test_slice_on_moment_axes():
     assert lo == pytest.approx(35.0) and hi == pytest.approx(48.0)
 
 
-def _straight_path(start: tuple[float, float], end: tuple[float, float]) -> PathPiece:
-    """A path from (arm, weight) to (arm, weight), straight in moment-weight space."""
+def _straight_path(start: tuple[float, float], end: tuple[float, float], points=NOTCH):
+    """An aircraft whose burn path runs from (arm, weight) ``start`` down to ``end``.
+
+    The path is straight in moment-weight space: the payload is the end state and one tank
+    (density 1 lb/US gal, burned completely) holds the difference. Returns the path's
+    stretches outside the envelope as fractions of the burn, and the state at a fraction.
+    """
     (a0, w0), (a1, w1) = start, end
-    m0, m1 = a0 * w0, a1 * w1
-    return PathPiece(0.0, 1.0, np.array([w0, w1 - w0]), np.array([m0, m1 - m0, 0.0]), np.array([0.0, 0.0]))
+    assert w0 > w1
+    aircraft = simple_aircraft(
+        empty={"weight": w1, "arm": a1},
+        limits={"max_takeoff_weight": 1e6},
+        station=[{"id": "front", "arm": 35.0, "kind": "seat"}],
+        tank=[{"id": "main", "arm": (a0 * w0 - a1 * w1) / (w0 - w1), "usable": w0 - w1, "density": 1.0}],
+        envelope=[{"category": "normal", "axes": ["arm", "weight"], "points": points}],
+    )
+    fuel = w0 - w1
+    found = evaluate(aircraft, [[0.0]], [[fuel]], [0.0], [fuel], explain=True)
+
+    def state(u: float) -> tuple[float, float, float]:
+        return (w0 + (w1 - w0) * u, a0 * w0 + (a1 * w1 - a0 * w0) * u, 0.0)
+
+    return [(b / fuel, e / fuel) for b, e in found.path_outside[0]], bool(found.burn_path_ok[0]), state
 
 
 def test_path_cutting_a_non_convex_corner_is_caught():
     shape = arm_shape(NOTCH)
     # both ends inside; the straight line passes forward of the corner at (40, 1800)
-    piece = _straight_path((41.0, 1950.0), (36.0, 1400.0))
     assert covers(shape, 41.0, 1950.0) and covers(shape, 36.0, 1400.0)
-    out = path_excursions([shape], [piece])
-    assert len(out) == 1
+    out, ok, state = _straight_path((41.0, 1950.0), (36.0, 1400.0))
+    assert not ok and len(out) == 1
     begin, end = out[0]
-    w, m, _ = piece.state(begin)
+    w, m, _ = state(begin)
     # it leaves on the vertical forward limit at 40 in
     assert m / w == pytest.approx(40.0, abs=1e-9)
     assert 0.0 < begin < end < 1.0
 
 
 def test_path_inside_a_convex_envelope_stays_inside():
-    assert path_excursions([arm_shape()], [_straight_path((36.0, 1100.0), (47.0, 1990.0))]) == []
+    out, ok, _ = _straight_path((47.0, 1990.0), (36.0, 1100.0), SQUARE)
+    assert out == [] and ok
 
 
 def test_path_along_an_edge_is_inside():
-    assert path_excursions([arm_shape()], [_straight_path((35.0, 1100.0), (35.0, 1990.0))]) == []
+    out, ok, _ = _straight_path((35.0, 1990.0), (35.0, 1100.0), SQUARE)
+    assert out == [] and ok
 
 
 def test_crossings_agree_with_dense_sampling():
@@ -101,9 +123,8 @@ def test_crossings_agree_with_dense_sampling():
     shape = arm_shape(NOTCH)
     for _ in range(200):
         a0, a1 = rng.uniform(33, 50, 2)
-        w0, w1 = rng.uniform(950, 2050, 2)
-        piece = _straight_path((a0, w0), (a1, w1))
-        out = path_excursions([shape], [piece])
+        w0, w1 = np.sort(rng.uniform(950, 2050, 2))[::-1]
+        out, ok, state = _straight_path((a0, w0), (a1, w1))
         u = np.linspace(0, 1, 4001)
         w = w0 + (w1 - w0) * u
         m = a0 * w0 + (a1 * w1 - a0 * w0) * u
@@ -112,4 +133,5 @@ def test_crossings_agree_with_dense_sampling():
             assert any(b - 1e-9 <= u[k] <= e + 1e-9 for b, e in out), (a0, w0, a1, w1, u[k])
         for b, e in out:
             mid = 0.5 * (b + e)
-            assert not bool(shape.covers(*piece.state(mid)))
+            assert not bool(shape.covers(*state(mid)))
+        assert ok == (not out and inside[0] and inside[-1])

@@ -8,7 +8,7 @@ from hypothesis import given, settings
 from hypothesis import strategies as st
 
 from loadcheck import check_loading, load_aircraft
-from loadcheck.batch import CONDITIONS, evaluate
+from loadcheck.engine import CONDITIONS, evaluate
 from loadcheck.loading import Loading
 
 from .helpers import sample, simple_aircraft

@@ -1,0 +1,771 @@
+"""The engine: every limit rule, once, for N loadings of one aircraft at once.
+
+:func:`evaluate` takes arrays (N loadings x stations, N x tanks, taxi, trip) in the
+aircraft's own units and returns an :class:`Evaluation`: weight, moment and lateral
+moment of each condition, the verdict of each condition, each weight limit, each
+envelope, each station and group limit, and of the whole burn path. Every answer of the
+library rests on it: :func:`loadcheck.check.check_loading` is this engine on one loading
+plus an explanation (margins, findings in words, where the path leaves); planning, the
+loading schedule, the extreme loadings and the fleet check call the same engine, through
+the check or directly. No limit rule exists anywhere else in the library.
+
+The rules (DESIGN.md, "Conditions checked"):
+
+- the four conditions: ramp = empty weight + stations + fuel at engine start; takeoff =
+  ramp less taxi fuel; landing = takeoff less trip fuel; zero fuel = ramp less all usable
+  fuel (:data:`CONDITIONS`, :func:`tank_quantities`);
+- the weight limits of each condition (:func:`weight_limits`) and the minimum flight
+  weight at takeoff and landing;
+- every envelope of the category at every condition; at ramp the weight above the
+  envelope's top is held to the top, with the CG kept (:func:`envelope_state`);
+- each station's and each station group's maximum and minimum (:func:`load_limits`);
+- the fuel-burn path from takeoff to landing, in the burn order, tested exactly.
+
+The burn path is checked exactly, not by sampling. For every axis pair an envelope may
+use, the condition "the path meets an edge line" is a polynomial of degree at most two in
+the fuel burned (after multiplying through by the positive weight), also for tanks whose
+arm moves with quantity (:meth:`loadcheck.envelope.EnvelopeShape.edge_polynomials`). Its
+roots are found in closed form for all loadings at once. A piece of path on which no root
+falls on an actual edge stays on one side of the boundary, so one containment test at its
+middle settles it; the pieces that touch an edge are split at every root and each part is
+tested at its middle.
+
+Limits are inclusive: a weight equal to its limit within :data:`WEIGHT_TOLERANCE` of the
+limit is within it; envelope containment uses :data:`loadcheck.envelope.TOLERANCE`.
+
+References
+----------
+FAA-H-8083-1B chapter 2 (sum of moments, CG = total moment / total weight);
+AC 43.13-1B chapter 10 section 1 (loading conditions).
+"""
+
+from __future__ import annotations
+
+from collections.abc import Sequence
+from dataclasses import dataclass, fields
+from typing import Any
+
+import numpy as np
+
+from .aircraft import Aircraft, Envelope
+from .envelope import EnvelopeShape, quadratic_roots
+from .loading import ResolvedLoading
+
+__all__ = [
+    "CHUNK",
+    "CONDITIONS",
+    "WEIGHT_TOLERANCE",
+    "Evaluation",
+    "LoadLimit",
+    "LoadingArrays",
+    "envelope_state",
+    "evaluate",
+    "evaluate_arrays",
+    "load_limits",
+    "loading_arrays",
+    "path_states",
+    "tank_quantities",
+    "weight_limits",
+]
+
+CONDITIONS = ("ramp", "takeoff", "landing", "zero_fuel")
+"""The four loading conditions, in the order they are checked and reported."""
+
+WEIGHT_TOLERANCE = 1e-9
+"""A weight equal to its limit within this fraction of the limit is within the limit."""
+
+CHUNK = 32_768
+"""Loadings evaluated together; larger batches are cut into chunks of this size so that
+the working arrays stay in cache and memory stays bounded."""
+
+_EDGE_SLACK = 1e-9  # how far past an edge's ends a crossing still counts (scaled units)
+
+
+# -- the rules as data ---------------------------------------------------------------------
+
+
+def weight_limits(aircraft: Aircraft) -> dict[str, list[tuple[str, float]]]:
+    """The weight limits of each condition: ``{condition: [(code, limit)]}`` [mass unit].
+
+    Maximum ramp weight at ramp (it defaults to the maximum takeoff weight), maximum
+    takeoff weight at takeoff, maximum landing weight at landing (default the maximum
+    takeoff weight), maximum zero-fuel weight at zero fuel where the file gives one
+    (DESIGN.md, "Conditions checked"). The minimum flight weight is not in this table: it
+    holds at takeoff and landing, from below (:func:`evaluate`).
+    """
+    limits = aircraft.limits
+    table: dict[str, list[tuple[str, float | None]]] = {
+        "ramp": [("max_ramp_weight", limits.ramp)],
+        "takeoff": [("max_takeoff_weight", limits.max_takeoff_weight)],
+        "landing": [("max_landing_weight", limits.landing)],
+        "zero_fuel": [("max_zero_fuel_weight", limits.max_zero_fuel_weight)],
+    }
+    return {name: [(code, value) for code, value in rows if value is not None] for name, rows in table.items()}
+
+
+MIN_FLIGHT_WEIGHT_CONDITIONS = ("takeoff", "landing")
+"""Conditions at which the minimum flight weight applies."""
+
+
+@dataclass(frozen=True)
+class LoadLimit:
+    """A maximum or minimum of a station or of a station group.
+
+    Attributes
+    ----------
+    code : finding code: station_max, station_min, group_max or group_min
+    subject : the station id, or the group's id (its label where it has none)
+    label : its name in words
+    members : indices of the stations it sums, in ``aircraft.station`` order
+    limit : the maximum or minimum [mass unit]
+    """
+
+    code: str
+    subject: str
+    label: str
+    members: tuple[int, ...]
+    limit: float
+
+    @property
+    def is_max(self) -> bool:
+        """True for a maximum, False for a minimum."""
+        return self.code.endswith("_max")
+
+    def exceeded(self, loaded: np.ndarray) -> np.ndarray:
+        """True where the loaded weight [mass unit] is beyond this limit (inclusive limits)."""
+        if self.is_max:
+            return np.asarray(loaded > self.limit * (1 + WEIGHT_TOLERANCE) + 1e-12)
+        return np.asarray(loaded < self.limit * (1 - WEIGHT_TOLERANCE))
+
+
+def load_limits(aircraft: Aircraft) -> list[LoadLimit]:
+    """Every station and station-group limit, stations first, each maximum before its minimum."""
+    index = {s.id: i for i, s in enumerate(aircraft.station)}
+    subjects: list[tuple[str, str, tuple[int, ...], float | None, float | None, str]] = [
+        (s.id, s.name, (index[s.id],), s.max_weight, s.min_weight, "station") for s in aircraft.station
+    ]
+    subjects += [
+        (g.id or g.label, g.label, tuple(index[m] for m in g.stations), g.max_weight, g.min_weight, "group")
+        for g in aircraft.station_group
+    ]
+    out = []
+    for key, label, members, most, least, kind in subjects:
+        if most is not None:
+            out.append(LoadLimit(f"{kind}_max", key, label, members, most))
+        if least is not None:
+            out.append(LoadLimit(f"{kind}_min", key, label, members, least))
+    return out
+
+
+def envelope_state(
+    shape: EnvelopeShape, condition: str, weight: Any, moment: Any, lateral: Any
+) -> tuple[Any, Any, Any]:
+    """The state tested against an envelope: at ramp, a weight above the envelope's top is held to the top.
+
+    The envelope is a flight envelope; before taxi the aircraft may be heavier than its
+    top by the taxi fuel. Its ramp weight is held to the maximum ramp weight and its CG
+    to the envelope's limits at the envelope's highest weight (common practice). Works on
+    plain floats and on arrays alike.
+    """
+    top = shape.max_weight
+    if condition != "ramp" or top is None:
+        return weight, moment, lateral
+    scale = np.where(np.asarray(weight) > top, top / np.asarray(weight), 1.0)
+    if np.ndim(scale) == 0:
+        factor = float(scale)
+        return weight * factor, moment * factor, lateral * factor
+    return weight * scale, moment * scale, lateral * scale
+
+
+# -- fuel ---------------------------------------------------------------------------------
+
+
+def tank_quantities(fuel: np.ndarray, burned: np.ndarray, order: Sequence[int] | None) -> np.ndarray:
+    """Quantity in each tank after fuel is burned, for every loading.
+
+    With the order ``together`` (None) every tank gives fuel in proportion to what it held
+    at engine start; with a list of tank indices each tank is emptied to zero before the
+    next one feeds (DESIGN.md, "Conditions checked").
+
+    Parameters
+    ----------
+    fuel : (N, T) quantity in each tank at engine start [fuel volume unit]
+    burned : (N, K) fuel burned since engine start [fuel volume unit]
+    order : None, or tank indices in burn order
+
+    Returns
+    -------
+    numpy.ndarray
+        (N, K, T) quantities [fuel volume unit].
+    """
+    start = fuel[:, None, :]
+    if order is None:
+        total = fuel.sum(axis=1)[:, None]
+        with np.errstate(divide="ignore", invalid="ignore"):
+            share = np.where(total > 0, np.clip(1.0 - burned / np.where(total > 0, total, 1.0), 0.0, 1.0), 0.0)
+        return start * share[:, :, None]
+    left = np.broadcast_to(start, (*burned.shape, fuel.shape[1])).copy()
+    remaining = burned.copy()
+    for tank in order:
+        used = np.minimum(left[:, :, tank], remaining)
+        left[:, :, tank] -= used
+        remaining -= used
+    return left
+
+
+def _tank_arms(aircraft: Aircraft, quantities: np.ndarray) -> np.ndarray:
+    """Arm of each tank's fuel at the given quantities (..., T) [arm unit] (:meth:`Tank.arm_at`)."""
+    arms = np.empty_like(quantities)
+    for index, tank in enumerate(aircraft.tank):
+        arms[..., index] = tank.arm_at(quantities[..., index])
+    return arms
+
+
+def _burn_cuts(aircraft: Aircraft, fuel: np.ndarray, order: Sequence[int] | None) -> list[np.ndarray]:
+    """Fuel burned since engine start where the path stops being one polynomial (N,) each.
+
+    A tank running dry (sequential burn) and a tank's quantity passing a point of its arm
+    table; NaN where a cut does not happen.
+    """
+    n = fuel.shape[0]
+    cuts = []
+    if order is not None:
+        running = np.zeros(n)
+        for tank in order:
+            running = running + fuel[:, tank]
+            cuts.append(running.copy())
+    total = fuel.sum(axis=1)
+    for index, tank_data in enumerate(aircraft.tank):
+        for knot in tank_data.arm_knots():
+            held = fuel[:, index]
+            with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+                if order is None:
+                    t = np.where(held > knot, total * (1.0 - knot / held), np.nan)
+                elif index in order:
+                    position = list(order).index(index)
+                    before = fuel[:, list(order[:position])].sum(axis=1) if position else 0.0
+                    t = np.where(held > knot, before + held - knot, np.nan)
+                else:
+                    t = np.full(n, np.nan)
+            cuts.append(t)
+    return cuts
+
+
+# -- the result -----------------------------------------------------------------------------
+
+
+@dataclass(frozen=True)
+class Evaluation:
+    """Arrays of N results (one per loading), every verdict of every rule.
+
+    Attributes
+    ----------
+    weight, moment, lateral_moment : per condition, (N,) [mass unit, mass unit * arm unit]
+    arm, lateral_arm : per condition, (N,) CG and lateral CG [arm unit]
+    fuel : per condition, (N, T) quantity in each tank [fuel volume unit]
+    fuel_weight : per condition, (N,) mass of the fuel on board [mass unit]
+    condition_ok : per condition, inside its envelope(s) and weight limits
+    envelope_ok : per condition, inside every envelope of the category
+    envelope_inside : per condition, one (N,) array per envelope of the category
+    weight_ok : per condition, one (N,) array per entry of :func:`weight_limits`
+    min_weight_ok : per condition, above the minimum flight weight where it applies
+    limit_ok : per weight limit code (``max_takeoff_weight`` ...), ``min_flight_weight``
+        and ``stations`` (every station and group limit), True where it holds
+    load_exceeded : (N, L) True where :func:`load_limits` entry L is exceeded
+    burn_path_ok : the whole path from takeoff to landing inside the envelopes
+    path_outside : with ``explain``: per loading, the stretches of the path outside an
+        envelope as (from, to) fuel burned since engine start [fuel volume unit]
+    valid : the row could be used (no negative, NaN, over-capacity or over-burn input)
+    ok : valid and no limit exceeded (the single check's ``ok``)
+    first_finding : code of the first limit exceeded, in the single check's order
+        ("" where none, "input" where the row is not valid)
+    first_condition : the condition of that finding ("" where none applies)
+    """
+
+    weight: dict[str, np.ndarray]
+    moment: dict[str, np.ndarray]
+    lateral_moment: dict[str, np.ndarray]
+    arm: dict[str, np.ndarray]
+    lateral_arm: dict[str, np.ndarray]
+    fuel: dict[str, np.ndarray]
+    fuel_weight: dict[str, np.ndarray]
+    condition_ok: dict[str, np.ndarray]
+    envelope_ok: dict[str, np.ndarray]
+    envelope_inside: dict[str, list[np.ndarray]]
+    weight_ok: dict[str, list[np.ndarray]]
+    min_weight_ok: dict[str, np.ndarray]
+    limit_ok: dict[str, np.ndarray]
+    load_exceeded: np.ndarray
+    burn_path_ok: np.ndarray
+    path_outside: list[list[tuple[float, float]]] | None
+    valid: np.ndarray
+    ok: np.ndarray
+    first_finding: np.ndarray
+    first_condition: np.ndarray
+
+
+@dataclass(frozen=True)
+class LoadingArrays:
+    """One resolved loading as the engine's arrays (the rows of a batch of one).
+
+    Attributes
+    ----------
+    stations : (S,) weight per station, ``aircraft.station`` order [mass unit]
+    fuel : (T,) quantity per tank at engine start [fuel volume unit]
+    taxi, trip : [fuel volume unit]
+    order : None (together) or tank ids in burn order
+    density : (T,) per tank [mass unit per fuel volume unit]
+    category : envelope category
+    """
+
+    stations: np.ndarray
+    fuel: np.ndarray
+    taxi: float
+    trip: float
+    order: tuple[str, ...] | None
+    density: np.ndarray
+    category: str
+
+
+def loading_arrays(aircraft: Aircraft, loading: ResolvedLoading) -> LoadingArrays:
+    """The engine's arrays for one resolved loading."""
+    return LoadingArrays(
+        stations=np.array([loading.stations.get(s.id, 0.0) for s in aircraft.station], dtype=float),
+        fuel=np.array([loading.fuel[t.id] for t in aircraft.tank], dtype=float),
+        taxi=loading.taxi,
+        trip=loading.trip,
+        order=loading.plan.order,
+        density=np.array([loading.density[t.id] for t in aircraft.tank], dtype=float),
+        category=loading.category,
+    )
+
+
+def evaluate_arrays(
+    aircraft: Aircraft,
+    base: LoadingArrays,
+    *,
+    stations: np.ndarray | None = None,
+    fuel: np.ndarray | None = None,
+    taxi: np.ndarray | None = None,
+    trip: np.ndarray | None = None,
+) -> Evaluation:
+    """Evaluate variations of one loading: any array given replaces the base's value.
+
+    The arrays given must have N rows (stations (N, S), fuel (N, T), taxi and trip (N,));
+    the others are repeated from ``base``.
+    """
+    n = next(len(a) for a in (stations, fuel, taxi, trip) if a is not None)
+    return evaluate(
+        aircraft,
+        stations if stations is not None else np.tile(base.stations, (n, 1)),
+        fuel if fuel is not None else np.tile(base.fuel, (n, 1)),
+        taxi if taxi is not None else np.full(n, base.taxi),
+        trip if trip is not None else np.full(n, base.trip),
+        order=base.order,
+        category=base.category,
+        density=base.density,
+    )
+
+
+# -- evaluation -----------------------------------------------------------------------------
+
+
+def evaluate(
+    aircraft: Aircraft,
+    stations: np.ndarray,
+    fuel: np.ndarray,
+    taxi: np.ndarray,
+    trip: np.ndarray,
+    *,
+    order: Sequence[str] | None = None,
+    category: str | None = None,
+    density: Sequence[float] | np.ndarray | None = None,
+    explain: bool = False,
+) -> Evaluation:
+    """Evaluate N loadings of one aircraft against every limit.
+
+    Parameters
+    ----------
+    aircraft : the aircraft
+    stations : (N, S) weight at each station, in ``aircraft.station`` order [mass unit]
+    fuel : (N, T) quantity in each tank at engine start, ``aircraft.tank`` order [fuel volume unit]
+    taxi, trip : (N,) fuel used before takeoff and from takeoff to landing [fuel volume unit]
+    order : None to burn together, or tank ids in burn order
+    category : envelope category (default the aircraft's first)
+    density : per tank [mass unit per fuel volume unit] (default the tanks' own)
+    explain : also find every stretch of the burn path outside an envelope
+        (``path_outside``), also where takeoff or landing is outside; the verdicts do not
+        depend on it
+
+    Returns
+    -------
+    Evaluation
+    """
+    stations = np.atleast_2d(np.asarray(stations, dtype=float))
+    n = stations.shape[0]
+    fuel = np.asarray(fuel, dtype=float).reshape(n, len(aircraft.tank))
+    taxi = np.broadcast_to(np.asarray(taxi, dtype=float), (n,))
+    trip = np.broadcast_to(np.asarray(trip, dtype=float), (n,))
+    if n <= CHUNK:
+        return _evaluate(aircraft, stations, fuel, taxi, trip, order, category, density, explain)
+    parts = [
+        _evaluate(aircraft, stations[i : i + CHUNK], fuel[i : i + CHUNK], taxi[i : i + CHUNK], trip[i : i + CHUNK],
+                  order, category, density, explain)
+        for i in range(0, n, CHUNK)
+    ]
+
+    def join(field: str) -> Any:
+        first = getattr(parts[0], field)
+        if first is None:
+            return None
+        if isinstance(first, dict):
+            if isinstance(next(iter(first.values()), None), list):
+                return {k: [np.concatenate([getattr(p, field)[k][j] for p in parts]) for j in range(len(v))]
+                        for k, v in first.items()}
+            return {k: np.concatenate([getattr(p, field)[k] for p in parts]) for k in first}
+        if isinstance(first, list):
+            return [row for p in parts for row in getattr(p, field)]
+        return np.concatenate([getattr(p, field) for p in parts])
+
+    return Evaluation(**{f.name: join(f.name) for f in fields(Evaluation)})
+
+
+def _evaluate(
+    aircraft: Aircraft,
+    stations: np.ndarray,
+    fuel: np.ndarray,
+    taxi: np.ndarray,
+    trip: np.ndarray,
+    order: Sequence[str] | None,
+    category: str | None,
+    density: Sequence[float] | np.ndarray | None,
+    explain: bool,
+) -> Evaluation:
+    n = stations.shape[0]
+    taxi = np.array(taxi, dtype=float)
+    trip = np.array(trip, dtype=float)
+    category = aircraft.category(category)
+    envelopes = aircraft.envelopes_for(category)
+    tank_index = {t.id: i for i, t in enumerate(aircraft.tank)}
+    order_index = None if order is None else [tank_index[t] for t in order]
+    rho = np.array(density if density is not None else [aircraft.density(t) for t in aircraft.tank], dtype=float)
+    usable = np.array([t.usable for t in aircraft.tank], dtype=float)
+    burnable = fuel.sum(axis=1) if order_index is None else fuel[:, order_index].sum(axis=1)
+
+    finite = np.isfinite(stations).all(axis=1) & np.isfinite(fuel).all(axis=1) & np.isfinite(taxi) & np.isfinite(trip)
+    valid = (
+        finite
+        & (stations >= 0).all(axis=1)
+        & (fuel >= 0).all(axis=1)
+        & (fuel <= usable * (1 + 1e-9)).all(axis=1)
+        & (taxi >= 0)
+        & (trip >= 0)
+        & (taxi + trip <= burnable * (1 + 1e-9))
+    )
+    if not valid.all():  # an unusable row gets harmless numbers; its verdict is "input"
+        stations = np.where(np.isfinite(stations), stations, 0.0)
+        fuel = np.where(np.isfinite(fuel), np.clip(fuel, 0.0, usable), 0.0)
+        taxi = np.where(np.isfinite(taxi), np.maximum(taxi, 0.0), 0.0)
+        trip = np.where(np.isfinite(trip), np.maximum(trip, 0.0), 0.0)
+
+    # payload: empty weight and every station (the zero-fuel state)
+    empty = aircraft.empty
+    arms = np.array([s.arm for s in aircraft.station], dtype=float)
+    lats = np.array([s.lateral_arm or 0.0 for s in aircraft.station], dtype=float)
+    tank_lats = np.array([t.lateral_arm or 0.0 for t in aircraft.tank], dtype=float)
+    pay_w = empty.weight + stations.sum(axis=1)
+    pay_m = empty.weight * empty.arm + stations @ arms
+    pay_l = empty.weight * (empty.lateral_arm or 0.0) + stations @ lats
+
+    burned = np.stack([np.zeros(n), taxi, taxi + trip], axis=1)
+    q = tank_quantities(fuel, burned, order_index)  # (N, 3, T)
+    mass = q * rho
+    tank_arm = _tank_arms(aircraft, q)
+    weight = {"zero_fuel": pay_w}
+    moment = {"zero_fuel": pay_m}
+    lateral = {"zero_fuel": pay_l}
+    quantities = {"zero_fuel": np.zeros_like(fuel)}
+    fuel_weight = {"zero_fuel": np.zeros(n)}
+    for k, name in enumerate(("ramp", "takeoff", "landing")):
+        fuel_weight[name] = mass[:, k].sum(axis=1)
+        weight[name] = pay_w + fuel_weight[name]
+        moment[name] = pay_m + (mass[:, k] * tank_arm[:, k]).sum(axis=1)
+        lateral[name] = pay_l + mass[:, k] @ tank_lats
+        quantities[name] = q[:, k]
+
+    limits = aircraft.limits
+    table = weight_limits(aircraft)
+    limit_ok: dict[str, np.ndarray] = {}
+    weight_ok: dict[str, list[np.ndarray]] = {}
+    minimum_ok: dict[str, np.ndarray] = {}
+    for name in CONDITIONS:
+        weight_ok[name] = []
+        for code, value in table[name]:
+            limit_ok[code] = weight[name] <= value * (1 + WEIGHT_TOLERANCE)
+            weight_ok[name].append(limit_ok[code])
+        minimum_ok[name] = np.ones(n, dtype=bool)
+        if name in MIN_FLIGHT_WEIGHT_CONDITIONS and limits.min_flight_weight is not None:
+            minimum_ok[name] = weight[name] >= limits.min_flight_weight * (1 - WEIGHT_TOLERANCE)
+    if limits.min_flight_weight is not None:
+        limit_ok["min_flight_weight"] = np.logical_and.reduce([minimum_ok[c] for c in MIN_FLIGHT_WEIGHT_CONDITIONS])
+
+    envelope_ok: dict[str, np.ndarray] = {}
+    per_envelope: dict[str, list[np.ndarray]] = {}
+    for name in CONDITIONS:
+        inside = []
+        for envelope in envelopes:
+            tested = envelope_state(envelope.shape, name, weight[name], moment[name], lateral[name])
+            inside.append(np.asarray(envelope.shape.covers(*tested)))
+        per_envelope[name] = inside
+        envelope_ok[name] = np.logical_and.reduce(inside) if inside else np.ones(n, dtype=bool)
+
+    condition_ok = {
+        name: np.logical_and.reduce(weight_ok[name] + [minimum_ok[name], envelope_ok[name]]) for name in CONDITIONS
+    }
+
+    rules = load_limits(aircraft)
+    load_exceeded = np.zeros((n, len(rules)), dtype=bool)
+    for column, rule in enumerate(rules):
+        load_exceeded[:, column] = rule.exceeded(stations[:, list(rule.members)].sum(axis=1))
+    limit_ok["stations"] = np.asarray(~load_exceeded.any(axis=1))
+
+    # a path with an end outside is out already; only paths with both ends inside need the exact test
+    ends_in = envelope_ok["takeoff"] & envelope_ok["landing"]
+    path_ok = ends_in.copy()
+    flying = trip > 0
+    rows = np.flatnonzero(flying if explain else (ends_in & flying))
+    path_outside: list[list[tuple[float, float]]] | None = [[] for _ in range(n)] if explain else None
+    if len(rows):
+        tested_ok, stretches = _burn_path(
+            aircraft, envelopes, fuel[rows], taxi[rows], trip[rows], order_index, rho, tank_lats,
+            pay_w[rows], pay_m[rows], pay_l[rows], explain,
+        )
+        path_ok[rows] &= tested_ok
+        if path_outside is not None:
+            for k, row in enumerate(rows):
+                path_outside[row] = stretches[k]
+    path_ok = np.where(flying, path_ok, envelope_ok["takeoff"])
+
+    zero_fuel_cg_is_limit = limits.zero_fuel_cg == "limit"
+    first_finding = np.full(n, "", dtype=object)
+    first_condition = np.full(n, "", dtype=object)
+    open_rows = np.ones(n, dtype=bool)
+
+    def mark(hit_rows: np.ndarray, code: str, condition: str = "") -> None:
+        nonlocal open_rows
+        hit = open_rows & hit_rows
+        first_finding[hit] = code
+        first_condition[hit] = condition
+        open_rows = open_rows & ~hit
+
+    for name in CONDITIONS:
+        for (code, _), good in zip(table[name], weight_ok[name], strict=True):
+            mark(~good, code, name)
+        mark(~minimum_ok[name], "min_flight_weight", name)
+        if name != "zero_fuel" or zero_fuel_cg_is_limit:
+            for inside_one in per_envelope[name]:
+                mark(~inside_one, "envelope", name)
+    mark(~path_ok, "burn_path")
+    for column, rule in enumerate(rules):
+        mark(load_exceeded[:, column], rule.code)
+    first_finding[~valid] = "input"
+    first_condition[~valid] = ""
+
+    ok = valid & (first_finding == "")
+    return Evaluation(
+        weight=weight,
+        moment=moment,
+        lateral_moment=lateral,
+        arm={k: moment[k] / weight[k] for k in CONDITIONS},
+        lateral_arm={k: lateral[k] / weight[k] for k in CONDITIONS},
+        fuel=quantities,
+        fuel_weight=fuel_weight,
+        condition_ok=condition_ok,
+        envelope_ok=envelope_ok,
+        envelope_inside=per_envelope,
+        weight_ok=weight_ok,
+        min_weight_ok=minimum_ok,
+        limit_ok=limit_ok,
+        load_exceeded=load_exceeded,
+        burn_path_ok=path_ok,
+        path_outside=path_outside,
+        valid=valid,
+        ok=ok,
+        first_finding=first_finding,
+        first_condition=first_condition,
+    )
+
+
+# -- the burn path --------------------------------------------------------------------------
+
+
+def path_states(
+    aircraft: Aircraft,
+    stations: np.ndarray,
+    fuel: np.ndarray,
+    burned: np.ndarray,
+    *,
+    order: Sequence[str] | None = None,
+    density: Sequence[float] | np.ndarray | None = None,
+) -> tuple[np.ndarray, np.ndarray, np.ndarray, np.ndarray]:
+    """Weight, moment, lateral moment and tank quantities of one loading at points of its burn.
+
+    Parameters
+    ----------
+    stations : (S,) weight at each station [mass unit]
+    fuel : (T,) quantity in each tank at engine start [fuel volume unit]
+    burned : (K,) fuel burned since engine start [fuel volume unit]
+
+    Returns
+    -------
+    weight, moment, lateral : (K,) [mass unit, mass unit * arm unit]
+    quantities : (K, T) [fuel volume unit]
+    """
+    tank_index = {t.id: i for i, t in enumerate(aircraft.tank)}
+    order_index = None if order is None else [tank_index[t] for t in order]
+    rho = np.array(density if density is not None else [aircraft.density(t) for t in aircraft.tank], dtype=float)
+    empty = aircraft.empty
+    stations = np.asarray(stations, dtype=float)
+    pay_w = empty.weight + stations.sum()
+    pay_m = empty.weight * empty.arm + stations @ np.array([s.arm for s in aircraft.station], dtype=float)
+    pay_l = empty.weight * (empty.lateral_arm or 0.0) + stations @ np.array(
+        [s.lateral_arm or 0.0 for s in aircraft.station], dtype=float)
+    q = tank_quantities(np.asarray(fuel, dtype=float)[None, :], np.asarray(burned, dtype=float)[None, :], order_index)[0]
+    mass = q * rho
+    tank_lats = np.array([t.lateral_arm or 0.0 for t in aircraft.tank], dtype=float)
+    return (pay_w + mass.sum(axis=1), pay_m + (mass * _tank_arms(aircraft, q)).sum(axis=1), pay_l + mass @ tank_lats, q)
+
+
+def _covers(envelope: Envelope, weight: np.ndarray, moment: np.ndarray, lateral: np.ndarray) -> np.ndarray:
+    return np.asarray(envelope.shape.covers(weight, moment, lateral))
+
+
+def _polyval(c: np.ndarray, u: np.ndarray | float) -> np.ndarray:
+    return np.asarray(c[..., 0] + u * (c[..., 1] + u * c[..., 2]))
+
+
+def _burn_path(
+    aircraft: Aircraft,
+    envelopes: Sequence[Envelope],
+    fuel: np.ndarray,
+    taxi: np.ndarray,
+    trip: np.ndarray,
+    order: Sequence[int] | None,
+    rho: np.ndarray,
+    tank_lats: np.ndarray,
+    pay_w: np.ndarray,
+    pay_m: np.ndarray,
+    pay_l: np.ndarray,
+    explain: bool,
+) -> tuple[np.ndarray, list[list[tuple[float, float]]]]:
+    """Whether the path from takeoff to landing stays inside every envelope, and (with
+    ``explain``) the stretches outside, as fuel burned since engine start [fuel volume unit]."""
+    n = fuel.shape[0]
+    start, end = taxi, taxi + trip
+    points = np.stack([start, end, *_burn_cuts(aircraft, fuel, order)], axis=1)
+    points = np.where(np.isfinite(points), np.clip(points, start[:, None], end[:, None]), end[:, None])
+    if points.shape[1] > 2:  # two columns (takeoff, landing) are in order already
+        points.sort(axis=1)
+    live = points[:, 1:] - points[:, :-1] > 0  # (N, P)
+    rows, cols = np.nonzero(live)
+    stretches: list[list[tuple[float, float]]] = [[] for _ in range(n)]
+    if len(rows) == 0:
+        return np.ones(n, dtype=bool), stretches
+    a, b = points[rows, cols], points[rows, cols + 1]  # the K live pieces
+    piece_fuel = fuel[rows]
+
+    qa = tank_quantities(piece_fuel, a[:, None], order)[:, 0]
+    qb = tank_quantities(piece_fuel, b[:, None], order)[:, 0]
+    arm_a, arm_b = _tank_arms(aircraft, qa), _tank_arms(aircraft, qb)
+    count = len(a)
+    w, m, lat = np.zeros((count, 3)), np.zeros((count, 3)), np.zeros((count, 3))
+    w[:, 0], m[:, 0], lat[:, 0] = pay_w[rows], pay_m[rows], pay_l[rows]
+    for ti in range(qa.shape[1]):  # a few tanks: a loop beats reductions over a short axis
+        ma, dm = qa[:, ti] * rho[ti], (qb[:, ti] - qa[:, ti]) * rho[ti]
+        arm, da = arm_a[:, ti], arm_b[:, ti] - arm_a[:, ti]
+        w[:, 0] += ma
+        w[:, 1] += dm
+        m[:, 0] += ma * arm
+        m[:, 1] += ma * da + dm * arm
+        m[:, 2] += dm * da
+        lat[:, 0] += ma * tank_lats[ti]
+        lat[:, 1] += dm * tank_lats[ti]
+
+    # pieces that touch no edge stay on one side of the boundary: their middle settles them
+    inside = np.ones(len(a), dtype=bool)
+    for envelope in envelopes:
+        inside &= _covers(envelope, _polyval(w, 0.5), _polyval(m, 0.5), _polyval(lat, 0.5))
+    touched = np.zeros(len(a), dtype=bool)
+    candidates = []
+    for envelope in envelopes:
+        f = envelope.shape.edge_polynomials(w, m, lat)  # (K, 3, E)
+        c, lin, quad = f[:, 0], f[:, 1], f[:, 2]
+        # only where the polynomial can vanish on [0, 1]: a sign change between the ends,
+        # or a turning point inside with the other sign
+        with np.errstate(divide="ignore", invalid="ignore"):
+            turn = -lin / (2.0 * quad)
+            maybe = (c * (quad + lin + c) <= 0) | ((turn > 0) & (turn < 1) & (c * (c + turn * (lin + turn * quad)) <= 0))
+        k_all, e_all = np.nonzero(maybe)
+        if len(k_all) == 0:
+            continue
+        for r in quadratic_roots(quad[k_all, e_all], lin[k_all, e_all], c[k_all, e_all]):
+            in_piece = (r >= -1e-12) & (r <= 1 + 1e-12)
+            if not in_piece.any():
+                continue
+            k, e = k_all[in_piece], e_all[in_piece]
+            u = np.clip(r[in_piece], 0.0, 1.0)
+            s = envelope.shape.edge_position(e, _polyval(w[k], u), _polyval(m[k], u), _polyval(lat[k], u))
+            touched[k[(s >= -_EDGE_SLACK) & (s <= 1 + _EDGE_SLACK)]] = True
+            column = np.full(f.shape[0] * f.shape[2], np.nan)
+            column[k * f.shape[2] + e] = u
+            candidates.append(column.reshape(f.shape[0], f.shape[2]))
+    # pieces that touch an edge: split at every root, test each part at its middle
+    hit = np.nonzero(touched)[0]
+    parts_out: np.ndarray | None = None
+    if len(hit):
+        cuts_u = np.concatenate([np.zeros((len(hit), 1)), *(c[hit] for c in candidates), np.ones((len(hit), 1))], axis=1)
+        cuts_u = np.sort(np.where(np.isfinite(cuts_u), cuts_u, 1.0), axis=1)
+        lo, hi = cuts_u[:, :-1], cuts_u[:, 1:]
+        mids = 0.5 * (lo + hi)
+        sub = [_polyval(c[hit][:, None, :], mids) for c in (w, m, lat)]
+        short = hi - lo <= 1e-12
+        both = np.ones(mids.shape, dtype=bool)
+        for envelope in envelopes:
+            both &= _covers(envelope, *sub)
+        parts_out = ~(short | both)
+        inside[hit] = ~parts_out.any(axis=1)
+    result = np.ones(n, dtype=bool)
+    result[rows[~inside]] = False  # a loading is out if any of its pieces is
+    if explain:
+        _collect_stretches(stretches, rows, a, b, inside, touched, hit, parts_out, cuts_u if len(hit) else None)
+    return result, stretches
+
+
+def _collect_stretches(
+    stretches: list[list[tuple[float, float]]],
+    rows: np.ndarray,
+    a: np.ndarray,
+    b: np.ndarray,
+    inside: np.ndarray,
+    touched: np.ndarray,
+    hit: np.ndarray,
+    parts_out: np.ndarray | None,
+    cuts_u: np.ndarray | None,
+) -> None:
+    """Every piece, or part of a piece, outside: (from, to) fuel burned, merged where they meet."""
+    position = {int(k): j for j, k in enumerate(hit)}
+    for k in np.flatnonzero(~inside):
+        row, begin, length = int(rows[k]), float(a[k]), float(b[k] - a[k])
+        if touched[k]:
+            assert parts_out is not None and cuts_u is not None
+            j = position[int(k)]
+            spans = [(begin + float(cuts_u[j, p]) * length, begin + float(cuts_u[j, p + 1]) * length)
+                     for p in np.flatnonzero(parts_out[j])]
+        else:
+            spans = [(begin, begin + length)]
+        for low, high in spans:
+            out = stretches[row]
+            if out and abs(out[-1][1] - low) <= 1e-9 * max(1.0, abs(low)):
+                out[-1] = (out[-1][0], high)
+            else:
+                out.append((low, high))

@@ -1,0 +1,195 @@
+"""Sentences from results: the one place where findings and answers become words.
+
+Results hold numbers; this module turns them into the sentences that the terminal, the
+sheets, the charts and the JSON ``message`` fields carry: condition names, limit names,
+units, and rounding in the safe direction (:mod:`loadcheck.display`). A figure beyond a
+limit is shown rounded away from the limit, the limit rounded towards it, and the excess
+is the difference of the two numbers shown, so the sentence adds up and never shows less
+excess than there is; where the excess is smaller than the display precision, more digits
+are shown until it is visible. No message names a command-line option: the library has
+several front ends.
+"""
+
+from __future__ import annotations
+
+from .display import Direction, decimals, fmt, round_safe
+
+__all__ = [
+    "CONDITION_WORDS",
+    "LIMIT_NAMES",
+    "beyond",
+    "burn_path_message",
+    "condition_words",
+    "envelope_gap_message",
+    "envelope_side_message",
+    "envelope_weight_message",
+    "load_limit_message",
+    "reserve_message",
+    "stretch_text",
+    "weight_limit_message",
+]
+
+CONDITION_WORDS = {"ramp": "ramp", "takeoff": "takeoff", "landing": "landing", "zero_fuel": "zero fuel"}
+"""Each condition in words."""
+
+LIMIT_NAMES = {
+    "max_ramp_weight": "maximum ramp weight",
+    "max_takeoff_weight": "maximum takeoff weight",
+    "max_landing_weight": "maximum landing weight",
+    "max_zero_fuel_weight": "maximum zero-fuel weight",
+    "min_flight_weight": "minimum flight weight",
+    "burn_path": "the CG along the fuel burn",
+    "capacity": "the tanks' usable capacity",
+}
+"""Each weight limit (by finding code) in words."""
+
+_EXTRA_DIGITS = 3  # at most this many digits beyond the unit's precision to make an excess visible
+
+
+def condition_words(name: str | None) -> str:
+    """A condition's name in words ("zero fuel"); empty for None."""
+    return CONDITION_WORDS.get(name or "", name or "")
+
+
+def beyond(value: float, limit: float, unit: str) -> tuple[str, str, str]:
+    """A value beyond a limit, the limit and the excess, as three numbers that add up.
+
+    The value is rounded away from the limit and the limit towards the value, at the
+    unit's precision or with up to three more digits where the excess would not show;
+    the excess is the difference of the two numbers shown, so it is never less than the
+    true excess.
+
+    Examples
+    --------
+    >>> beyond(1003.31, 1000.0, "kg")
+    ('1,003.4 kg', '1,000.0 kg', '3.4 kg')
+    >>> beyond(15.5001, 15.5, "in")
+    ('15.5001 in', '15.5000 in', '0.0001 in')
+    >>> beyond(80.0, 82.5, "in")
+    ('80.00 in', '82.50 in', '2.50 in')
+    """
+    above = value > limit
+    away: Direction = "up" if above else "down"
+    towards: Direction = "down" if above else "up"
+    places = decimals(unit)
+    excess = abs(value - limit)
+    while excess < 10.0**-places * (1 - 1e-6) and places < decimals(unit) + _EXTRA_DIGITS and excess > 0:
+        places += 1
+    shown_value = round_safe(value, places, away)
+    shown_limit = round_safe(limit, places, towards)
+    shown_excess = round_safe(abs(shown_value - shown_limit), places, "nearest")
+
+    def text(number: float) -> str:
+        out = f"{number:,.{places}f}"
+        if out.startswith("-") and float(out.replace(",", "")) == 0.0:
+            out = out[1:]
+        return f"{out} {unit}"
+
+    return text(shown_value), text(shown_limit), text(shown_excess)
+
+
+def weight_limit_message(condition: str, weight: float, code: str, limit: float, unit: str) -> str:
+    """"takeoff weight 2,612.0 lb exceeds the maximum takeoff weight 2,600.0 lb by 12.0 lb"; a minimum likewise."""
+    value, bound, excess = beyond(weight, limit, unit)
+    if code == "min_flight_weight":
+        return f"{condition_words(condition)} weight {value} is below the {LIMIT_NAMES[code]} {bound} by {excess}"
+    return f"{condition_words(condition)} weight {value} exceeds the {LIMIT_NAMES[code]} {bound} by {excess}"
+
+
+def envelope_weight_message(
+    condition: str, label: str, weight: float, edge: float, mass_unit: str, cg_beyond: tuple[str, float, float, str] | None
+) -> str:
+    """A point above or below an envelope's weight range, and its CG against the limit there.
+
+    ``cg_beyond`` is (side, CG, limit, arm unit) where the CG is also outside at that edge.
+    """
+    side = "above" if weight > edge else "below"
+    value, bound, excess = beyond(weight, edge, mass_unit)
+    text = (f"{condition_words(condition)} weight {value} is {side} {label}, whose "
+            f"{'highest' if side == 'above' else 'lowest'} weight is {bound}, by {excess}")
+    if cg_beyond is not None:
+        where, cg, limit, arm_unit = cg_beyond
+        cg_text, limit_text, cg_excess = beyond(cg, limit, arm_unit)
+        text += f"; its CG {cg_text} is also {where} of the limit there ({limit_text}) by {cg_excess}"
+    return text
+
+
+def envelope_side_message(
+    condition: str, label: str, lateral: bool, side: str, value: float, limit: float, weight: float,
+    arm_unit: str, mass_unit: str,
+) -> str:
+    """"takeoff CG 93.40 in is aft of the aft limit of the normal-category envelope (93.00 in at 2,400.0 lb) by 0.40 in"."""
+    cg = "lateral CG" if lateral else "CG"
+    value_text, limit_text, excess = beyond(value, limit, arm_unit)
+    return (f"{condition_words(condition)} {cg} {value_text} is {side} of the {side} limit of {label} "
+            f"({limit_text} at {fmt(weight, mass_unit)}) by {excess}")
+
+
+def envelope_gap_message(
+    condition: str, label: str, lateral: bool, value: float, nearest: float, weight: float, arm_unit: str, mass_unit: str
+) -> str:
+    """A CG that falls in a gap of a non-convex envelope, with the nearest limit."""
+    cg = "lateral CG" if lateral else "CG"
+    value_text, limit_text, excess = beyond(value, nearest, arm_unit)
+    return (f"{condition_words(condition)} {cg} {value_text} falls in a gap of {label} at {fmt(weight, mass_unit)}, "
+            f"{excess} from the nearest limit ({limit_text})")
+
+
+def envelope_point_message(condition: str, label: str, lateral: bool, weight: float, value: float,
+                           arm_unit: str, mass_unit: str) -> str:
+    """A point outside an envelope that no slice describes better."""
+    cg = "lateral CG" if lateral else "CG"
+    return f"{condition_words(condition)} point ({fmt(weight, mass_unit)}, {cg} {fmt(value, arm_unit)}) is outside {label}"
+
+
+ZERO_FUEL_WARNING = " (a warning: the zero-fuel CG is not a limit for this aircraft)"
+"""Added to a zero-fuel envelope finding where the zero-fuel CG is not a limit."""
+
+
+def burn_path_message(
+    from_burned: float, to_burned: float, weight: float, arm: float, on_board: float,
+    mass_unit: str, arm_unit: str, volume_unit: str,
+) -> str:
+    """Where the CG leaves the envelope during the burn and until when it stays out."""
+    return (
+        f"the CG leaves the envelope during the fuel burn after {fmt(from_burned, mass_unit, 'down')} of fuel is burned "
+        f"(at {fmt(weight, mass_unit)}, CG {fmt(arm, arm_unit)}, {fmt(on_board, volume_unit)} on board) "
+        f"and stays out until {fmt(to_burned, mass_unit, 'up')} is burned"
+    )
+
+
+def load_limit_message(label: str, loaded: float, limit: float, is_max: bool, unit: str) -> str:
+    """"Rear seats: 255.0 kg exceeds the maximum 250.0 kg by 5.0 kg"; a minimum likewise."""
+    value, bound, excess = beyond(loaded, limit, unit)
+    if is_max:
+        return f"{label}: {value} exceeds the maximum {bound} by {excess}"
+    return f"{label}: {value} is below the minimum {bound} by {excess}"
+
+
+def reserve_message(landing_fuel: float, reserve: float, unit: str) -> str:
+    """Landing fuel below the reserve, by how much."""
+    value, bound, short = beyond(landing_fuel, reserve, unit)
+    return f"landing fuel {value} is below the reserve of {bound} by {short}"
+
+
+def stretch_text(low: float, high: float, unit: str) -> str:
+    """A stretch of allowed values, rounded inward ("12.4 to 30.0 l").
+
+    Where the stretch is narrower than the display precision, rounding inward would show a
+    low end above the high end: more digits are shown instead, and a single value where
+    the stretch is a point.
+
+    Examples
+    --------
+    >>> stretch_text(46.86, 46.88, "lb")
+    '46.86 to 46.88 lb'
+    >>> stretch_text(12.0, 12.0, "l")
+    'only 12.0 l'
+    """
+    places = decimals(unit)
+    while round_safe(low, places, "up") > round_safe(high, places, "down") and places < decimals(unit) + _EXTRA_DIGITS:
+        places += 1
+    lo, hi = round_safe(low, places, "up"), round_safe(high, places, "down")
+    if lo > hi or hi - low <= 0:
+        return f"only {round_safe(low, places, 'nearest'):,.{places}f} {unit}"
+    return f"{lo:,.{places}f} to {hi:,.{places}f} {unit}"
