@@ -26,7 +26,7 @@ _LAZY = {
     "fuel_payload_table": "planning",
     "fuel_to_leave": "planning",
     "least_ballast": "planning",
-    "loading_schedule": "planning",
+    "loading_schedule": "schedule",
     "longest_trip": "planning",
     "most_fuel": "planning",
     "most_payload": "planning",

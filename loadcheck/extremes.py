@@ -10,24 +10,38 @@ gallon per maximum-except-takeoff horsepower (METO), AC 43.13-1B 10-2 p (figures
 10-11 show both checks).
 
 The limits used to sort the items are the envelope's most forward and most rearward arm
-(common practice where the limits vary with weight); the loading found is then checked
-against the whole envelope at its own weight, like any other loading.
+(common practice where the limits vary with weight). Items on the worse side are put at
+their maximum farthest-first, each within the room its station groups leave; every other
+station carries its minimum weight. Each extreme is a placard-type answer: it is checked in
+full (:func:`~loadcheck.check.check_loading`) as a flight that burns from the fuel it
+states down to the minimum fuel for balance (or to zero usable fuel where none is named),
+every tank burning in proportion to its fuel, and its verdict is that check's verdict.
 """
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+import math
+from dataclasses import dataclass, replace
 from typing import Literal
 
-from .aircraft import Aircraft
+from .aircraft import Aircraft, Station
 from .caution import MECHANIC_CAUTION
 from .check import check_loading
+from .display import fmt
 from .errors import InputError, Problem
 from .loading import BurnPlan, ResolvedLoading
 from .results import CheckResult, Result
 from .units import convert
 
-__all__ = ["ExtremeCase", "ExtremesResult", "extremes", "minimum_fuel", "standard_occupant", "STANDARD_OCCUPANT_LB"]
+__all__ = [
+    "STANDARD_OCCUPANT_LB",
+    "ExtremeCase",
+    "ExtremesResult",
+    "extremes",
+    "minimum_fuel",
+    "seat_order",
+    "standard_occupant",
+]
 
 STANDARD_OCCUPANT_LB = 170.0
 """Standard occupant weight used by AC 43.13-1B figures 10-10 and 10-11 [lb]."""
@@ -35,41 +49,54 @@ STANDARD_OCCUPANT_LB = 170.0
 
 @dataclass(frozen=True, kw_only=True, slots=True)
 class ExtremeCase(Result):
-    """One extreme loading: which side, how it was built, and its check."""
+    """One extreme loading: which side, how it was built, the fuel range covered, and its check.
+
+    ``ok`` is the full check's verdict over the fuel range in ``fuel_states``.
+    """
 
     side: Literal["forward", "rearward"]
+    ok: bool
     limit_arm: float
     notes: list[str]
+    fuel_states: str
     check: CheckResult
-
-    @property
-    def ok(self) -> bool:
-        """Within the weight limits and the envelope at ramp and takeoff."""
-        return all(c.ok for c in self.check.conditions if c.condition in ("ramp", "takeoff"))
 
 
 @dataclass(frozen=True, kw_only=True, slots=True)
 class ExtremesResult(Result):
-    """Both extreme checks."""
+    """Both extreme checks; ``ok`` when both are within limits."""
 
     aircraft: str
     category: str
     occupant_weight: float
     minimum_fuel: float | None
+    ok: bool
     forward: ExtremeCase
     rearward: ExtremeCase
     caution: str = MECHANIC_CAUTION
 
-    @property
-    def ok(self) -> bool:
-        """Both extremes within limits."""
-        return self.forward.ok and self.rearward.ok
-
 
 def standard_occupant(aircraft: Aircraft, given: float | None = None) -> float:
     """The occupant weight to use [mass unit]: given, else the aircraft file's, else 170 lb
-    (the standard occupant of AC 43.13-1B figures 10-10 to 10-14)."""
-    return given or aircraft.standard_occupant_weight or convert(STANDARD_OCCUPANT_LB, "lb", aircraft.units.mass)
+    (the standard occupant of AC 43.13-1B figures 10-10 to 10-14).
+
+    Raises
+    ------
+    InputError
+        For a given weight that is not a finite number above zero.
+    """
+    if given is not None:
+        if not (math.isfinite(given) and given > 0):
+            raise InputError(Problem("occupant_weight", "must be a weight above zero", value=given))
+        return given
+    return aircraft.standard_occupant_weight or convert(STANDARD_OCCUPANT_LB, "lb", aircraft.units.mass)
+
+
+def seat_order(aircraft: Aircraft) -> list[str]:
+    """Seat stations, the pilot's (with flight controls) first, then the others in file order."""
+    seats = [s for s in aircraft.station if s.kind == "seat"]
+    pilots = [s for s in seats if s.controls] or seats[:1]
+    return [s.id for s in pilots] + [s.id for s in seats if s not in pilots]
 
 
 def minimum_fuel(aircraft: Aircraft, meto_hp: float) -> float:
@@ -77,10 +104,18 @@ def minimum_fuel(aircraft: Aircraft, meto_hp: float) -> float:
 
     AC 43.13-1B paragraph 10-2 p.
 
+    Raises
+    ------
+    InputError
+        For a power that is not a finite number above zero.
+
     Examples
     --------
     >>> # 165 hp -> 13.75 US gal (AC 43.13-1B figure 10-10)
     """
+    if not (math.isfinite(meto_hp) and meto_hp > 0):
+        raise InputError(Problem("meto_hp", "the maximum-except-takeoff power must be above zero", value=meto_hp,
+                                 expected="horsepower, e.g. 165"))
     return convert(meto_hp / 12.0, "usgal", aircraft.units.fuel_volume)
 
 
@@ -96,61 +131,96 @@ def _limits(aircraft: Aircraft, category: str) -> tuple[float, float]:
     return min(arms), max(arms)
 
 
+def _room(aircraft: Aircraft, station: Station, stations: dict[str, float]) -> float:
+    """What a station can still take within its own maximum and its groups' [mass unit]."""
+    room = math.inf if station.max_weight is None else station.max_weight - stations.get(station.id, 0.0)
+    for group in aircraft.station_group:
+        if station.id in group.stations and group.max_weight is not None:
+            room = min(room, group.max_weight - sum(stations.get(s, 0.0) for s in group.stations))
+    return max(0.0, room)
+
+
 def _case(aircraft: Aircraft, category: str, side: Literal["forward", "rearward"], limit: float,
           occupant: float, min_fuel: float | None) -> ExtremeCase:
     notes: list[str] = []
-    worse = (lambda arm: arm < limit) if side == "forward" else (lambda arm: arm > limit)
     units = aircraft.units
+    mass = units.mass
+
+    def worse(arm: float) -> bool:
+        return arm < limit if side == "forward" else arm > limit
+
     seats = [s for s in aircraft.station if s.kind == "seat"]
     pilots = [s for s in seats if s.controls] or seats[:1]
     if not pilots:
         raise InputError(Problem("station", "the aircraft has no seat station for the pilot"))
     pilot = min(pilots, key=lambda s: s.arm) if side == "forward" else max(pilots, key=lambda s: s.arm)
-    stations: dict[str, float] = {}
-    for station in aircraft.station:
-        count = station.seats or 1
+    stations: dict[str, float] = {s.id: s.min_weight for s in aircraft.station if s.min_weight}
+    beyond = "ahead of the forward" if side == "forward" else "behind the rearward"
+    # the items that make the case worse, farthest beyond the limit first
+    for station in sorted((s for s in aircraft.station if worse(s.arm)), key=lambda s: -abs(s.arm - limit)):
+        room = _room(aircraft, station, stations)
         if station.kind == "seat":
-            full = count * occupant if station.max_weight is None else min(count * occupant, station.max_weight)
+            count = station.seats or 1
+            people = min(count, int(room // occupant)) if math.isfinite(room) else count
+            add = people * occupant - stations.get(station.id, 0.0) if people else 0.0
+            add = max(0.0, add)
+            if people:
+                stations[station.id] = stations.get(station.id, 0.0) + add
+                notes.append(f"{station.name}: {people} occupant{'s' if people > 1 else ''} at {occupant:g} {mass} "
+                             f"({fmt(stations[station.id], mass)}), {beyond} limit")
         else:
-            full = station.max_weight or 0.0
+            if not math.isfinite(room) or room <= 0:
+                if not math.isfinite(room):
+                    notes.append(f"{station.name}: no maximum weight given, left at its minimum")
+                continue
+            stations[station.id] = stations.get(station.id, 0.0) + room
+            capped = station.max_weight is None or stations[station.id] < station.max_weight - 1e-9
+            what = "as much as its station group allows" if capped else "at its maximum"
+            notes.append(f"{station.name}: {what} ({fmt(stations[station.id], mass)}), {beyond} limit")
+    if stations.get(pilot.id, 0.0) < occupant and not worse(pilot.arm):
+        stations[pilot.id] = max(occupant, stations.get(pilot.id, 0.0))
+        notes.append(f"{pilot.name}: the pilot alone ({fmt(stations[pilot.id], mass)}), in the "
+                     f"{'farthest-forward' if side == 'forward' else 'most rearward'} seat with controls")
+    for station in aircraft.station:
         least = station.min_weight or 0.0
-        beyond = "ahead of the forward" if side == "forward" else "behind the rearward"
-        if worse(station.arm):
-            stations[station.id] = max(full, least)
-            if full:
-                notes.append(f"{station.name}: at its maximum ({full:g} {units.mass}), {beyond} limit")
-        elif station.id == pilot.id:
-            stations[station.id] = max(min(occupant, full) if full else occupant, least)
-            notes.append(f"{station.name}: the pilot alone ({stations[station.id]:g} {units.mass}), in the "
-                         f"{'farthest-forward' if side == 'forward' else 'most rearward'} seat with controls")
-        else:
-            stations[station.id] = least
-            if least:
-                notes.append(f"{station.name}: at its minimum ({least:g} {units.mass})")
+        if least and stations.get(station.id, 0.0) <= least + 1e-9 and not worse(station.arm) and station.id != pilot.id:
+            notes.append(f"{station.name}: at its minimum ({fmt(least, mass)})")
+
     fuel: dict[str, float] = {}
-    partial = [t for t in aircraft.tank if not worse(t.arm_at(t.usable))]
+    partial = [t for t in aircraft.tank if not worse(float(t.arm_at(t.usable)))]
     for tank in aircraft.tank:
-        if worse(tank.arm_at(tank.usable)):
+        if worse(float(tank.arm_at(tank.usable))):
             fuel[tank.id] = tank.usable
-            notes.append(f"{tank.name}: full ({tank.usable:g} {units.fuel_volume}), the tank lies "
-                         f"{'ahead of the forward' if side == 'forward' else 'behind the rearward'} limit")
+            notes.append(f"{tank.name}: full ({fmt(tank.usable, units.fuel_volume)}), the tank lies {beyond} limit")
     if partial:
         if min_fuel is None:
             raise InputError(Problem("max_continuous_power_hp", "the minimum fuel for balance needs the engine's "
-                                     "maximum-except-takeoff power: give max_continuous_power_hp in the aircraft file or --meto"))
+                                     "maximum-except-takeoff power: give max_continuous_power_hp in the aircraft file"))
         capacity = sum(t.usable for t in partial)
         for tank in partial:
             fuel[tank.id] = min(tank.usable, min_fuel * tank.usable / capacity)
         notes.append(f"minimum fuel for balance, {min_fuel:.2f} {units.fuel_volume} (METO/12 US gal), in "
                      f"{', '.join(t.name for t in partial)}")
     density = {t.id: aircraft.density(t) for t in aircraft.tank}
-    loading = ResolvedLoading(category, stations, fuel, density, 0.0, 0.0, None, BurnPlan(fuel, None))
-    return ExtremeCase(side=side, limit_arm=limit, notes=notes, check=check_loading(aircraft, loading))
+    full = {t.id: fuel.get(t.id, 0.0) for t in aircraft.tank}
+    plan = BurnPlan(full, None)
+    down_to = min(min_fuel if min_fuel is not None else 0.0, plan.burnable)
+    loading = ResolvedLoading(category, stations, full, density, 0.0, plan.burnable - down_to, None, plan)
+    check = replace(check_loading(aircraft, loading), caution=MECHANIC_CAUTION)
+    start = plan.burnable
+    volume = units.fuel_volume
+    if start <= down_to + 1e-9:
+        states = f"at {fmt(start, volume)} of fuel" if start > 0 else "with no usable fuel"
+    else:
+        end = "the minimum fuel for balance" if min_fuel is not None else "zero usable fuel"
+        states = (f"from {fmt(start, volume)} at engine start down to {end} ({fmt(down_to, volume)}), every tank "
+                  "burning in proportion to its fuel")
+    return ExtremeCase(side=side, ok=check.ok, limit_arm=limit, notes=notes, fuel_states=states, check=check)
 
 
 def extremes(aircraft: Aircraft, *, category: str | None = None, occupant_weight: float | None = None,
              meto_hp: float | None = None) -> ExtremesResult:
-    """The most forward and most rearward loadings the stations permit, each checked.
+    """The most forward and most rearward loadings the stations permit, each checked in full.
 
     Parameters
     ----------
@@ -158,6 +228,11 @@ def extremes(aircraft: Aircraft, *, category: str | None = None, occupant_weight
     occupant_weight : standard occupant [mass unit]; default the aircraft file's, else
         170 lb (AC 43.13-1B figures 10-10 and 10-11)
     meto_hp : maximum-except-takeoff power [hp]; default the aircraft file's
+
+    Returns
+    -------
+    ExtremesResult
+        ``ok`` where both extremes pass the full check over the fuel range each covers.
 
     References
     ----------
@@ -168,8 +243,9 @@ def extremes(aircraft: Aircraft, *, category: str | None = None, occupant_weight
     hp = meto_hp if meto_hp is not None else aircraft.max_continuous_power_hp
     min_fuel = minimum_fuel(aircraft, hp) if hp is not None else None
     forward_limit, rear_limit = _limits(aircraft, chosen)
+    forward = _case(aircraft, chosen, "forward", forward_limit, occupant, min_fuel)
+    rearward = _case(aircraft, chosen, "rearward", rear_limit, occupant, min_fuel)
     return ExtremesResult(
         aircraft=aircraft.name, category=chosen, occupant_weight=occupant, minimum_fuel=min_fuel,
-        forward=_case(aircraft, chosen, "forward", forward_limit, occupant, min_fuel),
-        rearward=_case(aircraft, chosen, "rearward", rear_limit, occupant, min_fuel),
+        ok=forward.ok and rearward.ok, forward=forward, rearward=rearward,
     )

@@ -12,7 +12,12 @@ terms), so no feasible stretch wider than the tolerance can be missed; each boun
 then refined by bisection to 1e-6 of the range, keeping the side that is within limits.
 Where the envelope's shape makes the feasible set several intervals, all are reported.
 Answers are shown rounded in the safe direction (never more fuel or payload than allowed,
-never less ballast or shift than needed).
+never less ballast or shift than needed), with more digits where the rounded figure would
+leave the stretch within limits.
+
+One verdict: every answer carries the full check (:func:`~loadcheck.check.check_loading`)
+of the loading it proposes, at the figure shown, and is feasible only where that check
+finds the loading within limits.
 
 The weight-shift answer to a target CG uses the published relation (FAA-H-8083-1B
 chapter 2; FAA-H-8083-25, Weight and Balance chapter): weight moved / total weight =
@@ -30,11 +35,12 @@ import numpy as np
 from .aircraft import Aircraft
 from .caution import PILOT_CAUTION
 from .check import check_loading
-from .display import fmt, round_safe
+from .display import decimals, fmt, round_safe
 from .engine import Evaluation, LoadingArrays, evaluate_arrays, loading_arrays
-from .errors import InputError, Problem, UnknownNameError
+from .errors import InputError, LoadcheckError, Problem, UnknownNameError
 from .loading import BurnPlan, ResolvedLoading
 from .results import CheckResult, Finding, Result
+from .words import LIMIT_NAMES, condition_words, stretch_text
 
 __all__ = [
     "Interval",
@@ -50,8 +56,7 @@ __all__ = [
     "MASS_TOLERANCE",
     "feasible_intervals",
     "limit_words",
-    "ScheduleCase",
-    "loading_schedule",
+    "safe_value",
 ]
 
 MASS_TOLERANCE = 0.1
@@ -157,6 +162,7 @@ def feasible_intervals(
     return intervals
 
 
+
 def _ok(result: Evaluation) -> np.ndarray:
     return result.ok
 
@@ -179,19 +185,9 @@ def _station(aircraft: Aircraft, station: str) -> int:
     return ids.index(station)
 
 
-_LIMIT_WORDS = {
-    "max_ramp_weight": "maximum ramp weight",
-    "max_takeoff_weight": "maximum takeoff weight",
-    "max_landing_weight": "maximum landing weight",
-    "max_zero_fuel_weight": "maximum zero-fuel weight",
-    "min_flight_weight": "minimum flight weight",
-    "burn_path": "the CG along the fuel burn",
-}
-
-
 def limit_words(finding: Finding) -> str:
     """The limit a finding is about, in a few words ("aft limit at landing")."""
-    where = {"zero_fuel": "zero fuel"}.get(finding.condition or "", finding.condition or "")
+    where = condition_words(finding.condition)
     if finding.code == "envelope":
         side = finding.side if finding.side in ("forward", "aft", "left", "right") else None
         what = f"{side} limit" if side else ("envelope's top" if finding.side == "above" else "envelope")
@@ -199,7 +195,7 @@ def limit_words(finding: Finding) -> str:
     if finding.code in ("station_max", "group_max", "station_min", "group_min"):
         kind = "maximum" if finding.code.endswith("max") else "minimum"
         return f"{kind} of {finding.subject}"
-    return _LIMIT_WORDS.get(finding.code, finding.code)
+    return LIMIT_NAMES.get(finding.code, finding.code)
 
 
 def _first_limit(check: CheckResult) -> tuple[str | None, str | None]:
@@ -207,14 +203,51 @@ def _first_limit(check: CheckResult) -> tuple[str | None, str | None]:
     return (limit_words(finding), finding.code) if finding else (None, None)
 
 
-def _why_not(aircraft: Aircraft, loading: ResolvedLoading) -> str:
-    """Why a loading cannot be made feasible by the variable: the limits its own check exceeds."""
+_LOAD_CODES = ("station_max", "station_min", "group_max", "group_min")
+
+
+def _why_not(aircraft: Aircraft, loading: ResolvedLoading, varies: str | None = None) -> str:
+    """Why no value of the variable brings a loading within limits, from the loading's own check.
+
+    A station or group limit that the variable does not change is the whole reason
+    ("Rear seats: 255.0 kg exceeds the maximum 250.0 kg by 5.0 kg"); otherwise the limits the
+    loading exceeds are named. ``varies`` is the station the variable changes, if any.
+    """
     try:
         check = check_loading(aircraft, loading)
-    except ValueError:
-        return "the trip cannot be flown with the fuel this loading may carry"
+    except LoadcheckError as error:
+        return "; ".join(p.message for p in error.problems)
+    fixed = [f for f in check.findings
+             if f.severity == "limit" and f.code in _LOAD_CODES and (varies is None or f.subject != varies)]
+    if fixed:
+        return "; ".join(f.message for f in fixed)
     words = sorted({limit_words(f) for f in check.findings if f.severity == "limit"})
-    return "with this load and trip: " + ("; ".join(words) if words else "the trip needs more fuel than is allowed")
+    return "with this load and trip: " + ("; ".join(words) if words else "no amount is within limits")
+
+
+def safe_value(low: float, high: float, unit: str, direction: Literal["up", "down"]) -> tuple[float, str]:
+    """The figure to show for an answer at one end of a stretch within limits, and its text.
+
+    ``down`` takes the high end rounded down (the most fuel or payload), ``up`` the low end
+    rounded up (the least ballast or shift), at the unit's display precision, or with up to
+    three more digits where the rounded figure would fall outside the stretch.
+
+    Examples
+    --------
+    >>> safe_value(10.0, 37.46, "usgal", "down")
+    (37.4, '37.4 usgal')
+    >>> safe_value(46.84, 46.86, "lb", "up")
+    (46.84, '46.84 lb')
+    """
+    places = decimals(unit)
+    while True:
+        value = round_safe(high, places, "down") if direction == "down" else round_safe(low, places, "up")
+        if low - 1e-12 <= value <= high + 1e-12 or places >= decimals(unit) + 3:
+            break
+        places += 1
+    if not low - 1e-12 <= value <= high + 1e-12:
+        value = high if direction == "down" else low
+    return value, f"{value:,.{places}f} {unit}"
 
 
 def _fill_order(aircraft: Aircraft, loading: ResolvedLoading, fill: Sequence[str] | None) -> list[str] | None:
@@ -236,7 +269,8 @@ def _distribute(aircraft: Aircraft, base: LoadingArrays, fill: list[str] | None,
     ids = [t.id for t in aircraft.tank]
     out = np.tile(base.fuel, (len(totals), 1))
     if fill is None:
-        out[:] = np.minimum(totals[:, None] / usable.sum(), 1.0) * usable
+        if usable.size:
+            out[:] = np.minimum(totals[:, None] / usable.sum(), 1.0) * usable
         return out
     remaining = totals.copy()
     for tank in fill:
@@ -252,10 +286,16 @@ def _fuel_capacity(aircraft: Aircraft, fill: list[str] | None) -> float:
     return sum(t.usable for t in tanks)
 
 
-def _fuel_loading(aircraft: Aircraft, loading: ResolvedLoading, fill: list[str] | None, total: float) -> ResolvedLoading:
+def _fuel_loading(aircraft: Aircraft, loading: ResolvedLoading, fill: list[str] | None, total: float,
+                  burn_to: float | None = None) -> ResolvedLoading:
+    """The loading with ``total`` ramp fuel in the fill order (and, with ``burn_to``, a burn
+    from engine start down to that much fuel left [fuel volume unit])."""
     base = loading_arrays(aircraft, loading)
     row = _distribute(aircraft, base, fill, np.array([total]))[0]
-    return _with_fuel(loading, {t.id: float(row[i]) for i, t in enumerate(aircraft.tank)})
+    fuelled = _with_fuel(loading, {t.id: float(row[i]) for i, t in enumerate(aircraft.tank)})
+    if burn_to is not None:
+        fuelled = _with(fuelled, taxi=0.0, trip=max(0.0, fuelled.plan.burnable - burn_to))
+    return fuelled
 
 
 def _mean_density(aircraft: Aircraft, loading: ResolvedLoading) -> float:
@@ -267,45 +307,63 @@ def _intervals(pairs: list[tuple[float, float]]) -> list[Interval]:
     return [Interval(low=lo, high=hi) for lo, hi in pairs]
 
 
-def _most(
+def _answer(
     aircraft: Aircraft,
     pairs: list[tuple[float, float]],
     unit: str,
     at: Callable[[float], ResolvedLoading],
-    beyond: Callable[[float], ResolvedLoading] | None,
     question: str,
     variable: str,
-    ceiling: tuple[float, str] | None,
-    why_not: str | None = None,
+    direction: Literal["up", "down"],
+    why_not: Callable[[], str],
+    governing: Callable[[float, CheckResult], tuple[str | None, str | None]] = lambda _v, _c: (None, None),
 ) -> PlanResult:
-    """An answer that is the largest feasible value (fuel, payload)."""
+    """An answer at the best end of the stretches within limits, carrying the full check of
+    the loading at the figure shown; infeasible unless that check finds it within limits."""
     if not pairs:
         return PlanResult(question=question, variable=variable, unit=unit, feasible=False, intervals=[], answer=None,
-                          answer_display="no amount is within limits", governing=why_not)
-    best = pairs[-1][1]
-    check = check_loading(aircraft, at(best))
-    governing, code = None, None
-    if ceiling is not None and best >= ceiling[0] - 1e-9 * max(1.0, abs(ceiling[0])):
-        governing, code = ceiling[1], "capacity"
-    elif beyond is not None:
-        governing, code = _first_limit(check_loading(aircraft, beyond(best)))
-    places = 1
-    return PlanResult(
-        question=question, variable=variable, unit=unit, feasible=True, intervals=_intervals(pairs), answer=best,
-        answer_display=f"{round_safe(best, places, 'down'):,.{places}f} {unit}", governing=governing,
-        governing_code=code, check=check,
-    )
+                          answer_display="no amount is within limits", governing=why_not())
+    low, high = pairs[-1] if direction == "down" else pairs[0]
+    shown, text = safe_value(low, high, unit, direction)
+    check = check_loading(aircraft, at(shown))
+    if not check.ok:  # never bless a loading the check rejects
+        words = sorted({limit_words(f) for f in check.limits_exceeded})
+        return PlanResult(question=question, variable=variable, unit=unit, feasible=False, intervals=_intervals(pairs),
+                          answer=None, answer_display="no amount is within limits", governing="; ".join(words), check=check)
+    limit, code = governing(high if direction == "down" else low, check)
+    return PlanResult(question=question, variable=variable, unit=unit, feasible=True, intervals=_intervals(pairs),
+                      answer=high if direction == "down" else low, answer_display=text, governing=limit,
+                      governing_code=code, check=check)
+
+
+def _beyond(ceiling: tuple[float, str] | None, past: Callable[[float], ResolvedLoading] | None, aircraft: Aircraft
+            ) -> Callable[[float, CheckResult], tuple[str | None, str | None]]:
+    """What stops the answer going further: a ceiling reached, else the first limit just past it."""
+
+    def find(best: float, _check: CheckResult) -> tuple[str | None, str | None]:
+        if ceiling is not None and best >= ceiling[0] - 1e-9 * max(1.0, abs(ceiling[0])):
+            return ceiling[1], "capacity"
+        if past is None:
+            return None, None
+        try:
+            return _first_limit(check_loading(aircraft, past(best)))
+        except LoadcheckError:
+            return None, None
+
+    return find
 
 
 # -- the questions -------------------------------------------------------------------------------
 
 
-def most_fuel(aircraft: Aircraft, loading: ResolvedLoading, *, fill: Sequence[str] | None = None) -> PlanResult:
+def most_fuel(aircraft: Aircraft, loading: ResolvedLoading, *, fill: Sequence[str] | None = None,
+              burn_to: float | None = None) -> PlanResult:
     """The largest ramp fuel for which the whole flight is within limits.
 
     Fuel goes into the tanks in ``fill`` order (default: the reverse of the burn order, or
     every tank in proportion to its capacity when they burn together); taxi and trip fuel
-    are the loading's.
+    are the loading's, or, with ``burn_to``, the flight burns from engine start down to
+    that much fuel left [fuel volume unit] (a placard's whole fuel range).
 
     Returns
     -------
@@ -316,22 +374,28 @@ def most_fuel(aircraft: Aircraft, loading: ResolvedLoading, *, fill: Sequence[st
     base = loading_arrays(aircraft, loading)
     capacity = _fuel_capacity(aircraft, order)
     step = _GRID_STEP / _mean_density(aircraft, loading)
-    pairs = feasible_intervals(
-        lambda x: _ok(evaluate_arrays(aircraft, base, fuel=_distribute(aircraft, base, order, x))), 0.0, capacity, step
-    )
+
+    def ok(x: np.ndarray) -> np.ndarray:
+        fuel = _distribute(aircraft, base, order, x)
+        if burn_to is None:
+            return _ok(evaluate_arrays(aircraft, base, fuel=fuel))
+        trip = np.maximum(0.0, x - burn_to)
+        return _ok(evaluate_arrays(aircraft, base, fuel=fuel, taxi=np.zeros(len(x)), trip=trip))
+
+    pairs = feasible_intervals(ok, 0.0, capacity, step) if aircraft.tank else []
     unit = aircraft.units.fuel_volume
-    result = _most(
+    result = _answer(
         aircraft, pairs, unit,
-        at=lambda v: _fuel_loading(aircraft, loading, order, v),
-        beyond=lambda v: _fuel_loading(aircraft, loading, order, min(capacity, v + 2 * step)),
+        at=lambda v: _fuel_loading(aircraft, loading, order, v, burn_to),
         question="most fuel at engine start with this load",
-        variable="ramp fuel", ceiling=(capacity, "the tanks' usable capacity"),
-        why_not=None if pairs else _why_not(aircraft, loading),
+        variable="ramp fuel", direction="down",
+        why_not=lambda: ("this aircraft has no fuel tanks" if not aircraft.tank else _why_not(aircraft, loading)),
+        governing=_beyond((capacity, "the tanks' usable capacity"),
+                          lambda v: _fuel_loading(aircraft, loading, order, min(capacity, v + 2 * step), burn_to), aircraft),
     )
-    if result.answer is not None and result.check is not None:
+    if result.feasible and result.check is not None:
         mass = result.check.condition("ramp").fuel_weight
-        extra = {"ramp fuel weight": fmt(mass, aircraft.units.mass, "down")}
-        return replace(result, extra=extra)
+        return replace(result, extra={"ramp fuel weight": fmt(mass, aircraft.units.mass, "down")})
     return result
 
 
@@ -350,28 +414,44 @@ def longest_trip(
     PlanResult
         ``variable`` is trip fuel [fuel volume unit]; ``extra`` gives the time.
     """
-    if rate <= 0:
+    if not rate > 0:
         raise InputError(Problem("rate", "must be above zero", value=rate))
+    if not reserve >= 0:
+        raise InputError(Problem("reserve", "must not be negative", value=reserve))
     fuel = most_fuel(aircraft, loading, fill=fill)
     unit = aircraft.units.fuel_volume
-    if fuel.answer is None:
+    if fuel.answer is None or fuel.check is None:
         return replace(fuel, question="longest trip", variable="trip fuel")
-    fuelled = _fuel_loading(aircraft, loading, _fill_order(aircraft, loading, fill), fuel.answer)
+    fuelled = _fuel_loading(aircraft, loading, _fill_order(aircraft, loading, fill), safe_value(
+        fuel.intervals[-1].low, fuel.answer, unit, "down")[0])
     base = loading_arrays(aircraft, fuelled)
     top = fuelled.plan.burnable - fuelled.taxi - reserve
     step = _GRID_STEP / _mean_density(aircraft, loading)
-    pairs = feasible_intervals(lambda x: _ok(evaluate_arrays(aircraft, base, trip=x)), 0.0, max(top, 0.0), step) if top >= 0 else []
-    result = _most(
+    pairs = feasible_intervals(lambda x: _ok(evaluate_arrays(aircraft, base, trip=x)), 0.0, top, step) if top >= 0 else []
+    result = _answer(
         aircraft, pairs, unit,
-        at=lambda v: _with(fuelled, trip=v),
-        beyond=lambda v: _with(fuelled, trip=min(fuelled.plan.burnable - fuelled.taxi, v + 2 * step)),
+        at=lambda v: _with(fuelled, trip=v, reserve=reserve),
         question=f"longest trip with {fuel.answer_display} at engine start, landing with at least {reserve:g} {unit}",
-        variable="trip fuel", ceiling=(top, "the fuel on board less taxi fuel and reserve"),
+        variable="trip fuel", direction="down",
+        why_not=lambda: (f"the fuel on board less taxi fuel does not cover the reserve of {reserve:g} {unit}" if top < 0
+                         else _why_not(aircraft, fuelled)),
+        governing=_beyond((top, "the fuel on board less taxi fuel and reserve"),
+                          lambda v: _with(fuelled, trip=min(fuelled.plan.burnable - fuelled.taxi, v + 2 * step)), aircraft),
     )
-    if result.answer is not None:
-        minutes = int(np.floor(result.answer / rate * 60.0 + 1e-9))
+    if result.feasible and result.answer is not None:
+        shown = safe_value(result.intervals[-1].low, result.answer, unit, "down")[0]
+        minutes = int(np.floor(shown / rate * 60.0 + 1e-9))
         return replace(result, extra={"ramp fuel": fuel.answer_display, "time at the rate": f"{minutes // 60}:{minutes % 60:02d}"})
     return result
+
+
+def _station_rows(base: LoadingArrays, index: int, offset: float = 0.0) -> Callable[[np.ndarray], np.ndarray]:
+    def rows(x: np.ndarray) -> np.ndarray:
+        out = np.repeat(base.stations[None, :], len(x), axis=0)
+        out[:, index] = offset + x
+        return out
+
+    return rows
 
 
 def most_payload(aircraft: Aircraft, loading: ResolvedLoading, station: str) -> PlanResult:
@@ -386,57 +466,61 @@ def most_payload(aircraft: Aircraft, loading: ResolvedLoading, station: str) -> 
     base = loading_arrays(aircraft, loading)
     limit = aircraft.station[index].max_weight
     top = limit if limit is not None else aircraft.limits.ramp
-    columns = np.tile(base.stations, (1, 1))
-
-    def rows(x: np.ndarray) -> np.ndarray:
-        out = np.repeat(columns, len(x), axis=0)
-        out[:, index] = x
-        return out
-
+    rows = _station_rows(base, index)
     pairs = feasible_intervals(lambda x: _ok(evaluate_arrays(aircraft, base, stations=rows(x))), 0.0, top, _GRID_STEP)
 
     def at(value: float) -> ResolvedLoading:
         return _with(loading, stations={**loading.stations, station: value})
 
-    return _most(
-        aircraft, pairs, aircraft.units.mass, at=at, beyond=lambda v: at(v + 2 * _GRID_STEP),
-        question=f"most weight at {aircraft.station[index].name}", variable=f"weight at {station}",
-        ceiling=(limit, f"the station's maximum of {fmt(limit, aircraft.units.mass)}") if limit is not None else None,
+    return _answer(
+        aircraft, pairs, aircraft.units.mass, at,
+        question=f"most weight at {aircraft.station[index].name}", variable=f"weight at {station}", direction="down",
+        why_not=lambda: _why_not(aircraft, at(0.0), station),
+        governing=_beyond((limit, f"the station's maximum of {fmt(limit, aircraft.units.mass)}") if limit is not None else None,
+                          lambda v: at(v + 2 * _GRID_STEP), aircraft),
     )
 
 
 def fuel_to_leave(aircraft: Aircraft, loading: ResolvedLoading, station: str, payload: float,
                   *, fill: Sequence[str] | None = None) -> PlanResult:
-    """The fuel to leave behind to carry ``payload`` at ``station`` [fuel volume unit]."""
+    """The least fuel to leave behind so that ``payload`` at ``station`` can be carried.
+
+    The fuel taken is the loading's ramp fuel less the fuel left behind, put into the
+    tanks in the fill order (as :func:`most_fuel` does); taxi and trip are the loading's.
+
+    Returns
+    -------
+    PlanResult
+        ``variable`` is the fuel left behind [fuel volume unit]; ``intervals`` are the
+        stretches of fuel that may be left behind (0 up to all the ramp fuel); ``check``
+        is the full check of the loading with the payload and the fuel that is taken.
+    """
     _station(aircraft, station)
+    if not payload >= 0:
+        raise InputError(Problem("payload", "must not be negative", value=payload))
+    order = _fill_order(aircraft, loading, fill)
     with_payload = _with(loading, stations={**loading.stations, station: payload})
     fuel = most_fuel(aircraft, with_payload, fill=fill)
     unit = aircraft.units.fuel_volume
     now = sum(loading.fuel.values())
     question = f"fuel to leave behind to carry {fmt(payload, aircraft.units.mass)} at {station}"
-    if fuel.answer is None:
-        return replace(fuel, question=question, variable="fuel left behind", answer_display="no fuel load is within limits")
-    leave = max(0.0, now - fuel.answer)
-    return replace(
-        fuel, question=question, variable="fuel left behind", answer=leave,
-        answer_display=f"{round_safe(leave, 1, 'up'):,.1f} {unit}",
-        extra={**fuel.extra, "most ramp fuel with that payload": fuel.answer_display,
-               "ramp fuel in the loading": f"{now:,.1f} {unit}"},
+    # fuel left behind = ramp fuel in the loading less the ramp fuel taken, within [0, now]
+    pairs = sorted((max(0.0, now - i.high), now - i.low) for i in fuel.intervals if i.low <= now)
+    result = _answer(
+        aircraft, pairs, unit,
+        at=lambda leave: _fuel_loading(aircraft, with_payload, order, now - leave),
+        question=question, variable="fuel left behind", direction="up",
+        why_not=lambda: (fuel.governing or "" if not fuel.intervals else
+                         f"the fuel taken would have to be more than the {now:,.1f} {unit} in the loading: "
+                         f"with that payload the ramp fuel within limits is "
+                         + ", ".join(stretch_text(i.low, i.high, unit) for i in fuel.intervals)),
     )
-
-
-def _least(
-    aircraft: Aircraft, pairs: list[tuple[float, float]], unit: str, at: Callable[[float], ResolvedLoading],
-    question: str, variable: str, reason: str,
-) -> PlanResult:
-    if not pairs:
-        return PlanResult(question=question, variable=variable, unit=unit, feasible=False, intervals=[], answer=None,
-                          answer_display=f"no amount can: {reason}")
-    best = pairs[0][0]
-    return PlanResult(
-        question=question, variable=variable, unit=unit, feasible=True, intervals=_intervals(pairs), answer=best,
-        answer_display=f"{round_safe(best, 1, 'up'):,.1f} {unit}", check=check_loading(aircraft, at(best)),
-    )
+    extra = {"ramp fuel in the loading": f"{now:,.1f} {unit}"}
+    if result.feasible and result.check is not None:
+        taken = result.check.condition("ramp").fuel
+        extra["fuel taken"] = fmt(taken, unit)
+        extra["fill order"] = ", ".join(order) if order else "every tank in proportion to its capacity"
+    return replace(result, extra=extra)
 
 
 def least_ballast(aircraft: Aircraft, loading: ResolvedLoading, station: str | None = None) -> PlanResult:
@@ -447,27 +531,25 @@ def least_ballast(aircraft: Aircraft, loading: ResolvedLoading, station: str | N
     if station is None:
         ballast = [s.id for s in aircraft.station if s.kind == "ballast"]
         if not ballast:
-            raise InputError(Problem("station", "this aircraft declares no ballast station; name one with --station"))
+            raise InputError(Problem("station", "this aircraft declares no ballast station; name the station to use"))
         station = ballast[0]
     index = _station(aircraft, station)
     base = loading_arrays(aircraft, loading)
     limit = aircraft.station[index].max_weight
     top = limit if limit is not None else aircraft.limits.ramp
     already = loading.stations.get(station, 0.0)
-
-    def rows(x: np.ndarray) -> np.ndarray:
-        out = np.repeat(base.stations[None, :], len(x), axis=0)
-        out[:, index] = already + x
-        return out
-
+    rows = _station_rows(base, index, already)
     pairs = feasible_intervals(lambda x: _ok(evaluate_arrays(aircraft, base, stations=rows(x))), 0.0, max(0.0, top - already),
                                _GRID_STEP)
     reason = (f"no weight up to the station's maximum ({fmt(top, aircraft.units.mass)}) at {station} "
               "brings every condition within limits")
-    return _least(
+    answer = _answer(
         aircraft, pairs, aircraft.units.mass, lambda v: _with(loading, stations={**loading.stations, station: already + v}),
-        f"least ballast at {aircraft.station[index].name}", f"ballast at {station}", reason,
+        f"least ballast at {aircraft.station[index].name}", f"ballast at {station}", "up", lambda: reason,
     )
+    if not answer.feasible:
+        return replace(answer, answer_display=f"no amount can: {reason}", governing=_why_not(aircraft, loading, station))
+    return answer
 
 
 def weight_shift(
@@ -483,7 +565,9 @@ def weight_shift(
 
     With ``target_arm``: the weight that puts the CG of ``condition`` at that arm, by the
     published relation weight moved = total weight x CG change / distance moved
-    (FAA-H-8083-1B chapter 2). Without it: the least weight to move that brings every
+    (FAA-H-8083-1B chapter 2); the answer is feasible only where the loading after the move
+    passes the full check (every station and group limit at both ends of the move, every
+    condition, the burn path). Without it: the least weight to move that brings every
     condition within limits.
     """
     i, j = _station(aircraft, source), _station(aircraft, target_station)
@@ -500,13 +584,23 @@ def weight_shift(
     if target_arm is not None:
         now = check_loading(aircraft, loading).condition(condition)
         moved = now.weight * (target_arm - now.arm) / distance
-        question = f"weight to move from {source} to {target_station} to put the {condition} CG at {fmt(target_arm, units.arm)}"
-        if moved < -1e-9 or moved > available + 1e-9:
-            why = ("moving weight that way moves the CG away from the target" if moved < 0
-                   else f"it needs {fmt(moved, units.mass, 'up')} but {source} holds {fmt(available, units.mass)}")
+        question = (f"weight to move from {source} to {target_station} to put the {condition_words(condition)} CG at "
+                    f"{fmt(target_arm, units.arm)}")
+
+        def refuse(why: str, check: CheckResult | None = None) -> PlanResult:
             return PlanResult(question=question, variable="weight moved", unit=units.mass, feasible=False, intervals=[],
-                              answer=None, answer_display=f"no solution: {why}")
-        check = check_loading(aircraft, at(moved))
+                              answer=None, answer_display=f"no solution: {why}", check=check)
+
+        if moved < -1e-9:
+            return refuse("moving weight that way moves the CG away from the target")
+        if moved > available + 1e-9:
+            return refuse(f"it needs {fmt(moved, units.mass, 'up')} but {source} holds {fmt(available, units.mass)}")
+        check = check_loading(aircraft, at(max(0.0, min(moved, available))))
+        if not check.ok:
+            reasons = [f.message for f in check.limits_exceeded if f.code in _LOAD_CODES]
+            reasons = reasons or sorted({limit_words(f) for f in check.limits_exceeded})
+            return refuse(f"moving {fmt(moved, units.mass)} puts the CG at the target, but the loading is then not "
+                          "within limits: " + "; ".join(reasons), check)
         return PlanResult(question=question, variable="weight moved", unit=units.mass, feasible=True,
                           intervals=[Interval(low=moved, high=moved)], answer=moved,
                           answer_display=f"{round_safe(moved, 1, 'nearest'):,.1f} {units.mass}", check=check,
@@ -520,14 +614,19 @@ def weight_shift(
         return out
 
     pairs = feasible_intervals(lambda x: _ok(evaluate_arrays(aircraft, base, stations=rows(x))), 0.0, available, _GRID_STEP)
-    return _least(aircraft, pairs, units.mass, at, f"least weight to move from {source} to {target_station}",
-                  "weight moved", f"moving up to all {fmt(available, units.mass)} from {source} is not enough")
+    reason = f"moving up to all {fmt(available, units.mass)} from {source} is not enough"
+    answer = _answer(aircraft, pairs, units.mass, at, f"least weight to move from {source} to {target_station}",
+                     "weight moved", "up", lambda: reason)
+    if not answer.feasible:
+        return replace(answer, answer_display=f"no amount can: {reason}")
+    return answer
 
 
 @dataclass(frozen=True, kw_only=True, slots=True)
 class TableRow(Result):
     """Allowed ramp fuel for one payload: payload [mass unit]; intervals of ramp fuel
-    [fuel volume unit]; most, the largest allowed (None where none is)."""
+    [fuel volume unit]; most, the largest allowed (None where none is), the figure whose
+    loading was checked in full."""
 
     payload: float
     intervals: list[Interval]
@@ -538,7 +637,11 @@ def fuel_payload_table(
     aircraft: Aircraft, loading: ResolvedLoading, station: str, *, steps: int = 11, top: float | None = None,
     fill: Sequence[str] | None = None,
 ) -> list[TableRow]:
-    """Allowed ramp fuel against payload added at ``station`` (0 to ``top``, ``steps`` rows)."""
+    """Allowed ramp fuel against payload added at ``station`` (0 to ``top``, ``steps`` rows).
+
+    Each row is :func:`most_fuel` at that payload, so each row's most fuel passed the full
+    check. Between rows nothing is claimed: the rows are the payloads computed.
+    """
     index = _station(aircraft, station)
     limit = aircraft.station[index].max_weight
     already = loading.stations.get(station, 0.0)
@@ -546,132 +649,7 @@ def fuel_payload_table(
     rows = []
     for payload in np.linspace(0.0, max(0.0, top), max(2, steps)):
         answer = most_fuel(aircraft, _with(loading, stations={**loading.stations, station: already + float(payload)}), fill=fill)
-        rows.append(TableRow(payload=float(payload), intervals=answer.intervals, most=answer.answer))
+        rows.append(TableRow(payload=float(payload), intervals=answer.intervals if answer.feasible else [],
+                             most=answer.answer if answer.feasible else None))
     return rows
 
-
-# -- the loading schedule (AC 43.13-1B 10-18) ----------------------------------------------
-
-
-@dataclass(frozen=True, kw_only=True, slots=True)
-class ScheduleCase(Result):
-    """One of the three loading conditions of AC 43.13-1B 10-18.
-
-    Attributes: question; occupants per seat station (count); load per station [mass
-    unit]; fuel per tank [fuel volume unit]; check of that loading; notes.
-    """
-
-    question: str
-    occupants: dict[str, int]
-    load: dict[str, float]
-    fuel: dict[str, float]
-    check: CheckResult
-    notes: list[str] = field(default_factory=list)
-
-
-def _seat_order(aircraft: Aircraft) -> list[str]:
-    seats = [s for s in aircraft.station if s.kind == "seat"]
-    pilots = [s for s in seats if s.controls] or seats[:1]
-    return [s.id for s in pilots] + [s.id for s in seats if s not in pilots]
-
-
-def _empty_loading(aircraft: Aircraft, category: str, fuel: dict[str, float]) -> ResolvedLoading:
-    density = {t.id: aircraft.density(t) for t in aircraft.tank}
-    full = {t.id: fuel.get(t.id, 0.0) for t in aircraft.tank}
-    return ResolvedLoading(category, {}, full, density, 0.0, 0.0, None, BurnPlan(full, None))
-
-
-def _seat_occupants(aircraft: Aircraft, loading: ResolvedLoading, occupant: float) -> tuple[ResolvedLoading, dict[str, int]]:
-    """Seat occupants one at a time, pilot's seat first, while the loading stays within limits."""
-    counts: dict[str, int] = {}
-    for station_id in _seat_order(aircraft):
-        station = aircraft.stations[station_id]
-        for _ in range(station.seats or 1):
-            trial = _with(loading, stations={**loading.stations, station_id: loading.stations.get(station_id, 0.0) + occupant})
-            if not check_loading(aircraft, trial).ok:
-                break
-            loading = trial
-            counts[station_id] = counts.get(station_id, 0) + 1
-    return loading, counts
-
-
-def _fill_baggage(aircraft: Aircraft, loading: ResolvedLoading) -> ResolvedLoading:
-    for station in aircraft.station:
-        if station.kind not in ("baggage", "cargo"):
-            continue
-        answer = most_payload(aircraft, loading, station.id)
-        if answer.answer is not None:
-            loading = _with(loading, stations={**loading.stations, station.id: round_safe(answer.answer, 1, "down")})
-    return loading
-
-
-def _schedule_case(aircraft: Aircraft, question: str, loading: ResolvedLoading, occupants: dict[str, int],
-                   notes: list[str]) -> ScheduleCase:
-    return ScheduleCase(question=question, occupants=occupants, load=dict(loading.stations), fuel=dict(loading.fuel),
-                        check=check_loading(aircraft, loading), notes=notes)
-
-
-def loading_schedule(aircraft: Aircraft, *, category: str | None = None, occupant_weight: float | None = None) -> list[ScheduleCase]:
-    """AC 43.13-1B paragraph 10-18: the three loading conditions to settle when placards do not.
-
-    1. With full fuel: how many occupants and how much baggage.
-    2. With every seat filled: how much fuel and baggage.
-    3. With maximum baggage: how much fuel, how many occupants and where they sit.
-
-    Occupants are seated one at a time at the standard occupant weight, the pilot's seat
-    first, while the loading stays within every limit; baggage is then the most each
-    baggage station takes; fuel is the most the tanks take in proportion to capacity. No
-    taxi or trip fuel is burned (the loading at engine start is what is checked, with the
-    zero-fuel condition).
-    """
-    from .extremes import standard_occupant
-
-    chosen = aircraft.category(category)
-    occupant = standard_occupant(aircraft, occupant_weight)
-    mass = aircraft.units.mass
-    cases = []
-
-    full = _empty_loading(aircraft, chosen, {t.id: t.usable for t in aircraft.tank})
-    seated, counts = _seat_occupants(aircraft, full, occupant)
-    cases.append(_schedule_case(aircraft, "with full fuel: occupants and baggage", _fill_baggage(aircraft, seated), counts,
-                                [f"occupants at {occupant:g} {mass} each"]))
-
-    everyone = _empty_loading(aircraft, chosen, {})
-    counts = {}
-    for station_id in _seat_order(aircraft):
-        station = aircraft.stations[station_id]
-        counts[station_id] = station.seats or 1
-        everyone = _with(everyone, stations={**everyone.stations, station_id: counts[station_id] * occupant})
-    fuel = most_fuel(aircraft, everyone)
-    notes = [f"every seat filled at {occupant:g} {mass}"]
-    if fuel.answer is None:
-        notes.append("no fuel load is within limits with every seat filled")
-        cases.append(_schedule_case(aircraft, "with every seat filled: fuel and baggage", everyone, counts, notes))
-    else:
-        fuelled = _fuel_loading(aircraft, everyone, None, round_safe(fuel.answer, 1, "down"))
-        cases.append(_schedule_case(aircraft, "with every seat filled: fuel and baggage", _fill_baggage(aircraft, fuelled),
-                                    counts, notes))
-
-    bags = _empty_loading(aircraft, chosen, {})
-    for station in aircraft.station:
-        if station.kind in ("baggage", "cargo") and station.max_weight is not None:
-            room = station.max_weight
-            for group in aircraft.station_group:
-                if station.id in group.stations and group.max_weight is not None:
-                    used = sum(bags.stations.get(s, 0.0) for s in group.stations)
-                    room = min(room, group.max_weight - used)
-            bags = _with(bags, stations={**bags.stations, station.id: max(0.0, room)})
-    pilot = _seat_order(aircraft)[:1]
-    if pilot:
-        bags = _with(bags, stations={**bags.stations, pilot[0]: occupant})
-    fuel = most_fuel(aircraft, bags)
-    notes = ["baggage at each station's maximum (within group limits); the pilot aboard"]
-    if fuel.answer is None:
-        notes.append("no fuel load is within limits with maximum baggage")
-        cases.append(_schedule_case(aircraft, "with maximum baggage: fuel and occupants", bags, {pilot[0]: 1} if pilot else {}, notes))
-    else:
-        fuelled = _fuel_loading(aircraft, bags, None, round_safe(fuel.answer, 1, "down"))
-        without_pilot = _with(fuelled, stations={k: v for k, v in fuelled.stations.items() if k not in pilot})
-        seated, counts = _seat_occupants(aircraft, without_pilot, occupant)
-        cases.append(_schedule_case(aircraft, "with maximum baggage: fuel and occupants", seated, counts, notes))
-    return cases

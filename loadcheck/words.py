@@ -13,12 +13,14 @@ several front ends.
 from __future__ import annotations
 
 from .display import Direction, decimals, fmt, round_safe
+from .results import CheckResult
 
 __all__ = [
     "CONDITION_WORDS",
     "LIMIT_NAMES",
     "beyond",
     "burn_path_message",
+    "burn_path_summary",
     "condition_words",
     "envelope_gap_message",
     "envelope_side_message",
@@ -193,3 +195,29 @@ def stretch_text(low: float, high: float, unit: str) -> str:
     if lo > hi or hi - low <= 0:
         return f"only {round_safe(low, places, 'nearest'):,.{places}f} {unit}"
     return f"{lo:,.{places}f} to {hi:,.{places}f} {unit}"
+
+
+def burn_path_summary(result: CheckResult) -> str:
+    """The fuel burn from takeoff to landing in one sentence.
+
+    A path that starts outside (takeoff already out of the envelope) is said to be outside
+    from takeoff, not to "leave after 0 burned".
+    """
+    path, units = result.burn_path, result.units
+    head = "Fuel burn, takeoff to landing: "
+    if path.ok:
+        return head + "the CG stays inside the envelope all the way."
+    leave = path.leaves_at
+    if leave is None:
+        return head + "the takeoff point is already outside the envelope."
+    takeoff_out = not result.condition("takeoff").ok
+    if takeoff_out and leave.fuel_burned_volume <= 1e-9 * max(1.0, leave.fuel_remaining_volume):
+        first = path.excursions[0] if path.excursions else None
+        until = (f" and stays outside until {fmt(first.to_burned, units.mass, 'up')} is burned"
+                 if first is not None and first.to_burned > first.from_burned else "")
+        return head + f"the CG is outside the envelope from takeoff{until}."
+    return head + (
+        f"the CG leaves the envelope after {fmt(leave.fuel_burned, units.mass, 'down')} burned "
+        f"({fmt(leave.fuel_remaining_volume, units.fuel_volume)} remaining; "
+        f"{fmt(leave.weight, units.mass)} at CG {fmt(leave.arm, units.arm)})."
+    )

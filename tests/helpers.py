@@ -42,3 +42,21 @@ def simple_aircraft(**changes: Any) -> Aircraft:
     }
     data.update(changes)
     return parse_aircraft(data)
+
+
+def ac_example_aircraft() -> Aircraft:
+    """The aircraft of AC 43.13-1B (1998) chapter 10, figures 10-10 to 10-14: basic empty
+    weight 1,169 lb at +10.6 in, oil 17 lb at -49 in (here in the empty weight), seats at
+    +16 in (two, with controls) and +48 in (two), baggage 100 lb at +75.5 in, fuel 40 US gal
+    at +22 in, CG range +8.5 to +21.9 in, maximum weight 2,100 lb, 165 hp METO."""
+    return parse_aircraft({
+        "name": "AC 43.13-1B chapter 10 example", "units": {"mass": "lb", "arm": "in", "fuel_volume": "usgal"},
+        "empty": {"weight": 1169 + 17, "arm": (1169 * 10.6 - 17 * 49) / (1169 + 17)},
+        "limits": {"max_takeoff_weight": 2100}, "max_continuous_power_hp": 165,
+        "station": [{"id": "front", "arm": 16, "kind": "seat", "seats": 2, "controls": True},
+                    {"id": "rear", "arm": 48, "kind": "seat", "seats": 2},
+                    {"id": "bag", "arm": 75.5, "kind": "baggage", "max_weight": 100}],
+        "tank": [{"id": "main", "arm": 22, "usable": 40, "fuel": "avgas"}],
+        "envelope": [{"category": "normal", "axes": ["arm", "weight"],
+                      "points": [[8.5, 1000], [8.5, 2100], [21.9, 2100], [21.9, 1000]]}],
+    })

@@ -3,7 +3,9 @@
 from __future__ import annotations
 
 import json
-from collections.abc import Callable
+from collections.abc import Callable, Iterator
+from contextlib import contextmanager
+from dataclasses import replace
 from pathlib import Path
 from typing import Annotated, Any
 
@@ -71,6 +73,17 @@ def _mechanic_sheet(sheet: Path | None, result: Any, aircraft: Any, source: Path
         checks = None
     write_atomic(sheet, mechanic_sheet_html(result, aircraft.units, extremes=checks, source=str(source)))
     _console(stderr=True).print(f"record written: {sheet}", markup=False)
+
+
+
+@contextmanager
+def _options_named(options: dict[str, str]) -> Iterator[None]:
+    """Name this command's options in the library's input errors (the library names its parameters)."""
+    try:
+        yield
+    except LoadcheckError as error:
+        problems = [replace(p, field=options.get(p.field, p.field)) for p in error.problems]
+        raise type(error)(problems, error.file) from None
 
 
 @app.command()
@@ -176,7 +189,8 @@ def extremes(
 
     data = load_aircraft(aircraft)
     weight = None if occupant is None else read_amount(occupant, data.units.mass, "--occupant")
-    result = compute(data, category=category, occupant_weight=weight, meto_hp=meto)
+    with _options_named({"occupant_weight": "--occupant", "meto_hp": "--meto"}):
+        result = compute(data, category=category, occupant_weight=weight, meto_hp=meto)
     if json_out:
         typer.echo(result.to_json())
     else:
@@ -196,24 +210,28 @@ def schedule(
 ) -> None:
     """The loading schedule of AC 43.13-1B 10-18: full fuel; every seat filled; maximum baggage.
 
+    Each case holds from the fuel it states down to zero usable fuel.
+
+    Exit status: 0 every case within limits, 1 a case is not, 2 bad input.
+
     Example:
 
       loadcheck schedule sample_aircraft/twin6/aircraft.toml
     """
-    from ..caution import MECHANIC_CAUTION
     from ..files import load_aircraft
-    from ..planning import loading_schedule
+    from ..schedule import loading_schedule
     from ..units import read_amount
 
     data = load_aircraft(aircraft)
     weight = None if occupant is None else read_amount(occupant, data.units.mass, "--occupant")
-    cases = loading_schedule(data, category=category, occupant_weight=weight)
+    with _options_named({"occupant_weight": "--occupant"}):
+        result = loading_schedule(data, category=category, occupant_weight=weight)
     if json_out:
-        typer.echo(json.dumps({"cases": [c.to_dict() for c in cases], "caution": MECHANIC_CAUTION}, indent=2, default=str))
+        typer.echo(result.to_json())
     else:
         from ..render.terminal import render_schedule
 
-        render_schedule(cases, data, _console(), MECHANIC_CAUTION)
-    raise typer.Exit(EXIT_OK)
+        render_schedule(result, data, _console())
+    raise typer.Exit(EXIT_OK if result.ok else EXIT_LIMIT)
 
 

@@ -18,6 +18,7 @@ from rich.text import Text
 from ..aircraft import Aircraft
 from ..display import fmt
 from ..results import CheckResult, Condition
+from ..words import burn_path_summary, stretch_text
 
 if TYPE_CHECKING:
     from ..planning import PlanResult, TableRow
@@ -134,19 +135,7 @@ def _condition_row(c: Condition, result: CheckResult, mac: bool, lateral: bool) 
 
 
 def _burn_line(result: CheckResult) -> Text:
-    path = result.burn_path
-    units = result.units
-    if path.ok:
-        return Text("Fuel burn, takeoff to landing: the CG stays inside the envelope all the way.")
-    leave = path.leaves_at
-    if leave is None:
-        return Text("Fuel burn, takeoff to landing: the takeoff point is already outside the envelope.", style=_LIMIT_STYLE)
-    return Text(
-        f"Fuel burn, takeoff to landing: the CG leaves the envelope after {fmt(leave.fuel_burned, units.mass, 'down')} "
-        f"burned ({fmt(leave.fuel_remaining_volume, units.fuel_volume)} remaining; "
-        f"{fmt(leave.weight, units.mass)} at CG {fmt(leave.arm, units.arm)}).",
-        style=_LIMIT_STYLE,
-    )
+    return Text(burn_path_summary(result), style="" if result.burn_path.ok else _LIMIT_STYLE)
 
 
 def _findings(result: CheckResult) -> Group | Text:
@@ -275,15 +264,18 @@ def render_plan(result: PlanResult, console: Console) -> None:
         console.print("The values within limits form more than one stretch:", markup=False)
     if result.intervals:
         stretches = Table(title=f"{result.variable} within limits ({result.unit})", title_justify="left")
-        stretches.add_column("from", justify="right")
-        stretches.add_column("to", justify="right")
+        stretches.add_column("within limits")
         for interval in result.intervals:
-            stretches.add_row(fmt(interval.low, result.unit, "up", with_unit=False),
-                              fmt(interval.high, result.unit, "down", with_unit=False))
+            stretches.add_row(stretch_text(interval.low, interval.high, result.unit))
         console.print(stretches)
         console.print(Text("Stretches are rounded inward: the ends shown are within limits.", style="dim"))
     if result.check is not None:
         console.print(_conditions_table(result.check))
+        verdict = "The loading at this answer is within limits." if result.check.ok else "The loading is NOT within limits:"
+        console.print(Text(verdict, style=_OK_STYLE if result.check.ok else _LIMIT_STYLE))
+        for finding in result.check.findings:
+            if finding.severity == "limit":
+                console.print(f"  LIMIT {finding.message}", markup=False)
     console.print(caution_text(result.caution))
 
 
@@ -296,10 +288,7 @@ def render_table(aircraft: Aircraft, rows: list[TableRow], station: str, console
     table.add_column(f"Ramp fuel within limits ({units.fuel_volume})")
     for row in rows:
         most = "none" if row.most is None else fmt(row.most, units.fuel_volume, "down", with_unit=False)
-        stretches = ", ".join(
-            f"{fmt(i.low, units.fuel_volume, 'up', with_unit=False)} to {fmt(i.high, units.fuel_volume, 'down', with_unit=False)}"
-            for i in row.intervals
-        ) or "none"
+        stretches = ", ".join(stretch_text(i.low, i.high, units.fuel_volume) for i in row.intervals) or "none"
         table.add_row(fmt(row.payload, units.mass, with_unit=False), most, stretches)
     console.print(table)
     from ..caution import PILOT_CAUTION
@@ -395,40 +384,47 @@ def render_alteration(result: Any, units: Any, console: Console) -> None:
 
 
 def render_extremes(result: Any, console: Console) -> None:
-    """Print the forward and rearward extreme loadings, each with its moment table and verdict."""
+    """Print the forward and rearward extreme loadings, each with its moment table, fuel range and verdict."""
     console.print(Text(f"Weight and balance extremes of {result.aircraft} ({result.category} category)", style="bold"))
     for case in (result.forward, result.rearward):
         console.print(Text(f"Most {case.side} loading (sorted against the {case.side} limit "
                            f"{fmt(case.limit_arm, case.check.units.arm)})", style="bold"))
         for note in case.notes:
             console.print(f"  {note}", markup=False)
+        console.print(f"  fuel states checked: {case.fuel_states}", markup=False)
         console.print(_moment_table(case.check))
+        console.print(_conditions_table(case.check))
         ramp = case.check.condition("ramp")
         words = "within limits" if case.ok else "NOT within limits"
         console.print(Text(f"{case.side} extreme: {fmt(ramp.weight, case.check.units.mass)} at CG "
                            f"{fmt(ramp.arm, case.check.units.arm)}: {words}", style=_OK_STYLE if case.ok else _LIMIT_STYLE))
         for finding in case.check.findings:
-            if finding.severity == "limit" and finding.condition in ("ramp", None):
+            if finding.severity == "limit":
                 console.print(f"  LIMIT {finding.message}", markup=False)
     console.print(caution_text(result.caution))
 
 
-def render_schedule(cases: list[Any], aircraft: Aircraft, console: Console, caution: str) -> None:
-    """Print the three loading conditions of AC 43.13-1B 10-18."""
+def render_schedule(result: Any, aircraft: Aircraft, console: Console) -> None:
+    """Print the three loading conditions of AC 43.13-1B 10-18, each with the fuel range it holds over."""
     units = aircraft.units
-    for case in cases:
+    for case in result.cases:
         console.print(Text(case.question[:1].upper() + case.question[1:], style="bold"))
         for note in case.notes:
             console.print(f"  {note}", markup=False)
         seats = ", ".join(f"{aircraft.stations[s].name}: {n}" for s, n in case.occupants.items()) or "none"
         console.print(f"  occupants: {seats}", markup=False)
         other = [f"{aircraft.stations[s].name} {fmt(w, units.mass, 'down')}" for s, w in case.load.items()
-                 if aircraft.stations[s].kind != "seat"]
-        console.print(f"  baggage and cargo: {', '.join(other) or 'none'}", markup=False)
+                 if aircraft.stations[s].kind != "seat" and w > 0]
+        console.print(f"  baggage, cargo and fixed items: {', '.join(other) or 'none'}", markup=False)
         fuel = ", ".join(f"{aircraft.tanks[t].name} {fmt(q, units.fuel_volume, 'down')}" for t, q in case.fuel.items())
         console.print(f"  fuel: {fuel or 'none'}", markup=False)
+        console.print(f"  fuel states checked: {case.fuel_states}", markup=False)
         console.print(_conditions_table(case.check))
-    console.print(caution_text(caution))
+        console.print(Text("  within limits" if case.ok else "  NOT within limits", style=_OK_STYLE if case.ok else _LIMIT_STYLE))
+        for finding in case.check.findings:
+            if finding.severity == "limit":
+                console.print(f"  LIMIT {finding.message}", markup=False)
+    console.print(caution_text(result.caution))
 
 
 def render_fleet(flights: list[Any], console: Console) -> None:

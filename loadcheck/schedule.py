@@ -1,0 +1,229 @@
+"""The loading schedule: the three loading conditions of AC 43.13-1B paragraph 10-18.
+
+When placards do not settle how an aircraft may be loaded, the schedule answers:
+
+1. with full fuel: how many occupants and how much baggage;
+2. with every seat filled: how much fuel and baggage;
+3. with maximum baggage: how much fuel, how many occupants and where they sit.
+
+Each answer is a placard: it must hold over the whole fuel range it covers, from the fuel
+it states at engine start down to zero usable fuel, every tank burning in proportion to
+its fuel. So each case is built and checked as a flight that burns all of its fuel
+(taxi none, trip everything): the full check (:func:`~loadcheck.check.check_loading`)
+then covers the stated fuel, the whole burn and the zero-fuel state as limits. Stations
+with a minimum weight (a fixed item such as engine oil listed as a station) carry it in
+every case. The case's verdict is that check's verdict.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field, replace
+
+from .aircraft import Aircraft
+from .caution import MECHANIC_CAUTION
+from .check import check_loading
+from .display import fmt
+from .extremes import seat_order, standard_occupant
+from .loading import BurnPlan, ResolvedLoading
+from .planning import most_fuel, most_payload, safe_value
+from .results import CheckResult, Result
+
+__all__ = ["ScheduleCase", "ScheduleResult", "loading_schedule"]
+
+
+@dataclass(frozen=True, kw_only=True, slots=True)
+class ScheduleCase(Result):
+    """One of the three loading conditions of AC 43.13-1B 10-18.
+
+    Attributes
+    ----------
+    question : the condition, in words
+    ok : the case's loading passes the full check over the fuel range it covers
+    occupants : occupants per seat station [count]
+    load : weight per station [mass unit]
+    fuel : quantity per tank at engine start [fuel volume unit]
+    fuel_states : the fuel states the answer was checked at, in words
+    check : the full check of the case, burning all its fuel
+    notes : how the case was built
+    """
+
+    question: str
+    ok: bool
+    occupants: dict[str, int]
+    load: dict[str, float]
+    fuel: dict[str, float]
+    fuel_states: str
+    check: CheckResult
+    notes: list[str] = field(default_factory=list)
+
+
+@dataclass(frozen=True, kw_only=True, slots=True)
+class ScheduleResult(Result):
+    """The loading schedule: ``ok`` when every case's loading is within limits."""
+
+    aircraft: str
+    category: str
+    occupant_weight: float
+    ok: bool
+    cases: list[ScheduleCase]
+    caution: str = MECHANIC_CAUTION
+
+
+def _with(loading: ResolvedLoading, **changes: object) -> ResolvedLoading:
+    return replace(loading, **changes)  # type: ignore[arg-type]
+
+
+def _placard(aircraft: Aircraft, category: str, stations: dict[str, float], fuel: dict[str, float]) -> ResolvedLoading:
+    """A loading that burns every drop of its fuel, tanks together: its check covers every
+    fuel state from engine start down to zero usable fuel."""
+    density = {t.id: aircraft.density(t) for t in aircraft.tank}
+    full = {t.id: fuel.get(t.id, 0.0) for t in aircraft.tank}
+    plan = BurnPlan(full, None)
+    return ResolvedLoading(category, dict(stations), full, density, 0.0, plan.burnable, None, plan)
+
+
+def _minimum_stations(aircraft: Aircraft) -> dict[str, float]:
+    """Every station at its minimum weight (fixed items, minimum crew weight) [mass unit]."""
+    return {s.id: s.min_weight for s in aircraft.station if s.min_weight}
+
+
+def _add(loading: ResolvedLoading, station: str, weight: float) -> ResolvedLoading:
+    return _with(loading, stations={**loading.stations, station: loading.stations.get(station, 0.0) + weight})
+
+
+def _refuel(aircraft: Aircraft, loading: ResolvedLoading, total: float) -> ResolvedLoading:
+    """The same stations with ``total`` fuel, tanks in proportion to capacity, burning it all."""
+    capacity = sum(t.usable for t in aircraft.tank)
+    fuel = {t.id: (min(total / capacity, 1.0) * t.usable if capacity else 0.0) for t in aircraft.tank}
+    return _placard(aircraft, loading.category, loading.stations, fuel)
+
+
+def _seat(aircraft: Aircraft, loading: ResolvedLoading, occupant: float, *, pilot_aboard: bool
+          ) -> tuple[ResolvedLoading, dict[str, int]]:
+    """Seat occupants one at a time, pilot's seat first, while the loading stays within limits.
+
+    The pilot is seated even where the loading is then out of limits (no flight without a
+    pilot; the case then fails and says so), unless ``pilot_aboard`` says the pilot is in
+    the loading already.
+    """
+    counts: dict[str, int] = {}
+    first = not pilot_aboard
+    for station_id in seat_order(aircraft):
+        for _ in range(aircraft.stations[station_id].seats or 1):
+            trial = _add(loading, station_id, occupant)
+            if not first and not check_loading(aircraft, trial).ok:
+                return loading, counts
+            loading, first = trial, False
+            counts[station_id] = counts.get(station_id, 0) + 1
+    return loading, counts
+
+
+def _fill_baggage(aircraft: Aircraft, loading: ResolvedLoading) -> ResolvedLoading:
+    """The most each baggage or cargo station takes, one after another, within every limit."""
+    for station in aircraft.station:
+        if station.kind not in ("baggage", "cargo"):
+            continue
+        answer = most_payload(aircraft, loading, station.id)
+        if answer.feasible and answer.answer is not None:
+            low = answer.intervals[-1].low
+            loading = _with(loading, stations={**loading.stations,
+                                               station.id: safe_value(low, answer.answer, aircraft.units.mass, "down")[0]})
+    return loading
+
+
+def _most_fuel(aircraft: Aircraft, loading: ResolvedLoading) -> ResolvedLoading | None:
+    """The loading with the most fuel (tanks in proportion) for which it holds down to zero fuel."""
+    answer = most_fuel(aircraft, loading, burn_to=0.0)
+    if not answer.feasible or answer.answer is None:
+        return None
+    return _refuel(aircraft, loading, safe_value(answer.intervals[-1].low, answer.answer, aircraft.units.fuel_volume,
+                                                 "down")[0])
+
+
+def _case(aircraft: Aircraft, question: str, loading: ResolvedLoading, occupants: dict[str, int],
+          notes: list[str]) -> ScheduleCase:
+    check = replace(check_loading(aircraft, loading), caution=MECHANIC_CAUTION)
+    volume = aircraft.units.fuel_volume
+    start = sum(loading.fuel.values())
+    states = (f"from {fmt(start, volume, 'down')} at engine start down to zero usable fuel, every tank burning in "
+              "proportion to its fuel" if start > 0 else "with no usable fuel")
+    if not check.ok:
+        notes = [*notes, "this loading is NOT within limits over that fuel range: see the findings"]
+    return ScheduleCase(question=question, ok=check.ok, occupants=occupants, load=dict(loading.stations),
+                        fuel=dict(loading.fuel), fuel_states=states, check=check, notes=notes)
+
+
+def loading_schedule(aircraft: Aircraft, *, category: str | None = None,
+                     occupant_weight: float | None = None) -> ScheduleResult:
+    """AC 43.13-1B paragraph 10-18: the three loading conditions to settle when placards do not.
+
+    Occupants are seated one at a time at the standard occupant weight, the pilot's seat
+    first, while the loading stays within every limit; baggage is then the most each
+    baggage station takes; fuel is the most the tanks take in proportion to capacity. Every
+    case is checked burning all its fuel, so it holds from the fuel it states down to zero
+    usable fuel.
+
+    Parameters
+    ----------
+    category : envelope category (default the aircraft's first)
+    occupant_weight : standard occupant [mass unit]; default the aircraft file's, else
+        170 lb (AC 43.13-1B figures 10-10 to 10-14)
+
+    Returns
+    -------
+    ScheduleResult
+        ``ok`` is false where some case's loading is not within limits.
+    """
+    chosen = aircraft.category(category)
+    occupant = standard_occupant(aircraft, occupant_weight)
+    mass = aircraft.units.mass
+    fixed = _minimum_stations(aircraft)
+    fixed_note = ([f"stations at their minimum weight: {', '.join(aircraft.stations[s].name for s in fixed)}"]
+                  if fixed else [])
+    cases = []
+
+    # 1. full fuel: occupants, then baggage
+    full = _placard(aircraft, chosen, fixed, {t.id: t.usable for t in aircraft.tank})
+    seated, counts = _seat(aircraft, full, occupant, pilot_aboard=False)
+    cases.append(_case(aircraft, "with full fuel: occupants and baggage", _fill_baggage(aircraft, seated), counts,
+                       [f"occupants at {occupant:g} {mass} each", *fixed_note]))
+
+    # 2. every seat filled: fuel, then baggage
+    everyone = _placard(aircraft, chosen, fixed, {})
+    counts = {}
+    for station_id in seat_order(aircraft):
+        counts[station_id] = aircraft.stations[station_id].seats or 1
+        everyone = _add(everyone, station_id, counts[station_id] * occupant)
+    notes = [f"every seat filled at {occupant:g} {mass}", *fixed_note]
+    fuelled = _most_fuel(aircraft, everyone)
+    if fuelled is None:
+        notes.append("no fuel load is within limits with every seat filled")
+        cases.append(_case(aircraft, "with every seat filled: fuel and baggage", everyone, counts, notes))
+    else:
+        cases.append(_case(aircraft, "with every seat filled: fuel and baggage", _fill_baggage(aircraft, fuelled),
+                           counts, notes))
+
+    # 3. maximum baggage: fuel, then occupants
+    bags = _placard(aircraft, chosen, fixed, {})
+    for station in aircraft.station:
+        if station.kind in ("baggage", "cargo") and station.max_weight is not None:
+            room = station.max_weight - bags.stations.get(station.id, 0.0)
+            for group in aircraft.station_group:
+                if station.id in group.stations and group.max_weight is not None:
+                    room = min(room, group.max_weight - sum(bags.stations.get(s, 0.0) for s in group.stations))
+            if room > 0:
+                bags = _add(bags, station.id, room)
+    pilot = seat_order(aircraft)[:1]
+    with_pilot = _add(bags, pilot[0], occupant) if pilot else bags
+    notes = ["baggage at each station's maximum (within group limits); the pilot aboard", *fixed_note]
+    fuelled = _most_fuel(aircraft, with_pilot)
+    if fuelled is None:
+        notes.append("no fuel load is within limits with maximum baggage")
+        cases.append(_case(aircraft, "with maximum baggage: fuel and occupants", with_pilot, {pilot[0]: 1} if pilot else {},
+                           notes))
+    else:
+        seated, counts = _seat(aircraft, _refuel(aircraft, bags, sum(fuelled.fuel.values())), occupant, pilot_aboard=False)
+        cases.append(_case(aircraft, "with maximum baggage: fuel and occupants", seated, counts, notes))
+    return ScheduleResult(aircraft=aircraft.name, category=chosen, occupant_weight=occupant,
+                          ok=all(c.ok for c in cases), cases=cases)
+

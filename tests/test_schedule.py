@@ -1,0 +1,148 @@
+"""The loading schedule (AC 43.13-1B 10-18): published figures, one verdict, the fuel range.
+
+Sources named beside each check:
+- AC 43.13-1B (1998) chapter 10, figures 10-12 to 10-14 (the three loading conditions of
+  the example aircraft in tests/helpers.py: ac_example_aircraft).
+"""
+
+from __future__ import annotations
+
+import json
+
+import numpy as np
+import pytest
+from typer.testing import CliRunner
+
+from loadcheck import load_aircraft
+from loadcheck.caution import MECHANIC_CAUTION
+from loadcheck.check import check_loading
+from loadcheck.cli import app
+from loadcheck.loading import BurnPlan, ResolvedLoading
+from loadcheck.schedule import loading_schedule
+
+from .helpers import ac_example_aircraft, sample, simple_aircraft
+
+runner = CliRunner()
+
+
+def test_ac_43_13_1b_figures_10_12_to_10_14_loading_schedule():
+    aircraft = ac_example_aircraft()
+    full_fuel, all_seats, max_baggage = loading_schedule(aircraft).cases
+    # figure 10-12: with full fuel, the pilot, two passengers and 100 lb of baggage (2,036 lb).
+    # The AC seats both passengers behind; we seat the second in front: the same count and
+    # baggage, and both loadings are within limits.
+    assert full_fuel.fuel == {"main": 40.0}
+    assert sum(full_fuel.occupants.values()) == 3 and full_fuel.load["bag"] == pytest.approx(100.0)
+    assert full_fuel.check.condition("ramp").weight == pytest.approx(2036.0) and full_fuel.check.ok
+    # figure 10-13: with every seat filled, 39 US gal of fuel and no baggage: 2,100 lb, 38,466 in-lb.
+    # The figure prints the CG as +18.6 in, which does not follow from its own totals:
+    # 38,466 / 2,100 = 18.32 in. We check the totals and their quotient.
+    assert all_seats.occupants == {"front": 2, "rear": 2}
+    assert all_seats.fuel["main"] == pytest.approx(39.0, abs=0.1)
+    assert all_seats.load.get("bag", 0.0) == pytest.approx(0.0, abs=0.1)
+    ramp = all_seats.check.condition("ramp")
+    assert ramp.weight == pytest.approx(2100.0, abs=0.6) and ramp.moment == pytest.approx(38466.0, abs=1.0)
+    assert ramp.arm == pytest.approx(38466.0 / 2100.0, abs=0.01)
+    # figure 10-14: with maximum baggage, full fuel and two passengers, one front and one rear:
+    # 2,036 lb, 37,988 in-lb, CG 18.7 in
+    assert max_baggage.fuel == {"main": 40.0}
+    assert max_baggage.occupants == {"front": 2, "rear": 1}
+    ramp = max_baggage.check.condition("ramp")
+    assert ramp.weight == pytest.approx(2036.0) and ramp.moment == pytest.approx(37988.0, abs=1.0)
+    assert round(ramp.arm, 1) == 18.7
+
+
+def _static(aircraft, case, share: float) -> bool:
+    """The case's loading started with ``share`` of its fuel (tanks in proportion) and flown
+    until the tanks are dry: every condition and the whole burn from that fuel state."""
+    fuel = {t: q * share for t, q in case.fuel.items()}
+    density = {t.id: aircraft.density(t) for t in aircraft.tank}
+    plan = BurnPlan(fuel, None)
+    loading = ResolvedLoading(case.check.category, dict(case.load), fuel, density, 0.0, plan.burnable, None, plan)
+    return check_loading(aircraft, loading).ok
+
+
+def _aft_moving():
+    """An aircraft whose CG moves aft as fuel burns: the tank is far forward of the CG."""
+    return simple_aircraft(
+        empty={"weight": 1000.0, "arm": 42.0},
+        limits={"max_takeoff_weight": 1900.0, "max_landing_weight": 1750.0},
+        station=[{"id": "front", "arm": 38.0, "kind": "seat", "controls": True, "seats": 2},
+                 {"id": "rear", "arm": 60.0, "kind": "seat", "seats": 2},
+                 {"id": "bag", "arm": 80.0, "kind": "baggage", "max_weight": 150.0}],
+        tank=[{"id": "main", "arm": 20.0, "usable": 50.0, "fuel": "avgas"}],
+        envelope=[{"category": "normal", "axes": ["arm", "weight"],
+                   "points": [[33.0, 900], [33.0, 1900], [47.0, 1900], [47.0, 900]]}],
+    )
+
+
+def test_schedule_holds_as_the_fuel_is_burned():
+    # regression: the full-fuel case was checked only at full fuel; with an ordinary burn
+    # the CG went aft of the limit at takeoff and landing
+    aircraft = _aft_moving()
+    result = loading_schedule(aircraft)
+    for case in result.cases:
+        assert case.ok == case.check.ok
+        if case.ok:
+            assert "down to zero usable fuel" in case.fuel_states
+            assert all(_static(aircraft, case, share) for share in np.linspace(0.0, 1.0, 21))
+
+
+def test_schedule_is_not_capped_by_the_landing_weight_at_full_fuel():
+    # regression: landing was taken at full fuel, so every answer was capped by the maximum landing weight
+    aircraft = _aft_moving()
+    full = loading_schedule(aircraft).cases[0]
+    assert full.ok and full.check.condition("ramp").weight > 1750.0
+
+
+def test_schedule_with_a_fixed_weight_station():
+    # regression: a station with min_weight = max_weight (engine oil as its own line, as
+    # AC 43.13-1B figures 10-10 to 10-14 list it) left every case empty, while the tables
+    # said "within" and the command exited 0
+    aircraft = simple_aircraft(
+        empty={"weight": 1169.0, "arm": 10.6}, limits={"max_takeoff_weight": 2100.0}, max_continuous_power_hp=165,
+        station=[{"id": "oil", "arm": -49.0, "kind": "other", "min_weight": 17.0, "max_weight": 17.0},
+                 {"id": "front", "arm": 16.0, "kind": "seat", "seats": 2, "controls": True},
+                 {"id": "rear", "arm": 48.0, "kind": "seat", "seats": 2},
+                 {"id": "bag", "arm": 75.5, "kind": "baggage", "max_weight": 100.0}],
+        tank=[{"id": "main", "arm": 22.0, "usable": 40.0, "fuel": "avgas"}],
+        envelope=[{"category": "normal", "axes": ["arm", "weight"],
+                   "points": [[8.5, 1000], [8.5, 2100], [21.9, 2100], [21.9, 1000]]}],
+    )
+    result = loading_schedule(aircraft)
+    assert result.ok and all(case.ok for case in result.cases)
+    assert all(case.load["oil"] == 17.0 for case in result.cases)
+    # the same answers as the published case with the oil inside the empty weight
+    published = loading_schedule(ac_example_aircraft())
+    for ours, theirs in zip(result.cases, published.cases, strict=True):
+        assert ours.occupants == theirs.occupants
+        assert ours.check.condition("ramp").weight == pytest.approx(theirs.check.condition("ramp").weight, abs=0.6)
+
+
+def test_schedule_answers_are_within_limits_and_maximal():
+    aircraft = load_aircraft(sample("twin6/aircraft.toml"))
+    result = loading_schedule(aircraft)
+    assert [c.ok for c in result.cases] == [c.check.ok for c in result.cases]
+    full_fuel = result.cases[0]
+    assert full_fuel.fuel == {"mains": 100.0, "aux": 40.0}
+    # one more occupant anywhere breaks a limit somewhere over the fuel range
+    density = {t.id: aircraft.density(t) for t in aircraft.tank}
+    for station in ("row1", "row2", "row3"):
+        if full_fuel.occupants.get(station, 0) >= (aircraft.stations[station].seats or 1):
+            continue
+        load = dict(full_fuel.load)
+        load[station] = load.get(station, 0.0) + 170.0
+        plan = BurnPlan(full_fuel.fuel, None)
+        trial = ResolvedLoading("normal", load, full_fuel.fuel, density, 0.0, plan.burnable, None, plan)
+        assert not check_loading(aircraft, trial).ok
+
+
+def test_schedule_command_verdict_json_and_caution():
+    out = runner.invoke(app, ["schedule", str(sample("twin6/aircraft.toml")), "--json"])
+    data = json.loads(out.stdout)
+    assert out.exit_code == (0 if data["ok"] else 1)
+    assert data["ok"] == all(case["ok"] and case["check"]["ok"] for case in data["cases"])
+    assert data["caution"] == MECHANIC_CAUTION and all(c["check"]["caution"] == MECHANIC_CAUTION for c in data["cases"])
+    text = runner.invoke(app, ["schedule", str(sample("twin6/aircraft.toml"))])
+    assert "With full fuel" in text.output and "fuel states checked" in text.output
+    assert text.exit_code == out.exit_code
