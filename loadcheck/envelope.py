@@ -1,9 +1,9 @@
 """CG envelope geometry: containment, limits at a weight, and the fuel-burn path.
 
-An envelope is a polygon on two of the axes ``arm``, ``moment`` (read as moment /
-moment_scale), ``mac`` (percent of MAC), ``lateral_arm`` and ``weight``. A loading state
-is described by its weight W, moment M and lateral moment L; each axis is a ratio of
-polynomials in those:
+An envelope is a polygon on two of the axes of :data:`AXES`: ``arm``, ``moment`` (read as
+moment / moment_scale), ``mac`` (percent of MAC), ``lateral_arm`` and ``weight``. A loading
+state is described by its weight W, moment M and lateral moment L; each axis is a linear
+combination of W, M and L, divided by W or not:
 
 =============  ==========================  ===========
 axis           numerator                   denominator
@@ -15,7 +15,9 @@ lateral_arm    L                           W
 mac            100 (M - LEMAC W) / MAC     W
 =============  ==========================  ===========
 
-(CG = moment / weight, FAA-H-8083-1B chapter 2; percent MAC, same chapter.)
+(CG = moment / weight, FAA-H-8083-1B chapter 2; percent MAC, same chapter.) The table is
+data (:class:`AxisSpec`): every computation below reads it, so an axis is added by one
+entry (and its tests).
 
 Limits are inclusive. A point counts as inside when it lies within ``TOLERANCE`` of the
 polygon, measured after scaling each axis by the envelope's extent on it: one part in
@@ -31,7 +33,8 @@ piece at its middle: an exact test of the curve, not sampling.
 
 from __future__ import annotations
 
-from collections.abc import Sequence
+from collections.abc import Callable, Sequence
+from dataclasses import dataclass
 from typing import TYPE_CHECKING, Literal
 
 import numpy as np
@@ -41,8 +44,10 @@ if TYPE_CHECKING:
     from .aircraft import Mac
 
 __all__ = [
+    "AXES",
     "TOLERANCE",
     "Axis",
+    "AxisSpec",
     "EnvelopeShape",
     "Vary",
     "polygon_problem",
@@ -54,6 +59,43 @@ TOLERANCE = 1e-9
 """Containment tolerance, as a fraction of the envelope's extent on each axis."""
 
 Vary = Literal["arm", "weight", "lateral"]
+
+
+@dataclass(frozen=True)
+class AxisSpec:
+    """One envelope axis: what it is computed from, and how it is named.
+
+    Attributes
+    ----------
+    label : the axis in words, for charts and tables
+    unit : which of the aircraft's units it is in: ``mass``, ``arm``, ``moment`` or ``percent``
+    per_weight : the value is the numerator divided by the weight W
+    lateral : the axis limits the lateral CG
+    coefficients : (a, b, c) of the numerator a W + b M + c L, given the envelope's
+        moment scale and the aircraft's MAC
+    """
+
+    label: str
+    unit: Literal["mass", "arm", "moment", "percent"]
+    per_weight: bool
+    lateral: bool
+    coefficients: Callable[[float, Mac | None], tuple[float, float, float]]
+
+
+def _mac_coefficients(_scale: float, mac: Mac | None) -> tuple[float, float, float]:
+    if mac is None:
+        raise ValueError("a 'mac' axis needs the aircraft's [mac] table")
+    return -100.0 * mac.leading_edge_arm / mac.length, 100.0 / mac.length, 0.0
+
+
+AXES: dict[str, AxisSpec] = {
+    "weight": AxisSpec("Weight", "mass", False, False, lambda _s, _m: (1.0, 0.0, 0.0)),
+    "moment": AxisSpec("Moment", "moment", False, False, lambda s, _m: (0.0, 1.0 / s, 0.0)),
+    "arm": AxisSpec("CG, aft of datum", "arm", True, False, lambda _s, _m: (0.0, 1.0, 0.0)),
+    "lateral_arm": AxisSpec("Lateral CG, + right", "arm", True, True, lambda _s, _m: (0.0, 0.0, 1.0)),
+    "mac": AxisSpec("CG", "percent", True, False, _mac_coefficients),
+}
+"""Every envelope axis: its numerator in W, M and L, its denominator, its name (FAA-H-8083-1B chapter 2)."""
 
 
 def polygon_problem(points: Sequence[Sequence[float]]) -> str | None:
@@ -101,6 +143,8 @@ class EnvelopeShape:
         self.axes = axes
         self.moment_scale = float(moment_scale)
         self.mac = mac
+        self._coefficients = [AXES[a].coefficients(self.moment_scale, mac) for a in axes]
+        self._per_weight = [AXES[a].per_weight for a in axes]
         self.corners = corners
         self.origin = corners.min(axis=0)
         self.span = corners.max(axis=0) - self.origin
@@ -119,8 +163,8 @@ class EnvelopeShape:
 
     @property
     def is_lateral(self) -> bool:
-        """True where one axis is the lateral arm."""
-        return "lateral_arm" in self.axes
+        """True where an axis limits the lateral CG."""
+        return any(AXES[a].lateral for a in self.axes)
 
     @property
     def max_weight(self) -> float | None:
@@ -141,34 +185,27 @@ class EnvelopeShape:
 
         The arm is a linear-fractional function of the axes, so its extremes lie at corners.
         """
-        columns = {axis: self.corners[:, i] for i, axis in enumerate(self.axes)}
-        if "arm" in columns:
-            arms = columns["arm"]
-        elif "mac" in columns:
-            assert self.mac is not None
-            arms = self.mac.leading_edge_arm + columns["mac"] * self.mac.length / 100.0
-        elif "moment" in columns and "weight" in columns:
-            arms = columns["moment"] * self.moment_scale / columns["weight"]
-        else:
+        if self.is_lateral:
             raise ValueError("this envelope does not limit the longitudinal CG")
+        if "arm" in self.axes:
+            arms = self.corners[:, self.axes.index("arm")]
+        else:  # weight and an axis whose numerator is a W + b M (b != 0): M = (value * D - a W) / b
+            k = 1 - self.axes.index("weight")
+            a, b, _ = self._coefficients[k]
+            value, weight = self.corners[:, k], self.corners[:, 1 - k]
+            scale = weight if AXES[self.axes[k]].per_weight else 1.0
+            arms = (value * scale - a * weight) / b / weight
         return float(arms.min()), float(arms.max())
 
-    def _axis(self, axis: str, weight: np.ndarray, moment: np.ndarray, lateral: np.ndarray) -> np.ndarray:
-        if axis == "weight":
-            return weight
-        if axis == "moment":
-            return moment / self.moment_scale
-        if axis == "arm":
-            return moment / weight
-        if axis == "lateral_arm":
-            return lateral / weight
-        assert self.mac is not None
-        return 100.0 * (moment / weight - self.mac.leading_edge_arm) / self.mac.length
+    def _axis(self, k: int, weight: np.ndarray, moment: np.ndarray, lateral: np.ndarray) -> np.ndarray:
+        a, b, c = self._coefficients[k]
+        value = a * weight + b * moment + c * lateral
+        return value / weight if self._per_weight[k] else value
 
     def coords(self, weight: float | np.ndarray, moment: float | np.ndarray, lateral: float | np.ndarray) -> tuple[np.ndarray, np.ndarray]:
         """Envelope coordinates of loading states given by weight, moment, lateral moment."""
         w, m, lat = (np.asarray(v, dtype=float) for v in (weight, moment, lateral))
-        return self._axis(self.axes[0], w, m, lat), self._axis(self.axes[1], w, m, lat)
+        return self._axis(0, w, m, lat), self._axis(1, w, m, lat)
 
     def covers(self, weight: float | np.ndarray, moment: float | np.ndarray, lateral: float | np.ndarray) -> np.ndarray:
         """True where a loading state lies inside or on the envelope (within TOLERANCE)."""
@@ -179,20 +216,12 @@ class EnvelopeShape:
 
     def _at(self, weight: float, arm: float, lateral_arm: float) -> tuple[float, float]:
         """Envelope coordinates of a CG position (arm, lateral arm) at a weight (plain floats)."""
-        x, y = (self._axis_at(a, weight, arm, lateral_arm) for a in self.axes)
-        return x, y
-
-    def _axis_at(self, axis: str, weight: float, arm: float, lateral_arm: float) -> float:
-        if axis == "weight":
-            return weight
-        if axis == "moment":
-            return arm * weight / self.moment_scale
-        if axis == "arm":
-            return arm
-        if axis == "lateral_arm":
-            return lateral_arm
-        assert self.mac is not None
-        return 100.0 * (arm - self.mac.leading_edge_arm) / self.mac.length
+        out = []
+        for k in (0, 1):
+            a, b, c = self._coefficients[k]
+            per_weight = a + b * arm + c * lateral_arm  # the numerator over W
+            out.append(per_weight if self._per_weight[k] else per_weight * weight)
+        return out[0], out[1]
 
     # -- slices ---------------------------------------------------------------------
 
@@ -269,18 +298,10 @@ class EnvelopeShape:
 
     # -- fuel-burn path -------------------------------------------------------------
 
-    def _fraction(self, axis: str, w: np.ndarray, m: np.ndarray, lat: np.ndarray) -> tuple[np.ndarray, bool]:
-        """Numerator coefficients (..., 3) of an axis along a path, and whether its denominator is W."""
-        if axis == "weight":
-            return w, False
-        if axis == "moment":
-            return m / self.moment_scale, False
-        if axis == "arm":
-            return m, True
-        if axis == "lateral_arm":
-            return lat, True
-        assert self.mac is not None
-        return (m - self.mac.leading_edge_arm * w) * (100.0 / self.mac.length), True
+    def _fraction(self, k: int, w: np.ndarray, m: np.ndarray, lat: np.ndarray) -> tuple[np.ndarray, bool]:
+        """Numerator coefficients (..., 3) of axis ``k`` along a path, and whether its denominator is W."""
+        a, b, c = self._coefficients[k]
+        return a * w + b * m + c * lat, self._per_weight[k]
 
     def edge_polynomials(self, w: np.ndarray, m: np.ndarray, lat: np.ndarray) -> np.ndarray:
         """Coefficients (..., 3, E) of "the path meets edge line e", lowest power first.
@@ -295,7 +316,7 @@ class EnvelopeShape:
         weight, or the pair is lateral arm and arm) each basis polynomial is of degree two
         at most, so the condition is a quadratic.
         """
-        (nx, x_over_w), (ny, y_over_w) = (self._fraction(a, w, m, lat) for a in self.axes)
+        (nx, x_over_w), (ny, y_over_w) = (self._fraction(k, w, m, lat) for k in (0, 1))
         one = np.zeros_like(w)
         one[..., 0] = 1.0
         dx = w if x_over_w else one

@@ -135,3 +135,23 @@ def test_crossings_agree_with_dense_sampling():
             mid = 0.5 * (b + e)
             assert not bool(shape.covers(*state(mid)))
         assert ok == (not out and inside[0] and inside[-1])
+
+
+def test_every_axis_is_one_entry_of_the_table():
+    # adding an axis is one entry of loadcheck.envelope.AXES; each entry gives the handbook's
+    # definition: CG = M / W and %MAC = 100 (CG - LEMAC) / MAC (FAA-H-8083-1B chapter 2)
+    from typing import get_args
+
+    from loadcheck.aircraft import Mac
+    from loadcheck.envelope import AXES, Axis
+
+    assert set(get_args(Axis)) == set(AXES)
+    mac = Mac(leading_edge_arm=30.0, length=50.0)
+    w, m, lat = 1500.0, 1500.0 * 42.0, 1500.0 * -1.5
+    expected = {"weight": w, "moment": m / 1000.0, "arm": 42.0, "lateral_arm": -1.5, "mac": 100 * (42.0 - 30.0) / 50.0}
+    for axis, value in expected.items():
+        other = "arm" if axis == "weight" else "weight"
+        shape = EnvelopeShape((axis, other), [[0, 1], [0, 2], [1, 2]], moment_scale=1000.0, mac=mac)
+        x, _ = shape.coords(w, m, lat)
+        assert float(x) == pytest.approx(value, rel=1e-12), axis
+        assert shape.is_lateral == (axis == "lateral_arm")
