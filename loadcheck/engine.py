@@ -170,11 +170,53 @@ def envelope_state(
     top = shape.max_weight
     if condition != "ramp" or top is None:
         return weight, moment, lateral
+    if isinstance(weight, float):
+        factor = top / weight if weight > top else 1.0
+        return weight * factor, moment * factor, lateral * factor
     scale = np.where(np.asarray(weight) > top, top / np.asarray(weight), 1.0)
     if np.ndim(scale) == 0:
         factor = float(scale)
         return weight * factor, moment * factor, lateral * factor
     return weight * scale, moment * scale, lateral * scale
+
+
+@dataclass(frozen=True)
+class _Tables:
+    """An aircraft's rules and arms as arrays, built once per aircraft."""
+
+    arms: np.ndarray
+    lats: np.ndarray
+    tank_lats: np.ndarray
+    usable: np.ndarray
+    density: np.ndarray
+    tank_index: dict[str, int]
+    weights: dict[str, list[tuple[str, float]]]
+    loads: list[LoadLimit]
+
+
+_TABLES: dict[int, tuple[Aircraft, _Tables]] = {}
+_TABLES_KEPT = 64
+
+
+def _tables(aircraft: Aircraft) -> _Tables:
+    """The aircraft's tables (an aircraft model is immutable, so they are kept for it)."""
+    kept = _TABLES.get(id(aircraft))
+    if kept is not None and kept[0] is aircraft:
+        return kept[1]
+    tables = _Tables(
+        arms=np.array([s.arm for s in aircraft.station], dtype=float),
+        lats=np.array([s.lateral_arm or 0.0 for s in aircraft.station], dtype=float),
+        tank_lats=np.array([t.lateral_arm or 0.0 for t in aircraft.tank], dtype=float),
+        usable=np.array([t.usable for t in aircraft.tank], dtype=float),
+        density=np.array([aircraft.density(t) for t in aircraft.tank], dtype=float),
+        tank_index={t.id: i for i, t in enumerate(aircraft.tank)},
+        weights=weight_limits(aircraft),
+        loads=load_limits(aircraft),
+    )
+    if len(_TABLES) >= _TABLES_KEPT:
+        _TABLES.pop(next(iter(_TABLES)))
+    _TABLES[id(aircraft)] = (aircraft, tables)
+    return tables
 
 
 # -- fuel ---------------------------------------------------------------------------------
@@ -446,10 +488,10 @@ def _evaluate(
     trip = np.array(trip, dtype=float)
     category = aircraft.category(category)
     envelopes = aircraft.envelopes_for(category)
-    tank_index = {t.id: i for i, t in enumerate(aircraft.tank)}
-    order_index = None if order is None else [tank_index[t] for t in order]
-    rho = np.array(density if density is not None else [aircraft.density(t) for t in aircraft.tank], dtype=float)
-    usable = np.array([t.usable for t in aircraft.tank], dtype=float)
+    tables = _tables(aircraft)
+    order_index = None if order is None else [tables.tank_index[t] for t in order]
+    rho = tables.density if density is None else np.asarray(density, dtype=float)
+    usable = tables.usable
     burnable = fuel.sum(axis=1) if order_index is None else fuel[:, order_index].sum(axis=1)
 
     finite = np.isfinite(stations).all(axis=1) & np.isfinite(fuel).all(axis=1) & np.isfinite(taxi) & np.isfinite(trip)
@@ -470,9 +512,7 @@ def _evaluate(
 
     # payload: empty weight and every station (the zero-fuel state)
     empty = aircraft.empty
-    arms = np.array([s.arm for s in aircraft.station], dtype=float)
-    lats = np.array([s.lateral_arm or 0.0 for s in aircraft.station], dtype=float)
-    tank_lats = np.array([t.lateral_arm or 0.0 for t in aircraft.tank], dtype=float)
+    arms, lats, tank_lats = tables.arms, tables.lats, tables.tank_lats
     pay_w = empty.weight + stations.sum(axis=1)
     pay_m = empty.weight * empty.arm + stations @ arms
     pay_l = empty.weight * (empty.lateral_arm or 0.0) + stations @ lats
@@ -494,7 +534,7 @@ def _evaluate(
         quantities[name] = q[:, k]
 
     limits = aircraft.limits
-    table = weight_limits(aircraft)
+    table = tables.weights
     limit_ok: dict[str, np.ndarray] = {}
     weight_ok: dict[str, list[np.ndarray]] = {}
     minimum_ok: dict[str, np.ndarray] = {}
@@ -523,7 +563,7 @@ def _evaluate(
         name: np.logical_and.reduce(weight_ok[name] + [minimum_ok[name], envelope_ok[name]]) for name in CONDITIONS
     }
 
-    rules = load_limits(aircraft)
+    rules = tables.loads
     load_exceeded = np.zeros((n, len(rules)), dtype=bool)
     for column, rule in enumerate(rules):
         load_exceeded[:, column] = rule.exceeded(stations[:, list(rule.members)].sum(axis=1))
@@ -621,19 +661,17 @@ def path_states(
     weight, moment, lateral : (K,) [mass unit, mass unit * arm unit]
     quantities : (K, T) [fuel volume unit]
     """
-    tank_index = {t.id: i for i, t in enumerate(aircraft.tank)}
-    order_index = None if order is None else [tank_index[t] for t in order]
-    rho = np.array(density if density is not None else [aircraft.density(t) for t in aircraft.tank], dtype=float)
+    tables = _tables(aircraft)
+    order_index = None if order is None else [tables.tank_index[t] for t in order]
+    rho = tables.density if density is None else np.asarray(density, dtype=float)
     empty = aircraft.empty
     stations = np.asarray(stations, dtype=float)
     pay_w = empty.weight + stations.sum()
-    pay_m = empty.weight * empty.arm + stations @ np.array([s.arm for s in aircraft.station], dtype=float)
-    pay_l = empty.weight * (empty.lateral_arm or 0.0) + stations @ np.array(
-        [s.lateral_arm or 0.0 for s in aircraft.station], dtype=float)
+    pay_m = empty.weight * empty.arm + stations @ tables.arms
+    pay_l = empty.weight * (empty.lateral_arm or 0.0) + stations @ tables.lats
     q = tank_quantities(np.asarray(fuel, dtype=float)[None, :], np.asarray(burned, dtype=float)[None, :], order_index)[0]
     mass = q * rho
-    tank_lats = np.array([t.lateral_arm or 0.0 for t in aircraft.tank], dtype=float)
-    return (pay_w + mass.sum(axis=1), pay_m + (mass * _tank_arms(aircraft, q)).sum(axis=1), pay_l + mass @ tank_lats, q)
+    return (pay_w + mass.sum(axis=1), pay_m + (mass * _tank_arms(aircraft, q)).sum(axis=1), pay_l + mass @ tables.tank_lats, q)
 
 
 def _covers(envelope: Envelope, weight: np.ndarray, moment: np.ndarray, lateral: np.ndarray) -> np.ndarray:

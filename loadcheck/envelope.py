@@ -157,6 +157,8 @@ class EnvelopeShape:
         # weights of the edge-crossing polynomial's basis (see loadcheck.engine)
         self.edge_weights = np.stack([y2 - y1, (x2 - x1) * y1 - (y2 - y1) * x1, -(x2 - x1)])  # (3, n)
         self.covering = shapely.Polygon(normal).buffer(TOLERANCE, quad_segs=16)
+        column = corners[:, axes.index("weight")] if "weight" in axes else None
+        self._weight_range = None if column is None else (float(column.min()), float(column.max()))
         shapely.prepare(self.covering)
 
     # -- coordinates ----------------------------------------------------------------
@@ -175,10 +177,7 @@ class EnvelopeShape:
     @property
     def weight_range(self) -> tuple[float, float] | None:
         """Lowest and highest weight of the polygon, where weight is an axis [mass unit]."""
-        if "weight" not in self.axes:
-            return None
-        column = self.corners[:, self.axes.index("weight")]
-        return float(column.min()), float(column.max())
+        return self._weight_range
 
     def arm_range(self) -> tuple[float, float]:
         """Most forward and most rearward CG arm anywhere on the envelope [arm unit].

@@ -510,10 +510,12 @@ def fuel_to_leave(aircraft: Aircraft, loading: ResolvedLoading, station: str, pa
         aircraft, pairs, unit,
         at=lambda leave: _fuel_loading(aircraft, with_payload, order, now - leave),
         question=question, variable="fuel left behind", direction="up",
-        why_not=lambda: (fuel.governing or "" if not fuel.intervals else
-                         f"the fuel taken would have to be more than the {now:,.1f} {unit} in the loading: "
-                         f"with that payload the ramp fuel within limits is "
-                         + ", ".join(stretch_text(i.low, i.high, unit) for i in fuel.intervals)),
+        why_not=lambda: (
+            f"with that payload no ramp fuel that covers taxi and trip ({fmt(loading.taxi + loading.trip, unit)}) "
+            f"is within limits: {fuel.governing}" if not fuel.intervals else
+            f"the fuel taken would have to be more than the {now:,.1f} {unit} in the loading: "
+            "with that payload the ramp fuel within limits is "
+            + ", ".join(stretch_text(i.low, i.high, unit) for i in fuel.intervals)),
     )
     extra = {"ramp fuel in the loading": f"{now:,.1f} {unit}"}
     if result.feasible and result.check is not None:

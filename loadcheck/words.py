@@ -192,7 +192,7 @@ def stretch_text(low: float, high: float, unit: str) -> str:
     while round_safe(low, places, "up") > round_safe(high, places, "down") and places < decimals(unit) + _EXTRA_DIGITS:
         places += 1
     lo, hi = round_safe(low, places, "up"), round_safe(high, places, "down")
-    if lo > hi or hi - low <= 0:
+    if lo >= hi or hi - low <= 0:
         return f"only {round_safe(low, places, 'nearest'):,.{places}f} {unit}"
     return f"{lo:,.{places}f} to {hi:,.{places}f} {unit}"
 

@@ -4,6 +4,8 @@ weight-shift example, the two-stretch case and impossible requests."""
 from __future__ import annotations
 
 import json
+import tempfile
+from pathlib import Path
 
 import numpy as np
 import pytest
@@ -194,3 +196,88 @@ def test_plan_table_and_chart(tmp_path):
     table = json.loads(as_json.stdout)
     assert table["station"] == "rear" and len(table["rows"]) == 3
     assert table["units"]["mass"] == "lb" and "flight manual" in table["caution"]
+
+
+# -- one verdict: regressions of answers the full check rejected ------------------------------
+
+
+def test_plan_leave_answers_fuel_left_behind_not_ramp_fuel():
+    # regression: the stretches labelled "fuel left behind" were stretches of ramp fuel;
+    # leaving behind what a stretch allowed put the aircraft over its maximum ramp weight
+    inputs = load_check_inputs(sample("twin6/within.toml"))
+    aircraft, loading = inputs.aircraft, inputs.loading
+    now = sum(loading.fuel.values())
+    answer = P.fuel_to_leave(aircraft, loading, "row3", 300.0)
+    assert answer.feasible and answer.check.ok
+    assert all(0.0 <= i.low <= i.high <= now for i in answer.intervals)
+    ramp = answer.check.condition("ramp")
+    assert ramp.weight <= aircraft.limits.ramp
+    assert ramp.fuel == pytest.approx(now - float(answer.answer_display.split()[0]), abs=1e-6)
+    with_payload = P._with(loading, stations={**loading.stations, "row3": 300.0})
+    for interval in answer.intervals:  # every amount the answer allows leaving behind is within limits
+        for leave in (interval.low, interval.high, 0.5 * (interval.low + interval.high)):
+            assert _ok(aircraft, P._fuel_loading(aircraft, with_payload, ["mains", "aux"], now - leave))
+    # leaving less than the answer is not enough
+    assert not _ok(aircraft, P._fuel_loading(aircraft, with_payload, ["mains", "aux"], now - answer.answer + 0.2))
+
+
+def test_plan_shift_to_a_target_respects_the_seat_maximum():
+    # regression: a shift to a target CG proposed 332.9 lb for a seat whose maximum is
+    # 250 lb, exited 0 and said nothing about the seat
+    aircraft = parse_aircraft({
+        "name": "Shift box", "units": {"mass": "lb", "arm": "in", "fuel_volume": "usgal"},
+        "empty": {"weight": 1200.0, "arm": 40.0}, "limits": {"max_takeoff_weight": 2200},
+        "station": [{"id": "front", "arm": 37.0, "kind": "seat", "max_weight": 400},
+                    {"id": "rear", "arm": 73.0, "kind": "seat", "max_weight": 250}],
+        "envelope": [{"category": "normal", "axes": ["arm", "weight"], "points": [[30, 1000], [30, 2200], [55, 2200], [55, 1000]]}],
+    })
+    loading = resolve_loading(Loading(load={"front": 400, "rear": 0}), aircraft)
+    answer = P.weight_shift(aircraft, loading, "front", "rear", target_arm=46.0)
+    assert not answer.feasible and "maximum" in answer.answer_display and "rear" in answer.answer_display
+    assert answer.check is not None and not answer.check.ok
+    path = Path(tempfile.mkdtemp()) / "shift.toml"
+    path.write_text('format = 1\n[load]\nfront = 400\n')
+    files = Path(path.parent / "box.toml")
+    files.write_text(_toml_of(aircraft))
+    out = runner.invoke(app, ["plan", "shift", str(files), str(path), "--from", "front", "--to", "rear", "--target", "46"])
+    assert out.exit_code == 1 and "maximum" in out.output and "within limits." not in out.output
+
+
+def _toml_of(aircraft) -> str:
+    import tomlkit
+
+    return tomlkit.dumps(aircraft.model_dump(mode="json", exclude_none=True, exclude_defaults=True))
+
+
+def test_plan_reason_for_a_station_over_its_maximum_is_that_station():
+    # regression: a station over its own maximum was reported as five "limited by" reasons
+    inputs = load_check_inputs(sample("twin6/within.toml"))
+    loading = P._with(inputs.loading, stations={**inputs.loading.stations, "row3": 405.0})
+    answer = P.most_fuel(inputs.aircraft, loading)
+    assert not answer.feasible
+    assert answer.governing.count(";") == 0 and "exceeds the maximum 400.0 lb by 5.0 lb" in answer.governing
+
+
+def test_plan_words_for_a_path_outside_from_takeoff():
+    # regression: a loading already outside at takeoff was said to leave the envelope
+    # "after 0.0 kg burned"
+    from loadcheck.words import burn_path_summary
+
+    inputs = load_check_inputs(sample("tandem2/aft_heavy.toml"))
+    result = check_loading(inputs.aircraft, inputs.loading)
+    assert not result.condition("takeoff").ok
+    text = burn_path_summary(result)
+    assert "from takeoff" in text and "after 0.0" not in text
+
+
+@given(st.floats(0, 5000), st.floats(0, 20), st.sampled_from(["lb", "kg", "in", "mm", "usgal", "l"]))
+def test_a_stretch_is_never_shown_with_its_low_end_above_its_high_end(low, width, unit):
+    # regression: plan shift showed "46.9 to 46.8"
+    from loadcheck.words import stretch_text
+
+    text = stretch_text(low, low + width, unit)
+    numbers = [float(x.replace(",", "")) for x in text.replace("only", "").replace(unit, "").split("to")]
+    assert numbers == sorted(numbers)
+    if len(numbers) == 2:  # rounded inward: both ends shown are within the stretch (display rounding noise aside)
+        noise = 1e-9 * max(1.0, low + width) * 10 ** (len(text.split()[0].split(".")[-1]))
+        assert low - noise <= numbers[0] < numbers[1] <= low + width + noise
