@@ -62,6 +62,7 @@ __all__ = [
     "evaluate",
     "evaluate_arrays",
     "load_limits",
+    "load_room",
     "loading_arrays",
     "path_states",
     "tank_quantities",
@@ -155,6 +156,21 @@ def load_limits(aircraft: Aircraft) -> list[LoadLimit]:
         if least is not None:
             out.append(LoadLimit(f"{kind}_min", key, label, members, least))
     return out
+
+
+def load_room(aircraft: Aircraft, stations: dict[str, float], station: str) -> float:
+    """What a station can still take within its own maximum and its groups' maxima [mass unit].
+
+    ``stations`` is the weight already at each station; infinite where no maximum applies.
+    """
+    ids = [s.id for s in aircraft.station]
+    column = ids.index(station)
+    room = float("inf")
+    for rule in _tables(aircraft).loads:
+        if rule.is_max and column in rule.members:
+            loaded = sum(stations.get(ids[i], 0.0) for i in rule.members)
+            room = min(room, rule.limit - loaded)
+    return max(0.0, room)
 
 
 def envelope_state(

@@ -24,10 +24,11 @@ import math
 from dataclasses import dataclass, replace
 from typing import Literal
 
-from .aircraft import Aircraft, Station
+from .aircraft import Aircraft
 from .caution import MECHANIC_CAUTION
 from .check import check_loading
 from .display import fmt
+from .engine import load_room
 from .errors import InputError, Problem
 from .loading import BurnPlan, ResolvedLoading
 from .results import CheckResult, Result
@@ -131,15 +132,6 @@ def _limits(aircraft: Aircraft, category: str) -> tuple[float, float]:
     return min(arms), max(arms)
 
 
-def _room(aircraft: Aircraft, station: Station, stations: dict[str, float]) -> float:
-    """What a station can still take within its own maximum and its groups' [mass unit]."""
-    room = math.inf if station.max_weight is None else station.max_weight - stations.get(station.id, 0.0)
-    for group in aircraft.station_group:
-        if station.id in group.stations and group.max_weight is not None:
-            room = min(room, group.max_weight - sum(stations.get(s, 0.0) for s in group.stations))
-    return max(0.0, room)
-
-
 def _case(aircraft: Aircraft, category: str, side: Literal["forward", "rearward"], limit: float,
           occupant: float, min_fuel: float | None) -> ExtremeCase:
     notes: list[str] = []
@@ -158,7 +150,7 @@ def _case(aircraft: Aircraft, category: str, side: Literal["forward", "rearward"
     beyond = "ahead of the forward" if side == "forward" else "behind the rearward"
     # the items that make the case worse, farthest beyond the limit first
     for station in sorted((s for s in aircraft.station if worse(s.arm)), key=lambda s: -abs(s.arm - limit)):
-        room = _room(aircraft, station, stations)
+        room = load_room(aircraft, stations, station.id)
         if station.kind == "seat":
             count = station.seats or 1
             people = min(count, int(room // occupant)) if math.isfinite(room) else count

@@ -23,6 +23,7 @@ from .aircraft import Aircraft
 from .caution import MECHANIC_CAUTION
 from .check import check_loading
 from .display import fmt
+from .engine import load_room
 from .extremes import seat_order, standard_occupant
 from .loading import BurnPlan, ResolvedLoading
 from .planning import most_fuel, most_payload, safe_value
@@ -207,10 +208,7 @@ def loading_schedule(aircraft: Aircraft, *, category: str | None = None,
     bags = _placard(aircraft, chosen, fixed, {})
     for station in aircraft.station:
         if station.kind in ("baggage", "cargo") and station.max_weight is not None:
-            room = station.max_weight - bags.stations.get(station.id, 0.0)
-            for group in aircraft.station_group:
-                if station.id in group.stations and group.max_weight is not None:
-                    room = min(room, group.max_weight - sum(bags.stations.get(s, 0.0) for s in group.stations))
+            room = load_room(aircraft, bags.stations, station.id)
             if room > 0:
                 bags = _add(bags, station.id, room)
     pilot = seat_order(aircraft)[:1]
