@@ -45,6 +45,7 @@ from .words import LIMIT_NAMES, condition_words, stretch_text
 __all__ = [
     "Interval",
     "PlanResult",
+    "FuelPayloadTable",
     "TableRow",
     "most_fuel",
     "longest_trip",
@@ -635,10 +636,26 @@ class TableRow(Result):
     most: float | None
 
 
+@dataclass(frozen=True, kw_only=True, slots=True)
+class FuelPayloadTable(Result):
+    """Allowed ramp fuel against payload added at a station.
+
+    Attributes: station; rows (payload [mass unit], ramp fuel stretches and most [fuel
+    volume unit]); units (``mass``, ``fuel_volume``); ok, some row has fuel within limits;
+    caution.
+    """
+
+    station: str
+    rows: list[TableRow]
+    units: dict[str, str]
+    ok: bool
+    caution: str = PILOT_CAUTION
+
+
 def fuel_payload_table(
     aircraft: Aircraft, loading: ResolvedLoading, station: str, *, steps: int = 11, top: float | None = None,
     fill: Sequence[str] | None = None,
-) -> list[TableRow]:
+) -> FuelPayloadTable:
     """Allowed ramp fuel against payload added at ``station`` (0 to ``top``, ``steps`` rows).
 
     Each row is :func:`most_fuel` at that payload, so each row's most fuel passed the full
@@ -653,5 +670,6 @@ def fuel_payload_table(
         answer = most_fuel(aircraft, _with(loading, stations={**loading.stations, station: already + float(payload)}), fill=fill)
         rows.append(TableRow(payload=float(payload), intervals=answer.intervals if answer.feasible else [],
                              most=answer.answer if answer.feasible else None))
-    return rows
+    units: dict[str, str] = {"mass": aircraft.units.mass, "fuel_volume": aircraft.units.fuel_volume}
+    return FuelPayloadTable(station=station, rows=rows, units=units, ok=any(r.most is not None for r in rows))
 

@@ -389,22 +389,18 @@ def plan_table(
 
     inputs = _inputs(aircraft, loading, load, fuel, taxi, trip, trip_time, rate, order, reserve, category)
     name = _need(station, "--station")
-    rows = fuel_payload_table(inputs.aircraft, inputs.loading, name, steps=steps, fill=_fill(fill))
+    table = fuel_payload_table(inputs.aircraft, inputs.loading, name, steps=steps, fill=_fill(fill))
     if chart is not None:
         from ..render.chart import fuel_payload_figure, save_figure
 
-        save_figure(fuel_payload_figure(inputs.aircraft, rows, name), chart)
+        save_figure(fuel_payload_figure(inputs.aircraft, table.rows, name), chart)
         _console(stderr=True).print(f"chart written: {chart}", markup=False)
     if json_out:
-        from ..caution import PILOT_CAUTION
-
-        units = inputs.aircraft.units
-        typer.echo(json.dumps({"station": name, "rows": [r.to_dict() for r in rows],
-                               "units": {"mass": units.mass, "fuel_volume": units.fuel_volume}, "caution": PILOT_CAUTION}, indent=2))
+        typer.echo(table.to_json())
     else:
         from ..render.terminal import render_table
 
-        render_table(inputs.aircraft, rows, name, _console())
-    raise typer.Exit(EXIT_OK if any(r.most is not None for r in rows) else EXIT_LIMIT)
+        render_table(inputs.aircraft, table.rows, name, _console())
+    raise typer.Exit(EXIT_OK if table.ok else EXIT_LIMIT)
 
 
