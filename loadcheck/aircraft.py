@@ -28,7 +28,7 @@ from pydantic import (
     model_validator,
 )
 
-from .envelope import Axis, EnvelopeShape, polygon_problem
+from .envelope import AXES, Axis, EnvelopeShape, polygon_problem
 from .errors import Problem, UnknownNameError
 from .fuel import FuelGrade, default_density, grade_name
 from .units import ArmUnit, MassUnit, VolumeUnit, canonical_unit, convert, parse_quantity, unit_kind
@@ -293,9 +293,9 @@ class Envelope(_Model):
 
     category: str = Field(min_length=1)
     label: str | None = None
-    axes: tuple[Axis, Axis] = Field(description="x and y axes, from arm, moment, mac, lateral_arm, weight")
+    axes: tuple[Axis, Axis] = Field(description="x and y axes, from arm, moment, mac, lateral_arm, lateral_moment, weight")
     points: list[tuple[float, float]] = Field(min_length=3, description="corners in the axes' units")
-    moment_scale: float = Field(1.0, gt=0, description="a moment axis is read as moment / moment_scale")
+    moment_scale: float = Field(1.0, gt=0, description="a moment or lateral_moment axis is read as moment / moment_scale")
     _shape: EnvelopeShape | None = PrivateAttr(None)
 
     @model_validator(mode="after")
@@ -312,7 +312,7 @@ class Envelope(_Model):
     @property
     def is_lateral(self) -> bool:
         """True for an envelope that limits the lateral CG."""
-        return "lateral_arm" in self.axes
+        return any(AXES[a].lateral for a in self.axes)
 
     @property
     def shape(self) -> EnvelopeShape:

@@ -42,6 +42,7 @@ from .words import (
     ZERO_FUEL_WARNING,
     burn_path_message,
     envelope_gap_message,
+    envelope_moment_message,
     envelope_point_message,
     envelope_side_message,
     envelope_weight_message,
@@ -279,7 +280,12 @@ def _outside_finding(
                                        None if there is None else (there[0], value, there[2], units.arm))
     else:
         found = across(weight)
-        if found is not None:
+        if found is not None and "lateral_moment" in shape.axes and found[0] != "outside":
+            # drawn as lateral moment against weight: say it in moment (FAA-H-8083-1B ch. 8, fig. 8-3)
+            side, excess, limit = found[0], found[1] * weight, found[2] * weight
+            unit = units.moment
+            text = envelope_moment_message(name, label, side, lateral_moment, limit, weight, units.moment, units.mass)
+        elif found is not None:
             side, excess, limit = found
             unit = units.arm
             if side == "outside":

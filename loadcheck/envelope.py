@@ -1,7 +1,9 @@
 """CG envelope geometry: containment, limits at a weight, and the fuel-burn path.
 
 An envelope is a polygon on two of the axes of :data:`AXES`: ``arm``, ``moment`` (read as
-moment / moment_scale), ``mac`` (percent of MAC), ``lateral_arm`` and ``weight``. A loading
+moment / moment_scale), ``mac`` (percent of MAC), ``lateral_arm``, ``lateral_moment`` (read
+as lateral moment / moment_scale, as FAA-H-8083-1B chapter 8, figure 8-3, draws a
+helicopter's lateral envelope) and ``weight``. A loading
 state is described by its weight W, moment M and lateral moment L; each axis is a linear
 combination of W, M and L, divided by W or not:
 
@@ -12,6 +14,7 @@ weight         W                           1
 moment         M / moment_scale            1
 arm            M                           W
 lateral_arm    L                           W
+lateral_moment L / moment_scale            1
 mac            100 (M - LEMAC W) / MAC     W
 =============  ==========================  ===========
 
@@ -53,7 +56,7 @@ __all__ = [
     "polygon_problem",
 ]
 
-Axis = Literal["arm", "moment", "mac", "lateral_arm", "weight"]
+Axis = Literal["arm", "moment", "mac", "lateral_arm", "lateral_moment", "weight"]
 
 TOLERANCE = 1e-9
 """Containment tolerance, as a fraction of the envelope's extent on each axis."""
@@ -94,6 +97,7 @@ AXES: dict[str, AxisSpec] = {
     "arm": AxisSpec("CG, aft of datum", "arm", True, False, lambda _s, _m: (0.0, 1.0, 0.0)),
     "lateral_arm": AxisSpec("Lateral CG, + right", "arm", True, True, lambda _s, _m: (0.0, 0.0, 1.0)),
     "mac": AxisSpec("CG", "percent", True, False, _mac_coefficients),
+    "lateral_moment": AxisSpec("Lateral moment, + right", "moment", False, True, lambda s, _m: (0.0, 0.0, 1.0 / s)),
 }
 """Every envelope axis: its numerator in W, M and L, its denominator, its name (FAA-H-8083-1B chapter 2)."""
 

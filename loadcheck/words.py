@@ -23,6 +23,9 @@ __all__ = [
     "burn_path_summary",
     "condition_words",
     "envelope_gap_message",
+    "envelope_moment_message",
+    "envelope_point_message",
+    "ZERO_FUEL_WARNING",
     "envelope_side_message",
     "envelope_weight_message",
     "load_limit_message",
@@ -124,6 +127,16 @@ def envelope_side_message(
     cg = "lateral CG" if lateral else "CG"
     value_text, limit_text, excess = beyond(value, limit, arm_unit)
     return (f"{condition_words(condition)} {cg} {value_text} is {side} of the {side} limit of {label} "
+            f"({limit_text} at {fmt(weight, mass_unit)}) by {excess}")
+
+
+def envelope_moment_message(
+    condition: str, label: str, side: str, moment: float, limit: float, weight: float, moment_unit: str, mass_unit: str
+) -> str:
+    """"landing lateral moment -2,940 lb*in is left of the lateral limit of the lateral envelope
+    (-2,700 lb*in at 1,915.0 lb) by 240 lb*in": an envelope drawn as lateral moment against weight."""
+    value_text, limit_text, excess = beyond(moment, limit, moment_unit)
+    return (f"{condition_words(condition)} lateral moment {value_text} is {side} of the lateral limit of {label} "
             f"({limit_text} at {fmt(weight, mass_unit)}) by {excess}")
 
 

@@ -143,6 +143,8 @@ def coordinates(envelope: dict[str, Any], mac: dict[str, Any] | None, w: F, m: F
             return m / w
         if name == "lateral_arm":
             return lat / w
+        if name == "lateral_moment":
+            return lat / fr(envelope.get("moment_scale", 1.0))
         assert mac is not None
         return 100 * (m / w - fr(mac["leading_edge_arm"])) / fr(mac["length"])
 
@@ -288,6 +290,8 @@ def _path_verdict(aircraft, envelopes, polygons, mac, load, fuel, order, taxi, t
                 axes.append(m / w)
             elif name == "lateral_arm":
                 axes.append(lat / w)
+            elif name == "lateral_moment":
+                axes.append(lat / envelope.get("moment_scale", 1.0))
             else:
                 axes.append(100.0 * (m / w - mac["leading_edge_arm"]) / mac["length"])
         px, py = axes

@@ -1,8 +1,8 @@
 """The library against an independent oracle (tests/oracle.py) on random aircraft and loadings.
 
 Random aircraft: convex and non-convex (star-shaped) envelopes on arm-weight,
-moment/1000-weight and %MAC-weight axes, with lateral envelopes and tanks whose arm moves
-with the fuel; random loadings, sequential and proportional burns. The default run checks
+moment/1000-weight and %MAC-weight axes, with lateral envelopes (lateral arm or lateral
+moment against weight) and tanks whose arm moves with the fuel; random loadings, sequential and proportional burns. The default run checks
 ORACLE_CASES cases (1,500); `pytest --full` runs 100,000.
 
 Zero disagreements are allowed where the oracle decides; the oracle declines to decide
@@ -73,7 +73,13 @@ def random_case(seed: int) -> tuple[dict, dict]:
     if lateral:
         aircraft["empty"]["lateral_arm"] = round(rng.uniform(-0.5, 0.5), 3)
         lat_points = random_polygon(rng, (0.0, weight_c), (rng.uniform(2, 5), rw), rng.random() < 0.5)
-        aircraft["envelope"].append({"category": "normal", "axes": ["lateral_arm", "weight"], "points": [list(p) for p in lat_points]})
+        if rng.random() < 0.5:
+            lateral_envelope = {"axes": ["lateral_arm", "weight"], "points": [list(p) for p in lat_points]}
+        else:  # drawn as lateral moment against weight (FAA-H-8083-1B ch. 8, fig. 8-3), moment / 1 or / 100
+            scale = rng.choice([1.0, 100.0])
+            lateral_envelope = {"axes": ["lateral_moment", "weight"], "moment_scale": scale,
+                                "points": [[round(a * w / scale, 4), w] for a, w in lat_points]}
+        aircraft["envelope"].append({"category": "normal", **lateral_envelope})
     for i in range(rng.randint(2, 4)):
         station = {"id": f"s{i}", "arm": round(arm_c + rng.uniform(-20, 45), 2), "max_weight": round(rng.uniform(100, 500), 1)}
         if lateral:
@@ -156,7 +162,7 @@ def _state_at(envelope, aircraft, x: float, y: float) -> tuple[float, float, flo
         arm = aircraft.mac.leading_edge_arm + values["mac"] * aircraft.mac.length / 100.0
     else:
         arm = 0.0
-    lateral = values.get("lateral_arm", 0.0)
+    lateral = values.get("lateral_arm", values.get("lateral_moment", 0.0) * envelope.moment_scale / weight)
     return weight, arm * weight, lateral * weight
 
 
