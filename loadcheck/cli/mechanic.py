@@ -34,6 +34,11 @@ OccupantOpt = Annotated[str | None, typer.Option(help="Standard occupant weight 
 MetoOpt = Annotated[float | None, typer.Option(help="Maximum-except-takeoff power [hp] for the minimum fuel (default: the file's).")]
 
 
+def _interactive() -> bool:
+    """Whether a person can answer at standard input."""
+    return sys.stdin.isatty()
+
+
 def _new_empty_weight(
     aircraft: Path, source: Path, kind: Literal["weighing", "alteration"], render: Callable[[Any, Any, Any], None],
     write: bool, yes: bool, force: bool, by: str | None, why: str | None, sheet: Path | None, json_out: bool,
@@ -59,7 +64,7 @@ def _new_empty_weight(
         raise typer.Exit(EXIT_OK)
     confirmed = yes
     if not yes and proposal.overridable and (force or not proposal.result.refusals):
-        if not sys.stdin.isatty():
+        if not _interactive():
             raise InputError(Problem("--yes", "standard input is not a terminal, so nobody can confirm the new record: "
                                               "give --yes to write it; nothing was written"))
         from ..render.terminal import render_comparison
