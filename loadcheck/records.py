@@ -337,18 +337,18 @@ class Verification(Result):
     caution: str = PILOT_CAUTION
 
 
-def _recheck(aircraft_data: dict[str, Any], inputs: dict[str, Any], where: str) -> tuple[Any, dict[str, Any]]:
+def _check_again(aircraft: Any, inputs: dict[str, Any], where: str) -> Any:
+    """The recorded loading (its inputs) checked against an aircraft: the CheckResult."""
     from .check import check_loading
-    from .files import parse_aircraft, parse_loading
+    from .files import parse_loading
     from .loading import resolve_loading
 
-    aircraft = parse_aircraft(aircraft_data, where)
     loading = parse_loading(inputs, where)
     try:
         resolved = resolve_loading(loading, aircraft)
     except LoadcheckError as error:
         raise error.with_file(where) from None
-    return aircraft, check_loading(aircraft, resolved).to_dict()
+    return check_loading(aircraft, resolved)
 
 
 def verify(log: RecordLog, record_id: int) -> Verification:
@@ -364,8 +364,10 @@ def verify(log: RecordLog, record_id: int) -> Verification:
         When there is no such record, or its stored data cannot be read.
     """
     record = log.get(record_id)
-    data = log.aircraft_data(record.fingerprint)
-    aircraft, again = _recheck(data, record.inputs, f"record {record_id}")
+    from .files import parse_aircraft
+
+    aircraft = parse_aircraft(log.aircraft_data(record.fingerprint), f"record {record_id}")
+    again = _check_again(aircraft, record.inputs, f"record {record_id}").to_dict()
     differences = []
     if aircraft.fingerprint != record.fingerprint:
         differences.append(f"the recorded aircraft data gives the fingerprint {aircraft.fingerprint}, "
@@ -452,10 +454,6 @@ def verify_current(records: Iterable[Record], fleet: Any) -> CurrentVerification
         Which checks were made with aircraft data that has changed since, and what their
         loadings give with the current data; the exit status it calls for.
     """
-    from .check import check_loading
-    from .files import parse_loading
-    from .loading import resolve_loading
-
     checks = []
     for record in records:
         common: dict[str, Any] = {"record_id": record.id, "checked_at": record.checked_at, "registration": record.registration,
@@ -471,7 +469,7 @@ def verify_current(records: Iterable[Record], fleet: Any) -> CurrentVerification
             continue
         changed = aircraft.fingerprint != record.fingerprint
         try:
-            result = check_loading(aircraft, resolve_loading(parse_loading(record.inputs, f"record {record.id}"), aircraft))
+            result = _check_again(aircraft, record.inputs, f"record {record.id}")
         except LoadcheckError as error:
             checks.append(CurrentCheck(**common, current_fingerprint=aircraft.fingerprint, data_changed=changed,
                                        current_ok=None, current_findings=[],
