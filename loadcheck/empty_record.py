@@ -32,6 +32,8 @@ from functools import cached_property
 from pathlib import Path
 from typing import Any, Literal
 
+from pydantic import ValidationError
+
 from .aircraft import Aircraft
 from .caution import MECHANIC_CAUTION
 from .errors import InputError, LoadcheckError, Problem
@@ -190,8 +192,11 @@ class Proposal:
             return extremes(self.aircraft.with_empty(result.new.weight, result.new.arm, result.new.lateral_arm)), None
         except LoadcheckError as error:
             return None, "; ".join(p.describe() for p in error.problems)
-        except ValueError as error:  # the new record does not make a valid aircraft (pydantic)
-            return None, f"the new record does not make a valid aircraft ({str(error).splitlines()[0]})"
+        except ValidationError as error:  # the new record does not make a valid aircraft
+            from .files import problems_from_validation
+
+            reasons = "; ".join(p.describe() for p in problems_from_validation(error))
+            return None, f"the new record does not make a valid aircraft ({reasons})"
 
     def to_dict(self) -> dict[str, Any]:
         """The result as JSON data, with the comparison."""

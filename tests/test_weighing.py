@@ -50,8 +50,10 @@ def test_a_mistyped_reading_that_leaves_no_useful_load_is_never_written(tmp_path
     path = _trainer(tmp_path)
     before = path.read_bytes()
     bad = _readings(tmp_path, "reading = 541.0", "reading = 5410.0")  # 5410 for 541
-    shown = _weigh(path, bad)
+    shown = _weigh(path, bad, "--sheet", str(tmp_path / "record.html"))
     assert shown.exit_code == 0 and "NEVER WRITTEN" in shown.output
+    html = (tmp_path / "record.html").read_text()
+    assert "NEVER WRITTEN" in html and "Not computed: the new record does not make a valid aircraft" in html
     for options in (["--write", "--yes"], ["--write", "--yes", "--force"]):
         result = _weigh(path, bad, *options)
         assert result.exit_code == 2, result.output
