@@ -32,6 +32,18 @@ def _trainer_with_range(tmp_path: Path, cg_range: str) -> Path:
     return path
 
 
+def _record_sheet(tmp_path: Path, command: str, aircraft: Path, source: Path) -> str:
+    sheet = tmp_path / f"{command}.html"
+    result = runner.invoke(app, [command, str(aircraft), str(source), "--sheet", str(sheet)])
+    assert result.exit_code == 0, result.output
+    return sheet.read_text()
+
+
+def _cell(html: str, cell_id: str) -> str:
+    start = html.index(f"id='{cell_id}'>") + len(f"id='{cell_id}'>")
+    return html[start: html.index("</", start)]
+
+
 def test_alter_warns_when_the_new_cg_leaves_the_empty_weight_cg_range(tmp_path):
     # the sample changes move the empty-weight CG from 39.40 in forward to about 39.2 in
     path = _trainer_with_range(tmp_path, "[39.3, 40.0]")
@@ -88,3 +100,11 @@ def test_an_alteration_that_leaves_no_useful_load_is_refused():
                                                                "arm": 40.0}]}))
     assert [r.code for r in big.refusals] == ["no_useful_load", "implausible_change"]
     assert not big.refusals[0].overridable and big.refusals[1].overridable
+
+
+def test_the_alteration_record_shows_the_description_and_date(tmp_path):
+    html = _record_sheet(tmp_path, "alter", sample("trainer4/aircraft.toml"), sample("trainer4/changes.toml"))
+    assert _cell(html, "meta-changes-of") == "2026-11-29"
+    assert _cell(html, "meta-description") == "Radio installed, wheel fairings removed, ELT relocated"
+    assert "Previous record</th><th>New record</th><th>Change</th>" in html
+    assert "Most forward" in html and "Empty-weight CG range" in html and "Certificate number" in html

@@ -10,6 +10,7 @@ no useful load (FAA-H-8083-1B chapter 2, useful load = maximum weight - empty we
 from __future__ import annotations
 
 import shutil
+import subprocess
 import tomllib
 from pathlib import Path
 
@@ -274,3 +275,75 @@ def test_a_stale_trailing_comment_does_not_stay_on_the_new_value(tmp_path):
     assert "last weighing 2019" not in text and "from the 2019 report" not in text
     assert "# per the flight manual" in text and "# maximum except takeoff" in text
     assert tomllib.loads(text)["empty"]["weight"] == pytest.approx(1685.8, abs=0.05)
+
+
+# -- item 10: the record to sign ----------------------------------------------------------------
+
+
+def _record_sheet(tmp_path: Path, command: str, aircraft: Path, source: Path) -> str:
+    sheet = tmp_path / f"{command}.html"
+    result = runner.invoke(app, [command, str(aircraft), str(source), "--sheet", str(sheet)])
+    assert result.exit_code == 0, result.output
+    return sheet.read_text()
+
+
+def _cell(html: str, cell_id: str) -> str:
+    start = html.index(f"id='{cell_id}'>") + len(f"id='{cell_id}'>")
+    return html[start: html.index("</", start)]
+
+
+def test_the_weighing_record_shows_what_a_signer_needs(tmp_path):
+    # issue 14 item 10: date, who weighed, gear and datum geometry, previous and new side by side,
+    # extreme loadings, empty-weight CG range, signature block
+    html = _record_sheet(tmp_path, "weigh", sample("trainer4/aircraft.toml"), sample("trainer4/weighing.toml"))
+    assert _cell(html, "meta-weighed-on") == "2026-11-28" and _cell(html, "meta-weighed-by") == "demo hangar"
+    geometry = html[html.index("id='geometry'"):]
+    assert "nosewheel" in geometry and "datum forward" in geometry and "58.20 in" in geometry and "65.00 in" in geometry
+    assert "Previous record</th><th>As weighed</th><th>New record</th>" in html
+    assert "1,652.0 lb" in html and "1,685.8 lb" in html and "2026-02-09" in html  # previous and new
+    assert "Empty-weight CG range: not given" in html
+    assert "Most forward" in html and "Most rearward" in html and "Sorted against" in html
+    for words in ("Name", "Certificate number", "Signature", "Date", "local aviation authority"):
+        assert words in html[html.index("class='caution'"):]
+    assert "http" not in html.replace("http-equiv", "")
+
+
+def test_the_weighing_record_shows_the_lateral_cg(tmp_path):
+    shutil.copy(sample("heli2/aircraft.toml"), tmp_path / "aircraft.toml")
+    readings = tmp_path / "readings.toml"
+    readings.write_text("format = 1\ndate = 2026-11-30\nweighed_by = 'hangar 2'\n"
+                        "[[point]]\nlabel = 'front'\narm = 60.0\nreading = 300.0\n"
+                        "[[point]]\nlabel = 'rear left'\narm = 127.0\nlateral_arm = -20.0\nreading = 295.0\n"
+                        "[[point]]\nlabel = 'rear right'\narm = 127.0\nlateral_arm = 20.0\nreading = 290.0\n")
+    html = _record_sheet(tmp_path, "weigh", tmp_path / "aircraft.toml", readings)
+    row = html[html.index("<td>lateral CG (+ right)</td>"):]
+    row = row[: row.index("</tr>")]
+    assert "0.30 in" in row and "-0.11 in" in row  # previous 0.3 in; new (290 - 295) x 20 / 885
+    assert "Lateral arm (in, + right)" in html
+
+
+def _printer() -> str | None:
+    return shutil.which("chromium") or shutil.which("chromium-browser")
+
+
+@pytest.mark.skipif(_printer() is None or shutil.which("pdfinfo") is None or shutil.which("pdftotext") is None,
+                    reason="needs headless chromium and poppler-utils (pdfinfo, pdftotext)")
+@pytest.mark.parametrize("paper", ["letter", "A4"])
+@pytest.mark.parametrize("command", ["weigh", "alter"])
+def test_the_printed_record_fits_one_page_with_its_signature_block(tmp_path, command, paper):
+    source = sample("trainer4/weighing.toml" if command == "weigh" else "trainer4/changes.toml")
+    html = _record_sheet(tmp_path, command, sample("trainer4/aircraft.toml"), source)
+    assert "@page { size: auto;" in html
+    page = tmp_path / f"{paper}.html"  # the paper size a user picks in the print dialogue
+    page.write_text(html.replace("@page { size: auto;", f"@page {{ size: {paper};"))
+    pdf = tmp_path / f"{paper}.pdf"
+    subprocess.run([str(_printer()), "--headless", "--no-sandbox", "--disable-gpu", "--no-pdf-header-footer",
+                    f"--user-data-dir={tmp_path / 'profile'}", f"--print-to-pdf={pdf}", page.as_uri()],
+                   check=True, capture_output=True, timeout=120)
+    info = subprocess.run(["pdfinfo", str(pdf)], check=True, capture_output=True, text=True).stdout
+    assert "Pages:           1" in info, info
+    assert ("letter" if paper == "letter" else "A4") in info
+    first = subprocess.run(["pdftotext", "-f", "1", "-l", "1", "-layout", str(pdf), "-"], check=True, capture_output=True,
+                           text=True).stdout
+    for words in ("Certificate number", "Signature", "Most rearward", "Empty-weight CG range", "CAUTION"):
+        assert words in first

@@ -308,6 +308,9 @@ def mechanic_sheet_html(result: Any, units: Any, *, extremes: Any = None, source
                             "within limits" if case.ok else "NOT within limits"])
         parts.append(_table(["Loading", f"Weight ({m})", f"CG ({a})", f"Sorted against ({a})", "Result"], summary,
                             "extremes"))
+        states = [getattr(case, "fuel_states", None) for case in (extremes.forward, extremes.rearward)]
+        if any(states):
+            parts.append(f"<p>Fuel states covered: {escape('; '.join(str(s) for s in dict.fromkeys(states) if s))}.</p>")
         names = list(dict.fromkeys(i.name for case in (extremes.forward, extremes.rearward) for i in case.check.items))
         by_side = [{i.name: i for i in case.check.items} for case in (extremes.forward, extremes.rearward)]
         rows = []
