@@ -131,6 +131,13 @@ class EmptyWeight(_Model):
         """Empty-weight moment [mass unit * arm unit]."""
         return self.weight * self.arm
 
+    @model_validator(mode="after")
+    def _range_in_order(self) -> EmptyWeight:
+        if self.cg_range is not None and self.cg_range[0] > self.cg_range[1]:
+            raise ValueError(f"cg_range is reversed ({self.cg_range[0]:g} is aft of {self.cg_range[1]:g}); "
+                             "give the forward limit first")
+        return self
+
 
 class Limits(_Model):
     """Weight limits from the flight manual; the CG limits are the envelopes."""
@@ -158,6 +165,9 @@ class Limits(_Model):
     def _ordered(self) -> Limits:
         if self.max_ramp_weight is not None and self.max_ramp_weight < self.max_takeoff_weight:
             raise ValueError("max_ramp_weight is below max_takeoff_weight")
+        if self.max_landing_weight is not None and self.max_landing_weight > self.max_takeoff_weight:
+            raise ValueError(f"max_landing_weight ({self.max_landing_weight:g}) is above max_takeoff_weight "
+                             f"({self.max_takeoff_weight:g})")
         if self.min_flight_weight is not None and self.min_flight_weight >= self.max_takeoff_weight:
             raise ValueError("min_flight_weight is not below max_takeoff_weight")
         return self
@@ -330,6 +340,9 @@ class HistoryEntry(_Model):
     new_weight: Mass | None = Field(None, description="the weight of the record that replaced it [mass unit]")
     new_arm: Arm | None = Field(None, description="the arm of the record that replaced it [arm unit]")
     inputs: dict[str, Any] = Field(default_factory=dict, description="what the new record was computed from")
+    by: str | None = Field(None, description="who made the new record (weighed, altered)")
+    note: str | None = Field(None, description="why, in the maker's words")
+    overrides: list[str] = Field(default_factory=list, description="checks the maker overrode to write the record")
 
 
 class EquipmentItem(_Model):
@@ -406,6 +419,13 @@ class Aircraft(_Model):
             raise ValueError("\n".join(problems))
         for envelope in self.envelope:
             envelope._shape = EnvelopeShape(envelope.axes, envelope.points, envelope.moment_scale, self.mac)
+        return self
+
+    @model_validator(mode="after")
+    def _empty_below_max_takeoff(self) -> Aircraft:
+        if self.empty.weight >= self.limits.max_takeoff_weight:
+            raise ValueError(f"empty.weight: the empty weight ({self.empty.weight:g}) is not below "
+                             f"limits.max_takeoff_weight ({self.limits.max_takeoff_weight:g}): no useful load is left")
         return self
 
     # -- look-ups -------------------------------------------------------------------

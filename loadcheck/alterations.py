@@ -24,7 +24,7 @@ from .caution import MECHANIC_CAUTION
 from .errors import InputError, Problem, UnknownNameError
 from .results import Result
 from .units import convert
-from .weighing import Record
+from .weighing import Record, Refusal, record_checks
 
 __all__ = ["Change", "Changes", "ChangeLine", "AlterResult", "alter", "negligible_weight_lb", "Negligible"]
 
@@ -65,6 +65,7 @@ class Changes(_Model):
     aircraft: str | None = None
     date: dt.date | None = None
     description: str | None = None
+    by: str | None = Field(None, description="who made the changes")
     change: list[Change] = Field(min_length=1)
 
 
@@ -101,7 +102,11 @@ class Negligible(Result):
 
 @dataclass(frozen=True, kw_only=True, slots=True)
 class AlterResult(Result):
-    """The outcome of equipment changes (not yet the record: ``--write`` makes it so)."""
+    """The outcome of equipment changes (not yet the record: writing makes it so).
+
+    ``date``, ``description`` and ``by`` come from the changes file; ``warnings`` and
+    ``refusals`` are those of :func:`~loadcheck.weighing.record_checks`.
+    """
 
     aircraft: str
     registration: str | None
@@ -114,6 +119,12 @@ class AlterResult(Result):
     useful_load: float
     negligible: Negligible
     equipment: list[dict[str, object]] = field(default_factory=list)
+    warnings: list[str] = field(default_factory=list)
+    refusals: list[Refusal] = field(default_factory=list)
+    date: str | None = None
+    description: str | None = None
+    by: str | None = None
+    cg_range: tuple[float, float] | None = None
     caution: str = MECHANIC_CAUTION
 
 
@@ -138,15 +149,15 @@ def _negligible(aircraft: Aircraft, weight_change: float, arm_change: float) -> 
         if not arms:
             return Negligible(weight=weight_ok, cg=None, weight_threshold=weight_words,
                               cg_threshold="0.2 % of the CG range: no arm-weight envelope gives the range")
-        cg_range = max(arms) - min(arms)
+        cg_range = float(max(arms) - min(arms))
         threshold = 0.002 * cg_range
-        return Negligible(weight=weight_ok, cg=abs(arm_change) < threshold, weight_threshold=weight_words,
+        return Negligible(weight=bool(weight_ok), cg=bool(abs(arm_change) < threshold), weight_threshold=weight_words,
                           cg_threshold=f"less than 0.2 % of the {cg_range:g} {units.arm} CG range ({threshold:.4f} {units.arm})")
     if aircraft.mac is None:
         return Negligible(weight=weight_ok, cg=None, weight_threshold=weight_words,
                           cg_threshold="0.05 % MAC: the aircraft file gives no MAC, so this cannot be judged")
     threshold = 0.0005 * aircraft.mac.length
-    return Negligible(weight=weight_ok, cg=abs(arm_change) < threshold, weight_threshold=weight_words,
+    return Negligible(weight=bool(weight_ok), cg=bool(abs(arm_change) < threshold), weight_threshold=weight_words,
                       cg_threshold=f"less than 0.05 % MAC ({threshold:.4f} {units.arm})")
 
 
@@ -215,10 +226,13 @@ def alter(aircraft: Aircraft, changes: Changes) -> AlterResult:
     new = Record(weight=weight, arm=moment / weight, moment=moment,
                  lateral_arm=lateral / weight if empty.lateral_arm is not None else None)
     useful = aircraft.limits.max_takeoff_weight - weight
+    warnings, refusals = record_checks(aircraft, new)
     return AlterResult(
         aircraft=aircraft.name, registration=aircraft.registration, lines=lines, previous=previous, new=new,
         change_weight=weight - empty.weight, change_arm=new.arm - empty.arm,
         change_useful_load=useful - aircraft.useful_load, useful_load=useful,
         negligible=_negligible(aircraft, weight - empty.weight, new.arm - empty.arm),
         equipment=[{k: v for k, v in item.items() if v is not None} for item in equipment.values()],
+        warnings=warnings, refusals=refusals, date=None if changes.date is None else changes.date.isoformat(),
+        description=changes.description, by=changes.by, cg_range=empty.cg_range,
     )

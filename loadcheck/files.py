@@ -14,6 +14,7 @@ from __future__ import annotations
 
 import os
 import re
+import stat
 import tempfile
 import tomllib
 from collections.abc import Mapping
@@ -42,6 +43,8 @@ __all__ = [
     "read_toml",
     "validate_file",
     "write_atomic",
+    "write_new_record",
+    "write_target",
 ]
 
 MAX_FILE_BYTES = 5 * 1024 * 1024
@@ -325,39 +328,77 @@ def file_kind(data: Mapping[str, Any]) -> str:
     return "unknown"
 
 
+def write_target(path: str | Path) -> Path:
+    """The file a write to ``path`` must replace: the path itself, or where its symlinks lead.
+
+    A symlink is followed to its final target (so ``current.toml -> v7.toml`` updates
+    ``v7.toml`` and the link stays), which may not exist yet. Anything there that is not
+    a regular file (a FIFO, a device, a folder) is refused.
+
+    Raises
+    ------
+    FileFormatError
+        For a target that is not a regular file, naming the path given and the target.
+    """
+    path = Path(path)
+    target = Path(os.path.realpath(path)) if path.is_symlink() else path
+    try:
+        mode = target.stat().st_mode
+    except FileNotFoundError:
+        return target
+    except OSError as error:
+        raise FileFormatError(f"cannot write here: {error.strerror or error}", file=path) from None
+    if not stat.S_ISREG(mode):
+        what = "a folder" if stat.S_ISDIR(mode) else "a FIFO" if stat.S_ISFIFO(mode) else "not a regular file"
+        where = f" (the link leads to {target})" if target != path else ""
+        raise FileFormatError(f"is {what}{where}; loadcheck writes only regular files, nothing was written", file=path)
+    return target
+
+
+def _new_file_mode() -> int:
+    """Permissions of a newly created file: 0666 less the process's umask (as ``open`` gives)."""
+    mask = os.umask(0o022)
+    os.umask(mask)
+    return 0o666 & ~mask
+
+
 def write_atomic(path: str | Path, content: str | bytes) -> None:
     """Replace a file's content all at once, or leave it as it was.
 
     The content is written to a temporary file beside the target, flushed and synced,
     then renamed over the target (``os.replace``, atomic on POSIX and Windows). On any
-    error the temporary file is removed and the target is untouched.
+    error the temporary file is removed and the target is untouched. A symlink is written
+    through: its target is replaced, in the target's folder, and the link is kept
+    (:func:`write_target`). An existing file keeps its permissions; a new one gets those
+    the user's umask gives, as any other program's files do.
 
     Raises
     ------
     FileFormatError
-        When the file cannot be written (full disk, no permission), naming the file.
+        When the file cannot be written (full disk, no permission, not a regular file),
+        naming the file.
     """
-    path = Path(path)
+    given = Path(path)
+    path = write_target(given)
     data = content.encode("utf-8") if isinstance(content, str) else content
     folder = path.parent if str(path.parent) else Path(".")
     try:
         handle, temporary = tempfile.mkstemp(prefix=f".{path.name}.", suffix=".tmp", dir=folder)
     except OSError as error:
-        raise FileFormatError(f"cannot write here: {error.strerror or error}", file=path) from None
+        raise FileFormatError(f"cannot write here: {error.strerror or error}", file=given) from None
     try:
         with os.fdopen(handle, "wb") as stream:
             stream.write(data)
             stream.flush()
             os.fsync(stream.fileno())
-        if path.exists():
-            os.chmod(temporary, path.stat().st_mode & 0o7777)
+        os.chmod(temporary, path.stat().st_mode & 0o7777 if path.exists() else _new_file_mode())
         os.replace(temporary, path)
     except OSError as error:
         try:
             os.unlink(temporary)
         except OSError:
             pass
-        raise FileFormatError(f"could not write the file, it is unchanged: {error.strerror or error}", file=path) from None
+        raise FileFormatError(f"could not write the file, it is unchanged: {error.strerror or error}", file=given) from None
 
 
 # -- the mechanic's files ------------------------------------------------------------------
@@ -386,6 +427,57 @@ def _plain(value: Any) -> Any:
     return value
 
 
+def _set_value(table: Any, key: str, value: Any) -> None:
+    """Set ``table[key]`` and drop the trailing comment that belonged to the old value
+    (``weight = 897.0  # last weighing 2019`` must not stay on the new weight)."""
+    table[key] = value
+    item = table.item(key) if hasattr(table, "item") else None
+    if item is not None and getattr(item, "trivia", None) is not None:
+        item.trivia.comment = ""
+        item.trivia.comment_ws = ""
+
+
+def _append_entry(doc: Any, key: str, entry: dict[str, Any]) -> None:
+    """Append a table to an array of tables, in the layout the file already uses:
+    ``[[key]]`` tables, or an inline array ``key = [{...}]``."""
+    import tomlkit
+    from tomlkit.items import AoT, Array
+
+    existing = doc.get(key)
+    if isinstance(existing, Array):
+        inline = tomlkit.inline_table()
+        inline.update(entry)
+        existing.append(inline)
+        return
+    if existing is None:
+        doc[key] = tomlkit.aot()
+        existing = doc[key]
+    if not isinstance(existing, AoT):
+        raise FileFormatError(f"[{key}] is neither an array of tables nor an inline array; nothing was written")
+    table = tomlkit.table()
+    table.update(entry)
+    existing.append(table)
+
+
+def _replace_list(doc: Any, key: str, items: list[dict[str, Any]]) -> None:
+    """Replace an array of tables with new items, keeping its layout (inline or ``[[key]]``)."""
+    import tomlkit
+    from tomlkit.items import Array
+
+    if isinstance(doc.get(key), Array):
+        array = tomlkit.array()
+        for item in items:
+            inline = tomlkit.inline_table()
+            inline.update(item)
+            array.append(inline)
+        doc[key] = array
+        return
+    table = tomlkit.aot()
+    for item in items:
+        table.append(item)
+    doc[key] = table
+
+
 def write_new_record(
     path: str | Path,
     original: bytes,
@@ -397,54 +489,79 @@ def write_new_record(
     reason: str,
     inputs: Mapping[str, Any],
     equipment: list[dict[str, Any]] | None = None,
-) -> None:
+    by: str | None = None,
+    note: str | None = None,
+    overrides: list[str] | None = None,
+    recorded: Any = None,
+) -> Path:
     """Make a new empty-weight record current and keep the old one in ``[[history]]``.
 
-    The file keeps its comments and layout (tomlkit). It is written atomically
-    (:func:`write_atomic`), and only if it still holds exactly ``original``: a file that
-    changed since it was read is refused, and nothing is written. The new content is
-    validated as an aircraft file before it replaces the old one.
+    The file keeps its comments and layout (tomlkit), except the trailing comments of the
+    values replaced. The history entry holds when (``recorded``), why (``reason``,
+    ``note``), who (``by``), the overrides given, the inputs (bounded by the caller; see
+    :mod:`loadcheck.empty_record`) and the previous record. It is written atomically
+    (:func:`write_atomic`, through a symlink to its target), and only if the file still
+    holds exactly ``original``: a file that changed since it was read is refused, and
+    nothing is written. The new content is validated as an aircraft file, and its size
+    checked against :data:`MAX_FILE_BYTES`, before it replaces the old one: loadcheck
+    never writes a file it would refuse to read.
+
+    Returns
+    -------
+    Path
+        The file written (the symlink's target where ``path`` is a symlink).
 
     Raises
     ------
     FileFormatError
-        The file changed since it was read, or could not be written (it is unchanged).
+        The file changed since it was read, the result would not be a valid or readable
+        aircraft file, or it could not be written (it is unchanged).
     """
     import datetime as dt
 
     import tomlkit
 
     path = Path(path)
+    target = write_target(path)
     doc = tomlkit.parse(original.decode("utf-8"))
     previous = _plain(dict(doc["empty"].unwrap()))  # type: ignore[union-attr]
-    entry = tomlkit.table()
-    entry["recorded"] = dt.datetime.now().astimezone().replace(microsecond=0)
-    entry["reason"] = reason
-    entry["new_weight"] = round(weight, 4)
-    entry["new_arm"] = round(arm, 4)
-    entry["previous"] = previous
-    entry["inputs"] = _plain(dict(inputs))
+    entry: dict[str, Any] = {
+        "recorded": recorded or dt.datetime.now().astimezone().replace(microsecond=0),
+        "reason": reason,
+    }
+    entry.update(_plain({"by": by, "note": note}))
+    if overrides:
+        entry["overrides"] = list(overrides)
+    entry.update({"new_weight": round(weight, 4), "new_arm": round(arm, 4), "previous": previous,
+                  "inputs": _plain(dict(inputs))})
     empty = doc["empty"]
-    empty["weight"] = round(weight, 4)  # type: ignore[index]
-    empty["arm"] = round(arm, 4)  # type: ignore[index]
+    _set_value(empty, "weight", round(weight, 4))
+    _set_value(empty, "arm", round(arm, 4))
     if lateral_arm is not None:
-        empty["lateral_arm"] = round(lateral_arm, 4)  # type: ignore[index]
+        _set_value(empty, "lateral_arm", round(lateral_arm, 4))
     if date is not None:
-        empty["date"] = date  # type: ignore[index]
-    if "history" not in doc:
-        doc["history"] = tomlkit.aot()
-    doc["history"].append(entry)  # type: ignore[union-attr]
+        _set_value(empty, "date", date)
+    _append_entry(doc, "history", entry)
     if equipment is not None:
-        table = tomlkit.aot()
-        for item in equipment:
-            table.append(_plain(item))
-        doc["equipment"] = table
+        _replace_list(doc, "equipment", [_plain(item) for item in equipment])
     text = tomlkit.dumps(doc)
-    parse_aircraft(tomllib.loads(text), path)  # fail closed: never write a file we could not read back
+    size = len(text.encode("utf-8"))
+    if size > MAX_FILE_BYTES:
+        raise FileFormatError(f"the new file would be {size:,} bytes, more than loadcheck reads ({MAX_FILE_BYTES:,}); "
+                              "nothing was written (move old [[history]] entries to an archive file)", file=path)
     try:
-        current = path.read_bytes()
+        parse_aircraft(tomllib.loads(text), path)  # fail closed: never write a file we could not read back
+    except tomllib.TOMLDecodeError as error:
+        raise FileFormatError(f"the updated file would not be valid TOML ({error}); nothing was written", file=path) from None
+    except LoadcheckError as error:
+        reason_text = "; ".join(p.describe() for p in error.problems)
+        raise FileFormatError(f"the updated file would not be a valid aircraft file ({reason_text}); nothing was written",
+                              file=path) from None
+    try:
+        current = target.read_bytes()
     except OSError as error:
         raise FileFormatError(f"cannot read the file again before writing: {error.strerror or error}", file=path) from None
     if current.decode("utf-8-sig", errors="replace").encode("utf-8") != original:
         raise FileFormatError("the file changed since it was read; nothing was written (run the command again)", file=path)
     write_atomic(path, text)
+    return target

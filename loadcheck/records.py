@@ -11,12 +11,20 @@ batch leaves every record written before it whole); the database runs in WAL mod
 failure may be lost); a trigger refuses any UPDATE or DELETE, so a record is never
 rewritten. Several processes may write at once: SQLite serialises them (each waits up to
 30 s for the lock).
+
+Each record also carries a seal: the SHA-256 of every stored field a person reads (time,
+registration, reference, pilot, source, category, verdict, fingerprint, inputs, result,
+version). :func:`verify` recomputes the check and the seal and compares the stored verdict,
+category and registration with the recomputed ones, so an edit made behind the triggers'
+back (with the triggers dropped) is found. The seal is not a signature: someone who can
+rewrite the database can recompute it; it finds edits, it does not prevent them.
 """
 
 from __future__ import annotations
 
 import csv
 import datetime as dt
+import hashlib
 import io
 import json
 import math
@@ -28,9 +36,22 @@ from dataclasses import dataclass
 from pathlib import Path
 from typing import Any
 
-from .errors import FileFormatError, InputError, Problem
+from .caution import PILOT_CAUTION
+from .errors import FileFormatError, InputError, LoadcheckError, Problem
+from .results import Result
 
-__all__ = ["Record", "RecordLog", "default_path", "export_text", "results_match"]
+__all__ = ["CurrentCheck", "CurrentVerification", "Record", "RecordLog", "Verification", "default_path", "export_text",
+           "results_match", "verify", "verify_current"]
+
+_COLUMNS = ("id, checked_at, registration, reference, pilot, source, category, ok, fingerprint, inputs, result, version, "
+            "seal")
+
+
+def _seal(checked_at: str, registration: str | None, reference: str | None, pilot: str | None, source: str | None,
+          category: str | None, ok: int, fingerprint: str, inputs: str, result: str, version: str) -> str:
+    """SHA-256 over a record's stored fields, as stored (the JSON texts byte for byte)."""
+    fields = [checked_at, registration, reference, pilot, source, category, int(ok), fingerprint, inputs, result, version]
+    return hashlib.sha256(json.dumps(fields, separators=(",", ":")).encode("utf-8")).hexdigest()
 
 _SCHEMA = """
 CREATE TABLE IF NOT EXISTS aircraft_data (
@@ -49,7 +70,8 @@ CREATE TABLE IF NOT EXISTS checks (
     fingerprint TEXT NOT NULL REFERENCES aircraft_data(fingerprint),
     inputs TEXT NOT NULL,
     result TEXT NOT NULL,
-    version TEXT NOT NULL
+    version TEXT NOT NULL,
+    seal TEXT
 );
 CREATE INDEX IF NOT EXISTS checks_by_registration ON checks(registration, checked_at);
 CREATE INDEX IF NOT EXISTS checks_by_time ON checks(checked_at);
@@ -90,6 +112,8 @@ class Record:
     inputs: dict[str, Any]
     result: dict[str, Any]
     version: str
+    seal: str | None = None
+    stored: tuple[Any, ...] = ()  # the row as stored, for the seal
 
     def summary(self) -> dict[str, Any]:
         """The record without its inputs and result, for listings."""
@@ -127,6 +151,9 @@ class RecordLog:
             for statement in _SCHEMA.split(";\n"):
                 if statement.strip():
                     self._db.execute(statement)
+            columns = {row[1] for row in self._db.execute("PRAGMA table_info(checks)")}
+            if "seal" not in columns:  # a database made before records were sealed
+                self._db.execute("ALTER TABLE checks ADD COLUMN seal TEXT")
             self._db.execute("COMMIT")
         except sqlite3.Error:
             self._db.execute("ROLLBACK")
@@ -178,13 +205,14 @@ class RecordLog:
                     self._db.execute("INSERT OR IGNORE INTO aircraft_data (fingerprint, data) VALUES (?, ?)",
                                      (fingerprint, json.dumps(data, sort_keys=True, separators=(",", ":"))))
                 result = record["result"]
+                values = (now, record.get("registration"), record.get("reference"), record.get("pilot"),
+                          record.get("source"), result.get("category"), int(bool(result.get("ok"))), fingerprint,
+                          json.dumps(record["inputs"], separators=(",", ":"), default=str),
+                          json.dumps(result, separators=(",", ":")), record.get("version", ""))
                 cursor = self._db.execute(
                     "INSERT INTO checks (checked_at, registration, reference, pilot, source, category, ok, fingerprint, "
-                    "inputs, result, version) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)",
-                    (now, record.get("registration"), record.get("reference"), record.get("pilot"), record.get("source"),
-                     result.get("category"), int(bool(result.get("ok"))), fingerprint,
-                     json.dumps(record["inputs"], separators=(",", ":"), default=str),
-                     json.dumps(result, separators=(",", ":")), record.get("version", "")),
+                    "inputs, result, version, seal) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)",
+                    (*values, _seal(*values)),
                 )
                 ids.append(int(cursor.lastrowid or 0))
             self._db.execute("COMMIT")
@@ -200,7 +228,7 @@ class RecordLog:
         return Record(
             id=row[0], checked_at=row[1], registration=row[2], reference=row[3], pilot=row[4], source=row[5],
             category=row[6], ok=bool(row[7]), fingerprint=row[8], inputs=json.loads(row[9]), result=json.loads(row[10]),
-            version=row[11],
+            version=row[11], seal=row[12], stored=tuple(row[1:12]),
         )
 
     def get(self, record_id: int) -> Record:
@@ -211,9 +239,7 @@ class RecordLog:
         InputError
             When there is no such record.
         """
-        row = self._db.execute(
-            "SELECT id, checked_at, registration, reference, pilot, source, category, ok, fingerprint, inputs, result, "
-            "version FROM checks WHERE id = ?", (record_id,)).fetchone()
+        row = self._db.execute(f"SELECT {_COLUMNS} FROM checks WHERE id = ?", (record_id,)).fetchone()
         if row is None:
             raise InputError(Problem("ID", f"no record {record_id} in {self.path}"))
         return self._row(row)
@@ -240,23 +266,25 @@ class RecordLog:
             clauses.append("registration = ?")
             args.append(registration)
         where = f" WHERE {' AND '.join(clauses)}" if clauses else ""
-        query = ("SELECT id, checked_at, registration, reference, pilot, source, category, ok, fingerprint, inputs, "
-                 f"result, version FROM checks{where} ORDER BY id")
+        query = f"SELECT {_COLUMNS} FROM checks{where} ORDER BY id"
         for row in self._db.execute(query, args):
             yield self._row(row)
 
 
 _CSV_HEAD = ["id", "checked_at", "registration", "reference", "pilot", "source", "category", "ok", "fingerprint",
-             "takeoff_weight", "takeoff_arm", "landing_weight", "landing_arm", "first_finding"]
+             "mass_unit", "arm_unit", "takeoff_weight", "takeoff_arm", "landing_weight", "landing_arm", "first_finding"]
 
 
 def _csv_row(record: Record) -> list[Any]:
-    """One record's key figures: takeoff and landing weight and arm, the first limit finding."""
+    """One record's key figures: takeoff and landing weight and arm in the units of the record's
+    aircraft (named in its own columns: a fleet may mix lb/in and kg/m), the first limit finding."""
     conditions = {c["condition"]: c for c in record.result.get("conditions", [])}
     takeoff, landing = conditions.get("takeoff", {}), conditions.get("landing", {})
     first = next((f["message"] for f in record.result.get("findings", []) if f["severity"] == "limit"), "")
+    units = record.result.get("units", {})
     return [record.id, record.checked_at, record.registration, record.reference, record.pilot, record.source,
-            record.category, record.ok, record.fingerprint, takeoff.get("weight"), takeoff.get("arm"),
+            record.category, record.ok, record.fingerprint, units.get("mass"), units.get("arm"),
+            takeoff.get("weight"), takeoff.get("arm"),
             landing.get("weight"), landing.get("arm"), first]
 
 
@@ -286,3 +314,172 @@ def results_match(a: Any, b: Any, rel: float = 1e-9) -> bool:
     if isinstance(a, (int, float)) and isinstance(b, (int, float)):
         return math.isclose(a, b, rel_tol=rel, abs_tol=1e-12)
     return bool(a == b)
+
+
+# -- verification ------------------------------------------------------------------------------
+
+
+@dataclass(frozen=True, kw_only=True, slots=True)
+class Verification(Result):
+    """Whether a recorded check is what it says: recomputed from its inputs and recorded
+    aircraft data, with every stored field a person reads compared.
+
+    ``differences`` lists each field that does not match (empty when reproduced); ``notes``
+    what could not be verified (a record made before seals).
+    """
+
+    record_id: int
+    reproduced: bool
+    ok: bool
+    fingerprint: str
+    differences: list[str]
+    notes: list[str]
+    caution: str = PILOT_CAUTION
+
+
+def _check_again(aircraft: Any, inputs: dict[str, Any], where: str) -> Any:
+    """The recorded loading (its inputs) checked against an aircraft: the CheckResult."""
+    from .check import check_loading
+    from .files import parse_loading
+    from .loading import resolve_loading
+
+    loading = parse_loading(inputs, where)
+    try:
+        resolved = resolve_loading(loading, aircraft)
+    except LoadcheckError as error:
+        raise error.with_file(where) from None
+    return check_loading(aircraft, resolved)
+
+
+def verify(log: RecordLog, record_id: int) -> Verification:
+    """Recompute a recorded check from its stored inputs and aircraft data and compare every stored field.
+
+    Compared: the result (numbers within a relative 1e-9), the aircraft data's fingerprint,
+    the stored verdict (``ok``), category and registration against the recomputed ones, and
+    the seal over all stored fields (time, reference, pilot and source included).
+
+    Raises
+    ------
+    InputError
+        When there is no such record, or its stored data cannot be read.
+    """
+    record = log.get(record_id)
+    from .files import parse_aircraft
+
+    aircraft = parse_aircraft(log.aircraft_data(record.fingerprint), f"record {record_id}")
+    again = _check_again(aircraft, record.inputs, f"record {record_id}").to_dict()
+    differences = []
+    if aircraft.fingerprint != record.fingerprint:
+        differences.append(f"the recorded aircraft data gives the fingerprint {aircraft.fingerprint}, "
+                           f"not the recorded {record.fingerprint}")
+    if not results_match(record.result, again):
+        differences.append("the stored result differs from the recomputed one")
+    if record.ok != bool(again.get("ok")):
+        differences.append(f"the stored verdict ({'within' if record.ok else 'out of'} limits) is not the recomputed one "
+                           f"({'within' if again.get('ok') else 'out of'} limits)")
+    if record.category != again.get("category"):
+        differences.append(f"the stored category {record.category!r} is not the recomputed {again.get('category')!r}")
+    if record.registration != aircraft.registration:
+        differences.append(f"the stored registration {record.registration!r} is not the recorded aircraft data's "
+                           f"{aircraft.registration!r}")
+    given = record.inputs.get("registration")
+    if given is not None and given != record.registration:
+        differences.append(f"the stored registration {record.registration!r} is not the loading's {given!r}")
+    notes = []
+    if record.seal is None:
+        notes.append("this record has no seal (recorded by an earlier version): its time, reference, pilot and source "
+                     "cannot be verified")
+    elif _seal(*record.stored) != record.seal:
+        differences.append("the stored fields do not match the record's seal: a field (time, registration, reference, "
+                           "pilot, source, category, verdict, inputs, result or version) was changed after recording")
+    return Verification(record_id=record_id, reproduced=not differences, ok=bool(again.get("ok")),
+                        fingerprint=record.fingerprint, differences=differences, notes=notes)
+
+
+@dataclass(frozen=True, kw_only=True, slots=True)
+class CurrentCheck(Result):
+    """One recorded check against the aircraft's current data.
+
+    ``data_changed`` is True where the current aircraft data's fingerprint is not the
+    recorded one; ``current_ok`` is the verdict with the current data (None where the
+    loading cannot be checked with it: ``problem`` says why); ``current_findings`` its limit
+    findings.
+    """
+
+    record_id: int
+    checked_at: str
+    registration: str | None
+    reference: str | None
+    recorded_ok: bool
+    recorded_fingerprint: str
+    current_fingerprint: str | None
+    data_changed: bool
+    current_ok: bool | None
+    current_findings: list[str]
+    problem: str | None = None
+
+    @property
+    def now_out_of_limits(self) -> bool:
+        """Recorded within limits, out of limits with the current data."""
+        return self.recorded_ok and self.current_ok is False
+
+
+@dataclass(frozen=True, kw_only=True, slots=True)
+class CurrentVerification(Result):
+    """Recorded checks against the current aircraft data of a fleet.
+
+    ``status``: 0 no check recorded within limits is out of limits with the current data;
+    1 at least one is; 2 a record could not be checked with the current data.
+    """
+
+    checks: list[CurrentCheck]
+    fleet: str
+    status: int
+    changed: int
+    now_out_of_limits: int
+    caution: str = PILOT_CAUTION
+
+
+def verify_current(records: Iterable[Record], fleet: Any) -> CurrentVerification:
+    """Check recorded loadings again with the current aircraft data of a fleet.
+
+    Parameters
+    ----------
+    records : the recorded checks (e.g. :meth:`RecordLog.find`)
+    fleet : a :class:`~loadcheck.fleet.Fleet` holding the current aircraft files, by registration
+
+    Returns
+    -------
+    CurrentVerification
+        Which checks were made with aircraft data that has changed since, and what their
+        loadings give with the current data; the exit status it calls for.
+    """
+    checks = []
+    for record in records:
+        common: dict[str, Any] = {"record_id": record.id, "checked_at": record.checked_at, "registration": record.registration,
+                  "reference": record.reference, "recorded_ok": record.ok, "recorded_fingerprint": record.fingerprint}
+        try:
+            if record.registration is None:
+                raise InputError(Problem("registration", "the record names no registration, so its aircraft's "
+                                                         "current data cannot be found"))
+            aircraft = fleet.aircraft(record.registration)
+        except LoadcheckError as error:
+            checks.append(CurrentCheck(**common, current_fingerprint=None, data_changed=True, current_ok=None,
+                                       current_findings=[], problem="; ".join(p.describe() for p in error.problems)))
+            continue
+        changed = aircraft.fingerprint != record.fingerprint
+        try:
+            result = _check_again(aircraft, record.inputs, f"record {record.id}")
+        except LoadcheckError as error:
+            checks.append(CurrentCheck(**common, current_fingerprint=aircraft.fingerprint, data_changed=changed,
+                                       current_ok=None, current_findings=[],
+                                       problem="the loading cannot be checked with the current data: "
+                                               + "; ".join(p.describe() for p in error.problems)))
+            continue
+        checks.append(CurrentCheck(**common, current_fingerprint=aircraft.fingerprint, data_changed=changed,
+                                   current_ok=result.ok,
+                                   current_findings=[f.message for f in result.findings if f.severity == "limit"]))
+    worse = sum(1 for c in checks if c.now_out_of_limits)
+    status = 2 if any(c.problem for c in checks) else 1 if worse else 0
+    return CurrentVerification(checks=checks, fleet=str(fleet.folder), status=status,
+                               changed=sum(1 for c in checks if c.data_changed), now_out_of_limits=worse)

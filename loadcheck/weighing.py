@@ -16,7 +16,7 @@ from __future__ import annotations
 
 import datetime as dt
 from dataclasses import dataclass, field
-from typing import Literal
+from typing import Any, Literal
 
 from pydantic import BaseModel, ConfigDict, Field, model_validator
 
@@ -26,7 +26,12 @@ from .errors import InputError, Problem, UnknownNameError
 from .results import Result
 
 __all__ = ["Readings", "WeighingPoint", "Geometry", "ReadingItem", "WeighResult", "WeighPoint", "Correction", "Record",
-           "weigh", "point_arm"]
+           "Refusal", "PLAUSIBLE_CHANGE", "weigh", "point_arm", "record_checks", "current_record_warnings"]
+
+PLAUSIBLE_CHANGE = 0.10
+"""Largest change of empty weight written without an override, as a fraction of the current
+record (common practice: a weighing or an ordinary alteration moves the empty weight by a few
+per cent; ten per cent or more is a misread scale, a wrong unit or a major alteration)."""
 
 
 class _Model(BaseModel):
@@ -89,6 +94,7 @@ class Readings(_Model):
     date: dt.date | None = None
     weighed_by: str | None = None
     note: str | None = None
+    keep_lateral_arm: bool = Field(False, description="no lateral readings: keep the current record's lateral CG")
     geometry: Geometry | None = None
     point: list[WeighingPoint] = Field(min_length=1)
     on_board: list[ReadingItem] = Field(default_factory=list, description="aboard, not part of the empty weight")
@@ -102,6 +108,9 @@ class Readings(_Model):
             other = "tail" if self.geometry.gear == "nosewheel" else "nose"
             if any(p.wheel == other for p in self.point):
                 raise ValueError(f"a {self.geometry.gear} aircraft has no {other} wheel")
+        if self.keep_lateral_arm and any(p.lateral_arm is not None for p in self.point):
+            raise ValueError("keep_lateral_arm: the points give lateral arms, so the lateral CG is measured; "
+                             "leave keep_lateral_arm out")
         return self
 
 
@@ -152,8 +161,27 @@ class Record(Result):
 
 
 @dataclass(frozen=True, kw_only=True, slots=True)
+class Refusal(Result):
+    """A reason a new empty-weight record is not written as it stands.
+
+    ``overridable`` is False where the record could never be read back (an empty weight
+    that reaches the maximum takeoff weight); True where an explicit override, kept in the
+    history, may write it.
+    """
+
+    code: Literal["no_useful_load", "cg_outside_envelopes", "implausible_change"]
+    message: str
+    overridable: bool
+
+
+@dataclass(frozen=True, kw_only=True, slots=True)
 class WeighResult(Result):
-    """The outcome of a weighing (not yet the aircraft's record: ``--write`` makes it so)."""
+    """The outcome of a weighing (not yet the aircraft's record: writing makes it so).
+
+    ``date``, ``weighed_by``, ``note`` and ``geometry`` come from the readings;
+    ``cg_range`` is the aircraft's empty-weight CG range [arm unit], where it gives one;
+    ``refusals`` say why the record is not written without an override.
+    """
 
     aircraft: str
     registration: str | None
@@ -167,8 +195,88 @@ class WeighResult(Result):
     useful_load: float
     change_useful_load: float
     warnings: list[str] = field(default_factory=list)
+    refusals: list[Refusal] = field(default_factory=list)
     formula_cg: float | None = None
+    date: str | None = None
+    weighed_by: str | None = None
+    note: str | None = None
+    geometry: dict[str, Any] | None = None
+    cg_range: tuple[float, float] | None = None
     caution: str = MECHANIC_CAUTION
+
+
+def _longitudinal_span(aircraft: Aircraft) -> tuple[float, float] | None:
+    """Most forward and most rearward arm of all the aircraft's longitudinal envelopes [arm unit]."""
+    spans = []
+    for envelope in aircraft.envelope:
+        try:
+            spans.append(envelope.shape.arm_range())
+        except ValueError:
+            continue  # a lateral envelope does not limit the longitudinal CG
+    if not spans:
+        return None
+    return min(s[0] for s in spans), max(s[1] for s in spans)
+
+
+def _outside_cg_range(aircraft: Aircraft, arm: float, what: str) -> str | None:
+    cg_range = aircraft.empty.cg_range
+    if cg_range is None or cg_range[0] <= arm <= cg_range[1]:
+        return None
+    unit = aircraft.units.arm
+    return (f"{what} {arm:.2f} {unit} is outside the empty-weight CG range {cg_range[0]:g} to {cg_range[1]:g} {unit}: "
+            "check the inputs and the arms")
+
+
+def current_record_warnings(aircraft: Aircraft) -> list[str]:
+    """Warnings about the aircraft's current empty-weight record (its CG outside its CG range).
+
+    For ``show`` and ``validate``, which show the range and flag a record outside it.
+    """
+    warning = _outside_cg_range(aircraft, aircraft.empty.arm, "the empty-weight CG")
+    return [warning] if warning else []
+
+
+def record_checks(aircraft: Aircraft, new: Record) -> tuple[list[str], list[Refusal]]:
+    """What a new empty-weight record must be checked for before it becomes current.
+
+    Returns warnings (a CG outside the empty-weight CG range) and refusals: an empty
+    weight that reaches the maximum takeoff weight (never written: the aircraft file
+    would be refused), a CG outside every longitudinal envelope's arm span, a change of
+    more than :data:`PLAUSIBLE_CHANGE` of the current empty weight (written only with an
+    explicit override, kept in the history).
+
+    Parameters
+    ----------
+    aircraft : the aircraft with its current record
+    new : the proposed record [aircraft units]
+    """
+    units = aircraft.units
+    warning = _outside_cg_range(aircraft, new.arm, "the new empty-weight CG")
+    warnings = [warning] if warning else []
+    refusals = []
+    limit = aircraft.limits.max_takeoff_weight
+    if new.weight >= limit:
+        refusals.append(Refusal(
+            code="no_useful_load", overridable=False,
+            message=(f"the new empty weight {new.weight:,.1f} {units.mass} reaches the maximum takeoff weight "
+                     f"{limit:,.1f} {units.mass} (useful load {limit - new.weight:,.1f} {units.mass}): "
+                     "a misread scale or a wrong unit? Such a record is never written"),
+        ))
+    span = _longitudinal_span(aircraft)
+    if span is not None and not span[0] <= new.arm <= span[1]:
+        refusals.append(Refusal(
+            code="cg_outside_envelopes", overridable=True,
+            message=(f"the new empty-weight CG {new.arm:.2f} {units.arm} lies outside every envelope's arm span "
+                     f"({span[0]:g} to {span[1]:g} {units.arm}): check the readings and the arms"),
+        ))
+    current = aircraft.empty.weight
+    if abs(new.weight - current) > PLAUSIBLE_CHANGE * current:
+        refusals.append(Refusal(
+            code="implausible_change", overridable=True,
+            message=(f"the new empty weight {new.weight:,.1f} {units.mass} differs from the current record "
+                     f"{current:,.1f} {units.mass} by more than {PLAUSIBLE_CHANGE:.0%}: check the inputs"),
+        ))
+    return warnings, refusals
 
 
 def _item(aircraft: Aircraft, item: ReadingItem, where: str) -> tuple[float, float, float]:
@@ -208,6 +316,17 @@ def weigh(aircraft: Aircraft, readings: Readings) -> WeighResult:
     FAA-H-8083-1B chapter 3 (empty-weight CG, sum of moments).
     """
     lateral = any(p.lateral_arm is not None for p in readings.point)
+    empty = aircraft.empty
+    notes: list[str] = []
+    if not lateral and aircraft.has_lateral and not readings.keep_lateral_arm:
+        kept = "none" if empty.lateral_arm is None else f"{empty.lateral_arm:g} {aircraft.units.arm}"
+        raise InputError(Problem(
+            "point", "this aircraft has a lateral envelope, and no weighing point gives its lateral_arm: give each "
+            f"point's lateral_arm, or state keep_lateral_arm = true to keep the current lateral CG ({kept})"))
+    if not lateral and empty.lateral_arm is not None:
+        why = "as the readings state (keep_lateral_arm)" if readings.keep_lateral_arm else "the readings give no lateral arms"
+        notes.append(f"the lateral CG was not measured: the current record's {empty.lateral_arm:g} {aircraft.units.arm} "
+                     f"is kept ({why})")
     points = []
     for p in readings.point:
         arm = point_arm(p, readings.geometry)
@@ -234,22 +353,19 @@ def weigh(aircraft: Aircraft, readings: Readings) -> WeighResult:
             lateral_moment += sign * w * lat
     if weight <= 0:
         raise InputError(Problem("on_board", "taking off the items aboard leaves no weight: check the corrections"))
-    new = Record(weight=weight, arm=moment / weight, moment=moment, lateral_arm=lateral_moment / weight if lateral else None)
-    empty = aircraft.empty
+    new = Record(weight=weight, arm=moment / weight, moment=moment,
+                 lateral_arm=lateral_moment / weight if lateral else empty.lateral_arm)
     previous = Record(weight=empty.weight, arm=empty.arm, moment=empty.moment, lateral_arm=empty.lateral_arm)
-    if empty.cg_range is not None and not empty.cg_range[0] <= new.arm <= empty.cg_range[1]:
-        warnings.append(
-            f"the new empty-weight CG {new.arm:.2f} {aircraft.units.arm} is outside the empty-weight CG range "
-            f"{empty.cg_range[0]:g} to {empty.cg_range[1]:g} {aircraft.units.arm}: check the readings and the arms"
-        )
-    if abs(new.weight - empty.weight) > 0.1 * empty.weight:
-        warnings.append("the new empty weight differs from the current record by more than 10 %: check the readings")
+    record_warnings, refusals = record_checks(aircraft, new)
     useful = aircraft.limits.max_takeoff_weight - new.weight
     return WeighResult(
         aircraft=aircraft.name, registration=aircraft.registration, points=points, as_weighed=as_weighed,
         corrections=corrections, new=new, previous=previous, change_weight=new.weight - empty.weight,
         change_arm=new.arm - empty.arm, useful_load=useful, change_useful_load=useful - aircraft.useful_load,
-        warnings=warnings, formula_cg=_formula_cg(readings, points),
+        warnings=notes + warnings + record_warnings, refusals=refusals, formula_cg=_formula_cg(readings, points),
+        date=None if readings.date is None else readings.date.isoformat(), weighed_by=readings.weighed_by,
+        note=readings.note, geometry=None if readings.geometry is None else readings.geometry.model_dump(),
+        cg_range=empty.cg_range,
     )
 
 

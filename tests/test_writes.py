@@ -82,3 +82,153 @@ def test_a_corrupt_database_is_refused_not_overwritten(tmp_path):
     with pytest.raises(FileFormatError, match="record database"):
         RecordLog(db)
     assert db.read_bytes() == b"this is not a database" * 100
+
+
+# -- symlinks, special files, permissions (issue 14 item 4, issue 15 item 7) ---------------------
+
+
+def _linked_trainer(tmp_path):
+    """current.toml -> versions/v7.toml, as a fleet keeps versioned aircraft files."""
+    import os
+    import shutil
+
+    versions = tmp_path / "versions"
+    versions.mkdir()
+    shutil.copy(sample("trainer4/aircraft.toml"), versions / "v7.toml")
+    shutil.copy(sample("trainer4/weighing.toml"), tmp_path / "weighing.toml")
+    link = tmp_path / "current.toml"
+    os.symlink(os.path.join("versions", "v7.toml"), link)
+    return link, versions / "v7.toml"
+
+
+def test_weigh_write_goes_through_a_symlink_to_its_target(tmp_path):
+    from loadcheck import load_aircraft
+
+    link, target = _linked_trainer(tmp_path)
+    result = runner.invoke(app, ["weigh", str(link), str(tmp_path / "weighing.toml"), "--write", "--yes"])
+    assert result.exit_code == 0, result.output
+    assert link.is_symlink() and link.resolve() == target.resolve()
+    assert load_aircraft(target).empty.weight == pytest.approx(1685.8, abs=0.05)
+    assert "through the link" in result.output
+    assert sorted(p.name for p in target.parent.iterdir()) == ["v7.toml"]  # no temporary file left
+
+
+@pytest.mark.parametrize("args", [
+    ["weigh", str(sample("trainer4/aircraft.toml")), str(sample("trainer4/weighing.toml")), "--sheet"],
+    ["check", str(sample("trainer4/within.toml")), "--sheet"],
+])
+def test_sheets_go_through_a_symlink(tmp_path, args):
+    import os
+
+    (tmp_path / "real.html").write_text("old")
+    os.symlink("real.html", tmp_path / "record.html")
+    result = runner.invoke(app, [*args, str(tmp_path / "record.html")])
+    assert result.exit_code in (0, 1), result.output
+    assert (tmp_path / "record.html").is_symlink() and "<!DOCTYPE html>" in (tmp_path / "real.html").read_text()
+
+
+def test_export_goes_through_a_symlink(tmp_path):
+    import os
+
+    db = tmp_path / "records.sqlite3"
+    with RecordLog(db) as log:
+        log.add(aircraft_data={"a": 1}, fingerprint="f", inputs={}, result={"ok": True, "category": "normal"})
+    (tmp_path / "real.csv").write_text("old\n")
+    os.symlink("real.csv", tmp_path / "export.csv")
+    result = runner.invoke(app, ["records", "export", "--db", str(db), "--format", "csv", "--out", str(tmp_path / "export.csv")])
+    assert result.exit_code == 0 and (tmp_path / "export.csv").is_symlink()
+    assert (tmp_path / "real.csv").read_text().startswith("id,checked_at")
+
+
+@pytest.mark.parametrize("through_link", [False, True])
+@pytest.mark.parametrize("command", ["record-sheet", "load-sheet", "export"])
+def test_a_fifo_is_refused_not_replaced_or_read(tmp_path, command, through_link):
+    import os
+
+    fifo = tmp_path / "pipe.html"
+    os.mkfifo(fifo)
+    name = fifo
+    if through_link:
+        name = tmp_path / "link.html"
+        os.symlink("pipe.html", name)
+    if command == "record-sheet":
+        args = ["weigh", str(sample("trainer4/aircraft.toml")), str(sample("trainer4/weighing.toml")), "--sheet", str(name)]
+    elif command == "load-sheet":
+        args = ["check", str(sample("trainer4/within.toml")), "--sheet", str(name)]
+    else:
+        db = tmp_path / "records.sqlite3"
+        with RecordLog(db) as log:
+            log.add(aircraft_data={"a": 1}, fingerprint="f", inputs={}, result={"ok": True})
+        args = ["records", "export", "--db", str(db), "--out", str(name)]
+    result = runner.invoke(app, args)
+    assert result.exit_code == 2, result.output
+    assert "FIFO" in result.output and "nothing was written" in result.output
+    import stat
+
+    assert stat.S_ISFIFO(os.stat(fifo).st_mode)
+
+
+def test_write_atomic_refuses_a_folder(tmp_path):
+    with pytest.raises(FileFormatError, match="is a folder"):
+        files_module.write_atomic(tmp_path, "x")
+
+
+@pytest.mark.parametrize("umask, mode", [(0o022, 0o644), (0o077, 0o600), (0o002, 0o664)])
+def test_new_files_follow_the_umask(tmp_path, umask, mode):
+    import os
+
+    old = os.umask(umask)
+    try:
+        files_module.write_atomic(tmp_path / "new.html", "x")
+    finally:
+        os.umask(old)
+    assert (tmp_path / "new.html").stat().st_mode & 0o777 == mode
+
+
+def test_an_existing_file_keeps_its_permissions(tmp_path):
+    import os
+
+    path = tmp_path / "kept.csv"
+    path.write_text("old")
+    os.chmod(path, 0o640)
+    files_module.write_atomic(path, "new")
+    assert path.stat().st_mode & 0o777 == 0o640 and path.read_text() == "new"
+
+
+# -- crash and full disk on the new write paths: symlink target, confirmation, override ---------
+
+
+def _write_path(tmp_path, monkeypatch, path_kind):
+    """Set up one of the new write paths; return (aircraft path, file that must stay whole, arguments, stdin)."""
+    import shutil
+
+    import loadcheck.cli.mechanic as mechanic_cli
+
+    if path_kind == "symlink":
+        link, target = _linked_trainer(tmp_path)
+        return target, ["weigh", str(link), str(tmp_path / "weighing.toml"), "--write", "--yes"], None
+    shutil.copy(sample("trainer4/aircraft.toml"), tmp_path / "aircraft.toml")
+    readings = tmp_path / "weighing.toml"
+    text = sample("trainer4/weighing.toml").read_text()
+    if path_kind == "confirmation":
+        monkeypatch.setattr(mechanic_cli, "_interactive", lambda: True)
+        readings.write_text(text)
+        return tmp_path / "aircraft.toml", ["weigh", str(tmp_path / "aircraft.toml"), str(readings), "--write"], "y\n"
+    readings.write_text(text.replace("reading = 598.0", "reading = 798.0"))  # an implausible change: needs --force
+    return tmp_path / "aircraft.toml", ["weigh", str(tmp_path / "aircraft.toml"), str(readings), "--write", "--yes",
+                                        "--force"], None
+
+
+@pytest.mark.parametrize("how", ["crash", "disk_full"])
+@pytest.mark.parametrize("path_kind", ["symlink", "confirmation", "override"])
+def test_new_write_paths_survive_a_crash_and_a_full_disk(tmp_path, monkeypatch, how, path_kind):
+    whole, args, answer = _write_path(tmp_path, monkeypatch, path_kind)
+    before = whole.read_bytes()
+    _crash(monkeypatch, how)
+    result = runner.invoke(app, args, input=answer)
+    assert result.exit_code == 2, result.output
+    assert "unchanged" in result.output and "Traceback" not in result.output
+    assert whole.read_bytes() == before
+    assert not [p for p in whole.parent.iterdir() if p.name.endswith(".tmp")]
+    if path_kind == "symlink":
+        assert (tmp_path / "current.toml").is_symlink()

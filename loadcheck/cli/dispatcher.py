@@ -216,35 +216,66 @@ def records_export(
 
 @records_app.command("verify")
 @input_errors
-def records_verify(record_id: Annotated[int, typer.Argument(help="Record id.")], db: DbOpt = None) -> None:
-    """Recompute a recorded check from its stored inputs and aircraft data; say whether it matches.
+def records_verify(
+    record_id: Annotated[int | None, typer.Argument(help="Record id (with --current: optional, else every record the filters select).")] = None,
+    db: DbOpt = None,
+    current: Annotated[Path | None, typer.Option(help="Fleet folder: check the recorded loadings with its current aircraft data.")] = None,
+    since: SinceOpt = None, until: UntilOpt = None, registration: RegOpt = None,
+    json_out: JsonOpt = False,
+) -> None:
+    """Recompute a recorded check from its stored inputs and aircraft data; say whether every stored field matches.
 
-    Exit status: 0 the same result, 1 a different one, 2 bad input.
+    Exit status: 0 reproduced, 1 not, 2 bad input.
+
+    With --current FOLDER: which recorded checks were made with aircraft data that has
+    changed since, and what their loadings give with the fleet's current data. Exit status:
+    0 no check recorded within limits is out of limits now, 1 at least one is, 2 a record
+    could not be checked with the current data.
+
+    Example:
+
+      loadcheck records verify --current sample_aircraft --since 2026-11-01
     """
-    from ..check import check_loading
-    from ..files import parse_aircraft, parse_loading
-    from ..loading import resolve_loading
-    from ..records import results_match
-
-    with _log(db) as log:
-        record = log.get(record_id)
-        data = log.aircraft_data(record.fingerprint)
-    aircraft = parse_aircraft(data, f"record {record_id}")
-    loading = parse_loading(record.inputs, f"record {record_id}")
-    again = check_loading(aircraft, resolve_loading(loading, aircraft)).to_dict()
-    same = results_match(record.result, again) and aircraft.fingerprint == record.fingerprint
     from ..caution import PILOT_CAUTION
     from ..render.terminal import caution_text
 
     console = _console()
-    if same:
+    if current is not None:
+        from ..fleet import load_fleet
+        from ..records import verify_current
+
+        fleet = load_fleet(current)
+        with _log(db) as log:
+            chosen = ([log.get(record_id)] if record_id is not None else
+                      log.find(since=_date(since, "--since"), until=_date(until, "--until"), registration=registration))
+            outcome = verify_current(chosen, fleet)
+        if json_out:
+            typer.echo(outcome.to_json())
+        else:
+            from ..render.records import render_current_verification
+
+            render_current_verification(outcome, console)
+        raise typer.Exit(outcome.status)
+    if record_id is None:
+        raise InputError(Problem("ID", "give the record id to verify (or --current FOLDER to check records against it)"))
+    if since or until or registration:
+        raise InputError(Problem("--since", "--since, --until and --registration go with --current"))
+    from ..records import verify
+
+    with _log(db) as log:
+        verification = verify(log, record_id)
+    if json_out:
+        typer.echo(verification.to_json())
+    elif verification.reproduced:
         console.print(f"record {record_id}: reproduced; the same result "
-                      f"({'within limits' if again['ok'] else 'out of limits'}) from the recorded inputs and aircraft data "
-                      f"{record.fingerprint}", markup=False)
+                      f"({'within limits' if verification.ok else 'out of limits'}) from the recorded inputs and aircraft "
+                      f"data {verification.fingerprint}, and every stored field matches", markup=False)
+    else:
+        console.print(f"record {record_id}: NOT reproduced", markup=False)
+        for difference in verification.differences:
+            console.print(f"  {difference}", markup=False)
+    if not json_out:
+        for note in verification.notes:
+            console.print(f"note: {note}", markup=False)
         console.print(caution_text(PILOT_CAUTION))
-        raise typer.Exit(EXIT_OK)
-    console.print(f"record {record_id}: NOT reproduced; recomputing gives a different result", markup=False)
-    console.print(caution_text(PILOT_CAUTION))
-    raise typer.Exit(EXIT_LIMIT)
-
-
+    raise typer.Exit(EXIT_OK if verification.reproduced else EXIT_LIMIT)

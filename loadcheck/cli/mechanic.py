@@ -3,11 +3,12 @@
 from __future__ import annotations
 
 import json
+import sys
 from collections.abc import Callable, Iterator
 from contextlib import contextmanager
 from dataclasses import replace
 from pathlib import Path
-from typing import Annotated, Any
+from typing import Annotated, Any, Literal
 
 import typer
 
@@ -18,6 +19,7 @@ from .common import (
     CategoryOpt,
     JsonOpt,
     _console,
+    _fail_input,
     app,
     input_errors,
 )
@@ -25,54 +27,65 @@ from .common import (
 # -- the mechanic's commands -----------------------------------------------------------------
 
 WriteOpt = Annotated[bool, typer.Option("--write", help="Make the new record current and keep the old one in the history.")]
+YesOpt = Annotated[bool, typer.Option("--yes", "-y", help="With --write: confirmed, do not ask (needed when not run from a terminal).")]
+ForceOpt = Annotated[bool, typer.Option("--force", help="With --write: write a record the checks refuse; kept in the history.")]
+ByOpt = Annotated[str | None, typer.Option("--by", help="Who made the record (default: the file's weighed_by or by).")]
+WhyOpt = Annotated[str | None, typer.Option("--why", help="Why, kept in the history (default: the file's note or description).")]
 SheetOpt = Annotated[Path | None, typer.Option(help="Write a printable record (.html) to sign.")]
 OccupantOpt = Annotated[str | None, typer.Option(help="Standard occupant weight (default: the aircraft file's, else 170 lb).")]
 MetoOpt = Annotated[float | None, typer.Option(help="Maximum-except-takeoff power [hp] for the minimum fuel (default: the file's).")]
 
 
+def _interactive() -> bool:
+    """Whether a person can answer at standard input."""
+    return sys.stdin.isatty()
+
+
 def _new_empty_weight(
-    aircraft: Path, source: Path, read: Callable[[Path, Any], Any], compute: Callable[[Any, Any], Any],
-    render: Callable[[Any, Any, Any], None], reason: str, write: bool, sheet: Path | None, json_out: bool,
+    aircraft: Path, source: Path, kind: Literal["weighing", "alteration"], render: Callable[[Any, Any, Any], None],
+    write: bool, yes: bool, force: bool, by: str | None, why: str | None, sheet: Path | None, json_out: bool,
 ) -> None:
-    """A new empty-weight record from a weighing or equipment changes: read the aircraft
-    (once) and ``source``, compute, print, and with ``write`` keep it in the aircraft file."""
-    from ..files import load_aircraft_for_update, read_toml, write_new_record
+    """A new empty-weight record: propose (library), print, write the sheet, and with
+    ``write`` confirm and make it current (library)."""
+    from ..empty_record import OverrideNeededError, make_current, propose, write_record_sheet
 
-    data, original = load_aircraft_for_update(aircraft)
-    parsed = read(source, data)
-    try:
-        result = compute(data, parsed)
-    except LoadcheckError as error:
-        raise error.with_file(source) from None
-    _mechanic_sheet(sheet, result, data, source)
+    if (yes or force or by or why) and not write:
+        raise InputError(Problem("--write", "--yes, --force, --by and --why go with --write; nothing was written"))
+    proposal = propose(aircraft, source, kind)
+    err = _console(stderr=True)
+    if sheet is not None:
+        written, left_out = write_record_sheet(sheet, proposal)
+        if left_out:
+            err.print(f"note: the extreme checks were left out of the record: {left_out}", markup=False)
+        err.print(f"record written: {written}", markup=False)
     if json_out:
-        typer.echo(result.to_json())
+        typer.echo(json.dumps(proposal.to_dict(), indent=2))
     else:
-        render(result, data.units, _console())
-    if write:
-        write_new_record(aircraft, original, weight=result.new.weight, arm=result.new.arm, lateral_arm=result.new.lateral_arm,
-                         date=parsed.date, reason=reason, inputs={"file": str(source), **read_toml(source)},
-                         equipment=getattr(result, "equipment", None))  # only equipment changes alter the list
-        _console(stderr=True).print(f"new empty-weight record written to {aircraft}; the old one is in its history", markup=False)
-    raise typer.Exit(EXIT_OK)
+        render(proposal.result, proposal.aircraft.units, _console())
+    if not write:
+        raise typer.Exit(EXIT_OK)
+    confirmed = yes
+    if not yes and proposal.overridable and (force or not proposal.result.refusals):
+        if not _interactive():
+            raise InputError(Problem("--yes", "standard input is not a terminal, so nobody can confirm the new record: "
+                                              "give --yes to write it; nothing was written"))
+        from ..render.terminal import render_comparison
 
-
-def _mechanic_sheet(sheet: Path | None, result: Any, aircraft: Any, source: Path) -> None:
-    if sheet is None:
-        return
-    from ..extremes import extremes
-    from ..files import write_atomic
-    from ..render.sheet import mechanic_sheet_html
-
-    if sheet.suffix.lower() not in (".html", ".htm"):
-        raise InputError(Problem("--sheet", "the record is an HTML file", value=str(sheet), expected="a name ending in .html"))
+        render_comparison(proposal.comparison(), err)
+        confirmed = typer.confirm(f"Make this the current record of {aircraft}?", default=False, err=True)
+        if not confirmed:
+            err.print("nothing was written", markup=False)
+            raise typer.Exit(EXIT_OK)
     try:
-        checks = extremes(aircraft.with_empty(result.new.weight, result.new.arm, result.new.lateral_arm))
-    except LoadcheckError as error:
-        _console(stderr=True).print(f"note: the extreme checks were left out of the record: {error}", markup=False)
-        checks = None
-    write_atomic(sheet, mechanic_sheet_html(result, aircraft.units, extremes=checks, source=str(source)))
-    _console(stderr=True).print(f"record written: {sheet}", markup=False)
+        target = make_current(proposal, confirmed=confirmed, override=force, by=by, note=why)
+    except OverrideNeededError as error:
+        lines = error.lines()
+        if error.overridable:
+            lines.append("give --force with --write to write it anyway (the override is kept in the history)")
+        _fail_input(lines)
+    where = f" (through the link, to {target})" if target != aircraft else ""
+    err.print(f"new empty-weight record written to {aircraft}{where}; the old one is in its history", markup=False)
+    raise typer.Exit(EXIT_OK)
 
 
 
@@ -92,23 +105,26 @@ def weigh(
     aircraft: Annotated[Path, typer.Argument(help="Aircraft file (TOML).")],
     readings: Annotated[Path, typer.Argument(help="Readings file (TOML): weighing points and corrections.")],
     write: WriteOpt = False,
+    yes: YesOpt = False,
+    force: ForceOpt = False,
+    by: ByOpt = None,
+    why: WhyOpt = None,
     sheet: SheetOpt = None,
     json_out: JsonOpt = False,
 ) -> None:
     """Basic empty weight and CG from scale readings (AC 43.13-1B ch. 10; FAA-H-8083-1 ch. 3).
 
-    Without --write nothing is changed. With it, the new record becomes the aircraft file's
-    [empty] table and the old one is kept in [[history]], with the readings.
+    Without --write nothing is changed. With it, the old and new record are shown and you
+    are asked (or give --yes); the new record becomes the aircraft file's [empty] table and
+    the old one is kept in [[history]] with who, when, why and a digest of the readings.
 
     Example:
 
       loadcheck weigh sample_aircraft/trainer4/aircraft.toml sample_aircraft/trainer4/weighing.toml
     """
-    from ..files import load_readings
     from ..render.terminal import render_weighing
-    from ..weighing import weigh as compute
 
-    _new_empty_weight(aircraft, readings, load_readings, compute, render_weighing, "weighing", write, sheet, json_out)
+    _new_empty_weight(aircraft, readings, "weighing", render_weighing, write, yes, force, by, why, sheet, json_out)
 
 
 @app.command()
@@ -117,23 +133,25 @@ def alter(
     aircraft: Annotated[Path, typer.Argument(help="Aircraft file (TOML).")],
     changes: Annotated[Path, typer.Argument(help="Changes file (TOML): items installed, removed, relocated.")],
     write: WriteOpt = False,
+    yes: YesOpt = False,
+    force: ForceOpt = False,
+    by: ByOpt = None,
+    why: WhyOpt = None,
     sheet: SheetOpt = None,
     json_out: JsonOpt = False,
 ) -> None:
     """New empty weight and CG after equipment changes, and whether they are negligible.
 
     Items removed or relocated must be in the aircraft file's [[equipment]] list; --write
-    updates that list too.
+    updates that list too (confirmed as for weigh).
 
     Example:
 
       loadcheck alter sample_aircraft/trainer4/aircraft.toml sample_aircraft/trainer4/changes.toml
     """
-    from ..alterations import alter as compute
-    from ..files import load_changes
     from ..render.terminal import render_alteration
 
-    _new_empty_weight(aircraft, changes, load_changes, compute, render_alteration, "alteration", write, sheet, json_out)
+    _new_empty_weight(aircraft, changes, "alteration", render_alteration, write, yes, force, by, why, sheet, json_out)
 
 
 @app.command()
@@ -148,22 +166,16 @@ def history(
 
       loadcheck history sample_aircraft/trainer4/aircraft.toml
     """
-    from ..caution import MECHANIC_CAUTION
+    from ..empty_record import history as listing
     from ..files import load_aircraft
 
-    data = load_aircraft(aircraft)
-    units = data.units
-    rows = [{"replaced": str(h.recorded), "reason": h.reason, "weight": h.previous.weight, "arm": h.previous.arm,
-             "date": str(h.previous.date or "")} for h in data.history]
-    rows.append({"replaced": "current", "reason": "", "weight": data.empty.weight, "arm": data.empty.arm,
-                 "date": str(data.empty.date or "")})
+    result = listing(load_aircraft(aircraft))
     if json_out:
-        typer.echo(json.dumps({"records": rows, "units": {"mass": units.mass, "arm": units.arm},
-                               "caution": MECHANIC_CAUTION}, indent=2))
+        typer.echo(result.to_json())
     else:
         from ..render.terminal import render_history
 
-        render_history(data, rows, _console(), MECHANIC_CAUTION)
+        render_history(result, _console())
 
 
 @app.command()

@@ -160,8 +160,8 @@ def load_sheet_html(
     return "\n".join(parts)
 
 
-def _table(head: list[str], rows: list[list[str]]) -> str:
-    out = ["<table><tr>" + "".join(f"<th>{escape(h)}</th>" for h in head) + "</tr>"]
+def _table(head: list[str], rows: list[list[str]], css: str = "") -> str:
+    out = [f"<table{f' class={css!r}' if css else ''}><tr>" + "".join(f"<th>{escape(h)}</th>" for h in head) + "</tr>"]
     numeric = ["(" in h for h in head]  # columns with a unit hold numbers
     for row in rows:
         out.append("<tr>" + "".join(f"<td{' class=n' if numeric[i] else ''}>{escape(c)}</td>" for i, c in enumerate(row))
@@ -170,14 +170,47 @@ def _table(head: list[str], rows: list[list[str]]) -> str:
     return "\n".join(out)
 
 
+_RECORD_STYLE = """
+body.record { font-size: 9pt; margin: 1em; }
+body.record h1 { font-size: 12pt; }
+body.record h2 { font-size: 10pt; margin: .6em 0 .2em 0; }
+body.record th, body.record td { padding: .05em .4em; }
+.cols { display: flex; gap: 1.5em; flex-wrap: wrap; align-items: flex-start; }
+.sign { margin-top: .6em; }
+.sign td { padding: 1.2em 1em 0 0; }
+.line { min-width: 14em; }
+@media print { body.record { font-size: 8pt; } }
+"""
+
+
+def _geometry_words(geometry: dict[str, Any], arm: str) -> str:
+    return (f"{geometry['gear']}, datum {geometry['datum']} of the main wheels; D (datum to the main-wheel centreline) "
+            f"{fmt(geometry['main_distance'], arm)}, L (main wheels to the {'nose' if geometry['gear'] == 'nosewheel' else 'tail'}"
+            f" wheel) {fmt(geometry['wheelbase'], arm)}")
+
+
 def mechanic_sheet_html(result: Any, units: Any, *, extremes: Any = None, source: str | None = None,
-                        when: dt.datetime | None = None) -> str:
+                        when: dt.datetime | None = None, comparison: list[Any] | None = None,
+                        left_out: str | None = None) -> str:
     """A printable record of a weighing or an equipment change, for the mechanic to sign.
 
-    Holds the inputs, the corrections or changes, the new empty-weight record and the change
-    from the current one, the extreme-loading checks where given, blank lines for name,
-    certificate number and signature, and the caution that the record is made and signed
-    under the local authority's rules.
+    Holds what the record rests on (weighing: date, who weighed, the gear and datum geometry,
+    the points with their lateral arms, the corrections; changes: their date, description,
+    who made them and each change), the previous and the new record side by side (weight,
+    CG, lateral CG, moment, useful load, date), the empty-weight CG range, the warnings and
+    refusals, the extreme-loading checks (AC 43.13-1B 10-17) with the new record, the caution
+    that the record is made and signed under the local authority's rules, and blank lines for
+    name, certificate number, signature and date. Laid out to fit one page of A4 or US letter.
+
+    Parameters
+    ----------
+    result : a :class:`~loadcheck.weighing.WeighResult` or :class:`~loadcheck.alterations.AlterResult`
+    units : the aircraft's units
+    extremes : the :class:`~loadcheck.extremes.ExtremesResult` with the new record, if any
+    source : the readings or changes file
+    when : time of the computation (default: now, local time)
+    comparison : the rows of :meth:`loadcheck.empty_record.Proposal.comparison`
+    left_out : why the extreme checks are not there, where they are not
     """
     when = when or dt.datetime.now().astimezone()
     weighing = hasattr(result, "points")
@@ -186,56 +219,120 @@ def mechanic_sheet_html(result: Any, units: Any, *, extremes: Any = None, source
         title += f" ({result.registration})"
     m, a, mo = units.mass, units.arm, units.moment
 
-    def n(value: float, unit: str) -> str:
-        return fmt(value, unit, with_unit=False)
+    def n(value: float | None, unit: str) -> str:
+        return "" if value is None else fmt(value, unit, with_unit=False)
 
+    meta = [("Aircraft", result.aircraft), ("Registration", result.registration or "")]
+    if weighing:
+        meta += [("Weighed on", result.date or "not dated in the readings"),
+                 ("Weighed by", result.weighed_by or "not named in the readings")]
+        if result.note:
+            meta.append(("Note", result.note if len(result.note) <= 300 else result.note[:300] + " [cut]"))
+    else:
+        meta += [("Changes of", result.date or "not dated in the changes file"),
+                 ("Description", result.description or "none given"), ("Changes made by", result.by or "not named")]
+    meta += [("Computed from", source or ""), ("Computed", when.strftime("%Y-%m-%d %H:%M %Z").strip())]
     parts = [
         "<!DOCTYPE html>", '<html lang="en"><head><meta charset="utf-8">', f"<title>{escape(title)}</title>",
-        f"<style>{_STYLE}</style></head><body>", f"<h1>{escape(title)}</h1>",
-        f"<p>Computed {escape(when.strftime('%Y-%m-%d %H:%M %Z').strip())}"
-        + (f" from <code>{escape(source)}</code>" if source else "") + "</p>",
+        f"<style>{_STYLE}{_RECORD_STYLE}</style></head><body class='record'>", f"<h1>{escape(title)}</h1>",
+        "<table class='meta'>" + "".join(f"<tr><td>{escape(k)}</td><td id='meta-{escape(k.lower().replace(' ', '-'))}'>"
+                                         f"{escape(v)}</td></tr>" for k, v in meta) + "</table>",
     ]
     if weighing:
+        lateral = any(p.lateral_arm is not None for p in result.points)
         parts.append("<h2>Weighing points</h2>")
-        parts.append(_table(["Point", f"Reading ({m})", f"Tare ({m})", f"Net ({m})", f"Arm ({a})", f"Moment ({mo})"],
-                            [[p.label, n(p.reading, m), n(p.tare, m), n(p.net, m), n(p.arm, a), n(p.moment, mo)]
-                             for p in result.points]))
+        if result.geometry is not None:
+            parts.append(f"<p id='geometry'>Geometry: {escape(_geometry_words(result.geometry, a))}.</p>")
+        head = ["Point", f"Reading ({m})", f"Tare ({m})", f"Net ({m})", f"Arm ({a})", f"Moment ({mo})"]
+        head += [f"Lateral arm ({a}, + right)"] if lateral else []
+        parts.append(_table(head, [[p.label, n(p.reading, m), n(p.tare, m), n(p.net, m), n(p.arm, a), n(p.moment, mo)]
+                                   + ([n(p.lateral_arm, a)] if lateral else []) for p in result.points]))
+        if result.formula_cg is not None:
+            parts.append(f"<p>As-weighed CG by the FAA-H-8083-1 formula for this gear and datum: "
+                         f"{escape(fmt(result.formula_cg, a))}.</p>")
         if result.corrections:
             parts.append("<h2>Corrections</h2>")
             parts.append(_table(["Item", "", f"Weight ({m})", f"Arm ({a})", f"Moment ({mo})"],
                                 [[c.label, c.action, n(c.weight, m), n(c.arm, a), n(c.moment, mo)] for c in result.corrections]))
-        records = [("As weighed", result.as_weighed), ("New basic empty weight", result.new), ("Previous record", result.previous)]
     else:
         parts.append("<h2>Changes</h2>")
         parts.append(_table(["Action", "Item", f"Weight ({m})", f"Arm ({a})", f"New arm ({a})", f"Moment change ({mo})"],
-                            [[c.action, c.label, n(c.weight, m), n(c.arm, a), "" if c.new_arm is None else n(c.new_arm, a),
+                            [[c.action, c.label, n(c.weight, m), n(c.arm, a), n(c.new_arm, a),
                               n(c.moment_change, mo)] for c in result.lines]))
-        records = [("Previous record", result.previous), ("New basic empty weight", result.new)]
         verdict = {True: "negligible", False: "not negligible", None: "cannot be judged"}[result.negligible.overall]
         parts.append(f"<p>AC 43.13-1B 10-2 c: the change is {escape(verdict)} ({escape(result.negligible.weight_threshold)}; "
                      f"{escape(result.negligible.cg_threshold)}).</p>")
-    parts.append("<h2>Empty-weight record</h2>")
-    parts.append(_table(["", f"Weight ({m})", f"Arm ({a})", f"Moment ({mo})"],
-                        [[name, n(r.weight, m), n(r.arm, a), n(r.moment, mo)] for name, r in records]))
-    parts.append(f"<p>Change: weight {escape(fmt(result.change_weight, m))}, CG {escape(fmt(result.change_arm, a))}; "
-                 f"useful load {escape(fmt(result.useful_load, m))}.</p>")
+
+    parts.append("<h2>Empty-weight record: previous and new</h2>")
+    if comparison is not None:
+        rows = []
+        for row in comparison:
+            cells = []
+            for value in (row.current, row.new):
+                cells.append(value if isinstance(value, str) else ("" if value is None else fmt(value, row.unit)))
+            change = ""
+            if isinstance(row.current, (int, float)) and isinstance(row.new, (int, float)):
+                change = fmt(row.new - row.current, row.unit)
+            rows.append([row.quantity, *cells, change])
+        head = ["", "Previous record", "New record", "Change"]
+        if weighing:
+            aw = result.as_weighed
+            as_weighed = {"empty weight": fmt(aw.weight, m), "empty-weight CG": fmt(aw.arm, a),
+                          "empty-weight moment": fmt(aw.moment, mo),
+                          "lateral CG (+ right)": "" if aw.lateral_arm is None else fmt(aw.lateral_arm, a)}
+            head = ["", "Previous record", "As weighed", "New record", "Change"]
+            rows = [[r[0], r[1], as_weighed.get(r[0], ""), r[2], r[3]] for r in rows]
+        parts.append(_table(head, rows, "record-table"))
+    cg_range = result.cg_range
+    if cg_range is None:
+        parts.append("<p id='cg-range'>Empty-weight CG range: not given in the aircraft file.</p>")
+    else:
+        inside = cg_range[0] <= result.new.arm <= cg_range[1]
+        parts.append(f"<p id='cg-range'>Empty-weight CG range: {escape(fmt(cg_range[0], a))} to {escape(fmt(cg_range[1], a))}; "
+                     f"the new CG {escape(fmt(result.new.arm, a))} is "
+                     f"{'within it' if inside else '<b>OUTSIDE IT</b>'}.</p>")
     for warning in getattr(result, "warnings", []):
         parts.append(f"<p class='limit'>WARNING: {escape(warning)}</p>")
-    if extremes is not None:
-        parts.append("<h2>Weight and balance extremes (AC 43.13-1B 10-17)</h2>")
+    for refusal in getattr(result, "refusals", []):
+        head_words = "NOT WRITTEN WITHOUT AN OVERRIDE" if refusal.overridable else "NEVER WRITTEN"
+        parts.append(f"<p class='limit'>{head_words}: {escape(refusal.message)}</p>")
+
+    parts.append("<h2>Extreme loadings with the new record (AC 43.13-1B 10-17)</h2>")
+    if extremes is None:
+        parts.append(f"<p class='limit'>Not computed: {escape(left_out or 'not asked for')}.</p>")
+    else:
+        summary = []
         for case in (extremes.forward, extremes.rearward):
             ramp = case.check.condition("ramp")
-            parts.append(f"<p><b>Most {case.side} loading</b>: {escape(fmt(ramp.weight, m))} at CG {escape(fmt(ramp.arm, a))}: "
-                         f"{'within limits' if case.ok else 'NOT within limits'}</p>")
-            parts.append(_table(["Item", f"Weight ({m})", f"Arm ({a})", f"Moment ({mo})"],
-                                [[i.name, n(i.weight, m), n(i.arm, a), n(i.moment, mo)] for i in case.check.items]))
+            summary.append([f"Most {case.side}", n(ramp.weight, m), n(ramp.arm, a), n(case.limit_arm, a),
+                            "within limits" if case.ok else "NOT within limits"])
+        parts.append(_table(["Loading", f"Weight ({m})", f"CG ({a})", f"Sorted against ({a})", "Result"], summary,
+                            "extremes"))
+        states = [getattr(case, "fuel_states", None) for case in (extremes.forward, extremes.rearward)]
+        if any(states):
+            parts.append(f"<p>Fuel states covered: {escape('; '.join(str(s) for s in dict.fromkeys(states) if s))}.</p>")
+        names = list(dict.fromkeys(i.name for case in (extremes.forward, extremes.rearward) for i in case.check.items))
+        by_side = [{i.name: i for i in case.check.items} for case in (extremes.forward, extremes.rearward)]
+        rows = []
+        for name in names:
+            row = [name]
+            for side in by_side:
+                item = side.get(name)
+                row += ["", ""] if item is None else [n(item.weight, m), n(item.arm, a)]
+            rows.append(row)
+        parts.append(_table(["Item", f"Forward: weight ({m})", f"arm ({a})", f"Rearward: weight ({m})", f"arm ({a})"],
+                            rows))
+        for case in (extremes.forward, extremes.rearward):
+            for finding in case.check.findings:
+                if finding.severity == "limit" and finding.condition in ("ramp", "takeoff", None):
+                    parts.append(f"<p class='limit'>Most {case.side}: LIMIT {escape(finding.message)}</p>")
     parts += [
         f"<p class='caution'>CAUTION: {escape(result.caution)}</p>",
-        "<table class='sign'>",
-        "<tr><td>Name</td><td><span class='line'>&nbsp;</span></td></tr>",
-        "<tr><td>Certificate number</td><td><span class='line'>&nbsp;</span></td></tr>",
-        "<tr><td>Signature</td><td><span class='line'>&nbsp;</span></td></tr>",
-        "<tr><td>Date</td><td><span class='line'>&nbsp;</span></td></tr>",
+        "<table class='sign' id='signature'>",
+        "<tr><td>Name</td><td><span class='line'>&nbsp;</span></td>"
+        "<td>Certificate number</td><td><span class='line'>&nbsp;</span></td></tr>",
+        "<tr><td>Signature</td><td><span class='line'>&nbsp;</span></td>"
+        "<td>Date</td><td><span class='line'>&nbsp;</span></td></tr>",
         "</table>", "</body></html>",
     ]
     return "\n".join(parts)

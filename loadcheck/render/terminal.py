@@ -28,6 +28,7 @@ __all__ = [
     "render_aircraft",
     "render_alteration",
     "render_check",
+    "render_comparison",
     "render_extremes",
     "render_fleet",
     "render_fleet_list",
@@ -308,16 +309,43 @@ def _record_table(title: str, rows: list[tuple[str, Any]], units: Any) -> Table:
     return table
 
 
-def render_history(aircraft: Aircraft, rows: list[dict[str, Any]], console: Console, caution: str) -> None:
+def render_history(listing: Any, console: Console) -> None:
     """Print the empty-weight records, oldest first, then the current one, then the caution."""
-    units = aircraft.units
-    table = Table(title=f"Empty-weight records of {aircraft.name}", title_justify="left")
-    for column in ("Replaced", "Why", f"Weight ({units.mass})", f"Arm ({units.arm})", "Record of"):
+    units = listing.units
+    table = Table(title=f"Empty-weight records of {listing.aircraft}", title_justify="left")
+    for column in ("Replaced", "Why", f"Weight ({units['mass']})", f"Arm ({units['arm']})", "Record of", "By"):
         table.add_column(column)
-    for row in rows:
-        table.add_row(row["replaced"], row["reason"], f"{row['weight']:,.1f}", f"{row['arm']:.2f}", row["date"])
+    for row in listing.records:
+        why = row.reason + (f": {row.note}" if row.note else "") + (" (OVERRIDE)" if row.overrides else "")
+        table.add_row(row.replaced, why, fmt(row.weight, units["mass"], with_unit=False),
+                      fmt(row.arm, units["arm"], with_unit=False), row.date, row.by or "")
     console.print(table)
-    console.print(caution_text(caution))
+    if listing.cg_range is not None:
+        console.print(f"Empty-weight CG range: {listing.cg_range[0]:g} to {listing.cg_range[1]:g} {units['arm']}", markup=False)
+    for row in listing.records:
+        for override in row.overrides:
+            console.print(f"OVERRIDE when {row.replaced}: {override}", markup=False)
+    _warnings_and_refusals(listing, console)
+    console.print(caution_text(listing.caution))
+
+
+def render_comparison(rows: list[Any], console: Console) -> None:
+    """Print the current and the new record side by side (before confirming a write)."""
+    table = Table(title="Current and new empty-weight record", title_justify="left")
+    for column in ("", "Current", "New"):
+        table.add_column(column, justify="left" if not column else "right")
+    for row in rows:
+        cells = [c if isinstance(c, str) else ("" if c is None else fmt(c, row.unit)) for c in (row.current, row.new)]
+        table.add_row(row.quantity, *cells)
+    console.print(table)
+
+
+def _warnings_and_refusals(result: Any, console: Console) -> None:
+    for warning in getattr(result, "warnings", []):
+        console.print(Text("WARNING ", style=_WARN_STYLE) + Text(warning))
+    for refusal in getattr(result, "refusals", []):
+        head = "NOT WRITTEN WITHOUT AN OVERRIDE " if refusal.overridable else "NEVER WRITTEN "
+        console.print(Text(head, style=_LIMIT_STYLE) + Text(refusal.message))
 
 
 def render_weighing(result: Any, units: Any, console: Console) -> None:
@@ -347,8 +375,7 @@ def render_weighing(result: Any, units: Any, console: Console) -> None:
         console.print(corrections)
     console.print(_record_table("Empty-weight record", rows, units))
     _changes_line(result, units, console)
-    for warning in result.warnings:
-        console.print(Text("WARNING ", style=_WARN_STYLE) + Text(warning))
+    _warnings_and_refusals(result, console)
     console.print(caution_text(result.caution))
 
 
@@ -380,6 +407,7 @@ def render_alteration(result: Any, units: Any, console: Console) -> None:
     console.print(f"AC 43.13-1B 10-2 c: the change is {verdict} (weight: {'yes' if n.weight else 'no'}, "
                   f"{n.weight_threshold}; CG: {'cannot be judged' if n.cg is None else ('yes' if n.cg else 'no')}, {n.cg_threshold})",
                   markup=False)
+    _warnings_and_refusals(result, console)
     console.print(caution_text(result.caution))
 
 

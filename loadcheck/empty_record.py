@@ -1,0 +1,366 @@
+"""The aircraft's empty-weight record: a new one from a weighing or from equipment changes,
+what it takes to make it current, the record to sign, and the history.
+
+These are the mechanic's jobs, for any front end (the command line, the web desk):
+
+- :func:`propose` reads the aircraft file and a readings or changes file and computes the
+  new record (:func:`~loadcheck.weighing.weigh`, :func:`~loadcheck.alterations.alter`),
+  with the warnings and the refusals of :func:`~loadcheck.weighing.record_checks`;
+- :func:`make_current` writes it into the aircraft file, keeping the old one in the
+  history. It needs a confirmation (a person saw the old and the new record and said
+  yes: the front end asks, or is told so explicitly), and an explicit override for a
+  record that the checks refuse; the override is kept in the history with who made the
+  record, when and why. A record whose empty weight reaches the maximum takeoff weight is
+  never written: the aircraft file would be refused;
+- :func:`write_record_sheet` writes the printable record to sign;
+- :func:`history` lists the empty-weight records, oldest first.
+
+The history keeps what the record needs, bounded: the computed inputs (points, corrections
+or changes), the note cut to :data:`NOTE_CHARS` characters, the file name and a SHA-256
+digest of the readings or changes file as read; where that is still more than
+:data:`HISTORY_INPUTS_BYTES`, only the file, its size and digest and a count of its
+entries (AC 43.13-1B 10-2 and FAA-H-8083-1B chapter 2 ask for the weighing record and the
+equipment changes to be kept with the aircraft's records, not for copies of the files).
+"""
+
+from __future__ import annotations
+
+import datetime as dt
+import hashlib
+from dataclasses import dataclass, field
+from functools import cached_property
+from pathlib import Path
+from typing import Any, Literal
+
+from pydantic import ValidationError
+
+from .aircraft import Aircraft
+from .caution import MECHANIC_CAUTION
+from .errors import InputError, LoadcheckError, Problem
+from .results import Result
+
+__all__ = [
+    "HISTORY_INPUTS_BYTES",
+    "ComparisonRow",
+    "NOTE_CHARS",
+    "HistoryListing",
+    "HistoryRow",
+    "NotConfirmedError",
+    "OverrideNeededError",
+    "Proposal",
+    "history",
+    "make_current",
+    "propose",
+    "write_record_sheet",
+]
+
+Kind = Literal["weighing", "alteration"]
+
+NOTE_CHARS = 500
+"""Longest note kept in a history entry [characters]; the digest identifies the whole file."""
+
+HISTORY_INPUTS_BYTES = 16 * 1024
+"""Largest inputs kept in one history entry [bytes of TOML]; beyond it only the file's digest."""
+
+
+class NotConfirmedError(LoadcheckError):
+    """A record was to be written without the confirmation that a person saw it."""
+
+
+class OverrideNeededError(LoadcheckError):
+    """A record the checks refuse was to be written without an override (or cannot be written at all)."""
+
+    def __init__(self, problems: list[Problem], *, overridable: bool, file: str | Path | None = None):
+        super().__init__(problems, file)
+        self.overridable = overridable
+
+    def with_file(self, file: str | Path) -> OverrideNeededError:
+        """The same error, naming ``file``."""
+        return OverrideNeededError(self.problems, overridable=self.overridable, file=file)
+
+
+def _digest(path: Path) -> tuple[str, int]:
+    from .files import read_text
+
+    raw = read_text(path).encode("utf-8")
+    return hashlib.sha256(raw).hexdigest(), len(raw)
+
+
+def _bounded_inputs(source: Path, parsed: Any) -> dict[str, Any]:
+    """What the history keeps of a readings or changes file: bounded (module docstring)."""
+    import tomlkit
+
+    from .files import _plain
+
+    digest, size = _digest(source)
+    data = _plain(parsed.model_dump(mode="python", exclude_none=True, exclude_defaults=True))
+    for key in ("aircraft", "format"):
+        data.pop(key, None)
+    note = data.get("note")
+    if isinstance(note, str) and len(note) > NOTE_CHARS:
+        data["note"] = note[:NOTE_CHARS]
+        data["note_cut"] = f"the note was cut to {NOTE_CHARS} of its {len(note):,} characters; the file's digest identifies it"
+    head = {"file": str(source), "sha256": digest, "bytes": size}
+    kept = {**head, **data}
+    if len(tomlkit.dumps(kept).encode("utf-8")) <= HISTORY_INPUTS_BYTES:
+        return kept
+    counts = {key: len(value) for key, value in data.items() if isinstance(value, list)}
+    return {**head, "abridged": f"more than {HISTORY_INPUTS_BYTES:,} bytes; kept: the file's digest and its counts",
+            **{f"{key}_count": n for key, n in counts.items()}}
+
+
+@dataclass(frozen=True, kw_only=True, slots=True)
+class ComparisonRow(Result):
+    """One line of the old-and-new comparison shown before writing [aircraft units]."""
+
+    quantity: str
+    unit: str
+    current: float | str | None
+    new: float | str | None
+
+
+class Proposal:
+    """A new empty-weight record, computed and checked, not yet written.
+
+    Attributes
+    ----------
+    kind : ``weighing`` or ``alteration``
+    aircraft_path, source_path : the files it was made from
+    aircraft : the aircraft with its current record
+    result : the :class:`~loadcheck.weighing.WeighResult` or :class:`~loadcheck.alterations.AlterResult`
+    """
+
+    def __init__(self, kind: Kind, aircraft_path: Path, source_path: Path, aircraft: Aircraft, original: bytes,
+                 parsed: Any, result: Any):
+        self.kind = kind
+        self.aircraft_path = aircraft_path
+        self.source_path = source_path
+        self.aircraft = aircraft
+        self.original = original
+        self.parsed = parsed
+        self.result = result
+
+    @property
+    def overridable(self) -> bool:
+        """True when no refusal is of the kind that no override can lift."""
+        return all(r.overridable for r in self.result.refusals)
+
+    @property
+    def date(self) -> dt.date | None:
+        """The date of the weighing or of the changes (becomes the record's date)."""
+        value: dt.date | None = self.parsed.date
+        return value
+
+    @property
+    def made_by(self) -> str | None:
+        """Who weighed or made the changes, as the readings or changes file says."""
+        value = self.parsed.weighed_by if self.kind == "weighing" else self.parsed.by
+        return None if value is None else str(value)
+
+    @property
+    def why(self) -> str | None:
+        """The file's own words: the weighing's note or the changes' description."""
+        value = self.parsed.note if self.kind == "weighing" else self.parsed.description
+        return None if value is None else str(value)
+
+    def comparison(self) -> list[ComparisonRow]:
+        """The current and the new record side by side: what a person confirms before writing."""
+        units = self.aircraft.units
+        old, new = self.result.previous, self.result.new
+        rows = [
+            ComparisonRow(quantity="empty weight", unit=units.mass, current=old.weight, new=new.weight),
+            ComparisonRow(quantity="empty-weight CG", unit=units.arm, current=old.arm, new=new.arm),
+            ComparisonRow(quantity="empty-weight moment", unit=units.moment, current=old.moment, new=new.moment),
+        ]
+        if old.lateral_arm is not None or new.lateral_arm is not None:
+            rows.append(ComparisonRow(quantity="lateral CG (+ right)", unit=units.arm, current=old.lateral_arm,
+                                      new=new.lateral_arm))
+        rows.append(ComparisonRow(quantity="useful load", unit=units.mass, current=self.aircraft.useful_load,
+                                  new=self.result.useful_load))
+        current_date = self.aircraft.empty.date
+        rows.append(ComparisonRow(quantity="record date", unit="", current=None if current_date is None else str(current_date),
+                                  new=str(self.date) if self.date is not None else "unchanged"))
+        return rows
+
+    @cached_property
+    def extremes(self) -> tuple[Any, str | None]:
+        """The extreme-loading checks (AC 43.13-1B 10-17) with the new record, or None and why not."""
+        from .extremes import extremes
+
+        result = self.result
+        try:
+            return extremes(self.aircraft.with_empty(result.new.weight, result.new.arm, result.new.lateral_arm)), None
+        except LoadcheckError as error:
+            return None, "; ".join(p.describe() for p in error.problems)
+        except ValidationError as error:  # the new record does not make a valid aircraft
+            from .files import problems_from_validation
+
+            reasons = "; ".join(p.describe() for p in problems_from_validation(error))
+            return None, f"the new record does not make a valid aircraft ({reasons})"
+
+    def to_dict(self) -> dict[str, Any]:
+        """The result as JSON data, with the comparison."""
+        return {**self.result.to_dict(), "kind": self.kind, "comparison": [r.to_dict() for r in self.comparison()]}
+
+
+def propose(aircraft_path: str | Path, source_path: str | Path, kind: Kind) -> Proposal:
+    """Compute a new empty-weight record from a readings file (``weighing``) or a changes file (``alteration``).
+
+    Nothing is written.
+
+    Raises
+    ------
+    LoadcheckError
+        Naming the file and every problem found in it.
+    """
+    from .files import load_aircraft_for_update, load_changes, load_readings
+
+    aircraft_path, source_path = Path(aircraft_path), Path(source_path)
+    aircraft, original = load_aircraft_for_update(aircraft_path)
+    if kind == "weighing":
+        from .weighing import weigh as compute
+
+        parsed = load_readings(source_path, aircraft)
+    else:
+        from .alterations import alter as compute  # type: ignore[assignment]
+
+        parsed = load_changes(source_path, aircraft)
+    try:
+        result = compute(aircraft, parsed)
+    except LoadcheckError as error:
+        raise error.with_file(source_path) from None
+    return Proposal(kind, aircraft_path, source_path, aircraft, original, parsed, result)
+
+
+def make_current(
+    proposal: Proposal, *, confirmed: bool, override: bool = False, by: str | None = None, note: str | None = None,
+) -> Path:
+    """Make a proposed record the aircraft's current one; keep the old one in the history.
+
+    Parameters
+    ----------
+    proposal : from :func:`propose`
+    confirmed : a person saw the comparison (:meth:`Proposal.comparison`) and said yes,
+        or said so explicitly for an unattended run
+    override : write a record that the checks refuse (an overridable refusal); the
+        refusals are kept in the history entry
+    by : who makes the record (default: the readings' ``weighed_by`` or the changes' ``by``)
+    note : why (default: the readings' note or the changes' description)
+
+    Returns
+    -------
+    Path
+        The file written (the target where the aircraft file is a symlink).
+
+    Raises
+    ------
+    NotConfirmedError
+        Without the confirmation; nothing is written.
+    OverrideNeededError
+        For a refused record without an override, or one no override can write.
+    FileFormatError
+        When the file changed since it was read, or cannot be written (it is unchanged).
+    """
+    from .files import write_new_record
+
+    result = proposal.result
+    refusals = result.refusals
+    where = proposal.source_path
+    if not proposal.overridable:
+        raise OverrideNeededError(
+            [Problem("empty", f"not written: {r.message}") for r in refusals if not r.overridable],
+            overridable=False, file=where)
+    if refusals and not override:
+        raise OverrideNeededError(
+            [Problem("empty", f"not written: {r.message}") for r in refusals]
+            + [Problem("empty", "an explicit override writes it anyway, and is kept in the history")],
+            overridable=True, file=where)
+    if not confirmed:
+        raise NotConfirmedError(Problem("empty", "not written: a new record is written only once a person has seen the "
+                                                 "current and the new record and confirmed"), file=proposal.aircraft_path)
+    inputs = _bounded_inputs(proposal.source_path, proposal.parsed)
+    made_by = by or proposal.made_by
+    why = note or proposal.why
+    if why is not None and len(why) > NOTE_CHARS:
+        why = why[:NOTE_CHARS] + " [cut]"
+    return write_new_record(
+        proposal.aircraft_path, proposal.original, weight=result.new.weight, arm=result.new.arm,
+        lateral_arm=result.new.lateral_arm, date=proposal.date, reason=proposal.kind, inputs=inputs,
+        equipment=result.equipment if proposal.kind == "alteration" else None, by=made_by, note=why,
+        overrides=[f"{r.code}: {r.message}" for r in refusals] if override else None,
+    )
+
+
+def write_record_sheet(path: str | Path, proposal: Proposal, when: dt.datetime | None = None) -> tuple[Path, str | None]:
+    """Write the printable record to sign (HTML), with the extreme-loading checks of the new record.
+
+    Returns
+    -------
+    (Path, str or None)
+        The file written, and why the extreme checks were left out, where they were.
+
+    Raises
+    ------
+    InputError
+        For a name that does not end in .html.
+    FileFormatError
+        When the file cannot be written (it is unchanged).
+    """
+    from .files import write_atomic
+    from .render.sheet import mechanic_sheet_html
+
+    path = Path(path)
+    if path.suffix.lower() not in (".html", ".htm"):
+        raise InputError(Problem("sheet", "the record is an HTML file", value=str(path), expected="a name ending in .html"))
+    checks, left_out = proposal.extremes
+    write_atomic(path, mechanic_sheet_html(proposal.result, proposal.aircraft.units, extremes=checks,
+                                           source=str(proposal.source_path), when=when,
+                                           comparison=proposal.comparison(), left_out=left_out))
+    return path, left_out
+
+
+@dataclass(frozen=True, kw_only=True, slots=True)
+class HistoryRow(Result):
+    """One empty-weight record: weight [mass unit], arm [arm unit], its date, and what replaced it when."""
+
+    replaced: str
+    reason: str
+    weight: float
+    arm: float
+    date: str
+    lateral_arm: float | None = None
+    by: str | None = None
+    note: str | None = None
+    overrides: list[str] = field(default_factory=list)
+
+
+@dataclass(frozen=True, kw_only=True, slots=True)
+class HistoryListing(Result):
+    """The empty-weight records of an aircraft, oldest first, the current one last."""
+
+    aircraft: str
+    registration: str | None
+    records: list[HistoryRow]
+    units: dict[str, str]
+    cg_range: tuple[float, float] | None = None
+    warnings: list[str] = field(default_factory=list)
+    caution: str = MECHANIC_CAUTION
+
+
+def history(aircraft: Aircraft) -> HistoryListing:
+    """The aircraft's empty-weight records, oldest first, then the current one.
+
+    Each earlier record says when it was replaced, why, by whom and with which overrides.
+    """
+    from .weighing import current_record_warnings
+
+    rows = [HistoryRow(replaced=str(h.recorded), reason=h.reason, weight=h.previous.weight, arm=h.previous.arm,
+                       lateral_arm=h.previous.lateral_arm, date=str(h.previous.date or ""), by=h.by, note=h.note,
+                       overrides=list(h.overrides)) for h in aircraft.history]
+    empty = aircraft.empty
+    rows.append(HistoryRow(replaced="current", reason="", weight=empty.weight, arm=empty.arm,
+                           lateral_arm=empty.lateral_arm, date=str(empty.date or "")))
+    return HistoryListing(aircraft=aircraft.name, registration=aircraft.registration, records=rows,
+                          units={"mass": aircraft.units.mass, "arm": aircraft.units.arm}, cg_range=empty.cg_range,
+                          warnings=current_record_warnings(aircraft))
+

@@ -1,0 +1,39 @@
+"""Terminal output of the record of checks: recorded checks against the current aircraft data."""
+
+from __future__ import annotations
+
+from typing import Any
+
+from rich.console import Console
+from rich.table import Table
+
+from .terminal import caution_text
+
+__all__ = ["render_current_verification"]
+
+
+def render_current_verification(outcome: Any, console: Console) -> None:
+    """Print each recorded check with the verdict then and now, the data changes, then the caution."""
+    table = Table(title=f"Recorded checks against the current data of {outcome.fleet}", title_justify="left")
+    for column in ("Id", "Checked (UTC)", "Registration", "Reference", "Aircraft data", "Recorded", "With current data"):
+        table.add_column(column)
+    for check in outcome.checks:
+        data = "changed since" if check.data_changed else "unchanged"
+        if check.current_ok is None:
+            now = "CANNOT BE CHECKED"
+        else:
+            now = "within limits" if check.current_ok else "OUT OF LIMITS"
+            if check.now_out_of_limits:
+                now += " (was within)"
+        table.add_row(str(check.record_id), check.checked_at[:19], check.registration or "", check.reference or "",
+                      data, "within limits" if check.recorded_ok else "OUT OF LIMITS", now)
+    console.print(table)
+    for check in outcome.checks:
+        if check.problem:
+            console.print(f"record {check.record_id}: {check.problem}", markup=False)
+        elif check.current_ok is False:
+            for finding in check.current_findings:
+                console.print(f"record {check.record_id}: LIMIT {finding}", markup=False)
+    console.print(f"{len(outcome.checks)} record(s); {outcome.changed} made with aircraft data that has changed since; "
+                  f"{outcome.now_out_of_limits} recorded within limits and now out of limits", markup=False)
+    console.print(caution_text(outcome.caution))

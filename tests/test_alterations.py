@@ -1,0 +1,110 @@
+"""Equipment changes: the new record's checks, on fixed wing and rotorcraft (issue 14 items 1 and 8).
+
+The arithmetic and the AC 43.13-1B 10-2 c negligible-change rule are tested in
+tests/test_mechanic.py; here what the alteration says about the record it makes.
+"""
+
+from __future__ import annotations
+
+import json
+import shutil
+from pathlib import Path
+
+import pytest
+from typer.testing import CliRunner
+
+from loadcheck import load_aircraft
+from loadcheck.alterations import Changes, alter
+from loadcheck.cli import app
+from loadcheck.files import parse_aircraft
+from loadcheck.weighing import current_record_warnings
+
+from .helpers import sample, sample_data
+
+runner = CliRunner()
+
+
+def _trainer_with_range(tmp_path: Path, cg_range: str) -> Path:
+    for name in ("aircraft.toml", "changes.toml"):
+        shutil.copy(sample(f"trainer4/{name}"), tmp_path / name)
+    path = tmp_path / "aircraft.toml"
+    path.write_text(path.read_text().replace("basis = ", f"cg_range = {cg_range}\nbasis = ", 1))
+    return path
+
+
+def _record_sheet(tmp_path: Path, command: str, aircraft: Path, source: Path) -> str:
+    sheet = tmp_path / f"{command}.html"
+    result = runner.invoke(app, [command, str(aircraft), str(source), "--sheet", str(sheet)])
+    assert result.exit_code == 0, result.output
+    return sheet.read_text()
+
+
+def _cell(html: str, cell_id: str) -> str:
+    start = html.index(f"id='{cell_id}'>") + len(f"id='{cell_id}'>")
+    return html[start: html.index("</", start)]
+
+
+def test_alter_warns_when_the_new_cg_leaves_the_empty_weight_cg_range(tmp_path):
+    # the sample changes move the empty-weight CG from 39.40 in forward to about 39.2 in
+    path = _trainer_with_range(tmp_path, "[39.3, 40.0]")
+    result = alter(load_aircraft(path), Changes.model_validate(sample_data("trainer4/changes.toml")))
+    assert result.new.arm < 39.3
+    assert any("outside the empty-weight CG range 39.3 to 40" in w for w in result.warnings)
+    shown = runner.invoke(app, ["alter", str(path), str(tmp_path / "changes.toml"), "--sheet", str(tmp_path / "r.html")])
+    assert shown.exit_code == 0 and "WARNING" in shown.output and "empty-weight CG range" in shown.output
+    html = (tmp_path / "r.html").read_text()
+    assert "OUTSIDE IT" in html and "39.30 in to 40.00 in" in html
+    as_json = runner.invoke(app, ["alter", str(path), str(tmp_path / "changes.toml"), "--json"])
+    assert any("empty-weight CG range" in w for w in json.loads(as_json.stdout)["warnings"])
+
+
+def test_inside_the_range_no_warning(tmp_path):
+    path = _trainer_with_range(tmp_path, "[38.0, 40.0]")
+    result = alter(load_aircraft(path), Changes.model_validate(sample_data("trainer4/changes.toml")))
+    assert result.warnings == [] and result.cg_range == (38.0, 40.0)
+
+
+def test_a_current_record_outside_its_range_is_flagged_by_history(tmp_path):
+    path = _trainer_with_range(tmp_path, "[40.0, 42.0]")  # the current record's CG, 39.40 in, is forward of it
+    assert current_record_warnings(load_aircraft(path))
+    listing = runner.invoke(app, ["history", str(path)])
+    assert "Empty-weight CG range: 40 to 42 in" in listing.output and "WARNING" in listing.output
+    assert "WARNING" not in runner.invoke(app, ["history", str(sample("trainer4/aircraft.toml"))]).output
+
+
+@pytest.mark.parametrize("aircraft_file", ["heli2/aircraft.toml"])
+def test_alter_json_on_a_rotorcraft(tmp_path, aircraft_file):
+    # issue 14 item 8: "Object of type bool is not JSON serializable" (a numpy bool from the CG range)
+    changes = tmp_path / "changes.toml"
+    changes.write_text('format = 1\ndate = 2026-11-30\ndescription = "cargo hook"\n'
+                       "[[change]]\naction = 'install'\nitem = 'hook'\nweight = 6.0\narm = 105.0\n")
+    result = runner.invoke(app, ["alter", str(sample(aircraft_file)), str(changes), "--json"])
+    assert result.exit_code == 0, result.output
+    data = json.loads(result.stdout)
+    assert data["negligible"]["cg"] in (True, False) and data["negligible"]["weight"] is False
+    assert data["description"] == "cargo hook" and data["date"] == "2026-11-30"
+
+
+def test_rotorcraft_negligible_cg_rule_gives_plain_booleans():
+    # AC 43.13-1B 10-2 c: rotorcraft, less than 0.2 % of the maximum allowable CG range
+    aircraft = load_aircraft(sample("heli2/aircraft.toml"))
+    tiny = alter(aircraft, Changes.model_validate({"change": [{"action": "install", "item": "p", "weight": 0.2,
+                                                                "arm": aircraft.empty.arm}]}))
+    assert type(tiny.negligible.cg) is bool and type(tiny.negligible.weight) is bool
+    assert tiny.negligible.overall is True
+
+
+def test_an_alteration_that_leaves_no_useful_load_is_refused():
+    aircraft = parse_aircraft({**sample_data("trainer4/aircraft.toml")})
+    big = alter(aircraft, Changes.model_validate({"change": [{"action": "install", "item": "tank", "weight": 800.0,
+                                                               "arm": 40.0}]}))
+    assert [r.code for r in big.refusals] == ["no_useful_load", "implausible_change"]
+    assert not big.refusals[0].overridable and big.refusals[1].overridable
+
+
+def test_the_alteration_record_shows_the_description_and_date(tmp_path):
+    html = _record_sheet(tmp_path, "alter", sample("trainer4/aircraft.toml"), sample("trainer4/changes.toml"))
+    assert _cell(html, "meta-changes-of") == "2026-11-29"
+    assert _cell(html, "meta-description") == "Radio installed, wheel fairings removed, ELT relocated"
+    assert "Previous record</th><th>New record</th><th>Change</th>" in html
+    assert "Most forward" in html and "Empty-weight CG range" in html and "Certificate number" in html
