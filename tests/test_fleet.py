@@ -259,7 +259,7 @@ def test_an_interrupted_batch_leaves_every_record_whole(tmp_path):
 
 def test_library_check_flights_in_order(records):
     fleet = load_fleet(SAMPLES)
-    rows, _ = read_loadings(DAY, fleet)
+    rows = list(read_loadings(DAY, fleet)[0])
     flights = list(check_flights(fleet, rows))
     assert [f.row.line for f in flights] == [r.line for r in rows]
     assert load_aircraft(sample("twin6/aircraft.toml")).registration == "DEMO-6P"
