@@ -499,14 +499,15 @@ def _boundary_problems(aircraft: Aircraft) -> list[str]:
     has in the file's units."""
     problems: list[str] = []
     reserved = {name.lower() for name in RESERVED_IDS}
-    for where, items in (("station", aircraft.station), ("tank", aircraft.tank)):
-        for index, item in enumerate(items):
-            if item.id.lower() in reserved:
-                problems.append(
-                    f"{where}[{index}].id: {item.id!r} is a reserved name (a column of the fleet CSV: "
-                    f"{', '.join(RESERVED_IDS)}), so its {'weight' if where == 'station' else 'fuel'} could be read as "
-                    f"something else; choose another id, e.g. {item.id + '_' + where!r}"
-                )
+    named = [("station", index, s.id) for index, s in enumerate(aircraft.station)]
+    named += [("tank", index, t.id) for index, t in enumerate(aircraft.tank)]
+    for where, index, name in named:
+        if name.lower() in reserved:
+            problems.append(
+                f"{where}[{index}].id: {name!r} is a reserved name (a column of the fleet CSV: "
+                f"{', '.join(RESERVED_IDS)}), so its {'weight' if where == 'station' else 'fuel'} could be read as "
+                f"something else; choose another id, e.g. {name + '_' + where!r}"
+            )
     for category in aircraft.categories:
         envelopes = aircraft.envelopes_for(category)
         if not any(axis in ("arm", "moment", "mac") for e in envelopes for axis in e.axes):

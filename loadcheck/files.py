@@ -113,8 +113,9 @@ def encoding_problem(head: bytes) -> str | None:
     if b"\x00" not in sample:
         return None
     even, odd = sample[0::2], sample[1::2]
-    if len(sample) >= 4 and (odd.count(0) >= 0.9 * len(odd) > 0 and even.count(0) == 0
-                             or even.count(0) >= 0.9 * len(even) > 0 and odd.count(0) == 0):
+    little_endian = odd.count(0) >= 0.9 * len(odd) > 0 and even.count(0) == 0
+    big_endian = even.count(0) >= 0.9 * len(even) > 0 and odd.count(0) == 0
+    if len(sample) >= 4 and (little_endian or big_endian):
         return "this looks like UTF-16 text; loadcheck reads UTF-8: save the file as UTF-8"
     return "this is a binary file, not a text file"
 

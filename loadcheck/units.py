@@ -15,6 +15,7 @@ from __future__ import annotations
 
 import math
 import re
+from collections.abc import Callable
 from dataclasses import dataclass
 from typing import Literal
 
@@ -298,16 +299,15 @@ def read_rate(text: str | float, unit: str, field: str = "") -> float:
     >>> round(read_rate("36 l/h", "usgal"), 4)
     9.5102
     """
-    try:
+
+    def read() -> float:
         quantity = parse_rate(text)
-        if quantity.unit is None:
-            return quantity.value
-        if unit_kind(quantity.unit) == "mass":
+        if quantity.unit is not None and unit_kind(quantity.unit) == "mass":
             raise UnitError("a mass per hour cannot be used here: give the rate as a fuel volume per hour "
                             f"(e.g. '9.5 {unit}/h')")
-        return convert(quantity.value, quantity.unit, unit)
-    except UnitError as error:
-        raise UnitError([p.__class__(field or p.field, p.message, text) for p in error.problems]) from None
+        return _in_unit(quantity, unit)
+
+    return _naming(field, text, read)
 
 
 def read_amount(text: str | float, unit: str, field: str = "") -> float:
@@ -323,10 +323,17 @@ def read_amount(text: str | float, unit: str, field: str = "") -> float:
     >>> round(read_amount("20 kg", "lb"), 3)
     44.092
     """
+    return _naming(field, text, lambda: _in_unit(parse_quantity(text), unit))
+
+
+def _in_unit(quantity: Quantity, unit: str) -> float:
+    """A quantity in ``unit``; a bare number is already in it."""
+    return quantity.value if quantity.unit is None else convert(quantity.value, quantity.unit, unit)
+
+
+def _naming(field: str, text: str | float, read: Callable[[], float]) -> float:
+    """``read()``, its errors attributed to ``field`` with the text typed."""
     try:
-        quantity = parse_quantity(text)
-        if quantity.unit is None:
-            return quantity.value
-        return convert(quantity.value, quantity.unit, unit)
+        return read()
     except UnitError as error:
         raise UnitError([p.__class__(field or p.field, p.message, text) for p in error.problems]) from None

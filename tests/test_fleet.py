@@ -224,16 +224,7 @@ def test_two_writers_lose_nothing(tmp_path):
 
 
 def test_an_interrupted_batch_leaves_every_record_whole(tmp_path):
-    big = tmp_path / "big.csv"
-    with open(DAY, newline="") as handle:
-        reader = csv.DictReader(handle)
-        rows = list(reader)
-        fields = reader.fieldnames
-    with open(big, "w", newline="") as out:
-        writer = csv.DictWriter(out, fieldnames=fields)
-        writer.writeheader()
-        for i in range(20_000):
-            writer.writerow(rows[i % len(rows)])
+    big = _write_day(tmp_path / "big.csv", 20_000)
     db = tmp_path / "records.sqlite3"
     process = _run_fleet(db, big)
     deadline = time.time() + 60
