@@ -87,7 +87,7 @@ def open_regular(path: str | Path, *, limit: int = MAX_FILE_BYTES) -> BinaryIO:
     if info.st_size > limit:
         os.close(handle)
         raise FileFormatError(f"file is too large ({info.st_size:,} bytes; at most {limit:,})", file=path)
-    return os.fdopen(handle, "rb")
+    return open(handle, "rb", closefd=True)  # the caller closes it
 
 
 def _require_regular(mode: int, path: Path) -> None:

@@ -25,7 +25,7 @@ from pydantic import BaseModel, BeforeValidator, ConfigDict, Field, field_valida
 from .aircraft import Aircraft
 from .errors import InputError, Problem, UnknownNameError
 from .fuel import density_problem
-from .units import Quantity, convert, parse_duration_hours, parse_quantity, parse_rate, unit_kind
+from .units import Quantity, convert, in_unit, parse_duration_hours, parse_quantity, parse_rate, unit_kind
 
 __all__ = ["Burn", "BurnPlan", "Loading", "ResolvedLoading", "apply_overrides", "resolve_loading"]
 
@@ -399,7 +399,7 @@ def resolve_loading(loading: Loading, aircraft: Aircraft, *, category: str | Non
         quantity = parse_quantity(amount)
         if quantity.unit is not None and unit_kind(quantity.unit) == "mass":
             return plan.volume_for_mass(convert(quantity.value, quantity.unit, units.mass), density, after)
-        return _to_volume(quantity, 1.0, units.mass, units.fuel_volume)
+        return in_unit(quantity, units.fuel_volume)
 
     taxi = volume_of(burn.taxi)
     if burn.trip_time is not None:
@@ -408,7 +408,7 @@ def resolve_loading(loading: Loading, aircraft: Aircraft, *, category: str | Non
         if rate.unit is not None and unit_kind(rate.unit) == "mass":
             trip = plan.volume_for_mass(convert(hours * rate.value, rate.unit, units.mass), density, taxi)
         else:
-            trip = hours * _to_volume(rate, 1.0, units.mass, units.fuel_volume)
+            trip = hours * in_unit(rate, units.fuel_volume)
     else:
         trip = volume_of(burn.trip, taxi)
     if burn.trip is None and burn.trip_time is None:

@@ -35,6 +35,7 @@ __all__ = [
     "VolumeUnit",
     "canonical_unit",
     "convert",
+    "in_unit",
     "parse_duration_hours",
     "parse_quantity",
     "parse_rate",
@@ -305,7 +306,7 @@ def read_rate(text: str | float, unit: str, field: str = "") -> float:
         if quantity.unit is not None and unit_kind(quantity.unit) == "mass":
             raise UnitError("a mass per hour cannot be used here: give the rate as a fuel volume per hour "
                             f"(e.g. '9.5 {unit}/h')")
-        return _in_unit(quantity, unit)
+        return in_unit(quantity, unit)
 
     return _naming(field, text, read)
 
@@ -323,11 +324,17 @@ def read_amount(text: str | float, unit: str, field: str = "") -> float:
     >>> round(read_amount("20 kg", "lb"), 3)
     44.092
     """
-    return _naming(field, text, lambda: _in_unit(parse_quantity(text), unit))
+    return _naming(field, text, lambda: in_unit(parse_quantity(text), unit))
 
 
-def _in_unit(quantity: Quantity, unit: str) -> float:
-    """A quantity in ``unit``; a bare number is already in it."""
+def in_unit(quantity: Quantity, unit: str) -> float:
+    """A quantity in ``unit``; a bare number is already in it.
+
+    Raises
+    ------
+    UnitError
+        If the quantity's unit is of another kind than ``unit``.
+    """
     return quantity.value if quantity.unit is None else convert(quantity.value, quantity.unit, unit)
 
 
