@@ -428,7 +428,17 @@ def _validate_loading(path: str | Path, data: Mapping[str, Any]) -> str:
         if problems:
             raise InputError(problems, file=path)
         return "loading (names no aircraft, so station and tank names were not checked)"
-    aircraft = _named_aircraft(Path(path).parent / loading.aircraft, path)
+    named = Path(path).parent / loading.aircraft
+    try:
+        aircraft = _named_aircraft(named, path)
+    except LoadcheckError as error:
+        if not problems:
+            raise
+        if error.file == str(path):  # already said of this loading (the file is missing, not an aircraft)
+            raise InputError([*problems, *error.problems], file=path) from None
+        lines = "; ".join(error.lines())
+        raise InputError([*problems, Problem("aircraft", f"names {named}, which does not validate: {lines}")],
+                         file=path) from None
     try:
         resolve_loading(loading, aircraft)
     except LoadcheckError as error:

@@ -264,6 +264,9 @@ def test_validate_reported_a_loadings_misspelt_keys_but_not_its_unknown_station_
     _refused(["validate", str(bad), str(folder / "within.toml")], "bad.toml", "labl", "burn.taxy",
              "load.frnt: unknown station 'frnt'", "fuel.mains", "above the tank's usable capacity",
              "ok: ", folder=tmp_path)
+    (folder / "broken.toml").write_text((folder / "aircraft.toml").read_text().replace("weight = 1652.0", "weight = -1"))
+    bad.write_text('format = 1\naircraft = "broken.toml"\nlabl = "x"\n[load]\nfront = 170\n')
+    _refused(["validate", str(bad)], "bad.toml", "labl", "aircraft: names", "broken.toml", "empty.weight", folder=tmp_path)
 
 
 def test_swapped_arguments_gave_ten_unrelated_errors(tmp_path):
