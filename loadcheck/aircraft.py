@@ -30,10 +30,11 @@ from pydantic import (
 
 from .envelope import AXES, Axis, EnvelopeShape, polygon_problem
 from .errors import Problem, UnknownNameError
-from .fuel import FuelGrade, default_density, grade_name
+from .fuel import FuelGrade, default_density, density_problem, grade_name
 from .units import ArmUnit, MassUnit, VolumeUnit, canonical_unit, convert, parse_quantity, unit_kind
 
 __all__ = [
+    "RESERVED_IDS",
     "Aircraft",
     "EmptyWeight",
     "Envelope",
@@ -50,6 +51,12 @@ __all__ = [
 StationKind = Literal["seat", "baggage", "cargo", "ballast", "other"]
 
 _ID_PATTERN = r"^[A-Za-z0-9_][A-Za-z0-9_.-]*$"
+
+RESERVED_IDS = ("registration", "reference", "pilot", "date", "category", "label",
+                "taxi", "trip", "trip_time", "rate", "order", "reserve")
+"""Names a station or tank may not take (in any letter case): they are the fleet CSV's own
+columns (docs/fleet.md), so a station called ``pilot`` would be read as the pilot's name
+and its weight lost."""
 
 
 class _Model(BaseModel):
@@ -415,6 +422,7 @@ class Aircraft(_Model):
                     f"envelope[{index}].axes: a lateral envelope needs lateral arms, "
                     "and no empty weight, station or tank gives one"
                 )
+        problems += _boundary_problems(self)
         if problems:
             raise ValueError("\n".join(problems))
         for envelope in self.envelope:
@@ -499,3 +507,35 @@ class Aircraft(_Model):
         """SHA-256 of the canonical JSON of the aircraft data (first 16 hex digits)."""
         canonical = json.dumps(self.model_dump(mode="json"), sort_keys=True, separators=(",", ":"))
         return hashlib.sha256(canonical.encode()).hexdigest()[:16]
+
+
+def _boundary_problems(aircraft: Aircraft) -> list[str]:
+    """Rules that keep a value from being misread later: ids that a fleet CSV would read
+    as its own columns, a category with no fore-and-aft CG limit, a fuel density no fuel
+    has in the file's units."""
+    problems: list[str] = []
+    reserved = {name.lower() for name in RESERVED_IDS}
+    named = [("station", index, s.id) for index, s in enumerate(aircraft.station)]
+    named += [("tank", index, t.id) for index, t in enumerate(aircraft.tank)]
+    for where, index, name in named:
+        if name.lower() in reserved:
+            problems.append(
+                f"{where}[{index}].id: {name!r} is a reserved name (a column of the fleet CSV: "
+                f"{', '.join(RESERVED_IDS)}), so its {'weight' if where == 'station' else 'fuel'} could be read as "
+                f"something else; choose another id, e.g. {name + '_' + where!r}"
+            )
+    for category in aircraft.categories:
+        envelopes = aircraft.envelopes_for(category)
+        if not any(axis in ("arm", "moment", "mac") for e in envelopes for axis in e.axes):
+            index = next(i for i, e in enumerate(aircraft.envelope) if e.category == category)
+            problems.append(
+                f"envelope[{index}].category: category {category!r} has only lateral envelopes, so its fore-and-aft "
+                "CG would never be checked; give it an envelope on arm, moment or mac as well"
+            )
+    units = aircraft.units
+    for index, tank in enumerate(aircraft.tank):
+        if tank.density is not None:
+            problem = density_problem(tank.density, units.mass, units.fuel_volume)
+            if problem:
+                problems.append(f"tank[{index}].density: {problem}")
+    return problems

@@ -20,7 +20,7 @@ import tomllib
 from collections.abc import Mapping
 from dataclasses import dataclass, field
 from pathlib import Path
-from typing import Any
+from typing import Any, BinaryIO
 
 from pydantic import BaseModel, ValidationError
 
@@ -30,14 +30,18 @@ from .loading import Loading, ResolvedLoading, apply_overrides, resolve_loading
 
 __all__ = [
     "MAX_FILE_BYTES",
+    "MAX_NESTING",
     "CheckInputs",
+    "encoding_problem",
     "file_kind",
     "load_aircraft",
     "load_aircraft_for_update",
     "load_check_inputs",
     "load_loading",
+    "open_regular",
     "parse_aircraft",
     "parse_loading",
+    "parse_toml",
     "problems_from_validation",
     "read_text",
     "read_toml",
@@ -51,8 +55,13 @@ MAX_FILE_BYTES = 5 * 1024 * 1024
 """Largest input file read [bytes]; aircraft and loading files are a few kilobytes."""
 
 
-def read_text(path: str | Path, *, limit: int = MAX_FILE_BYTES) -> str:
-    """Read a UTF-8 text file, refusing missing, oversized, binary or non-UTF-8 files.
+def open_regular(path: str | Path, *, limit: int = MAX_FILE_BYTES) -> BinaryIO:
+    """Open an ordinary file for reading, refusing anything else.
+
+    A device (``/dev/zero``), a FIFO or a socket is refused before it is read (it could be
+    read for ever); a folder, a missing file and a file larger than ``limit`` too. The
+    file is opened without blocking (a FIFO put in its place between the look and the
+    open is refused as well).
 
     Raises
     ------
@@ -61,24 +70,122 @@ def read_text(path: str | Path, *, limit: int = MAX_FILE_BYTES) -> str:
     """
     path = Path(path)
     try:
-        if path.is_dir():
-            raise FileFormatError("is a folder, not a file", file=path)
-        size = path.stat().st_size
-        if size > limit:
-            raise FileFormatError(f"file is too large ({size:,} bytes; at most {limit:,})", file=path)
-        raw = path.read_bytes()
+        info = os.stat(path)
+        _require_regular(info.st_mode, path)
+        handle = os.open(path, os.O_RDONLY | getattr(os, "O_NONBLOCK", 0) | getattr(os, "O_NOCTTY", 0)
+                         | getattr(os, "O_BINARY", 0))
+        try:
+            info = os.fstat(handle)
+            _require_regular(info.st_mode, path)
+        except BaseException:
+            os.close(handle)
+            raise
     except FileNotFoundError:
         raise FileFormatError("file not found", file=path) from None
     except PermissionError:
         raise FileFormatError("permission denied", file=path) from None
     except OSError as error:
         raise FileFormatError(f"cannot read the file: {error.strerror or error}", file=path) from None
-    if b"\x00" in raw:
-        raise FileFormatError("this is a binary file, not a text file", file=path)
+    if info.st_size > limit:
+        os.close(handle)
+        raise FileFormatError(f"file is too large ({info.st_size:,} bytes; at most {limit:,})", file=path)
+    return open(handle, "rb", closefd=True)  # the caller closes it
+
+
+def _require_regular(mode: int, path: Path) -> None:
+    if stat.S_ISDIR(mode):
+        raise FileFormatError("is a folder, not a file", file=path)
+    if not stat.S_ISREG(mode):
+        kind = ("a character device" if stat.S_ISCHR(mode) else "a block device" if stat.S_ISBLK(mode)
+                else "a FIFO (named pipe)" if stat.S_ISFIFO(mode) else "a socket" if stat.S_ISSOCK(mode) else "not a file")
+        raise FileFormatError(f"is {kind}, not an ordinary file; loadcheck reads only ordinary files", file=path)
+
+
+def encoding_problem(head: bytes) -> str | None:
+    """Why the first bytes of a file are not UTF-8 text loadcheck can read, or None.
+
+    Recognises UTF-16 and UTF-32 (by their byte-order mark, or by the zero bytes every
+    other byte of UTF-16 text holds) and binary data (a zero byte).
+    """
+    for mark, name in ((b"\xff\xfe\x00\x00", "UTF-32"), (b"\x00\x00\xfe\xff", "UTF-32"),
+                       (b"\xff\xfe", "UTF-16"), (b"\xfe\xff", "UTF-16")):
+        if head.startswith(mark):
+            return f"this is {name} text; loadcheck reads UTF-8: save the file as UTF-8"
+    sample = head[:4096]
+    if b"\x00" not in sample:
+        return None
+    even, odd = sample[0::2], sample[1::2]
+    little_endian = odd.count(0) >= 0.9 * len(odd) > 0 and even.count(0) == 0
+    big_endian = even.count(0) >= 0.9 * len(even) > 0 and odd.count(0) == 0
+    if len(sample) >= 4 and (little_endian or big_endian):
+        return "this looks like UTF-16 text; loadcheck reads UTF-8: save the file as UTF-8"
+    return "this is a binary file, not a text file"
+
+
+def read_text(path: str | Path, *, limit: int = MAX_FILE_BYTES) -> str:
+    """Read a UTF-8 text file, refusing missing, special, oversized, binary or non-UTF-8 files.
+
+    At most ``limit`` bytes are read, whatever the file system says of the file's size.
+
+    Raises
+    ------
+    FileFormatError
+        With the file name and the reason.
+    """
+    with open_regular(path, limit=limit) as stream:
+        try:
+            raw = stream.read(limit + 1)
+        except OSError as error:
+            raise FileFormatError(f"cannot read the file: {error.strerror or error}", file=path) from None
+    if len(raw) > limit:
+        raise FileFormatError(f"file is too large (more than {limit:,} bytes)", file=path)
+    problem = encoding_problem(raw)
+    if problem:
+        raise FileFormatError(problem, file=path)
     try:
         return raw.decode("utf-8-sig")
     except UnicodeDecodeError as error:
         raise FileFormatError(f"not UTF-8 text (bad byte at offset {error.start})", file=path) from None
+
+
+MAX_NESTING = 32
+"""Deepest nesting of tables and arrays read from a file; loadcheck's files nest a few levels."""
+
+
+def _depth(data: Any) -> int:
+    """How deeply tables and arrays nest (counted without recursion)."""
+    deepest, stack = 0, [(data, 1)]
+    while stack:
+        value, depth = stack.pop()
+        children = value.values() if isinstance(value, dict) else value if isinstance(value, list) else None
+        if children is None:
+            continue
+        deepest = max(deepest, depth)
+        if depth > MAX_NESTING:
+            break
+        stack.extend((child, depth + 1) for child in children)
+    return deepest
+
+
+def parse_toml(text: str, path: str | Path) -> dict[str, Any]:
+    """Parse TOML text read from ``path``, refusing bad syntax and deep nesting.
+
+    Raises
+    ------
+    FileFormatError
+        With the parser's message (line and column), or the nesting found.
+    """
+    try:
+        data = tomllib.loads(text)
+    except tomllib.TOMLDecodeError as error:
+        raise FileFormatError(f"TOML syntax error: {error}", file=path) from None
+    except RecursionError:
+        raise FileFormatError(f"tables or arrays nested too deeply (loadcheck's files nest at most {MAX_NESTING} "
+                              "levels)", file=path) from None
+    if _depth(data) > MAX_NESTING:
+        raise FileFormatError(f"tables or arrays nested more than {MAX_NESTING} levels deep; loadcheck's files nest "
+                              "a few levels", file=path)
+    return data
 
 
 def read_toml(path: str | Path) -> dict[str, Any]:
@@ -89,11 +196,7 @@ def read_toml(path: str | Path) -> dict[str, Any]:
     FileFormatError
         With the parser's message, which gives the line and column.
     """
-    text = read_text(path)
-    try:
-        return tomllib.loads(text)
-    except tomllib.TOMLDecodeError as error:
-        raise FileFormatError(f"TOML syntax error: {error}", file=path) from None
+    return parse_toml(read_text(path), path)
 
 
 _TAG = re.compile(r"\[|^(str|float|int|bool)$")  # pydantic's names for union branches and wrapped validators
@@ -170,11 +273,7 @@ def load_aircraft_for_update(path: str | Path) -> tuple[Aircraft, bytes]:
     longer holds them.
     """
     text = read_text(path)
-    try:
-        data = tomllib.loads(text)
-    except tomllib.TOMLDecodeError as error:
-        raise FileFormatError(f"TOML syntax error: {error}", file=path) from None
-    return parse_aircraft(data, path), text.encode("utf-8")
+    return parse_aircraft(parse_toml(text, path), path), text.encode("utf-8")
 
 
 def load_aircraft(path: str | Path) -> Aircraft:
@@ -246,23 +345,16 @@ def load_check_inputs(
     """
     notes: list[str] = []
     data = read_toml(aircraft_path)
+    if loading_path is not None and file_kind(data) == "loading":
+        second = file_kind(read_toml(loading_path))
+        what = "an aircraft file" if second == "aircraft" else f"a {second} file" if second != "unknown" else "not an aircraft file"
+        raise InputError(Problem("", f"the first file is a loading file and the second ({loading_path}) is {what}: "
+                                 "the aircraft file comes first (check AIRCRAFT LOADING)"
+                                 + ("; the two are swapped" if second == "aircraft" else "")), file=aircraft_path)
     if loading_path is None and file_kind(data) == "loading":
         loading_path = aircraft_path
         loading, named = load_loading(loading_path, **overrides)
-        if named is None:
-            raise InputError(
-                Problem("aircraft", "this loading file names no aircraft file; give the aircraft file first"),
-                file=loading_path,
-            )
-        try:
-            named_data = read_toml(named)
-        except LoadcheckError as error:
-            reason = "; ".join(p.describe() for p in error.problems)
-            raise InputError(Problem("aircraft", f"names {named}, which cannot be read: {reason}"),
-                             file=loading_path) from None
-        if file_kind(named_data) != "aircraft":
-            raise InputError(Problem("aircraft", f"names {named}, which is not an aircraft file"), file=loading_path)
-        aircraft = parse_aircraft(named_data, named)
+        aircraft = _named_aircraft(named, loading_path)
     else:
         aircraft = parse_aircraft(data, aircraft_path)
         loading, named = load_loading(loading_path, **overrides)
@@ -274,6 +366,88 @@ def load_check_inputs(
         raise error.with_file(loading_path if loading_path is not None else "command line") from None
     label = loading.label or (Path(loading_path).stem if loading_path is not None else None)
     return CheckInputs(aircraft, resolved, Path(loading_path) if loading_path else None, notes, label, loading)
+
+
+def _named_aircraft(named: Path | None, loading_path: str | Path) -> Aircraft:
+    """The aircraft a loading file names (``aircraft = "trainer.toml"``).
+
+    Raises
+    ------
+    InputError
+        Attributed to the loading file: it names no aircraft, or one that cannot be read
+        or is not an aircraft file.
+    """
+    if named is None:
+        raise InputError(
+            Problem("aircraft", "this loading file names no aircraft file; give the aircraft file first"),
+            file=loading_path,
+        )
+    try:
+        named_data = read_toml(named)
+    except LoadcheckError as error:
+        reason = "; ".join(p.describe() for p in error.problems)
+        raise InputError(Problem("aircraft", f"names {named}, which cannot be read: {reason}"),
+                         file=loading_path) from None
+    if file_kind(named_data) != "aircraft":
+        raise InputError(Problem("aircraft", f"names {named}, which is not an aircraft file"), file=loading_path)
+    return parse_aircraft(named_data, named)
+
+
+def _without(data: Mapping[str, Any], fields: list[str]) -> dict[str, Any]:
+    """A copy of loading data without the fields named (dotted paths such as ``burn.taxi``)."""
+    import copy
+
+    result: dict[str, Any] = copy.deepcopy(dict(data))
+    for dotted in fields:
+        keys = [k for k in re.split(r"\.|\[(\d+)\]", dotted) if k]
+        parent: Any = result
+        try:
+            for key in keys[:-1]:
+                parent = parent[int(key)] if isinstance(parent, list) else parent[key]
+            if isinstance(parent, dict):
+                parent.pop(keys[-1], None)
+            elif isinstance(parent, list):
+                parent.pop(int(keys[-1]))
+        except (KeyError, IndexError, ValueError, TypeError):
+            continue
+    return result
+
+
+def _validate_loading(path: str | Path, data: Mapping[str, Any]) -> str:
+    """Validate a loading file and, where it names one, against its aircraft, reporting every
+    problem at once: the fields that do not validate, then (the loading read without them)
+    unknown stations, tanks and levels and fuel above capacity."""
+    problems: list[Problem] = []
+    try:
+        loading = parse_loading(data, path)
+    except InputError as error:
+        problems += error.problems
+        try:
+            loading = parse_loading(_without(data, [p.field for p in error.problems if p.field]), path)
+        except LoadcheckError:
+            raise error from None
+    if not loading.aircraft:
+        if problems:
+            raise InputError(problems, file=path)
+        return "loading (names no aircraft, so station and tank names were not checked)"
+    named = Path(path).parent / loading.aircraft
+    try:
+        aircraft = _named_aircraft(named, path)
+    except LoadcheckError as error:
+        if not problems:
+            raise
+        if error.file == str(path):  # already said of this loading (the file is missing, not an aircraft)
+            raise InputError([*problems, *error.problems], file=path) from None
+        lines = "; ".join(error.lines())
+        raise InputError([*problems, Problem("aircraft", f"names {named}, which does not validate: {lines}")],
+                         file=path) from None
+    try:
+        resolve_loading(loading, aircraft)
+    except LoadcheckError as error:
+        problems += [p for p in error.problems if p not in problems]
+    if problems:
+        raise InputError(problems, file=path)
+    return f"loading for {aircraft.name!r}"
 
 
 def validate_file(path: str | Path) -> str:
@@ -295,11 +469,7 @@ def validate_file(path: str | Path) -> str:
             f"categories {', '.join(aircraft.categories)}"
         )
     if kind == "loading":
-        inputs = load_check_inputs(path) if data.get("aircraft") else None
-        if inputs is None:
-            parse_loading(data, path)
-            return "loading (names no aircraft, so station and tank names were not checked)"
-        return f"loading for {inputs.aircraft.name!r}"
+        return _validate_loading(path, data)
     if kind in ("readings", "changes"):
         named = data.get("aircraft")
         if not named:

@@ -5,6 +5,11 @@ from a CSV file (one row per flight; columns documented in docs/fleet.md) or a f
 loading files. Each flight is resolved against its aircraft and checked with
 :func:`~loadcheck.check.check_loading`; a row that cannot be used is reported with its line
 number and reason, never skipped, and the other rows are still checked.
+
+Rows are streamed: :func:`read_loadings` reads the header at once and then one row at a
+time, and :func:`check_flights` holds a few chunks of rows at a time, so memory does not
+grow with the number of rows and the cost grows linearly with it. How a chunk is checked
+(:func:`_check_chunk`) is kept apart from how rows are read and streamed.
 """
 
 from __future__ import annotations
@@ -12,16 +17,22 @@ from __future__ import annotations
 import csv
 import datetime as dt
 import io
+import itertools
+import os
 import re
+import threading
+import time
+from collections import deque
 from collections.abc import Iterable, Iterator
 from dataclasses import dataclass, field
+from functools import cached_property
 from pathlib import Path
 from typing import Any
 
-from .aircraft import Aircraft
+from .aircraft import RESERVED_IDS, Aircraft
 from .check import check_loading
 from .errors import FileFormatError, InputError, LoadcheckError, Problem
-from .files import file_kind, parse_aircraft, parse_loading, read_text, read_toml
+from .files import encoding_problem, file_kind, open_regular, parse_aircraft, parse_loading, read_toml
 from .loading import Loading, resolve_loading
 
 __all__ = [
@@ -42,9 +53,8 @@ __all__ = [
 MAX_CSV_BYTES = 50 * 1024 * 1024
 """Largest loadings CSV read [bytes] (about half a million flights)."""
 
-RESERVED_COLUMNS = ("registration", "reference", "pilot", "date", "category", "label",
-                    "taxi", "trip", "trip_time", "rate", "order", "reserve")
-"""CSV columns that are not station or tank ids."""
+RESERVED_COLUMNS = RESERVED_IDS
+"""CSV columns that are not station or tank ids (an aircraft file may not use them as ids)."""
 
 _HEADER = re.compile(r"^\s*([^\[\]]+?)\s*(?:\[\s*([^\]]+?)\s*\])?\s*$")
 
@@ -66,7 +76,7 @@ class Fleet:
     folder: Path
     entries: list[FleetEntry]
 
-    @property
+    @cached_property
     def duplicates(self) -> dict[str, list[Path]]:
         """Registrations found in more than one file."""
         seen: dict[str, list[Path]] = {}
@@ -95,7 +105,7 @@ class Fleet:
             raise InputError(Problem("registration", f"the file of {registration!r} ({entry.path}) does not validate"))
         return entry.aircraft
 
-    @property
+    @cached_property
     def station_and_tank_ids(self) -> set[str]:
         """Every station and tank id of any usable aircraft."""
         ids: set[str] = set()
@@ -114,6 +124,9 @@ def load_fleet(folder: str | Path) -> Fleet:
         When the folder does not exist or holds no aircraft file.
     """
     folder = Path(folder)
+    if folder.is_file():
+        raise FileFormatError("is a file, not a folder of aircraft files (the fleet folder comes first: "
+                              "fleet check FOLDER LOADINGS)", file=folder)
     if not folder.is_dir():
         raise FileFormatError("not a folder of aircraft files", file=folder)
     entries = []
@@ -158,40 +171,92 @@ def _split_header(name: str) -> tuple[str, str | None]:
     return match.group(1).strip(), match.group(2)
 
 
-def _csv_rows(path: Path, fleet: Fleet) -> tuple[list[FleetRow], list[str]]:
-    text = read_text(path, limit=MAX_CSV_BYTES)
-    reader = csv.reader(io.StringIO(text, newline=""))
+class _Counted(io.RawIOBase):
+    """A binary stream that refuses to give more than ``limit`` bytes in all."""
+
+    def __init__(self, raw: Any, limit: int, path: Path):
+        super().__init__()
+        self._raw, self._limit, self._path, self.count = raw, limit, path, 0
+
+    def readable(self) -> bool:
+        return True
+
+    def readinto(self, buffer: Any) -> int:
+        size = int(self._raw.readinto(buffer) or 0)
+        self.count += size
+        if self.count > self._limit:
+            raise FileFormatError(f"file is too large (more than {self._limit:,} bytes)", file=self._path)
+        return size
+
+    def close(self) -> None:
+        self._raw.close()
+        super().close()
+
+
+def _csv_rows(path: Path, fleet: Fleet) -> tuple[Iterator[FleetRow], list[str]]:
+    """The header read at once (its problems raised or returned), the rows one at a time."""
+    raw = open_regular(path, limit=MAX_CSV_BYTES)
+    buffered = io.BufferedReader(_Counted(raw, MAX_CSV_BYTES, path), buffer_size=1 << 16)
     try:
-        header = next(reader)
-    except StopIteration:
-        raise FileFormatError("the CSV file is empty: it needs a header row", file=path) from None
-    except csv.Error as error:
-        raise FileFormatError(f"not a readable CSV file: {error}", file=path) from None
+        problem = encoding_problem(buffered.peek(4096)[:4096])
+        if problem:
+            raise FileFormatError(problem, file=path)
+        text = io.TextIOWrapper(buffered, encoding="utf-8-sig", newline="")
+        reader = csv.reader(text)
+        try:
+            header = next(reader)
+        except StopIteration:
+            raise FileFormatError("the CSV file is empty: it needs a header row", file=path) from None
+        except csv.Error as error:
+            raise FileFormatError(f"not a readable CSV file: {error}", file=path) from None
+        except UnicodeDecodeError as error:
+            raise FileFormatError(f"not UTF-8 text (bad byte in the header, {error.reason})", file=path) from None
+        columns, file_problems, unknown = _read_header(path, header, fleet)
+    except BaseException:
+        buffered.close()
+        raise
+    return _stream_rows(path, text, reader, columns, fleet, unknown), file_problems
+
+
+def _read_header(path: Path, header: list[str], fleet: Fleet) -> tuple[list[tuple[str, str | None]], list[str], set[str]]:
     columns = [_split_header(h) for h in header]
     names = [c[0] for c in columns]
-    file_problems: list[str] = []
+    if not names or all(not n for n in names):
+        raise FileFormatError("the CSV header is empty", file=path)
     if "registration" not in names:
+        line = ",".join(header)
+        for separator, word in ((";", "semicolons"), ("\t", "tabs"), ("|", "bars")):
+            if separator in line and "registration" in [n.strip() for n in line.split(separator)]:
+                raise FileFormatError(f"the file is separated by {word}, not by commas: save it as comma-separated "
+                                      "CSV (a decimal comma is not read either: write 170.5)", file=path)
         raise FileFormatError("the CSV header has no 'registration' column", file=path)
     repeated = sorted({n for n in names if names.count(n) > 1})
     if repeated:
         raise FileFormatError(f"column(s) named twice in the header: {', '.join(repeated)}", file=path)
     known = fleet.station_and_tank_ids
     unknown = [n for n in names if n and n not in RESERVED_COLUMNS and n not in known]
-    for name in unknown:
-        file_problems.append(f"{path}: unknown column {name!r}: not a station or tank of any fleet aircraft, nor one of "
-                             f"{', '.join(RESERVED_COLUMNS)}; rows with a value in it are refused")
-    if not names or all(not n for n in names):
-        raise FileFormatError("the CSV header is empty", file=path)
-    rows = []
+    file_problems = [f"{path}: unknown column {name!r}: not a station or tank of any fleet aircraft, nor one of "
+                     f"{', '.join(RESERVED_COLUMNS)}; rows with a value in it are refused" for name in unknown]
+    return columns, file_problems, set(unknown)
+
+
+def _stream_rows(path: Path, text: io.TextIOWrapper, reader: Any, columns: list[tuple[str, str | None]], fleet: Fleet,
+                 unknown: set[str]) -> Iterator[FleetRow]:
+    count = 0
     try:
         for record in reader:
-            line = reader.line_num
             if not any(cell.strip() for cell in record):
                 continue
-            rows.append(_csv_row(path, line, columns, record, fleet, set(unknown)))
+            count += 1
+            yield _csv_row(path, reader.line_num, columns, record, fleet, unknown)
     except csv.Error as error:
         raise FileFormatError(f"CSV error at line {reader.line_num}: {error}", file=path) from None
-    return rows, file_problems
+    except UnicodeDecodeError as error:
+        raise FileFormatError(f"not UTF-8 text (after line {reader.line_num}: {error.reason})", file=path) from None
+    finally:
+        text.close()
+    if count == 0:
+        raise FileFormatError("the CSV file has a header but no flights: there is nothing to check", file=path)
 
 
 def _csv_row(path: Path, line: int, columns: list[tuple[str, str | None]], record: list[str], fleet: Fleet,
@@ -250,8 +315,8 @@ def _bare_number(text: str) -> bool:
     return True
 
 
-def _folder_rows(folder: Path) -> list[FleetRow]:
-    rows = []
+def _folder_rows(folder: Path) -> Iterator[FleetRow]:
+    count = 0
     for index, path in enumerate(sorted(folder.rglob("*.toml")), start=1):
         try:
             data = read_toml(path)
@@ -259,26 +324,34 @@ def _folder_rows(folder: Path) -> list[FleetRow]:
                 continue
             loading = parse_loading(data, path)
             registration, reference, pilot = loading.registration, loading.reference or path.stem, loading.pilot
-            rows.append(FleetRow(index, str(path), registration, reference, pilot, loading,
-                                 [] if registration else [f"{path}: a fleet loading file names its aircraft by registration = ..."]))
+            row = FleetRow(index, str(path), registration, reference, pilot, loading,
+                           [] if registration else [f"{path}: a fleet loading file names its aircraft by registration = ..."])
         except LoadcheckError as error:
-            rows.append(FleetRow(index, str(path), None, path.stem, None, None, error.lines()))
-    return rows
+            row = FleetRow(index, str(path), None, path.stem, None, None, error.lines())
+        count += 1
+        yield row
+    if count == 0:
+        raise FileFormatError("holds no loading file: there is nothing to check", file=folder)
 
 
-def read_loadings(source: str | Path, fleet: Fleet) -> tuple[list[FleetRow], list[str]]:
+def read_loadings(source: str | Path, fleet: Fleet) -> tuple[Iterator[FleetRow], list[str]]:
     """Read a day of loadings: a CSV file, or a folder of loading files.
+
+    The header is read at once; the rows come one at a time, as they are read (the
+    iterator holds the file open until it ends).
 
     Returns
     -------
     (rows, file problems)
-        Every row, usable or not; and problems of the file as a whole (an unknown column).
+        An iterator of every row, usable or not; and problems of the file as a whole (an
+        unknown column).
 
     Raises
     ------
     FileFormatError
-        When the source cannot be read at all (missing, not CSV, no header, no
-        registration column).
+        When the source cannot be read at all (missing, not an ordinary file, not UTF-8,
+        not comma-separated, no header, no registration column); from the iterator, when
+        the file goes wrong further on or holds no flight at all (nothing to check).
     """
     source = Path(source)
     if source.is_dir():
@@ -300,6 +373,22 @@ class Flight:
         """Checked and within limits."""
         return self.result is not None and bool(self.result["ok"])
 
+    @property
+    def warnings(self) -> list[str]:
+        """The check's warnings (a tank taken as empty, landing fuel below the reserve): a
+        flight within limits that has any is not simply "within"."""
+        if self.result is None:
+            return []
+        return [f["message"] for f in self.result["findings"] if f["severity"] == "warning"]
+
+    def brief(self) -> Flight:
+        """This flight with only what a one-line summary shows (verdict, units, conditions,
+        findings), for holding many flights at once."""
+        row = FleetRow(self.row.line, self.row.source, self.row.registration, self.row.reference, self.row.pilot, None,
+                       self.row.problems)
+        result = None if self.result is None else {key: self.result[key] for key in _BRIEF if key in self.result}
+        return Flight(row, result, self.problems, self.record_id)
+
     def to_dict(self) -> dict[str, Any]:
         """The JSON Lines object: the fields of ``check --json`` and where the flight came from."""
         head: dict[str, Any] = {"line": self.row.line, "source": self.row.source, "registration": self.row.registration,
@@ -312,8 +401,16 @@ class Flight:
         return {**head, **body}
 
 
+_BRIEF = ("ok", "category", "units", "conditions", "findings")
+
 CHUNK = 256
 """Flights checked, recorded (one transaction) and reported together."""
+
+IN_FLIGHT = 2
+"""Chunks handed to each worker process ahead of the one being reported."""
+
+PARENT_POLL = 0.2
+"""How often a worker process looks whether its parent is still alive [s]."""
 
 _FLEET: Fleet | None = None  # the fleet, inherited by worker processes
 
@@ -331,7 +428,66 @@ def _check_one(row: FleetRow) -> tuple[dict[str, Any] | None, list[str]]:
 
 
 def _check_chunk(rows: list[FleetRow]) -> list[tuple[dict[str, Any] | None, list[str]]]:
+    """Check a chunk of rows (the one place that decides how a row is checked)."""
     return [_check_one(row) for row in rows]
+
+
+def _end_with_parent(parent: int) -> None:
+    """Worker start-up: end this process when its parent ends, however it ends (SIGKILL too).
+
+    A worker whose parent is killed is handed to another parent; it would wait for work for
+    ever, holding its memory. A daemon thread looks every :data:`PARENT_POLL` seconds.
+    """
+
+    def watch() -> None:
+        while os.getppid() == parent:
+            time.sleep(PARENT_POLL)
+        os._exit(1)
+
+    threading.Thread(target=watch, name="loadcheck-parent-watch", daemon=True).start()
+
+
+def _chunks(rows: Iterable[FleetRow]) -> Iterator[list[FleetRow]]:
+    iterator = iter(rows)
+    while chunk := list(itertools.islice(iterator, CHUNK)):
+        yield chunk
+
+
+def _checked(chunks: Iterator[list[FleetRow]], workers: int) -> Iterator[tuple[list[FleetRow], list[Any]]]:
+    """Each chunk with its outcomes, in order; at most ``workers * IN_FLIGHT`` chunks held.
+
+    Worker processes (forked, where the platform can) start only once a second chunk
+    comes, and end with their parent.
+    """
+    first = next(chunks, None)
+    if first is None:
+        return
+    second = next(chunks, None) if workers > 1 else None
+    import multiprocessing
+
+    if second is None or "fork" not in multiprocessing.get_all_start_methods():
+        yield first, _check_chunk(first)
+        if second is not None:
+            yield second, _check_chunk(second)
+        for chunk in chunks:
+            yield chunk, _check_chunk(chunk)
+        return
+    from concurrent.futures import ProcessPoolExecutor
+
+    pool = ProcessPoolExecutor(max_workers=workers, mp_context=multiprocessing.get_context("fork"),
+                               initializer=_end_with_parent, initargs=(os.getpid(),))
+    try:
+        pending: deque[tuple[list[FleetRow], Any]] = deque()
+        for chunk in itertools.chain((first, second), chunks):
+            pending.append((chunk, pool.submit(_check_chunk, chunk)))
+            if len(pending) >= workers * IN_FLIGHT:
+                done, future = pending.popleft()
+                yield done, future.result()
+        while pending:
+            done, future = pending.popleft()
+            yield done, future.result()
+    finally:
+        pool.shutdown(wait=True, cancel_futures=True)
 
 
 def check_flights(
@@ -342,23 +498,14 @@ def check_flights(
     Flights go in chunks of :data:`CHUNK`: a chunk is checked (by ``workers`` processes
     where more than one is asked for and the platform can fork), recorded in one
     transaction, and only then yielded, so everything reported has been recorded, and an
-    interrupted batch leaves every earlier chunk recorded whole.
+    interrupted batch leaves every earlier chunk recorded whole. ``rows`` is consumed as
+    the checks go (a few chunks ahead), so a day of any length is checked in bounded
+    memory; worker processes end when their parent does, even when it is killed.
     """
     global _FLEET
     _FLEET = fleet
-    rows = list(rows)
-    chunks = [rows[i : i + CHUNK] for i in range(0, len(rows), CHUNK)]
-    pool = None
-    if workers > 1 and len(chunks) > 1:
-        import multiprocessing
-
-        if "fork" in multiprocessing.get_all_start_methods():
-            from concurrent.futures import ProcessPoolExecutor
-
-            pool = ProcessPoolExecutor(max_workers=workers, mp_context=multiprocessing.get_context("fork"))
     try:
-        outcomes = pool.map(_check_chunk, chunks) if pool is not None else map(_check_chunk, chunks)
-        for chunk, results in zip(chunks, outcomes):
+        for chunk, results in _checked(_chunks(rows), workers):
             ids: list[int | None] = [None] * len(chunk)
             if log is not None:
                 entries = []
@@ -378,8 +525,6 @@ def check_flights(
             for row, (result, problems), record_id in zip(chunk, results, ids):
                 yield Flight(row, result, problems, record_id)
     finally:
-        if pool is not None:
-            pool.shutdown(cancel_futures=True)
         _FLEET = None
 
 

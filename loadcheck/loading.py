@@ -8,6 +8,10 @@ level and category names; tank capacities; fuel available for the burn) and retu
 Fuel burn (DESIGN.md, "Conditions checked"): with the order ``together`` every tank gives
 fuel in proportion to what it held at engine start; with a list, each tank is emptied to
 zero before the next one feeds. Taxi fuel comes out the same way, before takeoff.
+
+A taxi, trip, reserve or rate given as a mass is the mass burned: it becomes the volume
+that burns exactly that mass in the burn order, tank by tank at each tank's density
+(:meth:`BurnPlan.volume_for_mass`), never a volume at an average density.
 """
 
 from __future__ import annotations
@@ -20,7 +24,8 @@ from pydantic import BaseModel, BeforeValidator, ConfigDict, Field, field_valida
 
 from .aircraft import Aircraft
 from .errors import InputError, Problem, UnknownNameError
-from .units import Quantity, convert, parse_duration_hours, parse_quantity, unit_kind
+from .fuel import density_problem
+from .units import Quantity, convert, in_unit, parse_duration_hours, parse_quantity, parse_rate, unit_kind
 
 __all__ = ["Burn", "BurnPlan", "Loading", "ResolvedLoading", "apply_overrides", "resolve_loading"]
 
@@ -48,14 +53,28 @@ def _fuel_amount(value: Any) -> Any:
 
 def _fuel_start(value: Any) -> Any:
     """A tank's fuel at engine start: an amount, ``full`` or a fill-level name."""
-    if isinstance(value, str) and value.strip() and value.strip()[0] not in "0123456789.+-":
+    if _is_level_name(value):
         return value.strip()  # 'full' or a level name, looked up against the tank later
     return _fuel_amount(value)
+
+
+def _is_level_name(value: Any) -> bool:
+    """True for text that is not a number: ``full`` or a fill-level name."""
+    return isinstance(value, str) and bool(value.strip()) and value.strip()[0] not in "0123456789.+-"
+
+
+def _fuel_rate(value: Any) -> Any:
+    """Syntax check of a burn rate: per hour, a volume or a mass (``"36 l/h"``, ``"60 lb/h"``)."""
+    quantity = parse_rate(value)
+    if quantity.value < 0:
+        raise ValueError("must not be negative")
+    return value
 
 
 MassAmount = Annotated[float | str, BeforeValidator(_mass_amount)]
 FuelAmount = Annotated[float | str, BeforeValidator(_fuel_amount)]
 FuelStart = Annotated[float | str, BeforeValidator(_fuel_start)]
+FuelRate = Annotated[float | str, BeforeValidator(_fuel_rate)]
 
 
 class _Model(BaseModel):
@@ -68,7 +87,9 @@ class Burn(_Model):
     taxi: FuelAmount | None = Field(None, description="fuel used before takeoff [fuel volume unit, or with unit]")
     trip: FuelAmount | None = Field(None, description="fuel used from takeoff to landing [fuel volume unit]")
     trip_time: float | str | None = Field(None, description="'2:15', '2.25 h' or hours; needs rate")
-    rate: FuelAmount | None = Field(None, description="fuel used per hour with trip_time [fuel volume unit / h]")
+    rate: FuelRate | None = Field(
+        None, description="fuel used per hour with trip_time [fuel volume unit / h]; or '36 l/h', '9.5 gph', '60 lb/h'"
+    )
     order: Literal["together"] | list[str] = Field("together", description="'together' or tank ids in burn order")
     reserve: FuelAmount | None = Field(None, description="warn when landing fuel is below it [fuel volume unit]")
 
@@ -179,6 +200,52 @@ class BurnPlan:
             remaining -= used
         return left
 
+    def volume_for_mass(self, mass: float, density: Mapping[str, float], after: float = 0.0) -> float:
+        """The volume that burns exactly ``mass``, starting once ``after`` has been burned.
+
+        Together, every tank gives fuel in proportion to its start quantity, so a unit
+        volume burned weighs the start fuel's mass over its volume; in a sequence, each
+        tank's fuel weighs its own density, tank after tank. Past the fuel the burn order
+        can use, the last tank's density goes on (such a burn is refused by
+        :func:`require_usable`).
+
+        Parameters
+        ----------
+        mass : fuel mass to burn [mass unit]
+        density : density per tank [mass unit per fuel volume unit]
+        after : fuel already burned [fuel volume unit]
+
+        Returns
+        -------
+        float
+            Fuel volume [fuel volume unit].
+
+        Examples
+        --------
+        >>> plan = BurnPlan({"aux": 10.0, "mains": 20.0}, ("aux", "mains"))
+        >>> plan.volume_for_mass(80.0, {"aux": 5.0, "mains": 6.0})  # 10 at 5 (50), then 5 at 6 (30)
+        15.0
+        """
+        if mass <= 0:
+            return 0.0
+        if self.order is None:
+            volume = sum(self.start.values())
+            fuel_mass = sum(q * density[t] for t, q in self.start.items())
+            per_volume = fuel_mass / volume if volume > 0 else sum(density.values()) / len(density)
+            return mass / per_volume
+        remaining, volume, begin = mass, 0.0, 0.0
+        for tank in self.order:
+            end = begin + self.start[tank]
+            available = max(0.0, end - max(after, begin))
+            begin = end
+            if available <= 0:
+                continue
+            if available * density[tank] >= remaining:
+                return volume + remaining / density[tank]
+            remaining -= available * density[tank]
+            volume += available
+        return volume + remaining / density[self.order[-1]]
+
     def breakpoints(self) -> list[float]:
         """Fuel burned at which a tank runs dry in a sequential burn [fuel volume unit]."""
         if self.order is None:
@@ -256,9 +323,19 @@ def resolve_loading(loading: Loading, aircraft: Aircraft, *, category: str | Non
         quantity = parse_quantity(amount)
         stations[name] = quantity.value if quantity.unit is None else convert(quantity.value, quantity.unit, units.mass)
 
+    if loading.fuel_density is not None:
+        problem = density_problem(loading.fuel_density, units.mass, units.fuel_volume)
+        if problem:
+            problems.append(Problem("fuel_density", problem, value=loading.fuel_density))
+    notes: list[str] = []
+    if loading.registration and aircraft.registration:
+        if _registration_key(loading.registration) != _registration_key(aircraft.registration):
+            problems.append(Problem("registration", f"this loading is for {loading.registration!r}, but the aircraft "
+                                    f"file is {aircraft.registration!r}: check the loading against its own aircraft"))
+    elif loading.registration:
+        notes.append(f"the loading is for {loading.registration!r}; the aircraft file gives no registration to compare")
     density = {t.id: loading.fuel_density or aircraft.density(t) for t in aircraft.tank}
     fuel: dict[str, float] = {t.id: 0.0 for t in aircraft.tank}
-    notes: list[str] = []
     for name, amount in loading.fuel.items():
         tank = aircraft.tanks.get(name)
         if tank is None:
@@ -270,7 +347,7 @@ def resolve_loading(loading: Loading, aircraft: Aircraft, *, category: str | Non
         if isinstance(amount, str) and amount in tank.levels:
             fuel[name] = tank.levels[amount]
             continue
-        if isinstance(amount, str) and amount[0].isalpha():
+        if _is_level_name(amount):
             levels = _known(dict.fromkeys(["full", *tank.levels]))
             unknown.append(Problem(f"fuel.{name}", f"unknown fill level {amount!r} for tank {name!r}", expected=levels))
             continue
@@ -309,21 +386,34 @@ def resolve_loading(loading: Loading, aircraft: Aircraft, *, category: str | Non
 
     plan = BurnPlan(fuel, order)
     burn = loading.burn
-    mean_density = _mean_density(fuel, density)
+    given = [(name, getattr(burn, name)) for name in ("taxi", "trip", "rate", "reserve")]
+    masses = [name for name, amount in given if amount is not None and _is_mass(amount, name == "rate")]
+    if masses and not aircraft.tank:
+        raise InputError([Problem(f"burn.{name}", "a fuel mass cannot be burned: the aircraft has no tanks")
+                          for name in masses])
 
-    def volume_of(amount: float | str | None) -> float:
+    def volume_of(amount: float | str | None, after: float = 0.0) -> float:
+        """A fuel amount as the volume burned from ``after`` on [fuel volume unit]."""
         if amount is None:
             return 0.0
-        return _to_volume(parse_quantity(amount), mean_density, units.mass, units.fuel_volume)
+        quantity = parse_quantity(amount)
+        if quantity.unit is not None and unit_kind(quantity.unit) == "mass":
+            return plan.volume_for_mass(convert(quantity.value, quantity.unit, units.mass), density, after)
+        return in_unit(quantity, units.fuel_volume)
 
     taxi = volume_of(burn.taxi)
     if burn.trip_time is not None:
-        trip = parse_duration_hours(burn.trip_time) * volume_of(burn.rate)
+        hours = parse_duration_hours(burn.trip_time)
+        rate = parse_rate(burn.rate if burn.rate is not None else 0.0)
+        if rate.unit is not None and unit_kind(rate.unit) == "mass":
+            trip = plan.volume_for_mass(convert(hours * rate.value, rate.unit, units.mass), density, taxi)
+        else:
+            trip = hours * in_unit(rate, units.fuel_volume)
     else:
-        trip = volume_of(burn.trip)
+        trip = volume_of(burn.trip, taxi)
     if burn.trip is None and burn.trip_time is None:
         notes.append("no trip fuel given; landing is checked at the takeoff fuel")
-    reserve = None if burn.reserve is None else volume_of(burn.reserve)
+    reserve = None if burn.reserve is None else volume_of(burn.reserve, taxi + trip)
     resolved = ResolvedLoading(chosen, stations, fuel, density, taxi, trip, reserve, plan, notes)
     require_usable(resolved, aircraft)
     return resolved
@@ -373,9 +463,11 @@ def _to_volume(quantity: Quantity, density: float, mass_unit: str, volume_unit: 
     return convert(quantity.value, quantity.unit, mass_unit) / density
 
 
-def _mean_density(fuel: Mapping[str, float], density: Mapping[str, float]) -> float:
-    """Density of the fuel on board, by volume [mass unit per volume unit]."""
-    volume = sum(fuel.values())
-    if volume <= 0:
-        return next(iter(density.values()), 1.0)
-    return sum(fuel[t] * density[t] for t in fuel) / volume
+def _is_mass(amount: float | str, rate: bool = False) -> bool:
+    quantity = parse_rate(amount) if rate else parse_quantity(amount)
+    return quantity.unit is not None and unit_kind(quantity.unit) == "mass"
+
+
+def _registration_key(registration: str) -> str:
+    """A registration compared without case, spaces or hyphens (``g-abcd`` is ``GABCD``)."""
+    return "".join(ch for ch in registration.upper() if ch.isalnum())

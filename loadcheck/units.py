@@ -15,6 +15,7 @@ from __future__ import annotations
 
 import math
 import re
+from collections.abc import Callable
 from dataclasses import dataclass
 from typing import Literal
 
@@ -34,8 +35,12 @@ __all__ = [
     "VolumeUnit",
     "canonical_unit",
     "convert",
+    "in_unit",
     "parse_duration_hours",
     "parse_quantity",
+    "parse_rate",
+    "read_amount",
+    "read_rate",
     "unit_kind",
 ]
 
@@ -236,6 +241,76 @@ def parse_duration_hours(text: str | float | int) -> float:
     return hours
 
 
+_PER_HOUR_RE = re.compile(r"^(.*?)\s*(?:/\s*(?:h|hr|hrs|hour)|per\s+hour)\s*$", re.I)
+_RATE_WORDS = {"gph": "usgal", "lph": "l", "pph": "lb"}  # common practice: gph is US gallons per hour
+_RATE_WORD_RE = re.compile(r"^(.*?)\s*(gph|lph|pph)\s*$", re.I)
+
+
+def parse_rate(text: str | float | int) -> Quantity:
+    """Read a fuel burn rate: the amount used in one hour.
+
+    Accepts a number (fuel volume unit per hour), a quantity per hour (``"36 l/h"``,
+    ``"60 lb/h"``, ``"10 usgal per hour"``), the words ``gph`` (US gallons per hour,
+    common practice in US usage), ``lph`` and ``pph`` (pounds per hour), or a quantity
+    with no time (``"36 l"``, read as per hour).
+
+    Returns
+    -------
+    Quantity
+        The amount per hour and its unit (None for a bare number).
+
+    Raises
+    ------
+    UnitError
+        If the text is not a rate.
+
+    Examples
+    --------
+    >>> parse_rate("36 l/h"), parse_rate("9.5 gph"), parse_rate("60 lb/hr")
+    (Quantity(value=36.0, unit='l'), Quantity(value=9.5, unit='usgal'), Quantity(value=60.0, unit='lb'))
+    """
+    original = text
+    if isinstance(text, str):
+        words = _RATE_WORD_RE.match(text)
+        if words:
+            text = f"{words.group(1)} {_RATE_WORDS[words.group(2).lower()]}"
+        else:
+            per_hour = _PER_HOUR_RE.match(text)
+            if per_hour:
+                text = per_hour.group(1)
+    try:
+        return parse_quantity(text)
+    except UnitError as error:
+        reason = "; ".join(p.message for p in error.problems)
+        raise UnitError(f"cannot read {original!r} as a fuel rate ({reason}); e.g. '9.5' in the aircraft's fuel "
+                        "volume unit per hour, '36 l/h', '9.5 gph', '60 lb/h'") from None
+
+
+def read_rate(text: str | float, unit: str, field: str = "") -> float:
+    """Read a burn rate given as a volume per hour into ``unit`` per hour.
+
+    Raises
+    ------
+    UnitError
+        Naming ``field``: not a rate, or a mass per hour (which needs the burn order and
+        the tanks' densities: give it in a loading's ``burn.rate`` instead).
+
+    Examples
+    --------
+    >>> round(read_rate("36 l/h", "usgal"), 4)
+    9.5102
+    """
+
+    def read() -> float:
+        quantity = parse_rate(text)
+        if quantity.unit is not None and unit_kind(quantity.unit) == "mass":
+            raise UnitError("a mass per hour cannot be used here: give the rate as a fuel volume per hour "
+                            f"(e.g. '9.5 {unit}/h')")
+        return in_unit(quantity, unit)
+
+    return _naming(field, text, read)
+
+
 def read_amount(text: str | float, unit: str, field: str = "") -> float:
     """Read a typed amount into ``unit``: a bare number is already in it.
 
@@ -249,10 +324,23 @@ def read_amount(text: str | float, unit: str, field: str = "") -> float:
     >>> round(read_amount("20 kg", "lb"), 3)
     44.092
     """
+    return _naming(field, text, lambda: in_unit(parse_quantity(text), unit))
+
+
+def in_unit(quantity: Quantity, unit: str) -> float:
+    """A quantity in ``unit``; a bare number is already in it.
+
+    Raises
+    ------
+    UnitError
+        If the quantity's unit is of another kind than ``unit``.
+    """
+    return quantity.value if quantity.unit is None else convert(quantity.value, quantity.unit, unit)
+
+
+def _naming(field: str, text: str | float, read: Callable[[], float]) -> float:
+    """``read()``, its errors attributed to ``field`` with the text typed."""
     try:
-        quantity = parse_quantity(text)
-        if quantity.unit is None:
-            return quantity.value
-        return convert(quantity.value, quantity.unit, unit)
+        return read()
     except UnitError as error:
         raise UnitError([p.__class__(field or p.field, p.message, text) for p in error.problems]) from None

@@ -154,3 +154,42 @@ def test_fingerprint_changes_with_data(trainer):
     data["empty"]["weight"] += 1
     assert parse_aircraft(data).fingerprint != trainer.fingerprint
     assert parse_aircraft(sample_data("trainer4/aircraft.toml")).fingerprint == trainer.fingerprint
+
+
+@pytest.mark.parametrize("units, density", [
+    ({"mass": "lb", "arm": "in", "fuel_volume": "usgal"}, 6.0), ({"mass": "kg", "arm": "mm", "fuel_volume": "l"}, 0.72),
+    ({"mass": "lb", "arm": "in", "fuel_volume": "impgal"}, 7.2), ({"mass": "kg", "arm": "m", "fuel_volume": "usgal"}, 3.04),
+])
+def test_a_plausible_tank_density_is_accepted_in_any_units(units, density):
+    # avgas about 0.72 kg/L (ASTM D910 figure, from memory) written in each pair of units
+    aircraft = simple_aircraft(units=units, tank=[{"id": "main", "arm": 45.0, "usable": 40.0, "density": density}])
+    assert aircraft.density(aircraft.tanks["main"]) == density
+
+
+@pytest.mark.parametrize("density", [0.72, 720, 1.0, 9.0])
+def test_a_tank_density_no_fuel_has_is_refused(density):
+    # a lb / US gal file: 0.72 is a kg/L figure, 720 kg/m^3, 1.0 water, 9.0 no fuel
+    with pytest.raises(InputError, match=r"tank\[0\].density: .* is not the density of an aviation fuel"):
+        simple_aircraft(tank=[{"id": "main", "arm": 45.0, "usable": 40.0, "density": density}])
+
+
+@pytest.mark.parametrize("name", ["pilot", "Date", "RESERVE", "trip_time", "order", "label", "registration"])
+def test_a_station_or_tank_may_not_take_a_fleet_csv_column_name(name):
+    from loadcheck.aircraft import RESERVED_IDS
+    from loadcheck.fleet import RESERVED_COLUMNS
+
+    assert RESERVED_COLUMNS == RESERVED_IDS and name.lower() in RESERVED_IDS
+    with pytest.raises(InputError, match=rf"station\[0\].id: {name!r} is a reserved name"):
+        simple_aircraft(station=[{"id": name, "arm": 35.0}])
+    with pytest.raises(InputError, match=rf"tank\[0\].id: {name!r} is a reserved name"):
+        simple_aircraft(tank=[{"id": name, "arm": 45.0, "usable": 40.0, "fuel": "avgas"}])
+
+
+def test_every_category_must_limit_the_fore_and_aft_cg():
+    lateral = {"category": "utility", "axes": ["lateral_arm", "weight"], "points": [[-2, 900], [-2, 2000], [2, 2000], [2, 900]]}
+    box = {"category": "normal", "axes": ["arm", "weight"], "points": [[35.0, 900], [35.0, 2000], [48.0, 2000], [48.0, 900]]}
+    with pytest.raises(InputError, match=r"envelope\[1\].category: category 'utility' has only lateral envelopes"):
+        simple_aircraft(empty={"weight": 1000.0, "arm": 40.0, "lateral_arm": 0.0}, envelope=[box, lateral])
+    both = {**lateral, "axes": ["lateral_arm", "arm"], "points": [[-2, 35], [-2, 48], [2, 48], [2, 35]]}
+    aircraft = simple_aircraft(empty={"weight": 1000.0, "arm": 40.0, "lateral_arm": 0.0}, envelope=[box, both])
+    assert aircraft.categories == ["normal", "utility"]  # a lateral_arm-arm envelope limits both

@@ -224,16 +224,7 @@ def test_two_writers_lose_nothing(tmp_path):
 
 
 def test_an_interrupted_batch_leaves_every_record_whole(tmp_path):
-    big = tmp_path / "big.csv"
-    with open(DAY, newline="") as handle:
-        reader = csv.DictReader(handle)
-        rows = list(reader)
-        fields = reader.fieldnames
-    with open(big, "w", newline="") as out:
-        writer = csv.DictWriter(out, fieldnames=fields)
-        writer.writeheader()
-        for i in range(20_000):
-            writer.writerow(rows[i % len(rows)])
+    big = _write_day(tmp_path / "big.csv", 20_000)
     db = tmp_path / "records.sqlite3"
     process = _run_fleet(db, big)
     deadline = time.time() + 60
@@ -245,8 +236,8 @@ def test_an_interrupted_batch_leaves_every_record_whole(tmp_path):
                 count = sqlite3.connect(db, timeout=1).execute("SELECT count(*) FROM checks").fetchone()[0]
             except sqlite3.Error:
                 count = 0
-    process.send_signal(signal.SIGKILL)
-    process.wait(30)
+    workers = _children(process.pid) if Path("/proc/self/stat").exists() else []
+    assert _kill_and_wait_for_workers(process, workers) == []  # and no worker left behind by this test
     connection = sqlite3.connect(db)
     assert connection.execute("PRAGMA integrity_check").fetchone()[0] == "ok"
     with RecordLog(db) as log:
@@ -259,8 +250,130 @@ def test_an_interrupted_batch_leaves_every_record_whole(tmp_path):
 
 def test_library_check_flights_in_order(records):
     fleet = load_fleet(SAMPLES)
-    rows, _ = read_loadings(DAY, fleet)
+    rows = list(read_loadings(DAY, fleet)[0])
     flights = list(check_flights(fleet, rows))
     assert [f.row.line for f in flights] == [r.line for r in rows]
     assert load_aircraft(sample("twin6/aircraft.toml")).registration == "DEMO-6P"
     assert os.environ["LOADCHECK_RECORDS"] == str(records)
+
+
+# -- issue 13: streaming, workers that end with their parent, warnings carried -------------------
+
+
+def _write_day(path: Path, count: int) -> Path:
+    with open(DAY, newline="") as handle:
+        reader = csv.DictReader(handle)
+        rows = list(reader)
+        fields = reader.fieldnames
+    with open(path, "w", newline="") as out:
+        writer = csv.DictWriter(out, fieldnames=fields)
+        writer.writeheader()
+        for i in range(count):
+            writer.writerow(rows[i % len(rows)])
+    return path
+
+
+def _children(pid: int) -> list[int]:
+    """Live child processes of ``pid`` (from /proc)."""
+    found = []
+    for entry in Path("/proc").iterdir():
+        if entry.name.isdigit():
+            try:
+                state, parent = (entry / "stat").read_text().rsplit(")", 1)[1].split()[:2]
+            except (OSError, ValueError):
+                continue
+            if int(parent) == pid and state not in "ZX":
+                found.append(int(entry.name))
+    return found
+
+
+def _alive(pid: int) -> bool:
+    try:
+        return (Path("/proc") / str(pid) / "stat").read_text().rsplit(")", 1)[1].split()[0] not in "ZX"
+    except (OSError, IndexError):
+        return False
+
+
+def _kill_and_wait_for_workers(process: subprocess.Popen, workers: list[int], wait: float = 15.0) -> list[int]:
+    """SIGKILL ``process``; wait a bounded time for its workers to end; end (and return) any left."""
+    process.send_signal(signal.SIGKILL)
+    process.wait(30)
+    deadline = time.monotonic() + wait
+    while time.monotonic() < deadline and any(_alive(pid) for pid in workers):
+        time.sleep(0.1)
+    left = [pid for pid in workers if _alive(pid)]
+    for pid in left:  # never leave a process of this test behind, whatever the result
+        try:
+            os.kill(pid, signal.SIGKILL)
+        except ProcessLookupError:
+            pass
+    return left
+
+
+@pytest.mark.skipif(not Path("/proc/self/stat").exists(), reason="reads the process table from /proc")
+def test_the_workers_of_a_killed_fleet_check_end(tmp_path):
+    # SIGKILL of `fleet check` left its worker processes waiting for work for ever (about
+    # 100 MB each); they must end when their parent dies
+    day = _write_day(tmp_path / "day.csv", 6_000)
+    process = subprocess.Popen([sys.executable, "-m", "loadcheck", "fleet", "check", str(SAMPLES), str(day),
+                                "--no-record", "--json", "--workers", "2"],
+                               stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL)
+    workers: list[int] = []
+    try:
+        deadline = time.monotonic() + 60
+        while time.monotonic() < deadline and len(workers) < 2 and process.poll() is None:
+            time.sleep(0.05)
+            workers = _children(process.pid)
+    finally:
+        left = _kill_and_wait_for_workers(process, workers)
+    assert len(workers) == 2, "the batch never started its two workers"
+    assert left == [], f"workers {left} outlived their killed parent"
+
+
+def test_rows_stream_in_bounded_memory(tmp_path, monkeypatch):
+    # a 1,000,000-row day took 8.7 GB: every row, chunk and result was held at once. The
+    # reading and streaming path alone (the per-row check replaced by a trivial one) must
+    # hold a bounded buffer of rows, whatever the number of rows.
+    import tracemalloc
+
+    from loadcheck import fleet as fleet_module
+
+    monkeypatch.setattr(fleet_module, "_check_chunk", lambda rows: [(None, ["not checked"])] * len(rows))
+    fleet = load_fleet(SAMPLES)
+    peaks = {}
+    for count in (1_000, 8_000):
+        day = _write_day(tmp_path / f"day{count}.csv", count)
+        pulled = 0
+
+        def counted(rows):
+            nonlocal pulled
+            for row in rows:
+                pulled += 1
+                yield row
+
+        rows, _ = read_loadings(day, fleet)
+        tracemalloc.start()
+        flights = check_flights(fleet, counted(rows))
+        first = next(flights)
+        assert first.row.line == 2 and pulled <= fleet_module.CHUNK  # one chunk read ahead, not the file
+        seen = 1 + sum(1 for _ in flights)
+        peaks[count] = tracemalloc.get_traced_memory()[1]
+        tracemalloc.stop()
+        assert seen == pulled == count
+    assert peaks[8_000] < 1.5 * peaks[1_000], peaks  # eight times the rows, not eight times the memory
+
+
+def test_a_flight_within_limits_carries_its_warnings(records, tmp_path):
+    # the fleet table showed "within" for a row with warnings (a blank tank cell taken as
+    # empty, landing fuel below the reserve): the flight's data must carry them
+    day = tmp_path / "day.csv"
+    day.write_text("registration,reference,front,mains,aux,trip,reserve\n"
+                   "DEMO-6P,W1,,30,,20,15\n")
+    fleet = load_fleet(SAMPLES)
+    (flight,) = list(check_flights(fleet, read_loadings(day, fleet)[0]))
+    assert flight.result is not None and flight.ok, flight.problems
+    assert any("aux" in w and "taken as empty" in w for w in flight.warnings), flight.warnings
+    assert any("below the reserve" in w for w in flight.warnings), flight.warnings
+    assert flight.brief().warnings == flight.warnings
+    line = _json_lines(runner.invoke(app, ["fleet", "check", str(SAMPLES), str(day), "--json"]).stdout)[0]
+    assert {f["code"] for f in line["findings"] if f["severity"] == "warning"} >= {"reserve", "assumption"}

@@ -163,3 +163,120 @@ def test_random_csv_shapes(tmp_path_factory, header, rows):
     path.write_text(buffer.getvalue())
     result = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(path), "--no-record", "--json"])
     _assert_clean(result)
+
+
+# -- issue 13: repeated command-line options; CSV headers built from the aircraft's own ids ------
+
+OPTION_VALUES = [("--load", "front=170"), ("--load", "front=190"), ("-l", "front=100"), ("--load", "rear=80"),
+                 ("--load", "bag1=20 kg"), ("--fuel", "mains=10"), ("-f", "mains=full"), ("--taxi", "1"),
+                 ("--taxi", "2 lb"), ("--trip", "10"), ("--trip", "20 lb"), ("--reserve", "5"), ("--category", "normal"),
+                 ("-c", "utility"), ("--order", "together"), ("--trip-time", "1:00"), ("--rate", "9 gph"),
+                 ("--rate", "36 l/h")]
+ALIASES = {"-l": "--load", "-f": "--fuel", "-c": "--category"}
+
+
+@FUZZ
+@given(st.lists(st.sampled_from(OPTION_VALUES), min_size=1, max_size=8))
+def test_repeated_command_line_options(options):
+    args = ["check", str(SAMPLES / "trainer4" / "aircraft.toml"), "--json"]
+    for option, value in options:
+        args += [option, value]
+    result = runner.invoke(app, args)
+    _assert_clean(result)
+    singles = [ALIASES.get(o, o) for o, _ in options if ALIASES.get(o, o) not in ("--load", "--fuel")]
+    named = [(ALIASES.get(o, o), v.partition("=")[0]) for o, v in options if ALIASES.get(o, o) in ("--load", "--fuel")]
+    if len(singles) != len(set(singles)) or len(named) != len(set(named)):
+        assert result.exit_code == 2 and "twice" in result.output, result.output  # refused, never the last one kept
+        return
+    if result.exit_code in (0, 1):  # every value given is used as given
+        weights = {item["id"]: item["weight"] for item in json.loads(result.stdout)["items"]}
+        for option, value in options:
+            if ALIASES.get(option, option) == "--load":
+                station, _, amount = value.partition("=")
+                expected = float(amount.split()[0]) / (0.45359237 if amount.endswith("kg") else 1.0)
+                assert math.isclose(weights[station], expected, rel_tol=1e-12), (station, weights)
+
+
+_FLEET_IDS = {reg: data for reg, data in (
+    (d["registration"], d) for d in (sample_data(f"{n}/aircraft.toml") for n in ("trainer4", "tandem2", "twin6", "heli2")))}
+RESERVED_HEADERS = ["reference", "pilot", "date", "taxi", "trip", "reserve", "label"]
+
+
+@st.composite
+def days_of_one_aircraft(draw):
+    registration = draw(st.sampled_from(sorted(_FLEET_IDS)))
+    data = _FLEET_IDS[registration]
+    ids = [s["id"] for s in data["station"]] + [t["id"] for t in data.get("tank", [])]
+    columns = draw(st.lists(st.sampled_from(ids + RESERVED_HEADERS), min_size=1, max_size=len(ids) + 3, unique=True))
+    header = ["registration", *columns]
+    draw(st.permutations(header))
+    usable = {t["id"]: float(t["usable"]) for t in data.get("tank", [])}
+    rows = []
+    for _ in range(draw(st.integers(1, 4))):
+        row = [registration]
+        for column in columns:
+            if column in usable:
+                row.append(draw(st.sampled_from(["", "full", f"{usable[column] / 2:g}", "0"])))
+            elif column in ("taxi", "trip", "reserve"):
+                row.append(draw(st.sampled_from(["", "0", "1", "2 lb"])))
+            elif column in ("reference", "pilot", "date", "label"):
+                row.append(draw(st.sampled_from(["", "R1", "A. Pilot", "2026-12-01"])))
+            else:
+                row.append(draw(st.sampled_from(["", "0", "55", "80.5", "20 kg"])))
+        rows.append(row)
+    return registration, header, rows
+
+
+@FUZZ
+@given(days_of_one_aircraft())
+def test_csv_headers_built_from_the_aircrafts_own_ids(tmp_path_factory, day):
+    # every station and tank column of a row reaches the check as given: the row's result is
+    # the single check of the same values, and each station's weight is the cell's
+    import csv
+    import io
+
+    from loadcheck import check_loading
+    from loadcheck.fleet import check_flights, read_loadings
+    from loadcheck.loading import Loading
+    from loadcheck.records import results_match
+    from loadcheck.units import read_amount
+
+    registration, header, rows = day
+    buffer = io.StringIO()
+    writer = csv.writer(buffer)
+    writer.writerow(header)
+    writer.writerows(rows)
+    path = tmp_path_factory.mktemp("fuzz") / "day.csv"
+    path.write_text(buffer.getvalue())
+    fleet = _fleet()
+    aircraft = fleet.aircraft(registration)
+    flights = list(check_flights(fleet, read_loadings(path, fleet)[0]))
+    assert len(flights) == len(rows)
+    for flight, row in zip(flights, rows):
+        cells = {name: value for name, value in zip(header, row) if value}
+        load = {k: v for k, v in cells.items() if k in aircraft.stations}
+        fuel = {k: v for k, v in cells.items() if k in aircraft.tanks}
+        burn = {k: v for k, v in cells.items() if k in ("taxi", "trip", "reserve")}
+        extra = {"label": cells["label"]} if "label" in cells else {}
+        try:
+            single = check_loading(aircraft, Loading(load=load, fuel=fuel, burn=burn, **extra)).to_dict()
+        except ValueError:
+            assert flight.result is None, flight
+            continue
+        assert flight.result is not None, flight.problems
+        assert results_match(flight.result, single)
+        weights = {item["id"]: item["weight"] for item in flight.result["items"]}
+        for station, text in load.items():
+            value = read_amount(text, aircraft.units.mass)
+            assert math.isclose(weights.get(station, 0.0), value, rel_tol=1e-9, abs_tol=1e-12), (station, weights)
+
+
+_LOADED: list = []
+
+
+def _fleet():
+    from loadcheck.fleet import load_fleet
+
+    if not _LOADED:
+        _LOADED.append(load_fleet(SAMPLES))
+    return _LOADED[0]

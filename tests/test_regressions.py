@@ -45,3 +45,266 @@ def test_a_new_empty_weight_carries_no_cached_fingerprint():
     assert after.empty.weight == before.empty.weight + 25.0 and after.empty.date == before.empty.date
     assert before.with_empty(before.empty.weight, before.empty.arm).fingerprint == old
     assert extremes(after).to_dict() != extremes(before).to_dict()
+
+
+# -- issue 13: fail closed at every input ------------------------------------------------------
+# Each test checks the exit status, the file and field named, that no file was written or
+# changed, and that no traceback shows.
+
+import hashlib  # noqa: E402
+import os  # noqa: E402
+import shutil  # noqa: E402
+import subprocess  # noqa: E402
+import sys  # noqa: E402
+from pathlib import Path  # noqa: E402
+
+from .helpers import SAMPLES, sample_data  # noqa: E402
+
+BAD = Path(__file__).parent / "bad_inputs"
+
+
+def _digest(folder: Path) -> dict[str, str]:
+    return {str(p): hashlib.sha256(p.read_bytes()).hexdigest() for p in sorted(folder.rglob("*")) if p.is_file()}
+
+
+def _refused(args: list[str], *words: str, folder: Path | None = None) -> str:
+    before = _digest(folder) if folder is not None else None
+    samples = _digest(SAMPLES)
+    result = runner.invoke(app, args)
+    assert result.exit_code == 2, result.output
+    assert "Traceback" not in result.output and "internal error" not in result.output, result.output
+    for word in words:
+        assert word in result.output, (word, result.output)
+    if folder is not None:
+        assert _digest(folder) == before
+    assert _digest(SAMPLES) == samples
+    return result.output
+
+
+def test_station_and_tank_ids_that_are_csv_columns_lose_their_weights(tmp_path):
+    # a station `pilot` and `date` and a tank `reserve` were read by fleet check as the row's
+    # pilot, date and reserve: their weights vanished and an over-weight loading passed (exit 0)
+    fleet = tmp_path / "fleet"
+    fleet.mkdir()
+    shutil.copy(BAD / "aircraft_reserved_ids.toml", fleet / "colliding.toml")
+    day = tmp_path / "day.csv"
+    day.write_text("registration,pilot,date,bag1,reserve\nDEMO-4T,400,360,100,full\n")
+    db = tmp_path / "records.sqlite3"
+    _refused(["fleet", "check", str(fleet), str(day), "--record", str(db)], "DEMO-4T", "day.csv:2", folder=fleet)
+    from loadcheck.records import RecordLog
+
+    with RecordLog(db) as log:
+        assert list(log.find()) == []  # nothing recorded
+    listing = json.loads(_refused(["fleet", "list", str(fleet), "--json"], folder=fleet))
+    (entry,) = listing["aircraft"]
+    assert entry["file"].endswith("colliding.toml") and not entry["usable"]
+    problems = " ".join(entry["problems"])
+    assert "station[0].id: 'pilot' is a reserved name" in problems and "tank[0].id: 'reserve'" in problems
+    _refused(["check", str(fleet / "colliding.toml"), "--load", "pilot=170"], "colliding.toml", "station[1].id", folder=fleet)
+
+
+def test_a_repeated_load_kept_only_the_last_value(tmp_path):
+    # --load front=170 --load front=190 checked 190 lb: two people in one seat row lost one
+    trainer = str(SAMPLES / "trainer4" / "aircraft.toml")
+    db = tmp_path / "records.sqlite3"
+    out = _refused(["check", trainer, "--load", "front=170", "--load", "front=190", "--record", str(db)],
+                   "--load front", "'170'", "'190'", "given twice", folder=tmp_path)
+    assert "add the weights up" in out and not db.exists()
+    _refused(["check", trainer, "--load", "front=170", "--fuel", "mains=10", "-f", "mains=20"],
+             "--fuel mains", "given twice")
+    _refused(["check", trainer, "--load", "front=170", "--taxi", "1", "--taxi=2"], "--taxi", "'1'", "'2'", "twice")
+    _refused(["plan", "fuel", trainer, "--load", "front=170", "--category", "normal", "-c", "utility"],
+             "-c", "'normal'", "'utility'", "twice")
+    _refused(["fleet", "check", str(SAMPLES), str(SAMPLES / "fleet_day.csv"), "--record", str(tmp_path / "a.db"),
+              "--record", str(db)], "--record", "twice", folder=tmp_path)
+    assert not db.exists() and not (tmp_path / "a.db").exists()
+
+
+def test_a_category_with_only_lateral_envelopes_never_checked_the_fore_and_aft_cg(tmp_path):
+    # utility had only a lateral envelope: a CG 1 in ahead of the normal forward limit passed
+    from loadcheck.errors import InputError
+    from loadcheck.files import parse_aircraft
+
+    data = sample_data("heli2/aircraft.toml")
+    data["envelope"] = [e for e in data["envelope"] if "lateral_arm" in e["axes"]]
+    with pytest.raises(InputError, match=r"envelope\[0\].category: category .* has only lateral envelopes"):
+        parse_aircraft(data, "heli.toml")
+
+
+def _twin_two_densities(order: list[str] | str) -> tuple:
+    from loadcheck.files import parse_aircraft
+
+    data = sample_data("twin6/aircraft.toml")
+    aux = next(t for t in data["tank"] if t["id"] == "aux")
+    aux.pop("fuel")
+    aux["density"] = 6.7  # jet-fuel density in the aux tank, avgas 6.0 lb/US gal in the mains
+    return parse_aircraft(data, "twin.toml"), {"mains": "full", "aux": 40}, order
+
+
+@pytest.mark.parametrize("order", [["aux", "mains"], ["mains", "aux"], "together"])
+def test_a_trip_given_as_a_mass_burned_another_mass(order):
+    # --trip "300 lb" over tanks of different densities was turned into a volume at the
+    # average density on board: the aircraft burned 350 lb. A mass given is the mass burned.
+    from loadcheck.check import check_loading
+    from loadcheck.loading import Loading, resolve_loading
+
+    aircraft, fuel, order = _twin_two_densities(order)
+    loading = Loading(load={"row1": 380}, fuel=fuel, burn={"taxi": "20 lb", "trip": "300 lb", "order": order})
+    resolved = resolve_loading(loading, aircraft)
+    # hand arithmetic: mains 100 US gal at 6.0 (600 lb), aux 40 US gal at 6.7 (268 lb)
+    expected_taxi = {"aux": 20 / 6.7, "mains": 20 / 6.0}.get(order[0] if isinstance(order, list) else "", 20 * 140 / 868)
+    assert resolved.taxi == pytest.approx(expected_taxi, rel=1e-12)
+    if order == ["aux", "mains"]:
+        assert resolved.trip == pytest.approx((268 - 20) / 6.7 + (300 - 248) / 6.0, rel=1e-12)
+    conditions = {c["condition"]: c for c in check_loading(aircraft, resolved).to_dict()["conditions"]}
+    assert conditions["ramp"]["weight"] - conditions["takeoff"]["weight"] == pytest.approx(20.0, rel=1e-12)
+    assert conditions["takeoff"]["weight"] - conditions["landing"]["weight"] == pytest.approx(300.0, rel=1e-12)
+
+
+def test_a_rate_and_a_reserve_given_as_a_mass_are_the_mass_burned_and_left():
+    from loadcheck.check import check_loading
+    from loadcheck.loading import Loading, resolve_loading
+
+    aircraft, fuel, order = _twin_two_densities(["aux", "mains"])
+    for reserve, warned in (("568 lb", False), ("570 lb", True)):  # 868 lb on board less 300 lb burned = 568 lb left
+        loading = Loading(load={"row1": 380}, fuel=fuel,
+                          burn={"trip_time": "2:00", "rate": "150 lb/h", "order": order, "reserve": reserve})
+        result = check_loading(aircraft, resolve_loading(loading, aircraft)).to_dict()
+        conditions = {c["condition"]: c for c in result["conditions"]}
+        assert conditions["takeoff"]["weight"] - conditions["landing"]["weight"] == pytest.approx(300.0, rel=1e-12)
+        assert any(f["code"] == "reserve" for f in result["findings"]) is warned, reserve
+
+
+@pytest.mark.parametrize("rate, per_hour", [("36 l/h", 36 / 3.785411784), ("9.5 gph", 9.5), ("9.5 usgal/hr", 9.5),
+                                            ("34.2 l per hour", 34.2 / 3.785411784), ("9", 9.0)])
+def test_rates_with_units_were_refused_with_an_example_that_is_a_mass(rate, per_hour):
+    # 1 US gal = 3.785411784 L exactly (NIST SP 811, 2008, appendix B.8); "gph" is US gallons
+    # per hour (common practice in US usage)
+    trainer = str(SAMPLES / "trainer4" / "aircraft.toml")
+    result = runner.invoke(app, ["check", trainer, "--load", "front=170", "--fuel", "mains=full", "--trip-time", "1:00",
+                                 "--rate", rate, "--json"])
+    assert result.exit_code in (0, 1), result.output
+    landing = json.loads(result.stdout)["conditions"][2]
+    assert landing["fuel"] == pytest.approx(48 - per_hour, rel=1e-12)
+    plan = runner.invoke(app, ["plan", "trip", str(SAMPLES / "trainer4" / "within.toml"), "--rate", rate, "--json"])
+    assert plan.exit_code in (0, 1), plan.output
+
+
+def test_a_rate_with_an_unknown_unit_names_the_rate_and_gives_rate_examples():
+    trainer = str(SAMPLES / "trainer4" / "aircraft.toml")
+    out = _refused(["check", trainer, "--load", "front=170", "--trip-time", "1:00", "--rate", "9.5 gal/h"],
+                   "burn.rate", "'9.5 gal/h'", "unknown unit 'gal'", "'36 l/h'")
+    assert "'20 kg'" not in out
+
+
+def _run(args: list[str], timeout: float = 60) -> subprocess.CompletedProcess:
+    env = {**os.environ, "PYTHONPATH": str(Path(__file__).resolve().parent.parent)}
+    return subprocess.run([sys.executable, "-m", "loadcheck", *args], capture_output=True, text=True, timeout=timeout,
+                          env=env, check=False)
+
+
+@pytest.mark.skipif(not hasattr(os, "mkfifo") or not Path("/dev/zero").exists(), reason="needs POSIX special files")
+def test_special_files_were_read_for_ever(tmp_path):
+    # `check /dev/zero`, a loading naming /dev/zero and a FIFO read until MemoryError or for ever
+    fifo = tmp_path / "pipe.toml"
+    os.mkfifo(fifo)
+    names = tmp_path / "names_zero.toml"
+    names.write_text('format = 1\naircraft = "/dev/zero"\n[load]\nfront = 170\n')
+    trainer = str(SAMPLES / "trainer4" / "aircraft.toml")
+    before = _digest(tmp_path)
+    for args, words in (
+        (["check", "/dev/zero"], ["/dev/zero", "character device", "ordinary file"]),
+        (["check", str(fifo)], ["pipe.toml", "FIFO"]),
+        (["check", trainer, str(fifo)], ["pipe.toml", "FIFO"]),
+        (["check", str(names)], ["names_zero.toml", "aircraft", "/dev/zero", "character device"]),
+        (["fleet", "check", str(SAMPLES), str(fifo), "--no-record"], ["pipe.toml", "FIFO"]),
+        (["fleet", "check", str(SAMPLES), "/dev/zero", "--no-record"], ["/dev/zero", "character device"]),
+        (["validate", str(fifo), trainer], ["pipe.toml", "FIFO", "ok: "]),
+    ):
+        result = _run(args)
+        output = result.stdout + result.stderr
+        assert result.returncode == 2, output
+        assert "Traceback" not in output and "internal error" not in output, output
+        for word in words:
+            assert word in output, (word, output)
+    assert _digest(tmp_path) == before
+
+
+def test_deeply_nested_toml_was_an_internal_error_and_stopped_validate(tmp_path):
+    # 50,000 nested arrays: "internal error (RecursionError)" with no file name, and
+    # `validate` did not go on to the next file
+    deep = tmp_path / "deep.toml"
+    deep.write_text("x = " + "[" * 50_000 + "]" * 50_000 + "\n")
+    good = str(SAMPLES / "trainer4" / "aircraft.toml")
+    out = _refused(["validate", str(deep), good], "deep.toml", "nested too deeply", "ok: ", folder=tmp_path)
+    assert good in out
+    _refused(["check", str(deep)], "deep.toml", "nested", folder=tmp_path)
+    tables = tmp_path / "tables.toml"
+    tables.write_text("x = " + "{a = " * 3000 + "1" + "}" * 3000 + "\n")
+    _refused(["check", good, str(tables)], "tables.toml", "nested", folder=tmp_path)
+
+
+def test_a_loading_for_another_registration_gave_no_findings(tmp_path):
+    # a loading for DEMO-6P checked against DEMO-4T's data: "No findings", exit 0
+    loading = tmp_path / "for_the_twin.toml"
+    loading.write_text('format = 1\nregistration = "DEMO-6P"\n[load]\nfront = 170\n')
+    _refused(["check", str(SAMPLES / "trainer4" / "aircraft.toml"), str(loading)],
+             "for_the_twin.toml", "registration", "'DEMO-6P'", "'DEMO-4T'", folder=tmp_path)
+    same = tmp_path / "same.toml"
+    same.write_text('format = 1\nregistration = "demo 4t"\n[load]\nfront = 170\n')  # the same, written loosely
+    assert runner.invoke(app, ["check", str(SAMPLES / "trainer4" / "aircraft.toml"), str(same)]).exit_code == 0
+
+
+def test_validate_reported_a_loadings_misspelt_keys_but_not_its_unknown_station_or_tank_over_capacity(tmp_path):
+    folder = tmp_path / "trainer4"
+    shutil.copytree(SAMPLES / "trainer4", folder)
+    bad = folder / "bad.toml"
+    bad.write_text('format = 1\naircraft = "aircraft.toml"\nlabl = "x"\n[load]\nfrnt = 170\n[fuel]\nmains = 60\n'
+                   '[burn]\ntaxy = 1\n')
+    _refused(["validate", str(bad), str(folder / "within.toml")], "bad.toml", "labl", "burn.taxy",
+             "load.frnt: unknown station 'frnt'", "fuel.mains", "above the tank's usable capacity",
+             "ok: ", folder=tmp_path)
+    (folder / "broken.toml").write_text((folder / "aircraft.toml").read_text().replace("weight = 1652.0", "weight = -1"))
+    bad.write_text('format = 1\naircraft = "broken.toml"\nlabl = "x"\n[load]\nfront = 170\n')
+    _refused(["validate", str(bad)], "bad.toml", "labl", "aircraft: names", "broken.toml", "empty.weight", folder=tmp_path)
+
+
+def test_swapped_arguments_gave_ten_unrelated_errors(tmp_path):
+    folder = SAMPLES / "trainer4"
+    out = _refused(["check", str(folder / "within.toml"), str(folder / "aircraft.toml")], "within.toml",
+                   "the aircraft file comes first", "swapped")
+    assert out.count("error:") == 1
+    _refused(["fleet", "check", str(SAMPLES / "fleet_day.csv"), str(SAMPLES), "--no-record"], "fleet_day.csv",
+             "the fleet folder comes first")
+
+
+def test_fuel_level_starting_with_an_underscore_had_no_field_path():
+    out = _refused(["check", str(SAMPLES / "trainer4" / "aircraft.toml"), "--fuel", "mains=_tabs"], "fuel.mains",
+                   "unknown fill level '_tabs'", "full, tabs")
+    assert "command line" in out
+
+
+def test_a_header_only_csv_said_zero_flights_and_exit_0(tmp_path):
+    day = tmp_path / "day.csv"
+    day.write_text("registration,reference,front,mains\n")
+    db = tmp_path / "records.sqlite3"
+    _refused(["fleet", "check", str(SAMPLES), str(day), "--record", str(db)], "day.csv", "nothing to check")
+    empty = tmp_path / "day"
+    empty.mkdir()
+    _refused(["fleet", "check", str(SAMPLES), str(empty), "--no-record"], "holds no loading file", "nothing to check")
+
+
+def test_a_semicolon_csv_said_it_had_no_registration_column(tmp_path):
+    day = tmp_path / "day.csv"
+    day.write_text("registration;front;mains\nDEMO-4T;170,5;30\n")
+    _refused(["fleet", "check", str(SAMPLES), str(day), "--no-record"], "day.csv", "separated by semicolons",
+             "comma-separated", folder=tmp_path)
+
+
+def test_a_utf16_file_was_called_binary(tmp_path):
+    path = tmp_path / "aircraft.toml"
+    path.write_text((SAMPLES / "trainer4" / "aircraft.toml").read_text(), encoding="utf-16")
+    out = _refused(["check", str(path), "--load", "front=170"], "aircraft.toml", "UTF-16", "UTF-8", folder=tmp_path)
+    assert "binary" not in out
+    path.write_bytes((SAMPLES / "trainer4" / "aircraft.toml").read_text().encode("utf-16-le"))  # no byte-order mark
+    _refused(["validate", str(path)], "aircraft.toml", "UTF-16", folder=tmp_path)

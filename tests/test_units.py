@@ -22,6 +22,8 @@ from loadcheck.units import (
     convert,
     parse_duration_hours,
     parse_quantity,
+    parse_rate,
+    read_rate,
 )
 
 ureg = pint.UnitRegistry()
@@ -92,3 +94,26 @@ def test_durations(text, hours):
 def test_bad_durations(text):
     with pytest.raises(UnitError):
         parse_duration_hours(text)
+
+
+@pytest.mark.parametrize("text, value, unit", [
+    ("36 l/h", 36.0, "l"), ("9.5 gph", 9.5, "usgal"), ("60 lb/h", 60.0, "lb"), ("60 LB/HR", 60.0, "lb"),
+    ("27 kg/h", 27.0, "kg"), ("8 impgal per hour", 8.0, "impgal"), ("120 pph", 120.0, "lb"), ("30 lph", 30.0, "l"),
+    ("9.5", 9.5, None), (9.5, 9.5, None), ("10 usgal", 10.0, "usgal"),
+])
+def test_rates_are_read_with_their_units(text, value, unit):
+    # "gph" is US gallons per hour and "pph" pounds per hour (common practice in US usage)
+    assert parse_rate(text) == Quantity(value, unit)
+
+
+@pytest.mark.parametrize("text", ["9.5 gal/h", "fast", "9.5 l/min", "1e999 l/h", "/h"])
+def test_a_rate_that_cannot_be_read_is_refused_with_rate_examples(text):
+    with pytest.raises(UnitError, match=r"as a fuel rate.*'36 l/h'"):
+        parse_rate(text)
+
+
+def test_read_rate_converts_a_volume_and_refuses_a_mass():
+    # 1 US gal = 3.785411784 L exactly (NIST SP 811, 2008, appendix B.8)
+    assert read_rate("36 l/h", "usgal") == pytest.approx(36 / 3.785411784, rel=1e-15)
+    with pytest.raises(UnitError, match="--rate: a mass per hour cannot be used here"):
+        read_rate("60 lb/h", "usgal", "--rate")

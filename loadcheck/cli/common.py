@@ -16,6 +16,7 @@ from typing import Annotated, Any, TypeVar
 import typer
 from pydantic import ValidationError
 from rich.console import Console
+from typer.core import TyperGroup, TyperOption
 
 from .. import __version__
 from ..errors import InputError, LoadcheckError, Problem
@@ -27,7 +28,59 @@ __all__ = [
 
 EXIT_OK, EXIT_LIMIT, EXIT_INPUT = 0, 1, 2
 
+
+def _repeated_option(command: Any, args: list[str]) -> str | None:
+    """Why ``args`` cannot be used: an option that takes one value given more than once.
+
+    click keeps the last of the values (``--taxi 1 --taxi 2`` gives 2); a value the user gave
+    must be used or refused, never dropped.
+    """
+    options: dict[str, TyperOption] = {}
+    for param in command.params:
+        if isinstance(param, TyperOption):
+            for name in (*param.opts, *param.secondary_opts):
+                options[name] = param
+    seen: dict[str, tuple[str, str]] = {}
+    tokens = iter(args)
+    for token in tokens:
+        if token == "--":
+            break
+        if not token.startswith("-") or token == "-":
+            continue
+        name, inline, value = token.partition("=") if token.startswith("--") else (token[:2], "", token[2:])
+        option = options.get(name)
+        if option is None or option.is_flag or option.count:
+            continue
+        if not inline and not value:
+            value = next(tokens, "")
+        if option.multiple or option.nargs != 1:
+            continue
+        key = option.name or name
+        if key in seen:
+            first_name, first_value = seen[key]
+            return (f"{name} is given twice ({first_name} {first_value!r}, then {name} {value!r}): "
+                    "it takes one value; give it once")
+        seen[key] = (name, value)
+    return None
+
+
+class _Group(TyperGroup):
+    """The command group: refuses an option that takes one value given twice (any command)."""
+
+    def resolve_command(self, ctx: Any, args: list[str]) -> Any:
+        name, command, rest = super().resolve_command(ctx, args)
+        target, remaining = command, list(rest)
+        while isinstance(target, TyperGroup) and remaining and not remaining[0].startswith("-"):
+            target, remaining = target.get_command(ctx, remaining[0]), remaining[1:]
+        if target is not None:
+            problem = _repeated_option(target, remaining)
+            if problem:
+                _fail_input([problem])
+        return name, command, rest
+
+
 app = typer.Typer(
+    cls=_Group,
     name="loadcheck",
     help=(
         "Aircraft weight and balance: check a loading against every limit at ramp, takeoff, "
@@ -91,6 +144,11 @@ def _assignments(values: list[str], option: str) -> dict[str, str]:
         name, sep, amount = value.partition("=")
         if not sep or not name.strip() or not amount.strip():
             problems.append(Problem(option, "expected NAME=VALUE", value=value, expected="e.g. front=340 or bag1='20 kg'"))
+            continue
+        if name.strip() in result:
+            what = "station takes one weight: add the weights up" if option == "--load" else "tank takes one quantity"
+            problems.append(Problem(f"{option} {name.strip()}", f"given twice ({result[name.strip()]!r} and {amount.strip()!r}); "
+                                    f"a {what} and give it once", value=value))
             continue
         result[name.strip()] = amount.strip()
     if problems:

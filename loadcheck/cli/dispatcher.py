@@ -70,11 +70,12 @@ def fleet_check(
     record: Annotated[Path | None, typer.Option(help="Record database (default: $LOADCHECK_RECORDS or the user data folder).")] = None,
     no_record: Annotated[bool, typer.Option("--no-record", help="Do not record the checks.")] = False,
     json_out: Annotated[bool, typer.Option("--json", help="Print JSON Lines: one object per flight.")] = False,
+    workers: Annotated[int | None, typer.Option(min=1, help="Processes checking flights (default: one per core).")] = None,
 ) -> None:
     """Check a day of loadings against the fleet; record every check.
 
     Exit status: 0 every flight within limits, 1 a flight is out of limits, 2 a row could not
-    be used (the other rows are still checked and reported).
+    be used (the other rows are still checked and reported) or there was nothing to check.
 
     Example:
 
@@ -93,34 +94,39 @@ def fleet_check(
     for problem in file_problems:
         err.print(f"error: {problem}", markup=False, soft_wrap=True)
     log = None if no_record else RecordLog(record or default_path())
-    flights = []
-    show_progress = len(rows) > 200 and err.is_terminal and not json_out
+    flights = []  # for the table only: one brief line per flight; JSON Lines are streamed
+    counts = {"checked": 0, "out": 0, "bad": 0}
+    show_progress = err.is_terminal and not json_out
     with (Progress(console=err, transient=True) if show_progress else nullcontext()) as progress:
-        task = progress.add_task("checking", total=len(rows)) if progress is not None else None  # type: ignore[union-attr]
+        task = progress.add_task("checking", total=None) if progress is not None else None  # type: ignore[union-attr]
         try:
-            for flight in check_flights(fleet, rows, log, __version__, workers=os.cpu_count() or 1):
-                flights.append(flight)
+            for flight in check_flights(fleet, rows, log, __version__, workers=workers or os.cpu_count() or 1):
+                counts["checked"] += 1
+                if flight.result is None:
+                    counts["bad"] += 1
+                    for problem in flight.problems:
+                        err.print(f"error: {problem}", markup=False, soft_wrap=True)
+                elif not flight.ok:
+                    counts["out"] += 1
                 if json_out:
                     sys.stdout.write(json.dumps(flight.to_dict(), separators=(",", ":")) + "\n")
+                else:
+                    flights.append(flight.brief())
                 if progress is not None and task is not None:
                     progress.advance(task)
             sys.stdout.flush()
         finally:
             if log is not None:
                 log.close()
-    bad = [f for f in flights if f.result is None]
-    for flight in bad:
-        for problem in flight.problems:
-            err.print(f"error: {problem}", markup=False, soft_wrap=True)
     if not json_out:
         from ..render.terminal import render_fleet
 
         render_fleet(flights, _console())
     if log is not None:
-        err.print(f"{len(flights) - len(bad)} check(s) recorded in {log.path}", markup=False)
-    if bad or file_problems:
+        err.print(f"{counts['checked'] - counts['bad']} check(s) recorded in {log.path}", markup=False)
+    if counts["bad"] or file_problems:
         raise typer.Exit(EXIT_INPUT)
-    raise typer.Exit(EXIT_OK if all(f.ok for f in flights) else EXIT_LIMIT)
+    raise typer.Exit(EXIT_LIMIT if counts["out"] else EXIT_OK)
 
 
 def _date(text: str | None, option: str) -> Any:

@@ -266,11 +266,11 @@ def plan_trip(
       loadcheck plan trip sample_aircraft/trainer4/within.toml --rate 9.5 --reserve 8
     """
     from ..planning import longest_trip
-    from ..units import read_amount
+    from ..units import read_amount, read_rate
 
     inputs = _inputs(aircraft, loading, load, fuel, taxi, None, None, None, order, None, category)
     volume = inputs.aircraft.units.fuel_volume
-    result = longest_trip(inputs.aircraft, inputs.loading, rate=read_amount(_need(rate, "--rate"), volume, "--rate"),
+    result = longest_trip(inputs.aircraft, inputs.loading, rate=read_rate(_need(rate, "--rate"), volume, "--rate"),
                           reserve=read_amount(reserve, volume, "--reserve"), fill=_fill(fill))
     _answer(result, json_out)
 
