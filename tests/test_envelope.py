@@ -74,7 +74,7 @@ def _straight_path(start: tuple[float, float], end: tuple[float, float], points=
     """An aircraft whose burn path runs from (arm, weight) ``start`` down to ``end``.
 
     The path is straight in moment-weight space: the payload is the end state and one tank
-    (density 1 lb/US gal, burned completely) holds the difference. Returns the path's
+    (avgas at 6 lb/US gal, burned completely) holds the difference. Returns the path's
     stretches outside the envelope as fractions of the burn, and the state at a fraction.
     """
     (a0, w0), (a1, w1) = start, end
@@ -83,10 +83,10 @@ def _straight_path(start: tuple[float, float], end: tuple[float, float], points=
         empty={"weight": w1, "arm": a1},
         limits={"max_takeoff_weight": 1e6},
         station=[{"id": "front", "arm": 35.0, "kind": "seat"}],
-        tank=[{"id": "main", "arm": (a0 * w0 - a1 * w1) / (w0 - w1), "usable": w0 - w1, "density": 1.0}],
+        tank=[{"id": "main", "arm": (a0 * w0 - a1 * w1) / (w0 - w1), "usable": (w0 - w1) / 6.0, "density": 6.0}],
         envelope=[{"category": "normal", "axes": ["arm", "weight"], "points": points}],
     )
-    fuel = w0 - w1
+    fuel = (w0 - w1) / 6.0
     found = evaluate(aircraft, [[0.0]], [[fuel]], [0.0], [fuel], explain=True)
 
     def state(u: float) -> tuple[float, float, float]:

@@ -59,7 +59,7 @@ def test_extremes_command_exit_status_follows_the_checks():
 def _two_holds(**changes):
     """Two baggage holds behind the aft limit, 50 and 20 lb each, but 60 lb together."""
     data = {
-        "station": [{"id": "pilot", "arm": 36.0, "kind": "seat", "controls": True},
+        "station": [{"id": "seat", "arm": 36.0, "kind": "seat", "controls": True},
                     {"id": "hold_a", "arm": 95.0, "kind": "baggage", "max_weight": 50.0},
                     {"id": "hold_b", "arm": 110.0, "kind": "baggage", "max_weight": 20.0}],
         "station_group": [{"label": "All baggage", "stations": ["hold_a", "hold_b"], "max_weight": 60.0}],
