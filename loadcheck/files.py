@@ -464,10 +464,17 @@ def validate_file(path: str | Path) -> str:
     kind = file_kind(data)
     if kind == "aircraft":
         aircraft = parse_aircraft(data, path)
-        return (
-            f"aircraft {aircraft.name!r}, {len(aircraft.station)} stations, {len(aircraft.tank)} tanks, "
+        from .weighing import current_record_warnings
+        from .words import count
+
+        summary = (
+            f"aircraft {aircraft.name!r}, {count(len(aircraft.station), 'station')}, {count(len(aircraft.tank), 'tank')}, "
             f"categories {', '.join(aircraft.categories)}"
         )
+        cg_range = aircraft.empty.cg_range
+        if cg_range is not None:
+            summary += f"; empty-weight CG range {cg_range[0]:g} to {cg_range[1]:g} {aircraft.units.arm}"
+        return "; ".join([summary, *(f"WARNING: {w}" for w in current_record_warnings(aircraft))])
     if kind == "loading":
         return _validate_loading(path, data)
     if kind in ("readings", "changes"):

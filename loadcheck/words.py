@@ -22,6 +22,7 @@ __all__ = [
     "burn_path_message",
     "burn_path_summary",
     "condition_words",
+    "count",
     "envelope_gap_message",
     "envelope_moment_message",
     "envelope_point_message",
@@ -49,6 +50,17 @@ LIMIT_NAMES = {
 """Each weight limit (by finding code) in words."""
 
 _EXTRA_DIGITS = 3  # at most this many digits beyond the unit's precision to make an excess visible
+
+
+def count(number: int, thing: str) -> str:
+    """"1 tank", "2 tanks" (a plain English plural).
+
+    Examples
+    --------
+    >>> count(1, "tank"), count(3, "station")
+    ('1 tank', '3 stations')
+    """
+    return f"{number} {thing}" if number == 1 else f"{number} {thing}s"
 
 
 def condition_words(name: str | None) -> str:

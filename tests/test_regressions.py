@@ -308,3 +308,23 @@ def test_a_utf16_file_was_called_binary(tmp_path):
     assert "binary" not in out
     path.write_bytes((SAMPLES / "trainer4" / "aircraft.toml").read_text().encode("utf-16-le"))  # no byte-order mark
     _refused(["validate", str(path)], "aircraft.toml", "UTF-16", folder=tmp_path)
+
+
+def test_validate_shows_the_empty_weight_cg_range_and_flags_a_record_outside_it(tmp_path):
+    # issue 14 item 1: show and validate must show the range and flag a current record outside it
+    import tomlkit
+
+    from .helpers import sample_data
+
+    data = sample_data("tandem2/aircraft.toml")
+    lo, hi = data["empty"]["cg_range"]
+    out = runner.invoke(app, ["validate", str(sample("tandem2/aircraft.toml"))])
+    text = " ".join(out.output.split())
+    assert out.exit_code == 0 and f"empty-weight CG range {lo:g} to {hi:g}" in text and "WARNING" not in text
+    data["empty"]["arm"] = hi + 50.0
+    path = tmp_path / "outside.toml"
+    path.write_text(tomlkit.dumps(data))
+    out = runner.invoke(app, ["validate", str(path)])
+    text = " ".join(out.output.split())
+    assert "WARNING" in text and "CG range" in text
+    assert "1 tank," in text and "1 tanks" not in text
