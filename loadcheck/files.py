@@ -336,7 +336,9 @@ def load_check_inputs(
     """Read an aircraft and a loading (file and/or overrides) and resolve one against the other.
 
     ``aircraft_path`` may also be a loading file that names its aircraft
-    (``aircraft = "trainer.toml"``), when no separate loading file is given.
+    (``aircraft = "trainer.toml"``), when no separate loading file is given. The override
+    ``fuel_to_plan=True`` resolves a loading whose fuel a planning answer will choose
+    (:func:`~loadcheck.loading.resolve_loading`).
 
     Raises
     ------
@@ -344,6 +346,7 @@ def load_check_inputs(
         Naming the file (or "command line") and every problem found.
     """
     notes: list[str] = []
+    fuel_to_plan = bool(overrides.pop("fuel_to_plan", False))
     data = read_toml(aircraft_path)
     if loading_path is not None and file_kind(data) == "loading":
         second = file_kind(read_toml(loading_path))
@@ -361,7 +364,7 @@ def load_check_inputs(
         if named is not None and named.resolve() != Path(aircraft_path).resolve():
             notes.append(f"the loading names {named}, but {aircraft_path} was given and is used")
     try:
-        resolved = resolve_loading(loading, aircraft, category=overrides.get("category"))
+        resolved = resolve_loading(loading, aircraft, category=overrides.get("category"), fuel_to_plan=fuel_to_plan)
     except LoadcheckError as error:
         raise error.with_file(loading_path if loading_path is not None else "command line") from None
     label = loading.label or (Path(loading_path).stem if loading_path is not None else None)

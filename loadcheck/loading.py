@@ -284,7 +284,8 @@ class ResolvedLoading:
     notes: list[str] = field(default_factory=list)
 
 
-def resolve_loading(loading: Loading, aircraft: Aircraft, *, category: str | None = None) -> ResolvedLoading:
+def resolve_loading(loading: Loading, aircraft: Aircraft, *, category: str | None = None,
+                    fuel_to_plan: bool = False) -> ResolvedLoading:
     """Check a loading against an aircraft and convert it to the aircraft's units.
 
     Parameters
@@ -292,6 +293,8 @@ def resolve_loading(loading: Loading, aircraft: Aircraft, *, category: str | Non
     loading : the loading, as read from a file or built in code
     aircraft : the aircraft it is for
     category : overrides the loading's category; default: the aircraft's first
+    fuel_to_plan : the fuel is what a planning answer will choose ("how much fuel can I
+        take?"): the fuel given need not cover taxi and trip, and none given is no warning
 
     Returns
     -------
@@ -366,7 +369,7 @@ def resolve_loading(loading: Loading, aircraft: Aircraft, *, category: str | Non
     missing = [t.id for t in aircraft.tank if t.id not in loading.fuel]
     if missing and loading.fuel:
         notes.append(f"no fuel given for {', '.join(missing)}; taken as empty")
-    elif aircraft.tank and not loading.fuel:
+    elif aircraft.tank and not loading.fuel and not fuel_to_plan:
         notes.append("no fuel given; every tank taken as empty")
 
     order: tuple[str, ...] | None = None
@@ -415,12 +418,15 @@ def resolve_loading(loading: Loading, aircraft: Aircraft, *, category: str | Non
         notes.append("no trip fuel given; landing is checked at the takeoff fuel")
     reserve = None if burn.reserve is None else volume_of(burn.reserve, taxi + trip)
     resolved = ResolvedLoading(chosen, stations, fuel, density, taxi, trip, reserve, plan, notes)
-    require_usable(resolved, aircraft)
+    require_usable(resolved, aircraft, burn_covered=not fuel_to_plan)
     return resolved
 
 
-def require_usable(loading: ResolvedLoading, aircraft: Aircraft) -> None:
+def require_usable(loading: ResolvedLoading, aircraft: Aircraft, *, burn_covered: bool = True) -> None:
     """Fail closed on a resolved loading that no flight can have.
+
+    ``burn_covered=False`` leaves out the test that the fuel covers taxi and trip (a
+    loading whose fuel a planning answer is about to choose).
 
     Raises
     ------
@@ -440,7 +446,7 @@ def require_usable(loading: ResolvedLoading, aircraft: Aircraft) -> None:
             problems.append(Problem(f"load.{station}", "must not be negative", value=weight))
     if not (loading.taxi >= 0 and loading.trip >= 0):
         problems.append(Problem("burn", "taxi and trip fuel must not be negative"))
-    elif loading.taxi + loading.trip > loading.plan.burnable * (1 + 1e-9):
+    elif burn_covered and loading.taxi + loading.trip > loading.plan.burnable * (1 + 1e-9):
         problems.append(Problem(
             "burn",
             f"taxi and trip fuel ({loading.taxi + loading.trip:g} {units.fuel_volume}) exceed the fuel the burn order can use",

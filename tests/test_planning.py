@@ -281,3 +281,21 @@ def test_a_stretch_is_never_shown_with_its_low_end_above_its_high_end(low, width
     if len(numbers) == 2:  # rounded inward: both ends shown are within the stretch (display rounding noise aside)
         noise = 1e-9 * max(1.0, low + width) * 10 ** (len(text.split()[0].split(".")[-1]))
         assert low - noise <= numbers[0] < numbers[1] <= low + width + noise
+
+
+def test_plan_fuel_without_any_fuel_given_answers_with_the_taxi_and_trip():
+    # regression (issue 20): a loading with no fuel entry but taxi and trip was refused
+    # (exit 2); "how much fuel can I take" is asked before any fuel is chosen
+    args = ["plan", "fuel", str(sample("trainer4/aircraft.toml")), "--load", "front=340", "--load", "rear=150",
+            "--taxi", "1.2", "--trip", "18", "--json"]
+    out = runner.invoke(app, args)
+    assert out.exit_code == 0, out.output
+    answer = json.loads(out.stdout)
+    assert answer["feasible"] and answer["check"]["ok"]
+    # the taxi and trip are the ones given, and the lowest fuel allowed covers them
+    ramp, takeoff, landing = (next(c for c in answer["check"]["conditions"] if c["condition"] == n)
+                              for n in ("ramp", "takeoff", "landing"))
+    assert ramp["fuel"] - takeoff["fuel"] == pytest.approx(1.2) and takeoff["fuel"] - landing["fuel"] == pytest.approx(18.0)
+    assert answer["intervals"][0]["low"] >= 19.2 - 1e-6
+    # the single check of the same loading still refuses it: the fuel does not cover the burn
+    assert runner.invoke(app, ["check", *args[2:-1]]).exit_code == 2

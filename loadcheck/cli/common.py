@@ -187,8 +187,12 @@ JsonOpt = Annotated[bool, typer.Option("--json", help="Print one JSON object ins
 def _inputs(
     aircraft: Path, loading: Path | None, load: list[str], fuel: list[str], taxi: str | None, trip: str | None,
     trip_time: str | None, rate: str | None, order: str | None, reserve: str | None, category: str | None,
+    *, fuel_to_plan: bool = False,
 ) -> Any:
-    """Read the files and lay the options over them (loadcheck.files.load_check_inputs)."""
+    """Read the files and lay the options over them (loadcheck.files.load_check_inputs).
+
+    ``fuel_to_plan``: the answer chooses the fuel, so the fuel given need not cover taxi and trip.
+    """
     from ..files import load_check_inputs
 
     burn: dict[str, Any] = {}
@@ -199,7 +203,7 @@ def _inputs(
         burn["order"] = "together" if order.strip() == "together" else [t.strip() for t in order.split(",") if t.strip()]
     inputs = load_check_inputs(
         aircraft, loading, load=_assignments(load, "--load"), fuel=_assignments(fuel, "--fuel"),
-        burn=burn, category=category,
+        burn=burn, category=category, fuel_to_plan=fuel_to_plan,
     )
     for note in inputs.notes:
         _console(stderr=True).print(f"note: {note}", markup=False)

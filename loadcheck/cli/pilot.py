@@ -246,7 +246,7 @@ def plan_fuel(
     """
     from ..planning import most_fuel
 
-    inputs = _inputs(aircraft, loading, load, fuel, taxi, trip, trip_time, rate, order, reserve, category)
+    inputs = _inputs(aircraft, loading, load, fuel, taxi, trip, trip_time, rate, order, reserve, category, fuel_to_plan=True)
     _answer(most_fuel(inputs.aircraft, inputs.loading, fill=_fill(fill)), json_out)
 
 
@@ -268,7 +268,7 @@ def plan_trip(
     from ..planning import longest_trip
     from ..units import read_amount, read_rate
 
-    inputs = _inputs(aircraft, loading, load, fuel, taxi, None, None, None, order, None, category)
+    inputs = _inputs(aircraft, loading, load, fuel, taxi, None, None, None, order, None, category, fuel_to_plan=True)
     volume = inputs.aircraft.units.fuel_volume
     result = longest_trip(inputs.aircraft, inputs.loading, rate=read_rate(_need(rate, "--rate"), volume, "--rate"),
                           reserve=read_amount(reserve, volume, "--reserve"), fill=_fill(fill))
@@ -387,7 +387,7 @@ def plan_table(
     """
     from ..planning import fuel_payload_table
 
-    inputs = _inputs(aircraft, loading, load, fuel, taxi, trip, trip_time, rate, order, reserve, category)
+    inputs = _inputs(aircraft, loading, load, fuel, taxi, trip, trip_time, rate, order, reserve, category, fuel_to_plan=True)
     name = _need(station, "--station")
     table = fuel_payload_table(inputs.aircraft, inputs.loading, name, steps=steps, fill=_fill(fill))
     if chart is not None:
