@@ -187,18 +187,25 @@ class BurnPlan:
         return sum(self.start[t] for t in tanks)
 
     def quantities(self, burned: float) -> dict[str, float]:
-        """Quantity in each tank after ``burned`` has been used [fuel volume unit]."""
-        left = dict(self.start)
-        if self.order is None:
-            total = self.burnable
-            share = 0.0 if total <= 0 else max(0.0, 1.0 - burned / total)
-            return {tank: quantity * share for tank, quantity in left.items()}
-        remaining = burned
-        for tank in self.order:
-            used = min(left[tank], remaining)
-            left[tank] -= used
-            remaining -= used
-        return left
+        """Quantity in each tank after ``burned`` has been used [fuel volume unit].
+
+        The rule is the engine's (:func:`loadcheck.engine.tank_quantities`), for one loading.
+
+        Examples
+        --------
+        >>> BurnPlan({"aux": 10.0, "mains": 20.0}, ("aux", "mains")).quantities(15.0)
+        {'aux': 0.0, 'mains': 15.0}
+        >>> BurnPlan({"left": 10.0, "right": 30.0}).quantities(20.0)
+        {'left': 5.0, 'right': 15.0}
+        """
+        import numpy as np
+
+        from .engine import tank_quantities
+
+        tanks = list(self.start)
+        order = None if self.order is None else [tanks.index(t) for t in self.order]
+        left = tank_quantities(np.array([[self.start[t] for t in tanks]], dtype=float), np.array([[burned]]), order)
+        return {tank: float(left[0, 0, i]) for i, tank in enumerate(tanks)}
 
     def volume_for_mass(self, mass: float, density: Mapping[str, float], after: float = 0.0) -> float:
         """The volume that burns exactly ``mass``, starting once ``after`` has been burned.
@@ -245,16 +252,6 @@ class BurnPlan:
             remaining -= available * density[tank]
             volume += available
         return volume + remaining / density[self.order[-1]]
-
-    def breakpoints(self) -> list[float]:
-        """Fuel burned at which a tank runs dry in a sequential burn [fuel volume unit]."""
-        if self.order is None:
-            return []
-        points, burned = [], 0.0
-        for tank in self.order:
-            burned += self.start[tank]
-            points.append(burned)
-        return points
 
 
 @dataclass(frozen=True)
