@@ -163,7 +163,8 @@ def test_text_plot_marks_every_condition():
 
 
 def test_show_lists_everything(tmp_path):
-    result = runner.invoke(app, ["show", str(sample("twin6/aircraft.toml")), "--chart", str(tmp_path / "e.png")])
+    result = runner.invoke(app, ["show", str(sample("twin6/aircraft.toml")), "--chart", str(tmp_path / "e.png")],
+                           env={"COLUMNS": "200"})  # every table side by side
     assert result.exit_code == 0, result.output
     for words in ["3,680.0 lb", "Main tanks", "600.0", "Middle seats", "(295.2, 3600)", "5,000.0 lb", "CAUTION"]:
         assert words in result.output

@@ -30,14 +30,14 @@ app.add_typer(fleet_app, name="fleet")
 records_app = typer.Typer(help="The record of checks: list, show, export, verify (reproduce).", no_args_is_help=True)
 app.add_typer(records_app, name="records")
 
-DbOpt = Annotated[Path | None, typer.Option("--db", help="Record database (default: $LOADCHECK_RECORDS or the user data folder).")]
+DbOpt = Annotated[Path | None, typer.Option("--db", metavar="FILE", help="Record database (default: $LOADCHECK_RECORDS or the user data folder).")]
 
 
 @fleet_app.command("list")
 @input_errors
 def fleet_list(
-    folder: Annotated[Path, typer.Argument(help="Folder of aircraft files (sub-folders searched too).")],
-    max_age: Annotated[int, typer.Option(min=1, help="Flag empty-weight records older than this many days.")] = 1095,
+    folder: Annotated[Path, typer.Argument(metavar="FOLDER", help="Folder of aircraft files (sub-folders searched too).")],
+    max_age: Annotated[int, typer.Option(min=1, metavar="DAYS", help="Flag empty-weight records older than this many days.")] = 1095,
     json_out: JsonOpt = False,
 ) -> None:
     """Each aircraft: registration, empty weight, record date, useful load, data fingerprint, problems.
@@ -46,6 +46,7 @@ def fleet_list(
 
     Example:
 
+    \b
       loadcheck fleet list sample_aircraft
     """
     from ..caution import PILOT_CAUTION
@@ -65,9 +66,10 @@ def fleet_list(
 @fleet_app.command("check")
 @input_errors
 def fleet_check(
-    folder: Annotated[Path, typer.Argument(help="Folder of aircraft files (the fleet).")],
-    loadings: Annotated[Path, typer.Argument(help="Loadings: a CSV file (one row per flight) or a folder of loading files.")],
-    record: Annotated[Path | None, typer.Option(help="Record database (default: $LOADCHECK_RECORDS or the user data folder).")] = None,
+    folder: Annotated[Path, typer.Argument(metavar="FOLDER", help="Folder of aircraft files (the fleet).")],
+    loadings: Annotated[Path, typer.Argument(metavar="LOADINGS", help="Loadings: a CSV file (one row per flight) or a folder of loading files.")],
+    record: Annotated[Path | None, typer.Option(metavar="FILE",
+        help="Record database (default: $LOADCHECK_RECORDS or the user data folder).")] = None,
     no_record: Annotated[bool, typer.Option("--no-record", help="Do not record the checks.")] = False,
     json_out: Annotated[bool, typer.Option("--json", help="Print JSON Lines: one object per flight.")] = False,
 ) -> None:
@@ -78,7 +80,9 @@ def fleet_check(
 
     Example:
 
-      loadcheck fleet check sample_aircraft sample_aircraft/fleet_day.csv --no-record
+    \b
+      loadcheck fleet check sample_aircraft \\
+        sample_aircraft/fleet_day.csv --no-record
     """
     from contextlib import nullcontext
 
@@ -134,9 +138,9 @@ def _date(text: str | None, option: str) -> Any:
         raise InputError(Problem(option, "expected a date", value=text, expected="YYYY-MM-DD")) from None
 
 
-SinceOpt = Annotated[str | None, typer.Option(help="From this date (YYYY-MM-DD, UTC).")]
-UntilOpt = Annotated[str | None, typer.Option(help="To this date, inclusive.")]
-RegOpt = Annotated[str | None, typer.Option("--registration", "-r", help="Only this aircraft.")]
+SinceOpt = Annotated[str | None, typer.Option(metavar="DATE", help="From this date (YYYY-MM-DD, UTC).")]
+UntilOpt = Annotated[str | None, typer.Option(metavar="DATE", help="To this date, inclusive.")]
+RegOpt = Annotated[str | None, typer.Option("--registration", "-r", metavar="REGISTRATION", help="Only this aircraft.")]
 
 
 def _log(db: Path | None) -> Any:
@@ -155,28 +159,20 @@ def records_list(db: DbOpt = None, since: SinceOpt = None, until: UntilOpt = Non
 
     Example:
 
-      loadcheck records list --registration DEMO-4T --since 2026-11-01
+    \b
+      loadcheck records list --registration DEMO-4T \\
+        --since 2026-11-01
     """
-    from rich.table import Table
+    from ..render.terminal import render_records
 
     with _log(db) as log:
-        table = Table(title=f"Records in {log.path}", title_justify="left")
-        for column in ("Id", "Checked (UTC)", "Registration", "Reference", "Pilot", "Result", "Data"):
-            table.add_column(column)
-        for r in log.find(since=_date(since, "--since"), until=_date(until, "--until"), registration=registration):
-            table.add_row(str(r.id), r.checked_at[:19], r.registration or "", r.reference or "", r.pilot or "",
-                          "within limits" if r.ok else "OUT OF LIMITS", r.fingerprint)
-    from ..caution import PILOT_CAUTION
-    from ..render.terminal import caution_text
-
-    console = _console()
-    console.print(table)
-    console.print(caution_text(PILOT_CAUTION))
+        found = list(log.find(since=_date(since, "--since"), until=_date(until, "--until"), registration=registration))
+        render_records(found, log.path, _console())
 
 
 @records_app.command("show")
 @input_errors
-def records_show(record_id: Annotated[int, typer.Argument(help="Record id.")], db: DbOpt = None) -> None:
+def records_show(record_id: Annotated[int, typer.Argument(metavar="ID", help="Record id.")], db: DbOpt = None) -> None:
     """Show one record: its inputs and its full result (JSON)."""
     with _log(db) as log:
         record = log.get(record_id)
@@ -187,14 +183,16 @@ def records_show(record_id: Annotated[int, typer.Argument(help="Record id.")], d
 @input_errors
 def records_export(
     db: DbOpt = None, since: SinceOpt = None, until: UntilOpt = None, registration: RegOpt = None,
-    format: Annotated[Literal["csv", "jsonl"], typer.Option(help="csv (one line per record) or jsonl (everything).")] = "jsonl",
-    out: Annotated[Path | None, typer.Option(help="Write to this file (default: standard output).")] = None,
+    format: Annotated[Literal["csv", "jsonl"], typer.Option(metavar="csv|jsonl", help="csv (one line per record) or jsonl (everything).")] = "jsonl",
+    out: Annotated[Path | None, typer.Option(metavar="FILE", help="Write to this file (default: standard output).")] = None,
 ) -> None:
     """Export records between dates or for one registration, as CSV or JSON Lines.
 
     Example:
 
-      loadcheck records export --format csv --since 2026-11-01 --out november.csv
+    \b
+      loadcheck records export --format csv \\
+        --since 2026-11-01 --out november.csv
     """
     from ..caution import PILOT_CAUTION
     from ..records import export_text
@@ -216,7 +214,7 @@ def records_export(
 
 @records_app.command("verify")
 @input_errors
-def records_verify(record_id: Annotated[int, typer.Argument(help="Record id.")], db: DbOpt = None) -> None:
+def records_verify(record_id: Annotated[int, typer.Argument(metavar="ID", help="Record id.")], db: DbOpt = None) -> None:
     """Recompute a recorded check from its stored inputs and aircraft data; say whether it matches.
 
     Exit status: 0 the same result, 1 a different one, 2 bad input.

@@ -23,9 +23,9 @@ from .common import (
 # -- the mechanic's commands -----------------------------------------------------------------
 
 WriteOpt = Annotated[bool, typer.Option("--write", help="Make the new record current and keep the old one in the history.")]
-SheetOpt = Annotated[Path | None, typer.Option(help="Write a printable record (.html) to sign.")]
-OccupantOpt = Annotated[str | None, typer.Option(help="Standard occupant weight (default: the aircraft file's, else 170 lb).")]
-MetoOpt = Annotated[float | None, typer.Option(help="Maximum-except-takeoff power [hp] for the minimum fuel (default: the file's).")]
+SheetOpt = Annotated[Path | None, typer.Option(metavar="FILE.html", help="Write a printable record (.html) to sign.")]
+OccupantOpt = Annotated[str | None, typer.Option(metavar="WEIGHT", help="Standard occupant weight (default: the aircraft file's, else 170 lb).")]
+MetoOpt = Annotated[float | None, typer.Option(metavar="HP", help="Maximum-except-takeoff power [hp] for the minimum fuel (default: the file's).")]
 
 
 def _new_empty_weight(
@@ -76,8 +76,8 @@ def _mechanic_sheet(sheet: Path | None, result: Any, aircraft: Any, source: Path
 @app.command()
 @input_errors
 def weigh(
-    aircraft: Annotated[Path, typer.Argument(help="Aircraft file (TOML).")],
-    readings: Annotated[Path, typer.Argument(help="Readings file (TOML): weighing points and corrections.")],
+    aircraft: Annotated[Path, typer.Argument(metavar="AIRCRAFT", help="Aircraft file (TOML).")],
+    readings: Annotated[Path, typer.Argument(metavar="READINGS", help="Readings file (TOML): weighing points and corrections.")],
     write: WriteOpt = False,
     sheet: SheetOpt = None,
     json_out: JsonOpt = False,
@@ -89,7 +89,10 @@ def weigh(
 
     Example:
 
-      loadcheck weigh sample_aircraft/trainer4/aircraft.toml sample_aircraft/trainer4/weighing.toml
+    \b
+      loadcheck weigh \\
+        sample_aircraft/trainer4/aircraft.toml \\
+        sample_aircraft/trainer4/weighing.toml
     """
     from ..files import load_readings
     from ..render.terminal import render_weighing
@@ -101,8 +104,8 @@ def weigh(
 @app.command()
 @input_errors
 def alter(
-    aircraft: Annotated[Path, typer.Argument(help="Aircraft file (TOML).")],
-    changes: Annotated[Path, typer.Argument(help="Changes file (TOML): items installed, removed, relocated.")],
+    aircraft: Annotated[Path, typer.Argument(metavar="AIRCRAFT", help="Aircraft file (TOML).")],
+    changes: Annotated[Path, typer.Argument(metavar="CHANGES", help="Changes file (TOML): items installed, removed, relocated.")],
     write: WriteOpt = False,
     sheet: SheetOpt = None,
     json_out: JsonOpt = False,
@@ -114,7 +117,10 @@ def alter(
 
     Example:
 
-      loadcheck alter sample_aircraft/trainer4/aircraft.toml sample_aircraft/trainer4/changes.toml
+    \b
+      loadcheck alter \\
+        sample_aircraft/trainer4/aircraft.toml \\
+        sample_aircraft/trainer4/changes.toml
     """
     from ..alterations import alter as compute
     from ..files import load_changes
@@ -126,14 +132,16 @@ def alter(
 @app.command()
 @input_errors
 def history(
-    aircraft: Annotated[Path, typer.Argument(help="Aircraft file (TOML).")],
+    aircraft: Annotated[Path, typer.Argument(metavar="AIRCRAFT", help="Aircraft file (TOML).")],
     json_out: JsonOpt = False,
 ) -> None:
     """List the aircraft's empty-weight records, oldest first, and the current one.
 
     Example:
 
-      loadcheck history sample_aircraft/trainer4/aircraft.toml
+    \b
+      loadcheck history \\
+        sample_aircraft/trainer4/aircraft.toml
     """
     from ..caution import MECHANIC_CAUTION
     from ..files import load_aircraft
@@ -156,7 +164,7 @@ def history(
 @app.command()
 @input_errors
 def extremes(
-    aircraft: Annotated[Path, typer.Argument(help="Aircraft file (TOML).")],
+    aircraft: Annotated[Path, typer.Argument(metavar="AIRCRAFT", help="Aircraft file (TOML).")],
     category: CategoryOpt = None,
     occupant: OccupantOpt = None,
     meto: MetoOpt = None,
@@ -168,7 +176,9 @@ def extremes(
 
     Example:
 
-      loadcheck extremes sample_aircraft/tandem2/aircraft.toml
+    \b
+      loadcheck extremes \\
+        sample_aircraft/tandem2/aircraft.toml
     """
     from ..extremes import extremes as compute
     from ..files import load_aircraft
@@ -189,7 +199,7 @@ def extremes(
 @app.command()
 @input_errors
 def schedule(
-    aircraft: Annotated[Path, typer.Argument(help="Aircraft file (TOML).")],
+    aircraft: Annotated[Path, typer.Argument(metavar="AIRCRAFT", help="Aircraft file (TOML).")],
     category: CategoryOpt = None,
     occupant: OccupantOpt = None,
     json_out: JsonOpt = False,
@@ -198,7 +208,9 @@ def schedule(
 
     Example:
 
-      loadcheck schedule sample_aircraft/twin6/aircraft.toml
+    \b
+      loadcheck schedule \\
+        sample_aircraft/twin6/aircraft.toml
     """
     from ..caution import MECHANIC_CAUTION
     from ..files import load_aircraft

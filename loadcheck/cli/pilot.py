@@ -49,20 +49,30 @@ def check(
     reserve: ReserveOpt = None,
     category: CategoryOpt = None,
     json_out: JsonOpt = False,
-    chart: Annotated[Path | None, typer.Option(help="Write the envelope chart: .png, .svg or .pdf.")] = None,
-    sheet: Annotated[Path | None, typer.Option(help="Write a printable load sheet (.html).")] = None,
+    chart: Annotated[Path | None, typer.Option(metavar="FILE", help="Write the envelope chart: .png, .svg or .pdf.")] = None,
+    sheet: Annotated[Path | None, typer.Option(metavar="FILE.html", help="Write a printable load sheet (.html).")] = None,
     plot: Annotated[bool, typer.Option("--plot", help="Draw a small text plot of the envelope under the tables.")] = False,
-    record: Annotated[str | None, typer.Option(help="Record the check in this SQLite file ('default': the user data folder).")] = None,
+    record: Annotated[str | None, typer.Option(metavar="FILE",
+        help="Record the check in this SQLite file ('default': the user data folder).")] = None,
 ) -> None:
     """Check a loading: moment table, ramp/takeoff/landing/zero-fuel conditions, the burn path.
 
     Examples:
 
-      loadcheck check sample_aircraft/trainer4/aircraft.toml sample_aircraft/trainer4/within.toml
+    \b
+      loadcheck check \\
+        sample_aircraft/trainer4/aircraft.toml \\
+        sample_aircraft/trainer4/within.toml
 
-      loadcheck check sample_aircraft/trainer4/aircraft.toml --load front=340 --load rear=150 --fuel mains=tabs --taxi 1.2 --trip 18
+    \b
+      loadcheck check \\
+        sample_aircraft/trainer4/aircraft.toml \\
+        --load front=340 --load rear=150 --fuel mains=tabs \\
+        --taxi 1.2 --trip 18
 
-      loadcheck check sample_aircraft/twin6/leaves_path.toml --json
+    \b
+      loadcheck check \\
+        sample_aircraft/twin6/leaves_path.toml --json
 
     Exit status: 0 within limits, 1 a limit is exceeded, 2 the input could not be used.
     """
@@ -79,12 +89,13 @@ def check(
     else:
         from ..render.terminal import render_check
 
+        console = _console()
         lines: list[str] = []
         if plot:
             from ..render.textplot import text_plot
 
-            lines = text_plot(inputs.aircraft, result)
-        render_check(result, _console(), lines)
+            lines = text_plot(inputs.aircraft, result, width=console.width)
+        render_check(result, console, lines, aircraft=inputs.aircraft)
     raise typer.Exit(EXIT_OK if result.ok else EXIT_LIMIT)
 
 
@@ -126,15 +137,17 @@ def _write_pictures(inputs: Any, result: Any, chart: Path | None, sheet: Path | 
 @app.command()
 @input_errors
 def show(
-    aircraft: Annotated[Path, typer.Argument(help="Aircraft file (TOML).")],
-    chart: Annotated[Path | None, typer.Option(help="Write a chart of the envelopes: .png, .svg or .pdf.")] = None,
-    category: Annotated[str | None, typer.Option("--category", "-c", help="Category to draw in full.")] = None,
+    aircraft: Annotated[Path, typer.Argument(metavar="AIRCRAFT", help="Aircraft file (TOML).")],
+    chart: Annotated[Path | None, typer.Option(metavar="FILE", help="Write a chart of the envelopes: .png, .svg or .pdf.")] = None,
+    category: Annotated[str | None, typer.Option("--category", "-c", metavar="CATEGORY", help="Category to draw in full.")] = None,
 ) -> None:
     """Show an aircraft's data: units, empty weight, limits, stations, tanks, envelopes.
 
     Example:
 
-      loadcheck show sample_aircraft/twin6/aircraft.toml --chart twin-envelope.png
+    \b
+      loadcheck show sample_aircraft/twin6/aircraft.toml \\
+        --chart twin-envelope.png
     """
     from ..caution import PILOT_CAUTION
     from ..files import load_aircraft
@@ -153,7 +166,7 @@ def show(
 @app.command()
 @input_errors
 def validate(
-    files: Annotated[list[Path], typer.Argument(help="Aircraft and loading files to check.")],
+    files: Annotated[list[Path], typer.Argument(metavar="FILES", help="Aircraft and loading files to check.", show_default=False)],
 ) -> None:
     """Check aircraft and loading files and report every problem at once.
 
@@ -162,6 +175,7 @@ def validate(
 
     Example:
 
+    \b
       loadcheck validate sample_aircraft/*/*.toml
     """
     from ..files import validate_file
@@ -187,12 +201,14 @@ def validate(
 @app.command()
 @input_errors
 def schema(
-    kind: Annotated[Literal["aircraft", "loading", "all"], typer.Argument(help="Which file's schema.")] = "all",
+    kind: Annotated[Literal["aircraft", "loading", "all"], typer.Argument(metavar="KIND",
+        help="Which file's schema: aircraft, loading or all.")] = "all",
 ) -> None:
     """Print the JSON Schema of the aircraft and loading files, for editors.
 
     Example:
 
+    \b
       loadcheck schema aircraft > aircraft.schema.json
     """
     from ..aircraft import Aircraft
@@ -212,8 +228,8 @@ plan_app = typer.Typer(
 )
 app.add_typer(plan_app, name="plan")
 
-StationOpt = Annotated[str | None, typer.Option("--station", "-s", help="Station id.")]
-FillOpt = Annotated[str | None, typer.Option(help="Tanks in the order they are filled: mains,aux (default: reverse burn order).")]
+StationOpt = Annotated[str | None, typer.Option("--station", "-s", metavar="STATION", help="Station id.")]
+FillOpt = Annotated[str | None, typer.Option(metavar="TANKS", help="Tanks in the order they are filled: mains,aux (default: reverse burn order).")]
 
 
 def _fill(fill: str | None) -> list[str] | None:
@@ -242,7 +258,9 @@ def plan_fuel(
 
     Example:
 
-      loadcheck plan fuel sample_aircraft/trainer4/within.toml
+    \b
+      loadcheck plan fuel \\
+        sample_aircraft/trainer4/within.toml
     """
     from ..planning import most_fuel
 
@@ -255,15 +273,18 @@ def plan_fuel(
 def plan_trip(
     aircraft: AircraftArg, loading: LoadingArg = None, load: LoadOpt = [], fuel: FuelOpt = [],  # noqa: B006
     taxi: TaxiOpt = None, order: OrderOpt = None, category: CategoryOpt = None, fill: FillOpt = None,
-    rate: Annotated[str | None, typer.Option(help="Fuel used per hour [fuel volume unit].")] = None,
-    reserve: Annotated[str, typer.Option(help="Fuel to land with [fuel volume unit].")] = "0",
+    rate: Annotated[str | None, typer.Option(metavar="AMOUNT", help="Fuel used per hour [fuel volume unit].")] = None,
+    reserve: Annotated[str, typer.Option(metavar="AMOUNT", help="Fuel to land with [fuel volume unit].")] = "0",
     json_out: JsonOpt = False,
 ) -> None:
     """The longest trip the most fuel allows at a burn rate, landing with a reserve.
 
     Example:
 
-      loadcheck plan trip sample_aircraft/trainer4/within.toml --rate 9.5 --reserve 8
+    \b
+      loadcheck plan trip \\
+        sample_aircraft/trainer4/within.toml --rate 9.5 \\
+        --reserve 8
     """
     from ..planning import longest_trip
     from ..units import read_amount
@@ -287,7 +308,10 @@ def plan_payload(
 
     Example:
 
-      loadcheck plan payload sample_aircraft/trainer4/within.toml --station bag1
+    \b
+      loadcheck plan payload \\
+        sample_aircraft/trainer4/within.toml \\
+        --station bag1
     """
     from ..planning import most_payload
 
@@ -301,14 +325,17 @@ def plan_leave(
     aircraft: AircraftArg, loading: LoadingArg = None, load: LoadOpt = [], fuel: FuelOpt = [],  # noqa: B006
     taxi: TaxiOpt = None, trip: TripOpt = None, trip_time: TripTimeOpt = None, rate: RateOpt = None,
     order: OrderOpt = None, reserve: ReserveOpt = None, category: CategoryOpt = None, station: StationOpt = None,
-    payload: Annotated[str | None, typer.Option(help="Weight to carry at the station (mass, or with a unit).")] = None,
+    payload: Annotated[str | None, typer.Option(metavar="WEIGHT", help="Weight to carry at the station (mass, or with a unit).")] = None,
     fill: FillOpt = None, json_out: JsonOpt = False,
 ) -> None:
     """The fuel to leave behind to carry a payload at a station.
 
     Example:
 
-      loadcheck plan leave sample_aircraft/twin6/within.toml --station row3 --payload 340
+    \b
+      loadcheck plan leave \\
+        sample_aircraft/twin6/within.toml --station row3 \\
+        --payload 340
     """
     from ..planning import fuel_to_leave
     from ..units import read_amount
@@ -330,7 +357,9 @@ def plan_ballast(
 
     Example:
 
-      loadcheck plan ballast sample_aircraft/tandem2/aft_heavy.toml
+    \b
+      loadcheck plan ballast \\
+        sample_aircraft/tandem2/aft_heavy.toml
     """
     from ..planning import least_ballast
 
@@ -344,17 +373,21 @@ def plan_shift(
     aircraft: AircraftArg, loading: LoadingArg = None, load: LoadOpt = [], fuel: FuelOpt = [],  # noqa: B006
     taxi: TaxiOpt = None, trip: TripOpt = None, trip_time: TripTimeOpt = None, rate: RateOpt = None,
     order: OrderOpt = None, reserve: ReserveOpt = None, category: CategoryOpt = None,
-    source: Annotated[str | None, typer.Option("--from", help="Station the weight comes from.")] = None,
-    to: Annotated[str | None, typer.Option("--to", help="Station it goes to.")] = None,
-    target: Annotated[str | None, typer.Option(help="CG to reach (arm, or with a unit); default: back within limits.")] = None,
-    condition: Annotated[str, typer.Option(help="Condition whose CG --target sets: ramp, takeoff, landing, zero_fuel.")] = "takeoff",
+    source: Annotated[str | None, typer.Option("--from", metavar="STATION", help="Station the weight comes from.")] = None,
+    to: Annotated[str | None, typer.Option("--to", metavar="STATION", help="Station it goes to.")] = None,
+    target: Annotated[str | None, typer.Option(metavar="ARM", help="CG to reach (arm, or with a unit); default: back within limits.")] = None,
+    condition: Annotated[str, typer.Option(metavar="CONDITION",
+        help="Condition whose CG --target sets: ramp, takeoff, landing, zero_fuel.")] = "takeoff",
     json_out: JsonOpt = False,
 ) -> None:
     """Weight to move from one station to another: to a target CG, or back within limits.
 
     Example:
 
-      loadcheck plan shift sample_aircraft/tandem2/aft_heavy.toml --from baggage --to front
+    \b
+      loadcheck plan shift \\
+        sample_aircraft/tandem2/aft_heavy.toml \\
+        --from baggage --to front
     """
     from ..planning import weight_shift
     from ..units import read_amount
@@ -374,16 +407,19 @@ def plan_table(
     aircraft: AircraftArg, loading: LoadingArg = None, load: LoadOpt = [], fuel: FuelOpt = [],  # noqa: B006
     taxi: TaxiOpt = None, trip: TripOpt = None, trip_time: TripTimeOpt = None, rate: RateOpt = None,
     order: OrderOpt = None, reserve: ReserveOpt = None, category: CategoryOpt = None, station: StationOpt = None,
-    steps: Annotated[int, typer.Option(min=2, max=201, help="Rows of payload.")] = 11,
+    steps: Annotated[int, typer.Option(min=2, max=201, metavar="ROWS", help="Rows of payload.")] = 11,
     fill: FillOpt = None,
-    chart: Annotated[Path | None, typer.Option(help="Also draw it: .png, .svg or .pdf.")] = None,
+    chart: Annotated[Path | None, typer.Option(metavar="FILE", help="Also draw it: .png, .svg or .pdf.")] = None,
     json_out: JsonOpt = False,
 ) -> None:
     """Allowed ramp fuel against payload added at a station, as a table (and a chart).
 
     Example:
 
-      loadcheck plan table sample_aircraft/trainer4/within.toml --station rear --chart fuel-payload.png
+    \b
+      loadcheck plan table \\
+        sample_aircraft/trainer4/within.toml \\
+        --station rear --chart fuel-payload.png
     """
     from ..planning import fuel_payload_table
 
