@@ -36,7 +36,7 @@ app = typer.Typer(
         "govern, and the pilot in command decides."
     ),
     no_args_is_help=True,
-    add_completion=False,
+    add_completion=True,  # --install-completion and --show-completion (docs/cli.md, "Shell completion")
     pretty_exceptions_enable=False,
     rich_markup_mode=None,
     context_settings={"help_option_names": ["-h", "--help"]},

@@ -1,0 +1,44 @@
+"""Shell completion (issue 15, item 6): the options exist and the shell is answered."""
+
+from __future__ import annotations
+
+import os
+import subprocess
+import sys
+
+import pytest
+from typer.testing import CliRunner
+
+from loadcheck.cli import app
+
+from .helpers import SAMPLES
+
+runner = CliRunner()
+
+
+def test_completion_options_are_offered():
+    text = runner.invoke(app, ["--help"]).output
+    assert "--install-completion" in text and "--show-completion" in text
+
+
+@pytest.mark.parametrize("shell", ["bash", "zsh", "fish"])
+def test_show_completion_prints_a_script_for_the_shell(shell):
+    result = runner.invoke(app, ["--show-completion", shell])
+    assert result.exit_code == 0
+    assert "_LOADCHECK_COMPLETE" in result.output  # the script calls loadcheck back with this variable
+
+
+@pytest.mark.parametrize("words, cword, expected", [
+    ("loadcheck ch", 1, "check"),
+    ("loadcheck plan f", 2, "fuel"),
+    ("loadcheck check --ca", 2, "--category"),
+    ("loadcheck fleet c", 2, "check"),
+])
+def test_the_shell_gets_the_completions(words, cword, expected):
+    # what bash does on TAB: call the program with the words typed so far
+    env = {**os.environ, "_LOADCHECK_COMPLETE": "complete_bash", "COMP_WORDS": words, "COMP_CWORD": str(cword),
+           "PYTHONPATH": str(SAMPLES.parent)}
+    done = subprocess.run([sys.executable, "-m", "loadcheck"], capture_output=True, text=True, env=env, check=False,
+                          cwd=SAMPLES.parent)
+    assert done.returncode == 0, done.stderr
+    assert expected in done.stdout.split()
