@@ -253,7 +253,7 @@ def _svg_layout(svg_text: str):
         m = _compose(m, _matrix(element.get("transform")))
         gid = element.get("id", "")
         if element.tag == f"{SVG}g":
-            if gid.startswith(("text_", "label-")):
+            if gid.startswith(("text_", "label-", "limitname-")):
                 text_id = gid
             if gid.startswith(("point-", "leaves-at")):
                 point_id = gid
@@ -375,3 +375,36 @@ def test_envelope_and_fuel_payload_charts_have_no_overlapping_or_clipped_text(na
         for i, a in enumerate(names):
             for b in names[i + 1:]:
                 assert _shared(texts[a], texts[b]) < 0.5, f"{a} and {b} overlap"
+
+
+def test_load_sheet_has_the_total_the_occupants_and_the_fuel_plan(tmp_path):
+    # regression (issue 15, item 3): no total row; taxi, trip, burn order and reserve left out
+    path = tmp_path / "sheet.html"
+    result = runner.invoke(app, ["check", str(sample("twin6/within.toml")), "--sheet", str(path)])
+    assert result.exit_code == 0
+    html = path.read_text()
+    inputs, check = _inputs("twin6/within.toml")
+    units, loading = check.units, inputs.loading
+
+    def section(tag_id: str) -> str:
+        start = html.index(">", html.index(f"id='{tag_id}'")) + 1
+        return " ".join(re.sub(r"<[^>]+>", " ", html[start:html.index("</table>", start)]).split())
+
+    ramp = check.condition("ramp")
+    total = section("total")
+    assert total.startswith("Total at ramp")
+    for value, unit in ((ramp.weight, units.mass), (ramp.arm, units.arm), (ramp.moment, units.moment)):
+        assert fmt(value, unit, with_unit=False) in total
+    plan = section("fuel-plan")
+    assert f"Taxi and run-up {fmt(loading.taxi, units.fuel_volume)}" in plan
+    assert f"Trip {fmt(loading.trip, units.fuel_volume)}" in plan
+    assert f"Reserve {fmt(loading.reserve, units.fuel_volume)}" in plan
+    assert "Burn order Auxiliary tanks, then Main tanks" in plan
+    on_board = section("fuel-on-board")
+    for c in check.conditions:
+        assert fmt(c.fuel, units.fuel_volume, with_unit=False) in on_board
+    seats = section("occupants")
+    for item in check.items:
+        if item.kind == "seat":
+            assert f"{item.name} {fmt(item.weight, units.mass, with_unit=False)}" in seats
+    assert "lb·in" in html and "lb*in" not in html

@@ -122,15 +122,16 @@ def _write_pictures(inputs: Any, result: Any, chart: Path | None, sheet: Path | 
 
     if sheet is not None and sheet.suffix.lower() not in (".html", ".htm"):
         raise InputError(Problem("--sheet", "a load sheet is an HTML file", value=str(sheet), expected="a name ending in .html"))
-    figure = check_figure(inputs.aircraft, result, inputs.label)
     err = _console(stderr=True)
     if chart is not None:
-        save_figure(figure, chart)
+        save_figure(check_figure(inputs.aircraft, result, inputs.label), chart)
         err.print(f"chart written: {chart}", markup=False)
     if sheet is not None:
         from ..render.sheet import load_sheet_html
 
-        write_atomic(sheet, load_sheet_html(result, figure_svg(figure), loading_label=inputs.label))
+        page_chart = figure_svg(check_figure(inputs.aircraft, result, inputs.label, compact=True))
+        write_atomic(sheet, load_sheet_html(result, page_chart, loading_label=inputs.label, loading=inputs.loading,
+                                            pilot=inputs.given.pilot if inputs.given is not None else None))
         err.print(f"load sheet written: {sheet}", markup=False)
 
 

@@ -120,10 +120,44 @@ def _weight_limits(aircraft: Aircraft, axes_pair: tuple[str, str]) -> list[tuple
 def _draw_weight_limits(ax: Axes, aircraft: Aircraft, axes_pair: tuple[str, str], tag: str) -> list[tuple[float, str, str]]:
     limits = _weight_limits(aircraft, axes_pair)
     vertical = axes_pair[0] == "weight"
-    for value, _, code in limits:
+    for value, words, code in limits:
         line = ax.axvline if vertical else ax.axhline
         line(value, color="#444444", linestyle=":", linewidth=0.9, zorder=1, gid=f"limit-{code}{tag}")
+        _limit_name(ax, words, value, f"limitname-{code}{tag}", vertical)
     return limits
+
+
+def _limit_name(ax: Axes, words: str, value: float, code: str, vertical: bool, shift: float = 0.0) -> Any:
+    """The name of a weight limit beside the frame at its line's end, outside the plot (so it covers
+    nothing); moved ``shift`` points along the frame, with a leader to the line, where names crowd."""
+    leader = {"arrowstyle": "-", "color": "#888888", "linewidth": 0.6, "shrinkA": 0, "shrinkB": 0} if shift else None
+    if vertical:
+        return ax.annotate(words, (value, 1.0), xycoords=("data", "axes fraction"), xytext=(shift, 4 + (6 if shift else 0)),
+                           textcoords="offset points", rotation=90, fontsize=7, color="#444444", ha="center", va="bottom",
+                           annotation_clip=False, arrowprops=leader, gid=code)
+    return ax.annotate(words, (1.0, value), xycoords=("axes fraction", "data"), xytext=(4 + (6 if shift else 0), shift),
+                       textcoords="offset points", fontsize=7, color="#444444", ha="left", va="center",
+                       annotation_clip=False, arrowprops=leader, gid=code)
+
+
+def _spread_limit_names(ax: Axes, vertical: bool, renderer: Any) -> None:
+    """Move apart, along the frame, the names of weight limits that lie close together."""
+    names = sorted((t for t in ax.texts if (t.get_gid() or "").startswith("limitname-")),
+                   key=lambda t: t.xy[0] if vertical else t.xy[1])  # type: ignore[attr-defined]
+    scale = ax.figure.dpi / 72.0  # type: ignore[union-attr]
+    previous_end: float | None = None
+    for text in names:
+        box = text.get_window_extent(renderer)
+        start, end = (box.x0, box.x1) if vertical else (box.y0, box.y1)
+        shift = 0.0 if previous_end is None else max(0.0, previous_end + 1.5 - start)
+        if shift:
+            value = text.xy[0] if vertical else text.xy[1]  # type: ignore[attr-defined]
+            words, gid = text.get_text(), text.get_gid() or ""
+            text.remove()
+            text = _limit_name(ax, words, value, gid, vertical, shift / scale)
+            box = text.get_window_extent(renderer)
+            end = box.x1 if vertical else box.y1
+        previous_end = end
 
 
 def _coords(envelope: Envelope, weight: float, arm: float, lateral_arm: float | None) -> tuple[float, float]:
@@ -201,33 +235,7 @@ def _place(figure: Figure, ax: Axes, labels: Sequence[_Label], limits: Sequence[
     def cost(box: Any) -> float:
         return sum(_overlap(box, other) for other in placed + markers) + (0.0 if _inside(box, frame) else 1e9)
 
-    for value, words, code in limits:  # along its line, at one end or the other, above or below
-        best: tuple[float, Any] | None = None
-        for fraction, ha in ((0.01, "left"), (0.99, "right"), (0.5, "center"), (0.25, "center"), (0.75, "center")):
-            for side in (1, -1):
-                if vertical:
-                    text = ax.annotate(words, (value, fraction), xycoords=("data", "axes fraction"), xytext=(-2 * side, 0),
-                                       textcoords="offset points", rotation=90, fontsize=7, color="#444444",
-                                       ha="right" if side > 0 else "left", va={"left": "bottom", "right": "top"}.get(ha, "center"),
-                                       gid=f"label-{code}{tag}")
-                else:
-                    text = ax.annotate(words, (fraction, value), xycoords=("axes fraction", "data"), xytext=(0, 2 * side),
-                                       textcoords="offset points", fontsize=7, color="#444444", ha=ha,
-                                       va="bottom" if side > 0 else "top", gid=f"label-{code}{tag}")
-                box = text.get_window_extent(renderer)
-                score = cost(box)
-                if best is None or score < best[0]:
-                    if best is not None:
-                        best[1].remove()
-                    best = (score, text)
-                else:
-                    text.remove()
-                if score == 0:
-                    break
-            if best is not None and best[0] == 0:
-                break
-        if best is not None:
-            placed.append(best[1].get_window_extent(renderer))
+    _spread_limit_names(ax, vertical, renderer)
 
     segments: list[tuple[tuple[float, float], tuple[float, float]]] = []  # leader lines drawn so far
 
@@ -290,14 +298,15 @@ def _crosses(segment: tuple[tuple[float, float], tuple[float, float]], box: Any,
     return False
 
 
-def _figure(aircraft: Aircraft, category: str, title: str, result: CheckResult | None) -> Figure:
+def _figure(aircraft: Aircraft, category: str, title: str, result: CheckResult | None, compact: bool = False) -> Figure:
     from matplotlib.backends.backend_agg import FigureCanvasAgg
     from matplotlib.figure import Figure
 
     panels = _panels(aircraft, category)
     if not panels:
         raise InputError(Problem("category", f"no envelope for category {category!r}"))
-    figure = Figure(figsize=(6.4 * len(panels), 5.6), layout="constrained")
+    width, height = (4.6, 3.6) if compact else (6.4, 5.6)  # [in]
+    figure = Figure(figsize=(width * len(panels), height), layout="constrained")
     FigureCanvasAgg(figure)  # measures text, to place the labels
     placing = []
     for index, panel in enumerate(panels):
@@ -316,7 +325,7 @@ def _figure(aircraft: Aircraft, category: str, title: str, result: CheckResult |
         ax.margins(0.08)
         placing.append((ax, labels, limits, envelope.axes[0] == "weight", "" if index == 0 else f"-{index}"))
     _legend(figure)
-    figure.suptitle("\n".join(textwrap.wrap(title, int(64 * len(panels)))), fontsize=11)
+    figure.suptitle("\n".join(textwrap.wrap(title, int((44 if compact else 64) * len(panels)))), fontsize=11)
     figure.draw_without_rendering()  # lay out once, then keep that layout while labels are placed
     figure.set_layout_engine("none")
     for ax, labels, limits, vertical, tag in placing:
@@ -340,10 +349,14 @@ def _title(aircraft: Aircraft, extra: str | None) -> str:
     return f"{text}: {extra}" if extra else text
 
 
-def check_figure(aircraft: Aircraft, result: CheckResult, loading_label: str | None = None) -> Figure:
-    """A chart of a check: envelopes, the four conditions, the burn path, weight limits."""
+def check_figure(aircraft: Aircraft, result: CheckResult, loading_label: str | None = None, *, compact: bool = False) -> Figure:
+    """A chart of a check: envelopes, the four conditions, the burn path, weight limits.
+
+    ``compact`` draws it smaller (4.6 in by 3.6 in a panel, the same type sizes) for a page
+    that holds other things too, such as the load sheet.
+    """
     caption = f"{result.category} category" + (f", {loading_label}" if loading_label else "")
-    return _figure(aircraft, result.category, _title(aircraft, caption), result)
+    return _figure(aircraft, result.category, _title(aircraft, caption), result, compact)
 
 
 def envelope_figure(aircraft: Aircraft, category: str | None = None) -> Figure:

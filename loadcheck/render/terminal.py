@@ -31,7 +31,11 @@ if TYPE_CHECKING:
     from ..planning import PlanResult, TableRow
 
 __all__ = [
+    "EDGE_NOTE",
+    "MARGIN_NOTE",
     "Column",
+    "condition_verdict",
+    "weight_margin",
     "caution_text",
     "fitted_tables",
     "render_aircraft",
@@ -271,20 +275,32 @@ def _margin(value: float | None, unit: str) -> str:
     return "" if value is None else fmt(value, unit, "down", with_unit=False)
 
 
-def _result_cell(c: Condition, result: CheckResult) -> Text:
+def condition_verdict(c: Condition, result: CheckResult) -> tuple[str, str]:
+    """A condition's result in words and its severity (``ok``, ``warning`` or ``limit``): within,
+    within with a warning, outside only against a warning (the zero-fuel CG), or outside."""
     mine = [f for f in result.findings if f.condition == c.condition]
     if c.ok:
-        if any(f.severity == "warning" for f in mine):
-            return Text("within (warning)", style=_WARN_STYLE)
-        return Text("within", style=_OK_STYLE)
+        return ("within (warning)", "warning") if any(f.severity == "warning" for f in mine) else ("within", "ok")
     if all(f.severity == "warning" for f in mine):
-        return Text("OUTSIDE (warning)", style=_WARN_STYLE)
-    return Text("OUTSIDE", style=_LIMIT_STYLE)
+        return "OUTSIDE (warning)", "warning"
+    return "OUTSIDE", "limit"
 
 
-def _weight_margin(c: Condition, result: CheckResult) -> tuple[str, bool]:
-    """The weight margin, and whether it is below zero with no maximum weight exceeded
-    (the envelope's edge at this CG sets it: a CG matter, not an overweight one)."""
+def _result_cell(c: Condition, result: CheckResult) -> Text:
+    words, severity = condition_verdict(c, result)
+    return Text(words, style={"ok": _OK_STYLE, "warning": _WARN_STYLE, "limit": _LIMIT_STYLE}[severity])
+
+
+MARGIN_NOTE = ("Margins: room left to each limit at that condition (below zero: exceeded), rounded down; an excess is "
+               "rounded up. The CG margins are measured along the CG axis at that weight; the weight margin is the room "
+               "to the maximum weight or to the envelope's top edge at that CG, whichever is lower.")
+EDGE_NOTE = ("(edge): the envelope's edge at that CG sets this margin; no maximum weight is exceeded (the CG findings "
+             "say what is).")
+
+
+def weight_margin(c: Condition, result: CheckResult) -> tuple[str, bool]:
+    """The weight margin as shown, and whether it is marked "(edge)": below zero with no maximum
+    weight exceeded, so the envelope's edge at this CG sets it (a CG matter, not an overweight one)."""
     text = _margin(c.margins.weight, result.units.mass)
     if c.margins.weight is None or c.margins.weight >= 0:
         return text, False
@@ -326,19 +342,16 @@ def _conditions_table(result: CheckResult, console: Console, aircraft: Aircraft 
         row += [_margin(c.margins.forward, units.arm), _margin(c.margins.aft, units.arm)]
         if lateral:
             row += [_margin(c.margins.left, units.arm), _margin(c.margins.right, units.arm)]
-        weight, marked = _weight_margin(c, result)
+        weight, marked = weight_margin(c, result)
         edge = edge or marked
         row.append(weight)
         rows.append(row)
     _print_table(console, f"Conditions ({result.category} category)", columns, rows)
-    notes = ("Margins: room left to each limit at that condition (below zero: exceeded), rounded down; "
-             "an excess is rounded up. The CG margins are measured along the CG axis at that weight; the weight "
-             "margin is the room to the maximum weight or to the envelope's top edge at that CG, whichever is lower.")
+    notes = MARGIN_NOTE
     if lateral:
         notes += " Lateral figures are + right of the centre line."
     if edge:
-        notes += (" (edge): the envelope's edge at that CG sets this margin; no maximum weight is exceeded "
-                  "(the CG findings below say what is).")
+        notes += " " + EDGE_NOTE
     console.print(Text(notes, style="dim"))
 
 
