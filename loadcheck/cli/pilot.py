@@ -131,7 +131,8 @@ def _write_pictures(inputs: Any, result: Any, chart: Path | None, sheet: Path | 
 
         page_chart = figure_svg(check_figure(inputs.aircraft, result, inputs.label, compact=True))
         write_atomic(sheet, load_sheet_html(result, page_chart, loading_label=inputs.label, loading=inputs.loading,
-                                            pilot=inputs.given.pilot if inputs.given is not None else None))
+                                            pilot=inputs.given.pilot if inputs.given is not None else None,
+                                            aircraft=inputs.aircraft))
         err.print(f"load sheet written: {sheet}", markup=False)
 
 

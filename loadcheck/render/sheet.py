@@ -19,6 +19,7 @@ from ..display import fmt, unit_label
 from ..results import CheckResult
 
 if TYPE_CHECKING:
+    from ..aircraft import Aircraft
     from ..loading import ResolvedLoading
 
 __all__ = ["load_sheet_html", "mechanic_sheet_html"]
@@ -109,6 +110,7 @@ def load_sheet_html(
     when: dt.datetime | None = None,
     loading: ResolvedLoading | None = None,
     pilot: str | None = None,
+    aircraft: Aircraft | None = None,
 ) -> str:
     """The load sheet of a check as one HTML document, laid out to print on one page of
     A4 or US letter.
@@ -122,6 +124,8 @@ def load_sheet_html(
     when : time of the check (default: now, local time)
     loading : the loading as checked, for the fuel plan (taxi, trip, reserve, burn order)
     pilot : the pilot in command named in the loading, if any
+    aircraft : the aircraft checked; where its envelope is read as moment / 1000, the moment
+        table and the conditions show that column too
 
     The page holds the aircraft, its data fingerprint, the verdict, the moment table with its
     total, the occupants' seats, the fuel plan with the fuel at each condition, the conditions
@@ -140,6 +144,9 @@ def load_sheet_html(
     ]
     if pilot:
         meta.append(("Pilot in command", pilot))
+    from .terminal import moment_axis, scaled_moment, scaled_moment_header
+
+    scaled = moment_axis(aircraft, result.category)
     count = len(result.limits_exceeded)
     verdict = "WITHIN LIMITS" if result.ok else f"OUT OF LIMITS: {count} {'limit' if count == 1 else 'limits'} exceeded"
     parts = [
@@ -153,14 +160,22 @@ def load_sheet_html(
         f"<p class='verdict' id='verdict'>{escape(verdict)}</p>",
         "<div class='cols'><div>",
         "<h2>Moment table (engine start)</h2><table id='moments'>",
-        _head(["Item", f"Weight ({units.mass})", f"Arm ({units.arm})", f"Moment ({moment})"]),
+        _head(["Item", f"Weight ({units.mass})", f"Arm ({units.arm})", f"Moment ({moment})"]
+              + ([scaled_moment_header(scaled, units.moment)] if scaled is not None else [])),
     ]
+
+    def scaled_cell(weight: float, value: float) -> list[str]:
+        if scaled is None:
+            return []
+        return [escape(fmt(scaled_moment(scaled, weight, value), units.moment, with_unit=False, places=1))]
+
     for item in result.items:
         name = item.name + (f" ({fmt(item.fuel_volume, units.fuel_volume)})" if item.fuel_volume is not None else "")
-        parts.append(_cells([escape(name), _n(item.weight, units.mass), _n(item.arm, units.arm), _n(item.moment, units.moment)]))
+        parts.append(_cells([escape(name), _n(item.weight, units.mass), _n(item.arm, units.arm), _n(item.moment, units.moment)]
+                            + scaled_cell(item.weight, item.moment)))
     ramp = result.condition("ramp")
-    parts.append(_cells(["Total at ramp", _n(ramp.weight, units.mass), _n(ramp.arm, units.arm), _n(ramp.moment, units.moment)],
-                        attrs=" class='total' id='total'"))
+    parts.append(_cells(["Total at ramp", _n(ramp.weight, units.mass), _n(ramp.arm, units.arm), _n(ramp.moment, units.moment)]
+                        + scaled_cell(ramp.weight, ramp.moment), attrs=" class='total' id='total'"))
     parts.append("</table><p class='note'>Each figure is rounded on its own; the total is the sum of the unrounded "
                  "figures.</p></div><div>")
     seats = [i for i in result.items if i.kind == "seat"]
@@ -173,7 +188,7 @@ def load_sheet_html(
         parts.append("<p>No one in a seat station.</p>")
     parts.append(_fuel_plan(result, loading))
     parts.append("</div></div>")
-    parts.append(_conditions(result))
+    parts.append(_conditions(result, scaled))
 
     path = result.burn_path
     parts.append("<h2>Fuel burn, takeoff to landing</h2>")
@@ -232,18 +247,19 @@ def _fuel_plan(result: CheckResult, loading: ResolvedLoading | None) -> str:
     return "".join(out)
 
 
-def _conditions(result: CheckResult) -> str:
+def _conditions(result: CheckResult, scaled: Any = None) -> str:
+    from .terminal import EDGE_NOTE, MARGIN_NOTE, condition_verdict, scaled_moment, scaled_moment_header, weight_margin
+
     units = result.units
     mac = any(c.mac_percent is not None for c in result.conditions)
     lateral = any(c.lateral_arm is not None for c in result.conditions)
     head = ["Condition", f"Fuel ({units.fuel_volume})", f"Weight ({units.mass})", f"CG ({units.arm})"]
     head += ["CG (% MAC)"] if mac else []
+    head += [scaled_moment_header(scaled, units.moment)] if scaled is not None else []
     head += [f"Lateral CG ({units.arm}, + right)"] if lateral else []
     head += ["Result", f"CG margin forward ({units.arm})", f"CG margin aft ({units.arm})"]
     head += [f"Lateral margin left ({units.arm})", f"Lateral margin right ({units.arm})"] if lateral else []
     head += [f"Weight margin ({units.mass})"]
-    from .terminal import EDGE_NOTE, MARGIN_NOTE, condition_verdict, weight_margin
-
     out = ["<h2>Conditions</h2><table id='conditions'>", _head(head)]
     edge = False
     for c in result.conditions:
@@ -252,11 +268,13 @@ def _conditions(result: CheckResult) -> str:
         edge = edge or marked
         cells = [escape(_NAMES[c.condition]), _n(c.fuel, units.fuel_volume), _n(c.weight, units.mass), _n(c.arm, units.arm)]
         cells += [_n(c.mac_percent, "%MAC")] if mac else []
+        if scaled is not None:
+            cells.append(escape(fmt(scaled_moment(scaled, c.weight, c.moment), units.moment, with_unit=False, places=1)))
         cells += [_n(c.lateral_arm, units.arm)] if lateral else []
         cells += [verdict, _n(c.margins.forward, units.arm, "down"), _n(c.margins.aft, units.arm, "down")]
         cells += [_n(c.margins.left, units.arm, "down"), _n(c.margins.right, units.arm, "down")] if lateral else []
         cells += [escape(margin)]
-        result_at = 4 + mac + lateral
+        result_at = 4 + mac + (scaled is not None) + lateral
         row = "".join(
             f"<td>{cell}</td>" if i in (0, result_at) else f"<td class='n' data-condition='{c.condition}'>{cell}</td>"
             for i, cell in enumerate(cells)

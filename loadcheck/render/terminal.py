@@ -35,6 +35,9 @@ __all__ = [
     "MARGIN_NOTE",
     "Column",
     "condition_verdict",
+    "moment_axis",
+    "scaled_moment",
+    "scaled_moment_header",
     "weight_margin",
     "caution_text",
     "fitted_tables",
@@ -218,7 +221,7 @@ def _lines(console: Console, tag_rows: Sequence[tuple[Text, Text]]) -> None:
 # -- the check -------------------------------------------------------------------------------------
 
 
-def _moment_axis(aircraft: Aircraft | None, category: str) -> Any:
+def moment_axis(aircraft: Aircraft | None, category: str) -> Any:
     """The envelope of this category read as moment / scale (scale other than 1), if any."""
     if aircraft is None:
         return None
@@ -228,25 +231,25 @@ def _moment_axis(aircraft: Aircraft | None, category: str) -> Any:
     return None
 
 
-def _scaled_moment(envelope: Any, weight: float, moment: float) -> float:
+def scaled_moment(envelope: Any, weight: float, moment: float) -> float:
     """The moment as the envelope reads it (moment / scale), from the envelope's own coordinates."""
     x, y = envelope.shape.coords(weight, moment, 0.0)
     return float(x if envelope.axes[0] == "moment" else y)
 
 
-def _scaled_header(envelope: Any, moment_unit: str) -> str:
+def scaled_moment_header(envelope: Any, moment_unit: str) -> str:
     return f"Moment / {envelope.moment_scale:g} ({unit_label(moment_unit)})"
 
 
 def _moment_table(result: CheckResult, console: Console, aircraft: Aircraft | None = None) -> None:
     units = result.units
     lateral = any(i.lateral_arm is not None for i in result.items)
-    scaled = _moment_axis(aircraft, result.category)
+    scaled = moment_axis(aircraft, result.category)
     moment = unit_label(units.moment)
     columns = [Column("Item", numeric=False, key=True), Column(f"Weight ({units.mass})"), Column(f"Arm ({units.arm})"),
                Column(f"Moment ({moment})")]
     if scaled is not None:
-        columns.append(Column(_scaled_header(scaled, units.moment)))
+        columns.append(Column(scaled_moment_header(scaled, units.moment)))
     if lateral:
         columns += [Column(f"Lateral arm ({units.arm})"), Column(f"Lateral moment ({moment})")]
 
@@ -254,7 +257,7 @@ def _moment_table(result: CheckResult, console: Console, aircraft: Aircraft | No
         row: list[Cell] = [name, fmt(weight, units.mass, with_unit=False), fmt(arm, units.arm, with_unit=False),
                            fmt(mom, units.moment, with_unit=False)]
         if scaled is not None:
-            row.append(fmt(_scaled_moment(scaled, weight, mom), units.moment, with_unit=False, places=1))
+            row.append(fmt(scaled_moment(scaled, weight, mom), units.moment, with_unit=False, places=1))
         if lateral:
             row += [fmt(lat or 0.0, units.arm, with_unit=False), fmt(lat_mom or 0.0, units.moment, with_unit=False)]
         return row
@@ -313,13 +316,13 @@ def _conditions_table(result: CheckResult, console: Console, aircraft: Aircraft 
     conditions = result.conditions
     mac = any(c.mac_percent is not None for c in conditions)
     lateral = any(c.lateral_arm is not None for c in conditions)
-    scaled = _moment_axis(aircraft, result.category)
+    scaled = moment_axis(aircraft, result.category)
     columns = [Column("Condition", numeric=False, key=True), Column(f"Fuel ({units.fuel_volume})"),
                Column(f"Weight ({units.mass})"), Column(f"CG ({units.arm})")]
     if mac:
         columns.append(Column("CG (% MAC)"))
     if scaled is not None:
-        columns.append(Column(_scaled_header(scaled, units.moment)))
+        columns.append(Column(scaled_moment_header(scaled, units.moment)))
     if lateral:
         columns.append(Column(f"Lateral CG ({units.arm})"))
     columns.append(Column("Result", numeric=False))
@@ -335,7 +338,7 @@ def _conditions_table(result: CheckResult, console: Console, aircraft: Aircraft 
         if mac:
             row.append("" if c.mac_percent is None else fmt(c.mac_percent, "%MAC", with_unit=False))
         if scaled is not None:
-            row.append(fmt(_scaled_moment(scaled, c.weight, c.moment), units.moment, with_unit=False, places=1))
+            row.append(fmt(scaled_moment(scaled, c.weight, c.moment), units.moment, with_unit=False, places=1))
         if lateral:
             row.append("" if c.lateral_arm is None else fmt(c.lateral_arm, units.arm, with_unit=False))
         row.append(_result_cell(c, result))
