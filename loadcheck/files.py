@@ -288,7 +288,8 @@ def validate_file(path: str | Path) -> str:
     if kind == "aircraft":
         aircraft = parse_aircraft(data, path)
         return (
-            f"aircraft {aircraft.name!r}, {len(aircraft.station)} stations, {len(aircraft.tank)} tanks, "
+            f"aircraft {aircraft.name!r}, {len(aircraft.station)} station{'' if len(aircraft.station) == 1 else 's'}, "
+            f"{len(aircraft.tank)} tank{'' if len(aircraft.tank) == 1 else 's'}, "
             f"categories {', '.join(aircraft.categories)}"
         )
     if kind == "loading":

@@ -186,6 +186,9 @@ def test_fleet_check_row_with_warnings_is_not_shown_as_plain_within(folder, monk
     day = tmp_path / "day.csv"
     day.write_text("registration,reference,front,rear,mains,taxi,trip,reserve\nDEMO-4T,W1,340,150,tabs,1.2,18,20\n")
     out = _run(folder, monkeypatch, ["fleet", "check", "s", str(day), "--no-record"], 120).output
-    row = next(line for line in out.splitlines() if "W1" in line)
-    assert "within, 1 warning" in row and "WARNING:" in row
+    lines = out.splitlines()
+    start = next(i for i, line in enumerate(lines) if "DEMO-4T" in line)
+    row = " ".join(lines[start:start + 3])
+    assert "within, 1 warning" in lines[start] and "WARNING:" in row and "reserve" in row
+    assert "│ within " not in lines[start]
     assert "1 within limits (1 with warnings)" in out

@@ -676,7 +676,9 @@ def _flight_result(result: dict[str, Any]) -> tuple[Text, str]:
 
 
 def render_fleet(flights: list[Any], console: Console) -> None:
-    """One row per flight: line, registration, reference, takeoff and landing, verdict, first finding.
+    """One row per flight: line, registration, the verdict and under it the first finding,
+    reference, takeoff and landing (the verdict and its reason come first, so that they stay
+    beside the flight's name however narrow the terminal).
 
     A flight within limits but with warnings (fuel below the reserve, an assumption made)
     says so in its result and shows the first warning.
@@ -686,8 +688,9 @@ def render_fleet(flights: list[Any], console: Console) -> None:
     for flight in flights:
         row = flight.row
         if flight.result is None:
-            rows.append([str(row.line), row.registration or "", row.reference or "", "", "",
-                         Text("INPUT ERROR", style=_WARN_STYLE), "\n".join(flight.problems)])
+            verdict = Text("INPUT ERROR", style=_WARN_STYLE)
+            rows.append([str(row.line), row.registration or "", verdict + Text("\n" + "\n".join(flight.problems)),
+                         row.reference or "", "", ""])
             continue
         result = flight.result
         units = result["units"]
@@ -696,15 +699,14 @@ def render_fleet(flights: list[Any], console: Console) -> None:
         verdict, first = _flight_result(result)
         warned += bool(result["ok"]) and verdict.plain != "within"
         rows.append([
-            str(row.line), row.registration or "", row.reference or "",
+            str(row.line), row.registration or "", verdict + Text(f"\n{first}" if first else ""), row.reference or "",
             f"{fmt(takeoff['weight'], units['mass'])}\n{fmt(takeoff['arm'], units['arm'])}",
             f"{fmt(landing['weight'], units['mass'])}\n{fmt(landing['arm'], units['arm'])}",
-            verdict, first,
         ])
     _print_table(console, "Flights",
-                 [Column("Line", key=True), Column("Registration", numeric=False), Column("Reference", numeric=False),
-                  Column("Takeoff weight and CG"), Column("Landing weight and CG"), Column("Result", numeric=False),
-                  Column("First finding", numeric=False)], rows)
+                 [Column("Line", key=True), Column("Aircraft", numeric=False, key=True),
+                  Column("Result and first finding", numeric=False), Column("Reference", numeric=False),
+                  Column("Takeoff weight, CG"), Column("Landing weight, CG")], rows)
     out = sum(1 for f in flights if f.result is not None and not f.ok)
     bad = sum(1 for f in flights if f.result is None)
     within = len(flights) - out - bad
