@@ -137,6 +137,7 @@ def test_help_fits_and_never_breaks_a_word(width):
         # no option, path or example broken across lines (the "--no-" / "record" of issue 15)
         assert not re.search(r"(--[a-z-]*-|/)\n", text), name
         assert not re.search(r"\{[a-z]", text), name  # argument names in capitals, as everywhere else
+        assert not re.search(r"[a-z,]\.\.\.$", text, re.M), name  # no command summary cut short with "..."
 
 
 @pytest.mark.parametrize("name", ["trainer4/within.toml", "twin6/leaves_path.toml", "heli2/solo_heavy_right.toml",

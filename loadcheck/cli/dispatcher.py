@@ -24,16 +24,18 @@ from .common import (
 
 # -- the dispatcher's commands ---------------------------------------------------------------
 
-fleet_app = typer.Typer(help="A fleet of aircraft files addressed by registration, and a day of loadings.",
+fleet_app = typer.Typer(short_help="A fleet, and a day of loadings.",
+                        help="A fleet of aircraft files addressed by registration, and a day of loadings.",
                         no_args_is_help=True)
 app.add_typer(fleet_app, name="fleet")
-records_app = typer.Typer(help="The record of checks: list, show, export, verify (reproduce).", no_args_is_help=True)
+records_app = typer.Typer(short_help="The record of checks.",
+                          help="The record of checks: list, show, export, verify (reproduce).", no_args_is_help=True)
 app.add_typer(records_app, name="records")
 
 DbOpt = Annotated[Path | None, typer.Option("--db", metavar="FILE", help="Record database (default: $LOADCHECK_RECORDS or the user data folder).")]
 
 
-@fleet_app.command("list")
+@fleet_app.command("list", short_help="Each aircraft of a fleet folder.")
 @input_errors
 def fleet_list(
     folder: Annotated[Path, typer.Argument(metavar="FOLDER", help="Folder of aircraft files (sub-folders searched too).")],
@@ -63,7 +65,7 @@ def fleet_list(
     raise typer.Exit(EXIT_INPUT if bad else EXIT_OK)
 
 
-@fleet_app.command("check")
+@fleet_app.command("check", short_help="Check and record a day of loadings.")
 @input_errors
 def fleet_check(
     folder: Annotated[Path, typer.Argument(metavar="FOLDER", help="Folder of aircraft files (the fleet).")],
@@ -152,7 +154,7 @@ def _log(db: Path | None) -> Any:
     return RecordLog(path)
 
 
-@records_app.command("list")
+@records_app.command("list", short_help="List recorded checks.")
 @input_errors
 def records_list(db: DbOpt = None, since: SinceOpt = None, until: UntilOpt = None, registration: RegOpt = None) -> None:
     """List recorded checks.
@@ -170,7 +172,7 @@ def records_list(db: DbOpt = None, since: SinceOpt = None, until: UntilOpt = Non
         render_records(found, log.path, _console())
 
 
-@records_app.command("show")
+@records_app.command("show", short_help="One record: its inputs and result.")
 @input_errors
 def records_show(record_id: Annotated[int, typer.Argument(metavar="ID", help="Record id.")], db: DbOpt = None) -> None:
     """Show one record: its inputs and its full result (JSON)."""
@@ -179,7 +181,7 @@ def records_show(record_id: Annotated[int, typer.Argument(metavar="ID", help="Re
     typer.echo(json.dumps({**record.summary(), "inputs": record.inputs, "result": record.result}, indent=2))
 
 
-@records_app.command("export")
+@records_app.command("export", short_help="Export records as CSV or JSON Lines.")
 @input_errors
 def records_export(
     db: DbOpt = None, since: SinceOpt = None, until: UntilOpt = None, registration: RegOpt = None,
@@ -212,7 +214,7 @@ def records_export(
         _console(stderr=True).print(caution_text(PILOT_CAUTION))
 
 
-@records_app.command("verify")
+@records_app.command("verify", short_help="Recompute a record; does it match?")
 @input_errors
 def records_verify(record_id: Annotated[int, typer.Argument(metavar="ID", help="Record id.")], db: DbOpt = None) -> None:
     """Recompute a recorded check from its stored inputs and aircraft data; say whether it matches.

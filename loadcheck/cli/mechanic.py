@@ -73,7 +73,7 @@ def _mechanic_sheet(sheet: Path | None, result: Any, aircraft: Any, source: Path
     _console(stderr=True).print(f"record written: {sheet}", markup=False)
 
 
-@app.command()
+@app.command(short_help="Empty weight and CG from scale readings.")
 @input_errors
 def weigh(
     aircraft: Annotated[Path, typer.Argument(metavar="AIRCRAFT", help="Aircraft file (TOML).")],
@@ -101,7 +101,7 @@ def weigh(
     _new_empty_weight(aircraft, readings, load_readings, compute, render_weighing, "weighing", write, sheet, json_out)
 
 
-@app.command()
+@app.command(short_help="Empty weight after equipment changes.")
 @input_errors
 def alter(
     aircraft: Annotated[Path, typer.Argument(metavar="AIRCRAFT", help="Aircraft file (TOML).")],
@@ -129,7 +129,7 @@ def alter(
     _new_empty_weight(aircraft, changes, load_changes, compute, render_alteration, "alteration", write, sheet, json_out)
 
 
-@app.command()
+@app.command(short_help="The empty-weight records, oldest first.")
 @input_errors
 def history(
     aircraft: Annotated[Path, typer.Argument(metavar="AIRCRAFT", help="Aircraft file (TOML).")],
@@ -161,7 +161,7 @@ def history(
         render_history(data, rows, _console(), MECHANIC_CAUTION)
 
 
-@app.command()
+@app.command(short_help="Most forward and most rearward loadings.")
 @input_errors
 def extremes(
     aircraft: Annotated[Path, typer.Argument(metavar="AIRCRAFT", help="Aircraft file (TOML).")],
@@ -196,7 +196,7 @@ def extremes(
     raise typer.Exit(EXIT_OK if result.ok else EXIT_LIMIT)
 
 
-@app.command()
+@app.command(short_help="The loading schedule (AC 43.13-1B 10-18).")
 @input_errors
 def schedule(
     aircraft: Annotated[Path, typer.Argument(metavar="AIRCRAFT", help="Aircraft file (TOML).")],

@@ -34,7 +34,7 @@ from .common import (
 )
 
 
-@app.command()
+@app.command(short_help="Check a loading against every limit.")
 @input_errors
 def check(
     aircraft: AircraftArg,
@@ -136,7 +136,7 @@ def _write_pictures(inputs: Any, result: Any, chart: Path | None, sheet: Path | 
         err.print(f"load sheet written: {sheet}", markup=False)
 
 
-@app.command()
+@app.command(short_help="An aircraft's data and envelopes.")
 @input_errors
 def show(
     aircraft: Annotated[Path, typer.Argument(metavar="AIRCRAFT", help="Aircraft file (TOML).")],
@@ -165,7 +165,7 @@ def show(
         _console(stderr=True).print(f"chart written: {chart}", markup=False)
 
 
-@app.command()
+@app.command(short_help="Check files; list every problem.")
 @input_errors
 def validate(
     files: Annotated[list[Path], typer.Argument(metavar="FILES", help="Aircraft and loading files to check.", show_default=False)],
@@ -200,7 +200,7 @@ def validate(
     raise typer.Exit(EXIT_INPUT if failed else EXIT_OK)
 
 
-@app.command()
+@app.command(short_help="JSON Schema of the files, for editors.")
 @input_errors
 def schema(
     kind: Annotated[Literal["aircraft", "loading", "all"], typer.Argument(metavar="KIND",
@@ -221,6 +221,7 @@ def schema(
 
 
 plan_app = typer.Typer(
+    short_help="Planning: fuel, trip, payload, ballast, shift.",
     help=(
         "Planning answers: most fuel, longest trip, most payload, fuel to leave behind, least ballast, "
         "weight shift, fuel against payload. Each honours every limit the check enforces.\n\n"
@@ -248,7 +249,7 @@ def _answer(result: Any, json_out: bool) -> None:
     raise typer.Exit(EXIT_OK if result.feasible else EXIT_LIMIT)
 
 
-@plan_app.command("fuel")
+@plan_app.command("fuel", short_help="The most fuel at engine start.")
 @input_errors
 def plan_fuel(
     aircraft: AircraftArg, loading: LoadingArg = None, load: LoadOpt = [], fuel: FuelOpt = [],  # noqa: B006
@@ -270,7 +271,7 @@ def plan_fuel(
     _answer(most_fuel(inputs.aircraft, inputs.loading, fill=_fill(fill)), json_out)
 
 
-@plan_app.command("trip")
+@plan_app.command("trip", short_help="The longest trip at a burn rate.")
 @input_errors
 def plan_trip(
     aircraft: AircraftArg, loading: LoadingArg = None, load: LoadOpt = [], fuel: FuelOpt = [],  # noqa: B006
@@ -298,7 +299,7 @@ def plan_trip(
     _answer(result, json_out)
 
 
-@plan_app.command("payload")
+@plan_app.command("payload", short_help="The most weight at a station.")
 @input_errors
 def plan_payload(
     aircraft: AircraftArg, loading: LoadingArg = None, load: LoadOpt = [], fuel: FuelOpt = [],  # noqa: B006
@@ -321,7 +322,7 @@ def plan_payload(
     _answer(most_payload(inputs.aircraft, inputs.loading, _need(station, "--station")), json_out)
 
 
-@plan_app.command("leave")
+@plan_app.command("leave", short_help="Fuel to leave behind for a payload.")
 @input_errors
 def plan_leave(
     aircraft: AircraftArg, loading: LoadingArg = None, load: LoadOpt = [], fuel: FuelOpt = [],  # noqa: B006
@@ -347,7 +348,7 @@ def plan_leave(
     _answer(fuel_to_leave(inputs.aircraft, inputs.loading, _need(station, "--station"), weight, fill=_fill(fill)), json_out)
 
 
-@plan_app.command("ballast")
+@plan_app.command("ballast", short_help="The least ballast that is enough.")
 @input_errors
 def plan_ballast(
     aircraft: AircraftArg, loading: LoadingArg = None, load: LoadOpt = [], fuel: FuelOpt = [],  # noqa: B006
@@ -369,7 +370,7 @@ def plan_ballast(
     _answer(least_ballast(inputs.aircraft, inputs.loading, station), json_out)
 
 
-@plan_app.command("shift")
+@plan_app.command("shift", short_help="Weight to move between stations.")
 @input_errors
 def plan_shift(
     aircraft: AircraftArg, loading: LoadingArg = None, load: LoadOpt = [], fuel: FuelOpt = [],  # noqa: B006
@@ -403,7 +404,7 @@ def plan_shift(
     _answer(result, json_out)
 
 
-@plan_app.command("table")
+@plan_app.command("table", short_help="Ramp fuel against payload.")
 @input_errors
 def plan_table(
     aircraft: AircraftArg, loading: LoadingArg = None, load: LoadOpt = [], fuel: FuelOpt = [],  # noqa: B006
