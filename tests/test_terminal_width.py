@@ -193,3 +193,22 @@ def test_fleet_check_row_with_warnings_is_not_shown_as_plain_within(folder, monk
     assert "within, 1 warning" in lines[start] and "WARNING:" in row and "reserve" in row
     assert "│ within " not in lines[start]
     assert "1 within limits (1 with warnings)" in out
+
+
+def test_a_table_too_wide_even_in_blocks_is_listed_row_by_row():
+    from rich.console import Console
+
+    from loadcheck.render.terminal import Column, fitted_tables
+
+    columns = [Column("Condition", numeric=False, key=True), Column("Weight (lb)"), Column("Moment (lb·in)")]
+    rows = [["Ramp", "12,345,678.9", "1,234,567,890"], ["Takeoff", "12,345,600.0", "1,234,500,000"]]
+    assert len(fitted_tables(80, "T", columns, rows)) == 1  # wide enough: one table
+    assert len(fitted_tables(36, "T", columns, rows)) == 2  # two blocks, the condition repeated in each
+    (listed,) = fitted_tables(24, "T", columns, rows)  # not even one number beside the names: listed
+    console = Console(width=24, record=True, color_system=None)
+    console.print(listed)
+    text = console.export_text()
+    _fits(text, 24)
+    for row in rows:
+        for cell in row:
+            assert cell in text
