@@ -12,7 +12,7 @@ from __future__ import annotations
 import math
 from typing import Literal
 
-__all__ = ["DECIMALS", "decimals", "fmt", "round_safe"]
+__all__ = ["DECIMALS", "decimals", "fmt", "round_safe", "unit_label"]
 
 Direction = Literal["nearest", "up", "down"]
 
@@ -53,8 +53,23 @@ def round_safe(value: float, places: int, direction: Direction = "nearest") -> f
     return round(scaled) / scale
 
 
-def fmt(value: float, unit: str, direction: Direction = "nearest", *, with_unit: bool = True) -> str:
-    """Format a value for display with its unit's precision and thousands separators.
+def unit_label(unit: str) -> str:
+    """A unit as a reader sees it: a product of units with a middle dot (``lb*in`` -> ``lb·in``).
+
+    The data (JSON ``units``) keeps the plain ``lb*in`` form; only what is shown changes.
+    The middle dot for a product of units follows the SI Brochure, 9th edition (2019), 5.4.6.
+
+    Examples
+    --------
+    >>> unit_label("kg*m")
+    'kg·m'
+    """
+    return unit.replace("*", "\u00b7")
+
+
+def fmt(value: float, unit: str, direction: Direction = "nearest", *, with_unit: bool = True,
+        places: int | None = None) -> str:
+    """Format a value for display with its unit's precision (or ``places``) and thousands separators.
 
     Examples
     --------
@@ -62,9 +77,11 @@ def fmt(value: float, unit: str, direction: Direction = "nearest", *, with_unit:
     '2,550.0 lb'
     >>> fmt(0.321, "in", "up")
     '0.33 in'
+    >>> fmt(104337.0, "lb*in")
+    '104,337 lb·in'
     """
-    places = decimals(unit)
+    places = decimals(unit) if places is None else places
     text = f"{round_safe(value, places, direction):,.{places}f}"
     if text.startswith("-") and float(text.replace(",", "")) == 0.0:
         text = text[1:]
-    return f"{text} {unit}" if with_unit else text
+    return f"{text} {unit_label(unit)}" if with_unit else text

@@ -299,3 +299,25 @@ def test_plan_fuel_without_any_fuel_given_answers_with_the_taxi_and_trip():
     assert answer["intervals"][0]["low"] >= 19.2 - 1e-6
     # the single check of the same loading still refuses it: the fuel does not cover the burn
     assert runner.invoke(app, ["check", *args[2:-1]]).exit_code == 2
+
+
+def test_plan_table_chart_shows_only_the_fuel_each_row_allows():
+    # regression: each row was drawn as a bar centred on its payload, so between rows the
+    # chart showed more fuel than plan fuel allows for that payload, and bars began at a
+    # negative payload
+    from loadcheck.render.chart import fuel_payload_figure
+
+    inputs = load_check_inputs(sample("trainer4/within.toml"))
+    table = P.fuel_payload_table(inputs.aircraft, inputs.loading, "rear", steps=5)
+    figure = fuel_payload_figure(inputs.aircraft, table)
+    (ax,) = figure.axes
+    (bars,) = [c for c in ax.collections if c.get_gid() == "within-limits"]
+    drawn = sorted((float(s[0][0]), float(s[0][1]), float(s[1][1])) for s in bars.get_segments())
+    allowed = sorted((r.payload, i.low, i.high) for r in table.rows for i in r.intervals)
+    assert drawn == pytest.approx(allowed)
+    assert all(s[0][0] == s[1][0] >= 0.0 for s in bars.get_segments())  # a bar at one payload, never negative
+    for row in table.rows:  # each row's most fuel passed the full check
+        if row.most is not None:
+            answer = P.most_fuel(inputs.aircraft, P._with(inputs.loading, stations={**inputs.loading.stations,
+                                                                                    "rear": inputs.loading.stations.get("rear", 0.0) + row.payload}))
+            assert answer.feasible and answer.check.ok and answer.answer == pytest.approx(row.most)

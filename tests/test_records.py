@@ -130,7 +130,7 @@ def _fleet_copy(tmp_path: Path) -> Path:
 def test_current_mode_unchanged_data_exits_0(db, tmp_path):
     fleet = _fleet_copy(tmp_path)
     _record(db, "trainer4/within.toml")
-    result = runner.invoke(app, ["records", "verify", "--current", str(fleet)])
+    result = runner.invoke(app, ["records", "verify", "--current", str(fleet)], env={"COLUMNS": "250"})  # one line a record
     assert result.exit_code == 0, result.output
     assert "0 made with aircraft data that has changed since" in result.output
 
@@ -146,7 +146,7 @@ def test_current_mode_finds_a_check_the_new_data_puts_out_of_limits(db, tmp_path
     (check,) = outcome.checks
     assert check.record_id == within and check.data_changed and check.recorded_ok and check.current_ok is False
     assert outcome.status == 1 and outcome.now_out_of_limits == 1
-    result = runner.invoke(app, ["records", "verify", "--current", str(fleet)])
+    result = runner.invoke(app, ["records", "verify", "--current", str(fleet)], env={"COLUMNS": "250"})  # one line a record
     assert result.exit_code == 1 and "changed since" in result.output and "(was within)" in result.output
     assert "LIMIT" in result.output
     # the plain verification still reproduces the record with the data it was made with

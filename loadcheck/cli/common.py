@@ -89,7 +89,7 @@ app = typer.Typer(
         "govern, and the pilot in command decides."
     ),
     no_args_is_help=True,
-    add_completion=False,
+    add_completion=True,  # --install-completion and --show-completion (docs/cli.md, "Shell completion")
     pretty_exceptions_enable=False,
     rich_markup_mode=None,
     context_settings={"help_option_names": ["-h", "--help"]},
@@ -99,10 +99,14 @@ F = TypeVar("F", bound=Callable[..., Any])
 
 
 def _console(stderr: bool = False) -> Console:
-    console = Console(stderr=stderr, highlight=False)
-    if not console.is_terminal:
-        console = Console(stderr=stderr, highlight=False, width=max(console.width, 160))
-    return console
+    """The console for human-readable output.
+
+    Its width is the terminal's; when the output is piped or redirected, ``COLUMNS`` if set,
+    else 80 (tables are laid out for that width, see loadcheck.render.terminal). With
+    ``NO_COLOR`` set (https://no-color.org) no escape codes at all are written, styles included.
+    """
+    no_color = bool(os.environ.get("NO_COLOR"))
+    return Console(stderr=stderr, highlight=False, color_system=None if no_color else "auto", no_color=no_color)
 
 
 def _fail_input(lines: list[str]) -> None:
@@ -172,15 +176,17 @@ def _main(
 # Options shared by `check` and the `plan` commands.
 AircraftArg = Annotated[Path, typer.Argument(metavar="AIRCRAFT", help="Aircraft file (TOML), or a loading file that names its aircraft.")]
 LoadingArg = Annotated[Path | None, typer.Argument(metavar="LOADING", help="Loading file (TOML); optional.")]
-LoadOpt = Annotated[list[str], typer.Option("--load", "-l", help="STATION=WEIGHT; repeat. e.g. front=340, bag1='20 kg'.")]
-FuelOpt = Annotated[list[str], typer.Option("--fuel", "-f", help="TANK=QUANTITY; repeat. A volume, 'full', a level name or '120 lb'.")]
-TaxiOpt = Annotated[str | None, typer.Option(help="Fuel used before takeoff (volume, or with a unit).")]
-TripOpt = Annotated[str | None, typer.Option(help="Fuel used from takeoff to landing.")]
-TripTimeOpt = Annotated[str | None, typer.Option("--trip-time", help="Flight time, e.g. 2:15; with --rate.")]
-RateOpt = Annotated[str | None, typer.Option(help="Fuel used per hour (with --trip-time).")]
-OrderOpt = Annotated[str | None, typer.Option(help="'together', or tank ids in burn order: aux,mains.")]
-ReserveOpt = Annotated[str | None, typer.Option(help="Warn when landing fuel is below this.")]
-CategoryOpt = Annotated[str | None, typer.Option("--category", "-c", help="Envelope category (default: the file's first).")]
+LoadOpt = Annotated[list[str], typer.Option("--load", "-l", metavar="STATION=WEIGHT",
+    help="A weight at a station; repeat the option for each. e.g. front=340, bag1='20 kg'.")]
+FuelOpt = Annotated[list[str], typer.Option("--fuel", "-f", metavar="TANK=QUANTITY",
+    help="Fuel in a tank at engine start; repeat for each tank. A volume, 'full', a level name or '120 lb'.")]
+TaxiOpt = Annotated[str | None, typer.Option(metavar="AMOUNT", help="Fuel used before takeoff (volume, or with a unit).")]
+TripOpt = Annotated[str | None, typer.Option(metavar="AMOUNT", help="Fuel used from takeoff to landing (volume, or with a unit).")]
+TripTimeOpt = Annotated[str | None, typer.Option("--trip-time", metavar="H:MM", help="Flight time, e.g. 2:15; with --rate.")]
+RateOpt = Annotated[str | None, typer.Option(metavar="AMOUNT", help="Fuel used per hour (with --trip-time).")]
+OrderOpt = Annotated[str | None, typer.Option(metavar="ORDER", help="'together', or tank ids in burn order: aux,mains.")]
+ReserveOpt = Annotated[str | None, typer.Option(metavar="AMOUNT", help="Warn when landing fuel is below this.")]
+CategoryOpt = Annotated[str | None, typer.Option("--category", "-c", metavar="CATEGORY", help="Envelope category (default: the file's first).")]
 JsonOpt = Annotated[bool, typer.Option("--json", help="Print one JSON object instead of tables.")]
 
 

@@ -24,20 +24,22 @@ from .common import (
 
 # -- the dispatcher's commands ---------------------------------------------------------------
 
-fleet_app = typer.Typer(help="A fleet of aircraft files addressed by registration, and a day of loadings.",
+fleet_app = typer.Typer(short_help="A fleet, and a day of loadings.",
+                        help="A fleet of aircraft files addressed by registration, and a day of loadings.",
                         no_args_is_help=True)
 app.add_typer(fleet_app, name="fleet")
-records_app = typer.Typer(help="The record of checks: list, show, export, verify (reproduce).", no_args_is_help=True)
+records_app = typer.Typer(short_help="The record of checks.",
+                          help="The record of checks: list, show, export, verify (reproduce).", no_args_is_help=True)
 app.add_typer(records_app, name="records")
 
-DbOpt = Annotated[Path | None, typer.Option("--db", help="Record database (default: $LOADCHECK_RECORDS or the user data folder).")]
+DbOpt = Annotated[Path | None, typer.Option("--db", metavar="FILE", help="Record database (default: $LOADCHECK_RECORDS or the user data folder).")]
 
 
-@fleet_app.command("list")
+@fleet_app.command("list", short_help="Each aircraft of a fleet folder.")
 @input_errors
 def fleet_list(
-    folder: Annotated[Path, typer.Argument(help="Folder of aircraft files (sub-folders searched too).")],
-    max_age: Annotated[int, typer.Option(min=1, help="Flag empty-weight records older than this many days.")] = 1095,
+    folder: Annotated[Path, typer.Argument(metavar="FOLDER", help="Folder of aircraft files (sub-folders searched too).")],
+    max_age: Annotated[int, typer.Option(min=1, metavar="DAYS", help="Flag empty-weight records older than this many days.")] = 1095,
     json_out: JsonOpt = False,
 ) -> None:
     """Each aircraft: registration, empty weight, record date, useful load, data fingerprint, problems.
@@ -46,6 +48,7 @@ def fleet_list(
 
     Example:
 
+    \b
       loadcheck fleet list sample_aircraft
     """
     from ..caution import PILOT_CAUTION
@@ -62,12 +65,13 @@ def fleet_list(
     raise typer.Exit(EXIT_INPUT if bad else EXIT_OK)
 
 
-@fleet_app.command("check")
+@fleet_app.command("check", short_help="Check and record a day of loadings.")
 @input_errors
 def fleet_check(
-    folder: Annotated[Path, typer.Argument(help="Folder of aircraft files (the fleet).")],
-    loadings: Annotated[Path, typer.Argument(help="Loadings: a CSV file (one row per flight) or a folder of loading files.")],
-    record: Annotated[Path | None, typer.Option(help="Record database (default: $LOADCHECK_RECORDS or the user data folder).")] = None,
+    folder: Annotated[Path, typer.Argument(metavar="FOLDER", help="Folder of aircraft files (the fleet).")],
+    loadings: Annotated[Path, typer.Argument(metavar="LOADINGS", help="Loadings: a CSV file (one row per flight) or a folder of loading files.")],
+    record: Annotated[Path | None, typer.Option(metavar="FILE",
+        help="Record database (default: $LOADCHECK_RECORDS or the user data folder).")] = None,
     no_record: Annotated[bool, typer.Option("--no-record", help="Do not record the checks.")] = False,
     json_out: Annotated[bool, typer.Option("--json", help="Print JSON Lines: one object per flight.")] = False,
     workers: Annotated[int | None, typer.Option(min=1, help="Processes checking flights (default: one per core).")] = None,
@@ -79,7 +83,9 @@ def fleet_check(
 
     Example:
 
-      loadcheck fleet check sample_aircraft sample_aircraft/fleet_day.csv --no-record
+    \b
+      loadcheck fleet check sample_aircraft \\
+        sample_aircraft/fleet_day.csv --no-record
     """
     from contextlib import nullcontext
 
@@ -96,7 +102,7 @@ def fleet_check(
     log = None if no_record else RecordLog(record or default_path())
     flights = []  # for the table only: one brief line per flight; JSON Lines are streamed
     counts = {"checked": 0, "out": 0, "bad": 0}
-    show_progress = err.is_terminal and not json_out
+    show_progress = err.is_terminal and not json_out and not os.environ.get("NO_COLOR")  # a bar is escape codes
     with (Progress(console=err, transient=True) if show_progress else nullcontext()) as progress:
         task = progress.add_task("checking", total=None) if progress is not None else None  # type: ignore[union-attr]
         try:
@@ -140,9 +146,9 @@ def _date(text: str | None, option: str) -> Any:
         raise InputError(Problem(option, "expected a date", value=text, expected="YYYY-MM-DD")) from None
 
 
-SinceOpt = Annotated[str | None, typer.Option(help="From this date (YYYY-MM-DD, UTC).")]
-UntilOpt = Annotated[str | None, typer.Option(help="To this date, inclusive.")]
-RegOpt = Annotated[str | None, typer.Option("--registration", "-r", help="Only this aircraft.")]
+SinceOpt = Annotated[str | None, typer.Option(metavar="DATE", help="From this date (YYYY-MM-DD, UTC).")]
+UntilOpt = Annotated[str | None, typer.Option(metavar="DATE", help="To this date, inclusive.")]
+RegOpt = Annotated[str | None, typer.Option("--registration", "-r", metavar="REGISTRATION", help="Only this aircraft.")]
 
 
 def _log(db: Path | None) -> Any:
@@ -154,53 +160,47 @@ def _log(db: Path | None) -> Any:
     return RecordLog(path)
 
 
-@records_app.command("list")
+@records_app.command("list", short_help="List recorded checks.")
 @input_errors
 def records_list(db: DbOpt = None, since: SinceOpt = None, until: UntilOpt = None, registration: RegOpt = None) -> None:
     """List recorded checks.
 
     Example:
 
-      loadcheck records list --registration DEMO-4T --since 2026-11-01
+    \b
+      loadcheck records list --registration DEMO-4T \\
+        --since 2026-11-01
     """
-    from rich.table import Table
+    from ..render.terminal import render_records
 
     with _log(db) as log:
-        table = Table(title=f"Records in {log.path}", title_justify="left")
-        for column in ("Id", "Checked (UTC)", "Registration", "Reference", "Pilot", "Result", "Data"):
-            table.add_column(column)
-        for r in log.find(since=_date(since, "--since"), until=_date(until, "--until"), registration=registration):
-            table.add_row(str(r.id), r.checked_at[:19], r.registration or "", r.reference or "", r.pilot or "",
-                          "within limits" if r.ok else "OUT OF LIMITS", r.fingerprint)
-    from ..caution import PILOT_CAUTION
-    from ..render.terminal import caution_text
-
-    console = _console()
-    console.print(table)
-    console.print(caution_text(PILOT_CAUTION))
+        found = list(log.find(since=_date(since, "--since"), until=_date(until, "--until"), registration=registration))
+        render_records(found, log.path, _console())
 
 
-@records_app.command("show")
+@records_app.command("show", short_help="One record: its inputs and result.")
 @input_errors
-def records_show(record_id: Annotated[int, typer.Argument(help="Record id.")], db: DbOpt = None) -> None:
+def records_show(record_id: Annotated[int, typer.Argument(metavar="ID", help="Record id.")], db: DbOpt = None) -> None:
     """Show one record: its inputs and its full result (JSON)."""
     with _log(db) as log:
         record = log.get(record_id)
     typer.echo(json.dumps({**record.summary(), "inputs": record.inputs, "result": record.result}, indent=2))
 
 
-@records_app.command("export")
+@records_app.command("export", short_help="Export records as CSV or JSON Lines.")
 @input_errors
 def records_export(
     db: DbOpt = None, since: SinceOpt = None, until: UntilOpt = None, registration: RegOpt = None,
-    format: Annotated[Literal["csv", "jsonl"], typer.Option(help="csv (one line per record) or jsonl (everything).")] = "jsonl",
-    out: Annotated[Path | None, typer.Option(help="Write to this file (default: standard output).")] = None,
+    format: Annotated[Literal["csv", "jsonl"], typer.Option(metavar="csv|jsonl", help="csv (one line per record) or jsonl (everything).")] = "jsonl",
+    out: Annotated[Path | None, typer.Option(metavar="FILE", help="Write to this file (default: standard output).")] = None,
 ) -> None:
     """Export records between dates or for one registration, as CSV or JSON Lines.
 
     Example:
 
-      loadcheck records export --format csv --since 2026-11-01 --out november.csv
+    \b
+      loadcheck records export --format csv \\
+        --since 2026-11-01 --out november.csv
     """
     from ..caution import PILOT_CAUTION
     from ..records import export_text
@@ -220,10 +220,11 @@ def records_export(
         _console(stderr=True).print(caution_text(PILOT_CAUTION))
 
 
-@records_app.command("verify")
+@records_app.command("verify", short_help="Recompute a record; does it match?")
 @input_errors
 def records_verify(
-    record_id: Annotated[int | None, typer.Argument(help="Record id (with --current: optional, else every record the filters select).")] = None,
+    record_id: Annotated[int | None, typer.Argument(
+        metavar="ID", help="Record id (with --current: optional, else every record the filters select).")] = None,
     db: DbOpt = None,
     current: Annotated[Path | None, typer.Option(help="Fleet folder: check the recorded loadings with its current aircraft data.")] = None,
     since: SinceOpt = None, until: UntilOpt = None, registration: RegOpt = None,

@@ -29,11 +29,11 @@ from .common import (
 WriteOpt = Annotated[bool, typer.Option("--write", help="Make the new record current and keep the old one in the history.")]
 YesOpt = Annotated[bool, typer.Option("--yes", "-y", help="With --write: confirmed, do not ask (needed when not run from a terminal).")]
 ForceOpt = Annotated[bool, typer.Option("--force", help="With --write: write a record the checks refuse; kept in the history.")]
-ByOpt = Annotated[str | None, typer.Option("--by", help="Who made the record (default: the file's weighed_by or by).")]
-WhyOpt = Annotated[str | None, typer.Option("--why", help="Why, kept in the history (default: the file's note or description).")]
-SheetOpt = Annotated[Path | None, typer.Option(help="Write a printable record (.html) to sign.")]
-OccupantOpt = Annotated[str | None, typer.Option(help="Standard occupant weight (default: the aircraft file's, else 170 lb).")]
-MetoOpt = Annotated[float | None, typer.Option(help="Maximum-except-takeoff power [hp] for the minimum fuel (default: the file's).")]
+ByOpt = Annotated[str | None, typer.Option("--by", metavar="NAME", help="Who made the record (default: the file's weighed_by or by).")]
+WhyOpt = Annotated[str | None, typer.Option("--why", metavar="TEXT", help="Why, kept in the history (default: the file's note or description).")]
+SheetOpt = Annotated[Path | None, typer.Option(metavar="FILE.html", help="Write a printable record (.html) to sign.")]
+OccupantOpt = Annotated[str | None, typer.Option(metavar="WEIGHT", help="Standard occupant weight (default: the aircraft file's, else 170 lb).")]
+MetoOpt = Annotated[float | None, typer.Option(metavar="HP", help="Maximum-except-takeoff power [hp] for the minimum fuel (default: the file's).")]
 
 
 def _interactive() -> bool:
@@ -99,11 +99,11 @@ def _options_named(options: dict[str, str]) -> Iterator[None]:
         raise type(error)(problems, error.file) from None
 
 
-@app.command()
+@app.command(short_help="Empty weight and CG from scale readings.")
 @input_errors
 def weigh(
-    aircraft: Annotated[Path, typer.Argument(help="Aircraft file (TOML).")],
-    readings: Annotated[Path, typer.Argument(help="Readings file (TOML): weighing points and corrections.")],
+    aircraft: Annotated[Path, typer.Argument(metavar="AIRCRAFT", help="Aircraft file (TOML).")],
+    readings: Annotated[Path, typer.Argument(metavar="READINGS", help="Readings file (TOML): weighing points and corrections.")],
     write: WriteOpt = False,
     yes: YesOpt = False,
     force: ForceOpt = False,
@@ -120,18 +120,21 @@ def weigh(
 
     Example:
 
-      loadcheck weigh sample_aircraft/trainer4/aircraft.toml sample_aircraft/trainer4/weighing.toml
+    \b
+      loadcheck weigh \\
+        sample_aircraft/trainer4/aircraft.toml \\
+        sample_aircraft/trainer4/weighing.toml
     """
     from ..render.terminal import render_weighing
 
     _new_empty_weight(aircraft, readings, "weighing", render_weighing, write, yes, force, by, why, sheet, json_out)
 
 
-@app.command()
+@app.command(short_help="Empty weight after equipment changes.")
 @input_errors
 def alter(
-    aircraft: Annotated[Path, typer.Argument(help="Aircraft file (TOML).")],
-    changes: Annotated[Path, typer.Argument(help="Changes file (TOML): items installed, removed, relocated.")],
+    aircraft: Annotated[Path, typer.Argument(metavar="AIRCRAFT", help="Aircraft file (TOML).")],
+    changes: Annotated[Path, typer.Argument(metavar="CHANGES", help="Changes file (TOML): items installed, removed, relocated.")],
     write: WriteOpt = False,
     yes: YesOpt = False,
     force: ForceOpt = False,
@@ -147,24 +150,29 @@ def alter(
 
     Example:
 
-      loadcheck alter sample_aircraft/trainer4/aircraft.toml sample_aircraft/trainer4/changes.toml
+    \b
+      loadcheck alter \\
+        sample_aircraft/trainer4/aircraft.toml \\
+        sample_aircraft/trainer4/changes.toml
     """
     from ..render.terminal import render_alteration
 
     _new_empty_weight(aircraft, changes, "alteration", render_alteration, write, yes, force, by, why, sheet, json_out)
 
 
-@app.command()
+@app.command(short_help="The empty-weight records, oldest first.")
 @input_errors
 def history(
-    aircraft: Annotated[Path, typer.Argument(help="Aircraft file (TOML).")],
+    aircraft: Annotated[Path, typer.Argument(metavar="AIRCRAFT", help="Aircraft file (TOML).")],
     json_out: JsonOpt = False,
 ) -> None:
     """List the aircraft's empty-weight records, oldest first, and the current one.
 
     Example:
 
-      loadcheck history sample_aircraft/trainer4/aircraft.toml
+    \b
+      loadcheck history \\
+        sample_aircraft/trainer4/aircraft.toml
     """
     from ..empty_record import history as listing
     from ..files import load_aircraft
@@ -178,10 +186,10 @@ def history(
         render_history(result, _console())
 
 
-@app.command()
+@app.command(short_help="Most forward and most rearward loadings.")
 @input_errors
 def extremes(
-    aircraft: Annotated[Path, typer.Argument(help="Aircraft file (TOML).")],
+    aircraft: Annotated[Path, typer.Argument(metavar="AIRCRAFT", help="Aircraft file (TOML).")],
     category: CategoryOpt = None,
     occupant: OccupantOpt = None,
     meto: MetoOpt = None,
@@ -193,7 +201,9 @@ def extremes(
 
     Example:
 
-      loadcheck extremes sample_aircraft/tandem2/aircraft.toml
+    \b
+      loadcheck extremes \\
+        sample_aircraft/tandem2/aircraft.toml
     """
     from ..extremes import extremes as compute
     from ..files import load_aircraft
@@ -212,10 +222,10 @@ def extremes(
     raise typer.Exit(EXIT_OK if result.ok else EXIT_LIMIT)
 
 
-@app.command()
+@app.command(short_help="The loading schedule (AC 43.13-1B 10-18).")
 @input_errors
 def schedule(
-    aircraft: Annotated[Path, typer.Argument(help="Aircraft file (TOML).")],
+    aircraft: Annotated[Path, typer.Argument(metavar="AIRCRAFT", help="Aircraft file (TOML).")],
     category: CategoryOpt = None,
     occupant: OccupantOpt = None,
     json_out: JsonOpt = False,
@@ -228,7 +238,9 @@ def schedule(
 
     Example:
 
-      loadcheck schedule sample_aircraft/twin6/aircraft.toml
+    \b
+      loadcheck schedule \\
+        sample_aircraft/twin6/aircraft.toml
     """
     from ..files import load_aircraft
     from ..schedule import loading_schedule

@@ -34,7 +34,7 @@ from .common import (
 )
 
 
-@app.command()
+@app.command(short_help="Check a loading against every limit.")
 @input_errors
 def check(
     aircraft: AircraftArg,
@@ -49,20 +49,30 @@ def check(
     reserve: ReserveOpt = None,
     category: CategoryOpt = None,
     json_out: JsonOpt = False,
-    chart: Annotated[Path | None, typer.Option(help="Write the envelope chart: .png, .svg or .pdf.")] = None,
-    sheet: Annotated[Path | None, typer.Option(help="Write a printable load sheet (.html).")] = None,
+    chart: Annotated[Path | None, typer.Option(metavar="FILE", help="Write the envelope chart: .png, .svg or .pdf.")] = None,
+    sheet: Annotated[Path | None, typer.Option(metavar="FILE.html", help="Write a printable load sheet (.html).")] = None,
     plot: Annotated[bool, typer.Option("--plot", help="Draw a small text plot of the envelope under the tables.")] = False,
-    record: Annotated[str | None, typer.Option(help="Record the check in this SQLite file ('default': the user data folder).")] = None,
+    record: Annotated[str | None, typer.Option(metavar="FILE",
+        help="Record the check in this SQLite file ('default': the user data folder).")] = None,
 ) -> None:
     """Check a loading: moment table, ramp/takeoff/landing/zero-fuel conditions, the burn path.
 
     Examples:
 
-      loadcheck check sample_aircraft/trainer4/aircraft.toml sample_aircraft/trainer4/within.toml
+    \b
+      loadcheck check \\
+        sample_aircraft/trainer4/aircraft.toml \\
+        sample_aircraft/trainer4/within.toml
 
-      loadcheck check sample_aircraft/trainer4/aircraft.toml --load front=340 --load rear=150 --fuel mains=tabs --taxi 1.2 --trip 18
+    \b
+      loadcheck check \\
+        sample_aircraft/trainer4/aircraft.toml \\
+        --load front=340 --load rear=150 --fuel mains=tabs \\
+        --taxi 1.2 --trip 18
 
-      loadcheck check sample_aircraft/twin6/leaves_path.toml --json
+    \b
+      loadcheck check \\
+        sample_aircraft/twin6/leaves_path.toml --json
 
     Exit status: 0 within limits, 1 a limit is exceeded, 2 the input could not be used.
     """
@@ -79,12 +89,13 @@ def check(
     else:
         from ..render.terminal import render_check
 
+        console = _console()
         lines: list[str] = []
         if plot:
             from ..render.textplot import text_plot
 
-            lines = text_plot(inputs.aircraft, result)
-        render_check(result, _console(), lines)
+            lines = text_plot(inputs.aircraft, result, width=console.width)
+        render_check(result, console, lines, aircraft=inputs.aircraft)
     raise typer.Exit(EXIT_OK if result.ok else EXIT_LIMIT)
 
 
@@ -111,30 +122,34 @@ def _write_pictures(inputs: Any, result: Any, chart: Path | None, sheet: Path | 
 
     if sheet is not None and sheet.suffix.lower() not in (".html", ".htm"):
         raise InputError(Problem("--sheet", "a load sheet is an HTML file", value=str(sheet), expected="a name ending in .html"))
-    figure = check_figure(inputs.aircraft, result, inputs.label)
     err = _console(stderr=True)
     if chart is not None:
-        save_figure(figure, chart)
+        save_figure(check_figure(inputs.aircraft, result, inputs.label), chart)
         err.print(f"chart written: {chart}", markup=False)
     if sheet is not None:
         from ..render.sheet import load_sheet_html
 
-        write_atomic(sheet, load_sheet_html(result, figure_svg(figure), loading_label=inputs.label))
+        page_chart = figure_svg(check_figure(inputs.aircraft, result, inputs.label, compact=True))
+        write_atomic(sheet, load_sheet_html(result, page_chart, loading_label=inputs.label, loading=inputs.loading,
+                                            pilot=inputs.given.pilot if inputs.given is not None else None,
+                                            aircraft=inputs.aircraft))
         err.print(f"load sheet written: {sheet}", markup=False)
 
 
-@app.command()
+@app.command(short_help="An aircraft's data and envelopes.")
 @input_errors
 def show(
-    aircraft: Annotated[Path, typer.Argument(help="Aircraft file (TOML).")],
-    chart: Annotated[Path | None, typer.Option(help="Write a chart of the envelopes: .png, .svg or .pdf.")] = None,
-    category: Annotated[str | None, typer.Option("--category", "-c", help="Category to draw in full.")] = None,
+    aircraft: Annotated[Path, typer.Argument(metavar="AIRCRAFT", help="Aircraft file (TOML).")],
+    chart: Annotated[Path | None, typer.Option(metavar="FILE", help="Write a chart of the envelopes: .png, .svg or .pdf.")] = None,
+    category: Annotated[str | None, typer.Option("--category", "-c", metavar="CATEGORY", help="Category to draw in full.")] = None,
 ) -> None:
     """Show an aircraft's data: units, empty weight, limits, stations, tanks, envelopes.
 
     Example:
 
-      loadcheck show sample_aircraft/twin6/aircraft.toml --chart twin-envelope.png
+    \b
+      loadcheck show sample_aircraft/twin6/aircraft.toml \\
+        --chart twin-envelope.png
     """
     from ..caution import PILOT_CAUTION
     from ..files import load_aircraft
@@ -150,10 +165,10 @@ def show(
         _console(stderr=True).print(f"chart written: {chart}", markup=False)
 
 
-@app.command()
+@app.command(short_help="Check files; list every problem.")
 @input_errors
 def validate(
-    files: Annotated[list[Path], typer.Argument(help="Aircraft and loading files to check.")],
+    files: Annotated[list[Path], typer.Argument(metavar="FILES", help="Aircraft and loading files to check.", show_default=False)],
 ) -> None:
     """Check aircraft and loading files and report every problem at once.
 
@@ -162,6 +177,7 @@ def validate(
 
     Example:
 
+    \b
       loadcheck validate sample_aircraft/*/*.toml
     """
     from ..files import validate_file
@@ -184,15 +200,17 @@ def validate(
     raise typer.Exit(EXIT_INPUT if failed else EXIT_OK)
 
 
-@app.command()
+@app.command(short_help="JSON Schema of the files, for editors.")
 @input_errors
 def schema(
-    kind: Annotated[Literal["aircraft", "loading", "all"], typer.Argument(help="Which file's schema.")] = "all",
+    kind: Annotated[Literal["aircraft", "loading", "all"], typer.Argument(metavar="KIND",
+        help="Which file's schema: aircraft, loading or all.")] = "all",
 ) -> None:
     """Print the JSON Schema of the aircraft and loading files, for editors.
 
     Example:
 
+    \b
       loadcheck schema aircraft > aircraft.schema.json
     """
     from ..aircraft import Aircraft
@@ -203,6 +221,7 @@ def schema(
 
 
 plan_app = typer.Typer(
+    short_help="Planning: fuel, trip, payload, ballast, shift.",
     help=(
         "Planning answers: most fuel, longest trip, most payload, fuel to leave behind, least ballast, "
         "weight shift, fuel against payload. Each honours every limit the check enforces.\n\n"
@@ -212,8 +231,8 @@ plan_app = typer.Typer(
 )
 app.add_typer(plan_app, name="plan")
 
-StationOpt = Annotated[str | None, typer.Option("--station", "-s", help="Station id.")]
-FillOpt = Annotated[str | None, typer.Option(help="Tanks in the order they are filled: mains,aux (default: reverse burn order).")]
+StationOpt = Annotated[str | None, typer.Option("--station", "-s", metavar="STATION", help="Station id.")]
+FillOpt = Annotated[str | None, typer.Option(metavar="TANKS", help="Tanks in the order they are filled: mains,aux (default: reverse burn order).")]
 
 
 def _fill(fill: str | None) -> list[str] | None:
@@ -230,7 +249,7 @@ def _answer(result: Any, json_out: bool) -> None:
     raise typer.Exit(EXIT_OK if result.feasible else EXIT_LIMIT)
 
 
-@plan_app.command("fuel")
+@plan_app.command("fuel", short_help="The most fuel at engine start.")
 @input_errors
 def plan_fuel(
     aircraft: AircraftArg, loading: LoadingArg = None, load: LoadOpt = [], fuel: FuelOpt = [],  # noqa: B006
@@ -242,7 +261,9 @@ def plan_fuel(
 
     Example:
 
-      loadcheck plan fuel sample_aircraft/trainer4/within.toml
+    \b
+      loadcheck plan fuel \\
+        sample_aircraft/trainer4/within.toml
     """
     from ..planning import most_fuel
 
@@ -250,20 +271,23 @@ def plan_fuel(
     _answer(most_fuel(inputs.aircraft, inputs.loading, fill=_fill(fill)), json_out)
 
 
-@plan_app.command("trip")
+@plan_app.command("trip", short_help="The longest trip at a burn rate.")
 @input_errors
 def plan_trip(
     aircraft: AircraftArg, loading: LoadingArg = None, load: LoadOpt = [], fuel: FuelOpt = [],  # noqa: B006
     taxi: TaxiOpt = None, order: OrderOpt = None, category: CategoryOpt = None, fill: FillOpt = None,
-    rate: Annotated[str | None, typer.Option(help="Fuel used per hour [fuel volume unit].")] = None,
-    reserve: Annotated[str, typer.Option(help="Fuel to land with [fuel volume unit].")] = "0",
+    rate: Annotated[str | None, typer.Option(metavar="AMOUNT", help="Fuel used per hour [fuel volume unit].")] = None,
+    reserve: Annotated[str, typer.Option(metavar="AMOUNT", help="Fuel to land with [fuel volume unit].")] = "0",
     json_out: JsonOpt = False,
 ) -> None:
     """The longest trip the most fuel allows at a burn rate, landing with a reserve.
 
     Example:
 
-      loadcheck plan trip sample_aircraft/trainer4/within.toml --rate 9.5 --reserve 8
+    \b
+      loadcheck plan trip \\
+        sample_aircraft/trainer4/within.toml --rate 9.5 \\
+        --reserve 8
     """
     from ..planning import longest_trip
     from ..units import read_amount, read_rate
@@ -275,7 +299,7 @@ def plan_trip(
     _answer(result, json_out)
 
 
-@plan_app.command("payload")
+@plan_app.command("payload", short_help="The most weight at a station.")
 @input_errors
 def plan_payload(
     aircraft: AircraftArg, loading: LoadingArg = None, load: LoadOpt = [], fuel: FuelOpt = [],  # noqa: B006
@@ -287,7 +311,10 @@ def plan_payload(
 
     Example:
 
-      loadcheck plan payload sample_aircraft/trainer4/within.toml --station bag1
+    \b
+      loadcheck plan payload \\
+        sample_aircraft/trainer4/within.toml \\
+        --station bag1
     """
     from ..planning import most_payload
 
@@ -295,20 +322,23 @@ def plan_payload(
     _answer(most_payload(inputs.aircraft, inputs.loading, _need(station, "--station")), json_out)
 
 
-@plan_app.command("leave")
+@plan_app.command("leave", short_help="Fuel to leave behind for a payload.")
 @input_errors
 def plan_leave(
     aircraft: AircraftArg, loading: LoadingArg = None, load: LoadOpt = [], fuel: FuelOpt = [],  # noqa: B006
     taxi: TaxiOpt = None, trip: TripOpt = None, trip_time: TripTimeOpt = None, rate: RateOpt = None,
     order: OrderOpt = None, reserve: ReserveOpt = None, category: CategoryOpt = None, station: StationOpt = None,
-    payload: Annotated[str | None, typer.Option(help="Weight to carry at the station (mass, or with a unit).")] = None,
+    payload: Annotated[str | None, typer.Option(metavar="WEIGHT", help="Weight to carry at the station (mass, or with a unit).")] = None,
     fill: FillOpt = None, json_out: JsonOpt = False,
 ) -> None:
     """The fuel to leave behind to carry a payload at a station.
 
     Example:
 
-      loadcheck plan leave sample_aircraft/twin6/within.toml --station row3 --payload 340
+    \b
+      loadcheck plan leave \\
+        sample_aircraft/twin6/within.toml --station row3 \\
+        --payload 340
     """
     from ..planning import fuel_to_leave
     from ..units import read_amount
@@ -318,7 +348,7 @@ def plan_leave(
     _answer(fuel_to_leave(inputs.aircraft, inputs.loading, _need(station, "--station"), weight, fill=_fill(fill)), json_out)
 
 
-@plan_app.command("ballast")
+@plan_app.command("ballast", short_help="The least ballast that is enough.")
 @input_errors
 def plan_ballast(
     aircraft: AircraftArg, loading: LoadingArg = None, load: LoadOpt = [], fuel: FuelOpt = [],  # noqa: B006
@@ -330,7 +360,9 @@ def plan_ballast(
 
     Example:
 
-      loadcheck plan ballast sample_aircraft/tandem2/aft_heavy.toml
+    \b
+      loadcheck plan ballast \\
+        sample_aircraft/tandem2/aft_heavy.toml
     """
     from ..planning import least_ballast
 
@@ -338,23 +370,27 @@ def plan_ballast(
     _answer(least_ballast(inputs.aircraft, inputs.loading, station), json_out)
 
 
-@plan_app.command("shift")
+@plan_app.command("shift", short_help="Weight to move between stations.")
 @input_errors
 def plan_shift(
     aircraft: AircraftArg, loading: LoadingArg = None, load: LoadOpt = [], fuel: FuelOpt = [],  # noqa: B006
     taxi: TaxiOpt = None, trip: TripOpt = None, trip_time: TripTimeOpt = None, rate: RateOpt = None,
     order: OrderOpt = None, reserve: ReserveOpt = None, category: CategoryOpt = None,
-    source: Annotated[str | None, typer.Option("--from", help="Station the weight comes from.")] = None,
-    to: Annotated[str | None, typer.Option("--to", help="Station it goes to.")] = None,
-    target: Annotated[str | None, typer.Option(help="CG to reach (arm, or with a unit); default: back within limits.")] = None,
-    condition: Annotated[str, typer.Option(help="Condition whose CG --target sets: ramp, takeoff, landing, zero_fuel.")] = "takeoff",
+    source: Annotated[str | None, typer.Option("--from", metavar="STATION", help="Station the weight comes from.")] = None,
+    to: Annotated[str | None, typer.Option("--to", metavar="STATION", help="Station it goes to.")] = None,
+    target: Annotated[str | None, typer.Option(metavar="ARM", help="CG to reach (arm, or with a unit); default: back within limits.")] = None,
+    condition: Annotated[str, typer.Option(metavar="CONDITION",
+        help="Condition whose CG --target sets: ramp, takeoff, landing, zero_fuel.")] = "takeoff",
     json_out: JsonOpt = False,
 ) -> None:
     """Weight to move from one station to another: to a target CG, or back within limits.
 
     Example:
 
-      loadcheck plan shift sample_aircraft/tandem2/aft_heavy.toml --from baggage --to front
+    \b
+      loadcheck plan shift \\
+        sample_aircraft/tandem2/aft_heavy.toml \\
+        --from baggage --to front
     """
     from ..planning import weight_shift
     from ..units import read_amount
@@ -368,22 +404,25 @@ def plan_shift(
     _answer(result, json_out)
 
 
-@plan_app.command("table")
+@plan_app.command("table", short_help="Ramp fuel against payload.")
 @input_errors
 def plan_table(
     aircraft: AircraftArg, loading: LoadingArg = None, load: LoadOpt = [], fuel: FuelOpt = [],  # noqa: B006
     taxi: TaxiOpt = None, trip: TripOpt = None, trip_time: TripTimeOpt = None, rate: RateOpt = None,
     order: OrderOpt = None, reserve: ReserveOpt = None, category: CategoryOpt = None, station: StationOpt = None,
-    steps: Annotated[int, typer.Option(min=2, max=201, help="Rows of payload.")] = 11,
+    steps: Annotated[int, typer.Option(min=2, max=201, metavar="ROWS", help="Rows of payload.")] = 11,
     fill: FillOpt = None,
-    chart: Annotated[Path | None, typer.Option(help="Also draw it: .png, .svg or .pdf.")] = None,
+    chart: Annotated[Path | None, typer.Option(metavar="FILE", help="Also draw it: .png, .svg or .pdf.")] = None,
     json_out: JsonOpt = False,
 ) -> None:
     """Allowed ramp fuel against payload added at a station, as a table (and a chart).
 
     Example:
 
-      loadcheck plan table sample_aircraft/trainer4/within.toml --station rear --chart fuel-payload.png
+    \b
+      loadcheck plan table \\
+        sample_aircraft/trainer4/within.toml \\
+        --station rear --chart fuel-payload.png
     """
     from ..planning import fuel_payload_table
 
@@ -393,7 +432,7 @@ def plan_table(
     if chart is not None:
         from ..render.chart import fuel_payload_figure, save_figure
 
-        save_figure(fuel_payload_figure(inputs.aircraft, table.rows, name), chart)
+        save_figure(fuel_payload_figure(inputs.aircraft, table), chart)
         _console(stderr=True).print(f"chart written: {chart}", markup=False)
     if json_out:
         typer.echo(table.to_json())

@@ -1,19 +1,26 @@
 """A printable load sheet: one self-contained HTML page (no network fetches).
 
-The page holds the aircraft and registration, the aircraft data's fingerprint, the date
-and time, the moment table, the conditions with their margins, the burn path, the
-findings, the chart as inline SVG, the caution, and blank lines for the pilot's name and
-signature. A print stylesheet fits it to A4 or US letter.
+The load sheet holds the aircraft and registration, the aircraft data's fingerprint, the
+date and time, the verdict, the moment table with its total, the occupants' seats, the fuel
+plan (taxi, trip, reserve, burn order, fuel at each condition), the conditions with their
+margins, the burn path, the findings, the chart as inline SVG, the caution, and lines for
+the pilot's name, signature and date; its print stylesheet keeps it to one page of A4 or US
+letter (tests/test_sheet_print.py prints it through a headless browser to check).
 """
 
 from __future__ import annotations
 
 import datetime as dt
+import re
 from html import escape
-from typing import Any
+from typing import TYPE_CHECKING, Any
 
-from ..display import fmt
+from ..display import fmt, unit_label
 from ..results import CheckResult
+
+if TYPE_CHECKING:
+    from ..aircraft import Aircraft
+    from ..loading import ResolvedLoading
 
 __all__ = ["load_sheet_html", "mechanic_sheet_html"]
 
@@ -43,10 +50,56 @@ td.n { text-align: right; font-variant-numeric: tabular-nums; }
 """
 
 
+_SHEET_STYLE = """
+body { font-family: "DejaVu Sans", Arial, Helvetica, sans-serif; font-size: 9pt; color: #111; margin: 1.5em; }
+h1 { font-size: 13pt; margin: 0 0 .15em 0; }
+h2 { font-size: 9.5pt; margin: .55em 0 .2em 0; border-bottom: 1px solid #999; }
+table { border-collapse: collapse; margin: .1em 0; }
+th, td { border: 1px solid #999; padding: .05em .35em; vertical-align: top; }
+th { font-weight: 600; background: #f0f0f0; }
+td.n { text-align: right; font-variant-numeric: tabular-nums; white-space: nowrap; }
+tr.total td { font-weight: bold; border-top: 2px solid #111; }
+.meta { display: grid; grid-template-columns: repeat(4, auto); gap: 0 1.2em; justify-content: start; }
+.meta span.k { color: #444; }
+.cols { display: grid; grid-template-columns: auto auto; gap: 0 1.5em; justify-content: start; align-items: start; }
+.verdict { font-weight: bold; font-size: 11pt; padding: .2em .6em; border: 2px solid #111; display: inline-block; margin: .35em 0 0 0; }
+.limit { font-weight: bold; }
+ul.findings { margin: .1em 0; padding-left: 1.3em; }
+.note { font-size: 8pt; color: #333; margin: .15em 0; }
+.chart { break-inside: avoid; page-break-inside: avoid; }
+.chart svg { display: block; width: 100%; height: 82mm; }
+.caution { margin: .5em 0 0 0; font-style: italic; border-top: 1px solid #999; padding-top: .3em; }
+.sign { display: grid; grid-template-columns: repeat(3, 1fr); gap: 0 2em; margin-top: 1.4em; }
+.sign div { border-top: 1px solid #111; padding-top: .15em; }
+@page { size: auto; margin: 10mm; }
+@media print {
+  /* one page: the chart takes the height the rest leaves (100vh is the printed page's area) */
+  html, body { height: 100%; }
+  body { margin: 0; font-size: 8pt; display: flex; flex-direction: column; height: 100vh; }
+  h1 { font-size: 12pt; }
+  table, .cols, .sign, .verdict { break-inside: avoid; page-break-inside: avoid; }
+  .chart { flex: 1 1 0; min-height: 45mm; display: flex; flex-direction: column; }
+  .chart svg { flex: 1 1 0; height: auto; min-height: 0; }
+  .meta, .cols, .sign, .caution, .verdict, table, h1, h2, p, ul { flex: none; }
+  .verdict { align-self: flex-start; }
+}
+"""
+
+
 def _n(value: float | None, unit: str, direction: str = "nearest") -> str:
     if value is None:
         return ""
     return escape(fmt(value, unit, direction, with_unit=False))  # type: ignore[arg-type]
+
+
+def _cells(cells: list[str], numeric_from: int = 1, attrs: str = "") -> str:
+    """A row: the first ``numeric_from`` cells as words, the others as numbers (already escaped)."""
+    return f"<tr{attrs}>" + "".join(f"<td class='n'>{c}</td>" if i >= numeric_from else f"<td>{c}</td>"
+                                     for i, c in enumerate(cells)) + "</tr>"
+
+
+def _head(cells: list[str]) -> str:
+    return "<tr>" + "".join(f"<th>{escape(c)}</th>" for c in cells) + "</tr>"
 
 
 def load_sheet_html(
@@ -55,71 +108,87 @@ def load_sheet_html(
     *,
     loading_label: str | None = None,
     when: dt.datetime | None = None,
+    loading: ResolvedLoading | None = None,
+    pilot: str | None = None,
+    aircraft: Aircraft | None = None,
 ) -> str:
-    """The load sheet of a check as one HTML document.
+    """The load sheet of a check as one HTML document, laid out to print on one page of
+    A4 or US letter.
 
     Parameters
     ----------
     result : the check
-    chart_svg : an SVG document to embed (its XML header is dropped)
+    chart_svg : an SVG document to embed (its XML header, size and metadata are dropped; the
+        page sizes it)
     loading_label : the loading's label, if any
     when : time of the check (default: now, local time)
+    loading : the loading as checked, for the fuel plan (taxi, trip, reserve, burn order)
+    pilot : the pilot in command named in the loading, if any
+    aircraft : the aircraft checked; where its envelope is read as moment / 1000, the moment
+        table and the conditions show that column too
+
+    The page holds the aircraft, its data fingerprint, the verdict, the moment table with its
+    total, the occupants' seats, the fuel plan with the fuel at each condition, the conditions
+    with their margins, the burn path, the findings, the chart, the caution and the signature
+    block. Figures are rounded as in the terminal (margins down, excesses up).
     """
     units = result.units
     info = result.aircraft
     when = when or dt.datetime.now().astimezone()
-    title = f"Load sheet: {info.name}" + (f" ({info.registration})" if info.registration else "")
+    title = f"Load sheet: {info.name}" + (f" · {info.registration}" if info.registration else "")
+    moment = unit_label(units.moment)
+    meta = [
+        ("Registration", info.registration or ""), ("Category", result.category),
+        ("Aircraft data", info.fingerprint), ("Empty weight of", info.empty_weight_date or "not dated"),
+        ("Loading", loading_label or ""), ("Checked", when.strftime("%Y-%m-%d %H:%M %Z").strip()),
+    ]
+    if pilot:
+        meta.append(("Pilot in command", pilot))
+    from .terminal import moment_axis, scaled_moment, scaled_moment_header
+
+    scaled = moment_axis(aircraft, result.category)
+    count = len(result.limits_exceeded)
+    verdict = "WITHIN LIMITS" if result.ok else f"OUT OF LIMITS: {count} {'limit' if count == 1 else 'limits'} exceeded"
     parts = [
         "<!DOCTYPE html>",
         '<html lang="en"><head><meta charset="utf-8">',
         f"<title>{escape(title)}</title>",
-        f"<style>{_STYLE}</style></head><body>",
+        f"<style>{_SHEET_STYLE}</style></head><body>",
         f"<h1>{escape(title)}</h1>",
-        '<table class="meta">',
-        f"<tr><td>Aircraft</td><td>{escape(info.name)}</td></tr>",
-        f"<tr><td>Registration</td><td>{escape(info.registration or '')}</td></tr>",
-        f"<tr><td>Aircraft data fingerprint</td><td><code>{escape(info.fingerprint)}</code></td></tr>",
-        f"<tr><td>Empty-weight record of</td><td>{escape(info.empty_weight_date or 'not dated')}</td></tr>",
-        f"<tr><td>Category</td><td>{escape(result.category)}</td></tr>",
-        f"<tr><td>Loading</td><td>{escape(loading_label or '')}</td></tr>",
-        f"<tr><td>Checked</td><td>{escape(when.strftime('%Y-%m-%d %H:%M %Z').strip())}</td></tr>",
-        "</table>",
-        f'<p class="verdict">{"WITHIN LIMITS" if result.ok else "OUT OF LIMITS"}</p>',
-        "<h2>Moment table (engine start)</h2>",
-        "<table><tr><th>Item</th>"
-        f"<th>Weight ({units.mass})</th><th>Arm ({units.arm})</th><th>Moment ({units.moment})</th></tr>",
+        "<div class='meta'>" + "".join(f"<span><span class='k'>{escape(k)}:</span> {escape(v)}</span>" for k, v in meta)
+        + "</div>",
+        f"<p class='verdict' id='verdict'>{escape(verdict)}</p>",
+        "<div class='cols'><div>",
+        "<h2>Moment table (engine start)</h2><table id='moments'>",
+        _head(["Item", f"Weight ({units.mass})", f"Arm ({units.arm})", f"Moment ({moment})"]
+              + ([scaled_moment_header(scaled, units.moment)] if scaled is not None else [])),
     ]
+
+    def scaled_cell(weight: float, value: float) -> list[str]:
+        if scaled is None:
+            return []
+        return [escape(fmt(scaled_moment(scaled, weight, value), units.moment, with_unit=False, places=1))]
+
     for item in result.items:
         name = item.name + (f" ({fmt(item.fuel_volume, units.fuel_volume)})" if item.fuel_volume is not None else "")
-        parts.append(
-            f"<tr><td>{escape(name)}</td><td class='n'>{_n(item.weight, units.mass)}</td>"
-            f"<td class='n'>{_n(item.arm, units.arm)}</td><td class='n'>{_n(item.moment, units.moment)}</td></tr>"
-        )
-    parts.append("</table>")
-
-    mac = any(c.mac_percent is not None for c in result.conditions)
-    lateral = any(c.lateral_arm is not None for c in result.conditions)
-    head = ["Condition", f"Fuel ({units.fuel_volume})", f"Weight ({units.mass})", f"CG ({units.arm})"]
-    head += ["CG (% MAC)"] if mac else []
-    head += [f"Lateral CG ({units.arm}, + right)"] if lateral else []
-    head += [f"Fwd margin ({units.arm})", f"Aft margin ({units.arm})", f"Weight margin ({units.mass})", "Result"]
-    parts.append("<h2>Conditions</h2><table><tr>" + "".join(f"<th>{escape(h)}</th>" for h in head) + "</tr>")
-    for c in result.conditions:
-        cells = [
-            escape(_NAMES[c.condition]), _n(c.fuel, units.fuel_volume), _n(c.weight, units.mass), _n(c.arm, units.arm)
-        ]
-        cells += [_n(c.mac_percent, "%MAC")] if mac else []
-        cells += [_n(c.lateral_arm, units.arm)] if lateral else []
-        cells += [
-            _n(c.margins.forward, units.arm, "down"), _n(c.margins.aft, units.arm, "down"),
-            _n(c.margins.weight, units.mass, "down"), "within" if c.ok else "OUTSIDE",
-        ]
-        row = "".join(
-            f"<td class='n' data-condition='{c.condition}'>{cell}</td>" if 0 < i < len(cells) - 1 else f"<td>{cell}</td>"
-            for i, cell in enumerate(cells)
-        )
-        parts.append(f"<tr id='condition-{c.condition}'>{row}</tr>")
-    parts.append("</table><p>Margins are rounded down; an excess is rounded up.</p>")
+        parts.append(_cells([escape(name), _n(item.weight, units.mass), _n(item.arm, units.arm), _n(item.moment, units.moment)]
+                            + scaled_cell(item.weight, item.moment)))
+    ramp = result.condition("ramp")
+    parts.append(_cells(["Total at ramp", _n(ramp.weight, units.mass), _n(ramp.arm, units.arm), _n(ramp.moment, units.moment)]
+                        + scaled_cell(ramp.weight, ramp.moment), attrs=" class='total' id='total'"))
+    parts.append("</table><p class='note'>Each figure is rounded on its own; the total is the sum of the unrounded "
+                 "figures.</p></div><div>")
+    seats = [i for i in result.items if i.kind == "seat"]
+    parts.append("<h2>Occupants</h2>")
+    if seats:
+        parts.append("<table id='occupants'>" + _head(["Seat", f"Weight ({units.mass})"]))
+        parts += [_cells([escape(i.name), _n(i.weight, units.mass)]) for i in seats]
+        parts.append("</table>")
+    else:
+        parts.append("<p>No one in a seat station.</p>")
+    parts.append(_fuel_plan(result, loading))
+    parts.append("</div></div>")
+    parts.append(_conditions(result, scaled))
 
     path = result.burn_path
     parts.append("<h2>Fuel burn, takeoff to landing</h2>")
@@ -129,35 +198,98 @@ def load_sheet_html(
         leave = path.leaves_at
         parts.append(
             f"<p class='limit'>The CG leaves the envelope after {escape(fmt(leave.fuel_burned, units.mass, 'down'))} "
-            f"burned, at {escape(fmt(leave.weight, units.mass))} and CG {escape(fmt(leave.arm, units.arm))}.</p>"
+            f"burned ({escape(fmt(leave.fuel_remaining_volume, units.fuel_volume))} remaining), at "
+            f"{escape(fmt(leave.weight, units.mass))} and CG {escape(fmt(leave.arm, units.arm))}.</p>"
         )
     else:
         parts.append("<p class='limit'>The takeoff point is outside the envelope.</p>")
 
     parts.append("<h2>Findings</h2>")
     if result.findings:
-        parts.append("<ul>")
+        parts.append("<ul class='findings'>")
         for finding in result.findings:
             tag = "LIMIT" if finding.severity == "limit" else "WARNING"
-            parts.append(f"<li class='{finding.severity}'>{tag}: {escape(finding.message)}</li>")
+            parts.append(f"<li class='{finding.severity}'><b>{tag}</b>: {escape(finding.message)}</li>")
         parts.append("</ul>")
     else:
         parts.append("<p>No findings.</p>")
 
     if chart_svg:
-        svg = chart_svg[chart_svg.find("<svg"):]
-        parts.append(f"<div class='chart'><h2>Envelope</h2>{svg}</div>")
+        parts.append(f"<div class='chart'><h2>Envelope</h2>{_inline_svg(chart_svg)}</div>")
 
     parts += [
         f"<p class='caution'>CAUTION: {escape(result.caution)}</p>",
-        "<table class='sign'>",
-        "<tr><td>Pilot in command</td><td><span class='line'>&nbsp;</span></td></tr>",
-        "<tr><td>Signature</td><td><span class='line'>&nbsp;</span></td></tr>",
-        "<tr><td>Date</td><td><span class='line'>&nbsp;</span></td></tr>",
-        "</table>",
+        "<div class='sign' id='signature'><div>Pilot in command</div><div>Signature</div><div>Date</div></div>",
         "</body></html>",
     ]
     return "\n".join(parts)
+
+
+def _fuel_plan(result: CheckResult, loading: ResolvedLoading | None) -> str:
+    """The fuel plan: taxi, trip, reserve and burn order where the loading is given; fuel on
+    board at each condition from the check."""
+    units = result.units
+    volume = units.fuel_volume
+    out = ["<h2>Fuel plan</h2>"]
+    if loading is not None:
+        names = {i.id: i.name for i in result.items if i.kind == "fuel"}
+        order = ("every tank together, in proportion" if loading.plan.order is None
+                 else ", then ".join(names.get(t, t) for t in loading.plan.order))
+        rows = [("Taxi and run-up", fmt(loading.taxi, volume)), ("Trip", fmt(loading.trip, volume)),
+                ("Reserve", "none given" if loading.reserve is None else fmt(loading.reserve, volume)),
+                ("Burn order", order)]
+        out.append("<table id='fuel-plan'>" + "".join(f"<tr><td>{escape(k)}</td><td>{escape(v)}</td></tr>" for k, v in rows)
+                   + "</table>")
+    out.append("<table id='fuel-on-board'>" + _head(["On board at", f"Fuel ({volume})", f"Fuel ({units.mass})"]))
+    for c in result.conditions:
+        out.append(_cells([escape(_NAMES[c.condition]), _n(c.fuel, volume), _n(c.fuel_weight, units.mass)]))
+    out.append("</table>")
+    return "".join(out)
+
+
+def _conditions(result: CheckResult, scaled: Any = None) -> str:
+    from .terminal import EDGE_NOTE, MARGIN_NOTE, condition_verdict, scaled_moment, scaled_moment_header, weight_margin
+
+    units = result.units
+    mac = any(c.mac_percent is not None for c in result.conditions)
+    lateral = any(c.lateral_arm is not None for c in result.conditions)
+    head = ["Condition", f"Fuel ({units.fuel_volume})", f"Weight ({units.mass})", f"CG ({units.arm})"]
+    head += ["CG (% MAC)"] if mac else []
+    head += [scaled_moment_header(scaled, units.moment)] if scaled is not None else []
+    head += [f"Lateral CG ({units.arm}, + right)"] if lateral else []
+    head += ["Result", f"CG margin forward ({units.arm})", f"CG margin aft ({units.arm})"]
+    head += [f"Lateral margin left ({units.arm})", f"Lateral margin right ({units.arm})"] if lateral else []
+    head += [f"Weight margin ({units.mass})"]
+    out = ["<h2>Conditions</h2><table id='conditions'>", _head(head)]
+    edge = False
+    for c in result.conditions:
+        verdict = condition_verdict(c, result)[0]
+        margin, marked = weight_margin(c, result)
+        edge = edge or marked
+        cells = [escape(_NAMES[c.condition]), _n(c.fuel, units.fuel_volume), _n(c.weight, units.mass), _n(c.arm, units.arm)]
+        cells += [_n(c.mac_percent, "%MAC")] if mac else []
+        if scaled is not None:
+            cells.append(escape(fmt(scaled_moment(scaled, c.weight, c.moment), units.moment, with_unit=False, places=1)))
+        cells += [_n(c.lateral_arm, units.arm)] if lateral else []
+        cells += [verdict, _n(c.margins.forward, units.arm, "down"), _n(c.margins.aft, units.arm, "down")]
+        cells += [_n(c.margins.left, units.arm, "down"), _n(c.margins.right, units.arm, "down")] if lateral else []
+        cells += [escape(margin)]
+        result_at = 4 + mac + (scaled is not None) + lateral
+        row = "".join(
+            f"<td>{cell}</td>" if i in (0, result_at) else f"<td class='n' data-condition='{c.condition}'>{cell}</td>"
+            for i, cell in enumerate(cells)
+        )
+        out.append(f"<tr id='condition-{c.condition}'>{row}</tr>")
+    out.append(f"</table><p class='note'>{escape(MARGIN_NOTE + (' ' + EDGE_NOTE if edge else ''))}</p>")
+    return "".join(out)
+
+
+def _inline_svg(svg: str) -> str:
+    """The SVG element alone, without its fixed size (the page's style sizes it; the viewBox keeps its shape)."""
+    svg = svg[svg.find("<svg"):]
+    head_end = svg.find(">")
+    head = re.sub(r'\s(width|height)="[^"]*"', "", svg[:head_end])
+    return head + svg[head_end:]
 
 
 def _table(head: list[str], rows: list[list[str]], css: str = "") -> str:

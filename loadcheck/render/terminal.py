@@ -3,20 +3,28 @@
 Renderers compute nothing: every figure comes from the result; they only round (in the
 safe direction for margins and excesses, see :mod:`loadcheck.display`) and lay out.
 Meaning never rests on colour alone: every verdict is also written in words.
+
+Tables are laid out for the console's width (:func:`fitted_tables`): a number, a verdict
+or a unit is never cut. Where all the columns do not fit side by side, the table is split
+into blocks stacked one under the other, each repeating the row names; where even that
+does not fit, each row is listed as "column: value" lines.
 """
 
 from __future__ import annotations
 
 from collections.abc import Sequence
+from dataclasses import dataclass
+from itertools import combinations
 from typing import TYPE_CHECKING, Any
 
-from rich.console import Console, Group
+from rich.cells import cell_len
+from rich.console import Console
 from rich.panel import Panel
 from rich.table import Table
 from rich.text import Text
 
 from ..aircraft import Aircraft
-from ..display import fmt
+from ..display import fmt, unit_label
 from ..results import CheckResult, Condition
 from ..words import burn_path_summary, stretch_text
 
@@ -24,7 +32,16 @@ if TYPE_CHECKING:
     from ..planning import PlanResult, TableRow
 
 __all__ = [
+    "EDGE_NOTE",
+    "MARGIN_NOTE",
+    "Column",
+    "condition_verdict",
+    "moment_axis",
+    "scaled_moment",
+    "scaled_moment_header",
+    "weight_margin",
     "caution_text",
+    "fitted_tables",
     "render_aircraft",
     "render_alteration",
     "render_check",
@@ -34,6 +51,7 @@ __all__ = [
     "render_fleet_list",
     "render_history",
     "render_plan",
+    "render_records",
     "render_schedule",
     "render_table",
     "render_weighing",
@@ -41,6 +59,9 @@ __all__ = [
 
 _NAMES = {"ramp": "Ramp", "takeoff": "Takeoff", "landing": "Landing", "zero_fuel": "Zero fuel"}
 _OK_STYLE, _LIMIT_STYLE, _WARN_STYLE = "bold green", "bold red", "bold yellow"
+_WEIGHT_CODES = ("max_ramp_weight", "max_takeoff_weight", "max_landing_weight", "max_zero_fuel_weight", "min_flight_weight")
+
+Cell = str | Text
 
 
 def caution_text(caution: str) -> Text:
@@ -48,134 +69,343 @@ def caution_text(caution: str) -> Text:
     return Text(f"CAUTION: {caution}", style="italic")
 
 
-def _moment_table(result: CheckResult) -> Table:
+# -- tables laid out for the width ---------------------------------------------------------------
+
+
+@dataclass(frozen=True)
+class Column:
+    """A column of a fitted table.
+
+    ``numeric`` columns are right-aligned and each line of a cell is kept whole (a number
+    with its unit never wraps); other columns wrap at spaces. ``key`` columns name the
+    row and are repeated in every block when a table is split.
+    """
+
+    header: str
+    numeric: bool = True
+    key: bool = False
+
+
+def _plain(cell: Cell) -> str:
+    return cell.plain if isinstance(cell, Text) else cell
+
+
+def _longest_word(text: str) -> int:
+    return max((cell_len(word) for word in text.split()), default=0)
+
+
+def _span(column: Column, cells: Sequence[Cell]) -> tuple[int, int]:
+    """Narrowest and natural width of a column's text (padding and borders not included)."""
+    lines = [line for cell in cells for line in _plain(cell).split("\n")]
+    natural = max([cell_len(column.header)] + [cell_len(line) for line in lines])
+    if column.numeric:
+        narrowest = max([_longest_word(column.header)] + [cell_len(line) for line in lines])
+    else:
+        narrowest = max([_longest_word(column.header)] + [_longest_word(line) for line in lines])
+    return max(narrowest, 1), max(natural, 1)
+
+
+def _outer(widths: Sequence[int]) -> int:
+    """Width of a boxed table with these column widths: one space of padding each side, rules between."""
+    return sum(widths) + 3 * len(widths) + 1
+
+
+def fitted_tables(
+    width: int,
+    title: str,
+    columns: Sequence[Column],
+    rows: Sequence[Sequence[Cell]],
+    total: Sequence[Cell] | None = None,
+    row_styles: Sequence[str | None] | None = None,
+) -> list[Table | Text]:
+    """Lay a table out for ``width`` character cells without cutting any cell.
+
+    Parameters
+    ----------
+    width : console width [characters]
+    title : table title (wraps if longer than the table)
+    columns : the columns, in the order they read
+    rows : cells, one sequence per row
+    total : an optional last row set apart by a rule and shown in bold
+
+    Returns
+    -------
+    One table when every column fits side by side; else several tables (the key columns
+    repeated in each, titled "continued"); else, where a key column and one other do not
+    fit, the rows listed as "column: value" lines.
+    """
+    body = [list(r) for r in rows] + ([list(total)] if total is not None else [])
+    spans = [_span(c, [r[i] for r in body]) for i, c in enumerate(columns)]
+    keys = [i for i, c in enumerate(columns) if c.key]
+    others = [i for i in range(len(columns)) if i not in keys]
+    blocks = _blocks([s[0] for s in spans], keys, others, width)
+    if blocks is None:
+        return [_listed(title, columns, body, keys)]
+    tables: list[Table | Text] = []
+    for number, block in enumerate(blocks):
+        widths = [spans[j][0] for j in block]
+        spare = width - _outer(widths)
+        for k in sorted(range(len(block)), key=lambda k: spans[block[k]][1] - spans[block[k]][0]):
+            grow = min(spare, spans[block[k]][1] - widths[k])
+            widths[k] += grow
+            spare -= grow
+        table = Table(title=title if number == 0 else f"{title} (continued)", title_justify="left")
+        for j, w in zip(block, widths):
+            table.add_column(columns[j].header, justify="right" if columns[j].numeric else "left", width=w,
+                             overflow="fold", no_wrap=False)
+        for r, row in enumerate(rows):
+            style = row_styles[r] if row_styles is not None else None
+            table.add_row(*[row[j] for j in block], style=style)
+        if total is not None:
+            table.add_section()
+            table.add_row(*[total[j] for j in block], style="bold")
+        tables.append(table)
+    return tables
+
+
+def _blocks(narrowest: Sequence[int], keys: list[int], others: list[int], width: int) -> list[list[int]] | None:
+    """Columns in as few blocks as fit ``width``, the blocks as even as can be; None if none fits.
+
+    Columns keep their order; each block starts with the key columns.
+    """
+    if _outer(narrowest) <= width:
+        return [list(range(len(narrowest)))]
+
+    def outer(part: Sequence[int]) -> int:
+        return _outer([narrowest[j] for j in keys + list(part)])
+
+    if not others or any(outer([i]) > width for i in others):
+        return None
+    for count in range(2, len(others) + 1):
+        best: tuple[int, list[list[int]]] | None = None
+        for cuts in combinations(range(1, len(others)), count - 1):
+            edges = (0, *cuts, len(others))
+            parts = [others[a:b] for a, b in zip(edges, edges[1:])]
+            widest = max(outer(part) for part in parts)
+            if widest <= width and (best is None or widest < best[0]):
+                best = (widest, [keys + part for part in parts])
+        if best is not None:
+            return best[1]
+    return None  # pragma: no cover  (one column per block always fits, checked above)
+
+
+def _listed(title: str, columns: Sequence[Column], body: Sequence[Sequence[Cell]], keys: Sequence[int]) -> Text:
+    """A table too wide even in blocks: one paragraph per row, "column: value" lines."""
+    text = Text(title, style="bold")
+    for row in body:
+        name = " ".join(_plain(row[k]) for k in keys)
+        text.append("\n" + (name or "-"), style="bold")
+        for i, column in enumerate(columns):
+            if i in keys:
+                continue
+            text.append(f"\n  {column.header}: ")
+            cell = row[i]
+            text.append(cell if isinstance(cell, Text) else Text(cell.replace("\n", "; ")))
+    return text
+
+
+def _print_table(console: Console, title: str, columns: Sequence[Column], rows: Sequence[Sequence[Cell]],
+                 total: Sequence[Cell] | None = None) -> None:
+    for table in fitted_tables(console.width, title, columns, rows, total):
+        console.print(table)
+
+
+def _lines(console: Console, tag_rows: Sequence[tuple[Text, Text]]) -> None:
+    """Tagged lines ("LIMIT", "WARNING") whose words wrap under the message, not under the tag."""
+    grid = Table.grid(padding=(0, 1))
+    grid.add_column(no_wrap=True)
+    grid.add_column(overflow="fold")
+    for tag, message in tag_rows:
+        grid.add_row(tag, message)
+    console.print(grid)
+
+
+# -- the check -------------------------------------------------------------------------------------
+
+
+def moment_axis(aircraft: Aircraft | None, category: str) -> Any:
+    """The envelope of this category read as moment / scale (scale other than 1), if any."""
+    if aircraft is None:
+        return None
+    for envelope in aircraft.envelopes_for(category):
+        if "moment" in envelope.axes and envelope.moment_scale != 1:
+            return envelope
+    return None
+
+
+def scaled_moment(envelope: Any, weight: float, moment: float) -> float:
+    """The moment as the envelope reads it (moment / scale), from the envelope's own coordinates."""
+    x, y = envelope.shape.coords(weight, moment, 0.0)
+    return float(x if envelope.axes[0] == "moment" else y)
+
+
+def scaled_moment_header(envelope: Any, moment_unit: str) -> str:
+    return f"Moment / {envelope.moment_scale:g} ({unit_label(moment_unit)})"
+
+
+def _moment_table(result: CheckResult, console: Console, aircraft: Aircraft | None = None) -> None:
     units = result.units
     lateral = any(i.lateral_arm is not None for i in result.items)
-    table = Table(title="Moment table (engine start)", title_justify="left", expand=False)
-    table.add_column("Item")
-    table.add_column(f"Weight ({units.mass})", justify="right")
-    table.add_column(f"Arm ({units.arm})", justify="right")
-    table.add_column(f"Moment ({units.moment})", justify="right")
+    scaled = moment_axis(aircraft, result.category)
+    moment = unit_label(units.moment)
+    columns = [Column("Item", numeric=False, key=True), Column(f"Weight ({units.mass})"), Column(f"Arm ({units.arm})"),
+               Column(f"Moment ({moment})")]
+    if scaled is not None:
+        columns.append(Column(scaled_moment_header(scaled, units.moment)))
     if lateral:
-        table.add_column(f"Lat. arm ({units.arm}, + right)", justify="right")
-        table.add_column(f"Lat. moment ({units.moment})", justify="right")
-    for item in result.items:
-        name = item.name
-        if item.fuel_volume is not None:
-            name += f" ({fmt(item.fuel_volume, units.fuel_volume)})"
-        row = [name, fmt(item.weight, units.mass, with_unit=False), fmt(item.arm, units.arm, with_unit=False),
-               fmt(item.moment, units.moment, with_unit=False)]
+        columns += [Column(f"Lateral arm ({units.arm})"), Column(f"Lateral moment ({moment})")]
+
+    def cells(name: str, weight: float, arm: float, mom: float, lat: float | None, lat_mom: float | None) -> list[Cell]:
+        row: list[Cell] = [name, fmt(weight, units.mass, with_unit=False), fmt(arm, units.arm, with_unit=False),
+                           fmt(mom, units.moment, with_unit=False)]
+        if scaled is not None:
+            row.append(fmt(scaled_moment(scaled, weight, mom), units.moment, with_unit=False, places=1))
         if lateral:
-            row += [fmt(item.lateral_arm or 0.0, units.arm, with_unit=False),
-                    fmt(item.lateral_moment or 0.0, units.moment, with_unit=False)]
-        table.add_row(*row)
+            row += [fmt(lat or 0.0, units.arm, with_unit=False), fmt(lat_mom or 0.0, units.moment, with_unit=False)]
+        return row
+
+    rows = []
+    for item in result.items:
+        name = item.name + (f" ({fmt(item.fuel_volume, units.fuel_volume)})" if item.fuel_volume is not None else "")
+        rows.append(cells(name, item.weight, item.arm, item.moment, item.lateral_arm, item.lateral_moment))
     ramp = result.condition("ramp")
-    total = ["Total at ramp", fmt(ramp.weight, units.mass, with_unit=False), fmt(ramp.arm, units.arm, with_unit=False),
-             fmt(ramp.moment, units.moment, with_unit=False)]
-    if lateral:
-        total += [fmt(ramp.lateral_arm or 0.0, units.arm, with_unit=False),
-                  fmt(ramp.lateral_moment or 0.0, units.moment, with_unit=False)]
-    table.add_section()
-    table.add_row(*total, style="bold")
-    return table
+    total = cells("Total at ramp", ramp.weight, ramp.arm, ramp.moment, ramp.lateral_arm, ramp.lateral_moment)
+    _print_table(console, "Moment table (engine start)", columns, rows, total)
+    console.print(Text("Each figure is rounded on its own; totals come from the unrounded figures, "
+                       "so a column may differ from its total in the last digit."
+                       + (" Lateral figures are + right of the centre line." if lateral else ""), style="dim"))
 
 
 def _margin(value: float | None, unit: str) -> str:
     return "" if value is None else fmt(value, unit, "down", with_unit=False)
 
 
-def _conditions_table(result: CheckResult) -> Table:
+def condition_verdict(c: Condition, result: CheckResult) -> tuple[str, str]:
+    """A condition's result in words and its severity (``ok``, ``warning`` or ``limit``): within,
+    within with a warning, outside only against a warning (the zero-fuel CG), or outside."""
+    mine = [f for f in result.findings if f.condition == c.condition]
+    if c.ok:
+        return ("within (warning)", "warning") if any(f.severity == "warning" for f in mine) else ("within", "ok")
+    if all(f.severity == "warning" for f in mine):
+        return "OUTSIDE (warning)", "warning"
+    return "OUTSIDE", "limit"
+
+
+def _result_cell(c: Condition, result: CheckResult) -> Text:
+    words, severity = condition_verdict(c, result)
+    return Text(words, style={"ok": _OK_STYLE, "warning": _WARN_STYLE, "limit": _LIMIT_STYLE}[severity])
+
+
+MARGIN_NOTE = ("Margins: room left to each limit at that condition (below zero: exceeded), rounded down; an excess is "
+               "rounded up. The CG margins are measured along the CG axis at that weight; the weight margin is the room "
+               "to the maximum weight or to the envelope's top edge at that CG, whichever is lower.")
+EDGE_NOTE = ("(edge): the envelope's edge at that CG sets this margin; no maximum weight is exceeded (the CG findings "
+             "say what is).")
+
+
+def weight_margin(c: Condition, result: CheckResult) -> tuple[str, bool]:
+    """The weight margin as shown, and whether it is marked "(edge)": below zero with no maximum
+    weight exceeded, so the envelope's edge at this CG sets it (a CG matter, not an overweight one)."""
+    text = _margin(c.margins.weight, result.units.mass)
+    if c.margins.weight is None or c.margins.weight >= 0:
+        return text, False
+    weight_finding = any(f.code in _WEIGHT_CODES and f.condition == c.condition for f in result.findings)
+    return (text, False) if weight_finding else (f"{text} (edge)", True)
+
+
+def _conditions_table(result: CheckResult, console: Console, aircraft: Aircraft | None = None) -> None:
     units = result.units
     conditions = result.conditions
     mac = any(c.mac_percent is not None for c in conditions)
     lateral = any(c.lateral_arm is not None for c in conditions)
-    table = Table(title=f"Conditions ({result.category} category)", title_justify="left")
-    table.add_column("Condition")
-    table.add_column(f"Fuel ({units.fuel_volume})", justify="right")
-    table.add_column(f"Weight ({units.mass})", justify="right")
-    table.add_column(f"CG ({units.arm})", justify="right")
+    scaled = moment_axis(aircraft, result.category)
+    columns = [Column("Condition", numeric=False, key=True), Column(f"Fuel ({units.fuel_volume})"),
+               Column(f"Weight ({units.mass})"), Column(f"CG ({units.arm})")]
     if mac:
-        table.add_column("CG (%MAC)", justify="right")
+        columns.append(Column("CG (% MAC)"))
+    if scaled is not None:
+        columns.append(Column(scaled_moment_header(scaled, units.moment)))
     if lateral:
-        table.add_column(f"Lat. CG ({units.arm})", justify="right")
-    table.add_column(f"Fwd margin ({units.arm})", justify="right")
-    table.add_column(f"Aft margin ({units.arm})", justify="right")
+        columns.append(Column(f"Lateral CG ({units.arm})"))
+    columns.append(Column("Result", numeric=False))
+    columns += [Column(f"CG margin forward ({units.arm})"), Column(f"CG margin aft ({units.arm})")]
     if lateral:
-        table.add_column(f"Left / right margin ({units.arm})", justify="right")
-    table.add_column(f"Weight margin ({units.mass})", justify="right")
-    table.add_column("Result")
-    for condition in conditions:
-        table.add_row(*_condition_row(condition, result, mac, lateral))
-    return table
-
-
-def _condition_row(c: Condition, result: CheckResult, mac: bool, lateral: bool) -> list[str | Text]:
-    units = result.units
-    row: list[str | Text] = [
-        _NAMES[c.condition],
-        fmt(c.fuel, units.fuel_volume, with_unit=False),
-        fmt(c.weight, units.mass, with_unit=False),
-        fmt(c.arm, units.arm, with_unit=False),
-    ]
-    if mac:
-        row.append("" if c.mac_percent is None else fmt(c.mac_percent, "%MAC", with_unit=False))
+        columns += [Column(f"Lateral margin left ({units.arm})"), Column(f"Lateral margin right ({units.arm})")]
+    columns.append(Column(f"Weight margin ({units.mass})"))
+    rows = []
+    edge = False
+    for c in conditions:
+        row: list[Cell] = [_NAMES[c.condition], fmt(c.fuel, units.fuel_volume, with_unit=False),
+                           fmt(c.weight, units.mass, with_unit=False), fmt(c.arm, units.arm, with_unit=False)]
+        if mac:
+            row.append("" if c.mac_percent is None else fmt(c.mac_percent, "%MAC", with_unit=False))
+        if scaled is not None:
+            row.append(fmt(scaled_moment(scaled, c.weight, c.moment), units.moment, with_unit=False, places=1))
+        if lateral:
+            row.append("" if c.lateral_arm is None else fmt(c.lateral_arm, units.arm, with_unit=False))
+        row.append(_result_cell(c, result))
+        row += [_margin(c.margins.forward, units.arm), _margin(c.margins.aft, units.arm)]
+        if lateral:
+            row += [_margin(c.margins.left, units.arm), _margin(c.margins.right, units.arm)]
+        weight, marked = weight_margin(c, result)
+        edge = edge or marked
+        row.append(weight)
+        rows.append(row)
+    _print_table(console, f"Conditions ({result.category} category)", columns, rows)
+    notes = MARGIN_NOTE
     if lateral:
-        row.append("" if c.lateral_arm is None else fmt(c.lateral_arm, units.arm, with_unit=False))
-    row += [_margin(c.margins.forward, units.arm), _margin(c.margins.aft, units.arm)]
-    if lateral:
-        row.append(f"{_margin(c.margins.left, units.arm)} / {_margin(c.margins.right, units.arm)}")
-    row.append(_margin(c.margins.weight, units.mass))
-    if c.ok:
-        row.append(Text("within", style=_OK_STYLE))
-    else:
-        only_warnings = all(
-            f.severity == "warning" for f in result.findings if f.condition == c.condition
-        )
-        row.append(Text("OUTSIDE (warning)" if only_warnings else "OUTSIDE", style=_WARN_STYLE if only_warnings else _LIMIT_STYLE))
-    return row
+        notes += " Lateral figures are + right of the centre line."
+    if edge:
+        notes += " " + EDGE_NOTE
+    console.print(Text(notes, style="dim"))
 
 
 def _burn_line(result: CheckResult) -> Text:
     return Text(burn_path_summary(result), style="" if result.burn_path.ok else _LIMIT_STYLE)
 
 
-def _findings(result: CheckResult) -> Group | Text:
+def _findings(result: CheckResult, console: Console) -> None:
     if not result.findings:
-        return Text("No findings.")
-    lines = []
-    for finding in result.findings:
-        tag = "LIMIT  " if finding.severity == "limit" else "WARNING"
-        style = _LIMIT_STYLE if finding.severity == "limit" else _WARN_STYLE
-        line = Text()
-        line.append(f"{tag} ", style=style)
-        line.append(finding.message)
-        lines.append(line)
-    return Group(Text("Findings", style="bold"), *lines)
+        console.print("No findings.")
+        return
+    console.print(Text("Findings", style="bold"))
+    _lines(console, [
+        (Text("LIMIT", style=_LIMIT_STYLE) if f.severity == "limit" else Text("WARNING", style=_WARN_STYLE), Text(f.message))
+        for f in result.findings
+    ])
 
 
-def render_check(result: CheckResult, console: Console, plot: Sequence[str] = ()) -> None:
+def _verdict(result: CheckResult) -> Text:
+    if result.ok:
+        return Text("WITHIN LIMITS: every condition, the burn path and every weight limit hold.", style=_OK_STYLE)
+    count = len(result.limits_exceeded)
+    return Text(f"OUT OF LIMITS: {count} {'limit' if count == 1 else 'limits'} exceeded.", style=_LIMIT_STYLE)
+
+
+def render_check(result: CheckResult, console: Console, plot: Sequence[str] = (), aircraft: Aircraft | None = None) -> None:
     """Print a check: header, moment table, conditions, burn path, findings, verdict, the
-    lines of a text plot if given, and last the caution."""
+    lines of a text plot if given, and last the caution.
+
+    With ``aircraft``, a loading whose envelope is read as moment / 1000 (``moment_scale``)
+    also shows that column, in the units the pilot reads off the chart.
+    """
     info = result.aircraft
-    header = info.name + (f" · {info.registration}" if info.registration else "")
-    header += f" · {result.category} category · data {info.fingerprint}"
+    console.print(Text(info.name + (f" · {info.registration}" if info.registration else ""), style="bold"))
+    header = f"{result.category} category · aircraft data {info.fingerprint}"
     if info.empty_weight_date:
         header += f" · empty weight of {info.empty_weight_date}"
-    console.print(Text(header, style="bold"))
-    console.print(_moment_table(result))
-    console.print(_conditions_table(result))
-    console.print(Text("Margins are rounded down; an excess is rounded up.", style="dim"))
+    console.print(header, markup=False)
+    _moment_table(result, console, aircraft)
+    _conditions_table(result, console, aircraft)
     console.print(_burn_line(result))
-    console.print(_findings(result))
-    verdict = (
-        Text("WITHIN LIMITS: every condition, the burn path and every weight limit hold.", style=_OK_STYLE)
-        if result.ok
-        else Text(f"OUT OF LIMITS: {len(result.limits_exceeded)} limit(s) exceeded.", style=_LIMIT_STYLE)
-    )
-    console.print(Panel(verdict, expand=False))
+    _findings(result, console)
+    console.print(Panel(_verdict(result), expand=False))
     for line in plot:
-        console.print(line, markup=False, highlight=False)
+        console.print(line, markup=False, highlight=False, overflow="fold")
     console.print(caution_text(result.caution))
+
+
+# -- the aircraft ------------------------------------------------------------------------------------
 
 
 def render_aircraft(aircraft: Aircraft, console: Console, caution: str) -> None:
@@ -185,71 +415,79 @@ def render_aircraft(aircraft: Aircraft, console: Console, caution: str) -> None:
     limits = aircraft.limits
     console.print(Text(aircraft.name + (f" · {aircraft.registration}" if aircraft.registration else ""), style="bold"))
     console.print(f"Units: mass {units.mass}, arm {units.arm} (aft of datum; lateral + right), fuel {units.fuel_volume}"
-                  f" · data {aircraft.fingerprint}")
-    record = Table(title="Empty-weight record and limits", title_justify="left", show_header=False)
-    record.add_column("What")
-    record.add_column("Value", justify="right")
-    record.add_row("Basic empty weight", fmt(empty.weight, units.mass))
-    record.add_row("Empty-weight CG", fmt(empty.arm, units.arm))
+                  f" · data {aircraft.fingerprint}", markup=False)
+    record: list[list[Cell]] = [
+        ["Basic empty weight", fmt(empty.weight, units.mass)],
+        ["Empty-weight CG", fmt(empty.arm, units.arm)],
+    ]
     if empty.lateral_arm is not None:
-        record.add_row("Empty-weight lateral CG", fmt(empty.lateral_arm, units.arm))
-    record.add_row("Empty-weight moment", fmt(empty.moment, units.moment))
-    record.add_row("Record dated", str(empty.date or "not dated"))
+        record.append(["Empty-weight lateral CG", fmt(empty.lateral_arm, units.arm)])
+    record += [["Empty-weight moment", fmt(empty.moment, units.moment)], ["Record dated", str(empty.date or "not dated")]]
     if empty.basis:
-        record.add_row("Basis", empty.basis)
-    record.add_row("Useful load (max takeoff less empty)", fmt(aircraft.useful_load, units.mass))
-    record.add_row("Max ramp weight", fmt(limits.ramp, units.mass))
-    record.add_row("Max takeoff weight", fmt(limits.max_takeoff_weight, units.mass))
-    record.add_row("Max landing weight", fmt(limits.landing, units.mass))
+        record.append(["Basis", empty.basis])
+    record += [
+        ["Useful load (max takeoff less empty)", fmt(aircraft.useful_load, units.mass)],
+        ["Max ramp weight", fmt(limits.ramp, units.mass)],
+        ["Max takeoff weight", fmt(limits.max_takeoff_weight, units.mass)],
+        ["Max landing weight", fmt(limits.landing, units.mass)],
+    ]
     if limits.max_zero_fuel_weight is not None:
-        record.add_row("Max zero-fuel weight", fmt(limits.max_zero_fuel_weight, units.mass))
+        record.append(["Max zero-fuel weight", fmt(limits.max_zero_fuel_weight, units.mass)])
     if limits.min_flight_weight is not None:
-        record.add_row("Min flight weight", fmt(limits.min_flight_weight, units.mass))
-    record.add_row("Zero-fuel CG", "a limit" if limits.zero_fuel_cg == "limit" else "checked as a warning")
+        record.append(["Min flight weight", fmt(limits.min_flight_weight, units.mass)])
+    record.append(["Zero-fuel CG", "a limit" if limits.zero_fuel_cg == "limit" else "checked as a warning"])
     if aircraft.mac:
-        record.add_row("MAC", f"{fmt(aircraft.mac.length, units.arm)} from {fmt(aircraft.mac.leading_edge_arm, units.arm)}")
-    console.print(record)
+        record.append(["MAC", f"{fmt(aircraft.mac.length, units.arm)} from {fmt(aircraft.mac.leading_edge_arm, units.arm)}"])
+    _print_table(console, "Empty-weight record and limits", [Column("What", numeric=False, key=True),
+                                                            Column("Value", numeric=False)], record)
 
-    stations = Table(title="Stations", title_justify="left")
-    for column in ("Id", "Label", "Kind", f"Arm ({units.arm})", f"Lat. arm ({units.arm})", f"Min ({units.mass})",
-                   f"Max ({units.mass})"):
-        stations.add_column(column)
-    for s in aircraft.station:
-        stations.add_row(s.id, s.name, s.kind, fmt(s.arm, units.arm, with_unit=False),
-                         "" if s.lateral_arm is None else fmt(s.lateral_arm, units.arm, with_unit=False),
-                         "" if s.min_weight is None else fmt(s.min_weight, units.mass, with_unit=False),
-                         "" if s.max_weight is None else fmt(s.max_weight, units.mass, with_unit=False))
-    console.print(stations)
+    _print_table(
+        console, "Stations",
+        [Column("Id", numeric=False, key=True), Column("Label", numeric=False), Column("Kind", numeric=False),
+         Column(f"Arm ({units.arm})"), Column(f"Lateral arm ({units.arm})"), Column(f"Min ({units.mass})"),
+         Column(f"Max ({units.mass})")],
+        [[s.id, s.name, s.kind, fmt(s.arm, units.arm, with_unit=False),
+          "" if s.lateral_arm is None else fmt(s.lateral_arm, units.arm, with_unit=False),
+          "" if s.min_weight is None else fmt(s.min_weight, units.mass, with_unit=False),
+          "" if s.max_weight is None else fmt(s.max_weight, units.mass, with_unit=False)] for s in aircraft.station],
+    )
     if aircraft.station_group:
-        groups = Table(title="Station groups", title_justify="left")
-        for column in ("Label", "Stations", f"Min ({units.mass})", f"Max ({units.mass})"):
-            groups.add_column(column)
-        for g in aircraft.station_group:
-            groups.add_row(g.label, ", ".join(g.stations),
-                           "" if g.min_weight is None else fmt(g.min_weight, units.mass, with_unit=False),
-                           "" if g.max_weight is None else fmt(g.max_weight, units.mass, with_unit=False))
-        console.print(groups)
+        _print_table(
+            console, "Station groups",
+            [Column("Label", numeric=False, key=True), Column("Stations", numeric=False), Column(f"Min ({units.mass})"),
+             Column(f"Max ({units.mass})")],
+            [[g.label, ", ".join(g.stations),
+              "" if g.min_weight is None else fmt(g.min_weight, units.mass, with_unit=False),
+              "" if g.max_weight is None else fmt(g.max_weight, units.mass, with_unit=False)] for g in aircraft.station_group],
+        )
     if aircraft.tank:
-        tanks = Table(title="Fuel tanks", title_justify="left")
-        for column in ("Id", "Label", f"Arm ({units.arm})", f"Usable ({units.fuel_volume})", f"Usable ({units.mass})",
-                       "Fuel", "Levels"):
-            tanks.add_column(column)
+        rows: list[list[Cell]] = []
         for t in aircraft.tank:
             arm = (fmt(t.arm_at(t.usable), units.arm, with_unit=False) if t.arm_table is None
-                   else "table: " + ", ".join(f"{q:g}->{a:g}" for q, a in t.arm_table))
-            density = f"{t.fuel or ''} {aircraft.density(t):.3g} {units.mass}/{units.fuel_volume}".strip()
-            tanks.add_row(t.id, t.name, arm, fmt(t.usable, units.fuel_volume, with_unit=False),
-                          fmt(aircraft.usable_fuel_weight(t), units.mass, with_unit=False), density,
-                          ", ".join(f"{k} {v:g}" for k, v in t.levels.items()))
-        console.print(tanks)
-    envelopes = Table(title="CG envelopes (the first category is the default)", title_justify="left")
-    for column in ("Category", "Label", "Axes (x, y)", "Corners"):
-        envelopes.add_column(column)
+                   else "table:\n" + "\n".join(f"{q:g} -> {a:g}" for q, a in t.arm_table))
+            density = f"{aircraft.density(t):.3g} {units.mass}/{units.fuel_volume}"
+            rows.append([t.id, t.name, arm, fmt(t.usable, units.fuel_volume, with_unit=False),
+                         fmt(aircraft.usable_fuel_weight(t), units.mass, with_unit=False),
+                         f"{t.fuel}\n{density}" if t.fuel else density,
+                         "\n".join(f"{k} {v:g}" for k, v in t.levels.items())])
+        _print_table(
+            console, "Fuel tanks",
+            [Column("Id", numeric=False, key=True), Column("Label", numeric=False), Column(f"Arm ({units.arm})"),
+             Column(f"Usable ({units.fuel_volume})"), Column(f"Usable ({units.mass})"), Column("Fuel and density"),
+             Column("Levels")],
+            rows,
+        )
+    envelopes: list[list[Cell]] = []
     for e in aircraft.envelope:
         axes = ", ".join(e.axes) + (f" (moment / {e.moment_scale:g})" if "moment" in e.axes and e.moment_scale != 1 else "")
-        envelopes.add_row(e.category, e.label or "", axes, "  ".join(f"({x:g}, {y:g})" for x, y in e.points))
-    console.print(envelopes)
+        envelopes.append([e.category, e.label or "", axes, "\n".join(f"({x:g}, {y:g})" for x, y in e.points)])
+    _print_table(console, "CG envelopes (the first category is the default)",
+                 [Column("Category", numeric=False, key=True), Column("Label", numeric=False),
+                  Column("Axes (x, y)", numeric=False), Column("Corners")], envelopes)
     console.print(caution_text(caution))
+
+
+# -- planning ---------------------------------------------------------------------------------------
 
 
 def render_plan(result: PlanResult, console: Console) -> None:
@@ -264,62 +502,57 @@ def render_plan(result: PlanResult, console: Console) -> None:
     if len(result.intervals) > 1:
         console.print("The values within limits form more than one stretch:", markup=False)
     if result.intervals:
-        stretches = Table(title=f"{result.variable} within limits ({result.unit})", title_justify="left")
-        stretches.add_column("within limits")
-        for interval in result.intervals:
-            stretches.add_row(stretch_text(interval.low, interval.high, result.unit))
-        console.print(stretches)
+        _print_table(console, f"{result.variable} within limits ({result.unit})",
+                     [Column("within limits")], [[stretch_text(i.low, i.high, result.unit)] for i in result.intervals])
         console.print(Text("Stretches are rounded inward: the ends shown are within limits.", style="dim"))
     if result.check is not None:
-        console.print(_conditions_table(result.check))
+        _conditions_table(result.check, console)
         verdict = "The loading at this answer is within limits." if result.check.ok else "The loading is NOT within limits:"
         console.print(Text(verdict, style=_OK_STYLE if result.check.ok else _LIMIT_STYLE))
-        for finding in result.check.findings:
-            if finding.severity == "limit":
-                console.print(f"  LIMIT {finding.message}", markup=False)
+        limits = [f for f in result.check.findings if f.severity == "limit"]
+        if limits:
+            _lines(console, [(Text("  LIMIT", style=_LIMIT_STYLE), Text(f.message)) for f in limits])
     console.print(caution_text(result.caution))
 
 
 def render_table(aircraft: Aircraft, rows: list[TableRow], station: str, console: Console) -> None:
     """Print allowed ramp fuel against payload at a station."""
     units = aircraft.units
-    table = Table(title=f"Ramp fuel within limits against weight added at {station}", title_justify="left")
-    table.add_column(f"Added at {station} ({units.mass})", justify="right")
-    table.add_column(f"Most ramp fuel ({units.fuel_volume})", justify="right")
-    table.add_column(f"Ramp fuel within limits ({units.fuel_volume})")
+    cells: list[list[Cell]] = []
     for row in rows:
         most = "none" if row.most is None else fmt(row.most, units.fuel_volume, "down", with_unit=False)
-        stretches = ", ".join(stretch_text(i.low, i.high, units.fuel_volume) for i in row.intervals) or "none"
-        table.add_row(fmt(row.payload, units.mass, with_unit=False), most, stretches)
-    console.print(table)
+        stretches = "\n".join(stretch_text(i.low, i.high, units.fuel_volume) for i in row.intervals) or "none"
+        cells.append([fmt(row.payload, units.mass, with_unit=False), most, stretches])
+    _print_table(console, f"Ramp fuel within limits against weight added at {station}",
+                 [Column(f"Added at {station} ({units.mass})", key=True), Column(f"Most ramp fuel ({units.fuel_volume})"),
+                  Column(f"Ramp fuel within limits ({units.fuel_volume})")], cells)
     from ..caution import PILOT_CAUTION
 
     console.print(caution_text(PILOT_CAUTION))
 
 
-def _record_table(title: str, rows: list[tuple[str, Any]], units: Any) -> Table:
-    table = Table(title=title, title_justify="left")
-    table.add_column("")
-    table.add_column(f"Weight ({units.mass})", justify="right")
-    table.add_column(f"Arm ({units.arm})", justify="right")
-    table.add_column(f"Moment ({units.moment})", justify="right")
-    for name, record in rows:
-        table.add_row(name, fmt(record.weight, units.mass, with_unit=False), fmt(record.arm, units.arm, with_unit=False),
-                      fmt(record.moment, units.moment, with_unit=False))
-    return table
+# -- the mechanic -------------------------------------------------------------------------------------
+
+
+def _record_table(title: str, rows: list[tuple[str, Any]], units: Any, console: Console) -> None:
+    _print_table(console, title,
+                 [Column("", numeric=False, key=True), Column(f"Weight ({units.mass})"), Column(f"Arm ({units.arm})"),
+                  Column(f"Moment ({unit_label(units.moment)})")],
+                 [[name, fmt(r.weight, units.mass, with_unit=False), fmt(r.arm, units.arm, with_unit=False),
+                   fmt(r.moment, units.moment, with_unit=False)] for name, r in rows])
 
 
 def render_history(listing: Any, console: Console) -> None:
     """Print the empty-weight records, oldest first, then the current one, then the caution."""
     units = listing.units
-    table = Table(title=f"Empty-weight records of {listing.aircraft}", title_justify="left")
-    for column in ("Replaced", "Why", f"Weight ({units['mass']})", f"Arm ({units['arm']})", "Record of", "By"):
-        table.add_column(column)
+    rows = []
     for row in listing.records:
         why = row.reason + (f": {row.note}" if row.note else "") + (" (OVERRIDE)" if row.overrides else "")
-        table.add_row(row.replaced, why, fmt(row.weight, units["mass"], with_unit=False),
-                      fmt(row.arm, units["arm"], with_unit=False), row.date, row.by or "")
-    console.print(table)
+        rows.append([row.replaced, why, fmt(row.weight, units["mass"], with_unit=False),
+                     fmt(row.arm, units["arm"], with_unit=False), row.date, row.by or ""])
+    _print_table(console, f"Empty-weight records of {listing.aircraft}",
+                 [Column("Replaced", key=True), Column("Why", numeric=False), Column(f"Weight ({units['mass']})"),
+                  Column(f"Arm ({units['arm']})"), Column("Record of"), Column("By", numeric=False)], rows)
     if listing.cg_range is not None:
         console.print(f"Empty-weight CG range: {listing.cg_range[0]:g} to {listing.cg_range[1]:g} {units['arm']}", markup=False)
     for row in listing.records:
@@ -331,49 +564,43 @@ def render_history(listing: Any, console: Console) -> None:
 
 def render_comparison(rows: list[Any], console: Console) -> None:
     """Print the current and the new record side by side (before confirming a write)."""
-    table = Table(title="Current and new empty-weight record", title_justify="left")
-    for column in ("", "Current", "New"):
-        table.add_column(column, justify="left" if not column else "right")
-    for row in rows:
-        cells = [c if isinstance(c, str) else ("" if c is None else fmt(c, row.unit)) for c in (row.current, row.new)]
-        table.add_row(row.quantity, *cells)
-    console.print(table)
+    cells = [[row.quantity, *(c if isinstance(c, str) else ("" if c is None else fmt(c, row.unit)) for c in (row.current, row.new))]
+             for row in rows]
+    _print_table(console, "Current and new empty-weight record",
+                 [Column("", numeric=False, key=True), Column("Current"), Column("New")], cells)
 
 
 def _warnings_and_refusals(result: Any, console: Console) -> None:
-    for warning in getattr(result, "warnings", []):
-        console.print(Text("WARNING ", style=_WARN_STYLE) + Text(warning))
+    lines = [(Text("WARNING", style=_WARN_STYLE), Text(warning)) for warning in getattr(result, "warnings", [])]
     for refusal in getattr(result, "refusals", []):
-        head = "NOT WRITTEN WITHOUT AN OVERRIDE " if refusal.overridable else "NEVER WRITTEN "
-        console.print(Text(head, style=_LIMIT_STYLE) + Text(refusal.message))
+        head = "NOT WRITTEN WITHOUT AN OVERRIDE" if refusal.overridable else "NEVER WRITTEN"
+        lines.append((Text(head, style=_LIMIT_STYLE), Text(refusal.message)))
+    if lines:
+        _lines(console, lines)
 
 
 def render_weighing(result: Any, units: Any, console: Console) -> None:
     """Print a weighing: points, as-weighed, corrections, new record, change."""
     console.print(Text(f"Weighing of {result.aircraft}" + (f" · {result.registration}" if result.registration else ""),
                        style="bold"))
-    points = Table(title="Weighing points", title_justify="left")
-    for column in ("Point", f"Reading ({units.mass})", f"Tare ({units.mass})", f"Net ({units.mass})",
-                   f"Arm ({units.arm})", f"Moment ({units.moment})"):
-        points.add_column(column, justify="left" if column == "Point" else "right")
-    for p in result.points:
-        points.add_row(p.label, fmt(p.reading, units.mass, with_unit=False), fmt(p.tare, units.mass, with_unit=False),
-                       fmt(p.net, units.mass, with_unit=False), fmt(p.arm, units.arm, with_unit=False),
-                       fmt(p.moment, units.moment, with_unit=False))
-    console.print(points)
+    moment = unit_label(units.moment)
+    _print_table(console, "Weighing points",
+                 [Column("Point", numeric=False, key=True), Column(f"Reading ({units.mass})"), Column(f"Tare ({units.mass})"),
+                  Column(f"Net ({units.mass})"), Column(f"Arm ({units.arm})"), Column(f"Moment ({moment})")],
+                 [[p.label, fmt(p.reading, units.mass, with_unit=False), fmt(p.tare, units.mass, with_unit=False),
+                   fmt(p.net, units.mass, with_unit=False), fmt(p.arm, units.arm, with_unit=False),
+                   fmt(p.moment, units.moment, with_unit=False)] for p in result.points])
     if result.formula_cg is not None:
         console.print(f"As-weighed CG by the FAA-H-8083-1 formula for this gear and datum: {fmt(result.formula_cg, units.arm)}",
                       markup=False)
-    corrections = Table(title="Corrections to the as-weighed aircraft", title_justify="left")
-    for column in ("Item", "", f"Weight ({units.mass})", f"Arm ({units.arm})", f"Moment ({units.moment})"):
-        corrections.add_column(column, justify="right" if "(" in column else "left")
-    for c in result.corrections:
-        corrections.add_row(c.label, c.action, fmt(c.weight, units.mass, with_unit=False), fmt(c.arm, units.arm, with_unit=False),
-                            fmt(c.moment, units.moment, with_unit=False))
-    rows = [("As weighed", result.as_weighed), ("New basic empty weight", result.new), ("Current record", result.previous)]
     if result.corrections:
-        console.print(corrections)
-    console.print(_record_table("Empty-weight record", rows, units))
+        _print_table(console, "Corrections to the as-weighed aircraft",
+                     [Column("Item", numeric=False, key=True), Column("", numeric=False), Column(f"Weight ({units.mass})"),
+                      Column(f"Arm ({units.arm})"), Column(f"Moment ({moment})")],
+                     [[c.label, c.action, fmt(c.weight, units.mass, with_unit=False), fmt(c.arm, units.arm, with_unit=False),
+                       fmt(c.moment, units.moment, with_unit=False)] for c in result.corrections])
+    rows = [("As weighed", result.as_weighed), ("New basic empty weight", result.new), ("Current record", result.previous)]
+    _record_table("Empty-weight record", rows, units, console)
     _changes_line(result, units, console)
     _warnings_and_refusals(result, console)
     console.print(caution_text(result.caution))
@@ -391,16 +618,16 @@ def render_alteration(result: Any, units: Any, console: Console) -> None:
     """Print equipment changes: each change's moment, the new record, negligibility."""
     console.print(Text(f"Equipment changes to {result.aircraft}" + (f" · {result.registration}" if result.registration else ""),
                        style="bold"))
-    table = Table(title="Changes", title_justify="left")
-    for column in ("Action", "Item", f"Weight ({units.mass})", f"Arm ({units.arm})", f"New arm ({units.arm})",
-                   f"Weight change ({units.mass})", f"Moment change ({units.moment})"):
-        table.add_column(column, justify="right" if "(" in column else "left")
-    for line in result.lines:
-        table.add_row(line.action, line.label, fmt(line.weight, units.mass, with_unit=False), fmt(line.arm, units.arm, with_unit=False),
-                      "" if line.new_arm is None else fmt(line.new_arm, units.arm, with_unit=False),
-                      fmt(line.weight_change, units.mass, with_unit=False), fmt(line.moment_change, units.moment, with_unit=False))
-    console.print(table)
-    console.print(_record_table("Empty-weight record", [("Current record", result.previous), ("After the changes", result.new)], units))
+    moment = unit_label(units.moment)
+    _print_table(console, "Changes",
+                 [Column("Action", numeric=False), Column("Item", numeric=False, key=True), Column(f"Weight ({units.mass})"),
+                  Column(f"Arm ({units.arm})"), Column(f"New arm ({units.arm})"), Column(f"Weight change ({units.mass})"),
+                  Column(f"Moment change ({moment})")],
+                 [[line.action, line.label, fmt(line.weight, units.mass, with_unit=False), fmt(line.arm, units.arm, with_unit=False),
+                   "" if line.new_arm is None else fmt(line.new_arm, units.arm, with_unit=False),
+                   fmt(line.weight_change, units.mass, with_unit=False), fmt(line.moment_change, units.moment, with_unit=False)]
+                  for line in result.lines])
+    _record_table("Empty-weight record", [("Current record", result.previous), ("After the changes", result.new)], units, console)
     _changes_line(result, units, console)
     n = result.negligible
     verdict = {True: "negligible", False: "not negligible", None: "cannot be judged"}[n.overall]
@@ -420,15 +647,15 @@ def render_extremes(result: Any, console: Console) -> None:
         for note in case.notes:
             console.print(f"  {note}", markup=False)
         console.print(f"  fuel states checked: {case.fuel_states}", markup=False)
-        console.print(_moment_table(case.check))
-        console.print(_conditions_table(case.check))
+        _moment_table(case.check, console)
+        _conditions_table(case.check, console)
         ramp = case.check.condition("ramp")
         words = "within limits" if case.ok else "NOT within limits"
         console.print(Text(f"{case.side} extreme: {fmt(ramp.weight, case.check.units.mass)} at CG "
                            f"{fmt(ramp.arm, case.check.units.arm)}: {words}", style=_OK_STYLE if case.ok else _LIMIT_STYLE))
-        for finding in case.check.findings:
-            if finding.severity == "limit":
-                console.print(f"  LIMIT {finding.message}", markup=False)
+        limits = [f for f in case.check.findings if f.severity == "limit"]
+        if limits:
+            _lines(console, [(Text("  LIMIT", style=_LIMIT_STYLE), Text(f.message)) for f in limits])
     console.print(caution_text(result.caution))
 
 
@@ -447,41 +674,68 @@ def render_schedule(result: Any, aircraft: Aircraft, console: Console) -> None:
         fuel = ", ".join(f"{aircraft.tanks[t].name} {fmt(q, units.fuel_volume, 'down')}" for t, q in case.fuel.items())
         console.print(f"  fuel: {fuel or 'none'}", markup=False)
         console.print(f"  fuel states checked: {case.fuel_states}", markup=False)
-        console.print(_conditions_table(case.check))
+        _conditions_table(case.check, console, aircraft)
         console.print(Text("  within limits" if case.ok else "  NOT within limits", style=_OK_STYLE if case.ok else _LIMIT_STYLE))
-        for finding in case.check.findings:
-            if finding.severity == "limit":
-                console.print(f"  LIMIT {finding.message}", markup=False)
+        limits = [f for f in case.check.findings if f.severity == "limit"]
+        if limits:
+            _lines(console, [(Text("  LIMIT", style=_LIMIT_STYLE), Text(f.message)) for f in limits])
     console.print(caution_text(result.caution))
 
 
+# -- the dispatcher ----------------------------------------------------------------------------------
+
+
+def _flight_result(result: dict[str, Any]) -> tuple[Text, str]:
+    """The result cell of a checked flight and its first finding: a limit first, else a warning."""
+    limits = [f["message"] for f in result["findings"] if f["severity"] == "limit"]
+    warnings = [f["message"] for f in result["findings"] if f["severity"] == "warning"]
+    if limits:
+        return Text("OUT", style=_LIMIT_STYLE), limits[0] + (f" (and {len(limits) - 1} more)" if len(limits) > 1 else "")
+    if warnings:
+        count = f"{len(warnings)} {'warning' if len(warnings) == 1 else 'warnings'}"
+        return Text(f"within, {count}", style=_WARN_STYLE), "WARNING: " + warnings[0] + (
+            f" (and {len(warnings) - 1} more)" if len(warnings) > 1 else "")
+    return Text("within", style=_OK_STYLE), ""
+
+
 def render_fleet(flights: list[Any], console: Console) -> None:
-    """One line per flight: registration, reference, takeoff and landing, verdict, first finding."""
-    table = Table(title="Flights", title_justify="left")
-    for column in ("Line", "Registration", "Reference", "Takeoff", "Landing", "Result", "First finding"):
-        table.add_column(column, justify="right" if column == "Line" else "left")
+    """One row per flight: line, registration, the verdict and under it the first finding,
+    reference, takeoff and landing (the verdict and its reason come first, so that they stay
+    beside the flight's name however narrow the terminal).
+
+    A flight within limits but with warnings (fuel below the reserve, an assumption made)
+    says so in its result and shows the first warning.
+    """
+    rows: list[list[Cell]] = []
+    warned = 0
     for flight in flights:
         row = flight.row
         if flight.result is None:
-            table.add_row(str(row.line), row.registration or "", row.reference or "", "", "",
-                          Text("INPUT ERROR", style=_WARN_STYLE), "; ".join(flight.problems)[:160])
+            verdict = Text("INPUT ERROR", style=_WARN_STYLE)
+            rows.append([str(row.line), row.registration or "", verdict + Text("\n" + "\n".join(flight.problems)),
+                         row.reference or "", "", ""])
             continue
         result = flight.result
         units = result["units"]
         conditions = {c["condition"]: c for c in result["conditions"]}
         takeoff, landing = conditions["takeoff"], conditions["landing"]
-        first = next((f["message"] for f in result["findings"] if f["severity"] == "limit"), "")
-        table.add_row(
-            str(row.line), row.registration or "", row.reference or "",
-            f"{fmt(takeoff['weight'], units['mass'])} / {fmt(takeoff['arm'], units['arm'])}",
-            f"{fmt(landing['weight'], units['mass'])} / {fmt(landing['arm'], units['arm'])}",
-            Text("within", style=_OK_STYLE) if result["ok"] else Text("OUT", style=_LIMIT_STYLE), first,
-        )
-    console.print(table)
+        verdict, first = _flight_result(result)
+        warned += bool(result["ok"]) and verdict.plain != "within"
+        rows.append([
+            str(row.line), row.registration or "", verdict + Text(f"\n{first}" if first else ""), row.reference or "",
+            f"{fmt(takeoff['weight'], units['mass'])}\n{fmt(takeoff['arm'], units['arm'])}",
+            f"{fmt(landing['weight'], units['mass'])}\n{fmt(landing['arm'], units['arm'])}",
+        ])
+    _print_table(console, "Flights",
+                 [Column("Line", key=True), Column("Aircraft", numeric=False, key=True),
+                  Column("Result and first finding", numeric=False), Column("Reference", numeric=False),
+                  Column("Takeoff weight, CG"), Column("Landing weight, CG")], rows)
     out = sum(1 for f in flights if f.result is not None and not f.ok)
     bad = sum(1 for f in flights if f.result is None)
-    console.print(f"{len(flights)} flight(s): {len(flights) - out - bad} within limits, {out} out of limits, "
-                  f"{bad} could not be used.", markup=False)
+    within = len(flights) - out - bad
+    console.print(f"{len(flights)} {'flight' if len(flights) == 1 else 'flights'}: {within} within limits"
+                  + (f" ({warned} with warnings)" if warned else "")
+                  + f", {out} out of limits, {bad} could not be used.", markup=False)
     from ..caution import PILOT_CAUTION
 
     console.print(caution_text(PILOT_CAUTION))
@@ -491,16 +745,30 @@ def render_fleet_list(lines: list[Any], folder: Any, console: Console) -> None:
     """The fleet listing: one row per aircraft file."""
     from ..caution import PILOT_CAUTION
 
-    table = Table(title=f"Fleet in {folder}", title_justify="left")
-    for column in ("Registration", "Aircraft", "Empty weight", "Record of", "Useful load", "Data", "Problems"):
-        table.add_column(column)
+    rows: list[list[Cell]] = []
     for line in lines:
         unit = line.mass_unit or ""
-        table.add_row(
+        rows.append([
             line.registration or "?", line.name or line.file,
             fmt(line.empty_weight, unit) if line.empty_weight is not None else "",
             line.record_date or "", fmt(line.useful_load, unit) if line.useful_load is not None else "",
             line.fingerprint or "", Text("\n".join(line.problems), style=_WARN_STYLE) if line.problems else "none",
-        )
-    console.print(table)
+        ])
+    _print_table(console, f"Fleet in {folder}",
+                 [Column("Registration", numeric=False, key=True), Column("Aircraft", numeric=False),
+                  Column("Empty weight"), Column("Record of"), Column("Useful load"), Column("Data"),
+                  Column("Problems", numeric=False)], rows)
+    console.print(caution_text(PILOT_CAUTION))
+
+
+def render_records(records: Sequence[Any], path: Any, console: Console) -> None:
+    """The record log: one row per recorded check, then the caution."""
+    from ..caution import PILOT_CAUTION
+
+    _print_table(console, f"Records in {path}",
+                 [Column("Id", key=True), Column("Checked (UTC)", numeric=False), Column("Registration", numeric=False),
+                  Column("Reference", numeric=False), Column("Pilot", numeric=False), Column("Result", numeric=False),
+                  Column("Data")],
+                 [[str(r.id), r.checked_at[:19].replace("T", " "), r.registration or "", r.reference or "", r.pilot or "",
+                   "within limits" if r.ok else "OUT OF LIMITS", r.fingerprint] for r in records])
     console.print(caution_text(PILOT_CAUTION))

@@ -3,10 +3,13 @@
 Characters only: the envelope outline in ``#`` (other categories are not drawn), the burn
 path in ``.``, the conditions as ``R`` (ramp), ``T`` (takeoff), ``L`` (landing), ``Z``
 (zero fuel), ``X`` where the path leaves. Resolution is one character: the tables above
-it carry the numbers.
+it carry the numbers. The picture is drawn for the width it is given (the console's), and
+the words around it wrap to that width.
 """
 
 from __future__ import annotations
+
+import textwrap
 
 from ..aircraft import Aircraft, Envelope
 from ..results import CheckResult
@@ -16,12 +19,25 @@ __all__ = ["text_plot"]
 _MARKS = {"ramp": "R", "takeoff": "T", "landing": "L", "zero_fuel": "Z"}
 
 
-def text_plot(aircraft: Aircraft, result: CheckResult, width: int = 64, height: int = 18) -> list[str]:
-    """Lines of a character plot of the first envelope of the category, longitudinal first."""
+_LEGEND = ("R ramp", "T takeoff", "L landing", "Z zero fuel", ". burn path", "X leaves")
+_LEFT = 12  # the y labels and the left frame: "{label:>10} +"
+_MIN_GRID = 20
+
+
+def text_plot(aircraft: Aircraft, result: CheckResult, width: int = 80, height: int = 18) -> list[str]:
+    """Lines of a character plot of each envelope of the category, longitudinal first.
+
+    Parameters
+    ----------
+    width : the whole line width [characters]; no line is longer (the grid is never
+        narrower than 20 characters, so below 33 columns lines are longer)
+    height : rows of the grid [characters]
+    """
+    grid = max(_MIN_GRID, width - _LEFT - 1)
     chosen = sorted(aircraft.envelopes_for(result.category), key=lambda e: e.is_lateral)
     lines: list[str] = []
     for envelope in chosen:
-        lines += _panel(envelope, result, width, height) + [""]
+        lines += _panel(envelope, result, grid, height, max(width, grid + _LEFT + 1)) + [""]
     return lines
 
 
@@ -30,7 +46,7 @@ def _xy(envelope: Envelope, weight: float, arm: float, lateral: float | None) ->
     return float(x), float(y)
 
 
-def _panel(envelope: Envelope, result: CheckResult, width: int, height: int) -> list[str]:
+def _panel(envelope: Envelope, result: CheckResult, width: int, height: int, line_width: int) -> list[str]:
     corners = [tuple(map(float, c)) for c in envelope.shape.corners]
     points = {c.condition: _xy(envelope, c.weight, c.arm, c.lateral_arm) for c in result.conditions}
     path = [_xy(envelope, s.weight, s.arm, s.lateral_arm) for s in result.burn_path.samples]
@@ -61,11 +77,20 @@ def _panel(envelope: Envelope, result: CheckResult, width: int, height: int) -> 
         put(*_xy(envelope, leave.weight, leave.arm, leave.lateral_arm), "X")
     for name, (x, y) in points.items():
         put(x, y, _MARKS[name])
-    x_name, y_name = envelope.axes
+    x_name, y_name = (f"moment / {envelope.moment_scale:g}" if axis == "moment" and envelope.moment_scale != 1 else axis
+                      for axis in envelope.axes)
     title = f"{envelope.label or ('lateral' if envelope.is_lateral else 'longitudinal')} envelope: {y_name} (up) against {x_name} (across)"
-    rows = [title, f"{y1:>10.4g} +" + "-" * width + "+"]
+    rows = textwrap.wrap(title, line_width)
+    rows.append(f"{y1:>10.4g} +" + "-" * width + "+")
     rows += [" " * 11 + "|" + "".join(r) + "|" for r in grid]
     rows.append(f"{y0:>10.4g} +" + "-" * width + "+")
-    rows.append(" " * 12 + f"{x0:<.4g}".ljust(width - 8) + f"{x1:>.4g}")
-    rows.append(" " * 12 + "R ramp  T takeoff  L landing  Z zero fuel  . burn path  X leaves")
+    left, right = f"{x0:.4g}", f"{x1:.4g}"
+    rows.append(" " * _LEFT + left + " " * max(1, width - len(left) - len(right) + 1) + right)
+    legend = " " * _LEFT
+    for entry in _LEGEND:
+        if legend.strip() and len(legend) + 2 + len(entry) > line_width:
+            rows.append(legend)
+            legend = " " * _LEFT
+        legend += ("  " if legend.strip() else "") + entry
+    rows.append(legend)
     return rows
