@@ -187,8 +187,10 @@ JsonOpt = Annotated[bool, typer.Option("--json", help="Print one JSON object ins
 def _inputs(
     aircraft: Path, loading: Path | None, load: list[str], fuel: list[str], taxi: str | None, trip: str | None,
     trip_time: str | None, rate: str | None, order: str | None, reserve: str | None, category: str | None,
+    *, legs: dict[int, Any] | None = None, allow_trip: bool = False,
 ) -> Any:
-    """Read the files and lay the options over them (loadcheck.files.load_check_inputs)."""
+    """Read the files and lay the options over them (loadcheck.files.load_check_inputs); ``legs``
+    are the legs' options (loadcheck.loading.leg_assignments); ``allow_trip`` admits a trip."""
     from ..files import load_check_inputs
 
     burn: dict[str, Any] = {}
@@ -199,7 +201,7 @@ def _inputs(
         burn["order"] = "together" if order.strip() == "together" else [t.strip() for t in order.split(",") if t.strip()]
     inputs = load_check_inputs(
         aircraft, loading, load=_assignments(load, "--load"), fuel=_assignments(fuel, "--fuel"),
-        burn=burn, category=category,
+        burn=burn, category=category, legs=legs, allow_trip=allow_trip,
     )
     for note in inputs.notes:
         _console(stderr=True).print(f"note: {note}", markup=False)
