@@ -59,6 +59,24 @@ def _resolved(aircraft: Aircraft, trip: Loading | ResolvedTrip, category: str | 
     return trip if isinstance(trip, ResolvedTrip) else resolve_trip(trip, aircraft, category=category)
 
 
+def _resolved_for_plan(aircraft: Aircraft, trip: Loading | ResolvedTrip, category: str | None, leg: int) -> ResolvedTrip:
+    """The trip to plan the fuel of ``leg`` (1: the first engine start; 2 or more: the stop
+    before it) for: as given, or, where the fuel given there does not let the trip be
+    resolved (too little for the burns), with every tank full there; that fuel is what
+    the plan replaces."""
+    try:
+        return _resolved(aircraft, trip, category)
+    except LoadcheckError:
+        if isinstance(trip, ResolvedTrip) or not 1 <= leg <= len(trip.leg) + 1:
+            raise
+        full = dict.fromkeys(aircraft.tanks, "full")
+        if leg == 1:
+            return resolve_trip(trip.model_copy(update={"fuel": full}), aircraft, category=category)
+        legs = list(trip.leg)
+        legs[leg - 2] = legs[leg - 2].model_copy(update={"add_fuel": full})
+        return resolve_trip(trip.model_copy(update={"leg": legs}), aircraft, category=category)
+
+
 def check_trip(
     aircraft: Aircraft, trip: Loading | ResolvedTrip, *, category: str | None = None, samples: bool = True
 ) -> TripResult:
@@ -221,7 +239,7 @@ def trip_most_fuel(
         ``variable`` is the first leg's ramp fuel [fuel volume unit]; ``extra["least"]``
         the least fuel that keeps every leg within limits, where it is above zero.
     """
-    resolved = _resolved(aircraft, trip, category)
+    resolved = _resolved_for_plan(aircraft, trip, category, 1)
     first = resolved.legs[0]
     order = _fill_order(aircraft, first, fill)
     base = loading_arrays(aircraft, first)
@@ -283,7 +301,7 @@ def fuel_to_add(
     InputError
         A leg that is not a stop of this trip.
     """
-    resolved = _resolved(aircraft, trip, category)
+    resolved = _resolved_for_plan(aircraft, trip, category, leg)
     if not 2 <= leg <= len(resolved.legs):
         raise InputError(Problem("leg", f"the trip has {len(resolved.legs)} legs: a stop comes before legs 2 to "
                                  f"{len(resolved.legs)}", value=leg, expected=f"2 to {len(resolved.legs)}"))
