@@ -353,3 +353,45 @@ def test_plan_commands_for_a_trip():
     data = json.loads(stop.output)
     assert stop.exit_code == 0 and data["feasible"] and data["check"]["ok"] and len(data["check"]["legs"]) == 2
     assert runner.invoke(app, ["plan", "stop", path, "--leg", "3"]).exit_code == 2
+
+
+# -- the fleet CSV: a trip id groups rows into one trip --------------------------------------
+
+TRIP_CSV = """registration,reference,trip_id,left,right,bag_left,main,taxi,trip,reserve,label
+DEMO-H2,T1,A,170,185,15,full,0.5,11,4,field site and back
+DEMO-H2,,A,0,,0,5,0.5,12,4,"back to base, solo"
+DEMO-H2,T2,,170,190,,full,0.5,20,,
+"""
+
+
+def test_the_fleet_csv_groups_the_rows_of_a_trip(tmp_path):
+    from loadcheck.fleet import check_flights, load_fleet, read_loadings
+
+    path = tmp_path / "day.csv"
+    path.write_text(TRIP_CSV)
+    fleet = load_fleet(sample(""))
+    rows = list(read_loadings(path, fleet)[0])
+    assert [(r.line, r.trip, r.reference) for r in rows] == [(2, "A", "T1"), (4, None, "T2")]
+    trip = rows[0].loading
+    assert trip is not None and len(trip.leg) == 1 and not rows[0].problems
+    assert trip.leg[0].load == {"left": "0", "bag_left": "0"} and trip.leg[0].add_fuel == {"main": "5"}
+    # the same trip as the sample file: the same check, leg by leg
+    aircraft = fleet.aircraft("DEMO-H2")
+    from_csv = check_trip(aircraft, trip)
+    inputs = load_check_inputs(sample("heli2/trip_drop_off.toml"), allow_trip=True)
+    from_file = check_trip(inputs.aircraft, inputs.trip)
+    assert [leg.check.to_dict() for leg in from_csv.legs] == [leg.check.to_dict() for leg in from_file.legs]
+    # until the fleet check checks trips, a trip row is refused there, never checked as its first leg alone
+    flights = list(check_flights(fleet, rows))
+    assert flights[0].result is None and "trip of 2 legs" in " ".join(flights[0].problems)
+    assert flights[1].result is not None
+
+
+def test_rows_of_one_trip_come_together(tmp_path):
+    from loadcheck.fleet import load_fleet, read_loadings
+
+    lines = TRIP_CSV.splitlines()
+    path = tmp_path / "day.csv"
+    path.write_text("\n".join([lines[0], lines[1], lines[3], lines[2].replace(",,A,", ",T9,A,")]) + "\n")
+    rows = list(read_loadings(path, load_fleet(sample("")))[0])
+    assert len(rows) == 3 and rows[2].loading is None and "already given above" in rows[2].problems[0]
