@@ -277,20 +277,11 @@ class TripLeg(Result):
 
 
 @dataclass(frozen=True, kw_only=True, slots=True)
-class TripFinding(Result):
-    """A finding of one leg, naming the leg (number and label) and its condition."""
+class TripFinding(Finding):
+    """A finding of one leg: the leg's :class:`Finding`, naming the leg (number and label)."""
 
     leg: int
     label: str | None = None
-    code: str
-    severity: Severity
-    condition: ConditionName | None = None
-    message: str
-    excess: float | None = None
-    unit: str | None = None
-    limit: float | None = None
-    side: str | None = None
-    subject: str | None = None
 
 
 @dataclass(frozen=True, kw_only=True, slots=True)

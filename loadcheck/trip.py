@@ -24,7 +24,7 @@ first leg's fuel is burned and a passenger gets off).
 from __future__ import annotations
 
 from collections.abc import Callable, Sequence
-from dataclasses import dataclass, field, replace
+from dataclasses import dataclass, replace
 
 import numpy as np
 
@@ -37,6 +37,7 @@ from .loading import BurnPlan, Loading, ResolvedTrip, StopFuel, landing_fuel, re
 from .planning import (
     _GRID_STEP,
     Interval,
+    PlanResult,
     _distribute,
     _fill_order,
     _fuel_capacity,
@@ -45,7 +46,7 @@ from .planning import (
     limit_words,
     safe_value,
 )
-from .results import Result, TripFinding, TripLeg, TripResult
+from .results import TripFinding, TripLeg, TripResult
 
 __all__ = ["TripPlan", "check_trip", "fuel_to_add", "leg_name", "trip_legs", "trip_most_fuel"]
 
@@ -147,34 +148,12 @@ def _legs_ok(aircraft: Aircraft, trip: ResolvedTrip, start: int, fuel: np.ndarra
 
 
 @dataclass(frozen=True, kw_only=True, slots=True)
-class TripPlan(Result):
-    """A planning answer for a trip.
+class TripPlan(PlanResult):
+    """A planning answer for a trip: a :class:`~loadcheck.planning.PlanResult` whose check is
+    the trip's (``trip``, every leg at the figure shown); its own ``check`` stays None.
+    ``extra["least"]`` is the least of the variable that keeps every leg within limits."""
 
-    Attributes
-    ----------
-    question : what was asked, in words
-    variable : the quantity solved for
-    unit : its unit [fuel volume unit]
-    feasible : True when some value keeps every leg within limits
-    intervals : every stretch of the variable within limits [unit]
-    answer : the most fuel, at full precision [unit]
-    answer_display : the answer rounded in the safe direction, with its unit
-    governing : what stops the answer going further (the leg and its limit), in words
-    check : the trip's check at the figure shown
-    extra : further figures, as labelled
-    """
-
-    question: str
-    variable: str
-    unit: str
-    feasible: bool
-    intervals: list[Interval]
-    answer: float | None
-    answer_display: str
-    governing: str | None = None
-    check: TripResult | None = None
-    extra: dict[str, str] = field(default_factory=dict)
-    caution: str = PILOT_CAUTION
+    trip: TripResult | None = None
 
 
 def _first_limit(result: TripResult) -> str | None:
@@ -195,12 +174,12 @@ def _plan(
                         answer_display="no amount keeps every leg within limits", governing=why_not())
     low, high = pairs[-1]
     shown, text = safe_value(low, high, unit, "down")
-    check = check_trip(aircraft, at(shown))
+    check = check_trip(aircraft, at(shown), samples=False)
     intervals = [Interval(low=lo, high=hi) for lo, hi in pairs]
     if not check.ok:  # never bless a trip the check rejects
         return TripPlan(question=question, variable=variable, unit=unit, feasible=False, intervals=intervals,
                         answer=None, answer_display="no amount keeps every leg within limits",
-                        governing=_first_limit(check), check=check)
+                        governing=_first_limit(check), trip=check)
     if high >= ceiling - 1e-9 * max(1.0, ceiling):
         governing: str | None = "the tanks' usable capacity"
     else:
@@ -212,7 +191,7 @@ def _plan(
     if pairs[0][0] > 0:
         extra["least"] = safe_value(pairs[0][0], pairs[0][1], unit, "up")[1]
     return TripPlan(question=question, variable=variable, unit=unit, feasible=True, intervals=intervals, answer=high,
-                    answer_display=text, governing=governing, check=check, extra=extra)
+                    answer_display=text, governing=governing, trip=check, extra=extra)
 
 
 def _why_not(aircraft: Aircraft, trip: ResolvedTrip) -> str:

@@ -316,7 +316,7 @@ def test_most_fuel_for_a_trip_agrees_with_brute_force():
     data = {**FIRST_LEG, "burn": {"taxi": 0, "trip": 8}, "leg": [{"load": {"passenger_seat": 0}, "burn": {"trip": 6}}]}
     answer = trip_most_fuel(PLANNING, Loading.model_validate(data))
     good = _brute([i * 0.05 for i in range(0, 60 * 20 + 1)], lambda x: data | {"fuel": {"main": x}})
-    assert good and answer.feasible and answer.check is not None and answer.check.ok
+    assert good and answer.feasible and answer.trip is not None and answer.trip.ok
     assert max(good) == pytest.approx((2250 - 1915) / 6, abs=0.05)  # by hand, above
     assert min(good) == pytest.approx(8 + 6 + 1509 / 50.4, abs=0.05)
     assert answer.answer == pytest.approx(max(good), abs=0.05 + 1e-9)
@@ -329,7 +329,7 @@ def test_fuel_to_add_at_a_stop_agrees_with_brute_force():
     data = {**FIRST_LEG, "fuel": {"main": 40}, "burn": {"taxi": 0, "trip": 30}, "leg": [leg]}  # lands with 10 gal
     answer = fuel_to_add(PLANNING, Loading.model_validate(data), 2)
     good = _brute([i * 0.05 for i in range(0, 50 * 20 + 1)], lambda y: data | {"leg": [leg | {"add_fuel": {"main": y}}]})
-    assert good and answer.feasible and answer.check is not None and answer.check.ok
+    assert good and answer.feasible and answer.trip is not None and answer.trip.ok
     assert min(good) == pytest.approx(6 + 1509 / 50.4 - 10, abs=0.05)  # by hand: leg 2 lands with 29.9 gal
     assert answer.answer == pytest.approx(max(good), abs=0.05 + 1e-9)
     assert float(answer.extra["least"].split()[0]) == pytest.approx(min(good), abs=0.05 + 1e-6)
@@ -351,7 +351,7 @@ def test_plan_commands_for_a_trip():
     assert fuel.exit_code == 0 and "every leg" in fuel.output, fuel.output
     stop = runner.invoke(app, ["plan", "stop", path, "--leg", "2", "--json"])
     data = json.loads(stop.output)
-    assert stop.exit_code == 0 and data["feasible"] and data["check"]["ok"] and len(data["check"]["legs"]) == 2
+    assert stop.exit_code == 0 and data["feasible"] and data["trip"]["ok"] and len(data["trip"]["legs"]) == 2
     assert runner.invoke(app, ["plan", "stop", path, "--leg", "3"]).exit_code == 2
 
 
@@ -395,3 +395,12 @@ def test_rows_of_one_trip_come_together(tmp_path):
     path.write_text("\n".join([lines[0], lines[1], lines[3], lines[2].replace(",,A,", ",T9,A,")]) + "\n")
     rows = list(read_loadings(path, load_fleet(sample("")))[0])
     assert len(rows) == 3 and rows[2].loading is None and "already given above" in rows[2].problems[0]
+
+
+def test_a_trip_is_not_recorded_as_one_leg_and_plots_every_leg(tmp_path):
+    path = str(sample("heli2/trip_drop_off.toml"))
+    refused = runner.invoke(app, ["check", path, "--record", str(tmp_path / "log.db")])
+    assert refused.exit_code == 2 and "cannot be recorded yet" in refused.output
+    assert not (tmp_path / "log.db").exists()
+    plotted = runner.invoke(app, ["check", path, "--plot"])
+    assert plotted.exit_code == 0 and plotted.output.count("Leg ") >= 2

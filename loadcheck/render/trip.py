@@ -93,11 +93,11 @@ def render_trip_plan(plan: TripPlan, console: Console) -> None:
             stretches.add_row(stretch_text(interval.low, interval.high, plan.unit))
         console.print(stretches)
         console.print(Text("Stretches are rounded inward: the ends shown are within limits.", style="dim"))
-    if plan.check is not None:
-        for leg in plan.check.legs:
+    if plan.trip is not None:
+        for leg in plan.trip.legs:
             console.print(Text(f"{_leg_title(leg)} at this answer", style="bold"))
             console.print(_conditions_table(leg.check))
-        console.print(Text(trip_verdict(plan.check), style=_OK_STYLE if plan.check.ok else _LIMIT_STYLE))
-        for finding in plan.check.limits_exceeded:
+        console.print(Text(trip_verdict(plan.trip), style=_OK_STYLE if plan.trip.ok else _LIMIT_STYLE))
+        for finding in plan.trip.limits_exceeded:
             console.print(f"  LIMIT {finding.message}", markup=False)
     console.print(caution_text(plan.caution))
