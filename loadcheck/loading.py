@@ -668,8 +668,9 @@ def resolve_trip(loading: Loading, aircraft: Aircraft, *, category: str | None =
     for index, leg in enumerate(loading.leg):
         where, number, previous = f"leg[{index}]", index + 2, legs[-1]
         on_board = landing_fuel(previous)
-        stop, problems = _stop_fuel(leg, aircraft, previous.density, where)
+        stop, unknown = _stop_fuel(leg, aircraft, previous.density, where)
         fuel = stop.apply(on_board)
+        problems: list[Problem] = []
         for tank in aircraft.tank:
             if tank.id in stop.to and on_board[tank.id] > stop.to[tank.id] * (1 + 1e-9):
                 problems.append(Problem(f"{where}.add_fuel.{tank.id}", f"the tank holds {on_board[tank.id]:g} "
@@ -681,8 +682,10 @@ def resolve_trip(loading: Loading, aircraft: Aircraft, *, category: str | None =
                                         f"{fuel[tank.id]:g}, above the tank's usable capacity",
                                         value=leg.add_fuel[tank.id], expected=f"at most {tank.usable - on_board[tank.id]:g} "
                                         f"{units.fuel_volume} added, or 'full'"))
+        if unknown:
+            raise UnknownNameError(unknown + problems)
         if problems:
-            raise (UnknownNameError if any(p.message.startswith("unknown") for p in problems) else InputError)(problems)
+            raise InputError(problems)
         order: Literal["together"] | list[str] = (
             leg.burn.order if "order" in leg.burn.model_fields_set
             else "together" if previous.plan.order is None else list(previous.plan.order)
@@ -699,25 +702,28 @@ def resolve_trip(loading: Loading, aircraft: Aircraft, *, category: str | None =
     return ResolvedTrip(tuple(legs), tuple(stops), (None, *(leg.label for leg in loading.leg)))
 
 
-def _stop_fuel(leg: Leg, aircraft: Aircraft, density: Mapping[str, float], where: str) -> tuple[StopFuel, list[Problem]]:
-    """The fuel a leg puts in at its stop, in the aircraft's units, and the problems found."""
+def _stop_fuel(
+    leg: Leg, aircraft: Aircraft, density: Mapping[str, float], where: str
+) -> tuple[StopFuel, list[Problem]]:
+    """The fuel a leg puts in at its stop, in the aircraft's units, and the unknown tank and
+    level names found."""
     to: dict[str, float] = {}
     added: dict[str, float] = {}
-    problems: list[Problem] = []
+    unknown: list[Problem] = []
     for name, amount in leg.add_fuel.items():
         tank = aircraft.tanks.get(name)
         if tank is None:
-            problems.append(Problem(f"{where}.add_fuel.{name}", f"unknown tank {name!r}", expected=_known(aircraft.tanks)))
+            unknown.append(Problem(f"{where}.add_fuel.{name}", f"unknown tank {name!r}", expected=_known(aircraft.tanks)))
         elif isinstance(amount, str) and amount.strip().lower() == "full":
             to[name] = tank.usable
         elif isinstance(amount, str) and amount in tank.levels:
             to[name] = tank.levels[amount]
         elif _is_level_name(amount):
-            problems.append(Problem(f"{where}.add_fuel.{name}", f"unknown fill level {amount!r} for tank {name!r}",
+            unknown.append(Problem(f"{where}.add_fuel.{name}", f"unknown fill level {amount!r} for tank {name!r}",
                                     expected=_known(dict.fromkeys(["full", *tank.levels]))))
         else:
             added[name] = _to_volume(parse_quantity(amount), density[name], aircraft.units.mass, aircraft.units.fuel_volume)
-    return StopFuel(to, added), problems
+    return StopFuel(to, added), unknown
 
 
 def _known(names: Mapping[str, Any]) -> str:
