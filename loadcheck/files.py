@@ -26,7 +26,7 @@ from pydantic import BaseModel, ValidationError
 
 from .aircraft import Aircraft, Units
 from .errors import FileFormatError, InputError, LoadcheckError, Problem
-from .loading import Loading, ResolvedLoading, apply_overrides, resolve_loading
+from .loading import Loading, ResolvedLoading, ResolvedTrip, apply_overrides, resolve_loading, resolve_trip
 
 __all__ = [
     "MAX_FILE_BYTES",
@@ -328,17 +328,25 @@ class CheckInputs:
     notes: list[str] = field(default_factory=list)
     label: str | None = None
     given: Loading | None = None  # the loading as given (file and options merged), for the record
+    trip: ResolvedTrip | None = None  # every leg, where the loading is a trip of several legs (allow_trip)
+
+    @property
+    def is_trip(self) -> bool:
+        """True for a loading of several legs."""
+        return self.trip is not None and len(self.trip.legs) > 1
 
 
 def load_check_inputs(
-    aircraft_path: str | Path, loading_path: str | Path | None = None, **overrides: Any
+    aircraft_path: str | Path, loading_path: str | Path | None = None, *, allow_trip: bool = False, **overrides: Any
 ) -> CheckInputs:
     """Read an aircraft and a loading (file and/or overrides) and resolve one against the other.
 
     ``aircraft_path`` may also be a loading file that names its aircraft
     (``aircraft = "trainer.toml"``), when no separate loading file is given. The override
     ``fuel_to_plan=True`` resolves a loading whose fuel a planning answer will choose
-    (:func:`~loadcheck.loading.resolve_loading`).
+    (:func:`~loadcheck.loading.resolve_loading`). With ``allow_trip`` a loading of several
+    legs is resolved leg by leg (``trip``; ``loading`` is its first leg); without it such a
+    loading is refused, so that no job checks a trip's first leg alone.
 
     Raises
     ------
@@ -364,11 +372,13 @@ def load_check_inputs(
         if named is not None and named.resolve() != Path(aircraft_path).resolve():
             notes.append(f"the loading names {named}, but {aircraft_path} was given and is used")
     try:
-        resolved = resolve_loading(loading, aircraft, category=overrides.get("category"), fuel_to_plan=fuel_to_plan)
+        trip = resolve_trip(loading, aircraft, category=overrides.get("category")) if allow_trip and loading.leg else None
+        resolved = trip.legs[0] if trip is not None else resolve_loading(
+            loading, aircraft, category=overrides.get("category"), fuel_to_plan=fuel_to_plan)
     except LoadcheckError as error:
         raise error.with_file(loading_path if loading_path is not None else "command line") from None
     label = loading.label or (Path(loading_path).stem if loading_path is not None else None)
-    return CheckInputs(aircraft, resolved, Path(loading_path) if loading_path else None, notes, label, loading)
+    return CheckInputs(aircraft, resolved, Path(loading_path) if loading_path else None, notes, label, loading, trip)
 
 
 def _named_aircraft(named: Path | None, loading_path: str | Path) -> Aircraft:
@@ -445,12 +455,13 @@ def _validate_loading(path: str | Path, data: Mapping[str, Any]) -> str:
         raise InputError([*problems, Problem("aircraft", f"names {named}, which does not validate: {lines}")],
                          file=path) from None
     try:
-        resolve_loading(loading, aircraft)
+        resolve_trip(loading, aircraft)
     except LoadcheckError as error:
         problems += [p for p in error.problems if p not in problems]
     if problems:
         raise InputError(problems, file=path)
-    return f"loading for {aircraft.name!r}"
+    legs = f", a trip of {len(loading.leg) + 1} legs" if loading.leg else ""
+    return f"loading for {aircraft.name!r}{legs}"
 
 
 def validate_file(path: str | Path) -> str:

@@ -45,6 +45,7 @@ __all__ = [
     "check_flights",
     "RESERVED_COLUMNS",
     "MAX_CSV_BYTES",
+    "TRIP_COLUMN",
     "FleetLine",
     "fleet_listing",
     "record_age_days",
@@ -55,6 +56,10 @@ MAX_CSV_BYTES = 50 * 1024 * 1024
 
 RESERVED_COLUMNS = RESERVED_IDS
 """CSV columns that are not station or tank ids (an aircraft file may not use them as ids)."""
+
+TRIP_COLUMN = "trip_id"
+"""CSV column grouping rows into one trip: consecutive rows of one registration with the same
+trip id are the legs of one trip, in row order (docs/fleet.md, "Trips")."""
 
 _HEADER = re.compile(r"^\s*([^\[\]]+?)\s*(?:\[\s*([^\]]+?)\s*\])?\s*$")
 
@@ -162,6 +167,7 @@ class FleetRow:
     pilot: str | None
     loading: Loading | None
     problems: list[str] = field(default_factory=list)
+    trip: str | None = None  # the trip id of a CSV whose rows are legs of one trip (TRIP_COLUMN)
 
 
 def _split_header(name: str) -> tuple[str, str | None]:
@@ -234,7 +240,10 @@ def _read_header(path: Path, header: list[str], fleet: Fleet) -> tuple[list[tupl
     if repeated:
         raise FileFormatError(f"column(s) named twice in the header: {', '.join(repeated)}", file=path)
     known = fleet.station_and_tank_ids
-    unknown = [n for n in names if n and n not in RESERVED_COLUMNS and n not in known]
+    if TRIP_COLUMN in names and TRIP_COLUMN in known:
+        raise FileFormatError(f"the column {TRIP_COLUMN!r} could be the trip id or a station or tank of that name in a "
+                              "fleet aircraft: rename that station or tank", file=path)
+    unknown = [n for n in names if n and n not in RESERVED_COLUMNS and n not in known and n != TRIP_COLUMN]
     file_problems = [f"{path}: unknown column {name!r}: not a station or tank of any fleet aircraft, nor one of "
                      f"{', '.join(RESERVED_COLUMNS)}; rows with a value in it are refused" for name in unknown]
     return columns, file_problems, set(unknown)
@@ -243,12 +252,27 @@ def _read_header(path: Path, header: list[str], fleet: Fleet) -> tuple[list[tupl
 def _stream_rows(path: Path, text: io.TextIOWrapper, reader: Any, columns: list[tuple[str, str | None]], fleet: Fleet,
                  unknown: set[str]) -> Iterator[FleetRow]:
     count = 0
+    pending: list[_RawRow] = []
+    finished: set[tuple[str | None, str]] = set()
     try:
         for record in reader:
             if not any(cell.strip() for cell in record):
                 continue
             count += 1
-            yield _csv_row(path, reader.line_num, columns, record, fleet, unknown)
+            raw = _csv_cells(path, reader.line_num, columns, record, fleet, unknown)
+            if pending and raw.trip is not None and raw.trip == pending[0].trip and raw.registration == pending[0].registration:
+                pending.append(raw)
+                continue
+            if pending:
+                yield _joined(pending)
+                if pending[0].trip is not None:
+                    finished.add((pending[0].registration, pending[0].trip))
+            if raw.trip is not None and (raw.registration, raw.trip) in finished:
+                raw.problems.append(f"{raw.where}: trip {raw.trip!r} of {raw.registration} was already given above: "
+                                    "the rows of one trip come one after another")
+            pending = [raw]
+        if pending:
+            yield _joined(pending)
     except csv.Error as error:
         raise FileFormatError(f"CSV error at line {reader.line_num}: {error}", file=path) from None
     except UnicodeDecodeError as error:
@@ -259,8 +283,52 @@ def _stream_rows(path: Path, text: io.TextIOWrapper, reader: Any, columns: list[
         raise FileFormatError("the CSV file has a header but no flights: there is nothing to check", file=path)
 
 
-def _csv_row(path: Path, line: int, columns: list[tuple[str, str | None]], record: list[str], fleet: Fleet,
-             unknown: set[str]) -> FleetRow:
+@dataclass
+class _RawRow:
+    """One CSV row read into loading-file values, before rows of one trip are joined."""
+
+    where: str
+    line: int
+    source: str
+    registration: str | None
+    reference: str | None
+    pilot: str | None
+    trip: str | None
+    data: dict[str, Any]
+    problems: list[str]
+
+
+def _joined(rows: list[_RawRow]) -> FleetRow:
+    """One flight from one row, or one trip from the consecutive rows of one trip id: the first
+    row is the first leg; each later row is the next leg, its station cells the new weights,
+    its tank cells the fuel put in at the stop, its burn cells the leg's own burn."""
+    first = rows[0]
+    problems = [p for row in rows for p in row.problems]
+    data = first.data
+    if len(rows) > 1:
+        legs = []
+        for row in rows[1:]:
+            for name, value in (("reference", row.reference), ("pilot", row.pilot),
+                                ("category", row.data.get("category"))):
+                given = first.data.get(name) if name == "category" else getattr(first, name)
+                if value is not None and value != given:
+                    problems.append(f"{row.where}: {name} {value!r} differs from the trip's first row ({given!r}): "
+                                    "a trip is one flight record; leave it empty on later rows or give the same")
+            leg = {"load": row.data["load"], "add_fuel": row.data["fuel"], "burn": row.data["burn"]}
+            legs.append(leg | ({"label": row.data["label"]} if "label" in row.data else {}))
+        data = data | {"leg": legs}
+    loading = None
+    if not problems:
+        try:
+            loading = parse_loading(data, first.where)
+        except LoadcheckError as error:
+            problems += error.lines()
+    return FleetRow(first.line, first.source, first.registration, first.reference, first.pilot, loading, problems,
+                    first.trip)
+
+
+def _csv_cells(path: Path, line: int, columns: list[tuple[str, str | None]], record: list[str], fleet: Fleet,
+               unknown: set[str]) -> _RawRow:
     where = f"{path}:{line}"
     problems: list[str] = []
     if len(record) != len(columns):
@@ -278,8 +346,9 @@ def _csv_row(path: Path, line: int, columns: list[tuple[str, str | None]], recor
         except LoadcheckError as error:
             problems += [f"{where}: {p.describe()}" for p in error.problems]
     data: dict[str, Any] = {"load": {}, "fuel": {}, "burn": {}}
+    trip = cells.get(TRIP_COLUMN, ("", None))[0] or None
     for name, (value, unit) in cells.items():
-        if not value or name in ("registration", "reference", "pilot", "date"):
+        if not value or name in ("registration", "reference", "pilot", "date", TRIP_COLUMN):
             continue
         text = f"{value} {unit}" if unit and _bare_number(value) else value
         if name in unknown:
@@ -298,13 +367,7 @@ def _csv_row(path: Path, line: int, columns: list[tuple[str, str | None]], recor
             else:
                 problems.append(f"{where}: column {name!r} is not a station or tank of {registration} "
                                 f"(its stations: {', '.join(aircraft.stations)}; tanks: {', '.join(aircraft.tanks)})")
-    loading = None
-    if not problems:
-        try:
-            loading = parse_loading(data, where)
-        except LoadcheckError as error:
-            problems += error.lines()
-    return FleetRow(line, str(path), registration, reference, pilot, loading, problems)
+    return _RawRow(where, line, str(path), registration, reference, pilot, trip, data, problems)
 
 
 def _bare_number(text: str) -> bool:

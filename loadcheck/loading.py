@@ -16,18 +16,31 @@ that burns exactly that mass in the burn order, tank by tank at each tank's dens
 
 from __future__ import annotations
 
-from collections.abc import Mapping
+from collections.abc import Mapping, Sequence
 from dataclasses import dataclass, field
 from typing import Annotated, Any, Literal
 
 from pydantic import BaseModel, BeforeValidator, ConfigDict, Field, field_validator, model_validator
 
 from .aircraft import Aircraft
-from .errors import InputError, Problem, UnknownNameError
+from .errors import InputError, LoadcheckError, Problem, UnknownNameError
 from .fuel import density_problem
 from .units import Quantity, convert, in_unit, parse_duration_hours, parse_quantity, parse_rate, unit_kind
 
-__all__ = ["Burn", "BurnPlan", "Loading", "ResolvedLoading", "apply_overrides", "resolve_loading"]
+__all__ = [
+    "Burn",
+    "BurnPlan",
+    "Leg",
+    "Loading",
+    "ResolvedLoading",
+    "ResolvedTrip",
+    "StopFuel",
+    "apply_overrides",
+    "landing_fuel",
+    "leg_assignments",
+    "resolve_loading",
+    "resolve_trip",
+]
 
 Amount = Annotated[float | str, Field(union_mode="left_to_right")]
 """A number in the aircraft's unit, or a string with a unit (``"20 kg"``)."""
@@ -122,8 +135,30 @@ class Burn(_Model):
         return self
 
 
+class Leg(_Model):
+    """A leg of a trip after the first: what changes at the stop before it, and its own burn.
+
+    The first leg is the loading's own ``[load]``, ``[fuel]`` and ``[burn]``; each ``[[leg]]``
+    table is the next leg (docs/file-format.md, "Trips of several legs").
+    """
+
+    label: str | None = Field(None, description="free text: where the leg goes")
+    load: dict[str, MassAmount] = Field(
+        default_factory=dict,
+        description="new weight at each station whose weight changes at the stop; 0 when a person or bag gets off "
+                    "[mass unit]; stations not named keep their weight",
+    )
+    add_fuel: dict[str, FuelStart] = Field(
+        default_factory=dict,
+        description="fuel put into each tank at the stop: a quantity added [fuel volume unit] or '120 lb', "
+                    "'full', or a level name (filled up to it); tanks not named get none",
+    )
+    burn: Burn = Field(description="this leg's taxi, trip (or trip_time and rate) and reserve; the burn order "
+                                   "is the previous leg's unless given")
+
+
 class Loading(_Model):
-    """A loading file (DESIGN.md, 'Loading file')."""
+    """A loading file (DESIGN.md, 'Loading file'); with ``leg`` tables, a trip of several legs."""
 
     format: Literal[1] = 1
     aircraft: str | None = Field(None, description="aircraft file, relative to this file")
@@ -139,6 +174,9 @@ class Loading(_Model):
         description="quantity per tank at engine start: number [fuel volume unit], 'full', a level, '120 lb'",
     )
     burn: Burn = Field(default_factory=Burn)
+    leg: list[Leg] = Field(
+        default_factory=list, description="the legs after the first, in the order flown (a trip); none: one leg"
+    )
 
 
 def apply_overrides(
@@ -148,10 +186,46 @@ def apply_overrides(
     fuel: Mapping[str, str] | None = None,
     burn: Mapping[str, Any] | None = None,
     category: str | None = None,
+    legs: Mapping[int, Mapping[str, Mapping[str, Any]]] | None = None,
 ) -> dict[str, Any]:
-    """Return loading-file data with command-line values laid on top (they win)."""
+    """Return loading-file data with command-line values laid on top (they win).
+
+    ``legs`` maps a leg number (2 for the first ``[[leg]]`` table) to its ``load``,
+    ``add_fuel`` and ``burn`` values (see :func:`leg_assignments`); a leg number one past
+    the file's last leg adds a leg.
+
+    Raises
+    ------
+    InputError
+        A leg number that skips a leg.
+    """
     merged = {key: (dict(value) if isinstance(value, dict) else value) for key, value in data.items()}
-    for table, values in (("load", load), ("fuel", fuel), ("burn", burn)):
+    _lay_over(merged, {"load": load, "fuel": fuel, "burn": burn})
+    if category is not None:
+        merged["category"] = category
+    if legs:
+        tables = merged.get("leg", [])
+        tables = [dict(t) if isinstance(t, dict) else t for t in tables] if isinstance(tables, list) else tables
+        if not isinstance(tables, list):  # a 'leg' of the wrong type is left for validation to report
+            return merged
+        for number in sorted(legs):
+            index = number - 2
+            if index == len(tables):
+                tables.append({})
+            elif not 0 <= index < len(tables):
+                raise InputError(Problem(f"--leg-* {number}", f"leg {number} skips leg {len(tables) + 2}: "
+                                         "describe every leg in order", value=number,
+                                         expected=f"a leg from 2 to {len(tables) + 2}"))
+            if isinstance(tables[index], dict):
+                tables[index] = {k: (dict(v) if isinstance(v, dict) else v) for k, v in tables[index].items()}
+                _lay_over(tables[index], legs[number])
+        merged["leg"] = tables
+    return merged
+
+
+def _lay_over(merged: dict[str, Any], tables: Mapping[str, Mapping[str, Any] | None]) -> None:
+    """Lay the values of each table over ``merged``'s table of that name (in place)."""
+    for table, values in tables.items():
         if values:
             existing = merged.setdefault(table, {})
             if isinstance(existing, dict):  # a table of the wrong type is left for validation to report
@@ -161,9 +235,59 @@ def apply_overrides(
                 if table == "burn" and "trip_time" in values:  # and a trip time replaces its trip
                     existing.pop("trip", None)
                 existing.update(values)
-    if category is not None:
-        merged["category"] = category
-    return merged
+
+
+_LEG_TABLES = {"--leg-load": "load", "--leg-fuel": "add_fuel", "--leg-burn": "burn"}
+_LEG_BURN_KEYS = ("taxi", "trip", "trip_time", "rate", "order", "reserve")
+
+
+def leg_assignments(option: str, values: Sequence[str]) -> dict[int, dict[str, dict[str, Any]]]:
+    """Read ``N:NAME=VALUE`` command-line values of one leg option.
+
+    ``--leg-load 2:right=0`` (station weight from leg 2 on), ``--leg-fuel 2:main=full``
+    (fuel added at the stop before leg 2), ``--leg-burn 2:trip=12`` (leg 2's taxi, trip,
+    trip_time, rate, order or reserve; an order is ``together`` or ``aux,mains``).
+
+    Returns
+    -------
+    dict
+        ``{leg number: {table: {name: value}}}``, ready for :func:`apply_overrides`.
+
+    Raises
+    ------
+    InputError
+        A value not of the form ``N:NAME=VALUE``, a leg number below 2, a burn name that
+        is not one of the leg's burn fields, or a name given twice for one leg.
+    """
+    table = _LEG_TABLES[option]
+    out: dict[int, dict[str, dict[str, Any]]] = {}
+    problems = []
+    for value in values:
+        number, colon, rest = value.partition(":")
+        name, equals, amount = rest.partition("=")
+        name, amount = name.strip(), amount.strip()
+        if not (colon and equals and number.strip().isdigit() and name and amount):
+            problems.append(Problem(option, "expected LEG:NAME=VALUE", value=value, expected="e.g. 2:right=0"))
+            continue
+        leg = int(number)
+        if leg < 2:
+            problems.append(Problem(option, "legs given here are numbered from 2 (leg 1 is the loading itself: "
+                                    "use --load, --fuel and the burn options)", value=value))
+            continue
+        if table == "burn" and name not in _LEG_BURN_KEYS:
+            problems.append(Problem(option, f"unknown burn field {name!r}", value=value, expected=", ".join(_LEG_BURN_KEYS)))
+            continue
+        entries = out.setdefault(leg, {}).setdefault(table, {})
+        if name in entries:
+            problems.append(Problem(f"{option} {leg}:{name}", "given twice; give it once", value=value))
+            continue
+        if table == "burn" and name == "order":
+            entries[name] = "together" if amount == "together" else [t.strip() for t in amount.split(",") if t.strip()]
+        else:
+            entries[name] = amount
+    if problems:
+        raise InputError(problems)
+    return out
 
 
 @dataclass(frozen=True)
@@ -304,7 +428,12 @@ def resolve_loading(loading: Loading, aircraft: Aircraft, *, category: str | Non
     InputError
         Fuel above a tank's usable capacity, more fuel burned than the burn order can
         use, or an amount in a unit that does not fit. Every problem is reported at once.
+        A loading with legs is refused: it is a trip (:func:`resolve_trip`).
     """
+    if loading.leg:
+        raise InputError(Problem("leg", f"this loading is a trip of {len(loading.leg) + 1} legs; this job takes a "
+                                 "single loading and never checks a trip's first leg alone (a trip is checked leg by "
+                                 "leg: `check`, `plan fuel`, `plan stop`; loadcheck.trip)"))
     units = aircraft.units
     problems: list[Problem] = []
     unknown: list[Problem] = []
@@ -451,6 +580,153 @@ def require_usable(loading: ResolvedLoading, aircraft: Aircraft, *, burn_covered
         ))
     if problems:
         raise InputError(problems)
+
+
+@dataclass(frozen=True)
+class StopFuel:
+    """Fuel put in at a stop, in the aircraft's units.
+
+    Attributes
+    ----------
+    to : tanks filled up to a quantity (``full`` or a level) [fuel volume unit]
+    added : tanks given a volume on top of what they hold [fuel volume unit]
+    """
+
+    to: Mapping[str, float] = field(default_factory=dict)
+    added: Mapping[str, float] = field(default_factory=dict)
+
+    def apply(self, on_board: Mapping[str, Any]) -> dict[str, Any]:
+        """Fuel in each tank after the stop, from what it held at landing.
+
+        Works on numbers or on numpy arrays (one value per loading) alike.
+
+        Examples
+        --------
+        >>> StopFuel(to={"main": 29.5}, added={"aux": 5.0}).apply({"main": 12.0, "aux": 1.0})
+        {'main': 29.5, 'aux': 6.0}
+        """
+        out = dict(on_board)
+        for tank, volume in self.added.items():
+            out[tank] = on_board[tank] + volume
+        for tank, quantity in self.to.items():
+            out[tank] = on_board[tank] * 0.0 + quantity
+        return out
+
+    def fills_up(self, on_board: Mapping[str, Any]) -> Any:
+        """True where no tank filled up to a level already holds more than that level
+        (fuel is never taken out to reach a level); a bool or an array, as ``on_board``."""
+        result: Any = True
+        for tank, quantity in self.to.items():
+            result = result & (on_board[tank] <= quantity * (1 + 1e-9))
+        return result
+
+
+@dataclass(frozen=True)
+class ResolvedTrip:
+    """A trip resolved against one aircraft: every leg as a single loading.
+
+    Attributes
+    ----------
+    legs : each leg, resolved as a single loading is (its fuel at engine start is what the
+        previous leg landed with, tank by tank, plus the fuel put in at the stop)
+    stops : ``stops[i]`` is the fuel put in at the stop before ``legs[i + 1]``
+    labels : each leg's label, or None
+    """
+
+    legs: tuple[ResolvedLoading, ...]
+    stops: tuple[StopFuel, ...] = ()
+    labels: tuple[str | None, ...] = ()
+
+
+def landing_fuel(leg: ResolvedLoading) -> dict[str, float]:
+    """Fuel in each tank at a leg's landing, after its taxi and trip in its burn order [fuel volume unit]."""
+    return leg.plan.quantities(leg.taxi + leg.trip)
+
+
+def resolve_trip(loading: Loading, aircraft: Aircraft, *, category: str | None = None) -> ResolvedTrip:
+    """Resolve a loading of one or more legs against an aircraft.
+
+    The first leg is the loading's own load, fuel and burn (:func:`resolve_loading`). Each
+    later leg starts from the previous one: every station keeps its weight unless the leg
+    gives it a new one, and each tank holds what it held at the previous landing (taxi and
+    trip burned in the previous leg's burn order, :meth:`BurnPlan.quantities`) plus the fuel
+    put in at the stop. The burn order is the previous leg's unless the leg gives one. The
+    leg is then resolved exactly as a single loading (names, capacities, fuel for the burn).
+
+    Returns
+    -------
+    ResolvedTrip
+        One leg for a loading without legs.
+
+    Raises
+    ------
+    UnknownNameError, InputError
+        As :func:`resolve_loading`, with the field path of the leg (``leg[0]`` is leg 2);
+        also fuel put in above a tank's usable capacity, or a level below what the tank
+        already holds.
+    """
+    first = resolve_loading(loading.model_copy(update={"leg": []}), aircraft, category=category)
+    legs, stops = [first], []
+    units = aircraft.units
+    for index, leg in enumerate(loading.leg):
+        where, number, previous = f"leg[{index}]", index + 2, legs[-1]
+        on_board = landing_fuel(previous)
+        stop, unknown = _stop_fuel(leg, aircraft, previous.density, where)
+        fuel = stop.apply(on_board)
+        problems: list[Problem] = []
+        for tank in aircraft.tank:
+            if tank.id in stop.to and on_board[tank.id] > stop.to[tank.id] * (1 + 1e-9):
+                problems.append(Problem(f"{where}.add_fuel.{tank.id}", f"the tank holds {on_board[tank.id]:g} "
+                                        f"{units.fuel_volume} at the landing of leg {number - 1}, more than the level",
+                                        value=leg.add_fuel[tank.id], expected=f"a level of at least {on_board[tank.id]:g}"))
+            elif fuel[tank.id] > tank.usable * (1 + 1e-9):
+                problems.append(Problem(f"{where}.add_fuel.{tank.id}", f"{on_board[tank.id]:g} {units.fuel_volume} on "
+                                        f"board at the landing of leg {number - 1} plus the fuel put in makes "
+                                        f"{fuel[tank.id]:g}, above the tank's usable capacity",
+                                        value=leg.add_fuel[tank.id], expected=f"at most {tank.usable - on_board[tank.id]:g} "
+                                        f"{units.fuel_volume} added, or 'full'"))
+        if unknown:
+            raise UnknownNameError(unknown + problems)
+        if problems:
+            raise InputError(problems)
+        order: Literal["together"] | list[str] = (
+            leg.burn.order if "order" in leg.burn.model_fields_set
+            else "together" if previous.plan.order is None else list(previous.plan.order)
+        )
+        single = Loading(category=first.category, fuel_density=loading.fuel_density,
+                         load={**previous.stations, **leg.load}, fuel=fuel,
+                         burn=leg.burn.model_copy(update={"order": order}))
+        try:
+            legs.append(resolve_loading(single, aircraft))
+        except LoadcheckError as error:
+            raise type(error)([Problem(f"{where}.{p.field}" if p.field else where, f"leg {number}: {p.message}",
+                                       p.value, p.expected) for p in error.problems]) from None
+        stops.append(stop)
+    return ResolvedTrip(tuple(legs), tuple(stops), (None, *(leg.label for leg in loading.leg)))
+
+
+def _stop_fuel(
+    leg: Leg, aircraft: Aircraft, density: Mapping[str, float], where: str
+) -> tuple[StopFuel, list[Problem]]:
+    """The fuel a leg puts in at its stop, in the aircraft's units, and the unknown tank and
+    level names found."""
+    to: dict[str, float] = {}
+    added: dict[str, float] = {}
+    unknown: list[Problem] = []
+    for name, amount in leg.add_fuel.items():
+        tank = aircraft.tanks.get(name)
+        if tank is None:
+            unknown.append(Problem(f"{where}.add_fuel.{name}", f"unknown tank {name!r}", expected=_known(aircraft.tanks)))
+        elif isinstance(amount, str) and amount.strip().lower() == "full":
+            to[name] = tank.usable
+        elif isinstance(amount, str) and amount in tank.levels:
+            to[name] = tank.levels[amount]
+        elif _is_level_name(amount):
+            unknown.append(Problem(f"{where}.add_fuel.{name}", f"unknown fill level {amount!r} for tank {name!r}",
+                                    expected=_known(dict.fromkeys(["full", *tank.levels]))))
+        else:
+            added[name] = _to_volume(parse_quantity(amount), density[name], aircraft.units.mass, aircraft.units.fuel_volume)
+    return StopFuel(to, added), unknown
 
 
 def _known(names: Mapping[str, Any]) -> str:

@@ -25,6 +25,9 @@ __all__ = [
     "LeavePoint",
     "Margins",
     "Severity",
+    "TripFinding",
+    "TripLeg",
+    "TripResult",
     "UnitsInfo",
 ]
 
@@ -247,4 +250,62 @@ class CheckResult(Result):
     @property
     def limits_exceeded(self) -> list[Finding]:
         """Findings of severity ``limit``."""
+        return [f for f in self.findings if f.severity == "limit"]
+
+
+# -- trips of several legs (docs/file-format.md, "Trips of several legs") ---------------------
+
+
+@dataclass(frozen=True, kw_only=True, slots=True)
+class TripLeg(Result):
+    """One leg of a trip: its number (from 1), its label, and its full single check.
+
+    Its JSON form is the check's own fields (those of :class:`CheckResult`) with ``leg``
+    and ``label`` added.
+    """
+
+    leg: int
+    label: str | None = None
+    check: CheckResult
+
+    def to_dict(self) -> dict[str, Any]:
+        """The check's JSON fields, with the leg's number and label."""
+        head: dict[str, Any] = {"leg": self.leg}
+        if self.label is not None:
+            head["label"] = self.label
+        return head | self.check.to_dict()
+
+
+@dataclass(frozen=True, kw_only=True, slots=True)
+class TripFinding(Finding):
+    """A finding of one leg: the leg's :class:`Finding`, naming the leg (number and label)."""
+
+    leg: int
+    label: str | None = None
+
+
+@dataclass(frozen=True, kw_only=True, slots=True)
+class TripResult(Result):
+    """The answer to "is every leg of this trip within limits?".
+
+    ``ok`` is true exactly when every leg's check is; ``findings`` are every leg's findings,
+    each naming its leg; ``legs`` each carry the full single check.
+    """
+
+    ok: bool
+    category: str
+    aircraft: AircraftInfo
+    legs: list[TripLeg]
+    findings: list[TripFinding]
+    units: UnitsInfo
+    caution: str
+
+    @property
+    def failed_legs(self) -> list[TripLeg]:
+        """The legs with a limit exceeded."""
+        return [leg for leg in self.legs if not leg.check.ok]
+
+    @property
+    def limits_exceeded(self) -> list[TripFinding]:
+        """Findings of severity ``limit``, of every leg."""
         return [f for f in self.findings if f.severity == "limit"]

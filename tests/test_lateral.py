@@ -142,3 +142,47 @@ def test_arm_table_in_the_moment_table():
     result = check_loading(aircraft, Loading(load={"front": 200}, fuel={"main": 10}))
     fuel = next(i for i in result.items if i.kind == "fuel")
     assert fuel.arm == pytest.approx(45.0 + (-85.0) * 10 / 20)
+
+
+# -- issue 16: a lateral envelope drawn as lateral moment, and trips -----------------------------
+
+from loadcheck.trip import check_trip  # noqa: E402
+
+from .test_trip import HANDBOOK_HELICOPTER  # noqa: E402
+
+
+def _mirror_moment(data):
+    """Every lateral arm and the lateral-moment envelope mirrored about butt line 0."""
+    out = copy.deepcopy(data)
+    out["empty"]["lateral_arm"] = -out["empty"]["lateral_arm"]
+    for item in out["station"] + out["tank"]:
+        item["lateral_arm"] = -item["lateral_arm"]
+    for envelope in out["envelope"]:
+        if envelope["axes"][0] == "lateral_moment":
+            envelope["points"] = [[-x, y] for x, y in envelope["points"]]
+    return out
+
+
+HANDBOOK = parse_aircraft(HANDBOOK_HELICOPTER)
+HANDBOOK_MIRRORED = parse_aircraft(_mirror_moment(HANDBOOK_HELICOPTER))
+
+
+@settings(max_examples=60, deadline=None)
+@given(st.floats(0, 300), st.floats(0, 300), st.floats(5, 48), st.floats(0, 1), st.floats(0, 1))
+def test_mirroring_every_lateral_arm_mirrors_a_trips_lateral_results(pilot, passenger, fuel, first, second):
+    # FAA-H-8083-1B ch. 8 layout (published arms), invented limits: see tests/test_trip.py
+    trip1 = (fuel - 1) * first
+    data = {"load": {"pilot_seat": pilot, "passenger_seat": passenger}, "fuel": {"main": fuel},
+            "burn": {"taxi": 0.5, "trip": trip1},
+            "leg": [{"load": {"passenger_seat": 0}, "burn": {"taxi": 0, "trip": (fuel - 0.5 - trip1) * second}}]}
+    a, b = check_trip(HANDBOOK, Loading.model_validate(data)), check_trip(HANDBOOK_MIRRORED, Loading.model_validate(data))
+    assert a.ok == b.ok
+    flip = {"left": "right", "right": "left"}
+    for x, y in zip(a.legs, b.legs, strict=True):
+        assert x.check.ok == y.check.ok and x.check.burn_path.ok == y.check.burn_path.ok
+        for p, q in zip(x.check.conditions, y.check.conditions, strict=True):
+            assert q.lateral_moment == pytest.approx(-p.lateral_moment, abs=1e-9)
+            assert q.lateral_arm == pytest.approx(-p.lateral_arm, abs=1e-12)
+            assert (q.weight, q.arm, q.ok) == (p.weight, p.arm, p.ok)
+    assert sorted((f.leg, f.code, f.condition, flip.get(f.side, f.side)) for f in a.findings) == sorted(
+        (f.leg, f.code, f.condition, f.side) for f in b.findings)

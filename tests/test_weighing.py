@@ -21,7 +21,8 @@ import loadcheck.cli.mechanic as mechanic_cli
 from loadcheck import load_aircraft
 from loadcheck.cli import app
 from loadcheck.empty_record import NOTE_CHARS, NotConfirmedError, OverrideNeededError, make_current, propose
-from loadcheck.files import MAX_FILE_BYTES, read_text
+from loadcheck.files import MAX_FILE_BYTES, parse_aircraft, read_text
+from loadcheck.weighing import Readings, weigh
 
 from .helpers import sample
 
@@ -347,3 +348,40 @@ def test_the_printed_record_fits_one_page_with_its_signature_block(tmp_path, com
                            text=True).stdout
     for words in ("Certificate number", "Signature", "Most rearward", "Empty-weight CG range", "CAUTION"):
         assert words in first
+
+
+# -- the published empty-weight CG formulas (issue 16) -----------------------------------------
+# FAA-H-8083-1B (2016) chapter 3 ("Locating the CG", datum forward of / aft of the main wheels,
+# nosewheel and tailwheel) and chapter 10: D datum to main wheels, L main wheels to the nose or
+# tail wheel, F nosewheel and R tailwheel net weight, W total. Compared to the printed value
+# within one unit of its last printed digit (0.1 in).
+
+
+def _formula_readings(gear, datum, d, other, length, total):
+    wheel = "nose" if gear == "nosewheel" else "tail"
+    main = (total - other) / 2
+    return Readings.model_validate({
+        "geometry": {"gear": gear, "datum": datum, "main_distance": d, "wheelbase": length},
+        "point": [{"label": wheel, "wheel": wheel, "reading": other},
+                  {"label": "left main", "wheel": "main", "reading": main},
+                  {"label": "right main", "wheel": "main", "reading": main}],
+    })
+
+
+@pytest.mark.parametrize("gear, datum, d, other, length, total, published", [
+    ("nosewheel", "forward", 128.0, 340.0, 78.0, 2006.0, 114.8),   # CG = D - F L / W
+    ("nosewheel", "aft", 75.0, 340.0, 78.0, 2006.0, -88.2),        # CG = -(D + F L / W)
+    ("tailwheel", "forward", 7.5, 67.0, 222.0, 1218.0, 19.7),      # CG = D + R L / W
+    ("tailwheel", "aft", 80.0, 67.0, 222.0, 1218.0, -67.8),        # CG = -D + R L / W
+])
+def test_faa_h_8083_1b_empty_weight_cg_formulas(gear, datum, d, other, length, total, published):
+    aircraft = parse_aircraft({
+        "name": "Weighing box", "units": {"mass": "lb", "arm": "in", "fuel_volume": "usgal"},
+        "empty": {"weight": total, "arm": 0.0}, "limits": {"max_takeoff_weight": 3000},
+        "envelope": [{"category": "normal", "axes": ["arm", "weight"], "points": [[-150, 500], [-150, 3000], [150, 3000], [150, 500]]}],
+    })
+    result = weigh(aircraft, _formula_readings(gear, datum, d, other, length, total))
+    assert result.as_weighed.weight == pytest.approx(total)
+    assert abs(result.as_weighed.arm - published) <= 0.1
+    assert round(result.as_weighed.arm, 1) == published
+    assert result.formula_cg == pytest.approx(result.as_weighed.arm)

@@ -193,11 +193,13 @@ JsonOpt = Annotated[bool, typer.Option("--json", help="Print one JSON object ins
 def _inputs(
     aircraft: Path, loading: Path | None, load: list[str], fuel: list[str], taxi: str | None, trip: str | None,
     trip_time: str | None, rate: str | None, order: str | None, reserve: str | None, category: str | None,
-    *, fuel_to_plan: bool = False,
+    *, fuel_to_plan: bool = False, legs: dict[int, Any] | None = None, allow_trip: bool = False,
 ) -> Any:
     """Read the files and lay the options over them (loadcheck.files.load_check_inputs).
 
-    ``fuel_to_plan``: the answer chooses the fuel, so the fuel given need not cover taxi and trip.
+    ``fuel_to_plan``: the answer chooses the fuel, so the fuel given need not cover taxi and
+    trip; ``legs`` are the legs' options (loadcheck.loading.leg_assignments); ``allow_trip``
+    admits a trip.
     """
     from ..files import load_check_inputs
 
@@ -209,7 +211,7 @@ def _inputs(
         burn["order"] = "together" if order.strip() == "together" else [t.strip() for t in order.split(",") if t.strip()]
     inputs = load_check_inputs(
         aircraft, loading, load=_assignments(load, "--load"), fuel=_assignments(fuel, "--fuel"),
-        burn=burn, category=category, fuel_to_plan=fuel_to_plan,
+        burn=burn, category=category, fuel_to_plan=fuel_to_plan, legs=legs, allow_trip=allow_trip,
     )
     for note in inputs.notes:
         _console(stderr=True).print(f"note: {note}", markup=False)

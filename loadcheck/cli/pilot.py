@@ -33,6 +33,24 @@ from .common import (
     input_errors,
 )
 
+LegLoadOpt = Annotated[list[str], typer.Option(
+    "--leg-load", metavar="LEG:STATION=WEIGHT", help="From leg 2 on: new weight at the stop before that leg (0: off); repeat.")]
+LegFuelOpt = Annotated[list[str], typer.Option(
+    "--leg-fuel", metavar="LEG:TANK=QUANTITY", help="Fuel put in at the stop before that leg: a volume, '120 lb', 'full' or a level.")]
+LegBurnOpt = Annotated[list[str], typer.Option(
+    "--leg-burn", metavar="LEG:NAME=VALUE", help="That leg's taxi, trip, trip_time, rate, order or reserve; repeat.")]
+
+
+def _legs(leg_load: list[str], leg_fuel: list[str], leg_burn: list[str]) -> dict[int, Any]:
+    """The legs' options as loading-file values (loadcheck.loading.leg_assignments)."""
+    from ..loading import leg_assignments
+
+    legs: dict[int, Any] = {}
+    for option, values in (("--leg-load", leg_load), ("--leg-fuel", leg_fuel), ("--leg-burn", leg_burn)):
+        for number, tables in leg_assignments(option, values).items():
+            legs.setdefault(number, {}).update(tables)
+    return legs
+
 
 @app.command(short_help="Check a loading against every limit.")
 @input_errors
@@ -54,6 +72,9 @@ def check(
     plot: Annotated[bool, typer.Option("--plot", help="Draw a small text plot of the envelope under the tables.")] = False,
     record: Annotated[str | None, typer.Option(metavar="FILE",
         help="Record the check in this SQLite file ('default': the user data folder).")] = None,
+    leg_load: LegLoadOpt = [],  # noqa: B006
+    leg_fuel: LegFuelOpt = [],  # noqa: B006
+    leg_burn: LegBurnOpt = [],  # noqa: B006
 ) -> None:
     """Check a loading: moment table, ramp/takeoff/landing/zero-fuel conditions, the burn path.
 
@@ -74,11 +95,16 @@ def check(
       loadcheck check \\
         sample_aircraft/twin6/leaves_path.toml --json
 
-    Exit status: 0 within limits, 1 a limit is exceeded, 2 the input could not be used.
+      loadcheck check sample_aircraft/heli2/trip_drop_off.toml   (a trip: every leg is checked)
+
+    Exit status: 0 within limits, 1 a limit is exceeded (on any leg of a trip), 2 the input could not be used.
     """
     from ..check import check_loading
 
-    inputs = _inputs(aircraft, loading, load, fuel, taxi, trip, trip_time, rate, order, reserve, category)
+    inputs = _inputs(aircraft, loading, load, fuel, taxi, trip, trip_time, rate, order, reserve, category,
+                     legs=_legs(leg_load, leg_fuel, leg_burn), allow_trip=True)
+    if inputs.is_trip:
+        _check_trip(inputs, json_out, chart, sheet, plot, record)
     result = check_loading(inputs.aircraft, inputs.loading)
     if record is not None:
         _record_single(record, inputs, result)
@@ -96,6 +122,43 @@ def check(
 
             lines = text_plot(inputs.aircraft, result, width=console.width)
         render_check(result, console, lines, aircraft=inputs.aircraft)
+    raise typer.Exit(EXIT_OK if result.ok else EXIT_LIMIT)
+
+
+def _check_trip(inputs: Any, json_out: bool, chart: Path | None, sheet: Path | None, plot: bool, record: str | None) -> None:
+    """Check every leg of a trip, render it, and exit 1 when any leg is out of limits."""
+    from ..trip import check_trip
+
+    if record is not None:
+        raise InputError(Problem("--record", "a trip of several legs cannot be recorded yet; record each leg as a "
+                                 "loading of its own", value=record))
+    result = check_trip(inputs.aircraft, inputs.trip)
+    if chart is not None or sheet is not None:
+        from ..files import write_atomic
+        from ..render.chart import figure_svg, save_figure, trip_figure
+
+        if sheet is not None and sheet.suffix.lower() not in (".html", ".htm"):
+            raise InputError(Problem("--sheet", "a load sheet is an HTML file", value=str(sheet), expected="a name ending in .html"))
+        figure = trip_figure(inputs.aircraft, result, inputs.label)
+        if chart is not None:
+            save_figure(figure, chart)
+            _console(stderr=True).print(f"chart written: {chart}", markup=False)
+        if sheet is not None:
+            from ..render.sheet import trip_sheet_html
+
+            write_atomic(sheet, trip_sheet_html(result, figure_svg(figure), loading_label=inputs.label))
+            _console(stderr=True).print(f"load sheet written: {sheet}", markup=False)
+    if json_out:
+        typer.echo(result.to_json())
+    else:
+        from ..render.trip import render_trip
+
+        plots: list[list[str]] = []
+        if plot:
+            from ..render.textplot import text_plot
+
+            plots = [text_plot(inputs.aircraft, leg.check) for leg in result.legs]
+        render_trip(result, _console(), plots)
     raise typer.Exit(EXIT_OK if result.ok else EXIT_LIMIT)
 
 
@@ -255,20 +318,62 @@ def plan_fuel(
     aircraft: AircraftArg, loading: LoadingArg = None, load: LoadOpt = [], fuel: FuelOpt = [],  # noqa: B006
     taxi: TaxiOpt = None, trip: TripOpt = None, trip_time: TripTimeOpt = None, rate: RateOpt = None,
     order: OrderOpt = None, reserve: ReserveOpt = None, category: CategoryOpt = None, fill: FillOpt = None,
-    json_out: JsonOpt = False,
+    json_out: JsonOpt = False, leg_load: LegLoadOpt = [], leg_fuel: LegFuelOpt = [], leg_burn: LegBurnOpt = [],  # noqa: B006
 ) -> None:
-    """The most fuel at engine start for which the whole flight is within limits.
+    """The most fuel at engine start for which the whole flight (every leg of a trip) is within limits.
 
     Example:
 
     \b
       loadcheck plan fuel \\
         sample_aircraft/trainer4/within.toml
+      loadcheck plan fuel \\
+        sample_aircraft/heli2/trip_drop_off.toml
     """
     from ..planning import most_fuel
 
-    inputs = _inputs(aircraft, loading, load, fuel, taxi, trip, trip_time, rate, order, reserve, category, fuel_to_plan=True)
+    inputs = _inputs(aircraft, loading, load, fuel, taxi, trip, trip_time, rate, order, reserve, category,
+                     fuel_to_plan=True, legs=_legs(leg_load, leg_fuel, leg_burn), allow_trip=True)
+    if inputs.is_trip:
+        from ..trip import trip_most_fuel
+
+        _trip_answer(trip_most_fuel(inputs.aircraft, inputs.trip, fill=_fill(fill)), json_out)
     _answer(most_fuel(inputs.aircraft, inputs.loading, fill=_fill(fill)), json_out)
+
+
+def _trip_answer(result: Any, json_out: bool) -> None:
+    if json_out:
+        typer.echo(result.to_json())
+    else:
+        from ..render.trip import render_trip_plan
+
+        render_trip_plan(result, _console())
+    raise typer.Exit(EXIT_OK if result.feasible else EXIT_LIMIT)
+
+
+@plan_app.command("stop", short_help="Fuel to put in at a stop of a trip.")
+@input_errors
+def plan_stop(
+    aircraft: AircraftArg, loading: LoadingArg = None, load: LoadOpt = [], fuel: FuelOpt = [],  # noqa: B006
+    taxi: TaxiOpt = None, trip: TripOpt = None, trip_time: TripTimeOpt = None, rate: RateOpt = None,
+    order: OrderOpt = None, reserve: ReserveOpt = None, category: CategoryOpt = None, fill: FillOpt = None,
+    leg: Annotated[int | None, typer.Option(metavar="N", help="The leg the stop comes before (2 or more).")] = None,
+    json_out: JsonOpt = False, leg_load: LegLoadOpt = [], leg_fuel: LegFuelOpt = [], leg_burn: LegBurnOpt = [],  # noqa: B006
+) -> None:
+    """The fuel to put in at the stop before a leg of a trip so that every leg is within limits.
+
+    Example:
+
+    \b
+      loadcheck plan stop \\
+        sample_aircraft/heli2/trip_drop_off.toml --leg 2
+    """
+    from ..trip import fuel_to_add
+
+    inputs = _inputs(aircraft, loading, load, fuel, taxi, trip, trip_time, rate, order, reserve, category,
+                     legs=_legs(leg_load, leg_fuel, leg_burn), allow_trip=True)
+    trip_data = inputs.trip
+    _trip_answer(fuel_to_add(inputs.aircraft, trip_data, _need(leg, "--leg"), fill=_fill(fill)), json_out)
 
 
 @plan_app.command("trip", short_help="The longest trip at a burn rate.")

@@ -35,7 +35,7 @@ if TYPE_CHECKING:
     from matplotlib.axes import Axes
     from matplotlib.figure import Figure
 
-__all__ = ["FORMATS", "check_figure", "envelope_figure", "fuel_payload_figure", "save_figure", "figure_svg"]
+__all__ = ["FORMATS", "check_figure", "envelope_figure", "fuel_payload_figure", "save_figure", "figure_svg", "trip_figure"]
 
 FORMATS = ("png", "svg", "pdf")
 
@@ -443,3 +443,44 @@ def _metadata(suffix: str) -> dict[str, Any]:
     if suffix == "pdf":
         return {"CreationDate": None}
     return {}
+
+
+# -- trips of several legs -------------------------------------------------------------------
+
+# one dash pattern and one marker per leg, so the legs stay apart without colour
+_LEG_LINES = ("-", "--", ":", "-.", (0, (5, 1, 1, 1, 1, 1)), (0, (1, 3)))
+_LEG_MARKERS = ("^", "D", "P", "*", "h", "8")
+
+
+def trip_figure(aircraft: Aircraft, trip: Any, loading_label: str | None = None) -> Figure:
+    """A chart of a trip: the envelopes, and for each leg its burn path from takeoff to
+    landing, drawn with its own dash pattern and marker and labelled with the leg's number
+    (``gid`` ``leg-2-burn-path``, ``leg-2-takeoff``, ``leg-2-landing``; ``-1`` suffixed in a
+    second panel).
+
+    Parameters
+    ----------
+    trip : a :class:`~loadcheck.results.TripResult`
+    """
+    caption = f"{trip.category} category, {len(trip.legs)} legs" + (f", {loading_label}" if loading_label else "")
+    figure = _figure(aircraft, trip.category, _title(aircraft, caption), None)
+    for index, (ax, panel) in enumerate(zip(figure.axes, _panels(aircraft, trip.category), strict=True)):
+        envelope, tag = panel[0], "" if index == 0 else f"-{index}"
+        for number, leg in enumerate(trip.legs):
+            check, style = leg.check, _LEG_LINES[number % len(_LEG_LINES)]
+            marker, name = _LEG_MARKERS[number % len(_LEG_MARKERS)], f"leg {leg.leg}"
+            samples = check.burn_path.samples
+            if len(samples) > 1:
+                path = [_coords(envelope, s.weight, s.arm, s.lateral_arm) for s in samples]
+                ax.plot([p[0] for p in path], [p[1] for p in path], color="#222222", linestyle=style, linewidth=1.6,
+                        zorder=3, label=f"{name}: fuel burn", gid=f"leg-{leg.leg}-burn-path{tag}")
+            for condition in (check.condition("takeoff"), check.condition("landing")):
+                x, y = _coords(envelope, condition.weight, condition.arm, condition.lateral_arm)
+                ax.plot([x], [y], marker=marker, markersize=7, color="white" if condition.condition == "landing" else "#222222",
+                        markeredgecolor="black", linestyle="none", zorder=4,
+                        gid=f"leg-{leg.leg}-{condition.condition}{tag}")
+                words = f"{leg.leg} {'T/O' if condition.condition == 'takeoff' else 'LDG'}"
+                ax.annotate(words + ("" if condition.ok else " (outside)"), (x, y), textcoords="offset points",
+                            xytext=(7, 4 if condition.condition == "takeoff" else -9), fontsize=7)
+        ax.legend(fontsize=7, loc="best", framealpha=0.9)
+    return figure

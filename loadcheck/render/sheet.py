@@ -22,7 +22,7 @@ if TYPE_CHECKING:
     from ..aircraft import Aircraft
     from ..loading import ResolvedLoading
 
-__all__ = ["load_sheet_html", "mechanic_sheet_html"]
+__all__ = ["load_sheet_html", "mechanic_sheet_html", "trip_sheet_html"]
 
 _NAMES = {"ramp": "Ramp", "takeoff": "Takeoff", "landing": "Landing", "zero_fuel": "Zero fuel"}
 
@@ -468,3 +468,37 @@ def mechanic_sheet_html(result: Any, units: Any, *, extremes: Any = None, source
         "</table>", "</body></html>",
     ]
     return "\n".join(parts)
+
+
+def trip_sheet_html(trip: Any, chart_svg: str | None = None, *, loading_label: str | None = None,
+                    when: dt.datetime | None = None) -> str:
+    """The load sheet of a trip: the trip's verdict naming each leg out of limits, then each
+    leg's own load sheet section (:func:`load_sheet_html` of the leg's check), the chart
+    with one path per leg, the caution and the signature block once.
+
+    Parameters
+    ----------
+    trip : a :class:`~loadcheck.results.TripResult`
+    """
+    when = when or dt.datetime.now().astimezone()
+    page = load_sheet_html(trip.legs[0].check, None, loading_label=loading_label, when=when)
+    head, _, rest = page.partition("<body>")
+    tail = rest[rest.index("<p class='caution'>"):]
+    title = rest[rest.index("<h1>") + 4:rest.index("</h1>")]
+    names = [f"Leg {leg.leg}" + (f" ({leg.label})" if leg.label else "") for leg in trip.legs]
+    failed = [name for name, leg in zip(names, trip.legs, strict=True) if not leg.check.ok]
+    verdict = "WITHIN LIMITS on every leg" if trip.ok else "OUT OF LIMITS on " + ", ".join(failed)
+    parts = [head + "<body>", f"<h1>{title}: a trip of {len(trip.legs)} legs</h1>",
+             f'<p class="verdict" id="trip-verdict">{escape(verdict)}</p>',
+             "<table><tr><th>Leg</th><th>Result</th></tr>"]
+    parts += [f"<tr><td>{escape(name)}</td><td>{'within limits' if leg.check.ok else 'OUT OF LIMITS'}</td></tr>"
+              for name, leg in zip(names, trip.legs, strict=True)]
+    parts.append("</table>")
+    for name, leg in zip(names, trip.legs, strict=True):
+        section = load_sheet_html(leg.check, None, loading_label=f"{loading_label or 'trip'}, {name.lower()}", when=when)
+        body = section[section.index("<body>") + 6:section.index("<p class='caution'>")]
+        body = body[:body.index("<h1>")] + f"<h2 id='leg-{leg.leg}'>{escape(name)}</h2>" + body[body.index("</h1>") + 5:]
+        parts.append(f"<section class='leg'>{body}</section>")
+    if chart_svg:
+        parts.append(f"<div class='chart'><h2>Envelope, every leg</h2>{chart_svg[chart_svg.find('<svg'):]}</div>")
+    return "\n".join(parts) + "\n" + tail

@@ -1,0 +1,98 @@
+"""Terminal output of a trip of several legs: every leg as a single check is shown, then the
+trip's verdict naming each leg out of limits, then the caution.
+
+Renderers compute nothing: every figure comes from the result. Meaning never rests on
+colour alone: every verdict is written in words.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Sequence
+from typing import TYPE_CHECKING
+
+from rich.console import Console
+from rich.panel import Panel
+from rich.text import Text
+
+from ..display import fmt
+from ..results import TripLeg, TripResult
+from ..words import count, stretch_text
+from .terminal import Column, _burn_line, _conditions_table, _lines, _moment_table, _print_table, caution_text
+
+if TYPE_CHECKING:
+    from ..trip import TripPlan
+
+__all__ = ["render_trip", "render_trip_plan", "trip_verdict"]
+
+_OK_STYLE, _LIMIT_STYLE, _WARN_STYLE = "bold green", "bold red", "bold yellow"
+
+
+def _leg_title(leg: TripLeg) -> str:
+    return f"Leg {leg.leg}" + (f" ({leg.label})" if leg.label else "")
+
+
+def trip_verdict(result: TripResult) -> str:
+    """The trip's verdict in words, naming every leg out of limits."""
+    if result.ok:
+        return f"WITHIN LIMITS on every leg ({len(result.legs)} legs): every condition, burn path and limit holds."
+    failed = "; ".join(f"{_leg_title(leg).lower()}: {count(len(leg.check.limits_exceeded), 'limit')} exceeded"
+                       for leg in result.failed_legs)
+    return f"OUT OF LIMITS on {failed}."
+
+
+def render_trip(result: TripResult, console: Console, plots: Sequence[Sequence[str]] = ()) -> None:
+    """Print a trip: a header, then for each leg its moment table, conditions, burn path
+    and findings (each finding tagged with its leg and condition), then the trip's
+    verdict and last the caution. ``plots`` are text plots, one per leg, if given."""
+    info = result.aircraft
+    header = info.name + (f" · {info.registration}" if info.registration else "")
+    header += f" · {result.category} category · data {info.fingerprint}"
+    if info.empty_weight_date:
+        header += f" · empty weight of {info.empty_weight_date}"
+    console.print(Text(header, style="bold"))
+    console.print(Text(f"A trip of {len(result.legs)} legs; each leg is checked as a single loading.", style="bold"))
+    units = result.units
+    for index, leg in enumerate(result.legs):
+        check = leg.check
+        state = "within limits" if check.ok else "OUT OF LIMITS"
+        console.print(Text(f"{_leg_title(leg)}: {state}", style=_OK_STYLE if check.ok else _LIMIT_STYLE))
+        ramp, landing = check.condition("ramp"), check.condition("landing")
+        console.print(f"fuel at engine start {fmt(ramp.fuel, units.fuel_volume)}, at landing "
+                      f"{fmt(landing.fuel, units.fuel_volume)}", markup=False)
+        _moment_table(check, console)
+        _conditions_table(check, console)
+        console.print(_burn_line(check))
+        tagged = [(Text("LIMIT" if f.severity == "limit" else "WARNING",
+                        style=_LIMIT_STYLE if f.severity == "limit" else _WARN_STYLE),
+                   Text(f"{_leg_title(leg).lower()}: {f.message}")) for f in check.findings]
+        if tagged:
+            _lines(console, tagged)
+        if index < len(plots):
+            for text in plots[index]:
+                console.print(text, markup=False, highlight=False)
+    console.print(Text("Margins are rounded down; an excess is rounded up.", style="dim"))
+    console.print(Panel(Text(trip_verdict(result), style=_OK_STYLE if result.ok else _LIMIT_STYLE), expand=False))
+    console.print(caution_text(result.caution))
+
+
+def render_trip_plan(plan: TripPlan, console: Console) -> None:
+    """Print a trip planning answer: the answer, every stretch within limits, what limits it,
+    and each leg's verdict at the answer."""
+    console.print(Text(plan.question[:1].upper() + plan.question[1:], style="bold"))
+    console.print(Text(f"{plan.variable}: {plan.answer_display}", style=_OK_STYLE if plan.feasible else _LIMIT_STYLE))
+    if plan.governing:
+        console.print(f"limited by: {plan.governing}", markup=False)
+    if "least" in plan.extra:
+        console.print(f"least that keeps every leg within limits: {plan.extra['least']}", markup=False)
+    if plan.intervals:
+        _print_table(console, f"{plan.variable} within limits ({plan.unit})", [Column("within limits")],
+                     [[stretch_text(i.low, i.high, plan.unit)] for i in plan.intervals])
+        console.print(Text("Stretches are rounded inward: the ends shown are within limits.", style="dim"))
+    if plan.trip is not None:
+        for leg in plan.trip.legs:
+            console.print(Text(f"{_leg_title(leg)} at this answer", style="bold"))
+            _conditions_table(leg.check, console)
+        console.print(Text(trip_verdict(plan.trip), style=_OK_STYLE if plan.trip.ok else _LIMIT_STYLE))
+        if plan.trip.limits_exceeded:
+            _lines(console, [(Text("  LIMIT", style=_LIMIT_STYLE), Text(f.message)) for f in plan.trip.limits_exceeded])
+    console.print(caution_text(plan.caution))

@@ -1,0 +1,307 @@
+"""A trip of several legs: every leg checked as a single loading, and planning for the trip.
+
+:func:`check_trip` resolves a trip (:func:`loadcheck.loading.resolve_trip`: each leg starts
+with the stations as changed at the stop and the fuel the previous leg landed with, tank
+by tank, plus the fuel put in) and runs :func:`~loadcheck.check.check_loading` on every leg,
+so every leg is checked exactly as a single loading is: ramp, takeoff, the whole burn path,
+landing, zero fuel, every limit. The trip is within limits exactly when every leg is.
+
+Planning (:func:`trip_most_fuel`, :func:`fuel_to_add`) asks the engine
+(:func:`loadcheck.engine.evaluate`) about every leg at once for many values of one
+quantity, carrying each row's landing fuel into the next leg, and finds the stretches
+within limits with :func:`loadcheck.planning.feasible_intervals`; the answer carries the
+full trip check at the figure shown. Each leg's taxi, trip and reserve are held at the
+volumes they resolve to in the loading as given (as :func:`loadcheck.planning.most_fuel`
+holds a single loading's).
+
+References
+----------
+FAA-H-8083-1B (2016) chapter 8, "Effects of Offloading Passengers and Using Fuel" (a
+helicopter within limits at the first takeoff, out of limits aft and laterally after the
+first leg's fuel is burned and a passenger gets off).
+"""
+
+from __future__ import annotations
+
+from collections.abc import Callable, Sequence
+from dataclasses import dataclass, replace
+
+import numpy as np
+
+from .aircraft import Aircraft
+from .caution import PILOT_CAUTION
+from .check import check_loading
+from .engine import evaluate, loading_arrays
+from .errors import InputError, LoadcheckError, Problem
+from .loading import BurnPlan, Loading, ResolvedTrip, StopFuel, landing_fuel, resolve_trip
+from .planning import (
+    _GRID_STEP,
+    Interval,
+    PlanResult,
+    _distribute,
+    _fill_order,
+    _fuel_capacity,
+    _mean_density,
+    feasible_intervals,
+    limit_words,
+    safe_value,
+)
+from .results import TripFinding, TripLeg, TripResult
+
+__all__ = ["TripPlan", "check_trip", "fuel_to_add", "leg_name", "trip_legs", "trip_most_fuel"]
+
+
+def leg_name(number: int, label: str | None = None) -> str:
+    """A leg in words: ``leg 2`` or ``leg 2 (back to base)``."""
+    return f"leg {number}" + (f" ({label})" if label else "")
+
+
+def _resolved(aircraft: Aircraft, trip: Loading | ResolvedTrip, category: str | None) -> ResolvedTrip:
+    return trip if isinstance(trip, ResolvedTrip) else resolve_trip(trip, aircraft, category=category)
+
+
+def _resolved_for_plan(aircraft: Aircraft, trip: Loading | ResolvedTrip, category: str | None, leg: int) -> ResolvedTrip:
+    """The trip to plan the fuel of ``leg`` (1: the first engine start; 2 or more: the stop
+    before it) for: as given, or, where the fuel given there does not let the trip be
+    resolved (too little for the burns), with every tank full there; that fuel is what
+    the plan replaces."""
+    try:
+        return _resolved(aircraft, trip, category)
+    except LoadcheckError:
+        if isinstance(trip, ResolvedTrip) or not 1 <= leg <= len(trip.leg) + 1:
+            raise
+        full = dict.fromkeys(aircraft.tanks, "full")
+        if leg == 1:
+            return resolve_trip(trip.model_copy(update={"fuel": full}), aircraft, category=category)
+        legs = list(trip.leg)
+        legs[leg - 2] = legs[leg - 2].model_copy(update={"add_fuel": full})
+        return resolve_trip(trip.model_copy(update={"leg": legs}), aircraft, category=category)
+
+
+def check_trip(
+    aircraft: Aircraft, trip: Loading | ResolvedTrip, *, category: str | None = None, samples: bool = True
+) -> TripResult:
+    """Check every leg of a trip against every limit of the aircraft.
+
+    Parameters
+    ----------
+    aircraft : the aircraft, with its current empty-weight record
+    trip : a loading with or without legs (resolved here), or a resolved trip
+    category : envelope category; default the loading's, else the aircraft's first
+    samples : points along each burn path for drawing it (the verdict never depends on them)
+
+    Returns
+    -------
+    TripResult
+        ``ok`` is true exactly when every leg's check is within limits; each leg carries
+        its full :class:`~loadcheck.results.CheckResult`; each finding names its leg.
+
+    Raises
+    ------
+    UnknownNameError, InputError
+        When the loading cannot be used with this aircraft (field paths name the leg).
+    """
+    resolved = _resolved(aircraft, trip, category)
+    legs: list[TripLeg] = []
+    findings: list[TripFinding] = []
+    labels = resolved.labels or (None,) * len(resolved.legs)
+    for number, (leg, label) in enumerate(zip(resolved.legs, labels, strict=True), start=1):
+        check = check_loading(aircraft, leg, samples=samples)
+        legs.append(TripLeg(leg=number, label=label, check=check))
+        findings += [TripFinding(leg=number, label=label, code=f.code, severity=f.severity, condition=f.condition,
+                                 message=f"{leg_name(number, label)}: {f.message}", excess=f.excess, unit=f.unit,
+                                 limit=f.limit, side=f.side, subject=f.subject) for f in check.findings]
+    first = legs[0].check
+    return TripResult(ok=all(leg.check.ok for leg in legs), category=first.category, aircraft=first.aircraft, legs=legs,
+                      findings=findings, units=first.units, caution=PILOT_CAUTION)
+
+
+def trip_legs(aircraft: Aircraft, trip: ResolvedTrip, start: int, fuel: dict[str, float]) -> ResolvedTrip:
+    """The trip with leg ``start`` (0-based) beginning with ``fuel`` in its tanks, and every
+    later leg carrying its fuel over again (landing fuel plus the stop's fuel)."""
+    legs = list(trip.legs)
+    for index in range(start, len(legs)):
+        legs[index] = replace(legs[index], fuel=fuel, plan=BurnPlan(fuel, legs[index].plan.order))
+        if index + 1 < len(legs):
+            fuel = trip.stops[index].apply(landing_fuel(legs[index]))
+    return replace(trip, legs=tuple(legs))
+
+
+def _legs_ok(aircraft: Aircraft, trip: ResolvedTrip, start: int, fuel: np.ndarray) -> np.ndarray:
+    """Engine verdict of legs ``start`` onwards, for N rows of fuel at that leg's engine start (N, T)."""
+    ids = [t.id for t in aircraft.tank]
+    ok = np.ones(len(fuel), dtype=bool)
+    for index in range(start, len(trip.legs)):
+        leg = trip.legs[index]
+        rows = loading_arrays(aircraft, leg)
+        n = len(fuel)
+        found = evaluate(aircraft, np.tile(rows.stations, (n, 1)), fuel, np.full(n, rows.taxi), np.full(n, rows.trip),
+                         order=rows.order, category=rows.category, density=rows.density)
+        ok &= found.ok
+        if index + 1 < len(trip.legs):
+            landed = {t: found.fuel["landing"][:, i] for i, t in enumerate(ids)}
+            stop = trip.stops[index]
+            ok &= np.asarray(stop.fills_up(landed), dtype=bool)
+            after = stop.apply(landed)
+            fuel = np.column_stack([np.broadcast_to(after[t], (n,)) for t in ids]) if ids else fuel
+    return ok
+
+
+@dataclass(frozen=True, kw_only=True, slots=True)
+class TripPlan(PlanResult):
+    """A planning answer for a trip: a :class:`~loadcheck.planning.PlanResult` whose check is
+    the trip's (``trip``, every leg at the figure shown); its own ``check`` stays None.
+    ``extra["least"]`` is the least of the variable that keeps every leg within limits."""
+
+    trip: TripResult | None = None
+
+
+def _first_limit(result: TripResult) -> str | None:
+    finding = next((f for f in result.findings if f.severity == "limit"), None)
+    if finding is None:
+        return None
+    return f"{leg_name(finding.leg, finding.label)}: " + limit_words(finding)  # type: ignore[arg-type]
+
+
+def _plan(
+    aircraft: Aircraft, pairs: list[tuple[float, float]], question: str, variable: str, ceiling: float,
+    at: Callable[[float], ResolvedTrip], step: float, why_not: Callable[[], str],
+) -> TripPlan:
+    """The most of the variable within the stretches found, with the trip's check at the figure shown."""
+    unit = aircraft.units.fuel_volume
+    if not pairs:
+        return TripPlan(question=question, variable=variable, unit=unit, feasible=False, intervals=[], answer=None,
+                        answer_display="no amount keeps every leg within limits", governing=why_not())
+    low, high = pairs[-1]
+    shown, text = safe_value(low, high, unit, "down")
+    check = check_trip(aircraft, at(shown), samples=False)
+    intervals = [Interval(low=lo, high=hi) for lo, hi in pairs]
+    if not check.ok:  # never bless a trip the check rejects
+        return TripPlan(question=question, variable=variable, unit=unit, feasible=False, intervals=intervals,
+                        answer=None, answer_display="no amount keeps every leg within limits",
+                        governing=_first_limit(check), trip=check)
+    if high >= ceiling - 1e-9 * max(1.0, ceiling):
+        governing: str | None = "the tanks' usable capacity"
+    else:
+        try:
+            governing = _first_limit(check_trip(aircraft, at(min(ceiling, high + 2 * step)), samples=False))
+        except LoadcheckError:
+            governing = None
+    extra = {}
+    if pairs[0][0] > 0:
+        extra["least"] = safe_value(pairs[0][0], pairs[0][1], unit, "up")[1]
+    return TripPlan(question=question, variable=variable, unit=unit, feasible=True, intervals=intervals, answer=high,
+                    answer_display=text, governing=governing, trip=check, extra=extra)
+
+
+def _why_not(aircraft: Aircraft, trip: ResolvedTrip) -> str:
+    try:
+        found = check_trip(aircraft, trip, samples=False)
+    except LoadcheckError as error:
+        return "; ".join(p.message for p in error.problems)
+    return ("with this load and these legs: " + (_first_limit(found) or "no amount is within limits"))
+
+
+def trip_most_fuel(
+    aircraft: Aircraft, trip: Loading | ResolvedTrip, *, fill: Sequence[str] | None = None, category: str | None = None
+) -> TripPlan:
+    """The most fuel at the first engine start that keeps every leg of the trip within limits.
+
+    Fuel goes into the tanks in ``fill`` order (default: the reverse of the first leg's burn
+    order, or every tank in proportion to its capacity when they burn together), as
+    :func:`loadcheck.planning.most_fuel` fills them; every later leg starts with what the
+    leg before it landed with plus the fuel put in at its stop, as given.
+
+    Returns
+    -------
+    TripPlan
+        ``variable`` is the first leg's ramp fuel [fuel volume unit]; ``extra["least"]``
+        the least fuel that keeps every leg within limits, where it is above zero.
+    """
+    resolved = _resolved_for_plan(aircraft, trip, category, 1)
+    first = resolved.legs[0]
+    order = _fill_order(aircraft, first, fill)
+    base = loading_arrays(aircraft, first)
+    capacity = _fuel_capacity(aircraft, order)
+    step = _GRID_STEP / _mean_density(aircraft, first)
+    ids = [t.id for t in aircraft.tank]
+
+    def at(total: float) -> ResolvedTrip:
+        row = _distribute(aircraft, base, order, np.array([total]))[0]
+        return trip_legs(aircraft, resolved, 0, {t: float(row[i]) for i, t in enumerate(ids)})
+
+    pairs = feasible_intervals(lambda x: _legs_ok(aircraft, resolved, 0, _distribute(aircraft, base, order, x)),
+                               0.0, capacity, step) if ids else []
+    return _plan(aircraft, pairs, "most fuel at the first engine start that keeps every leg within limits",
+                 "ramp fuel of leg 1", capacity, at, step,
+                 lambda: "this aircraft has no fuel tanks" if not ids else _why_not(aircraft, resolved))
+
+
+def _added(aircraft: Aircraft, on_board: dict[str, float], fill: list[str] | None, totals: np.ndarray) -> np.ndarray:
+    """Fuel in each tank (N, T) after putting ``totals`` in on top of ``on_board``: in the fill
+    order, each tank up to its usable capacity; or (None) in proportion to each tank's room."""
+    room = np.array([t.usable - on_board[t.id] for t in aircraft.tank]).clip(0.0)
+    start = np.array([on_board[t.id] for t in aircraft.tank])
+    out = np.tile(start, (len(totals), 1))
+    if fill is None:
+        if room.sum() > 0:
+            out += np.minimum(totals[:, None] / room.sum(), 1.0) * room
+        return out
+    ids = [t.id for t in aircraft.tank]
+    remaining = totals.copy()
+    for tank in fill:
+        index = ids.index(tank)
+        take = np.clip(remaining, 0.0, room[index])
+        out[:, index] += take
+        remaining = remaining - take
+    return out
+
+
+def fuel_to_add(
+    aircraft: Aircraft, trip: Loading | ResolvedTrip, leg: int, *, fill: Sequence[str] | None = None,
+    category: str | None = None,
+) -> TripPlan:
+    """The fuel to put in at the stop before leg ``leg`` (2 or more) so that every leg is within limits.
+
+    Everything else is as given: the fuel at the first engine start, the loads, every other
+    stop's fuel; the fuel this stop puts in is replaced by the amount asked about, added on
+    top of what the previous leg landed with, in ``fill`` order (default: the reverse of that
+    leg's burn order, or in proportion to each tank's room when they burn together).
+
+    Returns
+    -------
+    TripPlan
+        ``answer`` the most fuel that may be put in [fuel volume unit]; ``extra["least"]``
+        the least that keeps every leg within limits (enough for the legs' burns), where
+        above zero; ``intervals`` every stretch within limits.
+
+    Raises
+    ------
+    InputError
+        A leg that is not a stop of this trip.
+    """
+    resolved = _resolved_for_plan(aircraft, trip, category, leg)
+    if not 2 <= leg <= len(resolved.legs):
+        raise InputError(Problem("leg", f"the trip has {len(resolved.legs)} legs: a stop comes before legs 2 to "
+                                 f"{len(resolved.legs)}", value=leg, expected=f"2 to {len(resolved.legs)}"))
+    index = leg - 1
+    before = resolved.legs[index - 1]
+    on_board = landing_fuel(before)
+    order = _fill_order(aircraft, resolved.legs[index], fill)
+    room = sum(max(0.0, t.usable - on_board[t.id]) for t in (aircraft.tank if order is None else
+                                                              [aircraft.tanks[n] for n in order]))
+    ids = [t.id for t in aircraft.tank]
+    earlier = all(check_loading(aircraft, resolved.legs[i], samples=False).ok for i in range(index))
+    step = _GRID_STEP / _mean_density(aircraft, before)
+
+    def at(total: float) -> ResolvedTrip:
+        row = _added(aircraft, on_board, order, np.array([total]))[0]
+        stops = list(resolved.stops)
+        stops[index - 1] = StopFuel(added={t: float(row[i] - on_board[t]) for i, t in enumerate(ids)})
+        return trip_legs(aircraft, replace(resolved, stops=tuple(stops)), index, {t: float(row[i]) for i, t in enumerate(ids)})
+
+    pairs = feasible_intervals(lambda x: _legs_ok(aircraft, resolved, index, _added(aircraft, on_board, order, x)),
+                               0.0, room, step) if ids and earlier else []
+    return _plan(aircraft, pairs, f"fuel to put in at the stop before {leg_name(leg, resolved.labels[index] if resolved.labels else None)}",
+                 f"fuel added before leg {leg}", room, at, step,
+                 lambda: ("this aircraft has no fuel tanks" if not ids else _why_not(aircraft, resolved)))

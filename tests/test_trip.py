@@ -1,0 +1,417 @@
+"""Trips of several legs (issue 16 part 1): every leg checked as a single loading, fuel carried
+over tank by tank, the trip's verdict and exit status, planning for a trip.
+
+Source of the published case: FAA-H-8083-1B, *Aircraft Weight and Balance Handbook* (2016),
+chapter 8, "Determining the Loaded CG of a Helicopter", p. 8-3 (the same data in chapter 10,
+p. 10-5, figure 10-8), and "Effects of Offloading Passengers and Using Fuel" (26 gal burned,
+the passenger off: CG too far aft and too far right). Lateral arms positive to the right of
+butt line 0. The handbook prints some values truncated (-1,705.2 as -1,705, -0.774 as
+-0.77): each published figure is compared within one unit of its last printed digit.
+
+The envelope limits of the handbook's figure 8-3 are not given in its text: the limits of
+the test aircraft below are INVENTED (a longitudinal CG range of 92.0 to 96.0 in and a
+lateral offset moment range of -3,000 to +1,500 lb-in, 1,500 to 2,250 lb), chosen only so
+that the published first leg is inside and the published second leg outside, as the
+handbook finds.
+"""
+
+from __future__ import annotations
+
+import json
+
+import pytest
+import tomlkit
+from hypothesis import given, settings
+from hypothesis import strategies as st
+from typer.testing import CliRunner
+
+from loadcheck import check_loading, load_check_inputs
+from loadcheck.cli import app
+from loadcheck.errors import InputError, UnknownNameError
+from loadcheck.files import parse_aircraft
+from loadcheck.loading import Loading, resolve_trip
+from loadcheck.trip import check_trip, fuel_to_add, trip_most_fuel
+
+from .helpers import sample, simple_aircraft
+
+runner = CliRunner()
+
+# FAA-H-8083-1B (2016) ch. 8 p. 8-3: arms and weights as published; fuel 48 gal weighing
+# 288 lb, i.e. 6.0 lb/gal (avgas). Maximum gross weight 2,250 lb (published). Usable fuel
+# 48 gal and every envelope limit: INVENTED for the test.
+HANDBOOK_HELICOPTER = {
+    "name": "FAA-H-8083-1B ch. 8 helicopter (published arms, invented limits)",
+    "units": {"mass": "lb", "arm": "in", "fuel_volume": "usgal"},
+    "empty": {"weight": 1545.0, "arm": 101.4, "lateral_arm": 0.2},
+    "limits": {"max_takeoff_weight": 2250.0},
+    "station": [
+        {"id": "pilot_seat", "arm": 64.0, "lateral_arm": 13.5, "kind": "seat"},
+        {"id": "passenger_seat", "arm": 64.0, "lateral_arm": -13.5, "kind": "seat"},
+    ],
+    "tank": [{"id": "main", "arm": 96.0, "lateral_arm": -8.4, "usable": 48.0, "density": 6.0}],
+    "envelope": [
+        {"category": "normal", "label": "longitudinal", "axes": ["arm", "weight"],  # INVENTED limits
+         "points": [[92.0, 1500], [92.0, 2250], [96.0, 2250], [96.0, 1500]]},
+        {"category": "normal", "label": "lateral", "axes": ["lateral_moment", "weight"],  # INVENTED limits
+         "points": [[-3000, 1500], [-3000, 2250], [1500, 2250], [1500, 1500]]},
+    ],
+}
+HELICOPTER = parse_aircraft(HANDBOOK_HELICOPTER)
+
+FIRST_LEG = {"load": {"pilot_seat": 200, "passenger_seat": 170}, "fuel": {"main": 48}, "burn": {"taxi": 0, "trip": 26}}
+SECOND_LEG = {"label": "solo", "load": {"passenger_seat": 0}, "burn": {"taxi": 0, "trip": 10}}
+
+LOADING_FILE = """
+format = 1
+aircraft = "helicopter.toml"
+
+[load]
+pilot_seat = 200
+passenger_seat = 170
+
+[fuel]
+main = 48
+
+[burn]
+taxi = 0
+trip = 26
+
+[[leg]]
+label = "solo"
+load = { passenger_seat = 0 }
+burn = { taxi = 0, trip = 10 }
+"""
+
+
+def _write_files(tmp_path, text=LOADING_FILE):
+    (tmp_path / "helicopter.toml").write_bytes(tomlkit.dumps(HANDBOOK_HELICOPTER).encode())
+    path = tmp_path / "trip.toml"
+    path.write_text(text)
+    return path
+
+
+def _assert_published_first_leg(result):
+    ramp = result.condition("ramp")
+    # published: gross weight 2,203 lb; CG 94.4 in; within one unit of the last printed digit
+    assert abs(ramp.weight - 2203) <= 1
+    assert abs(ramp.arm - 94.4) <= 0.1
+    # lateral offset moments +309, +2,700, -2,295, -2,419 lb-in, total -1,705 lb-in (printed truncated)
+    moments = {i.id: i.lateral_moment for i in result.items}
+    for item, published in (("empty", 309), ("pilot_seat", 2700), ("passenger_seat", -2295)):
+        assert abs(moments[item] - published) <= 1
+    fuel = next(i for i in result.items if i.kind == "fuel")
+    assert abs(fuel.lateral_moment - (-2419)) <= 1
+    assert abs(ramp.lateral_moment - (-1705)) <= 1
+    # lateral CG -0.77 in (0.77 in left of butt line 0), printed truncated
+    assert abs(ramp.lateral_arm - (-0.77)) <= 0.01
+    assert ramp.weight <= 2250  # published maximum gross weight
+
+
+def test_faa_helicopter_published_case_through_the_api():
+    result = check_loading(HELICOPTER, Loading.model_validate(FIRST_LEG))
+    _assert_published_first_leg(result)
+    assert result.ok
+
+
+def test_faa_helicopter_published_case_through_a_loading_file(tmp_path):
+    path = _write_files(tmp_path, LOADING_FILE.split("[[leg]]")[0])
+    inputs = load_check_inputs(path)
+    result = check_loading(inputs.aircraft, inputs.loading)
+    _assert_published_first_leg(result)
+    assert result.ok
+
+
+# The second leg by hand (FAA-H-8083-1B ch. 8 method: sum the weights, the moments and the
+# lateral moments; CG = moment / weight):
+#   fuel after 26 gal burned: 48 - 26 = 22 gal x 6.0 lb/gal = 132 lb; passenger off
+#   weight   = 1,545 + 200 + 132                               = 1,877 lb
+#   moment   = 1,545 x 101.4 + 200 x 64 + 132 x 96
+#            = 156,663 + 12,800 + 12,672                        = 182,135 lb-in
+#   CG       = 182,135 / 1,877                                  = 97.035 in  (aft of the invented 96.0 limit)
+#   lateral  = 1,545 x 0.2 + 200 x 13.5 + 132 x (-8.4)
+#            = 309 + 2,700 - 1,108.8                            = +1,900.2 lb-in (right of the invented +1,500)
+LEG2_WEIGHT, LEG2_MOMENT, LEG2_LATERAL = 1877.0, 182135.0, 1900.2
+
+
+def test_two_legs_the_second_alone_fails_aft_and_right():
+    trip = check_trip(HELICOPTER, Loading.model_validate({**FIRST_LEG, "leg": [SECOND_LEG]}))
+    first, second = trip.legs[0].check, trip.legs[1].check
+    assert first.ok and not second.ok and not trip.ok
+    ramp = second.condition("ramp")
+    assert ramp.weight == pytest.approx(LEG2_WEIGHT)
+    assert ramp.moment == pytest.approx(LEG2_MOMENT)
+    assert ramp.lateral_moment == pytest.approx(LEG2_LATERAL)
+    assert ramp.arm == pytest.approx(97.035, abs=5e-4)
+    sides = {(f.side, f.subject) for f in second.limits_exceeded if f.condition == "ramp"}
+    assert ("aft", "the longitudinal envelope") in sides and ("right", "the lateral envelope") in sides
+    # every trip finding names its leg and condition; none belongs to leg 1
+    assert trip.limits_exceeded and all(f.leg == 2 and f.message.startswith("leg 2 (solo): ") for f in trip.limits_exceeded)
+    assert all(f.condition is not None for f in trip.limits_exceeded if f.code == "envelope")
+    # the first leg alone, as a single loading, passes; the second, written out by hand, fails the same way
+    assert check_loading(HELICOPTER, Loading.model_validate(FIRST_LEG)).to_dict() == trip.legs[0].check.to_dict()
+    alone = check_loading(HELICOPTER, Loading.model_validate(
+        {"load": {"pilot_seat": 200}, "fuel": {"main": 22}, "burn": {"taxi": 0, "trip": 10}}))
+    assert alone.to_dict() == second.to_dict()
+
+
+def test_the_trip_exits_1_naming_leg_2(tmp_path):
+    path = _write_files(tmp_path)
+    shown = runner.invoke(app, ["check", str(path)])
+    assert shown.exit_code == 1, shown.output
+    assert "OUT OF LIMITS on leg 2 (solo)" in shown.output and "Leg 1: within limits" in shown.output
+    assert "leg 2 (solo): " in shown.output
+    assert shown.output.rstrip().endswith("decides whether to fly.")
+    data = json.loads(runner.invoke(app, ["check", str(path), "--json"]).output)
+    assert data["ok"] is False and [leg["ok"] for leg in data["legs"]] == [True, False]
+    assert data["legs"][1]["leg"] == 2 and data["legs"][1]["label"] == "solo"
+    assert {"conditions", "burn_path", "findings", "items", "units", "caution"} <= set(data["legs"][0])
+    assert {f["leg"] for f in data["findings"] if f["severity"] == "limit"} == {2}
+    assert data["caution"] and data["units"]["mass"] == "lb"
+
+
+def test_the_command_line_takes_legs(tmp_path):
+    path = _write_files(tmp_path, LOADING_FILE.split("[[leg]]")[0])
+    same = runner.invoke(app, ["check", str(path), "--leg-load", "2:passenger_seat=0", "--leg-burn", "2:trip=10",
+                               "--leg-burn", "2:taxi=0", "--json"])
+    data = json.loads(same.output)
+    assert same.exit_code == 1 and data["legs"][1]["conditions"][0]["weight"] == pytest.approx(LEG2_WEIGHT)
+    # fuel put in at the stop moves the CG forward and left: 20 gal more at 96 in, -8.4 in
+    fuelled = runner.invoke(app, ["check", str(path), "--leg-load", "2:passenger_seat=0", "--leg-fuel", "2:main=20",
+                                  "--leg-burn", "2:trip=10", "--json"])
+    ramp = json.loads(fuelled.output)["legs"][1]["conditions"][0]
+    assert ramp["fuel"] == pytest.approx(42.0) and ramp["moment"] == pytest.approx(LEG2_MOMENT + 120 * 96)
+    skipped = runner.invoke(app, ["check", str(path), "--leg-burn", "3:trip=10"])
+    assert skipped.exit_code == 2 and "skips leg 2" in skipped.output
+
+
+def test_a_bad_leg_is_refused_with_its_field_path(tmp_path):
+    path = _write_files(tmp_path, LOADING_FILE.replace("passenger_seat = 0 }", "cargo = 0 }"))
+    result = runner.invoke(app, ["check", str(path)])
+    assert result.exit_code == 2 and "leg[0].load.cargo" in result.output and "leg 2" in result.output
+    assert "Traceback" not in result.output
+
+
+def test_no_job_checks_a_trip_as_its_first_leg_alone(tmp_path):
+    loading = Loading.model_validate({**FIRST_LEG, "leg": [SECOND_LEG]})
+    with pytest.raises(InputError, match="trip of 2 legs"):
+        check_loading(HELICOPTER, loading)
+    path = _write_files(tmp_path)
+    refused = runner.invoke(app, ["plan", "payload", str(path), "--station", "pilot_seat"])
+    assert refused.exit_code == 2 and "trip of 2 legs" in refused.output
+    assert "a trip of 2 legs" in " ".join(runner.invoke(app, ["validate", str(path)]).output.split())
+
+
+# -- fuel carried over and added ------------------------------------------------------------
+
+TWO_TANKS = simple_aircraft(tank=[{"id": "aux", "arm": 60.0, "usable": 10.0, "fuel": "avgas"},
+                                  {"id": "mains", "arm": 45.0, "usable": 40.0, "fuel": "avgas", "levels": {"tabs": 25.0}}])
+
+
+def _trip(*legs, **first):
+    base = {"load": {"front": 180}, "fuel": {"aux": 10, "mains": 30}, "burn": {"taxi": 1, "trip": 14, "order": ["aux", "mains"]}}
+    return Loading.model_validate({**base, **first, "leg": list(legs)})
+
+
+def test_fuel_carries_over_tank_by_tank_in_the_burn_order():
+    trip = resolve_trip(_trip({"burn": {"trip": 5}}, {"burn": {"trip": 3, "order": "together"}}), TWO_TANKS)
+    _, two, three = trip.legs
+    # leg 1 burns 15 gal, aux first: aux 10 -> 0, mains 30 -> 25
+    assert two.fuel == pytest.approx({"aux": 0.0, "mains": 25.0})
+    assert two.plan.order == ("aux", "mains")  # the order carries over where the leg gives none
+    assert three.fuel == pytest.approx({"aux": 0.0, "mains": 20.0}) and three.plan.order is None
+
+
+@pytest.mark.parametrize("add, aux, mains", [
+    ({"aux": 4}, 4.0, 25.0), ({"mains": "full"}, 0.0, 40.0), ({"mains": "tabs"}, 0.0, 25.0),
+    ({"aux": "12 lb", "mains": "3 usgal"}, 2.0, 28.0),  # 12 lb of avgas at 6.0 lb/US gal is 2 US gal
+])
+def test_fuel_added_at_a_stop(add, aux, mains):
+    trip = resolve_trip(_trip({"add_fuel": add, "burn": {"trip": 5}}), TWO_TANKS)
+    assert trip.legs[1].fuel == pytest.approx({"aux": aux, "mains": mains})
+    result = check_trip(TWO_TANKS, trip)
+    assert result.legs[1].check.condition("ramp").fuel == pytest.approx(aux + mains)
+
+
+@pytest.mark.parametrize("add, words, error", [
+    ({"mains": 20}, "above the tank's usable capacity", InputError),
+    ({"aux": "tabs"}, "unknown fill level", UnknownNameError),
+    ({"wing": 5}, "unknown tank", UnknownNameError),
+])
+def test_fuel_that_cannot_go_in_is_refused(add, words, error):
+    with pytest.raises(error, match=words):
+        resolve_trip(_trip({"add_fuel": add, "burn": {"trip": 5}}), TWO_TANKS)
+
+
+def test_a_level_below_the_fuel_on_board_is_refused():
+    with pytest.raises(InputError, match="more than the level"):  # 29 gal on board, tabs are 25
+        resolve_trip(_trip({"add_fuel": {"mains": "tabs"}, "burn": {"trip": 5}},
+                            burn={"taxi": 1, "trip": 10, "order": ["aux", "mains"]}), TWO_TANKS)
+
+
+def test_a_leg_that_burns_more_than_it_carries_is_refused():
+    with pytest.raises(InputError, match=r"leg 2: taxi and trip fuel"):
+        resolve_trip(_trip({"burn": {"trip": 30}}), TWO_TANKS)
+
+
+# -- one leg is today's check ----------------------------------------------------------------
+
+loadings = st.fixed_dictionaries({
+    "front": st.floats(0, 400), "rear": st.floats(0, 400), "bag": st.floats(0, 120),
+    "main": st.floats(0, 40), "taxi": st.floats(0, 1), "trip": st.floats(0, 1),
+})
+
+
+@settings(max_examples=60, deadline=None)
+@given(loadings)
+def test_a_trip_of_one_leg_equals_todays_single_check(v):
+    aircraft = simple_aircraft()
+    taxi = v["main"] * v["taxi"] * 0.1
+    loading = Loading.model_validate({"load": {"front": v["front"], "rear": v["rear"], "bag": v["bag"]},
+                                      "fuel": {"main": v["main"]},
+                                      "burn": {"taxi": taxi, "trip": (v["main"] - taxi) * v["trip"]}})
+    single = check_loading(aircraft, loading)
+    trip = check_trip(aircraft, loading)
+    assert len(trip.legs) == 1 and trip.ok == single.ok
+    assert trip.legs[0].check.to_dict() == single.to_dict()
+    assert [f.message for f in trip.findings] == [f"leg 1: {f.message}" for f in single.findings]
+
+
+def test_a_loading_without_legs_prints_todays_json():
+    path = sample("heli2/dual.toml")
+    data = json.loads(runner.invoke(app, ["check", str(path), "--json"]).output)
+    inputs = load_check_inputs(path)
+    assert data == json.loads(check_loading(inputs.aircraft, inputs.loading).to_json())
+    assert "legs" not in data
+
+
+# -- planning for a trip against brute force -------------------------------------------------
+
+
+# For planning, a variant of the handbook helicopter with INVENTED limits that let fuel
+# matter both ways: the aft limit at 98.0 in, a 60 gal tank. Then (FAA-H-8083-1B ch. 8
+# method) the first leg's ramp weight 1,915 + 6 x <= 2,250 lb bounds the first fuel
+# (x <= 55.8 gal), and leg 2, the passenger off, stays within the right lateral limit only with fuel on
+# the left: 3,009 - 50.4 f <= 1,500 lb-in, f >= 29.9 gal all the way to its landing.
+PLANNING = parse_aircraft({
+    **HANDBOOK_HELICOPTER,
+    "tank": [{"id": "main", "arm": 96.0, "lateral_arm": -8.4, "usable": 60.0, "density": 6.0}],
+    "envelope": [{**HANDBOOK_HELICOPTER["envelope"][0], "points": [[92.0, 1500], [92.0, 2250], [98.0, 2250], [98.0, 1500]]},
+                 HANDBOOK_HELICOPTER["envelope"][1]],
+})
+
+
+def _brute(high, build):
+    """The values from 0 to ``high`` for which the whole trip checks within limits: check_trip
+    on a 0.5 gal grid, then on a 0.01 gal grid across each change found (the stretches
+    here are wider than 0.5 gal, by the hand figures in the tests)."""
+
+    def good(value):
+        try:
+            return check_trip(PLANNING, Loading.model_validate(build(value)), samples=False).ok
+        except InputError:
+            return False
+
+    coarse = [i * 0.5 for i in range(int(high * 2) + 1)]
+    verdicts = [good(x) for x in coarse]
+    found = [x for x, ok in zip(coarse, verdicts) if ok]
+    for a, ok_a, ok_b in zip(coarse, verdicts, verdicts[1:]):
+        if ok_a != ok_b:
+            found += [x for x in (a + k * 0.01 for k in range(1, 50)) if good(x)]
+    return sorted(found)
+
+
+def test_most_fuel_for_a_trip_agrees_with_brute_force():
+    data = {**FIRST_LEG, "burn": {"taxi": 0, "trip": 8}, "leg": [{"load": {"passenger_seat": 0}, "burn": {"trip": 6}}]}
+    answer = trip_most_fuel(PLANNING, Loading.model_validate(data))
+    good = _brute(60, lambda x: data | {"fuel": {"main": x}})
+    assert good and answer.feasible and answer.trip is not None and answer.trip.ok
+    assert max(good) == pytest.approx((2250 - 1915) / 6, abs=0.01)  # by hand, above
+    assert min(good) == pytest.approx(8 + 6 + 1509 / 50.4, abs=0.01)
+    # the answer within the brute force's 0.01 gal step; the least as shown (0.1 gal, rounded up)
+    assert answer.answer == pytest.approx(max(good), abs=0.01 + 1e-9)
+    least = float(answer.extra["least"].split()[0])
+    assert least == pytest.approx(min(good), abs=0.1 + 1e-6) and least >= min(good) - 0.01  # never below what is needed
+    assert answer.governing is not None and answer.governing.startswith("leg 1")
+
+
+def test_fuel_to_add_at_a_stop_agrees_with_brute_force():
+    leg = {"load": {"passenger_seat": 0}, "burn": {"trip": 6}}
+    data = {**FIRST_LEG, "fuel": {"main": 40}, "burn": {"taxi": 0, "trip": 30}, "leg": [leg]}  # lands with 10 gal
+    answer = fuel_to_add(PLANNING, Loading.model_validate(data), 2)
+    good = _brute(50, lambda y: data | {"leg": [leg | {"add_fuel": {"main": y}}]})
+    assert good and answer.feasible and answer.trip is not None and answer.trip.ok
+    assert min(good) == pytest.approx(6 + 1509 / 50.4 - 10, abs=0.01)  # by hand: leg 2 lands with 29.9 gal
+    assert answer.answer == pytest.approx(max(good), abs=0.01 + 1e-9)
+    least = float(answer.extra["least"].split()[0])
+    assert least == pytest.approx(min(good), abs=0.1 + 1e-6) and least >= min(good) - 0.01  # never below what is needed
+
+
+def test_the_sample_trip_is_within_limits_on_every_leg(tmp_path):
+    result = runner.invoke(app, ["check", str(sample("heli2/trip_drop_off.toml")), "--chart", str(tmp_path / "t.svg"),
+                                 "--sheet", str(tmp_path / "t.html")])
+    assert result.exit_code == 0, result.output
+    svg = (tmp_path / "t.svg").read_text()
+    assert 'id="leg-1-burn-path"' in svg and 'id="leg-2-burn-path"' in svg
+    html = (tmp_path / "t.html").read_text()
+    assert "WITHIN LIMITS on every leg" in html and "id='leg-2'" in html and html.count("CAUTION") == 1
+
+
+def test_plan_commands_for_a_trip():
+    path = str(sample("heli2/trip_drop_off.toml"))
+    fuel = runner.invoke(app, ["plan", "fuel", path])
+    assert fuel.exit_code == 0 and "every leg" in fuel.output, fuel.output
+    stop = runner.invoke(app, ["plan", "stop", path, "--leg", "2", "--json"])
+    data = json.loads(stop.output)
+    assert stop.exit_code == 0 and data["feasible"] and data["trip"]["ok"] and len(data["trip"]["legs"]) == 2
+    assert runner.invoke(app, ["plan", "stop", path, "--leg", "3"]).exit_code == 2
+
+
+# -- the fleet CSV: a trip id groups rows into one trip --------------------------------------
+
+TRIP_CSV = """registration,reference,trip_id,left,right,bag_left,main,taxi,trip,reserve,label
+DEMO-H2,T1,A,170,185,15,full,0.5,11,4,field site and back
+DEMO-H2,,A,0,,0,5,0.5,12,4,"back to base, solo"
+DEMO-H2,T2,,170,190,,full,0.5,20,,
+"""
+
+
+def test_the_fleet_csv_groups_the_rows_of_a_trip(tmp_path):
+    from loadcheck.fleet import check_flights, load_fleet, read_loadings
+
+    path = tmp_path / "day.csv"
+    path.write_text(TRIP_CSV)
+    fleet = load_fleet(sample(""))
+    rows = list(read_loadings(path, fleet)[0])
+    assert [(r.line, r.trip, r.reference) for r in rows] == [(2, "A", "T1"), (4, None, "T2")]
+    trip = rows[0].loading
+    assert trip is not None and len(trip.leg) == 1 and not rows[0].problems
+    assert trip.leg[0].load == {"left": "0", "bag_left": "0"} and trip.leg[0].add_fuel == {"main": "5"}
+    # the same trip as the sample file: the same check, leg by leg
+    aircraft = fleet.aircraft("DEMO-H2")
+    from_csv = check_trip(aircraft, trip)
+    inputs = load_check_inputs(sample("heli2/trip_drop_off.toml"), allow_trip=True)
+    from_file = check_trip(inputs.aircraft, inputs.trip)
+    assert [leg.check.to_dict() for leg in from_csv.legs] == [leg.check.to_dict() for leg in from_file.legs]
+    # until the fleet check checks trips, a trip row is refused there, never checked as its first leg alone
+    flights = list(check_flights(fleet, rows))
+    assert flights[0].result is None and "trip of 2 legs" in " ".join(flights[0].problems)
+    assert flights[1].result is not None
+
+
+def test_rows_of_one_trip_come_together(tmp_path):
+    from loadcheck.fleet import load_fleet, read_loadings
+
+    lines = TRIP_CSV.splitlines()
+    path = tmp_path / "day.csv"
+    path.write_text("\n".join([lines[0], lines[1], lines[3], lines[2].replace(",,A,", ",T9,A,")]) + "\n")
+    rows = list(read_loadings(path, load_fleet(sample("")))[0])
+    assert len(rows) == 3 and rows[2].loading is None and "already given above" in rows[2].problems[0]
+
+
+def test_a_trip_is_not_recorded_as_one_leg_and_plots_every_leg(tmp_path):
+    path = str(sample("heli2/trip_drop_off.toml"))
+    refused = runner.invoke(app, ["check", path, "--record", str(tmp_path / "log.db")])
+    assert refused.exit_code == 2 and "cannot be recorded yet" in refused.output
+    assert not (tmp_path / "log.db").exists()
+    plotted = runner.invoke(app, ["check", path, "--plot"])
+    assert plotted.exit_code == 0 and plotted.output.count("Leg ") >= 2
