@@ -634,3 +634,13 @@ def test_a_removed_account_is_signed_out(desk: dict[str, Any]) -> None:
     client = _client(desk, "pia")
     UserStore(desk["users"]).remove("pia")
     assert client.get("/fleet", follow_redirects=False).status_code == 303
+
+
+def test_fleet_is_read_again_when_an_aircraft_file_changes(desk: dict[str, Any]) -> None:
+    client = _client(desk, "pia")
+    assert "DEMO-4T" in client.get("/fleet").text
+    trainer = desk["fleet"] / "trainer4" / "aircraft.toml"
+    trainer.write_text(trainer.read_text().replace('registration = "DEMO-4T"', 'registration = "DEMO-4X"'))
+    page = client.get("/fleet").text
+    assert "DEMO-4X" in page and "DEMO-4T" not in page
+    assert client.get("/aircraft/DEMO-4T").status_code == 422

@@ -89,11 +89,28 @@ class Desk:
         self.pending: OrderedDict[str, _Pending] = OrderedDict()
         self.workdir = Path(tempfile.mkdtemp(prefix="loadcheck-desk-"))
         self.lock = threading.Lock()
+        self._fleet: tuple[Any, Any] | None = None
 
     def fleet(self) -> Any:
+        """The fleet as its files are now: read again whenever any aircraft file changed (name, inode, size, time)."""
         from ..fleet import load_fleet
 
-        return load_fleet(self.fleet_dir)
+        try:
+            signature = tuple(sorted((str(p), *self._stat(p)) for p in self.fleet_dir.rglob("*.toml")))
+        except OSError:
+            signature = None
+        with self.lock:
+            if signature is not None and self._fleet is not None and self._fleet[0] == signature:
+                return self._fleet[1]
+        fleet = load_fleet(self.fleet_dir)
+        with self.lock:
+            self._fleet = (signature, fleet) if signature is not None else None
+        return fleet
+
+    @staticmethod
+    def _stat(path: Path) -> tuple[int, int, int]:
+        info = path.stat()
+        return info.st_ino, info.st_size, info.st_mtime_ns
 
     def aircraft_path(self, registration: str) -> tuple[Any, Path]:
         """The usable aircraft of a registration and its file (the fleet read afresh: a new record shows at once)."""
