@@ -408,6 +408,7 @@ def test_mechanic_weighing_needs_confirmation_then_writes_with_history(desk: dic
     now = load_aircraft(aircraft_file)
     assert now.empty.weight == pytest.approx(expected.weight) and now.empty.arm == pytest.approx(expected.arm)
     assert now.history[-1].by == "mo" and now.history[-1].previous.weight == 1652.0
+    assert now.history[-1].inputs["file"].endswith("/readings.toml")  # the upload's own name
     assert "# Four-seat nosewheel trainer" in aircraft_file.read_text()  # the comment-keeping write
     # the next check uses the new empty weight
     result = _post_check(_client(desk, "pia"), WITHIN).text
@@ -426,6 +427,7 @@ def test_mechanic_bad_readings_come_back_with_the_field_and_nothing_written(desk
     response = _propose(_client(desk, "mo"), text)
     assert response.status_code == 422 and "reading" in response.text and "nothing was written" in response.text
     assert "-541.0" in response.text  # what was typed is kept
+    assert "typed-in.toml" in response.text  # the source named as the mechanic knows it
     assert "/tmp" not in response.text and str(desk["fleet"]) not in response.text
     assert (desk["fleet"] / "trainer4" / "aircraft.toml").read_bytes() == before
 

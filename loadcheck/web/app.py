@@ -11,7 +11,9 @@ problems, with the field named and everything typed kept.
 from __future__ import annotations
 
 import datetime as dt
+import re
 import secrets
+import shutil
 import tempfile
 import threading
 import time
@@ -121,6 +123,7 @@ class Desk:
 
     def public(self, text: str) -> str:
         """A message as a page may show it: no folder of this machine in it."""
+        text = re.sub(re.escape(str(self.workdir)) + r"/[^/\s]+/", "", text)  # an upload is named by its own name
         for folder, name in ((self.workdir, "uploaded file"), (self.fleet_dir.resolve(), "fleet"), (self.fleet_dir, "fleet")):
             text = text.replace(str(folder) + "/", name + ": ").replace(str(folder), name)
         return text
@@ -518,14 +521,19 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
         if not csrf_ok(request.session, csrf):
             raise HTTPException(403, "the form's security token is missing or out of date: reload the page and try again")
         aircraft, path = desk.aircraft_path(registration)
-        content = (await upload.read()) if upload is not None and upload.filename else text.encode("utf-8")
+        uploaded = upload is not None and bool(upload.filename)
+        content = (await upload.read()) if upload is not None and uploaded else text.encode("utf-8")
         token = secrets.token_urlsafe(16)
-        source = desk.workdir / f"{token}.toml"
+        # the history names the file the record was made from: the upload's own name where it is a plain one
+        given = Path(upload.filename or "").name if upload is not None and uploaded else ""
+        name = given if re.fullmatch(r"[A-Za-z0-9][A-Za-z0-9._-]{0,80}\.toml", given) else ("uploaded.toml" if uploaded else "typed-in.toml")
+        (desk.workdir / token).mkdir()
+        source = desk.workdir / token / name
         source.write_bytes(content)
         try:
             proposal = propose(path, source, "alteration" if kind == "alteration" else "weighing")
         except (LoadcheckError, ValidationError) as error:
-            source.unlink(missing_ok=True)
+            shutil.rmtree(source.parent, ignore_errors=True)
             return page(request, "mechanic.html", 422, title=f"Empty-weight record: {registration}", aircraft=aircraft,
                         history=history(aircraft), problems=desk.problems(error),
                         typed={"kind": kind, "text": content.decode("utf-8", "replace")})
@@ -533,7 +541,7 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
             desk.pending[token] = _Pending(account.name, registration, proposal, source, time.monotonic())
             while len(desk.pending) > _MAX_PENDING:
                 _, old = desk.pending.popitem(last=False)
-                old.source.unlink(missing_ok=True)
+                shutil.rmtree(old.source.parent, ignore_errors=True)
         return page(request, "proposal.html", title=f"New empty-weight record: {registration}", aircraft=aircraft,
                     proposal=proposal, token=token, problems=[], extremes=proposal.extremes)
 
@@ -558,7 +566,7 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
                         proposal=pending.proposal, token=token, problems=desk.problems(error), extremes=pending.proposal.extremes)
         with desk.lock:
             desk.pending.pop(token, None)
-        pending.source.unlink(missing_ok=True)
+        shutil.rmtree(pending.source.parent, ignore_errors=True)
         aircraft, _ = desk.aircraft_path(registration)
         return page(request, "mechanic.html", title=f"Empty-weight record: {registration}", aircraft=aircraft,
                     history=history(aircraft), problems=[], typed={}, written=True)
