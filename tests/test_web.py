@@ -460,9 +460,20 @@ def test_markup_from_files_and_forms_is_shown_as_text(desk: dict[str, Any]) -> N
                  _post_check(client, {**WITHIN, "load.front": MARKUP}).text):
         assert "<script>" not in page and "<b>bold</b>" not in page
         assert "&lt;script&gt;" in page or "&lt;b&gt;" in page
+    sheet = _post_check(client, WITHIN, route="sheet").text  # the load sheet: the library's renderer escapes too
+    assert "<script>" not in sheet and "&lt;script&gt;" in sheet
     registration = desk["fleet"] / "tandem2" / "aircraft.toml"
     registration.write_text(registration.read_text().replace('registration = "DEMO-2T"', "registration = '<i>REG</i>'"))
     assert "<i>REG</i>" not in client.get("/fleet").text
+
+
+def test_a_note_with_markup_is_kept_as_text(desk: dict[str, Any]) -> None:
+    mo = _client(desk, "mo")
+    page = _propose(mo, (SAMPLES / "trainer4" / "weighing.toml").read_text()).text
+    token = re.search(r'name="token" value="([^"]+)"', page).group(1)  # type: ignore[union-attr]
+    written = mo.post("/mechanic/DEMO-4T/confirm", data={"token": token, "confirm": "yes", "note": MARKUP, "csrf": csrf_of(page)})
+    assert written.status_code == 200
+    assert "<script>" not in written.text and "&lt;script&gt;" in written.text  # the history shows the note as text
 
 
 def test_request_bodies_and_uploads_are_size_limited(desk: dict[str, Any]) -> None:
