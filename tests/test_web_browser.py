@@ -160,6 +160,8 @@ def test_mechanic_records_a_weighing_and_the_next_check_uses_it(browser: Any, se
     mechanic.click("button:has-text('Work out the new record')")
     assert mechanic.get_by_text("Current and new empty-weight record").is_visible()
     _no_sideways_scroll(mechanic)
+    new_column = mechanic.locator("table.compare th").nth(2).bounding_box()
+    assert new_column["x"] + new_column["width"] <= 360, "the new record's column must show on a phone without scrolling"
     _shot(mechanic, "mechanic-proposal")
     mechanic.check("input[name='confirm']")
     mechanic.click("button:has-text('Write the new record')")
