@@ -41,7 +41,7 @@ from .errors import FileFormatError, InputError, LoadcheckError, Problem
 from .results import Result
 
 __all__ = ["CurrentCheck", "CurrentVerification", "Record", "RecordLog", "Verification", "default_path", "export_text",
-           "results_match", "verify", "verify_current"]
+           "record_check", "results_match", "verify", "verify_current"]
 
 _COLUMNS = ("id, checked_at, registration, reference, pilot, source, category, ok, fingerprint, inputs, result, version, "
             "seal")
@@ -269,6 +269,34 @@ class RecordLog:
         query = f"SELECT {_COLUMNS} FROM checks{where} ORDER BY id"
         for row in self._db.execute(query, args):
             yield self._row(row)
+
+
+def record_check(log: RecordLog, inputs: Any, result: Any, *, source: str, version: str, pilot: str | None = None) -> int:
+    """Record one check: the loading as given (file and options or form merged) and the full result.
+
+    The one way a single check is recorded, for every front end (``check --record``, the web desk).
+
+    Parameters
+    ----------
+    log : the record log to append to
+    inputs : the :class:`~loadcheck.files.CheckInputs` that were checked
+    result : the :class:`~loadcheck.results.CheckResult` of ``inputs``
+    source : where the loading came from (a file name, "command line", "web desk")
+    version : the loadcheck version that made the check
+    pilot : who recorded it, where the loading does not name its pilot
+
+    Returns
+    -------
+    int
+        The new record's id.
+    """
+    given = inputs.given
+    return log.add(
+        aircraft_data=inputs.aircraft.model_dump(mode="json"), fingerprint=inputs.aircraft.fingerprint,
+        inputs=given.model_dump(mode="json", exclude_none=True), result=result.to_dict(),
+        registration=inputs.aircraft.registration, reference=given.reference or given.label, pilot=given.pilot or pilot,
+        source=source, version=version,
+    )
 
 
 _CSV_HEAD = ["id", "checked_at", "registration", "reference", "pilot", "source", "category", "ok", "fingerprint",

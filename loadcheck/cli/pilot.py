@@ -164,17 +164,11 @@ def _check_trip(inputs: Any, json_out: bool, chart: Path | None, sheet: Path | N
 
 def _record_single(record: str, inputs: Any, result: Any) -> None:
     """Record one check: the loading as given (file and options merged) and the full result."""
-    from ..records import RecordLog, default_path
+    from ..records import RecordLog, default_path, record_check
 
-    given = inputs.given
     path = default_path() if record == "default" else Path(record)
     with RecordLog(path) as log:
-        record_id = log.add(
-            aircraft_data=inputs.aircraft.model_dump(mode="json"), fingerprint=inputs.aircraft.fingerprint,
-            inputs=given.model_dump(mode="json", exclude_none=True), result=result.to_dict(),
-            registration=inputs.aircraft.registration, reference=given.reference or given.label, pilot=given.pilot,
-            source=str(inputs.loading_file or "command line"), version=__version__,
-        )
+        record_id = record_check(log, inputs, result, source=str(inputs.loading_file or "command line"), version=__version__)
     _console(stderr=True).print(f"recorded as {record_id} in {path}", markup=False)
 
 

@@ -1,0 +1,112 @@
+"""The desk's commands: ``serve`` starts the local web service, ``users`` manages its accounts."""
+
+from __future__ import annotations
+
+import sys
+from pathlib import Path
+from typing import TYPE_CHECKING, Annotated
+
+import typer
+
+from ..errors import InputError, Problem
+from .common import _console, app, input_errors
+
+__all__ = ["users_app"]
+
+if TYPE_CHECKING:
+    from ..web.users import UserStore
+
+UsersOpt = Annotated[Path | None, typer.Option("--users", help="Accounts file (default: $LOADCHECK_USERS, else the user data folder).")]
+
+
+def _store(users: Path | None) -> UserStore:
+    from ..web.users import UserStore, default_users_path
+
+    return UserStore(users if users is not None else default_users_path())
+
+
+@app.command()
+@input_errors
+def serve(
+    fleet: Annotated[Path, typer.Argument(help="Fleet folder (aircraft files).")],
+    db: Annotated[Path | None, typer.Option("--db", help="Record of checks (default: the command line's).")] = None,
+    users: UsersOpt = None,
+    host: Annotated[str, typer.Option(help="Address to listen on (loopback unless --allow-remote).")] = "127.0.0.1",
+    port: Annotated[int, typer.Option(min=1, max=65535, help="Port.")] = 8400,
+    allow_remote: Annotated[bool, typer.Option("--allow-remote", help="Listen on a non-loopback address (put it behind TLS).")] = False,
+) -> None:
+    """Start the flight school's desk: a local web service for pilots, dispatcher and mechanic.
+
+    Example:
+
+      loadcheck serve sample_aircraft --port 8400
+    """
+    from ..web.security import bind_caution
+
+    caution = bind_caution(host, allow_remote)
+    import uvicorn
+
+    from ..records import default_path
+    from ..web import create_app
+
+    application = create_app(fleet, db=db, users=users, https_only=False)
+    err = _console(stderr=True)
+    if caution:
+        err.print(caution, markup=False)
+    err.print(f"the desk: http://{host}:{port}/ · fleet {fleet} · records {db or default_path()}", markup=False)
+    uvicorn.run(application, host=host, port=port, log_level="warning", server_header=False)
+
+
+users_app = typer.Typer(help="The desk's accounts: each with one or more roles (pilot, dispatcher, mechanic).", no_args_is_help=True)
+app.add_typer(users_app, name="users")
+
+RoleOpt = Annotated[list[str], typer.Option("--role", "-r", help="pilot, dispatcher or mechanic; repeat for several.")]
+StdinOpt = Annotated[bool, typer.Option("--password-stdin", help="Read the password from standard input (one line).")]
+
+
+def _password(from_stdin: bool) -> str:
+    if from_stdin:
+        return sys.stdin.readline().rstrip("\r\n")
+    if not sys.stdin.isatty():
+        raise InputError(Problem("--password-stdin", "standard input is not a terminal: give --password-stdin and the password on it"))
+    return str(typer.prompt("Password", hide_input=True, confirmation_prompt=True))
+
+
+@users_app.command("add")
+@input_errors
+def users_add(name: Annotated[str, typer.Argument(help="Account name.")], role: RoleOpt = [],  # noqa: B006
+              password_stdin: StdinOpt = False, users: UsersOpt = None) -> None:
+    """Add an account (the password is stored only as an argon2 hash).
+
+    Example:
+
+      echo 'a long pass phrase' | loadcheck users add robin --role pilot --password-stdin
+    """
+    store = _store(users)
+    account = store.add(name, _password(password_stdin), role)
+    _console(stderr=True).print(f"account {account.name} added: {', '.join(account.roles)}", markup=False)
+
+
+@users_app.command("list")
+@input_errors
+def users_list(users: UsersOpt = None) -> None:
+    """List the accounts and their roles."""
+    for account in _store(users).accounts():
+        typer.echo(f"{account.name}\t{', '.join(account.roles)}")
+
+
+@users_app.command("remove")
+@input_errors
+def users_remove(name: Annotated[str, typer.Argument(help="Account name.")], users: UsersOpt = None) -> None:
+    """Remove an account (its recorded checks stay in the record)."""
+    _store(users).remove(name)
+    _console(stderr=True).print(f"account {name} removed", markup=False)
+
+
+@users_app.command("passwd")
+@input_errors
+def users_passwd(name: Annotated[str, typer.Argument(help="Account name.")], password_stdin: StdinOpt = False,
+                 users: UsersOpt = None) -> None:
+    """Give an account a new password."""
+    _store(users).set_password(name, _password(password_stdin))
+    _console(stderr=True).print(f"password of {name} changed", markup=False)

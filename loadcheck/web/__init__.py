@@ -1,0 +1,21 @@
+"""The flight school's desk: a local web service over loadcheck's library jobs.
+
+Pilots check and record loadings and plan fuel or payload; the dispatcher watches every
+recorded check, verifies and exports them; the mechanic makes a new empty-weight record
+from a weighing or an alteration. The same engine, fleet folder and record log as the
+command line. The web stack (FastAPI, Jinja2, argon2) is imported only from this package,
+and only when the desk is started; see docs/web.md.
+"""
+
+from __future__ import annotations
+
+from typing import Any
+
+__all__ = ["create_app"]
+
+
+def create_app(*args: Any, **kwargs: Any) -> Any:
+    """The desk's ASGI application (:func:`loadcheck.web.app.create_app`)."""
+    from .app import create_app as make
+
+    return make(*args, **kwargs)

@@ -1,0 +1,650 @@
+"""The desk's application: pages and the JSON API over the library's jobs.
+
+Routes parse a form or a JSON body, call one library job (the same as the command line:
+:func:`~loadcheck.files.load_check_inputs`, :func:`~loadcheck.check.check_loading`,
+:func:`~loadcheck.planning.most_fuel`, :func:`~loadcheck.records.record_check`,
+:func:`~loadcheck.empty_record.propose` ...) and render its result. They hold no
+arithmetic and no validation of their own; a bad value comes back as the library's
+problems, with the field named and everything typed kept.
+"""
+
+from __future__ import annotations
+
+import datetime as dt
+import re
+import secrets
+import shutil
+import tempfile
+import threading
+import time
+from collections import OrderedDict
+from dataclasses import dataclass
+from pathlib import Path
+from typing import Any
+
+from fastapi import FastAPI, Form, HTTPException, Request, UploadFile
+from fastapi.exceptions import RequestValidationError
+from fastapi.responses import HTMLResponse, JSONResponse, PlainTextResponse, RedirectResponse, Response
+from fastapi.staticfiles import StaticFiles
+from fastapi.templating import Jinja2Templates
+from pydantic import BaseModel, ConfigDict, Field, ValidationError
+from starlette.exceptions import HTTPException as StarletteHTTPException
+from starlette.middleware.sessions import SessionMiddleware
+
+from .. import __version__
+from ..caution import MECHANIC_CAUTION, PILOT_CAUTION
+from ..display import fmt
+from ..errors import LoadcheckError
+from ..words import burn_path_summary, condition_words, stretch_text
+from .security import MAX_BODY_BYTES, BodyLimit, SignInThrottle, csrf_ok, csrf_token
+from .users import Account, UserStore
+
+__all__ = ["CheckRequest", "PayloadRequest", "create_app"]
+
+_HERE = Path(__file__).parent
+_MAX_PENDING = 50
+_CHART_LOCK = threading.Lock()  # matplotlib's figure machinery is not meant to be driven from many threads at once
+
+
+class _SignInNeeded(Exception):
+    """The request has no signed-in account."""
+
+
+class CheckRequest(BaseModel):
+    """A loading for the API: the same fields as a loading file's ``[load]``, ``[fuel]`` and ``[burn]``."""
+
+    model_config = ConfigDict(extra="forbid")
+
+    registration: str = Field(description="the aircraft, by registration, in the desk's fleet")
+    load: dict[str, str | float] = Field(default_factory=dict, description="mass per station: a number [mass unit] or with a unit")
+    fuel: dict[str, str | float] = Field(default_factory=dict, description="quantity per tank at engine start: volume, 'full', a level name")
+    burn: dict[str, Any] = Field(default_factory=dict, description="taxi, trip or trip_time and rate, order, reserve")
+    category: str | None = Field(None, description="envelope category (default: the file's first)")
+    record: bool = Field(False, description="record the check in the desk's log (POST /api/check only)")
+
+
+class PayloadRequest(CheckRequest):
+    """A loading and the station whose most payload is asked for."""
+
+    station: str = Field(description="station id")
+
+
+@dataclass
+class _Pending:
+    """A mechanic's proposed record, waiting for confirmation."""
+
+    user: str
+    registration: str
+    proposal: Any
+    source: Path
+    made: float
+
+
+class Desk:
+    """What the routes share: the fleet folder, the record log's file, the accounts, the guards."""
+
+    def __init__(self, fleet_dir: Path, db: Path, users: UserStore):
+        self.fleet_dir = fleet_dir
+        self.db = db
+        self.users = users
+        self.throttle = SignInThrottle()
+        self.pending: OrderedDict[str, _Pending] = OrderedDict()
+        self.workdir = Path(tempfile.mkdtemp(prefix="loadcheck-desk-"))
+        self.lock = threading.Lock()
+        self._fleet: tuple[Any, Any] | None = None
+
+    def fleet(self) -> Any:
+        """The fleet as its files are now: read again whenever any aircraft file changed (name, inode, size, time)."""
+        from ..fleet import load_fleet
+
+        try:
+            signature = tuple(sorted((str(p), *self._stat(p)) for p in self.fleet_dir.rglob("*.toml")))
+        except OSError:
+            signature = None
+        with self.lock:
+            if signature is not None and self._fleet is not None and self._fleet[0] == signature:
+                return self._fleet[1]
+        fleet = load_fleet(self.fleet_dir)
+        with self.lock:
+            self._fleet = (signature, fleet) if signature is not None else None
+        return fleet
+
+    @staticmethod
+    def _stat(path: Path) -> tuple[int, int, int]:
+        info = path.stat()
+        return info.st_ino, info.st_size, info.st_mtime_ns
+
+    def aircraft_path(self, registration: str) -> tuple[Any, Path]:
+        """The usable aircraft of a registration and its file (the fleet read afresh: a new record shows at once)."""
+        fleet = self.fleet()
+        aircraft = fleet.aircraft(registration)
+        entry = next(e for e in fleet.entries if e.registration == registration)
+        return aircraft, entry.path
+
+    def public(self, text: str) -> str:
+        """A message as a page may show it: no folder of this machine in it."""
+        text = re.sub(re.escape(str(self.workdir)) + r"/[^/\s]+/", "", text)  # an upload is named by its own name
+        for folder, name in ((self.workdir, "uploaded file"), (self.fleet_dir.resolve(), "fleet"), (self.fleet_dir, "fleet")):
+            text = text.replace(str(folder) + "/", name + ": ").replace(str(folder), name)
+        return text
+
+    def problems(self, error: Exception) -> list[dict[str, Any]]:
+        """The problems of a library error, for a page or the API (no paths of this machine)."""
+        if isinstance(error, ValidationError):
+            from ..files import problems_from_validation
+
+            found = problems_from_validation(error)
+            prefix = ""
+        else:
+            assert isinstance(error, LoadcheckError)
+            found = error.problems
+            prefix = f"{error.file}: " if error.file else ""
+        return [{"field": p.field, "message": self.public(prefix + p.describe()), "value": None if p.value is None else str(p.value),
+                 "expected": p.expected} for p in found]
+
+
+def _account(request: Request) -> Account:
+    name = request.session.get("user")
+    account = request.app.state.desk.users.get(name) if isinstance(name, str) else None
+    if account is None:
+        raise _SignInNeeded()
+    return account
+
+
+def _need(request: Request, role: str, *also: str) -> Account:
+    account = _account(request)
+    if not any(account.has(r) for r in (role, *also)):
+        raise HTTPException(403, f"this page is for the {' or '.join((role, *also))} role")
+    return account
+
+
+async def _form(request: Request) -> Any:
+    """The posted form, refused (403) without the session's CSRF token."""
+    form = await request.form()
+    if not csrf_ok(request.session, form.get("csrf")):
+        raise HTTPException(403, "the form's security token is missing or out of date: reload the page and try again")
+    return form
+
+
+def _split_order(value: str) -> str | list[str]:
+    return "together" if value.strip() == "together" else [t.strip() for t in value.split(",") if t.strip()]
+
+
+def _overrides(form: Any, aircraft: Any) -> tuple[dict[str, str], dict[str, Any]]:
+    """The form's values as typed (to show again) and as the library's overrides (empty fields left out)."""
+    typed: dict[str, str] = {}
+    load: dict[str, str] = {}
+    fuel: dict[str, str] = {}
+    burn: dict[str, Any] = {}
+    for station in aircraft.station:
+        typed[f"load.{station.id}"] = value = str(form.get(f"load.{station.id}", "")).strip()
+        if value:
+            load[station.id] = value
+    for tank in aircraft.tank:
+        typed[f"fuel.{tank.id}"] = value = str(form.get(f"fuel.{tank.id}", "")).strip()
+        if value:
+            fuel[tank.id] = value
+    for key in ("taxi", "trip", "trip_time", "rate", "reserve", "order"):
+        typed[f"burn.{key}"] = value = str(form.get(f"burn.{key}", "")).strip()
+        if value:
+            burn[key] = _split_order(value) if key == "order" else value
+    typed["category"] = category = str(form.get("category", "")).strip()
+    typed["station"] = str(form.get("station", "")).strip()
+    return typed, {"load": load, "fuel": fuel, "burn": burn, "category": category or None}
+
+
+def _inputs(desk: Desk, registration: str, overrides: dict[str, Any]) -> Any:
+    from ..files import load_check_inputs
+
+    _, path = desk.aircraft_path(registration)
+    return load_check_inputs(path, None, **overrides)
+
+
+def _chart_svg(inputs: Any, result: Any) -> str:
+    from ..render.chart import check_figure, figure_svg
+
+    with _CHART_LOCK:
+        return figure_svg(check_figure(inputs.aircraft, result, inputs.label))
+
+
+def _svg_body(svg: str) -> str:
+    start = svg.find("<svg")
+    return svg[start:] if start != -1 else svg
+
+
+def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: str | Path | None = None,
+               secret: str | None = None, https_only: bool = False) -> FastAPI:
+    """The desk as an ASGI application.
+
+    Parameters
+    ----------
+    fleet_dir : the fleet folder (aircraft files; the mechanic's writes go there)
+    db : the record log (default: the command line's, :func:`loadcheck.records.default_path`)
+    users : the accounts file (default: :func:`loadcheck.web.users.default_users_path`)
+    secret : the key signing session cookies (default: a new random one, so a restart signs everyone out)
+    https_only : mark the session cookie Secure (behind a TLS proxy)
+    """
+    from ..fleet import load_fleet
+    from ..records import default_path
+    from .users import default_users_path
+
+    folder = Path(fleet_dir)
+    load_fleet(folder)  # refuse to start on a folder that is not a fleet
+    desk = Desk(folder, Path(db) if db is not None else default_path(), UserStore(users if users is not None else default_users_path()))
+    app = FastAPI(title="loadcheck desk", version=__version__, docs_url=None, redoc_url=None, openapi_url=None,
+                  description="The flight school's desk: checks, planning, the record of checks and the empty-weight record, "
+                              "over loadcheck's library. Advisory: " + PILOT_CAUTION)
+    app.state.desk = desk
+    app.add_middleware(SessionMiddleware, secret_key=secret or secrets.token_urlsafe(32), session_cookie="desk_session",
+                       max_age=12 * 3600, same_site="strict", https_only=https_only)
+    app.add_middleware(BodyLimit, limit=MAX_BODY_BYTES)
+    app.mount("/static", StaticFiles(directory=_HERE / "static"), name="static")
+    templates = Jinja2Templates(directory=str(_HERE / "templates"))
+    env = templates.env
+    env.globals.update(fmt=fmt, condition_words=condition_words, burn_path_summary=burn_path_summary, stretch_text=stretch_text,
+                       PILOT_CAUTION=PILOT_CAUTION, MECHANIC_CAUTION=MECHANIC_CAUTION, version=__version__)
+
+    def page(request: Request, template: str, status: int = 200, **context: Any) -> HTMLResponse:
+        account = None
+        try:
+            account = _account(request)
+        except _SignInNeeded:
+            pass
+        return templates.TemplateResponse(request, template, {"account": account, "csrf": csrf_token(request.session), **context},
+                                          status_code=status)
+
+    # -- errors: never a traceback, never a path of this machine ---------------------------------
+
+    @app.exception_handler(_SignInNeeded)
+    async def _sign_in(request: Request, _: Exception) -> Response:
+        if request.url.path.startswith("/api/"):
+            return JSONResponse({"detail": "sign in first"}, status_code=401)
+        return RedirectResponse("/signin", status_code=303)
+
+    @app.exception_handler(StarletteHTTPException)
+    async def _http(request: Request, error: StarletteHTTPException) -> Response:
+        detail = str(error.detail) if error.status_code != 404 else "There is no such page."
+        if request.url.path.startswith("/api/"):
+            return JSONResponse({"detail": detail}, status_code=error.status_code)
+        return page(request, "message.html", error.status_code, title="Not possible here", message=detail)
+
+    @app.exception_handler(RequestValidationError)
+    async def _invalid(request: Request, error: RequestValidationError) -> Response:
+        problems = [{"field": ".".join(str(p) for p in e.get("loc", ()) if p != "body"), "message": e.get("msg", "")}
+                    for e in error.errors()]
+        if request.url.path.startswith("/api/"):
+            return JSONResponse({"problems": problems}, status_code=422)
+        return page(request, "message.html", 422, title="The request cannot be used",
+                    message="; ".join(f"{p['field']}: {p['message']}" for p in problems))
+
+    @app.exception_handler(LoadcheckError)
+    async def _refused(request: Request, error: LoadcheckError) -> Response:
+        problems = desk.problems(error)
+        if request.url.path.startswith("/api/"):
+            return JSONResponse({"problems": problems}, status_code=422)
+        return page(request, "message.html", 422, title="Cannot be used", message="; ".join(p["message"] for p in problems))
+
+    @app.exception_handler(Exception)
+    async def _bug(request: Request, error: Exception) -> Response:
+        message = "Internal error: no result was produced and nothing was recorded. Please report it."
+        if request.url.path.startswith("/api/"):
+            return JSONResponse({"detail": message}, status_code=500)
+        return HTMLResponse(f"<!doctype html><title>Internal error</title><p>{message}</p>", status_code=500)
+
+    # -- signing in and out ----------------------------------------------------------------------
+
+    @app.get("/signin", response_class=HTMLResponse)
+    def signin_page(request: Request) -> Response:
+        return page(request, "signin.html", title="Sign in")
+
+    @app.post("/signin", response_class=HTMLResponse)
+    async def signin(request: Request) -> Response:
+        form = await _form(request)
+        name, password = str(form.get("name", "")), str(form.get("password", ""))
+        client = request.client.host if request.client else "unknown"
+        keys = [f"name:{name}", f"client:{client}"]
+        wait = desk.throttle.wait(keys)
+        if wait > 0:
+            return page(request, "signin.html", 429, title="Sign in", name=name,
+                        error=f"Too many failed sign-ins: wait {int(wait) + 1} seconds and try again.")
+        account = desk.users.verify(name, password)
+        if account is None:
+            desk.throttle.failed(keys)
+            return page(request, "signin.html", 401, title="Sign in", name=name, error="That name and password do not match.")
+        desk.throttle.succeeded(keys[0])
+        request.session.clear()
+        request.session["user"] = account.name
+        request.session["csrf"] = secrets.token_urlsafe(32)
+        return RedirectResponse("/fleet", status_code=303)
+
+    @app.post("/signout")
+    async def signout(request: Request) -> Response:
+        await _form(request)
+        request.session.clear()
+        return RedirectResponse("/signin", status_code=303)
+
+    @app.get("/")
+    def home(request: Request) -> Response:
+        _account(request)
+        return RedirectResponse("/fleet", status_code=303)
+
+    # -- the fleet -------------------------------------------------------------------------------
+
+    @app.get("/fleet", response_class=HTMLResponse)
+    def fleet_page(request: Request, max_age: int = 365) -> Response:
+        _account(request)
+        from ..fleet import fleet_listing
+
+        lines = fleet_listing(desk.fleet(), max_age)
+        return page(request, "fleet.html", title="Fleet", lines=lines, max_age=max_age, public=desk.public)
+
+    # -- the pilot: check a loading, plan, record, the load sheet --------------------------------
+
+    @app.get("/aircraft/{registration}", response_class=HTMLResponse)
+    def check_form(request: Request, registration: str) -> Response:
+        _need(request, "pilot")
+        aircraft, _ = desk.aircraft_path(registration)
+        return page(request, "check.html", title=f"Check a loading: {registration}", aircraft=aircraft, typed={}, problems=[])
+
+    async def _checked(request: Request, registration: str) -> tuple[Any, Any, dict[str, str], Any, Any]:
+        """The form read and checked: (account, aircraft, typed values, inputs or None, problems or result)."""
+        account = _need(request, "pilot")
+        form = await _form(request)
+        aircraft, _ = desk.aircraft_path(registration)
+        typed, overrides = _overrides(form, aircraft)
+        try:
+            inputs = _inputs(desk, registration, overrides)
+        except (LoadcheckError, ValidationError) as error:
+            return account, aircraft, typed, None, desk.problems(error)
+        return account, aircraft, typed, inputs, form
+
+    def _form_again(request: Request, aircraft: Any, typed: dict[str, str], problems: list[dict[str, Any]]) -> Response:
+        return page(request, "check.html", 422, title=f"Check a loading: {aircraft.registration}", aircraft=aircraft,
+                    typed=typed, problems=problems, bad={p["field"] for p in problems})
+
+    @app.post("/aircraft/{registration}/edit", response_class=HTMLResponse)
+    async def edit(request: Request, registration: str) -> Response:
+        _need(request, "pilot")
+        form = await _form(request)
+        aircraft, _ = desk.aircraft_path(registration)
+        typed, _ = _overrides(form, aircraft)
+        return page(request, "check.html", title=f"Check a loading: {registration}", aircraft=aircraft, typed=typed, problems=[])
+
+    @app.post("/aircraft/{registration}/check", response_class=HTMLResponse)
+    async def check(request: Request, registration: str) -> Response:
+        from ..check import check_loading
+
+        _, aircraft, typed, inputs, form = await _checked(request, registration)
+        if inputs is None:
+            return _form_again(request, aircraft, typed, form)
+        action = str(form.get("action", "check"))
+        try:
+            if action in ("fuel", "payload"):
+                from ..planning import most_fuel, most_payload
+
+                plan = most_fuel(inputs.aircraft, inputs.loading) if action == "fuel" else \
+                    most_payload(inputs.aircraft, inputs.loading, typed["station"])
+                return page(request, "plan.html", title=f"Planning: {registration}", aircraft=aircraft, plan=plan, typed=typed)
+            result = check_loading(inputs.aircraft, inputs.loading)
+        except (LoadcheckError, ValidationError) as error:
+            return _form_again(request, aircraft, typed, desk.problems(error))
+        return page(request, "result.html", title=f"Result: {registration}", aircraft=aircraft, result=result, typed=typed,
+                    chart=_svg_body(_chart_svg(inputs, result)))
+
+    @app.post("/aircraft/{registration}/record")
+    async def record(request: Request, registration: str) -> Response:
+        from ..check import check_loading
+        from ..records import RecordLog, record_check
+
+        account, aircraft, typed, inputs, form = await _checked(request, registration)
+        if inputs is None:
+            return _form_again(request, aircraft, typed, form)
+        result = check_loading(inputs.aircraft, inputs.loading)
+        with RecordLog(desk.db) as log:
+            record_id = record_check(log, inputs, result, source="web desk", version=__version__, pilot=account.name)
+        return RedirectResponse(f"/records/{record_id}", status_code=303)
+
+    @app.post("/aircraft/{registration}/sheet", response_class=HTMLResponse)
+    async def sheet(request: Request, registration: str) -> Response:
+        from ..check import check_loading
+        from ..render.sheet import load_sheet_html
+
+        _, aircraft, typed, inputs, form = await _checked(request, registration)
+        if inputs is None:
+            return _form_again(request, aircraft, typed, form)
+        result = check_loading(inputs.aircraft, inputs.loading)
+        return HTMLResponse(load_sheet_html(result, _chart_svg(inputs, result), loading_label=inputs.label))
+
+    # -- the record of checks --------------------------------------------------------------------
+
+    def _visible(account: Account, records: Any) -> Any:
+        """Every record for a dispatcher; a pilot's own otherwise."""
+        return records if account.has("dispatcher") else (r for r in records if r.pilot == account.name)
+
+    def _found(account: Account, registration: str | None, verdict: str | None, day: dt.date | None) -> list[Any]:
+        from ..records import RecordLog
+
+        if not desk.db.exists():
+            return []
+        with RecordLog(desk.db) as log:
+            records = list(_visible(account, log.find(since=day, until=day, registration=registration or None)))
+        if verdict in ("within", "out"):
+            records = [r for r in records if r.ok == (verdict == "within")]
+        return records
+
+    def _day(date: str | None) -> dt.date | None:
+        if date is None:
+            return dt.datetime.now(dt.UTC).date()
+        if not date.strip():
+            return None
+        try:
+            return dt.date.fromisoformat(date.strip())
+        except ValueError:
+            raise HTTPException(422, f"date: not a date: {date!r}; expected YYYY-MM-DD") from None
+
+    @app.get("/records", response_class=HTMLResponse)
+    def records_page(request: Request, registration: str | None = None, verdict: str | None = None,
+                     date: str | None = None) -> Response:
+        account = _account(request)
+        day = _day(date)
+        records = _found(account, registration, verdict, day)
+        registrations = sorted(e.registration for e in desk.fleet().entries if e.registration)
+        return page(request, "records.html", title="Checks", records=records, registrations=registrations,
+                    chosen={"registration": registration or "", "verdict": verdict or "", "date": "" if day is None else day.isoformat()})
+
+    def _record(account: Account, record_id: int) -> Any:
+        from ..records import RecordLog
+
+        if not desk.db.exists():
+            raise HTTPException(404)
+        with RecordLog(desk.db) as log:
+            try:
+                found = log.get(record_id)
+            except LoadcheckError:
+                raise HTTPException(404) from None
+        if not account.has("dispatcher") and found.pilot != account.name:
+            raise HTTPException(404)  # a pilot does not learn whether another's record exists
+        return found
+
+    @app.get("/records/export")
+    def export(request: Request, format: str = "csv", registration: str | None = None, verdict: str | None = None,
+               date: str | None = None) -> Response:
+        from ..records import export_text
+
+        account = _account(request)
+        if format not in ("csv", "jsonl"):
+            raise HTTPException(422, f"format: {format!r} is not an export format; expected csv or jsonl")
+        text = export_text(_found(account, registration, verdict, _day(date)), format)
+        kind = "text/csv" if format == "csv" else "application/x-ndjson"
+        return PlainTextResponse(text, media_type=kind, headers={"content-disposition": f'attachment; filename="checks.{format}"'})
+
+    @app.get("/records/{record_id}", response_class=HTMLResponse)
+    def record_page(request: Request, record_id: int) -> Response:
+        import json
+
+        account = _account(request)
+        found = _record(account, record_id)
+        return page(request, "record.html", title=f"Check {record_id}", record=found, verification=None,
+                    inputs_json=json.dumps(found.inputs, indent=2))
+
+    @app.post("/records/{record_id}/verify", response_class=HTMLResponse)
+    async def verify_page(request: Request, record_id: int) -> Response:
+        import json
+
+        from ..records import RecordLog, verify
+
+        account = _need(request, "dispatcher")
+        await _form(request)
+        found = _record(account, record_id)
+        with RecordLog(desk.db) as log:
+            verification = verify(log, record_id)
+        return page(request, "record.html", title=f"Check {record_id}", record=found, verification=verification,
+                    inputs_json=json.dumps(found.inputs, indent=2))
+
+    # -- the mechanic: a new empty-weight record -------------------------------------------------
+
+    @app.get("/mechanic/{registration}", response_class=HTMLResponse)
+    def mechanic_page(request: Request, registration: str) -> Response:
+        from ..empty_record import history
+
+        _need(request, "mechanic")
+        aircraft, _ = desk.aircraft_path(registration)
+        return page(request, "mechanic.html", title=f"Empty-weight record: {registration}", aircraft=aircraft,
+                    history=history(aircraft), problems=[], typed={})
+
+    @app.post("/mechanic/{registration}/propose", response_class=HTMLResponse)
+    async def propose_page(request: Request, registration: str, kind: str = Form("weighing"), text: str = Form(""),
+                           upload: UploadFile | None = None, csrf: str = Form("")) -> Response:
+        from ..empty_record import history, propose
+
+        account = _need(request, "mechanic")
+        if not csrf_ok(request.session, csrf):
+            raise HTTPException(403, "the form's security token is missing or out of date: reload the page and try again")
+        aircraft, path = desk.aircraft_path(registration)
+        uploaded = upload is not None and bool(upload.filename)
+        content = (await upload.read()) if upload is not None and uploaded else text.encode("utf-8")
+        token = secrets.token_urlsafe(16)
+        # the history names the file the record was made from: the upload's own name where it is a plain one
+        given = Path(upload.filename or "").name if upload is not None and uploaded else ""
+        name = given if re.fullmatch(r"[A-Za-z0-9][A-Za-z0-9._-]{0,80}\.toml", given) else ("uploaded.toml" if uploaded else "typed-in.toml")
+        (desk.workdir / token).mkdir()
+        source = desk.workdir / token / name
+        source.write_bytes(content)
+        try:
+            proposal = propose(path, source, "alteration" if kind == "alteration" else "weighing")
+        except (LoadcheckError, ValidationError) as error:
+            shutil.rmtree(source.parent, ignore_errors=True)
+            return page(request, "mechanic.html", 422, title=f"Empty-weight record: {registration}", aircraft=aircraft,
+                        history=history(aircraft), problems=desk.problems(error),
+                        typed={"kind": kind, "text": content.decode("utf-8", "replace")})
+        with desk.lock:
+            desk.pending[token] = _Pending(account.name, registration, proposal, source, time.monotonic())
+            while len(desk.pending) > _MAX_PENDING:
+                _, old = desk.pending.popitem(last=False)
+                shutil.rmtree(old.source.parent, ignore_errors=True)
+        return page(request, "proposal.html", title=f"New empty-weight record: {registration}", aircraft=aircraft,
+                    proposal=proposal, token=token, problems=[], extremes=proposal.extremes)
+
+    @app.post("/mechanic/{registration}/confirm", response_class=HTMLResponse)
+    async def confirm_page(request: Request, registration: str) -> Response:
+        from ..empty_record import history, make_current
+
+        account = _need(request, "mechanic")
+        form = await _form(request)
+        token = str(form.get("token", ""))
+        with desk.lock:
+            pending = desk.pending.get(token)
+        if pending is None or pending.user != account.name or pending.registration != registration:
+            raise HTTPException(404, "this proposed record is no longer waiting: enter the weighing or changes again")
+        note = str(form.get("note", "")).strip() or None
+        try:
+            make_current(pending.proposal, confirmed=form.get("confirm") == "yes", override=form.get("override") == "yes",
+                         by=account.name, note=note)
+        except LoadcheckError as error:
+            aircraft, _ = desk.aircraft_path(registration)
+            return page(request, "proposal.html", 409, title=f"New empty-weight record: {registration}", aircraft=aircraft,
+                        proposal=pending.proposal, token=token, problems=desk.problems(error), extremes=pending.proposal.extremes)
+        with desk.lock:
+            desk.pending.pop(token, None)
+        shutil.rmtree(pending.source.parent, ignore_errors=True)
+        aircraft, _ = desk.aircraft_path(registration)
+        return page(request, "mechanic.html", title=f"Empty-weight record: {registration}", aircraft=aircraft,
+                    history=history(aircraft), problems=[], typed={}, written=True)
+
+    # -- the JSON API: the command line's JSON shapes --------------------------------------------
+
+    def _api_inputs(body: CheckRequest) -> Any:
+        return _inputs(desk, body.registration, {"load": body.load, "fuel": body.fuel, "burn": body.burn, "category": body.category})
+
+    def _api_error(error: Exception) -> JSONResponse:
+        return JSONResponse({"problems": desk.problems(error)}, status_code=422)
+
+    @app.get("/api/openapi.json", include_in_schema=False)
+    def openapi(request: Request) -> JSONResponse:
+        _account(request)
+        return JSONResponse(app.openapi())
+
+    @app.get("/api/fleet")
+    def api_fleet(request: Request, max_age: int = 365) -> list[dict[str, Any]]:
+        """The fleet listing (as ``fleet list --json``): each aircraft's record date, useful load, fingerprint, problems."""
+        from ..fleet import fleet_listing
+
+        _account(request)
+        return [line.to_dict() for line in fleet_listing(desk.fleet(), max_age)]
+
+    @app.post("/api/check")
+    def api_check(request: Request, body: CheckRequest) -> Any:
+        """Check a loading (the JSON of ``check --json``); with ``record``, record it and give its ``record_id``."""
+        from ..check import check_loading
+        from ..records import RecordLog, record_check
+
+        account = _need(request, "pilot")
+        try:
+            inputs = _api_inputs(body)
+        except (LoadcheckError, ValidationError) as error:
+            return _api_error(error)
+        result = check_loading(inputs.aircraft, inputs.loading)
+        answer = result.to_dict()
+        if body.record:
+            with RecordLog(desk.db) as log:
+                answer["record_id"] = record_check(log, inputs, result, source="web desk", version=__version__, pilot=account.name)
+        return answer
+
+    @app.post("/api/plan/fuel")
+    def api_plan_fuel(request: Request, body: CheckRequest) -> Any:
+        """The most fuel at engine start for this load (the JSON of ``plan fuel --json``)."""
+        from ..planning import most_fuel
+
+        _need(request, "pilot")
+        try:
+            inputs = _api_inputs(body)
+            return most_fuel(inputs.aircraft, inputs.loading).to_dict()
+        except (LoadcheckError, ValidationError) as error:
+            return _api_error(error)
+
+    @app.post("/api/plan/payload")
+    def api_plan_payload(request: Request, body: PayloadRequest) -> Any:
+        """The most payload at a station (the JSON of ``plan payload --json``)."""
+        from ..planning import most_payload
+
+        _need(request, "pilot")
+        try:
+            inputs = _api_inputs(body)
+            return most_payload(inputs.aircraft, inputs.loading, body.station).to_dict()
+        except (LoadcheckError, ValidationError) as error:
+            return _api_error(error)
+
+    @app.get("/api/records")
+    def api_records(request: Request, registration: str | None = None, verdict: str | None = None,
+                    date: str | None = None) -> list[dict[str, Any]]:
+        """Records of checks (a pilot's own; every pilot's for a dispatcher), without their inputs and results."""
+        account = _account(request)
+        return [r.summary() for r in _found(account, registration, verdict, _day(date if date is not None else ""))]
+
+    @app.get("/api/records/{record_id}")
+    def api_record(request: Request, record_id: int) -> dict[str, Any]:
+        """One record with its inputs and result (as ``records export --format jsonl`` gives it)."""
+        found = _record(_account(request), record_id)
+        return {**found.summary(), "inputs": found.inputs, "result": found.result}
+
+    return app

@@ -1,0 +1,659 @@
+"""The desk's pages and API through the framework's test client (issue 19).
+
+The figures a check shows come from the engine (tests/test_check.py holds their sources);
+these tests check that the desk calls the same jobs as the command line and gives their
+answers unchanged, and each security rule of the issue.
+"""
+
+from __future__ import annotations
+
+import json
+import re
+from pathlib import Path
+from typing import Any
+
+import pytest
+
+pytest.importorskip("fastapi")
+pytest.importorskip("argon2")
+
+from fastapi.testclient import TestClient
+
+from loadcheck.check import check_loading
+from loadcheck.files import load_check_inputs
+from loadcheck.records import RecordLog
+from loadcheck.web import create_app
+
+from .web_helpers import PASSWORD, SAMPLES, csrf_of, make_desk, sign_in
+
+WITHIN = {"load.front": "340", "load.rear": "160", "load.bag1": "15 kg", "fuel.mains": "tabs",
+          "burn.taxi": "1.2", "burn.trip": "18", "burn.reserve": "8"}
+
+
+@pytest.fixture()
+def desk(tmp_path: Path) -> dict[str, Any]:
+    fleet, db, users = make_desk(tmp_path)
+    app = create_app(fleet, db=db, users=users, secret="test secret")
+    return {"app": app, "fleet": fleet, "db": db, "users": users}
+
+
+def _client(desk: dict[str, Any], name: str | None = None) -> TestClient:
+    client = TestClient(desk["app"], client=("127.0.0.1", 50000))
+    if name is not None:
+        assert sign_in(client, name).status_code == 303
+    return client
+
+
+def _post_check(client: TestClient, values: dict[str, str], registration: str = "DEMO-4T", action: str = "check",
+                route: str = "check") -> Any:
+    form = client.get(f"/aircraft/{registration}")
+    return client.post(f"/aircraft/{registration}/{route}", data={**values, "action": action, "csrf": csrf_of(form.text)},
+                       follow_redirects=False)
+
+
+def _records(desk: dict[str, Any]) -> list[Any]:
+    if not desk["db"].exists():
+        return []
+    with RecordLog(desk["db"]) as log:
+        return list(log.find())
+
+
+# -- signing in ----------------------------------------------------------------------------------
+
+def test_every_page_but_sign_in_needs_signing_in(desk: dict[str, Any]) -> None:
+    client = _client(desk)
+    assert client.get("/signin").status_code == 200
+    for path in ("/", "/fleet", "/aircraft/DEMO-4T", "/records", "/records/1", "/records/export", "/mechanic/DEMO-4T"):
+        response = client.get(path, follow_redirects=False)
+        assert response.status_code == 303 and response.headers["location"] == "/signin", path
+    for path in ("/api/fleet", "/api/records", "/api/records/1", "/api/openapi.json"):
+        assert client.get(path).status_code == 401, path
+    assert client.post("/api/check", json={"registration": "DEMO-4T"}).status_code == 401
+    assert client.get("/docs").status_code == 404 and client.get("/openapi.json").status_code == 404  # no pages fetching outside scripts
+
+
+def test_sign_in_and_out(desk: dict[str, Any]) -> None:
+    client = _client(desk)
+    assert sign_in(client, "pia", "wrong password").status_code == 401
+    assert sign_in(client, "pia").status_code == 303
+    fleet = client.get("/fleet")
+    assert fleet.status_code == 200 and "pia (pilot)" in fleet.text
+    signout = client.post("/signout", data={"csrf": csrf_of(fleet.text)}, follow_redirects=False)
+    assert signout.status_code == 303
+    assert client.get("/fleet", follow_redirects=False).status_code == 303
+
+
+def test_session_cookie_is_httponly_and_samesite(desk: dict[str, Any]) -> None:
+    response = sign_in(_client(desk), "pia")
+    cookie = response.headers["set-cookie"].lower()
+    assert "httponly" in cookie and "samesite=strict" in cookie
+
+
+def test_passwords_are_stored_only_as_argon2_hashes(desk: dict[str, Any]) -> None:
+    text = desk["users"].read_text()
+    assert PASSWORD not in text
+    hashes = [entry["hash"] for entry in json.loads(text)["users"].values()]
+    assert len(hashes) == 4 and all(h.startswith("$argon2id$") for h in hashes)
+    assert desk["users"].stat().st_mode & 0o077 == 0  # readable by its owner only
+
+
+def test_repeated_failed_sign_ins_are_slowed(desk: dict[str, Any]) -> None:
+    client = _client(desk)
+    for _ in range(5):
+        assert sign_in(client, "pia", "not the password").status_code == 401
+    refused = sign_in(client, "pia")  # the right password, too soon after five failures
+    assert refused.status_code == 429 and "Too many failed sign-ins" in refused.text
+    assert client.get("/fleet", follow_redirects=False).status_code == 303
+
+
+def test_sign_in_form_needs_its_csrf_token(desk: dict[str, Any]) -> None:
+    client = _client(desk)
+    client.get("/signin")
+    response = client.post("/signin", data={"name": "pia", "password": PASSWORD})
+    assert response.status_code == 403
+
+
+def test_every_form_is_csrf_protected(desk: dict[str, Any]) -> None:
+    client = _client(desk, "pia")
+    for path in ("/aircraft/DEMO-4T/check", "/aircraft/DEMO-4T/record", "/aircraft/DEMO-4T/sheet", "/aircraft/DEMO-4T/edit",
+                 "/signout"):
+        assert client.post(path, data=WITHIN).status_code == 403, path
+        assert client.post(path, data={**WITHIN, "csrf": "forged"}).status_code == 403, path
+    mechanic = _client(desk, "mo")
+    assert mechanic.post("/mechanic/DEMO-4T/propose", data={"kind": "weighing", "text": ""}).status_code == 403
+    assert mechanic.post("/mechanic/DEMO-4T/confirm", data={"token": "x", "confirm": "yes"}).status_code == 403
+    dispatcher = _client(desk, "dan")
+    assert dispatcher.post("/records/1/verify", data={}).status_code == 403
+    assert _records(desk) == []
+
+
+def test_api_takes_only_json_bodies(desk: dict[str, Any]) -> None:
+    """A cross-site form cannot post JSON: a form-encoded or text body is refused, nothing is recorded."""
+    client = _client(desk, "pia")
+    body = json.dumps({"registration": "DEMO-4T", "load": {"front": 340}, "record": True})
+    for kind in ("text/plain", "application/x-www-form-urlencoded"):
+        response = client.post("/api/check", content=body, headers={"content-type": kind})
+        assert response.status_code == 422, kind
+    assert _records(desk) == []
+
+
+# -- the fleet -----------------------------------------------------------------------------------
+
+def test_fleet_lists_every_aircraft_with_its_figures(desk: dict[str, Any]) -> None:
+    from loadcheck.files import load_aircraft
+
+    page = _client(desk, "pia").get("/fleet").text
+    trainer = load_aircraft(SAMPLES / "trainer4" / "aircraft.toml")
+    for reg in ("DEMO-4T", "DEMO-6P"):
+        assert reg in page
+    assert trainer.fingerprint in page and "2026-02-09" in page
+    from loadcheck.display import fmt
+
+    assert fmt(trainer.empty.weight, "lb") in page and fmt(trainer.useful_load, "lb", "down") in page
+
+
+def test_fleet_flags_an_invalid_file_and_an_undated_record(desk: dict[str, Any]) -> None:
+    bad = desk["fleet"] / "broken.toml"
+    bad.write_text('format = 1\nname = "x"\nregistration = "BROKEN-1"\n[units]\nmass = "lb"\narm = "in"\nfuel_volume = "usgal"\n')
+    trainer = (desk["fleet"] / "trainer4" / "aircraft.toml")
+    undated = desk["fleet"] / "undated.toml"
+    undated.write_text(trainer.read_text().replace('registration = "DEMO-4T"', 'registration = "UNDATED-1"').replace("date = 2026-02-09\n", ""))
+    page = _client(desk, "pia").get("/fleet").text
+    row = page[page.index("BROKEN-1"):]
+    assert "cannot be used" in row[:2000]
+    assert "not dated" in page[page.index("UNDATED-1"):][:3000]
+    assert str(desk["fleet"]) not in page  # no path of this machine
+
+
+def test_fleet_api_is_the_fleet_listing(desk: dict[str, Any]) -> None:
+    from loadcheck.fleet import fleet_listing, load_fleet
+
+    answer = _client(desk, "dan").get("/api/fleet").json()
+    expected = [line.to_dict() for line in fleet_listing(load_fleet(desk["fleet"]), 365)]
+    assert answer == expected
+
+
+# -- the pilot: check, record, sheet, plan -------------------------------------------------------
+
+def test_check_form_lists_stations_tanks_and_burn(desk: dict[str, Any]) -> None:
+    page = _client(desk, "pia").get("/aircraft/DEMO-4T").text
+    for words in ("Pilot and front passenger", "max 410.0 lb", "Baggage area 2", "Wing tanks", "usable 48.0", '"tabs"', '"full"',
+                  "burn.taxi", "burn.trip_time", "burn.rate", "burn.reserve", "utility"):
+        assert words in page, words
+
+
+def test_check_within_limits_leads_with_the_verdict_in_words(desk: dict[str, Any]) -> None:
+    response = _post_check(_client(desk, "pia"), WITHIN)
+    assert response.status_code == 200
+    page = response.text
+    main = page[page.index("<main>"):]
+    assert main.index("Within limits:") < main.index("Moment table") < main.index("Conditions and margins") \
+        < main.index("Fuel burn") < main.index("Findings") < main.index("<svg") < page.index("Caution:")
+    inputs = load_check_inputs(SAMPLES / "trainer4" / "aircraft.toml", SAMPLES / "trainer4" / "within.toml")
+    result = check_loading(inputs.aircraft, inputs.loading)
+    assert result.ok
+    from loadcheck.display import fmt
+
+    assert fmt(result.condition("takeoff").weight, "lb", with_unit=False) in page
+    assert _records(desk) == []  # checking records nothing
+
+
+def test_check_whose_burn_path_leaves_the_envelope_says_so(desk: dict[str, Any]) -> None:
+    """sample twin6/leaves_path.toml: all four conditions inside, the burn path outside (the CLI's test of it)."""
+    values = {"load.row1": "380", "load.row2": "340", "load.nose": "200", "fuel.mains": "100", "fuel.aux": "40",
+              "burn.taxi": "2", "burn.trip": "90", "burn.order": "aux,mains"}
+    inputs = load_check_inputs(SAMPLES / "twin6" / "leaves_path.toml")
+    expected = check_loading(inputs.aircraft, inputs.loading)
+    page = _post_check(_client(desk, "pia"), values, "DEMO-6P").text
+    assert "Not within limits:" in page and "Within limits:" not in page
+    assert expected.ok is False and expected.burn_path.ok is False
+    from html import escape
+
+    from loadcheck.words import burn_path_summary
+    assert escape(burn_path_summary(expected)) in page
+
+
+def test_a_bad_value_brings_the_form_back_with_the_field_named_and_nothing_recorded(desk: dict[str, Any]) -> None:
+    values = {**WITHIN, "load.rear": "160 stone", "burn.taxi": "1.2"}
+    response = _post_check(_client(desk, "pia"), values, route="record")
+    assert response.status_code == 422
+    page = response.text
+    assert "load.rear" in page and "stone" in page
+    assert 'value="160 stone"' in page and 'value="15 kg"' in page and 'value="1.2"' in page  # everything typed kept
+    assert re.search(r'class="field bad">\s*<label for="load.rear"', page)
+    assert _records(desk) == []
+
+
+def test_an_unknown_level_is_refused_by_the_library(desk: dict[str, Any]) -> None:
+    page = _post_check(_client(desk, "pia"), {**WITHIN, "fuel.mains": "brimming"}).text
+    assert "brimming" in page and "nothing was recorded" in page
+
+
+def test_record_a_check_once_with_the_pilot_and_the_same_result(desk: dict[str, Any]) -> None:
+    client = _client(desk, "pia")
+    response = _post_check(client, WITHIN, route="record")
+    assert response.status_code == 303
+    records = _records(desk)
+    assert len(records) == 1
+    record = records[0]
+    assert record.pilot == "pia" and record.source == "web desk" and record.registration == "DEMO-4T" and record.ok
+    inputs = load_check_inputs(SAMPLES / "trainer4" / "aircraft.toml", None,
+                               load={"front": "340", "rear": "160", "bag1": "15 kg"}, fuel={"mains": "tabs"},
+                               burn={"taxi": "1.2", "trip": "18", "reserve": "8"})
+    assert record.result == json.loads(json.dumps(check_loading(inputs.aircraft, inputs.loading).to_dict()))
+    assert record.fingerprint == inputs.aircraft.fingerprint
+    detail = client.get(response.headers["location"])
+    assert detail.status_code == 200 and "Within limits" in detail.text and record.fingerprint in detail.text
+
+
+def test_load_sheet_is_the_command_lines_sheet(desk: dict[str, Any]) -> None:
+    page = _post_check(_client(desk, "pia"), WITHIN, route="sheet").text
+    assert "<svg" in page and "DEMO-4T" in page
+    from html import escape
+
+    from loadcheck.caution import PILOT_CAUTION
+
+    assert escape(PILOT_CAUTION) in page
+
+
+def test_plan_most_fuel_is_the_library_answer(desk: dict[str, Any]) -> None:
+    from loadcheck.planning import most_fuel
+
+    page = _post_check(_client(desk, "pia"), WITHIN, action="fuel").text
+    inputs = load_check_inputs(SAMPLES / "trainer4" / "aircraft.toml", None, load={"front": "340", "rear": "160", "bag1": "15 kg"},
+                               fuel={"mains": "tabs"}, burn={"taxi": "1.2", "trip": "18", "reserve": "8"})
+    answer = most_fuel(inputs.aircraft, inputs.loading)
+    assert answer.answer_display in page and "The loading at this answer" in page
+
+
+def test_plan_most_payload_at_a_station(desk: dict[str, Any]) -> None:
+    from loadcheck.planning import most_payload
+
+    page = _post_check(_client(desk, "pia"), {**WITHIN, "station": "bag2"}, action="payload").text
+    inputs = load_check_inputs(SAMPLES / "trainer4" / "aircraft.toml", None, load={"front": "340", "rear": "160", "bag1": "15 kg"},
+                               fuel={"mains": "tabs"}, burn={"taxi": "1.2", "trip": "18", "reserve": "8"})
+    assert most_payload(inputs.aircraft, inputs.loading, "bag2").answer_display in page
+
+
+def test_plan_payload_at_an_unknown_station_is_refused(desk: dict[str, Any]) -> None:
+    response = _post_check(_client(desk, "pia"), {**WITHIN, "station": "roof"}, action="payload")
+    assert response.status_code == 422 and "roof" in response.text
+
+
+def test_change_the_loading_keeps_the_values(desk: dict[str, Any]) -> None:
+    page = _post_check(_client(desk, "pia"), WITHIN, route="edit").text
+    assert 'value="15 kg"' in page and 'value="tabs"' in page
+
+
+def test_unknown_registration_is_a_plain_page(desk: dict[str, Any]) -> None:
+    response = _client(desk, "pia").get("/aircraft/NOPE-1")
+    assert response.status_code in (404, 422) or "unknown registration" in response.text
+    assert "Traceback" not in response.text and str(desk["fleet"]) not in response.text
+
+
+# -- roles ---------------------------------------------------------------------------------------
+
+def test_a_pilot_sees_only_their_own_records(desk: dict[str, Any]) -> None:
+    pia, pat = _client(desk, "pia"), _client(desk, "pat")
+    _post_check(pia, WITHIN, route="record")
+    _post_check(pat, {**WITHIN, "load.rear": "150"}, route="record")
+    ids = {r.pilot: r.id for r in _records(desk)}
+    listing = pia.get("/records?date=").text
+    assert f'/records/{ids["pia"]}"' in listing and f'/records/{ids["pat"]}"' not in listing
+    assert pia.get(f"/records/{ids['pat']}").status_code == 404
+    assert pia.get(f"/api/records/{ids['pat']}").status_code == 404
+    assert [r["pilot"] for r in pia.get("/api/records").json()] == ["pia"]
+    assert "pat" not in pia.get("/records/export?format=csv&date=").text.split("\n", 1)[1]
+
+
+def test_only_a_dispatcher_sees_all_and_verifies(desk: dict[str, Any]) -> None:
+    _post_check(_client(desk, "pia"), WITHIN, route="record")
+    _post_check(_client(desk, "pat"), WITHIN, route="record")
+    dan = _client(desk, "dan")
+    listing = dan.get("/records").text  # today's, by default
+    assert len(re.findall(r'href="/records/\d+"', listing)) == 2 and "pia" in listing and "pat" in listing
+    assert {r["pilot"] for r in dan.get("/api/records").json()} == {"pia", "pat"}
+    detail = dan.get("/records/1").text
+    verified = dan.post("/records/1/verify", data={"csrf": csrf_of(detail)})
+    assert verified.status_code == 200 and "Verified:" in verified.text
+    pia = _client(desk, "pia")
+    page = pia.get("/records/1").text
+    assert "Verify this record" not in page
+    assert pia.post("/records/1/verify", data={"csrf": csrf_of(page)}).status_code == 403
+
+
+def test_dispatcher_filters_by_aircraft_verdict_and_date(desk: dict[str, Any]) -> None:
+    pia = _client(desk, "pia")
+    _post_check(pia, WITHIN, route="record")
+    _post_check(pia, {**WITHIN, "load.rear": "150"}, route="record")
+    _post_check(pia, {**WITHIN, "load.front": "700"}, route="record")  # over the front seats' 410 lb
+    dan = _client(desk, "dan")
+    out = dan.get("/api/records?verdict=out").json()
+    assert [r["ok"] for r in out] == [False] and len(out) == 1
+    assert len(dan.get("/api/records?verdict=within").json()) == 2
+    assert dan.get("/api/records?registration=DEMO-6P").json() == []
+    assert dan.get("/api/records?date=2001-01-01").json() == []
+    assert len(re.findall(r'href="/records/\d+"', dan.get("/records?verdict=out").text)) == 1
+    assert dan.get("/records?date=yesterday").status_code == 422
+
+
+def test_dispatcher_sees_checks_recorded_by_the_command_line(desk: dict[str, Any]) -> None:
+    from typer.testing import CliRunner
+
+    from loadcheck.cli import app
+
+    result = CliRunner().invoke(app, ["check", str(desk["fleet"] / "trainer4" / "within.toml"), "--record", str(desk["db"])])
+    assert result.exit_code == 0, result.output
+    rows = _client(desk, "dan").get("/api/records").json()
+    assert len(rows) == 1 and rows[0]["source"].endswith("within.toml")
+
+
+def test_export_csv_and_jsonl(desk: dict[str, Any]) -> None:
+    from loadcheck.records import export_text
+
+    _post_check(_client(desk, "pia"), WITHIN, route="record")
+    dan = _client(desk, "dan")
+    csv_text = dan.get("/records/export?format=csv")
+    jsonl = dan.get("/records/export?format=jsonl")
+    with RecordLog(desk["db"]) as log:
+        assert csv_text.text == export_text(log.find(), "csv")
+        assert jsonl.text == export_text(log.find(), "jsonl")
+    assert csv_text.headers["content-type"].startswith("text/csv")
+    assert dan.get("/records/export?format=xls").status_code == 422
+
+
+def test_only_a_pilot_checks_and_only_a_mechanic_changes_aircraft_data(desk: dict[str, Any]) -> None:
+    dan, pia = _client(desk, "dan"), _client(desk, "pia")
+    assert dan.get("/aircraft/DEMO-4T").status_code == 403
+    assert dan.post("/api/check", json={"registration": "DEMO-4T"}).status_code == 403
+    assert pia.get("/mechanic/DEMO-4T").status_code == 403
+    token = csrf_of(pia.get("/fleet").text)
+    before = (desk["fleet"] / "trainer4" / "aircraft.toml").read_bytes()
+    weighing = (SAMPLES / "trainer4" / "weighing.toml").read_text()
+    assert pia.post("/mechanic/DEMO-4T/propose", data={"kind": "weighing", "text": weighing, "csrf": token}).status_code == 403
+    assert pia.post("/mechanic/DEMO-4T/confirm", data={"token": "x", "confirm": "yes", "csrf": token}).status_code == 403
+    assert (desk["fleet"] / "trainer4" / "aircraft.toml").read_bytes() == before
+
+
+# -- the mechanic --------------------------------------------------------------------------------
+
+def _propose(client: TestClient, text: str, kind: str = "weighing", upload: bool = False) -> Any:
+    page = client.get("/mechanic/DEMO-4T").text
+    if upload:
+        return client.post("/mechanic/DEMO-4T/propose", data={"kind": kind, "csrf": csrf_of(page)},
+                           files={"upload": ("readings.toml", text.encode(), "application/toml")})
+    return client.post("/mechanic/DEMO-4T/propose", data={"kind": kind, "text": text, "csrf": csrf_of(page)})
+
+
+def test_mechanic_weighing_needs_confirmation_then_writes_with_history(desk: dict[str, Any]) -> None:
+    from loadcheck.empty_record import propose
+    from loadcheck.files import load_aircraft
+
+    aircraft_file = desk["fleet"] / "trainer4" / "aircraft.toml"
+    expected = propose(aircraft_file, SAMPLES / "trainer4" / "weighing.toml", "weighing").result.new
+    mo = _client(desk, "mo")
+    shown = _propose(mo, (SAMPLES / "trainer4" / "weighing.toml").read_text(), upload=True)
+    assert shown.status_code == 200
+    page = shown.text
+    assert "Current and new empty-weight record" in page and "Extreme loadings" in page
+    from loadcheck.display import fmt
+
+    assert fmt(expected.weight, "lb") in page and "1,652" in page
+    token = re.search(r'name="token" value="([^"]+)"', page).group(1)  # type: ignore[union-attr]
+    unconfirmed = mo.post("/mechanic/DEMO-4T/confirm", data={"token": token, "csrf": csrf_of(page)})
+    assert unconfirmed.status_code == 409 and "confirmed" in unconfirmed.text
+    assert load_aircraft(aircraft_file).empty.weight == 1652.0
+    written = mo.post("/mechanic/DEMO-4T/confirm", data={"token": token, "confirm": "yes", "csrf": csrf_of(page)})
+    assert written.status_code == 200 and "Written:" in written.text
+    now = load_aircraft(aircraft_file)
+    assert now.empty.weight == pytest.approx(expected.weight) and now.empty.arm == pytest.approx(expected.arm)
+    assert now.history[-1].by == "mo" and now.history[-1].previous.weight == 1652.0
+    assert now.history[-1].inputs["file"].endswith("/readings.toml")  # the upload's own name
+    assert "# Four-seat nosewheel trainer" in aircraft_file.read_text()  # the comment-keeping write
+    # the next check uses the new empty weight
+    result = _post_check(_client(desk, "pia"), WITHIN).text
+    assert fmt(expected.weight, "lb", with_unit=False) in result
+    assert mo.post("/mechanic/DEMO-4T/confirm", data={"token": token, "confirm": "yes", "csrf": csrf_of(page)}).status_code == 404
+
+
+def test_mechanic_alteration_typed_in(desk: dict[str, Any]) -> None:
+    page = _propose(_client(desk, "mo"), (SAMPLES / "trainer4" / "changes.toml").read_text(), kind="alteration").text
+    assert "AC 43.13-1B 10-2 c" in page and "Current and new empty-weight record" in page
+
+
+def test_mechanic_bad_readings_come_back_with_the_field_and_nothing_written(desk: dict[str, Any]) -> None:
+    before = (desk["fleet"] / "trainer4" / "aircraft.toml").read_bytes()
+    text = (SAMPLES / "trainer4" / "weighing.toml").read_text().replace("reading = 541.0", "reading = -541.0")
+    response = _propose(_client(desk, "mo"), text)
+    assert response.status_code == 422 and "reading" in response.text and "nothing was written" in response.text
+    assert "-541.0" in response.text  # what was typed is kept
+    assert "typed-in.toml" in response.text  # the source named as the mechanic knows it
+    assert "/tmp" not in response.text and str(desk["fleet"]) not in response.text
+    assert (desk["fleet"] / "trainer4" / "aircraft.toml").read_bytes() == before
+
+
+def test_a_proposal_is_confirmed_only_by_the_mechanic_who_made_it(desk: dict[str, Any], tmp_path: Path) -> None:
+    from argon2 import PasswordHasher
+
+    from loadcheck.web.users import UserStore
+
+    UserStore(desk["users"], hasher=PasswordHasher(time_cost=1, memory_cost=1024, parallelism=1)).add("max", PASSWORD, ["mechanic"])
+    page = _propose(_client(desk, "mo"), (SAMPLES / "trainer4" / "weighing.toml").read_text()).text
+    token = re.search(r'name="token" value="([^"]+)"', page).group(1)  # type: ignore[union-attr]
+    other = _client(desk, "max")
+    mine = other.get("/mechanic/DEMO-4T").text
+    assert other.post("/mechanic/DEMO-4T/confirm", data={"token": token, "confirm": "yes", "csrf": csrf_of(mine)}).status_code == 404
+
+
+# -- escaping, sizes, errors ---------------------------------------------------------------------
+
+MARKUP = '<script>alert("x")</script><b>bold</b>'
+
+
+def test_markup_from_files_and_forms_is_shown_as_text(desk: dict[str, Any]) -> None:
+    trainer = desk["fleet"] / "trainer4" / "aircraft.toml"
+    text = trainer.read_text().replace('label = "Rear passengers"', f"label = '{MARKUP}'")
+    text = text.replace('name = "Four-seat trainer (invented demo)"', f"name = '{MARKUP}'")
+    trainer.write_text(text)
+    client = _client(desk, "pia")
+    for page in (client.get("/fleet").text, client.get("/aircraft/DEMO-4T").text, _post_check(client, WITHIN).text,
+                 _post_check(client, {**WITHIN, "load.front": MARKUP}).text):
+        assert "<script>" not in page and "<b>bold</b>" not in page
+        assert "&lt;script&gt;" in page or "&lt;b&gt;" in page
+    sheet = _post_check(client, WITHIN, route="sheet").text  # the load sheet: the library's renderer escapes too
+    assert "<script>" not in sheet and "&lt;script&gt;" in sheet
+    registration = desk["fleet"] / "tandem2" / "aircraft.toml"
+    registration.write_text(registration.read_text().replace('registration = "DEMO-2T"', "registration = '<i>REG</i>'"))
+    assert "<i>REG</i>" not in client.get("/fleet").text
+
+
+def test_a_note_with_markup_is_kept_as_text(desk: dict[str, Any]) -> None:
+    mo = _client(desk, "mo")
+    page = _propose(mo, (SAMPLES / "trainer4" / "weighing.toml").read_text()).text
+    token = re.search(r'name="token" value="([^"]+)"', page).group(1)  # type: ignore[union-attr]
+    written = mo.post("/mechanic/DEMO-4T/confirm", data={"token": token, "confirm": "yes", "note": MARKUP, "csrf": csrf_of(page)})
+    assert written.status_code == 200
+    assert "<script>" not in written.text and "&lt;script&gt;" in written.text  # the history shows the note as text
+
+
+def test_request_bodies_and_uploads_are_size_limited(desk: dict[str, Any]) -> None:
+    from loadcheck.web.security import MAX_BODY_BYTES
+
+    mo = _client(desk, "mo")
+    page = mo.get("/mechanic/DEMO-4T").text
+    big = b"# " + b"x" * MAX_BODY_BYTES
+    response = mo.post("/mechanic/DEMO-4T/propose", data={"kind": "weighing", "csrf": csrf_of(page)},
+                       files={"upload": ("big.toml", big, "application/toml")})
+    assert response.status_code == 413
+    pia = _client(desk, "pia")
+    assert pia.post("/api/check", content=b"{" + b" " * MAX_BODY_BYTES + b"}",
+                    headers={"content-type": "application/json"}).status_code == 413
+    assert _records(desk) == []
+
+
+def test_no_traceback_or_internal_path_reaches_a_page(desk: dict[str, Any], monkeypatch: pytest.MonkeyPatch) -> None:
+    import loadcheck.check
+
+    def broken(*args: Any, **kwargs: Any) -> Any:
+        raise RuntimeError(f"bug in {desk['fleet']}/secret.py")
+
+    monkeypatch.setattr(loadcheck.check, "check_loading", broken)
+    client = TestClient(desk["app"], raise_server_exceptions=False)
+    assert sign_in(client, "pia").status_code == 303
+    for response in (_post_check(client, WITHIN),
+                     client.post("/api/check", json={"registration": "DEMO-4T", "load": {"front": 340}})):
+        assert response.status_code == 500
+        assert "Traceback" not in response.text and "secret.py" not in response.text and str(desk["fleet"]) not in response.text
+        assert "nothing was recorded" in response.text
+    bad = client.get("/aircraft/NOPE-9")
+    assert "Traceback" not in bad.text and str(desk["fleet"]) not in bad.text
+
+
+# -- the JSON API --------------------------------------------------------------------------------
+
+def test_api_check_is_the_command_lines_json(desk: dict[str, Any]) -> None:
+    from typer.testing import CliRunner
+
+    from loadcheck.cli import app
+
+    cli = CliRunner().invoke(app, ["check", str(SAMPLES / "twin6" / "leaves_path.toml"), "--json"])
+    body = {"registration": "DEMO-6P", "load": {"row1": 380, "row2": 340, "nose": 200}, "fuel": {"mains": 100, "aux": 40},
+            "burn": {"taxi": 2, "trip": 90, "order": ["aux", "mains"]}}
+    answer = _client(desk, "pia").post("/api/check", json=body)
+    assert answer.status_code == 200
+    assert answer.json() == json.loads(cli.stdout)
+    assert _records(desk) == []
+
+
+def test_api_check_records_once_when_asked(desk: dict[str, Any]) -> None:
+    answer = _client(desk, "pia").post("/api/check", json={"registration": "DEMO-4T", "load": {"front": "340"},
+                                                           "fuel": {"mains": "tabs"}, "record": True}).json()
+    records = _records(desk)
+    assert [r.id for r in records] == [answer["record_id"]] and records[0].pilot == "pia"
+
+
+def test_api_bad_value_names_the_field(desk: dict[str, Any]) -> None:
+    client = _client(desk, "pia")
+    response = client.post("/api/check", json={"registration": "DEMO-4T", "load": {"front": "12 parsecs"}, "record": True})
+    assert response.status_code == 422
+    assert any(p["field"].startswith("load.front") for p in response.json()["problems"])
+    unknown = client.post("/api/check", json={"registration": "DEMO-4T", "weather": "fine"})
+    assert unknown.status_code == 422 and "weather" in unknown.text
+    assert client.post("/api/check", json={"registration": "NOPE"}).status_code == 422
+    assert _records(desk) == []
+
+
+def test_api_plans_are_the_command_lines_json(desk: dict[str, Any]) -> None:
+    from typer.testing import CliRunner
+
+    from loadcheck.cli import app
+
+    within = str(SAMPLES / "trainer4" / "within.toml")
+    body = {"registration": "DEMO-4T", "load": {"front": 340, "rear": 160, "bag1": "15 kg"}, "fuel": {"mains": "tabs"},
+            "burn": {"taxi": 1.2, "trip": 18, "reserve": 8}}
+    client = _client(desk, "pia")
+    fuel = client.post("/api/plan/fuel", json=body).json()
+    assert fuel == json.loads(CliRunner().invoke(app, ["plan", "fuel", within, "--json"]).stdout)
+    payload = client.post("/api/plan/payload", json={**body, "station": "bag2"}).json()
+    assert payload == json.loads(CliRunner().invoke(app, ["plan", "payload", within, "--station", "bag2", "--json"]).stdout)
+    assert client.post("/api/plan/payload", json=body).status_code == 422  # no station
+
+
+def test_api_records_and_one_record(desk: dict[str, Any]) -> None:
+    client = _client(desk, "pia")
+    made = client.post("/api/check", json={"registration": "DEMO-4T", "load": {"front": 340}, "record": True}).json()
+    one = client.get(f"/api/records/{made['record_id']}").json()
+    assert one["result"]["ok"] == made["ok"] and one["pilot"] == "pia" and "inputs" in one
+    assert client.get("/api/records/999").status_code == 404
+
+
+def test_openapi_schema_documents_the_api(desk: dict[str, Any]) -> None:
+    schema = _client(desk, "pia").get("/api/openapi.json").json()
+    for path in ("/api/check", "/api/plan/fuel", "/api/plan/payload", "/api/records", "/api/records/{record_id}", "/api/fleet"):
+        assert path in schema["paths"], path
+    assert "CheckRequest" in schema["components"]["schemas"]
+
+
+def test_pages_link_no_outside_url(desk: dict[str, Any]) -> None:
+    client = _client(desk, "pia")
+    for page in (client.get("/signin").text, client.get("/fleet").text, _post_check(client, WITHIN).text):
+        assert not re.search(r'(src|href)="(https?:)?//', page)
+
+
+# -- starting it ---------------------------------------------------------------------------------
+
+def test_server_refuses_a_non_loopback_address_without_the_option() -> None:
+    from loadcheck.errors import InputError
+    from loadcheck.web.security import REMOTE_CAUTION, bind_caution
+
+    for host in ("127.0.0.1", "::1", "localhost", "127.0.0.2"):
+        assert bind_caution(host, False) is None
+    for host in ("0.0.0.0", "192.168.1.20", "::", "desk.example"):
+        with pytest.raises(InputError, match="--allow-remote"):
+            bind_caution(host, False)
+        assert bind_caution(host, True) == REMOTE_CAUTION
+    assert "TLS" in REMOTE_CAUTION and "trusted network" in REMOTE_CAUTION
+
+
+def test_serve_command_refuses_remote_and_prints_the_caution(tmp_path: Path, monkeypatch: pytest.MonkeyPatch) -> None:
+    import uvicorn
+    from typer.testing import CliRunner
+
+    from loadcheck.cli import app
+
+    refused = CliRunner().invoke(app, ["serve", str(SAMPLES), "--host", "0.0.0.0", "--users", str(tmp_path / "u.json")])
+    assert refused.exit_code == 2 and "--allow-remote" in refused.output
+    started: dict[str, Any] = {}
+    monkeypatch.setattr(uvicorn, "run", lambda app, **kw: started.update(kw))
+    allowed = CliRunner().invoke(app, ["serve", str(SAMPLES), "--host", "0.0.0.0", "--allow-remote",
+                                       "--users", str(tmp_path / "u.json"), "--db", str(tmp_path / "r.sqlite3")])
+    assert allowed.exit_code == 0 and "TLS" in allowed.output and started["host"] == "0.0.0.0"
+    monkeypatch.setattr(uvicorn, "run", lambda app, **kw: started.update(kw))
+    CliRunner().invoke(app, ["serve", str(SAMPLES), "--users", str(tmp_path / "u.json")])
+    assert started["host"] == "127.0.0.1"
+
+
+def test_users_commands(tmp_path: Path) -> None:
+    from typer.testing import CliRunner
+
+    from loadcheck.cli import app
+
+    users = str(tmp_path / "users.json")
+    run = CliRunner().invoke
+    assert run(app, ["users", "add", "robin", "-r", "pilot", "-r", "mechanic", "--password-stdin", "--users", users],
+               input="first pass phrase\n").exit_code == 0
+    listed = run(app, ["users", "list", "--users", users])
+    assert listed.stdout == "robin\tpilot, mechanic\n"
+    assert run(app, ["users", "add", "robin", "-r", "pilot", "--password-stdin", "--users", users], input="x" * 12 + "\n").exit_code == 2
+    bad_role = run(app, ["users", "add", "sam", "-r", "captain", "--password-stdin", "--users", users], input="x" * 12 + "\n")
+    assert bad_role.exit_code == 2 and "captain" in bad_role.output
+    short = run(app, ["users", "add", "sam", "-r", "pilot", "--password-stdin", "--users", users], input="short\n")
+    assert short.exit_code == 2 and "at least" in short.output
+    assert run(app, ["users", "passwd", "robin", "--password-stdin", "--users", users], input="second pass phrase\n").exit_code == 0
+    from loadcheck.web.users import UserStore
+
+    store = UserStore(users)
+    made = json.loads(Path(users).read_text())["users"]["robin"]["hash"]
+    assert made.startswith("$argon2id$v=19$m=65536,t=3,")  # RFC 9106 section 4, second recommended option
+    assert store.verify("robin", "first pass phrase") is None and store.verify("robin", "second pass phrase") is not None
+    assert run(app, ["users", "remove", "robin", "--users", users]).exit_code == 0
+    assert run(app, ["users", "list", "--users", users]).stdout == ""
+    assert run(app, ["users", "remove", "robin", "--users", users]).exit_code == 2
+
+
+def test_a_removed_account_is_signed_out(desk: dict[str, Any]) -> None:
+    from loadcheck.web.users import UserStore
+
+    client = _client(desk, "pia")
+    UserStore(desk["users"]).remove("pia")
+    assert client.get("/fleet", follow_redirects=False).status_code == 303
+
+
+def test_fleet_is_read_again_when_an_aircraft_file_changes(desk: dict[str, Any]) -> None:
+    client = _client(desk, "pia")
+    assert "DEMO-4T" in client.get("/fleet").text
+    trainer = desk["fleet"] / "trainer4" / "aircraft.toml"
+    trainer.write_text(trainer.read_text().replace('registration = "DEMO-4T"', 'registration = "DEMO-4X"'))
+    page = client.get("/fleet").text
+    assert "DEMO-4X" in page and "DEMO-4T" not in page
+    assert client.get("/aircraft/DEMO-4T").status_code == 422
