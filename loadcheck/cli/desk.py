@@ -16,7 +16,7 @@ __all__ = ["users_app"]
 if TYPE_CHECKING:
     from ..web.users import UserStore
 
-UsersOpt = Annotated[Path | None, typer.Option("--users", help="Accounts file (default: $LOADCHECK_USERS, else the user data folder).")]
+UsersOpt = Annotated[Path | None, typer.Option("--users", metavar="FILE", help="Accounts file (default: $LOADCHECK_USERS, else the user data folder).")]
 
 
 def _store(users: Path | None) -> UserStore:
@@ -25,14 +25,14 @@ def _store(users: Path | None) -> UserStore:
     return UserStore(users if users is not None else default_users_path())
 
 
-@app.command()
+@app.command(short_help="The flight school's desk: a local web service.")
 @input_errors
 def serve(
-    fleet: Annotated[Path, typer.Argument(help="Fleet folder (aircraft files).")],
-    db: Annotated[Path | None, typer.Option("--db", help="Record of checks (default: the command line's).")] = None,
+    fleet: Annotated[Path, typer.Argument(metavar="FLEET_DIR", help="Fleet folder (aircraft files).")],
+    db: Annotated[Path | None, typer.Option("--db", metavar="FILE", help="Record of checks (default: the command line's).")] = None,
     users: UsersOpt = None,
-    host: Annotated[str, typer.Option(help="Address to listen on (loopback unless --allow-remote).")] = "127.0.0.1",
-    port: Annotated[int, typer.Option(min=1, max=65535, help="Port.")] = 8400,
+    host: Annotated[str, typer.Option(metavar="ADDRESS", help="Address to listen on (loopback unless --allow-remote).")] = "127.0.0.1",
+    port: Annotated[int, typer.Option(min=1, max=65535, metavar="PORT", help="Port.")] = 8400,
     allow_remote: Annotated[bool, typer.Option("--allow-remote", help="Listen on a non-loopback address (put it behind TLS).")] = False,
 ) -> None:
     """Start the flight school's desk: a local web service for pilots, dispatcher and mechanic.
@@ -57,7 +57,8 @@ def serve(
     uvicorn.run(application, host=host, port=port, log_level="warning", server_header=False)
 
 
-users_app = typer.Typer(help="The desk's accounts: each with one or more roles (pilot, dispatcher, mechanic).", no_args_is_help=True)
+users_app = typer.Typer(short_help="The desk's accounts.",
+                        help="The desk's accounts: each with one or more roles (pilot, dispatcher, mechanic).", no_args_is_help=True)
 app.add_typer(users_app, name="users")
 
 RoleOpt = Annotated[list[str], typer.Option("--role", "-r", help="pilot, dispatcher or mechanic; repeat for several.")]
