@@ -208,6 +208,9 @@ class _Tables:
     tank_index: dict[str, int]
     weights: dict[str, list[tuple[str, float]]]
     loads: list[LoadLimit]
+    station_ids: list[str]
+    tank_ids: list[str]
+    envelopes: dict[str, tuple[list[Envelope], list[EnvelopeShape]]]
 
 
 _TABLES: dict[int, tuple[Aircraft, _Tables]] = {}
@@ -228,6 +231,9 @@ def _tables(aircraft: Aircraft) -> _Tables:
         tank_index={t.id: i for i, t in enumerate(aircraft.tank)},
         weights=weight_limits(aircraft),
         loads=load_limits(aircraft),
+        station_ids=[s.id for s in aircraft.station],
+        tank_ids=[t.id for t in aircraft.tank],
+        envelopes={c: (aircraft.envelopes_for(c), [e.shape for e in aircraft.envelopes_for(c)]) for c in aircraft.categories},
     )
     if len(_TABLES) >= _TABLES_KEPT:
         _TABLES.pop(next(iter(_TABLES)))
