@@ -148,7 +148,7 @@ def _explain(aircraft: Aircraft, loadings: Sequence[ResolvedLoading], found: Eva
     ok_rows = found.ok.tolist()
     for i, resolved in enumerate(loadings):
         findings: list[Finding] = []
-        conditions = [_condition(aircraft, rows, i, envelopes, name, findings, margins[name][i],  # type: ignore[arg-type]
+        conditions = [_condition(aircraft, rows, i, envelopes, shapes, name, findings, margins[name][i],  # type: ignore[arg-type]
                                  tables.weights[name]) for name in CONDITIONS]
         burn_path = _burn_path(aircraft, resolved, found, i, conditions, findings, samples)
         if exceeded[i]:
@@ -201,6 +201,7 @@ def _condition(
     rows: _Rows,
     i: int,
     envelopes: Sequence[Envelope],
+    shapes: Sequence[EnvelopeShape],
     name: ConditionName,
     findings: list[Finding],
     margins: Margins,
@@ -228,14 +229,14 @@ def _condition(
             )
         )
     severity: Severity = "warning" if name == "zero_fuel" and aircraft.limits.zero_fuel_cg == "warning" else "limit"
-    for envelope, inside in zip(envelopes, rows.inside[name], strict=True):
+    for envelope, shape, inside in zip(envelopes, shapes, rows.inside[name], strict=True):
         if not inside[i]:
-            tested = envelope_state(envelope.shape, name, weight, moment, lateral)
+            tested = envelope_state(shape, name, weight, moment, lateral)
             label = f"the {envelope.label or envelope.category + '-category'} envelope"
             label = label.replace("envelope envelope", "envelope")
-            findings.append(_outside_finding(aircraft, envelope.shape, label, name, *tested, severity))
+            findings.append(_outside_finding(aircraft, shape, label, name, *tested, severity))
 
-    has_lateral = aircraft.has_lateral
+    has_lateral = engine_tables(aircraft).has_lateral
     weight_limit = min((value for _, value in table), default=None)
     return Condition(
         condition=name,

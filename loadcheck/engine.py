@@ -211,6 +211,7 @@ class _Tables:
     station_ids: list[str]
     tank_ids: list[str]
     envelopes: dict[str, tuple[list[Envelope], list[EnvelopeShape]]]
+    has_lateral: bool
 
 
 _TABLES: dict[int, tuple[Aircraft, _Tables]] = {}
@@ -234,6 +235,7 @@ def _tables(aircraft: Aircraft) -> _Tables:
         station_ids=[s.id for s in aircraft.station],
         tank_ids=[t.id for t in aircraft.tank],
         envelopes={c: (aircraft.envelopes_for(c), [e.shape for e in aircraft.envelopes_for(c)]) for c in aircraft.categories},
+        has_lateral=aircraft.has_lateral,
     )
     if len(_TABLES) >= _TABLES_KEPT:
         _TABLES.pop(next(iter(_TABLES)))

@@ -48,6 +48,7 @@ __all__ = [
     "FleetLine",
     "fleet_listing",
     "record_age_days",
+    "default_workers",
 ]
 
 MAX_CSV_BYTES = 50 * 1024 * 1024
@@ -382,11 +383,15 @@ class Flight:
         return [f["message"] for f in self.result["findings"] if f["severity"] == "warning"]
 
     def brief(self) -> Flight:
-        """This flight with only what a one-line summary shows (verdict, units, conditions,
-        findings), for holding many flights at once."""
+        """This flight with only what a one-line summary shows (verdict, units, each condition's
+        weight and CG, each finding's code, severity and words), for holding many flights at once."""
         row = FleetRow(self.row.line, self.row.source, self.row.registration, self.row.reference, self.row.pilot, None,
                        self.row.problems)
-        result = None if self.result is None else {key: self.result[key] for key in _BRIEF if key in self.result}
+        result = None
+        if self.result is not None:
+            result = {"ok": self.result["ok"], "category": self.result.get("category"), "units": self.result["units"],
+                      "conditions": [{k: c[k] for k in ("condition", "weight", "arm")} for c in self.result["conditions"]],
+                      "findings": [{k: f[k] for k in ("code", "severity", "message")} for f in self.result["findings"]]}
         return Flight(row, result, self.problems, self.record_id)
 
     def to_dict(self) -> dict[str, Any]:
@@ -401,8 +406,6 @@ class Flight:
         return {**head, **body}
 
 
-_BRIEF = ("ok", "category", "units", "conditions", "findings")
-
 CHUNK = 256
 """Flights checked, recorded (one transaction) and reported together."""
 
@@ -413,6 +416,17 @@ PARENT_POLL = 0.2
 """How often a worker process looks whether its parent is still alive [s]."""
 
 _FLEET: Fleet | None = None  # the fleet, inherited by worker processes
+
+
+def default_workers() -> int:
+    """Processes a fleet check uses unless told: one.
+
+    Measured (docs/performance.md, benchmarks/fleet.py): with the rows of each chunk
+    checked together, handing chunks to a second process costs about what it saves (the
+    results are pickled back), so one process is the default; ``--workers 2`` is there for
+    a machine with idle cores.
+    """
+    return 1
 
 
 def _check_chunk(rows: list[FleetRow]) -> list[tuple[dict[str, Any] | None, list[str]]]:

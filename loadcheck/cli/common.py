@@ -11,15 +11,17 @@ import functools
 import os
 from collections.abc import Callable
 from pathlib import Path
-from typing import Annotated, Any, TypeVar
+from typing import TYPE_CHECKING, Annotated, Any, TypeVar
 
 import typer
 from pydantic import ValidationError
-from rich.console import Console
 from typer.core import TyperGroup, TyperOption
 
 from .. import __version__
 from ..errors import InputError, LoadcheckError, Problem
+
+if TYPE_CHECKING:  # rich loads only when something is printed through it (not for --json)
+    from rich.console import Console
 
 __all__ = [
     "EXIT_INPUT", "EXIT_LIMIT", "EXIT_OK", "AircraftArg", "CategoryOpt", "FuelOpt", "JsonOpt", "LoadOpt", "LoadingArg",
@@ -99,6 +101,8 @@ F = TypeVar("F", bound=Callable[..., Any])
 
 
 def _console(stderr: bool = False) -> Console:
+    from rich.console import Console
+
     console = Console(stderr=stderr, highlight=False)
     if not console.is_terminal:
         console = Console(stderr=stderr, highlight=False, width=max(console.width, 160))

@@ -3,7 +3,6 @@
 from __future__ import annotations
 
 import json
-import os
 import sys
 from pathlib import Path
 from typing import Annotated, Any, Literal
@@ -70,7 +69,7 @@ def fleet_check(
     record: Annotated[Path | None, typer.Option(help="Record database (default: $LOADCHECK_RECORDS or the user data folder).")] = None,
     no_record: Annotated[bool, typer.Option("--no-record", help="Do not record the checks.")] = False,
     json_out: Annotated[bool, typer.Option("--json", help="Print JSON Lines: one object per flight.")] = False,
-    workers: Annotated[int | None, typer.Option(min=1, help="Processes checking flights (default: one per core).")] = None,
+    workers: Annotated[int | None, typer.Option(min=1, help="Processes checking flights (default: one; see docs/performance.md).")] = None,
 ) -> None:
     """Check a day of loadings against the fleet; record every check.
 
@@ -83,9 +82,7 @@ def fleet_check(
     """
     from contextlib import nullcontext
 
-    from rich.progress import Progress
-
-    from ..fleet import check_flights, load_fleet, read_loadings
+    from ..fleet import check_flights, default_workers, load_fleet, read_loadings
     from ..records import RecordLog, default_path
 
     fleet = load_fleet(folder)
@@ -97,15 +94,18 @@ def fleet_check(
     flights = []  # for the table only: one brief line per flight; JSON Lines are streamed
     counts = {"checked": 0, "out": 0, "bad": 0}
     show_progress = err.is_terminal and not json_out
+    say = (lambda text: err.print(text, markup=False, soft_wrap=True)) if show_progress else (lambda text: err.file.write(text + "\n"))
+    if show_progress:
+        from rich.progress import Progress
     with (Progress(console=err, transient=True) if show_progress else nullcontext()) as progress:
         task = progress.add_task("checking", total=None) if progress is not None else None  # type: ignore[union-attr]
         try:
-            for flight in check_flights(fleet, rows, log, __version__, workers=workers or os.cpu_count() or 1):
+            for flight in check_flights(fleet, rows, log, __version__, workers=workers or default_workers()):
                 counts["checked"] += 1
                 if flight.result is None:
                     counts["bad"] += 1
                     for problem in flight.problems:
-                        err.print(f"error: {problem}", markup=False, soft_wrap=True)
+                        say(f"error: {problem}")
                 elif not flight.ok:
                     counts["out"] += 1
                 if json_out:
@@ -115,6 +115,7 @@ def fleet_check(
                 if progress is not None and task is not None:
                     progress.advance(task)
             sys.stdout.flush()
+            err.file.flush()
         finally:
             if log is not None:
                 log.close()
@@ -163,21 +164,12 @@ def records_list(db: DbOpt = None, since: SinceOpt = None, until: UntilOpt = Non
 
       loadcheck records list --registration DEMO-4T --since 2026-11-01
     """
-    from rich.table import Table
+    from ..caution import PILOT_CAUTION
+    from ..render.records import render_record_list
 
     with _log(db) as log:
-        table = Table(title=f"Records in {log.path}", title_justify="left")
-        for column in ("Id", "Checked (UTC)", "Registration", "Reference", "Pilot", "Result", "Data"):
-            table.add_column(column)
-        for r in log.find(since=_date(since, "--since"), until=_date(until, "--until"), registration=registration):
-            table.add_row(str(r.id), r.checked_at[:19], r.registration or "", r.reference or "", r.pilot or "",
-                          "within limits" if r.ok else "OUT OF LIMITS", r.fingerprint)
-    from ..caution import PILOT_CAUTION
-    from ..render.terminal import caution_text
-
-    console = _console()
-    console.print(table)
-    console.print(caution_text(PILOT_CAUTION))
+        records = list(log.listing(since=_date(since, "--since"), until=_date(until, "--until"), registration=registration))
+    render_record_list(log.path, records, PILOT_CAUTION, _console())
 
 
 @records_app.command("show")

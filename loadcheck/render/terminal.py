@@ -457,6 +457,10 @@ def render_schedule(result: Any, aircraft: Aircraft, console: Console) -> None:
 
 def render_fleet(flights: list[Any], console: Console) -> None:
     """One line per flight: registration, reference, takeoff and landing, verdict, first finding."""
+    from .listing import render_fleet_plain, use_plain
+
+    if use_plain(len(flights)):  # a long day: plain aligned text, at any length
+        return render_fleet_plain(flights, console)
     table = Table(title="Flights", title_justify="left")
     for column in ("Line", "Registration", "Reference", "Takeoff", "Landing", "Result", "First finding"):
         table.add_column(column, justify="right" if column == "Line" else "left")
