@@ -267,12 +267,58 @@ def _pick(intervals: list[tuple[float, float]], value: float) -> tuple[float, fl
 # is cut at once: the same arithmetic, in the same order, on arrays.
 
 _MARGIN_KEYS = ("forward", "aft", "left", "right", "weight")
+_ONE_BY_ONE = 2  # up to this many loadings, slices are cut one at a time (fewer numpy calls)
+
+
+def _margins_one(
+    shapes: Sequence[EnvelopeShape], name: str, weight: float, moment: float, lateral: float, weight_limit: float | None
+) -> Margins:
+    """The margins of one loading at one condition, from :meth:`EnvelopeShape.slice`."""
+    values: dict[str, float] = {}
+
+    def keep(key: str, value: float) -> None:
+        values[key] = min(values.get(key, value), value)
+
+    if weight_limit is not None:
+        keep("weight", weight_limit - weight)
+    for shape in shapes:
+        w, m, lat = envelope_state(shape, name, weight, moment, lateral)
+        arm, lateral_arm = m / w, lat / w
+        if shape.is_lateral:
+            across = shape.slice(w, arm, lateral_arm, "lateral")
+            if across:
+                lo, hi = _pick(across, lateral_arm)
+                keep("left", lateral_arm - lo)
+                keep("right", hi - lateral_arm)
+        else:
+            along = shape.slice(w, arm, lateral_arm, "arm")
+            if along:
+                lo, hi = _pick(along, arm)
+                keep("forward", arm - lo)
+                keep("aft", hi - arm)
+        if name != "ramp" and not shape.is_lateral:
+            heights = shape.slice(w, arm, lateral_arm, "weight")
+            if heights:
+                keep("weight", _pick(heights, w)[1] - w)
+    return Margins(**values)
 
 
 def _margins(shapes: Sequence[EnvelopeShape], found: Evaluation,
              weights: dict[str, list[tuple[str, float]]]) -> dict[str, list[Margins]]:
-    """The margins of every loading at every condition (see :class:`~loadcheck.results.Margins`)."""
+    """The margins of every loading at every condition (see :class:`~loadcheck.results.Margins`).
+
+    A few loadings are cut one slice at a time (:func:`_margins_one`, plain floats); many
+    are cut together (the same arithmetic on arrays). The fleet check's agreement tests
+    compare the two, row for row.
+    """
     n = len(found.ok)
+    if n <= _ONE_BY_ONE:
+        out_one: dict[str, list[Margins]] = {}
+        for name in CONDITIONS:
+            weight_limit = min((value for _, value in weights[name]), default=None)
+            out_one[name] = [_margins_one(shapes, name, w, m, lat, weight_limit) for w, m, lat in
+                             zip(found.weight[name].tolist(), found.moment[name].tolist(), found.lateral_moment[name].tolist())]
+        return out_one
     values = {name: {key: np.full(n, np.nan) for key in _MARGIN_KEYS} for name in CONDITIONS}
 
     def keep(name: str, key: str, value: np.ndarray) -> None:

@@ -6,11 +6,18 @@ arithmetic and no validation of their own. The library never imports this packag
 
 from __future__ import annotations
 
+import os
 import sys
 
-import typer
+# The command line's numpy does small products only (the engine keeps large batches on
+# one BLAS thread itself): a BLAS thread pool would only spin at start-up. Set before
+# numpy loads; a value the user set is kept.
+for _name in ("OPENBLAS_NUM_THREADS", "OMP_NUM_THREADS", "MKL_NUM_THREADS"):
+    os.environ.setdefault(_name, "1")
 
-from . import dispatcher, mechanic, pilot  # each registers its commands
+import typer  # noqa: E402
+
+from . import dispatcher, mechanic, pilot  # noqa: E402  (each registers its commands)
 from .common import app
 
 __all__ = ["app", "main"]
