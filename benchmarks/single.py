@@ -68,7 +68,7 @@ def main() -> None:
                 for _ in range(args.repeat):
                     for k, (check, aircraft, loading) in enumerate(versions):
                         best[k] = min(best[k], _best(check, aircraft, loading, args.runs, samples))
-                print(f"  {name:30} {str(samples):>8} {best[0] * 1000:7.3f} {best[1] * 1000:7.3f} {best[1] / best[0]:8.2f}")
+                print(f"  {name:30} {samples!s:>8} {best[0] * 1000:7.3f} {best[1] * 1000:7.3f} {best[1] / best[0]:8.2f}")
 
 
 if __name__ == "__main__":

@@ -144,8 +144,8 @@ def _explain(aircraft: Aircraft, loadings: Sequence[ResolvedLoading], found: Eva
     units_info = UnitsInfo(mass=units.mass, arm=units.arm, fuel_volume=units.fuel_volume, moment=units.moment)
     rows = _Rows(found)
     margins = _margins(shapes, found, tables.weights)
-    exceeded = found.load_exceeded.any(axis=1).tolist()
-    ok_rows = found.ok.tolist()
+    exceeded: list[bool] = list(np.asarray(found.load_exceeded).any(axis=1).tolist())
+    ok_rows: list[bool] = list(found.ok.tolist())
     for i, resolved in enumerate(loadings):
         findings: list[Finding] = []
         conditions = [_condition(aircraft, rows, i, envelopes, shapes, name, findings, margins[name][i],  # type: ignore[arg-type]
@@ -362,22 +362,23 @@ def _margins(shapes: Sequence[EnvelopeShape], found: Evaluation,
 
 
 def _slice_lines(shape: EnvelopeShape, vary: str, weight: np.ndarray, arm: np.ndarray,
-                 lateral_arm: np.ndarray) -> tuple[np.ndarray, ...]:
+                 lateral_arm: np.ndarray) -> tuple[Any, ...]:
     """The scaled lines of :meth:`EnvelopeShape.slice` for arrays: start, direction, and the held value."""
     zero, one = np.zeros_like(weight), np.ones_like(weight)
+    at: Any = shape._at  # plain arithmetic: works on arrays as on floats
     if vary == "arm":
-        p0, p1, value = shape._at(weight, zero, lateral_arm), shape._at(weight, one, lateral_arm), arm
+        p0, p1, value = at(weight, zero, lateral_arm), at(weight, one, lateral_arm), arm
     elif vary == "weight":
-        p0, p1, value = shape._at(zero, arm, lateral_arm), shape._at(one, arm, lateral_arm), weight
+        p0, p1, value = at(zero, arm, lateral_arm), at(one, arm, lateral_arm), weight
     else:
-        p0, p1, value = shape._at(weight, arm, zero), shape._at(weight, arm, one), lateral_arm
+        p0, p1, value = at(weight, arm, zero), at(weight, arm, one), lateral_arm
     (x0, y0), (x1, y1) = p0, p1
     sx, sy = x1 - x0, y1 - y0
     (ox, oy), (wx, wy) = shape._origin_span
     return (x0 - ox) / wx, (y0 - oy) / wy, sx / wx, sy / wy, value, (sx == 0.0) & (sy == 0.0)
 
 
-def _slices(shape: EnvelopeShape, lines: list[tuple[str, np.ndarray, np.ndarray, np.ndarray]]) -> tuple[np.ndarray, np.ndarray]:
+def _slices(shape: EnvelopeShape, lines: Sequence[tuple[str, Any, Any, Any]]) -> tuple[np.ndarray, np.ndarray]:
     """For each line, the inside interval holding the held value, else the nearest one (NaN where none).
 
     The arithmetic of :meth:`EnvelopeShape._line_intervals` for many lines at once: every

@@ -18,7 +18,7 @@ for _name in ("OPENBLAS_NUM_THREADS", "OMP_NUM_THREADS", "MKL_NUM_THREADS"):
 import typer  # noqa: E402
 
 from . import dispatcher, mechanic, pilot  # noqa: E402  (each registers its commands)
-from .common import app
+from .common import app  # noqa: E402
 
 __all__ = ["app", "main"]
 
