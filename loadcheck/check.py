@@ -144,7 +144,7 @@ def _explain(aircraft: Aircraft, loadings: Sequence[ResolvedLoading], found: Eva
     units_info = UnitsInfo(mass=units.mass, arm=units.arm, fuel_volume=units.fuel_volume, moment=units.moment)
     rows = _Rows(found)
     margins = _margins(shapes, found, tables.weights)
-    exceeded: list[bool] = [bool(x) for x in np.asarray(found.load_exceeded).any(axis=1)]
+    exceeded: list[bool] = np.any(found.load_exceeded, axis=1).tolist()  # type: ignore[assignment]
     ok_rows: list[bool] = list(found.ok.tolist())
     for i, resolved in enumerate(loadings):
         findings: list[Finding] = []
