@@ -14,6 +14,10 @@ import sys
 # numpy loads; a value the user set is kept.
 for _name in ("OPENBLAS_NUM_THREADS", "OMP_NUM_THREADS", "MKL_NUM_THREADS"):
     os.environ.setdefault(_name, "1")
+# pydantic looks for plugins among every installed distribution's entry points on the
+# first validation (about 10 ms and the import of importlib.metadata); the command line
+# uses none. A value the user set is kept.
+os.environ.setdefault("PYDANTIC_DISABLE_PLUGINS", "1")
 
 import typer  # noqa: E402
 
