@@ -259,11 +259,10 @@ class RecordLog:
             yield self._row(row)
 
     def listing(self, *, since: dt.date | None = None, until: dt.date | None = None,
-                registration: str | None = None) -> Iterator[tuple[int, str, str | None, str | None, str | None, bool, str]]:
+                registration: str | None = None) -> Iterator[tuple[int, str, str | None, str | None, str | None, int, str]]:
         """What a listing shows of each record, in order, without reading its inputs and result:
-        (id, checked_at, registration, reference, pilot, ok, fingerprint); the filters of :meth:`find`."""
-        for row in self._select("id, checked_at, registration, reference, pilot, ok, fingerprint", since, until, registration):
-            yield row[0], row[1], row[2], row[3], row[4], bool(row[5]), row[6]
+        (id, checked_at, registration, reference, pilot, ok (1 or 0), fingerprint); the filters of :meth:`find`."""
+        return self._select("id, checked_at, registration, reference, pilot, ok, fingerprint", since, until, registration)
 
     def _select(self, columns: str, since: dt.date | None, until: dt.date | None,
                 registration: str | None) -> Iterator[tuple[Any, ...]]:

@@ -36,24 +36,20 @@ def plain_listing(out: IO[str], title: str, headers: Sequence[str], rows: Sequen
     rows : cells of each row, as text (several lines in a cell are joined with "; ")
     right : indices of the columns aligned to the right (numbers)
     """
-    cells = [["; ".join(c.splitlines()) if "\n" in c else c for c in row] for row in rows]
-    widths = [len(h) for h in headers]
-    for row in cells:
-        for k, cell in enumerate(row):
-            if len(cell) > widths[k]:
-                widths[k] = len(cell)
+    columns = [list(column) for column in zip(*rows)] if rows else [[] for _ in headers]
+    for column in columns:
+        if any("\n" in cell for cell in column):
+            column[:] = ["; ".join(cell.splitlines()) for cell in column]
+    widths = [max(len(h), max(map(len, column), default=0)) for h, column in zip(headers, columns)]
+    cells = list(zip(*columns))
     last = len(headers) - 1
     aligned = set(right)
-
-    def line(row: Sequence[str]) -> str:
-        parts = [cell.rjust(widths[k]) if k in aligned else (cell if k == last else cell.ljust(widths[k]))
-                 for k, cell in enumerate(row)]
-        return "  ".join(parts).rstrip()
-
+    pattern = "  ".join("{:>%d}" % w if k in aligned else ("{}" if k == last else "{:<%d}" % w)
+                        for k, w in enumerate(widths))
     out.write(title + "\n")
-    out.write(line(headers) + "\n")
+    out.write(pattern.format(*headers).rstrip() + "\n")
     out.write("  ".join("-" * w for w in widths) + "\n")
-    out.write("\n".join(line(row) for row in cells) + ("\n" if cells else ""))
+    out.write("".join(pattern.format(*row).rstrip() + "\n" for row in cells))
     out.flush()
 
 

@@ -22,8 +22,8 @@ def render_record_list(path: Any, records: Iterable[tuple[Any, ...]], caution: s
     """
     title = f"Records in {path}"
     heads = ("Id", "Checked (UTC)", "Registration", "Reference", "Pilot", "Result", "Data")
-    rows = [(str(r[0]), r[1][:19], r[2] or "", r[3] or "", r[4] or "", "within limits" if r[5] else "OUT OF LIMITS", r[6])
-            for r in records]
+    words = ("OUT OF LIMITS", "within limits")
+    rows = [(str(r[0]), r[1][:19], r[2] or "", r[3] or "", r[4] or "", words[bool(r[5])], r[6]) for r in records]
     if use_plain(len(rows)):
         plain_listing(console.file, title, heads, rows, right=(0,))
     else:
