@@ -459,3 +459,30 @@ def test_check_json_does_not_load_rich_and_holds_blas_to_one_thread():
     done = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, env=env, check=True)
     assert json.loads(done.stdout)["ok"] is True
     assert done.stderr.strip() == "[] 1"
+
+
+def test_a_large_batch_holds_blas_to_one_thread(monkeypatch):
+    # numpy's BLAS thread pool spun on the engine's tiny products, doubling the CPU time and
+    # halving throughput when another process was busy: a large batch runs on one BLAS thread
+    import numpy as np
+    from threadpoolctl import threadpool_info, threadpool_limits
+
+    from loadcheck import engine
+
+    aircraft = load_aircraft(sample("trainer4/aircraft.toml"))
+    seen = []
+    real = engine._evaluate
+
+    def spy(*args, **kwargs):
+        seen.append([i["num_threads"] for i in threadpool_info() if i["user_api"] == "blas"])
+        return real(*args, **kwargs)
+
+    monkeypatch.setattr(engine, "_evaluate", spy)
+    n = engine.BLAS_ONE_THREAD_ABOVE + 1
+    stations = np.full((n, len(aircraft.station)), 20.0)
+    fuel = np.full((n, len(aircraft.tank)), 10.0)
+    with threadpool_limits(limits=2, user_api="blas"):  # as on a machine with two cores
+        engine.evaluate(aircraft, stations, fuel, np.ones(n), np.full(n, 5.0))
+        after = [i["num_threads"] for i in threadpool_info() if i["user_api"] == "blas"]
+    assert seen and all(threads == [1] * len(threads) for threads in seen), seen
+    assert after == [2] * len(after)  # the limit is lifted afterwards: the caller's setting is theirs
