@@ -1,10 +1,14 @@
 """The pilot's loading check: every condition, every limit, the whole burn path.
 
-:func:`check_loading` is the one entry point. It resolves the loading against the
-aircraft, computes the moment table and the four conditions (:mod:`loadcheck.balance`),
-tests each against the weight limits and the category's envelopes, follows the fuel
-burn from takeoff to landing as the curve it is (:mod:`loadcheck.envelope`), and returns
-a frozen :class:`~loadcheck.results.CheckResult`.
+:func:`check_loading` checks one loading: it resolves the loading against the aircraft,
+evaluates it with the engine (:func:`loadcheck.engine.evaluate`: the four conditions, the
+weight limits, the category's envelopes, the fuel burn from takeoff to landing as the
+curve it is), and explains the engine's verdict in a frozen
+:class:`~loadcheck.results.CheckResult` (the moment table from :mod:`loadcheck.balance`,
+margins, findings in words, where the burn path leaves). :func:`check_many` does the same
+for many resolved loadings of one aircraft with one engine call (the fleet check): each
+result is the one :func:`check_loading` gives. No limit rule is decided here; the
+assertion in :func:`_explain` holds every explanation to the engine's verdict.
 
 Severity (DESIGN.md): every exceedance is a ``limit``, except the zero-fuel CG outside
 the envelope (a ``warning`` unless the aircraft file sets ``zero_fuel_cg = "limit"``),
