@@ -9,17 +9,29 @@ from __future__ import annotations
 
 __version__ = "0.1.0"
 
-from .aircraft import Aircraft, EmptyWeight, Envelope, Limits, Mac, Station, StationGroup, Tank, Units
-from .caution import MECHANIC_CAUTION, PILOT_CAUTION
-from .check import check_loading
-from .errors import FileFormatError, InputError, LoadcheckError, UnitError, UnknownNameError
-from .files import load_aircraft, load_check_inputs, load_loading
-from .loading import Burn, Loading, ResolvedLoading, resolve_loading
-from .results import CheckResult, Condition, Finding
+from typing import TYPE_CHECKING
 
-# The other jobs' entry points load on first use (PEP 562), so that a plain check does not
-# pay for building the models it does not use.
+if TYPE_CHECKING:
+    from .aircraft import Aircraft, EmptyWeight, Envelope, Limits, Mac, Station, StationGroup, Tank, Units
+    from .caution import MECHANIC_CAUTION, PILOT_CAUTION
+    from .check import check_loading
+    from .errors import FileFormatError, InputError, LoadcheckError, UnitError, UnknownNameError
+    from .files import load_aircraft, load_check_inputs, load_loading
+    from .loading import Burn, Loading, ResolvedLoading, resolve_loading
+    from .results import CheckResult, Condition, Finding
+
+# Every entry point loads on first use (PEP 562): importing the package costs nothing, so
+# that the command line can set up the process (one BLAS thread, loadcheck.cli) before
+# numpy loads, and a plain check does not pay for building the models it does not use.
 _LAZY = {
+    **dict.fromkeys(("Aircraft", "EmptyWeight", "Envelope", "Limits", "Mac", "Station", "StationGroup", "Tank", "Units"),
+                    "aircraft"),
+    **dict.fromkeys(("MECHANIC_CAUTION", "PILOT_CAUTION"), "caution"),
+    "check_loading": "check",
+    **dict.fromkeys(("FileFormatError", "InputError", "LoadcheckError", "UnitError", "UnknownNameError"), "errors"),
+    **dict.fromkeys(("load_aircraft", "load_check_inputs", "load_loading"), "files"),
+    **dict.fromkeys(("Burn", "Loading", "ResolvedLoading", "resolve_loading"), "loading"),
+    **dict.fromkeys(("CheckResult", "Condition", "Finding"), "results"),
     "alter": "alterations",
     "evaluate": "engine",
     "extremes": "extremes",

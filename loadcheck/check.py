@@ -1,10 +1,14 @@
 """The pilot's loading check: every condition, every limit, the whole burn path.
 
-:func:`check_loading` is the one entry point. It resolves the loading against the
-aircraft, computes the moment table and the four conditions (:mod:`loadcheck.balance`),
-tests each against the weight limits and the category's envelopes, follows the fuel
-burn from takeoff to landing as the curve it is (:mod:`loadcheck.envelope`), and returns
-a frozen :class:`~loadcheck.results.CheckResult`.
+:func:`check_loading` checks one loading: it resolves the loading against the aircraft,
+evaluates it with the engine (:func:`loadcheck.engine.evaluate`: the four conditions, the
+weight limits, the category's envelopes, the fuel burn from takeoff to landing as the
+curve it is), and explains the engine's verdict in a frozen
+:class:`~loadcheck.results.CheckResult` (the moment table from :mod:`loadcheck.balance`,
+margins, findings in words, where the burn path leaves). :func:`check_many` does the same
+for many resolved loadings of one aircraft with one engine call (the fleet check): each
+result is the one :func:`check_loading` gives. No limit rule is decided here; the
+assertion in :func:`_explain` holds every explanation to the engine's verdict.
 
 Severity (DESIGN.md): every exceedance is a ``limit``, except the zero-fuel CG outside
 the envelope (a ``warning`` unless the aircraft file sets ``zero_fuel_cg = "limit"``),
@@ -14,14 +18,17 @@ empty), which are warnings.
 
 from __future__ import annotations
 
-from collections.abc import Sequence
+from collections.abc import Iterator, Sequence
+from typing import Any
 
 import numpy as np
+import shapely
 
 from .aircraft import Aircraft, Envelope
 from .balance import moment_items
 from .caution import PILOT_CAUTION
-from .engine import CONDITIONS, WEIGHT_TOLERANCE, Evaluation, envelope_state, evaluate, load_limits, loading_arrays, path_states, weight_limits
+from .engine import CONDITIONS, WEIGHT_TOLERANCE, Evaluation, envelope_state, evaluate, loading_arrays, path_states
+from .engine import _tables as engine_tables
 from .envelope import EnvelopeShape, Vary
 from .loading import Loading, ResolvedLoading, require_usable, resolve_loading
 from .results import (
@@ -51,7 +58,7 @@ from .words import (
     weight_limit_message,
 )
 
-__all__ = ["WEIGHT_TOLERANCE", "check_loading"]
+__all__ = ["WEIGHT_TOLERANCE", "check_loading", "check_many"]
 
 _SAMPLES = 40  # evenly spaced points along the burn path for drawing it, besides where it leaves
 
@@ -89,49 +96,105 @@ def check_loading(
     FAA-H-8083-1B chapter 2 (sum of moments, CG = total moment / total weight);
     AC 43.13-1B chapter 10 section 1 (loading conditions).
     """
-    if isinstance(loading, ResolvedLoading):
-        require_usable(loading, aircraft)  # a loading resolved by hand is held to the same rules
-        resolved = loading
-    else:
-        resolved = resolve_loading(loading, aircraft, category=category)
-    units = aircraft.units
-    rows = loading_arrays(aircraft, resolved)
-    found = evaluate(aircraft, rows.stations[None, :], rows.fuel[None, :], np.array([rows.taxi]), np.array([rows.trip]),
-                     order=rows.order, category=resolved.category, density=rows.density, explain=True)
-    envelopes = aircraft.envelopes_for(resolved.category)
-    findings: list[Finding] = []
-    conditions = [_condition(aircraft, found, envelopes, name, findings) for name in CONDITIONS]  # type: ignore[arg-type]
-    burn_path = _burn_path(aircraft, resolved, found, conditions, findings, samples)
-    findings.extend(_load_findings(aircraft, resolved, found))
+    resolved = loading if isinstance(loading, ResolvedLoading) else resolve_loading(loading, aircraft, category=category)
+    return check_many(aircraft, [resolved], samples=samples)[0]
 
-    landing_fuel = conditions[2].fuel
-    if resolved.reserve is not None and landing_fuel < resolved.reserve * (1 - WEIGHT_TOLERANCE):
-        findings.append(
-            Finding(
-                code="reserve", severity="warning", condition="landing",
-                message=reserve_message(landing_fuel, resolved.reserve, units.fuel_volume),
-                excess=resolved.reserve - landing_fuel, unit=units.fuel_volume, limit=resolved.reserve,
-            )
-        )
-    findings.extend(Finding(code="assumption", severity="warning", message=note) for note in resolved.notes)
-    ok = not any(f.severity == "limit" for f in findings)
-    assert ok == bool(found.ok[0]), "the explanation must carry the engine's verdict"
-    return CheckResult(
-        ok=ok,
-        category=resolved.category,
-        aircraft=AircraftInfo(
-            name=aircraft.name,
-            registration=aircraft.registration,
-            fingerprint=aircraft.fingerprint,
-            empty_weight_date=aircraft.empty.date.isoformat() if aircraft.empty.date else None,
-        ),
-        items=moment_items(aircraft, resolved),
-        conditions=conditions,
-        burn_path=burn_path,
-        findings=findings,
-        units=UnitsInfo(mass=units.mass, arm=units.arm, fuel_volume=units.fuel_volume, moment=units.moment),
-        caution=PILOT_CAUTION,
+
+def check_many(aircraft: Aircraft, loadings: Sequence[ResolvedLoading], *, samples: bool = False) -> list[CheckResult]:
+    """Check many resolved loadings of one aircraft: the result of each is :func:`check_loading`'s.
+
+    The loadings are evaluated by the engine together (one call for each burn order,
+    category and set of densities among them), and each result is built from its row of
+    the engine's arrays; the margins of every row are found together as well.
+
+    Raises
+    ------
+    InputError
+        When a loading resolved by hand is one no flight can have
+        (:func:`~loadcheck.loading.require_usable`).
+    """
+    tables = engine_tables(aircraft)
+    groups: dict[tuple[Any, ...], list[int]] = {}
+    for index, resolved in enumerate(loadings):
+        require_usable(resolved, aircraft)  # a loading resolved by hand is held to the same rules
+        key = (resolved.plan.order, resolved.category, tuple(resolved.density[t] for t in tables.tank_ids))
+        groups.setdefault(key, []).append(index)
+    results: list[CheckResult | None] = [None] * len(loadings)
+    for (order, category, density), members in groups.items():
+        chosen = [loadings[i] for i in members]
+        n = len(chosen)
+        stations = np.array([[ld.stations.get(s, 0.0) for s in tables.station_ids] for ld in chosen], dtype=float)
+        fuel = np.array([[ld.fuel[t] for t in tables.tank_ids] for ld in chosen], dtype=float)
+        found = evaluate(aircraft, stations.reshape(n, len(tables.station_ids)), fuel.reshape(n, len(tables.tank_ids)),
+                         np.array([ld.taxi for ld in chosen]), np.array([ld.trip for ld in chosen]),
+                         order=order, category=category, density=np.array(density, dtype=float), explain=True)
+        for k, result in enumerate(_explain(aircraft, chosen, found, category, samples)):
+            results[members[k]] = result
+    return results  # type: ignore[return-value]
+
+
+def _explain(aircraft: Aircraft, loadings: Sequence[ResolvedLoading], found: Evaluation, category: str,
+             samples: bool) -> Iterator[CheckResult]:
+    """The result of each loading from its row of the engine's arrays: the explanation of the verdict."""
+    units = aircraft.units
+    tables = engine_tables(aircraft)
+    envelopes, shapes = tables.envelopes[category]
+    info = AircraftInfo(
+        name=aircraft.name,
+        registration=aircraft.registration,
+        fingerprint=aircraft.fingerprint,
+        empty_weight_date=aircraft.empty.date.isoformat() if aircraft.empty.date else None,
     )
+    units_info = UnitsInfo(mass=units.mass, arm=units.arm, fuel_volume=units.fuel_volume, moment=units.moment)
+    rows = _Rows(found)
+    margins = _margins(shapes, found, tables.weights)
+    exceeded: list[bool] = np.any(found.load_exceeded, axis=1).tolist()  # type: ignore[assignment]
+    ok_rows: list[bool] = list(found.ok.tolist())
+    for i, resolved in enumerate(loadings):
+        findings: list[Finding] = []
+        conditions = [_condition(aircraft, rows, i, envelopes, shapes, name, findings, margins[name][i],  # type: ignore[arg-type]
+                                 tables.weights[name]) for name in CONDITIONS]
+        burn_path = _burn_path(aircraft, resolved, found, i, conditions, findings, samples)
+        if exceeded[i]:
+            findings.extend(_load_findings(aircraft, resolved, found, i))
+        landing_fuel = conditions[2].fuel
+        if resolved.reserve is not None and landing_fuel < resolved.reserve * (1 - WEIGHT_TOLERANCE):
+            findings.append(
+                Finding(
+                    code="reserve", severity="warning", condition="landing",
+                    message=reserve_message(landing_fuel, resolved.reserve, units.fuel_volume),
+                    excess=resolved.reserve - landing_fuel, unit=units.fuel_volume, limit=resolved.reserve,
+                )
+            )
+        findings.extend(Finding(code="assumption", severity="warning", message=note) for note in resolved.notes)
+        ok = not any(f.severity == "limit" for f in findings)
+        assert ok == ok_rows[i], "the explanation must carry the engine's verdict"
+        yield CheckResult(
+            ok=ok,
+            category=resolved.category,
+            aircraft=info,
+            items=moment_items(aircraft, resolved),
+            conditions=conditions,
+            burn_path=burn_path,
+            findings=findings,
+            units=units_info,
+            caution=PILOT_CAUTION,
+        )
+
+
+class _Rows:
+    """The engine's per-condition arrays as Python lists, read row by row without numpy scalars."""
+
+    def __init__(self, found: Evaluation):
+        self.weight = {k: v.tolist() for k, v in found.weight.items()}
+        self.moment = {k: v.tolist() for k, v in found.moment.items()}
+        self.lateral = {k: v.tolist() for k, v in found.lateral_moment.items()}
+        self.fuel = {k: v.sum(axis=1).tolist() for k, v in found.fuel.items()}
+        self.fuel_weight = {k: v.tolist() for k, v in found.fuel_weight.items()}
+        self.weight_ok = {k: [v.tolist() for v in vs] for k, vs in found.weight_ok.items()}
+        self.min_weight_ok = {k: v.tolist() for k, v in found.min_weight_ok.items()}
+        self.inside = {k: [v.tolist() for v in vs] for k, vs in found.envelope_inside.items()}
+        self.condition_ok = {k: v.tolist() for k, v in found.condition_ok.items()}
 
 
 # -- conditions -----------------------------------------------------------------------
@@ -139,16 +202,19 @@ def check_loading(
 
 def _condition(
     aircraft: Aircraft,
-    found: Evaluation,
+    rows: _Rows,
+    i: int,
     envelopes: Sequence[Envelope],
+    shapes: Sequence[EnvelopeShape],
     name: ConditionName,
     findings: list[Finding],
+    margins: Margins,
+    table: list[tuple[str, float]],
 ) -> Condition:
     units = aircraft.units
-    weight, moment, lateral = float(found.weight[name][0]), float(found.moment[name][0]), float(found.lateral_moment[name][0])
-    table = weight_limits(aircraft)[name]
-    for (code, limit), good in zip(table, found.weight_ok[name], strict=True):
-        if not good[0]:
+    weight, moment, lateral = rows.weight[name][i], rows.moment[name][i], rows.lateral[name][i]
+    for (code, limit), good in zip(table, rows.weight_ok[name], strict=True):
+        if not good[i]:
             findings.append(
                 Finding(
                     code=code, severity="limit", condition=name,
@@ -156,7 +222,7 @@ def _condition(
                     excess=weight - limit, unit=units.mass, limit=limit, side="above",
                 )
             )
-    if not found.min_weight_ok[name][0]:
+    if not rows.min_weight_ok[name][i]:
         minimum = aircraft.limits.min_flight_weight
         assert minimum is not None
         findings.append(
@@ -167,14 +233,14 @@ def _condition(
             )
         )
     severity: Severity = "warning" if name == "zero_fuel" and aircraft.limits.zero_fuel_cg == "warning" else "limit"
-    for envelope, inside in zip(envelopes, found.envelope_inside[name], strict=True):
-        if not inside[0]:
-            tested = envelope_state(envelope.shape, name, weight, moment, lateral)
+    for envelope, shape, inside in zip(envelopes, shapes, rows.inside[name], strict=True):
+        if not inside[i]:
+            tested = envelope_state(shape, name, weight, moment, lateral)
             label = f"the {envelope.label or envelope.category + '-category'} envelope"
             label = label.replace("envelope envelope", "envelope")
-            findings.append(_outside_finding(aircraft, envelope.shape, label, name, *tested, severity))
+            findings.append(_outside_finding(aircraft, shape, label, name, *tested, severity))
 
-    has_lateral = aircraft.has_lateral
+    has_lateral = engine_tables(aircraft).has_lateral
     weight_limit = min((value for _, value in table), default=None)
     return Condition(
         condition=name,
@@ -184,11 +250,11 @@ def _condition(
         lateral_arm=lateral / weight if has_lateral else None,
         lateral_moment=lateral if has_lateral else None,
         mac_percent=aircraft.mac.percent(moment / weight) if aircraft.mac else None,
-        fuel=float(found.fuel[name][0].sum()),
-        fuel_weight=float(found.fuel_weight[name][0]),
+        fuel=rows.fuel[name][i],
+        fuel_weight=rows.fuel_weight[name][i],
         max_weight=weight_limit,
-        ok=bool(found.condition_ok[name][0]),
-        margins=_margins([e.shape for e in envelopes], name, weight, moment, lateral, weight_limit),
+        ok=rows.condition_ok[name][i],
+        margins=margins,
     )
 
 
@@ -197,9 +263,21 @@ def _pick(intervals: list[tuple[float, float]], value: float) -> tuple[float, fl
     return min(intervals, key=lambda iv: max(iv[0] - value, value - iv[1], 0.0))
 
 
-def _margins(
+# -- margins --------------------------------------------------------------------------
+#
+# The margin to a limit at a condition is read off a slice of each envelope: the line on
+# which one quantity (arm, lateral arm or weight) runs with the others held, cut at every
+# edge it crosses (EnvelopeShape.slice). Here every slice of every loading and condition
+# is cut at once: the same arithmetic, in the same order, on arrays.
+
+_MARGIN_KEYS = ("forward", "aft", "left", "right", "weight")
+_ONE_BY_ONE = 2  # up to this many loadings, slices are cut one at a time (fewer numpy calls)
+
+
+def _margins_one(
     shapes: Sequence[EnvelopeShape], name: str, weight: float, moment: float, lateral: float, weight_limit: float | None
 ) -> Margins:
+    """The margins of one loading at one condition, from :meth:`EnvelopeShape.slice`."""
     values: dict[str, float] = {}
 
     def keep(key: str, value: float) -> None:
@@ -227,6 +305,150 @@ def _margins(
             if heights:
                 keep("weight", _pick(heights, w)[1] - w)
     return Margins(**values)
+
+
+def _margins(shapes: Sequence[EnvelopeShape], found: Evaluation,
+             weights: dict[str, list[tuple[str, float]]]) -> dict[str, list[Margins]]:
+    """The margins of every loading at every condition (see :class:`~loadcheck.results.Margins`).
+
+    A few loadings are cut one slice at a time (:func:`_margins_one`, plain floats); many
+    are cut together (the same arithmetic on arrays). The fleet check's agreement tests
+    compare the two, row for row.
+    """
+    n = len(found.ok)
+    if n <= _ONE_BY_ONE:
+        out_one: dict[str, list[Margins]] = {}
+        for name in CONDITIONS:
+            weight_limit = min((value for _, value in weights[name]), default=None)
+            out_one[name] = [_margins_one(shapes, name, w, m, lat, weight_limit) for w, m, lat in
+                             zip(found.weight[name].tolist(), found.moment[name].tolist(), found.lateral_moment[name].tolist())]
+        return out_one
+    values = {name: {key: np.full(n, np.nan) for key in _MARGIN_KEYS} for name in CONDITIONS}
+
+    def keep(name: str, key: str, value: np.ndarray) -> None:
+        held = values[name][key]
+        values[name][key] = np.where(np.isnan(held), value, np.where(value < held, value, held))
+
+    for name in CONDITIONS:
+        weight_limit = min((value for _, value in weights[name]), default=None)
+        if weight_limit is not None:
+            keep(name, "weight", weight_limit - found.weight[name])
+    for shape in shapes:
+        tested = [envelope_state(shape, name, found.weight[name], found.moment[name], found.lateral_moment[name])
+                  for name in CONDITIONS]
+        w = np.concatenate([t[0] for t in tested])
+        m = np.concatenate([t[1] for t in tested])
+        lat = np.concatenate([t[2] for t in tested])
+        arm, lateral_arm = m / w, lat / w
+        vary: Vary = "lateral" if shape.is_lateral else "arm"
+        lines = [(vary, w, arm, lateral_arm)]
+        upright = not shape.is_lateral
+        if upright:  # the weight margin, at every condition but ramp (its rows come first)
+            lines.append(("weight", w[n:], arm[n:], lateral_arm[n:]))
+        lo, hi = _slices(shape, lines)
+        held = lateral_arm if shape.is_lateral else arm
+        first, second = ("left", "right") if shape.is_lateral else ("forward", "aft")
+        for k, name in enumerate(CONDITIONS):
+            part = slice(k * n, (k + 1) * n)
+            found_here = ~np.isnan(lo[part])
+            if found_here.any():
+                keep(name, first, np.where(found_here, held[part] - lo[part], np.nan))
+                keep(name, second, np.where(found_here, hi[part] - held[part], np.nan))
+            if upright and name != "ramp":
+                top = hi[4 * n + (k - 1) * n: 4 * n + k * n]
+                if (~np.isnan(top)).any():
+                    keep(name, "weight", top - w[part])
+    out: dict[str, list[Margins]] = {}
+    for name in CONDITIONS:
+        columns = [values[name][key].tolist() for key in _MARGIN_KEYS]
+        out[name] = [Margins(**{key: v for key, v in zip(_MARGIN_KEYS, row) if v == v}) for row in zip(*columns)]
+    return out
+
+
+def _slice_lines(shape: EnvelopeShape, vary: str, weight: np.ndarray, arm: np.ndarray,
+                 lateral_arm: np.ndarray) -> tuple[Any, ...]:
+    """The scaled lines of :meth:`EnvelopeShape.slice` for arrays: start, direction, and the held value."""
+    zero, one = np.zeros_like(weight), np.ones_like(weight)
+    at: Any = shape._at  # plain arithmetic: works on arrays as on floats
+    if vary == "arm":
+        p0, p1, value = at(weight, zero, lateral_arm), at(weight, one, lateral_arm), arm
+    elif vary == "weight":
+        p0, p1, value = at(zero, arm, lateral_arm), at(one, arm, lateral_arm), weight
+    else:
+        p0, p1, value = at(weight, arm, zero), at(weight, arm, one), lateral_arm
+    (x0, y0), (x1, y1) = p0, p1
+    sx, sy = x1 - x0, y1 - y0
+    (ox, oy), (wx, wy) = shape._origin_span
+    return (x0 - ox) / wx, (y0 - oy) / wy, sx / wx, sy / wy, value, (sx == 0.0) & (sy == 0.0)
+
+
+def _slices(shape: EnvelopeShape, lines: Sequence[tuple[str, Any, Any, Any]]) -> tuple[np.ndarray, np.ndarray]:
+    """For each line, the inside interval holding the held value, else the nearest one (NaN where none).
+
+    The arithmetic of :meth:`EnvelopeShape._line_intervals` for many lines at once: every
+    edge crossing is a cut, each stretch between cuts is inside as its middle is, a lone
+    cut touching the polygon is an interval of zero length; the interval is then picked
+    as :func:`_pick` does.
+    """
+    parts = [_slice_lines(shape, *line) for line in lines]
+    ax, ay, dx, dy, value, flat = (np.concatenate([p[j] for p in parts]) for j in range(6))
+    scale = np.maximum(np.abs(dx), np.abs(dy))
+    columns = []
+    with np.errstate(divide="ignore", invalid="ignore"):
+        for x1, y1, ex, ey in shape._edge_list:
+            wx, wy = x1 - ax, y1 - ay
+            denom = dx * ey - dy * ex
+            crossing = np.abs(denom) > 1e-14 * scale
+            t = (wx * dy - wy * dx) / denom
+            columns.append(np.where(crossing & (t >= -1e-12) & (t <= 1 + 1e-12), (wx * ey - wy * ex) / denom, np.nan))
+            along = ~crossing & (np.abs(wx * dy - wy * dx) <= 1e-12 * scale) & ~flat
+            if along.any():  # the line runs along this edge: cut at both its ends
+                norm = dx * dx + dy * dy
+                columns.append(np.where(along, (wx * dx + wy * dy) / norm, np.nan))
+                columns.append(np.where(along, ((wx + ex) * dx + (wy + ey) * dy) / norm, np.nan))
+    points = np.sort(np.stack(columns, axis=1), axis=1)
+    points[flat] = np.nan
+    repeated = np.zeros(points.shape, dtype=bool)
+    repeated[:, 1:] = points[:, 1:] == points[:, :-1]
+    if repeated.any():
+        points = np.sort(np.where(repeated, np.nan, points), axis=1)
+    cut = np.isfinite(points)
+    low, high = points[:, :-1], points[:, 1:]
+    stretch = cut[:, :-1] & cut[:, 1:]
+    mids = 0.5 * (low + high)
+    rs, cs = np.nonzero(stretch)
+    rp, cp = np.nonzero(cut)
+    probe_x = np.concatenate([ax[rs] + mids[rs, cs] * dx[rs], ax[rp] + points[rp, cp] * dx[rp]])
+    probe_y = np.concatenate([ay[rs] + mids[rs, cs] * dy[rs], ay[rp] + points[rp, cp] * dy[rp]])
+    hit = shapely.intersects_xy(shape.covering, probe_x, probe_y)
+    inside = np.zeros(stretch.shape, dtype=bool)
+    inside[rs, cs] = hit[: len(rs)]
+    touch = np.zeros(cut.shape, dtype=bool)
+    touch[rp, cp] = hit[len(rs):]
+    before = np.zeros(cut.shape, dtype=bool)
+    before[:, 1:] = inside
+    after = np.zeros(cut.shape, dtype=bool)
+    after[:, :-1] = inside
+    lone = touch & ~before & ~after
+    v = value[:, None]
+    gap_stretch = np.where(inside, np.maximum(np.maximum(low - v, v - high), 0.0), np.inf)
+    gap_lone = np.where(lone, np.maximum(np.maximum(points - v, v - points), 0.0), np.inf)
+    nearest = np.minimum(gap_stretch.min(axis=1, initial=np.inf), gap_lone.min(axis=1, initial=np.inf))
+    at_stretch = np.where(gap_stretch == nearest[:, None], low, np.inf)
+    at_lone = np.where(gap_lone == nearest[:, None], points, np.inf)
+    k_stretch, k_lone = at_stretch.argmin(axis=1), at_lone.argmin(axis=1)
+    rows = np.arange(len(ax))
+    use_lone = at_lone[rows, k_lone] < at_stretch[rows, k_stretch]
+    # the merged run of inside stretches around the chosen one
+    index = np.arange(inside.shape[1])
+    starts = inside & ~before[:, :-1]
+    ends = inside & ~after[:, 1:]
+    run_start = np.maximum.accumulate(np.where(starts, index, -1), axis=1)
+    run_end = np.minimum.accumulate(np.where(ends, index, inside.shape[1])[:, ::-1], axis=1)[:, ::-1]
+    lo = np.where(use_lone, points[rows, k_lone], points[rows, np.clip(run_start[rows, k_stretch], 0, None)])
+    hi = np.where(use_lone, points[rows, k_lone], points[rows, np.clip(run_end[rows, k_stretch] + 1, None, points.shape[1] - 1)])
+    none = ~np.isfinite(nearest) | flat
+    return np.where(none, np.nan, lo), np.where(none, np.nan, hi)
 
 
 def _outside_finding(
@@ -309,26 +531,27 @@ def _burn_path(
     aircraft: Aircraft,
     resolved: ResolvedLoading,
     found: Evaluation,
+    i: int,
     conditions: Sequence[Condition],
     findings: list[Finding],
     with_samples: bool = True,
 ) -> BurnPath:
     start, end = resolved.taxi, resolved.taxi + resolved.trip
     takeoff = conditions[1]
-    takeoff_in = bool(found.envelope_ok["takeoff"][0])
-    landing_in = bool(found.envelope_ok["landing"][0])
-    ok = bool(found.burn_path_ok[0])
+    takeoff_in = bool(found.envelope_ok["takeoff"][i])
+    landing_in = bool(found.envelope_ok["landing"][i])
+    ok = bool(found.burn_path_ok[i])
     units = aircraft.units
     lateral = aircraft.has_lateral
     assert found.path_outside is not None
-    stretches = found.path_outside[0]
-    rows = loading_arrays(aircraft, resolved)
+    stretches = found.path_outside[i]
 
     marks = [start + (end - start) * k / _SAMPLES for k in range(_SAMPLES + 1)] if with_samples and end > start else []
     ends = [b for stretch in stretches for b in stretch]
     middle = [0.5 * (stretches[0][0] + stretches[0][1])] if stretches else []
     points = sorted(set(marks + ends)) + middle
     if points:
+        rows = loading_arrays(aircraft, resolved)
         weights, moments, laterals, quantities = path_states(
             aircraft, rows.stations, rows.fuel, np.array(points), order=rows.order, density=rows.density
         )
@@ -351,7 +574,7 @@ def _burn_path(
          if e.category == resolved.category and not e.shape.covers(w_mid, m_mid, l_mid)),
         None,
     )
-    payload_weight = float(found.weight["zero_fuel"][0])
+    payload_weight = float(found.weight["zero_fuel"][i])
     leaves = LeavePoint(
         fuel_burned=takeoff.weight - first[0],
         fuel_remaining=first[0] - payload_weight,
@@ -382,12 +605,12 @@ def _burn_path(
 # -- stations and groups ------------------------------------------------------------------
 
 
-def _load_findings(aircraft: Aircraft, resolved: ResolvedLoading, found: Evaluation) -> list[Finding]:
+def _load_findings(aircraft: Aircraft, resolved: ResolvedLoading, found: Evaluation, i: int) -> list[Finding]:
     mass = aircraft.units.mass
     ids = [s.id for s in aircraft.station]
     findings = []
-    for column, rule in enumerate(load_limits(aircraft)):
-        if not found.load_exceeded[0, column]:
+    for column, rule in enumerate(engine_tables(aircraft).loads):
+        if not found.load_exceeded[i, column]:
             continue
         loaded = sum(resolved.stations.get(ids[i], 0.0) for i in rule.members)
         findings.append(

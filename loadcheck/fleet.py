@@ -30,7 +30,7 @@ from pathlib import Path
 from typing import Any
 
 from .aircraft import RESERVED_IDS, Aircraft
-from .check import check_loading
+from .check import check_many
 from .errors import FileFormatError, InputError, LoadcheckError, Problem
 from .files import encoding_problem, file_kind, open_regular, parse_aircraft, parse_loading, read_toml
 from .loading import Loading, resolve_loading
@@ -49,6 +49,7 @@ __all__ = [
     "FleetLine",
     "fleet_listing",
     "record_age_days",
+    "default_workers",
 ]
 
 MAX_CSV_BYTES = 50 * 1024 * 1024
@@ -445,11 +446,15 @@ class Flight:
         return [f["message"] for f in self.result["findings"] if f["severity"] == "warning"]
 
     def brief(self) -> Flight:
-        """This flight with only what a one-line summary shows (verdict, units, conditions,
-        findings), for holding many flights at once."""
+        """This flight with only what a one-line summary shows (verdict, units, each condition's
+        weight and CG, each finding's code, severity and words), for holding many flights at once."""
         row = FleetRow(self.row.line, self.row.source, self.row.registration, self.row.reference, self.row.pilot, None,
                        self.row.problems)
-        result = None if self.result is None else {key: self.result[key] for key in _BRIEF if key in self.result}
+        result = None
+        if self.result is not None:
+            result = {"ok": self.result["ok"], "category": self.result.get("category"), "units": self.result["units"],
+                      "conditions": [{k: c[k] for k in ("condition", "weight", "arm")} for c in self.result["conditions"]],
+                      "findings": [{k: f[k] for k in ("code", "severity", "message")} for f in self.result["findings"]]}
         return Flight(row, result, self.problems, self.record_id)
 
     def to_dict(self) -> dict[str, Any]:
@@ -464,8 +469,6 @@ class Flight:
         return {**head, **body}
 
 
-_BRIEF = ("ok", "category", "units", "conditions", "findings")
-
 CHUNK = 256
 """Flights checked, recorded (one transaction) and reported together."""
 
@@ -478,21 +481,44 @@ PARENT_POLL = 0.2
 _FLEET: Fleet | None = None  # the fleet, inherited by worker processes
 
 
-def _check_one(row: FleetRow) -> tuple[dict[str, Any] | None, list[str]]:
-    assert _FLEET is not None
-    if row.problems or row.loading is None or row.registration is None:
-        return None, row.problems or ["this row cannot be used"]
-    try:
-        aircraft = _FLEET.aircraft(row.registration)
-        result = check_loading(aircraft, resolve_loading(row.loading, aircraft), samples=False)
-    except LoadcheckError as error:
-        return None, [f"{row.source}:{row.line}: {p.describe()}" for p in error.problems]
-    return result.to_dict(), []
+def default_workers() -> int:
+    """Processes a fleet check uses unless told: one.
+
+    Measured (docs/performance.md, benchmarks/fleet.py): with the rows of each chunk
+    checked together, handing chunks to a second process costs about what it saves (the
+    results are pickled back), so one process is the default; ``--workers 2`` is there for
+    a machine with idle cores.
+    """
+    return 1
 
 
 def _check_chunk(rows: list[FleetRow]) -> list[tuple[dict[str, Any] | None, list[str]]]:
-    """Check a chunk of rows (the one place that decides how a row is checked)."""
-    return [_check_one(row) for row in rows]
+    """Check a chunk of rows (the one place that decides how a row is checked).
+
+    Each usable row is resolved against its aircraft; the rows of each aircraft are then
+    checked together (:func:`~loadcheck.check.check_many`: the engine once for all of
+    them, each result the one :func:`~loadcheck.check.check_loading` gives for its row).
+    """
+    assert _FLEET is not None
+    out: list[tuple[dict[str, Any] | None, list[str]]] = [(None, [])] * len(rows)
+    by_aircraft: dict[str, tuple[Aircraft, list[int], list[Any]]] = {}
+    for index, row in enumerate(rows):
+        if row.problems or row.loading is None or row.registration is None:
+            out[index] = (None, row.problems or ["this row cannot be used"])
+            continue
+        try:
+            aircraft = _FLEET.aircraft(row.registration)
+            resolved = resolve_loading(row.loading, aircraft)
+        except LoadcheckError as error:
+            out[index] = (None, [f"{row.source}:{row.line}: {p.describe()}" for p in error.problems])
+            continue
+        group = by_aircraft.setdefault(row.registration, (aircraft, [], []))
+        group[1].append(index)
+        group[2].append(resolved)
+    for aircraft, indices, resolved_rows in by_aircraft.values():
+        for index, result in zip(indices, check_many(aircraft, resolved_rows, samples=False)):
+            out[index] = (result.to_dict(), [])
+    return out
 
 
 def _end_with_parent(parent: int) -> None:

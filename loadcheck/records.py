@@ -255,6 +255,17 @@ class RecordLog:
     def find(self, *, since: dt.date | None = None, until: dt.date | None = None,
              registration: str | None = None) -> Iterator[Record]:
         """Records in order, between two dates (inclusive, UTC) and/or for one registration."""
+        for row in self._select(_COLUMNS, since, until, registration):
+            yield self._row(row)
+
+    def listing(self, *, since: dt.date | None = None, until: dt.date | None = None,
+                registration: str | None = None) -> Iterator[tuple[int, str, str | None, str | None, str | None, int, str]]:
+        """What a listing shows of each record, in order, without reading its inputs and result:
+        (id, checked_at, registration, reference, pilot, ok (1 or 0), fingerprint); the filters of :meth:`find`."""
+        return self._select("id, checked_at, registration, reference, pilot, ok, fingerprint", since, until, registration)
+
+    def _select(self, columns: str, since: dt.date | None, until: dt.date | None,
+                registration: str | None) -> Iterator[tuple[Any, ...]]:
         clauses, args = [], []
         if since is not None:
             clauses.append("checked_at >= ?")
@@ -266,9 +277,7 @@ class RecordLog:
             clauses.append("registration = ?")
             args.append(registration)
         where = f" WHERE {' AND '.join(clauses)}" if clauses else ""
-        query = f"SELECT {_COLUMNS} FROM checks{where} ORDER BY id"
-        for row in self._db.execute(query, args):
-            yield self._row(row)
+        yield from self._db.execute(f"SELECT {columns} FROM checks{where} ORDER BY id", args)
 
 
 def record_check(log: RecordLog, inputs: Any, result: Any, *, source: str, version: str, pilot: str | None = None) -> int:

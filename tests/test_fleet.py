@@ -377,3 +377,112 @@ def test_a_flight_within_limits_carries_its_warnings(records, tmp_path):
     assert flight.brief().warnings == flight.warnings
     line = _json_lines(runner.invoke(app, ["fleet", "check", str(SAMPLES), str(day), "--json"]).stdout)[0]
     assert {f["code"] for f in line["findings"] if f["severity"] == "warning"} >= {"reserve", "assumption"}
+
+
+# -- issue 18: the dispatcher's day at engine speed ------------------------------------------
+
+
+def _random_loadings(aircraft, count: int, seed: int, order=None):
+    """Random loadings of an aircraft (some out of limits), resolved; those it refuses left out."""
+    import numpy as np
+
+    from loadcheck.errors import LoadcheckError
+    from loadcheck.loading import resolve_loading
+
+    rng = np.random.default_rng(seed)
+    out = []
+    for _ in range(count):
+        load = {s.id: float(rng.uniform(0, (s.max_weight or 200) * 1.1)) for s in aircraft.station if rng.random() < 0.8}
+        fuel = {t.id: float(rng.uniform(0, t.usable)) for t in aircraft.tank}
+        burnable = sum(fuel.values()) if order is None else sum(fuel[t] for t in order)
+        taxi = min(float(rng.uniform(0, 2)), burnable)
+        trip = float((burnable - taxi) * rng.uniform(0, 1))
+        burn = {"taxi": taxi, "trip": trip, "order": list(order) if order else "together"}
+        try:
+            out.append(resolve_loading(Loading(load=load, fuel=fuel, burn=burn), aircraft))
+        except LoadcheckError:
+            continue
+    return out
+
+
+@pytest.mark.parametrize("name, order", [("trainer4", None), ("twin6", ("aux", "mains")), ("twin6", None),
+                                         ("tandem2", None), ("heli2", None)])
+def test_batch_results_equal_single_checks_on_random_loadings(name, order):
+    # the fleet builds every row's result from one engine call per aircraft, its margins cut
+    # for all rows at once; each must be the single check's result for that row (margins,
+    # findings in words, where the burn path leaves), within limits or not
+    from loadcheck.check import check_many
+
+    aircraft = load_aircraft(sample(f"{name}/aircraft.toml"))
+    loadings = _random_loadings(aircraft, 150, seed=18, order=order)
+    assert len(loadings) >= 100
+    many = check_many(aircraft, loadings)
+    assert {r.ok for r in many} == {True, False}  # both verdicts are exercised
+    for resolved, result in zip(loadings, many):
+        single = check_loading(aircraft, resolved, samples=False)
+        assert results_match(result.to_dict(), single.to_dict()), resolved
+
+
+def test_a_long_fleet_table_is_plain_text_and_cuts_nothing(records, tmp_path):
+    # the rich table took about half a millisecond a row and cut an input error at 160
+    # characters; past the threshold the table is plain aligned text, every word kept
+    from loadcheck.render.listing import PLAIN_ROWS
+
+    day = tmp_path / "day.csv"
+    long_reference = "R" + "x" * 200
+    lines = ["registration,reference,front,mains,taxi,trip"]
+    lines += [f"DEMO-4T,F{i},170,30,1,10" for i in range(PLAIN_ROWS)]
+    lines += [f"DEMO-XX,{long_reference},170,30,1,10"]
+    day.write_text("\n".join(lines) + "\n")
+    result = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(day), "--no-record"])
+    assert result.exit_code == 2
+    out = result.stdout
+    assert "┃" not in out and "│" not in out  # plain text, no table drawing
+    assert long_reference in out and "unknown registration 'DEMO-XX'; expected one of" in out
+    rows = [line for line in out.splitlines() if line.split()[1:2] == ["DEMO-4T"]]
+    assert len(rows) == PLAIN_ROWS and len({line.index("DEMO-4T") for line in rows}) == 1  # aligned
+    assert f"{PLAIN_ROWS + 1} flights: {PLAIN_ROWS} within limits, 0 out of limits, 1 could not be used." in out
+    from loadcheck.caution import PILOT_CAUTION
+
+    assert " ".join(out.split()).endswith("CAUTION: " + " ".join(PILOT_CAUTION.split()))
+
+
+def test_check_json_does_not_load_rich_and_holds_blas_to_one_thread():
+    # start-up: a plain check --json paid for importing rich, and numpy's BLAS thread pool
+    # spun at start-up
+    code = ("import os, sys; sys.argv = ['loadcheck', 'check', %r, '--json']\n"
+            "import loadcheck.cli as c\n"
+            "try:\n    c.main()\nexcept SystemExit:\n    pass\n"
+            "print(sorted(m for m in sys.modules if m.split('.')[0] in ('rich', 'matplotlib')), "
+            "os.environ['OPENBLAS_NUM_THREADS'], file=sys.stderr)" % str(sample("trainer4/within.toml")))
+    env = {k: v for k, v in os.environ.items() if not k.endswith("_NUM_THREADS")}
+    done = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, env=env, check=True)
+    assert json.loads(done.stdout)["ok"] is True
+    assert done.stderr.strip() == "[] 1"
+
+
+def test_a_large_batch_holds_blas_to_one_thread(monkeypatch):
+    # numpy's BLAS thread pool spun on the engine's tiny products, doubling the CPU time and
+    # halving throughput when another process was busy: a large batch runs on one BLAS thread
+    import numpy as np
+    from threadpoolctl import threadpool_info, threadpool_limits
+
+    from loadcheck import engine
+
+    aircraft = load_aircraft(sample("trainer4/aircraft.toml"))
+    seen = []
+    real = engine._evaluate
+
+    def spy(*args, **kwargs):
+        seen.append([i["num_threads"] for i in threadpool_info() if i["user_api"] == "blas"])
+        return real(*args, **kwargs)
+
+    monkeypatch.setattr(engine, "_evaluate", spy)
+    n = engine.BLAS_ONE_THREAD_ABOVE + 1
+    stations = np.full((n, len(aircraft.station)), 20.0)
+    fuel = np.full((n, len(aircraft.tank)), 10.0)
+    with threadpool_limits(limits=2, user_api="blas"):  # as on a machine with two cores
+        engine.evaluate(aircraft, stations, fuel, np.ones(n), np.full(n, 5.0))
+        after = [i["num_threads"] for i in threadpool_info() if i["user_api"] == "blas"]
+    assert seen and all(threads == [1] * len(threads) for threads in seen), seen
+    assert after == [2] * len(after)  # the limit is lifted afterwards: the caller's setting is theirs

@@ -6,12 +6,23 @@ arithmetic and no validation of their own. The library never imports this packag
 
 from __future__ import annotations
 
+import os
 import sys
 
-import typer
+# The command line's numpy does small products only (the engine keeps large batches on
+# one BLAS thread itself): a BLAS thread pool would only spin at start-up. Set before
+# numpy loads; a value the user set is kept.
+for _name in ("OPENBLAS_NUM_THREADS", "OMP_NUM_THREADS", "MKL_NUM_THREADS"):
+    os.environ.setdefault(_name, "1")
+# pydantic looks for plugins among every installed distribution's entry points on the
+# first validation (about 10 ms and the import of importlib.metadata); the command line
+# uses none. A value the user set is kept.
+os.environ.setdefault("PYDANTIC_DISABLE_PLUGINS", "1")
 
-from . import desk, dispatcher, mechanic, pilot  # each registers its commands
-from .common import app
+import typer  # noqa: E402
+
+from . import desk, dispatcher, mechanic, pilot  # noqa: E402  (each registers its commands)
+from .common import app  # noqa: E402
 
 __all__ = ["app", "main"]
 

@@ -11,15 +11,17 @@ import functools
 import os
 from collections.abc import Callable
 from pathlib import Path
-from typing import Annotated, Any, TypeVar
+from typing import TYPE_CHECKING, Annotated, Any, TypeVar
 
 import typer
 from pydantic import ValidationError
-from rich.console import Console
 from typer.core import TyperGroup, TyperOption
 
 from .. import __version__
 from ..errors import InputError, LoadcheckError, Problem
+
+if TYPE_CHECKING:  # rich loads only when something is printed through it (not for --json)
+    from rich.console import Console
 
 __all__ = [
     "EXIT_INPUT", "EXIT_LIMIT", "EXIT_OK", "AircraftArg", "CategoryOpt", "FuelOpt", "JsonOpt", "LoadOpt", "LoadingArg",
@@ -105,6 +107,8 @@ def _console(stderr: bool = False) -> Console:
     else 80 (tables are laid out for that width, see loadcheck.render.terminal). With
     ``NO_COLOR`` set (https://no-color.org) no escape codes at all are written, styles included.
     """
+    from rich.console import Console
+
     no_color = bool(os.environ.get("NO_COLOR"))
     return Console(stderr=stderr, highlight=False, color_system=None if no_color else "auto", no_color=no_color)
 

@@ -16,7 +16,8 @@ __all__ = ["users_app"]
 if TYPE_CHECKING:
     from ..web.users import UserStore
 
-UsersOpt = Annotated[Path | None, typer.Option("--users", metavar="FILE", help="Accounts file (default: $LOADCHECK_USERS, else the user data folder).")]
+UsersOpt = Annotated[Path | None, typer.Option(
+    "--users", metavar="FILE", help="Accounts file (default: $LOADCHECK_USERS, else the user data folder).")]
 
 
 def _store(users: Path | None) -> UserStore:

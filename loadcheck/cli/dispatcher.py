@@ -74,7 +74,7 @@ def fleet_check(
         help="Record database (default: $LOADCHECK_RECORDS or the user data folder).")] = None,
     no_record: Annotated[bool, typer.Option("--no-record", help="Do not record the checks.")] = False,
     json_out: Annotated[bool, typer.Option("--json", help="Print JSON Lines: one object per flight.")] = False,
-    workers: Annotated[int | None, typer.Option(min=1, help="Processes checking flights (default: one per core).")] = None,
+    workers: Annotated[int | None, typer.Option(min=1, help="Processes checking flights (default: one; see docs/performance.md).")] = None,
 ) -> None:
     """Check a day of loadings against the fleet; record every check.
 
@@ -89,9 +89,7 @@ def fleet_check(
     """
     from contextlib import nullcontext
 
-    from rich.progress import Progress
-
-    from ..fleet import check_flights, load_fleet, read_loadings
+    from ..fleet import check_flights, default_workers, load_fleet, read_loadings
     from ..records import RecordLog, default_path
 
     fleet = load_fleet(folder)
@@ -103,15 +101,18 @@ def fleet_check(
     flights = []  # for the table only: one brief line per flight; JSON Lines are streamed
     counts = {"checked": 0, "out": 0, "bad": 0}
     show_progress = err.is_terminal and not json_out and not os.environ.get("NO_COLOR")  # a bar is escape codes
+    say = (lambda text: err.print(text, markup=False, soft_wrap=True)) if show_progress else (lambda text: err.file.write(text + "\n"))
+    if show_progress:
+        from rich.progress import Progress
     with (Progress(console=err, transient=True) if show_progress else nullcontext()) as progress:
         task = progress.add_task("checking", total=None) if progress is not None else None  # type: ignore[union-attr]
         try:
-            for flight in check_flights(fleet, rows, log, __version__, workers=workers or os.cpu_count() or 1):
+            for flight in check_flights(fleet, rows, log, __version__, workers=workers or default_workers()):
                 counts["checked"] += 1
                 if flight.result is None:
                     counts["bad"] += 1
                     for problem in flight.problems:
-                        err.print(f"error: {problem}", markup=False, soft_wrap=True)
+                        say(f"error: {problem}")
                 elif not flight.ok:
                     counts["out"] += 1
                 if json_out:
@@ -121,6 +122,7 @@ def fleet_check(
                 if progress is not None and task is not None:
                     progress.advance(task)
             sys.stdout.flush()
+            err.file.flush()
         finally:
             if log is not None:
                 log.close()
@@ -171,11 +173,12 @@ def records_list(db: DbOpt = None, since: SinceOpt = None, until: UntilOpt = Non
       loadcheck records list --registration DEMO-4T \\
         --since 2026-11-01
     """
-    from ..render.terminal import render_records
+    from ..caution import PILOT_CAUTION
+    from ..render.records import render_record_list
 
     with _log(db) as log:
-        found = list(log.find(since=_date(since, "--since"), until=_date(until, "--until"), registration=registration))
-        render_records(found, log.path, _console())
+        records = list(log.listing(since=_date(since, "--since"), until=_date(until, "--until"), registration=registration))
+    render_record_list(log.path, records, PILOT_CAUTION, _console())
 
 
 @records_app.command("show", short_help="One record: its inputs and result.")

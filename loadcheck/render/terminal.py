@@ -51,7 +51,6 @@ __all__ = [
     "render_fleet_list",
     "render_history",
     "render_plan",
-    "render_records",
     "render_schedule",
     "render_table",
     "render_weighing",
@@ -726,10 +725,16 @@ def render_fleet(flights: list[Any], console: Console) -> None:
             f"{fmt(takeoff['weight'], units['mass'])}\n{fmt(takeoff['arm'], units['arm'])}",
             f"{fmt(landing['weight'], units['mass'])}\n{fmt(landing['arm'], units['arm'])}",
         ])
-    _print_table(console, "Flights",
-                 [Column("Line", key=True), Column("Aircraft", numeric=False, key=True),
-                  Column("Result and first finding", numeric=False), Column("Reference", numeric=False),
-                  Column("Takeoff weight, CG"), Column("Landing weight, CG")], rows)
+    columns = [Column("Line", key=True), Column("Aircraft", numeric=False, key=True),
+               Column("Result and first finding", numeric=False), Column("Reference", numeric=False),
+               Column("Takeoff weight, CG"), Column("Landing weight, CG")]
+    from .listing import plain_listing, use_plain
+
+    if use_plain(len(rows)):  # a long day: plain aligned text, quick at any length, nothing cut
+        plain_listing(console.file, "Flights", [c.header for c in columns], [[_plain(c) for c in r] for r in rows],
+                      right=(0,), width=console.width)
+    else:
+        _print_table(console, "Flights", columns, rows)
     out = sum(1 for f in flights if f.result is not None and not f.ok)
     bad = sum(1 for f in flights if f.result is None)
     within = len(flights) - out - bad
@@ -758,17 +763,4 @@ def render_fleet_list(lines: list[Any], folder: Any, console: Console) -> None:
                  [Column("Registration", numeric=False, key=True), Column("Aircraft", numeric=False),
                   Column("Empty weight"), Column("Record of"), Column("Useful load"), Column("Data"),
                   Column("Problems", numeric=False)], rows)
-    console.print(caution_text(PILOT_CAUTION))
-
-
-def render_records(records: Sequence[Any], path: Any, console: Console) -> None:
-    """The record log: one row per recorded check, then the caution."""
-    from ..caution import PILOT_CAUTION
-
-    _print_table(console, f"Records in {path}",
-                 [Column("Id", key=True), Column("Checked (UTC)", numeric=False), Column("Registration", numeric=False),
-                  Column("Reference", numeric=False), Column("Pilot", numeric=False), Column("Result", numeric=False),
-                  Column("Data")],
-                 [[str(r.id), r.checked_at[:19].replace("T", " "), r.registration or "", r.reference or "", r.pilot or "",
-                   "within limits" if r.ok else "OUT OF LIMITS", r.fingerprint] for r in records])
     console.print(caution_text(PILOT_CAUTION))
