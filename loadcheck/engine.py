@@ -464,6 +464,18 @@ def evaluate_arrays(
 # -- evaluation -----------------------------------------------------------------------------
 
 
+CHUNK_CELLS = 4_000_000
+"""At most about this many loading-and-edge pairs are worked on at once: an envelope of
+thousands of corners gets smaller chunks, so memory stays bounded and cost linear in
+corners and loadings."""
+
+
+def _chunk(aircraft: Aircraft, category: str | None) -> int:
+    """Loadings per chunk for this aircraft's envelopes [count]."""
+    edges = sum(len(e.points) for e in aircraft.envelopes_for(aircraft.category(category)))
+    return max(64, min(CHUNK, CHUNK_CELLS // max(1, 3 * edges)))
+
+
 def evaluate(
     aircraft: Aircraft,
     stations: np.ndarray,
@@ -502,13 +514,14 @@ def evaluate(
     trip = np.broadcast_to(np.asarray(trip, dtype=float), (n,))
     if n <= BLAS_ONE_THREAD_ABOVE:
         return _evaluate(aircraft, stations, fuel, taxi, trip, order, category, density, explain)
+    chunk = _chunk(aircraft, category)
     with _one_blas_thread():
-        if n <= CHUNK:
+        if n <= chunk:
             return _evaluate(aircraft, stations, fuel, taxi, trip, order, category, density, explain)
         parts = [
-            _evaluate(aircraft, stations[i : i + CHUNK], fuel[i : i + CHUNK], taxi[i : i + CHUNK], trip[i : i + CHUNK],
+            _evaluate(aircraft, stations[i : i + chunk], fuel[i : i + chunk], taxi[i : i + chunk], trip[i : i + chunk],
                       order, category, density, explain)
-            for i in range(0, n, CHUNK)
+            for i in range(0, n, chunk)
         ]
 
     def join(field: str) -> Any:

@@ -225,8 +225,8 @@ def parse_duration_hours(text: str | float | int) -> float:
     >>> parse_duration_hours("90 min")
     1.5
     """
-    if isinstance(text, bool):
-        raise UnitError(f"expected a duration, got {text!r}")
+    if isinstance(text, bool) or not isinstance(text, (str, int, float)):
+        raise UnitError(f"expected a duration such as '2:15', '2.25 h' or a number of hours, got {text!r}")
     if isinstance(text, (int, float)):
         hours = float(text)
     elif match := _DURATION_RE.match(text):

@@ -328,3 +328,40 @@ def test_validate_shows_the_empty_weight_cg_range_and_flags_a_record_outside_it(
     text = " ".join(out.output.split())
     assert "WARNING" in text and "CG range" in text
     assert "1 tank," in text and "1 tanks" not in text
+    shown = " ".join(runner.invoke(app, ["show", str(path)]).output.split())
+    assert "Empty-weight CG range" in shown and "WARNING" in shown and "CG range" in shown
+
+
+def test_planning_on_an_envelope_of_thousands_of_corners_stays_bounded_in_memory():
+    # issue 13 item 11: plan fuel on an envelope of 10,000 corners took 5.7 GB (100,000
+    # corners: MemoryError); the engine now works on chunks sized to the number of edges
+    import math
+    import tracemalloc
+
+    from loadcheck import planning as P
+    from loadcheck.loading import Loading, resolve_loading
+
+    from .helpers import simple_aircraft
+
+    n = 5000
+    points = [[41.5 + 6.5 * math.cos(2 * math.pi * k / n), 1450 + 550 * math.sin(2 * math.pi * k / n)] for k in range(n)]
+    aircraft = simple_aircraft(envelope=[{"category": "normal", "axes": ["arm", "weight"], "points": points}])
+    loading = resolve_loading(Loading(load={"front": 170, "rear": 150}, fuel={"main": 20}, burn={"taxi": 1, "trip": 10}),
+                              aircraft)
+    tracemalloc.start()
+    try:
+        answer = P.most_fuel(aircraft, loading)
+        peak = tracemalloc.get_traced_memory()[1]
+    finally:
+        tracemalloc.stop()
+    assert answer.feasible and answer.check.ok
+    assert peak < 200 * 2**20, f"peak {peak / 2**20:.0f} MiB"
+
+
+def test_a_trip_time_of_the_wrong_type_is_a_field_error(tmp_path):
+    # found by the fuzz test of random loading documents: [burn] trip_time = [] ended in
+    # "internal error (TypeError ...)" instead of an error naming the field
+    path = tmp_path / "loading.toml"
+    path.write_text("format = 1\n[load]\nfront = 170\n[burn]\ntrip_time = []\nrate = 9\n")
+    result = runner.invoke(app, ["check", str(sample("trainer4/aircraft.toml")), str(path)])
+    assert result.exit_code == 2 and "burn.trip_time" in result.output and "internal error" not in result.output

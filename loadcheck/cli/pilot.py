@@ -211,10 +211,11 @@ def show(
     from ..caution import PILOT_CAUTION
     from ..files import load_aircraft
     from ..render.terminal import render_aircraft
+    from ..weighing import current_record_warnings
 
     data = load_aircraft(aircraft)
     data.category(category)  # fail on an unknown category before printing anything
-    render_aircraft(data, _console(), PILOT_CAUTION)
+    render_aircraft(data, _console(), PILOT_CAUTION, current_record_warnings(data))
     if chart is not None:
         from ..render.chart import envelope_figure, save_figure
 

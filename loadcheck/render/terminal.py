@@ -407,8 +407,9 @@ def render_check(result: CheckResult, console: Console, plot: Sequence[str] = ()
 # -- the aircraft ------------------------------------------------------------------------------------
 
 
-def render_aircraft(aircraft: Aircraft, console: Console, caution: str) -> None:
-    """Print an aircraft's data: units, empty weight, limits, stations, groups, tanks, envelopes."""
+def render_aircraft(aircraft: Aircraft, console: Console, caution: str, warnings: Sequence[str] = ()) -> None:
+    """Print an aircraft's data: units, empty weight (and ``warnings`` about that record, such
+    as a CG outside its empty-weight CG range), limits, stations, groups, tanks, envelopes."""
     units = aircraft.units
     empty = aircraft.empty
     limits = aircraft.limits
@@ -424,6 +425,8 @@ def render_aircraft(aircraft: Aircraft, console: Console, caution: str) -> None:
     record += [["Empty-weight moment", fmt(empty.moment, units.moment)], ["Record dated", str(empty.date or "not dated")]]
     if empty.basis:
         record.append(["Basis", empty.basis])
+    if empty.cg_range is not None:
+        record.append(["Empty-weight CG range", f"{fmt(empty.cg_range[0], units.arm)} to {fmt(empty.cg_range[1], units.arm)}"])
     record += [
         ["Useful load (max takeoff less empty)", fmt(aircraft.useful_load, units.mass)],
         ["Max ramp weight", fmt(limits.ramp, units.mass)],
@@ -439,6 +442,8 @@ def render_aircraft(aircraft: Aircraft, console: Console, caution: str) -> None:
         record.append(["MAC", f"{fmt(aircraft.mac.length, units.arm)} from {fmt(aircraft.mac.leading_edge_arm, units.arm)}"])
     _print_table(console, "Empty-weight record and limits", [Column("What", numeric=False, key=True),
                                                             Column("Value", numeric=False)], record)
+    if warnings:
+        _lines(console, [(Text("WARNING", style=_WARN_STYLE), Text(w)) for w in warnings])
 
     _print_table(
         console, "Stations",
