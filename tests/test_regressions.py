@@ -365,3 +365,20 @@ def test_a_trip_time_of_the_wrong_type_is_a_field_error(tmp_path):
     path.write_text("format = 1\n[load]\nfront = 170\n[burn]\ntrip_time = []\nrate = 9\n")
     result = runner.invoke(app, ["check", str(sample("trainer4/aircraft.toml")), str(path)])
     assert result.exit_code == 2 and "burn.trip_time" in result.output and "internal error" not in result.output
+
+
+def test_plan_fuel_on_an_aircraft_with_no_tanks_says_so_without_a_numpy_warning(tmp_path):
+    # issue 13 item 12: plan fuel on an aircraft with no tanks printed a numpy RuntimeWarning
+    import warnings
+
+    from loadcheck import planning as P
+    from loadcheck.loading import Loading, resolve_loading
+
+    from .helpers import simple_aircraft
+
+    aircraft = simple_aircraft(tank=[])
+    loading = resolve_loading(Loading(load={"front": 170}), aircraft)
+    with warnings.catch_warnings():
+        warnings.simplefilter("error")
+        answer = P.most_fuel(aircraft, loading)
+    assert not answer.feasible and "no fuel tanks" in (answer.governing or "")
