@@ -17,9 +17,7 @@ from typing import Annotated, Any, Literal
 
 import numpy as np
 from pydantic import (
-    BaseModel,
     BeforeValidator,
-    ConfigDict,
     Field,
     PrivateAttr,
     ValidationInfo,
@@ -30,6 +28,7 @@ from pydantic import (
 
 from .envelope import AXES, Axis, EnvelopeShape, polygon_problem
 from .errors import Problem, UnknownNameError
+from .filemodel import FileModel
 from .fuel import FuelGrade, default_density, density_problem, grade_name
 from .units import ArmUnit, MassUnit, VolumeUnit, canonical_unit, convert, parse_quantity, unit_kind
 
@@ -59,10 +58,8 @@ columns (docs/fleet.md), so a station called ``pilot`` would be read as the pilo
 and its weight lost."""
 
 
-class _Model(BaseModel):
-    """Common configuration: unknown keys are errors (a misspelt limit must not vanish)."""
-
-    model_config = ConfigDict(extra="forbid", frozen=True, allow_inf_nan=False)
+class _Model(FileModel):
+    """Common configuration (loadcheck.filemodel): unknown keys, and true/false for a number, are errors."""
 
 
 def _quantity_reader(kind: str, unit_field: str) -> Any:

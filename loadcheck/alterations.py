@@ -17,11 +17,12 @@ import datetime as dt
 from dataclasses import dataclass, field
 from typing import Any, Literal
 
-from pydantic import BaseModel, ConfigDict, Field, model_validator
+from pydantic import Field, model_validator
 
 from .aircraft import Aircraft, Arm, Mass
 from .caution import MECHANIC_CAUTION
 from .errors import InputError, Problem, UnknownNameError
+from .filemodel import FileModel
 from .results import Result
 from .units import convert
 from .weighing import Record, Refusal, record_checks
@@ -29,8 +30,8 @@ from .weighing import Record, Refusal, record_checks
 __all__ = ["Change", "Changes", "ChangeLine", "AlterResult", "alter", "negligible_weight_lb", "Negligible"]
 
 
-class _Model(BaseModel):
-    model_config = ConfigDict(extra="forbid", frozen=True, allow_inf_nan=False)
+class _Model(FileModel):
+    """Common configuration (loadcheck.filemodel): unknown keys, and true/false for a number, are errors."""
 
 
 class Change(_Model):

@@ -20,10 +20,11 @@ from collections.abc import Mapping, Sequence
 from dataclasses import dataclass, field
 from typing import Annotated, Any, Literal
 
-from pydantic import BaseModel, BeforeValidator, ConfigDict, Field, field_validator, model_validator
+from pydantic import BeforeValidator, Field, field_validator, model_validator
 
 from .aircraft import Aircraft
 from .errors import InputError, LoadcheckError, Problem, UnknownNameError
+from .filemodel import FileModel
 from .fuel import density_problem
 from .units import Quantity, convert, in_unit, parse_duration_hours, parse_quantity, parse_rate, unit_kind
 
@@ -90,8 +91,8 @@ FuelStart = Annotated[float | str, BeforeValidator(_fuel_start)]
 FuelRate = Annotated[float | str, BeforeValidator(_fuel_rate)]
 
 
-class _Model(BaseModel):
-    model_config = ConfigDict(extra="forbid", frozen=True, allow_inf_nan=False)
+class _Model(FileModel):
+    """Common configuration (loadcheck.filemodel): unknown keys, and true/false for a number, are errors."""
 
 
 class Burn(_Model):

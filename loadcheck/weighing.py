@@ -18,11 +18,12 @@ import datetime as dt
 from dataclasses import dataclass, field
 from typing import Any, Literal
 
-from pydantic import BaseModel, ConfigDict, Field, model_validator
+from pydantic import Field, model_validator
 
 from .aircraft import Aircraft, Arm, Mass, Volume
 from .caution import MECHANIC_CAUTION
 from .errors import InputError, Problem, UnknownNameError
+from .filemodel import FileModel
 from .results import Result
 
 __all__ = ["Readings", "WeighingPoint", "Geometry", "ReadingItem", "WeighResult", "WeighPoint", "Correction", "Record",
@@ -34,8 +35,8 @@ record (common practice: a weighing or an ordinary alteration moves the empty we
 per cent; ten per cent or more is a misread scale, a wrong unit or a major alteration)."""
 
 
-class _Model(BaseModel):
-    model_config = ConfigDict(extra="forbid", frozen=True, allow_inf_nan=False)
+class _Model(FileModel):
+    """Common configuration (loadcheck.filemodel): unknown keys, and true/false for a number, are errors."""
 
 
 class Geometry(_Model):

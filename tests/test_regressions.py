@@ -382,3 +382,26 @@ def test_plan_fuel_on_an_aircraft_with_no_tanks_says_so_without_a_numpy_warning(
         warnings.simplefilter("error")
         answer = P.most_fuel(aircraft, loading)
     assert not answer.feasible and "no fuel tanks" in (answer.governing or "")
+
+
+@pytest.mark.parametrize("where", ["station_arm", "max_takeoff_weight", "envelope_point", "load"])
+def test_true_where_a_number_belongs_is_refused(tmp_path, where):
+    # a TOML `true` was read as 1.0: `arm = true` gave a station at 1 in, and the file validated
+    import tomlkit
+
+    from .helpers import sample_data
+
+    aircraft = sample_data("trainer4/aircraft.toml")
+    loading = {"format": 1, "aircraft": "aircraft.toml", "load": {"front": 170}, "fuel": {"mains": 20}}
+    if where == "station_arm":
+        aircraft["station"][0]["arm"] = True
+    elif where == "max_takeoff_weight":
+        aircraft["limits"]["max_takeoff_weight"] = True
+    elif where == "envelope_point":
+        aircraft["envelope"][0]["points"][1][0] = True
+    else:
+        loading["load"]["front"] = True
+    (tmp_path / "aircraft.toml").write_text(tomlkit.dumps(aircraft))
+    (tmp_path / "loading.toml").write_text(tomlkit.dumps(loading))
+    result = runner.invoke(app, ["check", str(tmp_path / "loading.toml")])
+    assert result.exit_code == 2 and "expected a number" in result.output and "Traceback" not in result.output
