@@ -60,3 +60,21 @@ def ac_example_aircraft() -> Aircraft:
         "envelope": [{"category": "normal", "axes": ["arm", "weight"],
                       "points": [[8.5, 1000], [8.5, 2100], [21.9, 2100], [21.9, 1000]]}],
     })
+
+
+def record_sheet(tmp_path: Path, command: str, aircraft: Path, source: Path) -> str:
+    """The HTML record that ``weigh`` or ``alter`` writes with ``--sheet`` (the command must exit 0)."""
+    from typer.testing import CliRunner
+
+    from loadcheck.cli import app
+
+    sheet = tmp_path / f"{command}.html"
+    result = CliRunner().invoke(app, [command, str(aircraft), str(source), "--sheet", str(sheet)])
+    assert result.exit_code == 0, result.output
+    return sheet.read_text()
+
+
+def cell(html: str, cell_id: str) -> str:
+    """The text of the HTML element with that id."""
+    start = html.index(f"id='{cell_id}'>") + len(f"id='{cell_id}'>")
+    return html[start: html.index("</", start)]

@@ -19,7 +19,7 @@ from loadcheck.cli import app
 from loadcheck.files import parse_aircraft
 from loadcheck.weighing import current_record_warnings
 
-from .helpers import sample, sample_data
+from .helpers import cell, record_sheet, sample, sample_data
 
 runner = CliRunner()
 
@@ -30,18 +30,6 @@ def _trainer_with_range(tmp_path: Path, cg_range: str) -> Path:
     path = tmp_path / "aircraft.toml"
     path.write_text(path.read_text().replace("basis = ", f"cg_range = {cg_range}\nbasis = ", 1))
     return path
-
-
-def _record_sheet(tmp_path: Path, command: str, aircraft: Path, source: Path) -> str:
-    sheet = tmp_path / f"{command}.html"
-    result = runner.invoke(app, [command, str(aircraft), str(source), "--sheet", str(sheet)])
-    assert result.exit_code == 0, result.output
-    return sheet.read_text()
-
-
-def _cell(html: str, cell_id: str) -> str:
-    start = html.index(f"id='{cell_id}'>") + len(f"id='{cell_id}'>")
-    return html[start: html.index("</", start)]
 
 
 def test_alter_warns_when_the_new_cg_leaves_the_empty_weight_cg_range(tmp_path):
@@ -103,8 +91,8 @@ def test_an_alteration_that_leaves_no_useful_load_is_refused():
 
 
 def test_the_alteration_record_shows_the_description_and_date(tmp_path):
-    html = _record_sheet(tmp_path, "alter", sample("trainer4/aircraft.toml"), sample("trainer4/changes.toml"))
-    assert _cell(html, "meta-changes-of") == "2026-11-29"
-    assert _cell(html, "meta-description") == "Radio installed, wheel fairings removed, ELT relocated"
+    html = record_sheet(tmp_path, "alter", sample("trainer4/aircraft.toml"), sample("trainer4/changes.toml"))
+    assert cell(html, "meta-changes-of") == "2026-11-29"
+    assert cell(html, "meta-description") == "Radio installed, wheel fairings removed, ELT relocated"
     assert "Previous record</th><th>New record</th><th>Change</th>" in html
     assert "Most forward" in html and "Empty-weight CG range" in html and "Certificate number" in html

@@ -24,7 +24,7 @@ from loadcheck.empty_record import NOTE_CHARS, NotConfirmedError, OverrideNeeded
 from loadcheck.files import MAX_FILE_BYTES, parse_aircraft, read_text
 from loadcheck.weighing import Readings, weigh
 
-from .helpers import sample
+from .helpers import cell, record_sheet, sample
 
 runner = CliRunner()
 
@@ -281,23 +281,11 @@ def test_a_stale_trailing_comment_does_not_stay_on_the_new_value(tmp_path):
 # -- item 10: the record to sign ----------------------------------------------------------------
 
 
-def _record_sheet(tmp_path: Path, command: str, aircraft: Path, source: Path) -> str:
-    sheet = tmp_path / f"{command}.html"
-    result = runner.invoke(app, [command, str(aircraft), str(source), "--sheet", str(sheet)])
-    assert result.exit_code == 0, result.output
-    return sheet.read_text()
-
-
-def _cell(html: str, cell_id: str) -> str:
-    start = html.index(f"id='{cell_id}'>") + len(f"id='{cell_id}'>")
-    return html[start: html.index("</", start)]
-
-
 def test_the_weighing_record_shows_what_a_signer_needs(tmp_path):
     # issue 14 item 10: date, who weighed, gear and datum geometry, previous and new side by side,
     # extreme loadings, empty-weight CG range, signature block
-    html = _record_sheet(tmp_path, "weigh", sample("trainer4/aircraft.toml"), sample("trainer4/weighing.toml"))
-    assert _cell(html, "meta-weighed-on") == "2026-11-28" and _cell(html, "meta-weighed-by") == "demo hangar"
+    html = record_sheet(tmp_path, "weigh", sample("trainer4/aircraft.toml"), sample("trainer4/weighing.toml"))
+    assert cell(html, "meta-weighed-on") == "2026-11-28" and cell(html, "meta-weighed-by") == "demo hangar"
     geometry = html[html.index("id='geometry'"):]
     assert "nosewheel" in geometry and "datum forward" in geometry and "58.20 in" in geometry and "65.00 in" in geometry
     assert "Previous record</th><th>As weighed</th><th>New record</th>" in html
@@ -316,7 +304,7 @@ def test_the_weighing_record_shows_the_lateral_cg(tmp_path):
                         "[[point]]\nlabel = 'front'\narm = 60.0\nreading = 300.0\n"
                         "[[point]]\nlabel = 'rear left'\narm = 127.0\nlateral_arm = -20.0\nreading = 295.0\n"
                         "[[point]]\nlabel = 'rear right'\narm = 127.0\nlateral_arm = 20.0\nreading = 290.0\n")
-    html = _record_sheet(tmp_path, "weigh", tmp_path / "aircraft.toml", readings)
+    html = record_sheet(tmp_path, "weigh", tmp_path / "aircraft.toml", readings)
     row = html[html.index("<td>lateral CG (+ right)</td>"):]
     row = row[: row.index("</tr>")]
     assert "0.30 in" in row and "-0.11 in" in row  # previous 0.3 in; new (290 - 295) x 20 / 885
@@ -333,7 +321,7 @@ def _printer() -> str | None:
 @pytest.mark.parametrize("command", ["weigh", "alter"])
 def test_the_printed_record_fits_one_page_with_its_signature_block(tmp_path, command, paper):
     source = sample("trainer4/weighing.toml" if command == "weigh" else "trainer4/changes.toml")
-    html = _record_sheet(tmp_path, command, sample("trainer4/aircraft.toml"), source)
+    html = record_sheet(tmp_path, command, sample("trainer4/aircraft.toml"), source)
     assert "@page { size: auto;" in html
     page = tmp_path / f"{paper}.html"  # the paper size a user picks in the print dialogue
     page.write_text(html.replace("@page { size: auto;", f"@page {{ size: {paper};"))

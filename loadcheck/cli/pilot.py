@@ -298,8 +298,13 @@ def _fill(fill: str | None) -> list[str] | None:
 
 
 def _answer(result: Any, json_out: bool) -> None:
+    """Print a planning answer (a trip's too) and exit with its verdict."""
     if json_out:
         typer.echo(result.to_json())
+    elif hasattr(result, "trip"):
+        from ..render.trip import render_trip_plan
+
+        render_trip_plan(result, _console())
     else:
         from ..render.terminal import render_plan
 
@@ -332,18 +337,8 @@ def plan_fuel(
     if inputs.is_trip:
         from ..trip import trip_most_fuel
 
-        _trip_answer(trip_most_fuel(inputs.aircraft, inputs.trip, fill=_fill(fill)), json_out)
+        _answer(trip_most_fuel(inputs.aircraft, inputs.trip, fill=_fill(fill)), json_out)
     _answer(most_fuel(inputs.aircraft, inputs.loading, fill=_fill(fill)), json_out)
-
-
-def _trip_answer(result: Any, json_out: bool) -> None:
-    if json_out:
-        typer.echo(result.to_json())
-    else:
-        from ..render.trip import render_trip_plan
-
-        render_trip_plan(result, _console())
-    raise typer.Exit(EXIT_OK if result.feasible else EXIT_LIMIT)
 
 
 @plan_app.command("stop", short_help="Fuel to put in at a stop of a trip.")
@@ -368,7 +363,7 @@ def plan_stop(
     inputs = _inputs(aircraft, loading, load, fuel, taxi, trip, trip_time, rate, order, reserve, category,
                      legs=_legs(leg_load, leg_fuel, leg_burn), allow_trip=True)
     trip_data = inputs.trip
-    _trip_answer(fuel_to_add(inputs.aircraft, trip_data, _need(leg, "--leg"), fill=_fill(fill)), json_out)
+    _answer(fuel_to_add(inputs.aircraft, trip_data, _need(leg, "--leg"), fill=_fill(fill)), json_out)
 
 
 @plan_app.command("trip", short_help="The longest trip at a burn rate.")
