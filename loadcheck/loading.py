@@ -187,12 +187,12 @@ def apply_overrides(
     fuel: Mapping[str, str] | None = None,
     burn: Mapping[str, Any] | None = None,
     category: str | None = None,
-    legs: Mapping[int, Mapping[str, Mapping[str, Any]]] | None = None,
+    legs: Mapping[int, Mapping[str, Any]] | None = None,
 ) -> dict[str, Any]:
     """Return loading-file data with command-line values laid on top (they win).
 
     ``legs`` maps a leg number (2 for the first ``[[leg]]`` table) to its ``load``,
-    ``add_fuel`` and ``burn`` values (see :func:`leg_assignments`); a leg number one past
+    ``add_fuel`` and ``burn`` values and, optionally, its ``label`` (see :func:`leg_assignments`); a leg number one past
     the file's last leg adds a leg.
 
     Raises
@@ -224,10 +224,14 @@ def apply_overrides(
     return merged
 
 
-def _lay_over(merged: dict[str, Any], tables: Mapping[str, Mapping[str, Any] | None]) -> None:
-    """Lay the values of each table over ``merged``'s table of that name (in place)."""
+def _lay_over(merged: dict[str, Any], tables: Mapping[str, Any]) -> None:
+    """Lay the values of each table over ``merged``'s table of that name (in place); a value
+    that is not a table (a leg's ``label``) replaces the field of that name."""
     for table, values in tables.items():
-        if values:
+        if values is not None and not isinstance(values, Mapping):
+            merged[table] = values  # a value of the wrong type is left for validation to report
+            continue
+        if values is not None:  # an empty table given (a leg's burn = {}) is a table all the same
             existing = merged.setdefault(table, {})
             if isinstance(existing, dict):  # a table of the wrong type is left for validation to report
                 if table == "burn" and "trip" in values:  # a trip given here replaces the file's trip time
