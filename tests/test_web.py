@@ -720,6 +720,33 @@ def test_api_bad_leg_names_the_leg_and_records_nothing(desk: dict[str, Any]) -> 
     assert _records(desk) == []
 
 
+def test_names_typed_on_the_form_show_beside_the_seat_and_go_into_the_record(desk: dict[str, Any]) -> None:
+    client = _client(desk, "pia")
+    form = client.get("/aircraft/TEST-TRIP").text
+    assert 'name="names.front"' in form and 'name="names.rear"' in form and 'name="names.bags"' not in form  # seats only
+    values = {**TRIP_LEG_2_AFT, "names.front": "Alex <i>R</i>", "leg.2.names.front": "Kim"}
+    page = _post_check(client, values, "TEST-TRIP").text
+    leg_1 = page[page.index('id="leg-1"'):page.index('id="leg-2"', page.index('id="leg-1"') + 1)]
+    leg_2 = page[page.rindex('<section class="leg" id="leg-2">'):page.index('<figure class="chart">')]
+    assert '<span class="who">· Alex &lt;i&gt;R&lt;/i&gt;</span>' in leg_1 and "<i>R</i>" not in page
+    assert '<span class="who">· Kim</span>' in leg_2 and "Alex" not in leg_2
+    sheet = _post_check(client, values, "TEST-TRIP", route="sheet").text
+    assert "Alex &lt;i&gt;R&lt;/i&gt;" in sheet and "Kim" in sheet and "<i>R</i>" not in sheet
+    assert _post_check(client, values, "TEST-TRIP", route="record").status_code == 303
+    inputs = _records(desk)[0].inputs
+    assert inputs["names"] == {"front": "Alex <i>R</i>"} and inputs["leg"][0]["names"] == {"front": "Kim"}
+
+
+def test_a_bad_name_brings_the_form_back_with_the_field_named(desk: dict[str, Any]) -> None:
+    client = _client(desk, "pia")
+    for key, field in (("names.rear", "names.rear"), ("leg.2.names.rear", "leg 2, names.rear")):
+        response = _post_check(client, {**TRIP_LEG_2_AFT, key: "Sam"}, "TEST-TRIP", route="record")  # no one weighs in the rear
+        assert response.status_code == 422 and f"{field}:" in response.text and "carries no weight" in response.text, key
+        assert re.search(rf'class="field name bad">\s*<label for="{re.escape(key)}"', response.text), key
+        assert f'name="{key}" value="Sam"' in response.text
+    assert _records(desk) == []
+
+
 # -- the JSON API --------------------------------------------------------------------------------
 
 def test_api_check_is_the_command_lines_json(desk: dict[str, Any]) -> None:

@@ -211,8 +211,9 @@ def leg_count(form: Any) -> int:
 def _overrides(form: Any, aircraft: Any, legs: int | None = None) -> tuple[dict[str, str], dict[str, Any]]:
     """The form's values as typed (to show again) and as the library's overrides (empty fields left out).
 
-    Leg ``n`` (2 or more) has the fields ``leg.n.label``, ``leg.n.load.STATION`` (the new weight
-    from that leg on), ``leg.n.fuel.TANK`` (fuel put in at the stop before it) and
+    ``names.STATION`` is the person at a station (the loading file's ``[names]``). Leg ``n`` (2 or
+    more) has the fields ``leg.n.label``, ``leg.n.load.STATION`` (the new weight from that leg
+    on), ``leg.n.names.STATION``, ``leg.n.fuel.TANK`` (fuel put in at the stop before it) and
     ``leg.n.burn.KEY``, given to the library as the loading file's ``[[leg]]`` tables.
     """
     typed: dict[str, str] = {}
@@ -221,24 +222,25 @@ def _overrides(form: Any, aircraft: Any, legs: int | None = None) -> tuple[dict[
         typed[key] = value = str(form.get(key, "")).strip()
         return value
 
-    def tables(prefix: str) -> tuple[dict[str, str], dict[str, str], dict[str, Any]]:
+    def tables(prefix: str) -> tuple[dict[str, str], dict[str, str], dict[str, str], dict[str, Any]]:
         load = {s.id: v for s in aircraft.station if (v := read(f"{prefix}load.{s.id}"))}
+        names = {s.id: v for s in aircraft.station if (v := read(f"{prefix}names.{s.id}"))}  # a person at a station
         fuel = {t.id: v for t in aircraft.tank if (v := read(f"{prefix}fuel.{t.id}"))}
         burn = {k: _split_order(v) if k == "order" else v for k in _BURN_KEYS if (v := read(f"{prefix}burn.{k}"))}
-        return load, fuel, burn
+        return load, names, fuel, burn
 
-    load, fuel, burn = tables("")
+    load, names, fuel, burn = tables("")
     count = leg_count(form) if legs is None else legs
     typed["legs"] = str(count)
     further: dict[int, dict[str, Any]] = {}
     for number in range(2, count + 1):
         label = read(f"leg.{number}.label")
-        leg_load, added, leg_burn = tables(f"leg.{number}.")
-        further[number] = {"label": label or None, "load": leg_load, "add_fuel": added, "burn": leg_burn}
+        leg_load, leg_names, added, leg_burn = tables(f"leg.{number}.")
+        further[number] = {"label": label or None, "load": leg_load, "names": leg_names, "add_fuel": added, "burn": leg_burn}
     typed["category"] = category = str(form.get("category", "")).strip()
     typed["station"] = str(form.get("station", "")).strip()
     typed["stop"] = str(form.get("stop", "")).strip()
-    return typed, {"load": load, "fuel": fuel, "burn": burn, "category": category or None, "legs": further}
+    return typed, {"load": load, "names": names, "fuel": fuel, "burn": burn, "category": category or None, "legs": further}
 
 
 def _without_leg(typed: dict[str, str], number: int) -> dict[str, str]:
@@ -299,7 +301,7 @@ def _sheet(inputs: Any, result: Any) -> str:
     from ..render.sheet import load_sheet_html, trip_sheet_html
 
     if inputs.is_trip:
-        return trip_sheet_html(result, _chart_svg(inputs, result), loading_label=inputs.label)
+        return trip_sheet_html(result, _chart_svg(inputs, result), loading_label=inputs.label, trip_loading=inputs.trip)
     return load_sheet_html(result, _chart_svg(inputs, result, compact=True), loading_label=inputs.label,
                            loading=inputs.loading, pilot=inputs.given.pilot if inputs.given is not None else None,
                            aircraft=inputs.aircraft)
@@ -443,7 +445,7 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
         bad = {p["field"] for p in problems} | {form_key(p["field"]) for p in problems}
         legs = int(typed.get("legs", "1"))
         return page(request, "check.html", status, title=f"Check a loading: {aircraft.registration}", aircraft=aircraft,
-                    typed=typed, problems=problems, bad=bad, legs=legs, max_legs=MAX_LEGS, burn_keys=_BURN_KEYS)
+                    typed=typed, problems=problems, bad=bad, legs=legs, max_legs=MAX_LEGS)
 
     @app.get("/aircraft/{registration}", response_class=HTMLResponse)
     def check_form(request: Request, registration: str) -> Response:
@@ -503,8 +505,9 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
             result = _checked_result(inputs)
         except (LoadcheckError, ValidationError) as error:
             return _form_again(request, aircraft, typed, desk.problems(error))
+        names = [leg.names for leg in inputs.trip.legs] if inputs.is_trip else [inputs.loading.names]
         return page(request, "result.html", title=f"Result: {registration}", aircraft=aircraft, result=result, typed=typed,
-                    trip=inputs.is_trip, chart=_svg_body(_chart_svg(inputs, result)))
+                    trip=inputs.is_trip, chart=_svg_body(_chart_svg(inputs, result)), names_by_leg=names)
 
     def _plan_page(request: Request, aircraft: Any, typed: dict[str, str], inputs: Any, action: str) -> Response:
         """A planning answer from the form: most fuel (for a trip: at the first engine start), most payload
