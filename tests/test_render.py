@@ -521,3 +521,28 @@ def test_a_name_at_a_station_without_weight_is_refused(tmp_path):
     leg = runner.invoke(app, ["check", str(_named_trip(tmp_path, 'front = "Alex"', 'front = "Kim"')), "--leg-load", "2:front=0"])
     assert leg.exit_code == 2 and "leg[0].names.front" in leg.stderr
 
+
+# -- help that reads well (issue 15, item 5: `<list[str]>` and `{AIRCRAFT}` in the help) -----------
+
+def _every_command(command, path=()):
+    yield list(path)
+    for name, sub in getattr(command, "commands", {}).items():
+        yield from _every_command(sub, (*path, name))
+
+
+def test_no_command_help_shows_a_python_type_or_braces():
+    # regression: `loadcheck validate --help` printed `FILES <list[Path]>` and `{FILES}...`
+    import typer
+
+    commands = list(_every_command(typer.main.get_command(app)))
+    assert len(commands) > 20
+    for path in commands:
+        text = runner.invoke(app, [*path, "--help"], env={"COLUMNS": "100"}).output
+        odd = re.findall(r"<[A-Za-z_]+(?:\[[^>]*\])?>|\{[A-Za-z_]+\}", text)
+        assert not odd, f"loadcheck {' '.join(path)} --help shows {odd}"
+    validate = runner.invoke(app, ["validate", "--help"], env={"COLUMNS": "100"}).output
+    assert "Usage: loadcheck validate [OPTIONS] FILES..." in validate
+    assert re.search(r"^\s+FILES\s+Aircraft and loading files to check\.", validate, re.M)
+    check = runner.invoke(app, ["check", "--help"], env={"COLUMNS": "100"}).output
+    assert "Usage: loadcheck check [OPTIONS] AIRCRAFT [LOADING]" in check
+    assert "-r, --role ROLE" in runner.invoke(app, ["users", "add", "--help"], env={"COLUMNS": "100"}).output
