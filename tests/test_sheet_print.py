@@ -39,6 +39,18 @@ def _print(html_path, pdf_path):
                     f"--print-to-pdf={pdf_path}", html_path.as_uri()], check=True, capture_output=True, timeout=120)
 
 
+def _printed(html, tmp_path, paper):
+    """The sheet printed on a paper of PAPERS: (pdfinfo's report, the PDF's text with its spaces folded)."""
+    page = tmp_path / f"sheet-{paper}.html"
+    page.write_text(html.replace("@page { size: auto;", f"@page {{ size: {PAPERS[paper][0]};"))
+    pdf = tmp_path / f"sheet-{paper}.pdf"
+    _print(page, pdf)
+    info = subprocess.run(["pdfinfo", str(pdf)], capture_output=True, text=True, check=True).stdout
+    text = " ".join(subprocess.run(["pdftotext", "-layout", str(pdf), "-"], capture_output=True, text=True,
+                                   check=True).stdout.split())
+    return info, text
+
+
 @pytest.mark.parametrize("name", SHEETS)
 def test_sheet_prints_on_one_page_of_letter_and_of_a4(tmp_path, name):
     sheet = tmp_path / "sheet.html"
@@ -83,13 +95,8 @@ def test_sheet_with_the_longest_names_still_prints_on_one_page(tmp_path):
     sheet = tmp_path / "sheet.html"
     assert runner.invoke(app, ["check", str(loading), "--sheet", str(sheet)]).exit_code == 0
     html = sheet.read_text()
-    for paper, (css, _) in PAPERS.items():
-        page = tmp_path / f"sheet-{paper}.html"
-        page.write_text(html.replace("@page { size: auto;", f"@page {{ size: {css};"))
-        pdf = tmp_path / f"sheet-{paper}.pdf"
-        _print(page, pdf)
-        info = subprocess.run(["pdfinfo", str(pdf)], capture_output=True, text=True, check=True).stdout
+    for paper in PAPERS:
+        info, text = _printed(html, tmp_path, paper)
         assert re.search(r"^Pages:\s+1$", info, re.M), f"named sheet on {paper}:\n{info}"
-        text = " ".join(subprocess.run(["pdftotext", str(pdf), "-"], capture_output=True, text=True, check=True).stdout.split())
         for name in names.values():
             assert name.strip().split()[-1] in text and name.split()[0] in text, (paper, name)
