@@ -706,6 +706,22 @@ def test_api_check_takes_legs_as_the_command_line_does(desk: dict[str, Any]) -> 
     assert stop.status_code == 200 and stop.json() == json.loads(cli_stop.stdout)
 
 
+def test_api_names_go_into_the_record_and_a_bad_one_is_refused(desk: dict[str, Any]) -> None:
+    client = _client(desk, "pia")
+    body = {"registration": "TEST-TRIP", "load": {"front": 340, "bags": 100}, "fuel": {"main": "full"},
+            "burn": {"taxi": 1, "trip": 20}, "names": {"front": "Alex"}, "record": True,
+            "leg": [{"load": {"front": 170}, "names": {"front": "Kim"}, "burn": {"trip": 10}}]}
+    made = client.post("/api/check", json=body)
+    assert made.status_code == 200
+    inputs = client.get(f"/api/records/{made.json()['record_id']}").json()["inputs"]
+    assert inputs["names"] == {"front": "Alex"} and inputs["leg"][0]["names"] == {"front": "Kim"}
+    bad = client.post("/api/check", json={**body, "names": {"nose": "Pat"}})
+    assert bad.status_code == 422 and [p["field"] for p in bad.json()["problems"]] == ["names.nose"]
+    number = client.post("/api/check", json={**body, "names": {"front": 7}})
+    assert number.status_code == 422 and number.json()["problems"][0]["field"] == "names.front"
+    assert len(_records(desk)) == 1
+
+
 def test_api_bad_leg_names_the_leg_and_records_nothing(desk: dict[str, Any]) -> None:
     client = _client(desk, "pia")
     body = {"registration": "TEST-TRIP", "load": {"front": 340}, "fuel": {"main": "full"}, "record": True,

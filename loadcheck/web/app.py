@@ -57,6 +57,8 @@ class CheckRequest(BaseModel):
 
     registration: str = Field(description="the aircraft, by registration, in the desk's fleet")
     load: dict[str, str | float] = Field(default_factory=dict, description="mass per station: a number [mass unit] or with a unit")
+    names: dict[str, Any] = Field(default_factory=dict, description="optional: who is at each station, a person's name per "
+                                                                  "station id (the loading file's [names])")
     fuel: dict[str, str | float] = Field(default_factory=dict, description="quantity per tank at engine start: volume, 'full', a level name")
     burn: dict[str, Any] = Field(default_factory=dict, description="taxi, trip or trip_time and rate, order, reserve")
     category: str | None = Field(None, description="envelope category (default: the file's first)")
@@ -711,7 +713,7 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
 
     def _api_inputs(body: CheckRequest) -> Any:
         legs = {number: leg for number, leg in enumerate(body.leg, start=2)}
-        return _inputs(desk, body.registration, {"load": body.load, "fuel": body.fuel, "burn": body.burn,
+        return _inputs(desk, body.registration, {"load": body.load, "names": body.names, "fuel": body.fuel, "burn": body.burn,
                                                  "category": body.category, "legs": legs})
 
     def _api_error(error: Exception) -> JSONResponse:
