@@ -256,6 +256,28 @@ def test_load_sheet_is_the_command_lines_sheet(desk: dict[str, Any]) -> None:
     assert escape(PILOT_CAUTION) in page
 
 
+def test_load_sheet_has_the_fuel_plan_and_names_as_check_sheet_gives_them(desk: dict[str, Any], tmp_path: Path) -> None:
+    # regression: the desk's sheet of a single check left out the fuel plan (taxi, trip, reserve, order) that check --sheet shows
+    from typer.testing import CliRunner
+
+    from loadcheck.cli import app
+
+    values = {k: v for k, v in TRIP_LEG_2_AFT.items() if not k.startswith("leg")} | {"legs": "1", "names.front": "Alex"}
+    sheet = _post_check(_client(desk, "pia"), values, "TEST-TRIP", route="sheet").text
+    loading = tmp_path / "one.toml"
+    loading.write_text('format = 1\n[load]\nfront = "340"\nbags = "100"\n[names]\nfront = "Alex"\n[fuel]\nmain = "full"\n'
+                       '[burn]\ntaxi = "1"\ntrip = "20"\n')
+    cli_file = tmp_path / "one.html"
+    assert CliRunner().invoke(app, ["check", str(desk["fleet"] / "trip_test.toml"), str(loading), "--sheet", str(cli_file)]).exit_code == 0
+
+    def text(html: str) -> list[str]:  # words and figures, without the time of the check, the loading's name and the chart
+        html = re.sub(r"<svg.*</svg>", "", html, flags=re.S)
+        return re.sub(r"Checked:</span> [^<]*|Loading:</span> [^<]*|<[^>]+>|\s+", " ", html).split()
+
+    assert text(sheet) == text(cli_file.read_text())
+    assert "id='fuel-plan'" in sheet and "Alex" in sheet
+
+
 def test_plan_most_fuel_is_the_library_answer(desk: dict[str, Any]) -> None:
     from loadcheck.planning import most_fuel
 
