@@ -73,6 +73,7 @@ RULES: dict[str, str] = {
     "equipment": "items that `alter` may remove or relocate; `alter --write` keeps it current",
     "equipment.id": "unique",
     "load": "keys: station ids; >= 0; an unknown id is an error listing the known ones",
+    "names": "keys: station ids; an unknown id is an error listing the known ones",
     "fuel": "keys: tank ids; at most the usable capacity; a tank not named is empty (a warning says so)",
     "burn.taxi": "taxi and trip together at most the fuel the burn order can use",
     "burn.trip": "or `trip_time` with `rate`",

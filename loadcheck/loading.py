@@ -16,6 +16,7 @@ that burns exactly that mass in the burn order, tank by tank at each tank's dens
 
 from __future__ import annotations
 
+import unicodedata
 from collections.abc import Mapping, Sequence
 from dataclasses import dataclass, field
 from typing import Annotated, Any, Literal
@@ -31,6 +32,7 @@ from .units import Quantity, convert, in_unit, parse_duration_hours, parse_quant
 __all__ = [
     "Burn",
     "BurnPlan",
+    "MAX_NAME_LENGTH",
     "Leg",
     "Loading",
     "ResolvedLoading",
@@ -85,6 +87,26 @@ def _fuel_rate(value: Any) -> Any:
     return value
 
 
+MAX_NAME_LENGTH = 60
+"""The longest name of a person at a station [characters]: it must fit the load sheet's seat line."""
+
+
+def _person_name(value: Any) -> Any:
+    """Syntax check of a person's name at a station: text, not empty, at most MAX_NAME_LENGTH
+    characters, no control characters (a new line, a tab); surrounding spaces are not kept."""
+    if not isinstance(value, str):
+        raise ValueError("a name is text (in quotes)")
+    text = value.strip()
+    if not text:
+        raise ValueError("an empty name: give the person's name or leave the station out of [names]")
+    if len(text) > MAX_NAME_LENGTH:
+        raise ValueError(f"a name of {len(text)} characters; at most {MAX_NAME_LENGTH}")
+    if any(unicodedata.category(ch).startswith("C") for ch in text):
+        raise ValueError("a name must not hold control characters (a new line, a tab)")
+    return text
+
+
+PersonName = Annotated[str, BeforeValidator(_person_name)]
 MassAmount = Annotated[float | str, BeforeValidator(_mass_amount)]
 FuelAmount = Annotated[float | str, BeforeValidator(_fuel_amount)]
 FuelStart = Annotated[float | str, BeforeValidator(_fuel_start)]
@@ -149,6 +171,12 @@ class Leg(_Model):
         description="new weight at each station whose weight changes at the stop; 0 when a person or bag gets off "
                     "[mass unit]; stations not named keep their weight",
     )
+    names: dict[str, PersonName] = Field(
+        default_factory=dict,
+        description="who is at each station from this leg on, where that changes: a person's name per station id "
+                    f"[text, at most {MAX_NAME_LENGTH} characters]; a station whose weight this leg changes loses "
+                    "its name unless named here, the others keep theirs",
+    )
     add_fuel: dict[str, FuelStart] = Field(
         default_factory=dict,
         description="fuel put into each tank at the stop: a quantity added [fuel volume unit] or '120 lb', "
@@ -170,6 +198,11 @@ class Loading(_Model):
     pilot: str | None = Field(None, description="the pilot in command")
     fuel_density: float | None = Field(None, gt=0, description="overrides every tank [mass unit / volume unit]")
     load: dict[str, MassAmount] = Field(default_factory=dict, description="mass per station [mass unit]")
+    names: dict[str, PersonName] = Field(
+        default_factory=dict,
+        description="optional: who is at each station, a person's name per station id (shown beside the seat on the "
+                    f"load sheet) [text, at most {MAX_NAME_LENGTH} characters]; only at a station with a weight in [load]",
+    )
     fuel: dict[str, FuelStart] = Field(
         default_factory=dict,
         description="quantity per tank at engine start: number [fuel volume unit], 'full', a level, '120 lb'",
@@ -187,13 +220,15 @@ def apply_overrides(
     fuel: Mapping[str, str] | None = None,
     burn: Mapping[str, Any] | None = None,
     category: str | None = None,
-    legs: Mapping[int, Mapping[str, Mapping[str, Any]]] | None = None,
+    legs: Mapping[int, Mapping[str, Any]] | None = None,
+    names: Mapping[str, str] | None = None,
 ) -> dict[str, Any]:
     """Return loading-file data with command-line values laid on top (they win).
 
-    ``legs`` maps a leg number (2 for the first ``[[leg]]`` table) to its ``load``,
-    ``add_fuel`` and ``burn`` values (see :func:`leg_assignments`); a leg number one past
-    the file's last leg adds a leg.
+    ``names`` are people's names by station id (the ``[names]`` table). ``legs`` maps a leg
+    number (2 for the first ``[[leg]]`` table) to its ``load``, ``add_fuel`` and ``burn``
+    values and, optionally, its ``label`` and ``names`` (see :func:`leg_assignments`); a leg
+    number one past the file's last leg adds a leg.
 
     Raises
     ------
@@ -201,7 +236,7 @@ def apply_overrides(
         A leg number that skips a leg.
     """
     merged = {key: (dict(value) if isinstance(value, dict) else value) for key, value in data.items()}
-    _lay_over(merged, {"load": load, "fuel": fuel, "burn": burn})
+    _lay_over(merged, {"load": load, "fuel": fuel, "burn": burn, "names": names})
     if category is not None:
         merged["category"] = category
     if legs:
@@ -224,10 +259,14 @@ def apply_overrides(
     return merged
 
 
-def _lay_over(merged: dict[str, Any], tables: Mapping[str, Mapping[str, Any] | None]) -> None:
-    """Lay the values of each table over ``merged``'s table of that name (in place)."""
+def _lay_over(merged: dict[str, Any], tables: Mapping[str, Any]) -> None:
+    """Lay the values of each table over ``merged``'s table of that name (in place); a value
+    that is not a table (a leg's ``label``) replaces the field of that name."""
     for table, values in tables.items():
-        if values:
+        if values is not None and not isinstance(values, Mapping):
+            merged[table] = values  # a value of the wrong type is left for validation to report
+            continue
+        if values is not None:  # an empty table given (a leg's burn = {}) is a table all the same
             existing = merged.setdefault(table, {})
             if isinstance(existing, dict):  # a table of the wrong type is left for validation to report
                 if table == "burn" and "trip" in values:  # a trip given here replaces the file's trip time
@@ -393,6 +432,7 @@ class ResolvedLoading:
     reserve : landing fuel below which to warn [fuel volume unit] or None
     plan : the burn order
     notes : things taken for granted, reported as warnings
+    names : who is at each station, by station id, where the loading names them
     """
 
     category: str
@@ -404,6 +444,7 @@ class ResolvedLoading:
     reserve: float | None
     plan: BurnPlan
     notes: list[str] = field(default_factory=list)
+    names: dict[str, str] = field(default_factory=dict)
 
 
 def resolve_loading(loading: Loading, aircraft: Aircraft, *, category: str | None = None,
@@ -452,6 +493,16 @@ def resolve_loading(loading: Loading, aircraft: Aircraft, *, category: str | Non
             continue
         quantity = parse_quantity(amount)
         stations[name] = quantity.value if quantity.unit is None else convert(quantity.value, quantity.unit, units.mass)
+
+    names: dict[str, str] = {}
+    for name, person in loading.names.items():
+        if name not in aircraft.stations:
+            unknown.append(Problem(f"names.{name}", f"unknown station {name!r}", expected=_known(aircraft.stations)))
+        elif not stations.get(name, 0.0) > 0:  # a name without a weight: a person left out of the sums
+            problems.append(Problem(f"names.{name}", f"{person!r} is named at {name!r}, which carries no weight",
+                                    expected=f"a weight at load.{name}, or no name there"))
+        else:
+            names[name] = person
 
     if loading.fuel_density is not None:
         problem = density_problem(loading.fuel_density, units.mass, units.fuel_volume)
@@ -544,7 +595,7 @@ def resolve_loading(loading: Loading, aircraft: Aircraft, *, category: str | Non
     if burn.trip is None and burn.trip_time is None:
         notes.append("no trip fuel given; landing is checked at the takeoff fuel")
     reserve = None if burn.reserve is None else volume_of(burn.reserve, taxi + trip)
-    resolved = ResolvedLoading(chosen, stations, fuel, density, taxi, trip, reserve, plan, notes)
+    resolved = ResolvedLoading(chosen, stations, fuel, density, taxi, trip, reserve, plan, notes, names)
     require_usable(resolved, aircraft, burn_covered=not fuel_to_plan)
     return resolved
 
@@ -649,7 +700,8 @@ def resolve_trip(loading: Loading, aircraft: Aircraft, *, category: str | None =
 
     The first leg is the loading's own load, fuel and burn (:func:`resolve_loading`). Each
     later leg starts from the previous one: every station keeps its weight unless the leg
-    gives it a new one, and each tank holds what it held at the previous landing (taxi and
+    gives it a new one (and keeps its occupant's name unless the leg changes its weight or
+    names someone else there), and each tank holds what it held at the previous landing (taxi and
     trip burned in the previous leg's burn order, :meth:`BurnPlan.quantities`) plus the fuel
     put in at the stop. The burn order is the previous leg's unless the leg gives one. The
     leg is then resolved exactly as a single loading (names, capacities, fuel for the burn).
@@ -694,8 +746,9 @@ def resolve_trip(loading: Loading, aircraft: Aircraft, *, category: str | None =
             leg.burn.order if "order" in leg.burn.model_fields_set
             else "together" if previous.plan.order is None else list(previous.plan.order)
         )
+        kept = {station: person for station, person in previous.names.items() if station not in leg.load}
         single = Loading(category=first.category, fuel_density=loading.fuel_density,
-                         load={**previous.stations, **leg.load}, fuel=fuel,
+                         load={**previous.stations, **leg.load}, names={**kept, **leg.names}, fuel=fuel,
                          burn=leg.burn.model_copy(update={"order": order}))
         try:
             legs.append(resolve_loading(single, aircraft))

@@ -39,6 +39,18 @@ def _print(html_path, pdf_path):
                     f"--print-to-pdf={pdf_path}", html_path.as_uri()], check=True, capture_output=True, timeout=120)
 
 
+def _printed(html, tmp_path, paper):
+    """The sheet printed on a paper of PAPERS: (pdfinfo's report, the PDF's text with its spaces folded)."""
+    page = tmp_path / f"sheet-{paper}.html"
+    page.write_text(html.replace("@page { size: auto;", f"@page {{ size: {PAPERS[paper][0]};"))
+    pdf = tmp_path / f"sheet-{paper}.pdf"
+    _print(page, pdf)
+    info = subprocess.run(["pdfinfo", str(pdf)], capture_output=True, text=True, check=True).stdout
+    text = " ".join(subprocess.run(["pdftotext", "-layout", str(pdf), "-"], capture_output=True, text=True,
+                                   check=True).stdout.split())
+    return info, text
+
+
 @pytest.mark.parametrize("name", SHEETS)
 def test_sheet_prints_on_one_page_of_letter_and_of_a4(tmp_path, name):
     sheet = tmp_path / "sheet.html"
@@ -65,3 +77,26 @@ def test_sheet_prints_on_one_page_of_letter_and_of_a4(tmp_path, name):
             assert words in text, f"{words!r} missing on the {paper} page of {name}"
         ramp = check.condition("ramp")
         assert fmt(ramp.weight, check.units.mass, with_unit=False) in text
+
+
+def test_sheet_with_the_longest_names_still_prints_on_one_page(tmp_path):
+    """Names at every seat, each as long as a loading allows (loadcheck.loading.MAX_NAME_LENGTH), on the
+    desk's invented trip test aircraft: the sheet stays on one page of letter and of A4 with each name on it."""
+    from loadcheck.loading import MAX_NAME_LENGTH
+
+    from .web_helpers import TRIP_AIRCRAFT
+
+    (tmp_path / "aircraft.toml").write_text(TRIP_AIRCRAFT)
+    names = {"front": ("Alexandra Wilhelmina " * 4)[:MAX_NAME_LENGTH], "rear": ("Bartholomew Okonkwo-Smith " * 3)[:MAX_NAME_LENGTH]}
+    loading = tmp_path / "named.toml"
+    loading.write_text('format = 1\naircraft = "aircraft.toml"\n[load]\nfront = 340\nrear = 150\nbags = 40\n[fuel]\n'
+                       'main = "tabs"\n[burn]\ntaxi = 1\ntrip = 10\n[names]\n'
+                       + "".join(f'{k} = "{v}"\n' for k, v in names.items()))
+    sheet = tmp_path / "sheet.html"
+    assert runner.invoke(app, ["check", str(loading), "--sheet", str(sheet)]).exit_code == 0
+    html = sheet.read_text()
+    for paper in PAPERS:
+        info, text = _printed(html, tmp_path, paper)
+        assert re.search(r"^Pages:\s+1$", info, re.M), f"named sheet on {paper}:\n{info}"
+        for name in names.values():
+            assert name.strip().split()[-1] in text and name.split()[0] in text, (paper, name)

@@ -24,7 +24,7 @@ from loadcheck.files import load_check_inputs
 from loadcheck.records import RecordLog
 from loadcheck.web import create_app
 
-from .web_helpers import PASSWORD, SAMPLES, csrf_of, make_desk, sign_in
+from .web_helpers import PASSWORD, SAMPLES, TRIP_LEG_2_AFT, csrf_of, make_desk, sign_in
 
 WITHIN = {"load.front": "340", "load.rear": "160", "load.bag1": "15 kg", "fuel.mains": "tabs",
           "burn.taxi": "1.2", "burn.trip": "18", "burn.reserve": "8"}
@@ -254,6 +254,28 @@ def test_load_sheet_is_the_command_lines_sheet(desk: dict[str, Any]) -> None:
     from loadcheck.caution import PILOT_CAUTION
 
     assert escape(PILOT_CAUTION) in page
+
+
+def test_load_sheet_has_the_fuel_plan_and_names_as_check_sheet_gives_them(desk: dict[str, Any], tmp_path: Path) -> None:
+    # regression: the desk's sheet of a single check left out the fuel plan (taxi, trip, reserve, order) that check --sheet shows
+    from typer.testing import CliRunner
+
+    from loadcheck.cli import app
+
+    values = {k: v for k, v in TRIP_LEG_2_AFT.items() if not k.startswith("leg")} | {"legs": "1", "names.front": "Alex"}
+    sheet = _post_check(_client(desk, "pia"), values, "TEST-TRIP", route="sheet").text
+    loading = tmp_path / "one.toml"
+    loading.write_text('format = 1\n[load]\nfront = "340"\nbags = "100"\n[names]\nfront = "Alex"\n[fuel]\nmain = "full"\n'
+                       '[burn]\ntaxi = "1"\ntrip = "20"\n')
+    cli_file = tmp_path / "one.html"
+    assert CliRunner().invoke(app, ["check", str(desk["fleet"] / "trip_test.toml"), str(loading), "--sheet", str(cli_file)]).exit_code == 0
+
+    def text(html: str) -> list[str]:  # words and figures, without the time of the check, the loading's name and the chart
+        html = re.sub(r"<svg.*</svg>", "", html, flags=re.S)
+        return re.sub(r"Checked:</span> [^<]*|Loading:</span> [^<]*|<[^>]+>|\s+", " ", html).split()
+
+    assert text(sheet) == text(cli_file.read_text())
+    assert "id='fuel-plan'" in sheet and "Alex" in sheet
 
 
 def test_plan_most_fuel_is_the_library_answer(desk: dict[str, Any]) -> None:
@@ -507,6 +529,260 @@ def test_no_traceback_or_internal_path_reaches_a_page(desk: dict[str, Any], monk
         assert "nothing was recorded" in response.text
     bad = client.get("/aircraft/NOPE-9")
     assert "Traceback" not in bad.text and str(desk["fleet"]) not in bad.text
+
+
+# -- trips of several legs (issue 19 with issue 16) ----------------------------------------------
+
+def _trip_inputs(desk: dict[str, Any], values: dict[str, str]) -> Any:
+    """The library's reading of the check form's trip fields (the same overrides the command line's --leg-* give)."""
+    legs: dict[int, Any] = {}
+    for key, value in values.items():
+        parts = key.split(".")
+        if parts[0] == "leg" and value:
+            table = {"load": "load", "fuel": "add_fuel", "burn": "burn"}.get(parts[2])
+            leg = legs.setdefault(int(parts[1]), {})
+            if table is None:
+                leg[parts[2]] = value
+            else:
+                leg.setdefault(table, {})[parts[3]] = value
+    first = {table: {k.split(".", 1)[1]: v for k, v in values.items() if k.startswith(table + ".") and v}
+             for table in ("load", "fuel", "burn")}
+    return load_check_inputs(desk["fleet"] / "trip_test.toml", None, allow_trip=True, legs=legs, **first)
+
+
+def _trip_result(desk: dict[str, Any], values: dict[str, str]) -> Any:
+    from loadcheck.trip import check_trip
+
+    inputs = _trip_inputs(desk, values)
+    return check_trip(inputs.aircraft, inputs.trip)
+
+
+def test_add_a_leg_keeps_everything_typed_and_checks_nothing(desk: dict[str, Any]) -> None:
+    client = _client(desk, "pia")
+    first = {k: v for k, v in TRIP_LEG_2_AFT.items() if not k.startswith("leg") and k != "legs"}
+    page = _post_check(client, first, "TEST-TRIP", action="add_leg")
+    assert page.status_code == 200 and "Leg 2" in page.text and 'name="legs" value="2"' in page.text
+    for key, value in first.items():
+        assert f'name="{key}" value="{value}"' in page.text, key
+    for key in ("leg.2.label", "leg.2.load.front", "leg.2.load.bags", "leg.2.fuel.main", "leg.2.burn.taxi",
+                "leg.2.burn.trip_time", "leg.2.burn.rate", "leg.2.burn.reserve", "leg.2.burn.order"):
+        assert f'name="{key}"' in page.text, key
+    assert "Within limits" not in page.text and "Not within limits" not in page.text and _records(desk) == []
+    # a third leg, then leg 2 taken out: leg 3's values become leg 2's, the rest stays as typed
+    three = _post_check(client, {**TRIP_LEG_2_AFT, "legs": "3", "leg.3.load.bags": "0", "leg.3.burn.trip": "7"}, "TEST-TRIP",
+                        action="remove_leg:2").text
+    assert 'name="legs" value="2"' in three and 'name="leg.2.load.bags" value="0"' in three
+    assert 'name="leg.2.burn.trip" value="7"' in three and 'name="leg.3.' not in three
+    assert 'name="load.front" value="340"' in three
+
+
+def test_a_trip_whose_leg_2_fails_says_so_first_and_shows_every_leg(desk: dict[str, Any]) -> None:
+    from html import escape
+
+    from loadcheck.display import fmt
+
+    expected = _trip_result(desk, TRIP_LEG_2_AFT)
+    assert expected.legs[0].check.ok and not expected.legs[1].check.ok and not expected.ok  # the scenario
+    response = _post_check(_client(desk, "pia"), TRIP_LEG_2_AFT, "TEST-TRIP")
+    assert response.status_code == 200
+    page = response.text
+    main = page[page.index("<main>"):]
+    verdict = re.search(r'<p class="verdict out" role="status">(.*?)</p>', main, re.S)
+    assert verdict and main.index(verdict.group(0)) < main.index('id="leg-1"')
+    words = re.sub(r"<[^>]+>|\s+", " ", verdict.group(1))
+    assert "Not within limits on leg 2 (back solo)" in words and "leg 1" not in words
+    assert "Within limits" not in main  # never beside a limit finding
+    assert main.index('<section class="leg" id="leg-1">') < main.index('<section class="leg" id="leg-2">') \
+        < main.index("<svg") < page.index("Caution:")
+    leg_2 = main[main.index('<section class="leg" id="leg-2">'):main.index("<svg")]
+    for heading in ("Moment table", "Conditions and margins", "Fuel burn", "Findings"):
+        assert heading in leg_2, heading
+    for finding in expected.findings:  # each names its leg and condition
+        assert finding.leg == 2 and escape(finding.message) in leg_2
+        assert "leg 2" in finding.message and finding.condition is not None and finding.condition.replace("_", " ") in finding.message
+    for leg in expected.legs:
+        section = main[main.index(f'id="leg-{leg.leg}"'):]
+        assert fmt(leg.check.condition("takeoff").weight, "lb", with_unit=False) in section
+    assert 'id="leg-1-burn-path"' in page and 'id="leg-2-burn-path"' in page  # the chart: one path per leg (trip_figure)
+    assert _records(desk) == []
+
+
+def test_a_bad_value_in_a_leg_names_the_leg_and_field_keeps_everything_and_records_nothing(desk: dict[str, Any]) -> None:
+    client = _client(desk, "pia")
+    for key, bad in (("leg.2.burn.taxi", "1 furlong"), ("leg.2.fuel.main", "brimming"), ("leg.2.load.front", "-5")):
+        response = _post_check(client, {**TRIP_LEG_2_AFT, key: bad}, "TEST-TRIP", route="record")
+        assert response.status_code == 422, key
+        page = response.text
+        problem = page[page.index('class="problem"'):page.index("</ul>", page.index('class="problem"'))]
+        field = key.split(".", 2)[2].replace("fuel.", "add_fuel.")
+        assert f"leg 2, {field}" in problem and escape_value(bad) in problem, key
+        assert re.search(rf'class="field bad">\s*<label for="{re.escape(key)}"', page), key
+        assert f'value="{escape_value(bad)}"' in page and 'value="back solo"' in page and 'name="legs" value="2"' in page
+    assert _records(desk) == []
+
+
+def escape_value(text: str) -> str:
+    from html import escape
+
+    return escape(text)
+
+
+def test_markup_in_a_leg_is_shown_as_text(desk: dict[str, Any]) -> None:
+    markup = "<script>alert('leg')</script>"
+    client = _client(desk, "pia")
+    for route in ("check", "sheet"):
+        page = _post_check(client, {**TRIP_LEG_2_AFT, "leg.2.label": markup}, "TEST-TRIP", route=route).text
+        assert "<script>alert" not in page, route
+        assert "&lt;script&gt;alert(" in page, route
+    form = _post_check(client, {**TRIP_LEG_2_AFT, "leg.2.label": markup, "leg.2.burn.taxi": "x"}, "TEST-TRIP").text
+    assert "<script>alert" not in form and "&lt;script&gt;" in form
+
+
+def test_record_a_trip_through_the_recording_job(desk: dict[str, Any]) -> None:
+    client = _client(desk, "pia")
+    response = _post_check(client, TRIP_LEG_2_AFT, "TEST-TRIP", route="record")
+    assert response.status_code == 303
+    records = _records(desk)
+    assert len(records) == 1
+    record = records[0]
+    expected = _trip_result(desk, TRIP_LEG_2_AFT)
+    assert record.result == json.loads(json.dumps(expected.to_dict())) and record.ok is False
+    assert record.pilot == "pia" and record.source == "web desk" and record.registration == "TEST-TRIP"
+    assert [leg["label"] for leg in record.inputs["leg"]] == ["back solo"]
+    assert record.inputs["leg"][0]["load"] == {"front": "170"} and record.inputs["leg"][0]["add_fuel"] == {"main": "5"}
+    detail = client.get(response.headers["location"]).text
+    assert "Conditions of leg 1: within limits" in detail and "Conditions of leg 2 (back solo): not within limits" in detail
+
+
+@pytest.mark.xfail(strict=True, reason="verify() of a trip record needs records that accept trip results (branch trips); "
+                                       "remove this mark when it is merged")
+def test_a_recorded_trip_is_verified_by_the_dispatcher(desk: dict[str, Any]) -> None:
+    assert _post_check(_client(desk, "pia"), TRIP_LEG_2_AFT, "TEST-TRIP", route="record").status_code == 303
+    dan = _client(desk, "dan")
+    record_id = _records(desk)[0].id
+    page = dan.get(f"/records/{record_id}").text
+    verified = dan.post(f"/records/{record_id}/verify", data={"csrf": csrf_of(page)})
+    assert verified.status_code == 200 and "Verified:" in verified.text
+
+
+def test_trip_load_sheet_is_the_command_lines_trip_sheet(desk: dict[str, Any], tmp_path: Path) -> None:
+    from typer.testing import CliRunner
+
+    from loadcheck.cli import app
+
+    sheet = _post_check(_client(desk, "pia"), TRIP_LEG_2_AFT, "TEST-TRIP", route="sheet").text
+    cli_file = tmp_path / "trip.html"
+    args = ["check", str(desk["fleet"] / "trip_test.toml"), "--load", "front=340", "--load", "bags=100", "--fuel", "main=full",
+            "--taxi", "1", "--trip", "20", "--leg-load", "2:front=170", "--leg-fuel", "2:main=5", "--leg-burn", "2:taxi=1",
+            "--leg-burn", "2:trip=10", "--sheet", str(cli_file)]
+    assert CliRunner().invoke(app, args).exit_code == 1
+    def text(html: str) -> str:  # the sheet's words and figures, without the time of the check and the chart
+        html = re.sub(r"<svg.*</svg>", "", html, flags=re.S)
+        return re.sub(r"Checked:</span> [^<]*|, leg 2 \(back solo\)|, leg 2|<[^>]+>|\s+", " ", html)
+    cli_text = text(cli_file.read_text())
+    assert "OUT OF LIMITS on Leg 2" in cli_text and "OUT OF LIMITS on Leg 2" in text(sheet)
+    assert text(sheet).replace("(back solo)", "").split() == cli_text.split()  # the command line's legs carry no label
+    assert sheet.count("<svg") == 1 and 'id="leg-2-burn-path"' in sheet
+
+
+def test_plan_a_trip_from_the_form_is_the_library_answer(desk: dict[str, Any]) -> None:
+    from html import escape
+
+    from loadcheck.trip import fuel_to_add, trip_most_fuel
+
+    within = {**TRIP_LEG_2_AFT, "leg.2.load.front": "340", "leg.2.load.bags": "0"}  # no one gets off; the bags do
+    inputs = _trip_inputs(desk, within)
+    most = trip_most_fuel(inputs.aircraft, inputs.trip)
+    stop = fuel_to_add(inputs.aircraft, inputs.trip, 2)
+    assert most.feasible and stop.feasible
+    client = _client(desk, "pia")
+    page = _post_check(client, within, "TEST-TRIP", action="fuel").text
+    assert escape(most.answer_display) in page and "every leg" in page and 'id="leg-2"' in page
+    page = _post_check(client, {**within, "stop": "2"}, "TEST-TRIP", action="stop").text
+    assert escape(stop.question[1:]) in page and escape(stop.answer_display) in page  # the page capitalises its first letter
+    refused = _post_check(client, within, "TEST-TRIP", action="payload")
+    assert refused.status_code == 422 and "loading of one leg" in refused.text
+    assert _records(desk) == []
+
+
+def test_api_check_takes_legs_as_the_command_line_does(desk: dict[str, Any]) -> None:
+    from typer.testing import CliRunner
+
+    from loadcheck.cli import app
+
+    args = ["check", str(desk["fleet"] / "trip_test.toml"), "--load", "front=340", "--load", "bags=100", "--fuel", "main=full",
+            "--taxi", "1", "--trip", "20", "--leg-load", "2:front=170", "--leg-fuel", "2:main=5", "--leg-burn", "2:taxi=1",
+            "--leg-burn", "2:trip=10", "--json"]
+    cli = CliRunner().invoke(app, args)
+    assert cli.exit_code == 1
+    body = {"registration": "TEST-TRIP", "load": {"front": 340, "bags": 100}, "fuel": {"main": "full"},
+            "burn": {"taxi": 1, "trip": 20}, "leg": [{"load": {"front": 170}, "add_fuel": {"main": 5}, "burn": {"taxi": 1, "trip": 10}}]}
+    client = _client(desk, "pia")
+    answer = client.post("/api/check", json=body)
+    assert answer.status_code == 200 and answer.json() == json.loads(cli.stdout)
+    assert _records(desk) == []
+    recorded = client.post("/api/check", json={**body, "record": True}).json()
+    assert [r.id for r in _records(desk)] == [recorded["record_id"]] and len(recorded["legs"]) == 2
+    stop = client.post("/api/plan/stop", json={**body, "stop": 2})
+    cli_stop = CliRunner().invoke(app, ["plan", "stop", *args[1:-1], "--leg", "2", "--json"])
+    assert stop.status_code == 200 and stop.json() == json.loads(cli_stop.stdout)
+
+
+def test_api_names_go_into_the_record_and_a_bad_one_is_refused(desk: dict[str, Any]) -> None:
+    client = _client(desk, "pia")
+    body = {"registration": "TEST-TRIP", "load": {"front": 340, "bags": 100}, "fuel": {"main": "full"},
+            "burn": {"taxi": 1, "trip": 20}, "names": {"front": "Alex"}, "record": True,
+            "leg": [{"load": {"front": 170}, "names": {"front": "Kim"}, "burn": {"trip": 10}}]}
+    made = client.post("/api/check", json=body)
+    assert made.status_code == 200
+    inputs = client.get(f"/api/records/{made.json()['record_id']}").json()["inputs"]
+    assert inputs["names"] == {"front": "Alex"} and inputs["leg"][0]["names"] == {"front": "Kim"}
+    bad = client.post("/api/check", json={**body, "names": {"nose": "Pat"}})
+    assert bad.status_code == 422 and [p["field"] for p in bad.json()["problems"]] == ["names.nose"]
+    number = client.post("/api/check", json={**body, "names": {"front": 7}})
+    assert number.status_code == 422 and number.json()["problems"][0]["field"] == "names.front"
+    assert len(_records(desk)) == 1
+
+
+def test_api_bad_leg_names_the_leg_and_records_nothing(desk: dict[str, Any]) -> None:
+    client = _client(desk, "pia")
+    body = {"registration": "TEST-TRIP", "load": {"front": 340}, "fuel": {"main": "full"}, "record": True,
+            "leg": [{"load": {"front": -1}, "burn": {}}]}
+    response = client.post("/api/check", json=body)
+    assert response.status_code == 422
+    problems = response.json()["problems"]
+    assert [p["field"] for p in problems] == ["leg[0].load.front"] and problems[0]["message"].startswith("leg 2, load.front:")
+    unknown = client.post("/api/check", json={**body, "leg": [{"fuel": {"main": 5}, "burn": {}}]})
+    assert unknown.status_code == 422 and any(p["field"] == "leg[0].fuel" for p in unknown.json()["problems"])
+    assert client.post("/api/plan/stop", json={**body, "leg": [], "stop": 2}).status_code == 422  # no stop without a leg
+    assert _records(desk) == []
+
+
+def test_names_typed_on_the_form_show_beside_the_seat_and_go_into_the_record(desk: dict[str, Any]) -> None:
+    client = _client(desk, "pia")
+    form = client.get("/aircraft/TEST-TRIP").text
+    assert 'name="names.front"' in form and 'name="names.rear"' in form and 'name="names.bags"' not in form  # seats only
+    values = {**TRIP_LEG_2_AFT, "names.front": "Alex <i>R</i>", "leg.2.names.front": "Kim"}
+    page = _post_check(client, values, "TEST-TRIP").text
+    leg_1 = page[page.index('id="leg-1"'):page.index('id="leg-2"', page.index('id="leg-1"') + 1)]
+    leg_2 = page[page.rindex('<section class="leg" id="leg-2">'):page.index('<figure class="chart">')]
+    assert '<span class="who">· Alex &lt;i&gt;R&lt;/i&gt;</span>' in leg_1 and "<i>R</i>" not in page
+    assert '<span class="who">· Kim</span>' in leg_2 and "Alex" not in leg_2
+    sheet = _post_check(client, values, "TEST-TRIP", route="sheet").text
+    assert "Alex &lt;i&gt;R&lt;/i&gt;" in sheet and "Kim" in sheet and "<i>R</i>" not in sheet
+    assert _post_check(client, values, "TEST-TRIP", route="record").status_code == 303
+    inputs = _records(desk)[0].inputs
+    assert inputs["names"] == {"front": "Alex <i>R</i>"} and inputs["leg"][0]["names"] == {"front": "Kim"}
+
+
+def test_a_bad_name_brings_the_form_back_with_the_field_named(desk: dict[str, Any]) -> None:
+    client = _client(desk, "pia")
+    for key, field in (("names.rear", "names.rear"), ("leg.2.names.rear", "leg 2, names.rear")):
+        response = _post_check(client, {**TRIP_LEG_2_AFT, key: "Sam"}, "TEST-TRIP", route="record")  # no one weighs in the rear
+        assert response.status_code == 422 and f"{field}:" in response.text and "carries no weight" in response.text, key
+        assert re.search(rf'class="field name bad">\s*<label for="{re.escape(key)}"', response.text), key
+        assert f'name="{key}" value="Sam"' in response.text
+    assert _records(desk) == []
 
 
 # -- the JSON API --------------------------------------------------------------------------------

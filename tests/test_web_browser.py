@@ -21,7 +21,7 @@ pytest.importorskip("fastapi")
 pytest.importorskip("argon2")
 sync_api = pytest.importorskip("playwright.sync_api")
 
-from .web_helpers import PASSWORD, SAMPLES, make_desk  # noqa: E402
+from .web_helpers import PASSWORD, SAMPLES, TRIP_LEG_2_AFT, make_desk  # noqa: E402
 
 CHROMIUM = os.environ.get("CHROMIUM") or shutil.which("chromium") or shutil.which("chromium-browser")
 pytestmark = pytest.mark.skipif(CHROMIUM is None, reason="no system Chromium (Debian package 'chromium')")
@@ -173,3 +173,33 @@ def test_mechanic_records_a_weighing_and_the_next_check_uses_it(browser: Any, se
     pilot.click("button[value='check']")
     first_row = pilot.locator("table.figures tbody tr").first.inner_text()
     assert fmt(expected.weight, "lb", with_unit=False) in first_row
+
+
+def test_a_trip_of_two_legs_whose_second_leg_fails(browser: Any, server: dict[str, Any]) -> None:
+    """TEST-TRIP (tests/web_helpers.py, invented): leg 1 within limits, leg 2 aft after a front occupant gets off."""
+    first = {k: v for k, v in TRIP_LEG_2_AFT.items() if not k.startswith("leg")}
+    second = {k: v for k, v in TRIP_LEG_2_AFT.items() if k.startswith("leg.")}
+    pilot = _page(browser, server, "pia", width=360)
+    pilot.goto(server["url"] + "/aircraft/TEST-TRIP")
+    _fill(pilot, first)
+    pilot.click("button[value='add_leg']")  # no script: the form comes back with a leg more
+    assert pilot.input_value("[id='load.front']") == "340" and pilot.input_value("[id='fuel.main']") == "full"
+    _fill(pilot, second)
+    _no_sideways_scroll(pilot)
+    _shot(pilot, "check-trip-form")
+    pilot.press("[id='leg.2.burn.trip']", "Enter")  # Enter checks the trip (it never takes a leg out)
+    pilot.wait_for_selector(".verdict[role='status']")
+    verdict = pilot.locator(".verdict[role='status']").inner_text()
+    assert verdict.startswith("Not within limits on leg 2 (back solo)"), verdict
+    assert pilot.locator("section.leg").count() == 2
+    assert pilot.locator("#leg-1 .verdict").inner_text().startswith("Leg 1: within limits")
+    assert pilot.locator("#leg-2 .verdict").inner_text().startswith("Leg 2: not within limits")
+    assert pilot.locator("#leg-2 li.limit").count() >= 1 and "leg 2" in pilot.locator("#leg-2 li.limit").first.inner_text()
+    assert pilot.locator("figure.chart svg").count() == 1 and pilot.locator("figure.chart [id='leg-2-burn-path']").count() == 1
+    _no_sideways_scroll(pilot)
+    _shot(pilot, "check-trip")
+    pilot.click("button:has-text('Record this trip')")
+    pilot.wait_for_url("**/records/*")
+    assert "Not within limits" in pilot.locator(".verdict").first.inner_text()
+    assert pilot.get_by_text("Conditions of leg 2 (back solo): not within limits").is_visible()
+    _no_sideways_scroll(pilot)

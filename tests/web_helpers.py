@@ -12,17 +12,82 @@ SAMPLES = ROOT / "sample_aircraft"
 PASSWORD = "a long test pass phrase"
 ACCOUNTS = {"pia": ["pilot"], "pat": ["pilot"], "dan": ["dispatcher"], "mo": ["mechanic"]}
 
-__all__ = ["ACCOUNTS", "PASSWORD", "SAMPLES", "csrf_of", "make_desk", "sign_in"]
+__all__ = ["ACCOUNTS", "PASSWORD", "SAMPLES", "TRIP_AIRCRAFT", "TRIP_LEG_2_AFT", "csrf_of", "make_desk", "sign_in"]
+
+
+# A test aircraft of our own (invented; not a sample, not a real type) for the trip tests: a
+# rectangular envelope from 35 to 43 in, front seats well ahead of the empty CG, baggage far
+# aft. With two up front, 100 lb of bags and full fuel the first leg is inside; when one
+# front occupant gets off at the stop the CG moves aft past 43 in (the figures are the
+# library's: the tests compare the desk's pages with check_trip, never with numbers of their own).
+TRIP_AIRCRAFT = """\
+format = 1
+name = "Trip test aircraft (invented for the desk's tests)"
+registration = "TEST-TRIP"
+
+[units]
+mass = "lb"
+arm = "in"
+fuel_volume = "usgal"
+
+[empty]
+weight = 1000.0
+arm = 40.0
+date = 2026-11-01
+
+[limits]
+max_takeoff_weight = 1800
+
+[[station]]
+id = "front"
+label = "Front seats"
+kind = "seat"
+arm = 30.0
+max_weight = 400
+
+[[station]]
+id = "rear"
+label = "Rear seats"
+kind = "seat"
+arm = 70.0
+max_weight = 400
+
+[[station]]
+id = "bags"
+label = "Baggage"
+kind = "baggage"
+arm = 100.0
+max_weight = 100
+
+[[tank]]
+id = "main"
+label = "Main tank"
+arm = 45.0
+usable = 40.0
+fuel = "avgas"
+levels = { tabs = 25.0 }
+
+[[envelope]]
+category = "normal"
+axes = ["arm", "weight"]
+points = [[35, 900], [35, 1800], [43, 1800], [43, 900]]
+"""
+
+# The check form's fields of a two-leg trip of TRIP_AIRCRAFT whose second leg alone is aft of the envelope.
+TRIP_LEG_2_AFT = {"load.front": "340", "load.bags": "100", "fuel.main": "full", "burn.taxi": "1", "burn.trip": "20",
+                  "legs": "2", "leg.2.label": "back solo", "leg.2.load.front": "170", "leg.2.fuel.main": "5",
+                  "leg.2.burn.taxi": "1", "leg.2.burn.trip": "10"}
 
 
 def make_desk(tmp: Path) -> tuple[Path, Path, Path]:
-    """A fleet folder (copy of the samples), a record log path and an accounts file with ACCOUNTS."""
+    """A fleet folder (copy of the samples and TRIP_AIRCRAFT), a record log path and an accounts file with ACCOUNTS."""
     from argon2 import PasswordHasher
 
     from loadcheck.web.users import UserStore
 
     fleet = tmp / "fleet"
     shutil.copytree(SAMPLES, fleet)
+    (fleet / "trip_test.toml").write_text(TRIP_AIRCRAFT, encoding="utf-8")
     users = tmp / "users.json"
     store = UserStore(users, hasher=PasswordHasher(time_cost=1, memory_cost=1024, parallelism=1))  # quick to check in tests
     for name, roles in ACCOUNTS.items():

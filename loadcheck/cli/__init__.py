@@ -7,6 +7,7 @@ arithmetic and no validation of their own. The library never imports this packag
 from __future__ import annotations
 
 import os
+import re
 import sys
 
 # The command line's numpy does small products only (the engine keeps large batches on
@@ -20,6 +21,41 @@ for _name in ("OPENBLAS_NUM_THREADS", "OMP_NUM_THREADS", "MKL_NUM_THREADS"):
 os.environ.setdefault("PYDANTIC_DISABLE_PLUGINS", "1")
 
 import typer  # noqa: E402
+
+
+def _plain_argument_help() -> None:
+    """Help that reads well: an argument shows as its metavar alone (``FILES...``, never
+    ``{FILES}`` or ``FILES <list[Path]>``; its help text says what it is). Newer typer
+    releases brace a required argument in the usage line and add its Python type beside
+    it; the help of every command here names each argument in words instead."""
+    import typer.core
+
+    argument = typer.core.TyperArgument
+    if hasattr(argument, "_usage_display_name"):
+        def usage(self: typer.core.TyperArgument) -> str:
+            name = self.metavar or self.name.upper()
+            name = name if self.required else f"[{name}]"
+            return name + ("..." if self.nargs != 1 else "")
+
+        argument._usage_display_name = usage  # type: ignore[method-assign]
+    if hasattr(argument, "display_type_rich"):
+        argument.display_type_rich = lambda self, ctx: None  # type: ignore[method-assign]
+    option = typer.core.TyperOption
+    shown = option.display_type_rich if hasattr(option, "display_type_rich") else None
+    if shown is not None:
+        words = {"str": "TEXT", "int": "INTEGER", "float": "NUMBER", "path": "PATH"}
+
+        def option_type(self: typer.core.TyperOption, ctx: object) -> str | None:
+            text = shown(self, ctx)  # type: ignore[arg-type]
+            if self.metavar is not None or text is None:
+                return text
+            match = re.fullmatch(r"<(?:list\[)?([^\]>]+)\]?>(\.\.\.)?", text)  # '<path>', '<list[str]>' as 'PATH', 'TEXT'
+            return text if match is None else words.get(match.group(1), match.group(1).upper())
+
+        option.display_type_rich = option_type  # type: ignore[method-assign]
+
+
+_plain_argument_help()
 
 from . import desk, dispatcher, mechanic, pilot  # noqa: E402  (each registers its commands)
 from .common import app  # noqa: E402

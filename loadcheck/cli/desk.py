@@ -62,7 +62,7 @@ users_app = typer.Typer(short_help="The desk's accounts.",
                         help="The desk's accounts: each with one or more roles (pilot, dispatcher, mechanic).", no_args_is_help=True)
 app.add_typer(users_app, name="users")
 
-RoleOpt = Annotated[list[str], typer.Option("--role", "-r", help="pilot, dispatcher or mechanic; repeat for several.")]
+RoleOpt = Annotated[list[str], typer.Option("--role", "-r", metavar="ROLE", help="pilot, dispatcher or mechanic; repeat for several.")]
 StdinOpt = Annotated[bool, typer.Option("--password-stdin", help="Read the password from standard input (one line).")]
 
 
@@ -76,7 +76,7 @@ def _password(from_stdin: bool) -> str:
 
 @users_app.command("add")
 @input_errors
-def users_add(name: Annotated[str, typer.Argument(help="Account name.")], role: RoleOpt = [],  # noqa: B006
+def users_add(name: Annotated[str, typer.Argument(metavar="NAME", help="Account name.")], role: RoleOpt = [],  # noqa: B006
               password_stdin: StdinOpt = False, users: UsersOpt = None) -> None:
     """Add an account (the password is stored only as an argon2 hash).
 
@@ -99,7 +99,7 @@ def users_list(users: UsersOpt = None) -> None:
 
 @users_app.command("remove")
 @input_errors
-def users_remove(name: Annotated[str, typer.Argument(help="Account name.")], users: UsersOpt = None) -> None:
+def users_remove(name: Annotated[str, typer.Argument(metavar="NAME", help="Account name.")], users: UsersOpt = None) -> None:
     """Remove an account (its recorded checks stay in the record)."""
     _store(users).remove(name)
     _console(stderr=True).print(f"account {name} removed", markup=False)
@@ -107,7 +107,7 @@ def users_remove(name: Annotated[str, typer.Argument(help="Account name.")], use
 
 @users_app.command("passwd")
 @input_errors
-def users_passwd(name: Annotated[str, typer.Argument(help="Account name.")], password_stdin: StdinOpt = False,
+def users_passwd(name: Annotated[str, typer.Argument(metavar="NAME", help="Account name.")], password_stdin: StdinOpt = False,
                  users: UsersOpt = None) -> None:
     """Give an account a new password."""
     _store(users).set_password(name, _password(password_stdin))

@@ -146,7 +146,8 @@ def _check_trip(inputs: Any, json_out: bool, chart: Path | None, sheet: Path | N
         if sheet is not None:
             from ..render.sheet import trip_sheet_html
 
-            write_atomic(sheet, trip_sheet_html(result, figure_svg(figure), loading_label=inputs.label))
+            write_atomic(sheet, trip_sheet_html(result, figure_svg(figure), loading_label=inputs.label,
+                                                trip_loading=inputs.trip))
             _console(stderr=True).print(f"load sheet written: {sheet}", markup=False)
     if json_out:
         typer.echo(result.to_json())

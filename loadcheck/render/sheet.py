@@ -20,7 +20,7 @@ from ..results import CheckResult
 
 if TYPE_CHECKING:
     from ..aircraft import Aircraft
-    from ..loading import ResolvedLoading
+    from ..loading import ResolvedLoading, ResolvedTrip
 
 __all__ = ["load_sheet_html", "mechanic_sheet_html", "trip_sheet_html"]
 
@@ -64,6 +64,7 @@ tr.total td { font-weight: bold; border-top: 2px solid #111; }
 .cols { display: grid; grid-template-columns: auto auto; gap: 0 1.5em; justify-content: start; align-items: start; }
 .verdict { font-weight: bold; font-size: 11pt; padding: .2em .6em; border: 2px solid #111; display: inline-block; margin: .35em 0 0 0; }
 .limit { font-weight: bold; }
+.who { font-style: italic; }
 ul.findings { margin: .1em 0; padding-left: 1.3em; }
 .note { font-size: 8pt; color: #333; margin: .15em 0; }
 .chart { break-inside: avoid; page-break-inside: avoid; }
@@ -122,7 +123,8 @@ def load_sheet_html(
         page sizes it)
     loading_label : the loading's label, if any
     when : time of the check (default: now, local time)
-    loading : the loading as checked, for the fuel plan (taxi, trip, reserve, burn order)
+    loading : the loading as checked, for the fuel plan (taxi, trip, reserve, burn order) and
+        the names of the people at the stations, where it gives them (beside each seat)
     pilot : the pilot in command named in the loading, if any
     aircraft : the aircraft checked; where its envelope is read as moment / 1000, the moment
         table and the conditions show that column too
@@ -169,9 +171,11 @@ def load_sheet_html(
             return []
         return [escape(fmt(scaled_moment(scaled, weight, value), units.moment, with_unit=False, places=1))]
 
+    people = loading.names if loading is not None else {}
     for item in result.items:
         name = item.name + (f" ({fmt(item.fuel_volume, units.fuel_volume)})" if item.fuel_volume is not None else "")
-        parts.append(_cells([escape(name), _n(item.weight, units.mass), _n(item.arm, units.arm), _n(item.moment, units.moment)]
+        cell = escape(name) + (f" <span class='who'>· {escape(people[item.id])}</span>" if item.id in people else "")
+        parts.append(_cells([cell, _n(item.weight, units.mass), _n(item.arm, units.arm), _n(item.moment, units.moment)]
                             + scaled_cell(item.weight, item.moment)))
     ramp = result.condition("ramp")
     parts.append(_cells(["Total at ramp", _n(ramp.weight, units.mass), _n(ramp.arm, units.arm), _n(ramp.moment, units.moment)]
@@ -181,8 +185,10 @@ def load_sheet_html(
     seats = [i for i in result.items if i.kind == "seat"]
     parts.append("<h2>Occupants</h2>")
     if seats:
-        parts.append("<table id='occupants'>" + _head(["Seat", f"Weight ({units.mass})"]))
-        parts += [_cells([escape(i.name), _n(i.weight, units.mass)]) for i in seats]
+        named = any(i.id in people for i in seats)
+        parts.append("<table id='occupants'>" + _head(["Seat", *(["Name"] if named else []), f"Weight ({units.mass})"]))
+        parts += [_cells([escape(i.name), *([escape(people.get(i.id, ""))] if named else []), _n(i.weight, units.mass)],
+                         numeric_from=2 if named else 1) for i in seats]
         parts.append("</table>")
     else:
         parts.append("<p>No one in a seat station.</p>")
@@ -471,7 +477,7 @@ def mechanic_sheet_html(result: Any, units: Any, *, extremes: Any = None, source
 
 
 def trip_sheet_html(trip: Any, chart_svg: str | None = None, *, loading_label: str | None = None,
-                    when: dt.datetime | None = None) -> str:
+                    when: dt.datetime | None = None, trip_loading: ResolvedTrip | None = None) -> str:
     """The load sheet of a trip: the trip's verdict naming each leg out of limits, then each
     leg's own load sheet section (:func:`load_sheet_html` of the leg's check), the chart
     with one path per leg, the caution and the signature block once.
@@ -479,6 +485,8 @@ def trip_sheet_html(trip: Any, chart_svg: str | None = None, *, loading_label: s
     Parameters
     ----------
     trip : a :class:`~loadcheck.results.TripResult`
+    trip_loading : the trip as checked, for each leg's fuel plan and the names of the people
+        at its stations (as ``loading`` of :func:`load_sheet_html`)
     """
     when = when or dt.datetime.now().astimezone()
     page = load_sheet_html(trip.legs[0].check, None, loading_label=loading_label, when=when)
@@ -494,8 +502,10 @@ def trip_sheet_html(trip: Any, chart_svg: str | None = None, *, loading_label: s
     parts += [f"<tr><td>{escape(name)}</td><td>{'within limits' if leg.check.ok else 'OUT OF LIMITS'}</td></tr>"
               for name, leg in zip(names, trip.legs, strict=True)]
     parts.append("</table>")
-    for name, leg in zip(names, trip.legs, strict=True):
-        section = load_sheet_html(leg.check, None, loading_label=f"{loading_label or 'trip'}, {name.lower()}", when=when)
+    resolved = list(trip_loading.legs) if trip_loading is not None else [None] * len(trip.legs)
+    for name, leg, loading in zip(names, trip.legs, resolved, strict=True):
+        section = load_sheet_html(leg.check, None, loading_label=f"{loading_label or 'trip'}, {name.lower()}", when=when,
+                                  loading=loading)
         body = section[section.index("<body>") + 6:section.index("<p class='caution'>")]
         body = body[:body.index("<h1>")] + f"<h2 id='leg-{leg.leg}'>{escape(name)}</h2>" + body[body.index("</h1>") + 5:]
         parts.append(f"<section class='leg'>{body}</section>")

@@ -18,7 +18,7 @@ import tempfile
 import threading
 import time
 from collections import OrderedDict
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 from pathlib import Path
 from typing import Any
 
@@ -34,12 +34,12 @@ from starlette.middleware.sessions import SessionMiddleware
 from .. import __version__
 from ..caution import MECHANIC_CAUTION, PILOT_CAUTION
 from ..display import fmt
-from ..errors import LoadcheckError
+from ..errors import InputError, LoadcheckError, Problem
 from ..words import burn_path_summary, condition_words, stretch_text
 from .security import MAX_BODY_BYTES, BodyLimit, SignInThrottle, csrf_ok, csrf_token
 from .users import Account, UserStore
 
-__all__ = ["CheckRequest", "PayloadRequest", "create_app"]
+__all__ = ["MAX_LEGS", "CheckRequest", "PayloadRequest", "StopRequest", "create_app", "form_key", "leg_count"]
 
 _HERE = Path(__file__).parent
 _MAX_PENDING = 50
@@ -57,9 +57,14 @@ class CheckRequest(BaseModel):
 
     registration: str = Field(description="the aircraft, by registration, in the desk's fleet")
     load: dict[str, str | float] = Field(default_factory=dict, description="mass per station: a number [mass unit] or with a unit")
+    names: dict[str, Any] = Field(default_factory=dict, description="optional: who is at each station, a person's name per "
+                                                                  "station id (the loading file's [names])")
     fuel: dict[str, str | float] = Field(default_factory=dict, description="quantity per tank at engine start: volume, 'full', a level name")
     burn: dict[str, Any] = Field(default_factory=dict, description="taxi, trip or trip_time and rate, order, reserve")
     category: str | None = Field(None, description="envelope category (default: the file's first)")
+    leg: list[dict[str, Any]] = Field(
+        default_factory=list, description="the legs after the first, as the loading file's [[leg]] tables: label, load "
+                                          "(new weight per station), add_fuel (fuel put in at the stop), burn")
     record: bool = Field(False, description="record the check in the desk's log (POST /api/check only)")
 
 
@@ -67,6 +72,12 @@ class PayloadRequest(CheckRequest):
     """A loading and the station whose most payload is asked for."""
 
     station: str = Field(description="station id")
+
+
+class StopRequest(CheckRequest):
+    """A trip and the leg before whose stop the fuel to put in is asked for."""
+
+    stop: int = Field(description="the leg the stop comes before (2 or more)")
 
 
 @dataclass
@@ -138,9 +149,19 @@ class Desk:
         else:
             assert isinstance(error, LoadcheckError)
             found = error.problems
-            prefix = f"{error.file}: " if error.file else ""
-        return [{"field": p.field, "message": self.public(prefix + p.describe()), "value": None if p.value is None else str(p.value),
-                 "expected": p.expected} for p in found]
+            prefix = f"{error.file}: " if error.file and str(error.file) != "command line" else ""  # a form is not the command line
+        return [{"field": p.field, "message": self.public(prefix + _leg_words(p).describe()),
+                 "value": None if p.value is None else str(p.value), "expected": p.expected} for p in found]
+
+
+def _leg_words(problem: Problem) -> Problem:
+    """A problem of a trip's leg named in words: field ``leg[0].burn.taxi`` reads ``leg 2, burn.taxi``."""
+    match = re.fullmatch(r"leg\[(\d+)\]\.?(.*)", problem.field or "")
+    if match is None:
+        return problem
+    number = int(match.group(1)) + 2
+    message = problem.message.removeprefix(f"leg {number}: ")
+    return replace(problem, field=f"leg {number}" + (f", {match.group(2)}" if match.group(2) else ""), message=message)
 
 
 def _account(request: Request) -> Account:
@@ -170,41 +191,122 @@ def _split_order(value: str) -> str | list[str]:
     return "together" if value.strip() == "together" else [t.strip() for t in value.split(",") if t.strip()]
 
 
-def _overrides(form: Any, aircraft: Any) -> tuple[dict[str, str], dict[str, Any]]:
-    """The form's values as typed (to show again) and as the library's overrides (empty fields left out)."""
+_BURN_KEYS = ("taxi", "trip", "trip_time", "rate", "reserve", "order")
+MAX_LEGS = 12
+"""The most legs the check form takes (a trip of more legs is written as a loading file)."""
+
+
+def leg_count(form: Any) -> int:
+    """The number of legs the form holds (its ``legs`` field; 1 without it).
+
+    Raises
+    ------
+    HTTPException
+        422 for a count that is not a whole number from 1 to :data:`MAX_LEGS` (a form the desk did not make).
+    """
+    raw = str(form.get("legs", "") or "1").strip()
+    if not raw.isdigit() or not 1 <= int(raw) <= MAX_LEGS:
+        raise HTTPException(422, f"legs: {raw[:20]!r} is not a number of legs; expected 1 to {MAX_LEGS}")
+    return int(raw)
+
+
+def _overrides(form: Any, aircraft: Any, legs: int | None = None) -> tuple[dict[str, str], dict[str, Any]]:
+    """The form's values as typed (to show again) and as the library's overrides (empty fields left out).
+
+    ``names.STATION`` is the person at a station (the loading file's ``[names]``). Leg ``n`` (2 or
+    more) has the fields ``leg.n.label``, ``leg.n.load.STATION`` (the new weight from that leg
+    on), ``leg.n.names.STATION``, ``leg.n.fuel.TANK`` (fuel put in at the stop before it) and
+    ``leg.n.burn.KEY``, given to the library as the loading file's ``[[leg]]`` tables.
+    """
     typed: dict[str, str] = {}
-    load: dict[str, str] = {}
-    fuel: dict[str, str] = {}
-    burn: dict[str, Any] = {}
-    for station in aircraft.station:
-        typed[f"load.{station.id}"] = value = str(form.get(f"load.{station.id}", "")).strip()
-        if value:
-            load[station.id] = value
-    for tank in aircraft.tank:
-        typed[f"fuel.{tank.id}"] = value = str(form.get(f"fuel.{tank.id}", "")).strip()
-        if value:
-            fuel[tank.id] = value
-    for key in ("taxi", "trip", "trip_time", "rate", "reserve", "order"):
-        typed[f"burn.{key}"] = value = str(form.get(f"burn.{key}", "")).strip()
-        if value:
-            burn[key] = _split_order(value) if key == "order" else value
+
+    def read(key: str) -> str:
+        typed[key] = value = str(form.get(key, "")).strip()
+        return value
+
+    def tables(prefix: str) -> tuple[dict[str, str], dict[str, str], dict[str, str], dict[str, Any]]:
+        load = {s.id: v for s in aircraft.station if (v := read(f"{prefix}load.{s.id}"))}
+        names = {s.id: v for s in aircraft.station if (v := read(f"{prefix}names.{s.id}"))}  # a person at a station
+        fuel = {t.id: v for t in aircraft.tank if (v := read(f"{prefix}fuel.{t.id}"))}
+        burn = {k: _split_order(v) if k == "order" else v for k in _BURN_KEYS if (v := read(f"{prefix}burn.{k}"))}
+        return load, names, fuel, burn
+
+    load, names, fuel, burn = tables("")
+    count = leg_count(form) if legs is None else legs
+    typed["legs"] = str(count)
+    further: dict[int, dict[str, Any]] = {}
+    for number in range(2, count + 1):
+        label = read(f"leg.{number}.label")
+        leg_load, leg_names, added, leg_burn = tables(f"leg.{number}.")
+        further[number] = {"label": label or None, "load": leg_load, "names": leg_names, "add_fuel": added, "burn": leg_burn}
     typed["category"] = category = str(form.get("category", "")).strip()
     typed["station"] = str(form.get("station", "")).strip()
-    return typed, {"load": load, "fuel": fuel, "burn": burn, "category": category or None}
+    typed["stop"] = str(form.get("stop", "")).strip()
+    return typed, {"load": load, "names": names, "fuel": fuel, "burn": burn, "category": category or None, "legs": further}
+
+
+def _without_leg(typed: dict[str, str], number: int) -> dict[str, str]:
+    """The typed values with leg ``number`` taken out and the later legs numbered down by one."""
+    out: dict[str, str] = {}
+    for key, value in typed.items():
+        match = re.fullmatch(r"leg\.(\d+)\.(.+)", key)
+        if match is None:
+            out[key] = value
+        elif int(match.group(1)) != number:
+            leg = int(match.group(1))
+            out[f"leg.{leg - 1 if leg > number else leg}.{match.group(2)}"] = value
+    out["legs"] = str(max(1, int(typed.get("legs", "1")) - 1))
+    return out
+
+
+def form_key(field: str) -> str:
+    """The check form's field for a library field path: ``leg[0].add_fuel.main`` is ``leg.2.fuel.main``."""
+    match = re.fullmatch(r"leg\[(\d+)\]\.?(.*)", field)
+    if match is None:
+        return field
+    rest = match.group(2)
+    rest = "fuel" + rest[len("add_fuel"):] if rest.startswith("add_fuel") else rest
+    return f"leg.{int(match.group(1)) + 2}" + (f".{rest}" if rest else "")
 
 
 def _inputs(desk: Desk, registration: str, overrides: dict[str, Any]) -> Any:
+    """The aircraft and the loading (one leg or a trip of several) resolved, as the command line reads them."""
     from ..files import load_check_inputs
 
     _, path = desk.aircraft_path(registration)
-    return load_check_inputs(path, None, **overrides)
+    return load_check_inputs(path, None, allow_trip=True, **overrides)
 
 
-def _chart_svg(inputs: Any, result: Any) -> str:
-    from ..render.chart import check_figure, figure_svg
+def _checked_result(inputs: Any) -> Any:
+    """The check of a loading: :func:`~loadcheck.trip.check_trip` for a trip, else :func:`~loadcheck.check.check_loading`."""
+    if inputs.is_trip:
+        from ..trip import check_trip
+
+        return check_trip(inputs.aircraft, inputs.trip)
+    from ..check import check_loading
+
+    return check_loading(inputs.aircraft, inputs.loading)
+
+
+def _chart_svg(inputs: Any, result: Any, *, compact: bool = False) -> str:
+    """The envelope chart as SVG: a trip's with one path per leg (as ``check --chart`` draws them)."""
+    from ..render.chart import check_figure, figure_svg, trip_figure
 
     with _CHART_LOCK:
-        return figure_svg(check_figure(inputs.aircraft, result, inputs.label))
+        if inputs.is_trip:
+            return figure_svg(trip_figure(inputs.aircraft, result, inputs.label))
+        return figure_svg(check_figure(inputs.aircraft, result, inputs.label, compact=compact))
+
+
+def _sheet(inputs: Any, result: Any) -> str:
+    """The printable load sheet, made as ``check --sheet`` makes it (a trip's for a trip)."""
+    from ..render.sheet import load_sheet_html, trip_sheet_html
+
+    if inputs.is_trip:
+        return trip_sheet_html(result, _chart_svg(inputs, result), loading_label=inputs.label, trip_loading=inputs.trip)
+    return load_sheet_html(result, _chart_svg(inputs, result, compact=True), loading_label=inputs.label,
+                           loading=inputs.loading, pilot=inputs.given.pilot if inputs.given is not None else None,
+                           aircraft=inputs.aircraft)
 
 
 def _svg_body(svg: str) -> str:
@@ -338,16 +440,23 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
         lines = fleet_listing(desk.fleet(), max_age)
         return page(request, "fleet.html", title="Fleet", lines=lines, max_age=max_age, public=desk.public)
 
-    # -- the pilot: check a loading, plan, record, the load sheet --------------------------------
+    # -- the pilot: check a loading (one leg or a trip), plan, record, the load sheet ------------
+
+    def _form_page(request: Request, aircraft: Any, typed: dict[str, str], problems: list[dict[str, Any]],
+                   status: int = 200) -> Response:
+        bad = {p["field"] for p in problems} | {form_key(p["field"]) for p in problems}
+        legs = int(typed.get("legs", "1"))
+        return page(request, "check.html", status, title=f"Check a loading: {aircraft.registration}", aircraft=aircraft,
+                    typed=typed, problems=problems, bad=bad, legs=legs, max_legs=MAX_LEGS)
 
     @app.get("/aircraft/{registration}", response_class=HTMLResponse)
     def check_form(request: Request, registration: str) -> Response:
         _need(request, "pilot")
         aircraft, _ = desk.aircraft_path(registration)
-        return page(request, "check.html", title=f"Check a loading: {registration}", aircraft=aircraft, typed={}, problems=[])
+        return _form_page(request, aircraft, {}, [])
 
     async def _checked(request: Request, registration: str) -> tuple[Any, Any, dict[str, str], Any, Any]:
-        """The form read and checked: (account, aircraft, typed values, inputs or None, problems or result)."""
+        """The form read and checked: (account, aircraft, typed values, inputs or None, problems or form)."""
         account = _need(request, "pilot")
         form = await _form(request)
         aircraft, _ = desk.aircraft_path(registration)
@@ -359,8 +468,7 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
         return account, aircraft, typed, inputs, form
 
     def _form_again(request: Request, aircraft: Any, typed: dict[str, str], problems: list[dict[str, Any]]) -> Response:
-        return page(request, "check.html", 422, title=f"Check a loading: {aircraft.registration}", aircraft=aircraft,
-                    typed=typed, problems=problems, bad={p["field"] for p in problems})
+        return _form_page(request, aircraft, typed, problems, 422)
 
     @app.post("/aircraft/{registration}/edit", response_class=HTMLResponse)
     async def edit(request: Request, registration: str) -> Response:
@@ -368,52 +476,82 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
         form = await _form(request)
         aircraft, _ = desk.aircraft_path(registration)
         typed, _ = _overrides(form, aircraft)
-        return page(request, "check.html", title=f"Check a loading: {registration}", aircraft=aircraft, typed=typed, problems=[])
+        return _form_page(request, aircraft, typed, [])
+
+    def _legs_changed(request: Request, aircraft: Any, form: Any, action: str) -> Response:
+        """The form again with a leg added or one taken out, everything typed kept (nothing is checked)."""
+        count = leg_count(form)
+        if action == "add_leg":
+            typed, _ = _overrides(form, aircraft, min(MAX_LEGS, count + 1))
+            return _form_page(request, aircraft, typed, [])
+        typed, _ = _overrides(form, aircraft, count)
+        number = action.removeprefix("remove_leg:")
+        if not number.isdigit() or not 2 <= int(number) <= count:
+            raise HTTPException(422, f"action: there is no leg {number[:20]!r} to take out")
+        return _form_page(request, aircraft, _without_leg(typed, int(number)), [])
 
     @app.post("/aircraft/{registration}/check", response_class=HTMLResponse)
     async def check(request: Request, registration: str) -> Response:
-        from ..check import check_loading
-
+        action = str((await request.form()).get("action", "check"))
+        if action == "add_leg" or action.startswith("remove_leg:"):
+            _need(request, "pilot")
+            form = await _form(request)
+            aircraft, _ = desk.aircraft_path(registration)
+            return _legs_changed(request, aircraft, form, action)
         _, aircraft, typed, inputs, form = await _checked(request, registration)
         if inputs is None:
             return _form_again(request, aircraft, typed, form)
-        action = str(form.get("action", "check"))
         try:
-            if action in ("fuel", "payload"):
-                from ..planning import most_fuel, most_payload
-
-                plan = most_fuel(inputs.aircraft, inputs.loading) if action == "fuel" else \
-                    most_payload(inputs.aircraft, inputs.loading, typed["station"])
-                return page(request, "plan.html", title=f"Planning: {registration}", aircraft=aircraft, plan=plan, typed=typed)
-            result = check_loading(inputs.aircraft, inputs.loading)
+            if action in ("fuel", "payload", "stop"):
+                return _plan_page(request, aircraft, typed, inputs, action)
+            result = _checked_result(inputs)
         except (LoadcheckError, ValidationError) as error:
             return _form_again(request, aircraft, typed, desk.problems(error))
+        names = [leg.names for leg in inputs.trip.legs] if inputs.is_trip else [inputs.loading.names]
         return page(request, "result.html", title=f"Result: {registration}", aircraft=aircraft, result=result, typed=typed,
-                    chart=_svg_body(_chart_svg(inputs, result)))
+                    trip=inputs.is_trip, chart=_svg_body(_chart_svg(inputs, result)), names_by_leg=names)
+
+    def _plan_page(request: Request, aircraft: Any, typed: dict[str, str], inputs: Any, action: str) -> Response:
+        """A planning answer from the form: most fuel (for a trip: at the first engine start), most payload
+        (a single loading), or the fuel to put in at a stop of a trip."""
+        from ..planning import most_fuel, most_payload
+        from ..trip import fuel_to_add, trip_most_fuel
+
+        plan: Any
+        if action == "fuel":
+            plan = trip_most_fuel(inputs.aircraft, inputs.trip) if inputs.is_trip else most_fuel(inputs.aircraft, inputs.loading)
+        elif action == "stop":
+            if not inputs.is_trip:
+                raise InputError(Problem("stop", "the fuel to put in at a stop is asked of a trip: add a leg first"))
+            leg = typed["stop"]
+            if not leg.isdigit():
+                raise InputError(Problem("stop", "choose the leg the stop comes before", value=leg or None))
+            plan = fuel_to_add(inputs.aircraft, inputs.trip, int(leg))
+        else:
+            if inputs.is_trip:
+                raise InputError(Problem("station", "the most payload at a station is worked out for a loading of one "
+                                         "leg; for a trip, check each leg's payload by changing it"))
+            plan = most_payload(inputs.aircraft, inputs.loading, typed["station"])
+        return page(request, "plan.html", title=f"Planning: {aircraft.registration}", aircraft=aircraft, plan=plan, typed=typed)
 
     @app.post("/aircraft/{registration}/record")
     async def record(request: Request, registration: str) -> Response:
-        from ..check import check_loading
         from ..records import RecordLog, record_check
 
         account, aircraft, typed, inputs, form = await _checked(request, registration)
         if inputs is None:
             return _form_again(request, aircraft, typed, form)
-        result = check_loading(inputs.aircraft, inputs.loading)
+        result = _checked_result(inputs)
         with RecordLog(desk.db) as log:
             record_id = record_check(log, inputs, result, source="web desk", version=__version__, pilot=account.name)
         return RedirectResponse(f"/records/{record_id}", status_code=303)
 
     @app.post("/aircraft/{registration}/sheet", response_class=HTMLResponse)
     async def sheet(request: Request, registration: str) -> Response:
-        from ..check import check_loading
-        from ..render.sheet import load_sheet_html
-
         _, aircraft, typed, inputs, form = await _checked(request, registration)
         if inputs is None:
             return _form_again(request, aircraft, typed, form)
-        result = check_loading(inputs.aircraft, inputs.loading)
-        return HTMLResponse(load_sheet_html(result, _chart_svg(inputs, result), loading_label=inputs.label))
+        return HTMLResponse(_sheet(inputs, _checked_result(inputs)))
 
     # -- the record of checks --------------------------------------------------------------------
 
@@ -574,7 +712,9 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
     # -- the JSON API: the command line's JSON shapes --------------------------------------------
 
     def _api_inputs(body: CheckRequest) -> Any:
-        return _inputs(desk, body.registration, {"load": body.load, "fuel": body.fuel, "burn": body.burn, "category": body.category})
+        legs = {number: leg for number, leg in enumerate(body.leg, start=2)}
+        return _inputs(desk, body.registration, {"load": body.load, "names": body.names, "fuel": body.fuel, "burn": body.burn,
+                                                 "category": body.category, "legs": legs})
 
     def _api_error(error: Exception) -> JSONResponse:
         return JSONResponse({"problems": desk.problems(error)}, status_code=422)
@@ -594,8 +734,8 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
 
     @app.post("/api/check")
     def api_check(request: Request, body: CheckRequest) -> Any:
-        """Check a loading (the JSON of ``check --json``); with ``record``, record it and give its ``record_id``."""
-        from ..check import check_loading
+        """Check a loading or a trip of several legs (the JSON of ``check --json``); with ``record``, record it
+        and give its ``record_id``."""
         from ..records import RecordLog, record_check
 
         account = _need(request, "pilot")
@@ -603,7 +743,7 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
             inputs = _api_inputs(body)
         except (LoadcheckError, ValidationError) as error:
             return _api_error(error)
-        result = check_loading(inputs.aircraft, inputs.loading)
+        result = _checked_result(inputs)
         answer = result.to_dict()
         if body.record:
             with RecordLog(desk.db) as log:
@@ -612,13 +752,31 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
 
     @app.post("/api/plan/fuel")
     def api_plan_fuel(request: Request, body: CheckRequest) -> Any:
-        """The most fuel at engine start for this load (the JSON of ``plan fuel --json``)."""
+        """The most fuel at engine start for this load, at the first engine start of a trip (the JSON of
+        ``plan fuel --json``)."""
         from ..planning import most_fuel
+        from ..trip import trip_most_fuel
 
         _need(request, "pilot")
         try:
             inputs = _api_inputs(body)
+            if inputs.is_trip:
+                return trip_most_fuel(inputs.aircraft, inputs.trip).to_dict()
             return most_fuel(inputs.aircraft, inputs.loading).to_dict()
+        except (LoadcheckError, ValidationError) as error:
+            return _api_error(error)
+
+    @app.post("/api/plan/stop")
+    def api_plan_stop(request: Request, body: StopRequest) -> Any:
+        """The fuel to put in at the stop before leg ``stop`` of a trip (the JSON of ``plan stop --json``)."""
+        from ..trip import fuel_to_add
+
+        _need(request, "pilot")
+        try:
+            inputs = _api_inputs(body)
+            if not inputs.is_trip:
+                raise InputError(Problem("leg", "the fuel to put in at a stop is asked of a trip of two legs or more"))
+            return fuel_to_add(inputs.aircraft, inputs.trip, body.stop).to_dict()
         except (LoadcheckError, ValidationError) as error:
             return _api_error(error)
 
@@ -630,6 +788,8 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
         _need(request, "pilot")
         try:
             inputs = _api_inputs(body)
+            if inputs.is_trip:
+                raise InputError(Problem("leg", "the most payload at a station is worked out for a loading of one leg"))
             return most_payload(inputs.aircraft, inputs.loading, body.station).to_dict()
         except (LoadcheckError, ValidationError) as error:
             return _api_error(error)
