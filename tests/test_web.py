@@ -398,16 +398,16 @@ def test_mechanic_weighing_needs_confirmation_then_writes_with_history(desk: dic
     assert "Current and new empty-weight record" in page and "Extreme loadings" in page
     from loadcheck.display import fmt
 
-    assert fmt(expected.weight, "lb") in page and "1,652" in page
+    assert fmt(expected.weight, "lb") in page and "1,718" in page
     token = re.search(r'name="token" value="([^"]+)"', page).group(1)  # type: ignore[union-attr]
     unconfirmed = mo.post("/mechanic/DEMO-4T/confirm", data={"token": token, "csrf": csrf_of(page)})
     assert unconfirmed.status_code == 409 and "confirmed" in unconfirmed.text
-    assert load_aircraft(aircraft_file).empty.weight == 1652.0
+    assert load_aircraft(aircraft_file).empty.weight == 1718.0
     written = mo.post("/mechanic/DEMO-4T/confirm", data={"token": token, "confirm": "yes", "csrf": csrf_of(page)})
     assert written.status_code == 200 and "Written:" in written.text
     now = load_aircraft(aircraft_file)
     assert now.empty.weight == pytest.approx(expected.weight) and now.empty.arm == pytest.approx(expected.arm)
-    assert now.history[-1].by == "mo" and now.history[-1].previous.weight == 1652.0
+    assert now.history[-1].by == "mo" and now.history[-1].previous.weight == 1718.0
     assert now.history[-1].inputs["file"].endswith("/readings.toml")  # the upload's own name
     assert "# Four-seat nosewheel trainer" in aircraft_file.read_text()  # the comment-keeping write
     # the next check uses the new empty weight
