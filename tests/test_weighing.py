@@ -66,7 +66,7 @@ def test_a_mistyped_reading_that_leaves_no_useful_load_is_never_written(tmp_path
 def test_an_implausible_change_needs_an_override_that_the_history_keeps(tmp_path):
     path = _trainer(tmp_path)
     before = path.read_bytes()
-    heavy = _readings(tmp_path, "reading = 598.0", "reading = 818.0")  # +220 lb, about 13 % of 1,686 lb
+    heavy = _readings(tmp_path, "reading = 598.0", "reading = 818.0")  # +220 lb: about 11 % above the record's 1,718 lb
     refused = _weigh(path, heavy, "--write", "--yes")
     assert refused.exit_code == 2 and "more than 10%" in refused.output and "--force" in refused.output
     assert path.read_bytes() == before
