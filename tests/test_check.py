@@ -49,7 +49,8 @@ def test_utility_category_aft_limit():
     result = run("trainer4/utility_aft.toml")
     assert result.category == "utility"
     aft = [f for f in result.findings if f.code == "envelope" and f.condition == "takeoff"]
-    assert aft and aft[0].side == "aft" and aft[0].excess == pytest.approx(result.condition("takeoff").arm - _utility_aft(result.condition("takeoff").weight))
+    takeoff = result.condition("takeoff")
+    assert aft and aft[0].side == "aft" and aft[0].excess == pytest.approx(takeoff.arm - _utility_aft(takeoff.weight))
     # the same loading in the normal category is within limits
     inputs = load_check_inputs(sample("trainer4/utility_aft.toml"), category="normal")
     assert check_loading(inputs.aircraft, inputs.loading).ok
