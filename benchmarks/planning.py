@@ -17,7 +17,7 @@ ROOT = Path(__file__).resolve().parent.parent / "sample_aircraft"
 QUESTIONS = [
     ("trainer4/within.toml", "most fuel", lambda a, ld: P.most_fuel(a, ld)),
     ("trainer4/within.toml", "longest trip", lambda a, ld: P.longest_trip(a, ld, rate=9.5, reserve=8)),
-    ("trainer4/within.toml", "most payload bag1", lambda a, ld: P.most_payload(a, ld, "bag1")),
+    ("trainer4/within.toml", "most payload hold", lambda a, ld: P.most_payload(a, ld, "hold")),
     ("trainer4/within.toml", "fuel to leave, rear 220 lb", lambda a, ld: P.fuel_to_leave(a, ld, "rear", 220.0)),
     ("twin6/two_stretches.toml", "most fuel (two stretches)", lambda a, ld: P.most_fuel(a, ld)),
     ("twin6/within.toml", "most payload nose", lambda a, ld: P.most_payload(a, ld, "nose")),

@@ -51,8 +51,8 @@ def _client(url: str, name: str, checks: int, client: int, latencies: list[float
             errors.append(f"{name}: sign-in answered {signed.status_code}")
             return
         for number in range(checks):
-            body = {"registration": "DEMO-4T", "load": {"front": _front(client, number), "rear": 160, "bag1": "15 kg"},
-                    "fuel": {"mains": "tabs"}, "burn": {"taxi": 1.2, "trip": 18}, "record": True}
+            body = {"registration": "DEMO-4T", "load": {"front": _front(client, number), "rear": 160, "hold": "15 kg"},
+                    "fuel": {"mains": "school", "centre": 0}, "burn": {"taxi": 1.2, "trip": 18}, "record": True}
             start = time.perf_counter()
             answer = http.post("/api/check", json=body)
             latencies.append(time.perf_counter() - start)

@@ -25,7 +25,7 @@ def test_samples_load(trainer, tandem, twin):
 def test_defaults_of_limits(trainer, tandem):
     assert tandem.limits.ramp == tandem.limits.max_takeoff_weight == 680
     assert tandem.limits.landing == 680
-    assert trainer.limits.ramp == 2408
+    assert trainer.limits.ramp == 2462
 
 
 def test_quantities_with_units_are_converted():
@@ -110,9 +110,9 @@ def test_duplicate_ids():
 
 def test_group_names_unknown_station():
     data = sample_data("trainer4/aircraft.toml")
-    data["station_group"][0]["stations"] = ["bag1", "bag3"]
+    data["station_group"][0]["stations"] = ["hold", "bag3"]
     text = _problems(data)
-    assert "station_group[0].stations" in text and "bag3" in text and "bag2" in text
+    assert "station_group[0].stations" in text and "bag3" in text and "rear" in text
 
 
 def test_tank_needs_grade_or_density():
@@ -123,7 +123,7 @@ def test_tank_needs_grade_or_density():
 
 def test_level_above_capacity():
     data = sample_data("trainer4/aircraft.toml")
-    data["tank"][0]["levels"] = {"tabs": 60}
+    data["tank"][0]["levels"] = {"school": 60}
     assert "above the usable capacity" in _problems(data)
 
 

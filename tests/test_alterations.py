@@ -33,30 +33,30 @@ def _trainer_with_range(tmp_path: Path, cg_range: str) -> Path:
 
 
 def test_alter_warns_when_the_new_cg_leaves_the_empty_weight_cg_range(tmp_path):
-    # the sample changes move the empty-weight CG from 39.40 in forward to about 39.2 in
-    path = _trainer_with_range(tmp_path, "[39.3, 40.0]")
+    # the sample changes move the empty-weight CG from 37.20 in forward to about 37.0 in
+    path = _trainer_with_range(tmp_path, "[37.1, 38.0]")
     result = alter(load_aircraft(path), Changes.model_validate(sample_data("trainer4/changes.toml")))
-    assert result.new.arm < 39.3
-    assert any("outside the empty-weight CG range 39.3 to 40" in w for w in result.warnings)
+    assert result.new.arm < 37.1
+    assert any("outside the empty-weight CG range 37.1 to 38" in w for w in result.warnings)
     shown = runner.invoke(app, ["alter", str(path), str(tmp_path / "changes.toml"), "--sheet", str(tmp_path / "r.html")])
     assert shown.exit_code == 0 and "WARNING" in shown.output and "empty-weight CG range" in shown.output
     html = (tmp_path / "r.html").read_text()
-    assert "OUTSIDE IT" in html and "39.30 in to 40.00 in" in html
+    assert "OUTSIDE IT" in html and "37.10 in to 38.00 in" in html
     as_json = runner.invoke(app, ["alter", str(path), str(tmp_path / "changes.toml"), "--json"])
     assert any("empty-weight CG range" in w for w in json.loads(as_json.stdout)["warnings"])
 
 
 def test_inside_the_range_no_warning(tmp_path):
-    path = _trainer_with_range(tmp_path, "[38.0, 40.0]")
+    path = _trainer_with_range(tmp_path, "[36.0, 38.0]")
     result = alter(load_aircraft(path), Changes.model_validate(sample_data("trainer4/changes.toml")))
-    assert result.warnings == [] and result.cg_range == (38.0, 40.0)
+    assert result.warnings == [] and result.cg_range == (36.0, 38.0)
 
 
 def test_a_current_record_outside_its_range_is_flagged_by_history(tmp_path):
-    path = _trainer_with_range(tmp_path, "[40.0, 42.0]")  # the current record's CG, 39.40 in, is forward of it
+    path = _trainer_with_range(tmp_path, "[38.0, 40.0]")  # the current record's CG, 37.20 in, is forward of it
     assert current_record_warnings(load_aircraft(path))
     listing = runner.invoke(app, ["history", str(path)])
-    assert "Empty-weight CG range: 40 to 42 in" in listing.output and "WARNING" in listing.output
+    assert "Empty-weight CG range: 38 to 40 in" in listing.output and "WARNING" in listing.output
     assert "WARNING" not in runner.invoke(app, ["history", str(sample("trainer4/aircraft.toml"))]).output
 
 

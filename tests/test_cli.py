@@ -28,7 +28,7 @@ def test_check_within_limits_prints_tables_and_caution():
     result = invoke("check", TRAINER, str(sample("trainer4/within.toml")))
     assert result.exit_code == 0, result.output
     assert "WITHIN LIMITS" in result.output
-    assert "2,369.9" in result.output  # takeoff weight
+    assert "2,423.9" in result.output  # takeoff weight
     assert "CAUTION" in result.output and "pilot in command" in result.output
 
 
@@ -57,11 +57,11 @@ def test_json_fields_follow_design():
 
 
 def test_options_alone_and_on_top_of_a_file():
-    result = invoke("check", TRAINER, "--load", "front=340", "--load", "rear=150", "--fuel", "mains=tabs",
+    result = invoke("check", TRAINER, "--load", "front=340", "--load", "rear=150", "--fuel", "mains=school",
                     "--taxi", "1.2", "--trip", "18", "--json")
     assert result.exit_code == 0, result.output
     data = json.loads(result.stdout)
-    assert data["conditions"][0]["fuel"] == 32.0
+    assert data["conditions"][0]["fuel"] == 30.0
     over = invoke("check", TRAINER, str(sample("trainer4/within.toml")), "--load", "rear=400", "--json")
     assert over.exit_code == 1
     assert any(f["code"] == "max_takeoff_weight" for f in json.loads(over.stdout)["findings"])
@@ -109,7 +109,7 @@ def test_toml_syntax_error_gives_the_line(tmp_path):
 
 
 def test_unknown_station_lists_the_known_ones():
-    _assert_input_error(invoke("check", TRAINER, "--load", "frnt=100"), "frnt", "front, rear, bag1, bag2")
+    _assert_input_error(invoke("check", TRAINER, "--load", "frnt=100"), "frnt", "front, rear, hold")
 
 
 @pytest.mark.parametrize("value", ["-20", "nan", "inf"])
@@ -131,22 +131,22 @@ def test_unknown_unit(tmp_path):
 
 def test_self_intersecting_envelope(tmp_path):
     text = Path(TRAINER).read_text().replace(
-        "points = [[36.0, 1500], [36.0, 1950], [39.6, 2400], [46.6, 2400], [46.6, 1500]]",
-        "points = [[36.0, 1500], [46.6, 2400], [46.6, 1500], [36.0, 2400]]",
+        "points = [[35.0, 1500], [38.6, 2450], [45.2, 2450], [46.8, 2000], [46.8, 1500]]",
+        "points = [[35.0, 1500], [46.8, 2450], [46.8, 1500], [35.0, 2450]]",
     )
     _assert_input_error(invoke("check", _bad(tmp_path, text)), "envelope[0]", "Self-intersection")
 
 
 def test_degenerate_envelope(tmp_path):
     text = Path(TRAINER).read_text().replace(
-        "points = [[36.0, 1500], [36.0, 1950], [39.6, 2400], [46.6, 2400], [46.6, 1500]]",
-        "points = [[36.0, 1500], [40.0, 2000], [44.0, 2500]]",
+        "points = [[35.0, 1500], [38.6, 2450], [45.2, 2450], [46.8, 2000], [46.8, 1500]]",
+        "points = [[35.0, 1500], [40.0, 2000], [45.0, 2500]]",
     )
     _assert_input_error(invoke("check", _bad(tmp_path, text)), "envelope[0]", "not usable")
 
 
 def test_fuel_above_capacity():
-    _assert_input_error(invoke("check", TRAINER, "--fuel", "mains=55"), "fuel.mains", "usable capacity", "48")
+    _assert_input_error(invoke("check", TRAINER, "--fuel", "mains=55"), "fuel.mains", "usable capacity", "44")
 
 
 def test_unknown_category():
@@ -154,7 +154,7 @@ def test_unknown_category():
 
 
 def test_unknown_fill_level():
-    _assert_input_error(invoke("check", TRAINER, "--fuel", "mains=brim"), "fuel.mains", "brim", "full, tabs")
+    _assert_input_error(invoke("check", TRAINER, "--fuel", "mains=brim"), "fuel.mains", "brim", "full, school")
 
 
 def test_binary_and_non_utf8_files(tmp_path):
@@ -171,7 +171,7 @@ def test_bad_assignment_syntax():
 
 
 def test_validate_reports_everything(tmp_path):
-    text = Path(TRAINER).read_text().replace("weight = 1652.0", "weight = -1").replace("usable = 48.0", "usable = 0")
+    text = Path(TRAINER).read_text().replace("weight = 1718.0", "weight = -1").replace("usable = 44.0", "usable = 0")
     bad = _bad(tmp_path, text)
     result = invoke("validate", TRAINER, str(sample("twin6/within.toml")), bad)
     assert result.exit_code == 2

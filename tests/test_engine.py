@@ -110,8 +110,8 @@ def test_path_grazing_a_notch_corner_agrees():
 
 def test_bad_rows_are_marked_not_raised():
     aircraft = AIRCRAFT["trainer4"]
-    stations = np.array([[340.0, 150.0, 0.0, 0.0], [np.nan, 0, 0, 0], [-5.0, 0, 0, 0], [300.0, 0, 0, 0]])
-    fuel = np.array([[30.0], [30.0], [30.0], [80.0]])
+    stations = np.array([[340.0, 150.0, 0.0], [np.nan, 0, 0], [-5.0, 0, 0], [300.0, 0, 0]])
+    fuel = np.array([[30.0, 0.0], [30.0, 0.0], [30.0, 0.0], [80.0, 0.0]])
     result = evaluate(aircraft, stations, fuel, np.zeros(4), np.full(4, 10.0))
     assert result.valid.tolist() == [True, False, False, False]
     assert result.first_finding.tolist()[1:] == ["input"] * 3

@@ -45,7 +45,7 @@ def test_fleet_list():
     data = json.loads(result.stdout)
     regs = {a["registration"]: a for a in data["aircraft"]}
     assert {"DEMO-4T", "DEMO-2T", "DEMO-6P", "DEMO-H2"} <= set(regs)
-    assert regs["DEMO-4T"]["useful_load"] == pytest.approx(748.0)
+    assert regs["DEMO-4T"]["useful_load"] == pytest.approx(732.0)
     old = runner.invoke(app, ["fleet", "list", str(SAMPLES), "--max-age", "30", "--json"])
     assert any("days old" in p for a in json.loads(old.stdout)["aircraft"] for p in a["problems"])
 
@@ -103,11 +103,11 @@ def test_batch_agrees_row_by_row_with_single_checks(records):
 
 def test_summary_table_and_exit_codes(records, tmp_path):
     good = tmp_path / "good.csv"
-    good.write_text("registration,reference,front,rear,mains,taxi,trip\nDEMO-4T,R1,340,150,tabs,1.2,18\nDEMO-4T,R2,200,0,30,1,10\n")
+    good.write_text("registration,reference,front,rear,mains,centre,taxi,trip\nDEMO-4T,R1,340,150,school,0,1.2,18\nDEMO-4T,R2,200,0,30,0,1,10\n")
     ok = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(good)])
     assert ok.exit_code == 0 and "2 flights: 2 within limits" in ok.output
     over = tmp_path / "over.csv"
-    over.write_text("registration,reference,front,rear,bag1,mains\nDEMO-4T,R3,380,340,100,full\n")
+    over.write_text("registration,reference,front,rear,hold,mains,centre\nDEMO-4T,R3,380,340,100,full,full\n")
     result = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(over)], env={"COLUMNS": "250"})  # the finding on one line
     assert result.exit_code == 1 and "OUT" in result.output and "maximum ramp weight" in result.output
 
@@ -167,7 +167,7 @@ def test_record_survives_an_edit_and_verify_reproduces_it(tmp_path, records):
     loading = tmp_path / "trainer4" / "within.toml"
     first = runner.invoke(app, ["check", str(aircraft), str(loading), "--record", str(records), "--json"])
     assert first.exit_code == 0, first.output
-    aircraft.write_text(aircraft.read_text().replace("weight = 1652.0", "weight = 1750.0"))
+    aircraft.write_text(aircraft.read_text().replace("weight = 1718.0", "weight = 1750.0"))
     with RecordLog(records) as log:
         (record,) = list(log.find())
     assert record.result["conditions"][0]["weight"] == pytest.approx(json.loads(first.stdout)["conditions"][0]["weight"])
@@ -430,9 +430,9 @@ def test_a_long_fleet_table_is_plain_text_and_cuts_nothing(records, tmp_path):
 
     day = tmp_path / "day.csv"
     long_reference = "R" + "x" * 200
-    lines = ["registration,reference,front,mains,taxi,trip"]
-    lines += [f"DEMO-4T,F{i},170,30,1,10" for i in range(PLAIN_ROWS)]
-    lines += [f"DEMO-XX,{long_reference},170,30,1,10"]
+    lines = ["registration,reference,front,mains,centre,taxi,trip"]
+    lines += [f"DEMO-4T,F{i},170,30,0,1,10" for i in range(PLAIN_ROWS)]
+    lines += [f"DEMO-XX,{long_reference},170,30,0,1,10"]
     day.write_text("\n".join(lines) + "\n")
     result = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(day), "--no-record"])
     assert result.exit_code == 2

@@ -22,9 +22,8 @@ loadings = st.fixed_dictionaries(
     {
         "front": st.floats(0, 460),
         "rear": st.floats(0, 400),
-        "bag1": st.floats(0, 130),
-        "bag2": st.floats(0, 60),
-        "fuel": st.floats(0, 48),
+        "hold": st.floats(0, 150),
+        "fuel": st.floats(0, 44),
         "taxi": st.floats(0, 2),
         "trip_share": st.floats(0, 1),
     }
@@ -36,7 +35,7 @@ def _loading(values, mass=1.0, volume=1.0, category="normal") -> Loading:
     trip = (values["fuel"] - taxi) * values["trip_share"]
     return Loading(
         category=category,
-        load={k: values[k] * mass for k in ("front", "rear", "bag1", "bag2")},
+        load={k: values[k] * mass for k in ("front", "rear", "hold")},
         fuel={"mains": values["fuel"] * volume},
         burn={"taxi": taxi * volume, "trip": trip * volume},
     )

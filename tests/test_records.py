@@ -140,7 +140,7 @@ def test_current_mode_finds_a_check_the_new_data_puts_out_of_limits(db, tmp_path
     within = _record(db, "trainer4/within.toml")
     aircraft = fleet / "trainer4" / "aircraft.toml"
     # a heavier empty weight (a new weighing): the recorded loading now exceeds the maximum takeoff weight
-    aircraft.write_text(aircraft.read_text().replace("weight = 1652.0", "weight = 2200.0"))
+    aircraft.write_text(aircraft.read_text().replace("weight = 1718.0", "weight = 2200.0"))
     with RecordLog(db) as log:
         outcome = verify_current(log.find(), load_fleet(fleet))
     (check,) = outcome.checks

@@ -453,7 +453,7 @@ def test_weight_margin_set_by_a_sloping_edge_is_not_read_as_overweight():
 
 def test_validate_counts_in_words():
     # regression (issue 15, item 5): "1 tanks"
-    out = runner.invoke(app, ["validate", str(sample("trainer4/aircraft.toml"))], env={"COLUMNS": "200"}).output
+    out = runner.invoke(app, ["validate", str(sample("tandem2/aircraft.toml"))], env={"COLUMNS": "200"}).output
     assert "1 tank," in out and "1 tanks" not in out and "4 stations" in out
 
 

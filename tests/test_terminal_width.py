@@ -42,7 +42,7 @@ COMMANDS = [
     ["validate", "s/trainer4/aircraft.toml", "s/trainer4/within.toml"],
     ["plan", "fuel", "s/twin6/two_stretches.toml"],
     ["plan", "trip", "s/trainer4/within.toml", "--rate", "9.5", "--reserve", "8"],
-    ["plan", "payload", "s/trainer4/within.toml", "--station", "bag1"],
+    ["plan", "payload", "s/trainer4/within.toml", "--station", "hold"],
     ["plan", "leave", "s/twin6/within.toml", "--station", "row3", "--payload", "340"],
     ["plan", "ballast", "s/tandem2/aft_heavy.toml"],
     ["plan", "shift", "s/tandem2/aft_heavy.toml", "--from", "baggage", "--to", "front"],
@@ -185,7 +185,7 @@ def test_no_color_means_no_escape_codes(folder, monkeypatch, args):
 def test_fleet_check_row_with_warnings_is_not_shown_as_plain_within(folder, monkeypatch, tmp_path):
     # regression (issue 13 item 12): a flight within limits but landing below its reserve read "within"
     day = tmp_path / "day.csv"
-    day.write_text("registration,reference,front,rear,mains,taxi,trip,reserve\nDEMO-4T,W1,340,150,tabs,1.2,18,20\n")
+    day.write_text("registration,reference,front,rear,mains,centre,taxi,trip,reserve\nDEMO-4T,W1,340,150,school,0,1.2,18,20\n")
     out = _run(folder, monkeypatch, ["fleet", "check", "s", str(day), "--no-record"], 120).output
     lines = out.splitlines()
     start = next(i for i, line in enumerate(lines) if "DEMO-4T" in line)

@@ -26,7 +26,7 @@ from loadcheck.web import create_app
 
 from .web_helpers import PASSWORD, SAMPLES, TRIP_LEG_2_AFT, csrf_of, make_desk, sign_in
 
-WITHIN = {"load.front": "340", "load.rear": "160", "load.bag1": "15 kg", "fuel.mains": "tabs",
+WITHIN = {"load.front": "340", "load.rear": "160", "load.hold": "15 kg", "fuel.mains": "school", "fuel.centre": "0",
           "burn.taxi": "1.2", "burn.trip": "18", "burn.reserve": "8"}
 
 
@@ -177,7 +177,7 @@ def test_fleet_api_is_the_fleet_listing(desk: dict[str, Any]) -> None:
 
 def test_check_form_lists_stations_tanks_and_burn(desk: dict[str, Any]) -> None:
     page = _client(desk, "pia").get("/aircraft/DEMO-4T").text
-    for words in ("Pilot and front passenger", "max 410.0 lb", "Baggage area 2", "Wing tanks", "usable 48.0", '"tabs"', '"full"',
+    for words in ("Pilot and front passenger", "max 420.0 lb", "Baggage hold", "Main tanks (wings)", "usable 44.0", '"school"', '"full"',
                   "burn.taxi", "burn.trip_time", "burn.rate", "burn.reserve", "utility"):
         assert words in page, words
 
@@ -238,7 +238,7 @@ def test_record_a_check_once_with_the_pilot_and_the_same_result(desk: dict[str, 
     record = records[0]
     assert record.pilot == "pia" and record.source == "web desk" and record.registration == "DEMO-4T" and record.ok
     inputs = load_check_inputs(SAMPLES / "trainer4" / "aircraft.toml", None,
-                               load={"front": "340", "rear": "160", "bag1": "15 kg"}, fuel={"mains": "tabs"},
+                               load={"front": "340", "rear": "160", "hold": "15 kg"}, fuel={"mains": "school", "centre": "0"},
                                burn={"taxi": "1.2", "trip": "18", "reserve": "8"})
     assert record.result == json.loads(json.dumps(check_loading(inputs.aircraft, inputs.loading).to_dict()))
     assert record.fingerprint == inputs.aircraft.fingerprint
@@ -282,8 +282,8 @@ def test_plan_most_fuel_is_the_library_answer(desk: dict[str, Any]) -> None:
     from loadcheck.planning import most_fuel
 
     page = _post_check(_client(desk, "pia"), WITHIN, action="fuel").text
-    inputs = load_check_inputs(SAMPLES / "trainer4" / "aircraft.toml", None, load={"front": "340", "rear": "160", "bag1": "15 kg"},
-                               fuel={"mains": "tabs"}, burn={"taxi": "1.2", "trip": "18", "reserve": "8"})
+    inputs = load_check_inputs(SAMPLES / "trainer4" / "aircraft.toml", None, load={"front": "340", "rear": "160", "hold": "15 kg"},
+                               fuel={"mains": "school", "centre": "0"}, burn={"taxi": "1.2", "trip": "18", "reserve": "8"})
     answer = most_fuel(inputs.aircraft, inputs.loading)
     assert answer.answer_display in page and "The loading at this answer" in page
 
@@ -291,10 +291,10 @@ def test_plan_most_fuel_is_the_library_answer(desk: dict[str, Any]) -> None:
 def test_plan_most_payload_at_a_station(desk: dict[str, Any]) -> None:
     from loadcheck.planning import most_payload
 
-    page = _post_check(_client(desk, "pia"), {**WITHIN, "station": "bag2"}, action="payload").text
-    inputs = load_check_inputs(SAMPLES / "trainer4" / "aircraft.toml", None, load={"front": "340", "rear": "160", "bag1": "15 kg"},
-                               fuel={"mains": "tabs"}, burn={"taxi": "1.2", "trip": "18", "reserve": "8"})
-    assert most_payload(inputs.aircraft, inputs.loading, "bag2").answer_display in page
+    page = _post_check(_client(desk, "pia"), {**WITHIN, "station": "hold"}, action="payload").text
+    inputs = load_check_inputs(SAMPLES / "trainer4" / "aircraft.toml", None, load={"front": "340", "rear": "160", "hold": "15 kg"},
+                               fuel={"mains": "school", "centre": "0"}, burn={"taxi": "1.2", "trip": "18", "reserve": "8"})
+    assert most_payload(inputs.aircraft, inputs.loading, "hold").answer_display in page
 
 
 def test_plan_payload_at_an_unknown_station_is_refused(desk: dict[str, Any]) -> None:
@@ -304,7 +304,7 @@ def test_plan_payload_at_an_unknown_station_is_refused(desk: dict[str, Any]) -> 
 
 def test_change_the_loading_keeps_the_values(desk: dict[str, Any]) -> None:
     page = _post_check(_client(desk, "pia"), WITHIN, route="edit").text
-    assert 'value="15 kg"' in page and 'value="tabs"' in page
+    assert 'value="15 kg"' in page and 'value="school"' in page
 
 
 def test_unknown_registration_is_a_plain_page(desk: dict[str, Any]) -> None:
@@ -348,7 +348,7 @@ def test_dispatcher_filters_by_aircraft_verdict_and_date(desk: dict[str, Any]) -
     pia = _client(desk, "pia")
     _post_check(pia, WITHIN, route="record")
     _post_check(pia, {**WITHIN, "load.rear": "150"}, route="record")
-    _post_check(pia, {**WITHIN, "load.front": "700"}, route="record")  # over the front seats' 410 lb
+    _post_check(pia, {**WITHIN, "load.front": "700"}, route="record")  # over the front seats' 420 lb
     dan = _client(desk, "dan")
     out = dan.get("/api/records?verdict=out").json()
     assert [r["ok"] for r in out] == [False] and len(out) == 1
@@ -420,16 +420,16 @@ def test_mechanic_weighing_needs_confirmation_then_writes_with_history(desk: dic
     assert "Current and new empty-weight record" in page and "Extreme loadings" in page
     from loadcheck.display import fmt
 
-    assert fmt(expected.weight, "lb") in page and "1,652" in page
+    assert fmt(expected.weight, "lb") in page and "1,718" in page
     token = re.search(r'name="token" value="([^"]+)"', page).group(1)  # type: ignore[union-attr]
     unconfirmed = mo.post("/mechanic/DEMO-4T/confirm", data={"token": token, "csrf": csrf_of(page)})
     assert unconfirmed.status_code == 409 and "confirmed" in unconfirmed.text
-    assert load_aircraft(aircraft_file).empty.weight == 1652.0
+    assert load_aircraft(aircraft_file).empty.weight == 1718.0
     written = mo.post("/mechanic/DEMO-4T/confirm", data={"token": token, "confirm": "yes", "csrf": csrf_of(page)})
     assert written.status_code == 200 and "Written:" in written.text
     now = load_aircraft(aircraft_file)
     assert now.empty.weight == pytest.approx(expected.weight) and now.empty.arm == pytest.approx(expected.arm)
-    assert now.history[-1].by == "mo" and now.history[-1].previous.weight == 1652.0
+    assert now.history[-1].by == "mo" and now.history[-1].previous.weight == 1718.0
     assert now.history[-1].inputs["file"].endswith("/readings.toml")  # the upload's own name
     assert "# Four-seat nosewheel trainer" in aircraft_file.read_text()  # the comment-keeping write
     # the next check uses the new empty weight
@@ -803,7 +803,7 @@ def test_api_check_is_the_command_lines_json(desk: dict[str, Any]) -> None:
 
 def test_api_check_records_once_when_asked(desk: dict[str, Any]) -> None:
     answer = _client(desk, "pia").post("/api/check", json={"registration": "DEMO-4T", "load": {"front": "340"},
-                                                           "fuel": {"mains": "tabs"}, "record": True}).json()
+                                                           "fuel": {"mains": "school"}, "record": True}).json()
     records = _records(desk)
     assert [r.id for r in records] == [answer["record_id"]] and records[0].pilot == "pia"
 
@@ -825,13 +825,13 @@ def test_api_plans_are_the_command_lines_json(desk: dict[str, Any]) -> None:
     from loadcheck.cli import app
 
     within = str(SAMPLES / "trainer4" / "within.toml")
-    body = {"registration": "DEMO-4T", "load": {"front": 340, "rear": 160, "bag1": "15 kg"}, "fuel": {"mains": "tabs"},
+    body = {"registration": "DEMO-4T", "load": {"front": 340, "rear": 160, "hold": "15 kg"}, "fuel": {"mains": "school", "centre": 0},
             "burn": {"taxi": 1.2, "trip": 18, "reserve": 8}}
     client = _client(desk, "pia")
     fuel = client.post("/api/plan/fuel", json=body).json()
     assert fuel == json.loads(CliRunner().invoke(app, ["plan", "fuel", within, "--json"]).stdout)
-    payload = client.post("/api/plan/payload", json={**body, "station": "bag2"}).json()
-    assert payload == json.loads(CliRunner().invoke(app, ["plan", "payload", within, "--station", "bag2", "--json"]).stdout)
+    payload = client.post("/api/plan/payload", json={**body, "station": "hold"}).json()
+    assert payload == json.loads(CliRunner().invoke(app, ["plan", "payload", within, "--station", "hold", "--json"]).stdout)
     assert client.post("/api/plan/payload", json=body).status_code == 422  # no station
 
 

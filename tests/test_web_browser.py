@@ -85,8 +85,8 @@ def _no_sideways_scroll(page: Any) -> None:
     assert overflow <= 0, f"{page.url} scrolls sideways by {overflow} px at 360 px"
 
 
-TRAINER = {"load.front": "340", "load.rear": "160", "load.bag1": "15 kg", "fuel.mains": "tabs", "burn.taxi": "1.2",
-           "burn.trip": "18", "burn.reserve": "8"}
+TRAINER = {"load.front": "340", "load.rear": "160", "load.hold": "15 kg", "fuel.mains": "school", "fuel.centre": "0",
+           "burn.taxi": "1.2", "burn.trip": "18", "burn.reserve": "8"}
 TWIN_LEAVES = {"load.row1": "380", "load.row2": "340", "load.nose": "200", "fuel.mains": "100", "fuel.aux": "40",
                "burn.taxi": "2", "burn.trip": "90", "burn.order": "aux,mains"}  # sample twin6/leaves_path.toml
 
@@ -143,7 +143,7 @@ def test_a_bad_value_is_named_and_kept(browser: Any, server: dict[str, Any]) -> 
     _fill(pilot, {**TRAINER, "load.rear": "160 stone"})
     pilot.click("button[value='check']")
     assert "nothing was recorded" in pilot.locator(".problem").inner_text()
-    assert pilot.input_value("[id='load.rear']") == "160 stone" and pilot.input_value("[id='load.bag1']") == "15 kg"
+    assert pilot.input_value("[id='load.rear']") == "160 stone" and pilot.input_value("[id='load.hold']") == "15 kg"
     _no_sideways_scroll(pilot)
     _shot(pilot, "bad-value")
 

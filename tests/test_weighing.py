@@ -66,7 +66,7 @@ def test_a_mistyped_reading_that_leaves_no_useful_load_is_never_written(tmp_path
 def test_an_implausible_change_needs_an_override_that_the_history_keeps(tmp_path):
     path = _trainer(tmp_path)
     before = path.read_bytes()
-    heavy = _readings(tmp_path, "reading = 598.0", "reading = 798.0")  # +200 lb, about 12 % of 1,652 lb
+    heavy = _readings(tmp_path, "reading = 598.0", "reading = 818.0")  # +220 lb: about 11 % above the record's 1,718 lb
     refused = _weigh(path, heavy, "--write", "--yes")
     assert refused.exit_code == 2 and "more than 10%" in refused.output and "--force" in refused.output
     assert path.read_bytes() == before
@@ -81,8 +81,8 @@ def test_an_implausible_change_needs_an_override_that_the_history_keeps(tmp_path
 
 def test_a_cg_outside_every_envelope_needs_an_override(tmp_path):
     path = _trainer(tmp_path)
-    # the main-wheel distance mistyped, 85.2 for 58.2 in: CG near 64 in, aft of every envelope (36 to 46.6 in)
-    shifted = _readings(tmp_path, "main_distance = 58.2", "main_distance = 85.2")
+    # the main-wheel distance mistyped, 84.7 for 57.4 in: CG near 64 in, aft of every envelope (35 to 46.8 in)
+    shifted = _readings(tmp_path, "main_distance = 57.4", "main_distance = 84.7")
     proposal = propose(path, shifted, "weighing")
     assert [r.code for r in proposal.result.refusals] == ["cg_outside_envelopes"]
     with pytest.raises(OverrideNeededError, match="outside every envelope's arm span"):
@@ -94,8 +94,8 @@ def test_a_cg_outside_every_envelope_needs_an_override(tmp_path):
 @pytest.mark.parametrize(
     "old, new, words",
     [
-        ("weight = 1652.0", "weight = 2400.0", "empty.weight"),  # empty weight at the maximum takeoff weight
-        ("max_landing_weight = 2400", "max_landing_weight = 2500", "max_landing_weight (2500) is above"),
+        ("weight = 1718.0", "weight = 2450.0", "empty.weight"),  # empty weight at the maximum takeoff weight
+        ("max_landing_weight = 2450", "max_landing_weight = 2500", "max_landing_weight (2500) is above"),
         ("basis = ", "cg_range = [41.0, 37.0]\nbasis = ", "cg_range is reversed"),
     ],
 )
@@ -128,7 +128,7 @@ def test_at_a_terminal_the_old_and_new_record_are_shown_and_asked(tmp_path, monk
     result = runner.invoke(app, ["weigh", str(path), str(tmp_path / "weighing.toml"), "--write"], input=answer)
     assert result.exit_code == 0, result.output
     assert "Current and new empty-weight record" in result.output
-    assert "1,652.0 lb" in result.output and "1,685.8 lb" in result.output and "Make this the current record" in result.output
+    assert "1,718.0 lb" in result.output and "1,685.8 lb" in result.output and "Make this the current record" in result.output
     assert (path.read_bytes() != before) is written
 
 
@@ -191,12 +191,12 @@ def test_a_huge_readings_file_is_kept_as_its_digest(tmp_path):
         lambda t: t.replace("[units]", 'history = [{recorded = 2020-01-01, reason = "weighing", '
                             'previous = {weight = 1600.0, arm = 39.0}}]\n\n[units]', 1),
         # [empty] as an inline table
-        lambda t: t.replace('[empty]\nweight = 1652.0\narm = 39.40\ndate = 2026-02-09\nbasis = "unusable fuel and full oil included"\n',
-                            "", 1).replace("[units]", "empty = {weight = 1652.0, arm = 39.40, date = 2026-02-09}\n\n[units]", 1),
+        lambda t: t.replace('[empty]\nweight = 1718.0\narm = 37.20\ndate = 2026-02-09\nbasis = "unusable fuel and full oil included"\n',
+                            "", 1).replace("[units]", "empty = {weight = 1718.0, arm = 37.20, date = 2026-02-09}\n\n[units]", 1),
         # [empty] as dotted keys at the top
-        lambda t: t.replace('[empty]\nweight = 1652.0\narm = 39.40\ndate = 2026-02-09\nbasis = "unusable fuel and full oil included"\n',
-                            "", 1).replace('registration = "DEMO-4T"', 'registration = "DEMO-4T"\nempty.weight = 1652.0\n'
-                                                                        'empty.arm = 39.40', 1),
+        lambda t: t.replace('[empty]\nweight = 1718.0\narm = 37.20\ndate = 2026-02-09\nbasis = "unusable fuel and full oil included"\n',
+                            "", 1).replace('registration = "DEMO-4T"', 'registration = "DEMO-4T"\nempty.weight = 1718.0\n'
+                                                                        'empty.arm = 37.20', 1),
         # history as [[history]] with a [history.previous] sub-table, followed by more tables
         lambda t: t.replace("[limits]", '[[history]]\nrecorded = 2020-01-01\nreason = "weighing"\n'
                             '[history.previous]\nweight = 1600.0\narm = 39.0\n\n[limits]', 1),
@@ -213,8 +213,8 @@ def test_every_toml_layout_is_written_and_read_back(tmp_path, edit, command):
     result = runner.invoke(app, [command, str(path), str(source), "--write", "--yes"])
     assert result.exit_code == 0, result.output
     after = load_aircraft(path)
-    assert len(after.history) == len(before.history) + 1 and after.history[-1].previous.weight == 1652.0
-    assert after.empty.weight != 1652.0
+    assert len(after.history) == len(before.history) + 1 and after.history[-1].previous.weight == 1718.0
+    assert after.empty.weight != 1718.0
 
 
 def test_an_inline_equipment_list_stays_inline(tmp_path):
@@ -259,7 +259,7 @@ def test_a_lateral_envelope_needs_lateral_readings_or_an_explicit_statement(tmp_
     assert aircraft.read_bytes() == before
     readings.write_text(readings.read_text().replace("format = 1\n", "format = 1\nkeep_lateral_arm = true\n"))
     kept = runner.invoke(app, ["weigh", str(aircraft), str(readings)])
-    assert kept.exit_code == 0 and "the lateral CG was not measured" in kept.output and "0.3 in is kept" in kept.output
+    assert kept.exit_code == 0 and "the lateral CG was not measured" in kept.output and "0.4 in is kept" in kept.output
 
 
 # -- item 9: comments -------------------------------------------------------------------------------
@@ -267,8 +267,8 @@ def test_a_lateral_envelope_needs_lateral_readings_or_an_explicit_statement(tmp_
 
 def test_a_stale_trailing_comment_does_not_stay_on_the_new_value(tmp_path):
     path = _trainer(tmp_path)
-    path.write_text(path.read_text().replace("weight = 1652.0", "weight = 1652.0  # last weighing 2019")
-                    .replace("arm = 39.40", "arm = 39.40 # from the 2019 report")
+    path.write_text(path.read_text().replace("weight = 1718.0", "weight = 1718.0  # last weighing 2019")
+                    .replace("arm = 37.20", "arm = 37.20 # from the 2019 report")
                     .replace('basis = "unusable fuel and full oil included"',
                              'basis = "unusable fuel and full oil included"  # per the flight manual'))
     assert _weigh(path, tmp_path / "weighing.toml", "--write", "--yes").exit_code == 0
@@ -287,9 +287,9 @@ def test_the_weighing_record_shows_what_a_signer_needs(tmp_path):
     html = record_sheet(tmp_path, "weigh", sample("trainer4/aircraft.toml"), sample("trainer4/weighing.toml"))
     assert cell(html, "meta-weighed-on") == "2026-11-28" and cell(html, "meta-weighed-by") == "demo hangar"
     geometry = html[html.index("id='geometry'"):]
-    assert "nosewheel" in geometry and "datum forward" in geometry and "58.20 in" in geometry and "65.00 in" in geometry
+    assert "nosewheel" in geometry and "datum forward" in geometry and "57.40 in" in geometry and "65.00 in" in geometry
     assert "Previous record</th><th>As weighed</th><th>New record</th>" in html
-    assert "1,652.0 lb" in html and "1,685.8 lb" in html and "2026-02-09" in html  # previous and new
+    assert "1,718.0 lb" in html and "1,685.8 lb" in html and "2026-02-09" in html  # previous and new
     assert "Empty-weight CG range: not given" in html
     assert "Most forward" in html and "Most rearward" in html and "Sorted against" in html
     for words in ("Name", "Certificate number", "Signature", "Date", "local aviation authority"):
@@ -307,7 +307,7 @@ def test_the_weighing_record_shows_the_lateral_cg(tmp_path):
     html = record_sheet(tmp_path, "weigh", tmp_path / "aircraft.toml", readings)
     row = html[html.index("<td>lateral CG (+ right)</td>"):]
     row = row[: row.index("</tr>")]
-    assert "0.30 in" in row and "-0.11 in" in row  # previous 0.3 in; new (290 - 295) x 20 / 885
+    assert "0.40 in" in row and "-0.11 in" in row  # previous 0.4 in; new (290 - 295) x 20 / 885
     assert "Lateral arm (in, + right)" in html
 
 

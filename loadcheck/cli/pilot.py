@@ -88,7 +88,8 @@ def check(
     \b
       loadcheck check \\
         sample_aircraft/trainer4/aircraft.toml \\
-        --load front=340 --load rear=150 --fuel mains=tabs \\
+        --load front=340 --load rear=150 \\
+        --fuel mains=school --fuel centre=0 \\
         --taxi 1.2 --trip 18
 
     \b
@@ -410,7 +411,7 @@ def plan_payload(
     \b
       loadcheck plan payload \\
         sample_aircraft/trainer4/within.toml \\
-        --station bag1
+        --station hold
     """
     from ..planning import most_payload
 
