@@ -1,12 +1,58 @@
-"""Shared fixtures: the sample aircraft."""
+"""Shared fixtures: the sample aircraft, the command-line runner; the long runs' option.
+
+``pytest`` runs every test with short runs of the random ones (the README's test command,
+well under a minute on two cores). ``pytest --long`` runs the long ones: the hypothesis
+profile ``long`` (ten times the examples of every property and fuzz test) and the oracle
+on 20,000 random cases. A failing hypothesis test prints its seed and a reproduction blob
+(``print_blob``); examples it found are kept in a database outside the repository (the
+user's cache folder), so the next run tries them first. DEVELOPERS.md, "Set up and test".
+"""
 
 from __future__ import annotations
 
+from pathlib import Path
+
+import platformdirs
 import pytest
+from hypothesis import HealthCheck, settings
+from hypothesis.database import DirectoryBasedExampleDatabase
 
 from loadcheck import Aircraft, load_aircraft
 
-from .helpers import sample
+from .helpers import AppRunner, app_runner, sample
+
+LONG_FACTOR = 10
+"""How many times the examples of each property and fuzz test ``--long`` runs."""
+
+ORACLE_CASES = {"short": 600, "long": 20_000}
+"""Random cases of the oracle comparison (tests/test_oracle.py) in each run."""
+
+
+EXAMPLES_DATABASE = Path(platformdirs.user_cache_dir("loadcheck")) / "hypothesis"
+"""Where hypothesis keeps the examples it found (outside the repository)."""
+
+_COMMON = {"deadline": None, "print_blob": True, "database": DirectoryBasedExampleDatabase(EXAMPLES_DATABASE),
+           "suppress_health_check": [HealthCheck.too_slow, HealthCheck.data_too_large, HealthCheck.filter_too_much]}
+settings.register_profile("short", max_examples=100, **_COMMON)
+settings.register_profile("long", max_examples=100 * LONG_FACTOR, **_COMMON)
+
+
+def pytest_addoption(parser: pytest.Parser) -> None:
+    parser.addoption("--long", action="store_true",
+                     help="the long runs: ten times the hypothesis examples (profile 'long') and the oracle on 20,000 cases")
+
+
+def pytest_configure(config: pytest.Config) -> None:
+    if config.getoption("--long"):
+        settings.load_profile("long")
+    elif not config.getoption("--hypothesis-profile", None):
+        settings.load_profile("short")
+
+
+@pytest.fixture(scope="session")
+def runner() -> AppRunner:
+    """The command-line runner, its command tree built once for the session."""
+    return app_runner()
 
 
 @pytest.fixture(scope="session")
@@ -24,15 +70,7 @@ def twin() -> Aircraft:
     return load_aircraft(sample("twin6/aircraft.toml"))
 
 
-def pytest_addoption(parser: pytest.Parser) -> None:
-    parser.addoption("--full", action="store_true", help="run the long property and oracle runs in full")
-
-
 @pytest.fixture(scope="session")
 def oracle_cases(request: pytest.FixtureRequest) -> int:
-    """Random cases for the oracle comparison: 1,500 by default, 100,000 with --full."""
-    import os
-
-    if request.config.getoption("--full"):
-        return 100_000
-    return int(os.environ.get("ORACLE_CASES", "1500"))
+    """Random cases for the oracle comparison: ORACLE_CASES["short"], or ["long"] with --long."""
+    return ORACLE_CASES["long" if request.config.getoption("--long") else "short"]

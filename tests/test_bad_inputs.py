@@ -9,7 +9,6 @@ import tomllib
 from pathlib import Path
 
 import pytest
-from typer.testing import CliRunner
 
 from loadcheck.cli import app
 
@@ -17,7 +16,6 @@ from .helpers import SAMPLES, sample
 
 HERE = Path(__file__).parent / "bad_inputs"
 CASES = tomllib.loads((HERE / "manifest.toml").read_text())["case"]
-runner = CliRunner()
 
 
 def _digest(folder: Path) -> dict[str, str]:
@@ -30,7 +28,7 @@ def test_the_corpus_is_large_enough():
 
 
 @pytest.mark.parametrize("case", CASES, ids=[c["file"] for c in CASES])
-def test_bad_input(case, tmp_path, monkeypatch):
+def test_bad_input(runner, case, tmp_path, monkeypatch):
     monkeypatch.setenv("LOADCHECK_RECORDS", str(tmp_path / "records.sqlite3"))
     bad = tmp_path / case["file"]
     shutil.copy(HERE / case["file"], bad)
@@ -62,20 +60,31 @@ def test_bad_input(case, tmp_path, monkeypatch):
     assert _digest(SAMPLES) == samples_before
 
 
-def test_a_100_megabyte_file(tmp_path):
-    big = tmp_path / "big.toml"
-    with open(big, "w") as handle:
-        handle.write("# padding\n" * 10_500_000)
+def _sparse(path: Path, head: str, size: int) -> Path:
+    """A file of ``size`` bytes that starts with ``head``: the rest is a hole (a sparse file
+    where the file system has them), so nothing near ``size`` is written to the disk."""
+    with open(path, "wb") as handle:
+        handle.write(head.encode())
+        handle.truncate(size)
+    return path
+
+
+def test_a_100_megabyte_file(runner, tmp_path):
+    # the limits are 5 MiB for a TOML file (files.MAX_FILE_BYTES) and 50 MiB for a CSV
+    # (fleet.MAX_CSV_BYTES); a file far above both is refused before it is read
+    from loadcheck.files import MAX_FILE_BYTES
+    from loadcheck.fleet import MAX_CSV_BYTES
+
+    size = 100 * 1024 * 1024
+    assert size > MAX_CSV_BYTES > MAX_FILE_BYTES
+    big = _sparse(tmp_path / "big.toml", "# padding\n", size)
     result = runner.invoke(app, ["check", str(big)])
-    assert result.exit_code == 2 and "too large" in result.output and "big.toml" in result.output
-    csv_file = tmp_path / "big.csv"
-    with open(csv_file, "w") as handle:
-        handle.write("registration,front\n")
-        handle.write("DEMO-4T,170\n" * 9_000_000)
+    assert result.exit_code == 2 and "too large" in result.output and "big.toml" in result.output, result.output
+    csv_file = _sparse(tmp_path / "big.csv", "registration,front\nDEMO-4T,170\n", size)
     result = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(csv_file), "--no-record"])
-    assert result.exit_code == 2 and "too large" in result.output
+    assert result.exit_code == 2 and "too large" in result.output and "big.csv" in result.output, result.output
 
 
-def test_a_folder_and_a_missing_file():
+def test_a_folder_and_a_missing_file(runner):
     assert "is a folder" in runner.invoke(app, ["check", str(SAMPLES)]).output
     assert "not found" in runner.invoke(app, ["check", "missing.toml"]).output
