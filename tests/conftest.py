@@ -2,8 +2,10 @@
 
 ``pytest`` runs every test with short runs of the random ones (the README's test command,
 well under a minute on two cores). ``pytest --long`` runs the long ones: the hypothesis
-profile ``long`` (ten times the examples of every property and fuzz test) and the oracle
-on 20,000 random cases. A failing hypothesis test prints its seed and a reproduction blob
+profile ``long`` (ten times the examples of every property and fuzz test that takes its
+count from ``helpers.examples``), the oracle on 20,000 random cases, and the tests marked
+``slow`` (skipped otherwise). The runs ``--long`` lengthens carry the marker ``long``, so
+``pytest --long -m "long or slow"`` runs only them (what .ci/run does after the default run). A failing hypothesis test prints its seed and a reproduction blob
 (``print_blob``); examples it found are kept in a database outside the repository (the
 user's cache folder), so the next run tries them first. DEVELOPERS.md, "Set up and test".
 """
@@ -14,7 +16,7 @@ from pathlib import Path
 
 import platformdirs
 import pytest
-from hypothesis import HealthCheck, settings
+from hypothesis import HealthCheck, is_hypothesis_test, settings
 from hypothesis.database import DirectoryBasedExampleDatabase
 
 from loadcheck import Aircraft, load_aircraft
@@ -47,6 +49,20 @@ def pytest_configure(config: pytest.Config) -> None:
         settings.load_profile("long")
     elif not config.getoption("--hypothesis-profile", None):
         settings.load_profile("short")
+
+
+@pytest.hookimpl(tryfirst=True)  # before -m selects
+def pytest_collection_modifyitems(config: pytest.Config, items: list[pytest.Item]) -> None:
+    """Mark the runs ``--long`` lengthens (hypothesis tests, the oracle) ``long``; skip the
+    tests marked ``slow`` (only ``--long`` runs them)."""
+    run_slow = config.getoption("--long")
+    skip = pytest.mark.skip(reason="slow: runs with --long")
+    for item in items:
+        hypothesis_test = isinstance(item, pytest.Function) and is_hypothesis_test(item.obj)
+        if hypothesis_test or "oracle_cases" in getattr(item, "fixturenames", ()):
+            item.add_marker(pytest.mark.long)
+        if item.get_closest_marker("slow") and not run_slow:
+            item.add_marker(skip)
 
 
 @pytest.fixture(scope="session")
