@@ -5,9 +5,11 @@ well under a minute on two cores). ``pytest --long`` runs the long ones: the hyp
 profile ``long`` (ten times the examples of every property and fuzz test that takes its
 count from ``helpers.examples``), the oracle on 20,000 random cases, and the tests marked
 ``slow`` (skipped otherwise). The runs ``--long`` lengthens carry the marker ``long``, so
-``pytest --long -m "long or slow"`` runs only them (what .ci/run does after the default run). A failing hypothesis test prints its seed and a reproduction blob
-(``print_blob``); examples it found are kept in a database outside the repository (the
-user's cache folder), so the next run tries them first. DEVELOPERS.md, "Set up and test".
+``pytest --long -m "long or slow"`` runs only them (what .ci/run does after the default
+run). A failing hypothesis test prints its falsifying example and a reproduction blob
+(``print_blob``: ``@reproduce_failure(...)``); the examples it found are kept in a database
+outside the repository (``EXAMPLES_DATABASE``, in the user's cache folder), so the next run
+tries them first. DEVELOPERS.md, "Set up and test".
 """
 
 from __future__ import annotations
