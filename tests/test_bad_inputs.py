@@ -3,16 +3,20 @@ naming the file and the field, no traceback, and leaves every file untouched."""
 
 from __future__ import annotations
 
+import copy
 import hashlib
+import re
 import shutil
 import tomllib
 from pathlib import Path
+from typing import Any
 
 import pytest
+import tomlkit
 
 from loadcheck.cli import app
 
-from .helpers import SAMPLES, sample
+from .helpers import SAMPLES, sample, sample_data
 
 HERE = Path(__file__).parent / "bad_inputs"
 CASES = tomllib.loads((HERE / "manifest.toml").read_text())["case"]
@@ -88,3 +92,73 @@ def test_a_100_megabyte_file(runner, tmp_path):
 def test_a_folder_and_a_missing_file(runner):
     assert "is a folder" in runner.invoke(app, ["check", str(SAMPLES)]).output
     assert "not found" in runner.invoke(app, ["check", "missing.toml"]).output
+
+
+# -- a list or a table where a number belongs -----------------------------------------------
+# found by the fuzz test of random loading documents: `[burn] trip_time = []` ended in
+# "internal error (TypeError ...)" (tests/test_regressions.py keeps that case). The same
+# class of bug for every number of every sample file, and for the burn fields the samples
+# do not use: each replaced by a list or a table is a field error naming its dotted path.
+
+WRONG_TYPES: list[Any] = [[], {}, [1.0]]
+_NUMBER_WORDS = ("full", "tabs", "together")
+
+
+def _number_fields(data: Any, prefix: str = "") -> list[str]:
+    """Dotted paths of every number (or amount written as text, or fill word) in TOML data."""
+    if isinstance(data, dict):
+        return [p for k, v in data.items() for p in _number_fields(v, f"{prefix}.{k}" if prefix else k)]
+    if isinstance(data, list):
+        return [p for i, v in enumerate(data) for p in _number_fields(v, f"{prefix}[{i}]")]
+    number = isinstance(data, (int, float)) and not isinstance(data, bool)
+    text = isinstance(data, str) and ((data != "" and data[:1] in tuple("0123456789.-+")) or data in _NUMBER_WORDS)
+    return [prefix] if number or text else []
+
+
+def _replaced(data: dict[str, Any], dotted: str, value: Any) -> dict[str, Any]:
+    out = copy.deepcopy(data)
+    keys = [k for k in re.split(r"\.|\[(\d+)\]", dotted) if k]
+    parent: Any = out
+    for key in keys[:-1]:
+        parent = parent[int(key)] if isinstance(parent, list) else parent[key]
+    parent[int(keys[-1]) if isinstance(parent, list) else keys[-1]] = value
+    return out
+
+
+def _documents() -> list[tuple[str, str, dict[str, Any]]]:
+    """(sample name, what it is, its data) for every sample file, and a loading with a trip time."""
+    documents = []
+    for path in sorted(SAMPLES.glob("*/*.toml")):
+        name = path.relative_to(SAMPLES).as_posix()
+        data = sample_data(name)
+        kind = ("aircraft" if path.name == "aircraft.toml" else "readings" if "point" in data
+                else "changes" if "change" in data else "loading")
+        documents.append((name, kind, data))
+    timed = {"aircraft": "aircraft.toml", "load": {}, "burn": {"trip_time": "1:30", "rate": 9.5, "reserve": 5}}
+    documents.append(("trainer4/timed.toml", "loading", timed))
+    return documents
+
+
+DOCUMENTS = _documents()
+
+
+@pytest.mark.parametrize("name, kind, data", DOCUMENTS, ids=[d[0] for d in DOCUMENTS])
+def test_a_list_or_a_table_where_a_number_belongs_is_a_field_error(runner, tmp_path, request, name, kind, data):
+    # each number once, the wrong type taken in turn (--long: each number with every wrong type)
+    every = request.config.getoption("--long")
+    folder, filename = tmp_path / name.split("/")[0], name.split("/")[1]
+    folder.mkdir()
+    shutil.copy(SAMPLES / name.split("/")[0] / "aircraft.toml", folder / "aircraft.toml")
+    fields = _number_fields(data)
+    assert fields
+    for index, field in enumerate(fields):
+        for value in WRONG_TYPES if every else [WRONG_TYPES[index % len(WRONG_TYPES)]]:
+            target = folder / ("bad_" + filename)
+            target.write_text(tomlkit.dumps(_replaced(data, field, value)))
+            args = {"aircraft": ["check", str(target)], "readings": ["weigh", str(folder / "aircraft.toml"), str(target)],
+                    "changes": ["alter", str(folder / "aircraft.toml"), str(target)], "loading": ["check", str(target)]}[kind]
+            result = runner.invoke(app, args)
+            output = result.output
+            assert result.exit_code == 2, (field, value, output)
+            assert "internal error" not in output and "Traceback" not in output, (field, value, output)
+            assert field in output and "bad_" + filename in output, (field, value, output)
