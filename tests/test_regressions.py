@@ -194,10 +194,25 @@ def test_a_rate_with_an_unknown_unit_names_the_rate_and_gives_rate_examples():
     assert "'20 kg'" not in out
 
 
-def _run(args: list[str], timeout: float = 60) -> subprocess.CompletedProcess:
+_RUN_EACH = """
+import json, sys
+from typer.testing import CliRunner
+from loadcheck.cli import app
+runner = CliRunner()
+for args in json.loads(sys.argv[1]):
+    result = runner.invoke(app, args)
+    print(json.dumps([result.exit_code, result.output]), flush=True)
+"""
+
+
+def _run_each(argsets: list[list[str]], timeout: float = 60) -> list[tuple[int, str]]:
+    """Exit code and output of each command, run one after the other in one child process
+    that is killed after ``timeout`` seconds (a command that reads for ever fails the test)."""
     env = {**os.environ, "PYTHONPATH": str(Path(__file__).resolve().parent.parent)}
-    return subprocess.run([sys.executable, "-m", "loadcheck", *args], capture_output=True, text=True, timeout=timeout,
-                          env=env, check=False)
+    done = subprocess.run([sys.executable, "-c", _RUN_EACH, json.dumps(argsets)], capture_output=True, text=True,
+                          timeout=timeout, env=env, check=False)
+    assert done.returncode == 0, done.stderr
+    return [tuple(json.loads(line)) for line in done.stdout.splitlines()]
 
 
 @pytest.mark.skipif(not hasattr(os, "mkfifo") or not Path("/dev/zero").exists(), reason="needs POSIX special files")
@@ -209,7 +224,7 @@ def test_special_files_were_read_for_ever(tmp_path):
     names.write_text('format = 1\naircraft = "/dev/zero"\n[load]\nfront = 170\n')
     trainer = str(SAMPLES / "trainer4" / "aircraft.toml")
     before = _digest(tmp_path)
-    for args, words in (
+    cases = [
         (["check", "/dev/zero"], ["/dev/zero", "character device", "ordinary file"]),
         (["check", str(fifo)], ["pipe.toml", "FIFO"]),
         (["check", trainer, str(fifo)], ["pipe.toml", "FIFO"]),
@@ -217,10 +232,11 @@ def test_special_files_were_read_for_ever(tmp_path):
         (["fleet", "check", str(SAMPLES), str(fifo), "--no-record"], ["pipe.toml", "FIFO"]),
         (["fleet", "check", str(SAMPLES), "/dev/zero", "--no-record"], ["/dev/zero", "character device"]),
         (["validate", str(fifo), trainer], ["pipe.toml", "FIFO", "ok: "]),
-    ):
-        result = _run(args)
-        output = result.stdout + result.stderr
-        assert result.returncode == 2, output
+    ]
+    results = _run_each([args for args, _ in cases])
+    assert len(results) == len(cases)
+    for (_, words), (code, output) in zip(cases, results, strict=True):
+        assert code == 2, output
         assert "Traceback" not in output and "internal error" not in output, output
         for word in words:
             assert word in output, (word, output)
