@@ -35,10 +35,10 @@ ORACLE_CASES = {"short": 600, "long": 20_000}
 EXAMPLES_DATABASE = Path(platformdirs.user_cache_dir("loadcheck")) / "hypothesis"
 """Where hypothesis keeps the examples it found (outside the repository)."""
 
-_COMMON = {"deadline": None, "print_blob": True, "database": DirectoryBasedExampleDatabase(EXAMPLES_DATABASE),
-           "suppress_health_check": [HealthCheck.too_slow, HealthCheck.data_too_large, HealthCheck.filter_too_much]}
-settings.register_profile("short", max_examples=100, **_COMMON)
-settings.register_profile("long", max_examples=100 * LONG_FACTOR, **_COMMON)
+_COMMON = settings(deadline=None, print_blob=True, database=DirectoryBasedExampleDatabase(EXAMPLES_DATABASE),
+                   suppress_health_check=[HealthCheck.too_slow, HealthCheck.data_too_large, HealthCheck.filter_too_much])
+settings.register_profile("short", _COMMON, max_examples=100)
+settings.register_profile("long", _COMMON, max_examples=100 * LONG_FACTOR)
 
 
 def pytest_addoption(parser: pytest.Parser) -> None:

@@ -121,7 +121,9 @@ def examples(short: int) -> int:
     loaded profile (``--long``: ten times; tests/conftest.py registers the profiles)."""
     from hypothesis import settings
 
-    return max(1, short * settings.default.max_examples // 100)
+    current = settings.default
+    assert current is not None
+    return max(1, short * current.max_examples // 100)
 
 
 def random_loadings(
