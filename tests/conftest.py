@@ -3,7 +3,7 @@
 ``pytest`` runs every test with short runs of the random ones (the README's test command,
 well under a minute on two cores). ``pytest --long`` runs the long ones: the hypothesis
 profile ``long`` (ten times the examples of every property and fuzz test that takes its
-count from ``helpers.examples``), the oracle on 20,000 random cases, and the tests marked
+count from ``helpers.examples``), the oracle on 10,000 random cases, and the tests marked
 ``slow`` (skipped otherwise). The runs ``--long`` lengthens carry the marker ``long``, so
 ``pytest --long -m "long or slow"`` runs only them (what .ci/run does after the default
 run). A failing hypothesis test prints its falsifying example and a reproduction blob
@@ -28,7 +28,7 @@ from .helpers import AppRunner, app_runner, sample
 LONG_FACTOR = 10
 """How many times the examples of each property and fuzz test ``--long`` runs."""
 
-ORACLE_CASES = {"short": 600, "long": 20_000}
+ORACLE_CASES = {"short": 600, "long": 10_000}
 """Random cases of the oracle comparison (tests/test_oracle.py) in each run."""
 
 
@@ -43,7 +43,7 @@ settings.register_profile("long", _COMMON, max_examples=100 * LONG_FACTOR)
 
 def pytest_addoption(parser: pytest.Parser) -> None:
     parser.addoption("--long", action="store_true",
-                     help="the long runs: ten times the hypothesis examples (profile 'long') and the oracle on 20,000 cases")
+                     help="the long runs: ten times the hypothesis examples (profile 'long') and the oracle on 10,000 cases")
 
 
 def pytest_configure(config: pytest.Config) -> None:

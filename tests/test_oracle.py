@@ -3,7 +3,7 @@
 Random aircraft: convex and non-convex (star-shaped) envelopes on arm-weight,
 moment/1000-weight and %MAC-weight axes, with lateral envelopes (lateral arm or lateral
 moment against weight) and tanks whose arm moves with the fuel; random loadings, sequential and proportional burns. The default run checks
-600 cases, `pytest --long` 20,000 (tests/conftest.py, ORACLE_CASES); the engine's batch
+600 cases, `pytest --long` 10,000 (tests/conftest.py, ORACLE_CASES); the engine's batch
 path is checked on rows of tests/helpers.random_loadings, one aircraft per 30 cases.
 
 Zero disagreements are allowed where the oracle decides; the oracle declines to decide
