@@ -152,7 +152,7 @@ def feasible_intervals(
     edges = np.where(good_a, a, b)  # the side that is within limits
     intervals: list[tuple[float, float]] = []
     start = low if good[0] else None
-    for edge, rising in zip(edges, ~good_a):
+    for edge, rising in zip(edges, ~good_a, strict=True):
         if rising:
             start = float(edge)
         else:

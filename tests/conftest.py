@@ -1,12 +1,76 @@
-"""Shared fixtures: the sample aircraft."""
+"""Shared fixtures: the sample aircraft, the command-line runner; the long runs' option.
+
+``pytest`` runs every test with short runs of the random ones (the README's test command,
+well under a minute on two cores). ``pytest --long`` runs the long ones: the hypothesis
+profile ``long`` (ten times the examples of every property and fuzz test that takes its
+count from ``helpers.examples``), the oracle on 10,000 random cases, and the tests marked
+``slow`` (skipped otherwise). The runs ``--long`` lengthens carry the marker ``long``, so
+``pytest --long -m "long or slow"`` runs only them (what .ci/run does after the default
+run). A failing hypothesis test prints its falsifying example and a reproduction blob
+(``print_blob``: ``@reproduce_failure(...)``); the examples it found are kept in a database
+outside the repository (``EXAMPLES_DATABASE``, in the user's cache folder), so the next run
+tries them first. DEVELOPERS.md, "Set up and test".
+"""
 
 from __future__ import annotations
 
+from pathlib import Path
+
+import platformdirs
 import pytest
+from hypothesis import HealthCheck, is_hypothesis_test, settings
+from hypothesis.database import DirectoryBasedExampleDatabase
 
 from loadcheck import Aircraft, load_aircraft
 
-from .helpers import sample
+from .helpers import AppRunner, app_runner, sample
+
+LONG_FACTOR = 10
+"""How many times the examples of each property and fuzz test ``--long`` runs."""
+
+ORACLE_CASES = {"short": 600, "long": 10_000}
+"""Random cases of the oracle comparison (tests/test_oracle.py) in each run."""
+
+
+EXAMPLES_DATABASE = Path(platformdirs.user_cache_dir("loadcheck")) / "hypothesis"
+"""Where hypothesis keeps the examples it found (outside the repository)."""
+
+_COMMON = settings(deadline=None, print_blob=True, database=DirectoryBasedExampleDatabase(EXAMPLES_DATABASE),
+                   suppress_health_check=[HealthCheck.too_slow, HealthCheck.data_too_large, HealthCheck.filter_too_much])
+settings.register_profile("short", _COMMON, max_examples=100)
+settings.register_profile("long", _COMMON, max_examples=100 * LONG_FACTOR)
+
+
+def pytest_addoption(parser: pytest.Parser) -> None:
+    parser.addoption("--long", action="store_true",
+                     help="the long runs: ten times the hypothesis examples (profile 'long') and the oracle on 10,000 cases")
+
+
+def pytest_configure(config: pytest.Config) -> None:
+    if config.getoption("--long"):
+        settings.load_profile("long")
+    elif not config.getoption("--hypothesis-profile", None):
+        settings.load_profile("short")
+
+
+@pytest.hookimpl(tryfirst=True)  # before -m selects
+def pytest_collection_modifyitems(config: pytest.Config, items: list[pytest.Item]) -> None:
+    """Mark the runs ``--long`` lengthens (hypothesis tests, the oracle) ``long``; skip the
+    tests marked ``slow`` (only ``--long`` runs them)."""
+    run_slow = config.getoption("--long")
+    skip = pytest.mark.skip(reason="slow: runs with --long")
+    for item in items:
+        hypothesis_test = isinstance(item, pytest.Function) and is_hypothesis_test(item.obj)
+        if hypothesis_test or "oracle_cases" in getattr(item, "fixturenames", ()):
+            item.add_marker(pytest.mark.long)
+        if item.get_closest_marker("slow") and not run_slow:
+            item.add_marker(skip)
+
+
+@pytest.fixture(scope="session")
+def runner() -> AppRunner:
+    """The command-line runner, its command tree built once for the session."""
+    return app_runner()
 
 
 @pytest.fixture(scope="session")
@@ -24,15 +88,7 @@ def twin() -> Aircraft:
     return load_aircraft(sample("twin6/aircraft.toml"))
 
 
-def pytest_addoption(parser: pytest.Parser) -> None:
-    parser.addoption("--full", action="store_true", help="run the long property and oracle runs in full")
-
-
 @pytest.fixture(scope="session")
 def oracle_cases(request: pytest.FixtureRequest) -> int:
-    """Random cases for the oracle comparison: 1,500 by default, 100,000 with --full."""
-    import os
-
-    if request.config.getoption("--full"):
-        return 100_000
-    return int(os.environ.get("ORACLE_CASES", "1500"))
+    """Random cases for the oracle comparison: ORACLE_CASES["short"], or ["long"] with --long."""
+    return ORACLE_CASES["long" if request.config.getoption("--long") else "short"]

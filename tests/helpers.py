@@ -1,10 +1,17 @@
-"""Helpers for the tests: sample paths, raw sample data, a small aircraft built in code."""
+"""Helpers for the tests: sample paths, raw sample data, a small aircraft built in code, the
+command-line runner (its command tree built once), random loadings for the engine."""
 
 from __future__ import annotations
 
 import copy
+import functools
+from collections.abc import Sequence
 from pathlib import Path
 from typing import Any
+from unittest import mock
+
+import numpy as np
+from typer.testing import CliRunner, Result
 
 from loadcheck import Aircraft
 from loadcheck.files import parse_aircraft, read_toml
@@ -62,14 +69,43 @@ def ac_example_aircraft() -> Aircraft:
     })
 
 
+class AppRunner(CliRunner):
+    """typer's ``CliRunner`` over loadcheck's command tree built once.
+
+    ``typer.testing.CliRunner.invoke`` rebuilds the click command tree from the typer app
+    on every call (about 13 ms on an idle machine, far more on a busy one: most of the
+    suite's command-line time); this runner builds it once and hands the same tree to every
+    invocation. Use it as the ``runner`` fixture (tests/conftest.py) or, outside a test,
+    through :func:`app_runner`; ``runner.invoke(app, args)`` reads as before.
+    """
+
+    def __init__(self) -> None:
+        import typer.main
+
+        from loadcheck.cli import app
+
+        super().__init__()
+        self.app = app
+        self.command = typer.main.get_command(app)
+
+    def invoke(self, app: Any, args: str | Sequence[str] | None = None, **kwargs: Any) -> Result:  # type: ignore[override]
+        assert app is self.app, "AppRunner runs loadcheck.cli.app only"
+        with mock.patch("typer.testing._get_command", lambda _app: self.command):
+            return super().invoke(app, args, **kwargs)
+
+
+@functools.cache
+def app_runner() -> AppRunner:
+    """The one :class:`AppRunner` of the test session."""
+    return AppRunner()
+
+
 def record_sheet(tmp_path: Path, command: str, aircraft: Path, source: Path) -> str:
     """The HTML record that ``weigh`` or ``alter`` writes with ``--sheet`` (the command must exit 0)."""
-    from typer.testing import CliRunner
-
     from loadcheck.cli import app
 
     sheet = tmp_path / f"{command}.html"
-    result = CliRunner().invoke(app, [command, str(aircraft), str(source), "--sheet", str(sheet)])
+    result = app_runner().invoke(app, [command, str(aircraft), str(source), "--sheet", str(sheet)])
     assert result.exit_code == 0, result.output
     return sheet.read_text()
 
@@ -78,3 +114,44 @@ def cell(html: str, cell_id: str) -> str:
     """The text of the HTML element with that id."""
     start = html.index(f"id='{cell_id}'>") + len(f"id='{cell_id}'>")
     return html[start: html.index("</", start)]
+
+
+def examples(short: int) -> int:
+    """``max_examples`` for a hypothesis test: ``short`` in the default run, scaled by the
+    loaded profile (``--long``: ten times; tests/conftest.py registers the profiles)."""
+    from hypothesis import settings
+
+    current = settings.default
+    assert current is not None
+    return max(1, short * current.max_examples // 100)
+
+
+def random_loadings(
+    aircraft: Aircraft, n: int, order: Sequence[str] | None = None, seed: int = 1, *,
+    over: float = 1.05, default_max: float = 200.0, taxi_max: float = 2.0, zero_trip: float = 0.0,
+) -> tuple[np.ndarray, np.ndarray, np.ndarray, np.ndarray]:
+    """``n`` random loadings of an aircraft as the engine's arrays (``engine.evaluate``'s inputs).
+
+    Each station's weight is uniform between 0 and ``over`` times its maximum
+    (``default_max`` where it has none), so some loadings exceed a limit on purpose; each
+    tank's fuel uniform between 0 and its usable capacity; taxi fuel uniform up to
+    ``taxi_max`` but no more than the fuel the burn order uses; trip fuel a uniform share
+    of the rest, none in a share ``zero_trip`` of the rows. The one random-loading
+    generator of the tests and the benchmarks (benchmarks/batch.py).
+
+    Returns
+    -------
+    stations : (n, stations) [mass unit]; fuel : (n, tanks) [fuel volume unit];
+    taxi, trip : (n,) [fuel volume unit]
+    """
+    rng = np.random.default_rng(seed)
+    stations = np.stack([rng.uniform(0, (s.max_weight or default_max) * over, n) for s in aircraft.station], axis=1)
+    fuel = (np.stack([rng.uniform(0, t.usable, n) for t in aircraft.tank], axis=1) if aircraft.tank
+            else np.zeros((n, 0)))
+    ids = [t.id for t in aircraft.tank]
+    burnable = fuel.sum(1) if order is None else fuel[:, [ids.index(x) for x in order]].sum(1)
+    taxi = np.minimum(rng.uniform(0, taxi_max, n), burnable)
+    trip = (burnable - taxi) * rng.uniform(0, 1, n)
+    if zero_trip:
+        trip[rng.uniform(size=n) < zero_trip] = 0.0
+    return stations, fuel, taxi, trip

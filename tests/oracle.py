@@ -96,7 +96,7 @@ def tank_arm(tank: dict[str, Any], quantity: F) -> F:
     points = [(fr(q), fr(a)) for q, a in table]
     if quantity <= points[0][0]:
         return points[0][1]
-    for (q0, a0), (q1, a1) in zip(points, points[1:]):
+    for (q0, a0), (q1, a1) in zip(points, points[1:], strict=False):
         if quantity <= q1:
             return a0 + (a1 - a0) * (quantity - q0) / (q1 - q0)
     return points[-1][1]
@@ -209,7 +209,7 @@ def verdicts(aircraft: dict[str, Any], loading: dict[str, Any]) -> dict[str, boo
             parts.append(weight_verdict(w, fr(limits["min_flight_weight"]), above=False))
         weight_part = _and(*parts)
         cg_parts = []
-        for envelope, polygon in zip(envelopes, polygons):
+        for envelope, polygon in zip(envelopes, polygons, strict=True):
             tw, tm, tl = w, m, lat
             top = _top(envelope)
             if name == "ramp" and top is not None and w > top:
@@ -249,7 +249,7 @@ def _path_verdict(aircraft, envelopes, polygons, mac, load, fuel, order, taxi, t
 
     if trip == 0:
         w, m, lat = state(aircraft, load, fuel_left(fuel, order, taxi))
-        return _and(*(inside_verdict(*coordinates(e, mac, w, m, lat), p) for e, p in zip(envelopes, polygons)))
+        return _and(*(inside_verdict(*coordinates(e, mac, w, m, lat), p) for e, p in zip(envelopes, polygons, strict=True)))
     burned = float(taxi) + float(trip) * np.linspace(0.0, 1.0, STEPS + 1)
     start = {k: float(v) for k, v in fuel.items()}
     if order is None:
@@ -279,7 +279,7 @@ def _path_verdict(aircraft, envelopes, polygons, mac, load, fuel, order, taxi, t
             arm = tank["arm"]
         w, m, lat = w + mass, m + mass * arm, lat + mass * tank.get("lateral_arm", 0.0)
     decided_in = True
-    for envelope, polygon in zip(envelopes, polygons):
+    for envelope, polygon in zip(envelopes, polygons, strict=True):
         axes = []
         for name in envelope["axes"]:
             if name == "weight":

@@ -21,7 +21,7 @@ from __future__ import annotations
 import random
 
 import numpy as np
-from hypothesis import HealthCheck, given, settings
+from hypothesis import given, settings
 from hypothesis import strategies as st
 
 from loadcheck import planning as P
@@ -32,6 +32,7 @@ from loadcheck.files import parse_aircraft
 from loadcheck.loading import BurnPlan, Loading, ResolvedLoading, resolve_loading
 from loadcheck.schedule import loading_schedule
 
+from .helpers import examples
 from .test_oracle import random_case
 
 TOLERANCE = 2 * P.MASS_TOLERANCE  # [mass unit]: past a stated maximum by this much is out of limits
@@ -82,7 +83,7 @@ def _carries_its_check(answer) -> None:
         assert answer.check is None or not answer.check.ok, answer.question
 
 
-SETTINGS = settings(max_examples=12, deadline=None, suppress_health_check=[HealthCheck.too_slow, HealthCheck.filter_too_much])
+SETTINGS = settings(max_examples=examples(12))
 
 
 @SETTINGS
@@ -149,7 +150,7 @@ def _holds_over(aircraft, case_check, category: str, down_to: float) -> bool:
     return True
 
 
-@settings(max_examples=25, deadline=None, suppress_health_check=[HealthCheck.too_slow])
+@settings(max_examples=examples(25))
 @given(st.integers(0, 10**6))
 def test_schedule_and_extremes_hold_over_their_fuel_range(seed):
     aircraft, _ = _aircraft_and_loading(seed)

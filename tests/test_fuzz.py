@@ -3,8 +3,10 @@
 Random TOML documents built from the real field names and wild values, mutations of the
 sample files, and random CSV shapes: whatever comes in, the command line answers with exit
 0, 1 or 2 and never a traceback or an "internal error"; the library raises only
-LoadcheckError (a ValueError) or pydantic's ValidationError for bad data. `pytest --full`
-runs ten times as many examples.
+LoadcheckError (a ValueError) or pydantic's ValidationError for bad data. `pytest --long`
+runs ten times as many examples (the hypothesis profile ``long``, tests/conftest.py); a
+failure prints the example and a ``@reproduce_failure`` blob, and the example is kept in the
+example database outside the repository, tried first by the next run.
 """
 
 from __future__ import annotations
@@ -12,19 +14,15 @@ from __future__ import annotations
 import copy
 import json
 import math
-import os
 
 import tomlkit
-from hypothesis import HealthCheck, given, settings
+from hypothesis import given, settings
 from hypothesis import strategies as st
-from typer.testing import CliRunner
 
 from loadcheck.cli import app
 
-from .helpers import SAMPLES, sample_data
+from .helpers import SAMPLES, examples, sample_data
 
-runner = CliRunner()
-EXAMPLES = int(os.environ.get("FUZZ_EXAMPLES", "120"))
 FIELDS = ["format", "name", "registration", "units", "mass", "arm", "fuel_volume", "empty", "weight", "lateral_arm",
           "limits", "max_takeoff_weight", "max_ramp_weight", "station", "id", "kind", "max_weight", "min_weight", "tank",
           "usable", "fuel", "density", "levels", "arm_table", "envelope", "category", "axes", "points", "moment_scale",
@@ -52,8 +50,7 @@ values = st.recursive(
 documents = st.dictionaries(st.sampled_from(FIELDS), values, max_size=10)
 
 
-FUZZ = settings(max_examples=EXAMPLES, deadline=None,
-                suppress_health_check=[HealthCheck.too_slow, HealthCheck.data_too_large])
+FUZZ = settings(max_examples=examples(40))
 
 
 def _toml(data: dict) -> str | None:
@@ -70,7 +67,7 @@ def _assert_clean(result) -> None:
 
 @FUZZ
 @given(documents)
-def test_random_aircraft_documents(tmp_path_factory, data):
+def test_random_aircraft_documents(runner, tmp_path_factory, data):
     text = _toml(data)
     if text is None:
         return
@@ -82,7 +79,7 @@ def test_random_aircraft_documents(tmp_path_factory, data):
 
 @FUZZ
 @given(documents)
-def test_random_loading_documents(tmp_path_factory, data):
+def test_random_loading_documents(runner, tmp_path_factory, data):
     text = _toml(data)
     if text is None:
         return
@@ -107,7 +104,7 @@ def _paths(data, prefix=()):
 
 @FUZZ
 @given(st.sampled_from(["trainer4", "tandem2", "twin6", "heli2"]), st.data())
-def test_mutated_sample_aircraft(tmp_path_factory, name, draw):
+def test_mutated_sample_aircraft(runner, tmp_path_factory, name, draw):
     data = copy.deepcopy(sample_data(f"{name}/aircraft.toml"))
     paths = list(_paths(data))
     for _ in range(draw.draw(st.integers(1, 3))):
@@ -150,7 +147,7 @@ headers = st.lists(st.sampled_from(["registration", "reference", "pilot", "front
 
 @FUZZ
 @given(headers, st.lists(st.lists(cells, min_size=0, max_size=9), max_size=6))
-def test_random_csv_shapes(tmp_path_factory, header, rows):
+def test_random_csv_shapes(runner, tmp_path_factory, header, rows):
     import csv
     import io
 
@@ -177,7 +174,7 @@ ALIASES = {"-l": "--load", "-f": "--fuel", "-c": "--category"}
 
 @FUZZ
 @given(st.lists(st.sampled_from(OPTION_VALUES), min_size=1, max_size=8))
-def test_repeated_command_line_options(options):
+def test_repeated_command_line_options(runner, options):
     args = ["check", str(SAMPLES / "trainer4" / "aircraft.toml"), "--json"]
     for option, value in options:
         args += [option, value]
@@ -252,8 +249,8 @@ def test_csv_headers_built_from_the_aircrafts_own_ids(tmp_path_factory, day):
     aircraft = fleet.aircraft(registration)
     flights = list(check_flights(fleet, read_loadings(path, fleet)[0]))
     assert len(flights) == len(rows)
-    for flight, row in zip(flights, rows):
-        cells = {name: value for name, value in zip(header, row) if value}
+    for flight, row in zip(flights, rows, strict=True):
+        cells = {name: value for name, value in zip(header, row, strict=True) if value}
         load = {k: v for k, v in cells.items() if k in aircraft.stations}
         fuel = {k: v for k, v in cells.items() if k in aircraft.tanks}
         burn = {k: v for k, v in cells.items() if k in ("taxi", "trip", "reserve")}

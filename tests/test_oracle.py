@@ -3,7 +3,8 @@
 Random aircraft: convex and non-convex (star-shaped) envelopes on arm-weight,
 moment/1000-weight and %MAC-weight axes, with lateral envelopes (lateral arm or lateral
 moment against weight) and tanks whose arm moves with the fuel; random loadings, sequential and proportional burns. The default run checks
-ORACLE_CASES cases (1,500); `pytest --full` runs 100,000.
+600 cases, `pytest --long` 10,000 (tests/conftest.py, ORACLE_CASES); the engine's batch
+path is checked on rows of tests/helpers.random_loadings, one aircraft per 30 cases.
 
 Zero disagreements are allowed where the oracle decides; the oracle declines to decide
 only within the documented tolerance of a limit (and, for the burn path, where a sample
@@ -19,11 +20,13 @@ from fractions import Fraction as F
 import pytest
 
 from loadcheck import check_loading
+from loadcheck.engine import evaluate
 from loadcheck.errors import LoadcheckError
 from loadcheck.files import parse_aircraft
 from loadcheck.loading import Loading
 
 from . import oracle
+from .helpers import random_loadings
 
 
 def random_polygon(rng: random.Random, center: tuple[float, float], radius: tuple[float, float], convex: bool):
@@ -133,6 +136,37 @@ def test_oracle_agrees(oracle_cases):
     assert not disagreements, "\n".join(disagreements)
 
 
+def test_the_batch_engine_agrees_with_the_oracle(oracle_cases):
+    # the engine's arrays path (the fleet check, plan tables) on many loadings at once,
+    # from the one random-loading generator of the tests and the benchmarks
+    rows = 25
+    disagreements: list[str] = []
+    verdicts_seen: set[bool] = set()
+    for seed in range(max(5, oracle_cases // 30)):
+        aircraft_data, loading_data = random_case(seed)
+        try:
+            aircraft = parse_aircraft(aircraft_data)
+        except LoadcheckError:
+            continue
+        order = loading_data["order"]
+        stations, fuel, taxi, trip = random_loadings(aircraft, rows, order, seed=seed, zero_trip=0.1)
+        batch = evaluate(aircraft, stations, fuel, taxi, trip, order=order)
+        for i in range(rows):
+            loading = {"load": {s.id: float(stations[i, j]) for j, s in enumerate(aircraft.station)},
+                       "fuel": {t.id: float(fuel[i, j]) for j, t in enumerate(aircraft.tank)},
+                       "order": order, "taxi": float(taxi[i]), "trip": float(trip[i])}
+            got = {name: bool(ok[i]) for name, ok in batch.condition_ok.items()}
+            got |= {"burn_path": bool(batch.burn_path_ok[i]), "ok": bool(batch.ok[i])}
+            verdicts_seen.add(got["ok"])
+            disagreements += [f"seed {seed} row {i}: {key} engine {got[key]} oracle {value}"
+                              for key, value in oracle.verdicts(aircraft_data, loading).items()
+                              if value is not None and got[key] != value]
+        if len(disagreements) > 20:
+            break
+    assert not disagreements, "\n".join(disagreements)
+    assert verdicts_seen == {True, False}  # loadings within limits and loadings out of them
+
+
 def test_points_on_vertices_and_edges_are_inside():
     for seed in range(200):
         aircraft_data, _ = random_case(seed)
@@ -142,7 +176,7 @@ def test_points_on_vertices_and_edges_are_inside():
             continue
         for envelope in aircraft.envelope:
             corners = [(F(x), F(y)) for x, y in envelope.points]
-            for (ax, ay), (bx, by) in zip(corners, corners[1:] + corners[:1]):
+            for (ax, ay), (bx, by) in zip(corners, corners[1:] + corners[:1], strict=True):
                 for t in (F(0), F(1, 3), F(1, 2)):
                     x, y = ax + t * (bx - ax), ay + t * (by - ay)
                     assert oracle.point_status(x, y, corners) == "on"
@@ -152,7 +186,7 @@ def test_points_on_vertices_and_edges_are_inside():
 
 
 def _state_at(envelope, aircraft, x: float, y: float) -> tuple[float, float, float]:
-    values = dict(zip(envelope.axes, (x, y)))
+    values = dict(zip(envelope.axes, (x, y), strict=True))
     weight = values.get("weight", 1000.0)
     if "arm" in values:
         arm = values["arm"]

@@ -6,7 +6,7 @@ import copy
 import random
 
 import pytest
-from hypothesis import HealthCheck, assume, given, settings
+from hypothesis import assume, given, settings
 from hypothesis import strategies as st
 
 from loadcheck import check_loading
@@ -14,7 +14,7 @@ from loadcheck.files import parse_aircraft
 from loadcheck.loading import Loading
 from loadcheck.units import KG_PER_LB, L_PER_USGAL, MM_PER_IN
 
-from .helpers import sample_data, simple_aircraft
+from .helpers import examples, sample_data, simple_aircraft
 
 TRAINER = sample_data("trainer4/aircraft.toml")
 
@@ -77,7 +77,7 @@ def _clear_of_limits(result, room: float = 1e-6) -> bool:
     return all(f.excess is None or f.excess > room * 100 for f in result.findings)
 
 
-@settings(max_examples=150, deadline=None)
+@settings(max_examples=examples(60))
 @given(loadings, st.sampled_from(["normal", "utility"]))
 def test_same_loading_in_kg_mm_and_lb_in_gives_the_same_answer(values, category):
     imperial = check_loading(IMPERIAL, _loading(values, category=category))
@@ -85,7 +85,7 @@ def test_same_loading_in_kg_mm_and_lb_in_gives_the_same_answer(values, category)
     assume(_clear_of_limits(imperial))
     assert imperial.ok == metric.ok
     assert imperial.burn_path.ok == metric.burn_path.ok
-    for a, b in zip(imperial.conditions, metric.conditions):
+    for a, b in zip(imperial.conditions, metric.conditions, strict=True):
         assert a.ok == b.ok
         assert b.weight == pytest.approx(a.weight * KG_PER_LB, rel=1e-9)
         assert b.arm == pytest.approx(a.arm * MM_PER_IN, rel=1e-9)
@@ -93,7 +93,7 @@ def test_same_loading_in_kg_mm_and_lb_in_gives_the_same_answer(values, category)
     assert sorted(f.code for f in imperial.findings) == sorted(f.code for f in metric.findings)
 
 
-@settings(max_examples=150, deadline=None)
+@settings(max_examples=examples(60))
 @given(loadings)
 def test_moments_add_up(values):
     result = check_loading(IMPERIAL, _loading(values))
@@ -103,7 +103,7 @@ def test_moments_add_up(values):
     assert ramp.arm == pytest.approx(ramp.moment / ramp.weight, rel=1e-12)
 
 
-@settings(max_examples=80, deadline=None, suppress_health_check=[HealthCheck.too_slow])
+@settings(max_examples=examples(30))
 @given(loadings, st.randoms(use_true_random=False))
 def test_order_of_items_does_not_matter(values, rng: random.Random):
     base = _loading(values)
@@ -114,13 +114,13 @@ def test_order_of_items_does_not_matter(values, rng: random.Random):
     a = check_loading(IMPERIAL, base)
     b = check_loading(aircraft, base.model_copy(update={"load": shuffled_load}))
     assert a.ok == b.ok
-    for x, y in zip(a.conditions, b.conditions):
+    for x, y in zip(a.conditions, b.conditions, strict=True):
         assert y.weight == pytest.approx(x.weight, rel=1e-12)
         assert y.arm == pytest.approx(x.arm, rel=1e-12)
     assert sorted((f.code, f.condition) for f in a.findings) == sorted((f.code, f.condition) for f in b.findings)
 
 
-@settings(max_examples=150, deadline=None)
+@settings(max_examples=examples(60))
 @given(st.floats(0, 400), st.sampled_from([35.0, 48.0]))
 def test_cg_exactly_on_a_limit_is_within(front, limit):
     # the simple box: aft limit 48.0 in, forward 35.0 in, 900..2000 lb; no fuel

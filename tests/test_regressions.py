@@ -5,16 +5,13 @@ from __future__ import annotations
 import json
 
 import pytest
-from typer.testing import CliRunner
 
 from loadcheck.cli import app
 
-from .helpers import sample
-
-runner = CliRunner()
+from .helpers import app_runner, sample
 
 
-def test_load_table_given_as_a_list_with_command_line_loads(tmp_path):
+def test_load_table_given_as_a_list_with_command_line_loads(runner, tmp_path):
     # fuzz: `load = []` in a loading file plus --load crashed while merging (AttributeError)
     path = tmp_path / "loading.toml"
     path.write_text("load = []\n")
@@ -22,7 +19,7 @@ def test_load_table_given_as_a_list_with_command_line_loads(tmp_path):
     assert result.exit_code == 2 and "load" in result.output and "internal error" not in result.output
 
 
-def test_trip_time_on_the_command_line_replaces_the_files_trip():
+def test_trip_time_on_the_command_line_replaces_the_files_trip(runner):
     # a --trip-time/--rate laid over a loading file with `trip` was refused as "both given"
     result = runner.invoke(app, ["check", str(sample("trainer4/within.toml")), "--trip-time", "1:00", "--rate", "9", "--json"])
     assert result.exit_code == 0, result.output
@@ -70,7 +67,7 @@ def _digest(folder: Path) -> dict[str, str]:
 def _refused(args: list[str], *words: str, folder: Path | None = None) -> str:
     before = _digest(folder) if folder is not None else None
     samples = _digest(SAMPLES)
-    result = runner.invoke(app, args)
+    result = app_runner().invoke(app, args)
     assert result.exit_code == 2, result.output
     assert "Traceback" not in result.output and "internal error" not in result.output, result.output
     for word in words:
@@ -177,7 +174,7 @@ def test_a_rate_and_a_reserve_given_as_a_mass_are_the_mass_burned_and_left():
 
 @pytest.mark.parametrize("rate, per_hour", [("36 l/h", 36 / 3.785411784), ("9.5 gph", 9.5), ("9.5 usgal/hr", 9.5),
                                             ("34.2 l per hour", 34.2 / 3.785411784), ("9", 9.0)])
-def test_rates_with_units_were_refused_with_an_example_that_is_a_mass(rate, per_hour):
+def test_rates_with_units_were_refused_with_an_example_that_is_a_mass(runner, rate, per_hour):
     # 1 US gal = 3.785411784 L exactly (NIST SP 811, 2008, appendix B.8); "gph" is US gallons
     # per hour (common practice in US usage)
     trainer = str(SAMPLES / "trainer4" / "aircraft.toml")
@@ -197,10 +194,25 @@ def test_a_rate_with_an_unknown_unit_names_the_rate_and_gives_rate_examples():
     assert "'20 kg'" not in out
 
 
-def _run(args: list[str], timeout: float = 60) -> subprocess.CompletedProcess:
+_RUN_EACH = """
+import json, sys
+from typer.testing import CliRunner
+from loadcheck.cli import app
+runner = CliRunner()
+for args in json.loads(sys.argv[1]):
+    result = runner.invoke(app, args)
+    print(json.dumps([result.exit_code, result.output]), flush=True)
+"""
+
+
+def _run_each(argsets: list[list[str]], timeout: float = 60) -> list[tuple[int, str]]:
+    """Exit code and output of each command, run one after the other in one child process
+    that is killed after ``timeout`` seconds (a command that reads for ever fails the test)."""
     env = {**os.environ, "PYTHONPATH": str(Path(__file__).resolve().parent.parent)}
-    return subprocess.run([sys.executable, "-m", "loadcheck", *args], capture_output=True, text=True, timeout=timeout,
-                          env=env, check=False)
+    done = subprocess.run([sys.executable, "-c", _RUN_EACH, json.dumps(argsets)], capture_output=True, text=True,
+                          timeout=timeout, env=env, check=False)
+    assert done.returncode == 0, done.stderr
+    return [tuple(json.loads(line)) for line in done.stdout.splitlines()]
 
 
 @pytest.mark.skipif(not hasattr(os, "mkfifo") or not Path("/dev/zero").exists(), reason="needs POSIX special files")
@@ -212,7 +224,7 @@ def test_special_files_were_read_for_ever(tmp_path):
     names.write_text('format = 1\naircraft = "/dev/zero"\n[load]\nfront = 170\n')
     trainer = str(SAMPLES / "trainer4" / "aircraft.toml")
     before = _digest(tmp_path)
-    for args, words in (
+    cases = [
         (["check", "/dev/zero"], ["/dev/zero", "character device", "ordinary file"]),
         (["check", str(fifo)], ["pipe.toml", "FIFO"]),
         (["check", trainer, str(fifo)], ["pipe.toml", "FIFO"]),
@@ -220,10 +232,11 @@ def test_special_files_were_read_for_ever(tmp_path):
         (["fleet", "check", str(SAMPLES), str(fifo), "--no-record"], ["pipe.toml", "FIFO"]),
         (["fleet", "check", str(SAMPLES), "/dev/zero", "--no-record"], ["/dev/zero", "character device"]),
         (["validate", str(fifo), trainer], ["pipe.toml", "FIFO", "ok: "]),
-    ):
-        result = _run(args)
-        output = result.stdout + result.stderr
-        assert result.returncode == 2, output
+    ]
+    results = _run_each([args for args, _ in cases])
+    assert len(results) == len(cases)
+    for (_, words), (code, output) in zip(cases, results, strict=True):
+        assert code == 2, output
         assert "Traceback" not in output and "internal error" not in output, output
         for word in words:
             assert word in output, (word, output)
@@ -244,7 +257,7 @@ def test_deeply_nested_toml_was_an_internal_error_and_stopped_validate(tmp_path)
     _refused(["check", good, str(tables)], "tables.toml", "nested", folder=tmp_path)
 
 
-def test_a_loading_for_another_registration_gave_no_findings(tmp_path):
+def test_a_loading_for_another_registration_gave_no_findings(runner, tmp_path):
     # a loading for DEMO-6P checked against DEMO-4T's data: "No findings", exit 0
     loading = tmp_path / "for_the_twin.toml"
     loading.write_text('format = 1\nregistration = "DEMO-6P"\n[load]\nfront = 170\n')
@@ -310,7 +323,7 @@ def test_a_utf16_file_was_called_binary(tmp_path):
     _refused(["validate", str(path)], "aircraft.toml", "UTF-16", folder=tmp_path)
 
 
-def test_validate_shows_the_empty_weight_cg_range_and_flags_a_record_outside_it(tmp_path):
+def test_validate_shows_the_empty_weight_cg_range_and_flags_a_record_outside_it(runner, tmp_path):
     # issue 14 item 1: show and validate must show the range and flag a current record outside it
     import tomlkit
 
@@ -358,7 +371,7 @@ def test_planning_on_an_envelope_of_thousands_of_corners_stays_bounded_in_memory
     assert peak < 200 * 2**20, f"peak {peak / 2**20:.0f} MiB"
 
 
-def test_a_trip_time_of_the_wrong_type_is_a_field_error(tmp_path):
+def test_a_trip_time_of_the_wrong_type_is_a_field_error(runner, tmp_path):
     # found by the fuzz test of random loading documents: [burn] trip_time = [] ended in
     # "internal error (TypeError ...)" instead of an error naming the field
     path = tmp_path / "loading.toml"
@@ -385,7 +398,7 @@ def test_plan_fuel_on_an_aircraft_with_no_tanks_says_so_without_a_numpy_warning(
 
 
 @pytest.mark.parametrize("where", ["station_arm", "max_takeoff_weight", "envelope_point", "load"])
-def test_true_where_a_number_belongs_is_refused(tmp_path, where):
+def test_true_where_a_number_belongs_is_refused(runner, tmp_path, where):
     # a TOML `true` was read as 1.0: `arm = true` gave a station at 1 in, and the file validated
     import tomlkit
 
