@@ -15,21 +15,25 @@ __all__ = ["render_current_verification", "render_record_list"]
 
 
 def render_record_list(path: Any, records: Iterable[tuple[Any, ...]], caution: str, console: Console) -> None:
-    """The recorded checks, one line each (id, time, registration, reference, pilot, verdict, data), then the caution.
+    """The recorded checks, one line each (id, time, registration, reference, pilot, verdict,
+    legs, data), then the caution. A trip is one record: its verdict is the whole trip's, and
+    its legs are counted.
 
     ``records`` as :meth:`loadcheck.records.RecordLog.listing` gives them. A long listing is
     plain aligned text (:mod:`loadcheck.render.listing`).
     """
     title = f"Records in {path}"
-    heads = ("Id", "Checked (UTC)", "Registration", "Reference", "Pilot", "Result", "Data")
+    heads = ("Id", "Checked (UTC)", "Registration", "Reference", "Pilot", "Result", "Legs", "Data")
     words = ("OUT OF LIMITS", "within limits")
-    rows = [(str(r[0]), r[1][:19], r[2] or "", r[3] or "", r[4] or "", words[bool(r[5])], r[6]) for r in records]
+    rows = [(str(r[0]), r[1][:19], r[2] or "", r[3] or "", r[4] or "", words[bool(r[5])], str(r[7]), r[6])
+            for r in records]
     if use_plain(len(rows)):
-        plain_listing(console.file, title, heads, rows, right=(0,), width=console.width)
+        plain_listing(console.file, title, heads, rows, right=(0, 6), width=console.width)
     else:  # laid out for the width, nothing cut
         from .terminal import Column, _print_table
 
-        columns = [Column("Id", key=True)] + [Column(h, numeric=False) for h in heads[1:-1]] + [Column("Data")]
+        columns = ([Column("Id", key=True)] + [Column(h, numeric=False) for h in heads[1:-2]]
+                   + [Column("Legs"), Column("Data")])
         _print_table(console, title, columns, [list(row) for row in rows])
     console.print(caution_text(caution))
 
