@@ -259,7 +259,7 @@ def test_single_records_are_unchanged_by_trips(db):
     with RecordLog(db) as log:
         record = log.get(record_id)
         assert record.result == check_loading(inputs.aircraft, inputs.loading).to_dict() and not record.inputs.get("leg")
-        assert list(log.listing())[0][-1] == 1 and verify(log, record_id).reproduced
+        assert next(iter(log.listing()))[-1] == 1 and verify(log, record_id).reproduced
     (row,) = csv.DictReader(runner.invoke(app, ["records", "export", "--format", "csv"]).stdout.splitlines())
     assert (row["legs"], row["leg"], row["leg_ok"]) == ("1", "", "")
     takeoff = check_loading(inputs.aircraft, inputs.loading).condition("takeoff")
