@@ -44,7 +44,12 @@ __all__ = ["CurrentCheck", "CurrentVerification", "Record", "RecordLog", "Verifi
            "record_check", "results_match", "verify", "verify_current"]
 
 _COLUMNS = ("id, checked_at, registration, reference, pilot, source, category, ok, fingerprint, inputs, result, version, "
-            "seal")
+            "seal, legs")
+
+_LISTED = "id, checked_at, registration, reference, pilot, ok, fingerprint, legs"
+"""The columns a listing shows, in the order of the covering index ``checks_listing``: a listing
+reads that index alone (a few dozen bytes a record), never the table's rows with their stored
+results (kilobytes each)."""
 
 
 def _seal(checked_at: str, registration: str | None, reference: str | None, pilot: str | None, source: str | None,
@@ -71,7 +76,8 @@ CREATE TABLE IF NOT EXISTS checks (
     inputs TEXT NOT NULL,
     result TEXT NOT NULL,
     version TEXT NOT NULL,
-    seal TEXT
+    seal TEXT,
+    legs INTEGER
 );
 CREATE INDEX IF NOT EXISTS checks_by_registration ON checks(registration, checked_at);
 CREATE INDEX IF NOT EXISTS checks_by_time ON checks(checked_at);
@@ -114,6 +120,7 @@ class Record:
     version: str
     seal: str | None = None
     stored: tuple[Any, ...] = ()  # the row as stored, for the seal
+    legs: int | None = None  # legs of the loading recorded (None: recorded before trips were, one leg)
 
     def summary(self) -> dict[str, Any]:
         """The record without its inputs and result, for listings."""
@@ -154,6 +161,9 @@ class RecordLog:
             columns = {row[1] for row in self._db.execute("PRAGMA table_info(checks)")}
             if "seal" not in columns:  # a database made before records were sealed
                 self._db.execute("ALTER TABLE checks ADD COLUMN seal TEXT")
+            if "legs" not in columns:  # made before trips were recorded: every record is one leg (NULL)
+                self._db.execute("ALTER TABLE checks ADD COLUMN legs INTEGER")
+            self._db.execute(f"CREATE INDEX IF NOT EXISTS checks_listing ON checks({_LISTED})")
             self._db.execute("COMMIT")
         except sqlite3.Error:
             self._db.execute("ROLLBACK")
@@ -205,14 +215,15 @@ class RecordLog:
                     self._db.execute("INSERT OR IGNORE INTO aircraft_data (fingerprint, data) VALUES (?, ?)",
                                      (fingerprint, json.dumps(data, sort_keys=True, separators=(",", ":"))))
                 result = record["result"]
+                legs = 1 + len(record["inputs"].get("leg") or ())
                 values = (now, record.get("registration"), record.get("reference"), record.get("pilot"),
                           record.get("source"), result.get("category"), int(bool(result.get("ok"))), fingerprint,
                           json.dumps(record["inputs"], separators=(",", ":"), default=str),
                           json.dumps(result, separators=(",", ":")), record.get("version", ""))
                 cursor = self._db.execute(
                     "INSERT INTO checks (checked_at, registration, reference, pilot, source, category, ok, fingerprint, "
-                    "inputs, result, version, seal) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)",
-                    (*values, _seal(*values)),
+                    "inputs, result, version, seal, legs) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)",
+                    (*values, _seal(*values), legs),
                 )
                 ids.append(int(cursor.lastrowid or 0))
             self._db.execute("COMMIT")
@@ -228,7 +239,7 @@ class RecordLog:
         return Record(
             id=row[0], checked_at=row[1], registration=row[2], reference=row[3], pilot=row[4], source=row[5],
             category=row[6], ok=bool(row[7]), fingerprint=row[8], inputs=json.loads(row[9]), result=json.loads(row[10]),
-            version=row[11], seal=row[12], stored=tuple(row[1:12]),
+            version=row[11], seal=row[12], stored=tuple(row[1:12]), legs=row[13],
         )
 
     def get(self, record_id: int) -> Record:
@@ -263,11 +274,11 @@ class RecordLog:
         """What a listing shows of each record, in order, without reading its result:
         (id, checked_at, registration, reference, pilot, ok (1 or 0), fingerprint, legs); the filters of :meth:`find`.
 
-        ``legs`` is the number of legs of the loading recorded: 1 for a single loading, the
-        legs of a trip (its first leg and each ``leg`` table of its inputs, counted by SQLite).
+        ``legs`` is the number of legs of the loading recorded: 1 for a single loading (and for
+        a record made before trips were recorded), the legs of a trip. Read from the covering
+        index ``checks_listing`` alone.
         """
-        return self._select("id, checked_at, registration, reference, pilot, ok, fingerprint, "
-                            "1 + coalesce(json_array_length(inputs, '$.leg'), 0)", since, until, registration)
+        return self._select(_LISTED.replace("legs", "coalesce(legs, 1)"), since, until, registration)
 
     def _select(self, columns: str, since: dt.date | None, until: dt.date | None,
                 registration: str | None) -> Iterator[tuple[Any, ...]]:
@@ -448,6 +459,11 @@ def verify(log: RecordLog, record_id: int) -> Verification:
     if record.registration != aircraft.registration:
         differences.append(f"the stored registration {record.registration!r} is not the recorded aircraft data's "
                            f"{aircraft.registration!r}")
+    legs = 1 + len(record.inputs.get("leg") or ())
+    stored_legs = 1 if record.legs is None else record.legs
+    if stored_legs != legs or len(again.get("legs", (again,))) != legs:
+        differences.append(f"the stored number of legs ({stored_legs}, which records list shows) is not the recorded "
+                           f"loading's ({legs})")
     given = record.inputs.get("registration")
     if given is not None and given != record.registration:
         differences.append(f"the stored registration {record.registration!r} is not the loading's {given!r}")

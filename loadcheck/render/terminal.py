@@ -23,12 +23,12 @@ from rich.panel import Panel
 from rich.table import Table
 from rich.text import Text
 
-from ..aircraft import Aircraft
 from ..display import fmt, unit_label
 from ..results import CheckResult, Condition
 from ..words import burn_path_summary, stretch_text
 
-if TYPE_CHECKING:
+if TYPE_CHECKING:  # the aircraft models (pydantic, numpy, shapely) are not loaded to print a listing
+    from ..aircraft import Aircraft
     from ..planning import PlanResult, TableRow
 
 __all__ = [
