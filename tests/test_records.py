@@ -280,3 +280,20 @@ def test_a_trip_result_is_not_recorded_against_single_inputs(db, tmp_path):
     single = load_check_inputs(sample("trainer4/within.toml"))
     with RecordLog(db) as log, pytest.raises(InputError, match="not the check of these inputs"):
         record_check(log, single, check_trip(trip_inputs.aircraft, trip_inputs.trip), source="x", version="test")
+
+
+def test_a_trip_recorded_within_limits_is_checked_against_the_current_data(db, tmp_path):
+    from .test_trip import trip_fleet
+
+    folder = trip_fleet(tmp_path / "fleet")
+    within = folder / "within.toml"
+    within.write_text((folder / "trip.toml").read_text().replace("rear = 400", "rear = 100"))
+    assert runner.invoke(app, ["check", str(within), "--record", str(db)]).exit_code == 0
+    aircraft = folder / "aircraft.toml"
+    # a new weighing, 700 lb heavier (invented): leg 1 alone now weighs 1,700 + 180 + 180 = 2,060 lb at the ramp
+    aircraft.write_text(aircraft.read_text().replace("weight = 1000.0", "weight = 1700.0"))
+    result = runner.invoke(app, ["records", "verify", "--current", str(folder), "--json"])
+    assert result.exit_code == 1, result.output
+    (check,) = json.loads(result.stdout)["checks"]
+    assert check["data_changed"] and check["recorded_ok"] and check["current_ok"] is False
+    assert any(f.startswith("leg 1: ramp weight 2,060.0 lb exceeds") for f in check["current_findings"])
