@@ -45,13 +45,17 @@ CHECK = (
 )
 
 
+_EMPTY = [str(ROOT)]  # the working folder of the timed interpreters: an empty one (set in _measure)
+
+
 def _time(code: str, path: Path = ROOT) -> tuple[float, float]:
     """Wall time and CPU time (user + system, every thread) of a fresh interpreter running ``code`` [s],
     with the package of ``path`` first on the path (this checkout's, not an installed one)."""
     env = {**os.environ, "PYTHONPATH": os.pathsep.join([str(path), os.environ.get("PYTHONPATH", "")])}
     before = resource.getrusage(resource.RUSAGE_CHILDREN)
     start = time.perf_counter()
-    subprocess.run([sys.executable, "-c", code], check=True, stdout=subprocess.DEVNULL, env=env)
+    # run from outside any checkout: "python -c" puts the working folder first on the path
+    subprocess.run([sys.executable, "-c", code], check=True, stdout=subprocess.DEVNULL, env=env, cwd=_EMPTY[0])
     wall = time.perf_counter() - start
     after = resource.getrusage(resource.RUSAGE_CHILDREN)
     return wall, (after.ru_utime - before.ru_utime) + (after.ru_stime - before.ru_stime)
@@ -70,6 +74,8 @@ def _measure(args: argparse.Namespace, folder: Path) -> None:
     # An installed package has its bytecode compiled at install time, as the
     # dependencies' has; compile ours too, since PYTHONDONTWRITEBYTECODE may be set.
     compileall.compile_dir(str(ROOT / "loadcheck"), quiet=1)
+    (folder / "empty").mkdir()
+    _EMPTY[0] = str(folder / "empty")
     codes = {"bare": (BARE, ROOT), "model": (BARE_WITH_MODEL, ROOT), "minimal": (MINIMAL_APP, ROOT), "check": (CHECK, ROOT)}
     if args.old:
         archive = subprocess.run(["git", "-C", str(ROOT), "archive", args.old, "loadcheck"], capture_output=True,
