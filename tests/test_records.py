@@ -297,3 +297,17 @@ def test_a_trip_recorded_within_limits_is_checked_against_the_current_data(db, t
     (check,) = json.loads(result.stdout)["checks"]
     assert check["data_changed"] and check["recorded_ok"] and check["current_ok"] is False
     assert any(f.startswith("leg 1: ramp weight 2,060.0 lb exceeds") for f in check["current_findings"])
+
+
+def test_records_list_does_not_load_the_aircraft_models(db, tmp_path):
+    """Start-up of a listing: render/terminal.py imported the aircraft models (pydantic schema
+    building, numpy, shapely) for type hints alone."""
+    import subprocess
+    import sys
+
+    _record(db, "trainer4/within.toml")
+    code = ("import sys; sys.argv = ['loadcheck', 'records', 'list', '--db', sys.argv[1]]\n"
+            "import loadcheck.cli as cli\ntry:\n    cli.main()\nexcept SystemExit as stop:\n    code = stop.code\n"
+            "print(code, [m for m in ('numpy', 'shapely', 'loadcheck.aircraft') if m in sys.modules], file=sys.stderr)")
+    done = subprocess.run([sys.executable, "-c", code, str(db)], capture_output=True, text=True, check=True, cwd=tmp_path)
+    assert done.stderr.strip() == "0 []", done.stderr
