@@ -3,7 +3,8 @@
 The fleet is a folder of aircraft files (searched with its sub-folders). Loadings come
 from a CSV file (one row per flight; columns documented in docs/fleet.md) or a folder of
 loading files. Each flight is resolved against its aircraft and checked with
-:func:`~loadcheck.check.check_loading`; a row that cannot be used is reported with its line
+:func:`~loadcheck.check.check_loading` (a trip of several legs, the rows of one trip id, with
+:func:`~loadcheck.trip.check_trip`); a row that cannot be used is reported with its line
 number and reason, never skipped, and the other rows are still checked.
 
 Rows are streamed: :func:`read_loadings` reads the header at once and then one row at a
