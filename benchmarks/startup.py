@@ -1,6 +1,6 @@
 """Start-up cost of `loadcheck check` against the bare import of its dependencies.
 
-Run on demand:  python benchmarks/startup.py [--runs 15]
+Run on demand:  python benchmarks/startup.py [--runs 15] [--old 42b09d9]
 
 Both are timed in the same run, as fresh interpreters, alternating, and the medians of
 wall and CPU time (every thread, so a spinning BLAS pool shows) are compared. Target
@@ -13,11 +13,15 @@ from __future__ import annotations
 
 import argparse
 import compileall
+import os
 import resource
 import statistics
 import subprocess
 import sys
+import tarfile
+import tempfile
 import time
+from io import BytesIO
 from pathlib import Path
 
 ROOT = Path(__file__).resolve().parent.parent
@@ -41,11 +45,17 @@ CHECK = (
 )
 
 
-def _time(code: str) -> tuple[float, float]:
-    """Wall time and CPU time (user + system, every thread) of a fresh interpreter running ``code`` [s]."""
+_EMPTY = [str(ROOT)]  # the working folder of the timed interpreters: an empty one (set in _measure)
+
+
+def _time(code: str, path: Path = ROOT) -> tuple[float, float]:
+    """Wall time and CPU time (user + system, every thread) of a fresh interpreter running ``code`` [s],
+    with the package of ``path`` first on the path (this checkout's, not an installed one)."""
+    env = {**os.environ, "PYTHONPATH": os.pathsep.join([str(path), os.environ.get("PYTHONPATH", "")])}
     before = resource.getrusage(resource.RUSAGE_CHILDREN)
     start = time.perf_counter()
-    subprocess.run([sys.executable, "-c", code], check=True, stdout=subprocess.DEVNULL)
+    # run from outside any checkout: "python -c" puts the working folder first on the path
+    subprocess.run([sys.executable, "-c", code], check=True, stdout=subprocess.DEVNULL, env=env, cwd=_EMPTY[0])
     wall = time.perf_counter() - start
     after = resource.getrusage(resource.RUSAGE_CHILDREN)
     return wall, (after.ru_utime - before.ru_utime) + (after.ru_stime - before.ru_stime)
@@ -54,16 +64,32 @@ def _time(code: str) -> tuple[float, float]:
 def main() -> None:
     parser = argparse.ArgumentParser(description=__doc__.splitlines()[0])
     parser.add_argument("--runs", type=int, default=15)
+    parser.add_argument("--old", default=None, help="also time check --json of this commit (e.g. 42b09d9)")
     args = parser.parse_args()
+    with tempfile.TemporaryDirectory() as folder:
+        _measure(args, Path(folder))
+
+
+def _measure(args: argparse.Namespace, folder: Path) -> None:
     # An installed package has its bytecode compiled at install time, as the
     # dependencies' has; compile ours too, since PYTHONDONTWRITEBYTECODE may be set.
     compileall.compile_dir(str(ROOT / "loadcheck"), quiet=1)
-    _time(BARE), _time(BARE_WITH_MODEL), _time(MINIMAL_APP), _time(CHECK)  # warm the file cache
-    runs: dict[str, list[tuple[float, float]]] = {"bare": [], "model": [], "minimal": [], "check": []}
-    codes = {"bare": BARE, "model": BARE_WITH_MODEL, "minimal": MINIMAL_APP, "check": CHECK}
+    (folder / "empty").mkdir()
+    _EMPTY[0] = str(folder / "empty")
+    codes = {"bare": (BARE, ROOT), "model": (BARE_WITH_MODEL, ROOT), "minimal": (MINIMAL_APP, ROOT), "check": (CHECK, ROOT)}
+    if args.old:
+        archive = subprocess.run(["git", "-C", str(ROOT), "archive", args.old, "loadcheck"], capture_output=True,
+                                 check=True).stdout
+        with tarfile.open(fileobj=BytesIO(archive)) as tar:
+            tar.extractall(folder, filter="data")
+        compileall.compile_dir(str(folder / "loadcheck"), quiet=1)
+        codes["old"] = (CHECK, folder)
+    for code, path in codes.values():
+        _time(code, path)  # warm the file cache
+    runs: dict[str, list[tuple[float, float]]] = {name: [] for name in codes}
     for _ in range(args.runs):
-        for name, code in codes.items():
-            runs[name].append(_time(code))
+        for name, (code, path) in codes.items():
+            runs[name].append(_time(code, path))
     wall = {k: statistics.median(w for w, _ in v) for k, v in runs.items()}
     cpu = {k: statistics.median(c for _, c in v) for k, v in runs.items()}
     print(f"medians over {args.runs} runs, alternating          wall      CPU")
@@ -75,6 +101,9 @@ def main() -> None:
           "   (target <= 1.30 each)")
     print(f"ratio to the import plus one model:      {wall['check'] / wall['model']:6.2f}    {cpu['check'] / cpu['model']:6.2f}")
     print(f"ratio to the smallest program:           {wall['check'] / wall['minimal']:6.2f}    {cpu['check'] / cpu['minimal']:6.2f}")
+    if "old" in wall:
+        print(f"check --json of {args.old}:               {wall['old'] * 1000:6.0f} ms {cpu['old'] * 1000:6.0f} ms")
+        print(f"  its ratio to the bare import:          {wall['old'] / wall['bare']:6.2f}    {cpu['old'] / cpu['bare']:6.2f}")
 
 if __name__ == "__main__":
     main()

@@ -3,7 +3,8 @@
 The fleet is a folder of aircraft files (searched with its sub-folders). Loadings come
 from a CSV file (one row per flight; columns documented in docs/fleet.md) or a folder of
 loading files. Each flight is resolved against its aircraft and checked with
-:func:`~loadcheck.check.check_loading`; a row that cannot be used is reported with its line
+:func:`~loadcheck.check.check_loading` (a trip of several legs, the rows of one trip id, with
+:func:`~loadcheck.trip.check_trip`); a row that cannot be used is reported with its line
 number and reason, never skipped, and the other rows are still checked.
 
 Rows are streamed: :func:`read_loadings` reads the header at once and then one row at a
@@ -46,6 +47,7 @@ __all__ = [
     "RESERVED_COLUMNS",
     "MAX_CSV_BYTES",
     "TRIP_COLUMN",
+    "LEG_COLUMN",
     "FleetLine",
     "fleet_listing",
     "record_age_days",
@@ -59,8 +61,12 @@ RESERVED_COLUMNS = RESERVED_IDS
 """CSV columns that are not station or tank ids (an aircraft file may not use them as ids)."""
 
 TRIP_COLUMN = "trip_id"
-"""CSV column grouping rows into one trip: consecutive rows of one registration with the same
-trip id are the legs of one trip, in row order (docs/fleet.md, "Trips")."""
+"""CSV column grouping rows into one trip: the rows with one trip id are the legs of one trip,
+in row order, one after another, of one aircraft (docs/fleet.md, "Trips")."""
+
+LEG_COLUMN = "leg"
+"""Optional CSV column numbering the legs of a trip (1, 2, ...): where given, a missing,
+repeated or out-of-order leg is refused (docs/fleet.md, "Trips")."""
 
 _HEADER = re.compile(r"^\s*([^\[\]]+?)\s*(?:\[\s*([^\]]+?)\s*\])?\s*$")
 
@@ -169,6 +175,12 @@ class FleetRow:
     loading: Loading | None
     problems: list[str] = field(default_factory=list)
     trip: str | None = None  # the trip id of a CSV whose rows are legs of one trip (TRIP_COLUMN)
+    lines: tuple[int, ...] = ()  # the CSV lines of a trip's rows, leg by leg (a trip of a CSV only)
+
+    def where(self, leg: int = 1) -> str:
+        """``file:line`` of the row of leg ``leg`` (the first row where not known)."""
+        line = self.lines[leg - 1] if 1 <= leg <= len(self.lines) else self.line
+        return f"{self.source}:{line}"
 
 
 def _split_header(name: str) -> tuple[str, str | None]:
@@ -219,10 +231,44 @@ def _csv_rows(path: Path, fleet: Fleet) -> tuple[Iterator[FleetRow], list[str]]:
         except UnicodeDecodeError as error:
             raise FileFormatError(f"not UTF-8 text (bad byte in the header, {error.reason})", file=path) from None
         columns, file_problems, unknown = _read_header(path, header, fleet)
+        names = [name for name, _ in columns]
+        scattered = _scattered_trips(path, names.index(TRIP_COLUMN)) if TRIP_COLUMN in names else {}
     except BaseException:
         buffered.close()
         raise
-    return _stream_rows(path, text, reader, columns, fleet, unknown), file_problems
+    return _stream_rows(path, text, reader, columns, fleet, unknown, scattered), file_problems
+
+
+def _scattered_trips(path: Path, trip_at: int) -> dict[str, list[int]]:
+    """Trip ids whose rows do not all come one after another: each with the line where each
+    of its runs of rows begins.
+
+    A quick first pass over the file, reading only the trip id of each row, so that every
+    part of such a trip is refused, the first part too (it would otherwise be checked
+    before the rest is read). It holds one entry per trip id (a few tens of bytes each).
+    A file that goes wrong part way is reported by the reading proper, at its line.
+    """
+    starts: dict[str, int] = {}
+    scattered: dict[str, list[int]] = {}
+    current: str | None = None
+    with open_regular(path, limit=MAX_CSV_BYTES) as raw, \
+            io.TextIOWrapper(raw, encoding="utf-8-sig", errors="replace", newline="") as text:
+        reader = csv.reader(text)
+        try:
+            next(reader, None)
+            for record in reader:
+                if not any(cell.strip() for cell in record):
+                    continue
+                trip = record[trip_at].strip() if trip_at < len(record) else ""
+                if trip and trip != current:
+                    if trip in starts:
+                        scattered.setdefault(trip, [starts[trip]]).append(reader.line_num)
+                    else:
+                        starts[trip] = reader.line_num
+                current = trip or None
+        except csv.Error:
+            pass
+    return scattered
 
 
 def _read_header(path: Path, header: list[str], fleet: Fleet) -> tuple[list[tuple[str, str | None]], list[str], set[str]]:
@@ -241,39 +287,37 @@ def _read_header(path: Path, header: list[str], fleet: Fleet) -> tuple[list[tupl
     if repeated:
         raise FileFormatError(f"column(s) named twice in the header: {', '.join(repeated)}", file=path)
     known = fleet.station_and_tank_ids
-    if TRIP_COLUMN in names and TRIP_COLUMN in known:
-        raise FileFormatError(f"the column {TRIP_COLUMN!r} could be the trip id or a station or tank of that name in a "
-                              "fleet aircraft: rename that station or tank", file=path)
-    unknown = [n for n in names if n and n not in RESERVED_COLUMNS and n not in known and n != TRIP_COLUMN]
+    for column, what in ((TRIP_COLUMN, "the trip id"), (LEG_COLUMN, "the leg number of a trip")):
+        if column in names and column in known:
+            raise FileFormatError(f"the column {column!r} could be {what} or a station or tank of that name in a "
+                                  "fleet aircraft: rename that station or tank", file=path)
+    if LEG_COLUMN in names and TRIP_COLUMN not in names:
+        raise FileFormatError(f"the column {LEG_COLUMN!r} numbers the legs of a trip, but the header has no "
+                              f"{TRIP_COLUMN!r} column saying which trip each row belongs to", file=path)
+    unknown = [n for n in names if n and n not in RESERVED_COLUMNS and n not in known and n not in (TRIP_COLUMN, LEG_COLUMN)]
     file_problems = [f"{path}: unknown column {name!r}: not a station or tank of any fleet aircraft, nor one of "
                      f"{', '.join(RESERVED_COLUMNS)}; rows with a value in it are refused" for name in unknown]
     return columns, file_problems, set(unknown)
 
 
 def _stream_rows(path: Path, text: io.TextIOWrapper, reader: Any, columns: list[tuple[str, str | None]], fleet: Fleet,
-                 unknown: set[str]) -> Iterator[FleetRow]:
+                 unknown: set[str], scattered: dict[str, list[int]]) -> Iterator[FleetRow]:
     count = 0
     pending: list[_RawRow] = []
-    finished: set[tuple[str | None, str]] = set()
     try:
         for record in reader:
             if not any(cell.strip() for cell in record):
                 continue
             count += 1
             raw = _csv_cells(path, reader.line_num, columns, record, fleet, unknown)
-            if pending and raw.trip is not None and raw.trip == pending[0].trip and raw.registration == pending[0].registration:
+            if pending and raw.trip is not None and raw.trip == pending[0].trip:
                 pending.append(raw)
                 continue
             if pending:
-                yield _joined(pending)
-                if pending[0].trip is not None:
-                    finished.add((pending[0].registration, pending[0].trip))
-            if raw.trip is not None and (raw.registration, raw.trip) in finished:
-                raw.problems.append(f"{raw.where}: trip {raw.trip!r} of {raw.registration} was already given above: "
-                                    "the rows of one trip come one after another")
+                yield _joined(pending, scattered)
             pending = [raw]
         if pending:
-            yield _joined(pending)
+            yield _joined(pending, scattered)
     except csv.Error as error:
         raise FileFormatError(f"CSV error at line {reader.line_num}: {error}", file=path) from None
     except UnicodeDecodeError as error:
@@ -297,14 +341,56 @@ class _RawRow:
     trip: str | None
     data: dict[str, Any]
     problems: list[str]
+    leg: int | None = None
 
 
-def _joined(rows: list[_RawRow]) -> FleetRow:
+def _lines_text(lines: Iterable[int]) -> str:
+    """``lines 2, 3 and 7`` (the rows named in a message)."""
+    shown = [str(line) for line in lines]
+    return ("line " if len(shown) == 1 else "lines ") + (
+        shown[0] if len(shown) == 1 else ", ".join(shown[:-1]) + " and " + shown[-1])
+
+
+def _trip_problems(rows: list[_RawRow], scattered: dict[str, list[int]]) -> list[str]:
+    """Why the rows of one trip id do not make one trip (fail closed: the whole trip is then
+    refused): rows of the trip id elsewhere in the file, a second aircraft, legs missing,
+    repeated or out of order where the rows number them."""
+    first = rows[0]
+    trip = first.trip
+    problems = []
+    if trip in scattered:
+        problems.append(f"{first.source}: trip {trip!r} is given in parts, with other flights between them (parts "
+                        f"beginning at {_lines_text(scattered[trip])}): the rows of one trip come one after another")
+    for row in rows[1:]:
+        if row.registration is not None and first.registration is not None and row.registration != first.registration:
+            problems.append(f"{row.where}: registration {row.registration!r} differs from the first row of trip "
+                            f"{trip!r} ({first.registration!r} at line {first.line}): a trip is flown by one aircraft")
+    if any(row.leg is not None for row in rows):
+        for expected, row in enumerate(rows, start=1):
+            if row.leg is None:
+                problems.append(f"{row.where}: no {LEG_COLUMN} number, where other rows of trip {trip!r} give one: "
+                                "number every leg of a trip or none")
+            elif row.leg != expected and expected == 1:
+                problems.append(f"{row.where}: leg {row.leg} of trip {trip!r}, but no leg 1 of that trip comes before "
+                                "it: the first row of a trip is its leg 1")
+            elif row.leg != expected:
+                problems.append(f"{row.where}: leg {row.leg} of trip {trip!r} where leg {expected} comes next: a leg is "
+                                "missing, repeated or out of order")
+    return problems
+
+
+def _joined(rows: list[_RawRow], scattered: dict[str, list[int]] | None = None) -> FleetRow:
     """One flight from one row, or one trip from the consecutive rows of one trip id: the first
     row is the first leg; each later row is the next leg, its station cells the new weights,
-    its tank cells the fuel put in at the stop, its burn cells the leg's own burn."""
+    its tank cells the fuel put in at the stop, its burn cells the leg's own burn. A trip
+    with any problem in any of its rows is refused whole, its rows named."""
     first = rows[0]
     problems = [p for row in rows for p in row.problems]
+    if first.trip is not None:
+        problems += _trip_problems(rows, scattered or {})
+        if problems:
+            problems.append(f"{first.source}: trip {first.trip!r} ({_lines_text(r.line for r in rows)}) is not checked: "
+                            "none of its legs is")
     data = first.data
     if len(rows) > 1:
         legs = []
@@ -325,7 +411,7 @@ def _joined(rows: list[_RawRow]) -> FleetRow:
         except LoadcheckError as error:
             problems += error.lines()
     return FleetRow(first.line, first.source, first.registration, first.reference, first.pilot, loading, problems,
-                    first.trip)
+                    first.trip, tuple(row.line for row in rows) if first.trip is not None else ())
 
 
 def _csv_cells(path: Path, line: int, columns: list[tuple[str, str | None]], record: list[str], fleet: Fleet,
@@ -348,8 +434,18 @@ def _csv_cells(path: Path, line: int, columns: list[tuple[str, str | None]], rec
             problems += [f"{where}: {p.describe()}" for p in error.problems]
     data: dict[str, Any] = {"load": {}, "fuel": {}, "burn": {}}
     trip = cells.get(TRIP_COLUMN, ("", None))[0] or None
+    leg_text = cells.get(LEG_COLUMN, ("", None))[0]
+    leg = None
+    if leg_text:
+        if not re.fullmatch(r"[0-9]+", leg_text) or int(leg_text) < 1:
+            problems.append(f"{where}: {LEG_COLUMN} {leg_text!r} is not a leg number (1, 2, 3, ...)")
+        elif trip is None:
+            problems.append(f"{where}: leg {leg_text} of no trip: the {TRIP_COLUMN} cell is empty, so it is not known "
+                            "which trip this row is a leg of")
+        else:
+            leg = int(leg_text)
     for name, (value, unit) in cells.items():
-        if not value or name in ("registration", "reference", "pilot", "date", TRIP_COLUMN):
+        if not value or name in ("registration", "reference", "pilot", "date", TRIP_COLUMN, LEG_COLUMN):
             continue
         text = f"{value} {unit}" if unit and _bare_number(value) else value
         if name in unknown:
@@ -368,7 +464,7 @@ def _csv_cells(path: Path, line: int, columns: list[tuple[str, str | None]], rec
             else:
                 problems.append(f"{where}: column {name!r} is not a station or tank of {registration} "
                                 f"(its stations: {', '.join(aircraft.stations)}; tanks: {', '.join(aircraft.tanks)})")
-    return _RawRow(where, line, str(path), registration, reference, pilot, trip, data, problems)
+    return _RawRow(where, line, str(path), registration, reference, pilot, trip, data, problems, leg)
 
 
 def _bare_number(text: str) -> bool:
@@ -438,35 +534,52 @@ class Flight:
         return self.result is not None and bool(self.result["ok"])
 
     @property
+    def is_trip(self) -> bool:
+        """A trip of several legs (its result is a trip's: ``legs`` and the trip's ``ok``)."""
+        return self.result is not None and "legs" in self.result
+
+    @property
     def warnings(self) -> list[str]:
-        """The check's warnings (a tank taken as empty, landing fuel below the reserve): a
-        flight within limits that has any is not simply "within"."""
+        """The check's warnings (a tank taken as empty, landing fuel below the reserve), each
+        naming its leg in a trip: a flight within limits that has any is not simply "within"."""
         if self.result is None:
             return []
         return [f["message"] for f in self.result["findings"] if f["severity"] == "warning"]
 
     def brief(self) -> Flight:
         """This flight with only what a one-line summary shows (verdict, units, each condition's
-        weight and CG, each finding's code, severity and words), for holding many flights at once."""
+        weight and CG, each finding's code, severity and words; for a trip, those of each leg),
+        for holding many flights at once."""
         row = FleetRow(self.row.line, self.row.source, self.row.registration, self.row.reference, self.row.pilot, None,
-                       self.row.problems)
+                       self.row.problems, self.row.trip, self.row.lines)
         result = None
         if self.result is not None:
-            result = {"ok": self.result["ok"], "category": self.result.get("category"), "units": self.result["units"],
-                      "conditions": [{k: c[k] for k in ("condition", "weight", "arm")} for c in self.result["conditions"]],
-                      "findings": [{k: f[k] for k in ("code", "severity", "message")} for f in self.result["findings"]]}
+            result = _brief(self.result)
+            if self.is_trip:
+                result["legs"] = [_brief(leg) | {"leg": leg["leg"], "label": leg.get("label")} for leg in self.result["legs"]]
+                del result["conditions"]
         return Flight(row, result, self.problems, self.record_id)
 
     def to_dict(self) -> dict[str, Any]:
-        """The JSON Lines object: the fields of ``check --json`` and where the flight came from."""
+        """The JSON Lines object: the fields of ``check --json`` (of a trip: ``legs`` and the trip's
+        ``ok``) and where the flight came from (a trip's ``trip_id`` and the ``lines`` of its legs)."""
         head: dict[str, Any] = {"line": self.row.line, "source": self.row.source, "registration": self.row.registration,
                                 "reference": self.row.reference, "pilot": self.row.pilot}
+        if self.row.trip is not None:
+            head |= {"trip_id": self.row.trip, "lines": list(self.row.lines)}
         if self.result is None:
             return {**head, "ok": False, "input_error": self.problems}
         body = dict(self.result)
         if self.record_id is not None:
             body["record"] = self.record_id
         return {**head, **body}
+
+
+def _brief(result: dict[str, Any]) -> dict[str, Any]:
+    """What a one-line summary shows of a check's JSON form (see :meth:`Flight.brief`)."""
+    return {"ok": result["ok"], "category": result.get("category"), "units": result["units"],
+            "conditions": [{k: c[k] for k in ("condition", "weight", "arm")} for c in result.get("conditions", ())],
+            "findings": [{k: f[k] for k in ("code", "severity", "message", "leg") if k in f} for f in result["findings"]]}
 
 
 CHUNK = 256
@@ -508,9 +621,14 @@ def _check_chunk(rows: list[FleetRow]) -> list[tuple[dict[str, Any] | None, list
             continue
         try:
             aircraft = _FLEET.aircraft(row.registration)
+            if row.loading.leg:  # a trip: every leg checked as a single loading is (check_trip)
+                from .trip import check_trip
+
+                out[index] = (check_trip(aircraft, row.loading, samples=False).to_dict(), [])
+                continue
             resolved = resolve_loading(row.loading, aircraft)
         except LoadcheckError as error:
-            out[index] = (None, [f"{row.source}:{row.line}: {p.describe()}" for p in error.problems])
+            out[index] = (None, [_row_problem(row, p) for p in error.problems])
             continue
         group = by_aircraft.setdefault(row.registration, (aircraft, [], []))
         group[1].append(index)
@@ -519,6 +637,17 @@ def _check_chunk(rows: list[FleetRow]) -> list[tuple[dict[str, Any] | None, list
         for index, result in zip(indices, check_many(aircraft, resolved_rows, samples=False)):
             out[index] = (result.to_dict(), [])
     return out
+
+
+def _row_problem(row: FleetRow, problem: Problem) -> str:
+    """A problem of a row's loading, named by its row: for a trip of a CSV, the row of the leg
+    the field belongs to (``leg[0]`` is leg 2), and the trip's rows where no leg is named."""
+    match = re.match(r"leg\[(\d+)\]", problem.field or "")
+    if match:
+        return f"{row.where(int(match.group(1)) + 2)}: {problem.describe()}"
+    if row.loading is not None and row.loading.leg and row.trip is not None:
+        return f"{row.where()}: trip {row.trip!r}: {problem.describe()}"
+    return f"{row.where()}: {problem.describe()}"
 
 
 def _end_with_parent(parent: int) -> None:
@@ -607,7 +736,7 @@ def check_flights(
                         "fingerprint": aircraft.fingerprint,
                         "inputs": row.loading.model_dump(mode="json", exclude_none=True), "result": result,
                         "registration": row.registration, "reference": row.reference, "pilot": row.pilot,
-                        "source": f"{row.source}:{row.line}", "version": version,
+                        "source": f"{row.source}:{','.join(map(str, row.lines or (row.line,)))}", "version": version,
                     }))
                 for (index, _), record_id in zip(entries, log.add_many([e for _, e in entries])):
                     ids[index] = record_id

@@ -44,7 +44,12 @@ __all__ = ["CurrentCheck", "CurrentVerification", "Record", "RecordLog", "Verifi
            "record_check", "results_match", "verify", "verify_current"]
 
 _COLUMNS = ("id, checked_at, registration, reference, pilot, source, category, ok, fingerprint, inputs, result, version, "
-            "seal")
+            "seal, legs")
+
+_LISTED = "id, checked_at, registration, reference, pilot, ok, fingerprint, legs"
+"""The columns a listing shows, in the order of the covering index ``checks_listing``: a listing
+reads that index alone (a few dozen bytes a record), never the table's rows with their stored
+results (kilobytes each)."""
 
 
 def _seal(checked_at: str, registration: str | None, reference: str | None, pilot: str | None, source: str | None,
@@ -71,7 +76,8 @@ CREATE TABLE IF NOT EXISTS checks (
     inputs TEXT NOT NULL,
     result TEXT NOT NULL,
     version TEXT NOT NULL,
-    seal TEXT
+    seal TEXT,
+    legs INTEGER
 );
 CREATE INDEX IF NOT EXISTS checks_by_registration ON checks(registration, checked_at);
 CREATE INDEX IF NOT EXISTS checks_by_time ON checks(checked_at);
@@ -114,6 +120,7 @@ class Record:
     version: str
     seal: str | None = None
     stored: tuple[Any, ...] = ()  # the row as stored, for the seal
+    legs: int | None = None  # legs of the loading recorded (None: recorded before trips were, one leg)
 
     def summary(self) -> dict[str, Any]:
         """The record without its inputs and result, for listings."""
@@ -154,6 +161,9 @@ class RecordLog:
             columns = {row[1] for row in self._db.execute("PRAGMA table_info(checks)")}
             if "seal" not in columns:  # a database made before records were sealed
                 self._db.execute("ALTER TABLE checks ADD COLUMN seal TEXT")
+            if "legs" not in columns:  # made before trips were recorded: every record is one leg (NULL)
+                self._db.execute("ALTER TABLE checks ADD COLUMN legs INTEGER")
+            self._db.execute(f"CREATE INDEX IF NOT EXISTS checks_listing ON checks({_LISTED})")
             self._db.execute("COMMIT")
         except sqlite3.Error:
             self._db.execute("ROLLBACK")
@@ -205,14 +215,15 @@ class RecordLog:
                     self._db.execute("INSERT OR IGNORE INTO aircraft_data (fingerprint, data) VALUES (?, ?)",
                                      (fingerprint, json.dumps(data, sort_keys=True, separators=(",", ":"))))
                 result = record["result"]
+                legs = 1 + len(record["inputs"].get("leg") or ())
                 values = (now, record.get("registration"), record.get("reference"), record.get("pilot"),
                           record.get("source"), result.get("category"), int(bool(result.get("ok"))), fingerprint,
                           json.dumps(record["inputs"], separators=(",", ":"), default=str),
                           json.dumps(result, separators=(",", ":")), record.get("version", ""))
                 cursor = self._db.execute(
                     "INSERT INTO checks (checked_at, registration, reference, pilot, source, category, ok, fingerprint, "
-                    "inputs, result, version, seal) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)",
-                    (*values, _seal(*values)),
+                    "inputs, result, version, seal, legs) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)",
+                    (*values, _seal(*values), legs),
                 )
                 ids.append(int(cursor.lastrowid or 0))
             self._db.execute("COMMIT")
@@ -228,7 +239,7 @@ class RecordLog:
         return Record(
             id=row[0], checked_at=row[1], registration=row[2], reference=row[3], pilot=row[4], source=row[5],
             category=row[6], ok=bool(row[7]), fingerprint=row[8], inputs=json.loads(row[9]), result=json.loads(row[10]),
-            version=row[11], seal=row[12], stored=tuple(row[1:12]),
+            version=row[11], seal=row[12], stored=tuple(row[1:12]), legs=row[13],
         )
 
     def get(self, record_id: int) -> Record:
@@ -258,11 +269,16 @@ class RecordLog:
         for row in self._select(_COLUMNS, since, until, registration):
             yield self._row(row)
 
-    def listing(self, *, since: dt.date | None = None, until: dt.date | None = None,
-                registration: str | None = None) -> Iterator[tuple[int, str, str | None, str | None, str | None, int, str]]:
-        """What a listing shows of each record, in order, without reading its inputs and result:
-        (id, checked_at, registration, reference, pilot, ok (1 or 0), fingerprint); the filters of :meth:`find`."""
-        return self._select("id, checked_at, registration, reference, pilot, ok, fingerprint", since, until, registration)
+    def listing(self, *, since: dt.date | None = None, until: dt.date | None = None, registration: str | None = None
+                ) -> Iterator[tuple[int, str, str | None, str | None, str | None, int, str, int]]:
+        """What a listing shows of each record, in order, without reading its result:
+        (id, checked_at, registration, reference, pilot, ok (1 or 0), fingerprint, legs); the filters of :meth:`find`.
+
+        ``legs`` is the number of legs of the loading recorded: 1 for a single loading (and for
+        a record made before trips were recorded), the legs of a trip. Read from the covering
+        index ``checks_listing`` alone.
+        """
+        return self._select(_LISTED.replace("legs", "coalesce(legs, 1)"), since, until, registration)
 
     def _select(self, columns: str, since: dt.date | None, until: dt.date | None,
                 registration: str | None) -> Iterator[tuple[Any, ...]]:
@@ -283,13 +299,16 @@ class RecordLog:
 def record_check(log: RecordLog, inputs: Any, result: Any, *, source: str, version: str, pilot: str | None = None) -> int:
     """Record one check: the loading as given (file and options or form merged) and the full result.
 
-    The one way a single check is recorded, for every front end (``check --record``, the web desk).
+    The one way a check is recorded, for every front end (``check --record``, the web desk):
+    a single loading with its :class:`~loadcheck.results.CheckResult`, or a trip of several
+    legs with its :class:`~loadcheck.results.TripResult` (one record: the trip's inputs, every
+    leg in them, and the trip's result; its verdict is the trip's).
 
     Parameters
     ----------
     log : the record log to append to
     inputs : the :class:`~loadcheck.files.CheckInputs` that were checked
-    result : the :class:`~loadcheck.results.CheckResult` of ``inputs``
+    result : the :class:`~loadcheck.results.CheckResult` or :class:`~loadcheck.results.TripResult` of ``inputs``
     source : where the loading came from (a file name, "command line", "web desk")
     version : the loadcheck version that made the check
     pilot : who recorded it, where the loading does not name its pilot
@@ -300,29 +319,44 @@ def record_check(log: RecordLog, inputs: Any, result: Any, *, source: str, versi
         The new record's id.
     """
     given = inputs.given
+    data = result.to_dict()
+    if given is not None and bool(given.leg) != ("legs" in data):
+        raise InputError(Problem("result", "the result is not the check of these inputs: a trip of several legs is "
+                                           "recorded with its trip check, a single loading with its single check"))
     return log.add(
         aircraft_data=inputs.aircraft.model_dump(mode="json"), fingerprint=inputs.aircraft.fingerprint,
-        inputs=given.model_dump(mode="json", exclude_none=True), result=result.to_dict(),
+        inputs=given.model_dump(mode="json", exclude_none=True), result=data,
         registration=inputs.aircraft.registration, reference=given.reference or given.label, pilot=given.pilot or pilot,
         source=source, version=version,
     )
 
 
 _CSV_HEAD = ["id", "checked_at", "registration", "reference", "pilot", "source", "category", "ok", "fingerprint",
-             "mass_unit", "arm_unit", "takeoff_weight", "takeoff_arm", "landing_weight", "landing_arm", "first_finding"]
+             "mass_unit", "arm_unit", "takeoff_weight", "takeoff_arm", "landing_weight", "landing_arm", "first_finding",
+             "legs", "leg", "leg_ok"]
 
 
-def _csv_row(record: Record) -> list[Any]:
+def _csv_lines(record: Record) -> list[list[Any]]:
     """One record's key figures: takeoff and landing weight and arm in the units of the record's
-    aircraft (named in its own columns: a fleet may mix lb/in and kg/m), the first limit finding."""
-    conditions = {c["condition"]: c for c in record.result.get("conditions", [])}
-    takeoff, landing = conditions.get("takeoff", {}), conditions.get("landing", {})
-    first = next((f["message"] for f in record.result.get("findings", []) if f["severity"] == "limit"), "")
+    aircraft (named in its own columns: a fleet may mix lb/in and kg/m), the first limit finding.
+
+    A single loading is one line (``legs`` 1, ``leg`` and ``leg_ok`` empty). A trip is one
+    line per leg: the record's fields (``ok`` the trip's verdict) with that leg's figures and
+    first limit finding, its number and its own verdict."""
     units = record.result.get("units", {})
-    return [record.id, record.checked_at, record.registration, record.reference, record.pilot, record.source,
-            record.category, record.ok, record.fingerprint, units.get("mass"), units.get("arm"),
-            takeoff.get("weight"), takeoff.get("arm"),
-            landing.get("weight"), landing.get("arm"), first]
+    head = [record.id, record.checked_at, record.registration, record.reference, record.pilot, record.source,
+            record.category, record.ok, record.fingerprint, units.get("mass"), units.get("arm")]
+
+    def figures(check: dict[str, Any]) -> list[Any]:
+        conditions = {c["condition"]: c for c in check.get("conditions", [])}
+        takeoff, landing = conditions.get("takeoff", {}), conditions.get("landing", {})
+        first = next((f["message"] for f in check.get("findings", []) if f["severity"] == "limit"), "")
+        return [takeoff.get("weight"), takeoff.get("arm"), landing.get("weight"), landing.get("arm"), first]
+
+    legs = record.result.get("legs")
+    if legs is None:
+        return [head + figures(record.result) + [1, "", ""]]
+    return [head + figures(leg) + [len(legs), leg["leg"], bool(leg["ok"])] for leg in legs]
 
 
 def export_text(records: Iterable[Record], format: str) -> str:
@@ -334,7 +368,8 @@ def export_text(records: Iterable[Record], format: str) -> str:
     elif format == "csv":
         writer = csv.writer(buffer)
         writer.writerow(_CSV_HEAD)
-        writer.writerows(_csv_row(r) for r in records)
+        for r in records:
+            writer.writerows(_csv_lines(r))
     else:
         raise ValueError(f"unknown export format {format!r} (csv or jsonl)")
     return buffer.getvalue()
@@ -375,13 +410,18 @@ class Verification(Result):
 
 
 def _check_again(aircraft: Any, inputs: dict[str, Any], where: str) -> Any:
-    """The recorded loading (its inputs) checked against an aircraft: the CheckResult."""
+    """The recorded loading (its inputs) checked against an aircraft: the CheckResult, or for a
+    trip of several legs the TripResult (:func:`~loadcheck.trip.check_trip`, every leg)."""
     from .check import check_loading
     from .files import parse_loading
     from .loading import resolve_loading
 
     loading = parse_loading(inputs, where)
     try:
+        if loading.leg:
+            from .trip import check_trip
+
+            return check_trip(aircraft, loading, samples=False)
         resolved = resolve_loading(loading, aircraft)
     except LoadcheckError as error:
         raise error.with_file(where) from None
@@ -419,6 +459,11 @@ def verify(log: RecordLog, record_id: int) -> Verification:
     if record.registration != aircraft.registration:
         differences.append(f"the stored registration {record.registration!r} is not the recorded aircraft data's "
                            f"{aircraft.registration!r}")
+    legs = 1 + len(record.inputs.get("leg") or ())
+    stored_legs = 1 if record.legs is None else record.legs
+    if stored_legs != legs or len(again.get("legs", (again,))) != legs:
+        differences.append(f"the stored number of legs ({stored_legs}, which records list shows) is not the recorded "
+                           f"loading's ({legs})")
     given = record.inputs.get("registration")
     if given is not None and given != record.registration:
         differences.append(f"the stored registration {record.registration!r} is not the loading's {given!r}")

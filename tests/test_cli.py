@@ -239,3 +239,54 @@ def test_public_api_exposes_every_job_without_loading_them_at_start():
             "print(most_fuel.__module__)")
     run = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=False)
     assert run.returncode == 0 and "loadcheck.planning" in run.stdout, run.stderr
+
+
+_STARTUP = """
+import sys
+sys.argv = ["loadcheck", "check", sys.argv[1], "--json"]
+import loadcheck.cli as cli
+try:
+    cli.main()
+except SystemExit as stop:
+    code = stop.code
+loaded = [name for name in ("importlib.metadata", "rich", "matplotlib") if name in sys.modules]
+print(code, loaded, file=sys.stderr)
+"""
+
+
+def test_check_json_starts_without_importlib_metadata_rich_or_matplotlib(tmp_path):
+    """Start-up (issue 18 item 4): pydantic's plugin loader imported importlib.metadata (about
+    9 ms) to find no plugin; with plugins disabled its stand-in answers the same."""
+    from .test_trip import trip_fleet
+
+    loading = trip_fleet(tmp_path / "fleet") / "trip.toml"
+    done = subprocess.run([sys.executable, "-c", _STARTUP, str(loading)], capture_output=True, text=True, check=True)
+    assert done.stderr.strip() == "1 []", done.stderr
+    assert json.loads(done.stdout)["ok"] is False
+
+
+def test_pydantic_plugins_enabled_by_the_user_are_still_looked_for(tmp_path):
+    import os
+
+    from .test_trip import trip_fleet
+
+    loading = trip_fleet(tmp_path / "fleet") / "trip.toml"
+    env = {**os.environ, "PYDANTIC_DISABLE_PLUGINS": ""}  # the user's value is kept: plugins on
+    done = subprocess.run([sys.executable, "-c", _STARTUP, str(loading)], capture_output=True, text=True, check=True,
+                          env=env)
+    assert done.stderr.startswith("1 ['importlib.metadata']"), done.stderr
+
+
+def test_the_plugin_loader_stand_in_hands_over_when_plugins_are_enabled(monkeypatch):
+    import sys as system
+
+    import loadcheck.cli as cli
+
+    monkeypatch.delitem(system.modules, "pydantic.plugin._loader", raising=False)
+    cli._plugin_loader_without_metadata()
+    stand_in = system.modules["pydantic.plugin._loader"]
+    monkeypatch.setenv("PYDANTIC_DISABLE_PLUGINS", "1")
+    assert stand_in.get_plugins() == ()
+    monkeypatch.setenv("PYDANTIC_DISABLE_PLUGINS", "")
+    assert list(stand_in.get_plugins()) == []  # no plugin is installed here: the real loader finds none
+    assert system.modules["pydantic.plugin._loader"] is not stand_in  # the real loader is in place now

@@ -486,3 +486,92 @@ def test_a_large_batch_holds_blas_to_one_thread(monkeypatch):
         after = [i["num_threads"] for i in threadpool_info() if i["user_api"] == "blas"]
     assert seen and all(threads == [1] * len(threads) for threads in seen), seen
     assert after == [2] * len(after)  # the limit is lifted afterwards: the caller's setting is theirs
+
+
+# -- trips of several legs (issue 16): the test aircraft and figures of tests/test_trip.py --------
+
+
+def test_a_fleet_trip_whose_second_leg_fails_exits_1_naming_leg_2(tmp_path):
+    from loadcheck.trip import check_trip
+
+    from .test_trip import trip_fleet
+
+    folder = trip_fleet(tmp_path / "fleet")
+    done = runner.invoke(app, ["fleet", "check", str(folder), str(folder / "day.csv"), "--json", "--no-record"])
+    assert done.exit_code == 1, done.output
+    trip, single = _json_lines(done.stdout)
+    assert trip["trip_id"] == "A" and trip["lines"] == [2, 3] and trip["reference"] == "F1" and trip["ok"] is False
+    assert [leg["ok"] for leg in trip["legs"]] == [True, False] and single["ok"] is True
+    limits = [f for f in trip["findings"] if f["severity"] == "limit"]
+    assert limits and all(f["leg"] == 2 and f["message"].startswith("leg 2: ") for f in limits)
+    assert {f["condition"] for f in limits} >= {"ramp", "takeoff", "landing"}
+    # hand-worked (tests/test_trip.py): leg 2 ramp 1,694 lb at 146,860 / 1,694 in
+    ramp = next(c for c in trip["legs"][1]["conditions"] if c["condition"] == "ramp")
+    assert ramp["weight"] == pytest.approx(1694.0) and ramp["arm"] == pytest.approx(146860 / 1694)
+    # the table: the trip's verdict, then each leg with its line, verdict and first finding named by leg and condition
+    table = runner.invoke(app, ["fleet", "check", str(folder), str(folder / "day.csv"), "--no-record"],
+                          env={"COLUMNS": "200"})
+    assert table.exit_code == 1
+    text = table.stdout
+    assert "OUT (trip A, 2 legs)" in text and "leg 1: within" in text and "leg 2: OUT" in text
+    assert "leg 2: ramp CG 86.7" in text and "is aft of the aft limit" in text and "1 out of limits" in text
+    # the library: the same trip through check_trip, field for field
+    fleet = load_fleet(folder)
+    rows = list(read_loadings(folder / "day.csv", fleet)[0])
+    assert trip == json.loads(json.dumps(check_flights(fleet, rows[:1]).__next__().to_dict()))
+    expected = check_trip(fleet.aircraft("TEST-T"), rows[0].loading, samples=False).to_dict()
+    assert {k: v for k, v in trip.items() if k in expected} == expected
+
+
+def test_fleet_trip_results_are_check_trip_of_the_same_loading_file(tmp_path):
+    from loadcheck import load_check_inputs
+    from loadcheck.trip import check_trip
+
+    from .test_trip import trip_fleet
+
+    folder = trip_fleet(tmp_path / "fleet")
+    fleet = load_fleet(folder)
+    flight = next(check_flights(fleet, read_loadings(folder / "day.csv", fleet)[0]))
+    inputs = load_check_inputs(folder / "trip.toml", allow_trip=True)
+    from_file = check_trip(inputs.aircraft, inputs.trip, samples=False).to_dict()
+    assert flight.result == from_file
+    # a folder of loading files takes the same trip (a loading file with [[leg]] tables)
+    loadings = tmp_path / "loadings"
+    loadings.mkdir()
+    (loadings / "trip.toml").write_text('registration = "TEST-T"\n' + (folder / "trip.toml").read_text()
+                                        .replace('aircraft = "aircraft.toml"\n', ""))
+    from_folder = next(check_flights(fleet, read_loadings(loadings, fleet)[0]))
+    assert from_folder.result == from_file
+
+
+@pytest.mark.parametrize(("rows", "words"), [
+    # a gap in the numbered legs
+    (["TEST-T,F1,A,1,180,0,30,1,10", "TEST-T,,A,3,,400,,1,10"], ["day.csv:3: leg 3 of trip 'A' where leg 2 comes next"]),
+    # a leg row for a trip not begun
+    (["TEST-T,F1,A,2,180,0,30,1,10"], ["day.csv:2: leg 2 of trip 'A', but no leg 1"]),
+    # a leg number with no trip
+    (["TEST-T,F1,,2,180,0,30,1,10"], ["day.csv:2: leg 2 of no trip"]),
+    # two aircraft in one trip
+    (["TEST-T,F1,A,1,180,0,30,1,10", "TEST-U,,A,2,,400,,1,10"],
+     ["day.csv:3: registration 'TEST-U' differs from the first row of trip 'A' ('TEST-T' at line 2)"]),
+    # a trip in parts, with another flight between them: both parts refused
+    (["TEST-T,F1,A,,180,0,30,1,10", "TEST-T,F2,,,180,0,20,1,5", "TEST-T,,A,,,400,,1,10"],
+     ["trip 'A' is given in parts", "lines 2 and 4", "trip 'A' (line 2) is not checked", "trip 'A' (line 4) is not checked"]),
+])
+def test_a_malformed_trip_is_refused_whole_naming_its_rows(tmp_path, rows, words):
+    from .test_trip import trip_fleet
+
+    folder = trip_fleet(tmp_path / "fleet")
+    (folder / "other.toml").write_text((folder / "aircraft.toml").read_text().replace("TEST-T", "TEST-U"))
+    day = folder / "day.csv"
+    day.write_text("\n".join([TRIP_HEADER, *rows]) + "\n")
+    done = runner.invoke(app, ["fleet", "check", str(folder), str(day), "--json", "--no-record"])
+    assert done.exit_code == 2, done.output
+    refused = [line for line in _json_lines(done.stdout) if "input_error" in line]
+    assert refused and all("legs" not in line for line in _json_lines(done.stdout) if line.get("trip_id") == "A")
+    for word in words:
+        assert word in done.stderr, (word, done.stderr)
+    assert ("is not checked: none of its legs is" in done.stderr) == (",A," in "".join(rows))
+
+
+TRIP_HEADER = "registration,reference,trip_id,leg,front,rear,main,taxi,trip"

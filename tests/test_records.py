@@ -64,6 +64,7 @@ def test_an_untouched_record_is_reproduced(db):
         ("pilot", "someone else", "seal"),
         ("source", "elsewhere.toml", "seal"),
         ("checked_at", "2020-01-01T00:00:00+00:00", "seal"),
+        ("legs", 2, "stored number of legs"),  # the count records list shows, outside the seal
     ],
 )
 def test_verify_finds_an_edit_to_any_stored_column(db, column, value, words):
@@ -188,3 +189,125 @@ def test_a_long_listing_reads_only_what_it_shows(db):
     from loadcheck.caution import PILOT_CAUTION
 
     assert " ".join(result.stdout.split()).endswith("CAUTION: " + " ".join(PILOT_CAUTION.split()))
+
+
+# -- trips of several legs (issue 16): the test aircraft and figures of tests/test_trip.py --------
+
+
+def test_a_trip_is_recorded_verified_listed_and_exported_as_one_record(db, tmp_path):
+    from loadcheck import load_check_inputs
+    from loadcheck.records import record_check
+    from loadcheck.trip import check_trip
+
+    from .test_trip import trip_fleet
+
+    folder = trip_fleet(tmp_path / "fleet")
+    inputs = load_check_inputs(folder / "trip.toml", allow_trip=True)
+    trip = check_trip(inputs.aircraft, inputs.trip)
+    with RecordLog(db) as log:  # the library's one recording job, as the web desk calls it
+        first = record_check(log, inputs, trip, source="trip.toml", version="test")
+    checked = runner.invoke(app, ["check", str(folder / "trip.toml"), "--record", str(db)])  # the command line
+    assert checked.exit_code == 1 and "recorded as 2" in checked.stderr
+    flown = runner.invoke(app, ["fleet", "check", str(folder), str(folder / "day.csv"), "--record", str(db)])
+    assert flown.exit_code == 1 and "2 check(s) recorded" in flown.stderr  # the trip and the single flight
+    with RecordLog(db) as log:
+        records = list(log.find())
+        assert len(records) == 4
+        for record in records[:3]:  # each trip is one record: its inputs (every leg), the trip's result
+            assert record.result == trip.to_dict() and record.ok is False and len(record.inputs["leg"]) == 1
+            assert record.fingerprint == inputs.aircraft.fingerprint
+            verification = verify(log, record.id)
+            assert verification.reproduced and verification.ok is False, verification.differences
+        assert records[2].source.endswith("day.csv:2,3") and records[2].reference == "F1"
+        assert [r[-1] for r in log.listing()] == [2, 2, 2, 1]
+    listed = runner.invoke(app, ["records", "list"], env={"COLUMNS": "200"})
+    assert listed.exit_code == 0 and listed.stdout.count("OUT OF LIMITS (2 legs)") == 3
+    assert runner.invoke(app, ["records", "verify", str(first)]).exit_code == 0
+    # CSV: a line per leg, the trip's verdict in ok, each leg's own figures and verdict
+    rows = list(csv.DictReader(runner.invoke(app, ["records", "export", "--format", "csv"]).stdout.splitlines()))
+    assert [(r["id"], r["legs"], r["leg"], r["ok"], r["leg_ok"]) for r in rows] == [
+        (str(i), "2", leg, "False", ok) for i in (1, 2, 3) for leg, ok in (("1", "True"), ("2", "False"))
+    ] + [("4", "1", "", "True", "")]
+    # hand-worked (tests/test_trip.py): leg 2 takeoff 1,688 lb at 146,320 / 1,688 in, landing 1,628 lb
+    assert float(rows[1]["takeoff_weight"]) == pytest.approx(1688.0)
+    assert float(rows[1]["takeoff_arm"]) == pytest.approx(146320 / 1688)
+    assert float(rows[1]["landing_weight"]) == pytest.approx(1628.0) and rows[1]["first_finding"].startswith("aft") is False
+    assert "aft of the aft limit" in rows[1]["first_finding"] and rows[0]["first_finding"] == ""
+    lines = [json.loads(line) for line in runner.invoke(app, ["records", "export"]).stdout.splitlines()]
+    assert lines[0]["result"] == trip.to_dict() and lines[0]["inputs"]["leg"] and "legs" not in lines[3]["result"]
+
+
+def test_a_trip_record_with_an_edited_leg_is_not_reproduced(db, tmp_path):
+    from .test_trip import trip_fleet
+
+    folder = trip_fleet(tmp_path / "fleet")
+    assert runner.invoke(app, ["check", str(folder / "trip.toml"), "--record", str(db)]).exit_code == 1
+    with RecordLog(db) as log:
+        stored = log.get(1).result
+    stored["legs"][1]["ok"] = True
+    _tamper(db, "UPDATE checks SET result = ? WHERE id = 1", json.dumps(stored))
+    result = runner.invoke(app, ["records", "verify", "1"])
+    assert result.exit_code == 1 and "stored result differs" in result.output
+
+
+def test_single_records_are_unchanged_by_trips(db):
+    """A single loading is recorded, listed, exported and verified as before trips were
+    recorded: its result is check_loading's, one CSV line with legs 1 and no leg number."""
+    from loadcheck import check_loading, load_check_inputs
+
+    record_id = _record(db, "trainer4/within.toml")
+    inputs = load_check_inputs(sample("trainer4/within.toml"))
+    with RecordLog(db) as log:
+        record = log.get(record_id)
+        assert record.result == check_loading(inputs.aircraft, inputs.loading).to_dict() and not record.inputs.get("leg")
+        assert next(iter(log.listing()))[-1] == 1 and verify(log, record_id).reproduced
+    (row,) = csv.DictReader(runner.invoke(app, ["records", "export", "--format", "csv"]).stdout.splitlines())
+    assert (row["legs"], row["leg"], row["leg_ok"]) == ("1", "", "")
+    takeoff = check_loading(inputs.aircraft, inputs.loading).condition("takeoff")
+    assert float(row["takeoff_weight"]) == pytest.approx(takeoff.weight)
+
+
+def test_a_trip_result_is_not_recorded_against_single_inputs(db, tmp_path):
+    from loadcheck import load_check_inputs
+    from loadcheck.errors import InputError
+    from loadcheck.records import record_check
+    from loadcheck.trip import check_trip
+
+    from .test_trip import trip_fleet
+
+    folder = trip_fleet(tmp_path / "fleet")
+    trip_inputs = load_check_inputs(folder / "trip.toml", allow_trip=True)
+    single = load_check_inputs(sample("trainer4/within.toml"))
+    with RecordLog(db) as log, pytest.raises(InputError, match="not the check of these inputs"):
+        record_check(log, single, check_trip(trip_inputs.aircraft, trip_inputs.trip), source="x", version="test")
+
+
+def test_a_trip_recorded_within_limits_is_checked_against_the_current_data(db, tmp_path):
+    from .test_trip import trip_fleet
+
+    folder = trip_fleet(tmp_path / "fleet")
+    within = folder / "within.toml"
+    within.write_text((folder / "trip.toml").read_text().replace("rear = 400", "rear = 100"))
+    assert runner.invoke(app, ["check", str(within), "--record", str(db)]).exit_code == 0
+    aircraft = folder / "aircraft.toml"
+    # a new weighing, 700 lb heavier (invented): leg 1 alone now weighs 1,700 + 180 + 180 = 2,060 lb at the ramp
+    aircraft.write_text(aircraft.read_text().replace("weight = 1000.0", "weight = 1700.0"))
+    result = runner.invoke(app, ["records", "verify", "--current", str(folder), "--json"])
+    assert result.exit_code == 1, result.output
+    (check,) = json.loads(result.stdout)["checks"]
+    assert check["data_changed"] and check["recorded_ok"] and check["current_ok"] is False
+    assert any(f.startswith("leg 1: ramp weight 2,060.0 lb exceeds") for f in check["current_findings"])
+
+
+def test_records_list_does_not_load_the_aircraft_models(db, tmp_path):
+    """Start-up of a listing: render/terminal.py imported the aircraft models (pydantic schema
+    building, numpy, shapely) for type hints alone."""
+    import subprocess
+    import sys
+
+    _record(db, "trainer4/within.toml")
+    code = ("import sys; sys.argv = ['loadcheck', 'records', 'list', '--db', sys.argv[1]]\n"
+            "import loadcheck.cli as cli\ntry:\n    cli.main()\nexcept SystemExit as stop:\n    code = stop.code\n"
+            "print(code, [m for m in ('numpy', 'shapely', 'loadcheck.aircraft') if m in sys.modules], file=sys.stderr)")
+    done = subprocess.run([sys.executable, "-c", code, str(db)], capture_output=True, text=True, check=True, cwd=tmp_path)
+    assert done.stderr.strip() == "0 []", done.stderr

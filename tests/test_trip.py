@@ -382,7 +382,7 @@ def test_the_fleet_csv_groups_the_rows_of_a_trip(tmp_path):
     path.write_text(TRIP_CSV)
     fleet = load_fleet(sample(""))
     rows = list(read_loadings(path, fleet)[0])
-    assert [(r.line, r.trip, r.reference) for r in rows] == [(2, "A", "T1"), (4, None, "T2")]
+    assert [(r.line, r.trip, r.reference, r.lines) for r in rows] == [(2, "A", "T1", (2, 3)), (4, None, "T2", ())]
     trip = rows[0].loading
     assert trip is not None and len(trip.leg) == 1 and not rows[0].problems
     assert trip.leg[0].load == {"left": "0", "bag_left": "0"} and trip.leg[0].add_fuel == {"main": "5"}
@@ -392,26 +392,134 @@ def test_the_fleet_csv_groups_the_rows_of_a_trip(tmp_path):
     inputs = load_check_inputs(sample("heli2/trip_drop_off.toml"), allow_trip=True)
     from_file = check_trip(inputs.aircraft, inputs.trip)
     assert [leg.check.to_dict() for leg in from_csv.legs] == [leg.check.to_dict() for leg in from_file.legs]
-    # until the fleet check checks trips, a trip row is refused there, never checked as its first leg alone
+    # the fleet check checks the trip as check_trip does, every leg, never its first leg alone
     flights = list(check_flights(fleet, rows))
-    assert flights[0].result is None and "trip of 2 legs" in " ".join(flights[0].problems)
-    assert flights[1].result is not None
+    assert flights[0].result == check_trip(aircraft, trip, samples=False).to_dict()
+    assert len(flights[0].result["legs"]) == 2 and flights[0].to_dict()["lines"] == [2, 3]
+    assert flights[1].result is not None and "legs" not in flights[1].result
 
 
 def test_rows_of_one_trip_come_together(tmp_path):
+    """Regression: a trip id given again after another flight refused only its later part, and
+    its first part was checked as a trip of fewer legs; now every part is refused."""
     from loadcheck.fleet import load_fleet, read_loadings
 
     lines = TRIP_CSV.splitlines()
     path = tmp_path / "day.csv"
     path.write_text("\n".join([lines[0], lines[1], lines[3], lines[2].replace(",,A,", ",T9,A,")]) + "\n")
     rows = list(read_loadings(path, load_fleet(sample("")))[0])
-    assert len(rows) == 3 and rows[2].loading is None and "already given above" in rows[2].problems[0]
+    assert len(rows) == 3 and rows[1].loading is not None
+    for row in (rows[0], rows[2]):
+        words = " ".join(row.problems)
+        assert row.loading is None and "given in parts" in words and "lines 2 and 4" in words and "is not checked" in words
 
 
-def test_a_trip_is_not_recorded_as_one_leg_and_plots_every_leg(tmp_path):
+def test_a_trip_is_recorded_as_one_record_and_plots_every_leg(tmp_path):
     path = str(sample("heli2/trip_drop_off.toml"))
-    refused = runner.invoke(app, ["check", path, "--record", str(tmp_path / "log.db")])
-    assert refused.exit_code == 2 and "cannot be recorded yet" in refused.output
-    assert not (tmp_path / "log.db").exists()
+    recorded = runner.invoke(app, ["check", path, "--record", str(tmp_path / "log.db"), "--json"])
+    assert recorded.exit_code == 0 and "recorded as 1" in recorded.stderr
+    from loadcheck.records import RecordLog
+
+    with RecordLog(tmp_path / "log.db") as log:
+        record = log.get(1)
+        assert record.result == json.loads(recorded.stdout) and len(record.inputs["leg"]) == 1
     plotted = runner.invoke(app, ["check", path, "--plot"])
     assert plotted.exit_code == 0 and plotted.output.count("Leg ") >= 2
+
+
+# -- trips through the dispatcher's and the recording jobs (issue 16) --------------------------
+#
+# A test aircraft of our own (lb, in, US gal), written into tmp_path, so that the figures
+# below can be worked by hand with the moment method of FAA-H-8083-1B (2016) ch. 2
+# (moment = weight x arm; CG = total moment / total weight). Its limits are INVENTED:
+# empty 1,000 lb at 80 in; front seats 70 in, rear seats 110 in (each at most 400 lb); one
+# tank at 90 in, 40 US gal of avgas at 6.0 lb/US gal (common practice, ASTM D910 grade
+# density as the trade uses it); maximum takeoff weight 1,800 lb; CG 74 to 86 in from
+# 1,000 to 1,800 lb.
+#
+# Trip "A": leg 1, the pilot (180 lb front), 30 gal, taxi 1, trip 10: ramp 1,360 lb,
+# 108,800 lb-in, CG 80.00 in (within); it lands with 19 gal. Leg 2: two passengers board
+# the rear seats (400 lb), no fuel put in, taxi 1, trip 10: ramp 1,000 + 180 + 400 + 114 =
+# 1,694 lb, 80,000 + 12,600 + 44,000 + 10,260 = 146,860 lb-in, CG 86.69 in (aft of 86);
+# takeoff 1,688 lb, 146,320 lb-in, 86.68 in; landing (8 gal, 48 lb) 1,628 lb, 140,920 lb-in,
+# 86.56 in: leg 2 alone is out of limits, aft, at every condition.
+
+TRIP_AIRCRAFT = """format = 1
+name = "Trip test box (invented)"
+registration = "TEST-T"
+[units]
+mass = "lb"
+arm = "in"
+fuel_volume = "usgal"
+[empty]
+weight = 1000.0
+arm = 80.0
+date = 2026-11-01
+[limits]
+max_takeoff_weight = 1800
+[[station]]
+id = "front"
+kind = "seat"
+arm = 70.0
+max_weight = 400
+[[station]]
+id = "rear"
+kind = "seat"
+arm = 110.0
+max_weight = 400
+[[tank]]
+id = "main"
+arm = 90.0
+usable = 40.0
+fuel = "avgas"
+[[envelope]]
+category = "normal"
+axes = ["arm", "weight"]
+points = [[74.0, 1000], [74.0, 1800], [86.0, 1800], [86.0, 1000]]
+"""
+
+TRIP_DAY = """registration,reference,trip_id,leg,front,rear,main,taxi,trip
+TEST-T,F1,A,1,180,0,30,1,10
+TEST-T,,A,2,,400,,1,10
+TEST-T,F2,,,180,0,20,1,5
+"""
+
+TRIP_LOADING = """format = 1
+aircraft = "aircraft.toml"
+[load]
+front = 180
+rear = 0
+[fuel]
+main = 30
+[burn]
+taxi = 1
+trip = 10
+[[leg]]
+load = { rear = 400 }
+burn = { taxi = 1, trip = 10 }
+"""
+
+
+def trip_fleet(folder):
+    """Write the test aircraft, the day (a trip whose leg 2 fails, then a single flight) and
+    the trip as a loading file into ``folder``; return the folder."""
+    folder.mkdir(parents=True, exist_ok=True)
+    (folder / "aircraft.toml").write_text(TRIP_AIRCRAFT)
+    (folder / "day.csv").write_text(TRIP_DAY)
+    (folder / "trip.toml").write_text(TRIP_LOADING)
+    return folder
+
+
+def test_the_hand_worked_trip_of_the_test_aircraft(tmp_path):
+    inputs = load_check_inputs(trip_fleet(tmp_path / "fleet") / "trip.toml", allow_trip=True)
+    result = check_trip(inputs.aircraft, inputs.trip)
+    one, two = result.legs
+    assert one.check.ok and not two.check.ok and not result.ok
+    assert one.check.condition("ramp").weight == pytest.approx(1360.0)
+    assert one.check.condition("ramp").arm == pytest.approx(108800 / 1360)
+    assert two.check.condition("ramp").arm == pytest.approx(146860 / 1694)
+    assert two.check.condition("takeoff").arm == pytest.approx(146320 / 1688)
+    assert two.check.condition("landing").weight == pytest.approx(1628.0)
+    assert two.check.condition("landing").arm == pytest.approx(140920 / 1628)
+    assert {f.condition for f in result.limits_exceeded} >= {"ramp", "takeoff", "landing"}
+    assert all(f.leg == 2 for f in result.limits_exceeded)

@@ -20,6 +20,51 @@ for _name in ("OPENBLAS_NUM_THREADS", "OMP_NUM_THREADS", "MKL_NUM_THREADS"):
 # uses none. A value the user set is kept.
 os.environ.setdefault("PYDANTIC_DISABLE_PLUGINS", "1")
 
+
+_PLUGINS_OFF = ("1", "true", "__all__")  # the values pydantic reads as "load no plugin"
+
+
+def _plugin_loader_without_metadata() -> None:
+    """Spare the start-up pydantic's plugin loader when plugins are disabled.
+
+    ``pydantic.plugin._loader`` imports importlib.metadata (about 9 ms, with email and
+    zipfile) as it loads, on the first model built, and then, plugins being disabled above,
+    returns no plugin without using it. Its stand-in gives the same answer while
+    ``PYDANTIC_DISABLE_PLUGINS`` disables plugins, and otherwise (or for any other name)
+    loads the real loader and hands over to it.
+    """
+    import types
+
+    name = "pydantic.plugin._loader"
+    if name in sys.modules:
+        return
+    stand_in = types.ModuleType(name, "Stand-in for pydantic's plugin loader (loadcheck.cli).")
+
+    def real() -> types.ModuleType:
+        import importlib
+
+        if sys.modules.get(name) is stand_in:
+            del sys.modules[name]
+        return importlib.import_module(name)
+
+    def get_plugins() -> tuple[()] | object:
+        if os.environ.get("PYDANTIC_DISABLE_PLUGINS") in _PLUGINS_OFF:
+            return ()
+        return real().get_plugins()
+
+    stand_in.get_plugins = get_plugins  # type: ignore[attr-defined]
+    def other(attribute: str) -> object:
+        if attribute.startswith("__"):  # the import system asks for __path__, __spec__, ...
+            raise AttributeError(attribute)
+        return getattr(real(), attribute)
+
+    stand_in.__getattr__ = other  # type: ignore[method-assign]
+    sys.modules[name] = stand_in
+
+
+if os.environ.get("PYDANTIC_DISABLE_PLUGINS") in _PLUGINS_OFF:
+    _plugin_loader_without_metadata()
+
 import typer  # noqa: E402
 
 

@@ -108,7 +108,7 @@ def check(
         _check_trip(inputs, json_out, chart, sheet, plot, record)
     result = check_loading(inputs.aircraft, inputs.loading)
     if record is not None:
-        _record_single(record, inputs, result)
+        _record(record, inputs, result)
     if chart is not None or sheet is not None:
         _write_pictures(inputs, result, chart, sheet)
     if json_out:
@@ -130,10 +130,9 @@ def _check_trip(inputs: Any, json_out: bool, chart: Path | None, sheet: Path | N
     """Check every leg of a trip, render it, and exit 1 when any leg is out of limits."""
     from ..trip import check_trip
 
-    if record is not None:
-        raise InputError(Problem("--record", "a trip of several legs cannot be recorded yet; record each leg as a "
-                                 "loading of its own", value=record))
     result = check_trip(inputs.aircraft, inputs.trip)
+    if record is not None:
+        _record(record, inputs, result)
     if chart is not None or sheet is not None:
         from ..files import write_atomic
         from ..render.chart import figure_svg, save_figure, trip_figure
@@ -164,8 +163,9 @@ def _check_trip(inputs: Any, json_out: bool, chart: Path | None, sheet: Path | N
     raise typer.Exit(EXIT_OK if result.ok else EXIT_LIMIT)
 
 
-def _record_single(record: str, inputs: Any, result: Any) -> None:
-    """Record one check: the loading as given (file and options merged) and the full result."""
+def _record(record: str, inputs: Any, result: Any) -> None:
+    """Record one check (of a single loading or of a whole trip, as one record): the loading as
+    given (file and options merged) and the full result."""
     from ..records import RecordLog, default_path, record_check
 
     path = default_path() if record == "default" else Path(record)

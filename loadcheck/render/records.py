@@ -8,29 +8,38 @@ from typing import Any
 from rich.console import Console
 from rich.table import Table
 
-from .listing import plain_listing, use_plain
+from .listing import plain_columns, use_plain
 from .terminal import caution_text
 
 __all__ = ["render_current_verification", "render_record_list"]
 
 
 def render_record_list(path: Any, records: Iterable[tuple[Any, ...]], caution: str, console: Console) -> None:
-    """The recorded checks, one line each (id, time, registration, reference, pilot, verdict, data), then the caution.
+    """The recorded checks, one line each (id, time, registration, reference, pilot, verdict,
+    data), then the caution. A trip is one record: its verdict is the whole trip's, with its
+    legs counted ("OUT OF LIMITS (2 legs)").
 
     ``records`` as :meth:`loadcheck.records.RecordLog.listing` gives them. A long listing is
     plain aligned text (:mod:`loadcheck.render.listing`).
     """
     title = f"Records in {path}"
     heads = ("Id", "Checked (UTC)", "Registration", "Reference", "Pilot", "Result", "Data")
-    words = ("OUT OF LIMITS", "within limits")
-    rows = [(str(r[0]), r[1][:19], r[2] or "", r[3] or "", r[4] or "", words[bool(r[5])], r[6]) for r in records]
-    if use_plain(len(rows)):
-        plain_listing(console.file, title, heads, rows, right=(0,), width=console.width)
+    got = list(zip(*records)) or [()] * 8  # column by column, in C: a listing may hold 100,000 records
+
+    def verdict(ok: int, legs: int) -> str:
+        words = "within limits" if ok else "OUT OF LIMITS"
+        return words if legs == 1 else f"{words} ({legs} legs)"
+
+    words = {key: verdict(*key) for key in set(zip(got[5], got[7]))}
+    columns = [list(map(str, got[0])), [t[:19] for t in got[1]], *([c or "" for c in got[k]] for k in (2, 3, 4)),
+               list(map(words.__getitem__, zip(got[5], got[7]))), list(got[6])]
+    if use_plain(len(columns[0])):
+        plain_columns(console.file, title, heads, columns, right=(0,), width=console.width)
     else:  # laid out for the width, nothing cut
         from .terminal import Column, _print_table
 
-        columns = [Column("Id", key=True)] + [Column(h, numeric=False) for h in heads[1:-1]] + [Column("Data")]
-        _print_table(console, title, columns, [list(row) for row in rows])
+        table = [Column("Id", key=True)] + [Column(h, numeric=False) for h in heads[1:-1]] + [Column("Data")]
+        _print_table(console, title, table, [list(row) for row in zip(*columns)])
     console.print(caution_text(caution))
 
 

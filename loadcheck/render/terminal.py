@@ -23,12 +23,12 @@ from rich.panel import Panel
 from rich.table import Table
 from rich.text import Text
 
-from ..aircraft import Aircraft
 from ..display import fmt, unit_label
 from ..results import CheckResult, Condition
 from ..words import burn_path_summary, stretch_text
 
-if TYPE_CHECKING:
+if TYPE_CHECKING:  # the aircraft models (pydantic, numpy, shapely) are not loaded to print a listing
+    from ..aircraft import Aircraft
     from ..planning import PlanResult, TableRow
 
 __all__ = [
@@ -716,10 +716,17 @@ def render_fleet(flights: list[Any], console: Console) -> None:
         row = flight.row
         if flight.result is None:
             verdict = Text("INPUT ERROR", style=_WARN_STYLE)
-            rows.append([str(row.line), row.registration or "", verdict + Text("\n" + "\n".join(flight.problems)),
+            lines = f"{row.lines[0]}-{row.lines[-1]}" if len(row.lines) > 1 else str(row.line)  # a trip's rows
+            rows.append([lines, row.registration or "", verdict + Text("\n" + "\n".join(flight.problems)),
                          row.reference or "", "", ""])
             continue
         result = flight.result
+        if "legs" in result:  # a trip: its verdict, then a line for each leg (loadcheck.render.trip)
+            from .trip import fleet_trip_rows
+
+            rows += fleet_trip_rows(flight)
+            warned += bool(result["ok"]) and _flight_result(result)[0].plain != "within"
+            continue
         units = result["units"]
         conditions = {c["condition"]: c for c in result["conditions"]}
         takeoff, landing = conditions["takeoff"], conditions["landing"]

@@ -8,7 +8,7 @@ colour alone: every verdict is written in words.
 from __future__ import annotations
 
 from collections.abc import Sequence
-from typing import TYPE_CHECKING
+from typing import TYPE_CHECKING, Any
 
 from rich.console import Console
 from rich.panel import Panel
@@ -17,12 +17,21 @@ from rich.text import Text
 from ..display import fmt
 from ..results import TripLeg, TripResult
 from ..words import count, stretch_text
-from .terminal import Column, _burn_line, _conditions_table, _lines, _moment_table, _print_table, caution_text
+from .terminal import (
+    Column,
+    _burn_line,
+    _conditions_table,
+    _flight_result,
+    _lines,
+    _moment_table,
+    _print_table,
+    caution_text,
+)
 
 if TYPE_CHECKING:
     from ..trip import TripPlan
 
-__all__ = ["render_trip", "render_trip_plan", "trip_verdict"]
+__all__ = ["fleet_trip_rows", "render_trip", "render_trip_plan", "trip_verdict"]
 
 _OK_STYLE, _LIMIT_STYLE, _WARN_STYLE = "bold green", "bold red", "bold yellow"
 
@@ -96,3 +105,34 @@ def render_trip_plan(plan: TripPlan, console: Console) -> None:
         if plan.trip.limits_exceeded:
             _lines(console, [(Text("  LIMIT", style=_LIMIT_STYLE), Text(f.message)) for f in plan.trip.limits_exceeded])
     console.print(caution_text(plan.caution))
+
+
+def fleet_trip_rows(flight: Any) -> list[list[str | Text]]:
+    """The rows of a trip in the fleet check's table (loadcheck.render.terminal.render_fleet):
+    the trip's verdict and its first finding (which names its leg and condition), then one row
+    per leg with its CSV line, its verdict and first finding (named by leg), its takeoff and
+    landing weight and CG. ``flight`` is a :class:`loadcheck.fleet.Flight` of a trip."""
+    from ..trip import leg_name
+
+    row, result = flight.row, flight.result
+    units = result["units"]
+    lines = row.lines or (row.line,)
+    verdict, first = _flight_result(result)
+    trip = f"trip {row.trip}, " if row.trip else ""
+    rows: list[list[str | Text]] = [[
+        f"{lines[0]}-{lines[-1]}" if len(lines) > 1 else str(lines[0]), row.registration or "",
+        verdict + Text(f" ({trip}{len(result['legs'])} legs)" + (f"\n{first}" if first else "")), row.reference or "",
+        "", "",
+    ]]
+    for leg in result["legs"]:
+        name = leg_name(leg["leg"], leg.get("label"))
+        verdict, first = _flight_result(leg)
+        conditions = {c["condition"]: c for c in leg["conditions"]}
+        takeoff, landing = conditions["takeoff"], conditions["landing"]
+        line = lines[leg["leg"] - 1] if leg["leg"] <= len(lines) else lines[0]
+        rows.append([
+            str(line), row.registration or "", Text(f"{name}: ") + verdict + Text(f"\n{name}: {first}" if first else ""),
+            name, f"{fmt(takeoff['weight'], units['mass'])}\n{fmt(takeoff['arm'], units['arm'])}",
+            f"{fmt(landing['weight'], units['mass'])}\n{fmt(landing['arm'], units['arm'])}",
+        ])
+    return rows
