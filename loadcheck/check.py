@@ -566,12 +566,12 @@ def _burn_path(
         weights, moments, laterals, quantities = path_states(
             aircraft, rows.stations, rows.fuel, np.array(points), order=rows.order, density=rows.density
         )
-    state = {b: (float(weights[i]), float(moments[i]), float(laterals[i]), float(quantities[i].sum()))
-             for i, b in enumerate(points)} if points else {}
+    state = dict(zip(points, zip(weights.tolist(), moments.tolist(), laterals.tolist(),
+                                 quantities.sum(axis=1).tolist(), strict=True), strict=True)) if points else {}
+    top = takeoff.weight
     samples = [
-        PathSample(fuel_burned=takeoff.weight - state[b][0], weight=state[b][0], arm=state[b][1] / state[b][0],
-                   lateral_arm=state[b][2] / state[b][0] if lateral else None)
-        for b in sorted(set(marks + ends))
+        PathSample(fuel_burned=top - w, weight=w, arm=m / w, lateral_arm=lat / w if lateral else None)
+        for w, m, lat, _ in (state[b] for b in sorted(set(marks + ends)))
     ] if with_samples else []
     if not stretches:
         return BurnPath(ok=ok, samples=samples)

@@ -817,9 +817,9 @@ def _burn_path(
     a, b = points[rows, cols], points[rows, cols + 1]  # the K live pieces
     piece_fuel = fuel[rows]
 
-    qa = tank_quantities(piece_fuel, a[:, None], order)[:, 0]
-    qb = tank_quantities(piece_fuel, b[:, None], order)[:, 0]
-    arm_a, arm_b = _tank_arms(aircraft, qa), _tank_arms(aircraft, qb)
+    q_ends = tank_quantities(piece_fuel, np.stack([a, b], axis=1), order)  # (K, 2, T): both ends at once
+    arm_ends = _tank_arms(aircraft, q_ends)
+    qa, qb, arm_a, arm_b = q_ends[:, 0], q_ends[:, 1], arm_ends[:, 0], arm_ends[:, 1]
     count = len(a)
     w, m, lat = np.zeros((count, 3)), np.zeros((count, 3)), np.zeros((count, 3))
     w[:, 0], m[:, 0], lat[:, 0] = pay_w[rows], pay_m[rows], pay_l[rows]
