@@ -314,8 +314,8 @@ def tank_quantities(fuel: np.ndarray, burned: np.ndarray, order: Sequence[int] |
     start = fuel[:, None, :]
     if order is None:
         total = fuel.sum(axis=1)[:, None]
-        with np.errstate(divide="ignore", invalid="ignore"):
-            share = np.where(total > 0, np.clip(1.0 - burned / np.where(total > 0, total, 1.0), 0.0, 1.0), 0.0)
+        # divided by a positive total or by 1: no warning to hold off (an errstate costs more than this)
+        share = np.where(total > 0, np.clip(1.0 - burned / np.where(total > 0, total, 1.0), 0.0, 1.0), 0.0)
         return start * share[:, :, None]
     left = np.broadcast_to(start, (*burned.shape, fuel.shape[1])).copy()
     remaining = burned.copy()
@@ -529,8 +529,11 @@ def evaluate(
     stations = np.atleast_2d(np.asarray(stations, dtype=float))
     n = stations.shape[0]
     fuel = np.asarray(fuel, dtype=float).reshape(n, len(aircraft.tank))
-    taxi = np.broadcast_to(np.asarray(taxi, dtype=float), (n,))
-    trip = np.broadcast_to(np.asarray(trip, dtype=float), (n,))
+    taxi, trip = np.asarray(taxi, dtype=float), np.asarray(trip, dtype=float)
+    if taxi.shape != (n,):
+        taxi = np.broadcast_to(taxi, (n,))
+    if trip.shape != (n,):
+        trip = np.broadcast_to(trip, (n,))
     if n <= BLAS_ONE_THREAD_ABOVE:
         return _evaluate(aircraft, stations, fuel, taxi, trip, order, category, density, explain)
     chunk = _chunk(aircraft, category)
@@ -605,7 +608,9 @@ def _evaluate(
     pay_l = empty.weight * (empty.lateral_arm or 0.0) + _dot(stations, lats)
 
     # fuel at ramp, takeoff and landing; rows of (4, N) in CONDITIONS order, zero fuel last
-    burned = np.stack([np.zeros(n), taxi, taxi + trip], axis=1)
+    burned = np.zeros((n, 3))
+    burned[:, 1] = taxi
+    burned[:, 2] = taxi + trip
     q = tank_quantities(fuel, burned, order_index)  # (N, 3, T)
     mass = q * rho
     tank_arm = _tank_arms(aircraft, q)
@@ -694,7 +699,7 @@ def _evaluate(
     holds.append(path_ok)
     codes.append("burn_path")
     where.append("")
-    tests = np.concatenate([np.stack(holds), ~load_exceeded.T]) if len(tables.loads) else np.stack(holds)
+    tests = np.concatenate([np.array(holds), ~load_exceeded.T]) if len(tables.loads) else np.array(holds)
     codes += [rule.code for rule in tables.loads]
     where += [""] * len(tables.loads)
     first = tests.argmin(axis=0)  # the first test that fails (0 where none does)
@@ -805,7 +810,7 @@ def _burn_path(
     ``explain``) the stretches outside, as fuel burned since engine start [fuel volume unit]."""
     n = fuel.shape[0]
     start, end = taxi, taxi + trip
-    points = np.stack([start, end, *_burn_cuts(aircraft, fuel, order)], axis=1)
+    points = np.array([start, end, *_burn_cuts(aircraft, fuel, order)]).T
     points = np.where(np.isfinite(points), np.clip(points, start[:, None], end[:, None]), end[:, None])
     if points.shape[1] > 2:  # two columns (takeoff, landing) are in order already
         points.sort(axis=1)
@@ -817,7 +822,7 @@ def _burn_path(
     a, b = points[rows, cols], points[rows, cols + 1]  # the K live pieces
     piece_fuel = fuel[rows]
 
-    q_ends = tank_quantities(piece_fuel, np.stack([a, b], axis=1), order)  # (K, 2, T): both ends at once
+    q_ends = tank_quantities(piece_fuel, np.array([a, b]).T, order)  # (K, 2, T): both ends at once
     arm_ends = _tank_arms(aircraft, q_ends)
     qa, qb, arm_a, arm_b = q_ends[:, 0], q_ends[:, 1], arm_ends[:, 0], arm_ends[:, 1]
     count = len(a)

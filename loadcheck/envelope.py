@@ -213,9 +213,8 @@ class EnvelopeShape:
     def covers(self, weight: float | np.ndarray, moment: float | np.ndarray, lateral: float | np.ndarray) -> np.ndarray:
         """True where a loading state lies inside or on the envelope (within TOLERANCE)."""
         x, y = self.coords(weight, moment, lateral)
-        return np.asarray(
-            shapely.intersects_xy(self.covering, (x - self.origin[0]) / self.span[0], (y - self.origin[1]) / self.span[1])
-        )
+        (ox, oy), (wx, wy) = self._origin_span
+        return np.asarray(shapely.intersects_xy(self.covering, (x - ox) / wx, (y - oy) / wy))
 
     def _at(self, weight: float, arm: float, lateral_arm: float) -> tuple[float, float]:
         """Envelope coordinates of a CG position (arm, lateral arm) at a weight (plain floats)."""
