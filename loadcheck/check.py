@@ -260,6 +260,8 @@ def _condition(
 
 def _pick(intervals: list[tuple[float, float]], value: float) -> tuple[float, float]:
     """The interval holding ``value``, else the nearest one."""
+    if len(intervals) == 1:
+        return intervals[0]
     return min(intervals, key=lambda iv: max(iv[0] - value, value - iv[1], 0.0))
 
 
