@@ -260,6 +260,8 @@ def _condition(
 
 def _pick(intervals: list[tuple[float, float]], value: float) -> tuple[float, float]:
     """The interval holding ``value``, else the nearest one."""
+    if len(intervals) == 1:
+        return intervals[0]
     return min(intervals, key=lambda iv: max(iv[0] - value, value - iv[1], 0.0))
 
 
@@ -274,37 +276,49 @@ _MARGIN_KEYS = ("forward", "aft", "left", "right", "weight")
 _ONE_BY_ONE = 2  # up to this many loadings, slices are cut one at a time (fewer numpy calls)
 
 
-def _margins_one(
-    shapes: Sequence[EnvelopeShape], name: str, weight: float, moment: float, lateral: float, weight_limit: float | None
-) -> Margins:
-    """The margins of one loading at one condition, from :meth:`EnvelopeShape.slice`."""
-    values: dict[str, float] = {}
+def _margins_one(shapes: Sequence[EnvelopeShape], states: Sequence[tuple[float, float, float]],
+                 weight_limits: Sequence[float | None]) -> list[Margins]:
+    """The margins of one loading at each condition (``states``: weight, moment, lateral
+    moment in CONDITIONS order), from :meth:`EnvelopeShape.slices`: every slice of an
+    envelope cut with one containment call."""
+    values: list[dict[str, float]] = [{} for _ in CONDITIONS]
 
-    def keep(key: str, value: float) -> None:
-        values[key] = min(values.get(key, value), value)
+    def keep(k: int, key: str, value: float) -> None:
+        held = values[k]
+        held[key] = min(held.get(key, value), value)
 
-    if weight_limit is not None:
-        keep("weight", weight_limit - weight)
+    for k, (weight, _, _) in enumerate(states):
+        limit = weight_limits[k]
+        if limit is not None:
+            keep(k, "weight", limit - weight)
     for shape in shapes:
-        w, m, lat = envelope_state(shape, name, weight, moment, lateral)
-        arm, lateral_arm = m / w, lat / w
-        if shape.is_lateral:
-            across = shape.slice(w, arm, lateral_arm, "lateral")
-            if across:
-                lo, hi = _pick(across, lateral_arm)
-                keep("left", lateral_arm - lo)
-                keep("right", hi - lateral_arm)
-        else:
-            along = shape.slice(w, arm, lateral_arm, "arm")
-            if along:
-                lo, hi = _pick(along, arm)
-                keep("forward", arm - lo)
-                keep("aft", hi - arm)
-        if name != "ramp" and not shape.is_lateral:
-            heights = shape.slice(w, arm, lateral_arm, "weight")
-            if heights:
-                keep("weight", _pick(heights, w)[1] - w)
-    return Margins(**values)
+        lines: list[tuple[float, float, float, Vary]] = []
+        held: list[tuple[int, str, float]] = []  # per line: condition, what it gives, the value held
+        for k, name in enumerate(CONDITIONS):
+            w, m, lat = envelope_state(shape, name, *states[k])
+            arm, lateral_arm = m / w, lat / w
+            if shape.is_lateral:
+                lines.append((w, arm, lateral_arm, "lateral"))
+                held.append((k, "lateral", lateral_arm))
+            else:
+                lines.append((w, arm, lateral_arm, "arm"))
+                held.append((k, "arm", arm))
+                if name != "ramp":
+                    lines.append((w, arm, lateral_arm, "weight"))
+                    held.append((k, "weight", w))
+        for (k, what, value), intervals in zip(held, shape.slices(lines), strict=True):
+            if not intervals:
+                continue
+            lo, hi = _pick(intervals, value)
+            if what == "lateral":
+                keep(k, "left", value - lo)
+                keep(k, "right", hi - value)
+            elif what == "arm":
+                keep(k, "forward", value - lo)
+                keep(k, "aft", hi - value)
+            else:
+                keep(k, "weight", hi - value)
+    return [Margins(**v) for v in values]
 
 
 def _margins(shapes: Sequence[EnvelopeShape], found: Evaluation,
@@ -317,12 +331,11 @@ def _margins(shapes: Sequence[EnvelopeShape], found: Evaluation,
     """
     n = len(found.ok)
     if n <= _ONE_BY_ONE:
-        out_one: dict[str, list[Margins]] = {}
-        for name in CONDITIONS:
-            weight_limit = min((value for _, value in weights[name]), default=None)
-            out_one[name] = [_margins_one(shapes, name, w, m, lat, weight_limit) for w, m, lat in
-                             zip(found.weight[name].tolist(), found.moment[name].tolist(), found.lateral_moment[name].tolist())]
-        return out_one
+        limits = [min((value for _, value in weights[name]), default=None) for name in CONDITIONS]
+        states = [(found.weight[name].tolist(), found.moment[name].tolist(), found.lateral_moment[name].tolist())
+                  for name in CONDITIONS]
+        per_row = [_margins_one(shapes, [(w[i], m[i], lat[i]) for w, m, lat in states], limits) for i in range(n)]
+        return {name: [row[k] for row in per_row] for k, name in enumerate(CONDITIONS)}
     values = {name: {key: np.full(n, np.nan) for key in _MARGIN_KEYS} for name in CONDITIONS}
 
     def keep(name: str, key: str, value: np.ndarray) -> None:
@@ -385,7 +398,7 @@ def _slice_lines(shape: EnvelopeShape, vary: str, weight: np.ndarray, arm: np.nd
 def _slices(shape: EnvelopeShape, lines: Sequence[tuple[str, Any, Any, Any]]) -> tuple[np.ndarray, np.ndarray]:
     """For each line, the inside interval holding the held value, else the nearest one (NaN where none).
 
-    The arithmetic of :meth:`EnvelopeShape._line_intervals` for many lines at once: every
+    The arithmetic of :meth:`EnvelopeShape.slices` for many lines at once: every
     edge crossing is a cut, each stretch between cuts is inside as its middle is, a lone
     cut touching the polygon is an interval of zero length; the interval is then picked
     as :func:`_pick` does.
@@ -555,12 +568,12 @@ def _burn_path(
         weights, moments, laterals, quantities = path_states(
             aircraft, rows.stations, rows.fuel, np.array(points), order=rows.order, density=rows.density
         )
-    state = {b: (float(weights[i]), float(moments[i]), float(laterals[i]), float(quantities[i].sum()))
-             for i, b in enumerate(points)} if points else {}
+    state = dict(zip(points, zip(weights.tolist(), moments.tolist(), laterals.tolist(),
+                                 quantities.sum(axis=1).tolist(), strict=True), strict=True)) if points else {}
+    top = takeoff.weight
     samples = [
-        PathSample(fuel_burned=takeoff.weight - state[b][0], weight=state[b][0], arm=state[b][1] / state[b][0],
-                   lateral_arm=state[b][2] / state[b][0] if lateral else None)
-        for b in sorted(set(marks + ends))
+        PathSample(fuel_burned=top - w, weight=w, arm=m / w, lateral_arm=lat / w if lateral else None)
+        for w, m, lat, _ in (state[b] for b in sorted(set(marks + ends)))
     ] if with_samples else []
     if not stretches:
         return BurnPath(ok=ok, samples=samples)

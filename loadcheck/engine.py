@@ -160,11 +160,20 @@ class LoadLimit:
         """True for a maximum, False for a minimum."""
         return self.code.endswith("_max")
 
+    @property
+    def threshold(self) -> float:
+        """The loaded weight past which the limit is exceeded: the limit widened by the
+        tolerance (inclusive limits) [mass unit]."""
+        return self.limit * (1 + WEIGHT_TOLERANCE) + 1e-12 if self.is_max else self.limit * (1 - WEIGHT_TOLERANCE)
+
     def exceeded(self, loaded: np.ndarray) -> np.ndarray:
         """True where the loaded weight [mass unit] is beyond this limit (inclusive limits)."""
-        if self.is_max:
-            return np.asarray(loaded > self.limit * (1 + WEIGHT_TOLERANCE) + 1e-12)
-        return np.asarray(loaded < self.limit * (1 - WEIGHT_TOLERANCE))
+        return _beyond(np.asarray(loaded), np.asarray(self.threshold), np.asarray(self.is_max))
+
+
+def _beyond(loaded: np.ndarray, threshold: np.ndarray, is_max: np.ndarray) -> np.ndarray:
+    """The rule of every station and group limit: above a maximum's threshold, below a minimum's."""
+    return np.asarray(np.where(is_max, loaded > threshold, loaded < threshold))
 
 
 def load_limits(aircraft: Aircraft) -> list[LoadLimit]:
@@ -240,6 +249,9 @@ class _Tables:
     tank_ids: list[str]
     envelopes: dict[str, tuple[list[Envelope], list[EnvelopeShape]]]
     has_lateral: bool
+    load_members: np.ndarray  # (S, L): 1 where station S counts towards load limit L
+    load_threshold: np.ndarray  # (L,) LoadLimit.threshold
+    load_is_max: np.ndarray  # (L,) LoadLimit.is_max
 
 
 _TABLES: dict[int, tuple[Aircraft, _Tables]] = {}
@@ -251,6 +263,10 @@ def _tables(aircraft: Aircraft) -> _Tables:
     kept = _TABLES.get(id(aircraft))
     if kept is not None and kept[0] is aircraft:
         return kept[1]
+    loads = load_limits(aircraft)
+    members = np.zeros((len(aircraft.station), len(loads)))
+    for column, rule in enumerate(loads):
+        members[list(rule.members), column] = 1.0
     tables = _Tables(
         arms=np.array([s.arm for s in aircraft.station], dtype=float),
         lats=np.array([s.lateral_arm or 0.0 for s in aircraft.station], dtype=float),
@@ -259,11 +275,14 @@ def _tables(aircraft: Aircraft) -> _Tables:
         density=np.array([aircraft.density(t) for t in aircraft.tank], dtype=float),
         tank_index={t.id: i for i, t in enumerate(aircraft.tank)},
         weights=weight_limits(aircraft),
-        loads=load_limits(aircraft),
+        loads=loads,
         station_ids=[s.id for s in aircraft.station],
         tank_ids=[t.id for t in aircraft.tank],
         envelopes={c: (aircraft.envelopes_for(c), [e.shape for e in aircraft.envelopes_for(c)]) for c in aircraft.categories},
         has_lateral=aircraft.has_lateral,
+        load_members=members,
+        load_threshold=np.array([rule.threshold for rule in loads], dtype=float),
+        load_is_max=np.array([rule.is_max for rule in loads], dtype=bool),
     )
     if len(_TABLES) >= _TABLES_KEPT:
         _TABLES.pop(next(iter(_TABLES)))
@@ -295,8 +314,8 @@ def tank_quantities(fuel: np.ndarray, burned: np.ndarray, order: Sequence[int] |
     start = fuel[:, None, :]
     if order is None:
         total = fuel.sum(axis=1)[:, None]
-        with np.errstate(divide="ignore", invalid="ignore"):
-            share = np.where(total > 0, np.clip(1.0 - burned / np.where(total > 0, total, 1.0), 0.0, 1.0), 0.0)
+        # divided by a positive total or by 1: no warning to hold off (an errstate costs more than this)
+        share = np.where(total > 0, np.clip(1.0 - burned / np.where(total > 0, total, 1.0), 0.0, 1.0), 0.0)
         return start * share[:, :, None]
     left = np.broadcast_to(start, (*burned.shape, fuel.shape[1])).copy()
     remaining = burned.copy()
@@ -510,8 +529,11 @@ def evaluate(
     stations = np.atleast_2d(np.asarray(stations, dtype=float))
     n = stations.shape[0]
     fuel = np.asarray(fuel, dtype=float).reshape(n, len(aircraft.tank))
-    taxi = np.broadcast_to(np.asarray(taxi, dtype=float), (n,))
-    trip = np.broadcast_to(np.asarray(trip, dtype=float), (n,))
+    taxi, trip = np.asarray(taxi, dtype=float), np.asarray(trip, dtype=float)
+    if taxi.shape != (n,):
+        taxi = np.broadcast_to(taxi, (n,))
+    if trip.shape != (n,):
+        trip = np.broadcast_to(trip, (n,))
     if n <= BLAS_ONE_THREAD_ABOVE:
         return _evaluate(aircraft, stations, fuel, taxi, trip, order, category, density, explain)
     chunk = _chunk(aircraft, category)
@@ -551,25 +573,25 @@ def _evaluate(
     density: Sequence[float] | np.ndarray | None,
     explain: bool,
 ) -> Evaluation:
+    # Written for few numpy calls as well as for large N: the single check is this code at
+    # N = 1, where each numpy call costs about a microsecond whatever its size.
     n = stations.shape[0]
     taxi = np.array(taxi, dtype=float)
     trip = np.array(trip, dtype=float)
-    category = aircraft.category(category)
     tables = _tables(aircraft)
+    if category is None or category not in tables.envelopes:
+        category = aircraft.category(category)  # the default, or an error naming the known ones
     shapes = tables.envelopes[category][1]
     order_index = None if order is None else [tables.tank_index[t] for t in order]
     rho = tables.density if density is None else np.asarray(density, dtype=float)
     usable = tables.usable
     burnable = fuel.sum(axis=1) if order_index is None else fuel[:, order_index].sum(axis=1)
 
-    finite = np.isfinite(stations).all(axis=1) & np.isfinite(fuel).all(axis=1) & np.isfinite(taxi) & np.isfinite(trip)
+    # every input finite and not negative, no tank above its capacity, no more burned than can be
+    cells = np.concatenate([stations, fuel, taxi[:, None], trip[:, None]], axis=1)
     valid = (
-        finite
-        & (stations >= 0).all(axis=1)
-        & (fuel >= 0).all(axis=1)
+        ((cells >= 0) & (cells < np.inf)).all(axis=1)
         & (fuel <= usable * (1 + 1e-9)).all(axis=1)
-        & (taxi >= 0)
-        & (trip >= 0)
         & (taxi + trip <= burnable * (1 + 1e-9))
     )
     if not valid.all():  # an unusable row gets harmless numbers; its verdict is "input"
@@ -585,24 +607,34 @@ def _evaluate(
     pay_m = empty.weight * empty.arm + _dot(stations, arms)
     pay_l = empty.weight * (empty.lateral_arm or 0.0) + _dot(stations, lats)
 
-    burned = np.stack([np.zeros(n), taxi, taxi + trip], axis=1)
+    # fuel at ramp, takeoff and landing; rows of (4, N) in CONDITIONS order, zero fuel last
+    burned = np.zeros((n, 3))
+    burned[:, 1] = taxi
+    burned[:, 2] = taxi + trip
     q = tank_quantities(fuel, burned, order_index)  # (N, 3, T)
     mass = q * rho
     tank_arm = _tank_arms(aircraft, q)
-    weight = {"zero_fuel": pay_w}
-    moment = {"zero_fuel": pay_m}
-    lateral = {"zero_fuel": pay_l}
-    quantities = {"zero_fuel": np.zeros_like(fuel)}
-    fuel_weight = {"zero_fuel": np.zeros(n)}
-    for k, name in enumerate(("ramp", "takeoff", "landing")):
-        fuel_weight[name] = mass[:, k].sum(axis=1)
-        weight[name] = pay_w + fuel_weight[name]
-        moment[name] = pay_m + (mass[:, k] * tank_arm[:, k]).sum(axis=1)
-        lateral[name] = pay_l + _dot(mass[:, k], tank_lats)
-        quantities[name] = q[:, k]
+    fuel_w = np.zeros((4, n))
+    fuel_w[:3] = mass.sum(axis=2).T
+    all_w = pay_w + fuel_w
+    all_m = np.empty((4, n))
+    all_m[:3] = (mass * tank_arm).sum(axis=2).T
+    all_m[:3] += pay_m
+    all_m[3] = pay_m
+    all_l = np.empty((4, n))
+    all_l[:3] = _dot(mass, tank_lats).T
+    all_l[:3] += pay_l
+    all_l[3] = pay_l
+    weight = dict(zip(CONDITIONS, all_w, strict=True))
+    moment = dict(zip(CONDITIONS, all_m, strict=True))
+    lateral = dict(zip(CONDITIONS, all_l, strict=True))
+    fuel_weight = dict(zip(CONDITIONS, fuel_w, strict=True))
+    quantities = {"ramp": q[:, 0], "takeoff": q[:, 1], "landing": q[:, 2], "zero_fuel": np.zeros_like(fuel)}
 
     limits = aircraft.limits
     table = tables.weights
+    always = np.ones(n, dtype=bool)
+    always.flags.writeable = False
     limit_ok: dict[str, np.ndarray] = {}
     weight_ok: dict[str, list[np.ndarray]] = {}
     minimum_ok: dict[str, np.ndarray] = {}
@@ -611,29 +643,23 @@ def _evaluate(
         for code, value in table[name]:
             limit_ok[code] = weight[name] <= value * (1 + WEIGHT_TOLERANCE)
             weight_ok[name].append(limit_ok[code])
-        minimum_ok[name] = np.ones(n, dtype=bool)
+        minimum_ok[name] = always
         if name in MIN_FLIGHT_WEIGHT_CONDITIONS and limits.min_flight_weight is not None:
             minimum_ok[name] = weight[name] >= limits.min_flight_weight * (1 - WEIGHT_TOLERANCE)
     if limits.min_flight_weight is not None:
         limit_ok["min_flight_weight"] = np.logical_and.reduce([minimum_ok[c] for c in MIN_FLIGHT_WEIGHT_CONDITIONS])
 
-    envelope_ok: dict[str, np.ndarray] = {}
-    per_envelope: dict[str, list[np.ndarray]] = {}
-    for name in CONDITIONS:
-        inside = []
-        for shape in shapes:
-            inside.append(np.asarray(shape.covers(*envelope_state(shape, name, weight[name], moment[name], lateral[name]))))
-        per_envelope[name] = inside
-        envelope_ok[name] = np.logical_and.reduce(inside) if inside else np.ones(n, dtype=bool)
+    # every envelope at the four conditions at once: one containment call per envelope
+    inside_all = [shape.covers(*_tested_states(shape, all_w, all_m, all_l)) for shape in shapes]  # (4, N) each
+    per_envelope = {name: [inside[k] for inside in inside_all] for k, name in enumerate(CONDITIONS)}
+    every = np.logical_and.reduce(inside_all) if inside_all else np.ones((4, n), dtype=bool)
+    envelope_ok = dict(zip(CONDITIONS, every, strict=True))
 
     condition_ok = {
         name: np.logical_and.reduce(weight_ok[name] + [minimum_ok[name], envelope_ok[name]]) for name in CONDITIONS
     }
 
-    rules = tables.loads
-    load_exceeded = np.zeros((n, len(rules)), dtype=bool)
-    for column, rule in enumerate(rules):
-        load_exceeded[:, column] = rule.exceeded(stations[:, list(rule.members)].sum(axis=1))
+    load_exceeded = _loads_exceeded(tables, stations)
     limit_ok["stations"] = np.asarray(~load_exceeded.any(axis=1))
 
     # a path with an end outside is out already; only paths with both ends inside need the exact test
@@ -649,42 +675,47 @@ def _evaluate(
         )
         path_ok[rows] &= tested_ok
         if path_outside is not None:
-            for k, row in enumerate(rows):
+            for k, row in enumerate(rows.tolist()):
                 path_outside[row] = stretches[k]
     path_ok = np.where(flying, path_ok, envelope_ok["takeoff"])
 
+    # the first limit exceeded, in the single check's order: every test that holds, stacked
     zero_fuel_cg_is_limit = limits.zero_fuel_cg == "limit"
-    first_finding = np.full(n, "", dtype=object)
-    first_condition = np.full(n, "", dtype=object)
-    open_rows = np.ones(n, dtype=bool)
-
-    def mark(hit_rows: np.ndarray, code: str, condition: str = "") -> None:
-        nonlocal open_rows
-        hit = open_rows & hit_rows
-        first_finding[hit] = code
-        first_condition[hit] = condition
-        open_rows = open_rows & ~hit
-
+    holds: list[np.ndarray] = []
+    codes: list[str] = []
+    where: list[str] = []
     for name in CONDITIONS:
         for (code, _), good in zip(table[name], weight_ok[name], strict=True):
-            mark(~good, code, name)
-        mark(~minimum_ok[name], "min_flight_weight", name)
+            holds.append(good)
+            codes.append(code)
+            where.append(name)
+        holds.append(minimum_ok[name])
+        codes.append("min_flight_weight")
+        where.append(name)
         if name != "zero_fuel" or zero_fuel_cg_is_limit:
-            for inside_one in per_envelope[name]:
-                mark(~inside_one, "envelope", name)
-    mark(~path_ok, "burn_path")
-    for column, rule in enumerate(rules):
-        mark(load_exceeded[:, column], rule.code)
+            holds += per_envelope[name]
+            codes += ["envelope"] * len(shapes)
+            where += [name] * len(shapes)
+    holds.append(path_ok)
+    codes.append("burn_path")
+    where.append("")
+    tests = np.concatenate([np.array(holds), ~load_exceeded.T]) if len(tables.loads) else np.array(holds)
+    codes += [rule.code for rule in tables.loads]
+    where += [""] * len(tables.loads)
+    first = tests.argmin(axis=0)  # the first test that fails (0 where none does)
+    passed = tests.all(axis=0)
+    first_finding = np.where(passed, "", np.array(codes, dtype=object)[first])
+    first_condition = np.where(passed, "", np.array(where, dtype=object)[first])
     first_finding[~valid] = "input"
     first_condition[~valid] = ""
 
-    ok = valid & (first_finding == "")
+    ok = valid & passed
     return Evaluation(
         weight=weight,
         moment=moment,
         lateral_moment=lateral,
-        arm={k: moment[k] / weight[k] for k in CONDITIONS},
-        lateral_arm={k: lateral[k] / weight[k] for k in CONDITIONS},
+        arm=dict(zip(CONDITIONS, all_m / all_w, strict=True)),
+        lateral_arm=dict(zip(CONDITIONS, all_l / all_w, strict=True)),
         fuel=quantities,
         fuel_weight=fuel_weight,
         condition_ok=condition_ok,
@@ -701,6 +732,22 @@ def _evaluate(
         first_finding=first_finding,
         first_condition=first_condition,
     )
+
+
+def _loads_exceeded(tables: _Tables, stations: np.ndarray) -> np.ndarray:
+    """(N, L): True where load limit L (:func:`load_limits`) is exceeded; each limit sums its stations."""
+    return _beyond(_dot(stations, tables.load_members), tables.load_threshold, tables.load_is_max)
+
+
+def _tested_states(shape: EnvelopeShape, weight: np.ndarray, moment: np.ndarray,
+                   lateral: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """The states of the four conditions (rows of (4, N), CONDITIONS order) as tested against
+    an envelope: the ramp row held to the envelope's top (:func:`envelope_state`)."""
+    if shape.max_weight is None:
+        return weight, moment, lateral
+    w, m, lat = weight.copy(), moment.copy(), lateral.copy()
+    w[0], m[0], lat[0] = envelope_state(shape, "ramp", weight[0], moment[0], lateral[0])
+    return w, m, lat
 
 
 # -- the burn path --------------------------------------------------------------------------
@@ -763,7 +810,7 @@ def _burn_path(
     ``explain``) the stretches outside, as fuel burned since engine start [fuel volume unit]."""
     n = fuel.shape[0]
     start, end = taxi, taxi + trip
-    points = np.stack([start, end, *_burn_cuts(aircraft, fuel, order)], axis=1)
+    points = np.array([start, end, *_burn_cuts(aircraft, fuel, order)]).T
     points = np.where(np.isfinite(points), np.clip(points, start[:, None], end[:, None]), end[:, None])
     if points.shape[1] > 2:  # two columns (takeoff, landing) are in order already
         points.sort(axis=1)
@@ -775,9 +822,9 @@ def _burn_path(
     a, b = points[rows, cols], points[rows, cols + 1]  # the K live pieces
     piece_fuel = fuel[rows]
 
-    qa = tank_quantities(piece_fuel, a[:, None], order)[:, 0]
-    qb = tank_quantities(piece_fuel, b[:, None], order)[:, 0]
-    arm_a, arm_b = _tank_arms(aircraft, qa), _tank_arms(aircraft, qb)
+    q_ends = tank_quantities(piece_fuel, np.array([a, b]).T, order)  # (K, 2, T): both ends at once
+    arm_ends = _tank_arms(aircraft, q_ends)
+    qa, qb, arm_a, arm_b = q_ends[:, 0], q_ends[:, 1], arm_ends[:, 0], arm_ends[:, 1]
     count = len(a)
     w, m, lat = np.zeros((count, 3)), np.zeros((count, 3)), np.zeros((count, 3))
     w[:, 0], m[:, 0], lat[:, 0] = pay_w[rows], pay_m[rows], pay_l[rows]

@@ -213,9 +213,8 @@ class EnvelopeShape:
     def covers(self, weight: float | np.ndarray, moment: float | np.ndarray, lateral: float | np.ndarray) -> np.ndarray:
         """True where a loading state lies inside or on the envelope (within TOLERANCE)."""
         x, y = self.coords(weight, moment, lateral)
-        return np.asarray(
-            shapely.intersects_xy(self.covering, (x - self.origin[0]) / self.span[0], (y - self.origin[1]) / self.span[1])
-        )
+        (ox, oy), (wx, wy) = self._origin_span
+        return np.asarray(shapely.intersects_xy(self.covering, (x - ox) / wx, (y - oy) / wy))
 
     def _at(self, weight: float, arm: float, lateral_arm: float) -> tuple[float, float]:
         """Envelope coordinates of a CG position (arm, lateral arm) at a weight (plain floats)."""
@@ -245,6 +244,37 @@ class EnvelopeShape:
             not depend on that quantity. Every axis is affine in each of weight, arm and
             lateral arm with the other two held, so the line is straight on the envelope.
         """
+        return self.slices([(weight, arm, lateral_arm, vary)])[0]
+
+    def slices(self, lines: Sequence[tuple[float, float, float, Vary]]) -> list[list[tuple[float, float]] | None]:
+        """:meth:`slice` of several lines (weight, arm, lateral arm, vary), with one containment call for all."""
+        scaled = [self._scaled_line(*line) for line in lines]
+        cuts = [None if line is None else self._line_cuts(*line) for line in scaled]
+        xs: list[float] = []
+        ys: list[float] = []
+        for line, points in zip(scaled, cuts, strict=True):
+            if line is None or points is None:
+                continue
+            ax, ay, dx, dy = line
+            probe = [0.5 * (lo + hi) for lo, hi in zip(points, points[1:])] + points
+            xs += [ax + p * dx for p in probe]
+            ys += [ay + p * dy for p in probe]
+        flags: list[bool] = shapely.intersects_xy(self.covering, np.array(xs), np.array(ys)).tolist() if xs else []
+        out: list[list[tuple[float, float]] | None] = []
+        at = 0
+        for points in cuts:
+            if points is None:
+                out.append(None)
+                continue
+            gaps = len(points) - 1 if points else 0
+            inside_mid, inside_cut = flags[at : at + gaps], flags[at + gaps : at + gaps + len(points)]
+            at += gaps + len(points)
+            out.append(_intervals(points, inside_mid, inside_cut))
+        return out
+
+    def _scaled_line(self, weight: float, arm: float, lateral_arm: float, vary: Vary) -> tuple[float, float, float, float] | None:
+        """The line of a slice in the scaled axes: start and direction; None where the
+        envelope does not depend on the varying quantity."""
 
         def point(value: float) -> tuple[float, float]:
             if vary == "arm":
@@ -258,15 +288,14 @@ class EnvelopeShape:
         if sx == 0.0 and sy == 0.0:
             return None
         (ox, oy), (wx, wy) = self._origin_span
-        return self._line_intervals((x0 - ox) / wx, (y0 - oy) / wy, sx / wx, sy / wy)
+        return (x0 - ox) / wx, (y0 - oy) / wy, sx / wx, sy / wy
 
-    def _line_intervals(self, ax: float, ay: float, dx: float, dy: float) -> list[tuple[float, float]]:
-        """Parameters s where the scaled line a + s d lies inside the polygon, as intervals.
+    def _line_cuts(self, ax: float, ay: float, dx: float, dy: float) -> list[float]:
+        """Parameters s where the scaled line a + s d is cut, in increasing order, once each.
 
         The line is cut at every edge it crosses (and at the ends of edges it runs along);
         each stretch between cuts is inside or outside as its middle is (containment with
-        the same tolerance as everywhere else); a lone cut that touches the polygon from
-        outside gives a zero-length interval.
+        the same tolerance as everywhere else, :func:`_intervals`).
         """
         scale = max(abs(dx), abs(dy))
         cuts: list[float] = []
@@ -281,23 +310,7 @@ class EnvelopeShape:
                 norm = dx * dx + dy * dy
                 cuts.append((wx * dx + wy * dy) / norm)
                 cuts.append(((wx + ex) * dx + (wy + ey) * dy) / norm)
-        points = np.array(sorted(set(cuts)))
-        mids = 0.5 * (points[:-1] + points[1:])
-        # one containment call for every middle and every cut point
-        probe = np.concatenate([mids, points])
-        inside = shapely.intersects_xy(self.covering, ax + probe * dx, ay + probe * dy)
-        inside_mid, inside_cut = inside[: len(mids)], inside[len(mids):]
-        intervals: list[tuple[float, float]] = []
-        for k in np.flatnonzero(inside_mid):
-            lo, hi = float(points[k]), float(points[k + 1])
-            if intervals and intervals[-1][1] == lo:
-                intervals[-1] = (intervals[-1][0], hi)
-            else:
-                intervals.append((lo, hi))
-        for k in np.flatnonzero(inside_cut):  # a cut touching the polygon from outside
-            if (k == 0 or not inside_mid[k - 1]) and (k == len(mids) or not inside_mid[k]):
-                intervals.append((float(points[k]), float(points[k])))
-        return sorted(intervals)
+        return sorted(set(cuts))
 
     # -- fuel-burn path -------------------------------------------------------------
 
@@ -344,6 +357,25 @@ class EnvelopeShape:
         start, end = self._edges[edges, 0], self._edges[edges, 1]
         d = end - start
         return ((x - start[..., 0]) * d[..., 0] + (y - start[..., 1]) * d[..., 1]) / (d * d).sum(axis=-1)
+
+
+def _intervals(points: list[float], inside_mid: list[bool], inside_cut: list[bool]) -> list[tuple[float, float]]:
+    """The inside intervals of a line cut at ``points``, from whether each stretch's middle
+    and each cut lies inside: stretches that meet are merged; a cut touching the polygon
+    from outside gives a zero-length interval."""
+    intervals: list[tuple[float, float]] = []
+    for k, inside in enumerate(inside_mid):
+        if inside:
+            lo, hi = points[k], points[k + 1]
+            if intervals and intervals[-1][1] == lo:
+                intervals[-1] = (intervals[-1][0], hi)
+            else:
+                intervals.append((lo, hi))
+    last = len(inside_mid)
+    for k, inside in enumerate(inside_cut):
+        if inside and (k == 0 or not inside_mid[k - 1]) and (k == last or not inside_mid[k]):
+            intervals.append((points[k], points[k]))
+    return sorted(intervals)
 
 
 def _times(a: np.ndarray, b: np.ndarray) -> np.ndarray:

@@ -43,8 +43,13 @@ class Result:
         out = {}
         for name in _names(type(self)):
             value = getattr(self, name)
-            if value is not None:
-                out[name] = _plain(value)
+            if value is None:
+                continue
+            if isinstance(value, Result):  # one level at a time; plain values are taken as they are
+                value = value.to_dict()
+            elif isinstance(value, list):
+                value = [_plain(v) for v in value]
+            out[name] = value
         return out
 
     def to_json(self, indent: int | None = 2) -> str:
