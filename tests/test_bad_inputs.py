@@ -101,7 +101,7 @@ def test_a_folder_and_a_missing_file(runner):
 # do not use: each replaced by a list or a table is a field error naming its dotted path.
 
 WRONG_TYPES: list[Any] = [[], {}, [1.0]]
-_NUMBER_WORDS = ("full", "tabs", "together")
+_NUMBER_WORDS = ("full", "school", "together")
 
 
 def _number_fields(data: Any, prefix: str = "") -> list[str]:

@@ -85,7 +85,7 @@ def test_station_and_tank_ids_that_are_csv_columns_lose_their_weights(tmp_path):
     fleet.mkdir()
     shutil.copy(BAD / "aircraft_reserved_ids.toml", fleet / "colliding.toml")
     day = tmp_path / "day.csv"
-    day.write_text("registration,pilot,date,bag1,reserve\nDEMO-4T,400,360,100,full\n")
+    day.write_text("registration,pilot,date,hold,reserve\nDEMO-4T,400,300,100,full\n")
     db = tmp_path / "records.sqlite3"
     _refused(["fleet", "check", str(fleet), str(day), "--record", str(db)], "DEMO-4T", "day.csv:2", folder=fleet)
     from loadcheck.records import RecordLog

@@ -465,7 +465,7 @@ def _named_trip(tmp_path: Path, names: str, leg_names: str = "") -> Path:
 
     (tmp_path / "aircraft.toml").write_text(TRIP_AIRCRAFT)
     path = tmp_path / "named.toml"
-    text = ('format = 1\naircraft = "aircraft.toml"\n[load]\nfront = 340\nrear = 150\nbags = 40\n[fuel]\nmain = "tabs"\n'
+    text = ('format = 1\naircraft = "aircraft.toml"\n[load]\nfront = 340\nrear = 150\nbags = 40\n[fuel]\nmain = "local"\n'
             f'[burn]\ntaxi = 1\ntrip = 10\n[names]\n{names}\n')
     if leg_names:
         text += f'[[leg]]\nload = {{ front = 170 }}\nburn = {{ trip = 5 }}\nnames = {{ {leg_names} }}\n'

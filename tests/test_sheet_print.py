@@ -90,7 +90,7 @@ def test_sheet_with_the_longest_names_still_prints_on_one_page(tmp_path):
     names = {"front": ("Alexandra Wilhelmina " * 4)[:MAX_NAME_LENGTH], "rear": ("Bartholomew Okonkwo-Smith " * 3)[:MAX_NAME_LENGTH]}
     loading = tmp_path / "named.toml"
     loading.write_text('format = 1\naircraft = "aircraft.toml"\n[load]\nfront = 340\nrear = 150\nbags = 40\n[fuel]\n'
-                       'main = "tabs"\n[burn]\ntaxi = 1\ntrip = 10\n[names]\n'
+                       'main = "local"\n[burn]\ntaxi = 1\ntrip = 10\n[names]\n'
                        + "".join(f'{k} = "{v}"\n' for k, v in names.items()))
     sheet = tmp_path / "sheet.html"
     assert runner.invoke(app, ["check", str(loading), "--sheet", str(sheet)]).exit_code == 0

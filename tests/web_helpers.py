@@ -65,7 +65,7 @@ label = "Main tank"
 arm = 45.0
 usable = 40.0
 fuel = "avgas"
-levels = { tabs = 25.0 }
+levels = { local = 25.0 }
 
 [[envelope]]
 category = "normal"
