@@ -204,7 +204,7 @@ def test_no_job_checks_a_trip_as_its_first_leg_alone(tmp_path):
 # -- fuel carried over and added ------------------------------------------------------------
 
 TWO_TANKS = simple_aircraft(tank=[{"id": "aux", "arm": 60.0, "usable": 10.0, "fuel": "avgas"},
-                                  {"id": "mains", "arm": 45.0, "usable": 40.0, "fuel": "avgas", "levels": {"tabs": 25.0}}])
+                                  {"id": "mains", "arm": 45.0, "usable": 40.0, "fuel": "avgas", "levels": {"local": 25.0}}])
 
 
 def _trip(*legs, **first):
@@ -222,7 +222,7 @@ def test_fuel_carries_over_tank_by_tank_in_the_burn_order():
 
 
 @pytest.mark.parametrize("add, aux, mains", [
-    ({"aux": 4}, 4.0, 25.0), ({"mains": "full"}, 0.0, 40.0), ({"mains": "tabs"}, 0.0, 25.0),
+    ({"aux": 4}, 4.0, 25.0), ({"mains": "full"}, 0.0, 40.0), ({"mains": "local"}, 0.0, 25.0),
     ({"aux": "12 lb", "mains": "3 usgal"}, 2.0, 28.0),  # 12 lb of avgas at 6.0 lb/US gal is 2 US gal
 ])
 def test_fuel_added_at_a_stop(add, aux, mains):
@@ -234,7 +234,7 @@ def test_fuel_added_at_a_stop(add, aux, mains):
 
 @pytest.mark.parametrize("add, words, error", [
     ({"mains": 20}, "above the tank's usable capacity", InputError),
-    ({"aux": "tabs"}, "unknown fill level", UnknownNameError),
+    ({"aux": "local"}, "unknown fill level", UnknownNameError),
     ({"wing": 5}, "unknown tank", UnknownNameError),
 ])
 def test_fuel_that_cannot_go_in_is_refused(add, words, error):
@@ -243,8 +243,8 @@ def test_fuel_that_cannot_go_in_is_refused(add, words, error):
 
 
 def test_a_level_below_the_fuel_on_board_is_refused():
-    with pytest.raises(InputError, match="more than the level"):  # 29 gal on board, tabs are 25
-        resolve_trip(_trip({"add_fuel": {"mains": "tabs"}, "burn": {"trip": 5}},
+    with pytest.raises(InputError, match="more than the level"):  # 29 gal on board, the local level is 25
+        resolve_trip(_trip({"add_fuel": {"mains": "local"}, "burn": {"trip": 5}},
                             burn={"taxi": 1, "trip": 10, "order": ["aux", "mains"]}), TWO_TANKS)
 
 

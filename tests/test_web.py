@@ -654,8 +654,6 @@ def test_record_a_trip_through_the_recording_job(desk: dict[str, Any]) -> None:
     assert "Conditions of leg 1: within limits" in detail and "Conditions of leg 2 (back solo): not within limits" in detail
 
 
-@pytest.mark.xfail(strict=True, reason="verify() of a trip record needs records that accept trip results (branch trips); "
-                                       "remove this mark when it is merged")
 def test_a_recorded_trip_is_verified_by_the_dispatcher(desk: dict[str, Any]) -> None:
     assert _post_check(_client(desk, "pia"), TRIP_LEG_2_AFT, "TEST-TRIP", route="record").status_code == 303
     dan = _client(desk, "dan")

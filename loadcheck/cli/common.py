@@ -145,13 +145,13 @@ def input_errors(func: F) -> F:
 
 
 def _assignments(values: list[str], option: str) -> dict[str, str]:
-    """``["front=340", "bag1=20 kg"]`` -> ``{"front": "340", "bag1": "20 kg"}``."""
+    """``["front=340", "hold=20 kg"]`` -> ``{"front": "340", "hold": "20 kg"}``."""
     result: dict[str, str] = {}
     problems = []
     for value in values:
         name, sep, amount = value.partition("=")
         if not sep or not name.strip() or not amount.strip():
-            problems.append(Problem(option, "expected NAME=VALUE", value=value, expected="e.g. front=340 or bag1='20 kg'"))
+            problems.append(Problem(option, "expected NAME=VALUE", value=value, expected="e.g. front=340 or hold='20 kg'"))
             continue
         if name.strip() in result:
             what = "station takes one weight: add the weights up" if option == "--load" else "tank takes one quantity"
@@ -181,7 +181,7 @@ def _main(
 AircraftArg = Annotated[Path, typer.Argument(metavar="AIRCRAFT", help="Aircraft file (TOML), or a loading file that names its aircraft.")]
 LoadingArg = Annotated[Path | None, typer.Argument(metavar="LOADING", help="Loading file (TOML); optional.")]
 LoadOpt = Annotated[list[str], typer.Option("--load", "-l", metavar="STATION=WEIGHT",
-    help="A weight at a station; repeat the option for each. e.g. front=340, bag1='20 kg'.")]
+    help="A weight at a station; repeat the option for each. e.g. front=340, hold='20 kg'.")]
 FuelOpt = Annotated[list[str], typer.Option("--fuel", "-f", metavar="TANK=QUANTITY",
     help="Fuel in a tank at engine start; repeat for each tank. A volume, 'full', a level name or '120 lb'.")]
 TaxiOpt = Annotated[str | None, typer.Option(metavar="AMOUNT", help="Fuel used before takeoff (volume, or with a unit).")]
