@@ -11,7 +11,6 @@ import shutil
 from pathlib import Path
 
 import pytest
-from typer.testing import CliRunner
 
 from loadcheck import load_aircraft
 from loadcheck.alterations import Changes, alter
@@ -20,8 +19,6 @@ from loadcheck.files import parse_aircraft
 from loadcheck.weighing import current_record_warnings
 
 from .helpers import cell, record_sheet, sample, sample_data
-
-runner = CliRunner()
 
 
 def _trainer_with_range(tmp_path: Path, cg_range: str) -> Path:
@@ -32,7 +29,7 @@ def _trainer_with_range(tmp_path: Path, cg_range: str) -> Path:
     return path
 
 
-def test_alter_warns_when_the_new_cg_leaves_the_empty_weight_cg_range(tmp_path):
+def test_alter_warns_when_the_new_cg_leaves_the_empty_weight_cg_range(runner, tmp_path):
     # the sample changes move the empty-weight CG from 37.20 in forward to about 37.0 in
     path = _trainer_with_range(tmp_path, "[37.1, 38.0]")
     result = alter(load_aircraft(path), Changes.model_validate(sample_data("trainer4/changes.toml")))
@@ -52,7 +49,7 @@ def test_inside_the_range_no_warning(tmp_path):
     assert result.warnings == [] and result.cg_range == (36.0, 38.0)
 
 
-def test_a_current_record_outside_its_range_is_flagged_by_history(tmp_path):
+def test_a_current_record_outside_its_range_is_flagged_by_history(runner, tmp_path):
     path = _trainer_with_range(tmp_path, "[38.0, 40.0]")  # the current record's CG, 37.20 in, is forward of it
     assert current_record_warnings(load_aircraft(path))
     listing = runner.invoke(app, ["history", str(path)])
@@ -61,7 +58,7 @@ def test_a_current_record_outside_its_range_is_flagged_by_history(tmp_path):
 
 
 @pytest.mark.parametrize("aircraft_file", ["heli2/aircraft.toml"])
-def test_alter_json_on_a_rotorcraft(tmp_path, aircraft_file):
+def test_alter_json_on_a_rotorcraft(runner, tmp_path, aircraft_file):
     # issue 14 item 8: "Object of type bool is not JSON serializable" (a numpy bool from the CG range)
     changes = tmp_path / "changes.toml"
     changes.write_text('format = 1\ndate = 2026-11-30\ndescription = "cargo hook"\n'

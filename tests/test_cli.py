@@ -9,19 +9,17 @@ import sys
 from pathlib import Path
 
 import pytest
-from typer.testing import CliRunner
 
 from loadcheck.caution import PILOT_CAUTION
 from loadcheck.cli import app
 
-from .helpers import sample
+from .helpers import app_runner, sample
 
-runner = CliRunner()
 TRAINER = str(sample("trainer4/aircraft.toml"))
 
 
 def invoke(*args: str):
-    return runner.invoke(app, list(args))
+    return app_runner().invoke(app, list(args))
 
 
 def test_check_within_limits_prints_tables_and_caution():

@@ -20,7 +20,6 @@ from pathlib import Path
 import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
-from typer.testing import CliRunner
 
 import loadcheck.files as files_module
 from loadcheck import load_aircraft
@@ -31,8 +30,6 @@ from loadcheck.files import parse_aircraft
 from loadcheck.weighing import Readings, weigh
 
 from .helpers import sample, sample_data
-
-runner = CliRunner()
 
 
 def box(**changes):
@@ -135,7 +132,7 @@ def _copy_trainer(tmp_path: Path) -> Path:
     return tmp_path / "aircraft.toml"
 
 
-def test_history_keeps_every_record_and_the_comments(tmp_path):
+def test_history_keeps_every_record_and_the_comments(runner, tmp_path):
     path = _copy_trainer(tmp_path)
     original = load_aircraft(path)
     assert runner.invoke(app, ["alter", str(path), str(tmp_path / "changes.toml"), "--write", "--yes"]).exit_code == 0
@@ -153,7 +150,7 @@ def test_history_keeps_every_record_and_the_comments(tmp_path):
     assert listing.exit_code == 0 and "alteration" in listing.output and "weighing" in listing.output
 
 
-def test_without_write_nothing_changes(tmp_path):
+def test_without_write_nothing_changes(runner, tmp_path):
     path = _copy_trainer(tmp_path)
     before = path.read_bytes()
     assert runner.invoke(app, ["weigh", str(path), str(tmp_path / "weighing.toml")]).exit_code == 0
@@ -161,7 +158,7 @@ def test_without_write_nothing_changes(tmp_path):
 
 
 @pytest.mark.parametrize("failure", ["replace", "disk_full"])
-def test_a_crash_during_the_write_leaves_the_file_whole(tmp_path, monkeypatch, failure):
+def test_a_crash_during_the_write_leaves_the_file_whole(runner, tmp_path, monkeypatch, failure):
     path = _copy_trainer(tmp_path)
     before = path.read_bytes()
     if failure == "replace":
@@ -193,7 +190,7 @@ def test_a_crash_during_the_write_leaves_the_file_whole(tmp_path, monkeypatch, f
     assert not [p for p in tmp_path.iterdir() if p.name.endswith(".tmp")]
 
 
-def test_file_changed_between_read_and_write_is_refused(tmp_path, monkeypatch):
+def test_file_changed_between_read_and_write_is_refused(runner, tmp_path, monkeypatch):
     path = _copy_trainer(tmp_path)
     import loadcheck.weighing as weighing_module
 
@@ -221,7 +218,7 @@ def test_file_changed_between_read_and_write_is_refused(tmp_path, monkeypatch):
         ("alter", "[[change]]\naction = 'install'\nitem = 'elt'\nweight = 1.0\narm = 2.0\n", "already installed"),
     ],
 )
-def test_bad_mechanic_inputs_write_nothing(tmp_path, command, text, words):
+def test_bad_mechanic_inputs_write_nothing(runner, tmp_path, command, text, words):
     path = _copy_trainer(tmp_path)
     before = path.read_bytes()
     bad = tmp_path / "bad.toml"
@@ -232,7 +229,7 @@ def test_bad_mechanic_inputs_write_nothing(tmp_path, command, text, words):
     assert path.read_bytes() == before
 
 
-def test_mechanic_sheet(tmp_path):
+def test_mechanic_sheet(runner, tmp_path):
     sheet = tmp_path / "record.html"
     result = runner.invoke(app, ["weigh", str(sample("trainer4/aircraft.toml")), str(sample("trainer4/weighing.toml")),
                                  "--sheet", str(sheet)])

@@ -11,7 +11,6 @@ import numpy as np
 import pytest
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
-from typer.testing import CliRunner
 
 from loadcheck import check_loading, load_check_inputs
 from loadcheck import planning as P
@@ -23,7 +22,6 @@ from loadcheck.loading import Loading, resolve_loading
 
 from .helpers import sample
 
-runner = CliRunner()
 TRAINER = load_check_inputs(sample("trainer4/within.toml")).aircraft
 TWIN = load_check_inputs(sample("twin6/within.toml")).aircraft
 
@@ -177,7 +175,7 @@ def test_impossible_requests():
         (["plan", "payload", "trainer4/within.toml"], 2, "--station"),
     ],
 )
-def test_plan_command_line(args, code, words):
+def test_plan_command_line(runner, args, code, words):
     args = [str(sample(a)) if a.endswith(".toml") else a for a in args]
     result = runner.invoke(app, args)
     assert result.exit_code == code, result.output
@@ -185,7 +183,7 @@ def test_plan_command_line(args, code, words):
     assert "Traceback" not in result.output
 
 
-def test_plan_table_and_chart(tmp_path):
+def test_plan_table_and_chart(runner, tmp_path):
     result = runner.invoke(app, ["plan", "table", str(sample("trainer4/within.toml")), "--station", "rear", "--steps", "4",
                                  "--chart", str(tmp_path / "t.svg")])
     assert result.exit_code == 0, result.output
@@ -221,7 +219,7 @@ def test_plan_leave_answers_fuel_left_behind_not_ramp_fuel():
     assert not _ok(aircraft, P._fuel_loading(aircraft, with_payload, ["mains", "aux"], now - answer.answer + 0.2))
 
 
-def test_plan_shift_to_a_target_respects_the_seat_maximum():
+def test_plan_shift_to_a_target_respects_the_seat_maximum(runner):
     # regression: a shift to a target CG proposed 332.9 lb for a seat whose maximum is
     # 250 lb, exited 0 and said nothing about the seat
     aircraft = parse_aircraft({
@@ -283,7 +281,7 @@ def test_a_stretch_is_never_shown_with_its_low_end_above_its_high_end(low, width
         assert low - noise <= numbers[0] < numbers[1] <= low + width + noise
 
 
-def test_plan_fuel_without_any_fuel_given_answers_with_the_taxi_and_trip():
+def test_plan_fuel_without_any_fuel_given_answers_with_the_taxi_and_trip(runner):
     # regression (issue 20): a loading with no fuel entry but taxi and trip was refused
     # (exit 2); "how much fuel can I take" is asked before any fuel is chosen
     args = ["plan", "fuel", str(sample("trainer4/aircraft.toml")), "--load", "front=340", "--load", "rear=150",

@@ -10,7 +10,6 @@ from html.parser import HTMLParser
 from pathlib import Path
 
 import pytest
-from typer.testing import CliRunner
 
 from loadcheck import check_loading, load_check_inputs
 from loadcheck.caution import PILOT_CAUTION
@@ -21,7 +20,6 @@ from loadcheck.render.textplot import text_plot
 
 from .helpers import sample
 
-runner = CliRunner()
 SVG = "{http://www.w3.org/2000/svg}"
 XLINK = "{http://www.w3.org/1999/xlink}"
 
@@ -32,7 +30,7 @@ def _inputs(name: str):
 
 
 @pytest.mark.parametrize("suffix, magic", [("png", b"\x89PNG"), ("svg", b"<?xml"), ("pdf", b"%PDF")])
-def test_chart_in_each_format(tmp_path, suffix, magic):
+def test_chart_in_each_format(runner, tmp_path, suffix, magic):
     path = tmp_path / f"chart.{suffix}"
     result = runner.invoke(app, ["check", str(sample("twin6/leaves_path.toml")), "--chart", str(path)])
     assert result.exit_code == 1
@@ -40,7 +38,7 @@ def test_chart_in_each_format(tmp_path, suffix, magic):
     assert len(data) > 2000 and data.startswith(magic)
 
 
-def test_unknown_chart_format(tmp_path):
+def test_unknown_chart_format(runner, tmp_path):
     result = runner.invoke(app, ["check", str(sample("trainer4/within.toml")), "--chart", str(tmp_path / "c.gif")])
     assert result.exit_code == 2 and ".png, .svg or .pdf" in result.output
     assert not (tmp_path / "c.gif").exists()
@@ -121,7 +119,7 @@ class _Collect(HTMLParser):
             self.rows[self._row].append(data.strip())
 
 
-def test_load_sheet_content(tmp_path):
+def test_load_sheet_content(runner, tmp_path):
     path = tmp_path / "sheet.html"
     result = runner.invoke(app, ["check", str(sample("twin6/leaves_path.toml")), "--sheet", str(path)])
     assert result.exit_code == 1
@@ -145,12 +143,12 @@ def test_load_sheet_content(tmp_path):
     assert "<svg" in html and "@media print" in html
 
 
-def test_sheet_must_be_html(tmp_path):
+def test_sheet_must_be_html(runner, tmp_path):
     result = runner.invoke(app, ["check", str(sample("trainer4/within.toml")), "--sheet", str(tmp_path / "s.pdf")])
     assert result.exit_code == 2
 
 
-def test_text_plot_marks_every_condition():
+def test_text_plot_marks_every_condition(runner):
     inputs, result = _inputs("twin6/leaves_path.toml")
     lines = text_plot(inputs.aircraft, result)
     body = "\n".join(lines)
@@ -162,7 +160,7 @@ def test_text_plot_marks_every_condition():
     assert out.output.index("R ramp") < out.output.index("CAUTION")  # the caution stays last
 
 
-def test_show_lists_everything(tmp_path):
+def test_show_lists_everything(runner, tmp_path):
     result = runner.invoke(app, ["show", str(sample("twin6/aircraft.toml")), "--chart", str(tmp_path / "e.png")],
                            env={"COLUMNS": "200"})  # every table side by side
     assert result.exit_code == 0, result.output
@@ -377,7 +375,7 @@ def test_envelope_and_fuel_payload_charts_have_no_overlapping_or_clipped_text(na
                 assert _shared(texts[a], texts[b]) < 0.5, f"{a} and {b} overlap"
 
 
-def test_load_sheet_has_the_total_the_occupants_and_the_fuel_plan(tmp_path):
+def test_load_sheet_has_the_total_the_occupants_and_the_fuel_plan(runner, tmp_path):
     # regression (issue 15, item 3): no total row; taxi, trip, burn order and reserve left out
     path = tmp_path / "sheet.html"
     result = runner.invoke(app, ["check", str(sample("twin6/within.toml")), "--sheet", str(path)])
@@ -410,7 +408,7 @@ def test_load_sheet_has_the_total_the_occupants_and_the_fuel_plan(tmp_path):
     assert "lb·in" in html and "lb*in" not in html
 
 
-def test_moment_per_1000_column_where_the_envelope_is_read_so(tmp_path):
+def test_moment_per_1000_column_where_the_envelope_is_read_so(runner, tmp_path):
     # issue 15, item 4: the twin's envelope is drawn as moment / 1000 (moment_scale = 1000 in its
     # file); the pilot compares that column with the chart
     inputs, check = _inputs("twin6/within.toml")
@@ -451,7 +449,7 @@ def test_weight_margin_set_by_a_sloping_edge_is_not_read_as_overweight():
     assert "no maximum weight is exceeded" in text
 
 
-def test_validate_counts_in_words():
+def test_validate_counts_in_words(runner):
     # regression (issue 15, item 5): "1 tanks"
     out = runner.invoke(app, ["validate", str(sample("tandem2/aircraft.toml"))], env={"COLUMNS": "200"}).output
     assert "1 tank," in out and "1 tanks" not in out and "4 stations" in out
@@ -473,7 +471,7 @@ def _named_trip(tmp_path: Path, names: str, leg_names: str = "") -> Path:
     return path
 
 
-def test_names_show_beside_each_seat_on_the_load_sheet_as_text(tmp_path):
+def test_names_show_beside_each_seat_on_the_load_sheet_as_text(runner, tmp_path):
     loading = _named_trip(tmp_path, 'front = "Alex <b>Rivera</b>"\nrear = "Sam Okafor"')
     sheet = tmp_path / "sheet.html"
     assert runner.invoke(app, ["check", str(loading), "--sheet", str(sheet)]).exit_code == 0
@@ -509,12 +507,12 @@ def test_a_leg_changes_the_name_of_a_seat_whose_weight_changes(tmp_path):
     ('front = 12', "names.front", "a name is text"),
     ('front = "Al\\nex"', "names.front", "control characters"),
 ])
-def test_a_bad_name_is_refused_with_its_field(tmp_path, names, field, words):
+def test_a_bad_name_is_refused_with_its_field(runner, tmp_path, names, field, words):
     result = runner.invoke(app, ["check", str(_named_trip(tmp_path, names))])
     assert result.exit_code == 2 and field in result.stderr and words in result.stderr, result.output
 
 
-def test_a_name_at_a_station_without_weight_is_refused(tmp_path):
+def test_a_name_at_a_station_without_weight_is_refused(runner, tmp_path):
     loading = _named_trip(tmp_path, 'front = "Alex"')
     result = runner.invoke(app, ["check", str(loading), "--load", "front=0"])
     assert result.exit_code == 2 and "names.front" in result.stderr and "carries no weight" in result.stderr
@@ -530,7 +528,7 @@ def _every_command(command, path=()):
         yield from _every_command(sub, (*path, name))
 
 
-def test_no_command_help_shows_a_python_type_or_braces():
+def test_no_command_help_shows_a_python_type_or_braces(runner):
     # regression: `loadcheck validate --help` printed `FILES <list[Path]>` and `{FILES}...`
     import typer
 

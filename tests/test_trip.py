@@ -23,7 +23,6 @@ import pytest
 import tomlkit
 from hypothesis import given, settings
 from hypothesis import strategies as st
-from typer.testing import CliRunner
 
 from loadcheck import check_loading, load_check_inputs
 from loadcheck.cli import app
@@ -33,8 +32,6 @@ from loadcheck.loading import Loading, resolve_trip
 from loadcheck.trip import check_trip, fuel_to_add, trip_most_fuel
 
 from .helpers import sample, simple_aircraft
-
-runner = CliRunner()
 
 # FAA-H-8083-1B (2016) ch. 8 p. 8-3: arms and weights as published; fuel 48 gal weighing
 # 288 lb, i.e. 6.0 lb/gal (avgas). Maximum gross weight 2,250 lb (published). Usable fuel
@@ -154,7 +151,7 @@ def test_two_legs_the_second_alone_fails_aft_and_right():
     assert alone.to_dict() == second.to_dict()
 
 
-def test_the_trip_exits_1_naming_leg_2(tmp_path):
+def test_the_trip_exits_1_naming_leg_2(runner, tmp_path):
     path = _write_files(tmp_path)
     shown = runner.invoke(app, ["check", str(path)])
     assert shown.exit_code == 1, shown.output
@@ -169,7 +166,7 @@ def test_the_trip_exits_1_naming_leg_2(tmp_path):
     assert data["caution"] and data["units"]["mass"] == "lb"
 
 
-def test_the_command_line_takes_legs(tmp_path):
+def test_the_command_line_takes_legs(runner, tmp_path):
     path = _write_files(tmp_path, LOADING_FILE.split("[[leg]]")[0])
     same = runner.invoke(app, ["check", str(path), "--leg-load", "2:passenger_seat=0", "--leg-burn", "2:trip=10",
                                "--leg-burn", "2:taxi=0", "--json"])
@@ -184,14 +181,14 @@ def test_the_command_line_takes_legs(tmp_path):
     assert skipped.exit_code == 2 and "skips leg 2" in skipped.output
 
 
-def test_a_bad_leg_is_refused_with_its_field_path(tmp_path):
+def test_a_bad_leg_is_refused_with_its_field_path(runner, tmp_path):
     path = _write_files(tmp_path, LOADING_FILE.replace("passenger_seat = 0 }", "cargo = 0 }"))
     result = runner.invoke(app, ["check", str(path)])
     assert result.exit_code == 2 and "leg[0].load.cargo" in result.output and "leg 2" in result.output
     assert "Traceback" not in result.output
 
 
-def test_no_job_checks_a_trip_as_its_first_leg_alone(tmp_path):
+def test_no_job_checks_a_trip_as_its_first_leg_alone(runner, tmp_path):
     loading = Loading.model_validate({**FIRST_LEG, "leg": [SECOND_LEG]})
     with pytest.raises(InputError, match="trip of 2 legs"):
         check_loading(HELICOPTER, loading)
@@ -276,7 +273,7 @@ def test_a_trip_of_one_leg_equals_todays_single_check(v):
     assert [f.message for f in trip.findings] == [f"leg 1: {f.message}" for f in single.findings]
 
 
-def test_a_loading_without_legs_prints_todays_json():
+def test_a_loading_without_legs_prints_todays_json(runner):
     path = sample("heli2/dual.toml")
     data = json.loads(runner.invoke(app, ["check", str(path), "--json"]).output)
     inputs = load_check_inputs(path)
@@ -346,7 +343,7 @@ def test_fuel_to_add_at_a_stop_agrees_with_brute_force():
     assert least == pytest.approx(min(good), abs=0.1 + 1e-6) and least >= min(good) - 0.01  # never below what is needed
 
 
-def test_the_sample_trip_is_within_limits_on_every_leg(tmp_path):
+def test_the_sample_trip_is_within_limits_on_every_leg(runner, tmp_path):
     result = runner.invoke(app, ["check", str(sample("heli2/trip_drop_off.toml")), "--chart", str(tmp_path / "t.svg"),
                                  "--sheet", str(tmp_path / "t.html")])
     assert result.exit_code == 0, result.output
@@ -356,7 +353,7 @@ def test_the_sample_trip_is_within_limits_on_every_leg(tmp_path):
     assert "WITHIN LIMITS on every leg" in html and "id='leg-2'" in html and html.count("CAUTION") == 1
 
 
-def test_plan_commands_for_a_trip():
+def test_plan_commands_for_a_trip(runner):
     path = str(sample("heli2/trip_drop_off.toml"))
     fuel = runner.invoke(app, ["plan", "fuel", path])
     assert fuel.exit_code == 0 and "every leg" in fuel.output, fuel.output
@@ -414,7 +411,7 @@ def test_rows_of_one_trip_come_together(tmp_path):
         assert row.loading is None and "given in parts" in words and "lines 2 and 4" in words and "is not checked" in words
 
 
-def test_a_trip_is_recorded_as_one_record_and_plots_every_leg(tmp_path):
+def test_a_trip_is_recorded_as_one_record_and_plots_every_leg(runner, tmp_path):
     path = str(sample("heli2/trip_drop_off.toml"))
     recorded = runner.invoke(app, ["check", path, "--record", str(tmp_path / "log.db"), "--json"])
     assert recorded.exit_code == 0 and "recorded as 1" in recorded.stderr

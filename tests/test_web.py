@@ -24,6 +24,7 @@ from loadcheck.files import load_check_inputs
 from loadcheck.records import RecordLog
 from loadcheck.web import create_app
 
+from .helpers import AppRunner
 from .web_helpers import PASSWORD, SAMPLES, TRIP_LEG_2_AFT, csrf_of, make_desk, sign_in
 
 WITHIN = {"load.front": "340", "load.rear": "160", "load.hold": "15 kg", "fuel.mains": "school", "fuel.centre": "0",
@@ -256,9 +257,8 @@ def test_load_sheet_is_the_command_lines_sheet(desk: dict[str, Any]) -> None:
     assert escape(PILOT_CAUTION) in page
 
 
-def test_load_sheet_has_the_fuel_plan_and_names_as_check_sheet_gives_them(desk: dict[str, Any], tmp_path: Path) -> None:
+def test_load_sheet_has_the_fuel_plan_and_names_as_check_sheet_gives_them(runner: AppRunner, desk: dict[str, Any], tmp_path: Path) -> None:
     # regression: the desk's sheet of a single check left out the fuel plan (taxi, trip, reserve, order) that check --sheet shows
-    from typer.testing import CliRunner
 
     from loadcheck.cli import app
 
@@ -268,7 +268,7 @@ def test_load_sheet_has_the_fuel_plan_and_names_as_check_sheet_gives_them(desk: 
     loading.write_text('format = 1\n[load]\nfront = "340"\nbags = "100"\n[names]\nfront = "Alex"\n[fuel]\nmain = "full"\n'
                        '[burn]\ntaxi = "1"\ntrip = "20"\n')
     cli_file = tmp_path / "one.html"
-    assert CliRunner().invoke(app, ["check", str(desk["fleet"] / "trip_test.toml"), str(loading), "--sheet", str(cli_file)]).exit_code == 0
+    assert runner.invoke(app, ["check", str(desk["fleet"] / "trip_test.toml"), str(loading), "--sheet", str(cli_file)]).exit_code == 0
 
     def text(html: str) -> list[str]:  # words and figures, without the time of the check, the loading's name and the chart
         html = re.sub(r"<svg.*</svg>", "", html, flags=re.S)
@@ -359,12 +359,11 @@ def test_dispatcher_filters_by_aircraft_verdict_and_date(desk: dict[str, Any]) -
     assert dan.get("/records?date=yesterday").status_code == 422
 
 
-def test_dispatcher_sees_checks_recorded_by_the_command_line(desk: dict[str, Any]) -> None:
-    from typer.testing import CliRunner
+def test_dispatcher_sees_checks_recorded_by_the_command_line(runner: AppRunner, desk: dict[str, Any]) -> None:
 
     from loadcheck.cli import app
 
-    result = CliRunner().invoke(app, ["check", str(desk["fleet"] / "trainer4" / "within.toml"), "--record", str(desk["db"])])
+    result = runner.invoke(app, ["check", str(desk["fleet"] / "trainer4" / "within.toml"), "--record", str(desk["db"])])
     assert result.exit_code == 0, result.output
     rows = _client(desk, "dan").get("/api/records").json()
     assert len(rows) == 1 and rows[0]["source"].endswith("within.toml")
@@ -663,8 +662,7 @@ def test_a_recorded_trip_is_verified_by_the_dispatcher(desk: dict[str, Any]) -> 
     assert verified.status_code == 200 and "Verified:" in verified.text
 
 
-def test_trip_load_sheet_is_the_command_lines_trip_sheet(desk: dict[str, Any], tmp_path: Path) -> None:
-    from typer.testing import CliRunner
+def test_trip_load_sheet_is_the_command_lines_trip_sheet(runner: AppRunner, desk: dict[str, Any], tmp_path: Path) -> None:
 
     from loadcheck.cli import app
 
@@ -673,7 +671,7 @@ def test_trip_load_sheet_is_the_command_lines_trip_sheet(desk: dict[str, Any], t
     args = ["check", str(desk["fleet"] / "trip_test.toml"), "--load", "front=340", "--load", "bags=100", "--fuel", "main=full",
             "--taxi", "1", "--trip", "20", "--leg-load", "2:front=170", "--leg-fuel", "2:main=5", "--leg-burn", "2:taxi=1",
             "--leg-burn", "2:trip=10", "--sheet", str(cli_file)]
-    assert CliRunner().invoke(app, args).exit_code == 1
+    assert runner.invoke(app, args).exit_code == 1
     def text(html: str) -> str:  # the sheet's words and figures, without the time of the check and the chart
         html = re.sub(r"<svg.*</svg>", "", html, flags=re.S)
         return re.sub(r"Checked:</span> [^<]*|, leg 2 \(back solo\)|, leg 2|<[^>]+>|\s+", " ", html)
@@ -703,15 +701,14 @@ def test_plan_a_trip_from_the_form_is_the_library_answer(desk: dict[str, Any]) -
     assert _records(desk) == []
 
 
-def test_api_check_takes_legs_as_the_command_line_does(desk: dict[str, Any]) -> None:
-    from typer.testing import CliRunner
+def test_api_check_takes_legs_as_the_command_line_does(runner: AppRunner, desk: dict[str, Any]) -> None:
 
     from loadcheck.cli import app
 
     args = ["check", str(desk["fleet"] / "trip_test.toml"), "--load", "front=340", "--load", "bags=100", "--fuel", "main=full",
             "--taxi", "1", "--trip", "20", "--leg-load", "2:front=170", "--leg-fuel", "2:main=5", "--leg-burn", "2:taxi=1",
             "--leg-burn", "2:trip=10", "--json"]
-    cli = CliRunner().invoke(app, args)
+    cli = runner.invoke(app, args)
     assert cli.exit_code == 1
     body = {"registration": "TEST-TRIP", "load": {"front": 340, "bags": 100}, "fuel": {"main": "full"},
             "burn": {"taxi": 1, "trip": 20}, "leg": [{"load": {"front": 170}, "add_fuel": {"main": 5}, "burn": {"taxi": 1, "trip": 10}}]}
@@ -722,7 +719,7 @@ def test_api_check_takes_legs_as_the_command_line_does(desk: dict[str, Any]) -> 
     recorded = client.post("/api/check", json={**body, "record": True}).json()
     assert [r.id for r in _records(desk)] == [recorded["record_id"]] and len(recorded["legs"]) == 2
     stop = client.post("/api/plan/stop", json={**body, "stop": 2})
-    cli_stop = CliRunner().invoke(app, ["plan", "stop", *args[1:-1], "--leg", "2", "--json"])
+    cli_stop = runner.invoke(app, ["plan", "stop", *args[1:-1], "--leg", "2", "--json"])
     assert stop.status_code == 200 and stop.json() == json.loads(cli_stop.stdout)
 
 
@@ -785,12 +782,11 @@ def test_a_bad_name_brings_the_form_back_with_the_field_named(desk: dict[str, An
 
 # -- the JSON API --------------------------------------------------------------------------------
 
-def test_api_check_is_the_command_lines_json(desk: dict[str, Any]) -> None:
-    from typer.testing import CliRunner
+def test_api_check_is_the_command_lines_json(runner: AppRunner, desk: dict[str, Any]) -> None:
 
     from loadcheck.cli import app
 
-    cli = CliRunner().invoke(app, ["check", str(SAMPLES / "twin6" / "leaves_path.toml"), "--json"])
+    cli = runner.invoke(app, ["check", str(SAMPLES / "twin6" / "leaves_path.toml"), "--json"])
     body = {"registration": "DEMO-6P", "load": {"row1": 380, "row2": 340, "nose": 200}, "fuel": {"mains": 100, "aux": 40},
             "burn": {"taxi": 2, "trip": 90, "order": ["aux", "mains"]}}
     answer = _client(desk, "pia").post("/api/check", json=body)
@@ -817,8 +813,7 @@ def test_api_bad_value_names_the_field(desk: dict[str, Any]) -> None:
     assert _records(desk) == []
 
 
-def test_api_plans_are_the_command_lines_json(desk: dict[str, Any]) -> None:
-    from typer.testing import CliRunner
+def test_api_plans_are_the_command_lines_json(runner: AppRunner, desk: dict[str, Any]) -> None:
 
     from loadcheck.cli import app
 
@@ -827,9 +822,9 @@ def test_api_plans_are_the_command_lines_json(desk: dict[str, Any]) -> None:
             "burn": {"taxi": 1.2, "trip": 18, "reserve": 8}}
     client = _client(desk, "pia")
     fuel = client.post("/api/plan/fuel", json=body).json()
-    assert fuel == json.loads(CliRunner().invoke(app, ["plan", "fuel", within, "--json"]).stdout)
+    assert fuel == json.loads(runner.invoke(app, ["plan", "fuel", within, "--json"]).stdout)
     payload = client.post("/api/plan/payload", json={**body, "station": "hold"}).json()
-    assert payload == json.loads(CliRunner().invoke(app, ["plan", "payload", within, "--station", "hold", "--json"]).stdout)
+    assert payload == json.loads(runner.invoke(app, ["plan", "payload", within, "--station", "hold", "--json"]).stdout)
     assert client.post("/api/plan/payload", json=body).status_code == 422  # no station
 
 
@@ -869,31 +864,29 @@ def test_server_refuses_a_non_loopback_address_without_the_option() -> None:
     assert "TLS" in REMOTE_CAUTION and "trusted network" in REMOTE_CAUTION
 
 
-def test_serve_command_refuses_remote_and_prints_the_caution(tmp_path: Path, monkeypatch: pytest.MonkeyPatch) -> None:
+def test_serve_command_refuses_remote_and_prints_the_caution(runner: AppRunner, tmp_path: Path, monkeypatch: pytest.MonkeyPatch) -> None:
     import uvicorn
-    from typer.testing import CliRunner
 
     from loadcheck.cli import app
 
-    refused = CliRunner().invoke(app, ["serve", str(SAMPLES), "--host", "0.0.0.0", "--users", str(tmp_path / "u.json")])
+    refused = runner.invoke(app, ["serve", str(SAMPLES), "--host", "0.0.0.0", "--users", str(tmp_path / "u.json")])
     assert refused.exit_code == 2 and "--allow-remote" in refused.output
     started: dict[str, Any] = {}
     monkeypatch.setattr(uvicorn, "run", lambda app, **kw: started.update(kw))
-    allowed = CliRunner().invoke(app, ["serve", str(SAMPLES), "--host", "0.0.0.0", "--allow-remote",
+    allowed = runner.invoke(app, ["serve", str(SAMPLES), "--host", "0.0.0.0", "--allow-remote",
                                        "--users", str(tmp_path / "u.json"), "--db", str(tmp_path / "r.sqlite3")])
     assert allowed.exit_code == 0 and "TLS" in allowed.output and started["host"] == "0.0.0.0"
     monkeypatch.setattr(uvicorn, "run", lambda app, **kw: started.update(kw))
-    CliRunner().invoke(app, ["serve", str(SAMPLES), "--users", str(tmp_path / "u.json")])
+    runner.invoke(app, ["serve", str(SAMPLES), "--users", str(tmp_path / "u.json")])
     assert started["host"] == "127.0.0.1"
 
 
-def test_users_commands(tmp_path: Path) -> None:
-    from typer.testing import CliRunner
+def test_users_commands(runner: AppRunner, tmp_path: Path) -> None:
 
     from loadcheck.cli import app
 
     users = str(tmp_path / "users.json")
-    run = CliRunner().invoke
+    run = runner.invoke
     assert run(app, ["users", "add", "robin", "-r", "pilot", "-r", "mechanic", "--password-stdin", "--users", users],
                input="first pass phrase\n").exit_code == 0
     listed = run(app, ["users", "list", "--users", users])

@@ -15,7 +15,6 @@ import tomllib
 from pathlib import Path
 
 import pytest
-from typer.testing import CliRunner
 
 import loadcheck.cli.mechanic as mechanic_cli
 from loadcheck import load_aircraft
@@ -24,9 +23,7 @@ from loadcheck.empty_record import NOTE_CHARS, NotConfirmedError, OverrideNeeded
 from loadcheck.files import MAX_FILE_BYTES, parse_aircraft, read_text
 from loadcheck.weighing import Readings, weigh
 
-from .helpers import cell, record_sheet, sample
-
-runner = CliRunner()
+from .helpers import app_runner, cell, record_sheet, sample
 
 
 def _trainer(tmp_path: Path) -> Path:
@@ -42,7 +39,7 @@ def _readings(tmp_path: Path, old: str, new: str, name: str = "readings.toml") -
 
 
 def _weigh(path: Path, readings: Path, *options: str):
-    return runner.invoke(app, ["weigh", str(path), str(readings), *options])
+    return app_runner().invoke(app, ["weigh", str(path), str(readings), *options])
 
 
 # -- item 2: impossible and implausible records ---------------------------------------------
@@ -63,7 +60,7 @@ def test_a_mistyped_reading_that_leaves_no_useful_load_is_never_written(tmp_path
         assert path.read_bytes() == before
 
 
-def test_an_implausible_change_needs_an_override_that_the_history_keeps(tmp_path):
+def test_an_implausible_change_needs_an_override_that_the_history_keeps(runner, tmp_path):
     path = _trainer(tmp_path)
     before = path.read_bytes()
     heavy = _readings(tmp_path, "reading = 598.0", "reading = 818.0")  # +220 lb: about 11 % above the record's 1,718 lb
@@ -99,7 +96,7 @@ def test_a_cg_outside_every_envelope_needs_an_override(tmp_path):
         ("basis = ", "cg_range = [41.0, 37.0]\nbasis = ", "cg_range is reversed"),
     ],
 )
-def test_validate_refuses_an_impossible_aircraft(tmp_path, old, new, words):
+def test_validate_refuses_an_impossible_aircraft(runner, tmp_path, old, new, words):
     path = _trainer(tmp_path)
     path.write_text(path.read_text().replace(old, new, 1))
     result = runner.invoke(app, ["validate", str(path)])
@@ -121,7 +118,7 @@ def test_a_non_interactive_write_needs_yes(tmp_path):
 
 
 @pytest.mark.parametrize("answer, written", [("n\n", False), ("y\n", True), ("\n", False)])
-def test_at_a_terminal_the_old_and_new_record_are_shown_and_asked(tmp_path, monkeypatch, answer, written):
+def test_at_a_terminal_the_old_and_new_record_are_shown_and_asked(runner, tmp_path, monkeypatch, answer, written):
     path = _trainer(tmp_path)
     before = path.read_bytes()
     monkeypatch.setattr(mechanic_cli, "_interactive", lambda: True)
@@ -154,7 +151,7 @@ def test_options_without_write_are_refused(tmp_path):
 # -- item 5: a bounded history ------------------------------------------------------------------
 
 
-def test_a_long_note_does_not_make_the_aircraft_file_unreadable(tmp_path):
+def test_a_long_note_does_not_make_the_aircraft_file_unreadable(runner, tmp_path):
     path = _trainer(tmp_path)
     note = "scale calibration log: " + "x" * 2_500_000
     long = tmp_path / "long.toml"
@@ -204,7 +201,7 @@ def test_a_huge_readings_file_is_kept_as_its_digest(tmp_path):
     ids=["inline-history", "inline-empty", "dotted-empty", "history-subtables"],
 )
 @pytest.mark.parametrize("command", ["weigh", "alter"])
-def test_every_toml_layout_is_written_and_read_back(tmp_path, edit, command):
+def test_every_toml_layout_is_written_and_read_back(runner, tmp_path, edit, command):
     path = _trainer(tmp_path)
     path.write_text(edit(path.read_text()))
     assert runner.invoke(app, ["validate", str(path)]).exit_code == 0
@@ -217,7 +214,7 @@ def test_every_toml_layout_is_written_and_read_back(tmp_path, edit, command):
     assert after.empty.weight != 1718.0
 
 
-def test_an_inline_equipment_list_stays_inline(tmp_path):
+def test_an_inline_equipment_list_stays_inline(runner, tmp_path):
     path = _trainer(tmp_path)
     text = path.read_text()
     inline = ('equipment = [{id = "com2", weight = 3.1, arm = 17.0}, {id = "elt", weight = 2.4, arm = 140.0}, '
@@ -244,7 +241,7 @@ def _heli(tmp_path: Path, lateral: str) -> tuple[Path, Path]:
     return tmp_path / "aircraft.toml", readings
 
 
-def test_a_lateral_envelope_needs_lateral_readings_or_an_explicit_statement(tmp_path):
+def test_a_lateral_envelope_needs_lateral_readings_or_an_explicit_statement(runner, tmp_path):
     aircraft, readings = _heli(tmp_path, "")
     measured = runner.invoke(app, ["weigh", str(aircraft), str(readings), "--json"])
     assert measured.exit_code == 0, measured.output

@@ -9,7 +9,6 @@ from __future__ import annotations
 import errno
 
 import pytest
-from typer.testing import CliRunner
 
 import loadcheck.files as files_module
 from loadcheck.cli import app
@@ -17,8 +16,6 @@ from loadcheck.errors import FileFormatError
 from loadcheck.records import RecordLog
 
 from .helpers import sample
-
-runner = CliRunner()
 
 
 def _crash(monkeypatch, how: str) -> None:
@@ -43,7 +40,7 @@ def _crash(monkeypatch, how: str) -> None:
         (["show", str(sample("twin6/aircraft.toml")), "--chart"], "envelope.pdf"),
     ],
 )
-def test_old_content_survives_a_failed_write(tmp_path, monkeypatch, how, args, name):
+def test_old_content_survives_a_failed_write(runner, tmp_path, monkeypatch, how, args, name):
     target = tmp_path / name
     target.write_bytes(b"the old content")
     _crash(monkeypatch, how)
@@ -54,7 +51,7 @@ def test_old_content_survives_a_failed_write(tmp_path, monkeypatch, how, args, n
     assert [p.name for p in tmp_path.iterdir()] == [name]  # no temporary file left behind
 
 
-def test_export_survives_a_failed_write(tmp_path, monkeypatch):
+def test_export_survives_a_failed_write(runner, tmp_path, monkeypatch):
     db = tmp_path / "records.sqlite3"
     with RecordLog(db) as log:
         log.add(aircraft_data={"a": 1}, fingerprint="f", inputs={}, result={"ok": True, "category": "normal"})
@@ -101,7 +98,7 @@ def _linked_trainer(tmp_path):
     return link, versions / "v7.toml"
 
 
-def test_weigh_write_goes_through_a_symlink_to_its_target(tmp_path):
+def test_weigh_write_goes_through_a_symlink_to_its_target(runner, tmp_path):
     from loadcheck import load_aircraft
 
     link, target = _linked_trainer(tmp_path)
@@ -117,7 +114,7 @@ def test_weigh_write_goes_through_a_symlink_to_its_target(tmp_path):
     ["weigh", str(sample("trainer4/aircraft.toml")), str(sample("trainer4/weighing.toml")), "--sheet"],
     ["check", str(sample("trainer4/within.toml")), "--sheet"],
 ])
-def test_sheets_go_through_a_symlink(tmp_path, args):
+def test_sheets_go_through_a_symlink(runner, tmp_path, args):
     import os
 
     (tmp_path / "real.html").write_text("old")
@@ -127,7 +124,7 @@ def test_sheets_go_through_a_symlink(tmp_path, args):
     assert (tmp_path / "record.html").is_symlink() and "<!DOCTYPE html>" in (tmp_path / "real.html").read_text()
 
 
-def test_export_goes_through_a_symlink(tmp_path):
+def test_export_goes_through_a_symlink(runner, tmp_path):
     import os
 
     db = tmp_path / "records.sqlite3"
@@ -142,7 +139,7 @@ def test_export_goes_through_a_symlink(tmp_path):
 
 @pytest.mark.parametrize("through_link", [False, True])
 @pytest.mark.parametrize("command", ["record-sheet", "load-sheet", "export"])
-def test_a_fifo_is_refused_not_replaced_or_read(tmp_path, command, through_link):
+def test_a_fifo_is_refused_not_replaced_or_read(runner, tmp_path, command, through_link):
     import os
 
     fifo = tmp_path / "pipe.html"
@@ -221,7 +218,7 @@ def _write_path(tmp_path, monkeypatch, path_kind):
 
 @pytest.mark.parametrize("how", ["crash", "disk_full"])
 @pytest.mark.parametrize("path_kind", ["symlink", "confirmation", "override"])
-def test_new_write_paths_survive_a_crash_and_a_full_disk(tmp_path, monkeypatch, how, path_kind):
+def test_new_write_paths_survive_a_crash_and_a_full_disk(runner, tmp_path, monkeypatch, how, path_kind):
     whole, args, answer = _write_path(tmp_path, monkeypatch, path_kind)
     before = whole.read_bytes()
     _crash(monkeypatch, how)
