@@ -127,22 +127,6 @@ def test_unknown_unit(tmp_path):
     _assert_input_error(invoke("check", TRAINER, "--load", "front=20 kgs x"), "load.front")
 
 
-def test_self_intersecting_envelope(tmp_path):
-    text = Path(TRAINER).read_text().replace(
-        "points = [[35.0, 1500], [38.6, 2450], [45.2, 2450], [46.8, 2000], [46.8, 1500]]",
-        "points = [[35.0, 1500], [46.8, 2450], [46.8, 1500], [35.0, 2450]]",
-    )
-    _assert_input_error(invoke("check", _bad(tmp_path, text)), "envelope[0]", "Self-intersection")
-
-
-def test_degenerate_envelope(tmp_path):
-    text = Path(TRAINER).read_text().replace(
-        "points = [[35.0, 1500], [38.6, 2450], [45.2, 2450], [46.8, 2000], [46.8, 1500]]",
-        "points = [[35.0, 1500], [40.0, 2000], [45.0, 2500]]",
-    )
-    _assert_input_error(invoke("check", _bad(tmp_path, text)), "envelope[0]", "not usable")
-
-
 def test_fuel_above_capacity():
     _assert_input_error(invoke("check", TRAINER, "--fuel", "mains=55"), "fuel.mains", "usable capacity", "44")
 
