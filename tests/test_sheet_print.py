@@ -28,8 +28,9 @@ pytestmark = pytest.mark.skipif(not (BROWSER and POPPLER), reason="needs Chromiu
 
 # paper: (CSS size, pdfinfo's size in points); ISO 216 A4 is 210 x 297 mm, US letter 8.5 x 11 in
 PAPERS = {"letter": ("letter", (612.0, 792.0)), "A4": ("A4", (595.3, 841.9))}
-SHEETS = ["twin6/leaves_path.toml", "trainer4/over_weight.toml", "heli2/solo_heavy_right.toml", "tandem2/aft_heavy.toml",
-          "trainer4/within.toml"]
+OTHERS = ["twin6/leaves_path.toml", "trainer4/over_weight.toml", "heli2/solo_heavy_right.toml", "tandem2/aft_heavy.toml"]
+# one sheet prints in the default run; the other sheets (a headless browser each) with --long
+SHEETS = ["trainer4/within.toml", *(pytest.param(n, marks=pytest.mark.slow) for n in OTHERS)]
 
 
 def _print(html_path, pdf_path):

@@ -314,8 +314,12 @@ def _printer() -> str | None:
 
 @pytest.mark.skipif(_printer() is None or shutil.which("pdfinfo") is None or shutil.which("pdftotext") is None,
                     reason="needs headless chromium and poppler-utils (pdfinfo, pdftotext)")
-@pytest.mark.parametrize("paper", ["letter", "A4"])
-@pytest.mark.parametrize("command", ["weigh", "alter"])
+@pytest.mark.parametrize("command, paper", [
+    ("weigh", "letter"),  # the default run prints one record; the other three (a headless browser each) with --long
+    pytest.param("weigh", "A4", marks=pytest.mark.slow),
+    pytest.param("alter", "letter", marks=pytest.mark.slow),
+    pytest.param("alter", "A4", marks=pytest.mark.slow),
+])
 def test_the_printed_record_fits_one_page_with_its_signature_block(tmp_path, command, paper):
     source = sample("trainer4/weighing.toml" if command == "weigh" else "trainer4/changes.toml")
     html = record_sheet(tmp_path, command, sample("trainer4/aircraft.toml"), source)
