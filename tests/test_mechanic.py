@@ -29,7 +29,7 @@ from loadcheck.errors import UnknownNameError
 from loadcheck.files import parse_aircraft
 from loadcheck.weighing import Readings, weigh
 
-from .helpers import sample, sample_data
+from .helpers import examples, sample, sample_data
 
 
 def box(**changes):
@@ -56,7 +56,7 @@ def test_faa_h_8083_1b_electronic_calculator_example():
     assert result.formula_cg == pytest.approx(result.as_weighed.arm)
 
 
-@settings(max_examples=200, deadline=None)
+@settings(max_examples=examples(200), deadline=None)
 @given(st.sampled_from(["nosewheel", "tailwheel"]), st.sampled_from(["forward", "aft"]),
        st.floats(0, 200), st.floats(20, 300), st.floats(10, 2000), st.floats(100, 5000), st.floats(100, 5000))
 def test_four_formulas_agree_with_the_sum_of_moments(gear, datum, d, length, other, left, right):

@@ -20,7 +20,7 @@ from loadcheck.errors import InputError, UnknownNameError
 from loadcheck.files import parse_aircraft
 from loadcheck.loading import Loading, resolve_loading
 
-from .helpers import sample
+from .helpers import examples, sample
 
 TRAINER = load_check_inputs(sample("trainer4/within.toml")).aircraft
 TWIN = load_check_inputs(sample("twin6/within.toml")).aircraft
@@ -44,7 +44,7 @@ trainer_loads = st.fixed_dictionaries({
 })
 
 
-@settings(max_examples=8, deadline=None, suppress_health_check=[HealthCheck.too_slow])
+@settings(max_examples=examples(8), deadline=None, suppress_health_check=[HealthCheck.too_slow])
 @given(trainer_loads)
 def test_most_fuel_agrees_with_brute_force_and_is_never_unsafe(v):
     loading = resolve_loading(Loading(category=v["category"], load={k: v[k] for k in ("front", "rear", "hold")},
@@ -70,7 +70,7 @@ twin_loads = st.fixed_dictionaries({
 })
 
 
-@settings(max_examples=6, deadline=None, suppress_health_check=[HealthCheck.too_slow])
+@settings(max_examples=examples(6), deadline=None, suppress_health_check=[HealthCheck.too_slow])
 @given(twin_loads, st.sampled_from(["row1", "row3", "nose", "aft"]))
 def test_most_payload_agrees_with_brute_force(v, station):
     load = {k: v[k] for k in ("row1", "row2", "row3", "nose", "aft")}

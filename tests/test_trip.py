@@ -31,7 +31,7 @@ from loadcheck.files import parse_aircraft
 from loadcheck.loading import Loading, resolve_trip
 from loadcheck.trip import check_trip, fuel_to_add, trip_most_fuel
 
-from .helpers import sample, simple_aircraft
+from .helpers import examples, sample, simple_aircraft
 
 # FAA-H-8083-1B (2016) ch. 8 p. 8-3: arms and weights as published; fuel 48 gal weighing
 # 288 lb, i.e. 6.0 lb/gal (avgas). Maximum gross weight 2,250 lb (published). Usable fuel
@@ -258,7 +258,7 @@ loadings = st.fixed_dictionaries({
 })
 
 
-@settings(max_examples=60, deadline=None)
+@settings(max_examples=examples(60), deadline=None)
 @given(loadings)
 def test_a_trip_of_one_leg_equals_todays_single_check(v):
     aircraft = simple_aircraft()
@@ -310,8 +310,8 @@ def _brute(high, build):
 
     coarse = [i * 0.5 for i in range(int(high * 2) + 1)]
     verdicts = [good(x) for x in coarse]
-    found = [x for x, ok in zip(coarse, verdicts) if ok]
-    for a, ok_a, ok_b in zip(coarse, verdicts, verdicts[1:]):
+    found = [x for x, ok in zip(coarse, verdicts, strict=True) if ok]
+    for a, ok_a, ok_b in zip(coarse, verdicts, verdicts[1:], strict=False):  # neighbouring pairs: one fewer
         if ok_a != ok_b:
             found += [x for x in (a + k * 0.01 for k in range(1, 50)) if good(x)]
     return sorted(found)
