@@ -63,30 +63,19 @@ def test_batch_agrees_row_by_row_with_single_checks(runner, records):
     result = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(DAY), "--json"])
     assert result.exit_code == 2  # the sample day has malformed rows
     lines = _json_lines(result.stdout)
-    with open(DAY, newline="") as handle:
-        rows = list(csv.DictReader(handle))
-    assert len(lines) == len(rows) >= 50
     fleet = load_fleet(SAMPLES)
+    rows = list(read_loadings(DAY, fleet)[0])
+    assert len(lines) == len(rows) >= 50
     checked = [line for line in lines if "input_error" not in line]
     assert len(checked) >= 50
+    # the library's own reading of the day (read_loadings, check_flights), each flight against check_loading
+    flights = {flight.row.line: flight for flight in check_flights(fleet, rows)}
+    assert sorted(flights) == [line["line"] for line in lines]
     for line in checked:
-        aircraft = fleet.aircraft(line["registration"])
-        raw = rows[line["line"] - 2]
-        load, fuel, burn = {}, {}, {}
-        for key, value in raw.items():
-            name, _, unit = key.partition(" [")
-            if not value or name in ("registration", "reference", "pilot"):
-                continue
-            text = f"{value} {unit.rstrip(']')}" if unit else value
-            if name in aircraft.stations:
-                load[name] = text
-            elif name in aircraft.tanks:
-                fuel[name] = text
-            elif name == "order":
-                burn["order"] = "together" if value == "together" else value.split(";")
-            else:
-                burn[name] = text
-        single = check_loading(aircraft, Loading(load=load, fuel=fuel, burn=burn)).to_dict()
+        flight = flights[line["line"]]
+        assert flight.row.loading is not None and flight.result is not None, flight.problems
+        single = check_loading(fleet.aircraft(line["registration"]), flight.row.loading).to_dict()
+        assert results_match(flight.result, single), line["line"]
         assert results_match({k: line[k] for k in single}, single), line["line"]
     bad = {line["line"]: " ".join(line["input_error"]) for line in lines if "input_error" in line}
     assert any("unknown registration 'DEMO-XX'" in v for v in bad.values())
@@ -416,7 +405,7 @@ def test_batch_results_equal_single_checks_on_random_loadings(name, order):
     assert len(loadings) >= 100
     many = check_many(aircraft, loadings)
     assert {r.ok for r in many} == {True, False}  # both verdicts are exercised
-    for resolved, result in zip(loadings, many):
+    for resolved, result in zip(loadings, many, strict=True):
         single = check_loading(aircraft, resolved, samples=False)
         assert results_match(result.to_dict(), single.to_dict()), resolved
 
