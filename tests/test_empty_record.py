@@ -1,14 +1,16 @@
 """A new empty-weight record from a weighing: what is refused, confirmed, recorded and kept
 (issue 14; docs/mechanic.md, "What is refused, and why").
 
-Sources: the weighing arithmetic is tested against FAA-H-8083-1B in tests/test_mechanic.py;
-here the rules about writing the record. The 10 % plausibility bound is common practice
-(no published figure); a record whose empty weight reaches the maximum takeoff weight leaves
+Sources: the weighing arithmetic is tested against FAA-H-8083-1B in tests/test_weighing.py;
+here the rules about writing the record (loadcheck/empty_record.py), and its history. The
+10 % plausibility bound is common practice (no published figure); a record whose empty weight reaches the maximum takeoff weight leaves
 no useful load (FAA-H-8083-1B chapter 2, useful load = maximum weight - empty weight).
 """
 
 from __future__ import annotations
 
+import errno
+import os
 import shutil
 import subprocess
 import tomllib
@@ -17,11 +19,11 @@ from pathlib import Path
 import pytest
 
 import loadcheck.cli.mechanic as mechanic_cli
+import loadcheck.files as files_module
 from loadcheck import load_aircraft
 from loadcheck.cli import app
 from loadcheck.empty_record import NOTE_CHARS, NotConfirmedError, OverrideNeededError, make_current, propose
-from loadcheck.files import MAX_FILE_BYTES, parse_aircraft, read_text
-from loadcheck.weighing import Readings, weigh
+from loadcheck.files import MAX_FILE_BYTES, read_text
 
 from .helpers import app_runner, cell, record_sheet, sample
 
@@ -339,38 +341,112 @@ def test_the_printed_record_fits_one_page_with_its_signature_block(tmp_path, com
         assert words in first
 
 
-# -- the published empty-weight CG formulas (issue 16) -----------------------------------------
-# FAA-H-8083-1B (2016) chapter 3 ("Locating the CG", datum forward of / aft of the main wheels,
-# nosewheel and tailwheel) and chapter 10: D datum to main wheels, L main wheels to the nose or
-# tail wheel, F nosewheel and R tailwheel net weight, W total. Compared to the printed value
-# within one unit of its last printed digit (0.1 in).
+_copy_trainer = _trainer  # the tests moved from test_mechanic.py call it so
 
 
-def _formula_readings(gear, datum, d, other, length, total):
-    wheel = "nose" if gear == "nosewheel" else "tail"
-    main = (total - other) / 2
-    return Readings.model_validate({
-        "geometry": {"gear": gear, "datum": datum, "main_distance": d, "wheelbase": length},
-        "point": [{"label": wheel, "wheel": wheel, "reading": other},
-                  {"label": "left main", "wheel": "main", "reading": main},
-                  {"label": "right main", "wheel": "main", "reading": main}],
-    })
+def test_history_keeps_every_record_and_the_comments(runner, tmp_path):
+    path = _copy_trainer(tmp_path)
+    original = load_aircraft(path)
+    assert runner.invoke(app, ["alter", str(path), str(tmp_path / "changes.toml"), "--write", "--yes"]).exit_code == 0
+    altered = load_aircraft(path)
+    assert runner.invoke(app, ["weigh", str(path), str(tmp_path / "weighing.toml"), "--write", "--yes"]).exit_code == 0
+    final = load_aircraft(path)
+    assert [h.reason for h in final.history] == ["alteration", "weighing"]
+    assert final.history[0].previous == original.empty
+    assert final.history[1].previous == altered.empty
+    assert "fairings" not in {e.id for e in final.equipment} and "com3" in {e.id for e in final.equipment}
+    text = path.read_text()
+    assert "# Four-seat nosewheel trainer: an aircraft of our own invention" in text
+    assert "max_continuous_power_hp = 160   # maximum except takeoff" in text
+    listing = runner.invoke(app, ["history", str(path)])
+    assert listing.exit_code == 0 and "alteration" in listing.output and "weighing" in listing.output
 
 
-@pytest.mark.parametrize("gear, datum, d, other, length, total, published", [
-    ("nosewheel", "forward", 128.0, 340.0, 78.0, 2006.0, 114.8),   # CG = D - F L / W
-    ("nosewheel", "aft", 75.0, 340.0, 78.0, 2006.0, -88.2),        # CG = -(D + F L / W)
-    ("tailwheel", "forward", 7.5, 67.0, 222.0, 1218.0, 19.7),      # CG = D + R L / W
-    ("tailwheel", "aft", 80.0, 67.0, 222.0, 1218.0, -67.8),        # CG = -D + R L / W
-])
-def test_faa_h_8083_1b_empty_weight_cg_formulas(gear, datum, d, other, length, total, published):
-    aircraft = parse_aircraft({
-        "name": "Weighing box", "units": {"mass": "lb", "arm": "in", "fuel_volume": "usgal"},
-        "empty": {"weight": total, "arm": 0.0}, "limits": {"max_takeoff_weight": 3000},
-        "envelope": [{"category": "normal", "axes": ["arm", "weight"], "points": [[-150, 500], [-150, 3000], [150, 3000], [150, 500]]}],
-    })
-    result = weigh(aircraft, _formula_readings(gear, datum, d, other, length, total))
-    assert result.as_weighed.weight == pytest.approx(total)
-    assert abs(result.as_weighed.arm - published) <= 0.1
-    assert round(result.as_weighed.arm, 1) == published
-    assert result.formula_cg == pytest.approx(result.as_weighed.arm)
+def test_without_write_nothing_changes(runner, tmp_path):
+    path = _copy_trainer(tmp_path)
+    before = path.read_bytes()
+    assert runner.invoke(app, ["weigh", str(path), str(tmp_path / "weighing.toml")]).exit_code == 0
+    assert path.read_bytes() == before
+
+
+@pytest.mark.parametrize("failure", ["replace", "disk_full"])
+def test_a_crash_during_the_write_leaves_the_file_whole(runner, tmp_path, monkeypatch, failure):
+    path = _copy_trainer(tmp_path)
+    before = path.read_bytes()
+    if failure == "replace":
+        def boom(*args, **kwargs):
+            raise OSError(errno.EIO, "simulated crash")
+        monkeypatch.setattr(files_module.os, "replace", boom)
+    else:
+        real_fdopen = os.fdopen
+
+        class Full:
+            def __init__(self, handle):
+                self.stream = real_fdopen(handle, "wb")
+
+            def __enter__(self):
+                return self
+
+            def __exit__(self, *exc):
+                self.stream.close()
+
+            def write(self, data):
+                self.stream.write(data[: len(data) // 2])
+                raise OSError(errno.ENOSPC, "No space left on device")
+
+        monkeypatch.setattr(files_module.os, "fdopen", lambda handle, mode: Full(handle))
+    result = runner.invoke(app, ["weigh", str(path), str(tmp_path / "weighing.toml"), "--write", "--yes"])
+    assert result.exit_code == 2
+    assert "unchanged" in result.output
+    assert path.read_bytes() == before
+    assert not [p for p in tmp_path.iterdir() if p.name.endswith(".tmp")]
+
+
+def test_file_changed_between_read_and_write_is_refused(runner, tmp_path, monkeypatch):
+    path = _copy_trainer(tmp_path)
+    import loadcheck.weighing as weighing_module
+
+    real = weighing_module.weigh
+
+    def weigh_and_meddle(*args, **kwargs):
+        result = real(*args, **kwargs)
+        path.write_text(path.read_text() + "\n# edited by someone else\n")
+        return result
+
+    monkeypatch.setattr(weighing_module, "weigh", weigh_and_meddle)
+    result = runner.invoke(app, ["weigh", str(path), str(tmp_path / "weighing.toml"), "--write", "--yes"])
+    assert result.exit_code == 2 and "changed since it was read" in result.output
+    assert path.read_text().endswith("# edited by someone else\n")
+    assert "[[history]]" not in path.read_text()
+
+
+@pytest.mark.parametrize(
+    "command, text, words",
+    [
+        ("weigh", "[[point]]\nlabel = 'nose'\narm = -6.8\nreading = 10.0\ntare = 12.0\n", "tare (12) is above the reading (10)"),
+        ("alter", "[[change]]\naction = 'remove'\nitem = 'ghost'\n", "unknown item 'ghost'"),
+        ("alter", "[[change]]\naction = 'relocate'\nitem = 'elt'\n", "needs its new_arm"),
+        ("weigh", "[[point]]\nlabel = 'nose'\nwheel = 'nose'\nreading = 10.0\n", "[geometry]"),
+        ("alter", "[[change]]\naction = 'install'\nitem = 'elt'\nweight = 1.0\narm = 2.0\n", "already installed"),
+    ],
+)
+def test_bad_mechanic_inputs_write_nothing(runner, tmp_path, command, text, words):
+    path = _copy_trainer(tmp_path)
+    before = path.read_bytes()
+    bad = tmp_path / "bad.toml"
+    bad.write_text("format = 1\n" + text)
+    result = runner.invoke(app, [command, str(path), str(bad), "--write", "--yes"])
+    assert result.exit_code == 2, result.output
+    assert words in result.output and "Traceback" not in result.output
+    assert path.read_bytes() == before
+
+
+def test_mechanic_sheet(runner, tmp_path):
+    sheet = tmp_path / "record.html"
+    result = runner.invoke(app, ["weigh", str(sample("trainer4/aircraft.toml")), str(sample("trainer4/weighing.toml")),
+                                 "--sheet", str(sheet)])
+    assert result.exit_code == 0
+    html = sheet.read_text()
+    for words in ("Certificate number", "Signature", "local aviation authority", "Most forward", "1,685.8"):
+        assert words in html
+    assert "http" not in html.replace("http-equiv", "")

@@ -1,6 +1,6 @@
 """Nothing lost: every file loadcheck writes is written whole or not at all.
 
-Aircraft history writes are tested in tests/test_mechanic.py (crash and full disk); here:
+Aircraft history writes are tested in tests/test_empty_record.py (crash and full disk); here:
 charts, load sheets, mechanic records, exports, and the record database.
 """
 

@@ -1,0 +1,145 @@
+"""Weighing (loadcheck/weighing.py): scale readings to the empty weight and CG, checked against
+the published formulas and examples.
+
+Sources named beside each check:
+- FAA-H-8083-1B, chapter "Use of Computer for Weight and Balance Computations" (electronic
+  calculator example): nose-wheel net weight F = 340 lb, main wheels to nose wheel
+  L = -78 in, total W = 2,006 lb: CG = F x L / W = -13.2 in from the main-wheel weighing points.
+- FAA-H-8083-1 chapter 3, the four empty-weight CG formulas (from memory).
+- FAA-H-8083-1B (2016) chapters 3 and 10, the four formulas' printed examples.
+
+What the mechanic's record of a weighing does (refusals, confirmation, history) is in
+tests/test_empty_record.py.
+"""
+
+from __future__ import annotations
+
+import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
+
+from loadcheck import load_aircraft
+from loadcheck.files import parse_aircraft
+from loadcheck.weighing import Readings, weigh
+
+from .helpers import examples, sample, sample_data
+
+
+def box(**changes):
+    data = {
+        "name": "Weighing box", "units": {"mass": "lb", "arm": "in", "fuel_volume": "usgal"},
+        "empty": {"weight": 2000.0, "arm": 0.0}, "limits": {"max_takeoff_weight": 3000},
+        "envelope": [{"category": "normal", "axes": ["arm", "weight"], "points": [[-50, 500], [-50, 3000], [90, 3000], [90, 500]]}],
+    }
+    data.update(changes)
+    return parse_aircraft(data)
+
+
+def test_faa_h_8083_1b_electronic_calculator_example():
+    # FAA-H-8083-1B: F = 340 lb, L = -78 in (nose ahead of mains), W = 2,006 lb -> -13.2 in
+    readings = Readings.model_validate({
+        "geometry": {"gear": "nosewheel", "datum": "forward", "main_distance": 0.0, "wheelbase": 78.0},
+        "point": [{"label": "nose", "wheel": "nose", "reading": 340.0},
+                  {"label": "left", "wheel": "main", "reading": 833.0}, {"label": "right", "wheel": "main", "reading": 833.0}],
+    })
+    result = weigh(box(), readings)
+    assert result.as_weighed.weight == pytest.approx(2006.0)
+    assert result.as_weighed.arm == pytest.approx(340.0 * -78.0 / 2006.0)
+    assert round(result.as_weighed.arm, 1) == -13.2
+    assert result.formula_cg == pytest.approx(result.as_weighed.arm)
+
+
+@settings(max_examples=examples(200), deadline=None)
+@given(st.sampled_from(["nosewheel", "tailwheel"]), st.sampled_from(["forward", "aft"]),
+       st.floats(0, 200), st.floats(20, 300), st.floats(10, 2000), st.floats(100, 5000), st.floats(100, 5000))
+def test_four_formulas_agree_with_the_sum_of_moments(gear, datum, d, length, other, left, right):
+    # FAA-H-8083-1 ch. 3 (from memory): D - F L/W; -(D + F L/W); D + R L/W; -D + R L/W
+    wheel = "nose" if gear == "nosewheel" else "tail"
+    readings = Readings.model_validate({
+        "geometry": {"gear": gear, "datum": datum, "main_distance": d, "wheelbase": length},
+        "point": [{"label": wheel, "wheel": wheel, "reading": other}, {"label": "l", "wheel": "main", "reading": left},
+                  {"label": "r", "wheel": "main", "reading": right}],
+    })
+    result = weigh(box(), readings)
+    w = other + left + right
+    expected = {
+        ("nosewheel", "forward"): d - other * length / w,
+        ("nosewheel", "aft"): -(d + other * length / w),
+        ("tailwheel", "forward"): d + other * length / w,
+        ("tailwheel", "aft"): -d + other * length / w,
+    }[(gear, datum)]
+    assert result.as_weighed.arm == pytest.approx(expected, rel=1e-9, abs=1e-9)
+    assert result.formula_cg == pytest.approx(expected, rel=1e-9, abs=1e-9)
+
+
+def test_corrections_and_lateral_readings():
+    readings = Readings.model_validate({
+        "point": [{"label": "nose", "arm": -10.0, "reading": 300.0, "tare": 5.0},
+                  {"label": "left", "arm": 60.0, "lateral_arm": -50.0, "reading": 800.0, "tare": 4.0},
+                  {"label": "right", "arm": 60.0, "lateral_arm": 50.0, "reading": 820.0, "tare": 4.0}],
+        "on_board": [{"label": "fuel", "weight": 30.0, "arm": 48.0}],
+        "missing": [{"label": "battery", "weight": 25.0, "arm": -20.0}],
+    })
+    result = weigh(box(), readings)
+    w = 295 + 796 + 816
+    m = 295 * -10 + (796 + 816) * 60
+    assert result.as_weighed.weight == pytest.approx(w)
+    assert result.new.weight == pytest.approx(w - 30 + 25)
+    assert result.new.moment == pytest.approx(m - 30 * 48 + 25 * -20)
+    assert result.as_weighed.lateral_arm == pytest.approx((816 - 796) * 50 / w)
+
+
+def test_empty_weight_cg_range_warning():
+    aircraft = box(empty={"weight": 2000.0, "arm": 0.0, "cg_range": [10.0, 20.0]})
+    readings = Readings.model_validate({"point": [{"label": "p", "arm": 0.0, "reading": 2000.0}]})
+    assert any("empty-weight CG range" in w for w in weigh(aircraft, readings).warnings)
+
+
+def test_readings_with_units_and_fuel_item():
+    aircraft = load_aircraft(sample("tandem2/aircraft.toml"))
+    data = sample_data("trainer4/weighing.toml")
+    del data["geometry"]
+    data["point"] = [{"label": "tail", "arm": "4.2 m", "reading": "30 kg"}, {"label": "mains", "arm": 0.0, "reading": "400 kg"}]
+    data["on_board"] = [{"label": "fuel", "tank": "wing", "fuel": "2 usgal"}]
+    data["missing"] = []
+    result = weigh(aircraft, Readings.model_validate(data, context={"units": aircraft.units}))
+    assert result.as_weighed.weight == pytest.approx(430.0)
+    assert result.as_weighed.arm == pytest.approx(30 * 4200 / 430)
+    assert result.corrections[0].weight == pytest.approx(2 * 3.785411784 * aircraft.density(aircraft.tanks["wing"]))
+
+
+# -- the published empty-weight CG formulas (issue 16) -----------------------------------------
+# FAA-H-8083-1B (2016) chapter 3 ("Locating the CG", datum forward of / aft of the main wheels,
+# nosewheel and tailwheel) and chapter 10: D datum to main wheels, L main wheels to the nose or
+# tail wheel, F nosewheel and R tailwheel net weight, W total. Compared to the printed value
+# within one unit of its last printed digit (0.1 in).
+
+
+def _formula_readings(gear, datum, d, other, length, total):
+    wheel = "nose" if gear == "nosewheel" else "tail"
+    main = (total - other) / 2
+    return Readings.model_validate({
+        "geometry": {"gear": gear, "datum": datum, "main_distance": d, "wheelbase": length},
+        "point": [{"label": wheel, "wheel": wheel, "reading": other},
+                  {"label": "left main", "wheel": "main", "reading": main},
+                  {"label": "right main", "wheel": "main", "reading": main}],
+    })
+
+
+@pytest.mark.parametrize("gear, datum, d, other, length, total, published", [
+    ("nosewheel", "forward", 128.0, 340.0, 78.0, 2006.0, 114.8),   # CG = D - F L / W
+    ("nosewheel", "aft", 75.0, 340.0, 78.0, 2006.0, -88.2),        # CG = -(D + F L / W)
+    ("tailwheel", "forward", 7.5, 67.0, 222.0, 1218.0, 19.7),      # CG = D + R L / W
+    ("tailwheel", "aft", 80.0, 67.0, 222.0, 1218.0, -67.8),        # CG = -D + R L / W
+])
+def test_faa_h_8083_1b_empty_weight_cg_formulas(gear, datum, d, other, length, total, published):
+    aircraft = parse_aircraft({
+        "name": "Weighing box", "units": {"mass": "lb", "arm": "in", "fuel_volume": "usgal"},
+        "empty": {"weight": total, "arm": 0.0}, "limits": {"max_takeoff_weight": 3000},
+        "envelope": [{"category": "normal", "axes": ["arm", "weight"], "points": [[-150, 500], [-150, 3000], [150, 3000], [150, 500]]}],
+    })
+    result = weigh(aircraft, _formula_readings(gear, datum, d, other, length, total))
+    assert result.as_weighed.weight == pytest.approx(total)
+    assert abs(result.as_weighed.arm - published) <= 0.1
+    assert round(result.as_weighed.arm, 1) == published
+    assert result.formula_cg == pytest.approx(result.as_weighed.arm)
