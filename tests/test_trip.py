@@ -26,9 +26,9 @@ from hypothesis import strategies as st
 
 from loadcheck import check_loading, load_check_inputs
 from loadcheck.cli import app
-from loadcheck.errors import InputError, UnknownNameError
+from loadcheck.errors import InputError
 from loadcheck.files import parse_aircraft
-from loadcheck.loading import Loading, resolve_trip
+from loadcheck.loading import Loading
 from loadcheck.trip import check_trip, fuel_to_add, trip_most_fuel
 
 from .helpers import examples, sample, simple_aircraft
@@ -196,58 +196,6 @@ def test_no_job_checks_a_trip_as_its_first_leg_alone(runner, tmp_path):
     refused = runner.invoke(app, ["plan", "payload", str(path), "--station", "pilot_seat"])
     assert refused.exit_code == 2 and "trip of 2 legs" in refused.output
     assert "a trip of 2 legs" in " ".join(runner.invoke(app, ["validate", str(path)]).output.split())
-
-
-# -- fuel carried over and added ------------------------------------------------------------
-
-TWO_TANKS = simple_aircraft(tank=[{"id": "aux", "arm": 60.0, "usable": 10.0, "fuel": "avgas"},
-                                  {"id": "mains", "arm": 45.0, "usable": 40.0, "fuel": "avgas", "levels": {"local": 25.0}}])
-
-
-def _trip(*legs, **first):
-    base = {"load": {"front": 180}, "fuel": {"aux": 10, "mains": 30}, "burn": {"taxi": 1, "trip": 14, "order": ["aux", "mains"]}}
-    return Loading.model_validate({**base, **first, "leg": list(legs)})
-
-
-def test_fuel_carries_over_tank_by_tank_in_the_burn_order():
-    trip = resolve_trip(_trip({"burn": {"trip": 5}}, {"burn": {"trip": 3, "order": "together"}}), TWO_TANKS)
-    _, two, three = trip.legs
-    # leg 1 burns 15 gal, aux first: aux 10 -> 0, mains 30 -> 25
-    assert two.fuel == pytest.approx({"aux": 0.0, "mains": 25.0})
-    assert two.plan.order == ("aux", "mains")  # the order carries over where the leg gives none
-    assert three.fuel == pytest.approx({"aux": 0.0, "mains": 20.0}) and three.plan.order is None
-
-
-@pytest.mark.parametrize("add, aux, mains", [
-    ({"aux": 4}, 4.0, 25.0), ({"mains": "full"}, 0.0, 40.0), ({"mains": "local"}, 0.0, 25.0),
-    ({"aux": "12 lb", "mains": "3 usgal"}, 2.0, 28.0),  # 12 lb of avgas at 6.0 lb/US gal is 2 US gal
-])
-def test_fuel_added_at_a_stop(add, aux, mains):
-    trip = resolve_trip(_trip({"add_fuel": add, "burn": {"trip": 5}}), TWO_TANKS)
-    assert trip.legs[1].fuel == pytest.approx({"aux": aux, "mains": mains})
-    result = check_trip(TWO_TANKS, trip)
-    assert result.legs[1].check.condition("ramp").fuel == pytest.approx(aux + mains)
-
-
-@pytest.mark.parametrize("add, words, error", [
-    ({"mains": 20}, "above the tank's usable capacity", InputError),
-    ({"aux": "local"}, "unknown fill level", UnknownNameError),
-    ({"wing": 5}, "unknown tank", UnknownNameError),
-])
-def test_fuel_that_cannot_go_in_is_refused(add, words, error):
-    with pytest.raises(error, match=words):
-        resolve_trip(_trip({"add_fuel": add, "burn": {"trip": 5}}), TWO_TANKS)
-
-
-def test_a_level_below_the_fuel_on_board_is_refused():
-    with pytest.raises(InputError, match="more than the level"):  # 29 gal on board, the local level is 25
-        resolve_trip(_trip({"add_fuel": {"mains": "local"}, "burn": {"trip": 5}},
-                            burn={"taxi": 1, "trip": 10, "order": ["aux", "mains"]}), TWO_TANKS)
-
-
-def test_a_leg_that_burns_more_than_it_carries_is_refused():
-    with pytest.raises(InputError, match=r"leg 2: taxi and trip fuel"):
-        resolve_trip(_trip({"burn": {"trip": 30}}), TWO_TANKS)
 
 
 # -- one leg is today's check ----------------------------------------------------------------
