@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import json
+import re
 import shutil
 import subprocess
 import sys
@@ -272,3 +273,29 @@ def test_the_plugin_loader_stand_in_hands_over_when_plugins_are_enabled(monkeypa
     monkeypatch.setenv("PYDANTIC_DISABLE_PLUGINS", "")
     assert list(stand_in.get_plugins()) == []  # no plugin is installed here: the real loader finds none
     assert system.modules["pydantic.plugin._loader"] is not stand_in  # the real loader is in place now
+
+
+# -- help that reads well (issue 15, item 5: `<list[str]>` and `{AIRCRAFT}` in the help) -----------
+
+def _every_command(command, path=()):
+    yield list(path)
+    for name, sub in getattr(command, "commands", {}).items():
+        yield from _every_command(sub, (*path, name))
+
+
+def test_no_command_help_shows_a_python_type_or_braces(runner):
+    # regression: `loadcheck validate --help` printed `FILES <list[Path]>` and `{FILES}...`
+    import typer
+
+    commands = list(_every_command(typer.main.get_command(app)))
+    assert len(commands) > 20
+    for path in commands:
+        text = runner.invoke(app, [*path, "--help"], env={"COLUMNS": "100"}).output
+        odd = re.findall(r"<[A-Za-z_]+(?:\[[^>]*\])?>|\{[A-Za-z_]+\}", text)
+        assert not odd, f"loadcheck {' '.join(path)} --help shows {odd}"
+    validate = runner.invoke(app, ["validate", "--help"], env={"COLUMNS": "100"}).output
+    assert "Usage: loadcheck validate [OPTIONS] FILES..." in validate
+    assert re.search(r"^\s+FILES\s+Aircraft and loading files to check\.", validate, re.M)
+    check = runner.invoke(app, ["check", "--help"], env={"COLUMNS": "100"}).output
+    assert "Usage: loadcheck check [OPTIONS] AIRCRAFT [LOADING]" in check
+    assert "-r, --role ROLE" in runner.invoke(app, ["users", "add", "--help"], env={"COLUMNS": "100"}).output
