@@ -188,10 +188,13 @@ def _within(inner, outer, pad=0.5) -> bool:
     return inner[0] >= outer[0] - pad and inner[1] >= outer[1] - pad and inner[2] <= outer[2] + pad and inner[3] <= outer[3] + pad
 
 
-CHART_SAMPLES = ["twin6/leaves_path.toml", "twin6/within.toml", "twin6/zero_fuel_heavy.toml", "twin6/two_stretches.toml",
-                 "trainer4/within.toml", "trainer4/over_weight.toml", "trainer4/utility_aft.toml", "trainer4/baggage_group.toml",
-                 "tandem2/aft_heavy.toml", "tandem2/solo.toml", "tandem2/light_solo.toml", "tandem2/aft_ballast.toml",
-                 "heli2/dual.toml", "heli2/solo_heavy_right.toml", "heli2/heavy_left.toml", "heli2/solo.toml"]
+# one loading of each sample aircraft in the default run (the heli's with its lateral chart); the others with --long
+CHART_SAMPLES = ["twin6/leaves_path.toml", "trainer4/within.toml", "tandem2/aft_heavy.toml", "heli2/solo_heavy_right.toml",
+                 *(pytest.param(name, marks=pytest.mark.slow) for name in (
+                     "twin6/within.toml", "twin6/zero_fuel_heavy.toml", "twin6/two_stretches.toml",
+                     "trainer4/over_weight.toml", "trainer4/utility_aft.toml", "trainer4/baggage_group.toml",
+                     "tandem2/solo.toml", "tandem2/light_solo.toml", "tandem2/aft_ballast.toml",
+                     "heli2/dual.toml", "heli2/heavy_left.toml", "heli2/solo.toml"))]
 
 
 @pytest.mark.parametrize("name", CHART_SAMPLES)

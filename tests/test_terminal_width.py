@@ -115,7 +115,7 @@ print(json.dumps(out))
 """
 
 
-@pytest.mark.parametrize("width", WIDTHS)
+@pytest.mark.parametrize("width", [WIDTHS[0], *(pytest.param(w, marks=pytest.mark.slow) for w in WIDTHS[1:])])  # the narrowest by default
 def test_help_fits_and_never_breaks_a_word(width):
     # a real process: the test runner fixes help at 80 columns, a terminal does not
     import os
