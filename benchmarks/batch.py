@@ -17,6 +17,7 @@ from __future__ import annotations
 
 import argparse
 import resource
+import sys
 import time
 from pathlib import Path
 
@@ -28,18 +29,11 @@ from loadcheck.engine import CHUNK, evaluate
 from loadcheck.loading import Loading
 
 ROOT = Path(__file__).resolve().parent.parent
+sys.path.append(str(ROOT))  # append: engine_cpu.py's older-commit runs keep their own loadcheck
+
+from tests.helpers import random_loadings  # noqa: E402
+
 CASES = [("trainer4", None), ("twin6", ("aux", "mains"))]
-
-
-def random_loadings(aircraft, n: int, order, seed: int = 1):
-    rng = np.random.default_rng(seed)
-    stations = np.stack([rng.uniform(0, (s.max_weight or 200) * 1.05, n) for s in aircraft.station], axis=1)
-    fuel = np.stack([rng.uniform(0, t.usable, n) for t in aircraft.tank], axis=1)
-    ids = [t.id for t in aircraft.tank]
-    burnable = fuel.sum(1) if order is None else fuel[:, [ids.index(x) for x in order]].sum(1)
-    taxi = np.minimum(rng.uniform(0, 2, n), burnable)
-    trip = (burnable - taxi) * rng.uniform(0, 1, n)
-    return stations, fuel, taxi, trip
 
 
 def floor(aircraft, stations, fuel, taxi, trip, order=None) -> float:

@@ -15,6 +15,7 @@ tries them first. DEVELOPERS.md, "Set up and test".
 from __future__ import annotations
 
 from pathlib import Path
+from typing import Any
 
 import platformdirs
 import pytest
@@ -92,3 +93,15 @@ def twin() -> Aircraft:
 def oracle_cases(request: pytest.FixtureRequest) -> int:
     """Random cases for the oracle comparison: ORACLE_CASES["short"], or ["long"] with --long."""
     return ORACLE_CASES["long" if request.config.getoption("--long") else "short"]
+
+
+@pytest.fixture()
+def desk(tmp_path: Path) -> dict[str, Any]:
+    """A desk over a copy of the sample fleet (tests/web_helpers.make_desk): its app, fleet, database, accounts."""
+    from loadcheck.web import create_app
+
+    from .web_helpers import make_desk
+
+    fleet, db, users = make_desk(tmp_path)
+    app = create_app(fleet, db=db, users=users, secret="test secret")
+    return {"app": app, "fleet": fleet, "db": db, "users": users}

@@ -100,6 +100,14 @@ def app_runner() -> AppRunner:
     return AppRunner()
 
 
+def checked_sample(name: str) -> tuple[Any, Any]:
+    """A sample loading file's inputs (``load_check_inputs``) and its ``check_loading`` result."""
+    from loadcheck import check_loading, load_check_inputs
+
+    inputs = load_check_inputs(sample(name))
+    return inputs, check_loading(inputs.aircraft, inputs.loading)
+
+
 def record_sheet(tmp_path: Path, command: str, aircraft: Path, source: Path) -> str:
     """The HTML record that ``weigh`` or ``alter`` writes with ``--sheet`` (the command must exit 0)."""
     from loadcheck.cli import app

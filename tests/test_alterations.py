@@ -1,7 +1,7 @@
-"""Equipment changes: the new record's checks, on fixed wing and rotorcraft (issue 14 items 1 and 8).
+"""Equipment changes (loadcheck/alterations.py): the arithmetic, the negligible-change rule and
+the new record's checks, on fixed wing and rotorcraft (issue 14 items 1 and 8).
 
-The arithmetic and the AC 43.13-1B 10-2 c negligible-change rule are tested in
-tests/test_mechanic.py; here what the alteration says about the record it makes.
+Sources: AC 43.13-1B (1998) chapter 10, paragraph 10-2 c (negligible change).
 """
 
 from __future__ import annotations
@@ -11,17 +11,15 @@ import shutil
 from pathlib import Path
 
 import pytest
-from typer.testing import CliRunner
 
 from loadcheck import load_aircraft
-from loadcheck.alterations import Changes, alter
+from loadcheck.alterations import Changes, alter, negligible_weight_lb
 from loadcheck.cli import app
+from loadcheck.errors import UnknownNameError
 from loadcheck.files import parse_aircraft
 from loadcheck.weighing import current_record_warnings
 
 from .helpers import cell, record_sheet, sample, sample_data
-
-runner = CliRunner()
 
 
 def _trainer_with_range(tmp_path: Path, cg_range: str) -> Path:
@@ -32,7 +30,7 @@ def _trainer_with_range(tmp_path: Path, cg_range: str) -> Path:
     return path
 
 
-def test_alter_warns_when_the_new_cg_leaves_the_empty_weight_cg_range(tmp_path):
+def test_alter_warns_when_the_new_cg_leaves_the_empty_weight_cg_range(runner, tmp_path):
     # the sample changes move the empty-weight CG from 37.20 in forward to about 37.0 in
     path = _trainer_with_range(tmp_path, "[37.1, 38.0]")
     result = alter(load_aircraft(path), Changes.model_validate(sample_data("trainer4/changes.toml")))
@@ -52,7 +50,7 @@ def test_inside_the_range_no_warning(tmp_path):
     assert result.warnings == [] and result.cg_range == (36.0, 38.0)
 
 
-def test_a_current_record_outside_its_range_is_flagged_by_history(tmp_path):
+def test_a_current_record_outside_its_range_is_flagged_by_history(runner, tmp_path):
     path = _trainer_with_range(tmp_path, "[38.0, 40.0]")  # the current record's CG, 37.20 in, is forward of it
     assert current_record_warnings(load_aircraft(path))
     listing = runner.invoke(app, ["history", str(path)])
@@ -61,7 +59,7 @@ def test_a_current_record_outside_its_range_is_flagged_by_history(tmp_path):
 
 
 @pytest.mark.parametrize("aircraft_file", ["heli2/aircraft.toml"])
-def test_alter_json_on_a_rotorcraft(tmp_path, aircraft_file):
+def test_alter_json_on_a_rotorcraft(runner, tmp_path, aircraft_file):
     # issue 14 item 8: "Object of type bool is not JSON serializable" (a numpy bool from the CG range)
     changes = tmp_path / "changes.toml"
     changes.write_text('format = 1\ndate = 2026-11-30\ndescription = "cargo hook"\n'
@@ -96,3 +94,27 @@ def test_the_alteration_record_shows_the_description_and_date(tmp_path):
     assert cell(html, "meta-description") == "Radio installed, wheel fairings removed, ELT relocated"
     assert "Previous record</th><th>New record</th><th>Change</th>" in html
     assert "Most forward" in html and "Empty-weight CG range" in html and "Certificate number" in html
+
+
+@pytest.mark.parametrize("empty, limit", [(1500, 1.0), (4999, 1.0), (5001, 2.0), (50_000, 2.0), (60_000, 5.0)])
+def test_negligible_weight_thresholds(empty, limit):
+    # AC 43.13-1B 10-2 c
+    assert negligible_weight_lb(empty) == limit
+
+
+def test_alteration_arithmetic_and_negligible():
+    aircraft = load_aircraft(sample("trainer4/aircraft.toml"))
+    changes = Changes.model_validate({"change": [
+        {"action": "install", "item": "com3", "weight": 4.2, "arm": 14.8},
+        {"action": "remove", "item": "fairings"},
+        {"action": "relocate", "item": "elt", "new_arm": 118.0},
+    ]})
+    result = alter(aircraft, changes)
+    assert result.change_weight == pytest.approx(4.2 - 18.0)
+    assert result.new.moment == pytest.approx(aircraft.empty.moment + 4.2 * 14.8 - 18.0 * 48.0 + 2.4 * (118.0 - 140.0))
+    assert result.change_useful_load == pytest.approx(18.0 - 4.2)
+    assert result.negligible.overall is False
+    tiny = alter(aircraft, Changes.model_validate({"change": [{"action": "install", "item": "placard", "weight": 0.05, "arm": 40.0}]}))
+    assert tiny.negligible.weight and tiny.negligible.cg and tiny.negligible.overall
+    with pytest.raises(UnknownNameError, match="unknown item 'ghost'"):
+        alter(aircraft, Changes.model_validate({"change": [{"action": "remove", "item": "ghost"}]}))

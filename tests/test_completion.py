@@ -7,21 +7,18 @@ import subprocess
 import sys
 
 import pytest
-from typer.testing import CliRunner
 
 from loadcheck.cli import app
 
 from .helpers import SAMPLES
 
-runner = CliRunner()
 
-
-def test_completion_options_are_offered():
+def test_completion_options_are_offered(runner):
     text = runner.invoke(app, ["--help"]).output
     assert "--install-completion" in text and "--show-completion" in text
 
 
-def test_show_completion_prints_the_script_for_this_shell():
+def test_show_completion_prints_the_script_for_this_shell(runner):
     result = runner.invoke(app, ["--show-completion"])  # the shell is detected (the one running the tests)
     assert result.exit_code in (0, 1)
     if result.exit_code == 0:

@@ -57,3 +57,83 @@ def test_docs_link_only_to_pages_in_the_repository():
                 continue
             assert (page.parent / target).exists(), f"{page.name} links to {target}, which is not in the repository"
         assert "DESIGN.md" not in text or page.name == "DEVELOPERS.md", f"{page.name} cites a page outside the repository"
+
+
+# -- the tests mirror the package (DEVELOPERS.md, "Tests") ------------------------------------------
+
+TESTS = ROOT / "tests"
+
+CROSS_CUTTING = {
+    "test_answers.py": "every planning answer, schedule case and extreme passes the full check",
+    "test_bad_inputs.py": "the malformed-file corpus (tests/bad_inputs/)",
+    "test_completion.py": "shell completion of every command",
+    "test_docs.py": "the docs stay true, and this layout",
+    "test_fuzz.py": "random documents, mutations and CSV shapes through the readers and the command line",
+    "test_lateral.py": "two-axis balance across the models, the engine and the check",
+    "test_lateral_moment.py": "lateral limits drawn as lateral moment against weight",
+    "test_oracle.py": "the library against the independent oracle (tests/oracle.py)",
+    "test_properties.py": "invariants of the check for any loading",
+    "test_regressions.py": "one test per crash found, named after what broke",
+    "test_samples.py": "every sample loading shows what its name says",
+    "test_sheet_print.py": "the load sheet printed through a headless browser",
+    "test_terminal_width.py": "every command's output at 60, 80 and 120 columns and piped",
+    "test_web_browser.py": "the desk in a real browser",
+    "test_writes.py": "every file any command writes is written whole or not at all",
+}
+"""Test files named for what they check across modules, not after one module."""
+
+NOT_MIRRORED = {
+    "__init__.py": "re-exports only",
+    "__main__.py": "python -m loadcheck: test_cli.py",
+    "render/__init__.py": "re-exports only",
+    "web/__init__.py": "re-exports only",
+    # modules whose tests are still in other files (move them here as they grow a file)
+    "caution.py": "test_cli.py, test_extremes.py, test_schedule.py (the caution on each output)",
+    "display.py": "test_render_terminal.py, test_terminal_width.py (numbers rounded as shown)",
+    "errors.py": "test_bad_inputs.py (each error's file, field path, value and expectation)",
+    "filemodel.py": "test_aircraft.py (unknown keys and true/false for a number refused)",
+    "results.py": "test_check.py, test_engine.py (results and their JSON form)",
+    "cli/common.py": "test_cli.py (the command line end to end)",
+    "cli/desk.py": "test_web_security.py, test_web_users.py (serve, users)",
+    "cli/dispatcher.py": "test_cli.py, test_fleet.py, test_records.py",
+    "cli/mechanic.py": "test_cli.py, test_empty_record.py, test_weighing.py, test_alterations.py",
+    "cli/pilot.py": "test_cli.py (the command line end to end)",
+    "render/listing.py": "test_fleet.py, test_records.py (long listings)",
+    "render/records.py": "test_records.py",
+    "render/trip.py": "test_trip.py",
+}
+"""Modules of loadcheck/ without a test file of their own, and where their tests are."""
+
+
+def _test_file(module: Path) -> str:
+    """tests/test_<module>.py for loadcheck/<module>.py, test_<package>_<module>.py for
+    loadcheck/<package>/<module>.py, test_<package>.py for a package's __init__.py."""
+    parts = module.relative_to(ROOT / "loadcheck").with_suffix("").parts
+    parts = parts[:-1] if parts[-1] == "__init__" else parts
+    return "test_" + "_".join(parts) + ".py"
+
+
+def _modules() -> dict[str, str]:
+    return {m.relative_to(ROOT / "loadcheck").as_posix(): _test_file(m) for m in sorted((ROOT / "loadcheck").rglob("*.py"))}
+
+
+def test_every_module_of_the_package_has_its_test_file():
+    modules = _modules()
+    missing = [f"{m} -> tests/{t}" for m, t in modules.items() if m not in NOT_MIRRORED and not (TESTS / t).is_file()]
+    assert not missing, f"a module without its test file: {missing}"
+    stale = [m for m in NOT_MIRRORED if m not in modules or (TESTS / modules[m]).is_file()]
+    assert not stale, f"NOT_MIRRORED lists a module that is gone or has its file now: {stale}"
+    for where in NOT_MIRRORED.values():
+        for name in re.findall(r"test_\w+\.py", where):
+            assert (TESTS / name).is_file(), name
+
+
+def test_every_test_file_is_a_modules_or_a_listed_suite():
+    mirrors = set(_modules().values())
+    files = {p.name for p in TESTS.rglob("test_*.py")}
+    orphans = sorted(files - mirrors - set(CROSS_CUTTING))
+    assert not orphans, f"a test file named after no module and not a listed cross-cutting suite: {orphans}"
+    assert not set(CROSS_CUTTING) - files, "CROSS_CUTTING lists a file that is gone"
+    developers = (ROOT / "DEVELOPERS.md").read_text(encoding="utf-8")
+    unlisted = [name for name in CROSS_CUTTING if name not in developers]
+    assert not unlisted, f"DEVELOPERS.md's tests section does not name {unlisted}"

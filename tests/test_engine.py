@@ -11,7 +11,7 @@ from loadcheck import check_loading, load_aircraft
 from loadcheck.engine import CONDITIONS, evaluate
 from loadcheck.loading import Loading
 
-from .helpers import sample, simple_aircraft
+from .helpers import examples, random_loadings, sample, simple_aircraft
 
 AIRCRAFT = {name: load_aircraft(sample(f"{name}/aircraft.toml")) for name in ("trainer4", "tandem2", "twin6", "heli2")}
 ORDERS = {"trainer4": [None], "tandem2": [None], "twin6": [None, ("aux", "mains"), ("mains", "aux")], "heli2": [None]}
@@ -45,25 +45,13 @@ def assert_agree(aircraft, stations, fuel, taxi, trip, order=None, category=None
             assert batch.arm[name][i] == pytest.approx(condition.arm, rel=1e-12)
 
 
-def random_rows(aircraft, order, seed, n):
-    rng = np.random.default_rng(seed)
-    stations = np.stack([rng.uniform(0, (s.max_weight or 200) * 1.1, n) for s in aircraft.station], axis=1)
-    fuel = np.stack([rng.uniform(0, t.usable, n) for t in aircraft.tank], axis=1)
-    ids = [t.id for t in aircraft.tank]
-    burnable = fuel.sum(1) if order is None else fuel[:, [ids.index(x) for x in order]].sum(1)
-    taxi = np.minimum(rng.uniform(0, 2, n), burnable)
-    trip = (burnable - taxi) * rng.uniform(0, 1, n)
-    trip[rng.uniform(size=n) < 0.05] = 0.0
-    return stations, fuel, taxi, trip
-
-
-@settings(max_examples=12, deadline=None)
+@settings(max_examples=examples(12), deadline=None)
 @given(st.sampled_from(sorted(AIRCRAFT)), st.integers(0, 2**32 - 1), st.data())
 def test_random_loadings_agree(name, seed, data):
     aircraft = AIRCRAFT[name]
     order = data.draw(st.sampled_from(ORDERS[name]))
     category = data.draw(st.sampled_from(aircraft.categories))
-    assert_agree(aircraft, *random_rows(aircraft, order, seed, 60), order=order, category=category)
+    assert_agree(aircraft, *random_loadings(aircraft, 60, order, seed, over=1.1, zero_trip=0.05), order=order, category=category)
 
 
 def test_points_exactly_on_limits_agree():
@@ -120,7 +108,7 @@ def test_bad_rows_are_marked_not_raised():
 
 def test_large_batches_are_chunked_identically():
     aircraft = AIRCRAFT["twin6"]
-    data = random_rows(aircraft, ("aux", "mains"), 11, 70_000)
+    data = random_loadings(aircraft, 70_000, ("aux", "mains"), 11, over=1.1, zero_trip=0.05)
     whole = evaluate(aircraft, *data, order=("aux", "mains"))
     part = evaluate(aircraft, *(a[-500:] for a in data), order=("aux", "mains"))
     assert (whole.ok[-500:] == part.ok).all()

@@ -9,7 +9,6 @@ Sources named beside each check:
 from __future__ import annotations
 
 import pytest
-from typer.testing import CliRunner
 
 from loadcheck import load_aircraft
 from loadcheck.caution import MECHANIC_CAUTION
@@ -19,8 +18,6 @@ from loadcheck.errors import InputError
 from loadcheck.extremes import extremes, minimum_fuel
 
 from .helpers import ac_example_aircraft, sample, simple_aircraft
-
-runner = CliRunner()
 
 
 def test_ac_43_13_1b_figures_10_10_and_10_11():
@@ -49,7 +46,7 @@ def test_minimum_fuel_rule():
     assert minimum_fuel(metric, 12) == pytest.approx(3.785411784)
 
 
-def test_extremes_command_exit_status_follows_the_checks():
+def test_extremes_command_exit_status_follows_the_checks(runner):
     result = runner.invoke(app, ["extremes", str(sample("tandem2/aircraft.toml"))])
     assert result.exit_code == 0 and "Most forward loading" in result.output and "within limits" in result.output
     failing = runner.invoke(app, ["extremes", str(sample("twin6/aircraft.toml"))])
@@ -144,7 +141,7 @@ def _loading_of(check, aircraft):
 
 @pytest.mark.parametrize("option, value, words", [("--occupant", "0", "--occupant"), ("--occupant", "-5", "--occupant"),
                                                   ("--meto", "-100", "--meto"), ("--meto", "0", "--meto")])
-def test_bad_occupant_and_power_are_refused_by_name(option, value, words):
+def test_bad_occupant_and_power_are_refused_by_name(runner, option, value, words):
     # issue 13: --occupant 0 silently used the default; -5 seated negative people;
     # --meto -100 gave errors that did not name --meto
     result = runner.invoke(app, ["extremes", str(sample("tandem2/aircraft.toml")), option, value])

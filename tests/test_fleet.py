@@ -14,7 +14,6 @@ import time
 from pathlib import Path
 
 import pytest
-from typer.testing import CliRunner
 
 from loadcheck import check_loading, load_aircraft
 from loadcheck.cli import app
@@ -24,7 +23,6 @@ from loadcheck.records import RecordLog, results_match
 
 from .helpers import SAMPLES, sample
 
-runner = CliRunner()
 DAY = sample("fleet_day.csv")
 
 
@@ -39,7 +37,7 @@ def _json_lines(text: str) -> list[dict]:
     return [json.loads(line) for line in text.splitlines() if line.startswith("{")]
 
 
-def test_fleet_list():
+def test_fleet_list(runner):
     result = runner.invoke(app, ["fleet", "list", str(SAMPLES), "--json"])
     assert result.exit_code == 0, result.output
     data = json.loads(result.stdout)
@@ -50,7 +48,7 @@ def test_fleet_list():
     assert any("days old" in p for a in json.loads(old.stdout)["aircraft"] for p in a["problems"])
 
 
-def test_fleet_list_flags_duplicates_and_bad_files(tmp_path):
+def test_fleet_list_flags_duplicates_and_bad_files(runner, tmp_path):
     shutil.copy(sample("trainer4/aircraft.toml"), tmp_path / "a.toml")
     shutil.copy(sample("trainer4/aircraft.toml"), tmp_path / "b.toml")
     (tmp_path / "c.toml").write_text('format = 1\nname = "broken"\n[units]\nmass = "lb"\n')
@@ -61,34 +59,23 @@ def test_fleet_list_flags_duplicates_and_bad_files(tmp_path):
     assert any("limits" in p or "required" in p for p in entries["c.toml"]["problems"])
 
 
-def test_batch_agrees_row_by_row_with_single_checks(records):
+def test_batch_agrees_row_by_row_with_single_checks(runner, records):
     result = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(DAY), "--json"])
     assert result.exit_code == 2  # the sample day has malformed rows
     lines = _json_lines(result.stdout)
-    with open(DAY, newline="") as handle:
-        rows = list(csv.DictReader(handle))
-    assert len(lines) == len(rows) >= 50
     fleet = load_fleet(SAMPLES)
+    rows = list(read_loadings(DAY, fleet)[0])
+    assert len(lines) == len(rows) >= 50
     checked = [line for line in lines if "input_error" not in line]
     assert len(checked) >= 50
+    # the library's own reading of the day (read_loadings, check_flights), each flight against check_loading
+    flights = {flight.row.line: flight for flight in check_flights(fleet, rows)}
+    assert sorted(flights) == [line["line"] for line in lines]
     for line in checked:
-        aircraft = fleet.aircraft(line["registration"])
-        raw = rows[line["line"] - 2]
-        load, fuel, burn = {}, {}, {}
-        for key, value in raw.items():
-            name, _, unit = key.partition(" [")
-            if not value or name in ("registration", "reference", "pilot"):
-                continue
-            text = f"{value} {unit.rstrip(']')}" if unit else value
-            if name in aircraft.stations:
-                load[name] = text
-            elif name in aircraft.tanks:
-                fuel[name] = text
-            elif name == "order":
-                burn["order"] = "together" if value == "together" else value.split(";")
-            else:
-                burn[name] = text
-        single = check_loading(aircraft, Loading(load=load, fuel=fuel, burn=burn)).to_dict()
+        flight = flights[line["line"]]
+        assert flight.row.loading is not None and flight.result is not None, flight.problems
+        single = check_loading(fleet.aircraft(line["registration"]), flight.row.loading).to_dict()
+        assert results_match(flight.result, single), line["line"]
         assert results_match({k: line[k] for k in single}, single), line["line"]
     bad = {line["line"]: " ".join(line["input_error"]) for line in lines if "input_error" in line}
     assert any("unknown registration 'DEMO-XX'" in v for v in bad.values())
@@ -101,7 +88,7 @@ def test_batch_agrees_row_by_row_with_single_checks(records):
         assert len(list(log.find())) == len(checked)
 
 
-def test_summary_table_and_exit_codes(records, tmp_path):
+def test_summary_table_and_exit_codes(runner, records, tmp_path):
     good = tmp_path / "good.csv"
     good.write_text("registration,reference,front,rear,mains,centre,taxi,trip\nDEMO-4T,R1,340,150,school,0,1.2,18\nDEMO-4T,R2,200,0,30,0,1,10\n")
     ok = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(good)])
@@ -112,7 +99,7 @@ def test_summary_table_and_exit_codes(records, tmp_path):
     assert result.exit_code == 1 and "OUT" in result.output and "maximum ramp weight" in result.output
 
 
-def test_units_in_headers(records, tmp_path):
+def test_units_in_headers(runner, records, tmp_path):
     day = tmp_path / "day.csv"
     day.write_text("registration,reference,front [kg],mains [l],trip [l]\nDEMO-4T,R1,100,100,40\n")
     line = _json_lines(runner.invoke(app, ["fleet", "check", str(SAMPLES), str(day), "--json"]).stdout)[0]
@@ -131,14 +118,14 @@ def test_units_in_headers(records, tmp_path):
         ("", "empty"),
     ],
 )
-def test_bad_csv_input(records, tmp_path, text, words):
+def test_bad_csv_input(runner, records, tmp_path, text, words):
     day = tmp_path / "day.csv"
     day.write_text(text)
     result = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(day)])
     assert result.exit_code == 2 and words in result.output and "Traceback" not in result.output
 
 
-def test_duplicate_registration_rows_are_refused(records, tmp_path):
+def test_duplicate_registration_rows_are_refused(runner, records, tmp_path):
     fleet = tmp_path / "fleet"
     fleet.mkdir()
     shutil.copy(sample("trainer4/aircraft.toml"), fleet / "a.toml")
@@ -149,7 +136,7 @@ def test_duplicate_registration_rows_are_refused(records, tmp_path):
     assert result.exit_code == 2 and "in more than one fleet file" in result.output and "day.csv:2" in result.output
 
 
-def test_folder_of_loading_files(records, tmp_path):
+def test_folder_of_loading_files(runner, records, tmp_path):
     folder = tmp_path / "day"
     folder.mkdir()
     (folder / "one.toml").write_text('registration = "DEMO-2T"\nreference = "F1"\n[load]\nfront = 80\n[fuel]\nwing = "full"\n')
@@ -161,7 +148,7 @@ def test_folder_of_loading_files(records, tmp_path):
     assert "registration" in " ".join(lines[1]["input_error"])
 
 
-def test_record_survives_an_edit_and_verify_reproduces_it(tmp_path, records):
+def test_record_survives_an_edit_and_verify_reproduces_it(runner, tmp_path, records):
     shutil.copytree(sample("trainer4"), tmp_path / "trainer4")
     aircraft = tmp_path / "trainer4" / "aircraft.toml"
     loading = tmp_path / "trainer4" / "within.toml"
@@ -188,7 +175,7 @@ def test_records_are_never_rewritten(records):
     assert db.execute("PRAGMA journal_mode").fetchone()[0] == "wal"
 
 
-def test_export_and_list(records):
+def test_export_and_list(runner, records):
     runner.invoke(app, ["fleet", "check", str(SAMPLES), str(DAY)])
     listing = runner.invoke(app, ["records", "list", "--registration", "DEMO-6P"])
     assert listing.exit_code == 0 and "DEMO-6P" in listing.output and "DEMO-4T" not in listing.output
@@ -223,7 +210,7 @@ def test_two_writers_lose_nothing(tmp_path):
     assert len({r.id for r in found}) == len(found)
 
 
-def test_an_interrupted_batch_leaves_every_record_whole(tmp_path):
+def test_an_interrupted_batch_leaves_every_record_whole(runner, tmp_path):
     big = _write_day(tmp_path / "big.csv", 20_000)
     db = tmp_path / "records.sqlite3"
     process = _run_fleet(db, big)
@@ -363,7 +350,7 @@ def test_rows_stream_in_bounded_memory(tmp_path, monkeypatch):
     assert peaks[8_000] < 1.5 * peaks[1_000], peaks  # eight times the rows, not eight times the memory
 
 
-def test_a_flight_within_limits_carries_its_warnings(records, tmp_path):
+def test_a_flight_within_limits_carries_its_warnings(runner, records, tmp_path):
     # the fleet table showed "within" for a row with warnings (a blank tank cell taken as
     # empty, landing fuel below the reserve): the flight's data must carry them
     day = tmp_path / "day.csv"
@@ -418,12 +405,12 @@ def test_batch_results_equal_single_checks_on_random_loadings(name, order):
     assert len(loadings) >= 100
     many = check_many(aircraft, loadings)
     assert {r.ok for r in many} == {True, False}  # both verdicts are exercised
-    for resolved, result in zip(loadings, many):
+    for resolved, result in zip(loadings, many, strict=True):
         single = check_loading(aircraft, resolved, samples=False)
         assert results_match(result.to_dict(), single.to_dict()), resolved
 
 
-def test_a_long_fleet_table_is_plain_text_and_cuts_nothing(records, tmp_path):
+def test_a_long_fleet_table_is_plain_text_and_cuts_nothing(runner, records, tmp_path):
     # the rich table took about half a millisecond a row and cut an input error at 160
     # characters; past the threshold the table is plain aligned text, every word kept
     from loadcheck.render.listing import PLAIN_ROWS
@@ -491,7 +478,7 @@ def test_a_large_batch_holds_blas_to_one_thread(monkeypatch):
 # -- trips of several legs (issue 16): the test aircraft and figures of tests/test_trip.py --------
 
 
-def test_a_fleet_trip_whose_second_leg_fails_exits_1_naming_leg_2(tmp_path):
+def test_a_fleet_trip_whose_second_leg_fails_exits_1_naming_leg_2(runner, tmp_path):
     from loadcheck.trip import check_trip
 
     from .test_trip import trip_fleet
@@ -558,7 +545,7 @@ def test_fleet_trip_results_are_check_trip_of_the_same_loading_file(tmp_path):
     (["TEST-T,F1,A,,180,0,30,1,10", "TEST-T,F2,,,180,0,20,1,5", "TEST-T,,A,,,400,,1,10"],
      ["trip 'A' is given in parts", "lines 2 and 4", "trip 'A' (line 2) is not checked", "trip 'A' (line 4) is not checked"]),
 ])
-def test_a_malformed_trip_is_refused_whole_naming_its_rows(tmp_path, rows, words):
+def test_a_malformed_trip_is_refused_whole_naming_its_rows(runner, tmp_path, rows, words):
     from .test_trip import trip_fleet
 
     folder = trip_fleet(tmp_path / "fleet")

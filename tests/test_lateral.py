@@ -12,7 +12,7 @@ from loadcheck import check_loading, load_check_inputs
 from loadcheck.files import parse_aircraft
 from loadcheck.loading import Loading
 
-from .helpers import sample, sample_data, simple_aircraft
+from .helpers import examples, sample, sample_data, simple_aircraft
 
 HELI = sample_data("heli2/aircraft.toml")
 
@@ -81,12 +81,12 @@ def _heli_loading(v, swap=False):
     return Loading(load=load, fuel={"main": v["fuel"]}, burn={"taxi": 0.5, "trip": (v["fuel"] - 0.5) * v["trip"]})
 
 
-@settings(max_examples=100, deadline=None)
+@settings(max_examples=examples(100), deadline=None)
 @given(heli_loadings)
 def test_mirroring_lateral_arms_mirrors_the_lateral_cg(values):
     a = check_loading(HELICOPTER, _heli_loading(values))
     b = check_loading(MIRRORED, _heli_loading(values))
-    for x, y in zip(a.conditions, b.conditions):
+    for x, y in zip(a.conditions, b.conditions, strict=True):
         assert y.lateral_arm == pytest.approx(-x.lateral_arm, abs=1e-12)
         assert y.arm == x.arm and y.weight == x.weight
         assert (y.margins.left, y.margins.right) == (pytest.approx(x.margins.right), pytest.approx(x.margins.left))
@@ -98,7 +98,7 @@ def test_mirroring_lateral_arms_mirrors_the_lateral_cg(values):
     )
 
 
-@settings(max_examples=100, deadline=None)
+@settings(max_examples=examples(100), deadline=None)
 @given(st.floats(30, 60), st.floats(0, 40), st.floats(0, 1), st.sampled_from(["together", "sequence"]))
 def test_constant_arm_table_equals_fixed_arm(arm, fuel, share, order):
     fixed = simple_aircraft(tank=[{"id": "main", "arm": arm, "usable": 40, "fuel": "avgas"},
@@ -167,7 +167,7 @@ HANDBOOK = parse_aircraft(HANDBOOK_HELICOPTER)
 HANDBOOK_MIRRORED = parse_aircraft(_mirror_moment(HANDBOOK_HELICOPTER))
 
 
-@settings(max_examples=60, deadline=None)
+@settings(max_examples=examples(60), deadline=None)
 @given(st.floats(0, 300), st.floats(0, 300), st.floats(5, 48), st.floats(0, 1), st.floats(0, 1))
 def test_mirroring_every_lateral_arm_mirrors_a_trips_lateral_results(pilot, passenger, fuel, first, second):
     # FAA-H-8083-1B ch. 8 layout (published arms), invented limits: see tests/test_trip.py

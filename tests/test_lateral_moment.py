@@ -20,7 +20,7 @@ from loadcheck.engine import CONDITIONS, evaluate
 from loadcheck.files import parse_aircraft
 from loadcheck.loading import Loading
 
-from .helpers import sample_data
+from .helpers import random_loadings, sample_data
 
 BOX = [[-2.5, 1000], [-2.5, 1500], [2.5, 1500], [2.5, 1000]]
 MOMENTS = [[-2500.0, 1000], [-3750.0, 1500], [3750.0, 1500], [2500.0, 1000]]  # the same limits as lateral moment
@@ -39,18 +39,9 @@ MOMENT_100 = _heli({"axes": ["lateral_moment", "weight"], "moment_scale": 100.0,
                     "points": [[m / 100.0, w] for m, w in MOMENTS]})
 
 
-def _rows(aircraft, n: int, seed: int):
-    rng = np.random.default_rng(seed)
-    stations = np.stack([rng.uniform(0, (s.max_weight or 120) * 1.05, n) for s in aircraft.station], axis=1)
-    fuel = np.stack([rng.uniform(0, t.usable, n) for t in aircraft.tank], axis=1)
-    taxi = np.minimum(rng.uniform(0, 1, n), fuel.sum(1))
-    trip = (fuel.sum(1) - taxi) * rng.uniform(0, 1, n)
-    return stations, fuel, taxi, trip
-
-
 @pytest.mark.parametrize("seed", [1, 2, 3])
 def test_a_lateral_moment_envelope_and_the_equivalent_lateral_arm_envelope_agree(seed):
-    rows = _rows(ARM, 4000, seed)
+    rows = random_loadings(ARM, 4000, seed=seed, default_max=120, taxi_max=1)
     by_arm = evaluate(ARM, *rows)
     for other in (MOMENT, MOMENT_100):
         by_moment = evaluate(other, *rows)
@@ -97,7 +88,7 @@ def _mirrored(aircraft):
 
 def test_mirroring_every_lateral_arm_mirrors_the_lateral_results():
     mirrored = _mirrored(MOMENT)
-    rows = _rows(MOMENT, 2000, 7)
+    rows = random_loadings(MOMENT, 2000, seed=7, default_max=120, taxi_max=1)
     a, b = evaluate(MOMENT, *rows), evaluate(mirrored, *rows)
     assert (a.ok == b.ok).all()
     for name in CONDITIONS:

@@ -10,15 +10,13 @@ import sqlite3
 from pathlib import Path
 
 import pytest
-from typer.testing import CliRunner
 
 from loadcheck.cli import app
 from loadcheck.fleet import load_fleet
 from loadcheck.records import RecordLog, verify, verify_current
 
-from .helpers import sample
+from .helpers import app_runner, sample
 
-runner = CliRunner()
 SAMPLES = Path(sample("trainer4/aircraft.toml")).parent.parent
 
 
@@ -30,7 +28,7 @@ def db(tmp_path, monkeypatch):
 
 
 def _record(db: Path, loading: str, *extra: str) -> int:
-    result = runner.invoke(app, ["check", str(sample(loading)), "--record", str(db), *extra])
+    result = app_runner().invoke(app, ["check", str(sample(loading)), "--record", str(db), *extra])
     assert result.exit_code in (0, 1), result.output
     with RecordLog(db) as log:
         return list(log.find())[-1].id
@@ -45,7 +43,7 @@ def _tamper(db: Path, statement: str, *args: object) -> None:
     connection.close()
 
 
-def test_an_untouched_record_is_reproduced(db):
+def test_an_untouched_record_is_reproduced(runner, db):
     record_id = _record(db, "trainer4/over_weight.toml")
     with RecordLog(db) as log:
         verification = verify(log, record_id)
@@ -67,7 +65,7 @@ def test_an_untouched_record_is_reproduced(db):
         ("legs", 2, "stored number of legs"),  # the count records list shows, outside the seal
     ],
 )
-def test_verify_finds_an_edit_to_any_stored_column(db, column, value, words):
+def test_verify_finds_an_edit_to_any_stored_column(runner, db, column, value, words):
     record_id = _record(db, "trainer4/over_weight.toml")
     _tamper(db, f"UPDATE checks SET {column} = ? WHERE id = ?", value, record_id)
     result = runner.invoke(app, ["records", "verify", str(record_id)])
@@ -75,7 +73,7 @@ def test_verify_finds_an_edit_to_any_stored_column(db, column, value, words):
     assert "NOT reproduced" in result.output and words in result.output
 
 
-def test_verify_finds_an_edited_result(db):
+def test_verify_finds_an_edited_result(runner, db):
     record_id = _record(db, "trainer4/over_weight.toml")
     with RecordLog(db) as log:
         stored = log.get(record_id).result
@@ -89,7 +87,7 @@ def test_verify_finds_an_edited_result(db):
     assert any("stored result differs" in d for d in json.loads(result.stdout)["differences"])
 
 
-def test_a_record_from_before_seals_is_verified_and_says_what_it_cannot_check(tmp_path):
+def test_a_record_from_before_seals_is_verified_and_says_what_it_cannot_check(runner, tmp_path):
     path = tmp_path / "old.sqlite3"
     with RecordLog(path):
         pass
@@ -105,7 +103,7 @@ def test_a_record_from_before_seals_is_verified_and_says_what_it_cannot_check(tm
     assert result.exit_code == 0 and "has no seal" in result.output
 
 
-def test_csv_export_names_the_units_of_each_row_in_a_mixed_fleet(db):
+def test_csv_export_names_the_units_of_each_row_in_a_mixed_fleet(runner, db):
     # trainer4 is in lb and in, tandem2 in kg and mm: each row's numbers are in its own aircraft's units
     runner.invoke(app, ["fleet", "check", str(SAMPLES), str(SAMPLES / "fleet_day.csv")])
     exported = runner.invoke(app, ["records", "export", "--format", "csv"])
@@ -128,7 +126,7 @@ def _fleet_copy(tmp_path: Path) -> Path:
     return folder
 
 
-def test_current_mode_unchanged_data_exits_0(db, tmp_path):
+def test_current_mode_unchanged_data_exits_0(runner, db, tmp_path):
     fleet = _fleet_copy(tmp_path)
     _record(db, "trainer4/within.toml")
     result = runner.invoke(app, ["records", "verify", "--current", str(fleet)], env={"COLUMNS": "250"})  # one line a record
@@ -136,7 +134,7 @@ def test_current_mode_unchanged_data_exits_0(db, tmp_path):
     assert "0 made with aircraft data that has changed since" in result.output
 
 
-def test_current_mode_finds_a_check_the_new_data_puts_out_of_limits(db, tmp_path):
+def test_current_mode_finds_a_check_the_new_data_puts_out_of_limits(runner, db, tmp_path):
     fleet = _fleet_copy(tmp_path)
     within = _record(db, "trainer4/within.toml")
     aircraft = fleet / "trainer4" / "aircraft.toml"
@@ -154,7 +152,7 @@ def test_current_mode_finds_a_check_the_new_data_puts_out_of_limits(db, tmp_path
     assert runner.invoke(app, ["records", "verify", str(within)]).exit_code == 0
 
 
-def test_current_mode_a_record_whose_aircraft_is_gone_exits_2(db, tmp_path):
+def test_current_mode_a_record_whose_aircraft_is_gone_exits_2(runner, db, tmp_path):
     fleet = _fleet_copy(tmp_path)
     _record(db, "twin6/within.toml")
     result = runner.invoke(app, ["records", "verify", "--current", str(fleet), "--json"])
@@ -163,13 +161,13 @@ def test_current_mode_a_record_whose_aircraft_is_gone_exits_2(db, tmp_path):
     assert "unknown registration 'DEMO-6P'" in check["problem"] and "current_ok" not in check
 
 
-def test_verify_needs_an_id_without_current(db):
+def test_verify_needs_an_id_without_current(runner, db):
     _record(db, "trainer4/within.toml")
     result = runner.invoke(app, ["records", "verify"])
     assert result.exit_code == 2 and "record id" in result.output and "Traceback" not in result.output
 
 
-def test_a_long_listing_reads_only_what_it_shows(db):
+def test_a_long_listing_reads_only_what_it_shows(runner, db):
     # records list of 10,000 records took 5 s: it read and parsed every stored result and
     # laid out a rich table; it now reads the columns it shows and prints plain aligned
     # text past the threshold. A record whose stored result cannot be parsed still lists.
@@ -194,7 +192,7 @@ def test_a_long_listing_reads_only_what_it_shows(db):
 # -- trips of several legs (issue 16): the test aircraft and figures of tests/test_trip.py --------
 
 
-def test_a_trip_is_recorded_verified_listed_and_exported_as_one_record(db, tmp_path):
+def test_a_trip_is_recorded_verified_listed_and_exported_as_one_record(runner, db, tmp_path):
     from loadcheck import load_check_inputs
     from loadcheck.records import record_check
     from loadcheck.trip import check_trip
@@ -237,7 +235,7 @@ def test_a_trip_is_recorded_verified_listed_and_exported_as_one_record(db, tmp_p
     assert lines[0]["result"] == trip.to_dict() and lines[0]["inputs"]["leg"] and "legs" not in lines[3]["result"]
 
 
-def test_a_trip_record_with_an_edited_leg_is_not_reproduced(db, tmp_path):
+def test_a_trip_record_with_an_edited_leg_is_not_reproduced(runner, db, tmp_path):
     from .test_trip import trip_fleet
 
     folder = trip_fleet(tmp_path / "fleet")
@@ -250,7 +248,7 @@ def test_a_trip_record_with_an_edited_leg_is_not_reproduced(db, tmp_path):
     assert result.exit_code == 1 and "stored result differs" in result.output
 
 
-def test_single_records_are_unchanged_by_trips(db):
+def test_single_records_are_unchanged_by_trips(runner, db):
     """A single loading is recorded, listed, exported and verified as before trips were
     recorded: its result is check_loading's, one CSV line with legs 1 and no leg number."""
     from loadcheck import check_loading, load_check_inputs
@@ -282,7 +280,7 @@ def test_a_trip_result_is_not_recorded_against_single_inputs(db, tmp_path):
         record_check(log, single, check_trip(trip_inputs.aircraft, trip_inputs.trip), source="x", version="test")
 
 
-def test_a_trip_recorded_within_limits_is_checked_against_the_current_data(db, tmp_path):
+def test_a_trip_recorded_within_limits_is_checked_against_the_current_data(runner, db, tmp_path):
     from .test_trip import trip_fleet
 
     folder = trip_fleet(tmp_path / "fleet")

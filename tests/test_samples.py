@@ -13,7 +13,6 @@ import re
 import shlex
 
 import pytest
-from typer.testing import CliRunner
 
 from loadcheck import check_loading, load_check_inputs
 from loadcheck.cli import app
@@ -175,18 +174,17 @@ def _tour_commands_with_exit_codes():
             yield match.group(1), int(match.group(2))
 
 
-def test_the_readme_tour_quotes_the_exit_status_the_samples_give():
+def test_the_readme_tour_quotes_the_exit_status_the_samples_give(runner):
     commands = list(_tour_commands_with_exit_codes())
     assert len(commands) >= 2
-    runner = CliRunner()
     for command, status in commands:
         args = shlex.split(command)
         result = runner.invoke(app, [str(SAMPLES.parent / a) if a.startswith("sample_aircraft/") else a for a in args])
         assert result.exit_code == status, (command, result.output)
 
 
-def test_the_readme_demo_check_is_within_limits():
+def test_the_readme_demo_check_is_within_limits(runner):
     # the first command a reader runs (Set up): the trainer's within.toml, exit 0
     assert "sample_aircraft/trainer4/aircraft.toml sample_aircraft/trainer4/within.toml" in README
-    result = CliRunner().invoke(app, ["check", str(sample("trainer4/aircraft.toml")), str(sample("trainer4/within.toml"))])
+    result = runner.invoke(app, ["check", str(sample("trainer4/aircraft.toml")), str(sample("trainer4/within.toml"))])
     assert result.exit_code == 0 and "WITHIN LIMITS" in result.output

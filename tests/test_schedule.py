@@ -11,7 +11,6 @@ import json
 
 import numpy as np
 import pytest
-from typer.testing import CliRunner
 
 from loadcheck import load_aircraft
 from loadcheck.caution import MECHANIC_CAUTION
@@ -21,8 +20,6 @@ from loadcheck.loading import BurnPlan, ResolvedLoading
 from loadcheck.schedule import loading_schedule
 
 from .helpers import ac_example_aircraft, sample, simple_aircraft
-
-runner = CliRunner()
 
 
 def test_ac_43_13_1b_figures_10_12_to_10_14_loading_schedule():
@@ -137,7 +134,7 @@ def test_schedule_answers_are_within_limits_and_maximal():
         assert not check_loading(aircraft, trial).ok
 
 
-def test_schedule_command_verdict_json_and_caution():
+def test_schedule_command_verdict_json_and_caution(runner):
     out = runner.invoke(app, ["schedule", str(sample("twin6/aircraft.toml")), "--json"])
     data = json.loads(out.stdout)
     assert out.exit_code == (0 if data["ok"] else 1)

@@ -14,7 +14,6 @@ import shutil
 import subprocess
 
 import pytest
-from typer.testing import CliRunner
 
 from loadcheck import check_loading, load_check_inputs
 from loadcheck.caution import PILOT_CAUTION
@@ -23,15 +22,15 @@ from loadcheck.display import fmt
 
 from .helpers import sample
 
-runner = CliRunner()
 BROWSER = next((shutil.which(n) for n in ("chromium", "chromium-browser", "google-chrome") if shutil.which(n)), None)
 POPPLER = shutil.which("pdfinfo") and shutil.which("pdftotext")
 pytestmark = pytest.mark.skipif(not (BROWSER and POPPLER), reason="needs Chromium and poppler-utils (pdfinfo, pdftotext)")
 
 # paper: (CSS size, pdfinfo's size in points); ISO 216 A4 is 210 x 297 mm, US letter 8.5 x 11 in
 PAPERS = {"letter": ("letter", (612.0, 792.0)), "A4": ("A4", (595.3, 841.9))}
-SHEETS = ["twin6/leaves_path.toml", "trainer4/over_weight.toml", "heli2/solo_heavy_right.toml", "tandem2/aft_heavy.toml",
-          "trainer4/within.toml"]
+OTHERS = ["twin6/leaves_path.toml", "trainer4/over_weight.toml", "heli2/solo_heavy_right.toml", "tandem2/aft_heavy.toml"]
+# one sheet prints in the default run; the other sheets (a headless browser each) with --long
+SHEETS = ["trainer4/within.toml", *(pytest.param(n, marks=pytest.mark.slow) for n in OTHERS)]
 
 
 def _print(html_path, pdf_path):
@@ -52,7 +51,7 @@ def _printed(html, tmp_path, paper):
 
 
 @pytest.mark.parametrize("name", SHEETS)
-def test_sheet_prints_on_one_page_of_letter_and_of_a4(tmp_path, name):
+def test_sheet_prints_on_one_page_of_letter_and_of_a4(runner, tmp_path, name):
     sheet = tmp_path / "sheet.html"
     result = runner.invoke(app, ["check", str(sample(name)), "--sheet", str(sheet)])
     assert result.exit_code in (0, 1), result.output
@@ -79,7 +78,7 @@ def test_sheet_prints_on_one_page_of_letter_and_of_a4(tmp_path, name):
         assert fmt(ramp.weight, check.units.mass, with_unit=False) in text
 
 
-def test_sheet_with_the_longest_names_still_prints_on_one_page(tmp_path):
+def test_sheet_with_the_longest_names_still_prints_on_one_page(runner, tmp_path):
     """Names at every seat, each as long as a loading allows (loadcheck.loading.MAX_NAME_LENGTH), on the
     desk's invented trip test aircraft: the sheet stays on one page of letter and of A4 with each name on it."""
     from loadcheck.loading import MAX_NAME_LENGTH

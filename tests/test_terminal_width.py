@@ -16,14 +16,11 @@ import re
 from collections import Counter
 
 import pytest
-from typer.testing import CliRunner
 
 from loadcheck.cli import app
 from loadcheck.display import fmt
 
-from .helpers import SAMPLES
-
-runner = CliRunner()
+from .helpers import SAMPLES, app_runner
 
 WIDTHS = (60, 80, 120)
 NUMBER = re.compile(r"-?\d[\d,]*(?:\.\d+)?")
@@ -74,8 +71,8 @@ def folder(tmp_path_factory):
 def _run(folder, monkeypatch, args, columns, **env):
     monkeypatch.chdir(folder)
     if args[:2] != ["fleet", "check"] and not (folder / "r.sqlite3").exists():
-        runner.invoke(app, ["fleet", "check", "s", "s/fleet_day.csv", "--record", "r.sqlite3"], env={"COLUMNS": "200"})
-    return runner.invoke(app, args, env={"COLUMNS": str(columns), **env})
+        app_runner().invoke(app, ["fleet", "check", "s", "s/fleet_day.csv", "--record", "r.sqlite3"], env={"COLUMNS": "200"})
+    return app_runner().invoke(app, args, env={"COLUMNS": str(columns), **env})
 
 
 def _fits(text: str, width: int) -> None:
@@ -118,7 +115,7 @@ print(json.dumps(out))
 """
 
 
-@pytest.mark.parametrize("width", WIDTHS)
+@pytest.mark.parametrize("width", [WIDTHS[0], *(pytest.param(w, marks=pytest.mark.slow) for w in WIDTHS[1:])])  # the narrowest by default
 def test_help_fits_and_never_breaks_a_word(width):
     # a real process: the test runner fixes help at 80 columns, a terminal does not
     import os
@@ -143,7 +140,7 @@ def test_help_fits_and_never_breaks_a_word(width):
 @pytest.mark.parametrize("name", ["trainer4/within.toml", "twin6/leaves_path.toml", "heli2/solo_heavy_right.toml",
                                   "tandem2/aft_heavy.toml", "trainer4/over_weight.toml"])
 @pytest.mark.parametrize("width", (*WIDTHS, None))
-def test_every_number_of_the_check_result_is_shown_whole(folder, monkeypatch, name, width):
+def test_every_number_of_the_check_result_is_shown_whole(runner, folder, monkeypatch, name, width):
     data = json.loads(_run(folder, monkeypatch, ["check", f"s/{name}", "--json"], 80).output)
     env = {} if width is None else {"COLUMNS": str(width)}
     monkeypatch.delenv("COLUMNS", raising=False)
@@ -166,7 +163,7 @@ def test_every_number_of_the_check_result_is_shown_whole(folder, monkeypatch, na
     assert not missing, missing
 
 
-def test_piped_output_defaults_to_80_columns(folder, monkeypatch):
+def test_piped_output_defaults_to_80_columns(runner, folder, monkeypatch):
     monkeypatch.chdir(folder)
     monkeypatch.delenv("COLUMNS", raising=False)
     out = runner.invoke(app, ["check", "s/trainer4/aircraft.toml", "s/trainer4/within.toml"]).output

@@ -96,6 +96,7 @@ def _fill(page: Any, values: dict[str, str]) -> None:
         page.fill(f"[id='{field}']", value)
 
 
+@pytest.mark.slow  # the default run still drives a check in the browser (bad value, trip)
 def test_pilot_checks_records_and_the_dispatcher_sees_it(browser: Any, server: dict[str, Any]) -> None:
     pilot = _page(browser, server, "pia", width=360)
     _no_sideways_scroll(pilot)
@@ -148,6 +149,7 @@ def test_a_bad_value_is_named_and_kept(browser: Any, server: dict[str, Any]) -> 
     _shot(pilot, "bad-value")
 
 
+@pytest.mark.slow  # the default run still drives a check in the browser (bad value, trip)
 def test_mechanic_records_a_weighing_and_the_next_check_uses_it(browser: Any, server: dict[str, Any]) -> None:
     from loadcheck.display import fmt
     from loadcheck.empty_record import propose

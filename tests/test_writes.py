@@ -1,6 +1,6 @@
 """Nothing lost: every file loadcheck writes is written whole or not at all.
 
-Aircraft history writes are tested in tests/test_mechanic.py (crash and full disk); here:
+Aircraft history writes are tested in tests/test_empty_record.py (crash and full disk); here:
 charts, load sheets, mechanic records, exports, and the record database.
 """
 
@@ -9,7 +9,6 @@ from __future__ import annotations
 import errno
 
 import pytest
-from typer.testing import CliRunner
 
 import loadcheck.files as files_module
 from loadcheck.cli import app
@@ -17,8 +16,6 @@ from loadcheck.errors import FileFormatError
 from loadcheck.records import RecordLog
 
 from .helpers import sample
-
-runner = CliRunner()
 
 
 def _crash(monkeypatch, how: str) -> None:
@@ -43,7 +40,7 @@ def _crash(monkeypatch, how: str) -> None:
         (["show", str(sample("twin6/aircraft.toml")), "--chart"], "envelope.pdf"),
     ],
 )
-def test_old_content_survives_a_failed_write(tmp_path, monkeypatch, how, args, name):
+def test_old_content_survives_a_failed_write(runner, tmp_path, monkeypatch, how, args, name):
     target = tmp_path / name
     target.write_bytes(b"the old content")
     _crash(monkeypatch, how)
@@ -54,7 +51,7 @@ def test_old_content_survives_a_failed_write(tmp_path, monkeypatch, how, args, n
     assert [p.name for p in tmp_path.iterdir()] == [name]  # no temporary file left behind
 
 
-def test_export_survives_a_failed_write(tmp_path, monkeypatch):
+def test_export_survives_a_failed_write(runner, tmp_path, monkeypatch):
     db = tmp_path / "records.sqlite3"
     with RecordLog(db) as log:
         log.add(aircraft_data={"a": 1}, fingerprint="f", inputs={}, result={"ok": True, "category": "normal"})
@@ -101,7 +98,7 @@ def _linked_trainer(tmp_path):
     return link, versions / "v7.toml"
 
 
-def test_weigh_write_goes_through_a_symlink_to_its_target(tmp_path):
+def test_weigh_write_goes_through_a_symlink_to_its_target(runner, tmp_path):
     from loadcheck import load_aircraft
 
     link, target = _linked_trainer(tmp_path)
@@ -117,7 +114,7 @@ def test_weigh_write_goes_through_a_symlink_to_its_target(tmp_path):
     ["weigh", str(sample("trainer4/aircraft.toml")), str(sample("trainer4/weighing.toml")), "--sheet"],
     ["check", str(sample("trainer4/within.toml")), "--sheet"],
 ])
-def test_sheets_go_through_a_symlink(tmp_path, args):
+def test_sheets_go_through_a_symlink(runner, tmp_path, args):
     import os
 
     (tmp_path / "real.html").write_text("old")
@@ -127,7 +124,7 @@ def test_sheets_go_through_a_symlink(tmp_path, args):
     assert (tmp_path / "record.html").is_symlink() and "<!DOCTYPE html>" in (tmp_path / "real.html").read_text()
 
 
-def test_export_goes_through_a_symlink(tmp_path):
+def test_export_goes_through_a_symlink(runner, tmp_path):
     import os
 
     db = tmp_path / "records.sqlite3"
@@ -142,7 +139,7 @@ def test_export_goes_through_a_symlink(tmp_path):
 
 @pytest.mark.parametrize("through_link", [False, True])
 @pytest.mark.parametrize("command", ["record-sheet", "load-sheet", "export"])
-def test_a_fifo_is_refused_not_replaced_or_read(tmp_path, command, through_link):
+def test_a_fifo_is_refused_not_replaced_or_read(runner, tmp_path, command, through_link):
     import os
 
     fifo = tmp_path / "pipe.html"
@@ -166,33 +163,6 @@ def test_a_fifo_is_refused_not_replaced_or_read(tmp_path, command, through_link)
     import stat
 
     assert stat.S_ISFIFO(os.stat(fifo).st_mode)
-
-
-def test_write_atomic_refuses_a_folder(tmp_path):
-    with pytest.raises(FileFormatError, match="is a folder"):
-        files_module.write_atomic(tmp_path, "x")
-
-
-@pytest.mark.parametrize("umask, mode", [(0o022, 0o644), (0o077, 0o600), (0o002, 0o664)])
-def test_new_files_follow_the_umask(tmp_path, umask, mode):
-    import os
-
-    old = os.umask(umask)
-    try:
-        files_module.write_atomic(tmp_path / "new.html", "x")
-    finally:
-        os.umask(old)
-    assert (tmp_path / "new.html").stat().st_mode & 0o777 == mode
-
-
-def test_an_existing_file_keeps_its_permissions(tmp_path):
-    import os
-
-    path = tmp_path / "kept.csv"
-    path.write_text("old")
-    os.chmod(path, 0o640)
-    files_module.write_atomic(path, "new")
-    assert path.stat().st_mode & 0o777 == 0o640 and path.read_text() == "new"
 
 
 # -- crash and full disk on the new write paths: symlink target, confirmation, override ---------
@@ -221,7 +191,7 @@ def _write_path(tmp_path, monkeypatch, path_kind):
 
 @pytest.mark.parametrize("how", ["crash", "disk_full"])
 @pytest.mark.parametrize("path_kind", ["symlink", "confirmation", "override"])
-def test_new_write_paths_survive_a_crash_and_a_full_disk(tmp_path, monkeypatch, how, path_kind):
+def test_new_write_paths_survive_a_crash_and_a_full_disk(runner, tmp_path, monkeypatch, how, path_kind):
     whole, args, answer = _write_path(tmp_path, monkeypatch, path_kind)
     before = whole.read_bytes()
     _crash(monkeypatch, how)

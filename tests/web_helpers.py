@@ -5,7 +5,10 @@ from __future__ import annotations
 import re
 import shutil
 from pathlib import Path
-from typing import Any
+from typing import TYPE_CHECKING, Any
+
+if TYPE_CHECKING:
+    from fastapi.testclient import TestClient
 
 ROOT = Path(__file__).resolve().parent.parent
 SAMPLES = ROOT / "sample_aircraft"
@@ -106,3 +109,34 @@ def sign_in(client: Any, name: str, password: str = PASSWORD) -> Any:
     """Sign in through the sign-in form; return the response."""
     page = client.get("/signin")
     return client.post("/signin", data={"name": name, "password": password, "csrf": csrf_of(page.text)}, follow_redirects=False)
+
+
+# -- the desk through the framework's test client (tests/test_web_*.py) --------------------------
+
+WITHIN = {"load.front": "340", "load.rear": "160", "load.hold": "15 kg", "fuel.mains": "school", "fuel.centre": "0",
+          "burn.taxi": "1.2", "burn.trip": "18", "burn.reserve": "8"}
+
+
+def _client(desk: dict[str, Any], name: str | None = None) -> TestClient:
+    from fastapi.testclient import TestClient
+
+    client = TestClient(desk["app"], client=("127.0.0.1", 50000))
+    if name is not None:
+        assert sign_in(client, name).status_code == 303
+    return client
+
+
+def _post_check(client: TestClient, values: dict[str, str], registration: str = "DEMO-4T", action: str = "check",
+                route: str = "check") -> Any:
+    form = client.get(f"/aircraft/{registration}")
+    return client.post(f"/aircraft/{registration}/{route}", data={**values, "action": action, "csrf": csrf_of(form.text)},
+                       follow_redirects=False)
+
+
+def _records(desk: dict[str, Any]) -> list[Any]:
+    from loadcheck.records import RecordLog
+
+    if not desk["db"].exists():
+        return []
+    with RecordLog(desk["db"]) as log:
+        return list(log.find())

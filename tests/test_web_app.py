@@ -2,7 +2,8 @@
 
 The figures a check shows come from the engine (tests/test_check.py holds their sources);
 these tests check that the desk calls the same jobs as the command line and gives their
-answers unchanged, and each security rule of the issue.
+answers unchanged (loadcheck/web/app.py). The security rules (sign-in throttle, CSRF, body
+limit, bind address) are in tests/test_web_security.py, the accounts in tests/test_web_users.py.
 """
 
 from __future__ import annotations
@@ -22,41 +23,9 @@ from fastapi.testclient import TestClient
 from loadcheck.check import check_loading
 from loadcheck.files import load_check_inputs
 from loadcheck.records import RecordLog
-from loadcheck.web import create_app
 
-from .web_helpers import PASSWORD, SAMPLES, TRIP_LEG_2_AFT, csrf_of, make_desk, sign_in
-
-WITHIN = {"load.front": "340", "load.rear": "160", "load.hold": "15 kg", "fuel.mains": "school", "fuel.centre": "0",
-          "burn.taxi": "1.2", "burn.trip": "18", "burn.reserve": "8"}
-
-
-@pytest.fixture()
-def desk(tmp_path: Path) -> dict[str, Any]:
-    fleet, db, users = make_desk(tmp_path)
-    app = create_app(fleet, db=db, users=users, secret="test secret")
-    return {"app": app, "fleet": fleet, "db": db, "users": users}
-
-
-def _client(desk: dict[str, Any], name: str | None = None) -> TestClient:
-    client = TestClient(desk["app"], client=("127.0.0.1", 50000))
-    if name is not None:
-        assert sign_in(client, name).status_code == 303
-    return client
-
-
-def _post_check(client: TestClient, values: dict[str, str], registration: str = "DEMO-4T", action: str = "check",
-                route: str = "check") -> Any:
-    form = client.get(f"/aircraft/{registration}")
-    return client.post(f"/aircraft/{registration}/{route}", data={**values, "action": action, "csrf": csrf_of(form.text)},
-                       follow_redirects=False)
-
-
-def _records(desk: dict[str, Any]) -> list[Any]:
-    if not desk["db"].exists():
-        return []
-    with RecordLog(desk["db"]) as log:
-        return list(log.find())
-
+from .helpers import AppRunner
+from .web_helpers import PASSWORD, SAMPLES, TRIP_LEG_2_AFT, WITHIN, _client, _post_check, _records, csrf_of, sign_in
 
 # -- signing in ----------------------------------------------------------------------------------
 
@@ -87,44 +56,6 @@ def test_session_cookie_is_httponly_and_samesite(desk: dict[str, Any]) -> None:
     response = sign_in(_client(desk), "pia")
     cookie = response.headers["set-cookie"].lower()
     assert "httponly" in cookie and "samesite=strict" in cookie
-
-
-def test_passwords_are_stored_only_as_argon2_hashes(desk: dict[str, Any]) -> None:
-    text = desk["users"].read_text()
-    assert PASSWORD not in text
-    hashes = [entry["hash"] for entry in json.loads(text)["users"].values()]
-    assert len(hashes) == 4 and all(h.startswith("$argon2id$") for h in hashes)
-    assert desk["users"].stat().st_mode & 0o077 == 0  # readable by its owner only
-
-
-def test_repeated_failed_sign_ins_are_slowed(desk: dict[str, Any]) -> None:
-    client = _client(desk)
-    for _ in range(5):
-        assert sign_in(client, "pia", "not the password").status_code == 401
-    refused = sign_in(client, "pia")  # the right password, too soon after five failures
-    assert refused.status_code == 429 and "Too many failed sign-ins" in refused.text
-    assert client.get("/fleet", follow_redirects=False).status_code == 303
-
-
-def test_sign_in_form_needs_its_csrf_token(desk: dict[str, Any]) -> None:
-    client = _client(desk)
-    client.get("/signin")
-    response = client.post("/signin", data={"name": "pia", "password": PASSWORD})
-    assert response.status_code == 403
-
-
-def test_every_form_is_csrf_protected(desk: dict[str, Any]) -> None:
-    client = _client(desk, "pia")
-    for path in ("/aircraft/DEMO-4T/check", "/aircraft/DEMO-4T/record", "/aircraft/DEMO-4T/sheet", "/aircraft/DEMO-4T/edit",
-                 "/signout"):
-        assert client.post(path, data=WITHIN).status_code == 403, path
-        assert client.post(path, data={**WITHIN, "csrf": "forged"}).status_code == 403, path
-    mechanic = _client(desk, "mo")
-    assert mechanic.post("/mechanic/DEMO-4T/propose", data={"kind": "weighing", "text": ""}).status_code == 403
-    assert mechanic.post("/mechanic/DEMO-4T/confirm", data={"token": "x", "confirm": "yes"}).status_code == 403
-    dispatcher = _client(desk, "dan")
-    assert dispatcher.post("/records/1/verify", data={}).status_code == 403
-    assert _records(desk) == []
 
 
 def test_api_takes_only_json_bodies(desk: dict[str, Any]) -> None:
@@ -256,9 +187,8 @@ def test_load_sheet_is_the_command_lines_sheet(desk: dict[str, Any]) -> None:
     assert escape(PILOT_CAUTION) in page
 
 
-def test_load_sheet_has_the_fuel_plan_and_names_as_check_sheet_gives_them(desk: dict[str, Any], tmp_path: Path) -> None:
+def test_load_sheet_has_the_fuel_plan_and_names_as_check_sheet_gives_them(runner: AppRunner, desk: dict[str, Any], tmp_path: Path) -> None:
     # regression: the desk's sheet of a single check left out the fuel plan (taxi, trip, reserve, order) that check --sheet shows
-    from typer.testing import CliRunner
 
     from loadcheck.cli import app
 
@@ -268,7 +198,7 @@ def test_load_sheet_has_the_fuel_plan_and_names_as_check_sheet_gives_them(desk: 
     loading.write_text('format = 1\n[load]\nfront = "340"\nbags = "100"\n[names]\nfront = "Alex"\n[fuel]\nmain = "full"\n'
                        '[burn]\ntaxi = "1"\ntrip = "20"\n')
     cli_file = tmp_path / "one.html"
-    assert CliRunner().invoke(app, ["check", str(desk["fleet"] / "trip_test.toml"), str(loading), "--sheet", str(cli_file)]).exit_code == 0
+    assert runner.invoke(app, ["check", str(desk["fleet"] / "trip_test.toml"), str(loading), "--sheet", str(cli_file)]).exit_code == 0
 
     def text(html: str) -> list[str]:  # words and figures, without the time of the check, the loading's name and the chart
         html = re.sub(r"<svg.*</svg>", "", html, flags=re.S)
@@ -359,12 +289,11 @@ def test_dispatcher_filters_by_aircraft_verdict_and_date(desk: dict[str, Any]) -
     assert dan.get("/records?date=yesterday").status_code == 422
 
 
-def test_dispatcher_sees_checks_recorded_by_the_command_line(desk: dict[str, Any]) -> None:
-    from typer.testing import CliRunner
+def test_dispatcher_sees_checks_recorded_by_the_command_line(runner: AppRunner, desk: dict[str, Any]) -> None:
 
     from loadcheck.cli import app
 
-    result = CliRunner().invoke(app, ["check", str(desk["fleet"] / "trainer4" / "within.toml"), "--record", str(desk["db"])])
+    result = runner.invoke(app, ["check", str(desk["fleet"] / "trainer4" / "within.toml"), "--record", str(desk["db"])])
     assert result.exit_code == 0, result.output
     rows = _client(desk, "dan").get("/api/records").json()
     assert len(rows) == 1 and rows[0]["source"].endswith("within.toml")
@@ -496,21 +425,6 @@ def test_a_note_with_markup_is_kept_as_text(desk: dict[str, Any]) -> None:
     written = mo.post("/mechanic/DEMO-4T/confirm", data={"token": token, "confirm": "yes", "note": MARKUP, "csrf": csrf_of(page)})
     assert written.status_code == 200
     assert "<script>" not in written.text and "&lt;script&gt;" in written.text  # the history shows the note as text
-
-
-def test_request_bodies_and_uploads_are_size_limited(desk: dict[str, Any]) -> None:
-    from loadcheck.web.security import MAX_BODY_BYTES
-
-    mo = _client(desk, "mo")
-    page = mo.get("/mechanic/DEMO-4T").text
-    big = b"# " + b"x" * MAX_BODY_BYTES
-    response = mo.post("/mechanic/DEMO-4T/propose", data={"kind": "weighing", "csrf": csrf_of(page)},
-                       files={"upload": ("big.toml", big, "application/toml")})
-    assert response.status_code == 413
-    pia = _client(desk, "pia")
-    assert pia.post("/api/check", content=b"{" + b" " * MAX_BODY_BYTES + b"}",
-                    headers={"content-type": "application/json"}).status_code == 413
-    assert _records(desk) == []
 
 
 def test_no_traceback_or_internal_path_reaches_a_page(desk: dict[str, Any], monkeypatch: pytest.MonkeyPatch) -> None:
@@ -663,8 +577,7 @@ def test_a_recorded_trip_is_verified_by_the_dispatcher(desk: dict[str, Any]) -> 
     assert verified.status_code == 200 and "Verified:" in verified.text
 
 
-def test_trip_load_sheet_is_the_command_lines_trip_sheet(desk: dict[str, Any], tmp_path: Path) -> None:
-    from typer.testing import CliRunner
+def test_trip_load_sheet_is_the_command_lines_trip_sheet(runner: AppRunner, desk: dict[str, Any], tmp_path: Path) -> None:
 
     from loadcheck.cli import app
 
@@ -673,7 +586,7 @@ def test_trip_load_sheet_is_the_command_lines_trip_sheet(desk: dict[str, Any], t
     args = ["check", str(desk["fleet"] / "trip_test.toml"), "--load", "front=340", "--load", "bags=100", "--fuel", "main=full",
             "--taxi", "1", "--trip", "20", "--leg-load", "2:front=170", "--leg-fuel", "2:main=5", "--leg-burn", "2:taxi=1",
             "--leg-burn", "2:trip=10", "--sheet", str(cli_file)]
-    assert CliRunner().invoke(app, args).exit_code == 1
+    assert runner.invoke(app, args).exit_code == 1
     def text(html: str) -> str:  # the sheet's words and figures, without the time of the check and the chart
         html = re.sub(r"<svg.*</svg>", "", html, flags=re.S)
         return re.sub(r"Checked:</span> [^<]*|, leg 2 \(back solo\)|, leg 2|<[^>]+>|\s+", " ", html)
@@ -703,15 +616,14 @@ def test_plan_a_trip_from_the_form_is_the_library_answer(desk: dict[str, Any]) -
     assert _records(desk) == []
 
 
-def test_api_check_takes_legs_as_the_command_line_does(desk: dict[str, Any]) -> None:
-    from typer.testing import CliRunner
+def test_api_check_takes_legs_as_the_command_line_does(runner: AppRunner, desk: dict[str, Any]) -> None:
 
     from loadcheck.cli import app
 
     args = ["check", str(desk["fleet"] / "trip_test.toml"), "--load", "front=340", "--load", "bags=100", "--fuel", "main=full",
             "--taxi", "1", "--trip", "20", "--leg-load", "2:front=170", "--leg-fuel", "2:main=5", "--leg-burn", "2:taxi=1",
             "--leg-burn", "2:trip=10", "--json"]
-    cli = CliRunner().invoke(app, args)
+    cli = runner.invoke(app, args)
     assert cli.exit_code == 1
     body = {"registration": "TEST-TRIP", "load": {"front": 340, "bags": 100}, "fuel": {"main": "full"},
             "burn": {"taxi": 1, "trip": 20}, "leg": [{"load": {"front": 170}, "add_fuel": {"main": 5}, "burn": {"taxi": 1, "trip": 10}}]}
@@ -722,7 +634,7 @@ def test_api_check_takes_legs_as_the_command_line_does(desk: dict[str, Any]) -> 
     recorded = client.post("/api/check", json={**body, "record": True}).json()
     assert [r.id for r in _records(desk)] == [recorded["record_id"]] and len(recorded["legs"]) == 2
     stop = client.post("/api/plan/stop", json={**body, "stop": 2})
-    cli_stop = CliRunner().invoke(app, ["plan", "stop", *args[1:-1], "--leg", "2", "--json"])
+    cli_stop = runner.invoke(app, ["plan", "stop", *args[1:-1], "--leg", "2", "--json"])
     assert stop.status_code == 200 and stop.json() == json.loads(cli_stop.stdout)
 
 
@@ -785,12 +697,11 @@ def test_a_bad_name_brings_the_form_back_with_the_field_named(desk: dict[str, An
 
 # -- the JSON API --------------------------------------------------------------------------------
 
-def test_api_check_is_the_command_lines_json(desk: dict[str, Any]) -> None:
-    from typer.testing import CliRunner
+def test_api_check_is_the_command_lines_json(runner: AppRunner, desk: dict[str, Any]) -> None:
 
     from loadcheck.cli import app
 
-    cli = CliRunner().invoke(app, ["check", str(SAMPLES / "twin6" / "leaves_path.toml"), "--json"])
+    cli = runner.invoke(app, ["check", str(SAMPLES / "twin6" / "leaves_path.toml"), "--json"])
     body = {"registration": "DEMO-6P", "load": {"row1": 380, "row2": 340, "nose": 200}, "fuel": {"mains": 100, "aux": 40},
             "burn": {"taxi": 2, "trip": 90, "order": ["aux", "mains"]}}
     answer = _client(desk, "pia").post("/api/check", json=body)
@@ -817,8 +728,7 @@ def test_api_bad_value_names_the_field(desk: dict[str, Any]) -> None:
     assert _records(desk) == []
 
 
-def test_api_plans_are_the_command_lines_json(desk: dict[str, Any]) -> None:
-    from typer.testing import CliRunner
+def test_api_plans_are_the_command_lines_json(runner: AppRunner, desk: dict[str, Any]) -> None:
 
     from loadcheck.cli import app
 
@@ -827,9 +737,9 @@ def test_api_plans_are_the_command_lines_json(desk: dict[str, Any]) -> None:
             "burn": {"taxi": 1.2, "trip": 18, "reserve": 8}}
     client = _client(desk, "pia")
     fuel = client.post("/api/plan/fuel", json=body).json()
-    assert fuel == json.loads(CliRunner().invoke(app, ["plan", "fuel", within, "--json"]).stdout)
+    assert fuel == json.loads(runner.invoke(app, ["plan", "fuel", within, "--json"]).stdout)
     payload = client.post("/api/plan/payload", json={**body, "station": "hold"}).json()
-    assert payload == json.loads(CliRunner().invoke(app, ["plan", "payload", within, "--station", "hold", "--json"]).stdout)
+    assert payload == json.loads(runner.invoke(app, ["plan", "payload", within, "--station", "hold", "--json"]).stdout)
     assert client.post("/api/plan/payload", json=body).status_code == 422  # no station
 
 
@@ -855,72 +765,6 @@ def test_pages_link_no_outside_url(desk: dict[str, Any]) -> None:
 
 
 # -- starting it ---------------------------------------------------------------------------------
-
-def test_server_refuses_a_non_loopback_address_without_the_option() -> None:
-    from loadcheck.errors import InputError
-    from loadcheck.web.security import REMOTE_CAUTION, bind_caution
-
-    for host in ("127.0.0.1", "::1", "localhost", "127.0.0.2"):
-        assert bind_caution(host, False) is None
-    for host in ("0.0.0.0", "192.168.1.20", "::", "desk.example"):
-        with pytest.raises(InputError, match="--allow-remote"):
-            bind_caution(host, False)
-        assert bind_caution(host, True) == REMOTE_CAUTION
-    assert "TLS" in REMOTE_CAUTION and "trusted network" in REMOTE_CAUTION
-
-
-def test_serve_command_refuses_remote_and_prints_the_caution(tmp_path: Path, monkeypatch: pytest.MonkeyPatch) -> None:
-    import uvicorn
-    from typer.testing import CliRunner
-
-    from loadcheck.cli import app
-
-    refused = CliRunner().invoke(app, ["serve", str(SAMPLES), "--host", "0.0.0.0", "--users", str(tmp_path / "u.json")])
-    assert refused.exit_code == 2 and "--allow-remote" in refused.output
-    started: dict[str, Any] = {}
-    monkeypatch.setattr(uvicorn, "run", lambda app, **kw: started.update(kw))
-    allowed = CliRunner().invoke(app, ["serve", str(SAMPLES), "--host", "0.0.0.0", "--allow-remote",
-                                       "--users", str(tmp_path / "u.json"), "--db", str(tmp_path / "r.sqlite3")])
-    assert allowed.exit_code == 0 and "TLS" in allowed.output and started["host"] == "0.0.0.0"
-    monkeypatch.setattr(uvicorn, "run", lambda app, **kw: started.update(kw))
-    CliRunner().invoke(app, ["serve", str(SAMPLES), "--users", str(tmp_path / "u.json")])
-    assert started["host"] == "127.0.0.1"
-
-
-def test_users_commands(tmp_path: Path) -> None:
-    from typer.testing import CliRunner
-
-    from loadcheck.cli import app
-
-    users = str(tmp_path / "users.json")
-    run = CliRunner().invoke
-    assert run(app, ["users", "add", "robin", "-r", "pilot", "-r", "mechanic", "--password-stdin", "--users", users],
-               input="first pass phrase\n").exit_code == 0
-    listed = run(app, ["users", "list", "--users", users])
-    assert listed.stdout == "robin\tpilot, mechanic\n"
-    assert run(app, ["users", "add", "robin", "-r", "pilot", "--password-stdin", "--users", users], input="x" * 12 + "\n").exit_code == 2
-    bad_role = run(app, ["users", "add", "sam", "-r", "captain", "--password-stdin", "--users", users], input="x" * 12 + "\n")
-    assert bad_role.exit_code == 2 and "captain" in bad_role.output
-    short = run(app, ["users", "add", "sam", "-r", "pilot", "--password-stdin", "--users", users], input="short\n")
-    assert short.exit_code == 2 and "at least" in short.output
-    assert run(app, ["users", "passwd", "robin", "--password-stdin", "--users", users], input="second pass phrase\n").exit_code == 0
-    from loadcheck.web.users import UserStore
-
-    store = UserStore(users)
-    made = json.loads(Path(users).read_text())["users"]["robin"]["hash"]
-    assert made.startswith("$argon2id$v=19$m=65536,t=3,")  # RFC 9106 section 4, second recommended option
-    assert store.verify("robin", "first pass phrase") is None and store.verify("robin", "second pass phrase") is not None
-    assert run(app, ["users", "remove", "robin", "--users", users]).exit_code == 0
-    assert run(app, ["users", "list", "--users", users]).stdout == ""
-    assert run(app, ["users", "remove", "robin", "--users", users]).exit_code == 2
-
-
-def test_a_removed_account_is_signed_out(desk: dict[str, Any]) -> None:
-    from loadcheck.web.users import UserStore
-
-    client = _client(desk, "pia")
-    UserStore(desk["users"]).remove("pia")
-    assert client.get("/fleet", follow_redirects=False).status_code == 303
 
 
 def test_fleet_is_read_again_when_an_aircraft_file_changes(desk: dict[str, Any]) -> None:

@@ -1,0 +1,452 @@
+"""A new empty-weight record from a weighing: what is refused, confirmed, recorded and kept
+(issue 14; docs/mechanic.md, "What is refused, and why").
+
+Sources: the weighing arithmetic is tested against FAA-H-8083-1B in tests/test_weighing.py;
+here the rules about writing the record (loadcheck/empty_record.py), and its history. The
+10 % plausibility bound is common practice (no published figure); a record whose empty weight reaches the maximum takeoff weight leaves
+no useful load (FAA-H-8083-1B chapter 2, useful load = maximum weight - empty weight).
+"""
+
+from __future__ import annotations
+
+import errno
+import os
+import shutil
+import subprocess
+import tomllib
+from pathlib import Path
+
+import pytest
+
+import loadcheck.cli.mechanic as mechanic_cli
+import loadcheck.files as files_module
+from loadcheck import load_aircraft
+from loadcheck.cli import app
+from loadcheck.empty_record import NOTE_CHARS, NotConfirmedError, OverrideNeededError, make_current, propose
+from loadcheck.files import MAX_FILE_BYTES, read_text
+
+from .helpers import app_runner, cell, record_sheet, sample
+
+
+def _trainer(tmp_path: Path) -> Path:
+    for name in ("aircraft.toml", "changes.toml", "weighing.toml"):
+        shutil.copy(sample(f"trainer4/{name}"), tmp_path / name)
+    return tmp_path / "aircraft.toml"
+
+
+def _readings(tmp_path: Path, old: str, new: str, name: str = "readings.toml") -> Path:
+    path = tmp_path / name
+    path.write_text((tmp_path / "weighing.toml").read_text().replace(old, new))
+    return path
+
+
+def _weigh(path: Path, readings: Path, *options: str):
+    return app_runner().invoke(app, ["weigh", str(path), str(readings), *options])
+
+
+# -- item 2: impossible and implausible records ---------------------------------------------
+
+
+def test_a_mistyped_reading_that_leaves_no_useful_load_is_never_written(tmp_path):
+    path = _trainer(tmp_path)
+    before = path.read_bytes()
+    bad = _readings(tmp_path, "reading = 541.0", "reading = 5410.0")  # 5410 for 541
+    shown = _weigh(path, bad, "--sheet", str(tmp_path / "record.html"))
+    assert shown.exit_code == 0 and "NEVER WRITTEN" in shown.output
+    html = (tmp_path / "record.html").read_text()
+    assert "NEVER WRITTEN" in html and "Not computed: the new record does not make a valid aircraft" in html
+    for options in (["--write", "--yes"], ["--write", "--yes", "--force"]):
+        result = _weigh(path, bad, *options)
+        assert result.exit_code == 2, result.output
+        assert "reaches the maximum takeoff weight" in result.output and "--force" not in result.output
+        assert path.read_bytes() == before
+
+
+def test_an_implausible_change_needs_an_override_that_the_history_keeps(runner, tmp_path):
+    path = _trainer(tmp_path)
+    before = path.read_bytes()
+    heavy = _readings(tmp_path, "reading = 598.0", "reading = 818.0")  # +220 lb: about 11 % above the record's 1,718 lb
+    refused = _weigh(path, heavy, "--write", "--yes")
+    assert refused.exit_code == 2 and "more than 10%" in refused.output and "--force" in refused.output
+    assert path.read_bytes() == before
+    written = _weigh(path, heavy, "--write", "--yes", "--force", "--by", "J. Doe, A&P 1234567", "--why", "annual weighing")
+    assert written.exit_code == 0, written.output
+    (entry,) = load_aircraft(path).history
+    assert entry.by == "J. Doe, A&P 1234567" and entry.note == "annual weighing"
+    assert entry.overrides and entry.overrides[0].startswith("implausible_change:")
+    listing = runner.invoke(app, ["history", str(path)])
+    assert "OVERRIDE" in listing.output and "implausible_change" in listing.output
+
+
+def test_a_cg_outside_every_envelope_needs_an_override(tmp_path):
+    path = _trainer(tmp_path)
+    # the main-wheel distance mistyped, 84.7 for 57.4 in: CG near 64 in, aft of every envelope (35 to 46.8 in)
+    shifted = _readings(tmp_path, "main_distance = 57.4", "main_distance = 84.7")
+    proposal = propose(path, shifted, "weighing")
+    assert [r.code for r in proposal.result.refusals] == ["cg_outside_envelopes"]
+    with pytest.raises(OverrideNeededError, match="outside every envelope's arm span"):
+        make_current(proposal, confirmed=True)
+    assert make_current(proposal, confirmed=True, override=True) == path
+    assert load_aircraft(path).history[0].overrides[0].startswith("cg_outside_envelopes")
+
+
+@pytest.mark.parametrize(
+    "old, new, words",
+    [
+        ("weight = 1718.0", "weight = 2450.0", "empty.weight"),  # empty weight at the maximum takeoff weight
+        ("max_landing_weight = 2450", "max_landing_weight = 2500", "max_landing_weight (2500) is above"),
+        ("basis = ", "cg_range = [41.0, 37.0]\nbasis = ", "cg_range is reversed"),
+    ],
+)
+def test_validate_refuses_an_impossible_aircraft(runner, tmp_path, old, new, words):
+    path = _trainer(tmp_path)
+    path.write_text(path.read_text().replace(old, new, 1))
+    result = runner.invoke(app, ["validate", str(path)])
+    assert result.exit_code == 2 and words in result.output and "Traceback" not in result.output
+
+
+# -- item 3: confirmation, and who, when and why ------------------------------------------------
+
+
+def test_a_non_interactive_write_needs_yes(tmp_path):
+    path = _trainer(tmp_path)
+    before = path.read_bytes()
+    result = _weigh(path, tmp_path / "weighing.toml", "--write")
+    assert result.exit_code == 2 and "--yes" in result.output and "nothing was written" in result.output
+    assert path.read_bytes() == before
+    with pytest.raises(NotConfirmedError):
+        make_current(propose(path, tmp_path / "weighing.toml", "weighing"), confirmed=False)
+    assert path.read_bytes() == before
+
+
+@pytest.mark.parametrize("answer, written", [("n\n", False), ("y\n", True), ("\n", False)])
+def test_at_a_terminal_the_old_and_new_record_are_shown_and_asked(runner, tmp_path, monkeypatch, answer, written):
+    path = _trainer(tmp_path)
+    before = path.read_bytes()
+    monkeypatch.setattr(mechanic_cli, "_interactive", lambda: True)
+    result = runner.invoke(app, ["weigh", str(path), str(tmp_path / "weighing.toml"), "--write"], input=answer)
+    assert result.exit_code == 0, result.output
+    assert "Current and new empty-weight record" in result.output
+    assert "1,718.0 lb" in result.output and "1,685.8 lb" in result.output and "Make this the current record" in result.output
+    assert (path.read_bytes() != before) is written
+
+
+def test_the_history_says_who_when_and_why_and_digests_the_readings(tmp_path):
+    path = _trainer(tmp_path)
+    assert _weigh(path, tmp_path / "weighing.toml", "--write", "--yes").exit_code == 0
+    (entry,) = load_aircraft(path).history
+    assert entry.by == "demo hangar"  # the readings' weighed_by
+    assert entry.reason == "weighing" and entry.recorded is not None
+    import hashlib
+
+    raw = read_text(tmp_path / "weighing.toml").encode()
+    assert entry.inputs["sha256"] == hashlib.sha256(raw).hexdigest() and entry.inputs["bytes"] == len(raw)
+    assert [p["reading"] for p in entry.inputs["point"]] == [541.0, 600.5, 598.0]
+
+
+def test_options_without_write_are_refused(tmp_path):
+    path = _trainer(tmp_path)
+    result = _weigh(path, tmp_path / "weighing.toml", "--yes")
+    assert result.exit_code == 2 and "go with --write" in result.output
+
+
+# -- item 5: a bounded history ------------------------------------------------------------------
+
+
+def test_a_long_note_does_not_make_the_aircraft_file_unreadable(runner, tmp_path):
+    path = _trainer(tmp_path)
+    note = "scale calibration log: " + "x" * 2_500_000
+    long = tmp_path / "long.toml"
+    long.write_text((tmp_path / "weighing.toml").read_text().replace('weighed_by = "demo hangar"',
+                                                                   f'weighed_by = "demo hangar"\nnote = "{note}"'))
+    for _ in range(3):
+        assert _weigh(path, long, "--write", "--yes").exit_code == 0
+    size = path.stat().st_size
+    assert size < 64 * 1024 < MAX_FILE_BYTES
+    aircraft = load_aircraft(path)
+    assert len(aircraft.history) == 3
+    assert len(aircraft.history[0].inputs["note"]) == NOTE_CHARS and "cut" in aircraft.history[0].inputs["note_cut"]
+    assert runner.invoke(app, ["validate", str(path)]).exit_code == 0
+
+
+def test_a_huge_readings_file_is_kept_as_its_digest(tmp_path):
+    path = _trainer(tmp_path)
+    points = "".join(f"[[point]]\nlabel = 'scale {i} {'y' * 40}'\narm = 40.0\nreading = 0.1\n" for i in range(2000))
+    huge = tmp_path / "huge.toml"
+    huge.write_text((tmp_path / "weighing.toml").read_text() + points)
+    assert _weigh(path, huge, "--write", "--yes", "--force").exit_code == 0
+    (entry,) = load_aircraft(path).history
+    assert "abridged" in entry.inputs and entry.inputs["point_count"] == 2003 and len(entry.inputs["sha256"]) == 64
+    assert path.stat().st_size < 64 * 1024
+
+
+# -- item 6: every layout validate accepts ----------------------------------------------------------
+
+
+@pytest.mark.parametrize(
+    "edit",
+    [
+        # history as an inline array (the crash of issue 14 item 6)
+        lambda t: t.replace("[units]", 'history = [{recorded = 2020-01-01, reason = "weighing", '
+                            'previous = {weight = 1600.0, arm = 39.0}}]\n\n[units]', 1),
+        # [empty] as an inline table
+        lambda t: t.replace('[empty]\nweight = 1718.0\narm = 37.20\ndate = 2026-02-09\nbasis = "unusable fuel and full oil included"\n',
+                            "", 1).replace("[units]", "empty = {weight = 1718.0, arm = 37.20, date = 2026-02-09}\n\n[units]", 1),
+        # [empty] as dotted keys at the top
+        lambda t: t.replace('[empty]\nweight = 1718.0\narm = 37.20\ndate = 2026-02-09\nbasis = "unusable fuel and full oil included"\n',
+                            "", 1).replace('registration = "DEMO-4T"', 'registration = "DEMO-4T"\nempty.weight = 1718.0\n'
+                                                                        'empty.arm = 37.20', 1),
+        # history as [[history]] with a [history.previous] sub-table, followed by more tables
+        lambda t: t.replace("[limits]", '[[history]]\nrecorded = 2020-01-01\nreason = "weighing"\n'
+                            '[history.previous]\nweight = 1600.0\narm = 39.0\n\n[limits]', 1),
+    ],
+    ids=["inline-history", "inline-empty", "dotted-empty", "history-subtables"],
+)
+@pytest.mark.parametrize("command", ["weigh", "alter"])
+def test_every_toml_layout_is_written_and_read_back(runner, tmp_path, edit, command):
+    path = _trainer(tmp_path)
+    path.write_text(edit(path.read_text()))
+    assert runner.invoke(app, ["validate", str(path)]).exit_code == 0
+    before = load_aircraft(path)
+    source = tmp_path / ("weighing.toml" if command == "weigh" else "changes.toml")
+    result = runner.invoke(app, [command, str(path), str(source), "--write", "--yes"])
+    assert result.exit_code == 0, result.output
+    after = load_aircraft(path)
+    assert len(after.history) == len(before.history) + 1 and after.history[-1].previous.weight == 1718.0
+    assert after.empty.weight != 1718.0
+
+
+def test_an_inline_equipment_list_stays_inline(runner, tmp_path):
+    path = _trainer(tmp_path)
+    text = path.read_text()
+    inline = ('equipment = [{id = "com2", weight = 3.1, arm = 17.0}, {id = "elt", weight = 2.4, arm = 140.0}, '
+              '{id = "fairings", weight = 18.0, arm = 48.0}]\n\n')
+    path.write_text(text[: text.index("# Installed equipment")].replace("[units]", inline + "[units]", 1))
+    assert runner.invoke(app, ["validate", str(path)]).exit_code == 0
+    assert runner.invoke(app, ["alter", str(path), str(tmp_path / "changes.toml"), "--write", "--yes"]).exit_code == 0
+    assert {e.id for e in load_aircraft(path).equipment} == {"com2", "elt", "com3"}
+    assert "[[equipment]]" not in path.read_text()
+
+
+# -- item 7: lateral CG ------------------------------------------------------------------------------
+
+
+def _heli(tmp_path: Path, lateral: str) -> tuple[Path, Path]:
+    shutil.copy(sample("heli2/aircraft.toml"), tmp_path / "aircraft.toml")
+    readings = tmp_path / "readings.toml"
+    readings.write_text(
+        'format = 1\ndate = 2026-11-30\nweighed_by = "hangar 2"\n' + lateral
+        + "[[point]]\nlabel = 'front'\narm = 60.0\nreading = 300.0\n"
+        + "[[point]]\nlabel = 'rear left'\narm = 127.0\nreading = 295.0\n" + ("lateral_arm = -20.0\n" if not lateral else "")
+        + "[[point]]\nlabel = 'rear right'\narm = 127.0\nreading = 290.0\n" + ("lateral_arm = 20.0\n" if not lateral else "")
+    )
+    return tmp_path / "aircraft.toml", readings
+
+
+def test_a_lateral_envelope_needs_lateral_readings_or_an_explicit_statement(runner, tmp_path):
+    aircraft, readings = _heli(tmp_path, "")
+    measured = runner.invoke(app, ["weigh", str(aircraft), str(readings), "--json"])
+    assert measured.exit_code == 0, measured.output
+    import json
+
+    new = json.loads(measured.stdout)["new"]
+    assert new["lateral_arm"] == pytest.approx((290 - 295) * 20 / 885)
+    readings.write_text(readings.read_text().replace("lateral_arm = -20.0\n", "").replace("lateral_arm = 20.0\n", ""))
+    before = aircraft.read_bytes()
+    silent = runner.invoke(app, ["weigh", str(aircraft), str(readings), "--write", "--yes"])
+    assert silent.exit_code == 2 and "lateral envelope" in silent.output and "keep_lateral_arm" in silent.output
+    assert aircraft.read_bytes() == before
+    readings.write_text(readings.read_text().replace("format = 1\n", "format = 1\nkeep_lateral_arm = true\n"))
+    kept = runner.invoke(app, ["weigh", str(aircraft), str(readings)])
+    assert kept.exit_code == 0 and "the lateral CG was not measured" in kept.output and "0.4 in is kept" in kept.output
+
+
+# -- item 9: comments -------------------------------------------------------------------------------
+
+
+def test_a_stale_trailing_comment_does_not_stay_on_the_new_value(tmp_path):
+    path = _trainer(tmp_path)
+    path.write_text(path.read_text().replace("weight = 1718.0", "weight = 1718.0  # last weighing 2019")
+                    .replace("arm = 37.20", "arm = 37.20 # from the 2019 report")
+                    .replace('basis = "unusable fuel and full oil included"',
+                             'basis = "unusable fuel and full oil included"  # per the flight manual'))
+    assert _weigh(path, tmp_path / "weighing.toml", "--write", "--yes").exit_code == 0
+    text = path.read_text()
+    assert "last weighing 2019" not in text and "from the 2019 report" not in text
+    assert "# per the flight manual" in text and "# maximum except takeoff" in text
+    assert tomllib.loads(text)["empty"]["weight"] == pytest.approx(1685.8, abs=0.05)
+
+
+# -- item 10: the record to sign ----------------------------------------------------------------
+
+
+def test_the_weighing_record_shows_what_a_signer_needs(tmp_path):
+    # issue 14 item 10: date, who weighed, gear and datum geometry, previous and new side by side,
+    # extreme loadings, empty-weight CG range, signature block
+    html = record_sheet(tmp_path, "weigh", sample("trainer4/aircraft.toml"), sample("trainer4/weighing.toml"))
+    assert cell(html, "meta-weighed-on") == "2026-11-28" and cell(html, "meta-weighed-by") == "demo hangar"
+    geometry = html[html.index("id='geometry'"):]
+    assert "nosewheel" in geometry and "datum forward" in geometry and "57.40 in" in geometry and "65.00 in" in geometry
+    assert "Previous record</th><th>As weighed</th><th>New record</th>" in html
+    assert "1,718.0 lb" in html and "1,685.8 lb" in html and "2026-02-09" in html  # previous and new
+    assert "Empty-weight CG range: not given" in html
+    assert "Most forward" in html and "Most rearward" in html and "Sorted against" in html
+    for words in ("Name", "Certificate number", "Signature", "Date", "local aviation authority"):
+        assert words in html[html.index("class='caution'"):]
+    assert "http" not in html.replace("http-equiv", "")
+
+
+def test_the_weighing_record_shows_the_lateral_cg(tmp_path):
+    shutil.copy(sample("heli2/aircraft.toml"), tmp_path / "aircraft.toml")
+    readings = tmp_path / "readings.toml"
+    readings.write_text("format = 1\ndate = 2026-11-30\nweighed_by = 'hangar 2'\n"
+                        "[[point]]\nlabel = 'front'\narm = 60.0\nreading = 300.0\n"
+                        "[[point]]\nlabel = 'rear left'\narm = 127.0\nlateral_arm = -20.0\nreading = 295.0\n"
+                        "[[point]]\nlabel = 'rear right'\narm = 127.0\nlateral_arm = 20.0\nreading = 290.0\n")
+    html = record_sheet(tmp_path, "weigh", tmp_path / "aircraft.toml", readings)
+    row = html[html.index("<td>lateral CG (+ right)</td>"):]
+    row = row[: row.index("</tr>")]
+    assert "0.40 in" in row and "-0.11 in" in row  # previous 0.4 in; new (290 - 295) x 20 / 885
+    assert "Lateral arm (in, + right)" in html
+
+
+def _printer() -> str | None:
+    return shutil.which("chromium") or shutil.which("chromium-browser")
+
+
+@pytest.mark.skipif(_printer() is None or shutil.which("pdfinfo") is None or shutil.which("pdftotext") is None,
+                    reason="needs headless chromium and poppler-utils (pdfinfo, pdftotext)")
+@pytest.mark.parametrize("command, paper", [
+    ("weigh", "letter"),  # the default run prints one record; the other three (a headless browser each) with --long
+    pytest.param("weigh", "A4", marks=pytest.mark.slow),
+    pytest.param("alter", "letter", marks=pytest.mark.slow),
+    pytest.param("alter", "A4", marks=pytest.mark.slow),
+])
+def test_the_printed_record_fits_one_page_with_its_signature_block(tmp_path, command, paper):
+    source = sample("trainer4/weighing.toml" if command == "weigh" else "trainer4/changes.toml")
+    html = record_sheet(tmp_path, command, sample("trainer4/aircraft.toml"), source)
+    assert "@page { size: auto;" in html
+    page = tmp_path / f"{paper}.html"  # the paper size a user picks in the print dialogue
+    page.write_text(html.replace("@page { size: auto;", f"@page {{ size: {paper};"))
+    pdf = tmp_path / f"{paper}.pdf"
+    subprocess.run([str(_printer()), "--headless", "--no-sandbox", "--disable-gpu", "--no-pdf-header-footer",
+                    f"--user-data-dir={tmp_path / 'profile'}", f"--print-to-pdf={pdf}", page.as_uri()],
+                   check=True, capture_output=True, timeout=120)
+    info = subprocess.run(["pdfinfo", str(pdf)], check=True, capture_output=True, text=True).stdout
+    assert "Pages:           1" in info, info
+    assert ("letter" if paper == "letter" else "A4") in info
+    first = subprocess.run(["pdftotext", "-f", "1", "-l", "1", "-layout", str(pdf), "-"], check=True, capture_output=True,
+                           text=True).stdout
+    for words in ("Certificate number", "Signature", "Most rearward", "Empty-weight CG range", "CAUTION"):
+        assert words in first
+
+
+_copy_trainer = _trainer  # the tests moved from test_mechanic.py call it so
+
+
+def test_history_keeps_every_record_and_the_comments(runner, tmp_path):
+    path = _copy_trainer(tmp_path)
+    original = load_aircraft(path)
+    assert runner.invoke(app, ["alter", str(path), str(tmp_path / "changes.toml"), "--write", "--yes"]).exit_code == 0
+    altered = load_aircraft(path)
+    assert runner.invoke(app, ["weigh", str(path), str(tmp_path / "weighing.toml"), "--write", "--yes"]).exit_code == 0
+    final = load_aircraft(path)
+    assert [h.reason for h in final.history] == ["alteration", "weighing"]
+    assert final.history[0].previous == original.empty
+    assert final.history[1].previous == altered.empty
+    assert "fairings" not in {e.id for e in final.equipment} and "com3" in {e.id for e in final.equipment}
+    text = path.read_text()
+    assert "# Four-seat nosewheel trainer: an aircraft of our own invention" in text
+    assert "max_continuous_power_hp = 160   # maximum except takeoff" in text
+    listing = runner.invoke(app, ["history", str(path)])
+    assert listing.exit_code == 0 and "alteration" in listing.output and "weighing" in listing.output
+
+
+def test_without_write_nothing_changes(runner, tmp_path):
+    path = _copy_trainer(tmp_path)
+    before = path.read_bytes()
+    assert runner.invoke(app, ["weigh", str(path), str(tmp_path / "weighing.toml")]).exit_code == 0
+    assert path.read_bytes() == before
+
+
+@pytest.mark.parametrize("failure", ["replace", "disk_full"])
+def test_a_crash_during_the_write_leaves_the_file_whole(runner, tmp_path, monkeypatch, failure):
+    path = _copy_trainer(tmp_path)
+    before = path.read_bytes()
+    if failure == "replace":
+        def boom(*args, **kwargs):
+            raise OSError(errno.EIO, "simulated crash")
+        monkeypatch.setattr(files_module.os, "replace", boom)
+    else:
+        real_fdopen = os.fdopen
+
+        class Full:
+            def __init__(self, handle):
+                self.stream = real_fdopen(handle, "wb")
+
+            def __enter__(self):
+                return self
+
+            def __exit__(self, *exc):
+                self.stream.close()
+
+            def write(self, data):
+                self.stream.write(data[: len(data) // 2])
+                raise OSError(errno.ENOSPC, "No space left on device")
+
+        monkeypatch.setattr(files_module.os, "fdopen", lambda handle, mode: Full(handle))
+    result = runner.invoke(app, ["weigh", str(path), str(tmp_path / "weighing.toml"), "--write", "--yes"])
+    assert result.exit_code == 2
+    assert "unchanged" in result.output
+    assert path.read_bytes() == before
+    assert not [p for p in tmp_path.iterdir() if p.name.endswith(".tmp")]
+
+
+def test_file_changed_between_read_and_write_is_refused(runner, tmp_path, monkeypatch):
+    path = _copy_trainer(tmp_path)
+    import loadcheck.weighing as weighing_module
+
+    real = weighing_module.weigh
+
+    def weigh_and_meddle(*args, **kwargs):
+        result = real(*args, **kwargs)
+        path.write_text(path.read_text() + "\n# edited by someone else\n")
+        return result
+
+    monkeypatch.setattr(weighing_module, "weigh", weigh_and_meddle)
+    result = runner.invoke(app, ["weigh", str(path), str(tmp_path / "weighing.toml"), "--write", "--yes"])
+    assert result.exit_code == 2 and "changed since it was read" in result.output
+    assert path.read_text().endswith("# edited by someone else\n")
+    assert "[[history]]" not in path.read_text()
+
+
+@pytest.mark.parametrize(
+    "command, text, words",
+    [
+        ("weigh", "[[point]]\nlabel = 'nose'\narm = -6.8\nreading = 10.0\ntare = 12.0\n", "tare (12) is above the reading (10)"),
+        ("alter", "[[change]]\naction = 'remove'\nitem = 'ghost'\n", "unknown item 'ghost'"),
+        ("alter", "[[change]]\naction = 'relocate'\nitem = 'elt'\n", "needs its new_arm"),
+        ("weigh", "[[point]]\nlabel = 'nose'\nwheel = 'nose'\nreading = 10.0\n", "[geometry]"),
+        ("alter", "[[change]]\naction = 'install'\nitem = 'elt'\nweight = 1.0\narm = 2.0\n", "already installed"),
+    ],
+)
+def test_bad_mechanic_inputs_write_nothing(runner, tmp_path, command, text, words):
+    path = _copy_trainer(tmp_path)
+    before = path.read_bytes()
+    bad = tmp_path / "bad.toml"
+    bad.write_text("format = 1\n" + text)
+    result = runner.invoke(app, [command, str(path), str(bad), "--write", "--yes"])
+    assert result.exit_code == 2, result.output
+    assert words in result.output and "Traceback" not in result.output
+    assert path.read_bytes() == before
+
+
+def test_mechanic_sheet(runner, tmp_path):
+    sheet = tmp_path / "record.html"
+    result = runner.invoke(app, ["weigh", str(sample("trainer4/aircraft.toml")), str(sample("trainer4/weighing.toml")),
+                                 "--sheet", str(sheet)])
+    assert result.exit_code == 0
+    html = sheet.read_text()
+    for words in ("Certificate number", "Signature", "local aviation authority", "Most forward", "1,685.8"):
+        assert words in html
+    assert "http" not in html.replace("http-equiv", "")

@@ -1,0 +1,174 @@
+"""The printable load sheet (loadcheck/render/sheet.py): its content, self-contained, the fuel plan,
+the occupants' names."""
+
+from __future__ import annotations
+
+import re
+from html.parser import HTMLParser
+from pathlib import Path
+
+import pytest
+
+from loadcheck import load_check_inputs
+from loadcheck.caution import PILOT_CAUTION
+from loadcheck.cli import app
+from loadcheck.display import fmt
+
+from .helpers import checked_sample as _inputs
+from .helpers import sample
+
+
+class _Collect(HTMLParser):
+    def __init__(self) -> None:
+        super().__init__()
+        self.text: list[str] = []
+        self.refs: list[str] = []
+        self.rows: dict[str, list[str]] = {}
+        self._row: str | None = None
+
+    def handle_starttag(self, tag, attrs):
+        attrs = dict(attrs)
+        for key in ("src", "href"):
+            if key in attrs:
+                self.refs.append(attrs[key])
+        if tag == "tr" and (attrs.get("id") or "").startswith("condition-"):
+            self._row = attrs["id"].removeprefix("condition-")
+            self.rows[self._row] = []
+        if tag == "link":
+            self.refs.append(attrs.get("href", ""))
+
+    def handle_endtag(self, tag):
+        if tag == "tr":
+            self._row = None
+
+    def handle_data(self, data):
+        self.text.append(data)
+        if self._row is not None and data.strip():
+            self.rows[self._row].append(data.strip())
+
+
+def test_load_sheet_content(runner, tmp_path):
+    path = tmp_path / "sheet.html"
+    result = runner.invoke(app, ["check", str(sample("twin6/leaves_path.toml")), "--sheet", str(path)])
+    assert result.exit_code == 1
+    html = path.read_text()
+    parser = _Collect()
+    parser.feed(html)
+    _, check = _inputs("twin6/leaves_path.toml")
+    units = check.units
+    for condition in check.conditions:
+        row = parser.rows[condition.condition]
+        assert fmt(condition.weight, units.mass, with_unit=False) in row
+        assert fmt(condition.arm, units.arm, with_unit=False) in row
+    text = " ".join(parser.text)
+    assert PILOT_CAUTION in text
+    assert check.aircraft.fingerprint in text and "DEMO-6P" in text
+    assert "Signature" in text and "Pilot in command" in text
+    # self-contained: no external resources of any kind
+    assert all(not re.match(r"^(https?:)?//", ref) for ref in parser.refs)
+    assert not re.search(r"url\(\s*['\"]?(https?:)?//", html)
+    assert "@import" not in html and "<script" not in html
+    assert "<svg" in html and "@media print" in html
+
+
+def test_sheet_must_be_html(runner, tmp_path):
+    result = runner.invoke(app, ["check", str(sample("trainer4/within.toml")), "--sheet", str(tmp_path / "s.pdf")])
+    assert result.exit_code == 2
+
+
+def test_load_sheet_has_the_total_the_occupants_and_the_fuel_plan(runner, tmp_path):
+    # regression (issue 15, item 3): no total row; taxi, trip, burn order and reserve left out
+    path = tmp_path / "sheet.html"
+    result = runner.invoke(app, ["check", str(sample("twin6/within.toml")), "--sheet", str(path)])
+    assert result.exit_code == 0
+    html = path.read_text()
+    inputs, check = _inputs("twin6/within.toml")
+    units, loading = check.units, inputs.loading
+
+    def section(tag_id: str) -> str:
+        start = html.index(">", html.index(f"id='{tag_id}'")) + 1
+        return " ".join(re.sub(r"<[^>]+>", " ", html[start:html.index("</table>", start)]).split())
+
+    ramp = check.condition("ramp")
+    total = section("total")
+    assert total.startswith("Total at ramp")
+    for value, unit in ((ramp.weight, units.mass), (ramp.arm, units.arm), (ramp.moment, units.moment)):
+        assert fmt(value, unit, with_unit=False) in total
+    plan = section("fuel-plan")
+    assert f"Taxi and run-up {fmt(loading.taxi, units.fuel_volume)}" in plan
+    assert f"Trip {fmt(loading.trip, units.fuel_volume)}" in plan
+    assert f"Reserve {fmt(loading.reserve, units.fuel_volume)}" in plan
+    assert "Burn order Auxiliary tanks, then Main tanks" in plan
+    on_board = section("fuel-on-board")
+    for c in check.conditions:
+        assert fmt(c.fuel, units.fuel_volume, with_unit=False) in on_board
+    seats = section("occupants")
+    for item in check.items:
+        if item.kind == "seat":
+            assert f"{item.name} {fmt(item.weight, units.mass, with_unit=False)}" in seats
+    assert "lb·in" in html and "lb*in" not in html
+
+
+# -- occupants' names in the loading (issue 15, item 3: "names optional in the loading") -----------
+
+def _named_trip(tmp_path: Path, names: str, leg_names: str = "") -> Path:
+    """A loading of the desk's invented trip test aircraft (tests/web_helpers.py), with [names]."""
+    from .web_helpers import TRIP_AIRCRAFT
+
+    (tmp_path / "aircraft.toml").write_text(TRIP_AIRCRAFT)
+    path = tmp_path / "named.toml"
+    text = ('format = 1\naircraft = "aircraft.toml"\n[load]\nfront = 340\nrear = 150\nbags = 40\n[fuel]\nmain = "local"\n'
+            f'[burn]\ntaxi = 1\ntrip = 10\n[names]\n{names}\n')
+    if leg_names:
+        text += f'[[leg]]\nload = {{ front = 170 }}\nburn = {{ trip = 5 }}\nnames = {{ {leg_names} }}\n'
+    path.write_text(text)
+    return path
+
+
+def test_names_show_beside_each_seat_on_the_load_sheet_as_text(runner, tmp_path):
+    loading = _named_trip(tmp_path, 'front = "Alex <b>Rivera</b>"\nrear = "Sam Okafor"')
+    sheet = tmp_path / "sheet.html"
+    assert runner.invoke(app, ["check", str(loading), "--sheet", str(sheet)]).exit_code == 0
+    html = sheet.read_text()
+    assert "<b>Rivera" not in html and "Alex &lt;b&gt;Rivera&lt;/b&gt;" in html  # markup in a name is shown as text
+    moments = html[html.index("id='moments'"):html.index("</table>", html.index("id='moments'"))]
+    cells = dict(re.findall(r"<tr><td>([^<·]+?)\s*(?:<span class='who'>· (.*?)</span>)?</td>", moments))
+    assert cells["Front seats"] == "Alex &lt;b&gt;Rivera&lt;/b&gt;" and cells["Rear seats"] == "Sam Okafor"
+    assert cells["Baggage"] == "" and cells["Basic empty weight"] == ""  # no one is named there
+    occupants = html[html.index("id='occupants'"):html.index("</table>", html.index("id='occupants'"))]
+    assert "<th>Name</th>" in occupants and "Sam Okafor" in occupants
+    inputs = load_check_inputs(loading)
+    assert inputs.loading.names == {"front": "Alex <b>Rivera</b>", "rear": "Sam Okafor"}
+
+
+def test_a_leg_changes_the_name_of_a_seat_whose_weight_changes(tmp_path):
+    from loadcheck.render.sheet import trip_sheet_html
+    from loadcheck.trip import check_trip
+
+    inputs = load_check_inputs(_named_trip(tmp_path, 'front = "Alex"\nrear = "Sam"', 'front = "Kim"'), allow_trip=True)
+    assert [leg.names for leg in inputs.trip.legs] == [{"front": "Alex", "rear": "Sam"}, {"front": "Kim", "rear": "Sam"}]
+    dropped = load_check_inputs(_named_trip(tmp_path, 'front = "Alex"', 'rear = "Sam"'), allow_trip=True)
+    assert [leg.names for leg in dropped.trip.legs] == [{"front": "Alex"}, {"rear": "Sam"}]  # front's weight changed: not Alex
+    html = trip_sheet_html(check_trip(inputs.aircraft, inputs.trip), trip_loading=inputs.trip)
+    leg_2 = html[html.index("id='leg-2'"):]
+    assert "Kim" in leg_2 and "Alex" not in leg_2 and "Alex" in html[:html.index("id='leg-2'")]
+
+
+@pytest.mark.parametrize("names, field, words", [
+    ('nose = "Pat"', "names.nose", "unknown station 'nose'"),
+    ('front = "' + "A" * 61 + '"', "names.front", "at most 60"),
+    ('front = ""', "names.front", "an empty name"),
+    ('front = 12', "names.front", "a name is text"),
+    ('front = "Al\\nex"', "names.front", "control characters"),
+])
+def test_a_bad_name_is_refused_with_its_field(runner, tmp_path, names, field, words):
+    result = runner.invoke(app, ["check", str(_named_trip(tmp_path, names))])
+    assert result.exit_code == 2 and field in result.stderr and words in result.stderr, result.output
+
+
+def test_a_name_at_a_station_without_weight_is_refused(runner, tmp_path):
+    loading = _named_trip(tmp_path, 'front = "Alex"')
+    result = runner.invoke(app, ["check", str(loading), "--load", "front=0"])
+    assert result.exit_code == 2 and "names.front" in result.stderr and "carries no weight" in result.stderr
+    leg = runner.invoke(app, ["check", str(_named_trip(tmp_path, 'front = "Alex"', 'front = "Kim"')), "--leg-load", "2:front=0"])
+    assert leg.exit_code == 2 and "leg[0].names.front" in leg.stderr
