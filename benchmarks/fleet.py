@@ -123,11 +123,11 @@ def main() -> None:
                 base += ["--workers", str(args.workers)]
             cases = {
                 "floor (CSV -> engine -> JSON Lines)": [sys.executable, "-c", FLOOR, fleet, day],
-                "fleet check --json --no-record": [*base, "--json", "--no-record"],
-                "fleet check --json, recording": [*base, "--json", "--record", str(Path(folder) / f"r{n}.sqlite3")],
+                "fleet check --json --no-record": [*base, "--json", "--no-log"],
+                "fleet check --json, recording": [*base, "--json", "--log", "--db", str(Path(folder) / f"r{n}.sqlite3")],
             }
             if args.table:
-                cases["fleet check (table) --no-record"] = [*base, "--no-record"]
+                cases["fleet check (table) --no-record"] = [*base, "--no-log"]
             best = {name: (float("inf"), 0.0) for name in cases}
             for _ in range(args.repeat):
                 for name, command in cases.items():

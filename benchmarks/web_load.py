@@ -71,7 +71,7 @@ def main() -> None:
     sys.path.insert(0, str(ROOT))
     from argon2 import PasswordHasher
 
-    from loadcheck.records import RecordLog
+    from loadcheck.checklog import CheckLog
     from loadcheck.web.users import UserStore
 
     with tempfile.TemporaryDirectory() as folder:
@@ -109,7 +109,7 @@ def main() -> None:
         finally:
             server.terminate()
             server.wait(10)
-        with RecordLog(work / "records.sqlite3") as log:
+        with CheckLog(work / "records.sqlite3") as log:
             records = list(log.find())
     expected = {(names[c], round(_front(c, n), 6)) for c in range(args.clients) for n in range(args.checks)}
     found = [(r.pilot, round(float(r.inputs["load"]["front"]), 6)) for r in records]

@@ -384,7 +384,7 @@ class Aircraft(_Model):
     standard_occupant_weight: Mass | None = Field(
         None, gt=0, description="weight per occupant for the extreme-loading checks [mass unit]"
     )
-    max_continuous_power_hp: float | None = Field(
+    meto_power_hp: float | None = Field(
         None, gt=0, description="maximum except takeoff power, for the minimum fuel for balance [hp]"
     )
 
@@ -436,12 +436,12 @@ class Aircraft(_Model):
     # -- look-ups -------------------------------------------------------------------
 
     @cached_property
-    def stations(self) -> dict[str, Station]:
+    def station_by_id(self) -> dict[str, Station]:
         """Stations by id."""
         return {s.id: s for s in self.station}
 
     @cached_property
-    def tanks(self) -> dict[str, Tank]:
+    def tank_by_id(self) -> dict[str, Tank]:
         """Tanks by id."""
         return {t.id: t for t in self.tank}
 

@@ -70,7 +70,7 @@ def _resolved_for_plan(aircraft: Aircraft, trip: Loading | ResolvedTrip, categor
     except LoadcheckError:
         if isinstance(trip, ResolvedTrip) or not 1 <= leg <= len(trip.leg) + 1:
             raise
-        full = dict.fromkeys(aircraft.tanks, "full")
+        full = dict.fromkeys(aircraft.tank_by_id, "full")
         if leg == 1:
             return resolve_trip(trip.model_copy(update={"fuel": full}), aircraft, category=category)
         legs = list(trip.leg)
@@ -289,7 +289,7 @@ def fuel_to_add(
     on_board = landing_fuel(before)
     order = _fill_order(aircraft, resolved.legs[index], fill)
     room = sum(max(0.0, t.usable - on_board[t.id]) for t in (aircraft.tank if order is None else
-                                                              [aircraft.tanks[n] for n in order]))
+                                                              [aircraft.tank_by_id[n] for n in order]))
     ids = [t.id for t in aircraft.tank]
     earlier = all(check_loading(aircraft, resolved.legs[i], samples=False).ok for i in range(index))
     step = _GRID_STEP / _mean_density(aircraft, before)

@@ -148,7 +148,7 @@ def test_history_keeps_every_record_and_the_comments(tmp_path):
     assert "fairings" not in {e.id for e in final.equipment} and "com3" in {e.id for e in final.equipment}
     text = path.read_text()
     assert "# Four-seat nosewheel trainer: an aircraft of our own invention" in text
-    assert "max_continuous_power_hp = 160   # maximum except takeoff" in text
+    assert "meto_power_hp = 160   # maximum except takeoff" in text
     listing = runner.invoke(app, ["history", str(path)])
     assert listing.exit_code == 0 and "alteration" in listing.output and "weighing" in listing.output
 
@@ -253,4 +253,4 @@ def test_readings_with_units_and_fuel_item():
     result = weigh(aircraft, Readings.model_validate(data, context={"units": aircraft.units}))
     assert result.as_weighed.weight == pytest.approx(430.0)
     assert result.as_weighed.arm == pytest.approx(30 * 4200 / 430)
-    assert result.corrections[0].weight == pytest.approx(2 * 3.785411784 * aircraft.density(aircraft.tanks["wing"]))
+    assert result.corrections[0].weight == pytest.approx(2 * 3.785411784 * aircraft.density(aircraft.tank_by_id["wing"]))

@@ -14,7 +14,7 @@ from typer.testing import CliRunner
 import loadcheck.files as files_module
 from loadcheck.cli import app
 from loadcheck.errors import FileFormatError
-from loadcheck.records import RecordLog
+from loadcheck.checklog import CheckLog
 
 from .helpers import sample
 
@@ -56,19 +56,19 @@ def test_old_content_survives_a_failed_write(tmp_path, monkeypatch, how, args, n
 
 def test_export_survives_a_failed_write(tmp_path, monkeypatch):
     db = tmp_path / "records.sqlite3"
-    with RecordLog(db) as log:
+    with CheckLog(db) as log:
         log.add(aircraft_data={"a": 1}, fingerprint="f", inputs={}, result={"ok": True, "category": "normal"})
     out = tmp_path / "export.csv"
     out.write_text("previous export\n")
     _crash(monkeypatch, "crash")
-    result = runner.invoke(app, ["records", "export", "--db", str(db), "--format", "csv", "--out", str(out)])
+    result = runner.invoke(app, ["log", "export", "--db", str(db), "--format", "csv", "--out", str(out)])
     assert result.exit_code == 2 and out.read_text() == "previous export\n"
 
 
 def test_a_failed_batch_records_nothing_and_keeps_the_rest(tmp_path):
     db = tmp_path / "records.sqlite3"
     good = {"aircraft_data": {"a": 1}, "fingerprint": "f", "inputs": {}, "result": {"ok": True}}
-    with RecordLog(db) as log:
+    with CheckLog(db) as log:
         first = log.add(**good)
         with pytest.raises(FileFormatError, match="nothing of this batch was recorded"):
             log.add_many([good, {**good, "result": {"ok": True, "bad": {1, 2}}}])
@@ -80,7 +80,7 @@ def test_a_corrupt_database_is_refused_not_overwritten(tmp_path):
     db = tmp_path / "records.sqlite3"
     db.write_bytes(b"this is not a database" * 100)
     with pytest.raises(FileFormatError, match="record database"):
-        RecordLog(db)
+        CheckLog(db)
     assert db.read_bytes() == b"this is not a database" * 100
 
 
@@ -131,11 +131,11 @@ def test_export_goes_through_a_symlink(tmp_path):
     import os
 
     db = tmp_path / "records.sqlite3"
-    with RecordLog(db) as log:
+    with CheckLog(db) as log:
         log.add(aircraft_data={"a": 1}, fingerprint="f", inputs={}, result={"ok": True, "category": "normal"})
     (tmp_path / "real.csv").write_text("old\n")
     os.symlink("real.csv", tmp_path / "export.csv")
-    result = runner.invoke(app, ["records", "export", "--db", str(db), "--format", "csv", "--out", str(tmp_path / "export.csv")])
+    result = runner.invoke(app, ["log", "export", "--db", str(db), "--format", "csv", "--out", str(tmp_path / "export.csv")])
     assert result.exit_code == 0 and (tmp_path / "export.csv").is_symlink()
     assert (tmp_path / "real.csv").read_text().startswith("id,checked_at")
 
@@ -157,9 +157,9 @@ def test_a_fifo_is_refused_not_replaced_or_read(tmp_path, command, through_link)
         args = ["check", str(sample("trainer4/within.toml")), "--sheet", str(name)]
     else:
         db = tmp_path / "records.sqlite3"
-        with RecordLog(db) as log:
+        with CheckLog(db) as log:
             log.add(aircraft_data={"a": 1}, fingerprint="f", inputs={}, result={"ok": True})
-        args = ["records", "export", "--db", str(db), "--out", str(name)]
+        args = ["log", "export", "--db", str(db), "--out", str(name)]
     result = runner.invoke(app, args)
     assert result.exit_code == 2, result.output
     assert "FIFO" in result.output and "nothing was written" in result.output

@@ -47,7 +47,7 @@ def serve(
     caution = bind_caution(host, allow_remote)
     import uvicorn
 
-    from ..records import default_path
+    from ..checklog import default_path
     from ..web import create_app
 
     application = create_app(fleet, db=db, users=users, https_only=False)

@@ -32,7 +32,7 @@ records_app = typer.Typer(short_help="The record of checks.",
                           help="The record of checks: list, show, export, verify (reproduce).", no_args_is_help=True)
 app.add_typer(records_app, name="records")
 
-DbOpt = Annotated[Path | None, typer.Option("--db", metavar="FILE", help="Record database (default: $LOADCHECK_RECORDS or the user data folder).")]
+DbOpt = Annotated[Path | None, typer.Option("--db", metavar="FILE", help="Record database (default: $LOADCHECK_LOG or the user data folder).")]
 
 
 @fleet_app.command("list", short_help="Each aircraft of a fleet folder.")
@@ -71,8 +71,8 @@ def fleet_check(
     folder: Annotated[Path, typer.Argument(metavar="FOLDER", help="Folder of aircraft files (the fleet).")],
     loadings: Annotated[Path, typer.Argument(metavar="LOADINGS", help="Loadings: a CSV file (one row per flight) or a folder of loading files.")],
     record: Annotated[Path | None, typer.Option(metavar="FILE",
-        help="Record database (default: $LOADCHECK_RECORDS or the user data folder).")] = None,
-    no_record: Annotated[bool, typer.Option("--no-record", help="Do not record the checks.")] = False,
+        help="Record database (default: $LOADCHECK_LOG or the user data folder).")] = None,
+    no_record: Annotated[bool, typer.Option("--no-log", help="Do not record the checks.")] = False,
     json_out: Annotated[bool, typer.Option("--json", help="Print JSON Lines: one object per flight.")] = False,
     workers: Annotated[int | None, typer.Option(min=1, help="Processes checking flights (default: one; see docs/performance.md).")] = None,
 ) -> None:
@@ -90,14 +90,14 @@ def fleet_check(
     from contextlib import nullcontext
 
     from ..fleet import check_flights, default_workers, load_fleet, read_loadings
-    from ..records import RecordLog, default_path
+    from ..checklog import CheckLog, default_path
 
     fleet = load_fleet(folder)
     rows, file_problems = read_loadings(loadings, fleet)
     err = _console(stderr=True)
     for problem in file_problems:
         err.print(f"error: {problem}", markup=False, soft_wrap=True)
-    log = None if no_record else RecordLog(record or default_path())
+    log = None if no_record else CheckLog(record or default_path())
     flights = []  # for the table only: one brief line per flight; JSON Lines are streamed
     counts = {"checked": 0, "out": 0, "bad": 0}
     show_progress = err.is_terminal and not json_out and not os.environ.get("NO_COLOR")  # a bar is escape codes
@@ -154,12 +154,12 @@ RegOpt = Annotated[str | None, typer.Option("--registration", "-r", metavar="REG
 
 
 def _log(db: Path | None) -> Any:
-    from ..records import RecordLog, default_path
+    from ..checklog import CheckLog, default_path
 
     path = db or default_path()
     if not path.exists():
         raise InputError(Problem("--db", f"no record database at {path}"))
-    return RecordLog(path)
+    return CheckLog(path)
 
 
 @records_app.command("list", short_help="List recorded checks.")
@@ -170,11 +170,11 @@ def records_list(db: DbOpt = None, since: SinceOpt = None, until: UntilOpt = Non
     Example:
 
     \b
-      loadcheck records list --registration DEMO-4T \\
+      loadcheck log list --registration DEMO-4T \\
         --since 2026-11-01
     """
     from ..caution import PILOT_CAUTION
-    from ..render.records import render_record_list
+    from ..render.checklog import render_record_list
 
     with _log(db) as log:
         records = list(log.listing(since=_date(since, "--since"), until=_date(until, "--until"), registration=registration))
@@ -202,11 +202,11 @@ def records_export(
     Example:
 
     \b
-      loadcheck records export --format csv \\
+      loadcheck log export --format csv \\
         --since 2026-11-01 --out november.csv
     """
     from ..caution import PILOT_CAUTION
-    from ..records import export_text
+    from ..checklog import export_text
     from ..render.terminal import caution_text
 
     with _log(db) as log:
@@ -244,7 +244,7 @@ def records_verify(
 
     Example:
 
-      loadcheck records verify --current sample_aircraft --since 2026-11-01
+      loadcheck log verify --current sample_aircraft --since 2026-11-01
     """
     from ..caution import PILOT_CAUTION
     from ..render.terminal import caution_text
@@ -252,7 +252,7 @@ def records_verify(
     console = _console()
     if current is not None:
         from ..fleet import load_fleet
-        from ..records import verify_current
+        from ..checklog import verify_current
 
         fleet = load_fleet(current)
         with _log(db) as log:
@@ -262,7 +262,7 @@ def records_verify(
         if json_out:
             typer.echo(outcome.to_json())
         else:
-            from ..render.records import render_current_verification
+            from ..render.checklog import render_current_verification
 
             render_current_verification(outcome, console)
         raise typer.Exit(outcome.status)
@@ -270,7 +270,7 @@ def records_verify(
         raise InputError(Problem("ID", "give the record id to verify (or --current FOLDER to check records against it)"))
     if since or until or registration:
         raise InputError(Problem("--since", "--since, --until and --registration go with --current"))
-    from ..records import verify
+    from ..checklog import verify
 
     with _log(db) as log:
         verification = verify(log, record_id)

@@ -166,11 +166,11 @@ def _check_trip(inputs: Any, json_out: bool, chart: Path | None, sheet: Path | N
 def _record(record: str, inputs: Any, result: Any) -> None:
     """Record one check (of a single loading or of a whole trip, as one record): the loading as
     given (file and options merged) and the full result."""
-    from ..records import RecordLog, default_path, record_check
+    from ..checklog import CheckLog, default_path, log_check
 
     path = default_path() if record == "default" else Path(record)
-    with RecordLog(path) as log:
-        record_id = record_check(log, inputs, result, source=str(inputs.loading_file or "command line"), version=__version__)
+    with CheckLog(path) as log:
+        record_id = log_check(log, inputs, result, source=str(inputs.loading_file or "command line"), version=__version__)
     _console(stderr=True).print(f"recorded as {record_id} in {path}", markup=False)
 
 

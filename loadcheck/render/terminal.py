@@ -670,12 +670,12 @@ def render_schedule(result: Any, aircraft: Aircraft, console: Console) -> None:
         console.print(Text(case.question[:1].upper() + case.question[1:], style="bold"))
         for note in case.notes:
             console.print(f"  {note}", markup=False)
-        seats = ", ".join(f"{aircraft.stations[s].name}: {n}" for s, n in case.occupants.items()) or "none"
+        seats = ", ".join(f"{aircraft.station_by_id[s].name}: {n}" for s, n in case.occupants.items()) or "none"
         console.print(f"  occupants: {seats}", markup=False)
-        other = [f"{aircraft.stations[s].name} {fmt(w, units.mass, 'down')}" for s, w in case.load.items()
-                 if aircraft.stations[s].kind != "seat" and w > 0]
+        other = [f"{aircraft.station_by_id[s].name} {fmt(w, units.mass, 'down')}" for s, w in case.load.items()
+                 if aircraft.station_by_id[s].kind != "seat" and w > 0]
         console.print(f"  baggage, cargo and fixed items: {', '.join(other) or 'none'}", markup=False)
-        fuel = ", ".join(f"{aircraft.tanks[t].name} {fmt(q, units.fuel_volume, 'down')}" for t, q in case.fuel.items())
+        fuel = ", ".join(f"{aircraft.tank_by_id[t].name} {fmt(q, units.fuel_volume, 'down')}" for t, q in case.fuel.items())
         console.print(f"  fuel: {fuel or 'none'}", markup=False)
         console.print(f"  fuel states checked: {case.fuel_states}", markup=False)
         _conditions_table(case.check, console, aircraft)

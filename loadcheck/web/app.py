@@ -2,7 +2,7 @@
 
 Routes parse a form or a JSON body, call one library job (the same as the command line:
 :func:`~loadcheck.files.load_check_inputs`, :func:`~loadcheck.check.check_loading`,
-:func:`~loadcheck.planning.most_fuel`, :func:`~loadcheck.records.record_check`,
+:func:`~loadcheck.planning.most_fuel`, :func:`~loadcheck.checklog.log_check`,
 :func:`~loadcheck.empty_record.propose` ...) and render its result. They hold no
 arithmetic and no validation of their own; a bad value comes back as the library's
 problems, with the field named and everything typed kept.
@@ -321,13 +321,13 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
     Parameters
     ----------
     fleet_dir : the fleet folder (aircraft files; the mechanic's writes go there)
-    db : the record log (default: the command line's, :func:`loadcheck.records.default_path`)
+    db : the record log (default: the command line's, :func:`loadcheck.checklog.default_path`)
     users : the accounts file (default: :func:`loadcheck.web.users.default_users_path`)
     secret : the key signing session cookies (default: a new random one, so a restart signs everyone out)
     https_only : mark the session cookie Secure (behind a TLS proxy)
     """
     from ..fleet import load_fleet
-    from ..records import default_path
+    from ..checklog import default_path
     from .users import default_users_path
 
     folder = Path(fleet_dir)
@@ -536,14 +536,14 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
 
     @app.post("/aircraft/{registration}/record")
     async def record(request: Request, registration: str) -> Response:
-        from ..records import RecordLog, record_check
+        from ..checklog import CheckLog, log_check
 
         account, aircraft, typed, inputs, form = await _checked(request, registration)
         if inputs is None:
             return _form_again(request, aircraft, typed, form)
         result = _checked_result(inputs)
-        with RecordLog(desk.db) as log:
-            record_id = record_check(log, inputs, result, source="web desk", version=__version__, pilot=account.name)
+        with CheckLog(desk.db) as log:
+            record_id = log_check(log, inputs, result, source="web desk", version=__version__, pilot=account.name)
         return RedirectResponse(f"/records/{record_id}", status_code=303)
 
     @app.post("/aircraft/{registration}/sheet", response_class=HTMLResponse)
@@ -560,11 +560,11 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
         return records if account.has("dispatcher") else (r for r in records if r.pilot == account.name)
 
     def _found(account: Account, registration: str | None, verdict: str | None, day: dt.date | None) -> list[Any]:
-        from ..records import RecordLog
+        from ..checklog import CheckLog
 
         if not desk.db.exists():
             return []
-        with RecordLog(desk.db) as log:
+        with CheckLog(desk.db) as log:
             records = list(_visible(account, log.find(since=day, until=day, registration=registration or None)))
         if verdict in ("within", "out"):
             records = [r for r in records if r.ok == (verdict == "within")]
@@ -591,11 +591,11 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
                     chosen={"registration": registration or "", "verdict": verdict or "", "date": "" if day is None else day.isoformat()})
 
     def _record(account: Account, record_id: int) -> Any:
-        from ..records import RecordLog
+        from ..checklog import CheckLog
 
         if not desk.db.exists():
             raise HTTPException(404)
-        with RecordLog(desk.db) as log:
+        with CheckLog(desk.db) as log:
             try:
                 found = log.get(record_id)
             except LoadcheckError:
@@ -607,7 +607,7 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
     @app.get("/records/export")
     def export(request: Request, format: str = "csv", registration: str | None = None, verdict: str | None = None,
                date: str | None = None) -> Response:
-        from ..records import export_text
+        from ..checklog import export_text
 
         account = _account(request)
         if format not in ("csv", "jsonl"):
@@ -629,12 +629,12 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
     async def verify_page(request: Request, record_id: int) -> Response:
         import json
 
-        from ..records import RecordLog, verify
+        from ..checklog import CheckLog, verify
 
         account = _need(request, "dispatcher")
         await _form(request)
         found = _record(account, record_id)
-        with RecordLog(desk.db) as log:
+        with CheckLog(desk.db) as log:
             verification = verify(log, record_id)
         return page(request, "record.html", title=f"Check {record_id}", record=found, verification=verification,
                     inputs_json=json.dumps(found.inputs, indent=2))
@@ -736,7 +736,7 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
     def api_check(request: Request, body: CheckRequest) -> Any:
         """Check a loading or a trip of several legs (the JSON of ``check --json``); with ``record``, record it
         and give its ``record_id``."""
-        from ..records import RecordLog, record_check
+        from ..checklog import CheckLog, log_check
 
         account = _need(request, "pilot")
         try:
@@ -746,8 +746,8 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
         result = _checked_result(inputs)
         answer = result.to_dict()
         if body.record:
-            with RecordLog(desk.db) as log:
-                answer["record_id"] = record_check(log, inputs, result, source="web desk", version=__version__, pilot=account.name)
+            with CheckLog(desk.db) as log:
+                answer["record_id"] = log_check(log, inputs, result, source="web desk", version=__version__, pilot=account.name)
         return answer
 
     @app.post("/api/plan/fuel")
@@ -803,7 +803,7 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
 
     @app.get("/api/records/{record_id}")
     def api_record(request: Request, record_id: int) -> dict[str, Any]:
-        """One record with its inputs and result (as ``records export --format jsonl`` gives it)."""
+        """One record with its inputs and result (as ``log export --format jsonl`` gives it)."""
         found = _record(_account(request), record_id)
         return {**found.summary(), "inputs": found.inputs, "result": found.result}
 

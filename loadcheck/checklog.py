@@ -40,8 +40,8 @@ from .caution import PILOT_CAUTION
 from .errors import FileFormatError, InputError, LoadcheckError, Problem
 from .results import Result
 
-__all__ = ["CurrentCheck", "CurrentVerification", "Record", "RecordLog", "Verification", "default_path", "export_text",
-           "record_check", "results_match", "verify", "verify_current"]
+__all__ = ["CurrentCheck", "CurrentVerification", "LoggedCheck", "CheckLog", "Verification", "default_path", "export_text",
+           "log_check", "results_match", "verify", "verify_current"]
 
 _COLUMNS = ("id, checked_at, registration, reference, pilot, source, category, ok, fingerprint, inputs, result, version, "
             "seal, legs")
@@ -93,8 +93,8 @@ BEGIN SELECT RAISE(ABORT, 'recorded aircraft data is never deleted'); END;
 
 
 def default_path() -> Path:
-    """Where records go by default: $LOADCHECK_RECORDS, else the user data folder."""
-    explicit = os.environ.get("LOADCHECK_RECORDS")
+    """Where records go by default: $LOADCHECK_LOG, else the user data folder."""
+    explicit = os.environ.get("LOADCHECK_LOG")
     if explicit:
         return Path(explicit)
     from platformdirs import user_data_path
@@ -103,7 +103,7 @@ def default_path() -> Path:
 
 
 @dataclass(frozen=True)
-class Record:
+class LoggedCheck:
     """One recorded check."""
 
     id: int
@@ -128,7 +128,7 @@ class Record:
                                               "category", "ok", "fingerprint", "version")}
 
 
-class RecordLog:
+class CheckLog:
     """An append-only log of checks in one SQLite file.
 
     Parameters
@@ -185,7 +185,7 @@ class RecordLog:
         """Close the database."""
         self._db.close()
 
-    def __enter__(self) -> RecordLog:
+    def __enter__(self) -> CheckLog:
         return self
 
     def __exit__(self, *exc: object) -> None:
@@ -235,14 +235,14 @@ class RecordLog:
         self._known.update(r["fingerprint"] for r in records)
         return ids
 
-    def _row(self, row: tuple[Any, ...]) -> Record:
-        return Record(
+    def _row(self, row: tuple[Any, ...]) -> LoggedCheck:
+        return LoggedCheck(
             id=row[0], checked_at=row[1], registration=row[2], reference=row[3], pilot=row[4], source=row[5],
             category=row[6], ok=bool(row[7]), fingerprint=row[8], inputs=json.loads(row[9]), result=json.loads(row[10]),
             version=row[11], seal=row[12], stored=tuple(row[1:12]), legs=row[13],
         )
 
-    def get(self, record_id: int) -> Record:
+    def get(self, record_id: int) -> LoggedCheck:
         """One record by id.
 
         Raises
@@ -264,7 +264,7 @@ class RecordLog:
         return data
 
     def find(self, *, since: dt.date | None = None, until: dt.date | None = None,
-             registration: str | None = None) -> Iterator[Record]:
+             registration: str | None = None) -> Iterator[LoggedCheck]:
         """Records in order, between two dates (inclusive, UTC) and/or for one registration."""
         for row in self._select(_COLUMNS, since, until, registration):
             yield self._row(row)
@@ -296,7 +296,7 @@ class RecordLog:
         yield from self._db.execute(f"SELECT {columns} FROM checks{where} ORDER BY id", args)
 
 
-def record_check(log: RecordLog, inputs: Any, result: Any, *, source: str, version: str, pilot: str | None = None) -> int:
+def log_check(log: CheckLog, inputs: Any, result: Any, *, source: str, version: str, pilot: str | None = None) -> int:
     """Record one check: the loading as given (file and options or form merged) and the full result.
 
     The one way a check is recorded, for every front end (``check --record``, the web desk):
@@ -336,7 +336,7 @@ _CSV_HEAD = ["id", "checked_at", "registration", "reference", "pilot", "source",
              "legs", "leg", "leg_ok"]
 
 
-def _csv_lines(record: Record) -> list[list[Any]]:
+def _csv_lines(record: LoggedCheck) -> list[list[Any]]:
     """One record's key figures: takeoff and landing weight and arm in the units of the record's
     aircraft (named in its own columns: a fleet may mix lb/in and kg/m), the first limit finding.
 
@@ -359,7 +359,7 @@ def _csv_lines(record: Record) -> list[list[Any]]:
     return [head + figures(leg) + [len(legs), leg["leg"], bool(leg["ok"])] for leg in legs]
 
 
-def export_text(records: Iterable[Record], format: str) -> str:
+def export_text(records: Iterable[LoggedCheck], format: str) -> str:
     """Records as JSON Lines (``jsonl``: everything) or CSV (``csv``: one line of key figures each)."""
     buffer = io.StringIO()
     if format == "jsonl":
@@ -428,7 +428,7 @@ def _check_again(aircraft: Any, inputs: dict[str, Any], where: str) -> Any:
     return check_loading(aircraft, resolved)
 
 
-def verify(log: RecordLog, record_id: int) -> Verification:
+def verify(log: CheckLog, record_id: int) -> Verification:
     """Recompute a recorded check from its stored inputs and aircraft data and compare every stored field.
 
     Compared: the result (numbers within a relative 1e-9), the aircraft data's fingerprint,
@@ -462,7 +462,7 @@ def verify(log: RecordLog, record_id: int) -> Verification:
     legs = 1 + len(record.inputs.get("leg") or ())
     stored_legs = 1 if record.legs is None else record.legs
     if stored_legs != legs or len(again.get("legs", (again,))) != legs:
-        differences.append(f"the stored number of legs ({stored_legs}, which records list shows) is not the recorded "
+        differences.append(f"the stored number of legs ({stored_legs}, which log list shows) is not the recorded "
                            f"loading's ({legs})")
     given = record.inputs.get("registration")
     if given is not None and given != record.registration:
@@ -522,12 +522,12 @@ class CurrentVerification(Result):
     caution: str = PILOT_CAUTION
 
 
-def verify_current(records: Iterable[Record], fleet: Any) -> CurrentVerification:
+def verify_current(records: Iterable[LoggedCheck], fleet: Any) -> CurrentVerification:
     """Check recorded loadings again with the current aircraft data of a fleet.
 
     Parameters
     ----------
-    records : the recorded checks (e.g. :meth:`RecordLog.find`)
+    records : the recorded checks (e.g. :meth:`CheckLog.find`)
     fleet : a :class:`~loadcheck.fleet.Fleet` holding the current aircraft files, by registration
 
     Returns

@@ -19,7 +19,7 @@ def render_record_list(path: Any, records: Iterable[tuple[Any, ...]], caution: s
     data), then the caution. A trip is one record: its verdict is the whole trip's, with its
     legs counted ("OUT OF LIMITS (2 legs)").
 
-    ``records`` as :meth:`loadcheck.records.RecordLog.listing` gives them. A long listing is
+    ``records`` as :meth:`loadcheck.checklog.CheckLog.listing` gives them. A long listing is
     plain aligned text (:mod:`loadcheck.render.listing`).
     """
     title = f"Records in {path}"
