@@ -12,9 +12,9 @@ from pathlib import Path
 import pytest
 from typer.testing import CliRunner
 
+from loadcheck.checklog import CheckLog, verify, verify_current
 from loadcheck.cli import app
 from loadcheck.fleet import load_fleet
-from loadcheck.checklog import CheckLog, verify, verify_current
 
 from .helpers import sample
 
@@ -269,8 +269,8 @@ def test_single_records_are_unchanged_by_trips(db):
 
 def test_a_trip_result_is_not_recorded_against_single_inputs(db, tmp_path):
     from loadcheck import load_check_inputs
-    from loadcheck.errors import InputError
     from loadcheck.checklog import log_check
+    from loadcheck.errors import InputError
     from loadcheck.trip import check_trip
 
     from .test_trip import trip_fleet

@@ -17,10 +17,10 @@ import pytest
 from typer.testing import CliRunner
 
 from loadcheck import check_loading, load_aircraft
+from loadcheck.checklog import CheckLog, results_match
 from loadcheck.cli import app
 from loadcheck.fleet import check_flights, load_fleet, read_loadings
 from loadcheck.loading import Loading
-from loadcheck.checklog import CheckLog, results_match
 
 from .helpers import SAMPLES, sample
 

@@ -233,9 +233,9 @@ def test_csv_headers_built_from_the_aircrafts_own_ids(tmp_path_factory, day):
     import io
 
     from loadcheck import check_loading
+    from loadcheck.checklog import results_match
     from loadcheck.fleet import check_flights, read_loadings
     from loadcheck.loading import Loading
-    from loadcheck.checklog import results_match
     from loadcheck.units import read_amount
 
     registration, header, rows = day

@@ -20,8 +20,8 @@ pytest.importorskip("argon2")
 from fastapi.testclient import TestClient
 
 from loadcheck.check import check_loading
-from loadcheck.files import load_check_inputs
 from loadcheck.checklog import CheckLog
+from loadcheck.files import load_check_inputs
 from loadcheck.web import create_app
 
 from .web_helpers import PASSWORD, SAMPLES, TRIP_LEG_2_AFT, csrf_of, make_desk, sign_in

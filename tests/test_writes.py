@@ -12,9 +12,9 @@ import pytest
 from typer.testing import CliRunner
 
 import loadcheck.files as files_module
+from loadcheck.checklog import CheckLog
 from loadcheck.cli import app
 from loadcheck.errors import FileFormatError
-from loadcheck.checklog import CheckLog
 
 from .helpers import sample
 

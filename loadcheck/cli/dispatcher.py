@@ -89,8 +89,8 @@ def fleet_check(
     """
     from contextlib import nullcontext
 
-    from ..fleet import check_flights, default_workers, load_fleet, read_loadings
     from ..checklog import CheckLog, default_path
+    from ..fleet import check_flights, default_workers, load_fleet, read_loadings
 
     fleet = load_fleet(folder)
     rows, file_problems = read_loadings(loadings, fleet)
@@ -251,8 +251,8 @@ def records_verify(
 
     console = _console()
     if current is not None:
-        from ..fleet import load_fleet
         from ..checklog import verify_current
+        from ..fleet import load_fleet
 
         fleet = load_fleet(current)
         with _log(db) as log:

@@ -326,8 +326,8 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
     secret : the key signing session cookies (default: a new random one, so a restart signs everyone out)
     https_only : mark the session cookie Secure (behind a TLS proxy)
     """
-    from ..fleet import load_fleet
     from ..checklog import default_path
+    from ..fleet import load_fleet
     from .users import default_users_path
 
     folder = Path(fleet_dir)
