@@ -2,7 +2,7 @@
 
 Run on demand:  python benchmarks/checklog.py [--n 100000] [--old 5bdf416] [--repeat 3]
 
-A fresh record database of N records is written (each carries the full result of a real
+A fresh check log of N records is written (each carries the full result of a real
 check of a sample loading, as a fleet check records it). Then, alternating, each as a
 fresh interpreter (start-up included): ``log list`` as it is now, and, where ``--old``
 is given, the listing of the old code (extracted with ``git archive`` under another name),

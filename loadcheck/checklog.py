@@ -1,4 +1,4 @@
-"""The record of checks: an embedded SQLite log that is only ever appended to.
+"""The check log: an embedded SQLite log that is only ever appended to.
 
 Each record holds the time, the registration, reference and pilot, the inputs (the
 loading as given), the full result, the aircraft data's fingerprint, and the canonical
@@ -146,9 +146,9 @@ class CheckLog:
             self._db.execute("PRAGMA synchronous=NORMAL")
             self._retry(self._create)
         except sqlite3.DatabaseError as error:
-            raise FileFormatError(f"cannot use the record database: {error}", file=self.path) from None
+            raise FileFormatError(f"cannot use the check log: {error}", file=self.path) from None
         except OSError as error:
-            raise FileFormatError(f"cannot open the record database: {error.strerror or error}", file=self.path) from None
+            raise FileFormatError(f"cannot open the check log: {error.strerror or error}", file=self.path) from None
         self._known: set[str] = set()
 
     def _create(self) -> None:

@@ -1,5 +1,5 @@
-"""The record of checks: verification of every stored field, exports with their units, and
-recorded checks against the current aircraft data (docs/fleet.md, "The record of checks")."""
+"""The check log: verification of every stored field, exports with their units, and
+recorded checks against the current aircraft data (docs/fleet.md, "The check log")."""
 
 from __future__ import annotations
 

@@ -1,4 +1,4 @@
-"""The dispatcher's side: fleet, batch check, the record of checks."""
+"""The dispatcher's side: fleet, batch check, the check log."""
 
 from __future__ import annotations
 
@@ -214,7 +214,7 @@ def test_two_writers_lose_nothing(tmp_path):
     a, b = _run_fleet(db, DAY), _run_fleet(db, DAY)
     errors = [p.communicate(timeout=120)[1] for p in (a, b)]
     assert a.returncode == 2 and b.returncode == 2
-    assert not any("could not record" in e or "cannot use the record database" in e for e in errors), errors
+    assert not any("could not record" in e or "cannot use the check log" in e for e in errors), errors
     with CheckLog(db) as log:
         found = list(log.find())
     fleet = load_fleet(SAMPLES)

@@ -65,7 +65,7 @@ HELP = [[], ["check"], ["show"], ["validate"], ["schema"], ["plan"], ["plan", "f
 
 @pytest.fixture(scope="module")
 def folder(tmp_path_factory):
-    """A folder with ``s`` -> sample_aircraft and a record database ``r.sqlite3`` holding one day."""
+    """A folder with ``s`` -> sample_aircraft and a check log ``r.sqlite3`` holding one day."""
     root = tmp_path_factory.mktemp("width")
     (root / "s").symlink_to(SAMPLES, target_is_directory=True)
     return root

@@ -1,7 +1,7 @@
 """Nothing lost: every file loadcheck writes is written whole or not at all.
 
 Aircraft history writes are tested in tests/test_mechanic.py (crash and full disk); here:
-charts, load sheets, mechanic records, exports, and the record database.
+charts, load sheets, mechanic records, exports, and the check log.
 """
 
 from __future__ import annotations
@@ -79,7 +79,7 @@ def test_a_failed_batch_records_nothing_and_keeps_the_rest(tmp_path):
 def test_a_corrupt_database_is_refused_not_overwritten(tmp_path):
     db = tmp_path / "records.sqlite3"
     db.write_bytes(b"this is not a database" * 100)
-    with pytest.raises(FileFormatError, match="record database"):
+    with pytest.raises(FileFormatError, match="check log"):
         CheckLog(db)
     assert db.read_bytes() == b"this is not a database" * 100
 

@@ -30,7 +30,7 @@ def _store(users: Path | None) -> UserStore:
 @input_errors
 def serve(
     fleet: Annotated[Path, typer.Argument(metavar="FLEET_DIR", help="Fleet folder (aircraft files).")],
-    db: Annotated[Path | None, typer.Option("--db", metavar="FILE", help="Record of checks (default: the command line's).")] = None,
+    db: Annotated[Path | None, typer.Option("--db", metavar="FILE", help="Check log (default: the command line's).")] = None,
     users: UsersOpt = None,
     host: Annotated[str, typer.Option(metavar="ADDRESS", help="Address to listen on (loopback unless --allow-remote).")] = "127.0.0.1",
     port: Annotated[int, typer.Option(min=1, max=65535, metavar="PORT", help="Port.")] = 8400,

@@ -28,11 +28,11 @@ fleet_app = typer.Typer(short_help="A fleet, and a day of loadings.",
                         help="A fleet of aircraft files addressed by registration, and a day of loadings.",
                         no_args_is_help=True)
 app.add_typer(fleet_app, name="fleet")
-records_app = typer.Typer(short_help="The record of checks.",
-                          help="The record of checks: list, show, export, verify (reproduce).", no_args_is_help=True)
+records_app = typer.Typer(short_help="The check log.",
+                          help="The check log: list, show, export, verify (reproduce).", no_args_is_help=True)
 app.add_typer(records_app, name="records")
 
-DbOpt = Annotated[Path | None, typer.Option("--db", metavar="FILE", help="Record database (default: $LOADCHECK_LOG or the user data folder).")]
+DbOpt = Annotated[Path | None, typer.Option("--db", metavar="FILE", help="Check log (default: $LOADCHECK_LOG or the user data folder).")]
 
 
 @fleet_app.command("list", short_help="Each aircraft of a fleet folder.")
@@ -71,7 +71,7 @@ def fleet_check(
     folder: Annotated[Path, typer.Argument(metavar="FOLDER", help="Folder of aircraft files (the fleet).")],
     loadings: Annotated[Path, typer.Argument(metavar="LOADINGS", help="Loadings: a CSV file (one row per flight) or a folder of loading files.")],
     record: Annotated[Path | None, typer.Option(metavar="FILE",
-        help="Record database (default: $LOADCHECK_LOG or the user data folder).")] = None,
+        help="Check log (default: $LOADCHECK_LOG or the user data folder).")] = None,
     no_record: Annotated[bool, typer.Option("--no-log", help="Do not record the checks.")] = False,
     json_out: Annotated[bool, typer.Option("--json", help="Print JSON Lines: one object per flight.")] = False,
     workers: Annotated[int | None, typer.Option(min=1, help="Processes checking flights (default: one; see docs/performance.md).")] = None,
@@ -158,7 +158,7 @@ def _log(db: Path | None) -> Any:
 
     path = db or default_path()
     if not path.exists():
-        raise InputError(Problem("--db", f"no record database at {path}"))
+        raise InputError(Problem("--db", f"no check log at {path}"))
     return CheckLog(path)
 
 

@@ -1,4 +1,4 @@
-"""Terminal output of the record of checks: recorded checks against the current aircraft data."""
+"""Terminal output of the check log: recorded checks against the current aircraft data."""
 
 from __future__ import annotations
 

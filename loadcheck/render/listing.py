@@ -1,7 +1,7 @@
 """Long listings as plain aligned text: one line per row, at any length, quickly.
 
 A rich table lays out every cell of every row before printing (about half a millisecond a
-row), so a listing of a day of flights or of the record of checks is printed as plain text
+row), so a listing of a day of flights or of the check log is printed as plain text
 once it has more than :data:`PLAIN_ROWS` rows: a title, a header, a rule, then each row with
 its columns padded to the widest cell of the column. Nothing is cut or wrapped: a cell
 wider than the terminal runs on, and the verdict words are the same as in the table (no

@@ -334,7 +334,7 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
     load_fleet(folder)  # refuse to start on a folder that is not a fleet
     desk = Desk(folder, Path(db) if db is not None else default_path(), UserStore(users if users is not None else default_users_path()))
     app = FastAPI(title="loadcheck desk", version=__version__, docs_url=None, redoc_url=None, openapi_url=None,
-                  description="The flight school's desk: checks, planning, the record of checks and the empty-weight record, "
+                  description="The flight school's desk: checks, planning, the check log and the empty-weight record, "
                               "over loadcheck's library. Advisory: " + PILOT_CAUTION)
     app.state.desk = desk
     app.add_middleware(SessionMiddleware, secret_key=secret or secrets.token_urlsafe(32), session_cookie="desk_session",
@@ -553,7 +553,7 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
             return _form_again(request, aircraft, typed, form)
         return HTMLResponse(_sheet(inputs, _checked_result(inputs)))
 
-    # -- the record of checks --------------------------------------------------------------------
+    # -- the check log --------------------------------------------------------------------
 
     def _visible(account: Account, records: Any) -> Any:
         """Every record for a dispatcher; a pilot's own otherwise."""
