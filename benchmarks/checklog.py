@@ -5,7 +5,8 @@ Run on demand:  python benchmarks/checklog.py [--n 100000] [--old 5bdf416] [--re
 A fresh check log of N records is written (each carries the full result of a real
 check of a sample loading, as a fleet check records it). Then, alternating, each as a
 fresh interpreter (start-up included): ``log list`` as it is now, and, where ``--old``
-is given, the listing of the old code (extracted with ``git archive`` under another name),
+is given, the listing of the old code (extracted with ``git archive`` under another name; a
+commit before issue 21 names the command group ``OLD_GROUP``),
 which read every stored inputs and result and laid out a rich table. Best wall and CPU time of
 ``--repeat`` runs; target: under 1 s at 100,000 records.
 """
@@ -24,7 +25,8 @@ from io import BytesIO
 from pathlib import Path
 
 ROOT = Path(__file__).resolve().parent.parent
-LIST = ("import sys; sys.argv = ['loadcheck', 'log', 'list', '--db', sys.argv[1]]\n"
+OLD_GROUP = "records"  # rename.py: keep (the command group's name before issue 21, for --old commits before it)
+LIST = ("import sys; sys.argv = ['loadcheck', '{group}', 'list', '--db', sys.argv[1]]\n"
         "from {package}.cli import main\n"
         "try:\n    main()\nexcept SystemExit as stop:\n    assert not stop.code, stop.code\n")
 
@@ -65,14 +67,14 @@ def main() -> None:
         db = Path(folder) / "records.sqlite3"
         _database(db, args.n)
         env = {**os.environ, "PYTHONPATH": os.pathsep.join([str(ROOT), folder, os.environ.get("PYTHONPATH", "")])}
-        cases = {"log list (now)": LIST.format(package="loadcheck")}
+        cases = {"log list (now)": LIST.format(package="loadcheck", group="log")}
         if args.old:
             archive = subprocess.run(["git", "-C", str(ROOT), "archive", args.old, "loadcheck"], capture_output=True,
                                      check=True).stdout
             with tarfile.open(fileobj=BytesIO(archive)) as tar:
                 tar.extractall(folder, filter="data")
             (Path(folder) / "loadcheck").rename(Path(folder) / "loadcheck_old")
-            cases[f"log list ({args.old})"] = LIST.format(package="loadcheck_old")
+            cases[f"log list ({args.old})"] = LIST.format(package="loadcheck_old", group=OLD_GROUP)
         best = dict.fromkeys(cases, (float("inf"), float("inf")))
         for _ in range(args.repeat):
             for name, code in cases.items():

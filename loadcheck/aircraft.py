@@ -27,7 +27,7 @@ from pydantic import (
 )
 
 from .envelope import AXES, Axis, EnvelopeShape, polygon_problem
-from .errors import Problem, UnknownNameError
+from .errors import Problem, UnitError, UnknownNameError
 from .filemodel import FileModel
 from .fuel import FuelGrade, default_density, density_problem, grade_name
 from .units import ArmUnit, MassUnit, VolumeUnit, canonical_unit, convert, parse_quantity, unit_kind
@@ -98,7 +98,7 @@ def _unit_name(value: Any) -> Any:
     if isinstance(value, str):
         try:
             return canonical_unit(value)
-        except ValueError:
+        except UnitError:
             return value  # let the Literal report the valid choices
     return value
 

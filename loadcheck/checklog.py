@@ -1,4 +1,7 @@
-"""The check log: an embedded SQLite log that is only ever appended to.
+"""The check log: an embedded SQLite log of checks that is only ever appended to.
+
+(The aircraft's own weight-and-balance record, its empty weight and CG, is
+:mod:`loadcheck.empty_record`'s; this is the log of the checks made.)
 
 Each record holds the time, the registration, reference and pilot, the inputs (the
 loading as given), the full result, the aircraft data's fingerprint, and the canonical
@@ -92,9 +95,24 @@ BEGIN SELECT RAISE(ABORT, 'recorded aircraft data is never deleted'); END;
 """
 
 
+_OLD_ENV = "LOADCHECK_RECORDS"  # rename.py: keep (the variable's name before issue 21)
+
+
 def default_path() -> Path:
-    """Where records go by default: $LOADCHECK_LOG, else the user data folder."""
+    """Where the check log is by default: $LOADCHECK_LOG, else the user data folder.
+
+    Raises
+    ------
+    InputError
+        If the variable's old name (``_OLD_ENV``, before issue 21) is set, to another path
+        than $LOADCHECK_LOG: a path the user set is never silently passed over for another.
+    """
     explicit = os.environ.get("LOADCHECK_LOG")
+    old = os.environ.get(_OLD_ENV)
+    if old and old != explicit:
+        raise InputError(Problem(f"${_OLD_ENV}", "this variable is now named LOADCHECK_LOG: rename it"
+                                 + (" (both are set, to different files)" if explicit else ""),
+                                 value=old, expected="LOADCHECK_LOG=FILE"))
     if explicit:
         return Path(explicit)
     from platformdirs import user_data_path
@@ -371,7 +389,7 @@ def export_text(records: Iterable[LoggedCheck], format: str) -> str:
         for r in records:
             writer.writerows(_csv_lines(r))
     else:
-        raise ValueError(f"unknown export format {format!r} (csv or jsonl)")
+        raise InputError(Problem("format", "unknown export format", value=format, expected="csv or jsonl"))
     return buffer.getvalue()
 
 

@@ -24,11 +24,14 @@ if TYPE_CHECKING:  # rich loads only when something is printed through it (not f
     from rich.console import Console
 
 __all__ = [
-    "EXIT_INPUT", "EXIT_LIMIT", "EXIT_OK", "AircraftArg", "CategoryOpt", "FuelOpt", "JsonOpt", "LoadOpt", "LoadingArg",
+    "EXIT_INPUT", "EXIT_LIMIT", "EXIT_OK", "AircraftArg", "CategoryOpt", "DbOpt", "FuelOpt", "JsonOpt", "LoadOpt", "LoadingArg",
     "OrderOpt", "RateOpt", "ReserveOpt", "TaxiOpt", "TripOpt", "TripTimeOpt", "app", "input_errors",
 ]
 
 EXIT_OK, EXIT_LIMIT, EXIT_INPUT = 0, 1, 2
+
+DbOpt = Annotated[Path | None, typer.Option(
+    "--db", metavar="FILE", help="The check log, an SQLite file (default: $LOADCHECK_LOG, else the user data folder).")]
 
 
 def _repeated_option(command: Any, args: list[str]) -> str | None:
@@ -66,6 +69,26 @@ def _repeated_option(command: Any, args: list[str]) -> str | None:
     return None
 
 
+_RENAMED_OPTIONS = {  # rename.py: keep (the options before issue 21's one convention)
+    "--record": "the check log is now --log (record this check) with --db FILE (which log)",  # rename.py: keep
+    "--no-record": "the check log is now --no-log",  # rename.py: keep
+}
+
+
+def _renamed_option(command: Any, args: list[str]) -> str | None:
+    """A hint for an option of an earlier release that ``command`` no longer takes (refused
+    all the same: click would refuse it as unknown, without saying what it became)."""
+    known = {name for param in command.params if isinstance(param, TyperOption)
+             for name in (*param.opts, *param.secondary_opts)}
+    for token in args:
+        if token == "--":
+            break
+        name = token.partition("=")[0]
+        if name in _RENAMED_OPTIONS and name not in known:
+            return f"no such option {name}: {_RENAMED_OPTIONS[name]}"
+    return None
+
+
 class _Group(TyperGroup):
     """The command group: refuses an option that takes one value given twice (any command)."""
 
@@ -75,7 +98,7 @@ class _Group(TyperGroup):
         while isinstance(target, TyperGroup) and remaining and not remaining[0].startswith("-"):
             target, remaining = target.get_command(ctx, remaining[0]), remaining[1:]
         if target is not None:
-            problem = _repeated_option(target, remaining)
+            problem = _renamed_option(target, remaining) or _repeated_option(target, remaining)
             if problem:
                 _fail_input([problem])
         return name, command, rest

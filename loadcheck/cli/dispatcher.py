@@ -6,7 +6,7 @@ import json
 import os
 import sys
 from pathlib import Path
-from typing import Annotated, Any, Literal
+from typing import TYPE_CHECKING, Annotated, Literal
 
 import typer
 
@@ -16,11 +16,17 @@ from .common import (
     EXIT_INPUT,
     EXIT_LIMIT,
     EXIT_OK,
+    DbOpt,
     JsonOpt,
     _console,
     app,
     input_errors,
 )
+
+if TYPE_CHECKING:
+    import datetime as dt
+
+    from ..checklog import CheckLog
 
 # -- the dispatcher's commands ---------------------------------------------------------------
 
@@ -28,11 +34,10 @@ fleet_app = typer.Typer(short_help="A fleet, and a day of loadings.",
                         help="A fleet of aircraft files addressed by registration, and a day of loadings.",
                         no_args_is_help=True)
 app.add_typer(fleet_app, name="fleet")
-records_app = typer.Typer(short_help="The check log.",
-                          help="The check log: list, show, export, verify (reproduce).", no_args_is_help=True)
-app.add_typer(records_app, name="records")
+log_app = typer.Typer(short_help="The check log.",
+                      help="The check log (every check recorded): list, show, export, verify (reproduce).", no_args_is_help=True)
+app.add_typer(log_app, name="log")
 
-DbOpt = Annotated[Path | None, typer.Option("--db", metavar="FILE", help="Check log (default: $LOADCHECK_LOG or the user data folder).")]
 
 
 @fleet_app.command("list", short_help="Each aircraft of a fleet folder.")
@@ -65,18 +70,17 @@ def fleet_list(
     raise typer.Exit(EXIT_INPUT if bad else EXIT_OK)
 
 
-@fleet_app.command("check", short_help="Check and record a day of loadings.")
+@fleet_app.command("check", short_help="Check a day of loadings; log every check.")
 @input_errors
 def fleet_check(
     folder: Annotated[Path, typer.Argument(metavar="FOLDER", help="Folder of aircraft files (the fleet).")],
     loadings: Annotated[Path, typer.Argument(metavar="LOADINGS", help="Loadings: a CSV file (one row per flight) or a folder of loading files.")],
-    record: Annotated[Path | None, typer.Option(metavar="FILE",
-        help="Check log (default: $LOADCHECK_LOG or the user data folder).")] = None,
-    no_record: Annotated[bool, typer.Option("--no-log", help="Do not record the checks.")] = False,
+    db: DbOpt = None,
+    log_checks: Annotated[bool, typer.Option("--log/--no-log", help="Record every check in the check log (default) or not.")] = True,
     json_out: Annotated[bool, typer.Option("--json", help="Print JSON Lines: one object per flight.")] = False,
     workers: Annotated[int | None, typer.Option(min=1, help="Processes checking flights (default: one; see docs/performance.md).")] = None,
 ) -> None:
-    """Check a day of loadings against the fleet; record every check.
+    """Check a day of loadings against the fleet; record every check in the check log (--no-log: do not).
 
     Exit status: 0 every flight within limits, 1 a flight is out of limits, 2 a row could not
     be used (the other rows are still checked and reported) or there was nothing to check.
@@ -85,19 +89,23 @@ def fleet_check(
 
     \b
       loadcheck fleet check sample_aircraft \\
-        sample_aircraft/fleet_day.csv --no-record
+        sample_aircraft/fleet_day.csv --no-log
     """
     from contextlib import nullcontext
 
     from ..checklog import CheckLog, default_path
     from ..fleet import check_flights, default_workers, load_fleet, read_loadings
 
+    if not log_checks and db is not None:
+        raise InputError(Problem("--db", "names the check log to record in, but --no-log records nothing",
+                                 value=str(db), expected="--db FILE without --no-log, or no --db"))
+    path = (db or default_path()) if log_checks else None  # before any work: the old variable, refused, stops here
     fleet = load_fleet(folder)
     rows, file_problems = read_loadings(loadings, fleet)
     err = _console(stderr=True)
     for problem in file_problems:
         err.print(f"error: {problem}", markup=False, soft_wrap=True)
-    log = None if no_record else CheckLog(record or default_path())
+    log = CheckLog(path) if path is not None else None
     flights = []  # for the table only: one brief line per flight; JSON Lines are streamed
     counts = {"checked": 0, "out": 0, "bad": 0}
     show_progress = err.is_terminal and not json_out and not os.environ.get("NO_COLOR")  # a bar is escape codes
@@ -131,13 +139,13 @@ def fleet_check(
 
         render_fleet(flights, _console())
     if log is not None:
-        err.print(f"{counts['checked'] - counts['bad']} check(s) recorded in {log.path}", markup=False)
+        err.print(f"{counts['checked'] - counts['bad']} check(s) recorded in the check log {log.path}", markup=False)
     if counts["bad"] or file_problems:
         raise typer.Exit(EXIT_INPUT)
     raise typer.Exit(EXIT_LIMIT if counts["out"] else EXIT_OK)
 
 
-def _date(text: str | None, option: str) -> Any:
+def _date(text: str | None, option: str) -> dt.date | None:
     if text is None:
         return None
     import datetime as dt
@@ -153,7 +161,7 @@ UntilOpt = Annotated[str | None, typer.Option(metavar="DATE", help="To this date
 RegOpt = Annotated[str | None, typer.Option("--registration", "-r", metavar="REGISTRATION", help="Only this aircraft.")]
 
 
-def _log(db: Path | None) -> Any:
+def _log(db: Path | None) -> CheckLog:
     from ..checklog import CheckLog, default_path
 
     path = db or default_path()
@@ -162,9 +170,9 @@ def _log(db: Path | None) -> Any:
     return CheckLog(path)
 
 
-@records_app.command("list", short_help="List recorded checks.")
+@log_app.command("list", short_help="List recorded checks.")
 @input_errors
-def records_list(db: DbOpt = None, since: SinceOpt = None, until: UntilOpt = None, registration: RegOpt = None) -> None:
+def log_list(db: DbOpt = None, since: SinceOpt = None, until: UntilOpt = None, registration: RegOpt = None) -> None:
     """List recorded checks.
 
     Example:
@@ -181,18 +189,18 @@ def records_list(db: DbOpt = None, since: SinceOpt = None, until: UntilOpt = Non
     render_record_list(log.path, records, PILOT_CAUTION, _console())
 
 
-@records_app.command("show", short_help="One record: its inputs and result.")
+@log_app.command("show", short_help="One record: its inputs and result.")
 @input_errors
-def records_show(record_id: Annotated[int, typer.Argument(metavar="ID", help="Record id.")], db: DbOpt = None) -> None:
+def log_show(record_id: Annotated[int, typer.Argument(metavar="ID", help="Record id.")], db: DbOpt = None) -> None:
     """Show one record: its inputs and its full result (JSON)."""
     with _log(db) as log:
         record = log.get(record_id)
     typer.echo(json.dumps({**record.summary(), "inputs": record.inputs, "result": record.result}, indent=2))
 
 
-@records_app.command("export", short_help="Export records as CSV or JSON Lines.")
+@log_app.command("export", short_help="Export records as CSV or JSON Lines.")
 @input_errors
-def records_export(
+def log_export(
     db: DbOpt = None, since: SinceOpt = None, until: UntilOpt = None, registration: RegOpt = None,
     format: Annotated[Literal["csv", "jsonl"], typer.Option(metavar="csv|jsonl", help="csv (one line per record) or jsonl (everything).")] = "jsonl",
     out: Annotated[Path | None, typer.Option(metavar="FILE", help="Write to this file (default: standard output).")] = None,
@@ -223,9 +231,9 @@ def records_export(
         _console(stderr=True).print(caution_text(PILOT_CAUTION))
 
 
-@records_app.command("verify", short_help="Recompute a record; does it match?")
+@log_app.command("verify", short_help="Recompute a record; does it match?")
 @input_errors
-def records_verify(
+def log_verify(
     record_id: Annotated[int | None, typer.Argument(
         metavar="ID", help="Record id (with --current: optional, else every record the filters select).")] = None,
     db: DbOpt = None,

@@ -16,6 +16,7 @@ from .common import (
     EXIT_OK,
     AircraftArg,
     CategoryOpt,
+    DbOpt,
     FuelOpt,
     JsonOpt,
     LoadingArg,
@@ -70,8 +71,8 @@ def check(
     chart: Annotated[Path | None, typer.Option(metavar="FILE", help="Write the envelope chart: .png, .svg or .pdf.")] = None,
     sheet: Annotated[Path | None, typer.Option(metavar="FILE.html", help="Write a printable load sheet (.html).")] = None,
     plot: Annotated[bool, typer.Option("--plot", help="Draw a small text plot of the envelope under the tables.")] = False,
-    record: Annotated[str | None, typer.Option(metavar="FILE",
-        help="Record the check in this SQLite file ('default': the user data folder).")] = None,
+    to_log: Annotated[bool, typer.Option("--log/--no-log", help="Record the check in the check log (default: not).")] = False,
+    db: DbOpt = None,
     leg_load: LegLoadOpt = [],  # noqa: B006
     leg_fuel: LegFuelOpt = [],  # noqa: B006
     leg_burn: LegBurnOpt = [],  # noqa: B006
@@ -102,6 +103,7 @@ def check(
     """
     from ..check import check_loading
 
+    record = _log_path(to_log, db)
     inputs = _inputs(aircraft, loading, load, fuel, taxi, trip, trip_time, rate, order, reserve, category,
                      legs=_legs(leg_load, leg_fuel, leg_burn), allow_trip=True)
     if inputs.is_trip:
@@ -126,7 +128,7 @@ def check(
     raise typer.Exit(EXIT_OK if result.ok else EXIT_LIMIT)
 
 
-def _check_trip(inputs: Any, json_out: bool, chart: Path | None, sheet: Path | None, plot: bool, record: str | None) -> None:
+def _check_trip(inputs: Any, json_out: bool, chart: Path | None, sheet: Path | None, plot: bool, record: Path | None) -> None:
     """Check every leg of a trip, render it, and exit 1 when any leg is out of limits."""
     from ..trip import check_trip
 
@@ -163,15 +165,27 @@ def _check_trip(inputs: Any, json_out: bool, chart: Path | None, sheet: Path | N
     raise typer.Exit(EXIT_OK if result.ok else EXIT_LIMIT)
 
 
-def _record(record: str, inputs: Any, result: Any) -> None:
+def _log_path(to_log: bool, db: Path | None) -> Path | None:
+    """The check log to record in: None without --log; --db given without --log is refused
+    (a file the user named is never silently passed over)."""
+    from ..checklog import default_path
+
+    if not to_log:
+        if db is not None:
+            raise InputError(Problem("--db", "names the check log to record in, but check records only with --log",
+                                     value=str(db), expected="--log --db FILE, or no --db"))
+        return None
+    return db or default_path()
+
+
+def _record(path: Path, inputs: Any, result: Any) -> None:
     """Record one check (of a single loading or of a whole trip, as one record): the loading as
     given (file and options merged) and the full result."""
-    from ..checklog import CheckLog, default_path, log_check
+    from ..checklog import CheckLog, log_check
 
-    path = default_path() if record == "default" else Path(record)
     with CheckLog(path) as log:
         record_id = log_check(log, inputs, result, source=str(inputs.loading_file or "command line"), version=__version__)
-    _console(stderr=True).print(f"recorded as {record_id} in {path}", markup=False)
+    _console(stderr=True).print(f"recorded as {record_id} in the check log {path}", markup=False)
 
 
 def _write_pictures(inputs: Any, result: Any, chart: Path | None, sheet: Path | None) -> None:

@@ -587,7 +587,7 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
         day = _day(date)
         records = _found(account, registration, verdict, day)
         registrations = sorted(e.registration for e in desk.fleet().entries if e.registration)
-        return page(request, "records.html", title="Checks", records=records, registrations=registrations,
+        return page(request, "records.html", title="Check log", records=records, registrations=registrations,
                     chosen={"registration": registration or "", "verdict": verdict or "", "date": "" if day is None else day.isoformat()})
 
     def _record(account: Account, record_id: int) -> Any:
