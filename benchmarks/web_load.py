@@ -4,7 +4,7 @@ through ``POST /api/check`` (the default: 20 x 50). Every check must be recorded
 Run on demand:  python benchmarks/web_load.py [--clients 20] [--checks 50] [--write-docs]
 
 The desk runs as ``loadcheck serve`` in a child process on a free 127.0.0.1 port, over a copy of
-the sample fleet, a fresh record log and one account per client. Each check carries a front-seat
+the sample fleet, a fresh check log and one account per client. Each check carries a front-seat
 weight unique to its client and number, so the log can be matched request by request. With
 --write-docs the figures replace this benchmark's own section of docs/performance.md.
 """
@@ -139,7 +139,7 @@ def _write_docs(lines: list[str], args: argparse.Namespace) -> None:
         SECTION, "",
         f"The desk (`loadcheck serve`, one uvicorn process) on loopback; {args.clients} pilots signed in at once, each "
         f"recording {args.checks} checks of the sample trainer through `POST /api/check` with `record: true`, one "
-        "request after the other. Each check's front-seat weight is unique, so the record log is matched request "
+        "request after the other. Each check's front-seat weight is unique, so the check log is matched request "
         f"by request afterwards. Measured on {machine}:", "",
         *[f"- {line}" for line in lines], "",
         "Each request looks at the fleet folder's files (read again when one changed, so a mechanic's new record "

@@ -324,7 +324,7 @@ def log_check(log: CheckLog, inputs: Any, result: Any, *, source: str, version: 
 
     Parameters
     ----------
-    log : the record log to append to
+    log : the check log to append to
     inputs : the :class:`~loadcheck.files.CheckInputs` that were checked
     result : the :class:`~loadcheck.results.CheckResult` or :class:`~loadcheck.results.TripResult` of ``inputs``
     source : where the loading came from (a file name, "command line", "web desk")

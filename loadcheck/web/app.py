@@ -92,7 +92,7 @@ class _Pending:
 
 
 class Desk:
-    """What the routes share: the fleet folder, the record log's file, the accounts, the guards."""
+    """What the routes share: the fleet folder, the check log's file, the accounts, the guards."""
 
     def __init__(self, fleet_dir: Path, db: Path, users: UserStore):
         self.fleet_dir = fleet_dir
@@ -321,7 +321,7 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
     Parameters
     ----------
     fleet_dir : the fleet folder (aircraft files; the mechanic's writes go there)
-    db : the record log (default: the command line's, :func:`loadcheck.checklog.default_path`)
+    db : the check log (default: the command line's, :func:`loadcheck.checklog.default_path`)
     users : the accounts file (default: :func:`loadcheck.web.users.default_users_path`)
     secret : the key signing session cookies (default: a new random one, so a restart signs everyone out)
     https_only : mark the session cookie Secure (behind a TLS proxy)
