@@ -295,7 +295,7 @@ class Tank(_Model):
             assert self.arm is not None
             return self.arm if np.ndim(quantity) == 0 else np.full(np.shape(quantity), self.arm)
         table = self.arm_table
-        return np.interp(quantity, [q for q, _ in table], [a for _, a in table])  # type: ignore[no-any-return]
+        return np.interp(quantity, [q for q, _ in table], [a for _, a in table])
 
     def arm_knots(self) -> list[float]:
         """Quantities at which the arm's slope may change [fuel volume unit]."""

@@ -724,7 +724,7 @@ def write_new_record(
     path = Path(path)
     target = write_target(path)
     doc = tomlkit.parse(original.decode("utf-8"))
-    previous = _plain(dict(doc["empty"].unwrap()))  # type: ignore[union-attr]
+    previous = _plain(dict(doc["empty"].unwrap()))
     entry: dict[str, Any] = {
         "recorded": recorded or dt.datetime.now().astimezone().replace(microsecond=0),
         "reason": reason,

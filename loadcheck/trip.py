@@ -160,7 +160,7 @@ def _first_limit(result: TripResult) -> str | None:
     finding = next((f for f in result.findings if f.severity == "limit"), None)
     if finding is None:
         return None
-    return f"{leg_name(finding.leg, finding.label)}: " + limit_words(finding)  # type: ignore[arg-type]
+    return f"{leg_name(finding.leg, finding.label)}: " + limit_words(finding)
 
 
 def _plan(

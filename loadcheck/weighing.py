@@ -210,10 +210,8 @@ def _longitudinal_span(aircraft: Aircraft) -> tuple[float, float] | None:
     """Most forward and most rearward arm of all the aircraft's longitudinal envelopes [arm unit]."""
     spans = []
     for envelope in aircraft.envelope:
-        try:
+        if not envelope.shape.is_lateral:  # a lateral envelope does not limit the longitudinal CG
             spans.append(envelope.shape.arm_range())
-        except ValueError:
-            continue  # a lateral envelope does not limit the longitudinal CG
     if not spans:
         return None
     return min(s[0] for s in spans), max(s[1] for s in spans)

@@ -11,7 +11,7 @@ import functools
 import os
 from collections.abc import Callable
 from pathlib import Path
-from typing import TYPE_CHECKING, Annotated, Any, TypeVar
+from typing import TYPE_CHECKING, Annotated, Any, TypeVar, cast
 
 import typer
 from pydantic import ValidationError
@@ -164,7 +164,7 @@ def input_errors(func: F) -> F:
             _fail_input([f"internal error ({type(error).__name__}: {error}); no result was produced. "
                          "Please report it; LOADCHECK_DEBUG=1 shows the traceback."])
 
-    return wrapper  # type: ignore[return-value]
+    return cast(F, wrapper)  # functools.wraps keeps the signature typer reads
 
 
 def _assignments(values: list[str], option: str) -> dict[str, str]:

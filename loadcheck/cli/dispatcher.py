@@ -113,7 +113,7 @@ def fleet_check(
     if show_progress:
         from rich.progress import Progress
     with (Progress(console=err, transient=True) if show_progress else nullcontext()) as progress:
-        task = progress.add_task("checking", total=None) if progress is not None else None  # type: ignore[union-attr]
+        task = progress.add_task("checking", total=None) if progress is not None else None
         try:
             for flight in check_flights(fleet, rows, log, __version__, workers=workers or default_workers()):
                 counts["checked"] += 1

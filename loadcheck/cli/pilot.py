@@ -4,7 +4,7 @@ from __future__ import annotations
 
 import json
 from pathlib import Path
-from typing import Annotated, Any, Literal
+from typing import TYPE_CHECKING, Annotated, Any, Literal
 
 import typer
 
@@ -33,6 +33,9 @@ from .common import (
     app,
     input_errors,
 )
+
+if TYPE_CHECKING:
+    from ..results import ConditionName
 
 LegLoadOpt = Annotated[list[str], typer.Option(
     "--leg-load", metavar="LEG:STATION=WEIGHT", help="From leg 2 on: new weight at the stop before that leg (0: off); repeat.")]
@@ -506,12 +509,14 @@ def plan_shift(
     from ..planning import weight_shift
     from ..units import read_amount
 
-    if condition not in ("ramp", "takeoff", "landing", "zero_fuel"):
+    conditions: dict[str, ConditionName] = {"ramp": "ramp", "takeoff": "takeoff", "landing": "landing", "zero_fuel": "zero_fuel"}
+    chosen = conditions.get(condition)
+    if chosen is None:
         raise InputError(Problem("--condition", f"unknown condition {condition!r}", expected="ramp, takeoff, landing or zero_fuel"))
     inputs = _inputs(aircraft, loading, load, fuel, taxi, trip, trip_time, rate, order, reserve, category)
     arm = None if target is None else read_amount(target, inputs.aircraft.units.arm, "--target")
     result = weight_shift(inputs.aircraft, inputs.loading, _need(source, "--from"), _need(to, "--to"),
-                          target_arm=arm, condition=condition)  # type: ignore[arg-type]
+                          target_arm=arm, condition=chosen)
     _answer(result, json_out)
 
 

@@ -144,7 +144,7 @@ def _spread_limit_names(ax: Axes, vertical: bool, renderer: Any) -> None:
     """Move apart, along the frame, the names of weight limits that lie close together."""
     names = sorted((t for t in ax.texts if (t.get_gid() or "").startswith("limitname-")),
                    key=lambda t: t.xy[0] if vertical else t.xy[1])  # type: ignore[attr-defined]
-    scale = ax.figure.dpi / 72.0  # type: ignore[union-attr]
+    scale = ax.figure.dpi / 72.0
     previous_end: float | None = None
     for text in names:
         box = text.get_window_extent(renderer)
