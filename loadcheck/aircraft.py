@@ -13,6 +13,7 @@ import datetime as dt
 import hashlib
 import json
 from functools import cached_property
+from itertools import pairwise
 from typing import Annotated, Any, Literal
 
 import numpy as np
@@ -280,7 +281,7 @@ class Tank(_Model):
             if len(table) < 2:
                 raise ValueError("arm_table needs at least two points")
             quantities = [q for q, _ in table]
-            if any(b <= a for a, b in zip(quantities, quantities[1:])):
+            if any(b <= a for a, b in pairwise(quantities)):
                 raise ValueError("arm_table quantities must increase strictly from point to point")
             if quantities[0] < 0 or quantities[-1] > self.usable * (1 + 1e-12):
                 raise ValueError(f"arm_table quantities must lie within 0 and the usable capacity ({self.usable})")

@@ -398,7 +398,7 @@ def results_match(a: Any, b: Any, rel: float = 1e-9) -> bool:
     if isinstance(a, dict) and isinstance(b, dict):
         return a.keys() == b.keys() and all(results_match(a[k], b[k], rel) for k in a)
     if isinstance(a, list) and isinstance(b, list):
-        return len(a) == len(b) and all(results_match(x, y, rel) for x, y in zip(a, b))
+        return len(a) == len(b) and all(results_match(x, y, rel) for x, y in zip(a, b, strict=True))
     if isinstance(a, bool) or isinstance(b, bool):
         return a == b
     if isinstance(a, (int, float)) and isinstance(b, (int, float)):

@@ -420,7 +420,7 @@ def _csv_cells(path: Path, line: int, columns: list[tuple[str, str | None]], rec
     problems: list[str] = []
     if len(record) != len(columns):
         problems.append(f"{where}: {len(record)} cells where the header has {len(columns)} columns")
-    cells = {name: (cell.strip(), unit) for (name, unit), cell in zip(columns, record)}
+    cells = {name: (cell.strip(), unit) for (name, unit), cell in zip(columns, record, strict=False)}  # a row of other length: said above
     registration = cells.get("registration", ("", None))[0] or None
     reference = cells.get("reference", ("", None))[0] or None
     pilot = cells.get("pilot", ("", None))[0] or None
@@ -634,7 +634,7 @@ def _check_chunk(rows: list[FlightRow]) -> list[tuple[dict[str, Any] | None, lis
         group[1].append(index)
         group[2].append(resolved)
     for aircraft, indices, resolved_rows in by_aircraft.values():
-        for index, result in zip(indices, check_many(aircraft, resolved_rows, samples=False)):
+        for index, result in zip(indices, check_many(aircraft, resolved_rows, samples=False), strict=True):
             out[index] = (result.to_dict(), [])
     return out
 
@@ -727,7 +727,7 @@ def check_flights(
             ids: list[int | None] = [None] * len(chunk)
             if log is not None:
                 entries = []
-                for index, (row, (result, _)) in enumerate(zip(chunk, results)):
+                for index, (row, (result, _)) in enumerate(zip(chunk, results, strict=True)):
                     if result is None or row.loading is None or row.registration is None:
                         continue
                     aircraft = fleet.aircraft(row.registration)
@@ -738,9 +738,9 @@ def check_flights(
                         "registration": row.registration, "reference": row.reference, "pilot": row.pilot,
                         "source": f"{row.source}:{','.join(map(str, row.lines or (row.line,)))}", "version": version,
                     }))
-                for (index, _), record_id in zip(entries, log.add_many([e for _, e in entries])):
+                for (index, _), record_id in zip(entries, log.add_many([e for _, e in entries]), strict=True):
                     ids[index] = record_id
-            for row, (result, problems), record_id in zip(chunk, results, ids):
+            for row, (result, problems), record_id in zip(chunk, results, ids, strict=True):
                 yield Flight(row, result, problems, record_id)
     finally:
         _FLEET = None

@@ -374,7 +374,7 @@ def _formula_cg(readings: Readings, points: list[WeighPoint]) -> float | None:
     if geometry is None or any(p.wheel is None for p in readings.point):
         return None
     total = sum(p.net for p in points)
-    other = sum(p.net for p, raw in zip(points, readings.point) if raw.wheel != "main")
+    other = sum(p.net for p, raw in zip(points, readings.point, strict=True) if raw.wheel != "main")
     d, length = geometry.main_distance, geometry.wheelbase
     if geometry.gear == "nosewheel":
         return d - other * length / total if geometry.datum == "forward" else -(d + other * length / total)

@@ -14,7 +14,7 @@ from __future__ import annotations
 
 from collections.abc import Sequence
 from dataclasses import dataclass
-from itertools import combinations
+from itertools import combinations, pairwise
 from typing import TYPE_CHECKING, Any
 
 from rich.cells import cell_len
@@ -149,7 +149,7 @@ def fitted_tables(
             widths[k] += grow
             spare -= grow
         table = Table(title=title if number == 0 else f"{title} (continued)", title_justify="left")
-        for j, w in zip(block, widths):
+        for j, w in zip(block, widths, strict=True):
             table.add_column(columns[j].header, justify="right" if columns[j].numeric else "left", width=w,
                              overflow="fold", no_wrap=False)
         for r, row in enumerate(rows):
@@ -179,7 +179,7 @@ def _blocks(narrowest: Sequence[int], keys: list[int], others: list[int], width:
         best: tuple[int, list[list[int]]] | None = None
         for cuts in combinations(range(1, len(others)), count - 1):
             edges = (0, *cuts, len(others))
-            parts = [others[a:b] for a, b in zip(edges, edges[1:])]
+            parts = [others[a:b] for a, b in pairwise(edges)]
             widest = max(outer(part) for part in parts)
             if widest <= width and (best is None or widest < best[0]):
                 best = (widest, [keys + part for part in parts])
