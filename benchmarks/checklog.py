@@ -1,13 +1,13 @@
-"""`loadcheck log list` of many records, and the same listing by the code before issue 18, side by side.
+"""`loadcheck log list` of many records: wall and CPU time of the listing, against an older commit's side by side.
 
 Run on demand:  python benchmarks/checklog.py [--n 100000] [--old 5bdf416] [--repeat 3]
 
 A fresh check log of N records is written (each carries the full result of a real
 check of a sample loading, as a fleet check records it). Then, alternating, each as a
 fresh interpreter (start-up included): ``log list`` as it is now, and, where ``--old``
-is given, the listing of the old code (extracted with ``git archive`` under another name; a
-commit before issue 21 names the command group ``OLD_GROUP``),
-which read every stored inputs and result and laid out a rich table. Best wall and CPU time of
+is given, the listing of that commit's code (extracted with ``git archive`` under another
+name; its command group is ``OLD_GROUP``, the name before the group was ``log``), for
+5bdf416 one that read every stored inputs and result and laid out a rich table. Best wall and CPU time of
 ``--repeat`` runs; target: under 1 s at 100,000 records.
 """
 
@@ -25,7 +25,7 @@ from io import BytesIO
 from pathlib import Path
 
 ROOT = Path(__file__).resolve().parent.parent
-OLD_GROUP = "records"  # rename.py: keep (the command group's name before issue 21, for --old commits before it)
+OLD_GROUP = "records"  # rename.py: keep (the command group's name in the commits --old is meant for)
 LIST = ("import sys; sys.argv = ['loadcheck', '{group}', 'list', '--db', sys.argv[1]]\n"
         "from {package}.cli import main\n"
         "try:\n    main()\nexcept SystemExit as stop:\n    assert not stop.code, stop.code\n")
