@@ -317,7 +317,7 @@ class CheckLog:
 def log_check(log: CheckLog, inputs: Any, result: Any, *, source: str, version: str, pilot: str | None = None) -> int:
     """Record one check: the loading as given (file and options or form merged) and the full result.
 
-    The one way a check is recorded, for every front end (``check --record``, the web desk):
+    The one way a check is recorded, for every front end (``check --log``, ``fleet check``, the web desk):
     a single loading with its :class:`~loadcheck.results.CheckResult`, or a trip of several
     legs with its :class:`~loadcheck.results.TripResult` (one record: the trip's inputs, every
     leg in them, and the trip's result; its verdict is the trip's).

@@ -281,6 +281,9 @@ def fuel_to_add(
         A leg that is not a stop of this trip.
     """
     resolved = _resolved_for_plan(aircraft, trip, category, leg)
+    if len(resolved.legs) < 2:
+        raise InputError(Problem("leg", "the loading has one leg, so no stop: a trip gives the legs after a stop "
+                                 "as [[leg]] tables", value=leg, expected="a loading with [[leg]] tables"))
     if not 2 <= leg <= len(resolved.legs):
         raise InputError(Problem("leg", f"the trip has {len(resolved.legs)} legs: a stop comes before legs 2 to "
                                  f"{len(resolved.legs)}", value=leg, expected=f"2 to {len(resolved.legs)}"))

@@ -389,3 +389,11 @@ def test_meto_power_under_its_old_key_is_refused_with_the_new_key(runner, tmp_pa
     path.write_text(text, encoding="utf-8")
     result = runner.invoke(app, ["validate", str(path)])
     _assert_input_error(result, "max_continuous_power_hp", "meto_power_hp")  # rename.py: keep
+
+
+def test_plan_stop_of_a_loading_of_one_leg_was_an_internal_error(runner):
+    # regression (found typing the front end, issue 21): plan stop on a loading without [[leg]] tables passed
+    # no trip on and ended in "internal error (AttributeError ...)" instead of a field error
+    result = runner.invoke(app, ["plan", "stop", TRAINER, WITHIN, "--leg", "2"])
+    _assert_input_error(result, "leg", "one leg")
+    assert "internal error" not in result.output

@@ -23,6 +23,8 @@ from ..errors import InputError, LoadcheckError, Problem
 if TYPE_CHECKING:  # rich loads only when something is printed through it (not for --json)
     from rich.console import Console
 
+    from ..files import CheckInputs
+
 __all__ = [
     "EXIT_INPUT", "EXIT_LIMIT", "EXIT_OK", "AircraftArg", "CategoryOpt", "DbOpt", "FuelOpt", "JsonOpt", "LoadOpt", "LoadingArg",
     "OrderOpt", "RateOpt", "ReserveOpt", "TaxiOpt", "TripOpt", "TripTimeOpt", "app", "input_errors",
@@ -92,7 +94,7 @@ def _renamed_option(command: Any, args: list[str]) -> str | None:
 class _Group(TyperGroup):
     """The command group: refuses an option that takes one value given twice (any command)."""
 
-    def resolve_command(self, ctx: Any, args: list[str]) -> Any:
+    def resolve_command(self, ctx: Any, args: list[str]) -> Any:  # click's own types, vendored inside typer
         name, command, rest = super().resolve_command(ctx, args)
         target, remaining = command, list(rest)
         while isinstance(target, TyperGroup) and remaining and not remaining[0].startswith("-"):
@@ -121,6 +123,7 @@ app = typer.Typer(
 )
 
 F = TypeVar("F", bound=Callable[..., Any])
+T = TypeVar("T")
 
 
 def _console(stderr: bool = False) -> Console:
@@ -131,6 +134,8 @@ def _console(stderr: bool = False) -> Console:
     ``NO_COLOR`` set (https://no-color.org) no escape codes at all are written, styles included.
     """
     from rich.console import Console
+
+    from ..files import CheckInputs
 
     no_color = bool(os.environ.get("NO_COLOR"))
     return Console(stderr=stderr, highlight=False, color_system=None if no_color else "auto", no_color=no_color)
@@ -221,7 +226,7 @@ def _inputs(
     aircraft: Path, loading: Path | None, load: list[str], fuel: list[str], taxi: str | None, trip: str | None,
     trip_time: str | None, rate: str | None, order: str | None, reserve: str | None, category: str | None,
     *, fuel_to_plan: bool = False, legs: dict[int, Any] | None = None, allow_trip: bool = False,
-) -> Any:
+) -> CheckInputs:
     """Read the files and lay the options over them (loadcheck.files.load_check_inputs).
 
     ``fuel_to_plan``: the answer chooses the fuel, so the fuel given need not cover taxi and
@@ -246,7 +251,7 @@ def _inputs(
 
 
 
-def _need(value: Any, option: str) -> Any:
+def _need(value: T | None, option: str) -> T:
     if value is None:
         raise InputError(Problem(option, "this option is required here"))
     return value

@@ -35,7 +35,9 @@ from .common import (
 )
 
 if TYPE_CHECKING:
-    from ..results import ConditionName
+    from ..files import CheckInputs
+    from ..loading import ResolvedTrip
+    from ..results import CheckResult, ConditionName, TripResult
 
 LegLoadOpt = Annotated[list[str], typer.Option(
     "--leg-load", metavar="LEG:STATION=WEIGHT", help="From leg 2 on: new weight at the stop before that leg (0: off); repeat.")]
@@ -109,8 +111,8 @@ def check(
     record = _log_path(to_log, db)
     inputs = _inputs(aircraft, loading, load, fuel, taxi, trip, trip_time, rate, order, reserve, category,
                      legs=_legs(leg_load, leg_fuel, leg_burn), allow_trip=True)
-    if inputs.is_trip:
-        _check_trip(inputs, json_out, chart, sheet, plot, record)
+    if inputs.is_trip and inputs.trip is not None:
+        _check_trip(inputs, inputs.trip, json_out, chart, sheet, plot, record)
     result = check_loading(inputs.aircraft, inputs.loading)
     if record is not None:
         _record(record, inputs, result)
@@ -131,11 +133,11 @@ def check(
     raise typer.Exit(EXIT_OK if result.ok else EXIT_LIMIT)
 
 
-def _check_trip(inputs: Any, json_out: bool, chart: Path | None, sheet: Path | None, plot: bool, record: Path | None) -> None:
+def _check_trip(inputs: CheckInputs, trip: ResolvedTrip, json_out: bool, chart: Path | None, sheet: Path | None, plot: bool, record: Path | None) -> None:
     """Check every leg of a trip, render it, and exit 1 when any leg is out of limits."""
     from ..trip import check_trip
 
-    result = check_trip(inputs.aircraft, inputs.trip)
+    result = check_trip(inputs.aircraft, trip)
     if record is not None:
         _record(record, inputs, result)
     if chart is not None or sheet is not None:
@@ -181,7 +183,7 @@ def _log_path(to_log: bool, db: Path | None) -> Path | None:
     return db or default_path()
 
 
-def _record(path: Path, inputs: Any, result: Any) -> None:
+def _record(path: Path, inputs: CheckInputs, result: CheckResult | TripResult) -> None:
     """Record one check (of a single loading or of a whole trip, as one record): the loading as
     given (file and options merged) and the full result."""
     from ..checklog import CheckLog, log_check
@@ -191,7 +193,7 @@ def _record(path: Path, inputs: Any, result: Any) -> None:
     _console(stderr=True).print(f"recorded as {record_id} in the check log {path}", markup=False)
 
 
-def _write_pictures(inputs: Any, result: Any, chart: Path | None, sheet: Path | None) -> None:
+def _write_pictures(inputs: CheckInputs, result: CheckResult, chart: Path | None, sheet: Path | None) -> None:
     """Write the chart and/or the load sheet; report each file written on stderr."""
     from ..files import write_atomic
     from ..render.chart import check_figure, figure_svg, save_figure
@@ -353,7 +355,7 @@ def plan_fuel(
 
     inputs = _inputs(aircraft, loading, load, fuel, taxi, trip, trip_time, rate, order, reserve, category,
                      fuel_to_plan=True, legs=_legs(leg_load, leg_fuel, leg_burn), allow_trip=True)
-    if inputs.is_trip:
+    if inputs.is_trip and inputs.trip is not None:
         from ..trip import trip_most_fuel
 
         _answer(trip_most_fuel(inputs.aircraft, inputs.trip, fill=_fill(fill)), json_out)
@@ -381,7 +383,8 @@ def plan_stop(
 
     inputs = _inputs(aircraft, loading, load, fuel, taxi, trip, trip_time, rate, order, reserve, category,
                      legs=_legs(leg_load, leg_fuel, leg_burn), allow_trip=True)
-    trip_data = inputs.trip
+    # a loading of one leg (no trip resolved) goes as given: fuel_to_add refuses it, naming its legs
+    trip_data = inputs.trip if inputs.trip is not None else _need(inputs.given, "LOADING")
     _answer(fuel_to_add(inputs.aircraft, trip_data, _need(leg, "--leg"), fill=_fill(fill)), json_out)
 
 
