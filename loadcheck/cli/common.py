@@ -135,8 +135,6 @@ def _console(stderr: bool = False) -> Console:
     """
     from rich.console import Console
 
-    from ..files import CheckInputs
-
     no_color = bool(os.environ.get("NO_COLOR"))
     return Console(stderr=stderr, highlight=False, color_system=None if no_color else "auto", no_color=no_color)
 

@@ -133,7 +133,8 @@ def check(
     raise typer.Exit(EXIT_OK if result.ok else EXIT_LIMIT)
 
 
-def _check_trip(inputs: CheckInputs, trip: ResolvedTrip, json_out: bool, chart: Path | None, sheet: Path | None, plot: bool, record: Path | None) -> None:
+def _check_trip(inputs: CheckInputs, trip: ResolvedTrip, json_out: bool, chart: Path | None, sheet: Path | None, plot: bool,
+                record: Path | None) -> None:
     """Check every leg of a trip, render it, and exit 1 when any leg is out of limits."""
     from ..trip import check_trip
 
