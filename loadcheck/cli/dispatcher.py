@@ -182,11 +182,11 @@ def log_list(db: DbOpt = None, since: SinceOpt = None, until: UntilOpt = None, r
         --since 2026-11-01
     """
     from ..caution import PILOT_CAUTION
-    from ..render.checklog import render_record_list
+    from ..render.checklog import render_check_log
 
     with _log(db) as log:
         records = list(log.listing(since=_date(since, "--since"), until=_date(until, "--until"), registration=registration))
-    render_record_list(log.path, records, PILOT_CAUTION, _console())
+    render_check_log(log.path, records, PILOT_CAUTION, _console())
 
 
 @log_app.command("show", short_help="One record: its inputs and result.")

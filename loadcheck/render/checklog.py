@@ -11,10 +11,10 @@ from rich.table import Table
 from .listing import plain_columns, use_plain
 from .terminal import caution_text
 
-__all__ = ["render_current_verification", "render_record_list"]
+__all__ = ["render_current_verification", "render_check_log"]
 
 
-def render_record_list(path: Any, records: Iterable[tuple[Any, ...]], caution: str, console: Console) -> None:
+def render_check_log(path: Any, records: Iterable[tuple[Any, ...]], caution: str, console: Console) -> None:
     """The recorded checks, one line each (id, time, registration, reference, pilot, verdict,
     data), then the caution. A trip is one record: its verdict is the whole trip's, with its
     legs counted ("OUT OF LIMITS (2 legs)").
