@@ -397,3 +397,14 @@ def test_plan_stop_of_a_loading_of_one_leg_was_an_internal_error(runner):
     result = runner.invoke(app, ["plan", "stop", TRAINER, WITHIN, "--leg", "2"])
     _assert_input_error(result, "leg", "one leg")
     assert "internal error" not in result.output
+
+
+def test_unknown_export_format_is_an_input_error_naming_the_field():
+    # issue 21 (smaller): export_text raised a bare ValueError, outside the error hierarchy the front ends turn into exit 2
+    from loadcheck.checklog import export_text
+    from loadcheck.errors import InputError
+
+    with pytest.raises(InputError) as raised:
+        export_text([], "xml")
+    (problem,) = raised.value.problems
+    assert problem.field == "format" and problem.value == "xml" and "csv or jsonl" in (problem.expected or "")
