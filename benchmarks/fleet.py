@@ -11,7 +11,7 @@ shared machine whatever the other engineers run at the same time:
 - the floor: read the CSV with the csv module, look each row's cells up as numbers (a
   tank level by its name), evaluate each aircraft's rows with the batch engine in chunks,
   write one JSON line per row (verdict, first finding, takeoff and landing weight and CG);
-- ``fleet check --json --no-record``, the same with recording, and with the table;
+- ``fleet check --json --no-log``, the same with recording (``--db``), and with the table;
   target: at most 2x the floor (3x with recording);
 - peak memory (largest resident set of the process and its workers); target: under
   300 MiB at 100,000 rows and flat from 100,000 to 1,000,000.
@@ -123,11 +123,11 @@ def main() -> None:
                 base += ["--workers", str(args.workers)]
             cases = {
                 "floor (CSV -> engine -> JSON Lines)": [sys.executable, "-c", FLOOR, fleet, day],
-                "fleet check --json --no-record": [*base, "--json", "--no-record"],
-                "fleet check --json, recording": [*base, "--json", "--record", str(Path(folder) / f"r{n}.sqlite3")],
+                "fleet check --json --no-log": [*base, "--json", "--no-log"],
+                "fleet check --json, recording": [*base, "--json", "--db", str(Path(folder) / f"r{n}.sqlite3")],
             }
             if args.table:
-                cases["fleet check (table) --no-record"] = [*base, "--no-record"]
+                cases["fleet check (table) --no-log"] = [*base, "--no-log"]
             best = {name: (float("inf"), 0.0) for name in cases}
             for _ in range(args.repeat):
                 for name, command in cases.items():

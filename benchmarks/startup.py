@@ -3,8 +3,8 @@
 Run on demand:  python benchmarks/startup.py [--runs 15] [--old 42b09d9]
 
 Both are timed in the same run, as fresh interpreters, alternating, and the medians of
-wall and CPU time (every thread, so a spinning BLAS pool shows) are compared. Target
-(issue 18): each ratio at or below 1.3. "Bare import"
+wall and CPU time (every thread, so a spinning BLAS pool shows) are compared. Target:
+each ratio (the check's start-up over the bare import) at or below 1.3. "Bare import"
 means importing numpy, shapely, pydantic (with BaseModel, which is what using pydantic
 loads), typer and rich; a plain check --json must import neither matplotlib nor rich.
 """

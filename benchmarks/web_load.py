@@ -4,7 +4,7 @@ through ``POST /api/check`` (the default: 20 x 50). Every check must be recorded
 Run on demand:  python benchmarks/web_load.py [--clients 20] [--checks 50] [--write-docs]
 
 The desk runs as ``loadcheck serve`` in a child process on a free 127.0.0.1 port, over a copy of
-the sample fleet, a fresh record log and one account per client. Each check carries a front-seat
+the sample fleet, a fresh check log and one account per client. Each check carries a front-seat
 weight unique to its client and number, so the log can be matched request by request. With
 --write-docs the figures replace this benchmark's own section of docs/performance.md.
 """
@@ -71,7 +71,7 @@ def main() -> None:
     sys.path.insert(0, str(ROOT))
     from argon2 import PasswordHasher
 
-    from loadcheck.records import RecordLog
+    from loadcheck.checklog import CheckLog
     from loadcheck.web.users import UserStore
 
     with tempfile.TemporaryDirectory() as folder:
@@ -109,7 +109,7 @@ def main() -> None:
         finally:
             server.terminate()
             server.wait(10)
-        with RecordLog(work / "records.sqlite3") as log:
+        with CheckLog(work / "records.sqlite3") as log:
             records = list(log.find())
     expected = {(names[c], round(_front(c, n), 6)) for c in range(args.clients) for n in range(args.checks)}
     found = [(r.pilot, round(float(r.inputs["load"]["front"]), 6)) for r in records]
@@ -139,7 +139,7 @@ def _write_docs(lines: list[str], args: argparse.Namespace) -> None:
         SECTION, "",
         f"The desk (`loadcheck serve`, one uvicorn process) on loopback; {args.clients} pilots signed in at once, each "
         f"recording {args.checks} checks of the sample trainer through `POST /api/check` with `record: true`, one "
-        "request after the other. Each check's front-seat weight is unique, so the record log is matched request "
+        "request after the other. Each check's front-seat weight is unique, so the check log is matched request "
         f"by request afterwards. Measured on {machine}:", "",
         *[f"- {line}" for line in lines], "",
         "Each request looks at the fleet folder's files (read again when one changed, so a mechanic's new record "

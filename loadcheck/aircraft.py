@@ -13,6 +13,7 @@ import datetime as dt
 import hashlib
 import json
 from functools import cached_property
+from itertools import pairwise
 from typing import Annotated, Any, Literal
 
 import numpy as np
@@ -27,7 +28,7 @@ from pydantic import (
 )
 
 from .envelope import AXES, Axis, EnvelopeShape, polygon_problem
-from .errors import Problem, UnknownNameError
+from .errors import Problem, UnitError, UnknownNameError
 from .filemodel import FileModel
 from .fuel import FuelGrade, default_density, density_problem, grade_name
 from .units import ArmUnit, MassUnit, VolumeUnit, canonical_unit, convert, parse_quantity, unit_kind
@@ -98,7 +99,7 @@ def _unit_name(value: Any) -> Any:
     if isinstance(value, str):
         try:
             return canonical_unit(value)
-        except ValueError:
+        except UnitError:
             return value  # let the Literal report the valid choices
     return value
 
@@ -280,7 +281,7 @@ class Tank(_Model):
             if len(table) < 2:
                 raise ValueError("arm_table needs at least two points")
             quantities = [q for q, _ in table]
-            if any(b <= a for a, b in zip(quantities, quantities[1:])):
+            if any(b <= a for a, b in pairwise(quantities)):
                 raise ValueError("arm_table quantities must increase strictly from point to point")
             if quantities[0] < 0 or quantities[-1] > self.usable * (1 + 1e-12):
                 raise ValueError(f"arm_table quantities must lie within 0 and the usable capacity ({self.usable})")
@@ -295,7 +296,7 @@ class Tank(_Model):
             assert self.arm is not None
             return self.arm if np.ndim(quantity) == 0 else np.full(np.shape(quantity), self.arm)
         table = self.arm_table
-        return np.interp(quantity, [q for q, _ in table], [a for _, a in table])  # type: ignore[no-any-return]
+        return np.interp(quantity, [q for q, _ in table], [a for _, a in table])
 
     def arm_knots(self) -> list[float]:
         """Quantities at which the arm's slope may change [fuel volume unit]."""
@@ -384,7 +385,7 @@ class Aircraft(_Model):
     standard_occupant_weight: Mass | None = Field(
         None, gt=0, description="weight per occupant for the extreme-loading checks [mass unit]"
     )
-    max_continuous_power_hp: float | None = Field(
+    meto_power_hp: float | None = Field(
         None, gt=0, description="maximum except takeoff power, for the minimum fuel for balance [hp]"
     )
 
@@ -436,12 +437,12 @@ class Aircraft(_Model):
     # -- look-ups -------------------------------------------------------------------
 
     @cached_property
-    def stations(self) -> dict[str, Station]:
+    def station_by_id(self) -> dict[str, Station]:
         """Stations by id."""
         return {s.id: s for s in self.station}
 
     @cached_property
-    def tanks(self) -> dict[str, Tank]:
+    def tank_by_id(self) -> dict[str, Tank]:
         """Tanks by id."""
         return {t.id: t for t in self.tank}
 

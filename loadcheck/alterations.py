@@ -25,7 +25,7 @@ from .errors import InputError, Problem, UnknownNameError
 from .filemodel import FileModel
 from .results import Result
 from .units import convert
-from .weighing import Record, Refusal, record_checks
+from .weighing import EmptyWeightRecord, Refusal, record_checks
 
 __all__ = ["Change", "Changes", "ChangeLine", "AlterResult", "alter", "negligible_weight_lb", "Negligible"]
 
@@ -112,8 +112,8 @@ class AlterResult(Result):
     aircraft: str
     registration: str | None
     lines: list[ChangeLine]
-    previous: Record
-    new: Record
+    previous: EmptyWeightRecord
+    new: EmptyWeightRecord
     change_weight: float
     change_arm: float
     change_useful_load: float
@@ -223,8 +223,8 @@ def alter(aircraft: Aircraft, changes: Changes) -> AlterResult:
         raise UnknownNameError(problems)
     if weight <= 0:
         raise InputError(Problem("change", "the changes leave no empty weight"))
-    previous = Record(weight=empty.weight, arm=empty.arm, moment=empty.moment, lateral_arm=empty.lateral_arm)
-    new = Record(weight=weight, arm=moment / weight, moment=moment,
+    previous = EmptyWeightRecord(weight=empty.weight, arm=empty.arm, moment=empty.moment, lateral_arm=empty.lateral_arm)
+    new = EmptyWeightRecord(weight=weight, arm=moment / weight, moment=moment,
                  lateral_arm=lateral / weight if empty.lateral_arm is not None else None)
     useful = aircraft.limits.max_takeoff_weight - weight
     warnings, refusals = record_checks(aircraft, new)

@@ -186,8 +186,8 @@ def _case(aircraft: Aircraft, category: str, side: Literal["forward", "rearward"
             notes.append(f"{tank.name}: full ({fmt(tank.usable, units.fuel_volume)}), the tank lies {beyond} limit")
     if partial:
         if min_fuel is None:
-            raise InputError(Problem("max_continuous_power_hp", "the minimum fuel for balance needs the engine's "
-                                     "maximum-except-takeoff power: give max_continuous_power_hp in the aircraft file"))
+            raise InputError(Problem("meto_power_hp", "the minimum fuel for balance needs the engine's "
+                                     "maximum-except-takeoff power: give meto_power_hp in the aircraft file"))
         capacity = sum(t.usable for t in partial)
         for tank in partial:
             fuel[tank.id] = min(tank.usable, min_fuel * tank.usable / capacity)
@@ -232,7 +232,7 @@ def extremes(aircraft: Aircraft, *, category: str | None = None, occupant_weight
     """
     chosen = aircraft.category(category)
     occupant = standard_occupant(aircraft, occupant_weight)
-    hp = meto_hp if meto_hp is not None else aircraft.max_continuous_power_hp
+    hp = meto_hp if meto_hp is not None else aircraft.meto_power_hp
     min_fuel = minimum_fuel(aircraft, hp) if hp is not None else None
     forward_limit, rear_limit = _limits(aircraft, chosen)
     forward = _case(aircraft, chosen, "forward", forward_limit, occupant, min_fuel)

@@ -31,6 +31,7 @@ from .loading import Loading, ResolvedLoading, ResolvedTrip, apply_overrides, re
 __all__ = [
     "MAX_FILE_BYTES",
     "MAX_NESTING",
+    "RENAMED_KEYS",
     "CheckInputs",
     "encoding_problem",
     "file_kind",
@@ -214,6 +215,12 @@ def _field_path(location: tuple[Any, ...]) -> str:
     return text
 
 
+RENAMED_KEYS = {
+    "max_continuous_power_hp": "meto_power_hp",  # rename.py: keep (issue 21: it is the maximum-except-takeoff power)
+}
+"""Keys of earlier file formats that now have another name: still refused as unknown, with the new name."""
+
+
 def problems_from_validation(error: ValidationError) -> list[Problem]:
     """Turn a pydantic ValidationError into problems with dotted field paths.
 
@@ -230,7 +237,9 @@ def problems_from_validation(error: ValidationError) -> list[Problem]:
         if kind == "missing":
             message = "this field is required"
         elif kind == "extra_forbidden":
-            message = "unknown field (misspelt?)"
+            loc = item.get("loc", ())
+            new = RENAMED_KEYS.get(str(loc[-1])) if loc else None
+            message = f"unknown field (renamed: write {new})" if new else "unknown field (misspelt?)"
         if (field, message) in seen:
             continue
         seen.add((field, message))
@@ -715,7 +724,7 @@ def write_new_record(
     path = Path(path)
     target = write_target(path)
     doc = tomlkit.parse(original.decode("utf-8"))
-    previous = _plain(dict(doc["empty"].unwrap()))  # type: ignore[union-attr]
+    previous = _plain(dict(doc["empty"].unwrap()))
     entry: dict[str, Any] = {
         "recorded": recorded or dt.datetime.now().astimezone().replace(microsecond=0),
         "reason": reason,

@@ -37,9 +37,9 @@ from .files import encoding_problem, file_kind, open_regular, parse_aircraft, pa
 from .loading import Loading, resolve_loading
 
 __all__ = [
-    "FleetEntry",
+    "AircraftFile",
     "Fleet",
-    "FleetRow",
+    "FlightRow",
     "Flight",
     "load_fleet",
     "read_loadings",
@@ -48,7 +48,7 @@ __all__ = [
     "MAX_CSV_BYTES",
     "TRIP_COLUMN",
     "LEG_COLUMN",
-    "FleetLine",
+    "AircraftSummary",
     "fleet_listing",
     "record_age_days",
     "default_workers",
@@ -72,7 +72,7 @@ _HEADER = re.compile(r"^\s*([^\[\]]+?)\s*(?:\[\s*([^\]]+?)\s*\])?\s*$")
 
 
 @dataclass(frozen=True)
-class FleetEntry:
+class AircraftFile:
     """One aircraft file of the fleet: its data, or why it cannot be used."""
 
     path: Path
@@ -86,7 +86,7 @@ class Fleet:
     """The aircraft of a folder, by registration."""
 
     folder: Path
-    entries: list[FleetEntry]
+    entries: list[AircraftFile]
 
     @cached_property
     def duplicates(self) -> dict[str, list[Path]]:
@@ -123,7 +123,7 @@ class Fleet:
         ids: set[str] = set()
         for entry in self.entries:
             if entry.aircraft is not None:
-                ids |= set(entry.aircraft.stations) | set(entry.aircraft.tanks)
+                ids |= set(entry.aircraft.station_by_id) | set(entry.aircraft.tank_by_id)
         return ids
 
 
@@ -146,7 +146,7 @@ def load_fleet(folder: str | Path) -> Fleet:
         try:
             data = read_toml(path)
         except LoadcheckError as error:
-            entries.append(FleetEntry(path, None, None, error.lines()))
+            entries.append(AircraftFile(path, None, None, error.lines()))
             continue
         if file_kind(data) != "aircraft":
             continue
@@ -154,17 +154,17 @@ def load_fleet(folder: str | Path) -> Fleet:
         try:
             aircraft = parse_aircraft(data, path)
         except LoadcheckError as error:
-            entries.append(FleetEntry(path, registration, None, error.lines()))
+            entries.append(AircraftFile(path, registration, None, error.lines()))
             continue
         problems = [] if registration else [f"{path}: no registration; the fleet cannot address this aircraft"]
-        entries.append(FleetEntry(path, registration, aircraft, problems))
+        entries.append(AircraftFile(path, registration, aircraft, problems))
     if not entries:
         raise FileFormatError("holds no aircraft file", file=folder)
     return Fleet(folder, entries)
 
 
 @dataclass(frozen=True)
-class FleetRow:
+class FlightRow:
     """One flight as read: where it came from and its loading, or why it cannot be used."""
 
     line: int
@@ -212,7 +212,7 @@ class _Counted(io.RawIOBase):
         super().close()
 
 
-def _csv_rows(path: Path, fleet: Fleet) -> tuple[Iterator[FleetRow], list[str]]:
+def _csv_rows(path: Path, fleet: Fleet) -> tuple[Iterator[FlightRow], list[str]]:
     """The header read at once (its problems raised or returned), the rows one at a time."""
     raw = open_regular(path, limit=MAX_CSV_BYTES)
     buffered = io.BufferedReader(_Counted(raw, MAX_CSV_BYTES, path), buffer_size=1 << 16)
@@ -301,7 +301,7 @@ def _read_header(path: Path, header: list[str], fleet: Fleet) -> tuple[list[tupl
 
 
 def _stream_rows(path: Path, text: io.TextIOWrapper, reader: Any, columns: list[tuple[str, str | None]], fleet: Fleet,
-                 unknown: set[str], scattered: dict[str, list[int]]) -> Iterator[FleetRow]:
+                 unknown: set[str], scattered: dict[str, list[int]]) -> Iterator[FlightRow]:
     count = 0
     pending: list[_RawRow] = []
     try:
@@ -379,7 +379,7 @@ def _trip_problems(rows: list[_RawRow], scattered: dict[str, list[int]]) -> list
     return problems
 
 
-def _joined(rows: list[_RawRow], scattered: dict[str, list[int]] | None = None) -> FleetRow:
+def _joined(rows: list[_RawRow], scattered: dict[str, list[int]] | None = None) -> FlightRow:
     """One flight from one row, or one trip from the consecutive rows of one trip id: the first
     row is the first leg; each later row is the next leg, its station cells the new weights,
     its tank cells the fuel put in at the stop, its burn cells the leg's own burn. A trip
@@ -410,7 +410,7 @@ def _joined(rows: list[_RawRow], scattered: dict[str, list[int]] | None = None) 
             loading = parse_loading(data, first.where)
         except LoadcheckError as error:
             problems += error.lines()
-    return FleetRow(first.line, first.source, first.registration, first.reference, first.pilot, loading, problems,
+    return FlightRow(first.line, first.source, first.registration, first.reference, first.pilot, loading, problems,
                     first.trip, tuple(row.line for row in rows) if first.trip is not None else ())
 
 
@@ -420,7 +420,7 @@ def _csv_cells(path: Path, line: int, columns: list[tuple[str, str | None]], rec
     problems: list[str] = []
     if len(record) != len(columns):
         problems.append(f"{where}: {len(record)} cells where the header has {len(columns)} columns")
-    cells = {name: (cell.strip(), unit) for (name, unit), cell in zip(columns, record)}
+    cells = {name: (cell.strip(), unit) for (name, unit), cell in zip(columns, record, strict=False)}  # a row of other length: said above
     registration = cells.get("registration", ("", None))[0] or None
     reference = cells.get("reference", ("", None))[0] or None
     pilot = cells.get("pilot", ("", None))[0] or None
@@ -457,13 +457,13 @@ def _csv_cells(path: Path, line: int, columns: list[tuple[str, str | None]], rec
         elif name in RESERVED_COLUMNS:
             data["burn"][name] = text
         elif aircraft is not None:
-            if name in aircraft.stations:
+            if name in aircraft.station_by_id:
                 data["load"][name] = text
-            elif name in aircraft.tanks:
+            elif name in aircraft.tank_by_id:
                 data["fuel"][name] = text
             else:
                 problems.append(f"{where}: column {name!r} is not a station or tank of {registration} "
-                                f"(its stations: {', '.join(aircraft.stations)}; tanks: {', '.join(aircraft.tanks)})")
+                                f"(its stations: {', '.join(aircraft.station_by_id)}; tanks: {', '.join(aircraft.tank_by_id)})")
     return _RawRow(where, line, str(path), registration, reference, pilot, trip, data, problems, leg)
 
 
@@ -475,7 +475,7 @@ def _bare_number(text: str) -> bool:
     return True
 
 
-def _folder_rows(folder: Path) -> Iterator[FleetRow]:
+def _folder_rows(folder: Path) -> Iterator[FlightRow]:
     count = 0
     for index, path in enumerate(sorted(folder.rglob("*.toml")), start=1):
         try:
@@ -484,17 +484,17 @@ def _folder_rows(folder: Path) -> Iterator[FleetRow]:
                 continue
             loading = parse_loading(data, path)
             registration, reference, pilot = loading.registration, loading.reference or path.stem, loading.pilot
-            row = FleetRow(index, str(path), registration, reference, pilot, loading,
+            row = FlightRow(index, str(path), registration, reference, pilot, loading,
                            [] if registration else [f"{path}: a fleet loading file names its aircraft by registration = ..."])
         except LoadcheckError as error:
-            row = FleetRow(index, str(path), None, path.stem, None, None, error.lines())
+            row = FlightRow(index, str(path), None, path.stem, None, None, error.lines())
         count += 1
         yield row
     if count == 0:
         raise FileFormatError("holds no loading file: there is nothing to check", file=folder)
 
 
-def read_loadings(source: str | Path, fleet: Fleet) -> tuple[Iterator[FleetRow], list[str]]:
+def read_loadings(source: str | Path, fleet: Fleet) -> tuple[Iterator[FlightRow], list[str]]:
     """Read a day of loadings: a CSV file, or a folder of loading files.
 
     The header is read at once; the rows come one at a time, as they are read (the
@@ -523,7 +523,7 @@ def read_loadings(source: str | Path, fleet: Fleet) -> tuple[Iterator[FleetRow],
 class Flight:
     """The outcome of one flight: the check's JSON form, or the reasons it could not be made."""
 
-    row: FleetRow
+    row: FlightRow
     result: dict[str, Any] | None
     problems: list[str]
     record_id: int | None = None
@@ -550,7 +550,7 @@ class Flight:
         """This flight with only what a one-line summary shows (verdict, units, each condition's
         weight and CG, each finding's code, severity and words; for a trip, those of each leg),
         for holding many flights at once."""
-        row = FleetRow(self.row.line, self.row.source, self.row.registration, self.row.reference, self.row.pilot, None,
+        row = FlightRow(self.row.line, self.row.source, self.row.registration, self.row.reference, self.row.pilot, None,
                        self.row.problems, self.row.trip, self.row.lines)
         result = None
         if self.result is not None:
@@ -605,7 +605,7 @@ def default_workers() -> int:
     return 1
 
 
-def _check_chunk(rows: list[FleetRow]) -> list[tuple[dict[str, Any] | None, list[str]]]:
+def _check_chunk(rows: list[FlightRow]) -> list[tuple[dict[str, Any] | None, list[str]]]:
     """Check a chunk of rows (the one place that decides how a row is checked).
 
     Each usable row is resolved against its aircraft; the rows of each aircraft are then
@@ -634,12 +634,12 @@ def _check_chunk(rows: list[FleetRow]) -> list[tuple[dict[str, Any] | None, list
         group[1].append(index)
         group[2].append(resolved)
     for aircraft, indices, resolved_rows in by_aircraft.values():
-        for index, result in zip(indices, check_many(aircraft, resolved_rows, samples=False)):
+        for index, result in zip(indices, check_many(aircraft, resolved_rows, samples=False), strict=True):
             out[index] = (result.to_dict(), [])
     return out
 
 
-def _row_problem(row: FleetRow, problem: Problem) -> str:
+def _row_problem(row: FlightRow, problem: Problem) -> str:
     """A problem of a row's loading, named by its row: for a trip of a CSV, the row of the leg
     the field belongs to (``leg[0]`` is leg 2), and the trip's rows where no leg is named."""
     match = re.match(r"leg\[(\d+)\]", problem.field or "")
@@ -665,13 +665,13 @@ def _end_with_parent(parent: int) -> None:
     threading.Thread(target=watch, name="loadcheck-parent-watch", daemon=True).start()
 
 
-def _chunks(rows: Iterable[FleetRow]) -> Iterator[list[FleetRow]]:
+def _chunks(rows: Iterable[FlightRow]) -> Iterator[list[FlightRow]]:
     iterator = iter(rows)
     while chunk := list(itertools.islice(iterator, CHUNK)):
         yield chunk
 
 
-def _checked(chunks: Iterator[list[FleetRow]], workers: int) -> Iterator[tuple[list[FleetRow], list[Any]]]:
+def _checked(chunks: Iterator[list[FlightRow]], workers: int) -> Iterator[tuple[list[FlightRow], list[Any]]]:
     """Each chunk with its outcomes, in order; at most ``workers * IN_FLIGHT`` chunks held.
 
     Worker processes (forked, where the platform can) start only once a second chunk
@@ -695,7 +695,7 @@ def _checked(chunks: Iterator[list[FleetRow]], workers: int) -> Iterator[tuple[l
     pool = ProcessPoolExecutor(max_workers=workers, mp_context=multiprocessing.get_context("fork"),
                                initializer=_end_with_parent, initargs=(os.getpid(),))
     try:
-        pending: deque[tuple[list[FleetRow], Any]] = deque()
+        pending: deque[tuple[list[FlightRow], Any]] = deque()
         for chunk in itertools.chain((first, second), chunks):
             pending.append((chunk, pool.submit(_check_chunk, chunk)))
             if len(pending) >= workers * IN_FLIGHT:
@@ -709,7 +709,7 @@ def _checked(chunks: Iterator[list[FleetRow]], workers: int) -> Iterator[tuple[l
 
 
 def check_flights(
-    fleet: Fleet, rows: Iterable[FleetRow], log: Any = None, version: str = "", workers: int = 1
+    fleet: Fleet, rows: Iterable[FlightRow], log: Any = None, version: str = "", workers: int = 1
 ) -> Iterator[Flight]:
     """Check every usable row, in order; record each check in ``log`` where one is given.
 
@@ -727,7 +727,7 @@ def check_flights(
             ids: list[int | None] = [None] * len(chunk)
             if log is not None:
                 entries = []
-                for index, (row, (result, _)) in enumerate(zip(chunk, results)):
+                for index, (row, (result, _)) in enumerate(zip(chunk, results, strict=True)):
                     if result is None or row.loading is None or row.registration is None:
                         continue
                     aircraft = fleet.aircraft(row.registration)
@@ -738,9 +738,9 @@ def check_flights(
                         "registration": row.registration, "reference": row.reference, "pilot": row.pilot,
                         "source": f"{row.source}:{','.join(map(str, row.lines or (row.line,)))}", "version": version,
                     }))
-                for (index, _), record_id in zip(entries, log.add_many([e for _, e in entries])):
+                for (index, _), record_id in zip(entries, log.add_many([e for _, e in entries]), strict=True):
                     ids[index] = record_id
-            for row, (result, problems), record_id in zip(chunk, results, ids):
+            for row, (result, problems), record_id in zip(chunk, results, ids, strict=True):
                 yield Flight(row, result, problems, record_id)
     finally:
         _FLEET = None
@@ -754,7 +754,7 @@ def record_age_days(aircraft: Aircraft, today: dt.date | None = None) -> int | N
 
 
 @dataclass(frozen=True)
-class FleetLine:
+class AircraftSummary:
     """One aircraft of a fleet listing: its figures (mass unit of its own file) and problems."""
 
     file: str
@@ -773,7 +773,7 @@ class FleetLine:
         return {k: getattr(self, k) for k in self.__dataclass_fields__}
 
 
-def fleet_listing(fleet: Fleet, max_age_days: int, today: dt.date | None = None) -> list[FleetLine]:
+def fleet_listing(fleet: Fleet, max_age_days: int, today: dt.date | None = None) -> list[AircraftSummary]:
     """The fleet, aircraft by aircraft, with every problem flagged."""
     duplicates = fleet.duplicates
     lines = []
@@ -788,7 +788,7 @@ def fleet_listing(fleet: Fleet, max_age_days: int, today: dt.date | None = None)
             flags.append("the empty-weight record is not dated")
         elif age is not None and age > max_age_days:
             flags.append(f"empty-weight record is {age} days old (more than {max_age_days})")
-        lines.append(FleetLine(
+        lines.append(AircraftSummary(
             file=str(entry.path), registration=entry.registration, name=a.name if a else None,
             empty_weight=a.empty.weight if a else None,
             record_date=a.empty.date.isoformat() if a and a.empty.date else None,

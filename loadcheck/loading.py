@@ -488,16 +488,16 @@ def resolve_loading(loading: Loading, aircraft: Aircraft, *, category: str | Non
 
     stations: dict[str, float] = {}
     for name, amount in loading.load.items():
-        if name not in aircraft.stations:
-            unknown.append(Problem(f"load.{name}", f"unknown station {name!r}", expected=_known(aircraft.stations)))
+        if name not in aircraft.station_by_id:
+            unknown.append(Problem(f"load.{name}", f"unknown station {name!r}", expected=_known(aircraft.station_by_id)))
             continue
         quantity = parse_quantity(amount)
         stations[name] = quantity.value if quantity.unit is None else convert(quantity.value, quantity.unit, units.mass)
 
     names: dict[str, str] = {}
     for name, person in loading.names.items():
-        if name not in aircraft.stations:
-            unknown.append(Problem(f"names.{name}", f"unknown station {name!r}", expected=_known(aircraft.stations)))
+        if name not in aircraft.station_by_id:
+            unknown.append(Problem(f"names.{name}", f"unknown station {name!r}", expected=_known(aircraft.station_by_id)))
         elif not stations.get(name, 0.0) > 0:  # a name without a weight: a person left out of the sums
             problems.append(Problem(f"names.{name}", f"{person!r} is named at {name!r}, which carries no weight",
                                     expected=f"a weight at load.{name}, or no name there"))
@@ -518,9 +518,9 @@ def resolve_loading(loading: Loading, aircraft: Aircraft, *, category: str | Non
     density = {t.id: loading.fuel_density or aircraft.density(t) for t in aircraft.tank}
     fuel: dict[str, float] = {t.id: 0.0 for t in aircraft.tank}
     for name, amount in loading.fuel.items():
-        tank = aircraft.tanks.get(name)
+        tank = aircraft.tank_by_id.get(name)
         if tank is None:
-            unknown.append(Problem(f"fuel.{name}", f"unknown tank {name!r}", expected=_known(aircraft.tanks)))
+            unknown.append(Problem(f"fuel.{name}", f"unknown tank {name!r}", expected=_known(aircraft.tank_by_id)))
             continue
         if isinstance(amount, str) and amount.strip().lower() == "full":
             fuel[name] = tank.usable
@@ -552,12 +552,12 @@ def resolve_loading(loading: Loading, aircraft: Aircraft, *, category: str | Non
 
     order: tuple[str, ...] | None = None
     if isinstance(loading.burn.order, list):
-        bad = [t for t in loading.burn.order if t not in aircraft.tanks]
+        bad = [t for t in loading.burn.order if t not in aircraft.tank_by_id]
         if bad:
-            unknown.append(Problem("burn.order", f"unknown tank(s) {', '.join(map(repr, bad))}", expected=_known(aircraft.tanks)))
+            unknown.append(Problem("burn.order", f"unknown tank(s) {', '.join(map(repr, bad))}", expected=_known(aircraft.tank_by_id)))
         else:
             order = tuple(loading.burn.order)
-            idle = [t for t in aircraft.tanks if t not in order and fuel[t] > 0]
+            idle = [t for t in aircraft.tank_by_id if t not in order and fuel[t] > 0]
             if idle:
                 notes.append(f"tank(s) {', '.join(idle)} not in the burn order: their fuel is not used in flight")
     if unknown:
@@ -768,9 +768,9 @@ def _stop_fuel(
     added: dict[str, float] = {}
     unknown: list[Problem] = []
     for name, amount in leg.add_fuel.items():
-        tank = aircraft.tanks.get(name)
+        tank = aircraft.tank_by_id.get(name)
         if tank is None:
-            unknown.append(Problem(f"{where}.add_fuel.{name}", f"unknown tank {name!r}", expected=_known(aircraft.tanks)))
+            unknown.append(Problem(f"{where}.add_fuel.{name}", f"unknown tank {name!r}", expected=_known(aircraft.tank_by_id)))
         elif isinstance(amount, str) and amount.strip().lower() == "full":
             to[name] = tank.usable
         elif isinstance(amount, str) and amount in tank.levels:

@@ -254,10 +254,10 @@ def safe_value(low: float, high: float, unit: str, direction: Literal["up", "dow
 def _fill_order(aircraft: Aircraft, loading: ResolvedLoading, fill: Sequence[str] | None) -> list[str] | None:
     """Tanks in the order they are filled; None fills every tank in proportion to its capacity."""
     if fill is not None:
-        unknown = [t for t in fill if t not in aircraft.tanks]
+        unknown = [t for t in fill if t not in aircraft.tank_by_id]
         if unknown:
             raise UnknownNameError(Problem("fill", f"unknown tank(s) {', '.join(unknown)}",
-                                           expected="one of " + ", ".join(aircraft.tanks)))
+                                           expected="one of " + ", ".join(aircraft.tank_by_id)))
         return list(fill)
     if loading.plan.order is None:
         return None
@@ -283,7 +283,7 @@ def _distribute(aircraft: Aircraft, base: LoadingArrays, fill: list[str] | None,
 
 
 def _fuel_capacity(aircraft: Aircraft, fill: list[str] | None) -> float:
-    tanks = aircraft.tank if fill is None else [aircraft.tanks[t] for t in fill]
+    tanks = aircraft.tank if fill is None else [aircraft.tank_by_id[t] for t in fill]
     return sum(t.usable for t in tanks)
 
 

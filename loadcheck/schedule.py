@@ -110,7 +110,7 @@ def _seat(aircraft: Aircraft, loading: ResolvedLoading, occupant: float, *, pilo
     counts: dict[str, int] = {}
     first = not pilot_aboard
     for station_id in seat_order(aircraft):
-        for _ in range(aircraft.stations[station_id].seats or 1):
+        for _ in range(aircraft.station_by_id[station_id].seats or 1):
             trial = _add(loading, station_id, occupant)
             if not first and not check_loading(aircraft, trial).ok:
                 return loading, counts
@@ -179,7 +179,7 @@ def loading_schedule(aircraft: Aircraft, *, category: str | None = None,
     occupant = standard_occupant(aircraft, occupant_weight)
     mass = aircraft.units.mass
     fixed = _minimum_stations(aircraft)
-    fixed_note = ([f"stations at their minimum weight: {', '.join(aircraft.stations[s].name for s in fixed)}"]
+    fixed_note = ([f"stations at their minimum weight: {', '.join(aircraft.station_by_id[s].name for s in fixed)}"]
                   if fixed else [])
     cases = []
 
@@ -193,7 +193,7 @@ def loading_schedule(aircraft: Aircraft, *, category: str | None = None,
     everyone = _placard(aircraft, chosen, fixed, {})
     counts = {}
     for station_id in seat_order(aircraft):
-        counts[station_id] = aircraft.stations[station_id].seats or 1
+        counts[station_id] = aircraft.station_by_id[station_id].seats or 1
         everyone = _add(everyone, station_id, counts[station_id] * occupant)
     notes = [f"every seat filled at {occupant:g} {mass}", *fixed_note]
     fuelled = _most_fuel(aircraft, everyone)

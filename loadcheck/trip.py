@@ -70,7 +70,7 @@ def _resolved_for_plan(aircraft: Aircraft, trip: Loading | ResolvedTrip, categor
     except LoadcheckError:
         if isinstance(trip, ResolvedTrip) or not 1 <= leg <= len(trip.leg) + 1:
             raise
-        full = dict.fromkeys(aircraft.tanks, "full")
+        full = dict.fromkeys(aircraft.tank_by_id, "full")
         if leg == 1:
             return resolve_trip(trip.model_copy(update={"fuel": full}), aircraft, category=category)
         legs = list(trip.leg)
@@ -160,7 +160,7 @@ def _first_limit(result: TripResult) -> str | None:
     finding = next((f for f in result.findings if f.severity == "limit"), None)
     if finding is None:
         return None
-    return f"{leg_name(finding.leg, finding.label)}: " + limit_words(finding)  # type: ignore[arg-type]
+    return f"{leg_name(finding.leg, finding.label)}: " + limit_words(finding)
 
 
 def _plan(
@@ -281,6 +281,9 @@ def fuel_to_add(
         A leg that is not a stop of this trip.
     """
     resolved = _resolved_for_plan(aircraft, trip, category, leg)
+    if len(resolved.legs) < 2:
+        raise InputError(Problem("leg", "the loading has one leg, so no stop: a trip gives the legs after a stop "
+                                 "as [[leg]] tables", value=leg, expected="a loading with [[leg]] tables"))
     if not 2 <= leg <= len(resolved.legs):
         raise InputError(Problem("leg", f"the trip has {len(resolved.legs)} legs: a stop comes before legs 2 to "
                                  f"{len(resolved.legs)}", value=leg, expected=f"2 to {len(resolved.legs)}"))
@@ -289,7 +292,7 @@ def fuel_to_add(
     on_board = landing_fuel(before)
     order = _fill_order(aircraft, resolved.legs[index], fill)
     room = sum(max(0.0, t.usable - on_board[t.id]) for t in (aircraft.tank if order is None else
-                                                              [aircraft.tanks[n] for n in order]))
+                                                              [aircraft.tank_by_id[n] for n in order]))
     ids = [t.id for t in aircraft.tank]
     earlier = all(check_loading(aircraft, resolved.legs[i], samples=False).ok for i in range(index))
     step = _GRID_STEP / _mean_density(aircraft, before)

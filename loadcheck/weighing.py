@@ -26,7 +26,7 @@ from .errors import InputError, Problem, UnknownNameError
 from .filemodel import FileModel
 from .results import Result
 
-__all__ = ["Readings", "WeighingPoint", "Geometry", "ReadingItem", "WeighResult", "WeighPoint", "Correction", "Record",
+__all__ = ["Readings", "WeighingPoint", "Geometry", "ReadingItem", "WeighResult", "WeighPoint", "Correction", "EmptyWeightRecord",
            "Refusal", "PLAUSIBLE_CHANGE", "weigh", "point_arm", "record_checks", "current_record_warnings"]
 
 PLAUSIBLE_CHANGE = 0.10
@@ -152,7 +152,7 @@ class Correction(Result):
 
 
 @dataclass(frozen=True, kw_only=True, slots=True)
-class Record(Result):
+class EmptyWeightRecord(Result):
     """An empty-weight state: weight [mass unit], arm [arm unit], moment, lateral arm."""
 
     weight: float
@@ -187,10 +187,10 @@ class WeighResult(Result):
     aircraft: str
     registration: str | None
     points: list[WeighPoint]
-    as_weighed: Record
+    as_weighed: EmptyWeightRecord
     corrections: list[Correction]
-    new: Record
-    previous: Record
+    new: EmptyWeightRecord
+    previous: EmptyWeightRecord
     change_weight: float
     change_arm: float
     useful_load: float
@@ -210,10 +210,8 @@ def _longitudinal_span(aircraft: Aircraft) -> tuple[float, float] | None:
     """Most forward and most rearward arm of all the aircraft's longitudinal envelopes [arm unit]."""
     spans = []
     for envelope in aircraft.envelope:
-        try:
+        if not envelope.shape.is_lateral:  # a lateral envelope does not limit the longitudinal CG
             spans.append(envelope.shape.arm_range())
-        except ValueError:
-            continue  # a lateral envelope does not limit the longitudinal CG
     if not spans:
         return None
     return min(s[0] for s in spans), max(s[1] for s in spans)
@@ -237,7 +235,7 @@ def current_record_warnings(aircraft: Aircraft) -> list[str]:
     return [warning] if warning else []
 
 
-def record_checks(aircraft: Aircraft, new: Record) -> tuple[list[str], list[Refusal]]:
+def record_checks(aircraft: Aircraft, new: EmptyWeightRecord) -> tuple[list[str], list[Refusal]]:
     """What a new empty-weight record must be checked for before it becomes current.
 
     Returns warnings (a CG outside the empty-weight CG range) and refusals: an empty
@@ -282,10 +280,10 @@ def record_checks(aircraft: Aircraft, new: Record) -> tuple[list[str], list[Refu
 
 def _item(aircraft: Aircraft, item: ReadingItem, where: str) -> tuple[float, float, float]:
     if item.tank is not None:
-        tank = aircraft.tanks.get(item.tank)
+        tank = aircraft.tank_by_id.get(item.tank)
         if tank is None:
             raise UnknownNameError(Problem(f"{where}.tank", f"unknown tank {item.tank!r}",
-                                           expected="one of " + ", ".join(aircraft.tanks)))
+                                           expected="one of " + ", ".join(aircraft.tank_by_id)))
         assert item.fuel is not None
         weight = item.fuel * aircraft.density(tank)
         arm = item.arm if item.arm is not None else tank.arm_at(item.fuel)
@@ -339,7 +337,7 @@ def weigh(aircraft: Aircraft, readings: Readings) -> WeighResult:
         raise InputError(Problem("point", "the net weights add up to nothing: check the readings and tares"))
     moment = sum(p.moment for p in points)
     lateral_moment = sum(p.net * (p.lateral_arm or 0.0) for p in points)
-    as_weighed = Record(weight=weight, arm=moment / weight, moment=moment,
+    as_weighed = EmptyWeightRecord(weight=weight, arm=moment / weight, moment=moment,
                         lateral_arm=lateral_moment / weight if lateral else None)
     warnings = [f"point {p.label!r} reads no weight after its tare" for p in points if p.net == 0]
 
@@ -354,9 +352,9 @@ def weigh(aircraft: Aircraft, readings: Readings) -> WeighResult:
             lateral_moment += sign * w * lat
     if weight <= 0:
         raise InputError(Problem("on_board", "taking off the items aboard leaves no weight: check the corrections"))
-    new = Record(weight=weight, arm=moment / weight, moment=moment,
+    new = EmptyWeightRecord(weight=weight, arm=moment / weight, moment=moment,
                  lateral_arm=lateral_moment / weight if lateral else empty.lateral_arm)
-    previous = Record(weight=empty.weight, arm=empty.arm, moment=empty.moment, lateral_arm=empty.lateral_arm)
+    previous = EmptyWeightRecord(weight=empty.weight, arm=empty.arm, moment=empty.moment, lateral_arm=empty.lateral_arm)
     record_warnings, refusals = record_checks(aircraft, new)
     useful = aircraft.limits.max_takeoff_weight - new.weight
     return WeighResult(
@@ -376,7 +374,7 @@ def _formula_cg(readings: Readings, points: list[WeighPoint]) -> float | None:
     if geometry is None or any(p.wheel is None for p in readings.point):
         return None
     total = sum(p.net for p in points)
-    other = sum(p.net for p, raw in zip(points, readings.point) if raw.wheel != "main")
+    other = sum(p.net for p, raw in zip(points, readings.point, strict=True) if raw.wheel != "main")
     d, length = geometry.main_distance, geometry.wheelbase
     if geometry.gear == "nosewheel":
         return d - other * length / total if geometry.datum == "forward" else -(d + other * length / total)

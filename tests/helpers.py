@@ -59,7 +59,7 @@ def ac_example_aircraft() -> Aircraft:
     return parse_aircraft({
         "name": "AC 43.13-1B chapter 10 example", "units": {"mass": "lb", "arm": "in", "fuel_volume": "usgal"},
         "empty": {"weight": 1169 + 17, "arm": (1169 * 10.6 - 17 * 49) / (1169 + 17)},
-        "limits": {"max_takeoff_weight": 2100}, "max_continuous_power_hp": 165,
+        "limits": {"max_takeoff_weight": 2100}, "meto_power_hp": 165,
         "station": [{"id": "front", "arm": 16, "kind": "seat", "seats": 2, "controls": True},
                     {"id": "rear", "arm": 48, "kind": "seat", "seats": 2},
                     {"id": "bag", "arm": 75.5, "kind": "baggage", "max_weight": 100}],

@@ -120,7 +120,7 @@ def test_bad_arm_tables(table, words):
 
 def test_arm_table_interpolates():
     aircraft = simple_aircraft(tank=[{"id": "main", "usable": 40, "fuel": "avgas", "arm_table": [[0, 44], [40, 48]]}])
-    tank = aircraft.tanks["main"]
+    tank = aircraft.tank_by_id["main"]
     assert tank.arm_at(0) == 44 and tank.arm_at(40) == 48 and tank.arm_at(10) == pytest.approx(45)
 
 
@@ -144,7 +144,7 @@ def test_fingerprint_changes_with_data(trainer):
 def test_a_plausible_tank_density_is_accepted_in_any_units(units, density):
     # avgas about 0.72 kg/L (ASTM D910 figure, from memory) written in each pair of units
     aircraft = simple_aircraft(units=units, tank=[{"id": "main", "arm": 45.0, "usable": 40.0, "density": density}])
-    assert aircraft.density(aircraft.tanks["main"]) == density
+    assert aircraft.density(aircraft.tank_by_id["main"]) == density
 
 
 @pytest.mark.parametrize("density", [0.72, 720, 1.0, 9.0])

@@ -55,7 +55,7 @@ def _aircraft_and_loading(seed: int):
         cut = min(ys) + 0.8 * (max(ys) - min(ys))
         data["envelope"].append({**normal, "category": "utility",
                                  "points": [[p[0], min(p[1], cut)] for p in normal["points"]]})
-    data["max_continuous_power_hp"] = 150
+    data["meto_power_hp"] = 150
     try:
         aircraft = parse_aircraft(data)
     except LoadcheckError:
@@ -126,7 +126,7 @@ def test_least_amounts_leave_and_shift_are_checked_and_minimal(seed):
     now = sum(loading.fuel.values())
     assert all(0.0 <= i.low <= i.high <= now + 1e-9 for i in leave.intervals)
     source, target = rng.sample([s.id for s in aircraft.station], 2)
-    if aircraft.stations[source].arm != aircraft.stations[target].arm:
+    if aircraft.station_by_id[source].arm != aircraft.station_by_id[target].arm:
         shift = P.weight_shift(aircraft, loading, source, target)
         _carries_its_check(shift)
         to_arm = P.weight_shift(aircraft, loading, source, target, target_arm=rng.uniform(20, 100))
@@ -136,9 +136,9 @@ def test_least_amounts_leave_and_shift_are_checked_and_minimal(seed):
 def _holds_over(aircraft, case_check, category: str, down_to: float) -> bool:
     """The case's loading, started at several fuel states between its stated fuel and
     ``down_to``, each flown down to ``down_to``: all within limits."""
-    stations = {i.id: i.weight for i in case_check.items if i.id in aircraft.stations}
+    stations = {i.id: i.weight for i in case_check.items if i.id in aircraft.station_by_id}
     fuel = {t.id: 0.0 for t in aircraft.tank}
-    fuel.update({i.id: i.fuel_volume for i in case_check.items if i.id in aircraft.tanks})
+    fuel.update({i.id: i.fuel_volume for i in case_check.items if i.id in aircraft.tank_by_id})
     total = sum(fuel.values())
     density = {t.id: aircraft.density(t) for t in aircraft.tank}
     for share in np.linspace(1.0, down_to / total if total else 1.0, 6):

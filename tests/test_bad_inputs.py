@@ -33,7 +33,7 @@ def test_the_corpus_is_large_enough():
 
 @pytest.mark.parametrize("case", CASES, ids=[c["file"] for c in CASES])
 def test_bad_input(runner, case, tmp_path, monkeypatch):
-    monkeypatch.setenv("LOADCHECK_RECORDS", str(tmp_path / "records.sqlite3"))
+    monkeypatch.setenv("LOADCHECK_LOG", str(tmp_path / "records.sqlite3"))
     bad = tmp_path / case["file"]
     shutil.copy(HERE / case["file"], bad)
     shutil.copy(sample("trainer4/aircraft.toml"), tmp_path / "trainer.toml")
@@ -85,7 +85,7 @@ def test_a_100_megabyte_file(runner, tmp_path):
     result = runner.invoke(app, ["check", str(big)])
     assert result.exit_code == 2 and "too large" in result.output and "big.toml" in result.output, result.output
     csv_file = _sparse(tmp_path / "big.csv", "registration,front\nDEMO-4T,170\n", size)
-    result = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(csv_file), "--no-record"])
+    result = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(csv_file), "--no-log"])
     assert result.exit_code == 2 and "too large" in result.output and "big.csv" in result.output, result.output
 
 

@@ -299,3 +299,120 @@ def test_no_command_help_shows_a_python_type_or_braces(runner):
     check = runner.invoke(app, ["check", "--help"], env={"COLUMNS": "100"}).output
     assert "Usage: loadcheck check [OPTIONS] AIRCRAFT [LOADING]" in check
     assert "-r, --role ROLE" in runner.invoke(app, ["users", "add", "--help"], env={"COLUMNS": "100"}).output
+
+
+# -- the check log's options: --db FILE wherever the log is read or written, --log/--no-log where a command may
+# record (issue 21: one convention instead of check --record, fleet check --no-record and records --db)
+
+WITHIN = str(sample("trainer4/within.toml"))
+DAY = str(sample("fleet_day.csv"))
+SAMPLES_DIR = str(sample("."))
+
+
+def _logged(db: Path) -> int:
+    from loadcheck.checklog import CheckLog
+
+    with CheckLog(db) as log:
+        return len(list(log.listing()))
+
+
+def test_check_records_in_the_check_log_only_with_log(runner, tmp_path, monkeypatch):
+    monkeypatch.delenv("LOADCHECK_LOG", raising=False)
+    db = tmp_path / "log.sqlite3"
+    assert runner.invoke(app, ["check", TRAINER, WITHIN]).exit_code == 0
+    assert not db.exists()
+    logged = runner.invoke(app, ["check", TRAINER, WITHIN, "--log", "--db", str(db)])
+    assert logged.exit_code == 0, logged.output
+    assert _logged(db) == 1
+    listed = runner.invoke(app, ["log", "list", "--db", str(db)])
+    assert listed.exit_code == 0 and "DEMO-4T" in listed.output
+
+
+def test_check_db_without_log_is_refused_not_ignored(runner, tmp_path):
+    db = tmp_path / "log.sqlite3"
+    result = runner.invoke(app, ["check", TRAINER, WITHIN, "--db", str(db)])
+    _assert_input_error(result, "--db", "--log")
+    assert not db.exists()
+
+
+def test_check_log_without_db_uses_loadcheck_log(runner, tmp_path, monkeypatch):
+    db = tmp_path / "env.sqlite3"
+    monkeypatch.setenv("LOADCHECK_LOG", str(db))
+    assert runner.invoke(app, ["check", TRAINER, WITHIN, "--log"]).exit_code == 0
+    assert _logged(db) == 1
+
+
+def test_fleet_check_logs_by_default_and_not_with_no_log(runner, tmp_path):
+    db = tmp_path / "day.sqlite3"
+    logged = runner.invoke(app, ["fleet", "check", SAMPLES_DIR, DAY, "--db", str(db)])
+    assert logged.exit_code == 2  # the sample day holds malformed rows on purpose (docs/fleet.md)
+    said = re.search(r"(\d+) check\(s\) recorded in the check log", logged.output)
+    assert said and _logged(db) == int(said.group(1)) > 0, logged.output
+    unlogged = tmp_path / "none.sqlite3"
+    refused = runner.invoke(app, ["fleet", "check", SAMPLES_DIR, DAY, "--no-log", "--db", str(unlogged)])
+    _assert_input_error(refused, "--db", "--no-log")
+    assert not unlogged.exists()
+
+
+def test_every_command_of_the_check_log_takes_db(runner):
+    for args in (["check"], ["fleet", "check"], ["log", "list"], ["log", "show"], ["log", "export"], ["log", "verify"],
+                 ["serve"]):
+        shown = runner.invoke(app, [*args, "--help"], env={"COLUMNS": "200"})
+        assert shown.exit_code == 0 and "--db" in shown.output, args
+    for args in (["check"], ["fleet", "check"]):
+        shown = runner.invoke(app, [*args, "--help"], env={"COLUMNS": "200"}).output
+        assert "--log" in shown and "--no-log" in shown, args
+
+
+def test_old_log_options_and_group_are_refused_with_the_new_names(runner, tmp_path):
+    db = tmp_path / "old.sqlite3"
+    old = runner.invoke(app, ["check", TRAINER, WITHIN, "--record", str(db)])  # rename.py: keep
+    _assert_input_error(old, "--record", "--log", "--db")  # rename.py: keep
+    assert not db.exists()
+    old = runner.invoke(app, ["fleet", "check", SAMPLES_DIR, DAY, "--no-record"])  # rename.py: keep
+    _assert_input_error(old, "--no-record", "--no-log")  # rename.py: keep
+    assert runner.invoke(app, ["records", "list", "--db", str(db)]).exit_code == 2  # rename.py: keep
+
+
+def test_old_log_variable_is_refused_not_ignored(runner, tmp_path, monkeypatch):
+    # fail closed: a path the user set in the variable's old name is never passed over for the default
+    old = tmp_path / "old.sqlite3"
+    monkeypatch.setenv("LOADCHECK_RECORDS", str(old))  # rename.py: keep
+    monkeypatch.delenv("LOADCHECK_LOG", raising=False)
+    result = runner.invoke(app, ["check", TRAINER, WITHIN, "--log"])
+    _assert_input_error(result, "LOADCHECK_RECORDS", "LOADCHECK_LOG", "rename")  # rename.py: keep
+    assert not old.exists()
+    _assert_input_error(runner.invoke(app, ["log", "list"]), "LOADCHECK_LOG")
+    _assert_input_error(runner.invoke(app, ["fleet", "check", SAMPLES_DIR, DAY]), "LOADCHECK_LOG")
+    monkeypatch.setenv("LOADCHECK_LOG", str(tmp_path / "new.sqlite3"))  # both set, to different files: refused too
+    _assert_input_error(runner.invoke(app, ["check", TRAINER, WITHIN, "--log"]), "different files")
+    given = tmp_path / "given.sqlite3"  # --db given: no variable is read
+    assert runner.invoke(app, ["check", TRAINER, WITHIN, "--log", "--db", str(given)]).exit_code == 0
+    assert _logged(given) == 1
+
+
+def test_meto_power_under_its_old_key_is_refused_with_the_new_key(runner, tmp_path):
+    text = Path(TRAINER).read_text(encoding="utf-8").replace("meto_power_hp", "max_continuous_power_hp")  # rename.py: keep
+    path = tmp_path / "aircraft.toml"
+    path.write_text(text, encoding="utf-8")
+    result = runner.invoke(app, ["validate", str(path)])
+    _assert_input_error(result, "max_continuous_power_hp", "meto_power_hp")  # rename.py: keep
+
+
+def test_plan_stop_of_a_loading_of_one_leg_was_an_internal_error(runner):
+    # regression (found typing the front end, issue 21): plan stop on a loading without [[leg]] tables passed
+    # no trip on and ended in "internal error (AttributeError ...)" instead of a field error
+    result = runner.invoke(app, ["plan", "stop", TRAINER, WITHIN, "--leg", "2"])
+    _assert_input_error(result, "leg", "one leg")
+    assert "internal error" not in result.output
+
+
+def test_unknown_export_format_is_an_input_error_naming_the_field():
+    # issue 21 (smaller): export_text raised a bare ValueError, outside the error hierarchy the front ends turn into exit 2
+    from loadcheck.checklog import export_text
+    from loadcheck.errors import InputError
+
+    with pytest.raises(InputError) as raised:
+        export_text([], "xml")
+    (problem,) = raised.value.problems
+    assert problem.field == "format" and problem.value == "xml" and "csv or jsonl" in (problem.expected or "")

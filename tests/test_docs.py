@@ -95,11 +95,11 @@ NOT_MIRRORED = {
     "results.py": "test_check.py, test_engine.py (results and their JSON form)",
     "cli/common.py": "test_cli.py (the command line end to end)",
     "cli/desk.py": "test_web_security.py, test_web_users.py (serve, users)",
-    "cli/dispatcher.py": "test_cli.py, test_fleet.py, test_records.py",
+    "cli/dispatcher.py": "test_cli.py, test_fleet.py, test_checklog.py",
     "cli/mechanic.py": "test_cli.py, test_empty_record.py, test_weighing.py, test_alterations.py",
     "cli/pilot.py": "test_cli.py (the command line end to end)",
-    "render/listing.py": "test_fleet.py, test_records.py (long listings)",
-    "render/records.py": "test_records.py",
+    "render/listing.py": "test_fleet.py, test_checklog.py (long listings)",
+    "render/checklog.py": "test_checklog.py",
     "render/trip.py": "test_trip.py",
 }
 """Modules of loadcheck/ without a test file of their own, and where their tests are."""

@@ -357,7 +357,7 @@ def test_history_keeps_every_record_and_the_comments(runner, tmp_path):
     assert "fairings" not in {e.id for e in final.equipment} and "com3" in {e.id for e in final.equipment}
     text = path.read_text()
     assert "# Four-seat nosewheel trainer: an aircraft of our own invention" in text
-    assert "max_continuous_power_hp = 160   # maximum except takeoff" in text
+    assert "meto_power_hp = 160   # maximum except takeoff" in text
     listing = runner.invoke(app, ["history", str(path)])
     assert listing.exit_code == 0 and "alteration" in listing.output and "weighing" in listing.output
 

@@ -60,7 +60,7 @@ def _two_holds(**changes):
                     {"id": "hold_a", "arm": 95.0, "kind": "baggage", "max_weight": 50.0},
                     {"id": "hold_b", "arm": 110.0, "kind": "baggage", "max_weight": 20.0}],
         "station_group": [{"label": "All baggage", "stations": ["hold_a", "hold_b"], "max_weight": 60.0}],
-        "max_continuous_power_hp": 120,
+        "meto_power_hp": 120,
     }
     data.update(changes)
     return simple_aircraft(**data)
@@ -98,7 +98,7 @@ def test_extremes_name_the_occupants_not_a_maximum():
         tank=[{"id": "main", "arm": 1000.0, "usable": 100.0, "fuel": "avgas"}],
         envelope=[{"category": "normal", "axes": ["arm", "weight"],
                    "points": [[800, 500], [800, 1000], [1400, 1000], [1400, 500]]}],
-        max_continuous_power_hp=100,
+        meto_power_hp=100,
     )
     notes = " ".join(extremes(aircraft, occupant_weight=77.0).rearward.notes)
     assert "2 occupants at 77 kg (154.0 kg)" in notes and "maximum (154" not in notes
@@ -134,8 +134,8 @@ def _loading_of(check, aircraft):
 
     landing = check.condition("landing")
     ramp = check.condition("ramp")
-    stations = {i.id: i.weight for i in check.items if i.id in aircraft.stations}
-    fuel = {i.id: i.fuel_volume for i in check.items if i.id in aircraft.tanks}
+    stations = {i.id: i.weight for i in check.items if i.id in aircraft.station_by_id}
+    fuel = {i.id: i.fuel_volume for i in check.items if i.id in aircraft.tank_by_id}
     return Loading(load=stations, fuel=fuel, burn={"taxi": 0.0, "trip": ramp.fuel - landing.fuel})
 
 

@@ -1,4 +1,4 @@
-"""The dispatcher's side: fleet, batch check, the record of checks."""
+"""The dispatcher's side: fleet, batch check, the check log."""
 
 from __future__ import annotations
 
@@ -16,10 +16,10 @@ from pathlib import Path
 import pytest
 
 from loadcheck import check_loading, load_aircraft
+from loadcheck.checklog import CheckLog, results_match
 from loadcheck.cli import app
 from loadcheck.fleet import check_flights, load_fleet, read_loadings
 from loadcheck.loading import Loading
-from loadcheck.records import RecordLog, results_match
 
 from .helpers import SAMPLES, sample
 
@@ -29,7 +29,7 @@ DAY = sample("fleet_day.csv")
 @pytest.fixture
 def records(tmp_path, monkeypatch):
     path = tmp_path / "records.sqlite3"
-    monkeypatch.setenv("LOADCHECK_RECORDS", str(path))
+    monkeypatch.setenv("LOADCHECK_LOG", str(path))
     return path
 
 
@@ -84,7 +84,7 @@ def test_batch_agrees_row_by_row_with_single_checks(runner, records):
     assert any("not a station or tank of DEMO-2T" in v for v in bad.values())
     assert all(f"fleet_day.csv:{n}" in v for n, v in bad.items())
     # every usable flight was recorded, once
-    with RecordLog(records) as log:
+    with CheckLog(records) as log:
         assert len(list(log.find())) == len(checked)
 
 
@@ -152,20 +152,20 @@ def test_record_survives_an_edit_and_verify_reproduces_it(runner, tmp_path, reco
     shutil.copytree(sample("trainer4"), tmp_path / "trainer4")
     aircraft = tmp_path / "trainer4" / "aircraft.toml"
     loading = tmp_path / "trainer4" / "within.toml"
-    first = runner.invoke(app, ["check", str(aircraft), str(loading), "--record", str(records), "--json"])
+    first = runner.invoke(app, ["check", str(aircraft), str(loading), "--log", "--db", str(records), "--json"])
     assert first.exit_code == 0, first.output
     aircraft.write_text(aircraft.read_text().replace("weight = 1718.0", "weight = 1750.0"))
-    with RecordLog(records) as log:
+    with CheckLog(records) as log:
         (record,) = list(log.find())
     assert record.result["conditions"][0]["weight"] == pytest.approx(json.loads(first.stdout)["conditions"][0]["weight"])
-    verify = runner.invoke(app, ["records", "verify", str(record.id), "--db", str(records)])
+    verify = runner.invoke(app, ["log", "verify", str(record.id), "--db", str(records)])
     assert verify.exit_code == 0 and "reproduced" in verify.output
-    shown = runner.invoke(app, ["records", "show", str(record.id), "--db", str(records)])
+    shown = runner.invoke(app, ["log", "show", str(record.id), "--db", str(records)])
     assert json.loads(shown.stdout)["inputs"]["load"]["front"] == 340
 
 
 def test_records_are_never_rewritten(records):
-    with RecordLog(records) as log:
+    with CheckLog(records) as log:
         log.add(aircraft_data={"x": 1}, fingerprint="f", inputs={}, result={"ok": True})
     db = sqlite3.connect(records)
     with pytest.raises(sqlite3.DatabaseError, match="never rewritten"):
@@ -177,23 +177,23 @@ def test_records_are_never_rewritten(records):
 
 def test_export_and_list(runner, records):
     runner.invoke(app, ["fleet", "check", str(SAMPLES), str(DAY)])
-    listing = runner.invoke(app, ["records", "list", "--registration", "DEMO-6P"])
+    listing = runner.invoke(app, ["log", "list", "--registration", "DEMO-6P"])
     assert listing.exit_code == 0 and "DEMO-6P" in listing.output and "DEMO-4T" not in listing.output
-    exported = runner.invoke(app, ["records", "export", "--format", "csv", "--registration", "DEMO-2T"])
+    exported = runner.invoke(app, ["log", "export", "--format", "csv", "--registration", "DEMO-2T"])
     rows = list(csv.DictReader(exported.stdout.splitlines()))
     assert rows and all(r["registration"] == "DEMO-2T" for r in rows)
     assert all(float(r["takeoff_weight"]) > 0 and float(r["landing_arm"]) > 0 for r in rows)
     assert "Advisory computation only" in exported.stderr  # CSV rows have no room for the caution
-    jsonl = runner.invoke(app, ["records", "export", "--since", "2000-01-01", "--until", "2999-12-31"])
+    jsonl = runner.invoke(app, ["log", "export", "--since", "2000-01-01", "--until", "2999-12-31"])
     assert len(_json_lines(jsonl.stdout)) == len(rows) + sum(1 for _ in _json_lines(jsonl.stdout) if _["registration"] != "DEMO-2T")
-    none = runner.invoke(app, ["records", "export", "--until", "2000-01-01"])
+    none = runner.invoke(app, ["log", "export", "--until", "2000-01-01"])
     assert none.stdout == ""
-    assert runner.invoke(app, ["records", "show", "999999"]).exit_code == 2
+    assert runner.invoke(app, ["log", "show", "999999"]).exit_code == 2
 
 
 def _run_fleet(db: Path, csv_path: Path) -> subprocess.Popen:
     return subprocess.Popen([sys.executable, "-m", "loadcheck", "fleet", "check", str(SAMPLES), str(csv_path),
-                             "--record", str(db), "--json"], stdout=subprocess.DEVNULL, stderr=subprocess.PIPE, text=True)
+                             "--log", "--db", str(db), "--json"], stdout=subprocess.DEVNULL, stderr=subprocess.PIPE, text=True)
 
 
 def test_two_writers_lose_nothing(tmp_path):
@@ -201,8 +201,8 @@ def test_two_writers_lose_nothing(tmp_path):
     a, b = _run_fleet(db, DAY), _run_fleet(db, DAY)
     errors = [p.communicate(timeout=120)[1] for p in (a, b)]
     assert a.returncode == 2 and b.returncode == 2
-    assert not any("could not record" in e or "cannot use the record database" in e for e in errors), errors
-    with RecordLog(db) as log:
+    assert not any("could not record" in e or "cannot use the check log" in e for e in errors), errors
+    with CheckLog(db) as log:
         found = list(log.find())
     fleet = load_fleet(SAMPLES)
     usable = sum(1 for flight in check_flights(fleet, read_loadings(DAY, fleet)[0]) if flight.result is not None)
@@ -227,12 +227,12 @@ def test_an_interrupted_batch_leaves_every_record_whole(runner, tmp_path):
     assert _kill_and_wait_for_workers(process, workers) == []  # and no worker left behind by this test
     connection = sqlite3.connect(db)
     assert connection.execute("PRAGMA integrity_check").fetchone()[0] == "ok"
-    with RecordLog(db) as log:
+    with CheckLog(db) as log:
         found = list(log.find())
     assert found and len(found) < 20_000
     for record in found[:: max(1, len(found) // 20)]:
         assert "conditions" in record.result and record.inputs
-        assert runner.invoke(app, ["records", "verify", str(record.id), "--db", str(db)]).exit_code == 0
+        assert runner.invoke(app, ["log", "verify", str(record.id), "--db", str(db)]).exit_code == 0
 
 
 def test_library_check_flights_in_order(records):
@@ -241,7 +241,7 @@ def test_library_check_flights_in_order(records):
     flights = list(check_flights(fleet, rows))
     assert [f.row.line for f in flights] == [r.line for r in rows]
     assert load_aircraft(sample("twin6/aircraft.toml")).registration == "DEMO-6P"
-    assert os.environ["LOADCHECK_RECORDS"] == str(records)
+    assert os.environ["LOADCHECK_LOG"] == str(records)
 
 
 # -- issue 13: streaming, workers that end with their parent, warnings carried -------------------
@@ -303,7 +303,7 @@ def test_the_workers_of_a_killed_fleet_check_end(tmp_path):
     # 100 MB each); they must end when their parent dies
     day = _write_day(tmp_path / "day.csv", 6_000)
     process = subprocess.Popen([sys.executable, "-m", "loadcheck", "fleet", "check", str(SAMPLES), str(day),
-                                "--no-record", "--json", "--workers", "2"],
+                                "--no-log", "--json", "--workers", "2"],
                                stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL)
     workers: list[int] = []
     try:
@@ -421,7 +421,7 @@ def test_a_long_fleet_table_is_plain_text_and_cuts_nothing(runner, records, tmp_
     lines += [f"DEMO-4T,F{i},170,30,0,1,10" for i in range(PLAIN_ROWS)]
     lines += [f"DEMO-XX,{long_reference},170,30,0,1,10"]
     day.write_text("\n".join(lines) + "\n")
-    result = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(day), "--no-record"])
+    result = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(day), "--no-log"])
     assert result.exit_code == 2
     out = result.stdout
     assert "┃" not in out and "│" not in out  # plain text, no table drawing
@@ -484,7 +484,7 @@ def test_a_fleet_trip_whose_second_leg_fails_exits_1_naming_leg_2(runner, tmp_pa
     from .test_trip import trip_fleet
 
     folder = trip_fleet(tmp_path / "fleet")
-    done = runner.invoke(app, ["fleet", "check", str(folder), str(folder / "day.csv"), "--json", "--no-record"])
+    done = runner.invoke(app, ["fleet", "check", str(folder), str(folder / "day.csv"), "--json", "--no-log"])
     assert done.exit_code == 1, done.output
     trip, single = _json_lines(done.stdout)
     assert trip["trip_id"] == "A" and trip["lines"] == [2, 3] and trip["reference"] == "F1" and trip["ok"] is False
@@ -496,7 +496,7 @@ def test_a_fleet_trip_whose_second_leg_fails_exits_1_naming_leg_2(runner, tmp_pa
     ramp = next(c for c in trip["legs"][1]["conditions"] if c["condition"] == "ramp")
     assert ramp["weight"] == pytest.approx(1694.0) and ramp["arm"] == pytest.approx(146860 / 1694)
     # the table: the trip's verdict, then each leg with its line, verdict and first finding named by leg and condition
-    table = runner.invoke(app, ["fleet", "check", str(folder), str(folder / "day.csv"), "--no-record"],
+    table = runner.invoke(app, ["fleet", "check", str(folder), str(folder / "day.csv"), "--no-log"],
                           env={"COLUMNS": "200"})
     assert table.exit_code == 1
     text = table.stdout
@@ -552,7 +552,7 @@ def test_a_malformed_trip_is_refused_whole_naming_its_rows(runner, tmp_path, row
     (folder / "other.toml").write_text((folder / "aircraft.toml").read_text().replace("TEST-T", "TEST-U"))
     day = folder / "day.csv"
     day.write_text("\n".join([TRIP_HEADER, *rows]) + "\n")
-    done = runner.invoke(app, ["fleet", "check", str(folder), str(day), "--json", "--no-record"])
+    done = runner.invoke(app, ["fleet", "check", str(folder), str(day), "--json", "--no-log"])
     assert done.exit_code == 2, done.output
     refused = [line for line in _json_lines(done.stdout) if "input_error" in line]
     assert refused and all("legs" not in line for line in _json_lines(done.stdout) if line.get("trip_id") == "A")

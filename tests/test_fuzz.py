@@ -158,7 +158,7 @@ def test_random_csv_shapes(runner, tmp_path_factory, header, rows):
     folder = tmp_path_factory.mktemp("fuzz")
     path = folder / "day.csv"
     path.write_text(buffer.getvalue())
-    result = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(path), "--no-record", "--json"])
+    result = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(path), "--no-log", "--json"])
     _assert_clean(result)
 
 
@@ -233,9 +233,9 @@ def test_csv_headers_built_from_the_aircrafts_own_ids(tmp_path_factory, day):
     import io
 
     from loadcheck import check_loading
+    from loadcheck.checklog import results_match
     from loadcheck.fleet import check_flights, read_loadings
     from loadcheck.loading import Loading
-    from loadcheck.records import results_match
     from loadcheck.units import read_amount
 
     registration, header, rows = day
@@ -251,8 +251,8 @@ def test_csv_headers_built_from_the_aircrafts_own_ids(tmp_path_factory, day):
     assert len(flights) == len(rows)
     for flight, row in zip(flights, rows, strict=True):
         cells = {name: value for name, value in zip(header, row, strict=True) if value}
-        load = {k: v for k, v in cells.items() if k in aircraft.stations}
-        fuel = {k: v for k, v in cells.items() if k in aircraft.tanks}
+        load = {k: v for k, v in cells.items() if k in aircraft.station_by_id}
+        fuel = {k: v for k, v in cells.items() if k in aircraft.tank_by_id}
         burn = {k: v for k, v in cells.items() if k in ("taxi", "trip", "reserve")}
         extra = {"label": cells["label"]} if "label" in cells else {}
         try:

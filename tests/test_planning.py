@@ -77,7 +77,7 @@ def test_most_payload_agrees_with_brute_force(v, station):
     loading = resolve_loading(Loading(load=load, fuel={"mains": 100, "aux": 40},
                                       burn={"taxi": 2, "trip": v["trip"], "order": v["order"]}), TWIN)
     answer = P.most_payload(TWIN, loading, station)
-    top = TWIN.stations[station].max_weight
+    top = TWIN.station_by_id[station].max_weight
     make = lambda x: P._with(loading, stations={**loading.stations, station: x})  # noqa: E731
     feasible = _brute(TWIN, make, 0.0, top, 201)
     if answer.answer is None:

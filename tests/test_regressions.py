@@ -87,10 +87,10 @@ def test_station_and_tank_ids_that_are_csv_columns_lose_their_weights(tmp_path):
     day = tmp_path / "day.csv"
     day.write_text("registration,pilot,date,hold,reserve\nDEMO-4T,400,300,100,full\n")
     db = tmp_path / "records.sqlite3"
-    _refused(["fleet", "check", str(fleet), str(day), "--record", str(db)], "DEMO-4T", "day.csv:2", folder=fleet)
-    from loadcheck.records import RecordLog
+    _refused(["fleet", "check", str(fleet), str(day), "--log", "--db", str(db)], "DEMO-4T", "day.csv:2", folder=fleet)
+    from loadcheck.checklog import CheckLog
 
-    with RecordLog(db) as log:
+    with CheckLog(db) as log:
         assert list(log.find()) == []  # nothing recorded
     listing = json.loads(_refused(["fleet", "list", str(fleet), "--json"], folder=fleet))
     (entry,) = listing["aircraft"]
@@ -104,7 +104,7 @@ def test_a_repeated_load_kept_only_the_last_value(tmp_path):
     # --load front=170 --load front=190 checked 190 lb: two people in one seat row lost one
     trainer = str(SAMPLES / "trainer4" / "aircraft.toml")
     db = tmp_path / "records.sqlite3"
-    out = _refused(["check", trainer, "--load", "front=170", "--load", "front=190", "--record", str(db)],
+    out = _refused(["check", trainer, "--load", "front=170", "--load", "front=190", "--log", "--db", str(db)],
                    "--load front", "'170'", "'190'", "given twice", folder=tmp_path)
     assert "add the weights up" in out and not db.exists()
     _refused(["check", trainer, "--load", "front=170", "--fuel", "mains=10", "-f", "mains=20"],
@@ -112,8 +112,8 @@ def test_a_repeated_load_kept_only_the_last_value(tmp_path):
     _refused(["check", trainer, "--load", "front=170", "--taxi", "1", "--taxi=2"], "--taxi", "'1'", "'2'", "twice")
     _refused(["plan", "fuel", trainer, "--load", "front=170", "--category", "normal", "-c", "utility"],
              "-c", "'normal'", "'utility'", "twice")
-    _refused(["fleet", "check", str(SAMPLES), str(SAMPLES / "fleet_day.csv"), "--record", str(tmp_path / "a.db"),
-              "--record", str(db)], "--record", "twice", folder=tmp_path)
+    _refused(["fleet", "check", str(SAMPLES), str(SAMPLES / "fleet_day.csv"), "--log", "--db", str(tmp_path / "a.db"),
+              "--log", "--db", str(db)], "--db", "twice", folder=tmp_path)
     assert not db.exists() and not (tmp_path / "a.db").exists()
 
 
@@ -229,8 +229,8 @@ def test_special_files_were_read_for_ever(tmp_path):
         (["check", str(fifo)], ["pipe.toml", "FIFO"]),
         (["check", trainer, str(fifo)], ["pipe.toml", "FIFO"]),
         (["check", str(names)], ["names_zero.toml", "aircraft", "/dev/zero", "character device"]),
-        (["fleet", "check", str(SAMPLES), str(fifo), "--no-record"], ["pipe.toml", "FIFO"]),
-        (["fleet", "check", str(SAMPLES), "/dev/zero", "--no-record"], ["/dev/zero", "character device"]),
+        (["fleet", "check", str(SAMPLES), str(fifo), "--no-log"], ["pipe.toml", "FIFO"]),
+        (["fleet", "check", str(SAMPLES), "/dev/zero", "--no-log"], ["/dev/zero", "character device"]),
         (["validate", str(fifo), trainer], ["pipe.toml", "FIFO", "ok: "]),
     ]
     results = _run_each([args for args, _ in cases])
@@ -287,7 +287,7 @@ def test_swapped_arguments_gave_ten_unrelated_errors(tmp_path):
     out = _refused(["check", str(folder / "within.toml"), str(folder / "aircraft.toml")], "within.toml",
                    "the aircraft file comes first", "swapped")
     assert out.count("error:") == 1
-    _refused(["fleet", "check", str(SAMPLES / "fleet_day.csv"), str(SAMPLES), "--no-record"], "fleet_day.csv",
+    _refused(["fleet", "check", str(SAMPLES / "fleet_day.csv"), str(SAMPLES), "--no-log"], "fleet_day.csv",
              "the fleet folder comes first")
 
 
@@ -301,16 +301,16 @@ def test_a_header_only_csv_said_zero_flights_and_exit_0(tmp_path):
     day = tmp_path / "day.csv"
     day.write_text("registration,reference,front,mains\n")
     db = tmp_path / "records.sqlite3"
-    _refused(["fleet", "check", str(SAMPLES), str(day), "--record", str(db)], "day.csv", "nothing to check")
+    _refused(["fleet", "check", str(SAMPLES), str(day), "--log", "--db", str(db)], "day.csv", "nothing to check")
     empty = tmp_path / "day"
     empty.mkdir()
-    _refused(["fleet", "check", str(SAMPLES), str(empty), "--no-record"], "holds no loading file", "nothing to check")
+    _refused(["fleet", "check", str(SAMPLES), str(empty), "--no-log"], "holds no loading file", "nothing to check")
 
 
 def test_a_semicolon_csv_said_it_had_no_registration_column(tmp_path):
     day = tmp_path / "day.csv"
     day.write_text("registration;front;mains\nDEMO-4T;170,5;30\n")
-    _refused(["fleet", "check", str(SAMPLES), str(day), "--no-record"], "day.csv", "separated by semicolons",
+    _refused(["fleet", "check", str(SAMPLES), str(day), "--no-log"], "day.csv", "separated by semicolons",
              "comma-separated", folder=tmp_path)
 
 

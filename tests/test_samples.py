@@ -95,7 +95,7 @@ def _twin_two_stretches(result):
     # fuel between them (mains filled first, the reverse of the burn order): both ends inside,
     # the burn path across the corner
     between = (answer.intervals[0].high + answer.intervals[1].low) / 2
-    mains = min(between, inputs.aircraft.tanks["mains"].usable)
+    mains = min(between, inputs.aircraft.tank_by_id["mains"].usable)
     _twin_leaves_path(_check("twin6/two_stretches.toml", fuel={"mains": str(mains), "aux": str(between - mains)}))
 
 

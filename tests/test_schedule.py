@@ -97,7 +97,7 @@ def test_schedule_with_a_fixed_weight_station():
     # AC 43.13-1B figures 10-10 to 10-14 list it) left every case empty, while the tables
     # said "within" and the command exited 0
     aircraft = simple_aircraft(
-        empty={"weight": 1169.0, "arm": 10.6}, limits={"max_takeoff_weight": 2100.0}, max_continuous_power_hp=165,
+        empty={"weight": 1169.0, "arm": 10.6}, limits={"max_takeoff_weight": 2100.0}, meto_power_hp=165,
         station=[{"id": "oil", "arm": -49.0, "kind": "other", "min_weight": 17.0, "max_weight": 17.0},
                  {"id": "front", "arm": 16.0, "kind": "seat", "seats": 2, "controls": True},
                  {"id": "rear", "arm": 48.0, "kind": "seat", "seats": 2},
@@ -125,7 +125,7 @@ def test_schedule_answers_are_within_limits_and_maximal():
     # one more occupant anywhere breaks a limit somewhere over the fuel range
     density = {t.id: aircraft.density(t) for t in aircraft.tank}
     for station in ("row1", "row2", "row3"):
-        if full_fuel.occupants.get(station, 0) >= (aircraft.stations[station].seats or 1):
+        if full_fuel.occupants.get(station, 0) >= (aircraft.station_by_id[station].seats or 1):
             continue
         load = dict(full_fuel.load)
         load[station] = load.get(station, 0.0) + 170.0

@@ -50,19 +50,19 @@ COMMANDS = [
     ["extremes", "s/tandem2/aircraft.toml"],
     ["schedule", "s/twin6/aircraft.toml"],
     ["fleet", "list", "s"],
-    ["fleet", "check", "s", "s/fleet_day.csv", "--record", "r.sqlite3"],
-    ["records", "list", "--db", "r.sqlite3"],
-    ["records", "verify", "1", "--db", "r.sqlite3"],
+    ["fleet", "check", "s", "s/fleet_day.csv", "--log", "--db", "r.sqlite3"],
+    ["log", "list", "--db", "r.sqlite3"],
+    ["log", "verify", "1", "--db", "r.sqlite3"],
 ]
 HELP = [[], ["check"], ["show"], ["validate"], ["schema"], ["plan"], ["plan", "fuel"], ["plan", "trip"], ["plan", "payload"],
         ["plan", "leave"], ["plan", "ballast"], ["plan", "shift"], ["plan", "table"], ["weigh"], ["alter"], ["history"],
-        ["extremes"], ["schedule"], ["fleet"], ["fleet", "list"], ["fleet", "check"], ["records"], ["records", "list"],
-        ["records", "show"], ["records", "export"], ["records", "verify"]]
+        ["extremes"], ["schedule"], ["fleet"], ["fleet", "list"], ["fleet", "check"], ["log"], ["log", "list"],
+        ["log", "show"], ["log", "export"], ["log", "verify"]]
 
 
 @pytest.fixture(scope="module")
 def folder(tmp_path_factory):
-    """A folder with ``s`` -> sample_aircraft and a record database ``r.sqlite3`` holding one day."""
+    """A folder with ``s`` -> sample_aircraft and a check log ``r.sqlite3`` holding one day."""
     root = tmp_path_factory.mktemp("width")
     (root / "s").symlink_to(SAMPLES, target_is_directory=True)
     return root
@@ -71,7 +71,7 @@ def folder(tmp_path_factory):
 def _run(folder, monkeypatch, args, columns, **env):
     monkeypatch.chdir(folder)
     if args[:2] != ["fleet", "check"] and not (folder / "r.sqlite3").exists():
-        app_runner().invoke(app, ["fleet", "check", "s", "s/fleet_day.csv", "--record", "r.sqlite3"], env={"COLUMNS": "200"})
+        app_runner().invoke(app, ["fleet", "check", "s", "s/fleet_day.csv", "--log", "--db", "r.sqlite3"], env={"COLUMNS": "200"})
     return app_runner().invoke(app, args, env={"COLUMNS": str(columns), **env})
 
 
@@ -183,7 +183,7 @@ def test_fleet_check_row_with_warnings_is_not_shown_as_plain_within(folder, monk
     # regression (issue 13 item 12): a flight within limits but landing below its reserve read "within"
     day = tmp_path / "day.csv"
     day.write_text("registration,reference,front,rear,mains,centre,taxi,trip,reserve\nDEMO-4T,W1,340,150,school,0,1.2,18,20\n")
-    out = _run(folder, monkeypatch, ["fleet", "check", "s", str(day), "--no-record"], 120).output
+    out = _run(folder, monkeypatch, ["fleet", "check", "s", str(day), "--no-log"], 120).output
     lines = out.splitlines()
     start = next(i for i, line in enumerate(lines) if "DEMO-4T" in line)
     row = " ".join(lines[start:start + 3])

@@ -361,11 +361,11 @@ def test_rows_of_one_trip_come_together(tmp_path):
 
 def test_a_trip_is_recorded_as_one_record_and_plots_every_leg(runner, tmp_path):
     path = str(sample("heli2/trip_drop_off.toml"))
-    recorded = runner.invoke(app, ["check", path, "--record", str(tmp_path / "log.db"), "--json"])
+    recorded = runner.invoke(app, ["check", path, "--log", "--db", str(tmp_path / "log.db"), "--json"])
     assert recorded.exit_code == 0 and "recorded as 1" in recorded.stderr
-    from loadcheck.records import RecordLog
+    from loadcheck.checklog import CheckLog
 
-    with RecordLog(tmp_path / "log.db") as log:
+    with CheckLog(tmp_path / "log.db") as log:
         record = log.get(1)
         assert record.result == json.loads(recorded.stdout) and len(record.inputs["leg"]) == 1
     plotted = runner.invoke(app, ["check", path, "--plot"])

@@ -21,8 +21,8 @@ pytest.importorskip("argon2")
 from fastapi.testclient import TestClient
 
 from loadcheck.check import check_loading
+from loadcheck.checklog import CheckLog
 from loadcheck.files import load_check_inputs
-from loadcheck.records import RecordLog
 
 from .helpers import AppRunner
 from .web_helpers import PASSWORD, SAMPLES, TRIP_LEG_2_AFT, WITHIN, _client, _post_check, _records, csrf_of, sign_in
@@ -293,20 +293,20 @@ def test_dispatcher_sees_checks_recorded_by_the_command_line(runner: AppRunner, 
 
     from loadcheck.cli import app
 
-    result = runner.invoke(app, ["check", str(desk["fleet"] / "trainer4" / "within.toml"), "--record", str(desk["db"])])
+    result = runner.invoke(app, ["check", str(desk["fleet"] / "trainer4" / "within.toml"), "--log", "--db", str(desk["db"])])
     assert result.exit_code == 0, result.output
     rows = _client(desk, "dan").get("/api/records").json()
     assert len(rows) == 1 and rows[0]["source"].endswith("within.toml")
 
 
 def test_export_csv_and_jsonl(desk: dict[str, Any]) -> None:
-    from loadcheck.records import export_text
+    from loadcheck.checklog import export_text
 
     _post_check(_client(desk, "pia"), WITHIN, route="record")
     dan = _client(desk, "dan")
     csv_text = dan.get("/records/export?format=csv")
     jsonl = dan.get("/records/export?format=jsonl")
-    with RecordLog(desk["db"]) as log:
+    with CheckLog(desk["db"]) as log:
         assert csv_text.text == export_text(log.find(), "csv")
         assert jsonl.text == export_text(log.find(), "jsonl")
     assert csv_text.headers["content-type"].startswith("text/csv")

@@ -105,7 +105,7 @@ def test_readings_with_units_and_fuel_item():
     result = weigh(aircraft, Readings.model_validate(data, context={"units": aircraft.units}))
     assert result.as_weighed.weight == pytest.approx(430.0)
     assert result.as_weighed.arm == pytest.approx(30 * 4200 / 430)
-    assert result.corrections[0].weight == pytest.approx(2 * 3.785411784 * aircraft.density(aircraft.tanks["wing"]))
+    assert result.corrections[0].weight == pytest.approx(2 * 3.785411784 * aircraft.density(aircraft.tank_by_id["wing"]))
 
 
 # -- the published empty-weight CG formulas (issue 16) -----------------------------------------

@@ -1,7 +1,7 @@
 """Nothing lost: every file loadcheck writes is written whole or not at all.
 
 Aircraft history writes are tested in tests/test_empty_record.py (crash and full disk); here:
-charts, load sheets, mechanic records, exports, and the record database.
+charts, load sheets, mechanic records, exports, and the check log.
 """
 
 from __future__ import annotations
@@ -11,9 +11,9 @@ import errno
 import pytest
 
 import loadcheck.files as files_module
+from loadcheck.checklog import CheckLog
 from loadcheck.cli import app
 from loadcheck.errors import FileFormatError
-from loadcheck.records import RecordLog
 
 from .helpers import sample
 
@@ -53,19 +53,19 @@ def test_old_content_survives_a_failed_write(runner, tmp_path, monkeypatch, how,
 
 def test_export_survives_a_failed_write(runner, tmp_path, monkeypatch):
     db = tmp_path / "records.sqlite3"
-    with RecordLog(db) as log:
+    with CheckLog(db) as log:
         log.add(aircraft_data={"a": 1}, fingerprint="f", inputs={}, result={"ok": True, "category": "normal"})
     out = tmp_path / "export.csv"
     out.write_text("previous export\n")
     _crash(monkeypatch, "crash")
-    result = runner.invoke(app, ["records", "export", "--db", str(db), "--format", "csv", "--out", str(out)])
+    result = runner.invoke(app, ["log", "export", "--db", str(db), "--format", "csv", "--out", str(out)])
     assert result.exit_code == 2 and out.read_text() == "previous export\n"
 
 
 def test_a_failed_batch_records_nothing_and_keeps_the_rest(tmp_path):
     db = tmp_path / "records.sqlite3"
     good = {"aircraft_data": {"a": 1}, "fingerprint": "f", "inputs": {}, "result": {"ok": True}}
-    with RecordLog(db) as log:
+    with CheckLog(db) as log:
         first = log.add(**good)
         with pytest.raises(FileFormatError, match="nothing of this batch was recorded"):
             log.add_many([good, {**good, "result": {"ok": True, "bad": {1, 2}}}])
@@ -76,8 +76,8 @@ def test_a_failed_batch_records_nothing_and_keeps_the_rest(tmp_path):
 def test_a_corrupt_database_is_refused_not_overwritten(tmp_path):
     db = tmp_path / "records.sqlite3"
     db.write_bytes(b"this is not a database" * 100)
-    with pytest.raises(FileFormatError, match="record database"):
-        RecordLog(db)
+    with pytest.raises(FileFormatError, match="check log"):
+        CheckLog(db)
     assert db.read_bytes() == b"this is not a database" * 100
 
 
@@ -128,11 +128,11 @@ def test_export_goes_through_a_symlink(runner, tmp_path):
     import os
 
     db = tmp_path / "records.sqlite3"
-    with RecordLog(db) as log:
+    with CheckLog(db) as log:
         log.add(aircraft_data={"a": 1}, fingerprint="f", inputs={}, result={"ok": True, "category": "normal"})
     (tmp_path / "real.csv").write_text("old\n")
     os.symlink("real.csv", tmp_path / "export.csv")
-    result = runner.invoke(app, ["records", "export", "--db", str(db), "--format", "csv", "--out", str(tmp_path / "export.csv")])
+    result = runner.invoke(app, ["log", "export", "--db", str(db), "--format", "csv", "--out", str(tmp_path / "export.csv")])
     assert result.exit_code == 0 and (tmp_path / "export.csv").is_symlink()
     assert (tmp_path / "real.csv").read_text().startswith("id,checked_at")
 
@@ -154,9 +154,9 @@ def test_a_fifo_is_refused_not_replaced_or_read(runner, tmp_path, command, throu
         args = ["check", str(sample("trainer4/within.toml")), "--sheet", str(name)]
     else:
         db = tmp_path / "records.sqlite3"
-        with RecordLog(db) as log:
+        with CheckLog(db) as log:
             log.add(aircraft_data={"a": 1}, fingerprint="f", inputs={}, result={"ok": True})
-        args = ["records", "export", "--db", str(db), "--out", str(name)]
+        args = ["log", "export", "--db", str(db), "--out", str(name)]
     result = runner.invoke(app, args)
     assert result.exit_code == 2, result.output
     assert "FIFO" in result.output and "nothing was written" in result.output

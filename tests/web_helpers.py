@@ -1,4 +1,4 @@
-"""Shared set-up of the desk's tests: a copy of the sample fleet, a record log, four accounts."""
+"""Shared set-up of the desk's tests: a copy of the sample fleet, a check log, four accounts."""
 
 from __future__ import annotations
 
@@ -83,7 +83,7 @@ TRIP_LEG_2_AFT = {"load.front": "340", "load.bags": "100", "fuel.main": "full", 
 
 
 def make_desk(tmp: Path) -> tuple[Path, Path, Path]:
-    """A fleet folder (copy of the samples and TRIP_AIRCRAFT), a record log path and an accounts file with ACCOUNTS."""
+    """A fleet folder (copy of the samples and TRIP_AIRCRAFT), a check log path and an accounts file with ACCOUNTS."""
     from argon2 import PasswordHasher
 
     from loadcheck.web.users import UserStore
@@ -134,9 +134,9 @@ def _post_check(client: TestClient, values: dict[str, str], registration: str = 
 
 
 def _records(desk: dict[str, Any]) -> list[Any]:
-    from loadcheck.records import RecordLog
+    from loadcheck.checklog import CheckLog
 
     if not desk["db"].exists():
         return []
-    with RecordLog(desk["db"]) as log:
+    with CheckLog(desk["db"]) as log:
         return list(log.find())

@@ -109,8 +109,8 @@ __all__ = ["app", "main"]
 
 _USERS = [pilot.__name__, mechanic.__name__, dispatcher.__name__, desk.__name__]
 # help lists the pilot's commands first, then the mechanic's, then the dispatcher's
-app.registered_commands.sort(key=lambda c: _USERS.index(c.callback.__module__))  # type: ignore[union-attr]
-app.registered_groups.sort(key=lambda g: ["plan", "fleet", "records", "users"].index(g.name or ""))
+app.registered_commands.sort(key=lambda c: _USERS.index(c.callback.__module__))
+app.registered_groups.sort(key=lambda g: ["plan", "fleet", "log", "users"].index(g.name or ""))
 
 
 def _just(name: str) -> typer.Typer | None:

@@ -11,7 +11,7 @@ import functools
 import os
 from collections.abc import Callable
 from pathlib import Path
-from typing import TYPE_CHECKING, Annotated, Any, TypeVar
+from typing import TYPE_CHECKING, Annotated, Any, TypeVar, cast
 
 import typer
 from pydantic import ValidationError
@@ -23,12 +23,17 @@ from ..errors import InputError, LoadcheckError, Problem
 if TYPE_CHECKING:  # rich loads only when something is printed through it (not for --json)
     from rich.console import Console
 
+    from ..files import CheckInputs
+
 __all__ = [
-    "EXIT_INPUT", "EXIT_LIMIT", "EXIT_OK", "AircraftArg", "CategoryOpt", "FuelOpt", "JsonOpt", "LoadOpt", "LoadingArg",
+    "EXIT_INPUT", "EXIT_LIMIT", "EXIT_OK", "AircraftArg", "CategoryOpt", "DbOpt", "FuelOpt", "JsonOpt", "LoadOpt", "LoadingArg",
     "OrderOpt", "RateOpt", "ReserveOpt", "TaxiOpt", "TripOpt", "TripTimeOpt", "app", "input_errors",
 ]
 
 EXIT_OK, EXIT_LIMIT, EXIT_INPUT = 0, 1, 2
+
+DbOpt = Annotated[Path | None, typer.Option(
+    "--db", metavar="FILE", help="The check log, an SQLite file (default: $LOADCHECK_LOG, else the user data folder).")]
 
 
 def _repeated_option(command: Any, args: list[str]) -> str | None:
@@ -66,16 +71,36 @@ def _repeated_option(command: Any, args: list[str]) -> str | None:
     return None
 
 
+_RENAMED_OPTIONS = {  # rename.py: keep (the options before issue 21's one convention)
+    "--record": "the check log is now --log (record this check) with --db FILE (which log)",  # rename.py: keep
+    "--no-record": "the check log is now --no-log",  # rename.py: keep
+}
+
+
+def _renamed_option(command: Any, args: list[str]) -> str | None:
+    """A hint for an option of an earlier release that ``command`` no longer takes (refused
+    all the same: click would refuse it as unknown, without saying what it became)."""
+    known = {name for param in command.params if isinstance(param, TyperOption)
+             for name in (*param.opts, *param.secondary_opts)}
+    for token in args:
+        if token == "--":
+            break
+        name = token.partition("=")[0]
+        if name in _RENAMED_OPTIONS and name not in known:
+            return f"no such option {name}: {_RENAMED_OPTIONS[name]}"
+    return None
+
+
 class _Group(TyperGroup):
     """The command group: refuses an option that takes one value given twice (any command)."""
 
-    def resolve_command(self, ctx: Any, args: list[str]) -> Any:
+    def resolve_command(self, ctx: Any, args: list[str]) -> Any:  # click's own types, vendored inside typer
         name, command, rest = super().resolve_command(ctx, args)
         target, remaining = command, list(rest)
         while isinstance(target, TyperGroup) and remaining and not remaining[0].startswith("-"):
             target, remaining = target.get_command(ctx, remaining[0]), remaining[1:]
         if target is not None:
-            problem = _repeated_option(target, remaining)
+            problem = _renamed_option(target, remaining) or _repeated_option(target, remaining)
             if problem:
                 _fail_input([problem])
         return name, command, rest
@@ -98,6 +123,7 @@ app = typer.Typer(
 )
 
 F = TypeVar("F", bound=Callable[..., Any])
+T = TypeVar("T")
 
 
 def _console(stderr: bool = False) -> Console:
@@ -141,7 +167,7 @@ def input_errors(func: F) -> F:
             _fail_input([f"internal error ({type(error).__name__}: {error}); no result was produced. "
                          "Please report it; LOADCHECK_DEBUG=1 shows the traceback."])
 
-    return wrapper  # type: ignore[return-value]
+    return cast(F, wrapper)  # functools.wraps keeps the signature typer reads
 
 
 def _assignments(values: list[str], option: str) -> dict[str, str]:
@@ -198,7 +224,7 @@ def _inputs(
     aircraft: Path, loading: Path | None, load: list[str], fuel: list[str], taxi: str | None, trip: str | None,
     trip_time: str | None, rate: str | None, order: str | None, reserve: str | None, category: str | None,
     *, fuel_to_plan: bool = False, legs: dict[int, Any] | None = None, allow_trip: bool = False,
-) -> Any:
+) -> CheckInputs:
     """Read the files and lay the options over them (loadcheck.files.load_check_inputs).
 
     ``fuel_to_plan``: the answer chooses the fuel, so the fuel given need not cover taxi and
@@ -223,7 +249,7 @@ def _inputs(
 
 
 
-def _need(value: Any, option: str) -> Any:
+def _need(value: T | None, option: str) -> T:
     if value is None:
         raise InputError(Problem(option, "this option is required here"))
     return value

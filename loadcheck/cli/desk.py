@@ -9,7 +9,7 @@ from typing import TYPE_CHECKING, Annotated
 import typer
 
 from ..errors import InputError, Problem
-from .common import _console, app, input_errors
+from .common import DbOpt, _console, app, input_errors
 
 __all__ = ["users_app"]
 
@@ -30,7 +30,7 @@ def _store(users: Path | None) -> UserStore:
 @input_errors
 def serve(
     fleet: Annotated[Path, typer.Argument(metavar="FLEET_DIR", help="Fleet folder (aircraft files).")],
-    db: Annotated[Path | None, typer.Option("--db", metavar="FILE", help="Record of checks (default: the command line's).")] = None,
+    db: DbOpt = None,
     users: UsersOpt = None,
     host: Annotated[str, typer.Option(metavar="ADDRESS", help="Address to listen on (loopback unless --allow-remote).")] = "127.0.0.1",
     port: Annotated[int, typer.Option(min=1, max=65535, metavar="PORT", help="Port.")] = 8400,
@@ -47,14 +47,15 @@ def serve(
     caution = bind_caution(host, allow_remote)
     import uvicorn
 
-    from ..records import default_path
+    from ..checklog import default_path
     from ..web import create_app
 
+    db = db or default_path()  # the command line's check log; the old variable, refused, stops here
     application = create_app(fleet, db=db, users=users, https_only=False)
     err = _console(stderr=True)
     if caution:
         err.print(caution, markup=False)
-    err.print(f"the desk: http://{host}:{port}/ · fleet {fleet} · records {db or default_path()}", markup=False)
+    err.print(f"the desk: http://{host}:{port}/ · fleet {fleet} · check log {db}", markup=False)
     uvicorn.run(application, host=host, port=port, log_level="warning", server_header=False)
 
 

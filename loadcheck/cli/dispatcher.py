@@ -6,7 +6,7 @@ import json
 import os
 import sys
 from pathlib import Path
-from typing import Annotated, Any, Literal
+from typing import TYPE_CHECKING, Annotated, Literal
 
 import typer
 
@@ -16,11 +16,17 @@ from .common import (
     EXIT_INPUT,
     EXIT_LIMIT,
     EXIT_OK,
+    DbOpt,
     JsonOpt,
     _console,
     app,
     input_errors,
 )
+
+if TYPE_CHECKING:
+    import datetime as dt
+
+    from ..checklog import CheckLog
 
 # -- the dispatcher's commands ---------------------------------------------------------------
 
@@ -28,11 +34,10 @@ fleet_app = typer.Typer(short_help="A fleet, and a day of loadings.",
                         help="A fleet of aircraft files addressed by registration, and a day of loadings.",
                         no_args_is_help=True)
 app.add_typer(fleet_app, name="fleet")
-records_app = typer.Typer(short_help="The record of checks.",
-                          help="The record of checks: list, show, export, verify (reproduce).", no_args_is_help=True)
-app.add_typer(records_app, name="records")
+log_app = typer.Typer(short_help="The check log.",
+                      help="The check log (every check recorded): list, show, export, verify (reproduce).", no_args_is_help=True)
+app.add_typer(log_app, name="log")
 
-DbOpt = Annotated[Path | None, typer.Option("--db", metavar="FILE", help="Record database (default: $LOADCHECK_RECORDS or the user data folder).")]
 
 
 @fleet_app.command("list", short_help="Each aircraft of a fleet folder.")
@@ -65,18 +70,17 @@ def fleet_list(
     raise typer.Exit(EXIT_INPUT if bad else EXIT_OK)
 
 
-@fleet_app.command("check", short_help="Check and record a day of loadings.")
+@fleet_app.command("check", short_help="Check a day of loadings; log every check.")
 @input_errors
 def fleet_check(
     folder: Annotated[Path, typer.Argument(metavar="FOLDER", help="Folder of aircraft files (the fleet).")],
     loadings: Annotated[Path, typer.Argument(metavar="LOADINGS", help="Loadings: a CSV file (one row per flight) or a folder of loading files.")],
-    record: Annotated[Path | None, typer.Option(metavar="FILE",
-        help="Record database (default: $LOADCHECK_RECORDS or the user data folder).")] = None,
-    no_record: Annotated[bool, typer.Option("--no-record", help="Do not record the checks.")] = False,
+    db: DbOpt = None,
+    log_checks: Annotated[bool, typer.Option("--log/--no-log", help="Record every check in the check log (default) or not.")] = True,
     json_out: Annotated[bool, typer.Option("--json", help="Print JSON Lines: one object per flight.")] = False,
     workers: Annotated[int | None, typer.Option(min=1, help="Processes checking flights (default: one; see docs/performance.md).")] = None,
 ) -> None:
-    """Check a day of loadings against the fleet; record every check.
+    """Check a day of loadings against the fleet; record every check in the check log (--no-log: do not).
 
     Exit status: 0 every flight within limits, 1 a flight is out of limits, 2 a row could not
     be used (the other rows are still checked and reported) or there was nothing to check.
@@ -85,19 +89,23 @@ def fleet_check(
 
     \b
       loadcheck fleet check sample_aircraft \\
-        sample_aircraft/fleet_day.csv --no-record
+        sample_aircraft/fleet_day.csv --no-log
     """
     from contextlib import nullcontext
 
+    from ..checklog import CheckLog, default_path
     from ..fleet import check_flights, default_workers, load_fleet, read_loadings
-    from ..records import RecordLog, default_path
 
+    if not log_checks and db is not None:
+        raise InputError(Problem("--db", "names the check log to record in, but --no-log records nothing",
+                                 value=str(db), expected="--db FILE without --no-log, or no --db"))
+    path = (db or default_path()) if log_checks else None  # before any work: the old variable, refused, stops here
     fleet = load_fleet(folder)
     rows, file_problems = read_loadings(loadings, fleet)
     err = _console(stderr=True)
     for problem in file_problems:
         err.print(f"error: {problem}", markup=False, soft_wrap=True)
-    log = None if no_record else RecordLog(record or default_path())
+    log = CheckLog(path) if path is not None else None
     flights = []  # for the table only: one brief line per flight; JSON Lines are streamed
     counts = {"checked": 0, "out": 0, "bad": 0}
     show_progress = err.is_terminal and not json_out and not os.environ.get("NO_COLOR")  # a bar is escape codes
@@ -105,7 +113,7 @@ def fleet_check(
     if show_progress:
         from rich.progress import Progress
     with (Progress(console=err, transient=True) if show_progress else nullcontext()) as progress:
-        task = progress.add_task("checking", total=None) if progress is not None else None  # type: ignore[union-attr]
+        task = progress.add_task("checking", total=None) if progress is not None else None
         try:
             for flight in check_flights(fleet, rows, log, __version__, workers=workers or default_workers()):
                 counts["checked"] += 1
@@ -131,13 +139,13 @@ def fleet_check(
 
         render_fleet(flights, _console())
     if log is not None:
-        err.print(f"{counts['checked'] - counts['bad']} check(s) recorded in {log.path}", markup=False)
+        err.print(f"{counts['checked'] - counts['bad']} check(s) recorded in the check log {log.path}", markup=False)
     if counts["bad"] or file_problems:
         raise typer.Exit(EXIT_INPUT)
     raise typer.Exit(EXIT_LIMIT if counts["out"] else EXIT_OK)
 
 
-def _date(text: str | None, option: str) -> Any:
+def _date(text: str | None, option: str) -> dt.date | None:
     if text is None:
         return None
     import datetime as dt
@@ -153,46 +161,46 @@ UntilOpt = Annotated[str | None, typer.Option(metavar="DATE", help="To this date
 RegOpt = Annotated[str | None, typer.Option("--registration", "-r", metavar="REGISTRATION", help="Only this aircraft.")]
 
 
-def _log(db: Path | None) -> Any:
-    from ..records import RecordLog, default_path
+def _log(db: Path | None) -> CheckLog:
+    from ..checklog import CheckLog, default_path
 
     path = db or default_path()
     if not path.exists():
-        raise InputError(Problem("--db", f"no record database at {path}"))
-    return RecordLog(path)
+        raise InputError(Problem("--db", f"no check log at {path}"))
+    return CheckLog(path)
 
 
-@records_app.command("list", short_help="List recorded checks.")
+@log_app.command("list", short_help="List recorded checks.")
 @input_errors
-def records_list(db: DbOpt = None, since: SinceOpt = None, until: UntilOpt = None, registration: RegOpt = None) -> None:
+def log_list(db: DbOpt = None, since: SinceOpt = None, until: UntilOpt = None, registration: RegOpt = None) -> None:
     """List recorded checks.
 
     Example:
 
     \b
-      loadcheck records list --registration DEMO-4T \\
+      loadcheck log list --registration DEMO-4T \\
         --since 2026-11-01
     """
     from ..caution import PILOT_CAUTION
-    from ..render.records import render_record_list
+    from ..render.checklog import render_check_log
 
     with _log(db) as log:
         records = list(log.listing(since=_date(since, "--since"), until=_date(until, "--until"), registration=registration))
-    render_record_list(log.path, records, PILOT_CAUTION, _console())
+    render_check_log(log.path, records, PILOT_CAUTION, _console())
 
 
-@records_app.command("show", short_help="One record: its inputs and result.")
+@log_app.command("show", short_help="One record: its inputs and result.")
 @input_errors
-def records_show(record_id: Annotated[int, typer.Argument(metavar="ID", help="Record id.")], db: DbOpt = None) -> None:
+def log_show(record_id: Annotated[int, typer.Argument(metavar="ID", help="Record id.")], db: DbOpt = None) -> None:
     """Show one record: its inputs and its full result (JSON)."""
     with _log(db) as log:
         record = log.get(record_id)
     typer.echo(json.dumps({**record.summary(), "inputs": record.inputs, "result": record.result}, indent=2))
 
 
-@records_app.command("export", short_help="Export records as CSV or JSON Lines.")
+@log_app.command("export", short_help="Export records as CSV or JSON Lines.")
 @input_errors
-def records_export(
+def log_export(
     db: DbOpt = None, since: SinceOpt = None, until: UntilOpt = None, registration: RegOpt = None,
     format: Annotated[Literal["csv", "jsonl"], typer.Option(metavar="csv|jsonl", help="csv (one line per record) or jsonl (everything).")] = "jsonl",
     out: Annotated[Path | None, typer.Option(metavar="FILE", help="Write to this file (default: standard output).")] = None,
@@ -202,11 +210,11 @@ def records_export(
     Example:
 
     \b
-      loadcheck records export --format csv \\
+      loadcheck log export --format csv \\
         --since 2026-11-01 --out november.csv
     """
     from ..caution import PILOT_CAUTION
-    from ..records import export_text
+    from ..checklog import export_text
     from ..render.terminal import caution_text
 
     with _log(db) as log:
@@ -223,9 +231,9 @@ def records_export(
         _console(stderr=True).print(caution_text(PILOT_CAUTION))
 
 
-@records_app.command("verify", short_help="Recompute a record; does it match?")
+@log_app.command("verify", short_help="Recompute a record; does it match?")
 @input_errors
-def records_verify(
+def log_verify(
     record_id: Annotated[int | None, typer.Argument(
         metavar="ID", help="Record id (with --current: optional, else every record the filters select).")] = None,
     db: DbOpt = None,
@@ -244,15 +252,15 @@ def records_verify(
 
     Example:
 
-      loadcheck records verify --current sample_aircraft --since 2026-11-01
+      loadcheck log verify --current sample_aircraft --since 2026-11-01
     """
     from ..caution import PILOT_CAUTION
     from ..render.terminal import caution_text
 
     console = _console()
     if current is not None:
+        from ..checklog import verify_current
         from ..fleet import load_fleet
-        from ..records import verify_current
 
         fleet = load_fleet(current)
         with _log(db) as log:
@@ -262,7 +270,7 @@ def records_verify(
         if json_out:
             typer.echo(outcome.to_json())
         else:
-            from ..render.records import render_current_verification
+            from ..render.checklog import render_current_verification
 
             render_current_verification(outcome, console)
         raise typer.Exit(outcome.status)
@@ -270,7 +278,7 @@ def records_verify(
         raise InputError(Problem("ID", "give the record id to verify (or --current FOLDER to check records against it)"))
     if since or until or registration:
         raise InputError(Problem("--since", "--since, --until and --registration go with --current"))
-    from ..records import verify
+    from ..checklog import verify
 
     with _log(db) as log:
         verification = verify(log, record_id)

@@ -4,7 +4,7 @@ from __future__ import annotations
 
 import json
 from pathlib import Path
-from typing import Annotated, Any, Literal
+from typing import TYPE_CHECKING, Annotated, Any, Literal
 
 import typer
 
@@ -16,6 +16,7 @@ from .common import (
     EXIT_OK,
     AircraftArg,
     CategoryOpt,
+    DbOpt,
     FuelOpt,
     JsonOpt,
     LoadingArg,
@@ -32,6 +33,11 @@ from .common import (
     app,
     input_errors,
 )
+
+if TYPE_CHECKING:
+    from ..files import CheckInputs
+    from ..loading import ResolvedTrip
+    from ..results import CheckResult, ConditionName, TripResult
 
 LegLoadOpt = Annotated[list[str], typer.Option(
     "--leg-load", metavar="LEG:STATION=WEIGHT", help="From leg 2 on: new weight at the stop before that leg (0: off); repeat.")]
@@ -70,8 +76,8 @@ def check(
     chart: Annotated[Path | None, typer.Option(metavar="FILE", help="Write the envelope chart: .png, .svg or .pdf.")] = None,
     sheet: Annotated[Path | None, typer.Option(metavar="FILE.html", help="Write a printable load sheet (.html).")] = None,
     plot: Annotated[bool, typer.Option("--plot", help="Draw a small text plot of the envelope under the tables.")] = False,
-    record: Annotated[str | None, typer.Option(metavar="FILE",
-        help="Record the check in this SQLite file ('default': the user data folder).")] = None,
+    to_log: Annotated[bool, typer.Option("--log/--no-log", help="Record the check in the check log (default: not).")] = False,
+    db: DbOpt = None,
     leg_load: LegLoadOpt = [],  # noqa: B006
     leg_fuel: LegFuelOpt = [],  # noqa: B006
     leg_burn: LegBurnOpt = [],  # noqa: B006
@@ -102,10 +108,11 @@ def check(
     """
     from ..check import check_loading
 
+    record = _log_path(to_log, db)
     inputs = _inputs(aircraft, loading, load, fuel, taxi, trip, trip_time, rate, order, reserve, category,
                      legs=_legs(leg_load, leg_fuel, leg_burn), allow_trip=True)
-    if inputs.is_trip:
-        _check_trip(inputs, json_out, chart, sheet, plot, record)
+    if inputs.is_trip and inputs.trip is not None:
+        _check_trip(inputs, inputs.trip, json_out, chart, sheet, plot, record)
     result = check_loading(inputs.aircraft, inputs.loading)
     if record is not None:
         _record(record, inputs, result)
@@ -126,11 +133,12 @@ def check(
     raise typer.Exit(EXIT_OK if result.ok else EXIT_LIMIT)
 
 
-def _check_trip(inputs: Any, json_out: bool, chart: Path | None, sheet: Path | None, plot: bool, record: str | None) -> None:
+def _check_trip(inputs: CheckInputs, trip: ResolvedTrip, json_out: bool, chart: Path | None, sheet: Path | None, plot: bool,
+                record: Path | None) -> None:
     """Check every leg of a trip, render it, and exit 1 when any leg is out of limits."""
     from ..trip import check_trip
 
-    result = check_trip(inputs.aircraft, inputs.trip)
+    result = check_trip(inputs.aircraft, trip)
     if record is not None:
         _record(record, inputs, result)
     if chart is not None or sheet is not None:
@@ -163,18 +171,30 @@ def _check_trip(inputs: Any, json_out: bool, chart: Path | None, sheet: Path | N
     raise typer.Exit(EXIT_OK if result.ok else EXIT_LIMIT)
 
 
-def _record(record: str, inputs: Any, result: Any) -> None:
+def _log_path(to_log: bool, db: Path | None) -> Path | None:
+    """The check log to record in: None without --log; --db given without --log is refused
+    (a file the user named is never silently passed over)."""
+    from ..checklog import default_path
+
+    if not to_log:
+        if db is not None:
+            raise InputError(Problem("--db", "names the check log to record in, but check records only with --log",
+                                     value=str(db), expected="--log --db FILE, or no --db"))
+        return None
+    return db or default_path()
+
+
+def _record(path: Path, inputs: CheckInputs, result: CheckResult | TripResult) -> None:
     """Record one check (of a single loading or of a whole trip, as one record): the loading as
     given (file and options merged) and the full result."""
-    from ..records import RecordLog, default_path, record_check
+    from ..checklog import CheckLog, log_check
 
-    path = default_path() if record == "default" else Path(record)
-    with RecordLog(path) as log:
-        record_id = record_check(log, inputs, result, source=str(inputs.loading_file or "command line"), version=__version__)
-    _console(stderr=True).print(f"recorded as {record_id} in {path}", markup=False)
+    with CheckLog(path) as log:
+        record_id = log_check(log, inputs, result, source=str(inputs.loading_file or "command line"), version=__version__)
+    _console(stderr=True).print(f"recorded as {record_id} in the check log {path}", markup=False)
 
 
-def _write_pictures(inputs: Any, result: Any, chart: Path | None, sheet: Path | None) -> None:
+def _write_pictures(inputs: CheckInputs, result: CheckResult, chart: Path | None, sheet: Path | None) -> None:
     """Write the chart and/or the load sheet; report each file written on stderr."""
     from ..files import write_atomic
     from ..render.chart import check_figure, figure_svg, save_figure
@@ -336,7 +356,7 @@ def plan_fuel(
 
     inputs = _inputs(aircraft, loading, load, fuel, taxi, trip, trip_time, rate, order, reserve, category,
                      fuel_to_plan=True, legs=_legs(leg_load, leg_fuel, leg_burn), allow_trip=True)
-    if inputs.is_trip:
+    if inputs.is_trip and inputs.trip is not None:
         from ..trip import trip_most_fuel
 
         _answer(trip_most_fuel(inputs.aircraft, inputs.trip, fill=_fill(fill)), json_out)
@@ -364,7 +384,8 @@ def plan_stop(
 
     inputs = _inputs(aircraft, loading, load, fuel, taxi, trip, trip_time, rate, order, reserve, category,
                      legs=_legs(leg_load, leg_fuel, leg_burn), allow_trip=True)
-    trip_data = inputs.trip
+    # a loading of one leg (no trip resolved) goes as given: fuel_to_add refuses it, naming its legs
+    trip_data = inputs.trip if inputs.trip is not None else _need(inputs.given, "LOADING")
     _answer(fuel_to_add(inputs.aircraft, trip_data, _need(leg, "--leg"), fill=_fill(fill)), json_out)
 
 
@@ -492,12 +513,14 @@ def plan_shift(
     from ..planning import weight_shift
     from ..units import read_amount
 
-    if condition not in ("ramp", "takeoff", "landing", "zero_fuel"):
+    conditions: dict[str, ConditionName] = {"ramp": "ramp", "takeoff": "takeoff", "landing": "landing", "zero_fuel": "zero_fuel"}
+    chosen = conditions.get(condition)
+    if chosen is None:
         raise InputError(Problem("--condition", f"unknown condition {condition!r}", expected="ramp, takeoff, landing or zero_fuel"))
     inputs = _inputs(aircraft, loading, load, fuel, taxi, trip, trip_time, rate, order, reserve, category)
     arm = None if target is None else read_amount(target, inputs.aircraft.units.arm, "--target")
     result = weight_shift(inputs.aircraft, inputs.loading, _need(source, "--from"), _need(to, "--to"),
-                          target_arm=arm, condition=condition)  # type: ignore[arg-type]
+                          target_arm=arm, condition=chosen)
     _answer(result, json_out)
 
 

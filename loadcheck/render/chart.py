@@ -144,7 +144,7 @@ def _spread_limit_names(ax: Axes, vertical: bool, renderer: Any) -> None:
     """Move apart, along the frame, the names of weight limits that lie close together."""
     names = sorted((t for t in ax.texts if (t.get_gid() or "").startswith("limitname-")),
                    key=lambda t: t.xy[0] if vertical else t.xy[1])  # type: ignore[attr-defined]
-    scale = ax.figure.dpi / 72.0  # type: ignore[union-attr]
+    scale = ax.figure.dpi / 72.0
     previous_end: float | None = None
     for text in names:
         box = text.get_window_extent(renderer)
@@ -243,7 +243,7 @@ def _place(figure: Figure, ax: Axes, labels: Sequence[_Label], limits: Sequence[
         text.update_positions(renderer)
         return Text.get_window_extent(text, renderer)  # the words alone, without the leader line
 
-    for label, marker in zip(labels, markers):
+    for label, marker in zip(labels, markers, strict=True):
         half = (marker.x1 - marker.x0) / 2 / scale  # [points]
         point = ((marker.x0 + marker.x1) / 2, (marker.y0 + marker.y1) / 2)
         best_label: tuple[float, Any, Any] | None = None
@@ -337,7 +337,7 @@ def _legend(figure: Figure) -> None:
     """One legend for the figure, below the plots (never on an envelope); one entry per meaning."""
     handles: dict[str, Any] = {}
     for ax in figure.axes:
-        for handle, words in zip(*ax.get_legend_handles_labels()):
+        for handle, words in zip(*ax.get_legend_handles_labels(), strict=True):
             handles.setdefault(words, handle)
     if handles:
         figure.legend(list(handles.values()), list(handles), loc="outside lower center", ncol=min(3, len(handles)),

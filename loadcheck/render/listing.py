@@ -1,7 +1,7 @@
 """Long listings as plain aligned text: one line per row, at any length, quickly.
 
 A rich table lays out every cell of every row before printing (about half a millisecond a
-row), so a listing of a day of flights or of the record of checks is printed as plain text
+row), so a listing of a day of flights or of the check log is printed as plain text
 once it has more than :data:`PLAIN_ROWS` rows: a title, a header, a rule, then each row with
 its columns padded to the widest cell of the column. Nothing is cut or wrapped: a cell
 wider than the terminal runs on, and the verdict words are the same as in the table (no
@@ -41,7 +41,7 @@ def plain_listing(out: IO[str], title: str, headers: Sequence[str], rows: Sequen
     right : indices of the columns aligned to the right (numbers)
     width : the terminal's width [characters]; None for no limit
     """
-    columns = [list(column) for column in zip(*rows)] if rows else [[] for _ in headers]
+    columns = [list(column) for column in zip(*rows, strict=True)] if rows else [[] for _ in headers]
     plain_columns(out, title, headers, columns, right, width)
 
 
@@ -60,7 +60,7 @@ def plain_columns(out: IO[str], title: str, headers: Sequence[str], columns: Seq
 
     columns = [["; ".join(cell.splitlines()) for cell in column] if "\n" in "\x00".join(column) else column
                for column in columns]  # the test in C, the join only where a cell has several lines
-    widths = [max(len(h), max(map(len, column), default=0)) for h, column in zip(headers, columns)]
+    widths = [max(len(h), max(map(len, column), default=0)) for h, column in zip(headers, columns, strict=True)]
     shown = len(headers)
     if width is not None:
         used, shown = -2, 0
@@ -77,7 +77,7 @@ def plain_columns(out: IO[str], title: str, headers: Sequence[str], columns: Seq
         return cells if k == last else map(methodcaller("ljust", widths[k]), cells)
 
     def lines_of(cells: list[Sequence[str]]) -> Any:
-        return map(str.rstrip, map("  ".join, zip(*(padded(k, c) for k, c in enumerate(cells)))))
+        return map(str.rstrip, map("  ".join, zip(*(padded(k, c) for k, c in enumerate(cells)), strict=True)))
 
     out.write(title + "\n")
     out.write(next(iter(lines_of([[h] for h in headers[:shown]]))) + "\n")
@@ -95,7 +95,7 @@ def plain_columns(out: IO[str], title: str, headers: Sequence[str], columns: Seq
                                                   subsequent_indent="    ", break_long_words=False,
                                                   break_on_hyphens=False)) if cell else None
                           for cell in columns[k]])
-    lines = chain.from_iterable(zip(*parts)) if len(parts) > 1 else parts[0]
+    lines = chain.from_iterable(zip(*parts, strict=True)) if len(parts) > 1 else parts[0]
     if any(isinstance(part, list) for part in parts[1:]):
         lines = (line for line in lines if line is not None)
     text = "\n".join(lines)

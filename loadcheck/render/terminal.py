@@ -14,7 +14,7 @@ from __future__ import annotations
 
 from collections.abc import Sequence
 from dataclasses import dataclass
-from itertools import combinations
+from itertools import combinations, pairwise
 from typing import TYPE_CHECKING, Any
 
 from rich.cells import cell_len
@@ -149,7 +149,7 @@ def fitted_tables(
             widths[k] += grow
             spare -= grow
         table = Table(title=title if number == 0 else f"{title} (continued)", title_justify="left")
-        for j, w in zip(block, widths):
+        for j, w in zip(block, widths, strict=True):
             table.add_column(columns[j].header, justify="right" if columns[j].numeric else "left", width=w,
                              overflow="fold", no_wrap=False)
         for r, row in enumerate(rows):
@@ -179,7 +179,7 @@ def _blocks(narrowest: Sequence[int], keys: list[int], others: list[int], width:
         best: tuple[int, list[list[int]]] | None = None
         for cuts in combinations(range(1, len(others)), count - 1):
             edges = (0, *cuts, len(others))
-            parts = [others[a:b] for a, b in zip(edges, edges[1:])]
+            parts = [others[a:b] for a, b in pairwise(edges)]
             widest = max(outer(part) for part in parts)
             if widest <= width and (best is None or widest < best[0]):
                 best = (widest, [keys + part for part in parts])
@@ -670,12 +670,12 @@ def render_schedule(result: Any, aircraft: Aircraft, console: Console) -> None:
         console.print(Text(case.question[:1].upper() + case.question[1:], style="bold"))
         for note in case.notes:
             console.print(f"  {note}", markup=False)
-        seats = ", ".join(f"{aircraft.stations[s].name}: {n}" for s, n in case.occupants.items()) or "none"
+        seats = ", ".join(f"{aircraft.station_by_id[s].name}: {n}" for s, n in case.occupants.items()) or "none"
         console.print(f"  occupants: {seats}", markup=False)
-        other = [f"{aircraft.stations[s].name} {fmt(w, units.mass, 'down')}" for s, w in case.load.items()
-                 if aircraft.stations[s].kind != "seat" and w > 0]
+        other = [f"{aircraft.station_by_id[s].name} {fmt(w, units.mass, 'down')}" for s, w in case.load.items()
+                 if aircraft.station_by_id[s].kind != "seat" and w > 0]
         console.print(f"  baggage, cargo and fixed items: {', '.join(other) or 'none'}", markup=False)
-        fuel = ", ".join(f"{aircraft.tanks[t].name} {fmt(q, units.fuel_volume, 'down')}" for t, q in case.fuel.items())
+        fuel = ", ".join(f"{aircraft.tank_by_id[t].name} {fmt(q, units.fuel_volume, 'down')}" for t, q in case.fuel.items())
         console.print(f"  fuel: {fuel or 'none'}", markup=False)
         console.print(f"  fuel states checked: {case.fuel_states}", markup=False)
         _conditions_table(case.check, console, aircraft)

@@ -66,7 +66,7 @@ def _panel(envelope: Envelope, result: CheckResult, width: int, height: int, lin
         row, col = cell(x, y)
         grid[row][col] = mark
 
-    for (ax, ay), (bx, by) in zip(corners, corners[1:] + corners[:1]):
+    for (ax, ay), (bx, by) in zip(corners, corners[1:] + corners[:1], strict=True):
         steps = 2 * max(width, height)
         for k in range(steps + 1):
             put(ax + (bx - ax) * k / steps, ay + (by - ay) * k / steps, "#")

@@ -2,7 +2,7 @@
 
 Pilots check and record loadings and plan fuel or payload; the dispatcher watches every
 recorded check, verifies and exports them; the mechanic makes a new empty-weight record
-from a weighing or an alteration. The same engine, fleet folder and record log as the
+from a weighing or an alteration. The same engine, fleet folder and check log as the
 command line. The web stack (FastAPI, Jinja2, argon2) is imported only from this package,
 and only when the desk is started; see docs/web.md.
 """

@@ -2,7 +2,7 @@
 
 Routes parse a form or a JSON body, call one library job (the same as the command line:
 :func:`~loadcheck.files.load_check_inputs`, :func:`~loadcheck.check.check_loading`,
-:func:`~loadcheck.planning.most_fuel`, :func:`~loadcheck.records.record_check`,
+:func:`~loadcheck.planning.most_fuel`, :func:`~loadcheck.checklog.log_check`,
 :func:`~loadcheck.empty_record.propose` ...) and render its result. They hold no
 arithmetic and no validation of their own; a bad value comes back as the library's
 problems, with the field named and everything typed kept.
@@ -20,7 +20,7 @@ import time
 from collections import OrderedDict
 from dataclasses import dataclass, replace
 from pathlib import Path
-from typing import Any
+from typing import TYPE_CHECKING, Any
 
 from fastapi import FastAPI, Form, HTTPException, Request, UploadFile
 from fastapi.exceptions import RequestValidationError
@@ -38,6 +38,14 @@ from ..errors import InputError, LoadcheckError, Problem
 from ..words import burn_path_summary, condition_words, stretch_text
 from .security import MAX_BODY_BYTES, BodyLimit, SignInThrottle, csrf_ok, csrf_token
 from .users import Account, UserStore
+
+if TYPE_CHECKING:
+    from ..aircraft import Aircraft
+    from ..checklog import LoggedCheck
+    from ..files import CheckInputs
+    from ..fleet import Fleet
+    from ..loading import Loading, ResolvedTrip
+    from ..results import CheckResult, TripResult
 
 __all__ = ["MAX_LEGS", "CheckRequest", "PayloadRequest", "StopRequest", "create_app", "form_key", "leg_count"]
 
@@ -92,7 +100,7 @@ class _Pending:
 
 
 class Desk:
-    """What the routes share: the fleet folder, the record log's file, the accounts, the guards."""
+    """What the routes share: the fleet folder, the check log's file, the accounts, the guards."""
 
     def __init__(self, fleet_dir: Path, db: Path, users: UserStore):
         self.fleet_dir = fleet_dir
@@ -102,9 +110,9 @@ class Desk:
         self.pending: OrderedDict[str, _Pending] = OrderedDict()
         self.workdir = Path(tempfile.mkdtemp(prefix="loadcheck-desk-"))
         self.lock = threading.Lock()
-        self._fleet: tuple[Any, Any] | None = None
+        self._fleet: tuple[Any, Fleet] | None = None
 
-    def fleet(self) -> Any:
+    def fleet(self) -> Fleet:
         """The fleet as its files are now: read again whenever any aircraft file changed (name, inode, size, time)."""
         from ..fleet import load_fleet
 
@@ -125,7 +133,7 @@ class Desk:
         info = path.stat()
         return info.st_ino, info.st_size, info.st_mtime_ns
 
-    def aircraft_path(self, registration: str) -> tuple[Any, Path]:
+    def aircraft_path(self, registration: str) -> tuple[Aircraft, Path]:
         """The usable aircraft of a registration and its file (the fleet read afresh: a new record shows at once)."""
         fleet = self.fleet()
         aircraft = fleet.aircraft(registration)
@@ -269,7 +277,7 @@ def form_key(field: str) -> str:
     return f"leg.{int(match.group(1)) + 2}" + (f".{rest}" if rest else "")
 
 
-def _inputs(desk: Desk, registration: str, overrides: dict[str, Any]) -> Any:
+def _inputs(desk: Desk, registration: str, overrides: dict[str, Any]) -> CheckInputs:
     """The aircraft and the loading (one leg or a trip of several) resolved, as the command line reads them."""
     from ..files import load_check_inputs
 
@@ -277,9 +285,19 @@ def _inputs(desk: Desk, registration: str, overrides: dict[str, Any]) -> Any:
     return load_check_inputs(path, None, allow_trip=True, **overrides)
 
 
-def _checked_result(inputs: Any) -> Any:
+def _trip_or_given(inputs: CheckInputs) -> Loading | ResolvedTrip:
+    """The trip to plan a stop of; a loading of one leg (no trip resolved) as given, which
+    :func:`~loadcheck.trip.fuel_to_add` refuses naming its legs."""
+    if inputs.trip is not None:
+        return inputs.trip
+    if inputs.given is None:
+        raise InputError(Problem("leg", "the loading has one leg, so no stop"))
+    return inputs.given
+
+
+def _checked_result(inputs: CheckInputs) -> CheckResult | TripResult:
     """The check of a loading: :func:`~loadcheck.trip.check_trip` for a trip, else :func:`~loadcheck.check.check_loading`."""
-    if inputs.is_trip:
+    if inputs.is_trip and inputs.trip is not None:
         from ..trip import check_trip
 
         return check_trip(inputs.aircraft, inputs.trip)
@@ -288,7 +306,7 @@ def _checked_result(inputs: Any) -> Any:
     return check_loading(inputs.aircraft, inputs.loading)
 
 
-def _chart_svg(inputs: Any, result: Any, *, compact: bool = False) -> str:
+def _chart_svg(inputs: CheckInputs, result: Any, *, compact: bool = False) -> str:
     """The envelope chart as SVG: a trip's with one path per leg (as ``check --chart`` draws them)."""
     from ..render.chart import check_figure, figure_svg, trip_figure
 
@@ -298,7 +316,7 @@ def _chart_svg(inputs: Any, result: Any, *, compact: bool = False) -> str:
         return figure_svg(check_figure(inputs.aircraft, result, inputs.label, compact=compact))
 
 
-def _sheet(inputs: Any, result: Any) -> str:
+def _sheet(inputs: CheckInputs, result: Any) -> str:
     """The printable load sheet, made as ``check --sheet`` makes it (a trip's for a trip)."""
     from ..render.sheet import load_sheet_html, trip_sheet_html
 
@@ -321,20 +339,20 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
     Parameters
     ----------
     fleet_dir : the fleet folder (aircraft files; the mechanic's writes go there)
-    db : the record log (default: the command line's, :func:`loadcheck.records.default_path`)
+    db : the check log (default: the command line's, :func:`loadcheck.checklog.default_path`)
     users : the accounts file (default: :func:`loadcheck.web.users.default_users_path`)
     secret : the key signing session cookies (default: a new random one, so a restart signs everyone out)
     https_only : mark the session cookie Secure (behind a TLS proxy)
     """
+    from ..checklog import default_path
     from ..fleet import load_fleet
-    from ..records import default_path
     from .users import default_users_path
 
     folder = Path(fleet_dir)
     load_fleet(folder)  # refuse to start on a folder that is not a fleet
     desk = Desk(folder, Path(db) if db is not None else default_path(), UserStore(users if users is not None else default_users_path()))
     app = FastAPI(title="loadcheck desk", version=__version__, docs_url=None, redoc_url=None, openapi_url=None,
-                  description="The flight school's desk: checks, planning, the record of checks and the empty-weight record, "
+                  description="The flight school's desk: checks, planning, the check log and the empty-weight record, "
                               "over loadcheck's library. Advisory: " + PILOT_CAUTION)
     app.state.desk = desk
     app.add_middleware(SessionMiddleware, secret_key=secret or secrets.token_urlsafe(32), session_cookie="desk_session",
@@ -442,7 +460,7 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
 
     # -- the pilot: check a loading (one leg or a trip), plan, record, the load sheet ------------
 
-    def _form_page(request: Request, aircraft: Any, typed: dict[str, str], problems: list[dict[str, Any]],
+    def _form_page(request: Request, aircraft: Aircraft, typed: dict[str, str], problems: list[dict[str, Any]],
                    status: int = 200) -> Response:
         bad = {p["field"] for p in problems} | {form_key(p["field"]) for p in problems}
         legs = int(typed.get("legs", "1"))
@@ -467,7 +485,7 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
             return account, aircraft, typed, None, desk.problems(error)
         return account, aircraft, typed, inputs, form
 
-    def _form_again(request: Request, aircraft: Any, typed: dict[str, str], problems: list[dict[str, Any]]) -> Response:
+    def _form_again(request: Request, aircraft: Aircraft, typed: dict[str, str], problems: list[dict[str, Any]]) -> Response:
         return _form_page(request, aircraft, typed, problems, 422)
 
     @app.post("/aircraft/{registration}/edit", response_class=HTMLResponse)
@@ -478,7 +496,7 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
         typed, _ = _overrides(form, aircraft)
         return _form_page(request, aircraft, typed, [])
 
-    def _legs_changed(request: Request, aircraft: Any, form: Any, action: str) -> Response:
+    def _legs_changed(request: Request, aircraft: Aircraft, form: Any, action: str) -> Response:
         """The form again with a leg added or one taken out, everything typed kept (nothing is checked)."""
         count = leg_count(form)
         if action == "add_leg":
@@ -511,7 +529,7 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
         return page(request, "result.html", title=f"Result: {registration}", aircraft=aircraft, result=result, typed=typed,
                     trip=inputs.is_trip, chart=_svg_body(_chart_svg(inputs, result)), names_by_leg=names)
 
-    def _plan_page(request: Request, aircraft: Any, typed: dict[str, str], inputs: Any, action: str) -> Response:
+    def _plan_page(request: Request, aircraft: Aircraft, typed: dict[str, str], inputs: CheckInputs, action: str) -> Response:
         """A planning answer from the form: most fuel (for a trip: at the first engine start), most payload
         (a single loading), or the fuel to put in at a stop of a trip."""
         from ..planning import most_fuel, most_payload
@@ -519,14 +537,15 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
 
         plan: Any
         if action == "fuel":
-            plan = trip_most_fuel(inputs.aircraft, inputs.trip) if inputs.is_trip else most_fuel(inputs.aircraft, inputs.loading)
+            plan = (trip_most_fuel(inputs.aircraft, inputs.trip) if inputs.is_trip and inputs.trip is not None
+                    else most_fuel(inputs.aircraft, inputs.loading))
         elif action == "stop":
             if not inputs.is_trip:
                 raise InputError(Problem("stop", "the fuel to put in at a stop is asked of a trip: add a leg first"))
             leg = typed["stop"]
             if not leg.isdigit():
                 raise InputError(Problem("stop", "choose the leg the stop comes before", value=leg or None))
-            plan = fuel_to_add(inputs.aircraft, inputs.trip, int(leg))
+            plan = fuel_to_add(inputs.aircraft, _trip_or_given(inputs), int(leg))
         else:
             if inputs.is_trip:
                 raise InputError(Problem("station", "the most payload at a station is worked out for a loading of one "
@@ -536,14 +555,14 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
 
     @app.post("/aircraft/{registration}/record")
     async def record(request: Request, registration: str) -> Response:
-        from ..records import RecordLog, record_check
+        from ..checklog import CheckLog, log_check
 
         account, aircraft, typed, inputs, form = await _checked(request, registration)
         if inputs is None:
             return _form_again(request, aircraft, typed, form)
         result = _checked_result(inputs)
-        with RecordLog(desk.db) as log:
-            record_id = record_check(log, inputs, result, source="web desk", version=__version__, pilot=account.name)
+        with CheckLog(desk.db) as log:
+            record_id = log_check(log, inputs, result, source="web desk", version=__version__, pilot=account.name)
         return RedirectResponse(f"/records/{record_id}", status_code=303)
 
     @app.post("/aircraft/{registration}/sheet", response_class=HTMLResponse)
@@ -553,18 +572,18 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
             return _form_again(request, aircraft, typed, form)
         return HTMLResponse(_sheet(inputs, _checked_result(inputs)))
 
-    # -- the record of checks --------------------------------------------------------------------
+    # -- the check log --------------------------------------------------------------------
 
     def _visible(account: Account, records: Any) -> Any:
         """Every record for a dispatcher; a pilot's own otherwise."""
         return records if account.has("dispatcher") else (r for r in records if r.pilot == account.name)
 
     def _found(account: Account, registration: str | None, verdict: str | None, day: dt.date | None) -> list[Any]:
-        from ..records import RecordLog
+        from ..checklog import CheckLog
 
         if not desk.db.exists():
             return []
-        with RecordLog(desk.db) as log:
+        with CheckLog(desk.db) as log:
             records = list(_visible(account, log.find(since=day, until=day, registration=registration or None)))
         if verdict in ("within", "out"):
             records = [r for r in records if r.ok == (verdict == "within")]
@@ -587,15 +606,15 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
         day = _day(date)
         records = _found(account, registration, verdict, day)
         registrations = sorted(e.registration for e in desk.fleet().entries if e.registration)
-        return page(request, "records.html", title="Checks", records=records, registrations=registrations,
+        return page(request, "records.html", title="Check log", records=records, registrations=registrations,
                     chosen={"registration": registration or "", "verdict": verdict or "", "date": "" if day is None else day.isoformat()})
 
-    def _record(account: Account, record_id: int) -> Any:
-        from ..records import RecordLog
+    def _record(account: Account, record_id: int) -> LoggedCheck:
+        from ..checklog import CheckLog
 
         if not desk.db.exists():
             raise HTTPException(404)
-        with RecordLog(desk.db) as log:
+        with CheckLog(desk.db) as log:
             try:
                 found = log.get(record_id)
             except LoadcheckError:
@@ -607,7 +626,7 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
     @app.get("/records/export")
     def export(request: Request, format: str = "csv", registration: str | None = None, verdict: str | None = None,
                date: str | None = None) -> Response:
-        from ..records import export_text
+        from ..checklog import export_text
 
         account = _account(request)
         if format not in ("csv", "jsonl"):
@@ -629,12 +648,12 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
     async def verify_page(request: Request, record_id: int) -> Response:
         import json
 
-        from ..records import RecordLog, verify
+        from ..checklog import CheckLog, verify
 
         account = _need(request, "dispatcher")
         await _form(request)
         found = _record(account, record_id)
-        with RecordLog(desk.db) as log:
+        with CheckLog(desk.db) as log:
             verification = verify(log, record_id)
         return page(request, "record.html", title=f"Check {record_id}", record=found, verification=verification,
                     inputs_json=json.dumps(found.inputs, indent=2))
@@ -711,7 +730,7 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
 
     # -- the JSON API: the command line's JSON shapes --------------------------------------------
 
-    def _api_inputs(body: CheckRequest) -> Any:
+    def _api_inputs(body: CheckRequest) -> CheckInputs:
         legs = {number: leg for number, leg in enumerate(body.leg, start=2)}
         return _inputs(desk, body.registration, {"load": body.load, "names": body.names, "fuel": body.fuel, "burn": body.burn,
                                                  "category": body.category, "legs": legs})
@@ -736,7 +755,7 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
     def api_check(request: Request, body: CheckRequest) -> Any:
         """Check a loading or a trip of several legs (the JSON of ``check --json``); with ``record``, record it
         and give its ``record_id``."""
-        from ..records import RecordLog, record_check
+        from ..checklog import CheckLog, log_check
 
         account = _need(request, "pilot")
         try:
@@ -746,8 +765,8 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
         result = _checked_result(inputs)
         answer = result.to_dict()
         if body.record:
-            with RecordLog(desk.db) as log:
-                answer["record_id"] = record_check(log, inputs, result, source="web desk", version=__version__, pilot=account.name)
+            with CheckLog(desk.db) as log:
+                answer["record_id"] = log_check(log, inputs, result, source="web desk", version=__version__, pilot=account.name)
         return answer
 
     @app.post("/api/plan/fuel")
@@ -760,7 +779,7 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
         _need(request, "pilot")
         try:
             inputs = _api_inputs(body)
-            if inputs.is_trip:
+            if inputs.is_trip and inputs.trip is not None:
                 return trip_most_fuel(inputs.aircraft, inputs.trip).to_dict()
             return most_fuel(inputs.aircraft, inputs.loading).to_dict()
         except (LoadcheckError, ValidationError) as error:
@@ -776,7 +795,7 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
             inputs = _api_inputs(body)
             if not inputs.is_trip:
                 raise InputError(Problem("leg", "the fuel to put in at a stop is asked of a trip of two legs or more"))
-            return fuel_to_add(inputs.aircraft, inputs.trip, body.stop).to_dict()
+            return fuel_to_add(inputs.aircraft, _trip_or_given(inputs), body.stop).to_dict()
         except (LoadcheckError, ValidationError) as error:
             return _api_error(error)
 
@@ -803,7 +822,7 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
 
     @app.get("/api/records/{record_id}")
     def api_record(request: Request, record_id: int) -> dict[str, Any]:
-        """One record with its inputs and result (as ``records export --format jsonl`` gives it)."""
+        """One record with its inputs and result (as ``log export --format jsonl`` gives it)."""
         found = _record(_account(request), record_id)
         return {**found.summary(), "inputs": found.inputs, "result": found.result}
 

@@ -1,5 +1,5 @@
-"""The record of checks: verification of every stored field, exports with their units, and
-recorded checks against the current aircraft data (docs/fleet.md, "The record of checks")."""
+"""The check log: verification of every stored field, exports with their units, and
+recorded checks against the current aircraft data (docs/fleet.md, "The check log")."""
 
 from __future__ import annotations
 
@@ -11,9 +11,9 @@ from pathlib import Path
 
 import pytest
 
+from loadcheck.checklog import CheckLog, verify, verify_current
 from loadcheck.cli import app
 from loadcheck.fleet import load_fleet
-from loadcheck.records import RecordLog, verify, verify_current
 
 from .helpers import app_runner, sample
 
@@ -23,14 +23,14 @@ SAMPLES = Path(sample("trainer4/aircraft.toml")).parent.parent
 @pytest.fixture
 def db(tmp_path, monkeypatch):
     path = tmp_path / "records.sqlite3"
-    monkeypatch.setenv("LOADCHECK_RECORDS", str(path))
+    monkeypatch.setenv("LOADCHECK_LOG", str(path))
     return path
 
 
 def _record(db: Path, loading: str, *extra: str) -> int:
-    result = app_runner().invoke(app, ["check", str(sample(loading)), "--record", str(db), *extra])
+    result = app_runner().invoke(app, ["check", str(sample(loading)), "--log", "--db", str(db), *extra])
     assert result.exit_code in (0, 1), result.output
-    with RecordLog(db) as log:
+    with CheckLog(db) as log:
         return list(log.find())[-1].id
 
 
@@ -45,10 +45,10 @@ def _tamper(db: Path, statement: str, *args: object) -> None:
 
 def test_an_untouched_record_is_reproduced(runner, db):
     record_id = _record(db, "trainer4/over_weight.toml")
-    with RecordLog(db) as log:
+    with CheckLog(db) as log:
         verification = verify(log, record_id)
     assert verification.reproduced and not verification.differences and verification.ok is False
-    result = runner.invoke(app, ["records", "verify", str(record_id)])
+    result = runner.invoke(app, ["log", "verify", str(record_id)])
     assert result.exit_code == 0 and "every stored field matches" in result.output
 
 
@@ -62,34 +62,34 @@ def test_an_untouched_record_is_reproduced(runner, db):
         ("pilot", "someone else", "seal"),
         ("source", "elsewhere.toml", "seal"),
         ("checked_at", "2020-01-01T00:00:00+00:00", "seal"),
-        ("legs", 2, "stored number of legs"),  # the count records list shows, outside the seal
+        ("legs", 2, "stored number of legs"),  # the count log list shows, outside the seal
     ],
 )
 def test_verify_finds_an_edit_to_any_stored_column(runner, db, column, value, words):
     record_id = _record(db, "trainer4/over_weight.toml")
     _tamper(db, f"UPDATE checks SET {column} = ? WHERE id = ?", value, record_id)
-    result = runner.invoke(app, ["records", "verify", str(record_id)])
+    result = runner.invoke(app, ["log", "verify", str(record_id)])
     assert result.exit_code == 1, result.output
     assert "NOT reproduced" in result.output and words in result.output
 
 
 def test_verify_finds_an_edited_result(runner, db):
     record_id = _record(db, "trainer4/over_weight.toml")
-    with RecordLog(db) as log:
+    with CheckLog(db) as log:
         stored = log.get(record_id).result
     stored["ok"] = True
     stored["findings"] = []
     _tamper(db, "UPDATE checks SET result = ?, ok = 1 WHERE id = ?", json.dumps(stored), record_id)
-    listing = runner.invoke(app, ["records", "list"])
+    listing = runner.invoke(app, ["log", "list"])
     assert "within limits" in listing.output  # the listing shows the stored column ...
-    result = runner.invoke(app, ["records", "verify", str(record_id), "--json"])
+    result = runner.invoke(app, ["log", "verify", str(record_id), "--json"])
     assert result.exit_code == 1  # ... and verify says it is not what was recorded
     assert any("stored result differs" in d for d in json.loads(result.stdout)["differences"])
 
 
 def test_a_record_from_before_seals_is_verified_and_says_what_it_cannot_check(runner, tmp_path):
     path = tmp_path / "old.sqlite3"
-    with RecordLog(path):
+    with CheckLog(path):
         pass
     connection = sqlite3.connect(path)  # the table as an earlier version made it: no seal column
     connection.executescript("DROP TRIGGER checks_never_deleted; DROP TABLE checks; CREATE TABLE checks ("
@@ -99,18 +99,18 @@ def test_a_record_from_before_seals_is_verified_and_says_what_it_cannot_check(ru
     connection.close()
     record_id = _record(path, "trainer4/within.toml")
     _tamper(path, "UPDATE checks SET seal = NULL WHERE id = ?", record_id)
-    result = runner.invoke(app, ["records", "verify", str(record_id), "--db", str(path)])
+    result = runner.invoke(app, ["log", "verify", str(record_id), "--db", str(path)])
     assert result.exit_code == 0 and "has no seal" in result.output
 
 
 def test_csv_export_names_the_units_of_each_row_in_a_mixed_fleet(runner, db):
     # trainer4 is in lb and in, tandem2 in kg and mm: each row's numbers are in its own aircraft's units
     runner.invoke(app, ["fleet", "check", str(SAMPLES), str(SAMPLES / "fleet_day.csv")])
-    exported = runner.invoke(app, ["records", "export", "--format", "csv"])
+    exported = runner.invoke(app, ["log", "export", "--format", "csv"])
     rows = list(csv.DictReader(exported.stdout.splitlines()))
     units = {r["registration"]: (r["mass_unit"], r["arm_unit"]) for r in rows}
     assert units["DEMO-4T"] == ("lb", "in") and units["DEMO-2T"] == ("kg", "mm")
-    with RecordLog(db) as log:
+    with CheckLog(db) as log:
         by_id = {r.id: r for r in log.find()}
     for row in rows:
         result = by_id[int(row["id"])].result
@@ -129,7 +129,7 @@ def _fleet_copy(tmp_path: Path) -> Path:
 def test_current_mode_unchanged_data_exits_0(runner, db, tmp_path):
     fleet = _fleet_copy(tmp_path)
     _record(db, "trainer4/within.toml")
-    result = runner.invoke(app, ["records", "verify", "--current", str(fleet)], env={"COLUMNS": "250"})  # one line a record
+    result = runner.invoke(app, ["log", "verify", "--current", str(fleet)], env={"COLUMNS": "250"})  # one line a record
     assert result.exit_code == 0, result.output
     assert "0 made with aircraft data that has changed since" in result.output
 
@@ -140,22 +140,22 @@ def test_current_mode_finds_a_check_the_new_data_puts_out_of_limits(runner, db, 
     aircraft = fleet / "trainer4" / "aircraft.toml"
     # a heavier empty weight (a new weighing): the recorded loading now exceeds the maximum takeoff weight
     aircraft.write_text(aircraft.read_text().replace("weight = 1718.0", "weight = 2200.0"))
-    with RecordLog(db) as log:
+    with CheckLog(db) as log:
         outcome = verify_current(log.find(), load_fleet(fleet))
     (check,) = outcome.checks
     assert check.record_id == within and check.data_changed and check.recorded_ok and check.current_ok is False
     assert outcome.status == 1 and outcome.now_out_of_limits == 1
-    result = runner.invoke(app, ["records", "verify", "--current", str(fleet)], env={"COLUMNS": "250"})  # one line a record
+    result = runner.invoke(app, ["log", "verify", "--current", str(fleet)], env={"COLUMNS": "250"})  # one line a record
     assert result.exit_code == 1 and "changed since" in result.output and "(was within)" in result.output
     assert "LIMIT" in result.output
     # the plain verification still reproduces the record with the data it was made with
-    assert runner.invoke(app, ["records", "verify", str(within)]).exit_code == 0
+    assert runner.invoke(app, ["log", "verify", str(within)]).exit_code == 0
 
 
 def test_current_mode_a_record_whose_aircraft_is_gone_exits_2(runner, db, tmp_path):
     fleet = _fleet_copy(tmp_path)
     _record(db, "twin6/within.toml")
-    result = runner.invoke(app, ["records", "verify", "--current", str(fleet), "--json"])
+    result = runner.invoke(app, ["log", "verify", "--current", str(fleet), "--json"])
     assert result.exit_code == 2
     (check,) = json.loads(result.stdout)["checks"]
     assert "unknown registration 'DEMO-6P'" in check["problem"] and "current_ok" not in check
@@ -163,21 +163,21 @@ def test_current_mode_a_record_whose_aircraft_is_gone_exits_2(runner, db, tmp_pa
 
 def test_verify_needs_an_id_without_current(runner, db):
     _record(db, "trainer4/within.toml")
-    result = runner.invoke(app, ["records", "verify"])
+    result = runner.invoke(app, ["log", "verify"])
     assert result.exit_code == 2 and "record id" in result.output and "Traceback" not in result.output
 
 
 def test_a_long_listing_reads_only_what_it_shows(runner, db):
-    # records list of 10,000 records took 5 s: it read and parsed every stored result and
+    # log list of 10,000 records took 5 s: it read and parsed every stored result and
     # laid out a rich table; it now reads the columns it shows and prints plain aligned
     # text past the threshold. A record whose stored result cannot be parsed still lists.
     from loadcheck.render.listing import PLAIN_ROWS
 
-    with RecordLog(db) as log:
+    with CheckLog(db) as log:
         log.add_many([{"aircraft_data": {"x": 1}, "fingerprint": "f" * 16, "inputs": {}, "result": {"ok": i % 2 == 0},
                        "registration": "DEMO-4T", "reference": f"R{i}", "pilot": "A. Pilot"} for i in range(PLAIN_ROWS + 5)])
     _tamper(db, "UPDATE checks SET result = 'not json' WHERE id = 3")
-    result = runner.invoke(app, ["records", "list"])
+    result = runner.invoke(app, ["log", "list"])
     assert result.exit_code == 0, result.output
     lines = result.stdout.splitlines()
     rows = [line for line in lines if "DEMO-4T" in line]
@@ -194,7 +194,7 @@ def test_a_long_listing_reads_only_what_it_shows(runner, db):
 
 def test_a_trip_is_recorded_verified_listed_and_exported_as_one_record(runner, db, tmp_path):
     from loadcheck import load_check_inputs
-    from loadcheck.records import record_check
+    from loadcheck.checklog import log_check
     from loadcheck.trip import check_trip
 
     from .test_trip import trip_fleet
@@ -202,13 +202,13 @@ def test_a_trip_is_recorded_verified_listed_and_exported_as_one_record(runner, d
     folder = trip_fleet(tmp_path / "fleet")
     inputs = load_check_inputs(folder / "trip.toml", allow_trip=True)
     trip = check_trip(inputs.aircraft, inputs.trip)
-    with RecordLog(db) as log:  # the library's one recording job, as the web desk calls it
-        first = record_check(log, inputs, trip, source="trip.toml", version="test")
-    checked = runner.invoke(app, ["check", str(folder / "trip.toml"), "--record", str(db)])  # the command line
+    with CheckLog(db) as log:  # the library's one recording job, as the web desk calls it
+        first = log_check(log, inputs, trip, source="trip.toml", version="test")
+    checked = runner.invoke(app, ["check", str(folder / "trip.toml"), "--log", "--db", str(db)])  # the command line
     assert checked.exit_code == 1 and "recorded as 2" in checked.stderr
-    flown = runner.invoke(app, ["fleet", "check", str(folder), str(folder / "day.csv"), "--record", str(db)])
+    flown = runner.invoke(app, ["fleet", "check", str(folder), str(folder / "day.csv"), "--log", "--db", str(db)])
     assert flown.exit_code == 1 and "2 check(s) recorded" in flown.stderr  # the trip and the single flight
-    with RecordLog(db) as log:
+    with CheckLog(db) as log:
         records = list(log.find())
         assert len(records) == 4
         for record in records[:3]:  # each trip is one record: its inputs (every leg), the trip's result
@@ -218,11 +218,11 @@ def test_a_trip_is_recorded_verified_listed_and_exported_as_one_record(runner, d
             assert verification.reproduced and verification.ok is False, verification.differences
         assert records[2].source.endswith("day.csv:2,3") and records[2].reference == "F1"
         assert [r[-1] for r in log.listing()] == [2, 2, 2, 1]
-    listed = runner.invoke(app, ["records", "list"], env={"COLUMNS": "200"})
+    listed = runner.invoke(app, ["log", "list"], env={"COLUMNS": "200"})
     assert listed.exit_code == 0 and listed.stdout.count("OUT OF LIMITS (2 legs)") == 3
-    assert runner.invoke(app, ["records", "verify", str(first)]).exit_code == 0
+    assert runner.invoke(app, ["log", "verify", str(first)]).exit_code == 0
     # CSV: a line per leg, the trip's verdict in ok, each leg's own figures and verdict
-    rows = list(csv.DictReader(runner.invoke(app, ["records", "export", "--format", "csv"]).stdout.splitlines()))
+    rows = list(csv.DictReader(runner.invoke(app, ["log", "export", "--format", "csv"]).stdout.splitlines()))
     assert [(r["id"], r["legs"], r["leg"], r["ok"], r["leg_ok"]) for r in rows] == [
         (str(i), "2", leg, "False", ok) for i in (1, 2, 3) for leg, ok in (("1", "True"), ("2", "False"))
     ] + [("4", "1", "", "True", "")]
@@ -231,7 +231,7 @@ def test_a_trip_is_recorded_verified_listed_and_exported_as_one_record(runner, d
     assert float(rows[1]["takeoff_arm"]) == pytest.approx(146320 / 1688)
     assert float(rows[1]["landing_weight"]) == pytest.approx(1628.0) and rows[1]["first_finding"].startswith("aft") is False
     assert "aft of the aft limit" in rows[1]["first_finding"] and rows[0]["first_finding"] == ""
-    lines = [json.loads(line) for line in runner.invoke(app, ["records", "export"]).stdout.splitlines()]
+    lines = [json.loads(line) for line in runner.invoke(app, ["log", "export"]).stdout.splitlines()]
     assert lines[0]["result"] == trip.to_dict() and lines[0]["inputs"]["leg"] and "legs" not in lines[3]["result"]
 
 
@@ -239,12 +239,12 @@ def test_a_trip_record_with_an_edited_leg_is_not_reproduced(runner, db, tmp_path
     from .test_trip import trip_fleet
 
     folder = trip_fleet(tmp_path / "fleet")
-    assert runner.invoke(app, ["check", str(folder / "trip.toml"), "--record", str(db)]).exit_code == 1
-    with RecordLog(db) as log:
+    assert runner.invoke(app, ["check", str(folder / "trip.toml"), "--log", "--db", str(db)]).exit_code == 1
+    with CheckLog(db) as log:
         stored = log.get(1).result
     stored["legs"][1]["ok"] = True
     _tamper(db, "UPDATE checks SET result = ? WHERE id = 1", json.dumps(stored))
-    result = runner.invoke(app, ["records", "verify", "1"])
+    result = runner.invoke(app, ["log", "verify", "1"])
     assert result.exit_code == 1 and "stored result differs" in result.output
 
 
@@ -255,11 +255,11 @@ def test_single_records_are_unchanged_by_trips(runner, db):
 
     record_id = _record(db, "trainer4/within.toml")
     inputs = load_check_inputs(sample("trainer4/within.toml"))
-    with RecordLog(db) as log:
+    with CheckLog(db) as log:
         record = log.get(record_id)
         assert record.result == check_loading(inputs.aircraft, inputs.loading).to_dict() and not record.inputs.get("leg")
         assert next(iter(log.listing()))[-1] == 1 and verify(log, record_id).reproduced
-    (row,) = csv.DictReader(runner.invoke(app, ["records", "export", "--format", "csv"]).stdout.splitlines())
+    (row,) = csv.DictReader(runner.invoke(app, ["log", "export", "--format", "csv"]).stdout.splitlines())
     assert (row["legs"], row["leg"], row["leg_ok"]) == ("1", "", "")
     takeoff = check_loading(inputs.aircraft, inputs.loading).condition("takeoff")
     assert float(row["takeoff_weight"]) == pytest.approx(takeoff.weight)
@@ -267,8 +267,8 @@ def test_single_records_are_unchanged_by_trips(runner, db):
 
 def test_a_trip_result_is_not_recorded_against_single_inputs(db, tmp_path):
     from loadcheck import load_check_inputs
+    from loadcheck.checklog import log_check
     from loadcheck.errors import InputError
-    from loadcheck.records import record_check
     from loadcheck.trip import check_trip
 
     from .test_trip import trip_fleet
@@ -276,8 +276,8 @@ def test_a_trip_result_is_not_recorded_against_single_inputs(db, tmp_path):
     folder = trip_fleet(tmp_path / "fleet")
     trip_inputs = load_check_inputs(folder / "trip.toml", allow_trip=True)
     single = load_check_inputs(sample("trainer4/within.toml"))
-    with RecordLog(db) as log, pytest.raises(InputError, match="not the check of these inputs"):
-        record_check(log, single, check_trip(trip_inputs.aircraft, trip_inputs.trip), source="x", version="test")
+    with CheckLog(db) as log, pytest.raises(InputError, match="not the check of these inputs"):
+        log_check(log, single, check_trip(trip_inputs.aircraft, trip_inputs.trip), source="x", version="test")
 
 
 def test_a_trip_recorded_within_limits_is_checked_against_the_current_data(runner, db, tmp_path):
@@ -286,11 +286,11 @@ def test_a_trip_recorded_within_limits_is_checked_against_the_current_data(runne
     folder = trip_fleet(tmp_path / "fleet")
     within = folder / "within.toml"
     within.write_text((folder / "trip.toml").read_text().replace("rear = 400", "rear = 100"))
-    assert runner.invoke(app, ["check", str(within), "--record", str(db)]).exit_code == 0
+    assert runner.invoke(app, ["check", str(within), "--log", "--db", str(db)]).exit_code == 0
     aircraft = folder / "aircraft.toml"
     # a new weighing, 700 lb heavier (invented): leg 1 alone now weighs 1,700 + 180 + 180 = 2,060 lb at the ramp
     aircraft.write_text(aircraft.read_text().replace("weight = 1000.0", "weight = 1700.0"))
-    result = runner.invoke(app, ["records", "verify", "--current", str(folder), "--json"])
+    result = runner.invoke(app, ["log", "verify", "--current", str(folder), "--json"])
     assert result.exit_code == 1, result.output
     (check,) = json.loads(result.stdout)["checks"]
     assert check["data_changed"] and check["recorded_ok"] and check["current_ok"] is False
@@ -304,7 +304,7 @@ def test_records_list_does_not_load_the_aircraft_models(db, tmp_path):
     import sys
 
     _record(db, "trainer4/within.toml")
-    code = ("import sys; sys.argv = ['loadcheck', 'records', 'list', '--db', sys.argv[1]]\n"
+    code = ("import sys; sys.argv = ['loadcheck', 'log', 'list', '--db', sys.argv[1]]\n"
             "import loadcheck.cli as cli\ntry:\n    cli.main()\nexcept SystemExit as stop:\n    code = stop.code\n"
             "print(code, [m for m in ('numpy', 'shapely', 'loadcheck.aircraft') if m in sys.modules], file=sys.stderr)")
     done = subprocess.run([sys.executable, "-c", code, str(db)], capture_output=True, text=True, check=True, cwd=tmp_path)

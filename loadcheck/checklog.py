@@ -1,4 +1,7 @@
-"""The record of checks: an embedded SQLite log that is only ever appended to.
+"""The check log: an embedded SQLite log of checks that is only ever appended to.
+
+(The aircraft's own weight-and-balance record, its empty weight and CG, is
+:mod:`loadcheck.empty_record`'s; this is the log of the checks made.)
 
 Each record holds the time, the registration, reference and pilot, the inputs (the
 loading as given), the full result, the aircraft data's fingerprint, and the canonical
@@ -40,8 +43,8 @@ from .caution import PILOT_CAUTION
 from .errors import FileFormatError, InputError, LoadcheckError, Problem
 from .results import Result
 
-__all__ = ["CurrentCheck", "CurrentVerification", "Record", "RecordLog", "Verification", "default_path", "export_text",
-           "record_check", "results_match", "verify", "verify_current"]
+__all__ = ["CurrentCheck", "CurrentVerification", "LoggedCheck", "CheckLog", "Verification", "default_path", "export_text",
+           "log_check", "results_match", "verify", "verify_current"]
 
 _COLUMNS = ("id, checked_at, registration, reference, pilot, source, category, ok, fingerprint, inputs, result, version, "
             "seal, legs")
@@ -92,9 +95,24 @@ BEGIN SELECT RAISE(ABORT, 'recorded aircraft data is never deleted'); END;
 """
 
 
+_OLD_ENV = "LOADCHECK_RECORDS"  # rename.py: keep (the variable's name before issue 21)
+
+
 def default_path() -> Path:
-    """Where records go by default: $LOADCHECK_RECORDS, else the user data folder."""
-    explicit = os.environ.get("LOADCHECK_RECORDS")
+    """Where the check log is by default: $LOADCHECK_LOG, else the user data folder.
+
+    Raises
+    ------
+    InputError
+        If the variable's old name (``_OLD_ENV``, before issue 21) is set, to another path
+        than $LOADCHECK_LOG: a path the user set is never silently passed over for another.
+    """
+    explicit = os.environ.get("LOADCHECK_LOG")
+    old = os.environ.get(_OLD_ENV)
+    if old and old != explicit:
+        raise InputError(Problem(f"${_OLD_ENV}", "this variable is now named LOADCHECK_LOG: rename it"
+                                 + (" (both are set, to different files)" if explicit else ""),
+                                 value=old, expected="LOADCHECK_LOG=FILE"))
     if explicit:
         return Path(explicit)
     from platformdirs import user_data_path
@@ -103,7 +121,7 @@ def default_path() -> Path:
 
 
 @dataclass(frozen=True)
-class Record:
+class LoggedCheck:
     """One recorded check."""
 
     id: int
@@ -128,7 +146,7 @@ class Record:
                                               "category", "ok", "fingerprint", "version")}
 
 
-class RecordLog:
+class CheckLog:
     """An append-only log of checks in one SQLite file.
 
     Parameters
@@ -146,9 +164,9 @@ class RecordLog:
             self._db.execute("PRAGMA synchronous=NORMAL")
             self._retry(self._create)
         except sqlite3.DatabaseError as error:
-            raise FileFormatError(f"cannot use the record database: {error}", file=self.path) from None
+            raise FileFormatError(f"cannot use the check log: {error}", file=self.path) from None
         except OSError as error:
-            raise FileFormatError(f"cannot open the record database: {error.strerror or error}", file=self.path) from None
+            raise FileFormatError(f"cannot open the check log: {error.strerror or error}", file=self.path) from None
         self._known: set[str] = set()
 
     def _create(self) -> None:
@@ -185,7 +203,7 @@ class RecordLog:
         """Close the database."""
         self._db.close()
 
-    def __enter__(self) -> RecordLog:
+    def __enter__(self) -> CheckLog:
         return self
 
     def __exit__(self, *exc: object) -> None:
@@ -235,14 +253,14 @@ class RecordLog:
         self._known.update(r["fingerprint"] for r in records)
         return ids
 
-    def _row(self, row: tuple[Any, ...]) -> Record:
-        return Record(
+    def _row(self, row: tuple[Any, ...]) -> LoggedCheck:
+        return LoggedCheck(
             id=row[0], checked_at=row[1], registration=row[2], reference=row[3], pilot=row[4], source=row[5],
             category=row[6], ok=bool(row[7]), fingerprint=row[8], inputs=json.loads(row[9]), result=json.loads(row[10]),
             version=row[11], seal=row[12], stored=tuple(row[1:12]), legs=row[13],
         )
 
-    def get(self, record_id: int) -> Record:
+    def get(self, record_id: int) -> LoggedCheck:
         """One record by id.
 
         Raises
@@ -264,7 +282,7 @@ class RecordLog:
         return data
 
     def find(self, *, since: dt.date | None = None, until: dt.date | None = None,
-             registration: str | None = None) -> Iterator[Record]:
+             registration: str | None = None) -> Iterator[LoggedCheck]:
         """Records in order, between two dates (inclusive, UTC) and/or for one registration."""
         for row in self._select(_COLUMNS, since, until, registration):
             yield self._row(row)
@@ -296,17 +314,17 @@ class RecordLog:
         yield from self._db.execute(f"SELECT {columns} FROM checks{where} ORDER BY id", args)
 
 
-def record_check(log: RecordLog, inputs: Any, result: Any, *, source: str, version: str, pilot: str | None = None) -> int:
+def log_check(log: CheckLog, inputs: Any, result: Any, *, source: str, version: str, pilot: str | None = None) -> int:
     """Record one check: the loading as given (file and options or form merged) and the full result.
 
-    The one way a check is recorded, for every front end (``check --record``, the web desk):
+    The one way a check is recorded, for every front end (``check --log``, ``fleet check``, the web desk):
     a single loading with its :class:`~loadcheck.results.CheckResult`, or a trip of several
     legs with its :class:`~loadcheck.results.TripResult` (one record: the trip's inputs, every
     leg in them, and the trip's result; its verdict is the trip's).
 
     Parameters
     ----------
-    log : the record log to append to
+    log : the check log to append to
     inputs : the :class:`~loadcheck.files.CheckInputs` that were checked
     result : the :class:`~loadcheck.results.CheckResult` or :class:`~loadcheck.results.TripResult` of ``inputs``
     source : where the loading came from (a file name, "command line", "web desk")
@@ -336,7 +354,7 @@ _CSV_HEAD = ["id", "checked_at", "registration", "reference", "pilot", "source",
              "legs", "leg", "leg_ok"]
 
 
-def _csv_lines(record: Record) -> list[list[Any]]:
+def _csv_lines(record: LoggedCheck) -> list[list[Any]]:
     """One record's key figures: takeoff and landing weight and arm in the units of the record's
     aircraft (named in its own columns: a fleet may mix lb/in and kg/m), the first limit finding.
 
@@ -359,7 +377,7 @@ def _csv_lines(record: Record) -> list[list[Any]]:
     return [head + figures(leg) + [len(legs), leg["leg"], bool(leg["ok"])] for leg in legs]
 
 
-def export_text(records: Iterable[Record], format: str) -> str:
+def export_text(records: Iterable[LoggedCheck], format: str) -> str:
     """Records as JSON Lines (``jsonl``: everything) or CSV (``csv``: one line of key figures each)."""
     buffer = io.StringIO()
     if format == "jsonl":
@@ -371,7 +389,7 @@ def export_text(records: Iterable[Record], format: str) -> str:
         for r in records:
             writer.writerows(_csv_lines(r))
     else:
-        raise ValueError(f"unknown export format {format!r} (csv or jsonl)")
+        raise InputError(Problem("format", "unknown export format", value=format, expected="csv or jsonl"))
     return buffer.getvalue()
 
 
@@ -380,7 +398,7 @@ def results_match(a: Any, b: Any, rel: float = 1e-9) -> bool:
     if isinstance(a, dict) and isinstance(b, dict):
         return a.keys() == b.keys() and all(results_match(a[k], b[k], rel) for k in a)
     if isinstance(a, list) and isinstance(b, list):
-        return len(a) == len(b) and all(results_match(x, y, rel) for x, y in zip(a, b))
+        return len(a) == len(b) and all(results_match(x, y, rel) for x, y in zip(a, b, strict=True))
     if isinstance(a, bool) or isinstance(b, bool):
         return a == b
     if isinstance(a, (int, float)) and isinstance(b, (int, float)):
@@ -428,7 +446,7 @@ def _check_again(aircraft: Any, inputs: dict[str, Any], where: str) -> Any:
     return check_loading(aircraft, resolved)
 
 
-def verify(log: RecordLog, record_id: int) -> Verification:
+def verify(log: CheckLog, record_id: int) -> Verification:
     """Recompute a recorded check from its stored inputs and aircraft data and compare every stored field.
 
     Compared: the result (numbers within a relative 1e-9), the aircraft data's fingerprint,
@@ -462,7 +480,7 @@ def verify(log: RecordLog, record_id: int) -> Verification:
     legs = 1 + len(record.inputs.get("leg") or ())
     stored_legs = 1 if record.legs is None else record.legs
     if stored_legs != legs or len(again.get("legs", (again,))) != legs:
-        differences.append(f"the stored number of legs ({stored_legs}, which records list shows) is not the recorded "
+        differences.append(f"the stored number of legs ({stored_legs}, which log list shows) is not the recorded "
                            f"loading's ({legs})")
     given = record.inputs.get("registration")
     if given is not None and given != record.registration:
@@ -522,12 +540,12 @@ class CurrentVerification(Result):
     caution: str = PILOT_CAUTION
 
 
-def verify_current(records: Iterable[Record], fleet: Any) -> CurrentVerification:
+def verify_current(records: Iterable[LoggedCheck], fleet: Any) -> CurrentVerification:
     """Check recorded loadings again with the current aircraft data of a fleet.
 
     Parameters
     ----------
-    records : the recorded checks (e.g. :meth:`RecordLog.find`)
+    records : the recorded checks (e.g. :meth:`CheckLog.find`)
     fleet : a :class:`~loadcheck.fleet.Fleet` holding the current aircraft files, by registration
 
     Returns
