@@ -147,7 +147,7 @@ def _explain(aircraft: Aircraft, loadings: Sequence[ResolvedLoading], found: Eva
     )
     units_info = UnitsInfo(mass=units.mass, arm=units.arm, fuel_volume=units.fuel_volume, moment=units.moment)
     rows = _Rows(found)
-    margins = _margins(shapes, found, tables.weights)
+    margins = _margins(shapes, found, tables.weights, tables.allowance)
     exceeded: list[bool] = np.any(found.load_exceeded, axis=1).tolist()  # type: ignore[assignment]
     ok_rows: list[bool] = list(found.ok.tolist())
     for i, resolved in enumerate(loadings):
@@ -235,7 +235,7 @@ def _condition(
     severity: Severity = "warning" if name == "zero_fuel" and aircraft.limits.zero_fuel_cg == "warning" else "limit"
     for envelope, shape, inside in zip(envelopes, shapes, rows.inside[name], strict=True):
         if not inside[i]:
-            tested = envelope_state(shape, name, weight, moment, lateral)
+            tested = envelope_state(shape, name, weight, moment, lateral, allowance=engine_tables(aircraft).allowance)
             label = f"the {envelope.label or envelope.category + '-category'} envelope"
             label = label.replace("envelope envelope", "envelope")
             findings.append(_outside_finding(aircraft, shape, label, name, *tested, severity))
@@ -277,7 +277,7 @@ _ONE_BY_ONE = 2  # up to this many loadings, slices are cut one at a time (fewer
 
 
 def _margins_one(shapes: Sequence[EnvelopeShape], states: Sequence[tuple[float, float, float]],
-                 weight_limits: Sequence[float | None]) -> list[Margins]:
+                 weight_limits: Sequence[float | None], allowance: float) -> list[Margins]:
     """The margins of one loading at each condition (``states``: weight, moment, lateral
     moment in CONDITIONS order), from :meth:`EnvelopeShape.slices`: every slice of an
     envelope cut with one containment call."""
@@ -295,7 +295,7 @@ def _margins_one(shapes: Sequence[EnvelopeShape], states: Sequence[tuple[float, 
         lines: list[tuple[float, float, float, Vary]] = []
         held: list[tuple[int, str, float]] = []  # per line: condition, what it gives, the value held
         for k, name in enumerate(CONDITIONS):
-            w, m, lat = envelope_state(shape, name, *states[k])
+            w, m, lat = envelope_state(shape, name, *states[k], allowance=allowance)
             arm, lateral_arm = m / w, lat / w
             if shape.is_lateral:
                 lines.append((w, arm, lateral_arm, "lateral"))
@@ -303,9 +303,8 @@ def _margins_one(shapes: Sequence[EnvelopeShape], states: Sequence[tuple[float, 
             else:
                 lines.append((w, arm, lateral_arm, "arm"))
                 held.append((k, "arm", arm))
-                if name != "ramp":
-                    lines.append((w, arm, lateral_arm, "weight"))
-                    held.append((k, "weight", w))
+                lines.append((w, arm, lateral_arm, "weight"))
+                held.append((k, "weight", w))
         for (k, what, value), intervals in zip(held, shape.slices(lines), strict=True):
             if not intervals:
                 continue
@@ -317,12 +316,24 @@ def _margins_one(shapes: Sequence[EnvelopeShape], states: Sequence[tuple[float, 
                 keep(k, "forward", value - lo)
                 keep(k, "aft", hi - value)
             else:
-                keep(k, "weight", hi - value)
+                keep(k, "weight", _room_to(shape, k, hi, allowance) - states[k][0])
     return [Margins(**v) for v in values]
 
 
+def _room_to(shape: EnvelopeShape, k: int, high: Any, allowance: float) -> Any:
+    """The highest weight the envelope allows at condition ``k`` (CONDITIONS order) and the
+    CG tested, from the top ``high`` of its weight slice: at ramp, where that is the
+    envelope's top, the top plus the ramp allowance (:func:`loadcheck.engine.envelope_state`)
+    [mass unit]."""
+    top = shape.max_weight
+    if k != 0 or top is None:
+        return high
+    return np.where(high >= top * (1 - 1e-12), high + allowance, high) if isinstance(high, np.ndarray) else (
+        high + allowance if high >= top * (1 - 1e-12) else high)
+
+
 def _margins(shapes: Sequence[EnvelopeShape], found: Evaluation,
-             weights: dict[str, list[tuple[str, float]]]) -> dict[str, list[Margins]]:
+             weights: dict[str, list[tuple[str, float]]], allowance: float) -> dict[str, list[Margins]]:
     """The margins of every loading at every condition (see :class:`~loadcheck.results.Margins`).
 
     A few loadings are cut one slice at a time (:func:`_margins_one`, plain floats); many
@@ -334,7 +345,8 @@ def _margins(shapes: Sequence[EnvelopeShape], found: Evaluation,
         limits = [min((value for _, value in weights[name]), default=None) for name in CONDITIONS]
         states = [(found.weight[name].tolist(), found.moment[name].tolist(), found.lateral_moment[name].tolist())
                   for name in CONDITIONS]
-        per_row = [_margins_one(shapes, [(w[i], m[i], lat[i]) for w, m, lat in states], limits) for i in range(n)]
+        per_row = [_margins_one(shapes, [(w[i], m[i], lat[i]) for w, m, lat in states], limits, allowance)
+                   for i in range(n)]
         return {name: [row[k] for row in per_row] for k, name in enumerate(CONDITIONS)}
     values = {name: {key: np.full(n, np.nan) for key in _MARGIN_KEYS} for name in CONDITIONS}
 
@@ -347,8 +359,8 @@ def _margins(shapes: Sequence[EnvelopeShape], found: Evaluation,
         if weight_limit is not None:
             keep(name, "weight", weight_limit - found.weight[name])
     for shape in shapes:
-        tested = [envelope_state(shape, name, found.weight[name], found.moment[name], found.lateral_moment[name])
-                  for name in CONDITIONS]
+        tested = [envelope_state(shape, name, found.weight[name], found.moment[name], found.lateral_moment[name],
+                                 allowance=allowance) for name in CONDITIONS]
         w = np.concatenate([t[0] for t in tested])
         m = np.concatenate([t[1] for t in tested])
         lat = np.concatenate([t[2] for t in tested])
@@ -356,8 +368,8 @@ def _margins(shapes: Sequence[EnvelopeShape], found: Evaluation,
         vary: Vary = "lateral" if shape.is_lateral else "arm"
         lines = [(vary, w, arm, lateral_arm)]
         upright = not shape.is_lateral
-        if upright:  # the weight margin, at every condition but ramp (its rows come first)
-            lines.append(("weight", w[n:], arm[n:], lateral_arm[n:]))
+        if upright:  # the weight margin, at every condition
+            lines.append(("weight", w, arm, lateral_arm))
         lo, hi = _slices(shape, lines)
         held = lateral_arm if shape.is_lateral else arm
         first, second = ("left", "right") if shape.is_lateral else ("forward", "aft")
@@ -367,10 +379,10 @@ def _margins(shapes: Sequence[EnvelopeShape], found: Evaluation,
             if found_here.any():
                 keep(name, first, np.where(found_here, held[part] - lo[part], np.nan))
                 keep(name, second, np.where(found_here, hi[part] - held[part], np.nan))
-            if upright and name != "ramp":
-                top = hi[4 * n + (k - 1) * n: 4 * n + k * n]
+            if upright:
+                top = hi[4 * n + k * n: 4 * n + (k + 1) * n]
                 if (~np.isnan(top)).any():
-                    keep(name, "weight", top - w[part])
+                    keep(name, "weight", _room_to(shape, k, top, allowance) - found.weight[name])
     out: dict[str, list[Margins]] = {}
     for name in CONDITIONS:
         columns = [values[name][key].tolist() for key in _MARGIN_KEYS]

@@ -16,8 +16,9 @@ The rules (DESIGN.md, "Conditions checked"):
   fuel (:data:`CONDITIONS`, :func:`tank_quantities`);
 - the weight limits of each condition (:func:`weight_limits`) and the minimum flight
   weight at takeoff and landing;
-- every envelope of the category at every condition; at ramp the weight above the
-  envelope's top is held to the top, with the CG kept (:func:`envelope_state`);
+- every envelope of the category at every condition; at ramp a weight above the
+  envelope's top by no more than the ramp allowance (max ramp less max takeoff weight) is
+  held to the top, with the CG kept; above that it is tested as it is (:func:`envelope_state`);
 - each station's and each station group's maximum and minimum (:func:`load_limits`);
 - the fuel-burn path from takeoff to landing, in the burn order, tested exactly.
 
@@ -66,6 +67,7 @@ __all__ = [
     "load_room",
     "loading_arrays",
     "path_states",
+    "ramp_allowance",
     "tank_quantities",
     "weight_limits",
 ]
@@ -210,23 +212,47 @@ def load_room(aircraft: Aircraft, stations: dict[str, float], station: str) -> f
     return max(0.0, room)
 
 
+def ramp_allowance(aircraft: Aircraft) -> float:
+    """The ramp allowance: maximum ramp weight less maximum takeoff weight [mass unit].
+
+    The weight allowed for start, taxi and run-up fuel; 0 where the file gives no maximum
+    ramp weight (common practice).
+    """
+    limits = aircraft.limits
+    return 0.0 if limits.max_ramp_weight is None else limits.max_ramp_weight - limits.max_takeoff_weight
+
+
 def envelope_state(
-    shape: EnvelopeShape, condition: str, weight: Any, moment: Any, lateral: Any
+    shape: EnvelopeShape, condition: str, weight: Any, moment: Any, lateral: Any, *, allowance: float
 ) -> tuple[Any, Any, Any]:
-    """The state tested against an envelope: at ramp, a weight above the envelope's top is held to the top.
+    """The state tested against an envelope: at ramp, a weight a little above the envelope's top is held to the top.
 
     The envelope is a flight envelope; before taxi the aircraft may be heavier than its
-    top by the taxi fuel. Its ramp weight is held to the maximum ramp weight and its CG
-    to the envelope's limits at the envelope's highest weight (common practice). Works on
-    plain floats and on arrays alike.
+    top by the start, taxi and run-up fuel. At ramp a weight above the envelope's top is
+    held to the top, with the CG kept, only while it is within the ramp allowance of that
+    top: weight <= (top + allowance) (1 + WEIGHT_TOLERANCE), the allowance being the
+    maximum ramp weight less the maximum takeoff weight (:func:`ramp_allowance`, 0 where
+    the file gives no maximum ramp weight). Above that the state is tested as it is, so it
+    is outside the envelope (fail closed; common practice). The ramp weight itself is
+    tested against the maximum ramp weight as well (:func:`weight_limits`). Works on plain
+    floats and on arrays alike.
+
+    Parameters
+    ----------
+    shape : the envelope
+    condition : one of :data:`CONDITIONS`; only ``ramp`` is ever held
+    weight, moment, lateral : the state [mass unit, mass unit * arm unit]
+    allowance : the ramp allowance [mass unit] (:func:`ramp_allowance`)
     """
     top = shape.max_weight
     if condition != "ramp" or top is None:
         return weight, moment, lateral
+    reach = (top + allowance) * (1 + WEIGHT_TOLERANCE)
     if isinstance(weight, float):
-        factor = top / weight if weight > top else 1.0
+        factor = top / weight if top < weight <= reach else 1.0
         return weight * factor, moment * factor, lateral * factor
-    scale = np.where(np.asarray(weight) > top, top / np.asarray(weight), 1.0)
+    w = np.asarray(weight)
+    scale = np.where((w > top) & (w <= reach), top / w, 1.0)
     if np.ndim(scale) == 0:
         factor = float(scale)
         return weight * factor, moment * factor, lateral * factor
@@ -252,6 +278,7 @@ class _Tables:
     load_members: np.ndarray  # (S, L): 1 where station S counts towards load limit L
     load_threshold: np.ndarray  # (L,) LoadLimit.threshold
     load_is_max: np.ndarray  # (L,) LoadLimit.is_max
+    allowance: float  # ramp_allowance
 
 
 _TABLES: dict[int, tuple[Aircraft, _Tables]] = {}
@@ -283,6 +310,7 @@ def _tables(aircraft: Aircraft) -> _Tables:
         load_members=members,
         load_threshold=np.array([rule.threshold for rule in loads], dtype=float),
         load_is_max=np.array([rule.is_max for rule in loads], dtype=bool),
+        allowance=ramp_allowance(aircraft),
     )
     if len(_TABLES) >= _TABLES_KEPT:
         _TABLES.pop(next(iter(_TABLES)))
@@ -650,7 +678,7 @@ def _evaluate(
         limit_ok["min_flight_weight"] = np.logical_and.reduce([minimum_ok[c] for c in MIN_FLIGHT_WEIGHT_CONDITIONS])
 
     # every envelope at the four conditions at once: one containment call per envelope
-    inside_all = [shape.covers(*_tested_states(shape, all_w, all_m, all_l)) for shape in shapes]  # (4, N) each
+    inside_all = [shape.covers(*_tested_states(shape, all_w, all_m, all_l, tables.allowance)) for shape in shapes]  # (4, N) each
     per_envelope = {name: [inside[k] for inside in inside_all] for k, name in enumerate(CONDITIONS)}
     every = np.logical_and.reduce(inside_all) if inside_all else np.ones((4, n), dtype=bool)
     envelope_ok = dict(zip(CONDITIONS, every, strict=True))
@@ -740,13 +768,13 @@ def _loads_exceeded(tables: _Tables, stations: np.ndarray) -> np.ndarray:
 
 
 def _tested_states(shape: EnvelopeShape, weight: np.ndarray, moment: np.ndarray,
-                   lateral: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+                   lateral: np.ndarray, allowance: float) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
     """The states of the four conditions (rows of (4, N), CONDITIONS order) as tested against
     an envelope: the ramp row held to the envelope's top (:func:`envelope_state`)."""
     if shape.max_weight is None:
         return weight, moment, lateral
     w, m, lat = weight.copy(), moment.copy(), lateral.copy()
-    w[0], m[0], lat[0] = envelope_state(shape, "ramp", weight[0], moment[0], lateral[0])
+    w[0], m[0], lat[0] = envelope_state(shape, "ramp", weight[0], moment[0], lateral[0], allowance=allowance)
     return w, m, lat
 
 
