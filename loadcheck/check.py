@@ -27,7 +27,7 @@ import shapely
 from .aircraft import Aircraft, Envelope
 from .balance import moment_items
 from .caution import PILOT_CAUTION
-from .engine import CONDITIONS, WEIGHT_TOLERANCE, Evaluation, envelope_state, evaluate, loading_arrays, path_states
+from .engine import CONDITIONS, WEIGHT_TOLERANCE, Evaluation, envelope_state, evaluate, path_states
 from .engine import _tables as engine_tables
 from .envelope import EnvelopeShape, Vary
 from .loading import Loading, ResolvedLoading, require_usable, resolve_loading
@@ -125,17 +125,20 @@ def check_many(aircraft: Aircraft, loadings: Sequence[ResolvedLoading], *, sampl
         n = len(chosen)
         stations = np.array([[ld.stations.get(s, 0.0) for s in tables.station_ids] for ld in chosen], dtype=float)
         fuel = np.array([[ld.fuel[t] for t in tables.tank_ids] for ld in chosen], dtype=float)
-        found = evaluate(aircraft, stations.reshape(n, len(tables.station_ids)), fuel.reshape(n, len(tables.tank_ids)),
-                         np.array([ld.taxi for ld in chosen]), np.array([ld.trip for ld in chosen]),
-                         order=order, category=category, density=np.array(density, dtype=float), explain=True)
-        for k, result in enumerate(_explain(aircraft, chosen, found, category, samples)):
+        stations, fuel = stations.reshape(n, len(tables.station_ids)), fuel.reshape(n, len(tables.tank_ids))
+        rho = np.array(density, dtype=float)
+        found = evaluate(aircraft, stations, fuel, np.array([ld.taxi for ld in chosen]), np.array([ld.trip for ld in chosen]),
+                         order=order, category=category, density=rho, explain=True)
+        for k, result in enumerate(_explain(aircraft, chosen, found, category, samples, stations, fuel, rho)):
             results[members[k]] = result
     return results  # type: ignore[return-value]
 
 
 def _explain(aircraft: Aircraft, loadings: Sequence[ResolvedLoading], found: Evaluation, category: str,
-             samples: bool) -> Iterator[CheckResult]:
-    """The result of each loading from its row of the engine's arrays: the explanation of the verdict."""
+             samples: bool, stations: np.ndarray, fuel: np.ndarray, density: np.ndarray) -> Iterator[CheckResult]:
+    """The result of each loading from its row of the engine's arrays: the explanation of the verdict.
+
+    ``stations`` (N, S), ``fuel`` (N, T) and ``density`` (T,) are the arrays the engine was given."""
     units = aircraft.units
     tables = engine_tables(aircraft)
     envelopes, shapes = tables.envelopes[category]
@@ -154,7 +157,7 @@ def _explain(aircraft: Aircraft, loadings: Sequence[ResolvedLoading], found: Eva
         findings: list[Finding] = []
         conditions = [_condition(aircraft, rows, i, envelopes, shapes, name, findings, margins[name][i],  # type: ignore[arg-type]
                                  tables.weights[name]) for name in CONDITIONS]
-        burn_path = _burn_path(aircraft, resolved, found, i, conditions, findings, samples)
+        burn_path = _burn_path(aircraft, resolved, found, i, conditions, findings, samples, (stations[i], fuel[i], density))
         if exceeded[i]:
             findings.extend(_load_findings(aircraft, resolved, found, i))
         landing_fuel = conditions[2].fuel
@@ -186,15 +189,32 @@ class _Rows:
     """The engine's per-condition arrays as Python lists, read row by row without numpy scalars."""
 
     def __init__(self, found: Evaluation):
-        self.weight = {k: v.tolist() for k, v in found.weight.items()}
-        self.moment = {k: v.tolist() for k, v in found.moment.items()}
-        self.lateral = {k: v.tolist() for k, v in found.lateral_moment.items()}
-        self.fuel = {k: v.sum(axis=1).tolist() for k, v in found.fuel.items()}
-        self.fuel_weight = {k: v.tolist() for k, v in found.fuel_weight.items()}
-        self.weight_ok = {k: [v.tolist() for v in vs] for k, vs in found.weight_ok.items()}
-        self.min_weight_ok = {k: v.tolist() for k, v in found.min_weight_ok.items()}
-        self.inside = {k: [v.tolist() for v in vs] for k, vs in found.envelope_inside.items()}
-        self.condition_ok = {k: v.tolist() for k, v in found.condition_ok.items()}
+        # every row stacked and converted at once (two numpy calls for the numbers, two for the flags)
+        numbers: list[list[float]] = np.array(
+            [found.weight[k] for k in CONDITIONS] + [found.moment[k] for k in CONDITIONS]
+            + [found.lateral_moment[k] for k in CONDITIONS] + [found.fuel_weight[k] for k in CONDITIONS]
+        ).tolist()
+        self.weight = dict(zip(CONDITIONS, numbers[0:4], strict=True))
+        self.moment = dict(zip(CONDITIONS, numbers[4:8], strict=True))
+        self.lateral = dict(zip(CONDITIONS, numbers[8:12], strict=True))
+        self.fuel_weight = dict(zip(CONDITIONS, numbers[12:16], strict=True))
+        self.fuel = dict(zip(CONDITIONS, np.array([found.fuel[k] for k in CONDITIONS]).sum(axis=2).tolist(), strict=True))
+        counts = [(len(found.weight_ok[k]), len(found.envelope_inside[k])) for k in CONDITIONS]
+        flags: list[list[bool]] = np.array(
+            [found.min_weight_ok[k] for k in CONDITIONS] + [found.condition_ok[k] for k in CONDITIONS]
+            + [v for k in CONDITIONS for v in found.weight_ok[k]] + [v for k in CONDITIONS for v in found.envelope_inside[k]],
+            dtype=bool,
+        ).reshape(-1, len(found.ok)).tolist()
+        self.min_weight_ok = dict(zip(CONDITIONS, flags[0:4], strict=True))
+        self.condition_ok = dict(zip(CONDITIONS, flags[4:8], strict=True))
+        self.weight_ok, self.inside = {}, {}
+        at = 8
+        for k, (limits, _) in zip(CONDITIONS, counts, strict=True):
+            self.weight_ok[k] = flags[at : at + limits]
+            at += limits
+        for k, (_, envelopes) in zip(CONDITIONS, counts, strict=True):
+            self.inside[k] = flags[at : at + envelopes]
+            at += envelopes
 
 
 # -- conditions -----------------------------------------------------------------------
@@ -559,8 +579,12 @@ def _burn_path(
     i: int,
     conditions: Sequence[Condition],
     findings: list[Finding],
-    with_samples: bool = True,
+    with_samples: bool,
+    arrays: tuple[np.ndarray, np.ndarray, np.ndarray],
 ) -> BurnPath:
+    """The burn path explained: samples for drawing, where it leaves, each stretch outside.
+
+    ``arrays``: the loading's stations (S,), fuel (T,) and densities (T,) as the engine had them."""
     start, end = resolved.taxi, resolved.taxi + resolved.trip
     takeoff = conditions[1]
     takeoff_in = bool(found.envelope_ok["takeoff"][i])
@@ -576,9 +600,8 @@ def _burn_path(
     middle = [0.5 * (stretches[0][0] + stretches[0][1])] if stretches else []
     points = sorted(set(marks + ends)) + middle
     if points:
-        rows = loading_arrays(aircraft, resolved)
         weights, moments, laterals, quantities = path_states(
-            aircraft, rows.stations, rows.fuel, np.array(points), order=rows.order, density=rows.density
+            aircraft, arrays[0], arrays[1], np.array(points), order=resolved.plan.order, density=arrays[2]
         )
     state = dict(zip(points, zip(weights.tolist(), moments.tolist(), laterals.tolist(),
                                  quantities.sum(axis=1).tolist(), strict=True), strict=True)) if points else {}

@@ -279,6 +279,9 @@ class _Tables:
     load_threshold: np.ndarray  # (L,) LoadLimit.threshold
     load_is_max: np.ndarray  # (L,) LoadLimit.is_max
     allowance: float  # ramp_allowance
+    fixed_arms: np.ndarray  # (T,) each tank's arm (0 for a tank with an arm table)
+    moving: tuple[int, ...]  # the tanks with an arm table (Tank.arm_at)
+    test_order: dict[tuple[str, int, bool], tuple[np.ndarray, np.ndarray]]  # _test_order, filled as used
 
 
 _TABLES: dict[int, tuple[Aircraft, _Tables]] = {}
@@ -311,6 +314,9 @@ def _tables(aircraft: Aircraft) -> _Tables:
         load_threshold=np.array([rule.threshold for rule in loads], dtype=float),
         load_is_max=np.array([rule.is_max for rule in loads], dtype=bool),
         allowance=ramp_allowance(aircraft),
+        fixed_arms=np.array([0.0 if t.arm_table is not None else t.arm_at(0.0) for t in aircraft.tank], dtype=float),
+        moving=tuple(i for i, t in enumerate(aircraft.tank) if t.arm_table is not None),
+        test_order={},
     )
     if len(_TABLES) >= _TABLES_KEPT:
         _TABLES.pop(next(iter(_TABLES)))
@@ -355,10 +361,17 @@ def tank_quantities(fuel: np.ndarray, burned: np.ndarray, order: Sequence[int] |
 
 
 def _tank_arms(aircraft: Aircraft, quantities: np.ndarray) -> np.ndarray:
-    """Arm of each tank's fuel at the given quantities (..., T) [arm unit] (:meth:`Tank.arm_at`)."""
+    """Arm of each tank's fuel at the given quantities (..., T) [arm unit] (:meth:`Tank.arm_at`).
+
+    A tank without an arm table has the one arm whatever its quantity: those columns are
+    the tables' ``fixed_arms`` (read-only where every tank is fixed)."""
+    tables = _tables(aircraft)
+    if not tables.moving:
+        return np.broadcast_to(tables.fixed_arms, quantities.shape)
     arms = np.empty_like(quantities)
-    for index, tank in enumerate(aircraft.tank):
-        arms[..., index] = tank.arm_at(quantities[..., index])
+    arms[...] = tables.fixed_arms
+    for index in tables.moving:
+        arms[..., index] = aircraft.tank[index].arm_at(quantities[..., index])
     return arms
 
 
@@ -699,7 +712,7 @@ def _evaluate(
     if len(rows):
         tested_ok, stretches = _burn_path(
             aircraft, shapes, fuel[rows], taxi[rows], trip[rows], order_index, rho, tank_lats,
-            pay_w[rows], pay_m[rows], pay_l[rows], explain,
+            pay_w[rows], pay_m[rows], pay_l[rows], explain, (q[rows, 1:], tank_arm[rows, 1:]),
         )
         path_ok[rows] &= tested_ok
         if path_outside is not None:
@@ -708,32 +721,21 @@ def _evaluate(
     path_ok = np.where(flying, path_ok, envelope_ok["takeoff"])
 
     # the first limit exceeded, in the single check's order: every test that holds, stacked
+    # (the order of the tests, with each one's code and condition, is _test_order's)
     zero_fuel_cg_is_limit = limits.zero_fuel_cg == "limit"
     holds: list[np.ndarray] = []
-    codes: list[str] = []
-    where: list[str] = []
     for name in CONDITIONS:
-        for (code, _), good in zip(table[name], weight_ok[name], strict=True):
-            holds.append(good)
-            codes.append(code)
-            where.append(name)
+        holds += weight_ok[name]
         holds.append(minimum_ok[name])
-        codes.append("min_flight_weight")
-        where.append(name)
         if name != "zero_fuel" or zero_fuel_cg_is_limit:
             holds += per_envelope[name]
-            codes += ["envelope"] * len(shapes)
-            where += [name] * len(shapes)
     holds.append(path_ok)
-    codes.append("burn_path")
-    where.append("")
     tests = np.concatenate([np.array(holds), ~load_exceeded.T]) if len(tables.loads) else np.array(holds)
-    codes += [rule.code for rule in tables.loads]
-    where += [""] * len(tables.loads)
+    codes, where = _test_order(tables, category, len(shapes), zero_fuel_cg_is_limit)
     first = tests.argmin(axis=0)  # the first test that fails (0 where none does)
     passed = tests.all(axis=0)
-    first_finding = np.where(passed, "", np.array(codes, dtype=object)[first])
-    first_condition = np.where(passed, "", np.array(where, dtype=object)[first])
+    first_finding = np.where(passed, "", codes[first])
+    first_condition = np.where(passed, "", where[first])
     first_finding[~valid] = "input"
     first_condition[~valid] = ""
 
@@ -760,6 +762,35 @@ def _evaluate(
         first_finding=first_finding,
         first_condition=first_condition,
     )
+
+
+def _test_order(tables: _Tables, category: str, envelopes: int, zero_fuel_cg_is_limit: bool) -> tuple[np.ndarray, np.ndarray]:
+    """The code and the condition of each test :func:`_evaluate` stacks, in the single check's
+    order: per condition its weight limits, the minimum flight weight and each envelope (at
+    zero fuel only where its CG is a limit), then the burn path, then every station and group
+    limit. Object arrays, kept per aircraft and category."""
+    key = (category, envelopes, zero_fuel_cg_is_limit)
+    kept = tables.test_order.get(key)
+    if kept is not None:
+        return kept
+    codes: list[str] = []
+    where: list[str] = []
+    for name in CONDITIONS:
+        for code, _ in tables.weights[name]:
+            codes.append(code)
+            where.append(name)
+        codes.append("min_flight_weight")
+        where.append(name)
+        if name != "zero_fuel" or zero_fuel_cg_is_limit:
+            codes += ["envelope"] * envelopes
+            where += [name] * envelopes
+    codes.append("burn_path")
+    where.append("")
+    codes += [rule.code for rule in tables.loads]
+    where += [""] * len(tables.loads)
+    kept = (np.array(codes, dtype=object), np.array(where, dtype=object))
+    tables.test_order[key] = kept
+    return kept
 
 
 def _loads_exceeded(tables: _Tables, stations: np.ndarray) -> np.ndarray:
@@ -833,9 +864,13 @@ def _burn_path(
     pay_m: np.ndarray,
     pay_l: np.ndarray,
     explain: bool,
+    known: tuple[np.ndarray, np.ndarray],
 ) -> tuple[np.ndarray, list[list[tuple[float, float]]]]:
     """Whether the path from takeoff to landing stays inside every envelope, and (with
-    ``explain``) the stretches outside, as fuel burned since engine start [fuel volume unit]."""
+    ``explain``) the stretches outside, as fuel burned since engine start [fuel volume unit].
+
+    ``known``: the tank quantities and arms at takeoff and landing, (N, 2, T) each, as the
+    conditions have them; where the path is not cut they are the ends of its one piece."""
     n = fuel.shape[0]
     start, end = taxi, taxi + trip
     points = np.array([start, end, *_burn_cuts(aircraft, fuel, order)]).T
@@ -848,24 +883,28 @@ def _burn_path(
     if len(rows) == 0:
         return np.ones(n, dtype=bool), stretches
     a, b = points[rows, cols], points[rows, cols + 1]  # the K live pieces
-    piece_fuel = fuel[rows]
-
-    q_ends = tank_quantities(piece_fuel, np.array([a, b]).T, order)  # (K, 2, T): both ends at once
-    arm_ends = _tank_arms(aircraft, q_ends)
-    qa, qb, arm_a, arm_b = q_ends[:, 0], q_ends[:, 1], arm_ends[:, 0], arm_ends[:, 1]
-    count = len(a)
-    w, m, lat = np.zeros((count, 3)), np.zeros((count, 3)), np.zeros((count, 3))
-    w[:, 0], m[:, 0], lat[:, 0] = pay_w[rows], pay_m[rows], pay_l[rows]
-    for ti in range(qa.shape[1]):  # a few tanks: a loop beats reductions over a short axis
-        ma, dm = qa[:, ti] * rho[ti], (qb[:, ti] - qa[:, ti]) * rho[ti]
-        arm, da = arm_a[:, ti], arm_b[:, ti] - arm_a[:, ti]
-        w[:, 0] += ma
-        w[:, 1] += dm
-        m[:, 0] += ma * arm
-        m[:, 1] += ma * da + dm * arm
-        m[:, 2] += dm * da
-        lat[:, 0] += ma * tank_lats[ti]
-        lat[:, 1] += dm * tank_lats[ti]
+    if points.shape[1] == 2:  # not cut: each piece is takeoff to landing, the same quantities as the conditions'
+        q_ends, arm_ends = known[0][rows], known[1][rows]
+    else:
+        q_ends = tank_quantities(fuel[rows], np.array([a, b]).T, order)  # (K, 2, T): both ends at once
+        arm_ends = _tank_arms(aircraft, q_ends)
+    # each tank's mass ma + dm u and arm arm + da u on the piece (u from 0 to 1): weight, moment
+    # and lateral moment as polynomials in u, (K, 3) coefficients each, lowest power first
+    ma = q_ends[:, 0] * rho  # (K, T)
+    dm = q_ends[:, 1] * rho - ma
+    arm, da = arm_ends[:, 0], arm_ends[:, 1] - arm_ends[:, 0]
+    terms = np.stack([ma, dm, ma * arm, ma * da + dm * arm, dm * da])  # (5, K, T)
+    sums = terms.sum(axis=2)  # (5, K)
+    lat_terms = _dot(np.stack([ma, dm]), tank_lats)  # (2, K)
+    w = np.zeros((len(a), 3))
+    m = np.empty((len(a), 3))
+    lat = np.zeros((len(a), 3))
+    w[:, 0] = pay_w[rows] + sums[0]
+    w[:, 1] = sums[1]
+    m[:, 0] = pay_m[rows] + sums[2]
+    m[:, 1:] = sums[3:].T
+    lat[:, 0] = pay_l[rows] + lat_terms[0]
+    lat[:, 1] = lat_terms[1]
 
     # pieces that touch no edge stay on one side of the boundary: their middle settles them
     inside = np.ones(len(a), dtype=bool)

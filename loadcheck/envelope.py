@@ -201,8 +201,7 @@ class EnvelopeShape:
         return float(arms.min()), float(arms.max())
 
     def _axis(self, k: int, weight: np.ndarray, moment: np.ndarray, lateral: np.ndarray) -> np.ndarray:
-        a, b, c = self._coefficients[k]
-        value = a * weight + b * moment + c * lateral
+        value = _combine(self._coefficients[k], weight, moment, lateral)
         return value / weight if self._per_weight[k] else value
 
     def coords(self, weight: float | np.ndarray, moment: float | np.ndarray, lateral: float | np.ndarray) -> tuple[np.ndarray, np.ndarray]:
@@ -316,8 +315,7 @@ class EnvelopeShape:
 
     def _fraction(self, k: int, w: np.ndarray, m: np.ndarray, lat: np.ndarray) -> tuple[np.ndarray, bool]:
         """Numerator coefficients (..., 3) of axis ``k`` along a path, and whether its denominator is W."""
-        a, b, c = self._coefficients[k]
-        return a * w + b * m + c * lat, self._per_weight[k]
+        return _combine(self._coefficients[k], w, m, lat), self._per_weight[k]
 
     def edge_polynomials(self, w: np.ndarray, m: np.ndarray, lat: np.ndarray) -> np.ndarray:
         """Coefficients (..., 3, E) of "the path meets edge line e", lowest power first.
@@ -376,6 +374,18 @@ def _intervals(points: list[float], inside_mid: list[bool], inside_cut: list[boo
         if inside and (k == 0 or not inside_mid[k - 1]) and (k == last or not inside_mid[k]):
             intervals.append((points[k], points[k]))
     return sorted(intervals)
+
+
+def _combine(coefficients: tuple[float, float, float], w: np.ndarray, m: np.ndarray, lat: np.ndarray) -> np.ndarray:
+    """a W + b M + c L for an axis's coefficients (:class:`AxisSpec`), leaving out the terms
+    whose coefficient is 0 and the products by 1 (the same value, in fewer array operations)."""
+    value: np.ndarray | None = None
+    for coefficient, term in zip(coefficients, (w, m, lat), strict=True):
+        if coefficient == 0.0:
+            continue
+        part = term if coefficient == 1.0 else coefficient * term
+        value = part if value is None else value + part
+    return np.zeros_like(w) if value is None else value
 
 
 def _times(a: np.ndarray, b: np.ndarray) -> np.ndarray:
