@@ -349,7 +349,8 @@ def tank_quantities(fuel: np.ndarray, burned: np.ndarray, order: Sequence[int] |
     if order is None:
         total = fuel.sum(axis=1)[:, None]
         # divided by a positive total or by 1: no warning to hold off (an errstate costs more than this)
-        share = np.where(total > 0, np.clip(1.0 - burned / np.where(total > 0, total, 1.0), 0.0, 1.0), 0.0)
+        positive = total > 0  # np.minimum(np.maximum()) is np.clip, in two cheap calls
+        share = np.where(positive, np.minimum(np.maximum(1.0 - burned / np.where(positive, total, 1.0), 0.0), 1.0), 0.0)
         return start * share[:, :, None]
     left = np.broadcast_to(start, (*burned.shape, fuel.shape[1])).copy()
     remaining = burned.copy()
@@ -847,6 +848,9 @@ def path_states(
     return (pay_w + mass.sum(axis=1), pay_m + (mass * _tank_arms(aircraft, q)).sum(axis=1), pay_l + _dot(mass, tables.tank_lats), q)
 
 
+_MIDDLE = np.array([1.0, 0.5, 0.25])  # the powers of u = 1/2: a piece's middle from its coefficients
+
+
 def _polyval(c: np.ndarray, u: np.ndarray | float) -> np.ndarray:
     return np.asarray(c[..., 0] + u * (c[..., 1] + u * c[..., 2]))
 
@@ -874,7 +878,7 @@ def _burn_path(
     n = fuel.shape[0]
     start, end = taxi, taxi + trip
     points = np.array([start, end, *_burn_cuts(aircraft, fuel, order)]).T
-    points = np.where(np.isfinite(points), np.clip(points, start[:, None], end[:, None]), end[:, None])
+    points = np.where(np.isfinite(points), np.minimum(np.maximum(points, start[:, None]), end[:, None]), end[:, None])
     if points.shape[1] > 2:  # two columns (takeoff, landing) are in order already
         points.sort(axis=1)
     live = points[:, 1:] - points[:, :-1] > 0  # (N, P)
@@ -896,9 +900,8 @@ def _burn_path(
     terms = np.stack([ma, dm, ma * arm, ma * da + dm * arm, dm * da])  # (5, K, T)
     sums = terms.sum(axis=2)  # (5, K)
     lat_terms = _dot(np.stack([ma, dm]), tank_lats)  # (2, K)
-    w = np.zeros((len(a), 3))
-    m = np.empty((len(a), 3))
-    lat = np.zeros((len(a), 3))
+    poly = np.zeros((3, len(a), 3))  # weight, moment, lateral moment
+    w, m, lat = poly[0], poly[1], poly[2]
     w[:, 0] = pay_w[rows] + sums[0]
     w[:, 1] = sums[1]
     m[:, 0] = pay_m[rows] + sums[2]
@@ -907,9 +910,10 @@ def _burn_path(
     lat[:, 1] = lat_terms[1]
 
     # pieces that touch no edge stay on one side of the boundary: their middle settles them
+    middle = poly @ _MIDDLE  # (3, K): weight, moment, lateral moment at u = 1/2
     inside = np.ones(len(a), dtype=bool)
     for shape in shapes:
-        inside &= np.asarray(shape.covers(_polyval(w, 0.5), _polyval(m, 0.5), _polyval(lat, 0.5)))
+        inside &= np.asarray(shape.covers(middle[0], middle[1], middle[2]))
     touched = np.zeros(len(a), dtype=bool)
     candidates = []
     for shape in shapes:
