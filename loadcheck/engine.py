@@ -689,16 +689,16 @@ def _evaluate(
         if name in MIN_FLIGHT_WEIGHT_CONDITIONS and limits.min_flight_weight is not None:
             minimum_ok[name] = weight[name] >= limits.min_flight_weight * (1 - WEIGHT_TOLERANCE)
     if limits.min_flight_weight is not None:
-        limit_ok["min_flight_weight"] = np.logical_and.reduce([minimum_ok[c] for c in MIN_FLIGHT_WEIGHT_CONDITIONS])
+        limit_ok["min_flight_weight"] = _all([minimum_ok[c] for c in MIN_FLIGHT_WEIGHT_CONDITIONS])
 
     # every envelope at the four conditions at once: one containment call per envelope
     inside_all = [shape.covers(*_tested_states(shape, all_w, all_m, all_l, tables.allowance)) for shape in shapes]  # (4, N) each
     per_envelope = {name: [inside[k] for inside in inside_all] for k, name in enumerate(CONDITIONS)}
-    every = np.logical_and.reduce(inside_all) if inside_all else np.ones((4, n), dtype=bool)
+    every = _all(inside_all) if inside_all else np.ones((4, n), dtype=bool)
     envelope_ok = dict(zip(CONDITIONS, every, strict=True))
 
     condition_ok = {
-        name: np.logical_and.reduce(weight_ok[name] + [minimum_ok[name], envelope_ok[name]]) for name in CONDITIONS
+        name: _all([*weight_ok[name], minimum_ok[name], envelope_ok[name]]) for name in CONDITIONS
     }
 
     load_exceeded = _loads_exceeded(tables, stations)
@@ -765,6 +765,14 @@ def _evaluate(
     )
 
 
+def _all(arrays: Sequence[np.ndarray]) -> np.ndarray:
+    """Elementwise and of a few boolean arrays (chained ``&``: cheaper than a reduction over a short list)."""
+    out = arrays[0]
+    for more in arrays[1:]:
+        out = out & more
+    return out
+
+
 def _test_order(tables: _Tables, category: str, envelopes: int, zero_fuel_cg_is_limit: bool) -> tuple[np.ndarray, np.ndarray]:
     """The code and the condition of each test :func:`_evaluate` stacks, in the single check's
     order: per condition its weight limits, the minimum flight weight and each envelope (at
@@ -803,7 +811,8 @@ def _tested_states(shape: EnvelopeShape, weight: np.ndarray, moment: np.ndarray,
                    lateral: np.ndarray, allowance: float) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
     """The states of the four conditions (rows of (4, N), CONDITIONS order) as tested against
     an envelope: the ramp row held to the envelope's top (:func:`envelope_state`)."""
-    if shape.max_weight is None:
+    top = shape.max_weight
+    if top is None or not (weight[0] > top).any():  # no ramp weight above the top: nothing is held
         return weight, moment, lateral
     w, m, lat = weight.copy(), moment.copy(), lateral.copy()
     w[0], m[0], lat[0] = envelope_state(shape, "ramp", weight[0], moment[0], lateral[0], allowance=allowance)
