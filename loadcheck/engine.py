@@ -365,10 +365,8 @@ def _tank_arms(aircraft: Aircraft, quantities: np.ndarray) -> np.ndarray:
     """Arm of each tank's fuel at the given quantities (..., T) [arm unit] (:meth:`Tank.arm_at`).
 
     A tank without an arm table has the one arm whatever its quantity: those columns are
-    the tables' ``fixed_arms`` (read-only where every tank is fixed)."""
+    the tables' ``fixed_arms``."""
     tables = _tables(aircraft)
-    if not tables.moving:
-        return np.broadcast_to(tables.fixed_arms, quantities.shape)
     arms = np.empty_like(quantities)
     arms[...] = tables.fixed_arms
     for index in tables.moving:
@@ -906,9 +904,9 @@ def _burn_path(
     ma = q_ends[:, 0] * rho  # (K, T)
     dm = q_ends[:, 1] * rho - ma
     arm, da = arm_ends[:, 0], arm_ends[:, 1] - arm_ends[:, 0]
-    terms = np.stack([ma, dm, ma * arm, ma * da + dm * arm, dm * da])  # (5, K, T)
+    terms = np.array([ma, dm, ma * arm, ma * da + dm * arm, dm * da])  # (5, K, T)
     sums = terms.sum(axis=2)  # (5, K)
-    lat_terms = _dot(np.stack([ma, dm]), tank_lats)  # (2, K)
+    lat_terms = _dot(np.array([ma, dm]), tank_lats)  # (2, K)
     poly = np.zeros((3, len(a), 3))  # weight, moment, lateral moment
     w, m, lat = poly[0], poly[1], poly[2]
     w[:, 0] = pay_w[rows] + sums[0]

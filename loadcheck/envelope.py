@@ -381,7 +381,10 @@ class EnvelopeShape:
                 sources.append(one)
             else:  # a product with W: of degree two at most (see above)
                 sources.append(_times(w, given[{"ww": "w", "wm": "m", "wl": "lat"}[name]]))
-        return np.stack(sources, axis=-1) @ self._edge_map  # (..., 3, E)
+        stacked = np.array(sources)  # (S, ..., 3)
+        flat = self._edge_map.T @ stacked.reshape(len(sources), -1)  # (E, ... * 3): one product for every edge
+        out = flat.reshape(-1, *stacked.shape[1:])  # (E, ..., 3)
+        return out.transpose(*range(1, out.ndim), 0)  # (..., 3, E), a view
 
     def edge_position(self, edges: np.ndarray, w: np.ndarray, m: np.ndarray, lat: np.ndarray) -> np.ndarray:
         """Where points fall along edges, projected: 0 at an edge's start, 1 at its end."""
