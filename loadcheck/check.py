@@ -151,14 +151,12 @@ def _explain(aircraft: Aircraft, loadings: Sequence[ResolvedLoading], found: Eva
     units_info = UnitsInfo(mass=units.mass, arm=units.arm, fuel_volume=units.fuel_volume, moment=units.moment)
     rows = _Rows(found)
     margins = _margins(shapes, found, tables.weights, tables.allowance)
-    exceeded: list[bool] = np.any(found.load_exceeded, axis=1).tolist()  # type: ignore[assignment]
-    ok_rows: list[bool] = list(found.ok.tolist())
     for i, resolved in enumerate(loadings):
         findings: list[Finding] = []
         conditions = [_condition(aircraft, rows, i, envelopes, shapes, name, findings, margins[name][i],  # type: ignore[arg-type]
                                  tables.weights[name]) for name in CONDITIONS]
         burn_path = _burn_path(aircraft, resolved, found, i, conditions, findings, samples, (stations[i], fuel[i], density))
-        if exceeded[i]:
+        if not rows.loads_ok[i]:
             findings.extend(_load_findings(aircraft, resolved, found, i))
         landing_fuel = conditions[2].fuel
         if resolved.reserve is not None and landing_fuel < resolved.reserve * (1 - WEIGHT_TOLERANCE):
@@ -171,7 +169,7 @@ def _explain(aircraft: Aircraft, loadings: Sequence[ResolvedLoading], found: Eva
             )
         findings.extend(Finding(code="assumption", severity="warning", message=note) for note in resolved.notes)
         ok = not any(f.severity == "limit" for f in findings)
-        assert ok == ok_rows[i], "the explanation must carry the engine's verdict"
+        assert ok == rows.ok[i], "the explanation must carry the engine's verdict"
         yield CheckResult(
             ok=ok,
             category=resolved.category,
@@ -202,9 +200,11 @@ class _Rows:
         counts = [(len(found.weight_ok[k]), len(found.envelope_inside[k])) for k in CONDITIONS]
         flags: list[list[bool]] = np.array(
             [found.min_weight_ok[k] for k in CONDITIONS] + [found.condition_ok[k] for k in CONDITIONS]
-            + [v for k in CONDITIONS for v in found.weight_ok[k]] + [v for k in CONDITIONS for v in found.envelope_inside[k]],
+            + [v for k in CONDITIONS for v in found.weight_ok[k]] + [v for k in CONDITIONS for v in found.envelope_inside[k]]
+            + [found.limit_ok["stations"], found.ok],
             dtype=bool,
         ).reshape(-1, len(found.ok)).tolist()
+        self.loads_ok, self.ok = flags[-2], flags[-1]  # every station and group limit holds; the verdict
         self.min_weight_ok = dict(zip(CONDITIONS, flags[0:4], strict=True))
         self.condition_ok = dict(zip(CONDITIONS, flags[4:8], strict=True))
         self.weight_ok, self.inside = {}, {}
@@ -591,7 +591,7 @@ def _burn_path(
     landing_in = bool(found.envelope_ok["landing"][i])
     ok = bool(found.burn_path_ok[i])
     units = aircraft.units
-    lateral = aircraft.has_lateral
+    lateral = engine_tables(aircraft).has_lateral
     assert found.path_outside is not None
     stretches = found.path_outside[i]
 

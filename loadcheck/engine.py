@@ -352,7 +352,8 @@ def tank_quantities(fuel: np.ndarray, burned: np.ndarray, order: Sequence[int] |
         positive = total > 0  # np.minimum(np.maximum()) is np.clip, in two cheap calls
         share = np.where(positive, np.minimum(np.maximum(1.0 - burned / np.where(positive, total, 1.0), 0.0), 1.0), 0.0)
         return start * share[:, :, None]
-    left = np.broadcast_to(start, (*burned.shape, fuel.shape[1])).copy()
+    left = np.empty((*burned.shape, fuel.shape[1]))
+    left[...] = start
     remaining = burned.copy()
     for tank in order:
         used = np.minimum(left[:, :, tank], remaining)
