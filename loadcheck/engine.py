@@ -860,6 +860,7 @@ _MIDDLE = np.array([1.0, 0.5, 0.25])  # the powers of u = 1/2: a piece's middle 
 
 
 def _polyval(c: np.ndarray, u: np.ndarray | float) -> np.ndarray:
+    """Polynomials c[..., 0] + c[..., 1] u + c[..., 2] u^2 at u (Horner), broadcast."""
     return np.asarray(c[..., 0] + u * (c[..., 1] + u * c[..., 2]))
 
 
@@ -941,7 +942,8 @@ def _burn_path(
                 continue
             k, e = k_all[in_piece], e_all[in_piece]
             u = np.clip(r[in_piece], 0.0, 1.0)
-            s = shape.edge_position(e, _polyval(w[k], u), _polyval(m[k], u), _polyval(lat[k], u))
+            at = _polyval(poly[:, k], u)  # (3, roots): weight, moment, lateral moment at each root
+            s = shape.edge_position(e, at[0], at[1], at[2])
             touched[k[(s >= -_EDGE_SLACK) & (s <= 1 + _EDGE_SLACK)]] = True
             column = np.full(f.shape[0] * f.shape[2], np.nan)
             column[k * f.shape[2] + e] = u
@@ -954,11 +956,11 @@ def _burn_path(
         cuts_u = np.sort(np.where(np.isfinite(cuts_u), cuts_u, 1.0), axis=1)
         lo, hi = cuts_u[:, :-1], cuts_u[:, 1:]
         mids = 0.5 * (lo + hi)
-        sub = [_polyval(c[hit][:, None, :], mids) for c in (w, m, lat)]
+        sub = _polyval(poly[:, hit, None, :], mids)  # (3, H, parts): weight, moment, lateral moment
         short = hi - lo <= 1e-12
         both = np.ones(mids.shape, dtype=bool)
         for shape in shapes:
-            both &= np.asarray(shape.covers(*sub))
+            both &= np.asarray(shape.covers(sub[0], sub[1], sub[2]))
         parts_out = ~(short | both)
         inside[hit] = ~parts_out.any(axis=1)
     result = np.ones(n, dtype=bool)
