@@ -386,10 +386,12 @@ def _burn_cuts(aircraft: Aircraft, fuel: np.ndarray, order: Sequence[int] | None
     if order is not None:
         running = np.zeros(n)
         for tank in order:
-            running = running + fuel[:, tank]
-            cuts.append(running.copy())
-    total = fuel.sum(axis=1)
-    for index, tank_data in enumerate(aircraft.tank):
+            running = running + fuel[:, tank]  # a new array each time: kept as it is
+            cuts.append(running)
+    moving = _tables(aircraft).moving  # only a tank with an arm table has knots
+    total = fuel.sum(axis=1) if moving else np.zeros(n)
+    for index in moving:
+        tank_data = aircraft.tank[index]
         for knot in tank_data.arm_knots():
             held = fuel[:, index]
             with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
