@@ -27,7 +27,7 @@ import shapely
 from .aircraft import Aircraft, Envelope
 from .balance import moment_items
 from .caution import PILOT_CAUTION
-from .engine import CONDITIONS, WEIGHT_TOLERANCE, Evaluation, envelope_state, evaluate, loading_arrays, path_states
+from .engine import CONDITIONS, WEIGHT_TOLERANCE, Evaluation, envelope_state, evaluate, path_states
 from .engine import _tables as engine_tables
 from .envelope import EnvelopeShape, Vary
 from .loading import Loading, ResolvedLoading, require_usable, resolve_loading
@@ -125,17 +125,20 @@ def check_many(aircraft: Aircraft, loadings: Sequence[ResolvedLoading], *, sampl
         n = len(chosen)
         stations = np.array([[ld.stations.get(s, 0.0) for s in tables.station_ids] for ld in chosen], dtype=float)
         fuel = np.array([[ld.fuel[t] for t in tables.tank_ids] for ld in chosen], dtype=float)
-        found = evaluate(aircraft, stations.reshape(n, len(tables.station_ids)), fuel.reshape(n, len(tables.tank_ids)),
-                         np.array([ld.taxi for ld in chosen]), np.array([ld.trip for ld in chosen]),
-                         order=order, category=category, density=np.array(density, dtype=float), explain=True)
-        for k, result in enumerate(_explain(aircraft, chosen, found, category, samples)):
+        stations, fuel = stations.reshape(n, len(tables.station_ids)), fuel.reshape(n, len(tables.tank_ids))
+        rho = np.array(density, dtype=float)
+        found = evaluate(aircraft, stations, fuel, np.array([ld.taxi for ld in chosen]), np.array([ld.trip for ld in chosen]),
+                         order=order, category=category, density=rho, explain=True)
+        for k, result in enumerate(_explain(aircraft, chosen, found, category, samples, stations, fuel, rho)):
             results[members[k]] = result
     return results  # type: ignore[return-value]
 
 
 def _explain(aircraft: Aircraft, loadings: Sequence[ResolvedLoading], found: Evaluation, category: str,
-             samples: bool) -> Iterator[CheckResult]:
-    """The result of each loading from its row of the engine's arrays: the explanation of the verdict."""
+             samples: bool, stations: np.ndarray, fuel: np.ndarray, density: np.ndarray) -> Iterator[CheckResult]:
+    """The result of each loading from its row of the engine's arrays: the explanation of the verdict.
+
+    ``stations`` (N, S), ``fuel`` (N, T) and ``density`` (T,) are the arrays the engine was given."""
     units = aircraft.units
     tables = engine_tables(aircraft)
     envelopes, shapes = tables.envelopes[category]
@@ -147,15 +150,13 @@ def _explain(aircraft: Aircraft, loadings: Sequence[ResolvedLoading], found: Eva
     )
     units_info = UnitsInfo(mass=units.mass, arm=units.arm, fuel_volume=units.fuel_volume, moment=units.moment)
     rows = _Rows(found)
-    margins = _margins(shapes, found, tables.weights)
-    exceeded: list[bool] = np.any(found.load_exceeded, axis=1).tolist()  # type: ignore[assignment]
-    ok_rows: list[bool] = list(found.ok.tolist())
+    margins = _margins(shapes, found, tables.weights, tables.allowance)
     for i, resolved in enumerate(loadings):
         findings: list[Finding] = []
         conditions = [_condition(aircraft, rows, i, envelopes, shapes, name, findings, margins[name][i],  # type: ignore[arg-type]
                                  tables.weights[name]) for name in CONDITIONS]
-        burn_path = _burn_path(aircraft, resolved, found, i, conditions, findings, samples)
-        if exceeded[i]:
+        burn_path = _burn_path(aircraft, resolved, found, i, conditions, findings, samples, (stations[i], fuel[i], density))
+        if not rows.loads_ok[i]:
             findings.extend(_load_findings(aircraft, resolved, found, i))
         landing_fuel = conditions[2].fuel
         if resolved.reserve is not None and landing_fuel < resolved.reserve * (1 - WEIGHT_TOLERANCE):
@@ -168,7 +169,7 @@ def _explain(aircraft: Aircraft, loadings: Sequence[ResolvedLoading], found: Eva
             )
         findings.extend(Finding(code="assumption", severity="warning", message=note) for note in resolved.notes)
         ok = not any(f.severity == "limit" for f in findings)
-        assert ok == ok_rows[i], "the explanation must carry the engine's verdict"
+        assert ok == rows.ok[i], "the explanation must carry the engine's verdict"
         yield CheckResult(
             ok=ok,
             category=resolved.category,
@@ -186,15 +187,34 @@ class _Rows:
     """The engine's per-condition arrays as Python lists, read row by row without numpy scalars."""
 
     def __init__(self, found: Evaluation):
-        self.weight = {k: v.tolist() for k, v in found.weight.items()}
-        self.moment = {k: v.tolist() for k, v in found.moment.items()}
-        self.lateral = {k: v.tolist() for k, v in found.lateral_moment.items()}
-        self.fuel = {k: v.sum(axis=1).tolist() for k, v in found.fuel.items()}
-        self.fuel_weight = {k: v.tolist() for k, v in found.fuel_weight.items()}
-        self.weight_ok = {k: [v.tolist() for v in vs] for k, vs in found.weight_ok.items()}
-        self.min_weight_ok = {k: v.tolist() for k, v in found.min_weight_ok.items()}
-        self.inside = {k: [v.tolist() for v in vs] for k, vs in found.envelope_inside.items()}
-        self.condition_ok = {k: v.tolist() for k, v in found.condition_ok.items()}
+        # every row stacked and converted at once (two numpy calls for the numbers, two for the flags)
+        numbers: list[list[float]] = np.array(
+            [found.weight[k] for k in CONDITIONS] + [found.moment[k] for k in CONDITIONS]
+            + [found.lateral_moment[k] for k in CONDITIONS] + [found.fuel_weight[k] for k in CONDITIONS]
+        ).tolist()
+        self.weight = dict(zip(CONDITIONS, numbers[0:4], strict=True))
+        self.moment = dict(zip(CONDITIONS, numbers[4:8], strict=True))
+        self.lateral = dict(zip(CONDITIONS, numbers[8:12], strict=True))
+        self.fuel_weight = dict(zip(CONDITIONS, numbers[12:16], strict=True))
+        self.fuel = dict(zip(CONDITIONS, np.array([found.fuel[k] for k in CONDITIONS]).sum(axis=2).tolist(), strict=True))
+        counts = [(len(found.weight_ok[k]), len(found.envelope_inside[k])) for k in CONDITIONS]
+        flags: list[list[bool]] = np.array(
+            [found.min_weight_ok[k] for k in CONDITIONS] + [found.condition_ok[k] for k in CONDITIONS]
+            + [v for k in CONDITIONS for v in found.weight_ok[k]] + [v for k in CONDITIONS for v in found.envelope_inside[k]]
+            + [found.limit_ok["stations"], found.ok],
+            dtype=bool,
+        ).reshape(-1, len(found.ok)).tolist()
+        self.loads_ok, self.ok = flags[-2], flags[-1]  # every station and group limit holds; the verdict
+        self.min_weight_ok = dict(zip(CONDITIONS, flags[0:4], strict=True))
+        self.condition_ok = dict(zip(CONDITIONS, flags[4:8], strict=True))
+        self.weight_ok, self.inside = {}, {}
+        at = 8
+        for k, (limits, _) in zip(CONDITIONS, counts, strict=True):
+            self.weight_ok[k] = flags[at : at + limits]
+            at += limits
+        for k, (_, envelopes) in zip(CONDITIONS, counts, strict=True):
+            self.inside[k] = flags[at : at + envelopes]
+            at += envelopes
 
 
 # -- conditions -----------------------------------------------------------------------
@@ -235,7 +255,7 @@ def _condition(
     severity: Severity = "warning" if name == "zero_fuel" and aircraft.limits.zero_fuel_cg == "warning" else "limit"
     for envelope, shape, inside in zip(envelopes, shapes, rows.inside[name], strict=True):
         if not inside[i]:
-            tested = envelope_state(shape, name, weight, moment, lateral)
+            tested = envelope_state(shape, name, weight, moment, lateral, allowance=engine_tables(aircraft).allowance)
             label = f"the {envelope.label or envelope.category + '-category'} envelope"
             label = label.replace("envelope envelope", "envelope")
             findings.append(_outside_finding(aircraft, shape, label, name, *tested, severity))
@@ -277,7 +297,7 @@ _ONE_BY_ONE = 2  # up to this many loadings, slices are cut one at a time (fewer
 
 
 def _margins_one(shapes: Sequence[EnvelopeShape], states: Sequence[tuple[float, float, float]],
-                 weight_limits: Sequence[float | None]) -> list[Margins]:
+                 weight_limits: Sequence[float | None], allowance: float) -> list[Margins]:
     """The margins of one loading at each condition (``states``: weight, moment, lateral
     moment in CONDITIONS order), from :meth:`EnvelopeShape.slices`: every slice of an
     envelope cut with one containment call."""
@@ -295,7 +315,7 @@ def _margins_one(shapes: Sequence[EnvelopeShape], states: Sequence[tuple[float, 
         lines: list[tuple[float, float, float, Vary]] = []
         held: list[tuple[int, str, float]] = []  # per line: condition, what it gives, the value held
         for k, name in enumerate(CONDITIONS):
-            w, m, lat = envelope_state(shape, name, *states[k])
+            w, m, lat = envelope_state(shape, name, *states[k], allowance=allowance)
             arm, lateral_arm = m / w, lat / w
             if shape.is_lateral:
                 lines.append((w, arm, lateral_arm, "lateral"))
@@ -303,9 +323,8 @@ def _margins_one(shapes: Sequence[EnvelopeShape], states: Sequence[tuple[float, 
             else:
                 lines.append((w, arm, lateral_arm, "arm"))
                 held.append((k, "arm", arm))
-                if name != "ramp":
-                    lines.append((w, arm, lateral_arm, "weight"))
-                    held.append((k, "weight", w))
+                lines.append((w, arm, lateral_arm, "weight"))
+                held.append((k, "weight", w))
         for (k, what, value), intervals in zip(held, shape.slices(lines), strict=True):
             if not intervals:
                 continue
@@ -317,12 +336,24 @@ def _margins_one(shapes: Sequence[EnvelopeShape], states: Sequence[tuple[float, 
                 keep(k, "forward", value - lo)
                 keep(k, "aft", hi - value)
             else:
-                keep(k, "weight", hi - value)
+                keep(k, "weight", _room_to(shape, k, hi, allowance) - states[k][0])
     return [Margins(**v) for v in values]
 
 
+def _room_to(shape: EnvelopeShape, k: int, high: Any, allowance: float) -> Any:
+    """The highest weight the envelope allows at condition ``k`` (CONDITIONS order) and the
+    CG tested, from the top ``high`` of its weight slice: at ramp, where that is the
+    envelope's top, the top plus the ramp allowance (:func:`loadcheck.engine.envelope_state`)
+    [mass unit]."""
+    top = shape.max_weight
+    if k != 0 or top is None:
+        return high
+    return np.where(high >= top * (1 - 1e-12), high + allowance, high) if isinstance(high, np.ndarray) else (
+        high + allowance if high >= top * (1 - 1e-12) else high)
+
+
 def _margins(shapes: Sequence[EnvelopeShape], found: Evaluation,
-             weights: dict[str, list[tuple[str, float]]]) -> dict[str, list[Margins]]:
+             weights: dict[str, list[tuple[str, float]]], allowance: float) -> dict[str, list[Margins]]:
     """The margins of every loading at every condition (see :class:`~loadcheck.results.Margins`).
 
     A few loadings are cut one slice at a time (:func:`_margins_one`, plain floats); many
@@ -334,7 +365,8 @@ def _margins(shapes: Sequence[EnvelopeShape], found: Evaluation,
         limits = [min((value for _, value in weights[name]), default=None) for name in CONDITIONS]
         states = [(found.weight[name].tolist(), found.moment[name].tolist(), found.lateral_moment[name].tolist())
                   for name in CONDITIONS]
-        per_row = [_margins_one(shapes, [(w[i], m[i], lat[i]) for w, m, lat in states], limits) for i in range(n)]
+        per_row = [_margins_one(shapes, [(w[i], m[i], lat[i]) for w, m, lat in states], limits, allowance)
+                   for i in range(n)]
         return {name: [row[k] for row in per_row] for k, name in enumerate(CONDITIONS)}
     values = {name: {key: np.full(n, np.nan) for key in _MARGIN_KEYS} for name in CONDITIONS}
 
@@ -347,8 +379,8 @@ def _margins(shapes: Sequence[EnvelopeShape], found: Evaluation,
         if weight_limit is not None:
             keep(name, "weight", weight_limit - found.weight[name])
     for shape in shapes:
-        tested = [envelope_state(shape, name, found.weight[name], found.moment[name], found.lateral_moment[name])
-                  for name in CONDITIONS]
+        tested = [envelope_state(shape, name, found.weight[name], found.moment[name], found.lateral_moment[name],
+                                 allowance=allowance) for name in CONDITIONS]
         w = np.concatenate([t[0] for t in tested])
         m = np.concatenate([t[1] for t in tested])
         lat = np.concatenate([t[2] for t in tested])
@@ -356,8 +388,8 @@ def _margins(shapes: Sequence[EnvelopeShape], found: Evaluation,
         vary: Vary = "lateral" if shape.is_lateral else "arm"
         lines = [(vary, w, arm, lateral_arm)]
         upright = not shape.is_lateral
-        if upright:  # the weight margin, at every condition but ramp (its rows come first)
-            lines.append(("weight", w[n:], arm[n:], lateral_arm[n:]))
+        if upright:  # the weight margin, at every condition
+            lines.append(("weight", w, arm, lateral_arm))
         lo, hi = _slices(shape, lines)
         held = lateral_arm if shape.is_lateral else arm
         first, second = ("left", "right") if shape.is_lateral else ("forward", "aft")
@@ -367,10 +399,10 @@ def _margins(shapes: Sequence[EnvelopeShape], found: Evaluation,
             if found_here.any():
                 keep(name, first, np.where(found_here, held[part] - lo[part], np.nan))
                 keep(name, second, np.where(found_here, hi[part] - held[part], np.nan))
-            if upright and name != "ramp":
-                top = hi[4 * n + (k - 1) * n: 4 * n + k * n]
+            if upright:
+                top = hi[4 * n + k * n: 4 * n + (k + 1) * n]
                 if (~np.isnan(top)).any():
-                    keep(name, "weight", top - w[part])
+                    keep(name, "weight", _room_to(shape, k, top, allowance) - found.weight[name])
     out: dict[str, list[Margins]] = {}
     for name in CONDITIONS:
         columns = [values[name][key].tolist() for key in _MARGIN_KEYS]
@@ -547,15 +579,19 @@ def _burn_path(
     i: int,
     conditions: Sequence[Condition],
     findings: list[Finding],
-    with_samples: bool = True,
+    with_samples: bool,
+    arrays: tuple[np.ndarray, np.ndarray, np.ndarray],
 ) -> BurnPath:
+    """The burn path explained: samples for drawing, where it leaves, each stretch outside.
+
+    ``arrays``: the loading's stations (S,), fuel (T,) and densities (T,) as the engine had them."""
     start, end = resolved.taxi, resolved.taxi + resolved.trip
     takeoff = conditions[1]
     takeoff_in = bool(found.envelope_ok["takeoff"][i])
     landing_in = bool(found.envelope_ok["landing"][i])
     ok = bool(found.burn_path_ok[i])
     units = aircraft.units
-    lateral = aircraft.has_lateral
+    lateral = engine_tables(aircraft).has_lateral
     assert found.path_outside is not None
     stretches = found.path_outside[i]
 
@@ -564,9 +600,8 @@ def _burn_path(
     middle = [0.5 * (stretches[0][0] + stretches[0][1])] if stretches else []
     points = sorted(set(marks + ends)) + middle
     if points:
-        rows = loading_arrays(aircraft, resolved)
         weights, moments, laterals, quantities = path_states(
-            aircraft, rows.stations, rows.fuel, np.array(points), order=rows.order, density=rows.density
+            aircraft, arrays[0], arrays[1], np.array(points), order=resolved.plan.order, density=arrays[2]
         )
     state = dict(zip(points, zip(weights.tolist(), moments.tolist(), laterals.tolist(),
                                  quantities.sum(axis=1).tolist(), strict=True), strict=True)) if points else {}

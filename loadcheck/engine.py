@@ -16,8 +16,9 @@ The rules (DESIGN.md, "Conditions checked"):
   fuel (:data:`CONDITIONS`, :func:`tank_quantities`);
 - the weight limits of each condition (:func:`weight_limits`) and the minimum flight
   weight at takeoff and landing;
-- every envelope of the category at every condition; at ramp the weight above the
-  envelope's top is held to the top, with the CG kept (:func:`envelope_state`);
+- every envelope of the category at every condition; at ramp a weight above the
+  envelope's top by no more than the ramp allowance (max ramp less max takeoff weight) is
+  held to the top, with the CG kept; above that it is tested as it is (:func:`envelope_state`);
 - each station's and each station group's maximum and minimum (:func:`load_limits`);
 - the fuel-burn path from takeoff to landing, in the burn order, tested exactly.
 
@@ -66,6 +67,7 @@ __all__ = [
     "load_room",
     "loading_arrays",
     "path_states",
+    "ramp_allowance",
     "tank_quantities",
     "weight_limits",
 ]
@@ -210,23 +212,47 @@ def load_room(aircraft: Aircraft, stations: dict[str, float], station: str) -> f
     return max(0.0, room)
 
 
+def ramp_allowance(aircraft: Aircraft) -> float:
+    """The ramp allowance: maximum ramp weight less maximum takeoff weight [mass unit].
+
+    The weight allowed for start, taxi and run-up fuel; 0 where the file gives no maximum
+    ramp weight (common practice).
+    """
+    limits = aircraft.limits
+    return 0.0 if limits.max_ramp_weight is None else limits.max_ramp_weight - limits.max_takeoff_weight
+
+
 def envelope_state(
-    shape: EnvelopeShape, condition: str, weight: Any, moment: Any, lateral: Any
+    shape: EnvelopeShape, condition: str, weight: Any, moment: Any, lateral: Any, *, allowance: float
 ) -> tuple[Any, Any, Any]:
-    """The state tested against an envelope: at ramp, a weight above the envelope's top is held to the top.
+    """The state tested against an envelope: at ramp, a weight a little above the envelope's top is held to the top.
 
     The envelope is a flight envelope; before taxi the aircraft may be heavier than its
-    top by the taxi fuel. Its ramp weight is held to the maximum ramp weight and its CG
-    to the envelope's limits at the envelope's highest weight (common practice). Works on
-    plain floats and on arrays alike.
+    top by the start, taxi and run-up fuel. At ramp a weight above the envelope's top is
+    held to the top, with the CG kept, only while it is within the ramp allowance of that
+    top: weight <= (top + allowance) (1 + WEIGHT_TOLERANCE), the allowance being the
+    maximum ramp weight less the maximum takeoff weight (:func:`ramp_allowance`, 0 where
+    the file gives no maximum ramp weight). Above that the state is tested as it is, so it
+    is outside the envelope (fail closed; common practice). The ramp weight itself is
+    tested against the maximum ramp weight as well (:func:`weight_limits`). Works on plain
+    floats and on arrays alike.
+
+    Parameters
+    ----------
+    shape : the envelope
+    condition : one of :data:`CONDITIONS`; only ``ramp`` is ever held
+    weight, moment, lateral : the state [mass unit, mass unit * arm unit]
+    allowance : the ramp allowance [mass unit] (:func:`ramp_allowance`)
     """
     top = shape.max_weight
     if condition != "ramp" or top is None:
         return weight, moment, lateral
+    reach = (top + allowance) * (1 + WEIGHT_TOLERANCE)
     if isinstance(weight, float):
-        factor = top / weight if weight > top else 1.0
+        factor = top / weight if top < weight <= reach else 1.0
         return weight * factor, moment * factor, lateral * factor
-    scale = np.where(np.asarray(weight) > top, top / np.asarray(weight), 1.0)
+    w = np.asarray(weight)
+    scale = np.where((w > top) & (w <= reach), top / w, 1.0)
     if np.ndim(scale) == 0:
         factor = float(scale)
         return weight * factor, moment * factor, lateral * factor
@@ -252,6 +278,10 @@ class _Tables:
     load_members: np.ndarray  # (S, L): 1 where station S counts towards load limit L
     load_threshold: np.ndarray  # (L,) LoadLimit.threshold
     load_is_max: np.ndarray  # (L,) LoadLimit.is_max
+    allowance: float  # ramp_allowance
+    fixed_arms: np.ndarray  # (T,) each tank's arm (0 for a tank with an arm table)
+    moving: tuple[int, ...]  # the tanks with an arm table (Tank.arm_at)
+    test_order: dict[tuple[str, int, bool], tuple[np.ndarray, np.ndarray]]  # _test_order, filled as used
 
 
 _TABLES: dict[int, tuple[Aircraft, _Tables]] = {}
@@ -283,6 +313,10 @@ def _tables(aircraft: Aircraft) -> _Tables:
         load_members=members,
         load_threshold=np.array([rule.threshold for rule in loads], dtype=float),
         load_is_max=np.array([rule.is_max for rule in loads], dtype=bool),
+        allowance=ramp_allowance(aircraft),
+        fixed_arms=np.array([0.0 if t.arm_table is not None else t.arm_at(0.0) for t in aircraft.tank], dtype=float),
+        moving=tuple(i for i, t in enumerate(aircraft.tank) if t.arm_table is not None),
+        test_order={},
     )
     if len(_TABLES) >= _TABLES_KEPT:
         _TABLES.pop(next(iter(_TABLES)))
@@ -315,9 +349,11 @@ def tank_quantities(fuel: np.ndarray, burned: np.ndarray, order: Sequence[int] |
     if order is None:
         total = fuel.sum(axis=1)[:, None]
         # divided by a positive total or by 1: no warning to hold off (an errstate costs more than this)
-        share = np.where(total > 0, np.clip(1.0 - burned / np.where(total > 0, total, 1.0), 0.0, 1.0), 0.0)
+        positive = total > 0  # np.minimum(np.maximum()) is np.clip, in two cheap calls
+        share = np.where(positive, np.minimum(np.maximum(1.0 - burned / np.where(positive, total, 1.0), 0.0), 1.0), 0.0)
         return start * share[:, :, None]
-    left = np.broadcast_to(start, (*burned.shape, fuel.shape[1])).copy()
+    left = np.empty((*burned.shape, fuel.shape[1]))
+    left[...] = start
     remaining = burned.copy()
     for tank in order:
         used = np.minimum(left[:, :, tank], remaining)
@@ -327,10 +363,15 @@ def tank_quantities(fuel: np.ndarray, burned: np.ndarray, order: Sequence[int] |
 
 
 def _tank_arms(aircraft: Aircraft, quantities: np.ndarray) -> np.ndarray:
-    """Arm of each tank's fuel at the given quantities (..., T) [arm unit] (:meth:`Tank.arm_at`)."""
+    """Arm of each tank's fuel at the given quantities (..., T) [arm unit] (:meth:`Tank.arm_at`).
+
+    A tank without an arm table has the one arm whatever its quantity: those columns are
+    the tables' ``fixed_arms``."""
+    tables = _tables(aircraft)
     arms = np.empty_like(quantities)
-    for index, tank in enumerate(aircraft.tank):
-        arms[..., index] = tank.arm_at(quantities[..., index])
+    arms[...] = tables.fixed_arms
+    for index in tables.moving:
+        arms[..., index] = aircraft.tank[index].arm_at(quantities[..., index])
     return arms
 
 
@@ -345,10 +386,12 @@ def _burn_cuts(aircraft: Aircraft, fuel: np.ndarray, order: Sequence[int] | None
     if order is not None:
         running = np.zeros(n)
         for tank in order:
-            running = running + fuel[:, tank]
-            cuts.append(running.copy())
-    total = fuel.sum(axis=1)
-    for index, tank_data in enumerate(aircraft.tank):
+            running = running + fuel[:, tank]  # a new array each time: kept as it is
+            cuts.append(running)
+    moving = _tables(aircraft).moving  # only a tank with an arm table has knots
+    total = fuel.sum(axis=1) if moving else np.zeros(n)
+    for index in moving:
+        tank_data = aircraft.tank[index]
         for knot in tank_data.arm_knots():
             held = fuel[:, index]
             with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
@@ -647,16 +690,16 @@ def _evaluate(
         if name in MIN_FLIGHT_WEIGHT_CONDITIONS and limits.min_flight_weight is not None:
             minimum_ok[name] = weight[name] >= limits.min_flight_weight * (1 - WEIGHT_TOLERANCE)
     if limits.min_flight_weight is not None:
-        limit_ok["min_flight_weight"] = np.logical_and.reduce([minimum_ok[c] for c in MIN_FLIGHT_WEIGHT_CONDITIONS])
+        limit_ok["min_flight_weight"] = _all([minimum_ok[c] for c in MIN_FLIGHT_WEIGHT_CONDITIONS])
 
     # every envelope at the four conditions at once: one containment call per envelope
-    inside_all = [shape.covers(*_tested_states(shape, all_w, all_m, all_l)) for shape in shapes]  # (4, N) each
+    inside_all = [shape.covers(*_tested_states(shape, all_w, all_m, all_l, tables.allowance)) for shape in shapes]  # (4, N) each
     per_envelope = {name: [inside[k] for inside in inside_all] for k, name in enumerate(CONDITIONS)}
-    every = np.logical_and.reduce(inside_all) if inside_all else np.ones((4, n), dtype=bool)
+    every = _all(inside_all) if inside_all else np.ones((4, n), dtype=bool)
     envelope_ok = dict(zip(CONDITIONS, every, strict=True))
 
     condition_ok = {
-        name: np.logical_and.reduce(weight_ok[name] + [minimum_ok[name], envelope_ok[name]]) for name in CONDITIONS
+        name: _all([*weight_ok[name], minimum_ok[name], envelope_ok[name]]) for name in CONDITIONS
     }
 
     load_exceeded = _loads_exceeded(tables, stations)
@@ -671,7 +714,7 @@ def _evaluate(
     if len(rows):
         tested_ok, stretches = _burn_path(
             aircraft, shapes, fuel[rows], taxi[rows], trip[rows], order_index, rho, tank_lats,
-            pay_w[rows], pay_m[rows], pay_l[rows], explain,
+            pay_w[rows], pay_m[rows], pay_l[rows], explain, (q[rows, 1:], tank_arm[rows, 1:]),
         )
         path_ok[rows] &= tested_ok
         if path_outside is not None:
@@ -680,32 +723,21 @@ def _evaluate(
     path_ok = np.where(flying, path_ok, envelope_ok["takeoff"])
 
     # the first limit exceeded, in the single check's order: every test that holds, stacked
+    # (the order of the tests, with each one's code and condition, is _test_order's)
     zero_fuel_cg_is_limit = limits.zero_fuel_cg == "limit"
     holds: list[np.ndarray] = []
-    codes: list[str] = []
-    where: list[str] = []
     for name in CONDITIONS:
-        for (code, _), good in zip(table[name], weight_ok[name], strict=True):
-            holds.append(good)
-            codes.append(code)
-            where.append(name)
+        holds += weight_ok[name]
         holds.append(minimum_ok[name])
-        codes.append("min_flight_weight")
-        where.append(name)
         if name != "zero_fuel" or zero_fuel_cg_is_limit:
             holds += per_envelope[name]
-            codes += ["envelope"] * len(shapes)
-            where += [name] * len(shapes)
     holds.append(path_ok)
-    codes.append("burn_path")
-    where.append("")
     tests = np.concatenate([np.array(holds), ~load_exceeded.T]) if len(tables.loads) else np.array(holds)
-    codes += [rule.code for rule in tables.loads]
-    where += [""] * len(tables.loads)
+    codes, where = _test_order(tables, category, len(shapes), zero_fuel_cg_is_limit)
     first = tests.argmin(axis=0)  # the first test that fails (0 where none does)
     passed = tests.all(axis=0)
-    first_finding = np.where(passed, "", np.array(codes, dtype=object)[first])
-    first_condition = np.where(passed, "", np.array(where, dtype=object)[first])
+    first_finding = np.where(passed, "", codes[first])
+    first_condition = np.where(passed, "", where[first])
     first_finding[~valid] = "input"
     first_condition[~valid] = ""
 
@@ -734,19 +766,57 @@ def _evaluate(
     )
 
 
+def _all(arrays: Sequence[np.ndarray]) -> np.ndarray:
+    """Elementwise and of a few boolean arrays (chained ``&``: cheaper than a reduction over a short list)."""
+    out = arrays[0]
+    for more in arrays[1:]:
+        out = out & more
+    return out
+
+
+def _test_order(tables: _Tables, category: str, envelopes: int, zero_fuel_cg_is_limit: bool) -> tuple[np.ndarray, np.ndarray]:
+    """The code and the condition of each test :func:`_evaluate` stacks, in the single check's
+    order: per condition its weight limits, the minimum flight weight and each envelope (at
+    zero fuel only where its CG is a limit), then the burn path, then every station and group
+    limit. Object arrays, kept per aircraft and category."""
+    key = (category, envelopes, zero_fuel_cg_is_limit)
+    kept = tables.test_order.get(key)
+    if kept is not None:
+        return kept
+    codes: list[str] = []
+    where: list[str] = []
+    for name in CONDITIONS:
+        for code, _ in tables.weights[name]:
+            codes.append(code)
+            where.append(name)
+        codes.append("min_flight_weight")
+        where.append(name)
+        if name != "zero_fuel" or zero_fuel_cg_is_limit:
+            codes += ["envelope"] * envelopes
+            where += [name] * envelopes
+    codes.append("burn_path")
+    where.append("")
+    codes += [rule.code for rule in tables.loads]
+    where += [""] * len(tables.loads)
+    kept = (np.array(codes, dtype=object), np.array(where, dtype=object))
+    tables.test_order[key] = kept
+    return kept
+
+
 def _loads_exceeded(tables: _Tables, stations: np.ndarray) -> np.ndarray:
     """(N, L): True where load limit L (:func:`load_limits`) is exceeded; each limit sums its stations."""
     return _beyond(_dot(stations, tables.load_members), tables.load_threshold, tables.load_is_max)
 
 
 def _tested_states(shape: EnvelopeShape, weight: np.ndarray, moment: np.ndarray,
-                   lateral: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+                   lateral: np.ndarray, allowance: float) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
     """The states of the four conditions (rows of (4, N), CONDITIONS order) as tested against
     an envelope: the ramp row held to the envelope's top (:func:`envelope_state`)."""
-    if shape.max_weight is None:
+    top = shape.max_weight
+    if top is None or not (weight[0] > top).any():  # no ramp weight above the top: nothing is held
         return weight, moment, lateral
     w, m, lat = weight.copy(), moment.copy(), lateral.copy()
-    w[0], m[0], lat[0] = envelope_state(shape, "ramp", weight[0], moment[0], lateral[0])
+    w[0], m[0], lat[0] = envelope_state(shape, "ramp", weight[0], moment[0], lateral[0], allowance=allowance)
     return w, m, lat
 
 
@@ -788,7 +858,11 @@ def path_states(
     return (pay_w + mass.sum(axis=1), pay_m + (mass * _tank_arms(aircraft, q)).sum(axis=1), pay_l + _dot(mass, tables.tank_lats), q)
 
 
+_MIDDLE = np.array([1.0, 0.5, 0.25])  # the powers of u = 1/2: a piece's middle from its coefficients
+
+
 def _polyval(c: np.ndarray, u: np.ndarray | float) -> np.ndarray:
+    """Polynomials c[..., 0] + c[..., 1] u + c[..., 2] u^2 at u (Horner), broadcast."""
     return np.asarray(c[..., 0] + u * (c[..., 1] + u * c[..., 2]))
 
 
@@ -805,13 +879,17 @@ def _burn_path(
     pay_m: np.ndarray,
     pay_l: np.ndarray,
     explain: bool,
+    known: tuple[np.ndarray, np.ndarray],
 ) -> tuple[np.ndarray, list[list[tuple[float, float]]]]:
     """Whether the path from takeoff to landing stays inside every envelope, and (with
-    ``explain``) the stretches outside, as fuel burned since engine start [fuel volume unit]."""
+    ``explain``) the stretches outside, as fuel burned since engine start [fuel volume unit].
+
+    ``known``: the tank quantities and arms at takeoff and landing, (N, 2, T) each, as the
+    conditions have them; where the path is not cut they are the ends of its one piece."""
     n = fuel.shape[0]
     start, end = taxi, taxi + trip
     points = np.array([start, end, *_burn_cuts(aircraft, fuel, order)]).T
-    points = np.where(np.isfinite(points), np.clip(points, start[:, None], end[:, None]), end[:, None])
+    points = np.where(np.isfinite(points), np.minimum(np.maximum(points, start[:, None]), end[:, None]), end[:, None])
     if points.shape[1] > 2:  # two columns (takeoff, landing) are in order already
         points.sort(axis=1)
     live = points[:, 1:] - points[:, :-1] > 0  # (N, P)
@@ -820,29 +898,33 @@ def _burn_path(
     if len(rows) == 0:
         return np.ones(n, dtype=bool), stretches
     a, b = points[rows, cols], points[rows, cols + 1]  # the K live pieces
-    piece_fuel = fuel[rows]
-
-    q_ends = tank_quantities(piece_fuel, np.array([a, b]).T, order)  # (K, 2, T): both ends at once
-    arm_ends = _tank_arms(aircraft, q_ends)
-    qa, qb, arm_a, arm_b = q_ends[:, 0], q_ends[:, 1], arm_ends[:, 0], arm_ends[:, 1]
-    count = len(a)
-    w, m, lat = np.zeros((count, 3)), np.zeros((count, 3)), np.zeros((count, 3))
-    w[:, 0], m[:, 0], lat[:, 0] = pay_w[rows], pay_m[rows], pay_l[rows]
-    for ti in range(qa.shape[1]):  # a few tanks: a loop beats reductions over a short axis
-        ma, dm = qa[:, ti] * rho[ti], (qb[:, ti] - qa[:, ti]) * rho[ti]
-        arm, da = arm_a[:, ti], arm_b[:, ti] - arm_a[:, ti]
-        w[:, 0] += ma
-        w[:, 1] += dm
-        m[:, 0] += ma * arm
-        m[:, 1] += ma * da + dm * arm
-        m[:, 2] += dm * da
-        lat[:, 0] += ma * tank_lats[ti]
-        lat[:, 1] += dm * tank_lats[ti]
+    if points.shape[1] == 2:  # not cut: each piece is takeoff to landing, the same quantities as the conditions'
+        q_ends, arm_ends = known[0][rows], known[1][rows]
+    else:
+        q_ends = tank_quantities(fuel[rows], np.array([a, b]).T, order)  # (K, 2, T): both ends at once
+        arm_ends = _tank_arms(aircraft, q_ends)
+    # each tank's mass ma + dm u and arm arm + da u on the piece (u from 0 to 1): weight, moment
+    # and lateral moment as polynomials in u, (K, 3) coefficients each, lowest power first
+    ma = q_ends[:, 0] * rho  # (K, T)
+    dm = q_ends[:, 1] * rho - ma
+    arm, da = arm_ends[:, 0], arm_ends[:, 1] - arm_ends[:, 0]
+    terms = np.array([ma, dm, ma * arm, ma * da + dm * arm, dm * da])  # (5, K, T)
+    sums = terms.sum(axis=2)  # (5, K)
+    lat_terms = _dot(np.array([ma, dm]), tank_lats)  # (2, K)
+    poly = np.zeros((3, len(a), 3))  # weight, moment, lateral moment
+    w, m, lat = poly[0], poly[1], poly[2]
+    w[:, 0] = pay_w[rows] + sums[0]
+    w[:, 1] = sums[1]
+    m[:, 0] = pay_m[rows] + sums[2]
+    m[:, 1:] = sums[3:].T
+    lat[:, 0] = pay_l[rows] + lat_terms[0]
+    lat[:, 1] = lat_terms[1]
 
     # pieces that touch no edge stay on one side of the boundary: their middle settles them
+    middle = poly @ _MIDDLE  # (3, K): weight, moment, lateral moment at u = 1/2
     inside = np.ones(len(a), dtype=bool)
     for shape in shapes:
-        inside &= np.asarray(shape.covers(_polyval(w, 0.5), _polyval(m, 0.5), _polyval(lat, 0.5)))
+        inside &= np.asarray(shape.covers(middle[0], middle[1], middle[2]))
     touched = np.zeros(len(a), dtype=bool)
     candidates = []
     for shape in shapes:
@@ -862,7 +944,8 @@ def _burn_path(
                 continue
             k, e = k_all[in_piece], e_all[in_piece]
             u = np.clip(r[in_piece], 0.0, 1.0)
-            s = shape.edge_position(e, _polyval(w[k], u), _polyval(m[k], u), _polyval(lat[k], u))
+            at = _polyval(poly[:, k], u)  # (3, roots): weight, moment, lateral moment at each root
+            s = shape.edge_position(e, at[0], at[1], at[2])
             touched[k[(s >= -_EDGE_SLACK) & (s <= 1 + _EDGE_SLACK)]] = True
             column = np.full(f.shape[0] * f.shape[2], np.nan)
             column[k * f.shape[2] + e] = u
@@ -875,11 +958,11 @@ def _burn_path(
         cuts_u = np.sort(np.where(np.isfinite(cuts_u), cuts_u, 1.0), axis=1)
         lo, hi = cuts_u[:, :-1], cuts_u[:, 1:]
         mids = 0.5 * (lo + hi)
-        sub = [_polyval(c[hit][:, None, :], mids) for c in (w, m, lat)]
+        sub = _polyval(poly[:, hit, None, :], mids)  # (3, H, parts): weight, moment, lateral moment
         short = hi - lo <= 1e-12
         both = np.ones(mids.shape, dtype=bool)
         for shape in shapes:
-            both &= np.asarray(shape.covers(*sub))
+            both &= np.asarray(shape.covers(sub[0], sub[1], sub[2]))
         parts_out = ~(short | both)
         inside[hit] = ~parts_out.any(axis=1)
     result = np.ones(n, dtype=bool)

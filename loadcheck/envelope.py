@@ -160,6 +160,7 @@ class EnvelopeShape:
         (x1, y1), (x2, y2) = self._edges[:, 0].T, self._edges[:, 1].T
         # weights of the edge-crossing polynomial's basis (see loadcheck.engine)
         self.edge_weights = np.stack([y2 - y1, (x2 - x1) * y1 - (y2 - y1) * x1, -(x2 - x1)])  # (3, n)
+        self._edge_sources, self._edge_map = self._edge_basis()
         self.covering = shapely.Polygon(normal).buffer(TOLERANCE, quad_segs=16)
         column = corners[:, axes.index("weight")] if "weight" in axes else None
         self._weight_range = None if column is None else (float(column.min()), float(column.max()))
@@ -201,8 +202,7 @@ class EnvelopeShape:
         return float(arms.min()), float(arms.max())
 
     def _axis(self, k: int, weight: np.ndarray, moment: np.ndarray, lateral: np.ndarray) -> np.ndarray:
-        a, b, c = self._coefficients[k]
-        value = a * weight + b * moment + c * lateral
+        value = _combine(self._coefficients[k], weight, moment, lateral)
         return value / weight if self._per_weight[k] else value
 
     def coords(self, weight: float | np.ndarray, moment: float | np.ndarray, lateral: float | np.ndarray) -> tuple[np.ndarray, np.ndarray]:
@@ -314,10 +314,45 @@ class EnvelopeShape:
 
     # -- fuel-burn path -------------------------------------------------------------
 
-    def _fraction(self, k: int, w: np.ndarray, m: np.ndarray, lat: np.ndarray) -> tuple[np.ndarray, bool]:
-        """Numerator coefficients (..., 3) of axis ``k`` along a path, and whether its denominator is W."""
-        a, b, c = self._coefficients[k]
-        return a * w + b * m + c * lat, self._per_weight[k]
+    def _edge_basis(self) -> tuple[tuple[str, ...], np.ndarray]:
+        """The edge polynomials as one linear map, built once (see :meth:`edge_polynomials`).
+
+        Each basis polynomial (Nx Dy, Dx Dy, Ny Dx, or Nx, D, Ny) is a combination of the
+        sources W, M, L, 1 and, where one axis is divided by W and the other is not, of the
+        products W W, W M, W L; the edge polynomials are that combination times
+        ``edge_weights``. Returns the sources used and the (sources, E) map.
+        """
+        names = ("w", "m", "lat")
+        per = self._per_weight
+
+        def numerator(k: int) -> dict[str, float]:  # (N_k - origin D_k) / span, in the sources
+            terms = {n: c for n, c in zip(names, self._coefficients[k], strict=True) if c != 0.0}
+            denominator = "w" if per[k] else "one"
+            terms[denominator] = terms.get(denominator, 0.0) - float(self.origin[k])
+            return {n: c / float(self.span[k]) for n, c in terms.items()}
+
+        def times_w(terms: dict[str, float]) -> dict[str, float]:
+            product = {"w": "ww", "m": "wm", "lat": "wl", "one": "w"}
+            out: dict[str, float] = {}
+            for n, c in terms.items():
+                out[product[n]] = out.get(product[n], 0.0) + c
+            return out
+
+        nx, ny = numerator(0), numerator(1)
+        dx = {"w": 1.0} if per[0] else {"one": 1.0}
+        dy = {"w": 1.0} if per[1] else {"one": 1.0}
+        if per[0] == per[1]:
+            basis = [nx, dx, ny]
+        elif per[0]:  # Dy = 1
+            basis = [nx, dx, times_w(ny)]
+        else:  # Dx = 1
+            basis = [times_w(nx), dy, ny]
+        sources = tuple(n for n in ("w", "m", "lat", "one", "ww", "wm", "wl") if any(n in b for b in basis))
+        rows = np.zeros((len(sources), self.edge_weights.shape[1]))
+        for j, terms in enumerate(basis):
+            for n, c in terms.items():
+                rows[sources.index(n)] += c * self.edge_weights[j]
+        return sources, rows
 
     def edge_polynomials(self, w: np.ndarray, m: np.ndarray, lat: np.ndarray) -> np.ndarray:
         """Coefficients (..., 3, E) of "the path meets edge line e", lowest power first.
@@ -332,22 +367,24 @@ class EnvelopeShape:
         weight, or the pair is lateral arm and arm) each basis polynomial is of degree two
         at most, so the condition is a quadratic.
         """
-        (nx, x_over_w), (ny, y_over_w) = (self._fraction(k, w, m, lat) for k in (0, 1))
-        one = np.zeros_like(w)
-        one[..., 0] = 1.0
-        dx = w if x_over_w else one
-        dy = w if y_over_w else one
-        nx = (nx - self.origin[0] * dx) / self.span[0]
-        ny = (ny - self.origin[1] * dy) / self.span[1]
-        if x_over_w == y_over_w:
-            basis = np.stack([nx, dx, ny], axis=-1)
-        elif x_over_w:  # Dy = 1
-            basis = np.stack([nx, dx, _times(ny, dx)], axis=-1)
-        else:  # Dx = 1
-            basis = np.stack([_times(nx, dy), dy, ny], axis=-1)
-        shape = basis.shape[:-2]
-        flat = basis.reshape(-1, 3) @ self.edge_weights  # one matrix product for every edge
-        return flat.reshape(*shape, 3, -1)
+        # the basis polynomials are combined with the edge weights once per envelope
+        # (_edge_basis): here only the sources it uses are stacked, and one matrix product
+        # gives every edge
+        given = {"w": w, "m": m, "lat": lat}
+        sources = []
+        for name in self._edge_sources:
+            if name in given:
+                sources.append(given[name])
+            elif name == "one":
+                one = np.zeros_like(w)
+                one[..., 0] = 1.0
+                sources.append(one)
+            else:  # a product with W: of degree two at most (see above)
+                sources.append(_times(w, given[{"ww": "w", "wm": "m", "wl": "lat"}[name]]))
+        stacked = np.array(sources)  # (S, ..., 3)
+        flat = self._edge_map.T @ stacked.reshape(len(sources), -1)  # (E, ... * 3): one product for every edge
+        out = flat.reshape(-1, *stacked.shape[1:])  # (E, ..., 3)
+        return out.transpose(*range(1, out.ndim), 0)  # (..., 3, E), a view
 
     def edge_position(self, edges: np.ndarray, w: np.ndarray, m: np.ndarray, lat: np.ndarray) -> np.ndarray:
         """Where points fall along edges, projected: 0 at an edge's start, 1 at its end."""
@@ -376,6 +413,18 @@ def _intervals(points: list[float], inside_mid: list[bool], inside_cut: list[boo
         if inside and (k == 0 or not inside_mid[k - 1]) and (k == last or not inside_mid[k]):
             intervals.append((points[k], points[k]))
     return sorted(intervals)
+
+
+def _combine(coefficients: tuple[float, float, float], w: np.ndarray, m: np.ndarray, lat: np.ndarray) -> np.ndarray:
+    """a W + b M + c L for an axis's coefficients (:class:`AxisSpec`), leaving out the terms
+    whose coefficient is 0 and the products by 1 (the same value, in fewer array operations)."""
+    value: np.ndarray | None = None
+    for coefficient, term in zip(coefficients, (w, m, lat), strict=True):
+        if coefficient == 0.0:
+            continue
+        part = term if coefficient == 1.0 else coefficient * term
+        value = part if value is None else value + part
+    return np.zeros_like(w) if value is None else value
 
 
 def _times(a: np.ndarray, b: np.ndarray) -> np.ndarray:

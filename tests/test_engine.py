@@ -114,3 +114,72 @@ def test_large_batches_are_chunked_identically():
     assert (whole.ok[-500:] == part.ok).all()
     for name in CONDITIONS:
         assert np.array_equal(whole.weight[name][-500:], part.weight[name])
+
+
+# -- the ramp weight above an envelope's top (issue: the utility ramp at 2,388 lb reported within) ----
+#
+# The ramp allowance is for start, taxi and run-up fuel: max ramp weight less max takeoff weight
+# (common practice). At ramp a weight above an envelope's top is held to the top only while it is
+# within that allowance of the top; above that the ramp state is tested as it is.
+
+
+def trainer_ramp(front, rear, category="utility"):
+    """The trainer with 30 US gal in the mains (180 lb) and a 2 US gal taxi: ramp weight
+    1,718 + front + rear + 180 lb (sample_aircraft/trainer4)."""
+    return check_loading(AIRCRAFT["trainer4"], Loading(
+        category=category, load={"front": front, "rear": rear}, fuel={"mains": 30.0, "centre": 0.0},
+        burn={"taxi": 2.0, "trip": 0.0}))
+
+
+def ramp_findings(result):
+    return [(f.code, f.severity) for f in result.findings if f.condition == "ramp"]
+
+
+def test_regression_utility_ramp_weight_far_above_the_envelope_top_was_reported_within():
+    # utility top 2,290 lb, max ramp 2,462, max takeoff 2,450: the allowance is 12 lb. A ramp weight
+    # of 2,388 lb was held to the top (and passed the max ramp weight), so the ramp was "within".
+    result = trainer_ramp(270.0, 220.0)
+    ramp = result.conditions[0]
+    assert ramp.weight == pytest.approx(2388.0)
+    assert not ramp.ok
+    assert ("envelope", "limit") in ramp_findings(result)
+    assert ramp.margins.weight == pytest.approx(2290.0 + 12.0 - 2388.0)  # room to top + allowance, negative
+    assert not evaluate(AIRCRAFT["trainer4"], [[270.0, 220.0, 0.0]], [[30.0, 0.0]], [2.0], [0.0],
+                        category="utility").envelope_ok["ramp"][0]
+
+
+def test_ramp_weight_exactly_at_the_top_plus_the_allowance_is_within():
+    # 1,718 + 200 + 204 + 180 = 2,302 lb = 2,290 + 12, CG 40.75 in (utility limits at 2,290 lb: 38.0 to 41.6)
+    result = trainer_ramp(200.0, 204.0)
+    ramp = result.conditions[0]
+    assert ramp.weight == 2302.0 and ramp.ok and result.ok
+    assert ramp.margins.weight == pytest.approx(0.0, abs=1e-9)
+    assert trainer_ramp(200.0 + 2302.0 * 0.5e-9, 204.0).conditions[0].ok  # within the 1e-9 weight tolerance
+
+
+@pytest.mark.parametrize("over", [2302.0 * 2e-9, 0.01, 1.0])
+def test_ramp_weight_just_above_the_top_plus_the_allowance_is_outside(over):
+    result = trainer_ramp(200.0 + over, 204.0)
+    assert not result.conditions[0].ok and not result.ok
+    assert ramp_findings(result) == [("envelope", "limit")]  # under the max ramp weight, outside the envelope
+
+
+def test_normal_envelope_top_at_max_takeoff_keeps_the_ramp_allowance():
+    # normal top 2,450 lb = max takeoff: the ramp is held up to the max ramp weight 2,462 lb as before
+    result = trainer_ramp(300.0, 264.0, category="normal")
+    assert result.conditions[0].weight == 2462.0 and result.ok
+    assert result.conditions[0].margins.weight == pytest.approx(0.0, abs=1e-9)
+    over = trainer_ramp(300.01, 264.0, category="normal")
+    assert {"max_ramp_weight", "envelope"} <= {code for code, _ in ramp_findings(over)}
+
+
+def test_no_max_ramp_weight_means_no_ramp_allowance():
+    # no max ramp weight: the allowance is 0, so a ramp above a utility top of 1,800 lb is outside it
+    utility = {"category": "utility", "axes": ["arm", "weight"], "points": [[35.0, 900], [35.0, 1800], [46.0, 1800], [46.0, 900]]}
+    aircraft = simple_aircraft(envelope=[utility])
+    loading = Loading(category="utility", load={"front": 500.0, "rear": 100.0}, fuel={"main": 205.0 / 6.0},
+                      burn={"taxi": 1.0, "trip": 0.0})
+    result = check_loading(aircraft, loading)
+    assert result.conditions[0].weight == pytest.approx(1805.0)
+    assert result.conditions[1].ok and not result.conditions[0].ok
+    assert ramp_findings(result) == [("envelope", "limit")]
