@@ -406,7 +406,8 @@ def _margins(shapes: Sequence[EnvelopeShape], found: Evaluation,
     out: dict[str, list[Margins]] = {}
     for name in CONDITIONS:
         columns = [values[name][key].tolist() for key in _MARGIN_KEYS]
-        out[name] = [Margins(**{key: v for key, v in zip(_MARGIN_KEYS, row) if v == v}) for row in zip(*columns)]
+        out[name] = [Margins(**{key: v for key, v in zip(_MARGIN_KEYS, row, strict=True) if v == v})
+                     for row in zip(*columns, strict=True)]
     return out
 
 

@@ -36,6 +36,7 @@ piece at its middle: an exact test of the curve, not sampling.
 
 from __future__ import annotations
 
+import itertools
 from collections.abc import Callable, Sequence
 from dataclasses import dataclass
 from typing import TYPE_CHECKING, Literal
@@ -256,7 +257,7 @@ class EnvelopeShape:
             if line is None or points is None:
                 continue
             ax, ay, dx, dy = line
-            probe = [0.5 * (lo + hi) for lo, hi in zip(points, points[1:])] + points
+            probe = [0.5 * (lo + hi) for lo, hi in itertools.pairwise(points)] + points
             xs += [ax + p * dx for p in probe]
             ys += [ay + p * dy for p in probe]
         flags: list[bool] = shapely.intersects_xy(self.covering, np.array(xs), np.array(ys)).tolist() if xs else []
