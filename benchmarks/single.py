@@ -15,6 +15,7 @@ from __future__ import annotations
 
 import argparse
 import importlib
+import re
 import subprocess
 import sys
 import tarfile
@@ -37,6 +38,21 @@ def _old_package(commit: str, folder: Path) -> object:
     return importlib.import_module("loadcheck_old")
 
 
+def _samples_for_old(folder: Path) -> Path:
+    """The sample folder as the old code reads it: keys renamed since (``files.RENAMED_KEYS``) under their old names."""
+    from loadcheck.files import RENAMED_KEYS
+
+    target = folder / "samples_old"
+    for source in (ROOT / "sample_aircraft").rglob("*.toml"):
+        text = source.read_text(encoding="utf-8")
+        for old_key, new_key in RENAMED_KEYS.items():
+            text = re.sub(rf"^{new_key}\b", old_key, text, flags=re.M)
+        copy = target / source.relative_to(ROOT / "sample_aircraft")
+        copy.parent.mkdir(parents=True, exist_ok=True)
+        copy.write_text(text, encoding="utf-8")
+    return target
+
+
 def _best(check, aircraft, loading, runs: int, samples: bool, clock=time.perf_counter) -> float:
     start = clock()
     for _ in range(runs):
@@ -56,13 +72,14 @@ def main() -> None:
 
     with tempfile.TemporaryDirectory() as folder:
         old: object = _old_package(args.old, Path(folder))
+        old_samples = _samples_for_old(Path(folder))
         clock = time.process_time if args.cpu else time.perf_counter
         print(f"check_loading ({'CPU' if args.cpu else 'wall'} time), best of {args.repeat} x {args.runs} checks, ms per check (old = {args.old}):")
         print(f"  {'sample':30} {'samples':>8} {'old':>7} {'new':>7} {'new/old':>8}")
         for name in SAMPLES:
             versions = []
-            for package in (old, new):
-                inputs = package.load_check_inputs(ROOT / "sample_aircraft" / name)  # type: ignore[attr-defined]
+            for package, where in ((old, old_samples), (new, ROOT / "sample_aircraft")):
+                inputs = package.load_check_inputs(where / name)  # type: ignore[attr-defined]
                 versions.append((package.check_loading, inputs.aircraft, inputs.loading))  # type: ignore[attr-defined]
             for samples in (False, True):
                 for check, aircraft, loading in versions:
