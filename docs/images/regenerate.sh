@@ -15,4 +15,4 @@ browser=$(command -v chromium || command -v chromium-browser || command -v googl
     "file://$work/sheet-letter.html" 2>/dev/null
 pdftoppm -png -r 90 -singlefile "$work/sheet.pdf" docs/images/load-sheet-letter
 # the desk's screenshots (docs/web.md), from the browser tests on the sample fleet (Playwright and Chromium)
-DESK_SCREENSHOTS=docs/images python3 -m pytest -q -p no:cacheprovider tests/test_web_browser.py
+DESK_SCREENSHOTS=docs/images python3 -m pytest -q -p no:cacheprovider --long tests/test_web_browser.py  # --long: the slow journeys too
