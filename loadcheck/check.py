@@ -258,7 +258,8 @@ def _condition(
             tested = envelope_state(shape, name, weight, moment, lateral, allowance=engine_tables(aircraft).allowance)
             label = f"the {envelope.label or envelope.category + '-category'} envelope"
             label = label.replace("envelope envelope", "envelope")
-            findings.append(_outside_finding(aircraft, shape, label, name, *tested, severity))
+            findings.append(_outside_finding(aircraft, shape, label, name, *tested, severity,
+                                             allowance=engine_tables(aircraft).allowance))
 
     has_lateral = engine_tables(aircraft).has_lateral
     weight_limit = min((value for _, value in table), default=None)
@@ -506,8 +507,14 @@ def _outside_finding(
     moment: float,
     lateral_moment: float,
     severity: Severity,
+    *,
+    allowance: float = 0.0,
 ) -> Finding:
     """Say in plain words where a point outside an envelope lies, and by how much.
+
+    At ramp a weight above the envelope's top is measured from the top plus the ramp
+    ``allowance`` [mass unit], the weight :func:`loadcheck.engine.envelope_state` holds to the
+    top, so the excess is the one the ramp weight margin shows.
 
     The CG is compared with the limits at the point's weight (forward/aft, or left/right
     for a lateral envelope); a weight beyond the envelope's weight range is reported as
@@ -542,10 +549,12 @@ def _outside_finding(
     if band is not None and not band[0] <= weight <= band[1]:
         edge = band[1] if weight > band[1] else band[0]
         side = "above" if weight > band[1] else "below"
-        excess, limit, unit = abs(weight - edge), edge, units.mass
+        ramp_allowance = allowance if name == "ramp" and side == "above" else 0.0
+        excess, limit, unit = abs(weight - (edge + ramp_allowance)), edge + ramp_allowance, units.mass
         there = across(edge)
         text = envelope_weight_message(name, label, weight, edge, units.mass,
-                                       None if there is None else (there[0], value, there[2], units.arm))
+                                       None if there is None else (there[0], value, there[2], units.arm),
+                                       ramp_allowance=ramp_allowance)
     else:
         found = across(weight)
         if found is not None and "lateral_moment" in shape.axes and found[0] != "outside":

@@ -114,14 +114,19 @@ def weight_limit_message(condition: str, weight: float, code: str, limit: float,
 
 
 def envelope_weight_message(
-    condition: str, label: str, weight: float, edge: float, mass_unit: str, cg_beyond: tuple[str, float, float, str] | None
+    condition: str, label: str, weight: float, edge: float, mass_unit: str, cg_beyond: tuple[str, float, float, str] | None,
+    *, ramp_allowance: float = 0.0,
 ) -> str:
     """A point above or below an envelope's weight range, and its CG against the limit there.
 
-    ``cg_beyond`` is (side, CG, limit, arm unit) where the CG is also outside at that edge.
+    ``cg_beyond`` is (side, CG, limit, arm unit) where the CG is also outside at that edge;
+    ``ramp_allowance`` [mass unit], at ramp above the top: the excess is over the top plus it.
     """
     side = "above" if weight > edge else "below"
-    value, bound, excess = beyond(weight, edge, mass_unit)
+    value, bound, excess = beyond(weight, edge + ramp_allowance, mass_unit)
+    if ramp_allowance > 0:
+        bound = (f"{fmt(edge, mass_unit)} ({bound} at ramp with the {fmt(ramp_allowance, mass_unit)} ramp "
+                 "allowance)")
     text = (f"{condition_words(condition)} weight {value} is {side} {label}, whose "
             f"{'highest' if side == 'above' else 'lowest'} weight is {bound}, by {excess}")
     if cg_beyond is not None:

@@ -148,6 +148,16 @@ def test_regression_utility_ramp_weight_far_above_the_envelope_top_was_reported_
                         category="utility").envelope_ok["ramp"][0]
 
 
+def test_regression_ramp_finding_and_ramp_margin_gave_two_excesses():
+    # the ramp weight margin measured from top + allowance (-86 lb) while the finding measured from the
+    # bare top (98 lb): one excess, the margin's, and the words say the allowance is counted
+    result = trainer_ramp(270.0, 220.0)
+    (finding,) = [f for f in result.findings if f.condition == "ramp" and f.code == "envelope"]
+    assert finding.excess == pytest.approx(-result.conditions[0].margins.weight) == pytest.approx(86.0)
+    assert finding.limit == pytest.approx(2302.0)
+    assert "2,290.0 lb (2,302.0 lb at ramp with the 12.0 lb ramp allowance), by 86.0 lb" in finding.message
+
+
 def test_ramp_weight_exactly_at_the_top_plus_the_allowance_is_within():
     # 1,718 + 200 + 204 + 180 = 2,302 lb = 2,290 + 12, CG 40.75 in (utility limits at 2,290 lb: 38.0 to 41.6)
     result = trainer_ramp(200.0, 204.0)
