@@ -194,6 +194,20 @@ def test_python_dash_m_and_no_matplotlib_on_a_plain_check():
     assert run.returncode == 0 and "loadcheck" in run.stdout
 
 
+@pytest.mark.skipif(sys.platform == "win32", reason="SIGPIPE is POSIX")
+def test_regression_output_into_a_closed_pipe_exited_1_or_was_an_internal_error():
+    # `check within.toml | head -1` exited 1 (the "limit exceeded" status) and `fleet check --json | head -1`
+    # said "internal error (BrokenPipeError)": a reader that stops early ends the process by SIGPIPE
+    import signal
+
+    for args in (["check", str(sample("twin6/within.toml"))],
+                 ["fleet", "check", str(sample(".")), str(sample("fleet_day.csv")), "--no-log", "--json"]):
+        run = subprocess.run(f"{sys.executable} -m loadcheck {' '.join(args)} | head -c 10; exit ${{PIPESTATUS[0]}}",
+                             shell=True, executable="/bin/bash", capture_output=True, text=True, check=False)
+        assert run.returncode == 128 + signal.SIGPIPE, (args, run.returncode, run.stderr)
+        assert "internal error" not in run.stderr and "Traceback" not in run.stderr
+
+
 @pytest.mark.skipif(shutil.which("loadcheck") is None, reason="console script not installed")
 def test_console_script_exit_code_for_a_limit():
     run = subprocess.run(["loadcheck", "check", str(sample("trainer4/over_weight.toml"))], capture_output=True, text=True, check=False)

@@ -129,7 +129,16 @@ def _just(name: str) -> typer.Typer | None:
 
 
 def main() -> None:
-    """Entry point of the console script."""
+    """Entry point of the console script.
+
+    Output into a pipe that the reader closed early (``loadcheck check ... | head -1``) ends the
+    process as any Unix tool ends there, by SIGPIPE: never exit 1 ("limit exceeded") or 2 with
+    "internal error" for a result that was not read (common practice).
+    """
+    import signal
+
+    if hasattr(signal, "SIGPIPE"):
+        signal.signal(signal.SIGPIPE, signal.SIG_DFL)
     words = [w for w in sys.argv[1:] if not w.startswith("-")]
     first = sys.argv[1] if len(sys.argv) > 1 else ""
     chosen = _just(words[0]) if words and first == words[0] else None

@@ -22,7 +22,7 @@ def render_check_log(path: Any, records: Iterable[tuple[Any, ...]], caution: str
     ``records`` as :meth:`loadcheck.checklog.CheckLog.listing` gives them. A long listing is
     plain aligned text (:mod:`loadcheck.render.listing`).
     """
-    title = f"Records in {path}"
+    title = f"Check log {path}"
     heads = ("Id", "Checked (UTC)", "Registration", "Reference", "Pilot", "Result", "Data")
     got = list(zip(*records, strict=True)) or [()] * 8  # column by column, in C: a listing may hold 100,000 records
 
