@@ -76,6 +76,10 @@ _RENAMED_OPTIONS = {  # rename.py: keep (the options before issue 21's one conve
     "--no-record": "the check log is now --no-log",  # rename.py: keep
 }
 
+_RENAMED_COMMANDS = {  # rename.py: keep (the command group before issue 21)
+    "records": "the check log's commands are now loadcheck log list, show, verify and export",  # rename.py: keep
+}
+
 
 def _renamed_option(command: Any, args: list[str]) -> str | None:
     """A hint for an option of an earlier release that ``command`` no longer takes (refused
@@ -95,6 +99,8 @@ class _Group(TyperGroup):
     """The command group: refuses an option that takes one value given twice (any command)."""
 
     def resolve_command(self, ctx: Any, args: list[str]) -> Any:  # click's own types, vendored inside typer
+        if args and args[0] in _RENAMED_COMMANDS and self.get_command(ctx, args[0]) is None:
+            _fail_input([f"no such command {args[0]}: {_RENAMED_COMMANDS[args[0]]}"])
         name, command, rest = super().resolve_command(ctx, args)
         target, remaining = command, list(rest)
         while isinstance(target, TyperGroup) and remaining and not remaining[0].startswith("-"):
