@@ -21,6 +21,7 @@ __all__ = [
     "beyond",
     "burn_path_message",
     "burn_path_summary",
+    "within_limits_text",
     "condition_words",
     "count",
     "envelope_gap_message",
@@ -61,6 +62,22 @@ def count(number: int, thing: str) -> str:
     ('1 tank', '3 stations')
     """
     return f"{number} {thing}" if number == 1 else f"{number} {thing}s"
+
+
+def within_limits_text(warnings: int) -> str:
+    """What a loading within limits holds, and the warnings beside it, so that "every
+    condition holds" never stands beside a condition shown outside as a warning.
+
+    Examples
+    --------
+    >>> within_limits_text(0)
+    'every condition, the burn path and every weight limit hold.'
+    >>> within_limits_text(1)
+    'every limit holds at every condition and along the burn path; 1 warning (see the findings).'
+    """
+    if warnings == 0:
+        return "every condition, the burn path and every weight limit hold."
+    return f"every limit holds at every condition and along the burn path; {count(warnings, 'warning')} (see the findings)."
 
 
 def condition_words(name: str | None) -> str:

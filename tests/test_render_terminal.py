@@ -66,3 +66,15 @@ def test_validate_counts_in_words(runner):
     # regression (issue 15, item 5): "1 tanks"
     out = runner.invoke(app, ["validate", str(sample("tandem2/aircraft.toml"))], env={"COLUMNS": "200"}).output
     assert "1 tank," in out and "1 tanks" not in out and "4 stations" in out
+
+
+def test_regression_every_condition_holds_beside_a_zero_fuel_warning(runner):
+    # tandem2/aft_ballast is within limits with a zero-fuel CG warning (zero_fuel_cg = "warning"):
+    # the verdict said "every condition ... hold" under a Zero fuel row marked OUTSIDE (warning)
+    result = runner.invoke(app, ["check", str(sample("tandem2/aft_ballast.toml"))], env={"COLUMNS": "120"})
+    assert result.exit_code == 0, result.output
+    assert "WARNING zero fuel" in result.output
+    verdict = next(line for line in result.output.splitlines() if "WITHIN LIMITS" in line)
+    assert "every condition, the burn path and every weight limit hold" not in verdict and "1 warning" in verdict
+    within = runner.invoke(app, ["check", str(sample("trainer4/within.toml"))], env={"COLUMNS": "120"})
+    assert "WITHIN LIMITS: every condition, the burn path and every weight limit hold." in within.output

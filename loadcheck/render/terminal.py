@@ -25,7 +25,7 @@ from rich.text import Text
 
 from ..display import fmt, unit_label
 from ..results import CheckResult, Condition
-from ..words import burn_path_summary, stretch_text
+from ..words import burn_path_summary, stretch_text, within_limits_text
 
 if TYPE_CHECKING:  # the aircraft models (pydantic, numpy, shapely) are not loaded to print a listing
     from ..aircraft import Aircraft
@@ -376,7 +376,8 @@ def _findings(result: CheckResult, console: Console) -> None:
 
 def _verdict(result: CheckResult) -> Text:
     if result.ok:
-        return Text("WITHIN LIMITS: every condition, the burn path and every weight limit hold.", style=_OK_STYLE)
+        warnings = sum(f.severity == "warning" for f in result.findings)
+        return Text(f"WITHIN LIMITS: {within_limits_text(warnings)}", style=_OK_STYLE)
     count = len(result.limits_exceeded)
     return Text(f"OUT OF LIMITS: {count} {'limit' if count == 1 else 'limits'} exceeded.", style=_LIMIT_STYLE)
 

@@ -35,7 +35,7 @@ from .. import __version__
 from ..caution import MECHANIC_CAUTION, PILOT_CAUTION
 from ..display import fmt
 from ..errors import InputError, LoadcheckError, Problem
-from ..words import burn_path_summary, condition_words, stretch_text
+from ..words import burn_path_summary, condition_words, stretch_text, within_limits_text
 from .security import MAX_BODY_BYTES, BodyLimit, SignInThrottle, csrf_ok, csrf_token
 from .users import Account, UserStore
 
@@ -362,6 +362,7 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
     templates = Jinja2Templates(directory=str(_HERE / "templates"))
     env = templates.env
     env.globals.update(fmt=fmt, condition_words=condition_words, burn_path_summary=burn_path_summary, stretch_text=stretch_text,
+                       within_limits_text=within_limits_text,
                        PILOT_CAUTION=PILOT_CAUTION, MECHANIC_CAUTION=MECHANIC_CAUTION, version=__version__)
 
     def page(request: Request, template: str, status: int = 200, **context: Any) -> HTMLResponse:
