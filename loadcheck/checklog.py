@@ -43,8 +43,8 @@ from .caution import PILOT_CAUTION
 from .errors import FileFormatError, InputError, LoadcheckError, Problem
 from .results import Result
 
-__all__ = ["CurrentCheck", "CurrentVerification", "LoggedCheck", "CheckLog", "Verification", "default_path", "export_text",
-           "log_check", "results_match", "verify", "verify_current"]
+__all__ = ["CurrentCheck", "CurrentVerification", "LoggedCheck", "CheckLog", "Verification", "default_path",
+           "export_text", "log_check", "log_path", "results_match", "verify", "verify_current"]
 
 _COLUMNS = ("id, checked_at, registration, reference, pilot, source, category, ok, fingerprint, inputs, result, version, "
             "seal, legs")
@@ -118,6 +118,26 @@ def default_path() -> Path:
     from platformdirs import user_data_path
 
     return user_data_path("loadcheck", appauthor=False) / "records.sqlite3"
+
+
+def log_path(to_log: bool, db: Path | None) -> Path | None:
+    """The check log a command records in: None when it does not record (``to_log`` false).
+
+    A ``db`` given while nothing is recorded is refused: a file the user named is never
+    silently passed over (the command line's --db with --no-log, or without --log on check).
+
+    Raises
+    ------
+    InputError
+        ``db`` without logging; or the old variable, from :func:`default_path`.
+    """
+    if not to_log:
+        if db is not None:
+            raise InputError(Problem("--db", "names the check log to record in, but nothing is recorded without "
+                                     "--log (it was --no-log, or check without --log)",
+                                     value=str(db), expected="--log --db FILE, or no --db"))
+        return None
+    return db or default_path()
 
 
 @dataclass(frozen=True)

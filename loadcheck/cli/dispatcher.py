@@ -93,13 +93,10 @@ def fleet_check(
     """
     from contextlib import nullcontext
 
-    from ..checklog import CheckLog, default_path
+    from ..checklog import CheckLog, log_path
     from ..fleet import check_flights, default_workers, load_fleet, read_loadings
 
-    if not log_checks and db is not None:
-        raise InputError(Problem("--db", "names the check log to record in, but --no-log records nothing",
-                                 value=str(db), expected="--db FILE without --no-log, or no --db"))
-    path = (db or default_path()) if log_checks else None  # before any work: the old variable, refused, stops here
+    path = log_path(log_checks, db)  # before any work: --db without logging, or the old variable, refused here
     fleet = load_fleet(folder)
     rows, file_problems = read_loadings(loadings, fleet)
     err = _console(stderr=True)

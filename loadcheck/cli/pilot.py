@@ -107,8 +107,9 @@ def check(
     Exit status: 0 within limits, 1 a limit is exceeded (on any leg of a trip), 2 the input could not be used.
     """
     from ..check import check_loading
+    from ..checklog import log_path
 
-    record = _log_path(to_log, db)
+    record = log_path(to_log, db)
     inputs = _inputs(aircraft, loading, load, fuel, taxi, trip, trip_time, rate, order, reserve, category,
                      legs=_legs(leg_load, leg_fuel, leg_burn), allow_trip=True)
     if inputs.is_trip and inputs.trip is not None:
@@ -169,19 +170,6 @@ def _check_trip(inputs: CheckInputs, trip: ResolvedTrip, json_out: bool, chart: 
             plots = [text_plot(inputs.aircraft, leg.check) for leg in result.legs]
         render_trip(result, _console(), plots)
     raise typer.Exit(EXIT_OK if result.ok else EXIT_LIMIT)
-
-
-def _log_path(to_log: bool, db: Path | None) -> Path | None:
-    """The check log to record in: None without --log; --db given without --log is refused
-    (a file the user named is never silently passed over)."""
-    from ..checklog import default_path
-
-    if not to_log:
-        if db is not None:
-            raise InputError(Problem("--db", "names the check log to record in, but check records only with --log",
-                                     value=str(db), expected="--log --db FILE, or no --db"))
-        return None
-    return db or default_path()
 
 
 def _record(path: Path, inputs: CheckInputs, result: CheckResult | TripResult) -> None:
