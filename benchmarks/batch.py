@@ -51,7 +51,7 @@ def floor(aircraft, stations, fuel, taxi, trip, order=None) -> float:
     sequence = None if order is None else [ids.index(x) for x in order]
     shape = aircraft.envelopes_for(aircraft.categories[0])[0].shape
     for i in range(0, len(taxi), CHUNK):
-        st, fu, tx, tr = stations[i:i + CHUNK], fuel[i:i + CHUNK], taxi[i:i + CHUNK], trip[i:i + CHUNK]
+        st, fu, tx, tr = stations[i : i + CHUNK], fuel[i : i + CHUNK], taxi[i : i + CHUNK], trip[i : i + CHUNK]
         pay_w = aircraft.empty.weight + st.sum(1)
         pay_m = aircraft.empty.moment + np.einsum("ij,j->i", st, arms)
         total = fu.sum(1)
@@ -68,18 +68,23 @@ def floor(aircraft, stations, fuel, taxi, trip, order=None) -> float:
             w = pay_w + mass.sum(1)
             m = pay_m + np.einsum("ij,j->i", mass, tank_arms)
             x, y = shape.coords(w, m, np.zeros_like(w))
-            shapely.intersects_xy(shape.covering, (x - shape.origin[0]) / shape.span[0], (y - shape.origin[1]) / shape.span[1])
+            shapely.intersects_xy(
+                shape.covering, (x - shape.origin[0]) / shape.span[0], (y - shape.origin[1]) / shape.span[1]
+            )
     return time.perf_counter() - start
 
 
 def loop(aircraft, stations, fuel, taxi, trip, order) -> float:
     start = time.perf_counter()
     for i in range(len(taxi)):
-        check_loading(aircraft, Loading(
-            load={s.id: stations[i, j] for j, s in enumerate(aircraft.station)},
-            fuel={t.id: fuel[i, j] for j, t in enumerate(aircraft.tank)},
-            burn={"taxi": taxi[i], "trip": trip[i], "order": list(order) if order else "together"},
-        ))
+        check_loading(
+            aircraft,
+            Loading(
+                load={s.id: stations[i, j] for j, s in enumerate(aircraft.station)},
+                fuel={t.id: fuel[i, j] for j, t in enumerate(aircraft.tank)},
+                burn={"taxi": taxi[i], "trip": trip[i], "order": list(order) if order else "together"},
+            ),
+        )
     return time.perf_counter() - start
 
 
@@ -122,11 +127,19 @@ def _measure(args: argparse.Namespace) -> None:
         engine_small = time.perf_counter() - start
         single = loop(aircraft, *small, order)
         print(f"{name} (burn order {'together' if order is None else ', '.join(order)}), N = {args.n:,}:")
-        print(f"  batch engine:     {engine:6.2f} s  {args.n / engine:12,.0f} loadings/s  (within limits: {result.ok.mean():.1%}; "
-              f"CPU {cpu:.2f} s)")
-        print(f"  floor:            {base:6.2f} s  {args.n / base:12,.0f} loadings/s  ratio engine/floor {engine / base:.2f}")
-        print(f"  single-check loop at N = {args.loop:,}: {single:.2f} s; batch {engine_small * 1000:.0f} ms; "
-              f"speed-up {single / engine_small:,.0f}x")
+        print(
+            f"  batch engine:     {engine:6.2f} s  {args.n / engine:12,.0f} loadings/s  (within limits: "
+            f"{result.ok.mean():.1%}; "
+            f"CPU {cpu:.2f} s)"
+        )
+        print(
+            f"  floor:            {base:6.2f} s  {args.n / base:12,.0f} loadings/s  ratio engine/floor "
+            f"{engine / base:.2f}"
+        )
+        print(
+            f"  single-check loop at N = {args.loop:,}: {single:.2f} s; batch {engine_small * 1000:.0f} ms; "
+            f"speed-up {single / engine_small:,.0f}x"
+        )
         # the same engine on a day where every loading is within limits (every burn path is tested in full)
         good = tuple(a[result.ok] for a in data)
         reps = -(-args.n // max(1, len(good[0])))
@@ -137,8 +150,10 @@ def _measure(args: argparse.Namespace) -> None:
             evaluate(aircraft, *good, order=order)
             within = min(within, time.perf_counter() - start)
             base_within = min(base_within, floor(aircraft, *good, order))
-        print(f"  only loadings within limits: {within:6.2f} s  {args.n / within:12,.0f} loadings/s  "
-              f"ratio engine/floor {within / base_within:.2f}")
+        print(
+            f"  only loadings within limits: {within:6.2f} s  {args.n / within:12,.0f} loadings/s  "
+            f"ratio engine/floor {within / base_within:.2f}"
+        )
     peak = resource.getrusage(resource.RUSAGE_SELF).ru_maxrss / 1024
     print(f"peak memory of this process: {peak:,.0f} MiB")
 

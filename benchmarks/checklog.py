@@ -26,9 +26,11 @@ from pathlib import Path
 
 ROOT = Path(__file__).resolve().parent.parent
 OLD_GROUP = "records"  # rename.py: keep (the command group's name in the commits --old is meant for)
-LIST = ("import sys; sys.argv = ['loadcheck', '{group}', 'list', '--db', sys.argv[1]]\n"
-        "from {package}.cli import main\n"
-        "try:\n    main()\nexcept SystemExit as stop:\n    assert not stop.code, stop.code\n")
+LIST = (
+    "import sys; sys.argv = ['loadcheck', '{group}', 'list', '--db', sys.argv[1]]\n"
+    "from {package}.cli import main\n"
+    "try:\n    main()\nexcept SystemExit as stop:\n    assert not stop.code, stop.code\n"
+)
 
 
 def _database(path: Path, count: int) -> None:
@@ -41,10 +43,21 @@ def _database(path: Path, count: int) -> None:
     aircraft = inputs.aircraft
     with CheckLog(path) as log:
         for start in range(0, count, 10_000):
-            log.add_many([{"aircraft_data": lambda: aircraft.model_dump(mode="json"), "fingerprint": aircraft.fingerprint,
-                           "inputs": {"load": {"row1": 380}}, "result": result, "registration": aircraft.registration,
-                           "reference": f"R{i:07d}", "pilot": "C. Moreau", "source": "day.csv"}
-                          for i in range(start, min(count, start + 10_000))])
+            log.add_many(
+                [
+                    {
+                        "aircraft_data": lambda: aircraft.model_dump(mode="json"),
+                        "fingerprint": aircraft.fingerprint,
+                        "inputs": {"load": {"row1": 380}},
+                        "result": result,
+                        "registration": aircraft.registration,
+                        "reference": f"R{i:07d}",
+                        "pilot": "C. Moreau",
+                        "source": "day.csv",
+                    }
+                    for i in range(start, min(count, start + 10_000))
+                ]
+            )
 
 
 def _wall(code: str, db: Path, env: dict[str, str]) -> tuple[float, float]:
@@ -69,8 +82,9 @@ def main() -> None:
         env = {**os.environ, "PYTHONPATH": os.pathsep.join([str(ROOT), folder, os.environ.get("PYTHONPATH", "")])}
         cases = {"log list (now)": LIST.format(package="loadcheck", group="log")}
         if args.old:
-            archive = subprocess.run(["git", "-C", str(ROOT), "archive", args.old, "loadcheck"], capture_output=True,
-                                     check=True).stdout
+            archive = subprocess.run(
+                ["git", "-C", str(ROOT), "archive", args.old, "loadcheck"], capture_output=True, check=True
+            ).stdout
             with tarfile.open(fileobj=BytesIO(archive)) as tar:
                 tar.extractall(folder, filter="data")
             (Path(folder) / "loadcheck").rename(Path(folder) / "loadcheck_old")
@@ -80,7 +94,10 @@ def main() -> None:
             for name, code in cases.items():
                 wall, cpu = _wall(code, db, env)
                 best[name] = (min(best[name][0], wall), min(best[name][1], cpu))
-        print(f"{args.n:,} records, best of {args.repeat} (CPU: user + system; on a busy machine it is the steadier figure):")
+        print(
+            f"{args.n:,} records, best of {args.repeat} (CPU: user + system; on a busy machine it is the "
+            "steadier figure):"
+        )
         for name, (wall, cpu) in best.items():
             print(f"  {name:28} {wall:7.2f} s wall {cpu:7.2f} s CPU")
 

@@ -21,7 +21,7 @@ from pathlib import Path
 
 ROOT = Path(__file__).resolve().parent.parent
 
-RUN = r'''
+RUN = r"""
 import sys, time
 sys.path.insert(0, sys.argv[1])
 sys.path.insert(1, sys.argv[2])
@@ -38,7 +38,7 @@ for name, order in (("trainer4", None), ("twin6", ("aux", "mains"))):
         evaluate(a, *data, order=order)
         wall, cpu = min(wall, time.perf_counter() - t), min(cpu, time.process_time() - c)
     print(f"  {sys.argv[5]:10} {name:9} wall {wall:6.2f} s  CPU {cpu:6.2f} s")
-'''
+"""
 
 
 def main() -> None:
@@ -48,16 +48,20 @@ def main() -> None:
     parser.add_argument("--rounds", type=int, default=2)
     args = parser.parse_args()
     with tempfile.TemporaryDirectory() as folder:
-        archive = subprocess.run(["git", "-C", str(ROOT), "archive", args.old, "loadcheck"], capture_output=True,
-                                 check=True).stdout
+        archive = subprocess.run(
+            ["git", "-C", str(ROOT), "archive", args.old, "loadcheck"], capture_output=True, check=True
+        ).stdout
         with tarfile.open(fileobj=BytesIO(archive)) as tar:
             tar.extractall(folder, filter="data")
         env = {k: v for k, v in os.environ.items() if k != "PYTHONPATH"}
         for round_ in range(args.rounds):
             print(f"round {round_ + 1}:")
             for label, path in ((args.old, folder), ("now", str(ROOT))):
-                subprocess.run([sys.executable, "-c", RUN, path, str(ROOT / "benchmarks"), str(ROOT), str(args.n), label],
-                               check=True, env=env)
+                subprocess.run(
+                    [sys.executable, "-c", RUN, path, str(ROOT / "benchmarks"), str(ROOT), str(args.n), label],
+                    check=True,
+                    env=env,
+                )
 
 
 if __name__ == "__main__":

@@ -30,7 +30,7 @@ from pathlib import Path
 
 ROOT = Path(__file__).resolve().parent.parent
 
-FLOOR = r'''
+FLOOR = r"""
 import csv, json, sys
 import numpy as np
 from loadcheck.engine import evaluate
@@ -52,8 +52,9 @@ with open(sys.argv[2], newline="") as handle:
         tw, ta = found.weight["takeoff"].tolist(), found.arm["takeoff"].tolist()
         lw, la = found.weight["landing"].tolist(), found.arm["landing"].tolist()
         for k, r in enumerate(rows):
-            out.write(json.dumps({"line": r[4], "registration": reg, "ok": ok[k], "first": first[k], "takeoff": [tw[k], ta[k]],
-                                  "landing": [lw[k], la[k]]}) + "\n")
+            row = {"line": r[4], "registration": reg, "ok": ok[k], "first": first[k],
+                   "takeoff": [tw[k], ta[k]], "landing": [lw[k], la[k]]}
+            out.write(json.dumps(row) + "\n")
     def number(text, levels=None):
         if not text:
             return 0.0
@@ -69,7 +70,8 @@ with open(sys.argv[2], newline="") as handle:
             out.write(json.dumps({"line": line, "input_error": ["unknown"]}) + "\n")
             continue
         st = [number(cells[col[s.id]]) if s.id in col else 0.0 for s in a.station]
-        fu = [min(number(cells[col[t.id]], {**t.levels, "full": t.usable}), t.usable) if t.id in col else 0.0 for t in a.tank]
+        fu = [min(number(cells[col[t.id]], {**t.levels, "full": t.usable}), t.usable) if t.id in col else 0.0
+              for t in a.tank]
         taxi = number(cells[col["taxi"]]) if "taxi" in col else 0.0
         trip = number(cells[col["trip"]]) if "trip" in col else 0.0
         pending.setdefault(reg, []).append((st, fu, taxi, trip, line))
@@ -77,10 +79,12 @@ with open(sys.argv[2], newline="") as handle:
             flush(reg, pending.pop(reg))
     for reg, rows in pending.items():
         flush(reg, rows)
-'''
+"""
 
-MEASURED = ("import resource, subprocess, sys; run = subprocess.run(sys.argv[1:], stdout=subprocess.DEVNULL, "
-            "stderr=subprocess.DEVNULL); print(resource.getrusage(resource.RUSAGE_CHILDREN).ru_maxrss, run.returncode)")
+MEASURED = (
+    "import resource, subprocess, sys; run = subprocess.run(sys.argv[1:], stdout=subprocess.DEVNULL, "
+    "stderr=subprocess.DEVNULL); print(resource.getrusage(resource.RUSAGE_CHILDREN).ru_maxrss, run.returncode)"
+)
 
 
 def _run(command: list[str]) -> tuple[float, float]:

@@ -25,12 +25,19 @@ from io import BytesIO
 from pathlib import Path
 
 ROOT = Path(__file__).resolve().parent.parent
-SAMPLES = ["trainer4/within.toml", "twin6/within.toml", "twin6/two_stretches.toml", "tandem2/aft_heavy.toml",
-           "heli2/solo_heavy_right.toml"]
+SAMPLES = [
+    "trainer4/within.toml",
+    "twin6/within.toml",
+    "twin6/two_stretches.toml",
+    "tandem2/aft_heavy.toml",
+    "heli2/solo_heavy_right.toml",
+]
 
 
 def _old_package(commit: str, folder: Path) -> object:
-    archive = subprocess.run(["git", "-C", str(ROOT), "archive", commit, "loadcheck"], capture_output=True, check=True).stdout
+    archive = subprocess.run(
+        ["git", "-C", str(ROOT), "archive", commit, "loadcheck"], capture_output=True, check=True
+    ).stdout
     with tarfile.open(fileobj=BytesIO(archive)) as tar:
         tar.extractall(folder, filter="data")
     (folder / "loadcheck").rename(folder / "loadcheck_old")
@@ -74,7 +81,10 @@ def main() -> None:
         old: object = _old_package(args.old, Path(folder))
         old_samples = _samples_for_old(Path(folder))
         clock = time.process_time if args.cpu else time.perf_counter
-        print(f"check_loading ({'CPU' if args.cpu else 'wall'} time), best of {args.repeat} x {args.runs} checks, ms per check (old = {args.old}):")
+        print(
+            f"check_loading ({'CPU' if args.cpu else 'wall'} time), best of {args.repeat} x {args.runs} "
+            f"checks, ms per check (old = {args.old}):"
+        )
         print(f"  {'sample':30} {'samples':>8} {'old':>7} {'new':>7} {'new/old':>8}")
         for name in SAMPLES:
             versions = []
@@ -88,7 +98,9 @@ def main() -> None:
                 for _ in range(args.repeat):
                     for k, (check, aircraft, loading) in enumerate(versions):
                         best[k] = min(best[k], _best(check, aircraft, loading, args.runs, samples, clock))
-                print(f"  {name:30} {samples!s:>8} {best[0] * 1000:7.3f} {best[1] * 1000:7.3f} {best[1] / best[0]:8.2f}")
+                print(
+                    f"  {name:30} {samples!s:>8} {best[0] * 1000:7.3f} {best[1] * 1000:7.3f} {best[1] / best[0]:8.2f}"
+                )
 
 
 if __name__ == "__main__":

@@ -76,10 +76,16 @@ def _measure(args: argparse.Namespace, folder: Path) -> None:
     compileall.compile_dir(str(ROOT / "loadcheck"), quiet=1)
     (folder / "empty").mkdir()
     _EMPTY[0] = str(folder / "empty")
-    codes = {"bare": (BARE, ROOT), "model": (BARE_WITH_MODEL, ROOT), "minimal": (MINIMAL_APP, ROOT), "check": (CHECK, ROOT)}
+    codes = {
+        "bare": (BARE, ROOT),
+        "model": (BARE_WITH_MODEL, ROOT),
+        "minimal": (MINIMAL_APP, ROOT),
+        "check": (CHECK, ROOT),
+    }
     if args.old:
-        archive = subprocess.run(["git", "-C", str(ROOT), "archive", args.old, "loadcheck"], capture_output=True,
-                                 check=True).stdout
+        archive = subprocess.run(
+            ["git", "-C", str(ROOT), "archive", args.old, "loadcheck"], capture_output=True, check=True
+        ).stdout
         with tarfile.open(fileobj=BytesIO(archive)) as tar:
             tar.extractall(folder, filter="data")
         compileall.compile_dir(str(folder / "loadcheck"), quiet=1)
@@ -97,13 +103,26 @@ def _measure(args: argparse.Namespace, folder: Path) -> None:
     print(f"  the same plus one pydantic model:      {wall['model'] * 1000:6.0f} ms {cpu['model'] * 1000:6.0f} ms")
     print(f"  smallest typer+rich+pydantic program:  {wall['minimal'] * 1000:6.0f} ms {cpu['minimal'] * 1000:6.0f} ms")
     print(f"loadcheck check --json (trainer):        {wall['check'] * 1000:6.0f} ms {cpu['check'] * 1000:6.0f} ms")
-    print(f"ratio to the bare import:                {wall['check'] / wall['bare']:6.2f}    {cpu['check'] / cpu['bare']:6.2f}"
-          "   (target <= 1.30 each)")
-    print(f"ratio to the import plus one model:      {wall['check'] / wall['model']:6.2f}    {cpu['check'] / cpu['model']:6.2f}")
-    print(f"ratio to the smallest program:           {wall['check'] / wall['minimal']:6.2f}    {cpu['check'] / cpu['minimal']:6.2f}")
+    print(
+        f"ratio to the bare import:                {wall['check'] / wall['bare']:6.2f}    "
+        f"{cpu['check'] / cpu['bare']:6.2f}"
+        "   (target <= 1.30 each)"
+    )
+    print(
+        f"ratio to the import plus one model:      {wall['check'] / wall['model']:6.2f}    "
+        f"{cpu['check'] / cpu['model']:6.2f}"
+    )
+    print(
+        f"ratio to the smallest program:           {wall['check'] / wall['minimal']:6.2f}    "
+        f"{cpu['check'] / cpu['minimal']:6.2f}"
+    )
     if "old" in wall:
         print(f"check --json of {args.old}:               {wall['old'] * 1000:6.0f} ms {cpu['old'] * 1000:6.0f} ms")
-        print(f"  its ratio to the bare import:          {wall['old'] / wall['bare']:6.2f}    {cpu['old'] / cpu['bare']:6.2f}")
+        print(
+            f"  its ratio to the bare import:          {wall['old'] / wall['bare']:6.2f}    "
+            f"{cpu['old'] / cpu['bare']:6.2f}"
+        )
+
 
 if __name__ == "__main__":
     main()

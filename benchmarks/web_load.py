@@ -40,7 +40,9 @@ def _front(client: int, number: int) -> float:
     return 250.0 + client * 0.5 + number * 0.01  # unique per request, within the trainer's front-seat limit
 
 
-def _client(url: str, name: str, checks: int, client: int, latencies: list[float], ids: list[int], errors: list[str]) -> None:
+def _client(
+    url: str, name: str, checks: int, client: int, latencies: list[float], ids: list[int], errors: list[str]
+) -> None:
     import httpx
 
     with httpx.Client(base_url=url, timeout=60) as http:
@@ -51,8 +53,13 @@ def _client(url: str, name: str, checks: int, client: int, latencies: list[float
             errors.append(f"{name}: sign-in answered {signed.status_code}")
             return
         for number in range(checks):
-            body = {"registration": "DEMO-4T", "load": {"front": _front(client, number), "rear": 160, "hold": "15 kg"},
-                    "fuel": {"mains": "school", "centre": 0}, "burn": {"taxi": 1.2, "trip": 18}, "record": True}
+            body = {
+                "registration": "DEMO-4T",
+                "load": {"front": _front(client, number), "rear": 160, "hold": "15 kg"},
+                "fuel": {"mains": "school", "centre": 0},
+                "burn": {"taxi": 1.2, "trip": 18},
+                "record": True,
+            }
             start = time.perf_counter()
             answer = http.post("/api/check", json=body)
             latencies.append(time.perf_counter() - start)
@@ -83,9 +90,24 @@ def main() -> None:
             store.add(name, PASSWORD, ["pilot"])
         port = _free_port()
         env = {**os.environ, "PYTHONPATH": str(ROOT) + os.pathsep + os.environ.get("PYTHONPATH", "")}
-        server = subprocess.Popen([sys.executable, "-m", "loadcheck", "serve", str(work / "fleet"), "--port", str(port),
-                                   "--db", str(work / "records.sqlite3"), "--users", str(work / "users.json")],
-                                  env=env, stderr=subprocess.PIPE, text=True)
+        server = subprocess.Popen(
+            [
+                sys.executable,
+                "-m",
+                "loadcheck",
+                "serve",
+                str(work / "fleet"),
+                "--port",
+                str(port),
+                "--db",
+                str(work / "records.sqlite3"),
+                "--users",
+                str(work / "users.json"),
+            ],
+            env=env,
+            stderr=subprocess.PIPE,
+            text=True,
+        )
         try:
             deadline = time.monotonic() + 30
             while time.monotonic() < deadline:
@@ -98,8 +120,10 @@ def main() -> None:
             latencies: list[float] = []
             ids: list[int] = []
             errors: list[str] = []
-            threads = [threading.Thread(target=_client, args=(url, name, args.checks, c, latencies, ids, errors))
-                       for c, name in enumerate(names)]
+            threads = [
+                threading.Thread(target=_client, args=(url, name, args.checks, c, latencies, ids, errors))
+                for c, name in enumerate(names)
+            ]
             start = time.perf_counter()
             for thread in threads:
                 thread.start()
@@ -119,8 +143,10 @@ def main() -> None:
     p99 = statistics.quantiles(latencies, n=100, method="inclusive")[98] * 1000
     lines = [
         f"{args.clients} clients x {args.checks} recorded checks = {total} requests in {wall:.1f} s "
-        f"({total / wall:.0f} checks/s); latency p50 {p50:.0f} ms, p99 {p99:.0f} ms, max {max(latencies) * 1000:.0f} ms",
-        f"records in the log: {len(records)}; every check recorded exactly once: {'yes' if exactly_once else 'NO'}; errors: {len(errors)}",
+        f"({total / wall:.0f} checks/s); latency p50 {p50:.0f} ms, p99 {p99:.0f} ms, max "
+        f"{max(latencies) * 1000:.0f} ms",
+        f"records in the log: {len(records)}; every check recorded exactly once: "
+        f"{'yes' if exactly_once else 'NO'}; errors: {len(errors)}",
     ]
     for line in lines + errors[:5]:
         print(line)
@@ -134,25 +160,35 @@ def _write_docs(lines: list[str], args: argparse.Namespace) -> None:
     """Replace this benchmark's own section of docs/performance.md (appended the first time)."""
     path = ROOT / "docs" / "performance.md"
     text = path.read_text(encoding="utf-8")
-    machine = f"{platform.python_implementation()} {platform.python_version()}, {os.cpu_count()} cores, {dt.date.today().isoformat()}"
-    section = "\n".join([
-        SECTION, "",
-        f"The desk (`loadcheck serve`, one uvicorn process) on loopback; {args.clients} pilots signed in at once, each "
-        f"recording {args.checks} checks of the sample trainer through `POST /api/check` with `record: true`, one "
-        "request after the other. Each check's front-seat weight is unique, so the check log is matched request "
-        f"by request afterwards. Measured on {machine}:", "",
-        *[f"- {line}" for line in lines], "",
-        "Each request looks at the fleet folder's files (read again when one changed, so a mechanic's new record "
-        "shows at the next check), checks, and appends one record in its own SQLite transaction; the writes are "
-        "serialised by SQLite's lock. The latencies are measured by the 20 client threads, which share one "
-        "Python process (and its lock) with each other, on the same two cores as the desk.", "",
-    ])
+    machine = (
+        f"{platform.python_implementation()} {platform.python_version()}, {os.cpu_count()} cores, "
+        f"{dt.date.today().isoformat()}"
+    )
+    section = "\n".join(
+        [
+            SECTION,
+            "",
+            f"The desk (`loadcheck serve`, one uvicorn process) on loopback; {args.clients} pilots signed in "
+            "at once, each "
+            f"recording {args.checks} checks of the sample trainer through `POST /api/check` with `record: true`, one "
+            "request after the other. Each check's front-seat weight is unique, so the check log is matched request "
+            f"by request afterwards. Measured on {machine}:",
+            "",
+            *[f"- {line}" for line in lines],
+            "",
+            "Each request looks at the fleet folder's files (read again when one changed, so a mechanic's new record "
+            "shows at the next check), checks, and appends one record in its own SQLite transaction; the writes are "
+            "serialised by SQLite's lock. The latencies are measured by the 20 client threads, which share one "
+            "Python process (and its lock) with each other, on the same two cores as the desk.",
+            "",
+        ]
+    )
     start = text.find(SECTION)
     if start == -1:
         text = text.rstrip("\n") + "\n\n" + section
     else:
         following = text.find("\n## ", start + len(SECTION))
-        text = text[:start] + section + (text[following + 1:] if following != -1 else "")
+        text = text[:start] + section + (text[following + 1 :] if following != -1 else "")
     path.write_text(text, encoding="utf-8")
 
 

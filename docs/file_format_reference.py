@@ -63,8 +63,9 @@ RULES: dict[str, str] = {
     "tank.fuel": "default densities: avgas and mogas 6.0 lb/US gal, jet 6.7 lb/US gal (loadcheck/fuel.py)",
     "tank.density": "> 0; one of `fuel` and `density` is required; `density` wins",
     "tank.levels": "each 0 to `usable`; `full` is built in",
-    "tank.arm_table": "`[[quantity, arm], ...]`, at least 2 points, quantities strictly increasing within 0 to `usable`; "
-                      "the end arm is held beyond the ends",
+    "tank.arm_table": "`[[quantity, arm], ...]`, at least 2 points, quantities strictly increasing "
+    "within 0 to `usable`; "
+    "the end arm is held beyond the ends",
     "envelope.category": "the first category in the file is the default; envelopes sharing one must all hold",
     "envelope.axes": "two different ones; one must be `weight`, unless the pair is `lateral_arm` and `arm`",
     "envelope.points": "at least 3 distinct corners enclosing an area, not crossing itself; the ring closes itself",
@@ -95,7 +96,8 @@ def _words(annotation: Any) -> str:
     if origin in (typing.Union, types.UnionType):
         numbers = {float, int}
         plain = [a for a in args if typing.get_origin(a) is not typing.Annotated] + [
-            typing.get_args(a)[0] for a in args if typing.get_origin(a) is typing.Annotated]
+            typing.get_args(a)[0] for a in args if typing.get_origin(a) is typing.Annotated
+        ]
         if set(plain) <= numbers | {str} and str in plain and numbers & set(plain):
             return "number or text"
         return " or ".join(dict.fromkeys(_words(a) for a in args))
@@ -114,8 +116,15 @@ def _words(annotation: Any) -> str:
         return f"table of {_words(args[1])}"
     if isinstance(annotation, type) and issubclass(annotation, BaseModel):
         return "table"
-    return {float: "number", int: "whole number", str: "text", bool: "true or false", dt.date: "date",
-            dt.datetime: "date and time", Any: "anything"}.get(annotation, getattr(annotation, "__name__", str(annotation)))
+    return {
+        float: "number",
+        int: "whole number",
+        str: "text",
+        bool: "true or false",
+        dt.date: "date",
+        dt.datetime: "date and time",
+        Any: "anything",
+    }.get(annotation, getattr(annotation, "__name__", str(annotation)))
 
 
 def _model(annotation: Any) -> tuple[type[BaseModel] | None, bool]:
@@ -139,8 +148,15 @@ def rows(model: type[BaseModel], path: str = "", table: str = "", seen: tuple[ty
             base = f"{table.strip('[]')}.{key}" if table else key
             section = f"[[{base}]]" if many else f"[{base}]"
             # every table has a row of its own, so that its name is documented too
-            out.append((dotted, f"`{section}`", "list of tables" if many else "table",
-                        "required" if info.is_required() else "none", _meaning(info.description, dotted)))
+            out.append(
+                (
+                    dotted,
+                    f"`{section}`",
+                    "list of tables" if many else "table",
+                    "required" if info.is_required() else "none",
+                    _meaning(info.description, dotted),
+                )
+            )
             out += rows(inner, dotted, section, seen + (inner,))
             continue
         default = info.default if info.default_factory is None else info.default_factory()  # type: ignore[call-arg]
@@ -175,7 +191,9 @@ def reference() -> str:
     stale = sorted(set(RULES) - known)
     if stale:
         raise SystemExit(f"rules for fields that no longer exist: {', '.join(stale)}")
-    return "\n\n".join([START, _table("Aircraft file: every field", Aircraft), _table("Loading file: every field", Loading), END])
+    return "\n\n".join(
+        [START, _table("Aircraft file: every field", Aircraft), _table("Loading file: every field", Loading), END]
+    )
 
 
 def updated(page: str) -> str:

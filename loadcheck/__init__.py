@@ -24,8 +24,9 @@ if TYPE_CHECKING:
 # that the command line can set up the process (one BLAS thread, loadcheck.cli) before
 # numpy loads, and a plain check does not pay for building the models it does not use.
 _LAZY = {
-    **dict.fromkeys(("Aircraft", "EmptyWeight", "Envelope", "Limits", "Mac", "Station", "StationGroup", "Tank", "Units"),
-                    "aircraft"),
+    **dict.fromkeys(
+        ("Aircraft", "EmptyWeight", "Envelope", "Limits", "Mac", "Station", "StationGroup", "Tank", "Units"), "aircraft"
+    ),
     **dict.fromkeys(("MECHANIC_CAUTION", "PILOT_CAUTION"), "caution"),
     "check_loading": "check",
     **dict.fromkeys(("FileFormatError", "InputError", "LoadcheckError", "UnitError", "UnknownNameError"), "errors"),

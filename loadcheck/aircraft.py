@@ -52,8 +52,20 @@ StationKind = Literal["seat", "baggage", "cargo", "ballast", "other"]
 
 _ID_PATTERN = r"^[A-Za-z0-9_][A-Za-z0-9_.-]*$"
 
-RESERVED_IDS = ("registration", "reference", "pilot", "date", "category", "label",
-                "taxi", "trip", "trip_time", "rate", "order", "reserve")
+RESERVED_IDS = (
+    "registration",
+    "reference",
+    "pilot",
+    "date",
+    "category",
+    "label",
+    "taxi",
+    "trip",
+    "trip_time",
+    "rate",
+    "order",
+    "reserve",
+)
 """Names a station or tank may not take (in any letter case): they are the fleet CSV's own
 columns (docs/fleet.md), so a station called ``pilot`` would be read as the pilot's name
 and its weight lost."""
@@ -139,8 +151,10 @@ class EmptyWeight(_Model):
     @model_validator(mode="after")
     def _range_in_order(self) -> EmptyWeight:
         if self.cg_range is not None and self.cg_range[0] > self.cg_range[1]:
-            raise ValueError(f"cg_range is reversed ({self.cg_range[0]:g} is aft of {self.cg_range[1]:g}); "
-                             "give the forward limit first")
+            raise ValueError(
+                f"cg_range is reversed ({self.cg_range[0]:g} is aft of {self.cg_range[1]:g}); "
+                "give the forward limit first"
+            )
         return self
 
 
@@ -171,8 +185,10 @@ class Limits(_Model):
         if self.max_ramp_weight is not None and self.max_ramp_weight < self.max_takeoff_weight:
             raise ValueError("max_ramp_weight is below max_takeoff_weight")
         if self.max_landing_weight is not None and self.max_landing_weight > self.max_takeoff_weight:
-            raise ValueError(f"max_landing_weight ({self.max_landing_weight:g}) is above max_takeoff_weight "
-                             f"({self.max_takeoff_weight:g})")
+            raise ValueError(
+                f"max_landing_weight ({self.max_landing_weight:g}) is above max_takeoff_weight "
+                f"({self.max_takeoff_weight:g})"
+            )
         if self.min_flight_weight is not None and self.min_flight_weight >= self.max_takeoff_weight:
             raise ValueError("min_flight_weight is not below max_takeoff_weight")
         return self
@@ -308,9 +324,13 @@ class Envelope(_Model):
 
     category: str = Field(min_length=1)
     label: str | None = None
-    axes: tuple[Axis, Axis] = Field(description="x and y axes, from arm, moment, mac, lateral_arm, lateral_moment, weight")
+    axes: tuple[Axis, Axis] = Field(
+        description="x and y axes, from arm, moment, mac, lateral_arm, lateral_moment, weight"
+    )
     points: list[tuple[float, float]] = Field(min_length=3, description="corners in the axes' units")
-    moment_scale: float = Field(1.0, gt=0, description="a moment or lateral_moment axis is read as moment / moment_scale")
+    moment_scale: float = Field(
+        1.0, gt=0, description="a moment or lateral_moment axis is read as moment / moment_scale"
+    )
     _shape: EnvelopeShape | None = PrivateAttr(None)
 
     @model_validator(mode="after")
@@ -409,9 +429,11 @@ class Aircraft(_Model):
                 if name not in stations:
                     known = ", ".join(sorted(stations)) or "none"
                     problems.append(f"station_group[{index}].stations: unknown station {name!r} (known: {known})")
-        has_lateral = self.empty.lateral_arm is not None or any(
-            s.lateral_arm is not None for s in self.station
-        ) or any(t.lateral_arm is not None for t in self.tank)
+        has_lateral = (
+            self.empty.lateral_arm is not None
+            or any(s.lateral_arm is not None for s in self.station)
+            or any(t.lateral_arm is not None for t in self.tank)
+        )
         for index, envelope in enumerate(self.envelope):
             if "mac" in envelope.axes and self.mac is None:
                 problems.append(f"envelope[{index}].axes: a 'mac' axis needs the aircraft's [mac] table")
@@ -430,8 +452,10 @@ class Aircraft(_Model):
     @model_validator(mode="after")
     def _empty_below_max_takeoff(self) -> Aircraft:
         if self.empty.weight >= self.limits.max_takeoff_weight:
-            raise ValueError(f"empty.weight: the empty weight ({self.empty.weight:g}) is not below "
-                             f"limits.max_takeoff_weight ({self.limits.max_takeoff_weight:g}): no useful load is left")
+            raise ValueError(
+                f"empty.weight: the empty weight ({self.empty.weight:g}) is not below "
+                f"limits.max_takeoff_weight ({self.limits.max_takeoff_weight:g}): no useful load is left"
+            )
         return self
 
     # -- look-ups -------------------------------------------------------------------
@@ -461,8 +485,9 @@ class Aircraft(_Model):
         """
         chosen = name or self.categories[0]
         if chosen not in self.categories:
-            raise UnknownNameError(Problem("category", f"unknown category {chosen!r}",
-                                           expected="one of " + ", ".join(self.categories)))
+            raise UnknownNameError(
+                Problem("category", f"unknown category {chosen!r}", expected="one of " + ", ".join(self.categories))
+            )
         return chosen
 
     def envelopes_for(self, category: str) -> list[Envelope]:

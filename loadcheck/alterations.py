@@ -145,21 +145,41 @@ def _negligible(aircraft: Aircraft, weight_change: float, arm_change: float) -> 
     weight_ok = abs(convert(weight_change, units.mass, "lb")) <= limit_lb + 1e-12
     weight_words = f"{limit_lb:g} lb or less (empty weight {empty_lb:,.0f} lb)"
     if aircraft.rotorcraft:
-        arms = [a for e in aircraft.envelope if not e.is_lateral and "arm" in e.axes
-                for a in e.shape.corners[:, e.axes.index("arm")]]
+        arms = [
+            a
+            for e in aircraft.envelope
+            if not e.is_lateral and "arm" in e.axes
+            for a in e.shape.corners[:, e.axes.index("arm")]
+        ]
         if not arms:
-            return Negligible(weight=weight_ok, cg=None, weight_threshold=weight_words,
-                              cg_threshold="0.2 % of the CG range: no arm-weight envelope gives the range")
+            return Negligible(
+                weight=weight_ok,
+                cg=None,
+                weight_threshold=weight_words,
+                cg_threshold="0.2 % of the CG range: no arm-weight envelope gives the range",
+            )
         cg_range = float(max(arms) - min(arms))
         threshold = 0.002 * cg_range
-        return Negligible(weight=bool(weight_ok), cg=bool(abs(arm_change) < threshold), weight_threshold=weight_words,
-                          cg_threshold=f"less than 0.2 % of the {cg_range:g} {units.arm} CG range ({threshold:.4f} {units.arm})")
+        return Negligible(
+            weight=bool(weight_ok),
+            cg=bool(abs(arm_change) < threshold),
+            weight_threshold=weight_words,
+            cg_threshold=f"less than 0.2 % of the {cg_range:g} {units.arm} CG range ({threshold:.4f} {units.arm})",
+        )
     if aircraft.mac is None:
-        return Negligible(weight=weight_ok, cg=None, weight_threshold=weight_words,
-                          cg_threshold="0.05 % MAC: the aircraft file gives no MAC, so this cannot be judged")
+        return Negligible(
+            weight=weight_ok,
+            cg=None,
+            weight_threshold=weight_words,
+            cg_threshold="0.05 % MAC: the aircraft file gives no MAC, so this cannot be judged",
+        )
     threshold = 0.0005 * aircraft.mac.length
-    return Negligible(weight=bool(weight_ok), cg=bool(abs(arm_change) < threshold), weight_threshold=weight_words,
-                      cg_threshold=f"less than 0.05 % MAC ({threshold:.4f} {units.arm})")
+    return Negligible(
+        weight=bool(weight_ok),
+        cg=bool(abs(arm_change) < threshold),
+        weight_threshold=weight_words,
+        cg_threshold=f"less than 0.05 % MAC ({threshold:.4f} {units.arm})",
+    )
 
 
 def alter(aircraft: Aircraft, changes: Changes) -> AlterResult:
@@ -188,15 +208,31 @@ def alter(aircraft: Aircraft, changes: Changes) -> AlterResult:
         known = "one of " + ", ".join(equipment) if equipment else "the equipment list is empty"
         if change.action == "install":
             if change.item in equipment:
-                problems.append(Problem(where, f"item {change.item!r} is already installed; remove or relocate it instead"))
+                problems.append(
+                    Problem(where, f"item {change.item!r} is already installed; remove or relocate it instead")
+                )
                 continue
             assert change.weight is not None and change.arm is not None
-            item: dict[str, Any] = {"id": change.item, "label": change.label, "weight": change.weight, "arm": change.arm,
-                    "lateral_arm": change.lateral_arm}
+            item: dict[str, Any] = {
+                "id": change.item,
+                "label": change.label,
+                "weight": change.weight,
+                "arm": change.arm,
+                "lateral_arm": change.lateral_arm,
+            }
             equipment[change.item] = item
             dw, dm, dl = change.weight, change.weight * change.arm, change.weight * (change.lateral_arm or 0.0)
-            lines.append(ChangeLine(action="install", item=change.item, label=change.label or change.item,
-                                    weight=change.weight, arm=change.arm, weight_change=dw, moment_change=dm))
+            lines.append(
+                ChangeLine(
+                    action="install",
+                    item=change.item,
+                    label=change.label or change.item,
+                    weight=change.weight,
+                    arm=change.arm,
+                    weight_change=dw,
+                    moment_change=dm,
+                )
+            )
         else:
             if change.item not in equipment:
                 problems.append(Problem(where, f"unknown item {change.item!r} to {change.action}", expected=known))
@@ -207,15 +243,38 @@ def alter(aircraft: Aircraft, changes: Changes) -> AlterResult:
             if change.action == "remove":
                 del equipment[change.item]
                 dw, dm, dl = -w, -w * a, -w * la
-                lines.append(ChangeLine(action="remove", item=change.item, label=str(label), weight=w, arm=a,
-                                        weight_change=dw, moment_change=dm))
+                lines.append(
+                    ChangeLine(
+                        action="remove",
+                        item=change.item,
+                        label=str(label),
+                        weight=w,
+                        arm=a,
+                        weight_change=dw,
+                        moment_change=dm,
+                    )
+                )
             else:
                 new_arm = change.new_arm if change.new_arm is not None else a
                 new_lat = change.new_lateral_arm if change.new_lateral_arm is not None else la
-                equipment[change.item] = {**item, "arm": new_arm, "lateral_arm": new_lat if new_lat else item.get("lateral_arm")}
+                equipment[change.item] = {
+                    **item,
+                    "arm": new_arm,
+                    "lateral_arm": new_lat if new_lat else item.get("lateral_arm"),
+                }
                 dw, dm, dl = 0.0, w * (new_arm - a), w * (new_lat - la)
-                lines.append(ChangeLine(action="relocate", item=change.item, label=str(label), weight=w, arm=a,
-                                        weight_change=0.0, moment_change=dm, new_arm=new_arm))
+                lines.append(
+                    ChangeLine(
+                        action="relocate",
+                        item=change.item,
+                        label=str(label),
+                        weight=w,
+                        arm=a,
+                        weight_change=0.0,
+                        moment_change=dm,
+                        new_arm=new_arm,
+                    )
+                )
         weight += dw
         moment += dm
         lateral += dl
@@ -224,16 +283,30 @@ def alter(aircraft: Aircraft, changes: Changes) -> AlterResult:
     if weight <= 0:
         raise InputError(Problem("change", "the changes leave no empty weight"))
     previous = EmptyWeightRecord(weight=empty.weight, arm=empty.arm, moment=empty.moment, lateral_arm=empty.lateral_arm)
-    new = EmptyWeightRecord(weight=weight, arm=moment / weight, moment=moment,
-                 lateral_arm=lateral / weight if empty.lateral_arm is not None else None)
+    new = EmptyWeightRecord(
+        weight=weight,
+        arm=moment / weight,
+        moment=moment,
+        lateral_arm=lateral / weight if empty.lateral_arm is not None else None,
+    )
     useful = aircraft.limits.max_takeoff_weight - weight
     warnings, refusals = record_checks(aircraft, new)
     return AlterResult(
-        aircraft=aircraft.name, registration=aircraft.registration, lines=lines, previous=previous, new=new,
-        change_weight=weight - empty.weight, change_arm=new.arm - empty.arm,
-        change_useful_load=useful - aircraft.useful_load, useful_load=useful,
+        aircraft=aircraft.name,
+        registration=aircraft.registration,
+        lines=lines,
+        previous=previous,
+        new=new,
+        change_weight=weight - empty.weight,
+        change_arm=new.arm - empty.arm,
+        change_useful_load=useful - aircraft.useful_load,
+        useful_load=useful,
         negligible=_negligible(aircraft, weight - empty.weight, new.arm - empty.arm),
         equipment=[{k: v for k, v in item.items() if v is not None} for item in equipment.values()],
-        warnings=warnings, refusals=refusals, date=None if changes.date is None else changes.date.isoformat(),
-        description=changes.description, by=changes.by, cg_range=empty.cg_range,
+        warnings=warnings,
+        refusals=refusals,
+        date=None if changes.date is None else changes.date.isoformat(),
+        description=changes.description,
+        by=changes.by,
+        cg_range=empty.cg_range,
     )

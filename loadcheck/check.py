@@ -96,7 +96,9 @@ def check_loading(
     FAA-H-8083-1B chapter 2 (sum of moments, CG = total moment / total weight);
     AC 43.13-1B chapter 10 section 1 (loading conditions).
     """
-    resolved = loading if isinstance(loading, ResolvedLoading) else resolve_loading(loading, aircraft, category=category)
+    resolved = (
+        loading if isinstance(loading, ResolvedLoading) else resolve_loading(loading, aircraft, category=category)
+    )
     return check_many(aircraft, [resolved], samples=samples)[0]
 
 
@@ -127,15 +129,32 @@ def check_many(aircraft: Aircraft, loadings: Sequence[ResolvedLoading], *, sampl
         fuel = np.array([[ld.fuel[t] for t in tables.tank_ids] for ld in chosen], dtype=float)
         stations, fuel = stations.reshape(n, len(tables.station_ids)), fuel.reshape(n, len(tables.tank_ids))
         rho = np.array(density, dtype=float)
-        found = evaluate(aircraft, stations, fuel, np.array([ld.taxi for ld in chosen]), np.array([ld.trip for ld in chosen]),
-                         order=order, category=category, density=rho, explain=True)
+        found = evaluate(
+            aircraft,
+            stations,
+            fuel,
+            np.array([ld.taxi for ld in chosen]),
+            np.array([ld.trip for ld in chosen]),
+            order=order,
+            category=category,
+            density=rho,
+            explain=True,
+        )
         for k, result in enumerate(_explain(aircraft, chosen, found, category, samples, stations, fuel, rho)):
             results[members[k]] = result
     return results  # type: ignore[return-value]
 
 
-def _explain(aircraft: Aircraft, loadings: Sequence[ResolvedLoading], found: Evaluation, category: str,
-             samples: bool, stations: np.ndarray, fuel: np.ndarray, density: np.ndarray) -> Iterator[CheckResult]:
+def _explain(
+    aircraft: Aircraft,
+    loadings: Sequence[ResolvedLoading],
+    found: Evaluation,
+    category: str,
+    samples: bool,
+    stations: np.ndarray,
+    fuel: np.ndarray,
+    density: np.ndarray,
+) -> Iterator[CheckResult]:
     """The result of each loading from its row of the engine's arrays: the explanation of the verdict.
 
     ``stations`` (N, S), ``fuel`` (N, T) and ``density`` (T,) are the arrays the engine was given."""
@@ -153,18 +172,36 @@ def _explain(aircraft: Aircraft, loadings: Sequence[ResolvedLoading], found: Eva
     margins = _margins(shapes, found, tables.weights, tables.allowance)
     for i, resolved in enumerate(loadings):
         findings: list[Finding] = []
-        conditions = [_condition(aircraft, rows, i, envelopes, shapes, name, findings, margins[name][i],  # type: ignore[arg-type]
-                                 tables.weights[name]) for name in CONDITIONS]
-        burn_path = _burn_path(aircraft, resolved, found, i, conditions, findings, samples, (stations[i], fuel[i], density))
+        conditions = [
+            _condition(
+                aircraft,
+                rows,
+                i,
+                envelopes,
+                shapes,
+                name,  # type: ignore[arg-type]
+                findings,
+                margins[name][i],
+                tables.weights[name],
+            )
+            for name in CONDITIONS
+        ]
+        burn_path = _burn_path(
+            aircraft, resolved, found, i, conditions, findings, samples, (stations[i], fuel[i], density)
+        )
         if not rows.loads_ok[i]:
             findings.extend(_load_findings(aircraft, resolved, found, i))
         landing_fuel = conditions[2].fuel
         if resolved.reserve is not None and landing_fuel < resolved.reserve * (1 - WEIGHT_TOLERANCE):
             findings.append(
                 Finding(
-                    code="reserve", severity="warning", condition="landing",
+                    code="reserve",
+                    severity="warning",
+                    condition="landing",
                     message=reserve_message(landing_fuel, resolved.reserve, units.fuel_volume),
-                    excess=resolved.reserve - landing_fuel, unit=units.fuel_volume, limit=resolved.reserve,
+                    excess=resolved.reserve - landing_fuel,
+                    unit=units.fuel_volume,
+                    limit=resolved.reserve,
                 )
             )
         findings.extend(Finding(code="assumption", severity="warning", message=note) for note in resolved.notes)
@@ -189,21 +226,31 @@ class _Rows:
     def __init__(self, found: Evaluation):
         # every row stacked and converted at once (two numpy calls for the numbers, two for the flags)
         numbers: list[list[float]] = np.array(
-            [found.weight[k] for k in CONDITIONS] + [found.moment[k] for k in CONDITIONS]
-            + [found.lateral_moment[k] for k in CONDITIONS] + [found.fuel_weight[k] for k in CONDITIONS]
+            [found.weight[k] for k in CONDITIONS]
+            + [found.moment[k] for k in CONDITIONS]
+            + [found.lateral_moment[k] for k in CONDITIONS]
+            + [found.fuel_weight[k] for k in CONDITIONS]
         ).tolist()
         self.weight = dict(zip(CONDITIONS, numbers[0:4], strict=True))
         self.moment = dict(zip(CONDITIONS, numbers[4:8], strict=True))
         self.lateral = dict(zip(CONDITIONS, numbers[8:12], strict=True))
         self.fuel_weight = dict(zip(CONDITIONS, numbers[12:16], strict=True))
-        self.fuel = dict(zip(CONDITIONS, np.array([found.fuel[k] for k in CONDITIONS]).sum(axis=2).tolist(), strict=True))
+        self.fuel = dict(
+            zip(CONDITIONS, np.array([found.fuel[k] for k in CONDITIONS]).sum(axis=2).tolist(), strict=True)
+        )
         counts = [(len(found.weight_ok[k]), len(found.envelope_inside[k])) for k in CONDITIONS]
-        flags: list[list[bool]] = np.array(
-            [found.min_weight_ok[k] for k in CONDITIONS] + [found.condition_ok[k] for k in CONDITIONS]
-            + [v for k in CONDITIONS for v in found.weight_ok[k]] + [v for k in CONDITIONS for v in found.envelope_inside[k]]
-            + [found.limit_ok["stations"], found.ok],
-            dtype=bool,
-        ).reshape(-1, len(found.ok)).tolist()
+        flags: list[list[bool]] = (
+            np.array(
+                [found.min_weight_ok[k] for k in CONDITIONS]
+                + [found.condition_ok[k] for k in CONDITIONS]
+                + [v for k in CONDITIONS for v in found.weight_ok[k]]
+                + [v for k in CONDITIONS for v in found.envelope_inside[k]]
+                + [found.limit_ok["stations"], found.ok],
+                dtype=bool,
+            )
+            .reshape(-1, len(found.ok))
+            .tolist()
+        )
         self.loads_ok, self.ok = flags[-2], flags[-1]  # every station and group limit holds; the verdict
         self.min_weight_ok = dict(zip(CONDITIONS, flags[0:4], strict=True))
         self.condition_ok = dict(zip(CONDITIONS, flags[4:8], strict=True))
@@ -237,9 +284,14 @@ def _condition(
         if not good[i]:
             findings.append(
                 Finding(
-                    code=code, severity="limit", condition=name,
+                    code=code,
+                    severity="limit",
+                    condition=name,
                     message=weight_limit_message(name, weight, code, limit, units.mass),
-                    excess=weight - limit, unit=units.mass, limit=limit, side="above",
+                    excess=weight - limit,
+                    unit=units.mass,
+                    limit=limit,
+                    side="above",
                 )
             )
     if not rows.min_weight_ok[name][i]:
@@ -247,9 +299,14 @@ def _condition(
         assert minimum is not None
         findings.append(
             Finding(
-                code="min_flight_weight", severity="limit", condition=name,
+                code="min_flight_weight",
+                severity="limit",
+                condition=name,
                 message=weight_limit_message(name, weight, "min_flight_weight", minimum, units.mass),
-                excess=minimum - weight, unit=units.mass, limit=minimum, side="below",
+                excess=minimum - weight,
+                unit=units.mass,
+                limit=minimum,
+                side="below",
             )
         )
     severity: Severity = "warning" if name == "zero_fuel" and aircraft.limits.zero_fuel_cg == "warning" else "limit"
@@ -258,8 +315,11 @@ def _condition(
             tested = envelope_state(shape, name, weight, moment, lateral, allowance=engine_tables(aircraft).allowance)
             label = f"the {envelope.label or envelope.category + '-category'} envelope"
             label = label.replace("envelope envelope", "envelope")
-            findings.append(_outside_finding(aircraft, shape, label, name, *tested, severity,
-                                             allowance=engine_tables(aircraft).allowance))
+            findings.append(
+                _outside_finding(
+                    aircraft, shape, label, name, *tested, severity, allowance=engine_tables(aircraft).allowance
+                )
+            )
 
     has_lateral = engine_tables(aircraft).has_lateral
     weight_limit = min((value for _, value in table), default=None)
@@ -297,8 +357,12 @@ _MARGIN_KEYS = ("forward", "aft", "left", "right", "weight")
 _ONE_BY_ONE = 2  # up to this many loadings, slices are cut one at a time (fewer numpy calls)
 
 
-def _margins_one(shapes: Sequence[EnvelopeShape], states: Sequence[tuple[float, float, float]],
-                 weight_limits: Sequence[float | None], allowance: float) -> list[Margins]:
+def _margins_one(
+    shapes: Sequence[EnvelopeShape],
+    states: Sequence[tuple[float, float, float]],
+    weight_limits: Sequence[float | None],
+    allowance: float,
+) -> list[Margins]:
     """The margins of one loading at each condition (``states``: weight, moment, lateral
     moment in CONDITIONS order), from :meth:`EnvelopeShape.slices`: every slice of an
     envelope cut with one containment call."""
@@ -349,12 +413,16 @@ def _room_to(shape: EnvelopeShape, k: int, high: Any, allowance: float) -> Any:
     top = shape.max_weight
     if k != 0 or top is None:
         return high
-    return np.where(high >= top * (1 - 1e-12), high + allowance, high) if isinstance(high, np.ndarray) else (
-        high + allowance if high >= top * (1 - 1e-12) else high)
+    return (
+        np.where(high >= top * (1 - 1e-12), high + allowance, high)
+        if isinstance(high, np.ndarray)
+        else (high + allowance if high >= top * (1 - 1e-12) else high)
+    )
 
 
-def _margins(shapes: Sequence[EnvelopeShape], found: Evaluation,
-             weights: dict[str, list[tuple[str, float]]], allowance: float) -> dict[str, list[Margins]]:
+def _margins(
+    shapes: Sequence[EnvelopeShape], found: Evaluation, weights: dict[str, list[tuple[str, float]]], allowance: float
+) -> dict[str, list[Margins]]:
     """The margins of every loading at every condition (see :class:`~loadcheck.results.Margins`).
 
     A few loadings are cut one slice at a time (:func:`_margins_one`, plain floats); many
@@ -364,10 +432,13 @@ def _margins(shapes: Sequence[EnvelopeShape], found: Evaluation,
     n = len(found.ok)
     if n <= _ONE_BY_ONE:
         limits = [min((value for _, value in weights[name]), default=None) for name in CONDITIONS]
-        states = [(found.weight[name].tolist(), found.moment[name].tolist(), found.lateral_moment[name].tolist())
-                  for name in CONDITIONS]
-        per_row = [_margins_one(shapes, [(w[i], m[i], lat[i]) for w, m, lat in states], limits, allowance)
-                   for i in range(n)]
+        states = [
+            (found.weight[name].tolist(), found.moment[name].tolist(), found.lateral_moment[name].tolist())
+            for name in CONDITIONS
+        ]
+        per_row = [
+            _margins_one(shapes, [(w[i], m[i], lat[i]) for w, m, lat in states], limits, allowance) for i in range(n)
+        ]
         return {name: [row[k] for row in per_row] for k, name in enumerate(CONDITIONS)}
     values = {name: {key: np.full(n, np.nan) for key in _MARGIN_KEYS} for name in CONDITIONS}
 
@@ -380,8 +451,12 @@ def _margins(shapes: Sequence[EnvelopeShape], found: Evaluation,
         if weight_limit is not None:
             keep(name, "weight", weight_limit - found.weight[name])
     for shape in shapes:
-        tested = [envelope_state(shape, name, found.weight[name], found.moment[name], found.lateral_moment[name],
-                                 allowance=allowance) for name in CONDITIONS]
+        tested = [
+            envelope_state(
+                shape, name, found.weight[name], found.moment[name], found.lateral_moment[name], allowance=allowance
+            )
+            for name in CONDITIONS
+        ]
         w = np.concatenate([t[0] for t in tested])
         m = np.concatenate([t[1] for t in tested])
         lat = np.concatenate([t[2] for t in tested])
@@ -401,19 +476,22 @@ def _margins(shapes: Sequence[EnvelopeShape], found: Evaluation,
                 keep(name, first, np.where(found_here, held[part] - lo[part], np.nan))
                 keep(name, second, np.where(found_here, hi[part] - held[part], np.nan))
             if upright:
-                top = hi[4 * n + k * n: 4 * n + (k + 1) * n]
+                top = hi[4 * n + k * n : 4 * n + (k + 1) * n]
                 if (~np.isnan(top)).any():
                     keep(name, "weight", _room_to(shape, k, top, allowance) - found.weight[name])
     out: dict[str, list[Margins]] = {}
     for name in CONDITIONS:
         columns = [values[name][key].tolist() for key in _MARGIN_KEYS]
-        out[name] = [Margins(**{key: v for key, v in zip(_MARGIN_KEYS, row, strict=True) if v == v})
-                     for row in zip(*columns, strict=True)]
+        out[name] = [
+            Margins(**{key: v for key, v in zip(_MARGIN_KEYS, row, strict=True) if v == v})
+            for row in zip(*columns, strict=True)
+        ]
     return out
 
 
-def _slice_lines(shape: EnvelopeShape, vary: str, weight: np.ndarray, arm: np.ndarray,
-                 lateral_arm: np.ndarray) -> tuple[Any, ...]:
+def _slice_lines(
+    shape: EnvelopeShape, vary: str, weight: np.ndarray, arm: np.ndarray, lateral_arm: np.ndarray
+) -> tuple[Any, ...]:
     """The scaled lines of :meth:`EnvelopeShape.slice` for arrays: start, direction, and the held value."""
     zero, one = np.zeros_like(weight), np.ones_like(weight)
     at: Any = shape._at  # plain arithmetic: works on arrays as on floats
@@ -471,7 +549,7 @@ def _slices(shape: EnvelopeShape, lines: Sequence[tuple[str, Any, Any, Any]]) ->
     inside = np.zeros(stretch.shape, dtype=bool)
     inside[rs, cs] = hit[: len(rs)]
     touch = np.zeros(cut.shape, dtype=bool)
-    touch[rp, cp] = hit[len(rs):]
+    touch[rp, cp] = hit[len(rs) :]
     before = np.zeros(cut.shape, dtype=bool)
     before[:, 1:] = inside
     after = np.zeros(cut.shape, dtype=bool)
@@ -493,7 +571,9 @@ def _slices(shape: EnvelopeShape, lines: Sequence[tuple[str, Any, Any, Any]]) ->
     run_start = np.maximum.accumulate(np.where(starts, index, -1), axis=1)
     run_end = np.minimum.accumulate(np.where(ends, index, inside.shape[1])[:, ::-1], axis=1)[:, ::-1]
     lo = np.where(use_lone, points[rows, k_lone], points[rows, np.clip(run_start[rows, k_stretch], 0, None)])
-    hi = np.where(use_lone, points[rows, k_lone], points[rows, np.clip(run_end[rows, k_stretch] + 1, None, points.shape[1] - 1)])
+    hi = np.where(
+        use_lone, points[rows, k_lone], points[rows, np.clip(run_end[rows, k_stretch] + 1, None, points.shape[1] - 1)]
+    )
     none = ~np.isfinite(nearest) | flat
     return np.where(none, np.nan, lo), np.where(none, np.nan, hi)
 
@@ -552,9 +632,15 @@ def _outside_finding(
         ramp_allowance = allowance if name == "ramp" and side == "above" else 0.0
         excess, limit, unit = abs(weight - (edge + ramp_allowance)), edge + ramp_allowance, units.mass
         there = across(edge)
-        text = envelope_weight_message(name, label, weight, edge, units.mass,
-                                       None if there is None else (there[0], value, there[2], units.arm),
-                                       ramp_allowance=ramp_allowance)
+        text = envelope_weight_message(
+            name,
+            label,
+            weight,
+            edge,
+            units.mass,
+            None if there is None else (there[0], value, there[2], units.arm),
+            ramp_allowance=ramp_allowance,
+        )
     else:
         found = across(weight)
         if found is not None and "lateral_moment" in shape.axes and found[0] != "outside":
@@ -568,14 +654,23 @@ def _outside_finding(
             if side == "outside":
                 text = envelope_gap_message(name, label, shape.is_lateral, value, limit, weight, units.arm, units.mass)
             else:
-                text = envelope_side_message(name, label, shape.is_lateral, side, value, limit, weight, units.arm, units.mass)
+                text = envelope_side_message(
+                    name, label, shape.is_lateral, side, value, limit, weight, units.arm, units.mass
+                )
         else:
             text = envelope_point_message(name, label, shape.is_lateral, weight, value, units.arm, units.mass)
     if severity == "warning":
         text += ZERO_FUEL_WARNING
     return Finding(
-        code="envelope", severity=severity, condition=name, message=text,
-        excess=excess, unit=unit, limit=limit, side=side, subject=label,
+        code="envelope",
+        severity=severity,
+        condition=name,
+        message=text,
+        excess=excess,
+        unit=unit,
+        limit=limit,
+        side=side,
+        subject=label,
     )
 
 
@@ -613,23 +708,43 @@ def _burn_path(
         weights, moments, laterals, quantities = path_states(
             aircraft, arrays[0], arrays[1], np.array(points), order=resolved.plan.order, density=arrays[2]
         )
-    state = dict(zip(points, zip(weights.tolist(), moments.tolist(), laterals.tolist(),
-                                 quantities.sum(axis=1).tolist(), strict=True), strict=True)) if points else {}
+    state = (
+        dict(
+            zip(
+                points,
+                zip(
+                    weights.tolist(), moments.tolist(), laterals.tolist(), quantities.sum(axis=1).tolist(), strict=True
+                ),
+                strict=True,
+            )
+        )
+        if points
+        else {}
+    )
     top = takeoff.weight
-    samples = [
-        PathSample(fuel_burned=top - w, weight=w, arm=m / w, lateral_arm=lat / w if lateral else None)
-        for w, m, lat, _ in (state[b] for b in sorted(set(marks + ends)))
-    ] if with_samples else []
+    samples = (
+        [
+            PathSample(fuel_burned=top - w, weight=w, arm=m / w, lateral_arm=lat / w if lateral else None)
+            for w, m, lat, _ in (state[b] for b in sorted(set(marks + ends)))
+        ]
+        if with_samples
+        else []
+    )
     if not stretches:
         return BurnPath(ok=ok, samples=samples)
 
-    excursions = [Excursion(from_burned=takeoff.weight - state[b][0], to_burned=takeoff.weight - state[e][0])
-                  for b, e in stretches]
+    excursions = [
+        Excursion(from_burned=takeoff.weight - state[b][0], to_burned=takeoff.weight - state[e][0])
+        for b, e in stretches
+    ]
     first = state[stretches[0][0]]
     w_mid, m_mid, l_mid, _ = state[middle[0]]
     left = next(
-        (i for i, e in enumerate(aircraft.envelope)
-         if e.category == resolved.category and not e.shape.covers(w_mid, m_mid, l_mid)),
+        (
+            i
+            for i, e in enumerate(aircraft.envelope)
+            if e.category == resolved.category and not e.shape.covers(w_mid, m_mid, l_mid)
+        ),
         None,
     )
     payload_weight = float(found.weight["zero_fuel"][i])
@@ -650,9 +765,18 @@ def _burn_path(
         w, m, _, on_board = state[begin]
         findings.append(
             Finding(
-                code="burn_path", severity="limit",
-                message=burn_path_message(excursion.from_burned, excursion.to_burned, w, m / w, on_board,
-                                          units.mass, units.arm, units.fuel_volume),
+                code="burn_path",
+                severity="limit",
+                message=burn_path_message(
+                    excursion.from_burned,
+                    excursion.to_burned,
+                    w,
+                    m / w,
+                    on_board,
+                    units.mass,
+                    units.arm,
+                    units.fuel_volume,
+                ),
                 excess=excursion.to_burned - excursion.from_burned,
                 unit=units.mass,
             )
@@ -673,10 +797,14 @@ def _load_findings(aircraft: Aircraft, resolved: ResolvedLoading, found: Evaluat
         loaded = sum(resolved.stations.get(ids[i], 0.0) for i in rule.members)
         findings.append(
             Finding(
-                code=rule.code, severity="limit",
+                code=rule.code,
+                severity="limit",
                 message=load_limit_message(rule.label, loaded, rule.limit, rule.is_max, mass),
-                excess=abs(loaded - rule.limit), unit=mass, limit=rule.limit,
-                side="above" if rule.is_max else "below", subject=rule.subject,
+                excess=abs(loaded - rule.limit),
+                unit=mass,
+                limit=rule.limit,
+                side="above" if rule.is_max else "below",
+                subject=rule.subject,
             )
         )
     return findings

@@ -43,11 +43,25 @@ from .caution import PILOT_CAUTION
 from .errors import FileFormatError, InputError, LoadcheckError, Problem
 from .results import Result
 
-__all__ = ["CurrentCheck", "CurrentVerification", "LoggedCheck", "CheckLog", "Verification", "default_path",
-           "export_text", "log_check", "log_path", "results_match", "verify", "verify_current"]
+__all__ = [
+    "CurrentCheck",
+    "CurrentVerification",
+    "LoggedCheck",
+    "CheckLog",
+    "Verification",
+    "default_path",
+    "export_text",
+    "log_check",
+    "log_path",
+    "results_match",
+    "verify",
+    "verify_current",
+]
 
-_COLUMNS = ("id, checked_at, registration, reference, pilot, source, category, ok, fingerprint, inputs, result, version, "
-            "seal, legs")
+_COLUMNS = (
+    "id, checked_at, registration, reference, pilot, source, category, ok, fingerprint, inputs, result, version, "
+    "seal, legs"
+)
 
 _LISTED = "id, checked_at, registration, reference, pilot, ok, fingerprint, legs"
 """The columns a listing shows, in the order of the covering index ``checks_listing``: a listing
@@ -55,11 +69,35 @@ reads that index alone (a few dozen bytes a record), never the table's rows with
 results (kilobytes each)."""
 
 
-def _seal(checked_at: str, registration: str | None, reference: str | None, pilot: str | None, source: str | None,
-          category: str | None, ok: int, fingerprint: str, inputs: str, result: str, version: str) -> str:
+def _seal(
+    checked_at: str,
+    registration: str | None,
+    reference: str | None,
+    pilot: str | None,
+    source: str | None,
+    category: str | None,
+    ok: int,
+    fingerprint: str,
+    inputs: str,
+    result: str,
+    version: str,
+) -> str:
     """SHA-256 over a record's stored fields, as stored (the JSON texts byte for byte)."""
-    fields = [checked_at, registration, reference, pilot, source, category, int(ok), fingerprint, inputs, result, version]
+    fields = [
+        checked_at,
+        registration,
+        reference,
+        pilot,
+        source,
+        category,
+        int(ok),
+        fingerprint,
+        inputs,
+        result,
+        version,
+    ]
     return hashlib.sha256(json.dumps(fields, separators=(",", ":")).encode("utf-8")).hexdigest()
+
 
 _SCHEMA = """
 CREATE TABLE IF NOT EXISTS aircraft_data (
@@ -110,9 +148,15 @@ def default_path() -> Path:
     explicit = os.environ.get("LOADCHECK_LOG")
     old = os.environ.get(_OLD_ENV)
     if old and old != explicit:
-        raise InputError(Problem(f"${_OLD_ENV}", "this variable is now named LOADCHECK_LOG: rename it"
-                                 + (" (both are set, to different files)" if explicit else ""),
-                                 value=old, expected="LOADCHECK_LOG=FILE"))
+        raise InputError(
+            Problem(
+                f"${_OLD_ENV}",
+                "this variable is now named LOADCHECK_LOG: rename it"
+                + (" (both are set, to different files)" if explicit else ""),
+                value=old,
+                expected="LOADCHECK_LOG=FILE",
+            )
+        )
     if explicit:
         return Path(explicit)
     from platformdirs import user_data_path
@@ -133,9 +177,15 @@ def log_path(to_log: bool, db: Path | None) -> Path | None:
     """
     if not to_log:
         if db is not None:
-            raise InputError(Problem("--db", "names the check log to record in, but nothing is recorded without "
-                                     "--log (it was --no-log, or check without --log)",
-                                     value=str(db), expected="--log --db FILE, or no --db"))
+            raise InputError(
+                Problem(
+                    "--db",
+                    "names the check log to record in, but nothing is recorded without "
+                    "--log (it was --no-log, or check without --log)",
+                    value=str(db),
+                    expected="--log --db FILE, or no --db",
+                )
+            )
         return None
     return db or default_path()
 
@@ -162,8 +212,21 @@ class LoggedCheck:
 
     def summary(self) -> dict[str, Any]:
         """The record without its inputs and result, for listings."""
-        return {k: getattr(self, k) for k in ("id", "checked_at", "registration", "reference", "pilot", "source",
-                                              "category", "ok", "fingerprint", "version")}
+        return {
+            k: getattr(self, k)
+            for k in (
+                "id",
+                "checked_at",
+                "registration",
+                "reference",
+                "pilot",
+                "source",
+                "category",
+                "ok",
+                "fingerprint",
+                "version",
+            )
+        }
 
 
 class CheckLog:
@@ -250,16 +313,28 @@ class CheckLog:
                 if fingerprint not in self._known:
                     data = record["aircraft_data"]
                     data = data() if callable(data) else data
-                    self._db.execute("INSERT OR IGNORE INTO aircraft_data (fingerprint, data) VALUES (?, ?)",
-                                     (fingerprint, json.dumps(data, sort_keys=True, separators=(",", ":"))))
+                    self._db.execute(
+                        "INSERT OR IGNORE INTO aircraft_data (fingerprint, data) VALUES (?, ?)",
+                        (fingerprint, json.dumps(data, sort_keys=True, separators=(",", ":"))),
+                    )
                 result = record["result"]
                 legs = 1 + len(record["inputs"].get("leg") or ())
-                values = (now, record.get("registration"), record.get("reference"), record.get("pilot"),
-                          record.get("source"), result.get("category"), int(bool(result.get("ok"))), fingerprint,
-                          json.dumps(record["inputs"], separators=(",", ":"), default=str),
-                          json.dumps(result, separators=(",", ":")), record.get("version", ""))
+                values = (
+                    now,
+                    record.get("registration"),
+                    record.get("reference"),
+                    record.get("pilot"),
+                    record.get("source"),
+                    result.get("category"),
+                    int(bool(result.get("ok"))),
+                    fingerprint,
+                    json.dumps(record["inputs"], separators=(",", ":"), default=str),
+                    json.dumps(result, separators=(",", ":")),
+                    record.get("version", ""),
+                )
                 cursor = self._db.execute(
-                    "INSERT INTO checks (checked_at, registration, reference, pilot, source, category, ok, fingerprint, "
+                    "INSERT INTO checks (checked_at, registration, reference, pilot, source, category, ok, "
+                    "fingerprint, "
                     "inputs, result, version, seal, legs) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)",
                     (*values, _seal(*values), legs),
                 )
@@ -268,16 +343,29 @@ class CheckLog:
         except (sqlite3.Error, TypeError, ValueError) as error:
             if self._db.in_transaction:
                 self._db.execute("ROLLBACK")
-            raise FileFormatError(f"could not record the checks (nothing of this batch was recorded): {error}",
-                                  file=self.path) from None
+            raise FileFormatError(
+                f"could not record the checks (nothing of this batch was recorded): {error}", file=self.path
+            ) from None
         self._known.update(r["fingerprint"] for r in records)
         return ids
 
     def _row(self, row: tuple[Any, ...]) -> LoggedCheck:
         return LoggedCheck(
-            id=row[0], checked_at=row[1], registration=row[2], reference=row[3], pilot=row[4], source=row[5],
-            category=row[6], ok=bool(row[7]), fingerprint=row[8], inputs=json.loads(row[9]), result=json.loads(row[10]),
-            version=row[11], seal=row[12], stored=tuple(row[1:12]), legs=row[13],
+            id=row[0],
+            checked_at=row[1],
+            registration=row[2],
+            reference=row[3],
+            pilot=row[4],
+            source=row[5],
+            category=row[6],
+            ok=bool(row[7]),
+            fingerprint=row[8],
+            inputs=json.loads(row[9]),
+            result=json.loads(row[10]),
+            version=row[11],
+            seal=row[12],
+            stored=tuple(row[1:12]),
+            legs=row[13],
         )
 
     def get(self, record_id: int) -> LoggedCheck:
@@ -301,14 +389,16 @@ class CheckLog:
         data: dict[str, Any] = json.loads(row[0])
         return data
 
-    def find(self, *, since: dt.date | None = None, until: dt.date | None = None,
-             registration: str | None = None) -> Iterator[LoggedCheck]:
+    def find(
+        self, *, since: dt.date | None = None, until: dt.date | None = None, registration: str | None = None
+    ) -> Iterator[LoggedCheck]:
         """Records in order, between two dates (inclusive, UTC) and/or for one registration."""
         for row in self._select(_COLUMNS, since, until, registration):
             yield self._row(row)
 
-    def listing(self, *, since: dt.date | None = None, until: dt.date | None = None, registration: str | None = None
-                ) -> Iterator[tuple[int, str, str | None, str | None, str | None, int, str, int]]:
+    def listing(
+        self, *, since: dt.date | None = None, until: dt.date | None = None, registration: str | None = None
+    ) -> Iterator[tuple[int, str, str | None, str | None, str | None, int, str, int]]:
         """What a listing shows of each record, in order, without reading its result:
         (id, checked_at, registration, reference, pilot, ok (1 or 0), fingerprint, legs); the filters of :meth:`find`.
 
@@ -318,8 +408,9 @@ class CheckLog:
         """
         return self._select(_LISTED.replace("legs", "coalesce(legs, 1)"), since, until, registration)
 
-    def _select(self, columns: str, since: dt.date | None, until: dt.date | None,
-                registration: str | None) -> Iterator[tuple[Any, ...]]:
+    def _select(
+        self, columns: str, since: dt.date | None, until: dt.date | None, registration: str | None
+    ) -> Iterator[tuple[Any, ...]]:
         clauses, args = [], []
         if since is not None:
             clauses.append("checked_at >= ?")
@@ -359,19 +450,47 @@ def log_check(log: CheckLog, inputs: Any, result: Any, *, source: str, version: 
     given = inputs.given
     data = result.to_dict()
     if given is not None and bool(given.leg) != ("legs" in data):
-        raise InputError(Problem("result", "the result is not the check of these inputs: a trip of several legs is "
-                                           "recorded with its trip check, a single loading with its single check"))
+        raise InputError(
+            Problem(
+                "result",
+                "the result is not the check of these inputs: a trip of several legs is "
+                "recorded with its trip check, a single loading with its single check",
+            )
+        )
     return log.add(
-        aircraft_data=inputs.aircraft.model_dump(mode="json"), fingerprint=inputs.aircraft.fingerprint,
-        inputs=given.model_dump(mode="json", exclude_none=True), result=data,
-        registration=inputs.aircraft.registration, reference=given.reference or given.label, pilot=given.pilot or pilot,
-        source=source, version=version,
+        aircraft_data=inputs.aircraft.model_dump(mode="json"),
+        fingerprint=inputs.aircraft.fingerprint,
+        inputs=given.model_dump(mode="json", exclude_none=True),
+        result=data,
+        registration=inputs.aircraft.registration,
+        reference=given.reference or given.label,
+        pilot=given.pilot or pilot,
+        source=source,
+        version=version,
     )
 
 
-_CSV_HEAD = ["id", "checked_at", "registration", "reference", "pilot", "source", "category", "ok", "fingerprint",
-             "mass_unit", "arm_unit", "takeoff_weight", "takeoff_arm", "landing_weight", "landing_arm", "first_finding",
-             "legs", "leg", "leg_ok"]
+_CSV_HEAD = [
+    "id",
+    "checked_at",
+    "registration",
+    "reference",
+    "pilot",
+    "source",
+    "category",
+    "ok",
+    "fingerprint",
+    "mass_unit",
+    "arm_unit",
+    "takeoff_weight",
+    "takeoff_arm",
+    "landing_weight",
+    "landing_arm",
+    "first_finding",
+    "legs",
+    "leg",
+    "leg_ok",
+]
 
 
 def _csv_lines(record: LoggedCheck) -> list[list[Any]]:
@@ -382,8 +501,19 @@ def _csv_lines(record: LoggedCheck) -> list[list[Any]]:
     line per leg: the record's fields (``ok`` the trip's verdict) with that leg's figures and
     first limit finding, its number and its own verdict."""
     units = record.result.get("units", {})
-    head = [record.id, record.checked_at, record.registration, record.reference, record.pilot, record.source,
-            record.category, record.ok, record.fingerprint, units.get("mass"), units.get("arm")]
+    head = [
+        record.id,
+        record.checked_at,
+        record.registration,
+        record.reference,
+        record.pilot,
+        record.source,
+        record.category,
+        record.ok,
+        record.fingerprint,
+        units.get("mass"),
+        units.get("arm"),
+    ]
 
     def figures(check: dict[str, Any]) -> list[Any]:
         conditions = {c["condition"]: c for c in check.get("conditions", [])}
@@ -402,7 +532,9 @@ def export_text(records: Iterable[LoggedCheck], format: str) -> str:
     buffer = io.StringIO()
     if format == "jsonl":
         for r in records:
-            buffer.write(json.dumps({**r.summary(), "inputs": r.inputs, "result": r.result}, separators=(",", ":")) + "\n")
+            buffer.write(
+                json.dumps({**r.summary(), "inputs": r.inputs, "result": r.result}, separators=(",", ":")) + "\n"
+            )
     elif format == "csv":
         writer = csv.writer(buffer)
         writer.writerow(_CSV_HEAD)
@@ -485,35 +617,52 @@ def verify(log: CheckLog, record_id: int) -> Verification:
     again = _check_again(aircraft, record.inputs, f"record {record_id}").to_dict()
     differences = []
     if aircraft.fingerprint != record.fingerprint:
-        differences.append(f"the recorded aircraft data gives the fingerprint {aircraft.fingerprint}, "
-                           f"not the recorded {record.fingerprint}")
+        differences.append(
+            f"the recorded aircraft data gives the fingerprint {aircraft.fingerprint}, "
+            f"not the recorded {record.fingerprint}"
+        )
     if not results_match(record.result, again):
         differences.append("the stored result differs from the recomputed one")
     if record.ok != bool(again.get("ok")):
-        differences.append(f"the stored verdict ({'within' if record.ok else 'out of'} limits) is not the recomputed one "
-                           f"({'within' if again.get('ok') else 'out of'} limits)")
+        differences.append(
+            f"the stored verdict ({'within' if record.ok else 'out of'} limits) is not the recomputed one "
+            f"({'within' if again.get('ok') else 'out of'} limits)"
+        )
     if record.category != again.get("category"):
         differences.append(f"the stored category {record.category!r} is not the recomputed {again.get('category')!r}")
     if record.registration != aircraft.registration:
-        differences.append(f"the stored registration {record.registration!r} is not the recorded aircraft data's "
-                           f"{aircraft.registration!r}")
+        differences.append(
+            f"the stored registration {record.registration!r} is not the recorded aircraft data's "
+            f"{aircraft.registration!r}"
+        )
     legs = 1 + len(record.inputs.get("leg") or ())
     stored_legs = 1 if record.legs is None else record.legs
     if stored_legs != legs or len(again.get("legs", (again,))) != legs:
-        differences.append(f"the stored number of legs ({stored_legs}, which log list shows) is not the recorded "
-                           f"loading's ({legs})")
+        differences.append(
+            f"the stored number of legs ({stored_legs}, which log list shows) is not the recorded loading's ({legs})"
+        )
     given = record.inputs.get("registration")
     if given is not None and given != record.registration:
         differences.append(f"the stored registration {record.registration!r} is not the loading's {given!r}")
     notes = []
     if record.seal is None:
-        notes.append("this record has no seal (recorded by an earlier version): its time, reference, pilot and source "
-                     "cannot be verified")
+        notes.append(
+            "this record has no seal (recorded by an earlier version): its time, reference, pilot and source "
+            "cannot be verified"
+        )
     elif _seal(*record.stored) != record.seal:
-        differences.append("the stored fields do not match the record's seal: a field (time, registration, reference, "
-                           "pilot, source, category, verdict, inputs, result or version) was changed after recording")
-    return Verification(record_id=record_id, reproduced=not differences, ok=bool(again.get("ok")),
-                        fingerprint=record.fingerprint, differences=differences, notes=notes)
+        differences.append(
+            "the stored fields do not match the record's seal: a field (time, registration, reference, "
+            "pilot, source, category, verdict, inputs, result or version) was changed after recording"
+        )
+    return Verification(
+        record_id=record_id,
+        reproduced=not differences,
+        ok=bool(again.get("ok")),
+        fingerprint=record.fingerprint,
+        differences=differences,
+        notes=notes,
+    )
 
 
 @dataclass(frozen=True, kw_only=True, slots=True)
@@ -576,30 +725,66 @@ def verify_current(records: Iterable[LoggedCheck], fleet: Any) -> CurrentVerific
     """
     checks = []
     for record in records:
-        common: dict[str, Any] = {"record_id": record.id, "checked_at": record.checked_at, "registration": record.registration,
-                  "reference": record.reference, "recorded_ok": record.ok, "recorded_fingerprint": record.fingerprint}
+        common: dict[str, Any] = {
+            "record_id": record.id,
+            "checked_at": record.checked_at,
+            "registration": record.registration,
+            "reference": record.reference,
+            "recorded_ok": record.ok,
+            "recorded_fingerprint": record.fingerprint,
+        }
         try:
             if record.registration is None:
-                raise InputError(Problem("registration", "the record names no registration, so its aircraft's "
-                                                         "current data cannot be found"))
+                raise InputError(
+                    Problem(
+                        "registration",
+                        "the record names no registration, so its aircraft's current data cannot be found",
+                    )
+                )
             aircraft = fleet.aircraft(record.registration)
         except LoadcheckError as error:
-            checks.append(CurrentCheck(**common, current_fingerprint=None, data_changed=True, current_ok=None,
-                                       current_findings=[], problem="; ".join(p.describe() for p in error.problems)))
+            checks.append(
+                CurrentCheck(
+                    **common,
+                    current_fingerprint=None,
+                    data_changed=True,
+                    current_ok=None,
+                    current_findings=[],
+                    problem="; ".join(p.describe() for p in error.problems),
+                )
+            )
             continue
         changed = aircraft.fingerprint != record.fingerprint
         try:
             result = _check_again(aircraft, record.inputs, f"record {record.id}")
         except LoadcheckError as error:
-            checks.append(CurrentCheck(**common, current_fingerprint=aircraft.fingerprint, data_changed=changed,
-                                       current_ok=None, current_findings=[],
-                                       problem="the loading cannot be checked with the current data: "
-                                               + "; ".join(p.describe() for p in error.problems)))
+            checks.append(
+                CurrentCheck(
+                    **common,
+                    current_fingerprint=aircraft.fingerprint,
+                    data_changed=changed,
+                    current_ok=None,
+                    current_findings=[],
+                    problem="the loading cannot be checked with the current data: "
+                    + "; ".join(p.describe() for p in error.problems),
+                )
+            )
             continue
-        checks.append(CurrentCheck(**common, current_fingerprint=aircraft.fingerprint, data_changed=changed,
-                                   current_ok=result.ok,
-                                   current_findings=[f.message for f in result.findings if f.severity == "limit"]))
+        checks.append(
+            CurrentCheck(
+                **common,
+                current_fingerprint=aircraft.fingerprint,
+                data_changed=changed,
+                current_ok=result.ok,
+                current_findings=[f.message for f in result.findings if f.severity == "limit"],
+            )
+        )
     worse = sum(1 for c in checks if c.now_out_of_limits)
     status = 2 if any(c.problem for c in checks) else 1 if worse else 0
-    return CurrentVerification(checks=checks, fleet=str(fleet.folder), status=status,
-                               changed=sum(1 for c in checks if c.data_changed), now_out_of_limits=worse)
+    return CurrentVerification(
+        checks=checks,
+        fleet=str(fleet.folder),
+        status=status,
+        changed=sum(1 for c in checks if c.data_changed),
+        now_out_of_limits=worse,
+    )

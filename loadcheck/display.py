@@ -17,9 +17,15 @@ __all__ = ["DECIMALS", "decimals", "fmt", "round_safe", "unit_label"]
 Direction = Literal["nearest", "up", "down"]
 
 DECIMALS: dict[str, int] = {
-    "lb": 1, "kg": 1,
-    "in": 2, "mm": 0, "cm": 1, "m": 3,
-    "usgal": 1, "impgal": 1, "l": 1,
+    "lb": 1,
+    "kg": 1,
+    "in": 2,
+    "mm": 0,
+    "cm": 1,
+    "m": 3,
+    "usgal": 1,
+    "impgal": 1,
+    "l": 1,
     "%MAC": 1,
 }
 """Decimal places shown per unit."""
@@ -67,8 +73,9 @@ def unit_label(unit: str) -> str:
     return unit.replace("*", "\u00b7")
 
 
-def fmt(value: float, unit: str, direction: Direction = "nearest", *, with_unit: bool = True,
-        places: int | None = None) -> str:
+def fmt(
+    value: float, unit: str, direction: Direction = "nearest", *, with_unit: bool = True, places: int | None = None
+) -> str:
     """Format a value for display with its unit's precision (or ``places``) and thousands separators.
 
     Examples

@@ -99,14 +99,19 @@ def _bounded_inputs(source: Path, parsed: Any) -> dict[str, Any]:
     note = data.get("note")
     if isinstance(note, str) and len(note) > NOTE_CHARS:
         data["note"] = note[:NOTE_CHARS]
-        data["note_cut"] = f"the note was cut to {NOTE_CHARS} of its {len(note):,} characters; the file's digest identifies it"
+        data["note_cut"] = (
+            f"the note was cut to {NOTE_CHARS} of its {len(note):,} characters; the file's digest identifies it"
+        )
     head = {"file": str(source), "sha256": digest, "bytes": size}
     kept = {**head, **data}
     if len(tomlkit.dumps(kept).encode("utf-8")) <= HISTORY_INPUTS_BYTES:
         return kept
     counts = {key: len(value) for key, value in data.items() if isinstance(value, list)}
-    return {**head, "abridged": f"more than {HISTORY_INPUTS_BYTES:,} bytes; kept: the file's digest and its counts",
-            **{f"{key}_count": n for key, n in counts.items()}}
+    return {
+        **head,
+        "abridged": f"more than {HISTORY_INPUTS_BYTES:,} bytes; kept: the file's digest and its counts",
+        **{f"{key}_count": n for key, n in counts.items()},
+    }
 
 
 @dataclass(frozen=True, kw_only=True, slots=True)
@@ -130,8 +135,16 @@ class Proposal:
     result : the :class:`~loadcheck.weighing.WeighResult` or :class:`~loadcheck.alterations.AlterResult`
     """
 
-    def __init__(self, kind: Kind, aircraft_path: Path, source_path: Path, aircraft: Aircraft, original: bytes,
-                 parsed: Any, result: Any):
+    def __init__(
+        self,
+        kind: Kind,
+        aircraft_path: Path,
+        source_path: Path,
+        aircraft: Aircraft,
+        original: bytes,
+        parsed: Any,
+        result: Any,
+    ):
         self.kind = kind
         self.aircraft_path = aircraft_path
         self.source_path = source_path
@@ -173,13 +186,25 @@ class Proposal:
             ComparisonRow(quantity="empty-weight moment", unit=units.moment, current=old.moment, new=new.moment),
         ]
         if old.lateral_arm is not None or new.lateral_arm is not None:
-            rows.append(ComparisonRow(quantity="lateral CG (+ right)", unit=units.arm, current=old.lateral_arm,
-                                      new=new.lateral_arm))
-        rows.append(ComparisonRow(quantity="useful load", unit=units.mass, current=self.aircraft.useful_load,
-                                  new=self.result.useful_load))
+            rows.append(
+                ComparisonRow(
+                    quantity="lateral CG (+ right)", unit=units.arm, current=old.lateral_arm, new=new.lateral_arm
+                )
+            )
+        rows.append(
+            ComparisonRow(
+                quantity="useful load", unit=units.mass, current=self.aircraft.useful_load, new=self.result.useful_load
+            )
+        )
         current_date = self.aircraft.empty.date
-        rows.append(ComparisonRow(quantity="record date", unit="", current=None if current_date is None else str(current_date),
-                                  new=str(self.date) if self.date is not None else "unchanged"))
+        rows.append(
+            ComparisonRow(
+                quantity="record date",
+                unit="",
+                current=None if current_date is None else str(current_date),
+                new=str(self.date) if self.date is not None else "unchanged",
+            )
+        )
         return rows
 
     @cached_property
@@ -233,7 +258,12 @@ def propose(aircraft_path: str | Path, source_path: str | Path, kind: Kind) -> P
 
 
 def make_current(
-    proposal: Proposal, *, confirmed: bool, override: bool = False, by: str | None = None, note: str | None = None,
+    proposal: Proposal,
+    *,
+    confirmed: bool,
+    override: bool = False,
+    by: str | None = None,
+    note: str | None = None,
 ) -> Path:
     """Make a proposed record the aircraft's current one; keep the old one in the history.
 
@@ -269,29 +299,49 @@ def make_current(
     if not proposal.overridable:
         raise OverrideNeededError(
             [Problem("empty", f"not written: {r.message}") for r in refusals if not r.overridable],
-            overridable=False, file=where)
+            overridable=False,
+            file=where,
+        )
     if refusals and not override:
         raise OverrideNeededError(
             [Problem("empty", f"not written: {r.message}") for r in refusals]
             + [Problem("empty", "an explicit override writes it anyway, and is kept in the history")],
-            overridable=True, file=where)
+            overridable=True,
+            file=where,
+        )
     if not confirmed:
-        raise NotConfirmedError(Problem("empty", "not written: a new record is written only once a person has seen the "
-                                                 "current and the new record and confirmed"), file=proposal.aircraft_path)
+        raise NotConfirmedError(
+            Problem(
+                "empty",
+                "not written: a new record is written only once a person has seen the "
+                "current and the new record and confirmed",
+            ),
+            file=proposal.aircraft_path,
+        )
     inputs = _bounded_inputs(proposal.source_path, proposal.parsed)
     made_by = by or proposal.made_by
     why = note or proposal.why
     if why is not None and len(why) > NOTE_CHARS:
         why = why[:NOTE_CHARS] + " [cut]"
     return write_new_record(
-        proposal.aircraft_path, proposal.original, weight=result.new.weight, arm=result.new.arm,
-        lateral_arm=result.new.lateral_arm, date=proposal.date, reason=proposal.kind, inputs=inputs,
-        equipment=result.equipment if proposal.kind == "alteration" else None, by=made_by, note=why,
+        proposal.aircraft_path,
+        proposal.original,
+        weight=result.new.weight,
+        arm=result.new.arm,
+        lateral_arm=result.new.lateral_arm,
+        date=proposal.date,
+        reason=proposal.kind,
+        inputs=inputs,
+        equipment=result.equipment if proposal.kind == "alteration" else None,
+        by=made_by,
+        note=why,
         overrides=[f"{r.code}: {r.message}" for r in refusals] if override else None,
     )
 
 
-def write_record_sheet(path: str | Path, proposal: Proposal, when: dt.datetime | None = None) -> tuple[Path, str | None]:
+def write_record_sheet(
+    path: str | Path, proposal: Proposal, when: dt.datetime | None = None
+) -> tuple[Path, str | None]:
     """Write the printable record to sign (HTML), with the extreme-loading checks of the new record.
 
     Returns
@@ -311,11 +361,22 @@ def write_record_sheet(path: str | Path, proposal: Proposal, when: dt.datetime |
 
     path = Path(path)
     if path.suffix.lower() not in (".html", ".htm"):
-        raise InputError(Problem("sheet", "the record is an HTML file", value=str(path), expected="a name ending in .html"))
+        raise InputError(
+            Problem("sheet", "the record is an HTML file", value=str(path), expected="a name ending in .html")
+        )
     checks, left_out = proposal.extremes
-    write_atomic(path, mechanic_sheet_html(proposal.result, proposal.aircraft.units, extremes=checks,
-                                           source=str(proposal.source_path), when=when,
-                                           comparison=proposal.comparison(), left_out=left_out))
+    write_atomic(
+        path,
+        mechanic_sheet_html(
+            proposal.result,
+            proposal.aircraft.units,
+            extremes=checks,
+            source=str(proposal.source_path),
+            when=when,
+            comparison=proposal.comparison(),
+            left_out=left_out,
+        ),
+    )
     return path, left_out
 
 
@@ -354,13 +415,36 @@ def history(aircraft: Aircraft) -> HistoryListing:
     """
     from .weighing import current_record_warnings
 
-    rows = [HistoryRow(replaced=str(h.recorded), reason=h.reason, weight=h.previous.weight, arm=h.previous.arm,
-                       lateral_arm=h.previous.lateral_arm, date=str(h.previous.date or ""), by=h.by, note=h.note,
-                       overrides=list(h.overrides)) for h in aircraft.history]
+    rows = [
+        HistoryRow(
+            replaced=str(h.recorded),
+            reason=h.reason,
+            weight=h.previous.weight,
+            arm=h.previous.arm,
+            lateral_arm=h.previous.lateral_arm,
+            date=str(h.previous.date or ""),
+            by=h.by,
+            note=h.note,
+            overrides=list(h.overrides),
+        )
+        for h in aircraft.history
+    ]
     empty = aircraft.empty
-    rows.append(HistoryRow(replaced="current", reason="", weight=empty.weight, arm=empty.arm,
-                           lateral_arm=empty.lateral_arm, date=str(empty.date or "")))
-    return HistoryListing(aircraft=aircraft.name, registration=aircraft.registration, records=rows,
-                          units={"mass": aircraft.units.mass, "arm": aircraft.units.arm}, cg_range=empty.cg_range,
-                          warnings=current_record_warnings(aircraft))
-
+    rows.append(
+        HistoryRow(
+            replaced="current",
+            reason="",
+            weight=empty.weight,
+            arm=empty.arm,
+            lateral_arm=empty.lateral_arm,
+            date=str(empty.date or ""),
+        )
+    )
+    return HistoryListing(
+        aircraft=aircraft.name,
+        registration=aircraft.registration,
+        records=rows,
+        units={"mass": aircraft.units.mass, "arm": aircraft.units.arm},
+        cg_range=empty.cg_range,
+        warnings=current_record_warnings(aircraft),
+    )

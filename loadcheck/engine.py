@@ -308,7 +308,9 @@ def _tables(aircraft: Aircraft) -> _Tables:
         loads=loads,
         station_ids=[s.id for s in aircraft.station],
         tank_ids=[t.id for t in aircraft.tank],
-        envelopes={c: (aircraft.envelopes_for(c), [e.shape for e in aircraft.envelopes_for(c)]) for c in aircraft.categories},
+        envelopes={
+            c: (aircraft.envelopes_for(c), [e.shape for e in aircraft.envelopes_for(c)]) for c in aircraft.categories
+        },
         has_lateral=aircraft.has_lateral,
         load_members=members,
         load_threshold=np.array([rule.threshold for rule in loads], dtype=float),
@@ -584,8 +586,17 @@ def evaluate(
         if n <= chunk:
             return _evaluate(aircraft, stations, fuel, taxi, trip, order, category, density, explain)
         parts = [
-            _evaluate(aircraft, stations[i : i + chunk], fuel[i : i + chunk], taxi[i : i + chunk], trip[i : i + chunk],
-                      order, category, density, explain)
+            _evaluate(
+                aircraft,
+                stations[i : i + chunk],
+                fuel[i : i + chunk],
+                taxi[i : i + chunk],
+                trip[i : i + chunk],
+                order,
+                category,
+                density,
+                explain,
+            )
             for i in range(0, n, chunk)
         ]
 
@@ -595,8 +606,10 @@ def evaluate(
             return None
         if isinstance(first, dict):
             if isinstance(next(iter(first.values()), None), list):
-                return {k: [np.concatenate([getattr(p, field)[k][j] for p in parts]) for j in range(len(v))]
-                        for k, v in first.items()}
+                return {
+                    k: [np.concatenate([getattr(p, field)[k][j] for p in parts]) for j in range(len(v))]
+                    for k, v in first.items()
+                }
             return {k: np.concatenate([getattr(p, field)[k] for p in parts]) for k in first}
         if isinstance(first, list):
             return [row for p in parts for row in getattr(p, field)]
@@ -693,14 +706,14 @@ def _evaluate(
         limit_ok["min_flight_weight"] = _all([minimum_ok[c] for c in MIN_FLIGHT_WEIGHT_CONDITIONS])
 
     # every envelope at the four conditions at once: one containment call per envelope
-    inside_all = [shape.covers(*_tested_states(shape, all_w, all_m, all_l, tables.allowance)) for shape in shapes]  # (4, N) each
+    inside_all = [
+        shape.covers(*_tested_states(shape, all_w, all_m, all_l, tables.allowance)) for shape in shapes
+    ]  # (4, N) each
     per_envelope = {name: [inside[k] for inside in inside_all] for k, name in enumerate(CONDITIONS)}
     every = _all(inside_all) if inside_all else np.ones((4, n), dtype=bool)
     envelope_ok = dict(zip(CONDITIONS, every, strict=True))
 
-    condition_ok = {
-        name: _all([*weight_ok[name], minimum_ok[name], envelope_ok[name]]) for name in CONDITIONS
-    }
+    condition_ok = {name: _all([*weight_ok[name], minimum_ok[name], envelope_ok[name]]) for name in CONDITIONS}
 
     load_exceeded = _loads_exceeded(tables, stations)
     limit_ok["stations"] = np.asarray(~load_exceeded.any(axis=1))
@@ -713,8 +726,19 @@ def _evaluate(
     path_outside: list[list[tuple[float, float]]] | None = [[] for _ in range(n)] if explain else None
     if len(rows):
         tested_ok, stretches = _burn_path(
-            aircraft, shapes, fuel[rows], taxi[rows], trip[rows], order_index, rho, tank_lats,
-            pay_w[rows], pay_m[rows], pay_l[rows], explain, (q[rows, 1:], tank_arm[rows, 1:]),
+            aircraft,
+            shapes,
+            fuel[rows],
+            taxi[rows],
+            trip[rows],
+            order_index,
+            rho,
+            tank_lats,
+            pay_w[rows],
+            pay_m[rows],
+            pay_l[rows],
+            explain,
+            (q[rows, 1:], tank_arm[rows, 1:]),
         )
         path_ok[rows] &= tested_ok
         if path_outside is not None:
@@ -774,7 +798,9 @@ def _all(arrays: Sequence[np.ndarray]) -> np.ndarray:
     return out
 
 
-def _test_order(tables: _Tables, category: str, envelopes: int, zero_fuel_cg_is_limit: bool) -> tuple[np.ndarray, np.ndarray]:
+def _test_order(
+    tables: _Tables, category: str, envelopes: int, zero_fuel_cg_is_limit: bool
+) -> tuple[np.ndarray, np.ndarray]:
     """The code and the condition of each test :func:`_evaluate` stacks, in the single check's
     order: per condition its weight limits, the minimum flight weight and each envelope (at
     zero fuel only where its CG is a limit), then the burn path, then every station and group
@@ -808,8 +834,9 @@ def _loads_exceeded(tables: _Tables, stations: np.ndarray) -> np.ndarray:
     return _beyond(_dot(stations, tables.load_members), tables.load_threshold, tables.load_is_max)
 
 
-def _tested_states(shape: EnvelopeShape, weight: np.ndarray, moment: np.ndarray,
-                   lateral: np.ndarray, allowance: float) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+def _tested_states(
+    shape: EnvelopeShape, weight: np.ndarray, moment: np.ndarray, lateral: np.ndarray, allowance: float
+) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
     """The states of the four conditions (rows of (4, N), CONDITIONS order) as tested against
     an envelope: the ramp row held to the envelope's top (:func:`envelope_state`)."""
     top = shape.max_weight
@@ -853,9 +880,16 @@ def path_states(
     pay_w = empty.weight + stations.sum()
     pay_m = empty.weight * empty.arm + _dot(stations, tables.arms)
     pay_l = empty.weight * (empty.lateral_arm or 0.0) + _dot(stations, tables.lats)
-    q = tank_quantities(np.asarray(fuel, dtype=float)[None, :], np.asarray(burned, dtype=float)[None, :], order_index)[0]
+    q = tank_quantities(np.asarray(fuel, dtype=float)[None, :], np.asarray(burned, dtype=float)[None, :], order_index)[
+        0
+    ]
     mass = q * rho
-    return (pay_w + mass.sum(axis=1), pay_m + (mass * _tank_arms(aircraft, q)).sum(axis=1), pay_l + _dot(mass, tables.tank_lats), q)
+    return (
+        pay_w + mass.sum(axis=1),
+        pay_m + (mass * _tank_arms(aircraft, q)).sum(axis=1),
+        pay_l + _dot(mass, tables.tank_lats),
+        q,
+    )
 
 
 _MIDDLE = np.array([1.0, 0.5, 0.25])  # the powers of u = 1/2: a piece's middle from its coefficients
@@ -934,7 +968,9 @@ def _burn_path(
         # or a turning point inside with the other sign
         with np.errstate(divide="ignore", invalid="ignore"):
             turn = -lin / (2.0 * quad)
-            maybe = (c * (quad + lin + c) <= 0) | ((turn > 0) & (turn < 1) & (c * (c + turn * (lin + turn * quad)) <= 0))
+            maybe = (c * (quad + lin + c) <= 0) | (
+                (turn > 0) & (turn < 1) & (c * (c + turn * (lin + turn * quad)) <= 0)
+            )
         k_all, e_all = np.nonzero(maybe)
         if len(k_all) == 0:
             continue
@@ -954,7 +990,9 @@ def _burn_path(
     hit = np.nonzero(touched)[0]
     parts_out: np.ndarray | None = None
     if len(hit):
-        cuts_u = np.concatenate([np.zeros((len(hit), 1)), *(c[hit] for c in candidates), np.ones((len(hit), 1))], axis=1)
+        cuts_u = np.concatenate(
+            [np.zeros((len(hit), 1)), *(c[hit] for c in candidates), np.ones((len(hit), 1))], axis=1
+        )
         cuts_u = np.sort(np.where(np.isfinite(cuts_u), cuts_u, 1.0), axis=1)
         lo, hi = cuts_u[:, :-1], cuts_u[:, 1:]
         mids = 0.5 * (lo + hi)
@@ -990,8 +1028,10 @@ def _collect_stretches(
         if touched[k]:
             assert parts_out is not None and cuts_u is not None
             j = position[int(k)]
-            spans = [(begin + float(cuts_u[j, p]) * length, begin + float(cuts_u[j, p + 1]) * length)
-                     for p in np.flatnonzero(parts_out[j])]
+            spans = [
+                (begin + float(cuts_u[j, p]) * length, begin + float(cuts_u[j, p + 1]) * length)
+                for p in np.flatnonzero(parts_out[j])
+            ]
         else:
             spans = [(begin, begin + length)]
         for low, high in spans:

@@ -206,7 +206,9 @@ class EnvelopeShape:
         value = _combine(self._coefficients[k], weight, moment, lateral)
         return value / weight if self._per_weight[k] else value
 
-    def coords(self, weight: float | np.ndarray, moment: float | np.ndarray, lateral: float | np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    def coords(
+        self, weight: float | np.ndarray, moment: float | np.ndarray, lateral: float | np.ndarray
+    ) -> tuple[np.ndarray, np.ndarray]:
         """Envelope coordinates of loading states given by weight, moment, lateral moment."""
         w, m, lat = (np.asarray(v, dtype=float) for v in (weight, moment, lateral))
         return self._axis(0, w, m, lat), self._axis(1, w, m, lat)
@@ -273,7 +275,9 @@ class EnvelopeShape:
             out.append(_intervals(points, inside_mid, inside_cut))
         return out
 
-    def _scaled_line(self, weight: float, arm: float, lateral_arm: float, vary: Vary) -> tuple[float, float, float, float] | None:
+    def _scaled_line(
+        self, weight: float, arm: float, lateral_arm: float, vary: Vary
+    ) -> tuple[float, float, float, float] | None:
         """The line of a slice in the scaled axes: start and direction; None where the
         envelope does not depend on the varying quantity."""
 

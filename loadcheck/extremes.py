@@ -115,8 +115,14 @@ def minimum_fuel(aircraft: Aircraft, meto_hp: float) -> float:
     >>> # 165 hp -> 13.75 US gal (AC 43.13-1B figure 10-10)
     """
     if not (math.isfinite(meto_hp) and meto_hp > 0):
-        raise InputError(Problem("meto_hp", "the maximum-except-takeoff power must be above zero", value=meto_hp,
-                                 expected="horsepower, e.g. 165"))
+        raise InputError(
+            Problem(
+                "meto_hp",
+                "the maximum-except-takeoff power must be above zero",
+                value=meto_hp,
+                expected="horsepower, e.g. 165",
+            )
+        )
     return convert(meto_hp / 12.0, "usgal", aircraft.units.fuel_volume)
 
 
@@ -132,8 +138,14 @@ def _limits(aircraft: Aircraft, category: str) -> tuple[float, float]:
     return min(arms), max(arms)
 
 
-def _case(aircraft: Aircraft, category: str, side: Literal["forward", "rearward"], limit: float,
-          occupant: float, min_fuel: float | None) -> ExtremeCase:
+def _case(
+    aircraft: Aircraft,
+    category: str,
+    side: Literal["forward", "rearward"],
+    limit: float,
+    occupant: float,
+    min_fuel: float | None,
+) -> ExtremeCase:
     notes: list[str] = []
     units = aircraft.units
     mass = units.mass
@@ -158,8 +170,10 @@ def _case(aircraft: Aircraft, category: str, side: Literal["forward", "rearward"
             add = max(0.0, add)
             if people:
                 stations[station.id] = stations.get(station.id, 0.0) + add
-                notes.append(f"{station.name}: {people} occupant{'s' if people > 1 else ''} at {occupant:g} {mass} "
-                             f"({fmt(stations[station.id], mass)}), {beyond} limit")
+                notes.append(
+                    f"{station.name}: {people} occupant{'s' if people > 1 else ''} at {occupant:g} {mass} "
+                    f"({fmt(stations[station.id], mass)}), {beyond} limit"
+                )
         else:
             if not math.isfinite(room) or room <= 0:
                 if not math.isfinite(room):
@@ -171,11 +185,18 @@ def _case(aircraft: Aircraft, category: str, side: Literal["forward", "rearward"
             notes.append(f"{station.name}: {what} ({fmt(stations[station.id], mass)}), {beyond} limit")
     if stations.get(pilot.id, 0.0) < occupant and not worse(pilot.arm):
         stations[pilot.id] = max(occupant, stations.get(pilot.id, 0.0))
-        notes.append(f"{pilot.name}: the pilot alone ({fmt(stations[pilot.id], mass)}), in the "
-                     f"{'farthest-forward' if side == 'forward' else 'most rearward'} seat with controls")
+        notes.append(
+            f"{pilot.name}: the pilot alone ({fmt(stations[pilot.id], mass)}), in the "
+            f"{'farthest-forward' if side == 'forward' else 'most rearward'} seat with controls"
+        )
     for station in aircraft.station:
         least = station.min_weight or 0.0
-        if least and stations.get(station.id, 0.0) <= least + 1e-9 and not worse(station.arm) and station.id != pilot.id:
+        if (
+            least
+            and stations.get(station.id, 0.0) <= least + 1e-9
+            and not worse(station.arm)
+            and station.id != pilot.id
+        ):
             notes.append(f"{station.name}: at its minimum ({fmt(least, mass)})")
 
     fuel: dict[str, float] = {}
@@ -186,13 +207,20 @@ def _case(aircraft: Aircraft, category: str, side: Literal["forward", "rearward"
             notes.append(f"{tank.name}: full ({fmt(tank.usable, units.fuel_volume)}), the tank lies {beyond} limit")
     if partial:
         if min_fuel is None:
-            raise InputError(Problem("meto_power_hp", "the minimum fuel for balance needs the engine's "
-                                     "maximum-except-takeoff power: give meto_power_hp in the aircraft file"))
+            raise InputError(
+                Problem(
+                    "meto_power_hp",
+                    "the minimum fuel for balance needs the engine's "
+                    "maximum-except-takeoff power: give meto_power_hp in the aircraft file",
+                )
+            )
         capacity = sum(t.usable for t in partial)
         for tank in partial:
             fuel[tank.id] = min(tank.usable, min_fuel * tank.usable / capacity)
-        notes.append(f"minimum fuel for balance, {min_fuel:.2f} {units.fuel_volume} (METO/12 US gal), in "
-                     f"{', '.join(t.name for t in partial)}")
+        notes.append(
+            f"minimum fuel for balance, {min_fuel:.2f} {units.fuel_volume} (METO/12 US gal), in "
+            f"{', '.join(t.name for t in partial)}"
+        )
     density = {t.id: aircraft.density(t) for t in aircraft.tank}
     full = {t.id: fuel.get(t.id, 0.0) for t in aircraft.tank}
     plan = BurnPlan(full, None)
@@ -205,13 +233,20 @@ def _case(aircraft: Aircraft, category: str, side: Literal["forward", "rearward"
         states = f"at {fmt(start, volume)} of fuel" if start > 0 else "with no usable fuel"
     else:
         end = "the minimum fuel for balance" if min_fuel is not None else "zero usable fuel"
-        states = (f"from {fmt(start, volume)} at engine start down to {end} ({fmt(down_to, volume)}), every tank "
-                  "burning in proportion to its fuel")
+        states = (
+            f"from {fmt(start, volume)} at engine start down to {end} ({fmt(down_to, volume)}), every tank "
+            "burning in proportion to its fuel"
+        )
     return ExtremeCase(side=side, ok=check.ok, limit_arm=limit, notes=notes, fuel_states=states, check=check)
 
 
-def extremes(aircraft: Aircraft, *, category: str | None = None, occupant_weight: float | None = None,
-             meto_hp: float | None = None) -> ExtremesResult:
+def extremes(
+    aircraft: Aircraft,
+    *,
+    category: str | None = None,
+    occupant_weight: float | None = None,
+    meto_hp: float | None = None,
+) -> ExtremesResult:
     """The most forward and most rearward loadings the stations permit, each checked in full.
 
     Parameters
@@ -238,6 +273,11 @@ def extremes(aircraft: Aircraft, *, category: str | None = None, occupant_weight
     forward = _case(aircraft, chosen, "forward", forward_limit, occupant, min_fuel)
     rearward = _case(aircraft, chosen, "rearward", rear_limit, occupant, min_fuel)
     return ExtremesResult(
-        aircraft=aircraft.name, category=chosen, occupant_weight=occupant, minimum_fuel=min_fuel,
-        ok=forward.ok and rearward.ok, forward=forward, rearward=rearward,
+        aircraft=aircraft.name,
+        category=chosen,
+        occupant_weight=occupant,
+        minimum_fuel=min_fuel,
+        ok=forward.ok and rearward.ok,
+        forward=forward,
+        rearward=rearward,
     )

@@ -61,8 +61,11 @@ class FileModel(BaseModel):
     @classmethod
     def _no_booleans_for_numbers(cls, data: Any) -> Any:
         if isinstance(data, dict):
-            bad = [key for name, field in cls.model_fields.items()
-                   if (key := field.alias or name) in data and _booleans_in_numbers(field.annotation, data[key])]
+            bad = [
+                key
+                for name, field in cls.model_fields.items()
+                if (key := field.alias or name) in data and _booleans_in_numbers(field.annotation, data[key])
+            ]
             if bad:
                 raise ValueError(f"{', '.join(bad)}: expected a number, got true or false")
         return data

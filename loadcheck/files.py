@@ -73,8 +73,9 @@ def open_regular(path: str | Path, *, limit: int = MAX_FILE_BYTES) -> BinaryIO:
     try:
         info = os.stat(path)
         _require_regular(info.st_mode, path)
-        handle = os.open(path, os.O_RDONLY | getattr(os, "O_NONBLOCK", 0) | getattr(os, "O_NOCTTY", 0)
-                         | getattr(os, "O_BINARY", 0))
+        handle = os.open(
+            path, os.O_RDONLY | getattr(os, "O_NONBLOCK", 0) | getattr(os, "O_NOCTTY", 0) | getattr(os, "O_BINARY", 0)
+        )
         try:
             info = os.fstat(handle)
             _require_regular(info.st_mode, path)
@@ -97,8 +98,17 @@ def _require_regular(mode: int, path: Path) -> None:
     if stat.S_ISDIR(mode):
         raise FileFormatError("is a folder, not a file", file=path)
     if not stat.S_ISREG(mode):
-        kind = ("a character device" if stat.S_ISCHR(mode) else "a block device" if stat.S_ISBLK(mode)
-                else "a FIFO (named pipe)" if stat.S_ISFIFO(mode) else "a socket" if stat.S_ISSOCK(mode) else "not a file")
+        kind = (
+            "a character device"
+            if stat.S_ISCHR(mode)
+            else "a block device"
+            if stat.S_ISBLK(mode)
+            else "a FIFO (named pipe)"
+            if stat.S_ISFIFO(mode)
+            else "a socket"
+            if stat.S_ISSOCK(mode)
+            else "not a file"
+        )
         raise FileFormatError(f"is {kind}, not an ordinary file; loadcheck reads only ordinary files", file=path)
 
 
@@ -108,8 +118,12 @@ def encoding_problem(head: bytes) -> str | None:
     Recognises UTF-16 and UTF-32 (by their byte-order mark, or by the zero bytes every
     other byte of UTF-16 text holds) and binary data (a zero byte).
     """
-    for mark, name in ((b"\xff\xfe\x00\x00", "UTF-32"), (b"\x00\x00\xfe\xff", "UTF-32"),
-                       (b"\xff\xfe", "UTF-16"), (b"\xfe\xff", "UTF-16")):
+    for mark, name in (
+        (b"\xff\xfe\x00\x00", "UTF-32"),
+        (b"\x00\x00\xfe\xff", "UTF-32"),
+        (b"\xff\xfe", "UTF-16"),
+        (b"\xfe\xff", "UTF-16"),
+    ):
         if head.startswith(mark):
             return f"this is {name} text; loadcheck reads UTF-8: save the file as UTF-8"
     sample = head[:4096]
@@ -181,11 +195,14 @@ def parse_toml(text: str, path: str | Path) -> dict[str, Any]:
     except tomllib.TOMLDecodeError as error:
         raise FileFormatError(f"TOML syntax error: {error}", file=path) from None
     except RecursionError:
-        raise FileFormatError(f"tables or arrays nested too deeply (loadcheck's files nest at most {MAX_NESTING} "
-                              "levels)", file=path) from None
+        raise FileFormatError(
+            f"tables or arrays nested too deeply (loadcheck's files nest at most {MAX_NESTING} levels)", file=path
+        ) from None
     if _depth(data) > MAX_NESTING:
-        raise FileFormatError(f"tables or arrays nested more than {MAX_NESTING} levels deep; loadcheck's files nest "
-                              "a few levels", file=path)
+        raise FileFormatError(
+            f"tables or arrays nested more than {MAX_NESTING} levels deep; loadcheck's files nest a few levels",
+            file=path,
+        )
     return data
 
 
@@ -367,10 +384,22 @@ def load_check_inputs(
     data = read_toml(aircraft_path)
     if loading_path is not None and file_kind(data) == "loading":
         second = file_kind(read_toml(loading_path))
-        what = "an aircraft file" if second == "aircraft" else f"a {second} file" if second != "unknown" else "not an aircraft file"
-        raise InputError(Problem("", f"the first file is a loading file and the second ({loading_path}) is {what}: "
-                                 "the aircraft file comes first (check AIRCRAFT LOADING)"
-                                 + ("; the two are swapped" if second == "aircraft" else "")), file=aircraft_path)
+        what = (
+            "an aircraft file"
+            if second == "aircraft"
+            else f"a {second} file"
+            if second != "unknown"
+            else "not an aircraft file"
+        )
+        raise InputError(
+            Problem(
+                "",
+                f"the first file is a loading file and the second ({loading_path}) is {what}: "
+                "the aircraft file comes first (check AIRCRAFT LOADING)"
+                + ("; the two are swapped" if second == "aircraft" else ""),
+            ),
+            file=aircraft_path,
+        )
     if loading_path is None and file_kind(data) == "loading":
         loading_path = aircraft_path
         loading, named = load_loading(loading_path, **overrides)
@@ -381,9 +410,14 @@ def load_check_inputs(
         if named is not None and named.resolve() != Path(aircraft_path).resolve():
             notes.append(f"the loading names {named}, but {aircraft_path} was given and is used")
     try:
-        trip = resolve_trip(loading, aircraft, category=overrides.get("category")) if allow_trip and loading.leg else None
-        resolved = trip.legs[0] if trip is not None else resolve_loading(
-            loading, aircraft, category=overrides.get("category"), fuel_to_plan=fuel_to_plan)
+        trip = (
+            resolve_trip(loading, aircraft, category=overrides.get("category")) if allow_trip and loading.leg else None
+        )
+        resolved = (
+            trip.legs[0]
+            if trip is not None
+            else resolve_loading(loading, aircraft, category=overrides.get("category"), fuel_to_plan=fuel_to_plan)
+        )
     except LoadcheckError as error:
         raise error.with_file(loading_path if loading_path is not None else "command line") from None
     label = loading.label or (Path(loading_path).stem if loading_path is not None else None)
@@ -408,8 +442,9 @@ def _named_aircraft(named: Path | None, loading_path: str | Path) -> Aircraft:
         named_data = read_toml(named)
     except LoadcheckError as error:
         reason = "; ".join(p.describe() for p in error.problems)
-        raise InputError(Problem("aircraft", f"names {named}, which cannot be read: {reason}"),
-                         file=loading_path) from None
+        raise InputError(
+            Problem("aircraft", f"names {named}, which cannot be read: {reason}"), file=loading_path
+        ) from None
     if file_kind(named_data) != "aircraft":
         raise InputError(Problem("aircraft", f"names {named}, which is not an aircraft file"), file=loading_path)
     return parse_aircraft(named_data, named)
@@ -461,8 +496,9 @@ def _validate_loading(path: str | Path, data: Mapping[str, Any]) -> str:
         if error.file == str(path):  # already said of this loading (the file is missing, not an aircraft)
             raise InputError([*problems, *error.problems], file=path) from None
         lines = "; ".join(error.lines())
-        raise InputError([*problems, Problem("aircraft", f"names {named}, which does not validate: {lines}")],
-                         file=path) from None
+        raise InputError(
+            [*problems, Problem("aircraft", f"names {named}, which does not validate: {lines}")], file=path
+        ) from None
     try:
         resolve_trip(loading, aircraft)
     except LoadcheckError as error:
@@ -491,7 +527,8 @@ def validate_file(path: str | Path) -> str:
         from .words import count
 
         summary = (
-            f"aircraft {aircraft.name!r}, {count(len(aircraft.station), 'station')}, {count(len(aircraft.tank), 'tank')}, "
+            f"aircraft {aircraft.name!r}, {count(len(aircraft.station), 'station')}, "
+            f"{count(len(aircraft.tank), 'tank')}, "
             f"categories {', '.join(aircraft.categories)}"
         )
         cg_range = aircraft.empty.cg_range
@@ -511,8 +548,11 @@ def validate_file(path: str | Path) -> str:
         aircraft = load_aircraft(Path(path).parent / str(named))
         (load_readings if kind == "readings" else load_changes)(path, aircraft)
         return f"{kind} for {aircraft.name!r}"
-    raise InputError("cannot tell what this file is: no [units]/[empty]/[[envelope]] (aircraft), no [load]/[fuel]/[burn] "
-                     "(loading), no [[point]] (readings) and no [[change]] (changes)", file=path)
+    raise InputError(
+        "cannot tell what this file is: no [units]/[empty]/[[envelope]] (aircraft), no [load]/[fuel]/[burn] "
+        "(loading), no [[point]] (readings) and no [[change]] (changes)",
+        file=path,
+    )
 
 
 def file_kind(data: Mapping[str, Any]) -> str:
@@ -598,7 +638,9 @@ def write_atomic(path: str | Path, content: str | bytes) -> None:
             os.unlink(temporary)
         except OSError:
             pass
-        raise FileFormatError(f"could not write the file, it is unchanged: {error.strerror or error}", file=given) from None
+        raise FileFormatError(
+            f"could not write the file, it is unchanged: {error.strerror or error}", file=given
+        ) from None
 
 
 # -- the mechanic's files ------------------------------------------------------------------
@@ -732,8 +774,9 @@ def write_new_record(
     entry.update(_plain({"by": by, "note": note}))
     if overrides:
         entry["overrides"] = list(overrides)
-    entry.update({"new_weight": round(weight, 4), "new_arm": round(arm, 4), "previous": previous,
-                  "inputs": _plain(dict(inputs))})
+    entry.update(
+        {"new_weight": round(weight, 4), "new_arm": round(arm, 4), "previous": previous, "inputs": _plain(dict(inputs))}
+    )
     empty = doc["empty"]
     _set_value(empty, "weight", round(weight, 4))
     _set_value(empty, "arm", round(arm, 4))
@@ -747,21 +790,31 @@ def write_new_record(
     text = tomlkit.dumps(doc)
     size = len(text.encode("utf-8"))
     if size > MAX_FILE_BYTES:
-        raise FileFormatError(f"the new file would be {size:,} bytes, more than loadcheck reads ({MAX_FILE_BYTES:,}); "
-                              "nothing was written (move old [[history]] entries to an archive file)", file=path)
+        raise FileFormatError(
+            f"the new file would be {size:,} bytes, more than loadcheck reads ({MAX_FILE_BYTES:,}); "
+            "nothing was written (move old [[history]] entries to an archive file)",
+            file=path,
+        )
     try:
         parse_aircraft(tomllib.loads(text), path)  # fail closed: never write a file we could not read back
     except tomllib.TOMLDecodeError as error:
-        raise FileFormatError(f"the updated file would not be valid TOML ({error}); nothing was written", file=path) from None
+        raise FileFormatError(
+            f"the updated file would not be valid TOML ({error}); nothing was written", file=path
+        ) from None
     except LoadcheckError as error:
         reason_text = "; ".join(p.describe() for p in error.problems)
-        raise FileFormatError(f"the updated file would not be a valid aircraft file ({reason_text}); nothing was written",
-                              file=path) from None
+        raise FileFormatError(
+            f"the updated file would not be a valid aircraft file ({reason_text}); nothing was written", file=path
+        ) from None
     try:
         current = target.read_bytes()
     except OSError as error:
-        raise FileFormatError(f"cannot read the file again before writing: {error.strerror or error}", file=path) from None
+        raise FileFormatError(
+            f"cannot read the file again before writing: {error.strerror or error}", file=path
+        ) from None
     if current.decode("utf-8-sig", errors="replace").encode("utf-8") != original:
-        raise FileFormatError("the file changed since it was read; nothing was written (run the command again)", file=path)
+        raise FileFormatError(
+            "the file changed since it was read; nothing was written (run the command again)", file=path
+        )
     write_atomic(path, text)
     return target

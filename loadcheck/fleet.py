@@ -112,7 +112,9 @@ class Fleet:
         entry = next((e for e in self.entries if e.registration == registration), None)
         if entry is None:
             known = ", ".join(sorted(e.registration for e in self.entries if e.registration)) or "none"
-            raise InputError(Problem("registration", f"unknown registration {registration!r}", expected="one of " + known))
+            raise InputError(
+                Problem("registration", f"unknown registration {registration!r}", expected="one of " + known)
+            )
         if entry.aircraft is None:
             raise InputError(Problem("registration", f"the file of {registration!r} ({entry.path}) does not validate"))
         return entry.aircraft
@@ -137,8 +139,10 @@ def load_fleet(folder: str | Path) -> Fleet:
     """
     folder = Path(folder)
     if folder.is_file():
-        raise FileFormatError("is a file, not a folder of aircraft files (the fleet folder comes first: "
-                              "fleet check FOLDER LOADINGS)", file=folder)
+        raise FileFormatError(
+            "is a file, not a folder of aircraft files (the fleet folder comes first: fleet check FOLDER LOADINGS)",
+            file=folder,
+        )
     if not folder.is_dir():
         raise FileFormatError("not a folder of aircraft files", file=folder)
     entries = []
@@ -251,8 +255,10 @@ def _scattered_trips(path: Path, trip_at: int) -> dict[str, list[int]]:
     starts: dict[str, int] = {}
     scattered: dict[str, list[int]] = {}
     current: str | None = None
-    with open_regular(path, limit=MAX_CSV_BYTES) as raw, \
-            io.TextIOWrapper(raw, encoding="utf-8-sig", errors="replace", newline="") as text:
+    with (
+        open_regular(path, limit=MAX_CSV_BYTES) as raw,
+        io.TextIOWrapper(raw, encoding="utf-8-sig", errors="replace", newline="") as text,
+    ):
         reader = csv.reader(text)
         try:
             next(reader, None)
@@ -271,7 +277,9 @@ def _scattered_trips(path: Path, trip_at: int) -> dict[str, list[int]]:
     return scattered
 
 
-def _read_header(path: Path, header: list[str], fleet: Fleet) -> tuple[list[tuple[str, str | None]], list[str], set[str]]:
+def _read_header(
+    path: Path, header: list[str], fleet: Fleet
+) -> tuple[list[tuple[str, str | None]], list[str], set[str]]:
     columns = [_split_header(h) for h in header]
     names = [c[0] for c in columns]
     if not names or all(not n for n in names):
@@ -280,8 +288,11 @@ def _read_header(path: Path, header: list[str], fleet: Fleet) -> tuple[list[tupl
         line = ",".join(header)
         for separator, word in ((";", "semicolons"), ("\t", "tabs"), ("|", "bars")):
             if separator in line and "registration" in [n.strip() for n in line.split(separator)]:
-                raise FileFormatError(f"the file is separated by {word}, not by commas: save it as comma-separated "
-                                      "CSV (a decimal comma is not read either: write 170.5)", file=path)
+                raise FileFormatError(
+                    f"the file is separated by {word}, not by commas: save it as comma-separated "
+                    "CSV (a decimal comma is not read either: write 170.5)",
+                    file=path,
+                )
         raise FileFormatError("the CSV header has no 'registration' column", file=path)
     repeated = sorted({n for n in names if names.count(n) > 1})
     if repeated:
@@ -289,19 +300,37 @@ def _read_header(path: Path, header: list[str], fleet: Fleet) -> tuple[list[tupl
     known = fleet.station_and_tank_ids
     for column, what in ((TRIP_COLUMN, "the trip id"), (LEG_COLUMN, "the leg number of a trip")):
         if column in names and column in known:
-            raise FileFormatError(f"the column {column!r} could be {what} or a station or tank of that name in a "
-                                  "fleet aircraft: rename that station or tank", file=path)
+            raise FileFormatError(
+                f"the column {column!r} could be {what} or a station or tank of that name in a "
+                "fleet aircraft: rename that station or tank",
+                file=path,
+            )
     if LEG_COLUMN in names and TRIP_COLUMN not in names:
-        raise FileFormatError(f"the column {LEG_COLUMN!r} numbers the legs of a trip, but the header has no "
-                              f"{TRIP_COLUMN!r} column saying which trip each row belongs to", file=path)
-    unknown = [n for n in names if n and n not in RESERVED_COLUMNS and n not in known and n not in (TRIP_COLUMN, LEG_COLUMN)]
-    file_problems = [f"{path}: unknown column {name!r}: not a station or tank of any fleet aircraft, nor one of "
-                     f"{', '.join(RESERVED_COLUMNS)}; rows with a value in it are refused" for name in unknown]
+        raise FileFormatError(
+            f"the column {LEG_COLUMN!r} numbers the legs of a trip, but the header has no "
+            f"{TRIP_COLUMN!r} column saying which trip each row belongs to",
+            file=path,
+        )
+    unknown = [
+        n for n in names if n and n not in RESERVED_COLUMNS and n not in known and n not in (TRIP_COLUMN, LEG_COLUMN)
+    ]
+    file_problems = [
+        f"{path}: unknown column {name!r}: not a station or tank of any fleet aircraft, nor one of "
+        f"{', '.join(RESERVED_COLUMNS)}; rows with a value in it are refused"
+        for name in unknown
+    ]
     return columns, file_problems, set(unknown)
 
 
-def _stream_rows(path: Path, text: io.TextIOWrapper, reader: Any, columns: list[tuple[str, str | None]], fleet: Fleet,
-                 unknown: set[str], scattered: dict[str, list[int]]) -> Iterator[FlightRow]:
+def _stream_rows(
+    path: Path,
+    text: io.TextIOWrapper,
+    reader: Any,
+    columns: list[tuple[str, str | None]],
+    fleet: Fleet,
+    unknown: set[str],
+    scattered: dict[str, list[int]],
+) -> Iterator[FlightRow]:
     count = 0
     pending: list[_RawRow] = []
     try:
@@ -348,7 +377,8 @@ def _lines_text(lines: Iterable[int]) -> str:
     """``lines 2, 3 and 7`` (the rows named in a message)."""
     shown = [str(line) for line in lines]
     return ("line " if len(shown) == 1 else "lines ") + (
-        shown[0] if len(shown) == 1 else ", ".join(shown[:-1]) + " and " + shown[-1])
+        shown[0] if len(shown) == 1 else ", ".join(shown[:-1]) + " and " + shown[-1]
+    )
 
 
 def _trip_problems(rows: list[_RawRow], scattered: dict[str, list[int]]) -> list[str]:
@@ -359,23 +389,33 @@ def _trip_problems(rows: list[_RawRow], scattered: dict[str, list[int]]) -> list
     trip = first.trip
     problems = []
     if trip in scattered:
-        problems.append(f"{first.source}: trip {trip!r} is given in parts, with other flights between them (parts "
-                        f"beginning at {_lines_text(scattered[trip])}): the rows of one trip come one after another")
+        problems.append(
+            f"{first.source}: trip {trip!r} is given in parts, with other flights between them (parts "
+            f"beginning at {_lines_text(scattered[trip])}): the rows of one trip come one after another"
+        )
     for row in rows[1:]:
         if row.registration is not None and first.registration is not None and row.registration != first.registration:
-            problems.append(f"{row.where}: registration {row.registration!r} differs from the first row of trip "
-                            f"{trip!r} ({first.registration!r} at line {first.line}): a trip is flown by one aircraft")
+            problems.append(
+                f"{row.where}: registration {row.registration!r} differs from the first row of trip "
+                f"{trip!r} ({first.registration!r} at line {first.line}): a trip is flown by one aircraft"
+            )
     if any(row.leg is not None for row in rows):
         for expected, row in enumerate(rows, start=1):
             if row.leg is None:
-                problems.append(f"{row.where}: no {LEG_COLUMN} number, where other rows of trip {trip!r} give one: "
-                                "number every leg of a trip or none")
+                problems.append(
+                    f"{row.where}: no {LEG_COLUMN} number, where other rows of trip {trip!r} give one: "
+                    "number every leg of a trip or none"
+                )
             elif row.leg != expected and expected == 1:
-                problems.append(f"{row.where}: leg {row.leg} of trip {trip!r}, but no leg 1 of that trip comes before "
-                                "it: the first row of a trip is its leg 1")
+                problems.append(
+                    f"{row.where}: leg {row.leg} of trip {trip!r}, but no leg 1 of that trip comes before "
+                    "it: the first row of a trip is its leg 1"
+                )
             elif row.leg != expected:
-                problems.append(f"{row.where}: leg {row.leg} of trip {trip!r} where leg {expected} comes next: a leg is "
-                                "missing, repeated or out of order")
+                problems.append(
+                    f"{row.where}: leg {row.leg} of trip {trip!r} where leg {expected} comes next: a leg is "
+                    "missing, repeated or out of order"
+                )
     return problems
 
 
@@ -389,18 +429,25 @@ def _joined(rows: list[_RawRow], scattered: dict[str, list[int]] | None = None) 
     if first.trip is not None:
         problems += _trip_problems(rows, scattered or {})
         if problems:
-            problems.append(f"{first.source}: trip {first.trip!r} ({_lines_text(r.line for r in rows)}) is not checked: "
-                            "none of its legs is")
+            problems.append(
+                f"{first.source}: trip {first.trip!r} ({_lines_text(r.line for r in rows)}) is not checked: "
+                "none of its legs is"
+            )
     data = first.data
     if len(rows) > 1:
         legs = []
         for row in rows[1:]:
-            for name, value in (("reference", row.reference), ("pilot", row.pilot),
-                                ("category", row.data.get("category"))):
+            for name, value in (
+                ("reference", row.reference),
+                ("pilot", row.pilot),
+                ("category", row.data.get("category")),
+            ):
                 given = first.data.get(name) if name == "category" else getattr(first, name)
                 if value is not None and value != given:
-                    problems.append(f"{row.where}: {name} {value!r} differs from the trip's first row ({given!r}): "
-                                    "a trip is one flight record; leave it empty on later rows or give the same")
+                    problems.append(
+                        f"{row.where}: {name} {value!r} differs from the trip's first row ({given!r}): "
+                        "a trip is one flight record; leave it empty on later rows or give the same"
+                    )
             leg = {"load": row.data["load"], "add_fuel": row.data["fuel"], "burn": row.data["burn"]}
             legs.append(leg | ({"label": row.data["label"]} if "label" in row.data else {}))
         data = data | {"leg": legs}
@@ -410,17 +457,29 @@ def _joined(rows: list[_RawRow], scattered: dict[str, list[int]] | None = None) 
             loading = parse_loading(data, first.where)
         except LoadcheckError as error:
             problems += error.lines()
-    return FlightRow(first.line, first.source, first.registration, first.reference, first.pilot, loading, problems,
-                    first.trip, tuple(row.line for row in rows) if first.trip is not None else ())
+    return FlightRow(
+        first.line,
+        first.source,
+        first.registration,
+        first.reference,
+        first.pilot,
+        loading,
+        problems,
+        first.trip,
+        tuple(row.line for row in rows) if first.trip is not None else (),
+    )
 
 
-def _csv_cells(path: Path, line: int, columns: list[tuple[str, str | None]], record: list[str], fleet: Fleet,
-               unknown: set[str]) -> _RawRow:
+def _csv_cells(
+    path: Path, line: int, columns: list[tuple[str, str | None]], record: list[str], fleet: Fleet, unknown: set[str]
+) -> _RawRow:
     where = f"{path}:{line}"
     problems: list[str] = []
     if len(record) != len(columns):
         problems.append(f"{where}: {len(record)} cells where the header has {len(columns)} columns")
-    cells = {name: (cell.strip(), unit) for (name, unit), cell in zip(columns, record, strict=False)}  # a row of other length: said above
+    cells = {
+        name: (cell.strip(), unit) for (name, unit), cell in zip(columns, record, strict=False)
+    }  # a row of other length: said above
     registration = cells.get("registration", ("", None))[0] or None
     reference = cells.get("reference", ("", None))[0] or None
     pilot = cells.get("pilot", ("", None))[0] or None
@@ -440,8 +499,10 @@ def _csv_cells(path: Path, line: int, columns: list[tuple[str, str | None]], rec
         if not re.fullmatch(r"[0-9]+", leg_text) or int(leg_text) < 1:
             problems.append(f"{where}: {LEG_COLUMN} {leg_text!r} is not a leg number (1, 2, 3, ...)")
         elif trip is None:
-            problems.append(f"{where}: leg {leg_text} of no trip: the {TRIP_COLUMN} cell is empty, so it is not known "
-                            "which trip this row is a leg of")
+            problems.append(
+                f"{where}: leg {leg_text} of no trip: the {TRIP_COLUMN} cell is empty, so it is not known "
+                "which trip this row is a leg of"
+            )
         else:
             leg = int(leg_text)
     for name, (value, unit) in cells.items():
@@ -453,7 +514,9 @@ def _csv_cells(path: Path, line: int, columns: list[tuple[str, str | None]], rec
         elif name in ("category", "label"):
             data[name] = value
         elif name == "order":
-            data["burn"]["order"] = "together" if value == "together" else [t.strip() for t in re.split(r"[;|/ ]+", value) if t.strip()]
+            data["burn"]["order"] = (
+                "together" if value == "together" else [t.strip() for t in re.split(r"[;|/ ]+", value) if t.strip()]
+            )
         elif name in RESERVED_COLUMNS:
             data["burn"][name] = text
         elif aircraft is not None:
@@ -462,8 +525,10 @@ def _csv_cells(path: Path, line: int, columns: list[tuple[str, str | None]], rec
             elif name in aircraft.tank_by_id:
                 data["fuel"][name] = text
             else:
-                problems.append(f"{where}: column {name!r} is not a station or tank of {registration} "
-                                f"(its stations: {', '.join(aircraft.station_by_id)}; tanks: {', '.join(aircraft.tank_by_id)})")
+                problems.append(
+                    f"{where}: column {name!r} is not a station or tank of {registration} "
+                    f"(its stations: {', '.join(aircraft.station_by_id)}; tanks: {', '.join(aircraft.tank_by_id)})"
+                )
     return _RawRow(where, line, str(path), registration, reference, pilot, trip, data, problems, leg)
 
 
@@ -484,8 +549,15 @@ def _folder_rows(folder: Path) -> Iterator[FlightRow]:
                 continue
             loading = parse_loading(data, path)
             registration, reference, pilot = loading.registration, loading.reference or path.stem, loading.pilot
-            row = FlightRow(index, str(path), registration, reference, pilot, loading,
-                           [] if registration else [f"{path}: a fleet loading file names its aircraft by registration = ..."])
+            row = FlightRow(
+                index,
+                str(path),
+                registration,
+                reference,
+                pilot,
+                loading,
+                [] if registration else [f"{path}: a fleet loading file names its aircraft by registration = ..."],
+            )
         except LoadcheckError as error:
             row = FlightRow(index, str(path), None, path.stem, None, None, error.lines())
         count += 1
@@ -550,21 +622,37 @@ class Flight:
         """This flight with only what a one-line summary shows (verdict, units, each condition's
         weight and CG, each finding's code, severity and words; for a trip, those of each leg),
         for holding many flights at once."""
-        row = FlightRow(self.row.line, self.row.source, self.row.registration, self.row.reference, self.row.pilot, None,
-                       self.row.problems, self.row.trip, self.row.lines)
+        row = FlightRow(
+            self.row.line,
+            self.row.source,
+            self.row.registration,
+            self.row.reference,
+            self.row.pilot,
+            None,
+            self.row.problems,
+            self.row.trip,
+            self.row.lines,
+        )
         result = None
         if self.result is not None:
             result = _brief(self.result)
             if self.is_trip:
-                result["legs"] = [_brief(leg) | {"leg": leg["leg"], "label": leg.get("label")} for leg in self.result["legs"]]
+                result["legs"] = [
+                    _brief(leg) | {"leg": leg["leg"], "label": leg.get("label")} for leg in self.result["legs"]
+                ]
                 del result["conditions"]
         return Flight(row, result, self.problems, self.record_id)
 
     def to_dict(self) -> dict[str, Any]:
         """The JSON Lines object: the fields of ``check --json`` (of a trip: ``legs`` and the trip's
         ``ok``) and where the flight came from (a trip's ``trip_id`` and the ``lines`` of its legs)."""
-        head: dict[str, Any] = {"line": self.row.line, "source": self.row.source, "registration": self.row.registration,
-                                "reference": self.row.reference, "pilot": self.row.pilot}
+        head: dict[str, Any] = {
+            "line": self.row.line,
+            "source": self.row.source,
+            "registration": self.row.registration,
+            "reference": self.row.reference,
+            "pilot": self.row.pilot,
+        }
         if self.row.trip is not None:
             head |= {"trip_id": self.row.trip, "lines": list(self.row.lines)}
         if self.result is None:
@@ -577,9 +665,13 @@ class Flight:
 
 def _brief(result: dict[str, Any]) -> dict[str, Any]:
     """What a one-line summary shows of a check's JSON form (see :meth:`Flight.brief`)."""
-    return {"ok": result["ok"], "category": result.get("category"), "units": result["units"],
-            "conditions": [{k: c[k] for k in ("condition", "weight", "arm")} for c in result.get("conditions", ())],
-            "findings": [{k: f[k] for k in ("code", "severity", "message", "leg") if k in f} for f in result["findings"]]}
+    return {
+        "ok": result["ok"],
+        "category": result.get("category"),
+        "units": result["units"],
+        "conditions": [{k: c[k] for k in ("condition", "weight", "arm")} for c in result.get("conditions", ())],
+        "findings": [{k: f[k] for k in ("code", "severity", "message", "leg") if k in f} for f in result["findings"]],
+    }
 
 
 CHUNK = 256
@@ -692,8 +784,12 @@ def _checked(chunks: Iterator[list[FlightRow]], workers: int) -> Iterator[tuple[
         return
     from concurrent.futures import ProcessPoolExecutor
 
-    pool = ProcessPoolExecutor(max_workers=workers, mp_context=multiprocessing.get_context("fork"),
-                               initializer=_end_with_parent, initargs=(os.getpid(),))
+    pool = ProcessPoolExecutor(
+        max_workers=workers,
+        mp_context=multiprocessing.get_context("fork"),
+        initializer=_end_with_parent,
+        initargs=(os.getpid(),),
+    )
     try:
         pending: deque[tuple[list[FlightRow], Any]] = deque()
         for chunk in itertools.chain((first, second), chunks):
@@ -731,13 +827,22 @@ def check_flights(
                     if result is None or row.loading is None or row.registration is None:
                         continue
                     aircraft = fleet.aircraft(row.registration)
-                    entries.append((index, {
-                        "aircraft_data": (lambda a=aircraft: a.model_dump(mode="json")),
-                        "fingerprint": aircraft.fingerprint,
-                        "inputs": row.loading.model_dump(mode="json", exclude_none=True), "result": result,
-                        "registration": row.registration, "reference": row.reference, "pilot": row.pilot,
-                        "source": f"{row.source}:{','.join(map(str, row.lines or (row.line,)))}", "version": version,
-                    }))
+                    entries.append(
+                        (
+                            index,
+                            {
+                                "aircraft_data": (lambda a=aircraft: a.model_dump(mode="json")),
+                                "fingerprint": aircraft.fingerprint,
+                                "inputs": row.loading.model_dump(mode="json", exclude_none=True),
+                                "result": result,
+                                "registration": row.registration,
+                                "reference": row.reference,
+                                "pilot": row.pilot,
+                                "source": f"{row.source}:{','.join(map(str, row.lines or (row.line,)))}",
+                                "version": version,
+                            },
+                        )
+                    )
                 for (index, _), record_id in zip(entries, log.add_many([e for _, e in entries]), strict=True):
                     ids[index] = record_id
             for row, (result, problems), record_id in zip(chunk, results, ids, strict=True):
@@ -788,12 +893,18 @@ def fleet_listing(fleet: Fleet, max_age_days: int, today: dt.date | None = None)
             flags.append("the empty-weight record is not dated")
         elif age is not None and age > max_age_days:
             flags.append(f"empty-weight record is {age} days old (more than {max_age_days})")
-        lines.append(AircraftSummary(
-            file=str(entry.path), registration=entry.registration, name=a.name if a else None,
-            empty_weight=a.empty.weight if a else None,
-            record_date=a.empty.date.isoformat() if a and a.empty.date else None,
-            useful_load=a.useful_load if a else None, fingerprint=a.fingerprint if a else None,
-            mass_unit=a.units.mass if a else None, problems=flags,
-            usable=a is not None and entry.registration not in duplicates,
-        ))
+        lines.append(
+            AircraftSummary(
+                file=str(entry.path),
+                registration=entry.registration,
+                name=a.name if a else None,
+                empty_weight=a.empty.weight if a else None,
+                record_date=a.empty.date.isoformat() if a and a.empty.date else None,
+                useful_load=a.useful_load if a else None,
+                fingerprint=a.fingerprint if a else None,
+                mass_unit=a.units.mass if a else None,
+                problems=flags,
+                usable=a is not None and entry.registration not in duplicates,
+            )
+        )
     return lines

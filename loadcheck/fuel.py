@@ -19,8 +19,14 @@ from typing import Literal
 
 from .units import convert
 
-__all__ = ["DENSITY_RANGE_KG_PER_L", "FUEL_DENSITY_LB_PER_USGAL", "FuelGrade", "default_density", "density_problem",
-           "density_range"]
+__all__ = [
+    "DENSITY_RANGE_KG_PER_L",
+    "FUEL_DENSITY_LB_PER_USGAL",
+    "FuelGrade",
+    "default_density",
+    "density_problem",
+    "density_range",
+]
 
 FuelGrade = Literal["avgas", "mogas", "jet"]
 
@@ -75,14 +81,23 @@ def density_problem(value: float, mass_unit: str, volume_unit: str) -> str | Non
     if low <= value <= high:
         return None
     hints = []
-    for mass, volume in (("kg", "l"), ("lb", "usgal"), ("lb", "impgal"), ("kg", "usgal"), ("kg", "impgal"), ("lb", "l")):
+    for mass, volume in (
+        ("kg", "l"),
+        ("lb", "usgal"),
+        ("lb", "impgal"),
+        ("kg", "usgal"),
+        ("kg", "impgal"),
+        ("lb", "l"),
+    ):
         if (mass, volume) != (mass_unit, volume_unit):
             other_low, other_high = density_range(mass, volume)
             if other_low <= value <= other_high:
                 hints.append(f"{mass}/{volume}")
     hint = f"; was it written in {' or '.join(hints)}?" if hints else ""
-    return (f"{value:g} {mass_unit}/{volume_unit} is not the density of an aviation fuel "
-            f"(expected {low:.2f} to {high:.2f} {mass_unit}/{volume_unit}{hint})")
+    return (
+        f"{value:g} {mass_unit}/{volume_unit} is not the density of an aviation fuel "
+        f"(expected {low:.2f} to {high:.2f} {mass_unit}/{volume_unit}{hint})"
+    )
 
 
 def default_density(grade: str, mass_unit: str, volume_unit: str) -> float:
@@ -109,10 +124,23 @@ def default_density(grade: str, mass_unit: str, volume_unit: str) -> float:
 
 
 _SPELLINGS = {
-    "avgas": "avgas", "100ll": "avgas", "avgas 100ll": "avgas", "avgas100ll": "avgas", "100/130": "avgas",
+    "avgas": "avgas",
+    "100ll": "avgas",
+    "avgas 100ll": "avgas",
+    "avgas100ll": "avgas",
+    "100/130": "avgas",
     "mogas": "mogas",
-    "jet": "jet", "jet-a": "jet", "jet a": "jet", "jet_a": "jet", "jeta": "jet",
-    "jet-a1": "jet", "jet a-1": "jet", "jet a1": "jet", "jet-a-1": "jet", "jet_a1": "jet", "jeta1": "jet",
+    "jet": "jet",
+    "jet-a": "jet",
+    "jet a": "jet",
+    "jet_a": "jet",
+    "jeta": "jet",
+    "jet-a1": "jet",
+    "jet a-1": "jet",
+    "jet a1": "jet",
+    "jet-a-1": "jet",
+    "jet_a1": "jet",
+    "jeta1": "jet",
 }
 
 

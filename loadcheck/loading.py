@@ -169,21 +169,23 @@ class Leg(_Model):
     load: dict[str, MassAmount] = Field(
         default_factory=dict,
         description="new weight at each station whose weight changes at the stop; 0 when a person or bag gets off "
-                    "[mass unit]; stations not named keep their weight",
+        "[mass unit]; stations not named keep their weight",
     )
     names: dict[str, PersonName] = Field(
         default_factory=dict,
         description="who is at each station from this leg on, where that changes: a person's name per station id "
-                    f"[text, at most {MAX_NAME_LENGTH} characters]; a station whose weight this leg changes loses "
-                    "its name unless named here, the others keep theirs",
+        f"[text, at most {MAX_NAME_LENGTH} characters]; a station whose weight this leg changes loses "
+        "its name unless named here, the others keep theirs",
     )
     add_fuel: dict[str, FuelStart] = Field(
         default_factory=dict,
         description="fuel put into each tank at the stop: a quantity added [fuel volume unit] or '120 lb', "
-                    "'full', or a level name (filled up to it); tanks not named get none",
+        "'full', or a level name (filled up to it); tanks not named get none",
     )
-    burn: Burn = Field(description="this leg's taxi, trip (or trip_time and rate) and reserve; the burn order "
-                                   "is the previous leg's unless given")
+    burn: Burn = Field(
+        description="this leg's taxi, trip (or trip_time and rate) and reserve; the burn order "
+        "is the previous leg's unless given"
+    )
 
 
 class Loading(_Model):
@@ -201,7 +203,7 @@ class Loading(_Model):
     names: dict[str, PersonName] = Field(
         default_factory=dict,
         description="optional: who is at each station, a person's name per station id (shown beside the seat on the "
-                    f"load sheet) [text, at most {MAX_NAME_LENGTH} characters]; only at a station with a weight in [load]",
+        f"load sheet) [text, at most {MAX_NAME_LENGTH} characters]; only at a station with a weight in [load]",
     )
     fuel: dict[str, FuelStart] = Field(
         default_factory=dict,
@@ -249,9 +251,14 @@ def apply_overrides(
             if index == len(tables):
                 tables.append({})
             elif not 0 <= index < len(tables):
-                raise InputError(Problem(f"--leg-* {number}", f"leg {number} skips leg {len(tables) + 2}: "
-                                         "describe every leg in order", value=number,
-                                         expected=f"a leg from 2 to {len(tables) + 2}"))
+                raise InputError(
+                    Problem(
+                        f"--leg-* {number}",
+                        f"leg {number} skips leg {len(tables) + 2}: describe every leg in order",
+                        value=number,
+                        expected=f"a leg from 2 to {len(tables) + 2}",
+                    )
+                )
             if isinstance(tables[index], dict):
                 tables[index] = {k: (dict(v) if isinstance(v, dict) else v) for k, v in tables[index].items()}
                 _lay_over(tables[index], legs[number])
@@ -311,11 +318,19 @@ def leg_assignments(option: str, values: Sequence[str]) -> dict[int, dict[str, d
             continue
         leg = int(number)
         if leg < 2:
-            problems.append(Problem(option, "legs given here are numbered from 2 (leg 1 is the loading itself: "
-                                    "use --load, --fuel and the burn options)", value=value))
+            problems.append(
+                Problem(
+                    option,
+                    "legs given here are numbered from 2 (leg 1 is the loading itself: "
+                    "use --load, --fuel and the burn options)",
+                    value=value,
+                )
+            )
             continue
         if table == "burn" and name not in _LEG_BURN_KEYS:
-            problems.append(Problem(option, f"unknown burn field {name!r}", value=value, expected=", ".join(_LEG_BURN_KEYS)))
+            problems.append(
+                Problem(option, f"unknown burn field {name!r}", value=value, expected=", ".join(_LEG_BURN_KEYS))
+            )
             continue
         entries = out.setdefault(leg, {}).setdefault(table, {})
         if name in entries:
@@ -447,8 +462,9 @@ class ResolvedLoading:
     names: dict[str, str] = field(default_factory=dict)
 
 
-def resolve_loading(loading: Loading, aircraft: Aircraft, *, category: str | None = None,
-                    fuel_to_plan: bool = False) -> ResolvedLoading:
+def resolve_loading(
+    loading: Loading, aircraft: Aircraft, *, category: str | None = None, fuel_to_plan: bool = False
+) -> ResolvedLoading:
     """Check a loading against an aircraft and convert it to the aircraft's units.
 
     Parameters
@@ -473,9 +489,14 @@ def resolve_loading(loading: Loading, aircraft: Aircraft, *, category: str | Non
         A loading with legs is refused: it is a trip (:func:`resolve_trip`).
     """
     if loading.leg:
-        raise InputError(Problem("leg", f"this loading is a trip of {len(loading.leg) + 1} legs; this job takes a "
-                                 "single loading and never checks a trip's first leg alone (a trip is checked leg by "
-                                 "leg: `check`, `plan fuel`, `plan stop`; loadcheck.trip)"))
+        raise InputError(
+            Problem(
+                "leg",
+                f"this loading is a trip of {len(loading.leg) + 1} legs; this job takes a "
+                "single loading and never checks a trip's first leg alone (a trip is checked leg by "
+                "leg: `check`, `plan fuel`, `plan stop`; loadcheck.trip)",
+            )
+        )
     units = aircraft.units
     problems: list[Problem] = []
     unknown: list[Problem] = []
@@ -489,7 +510,9 @@ def resolve_loading(loading: Loading, aircraft: Aircraft, *, category: str | Non
     stations: dict[str, float] = {}
     for name, amount in loading.load.items():
         if name not in aircraft.station_by_id:
-            unknown.append(Problem(f"load.{name}", f"unknown station {name!r}", expected=_known(aircraft.station_by_id)))
+            unknown.append(
+                Problem(f"load.{name}", f"unknown station {name!r}", expected=_known(aircraft.station_by_id))
+            )
             continue
         quantity = parse_quantity(amount)
         stations[name] = quantity.value if quantity.unit is None else convert(quantity.value, quantity.unit, units.mass)
@@ -497,10 +520,17 @@ def resolve_loading(loading: Loading, aircraft: Aircraft, *, category: str | Non
     names: dict[str, str] = {}
     for name, person in loading.names.items():
         if name not in aircraft.station_by_id:
-            unknown.append(Problem(f"names.{name}", f"unknown station {name!r}", expected=_known(aircraft.station_by_id)))
+            unknown.append(
+                Problem(f"names.{name}", f"unknown station {name!r}", expected=_known(aircraft.station_by_id))
+            )
         elif not stations.get(name, 0.0) > 0:  # a name without a weight: a person left out of the sums
-            problems.append(Problem(f"names.{name}", f"{person!r} is named at {name!r}, which carries no weight",
-                                    expected=f"a weight at load.{name}, or no name there"))
+            problems.append(
+                Problem(
+                    f"names.{name}",
+                    f"{person!r} is named at {name!r}, which carries no weight",
+                    expected=f"a weight at load.{name}, or no name there",
+                )
+            )
         else:
             names[name] = person
 
@@ -511,8 +541,13 @@ def resolve_loading(loading: Loading, aircraft: Aircraft, *, category: str | Non
     notes: list[str] = []
     if loading.registration and aircraft.registration:
         if _registration_key(loading.registration) != _registration_key(aircraft.registration):
-            problems.append(Problem("registration", f"this loading is for {loading.registration!r}, but the aircraft "
-                                    f"file is {aircraft.registration!r}: check the loading against its own aircraft"))
+            problems.append(
+                Problem(
+                    "registration",
+                    f"this loading is for {loading.registration!r}, but the aircraft "
+                    f"file is {aircraft.registration!r}: check the loading against its own aircraft",
+                )
+            )
     elif loading.registration:
         notes.append(f"the loading is for {loading.registration!r}; the aircraft file gives no registration to compare")
     density = {t.id: loading.fuel_density or aircraft.density(t) for t in aircraft.tank}
@@ -554,7 +589,11 @@ def resolve_loading(loading: Loading, aircraft: Aircraft, *, category: str | Non
     if isinstance(loading.burn.order, list):
         bad = [t for t in loading.burn.order if t not in aircraft.tank_by_id]
         if bad:
-            unknown.append(Problem("burn.order", f"unknown tank(s) {', '.join(map(repr, bad))}", expected=_known(aircraft.tank_by_id)))
+            unknown.append(
+                Problem(
+                    "burn.order", f"unknown tank(s) {', '.join(map(repr, bad))}", expected=_known(aircraft.tank_by_id)
+                )
+            )
         else:
             order = tuple(loading.burn.order)
             idle = [t for t in aircraft.tank_by_id if t not in order and fuel[t] > 0]
@@ -570,8 +609,9 @@ def resolve_loading(loading: Loading, aircraft: Aircraft, *, category: str | Non
     given = [(name, getattr(burn, name)) for name in ("taxi", "trip", "rate", "reserve")]
     masses = [name for name, amount in given if amount is not None and _is_mass(amount, name == "rate")]
     if masses and not aircraft.tank:
-        raise InputError([Problem(f"burn.{name}", "a fuel mass cannot be burned: the aircraft has no tanks")
-                          for name in masses])
+        raise InputError(
+            [Problem(f"burn.{name}", "a fuel mass cannot be burned: the aircraft has no tanks") for name in masses]
+        )
 
     def volume_of(amount: float | str | None, after: float = 0.0) -> float:
         """A fuel amount as the volume burned from ``after`` on [fuel volume unit]."""
@@ -617,19 +657,28 @@ def require_usable(loading: ResolvedLoading, aircraft: Aircraft, *, burn_covered
     for tank in aircraft.tank:
         quantity = loading.fuel.get(tank.id, 0.0)
         if not (0.0 <= quantity <= tank.usable * (1 + 1e-9)):
-            problems.append(Problem(f"fuel.{tank.id}", "outside 0 and the tank's usable capacity", value=quantity,
-                                    expected=f"0 to {tank.usable:g} {units.fuel_volume}"))
+            problems.append(
+                Problem(
+                    f"fuel.{tank.id}",
+                    "outside 0 and the tank's usable capacity",
+                    value=quantity,
+                    expected=f"0 to {tank.usable:g} {units.fuel_volume}",
+                )
+            )
     for station, weight in loading.stations.items():
         if not weight >= 0.0:
             problems.append(Problem(f"load.{station}", "must not be negative", value=weight))
     if not (loading.taxi >= 0 and loading.trip >= 0):
         problems.append(Problem("burn", "taxi and trip fuel must not be negative"))
     elif burn_covered and loading.taxi + loading.trip > loading.plan.burnable * (1 + 1e-9):
-        problems.append(Problem(
-            "burn",
-            f"taxi and trip fuel ({loading.taxi + loading.trip:g} {units.fuel_volume}) exceed the fuel the burn order can use",
-            expected=f"at most {loading.plan.burnable:g} {units.fuel_volume}",
-        ))
+        problems.append(
+            Problem(
+                "burn",
+                f"taxi and trip fuel ({loading.taxi + loading.trip:g} {units.fuel_volume}) exceed the fuel "
+                "the burn order can use",
+                expected=f"at most {loading.plan.burnable:g} {units.fuel_volume}",
+            )
+        )
     if problems:
         raise InputError(problems)
 
@@ -729,32 +778,57 @@ def resolve_trip(loading: Loading, aircraft: Aircraft, *, category: str | None =
         problems: list[Problem] = []
         for tank in aircraft.tank:
             if tank.id in stop.to and on_board[tank.id] > stop.to[tank.id] * (1 + 1e-9):
-                problems.append(Problem(f"{where}.add_fuel.{tank.id}", f"the tank holds {on_board[tank.id]:g} "
-                                        f"{units.fuel_volume} at the landing of leg {number - 1}, more than the level",
-                                        value=leg.add_fuel[tank.id], expected=f"a level of at least {on_board[tank.id]:g}"))
+                problems.append(
+                    Problem(
+                        f"{where}.add_fuel.{tank.id}",
+                        f"the tank holds {on_board[tank.id]:g} "
+                        f"{units.fuel_volume} at the landing of leg {number - 1}, more than the level",
+                        value=leg.add_fuel[tank.id],
+                        expected=f"a level of at least {on_board[tank.id]:g}",
+                    )
+                )
             elif fuel[tank.id] > tank.usable * (1 + 1e-9):
-                problems.append(Problem(f"{where}.add_fuel.{tank.id}", f"{on_board[tank.id]:g} {units.fuel_volume} on "
-                                        f"board at the landing of leg {number - 1} plus the fuel put in makes "
-                                        f"{fuel[tank.id]:g}, above the tank's usable capacity",
-                                        value=leg.add_fuel[tank.id], expected=f"at most {tank.usable - on_board[tank.id]:g} "
-                                        f"{units.fuel_volume} added, or 'full'"))
+                problems.append(
+                    Problem(
+                        f"{where}.add_fuel.{tank.id}",
+                        f"{on_board[tank.id]:g} {units.fuel_volume} on "
+                        f"board at the landing of leg {number - 1} plus the fuel put in makes "
+                        f"{fuel[tank.id]:g}, above the tank's usable capacity",
+                        value=leg.add_fuel[tank.id],
+                        expected=f"at most {tank.usable - on_board[tank.id]:g} {units.fuel_volume} added, or 'full'",
+                    )
+                )
         if unknown:
             raise UnknownNameError(unknown + problems)
         if problems:
             raise InputError(problems)
         order: Literal["together"] | list[str] = (
-            leg.burn.order if "order" in leg.burn.model_fields_set
-            else "together" if previous.plan.order is None else list(previous.plan.order)
+            leg.burn.order
+            if "order" in leg.burn.model_fields_set
+            else "together"
+            if previous.plan.order is None
+            else list(previous.plan.order)
         )
         kept = {station: person for station, person in previous.names.items() if station not in leg.load}
-        single = Loading(category=first.category, fuel_density=loading.fuel_density,
-                         load={**previous.stations, **leg.load}, names={**kept, **leg.names}, fuel=fuel,
-                         burn=leg.burn.model_copy(update={"order": order}))
+        single = Loading(
+            category=first.category,
+            fuel_density=loading.fuel_density,
+            load={**previous.stations, **leg.load},
+            names={**kept, **leg.names},
+            fuel=fuel,
+            burn=leg.burn.model_copy(update={"order": order}),
+        )
         try:
             legs.append(resolve_loading(single, aircraft))
         except LoadcheckError as error:
-            raise type(error)([Problem(f"{where}.{p.field}" if p.field else where, f"leg {number}: {p.message}",
-                                       p.value, p.expected) for p in error.problems]) from None
+            raise type(error)(
+                [
+                    Problem(
+                        f"{where}.{p.field}" if p.field else where, f"leg {number}: {p.message}", p.value, p.expected
+                    )
+                    for p in error.problems
+                ]
+            ) from None
         stops.append(stop)
     return ResolvedTrip(tuple(legs), tuple(stops), (None, *(leg.label for leg in loading.leg)))
 
@@ -770,16 +844,25 @@ def _stop_fuel(
     for name, amount in leg.add_fuel.items():
         tank = aircraft.tank_by_id.get(name)
         if tank is None:
-            unknown.append(Problem(f"{where}.add_fuel.{name}", f"unknown tank {name!r}", expected=_known(aircraft.tank_by_id)))
+            unknown.append(
+                Problem(f"{where}.add_fuel.{name}", f"unknown tank {name!r}", expected=_known(aircraft.tank_by_id))
+            )
         elif isinstance(amount, str) and amount.strip().lower() == "full":
             to[name] = tank.usable
         elif isinstance(amount, str) and amount in tank.levels:
             to[name] = tank.levels[amount]
         elif _is_level_name(amount):
-            unknown.append(Problem(f"{where}.add_fuel.{name}", f"unknown fill level {amount!r} for tank {name!r}",
-                                    expected=_known(dict.fromkeys(["full", *tank.levels]))))
+            unknown.append(
+                Problem(
+                    f"{where}.add_fuel.{name}",
+                    f"unknown fill level {amount!r} for tank {name!r}",
+                    expected=_known(dict.fromkeys(["full", *tank.levels])),
+                )
+            )
         else:
-            added[name] = _to_volume(parse_quantity(amount), density[name], aircraft.units.mass, aircraft.units.fuel_volume)
+            added[name] = _to_volume(
+                parse_quantity(amount), density[name], aircraft.units.mass, aircraft.units.fuel_volume
+            )
     return StopFuel(to, added), unknown
 
 

@@ -163,7 +163,6 @@ def feasible_intervals(
     return intervals
 
 
-
 def _ok(result: Evaluation) -> np.ndarray:
     return result.ok
 
@@ -218,8 +217,11 @@ def _why_not(aircraft: Aircraft, loading: ResolvedLoading, varies: str | None = 
         check = check_loading(aircraft, loading)
     except LoadcheckError as error:
         return "; ".join(p.message for p in error.problems)
-    fixed = [f for f in check.findings
-             if f.severity == "limit" and f.code in _LOAD_CODES and (varies is None or f.subject != varies)]
+    fixed = [
+        f
+        for f in check.findings
+        if f.severity == "limit" and f.code in _LOAD_CODES and (varies is None or f.subject != varies)
+    ]
     if fixed:
         return "; ".join(f.message for f in fixed)
     words = sorted({limit_words(f) for f in check.findings if f.severity == "limit"})
@@ -256,8 +258,11 @@ def _fill_order(aircraft: Aircraft, loading: ResolvedLoading, fill: Sequence[str
     if fill is not None:
         unknown = [t for t in fill if t not in aircraft.tank_by_id]
         if unknown:
-            raise UnknownNameError(Problem("fill", f"unknown tank(s) {', '.join(unknown)}",
-                                           expected="one of " + ", ".join(aircraft.tank_by_id)))
+            raise UnknownNameError(
+                Problem(
+                    "fill", f"unknown tank(s) {', '.join(unknown)}", expected="one of " + ", ".join(aircraft.tank_by_id)
+                )
+            )
         return list(fill)
     if loading.plan.order is None:
         return None
@@ -287,8 +292,9 @@ def _fuel_capacity(aircraft: Aircraft, fill: list[str] | None) -> float:
     return sum(t.usable for t in tanks)
 
 
-def _fuel_loading(aircraft: Aircraft, loading: ResolvedLoading, fill: list[str] | None, total: float,
-                  burn_to: float | None = None) -> ResolvedLoading:
+def _fuel_loading(
+    aircraft: Aircraft, loading: ResolvedLoading, fill: list[str] | None, total: float, burn_to: float | None = None
+) -> ResolvedLoading:
     """The loading with ``total`` ramp fuel in the fill order (and, with ``burn_to``, a burn
     from engine start down to that much fuel left [fuel volume unit])."""
     base = loading_arrays(aircraft, loading)
@@ -322,23 +328,50 @@ def _answer(
     """An answer at the best end of the stretches within limits, carrying the full check of
     the loading at the figure shown; infeasible unless that check finds it within limits."""
     if not pairs:
-        return PlanResult(question=question, variable=variable, unit=unit, feasible=False, intervals=[], answer=None,
-                          answer_display="no amount is within limits", governing=why_not())
+        return PlanResult(
+            question=question,
+            variable=variable,
+            unit=unit,
+            feasible=False,
+            intervals=[],
+            answer=None,
+            answer_display="no amount is within limits",
+            governing=why_not(),
+        )
     low, high = pairs[-1] if direction == "down" else pairs[0]
     shown, text = safe_value(low, high, unit, direction)
     check = check_loading(aircraft, at(shown))
     if not check.ok:  # never bless a loading the check rejects
         words = sorted({limit_words(f) for f in check.limits_exceeded})
-        return PlanResult(question=question, variable=variable, unit=unit, feasible=False, intervals=_intervals(pairs),
-                          answer=None, answer_display="no amount is within limits", governing="; ".join(words), check=check)
+        return PlanResult(
+            question=question,
+            variable=variable,
+            unit=unit,
+            feasible=False,
+            intervals=_intervals(pairs),
+            answer=None,
+            answer_display="no amount is within limits",
+            governing="; ".join(words),
+            check=check,
+        )
     limit, code = governing(high if direction == "down" else low, check)
-    return PlanResult(question=question, variable=variable, unit=unit, feasible=True, intervals=_intervals(pairs),
-                      answer=high if direction == "down" else low, answer_display=text, governing=limit,
-                      governing_code=code, check=check)
+    return PlanResult(
+        question=question,
+        variable=variable,
+        unit=unit,
+        feasible=True,
+        intervals=_intervals(pairs),
+        answer=high if direction == "down" else low,
+        answer_display=text,
+        governing=limit,
+        governing_code=code,
+        check=check,
+    )
 
 
-def _beyond(ceiling: tuple[float, str] | None, past: Callable[[float], ResolvedLoading] | None, aircraft: Aircraft
-            ) -> Callable[[float, CheckResult], tuple[str | None, str | None]]:
+def _beyond(
+    ceiling: tuple[float, str] | None, past: Callable[[float], ResolvedLoading] | None, aircraft: Aircraft
+) -> Callable[[float, CheckResult], tuple[str | None, str | None]]:
     """What stops the answer going further: a ceiling reached, else the first limit just past it."""
 
     def find(best: float, _check: CheckResult) -> tuple[str | None, str | None]:
@@ -357,8 +390,9 @@ def _beyond(ceiling: tuple[float, str] | None, past: Callable[[float], ResolvedL
 # -- the questions -------------------------------------------------------------------------------
 
 
-def most_fuel(aircraft: Aircraft, loading: ResolvedLoading, *, fill: Sequence[str] | None = None,
-              burn_to: float | None = None) -> PlanResult:
+def most_fuel(
+    aircraft: Aircraft, loading: ResolvedLoading, *, fill: Sequence[str] | None = None, burn_to: float | None = None
+) -> PlanResult:
     """The largest ramp fuel for which the whole flight is within limits.
 
     Fuel goes into the tanks in ``fill`` order (default: the reverse of the burn order, or
@@ -386,13 +420,19 @@ def most_fuel(aircraft: Aircraft, loading: ResolvedLoading, *, fill: Sequence[st
     pairs = feasible_intervals(ok, 0.0, capacity, step) if aircraft.tank else []
     unit = aircraft.units.fuel_volume
     result = _answer(
-        aircraft, pairs, unit,
+        aircraft,
+        pairs,
+        unit,
         at=lambda v: _fuel_loading(aircraft, loading, order, v, burn_to),
         question="most fuel at engine start with this load",
-        variable="ramp fuel", direction="down",
-        why_not=lambda: ("this aircraft has no fuel tanks" if not aircraft.tank else _why_not(aircraft, loading)),
-        governing=_beyond((capacity, "the tanks' usable capacity"),
-                          lambda v: _fuel_loading(aircraft, loading, order, min(capacity, v + 2 * step), burn_to), aircraft),
+        variable="ramp fuel",
+        direction="down",
+        why_not=lambda: "this aircraft has no fuel tanks" if not aircraft.tank else _why_not(aircraft, loading),
+        governing=_beyond(
+            (capacity, "the tanks' usable capacity"),
+            lambda v: _fuel_loading(aircraft, loading, order, min(capacity, v + 2 * step), burn_to),
+            aircraft,
+        ),
     )
     if result.feasible and result.check is not None:
         mass = result.check.condition("ramp").fuel_weight
@@ -401,7 +441,12 @@ def most_fuel(aircraft: Aircraft, loading: ResolvedLoading, *, fill: Sequence[st
 
 
 def longest_trip(
-    aircraft: Aircraft, loading: ResolvedLoading, *, rate: float, reserve: float = 0.0, fill: Sequence[str] | None = None
+    aircraft: Aircraft,
+    loading: ResolvedLoading,
+    *,
+    rate: float,
+    reserve: float = 0.0,
+    fill: Sequence[str] | None = None,
 ) -> PlanResult:
     """The longest trip the most fuel allows, landing with ``reserve`` left.
 
@@ -423,26 +468,43 @@ def longest_trip(
     unit = aircraft.units.fuel_volume
     if fuel.answer is None or fuel.check is None:
         return replace(fuel, question="longest trip", variable="trip fuel")
-    fuelled = _fuel_loading(aircraft, loading, _fill_order(aircraft, loading, fill), safe_value(
-        fuel.intervals[-1].low, fuel.answer, unit, "down")[0])
+    fuelled = _fuel_loading(
+        aircraft,
+        loading,
+        _fill_order(aircraft, loading, fill),
+        safe_value(fuel.intervals[-1].low, fuel.answer, unit, "down")[0],
+    )
     base = loading_arrays(aircraft, fuelled)
     top = fuelled.plan.burnable - fuelled.taxi - reserve
     step = _GRID_STEP / _mean_density(aircraft, loading)
-    pairs = feasible_intervals(lambda x: _ok(evaluate_arrays(aircraft, base, trip=x)), 0.0, top, step) if top >= 0 else []
+    pairs = (
+        feasible_intervals(lambda x: _ok(evaluate_arrays(aircraft, base, trip=x)), 0.0, top, step) if top >= 0 else []
+    )
     result = _answer(
-        aircraft, pairs, unit,
+        aircraft,
+        pairs,
+        unit,
         at=lambda v: _with(fuelled, trip=v, reserve=reserve),
         question=f"longest trip with {fuel.answer_display} at engine start, landing with at least {reserve:g} {unit}",
-        variable="trip fuel", direction="down",
-        why_not=lambda: (f"the fuel on board less taxi fuel does not cover the reserve of {reserve:g} {unit}" if top < 0
-                         else _why_not(aircraft, fuelled)),
-        governing=_beyond((top, "the fuel on board less taxi fuel and reserve"),
-                          lambda v: _with(fuelled, trip=min(fuelled.plan.burnable - fuelled.taxi, v + 2 * step)), aircraft),
+        variable="trip fuel",
+        direction="down",
+        why_not=lambda: (
+            f"the fuel on board less taxi fuel does not cover the reserve of {reserve:g} {unit}"
+            if top < 0
+            else _why_not(aircraft, fuelled)
+        ),
+        governing=_beyond(
+            (top, "the fuel on board less taxi fuel and reserve"),
+            lambda v: _with(fuelled, trip=min(fuelled.plan.burnable - fuelled.taxi, v + 2 * step)),
+            aircraft,
+        ),
     )
     if result.feasible and result.answer is not None:
         shown = safe_value(result.intervals[-1].low, result.answer, unit, "down")[0]
         minutes = int(np.floor(shown / rate * 60.0 + 1e-9))
-        return replace(result, extra={"ramp fuel": fuel.answer_display, "time at the rate": f"{minutes // 60}:{minutes % 60:02d}"})
+        return replace(
+            result, extra={"ramp fuel": fuel.answer_display, "time at the rate": f"{minutes // 60}:{minutes % 60:02d}"}
+        )
     return result
 
 
@@ -474,16 +536,25 @@ def most_payload(aircraft: Aircraft, loading: ResolvedLoading, station: str) -> 
         return _with(loading, stations={**loading.stations, station: value})
 
     return _answer(
-        aircraft, pairs, aircraft.units.mass, at,
-        question=f"most weight at {aircraft.station[index].name}", variable=f"weight at {station}", direction="down",
+        aircraft,
+        pairs,
+        aircraft.units.mass,
+        at,
+        question=f"most weight at {aircraft.station[index].name}",
+        variable=f"weight at {station}",
+        direction="down",
         why_not=lambda: _why_not(aircraft, at(0.0), station),
-        governing=_beyond((limit, f"the station's maximum of {fmt(limit, aircraft.units.mass)}") if limit is not None else None,
-                          lambda v: at(v + 2 * _GRID_STEP), aircraft),
+        governing=_beyond(
+            (limit, f"the station's maximum of {fmt(limit, aircraft.units.mass)}") if limit is not None else None,
+            lambda v: at(v + 2 * _GRID_STEP),
+            aircraft,
+        ),
     )
 
 
-def fuel_to_leave(aircraft: Aircraft, loading: ResolvedLoading, station: str, payload: float,
-                  *, fill: Sequence[str] | None = None) -> PlanResult:
+def fuel_to_leave(
+    aircraft: Aircraft, loading: ResolvedLoading, station: str, payload: float, *, fill: Sequence[str] | None = None
+) -> PlanResult:
     """The least fuel to leave behind so that ``payload`` at ``station`` can be carried.
 
     The fuel taken is the loading's ramp fuel less the fuel left behind, put into the
@@ -508,15 +579,21 @@ def fuel_to_leave(aircraft: Aircraft, loading: ResolvedLoading, station: str, pa
     # fuel left behind = ramp fuel in the loading less the ramp fuel taken, within [0, now]
     pairs = sorted((max(0.0, now - i.high), now - i.low) for i in fuel.intervals if i.low <= now)
     result = _answer(
-        aircraft, pairs, unit,
+        aircraft,
+        pairs,
+        unit,
         at=lambda leave: _fuel_loading(aircraft, with_payload, order, now - leave),
-        question=question, variable="fuel left behind", direction="up",
+        question=question,
+        variable="fuel left behind",
+        direction="up",
         why_not=lambda: (
             f"with that payload no ramp fuel that covers taxi and trip ({fmt(loading.taxi + loading.trip, unit)}) "
-            f"is within limits: {fuel.governing}" if not fuel.intervals else
-            f"the fuel taken would have to be more than the {now:,.1f} {unit} in the loading: "
+            f"is within limits: {fuel.governing}"
+            if not fuel.intervals
+            else f"the fuel taken would have to be more than the {now:,.1f} {unit} in the loading: "
             "with that payload the ramp fuel within limits is "
-            + ", ".join(stretch_text(i.low, i.high, unit) for i in fuel.intervals)),
+            + ", ".join(stretch_text(i.low, i.high, unit) for i in fuel.intervals)
+        ),
     )
     extra = {"ramp fuel in the loading": f"{now:,.1f} {unit}"}
     if result.feasible and result.check is not None:
@@ -542,16 +619,27 @@ def least_ballast(aircraft: Aircraft, loading: ResolvedLoading, station: str | N
     top = limit if limit is not None else aircraft.limits.ramp
     already = loading.stations.get(station, 0.0)
     rows = _station_rows(base, index, already)
-    pairs = feasible_intervals(lambda x: _ok(evaluate_arrays(aircraft, base, stations=rows(x))), 0.0, max(0.0, top - already),
-                               _GRID_STEP)
-    reason = (f"no weight up to the station's maximum ({fmt(top, aircraft.units.mass)}) at {station} "
-              "brings every condition within limits")
+    pairs = feasible_intervals(
+        lambda x: _ok(evaluate_arrays(aircraft, base, stations=rows(x))), 0.0, max(0.0, top - already), _GRID_STEP
+    )
+    reason = (
+        f"no weight up to the station's maximum ({fmt(top, aircraft.units.mass)}) at {station} "
+        "brings every condition within limits"
+    )
     answer = _answer(
-        aircraft, pairs, aircraft.units.mass, lambda v: _with(loading, stations={**loading.stations, station: already + v}),
-        f"least ballast at {aircraft.station[index].name}", f"ballast at {station}", "up", lambda: reason,
+        aircraft,
+        pairs,
+        aircraft.units.mass,
+        lambda v: _with(loading, stations={**loading.stations, station: already + v}),
+        f"least ballast at {aircraft.station[index].name}",
+        f"ballast at {station}",
+        "up",
+        lambda: reason,
     )
     if not answer.feasible:
-        return replace(answer, answer_display=f"no amount can: {reason}", governing=_why_not(aircraft, loading, station))
+        return replace(
+            answer, answer_display=f"no amount can: {reason}", governing=_why_not(aircraft, loading, station)
+        )
     return answer
 
 
@@ -581,18 +669,32 @@ def weight_shift(
         raise InputError(Problem("to", "the two stations have the same arm: moving weight does not move the CG"))
 
     def at(value: float) -> ResolvedLoading:
-        stations = {**loading.stations, source: available - value, target_station: loading.stations.get(target_station, 0.0) + value}
+        stations = {
+            **loading.stations,
+            source: available - value,
+            target_station: loading.stations.get(target_station, 0.0) + value,
+        }
         return _with(loading, stations=stations)
 
     if target_arm is not None:
         now = check_loading(aircraft, loading).condition(condition)
         moved = now.weight * (target_arm - now.arm) / distance
-        question = (f"weight to move from {source} to {target_station} to put the {condition_words(condition)} CG at "
-                    f"{fmt(target_arm, units.arm)}")
+        question = (
+            f"weight to move from {source} to {target_station} to put the {condition_words(condition)} CG at "
+            f"{fmt(target_arm, units.arm)}"
+        )
 
         def refuse(why: str, check: CheckResult | None = None) -> PlanResult:
-            return PlanResult(question=question, variable="weight moved", unit=units.mass, feasible=False, intervals=[],
-                              answer=None, answer_display=f"no solution: {why}", check=check)
+            return PlanResult(
+                question=question,
+                variable="weight moved",
+                unit=units.mass,
+                feasible=False,
+                intervals=[],
+                answer=None,
+                answer_display=f"no solution: {why}",
+                check=check,
+            )
 
         if moved < -1e-9:
             return refuse("moving weight that way moves the CG away from the target")
@@ -602,12 +704,22 @@ def weight_shift(
         if not check.ok:
             reasons = [f.message for f in check.limits_exceeded if f.code in _LOAD_CODES]
             reasons = reasons or sorted({limit_words(f) for f in check.limits_exceeded})
-            return refuse(f"moving {fmt(moved, units.mass)} puts the CG at the target, but the loading is then not "
-                          "within limits: " + "; ".join(reasons), check)
-        return PlanResult(question=question, variable="weight moved", unit=units.mass, feasible=True,
-                          intervals=[Interval(low=moved, high=moved)], answer=moved,
-                          answer_display=f"{round_safe(moved, 1, 'nearest'):,.1f} {units.mass}", check=check,
-                          extra={"resulting CG": fmt(check.condition(condition).arm, units.arm)})
+            return refuse(
+                f"moving {fmt(moved, units.mass)} puts the CG at the target, but the loading is then not "
+                "within limits: " + "; ".join(reasons),
+                check,
+            )
+        return PlanResult(
+            question=question,
+            variable="weight moved",
+            unit=units.mass,
+            feasible=True,
+            intervals=[Interval(low=moved, high=moved)],
+            answer=moved,
+            answer_display=f"{round_safe(moved, 1, 'nearest'):,.1f} {units.mass}",
+            check=check,
+            extra={"resulting CG": fmt(check.condition(condition).arm, units.arm)},
+        )
     base = loading_arrays(aircraft, loading)
 
     def rows(x: np.ndarray) -> np.ndarray:
@@ -616,10 +728,20 @@ def weight_shift(
         out[:, j] += x
         return out
 
-    pairs = feasible_intervals(lambda x: _ok(evaluate_arrays(aircraft, base, stations=rows(x))), 0.0, available, _GRID_STEP)
+    pairs = feasible_intervals(
+        lambda x: _ok(evaluate_arrays(aircraft, base, stations=rows(x))), 0.0, available, _GRID_STEP
+    )
     reason = f"moving up to all {fmt(available, units.mass)} from {source} is not enough"
-    answer = _answer(aircraft, pairs, units.mass, at, f"least weight to move from {source} to {target_station}",
-                     "weight moved", "up", lambda: reason)
+    answer = _answer(
+        aircraft,
+        pairs,
+        units.mass,
+        at,
+        f"least weight to move from {source} to {target_station}",
+        "weight moved",
+        "up",
+        lambda: reason,
+    )
     if not answer.feasible:
         return replace(answer, answer_display=f"no amount can: {reason}")
     return answer
@@ -653,7 +775,12 @@ class FuelPayloadTable(Result):
 
 
 def fuel_payload_table(
-    aircraft: Aircraft, loading: ResolvedLoading, station: str, *, steps: int = 11, top: float | None = None,
+    aircraft: Aircraft,
+    loading: ResolvedLoading,
+    station: str,
+    *,
+    steps: int = 11,
+    top: float | None = None,
     fill: Sequence[str] | None = None,
 ) -> FuelPayloadTable:
     """Allowed ramp fuel against payload added at ``station`` (0 to ``top``, ``steps`` rows).
@@ -667,9 +794,15 @@ def fuel_payload_table(
     top = top if top is not None else ((limit - already) if limit is not None else aircraft.useful_load)
     rows = []
     for payload in np.linspace(0.0, max(0.0, top), max(2, steps)):
-        answer = most_fuel(aircraft, _with(loading, stations={**loading.stations, station: already + float(payload)}), fill=fill)
-        rows.append(TableRow(payload=float(payload), intervals=answer.intervals if answer.feasible else [],
-                             most=answer.answer if answer.feasible else None))
+        answer = most_fuel(
+            aircraft, _with(loading, stations={**loading.stations, station: already + float(payload)}), fill=fill
+        )
+        rows.append(
+            TableRow(
+                payload=float(payload),
+                intervals=answer.intervals if answer.feasible else [],
+                most=answer.answer if answer.feasible else None,
+            )
+        )
     units: dict[str, str] = {"mass": aircraft.units.mass, "fuel_volume": aircraft.units.fuel_volume}
     return FuelPayloadTable(station=station, rows=rows, units=units, ok=any(r.most is not None for r in rows))
-

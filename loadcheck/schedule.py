@@ -99,8 +99,9 @@ def _refuel(aircraft: Aircraft, loading: ResolvedLoading, total: float) -> Resol
     return _placard(aircraft, loading.category, loading.stations, fuel)
 
 
-def _seat(aircraft: Aircraft, loading: ResolvedLoading, occupant: float, *, pilot_aboard: bool
-          ) -> tuple[ResolvedLoading, dict[str, int]]:
+def _seat(
+    aircraft: Aircraft, loading: ResolvedLoading, occupant: float, *, pilot_aboard: bool
+) -> tuple[ResolvedLoading, dict[str, int]]:
     """Seat occupants one at a time, pilot's seat first, while the loading stays within limits.
 
     The pilot is seated even where the loading is then out of limits (no flight without a
@@ -127,8 +128,13 @@ def _fill_baggage(aircraft: Aircraft, loading: ResolvedLoading) -> ResolvedLoadi
         answer = most_payload(aircraft, loading, station.id)
         if answer.feasible and answer.answer is not None:
             low = answer.intervals[-1].low
-            loading = _with(loading, stations={**loading.stations,
-                                               station.id: safe_value(low, answer.answer, aircraft.units.mass, "down")[0]})
+            loading = _with(
+                loading,
+                stations={
+                    **loading.stations,
+                    station.id: safe_value(low, answer.answer, aircraft.units.mass, "down")[0],
+                },
+            )
     return loading
 
 
@@ -137,25 +143,40 @@ def _most_fuel(aircraft: Aircraft, loading: ResolvedLoading) -> ResolvedLoading 
     answer = most_fuel(aircraft, loading, burn_to=0.0)
     if not answer.feasible or answer.answer is None:
         return None
-    return _refuel(aircraft, loading, safe_value(answer.intervals[-1].low, answer.answer, aircraft.units.fuel_volume,
-                                                 "down")[0])
+    return _refuel(
+        aircraft, loading, safe_value(answer.intervals[-1].low, answer.answer, aircraft.units.fuel_volume, "down")[0]
+    )
 
 
-def _case(aircraft: Aircraft, question: str, loading: ResolvedLoading, occupants: dict[str, int],
-          notes: list[str]) -> ScheduleCase:
+def _case(
+    aircraft: Aircraft, question: str, loading: ResolvedLoading, occupants: dict[str, int], notes: list[str]
+) -> ScheduleCase:
     check = replace(check_loading(aircraft, loading), caution=MECHANIC_CAUTION)
     volume = aircraft.units.fuel_volume
     start = sum(loading.fuel.values())
-    states = (f"from {fmt(start, volume, 'down')} at engine start down to zero usable fuel, every tank burning in "
-              "proportion to its fuel" if start > 0 else "with no usable fuel")
+    states = (
+        f"from {fmt(start, volume, 'down')} at engine start down to zero usable fuel, every tank burning in "
+        "proportion to its fuel"
+        if start > 0
+        else "with no usable fuel"
+    )
     if not check.ok:
         notes = [*notes, "this loading is NOT within limits over that fuel range: see the findings"]
-    return ScheduleCase(question=question, ok=check.ok, occupants=occupants, load=dict(loading.stations),
-                        fuel=dict(loading.fuel), fuel_states=states, check=check, notes=notes)
+    return ScheduleCase(
+        question=question,
+        ok=check.ok,
+        occupants=occupants,
+        load=dict(loading.stations),
+        fuel=dict(loading.fuel),
+        fuel_states=states,
+        check=check,
+        notes=notes,
+    )
 
 
-def loading_schedule(aircraft: Aircraft, *, category: str | None = None,
-                     occupant_weight: float | None = None) -> ScheduleResult:
+def loading_schedule(
+    aircraft: Aircraft, *, category: str | None = None, occupant_weight: float | None = None
+) -> ScheduleResult:
     """AC 43.13-1B paragraph 10-18: the three loading conditions to settle when placards do not.
 
     Occupants are seated one at a time at the standard occupant weight, the pilot's seat
@@ -179,15 +200,25 @@ def loading_schedule(aircraft: Aircraft, *, category: str | None = None,
     occupant = standard_occupant(aircraft, occupant_weight)
     mass = aircraft.units.mass
     fixed = _minimum_stations(aircraft)
-    fixed_note = ([f"stations at their minimum weight: {', '.join(aircraft.station_by_id[s].name for s in fixed)}"]
-                  if fixed else [])
+    fixed_note = (
+        [f"stations at their minimum weight: {', '.join(aircraft.station_by_id[s].name for s in fixed)}"]
+        if fixed
+        else []
+    )
     cases = []
 
     # 1. full fuel: occupants, then baggage
     full = _placard(aircraft, chosen, fixed, {t.id: t.usable for t in aircraft.tank})
     seated, counts = _seat(aircraft, full, occupant, pilot_aboard=False)
-    cases.append(_case(aircraft, "with full fuel: occupants and baggage", _fill_baggage(aircraft, seated), counts,
-                       [f"occupants at {occupant:g} {mass} each", *fixed_note]))
+    cases.append(
+        _case(
+            aircraft,
+            "with full fuel: occupants and baggage",
+            _fill_baggage(aircraft, seated),
+            counts,
+            [f"occupants at {occupant:g} {mass} each", *fixed_note],
+        )
+    )
 
     # 2. every seat filled: fuel, then baggage
     everyone = _placard(aircraft, chosen, fixed, {})
@@ -201,8 +232,9 @@ def loading_schedule(aircraft: Aircraft, *, category: str | None = None,
         notes.append("no fuel load is within limits with every seat filled")
         cases.append(_case(aircraft, "with every seat filled: fuel and baggage", everyone, counts, notes))
     else:
-        cases.append(_case(aircraft, "with every seat filled: fuel and baggage", _fill_baggage(aircraft, fuelled),
-                           counts, notes))
+        cases.append(
+            _case(aircraft, "with every seat filled: fuel and baggage", _fill_baggage(aircraft, fuelled), counts, notes)
+        )
 
     # 3. maximum baggage: fuel, then occupants
     bags = _placard(aircraft, chosen, fixed, {})
@@ -217,11 +249,16 @@ def loading_schedule(aircraft: Aircraft, *, category: str | None = None,
     fuelled = _most_fuel(aircraft, with_pilot)
     if fuelled is None:
         notes.append("no fuel load is within limits with maximum baggage")
-        cases.append(_case(aircraft, "with maximum baggage: fuel and occupants", with_pilot, {pilot[0]: 1} if pilot else {},
-                           notes))
+        cases.append(
+            _case(
+                aircraft, "with maximum baggage: fuel and occupants", with_pilot, {pilot[0]: 1} if pilot else {}, notes
+            )
+        )
     else:
-        seated, counts = _seat(aircraft, _refuel(aircraft, bags, sum(fuelled.fuel.values())), occupant, pilot_aboard=False)
+        seated, counts = _seat(
+            aircraft, _refuel(aircraft, bags, sum(fuelled.fuel.values())), occupant, pilot_aboard=False
+        )
         cases.append(_case(aircraft, "with maximum baggage: fuel and occupants", seated, counts, notes))
-    return ScheduleResult(aircraft=aircraft.name, category=chosen, occupant_weight=occupant,
-                          ok=all(c.ok for c in cases), cases=cases)
-
+    return ScheduleResult(
+        aircraft=aircraft.name, category=chosen, occupant_weight=occupant, ok=all(c.ok for c in cases), cases=cases
+    )

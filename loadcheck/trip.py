@@ -60,7 +60,9 @@ def _resolved(aircraft: Aircraft, trip: Loading | ResolvedTrip, category: str | 
     return trip if isinstance(trip, ResolvedTrip) else resolve_trip(trip, aircraft, category=category)
 
 
-def _resolved_for_plan(aircraft: Aircraft, trip: Loading | ResolvedTrip, category: str | None, leg: int) -> ResolvedTrip:
+def _resolved_for_plan(
+    aircraft: Aircraft, trip: Loading | ResolvedTrip, category: str | None, leg: int
+) -> ResolvedTrip:
     """The trip to plan the fuel of ``leg`` (1: the first engine start; 2 or more: the stop
     before it) for: as given, or, where the fuel given there does not let the trip be
     resolved (too little for the burns), with every tank full there; that fuel is what
@@ -108,12 +110,32 @@ def check_trip(
     for number, (leg, label) in enumerate(zip(resolved.legs, labels, strict=True), start=1):
         check = check_loading(aircraft, leg, samples=samples)
         legs.append(TripLeg(leg=number, label=label, check=check))
-        findings += [TripFinding(leg=number, label=label, code=f.code, severity=f.severity, condition=f.condition,
-                                 message=f"{leg_name(number, label)}: {f.message}", excess=f.excess, unit=f.unit,
-                                 limit=f.limit, side=f.side, subject=f.subject) for f in check.findings]
+        findings += [
+            TripFinding(
+                leg=number,
+                label=label,
+                code=f.code,
+                severity=f.severity,
+                condition=f.condition,
+                message=f"{leg_name(number, label)}: {f.message}",
+                excess=f.excess,
+                unit=f.unit,
+                limit=f.limit,
+                side=f.side,
+                subject=f.subject,
+            )
+            for f in check.findings
+        ]
     first = legs[0].check
-    return TripResult(ok=all(leg.check.ok for leg in legs), category=first.category, aircraft=first.aircraft, legs=legs,
-                      findings=findings, units=first.units, caution=PILOT_CAUTION)
+    return TripResult(
+        ok=all(leg.check.ok for leg in legs),
+        category=first.category,
+        aircraft=first.aircraft,
+        legs=legs,
+        findings=findings,
+        units=first.units,
+        caution=PILOT_CAUTION,
+    )
 
 
 def trip_legs(aircraft: Aircraft, trip: ResolvedTrip, start: int, fuel: dict[str, float]) -> ResolvedTrip:
@@ -135,8 +157,16 @@ def _legs_ok(aircraft: Aircraft, trip: ResolvedTrip, start: int, fuel: np.ndarra
         leg = trip.legs[index]
         rows = loading_arrays(aircraft, leg)
         n = len(fuel)
-        found = evaluate(aircraft, np.tile(rows.stations, (n, 1)), fuel, np.full(n, rows.taxi), np.full(n, rows.trip),
-                         order=rows.order, category=rows.category, density=rows.density)
+        found = evaluate(
+            aircraft,
+            np.tile(rows.stations, (n, 1)),
+            fuel,
+            np.full(n, rows.taxi),
+            np.full(n, rows.trip),
+            order=rows.order,
+            category=rows.category,
+            density=rows.density,
+        )
         ok &= found.ok
         if index + 1 < len(trip.legs):
             landed = {t: found.fuel["landing"][:, i] for i, t in enumerate(ids)}
@@ -164,22 +194,44 @@ def _first_limit(result: TripResult) -> str | None:
 
 
 def _plan(
-    aircraft: Aircraft, pairs: list[tuple[float, float]], question: str, variable: str, ceiling: float,
-    at: Callable[[float], ResolvedTrip], step: float, why_not: Callable[[], str],
+    aircraft: Aircraft,
+    pairs: list[tuple[float, float]],
+    question: str,
+    variable: str,
+    ceiling: float,
+    at: Callable[[float], ResolvedTrip],
+    step: float,
+    why_not: Callable[[], str],
 ) -> TripPlan:
     """The most of the variable within the stretches found, with the trip's check at the figure shown."""
     unit = aircraft.units.fuel_volume
     if not pairs:
-        return TripPlan(question=question, variable=variable, unit=unit, feasible=False, intervals=[], answer=None,
-                        answer_display="no amount keeps every leg within limits", governing=why_not())
+        return TripPlan(
+            question=question,
+            variable=variable,
+            unit=unit,
+            feasible=False,
+            intervals=[],
+            answer=None,
+            answer_display="no amount keeps every leg within limits",
+            governing=why_not(),
+        )
     low, high = pairs[-1]
     shown, text = safe_value(low, high, unit, "down")
     check = check_trip(aircraft, at(shown), samples=False)
     intervals = [Interval(low=lo, high=hi) for lo, hi in pairs]
     if not check.ok:  # never bless a trip the check rejects
-        return TripPlan(question=question, variable=variable, unit=unit, feasible=False, intervals=intervals,
-                        answer=None, answer_display="no amount keeps every leg within limits",
-                        governing=_first_limit(check), trip=check)
+        return TripPlan(
+            question=question,
+            variable=variable,
+            unit=unit,
+            feasible=False,
+            intervals=intervals,
+            answer=None,
+            answer_display="no amount keeps every leg within limits",
+            governing=_first_limit(check),
+            trip=check,
+        )
     if high >= ceiling - 1e-9 * max(1.0, ceiling):
         governing: str | None = "the tanks' usable capacity"
     else:
@@ -190,8 +242,18 @@ def _plan(
     extra = {}
     if pairs[0][0] > 0:
         extra["least"] = safe_value(pairs[0][0], pairs[0][1], unit, "up")[1]
-    return TripPlan(question=question, variable=variable, unit=unit, feasible=True, intervals=intervals, answer=high,
-                    answer_display=text, governing=governing, trip=check, extra=extra)
+    return TripPlan(
+        question=question,
+        variable=variable,
+        unit=unit,
+        feasible=True,
+        intervals=intervals,
+        answer=high,
+        answer_display=text,
+        governing=governing,
+        trip=check,
+        extra=extra,
+    )
 
 
 def _why_not(aircraft: Aircraft, trip: ResolvedTrip) -> str:
@@ -199,7 +261,7 @@ def _why_not(aircraft: Aircraft, trip: ResolvedTrip) -> str:
         found = check_trip(aircraft, trip, samples=False)
     except LoadcheckError as error:
         return "; ".join(p.message for p in error.problems)
-    return ("with this load and these legs: " + (_first_limit(found) or "no amount is within limits"))
+    return "with this load and these legs: " + (_first_limit(found) or "no amount is within limits")
 
 
 def trip_most_fuel(
@@ -230,11 +292,23 @@ def trip_most_fuel(
         row = _distribute(aircraft, base, order, np.array([total]))[0]
         return trip_legs(aircraft, resolved, 0, {t: float(row[i]) for i, t in enumerate(ids)})
 
-    pairs = feasible_intervals(lambda x: _legs_ok(aircraft, resolved, 0, _distribute(aircraft, base, order, x)),
-                               0.0, capacity, step) if ids else []
-    return _plan(aircraft, pairs, "most fuel at the first engine start that keeps every leg within limits",
-                 "ramp fuel of leg 1", capacity, at, step,
-                 lambda: "this aircraft has no fuel tanks" if not ids else _why_not(aircraft, resolved))
+    pairs = (
+        feasible_intervals(
+            lambda x: _legs_ok(aircraft, resolved, 0, _distribute(aircraft, base, order, x)), 0.0, capacity, step
+        )
+        if ids
+        else []
+    )
+    return _plan(
+        aircraft,
+        pairs,
+        "most fuel at the first engine start that keeps every leg within limits",
+        "ramp fuel of leg 1",
+        capacity,
+        at,
+        step,
+        lambda: "this aircraft has no fuel tanks" if not ids else _why_not(aircraft, resolved),
+    )
 
 
 def _added(aircraft: Aircraft, on_board: dict[str, float], fill: list[str] | None, totals: np.ndarray) -> np.ndarray:
@@ -258,7 +332,11 @@ def _added(aircraft: Aircraft, on_board: dict[str, float], fill: list[str] | Non
 
 
 def fuel_to_add(
-    aircraft: Aircraft, trip: Loading | ResolvedTrip, leg: int, *, fill: Sequence[str] | None = None,
+    aircraft: Aircraft,
+    trip: Loading | ResolvedTrip,
+    leg: int,
+    *,
+    fill: Sequence[str] | None = None,
     category: str | None = None,
 ) -> TripPlan:
     """The fuel to put in at the stop before leg ``leg`` (2 or more) so that every leg is within limits.
@@ -282,17 +360,31 @@ def fuel_to_add(
     """
     resolved = _resolved_for_plan(aircraft, trip, category, leg)
     if len(resolved.legs) < 2:
-        raise InputError(Problem("leg", "the loading has one leg, so no stop: a trip gives the legs after a stop "
-                                 "as [[leg]] tables", value=leg, expected="a loading with [[leg]] tables"))
+        raise InputError(
+            Problem(
+                "leg",
+                "the loading has one leg, so no stop: a trip gives the legs after a stop as [[leg]] tables",
+                value=leg,
+                expected="a loading with [[leg]] tables",
+            )
+        )
     if not 2 <= leg <= len(resolved.legs):
-        raise InputError(Problem("leg", f"the trip has {len(resolved.legs)} legs: a stop comes before legs 2 to "
-                                 f"{len(resolved.legs)}", value=leg, expected=f"2 to {len(resolved.legs)}"))
+        raise InputError(
+            Problem(
+                "leg",
+                f"the trip has {len(resolved.legs)} legs: a stop comes before legs 2 to {len(resolved.legs)}",
+                value=leg,
+                expected=f"2 to {len(resolved.legs)}",
+            )
+        )
     index = leg - 1
     before = resolved.legs[index - 1]
     on_board = landing_fuel(before)
     order = _fill_order(aircraft, resolved.legs[index], fill)
-    room = sum(max(0.0, t.usable - on_board[t.id]) for t in (aircraft.tank if order is None else
-                                                              [aircraft.tank_by_id[n] for n in order]))
+    room = sum(
+        max(0.0, t.usable - on_board[t.id])
+        for t in (aircraft.tank if order is None else [aircraft.tank_by_id[n] for n in order])
+    )
     ids = [t.id for t in aircraft.tank]
     earlier = all(check_loading(aircraft, resolved.legs[i], samples=False).ok for i in range(index))
     step = _GRID_STEP / _mean_density(aircraft, before)
@@ -301,10 +393,24 @@ def fuel_to_add(
         row = _added(aircraft, on_board, order, np.array([total]))[0]
         stops = list(resolved.stops)
         stops[index - 1] = StopFuel(added={t: float(row[i] - on_board[t]) for i, t in enumerate(ids)})
-        return trip_legs(aircraft, replace(resolved, stops=tuple(stops)), index, {t: float(row[i]) for i, t in enumerate(ids)})
+        return trip_legs(
+            aircraft, replace(resolved, stops=tuple(stops)), index, {t: float(row[i]) for i, t in enumerate(ids)}
+        )
 
-    pairs = feasible_intervals(lambda x: _legs_ok(aircraft, resolved, index, _added(aircraft, on_board, order, x)),
-                               0.0, room, step) if ids and earlier else []
-    return _plan(aircraft, pairs, f"fuel to put in at the stop before {leg_name(leg, resolved.labels[index] if resolved.labels else None)}",
-                 f"fuel added before leg {leg}", room, at, step,
-                 lambda: ("this aircraft has no fuel tanks" if not ids else _why_not(aircraft, resolved)))
+    pairs = (
+        feasible_intervals(
+            lambda x: _legs_ok(aircraft, resolved, index, _added(aircraft, on_board, order, x)), 0.0, room, step
+        )
+        if ids and earlier
+        else []
+    )
+    return _plan(
+        aircraft,
+        pairs,
+        f"fuel to put in at the stop before {leg_name(leg, resolved.labels[index] if resolved.labels else None)}",
+        f"fuel added before leg {leg}",
+        room,
+        at,
+        step,
+        lambda: "this aircraft has no fuel tanks" if not ids else _why_not(aircraft, resolved),
+    )

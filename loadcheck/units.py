@@ -71,13 +71,29 @@ _KINDS: dict[str, dict[str, float]] = {
 # Spellings accepted on input, folded to the canonical unit names above. A bare "gal" is
 # refused on purpose: US and imperial gallons differ by 20 %.
 _ALIASES: dict[str, str] = {
-    "lb": "lb", "lbs": "lb", "pound": "lb", "pounds": "lb",
-    "kg": "kg", "kgs": "kg", "kilogram": "kg", "kilograms": "kg",
-    "in": "in", "inch": "in", "inches": "in",
-    "mm": "mm", "cm": "cm", "m": "m",
-    "usgal": "usgal", "us gal": "usgal",
-    "impgal": "impgal", "imp gal": "impgal",
-    "l": "l", "litre": "l", "litres": "l", "liter": "l", "liters": "l",
+    "lb": "lb",
+    "lbs": "lb",
+    "pound": "lb",
+    "pounds": "lb",
+    "kg": "kg",
+    "kgs": "kg",
+    "kilogram": "kg",
+    "kilograms": "kg",
+    "in": "in",
+    "inch": "in",
+    "inches": "in",
+    "mm": "mm",
+    "cm": "cm",
+    "m": "m",
+    "usgal": "usgal",
+    "us gal": "usgal",
+    "impgal": "impgal",
+    "imp gal": "impgal",
+    "l": "l",
+    "litre": "l",
+    "litres": "l",
+    "liter": "l",
+    "liters": "l",
 }
 
 _QUANTITY_RE = re.compile(r"^\s*([-+]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][-+]?\d+)?)\s*([A-Za-z][A-Za-z ]*?)?\s*$")
@@ -282,8 +298,10 @@ def parse_rate(text: str | float | int) -> Quantity:
         return parse_quantity(text)
     except UnitError as error:
         reason = "; ".join(p.message for p in error.problems)
-        raise UnitError(f"cannot read {original!r} as a fuel rate ({reason}); e.g. '9.5' in the aircraft's fuel "
-                        "volume unit per hour, '36 l/h', '9.5 gph', '60 lb/h'") from None
+        raise UnitError(
+            f"cannot read {original!r} as a fuel rate ({reason}); e.g. '9.5' in the aircraft's fuel "
+            "volume unit per hour, '36 l/h', '9.5 gph', '60 lb/h'"
+        ) from None
 
 
 def read_rate(text: str | float, unit: str, field: str = "") -> float:
@@ -304,8 +322,9 @@ def read_rate(text: str | float, unit: str, field: str = "") -> float:
     def read() -> float:
         quantity = parse_rate(text)
         if quantity.unit is not None and unit_kind(quantity.unit) == "mass":
-            raise UnitError("a mass per hour cannot be used here: give the rate as a fuel volume per hour "
-                            f"(e.g. '9.5 {unit}/h')")
+            raise UnitError(
+                f"a mass per hour cannot be used here: give the rate as a fuel volume per hour (e.g. '9.5 {unit}/h')"
+            )
         return in_unit(quantity, unit)
 
     return _naming(field, text, read)

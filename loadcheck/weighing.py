@@ -26,8 +26,22 @@ from .errors import InputError, Problem, UnknownNameError
 from .filemodel import FileModel
 from .results import Result
 
-__all__ = ["Readings", "WeighingPoint", "Geometry", "ReadingItem", "WeighResult", "WeighPoint", "Correction", "EmptyWeightRecord",
-           "Refusal", "PLAUSIBLE_CHANGE", "weigh", "point_arm", "record_checks", "current_record_warnings"]
+__all__ = [
+    "Readings",
+    "WeighingPoint",
+    "Geometry",
+    "ReadingItem",
+    "WeighResult",
+    "WeighPoint",
+    "Correction",
+    "EmptyWeightRecord",
+    "Refusal",
+    "PLAUSIBLE_CHANGE",
+    "weigh",
+    "point_arm",
+    "record_checks",
+    "current_record_warnings",
+]
 
 PLAUSIBLE_CHANGE = 0.10
 """Largest change of empty weight written without an override, as a fraction of the current
@@ -110,8 +124,10 @@ class Readings(_Model):
             if any(p.wheel == other for p in self.point):
                 raise ValueError(f"a {self.geometry.gear} aircraft has no {other} wheel")
         if self.keep_lateral_arm and any(p.lateral_arm is not None for p in self.point):
-            raise ValueError("keep_lateral_arm: the points give lateral arms, so the lateral CG is measured; "
-                             "leave keep_lateral_arm out")
+            raise ValueError(
+                "keep_lateral_arm: the points give lateral arms, so the lateral CG is measured; "
+                "leave keep_lateral_arm out"
+            )
         return self
 
 
@@ -222,8 +238,10 @@ def _outside_cg_range(aircraft: Aircraft, arm: float, what: str) -> str | None:
     if cg_range is None or cg_range[0] <= arm <= cg_range[1]:
         return None
     unit = aircraft.units.arm
-    return (f"{what} {arm:.2f} {unit} is outside the empty-weight CG range {cg_range[0]:g} to {cg_range[1]:g} {unit}: "
-            "check the inputs and the arms")
+    return (
+        f"{what} {arm:.2f} {unit} is outside the empty-weight CG range {cg_range[0]:g} to {cg_range[1]:g} {unit}: "
+        "check the inputs and the arms"
+    )
 
 
 def current_record_warnings(aircraft: Aircraft) -> list[str]:
@@ -255,26 +273,41 @@ def record_checks(aircraft: Aircraft, new: EmptyWeightRecord) -> tuple[list[str]
     refusals = []
     limit = aircraft.limits.max_takeoff_weight
     if new.weight >= limit:
-        refusals.append(Refusal(
-            code="no_useful_load", overridable=False,
-            message=(f"the new empty weight {new.weight:,.1f} {units.mass} reaches the maximum takeoff weight "
-                     f"{limit:,.1f} {units.mass} (useful load {limit - new.weight:,.1f} {units.mass}): "
-                     "a misread scale or a wrong unit? Such a record is never written"),
-        ))
+        refusals.append(
+            Refusal(
+                code="no_useful_load",
+                overridable=False,
+                message=(
+                    f"the new empty weight {new.weight:,.1f} {units.mass} reaches the maximum takeoff weight "
+                    f"{limit:,.1f} {units.mass} (useful load {limit - new.weight:,.1f} {units.mass}): "
+                    "a misread scale or a wrong unit? Such a record is never written"
+                ),
+            )
+        )
     span = _longitudinal_span(aircraft)
     if span is not None and not span[0] <= new.arm <= span[1]:
-        refusals.append(Refusal(
-            code="cg_outside_envelopes", overridable=True,
-            message=(f"the new empty-weight CG {new.arm:.2f} {units.arm} lies outside every envelope's arm span "
-                     f"({span[0]:g} to {span[1]:g} {units.arm}): check the readings and the arms"),
-        ))
+        refusals.append(
+            Refusal(
+                code="cg_outside_envelopes",
+                overridable=True,
+                message=(
+                    f"the new empty-weight CG {new.arm:.2f} {units.arm} lies outside every envelope's arm span "
+                    f"({span[0]:g} to {span[1]:g} {units.arm}): check the readings and the arms"
+                ),
+            )
+        )
     current = aircraft.empty.weight
     if abs(new.weight - current) > PLAUSIBLE_CHANGE * current:
-        refusals.append(Refusal(
-            code="implausible_change", overridable=True,
-            message=(f"the new empty weight {new.weight:,.1f} {units.mass} differs from the current record "
-                     f"{current:,.1f} {units.mass} by more than {PLAUSIBLE_CHANGE:.0%}: check the inputs"),
-        ))
+        refusals.append(
+            Refusal(
+                code="implausible_change",
+                overridable=True,
+                message=(
+                    f"the new empty weight {new.weight:,.1f} {units.mass} differs from the current record "
+                    f"{current:,.1f} {units.mass} by more than {PLAUSIBLE_CHANGE:.0%}: check the inputs"
+                ),
+            )
+        )
     return warnings, refusals
 
 
@@ -282,8 +315,11 @@ def _item(aircraft: Aircraft, item: ReadingItem, where: str) -> tuple[float, flo
     if item.tank is not None:
         tank = aircraft.tank_by_id.get(item.tank)
         if tank is None:
-            raise UnknownNameError(Problem(f"{where}.tank", f"unknown tank {item.tank!r}",
-                                           expected="one of " + ", ".join(aircraft.tank_by_id)))
+            raise UnknownNameError(
+                Problem(
+                    f"{where}.tank", f"unknown tank {item.tank!r}", expected="one of " + ", ".join(aircraft.tank_by_id)
+                )
+            )
         assert item.fuel is not None
         weight = item.fuel * aircraft.density(tank)
         arm = item.arm if item.arm is not None else tank.arm_at(item.fuel)
@@ -319,51 +355,95 @@ def weigh(aircraft: Aircraft, readings: Readings) -> WeighResult:
     notes: list[str] = []
     if not lateral and aircraft.has_lateral and not readings.keep_lateral_arm:
         kept = "none" if empty.lateral_arm is None else f"{empty.lateral_arm:g} {aircraft.units.arm}"
-        raise InputError(Problem(
-            "point", "this aircraft has a lateral envelope, and no weighing point gives its lateral_arm: give each "
-            f"point's lateral_arm, or state keep_lateral_arm = true to keep the current lateral CG ({kept})"))
+        raise InputError(
+            Problem(
+                "point",
+                "this aircraft has a lateral envelope, and no weighing point gives its lateral_arm: give each "
+                f"point's lateral_arm, or state keep_lateral_arm = true to keep the current lateral CG ({kept})",
+            )
+        )
     if not lateral and empty.lateral_arm is not None:
-        why = "as the readings state (keep_lateral_arm)" if readings.keep_lateral_arm else "the readings give no lateral arms"
-        notes.append(f"the lateral CG was not measured: the current record's {empty.lateral_arm:g} {aircraft.units.arm} "
-                     f"is kept ({why})")
+        why = (
+            "as the readings state (keep_lateral_arm)"
+            if readings.keep_lateral_arm
+            else "the readings give no lateral arms"
+        )
+        notes.append(
+            f"the lateral CG was not measured: the current record's {empty.lateral_arm:g} {aircraft.units.arm} "
+            f"is kept ({why})"
+        )
     points = []
     for p in readings.point:
         arm = point_arm(p, readings.geometry)
         net = p.reading - p.tare
-        points.append(WeighPoint(label=p.label, reading=p.reading, tare=p.tare, net=net, arm=arm, moment=net * arm,
-                                 lateral_arm=(p.lateral_arm or 0.0) if lateral else None))
+        points.append(
+            WeighPoint(
+                label=p.label,
+                reading=p.reading,
+                tare=p.tare,
+                net=net,
+                arm=arm,
+                moment=net * arm,
+                lateral_arm=(p.lateral_arm or 0.0) if lateral else None,
+            )
+        )
     weight = sum(p.net for p in points)
     if weight <= 0:
         raise InputError(Problem("point", "the net weights add up to nothing: check the readings and tares"))
     moment = sum(p.moment for p in points)
     lateral_moment = sum(p.net * (p.lateral_arm or 0.0) for p in points)
-    as_weighed = EmptyWeightRecord(weight=weight, arm=moment / weight, moment=moment,
-                        lateral_arm=lateral_moment / weight if lateral else None)
+    as_weighed = EmptyWeightRecord(
+        weight=weight, arm=moment / weight, moment=moment, lateral_arm=lateral_moment / weight if lateral else None
+    )
     warnings = [f"point {p.label!r} reads no weight after its tare" for p in points if p.net == 0]
 
     corrections = []
     for label, items, sign in (("on_board", readings.on_board, -1.0), ("missing", readings.missing, 1.0)):
         for index, item in enumerate(items):
             w, a, lat = _item(aircraft, item, f"{label}[{index}]")
-            corrections.append(Correction(label=item.label, action="removed" if sign < 0 else "added", weight=w, arm=a,
-                                          moment=w * a, lateral_arm=lat if lateral else None))
+            corrections.append(
+                Correction(
+                    label=item.label,
+                    action="removed" if sign < 0 else "added",
+                    weight=w,
+                    arm=a,
+                    moment=w * a,
+                    lateral_arm=lat if lateral else None,
+                )
+            )
             weight += sign * w
             moment += sign * w * a
             lateral_moment += sign * w * lat
     if weight <= 0:
         raise InputError(Problem("on_board", "taking off the items aboard leaves no weight: check the corrections"))
-    new = EmptyWeightRecord(weight=weight, arm=moment / weight, moment=moment,
-                 lateral_arm=lateral_moment / weight if lateral else empty.lateral_arm)
+    new = EmptyWeightRecord(
+        weight=weight,
+        arm=moment / weight,
+        moment=moment,
+        lateral_arm=lateral_moment / weight if lateral else empty.lateral_arm,
+    )
     previous = EmptyWeightRecord(weight=empty.weight, arm=empty.arm, moment=empty.moment, lateral_arm=empty.lateral_arm)
     record_warnings, refusals = record_checks(aircraft, new)
     useful = aircraft.limits.max_takeoff_weight - new.weight
     return WeighResult(
-        aircraft=aircraft.name, registration=aircraft.registration, points=points, as_weighed=as_weighed,
-        corrections=corrections, new=new, previous=previous, change_weight=new.weight - empty.weight,
-        change_arm=new.arm - empty.arm, useful_load=useful, change_useful_load=useful - aircraft.useful_load,
-        warnings=notes + warnings + record_warnings, refusals=refusals, formula_cg=_formula_cg(readings, points),
-        date=None if readings.date is None else readings.date.isoformat(), weighed_by=readings.weighed_by,
-        note=readings.note, geometry=None if readings.geometry is None else readings.geometry.model_dump(),
+        aircraft=aircraft.name,
+        registration=aircraft.registration,
+        points=points,
+        as_weighed=as_weighed,
+        corrections=corrections,
+        new=new,
+        previous=previous,
+        change_weight=new.weight - empty.weight,
+        change_arm=new.arm - empty.arm,
+        useful_load=useful,
+        change_useful_load=useful - aircraft.useful_load,
+        warnings=notes + warnings + record_warnings,
+        refusals=refusals,
+        formula_cg=_formula_cg(readings, points),
+        date=None if readings.date is None else readings.date.isoformat(),
+        weighed_by=readings.weighed_by,
+        note=readings.note,
+        geometry=None if readings.geometry is None else readings.geometry.model_dump(),
         cg_range=empty.cg_range,
     )
 

@@ -54,7 +54,7 @@ _EXTRA_DIGITS = 3  # at most this many digits beyond the unit's precision to mak
 
 
 def count(number: int, thing: str) -> str:
-    """"1 tank", "2 tanks" (a plain English plural).
+    """ "1 tank", "2 tanks" (a plain English plural).
 
     Examples
     --------
@@ -77,7 +77,10 @@ def within_limits_text(warnings: int) -> str:
     """
     if warnings == 0:
         return "every condition, the burn path and every weight limit hold."
-    return f"every limit holds at every condition and along the burn path; {count(warnings, 'warning')} (see the findings)."
+    return (
+        "every limit holds at every condition and along the burn path; "
+        f"{count(warnings, 'warning')} (see the findings)."
+    )
 
 
 def condition_words(name: str | None) -> str:
@@ -123,7 +126,7 @@ def beyond(value: float, limit: float, unit: str) -> tuple[str, str, str]:
 
 
 def weight_limit_message(condition: str, weight: float, code: str, limit: float, unit: str) -> str:
-    """"takeoff weight 2,612.0 lb exceeds the maximum takeoff weight 2,600.0 lb by 12.0 lb"; a minimum likewise."""
+    """ "takeoff weight 2,612.0 lb exceeds the maximum takeoff weight 2,600.0 lb by 12.0 lb"; a minimum likewise."""
     value, bound, excess = beyond(weight, limit, unit)
     if code == "min_flight_weight":
         return f"{condition_words(condition)} weight {value} is below the {LIMIT_NAMES[code]} {bound} by {excess}"
@@ -131,8 +134,14 @@ def weight_limit_message(condition: str, weight: float, code: str, limit: float,
 
 
 def envelope_weight_message(
-    condition: str, label: str, weight: float, edge: float, mass_unit: str, cg_beyond: tuple[str, float, float, str] | None,
-    *, ramp_allowance: float = 0.0,
+    condition: str,
+    label: str,
+    weight: float,
+    edge: float,
+    mass_unit: str,
+    cg_beyond: tuple[str, float, float, str] | None,
+    *,
+    ramp_allowance: float = 0.0,
 ) -> str:
     """A point above or below an envelope's weight range, and its CG against the limit there.
 
@@ -142,10 +151,11 @@ def envelope_weight_message(
     side = "above" if weight > edge else "below"
     value, bound, excess = beyond(weight, edge + ramp_allowance, mass_unit)
     if ramp_allowance > 0:
-        bound = (f"{fmt(edge, mass_unit)} ({bound} at ramp with the {fmt(ramp_allowance, mass_unit)} ramp "
-                 "allowance)")
-    text = (f"{condition_words(condition)} weight {value} is {side} {label}, whose "
-            f"{'highest' if side == 'above' else 'lowest'} weight is {bound}, by {excess}")
+        bound = f"{fmt(edge, mass_unit)} ({bound} at ramp with the {fmt(ramp_allowance, mass_unit)} ramp allowance)"
+    text = (
+        f"{condition_words(condition)} weight {value} is {side} {label}, whose "
+        f"{'highest' if side == 'above' else 'lowest'} weight is {bound}, by {excess}"
+    )
     if cg_beyond is not None:
         where, cg, limit, arm_unit = cg_beyond
         cg_text, limit_text, cg_excess = beyond(cg, limit, arm_unit)
@@ -154,41 +164,68 @@ def envelope_weight_message(
 
 
 def envelope_side_message(
-    condition: str, label: str, lateral: bool, side: str, value: float, limit: float, weight: float,
-    arm_unit: str, mass_unit: str,
+    condition: str,
+    label: str,
+    lateral: bool,
+    side: str,
+    value: float,
+    limit: float,
+    weight: float,
+    arm_unit: str,
+    mass_unit: str,
 ) -> str:
-    """"takeoff CG 93.40 in is aft of the aft limit of the normal-category envelope (93.00 in at 2,400.0 lb) by 0.40 in"."""
+    """The words of a CG outside an envelope.
+
+    "takeoff CG 93.40 in is aft of the aft limit of the normal-category envelope (93.00 in at 2,400.0 lb)
+    by 0.40 in".
+    """
     cg = "lateral CG" if lateral else "CG"
     value_text, limit_text, excess = beyond(value, limit, arm_unit)
-    return (f"{condition_words(condition)} {cg} {value_text} is {side} of the {side} limit of {label} "
-            f"({limit_text} at {fmt(weight, mass_unit)}) by {excess}")
+    return (
+        f"{condition_words(condition)} {cg} {value_text} is {side} of the {side} limit of {label} "
+        f"({limit_text} at {fmt(weight, mass_unit)}) by {excess}"
+    )
 
 
 def envelope_moment_message(
     condition: str, label: str, side: str, moment: float, limit: float, weight: float, moment_unit: str, mass_unit: str
 ) -> str:
-    """"landing lateral moment -2,940 lb*in is left of the lateral limit of the lateral envelope
+    """ "landing lateral moment -2,940 lb*in is left of the lateral limit of the lateral envelope
     (-2,700 lb*in at 1,915.0 lb) by 240 lb*in": an envelope drawn as lateral moment against weight."""
     value_text, limit_text, excess = beyond(moment, limit, moment_unit)
-    return (f"{condition_words(condition)} lateral moment {value_text} is {side} of the lateral limit of {label} "
-            f"({limit_text} at {fmt(weight, mass_unit)}) by {excess}")
+    return (
+        f"{condition_words(condition)} lateral moment {value_text} is {side} of the lateral limit of {label} "
+        f"({limit_text} at {fmt(weight, mass_unit)}) by {excess}"
+    )
 
 
 def envelope_gap_message(
-    condition: str, label: str, lateral: bool, value: float, nearest: float, weight: float, arm_unit: str, mass_unit: str
+    condition: str,
+    label: str,
+    lateral: bool,
+    value: float,
+    nearest: float,
+    weight: float,
+    arm_unit: str,
+    mass_unit: str,
 ) -> str:
     """A CG that falls in a gap of a non-convex envelope, with the nearest limit."""
     cg = "lateral CG" if lateral else "CG"
     value_text, limit_text, excess = beyond(value, nearest, arm_unit)
-    return (f"{condition_words(condition)} {cg} {value_text} falls in a gap of {label} at {fmt(weight, mass_unit)}, "
-            f"{excess} from the nearest limit ({limit_text})")
+    return (
+        f"{condition_words(condition)} {cg} {value_text} falls in a gap of {label} at {fmt(weight, mass_unit)}, "
+        f"{excess} from the nearest limit ({limit_text})"
+    )
 
 
-def envelope_point_message(condition: str, label: str, lateral: bool, weight: float, value: float,
-                           arm_unit: str, mass_unit: str) -> str:
+def envelope_point_message(
+    condition: str, label: str, lateral: bool, weight: float, value: float, arm_unit: str, mass_unit: str
+) -> str:
     """A point outside an envelope that no slice describes better."""
     cg = "lateral CG" if lateral else "CG"
-    return f"{condition_words(condition)} point ({fmt(weight, mass_unit)}, {cg} {fmt(value, arm_unit)}) is outside {label}"
+    return (
+        f"{condition_words(condition)} point ({fmt(weight, mass_unit)}, {cg} {fmt(value, arm_unit)}) is outside {label}"
+    )
 
 
 ZERO_FUEL_WARNING = " (a warning: the zero-fuel CG is not a limit for this aircraft)"
@@ -196,19 +233,26 @@ ZERO_FUEL_WARNING = " (a warning: the zero-fuel CG is not a limit for this aircr
 
 
 def burn_path_message(
-    from_burned: float, to_burned: float, weight: float, arm: float, on_board: float,
-    mass_unit: str, arm_unit: str, volume_unit: str,
+    from_burned: float,
+    to_burned: float,
+    weight: float,
+    arm: float,
+    on_board: float,
+    mass_unit: str,
+    arm_unit: str,
+    volume_unit: str,
 ) -> str:
     """Where the CG leaves the envelope during the burn and until when it stays out."""
     return (
-        f"the CG leaves the envelope during the fuel burn after {fmt(from_burned, mass_unit, 'down')} of fuel is burned "
+        f"the CG leaves the envelope during the fuel burn after {fmt(from_burned, mass_unit, 'down')} of fuel "
+        "is burned "
         f"(at {fmt(weight, mass_unit)}, CG {fmt(arm, arm_unit)}, {fmt(on_board, volume_unit)} on board) "
         f"and stays out until {fmt(to_burned, mass_unit, 'up')} is burned"
     )
 
 
 def load_limit_message(label: str, loaded: float, limit: float, is_max: bool, unit: str) -> str:
-    """"Rear seats: 255.0 kg exceeds the maximum 250.0 kg by 5.0 kg"; a minimum likewise."""
+    """ "Rear seats: 255.0 kg exceeds the maximum 250.0 kg by 5.0 kg"; a minimum likewise."""
     value, bound, excess = beyond(loaded, limit, unit)
     if is_max:
         return f"{label}: {value} exceeds the maximum {bound} by {excess}"
@@ -260,8 +304,11 @@ def burn_path_summary(result: CheckResult) -> str:
     takeoff_out = not result.condition("takeoff").ok
     if takeoff_out and leave.fuel_burned_volume <= 1e-9 * max(1.0, leave.fuel_remaining_volume):
         first = path.excursions[0] if path.excursions else None
-        until = (f" and stays outside until {fmt(first.to_burned, units.mass, 'up')} is burned"
-                 if first is not None and first.to_burned > first.from_burned else "")
+        until = (
+            f" and stays outside until {fmt(first.to_burned, units.mass, 'up')} is burned"
+            if first is not None and first.to_burned > first.from_burned
+            else ""
+        )
         return head + f"the CG is outside the envelope from takeoff{until}."
     return head + (
         f"the CG leaves the envelope after {fmt(leave.fuel_burned, units.mass, 'down')} burned "

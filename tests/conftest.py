@@ -36,15 +36,22 @@ ORACLE_CASES = {"short": 600, "long": 10_000}
 EXAMPLES_DATABASE = Path(platformdirs.user_cache_dir("loadcheck")) / "hypothesis"
 """Where hypothesis keeps the examples it found (outside the repository)."""
 
-_COMMON = settings(deadline=None, print_blob=True, database=DirectoryBasedExampleDatabase(EXAMPLES_DATABASE),
-                   suppress_health_check=[HealthCheck.too_slow, HealthCheck.data_too_large, HealthCheck.filter_too_much])
+_COMMON = settings(
+    deadline=None,
+    print_blob=True,
+    database=DirectoryBasedExampleDatabase(EXAMPLES_DATABASE),
+    suppress_health_check=[HealthCheck.too_slow, HealthCheck.data_too_large, HealthCheck.filter_too_much],
+)
 settings.register_profile("short", _COMMON, max_examples=100)
 settings.register_profile("long", _COMMON, max_examples=100 * LONG_FACTOR)
 
 
 def pytest_addoption(parser: pytest.Parser) -> None:
-    parser.addoption("--long", action="store_true",
-                     help="the long runs: ten times the hypothesis examples (profile 'long') and the oracle on 10,000 cases")
+    parser.addoption(
+        "--long",
+        action="store_true",
+        help="the long runs: ten times the hypothesis examples (profile 'long') and the oracle on 10,000 cases",
+    )
 
 
 def pytest_configure(config: pytest.Config) -> None:

@@ -43,8 +43,11 @@ def simple_aircraft(**changes: Any) -> Aircraft:
         ],
         "tank": [{"id": "main", "arm": 45.0, "usable": 40.0, "fuel": "avgas"}],
         "envelope": [
-            {"category": "normal", "axes": ["arm", "weight"],
-             "points": [[35.0, 900], [35.0, 2000], [48.0, 2000], [48.0, 900]]}
+            {
+                "category": "normal",
+                "axes": ["arm", "weight"],
+                "points": [[35.0, 900], [35.0, 2000], [48.0, 2000], [48.0, 900]],
+            }
         ],
     }
     data.update(changes)
@@ -56,17 +59,28 @@ def ac_example_aircraft() -> Aircraft:
     weight 1,169 lb at +10.6 in, oil 17 lb at -49 in (here in the empty weight), seats at
     +16 in (two, with controls) and +48 in (two), baggage 100 lb at +75.5 in, fuel 40 US gal
     at +22 in, CG range +8.5 to +21.9 in, maximum weight 2,100 lb, 165 hp METO."""
-    return parse_aircraft({
-        "name": "AC 43.13-1B chapter 10 example", "units": {"mass": "lb", "arm": "in", "fuel_volume": "usgal"},
-        "empty": {"weight": 1169 + 17, "arm": (1169 * 10.6 - 17 * 49) / (1169 + 17)},
-        "limits": {"max_takeoff_weight": 2100}, "meto_power_hp": 165,
-        "station": [{"id": "front", "arm": 16, "kind": "seat", "seats": 2, "controls": True},
-                    {"id": "rear", "arm": 48, "kind": "seat", "seats": 2},
-                    {"id": "bag", "arm": 75.5, "kind": "baggage", "max_weight": 100}],
-        "tank": [{"id": "main", "arm": 22, "usable": 40, "fuel": "avgas"}],
-        "envelope": [{"category": "normal", "axes": ["arm", "weight"],
-                      "points": [[8.5, 1000], [8.5, 2100], [21.9, 2100], [21.9, 1000]]}],
-    })
+    return parse_aircraft(
+        {
+            "name": "AC 43.13-1B chapter 10 example",
+            "units": {"mass": "lb", "arm": "in", "fuel_volume": "usgal"},
+            "empty": {"weight": 1169 + 17, "arm": (1169 * 10.6 - 17 * 49) / (1169 + 17)},
+            "limits": {"max_takeoff_weight": 2100},
+            "meto_power_hp": 165,
+            "station": [
+                {"id": "front", "arm": 16, "kind": "seat", "seats": 2, "controls": True},
+                {"id": "rear", "arm": 48, "kind": "seat", "seats": 2},
+                {"id": "bag", "arm": 75.5, "kind": "baggage", "max_weight": 100},
+            ],
+            "tank": [{"id": "main", "arm": 22, "usable": 40, "fuel": "avgas"}],
+            "envelope": [
+                {
+                    "category": "normal",
+                    "axes": ["arm", "weight"],
+                    "points": [[8.5, 1000], [8.5, 2100], [21.9, 2100], [21.9, 1000]],
+                }
+            ],
+        }
+    )
 
 
 class AppRunner(CliRunner):
@@ -121,7 +135,7 @@ def record_sheet(tmp_path: Path, command: str, aircraft: Path, source: Path) -> 
 def cell(html: str, cell_id: str) -> str:
     """The text of the HTML element with that id."""
     start = html.index(f"id='{cell_id}'>") + len(f"id='{cell_id}'>")
-    return html[start: html.index("</", start)]
+    return html[start : html.index("</", start)]
 
 
 def examples(short: int) -> int:
@@ -135,8 +149,15 @@ def examples(short: int) -> int:
 
 
 def random_loadings(
-    aircraft: Aircraft, n: int, order: Sequence[str] | None = None, seed: int = 1, *,
-    over: float = 1.05, default_max: float = 200.0, taxi_max: float = 2.0, zero_trip: float = 0.0,
+    aircraft: Aircraft,
+    n: int,
+    order: Sequence[str] | None = None,
+    seed: int = 1,
+    *,
+    over: float = 1.05,
+    default_max: float = 200.0,
+    taxi_max: float = 2.0,
+    zero_trip: float = 0.0,
 ) -> tuple[np.ndarray, np.ndarray, np.ndarray, np.ndarray]:
     """``n`` random loadings of an aircraft as the engine's arrays (``engine.evaluate``'s inputs).
 
@@ -154,8 +175,7 @@ def random_loadings(
     """
     rng = np.random.default_rng(seed)
     stations = np.stack([rng.uniform(0, (s.max_weight or default_max) * over, n) for s in aircraft.station], axis=1)
-    fuel = (np.stack([rng.uniform(0, t.usable, n) for t in aircraft.tank], axis=1) if aircraft.tank
-            else np.zeros((n, 0)))
+    fuel = np.stack([rng.uniform(0, t.usable, n) for t in aircraft.tank], axis=1) if aircraft.tank else np.zeros((n, 0))
     ids = [t.id for t in aircraft.tank]
     burnable = fuel.sum(1) if order is None else fuel[:, [ids.index(x) for x in order]].sum(1)
     taxi = np.minimum(rng.uniform(0, taxi_max, n), burnable)

@@ -118,7 +118,11 @@ def fuel_left(fuel: dict[str, F], order: list[str] | None, burned: F) -> dict[st
 
 def state(aircraft: dict[str, Any], load: dict[str, F], fuel: dict[str, F]) -> tuple[F, F, F]:
     empty = aircraft["empty"]
-    w, m, lat = fr(empty["weight"]), fr(empty["weight"]) * fr(empty["arm"]), fr(empty["weight"]) * fr(empty.get("lateral_arm", 0.0))
+    w, m, lat = (
+        fr(empty["weight"]),
+        fr(empty["weight"]) * fr(empty["arm"]),
+        fr(empty["weight"]) * fr(empty.get("lateral_arm", 0.0)),
+    )
     stations = {s["id"]: s for s in aircraft["station"]}
     for sid, weight in load.items():
         w += weight
@@ -249,7 +253,9 @@ def _path_verdict(aircraft, envelopes, polygons, mac, load, fuel, order, taxi, t
 
     if trip == 0:
         w, m, lat = state(aircraft, load, fuel_left(fuel, order, taxi))
-        return _and(*(inside_verdict(*coordinates(e, mac, w, m, lat), p) for e, p in zip(envelopes, polygons, strict=True)))
+        return _and(
+            *(inside_verdict(*coordinates(e, mac, w, m, lat), p) for e, p in zip(envelopes, polygons, strict=True))
+        )
     burned = float(taxi) + float(trip) * np.linspace(0.0, 1.0, STEPS + 1)
     start = {k: float(v) for k, v in fuel.items()}
     if order is None:
@@ -266,9 +272,16 @@ def _path_verdict(aircraft, envelopes, polygons, mac, load, fuel, order, taxi, t
     empty = aircraft["empty"]
     w = float(empty["weight"]) + sum(float(v) for v in load.values()) + np.zeros_like(burned)
     stations = {s["id"]: s for s in aircraft["station"]}
-    m = float(empty["weight"]) * float(empty["arm"]) + sum(float(v) * stations[k]["arm"] for k, v in load.items()) + np.zeros_like(burned)
-    lat = (float(empty["weight"]) * empty.get("lateral_arm", 0.0)
-           + sum(float(v) * stations[k].get("lateral_arm", 0.0) for k, v in load.items()) + np.zeros_like(burned))
+    m = (
+        float(empty["weight"]) * float(empty["arm"])
+        + sum(float(v) * stations[k]["arm"] for k, v in load.items())
+        + np.zeros_like(burned)
+    )
+    lat = (
+        float(empty["weight"]) * empty.get("lateral_arm", 0.0)
+        + sum(float(v) * stations[k].get("lateral_arm", 0.0) for k, v in load.items())
+        + np.zeros_like(burned)
+    )
     for tank in aircraft["tank"]:
         q = left[tank["id"]]
         mass = q * float(density(tank))

@@ -64,22 +64,44 @@ def test_every_problem_is_reported_at_once():
 
 
 def test_closed_ring_is_accepted():
-    aircraft = simple_aircraft(envelope=[{"category": "normal", "axes": ["arm", "weight"],
-                                          "points": [[35, 900], [35, 2000], [48, 2000], [48, 900], [35, 900]]}])
+    aircraft = simple_aircraft(
+        envelope=[
+            {
+                "category": "normal",
+                "axes": ["arm", "weight"],
+                "points": [[35, 900], [35, 2000], [48, 2000], [48, 900], [35, 900]],
+            }
+        ]
+    )
     assert len(aircraft.envelope[0].shape.corners) == 4
 
 
 def test_mac_axis_needs_mac():
-    text = _problems({**sample_data("trainer4/aircraft.toml"), "mac": None,
-                      "envelope": [{"category": "normal", "axes": ["mac", "weight"],
-                                    "points": [[10, 1500], [10, 2450], [30, 2450], [30, 1500]]}]})
+    text = _problems(
+        {
+            **sample_data("trainer4/aircraft.toml"),
+            "mac": None,
+            "envelope": [
+                {
+                    "category": "normal",
+                    "axes": ["mac", "weight"],
+                    "points": [[10, 1500], [10, 2450], [30, 2450], [30, 1500]],
+                }
+            ],
+        }
+    )
     assert "envelope[0].axes" in text and "[mac]" in text
 
 
 def test_lateral_envelope_without_lateral_arms_fails_closed():
     data = sample_data("trainer4/aircraft.toml")
-    data["envelope"].append({"category": "normal", "axes": ["lateral_arm", "weight"],
-                             "points": [[-3, 1500], [-3, 2450], [3, 2450], [3, 1500]]})
+    data["envelope"].append(
+        {
+            "category": "normal",
+            "axes": ["lateral_arm", "weight"],
+            "points": [[-3, 1500], [-3, 2450], [3, 2450], [3, 1500]],
+        }
+    )
     assert "lateral arms" in _problems(data)
 
 
@@ -137,10 +159,15 @@ def test_fingerprint_changes_with_data(trainer):
     assert parse_aircraft(sample_data("trainer4/aircraft.toml")).fingerprint == trainer.fingerprint
 
 
-@pytest.mark.parametrize("units, density", [
-    ({"mass": "lb", "arm": "in", "fuel_volume": "usgal"}, 6.0), ({"mass": "kg", "arm": "mm", "fuel_volume": "l"}, 0.72),
-    ({"mass": "lb", "arm": "in", "fuel_volume": "impgal"}, 7.2), ({"mass": "kg", "arm": "m", "fuel_volume": "usgal"}, 3.04),
-])
+@pytest.mark.parametrize(
+    "units, density",
+    [
+        ({"mass": "lb", "arm": "in", "fuel_volume": "usgal"}, 6.0),
+        ({"mass": "kg", "arm": "mm", "fuel_volume": "l"}, 0.72),
+        ({"mass": "lb", "arm": "in", "fuel_volume": "impgal"}, 7.2),
+        ({"mass": "kg", "arm": "m", "fuel_volume": "usgal"}, 3.04),
+    ],
+)
 def test_a_plausible_tank_density_is_accepted_in_any_units(units, density):
     # avgas about 0.72 kg/L (ASTM D910 figure, from memory) written in each pair of units
     aircraft = simple_aircraft(units=units, tank=[{"id": "main", "arm": 45.0, "usable": 40.0, "density": density}])
@@ -167,8 +194,16 @@ def test_a_station_or_tank_may_not_take_a_fleet_csv_column_name(name):
 
 
 def test_every_category_must_limit_the_fore_and_aft_cg():
-    lateral = {"category": "utility", "axes": ["lateral_arm", "weight"], "points": [[-2, 900], [-2, 2000], [2, 2000], [2, 900]]}
-    box = {"category": "normal", "axes": ["arm", "weight"], "points": [[35.0, 900], [35.0, 2000], [48.0, 2000], [48.0, 900]]}
+    lateral = {
+        "category": "utility",
+        "axes": ["lateral_arm", "weight"],
+        "points": [[-2, 900], [-2, 2000], [2, 2000], [2, 900]],
+    }
+    box = {
+        "category": "normal",
+        "axes": ["arm", "weight"],
+        "points": [[35.0, 900], [35.0, 2000], [48.0, 2000], [48.0, 900]],
+    }
     with pytest.raises(InputError, match=r"envelope\[1\].category: category 'utility' has only lateral envelopes"):
         simple_aircraft(empty={"weight": 1000.0, "arm": 40.0, "lateral_arm": 0.0}, envelope=[box, lateral])
     both = {**lateral, "axes": ["lateral_arm", "arm"], "points": [[-2, 35], [-2, 48], [2, 48], [2, 35]]}

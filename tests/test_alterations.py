@@ -36,7 +36,9 @@ def test_alter_warns_when_the_new_cg_leaves_the_empty_weight_cg_range(runner, tm
     result = alter(load_aircraft(path), Changes.model_validate(sample_data("trainer4/changes.toml")))
     assert result.new.arm < 37.1
     assert any("outside the empty-weight CG range 37.1 to 38" in w for w in result.warnings)
-    shown = runner.invoke(app, ["alter", str(path), str(tmp_path / "changes.toml"), "--sheet", str(tmp_path / "r.html")])
+    shown = runner.invoke(
+        app, ["alter", str(path), str(tmp_path / "changes.toml"), "--sheet", str(tmp_path / "r.html")]
+    )
     assert shown.exit_code == 0 and "WARNING" in shown.output and "empty-weight CG range" in shown.output
     html = (tmp_path / "r.html").read_text()
     assert "OUTSIDE IT" in html and "37.10 in to 38.00 in" in html
@@ -62,8 +64,10 @@ def test_a_current_record_outside_its_range_is_flagged_by_history(runner, tmp_pa
 def test_alter_json_on_a_rotorcraft(runner, tmp_path, aircraft_file):
     # issue 14 item 8: "Object of type bool is not JSON serializable" (a numpy bool from the CG range)
     changes = tmp_path / "changes.toml"
-    changes.write_text('format = 1\ndate = 2026-11-30\ndescription = "cargo hook"\n'
-                       "[[change]]\naction = 'install'\nitem = 'hook'\nweight = 6.0\narm = 105.0\n")
+    changes.write_text(
+        'format = 1\ndate = 2026-11-30\ndescription = "cargo hook"\n'
+        "[[change]]\naction = 'install'\nitem = 'hook'\nweight = 6.0\narm = 105.0\n"
+    )
     result = runner.invoke(app, ["alter", str(sample(aircraft_file)), str(changes), "--json"])
     assert result.exit_code == 0, result.output
     data = json.loads(result.stdout)
@@ -74,16 +78,22 @@ def test_alter_json_on_a_rotorcraft(runner, tmp_path, aircraft_file):
 def test_rotorcraft_negligible_cg_rule_gives_plain_booleans():
     # AC 43.13-1B 10-2 c: rotorcraft, less than 0.2 % of the maximum allowable CG range
     aircraft = load_aircraft(sample("heli2/aircraft.toml"))
-    tiny = alter(aircraft, Changes.model_validate({"change": [{"action": "install", "item": "p", "weight": 0.2,
-                                                                "arm": aircraft.empty.arm}]}))
+    tiny = alter(
+        aircraft,
+        Changes.model_validate(
+            {"change": [{"action": "install", "item": "p", "weight": 0.2, "arm": aircraft.empty.arm}]}
+        ),
+    )
     assert type(tiny.negligible.cg) is bool and type(tiny.negligible.weight) is bool
     assert tiny.negligible.overall is True
 
 
 def test_an_alteration_that_leaves_no_useful_load_is_refused():
     aircraft = parse_aircraft({**sample_data("trainer4/aircraft.toml")})
-    big = alter(aircraft, Changes.model_validate({"change": [{"action": "install", "item": "tank", "weight": 800.0,
-                                                               "arm": 40.0}]}))
+    big = alter(
+        aircraft,
+        Changes.model_validate({"change": [{"action": "install", "item": "tank", "weight": 800.0, "arm": 40.0}]}),
+    )
     assert [r.code for r in big.refusals] == ["no_useful_load", "implausible_change"]
     assert not big.refusals[0].overridable and big.refusals[1].overridable
 
@@ -104,17 +114,24 @@ def test_negligible_weight_thresholds(empty, limit):
 
 def test_alteration_arithmetic_and_negligible():
     aircraft = load_aircraft(sample("trainer4/aircraft.toml"))
-    changes = Changes.model_validate({"change": [
-        {"action": "install", "item": "com3", "weight": 4.2, "arm": 14.8},
-        {"action": "remove", "item": "fairings"},
-        {"action": "relocate", "item": "elt", "new_arm": 118.0},
-    ]})
+    changes = Changes.model_validate(
+        {
+            "change": [
+                {"action": "install", "item": "com3", "weight": 4.2, "arm": 14.8},
+                {"action": "remove", "item": "fairings"},
+                {"action": "relocate", "item": "elt", "new_arm": 118.0},
+            ]
+        }
+    )
     result = alter(aircraft, changes)
     assert result.change_weight == pytest.approx(4.2 - 18.0)
     assert result.new.moment == pytest.approx(aircraft.empty.moment + 4.2 * 14.8 - 18.0 * 48.0 + 2.4 * (118.0 - 140.0))
     assert result.change_useful_load == pytest.approx(18.0 - 4.2)
     assert result.negligible.overall is False
-    tiny = alter(aircraft, Changes.model_validate({"change": [{"action": "install", "item": "placard", "weight": 0.05, "arm": 40.0}]}))
+    tiny = alter(
+        aircraft,
+        Changes.model_validate({"change": [{"action": "install", "item": "placard", "weight": 0.05, "arm": 40.0}]}),
+    )
     assert tiny.negligible.weight and tiny.negligible.cg and tiny.negligible.overall
     with pytest.raises(UnknownNameError, match="unknown item 'ghost'"):
         alter(aircraft, Changes.model_validate({"change": [{"action": "remove", "item": "ghost"}]}))

@@ -47,22 +47,29 @@ def _aircraft_and_loading(seed: int):
             station["controls"] = True
     if rng.random() < 0.4:  # a fixed item listed as its own station
         arm = data["empty"]["arm"] + rng.uniform(-30, 30)
-        data["station"].append({"id": "fixed", "arm": round(arm, 2), "kind": "other", "min_weight": 15.0, "max_weight": 15.0})
+        data["station"].append(
+            {"id": "fixed", "arm": round(arm, 2), "kind": "other", "min_weight": 15.0, "max_weight": 15.0}
+        )
         given["load"]["fixed"] = 15.0
     if rng.random() < 0.4:  # a utility category inside the normal one, with a lower top
         normal = data["envelope"][0]
         ys = [p[1] for p in normal["points"]]
         cut = min(ys) + 0.8 * (max(ys) - min(ys))
-        data["envelope"].append({**normal, "category": "utility",
-                                 "points": [[p[0], min(p[1], cut)] for p in normal["points"]]})
+        data["envelope"].append(
+            {**normal, "category": "utility", "points": [[p[0], min(p[1], cut)] for p in normal["points"]]}
+        )
     data["meto_power_hp"] = 150
     try:
         aircraft = parse_aircraft(data)
     except LoadcheckError:
         return None, None
     category = rng.choice(aircraft.categories)
-    loading = Loading(category=category, load=given["load"], fuel=given["fuel"],
-                      burn={"taxi": given["taxi"], "trip": given["trip"], "order": given["order"] or "together"})
+    loading = Loading(
+        category=category,
+        load=given["load"],
+        fuel=given["fuel"],
+        burn={"taxi": given["taxi"], "trip": given["trip"], "order": given["order"] or "together"},
+    )
     try:
         return aircraft, resolve_loading(loading, aircraft)
     except LoadcheckError:

@@ -60,7 +60,9 @@ def test_bad_input(runner, case, tmp_path, monkeypatch):
     assert case["file"] in output, output
     for words in case["words"]:
         assert words in output, (words, output)
-    assert _digest(tmp_path) == before | {k: v for k, v in _digest(tmp_path).items() if k.endswith(".sqlite3") or "-wal" in k or "-shm" in k}
+    assert _digest(tmp_path) == before | {
+        k: v for k, v in _digest(tmp_path).items() if k.endswith(".sqlite3") or "-wal" in k or "-shm" in k
+    }
     assert _digest(SAMPLES) == samples_before
 
 
@@ -131,8 +133,15 @@ def _documents() -> list[tuple[str, str, dict[str, Any]]]:
     for path in sorted(SAMPLES.glob("*/*.toml")):
         name = path.relative_to(SAMPLES).as_posix()
         data = sample_data(name)
-        kind = ("aircraft" if path.name == "aircraft.toml" else "readings" if "point" in data
-                else "changes" if "change" in data else "loading")
+        kind = (
+            "aircraft"
+            if path.name == "aircraft.toml"
+            else "readings"
+            if "point" in data
+            else "changes"
+            if "change" in data
+            else "loading"
+        )
         documents.append((name, kind, data))
     timed = {"aircraft": "aircraft.toml", "load": {}, "burn": {"trip_time": "1:30", "rate": 9.5, "reserve": 5}}
     documents.append(("trainer4/timed.toml", "loading", timed))
@@ -155,8 +164,12 @@ def test_a_list_or_a_table_where_a_number_belongs_is_a_field_error(runner, tmp_p
         for value in WRONG_TYPES if every else [WRONG_TYPES[index % len(WRONG_TYPES)]]:
             target = folder / ("bad_" + filename)
             target.write_text(tomlkit.dumps(_replaced(data, field, value)))
-            args = {"aircraft": ["check", str(target)], "readings": ["weigh", str(folder / "aircraft.toml"), str(target)],
-                    "changes": ["alter", str(folder / "aircraft.toml"), str(target)], "loading": ["check", str(target)]}[kind]
+            args = {
+                "aircraft": ["check", str(target)],
+                "readings": ["weigh", str(folder / "aircraft.toml"), str(target)],
+                "changes": ["alter", str(folder / "aircraft.toml"), str(target)],
+                "loading": ["check", str(target)],
+            }[kind]
             result = runner.invoke(app, args)
             output = result.output
             assert result.exit_code == 2, (field, value, output)

@@ -36,7 +36,9 @@ def _mass(weight: float, arm: float, stations: dict[str, float], loads: dict[str
         empty={"weight": weight, "arm": arm},
         limits={"max_takeoff_weight": 1e7},
         station=[{"id": k, "arm": a, "kind": "cargo"} for k, a in stations.items()],
-        envelope=[{"category": "normal", "axes": ["arm", "weight"], "points": [[-1e4, 1], [-1e4, 1e7], [1e4, 1e7], [1e4, 1]]}],
+        envelope=[
+            {"category": "normal", "axes": ["arm", "weight"], "points": [[-1e4, 1], [-1e4, 1e7], [1e4, 1e7], [1e4, 1]]}
+        ],
     )
     return check_loading(aircraft, Loading(load=loads, fuel={"main": 0})).condition("zero_fuel")
 

@@ -109,14 +109,21 @@ def test_zero_fuel_cg_is_a_warning_unless_the_file_says_limit():
 
 
 def test_ok_false_exactly_when_a_limit_finding_exists():
-    for name in ["trainer4/within.toml", "trainer4/over_weight.toml", "tandem2/aft_ballast.toml",
-                 "twin6/leaves_path.toml", "twin6/zero_fuel_heavy.toml"]:
+    for name in [
+        "trainer4/within.toml",
+        "trainer4/over_weight.toml",
+        "tandem2/aft_ballast.toml",
+        "twin6/leaves_path.toml",
+        "twin6/zero_fuel_heavy.toml",
+    ]:
         result = run(name)
         assert result.ok == (not any(f.severity == "limit" for f in result.findings))
 
 
 def test_sequential_burn_empties_tanks_in_order(twin):
-    loading = Loading(load={"row1": 380}, fuel={"mains": 100, "aux": 40}, burn={"taxi": 2, "trip": 50, "order": ["aux", "mains"]})
+    loading = Loading(
+        load={"row1": 380}, fuel={"mains": 100, "aux": 40}, burn={"taxi": 2, "trip": 50, "order": ["aux", "mains"]}
+    )
     result = check_loading(twin, loading)
     assert result.condition("landing").fuel == pytest.approx(88.0)
     # the aux tank (aft, 104 in) empties first: landing moment has only mains fuel left

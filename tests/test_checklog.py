@@ -92,10 +92,12 @@ def test_a_record_from_before_seals_is_verified_and_says_what_it_cannot_check(ru
     with CheckLog(path):
         pass
     connection = sqlite3.connect(path)  # the table as an earlier version made it: no seal column
-    connection.executescript("DROP TRIGGER checks_never_deleted; DROP TABLE checks; CREATE TABLE checks ("
-                             "id INTEGER PRIMARY KEY AUTOINCREMENT, checked_at TEXT NOT NULL, registration TEXT, "
-                             "reference TEXT, pilot TEXT, source TEXT, category TEXT, ok INTEGER NOT NULL, "
-                             "fingerprint TEXT NOT NULL, inputs TEXT NOT NULL, result TEXT NOT NULL, version TEXT NOT NULL);")
+    connection.executescript(
+        "DROP TRIGGER checks_never_deleted; DROP TABLE checks; CREATE TABLE checks ("
+        "id INTEGER PRIMARY KEY AUTOINCREMENT, checked_at TEXT NOT NULL, registration TEXT, "
+        "reference TEXT, pilot TEXT, source TEXT, category TEXT, ok INTEGER NOT NULL, "
+        "fingerprint TEXT NOT NULL, inputs TEXT NOT NULL, result TEXT NOT NULL, version TEXT NOT NULL);"
+    )
     connection.close()
     record_id = _record(path, "trainer4/within.toml")
     _tamper(path, "UPDATE checks SET seal = NULL WHERE id = ?", record_id)
@@ -174,8 +176,20 @@ def test_a_long_listing_reads_only_what_it_shows(runner, db):
     from loadcheck.render.listing import PLAIN_ROWS
 
     with CheckLog(db) as log:
-        log.add_many([{"aircraft_data": {"x": 1}, "fingerprint": "f" * 16, "inputs": {}, "result": {"ok": i % 2 == 0},
-                       "registration": "DEMO-4T", "reference": f"R{i}", "pilot": "A. Pilot"} for i in range(PLAIN_ROWS + 5)])
+        log.add_many(
+            [
+                {
+                    "aircraft_data": {"x": 1},
+                    "fingerprint": "f" * 16,
+                    "inputs": {},
+                    "result": {"ok": i % 2 == 0},
+                    "registration": "DEMO-4T",
+                    "reference": f"R{i}",
+                    "pilot": "A. Pilot",
+                }
+                for i in range(PLAIN_ROWS + 5)
+            ]
+        )
     _tamper(db, "UPDATE checks SET result = 'not json' WHERE id = 3")
     result = runner.invoke(app, ["log", "list"])
     assert result.exit_code == 0, result.output
@@ -229,7 +243,10 @@ def test_a_trip_is_recorded_verified_listed_and_exported_as_one_record(runner, d
     # hand-worked (tests/test_trip.py): leg 2 takeoff 1,688 lb at 146,320 / 1,688 in, landing 1,628 lb
     assert float(rows[1]["takeoff_weight"]) == pytest.approx(1688.0)
     assert float(rows[1]["takeoff_arm"]) == pytest.approx(146320 / 1688)
-    assert float(rows[1]["landing_weight"]) == pytest.approx(1628.0) and rows[1]["first_finding"].startswith("aft") is False
+    assert (
+        float(rows[1]["landing_weight"]) == pytest.approx(1628.0)
+        and rows[1]["first_finding"].startswith("aft") is False
+    )
     assert "aft of the aft limit" in rows[1]["first_finding"] and rows[0]["first_finding"] == ""
     lines = [json.loads(line) for line in runner.invoke(app, ["log", "export"]).stdout.splitlines()]
     assert lines[0]["result"] == trip.to_dict() and lines[0]["inputs"]["leg"] and "legs" not in lines[3]["result"]
@@ -257,7 +274,9 @@ def test_single_records_are_unchanged_by_trips(runner, db):
     inputs = load_check_inputs(sample("trainer4/within.toml"))
     with CheckLog(db) as log:
         record = log.get(record_id)
-        assert record.result == check_loading(inputs.aircraft, inputs.loading).to_dict() and not record.inputs.get("leg")
+        assert record.result == check_loading(inputs.aircraft, inputs.loading).to_dict() and not record.inputs.get(
+            "leg"
+        )
         assert next(iter(log.listing()))[-1] == 1 and verify(log, record_id).reproduced
     (row,) = csv.DictReader(runner.invoke(app, ["log", "export", "--format", "csv"]).stdout.splitlines())
     assert (row["legs"], row["leg"], row["leg_ok"]) == ("1", "", "")
@@ -304,8 +323,12 @@ def test_records_list_does_not_load_the_aircraft_models(db, tmp_path):
     import sys
 
     _record(db, "trainer4/within.toml")
-    code = ("import sys; sys.argv = ['loadcheck', 'log', 'list', '--db', sys.argv[1]]\n"
-            "import loadcheck.cli as cli\ntry:\n    cli.main()\nexcept SystemExit as stop:\n    code = stop.code\n"
-            "print(code, [m for m in ('numpy', 'shapely', 'loadcheck.aircraft') if m in sys.modules], file=sys.stderr)")
-    done = subprocess.run([sys.executable, "-c", code, str(db)], capture_output=True, text=True, check=True, cwd=tmp_path)
+    code = (
+        "import sys; sys.argv = ['loadcheck', 'log', 'list', '--db', sys.argv[1]]\n"
+        "import loadcheck.cli as cli\ntry:\n    cli.main()\nexcept SystemExit as stop:\n    code = stop.code\n"
+        "print(code, [m for m in ('numpy', 'shapely', 'loadcheck.aircraft') if m in sys.modules], file=sys.stderr)"
+    )
+    done = subprocess.run(
+        [sys.executable, "-c", code, str(db)], capture_output=True, text=True, check=True, cwd=tmp_path
+    )
     assert done.stderr.strip() == "0 []", done.stderr

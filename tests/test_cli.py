@@ -56,8 +56,21 @@ def test_json_fields_follow_design():
 
 
 def test_options_alone_and_on_top_of_a_file():
-    result = invoke("check", TRAINER, "--load", "front=340", "--load", "rear=150", "--fuel", "mains=school",
-                    "--taxi", "1.2", "--trip", "18", "--json")
+    result = invoke(
+        "check",
+        TRAINER,
+        "--load",
+        "front=340",
+        "--load",
+        "rear=150",
+        "--fuel",
+        "mains=school",
+        "--taxi",
+        "1.2",
+        "--trip",
+        "18",
+        "--json",
+    )
     assert result.exit_code == 0, result.output
     data = json.loads(result.stdout)
     assert data["conditions"][0]["fuel"] == 30.0
@@ -73,9 +86,25 @@ def test_category_option():
 
 
 def test_trip_time_rate_order_reserve_options():
-    result = invoke("check", str(sample("twin6/aircraft.toml")), "--load", "row1=380", "--fuel", "mains=full",
-                    "--fuel", "aux=40", "--trip-time", "1:30", "--rate", "30", "--order", "aux,mains",
-                    "--reserve", "100", "--json")
+    result = invoke(
+        "check",
+        str(sample("twin6/aircraft.toml")),
+        "--load",
+        "row1=380",
+        "--fuel",
+        "mains=full",
+        "--fuel",
+        "aux=40",
+        "--trip-time",
+        "1:30",
+        "--rate",
+        "30",
+        "--order",
+        "aux,mains",
+        "--reserve",
+        "100",
+        "--json",
+    )
     data = json.loads(result.stdout)
     assert result.exit_code == 0
     assert data["conditions"][2]["fuel"] == pytest.approx(95.0)
@@ -200,17 +229,27 @@ def test_regression_output_into_a_closed_pipe_exited_1_or_was_an_internal_error(
     # said "internal error (BrokenPipeError)": a reader that stops early ends the process by SIGPIPE
     import signal
 
-    for args in (["check", str(sample("twin6/within.toml"))],
-                 ["fleet", "check", str(sample(".")), str(sample("fleet_day.csv")), "--no-log", "--json"]):
-        run = subprocess.run(f"{sys.executable} -m loadcheck {' '.join(args)} | head -c 10; exit ${{PIPESTATUS[0]}}",
-                             shell=True, executable="/bin/bash", capture_output=True, text=True, check=False)
+    for args in (
+        ["check", str(sample("twin6/within.toml"))],
+        ["fleet", "check", str(sample(".")), str(sample("fleet_day.csv")), "--no-log", "--json"],
+    ):
+        run = subprocess.run(
+            f"{sys.executable} -m loadcheck {' '.join(args)} | head -c 10; exit ${{PIPESTATUS[0]}}",
+            shell=True,
+            executable="/bin/bash",
+            capture_output=True,
+            text=True,
+            check=False,
+        )
         assert run.returncode == 128 + signal.SIGPIPE, (args, run.returncode, run.stderr)
         assert "internal error" not in run.stderr and "Traceback" not in run.stderr
 
 
 @pytest.mark.skipif(shutil.which("loadcheck") is None, reason="console script not installed")
 def test_console_script_exit_code_for_a_limit():
-    run = subprocess.run(["loadcheck", "check", str(sample("trainer4/over_weight.toml"))], capture_output=True, text=True, check=False)
+    run = subprocess.run(
+        ["loadcheck", "check", str(sample("trainer4/over_weight.toml"))], capture_output=True, text=True, check=False
+    )
     assert run.returncode == 1
 
 
@@ -231,9 +270,11 @@ def test_the_console_entry_builds_just_the_command_asked_for(args, code, words):
 
 
 def test_public_api_exposes_every_job_without_loading_them_at_start():
-    code = ("import sys, loadcheck\nassert 'loadcheck.planning' not in sys.modules\n"
-            "from loadcheck import most_fuel, weigh, alter, extremes, evaluate, loading_schedule\n"
-            "print(most_fuel.__module__)")
+    code = (
+        "import sys, loadcheck\nassert 'loadcheck.planning' not in sys.modules\n"
+        "from loadcheck import most_fuel, weigh, alter, extremes, evaluate, loading_schedule\n"
+        "print(most_fuel.__module__)"
+    )
     run = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=False)
     assert run.returncode == 0 and "loadcheck.planning" in run.stdout, run.stderr
 
@@ -269,8 +310,9 @@ def test_pydantic_plugins_enabled_by_the_user_are_still_looked_for(tmp_path):
 
     loading = trip_fleet(tmp_path / "fleet") / "trip.toml"
     env = {**os.environ, "PYDANTIC_DISABLE_PLUGINS": ""}  # the user's value is kept: plugins on
-    done = subprocess.run([sys.executable, "-c", _STARTUP, str(loading)], capture_output=True, text=True, check=True,
-                          env=env)
+    done = subprocess.run(
+        [sys.executable, "-c", _STARTUP, str(loading)], capture_output=True, text=True, check=True, env=env
+    )
     assert done.stderr.startswith("1 ['importlib.metadata']"), done.stderr
 
 
@@ -290,6 +332,7 @@ def test_the_plugin_loader_stand_in_hands_over_when_plugins_are_enabled(monkeypa
 
 
 # -- help that reads well (issue 15, item 5: `<list[str]>` and `{AIRCRAFT}` in the help) -----------
+
 
 def _every_command(command, path=()):
     yield list(path)
@@ -369,8 +412,15 @@ def test_fleet_check_logs_by_default_and_not_with_no_log(runner, tmp_path):
 
 
 def test_every_command_of_the_check_log_takes_db(runner):
-    for args in (["check"], ["fleet", "check"], ["log", "list"], ["log", "show"], ["log", "export"], ["log", "verify"],
-                 ["serve"]):
+    for args in (
+        ["check"],
+        ["fleet", "check"],
+        ["log", "list"],
+        ["log", "show"],
+        ["log", "export"],
+        ["log", "verify"],
+        ["serve"],
+    ):
         shown = runner.invoke(app, [*args, "--help"], env={"COLUMNS": "200"})
         assert shown.exit_code == 0 and "--db" in shown.output, args
     for args in (["check"], ["fleet", "check"]):
@@ -385,7 +435,9 @@ def test_old_log_options_and_group_are_refused_with_the_new_names(runner, tmp_pa
     assert not db.exists()
     old = runner.invoke(app, ["fleet", "check", SAMPLES_DIR, DAY, "--no-record"])  # rename.py: keep
     _assert_input_error(old, "--no-record", "--no-log")  # rename.py: keep
-    _assert_input_error(runner.invoke(app, ["records", "list", "--db", str(db)]), "records", "loadcheck log list")  # rename.py: keep
+    _assert_input_error(
+        runner.invoke(app, ["records", "list", "--db", str(db)]), "records", "loadcheck log list"
+    )  # rename.py: keep
 
 
 def test_old_log_variable_is_refused_not_ignored(runner, tmp_path, monkeypatch):
@@ -406,7 +458,9 @@ def test_old_log_variable_is_refused_not_ignored(runner, tmp_path, monkeypatch):
 
 
 def test_meto_power_under_its_old_key_is_refused_with_the_new_key(runner, tmp_path):
-    text = Path(TRAINER).read_text(encoding="utf-8").replace("meto_power_hp", "max_continuous_power_hp")  # rename.py: keep
+    text = (
+        Path(TRAINER).read_text(encoding="utf-8").replace("meto_power_hp", "max_continuous_power_hp")
+    )  # rename.py: keep
     path = tmp_path / "aircraft.toml"
     path.write_text(text, encoding="utf-8")
     result = runner.invoke(app, ["validate", str(path)])
@@ -422,7 +476,8 @@ def test_plan_stop_of_a_loading_of_one_leg_was_an_internal_error(runner):
 
 
 def test_unknown_export_format_is_an_input_error_naming_the_field():
-    # issue 21 (smaller): export_text raised a bare ValueError, outside the error hierarchy the front ends turn into exit 2
+    # issue 21 (smaller): export_text raised a bare ValueError, outside the error hierarchy
+    # the front ends turn into exit 2
     from loadcheck.checklog import export_text
     from loadcheck.errors import InputError
 

@@ -27,12 +27,19 @@ def test_show_completion_prints_the_script_for_this_shell(runner):
 
 def _completion(env_extra):
     env = {**os.environ, "PYTHONPATH": str(SAMPLES.parent), **env_extra}
-    return subprocess.run([sys.executable, "-m", "loadcheck"], capture_output=True, text=True, env=env, check=False,
-                          cwd=SAMPLES.parent)
+    return subprocess.run(
+        [sys.executable, "-m", "loadcheck"], capture_output=True, text=True, env=env, check=False, cwd=SAMPLES.parent
+    )
 
 
-@pytest.mark.parametrize("shell, words", [("bash", "complete -o default -F _loadcheck_completion loadcheck"),
-                                          ("zsh", "#compdef loadcheck"), ("fish", "complete --command loadcheck")])
+@pytest.mark.parametrize(
+    "shell, words",
+    [
+        ("bash", "complete -o default -F _loadcheck_completion loadcheck"),
+        ("zsh", "#compdef loadcheck"),
+        ("fish", "complete --command loadcheck"),
+    ],
+)
 def test_a_script_for_each_shell(shell, words):
     # what --install-completion writes, asked for by name
     done = _completion({"_LOADCHECK_COMPLETE": f"source_{shell}"})
@@ -40,12 +47,15 @@ def test_a_script_for_each_shell(shell, words):
     assert words in done.stdout and "_LOADCHECK_COMPLETE" in done.stdout
 
 
-@pytest.mark.parametrize("words, cword, expected", [
-    ("loadcheck ch", 1, "check"),
-    ("loadcheck plan f", 2, "fuel"),
-    ("loadcheck check --ca", 2, "--category"),
-    ("loadcheck fleet c", 2, "check"),
-])
+@pytest.mark.parametrize(
+    "words, cword, expected",
+    [
+        ("loadcheck ch", 1, "check"),
+        ("loadcheck plan f", 2, "fuel"),
+        ("loadcheck check --ca", 2, "--category"),
+        ("loadcheck fleet c", 2, "check"),
+    ],
+)
 def test_the_shell_gets_the_completions(words, cword, expected):
     # what bash does on TAB: call the program with the words typed so far
     done = _completion({"_LOADCHECK_COMPLETE": "complete_bash", "COMP_WORDS": words, "COMP_CWORD": str(cword)})

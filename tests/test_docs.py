@@ -41,11 +41,20 @@ def test_every_accepted_field_is_documented(model):
         *tables, key = path.split(".")
         if tables:
             assert any(row.endswith(f"` {key}") and tables[-1] in row for row in rows) or any(
-                row == f"`[[{path}]]`" or row == f"`[{path}]`" for row in rows), path
+                row == f"`[[{path}]]`" or row == f"`[{path}]`" for row in rows
+            ), path
         else:
             assert f"`{key}`" in rows or any(f"[{key}]" in row for row in rows), path
-    for words in ["seats", "controls", "[[equipment]]", "rotorcraft", "`[[station_group]]` id", "`registration`",
-                  "`reference`", "`pilot`"]:
+    for words in [
+        "seats",
+        "controls",
+        "[[equipment]]",
+        "rotorcraft",
+        "`[[station_group]]` id",
+        "`registration`",
+        "`reference`",
+        "`pilot`",
+    ]:
         assert words in page
 
 
@@ -56,7 +65,9 @@ def test_docs_link_only_to_pages_in_the_repository():
             if re.match(r"^[a-z]+:", target):
                 continue
             assert (page.parent / target).exists(), f"{page.name} links to {target}, which is not in the repository"
-        assert "DESIGN.md" not in text or page.name == "DEVELOPERS.md", f"{page.name} cites a page outside the repository"
+        assert "DESIGN.md" not in text or page.name == "DEVELOPERS.md", (
+            f"{page.name} cites a page outside the repository"
+        )
 
 
 # -- the tests mirror the package (DEVELOPERS.md, "Tests") ------------------------------------------
@@ -114,7 +125,9 @@ def _test_file(module: Path) -> str:
 
 
 def _modules() -> dict[str, str]:
-    return {m.relative_to(ROOT / "loadcheck").as_posix(): _test_file(m) for m in sorted((ROOT / "loadcheck").rglob("*.py"))}
+    return {
+        m.relative_to(ROOT / "loadcheck").as_posix(): _test_file(m) for m in sorted((ROOT / "loadcheck").rglob("*.py"))
+    }
 
 
 def test_every_module_of_the_package_has_its_test_file():

@@ -3,8 +3,9 @@
 
 Sources: the weighing arithmetic is tested against FAA-H-8083-1B in tests/test_weighing.py;
 here the rules about writing the record (loadcheck/empty_record.py), and its history. The
-10 % plausibility bound is common practice (no published figure); a record whose empty weight reaches the maximum takeoff weight leaves
-no useful load (FAA-H-8083-1B chapter 2, useful load = maximum weight - empty weight).
+10 % plausibility bound is common practice (no published figure); a record whose empty
+weight reaches the maximum takeoff weight leaves no useful load (FAA-H-8083-1B chapter 2,
+useful load = maximum weight - empty weight).
 """
 
 from __future__ import annotations
@@ -69,7 +70,9 @@ def test_an_implausible_change_needs_an_override_that_the_history_keeps(runner, 
     refused = _weigh(path, heavy, "--write", "--yes")
     assert refused.exit_code == 2 and "more than 10%" in refused.output and "--force" in refused.output
     assert path.read_bytes() == before
-    written = _weigh(path, heavy, "--write", "--yes", "--force", "--by", "J. Doe, A&P 1234567", "--why", "annual weighing")
+    written = _weigh(
+        path, heavy, "--write", "--yes", "--force", "--by", "J. Doe, A&P 1234567", "--why", "annual weighing"
+    )
     assert written.exit_code == 0, written.output
     (entry,) = load_aircraft(path).history
     assert entry.by == "J. Doe, A&P 1234567" and entry.note == "annual weighing"
@@ -127,7 +130,11 @@ def test_at_a_terminal_the_old_and_new_record_are_shown_and_asked(runner, tmp_pa
     result = runner.invoke(app, ["weigh", str(path), str(tmp_path / "weighing.toml"), "--write"], input=answer)
     assert result.exit_code == 0, result.output
     assert "Current and new empty-weight record" in result.output
-    assert "1,718.0 lb" in result.output and "1,685.8 lb" in result.output and "Make this the current record" in result.output
+    assert (
+        "1,718.0 lb" in result.output
+        and "1,685.8 lb" in result.output
+        and "Make this the current record" in result.output
+    )
     assert (path.read_bytes() != before) is written
 
 
@@ -157,8 +164,11 @@ def test_a_long_note_does_not_make_the_aircraft_file_unreadable(runner, tmp_path
     path = _trainer(tmp_path)
     note = "scale calibration log: " + "x" * 2_500_000
     long = tmp_path / "long.toml"
-    long.write_text((tmp_path / "weighing.toml").read_text().replace('weighed_by = "demo hangar"',
-                                                                   f'weighed_by = "demo hangar"\nnote = "{note}"'))
+    long.write_text(
+        (tmp_path / "weighing.toml")
+        .read_text()
+        .replace('weighed_by = "demo hangar"', f'weighed_by = "demo hangar"\nnote = "{note}"')
+    )
     for _ in range(3):
         assert _weigh(path, long, "--write", "--yes").exit_code == 0
     size = path.stat().st_size
@@ -187,18 +197,31 @@ def test_a_huge_readings_file_is_kept_as_its_digest(tmp_path):
     "edit",
     [
         # history as an inline array (the crash of issue 14 item 6)
-        lambda t: t.replace("[units]", 'history = [{recorded = 2020-01-01, reason = "weighing", '
-                            'previous = {weight = 1600.0, arm = 39.0}}]\n\n[units]', 1),
+        lambda t: t.replace(
+            "[units]",
+            'history = [{recorded = 2020-01-01, reason = "weighing", '
+            "previous = {weight = 1600.0, arm = 39.0}}]\n\n[units]",
+            1,
+        ),
         # [empty] as an inline table
-        lambda t: t.replace('[empty]\nweight = 1718.0\narm = 37.20\ndate = 2026-02-09\nbasis = "unusable fuel and full oil included"\n',
-                            "", 1).replace("[units]", "empty = {weight = 1718.0, arm = 37.20, date = 2026-02-09}\n\n[units]", 1),
+        lambda t: t.replace(
+            '[empty]\nweight = 1718.0\narm = 37.20\ndate = 2026-02-09\nbasis = "unusable fuel and full oil included"\n',
+            "",
+            1,
+        ).replace("[units]", "empty = {weight = 1718.0, arm = 37.20, date = 2026-02-09}\n\n[units]", 1),
         # [empty] as dotted keys at the top
-        lambda t: t.replace('[empty]\nweight = 1718.0\narm = 37.20\ndate = 2026-02-09\nbasis = "unusable fuel and full oil included"\n',
-                            "", 1).replace('registration = "DEMO-4T"', 'registration = "DEMO-4T"\nempty.weight = 1718.0\n'
-                                                                        'empty.arm = 37.20', 1),
+        lambda t: t.replace(
+            '[empty]\nweight = 1718.0\narm = 37.20\ndate = 2026-02-09\nbasis = "unusable fuel and full oil included"\n',
+            "",
+            1,
+        ).replace('registration = "DEMO-4T"', 'registration = "DEMO-4T"\nempty.weight = 1718.0\nempty.arm = 37.20', 1),
         # history as [[history]] with a [history.previous] sub-table, followed by more tables
-        lambda t: t.replace("[limits]", '[[history]]\nrecorded = 2020-01-01\nreason = "weighing"\n'
-                            '[history.previous]\nweight = 1600.0\narm = 39.0\n\n[limits]', 1),
+        lambda t: t.replace(
+            "[limits]",
+            '[[history]]\nrecorded = 2020-01-01\nreason = "weighing"\n'
+            "[history.previous]\nweight = 1600.0\narm = 39.0\n\n[limits]",
+            1,
+        ),
     ],
     ids=["inline-history", "inline-empty", "dotted-empty", "history-subtables"],
 )
@@ -219,8 +242,10 @@ def test_every_toml_layout_is_written_and_read_back(runner, tmp_path, edit, comm
 def test_an_inline_equipment_list_stays_inline(runner, tmp_path):
     path = _trainer(tmp_path)
     text = path.read_text()
-    inline = ('equipment = [{id = "com2", weight = 3.1, arm = 17.0}, {id = "elt", weight = 2.4, arm = 140.0}, '
-              '{id = "fairings", weight = 18.0, arm = 48.0}]\n\n')
+    inline = (
+        'equipment = [{id = "com2", weight = 3.1, arm = 17.0}, {id = "elt", weight = 2.4, arm = 140.0}, '
+        '{id = "fairings", weight = 18.0, arm = 48.0}]\n\n'
+    )
     path.write_text(text[: text.index("# Installed equipment")].replace("[units]", inline + "[units]", 1))
     assert runner.invoke(app, ["validate", str(path)]).exit_code == 0
     assert runner.invoke(app, ["alter", str(path), str(tmp_path / "changes.toml"), "--write", "--yes"]).exit_code == 0
@@ -235,10 +260,13 @@ def _heli(tmp_path: Path, lateral: str) -> tuple[Path, Path]:
     shutil.copy(sample("heli2/aircraft.toml"), tmp_path / "aircraft.toml")
     readings = tmp_path / "readings.toml"
     readings.write_text(
-        'format = 1\ndate = 2026-11-30\nweighed_by = "hangar 2"\n' + lateral
+        'format = 1\ndate = 2026-11-30\nweighed_by = "hangar 2"\n'
+        + lateral
         + "[[point]]\nlabel = 'front'\narm = 60.0\nreading = 300.0\n"
-        + "[[point]]\nlabel = 'rear left'\narm = 127.0\nreading = 295.0\n" + ("lateral_arm = -20.0\n" if not lateral else "")
-        + "[[point]]\nlabel = 'rear right'\narm = 127.0\nreading = 290.0\n" + ("lateral_arm = 20.0\n" if not lateral else "")
+        + "[[point]]\nlabel = 'rear left'\narm = 127.0\nreading = 295.0\n"
+        + ("lateral_arm = -20.0\n" if not lateral else "")
+        + "[[point]]\nlabel = 'rear right'\narm = 127.0\nreading = 290.0\n"
+        + ("lateral_arm = 20.0\n" if not lateral else "")
     )
     return tmp_path / "aircraft.toml", readings
 
@@ -266,10 +294,15 @@ def test_a_lateral_envelope_needs_lateral_readings_or_an_explicit_statement(runn
 
 def test_a_stale_trailing_comment_does_not_stay_on_the_new_value(tmp_path):
     path = _trainer(tmp_path)
-    path.write_text(path.read_text().replace("weight = 1718.0", "weight = 1718.0  # last weighing 2019")
-                    .replace("arm = 37.20", "arm = 37.20 # from the 2019 report")
-                    .replace('basis = "unusable fuel and full oil included"',
-                             'basis = "unusable fuel and full oil included"  # per the flight manual'))
+    path.write_text(
+        path.read_text()
+        .replace("weight = 1718.0", "weight = 1718.0  # last weighing 2019")
+        .replace("arm = 37.20", "arm = 37.20 # from the 2019 report")
+        .replace(
+            'basis = "unusable fuel and full oil included"',
+            'basis = "unusable fuel and full oil included"  # per the flight manual',
+        )
+    )
     assert _weigh(path, tmp_path / "weighing.toml", "--write", "--yes").exit_code == 0
     text = path.read_text()
     assert "last weighing 2019" not in text and "from the 2019 report" not in text
@@ -285,26 +318,28 @@ def test_the_weighing_record_shows_what_a_signer_needs(tmp_path):
     # extreme loadings, empty-weight CG range, signature block
     html = record_sheet(tmp_path, "weigh", sample("trainer4/aircraft.toml"), sample("trainer4/weighing.toml"))
     assert cell(html, "meta-weighed-on") == "2026-11-28" and cell(html, "meta-weighed-by") == "demo hangar"
-    geometry = html[html.index("id='geometry'"):]
+    geometry = html[html.index("id='geometry'") :]
     assert "nosewheel" in geometry and "datum forward" in geometry and "57.40 in" in geometry and "65.00 in" in geometry
     assert "Previous record</th><th>As weighed</th><th>New record</th>" in html
     assert "1,718.0 lb" in html and "1,685.8 lb" in html and "2026-02-09" in html  # previous and new
     assert "Empty-weight CG range: not given" in html
     assert "Most forward" in html and "Most rearward" in html and "Sorted against" in html
     for words in ("Name", "Certificate number", "Signature", "Date", "local aviation authority"):
-        assert words in html[html.index("class='caution'"):]
+        assert words in html[html.index("class='caution'") :]
     assert "http" not in html.replace("http-equiv", "")
 
 
 def test_the_weighing_record_shows_the_lateral_cg(tmp_path):
     shutil.copy(sample("heli2/aircraft.toml"), tmp_path / "aircraft.toml")
     readings = tmp_path / "readings.toml"
-    readings.write_text("format = 1\ndate = 2026-11-30\nweighed_by = 'hangar 2'\n"
-                        "[[point]]\nlabel = 'front'\narm = 60.0\nreading = 300.0\n"
-                        "[[point]]\nlabel = 'rear left'\narm = 127.0\nlateral_arm = -20.0\nreading = 295.0\n"
-                        "[[point]]\nlabel = 'rear right'\narm = 127.0\nlateral_arm = 20.0\nreading = 290.0\n")
+    readings.write_text(
+        "format = 1\ndate = 2026-11-30\nweighed_by = 'hangar 2'\n"
+        "[[point]]\nlabel = 'front'\narm = 60.0\nreading = 300.0\n"
+        "[[point]]\nlabel = 'rear left'\narm = 127.0\nlateral_arm = -20.0\nreading = 295.0\n"
+        "[[point]]\nlabel = 'rear right'\narm = 127.0\nlateral_arm = 20.0\nreading = 290.0\n"
+    )
     html = record_sheet(tmp_path, "weigh", tmp_path / "aircraft.toml", readings)
-    row = html[html.index("<td>lateral CG (+ right)</td>"):]
+    row = html[html.index("<td>lateral CG (+ right)</td>") :]
     row = row[: row.index("</tr>")]
     assert "0.40 in" in row and "-0.11 in" in row  # previous 0.4 in; new (290 - 295) x 20 / 885
     assert "Lateral arm (in, + right)" in html
@@ -314,14 +349,19 @@ def _printer() -> str | None:
     return shutil.which("chromium") or shutil.which("chromium-browser")
 
 
-@pytest.mark.skipif(_printer() is None or shutil.which("pdfinfo") is None or shutil.which("pdftotext") is None,
-                    reason="needs headless chromium and poppler-utils (pdfinfo, pdftotext)")
-@pytest.mark.parametrize("command, paper", [
-    ("weigh", "letter"),  # the default run prints one record; the other three (a headless browser each) with --long
-    pytest.param("weigh", "A4", marks=pytest.mark.slow),
-    pytest.param("alter", "letter", marks=pytest.mark.slow),
-    pytest.param("alter", "A4", marks=pytest.mark.slow),
-])
+@pytest.mark.skipif(
+    _printer() is None or shutil.which("pdfinfo") is None or shutil.which("pdftotext") is None,
+    reason="needs headless chromium and poppler-utils (pdfinfo, pdftotext)",
+)
+@pytest.mark.parametrize(
+    "command, paper",
+    [
+        ("weigh", "letter"),  # the default run prints one record; the other three (a headless browser each) with --long
+        pytest.param("weigh", "A4", marks=pytest.mark.slow),
+        pytest.param("alter", "letter", marks=pytest.mark.slow),
+        pytest.param("alter", "A4", marks=pytest.mark.slow),
+    ],
+)
 def test_the_printed_record_fits_one_page_with_its_signature_block(tmp_path, command, paper):
     source = sample("trainer4/weighing.toml" if command == "weigh" else "trainer4/changes.toml")
     html = record_sheet(tmp_path, command, sample("trainer4/aircraft.toml"), source)
@@ -329,14 +369,27 @@ def test_the_printed_record_fits_one_page_with_its_signature_block(tmp_path, com
     page = tmp_path / f"{paper}.html"  # the paper size a user picks in the print dialogue
     page.write_text(html.replace("@page { size: auto;", f"@page {{ size: {paper};"))
     pdf = tmp_path / f"{paper}.pdf"
-    subprocess.run([str(_printer()), "--headless", "--no-sandbox", "--disable-gpu", "--no-pdf-header-footer",
-                    f"--user-data-dir={tmp_path / 'profile'}", f"--print-to-pdf={pdf}", page.as_uri()],
-                   check=True, capture_output=True, timeout=120)
+    subprocess.run(
+        [
+            str(_printer()),
+            "--headless",
+            "--no-sandbox",
+            "--disable-gpu",
+            "--no-pdf-header-footer",
+            f"--user-data-dir={tmp_path / 'profile'}",
+            f"--print-to-pdf={pdf}",
+            page.as_uri(),
+        ],
+        check=True,
+        capture_output=True,
+        timeout=120,
+    )
     info = subprocess.run(["pdfinfo", str(pdf)], check=True, capture_output=True, text=True).stdout
     assert "Pages:           1" in info, info
     assert ("letter" if paper == "letter" else "A4") in info
-    first = subprocess.run(["pdftotext", "-f", "1", "-l", "1", "-layout", str(pdf), "-"], check=True, capture_output=True,
-                           text=True).stdout
+    first = subprocess.run(
+        ["pdftotext", "-f", "1", "-l", "1", "-layout", str(pdf), "-"], check=True, capture_output=True, text=True
+    ).stdout
     for words in ("Certificate number", "Signature", "Most rearward", "Empty-weight CG range", "CAUTION"):
         assert words in first
 
@@ -374,8 +427,10 @@ def test_a_crash_during_the_write_leaves_the_file_whole(runner, tmp_path, monkey
     path = _copy_trainer(tmp_path)
     before = path.read_bytes()
     if failure == "replace":
+
         def boom(*args, **kwargs):
             raise OSError(errno.EIO, "simulated crash")
+
         monkeypatch.setattr(files_module.os, "replace", boom)
     else:
         real_fdopen = os.fdopen
@@ -423,7 +478,11 @@ def test_file_changed_between_read_and_write_is_refused(runner, tmp_path, monkey
 @pytest.mark.parametrize(
     "command, text, words",
     [
-        ("weigh", "[[point]]\nlabel = 'nose'\narm = -6.8\nreading = 10.0\ntare = 12.0\n", "tare (12) is above the reading (10)"),
+        (
+            "weigh",
+            "[[point]]\nlabel = 'nose'\narm = -6.8\nreading = 10.0\ntare = 12.0\n",
+            "tare (12) is above the reading (10)",
+        ),
         ("alter", "[[change]]\naction = 'remove'\nitem = 'ghost'\n", "unknown item 'ghost'"),
         ("alter", "[[change]]\naction = 'relocate'\nitem = 'elt'\n", "needs its new_arm"),
         ("weigh", "[[point]]\nlabel = 'nose'\nwheel = 'nose'\nreading = 10.0\n", "[geometry]"),
@@ -443,8 +502,10 @@ def test_bad_mechanic_inputs_write_nothing(runner, tmp_path, command, text, word
 
 def test_mechanic_sheet(runner, tmp_path):
     sheet = tmp_path / "record.html"
-    result = runner.invoke(app, ["weigh", str(sample("trainer4/aircraft.toml")), str(sample("trainer4/weighing.toml")),
-                                 "--sheet", str(sheet)])
+    result = runner.invoke(
+        app,
+        ["weigh", str(sample("trainer4/aircraft.toml")), str(sample("trainer4/weighing.toml")), "--sheet", str(sheet)],
+    )
     assert result.exit_code == 0
     html = sheet.read_text()
     for words in ("Certificate number", "Signature", "local aviation authority", "Most forward", "1,685.8"):

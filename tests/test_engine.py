@@ -51,13 +51,17 @@ def test_random_loadings_agree(name, seed, data):
     aircraft = AIRCRAFT[name]
     order = data.draw(st.sampled_from(ORDERS[name]))
     category = data.draw(st.sampled_from(aircraft.categories))
-    assert_agree(aircraft, *random_loadings(aircraft, 60, order, seed, over=1.1, zero_trip=0.05), order=order, category=category)
+    assert_agree(
+        aircraft, *random_loadings(aircraft, 60, order, seed, over=1.1, zero_trip=0.05), order=order, category=category
+    )
 
 
 def test_points_exactly_on_limits_agree():
     # the simple box (35..48 in, 900..2000 lb): CG put exactly on the aft or forward limit
-    aircraft = simple_aircraft(tank=[{"id": "main", "arm": 48.0, "usable": 40, "fuel": "avgas"}],
-                               station=[{"id": "front", "arm": 35.0}, {"id": "rear", "arm": 70.0}, {"id": "nose", "arm": 0.0}])
+    aircraft = simple_aircraft(
+        tank=[{"id": "main", "arm": 48.0, "usable": 40, "fuel": "avgas"}],
+        station=[{"id": "front", "arm": 35.0}, {"id": "rear", "arm": 70.0}, {"id": "nose", "arm": 0.0}],
+    )
     rows = []
     for front in np.linspace(0, 400, 21):
         w0, m0 = 1000.0 + front, 40_000.0 + 35.0 * front
@@ -73,8 +77,9 @@ def test_points_exactly_on_limits_agree():
 
 def test_path_running_along_an_edge_agrees():
     # everything at 35 in: the CG sits on the forward limit for the whole burn
-    aircraft = simple_aircraft(empty={"weight": 1000.0, "arm": 35.0},
-                               tank=[{"id": "main", "arm": 35.0, "usable": 40, "fuel": "avgas"}])
+    aircraft = simple_aircraft(
+        empty={"weight": 1000.0, "arm": 35.0}, tank=[{"id": "main", "arm": 35.0, "usable": 40, "fuel": "avgas"}]
+    )
     stations = np.array([[200.0, 0.0, 0.0], [0.0, 0.0, 0.0]])
     fuel = np.array([[40.0], [10.0]])
     batch = evaluate(aircraft, stations, fuel, np.array([1.0, 0.0]), np.array([30.0, 10.0]))
@@ -84,8 +89,10 @@ def test_path_running_along_an_edge_agrees():
 
 def test_path_grazing_a_notch_corner_agrees():
     notch = [[35.0, 900.0], [35.0, 1500.0], [40.0, 1800.0], [40.0, 2000.0], [48.0, 2000.0], [48.0, 900.0]]
-    aircraft = simple_aircraft(envelope=[{"category": "normal", "axes": ["arm", "weight"], "points": notch}],
-                               tank=[{"id": "main", "arm": 55.0, "usable": 100, "fuel": "avgas"}])
+    aircraft = simple_aircraft(
+        envelope=[{"category": "normal", "axes": ["arm", "weight"], "points": notch}],
+        tank=[{"id": "main", "arm": 55.0, "usable": 100, "fuel": "avgas"}],
+    )
     rng = np.random.default_rng(3)
     n = 300
     stations = np.stack([rng.uniform(0, 400, n), rng.uniform(0, 150, n), rng.uniform(0, 100, n)], axis=1)
@@ -126,9 +133,15 @@ def test_large_batches_are_chunked_identically():
 def trainer_ramp(front, rear, category="utility"):
     """The trainer with 30 US gal in the mains (180 lb) and a 2 US gal taxi: ramp weight
     1,718 + front + rear + 180 lb (sample_aircraft/trainer4)."""
-    return check_loading(AIRCRAFT["trainer4"], Loading(
-        category=category, load={"front": front, "rear": rear}, fuel={"mains": 30.0, "centre": 0.0},
-        burn={"taxi": 2.0, "trip": 0.0}))
+    return check_loading(
+        AIRCRAFT["trainer4"],
+        Loading(
+            category=category,
+            load={"front": front, "rear": rear},
+            fuel={"mains": 30.0, "centre": 0.0},
+            burn={"taxi": 2.0, "trip": 0.0},
+        ),
+    )
 
 
 def ramp_findings(result):
@@ -144,8 +157,9 @@ def test_regression_utility_ramp_weight_far_above_the_envelope_top_was_reported_
     assert not ramp.ok
     assert ("envelope", "limit") in ramp_findings(result)
     assert ramp.margins.weight == pytest.approx(2290.0 + 12.0 - 2388.0)  # room to top + allowance, negative
-    assert not evaluate(AIRCRAFT["trainer4"], [[270.0, 220.0, 0.0]], [[30.0, 0.0]], [2.0], [0.0],
-                        category="utility").envelope_ok["ramp"][0]
+    assert not evaluate(
+        AIRCRAFT["trainer4"], [[270.0, 220.0, 0.0]], [[30.0, 0.0]], [2.0], [0.0], category="utility"
+    ).envelope_ok["ramp"][0]
 
 
 def test_regression_ramp_finding_and_ramp_margin_gave_two_excesses():
@@ -185,10 +199,18 @@ def test_normal_envelope_top_at_max_takeoff_keeps_the_ramp_allowance():
 
 def test_no_max_ramp_weight_means_no_ramp_allowance():
     # no max ramp weight: the allowance is 0, so a ramp above a utility top of 1,800 lb is outside it
-    utility = {"category": "utility", "axes": ["arm", "weight"], "points": [[35.0, 900], [35.0, 1800], [46.0, 1800], [46.0, 900]]}
+    utility = {
+        "category": "utility",
+        "axes": ["arm", "weight"],
+        "points": [[35.0, 900], [35.0, 1800], [46.0, 1800], [46.0, 900]],
+    }
     aircraft = simple_aircraft(envelope=[utility])
-    loading = Loading(category="utility", load={"front": 500.0, "rear": 100.0}, fuel={"main": 205.0 / 6.0},
-                      burn={"taxi": 1.0, "trip": 0.0})
+    loading = Loading(
+        category="utility",
+        load={"front": 500.0, "rear": 100.0},
+        fuel={"main": 205.0 / 6.0},
+        burn={"taxi": 1.0, "trip": 0.0},
+    )
     result = check_loading(aircraft, loading)
     assert result.conditions[0].weight == pytest.approx(1805.0)
     assert result.conditions[1].ok and not result.conditions[0].ok

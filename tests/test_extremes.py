@@ -56,9 +56,11 @@ def test_extremes_command_exit_status_follows_the_checks(runner):
 def _two_holds(**changes):
     """Two baggage holds behind the aft limit, 50 and 20 lb each, but 60 lb together."""
     data = {
-        "station": [{"id": "seat", "arm": 36.0, "kind": "seat", "controls": True},
-                    {"id": "hold_a", "arm": 95.0, "kind": "baggage", "max_weight": 50.0},
-                    {"id": "hold_b", "arm": 110.0, "kind": "baggage", "max_weight": 20.0}],
+        "station": [
+            {"id": "seat", "arm": 36.0, "kind": "seat", "controls": True},
+            {"id": "hold_a", "arm": 95.0, "kind": "baggage", "max_weight": 50.0},
+            {"id": "hold_b", "arm": 110.0, "kind": "baggage", "max_weight": 20.0},
+        ],
         "station_group": [{"label": "All baggage", "stations": ["hold_a", "hold_b"], "max_weight": 60.0}],
         "meto_power_hp": 120,
     }
@@ -92,12 +94,20 @@ def test_extremes_name_the_occupants_not_a_maximum():
     # regression: "at its maximum (154 kg)" for a two-seat row whose maximum is 180 kg
     aircraft = simple_aircraft(
         units={"mass": "kg", "arm": "mm", "fuel_volume": "l"},
-        empty={"weight": 600.0, "arm": 1000.0}, limits={"max_takeoff_weight": 1000.0},
-        station=[{"id": "front", "arm": 900.0, "kind": "seat", "controls": True},
-                 {"id": "rear", "arm": 1800.0, "kind": "seat", "seats": 2, "max_weight": 180.0}],
+        empty={"weight": 600.0, "arm": 1000.0},
+        limits={"max_takeoff_weight": 1000.0},
+        station=[
+            {"id": "front", "arm": 900.0, "kind": "seat", "controls": True},
+            {"id": "rear", "arm": 1800.0, "kind": "seat", "seats": 2, "max_weight": 180.0},
+        ],
         tank=[{"id": "main", "arm": 1000.0, "usable": 100.0, "fuel": "avgas"}],
-        envelope=[{"category": "normal", "axes": ["arm", "weight"],
-                   "points": [[800, 500], [800, 1000], [1400, 1000], [1400, 500]]}],
+        envelope=[
+            {
+                "category": "normal",
+                "axes": ["arm", "weight"],
+                "points": [[800, 500], [800, 1000], [1400, 1000], [1400, 500]],
+            }
+        ],
         meto_power_hp=100,
     )
     notes = " ".join(extremes(aircraft, occupant_weight=77.0).rearward.notes)
@@ -139,8 +149,15 @@ def _loading_of(check, aircraft):
     return Loading(load=stations, fuel=fuel, burn={"taxi": 0.0, "trip": ramp.fuel - landing.fuel})
 
 
-@pytest.mark.parametrize("option, value, words", [("--occupant", "0", "--occupant"), ("--occupant", "-5", "--occupant"),
-                                                  ("--meto", "-100", "--meto"), ("--meto", "0", "--meto")])
+@pytest.mark.parametrize(
+    "option, value, words",
+    [
+        ("--occupant", "0", "--occupant"),
+        ("--occupant", "-5", "--occupant"),
+        ("--meto", "-100", "--meto"),
+        ("--meto", "0", "--meto"),
+    ],
+)
 def test_bad_occupant_and_power_are_refused_by_name(runner, option, value, words):
     # issue 13: --occupant 0 silently used the default; -5 seated negative people;
     # --meto -100 gave errors that did not name --meto

@@ -90,12 +90,16 @@ def test_batch_agrees_row_by_row_with_single_checks(runner, records):
 
 def test_summary_table_and_exit_codes(runner, records, tmp_path):
     good = tmp_path / "good.csv"
-    good.write_text("registration,reference,front,rear,mains,centre,taxi,trip\nDEMO-4T,R1,340,150,school,0,1.2,18\nDEMO-4T,R2,200,0,30,0,1,10\n")
+    good.write_text(
+        "registration,reference,front,rear,mains,centre,taxi,trip\nDEMO-4T,R1,340,150,school,0,1.2,18\nDEMO-4T,R2,200,0,30,0,1,10\n"
+    )
     ok = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(good)])
     assert ok.exit_code == 0 and "2 flights: 2 within limits" in ok.output
     over = tmp_path / "over.csv"
     over.write_text("registration,reference,front,rear,hold,mains,centre\nDEMO-4T,R3,380,340,100,full,full\n")
-    result = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(over)], env={"COLUMNS": "250"})  # the finding on one line
+    result = runner.invoke(
+        app, ["fleet", "check", str(SAMPLES), str(over)], env={"COLUMNS": "250"}
+    )  # the finding on one line
     assert result.exit_code == 1 and "OUT" in result.output and "maximum ramp weight" in result.output
 
 
@@ -139,8 +143,10 @@ def test_duplicate_registration_rows_are_refused(runner, records, tmp_path):
 def test_folder_of_loading_files(runner, records, tmp_path):
     folder = tmp_path / "day"
     folder.mkdir()
-    (folder / "one.toml").write_text('registration = "DEMO-2T"\nreference = "F1"\n[load]\nfront = 80\n[fuel]\nwing = "full"\n')
-    (folder / "two.toml").write_text('[load]\nfront = 80\n')
+    (folder / "one.toml").write_text(
+        'registration = "DEMO-2T"\nreference = "F1"\n[load]\nfront = 80\n[fuel]\nwing = "full"\n'
+    )
+    (folder / "two.toml").write_text("[load]\nfront = 80\n")
     result = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(folder), "--json"])
     lines = _json_lines(result.stdout)
     assert result.exit_code == 2 and len(lines) == 2
@@ -157,7 +163,9 @@ def test_record_survives_an_edit_and_verify_reproduces_it(runner, tmp_path, reco
     aircraft.write_text(aircraft.read_text().replace("weight = 1718.0", "weight = 1750.0"))
     with CheckLog(records) as log:
         (record,) = list(log.find())
-    assert record.result["conditions"][0]["weight"] == pytest.approx(json.loads(first.stdout)["conditions"][0]["weight"])
+    assert record.result["conditions"][0]["weight"] == pytest.approx(
+        json.loads(first.stdout)["conditions"][0]["weight"]
+    )
     verify = runner.invoke(app, ["log", "verify", str(record.id), "--db", str(records)])
     assert verify.exit_code == 0 and "reproduced" in verify.output
     shown = runner.invoke(app, ["log", "show", str(record.id), "--db", str(records)])
@@ -185,15 +193,33 @@ def test_export_and_list(runner, records):
     assert all(float(r["takeoff_weight"]) > 0 and float(r["landing_arm"]) > 0 for r in rows)
     assert "Advisory computation only" in exported.stderr  # CSV rows have no room for the caution
     jsonl = runner.invoke(app, ["log", "export", "--since", "2000-01-01", "--until", "2999-12-31"])
-    assert len(_json_lines(jsonl.stdout)) == len(rows) + sum(1 for _ in _json_lines(jsonl.stdout) if _["registration"] != "DEMO-2T")
+    assert len(_json_lines(jsonl.stdout)) == len(rows) + sum(
+        1 for _ in _json_lines(jsonl.stdout) if _["registration"] != "DEMO-2T"
+    )
     none = runner.invoke(app, ["log", "export", "--until", "2000-01-01"])
     assert none.stdout == ""
     assert runner.invoke(app, ["log", "show", "999999"]).exit_code == 2
 
 
 def _run_fleet(db: Path, csv_path: Path) -> subprocess.Popen:
-    return subprocess.Popen([sys.executable, "-m", "loadcheck", "fleet", "check", str(SAMPLES), str(csv_path),
-                             "--log", "--db", str(db), "--json"], stdout=subprocess.DEVNULL, stderr=subprocess.PIPE, text=True)
+    return subprocess.Popen(
+        [
+            sys.executable,
+            "-m",
+            "loadcheck",
+            "fleet",
+            "check",
+            str(SAMPLES),
+            str(csv_path),
+            "--log",
+            "--db",
+            str(db),
+            "--json",
+        ],
+        stdout=subprocess.DEVNULL,
+        stderr=subprocess.PIPE,
+        text=True,
+    )
 
 
 def test_two_writers_lose_nothing(tmp_path):
@@ -302,9 +328,23 @@ def test_the_workers_of_a_killed_fleet_check_end(tmp_path):
     # SIGKILL of `fleet check` left its worker processes waiting for work for ever (about
     # 100 MB each); they must end when their parent dies
     day = _write_day(tmp_path / "day.csv", 6_000)
-    process = subprocess.Popen([sys.executable, "-m", "loadcheck", "fleet", "check", str(SAMPLES), str(day),
-                                "--no-log", "--json", "--workers", "2"],
-                               stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL)
+    process = subprocess.Popen(
+        [
+            sys.executable,
+            "-m",
+            "loadcheck",
+            "fleet",
+            "check",
+            str(SAMPLES),
+            str(day),
+            "--no-log",
+            "--json",
+            "--workers",
+            "2",
+        ],
+        stdout=subprocess.DEVNULL,
+        stderr=subprocess.DEVNULL,
+    )
     workers: list[int] = []
     try:
         deadline = time.monotonic() + 60
@@ -354,8 +394,7 @@ def test_a_flight_within_limits_carries_its_warnings(runner, records, tmp_path):
     # the fleet table showed "within" for a row with warnings (a blank tank cell taken as
     # empty, landing fuel below the reserve): the flight's data must carry them
     day = tmp_path / "day.csv"
-    day.write_text("registration,reference,front,mains,aux,trip,reserve\n"
-                   "DEMO-6P,W1,,30,,20,15\n")
+    day.write_text("registration,reference,front,mains,aux,trip,reserve\nDEMO-6P,W1,,30,,20,15\n")
     fleet = load_fleet(SAMPLES)
     (flight,) = list(check_flights(fleet, read_loadings(day, fleet)[0]))
     assert flight.result is not None and flight.ok, flight.problems
@@ -379,7 +418,9 @@ def _random_loadings(aircraft, count: int, seed: int, order=None):
     rng = np.random.default_rng(seed)
     out = []
     for _ in range(count):
-        load = {s.id: float(rng.uniform(0, (s.max_weight or 200) * 1.1)) for s in aircraft.station if rng.random() < 0.8}
+        load = {
+            s.id: float(rng.uniform(0, (s.max_weight or 200) * 1.1)) for s in aircraft.station if rng.random() < 0.8
+        }
         fuel = {t.id: float(rng.uniform(0, t.usable)) for t in aircraft.tank}
         burnable = sum(fuel.values()) if order is None else sum(fuel[t] for t in order)
         taxi = min(float(rng.uniform(0, 2)), burnable)
@@ -392,8 +433,10 @@ def _random_loadings(aircraft, count: int, seed: int, order=None):
     return out
 
 
-@pytest.mark.parametrize("name, order", [("trainer4", None), ("twin6", ("aux", "mains")), ("twin6", None),
-                                         ("tandem2", None), ("heli2", None)])
+@pytest.mark.parametrize(
+    "name, order",
+    [("trainer4", None), ("twin6", ("aux", "mains")), ("twin6", None), ("tandem2", None), ("heli2", None)],
+)
 def test_batch_results_equal_single_checks_on_random_loadings(name, order):
     # the fleet builds every row's result from one engine call per aircraft, its margins cut
     # for all rows at once; each must be the single check's result for that row (margins,
@@ -437,11 +480,13 @@ def test_a_long_fleet_table_is_plain_text_and_cuts_nothing(runner, records, tmp_
 def test_check_json_does_not_load_rich_and_holds_blas_to_one_thread():
     # start-up: a plain check --json paid for importing rich, and numpy's BLAS thread pool
     # spun at start-up
-    code = ("import os, sys; sys.argv = ['loadcheck', 'check', %r, '--json']\n"
-            "import loadcheck.cli as c\n"
-            "try:\n    c.main()\nexcept SystemExit:\n    pass\n"
-            "print(sorted(m for m in sys.modules if m.split('.')[0] in ('rich', 'matplotlib')), "
-            "os.environ['OPENBLAS_NUM_THREADS'], file=sys.stderr)" % str(sample("trainer4/within.toml")))
+    code = (
+        "import os, sys; sys.argv = ['loadcheck', 'check', %r, '--json']\n"
+        "import loadcheck.cli as c\n"
+        "try:\n    c.main()\nexcept SystemExit:\n    pass\n"
+        "print(sorted(m for m in sys.modules if m.split('.')[0] in ('rich', 'matplotlib')), "
+        "os.environ['OPENBLAS_NUM_THREADS'], file=sys.stderr)" % str(sample("trainer4/within.toml"))
+    )
     env = {k: v for k, v in os.environ.items() if not k.endswith("_NUM_THREADS")}
     done = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, env=env, check=True)
     assert json.loads(done.stdout)["ok"] is True
@@ -496,8 +541,9 @@ def test_a_fleet_trip_whose_second_leg_fails_exits_1_naming_leg_2(runner, tmp_pa
     ramp = next(c for c in trip["legs"][1]["conditions"] if c["condition"] == "ramp")
     assert ramp["weight"] == pytest.approx(1694.0) and ramp["arm"] == pytest.approx(146860 / 1694)
     # the table: the trip's verdict, then each leg with its line, verdict and first finding named by leg and condition
-    table = runner.invoke(app, ["fleet", "check", str(folder), str(folder / "day.csv"), "--no-log"],
-                          env={"COLUMNS": "200"})
+    table = runner.invoke(
+        app, ["fleet", "check", str(folder), str(folder / "day.csv"), "--no-log"], env={"COLUMNS": "200"}
+    )
     assert table.exit_code == 1
     text = table.stdout
     assert "OUT (trip A, 2 legs)" in text and "leg 1: within" in text and "leg 2: OUT" in text
@@ -525,26 +571,42 @@ def test_fleet_trip_results_are_check_trip_of_the_same_loading_file(tmp_path):
     # a folder of loading files takes the same trip (a loading file with [[leg]] tables)
     loadings = tmp_path / "loadings"
     loadings.mkdir()
-    (loadings / "trip.toml").write_text('registration = "TEST-T"\n' + (folder / "trip.toml").read_text()
-                                        .replace('aircraft = "aircraft.toml"\n', ""))
+    (loadings / "trip.toml").write_text(
+        'registration = "TEST-T"\n' + (folder / "trip.toml").read_text().replace('aircraft = "aircraft.toml"\n', "")
+    )
     from_folder = next(check_flights(fleet, read_loadings(loadings, fleet)[0]))
     assert from_folder.result == from_file
 
 
-@pytest.mark.parametrize(("rows", "words"), [
-    # a gap in the numbered legs
-    (["TEST-T,F1,A,1,180,0,30,1,10", "TEST-T,,A,3,,400,,1,10"], ["day.csv:3: leg 3 of trip 'A' where leg 2 comes next"]),
-    # a leg row for a trip not begun
-    (["TEST-T,F1,A,2,180,0,30,1,10"], ["day.csv:2: leg 2 of trip 'A', but no leg 1"]),
-    # a leg number with no trip
-    (["TEST-T,F1,,2,180,0,30,1,10"], ["day.csv:2: leg 2 of no trip"]),
-    # two aircraft in one trip
-    (["TEST-T,F1,A,1,180,0,30,1,10", "TEST-U,,A,2,,400,,1,10"],
-     ["day.csv:3: registration 'TEST-U' differs from the first row of trip 'A' ('TEST-T' at line 2)"]),
-    # a trip in parts, with another flight between them: both parts refused
-    (["TEST-T,F1,A,,180,0,30,1,10", "TEST-T,F2,,,180,0,20,1,5", "TEST-T,,A,,,400,,1,10"],
-     ["trip 'A' is given in parts", "lines 2 and 4", "trip 'A' (line 2) is not checked", "trip 'A' (line 4) is not checked"]),
-])
+@pytest.mark.parametrize(
+    ("rows", "words"),
+    [
+        # a gap in the numbered legs
+        (
+            ["TEST-T,F1,A,1,180,0,30,1,10", "TEST-T,,A,3,,400,,1,10"],
+            ["day.csv:3: leg 3 of trip 'A' where leg 2 comes next"],
+        ),
+        # a leg row for a trip not begun
+        (["TEST-T,F1,A,2,180,0,30,1,10"], ["day.csv:2: leg 2 of trip 'A', but no leg 1"]),
+        # a leg number with no trip
+        (["TEST-T,F1,,2,180,0,30,1,10"], ["day.csv:2: leg 2 of no trip"]),
+        # two aircraft in one trip
+        (
+            ["TEST-T,F1,A,1,180,0,30,1,10", "TEST-U,,A,2,,400,,1,10"],
+            ["day.csv:3: registration 'TEST-U' differs from the first row of trip 'A' ('TEST-T' at line 2)"],
+        ),
+        # a trip in parts, with another flight between them: both parts refused
+        (
+            ["TEST-T,F1,A,,180,0,30,1,10", "TEST-T,F2,,,180,0,20,1,5", "TEST-T,,A,,,400,,1,10"],
+            [
+                "trip 'A' is given in parts",
+                "lines 2 and 4",
+                "trip 'A' (line 2) is not checked",
+                "trip 'A' (line 4) is not checked",
+            ],
+        ),
+    ],
+)
 def test_a_malformed_trip_is_refused_whole_naming_its_rows(runner, tmp_path, rows, words):
     from .test_trip import trip_fleet
 

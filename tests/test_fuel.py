@@ -44,8 +44,9 @@ def test_default_density_in_any_units_agrees_with_pint(mass, volume):
     assert default_density("avgas", mass, volume) == pytest.approx(expected, rel=1e-12)
 
 
-@pytest.mark.parametrize("mass, volume", [("lb", "usgal"), ("kg", "l"), ("kg", "impgal"), ("lb", "l"), ("lb", "impgal"),
-                                          ("kg", "usgal")])
+@pytest.mark.parametrize(
+    "mass, volume", [("lb", "usgal"), ("kg", "l"), ("kg", "impgal"), ("lb", "l"), ("lb", "impgal"), ("kg", "usgal")]
+)
 def test_the_plausible_density_range_in_any_units_agrees_with_pint(mass, volume):
     names = {"lb": "pound", "kg": "kilogram", "usgal": "gallon", "l": "liter", "impgal": "imperial_gallon"}
     low, high = density_range(mass, volume)
@@ -63,13 +64,16 @@ def test_the_plausible_range_holds_the_specification_figures():
     assert low <= 0.690 * (1 - 0.001 * 35) and 0.840 * (1 + 0.001 * 55) <= high  # +50 degC and -40 degC
 
 
-@pytest.mark.parametrize("value, mass, volume, hint", [
-    (0.72, "lb", "usgal", "kg/l"),  # a kg/L figure in a lb / US gal file
-    (6.0, "kg", "l", "lb/usgal"),  # a lb / US gal figure in a kg / L file
-    (6.0, "lb", "impgal", "lb/usgal"),  # avgas per US gallon in an imperial-gallon file (7.2 lb / imp gal)
-    (720.0, "kg", "l", None),  # kg/m^3
-    (1.0, "kg", "l", None),  # water
-])
+@pytest.mark.parametrize(
+    "value, mass, volume, hint",
+    [
+        (0.72, "lb", "usgal", "kg/l"),  # a kg/L figure in a lb / US gal file
+        (6.0, "kg", "l", "lb/usgal"),  # a lb / US gal figure in a kg / L file
+        (6.0, "lb", "impgal", "lb/usgal"),  # avgas per US gallon in an imperial-gallon file (7.2 lb / imp gal)
+        (720.0, "kg", "l", None),  # kg/m^3
+        (1.0, "kg", "l", None),  # water
+    ],
+)
 def test_a_density_in_the_wrong_units_is_refused_with_a_hint(value, mass, volume, hint):
     problem = density_problem(value, mass, volume)
     assert problem is not None and f"{mass}/{volume}" in problem

@@ -23,17 +23,93 @@ from loadcheck.cli import app
 
 from .helpers import SAMPLES, examples, sample_data
 
-FIELDS = ["format", "name", "registration", "units", "mass", "arm", "fuel_volume", "empty", "weight", "lateral_arm",
-          "limits", "max_takeoff_weight", "max_ramp_weight", "station", "id", "kind", "max_weight", "min_weight", "tank",
-          "usable", "fuel", "density", "levels", "arm_table", "envelope", "category", "axes", "points", "moment_scale",
-          "mac", "length", "leading_edge_arm", "load", "burn", "taxi", "trip", "order", "reserve", "front", "mains",
-          "station_group", "stations", "history", "equipment", "zero_fuel_cg", "trip_time", "rate", "aircraft", "point",
-          "reading", "tare", "change", "action", "item", "new_arm"]
-WORDS = ["lb", "kg", "in", "mm", "usgal", "l", "avgas", "jet", "normal", "arm", "weight", "moment", "mac",
-         "lateral_arm", "together", "full", "school", "20 kg", "3 usgal", "-1", "1e999", "nan", "2:15", "x" * 300, ""]
+FIELDS = [
+    "format",
+    "name",
+    "registration",
+    "units",
+    "mass",
+    "arm",
+    "fuel_volume",
+    "empty",
+    "weight",
+    "lateral_arm",
+    "limits",
+    "max_takeoff_weight",
+    "max_ramp_weight",
+    "station",
+    "id",
+    "kind",
+    "max_weight",
+    "min_weight",
+    "tank",
+    "usable",
+    "fuel",
+    "density",
+    "levels",
+    "arm_table",
+    "envelope",
+    "category",
+    "axes",
+    "points",
+    "moment_scale",
+    "mac",
+    "length",
+    "leading_edge_arm",
+    "load",
+    "burn",
+    "taxi",
+    "trip",
+    "order",
+    "reserve",
+    "front",
+    "mains",
+    "station_group",
+    "stations",
+    "history",
+    "equipment",
+    "zero_fuel_cg",
+    "trip_time",
+    "rate",
+    "aircraft",
+    "point",
+    "reading",
+    "tare",
+    "change",
+    "action",
+    "item",
+    "new_arm",
+]
+WORDS = [
+    "lb",
+    "kg",
+    "in",
+    "mm",
+    "usgal",
+    "l",
+    "avgas",
+    "jet",
+    "normal",
+    "arm",
+    "weight",
+    "moment",
+    "mac",
+    "lateral_arm",
+    "together",
+    "full",
+    "school",
+    "20 kg",
+    "3 usgal",
+    "-1",
+    "1e999",
+    "nan",
+    "2:15",
+    "x" * 300,
+    "",
+]
 
 scalars = st.one_of(
-    st.integers(-10**12, 10**12),
+    st.integers(-(10**12), 10**12),
     st.floats(allow_nan=True, allow_infinity=True),
     st.sampled_from(WORDS),
     st.text(max_size=12),
@@ -125,12 +201,21 @@ def test_mutated_sample_aircraft(runner, tmp_path_factory, name, draw):
     folder = tmp_path_factory.mktemp("fuzz")
     path = folder / "aircraft.toml"
     path.write_text(text)
-    loading = sample_data({"trainer4": "trainer4/within.toml", "tandem2": "tandem2/solo.toml",
-                           "twin6": "twin6/within.toml", "heli2": "heli2/dual.toml"}[name])
+    loading = sample_data(
+        {
+            "trainer4": "trainer4/within.toml",
+            "tandem2": "tandem2/solo.toml",
+            "twin6": "twin6/within.toml",
+            "heli2": "heli2/dual.toml",
+        }[name]
+    )
     loading.pop("aircraft", None)
     (folder / "loading.toml").write_text(tomlkit.dumps(loading))
-    for args in (["check", str(path), str(folder / "loading.toml"), "--json"], ["extremes", str(path)],
-                 ["plan", "fuel", str(path), str(folder / "loading.toml")]):
+    for args in (
+        ["check", str(path), str(folder / "loading.toml"), "--json"],
+        ["extremes", str(path)],
+        ["plan", "fuel", str(path), str(folder / "loading.toml")],
+    ):
         result = runner.invoke(app, args)
         _assert_clean(result)
         if args[-1] == "--json" and result.exit_code in (0, 1):
@@ -138,11 +223,57 @@ def test_mutated_sample_aircraft(runner, tmp_path_factory, name, draw):
             assert all(math.isfinite(c["weight"]) for c in data_out["conditions"])
 
 
-cells = st.one_of(st.sampled_from(["", "170", "-5", "nan", "full", "school", "20 kg", "DEMO-4T", "DEMO-6P", "x", "1e309",
-                                   "aux;mains", "together", "0"]), st.text(max_size=8))
-headers = st.lists(st.sampled_from(["registration", "reference", "pilot", "front", "rear", "hold", "hold [kg]",
-                                    "mains", "aux", "wing", "row1", "nose", "taxi", "trip", "order", "trip_time", "rate",
-                                    "category", "ballast", "nowhere", "front [parsec]"]), min_size=1, max_size=8, unique=True)
+cells = st.one_of(
+    st.sampled_from(
+        [
+            "",
+            "170",
+            "-5",
+            "nan",
+            "full",
+            "school",
+            "20 kg",
+            "DEMO-4T",
+            "DEMO-6P",
+            "x",
+            "1e309",
+            "aux;mains",
+            "together",
+            "0",
+        ]
+    ),
+    st.text(max_size=8),
+)
+headers = st.lists(
+    st.sampled_from(
+        [
+            "registration",
+            "reference",
+            "pilot",
+            "front",
+            "rear",
+            "hold",
+            "hold [kg]",
+            "mains",
+            "aux",
+            "wing",
+            "row1",
+            "nose",
+            "taxi",
+            "trip",
+            "order",
+            "trip_time",
+            "rate",
+            "category",
+            "ballast",
+            "nowhere",
+            "front [parsec]",
+        ]
+    ),
+    min_size=1,
+    max_size=8,
+    unique=True,
+)
 
 
 @FUZZ
@@ -164,11 +295,26 @@ def test_random_csv_shapes(runner, tmp_path_factory, header, rows):
 
 # -- issue 13: repeated command-line options; CSV headers built from the aircraft's own ids ------
 
-OPTION_VALUES = [("--load", "front=170"), ("--load", "front=190"), ("-l", "front=100"), ("--load", "rear=80"),
-                 ("--load", "hold=20 kg"), ("--fuel", "mains=10"), ("-f", "mains=full"), ("--taxi", "1"),
-                 ("--taxi", "2 lb"), ("--trip", "10"), ("--trip", "20 lb"), ("--reserve", "5"), ("--category", "normal"),
-                 ("-c", "utility"), ("--order", "together"), ("--trip-time", "1:00"), ("--rate", "9 gph"),
-                 ("--rate", "36 l/h")]
+OPTION_VALUES = [
+    ("--load", "front=170"),
+    ("--load", "front=190"),
+    ("-l", "front=100"),
+    ("--load", "rear=80"),
+    ("--load", "hold=20 kg"),
+    ("--fuel", "mains=10"),
+    ("-f", "mains=full"),
+    ("--taxi", "1"),
+    ("--taxi", "2 lb"),
+    ("--trip", "10"),
+    ("--trip", "20 lb"),
+    ("--reserve", "5"),
+    ("--category", "normal"),
+    ("-c", "utility"),
+    ("--order", "together"),
+    ("--trip-time", "1:00"),
+    ("--rate", "9 gph"),
+    ("--rate", "36 l/h"),
+]
 ALIASES = {"-l": "--load", "-f": "--fuel", "-c": "--category"}
 
 
@@ -194,8 +340,13 @@ def test_repeated_command_line_options(runner, options):
                 assert math.isclose(weights[station], expected, rel_tol=1e-12), (station, weights)
 
 
-_FLEET_IDS = {reg: data for reg, data in (
-    (d["registration"], d) for d in (sample_data(f"{n}/aircraft.toml") for n in ("trainer4", "tandem2", "twin6", "heli2")))}
+_FLEET_IDS = {
+    reg: data
+    for reg, data in (
+        (d["registration"], d)
+        for d in (sample_data(f"{n}/aircraft.toml") for n in ("trainer4", "tandem2", "twin6", "heli2"))
+    )
+}
 RESERVED_HEADERS = ["reference", "pilot", "date", "taxi", "trip", "reserve", "label"]
 
 

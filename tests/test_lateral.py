@@ -71,8 +71,14 @@ MIRRORED = parse_aircraft(_mirror(HELI))
 HELICOPTER = parse_aircraft(HELI)
 
 heli_loadings = st.fixed_dictionaries(
-    {"left": st.floats(0, 250), "right": st.floats(0, 250), "bag_left": st.floats(0, 35),
-     "bag_right": st.floats(0, 35), "fuel": st.floats(2, 32.0), "trip": st.floats(0, 1)}
+    {
+        "left": st.floats(0, 250),
+        "right": st.floats(0, 250),
+        "bag_left": st.floats(0, 35),
+        "bag_right": st.floats(0, 35),
+        "fuel": st.floats(2, 32.0),
+        "trip": st.floats(0, 1),
+    }
 )
 
 
@@ -101,10 +107,18 @@ def test_mirroring_lateral_arms_mirrors_the_lateral_cg(values):
 @settings(max_examples=examples(100), deadline=None)
 @given(st.floats(30, 60), st.floats(0, 40), st.floats(0, 1), st.sampled_from(["together", "sequence"]))
 def test_constant_arm_table_equals_fixed_arm(arm, fuel, share, order):
-    fixed = simple_aircraft(tank=[{"id": "main", "arm": arm, "usable": 40, "fuel": "avgas"},
-                                  {"id": "aux", "arm": 50.0, "usable": 10, "fuel": "avgas"}])
-    table = simple_aircraft(tank=[{"id": "main", "arm_table": [[0, arm], [15, arm], [40, arm]], "usable": 40, "fuel": "avgas"},
-                                  {"id": "aux", "arm": 50.0, "usable": 10, "fuel": "avgas"}])
+    fixed = simple_aircraft(
+        tank=[
+            {"id": "main", "arm": arm, "usable": 40, "fuel": "avgas"},
+            {"id": "aux", "arm": 50.0, "usable": 10, "fuel": "avgas"},
+        ]
+    )
+    table = simple_aircraft(
+        tank=[
+            {"id": "main", "arm_table": [[0, arm], [15, arm], [40, arm]], "usable": 40, "fuel": "avgas"},
+            {"id": "aux", "arm": 50.0, "usable": 10, "fuel": "avgas"},
+        ]
+    )
     burn = {"trip": (fuel + 5) * share, "order": "together" if order == "together" else ["main", "aux"]}
     loading = Loading(load={"front": 200}, fuel={"main": fuel, "aux": 5}, burn=burn)
     first, second = check_loading(fixed, loading), check_loading(table, loading)
@@ -172,10 +186,16 @@ HANDBOOK_MIRRORED = parse_aircraft(_mirror_moment(HANDBOOK_HELICOPTER))
 def test_mirroring_every_lateral_arm_mirrors_a_trips_lateral_results(pilot, passenger, fuel, first, second):
     # FAA-H-8083-1B ch. 8 layout (published arms), invented limits: see tests/test_trip.py
     trip1 = (fuel - 1) * first
-    data = {"load": {"pilot_seat": pilot, "passenger_seat": passenger}, "fuel": {"main": fuel},
-            "burn": {"taxi": 0.5, "trip": trip1},
-            "leg": [{"load": {"passenger_seat": 0}, "burn": {"taxi": 0, "trip": (fuel - 0.5 - trip1) * second}}]}
-    a, b = check_trip(HANDBOOK, Loading.model_validate(data)), check_trip(HANDBOOK_MIRRORED, Loading.model_validate(data))
+    data = {
+        "load": {"pilot_seat": pilot, "passenger_seat": passenger},
+        "fuel": {"main": fuel},
+        "burn": {"taxi": 0.5, "trip": trip1},
+        "leg": [{"load": {"passenger_seat": 0}, "burn": {"taxi": 0, "trip": (fuel - 0.5 - trip1) * second}}],
+    }
+    a, b = (
+        check_trip(HANDBOOK, Loading.model_validate(data)),
+        check_trip(HANDBOOK_MIRRORED, Loading.model_validate(data)),
+    )
     assert a.ok == b.ok
     flip = {"left": "right", "right": "left"}
     for x, y in zip(a.legs, b.legs, strict=True):
@@ -185,4 +205,5 @@ def test_mirroring_every_lateral_arm_mirrors_a_trips_lateral_results(pilot, pass
             assert q.lateral_arm == pytest.approx(-p.lateral_arm, abs=1e-12)
             assert (q.weight, q.arm, q.ok) == (p.weight, p.arm, p.ok)
     assert sorted((f.leg, f.code, f.condition, flip.get(f.side, f.side)) for f in a.findings) == sorted(
-        (f.leg, f.code, f.condition, f.side) for f in b.findings)
+        (f.leg, f.code, f.condition, f.side) for f in b.findings
+    )

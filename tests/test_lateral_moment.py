@@ -29,14 +29,16 @@ MOMENTS = [[-2500.0, 1000], [-3750.0, 1500], [3750.0, 1500], [2500.0, 1000]]  # 
 def _heli(lateral_envelope: dict) -> object:
     data = sample_data("heli2/aircraft.toml")
     data["envelope"] = [e for e in data["envelope"] if "lateral_arm" not in e["axes"]] + [
-        {"category": "normal", "label": "lateral", **lateral_envelope}]
+        {"category": "normal", "label": "lateral", **lateral_envelope}
+    ]
     return parse_aircraft(data)
 
 
 ARM = _heli({"axes": ["lateral_arm", "weight"], "points": BOX})
 MOMENT = _heli({"axes": ["lateral_moment", "weight"], "points": MOMENTS})
-MOMENT_100 = _heli({"axes": ["lateral_moment", "weight"], "moment_scale": 100.0,
-                    "points": [[m / 100.0, w] for m, w in MOMENTS]})
+MOMENT_100 = _heli(
+    {"axes": ["lateral_moment", "weight"], "moment_scale": 100.0, "points": [[m / 100.0, w] for m, w in MOMENTS]}
+)
 
 
 @pytest.mark.parametrize("seed", [1, 2, 3])
@@ -57,8 +59,11 @@ def _solo_right(aircraft):
     seats = [s for s in aircraft.station if s.kind == "seat"]
     right = max(seats, key=lambda s: s.lateral_arm or 0.0)
     tank = aircraft.tank[0]
-    return Loading(load={right.id: right.max_weight or 110.0}, fuel={tank.id: tank.usable * 0.02},
-                   burn={"trip": tank.usable * 0.01})
+    return Loading(
+        load={right.id: right.max_weight or 110.0},
+        fuel={tank.id: tank.usable * 0.02},
+        burn={"trip": tank.usable * 0.01},
+    )
 
 
 def test_findings_of_a_lateral_moment_envelope_are_in_moment_units():

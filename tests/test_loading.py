@@ -18,12 +18,20 @@ from .helpers import simple_aircraft
 
 # -- fuel carried over and added ------------------------------------------------------------
 
-TWO_TANKS = simple_aircraft(tank=[{"id": "aux", "arm": 60.0, "usable": 10.0, "fuel": "avgas"},
-                                  {"id": "mains", "arm": 45.0, "usable": 40.0, "fuel": "avgas", "levels": {"local": 25.0}}])
+TWO_TANKS = simple_aircraft(
+    tank=[
+        {"id": "aux", "arm": 60.0, "usable": 10.0, "fuel": "avgas"},
+        {"id": "mains", "arm": 45.0, "usable": 40.0, "fuel": "avgas", "levels": {"local": 25.0}},
+    ]
+)
 
 
 def _trip(*legs, **first):
-    base = {"load": {"front": 180}, "fuel": {"aux": 10, "mains": 30}, "burn": {"taxi": 1, "trip": 14, "order": ["aux", "mains"]}}
+    base = {
+        "load": {"front": 180},
+        "fuel": {"aux": 10, "mains": 30},
+        "burn": {"taxi": 1, "trip": 14, "order": ["aux", "mains"]},
+    }
     return Loading.model_validate({**base, **first, "leg": list(legs)})
 
 
@@ -36,10 +44,15 @@ def test_fuel_carries_over_tank_by_tank_in_the_burn_order():
     assert three.fuel == pytest.approx({"aux": 0.0, "mains": 20.0}) and three.plan.order is None
 
 
-@pytest.mark.parametrize("add, aux, mains", [
-    ({"aux": 4}, 4.0, 25.0), ({"mains": "full"}, 0.0, 40.0), ({"mains": "local"}, 0.0, 25.0),
-    ({"aux": "12 lb", "mains": "3 usgal"}, 2.0, 28.0),  # 12 lb of avgas at 6.0 lb/US gal is 2 US gal
-])
+@pytest.mark.parametrize(
+    "add, aux, mains",
+    [
+        ({"aux": 4}, 4.0, 25.0),
+        ({"mains": "full"}, 0.0, 40.0),
+        ({"mains": "local"}, 0.0, 25.0),
+        ({"aux": "12 lb", "mains": "3 usgal"}, 2.0, 28.0),  # 12 lb of avgas at 6.0 lb/US gal is 2 US gal
+    ],
+)
 def test_fuel_added_at_a_stop(add, aux, mains):
     trip = resolve_trip(_trip({"add_fuel": add, "burn": {"trip": 5}}), TWO_TANKS)
     assert trip.legs[1].fuel == pytest.approx({"aux": aux, "mains": mains})
@@ -47,11 +60,14 @@ def test_fuel_added_at_a_stop(add, aux, mains):
     assert result.legs[1].check.condition("ramp").fuel == pytest.approx(aux + mains)
 
 
-@pytest.mark.parametrize("add, words, error", [
-    ({"mains": 20}, "above the tank's usable capacity", InputError),
-    ({"aux": "local"}, "unknown fill level", UnknownNameError),
-    ({"wing": 5}, "unknown tank", UnknownNameError),
-])
+@pytest.mark.parametrize(
+    "add, words, error",
+    [
+        ({"mains": 20}, "above the tank's usable capacity", InputError),
+        ({"aux": "local"}, "unknown fill level", UnknownNameError),
+        ({"wing": 5}, "unknown tank", UnknownNameError),
+    ],
+)
 def test_fuel_that_cannot_go_in_is_refused(add, words, error):
     with pytest.raises(error, match=words):
         resolve_trip(_trip({"add_fuel": add, "burn": {"trip": 5}}), TWO_TANKS)
@@ -59,8 +75,13 @@ def test_fuel_that_cannot_go_in_is_refused(add, words, error):
 
 def test_a_level_below_the_fuel_on_board_is_refused():
     with pytest.raises(InputError, match="more than the level"):  # 29 gal on board, the local level is 25
-        resolve_trip(_trip({"add_fuel": {"mains": "local"}, "burn": {"trip": 5}},
-                            burn={"taxi": 1, "trip": 10, "order": ["aux", "mains"]}), TWO_TANKS)
+        resolve_trip(
+            _trip(
+                {"add_fuel": {"mains": "local"}, "burn": {"trip": 5}},
+                burn={"taxi": 1, "trip": 10, "order": ["aux", "mains"]},
+            ),
+            TWO_TANKS,
+        )
 
 
 def test_a_leg_that_burns_more_than_it_carries_is_refused():

@@ -2,7 +2,8 @@
 
 Random aircraft: convex and non-convex (star-shaped) envelopes on arm-weight,
 moment/1000-weight and %MAC-weight axes, with lateral envelopes (lateral arm or lateral
-moment against weight) and tanks whose arm moves with the fuel; random loadings, sequential and proportional burns. The default run checks
+moment against weight) and tanks whose arm moves with the fuel; random loadings, sequential and proportional burns.
+The default run checks
 600 cases, `pytest --long` 10,000 (tests/conftest.py, ORACLE_CASES); the engine's batch
 path is checked on rows of tests/helpers.random_loadings, one aircraft per 30 cases.
 
@@ -35,8 +36,12 @@ def random_polygon(rng: random.Random, center: tuple[float, float], radius: tupl
     points = []
     for angle in angles:
         scale = 1.0 if convex else rng.uniform(0.45, 1.0)
-        points.append((round(center[0] + scale * radius[0] * math.cos(angle), 3),
-                       round(center[1] + scale * radius[1] * math.sin(angle), 1)))
+        points.append(
+            (
+                round(center[0] + scale * radius[0] * math.cos(angle), 3),
+                round(center[1] + scale * radius[1] * math.sin(angle), 1),
+            )
+        )
     return points
 
 
@@ -51,15 +56,22 @@ def random_case(seed: int) -> tuple[dict, dict]:
     if axes == "arm":
         points, envelope = base, {"axes": ["arm", "weight"]}
     elif axes == "moment":
-        points, envelope = [(round(a * w / 1000, 4), w) for a, w in base], {"axes": ["moment", "weight"], "moment_scale": 1000}
+        points, envelope = (
+            [(round(a * w / 1000, 4), w) for a, w in base],
+            {"axes": ["moment", "weight"], "moment_scale": 1000},
+        )
     else:
-        points, envelope = [(round(100 * (a - mac["leading_edge_arm"]) / mac["length"], 4), w) for a, w in base], {"axes": ["mac", "weight"]}
+        points, envelope = (
+            [(round(100 * (a - mac["leading_edge_arm"]) / mac["length"], 4), w) for a, w in base],
+            {"axes": ["mac", "weight"]},
+        )
     envelope.update({"category": "normal", "points": [list(p) for p in points]})
     lateral = rng.random() < 0.3
     top = max(w for _, w in base)
     empty_weight = round(weight_c - rw * rng.uniform(0.3, 0.9), 1)
     aircraft = {
-        "name": f"random {seed}", "registration": f"R{seed}",
+        "name": f"random {seed}",
+        "registration": f"R{seed}",
         "units": {"mass": "lb", "arm": "in", "fuel_volume": "usgal"},
         "empty": {"weight": empty_weight, "arm": round(arm_c + rng.uniform(-3, 3), 2)},
         "limits": {"max_takeoff_weight": round(top * rng.uniform(0.95, 1.05), 1)},
@@ -80,11 +92,18 @@ def random_case(seed: int) -> tuple[dict, dict]:
             lateral_envelope = {"axes": ["lateral_arm", "weight"], "points": [list(p) for p in lat_points]}
         else:  # drawn as lateral moment against weight (FAA-H-8083-1B ch. 8, fig. 8-3), moment / 1 or / 100
             scale = rng.choice([1.0, 100.0])
-            lateral_envelope = {"axes": ["lateral_moment", "weight"], "moment_scale": scale,
-                                "points": [[round(a * w / scale, 4), w] for a, w in lat_points]}
+            lateral_envelope = {
+                "axes": ["lateral_moment", "weight"],
+                "moment_scale": scale,
+                "points": [[round(a * w / scale, 4), w] for a, w in lat_points],
+            }
         aircraft["envelope"].append({"category": "normal", **lateral_envelope})
     for i in range(rng.randint(2, 4)):
-        station = {"id": f"s{i}", "arm": round(arm_c + rng.uniform(-20, 45), 2), "max_weight": round(rng.uniform(100, 500), 1)}
+        station = {
+            "id": f"s{i}",
+            "arm": round(arm_c + rng.uniform(-20, 45), 2),
+            "max_weight": round(rng.uniform(100, 500), 1),
+        }
         if lateral:
             station["lateral_arm"] = round(rng.uniform(-15, 15), 2)
         aircraft["station"].append(station)
@@ -101,7 +120,9 @@ def random_case(seed: int) -> tuple[dict, dict]:
         if lateral:
             tank["lateral_arm"] = round(rng.uniform(-10, 10), 2)
         aircraft["tank"].append(tank)
-    load = {s["id"]: round(rng.uniform(0, s["max_weight"] * 1.05), 1) for s in aircraft["station"] if rng.random() < 0.8}
+    load = {
+        s["id"]: round(rng.uniform(0, s["max_weight"] * 1.05), 1) for s in aircraft["station"] if rng.random() < 0.8
+    }
     fuel = {t["id"]: round(rng.uniform(0, t["usable"]), 2) for t in aircraft["tank"]}
     order = None if rng.random() < 0.5 else [t["id"] for t in aircraft["tank"]][:: rng.choice([1, -1])]
     burnable = sum(fuel.values()) if order is None else sum(fuel[t] for t in order)
@@ -117,14 +138,19 @@ def compare(seed: int) -> list[str]:
         aircraft = parse_aircraft(aircraft_data)
     except LoadcheckError:
         return []  # a random polygon may self-intersect after rounding: the library refuses it, fail closed
-    loading = Loading(load=loading_data["load"], fuel=loading_data["fuel"],
-                      burn={"taxi": loading_data["taxi"], "trip": loading_data["trip"],
-                            "order": loading_data["order"] or "together"})
+    loading = Loading(
+        load=loading_data["load"],
+        fuel=loading_data["fuel"],
+        burn={"taxi": loading_data["taxi"], "trip": loading_data["trip"], "order": loading_data["order"] or "together"},
+    )
     result = check_loading(aircraft, loading)
     expected = oracle.verdicts(aircraft_data, loading_data)
     got = {c.condition: c.ok for c in result.conditions} | {"burn_path": result.burn_path.ok, "ok": result.ok}
-    return [f"seed {seed}: {key} library {got[key]} oracle {value}" for key, value in expected.items()
-            if value is not None and got[key] != value]
+    return [
+        f"seed {seed}: {key} library {got[key]} oracle {value}"
+        for key, value in expected.items()
+        if value is not None and got[key] != value
+    ]
 
 
 def test_oracle_agrees(oracle_cases):
@@ -152,15 +178,21 @@ def test_the_batch_engine_agrees_with_the_oracle(oracle_cases):
         stations, fuel, taxi, trip = random_loadings(aircraft, rows, order, seed=seed, zero_trip=0.1)
         batch = evaluate(aircraft, stations, fuel, taxi, trip, order=order)
         for i in range(rows):
-            loading = {"load": {s.id: float(stations[i, j]) for j, s in enumerate(aircraft.station)},
-                       "fuel": {t.id: float(fuel[i, j]) for j, t in enumerate(aircraft.tank)},
-                       "order": order, "taxi": float(taxi[i]), "trip": float(trip[i])}
+            loading = {
+                "load": {s.id: float(stations[i, j]) for j, s in enumerate(aircraft.station)},
+                "fuel": {t.id: float(fuel[i, j]) for j, t in enumerate(aircraft.tank)},
+                "order": order,
+                "taxi": float(taxi[i]),
+                "trip": float(trip[i]),
+            }
             got = {name: bool(ok[i]) for name, ok in batch.condition_ok.items()}
             got |= {"burn_path": bool(batch.burn_path_ok[i]), "ok": bool(batch.ok[i])}
             verdicts_seen.add(got["ok"])
-            disagreements += [f"seed {seed} row {i}: {key} engine {got[key]} oracle {value}"
-                              for key, value in oracle.verdicts(aircraft_data, loading).items()
-                              if value is not None and got[key] != value]
+            disagreements += [
+                f"seed {seed} row {i}: {key} engine {got[key]} oracle {value}"
+                for key, value in oracle.verdicts(aircraft_data, loading).items()
+                if value is not None and got[key] != value
+            ]
         if len(disagreements) > 20:
             break
     assert not disagreements, "\n".join(disagreements)
@@ -204,10 +236,14 @@ def _state_at(envelope, aircraft, x: float, y: float) -> tuple[float, float, flo
 def test_oracle_itself_on_a_hand_case(seed):
     # the oracle's arithmetic on the simple box is the textbook sum of moments
     aircraft = {
-        "units": {"mass": "lb", "arm": "in", "fuel_volume": "usgal"}, "empty": {"weight": 1000.0, "arm": 40.0},
-        "limits": {"max_takeoff_weight": 2000.0}, "station": [{"id": "a", "arm": 35.0}],
+        "units": {"mass": "lb", "arm": "in", "fuel_volume": "usgal"},
+        "empty": {"weight": 1000.0, "arm": 40.0},
+        "limits": {"max_takeoff_weight": 2000.0},
+        "station": [{"id": "a", "arm": 35.0}],
         "tank": [{"id": "t", "arm": 45.0, "usable": 40.0, "fuel": "avgas"}],
-        "envelope": [{"category": "normal", "axes": ["arm", "weight"], "points": [[35, 900], [35, 2000], [48, 2000], [48, 900]]}],
+        "envelope": [
+            {"category": "normal", "axes": ["arm", "weight"], "points": [[35, 900], [35, 2000], [48, 2000], [48, 900]]}
+        ],
     }
     w, m, _ = oracle.state(aircraft, {"a": F(200)}, {"t": F(10 * seed)})
     assert w == 1200 + 60 * seed and m == 40000 + 7000 + 60 * seed * 45

@@ -38,17 +38,29 @@ def _brute(aircraft, make, low, high, n=301):
     return [x for x in np.linspace(low, high, n) if _ok(aircraft, make(x))]
 
 
-trainer_loads = st.fixed_dictionaries({
-    "front": st.floats(120, 420), "rear": st.floats(0, 380), "hold": st.floats(0, 120),
-    "trip": st.floats(0, 30), "category": st.sampled_from(["normal", "utility"]),
-})
+trainer_loads = st.fixed_dictionaries(
+    {
+        "front": st.floats(120, 420),
+        "rear": st.floats(0, 380),
+        "hold": st.floats(0, 120),
+        "trip": st.floats(0, 30),
+        "category": st.sampled_from(["normal", "utility"]),
+    }
+)
 
 
 @settings(max_examples=examples(8), deadline=None, suppress_health_check=[HealthCheck.too_slow])
 @given(trainer_loads)
 def test_most_fuel_agrees_with_brute_force_and_is_never_unsafe(v):
-    loading = resolve_loading(Loading(category=v["category"], load={k: v[k] for k in ("front", "rear", "hold")},
-                                      fuel={"mains": 44, "centre": 12}, burn={"taxi": 1, "trip": v["trip"]}), TRAINER)
+    loading = resolve_loading(
+        Loading(
+            category=v["category"],
+            load={k: v[k] for k in ("front", "rear", "hold")},
+            fuel={"mains": 44, "centre": 12},
+            burn={"taxi": 1, "trip": v["trip"]},
+        ),
+        TRAINER,
+    )
     answer = P.most_fuel(TRAINER, loading)
     fill = lambda x: P._fuel_loading(TRAINER, loading, None, x)  # noqa: E731
     feasible = _brute(TRAINER, fill, 0.0, 56.0)
@@ -64,18 +76,27 @@ def test_most_fuel_agrees_with_brute_force_and_is_never_unsafe(v):
     assert answer.answer >= max(feasible) - 0.1 / 6.0
 
 
-twin_loads = st.fixed_dictionaries({
-    "row1": st.floats(150, 440), "row2": st.floats(0, 440), "row3": st.floats(0, 400), "nose": st.floats(0, 250),
-    "aft": st.floats(0, 200), "trip": st.floats(5, 80), "order": st.sampled_from([["aux", "mains"], "together"]),
-})
+twin_loads = st.fixed_dictionaries(
+    {
+        "row1": st.floats(150, 440),
+        "row2": st.floats(0, 440),
+        "row3": st.floats(0, 400),
+        "nose": st.floats(0, 250),
+        "aft": st.floats(0, 200),
+        "trip": st.floats(5, 80),
+        "order": st.sampled_from([["aux", "mains"], "together"]),
+    }
+)
 
 
 @settings(max_examples=examples(6), deadline=None, suppress_health_check=[HealthCheck.too_slow])
 @given(twin_loads, st.sampled_from(["row1", "row3", "nose", "aft"]))
 def test_most_payload_agrees_with_brute_force(v, station):
     load = {k: v[k] for k in ("row1", "row2", "row3", "nose", "aft")}
-    loading = resolve_loading(Loading(load=load, fuel={"mains": 100, "aux": 40},
-                                      burn={"taxi": 2, "trip": v["trip"], "order": v["order"]}), TWIN)
+    loading = resolve_loading(
+        Loading(load=load, fuel={"mains": 100, "aux": 40}, burn={"taxi": 2, "trip": v["trip"], "order": v["order"]}),
+        TWIN,
+    )
     answer = P.most_payload(TWIN, loading, station)
     top = TWIN.station_by_id[station].max_weight
     make = lambda x: P._with(loading, stations={**loading.stations, station: x})  # noqa: E731
@@ -109,14 +130,22 @@ def test_published_weight_shift_example():
     # FAA-H-8083-25 (Pilot's Handbook of Aeronautical Knowledge), Weight and Balance
     # chapter, weight shifting: 7,800 lb at CG 81.5 in, aft limit 80.5 in; cargo moved from
     # station 150 to station 30. Weight shifted = 7,800 x 1.0 / 120 = 65 lb.
-    aircraft = parse_aircraft({
-        "name": "Shift example", "units": {"mass": "lb", "arm": "in", "fuel_volume": "usgal"},
-        "empty": {"weight": 7300.0, "arm": (7800 * 81.5 - 500 * 150) / 7300},
-        "limits": {"max_takeoff_weight": 8000},
-        "station": [{"id": "fwd", "arm": 30.0, "kind": "cargo"}, {"id": "aft", "arm": 150.0, "kind": "cargo"}],
-        "envelope": [{"category": "normal", "axes": ["arm", "weight"],
-                      "points": [[70.0, 5000], [70.0, 8000], [80.5, 8000], [80.5, 5000]]}],
-    })
+    aircraft = parse_aircraft(
+        {
+            "name": "Shift example",
+            "units": {"mass": "lb", "arm": "in", "fuel_volume": "usgal"},
+            "empty": {"weight": 7300.0, "arm": (7800 * 81.5 - 500 * 150) / 7300},
+            "limits": {"max_takeoff_weight": 8000},
+            "station": [{"id": "fwd", "arm": 30.0, "kind": "cargo"}, {"id": "aft", "arm": 150.0, "kind": "cargo"}],
+            "envelope": [
+                {
+                    "category": "normal",
+                    "axes": ["arm", "weight"],
+                    "points": [[70.0, 5000], [70.0, 8000], [80.5, 8000], [80.5, 5000]],
+                }
+            ],
+        }
+    )
     loading = resolve_loading(Loading(load={"aft": 500}), aircraft)
     assert check_loading(aircraft, loading).condition("takeoff").arm == pytest.approx(81.5)
     to_limit = P.weight_shift(aircraft, loading, "aft", "fwd", target_arm=80.5)
@@ -148,8 +177,12 @@ def test_longest_trip_and_fuel_to_leave():
     assert trip.extra["time at the rate"] == f"{minutes // 60}:{minutes % 60:02d}"
     leave = P.fuel_to_leave(inputs.aircraft, inputs.loading, "rear", 220.0)
     assert leave.feasible and leave.answer > 0
-    lighter = P._fuel_loading(inputs.aircraft, P._with(inputs.loading, stations={**inputs.loading.stations, "rear": 220.0}),
-                              None, sum(inputs.loading.fuel.values()) - leave.answer)
+    lighter = P._fuel_loading(
+        inputs.aircraft,
+        P._with(inputs.loading, stations={**inputs.loading.stations, "rear": 220.0}),
+        None,
+        sum(inputs.loading.fuel.values()) - leave.answer,
+    )
     assert check_loading(inputs.aircraft, lighter).ok
 
 
@@ -169,7 +202,11 @@ def test_impossible_requests():
         (["plan", "payload", "trainer4/within.toml", "--station", "nowhere"], 2, "unknown station"),
         (["plan", "ballast", "trainer4/within.toml"], 2, "no ballast station"),
         (["plan", "ballast", "tandem2/aft_heavy.toml", "--station", "baggage"], 1, "no amount can"),
-        (["plan", "shift", "tandem2/aft_heavy.toml", "--from", "baggage", "--to", "front", "--target", "2 m"], 1, "no solution"),
+        (
+            ["plan", "shift", "tandem2/aft_heavy.toml", "--from", "baggage", "--to", "front", "--target", "2 m"],
+            1,
+            "no solution",
+        ),
         (["plan", "fuel", "twin6/two_stretches.toml"], 0, "more than one stretch"),
         (["plan", "ballast", "tandem2/aft_heavy.toml"], 0, "ballast at ballast"),
         (["plan", "payload", "trainer4/within.toml"], 2, "--station"),
@@ -184,13 +221,26 @@ def test_plan_command_line(runner, args, code, words):
 
 
 def test_plan_table_and_chart(runner, tmp_path):
-    result = runner.invoke(app, ["plan", "table", str(sample("trainer4/within.toml")), "--station", "rear", "--steps", "4",
-                                 "--chart", str(tmp_path / "t.svg")])
+    result = runner.invoke(
+        app,
+        [
+            "plan",
+            "table",
+            str(sample("trainer4/within.toml")),
+            "--station",
+            "rear",
+            "--steps",
+            "4",
+            "--chart",
+            str(tmp_path / "t.svg"),
+        ],
+    )
     assert result.exit_code == 0, result.output
     assert "Most ramp fuel" in result.output
     assert 'id="within-limits' in (tmp_path / "t.svg").read_text()
-    as_json = runner.invoke(app, ["plan", "table", str(sample("trainer4/within.toml")), "--station", "rear",
-                                  "--steps", "3", "--json"])
+    as_json = runner.invoke(
+        app, ["plan", "table", str(sample("trainer4/within.toml")), "--station", "rear", "--steps", "3", "--json"]
+    )
     table = json.loads(as_json.stdout)
     assert table["station"] == "rear" and len(table["rows"]) == 3
     assert table["units"]["mass"] == "lb" and "flight manual" in table["caution"]
@@ -222,22 +272,36 @@ def test_plan_leave_answers_fuel_left_behind_not_ramp_fuel():
 def test_plan_shift_to_a_target_respects_the_seat_maximum(runner):
     # regression: a shift to a target CG proposed 332.9 lb for a seat whose maximum is
     # 250 lb, exited 0 and said nothing about the seat
-    aircraft = parse_aircraft({
-        "name": "Shift box", "units": {"mass": "lb", "arm": "in", "fuel_volume": "usgal"},
-        "empty": {"weight": 1200.0, "arm": 40.0}, "limits": {"max_takeoff_weight": 2200},
-        "station": [{"id": "front", "arm": 37.0, "kind": "seat", "max_weight": 400},
-                    {"id": "rear", "arm": 73.0, "kind": "seat", "max_weight": 250}],
-        "envelope": [{"category": "normal", "axes": ["arm", "weight"], "points": [[30, 1000], [30, 2200], [55, 2200], [55, 1000]]}],
-    })
+    aircraft = parse_aircraft(
+        {
+            "name": "Shift box",
+            "units": {"mass": "lb", "arm": "in", "fuel_volume": "usgal"},
+            "empty": {"weight": 1200.0, "arm": 40.0},
+            "limits": {"max_takeoff_weight": 2200},
+            "station": [
+                {"id": "front", "arm": 37.0, "kind": "seat", "max_weight": 400},
+                {"id": "rear", "arm": 73.0, "kind": "seat", "max_weight": 250},
+            ],
+            "envelope": [
+                {
+                    "category": "normal",
+                    "axes": ["arm", "weight"],
+                    "points": [[30, 1000], [30, 2200], [55, 2200], [55, 1000]],
+                }
+            ],
+        }
+    )
     loading = resolve_loading(Loading(load={"front": 400, "rear": 0}), aircraft)
     answer = P.weight_shift(aircraft, loading, "front", "rear", target_arm=46.0)
     assert not answer.feasible and "maximum" in answer.answer_display and "rear" in answer.answer_display
     assert answer.check is not None and not answer.check.ok
     path = Path(tempfile.mkdtemp()) / "shift.toml"
-    path.write_text('format = 1\n[load]\nfront = 400\n')
+    path.write_text("format = 1\n[load]\nfront = 400\n")
     files = Path(path.parent / "box.toml")
     files.write_text(_toml_of(aircraft))
-    out = runner.invoke(app, ["plan", "shift", str(files), str(path), "--from", "front", "--to", "rear", "--target", "46"])
+    out = runner.invoke(
+        app, ["plan", "shift", str(files), str(path), "--from", "front", "--to", "rear", "--target", "46"]
+    )
     assert out.exit_code == 1 and "maximum" in out.output and "within limits." not in out.output
 
 
@@ -259,16 +323,31 @@ def test_plan_reason_for_a_station_over_its_maximum_is_that_station():
 def test_plan_fuel_without_any_fuel_given_answers_with_the_taxi_and_trip(runner):
     # regression (issue 20): a loading with no fuel entry but taxi and trip was refused
     # (exit 2); "how much fuel can I take" is asked before any fuel is chosen
-    args = ["plan", "fuel", str(sample("trainer4/aircraft.toml")), "--load", "front=340", "--load", "rear=150",
-            "--taxi", "1.2", "--trip", "18", "--json"]
+    args = [
+        "plan",
+        "fuel",
+        str(sample("trainer4/aircraft.toml")),
+        "--load",
+        "front=340",
+        "--load",
+        "rear=150",
+        "--taxi",
+        "1.2",
+        "--trip",
+        "18",
+        "--json",
+    ]
     out = runner.invoke(app, args)
     assert out.exit_code == 0, out.output
     answer = json.loads(out.stdout)
     assert answer["feasible"] and answer["check"]["ok"]
     # the taxi and trip are the ones given, and the lowest fuel allowed covers them
-    ramp, takeoff, landing = (next(c for c in answer["check"]["conditions"] if c["condition"] == n)
-                              for n in ("ramp", "takeoff", "landing"))
-    assert ramp["fuel"] - takeoff["fuel"] == pytest.approx(1.2) and takeoff["fuel"] - landing["fuel"] == pytest.approx(18.0)
+    ramp, takeoff, landing = (
+        next(c for c in answer["check"]["conditions"] if c["condition"] == n) for n in ("ramp", "takeoff", "landing")
+    )
+    assert ramp["fuel"] - takeoff["fuel"] == pytest.approx(1.2) and takeoff["fuel"] - landing["fuel"] == pytest.approx(
+        18.0
+    )
     assert answer["intervals"][0]["low"] >= 19.2 - 1e-6
     # the single check of the same loading still refuses it: the fuel does not cover the burn
     assert runner.invoke(app, ["check", *args[2:-1]]).exit_code == 2
@@ -292,6 +371,14 @@ def test_plan_table_chart_shows_only_the_fuel_each_row_allows():
     assert all(s[0][0] == s[1][0] >= 0.0 for s in bars.get_segments())  # a bar at one payload, never negative
     for row in table.rows:  # each row's most fuel passed the full check
         if row.most is not None:
-            answer = P.most_fuel(inputs.aircraft, P._with(inputs.loading, stations={**inputs.loading.stations,
-                                                                                    "rear": inputs.loading.stations.get("rear", 0.0) + row.payload}))
+            answer = P.most_fuel(
+                inputs.aircraft,
+                P._with(
+                    inputs.loading,
+                    stations={
+                        **inputs.loading.stations,
+                        "rear": inputs.loading.stations.get("rear", 0.0) + row.payload,
+                    },
+                ),
+            )
             assert answer.feasible and answer.check.ok and answer.answer == pytest.approx(row.most)

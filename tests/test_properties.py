@@ -135,8 +135,7 @@ def test_cg_exactly_on_a_limit_is_within(front, limit):
         load = {"front": front, "rear": extra}
     else:
         # forward limit: put everything at 35 in is not enough; use a ballast-like negative arm
-        aircraft = simple_aircraft(tank=[], station=[
-            {"id": "front", "arm": 35.0}, {"id": "nose", "arm": 0.0}])
+        aircraft = simple_aircraft(tank=[], station=[{"id": "front", "arm": 35.0}, {"id": "nose", "arm": 0.0}])
         extra = (m0 - limit * w0) / limit
         assume(0 <= extra and w0 + extra <= 2000.0)
         load = {"front": front, "nose": extra}

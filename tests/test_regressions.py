@@ -21,7 +21,9 @@ def test_load_table_given_as_a_list_with_command_line_loads(runner, tmp_path):
 
 def test_trip_time_on_the_command_line_replaces_the_files_trip(runner):
     # a --trip-time/--rate laid over a loading file with `trip` was refused as "both given"
-    result = runner.invoke(app, ["check", str(sample("trainer4/within.toml")), "--trip-time", "1:00", "--rate", "9", "--json"])
+    result = runner.invoke(
+        app, ["check", str(sample("trainer4/within.toml")), "--trip-time", "1:00", "--rate", "9", "--json"]
+    )
     assert result.exit_code == 0, result.output
     landing = json.loads(result.stdout)["conditions"][2]
     assert landing["fuel"] == pytest.approx(30 - 1.2 - 9)  # the school fill, less taxi, less one hour at 9 gal/h
@@ -97,23 +99,52 @@ def test_station_and_tank_ids_that_are_csv_columns_lose_their_weights(tmp_path):
     assert entry["file"].endswith("colliding.toml") and not entry["usable"]
     problems = " ".join(entry["problems"])
     assert "station[0].id: 'pilot' is a reserved name" in problems and "tank[0].id: 'reserve'" in problems
-    _refused(["check", str(fleet / "colliding.toml"), "--load", "pilot=170"], "colliding.toml", "station[1].id", folder=fleet)
+    _refused(
+        ["check", str(fleet / "colliding.toml"), "--load", "pilot=170"], "colliding.toml", "station[1].id", folder=fleet
+    )
 
 
 def test_a_repeated_load_kept_only_the_last_value(tmp_path):
     # --load front=170 --load front=190 checked 190 lb: two people in one seat row lost one
     trainer = str(SAMPLES / "trainer4" / "aircraft.toml")
     db = tmp_path / "records.sqlite3"
-    out = _refused(["check", trainer, "--load", "front=170", "--load", "front=190", "--log", "--db", str(db)],
-                   "--load front", "'170'", "'190'", "given twice", folder=tmp_path)
+    out = _refused(
+        ["check", trainer, "--load", "front=170", "--load", "front=190", "--log", "--db", str(db)],
+        "--load front",
+        "'170'",
+        "'190'",
+        "given twice",
+        folder=tmp_path,
+    )
     assert "add the weights up" in out and not db.exists()
-    _refused(["check", trainer, "--load", "front=170", "--fuel", "mains=10", "-f", "mains=20"],
-             "--fuel mains", "given twice")
+    _refused(
+        ["check", trainer, "--load", "front=170", "--fuel", "mains=10", "-f", "mains=20"], "--fuel mains", "given twice"
+    )
     _refused(["check", trainer, "--load", "front=170", "--taxi", "1", "--taxi=2"], "--taxi", "'1'", "'2'", "twice")
-    _refused(["plan", "fuel", trainer, "--load", "front=170", "--category", "normal", "-c", "utility"],
-             "-c", "'normal'", "'utility'", "twice")
-    _refused(["fleet", "check", str(SAMPLES), str(SAMPLES / "fleet_day.csv"), "--log", "--db", str(tmp_path / "a.db"),
-              "--log", "--db", str(db)], "--db", "twice", folder=tmp_path)
+    _refused(
+        ["plan", "fuel", trainer, "--load", "front=170", "--category", "normal", "-c", "utility"],
+        "-c",
+        "'normal'",
+        "'utility'",
+        "twice",
+    )
+    _refused(
+        [
+            "fleet",
+            "check",
+            str(SAMPLES),
+            str(SAMPLES / "fleet_day.csv"),
+            "--log",
+            "--db",
+            str(tmp_path / "a.db"),
+            "--log",
+            "--db",
+            str(db),
+        ],
+        "--db",
+        "twice",
+        folder=tmp_path,
+    )
     assert not db.exists() and not (tmp_path / "a.db").exists()
 
 
@@ -149,7 +180,9 @@ def test_a_trip_given_as_a_mass_burned_another_mass(order):
     loading = Loading(load={"row1": 380}, fuel=fuel, burn={"taxi": "20 lb", "trip": "300 lb", "order": order})
     resolved = resolve_loading(loading, aircraft)
     # hand arithmetic: mains 100 US gal at 6.0 (600 lb), aux 40 US gal at 6.7 (268 lb)
-    expected_taxi = {"aux": 20 / 6.7, "mains": 20 / 6.0}.get(order[0] if isinstance(order, list) else "", 20 * 140 / 868)
+    expected_taxi = {"aux": 20 / 6.7, "mains": 20 / 6.0}.get(
+        order[0] if isinstance(order, list) else "", 20 * 140 / 868
+    )
     assert resolved.taxi == pytest.approx(expected_taxi, rel=1e-12)
     if order == ["aux", "mains"]:
         assert resolved.trip == pytest.approx((268 - 20) / 6.7 + (300 - 248) / 6.0, rel=1e-12)
@@ -164,22 +197,47 @@ def test_a_rate_and_a_reserve_given_as_a_mass_are_the_mass_burned_and_left():
 
     aircraft, fuel, order = _twin_two_densities(["aux", "mains"])
     for reserve, warned in (("568 lb", False), ("570 lb", True)):  # 868 lb on board less 300 lb burned = 568 lb left
-        loading = Loading(load={"row1": 380}, fuel=fuel,
-                          burn={"trip_time": "2:00", "rate": "150 lb/h", "order": order, "reserve": reserve})
+        loading = Loading(
+            load={"row1": 380},
+            fuel=fuel,
+            burn={"trip_time": "2:00", "rate": "150 lb/h", "order": order, "reserve": reserve},
+        )
         result = check_loading(aircraft, resolve_loading(loading, aircraft)).to_dict()
         conditions = {c["condition"]: c for c in result["conditions"]}
         assert conditions["takeoff"]["weight"] - conditions["landing"]["weight"] == pytest.approx(300.0, rel=1e-12)
         assert any(f["code"] == "reserve" for f in result["findings"]) is warned, reserve
 
 
-@pytest.mark.parametrize("rate, per_hour", [("36 l/h", 36 / 3.785411784), ("9.5 gph", 9.5), ("9.5 usgal/hr", 9.5),
-                                            ("34.2 l per hour", 34.2 / 3.785411784), ("9", 9.0)])
+@pytest.mark.parametrize(
+    "rate, per_hour",
+    [
+        ("36 l/h", 36 / 3.785411784),
+        ("9.5 gph", 9.5),
+        ("9.5 usgal/hr", 9.5),
+        ("34.2 l per hour", 34.2 / 3.785411784),
+        ("9", 9.0),
+    ],
+)
 def test_rates_with_units_were_refused_with_an_example_that_is_a_mass(runner, rate, per_hour):
     # 1 US gal = 3.785411784 L exactly (NIST SP 811, 2008, appendix B.8); "gph" is US gallons
     # per hour (common practice in US usage)
     trainer = str(SAMPLES / "trainer4" / "aircraft.toml")
-    result = runner.invoke(app, ["check", trainer, "--load", "front=170", "--fuel", "mains=full", "--trip-time", "1:00",
-                                 "--rate", rate, "--json"])
+    result = runner.invoke(
+        app,
+        [
+            "check",
+            trainer,
+            "--load",
+            "front=170",
+            "--fuel",
+            "mains=full",
+            "--trip-time",
+            "1:00",
+            "--rate",
+            rate,
+            "--json",
+        ],
+    )
     assert result.exit_code in (0, 1), result.output
     landing = json.loads(result.stdout)["conditions"][2]
     assert landing["fuel"] == pytest.approx(44 - per_hour, rel=1e-12)
@@ -189,8 +247,13 @@ def test_rates_with_units_were_refused_with_an_example_that_is_a_mass(runner, ra
 
 def test_a_rate_with_an_unknown_unit_names_the_rate_and_gives_rate_examples():
     trainer = str(SAMPLES / "trainer4" / "aircraft.toml")
-    out = _refused(["check", trainer, "--load", "front=170", "--trip-time", "1:00", "--rate", "9.5 gal/h"],
-                   "burn.rate", "'9.5 gal/h'", "unknown unit 'gal'", "'36 l/h'")
+    out = _refused(
+        ["check", trainer, "--load", "front=170", "--trip-time", "1:00", "--rate", "9.5 gal/h"],
+        "burn.rate",
+        "'9.5 gal/h'",
+        "unknown unit 'gal'",
+        "'36 l/h'",
+    )
     assert "'20 kg'" not in out
 
 
@@ -209,8 +272,14 @@ def _run_each(argsets: list[list[str]], timeout: float = 60) -> list[tuple[int, 
     """Exit code and output of each command, run one after the other in one child process
     that is killed after ``timeout`` seconds (a command that reads for ever fails the test)."""
     env = {**os.environ, "PYTHONPATH": str(Path(__file__).resolve().parent.parent)}
-    done = subprocess.run([sys.executable, "-c", _RUN_EACH, json.dumps(argsets)], capture_output=True, text=True,
-                          timeout=timeout, env=env, check=False)
+    done = subprocess.run(
+        [sys.executable, "-c", _RUN_EACH, json.dumps(argsets)],
+        capture_output=True,
+        text=True,
+        timeout=timeout,
+        env=env,
+        check=False,
+    )
     assert done.returncode == 0, done.stderr
     return [tuple(json.loads(line)) for line in done.stdout.splitlines()]
 
@@ -261,8 +330,14 @@ def test_a_loading_for_another_registration_gave_no_findings(runner, tmp_path):
     # a loading for DEMO-6P checked against DEMO-4T's data: "No findings", exit 0
     loading = tmp_path / "for_the_twin.toml"
     loading.write_text('format = 1\nregistration = "DEMO-6P"\n[load]\nfront = 170\n')
-    _refused(["check", str(SAMPLES / "trainer4" / "aircraft.toml"), str(loading)],
-             "for_the_twin.toml", "registration", "'DEMO-6P'", "'DEMO-4T'", folder=tmp_path)
+    _refused(
+        ["check", str(SAMPLES / "trainer4" / "aircraft.toml"), str(loading)],
+        "for_the_twin.toml",
+        "registration",
+        "'DEMO-6P'",
+        "'DEMO-4T'",
+        folder=tmp_path,
+    )
     same = tmp_path / "same.toml"
     same.write_text('format = 1\nregistration = "demo 4t"\n[load]\nfront = 170\n')  # the same, written loosely
     assert runner.invoke(app, ["check", str(SAMPLES / "trainer4" / "aircraft.toml"), str(same)]).exit_code == 0
@@ -272,28 +347,52 @@ def test_validate_reported_a_loadings_misspelt_keys_but_not_its_unknown_station_
     folder = tmp_path / "trainer4"
     shutil.copytree(SAMPLES / "trainer4", folder)
     bad = folder / "bad.toml"
-    bad.write_text('format = 1\naircraft = "aircraft.toml"\nlabl = "x"\n[load]\nfrnt = 170\n[fuel]\nmains = 60\n'
-                   '[burn]\ntaxy = 1\n')
-    _refused(["validate", str(bad), str(folder / "within.toml")], "bad.toml", "labl", "burn.taxy",
-             "load.frnt: unknown station 'frnt'", "fuel.mains", "above the tank's usable capacity",
-             "ok: ", folder=tmp_path)
-    (folder / "broken.toml").write_text((folder / "aircraft.toml").read_text().replace("weight = 1718.0", "weight = -1"))
+    bad.write_text(
+        'format = 1\naircraft = "aircraft.toml"\nlabl = "x"\n[load]\nfrnt = 170\n[fuel]\nmains = 60\n[burn]\ntaxy = 1\n'
+    )
+    _refused(
+        ["validate", str(bad), str(folder / "within.toml")],
+        "bad.toml",
+        "labl",
+        "burn.taxy",
+        "load.frnt: unknown station 'frnt'",
+        "fuel.mains",
+        "above the tank's usable capacity",
+        "ok: ",
+        folder=tmp_path,
+    )
+    (folder / "broken.toml").write_text(
+        (folder / "aircraft.toml").read_text().replace("weight = 1718.0", "weight = -1")
+    )
     bad.write_text('format = 1\naircraft = "broken.toml"\nlabl = "x"\n[load]\nfront = 170\n')
-    _refused(["validate", str(bad)], "bad.toml", "labl", "aircraft: names", "broken.toml", "empty.weight", folder=tmp_path)
+    _refused(
+        ["validate", str(bad)], "bad.toml", "labl", "aircraft: names", "broken.toml", "empty.weight", folder=tmp_path
+    )
 
 
 def test_swapped_arguments_gave_ten_unrelated_errors(tmp_path):
     folder = SAMPLES / "trainer4"
-    out = _refused(["check", str(folder / "within.toml"), str(folder / "aircraft.toml")], "within.toml",
-                   "the aircraft file comes first", "swapped")
+    out = _refused(
+        ["check", str(folder / "within.toml"), str(folder / "aircraft.toml")],
+        "within.toml",
+        "the aircraft file comes first",
+        "swapped",
+    )
     assert out.count("error:") == 1
-    _refused(["fleet", "check", str(SAMPLES / "fleet_day.csv"), str(SAMPLES), "--no-log"], "fleet_day.csv",
-             "the fleet folder comes first")
+    _refused(
+        ["fleet", "check", str(SAMPLES / "fleet_day.csv"), str(SAMPLES), "--no-log"],
+        "fleet_day.csv",
+        "the fleet folder comes first",
+    )
 
 
 def test_fuel_level_starting_with_an_underscore_had_no_field_path():
-    out = _refused(["check", str(SAMPLES / "trainer4" / "aircraft.toml"), "--fuel", "mains=_school"], "fuel.mains",
-                   "unknown fill level '_school'", "full, school")
+    out = _refused(
+        ["check", str(SAMPLES / "trainer4" / "aircraft.toml"), "--fuel", "mains=_school"],
+        "fuel.mains",
+        "unknown fill level '_school'",
+        "full, school",
+    )
     assert "command line" in out
 
 
@@ -310,8 +409,13 @@ def test_a_header_only_csv_said_zero_flights_and_exit_0(tmp_path):
 def test_a_semicolon_csv_said_it_had_no_registration_column(tmp_path):
     day = tmp_path / "day.csv"
     day.write_text("registration;front;mains\nDEMO-4T;170,5;30\n")
-    _refused(["fleet", "check", str(SAMPLES), str(day), "--no-log"], "day.csv", "separated by semicolons",
-             "comma-separated", folder=tmp_path)
+    _refused(
+        ["fleet", "check", str(SAMPLES), str(day), "--no-log"],
+        "day.csv",
+        "separated by semicolons",
+        "comma-separated",
+        folder=tmp_path,
+    )
 
 
 def test_a_utf16_file_was_called_binary(tmp_path):
@@ -357,10 +461,13 @@ def test_planning_on_an_envelope_of_thousands_of_corners_stays_bounded_in_memory
     from .helpers import simple_aircraft
 
     n = 5000
-    points = [[41.5 + 6.5 * math.cos(2 * math.pi * k / n), 1450 + 550 * math.sin(2 * math.pi * k / n)] for k in range(n)]
+    points = [
+        [41.5 + 6.5 * math.cos(2 * math.pi * k / n), 1450 + 550 * math.sin(2 * math.pi * k / n)] for k in range(n)
+    ]
     aircraft = simple_aircraft(envelope=[{"category": "normal", "axes": ["arm", "weight"], "points": points}])
-    loading = resolve_loading(Loading(load={"front": 170, "rear": 150}, fuel={"main": 20}, burn={"taxi": 1, "trip": 10}),
-                              aircraft)
+    loading = resolve_loading(
+        Loading(load={"front": 170, "rear": 150}, fuel={"main": 20}, burn={"taxi": 1, "trip": 10}), aircraft
+    )
     tracemalloc.start()
     try:
         answer = P.most_fuel(aircraft, loading)

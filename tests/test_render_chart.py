@@ -115,7 +115,14 @@ def _matrix(transform: str | None):
 def _compose(m, t):
     a, b, c, d, e, f = m
     a2, b2, c2, d2, e2, f2 = t
-    return (a * a2 + c * b2, b * a2 + d * b2, a * c2 + c * d2, b * c2 + d * d2, a * e2 + c * f2 + e, b * e2 + d * f2 + f)
+    return (
+        a * a2 + c * b2,
+        b * a2 + d * b2,
+        a * c2 + c * d2,
+        b * c2 + d * d2,
+        a * e2 + c * f2 + e,
+        b * e2 + d * f2 + f,
+    )
 
 
 def _apply(m, box):
@@ -185,16 +192,38 @@ def _shared(a, b) -> float:
 
 
 def _within(inner, outer, pad=0.5) -> bool:
-    return inner[0] >= outer[0] - pad and inner[1] >= outer[1] - pad and inner[2] <= outer[2] + pad and inner[3] <= outer[3] + pad
+    return (
+        inner[0] >= outer[0] - pad
+        and inner[1] >= outer[1] - pad
+        and inner[2] <= outer[2] + pad
+        and inner[3] <= outer[3] + pad
+    )
 
 
 # one loading of each sample aircraft in the default run (the heli's with its lateral chart); the others with --long
-CHART_SAMPLES = ["twin6/leaves_path.toml", "trainer4/within.toml", "tandem2/aft_heavy.toml", "heli2/solo_heavy_right.toml",
-                 *(pytest.param(name, marks=pytest.mark.slow) for name in (
-                     "twin6/within.toml", "twin6/zero_fuel_heavy.toml", "twin6/two_stretches.toml",
-                     "trainer4/over_weight.toml", "trainer4/utility_aft.toml", "trainer4/baggage_group.toml",
-                     "tandem2/solo.toml", "tandem2/light_solo.toml", "tandem2/aft_ballast.toml",
-                     "heli2/dual.toml", "heli2/heavy_left.toml", "heli2/solo.toml"))]
+CHART_SAMPLES = [
+    "twin6/leaves_path.toml",
+    "trainer4/within.toml",
+    "tandem2/aft_heavy.toml",
+    "heli2/solo_heavy_right.toml",
+    *(
+        pytest.param(name, marks=pytest.mark.slow)
+        for name in (
+            "twin6/within.toml",
+            "twin6/zero_fuel_heavy.toml",
+            "twin6/two_stretches.toml",
+            "trainer4/over_weight.toml",
+            "trainer4/utility_aft.toml",
+            "trainer4/baggage_group.toml",
+            "tandem2/solo.toml",
+            "tandem2/light_solo.toml",
+            "tandem2/aft_ballast.toml",
+            "heli2/dual.toml",
+            "heli2/heavy_left.toml",
+            "heli2/solo.toml",
+        )
+    ),
+]
 
 
 @pytest.mark.parametrize("name", CHART_SAMPLES)
@@ -202,14 +231,16 @@ def test_chart_text_never_overlaps_or_is_clipped_and_every_marker_shows(name):
     from loadcheck.render.chart import figure_svg
 
     inputs, result = _inputs(name)
-    texts, markers, (width, height), frames = _svg_layout(figure_svg(check_figure(inputs.aircraft, result, inputs.label)))
+    texts, markers, (width, height), frames = _svg_layout(
+        figure_svg(check_figure(inputs.aircraft, result, inputs.label))
+    )
     assert len(frames) == len({e.axes for e in inputs.aircraft.envelopes_for(result.category)})
     page = (0.0, 0.0, width, height)
     for gid, box in texts.items():
         assert _within(box, page), f"{gid} is clipped by the edge of the picture"
     names = sorted(texts)
     for i, a in enumerate(names):
-        for b in names[i + 1:]:
+        for b in names[i + 1 :]:
             assert _shared(texts[a], texts[b]) < 0.5, f"{a} and {b} overlap"
     labels = {gid: box for gid, box in texts.items() if gid.startswith("label-")}
     panels = 2 if len(frames) == 2 else 1
@@ -225,7 +256,7 @@ def test_chart_text_never_overlaps_or_is_clipped_and_every_marker_shows(name):
         assert f"point-{condition.condition}" in drawn
     filled = [(gid, box) for gid, box in markers if not gid.startswith("leaves-at")]
     for i, (gid, box) in enumerate(filled):
-        for later, cover in filled[i + 1:]:
+        for later, cover in filled[i + 1 :]:
             assert not _within(box, cover, pad=0.0), f"{gid} is hidden under {later}"
     assert any(g.startswith("leaves-at") for g in drawn) == (result.burn_path.leaves_at is not None)
 
@@ -276,5 +307,5 @@ def test_envelope_and_fuel_payload_charts_have_no_overlapping_or_clipped_text(na
         for gid in names:
             assert _within(texts[gid], (0.0, 0.0, width, height)), gid
         for i, a in enumerate(names):
-            for b in names[i + 1:]:
+            for b in names[i + 1 :]:
                 assert _shared(texts[a], texts[b]) < 0.5, f"{a} and {b} overlap"

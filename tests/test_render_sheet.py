@@ -87,7 +87,7 @@ def test_load_sheet_has_the_total_the_occupants_and_the_fuel_plan(runner, tmp_pa
 
     def section(tag_id: str) -> str:
         start = html.index(">", html.index(f"id='{tag_id}'")) + 1
-        return " ".join(re.sub(r"<[^>]+>", " ", html[start:html.index("</table>", start)]).split())
+        return " ".join(re.sub(r"<[^>]+>", " ", html[start : html.index("</table>", start)]).split())
 
     ramp = check.condition("ramp")
     total = section("total")
@@ -111,16 +111,19 @@ def test_load_sheet_has_the_total_the_occupants_and_the_fuel_plan(runner, tmp_pa
 
 # -- occupants' names in the loading (issue 15, item 3: "names optional in the loading") -----------
 
+
 def _named_trip(tmp_path: Path, names: str, leg_names: str = "") -> Path:
     """A loading of the desk's invented trip test aircraft (tests/web_helpers.py), with [names]."""
     from .web_helpers import TRIP_AIRCRAFT
 
     (tmp_path / "aircraft.toml").write_text(TRIP_AIRCRAFT)
     path = tmp_path / "named.toml"
-    text = ('format = 1\naircraft = "aircraft.toml"\n[load]\nfront = 340\nrear = 150\nbags = 40\n[fuel]\nmain = "local"\n'
-            f'[burn]\ntaxi = 1\ntrip = 10\n[names]\n{names}\n')
+    text = (
+        'format = 1\naircraft = "aircraft.toml"\n[load]\nfront = 340\nrear = 150\nbags = 40\n[fuel]\nmain = "local"\n'
+        f"[burn]\ntaxi = 1\ntrip = 10\n[names]\n{names}\n"
+    )
     if leg_names:
-        text += f'[[leg]]\nload = {{ front = 170 }}\nburn = {{ trip = 5 }}\nnames = {{ {leg_names} }}\n'
+        text += f"[[leg]]\nload = {{ front = 170 }}\nburn = {{ trip = 5 }}\nnames = {{ {leg_names} }}\n"
     path.write_text(text)
     return path
 
@@ -131,11 +134,11 @@ def test_names_show_beside_each_seat_on_the_load_sheet_as_text(runner, tmp_path)
     assert runner.invoke(app, ["check", str(loading), "--sheet", str(sheet)]).exit_code == 0
     html = sheet.read_text()
     assert "<b>Rivera" not in html and "Alex &lt;b&gt;Rivera&lt;/b&gt;" in html  # markup in a name is shown as text
-    moments = html[html.index("id='moments'"):html.index("</table>", html.index("id='moments'"))]
+    moments = html[html.index("id='moments'") : html.index("</table>", html.index("id='moments'"))]
     cells = dict(re.findall(r"<tr><td>([^<·]+?)\s*(?:<span class='who'>· (.*?)</span>)?</td>", moments))
     assert cells["Front seats"] == "Alex &lt;b&gt;Rivera&lt;/b&gt;" and cells["Rear seats"] == "Sam Okafor"
     assert cells["Baggage"] == "" and cells["Basic empty weight"] == ""  # no one is named there
-    occupants = html[html.index("id='occupants'"):html.index("</table>", html.index("id='occupants'"))]
+    occupants = html[html.index("id='occupants'") : html.index("</table>", html.index("id='occupants'"))]
     assert "<th>Name</th>" in occupants and "Sam Okafor" in occupants
     inputs = load_check_inputs(loading)
     assert inputs.loading.names == {"front": "Alex <b>Rivera</b>", "rear": "Sam Okafor"}
@@ -146,21 +149,30 @@ def test_a_leg_changes_the_name_of_a_seat_whose_weight_changes(tmp_path):
     from loadcheck.trip import check_trip
 
     inputs = load_check_inputs(_named_trip(tmp_path, 'front = "Alex"\nrear = "Sam"', 'front = "Kim"'), allow_trip=True)
-    assert [leg.names for leg in inputs.trip.legs] == [{"front": "Alex", "rear": "Sam"}, {"front": "Kim", "rear": "Sam"}]
+    assert [leg.names for leg in inputs.trip.legs] == [
+        {"front": "Alex", "rear": "Sam"},
+        {"front": "Kim", "rear": "Sam"},
+    ]
     dropped = load_check_inputs(_named_trip(tmp_path, 'front = "Alex"', 'rear = "Sam"'), allow_trip=True)
-    assert [leg.names for leg in dropped.trip.legs] == [{"front": "Alex"}, {"rear": "Sam"}]  # front's weight changed: not Alex
+    assert [leg.names for leg in dropped.trip.legs] == [
+        {"front": "Alex"},
+        {"rear": "Sam"},
+    ]  # front's weight changed: not Alex
     html = trip_sheet_html(check_trip(inputs.aircraft, inputs.trip), trip_loading=inputs.trip)
-    leg_2 = html[html.index("id='leg-2'"):]
-    assert "Kim" in leg_2 and "Alex" not in leg_2 and "Alex" in html[:html.index("id='leg-2'")]
+    leg_2 = html[html.index("id='leg-2'") :]
+    assert "Kim" in leg_2 and "Alex" not in leg_2 and "Alex" in html[: html.index("id='leg-2'")]
 
 
-@pytest.mark.parametrize("names, field, words", [
-    ('nose = "Pat"', "names.nose", "unknown station 'nose'"),
-    ('front = "' + "A" * 61 + '"', "names.front", "at most 60"),
-    ('front = ""', "names.front", "an empty name"),
-    ('front = 12', "names.front", "a name is text"),
-    ('front = "Al\\nex"', "names.front", "control characters"),
-])
+@pytest.mark.parametrize(
+    "names, field, words",
+    [
+        ('nose = "Pat"', "names.nose", "unknown station 'nose'"),
+        ('front = "' + "A" * 61 + '"', "names.front", "at most 60"),
+        ('front = ""', "names.front", "an empty name"),
+        ("front = 12", "names.front", "a name is text"),
+        ('front = "Al\\nex"', "names.front", "control characters"),
+    ],
+)
 def test_a_bad_name_is_refused_with_its_field(runner, tmp_path, names, field, words):
     result = runner.invoke(app, ["check", str(_named_trip(tmp_path, names))])
     assert result.exit_code == 2 and field in result.stderr and words in result.stderr, result.output
@@ -170,5 +182,7 @@ def test_a_name_at_a_station_without_weight_is_refused(runner, tmp_path):
     loading = _named_trip(tmp_path, 'front = "Alex"')
     result = runner.invoke(app, ["check", str(loading), "--load", "front=0"])
     assert result.exit_code == 2 and "names.front" in result.stderr and "carries no weight" in result.stderr
-    leg = runner.invoke(app, ["check", str(_named_trip(tmp_path, 'front = "Alex"', 'front = "Kim"')), "--leg-load", "2:front=0"])
+    leg = runner.invoke(
+        app, ["check", str(_named_trip(tmp_path, 'front = "Alex"', 'front = "Kim"')), "--leg-load", "2:front=0"]
+    )
     assert leg.exit_code == 2 and "leg[0].names.front" in leg.stderr

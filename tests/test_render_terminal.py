@@ -12,8 +12,9 @@ from .helpers import sample
 
 
 def test_show_lists_everything(runner, tmp_path):
-    result = runner.invoke(app, ["show", str(sample("twin6/aircraft.toml")), "--chart", str(tmp_path / "e.png")],
-                           env={"COLUMNS": "200"})  # every table side by side
+    result = runner.invoke(
+        app, ["show", str(sample("twin6/aircraft.toml")), "--chart", str(tmp_path / "e.png")], env={"COLUMNS": "200"}
+    )  # every table side by side
     assert result.exit_code == 0, result.output
     for words in ["3,680.0 lb", "Main tanks", "600.0", "Middle seats", "(295.2, 3600)", "5,000.0 lb", "CAUTION"]:
         assert words in result.output
@@ -27,8 +28,9 @@ def test_moment_per_1000_column_where_the_envelope_is_read_so(runner, tmp_path):
     inputs, check = _inputs("twin6/within.toml")
     (scale,) = {e.moment_scale for e in inputs.aircraft.envelope}
     assert scale == 1000
-    out = runner.invoke(app, ["check", str(sample("twin6/within.toml")), "--sheet", str(tmp_path / "s.html")],
-                        env={"COLUMNS": "200"}).output
+    out = runner.invoke(
+        app, ["check", str(sample("twin6/within.toml")), "--sheet", str(tmp_path / "s.html")], env={"COLUMNS": "200"}
+    ).output
     html = (tmp_path / "s.html").read_text()
     assert "Moment / 1000 (lb·in)" in out and "Moment / 1000 (lb·in)" in html
     for c in check.conditions:
@@ -47,12 +49,21 @@ def test_weight_margin_set_by_a_sloping_edge_is_not_read_as_overweight():
 
     from .helpers import simple_aircraft
 
-    aircraft = simple_aircraft(envelope=[{"category": "normal", "axes": ["arm", "weight"],
-                                          "points": [[35.0, 900], [40.0, 1800], [40.0, 2000], [48.0, 2000], [48.0, 900]]}])
+    aircraft = simple_aircraft(
+        envelope=[
+            {
+                "category": "normal",
+                "axes": ["arm", "weight"],
+                "points": [[35.0, 900], [40.0, 1800], [40.0, 2000], [48.0, 2000], [48.0, 900]],
+            }
+        ]
+    )
     loading = resolve_loading(Loading(load={"front": 500}, fuel={"main": 10}), aircraft)
     check = check_loading(aircraft, loading)
     takeoff = check.condition("takeoff")
-    assert takeoff.weight < aircraft.limits.max_takeoff_weight and takeoff.margins.weight < 0  # under the maximum, over the edge
+    assert (
+        takeoff.weight < aircraft.limits.max_takeoff_weight and takeoff.margins.weight < 0
+    )  # under the maximum, over the edge
     assert not takeoff.ok
     console = Console(width=200, record=True, color_system=None)
     render_check(check, console)

@@ -83,7 +83,10 @@ def _twin_leaves_path(result):
     assert result.condition("takeoff").ok and result.condition("landing").ok
     assert not result.burn_path.ok and not result.ok
     leave = result.burn_path.leaves_at
-    assert leave is not None and 0 < leave.fuel_burned_volume < result.condition("takeoff").fuel - result.condition("landing").fuel
+    assert (
+        leave is not None
+        and 0 < leave.fuel_burned_volume < result.condition("takeoff").fuel - result.condition("landing").fuel
+    )
 
 
 def _twin_two_stretches(result):
@@ -165,8 +168,8 @@ README = (SAMPLES.parent / "README.md").read_text(encoding="utf-8")
 
 def _tour_commands_with_exit_codes():
     """The README tour's `loadcheck check` lines whose comment names the exit status."""
-    block = README[README.index("## A short tour"):]
-    block = block[block.index("```sh") + 5: block.index("```", block.index("```sh") + 5)]
+    block = README[README.index("## A short tour") :]
+    block = block[block.index("```sh") + 5 : block.index("```", block.index("```sh") + 5)]
     joined = re.sub(r"\\\n\s*", " ", block)
     for line in joined.splitlines():
         match = re.match(r"^loadcheck (check .*?)\s+# exit (\d)", line.strip())

@@ -64,12 +64,19 @@ def _aft_moving():
     return simple_aircraft(
         empty={"weight": 1000.0, "arm": 42.0},
         limits={"max_takeoff_weight": 1900.0, "max_landing_weight": 1750.0},
-        station=[{"id": "front", "arm": 38.0, "kind": "seat", "controls": True, "seats": 2},
-                 {"id": "rear", "arm": 60.0, "kind": "seat", "seats": 2},
-                 {"id": "bag", "arm": 80.0, "kind": "baggage", "max_weight": 150.0}],
+        station=[
+            {"id": "front", "arm": 38.0, "kind": "seat", "controls": True, "seats": 2},
+            {"id": "rear", "arm": 60.0, "kind": "seat", "seats": 2},
+            {"id": "bag", "arm": 80.0, "kind": "baggage", "max_weight": 150.0},
+        ],
         tank=[{"id": "main", "arm": 20.0, "usable": 50.0, "fuel": "avgas"}],
-        envelope=[{"category": "normal", "axes": ["arm", "weight"],
-                   "points": [[33.0, 900], [33.0, 1900], [47.0, 1900], [47.0, 900]]}],
+        envelope=[
+            {
+                "category": "normal",
+                "axes": ["arm", "weight"],
+                "points": [[33.0, 900], [33.0, 1900], [47.0, 1900], [47.0, 900]],
+            }
+        ],
     )
 
 
@@ -97,14 +104,23 @@ def test_schedule_with_a_fixed_weight_station():
     # AC 43.13-1B figures 10-10 to 10-14 list it) left every case empty, while the tables
     # said "within" and the command exited 0
     aircraft = simple_aircraft(
-        empty={"weight": 1169.0, "arm": 10.6}, limits={"max_takeoff_weight": 2100.0}, meto_power_hp=165,
-        station=[{"id": "oil", "arm": -49.0, "kind": "other", "min_weight": 17.0, "max_weight": 17.0},
-                 {"id": "front", "arm": 16.0, "kind": "seat", "seats": 2, "controls": True},
-                 {"id": "rear", "arm": 48.0, "kind": "seat", "seats": 2},
-                 {"id": "bag", "arm": 75.5, "kind": "baggage", "max_weight": 100.0}],
+        empty={"weight": 1169.0, "arm": 10.6},
+        limits={"max_takeoff_weight": 2100.0},
+        meto_power_hp=165,
+        station=[
+            {"id": "oil", "arm": -49.0, "kind": "other", "min_weight": 17.0, "max_weight": 17.0},
+            {"id": "front", "arm": 16.0, "kind": "seat", "seats": 2, "controls": True},
+            {"id": "rear", "arm": 48.0, "kind": "seat", "seats": 2},
+            {"id": "bag", "arm": 75.5, "kind": "baggage", "max_weight": 100.0},
+        ],
         tank=[{"id": "main", "arm": 22.0, "usable": 40.0, "fuel": "avgas"}],
-        envelope=[{"category": "normal", "axes": ["arm", "weight"],
-                   "points": [[8.5, 1000], [8.5, 2100], [21.9, 2100], [21.9, 1000]]}],
+        envelope=[
+            {
+                "category": "normal",
+                "axes": ["arm", "weight"],
+                "points": [[8.5, 1000], [8.5, 2100], [21.9, 2100], [21.9, 1000]],
+            }
+        ],
     )
     result = loading_schedule(aircraft)
     assert result.ok and all(case.ok for case in result.cases)

@@ -24,18 +24,37 @@ from .helpers import sample
 
 BROWSER = next((shutil.which(n) for n in ("chromium", "chromium-browser", "google-chrome") if shutil.which(n)), None)
 POPPLER = shutil.which("pdfinfo") and shutil.which("pdftotext")
-pytestmark = pytest.mark.skipif(not (BROWSER and POPPLER), reason="needs Chromium and poppler-utils (pdfinfo, pdftotext)")
+pytestmark = pytest.mark.skipif(
+    not (BROWSER and POPPLER), reason="needs Chromium and poppler-utils (pdfinfo, pdftotext)"
+)
 
 # paper: (CSS size, pdfinfo's size in points); ISO 216 A4 is 210 x 297 mm, US letter 8.5 x 11 in
 PAPERS = {"letter": ("letter", (612.0, 792.0)), "A4": ("A4", (595.3, 841.9))}
-OTHERS = ["twin6/leaves_path.toml", "trainer4/over_weight.toml", "heli2/solo_heavy_right.toml", "tandem2/aft_heavy.toml"]
+OTHERS = [
+    "twin6/leaves_path.toml",
+    "trainer4/over_weight.toml",
+    "heli2/solo_heavy_right.toml",
+    "tandem2/aft_heavy.toml",
+]
 # one sheet prints in the default run; the other sheets (a headless browser each) with --long
 SHEETS = ["trainer4/within.toml", *(pytest.param(n, marks=pytest.mark.slow) for n in OTHERS)]
 
 
 def _print(html_path, pdf_path):
-    subprocess.run([BROWSER, "--headless", "--no-sandbox", "--disable-gpu", "--no-pdf-header-footer",
-                    f"--print-to-pdf={pdf_path}", html_path.as_uri()], check=True, capture_output=True, timeout=120)
+    subprocess.run(
+        [
+            BROWSER,
+            "--headless",
+            "--no-sandbox",
+            "--disable-gpu",
+            "--no-pdf-header-footer",
+            f"--print-to-pdf={pdf_path}",
+            html_path.as_uri(),
+        ],
+        check=True,
+        capture_output=True,
+        timeout=120,
+    )
 
 
 def _printed(html, tmp_path, paper):
@@ -45,8 +64,11 @@ def _printed(html, tmp_path, paper):
     pdf = tmp_path / f"sheet-{paper}.pdf"
     _print(page, pdf)
     info = subprocess.run(["pdfinfo", str(pdf)], capture_output=True, text=True, check=True).stdout
-    text = " ".join(subprocess.run(["pdftotext", "-layout", str(pdf), "-"], capture_output=True, text=True,
-                                   check=True).stdout.split())
+    text = " ".join(
+        subprocess.run(
+            ["pdftotext", "-layout", str(pdf), "-"], capture_output=True, text=True, check=True
+        ).stdout.split()
+    )
     return info, text
 
 
@@ -67,12 +89,30 @@ def test_sheet_prints_on_one_page_of_letter_and_of_a4(runner, tmp_path, name):
         info = subprocess.run(["pdfinfo", str(pdf)], capture_output=True, text=True, check=True).stdout
         assert re.search(r"^Pages:\s+1$", info, re.M), f"{name} on {paper}:\n{info}"
         size = re.search(r"Page size:\s+([\d.]+) x ([\d.]+) pts", info)
-        assert size and float(size.group(1)) == pytest.approx(width, abs=1) and float(size.group(2)) == pytest.approx(height, abs=1)
-        text = " ".join(subprocess.run(["pdftotext", "-layout", str(pdf), "-"], capture_output=True, text=True,
-                                       check=True).stdout.split())
-        for words in ["Total at ramp", "Fuel plan", "Occupants", "Conditions", "Findings", "Envelope", "Pilot in command",
-                      "Signature", "Date", check.aircraft.fingerprint, " ".join(PILOT_CAUTION.split()[:8]),
-                      "WITHIN LIMITS" if check.ok else "OUT OF LIMITS"]:
+        assert (
+            size
+            and float(size.group(1)) == pytest.approx(width, abs=1)
+            and float(size.group(2)) == pytest.approx(height, abs=1)
+        )
+        text = " ".join(
+            subprocess.run(
+                ["pdftotext", "-layout", str(pdf), "-"], capture_output=True, text=True, check=True
+            ).stdout.split()
+        )
+        for words in [
+            "Total at ramp",
+            "Fuel plan",
+            "Occupants",
+            "Conditions",
+            "Findings",
+            "Envelope",
+            "Pilot in command",
+            "Signature",
+            "Date",
+            check.aircraft.fingerprint,
+            " ".join(PILOT_CAUTION.split()[:8]),
+            "WITHIN LIMITS" if check.ok else "OUT OF LIMITS",
+        ]:
             assert words in text, f"{words!r} missing on the {paper} page of {name}"
         ramp = check.condition("ramp")
         assert fmt(ramp.weight, check.units.mass, with_unit=False) in text
@@ -86,11 +126,15 @@ def test_sheet_with_the_longest_names_still_prints_on_one_page(runner, tmp_path)
     from .web_helpers import TRIP_AIRCRAFT
 
     (tmp_path / "aircraft.toml").write_text(TRIP_AIRCRAFT)
-    names = {"front": ("Alexandra Wilhelmina " * 4)[:MAX_NAME_LENGTH], "rear": ("Bartholomew Okonkwo-Smith " * 3)[:MAX_NAME_LENGTH]}
+    names = {
+        "front": ("Alexandra Wilhelmina " * 4)[:MAX_NAME_LENGTH],
+        "rear": ("Bartholomew Okonkwo-Smith " * 3)[:MAX_NAME_LENGTH],
+    }
     loading = tmp_path / "named.toml"
-    loading.write_text('format = 1\naircraft = "aircraft.toml"\n[load]\nfront = 340\nrear = 150\nbags = 40\n[fuel]\n'
-                       'main = "local"\n[burn]\ntaxi = 1\ntrip = 10\n[names]\n'
-                       + "".join(f'{k} = "{v}"\n' for k, v in names.items()))
+    loading.write_text(
+        'format = 1\naircraft = "aircraft.toml"\n[load]\nfront = 340\nrear = 150\nbags = 40\n[fuel]\n'
+        'main = "local"\n[burn]\ntaxi = 1\ntrip = 10\n[names]\n' + "".join(f'{k} = "{v}"\n' for k, v in names.items())
+    )
     sheet = tmp_path / "sheet.html"
     assert runner.invoke(app, ["check", str(loading), "--sheet", str(sheet)]).exit_code == 0
     html = sheet.read_text()

@@ -54,10 +54,34 @@ COMMANDS = [
     ["log", "list", "--db", "r.sqlite3"],
     ["log", "verify", "1", "--db", "r.sqlite3"],
 ]
-HELP = [[], ["check"], ["show"], ["validate"], ["schema"], ["plan"], ["plan", "fuel"], ["plan", "trip"], ["plan", "payload"],
-        ["plan", "leave"], ["plan", "ballast"], ["plan", "shift"], ["plan", "table"], ["weigh"], ["alter"], ["history"],
-        ["extremes"], ["schedule"], ["fleet"], ["fleet", "list"], ["fleet", "check"], ["log"], ["log", "list"],
-        ["log", "show"], ["log", "export"], ["log", "verify"]]
+HELP = [
+    [],
+    ["check"],
+    ["show"],
+    ["validate"],
+    ["schema"],
+    ["plan"],
+    ["plan", "fuel"],
+    ["plan", "trip"],
+    ["plan", "payload"],
+    ["plan", "leave"],
+    ["plan", "ballast"],
+    ["plan", "shift"],
+    ["plan", "table"],
+    ["weigh"],
+    ["alter"],
+    ["history"],
+    ["extremes"],
+    ["schedule"],
+    ["fleet"],
+    ["fleet", "list"],
+    ["fleet", "check"],
+    ["log"],
+    ["log", "list"],
+    ["log", "show"],
+    ["log", "export"],
+    ["log", "verify"],
+]
 
 
 @pytest.fixture(scope="module")
@@ -71,7 +95,9 @@ def folder(tmp_path_factory):
 def _run(folder, monkeypatch, args, columns, **env):
     monkeypatch.chdir(folder)
     if args[:2] != ["fleet", "check"] and not (folder / "r.sqlite3").exists():
-        app_runner().invoke(app, ["fleet", "check", "s", "s/fleet_day.csv", "--log", "--db", "r.sqlite3"], env={"COLUMNS": "200"})
+        app_runner().invoke(
+            app, ["fleet", "check", "s", "s/fleet_day.csv", "--log", "--db", "r.sqlite3"], env={"COLUMNS": "200"}
+        )
     return app_runner().invoke(app, args, env={"COLUMNS": str(columns), **env})
 
 
@@ -115,7 +141,9 @@ print(json.dumps(out))
 """
 
 
-@pytest.mark.parametrize("width", [WIDTHS[0], *(pytest.param(w, marks=pytest.mark.slow) for w in WIDTHS[1:])])  # the narrowest by default
+@pytest.mark.parametrize(
+    "width", [WIDTHS[0], *(pytest.param(w, marks=pytest.mark.slow) for w in WIDTHS[1:])]
+)  # the narrowest by default
 def test_help_fits_and_never_breaks_a_word(width):
     # a real process: the test runner fixes help at 80 columns, a terminal does not
     import os
@@ -123,8 +151,14 @@ def test_help_fits_and_never_breaks_a_word(width):
     import sys
 
     env = {**os.environ, "COLUMNS": str(width), "PYTHONPATH": str(SAMPLES.parent)}
-    done = subprocess.run([sys.executable, "-c", _HELP_SCRIPT, json.dumps(HELP)], capture_output=True, text=True,
-                          env=env, check=True, cwd=SAMPLES.parent)
+    done = subprocess.run(
+        [sys.executable, "-c", _HELP_SCRIPT, json.dumps(HELP)],
+        capture_output=True,
+        text=True,
+        env=env,
+        check=True,
+        cwd=SAMPLES.parent,
+    )
     helps = json.loads(done.stdout)
     assert len(helps) == len(HELP)
     for name, text in helps.items():
@@ -137,8 +171,16 @@ def test_help_fits_and_never_breaks_a_word(width):
         assert not re.search(r"[a-z,]\.\.\.$", text, re.M), name  # no command summary cut short with "..."
 
 
-@pytest.mark.parametrize("name", ["trainer4/within.toml", "twin6/leaves_path.toml", "heli2/solo_heavy_right.toml",
-                                  "tandem2/aft_heavy.toml", "trainer4/over_weight.toml"])
+@pytest.mark.parametrize(
+    "name",
+    [
+        "trainer4/within.toml",
+        "twin6/leaves_path.toml",
+        "heli2/solo_heavy_right.toml",
+        "tandem2/aft_heavy.toml",
+        "trainer4/over_weight.toml",
+    ],
+)
 @pytest.mark.parametrize("width", (*WIDTHS, None))
 def test_every_number_of_the_check_result_is_shown_whole(runner, folder, monkeypatch, name, width):
     data = json.loads(_run(folder, monkeypatch, ["check", f"s/{name}", "--json"], 80).output)
@@ -150,13 +192,20 @@ def test_every_number_of_the_check_result_is_shown_whole(runner, folder, monkeyp
     units = data["units"]
     expected = []
     for item in data["items"]:
-        expected += [fmt(item["weight"], units["mass"], with_unit=False), fmt(item["arm"], units["arm"], with_unit=False),
-                     fmt(item["moment"], units["moment"], with_unit=False)]
+        expected += [
+            fmt(item["weight"], units["mass"], with_unit=False),
+            fmt(item["arm"], units["arm"], with_unit=False),
+            fmt(item["moment"], units["moment"], with_unit=False),
+        ]
     for c in data["conditions"]:
-        expected += [fmt(c["weight"], units["mass"], with_unit=False), fmt(c["arm"], units["arm"], with_unit=False),
-                     fmt(c["fuel"], units["fuel_volume"], with_unit=False)]
-        expected += [fmt(v, units["mass" if k == "weight" else "arm"], "down", with_unit=False)
-                     for k, v in c["margins"].items()]
+        expected += [
+            fmt(c["weight"], units["mass"], with_unit=False),
+            fmt(c["arm"], units["arm"], with_unit=False),
+            fmt(c["fuel"], units["fuel_volume"], with_unit=False),
+        ]
+        expected += [
+            fmt(v, units["mass" if k == "weight" else "arm"], "down", with_unit=False) for k, v in c["margins"].items()
+        ]
         if "mac_percent" in c:
             expected.append(fmt(c["mac_percent"], "%MAC", with_unit=False))
     missing = [n for n in expected if n not in shown]
@@ -182,11 +231,13 @@ def test_no_color_means_no_escape_codes(folder, monkeypatch, args):
 def test_fleet_check_row_with_warnings_is_not_shown_as_plain_within(folder, monkeypatch, tmp_path):
     # regression (issue 13 item 12): a flight within limits but landing below its reserve read "within"
     day = tmp_path / "day.csv"
-    day.write_text("registration,reference,front,rear,mains,centre,taxi,trip,reserve\nDEMO-4T,W1,340,150,school,0,1.2,18,20\n")
+    day.write_text(
+        "registration,reference,front,rear,mains,centre,taxi,trip,reserve\nDEMO-4T,W1,340,150,school,0,1.2,18,20\n"
+    )
     out = _run(folder, monkeypatch, ["fleet", "check", "s", str(day), "--no-log"], 120).output
     lines = out.splitlines()
     start = next(i for i, line in enumerate(lines) if "DEMO-4T" in line)
-    row = " ".join(lines[start:start + 3])
+    row = " ".join(lines[start : start + 3])
     assert "within, 1 warning" in lines[start] and "WARNING:" in row and "reserve" in row
     assert "│ within " not in lines[start]
     assert "1 within limits (1 with warnings)" in out

@@ -47,10 +47,18 @@ HANDBOOK_HELICOPTER = {
     ],
     "tank": [{"id": "main", "arm": 96.0, "lateral_arm": -8.4, "usable": 48.0, "density": 6.0}],
     "envelope": [
-        {"category": "normal", "label": "longitudinal", "axes": ["arm", "weight"],  # INVENTED limits
-         "points": [[92.0, 1500], [92.0, 2250], [96.0, 2250], [96.0, 1500]]},
-        {"category": "normal", "label": "lateral", "axes": ["lateral_moment", "weight"],  # INVENTED limits
-         "points": [[-3000, 1500], [-3000, 2250], [1500, 2250], [1500, 1500]]},
+        {
+            "category": "normal",
+            "label": "longitudinal",
+            "axes": ["arm", "weight"],  # INVENTED limits
+            "points": [[92.0, 1500], [92.0, 2250], [96.0, 2250], [96.0, 1500]],
+        },
+        {
+            "category": "normal",
+            "label": "lateral",
+            "axes": ["lateral_moment", "weight"],  # INVENTED limits
+            "points": [[-3000, 1500], [-3000, 2250], [1500, 2250], [1500, 1500]],
+        },
     ],
 }
 HELICOPTER = parse_aircraft(HANDBOOK_HELICOPTER)
@@ -142,12 +150,16 @@ def test_two_legs_the_second_alone_fails_aft_and_right():
     sides = {(f.side, f.subject) for f in second.limits_exceeded if f.condition == "ramp"}
     assert ("aft", "the longitudinal envelope") in sides and ("right", "the lateral envelope") in sides
     # every trip finding names its leg and condition; none belongs to leg 1
-    assert trip.limits_exceeded and all(f.leg == 2 and f.message.startswith("leg 2 (solo): ") for f in trip.limits_exceeded)
+    assert trip.limits_exceeded and all(
+        f.leg == 2 and f.message.startswith("leg 2 (solo): ") for f in trip.limits_exceeded
+    )
     assert all(f.condition is not None for f in trip.limits_exceeded if f.code == "envelope")
     # the first leg alone, as a single loading, passes; the second, written out by hand, fails the same way
     assert check_loading(HELICOPTER, Loading.model_validate(FIRST_LEG)).to_dict() == trip.legs[0].check.to_dict()
-    alone = check_loading(HELICOPTER, Loading.model_validate(
-        {"load": {"pilot_seat": 200}, "fuel": {"main": 22}, "burn": {"taxi": 0, "trip": 10}}))
+    alone = check_loading(
+        HELICOPTER,
+        Loading.model_validate({"load": {"pilot_seat": 200}, "fuel": {"main": 22}, "burn": {"taxi": 0, "trip": 10}}),
+    )
     assert alone.to_dict() == second.to_dict()
 
 
@@ -168,13 +180,37 @@ def test_the_trip_exits_1_naming_leg_2(runner, tmp_path):
 
 def test_the_command_line_takes_legs(runner, tmp_path):
     path = _write_files(tmp_path, LOADING_FILE.split("[[leg]]")[0])
-    same = runner.invoke(app, ["check", str(path), "--leg-load", "2:passenger_seat=0", "--leg-burn", "2:trip=10",
-                               "--leg-burn", "2:taxi=0", "--json"])
+    same = runner.invoke(
+        app,
+        [
+            "check",
+            str(path),
+            "--leg-load",
+            "2:passenger_seat=0",
+            "--leg-burn",
+            "2:trip=10",
+            "--leg-burn",
+            "2:taxi=0",
+            "--json",
+        ],
+    )
     data = json.loads(same.output)
     assert same.exit_code == 1 and data["legs"][1]["conditions"][0]["weight"] == pytest.approx(LEG2_WEIGHT)
     # fuel put in at the stop moves the CG forward and left: 20 gal more at 96 in, -8.4 in
-    fuelled = runner.invoke(app, ["check", str(path), "--leg-load", "2:passenger_seat=0", "--leg-fuel", "2:main=20",
-                                  "--leg-burn", "2:trip=10", "--json"])
+    fuelled = runner.invoke(
+        app,
+        [
+            "check",
+            str(path),
+            "--leg-load",
+            "2:passenger_seat=0",
+            "--leg-fuel",
+            "2:main=20",
+            "--leg-burn",
+            "2:trip=10",
+            "--json",
+        ],
+    )
     ramp = json.loads(fuelled.output)["legs"][1]["conditions"][0]
     assert ramp["fuel"] == pytest.approx(42.0) and ramp["moment"] == pytest.approx(LEG2_MOMENT + 120 * 96)
     skipped = runner.invoke(app, ["check", str(path), "--leg-burn", "3:trip=10"])
@@ -200,10 +236,16 @@ def test_no_job_checks_a_trip_as_its_first_leg_alone(runner, tmp_path):
 
 # -- one leg is today's check ----------------------------------------------------------------
 
-loadings = st.fixed_dictionaries({
-    "front": st.floats(0, 400), "rear": st.floats(0, 400), "bag": st.floats(0, 120),
-    "main": st.floats(0, 40), "taxi": st.floats(0, 1), "trip": st.floats(0, 1),
-})
+loadings = st.fixed_dictionaries(
+    {
+        "front": st.floats(0, 400),
+        "rear": st.floats(0, 400),
+        "bag": st.floats(0, 120),
+        "main": st.floats(0, 40),
+        "taxi": st.floats(0, 1),
+        "trip": st.floats(0, 1),
+    }
+)
 
 
 @settings(max_examples=examples(60), deadline=None)
@@ -211,9 +253,13 @@ loadings = st.fixed_dictionaries({
 def test_a_trip_of_one_leg_equals_todays_single_check(v):
     aircraft = simple_aircraft()
     taxi = v["main"] * v["taxi"] * 0.1
-    loading = Loading.model_validate({"load": {"front": v["front"], "rear": v["rear"], "bag": v["bag"]},
-                                      "fuel": {"main": v["main"]},
-                                      "burn": {"taxi": taxi, "trip": (v["main"] - taxi) * v["trip"]}})
+    loading = Loading.model_validate(
+        {
+            "load": {"front": v["front"], "rear": v["rear"], "bag": v["bag"]},
+            "fuel": {"main": v["main"]},
+            "burn": {"taxi": taxi, "trip": (v["main"] - taxi) * v["trip"]},
+        }
+    )
     single = check_loading(aircraft, loading)
     trip = check_trip(aircraft, loading)
     assert len(trip.legs) == 1 and trip.ok == single.ok
@@ -237,12 +283,16 @@ def test_a_loading_without_legs_prints_todays_json(runner):
 # method) the first leg's ramp weight 1,915 + 6 x <= 2,250 lb bounds the first fuel
 # (x <= 55.8 gal), and leg 2, the passenger off, stays within the right lateral limit only with fuel on
 # the left: 3,009 - 50.4 f <= 1,500 lb-in, f >= 29.9 gal all the way to its landing.
-PLANNING = parse_aircraft({
-    **HANDBOOK_HELICOPTER,
-    "tank": [{"id": "main", "arm": 96.0, "lateral_arm": -8.4, "usable": 60.0, "density": 6.0}],
-    "envelope": [{**HANDBOOK_HELICOPTER["envelope"][0], "points": [[92.0, 1500], [92.0, 2250], [98.0, 2250], [98.0, 1500]]},
-                 HANDBOOK_HELICOPTER["envelope"][1]],
-})
+PLANNING = parse_aircraft(
+    {
+        **HANDBOOK_HELICOPTER,
+        "tank": [{"id": "main", "arm": 96.0, "lateral_arm": -8.4, "usable": 60.0, "density": 6.0}],
+        "envelope": [
+            {**HANDBOOK_HELICOPTER["envelope"][0], "points": [[92.0, 1500], [92.0, 2250], [98.0, 2250], [98.0, 1500]]},
+            HANDBOOK_HELICOPTER["envelope"][1],
+        ],
+    }
+)
 
 
 def _brute(high, build):
@@ -292,8 +342,17 @@ def test_fuel_to_add_at_a_stop_agrees_with_brute_force():
 
 
 def test_the_sample_trip_is_within_limits_on_every_leg(runner, tmp_path):
-    result = runner.invoke(app, ["check", str(sample("heli2/trip_drop_off.toml")), "--chart", str(tmp_path / "t.svg"),
-                                 "--sheet", str(tmp_path / "t.html")])
+    result = runner.invoke(
+        app,
+        [
+            "check",
+            str(sample("heli2/trip_drop_off.toml")),
+            "--chart",
+            str(tmp_path / "t.svg"),
+            "--sheet",
+            str(tmp_path / "t.html"),
+        ],
+    )
     assert result.exit_code == 0, result.output
     svg = (tmp_path / "t.svg").read_text()
     assert 'id="leg-1-burn-path"' in svg and 'id="leg-2-burn-path"' in svg
@@ -356,7 +415,9 @@ def test_rows_of_one_trip_come_together(tmp_path):
     assert len(rows) == 3 and rows[1].loading is not None
     for row in (rows[0], rows[2]):
         words = " ".join(row.problems)
-        assert row.loading is None and "given in parts" in words and "lines 2 and 4" in words and "is not checked" in words
+        assert (
+            row.loading is None and "given in parts" in words and "lines 2 and 4" in words and "is not checked" in words
+        )
 
 
 def test_a_trip_is_recorded_as_one_record_and_plots_every_leg(runner, tmp_path):

@@ -27,8 +27,17 @@ from loadcheck.units import (
 )
 
 ureg = pint.UnitRegistry()
-PINT_NAMES = {"lb": "pound", "kg": "kilogram", "in": "inch", "mm": "millimeter", "cm": "centimeter",
-              "m": "meter", "usgal": "gallon", "impgal": "imperial_gallon", "l": "liter"}
+PINT_NAMES = {
+    "lb": "pound",
+    "kg": "kilogram",
+    "in": "inch",
+    "mm": "millimeter",
+    "cm": "centimeter",
+    "m": "meter",
+    "usgal": "gallon",
+    "impgal": "imperial_gallon",
+    "l": "liter",
+}
 
 
 def test_constants_are_the_exact_nist_values():
@@ -41,8 +50,18 @@ def test_constants_are_the_exact_nist_values():
 
 @pytest.mark.parametrize(
     "a, b",
-    [("lb", "kg"), ("kg", "lb"), ("in", "mm"), ("mm", "in"), ("cm", "in"), ("m", "in"),
-     ("usgal", "l"), ("l", "usgal"), ("impgal", "l"), ("impgal", "usgal")],
+    [
+        ("lb", "kg"),
+        ("kg", "lb"),
+        ("in", "mm"),
+        ("mm", "in"),
+        ("cm", "in"),
+        ("m", "in"),
+        ("usgal", "l"),
+        ("l", "usgal"),
+        ("impgal", "l"),
+        ("impgal", "usgal"),
+    ],
 )
 def test_conversions_agree_with_pint(a, b):
     expected = ureg.Quantity(123.456, PINT_NAMES[a]).to(PINT_NAMES[b]).magnitude
@@ -61,9 +80,15 @@ def test_convert_refuses_different_kinds():
 
 @pytest.mark.parametrize(
     "text, expected",
-    [("20 kg", Quantity(20.0, "kg")), ("48usgal", Quantity(48.0, "usgal")), ("180", Quantity(180.0, None)),
-     (" 1.5e2 lbs ", Quantity(150.0, "lb")), ("40 L", Quantity(40.0, "l")), (12, Quantity(12.0, None)),
-     ("-3 in", Quantity(-3.0, "in"))],
+    [
+        ("20 kg", Quantity(20.0, "kg")),
+        ("48usgal", Quantity(48.0, "usgal")),
+        ("180", Quantity(180.0, None)),
+        (" 1.5e2 lbs ", Quantity(150.0, "lb")),
+        ("40 L", Quantity(40.0, "l")),
+        (12, Quantity(12.0, None)),
+        ("-3 in", Quantity(-3.0, "in")),
+    ],
 )
 def test_parse_quantity(text, expected):
     assert parse_quantity(text) == expected
@@ -96,11 +121,22 @@ def test_bad_durations(text):
         parse_duration_hours(text)
 
 
-@pytest.mark.parametrize("text, value, unit", [
-    ("36 l/h", 36.0, "l"), ("9.5 gph", 9.5, "usgal"), ("60 lb/h", 60.0, "lb"), ("60 LB/HR", 60.0, "lb"),
-    ("27 kg/h", 27.0, "kg"), ("8 impgal per hour", 8.0, "impgal"), ("120 pph", 120.0, "lb"), ("30 lph", 30.0, "l"),
-    ("9.5", 9.5, None), (9.5, 9.5, None), ("10 usgal", 10.0, "usgal"),
-])
+@pytest.mark.parametrize(
+    "text, value, unit",
+    [
+        ("36 l/h", 36.0, "l"),
+        ("9.5 gph", 9.5, "usgal"),
+        ("60 lb/h", 60.0, "lb"),
+        ("60 LB/HR", 60.0, "lb"),
+        ("27 kg/h", 27.0, "kg"),
+        ("8 impgal per hour", 8.0, "impgal"),
+        ("120 pph", 120.0, "lb"),
+        ("30 lph", 30.0, "l"),
+        ("9.5", 9.5, None),
+        (9.5, 9.5, None),
+        ("10 usgal", 10.0, "usgal"),
+    ],
+)
 def test_rates_are_read_with_their_units(text, value, unit):
     # "gph" is US gallons per hour and "pph" pounds per hour (common practice in US usage)
     assert parse_rate(text) == Quantity(value, unit)

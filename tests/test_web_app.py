@@ -29,6 +29,7 @@ from .web_helpers import PASSWORD, SAMPLES, TRIP_LEG_2_AFT, WITHIN, _client, _po
 
 # -- signing in ----------------------------------------------------------------------------------
 
+
 def test_every_page_but_sign_in_needs_signing_in(desk: dict[str, Any]) -> None:
     client = _client(desk)
     assert client.get("/signin").status_code == 200
@@ -38,7 +39,9 @@ def test_every_page_but_sign_in_needs_signing_in(desk: dict[str, Any]) -> None:
     for path in ("/api/fleet", "/api/records", "/api/records/1", "/api/openapi.json"):
         assert client.get(path).status_code == 401, path
     assert client.post("/api/check", json={"registration": "DEMO-4T"}).status_code == 401
-    assert client.get("/docs").status_code == 404 and client.get("/openapi.json").status_code == 404  # no pages fetching outside scripts
+    assert (
+        client.get("/docs").status_code == 404 and client.get("/openapi.json").status_code == 404
+    )  # no pages fetching outside scripts
 
 
 def test_sign_in_and_out(desk: dict[str, Any]) -> None:
@@ -70,6 +73,7 @@ def test_api_takes_only_json_bodies(desk: dict[str, Any]) -> None:
 
 # -- the fleet -----------------------------------------------------------------------------------
 
+
 def test_fleet_lists_every_aircraft_with_its_figures(desk: dict[str, Any]) -> None:
     from loadcheck.files import load_aircraft
 
@@ -85,14 +89,20 @@ def test_fleet_lists_every_aircraft_with_its_figures(desk: dict[str, Any]) -> No
 
 def test_fleet_flags_an_invalid_file_and_an_undated_record(desk: dict[str, Any]) -> None:
     bad = desk["fleet"] / "broken.toml"
-    bad.write_text('format = 1\nname = "x"\nregistration = "BROKEN-1"\n[units]\nmass = "lb"\narm = "in"\nfuel_volume = "usgal"\n')
-    trainer = (desk["fleet"] / "trainer4" / "aircraft.toml")
+    bad.write_text(
+        'format = 1\nname = "x"\nregistration = "BROKEN-1"\n[units]\nmass = "lb"\narm = "in"\nfuel_volume = "usgal"\n'
+    )
+    trainer = desk["fleet"] / "trainer4" / "aircraft.toml"
     undated = desk["fleet"] / "undated.toml"
-    undated.write_text(trainer.read_text().replace('registration = "DEMO-4T"', 'registration = "UNDATED-1"').replace("date = 2026-02-09\n", ""))
+    undated.write_text(
+        trainer.read_text()
+        .replace('registration = "DEMO-4T"', 'registration = "UNDATED-1"')
+        .replace("date = 2026-02-09\n", "")
+    )
     page = _client(desk, "pia").get("/fleet").text
-    row = page[page.index("BROKEN-1"):]
+    row = page[page.index("BROKEN-1") :]
     assert "cannot be used" in row[:2000]
-    assert "not dated" in page[page.index("UNDATED-1"):][:3000]
+    assert "not dated" in page[page.index("UNDATED-1") :][:3000]
     assert str(desk["fleet"]) not in page  # no path of this machine
 
 
@@ -106,10 +116,23 @@ def test_fleet_api_is_the_fleet_listing(desk: dict[str, Any]) -> None:
 
 # -- the pilot: check, record, sheet, plan -------------------------------------------------------
 
+
 def test_check_form_lists_stations_tanks_and_burn(desk: dict[str, Any]) -> None:
     page = _client(desk, "pia").get("/aircraft/DEMO-4T").text
-    for words in ("Pilot and front passenger", "max 420.0 lb", "Baggage hold", "Main tanks (wings)", "usable 44.0", '"school"', '"full"',
-                  "burn.taxi", "burn.trip_time", "burn.rate", "burn.reserve", "utility"):
+    for words in (
+        "Pilot and front passenger",
+        "max 420.0 lb",
+        "Baggage hold",
+        "Main tanks (wings)",
+        "usable 44.0",
+        '"school"',
+        '"full"',
+        "burn.taxi",
+        "burn.trip_time",
+        "burn.rate",
+        "burn.reserve",
+        "utility",
+    ):
         assert words in page, words
 
 
@@ -117,9 +140,16 @@ def test_check_within_limits_leads_with_the_verdict_in_words(desk: dict[str, Any
     response = _post_check(_client(desk, "pia"), WITHIN)
     assert response.status_code == 200
     page = response.text
-    main = page[page.index("<main>"):]
-    assert main.index("Within limits:") < main.index("Moment table") < main.index("Conditions and margins") \
-        < main.index("Fuel burn") < main.index("Findings") < main.index("<svg") < page.index("Caution:")
+    main = page[page.index("<main>") :]
+    assert (
+        main.index("Within limits:")
+        < main.index("Moment table")
+        < main.index("Conditions and margins")
+        < main.index("Fuel burn")
+        < main.index("Findings")
+        < main.index("<svg")
+        < page.index("Caution:")
+    )
     inputs = load_check_inputs(SAMPLES / "trainer4" / "aircraft.toml", SAMPLES / "trainer4" / "within.toml")
     result = check_loading(inputs.aircraft, inputs.loading)
     assert result.ok
@@ -131,8 +161,16 @@ def test_check_within_limits_leads_with_the_verdict_in_words(desk: dict[str, Any
 
 def test_check_whose_burn_path_leaves_the_envelope_says_so(desk: dict[str, Any]) -> None:
     """sample twin6/leaves_path.toml: all four conditions inside, the burn path outside (the CLI's test of it)."""
-    values = {"load.row1": "380", "load.row2": "340", "load.nose": "200", "fuel.mains": "100", "fuel.aux": "40",
-              "burn.taxi": "2", "burn.trip": "90", "burn.order": "aux,mains"}
+    values = {
+        "load.row1": "380",
+        "load.row2": "340",
+        "load.nose": "200",
+        "fuel.mains": "100",
+        "fuel.aux": "40",
+        "burn.taxi": "2",
+        "burn.trip": "90",
+        "burn.order": "aux,mains",
+    }
     inputs = load_check_inputs(SAMPLES / "twin6" / "leaves_path.toml")
     expected = check_loading(inputs.aircraft, inputs.loading)
     page = _post_check(_client(desk, "pia"), values, "DEMO-6P").text
@@ -141,6 +179,7 @@ def test_check_whose_burn_path_leaves_the_envelope_says_so(desk: dict[str, Any])
     from html import escape
 
     from loadcheck.words import burn_path_summary
+
     assert escape(burn_path_summary(expected)) in page
 
 
@@ -168,9 +207,13 @@ def test_record_a_check_once_with_the_pilot_and_the_same_result(desk: dict[str, 
     assert len(records) == 1
     record = records[0]
     assert record.pilot == "pia" and record.source == "web desk" and record.registration == "DEMO-4T" and record.ok
-    inputs = load_check_inputs(SAMPLES / "trainer4" / "aircraft.toml", None,
-                               load={"front": "340", "rear": "160", "hold": "15 kg"}, fuel={"mains": "school", "centre": "0"},
-                               burn={"taxi": "1.2", "trip": "18", "reserve": "8"})
+    inputs = load_check_inputs(
+        SAMPLES / "trainer4" / "aircraft.toml",
+        None,
+        load={"front": "340", "rear": "160", "hold": "15 kg"},
+        fuel={"mains": "school", "centre": "0"},
+        burn={"taxi": "1.2", "trip": "18", "reserve": "8"},
+    )
     assert record.result == json.loads(json.dumps(check_loading(inputs.aircraft, inputs.loading).to_dict()))
     assert record.fingerprint == inputs.aircraft.fingerprint
     detail = client.get(response.headers["location"])
@@ -187,20 +230,32 @@ def test_load_sheet_is_the_command_lines_sheet(desk: dict[str, Any]) -> None:
     assert escape(PILOT_CAUTION) in page
 
 
-def test_load_sheet_has_the_fuel_plan_and_names_as_check_sheet_gives_them(runner: AppRunner, desk: dict[str, Any], tmp_path: Path) -> None:
-    # regression: the desk's sheet of a single check left out the fuel plan (taxi, trip, reserve, order) that check --sheet shows
+def test_load_sheet_has_the_fuel_plan_and_names_as_check_sheet_gives_them(
+    runner: AppRunner, desk: dict[str, Any], tmp_path: Path
+) -> None:
+    # regression: the desk's sheet of a single check left out the fuel plan (taxi, trip,
+    # reserve, order) that check --sheet shows
 
     from loadcheck.cli import app
 
     values = {k: v for k, v in TRIP_LEG_2_AFT.items() if not k.startswith("leg")} | {"legs": "1", "names.front": "Alex"}
     sheet = _post_check(_client(desk, "pia"), values, "TEST-TRIP", route="sheet").text
     loading = tmp_path / "one.toml"
-    loading.write_text('format = 1\n[load]\nfront = "340"\nbags = "100"\n[names]\nfront = "Alex"\n[fuel]\nmain = "full"\n'
-                       '[burn]\ntaxi = "1"\ntrip = "20"\n')
+    loading.write_text(
+        'format = 1\n[load]\nfront = "340"\nbags = "100"\n[names]\nfront = "Alex"\n[fuel]\nmain = "full"\n'
+        '[burn]\ntaxi = "1"\ntrip = "20"\n'
+    )
     cli_file = tmp_path / "one.html"
-    assert runner.invoke(app, ["check", str(desk["fleet"] / "trip_test.toml"), str(loading), "--sheet", str(cli_file)]).exit_code == 0
+    assert (
+        runner.invoke(
+            app, ["check", str(desk["fleet"] / "trip_test.toml"), str(loading), "--sheet", str(cli_file)]
+        ).exit_code
+        == 0
+    )
 
-    def text(html: str) -> list[str]:  # words and figures, without the time of the check, the loading's name and the chart
+    def text(
+        html: str,
+    ) -> list[str]:  # words and figures, without the time of the check, the loading's name and the chart
         html = re.sub(r"<svg.*</svg>", "", html, flags=re.S)
         return re.sub(r"Checked:</span> [^<]*|Loading:</span> [^<]*|<[^>]+>|\s+", " ", html).split()
 
@@ -212,8 +267,13 @@ def test_plan_most_fuel_is_the_library_answer(desk: dict[str, Any]) -> None:
     from loadcheck.planning import most_fuel
 
     page = _post_check(_client(desk, "pia"), WITHIN, action="fuel").text
-    inputs = load_check_inputs(SAMPLES / "trainer4" / "aircraft.toml", None, load={"front": "340", "rear": "160", "hold": "15 kg"},
-                               fuel={"mains": "school", "centre": "0"}, burn={"taxi": "1.2", "trip": "18", "reserve": "8"})
+    inputs = load_check_inputs(
+        SAMPLES / "trainer4" / "aircraft.toml",
+        None,
+        load={"front": "340", "rear": "160", "hold": "15 kg"},
+        fuel={"mains": "school", "centre": "0"},
+        burn={"taxi": "1.2", "trip": "18", "reserve": "8"},
+    )
     answer = most_fuel(inputs.aircraft, inputs.loading)
     assert answer.answer_display in page and "The loading at this answer" in page
 
@@ -222,8 +282,13 @@ def test_plan_most_payload_at_a_station(desk: dict[str, Any]) -> None:
     from loadcheck.planning import most_payload
 
     page = _post_check(_client(desk, "pia"), {**WITHIN, "station": "hold"}, action="payload").text
-    inputs = load_check_inputs(SAMPLES / "trainer4" / "aircraft.toml", None, load={"front": "340", "rear": "160", "hold": "15 kg"},
-                               fuel={"mains": "school", "centre": "0"}, burn={"taxi": "1.2", "trip": "18", "reserve": "8"})
+    inputs = load_check_inputs(
+        SAMPLES / "trainer4" / "aircraft.toml",
+        None,
+        load={"front": "340", "rear": "160", "hold": "15 kg"},
+        fuel={"mains": "school", "centre": "0"},
+        burn={"taxi": "1.2", "trip": "18", "reserve": "8"},
+    )
     assert most_payload(inputs.aircraft, inputs.loading, "hold").answer_display in page
 
 
@@ -244,6 +309,7 @@ def test_unknown_registration_is_a_plain_page(desk: dict[str, Any]) -> None:
 
 
 # -- roles ---------------------------------------------------------------------------------------
+
 
 def test_a_pilot_sees_only_their_own_records(desk: dict[str, Any]) -> None:
     pia, pat = _client(desk, "pia"), _client(desk, "pat")
@@ -293,7 +359,9 @@ def test_dispatcher_sees_checks_recorded_by_the_command_line(runner: AppRunner, 
 
     from loadcheck.cli import app
 
-    result = runner.invoke(app, ["check", str(desk["fleet"] / "trainer4" / "within.toml"), "--log", "--db", str(desk["db"])])
+    result = runner.invoke(
+        app, ["check", str(desk["fleet"] / "trainer4" / "within.toml"), "--log", "--db", str(desk["db"])]
+    )
     assert result.exit_code == 0, result.output
     rows = _client(desk, "dan").get("/api/records").json()
     assert len(rows) == 1 and rows[0]["source"].endswith("within.toml")
@@ -321,18 +389,27 @@ def test_only_a_pilot_checks_and_only_a_mechanic_changes_aircraft_data(desk: dic
     token = csrf_of(pia.get("/fleet").text)
     before = (desk["fleet"] / "trainer4" / "aircraft.toml").read_bytes()
     weighing = (SAMPLES / "trainer4" / "weighing.toml").read_text()
-    assert pia.post("/mechanic/DEMO-4T/propose", data={"kind": "weighing", "text": weighing, "csrf": token}).status_code == 403
-    assert pia.post("/mechanic/DEMO-4T/confirm", data={"token": "x", "confirm": "yes", "csrf": token}).status_code == 403
+    assert (
+        pia.post("/mechanic/DEMO-4T/propose", data={"kind": "weighing", "text": weighing, "csrf": token}).status_code
+        == 403
+    )
+    assert (
+        pia.post("/mechanic/DEMO-4T/confirm", data={"token": "x", "confirm": "yes", "csrf": token}).status_code == 403
+    )
     assert (desk["fleet"] / "trainer4" / "aircraft.toml").read_bytes() == before
 
 
 # -- the mechanic --------------------------------------------------------------------------------
 
+
 def _propose(client: TestClient, text: str, kind: str = "weighing", upload: bool = False) -> Any:
     page = client.get("/mechanic/DEMO-4T").text
     if upload:
-        return client.post("/mechanic/DEMO-4T/propose", data={"kind": kind, "csrf": csrf_of(page)},
-                           files={"upload": ("readings.toml", text.encode(), "application/toml")})
+        return client.post(
+            "/mechanic/DEMO-4T/propose",
+            data={"kind": kind, "csrf": csrf_of(page)},
+            files={"upload": ("readings.toml", text.encode(), "application/toml")},
+        )
     return client.post("/mechanic/DEMO-4T/propose", data={"kind": kind, "text": text, "csrf": csrf_of(page)})
 
 
@@ -364,7 +441,10 @@ def test_mechanic_weighing_needs_confirmation_then_writes_with_history(desk: dic
     # the next check uses the new empty weight
     result = _post_check(_client(desk, "pia"), WITHIN).text
     assert fmt(expected.weight, "lb", with_unit=False) in result
-    assert mo.post("/mechanic/DEMO-4T/confirm", data={"token": token, "confirm": "yes", "csrf": csrf_of(page)}).status_code == 404
+    assert (
+        mo.post("/mechanic/DEMO-4T/confirm", data={"token": token, "confirm": "yes", "csrf": csrf_of(page)}).status_code
+        == 404
+    )
 
 
 def test_mechanic_alteration_typed_in(desk: dict[str, Any]) -> None:
@@ -388,12 +468,19 @@ def test_a_proposal_is_confirmed_only_by_the_mechanic_who_made_it(desk: dict[str
 
     from loadcheck.web.users import UserStore
 
-    UserStore(desk["users"], hasher=PasswordHasher(time_cost=1, memory_cost=1024, parallelism=1)).add("max", PASSWORD, ["mechanic"])
+    UserStore(desk["users"], hasher=PasswordHasher(time_cost=1, memory_cost=1024, parallelism=1)).add(
+        "max", PASSWORD, ["mechanic"]
+    )
     page = _propose(_client(desk, "mo"), (SAMPLES / "trainer4" / "weighing.toml").read_text()).text
     token = re.search(r'name="token" value="([^"]+)"', page).group(1)  # type: ignore[union-attr]
     other = _client(desk, "max")
     mine = other.get("/mechanic/DEMO-4T").text
-    assert other.post("/mechanic/DEMO-4T/confirm", data={"token": token, "confirm": "yes", "csrf": csrf_of(mine)}).status_code == 404
+    assert (
+        other.post(
+            "/mechanic/DEMO-4T/confirm", data={"token": token, "confirm": "yes", "csrf": csrf_of(mine)}
+        ).status_code
+        == 404
+    )
 
 
 # -- escaping, sizes, errors ---------------------------------------------------------------------
@@ -407,8 +494,12 @@ def test_markup_from_files_and_forms_is_shown_as_text(desk: dict[str, Any]) -> N
     text = text.replace('name = "Four-seat trainer (invented demo)"', f"name = '{MARKUP}'")
     trainer.write_text(text)
     client = _client(desk, "pia")
-    for page in (client.get("/fleet").text, client.get("/aircraft/DEMO-4T").text, _post_check(client, WITHIN).text,
-                 _post_check(client, {**WITHIN, "load.front": MARKUP}).text):
+    for page in (
+        client.get("/fleet").text,
+        client.get("/aircraft/DEMO-4T").text,
+        _post_check(client, WITHIN).text,
+        _post_check(client, {**WITHIN, "load.front": MARKUP}).text,
+    ):
         assert "<script>" not in page and "<b>bold</b>" not in page
         assert "&lt;script&gt;" in page or "&lt;b&gt;" in page
     sheet = _post_check(client, WITHIN, route="sheet").text  # the load sheet: the library's renderer escapes too
@@ -422,7 +513,9 @@ def test_a_note_with_markup_is_kept_as_text(desk: dict[str, Any]) -> None:
     mo = _client(desk, "mo")
     page = _propose(mo, (SAMPLES / "trainer4" / "weighing.toml").read_text()).text
     token = re.search(r'name="token" value="([^"]+)"', page).group(1)  # type: ignore[union-attr]
-    written = mo.post("/mechanic/DEMO-4T/confirm", data={"token": token, "confirm": "yes", "note": MARKUP, "csrf": csrf_of(page)})
+    written = mo.post(
+        "/mechanic/DEMO-4T/confirm", data={"token": token, "confirm": "yes", "note": MARKUP, "csrf": csrf_of(page)}
+    )
     assert written.status_code == 200
     assert "<script>" not in written.text and "&lt;script&gt;" in written.text  # the history shows the note as text
 
@@ -436,16 +529,23 @@ def test_no_traceback_or_internal_path_reaches_a_page(desk: dict[str, Any], monk
     monkeypatch.setattr(loadcheck.check, "check_loading", broken)
     client = TestClient(desk["app"], raise_server_exceptions=False)
     assert sign_in(client, "pia").status_code == 303
-    for response in (_post_check(client, WITHIN),
-                     client.post("/api/check", json={"registration": "DEMO-4T", "load": {"front": 340}})):
+    for response in (
+        _post_check(client, WITHIN),
+        client.post("/api/check", json={"registration": "DEMO-4T", "load": {"front": 340}}),
+    ):
         assert response.status_code == 500
-        assert "Traceback" not in response.text and "secret.py" not in response.text and str(desk["fleet"]) not in response.text
+        assert (
+            "Traceback" not in response.text
+            and "secret.py" not in response.text
+            and str(desk["fleet"]) not in response.text
+        )
         assert "nothing was recorded" in response.text
     bad = client.get("/aircraft/NOPE-9")
     assert "Traceback" not in bad.text and str(desk["fleet"]) not in bad.text
 
 
 # -- trips of several legs (issue 19 with issue 16) ----------------------------------------------
+
 
 def _trip_inputs(desk: dict[str, Any], values: dict[str, str]) -> Any:
     """The library's reading of the check form's trip fields (the same overrides the command line's --leg-* give)."""
@@ -459,8 +559,10 @@ def _trip_inputs(desk: dict[str, Any], values: dict[str, str]) -> Any:
                 leg[parts[2]] = value
             else:
                 leg.setdefault(table, {})[parts[3]] = value
-    first = {table: {k.split(".", 1)[1]: v for k, v in values.items() if k.startswith(table + ".") and v}
-             for table in ("load", "fuel", "burn")}
+    first = {
+        table: {k.split(".", 1)[1]: v for k, v in values.items() if k.startswith(table + ".") and v}
+        for table in ("load", "fuel", "burn")
+    }
     return load_check_inputs(desk["fleet"] / "trip_test.toml", None, allow_trip=True, legs=legs, **first)
 
 
@@ -478,13 +580,26 @@ def test_add_a_leg_keeps_everything_typed_and_checks_nothing(desk: dict[str, Any
     assert page.status_code == 200 and "Leg 2" in page.text and 'name="legs" value="2"' in page.text
     for key, value in first.items():
         assert f'name="{key}" value="{value}"' in page.text, key
-    for key in ("leg.2.label", "leg.2.load.front", "leg.2.load.bags", "leg.2.fuel.main", "leg.2.burn.taxi",
-                "leg.2.burn.trip_time", "leg.2.burn.rate", "leg.2.burn.reserve", "leg.2.burn.order"):
+    for key in (
+        "leg.2.label",
+        "leg.2.load.front",
+        "leg.2.load.bags",
+        "leg.2.fuel.main",
+        "leg.2.burn.taxi",
+        "leg.2.burn.trip_time",
+        "leg.2.burn.rate",
+        "leg.2.burn.reserve",
+        "leg.2.burn.order",
+    ):
         assert f'name="{key}"' in page.text, key
     assert "Within limits" not in page.text and "Not within limits" not in page.text and _records(desk) == []
     # a third leg, then leg 2 taken out: leg 3's values become leg 2's, the rest stays as typed
-    three = _post_check(client, {**TRIP_LEG_2_AFT, "legs": "3", "leg.3.load.bags": "0", "leg.3.burn.trip": "7"}, "TEST-TRIP",
-                        action="remove_leg:2").text
+    three = _post_check(
+        client,
+        {**TRIP_LEG_2_AFT, "legs": "3", "leg.3.load.bags": "0", "leg.3.burn.trip": "7"},
+        "TEST-TRIP",
+        action="remove_leg:2",
+    ).text
     assert 'name="legs" value="2"' in three and 'name="leg.2.load.bags" value="0"' in three
     assert 'name="leg.2.burn.trip" value="7"' in three and 'name="leg.3.' not in three
     assert 'name="load.front" value="340"' in three
@@ -500,38 +615,52 @@ def test_a_trip_whose_leg_2_fails_says_so_first_and_shows_every_leg(desk: dict[s
     response = _post_check(_client(desk, "pia"), TRIP_LEG_2_AFT, "TEST-TRIP")
     assert response.status_code == 200
     page = response.text
-    main = page[page.index("<main>"):]
+    main = page[page.index("<main>") :]
     verdict = re.search(r'<p class="verdict out" role="status">(.*?)</p>', main, re.S)
     assert verdict and main.index(verdict.group(0)) < main.index('id="leg-1"')
     words = re.sub(r"<[^>]+>|\s+", " ", verdict.group(1))
     assert "Not within limits on leg 2 (back solo)" in words and "leg 1" not in words
     assert "Within limits" not in main  # never beside a limit finding
-    assert main.index('<section class="leg" id="leg-1">') < main.index('<section class="leg" id="leg-2">') \
-        < main.index("<svg") < page.index("Caution:")
-    leg_2 = main[main.index('<section class="leg" id="leg-2">'):main.index("<svg")]
+    assert (
+        main.index('<section class="leg" id="leg-1">')
+        < main.index('<section class="leg" id="leg-2">')
+        < main.index("<svg")
+        < page.index("Caution:")
+    )
+    leg_2 = main[main.index('<section class="leg" id="leg-2">') : main.index("<svg")]
     for heading in ("Moment table", "Conditions and margins", "Fuel burn", "Findings"):
         assert heading in leg_2, heading
     for finding in expected.findings:  # each names its leg and condition
         assert finding.leg == 2 and escape(finding.message) in leg_2
-        assert "leg 2" in finding.message and finding.condition is not None and finding.condition.replace("_", " ") in finding.message
+        assert (
+            "leg 2" in finding.message
+            and finding.condition is not None
+            and finding.condition.replace("_", " ") in finding.message
+        )
     for leg in expected.legs:
-        section = main[main.index(f'id="leg-{leg.leg}"'):]
+        section = main[main.index(f'id="leg-{leg.leg}"') :]
         assert fmt(leg.check.condition("takeoff").weight, "lb", with_unit=False) in section
-    assert 'id="leg-1-burn-path"' in page and 'id="leg-2-burn-path"' in page  # the chart: one path per leg (trip_figure)
+    assert (
+        'id="leg-1-burn-path"' in page and 'id="leg-2-burn-path"' in page
+    )  # the chart: one path per leg (trip_figure)
     assert _records(desk) == []
 
 
-def test_a_bad_value_in_a_leg_names_the_leg_and_field_keeps_everything_and_records_nothing(desk: dict[str, Any]) -> None:
+def test_a_bad_value_in_a_leg_names_the_leg_and_field_keeps_everything_and_records_nothing(
+    desk: dict[str, Any],
+) -> None:
     client = _client(desk, "pia")
     for key, bad in (("leg.2.burn.taxi", "1 furlong"), ("leg.2.fuel.main", "brimming"), ("leg.2.load.front", "-5")):
         response = _post_check(client, {**TRIP_LEG_2_AFT, key: bad}, "TEST-TRIP", route="record")
         assert response.status_code == 422, key
         page = response.text
-        problem = page[page.index('class="problem"'):page.index("</ul>", page.index('class="problem"'))]
+        problem = page[page.index('class="problem"') : page.index("</ul>", page.index('class="problem"'))]
         field = key.split(".", 2)[2].replace("fuel.", "add_fuel.")
         assert f"leg 2, {field}" in problem and escape_value(bad) in problem, key
         assert re.search(rf'class="field bad">\s*<label for="{re.escape(key)}"', page), key
-        assert f'value="{escape_value(bad)}"' in page and 'value="back solo"' in page and 'name="legs" value="2"' in page
+        assert (
+            f'value="{escape_value(bad)}"' in page and 'value="back solo"' in page and 'name="legs" value="2"' in page
+        )
     assert _records(desk) == []
 
 
@@ -565,7 +694,10 @@ def test_record_a_trip_through_the_recording_job(desk: dict[str, Any]) -> None:
     assert [leg["label"] for leg in record.inputs["leg"]] == ["back solo"]
     assert record.inputs["leg"][0]["load"] == {"front": "170"} and record.inputs["leg"][0]["add_fuel"] == {"main": "5"}
     detail = client.get(response.headers["location"]).text
-    assert "Conditions of leg 1: within limits" in detail and "Conditions of leg 2 (back solo): not within limits" in detail
+    assert (
+        "Conditions of leg 1: within limits" in detail
+        and "Conditions of leg 2 (back solo): not within limits" in detail
+    )
 
 
 def test_a_recorded_trip_is_verified_by_the_dispatcher(desk: dict[str, Any]) -> None:
@@ -577,19 +709,44 @@ def test_a_recorded_trip_is_verified_by_the_dispatcher(desk: dict[str, Any]) -> 
     assert verified.status_code == 200 and "Verified:" in verified.text
 
 
-def test_trip_load_sheet_is_the_command_lines_trip_sheet(runner: AppRunner, desk: dict[str, Any], tmp_path: Path) -> None:
+def test_trip_load_sheet_is_the_command_lines_trip_sheet(
+    runner: AppRunner, desk: dict[str, Any], tmp_path: Path
+) -> None:
 
     from loadcheck.cli import app
 
     sheet = _post_check(_client(desk, "pia"), TRIP_LEG_2_AFT, "TEST-TRIP", route="sheet").text
     cli_file = tmp_path / "trip.html"
-    args = ["check", str(desk["fleet"] / "trip_test.toml"), "--load", "front=340", "--load", "bags=100", "--fuel", "main=full",
-            "--taxi", "1", "--trip", "20", "--leg-load", "2:front=170", "--leg-fuel", "2:main=5", "--leg-burn", "2:taxi=1",
-            "--leg-burn", "2:trip=10", "--sheet", str(cli_file)]
+    args = [
+        "check",
+        str(desk["fleet"] / "trip_test.toml"),
+        "--load",
+        "front=340",
+        "--load",
+        "bags=100",
+        "--fuel",
+        "main=full",
+        "--taxi",
+        "1",
+        "--trip",
+        "20",
+        "--leg-load",
+        "2:front=170",
+        "--leg-fuel",
+        "2:main=5",
+        "--leg-burn",
+        "2:taxi=1",
+        "--leg-burn",
+        "2:trip=10",
+        "--sheet",
+        str(cli_file),
+    ]
     assert runner.invoke(app, args).exit_code == 1
+
     def text(html: str) -> str:  # the sheet's words and figures, without the time of the check and the chart
         html = re.sub(r"<svg.*</svg>", "", html, flags=re.S)
         return re.sub(r"Checked:</span> [^<]*|, leg 2 \(back solo\)|, leg 2|<[^>]+>|\s+", " ", html)
+
     cli_text = text(cli_file.read_text())
     assert "OUT OF LIMITS on Leg 2" in cli_text and "OUT OF LIMITS on Leg 2" in text(sheet)
     assert text(sheet).replace("(back solo)", "").split() == cli_text.split()  # the command line's legs carry no label
@@ -610,7 +767,9 @@ def test_plan_a_trip_from_the_form_is_the_library_answer(desk: dict[str, Any]) -
     page = _post_check(client, within, "TEST-TRIP", action="fuel").text
     assert escape(most.answer_display) in page and "every leg" in page and 'id="leg-2"' in page
     page = _post_check(client, {**within, "stop": "2"}, "TEST-TRIP", action="stop").text
-    assert escape(stop.question[1:]) in page and escape(stop.answer_display) in page  # the page capitalises its first letter
+    assert (
+        escape(stop.question[1:]) in page and escape(stop.answer_display) in page
+    )  # the page capitalises its first letter
     refused = _post_check(client, within, "TEST-TRIP", action="payload")
     assert refused.status_code == 422 and "loading of one leg" in refused.text
     assert _records(desk) == []
@@ -620,13 +779,38 @@ def test_api_check_takes_legs_as_the_command_line_does(runner: AppRunner, desk: 
 
     from loadcheck.cli import app
 
-    args = ["check", str(desk["fleet"] / "trip_test.toml"), "--load", "front=340", "--load", "bags=100", "--fuel", "main=full",
-            "--taxi", "1", "--trip", "20", "--leg-load", "2:front=170", "--leg-fuel", "2:main=5", "--leg-burn", "2:taxi=1",
-            "--leg-burn", "2:trip=10", "--json"]
+    args = [
+        "check",
+        str(desk["fleet"] / "trip_test.toml"),
+        "--load",
+        "front=340",
+        "--load",
+        "bags=100",
+        "--fuel",
+        "main=full",
+        "--taxi",
+        "1",
+        "--trip",
+        "20",
+        "--leg-load",
+        "2:front=170",
+        "--leg-fuel",
+        "2:main=5",
+        "--leg-burn",
+        "2:taxi=1",
+        "--leg-burn",
+        "2:trip=10",
+        "--json",
+    ]
     cli = runner.invoke(app, args)
     assert cli.exit_code == 1
-    body = {"registration": "TEST-TRIP", "load": {"front": 340, "bags": 100}, "fuel": {"main": "full"},
-            "burn": {"taxi": 1, "trip": 20}, "leg": [{"load": {"front": 170}, "add_fuel": {"main": 5}, "burn": {"taxi": 1, "trip": 10}}]}
+    body = {
+        "registration": "TEST-TRIP",
+        "load": {"front": 340, "bags": 100},
+        "fuel": {"main": "full"},
+        "burn": {"taxi": 1, "trip": 20},
+        "leg": [{"load": {"front": 170}, "add_fuel": {"main": 5}, "burn": {"taxi": 1, "trip": 10}}],
+    }
     client = _client(desk, "pia")
     answer = client.post("/api/check", json=body)
     assert answer.status_code == 200 and answer.json() == json.loads(cli.stdout)
@@ -640,9 +824,15 @@ def test_api_check_takes_legs_as_the_command_line_does(runner: AppRunner, desk: 
 
 def test_api_names_go_into_the_record_and_a_bad_one_is_refused(desk: dict[str, Any]) -> None:
     client = _client(desk, "pia")
-    body = {"registration": "TEST-TRIP", "load": {"front": 340, "bags": 100}, "fuel": {"main": "full"},
-            "burn": {"taxi": 1, "trip": 20}, "names": {"front": "Alex"}, "record": True,
-            "leg": [{"load": {"front": 170}, "names": {"front": "Kim"}, "burn": {"trip": 10}}]}
+    body = {
+        "registration": "TEST-TRIP",
+        "load": {"front": 340, "bags": 100},
+        "fuel": {"main": "full"},
+        "burn": {"taxi": 1, "trip": 20},
+        "names": {"front": "Alex"},
+        "record": True,
+        "leg": [{"load": {"front": 170}, "names": {"front": "Kim"}, "burn": {"trip": 10}}],
+    }
     made = client.post("/api/check", json=body)
     assert made.status_code == 200
     inputs = client.get(f"/api/records/{made.json()['record_id']}").json()["inputs"]
@@ -656,26 +846,37 @@ def test_api_names_go_into_the_record_and_a_bad_one_is_refused(desk: dict[str, A
 
 def test_api_bad_leg_names_the_leg_and_records_nothing(desk: dict[str, Any]) -> None:
     client = _client(desk, "pia")
-    body = {"registration": "TEST-TRIP", "load": {"front": 340}, "fuel": {"main": "full"}, "record": True,
-            "leg": [{"load": {"front": -1}, "burn": {}}]}
+    body = {
+        "registration": "TEST-TRIP",
+        "load": {"front": 340},
+        "fuel": {"main": "full"},
+        "record": True,
+        "leg": [{"load": {"front": -1}, "burn": {}}],
+    }
     response = client.post("/api/check", json=body)
     assert response.status_code == 422
     problems = response.json()["problems"]
-    assert [p["field"] for p in problems] == ["leg[0].load.front"] and problems[0]["message"].startswith("leg 2, load.front:")
+    assert [p["field"] for p in problems] == ["leg[0].load.front"] and problems[0]["message"].startswith(
+        "leg 2, load.front:"
+    )
     unknown = client.post("/api/check", json={**body, "leg": [{"fuel": {"main": 5}, "burn": {}}]})
     assert unknown.status_code == 422 and any(p["field"] == "leg[0].fuel" for p in unknown.json()["problems"])
-    assert client.post("/api/plan/stop", json={**body, "leg": [], "stop": 2}).status_code == 422  # no stop without a leg
+    assert (
+        client.post("/api/plan/stop", json={**body, "leg": [], "stop": 2}).status_code == 422
+    )  # no stop without a leg
     assert _records(desk) == []
 
 
 def test_names_typed_on_the_form_show_beside_the_seat_and_go_into_the_record(desk: dict[str, Any]) -> None:
     client = _client(desk, "pia")
     form = client.get("/aircraft/TEST-TRIP").text
-    assert 'name="names.front"' in form and 'name="names.rear"' in form and 'name="names.bags"' not in form  # seats only
+    assert (
+        'name="names.front"' in form and 'name="names.rear"' in form and 'name="names.bags"' not in form
+    )  # seats only
     values = {**TRIP_LEG_2_AFT, "names.front": "Alex <i>R</i>", "leg.2.names.front": "Kim"}
     page = _post_check(client, values, "TEST-TRIP").text
-    leg_1 = page[page.index('id="leg-1"'):page.index('id="leg-2"', page.index('id="leg-1"') + 1)]
-    leg_2 = page[page.rindex('<section class="leg" id="leg-2">'):page.index('<figure class="chart">')]
+    leg_1 = page[page.index('id="leg-1"') : page.index('id="leg-2"', page.index('id="leg-1"') + 1)]
+    leg_2 = page[page.rindex('<section class="leg" id="leg-2">') : page.index('<figure class="chart">')]
     assert '<span class="who">· Alex &lt;i&gt;R&lt;/i&gt;</span>' in leg_1 and "<i>R</i>" not in page
     assert '<span class="who">· Kim</span>' in leg_2 and "Alex" not in leg_2
     sheet = _post_check(client, values, "TEST-TRIP", route="sheet").text
@@ -688,8 +889,12 @@ def test_names_typed_on_the_form_show_beside_the_seat_and_go_into_the_record(des
 def test_a_bad_name_brings_the_form_back_with_the_field_named(desk: dict[str, Any]) -> None:
     client = _client(desk, "pia")
     for key, field in (("names.rear", "names.rear"), ("leg.2.names.rear", "leg 2, names.rear")):
-        response = _post_check(client, {**TRIP_LEG_2_AFT, key: "Sam"}, "TEST-TRIP", route="record")  # no one weighs in the rear
-        assert response.status_code == 422 and f"{field}:" in response.text and "carries no weight" in response.text, key
+        response = _post_check(
+            client, {**TRIP_LEG_2_AFT, key: "Sam"}, "TEST-TRIP", route="record"
+        )  # no one weighs in the rear
+        assert response.status_code == 422 and f"{field}:" in response.text and "carries no weight" in response.text, (
+            key
+        )
         assert re.search(rf'class="field name bad">\s*<label for="{re.escape(key)}"', response.text), key
         assert f'name="{key}" value="Sam"' in response.text
     assert _records(desk) == []
@@ -697,13 +902,18 @@ def test_a_bad_name_brings_the_form_back_with_the_field_named(desk: dict[str, An
 
 # -- the JSON API --------------------------------------------------------------------------------
 
+
 def test_api_check_is_the_command_lines_json(runner: AppRunner, desk: dict[str, Any]) -> None:
 
     from loadcheck.cli import app
 
     cli = runner.invoke(app, ["check", str(SAMPLES / "twin6" / "leaves_path.toml"), "--json"])
-    body = {"registration": "DEMO-6P", "load": {"row1": 380, "row2": 340, "nose": 200}, "fuel": {"mains": 100, "aux": 40},
-            "burn": {"taxi": 2, "trip": 90, "order": ["aux", "mains"]}}
+    body = {
+        "registration": "DEMO-6P",
+        "load": {"row1": 380, "row2": 340, "nose": 200},
+        "fuel": {"mains": 100, "aux": 40},
+        "burn": {"taxi": 2, "trip": 90, "order": ["aux", "mains"]},
+    }
     answer = _client(desk, "pia").post("/api/check", json=body)
     assert answer.status_code == 200
     assert answer.json() == json.loads(cli.stdout)
@@ -711,15 +921,23 @@ def test_api_check_is_the_command_lines_json(runner: AppRunner, desk: dict[str, 
 
 
 def test_api_check_records_once_when_asked(desk: dict[str, Any]) -> None:
-    answer = _client(desk, "pia").post("/api/check", json={"registration": "DEMO-4T", "load": {"front": "340"},
-                                                           "fuel": {"mains": "school"}, "record": True}).json()
+    answer = (
+        _client(desk, "pia")
+        .post(
+            "/api/check",
+            json={"registration": "DEMO-4T", "load": {"front": "340"}, "fuel": {"mains": "school"}, "record": True},
+        )
+        .json()
+    )
     records = _records(desk)
     assert [r.id for r in records] == [answer["record_id"]] and records[0].pilot == "pia"
 
 
 def test_api_bad_value_names_the_field(desk: dict[str, Any]) -> None:
     client = _client(desk, "pia")
-    response = client.post("/api/check", json={"registration": "DEMO-4T", "load": {"front": "12 parsecs"}, "record": True})
+    response = client.post(
+        "/api/check", json={"registration": "DEMO-4T", "load": {"front": "12 parsecs"}, "record": True}
+    )
     assert response.status_code == 422
     assert any(p["field"].startswith("load.front") for p in response.json()["problems"])
     unknown = client.post("/api/check", json={"registration": "DEMO-4T", "weather": "fine"})
@@ -733,8 +951,12 @@ def test_api_plans_are_the_command_lines_json(runner: AppRunner, desk: dict[str,
     from loadcheck.cli import app
 
     within = str(SAMPLES / "trainer4" / "within.toml")
-    body = {"registration": "DEMO-4T", "load": {"front": 340, "rear": 160, "hold": "15 kg"}, "fuel": {"mains": "school", "centre": 0},
-            "burn": {"taxi": 1.2, "trip": 18, "reserve": 8}}
+    body = {
+        "registration": "DEMO-4T",
+        "load": {"front": 340, "rear": 160, "hold": "15 kg"},
+        "fuel": {"mains": "school", "centre": 0},
+        "burn": {"taxi": 1.2, "trip": 18, "reserve": 8},
+    }
     client = _client(desk, "pia")
     fuel = client.post("/api/plan/fuel", json=body).json()
     assert fuel == json.loads(runner.invoke(app, ["plan", "fuel", within, "--json"]).stdout)
@@ -753,7 +975,14 @@ def test_api_records_and_one_record(desk: dict[str, Any]) -> None:
 
 def test_openapi_schema_documents_the_api(desk: dict[str, Any]) -> None:
     schema = _client(desk, "pia").get("/api/openapi.json").json()
-    for path in ("/api/check", "/api/plan/fuel", "/api/plan/payload", "/api/records", "/api/records/{record_id}", "/api/fleet"):
+    for path in (
+        "/api/check",
+        "/api/plan/fuel",
+        "/api/plan/payload",
+        "/api/records",
+        "/api/records/{record_id}",
+        "/api/fleet",
+    ):
         assert path in schema["paths"], path
     assert "CheckRequest" in schema["components"]["schemas"]
 

@@ -85,10 +85,26 @@ def _no_sideways_scroll(page: Any) -> None:
     assert overflow <= 0, f"{page.url} scrolls sideways by {overflow} px at 360 px"
 
 
-TRAINER = {"load.front": "340", "load.rear": "160", "load.hold": "15 kg", "fuel.mains": "school", "fuel.centre": "0",
-           "burn.taxi": "1.2", "burn.trip": "18", "burn.reserve": "8"}
-TWIN_LEAVES = {"load.row1": "380", "load.row2": "340", "load.nose": "200", "fuel.mains": "100", "fuel.aux": "40",
-               "burn.taxi": "2", "burn.trip": "90", "burn.order": "aux,mains"}  # sample twin6/leaves_path.toml
+TRAINER = {
+    "load.front": "340",
+    "load.rear": "160",
+    "load.hold": "15 kg",
+    "fuel.mains": "school",
+    "fuel.centre": "0",
+    "burn.taxi": "1.2",
+    "burn.trip": "18",
+    "burn.reserve": "8",
+}
+TWIN_LEAVES = {
+    "load.row1": "380",
+    "load.row2": "340",
+    "load.nose": "200",
+    "fuel.mains": "100",
+    "fuel.aux": "40",
+    "burn.taxi": "2",
+    "burn.trip": "90",
+    "burn.order": "aux,mains",
+}  # sample twin6/leaves_path.toml
 
 
 def _fill(page: Any, values: dict[str, str]) -> None:
@@ -154,7 +170,9 @@ def test_mechanic_records_a_weighing_and_the_next_check_uses_it(browser: Any, se
     from loadcheck.display import fmt
     from loadcheck.empty_record import propose
 
-    expected = propose(server["fleet"] / "trainer4" / "aircraft.toml", SAMPLES / "trainer4" / "weighing.toml", "weighing").result.new
+    expected = propose(
+        server["fleet"] / "trainer4" / "aircraft.toml", SAMPLES / "trainer4" / "weighing.toml", "weighing"
+    ).result.new
     mechanic = _page(browser, server, "mo", width=360)
     mechanic.click("a[href='/mechanic/DEMO-4T']")
     _no_sideways_scroll(mechanic)
@@ -163,7 +181,9 @@ def test_mechanic_records_a_weighing_and_the_next_check_uses_it(browser: Any, se
     assert mechanic.get_by_text("Current and new empty-weight record").is_visible()
     _no_sideways_scroll(mechanic)
     new_column = mechanic.locator("table.compare th").nth(2).bounding_box()
-    assert new_column["x"] + new_column["width"] <= 360, "the new record's column must show on a phone without scrolling"
+    assert new_column["x"] + new_column["width"] <= 360, (
+        "the new record's column must show on a phone without scrolling"
+    )
     _shot(mechanic, "mechanic-proposal")
     mechanic.check("input[name='confirm']")
     mechanic.click("button:has-text('Write the new record')")
@@ -196,8 +216,13 @@ def test_a_trip_of_two_legs_whose_second_leg_fails(browser: Any, server: dict[st
     assert pilot.locator("section.leg").count() == 2
     assert pilot.locator("#leg-1 .verdict").inner_text().startswith("Leg 1: within limits")
     assert pilot.locator("#leg-2 .verdict").inner_text().startswith("Leg 2: not within limits")
-    assert pilot.locator("#leg-2 li.limit").count() >= 1 and "leg 2" in pilot.locator("#leg-2 li.limit").first.inner_text()
-    assert pilot.locator("figure.chart svg").count() == 1 and pilot.locator("figure.chart [id='leg-2-burn-path']").count() == 1
+    assert (
+        pilot.locator("#leg-2 li.limit").count() >= 1 and "leg 2" in pilot.locator("#leg-2 li.limit").first.inner_text()
+    )
+    assert (
+        pilot.locator("figure.chart svg").count() == 1
+        and pilot.locator("figure.chart [id='leg-2-burn-path']").count() == 1
+    )
     _no_sideways_scroll(pilot)
     _shot(pilot, "check-trip")
     pilot.click("button:has-text('Record this trip')")

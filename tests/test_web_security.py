@@ -35,8 +35,13 @@ def test_sign_in_form_needs_its_csrf_token(desk: dict[str, Any]) -> None:
 
 def test_every_form_is_csrf_protected(desk: dict[str, Any]) -> None:
     client = _client(desk, "pia")
-    for path in ("/aircraft/DEMO-4T/check", "/aircraft/DEMO-4T/record", "/aircraft/DEMO-4T/sheet", "/aircraft/DEMO-4T/edit",
-                 "/signout"):
+    for path in (
+        "/aircraft/DEMO-4T/check",
+        "/aircraft/DEMO-4T/record",
+        "/aircraft/DEMO-4T/sheet",
+        "/aircraft/DEMO-4T/edit",
+        "/signout",
+    ):
         assert client.post(path, data=WITHIN).status_code == 403, path
         assert client.post(path, data={**WITHIN, "csrf": "forged"}).status_code == 403, path
     mechanic = _client(desk, "mo")
@@ -53,12 +58,19 @@ def test_request_bodies_and_uploads_are_size_limited(desk: dict[str, Any]) -> No
     mo = _client(desk, "mo")
     page = mo.get("/mechanic/DEMO-4T").text
     big = b"# " + b"x" * MAX_BODY_BYTES
-    response = mo.post("/mechanic/DEMO-4T/propose", data={"kind": "weighing", "csrf": csrf_of(page)},
-                       files={"upload": ("big.toml", big, "application/toml")})
+    response = mo.post(
+        "/mechanic/DEMO-4T/propose",
+        data={"kind": "weighing", "csrf": csrf_of(page)},
+        files={"upload": ("big.toml", big, "application/toml")},
+    )
     assert response.status_code == 413
     pia = _client(desk, "pia")
-    assert pia.post("/api/check", content=b"{" + b" " * MAX_BODY_BYTES + b"}",
-                    headers={"content-type": "application/json"}).status_code == 413
+    assert (
+        pia.post(
+            "/api/check", content=b"{" + b" " * MAX_BODY_BYTES + b"}", headers={"content-type": "application/json"}
+        ).status_code
+        == 413
+    )
     assert _records(desk) == []
 
 
@@ -75,16 +87,29 @@ def test_server_refuses_a_non_loopback_address_without_the_option() -> None:
     assert "TLS" in REMOTE_CAUTION and "trusted network" in REMOTE_CAUTION
 
 
-def test_serve_command_refuses_remote_and_prints_the_caution(runner: AppRunner, tmp_path: Path, monkeypatch: pytest.MonkeyPatch) -> None:
+def test_serve_command_refuses_remote_and_prints_the_caution(
+    runner: AppRunner, tmp_path: Path, monkeypatch: pytest.MonkeyPatch
+) -> None:
     import uvicorn
-
 
     refused = runner.invoke(app, ["serve", str(SAMPLES), "--host", "0.0.0.0", "--users", str(tmp_path / "u.json")])
     assert refused.exit_code == 2 and "--allow-remote" in refused.output
     started: dict[str, Any] = {}
     monkeypatch.setattr(uvicorn, "run", lambda app, **kw: started.update(kw))
-    allowed = runner.invoke(app, ["serve", str(SAMPLES), "--host", "0.0.0.0", "--allow-remote",
-                                       "--users", str(tmp_path / "u.json"), "--db", str(tmp_path / "r.sqlite3")])
+    allowed = runner.invoke(
+        app,
+        [
+            "serve",
+            str(SAMPLES),
+            "--host",
+            "0.0.0.0",
+            "--allow-remote",
+            "--users",
+            str(tmp_path / "u.json"),
+            "--db",
+            str(tmp_path / "r.sqlite3"),
+        ],
+    )
     assert allowed.exit_code == 0 and "TLS" in allowed.output and started["host"] == "0.0.0.0"
     monkeypatch.setattr(uvicorn, "run", lambda app, **kw: started.update(kw))
     runner.invoke(app, ["serve", str(SAMPLES), "--users", str(tmp_path / "u.json")])

@@ -28,25 +28,44 @@ def test_passwords_are_stored_only_as_argon2_hashes(desk: dict[str, Any]) -> Non
 
 def test_users_commands(runner: AppRunner, tmp_path: Path) -> None:
 
-
     users = str(tmp_path / "users.json")
     run = runner.invoke
-    assert run(app, ["users", "add", "robin", "-r", "pilot", "-r", "mechanic", "--password-stdin", "--users", users],
-               input="first pass phrase\n").exit_code == 0
+    assert (
+        run(
+            app,
+            ["users", "add", "robin", "-r", "pilot", "-r", "mechanic", "--password-stdin", "--users", users],
+            input="first pass phrase\n",
+        ).exit_code
+        == 0
+    )
     listed = run(app, ["users", "list", "--users", users])
     assert listed.stdout == "robin\tpilot, mechanic\n"
-    assert run(app, ["users", "add", "robin", "-r", "pilot", "--password-stdin", "--users", users], input="x" * 12 + "\n").exit_code == 2
-    bad_role = run(app, ["users", "add", "sam", "-r", "captain", "--password-stdin", "--users", users], input="x" * 12 + "\n")
+    assert (
+        run(
+            app, ["users", "add", "robin", "-r", "pilot", "--password-stdin", "--users", users], input="x" * 12 + "\n"
+        ).exit_code
+        == 2
+    )
+    bad_role = run(
+        app, ["users", "add", "sam", "-r", "captain", "--password-stdin", "--users", users], input="x" * 12 + "\n"
+    )
     assert bad_role.exit_code == 2 and "captain" in bad_role.output
     short = run(app, ["users", "add", "sam", "-r", "pilot", "--password-stdin", "--users", users], input="short\n")
     assert short.exit_code == 2 and "at least" in short.output
-    assert run(app, ["users", "passwd", "robin", "--password-stdin", "--users", users], input="second pass phrase\n").exit_code == 0
+    assert (
+        run(
+            app, ["users", "passwd", "robin", "--password-stdin", "--users", users], input="second pass phrase\n"
+        ).exit_code
+        == 0
+    )
     from loadcheck.web.users import UserStore
 
     store = UserStore(users)
     made = json.loads(Path(users).read_text())["users"]["robin"]["hash"]
     assert made.startswith("$argon2id$v=19$m=65536,t=3,")  # RFC 9106 section 4, second recommended option
-    assert store.verify("robin", "first pass phrase") is None and store.verify("robin", "second pass phrase") is not None
+    assert (
+        store.verify("robin", "first pass phrase") is None and store.verify("robin", "second pass phrase") is not None
+    )
     assert run(app, ["users", "remove", "robin", "--users", users]).exit_code == 0
     assert run(app, ["users", "list", "--users", users]).stdout == ""
     assert run(app, ["users", "remove", "robin", "--users", users]).exit_code == 2

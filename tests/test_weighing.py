@@ -27,9 +27,17 @@ from .helpers import examples, sample, sample_data
 
 def box(**changes):
     data = {
-        "name": "Weighing box", "units": {"mass": "lb", "arm": "in", "fuel_volume": "usgal"},
-        "empty": {"weight": 2000.0, "arm": 0.0}, "limits": {"max_takeoff_weight": 3000},
-        "envelope": [{"category": "normal", "axes": ["arm", "weight"], "points": [[-50, 500], [-50, 3000], [90, 3000], [90, 500]]}],
+        "name": "Weighing box",
+        "units": {"mass": "lb", "arm": "in", "fuel_volume": "usgal"},
+        "empty": {"weight": 2000.0, "arm": 0.0},
+        "limits": {"max_takeoff_weight": 3000},
+        "envelope": [
+            {
+                "category": "normal",
+                "axes": ["arm", "weight"],
+                "points": [[-50, 500], [-50, 3000], [90, 3000], [90, 500]],
+            }
+        ],
     }
     data.update(changes)
     return parse_aircraft(data)
@@ -37,11 +45,16 @@ def box(**changes):
 
 def test_faa_h_8083_1b_electronic_calculator_example():
     # FAA-H-8083-1B: F = 340 lb, L = -78 in (nose ahead of mains), W = 2,006 lb -> -13.2 in
-    readings = Readings.model_validate({
-        "geometry": {"gear": "nosewheel", "datum": "forward", "main_distance": 0.0, "wheelbase": 78.0},
-        "point": [{"label": "nose", "wheel": "nose", "reading": 340.0},
-                  {"label": "left", "wheel": "main", "reading": 833.0}, {"label": "right", "wheel": "main", "reading": 833.0}],
-    })
+    readings = Readings.model_validate(
+        {
+            "geometry": {"gear": "nosewheel", "datum": "forward", "main_distance": 0.0, "wheelbase": 78.0},
+            "point": [
+                {"label": "nose", "wheel": "nose", "reading": 340.0},
+                {"label": "left", "wheel": "main", "reading": 833.0},
+                {"label": "right", "wheel": "main", "reading": 833.0},
+            ],
+        }
+    )
     result = weigh(box(), readings)
     assert result.as_weighed.weight == pytest.approx(2006.0)
     assert result.as_weighed.arm == pytest.approx(340.0 * -78.0 / 2006.0)
@@ -50,16 +63,28 @@ def test_faa_h_8083_1b_electronic_calculator_example():
 
 
 @settings(max_examples=examples(200), deadline=None)
-@given(st.sampled_from(["nosewheel", "tailwheel"]), st.sampled_from(["forward", "aft"]),
-       st.floats(0, 200), st.floats(20, 300), st.floats(10, 2000), st.floats(100, 5000), st.floats(100, 5000))
+@given(
+    st.sampled_from(["nosewheel", "tailwheel"]),
+    st.sampled_from(["forward", "aft"]),
+    st.floats(0, 200),
+    st.floats(20, 300),
+    st.floats(10, 2000),
+    st.floats(100, 5000),
+    st.floats(100, 5000),
+)
 def test_four_formulas_agree_with_the_sum_of_moments(gear, datum, d, length, other, left, right):
     # FAA-H-8083-1 ch. 3 (from memory): D - F L/W; -(D + F L/W); D + R L/W; -D + R L/W
     wheel = "nose" if gear == "nosewheel" else "tail"
-    readings = Readings.model_validate({
-        "geometry": {"gear": gear, "datum": datum, "main_distance": d, "wheelbase": length},
-        "point": [{"label": wheel, "wheel": wheel, "reading": other}, {"label": "l", "wheel": "main", "reading": left},
-                  {"label": "r", "wheel": "main", "reading": right}],
-    })
+    readings = Readings.model_validate(
+        {
+            "geometry": {"gear": gear, "datum": datum, "main_distance": d, "wheelbase": length},
+            "point": [
+                {"label": wheel, "wheel": wheel, "reading": other},
+                {"label": "l", "wheel": "main", "reading": left},
+                {"label": "r", "wheel": "main", "reading": right},
+            ],
+        }
+    )
     result = weigh(box(), readings)
     w = other + left + right
     expected = {
@@ -73,13 +98,17 @@ def test_four_formulas_agree_with_the_sum_of_moments(gear, datum, d, length, oth
 
 
 def test_corrections_and_lateral_readings():
-    readings = Readings.model_validate({
-        "point": [{"label": "nose", "arm": -10.0, "reading": 300.0, "tare": 5.0},
-                  {"label": "left", "arm": 60.0, "lateral_arm": -50.0, "reading": 800.0, "tare": 4.0},
-                  {"label": "right", "arm": 60.0, "lateral_arm": 50.0, "reading": 820.0, "tare": 4.0}],
-        "on_board": [{"label": "fuel", "weight": 30.0, "arm": 48.0}],
-        "missing": [{"label": "battery", "weight": 25.0, "arm": -20.0}],
-    })
+    readings = Readings.model_validate(
+        {
+            "point": [
+                {"label": "nose", "arm": -10.0, "reading": 300.0, "tare": 5.0},
+                {"label": "left", "arm": 60.0, "lateral_arm": -50.0, "reading": 800.0, "tare": 4.0},
+                {"label": "right", "arm": 60.0, "lateral_arm": 50.0, "reading": 820.0, "tare": 4.0},
+            ],
+            "on_board": [{"label": "fuel", "weight": 30.0, "arm": 48.0}],
+            "missing": [{"label": "battery", "weight": 25.0, "arm": -20.0}],
+        }
+    )
     result = weigh(box(), readings)
     w = 295 + 796 + 816
     m = 295 * -10 + (796 + 816) * 60
@@ -99,13 +128,18 @@ def test_readings_with_units_and_fuel_item():
     aircraft = load_aircraft(sample("tandem2/aircraft.toml"))
     data = sample_data("trainer4/weighing.toml")
     del data["geometry"]
-    data["point"] = [{"label": "tail", "arm": "4.2 m", "reading": "30 kg"}, {"label": "mains", "arm": 0.0, "reading": "400 kg"}]
+    data["point"] = [
+        {"label": "tail", "arm": "4.2 m", "reading": "30 kg"},
+        {"label": "mains", "arm": 0.0, "reading": "400 kg"},
+    ]
     data["on_board"] = [{"label": "fuel", "tank": "wing", "fuel": "2 usgal"}]
     data["missing"] = []
     result = weigh(aircraft, Readings.model_validate(data, context={"units": aircraft.units}))
     assert result.as_weighed.weight == pytest.approx(430.0)
     assert result.as_weighed.arm == pytest.approx(30 * 4200 / 430)
-    assert result.corrections[0].weight == pytest.approx(2 * 3.785411784 * aircraft.density(aircraft.tank_by_id["wing"]))
+    assert result.corrections[0].weight == pytest.approx(
+        2 * 3.785411784 * aircraft.density(aircraft.tank_by_id["wing"])
+    )
 
 
 # -- the published empty-weight CG formulas (issue 16) -----------------------------------------
@@ -118,26 +152,43 @@ def test_readings_with_units_and_fuel_item():
 def _formula_readings(gear, datum, d, other, length, total):
     wheel = "nose" if gear == "nosewheel" else "tail"
     main = (total - other) / 2
-    return Readings.model_validate({
-        "geometry": {"gear": gear, "datum": datum, "main_distance": d, "wheelbase": length},
-        "point": [{"label": wheel, "wheel": wheel, "reading": other},
-                  {"label": "left main", "wheel": "main", "reading": main},
-                  {"label": "right main", "wheel": "main", "reading": main}],
-    })
+    return Readings.model_validate(
+        {
+            "geometry": {"gear": gear, "datum": datum, "main_distance": d, "wheelbase": length},
+            "point": [
+                {"label": wheel, "wheel": wheel, "reading": other},
+                {"label": "left main", "wheel": "main", "reading": main},
+                {"label": "right main", "wheel": "main", "reading": main},
+            ],
+        }
+    )
 
 
-@pytest.mark.parametrize("gear, datum, d, other, length, total, published", [
-    ("nosewheel", "forward", 128.0, 340.0, 78.0, 2006.0, 114.8),   # CG = D - F L / W
-    ("nosewheel", "aft", 75.0, 340.0, 78.0, 2006.0, -88.2),        # CG = -(D + F L / W)
-    ("tailwheel", "forward", 7.5, 67.0, 222.0, 1218.0, 19.7),      # CG = D + R L / W
-    ("tailwheel", "aft", 80.0, 67.0, 222.0, 1218.0, -67.8),        # CG = -D + R L / W
-])
+@pytest.mark.parametrize(
+    "gear, datum, d, other, length, total, published",
+    [
+        ("nosewheel", "forward", 128.0, 340.0, 78.0, 2006.0, 114.8),  # CG = D - F L / W
+        ("nosewheel", "aft", 75.0, 340.0, 78.0, 2006.0, -88.2),  # CG = -(D + F L / W)
+        ("tailwheel", "forward", 7.5, 67.0, 222.0, 1218.0, 19.7),  # CG = D + R L / W
+        ("tailwheel", "aft", 80.0, 67.0, 222.0, 1218.0, -67.8),  # CG = -D + R L / W
+    ],
+)
 def test_faa_h_8083_1b_empty_weight_cg_formulas(gear, datum, d, other, length, total, published):
-    aircraft = parse_aircraft({
-        "name": "Weighing box", "units": {"mass": "lb", "arm": "in", "fuel_volume": "usgal"},
-        "empty": {"weight": total, "arm": 0.0}, "limits": {"max_takeoff_weight": 3000},
-        "envelope": [{"category": "normal", "axes": ["arm", "weight"], "points": [[-150, 500], [-150, 3000], [150, 3000], [150, 500]]}],
-    })
+    aircraft = parse_aircraft(
+        {
+            "name": "Weighing box",
+            "units": {"mass": "lb", "arm": "in", "fuel_volume": "usgal"},
+            "empty": {"weight": total, "arm": 0.0},
+            "limits": {"max_takeoff_weight": 3000},
+            "envelope": [
+                {
+                    "category": "normal",
+                    "axes": ["arm", "weight"],
+                    "points": [[-150, 500], [-150, 3000], [150, 3000], [150, 500]],
+                }
+            ],
+        }
+    )
     result = weigh(aircraft, _formula_readings(gear, datum, d, other, length, total))
     assert result.as_weighed.weight == pytest.approx(total)
     assert abs(result.as_weighed.arm - published) <= 0.1

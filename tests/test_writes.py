@@ -20,12 +20,16 @@ from .helpers import sample
 
 def _crash(monkeypatch, how: str) -> None:
     if how == "crash":
+
         def boom(*args, **kwargs):
             raise OSError(errno.EIO, "simulated crash before the rename")
+
         monkeypatch.setattr(files_module.os, "replace", boom)
     else:
+
         def full(*args, **kwargs):
             raise OSError(errno.ENOSPC, "No space left on device")
+
         monkeypatch.setattr(files_module.os, "fsync", full)
 
 
@@ -36,7 +40,10 @@ def _crash(monkeypatch, how: str) -> None:
         (["check", str(sample("trainer4/within.toml")), "--chart"], "chart.png"),
         (["check", str(sample("trainer4/within.toml")), "--chart"], "chart.svg"),
         (["check", str(sample("trainer4/within.toml")), "--sheet"], "sheet.html"),
-        (["weigh", str(sample("trainer4/aircraft.toml")), str(sample("trainer4/weighing.toml")), "--sheet"], "record.html"),
+        (
+            ["weigh", str(sample("trainer4/aircraft.toml")), str(sample("trainer4/weighing.toml")), "--sheet"],
+            "record.html",
+        ),
         (["show", str(sample("twin6/aircraft.toml")), "--chart"], "envelope.pdf"),
     ],
 )
@@ -110,10 +117,13 @@ def test_weigh_write_goes_through_a_symlink_to_its_target(runner, tmp_path):
     assert sorted(p.name for p in target.parent.iterdir()) == ["v7.toml"]  # no temporary file left
 
 
-@pytest.mark.parametrize("args", [
-    ["weigh", str(sample("trainer4/aircraft.toml")), str(sample("trainer4/weighing.toml")), "--sheet"],
-    ["check", str(sample("trainer4/within.toml")), "--sheet"],
-])
+@pytest.mark.parametrize(
+    "args",
+    [
+        ["weigh", str(sample("trainer4/aircraft.toml")), str(sample("trainer4/weighing.toml")), "--sheet"],
+        ["check", str(sample("trainer4/within.toml")), "--sheet"],
+    ],
+)
 def test_sheets_go_through_a_symlink(runner, tmp_path, args):
     import os
 
@@ -132,7 +142,9 @@ def test_export_goes_through_a_symlink(runner, tmp_path):
         log.add(aircraft_data={"a": 1}, fingerprint="f", inputs={}, result={"ok": True, "category": "normal"})
     (tmp_path / "real.csv").write_text("old\n")
     os.symlink("real.csv", tmp_path / "export.csv")
-    result = runner.invoke(app, ["log", "export", "--db", str(db), "--format", "csv", "--out", str(tmp_path / "export.csv")])
+    result = runner.invoke(
+        app, ["log", "export", "--db", str(db), "--format", "csv", "--out", str(tmp_path / "export.csv")]
+    )
     assert result.exit_code == 0 and (tmp_path / "export.csv").is_symlink()
     assert (tmp_path / "real.csv").read_text().startswith("id,checked_at")
 
@@ -149,7 +161,13 @@ def test_a_fifo_is_refused_not_replaced_or_read(runner, tmp_path, command, throu
         name = tmp_path / "link.html"
         os.symlink("pipe.html", name)
     if command == "record-sheet":
-        args = ["weigh", str(sample("trainer4/aircraft.toml")), str(sample("trainer4/weighing.toml")), "--sheet", str(name)]
+        args = [
+            "weigh",
+            str(sample("trainer4/aircraft.toml")),
+            str(sample("trainer4/weighing.toml")),
+            "--sheet",
+            str(name),
+        ]
     elif command == "load-sheet":
         args = ["check", str(sample("trainer4/within.toml")), "--sheet", str(name)]
     else:
@@ -185,8 +203,11 @@ def _write_path(tmp_path, monkeypatch, path_kind):
         readings.write_text(text)
         return tmp_path / "aircraft.toml", ["weigh", str(tmp_path / "aircraft.toml"), str(readings), "--write"], "y\n"
     readings.write_text(text.replace("reading = 598.0", "reading = 798.0"))  # an implausible change: needs --force
-    return tmp_path / "aircraft.toml", ["weigh", str(tmp_path / "aircraft.toml"), str(readings), "--write", "--yes",
-                                        "--force"], None
+    return (
+        tmp_path / "aircraft.toml",
+        ["weigh", str(tmp_path / "aircraft.toml"), str(readings), "--write", "--yes", "--force"],
+        None,
+    )
 
 
 @pytest.mark.parametrize("how", ["crash", "disk_full"])

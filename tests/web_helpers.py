@@ -77,9 +77,19 @@ points = [[35, 900], [35, 1800], [43, 1800], [43, 900]]
 """
 
 # The check form's fields of a two-leg trip of TRIP_AIRCRAFT whose second leg alone is aft of the envelope.
-TRIP_LEG_2_AFT = {"load.front": "340", "load.bags": "100", "fuel.main": "full", "burn.taxi": "1", "burn.trip": "20",
-                  "legs": "2", "leg.2.label": "back solo", "leg.2.load.front": "170", "leg.2.fuel.main": "5",
-                  "leg.2.burn.taxi": "1", "leg.2.burn.trip": "10"}
+TRIP_LEG_2_AFT = {
+    "load.front": "340",
+    "load.bags": "100",
+    "fuel.main": "full",
+    "burn.taxi": "1",
+    "burn.trip": "20",
+    "legs": "2",
+    "leg.2.label": "back solo",
+    "leg.2.load.front": "170",
+    "leg.2.fuel.main": "5",
+    "leg.2.burn.taxi": "1",
+    "leg.2.burn.trip": "10",
+}
 
 
 def make_desk(tmp: Path) -> tuple[Path, Path, Path]:
@@ -92,7 +102,9 @@ def make_desk(tmp: Path) -> tuple[Path, Path, Path]:
     shutil.copytree(SAMPLES, fleet)
     (fleet / "trip_test.toml").write_text(TRIP_AIRCRAFT, encoding="utf-8")
     users = tmp / "users.json"
-    store = UserStore(users, hasher=PasswordHasher(time_cost=1, memory_cost=1024, parallelism=1))  # quick to check in tests
+    store = UserStore(
+        users, hasher=PasswordHasher(time_cost=1, memory_cost=1024, parallelism=1)
+    )  # quick to check in tests
     for name, roles in ACCOUNTS.items():
         store.add(name, PASSWORD, roles)
     return fleet, tmp / "records.sqlite3", users
@@ -108,13 +120,23 @@ def csrf_of(html: str) -> str:
 def sign_in(client: Any, name: str, password: str = PASSWORD) -> Any:
     """Sign in through the sign-in form; return the response."""
     page = client.get("/signin")
-    return client.post("/signin", data={"name": name, "password": password, "csrf": csrf_of(page.text)}, follow_redirects=False)
+    return client.post(
+        "/signin", data={"name": name, "password": password, "csrf": csrf_of(page.text)}, follow_redirects=False
+    )
 
 
 # -- the desk through the framework's test client (tests/test_web_*.py) --------------------------
 
-WITHIN = {"load.front": "340", "load.rear": "160", "load.hold": "15 kg", "fuel.mains": "school", "fuel.centre": "0",
-          "burn.taxi": "1.2", "burn.trip": "18", "burn.reserve": "8"}
+WITHIN = {
+    "load.front": "340",
+    "load.rear": "160",
+    "load.hold": "15 kg",
+    "fuel.mains": "school",
+    "fuel.centre": "0",
+    "burn.taxi": "1.2",
+    "burn.trip": "18",
+    "burn.reserve": "8",
+}
 
 
 def _client(desk: dict[str, Any], name: str | None = None) -> TestClient:
@@ -126,11 +148,19 @@ def _client(desk: dict[str, Any], name: str | None = None) -> TestClient:
     return client
 
 
-def _post_check(client: TestClient, values: dict[str, str], registration: str = "DEMO-4T", action: str = "check",
-                route: str = "check") -> Any:
+def _post_check(
+    client: TestClient,
+    values: dict[str, str],
+    registration: str = "DEMO-4T",
+    action: str = "check",
+    route: str = "check",
+) -> Any:
     form = client.get(f"/aircraft/{registration}")
-    return client.post(f"/aircraft/{registration}/{route}", data={**values, "action": action, "csrf": csrf_of(form.text)},
-                       follow_redirects=False)
+    return client.post(
+        f"/aircraft/{registration}/{route}",
+        data={**values, "action": action, "csrf": csrf_of(form.text)},
+        follow_redirects=False,
+    )
 
 
 def _records(desk: dict[str, Any]) -> list[Any]:

@@ -53,6 +53,7 @@ def _plugin_loader_without_metadata() -> None:
         return real().get_plugins()
 
     stand_in.get_plugins = get_plugins  # type: ignore[attr-defined]
+
     def other(attribute: str) -> object:
         if attribute.startswith("__"):  # the import system asks for __path__, __spec__, ...
             raise AttributeError(attribute)
@@ -77,6 +78,7 @@ def _plain_argument_help() -> None:
 
     argument = typer.core.TyperArgument
     if hasattr(argument, "_usage_display_name"):
+
         def usage(self: typer.core.TyperArgument) -> str:
             name = self.metavar or self.name.upper()
             name = name if self.required else f"[{name}]"
@@ -94,7 +96,9 @@ def _plain_argument_help() -> None:
             text = shown(self, ctx)  # type: ignore[arg-type]
             if self.metavar is not None or text is None:
                 return text
-            match = re.fullmatch(r"<(?:list\[)?([^\]>]+)\]?>(\.\.\.)?", text)  # '<path>', '<list[str]>' as 'PATH', 'TEXT'
+            match = re.fullmatch(
+                r"<(?:list\[)?([^\]>]+)\]?>(\.\.\.)?", text
+            )  # '<path>', '<list[str]>' as 'PATH', 'TEXT'
             return text if match is None else words.get(match.group(1), match.group(1).upper())
 
         option.display_type_rich = option_type  # type: ignore[method-assign]
@@ -122,8 +126,11 @@ def _just(name: str) -> typer.Typer | None:
     import copy
 
     small = copy.copy(app)
-    small.registered_commands = [c for c in app.registered_commands
-                                 if (c.name or c.callback.__name__.replace("_", "-")) == name]  # type: ignore[union-attr]
+    small.registered_commands = [
+        c
+        for c in app.registered_commands
+        if (c.name or c.callback.__name__.replace("_", "-")) == name  # type: ignore[union-attr]
+    ]
     small.registered_groups = [g for g in app.registered_groups if g.name == name]
     return small if small.registered_commands or small.registered_groups else None
 

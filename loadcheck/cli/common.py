@@ -26,14 +26,36 @@ if TYPE_CHECKING:  # rich loads only when something is printed through it (not f
     from ..files import CheckInputs
 
 __all__ = [
-    "EXIT_INPUT", "EXIT_LIMIT", "EXIT_OK", "AircraftArg", "CategoryOpt", "DbOpt", "FuelOpt", "JsonOpt", "LoadOpt", "LoadingArg",
-    "OrderOpt", "RateOpt", "ReserveOpt", "TaxiOpt", "TripOpt", "TripTimeOpt", "app", "input_errors",
+    "EXIT_INPUT",
+    "EXIT_LIMIT",
+    "EXIT_OK",
+    "AircraftArg",
+    "CategoryOpt",
+    "DbOpt",
+    "FuelOpt",
+    "JsonOpt",
+    "LoadOpt",
+    "LoadingArg",
+    "OrderOpt",
+    "RateOpt",
+    "ReserveOpt",
+    "TaxiOpt",
+    "TripOpt",
+    "TripTimeOpt",
+    "app",
+    "input_errors",
 ]
 
 EXIT_OK, EXIT_LIMIT, EXIT_INPUT = 0, 1, 2
 
-DbOpt = Annotated[Path | None, typer.Option(
-    "--db", metavar="FILE", help="The check log, an SQLite file (default: $LOADCHECK_LOG, else the user data folder).")]
+DbOpt = Annotated[
+    Path | None,
+    typer.Option(
+        "--db",
+        metavar="FILE",
+        help="The check log, an SQLite file (default: $LOADCHECK_LOG, else the user data folder).",
+    ),
+]
 
 
 def _repeated_option(command: Any, args: list[str]) -> str | None:
@@ -65,8 +87,10 @@ def _repeated_option(command: Any, args: list[str]) -> str | None:
         key = option.name or name
         if key in seen:
             first_name, first_value = seen[key]
-            return (f"{name} is given twice ({first_name} {first_value!r}, then {name} {value!r}): "
-                    "it takes one value; give it once")
+            return (
+                f"{name} is given twice ({first_name} {first_value!r}, then {name} {value!r}): "
+                "it takes one value; give it once"
+            )
         seen[key] = (name, value)
     return None
 
@@ -84,8 +108,12 @@ _RENAMED_COMMANDS = {  # rename.py: keep (the command group before issue 21)
 def _renamed_option(command: Any, args: list[str]) -> str | None:
     """A hint for an option of an earlier release that ``command`` no longer takes (refused
     all the same: click would refuse it as unknown, without saying what it became)."""
-    known = {name for param in command.params if isinstance(param, TyperOption)
-             for name in (*param.opts, *param.secondary_opts)}
+    known = {
+        name
+        for param in command.params
+        if isinstance(param, TyperOption)
+        for name in (*param.opts, *param.secondary_opts)
+    }
     for token in args:
         if token == "--":
             break
@@ -170,8 +198,12 @@ def input_errors(func: F) -> F:
         except Exception as error:  # a bug must never read as "within limits" (0) or "exceeded" (1)
             if os.environ.get("LOADCHECK_DEBUG"):
                 raise
-            _fail_input([f"internal error ({type(error).__name__}: {error}); no result was produced. "
-                         "Please report it; LOADCHECK_DEBUG=1 shows the traceback."])
+            _fail_input(
+                [
+                    f"internal error ({type(error).__name__}: {error}); no result was produced. "
+                    "Please report it; LOADCHECK_DEBUG=1 shows the traceback."
+                ]
+            )
 
     return cast(F, wrapper)  # functools.wraps keeps the signature typer reads
 
@@ -183,12 +215,19 @@ def _assignments(values: list[str], option: str) -> dict[str, str]:
     for value in values:
         name, sep, amount = value.partition("=")
         if not sep or not name.strip() or not amount.strip():
-            problems.append(Problem(option, "expected NAME=VALUE", value=value, expected="e.g. front=340 or hold='20 kg'"))
+            problems.append(
+                Problem(option, "expected NAME=VALUE", value=value, expected="e.g. front=340 or hold='20 kg'")
+            )
             continue
         if name.strip() in result:
             what = "station takes one weight: add the weights up" if option == "--load" else "tank takes one quantity"
-            problems.append(Problem(f"{option} {name.strip()}", f"given twice ({result[name.strip()]!r} and {amount.strip()!r}); "
-                                    f"a {what} and give it once", value=value))
+            problems.append(
+                Problem(
+                    f"{option} {name.strip()}",
+                    f"given twice ({result[name.strip()]!r} and {amount.strip()!r}); a {what} and give it once",
+                    value=value,
+                )
+            )
             continue
         result[name.strip()] = amount.strip()
     if problems:
@@ -204,32 +243,73 @@ def _version(value: bool) -> None:
 
 @app.callback()
 def _main(
-    version: Annotated[bool, typer.Option("--version", callback=_version, is_eager=True, help="Show the version.")] = False,
+    version: Annotated[
+        bool, typer.Option("--version", callback=_version, is_eager=True, help="Show the version.")
+    ] = False,
 ) -> None:
     """Aircraft weight and balance."""
 
 
 # Options shared by `check` and the `plan` commands.
-AircraftArg = Annotated[Path, typer.Argument(metavar="AIRCRAFT", help="Aircraft file (TOML), or a loading file that names its aircraft.")]
+AircraftArg = Annotated[
+    Path, typer.Argument(metavar="AIRCRAFT", help="Aircraft file (TOML), or a loading file that names its aircraft.")
+]
 LoadingArg = Annotated[Path | None, typer.Argument(metavar="LOADING", help="Loading file (TOML); optional.")]
-LoadOpt = Annotated[list[str], typer.Option("--load", "-l", metavar="STATION=WEIGHT",
-    help="A weight at a station; repeat the option for each. e.g. front=340, hold='20 kg'.")]
-FuelOpt = Annotated[list[str], typer.Option("--fuel", "-f", metavar="TANK=QUANTITY",
-    help="Fuel in a tank at engine start; repeat for each tank. A volume, 'full', a level name or '120 lb'.")]
-TaxiOpt = Annotated[str | None, typer.Option(metavar="AMOUNT", help="Fuel used before takeoff (volume, or with a unit).")]
-TripOpt = Annotated[str | None, typer.Option(metavar="AMOUNT", help="Fuel used from takeoff to landing (volume, or with a unit).")]
-TripTimeOpt = Annotated[str | None, typer.Option("--trip-time", metavar="H:MM", help="Flight time, e.g. 2:15; with --rate.")]
+LoadOpt = Annotated[
+    list[str],
+    typer.Option(
+        "--load",
+        "-l",
+        metavar="STATION=WEIGHT",
+        help="A weight at a station; repeat the option for each. e.g. front=340, hold='20 kg'.",
+    ),
+]
+FuelOpt = Annotated[
+    list[str],
+    typer.Option(
+        "--fuel",
+        "-f",
+        metavar="TANK=QUANTITY",
+        help="Fuel in a tank at engine start; repeat for each tank. A volume, 'full', a level name or '120 lb'.",
+    ),
+]
+TaxiOpt = Annotated[
+    str | None, typer.Option(metavar="AMOUNT", help="Fuel used before takeoff (volume, or with a unit).")
+]
+TripOpt = Annotated[
+    str | None, typer.Option(metavar="AMOUNT", help="Fuel used from takeoff to landing (volume, or with a unit).")
+]
+TripTimeOpt = Annotated[
+    str | None, typer.Option("--trip-time", metavar="H:MM", help="Flight time, e.g. 2:15; with --rate.")
+]
 RateOpt = Annotated[str | None, typer.Option(metavar="AMOUNT", help="Fuel used per hour (with --trip-time).")]
-OrderOpt = Annotated[str | None, typer.Option(metavar="ORDER", help="'together', or tank ids in burn order: aux,mains.")]
+OrderOpt = Annotated[
+    str | None, typer.Option(metavar="ORDER", help="'together', or tank ids in burn order: aux,mains.")
+]
 ReserveOpt = Annotated[str | None, typer.Option(metavar="AMOUNT", help="Warn when landing fuel is below this.")]
-CategoryOpt = Annotated[str | None, typer.Option("--category", "-c", metavar="CATEGORY", help="Envelope category (default: the file's first).")]
+CategoryOpt = Annotated[
+    str | None,
+    typer.Option("--category", "-c", metavar="CATEGORY", help="Envelope category (default: the file's first)."),
+]
 JsonOpt = Annotated[bool, typer.Option("--json", help="Print one JSON object instead of tables.")]
 
 
 def _inputs(
-    aircraft: Path, loading: Path | None, load: list[str], fuel: list[str], taxi: str | None, trip: str | None,
-    trip_time: str | None, rate: str | None, order: str | None, reserve: str | None, category: str | None,
-    *, fuel_to_plan: bool = False, legs: dict[int, Any] | None = None, allow_trip: bool = False,
+    aircraft: Path,
+    loading: Path | None,
+    load: list[str],
+    fuel: list[str],
+    taxi: str | None,
+    trip: str | None,
+    trip_time: str | None,
+    rate: str | None,
+    order: str | None,
+    reserve: str | None,
+    category: str | None,
+    *,
+    fuel_to_plan: bool = False,
+    legs: dict[int, Any] | None = None,
+    allow_trip: bool = False,
 ) -> CheckInputs:
     """Read the files and lay the options over them (loadcheck.files.load_check_inputs).
 
@@ -244,15 +324,23 @@ def _inputs(
         if value is not None:
             burn[key] = value
     if order is not None:
-        burn["order"] = "together" if order.strip() == "together" else [t.strip() for t in order.split(",") if t.strip()]
+        burn["order"] = (
+            "together" if order.strip() == "together" else [t.strip() for t in order.split(",") if t.strip()]
+        )
     inputs = load_check_inputs(
-        aircraft, loading, load=_assignments(load, "--load"), fuel=_assignments(fuel, "--fuel"),
-        burn=burn, category=category, fuel_to_plan=fuel_to_plan, legs=legs, allow_trip=allow_trip,
+        aircraft,
+        loading,
+        load=_assignments(load, "--load"),
+        fuel=_assignments(fuel, "--fuel"),
+        burn=burn,
+        category=category,
+        fuel_to_plan=fuel_to_plan,
+        legs=legs,
+        allow_trip=allow_trip,
     )
     for note in inputs.notes:
         _console(stderr=True).print(f"note: {note}", markup=False)
     return inputs
-
 
 
 def _need(value: T | None, option: str) -> T:

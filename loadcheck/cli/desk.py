@@ -16,8 +16,12 @@ __all__ = ["users_app"]
 if TYPE_CHECKING:
     from ..web.users import UserStore
 
-UsersOpt = Annotated[Path | None, typer.Option(
-    "--users", metavar="FILE", help="Accounts file (default: $LOADCHECK_USERS, else the user data folder).")]
+UsersOpt = Annotated[
+    Path | None,
+    typer.Option(
+        "--users", metavar="FILE", help="Accounts file (default: $LOADCHECK_USERS, else the user data folder)."
+    ),
+]
 
 
 def _store(users: Path | None) -> UserStore:
@@ -32,9 +36,13 @@ def serve(
     fleet: Annotated[Path, typer.Argument(metavar="FLEET_DIR", help="Fleet folder (aircraft files).")],
     db: DbOpt = None,
     users: UsersOpt = None,
-    host: Annotated[str, typer.Option(metavar="ADDRESS", help="Address to listen on (loopback unless --allow-remote).")] = "127.0.0.1",
+    host: Annotated[
+        str, typer.Option(metavar="ADDRESS", help="Address to listen on (loopback unless --allow-remote).")
+    ] = "127.0.0.1",
     port: Annotated[int, typer.Option(min=1, max=65535, metavar="PORT", help="Port.")] = 8400,
-    allow_remote: Annotated[bool, typer.Option("--allow-remote", help="Listen on a non-loopback address (put it behind TLS).")] = False,
+    allow_remote: Annotated[
+        bool, typer.Option("--allow-remote", help="Listen on a non-loopback address (put it behind TLS).")
+    ] = False,
 ) -> None:
     """Start the flight school's desk: a local web service for pilots, dispatcher and mechanic.
 
@@ -59,11 +67,16 @@ def serve(
     uvicorn.run(application, host=host, port=port, log_level="warning", server_header=False)
 
 
-users_app = typer.Typer(short_help="The desk's accounts.",
-                        help="The desk's accounts: each with one or more roles (pilot, dispatcher, mechanic).", no_args_is_help=True)
+users_app = typer.Typer(
+    short_help="The desk's accounts.",
+    help="The desk's accounts: each with one or more roles (pilot, dispatcher, mechanic).",
+    no_args_is_help=True,
+)
 app.add_typer(users_app, name="users")
 
-RoleOpt = Annotated[list[str], typer.Option("--role", "-r", metavar="ROLE", help="pilot, dispatcher or mechanic; repeat for several.")]
+RoleOpt = Annotated[
+    list[str], typer.Option("--role", "-r", metavar="ROLE", help="pilot, dispatcher or mechanic; repeat for several.")
+]
 StdinOpt = Annotated[bool, typer.Option("--password-stdin", help="Read the password from standard input (one line).")]
 
 
@@ -71,14 +84,22 @@ def _password(from_stdin: bool) -> str:
     if from_stdin:
         return sys.stdin.readline().rstrip("\r\n")
     if not sys.stdin.isatty():
-        raise InputError(Problem("--password-stdin", "standard input is not a terminal: give --password-stdin and the password on it"))
+        raise InputError(
+            Problem(
+                "--password-stdin", "standard input is not a terminal: give --password-stdin and the password on it"
+            )
+        )
     return str(typer.prompt("Password", hide_input=True, confirmation_prompt=True))
 
 
 @users_app.command("add")
 @input_errors
-def users_add(name: Annotated[str, typer.Argument(metavar="NAME", help="Account name.")], role: RoleOpt = [],  # noqa: B006
-              password_stdin: StdinOpt = False, users: UsersOpt = None) -> None:
+def users_add(
+    name: Annotated[str, typer.Argument(metavar="NAME", help="Account name.")],
+    role: RoleOpt = [],  # noqa: B006
+    password_stdin: StdinOpt = False,
+    users: UsersOpt = None,
+) -> None:
     """Add an account (the password is stored only as an argon2 hash).
 
     Example:
@@ -100,7 +121,9 @@ def users_list(users: UsersOpt = None) -> None:
 
 @users_app.command("remove")
 @input_errors
-def users_remove(name: Annotated[str, typer.Argument(metavar="NAME", help="Account name.")], users: UsersOpt = None) -> None:
+def users_remove(
+    name: Annotated[str, typer.Argument(metavar="NAME", help="Account name.")], users: UsersOpt = None
+) -> None:
     """Remove an account (its recorded checks stay in the record)."""
     _store(users).remove(name)
     _console(stderr=True).print(f"account {name} removed", markup=False)
@@ -108,8 +131,11 @@ def users_remove(name: Annotated[str, typer.Argument(metavar="NAME", help="Accou
 
 @users_app.command("passwd")
 @input_errors
-def users_passwd(name: Annotated[str, typer.Argument(metavar="NAME", help="Account name.")], password_stdin: StdinOpt = False,
-                 users: UsersOpt = None) -> None:
+def users_passwd(
+    name: Annotated[str, typer.Argument(metavar="NAME", help="Account name.")],
+    password_stdin: StdinOpt = False,
+    users: UsersOpt = None,
+) -> None:
     """Give an account a new password."""
     _store(users).set_password(name, _password(password_stdin))
     _console(stderr=True).print(f"password of {name} changed", markup=False)

@@ -30,21 +30,29 @@ if TYPE_CHECKING:
 
 # -- the dispatcher's commands ---------------------------------------------------------------
 
-fleet_app = typer.Typer(short_help="A fleet, and a day of loadings.",
-                        help="A fleet of aircraft files addressed by registration, and a day of loadings.",
-                        no_args_is_help=True)
+fleet_app = typer.Typer(
+    short_help="A fleet, and a day of loadings.",
+    help="A fleet of aircraft files addressed by registration, and a day of loadings.",
+    no_args_is_help=True,
+)
 app.add_typer(fleet_app, name="fleet")
-log_app = typer.Typer(short_help="The check log.",
-                      help="The check log (every check recorded): list, show, export, verify (reproduce).", no_args_is_help=True)
+log_app = typer.Typer(
+    short_help="The check log.",
+    help="The check log (every check recorded): list, show, export, verify (reproduce).",
+    no_args_is_help=True,
+)
 app.add_typer(log_app, name="log")
-
 
 
 @fleet_app.command("list", short_help="Each aircraft of a fleet folder.")
 @input_errors
 def fleet_list(
-    folder: Annotated[Path, typer.Argument(metavar="FOLDER", help="Folder of aircraft files (sub-folders searched too).")],
-    max_age: Annotated[int, typer.Option(min=1, metavar="DAYS", help="Flag empty-weight records older than this many days.")] = 1095,
+    folder: Annotated[
+        Path, typer.Argument(metavar="FOLDER", help="Folder of aircraft files (sub-folders searched too).")
+    ],
+    max_age: Annotated[
+        int, typer.Option(min=1, metavar="DAYS", help="Flag empty-weight records older than this many days.")
+    ] = 1095,
     json_out: JsonOpt = False,
 ) -> None:
     """Each aircraft: registration, empty weight, record date, useful load, data fingerprint, problems.
@@ -74,11 +82,20 @@ def fleet_list(
 @input_errors
 def fleet_check(
     folder: Annotated[Path, typer.Argument(metavar="FOLDER", help="Folder of aircraft files (the fleet).")],
-    loadings: Annotated[Path, typer.Argument(metavar="LOADINGS", help="Loadings: a CSV file (one row per flight) or a folder of loading files.")],
+    loadings: Annotated[
+        Path,
+        typer.Argument(
+            metavar="LOADINGS", help="Loadings: a CSV file (one row per flight) or a folder of loading files."
+        ),
+    ],
     db: DbOpt = None,
-    log_checks: Annotated[bool, typer.Option("--log/--no-log", help="Record every check in the check log (default) or not.")] = True,
+    log_checks: Annotated[
+        bool, typer.Option("--log/--no-log", help="Record every check in the check log (default) or not.")
+    ] = True,
     json_out: Annotated[bool, typer.Option("--json", help="Print JSON Lines: one object per flight.")] = False,
-    workers: Annotated[int | None, typer.Option(min=1, help="Processes checking flights (default: one; see docs/performance.md).")] = None,
+    workers: Annotated[
+        int | None, typer.Option(min=1, help="Processes checking flights (default: one; see docs/performance.md).")
+    ] = None,
 ) -> None:
     """Check a day of loadings against the fleet; record every check in the check log (--no-log: do not).
 
@@ -106,10 +123,14 @@ def fleet_check(
     flights = []  # for the table only: one brief line per flight; JSON Lines are streamed
     counts = {"checked": 0, "out": 0, "bad": 0}
     show_progress = err.is_terminal and not json_out and not os.environ.get("NO_COLOR")  # a bar is escape codes
-    say = (lambda text: err.print(text, markup=False, soft_wrap=True)) if show_progress else (lambda text: err.file.write(text + "\n"))
+    say = (
+        (lambda text: err.print(text, markup=False, soft_wrap=True))
+        if show_progress
+        else (lambda text: err.file.write(text + "\n"))
+    )
     if show_progress:
         from rich.progress import Progress
-    with (Progress(console=err, transient=True) if show_progress else nullcontext()) as progress:
+    with Progress(console=err, transient=True) if show_progress else nullcontext() as progress:
         task = progress.add_task("checking", total=None) if progress is not None else None
         try:
             for flight in check_flights(fleet, rows, log, __version__, workers=workers or default_workers()):
@@ -182,7 +203,9 @@ def log_list(db: DbOpt = None, since: SinceOpt = None, until: UntilOpt = None, r
     from ..render.checklog import render_check_log
 
     with _log(db) as log:
-        records = list(log.listing(since=_date(since, "--since"), until=_date(until, "--until"), registration=registration))
+        records = list(
+            log.listing(since=_date(since, "--since"), until=_date(until, "--until"), registration=registration)
+        )
     render_check_log(log.path, records, PILOT_CAUTION, _console())
 
 
@@ -198,9 +221,17 @@ def log_show(record_id: Annotated[int, typer.Argument(metavar="ID", help="Record
 @log_app.command("export", short_help="Export records as CSV or JSON Lines.")
 @input_errors
 def log_export(
-    db: DbOpt = None, since: SinceOpt = None, until: UntilOpt = None, registration: RegOpt = None,
-    format: Annotated[Literal["csv", "jsonl"], typer.Option(metavar="csv|jsonl", help="csv (one line per record) or jsonl (everything).")] = "jsonl",
-    out: Annotated[Path | None, typer.Option(metavar="FILE", help="Write to this file (default: standard output).")] = None,
+    db: DbOpt = None,
+    since: SinceOpt = None,
+    until: UntilOpt = None,
+    registration: RegOpt = None,
+    format: Annotated[
+        Literal["csv", "jsonl"],
+        typer.Option(metavar="csv|jsonl", help="csv (one line per record) or jsonl (everything)."),
+    ] = "jsonl",
+    out: Annotated[
+        Path | None, typer.Option(metavar="FILE", help="Write to this file (default: standard output).")
+    ] = None,
 ) -> None:
     """Export records between dates or for one registration, as CSV or JSON Lines.
 
@@ -215,8 +246,9 @@ def log_export(
     from ..render.terminal import caution_text
 
     with _log(db) as log:
-        text = export_text(log.find(since=_date(since, "--since"), until=_date(until, "--until"),
-                                    registration=registration), format)
+        text = export_text(
+            log.find(since=_date(since, "--since"), until=_date(until, "--until"), registration=registration), format
+        )
     if out is None:
         typer.echo(text, nl=False)
     else:
@@ -231,11 +263,19 @@ def log_export(
 @log_app.command("verify", short_help="Recompute a record; does it match?")
 @input_errors
 def log_verify(
-    record_id: Annotated[int | None, typer.Argument(
-        metavar="ID", help="Record id (with --current: optional, else every record the filters select).")] = None,
+    record_id: Annotated[
+        int | None,
+        typer.Argument(
+            metavar="ID", help="Record id (with --current: optional, else every record the filters select)."
+        ),
+    ] = None,
     db: DbOpt = None,
-    current: Annotated[Path | None, typer.Option(help="Fleet folder: check the recorded loadings with its current aircraft data.")] = None,
-    since: SinceOpt = None, until: UntilOpt = None, registration: RegOpt = None,
+    current: Annotated[
+        Path | None, typer.Option(help="Fleet folder: check the recorded loadings with its current aircraft data.")
+    ] = None,
+    since: SinceOpt = None,
+    until: UntilOpt = None,
+    registration: RegOpt = None,
     json_out: JsonOpt = False,
 ) -> None:
     """Recompute a recorded check from its stored inputs and aircraft data; say whether every stored field matches.
@@ -261,8 +301,11 @@ def log_verify(
 
         fleet = load_fleet(current)
         with _log(db) as log:
-            chosen = ([log.get(record_id)] if record_id is not None else
-                      log.find(since=_date(since, "--since"), until=_date(until, "--until"), registration=registration))
+            chosen = (
+                [log.get(record_id)]
+                if record_id is not None
+                else log.find(since=_date(since, "--since"), until=_date(until, "--until"), registration=registration)
+            )
             outcome = verify_current(chosen, fleet)
         if json_out:
             typer.echo(outcome.to_json())
@@ -272,7 +315,9 @@ def log_verify(
             render_current_verification(outcome, console)
         raise typer.Exit(outcome.status)
     if record_id is None:
-        raise InputError(Problem("ID", "give the record id to verify (or --current FOLDER to check records against it)"))
+        raise InputError(
+            Problem("ID", "give the record id to verify (or --current FOLDER to check records against it)")
+        )
     if since or until or registration:
         raise InputError(Problem("--since", "--since, --until and --registration go with --current"))
     from ..checklog import verify
@@ -282,9 +327,12 @@ def log_verify(
     if json_out:
         typer.echo(verification.to_json())
     elif verification.reproduced:
-        console.print(f"record {record_id}: reproduced; the same result "
-                      f"({'within limits' if verification.ok else 'out of limits'}) from the recorded inputs and aircraft "
-                      f"data {verification.fingerprint}, and every stored field matches", markup=False)
+        console.print(
+            f"record {record_id}: reproduced; the same result "
+            f"({'within limits' if verification.ok else 'out of limits'}) from the recorded inputs and aircraft "
+            f"data {verification.fingerprint}, and every stored field matches",
+            markup=False,
+        )
     else:
         console.print(f"record {record_id}: NOT reproduced", markup=False)
         for difference in verification.differences:

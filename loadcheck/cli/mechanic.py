@@ -26,14 +26,31 @@ from .common import (
 
 # -- the mechanic's commands -----------------------------------------------------------------
 
-WriteOpt = Annotated[bool, typer.Option("--write", help="Make the new record current and keep the old one in the history.")]
-YesOpt = Annotated[bool, typer.Option("--yes", "-y", help="With --write: confirmed, do not ask (needed when not run from a terminal).")]
-ForceOpt = Annotated[bool, typer.Option("--force", help="With --write: write a record the checks refuse; kept in the history.")]
-ByOpt = Annotated[str | None, typer.Option("--by", metavar="NAME", help="Who made the record (default: the file's weighed_by or by).")]
-WhyOpt = Annotated[str | None, typer.Option("--why", metavar="TEXT", help="Why, kept in the history (default: the file's note or description).")]
+WriteOpt = Annotated[
+    bool, typer.Option("--write", help="Make the new record current and keep the old one in the history.")
+]
+YesOpt = Annotated[
+    bool, typer.Option("--yes", "-y", help="With --write: confirmed, do not ask (needed when not run from a terminal).")
+]
+ForceOpt = Annotated[
+    bool, typer.Option("--force", help="With --write: write a record the checks refuse; kept in the history.")
+]
+ByOpt = Annotated[
+    str | None, typer.Option("--by", metavar="NAME", help="Who made the record (default: the file's weighed_by or by).")
+]
+WhyOpt = Annotated[
+    str | None,
+    typer.Option("--why", metavar="TEXT", help="Why, kept in the history (default: the file's note or description)."),
+]
 SheetOpt = Annotated[Path | None, typer.Option(metavar="FILE.html", help="Write a printable record (.html) to sign.")]
-OccupantOpt = Annotated[str | None, typer.Option(metavar="WEIGHT", help="Standard occupant weight (default: the aircraft file's, else 170 lb).")]
-MetoOpt = Annotated[float | None, typer.Option(metavar="HP", help="Maximum-except-takeoff power [hp] for the minimum fuel (default: the file's).")]
+OccupantOpt = Annotated[
+    str | None,
+    typer.Option(metavar="WEIGHT", help="Standard occupant weight (default: the aircraft file's, else 170 lb)."),
+]
+MetoOpt = Annotated[
+    float | None,
+    typer.Option(metavar="HP", help="Maximum-except-takeoff power [hp] for the minimum fuel (default: the file's)."),
+]
 
 
 def _interactive() -> bool:
@@ -42,8 +59,17 @@ def _interactive() -> bool:
 
 
 def _new_empty_weight(
-    aircraft: Path, source: Path, kind: Literal["weighing", "alteration"], render: Callable[[Any, Any, Any], None],
-    write: bool, yes: bool, force: bool, by: str | None, why: str | None, sheet: Path | None, json_out: bool,
+    aircraft: Path,
+    source: Path,
+    kind: Literal["weighing", "alteration"],
+    render: Callable[[Any, Any, Any], None],
+    write: bool,
+    yes: bool,
+    force: bool,
+    by: str | None,
+    why: str | None,
+    sheet: Path | None,
+    json_out: bool,
 ) -> None:
     """A new empty-weight record: propose (library), print, write the sheet, and with
     ``write`` confirm and make it current (library)."""
@@ -67,8 +93,13 @@ def _new_empty_weight(
     confirmed = yes
     if not yes and proposal.overridable and (force or not proposal.result.refusals):
         if not _interactive():
-            raise InputError(Problem("--yes", "standard input is not a terminal, so nobody can confirm the new record: "
-                                              "give --yes to write it; nothing was written"))
+            raise InputError(
+                Problem(
+                    "--yes",
+                    "standard input is not a terminal, so nobody can confirm the new record: "
+                    "give --yes to write it; nothing was written",
+                )
+            )
         from ..render.terminal import render_comparison
 
         render_comparison(proposal.comparison(), err)
@@ -88,7 +119,6 @@ def _new_empty_weight(
     raise typer.Exit(EXIT_OK)
 
 
-
 @contextmanager
 def _options_named(options: dict[str, str]) -> Iterator[None]:
     """Name this command's options in the library's input errors (the library names its parameters)."""
@@ -103,7 +133,9 @@ def _options_named(options: dict[str, str]) -> Iterator[None]:
 @input_errors
 def weigh(
     aircraft: Annotated[Path, typer.Argument(metavar="AIRCRAFT", help="Aircraft file (TOML).")],
-    readings: Annotated[Path, typer.Argument(metavar="READINGS", help="Readings file (TOML): weighing points and corrections.")],
+    readings: Annotated[
+        Path, typer.Argument(metavar="READINGS", help="Readings file (TOML): weighing points and corrections.")
+    ],
     write: WriteOpt = False,
     yes: YesOpt = False,
     force: ForceOpt = False,
@@ -134,7 +166,9 @@ def weigh(
 @input_errors
 def alter(
     aircraft: Annotated[Path, typer.Argument(metavar="AIRCRAFT", help="Aircraft file (TOML).")],
-    changes: Annotated[Path, typer.Argument(metavar="CHANGES", help="Changes file (TOML): items installed, removed, relocated.")],
+    changes: Annotated[
+        Path, typer.Argument(metavar="CHANGES", help="Changes file (TOML): items installed, removed, relocated.")
+    ],
     write: WriteOpt = False,
     yes: YesOpt = False,
     force: ForceOpt = False,
@@ -257,5 +291,3 @@ def schedule(
 
         render_schedule(result, data, _console())
     raise typer.Exit(EXIT_OK if result.ok else EXIT_LIMIT)
-
-

@@ -39,12 +39,28 @@ if TYPE_CHECKING:
     from ..loading import ResolvedTrip
     from ..results import CheckResult, ConditionName, TripResult
 
-LegLoadOpt = Annotated[list[str], typer.Option(
-    "--leg-load", metavar="LEG:STATION=WEIGHT", help="From leg 2 on: new weight at the stop before that leg (0: off); repeat.")]
-LegFuelOpt = Annotated[list[str], typer.Option(
-    "--leg-fuel", metavar="LEG:TANK=QUANTITY", help="Fuel put in at the stop before that leg: a volume, '120 lb', 'full' or a level.")]
-LegBurnOpt = Annotated[list[str], typer.Option(
-    "--leg-burn", metavar="LEG:NAME=VALUE", help="That leg's taxi, trip, trip_time, rate, order or reserve; repeat.")]
+LegLoadOpt = Annotated[
+    list[str],
+    typer.Option(
+        "--leg-load",
+        metavar="LEG:STATION=WEIGHT",
+        help="From leg 2 on: new weight at the stop before that leg (0: off); repeat.",
+    ),
+]
+LegFuelOpt = Annotated[
+    list[str],
+    typer.Option(
+        "--leg-fuel",
+        metavar="LEG:TANK=QUANTITY",
+        help="Fuel put in at the stop before that leg: a volume, '120 lb', 'full' or a level.",
+    ),
+]
+LegBurnOpt = Annotated[
+    list[str],
+    typer.Option(
+        "--leg-burn", metavar="LEG:NAME=VALUE", help="That leg's taxi, trip, trip_time, rate, order or reserve; repeat."
+    ),
+]
 
 
 def _legs(leg_load: list[str], leg_fuel: list[str], leg_burn: list[str]) -> dict[int, Any]:
@@ -73,10 +89,18 @@ def check(
     reserve: ReserveOpt = None,
     category: CategoryOpt = None,
     json_out: JsonOpt = False,
-    chart: Annotated[Path | None, typer.Option(metavar="FILE", help="Write the envelope chart: .png, .svg or .pdf.")] = None,
-    sheet: Annotated[Path | None, typer.Option(metavar="FILE.html", help="Write a printable load sheet (.html).")] = None,
-    plot: Annotated[bool, typer.Option("--plot", help="Draw a small text plot of the envelope under the tables.")] = False,
-    to_log: Annotated[bool, typer.Option("--log/--no-log", help="Record the check in the check log (default: not).")] = False,
+    chart: Annotated[
+        Path | None, typer.Option(metavar="FILE", help="Write the envelope chart: .png, .svg or .pdf.")
+    ] = None,
+    sheet: Annotated[
+        Path | None, typer.Option(metavar="FILE.html", help="Write a printable load sheet (.html).")
+    ] = None,
+    plot: Annotated[
+        bool, typer.Option("--plot", help="Draw a small text plot of the envelope under the tables.")
+    ] = False,
+    to_log: Annotated[
+        bool, typer.Option("--log/--no-log", help="Record the check in the check log (default: not).")
+    ] = False,
     db: DbOpt = None,
     leg_load: LegLoadOpt = [],  # noqa: B006
     leg_fuel: LegFuelOpt = [],  # noqa: B006
@@ -110,8 +134,21 @@ def check(
     from ..checklog import log_path
 
     record = log_path(to_log, db)
-    inputs = _inputs(aircraft, loading, load, fuel, taxi, trip, trip_time, rate, order, reserve, category,
-                     legs=_legs(leg_load, leg_fuel, leg_burn), allow_trip=True)
+    inputs = _inputs(
+        aircraft,
+        loading,
+        load,
+        fuel,
+        taxi,
+        trip,
+        trip_time,
+        rate,
+        order,
+        reserve,
+        category,
+        legs=_legs(leg_load, leg_fuel, leg_burn),
+        allow_trip=True,
+    )
     if inputs.is_trip and inputs.trip is not None:
         _check_trip(inputs, inputs.trip, json_out, chart, sheet, plot, record)
     result = check_loading(inputs.aircraft, inputs.loading)
@@ -134,8 +171,15 @@ def check(
     raise typer.Exit(EXIT_OK if result.ok else EXIT_LIMIT)
 
 
-def _check_trip(inputs: CheckInputs, trip: ResolvedTrip, json_out: bool, chart: Path | None, sheet: Path | None, plot: bool,
-                record: Path | None) -> None:
+def _check_trip(
+    inputs: CheckInputs,
+    trip: ResolvedTrip,
+    json_out: bool,
+    chart: Path | None,
+    sheet: Path | None,
+    plot: bool,
+    record: Path | None,
+) -> None:
     """Check every leg of a trip, render it, and exit 1 when any leg is out of limits."""
     from ..trip import check_trip
 
@@ -147,7 +191,9 @@ def _check_trip(inputs: CheckInputs, trip: ResolvedTrip, json_out: bool, chart: 
         from ..render.chart import figure_svg, save_figure, trip_figure
 
         if sheet is not None and sheet.suffix.lower() not in (".html", ".htm"):
-            raise InputError(Problem("--sheet", "a load sheet is an HTML file", value=str(sheet), expected="a name ending in .html"))
+            raise InputError(
+                Problem("--sheet", "a load sheet is an HTML file", value=str(sheet), expected="a name ending in .html")
+            )
         figure = trip_figure(inputs.aircraft, result, inputs.label)
         if chart is not None:
             save_figure(figure, chart)
@@ -155,8 +201,9 @@ def _check_trip(inputs: CheckInputs, trip: ResolvedTrip, json_out: bool, chart: 
         if sheet is not None:
             from ..render.sheet import trip_sheet_html
 
-            write_atomic(sheet, trip_sheet_html(result, figure_svg(figure), loading_label=inputs.label,
-                                                trip_loading=inputs.trip))
+            write_atomic(
+                sheet, trip_sheet_html(result, figure_svg(figure), loading_label=inputs.label, trip_loading=inputs.trip)
+            )
             _console(stderr=True).print(f"load sheet written: {sheet}", markup=False)
     if json_out:
         typer.echo(result.to_json())
@@ -178,7 +225,9 @@ def _record(path: Path, inputs: CheckInputs, result: CheckResult | TripResult) -
     from ..checklog import CheckLog, log_check
 
     with CheckLog(path) as log:
-        record_id = log_check(log, inputs, result, source=str(inputs.loading_file or "command line"), version=__version__)
+        record_id = log_check(
+            log, inputs, result, source=str(inputs.loading_file or "command line"), version=__version__
+        )
     _console(stderr=True).print(f"recorded as {record_id} in the check log {path}", markup=False)
 
 
@@ -188,7 +237,9 @@ def _write_pictures(inputs: CheckInputs, result: CheckResult, chart: Path | None
     from ..render.chart import check_figure, figure_svg, save_figure
 
     if sheet is not None and sheet.suffix.lower() not in (".html", ".htm"):
-        raise InputError(Problem("--sheet", "a load sheet is an HTML file", value=str(sheet), expected="a name ending in .html"))
+        raise InputError(
+            Problem("--sheet", "a load sheet is an HTML file", value=str(sheet), expected="a name ending in .html")
+        )
     err = _console(stderr=True)
     if chart is not None:
         save_figure(check_figure(inputs.aircraft, result, inputs.label), chart)
@@ -197,9 +248,17 @@ def _write_pictures(inputs: CheckInputs, result: CheckResult, chart: Path | None
         from ..render.sheet import load_sheet_html
 
         page_chart = figure_svg(check_figure(inputs.aircraft, result, inputs.label, compact=True))
-        write_atomic(sheet, load_sheet_html(result, page_chart, loading_label=inputs.label, loading=inputs.loading,
-                                            pilot=inputs.given.pilot if inputs.given is not None else None,
-                                            aircraft=inputs.aircraft))
+        write_atomic(
+            sheet,
+            load_sheet_html(
+                result,
+                page_chart,
+                loading_label=inputs.label,
+                loading=inputs.loading,
+                pilot=inputs.given.pilot if inputs.given is not None else None,
+                aircraft=inputs.aircraft,
+            ),
+        )
         err.print(f"load sheet written: {sheet}", markup=False)
 
 
@@ -207,8 +266,12 @@ def _write_pictures(inputs: CheckInputs, result: CheckResult, chart: Path | None
 @input_errors
 def show(
     aircraft: Annotated[Path, typer.Argument(metavar="AIRCRAFT", help="Aircraft file (TOML).")],
-    chart: Annotated[Path | None, typer.Option(metavar="FILE", help="Write a chart of the envelopes: .png, .svg or .pdf.")] = None,
-    category: Annotated[str | None, typer.Option("--category", "-c", metavar="CATEGORY", help="Category to draw in full.")] = None,
+    chart: Annotated[
+        Path | None, typer.Option(metavar="FILE", help="Write a chart of the envelopes: .png, .svg or .pdf.")
+    ] = None,
+    category: Annotated[
+        str | None, typer.Option("--category", "-c", metavar="CATEGORY", help="Category to draw in full.")
+    ] = None,
 ) -> None:
     """Show an aircraft's data: units, empty weight, limits, stations, tanks, envelopes.
 
@@ -236,7 +299,9 @@ def show(
 @app.command(short_help="Check files; list every problem.")
 @input_errors
 def validate(
-    files: Annotated[list[Path], typer.Argument(metavar="FILES", help="Aircraft and loading files to check.", show_default=False)],
+    files: Annotated[
+        list[Path], typer.Argument(metavar="FILES", help="Aircraft and loading files to check.", show_default=False)
+    ],
 ) -> None:
     """Check aircraft and loading files and report every problem at once.
 
@@ -271,8 +336,10 @@ def validate(
 @app.command(short_help="JSON Schema of the files, for editors.")
 @input_errors
 def schema(
-    kind: Annotated[Literal["aircraft", "loading", "all"], typer.Argument(metavar="KIND",
-        help="Which file's schema: aircraft, loading or all.")] = "all",
+    kind: Annotated[
+        Literal["aircraft", "loading", "all"],
+        typer.Argument(metavar="KIND", help="Which file's schema: aircraft, loading or all."),
+    ] = "all",
 ) -> None:
     """Print the JSON Schema of the aircraft and loading files, for editors.
 
@@ -300,7 +367,10 @@ plan_app = typer.Typer(
 app.add_typer(plan_app, name="plan")
 
 StationOpt = Annotated[str | None, typer.Option("--station", "-s", metavar="STATION", help="Station id.")]
-FillOpt = Annotated[str | None, typer.Option(metavar="TANKS", help="Tanks in the order they are filled: mains,aux (default: reverse burn order).")]
+FillOpt = Annotated[
+    str | None,
+    typer.Option(metavar="TANKS", help="Tanks in the order they are filled: mains,aux (default: reverse burn order)."),
+]
 
 
 def _fill(fill: str | None) -> list[str] | None:
@@ -325,10 +395,22 @@ def _answer(result: Any, json_out: bool) -> None:
 @plan_app.command("fuel", short_help="The most fuel at engine start.")
 @input_errors
 def plan_fuel(
-    aircraft: AircraftArg, loading: LoadingArg = None, load: LoadOpt = [], fuel: FuelOpt = [],  # noqa: B006
-    taxi: TaxiOpt = None, trip: TripOpt = None, trip_time: TripTimeOpt = None, rate: RateOpt = None,
-    order: OrderOpt = None, reserve: ReserveOpt = None, category: CategoryOpt = None, fill: FillOpt = None,
-    json_out: JsonOpt = False, leg_load: LegLoadOpt = [], leg_fuel: LegFuelOpt = [], leg_burn: LegBurnOpt = [],  # noqa: B006
+    aircraft: AircraftArg,
+    loading: LoadingArg = None,
+    load: LoadOpt = [],  # noqa: B006
+    fuel: FuelOpt = [],  # noqa: B006
+    taxi: TaxiOpt = None,
+    trip: TripOpt = None,
+    trip_time: TripTimeOpt = None,
+    rate: RateOpt = None,
+    order: OrderOpt = None,
+    reserve: ReserveOpt = None,
+    category: CategoryOpt = None,
+    fill: FillOpt = None,
+    json_out: JsonOpt = False,
+    leg_load: LegLoadOpt = [],  # noqa: B006
+    leg_fuel: LegFuelOpt = [],  # noqa: B006
+    leg_burn: LegBurnOpt = [],  # noqa: B006
 ) -> None:
     """The most fuel at engine start for which the whole flight (every leg of a trip) is within limits.
 
@@ -342,8 +424,22 @@ def plan_fuel(
     """
     from ..planning import most_fuel
 
-    inputs = _inputs(aircraft, loading, load, fuel, taxi, trip, trip_time, rate, order, reserve, category,
-                     fuel_to_plan=True, legs=_legs(leg_load, leg_fuel, leg_burn), allow_trip=True)
+    inputs = _inputs(
+        aircraft,
+        loading,
+        load,
+        fuel,
+        taxi,
+        trip,
+        trip_time,
+        rate,
+        order,
+        reserve,
+        category,
+        fuel_to_plan=True,
+        legs=_legs(leg_load, leg_fuel, leg_burn),
+        allow_trip=True,
+    )
     if inputs.is_trip and inputs.trip is not None:
         from ..trip import trip_most_fuel
 
@@ -354,11 +450,23 @@ def plan_fuel(
 @plan_app.command("stop", short_help="Fuel to put in at a stop of a trip.")
 @input_errors
 def plan_stop(
-    aircraft: AircraftArg, loading: LoadingArg = None, load: LoadOpt = [], fuel: FuelOpt = [],  # noqa: B006
-    taxi: TaxiOpt = None, trip: TripOpt = None, trip_time: TripTimeOpt = None, rate: RateOpt = None,
-    order: OrderOpt = None, reserve: ReserveOpt = None, category: CategoryOpt = None, fill: FillOpt = None,
+    aircraft: AircraftArg,
+    loading: LoadingArg = None,
+    load: LoadOpt = [],  # noqa: B006
+    fuel: FuelOpt = [],  # noqa: B006
+    taxi: TaxiOpt = None,
+    trip: TripOpt = None,
+    trip_time: TripTimeOpt = None,
+    rate: RateOpt = None,
+    order: OrderOpt = None,
+    reserve: ReserveOpt = None,
+    category: CategoryOpt = None,
+    fill: FillOpt = None,
     leg: Annotated[int | None, typer.Option(metavar="N", help="The leg the stop comes before (2 or more).")] = None,
-    json_out: JsonOpt = False, leg_load: LegLoadOpt = [], leg_fuel: LegFuelOpt = [], leg_burn: LegBurnOpt = [],  # noqa: B006
+    json_out: JsonOpt = False,
+    leg_load: LegLoadOpt = [],  # noqa: B006
+    leg_fuel: LegFuelOpt = [],  # noqa: B006
+    leg_burn: LegBurnOpt = [],  # noqa: B006
 ) -> None:
     """The fuel to put in at the stop before a leg of a trip so that every leg is within limits.
 
@@ -370,8 +478,21 @@ def plan_stop(
     """
     from ..trip import fuel_to_add
 
-    inputs = _inputs(aircraft, loading, load, fuel, taxi, trip, trip_time, rate, order, reserve, category,
-                     legs=_legs(leg_load, leg_fuel, leg_burn), allow_trip=True)
+    inputs = _inputs(
+        aircraft,
+        loading,
+        load,
+        fuel,
+        taxi,
+        trip,
+        trip_time,
+        rate,
+        order,
+        reserve,
+        category,
+        legs=_legs(leg_load, leg_fuel, leg_burn),
+        allow_trip=True,
+    )
     # a loading of one leg (no trip resolved) goes as given: fuel_to_add refuses it, naming its legs
     trip_data = inputs.trip if inputs.trip is not None else _need(inputs.given, "LOADING")
     _answer(fuel_to_add(inputs.aircraft, trip_data, _need(leg, "--leg"), fill=_fill(fill)), json_out)
@@ -380,8 +501,14 @@ def plan_stop(
 @plan_app.command("trip", short_help="The longest trip at a burn rate.")
 @input_errors
 def plan_trip(
-    aircraft: AircraftArg, loading: LoadingArg = None, load: LoadOpt = [], fuel: FuelOpt = [],  # noqa: B006
-    taxi: TaxiOpt = None, order: OrderOpt = None, category: CategoryOpt = None, fill: FillOpt = None,
+    aircraft: AircraftArg,
+    loading: LoadingArg = None,
+    load: LoadOpt = [],  # noqa: B006
+    fuel: FuelOpt = [],  # noqa: B006
+    taxi: TaxiOpt = None,
+    order: OrderOpt = None,
+    category: CategoryOpt = None,
+    fill: FillOpt = None,
     rate: Annotated[str | None, typer.Option(metavar="AMOUNT", help="Fuel used per hour [fuel volume unit].")] = None,
     reserve: Annotated[str, typer.Option(metavar="AMOUNT", help="Fuel to land with [fuel volume unit].")] = "0",
     json_out: JsonOpt = False,
@@ -400,17 +527,31 @@ def plan_trip(
 
     inputs = _inputs(aircraft, loading, load, fuel, taxi, None, None, None, order, None, category, fuel_to_plan=True)
     volume = inputs.aircraft.units.fuel_volume
-    result = longest_trip(inputs.aircraft, inputs.loading, rate=read_rate(_need(rate, "--rate"), volume, "--rate"),
-                          reserve=read_amount(reserve, volume, "--reserve"), fill=_fill(fill))
+    result = longest_trip(
+        inputs.aircraft,
+        inputs.loading,
+        rate=read_rate(_need(rate, "--rate"), volume, "--rate"),
+        reserve=read_amount(reserve, volume, "--reserve"),
+        fill=_fill(fill),
+    )
     _answer(result, json_out)
 
 
 @plan_app.command("payload", short_help="The most weight at a station.")
 @input_errors
 def plan_payload(
-    aircraft: AircraftArg, loading: LoadingArg = None, load: LoadOpt = [], fuel: FuelOpt = [],  # noqa: B006
-    taxi: TaxiOpt = None, trip: TripOpt = None, trip_time: TripTimeOpt = None, rate: RateOpt = None,
-    order: OrderOpt = None, reserve: ReserveOpt = None, category: CategoryOpt = None, station: StationOpt = None,
+    aircraft: AircraftArg,
+    loading: LoadingArg = None,
+    load: LoadOpt = [],  # noqa: B006
+    fuel: FuelOpt = [],  # noqa: B006
+    taxi: TaxiOpt = None,
+    trip: TripOpt = None,
+    trip_time: TripTimeOpt = None,
+    rate: RateOpt = None,
+    order: OrderOpt = None,
+    reserve: ReserveOpt = None,
+    category: CategoryOpt = None,
+    station: StationOpt = None,
     json_out: JsonOpt = False,
 ) -> None:
     """The most weight a station can take with everything else as given.
@@ -431,11 +572,23 @@ def plan_payload(
 @plan_app.command("leave", short_help="Fuel to leave behind for a payload.")
 @input_errors
 def plan_leave(
-    aircraft: AircraftArg, loading: LoadingArg = None, load: LoadOpt = [], fuel: FuelOpt = [],  # noqa: B006
-    taxi: TaxiOpt = None, trip: TripOpt = None, trip_time: TripTimeOpt = None, rate: RateOpt = None,
-    order: OrderOpt = None, reserve: ReserveOpt = None, category: CategoryOpt = None, station: StationOpt = None,
-    payload: Annotated[str | None, typer.Option(metavar="WEIGHT", help="Weight to carry at the station (mass, or with a unit).")] = None,
-    fill: FillOpt = None, json_out: JsonOpt = False,
+    aircraft: AircraftArg,
+    loading: LoadingArg = None,
+    load: LoadOpt = [],  # noqa: B006
+    fuel: FuelOpt = [],  # noqa: B006
+    taxi: TaxiOpt = None,
+    trip: TripOpt = None,
+    trip_time: TripTimeOpt = None,
+    rate: RateOpt = None,
+    order: OrderOpt = None,
+    reserve: ReserveOpt = None,
+    category: CategoryOpt = None,
+    station: StationOpt = None,
+    payload: Annotated[
+        str | None, typer.Option(metavar="WEIGHT", help="Weight to carry at the station (mass, or with a unit).")
+    ] = None,
+    fill: FillOpt = None,
+    json_out: JsonOpt = False,
 ) -> None:
     """The fuel to leave behind to carry a payload at a station.
 
@@ -451,15 +604,26 @@ def plan_leave(
 
     inputs = _inputs(aircraft, loading, load, fuel, taxi, trip, trip_time, rate, order, reserve, category)
     weight = read_amount(_need(payload, "--payload"), inputs.aircraft.units.mass, "--payload")
-    _answer(fuel_to_leave(inputs.aircraft, inputs.loading, _need(station, "--station"), weight, fill=_fill(fill)), json_out)
+    _answer(
+        fuel_to_leave(inputs.aircraft, inputs.loading, _need(station, "--station"), weight, fill=_fill(fill)), json_out
+    )
 
 
 @plan_app.command("ballast", short_help="The least ballast that is enough.")
 @input_errors
 def plan_ballast(
-    aircraft: AircraftArg, loading: LoadingArg = None, load: LoadOpt = [], fuel: FuelOpt = [],  # noqa: B006
-    taxi: TaxiOpt = None, trip: TripOpt = None, trip_time: TripTimeOpt = None, rate: RateOpt = None,
-    order: OrderOpt = None, reserve: ReserveOpt = None, category: CategoryOpt = None, station: StationOpt = None,
+    aircraft: AircraftArg,
+    loading: LoadingArg = None,
+    load: LoadOpt = [],  # noqa: B006
+    fuel: FuelOpt = [],  # noqa: B006
+    taxi: TaxiOpt = None,
+    trip: TripOpt = None,
+    trip_time: TripTimeOpt = None,
+    rate: RateOpt = None,
+    order: OrderOpt = None,
+    reserve: ReserveOpt = None,
+    category: CategoryOpt = None,
+    station: StationOpt = None,
     json_out: JsonOpt = False,
 ) -> None:
     """The least ballast (at the aircraft's ballast station, or --station) that brings the loading within limits.
@@ -479,14 +643,28 @@ def plan_ballast(
 @plan_app.command("shift", short_help="Weight to move between stations.")
 @input_errors
 def plan_shift(
-    aircraft: AircraftArg, loading: LoadingArg = None, load: LoadOpt = [], fuel: FuelOpt = [],  # noqa: B006
-    taxi: TaxiOpt = None, trip: TripOpt = None, trip_time: TripTimeOpt = None, rate: RateOpt = None,
-    order: OrderOpt = None, reserve: ReserveOpt = None, category: CategoryOpt = None,
-    source: Annotated[str | None, typer.Option("--from", metavar="STATION", help="Station the weight comes from.")] = None,
+    aircraft: AircraftArg,
+    loading: LoadingArg = None,
+    load: LoadOpt = [],  # noqa: B006
+    fuel: FuelOpt = [],  # noqa: B006
+    taxi: TaxiOpt = None,
+    trip: TripOpt = None,
+    trip_time: TripTimeOpt = None,
+    rate: RateOpt = None,
+    order: OrderOpt = None,
+    reserve: ReserveOpt = None,
+    category: CategoryOpt = None,
+    source: Annotated[
+        str | None, typer.Option("--from", metavar="STATION", help="Station the weight comes from.")
+    ] = None,
     to: Annotated[str | None, typer.Option("--to", metavar="STATION", help="Station it goes to.")] = None,
-    target: Annotated[str | None, typer.Option(metavar="ARM", help="CG to reach (arm, or with a unit); default: back within limits.")] = None,
-    condition: Annotated[str, typer.Option(metavar="CONDITION",
-        help="Condition whose CG --target sets: ramp, takeoff, landing, zero_fuel.")] = "takeoff",
+    target: Annotated[
+        str | None, typer.Option(metavar="ARM", help="CG to reach (arm, or with a unit); default: back within limits.")
+    ] = None,
+    condition: Annotated[
+        str,
+        typer.Option(metavar="CONDITION", help="Condition whose CG --target sets: ramp, takeoff, landing, zero_fuel."),
+    ] = "takeoff",
     json_out: JsonOpt = False,
 ) -> None:
     """Weight to move from one station to another: to a target CG, or back within limits.
@@ -501,23 +679,40 @@ def plan_shift(
     from ..planning import weight_shift
     from ..units import read_amount
 
-    conditions: dict[str, ConditionName] = {"ramp": "ramp", "takeoff": "takeoff", "landing": "landing", "zero_fuel": "zero_fuel"}
+    conditions: dict[str, ConditionName] = {
+        "ramp": "ramp",
+        "takeoff": "takeoff",
+        "landing": "landing",
+        "zero_fuel": "zero_fuel",
+    }
     chosen = conditions.get(condition)
     if chosen is None:
-        raise InputError(Problem("--condition", f"unknown condition {condition!r}", expected="ramp, takeoff, landing or zero_fuel"))
+        raise InputError(
+            Problem("--condition", f"unknown condition {condition!r}", expected="ramp, takeoff, landing or zero_fuel")
+        )
     inputs = _inputs(aircraft, loading, load, fuel, taxi, trip, trip_time, rate, order, reserve, category)
     arm = None if target is None else read_amount(target, inputs.aircraft.units.arm, "--target")
-    result = weight_shift(inputs.aircraft, inputs.loading, _need(source, "--from"), _need(to, "--to"),
-                          target_arm=arm, condition=chosen)
+    result = weight_shift(
+        inputs.aircraft, inputs.loading, _need(source, "--from"), _need(to, "--to"), target_arm=arm, condition=chosen
+    )
     _answer(result, json_out)
 
 
 @plan_app.command("table", short_help="Ramp fuel against payload.")
 @input_errors
 def plan_table(
-    aircraft: AircraftArg, loading: LoadingArg = None, load: LoadOpt = [], fuel: FuelOpt = [],  # noqa: B006
-    taxi: TaxiOpt = None, trip: TripOpt = None, trip_time: TripTimeOpt = None, rate: RateOpt = None,
-    order: OrderOpt = None, reserve: ReserveOpt = None, category: CategoryOpt = None, station: StationOpt = None,
+    aircraft: AircraftArg,
+    loading: LoadingArg = None,
+    load: LoadOpt = [],  # noqa: B006
+    fuel: FuelOpt = [],  # noqa: B006
+    taxi: TaxiOpt = None,
+    trip: TripOpt = None,
+    trip_time: TripTimeOpt = None,
+    rate: RateOpt = None,
+    order: OrderOpt = None,
+    reserve: ReserveOpt = None,
+    category: CategoryOpt = None,
+    station: StationOpt = None,
     steps: Annotated[int, typer.Option(min=2, max=201, metavar="ROWS", help="Rows of payload.")] = 11,
     fill: FillOpt = None,
     chart: Annotated[Path | None, typer.Option(metavar="FILE", help="Also draw it: .png, .svg or .pdf.")] = None,
@@ -534,7 +729,9 @@ def plan_table(
     """
     from ..planning import fuel_payload_table
 
-    inputs = _inputs(aircraft, loading, load, fuel, taxi, trip, trip_time, rate, order, reserve, category, fuel_to_plan=True)
+    inputs = _inputs(
+        aircraft, loading, load, fuel, taxi, trip, trip_time, rate, order, reserve, category, fuel_to_plan=True
+    )
     name = _need(station, "--station")
     table = fuel_payload_table(inputs.aircraft, inputs.loading, name, steps=steps, fill=_fill(fill))
     if chart is not None:
@@ -549,5 +746,3 @@ def plan_table(
 
         render_table(inputs.aircraft, table.rows, name, _console())
     raise typer.Exit(EXIT_OK if table.ok else EXIT_LIMIT)
-
-

@@ -35,7 +35,15 @@ if TYPE_CHECKING:
     from matplotlib.axes import Axes
     from matplotlib.figure import Figure
 
-__all__ = ["FORMATS", "check_figure", "envelope_figure", "fuel_payload_figure", "save_figure", "figure_svg", "trip_figure"]
+__all__ = [
+    "FORMATS",
+    "check_figure",
+    "envelope_figure",
+    "fuel_payload_figure",
+    "save_figure",
+    "figure_svg",
+    "trip_figure",
+]
 
 FORMATS = ("png", "svg", "pdf")
 
@@ -89,11 +97,26 @@ def _draw_envelopes(ax: Axes, aircraft: Aircraft, category: str, panel: Sequence
         xs, ys = [p[0] for p in ring], [p[1] for p in ring]
         if other.category == category:
             ax.fill(xs, ys, color="#CFE3F2", alpha=0.6, zorder=1, gid=f"envelope-fill-{other.category}-{index}")
-            ax.plot(xs, ys, color="#1B3A57", linewidth=1.6, zorder=2, label=f"{other.category} envelope",
-                    gid=f"envelope-{other.category}-{index}")
+            ax.plot(
+                xs,
+                ys,
+                color="#1B3A57",
+                linewidth=1.6,
+                zorder=2,
+                label=f"{other.category} envelope",
+                gid=f"envelope-{other.category}-{index}",
+            )
         else:
-            ax.plot(xs, ys, color="#8A8A8A", linewidth=1.0, linestyle="--", zorder=1,
-                    label=f"{other.category} envelope", gid=f"envelope-{other.category}-{index}")
+            ax.plot(
+                xs,
+                ys,
+                color="#8A8A8A",
+                linewidth=1.0,
+                linestyle="--",
+                zorder=1,
+                label=f"{other.category} envelope",
+                gid=f"envelope-{other.category}-{index}",
+            )
 
 
 def _weight_limits(aircraft: Aircraft, axes_pair: tuple[str, str]) -> list[tuple[float, str, str]]:
@@ -117,7 +140,9 @@ def _weight_limits(aircraft: Aircraft, axes_pair: tuple[str, str]) -> list[tuple
     return [(value, " = ".join(words), codes[value]) for value, words in lines.items()]
 
 
-def _draw_weight_limits(ax: Axes, aircraft: Aircraft, axes_pair: tuple[str, str], tag: str) -> list[tuple[float, str, str]]:
+def _draw_weight_limits(
+    ax: Axes, aircraft: Aircraft, axes_pair: tuple[str, str], tag: str
+) -> list[tuple[float, str, str]]:
     limits = _weight_limits(aircraft, axes_pair)
     vertical = axes_pair[0] == "weight"
     for value, words, code in limits:
@@ -132,18 +157,43 @@ def _limit_name(ax: Axes, words: str, value: float, code: str, vertical: bool, s
     nothing); moved ``shift`` points along the frame, with a leader to the line, where names crowd."""
     leader = {"arrowstyle": "-", "color": "#888888", "linewidth": 0.6, "shrinkA": 0, "shrinkB": 0} if shift else None
     if vertical:
-        return ax.annotate(words, (value, 1.0), xycoords=("data", "axes fraction"), xytext=(shift, 4 + (6 if shift else 0)),
-                           textcoords="offset points", rotation=90, fontsize=7, color="#444444", ha="center", va="bottom",
-                           annotation_clip=False, arrowprops=leader, gid=code)
-    return ax.annotate(words, (1.0, value), xycoords=("axes fraction", "data"), xytext=(4 + (6 if shift else 0), shift),
-                       textcoords="offset points", fontsize=7, color="#444444", ha="left", va="center",
-                       annotation_clip=False, arrowprops=leader, gid=code)
+        return ax.annotate(
+            words,
+            (value, 1.0),
+            xycoords=("data", "axes fraction"),
+            xytext=(shift, 4 + (6 if shift else 0)),
+            textcoords="offset points",
+            rotation=90,
+            fontsize=7,
+            color="#444444",
+            ha="center",
+            va="bottom",
+            annotation_clip=False,
+            arrowprops=leader,
+            gid=code,
+        )
+    return ax.annotate(
+        words,
+        (1.0, value),
+        xycoords=("axes fraction", "data"),
+        xytext=(4 + (6 if shift else 0), shift),
+        textcoords="offset points",
+        fontsize=7,
+        color="#444444",
+        ha="left",
+        va="center",
+        annotation_clip=False,
+        arrowprops=leader,
+        gid=code,
+    )
 
 
 def _spread_limit_names(ax: Axes, vertical: bool, renderer: Any) -> None:
     """Move apart, along the frame, the names of weight limits that lie close together."""
-    names = sorted((t for t in ax.texts if (t.get_gid() or "").startswith("limitname-")),
-                   key=lambda t: t.xy[0] if vertical else t.xy[1])  # type: ignore[attr-defined]
+    names = sorted(
+        (t for t in ax.texts if (t.get_gid() or "").startswith("limitname-")),
+        key=lambda t: t.xy[0] if vertical else t.xy[1],  # type: ignore[attr-defined]
+    )
     scale = ax.figure.dpi / 72.0
     previous_end: float | None = None
     for text in names:
@@ -171,19 +221,49 @@ def _draw_loading(ax: Axes, envelope: Envelope, result: CheckResult, indices: se
     samples = result.burn_path.samples
     if len(samples) > 1:
         path = [_coords(envelope, s.weight, s.arm, s.lateral_arm) for s in samples]
-        ax.plot([p[0] for p in path], [p[1] for p in path], color="#222222", linewidth=1.8, zorder=3,
-                label="fuel burn, takeoff to landing", gid=f"burn-path{tag}")
+        ax.plot(
+            [p[0] for p in path],
+            [p[1] for p in path],
+            color="#222222",
+            linewidth=1.8,
+            zorder=3,
+            label="fuel burn, takeoff to landing",
+            gid=f"burn-path{tag}",
+        )
     for condition in result.conditions:
         marker, colour, words, size = _POINTS[condition.condition]
         x, y = _coords(envelope, condition.weight, condition.arm, condition.lateral_arm)
-        ax.plot([x], [y], marker=marker, markersize=size, color=colour, markeredgecolor="black", linestyle="none",
-                zorder=4, label=words, gid=f"point-{condition.condition}{tag}")
-        labels.append(_Label(f"{words}{'' if condition.ok else ' (outside)'}", (x, y), size, f"label-{condition.condition}{tag}"))
+        ax.plot(
+            [x],
+            [y],
+            marker=marker,
+            markersize=size,
+            color=colour,
+            markeredgecolor="black",
+            linestyle="none",
+            zorder=4,
+            label=words,
+            gid=f"point-{condition.condition}{tag}",
+        )
+        labels.append(
+            _Label(f"{words}{'' if condition.ok else ' (outside)'}", (x, y), size, f"label-{condition.condition}{tag}")
+        )
     leave = result.burn_path.leaves_at
     if leave is not None and (leave.envelope is None or leave.envelope in indices):
         x, y = _coords(envelope, leave.weight, leave.arm, leave.lateral_arm)
-        ax.plot([x], [y], marker="o", markersize=_LEAVE_SIZE, markerfacecolor="none", markeredgecolor="#CC0000",
-                markeredgewidth=2.2, linestyle="none", zorder=5, label="path leaves the envelope (ring)", gid=f"leaves-at{tag}")
+        ax.plot(
+            [x],
+            [y],
+            marker="o",
+            markersize=_LEAVE_SIZE,
+            markerfacecolor="none",
+            markeredgecolor="#CC0000",
+            markeredgewidth=2.2,
+            linestyle="none",
+            zorder=5,
+            label="path leaves the envelope (ring)",
+            gid=f"leaves-at{tag}",
+        )
         labels.append(_Label("path leaves", (x, y), _LEAVE_SIZE, f"label-leaves-at{tag}"))
     return labels
 
@@ -211,11 +291,19 @@ def _overlap(a: Any, b: Any, pad: float = 1.0) -> float:
 
 
 def _inside(box: Any, frame: Any, pad: float = 2.0) -> bool:
-    return box.x0 >= frame.x0 + pad and box.x1 <= frame.x1 - pad and box.y0 >= frame.y0 + pad and box.y1 <= frame.y1 - pad
+    return (
+        box.x0 >= frame.x0 + pad and box.x1 <= frame.x1 - pad and box.y0 >= frame.y0 + pad and box.y1 <= frame.y1 - pad
+    )
 
 
-def _place(figure: Figure, ax: Axes, labels: Sequence[_Label], limits: Sequence[tuple[float, str, str]], vertical: bool,
-           tag: str) -> None:
+def _place(
+    figure: Figure,
+    ax: Axes,
+    labels: Sequence[_Label],
+    limits: Sequence[tuple[float, str, str]],
+    vertical: bool,
+    tag: str,
+) -> None:
     """Place the weight-limit names and the point labels so that none overlaps another label or a
     marker and each lies wholly inside the plot; where none of the places tried is free, the one
     overlapping least is used. Call after the layout is fixed (positions are in display pixels)."""
@@ -254,9 +342,15 @@ def _place(figure: Figure, ax: Axes, labels: Sequence[_Label], limits: Sequence[
                 leader = {"arrowstyle": "-", "color": "#444444", "linewidth": 0.7, "shrinkA": 0, "shrinkB": half}
                 with_leader = step >= _LEADER_FROM or dy != 0
                 text = ax.annotate(
-                    label.words, label.point, textcoords="offset points", xytext=offset, fontsize=8, zorder=6,
+                    label.words,
+                    label.point,
+                    textcoords="offset points",
+                    xytext=offset,
+                    fontsize=8,
+                    zorder=6,
                     ha="left" if dx > 0 else "right" if dx < 0 else "center",
-                    va="bottom" if dy > 0 else "top" if dy < 0 else "center", gid=label.gid,
+                    va="bottom" if dy > 0 else "top" if dy < 0 else "center",
+                    gid=label.gid,
                     bbox={"boxstyle": "square,pad=0.1", "facecolor": "white", "edgecolor": "none", "alpha": 0.85},
                     arrowprops=leader if with_leader else None,
                 )
@@ -340,8 +434,15 @@ def _legend(figure: Figure) -> None:
         for handle, words in zip(*ax.get_legend_handles_labels(), strict=True):
             handles.setdefault(words, handle)
     if handles:
-        figure.legend(list(handles.values()), list(handles), loc="outside lower center", ncol=min(3, len(handles)),
-                      fontsize=7, frameon=False, markerscale=0.7)
+        figure.legend(
+            list(handles.values()),
+            list(handles),
+            loc="outside lower center",
+            ncol=min(3, len(handles)),
+            fontsize=7,
+            frameon=False,
+            markerscale=0.7,
+        )
 
 
 def _title(aircraft: Aircraft, extra: str | None) -> str:
@@ -349,7 +450,9 @@ def _title(aircraft: Aircraft, extra: str | None) -> str:
     return f"{text}: {extra}" if extra else text
 
 
-def check_figure(aircraft: Aircraft, result: CheckResult, loading_label: str | None = None, *, compact: bool = False) -> Figure:
+def check_figure(
+    aircraft: Aircraft, result: CheckResult, loading_label: str | None = None, *, compact: bool = False
+) -> Figure:
     """A chart of a check: envelopes, the four conditions, the burn path, weight limits.
 
     ``compact`` draws it smaller (4.6 in by 3.6 in a panel, the same type sizes) for a page
@@ -383,16 +486,39 @@ def fuel_payload_figure(aircraft: Aircraft, table: Any) -> Figure:
     if segments:
         from matplotlib.collections import LineCollection
 
-        ax.add_collection(LineCollection(segments, colors="#1B3A57", linewidths=5, alpha=0.45, capstyle="butt",
-                                         label="ramp fuel within limits (rows computed)", gid="within-limits"))
+        ax.add_collection(
+            LineCollection(
+                segments,
+                colors="#1B3A57",
+                linewidths=5,
+                alpha=0.45,
+                capstyle="butt",
+                label="ramp fuel within limits (rows computed)",
+                gid="within-limits",
+            )
+        )
     most = [(row.payload, row.most) for row in table.rows if row.most is not None]
     if most:
-        ax.plot([p for p, _ in most], [m for _, m in most], linestyle="none", marker="o", color="#1B3A57",
-                label="most ramp fuel", gid="most-fuel")
+        ax.plot(
+            [p for p, _ in most],
+            [m for _, m in most],
+            linestyle="none",
+            marker="o",
+            color="#1B3A57",
+            label="most ramp fuel",
+            gid="most-fuel",
+        )
     none = [row.payload for row in table.rows if row.most is None]
     if none:
-        ax.plot(none, [0.0] * len(none), linestyle="none", marker="x", color="#555555", label="no fuel within limits",
-                gid="no-fuel")
+        ax.plot(
+            none,
+            [0.0] * len(none),
+            linestyle="none",
+            marker="x",
+            color="#555555",
+            label="no fuel within limits",
+            gid="no-fuel",
+        )
     payloads = [row.payload for row in table.rows] or [0.0]
     span = max(payloads) - min(payloads) or 1.0
     ax.set_xlim(min(payloads) - 0.04 * span, max(payloads) + 0.04 * span)
@@ -402,7 +528,9 @@ def fuel_payload_figure(aircraft: Aircraft, table: Any) -> Figure:
     ax.set_ylabel(f"Ramp fuel ({units.fuel_volume})")
     ax.grid(True, color="#DDDDDD", linewidth=0.6)
     _legend(figure)
-    figure.suptitle("\n".join(textwrap.wrap(_title(aircraft, f"ramp fuel against payload at {station}"), 64)), fontsize=11)
+    figure.suptitle(
+        "\n".join(textwrap.wrap(_title(aircraft, f"ramp fuel against payload at {station}"), 64)), fontsize=11
+    )
     return figure
 
 
@@ -418,8 +546,14 @@ def save_figure(figure: Any, path: str | Path) -> None:
 
     suffix = Path(path).suffix.lower().lstrip(".")
     if suffix not in FORMATS:
-        raise InputError(Problem("--chart", f"unknown chart format {suffix or '(none)'!r}", value=str(path),
-                                 expected="a file ending in .png, .svg or .pdf"))
+        raise InputError(
+            Problem(
+                "--chart",
+                f"unknown chart format {suffix or '(none)'!r}",
+                value=str(path),
+                expected="a file ending in .png, .svg or .pdf",
+            )
+        )
     buffer = io.BytesIO()
     figure.savefig(buffer, format=suffix, dpi=150 if suffix == "png" else 72, metadata=_metadata(suffix))
     write_atomic(path, buffer.getvalue())
@@ -432,7 +566,7 @@ def figure_svg(figure: Any) -> str:
     text = buffer.getvalue()
     start, end = text.find("<metadata>"), text.find("</metadata>")
     if start != -1 and end != -1:
-        text = text[:start] + text[end + len("</metadata>"):]
+        text = text[:start] + text[end + len("</metadata>") :]
     return text
 
 
@@ -472,15 +606,36 @@ def trip_figure(aircraft: Aircraft, trip: Any, loading_label: str | None = None)
             samples = check.burn_path.samples
             if len(samples) > 1:
                 path = [_coords(envelope, s.weight, s.arm, s.lateral_arm) for s in samples]
-                ax.plot([p[0] for p in path], [p[1] for p in path], color="#222222", linestyle=style, linewidth=1.6,
-                        zorder=3, label=f"{name}: fuel burn", gid=f"leg-{leg.leg}-burn-path{tag}")
+                ax.plot(
+                    [p[0] for p in path],
+                    [p[1] for p in path],
+                    color="#222222",
+                    linestyle=style,
+                    linewidth=1.6,
+                    zorder=3,
+                    label=f"{name}: fuel burn",
+                    gid=f"leg-{leg.leg}-burn-path{tag}",
+                )
             for condition in (check.condition("takeoff"), check.condition("landing")):
                 x, y = _coords(envelope, condition.weight, condition.arm, condition.lateral_arm)
-                ax.plot([x], [y], marker=marker, markersize=7, color="white" if condition.condition == "landing" else "#222222",
-                        markeredgecolor="black", linestyle="none", zorder=4,
-                        gid=f"leg-{leg.leg}-{condition.condition}{tag}")
+                ax.plot(
+                    [x],
+                    [y],
+                    marker=marker,
+                    markersize=7,
+                    color="white" if condition.condition == "landing" else "#222222",
+                    markeredgecolor="black",
+                    linestyle="none",
+                    zorder=4,
+                    gid=f"leg-{leg.leg}-{condition.condition}{tag}",
+                )
                 words = f"{leg.leg} {'T/O' if condition.condition == 'takeoff' else 'LDG'}"
-                ax.annotate(words + ("" if condition.ok else " (outside)"), (x, y), textcoords="offset points",
-                            xytext=(7, 4 if condition.condition == "takeoff" else -9), fontsize=7)
+                ax.annotate(
+                    words + ("" if condition.ok else " (outside)"),
+                    (x, y),
+                    textcoords="offset points",
+                    xytext=(7, 4 if condition.condition == "takeoff" else -9),
+                    fontsize=7,
+                )
         ax.legend(fontsize=7, loc="best", framealpha=0.9)
     return figure

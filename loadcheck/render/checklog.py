@@ -31,8 +31,13 @@ def render_check_log(path: Any, records: Iterable[tuple[Any, ...]], caution: str
         return words if legs == 1 else f"{words} ({legs} legs)"
 
     words = {key: verdict(*key) for key in set(zip(got[5], got[7], strict=True))}
-    columns = [list(map(str, got[0])), [t[:19] for t in got[1]], *([c or "" for c in got[k]] for k in (2, 3, 4)),
-               list(map(words.__getitem__, zip(got[5], got[7], strict=True))), list(got[6])]
+    columns = [
+        list(map(str, got[0])),
+        [t[:19] for t in got[1]],
+        *([c or "" for c in got[k]] for k in (2, 3, 4)),
+        list(map(words.__getitem__, zip(got[5], got[7], strict=True))),
+        list(got[6]),
+    ]
     if use_plain(len(columns[0])):
         plain_columns(console.file, title, heads, columns, right=(0,), width=console.width)
     else:  # laid out for the width, nothing cut
@@ -46,7 +51,15 @@ def render_check_log(path: Any, records: Iterable[tuple[Any, ...]], caution: str
 def render_current_verification(outcome: Any, console: Console) -> None:
     """Print each recorded check with the verdict then and now, the data changes, then the caution."""
     table = Table(title=f"Recorded checks against the current data of {outcome.fleet}", title_justify="left")
-    for column in ("Id", "Checked (UTC)", "Registration", "Reference", "Aircraft data", "Recorded", "With current data"):
+    for column in (
+        "Id",
+        "Checked (UTC)",
+        "Registration",
+        "Reference",
+        "Aircraft data",
+        "Recorded",
+        "With current data",
+    ):
         table.add_column(column)
     for check in outcome.checks:
         data = "changed since" if check.data_changed else "unchanged"
@@ -56,8 +69,15 @@ def render_current_verification(outcome: Any, console: Console) -> None:
             now = "within limits" if check.current_ok else "OUT OF LIMITS"
             if check.now_out_of_limits:
                 now += " (was within)"
-        table.add_row(str(check.record_id), check.checked_at[:19], check.registration or "", check.reference or "",
-                      data, "within limits" if check.recorded_ok else "OUT OF LIMITS", now)
+        table.add_row(
+            str(check.record_id),
+            check.checked_at[:19],
+            check.registration or "",
+            check.reference or "",
+            data,
+            "within limits" if check.recorded_ok else "OUT OF LIMITS",
+            now,
+        )
     console.print(table)
     for check in outcome.checks:
         if check.problem:
@@ -65,6 +85,9 @@ def render_current_verification(outcome: Any, console: Console) -> None:
         elif check.current_ok is False:
             for finding in check.current_findings:
                 console.print(f"record {check.record_id}: LIMIT {finding}", markup=False)
-    console.print(f"{len(outcome.checks)} record(s); {outcome.changed} made with aircraft data that has changed since; "
-                  f"{outcome.now_out_of_limits} recorded within limits and now out of limits", markup=False)
+    console.print(
+        f"{len(outcome.checks)} record(s); {outcome.changed} made with aircraft data that has changed since; "
+        f"{outcome.now_out_of_limits} recorded within limits and now out of limits",
+        markup=False,
+    )
     console.print(caution_text(outcome.caution))

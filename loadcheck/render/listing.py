@@ -24,8 +24,14 @@ def use_plain(rows: int) -> bool:
     return rows > PLAIN_ROWS
 
 
-def plain_listing(out: IO[str], title: str, headers: Sequence[str], rows: Sequence[Sequence[str]],
-                  right: Sequence[int] = (), width: int | None = None) -> None:
+def plain_listing(
+    out: IO[str],
+    title: str,
+    headers: Sequence[str],
+    rows: Sequence[Sequence[str]],
+    right: Sequence[int] = (),
+    width: int | None = None,
+) -> None:
     """Write a listing: title, header, rule, one line per row, columns two spaces apart.
 
     Where the columns do not all fit in ``width``, each row's line holds the leading
@@ -45,8 +51,14 @@ def plain_listing(out: IO[str], title: str, headers: Sequence[str], rows: Sequen
     plain_columns(out, title, headers, columns, right, width)
 
 
-def plain_columns(out: IO[str], title: str, headers: Sequence[str], columns: Sequence[Sequence[str]],
-                  right: Sequence[int] = (), width: int | None = None) -> None:
+def plain_columns(
+    out: IO[str],
+    title: str,
+    headers: Sequence[str],
+    columns: Sequence[Sequence[str]],
+    right: Sequence[int] = (),
+    width: int | None = None,
+) -> None:
     """:func:`plain_listing` of cells given column by column (``columns[k]`` the cells of
     column ``k``, every column as long).
 
@@ -58,8 +70,10 @@ def plain_columns(out: IO[str], title: str, headers: Sequence[str], columns: Seq
     from itertools import chain
     from operator import methodcaller
 
-    columns = [["; ".join(cell.splitlines()) for cell in column] if "\n" in "\x00".join(column) else column
-               for column in columns]  # the test in C, the join only where a cell has several lines
+    columns = [
+        ["; ".join(cell.splitlines()) for cell in column] if "\n" in "\x00".join(column) else column
+        for column in columns
+    ]  # the test in C, the join only where a cell has several lines
     widths = [max(len(h), max(map(len, column), default=0)) for h, column in zip(headers, columns, strict=True)]
     shown = len(headers)
     if width is not None:
@@ -91,10 +105,23 @@ def plain_columns(out: IO[str], title: str, headers: Sequence[str], columns: Seq
         if all(columns[k]) and len(label) + widths[k] <= wrap:
             parts.append(map(label.__add__, columns[k]))
         else:
-            parts.append(["\n".join(textwrap.wrap(f"{headers[k]}: {cell}", wrap, initial_indent="  ",
-                                                  subsequent_indent="    ", break_long_words=False,
-                                                  break_on_hyphens=False)) if cell else None
-                          for cell in columns[k]])
+            parts.append(
+                [
+                    "\n".join(
+                        textwrap.wrap(
+                            f"{headers[k]}: {cell}",
+                            wrap,
+                            initial_indent="  ",
+                            subsequent_indent="    ",
+                            break_long_words=False,
+                            break_on_hyphens=False,
+                        )
+                    )
+                    if cell
+                    else None
+                    for cell in columns[k]
+                ]
+            )
     lines = chain.from_iterable(zip(*parts, strict=True)) if len(parts) > 1 else parts[0]
     if any(isinstance(part, list) for part in parts[1:]):
         lines = (line for line in lines if line is not None)

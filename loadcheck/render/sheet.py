@@ -62,7 +62,8 @@ tr.total td { font-weight: bold; border-top: 2px solid #111; }
 .meta { display: grid; grid-template-columns: repeat(4, auto); gap: 0 1.2em; justify-content: start; }
 .meta span.k { color: #444; }
 .cols { display: grid; grid-template-columns: auto auto; gap: 0 1.5em; justify-content: start; align-items: start; }
-.verdict { font-weight: bold; font-size: 11pt; padding: .2em .6em; border: 2px solid #111; display: inline-block; margin: .35em 0 0 0; }
+.verdict { font-weight: bold; font-size: 11pt; padding: .2em .6em; border: 2px solid #111; display: inline-block;
+           margin: .35em 0 0 0; }
 .limit { font-weight: bold; }
 .who { font-style: italic; }
 ul.findings { margin: .1em 0; padding-left: 1.3em; }
@@ -95,8 +96,11 @@ def _n(value: float | None, unit: str, direction: str = "nearest") -> str:
 
 def _cells(cells: list[str], numeric_from: int = 1, attrs: str = "") -> str:
     """A row: the first ``numeric_from`` cells as words, the others as numbers (already escaped)."""
-    return f"<tr{attrs}>" + "".join(f"<td class='n'>{c}</td>" if i >= numeric_from else f"<td>{c}</td>"
-                                     for i, c in enumerate(cells)) + "</tr>"
+    return (
+        f"<tr{attrs}>"
+        + "".join(f"<td class='n'>{c}</td>" if i >= numeric_from else f"<td>{c}</td>" for i, c in enumerate(cells))
+        + "</tr>"
+    )
 
 
 def _head(cells: list[str]) -> str:
@@ -140,9 +144,12 @@ def load_sheet_html(
     title = f"Load sheet: {info.name}" + (f" · {info.registration}" if info.registration else "")
     moment = unit_label(units.moment)
     meta = [
-        ("Registration", info.registration or ""), ("Category", result.category),
-        ("Aircraft data", info.fingerprint), ("Empty weight of", info.empty_weight_date or "not dated"),
-        ("Loading", loading_label or ""), ("Checked", when.strftime("%Y-%m-%d %H:%M %Z").strip()),
+        ("Registration", info.registration or ""),
+        ("Category", result.category),
+        ("Aircraft data", info.fingerprint),
+        ("Empty weight of", info.empty_weight_date or "not dated"),
+        ("Loading", loading_label or ""),
+        ("Checked", when.strftime("%Y-%m-%d %H:%M %Z").strip()),
     ]
     if pilot:
         meta.append(("Pilot in command", pilot))
@@ -157,13 +164,16 @@ def load_sheet_html(
         f"<title>{escape(title)}</title>",
         f"<style>{_SHEET_STYLE}</style></head><body>",
         f"<h1>{escape(title)}</h1>",
-        "<div class='meta'>" + "".join(f"<span><span class='k'>{escape(k)}:</span> {escape(v)}</span>" for k, v in meta)
+        "<div class='meta'>"
+        + "".join(f"<span><span class='k'>{escape(k)}:</span> {escape(v)}</span>" for k, v in meta)
         + "</div>",
         f"<p class='verdict' id='verdict'>{escape(verdict)}</p>",
         "<div class='cols'><div>",
         "<h2>Moment table (engine start)</h2><table id='moments'>",
-        _head(["Item", f"Weight ({units.mass})", f"Arm ({units.arm})", f"Moment ({moment})"]
-              + ([scaled_moment_header(scaled, units.moment)] if scaled is not None else [])),
+        _head(
+            ["Item", f"Weight ({units.mass})", f"Arm ({units.arm})", f"Moment ({moment})"]
+            + ([scaled_moment_header(scaled, units.moment)] if scaled is not None else [])
+        ),
     ]
 
     def scaled_cell(weight: float, value: float) -> list[str]:
@@ -175,20 +185,36 @@ def load_sheet_html(
     for item in result.items:
         name = item.name + (f" ({fmt(item.fuel_volume, units.fuel_volume)})" if item.fuel_volume is not None else "")
         cell = escape(name) + (f" <span class='who'>· {escape(people[item.id])}</span>" if item.id in people else "")
-        parts.append(_cells([cell, _n(item.weight, units.mass), _n(item.arm, units.arm), _n(item.moment, units.moment)]
-                            + scaled_cell(item.weight, item.moment)))
+        parts.append(
+            _cells(
+                [cell, _n(item.weight, units.mass), _n(item.arm, units.arm), _n(item.moment, units.moment)]
+                + scaled_cell(item.weight, item.moment)
+            )
+        )
     ramp = result.condition("ramp")
-    parts.append(_cells(["Total at ramp", _n(ramp.weight, units.mass), _n(ramp.arm, units.arm), _n(ramp.moment, units.moment)]
-                        + scaled_cell(ramp.weight, ramp.moment), attrs=" class='total' id='total'"))
-    parts.append("</table><p class='note'>Each figure is rounded on its own; the total is the sum of the unrounded "
-                 "figures.</p></div><div>")
+    parts.append(
+        _cells(
+            ["Total at ramp", _n(ramp.weight, units.mass), _n(ramp.arm, units.arm), _n(ramp.moment, units.moment)]
+            + scaled_cell(ramp.weight, ramp.moment),
+            attrs=" class='total' id='total'",
+        )
+    )
+    parts.append(
+        "</table><p class='note'>Each figure is rounded on its own; the total is the sum of the unrounded "
+        "figures.</p></div><div>"
+    )
     seats = [i for i in result.items if i.kind == "seat"]
     parts.append("<h2>Occupants</h2>")
     if seats:
         named = any(i.id in people for i in seats)
         parts.append("<table id='occupants'>" + _head(["Seat", *(["Name"] if named else []), f"Weight ({units.mass})"]))
-        parts += [_cells([escape(i.name), *([escape(people.get(i.id, ""))] if named else []), _n(i.weight, units.mass)],
-                         numeric_from=2 if named else 1) for i in seats]
+        parts += [
+            _cells(
+                [escape(i.name), *([escape(people.get(i.id, ""))] if named else []), _n(i.weight, units.mass)],
+                numeric_from=2 if named else 1,
+            )
+            for i in seats
+        ]
         parts.append("</table>")
     else:
         parts.append("<p>No one in a seat station.</p>")
@@ -239,13 +265,22 @@ def _fuel_plan(result: CheckResult, loading: ResolvedLoading | None) -> str:
     out = ["<h2>Fuel plan</h2>"]
     if loading is not None:
         names = {i.id: i.name for i in result.items if i.kind == "fuel"}
-        order = ("every tank together, in proportion" if loading.plan.order is None
-                 else ", then ".join(names.get(t, t) for t in loading.plan.order))
-        rows = [("Taxi and run-up", fmt(loading.taxi, volume)), ("Trip", fmt(loading.trip, volume)),
-                ("Reserve", "none given" if loading.reserve is None else fmt(loading.reserve, volume)),
-                ("Burn order", order)]
-        out.append("<table id='fuel-plan'>" + "".join(f"<tr><td>{escape(k)}</td><td>{escape(v)}</td></tr>" for k, v in rows)
-                   + "</table>")
+        order = (
+            "every tank together, in proportion"
+            if loading.plan.order is None
+            else ", then ".join(names.get(t, t) for t in loading.plan.order)
+        )
+        rows = [
+            ("Taxi and run-up", fmt(loading.taxi, volume)),
+            ("Trip", fmt(loading.trip, volume)),
+            ("Reserve", "none given" if loading.reserve is None else fmt(loading.reserve, volume)),
+            ("Burn order", order),
+        ]
+        out.append(
+            "<table id='fuel-plan'>"
+            + "".join(f"<tr><td>{escape(k)}</td><td>{escape(v)}</td></tr>" for k, v in rows)
+            + "</table>"
+        )
     out.append("<table id='fuel-on-board'>" + _head(["On board at", f"Fuel ({volume})", f"Fuel ({units.mass})"]))
     for c in result.conditions:
         out.append(_cells([escape(_NAMES[c.condition]), _n(c.fuel, volume), _n(c.fuel_weight, units.mass)]))
@@ -272,10 +307,17 @@ def _conditions(result: CheckResult, scaled: Any = None) -> str:
         verdict = condition_verdict(c, result)[0]
         margin, marked = weight_margin(c, result)
         edge = edge or marked
-        cells = [escape(_NAMES[c.condition]), _n(c.fuel, units.fuel_volume), _n(c.weight, units.mass), _n(c.arm, units.arm)]
+        cells = [
+            escape(_NAMES[c.condition]),
+            _n(c.fuel, units.fuel_volume),
+            _n(c.weight, units.mass),
+            _n(c.arm, units.arm),
+        ]
         cells += [_n(c.mac_percent, "%MAC")] if mac else []
         if scaled is not None:
-            cells.append(escape(fmt(scaled_moment(scaled, c.weight, c.moment), units.moment, with_unit=False, places=1)))
+            cells.append(
+                escape(fmt(scaled_moment(scaled, c.weight, c.moment), units.moment, with_unit=False, places=1))
+            )
         cells += [_n(c.lateral_arm, units.arm)] if lateral else []
         cells += [verdict, _n(c.margins.forward, units.arm, "down"), _n(c.margins.aft, units.arm, "down")]
         cells += [_n(c.margins.left, units.arm, "down"), _n(c.margins.right, units.arm, "down")] if lateral else []
@@ -292,7 +334,7 @@ def _conditions(result: CheckResult, scaled: Any = None) -> str:
 
 def _inline_svg(svg: str) -> str:
     """The SVG element alone, without its fixed size (the page's style sizes it; the viewBox keeps its shape)."""
-    svg = svg[svg.find("<svg"):]
+    svg = svg[svg.find("<svg") :]
     head_end = svg.find(">")
     head = re.sub(r'\s(width|height)="[^"]*"', "", svg[:head_end])
     return head + svg[head_end:]
@@ -302,8 +344,11 @@ def _table(head: list[str], rows: list[list[str]], css: str = "") -> str:
     out = [f"<table{f' class={css!r}' if css else ''}><tr>" + "".join(f"<th>{escape(h)}</th>" for h in head) + "</tr>"]
     numeric = ["(" in h for h in head]  # columns with a unit hold numbers
     for row in rows:
-        out.append("<tr>" + "".join(f"<td{' class=n' if numeric[i] else ''}>{escape(c)}</td>" for i, c in enumerate(row))
-                   + "</tr>")
+        out.append(
+            "<tr>"
+            + "".join(f"<td{' class=n' if numeric[i] else ''}>{escape(c)}</td>" for i, c in enumerate(row))
+            + "</tr>"
+        )
     out.append("</table>")
     return "\n".join(out)
 
@@ -322,14 +367,24 @@ body.record th, body.record td { padding: .05em .4em; }
 
 
 def _geometry_words(geometry: dict[str, Any], arm: str) -> str:
-    return (f"{geometry['gear']}, datum {geometry['datum']} of the main wheels; D (datum to the main-wheel centreline) "
-            f"{fmt(geometry['main_distance'], arm)}, L (main wheels to the {'nose' if geometry['gear'] == 'nosewheel' else 'tail'}"
-            f" wheel) {fmt(geometry['wheelbase'], arm)}")
+    return (
+        f"{geometry['gear']}, datum {geometry['datum']} of the main wheels; D (datum to the main-wheel centreline) "
+        f"{fmt(geometry['main_distance'], arm)}, L (main wheels to the "
+        f"{'nose' if geometry['gear'] == 'nosewheel' else 'tail'}"
+        f" wheel) {fmt(geometry['wheelbase'], arm)}"
+    )
 
 
-def mechanic_sheet_html(result: Any, units: Any, *, extremes: Any = None, source: str | None = None,
-                        when: dt.datetime | None = None, comparison: list[Any] | None = None,
-                        left_out: str | None = None) -> str:
+def mechanic_sheet_html(
+    result: Any,
+    units: Any,
+    *,
+    extremes: Any = None,
+    source: str | None = None,
+    when: dt.datetime | None = None,
+    comparison: list[Any] | None = None,
+    left_out: str | None = None,
+) -> str:
     """A printable record of a weighing or an equipment change, for the mechanic to sign.
 
     Holds what the record rests on (weighing: date, who weighed, the gear and datum geometry,
@@ -362,19 +417,31 @@ def mechanic_sheet_html(result: Any, units: Any, *, extremes: Any = None, source
 
     meta = [("Aircraft", result.aircraft), ("Registration", result.registration or "")]
     if weighing:
-        meta += [("Weighed on", result.date or "not dated in the readings"),
-                 ("Weighed by", result.weighed_by or "not named in the readings")]
+        meta += [
+            ("Weighed on", result.date or "not dated in the readings"),
+            ("Weighed by", result.weighed_by or "not named in the readings"),
+        ]
         if result.note:
             meta.append(("Note", result.note if len(result.note) <= 300 else result.note[:300] + " [cut]"))
     else:
-        meta += [("Changes of", result.date or "not dated in the changes file"),
-                 ("Description", result.description or "none given"), ("Changes made by", result.by or "not named")]
+        meta += [
+            ("Changes of", result.date or "not dated in the changes file"),
+            ("Description", result.description or "none given"),
+            ("Changes made by", result.by or "not named"),
+        ]
     meta += [("Computed from", source or ""), ("Computed", when.strftime("%Y-%m-%d %H:%M %Z").strip())]
     parts = [
-        "<!DOCTYPE html>", '<html lang="en"><head><meta charset="utf-8">', f"<title>{escape(title)}</title>",
-        f"<style>{_STYLE}{_RECORD_STYLE}</style></head><body class='record'>", f"<h1>{escape(title)}</h1>",
-        "<table class='meta'>" + "".join(f"<tr><td>{escape(k)}</td><td id='meta-{escape(k.lower().replace(' ', '-'))}'>"
-                                         f"{escape(v)}</td></tr>" for k, v in meta) + "</table>",
+        "<!DOCTYPE html>",
+        '<html lang="en"><head><meta charset="utf-8">',
+        f"<title>{escape(title)}</title>",
+        f"<style>{_STYLE}{_RECORD_STYLE}</style></head><body class='record'>",
+        f"<h1>{escape(title)}</h1>",
+        "<table class='meta'>"
+        + "".join(
+            f"<tr><td>{escape(k)}</td><td id='meta-{escape(k.lower().replace(' ', '-'))}'>{escape(v)}</td></tr>"
+            for k, v in meta
+        )
+        + "</table>",
     ]
     if weighing:
         lateral = any(p.lateral_arm is not None for p in result.points)
@@ -383,23 +450,45 @@ def mechanic_sheet_html(result: Any, units: Any, *, extremes: Any = None, source
             parts.append(f"<p id='geometry'>Geometry: {escape(_geometry_words(result.geometry, a))}.</p>")
         head = ["Point", f"Reading ({m})", f"Tare ({m})", f"Net ({m})", f"Arm ({a})", f"Moment ({mo})"]
         head += [f"Lateral arm ({a}, + right)"] if lateral else []
-        parts.append(_table(head, [[p.label, n(p.reading, m), n(p.tare, m), n(p.net, m), n(p.arm, a), n(p.moment, mo)]
-                                   + ([n(p.lateral_arm, a)] if lateral else []) for p in result.points]))
+        parts.append(
+            _table(
+                head,
+                [
+                    [p.label, n(p.reading, m), n(p.tare, m), n(p.net, m), n(p.arm, a), n(p.moment, mo)]
+                    + ([n(p.lateral_arm, a)] if lateral else [])
+                    for p in result.points
+                ],
+            )
+        )
         if result.formula_cg is not None:
-            parts.append(f"<p>As-weighed CG by the FAA-H-8083-1 formula for this gear and datum: "
-                         f"{escape(fmt(result.formula_cg, a))}.</p>")
+            parts.append(
+                f"<p>As-weighed CG by the FAA-H-8083-1 formula for this gear and datum: "
+                f"{escape(fmt(result.formula_cg, a))}.</p>"
+            )
         if result.corrections:
             parts.append("<h2>Corrections</h2>")
-            parts.append(_table(["Item", "", f"Weight ({m})", f"Arm ({a})", f"Moment ({mo})"],
-                                [[c.label, c.action, n(c.weight, m), n(c.arm, a), n(c.moment, mo)] for c in result.corrections]))
+            parts.append(
+                _table(
+                    ["Item", "", f"Weight ({m})", f"Arm ({a})", f"Moment ({mo})"],
+                    [[c.label, c.action, n(c.weight, m), n(c.arm, a), n(c.moment, mo)] for c in result.corrections],
+                )
+            )
     else:
         parts.append("<h2>Changes</h2>")
-        parts.append(_table(["Action", "Item", f"Weight ({m})", f"Arm ({a})", f"New arm ({a})", f"Moment change ({mo})"],
-                            [[c.action, c.label, n(c.weight, m), n(c.arm, a), n(c.new_arm, a),
-                              n(c.moment_change, mo)] for c in result.lines]))
+        parts.append(
+            _table(
+                ["Action", "Item", f"Weight ({m})", f"Arm ({a})", f"New arm ({a})", f"Moment change ({mo})"],
+                [
+                    [c.action, c.label, n(c.weight, m), n(c.arm, a), n(c.new_arm, a), n(c.moment_change, mo)]
+                    for c in result.lines
+                ],
+            )
+        )
         verdict = {True: "negligible", False: "not negligible", None: "cannot be judged"}[result.negligible.overall]
-        parts.append(f"<p>AC 43.13-1B 10-2 c: the change is {escape(verdict)} ({escape(result.negligible.weight_threshold)}; "
-                     f"{escape(result.negligible.cg_threshold)}).</p>")
+        parts.append(
+            f"<p>AC 43.13-1B 10-2 c: the change is {escape(verdict)} ({escape(result.negligible.weight_threshold)}; "
+            f"{escape(result.negligible.cg_threshold)}).</p>"
+        )
 
     parts.append("<h2>Empty-weight record: previous and new</h2>")
     if comparison is not None:
@@ -415,9 +504,12 @@ def mechanic_sheet_html(result: Any, units: Any, *, extremes: Any = None, source
         head = ["", "Previous record", "New record", "Change"]
         if weighing:
             aw = result.as_weighed
-            as_weighed = {"empty weight": fmt(aw.weight, m), "empty-weight CG": fmt(aw.arm, a),
-                          "empty-weight moment": fmt(aw.moment, mo),
-                          "lateral CG (+ right)": "" if aw.lateral_arm is None else fmt(aw.lateral_arm, a)}
+            as_weighed = {
+                "empty weight": fmt(aw.weight, m),
+                "empty-weight CG": fmt(aw.arm, a),
+                "empty-weight moment": fmt(aw.moment, mo),
+                "lateral CG (+ right)": "" if aw.lateral_arm is None else fmt(aw.lateral_arm, a),
+            }
             head = ["", "Previous record", "As weighed", "New record", "Change"]
             rows = [[r[0], r[1], as_weighed.get(r[0], ""), r[2], r[3]] for r in rows]
         parts.append(_table(head, rows, "record-table"))
@@ -426,9 +518,11 @@ def mechanic_sheet_html(result: Any, units: Any, *, extremes: Any = None, source
         parts.append("<p id='cg-range'>Empty-weight CG range: not given in the aircraft file.</p>")
     else:
         inside = cg_range[0] <= result.new.arm <= cg_range[1]
-        parts.append(f"<p id='cg-range'>Empty-weight CG range: {escape(fmt(cg_range[0], a))} to {escape(fmt(cg_range[1], a))}; "
-                     f"the new CG {escape(fmt(result.new.arm, a))} is "
-                     f"{'within it' if inside else '<b>OUTSIDE IT</b>'}.</p>")
+        parts.append(
+            f"<p id='cg-range'>Empty-weight CG range: {escape(fmt(cg_range[0], a))} to {escape(fmt(cg_range[1], a))}; "
+            f"the new CG {escape(fmt(result.new.arm, a))} is "
+            f"{'within it' if inside else '<b>OUTSIDE IT</b>'}.</p>"
+        )
     for warning in getattr(result, "warnings", []):
         parts.append(f"<p class='limit'>WARNING: {escape(warning)}</p>")
     for refusal in getattr(result, "refusals", []):
@@ -442,13 +536,23 @@ def mechanic_sheet_html(result: Any, units: Any, *, extremes: Any = None, source
         summary = []
         for case in (extremes.forward, extremes.rearward):
             ramp = case.check.condition("ramp")
-            summary.append([f"Most {case.side}", n(ramp.weight, m), n(ramp.arm, a), n(case.limit_arm, a),
-                            "within limits" if case.ok else "NOT within limits"])
-        parts.append(_table(["Loading", f"Weight ({m})", f"CG ({a})", f"Sorted against ({a})", "Result"], summary,
-                            "extremes"))
+            summary.append(
+                [
+                    f"Most {case.side}",
+                    n(ramp.weight, m),
+                    n(ramp.arm, a),
+                    n(case.limit_arm, a),
+                    "within limits" if case.ok else "NOT within limits",
+                ]
+            )
+        parts.append(
+            _table(["Loading", f"Weight ({m})", f"CG ({a})", f"Sorted against ({a})", "Result"], summary, "extremes")
+        )
         states = [getattr(case, "fuel_states", None) for case in (extremes.forward, extremes.rearward)]
         if any(states):
-            parts.append(f"<p>Fuel states covered: {escape('; '.join(str(s) for s in dict.fromkeys(states) if s))}.</p>")
+            parts.append(
+                f"<p>Fuel states covered: {escape('; '.join(str(s) for s in dict.fromkeys(states) if s))}.</p>"
+            )
         names = list(dict.fromkeys(i.name for case in (extremes.forward, extremes.rearward) for i in case.check.items))
         by_side = [{i.name: i for i in case.check.items} for case in (extremes.forward, extremes.rearward)]
         rows = []
@@ -458,8 +562,9 @@ def mechanic_sheet_html(result: Any, units: Any, *, extremes: Any = None, source
                 item = side.get(name)
                 row += ["", ""] if item is None else [n(item.weight, m), n(item.arm, a)]
             rows.append(row)
-        parts.append(_table(["Item", f"Forward: weight ({m})", f"arm ({a})", f"Rearward: weight ({m})", f"arm ({a})"],
-                            rows))
+        parts.append(
+            _table(["Item", f"Forward: weight ({m})", f"arm ({a})", f"Rearward: weight ({m})", f"arm ({a})"], rows)
+        )
         for case in (extremes.forward, extremes.rearward):
             for finding in case.check.findings:
                 if finding.severity == "limit" and finding.condition in ("ramp", "takeoff", None):
@@ -471,13 +576,20 @@ def mechanic_sheet_html(result: Any, units: Any, *, extremes: Any = None, source
         "<td>Certificate number</td><td><span class='line'>&nbsp;</span></td></tr>",
         "<tr><td>Signature</td><td><span class='line'>&nbsp;</span></td>"
         "<td>Date</td><td><span class='line'>&nbsp;</span></td></tr>",
-        "</table>", "</body></html>",
+        "</table>",
+        "</body></html>",
     ]
     return "\n".join(parts)
 
 
-def trip_sheet_html(trip: Any, chart_svg: str | None = None, *, loading_label: str | None = None,
-                    when: dt.datetime | None = None, trip_loading: ResolvedTrip | None = None) -> str:
+def trip_sheet_html(
+    trip: Any,
+    chart_svg: str | None = None,
+    *,
+    loading_label: str | None = None,
+    when: dt.datetime | None = None,
+    trip_loading: ResolvedTrip | None = None,
+) -> str:
     """The load sheet of a trip: the trip's verdict naming each leg out of limits, then each
     leg's own load sheet section (:func:`load_sheet_html` of the leg's check), the chart
     with one path per leg, the caution and the signature block once.
@@ -491,24 +603,32 @@ def trip_sheet_html(trip: Any, chart_svg: str | None = None, *, loading_label: s
     when = when or dt.datetime.now().astimezone()
     page = load_sheet_html(trip.legs[0].check, None, loading_label=loading_label, when=when)
     head, _, rest = page.partition("<body>")
-    tail = rest[rest.index("<p class='caution'>"):]
-    title = rest[rest.index("<h1>") + 4:rest.index("</h1>")]
+    tail = rest[rest.index("<p class='caution'>") :]
+    title = rest[rest.index("<h1>") + 4 : rest.index("</h1>")]
     names = [f"Leg {leg.leg}" + (f" ({leg.label})" if leg.label else "") for leg in trip.legs]
     failed = [name for name, leg in zip(names, trip.legs, strict=True) if not leg.check.ok]
     verdict = "WITHIN LIMITS on every leg" if trip.ok else "OUT OF LIMITS on " + ", ".join(failed)
-    parts = [head + "<body>", f"<h1>{title}: a trip of {len(trip.legs)} legs</h1>",
-             f'<p class="verdict" id="trip-verdict">{escape(verdict)}</p>',
-             "<table><tr><th>Leg</th><th>Result</th></tr>"]
-    parts += [f"<tr><td>{escape(name)}</td><td>{'within limits' if leg.check.ok else 'OUT OF LIMITS'}</td></tr>"
-              for name, leg in zip(names, trip.legs, strict=True)]
+    parts = [
+        head + "<body>",
+        f"<h1>{title}: a trip of {len(trip.legs)} legs</h1>",
+        f'<p class="verdict" id="trip-verdict">{escape(verdict)}</p>',
+        "<table><tr><th>Leg</th><th>Result</th></tr>",
+    ]
+    parts += [
+        f"<tr><td>{escape(name)}</td><td>{'within limits' if leg.check.ok else 'OUT OF LIMITS'}</td></tr>"
+        for name, leg in zip(names, trip.legs, strict=True)
+    ]
     parts.append("</table>")
     resolved = list(trip_loading.legs) if trip_loading is not None else [None] * len(trip.legs)
     for name, leg, loading in zip(names, trip.legs, resolved, strict=True):
-        section = load_sheet_html(leg.check, None, loading_label=f"{loading_label or 'trip'}, {name.lower()}", when=when,
-                                  loading=loading)
-        body = section[section.index("<body>") + 6:section.index("<p class='caution'>")]
-        body = body[:body.index("<h1>")] + f"<h2 id='leg-{leg.leg}'>{escape(name)}</h2>" + body[body.index("</h1>") + 5:]
+        section = load_sheet_html(
+            leg.check, None, loading_label=f"{loading_label or 'trip'}, {name.lower()}", when=when, loading=loading
+        )
+        body = section[section.index("<body>") + 6 : section.index("<p class='caution'>")]
+        body = (
+            body[: body.index("<h1>")] + f"<h2 id='leg-{leg.leg}'>{escape(name)}</h2>" + body[body.index("</h1>") + 5 :]
+        )
         parts.append(f"<section class='leg'>{body}</section>")
     if chart_svg:
-        parts.append(f"<div class='chart'><h2>Envelope, every leg</h2>{chart_svg[chart_svg.find('<svg'):]}</div>")
+        parts.append(f"<div class='chart'><h2>Envelope, every leg</h2>{chart_svg[chart_svg.find('<svg') :]}</div>")
     return "\n".join(parts) + "\n" + tail

@@ -58,7 +58,13 @@ __all__ = [
 
 _NAMES = {"ramp": "Ramp", "takeoff": "Takeoff", "landing": "Landing", "zero_fuel": "Zero fuel"}
 _OK_STYLE, _LIMIT_STYLE, _WARN_STYLE = "bold green", "bold red", "bold yellow"
-_WEIGHT_CODES = ("max_ramp_weight", "max_takeoff_weight", "max_landing_weight", "max_zero_fuel_weight", "min_flight_weight")
+_WEIGHT_CODES = (
+    "max_ramp_weight",
+    "max_takeoff_weight",
+    "max_landing_weight",
+    "max_zero_fuel_weight",
+    "min_flight_weight",
+)
 
 Cell = str | Text
 
@@ -150,8 +156,13 @@ def fitted_tables(
             spare -= grow
         table = Table(title=title if number == 0 else f"{title} (continued)", title_justify="left")
         for j, w in zip(block, widths, strict=True):
-            table.add_column(columns[j].header, justify="right" if columns[j].numeric else "left", width=w,
-                             overflow="fold", no_wrap=False)
+            table.add_column(
+                columns[j].header,
+                justify="right" if columns[j].numeric else "left",
+                width=w,
+                overflow="fold",
+                no_wrap=False,
+            )
         for r, row in enumerate(rows):
             style = row_styles[r] if row_styles is not None else None
             table.add_row(*[row[j] for j in block], style=style)
@@ -203,8 +214,13 @@ def _listed(title: str, columns: Sequence[Column], body: Sequence[Sequence[Cell]
     return text
 
 
-def _print_table(console: Console, title: str, columns: Sequence[Column], rows: Sequence[Sequence[Cell]],
-                 total: Sequence[Cell] | None = None) -> None:
+def _print_table(
+    console: Console,
+    title: str,
+    columns: Sequence[Column],
+    rows: Sequence[Sequence[Cell]],
+    total: Sequence[Cell] | None = None,
+) -> None:
     for table in fitted_tables(console.width, title, columns, rows, total):
         console.print(table)
 
@@ -247,16 +263,24 @@ def _moment_table(result: CheckResult, console: Console, aircraft: Aircraft | No
     lateral = any(i.lateral_arm is not None for i in result.items)
     scaled = moment_axis(aircraft, result.category)
     moment = unit_label(units.moment)
-    columns = [Column("Item", numeric=False, key=True), Column(f"Weight ({units.mass})"), Column(f"Arm ({units.arm})"),
-               Column(f"Moment ({moment})")]
+    columns = [
+        Column("Item", numeric=False, key=True),
+        Column(f"Weight ({units.mass})"),
+        Column(f"Arm ({units.arm})"),
+        Column(f"Moment ({moment})"),
+    ]
     if scaled is not None:
         columns.append(Column(scaled_moment_header(scaled, units.moment)))
     if lateral:
         columns += [Column(f"Lateral arm ({units.arm})"), Column(f"Lateral moment ({moment})")]
 
     def cells(name: str, weight: float, arm: float, mom: float, lat: float | None, lat_mom: float | None) -> list[Cell]:
-        row: list[Cell] = [name, fmt(weight, units.mass, with_unit=False), fmt(arm, units.arm, with_unit=False),
-                           fmt(mom, units.moment, with_unit=False)]
+        row: list[Cell] = [
+            name,
+            fmt(weight, units.mass, with_unit=False),
+            fmt(arm, units.arm, with_unit=False),
+            fmt(mom, units.moment, with_unit=False),
+        ]
         if scaled is not None:
             row.append(fmt(scaled_moment(scaled, weight, mom), units.moment, with_unit=False, places=1))
         if lateral:
@@ -270,9 +294,14 @@ def _moment_table(result: CheckResult, console: Console, aircraft: Aircraft | No
     ramp = result.condition("ramp")
     total = cells("Total at ramp", ramp.weight, ramp.arm, ramp.moment, ramp.lateral_arm, ramp.lateral_moment)
     _print_table(console, "Moment table (engine start)", columns, rows, total)
-    console.print(Text("Each figure is rounded on its own; totals come from the unrounded figures, "
-                       "so a column may differ from its total in the last digit."
-                       + (" Lateral figures are + right of the centre line." if lateral else ""), style="dim"))
+    console.print(
+        Text(
+            "Each figure is rounded on its own; totals come from the unrounded figures, "
+            "so a column may differ from its total in the last digit."
+            + (" Lateral figures are + right of the centre line." if lateral else ""),
+            style="dim",
+        )
+    )
 
 
 def _margin(value: float | None, unit: str) -> str:
@@ -295,11 +324,15 @@ def _result_cell(c: Condition, result: CheckResult) -> Text:
     return Text(words, style={"ok": _OK_STYLE, "warning": _WARN_STYLE, "limit": _LIMIT_STYLE}[severity])
 
 
-MARGIN_NOTE = ("Margins: room left to each limit at that condition (below zero: exceeded), rounded down; an excess is "
-               "rounded up. The CG margins are measured along the CG axis at that weight; the weight margin is the room "
-               "to the maximum weight or to the envelope's top edge at that CG, whichever is lower.")
-EDGE_NOTE = ("(edge): the envelope's edge at that CG sets this margin; no maximum weight is exceeded (the CG findings "
-             "say what is).")
+MARGIN_NOTE = (
+    "Margins: room left to each limit at that condition (below zero: exceeded), rounded down; an excess is "
+    "rounded up. The CG margins are measured along the CG axis at that weight; the weight margin is the room "
+    "to the maximum weight or to the envelope's top edge at that CG, whichever is lower."
+)
+EDGE_NOTE = (
+    "(edge): the envelope's edge at that CG sets this margin; no maximum weight is exceeded (the CG findings "
+    "say what is)."
+)
 
 
 def weight_margin(c: Condition, result: CheckResult) -> tuple[str, bool]:
@@ -318,8 +351,12 @@ def _conditions_table(result: CheckResult, console: Console, aircraft: Aircraft 
     mac = any(c.mac_percent is not None for c in conditions)
     lateral = any(c.lateral_arm is not None for c in conditions)
     scaled = moment_axis(aircraft, result.category)
-    columns = [Column("Condition", numeric=False, key=True), Column(f"Fuel ({units.fuel_volume})"),
-               Column(f"Weight ({units.mass})"), Column(f"CG ({units.arm})")]
+    columns = [
+        Column("Condition", numeric=False, key=True),
+        Column(f"Fuel ({units.fuel_volume})"),
+        Column(f"Weight ({units.mass})"),
+        Column(f"CG ({units.arm})"),
+    ]
     if mac:
         columns.append(Column("CG (% MAC)"))
     if scaled is not None:
@@ -334,8 +371,12 @@ def _conditions_table(result: CheckResult, console: Console, aircraft: Aircraft 
     rows = []
     edge = False
     for c in conditions:
-        row: list[Cell] = [_NAMES[c.condition], fmt(c.fuel, units.fuel_volume, with_unit=False),
-                           fmt(c.weight, units.mass, with_unit=False), fmt(c.arm, units.arm, with_unit=False)]
+        row: list[Cell] = [
+            _NAMES[c.condition],
+            fmt(c.fuel, units.fuel_volume, with_unit=False),
+            fmt(c.weight, units.mass, with_unit=False),
+            fmt(c.arm, units.arm, with_unit=False),
+        ]
         if mac:
             row.append("" if c.mac_percent is None else fmt(c.mac_percent, "%MAC", with_unit=False))
         if scaled is not None:
@@ -368,10 +409,16 @@ def _findings(result: CheckResult, console: Console) -> None:
         console.print("No findings.")
         return
     console.print(Text("Findings", style="bold"))
-    _lines(console, [
-        (Text("LIMIT", style=_LIMIT_STYLE) if f.severity == "limit" else Text("WARNING", style=_WARN_STYLE), Text(f.message))
-        for f in result.findings
-    ])
+    _lines(
+        console,
+        [
+            (
+                Text("LIMIT", style=_LIMIT_STYLE) if f.severity == "limit" else Text("WARNING", style=_WARN_STYLE),
+                Text(f.message),
+            )
+            for f in result.findings
+        ],
+    )
 
 
 def _verdict(result: CheckResult) -> Text:
@@ -382,7 +429,9 @@ def _verdict(result: CheckResult) -> Text:
     return Text(f"OUT OF LIMITS: {count} {'limit' if count == 1 else 'limits'} exceeded.", style=_LIMIT_STYLE)
 
 
-def render_check(result: CheckResult, console: Console, plot: Sequence[str] = (), aircraft: Aircraft | None = None) -> None:
+def render_check(
+    result: CheckResult, console: Console, plot: Sequence[str] = (), aircraft: Aircraft | None = None
+) -> None:
     """Print a check: header, moment table, conditions, burn path, findings, verdict, the
     lines of a text plot if given, and last the caution.
 
@@ -415,19 +464,27 @@ def render_aircraft(aircraft: Aircraft, console: Console, caution: str, warnings
     empty = aircraft.empty
     limits = aircraft.limits
     console.print(Text(aircraft.name + (f" · {aircraft.registration}" if aircraft.registration else ""), style="bold"))
-    console.print(f"Units: mass {units.mass}, arm {units.arm} (aft of datum; lateral + right), fuel {units.fuel_volume}"
-                  f" · data {aircraft.fingerprint}", markup=False)
+    console.print(
+        f"Units: mass {units.mass}, arm {units.arm} (aft of datum; lateral + right), fuel {units.fuel_volume}"
+        f" · data {aircraft.fingerprint}",
+        markup=False,
+    )
     record: list[list[Cell]] = [
         ["Basic empty weight", fmt(empty.weight, units.mass)],
         ["Empty-weight CG", fmt(empty.arm, units.arm)],
     ]
     if empty.lateral_arm is not None:
         record.append(["Empty-weight lateral CG", fmt(empty.lateral_arm, units.arm)])
-    record += [["Empty-weight moment", fmt(empty.moment, units.moment)], ["Record dated", str(empty.date or "not dated")]]
+    record += [
+        ["Empty-weight moment", fmt(empty.moment, units.moment)],
+        ["Record dated", str(empty.date or "not dated")],
+    ]
     if empty.basis:
         record.append(["Basis", empty.basis])
     if empty.cg_range is not None:
-        record.append(["Empty-weight CG range", f"{fmt(empty.cg_range[0], units.arm)} to {fmt(empty.cg_range[1], units.arm)}"])
+        record.append(
+            ["Empty-weight CG range", f"{fmt(empty.cg_range[0], units.arm)} to {fmt(empty.cg_range[1], units.arm)}"]
+        )
     record += [
         ["Useful load (max takeoff less empty)", fmt(aircraft.useful_load, units.mass)],
         ["Max ramp weight", fmt(limits.ramp, units.mass)],
@@ -440,55 +497,114 @@ def render_aircraft(aircraft: Aircraft, console: Console, caution: str, warnings
         record.append(["Min flight weight", fmt(limits.min_flight_weight, units.mass)])
     record.append(["Zero-fuel CG", "a limit" if limits.zero_fuel_cg == "limit" else "checked as a warning"])
     if aircraft.mac:
-        record.append(["MAC", f"{fmt(aircraft.mac.length, units.arm)} from {fmt(aircraft.mac.leading_edge_arm, units.arm)}"])
-    _print_table(console, "Empty-weight record and limits", [Column("What", numeric=False, key=True),
-                                                            Column("Value", numeric=False)], record)
+        record.append(
+            ["MAC", f"{fmt(aircraft.mac.length, units.arm)} from {fmt(aircraft.mac.leading_edge_arm, units.arm)}"]
+        )
+    _print_table(
+        console,
+        "Empty-weight record and limits",
+        [Column("What", numeric=False, key=True), Column("Value", numeric=False)],
+        record,
+    )
     if warnings:
         _lines(console, [(Text("WARNING", style=_WARN_STYLE), Text(w)) for w in warnings])
 
     _print_table(
-        console, "Stations",
-        [Column("Id", numeric=False, key=True), Column("Label", numeric=False), Column("Kind", numeric=False),
-         Column(f"Arm ({units.arm})"), Column(f"Lateral arm ({units.arm})"), Column(f"Min ({units.mass})"),
-         Column(f"Max ({units.mass})")],
-        [[s.id, s.name, s.kind, fmt(s.arm, units.arm, with_unit=False),
-          "" if s.lateral_arm is None else fmt(s.lateral_arm, units.arm, with_unit=False),
-          "" if s.min_weight is None else fmt(s.min_weight, units.mass, with_unit=False),
-          "" if s.max_weight is None else fmt(s.max_weight, units.mass, with_unit=False)] for s in aircraft.station],
+        console,
+        "Stations",
+        [
+            Column("Id", numeric=False, key=True),
+            Column("Label", numeric=False),
+            Column("Kind", numeric=False),
+            Column(f"Arm ({units.arm})"),
+            Column(f"Lateral arm ({units.arm})"),
+            Column(f"Min ({units.mass})"),
+            Column(f"Max ({units.mass})"),
+        ],
+        [
+            [
+                s.id,
+                s.name,
+                s.kind,
+                fmt(s.arm, units.arm, with_unit=False),
+                "" if s.lateral_arm is None else fmt(s.lateral_arm, units.arm, with_unit=False),
+                "" if s.min_weight is None else fmt(s.min_weight, units.mass, with_unit=False),
+                "" if s.max_weight is None else fmt(s.max_weight, units.mass, with_unit=False),
+            ]
+            for s in aircraft.station
+        ],
     )
     if aircraft.station_group:
         _print_table(
-            console, "Station groups",
-            [Column("Label", numeric=False, key=True), Column("Stations", numeric=False), Column(f"Min ({units.mass})"),
-             Column(f"Max ({units.mass})")],
-            [[g.label, ", ".join(g.stations),
-              "" if g.min_weight is None else fmt(g.min_weight, units.mass, with_unit=False),
-              "" if g.max_weight is None else fmt(g.max_weight, units.mass, with_unit=False)] for g in aircraft.station_group],
+            console,
+            "Station groups",
+            [
+                Column("Label", numeric=False, key=True),
+                Column("Stations", numeric=False),
+                Column(f"Min ({units.mass})"),
+                Column(f"Max ({units.mass})"),
+            ],
+            [
+                [
+                    g.label,
+                    ", ".join(g.stations),
+                    "" if g.min_weight is None else fmt(g.min_weight, units.mass, with_unit=False),
+                    "" if g.max_weight is None else fmt(g.max_weight, units.mass, with_unit=False),
+                ]
+                for g in aircraft.station_group
+            ],
         )
     if aircraft.tank:
         rows: list[list[Cell]] = []
         for t in aircraft.tank:
-            arm = (fmt(t.arm_at(t.usable), units.arm, with_unit=False) if t.arm_table is None
-                   else "table:\n" + "\n".join(f"{q:g} -> {a:g}" for q, a in t.arm_table))
+            arm = (
+                fmt(t.arm_at(t.usable), units.arm, with_unit=False)
+                if t.arm_table is None
+                else "table:\n" + "\n".join(f"{q:g} -> {a:g}" for q, a in t.arm_table)
+            )
             density = f"{aircraft.density(t):.3g} {units.mass}/{units.fuel_volume}"
-            rows.append([t.id, t.name, arm, fmt(t.usable, units.fuel_volume, with_unit=False),
-                         fmt(aircraft.usable_fuel_weight(t), units.mass, with_unit=False),
-                         f"{t.fuel}\n{density}" if t.fuel else density,
-                         "\n".join(f"{k} {v:g}" for k, v in t.levels.items())])
+            rows.append(
+                [
+                    t.id,
+                    t.name,
+                    arm,
+                    fmt(t.usable, units.fuel_volume, with_unit=False),
+                    fmt(aircraft.usable_fuel_weight(t), units.mass, with_unit=False),
+                    f"{t.fuel}\n{density}" if t.fuel else density,
+                    "\n".join(f"{k} {v:g}" for k, v in t.levels.items()),
+                ]
+            )
         _print_table(
-            console, "Fuel tanks",
-            [Column("Id", numeric=False, key=True), Column("Label", numeric=False), Column(f"Arm ({units.arm})"),
-             Column(f"Usable ({units.fuel_volume})"), Column(f"Usable ({units.mass})"), Column("Fuel and density"),
-             Column("Levels")],
+            console,
+            "Fuel tanks",
+            [
+                Column("Id", numeric=False, key=True),
+                Column("Label", numeric=False),
+                Column(f"Arm ({units.arm})"),
+                Column(f"Usable ({units.fuel_volume})"),
+                Column(f"Usable ({units.mass})"),
+                Column("Fuel and density"),
+                Column("Levels"),
+            ],
             rows,
         )
     envelopes: list[list[Cell]] = []
     for e in aircraft.envelope:
-        axes = ", ".join(e.axes) + (f" (moment / {e.moment_scale:g})" if "moment" in e.axes and e.moment_scale != 1 else "")
+        axes = ", ".join(e.axes) + (
+            f" (moment / {e.moment_scale:g})" if "moment" in e.axes and e.moment_scale != 1 else ""
+        )
         envelopes.append([e.category, e.label or "", axes, "\n".join(f"({x:g}, {y:g})" for x, y in e.points)])
-    _print_table(console, "CG envelopes (the first category is the default)",
-                 [Column("Category", numeric=False, key=True), Column("Label", numeric=False),
-                  Column("Axes (x, y)", numeric=False), Column("Corners")], envelopes)
+    _print_table(
+        console,
+        "CG envelopes (the first category is the default)",
+        [
+            Column("Category", numeric=False, key=True),
+            Column("Label", numeric=False),
+            Column("Axes (x, y)", numeric=False),
+            Column("Corners"),
+        ],
+        envelopes,
+    )
     console.print(caution_text(caution))
 
 
@@ -507,12 +623,18 @@ def render_plan(result: PlanResult, console: Console) -> None:
     if len(result.intervals) > 1:
         console.print("The values within limits form more than one stretch:", markup=False)
     if result.intervals:
-        _print_table(console, f"{result.variable} within limits ({result.unit})",
-                     [Column("within limits")], [[stretch_text(i.low, i.high, result.unit)] for i in result.intervals])
+        _print_table(
+            console,
+            f"{result.variable} within limits ({result.unit})",
+            [Column("within limits")],
+            [[stretch_text(i.low, i.high, result.unit)] for i in result.intervals],
+        )
         console.print(Text("Stretches are rounded inward: the ends shown are within limits.", style="dim"))
     if result.check is not None:
         _conditions_table(result.check, console)
-        verdict = "The loading at this answer is within limits." if result.check.ok else "The loading is NOT within limits:"
+        verdict = (
+            "The loading at this answer is within limits." if result.check.ok else "The loading is NOT within limits:"
+        )
         console.print(Text(verdict, style=_OK_STYLE if result.check.ok else _LIMIT_STYLE))
         limits = [f for f in result.check.findings if f.severity == "limit"]
         if limits:
@@ -528,9 +650,16 @@ def render_table(aircraft: Aircraft, rows: list[TableRow], station: str, console
         most = "none" if row.most is None else fmt(row.most, units.fuel_volume, "down", with_unit=False)
         stretches = "\n".join(stretch_text(i.low, i.high, units.fuel_volume) for i in row.intervals) or "none"
         cells.append([fmt(row.payload, units.mass, with_unit=False), most, stretches])
-    _print_table(console, f"Ramp fuel within limits against weight added at {station}",
-                 [Column(f"Added at {station} ({units.mass})", key=True), Column(f"Most ramp fuel ({units.fuel_volume})"),
-                  Column(f"Ramp fuel within limits ({units.fuel_volume})")], cells)
+    _print_table(
+        console,
+        f"Ramp fuel within limits against weight added at {station}",
+        [
+            Column(f"Added at {station} ({units.mass})", key=True),
+            Column(f"Most ramp fuel ({units.fuel_volume})"),
+            Column(f"Ramp fuel within limits ({units.fuel_volume})"),
+        ],
+        cells,
+    )
     from ..caution import PILOT_CAUTION
 
     console.print(caution_text(PILOT_CAUTION))
@@ -540,11 +669,25 @@ def render_table(aircraft: Aircraft, rows: list[TableRow], station: str, console
 
 
 def _record_table(title: str, rows: list[tuple[str, Any]], units: Any, console: Console) -> None:
-    _print_table(console, title,
-                 [Column("", numeric=False, key=True), Column(f"Weight ({units.mass})"), Column(f"Arm ({units.arm})"),
-                  Column(f"Moment ({unit_label(units.moment)})")],
-                 [[name, fmt(r.weight, units.mass, with_unit=False), fmt(r.arm, units.arm, with_unit=False),
-                   fmt(r.moment, units.moment, with_unit=False)] for name, r in rows])
+    _print_table(
+        console,
+        title,
+        [
+            Column("", numeric=False, key=True),
+            Column(f"Weight ({units.mass})"),
+            Column(f"Arm ({units.arm})"),
+            Column(f"Moment ({unit_label(units.moment)})"),
+        ],
+        [
+            [
+                name,
+                fmt(r.weight, units.mass, with_unit=False),
+                fmt(r.arm, units.arm, with_unit=False),
+                fmt(r.moment, units.moment, with_unit=False),
+            ]
+            for name, r in rows
+        ],
+    )
 
 
 def render_history(listing: Any, console: Console) -> None:
@@ -553,13 +696,33 @@ def render_history(listing: Any, console: Console) -> None:
     rows = []
     for row in listing.records:
         why = row.reason + (f": {row.note}" if row.note else "") + (" (OVERRIDE)" if row.overrides else "")
-        rows.append([row.replaced, why, fmt(row.weight, units["mass"], with_unit=False),
-                     fmt(row.arm, units["arm"], with_unit=False), row.date, row.by or ""])
-    _print_table(console, f"Empty-weight records of {listing.aircraft}",
-                 [Column("Replaced", key=True), Column("Why", numeric=False), Column(f"Weight ({units['mass']})"),
-                  Column(f"Arm ({units['arm']})"), Column("Record of"), Column("By", numeric=False)], rows)
+        rows.append(
+            [
+                row.replaced,
+                why,
+                fmt(row.weight, units["mass"], with_unit=False),
+                fmt(row.arm, units["arm"], with_unit=False),
+                row.date,
+                row.by or "",
+            ]
+        )
+    _print_table(
+        console,
+        f"Empty-weight records of {listing.aircraft}",
+        [
+            Column("Replaced", key=True),
+            Column("Why", numeric=False),
+            Column(f"Weight ({units['mass']})"),
+            Column(f"Arm ({units['arm']})"),
+            Column("Record of"),
+            Column("By", numeric=False),
+        ],
+        rows,
+    )
     if listing.cg_range is not None:
-        console.print(f"Empty-weight CG range: {listing.cg_range[0]:g} to {listing.cg_range[1]:g} {units['arm']}", markup=False)
+        console.print(
+            f"Empty-weight CG range: {listing.cg_range[0]:g} to {listing.cg_range[1]:g} {units['arm']}", markup=False
+        )
     for row in listing.records:
         for override in row.overrides:
             console.print(f"OVERRIDE when {row.replaced}: {override}", markup=False)
@@ -569,10 +732,19 @@ def render_history(listing: Any, console: Console) -> None:
 
 def render_comparison(rows: list[Any], console: Console) -> None:
     """Print the current and the new record side by side (before confirming a write)."""
-    cells = [[row.quantity, *(c if isinstance(c, str) else ("" if c is None else fmt(c, row.unit)) for c in (row.current, row.new))]
-             for row in rows]
-    _print_table(console, "Current and new empty-weight record",
-                 [Column("", numeric=False, key=True), Column("Current"), Column("New")], cells)
+    cells = [
+        [
+            row.quantity,
+            *(c if isinstance(c, str) else ("" if c is None else fmt(c, row.unit)) for c in (row.current, row.new)),
+        ]
+        for row in rows
+    ]
+    _print_table(
+        console,
+        "Current and new empty-weight record",
+        [Column("", numeric=False, key=True), Column("Current"), Column("New")],
+        cells,
+    )
 
 
 def _warnings_and_refusals(result: Any, console: Console) -> None:
@@ -586,25 +758,68 @@ def _warnings_and_refusals(result: Any, console: Console) -> None:
 
 def render_weighing(result: Any, units: Any, console: Console) -> None:
     """Print a weighing: points, as-weighed, corrections, new record, change."""
-    console.print(Text(f"Weighing of {result.aircraft}" + (f" · {result.registration}" if result.registration else ""),
-                       style="bold"))
+    console.print(
+        Text(
+            f"Weighing of {result.aircraft}" + (f" · {result.registration}" if result.registration else ""),
+            style="bold",
+        )
+    )
     moment = unit_label(units.moment)
-    _print_table(console, "Weighing points",
-                 [Column("Point", numeric=False, key=True), Column(f"Reading ({units.mass})"), Column(f"Tare ({units.mass})"),
-                  Column(f"Net ({units.mass})"), Column(f"Arm ({units.arm})"), Column(f"Moment ({moment})")],
-                 [[p.label, fmt(p.reading, units.mass, with_unit=False), fmt(p.tare, units.mass, with_unit=False),
-                   fmt(p.net, units.mass, with_unit=False), fmt(p.arm, units.arm, with_unit=False),
-                   fmt(p.moment, units.moment, with_unit=False)] for p in result.points])
+    _print_table(
+        console,
+        "Weighing points",
+        [
+            Column("Point", numeric=False, key=True),
+            Column(f"Reading ({units.mass})"),
+            Column(f"Tare ({units.mass})"),
+            Column(f"Net ({units.mass})"),
+            Column(f"Arm ({units.arm})"),
+            Column(f"Moment ({moment})"),
+        ],
+        [
+            [
+                p.label,
+                fmt(p.reading, units.mass, with_unit=False),
+                fmt(p.tare, units.mass, with_unit=False),
+                fmt(p.net, units.mass, with_unit=False),
+                fmt(p.arm, units.arm, with_unit=False),
+                fmt(p.moment, units.moment, with_unit=False),
+            ]
+            for p in result.points
+        ],
+    )
     if result.formula_cg is not None:
-        console.print(f"As-weighed CG by the FAA-H-8083-1 formula for this gear and datum: {fmt(result.formula_cg, units.arm)}",
-                      markup=False)
+        console.print(
+            f"As-weighed CG by the FAA-H-8083-1 formula for this gear and datum: {fmt(result.formula_cg, units.arm)}",
+            markup=False,
+        )
     if result.corrections:
-        _print_table(console, "Corrections to the as-weighed aircraft",
-                     [Column("Item", numeric=False, key=True), Column("", numeric=False), Column(f"Weight ({units.mass})"),
-                      Column(f"Arm ({units.arm})"), Column(f"Moment ({moment})")],
-                     [[c.label, c.action, fmt(c.weight, units.mass, with_unit=False), fmt(c.arm, units.arm, with_unit=False),
-                       fmt(c.moment, units.moment, with_unit=False)] for c in result.corrections])
-    rows = [("As weighed", result.as_weighed), ("New basic empty weight", result.new), ("Current record", result.previous)]
+        _print_table(
+            console,
+            "Corrections to the as-weighed aircraft",
+            [
+                Column("Item", numeric=False, key=True),
+                Column("", numeric=False),
+                Column(f"Weight ({units.mass})"),
+                Column(f"Arm ({units.arm})"),
+                Column(f"Moment ({moment})"),
+            ],
+            [
+                [
+                    c.label,
+                    c.action,
+                    fmt(c.weight, units.mass, with_unit=False),
+                    fmt(c.arm, units.arm, with_unit=False),
+                    fmt(c.moment, units.moment, with_unit=False),
+                ]
+                for c in result.corrections
+            ],
+        )
+    rows = [
+        ("As weighed", result.as_weighed),
+        ("New basic empty weight", result.new),
+        ("Current record", result.previous),
+    ]
     _record_table("Empty-weight record", rows, units, console)
     _changes_line(result, units, console)
     _warnings_and_refusals(result, console)
@@ -613,7 +828,8 @@ def render_weighing(result: Any, units: Any, console: Console) -> None:
 
 def _changes_line(result: Any, units: Any, console: Console) -> None:
     console.print(
-        f"Change from the current record: weight {fmt(result.change_weight, units.mass)}, CG {fmt(result.change_arm, units.arm)}; "
+        f"Change from the current record: weight {fmt(result.change_weight, units.mass)}, CG "
+        f"{fmt(result.change_arm, units.arm)}; "
         f"useful load {fmt(result.useful_load, units.mass)} ({fmt(result.change_useful_load, units.mass)})",
         markup=False,
     )
@@ -621,24 +837,50 @@ def _changes_line(result: Any, units: Any, console: Console) -> None:
 
 def render_alteration(result: Any, units: Any, console: Console) -> None:
     """Print equipment changes: each change's moment, the new record, negligibility."""
-    console.print(Text(f"Equipment changes to {result.aircraft}" + (f" · {result.registration}" if result.registration else ""),
-                       style="bold"))
+    console.print(
+        Text(
+            f"Equipment changes to {result.aircraft}" + (f" · {result.registration}" if result.registration else ""),
+            style="bold",
+        )
+    )
     moment = unit_label(units.moment)
-    _print_table(console, "Changes",
-                 [Column("Action", numeric=False), Column("Item", numeric=False, key=True), Column(f"Weight ({units.mass})"),
-                  Column(f"Arm ({units.arm})"), Column(f"New arm ({units.arm})"), Column(f"Weight change ({units.mass})"),
-                  Column(f"Moment change ({moment})")],
-                 [[line.action, line.label, fmt(line.weight, units.mass, with_unit=False), fmt(line.arm, units.arm, with_unit=False),
-                   "" if line.new_arm is None else fmt(line.new_arm, units.arm, with_unit=False),
-                   fmt(line.weight_change, units.mass, with_unit=False), fmt(line.moment_change, units.moment, with_unit=False)]
-                  for line in result.lines])
-    _record_table("Empty-weight record", [("Current record", result.previous), ("After the changes", result.new)], units, console)
+    _print_table(
+        console,
+        "Changes",
+        [
+            Column("Action", numeric=False),
+            Column("Item", numeric=False, key=True),
+            Column(f"Weight ({units.mass})"),
+            Column(f"Arm ({units.arm})"),
+            Column(f"New arm ({units.arm})"),
+            Column(f"Weight change ({units.mass})"),
+            Column(f"Moment change ({moment})"),
+        ],
+        [
+            [
+                line.action,
+                line.label,
+                fmt(line.weight, units.mass, with_unit=False),
+                fmt(line.arm, units.arm, with_unit=False),
+                "" if line.new_arm is None else fmt(line.new_arm, units.arm, with_unit=False),
+                fmt(line.weight_change, units.mass, with_unit=False),
+                fmt(line.moment_change, units.moment, with_unit=False),
+            ]
+            for line in result.lines
+        ],
+    )
+    _record_table(
+        "Empty-weight record", [("Current record", result.previous), ("After the changes", result.new)], units, console
+    )
     _changes_line(result, units, console)
     n = result.negligible
     verdict = {True: "negligible", False: "not negligible", None: "cannot be judged"}[n.overall]
-    console.print(f"AC 43.13-1B 10-2 c: the change is {verdict} (weight: {'yes' if n.weight else 'no'}, "
-                  f"{n.weight_threshold}; CG: {'cannot be judged' if n.cg is None else ('yes' if n.cg else 'no')}, {n.cg_threshold})",
-                  markup=False)
+    console.print(
+        f"AC 43.13-1B 10-2 c: the change is {verdict} (weight: {'yes' if n.weight else 'no'}, "
+        f"{n.weight_threshold}; CG: {'cannot be judged' if n.cg is None else ('yes' if n.cg else 'no')}, "
+        f"{n.cg_threshold})",
+        markup=False,
+    )
     _warnings_and_refusals(result, console)
     console.print(caution_text(result.caution))
 
@@ -647,8 +889,13 @@ def render_extremes(result: Any, console: Console) -> None:
     """Print the forward and rearward extreme loadings, each with its moment table, fuel range and verdict."""
     console.print(Text(f"Weight and balance extremes of {result.aircraft} ({result.category} category)", style="bold"))
     for case in (result.forward, result.rearward):
-        console.print(Text(f"Most {case.side} loading (sorted against the {case.side} limit "
-                           f"{fmt(case.limit_arm, case.check.units.arm)})", style="bold"))
+        console.print(
+            Text(
+                f"Most {case.side} loading (sorted against the {case.side} limit "
+                f"{fmt(case.limit_arm, case.check.units.arm)})",
+                style="bold",
+            )
+        )
         for note in case.notes:
             console.print(f"  {note}", markup=False)
         console.print(f"  fuel states checked: {case.fuel_states}", markup=False)
@@ -656,8 +903,13 @@ def render_extremes(result: Any, console: Console) -> None:
         _conditions_table(case.check, console)
         ramp = case.check.condition("ramp")
         words = "within limits" if case.ok else "NOT within limits"
-        console.print(Text(f"{case.side} extreme: {fmt(ramp.weight, case.check.units.mass)} at CG "
-                           f"{fmt(ramp.arm, case.check.units.arm)}: {words}", style=_OK_STYLE if case.ok else _LIMIT_STYLE))
+        console.print(
+            Text(
+                f"{case.side} extreme: {fmt(ramp.weight, case.check.units.mass)} at CG "
+                f"{fmt(ramp.arm, case.check.units.arm)}: {words}",
+                style=_OK_STYLE if case.ok else _LIMIT_STYLE,
+            )
+        )
         limits = [f for f in case.check.findings if f.severity == "limit"]
         if limits:
             _lines(console, [(Text("  LIMIT", style=_LIMIT_STYLE), Text(f.message)) for f in limits])
@@ -673,14 +925,21 @@ def render_schedule(result: Any, aircraft: Aircraft, console: Console) -> None:
             console.print(f"  {note}", markup=False)
         seats = ", ".join(f"{aircraft.station_by_id[s].name}: {n}" for s, n in case.occupants.items()) or "none"
         console.print(f"  occupants: {seats}", markup=False)
-        other = [f"{aircraft.station_by_id[s].name} {fmt(w, units.mass, 'down')}" for s, w in case.load.items()
-                 if aircraft.station_by_id[s].kind != "seat" and w > 0]
+        other = [
+            f"{aircraft.station_by_id[s].name} {fmt(w, units.mass, 'down')}"
+            for s, w in case.load.items()
+            if aircraft.station_by_id[s].kind != "seat" and w > 0
+        ]
         console.print(f"  baggage, cargo and fixed items: {', '.join(other) or 'none'}", markup=False)
-        fuel = ", ".join(f"{aircraft.tank_by_id[t].name} {fmt(q, units.fuel_volume, 'down')}" for t, q in case.fuel.items())
+        fuel = ", ".join(
+            f"{aircraft.tank_by_id[t].name} {fmt(q, units.fuel_volume, 'down')}" for t, q in case.fuel.items()
+        )
         console.print(f"  fuel: {fuel or 'none'}", markup=False)
         console.print(f"  fuel states checked: {case.fuel_states}", markup=False)
         _conditions_table(case.check, console, aircraft)
-        console.print(Text("  within limits" if case.ok else "  NOT within limits", style=_OK_STYLE if case.ok else _LIMIT_STYLE))
+        console.print(
+            Text("  within limits" if case.ok else "  NOT within limits", style=_OK_STYLE if case.ok else _LIMIT_STYLE)
+        )
         limits = [f for f in case.check.findings if f.severity == "limit"]
         if limits:
             _lines(console, [(Text("  LIMIT", style=_LIMIT_STYLE), Text(f.message)) for f in limits])
@@ -695,11 +954,14 @@ def _flight_result(result: dict[str, Any]) -> tuple[Text, str]:
     limits = [f["message"] for f in result["findings"] if f["severity"] == "limit"]
     warnings = [f["message"] for f in result["findings"] if f["severity"] == "warning"]
     if limits:
-        return Text("OUT", style=_LIMIT_STYLE), limits[0] + (f" (and {len(limits) - 1} more)" if len(limits) > 1 else "")
+        return Text("OUT", style=_LIMIT_STYLE), limits[0] + (
+            f" (and {len(limits) - 1} more)" if len(limits) > 1 else ""
+        )
     if warnings:
         count = f"{len(warnings)} {'warning' if len(warnings) == 1 else 'warnings'}"
         return Text(f"within, {count}", style=_WARN_STYLE), "WARNING: " + warnings[0] + (
-            f" (and {len(warnings) - 1} more)" if len(warnings) > 1 else "")
+            f" (and {len(warnings) - 1} more)" if len(warnings) > 1 else ""
+        )
     return Text("within", style=_OK_STYLE), ""
 
 
@@ -718,8 +980,16 @@ def render_fleet(flights: list[Any], console: Console) -> None:
         if flight.result is None:
             verdict = Text("INPUT ERROR", style=_WARN_STYLE)
             lines = f"{row.lines[0]}-{row.lines[-1]}" if len(row.lines) > 1 else str(row.line)  # a trip's rows
-            rows.append([lines, row.registration or "", verdict + Text("\n" + "\n".join(flight.problems)),
-                         row.reference or "", "", ""])
+            rows.append(
+                [
+                    lines,
+                    row.registration or "",
+                    verdict + Text("\n" + "\n".join(flight.problems)),
+                    row.reference or "",
+                    "",
+                    "",
+                ]
+            )
             continue
         result = flight.result
         if "legs" in result:  # a trip: its verdict, then a line for each leg (loadcheck.render.trip)
@@ -733,27 +1003,46 @@ def render_fleet(flights: list[Any], console: Console) -> None:
         takeoff, landing = conditions["takeoff"], conditions["landing"]
         verdict, first = _flight_result(result)
         warned += bool(result["ok"]) and verdict.plain != "within"
-        rows.append([
-            str(row.line), row.registration or "", verdict + Text(f"\n{first}" if first else ""), row.reference or "",
-            f"{fmt(takeoff['weight'], units['mass'])}\n{fmt(takeoff['arm'], units['arm'])}",
-            f"{fmt(landing['weight'], units['mass'])}\n{fmt(landing['arm'], units['arm'])}",
-        ])
-    columns = [Column("Line", key=True), Column("Aircraft", numeric=False, key=True),
-               Column("Result and first finding", numeric=False), Column("Reference", numeric=False),
-               Column("Takeoff weight, CG"), Column("Landing weight, CG")]
+        rows.append(
+            [
+                str(row.line),
+                row.registration or "",
+                verdict + Text(f"\n{first}" if first else ""),
+                row.reference or "",
+                f"{fmt(takeoff['weight'], units['mass'])}\n{fmt(takeoff['arm'], units['arm'])}",
+                f"{fmt(landing['weight'], units['mass'])}\n{fmt(landing['arm'], units['arm'])}",
+            ]
+        )
+    columns = [
+        Column("Line", key=True),
+        Column("Aircraft", numeric=False, key=True),
+        Column("Result and first finding", numeric=False),
+        Column("Reference", numeric=False),
+        Column("Takeoff weight, CG"),
+        Column("Landing weight, CG"),
+    ]
     from .listing import plain_listing, use_plain
 
     if use_plain(len(rows)):  # a long day: plain aligned text, quick at any length, nothing cut
-        plain_listing(console.file, "Flights", [c.header for c in columns], [[_plain(c) for c in r] for r in rows],
-                      right=(0,), width=console.width)
+        plain_listing(
+            console.file,
+            "Flights",
+            [c.header for c in columns],
+            [[_plain(c) for c in r] for r in rows],
+            right=(0,),
+            width=console.width,
+        )
     else:
         _print_table(console, "Flights", columns, rows)
     out = sum(1 for f in flights if f.result is not None and not f.ok)
     bad = sum(1 for f in flights if f.result is None)
     within = len(flights) - out - bad
-    console.print(f"{len(flights)} {'flight' if len(flights) == 1 else 'flights'}: {within} within limits"
-                  + (f" ({warned} with warnings)" if warned else "")
-                  + f", {out} out of limits, {bad} could not be used.", markup=False)
+    console.print(
+        f"{len(flights)} {'flight' if len(flights) == 1 else 'flights'}: {within} within limits"
+        + (f" ({warned} with warnings)" if warned else "")
+        + f", {out} out of limits, {bad} could not be used.",
+        markup=False,
+    )
     from ..caution import PILOT_CAUTION
 
     console.print(caution_text(PILOT_CAUTION))
@@ -766,14 +1055,29 @@ def render_fleet_list(lines: list[Any], folder: Any, console: Console) -> None:
     rows: list[list[Cell]] = []
     for line in lines:
         unit = line.mass_unit or ""
-        rows.append([
-            line.registration or "?", line.name or line.file,
-            fmt(line.empty_weight, unit) if line.empty_weight is not None else "",
-            line.record_date or "", fmt(line.useful_load, unit) if line.useful_load is not None else "",
-            line.fingerprint or "", Text("\n".join(line.problems), style=_WARN_STYLE) if line.problems else "none",
-        ])
-    _print_table(console, f"Fleet in {folder}",
-                 [Column("Registration", numeric=False, key=True), Column("Aircraft", numeric=False),
-                  Column("Empty weight"), Column("Record of"), Column("Useful load"), Column("Data"),
-                  Column("Problems", numeric=False)], rows)
+        rows.append(
+            [
+                line.registration or "?",
+                line.name or line.file,
+                fmt(line.empty_weight, unit) if line.empty_weight is not None else "",
+                line.record_date or "",
+                fmt(line.useful_load, unit) if line.useful_load is not None else "",
+                line.fingerprint or "",
+                Text("\n".join(line.problems), style=_WARN_STYLE) if line.problems else "none",
+            ]
+        )
+    _print_table(
+        console,
+        f"Fleet in {folder}",
+        [
+            Column("Registration", numeric=False, key=True),
+            Column("Aircraft", numeric=False),
+            Column("Empty weight"),
+            Column("Record of"),
+            Column("Useful load"),
+            Column("Data"),
+            Column("Problems", numeric=False),
+        ],
+        rows,
+    )
     console.print(caution_text(PILOT_CAUTION))

@@ -77,9 +77,14 @@ def _panel(envelope: Envelope, result: CheckResult, width: int, height: int, lin
         put(*_xy(envelope, leave.weight, leave.arm, leave.lateral_arm), "X")
     for name, (x, y) in points.items():
         put(x, y, _MARKS[name])
-    x_name, y_name = (f"moment / {envelope.moment_scale:g}" if axis == "moment" and envelope.moment_scale != 1 else axis
-                      for axis in envelope.axes)
-    title = f"{envelope.label or ('lateral' if envelope.is_lateral else 'longitudinal')} envelope: {y_name} (up) against {x_name} (across)"
+    x_name, y_name = (
+        f"moment / {envelope.moment_scale:g}" if axis == "moment" and envelope.moment_scale != 1 else axis
+        for axis in envelope.axes
+    )
+    title = (
+        f"{envelope.label or ('lateral' if envelope.is_lateral else 'longitudinal')} envelope: {y_name} "
+        f"(up) against {x_name} (across)"
+    )
     rows = textwrap.wrap(title, line_width)
     rows.append(f"{y1:>10.4g} +" + "-" * width + "+")
     rows += [" " * 11 + "|" + "".join(r) + "|" for r in grid]

@@ -44,8 +44,10 @@ def trip_verdict(result: TripResult) -> str:
     """The trip's verdict in words, naming every leg out of limits."""
     if result.ok:
         return f"WITHIN LIMITS on every leg ({len(result.legs)} legs): every condition, burn path and limit holds."
-    failed = "; ".join(f"{_leg_title(leg).lower()}: {count(len(leg.check.limits_exceeded), 'limit')} exceeded"
-                       for leg in result.failed_legs)
+    failed = "; ".join(
+        f"{_leg_title(leg).lower()}: {count(len(leg.check.limits_exceeded), 'limit')} exceeded"
+        for leg in result.failed_legs
+    )
     return f"OUT OF LIMITS on {failed}."
 
 
@@ -66,14 +68,24 @@ def render_trip(result: TripResult, console: Console, plots: Sequence[Sequence[s
         state = "within limits" if check.ok else "OUT OF LIMITS"
         console.print(Text(f"{_leg_title(leg)}: {state}", style=_OK_STYLE if check.ok else _LIMIT_STYLE))
         ramp, landing = check.condition("ramp"), check.condition("landing")
-        console.print(f"fuel at engine start {fmt(ramp.fuel, units.fuel_volume)}, at landing "
-                      f"{fmt(landing.fuel, units.fuel_volume)}", markup=False)
+        console.print(
+            f"fuel at engine start {fmt(ramp.fuel, units.fuel_volume)}, at landing "
+            f"{fmt(landing.fuel, units.fuel_volume)}",
+            markup=False,
+        )
         _moment_table(check, console)
         _conditions_table(check, console)
         console.print(_burn_line(check))
-        tagged = [(Text("LIMIT" if f.severity == "limit" else "WARNING",
-                        style=_LIMIT_STYLE if f.severity == "limit" else _WARN_STYLE),
-                   Text(f"{_leg_title(leg).lower()}: {f.message}")) for f in check.findings]
+        tagged = [
+            (
+                Text(
+                    "LIMIT" if f.severity == "limit" else "WARNING",
+                    style=_LIMIT_STYLE if f.severity == "limit" else _WARN_STYLE,
+                ),
+                Text(f"{_leg_title(leg).lower()}: {f.message}"),
+            )
+            for f in check.findings
+        ]
         if tagged:
             _lines(console, tagged)
         if index < len(plots):
@@ -94,8 +106,12 @@ def render_trip_plan(plan: TripPlan, console: Console) -> None:
     if "least" in plan.extra:
         console.print(f"least that keeps every leg within limits: {plan.extra['least']}", markup=False)
     if plan.intervals:
-        _print_table(console, f"{plan.variable} within limits ({plan.unit})", [Column("within limits")],
-                     [[stretch_text(i.low, i.high, plan.unit)] for i in plan.intervals])
+        _print_table(
+            console,
+            f"{plan.variable} within limits ({plan.unit})",
+            [Column("within limits")],
+            [[stretch_text(i.low, i.high, plan.unit)] for i in plan.intervals],
+        )
         console.print(Text("Stretches are rounded inward: the ends shown are within limits.", style="dim"))
     if plan.trip is not None:
         for leg in plan.trip.legs:
@@ -119,20 +135,30 @@ def fleet_trip_rows(flight: Any) -> list[list[str | Text]]:
     lines = row.lines or (row.line,)
     verdict, first = _flight_result(result)
     trip = f"trip {row.trip}, " if row.trip else ""
-    rows: list[list[str | Text]] = [[
-        f"{lines[0]}-{lines[-1]}" if len(lines) > 1 else str(lines[0]), row.registration or "",
-        verdict + Text(f" ({trip}{len(result['legs'])} legs)" + (f"\n{first}" if first else "")), row.reference or "",
-        "", "",
-    ]]
+    rows: list[list[str | Text]] = [
+        [
+            f"{lines[0]}-{lines[-1]}" if len(lines) > 1 else str(lines[0]),
+            row.registration or "",
+            verdict + Text(f" ({trip}{len(result['legs'])} legs)" + (f"\n{first}" if first else "")),
+            row.reference or "",
+            "",
+            "",
+        ]
+    ]
     for leg in result["legs"]:
         name = leg_name(leg["leg"], leg.get("label"))
         verdict, first = _flight_result(leg)
         conditions = {c["condition"]: c for c in leg["conditions"]}
         takeoff, landing = conditions["takeoff"], conditions["landing"]
         line = lines[leg["leg"] - 1] if leg["leg"] <= len(lines) else lines[0]
-        rows.append([
-            str(line), row.registration or "", Text(f"{name}: ") + verdict + Text(f"\n{name}: {first}" if first else ""),
-            name, f"{fmt(takeoff['weight'], units['mass'])}\n{fmt(takeoff['arm'], units['arm'])}",
-            f"{fmt(landing['weight'], units['mass'])}\n{fmt(landing['arm'], units['arm'])}",
-        ])
+        rows.append(
+            [
+                str(line),
+                row.registration or "",
+                Text(f"{name}: ") + verdict + Text(f"\n{name}: {first}" if first else ""),
+                name,
+                f"{fmt(takeoff['weight'], units['mass'])}\n{fmt(takeoff['arm'], units['arm'])}",
+                f"{fmt(landing['weight'], units['mass'])}\n{fmt(landing['arm'], units['arm'])}",
+            ]
+        )
     return rows

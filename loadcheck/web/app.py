@@ -64,15 +64,23 @@ class CheckRequest(BaseModel):
     model_config = ConfigDict(extra="forbid")
 
     registration: str = Field(description="the aircraft, by registration, in the desk's fleet")
-    load: dict[str, str | float] = Field(default_factory=dict, description="mass per station: a number [mass unit] or with a unit")
-    names: dict[str, Any] = Field(default_factory=dict, description="optional: who is at each station, a person's name per "
-                                                                  "station id (the loading file's [names])")
-    fuel: dict[str, str | float] = Field(default_factory=dict, description="quantity per tank at engine start: volume, 'full', a level name")
+    load: dict[str, str | float] = Field(
+        default_factory=dict, description="mass per station: a number [mass unit] or with a unit"
+    )
+    names: dict[str, Any] = Field(
+        default_factory=dict,
+        description="optional: who is at each station, a person's name per station id (the loading file's [names])",
+    )
+    fuel: dict[str, str | float] = Field(
+        default_factory=dict, description="quantity per tank at engine start: volume, 'full', a level name"
+    )
     burn: dict[str, Any] = Field(default_factory=dict, description="taxi, trip or trip_time and rate, order, reserve")
     category: str | None = Field(None, description="envelope category (default: the file's first)")
     leg: list[dict[str, Any]] = Field(
-        default_factory=list, description="the legs after the first, as the loading file's [[leg]] tables: label, load "
-                                          "(new weight per station), add_fuel (fuel put in at the stop), burn")
+        default_factory=list,
+        description="the legs after the first, as the loading file's [[leg]] tables: label, load "
+        "(new weight per station), add_fuel (fuel put in at the stop), burn",
+    )
     record: bool = Field(False, description="record the check in the desk's log (POST /api/check only)")
 
 
@@ -143,7 +151,11 @@ class Desk:
     def public(self, text: str) -> str:
         """A message as a page may show it: no folder of this machine in it."""
         text = re.sub(re.escape(str(self.workdir)) + r"/[^/\s]+/", "", text)  # an upload is named by its own name
-        for folder, name in ((self.workdir, "uploaded file"), (self.fleet_dir.resolve(), "fleet"), (self.fleet_dir, "fleet")):
+        for folder, name in (
+            (self.workdir, "uploaded file"),
+            (self.fleet_dir.resolve(), "fleet"),
+            (self.fleet_dir, "fleet"),
+        ):
             text = text.replace(str(folder) + "/", name + ": ").replace(str(folder), name)
         return text
 
@@ -157,9 +169,18 @@ class Desk:
         else:
             assert isinstance(error, LoadcheckError)
             found = error.problems
-            prefix = f"{error.file}: " if error.file and str(error.file) != "command line" else ""  # a form is not the command line
-        return [{"field": p.field, "message": self.public(prefix + _leg_words(p).describe()),
-                 "value": None if p.value is None else str(p.value), "expected": p.expected} for p in found]
+            prefix = (
+                f"{error.file}: " if error.file and str(error.file) != "command line" else ""
+            )  # a form is not the command line
+        return [
+            {
+                "field": p.field,
+                "message": self.public(prefix + _leg_words(p).describe()),
+                "value": None if p.value is None else str(p.value),
+                "expected": p.expected,
+            }
+            for p in found
+        ]
 
 
 def _leg_words(problem: Problem) -> Problem:
@@ -246,11 +267,24 @@ def _overrides(form: Any, aircraft: Any, legs: int | None = None) -> tuple[dict[
     for number in range(2, count + 1):
         label = read(f"leg.{number}.label")
         leg_load, leg_names, added, leg_burn = tables(f"leg.{number}.")
-        further[number] = {"label": label or None, "load": leg_load, "names": leg_names, "add_fuel": added, "burn": leg_burn}
+        further[number] = {
+            "label": label or None,
+            "load": leg_load,
+            "names": leg_names,
+            "add_fuel": added,
+            "burn": leg_burn,
+        }
     typed["category"] = category = str(form.get("category", "")).strip()
     typed["station"] = str(form.get("station", "")).strip()
     typed["stop"] = str(form.get("stop", "")).strip()
-    return typed, {"load": load, "names": names, "fuel": fuel, "burn": burn, "category": category or None, "legs": further}
+    return typed, {
+        "load": load,
+        "names": names,
+        "fuel": fuel,
+        "burn": burn,
+        "category": category or None,
+        "legs": further,
+    }
 
 
 def _without_leg(typed: dict[str, str], number: int) -> dict[str, str]:
@@ -273,7 +307,7 @@ def form_key(field: str) -> str:
     if match is None:
         return field
     rest = match.group(2)
-    rest = "fuel" + rest[len("add_fuel"):] if rest.startswith("add_fuel") else rest
+    rest = "fuel" + rest[len("add_fuel") :] if rest.startswith("add_fuel") else rest
     return f"leg.{int(match.group(1)) + 2}" + (f".{rest}" if rest else "")
 
 
@@ -296,7 +330,10 @@ def _trip_or_given(inputs: CheckInputs) -> Loading | ResolvedTrip:
 
 
 def _checked_result(inputs: CheckInputs) -> CheckResult | TripResult:
-    """The check of a loading: :func:`~loadcheck.trip.check_trip` for a trip, else :func:`~loadcheck.check.check_loading`."""
+    """The check of a loading.
+
+    :func:`~loadcheck.trip.check_trip` for a trip, else :func:`~loadcheck.check.check_loading`.
+    """
     if inputs.is_trip and inputs.trip is not None:
         from ..trip import check_trip
 
@@ -322,9 +359,14 @@ def _sheet(inputs: CheckInputs, result: Any) -> str:
 
     if inputs.is_trip:
         return trip_sheet_html(result, _chart_svg(inputs, result), loading_label=inputs.label, trip_loading=inputs.trip)
-    return load_sheet_html(result, _chart_svg(inputs, result, compact=True), loading_label=inputs.label,
-                           loading=inputs.loading, pilot=inputs.given.pilot if inputs.given is not None else None,
-                           aircraft=inputs.aircraft)
+    return load_sheet_html(
+        result,
+        _chart_svg(inputs, result, compact=True),
+        loading_label=inputs.label,
+        loading=inputs.loading,
+        pilot=inputs.given.pilot if inputs.given is not None else None,
+        aircraft=inputs.aircraft,
+    )
 
 
 def _svg_body(svg: str) -> str:
@@ -332,8 +374,14 @@ def _svg_body(svg: str) -> str:
     return svg[start:] if start != -1 else svg
 
 
-def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: str | Path | None = None,
-               secret: str | None = None, https_only: bool = False) -> FastAPI:
+def create_app(
+    fleet_dir: str | Path,
+    *,
+    db: str | Path | None = None,
+    users: str | Path | None = None,
+    secret: str | None = None,
+    https_only: bool = False,
+) -> FastAPI:
     """The desk as an ASGI application.
 
     Parameters
@@ -350,20 +398,43 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
 
     folder = Path(fleet_dir)
     load_fleet(folder)  # refuse to start on a folder that is not a fleet
-    desk = Desk(folder, Path(db) if db is not None else default_path(), UserStore(users if users is not None else default_users_path()))
-    app = FastAPI(title="loadcheck desk", version=__version__, docs_url=None, redoc_url=None, openapi_url=None,
-                  description="The flight school's desk: checks, planning, the check log and the empty-weight record, "
-                              "over loadcheck's library. Advisory: " + PILOT_CAUTION)
+    desk = Desk(
+        folder,
+        Path(db) if db is not None else default_path(),
+        UserStore(users if users is not None else default_users_path()),
+    )
+    app = FastAPI(
+        title="loadcheck desk",
+        version=__version__,
+        docs_url=None,
+        redoc_url=None,
+        openapi_url=None,
+        description="The flight school's desk: checks, planning, the check log and the empty-weight record, "
+        "over loadcheck's library. Advisory: " + PILOT_CAUTION,
+    )
     app.state.desk = desk
-    app.add_middleware(SessionMiddleware, secret_key=secret or secrets.token_urlsafe(32), session_cookie="desk_session",
-                       max_age=12 * 3600, same_site="strict", https_only=https_only)
+    app.add_middleware(
+        SessionMiddleware,
+        secret_key=secret or secrets.token_urlsafe(32),
+        session_cookie="desk_session",
+        max_age=12 * 3600,
+        same_site="strict",
+        https_only=https_only,
+    )
     app.add_middleware(BodyLimit, limit=MAX_BODY_BYTES)
     app.mount("/static", StaticFiles(directory=_HERE / "static"), name="static")
     templates = Jinja2Templates(directory=str(_HERE / "templates"))
     env = templates.env
-    env.globals.update(fmt=fmt, condition_words=condition_words, burn_path_summary=burn_path_summary, stretch_text=stretch_text,
-                       within_limits_text=within_limits_text,
-                       PILOT_CAUTION=PILOT_CAUTION, MECHANIC_CAUTION=MECHANIC_CAUTION, version=__version__)
+    env.globals.update(
+        fmt=fmt,
+        condition_words=condition_words,
+        burn_path_summary=burn_path_summary,
+        stretch_text=stretch_text,
+        within_limits_text=within_limits_text,
+        PILOT_CAUTION=PILOT_CAUTION,
+        MECHANIC_CAUTION=MECHANIC_CAUTION,
+        version=__version__,
+    )
 
     def page(request: Request, template: str, status: int = 200, **context: Any) -> HTMLResponse:
         account = None
@@ -371,8 +442,9 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
             account = _account(request)
         except _SignInNeeded:
             pass
-        return templates.TemplateResponse(request, template, {"account": account, "csrf": csrf_token(request.session), **context},
-                                          status_code=status)
+        return templates.TemplateResponse(
+            request, template, {"account": account, "csrf": csrf_token(request.session), **context}, status_code=status
+        )
 
     # -- errors: never a traceback, never a path of this machine ---------------------------------
 
@@ -391,19 +463,28 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
 
     @app.exception_handler(RequestValidationError)
     async def _invalid(request: Request, error: RequestValidationError) -> Response:
-        problems = [{"field": ".".join(str(p) for p in e.get("loc", ()) if p != "body"), "message": e.get("msg", "")}
-                    for e in error.errors()]
+        problems = [
+            {"field": ".".join(str(p) for p in e.get("loc", ()) if p != "body"), "message": e.get("msg", "")}
+            for e in error.errors()
+        ]
         if request.url.path.startswith("/api/"):
             return JSONResponse({"problems": problems}, status_code=422)
-        return page(request, "message.html", 422, title="The request cannot be used",
-                    message="; ".join(f"{p['field']}: {p['message']}" for p in problems))
+        return page(
+            request,
+            "message.html",
+            422,
+            title="The request cannot be used",
+            message="; ".join(f"{p['field']}: {p['message']}" for p in problems),
+        )
 
     @app.exception_handler(LoadcheckError)
     async def _refused(request: Request, error: LoadcheckError) -> Response:
         problems = desk.problems(error)
         if request.url.path.startswith("/api/"):
             return JSONResponse({"problems": problems}, status_code=422)
-        return page(request, "message.html", 422, title="Cannot be used", message="; ".join(p["message"] for p in problems))
+        return page(
+            request, "message.html", 422, title="Cannot be used", message="; ".join(p["message"] for p in problems)
+        )
 
     @app.exception_handler(Exception)
     async def _bug(request: Request, error: Exception) -> Response:
@@ -426,12 +507,20 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
         keys = [f"name:{name}", f"client:{client}"]
         wait = desk.throttle.wait(keys)
         if wait > 0:
-            return page(request, "signin.html", 429, title="Sign in", name=name,
-                        error=f"Too many failed sign-ins: wait {int(wait) + 1} seconds and try again.")
+            return page(
+                request,
+                "signin.html",
+                429,
+                title="Sign in",
+                name=name,
+                error=f"Too many failed sign-ins: wait {int(wait) + 1} seconds and try again.",
+            )
         account = desk.users.verify(name, password)
         if account is None:
             desk.throttle.failed(keys)
-            return page(request, "signin.html", 401, title="Sign in", name=name, error="That name and password do not match.")
+            return page(
+                request, "signin.html", 401, title="Sign in", name=name, error="That name and password do not match."
+            )
         desk.throttle.succeeded(keys[0])
         request.session.clear()
         request.session["user"] = account.name
@@ -461,12 +550,23 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
 
     # -- the pilot: check a loading (one leg or a trip), plan, record, the load sheet ------------
 
-    def _form_page(request: Request, aircraft: Aircraft, typed: dict[str, str], problems: list[dict[str, Any]],
-                   status: int = 200) -> Response:
+    def _form_page(
+        request: Request, aircraft: Aircraft, typed: dict[str, str], problems: list[dict[str, Any]], status: int = 200
+    ) -> Response:
         bad = {p["field"] for p in problems} | {form_key(p["field"]) for p in problems}
         legs = int(typed.get("legs", "1"))
-        return page(request, "check.html", status, title=f"Check a loading: {aircraft.registration}", aircraft=aircraft,
-                    typed=typed, problems=problems, bad=bad, legs=legs, max_legs=MAX_LEGS)
+        return page(
+            request,
+            "check.html",
+            status,
+            title=f"Check a loading: {aircraft.registration}",
+            aircraft=aircraft,
+            typed=typed,
+            problems=problems,
+            bad=bad,
+            legs=legs,
+            max_legs=MAX_LEGS,
+        )
 
     @app.get("/aircraft/{registration}", response_class=HTMLResponse)
     def check_form(request: Request, registration: str) -> Response:
@@ -486,7 +586,9 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
             return account, aircraft, typed, None, desk.problems(error)
         return account, aircraft, typed, inputs, form
 
-    def _form_again(request: Request, aircraft: Aircraft, typed: dict[str, str], problems: list[dict[str, Any]]) -> Response:
+    def _form_again(
+        request: Request, aircraft: Aircraft, typed: dict[str, str], problems: list[dict[str, Any]]
+    ) -> Response:
         return _form_page(request, aircraft, typed, problems, 422)
 
     @app.post("/aircraft/{registration}/edit", response_class=HTMLResponse)
@@ -527,10 +629,21 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
         except (LoadcheckError, ValidationError) as error:
             return _form_again(request, aircraft, typed, desk.problems(error))
         names = [leg.names for leg in inputs.trip.legs] if inputs.is_trip else [inputs.loading.names]
-        return page(request, "result.html", title=f"Result: {registration}", aircraft=aircraft, result=result, typed=typed,
-                    trip=inputs.is_trip, chart=_svg_body(_chart_svg(inputs, result)), names_by_leg=names)
+        return page(
+            request,
+            "result.html",
+            title=f"Result: {registration}",
+            aircraft=aircraft,
+            result=result,
+            typed=typed,
+            trip=inputs.is_trip,
+            chart=_svg_body(_chart_svg(inputs, result)),
+            names_by_leg=names,
+        )
 
-    def _plan_page(request: Request, aircraft: Aircraft, typed: dict[str, str], inputs: CheckInputs, action: str) -> Response:
+    def _plan_page(
+        request: Request, aircraft: Aircraft, typed: dict[str, str], inputs: CheckInputs, action: str
+    ) -> Response:
         """A planning answer from the form: most fuel (for a trip: at the first engine start), most payload
         (a single loading), or the fuel to put in at a stop of a trip."""
         from ..planning import most_fuel, most_payload
@@ -538,8 +651,11 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
 
         plan: Any
         if action == "fuel":
-            plan = (trip_most_fuel(inputs.aircraft, inputs.trip) if inputs.is_trip and inputs.trip is not None
-                    else most_fuel(inputs.aircraft, inputs.loading))
+            plan = (
+                trip_most_fuel(inputs.aircraft, inputs.trip)
+                if inputs.is_trip and inputs.trip is not None
+                else most_fuel(inputs.aircraft, inputs.loading)
+            )
         elif action == "stop":
             if not inputs.is_trip:
                 raise InputError(Problem("stop", "the fuel to put in at a stop is asked of a trip: add a leg first"))
@@ -549,10 +665,17 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
             plan = fuel_to_add(inputs.aircraft, _trip_or_given(inputs), int(leg))
         else:
             if inputs.is_trip:
-                raise InputError(Problem("station", "the most payload at a station is worked out for a loading of one "
-                                         "leg; for a trip, check each leg's payload by changing it"))
+                raise InputError(
+                    Problem(
+                        "station",
+                        "the most payload at a station is worked out for a loading of one "
+                        "leg; for a trip, check each leg's payload by changing it",
+                    )
+                )
             plan = most_payload(inputs.aircraft, inputs.loading, typed["station"])
-        return page(request, "plan.html", title=f"Planning: {aircraft.registration}", aircraft=aircraft, plan=plan, typed=typed)
+        return page(
+            request, "plan.html", title=f"Planning: {aircraft.registration}", aircraft=aircraft, plan=plan, typed=typed
+        )
 
     @app.post("/aircraft/{registration}/record")
     async def record(request: Request, registration: str) -> Response:
@@ -601,14 +724,25 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
             raise HTTPException(422, f"date: not a date: {date!r}; expected YYYY-MM-DD") from None
 
     @app.get("/records", response_class=HTMLResponse)
-    def records_page(request: Request, registration: str | None = None, verdict: str | None = None,
-                     date: str | None = None) -> Response:
+    def records_page(
+        request: Request, registration: str | None = None, verdict: str | None = None, date: str | None = None
+    ) -> Response:
         account = _account(request)
         day = _day(date)
         records = _found(account, registration, verdict, day)
         registrations = sorted(e.registration for e in desk.fleet().entries if e.registration)
-        return page(request, "records.html", title="Check log", records=records, registrations=registrations,
-                    chosen={"registration": registration or "", "verdict": verdict or "", "date": "" if day is None else day.isoformat()})
+        return page(
+            request,
+            "records.html",
+            title="Check log",
+            records=records,
+            registrations=registrations,
+            chosen={
+                "registration": registration or "",
+                "verdict": verdict or "",
+                "date": "" if day is None else day.isoformat(),
+            },
+        )
 
     def _record(account: Account, record_id: int) -> LoggedCheck:
         from ..checklog import CheckLog
@@ -625,8 +759,13 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
         return found
 
     @app.get("/records/export")
-    def export(request: Request, format: str = "csv", registration: str | None = None, verdict: str | None = None,
-               date: str | None = None) -> Response:
+    def export(
+        request: Request,
+        format: str = "csv",
+        registration: str | None = None,
+        verdict: str | None = None,
+        date: str | None = None,
+    ) -> Response:
         from ..checklog import export_text
 
         account = _account(request)
@@ -634,7 +773,9 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
             raise HTTPException(422, f"format: {format!r} is not an export format; expected csv or jsonl")
         text = export_text(_found(account, registration, verdict, _day(date)), format)
         kind = "text/csv" if format == "csv" else "application/x-ndjson"
-        return PlainTextResponse(text, media_type=kind, headers={"content-disposition": f'attachment; filename="checks.{format}"'})
+        return PlainTextResponse(
+            text, media_type=kind, headers={"content-disposition": f'attachment; filename="checks.{format}"'}
+        )
 
     @app.get("/records/{record_id}", response_class=HTMLResponse)
     def record_page(request: Request, record_id: int) -> Response:
@@ -642,8 +783,14 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
 
         account = _account(request)
         found = _record(account, record_id)
-        return page(request, "record.html", title=f"Check {record_id}", record=found, verification=None,
-                    inputs_json=json.dumps(found.inputs, indent=2))
+        return page(
+            request,
+            "record.html",
+            title=f"Check {record_id}",
+            record=found,
+            verification=None,
+            inputs_json=json.dumps(found.inputs, indent=2),
+        )
 
     @app.post("/records/{record_id}/verify", response_class=HTMLResponse)
     async def verify_page(request: Request, record_id: int) -> Response:
@@ -656,8 +803,14 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
         found = _record(account, record_id)
         with CheckLog(desk.db) as log:
             verification = verify(log, record_id)
-        return page(request, "record.html", title=f"Check {record_id}", record=found, verification=verification,
-                    inputs_json=json.dumps(found.inputs, indent=2))
+        return page(
+            request,
+            "record.html",
+            title=f"Check {record_id}",
+            record=found,
+            verification=verification,
+            inputs_json=json.dumps(found.inputs, indent=2),
+        )
 
     # -- the mechanic: a new empty-weight record -------------------------------------------------
 
@@ -667,24 +820,43 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
 
         _need(request, "mechanic")
         aircraft, _ = desk.aircraft_path(registration)
-        return page(request, "mechanic.html", title=f"Empty-weight record: {registration}", aircraft=aircraft,
-                    history=history(aircraft), problems=[], typed={})
+        return page(
+            request,
+            "mechanic.html",
+            title=f"Empty-weight record: {registration}",
+            aircraft=aircraft,
+            history=history(aircraft),
+            problems=[],
+            typed={},
+        )
 
     @app.post("/mechanic/{registration}/propose", response_class=HTMLResponse)
-    async def propose_page(request: Request, registration: str, kind: str = Form("weighing"), text: str = Form(""),
-                           upload: UploadFile | None = None, csrf: str = Form("")) -> Response:
+    async def propose_page(
+        request: Request,
+        registration: str,
+        kind: str = Form("weighing"),
+        text: str = Form(""),
+        upload: UploadFile | None = None,
+        csrf: str = Form(""),
+    ) -> Response:
         from ..empty_record import history, propose
 
         account = _need(request, "mechanic")
         if not csrf_ok(request.session, csrf):
-            raise HTTPException(403, "the form's security token is missing or out of date: reload the page and try again")
+            raise HTTPException(
+                403, "the form's security token is missing or out of date: reload the page and try again"
+            )
         aircraft, path = desk.aircraft_path(registration)
         uploaded = upload is not None and bool(upload.filename)
         content = (await upload.read()) if upload is not None and uploaded else text.encode("utf-8")
         token = secrets.token_urlsafe(16)
         # the history names the file the record was made from: the upload's own name where it is a plain one
         given = Path(upload.filename or "").name if upload is not None and uploaded else ""
-        name = given if re.fullmatch(r"[A-Za-z0-9][A-Za-z0-9._-]{0,80}\.toml", given) else ("uploaded.toml" if uploaded else "typed-in.toml")
+        name = (
+            given
+            if re.fullmatch(r"[A-Za-z0-9][A-Za-z0-9._-]{0,80}\.toml", given)
+            else ("uploaded.toml" if uploaded else "typed-in.toml")
+        )
         (desk.workdir / token).mkdir()
         source = desk.workdir / token / name
         source.write_bytes(content)
@@ -692,16 +864,31 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
             proposal = propose(path, source, "alteration" if kind == "alteration" else "weighing")
         except (LoadcheckError, ValidationError) as error:
             shutil.rmtree(source.parent, ignore_errors=True)
-            return page(request, "mechanic.html", 422, title=f"Empty-weight record: {registration}", aircraft=aircraft,
-                        history=history(aircraft), problems=desk.problems(error),
-                        typed={"kind": kind, "text": content.decode("utf-8", "replace")})
+            return page(
+                request,
+                "mechanic.html",
+                422,
+                title=f"Empty-weight record: {registration}",
+                aircraft=aircraft,
+                history=history(aircraft),
+                problems=desk.problems(error),
+                typed={"kind": kind, "text": content.decode("utf-8", "replace")},
+            )
         with desk.lock:
             desk.pending[token] = _Pending(account.name, registration, proposal, source, time.monotonic())
             while len(desk.pending) > _MAX_PENDING:
                 _, old = desk.pending.popitem(last=False)
                 shutil.rmtree(old.source.parent, ignore_errors=True)
-        return page(request, "proposal.html", title=f"New empty-weight record: {registration}", aircraft=aircraft,
-                    proposal=proposal, token=token, problems=[], extremes=proposal.extremes)
+        return page(
+            request,
+            "proposal.html",
+            title=f"New empty-weight record: {registration}",
+            aircraft=aircraft,
+            proposal=proposal,
+            token=token,
+            problems=[],
+            extremes=proposal.extremes,
+        )
 
     @app.post("/mechanic/{registration}/confirm", response_class=HTMLResponse)
     async def confirm_page(request: Request, registration: str) -> Response:
@@ -716,25 +903,57 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
             raise HTTPException(404, "this proposed record is no longer waiting: enter the weighing or changes again")
         note = str(form.get("note", "")).strip() or None
         try:
-            make_current(pending.proposal, confirmed=form.get("confirm") == "yes", override=form.get("override") == "yes",
-                         by=account.name, note=note)
+            make_current(
+                pending.proposal,
+                confirmed=form.get("confirm") == "yes",
+                override=form.get("override") == "yes",
+                by=account.name,
+                note=note,
+            )
         except LoadcheckError as error:
             aircraft, _ = desk.aircraft_path(registration)
-            return page(request, "proposal.html", 409, title=f"New empty-weight record: {registration}", aircraft=aircraft,
-                        proposal=pending.proposal, token=token, problems=desk.problems(error), extremes=pending.proposal.extremes)
+            return page(
+                request,
+                "proposal.html",
+                409,
+                title=f"New empty-weight record: {registration}",
+                aircraft=aircraft,
+                proposal=pending.proposal,
+                token=token,
+                problems=desk.problems(error),
+                extremes=pending.proposal.extremes,
+            )
         with desk.lock:
             desk.pending.pop(token, None)
         shutil.rmtree(pending.source.parent, ignore_errors=True)
         aircraft, _ = desk.aircraft_path(registration)
-        return page(request, "mechanic.html", title=f"Empty-weight record: {registration}", aircraft=aircraft,
-                    history=history(aircraft), problems=[], typed={}, written=True)
+        return page(
+            request,
+            "mechanic.html",
+            title=f"Empty-weight record: {registration}",
+            aircraft=aircraft,
+            history=history(aircraft),
+            problems=[],
+            typed={},
+            written=True,
+        )
 
     # -- the JSON API: the command line's JSON shapes --------------------------------------------
 
     def _api_inputs(body: CheckRequest) -> CheckInputs:
         legs = {number: leg for number, leg in enumerate(body.leg, start=2)}
-        return _inputs(desk, body.registration, {"load": body.load, "names": body.names, "fuel": body.fuel, "burn": body.burn,
-                                                 "category": body.category, "legs": legs})
+        return _inputs(
+            desk,
+            body.registration,
+            {
+                "load": body.load,
+                "names": body.names,
+                "fuel": body.fuel,
+                "burn": body.burn,
+                "category": body.category,
+                "legs": legs,
+            },
+        )
 
     def _api_error(error: Exception) -> JSONResponse:
         return JSONResponse({"problems": desk.problems(error)}, status_code=422)
@@ -746,7 +965,10 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
 
     @app.get("/api/fleet")
     def api_fleet(request: Request, max_age: int = 365) -> list[dict[str, Any]]:
-        """The fleet listing (as ``fleet list --json``): each aircraft's record date, useful load, fingerprint, problems."""
+        """The fleet listing (as ``fleet list --json``).
+
+        Each aircraft's record date, useful load, fingerprint and problems.
+        """
         from ..fleet import fleet_listing
 
         _account(request)
@@ -767,7 +989,9 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
         answer = result.to_dict()
         if body.record:
             with CheckLog(desk.db) as log:
-                answer["record_id"] = log_check(log, inputs, result, source="web desk", version=__version__, pilot=account.name)
+                answer["record_id"] = log_check(
+                    log, inputs, result, source="web desk", version=__version__, pilot=account.name
+                )
         return answer
 
     @app.post("/api/plan/fuel")
@@ -815,8 +1039,9 @@ def create_app(fleet_dir: str | Path, *, db: str | Path | None = None, users: st
             return _api_error(error)
 
     @app.get("/api/records")
-    def api_records(request: Request, registration: str | None = None, verdict: str | None = None,
-                    date: str | None = None) -> list[dict[str, Any]]:
+    def api_records(
+        request: Request, registration: str | None = None, verdict: str | None = None, date: str | None = None
+    ) -> list[dict[str, Any]]:
         """Records of checks (a pilot's own; every pilot's for a dispatcher), without their inputs and results."""
         account = _account(request)
         return [r.summary() for r in _found(account, registration, verdict, _day(date if date is not None else ""))]

@@ -49,8 +49,14 @@ def bind_caution(host: str, allow_remote: bool) -> str | None:
     if loopback:
         return None
     if not allow_remote:
-        raise InputError(Problem("--host", "the desk listens on this machine only unless --allow-remote is given",
-                                 value=host, expected="127.0.0.1, ::1 or localhost"))
+        raise InputError(
+            Problem(
+                "--host",
+                "the desk listens on this machine only unless --allow-remote is given",
+                value=host,
+                expected="127.0.0.1, ::1 or localhost",
+            )
+        )
     return REMOTE_CAUTION
 
 
@@ -150,6 +156,14 @@ class BodyLimit:
 
     async def _refuse(self, send: Send) -> None:
         text = f"The request is too large: the desk reads at most {self.limit // 1024} KiB.".encode()
-        await send({"type": "http.response.start", "status": 413,
-                    "headers": [(b"content-type", b"text/plain; charset=utf-8"), (b"content-length", str(len(text)).encode())]})
+        await send(
+            {
+                "type": "http.response.start",
+                "status": 413,
+                "headers": [
+                    (b"content-type", b"text/plain; charset=utf-8"),
+                    (b"content-length", str(len(text)).encode()),
+                ],
+            }
+        )
         await send({"type": "http.response.body", "body": text})

@@ -97,15 +97,26 @@ class UserStore:
     def _roles(roles: list[str] | tuple[str, ...]) -> list[str]:
         unknown = [r for r in roles if r not in ROLES]
         if unknown or not roles:
-            raise InputError(Problem("--role", "unknown role" if unknown else "give at least one role",
-                                     value=", ".join(unknown) or None, expected="one or more of " + ", ".join(ROLES)))
+            raise InputError(
+                Problem(
+                    "--role",
+                    "unknown role" if unknown else "give at least one role",
+                    value=", ".join(unknown) or None,
+                    expected="one or more of " + ", ".join(ROLES),
+                )
+            )
         return sorted(set(roles), key=ROLES.index)
 
     @staticmethod
     def _password(password: str) -> None:
         if len(password) < MIN_PASSWORD:
-            raise InputError(Problem("password", f"too short ({len(password)} characters)",
-                                     expected=f"at least {MIN_PASSWORD} characters"))
+            raise InputError(
+                Problem(
+                    "password",
+                    f"too short ({len(password)} characters)",
+                    expected=f"at least {MIN_PASSWORD} characters",
+                )
+            )
 
     def accounts(self) -> list[Account]:
         """Every account, by name."""
@@ -119,8 +130,14 @@ class UserStore:
     def add(self, name: str, password: str, roles: list[str] | tuple[str, ...]) -> Account:
         """Add an account (refused where the name is taken or not a plain name)."""
         if not _NAME.match(name):
-            raise InputError(Problem("NAME", "not a plain account name", value=name,
-                                     expected="1 to 40 letters, digits, '.', '_' or '-', starting with a letter or digit"))
+            raise InputError(
+                Problem(
+                    "NAME",
+                    "not a plain account name",
+                    value=name,
+                    expected="1 to 40 letters, digits, '.', '_' or '-', starting with a letter or digit",
+                )
+            )
         chosen = self._roles(roles)
         self._password(password)
         with _LOCK:
