@@ -705,10 +705,20 @@ def _evaluate(
     if limits.min_flight_weight is not None:
         limit_ok["min_flight_weight"] = _all([minimum_ok[c] for c in MIN_FLIGHT_WEIGHT_CONDITIONS])
 
-    # every envelope at the four conditions at once: one containment call per envelope
-    inside_all = [
-        shape.covers(*_tested_states(shape, all_w, all_m, all_l, tables.allowance)) for shape in shapes
-    ]  # (4, N) each
+    # every envelope at the four conditions at once: one containment call per envelope; where
+    # a straight piece of path may be settled by its ends (_path_settled), also the convex
+    # parts each state lies in
+    straight = not tables.moving and all(shape.has_straight_parts for shape in shapes)
+    inside_all = []
+    parts_all = []
+    for shape in shapes:
+        states = _tested_states(shape, all_w, all_m, all_l, tables.allowance)
+        if straight:
+            inside, parts = shape.locate(*states)
+            parts_all.append(parts)
+        else:
+            inside = shape.covers(*states)
+        inside_all.append(inside)  # (4, N) each
     per_envelope = {name: [inside[k] for inside in inside_all] for k, name in enumerate(CONDITIONS)}
     every = _all(inside_all) if inside_all else np.ones((4, n), dtype=bool)
     envelope_ok = dict(zip(CONDITIONS, every, strict=True))
@@ -723,6 +733,11 @@ def _evaluate(
     path_ok = ends_in.copy()
     flying = trip > 0
     rows = np.flatnonzero(flying if explain else (ends_in & flying))
+    if straight and len(rows):  # a path settled inside by its ends needs no exact test
+        settled = _path_settled(
+            shapes, parts_all, rows, fuel, taxi, trip, order_index, rho, tables, pay_w, pay_m, pay_l
+        )
+        rows = rows[~settled]
     path_outside: list[list[tuple[float, float]]] | None = [[] for _ in range(n)] if explain else None
     if len(rows):
         tested_ok, stretches = _burn_path(
@@ -892,6 +907,61 @@ def path_states(
     )
 
 
+def _path_settled(
+    shapes: Sequence[EnvelopeShape],
+    parts_all: list[np.ndarray],
+    rows: np.ndarray,
+    fuel: np.ndarray,
+    taxi: np.ndarray,
+    trip: np.ndarray,
+    order: Sequence[int] | None,
+    rho: np.ndarray,
+    tables: _Tables,
+    pay_w: np.ndarray,
+    pay_m: np.ndarray,
+    pay_l: np.ndarray,
+) -> np.ndarray:
+    """True for the rows (of ``rows``) whose burn path is inside every envelope, shown by its ends alone.
+
+    Only for an aircraft without an arm table (every tank's arm fixed): between takeoff,
+    the points where a tank runs dry in the burn order and landing, the fuel burns from
+    tanks of fixed arms at a fixed ratio, so the weight, moment and lateral moment are
+    affine in the fuel burned and each piece of path is a straight line of states. A piece
+    whose two ends lie inside one straight convex part of an envelope by the margin stays
+    inside that part (:class:`loadcheck.envelope._Locator`: a proven sufficient condition,
+    docs/computation.md), so inside the envelope. The other rows get the exact test
+    (:func:`_burn_path`); both give the same verdict and the same stretches (none).
+
+    ``parts_all``: per envelope, the (4, N) parts of each condition's state (:meth:`EnvelopeShape.locate`).
+    """
+    start, end = taxi[rows], taxi[rows] + trip[rows]
+    settled = np.ones(len(rows), dtype=bool)
+    cuts = _burn_cuts_fixed(fuel[rows], order)  # (K, C) where a tank runs dry
+    if cuts.shape[1]:
+        points = np.minimum(np.maximum(cuts, start[:, None]), end[:, None])
+        q = tank_quantities(fuel[rows], points, order)  # (K, C, T)
+        mass = q * rho
+        w = pay_w[rows, None] + mass.sum(axis=2)
+        m = pay_m[rows, None] + _dot(mass, tables.fixed_arms)
+        lat = pay_l[rows, None] + _dot(mass, tables.tank_lats)
+    for shape, parts in zip(shapes, parts_all, strict=True):
+        before = parts[1, rows]  # takeoff
+        if cuts.shape[1]:
+            at_cuts = shape.parts(w, m, lat)  # (K, C)
+            for column in range(cuts.shape[1]):
+                settled &= (before & at_cuts[:, column]) != 0
+                before = at_cuts[:, column]
+        settled &= (before & parts[2, rows]) != 0  # landing
+    return settled
+
+
+def _burn_cuts_fixed(fuel: np.ndarray, order: Sequence[int] | None) -> np.ndarray:
+    """(N, C): fuel burned since engine start where each tank of the burn order runs dry (none burning together)."""
+    if order is None:
+        return np.zeros((fuel.shape[0], 0))
+    return np.cumsum(fuel[:, list(order)], axis=1)
+
+
 _MIDDLE = np.array([1.0, 0.5, 0.25])  # the powers of u = 1/2: a piece's middle from its coefficients
 
 
@@ -928,7 +998,8 @@ def _burn_path(
         points.sort(axis=1)
     live = points[:, 1:] - points[:, :-1] > 0  # (N, P)
     rows, cols = np.nonzero(live)
-    stretches: list[list[tuple[float, float]]] = [[] for _ in range(n)]
+    # the stretches outside, per loading: only with explain (a list per row costs more than the rest at large N)
+    stretches: list[list[tuple[float, float]]] = [[] for _ in range(n)] if explain else []
     if len(rows) == 0:
         return np.ones(n, dtype=bool), stretches
     a, b = points[rows, cols], points[rows, cols + 1]  # the K live pieces

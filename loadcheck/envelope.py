@@ -49,6 +49,8 @@ if TYPE_CHECKING:
 
 __all__ = [
     "AXES",
+    "FAST_COVERS_FROM",
+    "STRICT_MARGIN",
     "TOLERANCE",
     "Axis",
     "AxisSpec",
@@ -63,6 +65,16 @@ TOLERANCE = 1e-9
 """Containment tolerance, as a fraction of the envelope's extent on each axis."""
 
 Vary = Literal["arm", "weight", "lateral"]
+
+STRICT_MARGIN = 1e-12
+"""Inside the polygon itself by at least this signed distance (scaled axes, a thousandth of
+:data:`TOLERANCE`): far beyond the rounding of the coordinates (about 1e-16), so a point
+found inside by the margin is inside whatever the rounding (:meth:`EnvelopeShape.interior`)."""
+
+FAST_COVERS_FROM = 256
+"""From this many points, a convex envelope's containment is settled by its edges'
+half-planes with numpy, shapely testing only the points near an edge; below, one shapely
+call is cheaper (the single check)."""
 
 
 @dataclass(frozen=True)
@@ -163,6 +175,8 @@ class EnvelopeShape:
         self.edge_weights = np.stack([y2 - y1, (x2 - x1) * y1 - (y2 - y1) * x1, -(x2 - x1)])  # (3, n)
         self._edge_sources, self._edge_map = self._edge_basis()
         self.covering = shapely.Polygon(normal).buffer(TOLERANCE, quad_segs=16)
+        self._locator = _Locator(self, normal)
+        self.convex = self._locator.convex
         column = corners[:, axes.index("weight")] if "weight" in axes else None
         self._weight_range = None if column is None else (float(column.min()), float(column.max()))
         shapely.prepare(self.covering)
@@ -184,6 +198,32 @@ class EnvelopeShape:
     def weight_range(self) -> tuple[float, float] | None:
         """Lowest and highest weight of the polygon, where weight is an axis [mass unit]."""
         return self._weight_range
+
+    # -- containment ----------------------------------------------------------------
+
+    def locate(self, weight: np.ndarray, moment: np.ndarray, lateral: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+        """Containment (:meth:`covers`) and the convex parts each state lies in by the margin.
+
+        Returns
+        -------
+        covers : bool array, the shape of the states
+        parts : int64 array: bit j set where the state lies inside convex part j of the
+            envelope by at least :data:`STRICT_MARGIN` (:class:`_Locator`); only the parts on
+            which a straight piece of burn path between two such states stays inside
+            (:attr:`_Locator.straight_parts`) have a bit
+        """
+        x, y = self.coords(weight, moment, lateral)
+        return self._locator.locate(x, y)
+
+    def parts(self, weight: np.ndarray, moment: np.ndarray, lateral: np.ndarray) -> np.ndarray:
+        """The ``parts`` of :meth:`locate` alone."""
+        x, y = self.coords(weight, moment, lateral)
+        return self._locator.parts(x, y)
+
+    @property
+    def has_straight_parts(self) -> bool:
+        """True where some convex part of the envelope keeps a straight piece of path inside (:meth:`locate`)."""
+        return bool(self._locator.bits.any())
 
     def arm_range(self) -> tuple[float, float]:
         """Most forward and most rearward CG arm anywhere on the envelope [arm unit].
@@ -216,6 +256,8 @@ class EnvelopeShape:
     def covers(self, weight: float | np.ndarray, moment: float | np.ndarray, lateral: float | np.ndarray) -> np.ndarray:
         """True where a loading state lies inside or on the envelope (within TOLERANCE)."""
         x, y = self.coords(weight, moment, lateral)
+        if x.size >= FAST_COVERS_FROM:
+            return self._locator.locate(x, y)[0]
         (ox, oy), (wx, wy) = self._origin_span
         return np.asarray(shapely.intersects_xy(self.covering, (x - ox) / wx, (y - oy) / wy))
 
@@ -399,6 +441,141 @@ class EnvelopeShape:
         start, end = self._edges[edges, 0], self._edges[edges, 1]
         d = end - start
         return ((x - start[..., 0]) * d[..., 0] + (y - start[..., 1]) * d[..., 1]) / (d * d).sum(axis=-1)
+
+
+class _Locator:
+    """An envelope as convex parts and half-planes: containment of many points with numpy.
+
+    The envelope (in the scaled axes) is cut into convex parts (a constrained Delaunay
+    triangulation, neighbours merged while their union stays convex: Hertel and Mehlhorn,
+    1983); each part is the intersection of its edges' inner half-planes, each written as a
+    signed distance a X + b Y + c in the envelope's own axes (positive inside). A point
+    inside a part by :data:`STRICT_MARGIN` is inside the envelope, so inside its covering;
+    a point more than twice :data:`TOLERANCE` outside an edge line of the envelope's convex
+    hull is more than the tolerance from the envelope, so outside the covering (every point
+    of the covering lies within the tolerance of the polygon, and a signed distance to a
+    line bounding a convex set never falls below minus the distance to the set). The points
+    neither settles (within about 2e-9 of an edge, or in a notch of a non-convex envelope)
+    are tested by shapely against the covering, so :meth:`locate` answers as
+    ``shapely.intersects_xy(covering, ...)`` does for every point.
+
+    A part is *straight* where a straight line of states (weight W, moment M, lateral
+    moment L, each affine in the fuel burned) cannot leave it between two points inside it:
+    each edge's inner side times the positive denominators of the axes (Dx Dy, see
+    :meth:`EnvelopeShape.edge_polynomials`) is a polynomial of degree two in (W, M, L),
+    concave along every line where its quadratic part is negative semidefinite, and a
+    concave function on a segment is at least the least of its end values. Multiplying by
+    Dy alone (an edge along the x axis) or Dx alone (along y) leaves an affine function.
+    Where both axes are divided by W, or neither, every edge is affine in (W, M, L).
+    """
+
+    def __init__(self, shape: EnvelopeShape, normal: np.ndarray):
+        self.shape = shape
+        ring = shapely.Polygon(normal)
+        self.convex = bool(ring.convex_hull.area - ring.area <= 1e-14 * ring.convex_hull.area) and _turns_left(normal)
+        pieces = [normal] if self.convex else _convex_pieces(ring)
+        blocks = [] if self.convex else [_ring(ring.convex_hull)]
+        blocks += pieces
+        planes = [_half_planes(b, shape.origin, shape.span) for b in blocks]
+        self.starts = np.cumsum([0] + [len(p) for p in planes[:-1]])
+        self.planes = np.concatenate(planes)  # (R, 3): a, b, c of every half-plane
+        self.hull = 0  # the block of the envelope's convex hull (the envelope itself where convex)
+        self.first_part = 0 if self.convex else 1
+        straight = [self._straight(p) for p in planes[self.first_part :]]
+        self.bits = np.array([1 << j if ok else 0 for j, ok in enumerate(straight)], dtype=np.int64)
+        self.straight_parts = straight
+
+    def _straight(self, planes: np.ndarray) -> bool:
+        per = self.shape._per_weight
+        if per[0] == per[1]:
+            return True
+        k = 1 if per[0] else 0  # the axis not divided by W: its edge term is multiplied by W
+        coefficient = planes[:, k]  # a (k = 0) or b (k = 1) of each edge
+        other = planes[:, 1 - k]
+        w, m, lat = self.shape._coefficients[k]
+        if m != 0.0 or lat != 0.0:  # (coefficient N_k) W has W M or W L terms: indefinite
+            return bool(((coefficient == 0.0) | (other == 0.0)).all())
+        # its quadratic part is coefficient * w W^2: negative semidefinite where coefficient * w <= 0
+        return bool(((coefficient * w <= 0.0) | (other == 0.0) | (coefficient == 0.0)).all())
+
+    def _least(self, x: np.ndarray, y: np.ndarray) -> np.ndarray:
+        """(blocks, n): each point's least signed distance to the half-planes of each block."""
+        points = np.empty((2, x.size))
+        points[0] = x.reshape(-1)
+        points[1] = y.reshape(-1)
+        values = self.planes[:, :2] @ points
+        values += self.planes[:, 2:3]
+        return np.asarray(np.minimum.reduceat(values, self.starts, axis=0))
+
+    def parts(self, x: np.ndarray, y: np.ndarray) -> np.ndarray:
+        least = self._least(x, y)
+        return self._bits(least).reshape(np.shape(x))
+
+    def _bits(self, least: np.ndarray) -> np.ndarray:
+        bits = np.zeros(least.shape[1], dtype=np.int64)
+        for j, bit in enumerate(self.bits.tolist()):
+            if bit:
+                bits |= np.where(least[self.first_part + j] >= STRICT_MARGIN, bit, 0)
+        return bits
+
+    def locate(self, x: np.ndarray, y: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+        least = self._least(x, y)
+        inside = (least[self.first_part :] >= STRICT_MARGIN).any(axis=0)
+        near = np.flatnonzero(~inside & (least[self.hull] >= -2 * TOLERANCE))
+        if len(near):
+            (ox, oy), (wx, wy) = self.shape._origin_span
+            inside[near] = shapely.intersects_xy(
+                self.shape.covering, (x.reshape(-1)[near] - ox) / wx, (y.reshape(-1)[near] - oy) / wy
+            )
+        return inside.reshape(np.shape(x)), self._bits(least).reshape(np.shape(x))
+
+
+def _turns_left(corners: np.ndarray) -> bool:
+    """Every corner of a counter-clockwise ring turns left or goes straight on (a convex ring)."""
+    step = np.roll(corners, -1, axis=0) - corners
+    turns = step[:, 0] * np.roll(step[:, 1], -1) - step[:, 1] * np.roll(step[:, 0], -1)
+    return bool((turns >= 0).all())
+
+
+def _ring(polygon: shapely.Polygon) -> np.ndarray:
+    """A polygon's corners, counter-clockwise, the closing corner and repeated corners left out."""
+    ring = shapely.Polygon(polygon.exterior.coords)
+    if not ring.exterior.is_ccw:
+        ring = ring.reverse()
+    corners = np.asarray(ring.exterior.coords)[:-1]
+    keep = np.any(corners != np.roll(corners, -1, axis=0), axis=1)
+    return np.asarray(corners[keep])
+
+
+def _convex_pieces(polygon: shapely.Polygon) -> list[np.ndarray]:
+    """Convex polygons whose union is the polygon: its constrained Delaunay triangles, each
+    merged with a neighbour while their union stays convex (Hertel and Mehlhorn, 1983)."""
+    pieces = list(shapely.constrained_delaunay_triangles(polygon).geoms)
+    merged = True
+    while merged:
+        merged = False
+        for i, j in itertools.combinations(range(len(pieces)), 2):
+            if pieces[i].intersection(pieces[j]).length <= 0:
+                continue
+            union = shapely.union(pieces[i], pieces[j])
+            hull = union.convex_hull
+            if isinstance(union, shapely.Polygon) and hull.area - union.area <= 1e-14 * hull.area:
+                pieces[i] = hull
+                del pieces[j]
+                merged = True
+                break
+    return [_ring(p) for p in pieces]
+
+
+def _half_planes(corners: np.ndarray, origin: np.ndarray, span: np.ndarray) -> np.ndarray:
+    """(E, 3): a, b, c of each edge of a counter-clockwise convex ring in the scaled axes, as
+    a X + b Y + c in the envelope's own axes: the signed distance in the scaled axes, positive
+    on the inner (left) side."""
+    step = np.roll(corners, -1, axis=0) - corners
+    length = np.hypot(step[:, 0], step[:, 1])
+    a, b = -step[:, 1] / length, step[:, 0] / length
+    c = -(a * corners[:, 0] + b * corners[:, 1])
+    return np.stack([a / span[0], b / span[1], c - a * origin[0] / span[0] - b * origin[1] / span[1]], axis=1)
 
 
 def _intervals(points: list[float], inside_mid: list[bool], inside_cut: list[bool]) -> list[tuple[float, float]]:
