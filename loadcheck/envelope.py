@@ -520,14 +520,14 @@ class _Locator:
 
     def locate(self, x: np.ndarray, y: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
         least = self._least(x, y)
-        inside = (least[self.first_part :] >= STRICT_MARGIN).any(axis=0)
+        inside = np.asarray((least[self.first_part :] >= STRICT_MARGIN).any(axis=0))
         near = np.flatnonzero(~inside & (least[self.hull] >= -2 * TOLERANCE))
         if len(near):
             (ox, oy), (wx, wy) = self.shape._origin_span
             inside[near] = shapely.intersects_xy(
                 self.shape.covering, (x.reshape(-1)[near] - ox) / wx, (y.reshape(-1)[near] - oy) / wy
             )
-        return inside.reshape(np.shape(x)), self._bits(least).reshape(np.shape(x))
+        return np.asarray(inside.reshape(np.shape(x))), np.asarray(self._bits(least).reshape(np.shape(x)))
 
 
 def _turns_left(corners: np.ndarray) -> bool:
