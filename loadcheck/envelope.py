@@ -477,13 +477,10 @@ class _Locator:
         blocks = [] if self.convex else [_ring(ring.convex_hull)]
         blocks += pieces
         planes = [_half_planes(b, shape.origin, shape.span) for b in blocks]
-        self.starts = np.cumsum([0] + [len(p) for p in planes[:-1]])
-        self.planes = np.concatenate(planes)  # (R, 3): a, b, c of every half-plane
-        self.hull = 0  # the block of the envelope's convex hull (the envelope itself where convex)
-        self.first_part = 0 if self.convex else 1
-        straight = [self._straight(p) for p in planes[self.first_part :]]
-        self.bits = np.array([1 << j if ok else 0 for j, ok in enumerate(straight)], dtype=np.int64)
-        self.straight_parts = straight
+        self.hull: list[tuple[float, float, float]] | None = None if self.convex else planes[0].tolist()
+        self.pieces: list[list[tuple[float, float, float]]] = [p.tolist() for p in planes[0 if self.convex else 1 :]]
+        self.straight_parts = [self._straight(p) for p in planes[0 if self.convex else 1 :]]
+        self.bits = np.array([1 << j if ok else 0 for j, ok in enumerate(self.straight_parts)], dtype=np.int64)
 
     def _straight(self, planes: np.ndarray) -> bool:
         per = self.shape._per_weight
@@ -498,36 +495,57 @@ class _Locator:
         # its quadratic part is coefficient * w W^2: negative semidefinite where coefficient * w <= 0
         return bool(((coefficient * w <= 0.0) | (other == 0.0) | (coefficient == 0.0)).all())
 
-    def _least(self, x: np.ndarray, y: np.ndarray) -> np.ndarray:
-        """(blocks, n): each point's least signed distance to the half-planes of each block."""
-        points = np.empty((2, x.size))
-        points[0] = x.reshape(-1)
-        points[1] = y.reshape(-1)
-        values = self.planes[:, :2] @ points
-        values += self.planes[:, 2:3]
-        return np.asarray(np.minimum.reduceat(values, self.starts, axis=0))
+    @staticmethod
+    def _least(x: np.ndarray, y: np.ndarray, planes: list[tuple[float, float, float]]) -> np.ndarray:
+        """Each point's least signed distance to the half-planes (flat x, y): a running
+        minimum, in place, one edge at a time (the arrays stay in cache; an edge along an
+        axis costs two passes)."""
+        least = np.full(x.shape, np.inf)
+        term = np.empty_like(least)
+        other = np.empty_like(least)
+        for a, b, c in planes:
+            if b == 0.0:
+                np.multiply(x, a, out=term)
+            elif a == 0.0:
+                np.multiply(y, b, out=term)
+            else:
+                np.multiply(x, a, out=term)
+                np.multiply(y, b, out=other)
+                term += other
+            term += c
+            np.minimum(least, term, out=least)
+        return least
 
-    def parts(self, x: np.ndarray, y: np.ndarray) -> np.ndarray:
-        least = self._least(x, y)
-        return self._bits(least).reshape(np.shape(x))
-
-    def _bits(self, least: np.ndarray) -> np.ndarray:
-        bits = np.zeros(least.shape[1], dtype=np.int64)
-        for j, bit in enumerate(self.bits.tolist()):
+    def _bits(self, leasts: list[np.ndarray]) -> np.ndarray:
+        bits = np.zeros(leasts[0].shape, dtype=np.int64)
+        for least, bit in zip(leasts, self.bits.tolist(), strict=True):
             if bit:
-                bits |= np.where(least[self.first_part + j] >= STRICT_MARGIN, bit, 0)
+                bits[least >= STRICT_MARGIN] |= bit
         return bits
 
+    def parts(self, x: np.ndarray, y: np.ndarray) -> np.ndarray:
+        fx, fy = x.reshape(-1), y.reshape(-1)
+        leasts = [
+            self._least(fx, fy, piece) if bit else np.full(fx.shape, -np.inf)
+            for piece, bit in zip(self.pieces, self.bits.tolist(), strict=True)
+        ]
+        return np.asarray(self._bits(leasts).reshape(np.shape(x)))
+
     def locate(self, x: np.ndarray, y: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
-        least = self._least(x, y)
-        inside = np.asarray((least[self.first_part :] >= STRICT_MARGIN).any(axis=0))
-        near = np.flatnonzero(~inside & (least[self.hull] >= -2 * TOLERANCE))
+        fx, fy = x.reshape(-1), y.reshape(-1)
+        leasts = [self._least(fx, fy, piece) for piece in self.pieces]
+        inside = leasts[0] >= STRICT_MARGIN
+        for least in leasts[1:]:
+            inside |= least >= STRICT_MARGIN
+        if self.hull is None:  # convex: the envelope is its own hull
+            near = np.flatnonzero(~inside & (leasts[0] >= -2 * TOLERANCE))
+        else:  # the hull only for the points inside no part
+            rest = np.flatnonzero(~inside)
+            near = rest[self._least(fx[rest], fy[rest], self.hull) >= -2 * TOLERANCE]
         if len(near):
             (ox, oy), (wx, wy) = self.shape._origin_span
-            inside[near] = shapely.intersects_xy(
-                self.shape.covering, (x.reshape(-1)[near] - ox) / wx, (y.reshape(-1)[near] - oy) / wy
-            )
-        return np.asarray(inside.reshape(np.shape(x))), np.asarray(self._bits(least).reshape(np.shape(x)))
+            inside[near] = shapely.intersects_xy(self.shape.covering, (fx[near] - ox) / wx, (fy[near] - oy) / wy)
+        return np.asarray(inside.reshape(np.shape(x))), np.asarray(self._bits(leasts).reshape(np.shape(x)))
 
 
 def _turns_left(corners: np.ndarray) -> bool:
