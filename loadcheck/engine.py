@@ -668,17 +668,20 @@ def _evaluate(
     burned[:, 1] = taxi
     burned[:, 2] = taxi + trip
     q = tank_quantities(fuel, burned, order_index)  # (N, 3, T)
-    mass = q * rho
-    tank_arm = _tank_arms(aircraft, q)
     fuel_w = np.zeros((4, n))
-    fuel_w[:3] = mass.sum(axis=2).T
-    all_w = pay_w + fuel_w
     all_m = np.empty((4, n))
-    all_m[:3] = (mass * tank_arm).sum(axis=2).T
+    if tables.moving:  # an arm that moves with quantity: each tank's moment at its own arm
+        mass = q * rho
+        fuel_w[:3] = mass.sum(axis=2).T
+        all_m[:3] = (mass * _tank_arms(aircraft, q)).sum(axis=2).T
+    else:  # fixed arms: one product over the tanks each (a sum over a short last axis costs more)
+        fuel_w[:3] = _dot(q, rho).T
+        all_m[:3] = _dot(q, rho * tables.fixed_arms).T
+    all_w = pay_w + fuel_w
     all_m[:3] += pay_m
     all_m[3] = pay_m
     all_l = np.empty((4, n))
-    all_l[:3] = _dot(mass, tank_lats).T
+    all_l[:3] = _dot(q, rho * tank_lats).T
     all_l[:3] += pay_l
     all_l[3] = pay_l
     weight = dict(zip(CONDITIONS, all_w, strict=True))
@@ -734,10 +737,8 @@ def _evaluate(
     flying = trip > 0
     rows = np.flatnonzero(flying if explain else (ends_in & flying))
     if straight and len(rows):  # a path settled inside by its ends needs no exact test
-        settled = _path_settled(
-            shapes, parts_all, rows, fuel, taxi, trip, order_index, rho, tables, pay_w, pay_m, pay_l
-        )
-        rows = rows[~settled]
+        settled = _path_settled(tables, shapes, parts_all, fuel, taxi, trip, order_index, rho, pay_w, pay_m, pay_l)
+        rows = rows[~settled[rows]]
     path_outside: list[list[tuple[float, float]]] | None = [[] for _ in range(n)] if explain else None
     if len(rows):
         tested_ok, stretches = _burn_path(
@@ -753,7 +754,7 @@ def _evaluate(
             pay_m[rows],
             pay_l[rows],
             explain,
-            (q[rows, 1:], tank_arm[rows, 1:]),
+            q[rows, 1:],
         )
         path_ok[rows] &= tested_ok
         if path_outside is not None:
@@ -908,20 +909,19 @@ def path_states(
 
 
 def _path_settled(
+    tables: _Tables,
     shapes: Sequence[EnvelopeShape],
     parts_all: list[np.ndarray],
-    rows: np.ndarray,
     fuel: np.ndarray,
     taxi: np.ndarray,
     trip: np.ndarray,
     order: Sequence[int] | None,
     rho: np.ndarray,
-    tables: _Tables,
     pay_w: np.ndarray,
     pay_m: np.ndarray,
     pay_l: np.ndarray,
 ) -> np.ndarray:
-    """True for the rows (of ``rows``) whose burn path is inside every envelope, shown by its ends alone.
+    """(N,) True where the burn path is inside every envelope, shown by the ends of its pieces alone.
 
     Only for an aircraft without an arm table (every tank's arm fixed): between takeoff,
     the points where a tank runs dry in the burn order and landing, the fuel burns from
@@ -934,32 +934,30 @@ def _path_settled(
 
     ``parts_all``: per envelope, the (4, N) parts of each condition's state (:meth:`EnvelopeShape.locate`).
     """
-    start, end = taxi[rows], taxi[rows] + trip[rows]
-    settled = np.ones(len(rows), dtype=bool)
-    cuts = _burn_cuts_fixed(fuel[rows], order)  # (K, C) where a tank runs dry
-    if cuts.shape[1]:
-        points = np.minimum(np.maximum(cuts, start[:, None]), end[:, None])
-        q = tank_quantities(fuel[rows], points, order)  # (K, C, T)
-        mass = q * rho
-        w = pay_w[rows, None] + mass.sum(axis=2)
-        m = pay_m[rows, None] + _dot(mass, tables.fixed_arms)
-        lat = pay_l[rows, None] + _dot(mass, tables.tank_lats)
-    for shape, parts in zip(shapes, parts_all, strict=True):
-        before = parts[1, rows]  # takeoff
-        if cuts.shape[1]:
-            at_cuts = shape.parts(w, m, lat)  # (K, C)
-            for column in range(cuts.shape[1]):
-                settled &= (before & at_cuts[:, column]) != 0
-                before = at_cuts[:, column]
-        settled &= (before & parts[2, rows]) != 0  # landing
+    start, end = taxi, taxi + trip
+    settled = np.ones(len(taxi), dtype=bool)
+    before = [parts[1] for parts in parts_all]  # takeoff
+    if order is not None:
+        # where tank j of the order runs dry, it and the tanks before it are empty and the
+        # others hold what they held at engine start: that state, where it falls within the trip
+        burned = np.zeros(len(taxi))
+        kept = np.ones(len(rho))
+        for tank in order:
+            burned = burned + fuel[:, tank]
+            kept[tank] = 0.0
+            cut = (burned > start) & (burned < end)
+            if not cut.any():
+                continue
+            w = pay_w + _dot(fuel, rho * kept)
+            m = pay_m + _dot(fuel, rho * kept * tables.fixed_arms)
+            lat = pay_l + _dot(fuel, rho * kept * tables.tank_lats)
+            for k, shape in enumerate(shapes):
+                here = shape.parts(w, m, lat)
+                settled &= ~cut | ((before[k] & here) != 0)
+                before[k] = np.where(cut, here, before[k])
+    for k, parts in enumerate(parts_all):
+        settled &= (before[k] & parts[2]) != 0  # landing
     return settled
-
-
-def _burn_cuts_fixed(fuel: np.ndarray, order: Sequence[int] | None) -> np.ndarray:
-    """(N, C): fuel burned since engine start where each tank of the burn order runs dry (none burning together)."""
-    if order is None:
-        return np.zeros((fuel.shape[0], 0))
-    return np.cumsum(fuel[:, list(order)], axis=1)
 
 
 _MIDDLE = np.array([1.0, 0.5, 0.25])  # the powers of u = 1/2: a piece's middle from its coefficients
@@ -983,13 +981,13 @@ def _burn_path(
     pay_m: np.ndarray,
     pay_l: np.ndarray,
     explain: bool,
-    known: tuple[np.ndarray, np.ndarray],
+    known: np.ndarray,
 ) -> tuple[np.ndarray, list[list[tuple[float, float]]]]:
     """Whether the path from takeoff to landing stays inside every envelope, and (with
     ``explain``) the stretches outside, as fuel burned since engine start [fuel volume unit].
 
-    ``known``: the tank quantities and arms at takeoff and landing, (N, 2, T) each, as the
-    conditions have them; where the path is not cut they are the ends of its one piece."""
+    ``known``: the tank quantities at takeoff and landing, (N, 2, T), as the conditions
+    have them; where the path is not cut they are the ends of its one piece."""
     n = fuel.shape[0]
     start, end = taxi, taxi + trip
     points = np.array([start, end, *_burn_cuts(aircraft, fuel, order)]).T
@@ -1004,10 +1002,10 @@ def _burn_path(
         return np.ones(n, dtype=bool), stretches
     a, b = points[rows, cols], points[rows, cols + 1]  # the K live pieces
     if points.shape[1] == 2:  # not cut: each piece is takeoff to landing, the same quantities as the conditions'
-        q_ends, arm_ends = known[0][rows], known[1][rows]
+        q_ends = known[rows]
     else:
         q_ends = tank_quantities(fuel[rows], np.array([a, b]).T, order)  # (K, 2, T): both ends at once
-        arm_ends = _tank_arms(aircraft, q_ends)
+    arm_ends = _tank_arms(aircraft, q_ends)
     # each tank's mass ma + dm u and arm arm + da u on the piece (u from 0 to 1): weight, moment
     # and lateral moment as polynomials in u, (K, 3) coefficients each, lowest power first
     ma = q_ends[:, 0] * rho  # (K, T)
