@@ -377,6 +377,29 @@ def _tank_arms(aircraft: Aircraft, quantities: np.ndarray) -> np.ndarray:
     return arms
 
 
+def _tank_sums(
+    aircraft: Aircraft, tables: _Tables, quantities: np.ndarray, mass: np.ndarray
+) -> tuple[np.ndarray, np.ndarray]:
+    """Fuel weight and fuel moment summed over the tanks (..., T) -> (...) [mass unit, mass unit * arm unit].
+
+    One tank at a time, each at its own arm (:meth:`Tank.arm_at` where it moves with
+    quantity): the same sums, in the same order, whether an arm is fixed or read from a
+    constant table, and cheaper than a reduction over a short last axis."""
+    moving = tables.moving
+    if mass.shape[-1] == 0:  # no tank
+        return np.zeros(mass.shape[:-1]), np.zeros(mass.shape[:-1])
+    weight = mass[..., 0].copy()
+    moment = np.empty_like(weight)
+    for index in range(mass.shape[-1]):
+        arm = aircraft.tank[index].arm_at(quantities[..., index]) if index in moving else tables.fixed_arms[index]
+        if index == 0:
+            np.multiply(mass[..., 0], arm, out=moment)
+        else:
+            weight += mass[..., index]
+            moment += mass[..., index] * arm
+    return weight, moment
+
+
 def _burn_cuts(aircraft: Aircraft, fuel: np.ndarray, order: Sequence[int] | None) -> list[np.ndarray]:
     """Fuel burned since engine start where the path stops being one polynomial (N,) each.
 
@@ -668,20 +691,15 @@ def _evaluate(
     burned[:, 1] = taxi
     burned[:, 2] = taxi + trip
     q = tank_quantities(fuel, burned, order_index)  # (N, 3, T)
+    mass = q * rho
     fuel_w = np.zeros((4, n))
     all_m = np.empty((4, n))
-    if tables.moving:  # an arm that moves with quantity: each tank's moment at its own arm
-        mass = q * rho
-        fuel_w[:3] = mass.sum(axis=2).T
-        all_m[:3] = (mass * _tank_arms(aircraft, q)).sum(axis=2).T
-    else:  # fixed arms: one product over the tanks each (a sum over a short last axis costs more)
-        fuel_w[:3] = _dot(q, rho).T
-        all_m[:3] = _dot(q, rho * tables.fixed_arms).T
+    fuel_w[:3], all_m[:3] = (a.T for a in _tank_sums(aircraft, tables, q, mass))
     all_w = pay_w + fuel_w
     all_m[:3] += pay_m
     all_m[3] = pay_m
     all_l = np.empty((4, n))
-    all_l[:3] = _dot(q, rho * tank_lats).T
+    all_l[:3] = _dot(mass, tank_lats).T
     all_l[:3] += pay_l
     all_l[3] = pay_l
     weight = dict(zip(CONDITIONS, all_w, strict=True))
