@@ -565,7 +565,62 @@ def _ring(polygon: shapely.Polygon) -> np.ndarray:
     return np.asarray(corners[keep])
 
 
+_MOST_PARTS = 12
+"""At most this many convex parts (each costs a pass over the points per edge)."""
+
+
 def _convex_pieces(polygon: shapely.Polygon) -> list[np.ndarray]:
+    """Convex polygons within a non-convex polygon, covering it, overlapping where they can.
+
+    The polygon is cut at a reflex corner along the line of each of the corner's two edges,
+    keeping the side the edge bounds, and each side is cut again until no reflex corner is
+    left: large overlapping parts, so that a piece of path has both ends in one part more
+    often than with a partition. Where that gives more than :data:`_MOST_PARTS` parts, the
+    polygon's constrained Delaunay triangles merged with their neighbours while the union
+    stays convex (Hertel and Mehlhorn, 1983) are the parts. Whatever the parts, the test of
+    a part is the intersection of its edges' inner half-planes (its kernel), which lies
+    within the part, so within the polygon (:class:`_Locator`).
+    """
+    found: list[shapely.Polygon] = []
+
+    def split(piece: shapely.Polygon, depth: int) -> None:
+        corners = _ring(piece)
+        reflex = _reflex_corner(corners)
+        if reflex is None or depth >= 8:
+            found.append(piece)
+            return
+        for a, b in ((corners[reflex - 1], corners[reflex]), (corners[reflex], corners[(reflex + 1) % len(corners)])):
+            d = (b - a) / np.hypot(*(b - a))
+            left = np.array([-d[1], d[0]])
+            side = shapely.Polygon([a - 10 * d, a + 10 * d, a + 10 * d + 10 * left, a - 10 * d + 10 * left])
+            cut = piece.intersection(side)
+            for g in getattr(cut, "geoms", [cut]):
+                if isinstance(g, shapely.Polygon) and g.area > 1e-9 * polygon.area:
+                    split(g, depth + 1)
+
+    split(polygon, 0)
+    kept: list[shapely.Polygon] = []
+    for piece in sorted(found, key=lambda g: -g.area):
+        if not any(k.buffer(1e-12).contains(piece) for k in kept):
+            kept.append(piece)
+    if len(kept) > _MOST_PARTS:
+        kept = _merged_triangles(polygon)
+    return [_ring(p) for p in kept]
+
+
+def _reflex_corner(corners: np.ndarray) -> int | None:
+    """The index of a corner of a counter-clockwise ring that turns right (by more than a
+    rounding's worth), or None where there is none."""
+    into = corners - np.roll(corners, 1, axis=0)
+    out = np.roll(corners, -1, axis=0) - corners
+    sine = (into[:, 0] * out[:, 1] - into[:, 1] * out[:, 0]) / (
+        np.hypot(into[:, 0], into[:, 1]) * np.hypot(out[:, 0], out[:, 1])
+    )
+    right = np.flatnonzero(sine < -1e-9)
+    return int(right[0]) if len(right) else None
+
+
+def _merged_triangles(polygon: shapely.Polygon) -> list[shapely.Polygon]:
     """Convex polygons whose union is the polygon: its constrained Delaunay triangles, each
     merged with a neighbour while their union stays convex (Hertel and Mehlhorn, 1983)."""
     pieces = list(shapely.constrained_delaunay_triangles(polygon).geoms)
@@ -582,7 +637,7 @@ def _convex_pieces(polygon: shapely.Polygon) -> list[np.ndarray]:
                 del pieces[j]
                 merged = True
                 break
-    return [_ring(p) for p in pieces]
+    return pieces
 
 
 def _half_planes(corners: np.ndarray, origin: np.ndarray, span: np.ndarray) -> np.ndarray:
