@@ -556,12 +556,13 @@ def _turns_left(corners: np.ndarray) -> bool:
 
 
 def _ring(polygon: shapely.Polygon) -> np.ndarray:
-    """A polygon's corners, counter-clockwise, the closing corner and repeated corners left out."""
+    """A polygon's corners (scaled axes), counter-clockwise, the closing corner and repeated corners left out."""
     ring = shapely.Polygon(polygon.exterior.coords)
     if not ring.exterior.is_ccw:
         ring = ring.reverse()
     corners = np.asarray(ring.exterior.coords)[:-1]
-    keep = np.any(corners != np.roll(corners, -1, axis=0), axis=1)
+    step = np.roll(corners, -1, axis=0) - corners
+    keep = np.hypot(step[:, 0], step[:, 1]) > 1e-9  # a cut's corner a rounding away from another is that one
     return np.asarray(corners[keep])
 
 
@@ -609,14 +610,15 @@ def _convex_pieces(polygon: shapely.Polygon) -> list[np.ndarray]:
 
 
 def _reflex_corner(corners: np.ndarray) -> int | None:
-    """The index of a corner of a counter-clockwise ring that turns right (by more than a
-    rounding's worth), or None where there is none."""
+    """The index of a corner of a counter-clockwise ring that turns right (by more than the
+    rounding of a cut's new corners, between edges of some length), or None where there is none."""
     into = corners - np.roll(corners, 1, axis=0)
     out = np.roll(corners, -1, axis=0) - corners
     sine = (into[:, 0] * out[:, 1] - into[:, 1] * out[:, 0]) / (
         np.hypot(into[:, 0], into[:, 1]) * np.hypot(out[:, 0], out[:, 1])
     )
-    right = np.flatnonzero(sine < -1e-9)
+    long_enough = (np.hypot(into[:, 0], into[:, 1]) > 1e-9) & (np.hypot(out[:, 0], out[:, 1]) > 1e-9)
+    right = np.flatnonzero((sine < -1e-7) & long_enough)
     return int(right[0]) if len(right) else None
 
 

@@ -215,3 +215,163 @@ def test_no_max_ramp_weight_means_no_ramp_allowance():
     assert result.conditions[0].weight == pytest.approx(1805.0)
     assert result.conditions[1].ok and not result.conditions[0].ok
     assert ramp_findings(result) == [("envelope", "limit")]
+
+
+# -- the burn path settled by its ends (engine._path_settled, envelope._Locator) ------------------
+#
+# A piece of path between two states strictly inside one straight convex part of an envelope stays
+# inside it (docs/computation.md, "A path settled by its ends"): these rows skip the exact test. Each
+# case below compares every field with the exact test alone (the shortcut switched off) and checks
+# that the case holds both settled rows and rows whose path leaves the envelope between inside ends.
+
+
+def _exact_only(monkeypatch):
+    from loadcheck import engine
+
+    monkeypatch.setattr(engine, "_path_settled", lambda tables, shapes, parts, fuel, *rest: np.zeros(len(fuel), bool))
+
+
+def _fields_equal(a, b):
+    if isinstance(a, dict):
+        return a.keys() == b.keys() and all(_fields_equal(a[k], b[k]) for k in a)
+    if isinstance(a, list):
+        return len(a) == len(b) and all(_fields_equal(x, y) for x, y in zip(a, b, strict=True))
+    if a is None or isinstance(a, tuple):
+        return a == b
+    return np.array_equal(np.asarray(a), np.asarray(b))
+
+
+def assert_same_as_exact(monkeypatch, aircraft, data, order=None, category=None):
+    """Every field of evaluate, with and without explain, equals the exact test's; returns the
+    number of rows settled by their ends and the number whose path leaves between inside ends."""
+    from loadcheck import engine
+
+    settled_rows = []
+    real = engine._path_settled
+
+    def spy(*args):
+        settled = real(*args)
+        settled_rows.append(int(settled.sum()))
+        return settled
+
+    with monkeypatch.context() as m:
+        m.setattr(engine, "_path_settled", spy)
+        fast = [evaluate(aircraft, *data, order=order, category=category, explain=e) for e in (False, True)]
+    with monkeypatch.context() as m:
+        _exact_only(m)
+        exact = [evaluate(aircraft, *data, order=order, category=category, explain=e) for e in (False, True)]
+    for a, b in zip(fast, exact, strict=True):
+        for field in a.__dataclass_fields__:
+            assert _fields_equal(getattr(a, field), getattr(b, field)), field
+    ends_in = exact[0].envelope_ok["takeoff"] & exact[0].envelope_ok["landing"]
+    left_between = int((ends_in & ~exact[0].burn_path_ok).sum())
+    return sum(settled_rows), left_between  # none settled where no part is straight (not called)
+
+
+def test_settled_paths_agree_with_the_exact_test_on_a_non_convex_envelope(monkeypatch):
+    # twin6: moment against weight, the forward limit bent in (one reflex corner): two overlapping parts
+    aircraft = AIRCRAFT["twin6"]
+    assert not aircraft.envelope[0].shape.convex
+    for order in ORDERS["twin6"]:
+        settled, left = assert_same_as_exact(
+            monkeypatch, aircraft, random_loadings(aircraft, 20_000, order, 5, over=1.1), order=order
+        )
+        assert settled > 5_000 and left > 0, order
+
+
+def test_settled_paths_agree_with_the_exact_test_where_a_tank_runs_dry(monkeypatch):
+    # trainer4 burning one tank after the other: the path bends where the first runs dry
+    aircraft = AIRCRAFT["trainer4"]
+    for order in (("mains", "centre"), ("centre", "mains")):
+        data = random_loadings(aircraft, 20_000, order, 6, over=1.1)
+        settled, _ = assert_same_as_exact(monkeypatch, aircraft, data, order=order, category="normal")
+        assert settled > 5_000
+
+
+def test_a_path_bent_out_where_a_tank_runs_dry_is_tested_exactly(monkeypatch):
+    # box 35..48 in; aft tank (90 in, 20 gal) burns first, then the nose tank (0 in): at takeoff
+    # 1,360 lb at 37.35 in, where the aft tank runs dry 1,240 lb at 32.26 in (forward of 35),
+    # at landing (30 gal of the nose tank burned) 1,060 lb at 37.74 in: both ends inside, the path not
+    aircraft = simple_aircraft(
+        tank=[
+            {"id": "aft", "arm": 90.0, "usable": 20.0, "fuel": "avgas"},
+            {"id": "nose", "arm": 0.0, "usable": 40.0, "fuel": "avgas"},
+        ]
+    )
+    data = (np.zeros((1, 3)), np.array([[20.0, 40.0]]), np.zeros(1), np.array([50.0]))
+    result = evaluate(aircraft, *data, order=("aft", "nose"), explain=True)
+    assert result.envelope_ok["takeoff"][0] and result.envelope_ok["landing"][0]
+    assert not result.burn_path_ok[0]
+    (low, high), *_ = result.path_outside[0]
+    assert low < 20.0 < high  # the stretch outside holds the point where the aft tank runs dry
+    settled, left = assert_same_as_exact(monkeypatch, aircraft, data, order=("aft", "nose"))
+    assert settled == 0 and left == 1
+
+
+def test_a_path_grazing_an_edge_or_running_along_it_agrees_with_the_exact_test(monkeypatch):
+    # the cases above (tests of the single check): on an edge the ends are not inside by the margin
+    along = simple_aircraft(
+        empty={"weight": 1000.0, "arm": 35.0}, tank=[{"id": "main", "arm": 35.0, "usable": 40, "fuel": "avgas"}]
+    )
+    data = (np.array([[200.0, 0.0, 0.0], [0.0, 0.0, 0.0]]), np.array([[40.0], [10.0]]), np.array([1.0, 0.0]))
+    settled, _ = assert_same_as_exact(monkeypatch, along, (*data, np.array([30.0, 10.0])))
+    assert settled == 0
+    notch = [[35.0, 900.0], [35.0, 1500.0], [40.0, 1800.0], [40.0, 2000.0], [48.0, 2000.0], [48.0, 900.0]]
+    aircraft = simple_aircraft(
+        envelope=[{"category": "normal", "axes": ["arm", "weight"], "points": notch}],
+        tank=[{"id": "main", "arm": 55.0, "usable": 100, "fuel": "avgas"}],
+    )
+    rng = np.random.default_rng(3)
+    n = 3000
+    stations = np.stack([rng.uniform(0, 400, n), rng.uniform(0, 150, n), rng.uniform(0, 100, n)], axis=1)
+    fuel = rng.uniform(0, 100, (n, 1))
+    settled, _ = assert_same_as_exact(
+        monkeypatch, aircraft, (stations, fuel, np.zeros(n), fuel[:, 0] * rng.uniform(0.3, 1.0, n))
+    )
+    assert settled > 500
+
+
+def test_a_lateral_envelope_settles_paths_as_the_exact_test_does(monkeypatch):
+    # lateral CG against weight (FAA-H-8083-1B chapter 8, figure 8-3 draws one), a tank off the centreline
+    lateral = [[-3.0, 900.0], [-3.0, 1500.0], [-1.0, 2000.0], [2.0, 2000.0], [3.0, 1500.0], [3.0, 900.0]]
+    aircraft = simple_aircraft(
+        station=[
+            {"id": "left", "arm": 38.0, "lateral_arm": -14.0, "kind": "seat"},
+            {"id": "right", "arm": 38.0, "lateral_arm": 14.0, "kind": "seat"},
+            {"id": "bag", "arm": 45.0, "lateral_arm": 0.0, "kind": "baggage"},
+        ],
+        tank=[
+            {"id": "port", "arm": 45.0, "lateral_arm": -40.0, "usable": 20.0, "fuel": "avgas"},
+            {"id": "starboard", "arm": 45.0, "lateral_arm": 40.0, "usable": 20.0, "fuel": "avgas"},
+        ],
+        envelope=[
+            {"category": "normal", "axes": ["arm", "weight"], "points": [[35, 900], [35, 2000], [48, 2000], [48, 900]]},
+            {"category": "normal", "label": "lateral", "axes": ["lateral_arm", "weight"], "points": lateral},
+        ],
+    )
+    assert all(e.shape.has_straight_parts for e in aircraft.envelope)
+    # burning the port tank first swings the lateral CG to starboard until it runs dry, then back
+    for order in (None, ("port", "starboard")):
+        data = random_loadings(aircraft, 20_000, order, 8, over=1.0, default_max=300.0)
+        settled, left = assert_same_as_exact(monkeypatch, aircraft, data, order=order)
+        assert settled > 1_000 and (order is None or left > 0), order
+
+
+def test_an_edge_not_concave_along_the_path_is_tested_exactly(monkeypatch):
+    # the forward limit moves forward with weight (40 in at 900 lb, 35 in at 2,000 lb): in arm and
+    # weight the path x = 30 + C / W (fuel at 30 in) can cross it between two inside ends. From
+    # 2,000 lb at 35.45 in to 1,400 lb (all 100 gal burned) the CG reaches the limit line
+    # 44.09 - 0.004545 W nearest at about 1,549 lb, 0.013 in forward of it.
+    aircraft = simple_aircraft(
+        empty={"weight": 1400.0, "arm": (2000 * 35.45 - 600 * 30.0) / 1400.0},
+        tank=[{"id": "main", "arm": 30.0, "usable": 100.0, "fuel": "avgas"}],
+        envelope=[
+            {"category": "normal", "axes": ["arm", "weight"], "points": [[40, 900], [35, 2000], [48, 2000], [48, 900]]}
+        ],
+    )
+    assert aircraft.envelope[0].shape._locator.straight_parts == [False]
+    data = (np.zeros((1, 3)), np.array([[100.0]]), np.zeros(1), np.array([100.0]))
+    result = evaluate(aircraft, *data)
+    assert result.envelope_ok["takeoff"][0] and result.envelope_ok["landing"][0]
+    assert not result.burn_path_ok[0]
+    assert assert_same_as_exact(monkeypatch, aircraft, data) == (0, 1)

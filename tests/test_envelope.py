@@ -155,3 +155,90 @@ def test_every_axis_is_one_entry_of_the_table():
         x, _ = shape.coords(w, m, lat)
         assert float(x) == pytest.approx(value, rel=1e-12), axis
         assert shape.is_lateral == (axis == "lateral_arm")
+
+
+# -- containment of many points: convex parts and half-planes (envelope._Locator) ----------------
+
+ZIGZAG = [
+    [35.0, 1000.0],
+    [38.0, 1300.0],
+    [35.5, 1600.0],
+    [39.0, 2000.0],
+    [48.0, 2000.0],
+    [44.0, 1500.0],
+    [48.0, 1000.0],
+]
+
+
+def _near_edges(shape: EnvelopeShape, n: int, seed: int) -> tuple[np.ndarray, np.ndarray]:
+    """Points on, just inside and just outside every edge and corner (scaled distances of
+    0 to 1e-8, about the tolerance), and anywhere around the envelope."""
+    rng = np.random.default_rng(seed)
+    corners = shape.corners
+    ends = np.roll(corners, -1, axis=0)
+    pick = rng.integers(0, len(corners), n)
+    t = rng.choice([0.0, 1.0, 0.5, rng.uniform()], n)
+    on = corners[pick] + t[:, None] * (ends[pick] - corners[pick])
+    offset = rng.choice([0.0, 1e-12, 5e-10, 1e-9, 1.9e-9, 2.1e-9, 1e-8, 0.05], (n, 2)) * rng.choice([-1, 1], (n, 2))
+    near = on + offset * shape.span
+    anywhere = shape.origin + rng.uniform(-0.2, 1.2, (n, 2)) * shape.span
+    points = np.concatenate([near, anywhere])
+    return points[:, 0], points[:, 1]
+
+
+@pytest.mark.parametrize("points", [SQUARE, NOTCH, ZIGZAG], ids=["convex", "notch", "zigzag"])
+def test_many_points_are_contained_as_shapely_finds_them(points):
+    # the half-plane test settles what it can and asks shapely the rest: the same answer as one
+    # shapely.intersects_xy call on the covering for every point, on edges and corners as well
+    import shapely
+
+    from loadcheck.envelope import FAST_COVERS_FROM
+
+    shape = arm_shape(points)
+    arm, weight = _near_edges(shape, 20_000, 1)
+    assert len(arm) >= FAST_COVERS_FROM
+    state = (weight, arm * weight, np.zeros_like(weight))
+    x, y = shape.coords(*state)
+    (ox, oy), (wx, wy) = shape._origin_span
+    expected = shapely.intersects_xy(shape.covering, (x - ox) / wx, (y - oy) / wy)
+    assert np.array_equal(shape.covers(*state), expected)
+    assert 0.2 < expected.mean() < 0.9
+
+
+@pytest.mark.parametrize("points", [SQUARE, NOTCH, ZIGZAG], ids=["convex", "notch", "zigzag"])
+def test_the_convex_parts_lie_within_the_envelope_and_cover_it(points):
+    # every point inside a part by the margin is inside the polygon; every point well inside the
+    # polygon (1e-6 of its extent from the boundary) is inside some part
+    import shapely
+
+    from loadcheck.envelope import STRICT_MARGIN
+
+    shape = arm_shape(points)
+    arm, weight = _near_edges(shape, 20_000, 3)
+    x, y = shape.coords(weight, arm * weight, np.zeros_like(weight))
+    locator = shape._locator
+    in_part = np.zeros(len(x), dtype=bool)
+    for piece in locator.pieces:
+        in_part |= locator._least(x, y, piece) >= STRICT_MARGIN
+    normal = shapely.Polygon((shape.corners - shape.origin) / shape.span)
+    sx, sy = (x - shape.origin[0]) / shape.span[0], (y - shape.origin[1]) / shape.span[1]
+    well_inside = shapely.contains_xy(normal.buffer(-1e-6), sx, sy)
+    inside = shapely.intersects_xy(normal, sx, sy)
+    assert inside[in_part].all()
+    assert in_part[well_inside].all()
+    assert well_inside.sum() > 1_000
+    assert shape.convex == (points is SQUARE)
+
+
+def test_a_point_inside_a_straight_part_is_inside_the_envelope():
+    # moment against weight: every part is straight, so each has a bit in parts()
+    shape = EnvelopeShape(("moment", "weight"), [[a * w / 1000, w] for a, w in ZIGZAG], moment_scale=1000.0)
+    assert not shape.convex and all(shape._locator.straight_parts)
+    rng = np.random.default_rng(2)
+    weight = rng.uniform(900, 2100, 20_000)
+    moment = rng.uniform(30, 50, 20_000) * weight
+    parts = shape.parts(weight, moment, np.zeros_like(weight))
+    inside = shape.covers(weight, moment, np.zeros_like(weight))
+    assert (parts != 0).sum() > 1_000
+    assert inside[parts != 0].all()
+    assert ((parts != 0) | ~inside).mean() > 0.99  # nearly every point inside is in a part
