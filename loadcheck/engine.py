@@ -49,7 +49,7 @@ from typing import Any
 import numpy as np
 
 from .aircraft import Aircraft, Envelope
-from .envelope import EnvelopeShape, quadratic_roots
+from .envelope import FAST_COVERS_FROM, EnvelopeShape, quadratic_roots
 from .loading import ResolvedLoading
 
 __all__ = [
@@ -377,21 +377,19 @@ def _tank_arms(aircraft: Aircraft, quantities: np.ndarray) -> np.ndarray:
     return arms
 
 
-def _tank_sums(
-    aircraft: Aircraft, tables: _Tables, quantities: np.ndarray, mass: np.ndarray
-) -> tuple[np.ndarray, np.ndarray]:
+def _tank_sums(tables: _Tables, mass: np.ndarray, arms: np.ndarray | None) -> tuple[np.ndarray, np.ndarray]:
     """Fuel weight and fuel moment summed over the tanks (..., T) -> (...) [mass unit, mass unit * arm unit].
 
-    One tank at a time, each at its own arm (:meth:`Tank.arm_at` where it moves with
-    quantity): the same sums, in the same order, whether an arm is fixed or read from a
-    constant table, and cheaper than a reduction over a short last axis."""
-    moving = tables.moving
+    One tank at a time, each at its own arm (``arms``, :func:`_tank_arms`, where some arm
+    moves with quantity; else the fixed arms): the same sums, in the same order, whether an
+    arm is fixed or read from a constant table, and cheaper than a reduction over a short
+    last axis."""
     if mass.shape[-1] == 0:  # no tank
         return np.zeros(mass.shape[:-1]), np.zeros(mass.shape[:-1])
     weight = mass[..., 0].copy()
     moment = np.empty_like(weight)
     for index in range(mass.shape[-1]):
-        arm = aircraft.tank[index].arm_at(quantities[..., index]) if index in moving else tables.fixed_arms[index]
+        arm = arms[..., index] if arms is not None else tables.fixed_arms[index]
         if index == 0:
             np.multiply(mass[..., 0], arm, out=moment)
         else:
@@ -694,7 +692,8 @@ def _evaluate(
     mass = q * rho
     fuel_w = np.zeros((4, n))
     all_m = np.empty((4, n))
-    fuel_w[:3], all_m[:3] = (a.T for a in _tank_sums(aircraft, tables, q, mass))
+    tank_arm = _tank_arms(aircraft, q) if tables.moving else None  # (N, 3, T) where an arm moves
+    fuel_w[:3], all_m[:3] = (a.T for a in _tank_sums(tables, mass, tank_arm))
     all_w = pay_w + fuel_w
     all_m[:3] += pay_m
     all_m[3] = pay_m
@@ -729,12 +728,14 @@ def _evaluate(
     # every envelope at the four conditions at once: one containment call per envelope; where
     # a straight piece of path may be settled by its ends (_path_settled), also the convex
     # parts each state lies in
+    # (for a few loadings shapely's containment is cheaper, and the parts are found later, if needed)
     straight = not tables.moving and all(shape.has_straight_parts for shape in shapes)
+    together = straight and 4 * n >= FAST_COVERS_FROM
     inside_all = []
     parts_all = []
     for shape in shapes:
         states = _tested_states(shape, all_w, all_m, all_l, tables.allowance)
-        if straight:
+        if together:
             inside, parts = shape.locate(*states)
             parts_all.append(parts)
         else:
@@ -754,7 +755,12 @@ def _evaluate(
     path_ok = ends_in.copy()
     flying = trip > 0
     rows = np.flatnonzero(flying if explain else (ends_in & flying))
-    if straight and len(rows):  # a path settled inside by its ends needs no exact test
+    if straight and ends_in[rows].any():  # a path settled inside by its ends needs no exact test
+        if not together:  # the parts of the takeoff and landing states (rows 1 and 2 of (4, N))
+            for shape in shapes:
+                parts = np.zeros((4, n), dtype=np.int64)
+                parts[1:3] = shape.parts(all_w[1:3], all_m[1:3], all_l[1:3])
+                parts_all.append(parts)
         settled = _path_settled(tables, shapes, parts_all, fuel, taxi, trip, order_index, rho, pay_w, pay_m, pay_l)
         rows = rows[~settled[rows]]
     path_outside: list[list[tuple[float, float]]] | None = [[] for _ in range(n)] if explain else None
@@ -772,7 +778,7 @@ def _evaluate(
             pay_m[rows],
             pay_l[rows],
             explain,
-            q[rows, 1:],
+            (q[rows, 1:], None if tank_arm is None else tank_arm[rows, 1:]),
         )
         path_ok[rows] &= tested_ok
         if path_outside is not None:
@@ -999,13 +1005,14 @@ def _burn_path(
     pay_m: np.ndarray,
     pay_l: np.ndarray,
     explain: bool,
-    known: np.ndarray,
+    known: tuple[np.ndarray, np.ndarray | None],
 ) -> tuple[np.ndarray, list[list[tuple[float, float]]]]:
     """Whether the path from takeoff to landing stays inside every envelope, and (with
     ``explain``) the stretches outside, as fuel burned since engine start [fuel volume unit].
 
-    ``known``: the tank quantities at takeoff and landing, (N, 2, T), as the conditions
-    have them; where the path is not cut they are the ends of its one piece."""
+    ``known``: the tank quantities and (where an arm moves with quantity, else None) arms at
+    takeoff and landing, (N, 2, T), as the conditions have them; where the path is not cut
+    they are the ends of its one piece."""
     n = fuel.shape[0]
     start, end = taxi, taxi + trip
     points = np.array([start, end, *_burn_cuts(aircraft, fuel, order)]).T
@@ -1020,10 +1027,11 @@ def _burn_path(
         return np.ones(n, dtype=bool), stretches
     a, b = points[rows, cols], points[rows, cols + 1]  # the K live pieces
     if points.shape[1] == 2:  # not cut: each piece is takeoff to landing, the same quantities as the conditions'
-        q_ends = known[rows]
+        q_ends = known[0][rows]
+        arm_ends = _tank_arms(aircraft, q_ends) if known[1] is None else known[1][rows]
     else:
         q_ends = tank_quantities(fuel[rows], np.array([a, b]).T, order)  # (K, 2, T): both ends at once
-    arm_ends = _tank_arms(aircraft, q_ends)
+        arm_ends = _tank_arms(aircraft, q_ends)
     # each tank's mass ma + dm u and arm arm + da u on the piece (u from 0 to 1): weight, moment
     # and lateral moment as polynomials in u, (K, 3) coefficients each, lowest power first
     ma = q_ends[:, 0] * rho  # (K, T)
