@@ -100,6 +100,7 @@ class AxisSpec:
 
 def _mac_coefficients(_scale: float, mac: Mac | None) -> tuple[float, float, float]:
     if mac is None:
+        # ValueError on purpose: shapes are built in Aircraft's pydantic validator, where pydantic expects one
         raise ValueError("a 'mac' axis needs the aircraft's [mac] table")
     return -100.0 * mac.leading_edge_arm / mac.length, 100.0 / mac.length, 0.0
 
@@ -229,9 +230,14 @@ class EnvelopeShape:
         """Most forward and most rearward CG arm anywhere on the envelope [arm unit].
 
         The arm is a linear-fractional function of the axes, so its extremes lie at corners.
+        Only for an envelope that limits the longitudinal CG: a lateral one raises TypeError
+        (a programming error; its callers skip lateral envelopes).
         """
-        if self.is_lateral:
-            raise ValueError("this envelope does not limit the longitudinal CG")
+        if self.is_lateral:  # a caller's mistake, not the user's (the callers skip lateral envelopes)
+            raise TypeError(
+                f"arm_range() of a lateral envelope (axes {self.axes[0]}, {self.axes[1]}): it does not limit "
+                "the longitudinal CG; ask only an envelope whose is_lateral is False"
+            )
         if "arm" in self.axes:
             arms = self.corners[:, self.axes.index("arm")]
         else:  # weight and an axis whose numerator is a W + b M (b != 0): M = (value * D - a W) / b

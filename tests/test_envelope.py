@@ -242,3 +242,12 @@ def test_a_point_inside_a_straight_part_is_inside_the_envelope():
     assert (parts != 0).sum() > 1_000
     assert inside[parts != 0].all()
     assert ((parts != 0) | ~inside).mean() > 0.99  # nearly every point inside is in a part
+
+
+def test_arm_range_of_a_lateral_envelope_is_a_programming_error():
+    # a lateral envelope does not limit the longitudinal CG: asking it is the caller's mistake
+    # (TypeError), not an input problem (ValueError), and says which envelope it was
+    lateral = EnvelopeShape(("lateral_arm", "weight"), [[-3.0, 900.0], [-3.0, 2000.0], [3.0, 2000.0], [3.0, 900.0]])
+    with pytest.raises(TypeError, match="lateral envelope .*lateral_arm, weight"):
+        lateral.arm_range()
+    assert arm_shape().arm_range() == (35.0, 48.0)
