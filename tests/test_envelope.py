@@ -248,6 +248,6 @@ def test_arm_range_of_a_lateral_envelope_is_a_programming_error():
     # a lateral envelope does not limit the longitudinal CG: asking it is the caller's mistake
     # (TypeError), not an input problem (ValueError), and says which envelope it was
     lateral = EnvelopeShape(("lateral_arm", "weight"), [[-3.0, 900.0], [-3.0, 2000.0], [3.0, 2000.0], [3.0, 900.0]])
-    with pytest.raises(TypeError, match="lateral envelope .*lateral_arm, weight"):
+    with pytest.raises(TypeError, match=r"lateral envelope .*lateral_arm, weight"):
         lateral.arm_range()
     assert arm_shape().arm_range() == (35.0, 48.0)
