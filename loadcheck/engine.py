@@ -29,7 +29,9 @@ arm moves with quantity (:meth:`loadcheck.envelope.EnvelopeShape.edge_polynomial
 roots are found in closed form for all loadings at once. A piece of path on which no root
 falls on an actual edge stays on one side of the boundary, so one containment test at its
 middle settles it; the pieces that touch an edge are split at every root and each part is
-tested at its middle.
+tested at its middle. Before that, a loading whose path is shown inside by the ends of its
+straight pieces alone (fixed tank arms; :func:`_path_settled`, a proven sufficient
+condition, docs/computation.md) is settled without it, with the same verdict.
 
 Limits are inclusive: a weight equal to its limit within :data:`WEIGHT_TOLERANCE` of the
 limit is within it; envelope containment uses :data:`loadcheck.envelope.TOLERANCE`.
