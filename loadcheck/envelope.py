@@ -479,7 +479,7 @@ class _Locator:
         self.shape = shape
         ring = shapely.Polygon(normal)
         self.convex = bool(ring.convex_hull.area - ring.area <= 1e-14 * ring.convex_hull.area) and _turns_left(normal)
-        pieces = [normal] if self.convex else _convex_pieces(ring)
+        pieces = [_ring(ring)] if self.convex else _convex_pieces(ring)  # _ring: no repeated corner
         blocks = [] if self.convex else [_ring(ring.convex_hull)]
         blocks += pieces
         planes = [_half_planes(b, shape.origin, shape.span) for b in blocks]

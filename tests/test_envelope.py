@@ -251,3 +251,22 @@ def test_arm_range_of_a_lateral_envelope_is_a_programming_error():
     with pytest.raises(TypeError, match=r"lateral envelope .*lateral_arm, weight"):
         lateral.arm_range()
     assert arm_shape().arm_range() == (35.0, 48.0)
+
+
+@pytest.mark.parametrize("points", [SQUARE, NOTCH], ids=["convex", "notch"])
+def test_regression_a_repeated_corner_made_every_point_of_a_large_batch_outside(points):
+    # a repeated corner (allowed: polygon_problem) is an edge of no length, whose half-plane was
+    # NaN: the half-plane test then called every one of 256 or more points outside
+    import shapely
+
+    repeated = [*points[:2], points[1], *points[2:]]
+    assert polygon_problem(repeated) is None
+    shape = arm_shape(repeated)
+    arm, weight = _near_edges(shape, 2_000, 4)
+    state = (weight, arm * weight, np.zeros_like(weight))
+    x, y = shape.coords(*state)
+    (ox, oy), (wx, wy) = shape._origin_span
+    with np.errstate(all="raise"):
+        got = shape.covers(*state)
+    assert np.array_equal(got, shapely.intersects_xy(shape.covering, (x - ox) / wx, (y - oy) / wy))
+    assert got.any()
