@@ -262,7 +262,7 @@ class EnvelopeShape:
     def covers(self, weight: float | np.ndarray, moment: float | np.ndarray, lateral: float | np.ndarray) -> np.ndarray:
         """True where a loading state lies inside or on the envelope (within TOLERANCE)."""
         x, y = self.coords(weight, moment, lateral)
-        if x.size >= FAST_COVERS_FROM:
+        if x.size >= FAST_COVERS_FROM and self._locator.pieces:
             return self._locator.locate(x, y)[0]
         (ox, oy), (wx, wy) = self._origin_span
         return np.asarray(shapely.intersects_xy(self.covering, (x - ox) / wx, (y - oy) / wy))
@@ -479,7 +479,10 @@ class _Locator:
         self.shape = shape
         ring = shapely.Polygon(normal)
         self.convex = bool(ring.convex_hull.area - ring.area <= 1e-14 * ring.convex_hull.area) and _turns_left(normal)
-        pieces = [_ring(ring)] if self.convex else _convex_pieces(ring)  # _ring: no repeated corner
+        try:
+            pieces = [_ring(ring)] if self.convex else _convex_pieces(ring)  # _ring: no repeated corner
+        except (shapely.errors.GEOSException, ValueError):  # a shape GEOS cannot cut: shapely tests every point
+            pieces = []
         blocks = [] if self.convex else [_ring(ring.convex_hull)]
         blocks += pieces
         planes = [_half_planes(b, shape.origin, shape.span) for b in blocks]
