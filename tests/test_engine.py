@@ -87,18 +87,21 @@ def test_path_running_along_an_edge_agrees():
     assert_agree(aircraft, stations, fuel, np.array([1.0, 0.0]), np.array([30.0, 10.0]))
 
 
-def test_path_grazing_a_notch_corner_agrees():
+def notch_case(n):
+    """The box with a notch in its forward limit, a tank aft of it, n random loadings."""
     notch = [[35.0, 900.0], [35.0, 1500.0], [40.0, 1800.0], [40.0, 2000.0], [48.0, 2000.0], [48.0, 900.0]]
     aircraft = simple_aircraft(
         envelope=[{"category": "normal", "axes": ["arm", "weight"], "points": notch}],
         tank=[{"id": "main", "arm": 55.0, "usable": 100, "fuel": "avgas"}],
     )
     rng = np.random.default_rng(3)
-    n = 300
     stations = np.stack([rng.uniform(0, 400, n), rng.uniform(0, 150, n), rng.uniform(0, 100, n)], axis=1)
     fuel = rng.uniform(0, 100, (n, 1))
-    taxi = np.zeros(n)
-    trip = fuel[:, 0] * rng.uniform(0.3, 1.0, n)
+    return aircraft, (stations, fuel, np.zeros(n), fuel[:, 0] * rng.uniform(0.3, 1.0, n))
+
+
+def test_path_grazing_a_notch_corner_agrees():
+    aircraft, (stations, fuel, taxi, trip) = notch_case(300)
     assert_agree(aircraft, stations, fuel, taxi, trip)
     assert not evaluate(aircraft, stations, fuel, taxi, trip).burn_path_ok.all()
 
@@ -316,18 +319,7 @@ def test_a_path_grazing_an_edge_or_running_along_it_agrees_with_the_exact_test(m
     data = (np.array([[200.0, 0.0, 0.0], [0.0, 0.0, 0.0]]), np.array([[40.0], [10.0]]), np.array([1.0, 0.0]))
     settled, _ = assert_same_as_exact(monkeypatch, along, (*data, np.array([30.0, 10.0])))
     assert settled == 0
-    notch = [[35.0, 900.0], [35.0, 1500.0], [40.0, 1800.0], [40.0, 2000.0], [48.0, 2000.0], [48.0, 900.0]]
-    aircraft = simple_aircraft(
-        envelope=[{"category": "normal", "axes": ["arm", "weight"], "points": notch}],
-        tank=[{"id": "main", "arm": 55.0, "usable": 100, "fuel": "avgas"}],
-    )
-    rng = np.random.default_rng(3)
-    n = 3000
-    stations = np.stack([rng.uniform(0, 400, n), rng.uniform(0, 150, n), rng.uniform(0, 100, n)], axis=1)
-    fuel = rng.uniform(0, 100, (n, 1))
-    settled, _ = assert_same_as_exact(
-        monkeypatch, aircraft, (stations, fuel, np.zeros(n), fuel[:, 0] * rng.uniform(0.3, 1.0, n))
-    )
+    settled, _ = assert_same_as_exact(monkeypatch, *notch_case(3000))
     assert settled > 500
 
 
