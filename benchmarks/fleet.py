@@ -31,13 +31,15 @@ from pathlib import Path
 ROOT = Path(__file__).resolve().parent.parent
 
 FLOOR = r"""
-import csv, json, sys
+import csv, sys
 import numpy as np
+import orjson
 from loadcheck.engine import evaluate
 from loadcheck.fleet import load_fleet
 fleet = load_fleet(sys.argv[1])
 planes = {e.registration: e.aircraft for e in fleet.entries if e.aircraft is not None}
-out = sys.stdout
+out = sys.stdout.buffer
+line_of = lambda row: orjson.dumps(row, option=orjson.OPT_APPEND_NEWLINE)
 with open(sys.argv[2], newline="") as handle:
     reader = csv.reader(handle)
     header = [h.split(" [")[0] for h in next(reader)]
@@ -54,7 +56,7 @@ with open(sys.argv[2], newline="") as handle:
         for k, r in enumerate(rows):
             row = {"line": r[4], "registration": reg, "ok": ok[k], "first": first[k],
                    "takeoff": [tw[k], ta[k]], "landing": [lw[k], la[k]]}
-            out.write(json.dumps(row) + "\n")
+            out.write(line_of(row))
     def number(text, levels=None):
         if not text:
             return 0.0
@@ -67,7 +69,7 @@ with open(sys.argv[2], newline="") as handle:
         reg = cells[col["registration"]]
         a = planes.get(reg)
         if a is None:
-            out.write(json.dumps({"line": line, "input_error": ["unknown"]}) + "\n")
+            out.write(line_of({"line": line, "input_error": ["unknown"]}))
             continue
         st = [number(cells[col[s.id]]) if s.id in col else 0.0 for s in a.station]
         fu = [min(number(cells[col[t.id]], {**t.levels, "full": t.usable}), t.usable) if t.id in col else 0.0
