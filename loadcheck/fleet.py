@@ -19,6 +19,7 @@ import csv
 import datetime as dt
 import io
 import itertools
+import math
 import os
 import re
 import threading
@@ -431,7 +432,7 @@ def _joined(rows: list[_RawRow], scattered: dict[str, list[int]] | None = None) 
         if problems:
             problems.append(
                 f"{first.source}: trip {first.trip!r} ({_lines_text(r.line for r in rows)}) is not checked: "
-                "none of its legs is"
+                "a trip with a problem in any of its rows is refused whole, so none of its legs is checked"
             )
     data = first.data
     if len(rows) > 1:
@@ -508,7 +509,7 @@ def _csv_cells(
     for name, (value, unit) in cells.items():
         if not value or name in ("registration", "reference", "pilot", "date", TRIP_COLUMN, LEG_COLUMN):
             continue
-        text = f"{value} {unit}" if unit and _bare_number(value) else value
+        text = _typed(value, unit)
         if name in unknown:
             problems.append(f"{where}: value {value!r} in unknown column {name!r}")
         elif name in ("category", "label"):
@@ -530,6 +531,23 @@ def _csv_cells(
                     f"(its stations: {', '.join(aircraft.station_by_id)}; tanks: {', '.join(aircraft.tank_by_id)})"
                 )
     return _RawRow(where, line, str(path), registration, reference, pilot, trip, data, problems, leg)
+
+
+_DECIMAL = re.compile(r"[0-9]+(?:\.[0-9]*)?|\.[0-9]+")
+
+
+def _typed(value: str, unit: str | None) -> float | str:
+    """A cell's amount as a loading file holds it: a plain decimal number (``190``, ``1.2``) as a
+    number, as in a TOML file, so that the check log stores the same inputs whatever the source;
+    with the column's unit, the quantity as text (``"0 l"``); anything else as written, for
+    the loading's validation to read or refuse with the value as given."""
+    if unit and _bare_number(value):
+        return f"{value} {unit}"
+    if unit is None and _DECIMAL.fullmatch(value):
+        number = float(value)
+        if math.isfinite(number):
+            return number
+    return value
 
 
 def _bare_number(text: str) -> bool:
