@@ -52,6 +52,18 @@ def _booleans_in_numbers(annotation: Any, value: Any) -> bool:
     return False
 
 
+def _holds_boolean(value: Any) -> bool:
+    """True where ``value`` holds a boolean anywhere (in a table or a list, at any depth): a
+    quick look, with no field types, that lets most data skip :func:`_booleans_in_numbers`."""
+    if isinstance(value, bool):
+        return True
+    if isinstance(value, dict):
+        return any(_holds_boolean(v) for v in value.values())
+    if isinstance(value, (list, tuple)):
+        return any(_holds_boolean(v) for v in value)
+    return False
+
+
 class FileModel(BaseModel):
     """Common configuration of the models of aircraft, loading, readings and changes files."""
 
@@ -60,7 +72,7 @@ class FileModel(BaseModel):
     @model_validator(mode="before")
     @classmethod
     def _no_booleans_for_numbers(cls, data: Any) -> Any:
-        if isinstance(data, dict):
+        if isinstance(data, dict) and _holds_boolean(data):  # no true/false anywhere: none where a number goes
             bad = [
                 key
                 for name, field in cls.model_fields.items()
