@@ -19,6 +19,7 @@ empty), which are warnings.
 from __future__ import annotations
 
 from collections.abc import Iterator, Sequence
+from dataclasses import dataclass
 from typing import Any
 
 import numpy as np
@@ -170,22 +171,10 @@ def _explain(
     units_info = UnitsInfo(mass=units.mass, arm=units.arm, fuel_volume=units.fuel_volume, moment=units.moment)
     rows = _Rows(found)
     margins = _margins(shapes, found, tables.weights, tables.allowance)
+    once = [_Once.of(aircraft, envelopes, name, tables.weights[name]) for name in CONDITIONS]
     for i, resolved in enumerate(loadings):
         findings: list[Finding] = []
-        conditions = [
-            _condition(
-                aircraft,
-                rows,
-                i,
-                envelopes,
-                shapes,
-                name,  # type: ignore[arg-type]
-                findings,
-                margins[name][i],
-                tables.weights[name],
-            )
-            for name in CONDITIONS
-        ]
+        conditions = [_condition(aircraft, rows, i, shapes, fixed, findings, margins[fixed.name][i]) for fixed in once]
         burn_path = _burn_path(
             aircraft, resolved, found, i, conditions, findings, samples, (stations[i], fuel[i], density)
         )
@@ -267,20 +256,52 @@ class _Rows:
 # -- conditions -----------------------------------------------------------------------
 
 
+@dataclass(frozen=True)
+class _Once:
+    """What the explanation of one condition takes from the aircraft alone, found once for all rows."""
+
+    name: ConditionName
+    table: list[tuple[str, float]]  # the weight limits in force (engine.weight_limits)
+    weight_limit: float | None  # the lowest of them
+    minimum: float | None  # the minimum flight weight
+    severity: Severity  # of a point outside an envelope
+    labels: list[str]  # each envelope's name in words
+    allowance: float  # the ramp allowance [mass unit]
+    has_lateral: bool
+
+    @classmethod
+    def of(cls, aircraft: Aircraft, envelopes: Sequence[Envelope], name: str, table: list[tuple[str, float]]) -> _Once:
+        tables = engine_tables(aircraft)
+        labels = [
+            f"the {envelope.label or envelope.category + '-category'} envelope".replace("envelope envelope", "envelope")
+            for envelope in envelopes
+        ]
+        zero_fuel_warning = name == "zero_fuel" and aircraft.limits.zero_fuel_cg == "warning"
+        return cls(
+            name=name,  # type: ignore[arg-type]
+            table=table,
+            weight_limit=min((value for _, value in table), default=None),
+            minimum=aircraft.limits.min_flight_weight,
+            severity="warning" if zero_fuel_warning else "limit",
+            labels=labels,
+            allowance=tables.allowance,
+            has_lateral=tables.has_lateral,
+        )
+
+
 def _condition(
     aircraft: Aircraft,
     rows: _Rows,
     i: int,
-    envelopes: Sequence[Envelope],
     shapes: Sequence[EnvelopeShape],
-    name: ConditionName,
+    once: _Once,
     findings: list[Finding],
     margins: Margins,
-    table: list[tuple[str, float]],
 ) -> Condition:
     units = aircraft.units
+    name = once.name
     weight, moment, lateral = rows.weight[name][i], rows.moment[name][i], rows.lateral[name][i]
-    for (code, limit), good in zip(table, rows.weight_ok[name], strict=True):
+    for (code, limit), good in zip(once.table, rows.weight_ok[name], strict=True):
         if not good[i]:
             findings.append(
                 Finding(
@@ -295,7 +316,7 @@ def _condition(
                 )
             )
     if not rows.min_weight_ok[name][i]:
-        minimum = aircraft.limits.min_flight_weight
+        minimum = once.minimum
         assert minimum is not None
         findings.append(
             Finding(
@@ -309,31 +330,24 @@ def _condition(
                 side="below",
             )
         )
-    severity: Severity = "warning" if name == "zero_fuel" and aircraft.limits.zero_fuel_cg == "warning" else "limit"
-    for envelope, shape, inside in zip(envelopes, shapes, rows.inside[name], strict=True):
+    for label, shape, inside in zip(once.labels, shapes, rows.inside[name], strict=True):
         if not inside[i]:
-            tested = envelope_state(shape, name, weight, moment, lateral, allowance=engine_tables(aircraft).allowance)
-            label = f"the {envelope.label or envelope.category + '-category'} envelope"
-            label = label.replace("envelope envelope", "envelope")
+            tested = envelope_state(shape, name, weight, moment, lateral, allowance=once.allowance)
             findings.append(
-                _outside_finding(
-                    aircraft, shape, label, name, *tested, severity, allowance=engine_tables(aircraft).allowance
-                )
+                _outside_finding(aircraft, shape, label, name, *tested, once.severity, allowance=once.allowance)
             )
-
-    has_lateral = engine_tables(aircraft).has_lateral
-    weight_limit = min((value for _, value in table), default=None)
+    arm = moment / weight
     return Condition(
         condition=name,
         weight=weight,
-        arm=moment / weight,
+        arm=arm,
         moment=moment,
-        lateral_arm=lateral / weight if has_lateral else None,
-        lateral_moment=lateral if has_lateral else None,
-        mac_percent=aircraft.mac.percent(moment / weight) if aircraft.mac else None,
+        lateral_arm=lateral / weight if once.has_lateral else None,
+        lateral_moment=lateral if once.has_lateral else None,
+        mac_percent=aircraft.mac.percent(arm) if aircraft.mac else None,
         fuel=rows.fuel[name][i],
         fuel_weight=rows.fuel_weight[name][i],
-        max_weight=weight_limit,
+        max_weight=once.weight_limit,
         ok=rows.condition_ok[name][i],
         margins=margins,
     )
@@ -482,9 +496,15 @@ def _margins(
     out: dict[str, list[Margins]] = {}
     for name in CONDITIONS:
         columns = [values[name][key].tolist() for key in _MARGIN_KEYS]
-        out[name] = [
-            Margins(**{key: v for key, v in zip(_MARGIN_KEYS, row, strict=True) if v == v})
-            for row in zip(*columns, strict=True)
+        out[name] = [  # NaN (no envelope gives that limit) as None
+            Margins(
+                forward=f if f == f else None,
+                aft=a if a == a else None,
+                left=lt if lt == lt else None,
+                right=r if r == r else None,
+                weight=w if w == w else None,
+            )
+            for f, a, lt, r, w in zip(*columns, strict=True)
         ]
     return out
 
@@ -690,6 +710,10 @@ def _burn_path(
     """The burn path explained: samples for drawing, where it leaves, each stretch outside.
 
     ``arrays``: the loading's stations (S,), fuel (T,) and densities (T,) as the engine had them."""
+    assert found.path_outside is not None
+    stretches = found.path_outside[i]
+    if not stretches and not with_samples:  # inside all the way, nothing to draw
+        return BurnPath(ok=bool(found.burn_path_ok[i]), samples=[])
     start, end = resolved.taxi, resolved.taxi + resolved.trip
     takeoff = conditions[1]
     takeoff_in = bool(found.envelope_ok["takeoff"][i])
@@ -697,8 +721,6 @@ def _burn_path(
     ok = bool(found.burn_path_ok[i])
     units = aircraft.units
     lateral = engine_tables(aircraft).has_lateral
-    assert found.path_outside is not None
-    stretches = found.path_outside[i]
 
     marks = [start + (end - start) * k / _SAMPLES for k in range(_SAMPLES + 1)] if with_samples and end > start else []
     ends = [b for stretch in stretches for b in stretch]
