@@ -172,9 +172,13 @@ def _explain(
     rows = _Rows(found)
     margins = _margins(shapes, found, tables.weights, tables.allowance)
     once = [_Once.of(aircraft, envelopes, name, tables.weights[name]) for name in CONDITIONS]
+    # many rows: every slice a finding outside an envelope is told on, cut together (as the margins are)
+    cuts = _outside_cuts(shapes, found, tables.allowance) if len(loadings) > _ONE_BY_ONE else None
     for i, resolved in enumerate(loadings):
         findings: list[Finding] = []
-        conditions = [_condition(aircraft, rows, i, shapes, fixed, findings, margins[fixed.name][i]) for fixed in once]
+        conditions = [
+            _condition(aircraft, rows, i, shapes, fixed, findings, margins[fixed.name][i], cuts) for fixed in once
+        ]
         burn_path = _burn_path(
             aircraft, resolved, found, i, conditions, findings, samples, (stations[i], fuel[i], density)
         )
@@ -297,6 +301,7 @@ def _condition(
     once: _Once,
     findings: list[Finding],
     margins: Margins,
+    cuts: dict[tuple[str, int], dict[int, _Cut | None]] | None = None,
 ) -> Condition:
     units = aircraft.units
     name = once.name
@@ -330,11 +335,14 @@ def _condition(
                 side="below",
             )
         )
-    for label, shape, inside in zip(once.labels, shapes, rows.inside[name], strict=True):
+    for k, (label, shape, inside) in enumerate(zip(once.labels, shapes, rows.inside[name], strict=True)):
         if not inside[i]:
             tested = envelope_state(shape, name, weight, moment, lateral, allowance=once.allowance)
+            cut = False if cuts is None else cuts[(name, k)][i]
             findings.append(
-                _outside_finding(aircraft, shape, label, name, *tested, once.severity, allowance=once.allowance)
+                _outside_finding(
+                    aircraft, shape, label, name, *tested, once.severity, allowance=once.allowance, cut=cut
+                )
             )
     arm = moment / weight
     return Condition(
@@ -480,7 +488,7 @@ def _margins(
         upright = not shape.is_lateral
         if upright:  # the weight margin, at every condition
             lines.append(("weight", w, arm, lateral_arm))
-        lo, hi = _slices(shape, lines)
+        lo, hi, _, _ = _slices(shape, lines)
         held = lateral_arm if shape.is_lateral else arm
         first, second = ("left", "right") if shape.is_lateral else ("forward", "aft")
         for k, name in enumerate(CONDITIONS):
@@ -527,13 +535,16 @@ def _slice_lines(
     return (x0 - ox) / wx, (y0 - oy) / wy, sx / wx, sy / wy, value, (sx == 0.0) & (sy == 0.0)
 
 
-def _slices(shape: EnvelopeShape, lines: Sequence[tuple[str, Any, Any, Any]]) -> tuple[np.ndarray, np.ndarray]:
-    """For each line, the inside interval holding the held value, else the nearest one (NaN where none).
+def _slices(
+    shape: EnvelopeShape, lines: Sequence[tuple[str, Any, Any, Any]]
+) -> tuple[np.ndarray, np.ndarray, np.ndarray, np.ndarray]:
+    """For each line, the inside interval holding the held value, else the nearest one, and the
+    lowest and highest inside value of the whole line (NaN where none).
 
     The arithmetic of :meth:`EnvelopeShape.slices` for many lines at once: every
     edge crossing is a cut, each stretch between cuts is inside as its middle is, a lone
     cut touching the polygon is an interval of zero length; the interval is then picked
-    as :func:`_pick` does.
+    as :func:`_pick` does, and the extent is the first interval's start and the last one's end.
     """
     parts = [_slice_lines(shape, *line) for line in lines]
     ax, ay, dx, dy, value, flat = (np.concatenate([p[j] for p in parts]) for j in range(6))
@@ -595,7 +606,67 @@ def _slices(shape: EnvelopeShape, lines: Sequence[tuple[str, Any, Any, Any]]) ->
         use_lone, points[rows, k_lone], points[rows, np.clip(run_end[rows, k_stretch] + 1, None, points.shape[1] - 1)]
     )
     none = ~np.isfinite(nearest) | flat
-    return np.where(none, np.nan, lo), np.where(none, np.nan, hi)
+    first = np.minimum(
+        np.where(inside, low, np.inf).min(axis=1, initial=np.inf),
+        np.where(lone, points, np.inf).min(axis=1, initial=np.inf),
+    )
+    last = np.maximum(
+        np.where(inside, high, -np.inf).max(axis=1, initial=-np.inf),
+        np.where(lone, points, -np.inf).max(axis=1, initial=-np.inf),
+    )
+    return tuple(np.where(none, np.nan, v) for v in (lo, hi, first, last))  # type: ignore[return-value]
+
+
+_Cut = tuple[float, float, float, float]
+"""A slice of an envelope as :func:`_outside_finding` reads it: the lowest and highest inside
+value of the line, and the inside interval nearest the CG (low, high) [arm unit]."""
+
+
+def _outside_cuts(
+    shapes: Sequence[EnvelopeShape], found: Evaluation, allowance: float
+) -> dict[tuple[str, int], dict[int, _Cut | None]]:
+    """The slices :func:`_outside_finding` compares the CG on, for every row outside an envelope
+    at a condition, cut together (one :func:`_slices` per envelope), by envelope index and
+    condition, then row.
+
+    Each row's line is the one :func:`_outside_finding` cuts by itself: the state the envelope
+    tests (:func:`~loadcheck.engine.envelope_state`), at its weight or, beyond the envelope's
+    weight range, at the nearer end of it; the arithmetic is the same, element by element.
+    """
+    out: dict[tuple[str, int], dict[int, _Cut | None]] = {}
+    for k, shape in enumerate(shapes):
+        parts = []
+        for name in CONDITIONS:
+            rows = np.flatnonzero(~np.asarray(found.envelope_inside[name][k], dtype=bool))
+            if len(rows) == 0:
+                continue
+            w, m, lat = envelope_state(
+                shape,
+                name,
+                found.weight[name][rows],
+                found.moment[name][rows],
+                found.lateral_moment[name][rows],
+                allowance=allowance,
+            )
+            at = w
+            band = shape.weight_range
+            if band is not None:  # beyond the weight range: compared at its nearer end
+                at = np.where((band[0] <= w) & (w <= band[1]), w, np.where(w > band[1], band[1], band[0]))
+            parts.append((name, rows, at, m / w, lat / w))
+        if not parts:
+            continue
+        vary = "lateral" if shape.is_lateral else "arm"
+        at, arm, lateral_arm = (np.concatenate([part[j] for part in parts]) for j in (2, 3, 4))
+        lo, hi, first, last = (v.tolist() for v in _slices(shape, [(vary, at, arm, lateral_arm)]))
+        at_row = 0
+        for name, rows, *_ in parts:
+            cuts: dict[int, _Cut | None] = {}
+            for i in rows.tolist():
+                low, high = first[at_row], last[at_row]
+                cuts[i] = None if low != low else (low, high, lo[at_row], hi[at_row])
+                at_row += 1
+            out[(name, k)] = cuts
+    return out
 
 
 def _outside_finding(
@@ -609,8 +680,13 @@ def _outside_finding(
     severity: Severity,
     *,
     allowance: float = 0.0,
+    cut: _Cut | bool | None = False,
 ) -> Finding:
     """Say in plain words where a point outside an envelope lies, and by how much.
+
+    ``cut``: the slice of the envelope the CG is compared on (:data:`_Cut`: its extent and the
+    interval nearest the CG), where it was cut with other rows' (:func:`_outside_cuts`); by
+    default it is cut here (:meth:`EnvelopeShape.slice`).
 
     At ramp a weight above the envelope's top is measured from the top plus the ramp
     ``allowance`` [mass unit], the weight :func:`loadcheck.engine.envelope_state` holds to the
@@ -627,15 +703,18 @@ def _outside_finding(
     vary: Vary = "lateral" if shape.is_lateral else "arm"
 
     def across(at_weight: float) -> tuple[str, float, float] | None:
-        intervals = shape.slice(at_weight, arm, lateral, vary)
-        if not intervals:
+        if cut is False:
+            intervals = shape.slice(at_weight, arm, lateral, vary)
+            found = (intervals[0][0], intervals[-1][1], *_pick(intervals, value)) if intervals else None
+        else:
+            found = cut  # type: ignore[assignment]
+        if found is None:
             return None
-        low, high = intervals[0][0], intervals[-1][1]
+        low, high, lo, hi = found
         if value < low:
             return sides[0], low - value, low
         if value > high:
             return sides[1], value - high, high
-        lo, hi = _pick(intervals, value)
         if lo <= value <= hi:
             return None
         nearest = lo if value < lo else hi

@@ -438,9 +438,10 @@ def _random_loadings(aircraft, count: int, seed: int, order=None):
     [("trainer4", None), ("twin6", ("aux", "mains")), ("twin6", None), ("tandem2", None), ("heli2", None)],
 )
 def test_batch_results_equal_single_checks_on_random_loadings(name, order):
-    # the fleet builds every row's result from one engine call per aircraft, its margins cut
-    # for all rows at once; each must be the single check's result for that row (margins,
-    # findings in words, where the burn path leaves), within limits or not
+    # the fleet builds every row's result from one engine call per aircraft, its margins and the
+    # envelope slices its findings are told on cut for all rows at once; each must be the single
+    # check's result for that row (margins, findings in words, where the burn path leaves),
+    # within limits or not
     from loadcheck.check import check_many
 
     aircraft = load_aircraft(sample(f"{name}/aircraft.toml"))
@@ -448,6 +449,8 @@ def test_batch_results_equal_single_checks_on_random_loadings(name, order):
     assert len(loadings) >= 100
     many = check_many(aircraft, loadings)
     assert {r.ok for r in many} == {True, False}  # both verdicts are exercised
+    # and findings outside an envelope, whose slices are cut for all rows at once too
+    assert {f.side for r in many for f in r.findings if f.code == "envelope"} & {"forward", "aft", "above", "below"}
     for resolved, result in zip(loadings, many, strict=True):
         single = check_loading(aircraft, resolved, samples=False)
         assert results_match(result.to_dict(), single.to_dict()), resolved
