@@ -55,12 +55,15 @@ def _booleans_in_numbers(annotation: Any, value: Any) -> bool:
 def _holds_boolean(value: Any) -> bool:
     """True where ``value`` holds a boolean anywhere (in a table or a list, at any depth): a
     quick look, with no field types, that lets most data skip :func:`_booleans_in_numbers`."""
-    if isinstance(value, bool):
-        return True
-    if isinstance(value, dict):
-        return any(_holds_boolean(v) for v in value.values())
-    if isinstance(value, (list, tuple)):
-        return any(_holds_boolean(v) for v in value)
+    pending = [value]
+    while pending:
+        item = pending.pop()
+        if item is True or item is False:  # bool has no subclasses: isinstance(item, bool)
+            return True
+        if isinstance(item, dict):
+            pending.extend(item.values())
+        elif isinstance(item, (list, tuple)):
+            pending.extend(item)
     return False
 
 
