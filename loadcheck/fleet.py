@@ -98,6 +98,16 @@ class Fleet:
                 seen.setdefault(entry.registration, []).append(entry.path)
         return {reg: paths for reg, paths in seen.items() if len(paths) > 1}
 
+    @cached_property
+    def _usable(self) -> dict[str, Aircraft]:
+        """The usable aircraft by registration (not one found in two files)."""
+        duplicates = self.duplicates
+        return {
+            e.registration: e.aircraft
+            for e in self.entries
+            if e.registration and e.aircraft is not None and e.registration not in duplicates
+        }
+
     def aircraft(self, registration: str) -> Aircraft:
         """The usable aircraft of a registration.
 
@@ -107,6 +117,9 @@ class Fleet:
             Unknown registration (the known ones listed), one found in two files, or one
             whose file does not validate.
         """
+        usable = self._usable.get(registration)
+        if usable is not None:  # a fleet day asks once a row
+            return usable
         if registration in self.duplicates:
             files = ", ".join(str(p) for p in self.duplicates[registration])
             raise InputError(Problem("registration", f"{registration!r} is in more than one fleet file ({files})"))
