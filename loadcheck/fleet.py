@@ -347,12 +347,13 @@ def _stream_rows(
 ) -> Iterator[FlightRow]:
     count = 0
     pending: list[_RawRow] = []
+    roles = _roles(columns, unknown)
     try:
         for record in reader:
             if not any(cell.strip() for cell in record):
                 continue
             count += 1
-            raw = _csv_cells(path, reader.line_num, columns, record, fleet, unknown)
+            raw = _csv_cells(path, reader.line_num, columns, record, fleet, unknown, roles)
             if pending and raw.trip is not None and raw.trip == pending[0].trip:
                 pending.append(raw)
                 continue
@@ -484,19 +485,50 @@ def _joined(rows: list[_RawRow], scattered: dict[str, list[int]] | None = None) 
     )
 
 
+_NOT_AMOUNTS = ("registration", "reference", "pilot", "date", TRIP_COLUMN, LEG_COLUMN)
+"""Columns that are not a station, tank or burn value of the loading (read apart, or not at all)."""
+
+
+def _roles(columns: list[tuple[str, str | None]], unknown: set[str]) -> list[tuple[int, str, str | None, str]]:
+    """What each column with a loading value in it gives, found once for the file: ``unknown``,
+    ``text`` (category, label), ``order``, ``burn`` (another burn column), ``aircraft`` (a
+    station or tank of the row's aircraft, or an error of that row); with its place and unit."""
+    roles = []
+    for index, (name, unit) in enumerate(columns):
+        if name in _NOT_AMOUNTS:
+            continue
+        if name in unknown:
+            role = "unknown"
+        elif name in ("category", "label"):
+            role = "text"
+        elif name == "order":
+            role = "order"
+        elif name in RESERVED_COLUMNS:
+            role = "burn"
+        else:
+            role = "aircraft"
+        roles.append((index, name, unit, role))
+    return roles
+
+
 def _csv_cells(
-    path: Path, line: int, columns: list[tuple[str, str | None]], record: list[str], fleet: Fleet, unknown: set[str]
+    path: Path,
+    line: int,
+    columns: list[tuple[str, str | None]],
+    record: list[str],
+    fleet: Fleet,
+    unknown: set[str],
+    roles: list[tuple[int, str, str | None, str]] | None = None,
 ) -> _RawRow:
     where = f"{path}:{line}"
     problems: list[str] = []
     if len(record) != len(columns):
         problems.append(f"{where}: {len(record)} cells where the header has {len(columns)} columns")
-    cells = {
-        name: (cell.strip(), unit) for (name, unit), cell in zip(columns, record, strict=False)
-    }  # a row of other length: said above
-    registration = cells.get("registration", ("", None))[0] or None
-    reference = cells.get("reference", ("", None))[0] or None
-    pilot = cells.get("pilot", ("", None))[0] or None
+    cells = [cell.strip() for cell in record[: len(columns)]]  # a row of other length: said above
+    given = {name: cells[index] for index, (name, _) in enumerate(columns[: len(cells)]) if name in _NOT_AMOUNTS}
+    registration = given.get("registration") or None
+    reference = given.get("reference") or None
+    pilot = given.get("pilot") or None
     if registration is None:
         problems.append(f"{where}: no registration")
     aircraft = None
@@ -506,8 +538,8 @@ def _csv_cells(
         except LoadcheckError as error:
             problems += [f"{where}: {p.describe()}" for p in error.problems]
     data: dict[str, Any] = {"load": {}, "fuel": {}, "burn": {}}
-    trip = cells.get(TRIP_COLUMN, ("", None))[0] or None
-    leg_text = cells.get(LEG_COLUMN, ("", None))[0]
+    trip = given.get(TRIP_COLUMN) or None
+    leg_text = given.get(LEG_COLUMN, "")
     leg = None
     if leg_text:
         if not re.fullmatch(r"[0-9]+", leg_text) or int(leg_text) < 1:
@@ -519,25 +551,27 @@ def _csv_cells(
             )
         else:
             leg = int(leg_text)
-    for name, (value, unit) in cells.items():
-        if not value or name in ("registration", "reference", "pilot", "date", TRIP_COLUMN, LEG_COLUMN):
+    for index, name, unit, role in roles if roles is not None else _roles(columns, unknown):
+        if index >= len(cells):
+            break
+        value = cells[index]
+        if not value:
             continue
-        text = _typed(value, unit)
-        if name in unknown:
+        if role == "unknown":
             problems.append(f"{where}: value {value!r} in unknown column {name!r}")
-        elif name in ("category", "label"):
+        elif role == "text":
             data[name] = value
-        elif name == "order":
+        elif role == "order":
             data["burn"]["order"] = (
                 "together" if value == "together" else [t.strip() for t in re.split(r"[;|/ ]+", value) if t.strip()]
             )
-        elif name in RESERVED_COLUMNS:
-            data["burn"][name] = text
+        elif role == "burn":
+            data["burn"][name] = _typed(value, unit)
         elif aircraft is not None:
             if name in aircraft.station_by_id:
-                data["load"][name] = text
+                data["load"][name] = _typed(value, unit)
             elif name in aircraft.tank_by_id:
-                data["fuel"][name] = text
+                data["fuel"][name] = _typed(value, unit)
             else:
                 problems.append(
                     f"{where}: column {name!r} is not a station or tank of {registration} "
