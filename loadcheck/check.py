@@ -161,7 +161,7 @@ def _explain(
     ``stations`` (N, S), ``fuel`` (N, T) and ``density`` (T,) are the arrays the engine was given."""
     units = aircraft.units
     tables = engine_tables(aircraft)
-    envelopes, shapes = tables.envelopes[category]
+    shapes = tables.envelopes[category][1]
     info = AircraftInfo(
         name=aircraft.name,
         registration=aircraft.registration,
@@ -171,7 +171,7 @@ def _explain(
     units_info = UnitsInfo(mass=units.mass, arm=units.arm, fuel_volume=units.fuel_volume, moment=units.moment)
     rows = _Rows(found)
     margins = _margins(shapes, found, tables.weights, tables.allowance)
-    once = [_Once.of(aircraft, envelopes, name, tables.weights[name]) for name in CONDITIONS]
+    once = _Once.all(aircraft, category)
     # many rows: every slice a finding outside an envelope is told on, cut together (as the margins are)
     cuts = _outside_cuts(shapes, found, tables.allowance) if len(loadings) > _ONE_BY_ONE else None
     for i, resolved in enumerate(loadings):
@@ -274,6 +274,22 @@ class _Once:
     has_lateral: bool
 
     @classmethod
+    def all(cls, aircraft: Aircraft, category: str) -> list[_Once]:
+        """Every condition's, in CONDITIONS order, for this aircraft and category (kept for it,
+        as the engine keeps its tables: an aircraft model is immutable)."""
+        key = (id(aircraft), category)
+        kept = _ONCE.get(key)
+        if kept is not None and kept[0] is aircraft:
+            return kept[1]
+        tables = engine_tables(aircraft)
+        envelopes = tables.envelopes[category][0]
+        once = [cls.of(aircraft, envelopes, name, tables.weights[name]) for name in CONDITIONS]
+        if len(_ONCE) >= _ONCE_KEPT:
+            _ONCE.clear()
+        _ONCE[key] = (aircraft, once)
+        return once
+
+    @classmethod
     def of(cls, aircraft: Aircraft, envelopes: Sequence[Envelope], name: str, table: list[tuple[str, float]]) -> _Once:
         tables = engine_tables(aircraft)
         labels = [
@@ -291,6 +307,10 @@ class _Once:
             allowance=tables.allowance,
             has_lateral=tables.has_lateral,
         )
+
+
+_ONCE: dict[tuple[int, str], tuple[Aircraft, list[_Once]]] = {}
+_ONCE_KEPT = 64
 
 
 def _condition(
