@@ -100,8 +100,8 @@ def _run(command: list[str], env: dict[str, str] | None = None) -> tuple[float, 
     """Wall time [s], CPU time (user and system) [s] and peak resident memory of the process tree
     [MiB] of one command."""
     start = time.perf_counter()
-    done = subprocess.run(
-        [sys.executable, "-c", MEASURED, *command], capture_output=True, text=True, check=True, env=env
+    done = subprocess.run(  # run from outside the worktree, so that -m loadcheck is the one on PYTHONPATH
+        [sys.executable, "-c", MEASURED, *command], capture_output=True, text=True, check=True, env=env, cwd="/"
     )
     wall = time.perf_counter() - start
     peak, _, cpu = done.stdout.split()
