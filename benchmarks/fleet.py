@@ -1,6 +1,6 @@
 """`loadcheck fleet check` against its floor, the CSV -> batch engine -> JSON Lines pipeline, side by side.
 
-Run on demand:  python benchmarks/fleet.py [--n 10000 100000] [--repeat 3] [--workers 1]
+Run on demand:  python benchmarks/fleet.py [--n 10000 100000] [--repeat 3] [--workers 1] [--old COMMIT]
 
 The loadings are the rows of sample_aircraft/fleet_day.csv repeated to N rows, written to a
 temporary CSV (the sample day's malformed rows included, so every run exits 2). Each
@@ -14,7 +14,13 @@ shared machine whatever the other engineers run at the same time:
 - ``fleet check --json --no-log``, the same with recording (``--db``), and with the table;
   target: at most 2x the floor (3x with recording);
 - peak memory (largest resident set of the process and its workers); target: under
-  300 MiB at 100,000 rows and flat from 100,000 to 1,000,000.
+  300 MiB at 100,000 rows and flat from 100,000 to 1,000,000;
+- with ``--old COMMIT``: ``fleet check --json --no-log`` of the package as it was at that
+  commit, in the same run.
+
+Each figure is given as wall time and as CPU time (user and system, of the process and its
+workers), each with its ratio to the floor's: on a busy machine the CPU ratio is the steadier.
+The floor writes its lines with orjson, the encoder fleet check uses.
 """
 
 from __future__ import annotations
@@ -31,13 +37,15 @@ from pathlib import Path
 ROOT = Path(__file__).resolve().parent.parent
 
 FLOOR = r"""
-import csv, json, sys
+import csv, sys
 import numpy as np
+import orjson
 from loadcheck.engine import evaluate
 from loadcheck.fleet import load_fleet
 fleet = load_fleet(sys.argv[1])
 planes = {e.registration: e.aircraft for e in fleet.entries if e.aircraft is not None}
-out = sys.stdout
+out = sys.stdout.buffer
+line_of = lambda row: orjson.dumps(row, option=orjson.OPT_APPEND_NEWLINE)
 with open(sys.argv[2], newline="") as handle:
     reader = csv.reader(handle)
     header = [h.split(" [")[0] for h in next(reader)]
@@ -54,7 +62,7 @@ with open(sys.argv[2], newline="") as handle:
         for k, r in enumerate(rows):
             row = {"line": r[4], "registration": reg, "ok": ok[k], "first": first[k],
                    "takeoff": [tw[k], ta[k]], "landing": [lw[k], la[k]]}
-            out.write(json.dumps(row) + "\n")
+            out.write(line_of(row))
     def number(text, levels=None):
         if not text:
             return 0.0
@@ -67,7 +75,7 @@ with open(sys.argv[2], newline="") as handle:
         reg = cells[col["registration"]]
         a = planes.get(reg)
         if a is None:
-            out.write(json.dumps({"line": line, "input_error": ["unknown"]}) + "\n")
+            out.write(line_of({"line": line, "input_error": ["unknown"]}))
             continue
         st = [number(cells[col[s.id]]) if s.id in col else 0.0 for s in a.station]
         fu = [min(number(cells[col[t.id]], {**t.levels, "full": t.usable}), t.usable) if t.id in col else 0.0
@@ -83,17 +91,34 @@ with open(sys.argv[2], newline="") as handle:
 
 MEASURED = (
     "import resource, subprocess, sys; run = subprocess.run(sys.argv[1:], stdout=subprocess.DEVNULL, "
-    "stderr=subprocess.DEVNULL); print(resource.getrusage(resource.RUSAGE_CHILDREN).ru_maxrss, run.returncode)"
+    "stderr=subprocess.DEVNULL); use = resource.getrusage(resource.RUSAGE_CHILDREN); "
+    "print(use.ru_maxrss, run.returncode, use.ru_utime + use.ru_stime)"
 )
 
 
-def _run(command: list[str]) -> tuple[float, float]:
-    """Wall time [s] and peak resident memory of the process tree [MiB] of one command."""
+def _run(command: list[str], env: dict[str, str] | None = None) -> tuple[float, float, float]:
+    """Wall time [s], CPU time (user and system) [s] and peak resident memory of the process tree
+    [MiB] of one command."""
     start = time.perf_counter()
-    done = subprocess.run([sys.executable, "-c", MEASURED, *command], capture_output=True, text=True, check=True)
+    done = subprocess.run(  # run from outside the worktree, so that -m loadcheck is the one on PYTHONPATH
+        [sys.executable, "-c", MEASURED, *command], capture_output=True, text=True, check=True, env=env, cwd="/"
+    )
     wall = time.perf_counter() - start
-    peak = int(done.stdout.split()[0]) / 1024
-    return wall, peak
+    peak, _, cpu = done.stdout.split()
+    return wall, float(cpu), int(peak) / 1024
+
+
+def _old_package(commit: str, folder: Path) -> Path:
+    """The package as it was at ``commit``, extracted into ``folder`` (for --old)."""
+    import tarfile
+    from io import BytesIO
+
+    archive = subprocess.run(
+        ["git", "-C", str(ROOT), "archive", commit, "loadcheck"], capture_output=True, check=True
+    ).stdout
+    with tarfile.open(fileobj=BytesIO(archive)) as tar:
+        tar.extractall(folder, filter="data")
+    return folder
 
 
 def _day(path: Path, count: int) -> Path:
@@ -115,6 +140,7 @@ def main() -> None:
     parser.add_argument("--repeat", type=int, default=3)
     parser.add_argument("--workers", type=int, default=None, help="passed to fleet check (default: its own)")
     parser.add_argument("--table", action="store_true", help="also time the table output")
+    parser.add_argument("--old", metavar="COMMIT", help="also time fleet check --json --no-log as at this commit")
     args = parser.parse_args()
     env_path = os.environ.get("PYTHONPATH", "")
     os.environ["PYTHONPATH"] = str(ROOT) + (os.pathsep + env_path if env_path else "")
@@ -132,15 +158,24 @@ def main() -> None:
             }
             if args.table:
                 cases["fleet check (table) --no-log"] = [*base, "--no-log"]
-            best = {name: (float("inf"), 0.0) for name in cases}
+            envs: dict[str, dict[str, str]] = {}
+            if args.old:
+                old = _old_package(args.old, Path(folder) / "old")
+                name = f"fleet check --json --no-log at {args.old}"
+                cases[name] = [*base, "--json", "--no-log"]
+                envs[name] = {**os.environ, "PYTHONPATH": str(old) + (os.pathsep + env_path if env_path else "")}
+            best = {name: (float("inf"), float("inf"), 0.0) for name in cases}
             for _ in range(args.repeat):
                 for name, command in cases.items():
-                    wall, peak = _run(command)
-                    best[name] = (min(best[name][0], wall), max(best[name][1], peak))
-            floor = best["floor (CSV -> engine -> JSON Lines)"][0]
-            print(f"N = {n:,} rows (best of {args.repeat}):")
-            for name, (wall, peak) in best.items():
-                print(f"  {name:38} {wall:7.2f} s  ratio to floor {wall / floor:5.2f}  peak {peak:6.0f} MiB")
+                    wall, cpu, peak = _run(command, envs.get(name))
+                    best[name] = (min(best[name][0], wall), min(best[name][1], cpu), max(best[name][2], peak))
+            floor, floor_cpu, _ = best["floor (CSV -> engine -> JSON Lines)"]
+            print(f"N = {n:,} rows (best of {args.repeat}; ratios to the floor's wall and CPU time):")
+            for name, (wall, cpu, peak) in best.items():
+                print(
+                    f"  {name:44} {wall:7.2f} s {wall / floor:5.2f}x   CPU {cpu:7.2f} s {cpu / floor_cpu:5.2f}x"
+                    f"   peak {peak:6.0f} MiB"
+                )
 
 
 if __name__ == "__main__":

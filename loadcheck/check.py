@@ -19,6 +19,7 @@ empty), which are warnings.
 from __future__ import annotations
 
 from collections.abc import Iterator, Sequence
+from dataclasses import dataclass
 from typing import Any
 
 import numpy as np
@@ -160,7 +161,7 @@ def _explain(
     ``stations`` (N, S), ``fuel`` (N, T) and ``density`` (T,) are the arrays the engine was given."""
     units = aircraft.units
     tables = engine_tables(aircraft)
-    envelopes, shapes = tables.envelopes[category]
+    shapes = tables.envelopes[category][1]
     info = AircraftInfo(
         name=aircraft.name,
         registration=aircraft.registration,
@@ -170,21 +171,13 @@ def _explain(
     units_info = UnitsInfo(mass=units.mass, arm=units.arm, fuel_volume=units.fuel_volume, moment=units.moment)
     rows = _Rows(found)
     margins = _margins(shapes, found, tables.weights, tables.allowance)
+    once = _Once.all(aircraft, category)
+    # many rows: every slice a finding outside an envelope is told on, cut together (as the margins are)
+    cuts = _outside_cuts(shapes, found, tables.allowance) if len(loadings) > _ONE_BY_ONE else None
     for i, resolved in enumerate(loadings):
         findings: list[Finding] = []
         conditions = [
-            _condition(
-                aircraft,
-                rows,
-                i,
-                envelopes,
-                shapes,
-                name,  # type: ignore[arg-type]
-                findings,
-                margins[name][i],
-                tables.weights[name],
-            )
-            for name in CONDITIONS
+            _condition(aircraft, rows, i, shapes, fixed, findings, margins[fixed.name][i], cuts) for fixed in once
         ]
         burn_path = _burn_path(
             aircraft, resolved, found, i, conditions, findings, samples, (stations[i], fuel[i], density)
@@ -267,20 +260,73 @@ class _Rows:
 # -- conditions -----------------------------------------------------------------------
 
 
+@dataclass(frozen=True)
+class _Once:
+    """What the explanation of one condition takes from the aircraft alone, found once for all rows."""
+
+    name: ConditionName
+    table: list[tuple[str, float]]  # the weight limits in force (engine.weight_limits)
+    weight_limit: float | None  # the lowest of them
+    minimum: float | None  # the minimum flight weight
+    severity: Severity  # of a point outside an envelope
+    labels: list[str]  # each envelope's name in words
+    allowance: float  # the ramp allowance [mass unit]
+    has_lateral: bool
+
+    @classmethod
+    def all(cls, aircraft: Aircraft, category: str) -> list[_Once]:
+        """Every condition's, in CONDITIONS order, for this aircraft and category (kept for it,
+        as the engine keeps its tables: an aircraft model is immutable)."""
+        key = (id(aircraft), category)
+        kept = _ONCE.get(key)
+        if kept is not None and kept[0] is aircraft:
+            return kept[1]
+        tables = engine_tables(aircraft)
+        envelopes = tables.envelopes[category][0]
+        once = [cls.of(aircraft, envelopes, name, tables.weights[name]) for name in CONDITIONS]
+        if len(_ONCE) >= _ONCE_KEPT:
+            _ONCE.clear()
+        _ONCE[key] = (aircraft, once)
+        return once
+
+    @classmethod
+    def of(cls, aircraft: Aircraft, envelopes: Sequence[Envelope], name: str, table: list[tuple[str, float]]) -> _Once:
+        tables = engine_tables(aircraft)
+        labels = [
+            f"the {envelope.label or envelope.category + '-category'} envelope".replace("envelope envelope", "envelope")
+            for envelope in envelopes
+        ]
+        zero_fuel_warning = name == "zero_fuel" and aircraft.limits.zero_fuel_cg == "warning"
+        return cls(
+            name=name,  # type: ignore[arg-type]
+            table=table,
+            weight_limit=min((value for _, value in table), default=None),
+            minimum=aircraft.limits.min_flight_weight,
+            severity="warning" if zero_fuel_warning else "limit",
+            labels=labels,
+            allowance=tables.allowance,
+            has_lateral=tables.has_lateral,
+        )
+
+
+_ONCE: dict[tuple[int, str], tuple[Aircraft, list[_Once]]] = {}
+_ONCE_KEPT = 64
+
+
 def _condition(
     aircraft: Aircraft,
     rows: _Rows,
     i: int,
-    envelopes: Sequence[Envelope],
     shapes: Sequence[EnvelopeShape],
-    name: ConditionName,
+    once: _Once,
     findings: list[Finding],
     margins: Margins,
-    table: list[tuple[str, float]],
+    cuts: dict[tuple[str, int], dict[int, _Cut | None]] | None = None,
 ) -> Condition:
     units = aircraft.units
+    name = once.name
     weight, moment, lateral = rows.weight[name][i], rows.moment[name][i], rows.lateral[name][i]
-    for (code, limit), good in zip(table, rows.weight_ok[name], strict=True):
+    for (code, limit), good in zip(once.table, rows.weight_ok[name], strict=True):
         if not good[i]:
             findings.append(
                 Finding(
@@ -295,7 +341,7 @@ def _condition(
                 )
             )
     if not rows.min_weight_ok[name][i]:
-        minimum = aircraft.limits.min_flight_weight
+        minimum = once.minimum
         assert minimum is not None
         findings.append(
             Finding(
@@ -309,31 +355,27 @@ def _condition(
                 side="below",
             )
         )
-    severity: Severity = "warning" if name == "zero_fuel" and aircraft.limits.zero_fuel_cg == "warning" else "limit"
-    for envelope, shape, inside in zip(envelopes, shapes, rows.inside[name], strict=True):
+    for k, (label, shape, inside) in enumerate(zip(once.labels, shapes, rows.inside[name], strict=True)):
         if not inside[i]:
-            tested = envelope_state(shape, name, weight, moment, lateral, allowance=engine_tables(aircraft).allowance)
-            label = f"the {envelope.label or envelope.category + '-category'} envelope"
-            label = label.replace("envelope envelope", "envelope")
+            tested = envelope_state(shape, name, weight, moment, lateral, allowance=once.allowance)
+            cut = False if cuts is None else cuts[(name, k)][i]
             findings.append(
                 _outside_finding(
-                    aircraft, shape, label, name, *tested, severity, allowance=engine_tables(aircraft).allowance
+                    aircraft, shape, label, name, *tested, once.severity, allowance=once.allowance, cut=cut
                 )
             )
-
-    has_lateral = engine_tables(aircraft).has_lateral
-    weight_limit = min((value for _, value in table), default=None)
+    arm = moment / weight
     return Condition(
         condition=name,
         weight=weight,
-        arm=moment / weight,
+        arm=arm,
         moment=moment,
-        lateral_arm=lateral / weight if has_lateral else None,
-        lateral_moment=lateral if has_lateral else None,
-        mac_percent=aircraft.mac.percent(moment / weight) if aircraft.mac else None,
+        lateral_arm=lateral / weight if once.has_lateral else None,
+        lateral_moment=lateral if once.has_lateral else None,
+        mac_percent=aircraft.mac.percent(arm) if aircraft.mac else None,
         fuel=rows.fuel[name][i],
         fuel_weight=rows.fuel_weight[name][i],
-        max_weight=weight_limit,
+        max_weight=once.weight_limit,
         ok=rows.condition_ok[name][i],
         margins=margins,
     )
@@ -466,7 +508,7 @@ def _margins(
         upright = not shape.is_lateral
         if upright:  # the weight margin, at every condition
             lines.append(("weight", w, arm, lateral_arm))
-        lo, hi = _slices(shape, lines)
+        lo, hi, _, _ = _slices(shape, lines)
         held = lateral_arm if shape.is_lateral else arm
         first, second = ("left", "right") if shape.is_lateral else ("forward", "aft")
         for k, name in enumerate(CONDITIONS):
@@ -482,9 +524,15 @@ def _margins(
     out: dict[str, list[Margins]] = {}
     for name in CONDITIONS:
         columns = [values[name][key].tolist() for key in _MARGIN_KEYS]
-        out[name] = [
-            Margins(**{key: v for key, v in zip(_MARGIN_KEYS, row, strict=True) if v == v})
-            for row in zip(*columns, strict=True)
+        out[name] = [  # NaN (no envelope gives that limit) as None
+            Margins(
+                forward=f if f == f else None,
+                aft=a if a == a else None,
+                left=lt if lt == lt else None,
+                right=r if r == r else None,
+                weight=w if w == w else None,
+            )
+            for f, a, lt, r, w in zip(*columns, strict=True)
         ]
     return out
 
@@ -507,13 +555,16 @@ def _slice_lines(
     return (x0 - ox) / wx, (y0 - oy) / wy, sx / wx, sy / wy, value, (sx == 0.0) & (sy == 0.0)
 
 
-def _slices(shape: EnvelopeShape, lines: Sequence[tuple[str, Any, Any, Any]]) -> tuple[np.ndarray, np.ndarray]:
-    """For each line, the inside interval holding the held value, else the nearest one (NaN where none).
+def _slices(
+    shape: EnvelopeShape, lines: Sequence[tuple[str, Any, Any, Any]]
+) -> tuple[np.ndarray, np.ndarray, np.ndarray, np.ndarray]:
+    """For each line, the inside interval holding the held value, else the nearest one, and the
+    lowest and highest inside value of the whole line (NaN where none).
 
     The arithmetic of :meth:`EnvelopeShape.slices` for many lines at once: every
     edge crossing is a cut, each stretch between cuts is inside as its middle is, a lone
     cut touching the polygon is an interval of zero length; the interval is then picked
-    as :func:`_pick` does.
+    as :func:`_pick` does, and the extent is the first interval's start and the last one's end.
     """
     parts = [_slice_lines(shape, *line) for line in lines]
     ax, ay, dx, dy, value, flat = (np.concatenate([p[j] for p in parts]) for j in range(6))
@@ -575,7 +626,67 @@ def _slices(shape: EnvelopeShape, lines: Sequence[tuple[str, Any, Any, Any]]) ->
         use_lone, points[rows, k_lone], points[rows, np.clip(run_end[rows, k_stretch] + 1, None, points.shape[1] - 1)]
     )
     none = ~np.isfinite(nearest) | flat
-    return np.where(none, np.nan, lo), np.where(none, np.nan, hi)
+    first = np.minimum(
+        np.where(inside, low, np.inf).min(axis=1, initial=np.inf),
+        np.where(lone, points, np.inf).min(axis=1, initial=np.inf),
+    )
+    last = np.maximum(
+        np.where(inside, high, -np.inf).max(axis=1, initial=-np.inf),
+        np.where(lone, points, -np.inf).max(axis=1, initial=-np.inf),
+    )
+    return tuple(np.where(none, np.nan, v) for v in (lo, hi, first, last))  # type: ignore[return-value]
+
+
+_Cut = tuple[float, float, float, float]
+"""A slice of an envelope as :func:`_outside_finding` reads it: the lowest and highest inside
+value of the line, and the inside interval nearest the CG (low, high) [arm unit]."""
+
+
+def _outside_cuts(
+    shapes: Sequence[EnvelopeShape], found: Evaluation, allowance: float
+) -> dict[tuple[str, int], dict[int, _Cut | None]]:
+    """The slices :func:`_outside_finding` compares the CG on, for every row outside an envelope
+    at a condition, cut together (one :func:`_slices` per envelope), by envelope index and
+    condition, then row.
+
+    Each row's line is the one :func:`_outside_finding` cuts by itself: the state the envelope
+    tests (:func:`~loadcheck.engine.envelope_state`), at its weight or, beyond the envelope's
+    weight range, at the nearer end of it; the arithmetic is the same, element by element.
+    """
+    out: dict[tuple[str, int], dict[int, _Cut | None]] = {}
+    for k, shape in enumerate(shapes):
+        parts = []
+        for name in CONDITIONS:
+            rows = np.flatnonzero(~np.asarray(found.envelope_inside[name][k], dtype=bool))
+            if len(rows) == 0:
+                continue
+            w, m, lat = envelope_state(
+                shape,
+                name,
+                found.weight[name][rows],
+                found.moment[name][rows],
+                found.lateral_moment[name][rows],
+                allowance=allowance,
+            )
+            at = w
+            band = shape.weight_range
+            if band is not None:  # beyond the weight range: compared at its nearer end
+                at = np.where((band[0] <= w) & (w <= band[1]), w, np.where(w > band[1], band[1], band[0]))
+            parts.append((name, rows, at, m / w, lat / w))
+        if not parts:
+            continue
+        vary = "lateral" if shape.is_lateral else "arm"
+        at, arm, lateral_arm = (np.concatenate([part[j] for part in parts]) for j in (2, 3, 4))
+        lo, hi, first, last = (v.tolist() for v in _slices(shape, [(vary, at, arm, lateral_arm)]))
+        at_row = 0
+        for name, rows, *_ in parts:
+            cuts: dict[int, _Cut | None] = {}
+            for i in rows.tolist():
+                low, high = first[at_row], last[at_row]
+                cuts[i] = None if low != low else (low, high, lo[at_row], hi[at_row])
+                at_row += 1
+            out[(name, k)] = cuts
+    return out
 
 
 def _outside_finding(
@@ -589,8 +700,13 @@ def _outside_finding(
     severity: Severity,
     *,
     allowance: float = 0.0,
+    cut: _Cut | bool | None = False,
 ) -> Finding:
     """Say in plain words where a point outside an envelope lies, and by how much.
+
+    ``cut``: the slice of the envelope the CG is compared on (:data:`_Cut`: its extent and the
+    interval nearest the CG), where it was cut with other rows' (:func:`_outside_cuts`); by
+    default it is cut here (:meth:`EnvelopeShape.slice`).
 
     At ramp a weight above the envelope's top is measured from the top plus the ramp
     ``allowance`` [mass unit], the weight :func:`loadcheck.engine.envelope_state` holds to the
@@ -607,15 +723,18 @@ def _outside_finding(
     vary: Vary = "lateral" if shape.is_lateral else "arm"
 
     def across(at_weight: float) -> tuple[str, float, float] | None:
-        intervals = shape.slice(at_weight, arm, lateral, vary)
-        if not intervals:
+        if cut is False:
+            intervals = shape.slice(at_weight, arm, lateral, vary)
+            found = (intervals[0][0], intervals[-1][1], *_pick(intervals, value)) if intervals else None
+        else:
+            found = cut  # type: ignore[assignment]
+        if found is None:
             return None
-        low, high = intervals[0][0], intervals[-1][1]
+        low, high, lo, hi = found
         if value < low:
             return sides[0], low - value, low
         if value > high:
             return sides[1], value - high, high
-        lo, hi = _pick(intervals, value)
         if lo <= value <= hi:
             return None
         nearest = lo if value < lo else hi
@@ -690,6 +809,10 @@ def _burn_path(
     """The burn path explained: samples for drawing, where it leaves, each stretch outside.
 
     ``arrays``: the loading's stations (S,), fuel (T,) and densities (T,) as the engine had them."""
+    assert found.path_outside is not None
+    stretches = found.path_outside[i]
+    if not stretches and not with_samples:  # inside all the way, nothing to draw
+        return BurnPath(ok=bool(found.burn_path_ok[i]), samples=[])
     start, end = resolved.taxi, resolved.taxi + resolved.trip
     takeoff = conditions[1]
     takeoff_in = bool(found.envelope_ok["takeoff"][i])
@@ -697,8 +820,6 @@ def _burn_path(
     ok = bool(found.burn_path_ok[i])
     units = aircraft.units
     lateral = engine_tables(aircraft).has_lateral
-    assert found.path_outside is not None
-    stretches = found.path_outside[i]
 
     marks = [start + (end - start) * k / _SAMPLES for k in range(_SAMPLES + 1)] if with_samples and end > start else []
     ends = [b for stretch in stretches for b in stretch]

@@ -52,6 +52,21 @@ def _booleans_in_numbers(annotation: Any, value: Any) -> bool:
     return False
 
 
+def _holds_boolean(value: Any) -> bool:
+    """True where ``value`` holds a boolean anywhere (in a table or a list, at any depth): a
+    quick look, with no field types, that lets most data skip :func:`_booleans_in_numbers`."""
+    pending = [value]
+    while pending:
+        item = pending.pop()
+        if item is True or item is False:  # bool has no subclasses: isinstance(item, bool)
+            return True
+        if isinstance(item, dict):
+            pending.extend(item.values())
+        elif isinstance(item, (list, tuple)):
+            pending.extend(item)
+    return False
+
+
 class FileModel(BaseModel):
     """Common configuration of the models of aircraft, loading, readings and changes files."""
 
@@ -60,7 +75,7 @@ class FileModel(BaseModel):
     @model_validator(mode="before")
     @classmethod
     def _no_booleans_for_numbers(cls, data: Any) -> Any:
-        if isinstance(data, dict):
+        if isinstance(data, dict) and _holds_boolean(data):  # no true/false anywhere: none where a number goes
             bad = [
                 key
                 for name, field in cls.model_fields.items()

@@ -19,6 +19,7 @@ import csv
 import datetime as dt
 import io
 import itertools
+import math
 import os
 import re
 import threading
@@ -97,6 +98,16 @@ class Fleet:
                 seen.setdefault(entry.registration, []).append(entry.path)
         return {reg: paths for reg, paths in seen.items() if len(paths) > 1}
 
+    @cached_property
+    def _usable(self) -> dict[str, Aircraft]:
+        """The usable aircraft by registration (not one found in two files)."""
+        duplicates = self.duplicates
+        return {
+            e.registration: e.aircraft
+            for e in self.entries
+            if e.registration and e.aircraft is not None and e.registration not in duplicates
+        }
+
     def aircraft(self, registration: str) -> Aircraft:
         """The usable aircraft of a registration.
 
@@ -106,6 +117,9 @@ class Fleet:
             Unknown registration (the known ones listed), one found in two files, or one
             whose file does not validate.
         """
+        usable = self._usable.get(registration)
+        if usable is not None:  # a fleet day asks once a row
+            return usable
         if registration in self.duplicates:
             files = ", ".join(str(p) for p in self.duplicates[registration])
             raise InputError(Problem("registration", f"{registration!r} is in more than one fleet file ({files})"))
@@ -333,12 +347,13 @@ def _stream_rows(
 ) -> Iterator[FlightRow]:
     count = 0
     pending: list[_RawRow] = []
+    roles = _roles(columns, unknown)
     try:
         for record in reader:
             if not any(cell.strip() for cell in record):
                 continue
             count += 1
-            raw = _csv_cells(path, reader.line_num, columns, record, fleet, unknown)
+            raw = _csv_cells(path, reader.line_num, columns, record, fleet, unknown, roles)
             if pending and raw.trip is not None and raw.trip == pending[0].trip:
                 pending.append(raw)
                 continue
@@ -431,7 +446,7 @@ def _joined(rows: list[_RawRow], scattered: dict[str, list[int]] | None = None) 
         if problems:
             problems.append(
                 f"{first.source}: trip {first.trip!r} ({_lines_text(r.line for r in rows)}) is not checked: "
-                "none of its legs is"
+                "a trip with a problem in any of its rows is refused whole, so none of its legs is checked"
             )
     data = first.data
     if len(rows) > 1:
@@ -470,19 +485,50 @@ def _joined(rows: list[_RawRow], scattered: dict[str, list[int]] | None = None) 
     )
 
 
+_NOT_AMOUNTS = ("registration", "reference", "pilot", "date", TRIP_COLUMN, LEG_COLUMN)
+"""Columns that are not a station, tank or burn value of the loading (read apart, or not at all)."""
+
+
+def _roles(columns: list[tuple[str, str | None]], unknown: set[str]) -> list[tuple[int, str, str | None, str]]:
+    """What each column with a loading value in it gives, found once for the file: ``unknown``,
+    ``text`` (category, label), ``order``, ``burn`` (another burn column), ``aircraft`` (a
+    station or tank of the row's aircraft, or an error of that row); with its place and unit."""
+    roles = []
+    for index, (name, unit) in enumerate(columns):
+        if name in _NOT_AMOUNTS:
+            continue
+        if name in unknown:
+            role = "unknown"
+        elif name in ("category", "label"):
+            role = "text"
+        elif name == "order":
+            role = "order"
+        elif name in RESERVED_COLUMNS:
+            role = "burn"
+        else:
+            role = "aircraft"
+        roles.append((index, name, unit, role))
+    return roles
+
+
 def _csv_cells(
-    path: Path, line: int, columns: list[tuple[str, str | None]], record: list[str], fleet: Fleet, unknown: set[str]
+    path: Path,
+    line: int,
+    columns: list[tuple[str, str | None]],
+    record: list[str],
+    fleet: Fleet,
+    unknown: set[str],
+    roles: list[tuple[int, str, str | None, str]] | None = None,
 ) -> _RawRow:
     where = f"{path}:{line}"
     problems: list[str] = []
     if len(record) != len(columns):
         problems.append(f"{where}: {len(record)} cells where the header has {len(columns)} columns")
-    cells = {
-        name: (cell.strip(), unit) for (name, unit), cell in zip(columns, record, strict=False)
-    }  # a row of other length: said above
-    registration = cells.get("registration", ("", None))[0] or None
-    reference = cells.get("reference", ("", None))[0] or None
-    pilot = cells.get("pilot", ("", None))[0] or None
+    cells = [cell.strip() for cell in record[: len(columns)]]  # a row of other length: said above
+    given = {name: cells[index] for index, (name, _) in enumerate(columns[: len(cells)]) if name in _NOT_AMOUNTS}
+    registration = given.get("registration") or None
+    reference = given.get("reference") or None
+    pilot = given.get("pilot") or None
     if registration is None:
         problems.append(f"{where}: no registration")
     aircraft = None
@@ -492,8 +538,8 @@ def _csv_cells(
         except LoadcheckError as error:
             problems += [f"{where}: {p.describe()}" for p in error.problems]
     data: dict[str, Any] = {"load": {}, "fuel": {}, "burn": {}}
-    trip = cells.get(TRIP_COLUMN, ("", None))[0] or None
-    leg_text = cells.get(LEG_COLUMN, ("", None))[0]
+    trip = given.get(TRIP_COLUMN) or None
+    leg_text = given.get(LEG_COLUMN, "")
     leg = None
     if leg_text:
         if not re.fullmatch(r"[0-9]+", leg_text) or int(leg_text) < 1:
@@ -505,31 +551,50 @@ def _csv_cells(
             )
         else:
             leg = int(leg_text)
-    for name, (value, unit) in cells.items():
-        if not value or name in ("registration", "reference", "pilot", "date", TRIP_COLUMN, LEG_COLUMN):
+    for index, name, unit, role in roles if roles is not None else _roles(columns, unknown):
+        if index >= len(cells):
+            break
+        value = cells[index]
+        if not value:
             continue
-        text = f"{value} {unit}" if unit and _bare_number(value) else value
-        if name in unknown:
+        if role == "unknown":
             problems.append(f"{where}: value {value!r} in unknown column {name!r}")
-        elif name in ("category", "label"):
+        elif role == "text":
             data[name] = value
-        elif name == "order":
+        elif role == "order":
             data["burn"]["order"] = (
                 "together" if value == "together" else [t.strip() for t in re.split(r"[;|/ ]+", value) if t.strip()]
             )
-        elif name in RESERVED_COLUMNS:
-            data["burn"][name] = text
+        elif role == "burn":
+            data["burn"][name] = _typed(value, unit)
         elif aircraft is not None:
             if name in aircraft.station_by_id:
-                data["load"][name] = text
+                data["load"][name] = _typed(value, unit)
             elif name in aircraft.tank_by_id:
-                data["fuel"][name] = text
+                data["fuel"][name] = _typed(value, unit)
             else:
                 problems.append(
                     f"{where}: column {name!r} is not a station or tank of {registration} "
                     f"(its stations: {', '.join(aircraft.station_by_id)}; tanks: {', '.join(aircraft.tank_by_id)})"
                 )
     return _RawRow(where, line, str(path), registration, reference, pilot, trip, data, problems, leg)
+
+
+_DECIMAL = re.compile(r"[0-9]+(?:\.[0-9]*)?|\.[0-9]+")
+
+
+def _typed(value: str, unit: str | None) -> float | str:
+    """A cell's amount as a loading file holds it: a plain decimal number (``190``, ``1.2``) as a
+    number, as in a TOML file, so that the check log stores the same inputs whatever the source;
+    with the column's unit, the quantity as text (``"0 l"``); anything else as written, for
+    the loading's validation to read or refuse with the value as given."""
+    if unit and _bare_number(value):
+        return f"{value} {unit}"
+    if unit is None and _DECIMAL.fullmatch(value):
+        number = float(value)
+        if math.isfinite(number):
+            return number
+    return value
 
 
 def _bare_number(text: str) -> bool:

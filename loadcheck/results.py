@@ -39,33 +39,21 @@ class Result:
     """Base of the result dataclasses: JSON conversion."""
 
     def to_dict(self) -> dict[str, Any]:
-        """The result as JSON-ready data; fields that are None, and drawing data, are left out."""
-        out = {}
-        for name in _names(type(self)):
-            value = getattr(self, name)
-            if value is None:
-                continue
-            if isinstance(value, Result):  # one level at a time; plain values are taken as they are
-                value = value.to_dict()
-            elif isinstance(value, list):
-                value = [_plain(v) for v in value]
-            out[name] = value
-        return out
+        """The result as JSON-ready data; fields that are None, and drawing data, are left out.
+
+        Each class's conversion is written out once, as plain code, the first time one of its
+        results is converted (:func:`_converter`), and then called directly: a check's result
+        holds about fifty results, and the fleet check converts one per flight.
+        """
+        cls = type(self)
+        convert = _converter(cls)
+        if "to_dict" not in cls.__dict__:  # a class with its own to_dict keeps it (it may call this one)
+            cls.to_dict = convert  # type: ignore[method-assign]
+        return convert(self)
 
     def to_json(self, indent: int | None = 2) -> str:
         """The result as a JSON document."""
         return json.dumps(self.to_dict(), indent=indent)
-
-
-_NAMES: dict[type, tuple[str, ...]] = {}
-
-
-def _names(cls: type) -> tuple[str, ...]:
-    names = _NAMES.get(cls)
-    if names is None:
-        names = tuple(f.name for f in fields(cls) if not f.metadata.get("drawing"))  # type: ignore[arg-type]
-        _NAMES[cls] = names
-    return names
 
 
 def _plain(value: Any) -> Any:
@@ -74,6 +62,61 @@ def _plain(value: Any) -> Any:
     if isinstance(value, list):
         return [_plain(v) for v in value]
     return value
+
+
+_SCALARS = {"bool", "int", "float", "str", "ConditionName", "Severity"}
+"""Field annotations (as written in this module) whose values are taken as they are."""
+
+_CONVERTERS: dict[type, Any] = {}
+
+
+def _converter(cls: type) -> Any:
+    """The JSON conversion of one result class, as one function of plain code.
+
+    Every field not marked as drawing data, in order: left out where None; a result converted
+    (its own ``to_dict``); a list converted item by item; any other value taken as it is. A
+    field whose annotation names a plain type of this module (``float``, ``str | None``,
+    ``list[Finding]``) skips the type tests its values cannot need; any other annotation gets
+    the general rule (:func:`_plain`).
+    """
+    convert = _CONVERTERS.get(cls)
+    if convert is not None:
+        return convert
+    results = {name for name, value in globals().items() if isinstance(value, type) and issubclass(value, Result)}
+    lines = [
+        "def to_dict(self):",
+        "    if self.__class__ is not cls:",  # a subclass gets its own conversion (its own fields)
+        "        return Result.to_dict(self)",
+        "    out = {}",
+    ]
+    drawing = {f.name for f in fields(cls) if f.metadata.get("drawing")}  # type: ignore[arg-type]
+    for f in fields(cls):  # type: ignore[arg-type]
+        if f.name in drawing:
+            continue
+        kind = f.type if isinstance(f.type, str) else ""
+        options = [part.strip() for part in kind.split("|")]
+        options = [o for o in options if o != "None"]
+        one = options[0] if len(options) == 1 else ""
+        item = one[5:-1] if one.startswith("list[") and one.endswith("]") else ""
+        if one in _SCALARS:
+            value = "v"
+        elif one in results:
+            value = "v.to_dict()"
+        elif item in results:
+            value = "[x.to_dict() for x in v]"
+        elif item in _SCALARS:
+            value = "list(v)"
+        else:
+            value = "_plain(v)"
+        lines.append(f"    v = self.{f.name}")
+        lines.append(f"    if v is not None: out[{f.name!r}] = {value}")
+    lines.append("    return out")
+    scope: dict[str, Any] = {"cls": cls, "Result": Result, "_plain": _plain}
+    exec("\n".join(lines), scope)  # code written here from the class's own field names
+    convert = scope["to_dict"]
+    convert.__doc__ = Result.to_dict.__doc__
+    _CONVERTERS[cls] = convert
+    return convert
 
 
 @dataclass(frozen=True, kw_only=True, slots=True)

@@ -206,3 +206,52 @@ def test_margins_on_simple_box():
     assert ramp.margins.forward == pytest.approx(ramp.arm - 35.0)
     assert ramp.margins.aft == pytest.approx(48.0 - ramp.arm)
     assert ramp.margins.weight == pytest.approx(2000.0 - ramp.weight)
+
+
+def _json_form(value):
+    """DESIGN.md's JSON form of a result, by its rule: every field but drawing data, in order,
+    those that are None left out, results and lists of them converted in turn."""
+    import dataclasses
+
+    from loadcheck.results import Result
+
+    if isinstance(value, list):
+        return [_json_form(v) for v in value]
+    if not isinstance(value, Result):
+        return value
+    out = {}
+    for f in dataclasses.fields(value):
+        if not f.metadata.get("drawing") and getattr(value, f.name) is not None:
+            out[f.name] = _json_form(getattr(value, f.name))
+    return out
+
+
+@pytest.mark.parametrize(
+    "name",
+    ["twin6/leaves_path.toml", "twin6/two_stretches.toml", "heli2/solo_heavy_right.toml", "trainer4/within.toml"],
+)
+def test_the_json_form_holds_every_field_by_its_rule(name):
+    # to_dict is written out once per class from its fields (results.py): it must give what the
+    # rule gives, field for field, key order included, and leave out the drawing samples
+    inputs = load_check_inputs(sample(name))
+    result = check_loading(inputs.aircraft, inputs.loading)
+    assert result.burn_path.samples  # drawing data present, to be left out
+    data = result.to_dict()
+    assert data == _json_form(result) and list(data) == list(_json_form(result))
+    assert "samples" not in data["burn_path"] and "caution" in data
+
+
+def test_the_json_form_of_a_trip_names_each_leg(tmp_path):
+    # a subclass with fields of its own (TripFinding) converts them; a class with its own
+    # to_dict (TripLeg: the leg's number and label, then its check's fields) keeps it
+    from loadcheck.trip import check_trip
+
+    from .test_trip import trip_fleet
+
+    inputs = load_check_inputs(trip_fleet(tmp_path) / "trip.toml", allow_trip=True)
+    result = check_trip(inputs.aircraft, inputs.trip)
+    data = result.to_dict()
+    assert all(f["leg"] == finding.leg for f, finding in zip(data["findings"], result.findings, strict=True))
+    assert data["findings"] == _json_form(result.findings)
+    for leg, shown in zip(result.legs, data["legs"], strict=True):
+        assert list(shown)[:1] == ["leg"] and shown == {"leg": leg.leg, **_json_form(leg.check)}

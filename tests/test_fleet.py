@@ -438,9 +438,10 @@ def _random_loadings(aircraft, count: int, seed: int, order=None):
     [("trainer4", None), ("twin6", ("aux", "mains")), ("twin6", None), ("tandem2", None), ("heli2", None)],
 )
 def test_batch_results_equal_single_checks_on_random_loadings(name, order):
-    # the fleet builds every row's result from one engine call per aircraft, its margins cut
-    # for all rows at once; each must be the single check's result for that row (margins,
-    # findings in words, where the burn path leaves), within limits or not
+    # the fleet builds every row's result from one engine call per aircraft, its margins and the
+    # envelope slices its findings are told on cut for all rows at once; each must be the single
+    # check's result for that row (margins, findings in words, where the burn path leaves),
+    # within limits or not
     from loadcheck.check import check_many
 
     aircraft = load_aircraft(sample(f"{name}/aircraft.toml"))
@@ -448,6 +449,8 @@ def test_batch_results_equal_single_checks_on_random_loadings(name, order):
     assert len(loadings) >= 100
     many = check_many(aircraft, loadings)
     assert {r.ok for r in many} == {True, False}  # both verdicts are exercised
+    # and findings outside an envelope, whose slices are cut for all rows at once too
+    assert {f.side for r in many for f in r.findings if f.code == "envelope"} & {"forward", "aft", "above", "below"}
     for resolved, result in zip(loadings, many, strict=True):
         single = check_loading(aircraft, resolved, samples=False)
         assert results_match(result.to_dict(), single.to_dict()), resolved
@@ -546,7 +549,7 @@ def test_a_fleet_trip_whose_second_leg_fails_exits_1_naming_leg_2(runner, tmp_pa
     )
     assert table.exit_code == 1
     text = table.stdout
-    assert "OUT (trip A, 2 legs)" in text and "leg 1: within" in text and "leg 2: OUT" in text
+    assert "OUT" in text and "(trip A, 2 legs)" in text and "leg 1: within" in text and "leg 2: OUT" in text
     assert "leg 2: ramp CG 86.7" in text and "is aft of the aft limit" in text and "1 out of limits" in text
     # the library: the same trip through check_trip, field for field
     fleet = load_fleet(folder)
@@ -620,7 +623,65 @@ def test_a_malformed_trip_is_refused_whole_naming_its_rows(runner, tmp_path, row
     assert refused and all("legs" not in line for line in _json_lines(done.stdout) if line.get("trip_id") == "A")
     for word in words:
         assert word in done.stderr, (word, done.stderr)
-    assert ("is not checked: none of its legs is" in done.stderr) == (",A," in "".join(rows))
+    assert ("is refused whole, so none of its legs is checked" in done.stderr) == (",A," in "".join(rows))
 
 
 TRIP_HEADER = "registration,reference,trip_id,leg,front,rear,main,taxi,trip"
+
+
+def test_a_fleet_row_stores_the_inputs_check_log_stores(runner, tmp_path):
+    # review: fleet check stored a row's amounts as strings ("340"), check --log as numbers (340.0),
+    # so log show and log export differed by source; a row now stores what a loading file holds
+    # (plain numbers as numbers, a quantity with a unit as its text, a level name as written)
+    shutil.copytree(sample("trainer4"), tmp_path / "trainer4")
+    db = tmp_path / "log.sqlite3"
+    single = runner.invoke(
+        app,
+        ["check", str(tmp_path / "trainer4" / "aircraft.toml"), str(sample("trainer4/within.toml")), "--log"]
+        + ["--db", str(db)],
+    )
+    assert single.exit_code == 0, single.output
+    day = tmp_path / "day.csv"
+    day.write_text("registration,reference,front,rear,hold,mains,centre,taxi,trip,reserve\n")
+    with day.open("a") as out:  # within.toml's values, the hold's in the file's own words
+        out.write("DEMO-4T,R1,340,160,15 kg,school,0,1.2,18,8\n")
+    fleet = runner.invoke(app, ["fleet", "check", str(tmp_path / "trainer4"), str(day), "--db", str(db), "--json"])
+    assert fleet.exit_code == 0, fleet.output
+    with CheckLog(db) as log:
+        by_check, by_fleet = (record.inputs for record in log.find())
+    keys = ("load", "fuel", "burn")
+    assert {k: by_fleet[k] for k in keys} == {k: by_check[k] for k in keys}
+    assert by_fleet["load"] == {"front": 340.0, "rear": 160.0, "hold": "15 kg"}
+    assert by_fleet["burn"]["taxi"] == 1.2 and by_fleet["fuel"] == {"mains": "school", "centre": 0.0}
+    verify = runner.invoke(app, ["log", "verify", "2", "--db", str(db)])
+    assert verify.exit_code == 0 and "reproduced" in verify.output
+
+
+@pytest.mark.parametrize(
+    "cell, stored",
+    [("340", 340.0), ("0.5", 0.5), (".5", 0.5), ("340 lb", "340 lb"), ("1e3", "1e3"), ("-5", "-5"), ("inf", "inf")],
+)
+def test_a_cell_is_stored_as_a_loading_file_holds_it(cell, stored):
+    # only a plain decimal number becomes a number; anything else stays as written, for the
+    # loading's validation to read or to refuse with the value as the user wrote it
+    from loadcheck.fleet import _typed
+
+    assert _typed(cell, None) == stored and type(_typed(cell, None)) is type(stored)
+    assert _typed("340", "kg") == "340 kg"
+
+
+def test_the_trip_line_reads_whole_at_80_columns(runner, tmp_path):
+    # review: at 80 columns the trip line's verdict "within (trip A, 2 legs)" wrapped over four
+    # lines (the weight columns' headers took the spare width); each part now reads on its line
+    from .test_trip import trip_fleet
+
+    folder = trip_fleet(tmp_path / "fleet")
+    done = runner.invoke(
+        app, ["fleet", "check", str(folder), str(folder / "day.csv"), "--no-log"], env={"COLUMNS": "80"}
+    )
+    assert done.exit_code == 1, done.output
+    lines = done.stdout.splitlines()
+    assert all(len(line) <= 80 for line in lines)
+    cells = [line.split("│")[3].strip() for line in lines if line.count("│") == 7]
+    assert cells[:2] == ["OUT", "(trip A, 2 legs)"]
+    assert "leg 1: within" in cells and "leg 2: OUT" in cells

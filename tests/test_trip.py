@@ -389,7 +389,7 @@ def test_the_fleet_csv_groups_the_rows_of_a_trip(tmp_path):
     assert [(r.line, r.trip, r.reference, r.lines) for r in rows] == [(2, "A", "T1", (2, 3)), (4, None, "T2", ())]
     trip = rows[0].loading
     assert trip is not None and len(trip.leg) == 1 and not rows[0].problems
-    assert trip.leg[0].load == {"left": "0", "bag_left": "0"} and trip.leg[0].add_fuel == {"main": "5"}
+    assert trip.leg[0].load == {"left": 0.0, "bag_left": 0.0} and trip.leg[0].add_fuel == {"main": 5.0}
     # the same trip as the sample file: the same check, leg by leg
     aircraft = fleet.aircraft("DEMO-H2")
     from_csv = check_trip(aircraft, trip)

@@ -121,6 +121,15 @@ def fleet_check(
         err.print(f"error: {problem}", markup=False, soft_wrap=True)
     log = CheckLog(path) if path is not None else None
     flights = []  # for the table only: one brief line per flight; JSON Lines are streamed
+    if json_out:
+        import orjson  # JSON Lines as UTF-8 bytes, about four times faster than the json module
+
+        out = getattr(sys.stdout, "buffer", None)
+        write_line = (
+            (lambda line: out.write(orjson.dumps(line, option=orjson.OPT_APPEND_NEWLINE)))
+            if out is not None
+            else (lambda line: sys.stdout.write(orjson.dumps(line, option=orjson.OPT_APPEND_NEWLINE).decode()))
+        )
     counts = {"checked": 0, "out": 0, "bad": 0}
     show_progress = err.is_terminal and not json_out and not os.environ.get("NO_COLOR")  # a bar is escape codes
     say = (
@@ -142,7 +151,7 @@ def fleet_check(
                 elif not flight.ok:
                     counts["out"] += 1
                 if json_out:
-                    sys.stdout.write(json.dumps(flight.to_dict(), separators=(",", ":")) + "\n")
+                    write_line(flight.to_dict())
                 else:
                     flights.append(flight.brief())
                 if progress is not None and task is not None:

@@ -967,8 +967,8 @@ def _flight_result(result: dict[str, Any]) -> tuple[Text, str]:
 
 def render_fleet(flights: list[Any], console: Console) -> None:
     """One row per flight: line, registration, the verdict and under it the first finding,
-    reference, takeoff and landing (the verdict and its reason come first, so that they stay
-    beside the flight's name however narrow the terminal).
+    reference, takeoff and landing weight over CG (the verdict and its reason come first, so
+    that they stay beside the flight's name however narrow the terminal).
 
     A flight within limits but with warnings (fuel below the reserve, an assumption made)
     says so in its result and shows the first warning.
@@ -1018,8 +1018,8 @@ def render_fleet(flights: list[Any], console: Console) -> None:
         Column("Aircraft", numeric=False, key=True),
         Column("Result and first finding", numeric=False),
         Column("Reference", numeric=False),
-        Column("Takeoff weight, CG"),
-        Column("Landing weight, CG"),
+        Column("Takeoff"),  # weight over CG, each with its unit: a header no wider than "2,450.0 lb"
+        Column("Landing"),  # leaves the spare width to the result (a trip's verdict kept on its lines)
     ]
     from .listing import plain_listing, use_plain
 

@@ -139,7 +139,7 @@ def fleet_trip_rows(flight: Any) -> list[list[str | Text]]:
         [
             f"{lines[0]}-{lines[-1]}" if len(lines) > 1 else str(lines[0]),
             row.registration or "",
-            verdict + Text(f" ({trip}{len(result['legs'])} legs)" + (f"\n{first}" if first else "")),
+            verdict + Text(f"\n({trip}{len(result['legs'])} legs)" + (f"\n{first}" if first else "")),
             row.reference or "",
             "",
             "",
