@@ -31,7 +31,6 @@ import hashlib
 import io
 import json
 import math
-import os
 import sqlite3
 import time
 from collections.abc import Callable, Iterable, Iterator
@@ -42,6 +41,11 @@ from typing import Any
 from .caution import PILOT_CAUTION
 from .errors import FileFormatError, InputError, LoadcheckError, Problem
 from .results import Result
+
+# where the log is and whether a command records (loadcheck.userdata, light enough for a start-up), under
+# the check log's own names
+from .userdata import default_log_path as default_path
+from .userdata import log_path
 
 __all__ = [
     "CurrentCheck",
@@ -131,63 +135,6 @@ BEGIN SELECT RAISE(ABORT, 'recorded aircraft data is never rewritten'); END;
 CREATE TRIGGER IF NOT EXISTS aircraft_data_never_deleted BEFORE DELETE ON aircraft_data
 BEGIN SELECT RAISE(ABORT, 'recorded aircraft data is never deleted'); END;
 """
-
-
-_OLD_ENV = "LOADCHECK_RECORDS"  # rename.py: keep (the variable's name before issue 21)
-
-
-def default_path() -> Path:
-    """Where the check log is by default: $LOADCHECK_LOG, else the user data folder.
-
-    Raises
-    ------
-    InputError
-        If the variable's old name (``_OLD_ENV``, before issue 21) is set, to another path
-        than $LOADCHECK_LOG: a path the user set is never silently passed over for another.
-    """
-    explicit = os.environ.get("LOADCHECK_LOG")
-    old = os.environ.get(_OLD_ENV)
-    if old and old != explicit:
-        raise InputError(
-            Problem(
-                f"${_OLD_ENV}",
-                "this variable is now named LOADCHECK_LOG: rename it"
-                + (" (both are set, to different files)" if explicit else ""),
-                value=old,
-                expected="LOADCHECK_LOG=FILE",
-            )
-        )
-    if explicit:
-        return Path(explicit)
-    from platformdirs import user_data_path
-
-    return user_data_path("loadcheck", appauthor=False) / "records.sqlite3"
-
-
-def log_path(to_log: bool, db: Path | None) -> Path | None:
-    """The check log a command records in: None when it does not record (``to_log`` false).
-
-    A ``db`` given while nothing is recorded is refused: a file the user named is never
-    silently passed over (the command line's --db with --no-log, or without --log on check).
-
-    Raises
-    ------
-    InputError
-        ``db`` without logging; or the old variable, from :func:`default_path`.
-    """
-    if not to_log:
-        if db is not None:
-            raise InputError(
-                Problem(
-                    "--db",
-                    "names the check log to record in, but nothing is recorded without "
-                    "--log (it was --no-log, or check without --log)",
-                    value=str(db),
-                    expected="--log --db FILE, or no --db",
-                )
-            )
-        return None
-    return db or default_path()
 
 
 @dataclass(frozen=True)
