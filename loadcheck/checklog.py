@@ -27,6 +27,7 @@ from __future__ import annotations
 
 import csv
 import datetime as dt
+import gc
 import hashlib
 import io
 import json
@@ -34,6 +35,7 @@ import math
 import sqlite3
 import time
 from collections.abc import Callable, Iterable, Iterator
+from contextlib import contextmanager
 from dataclasses import dataclass
 from pathlib import Path
 from typing import Any
@@ -50,6 +52,7 @@ from .userdata import log_path
 __all__ = [
     "CurrentCheck",
     "CurrentVerification",
+    "Listed",
     "LoggedCheck",
     "CheckLog",
     "Verification",
@@ -71,6 +74,9 @@ _LISTED = "id, checked_at, registration, reference, pilot, ok, fingerprint, legs
 """The columns a listing shows, in the order of the covering index ``checks_listing``: a listing
 reads that index alone (a few dozen bytes a record), never the table's rows with their stored
 results (kilobytes each)."""
+
+Listed = tuple[int, str, str | None, str | None, str | None, int, str, int]
+"""One record as a listing shows it (:meth:`CheckLog.listing`)."""
 
 
 def _seal(
@@ -345,19 +351,22 @@ class CheckLog:
 
     def listing(
         self, *, since: dt.date | None = None, until: dt.date | None = None, registration: str | None = None
-    ) -> Iterator[tuple[int, str, str | None, str | None, str | None, int, str, int]]:
+    ) -> list[Listed]:
         """What a listing shows of each record, in order, without reading its result:
         (id, checked_at, registration, reference, pilot, ok (1 or 0), fingerprint, legs); the filters of :meth:`find`.
 
         ``legs`` is the number of legs of the loading recorded: 1 for a single loading (and for
         a record made before trips were recorded), the legs of a trip. Read from the covering
-        index ``checks_listing`` alone.
+        index ``checks_listing`` alone, all at once: the rows are tuples of numbers and strings,
+        so the cycle collector, whose passes over 100,000 of them free nothing (about a tenth of
+        the listing's time), is paused while they are read.
         """
-        return self._select(_LISTED.replace("legs", "coalesce(legs, 1)"), since, until, registration)
+        with _no_cycle_collection():
+            return self._select(_LISTED.replace("legs", "coalesce(legs, 1)"), since, until, registration).fetchall()
 
     def _select(
         self, columns: str, since: dt.date | None, until: dt.date | None, registration: str | None
-    ) -> Iterator[tuple[Any, ...]]:
+    ) -> sqlite3.Cursor:
         clauses, args = [], []
         if since is not None:
             clauses.append("checked_at >= ?")
@@ -369,7 +378,19 @@ class CheckLog:
             clauses.append("registration = ?")
             args.append(registration)
         where = f" WHERE {' AND '.join(clauses)}" if clauses else ""
-        yield from self._db.execute(f"SELECT {columns} FROM checks{where} ORDER BY id", args)
+        return self._db.execute(f"SELECT {columns} FROM checks{where} ORDER BY id", args)
+
+
+@contextmanager
+def _no_cycle_collection() -> Iterator[None]:
+    """No pass of the cycle collector inside: for reading many rows that hold no cycle."""
+    enabled = gc.isenabled()
+    gc.disable()
+    try:
+        yield
+    finally:
+        if enabled:
+            gc.enable()
 
 
 def log_check(log: CheckLog, inputs: Any, result: Any, *, source: str, version: str, pilot: str | None = None) -> int:
