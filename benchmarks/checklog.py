@@ -18,13 +18,12 @@ import os
 import resource
 import subprocess
 import sys
-import tarfile
 import tempfile
 import time
-from io import BytesIO
 from pathlib import Path
 
-ROOT = Path(__file__).resolve().parent.parent
+from older import ROOT, extract
+
 OLD_GROUP = "records"  # rename.py: keep (the command group's name in the commits --old is meant for)
 LIST = (
     "import sys; sys.argv = ['loadcheck', '{group}', 'list', '--db', sys.argv[1]]\n"
@@ -82,12 +81,7 @@ def main() -> None:
         env = {**os.environ, "PYTHONPATH": os.pathsep.join([str(ROOT), folder, os.environ.get("PYTHONPATH", "")])}
         cases = {"log list (now)": LIST.format(package="loadcheck", group="log")}
         if args.old:
-            archive = subprocess.run(
-                ["git", "-C", str(ROOT), "archive", args.old, "loadcheck"], capture_output=True, check=True
-            ).stdout
-            with tarfile.open(fileobj=BytesIO(archive)) as tar:
-                tar.extractall(folder, filter="data")
-            (Path(folder) / "loadcheck").rename(Path(folder) / "loadcheck_old")
+            extract(args.old, Path(folder), "loadcheck_old")  # it lists the log; it reads no sample
             cases[f"log list ({args.old})"] = LIST.format(package="loadcheck_old", group=OLD_GROUP)
         best = dict.fromkeys(cases, (float("inf"), float("inf")))
         for _ in range(args.repeat):
