@@ -38,7 +38,7 @@ from collections.abc import Callable, Iterable, Iterator
 from contextlib import contextmanager
 from dataclasses import dataclass
 from pathlib import Path
-from typing import Any
+from typing import TYPE_CHECKING, Any
 
 from .caution import PILOT_CAUTION
 from .errors import FileFormatError, InputError, LoadcheckError, Problem
@@ -48,6 +48,12 @@ from .results import Result
 # the check log's own names
 from .userdata import default_log_path as default_path
 from .userdata import log_path
+
+if TYPE_CHECKING:
+    from .aircraft import Aircraft
+    from .files import CheckInputs
+    from .fleet import Fleet
+    from .results import CheckResult, TripResult
 
 __all__ = [
     "CurrentCheck",
@@ -393,7 +399,15 @@ def _no_cycle_collection() -> Iterator[None]:
             gc.enable()
 
 
-def log_check(log: CheckLog, inputs: Any, result: Any, *, source: str, version: str, pilot: str | None = None) -> int:
+def log_check(
+    log: CheckLog,
+    inputs: CheckInputs,
+    result: CheckResult | TripResult,
+    *,
+    source: str,
+    version: str,
+    pilot: str | None = None,
+) -> int:
     """Record one check: the loading as given (file and options or form merged) and the full result.
 
     The one way a check is recorded, for every front end (``check --log``, ``fleet check``, the web desk):
@@ -416,8 +430,10 @@ def log_check(log: CheckLog, inputs: Any, result: Any, *, source: str, version: 
         The new record's id.
     """
     given = inputs.given
+    if given is None:
+        raise InputError(Problem("inputs", "holds no loading as given, so there is nothing to record"))
     data = result.to_dict()
-    if given is not None and bool(given.leg) != ("legs" in data):
+    if bool(given.leg) != ("legs" in data):
         raise InputError(
             Problem(
                 "result",
@@ -513,7 +529,7 @@ def export_text(records: Iterable[LoggedCheck], format: str) -> str:
     return buffer.getvalue()
 
 
-def results_match(a: Any, b: Any, rel: float = 1e-9) -> bool:
+def results_match(a: object, b: object, rel: float = 1e-9) -> bool:
     """Whether two JSON results are the same, numbers within a relative tolerance."""
     if isinstance(a, dict) and isinstance(b, dict):
         return a.keys() == b.keys() and all(results_match(a[k], b[k], rel) for k in a)
@@ -547,7 +563,7 @@ class Verification(Result):
     caution: str = PILOT_CAUTION
 
 
-def _check_again(aircraft: Any, inputs: dict[str, Any], where: str) -> Any:
+def _check_again(aircraft: Aircraft, inputs: dict[str, Any], where: str) -> CheckResult | TripResult:
     """The recorded loading (its inputs) checked against an aircraft: the CheckResult, or for a
     trip of several legs the TripResult (:func:`~loadcheck.trip.check_trip`, every leg)."""
     from .check import check_loading
@@ -677,7 +693,7 @@ class CurrentVerification(Result):
     caution: str = PILOT_CAUTION
 
 
-def verify_current(records: Iterable[LoggedCheck], fleet: Any) -> CurrentVerification:
+def verify_current(records: Iterable[LoggedCheck], fleet: Fleet) -> CurrentVerification:
     """Check recorded loadings again with the current aircraft data of a fleet.
 
     Parameters

@@ -10,6 +10,7 @@ import gc
 import os
 import re
 import sys
+import types
 
 _START_UP_OBJECTS = 100_000
 """Objects a command may create before the cycle collector's first pass (start-up: the
@@ -57,49 +58,49 @@ os.environ.setdefault("PYDANTIC_DISABLE_PLUGINS", "1")
 _PLUGINS_OFF = ("1", "true", "__all__")  # the values pydantic reads as "load no plugin"
 
 
+class _PluginLoaderStandIn(types.ModuleType):
+    """Stand-in for pydantic's plugin loader (``pydantic.plugin._loader``): no plugin while
+    ``PYDANTIC_DISABLE_PLUGINS`` disables them; otherwise, and for any other name, the real
+    loader, loaded then and handed over to."""
+
+    def _real(self) -> types.ModuleType:
+        import importlib
+
+        if sys.modules.get(self.__name__) is self:
+            del sys.modules[self.__name__]
+        return importlib.import_module(self.__name__)
+
+    def get_plugins(self) -> tuple[()] | object:
+        """pydantic's ``get_plugins()``: none while plugins are disabled."""
+        if os.environ.get("PYDANTIC_DISABLE_PLUGINS") in _PLUGINS_OFF:
+            return ()
+        return self._real().get_plugins()
+
+    def __getattr__(self, attribute: str) -> object:
+        if attribute.startswith("__"):  # the import system asks for __path__, __spec__, ...
+            raise AttributeError(attribute)
+        return getattr(self._real(), attribute)
+
+
 def _plugin_loader_without_metadata() -> None:
     """Spare the start-up pydantic's plugin loader when plugins are disabled.
 
     ``pydantic.plugin._loader`` imports importlib.metadata (about 9 ms, with email and
     zipfile) as it loads, on the first model built, and then, plugins being disabled above,
-    returns no plugin without using it. Its stand-in gives the same answer while
-    ``PYDANTIC_DISABLE_PLUGINS`` disables plugins, and otherwise (or for any other name)
-    loads the real loader and hands over to it.
+    returns no plugin without using it. Its stand-in (:class:`_PluginLoaderStandIn`) gives
+    the same answer while ``PYDANTIC_DISABLE_PLUGINS`` disables plugins, and otherwise (or
+    for any other name) loads the real loader and hands over to it.
     """
-    import types
-
     name = "pydantic.plugin._loader"
-    if name in sys.modules:
-        return
-    stand_in = types.ModuleType(name, "Stand-in for pydantic's plugin loader (loadcheck.cli).")
-
-    def real() -> types.ModuleType:
-        import importlib
-
-        if sys.modules.get(name) is stand_in:
-            del sys.modules[name]
-        return importlib.import_module(name)
-
-    def get_plugins() -> tuple[()] | object:
-        if os.environ.get("PYDANTIC_DISABLE_PLUGINS") in _PLUGINS_OFF:
-            return ()
-        return real().get_plugins()
-
-    stand_in.get_plugins = get_plugins  # type: ignore[attr-defined]
-
-    def other(attribute: str) -> object:
-        if attribute.startswith("__"):  # the import system asks for __path__, __spec__, ...
-            raise AttributeError(attribute)
-        return getattr(real(), attribute)
-
-    stand_in.__getattr__ = other  # type: ignore[method-assign]
-    sys.modules[name] = stand_in
+    if name not in sys.modules:
+        sys.modules[name] = _PluginLoaderStandIn(name, _PluginLoaderStandIn.__doc__)
 
 
 if os.environ.get("PYDANTIC_DISABLE_PLUGINS") in _PLUGINS_OFF:
     _plugin_loader_without_metadata()
 
 import typer  # noqa: E402
+from typer.models import CommandInfo  # noqa: E402
 
 
 def _plain_argument_help() -> None:
@@ -150,6 +151,13 @@ app.registered_commands.sort(key=lambda c: _USERS.index(c.callback.__module__))
 app.registered_groups.sort(key=lambda g: ["plan", "fleet", "log", "users"].index(g.name or ""))
 
 
+def _command_name(command: CommandInfo) -> str:
+    """A command's name as typed: its own, else its function's with dashes (typer's rule)."""
+    if command.name:
+        return command.name
+    return command.callback.__name__.replace("_", "-") if command.callback is not None else ""
+
+
 def _just(name: str) -> typer.Typer | None:
     """The application with only the command ``name`` (and the version option), or None.
 
@@ -159,11 +167,7 @@ def _just(name: str) -> typer.Typer | None:
     import copy
 
     small = copy.copy(app)
-    small.registered_commands = [
-        c
-        for c in app.registered_commands
-        if (c.name or c.callback.__name__.replace("_", "-")) == name  # type: ignore[union-attr]
-    ]
+    small.registered_commands = [c for c in app.registered_commands if _command_name(c) == name]
     small.registered_groups = [g for g in app.registered_groups if g.name == name]
     return small if small.registered_commands or small.registered_groups else None
 

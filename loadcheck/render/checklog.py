@@ -5,7 +5,7 @@ from __future__ import annotations
 from collections.abc import Sequence
 from operator import itemgetter
 from pathlib import Path
-from typing import TYPE_CHECKING, Any
+from typing import TYPE_CHECKING
 
 from rich.console import Console
 from rich.table import Table
@@ -14,7 +14,7 @@ from .listing import plain_columns, use_plain
 from .terminal import caution_text
 
 if TYPE_CHECKING:
-    from ..checklog import Listed
+    from ..checklog import CurrentVerification, Listed
 
 __all__ = ["render_current_verification", "render_check_log"]
 
@@ -54,7 +54,7 @@ def render_check_log(path: Path, records: Sequence[Listed], caution: str, consol
     console.print(caution_text(caution))
 
 
-def render_current_verification(outcome: Any, console: Console) -> None:
+def render_current_verification(outcome: CurrentVerification, console: Console) -> None:
     """Print each recorded check with the verdict then and now, the data changes, then the caution."""
     table = Table(title=f"Recorded checks against the current data of {outcome.fleet}", title_justify="left")
     for column in (
