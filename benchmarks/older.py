@@ -33,12 +33,16 @@ def extract(commit: str, folder: Path, name: str = "loadcheck") -> Path:
     return folder / name
 
 
-def samples_for_old(folder: Path) -> Path:
-    """The sample folder as older code reads it: keys renamed since (``files.RENAMED_KEYS``)
-    under their old names, in a copy at ``folder/samples_old`` (returned)."""
+def samples_for_old(folder: Path, package: Path) -> Path:
+    """The sample folder as the older ``package`` reads it, in a copy at ``folder/samples_old``
+    (returned): each key renamed since (``files.RENAMED_KEYS``) that the older code does not
+    know (its source never names it) is written under its old name; a commit made after the
+    rename gets the samples as they are."""
     sys.path.insert(0, str(ROOT))
     from loadcheck.files import RENAMED_KEYS
 
+    source_text = "\n".join(path.read_text(encoding="utf-8") for path in package.rglob("*.py"))
+    renamed = {old: new for old, new in RENAMED_KEYS.items() if not re.search(rf"\b{new}\b", source_text)}
     target = folder / "samples_old"
     for source in (ROOT / "sample_aircraft").rglob("*"):
         if not source.is_file():
@@ -49,7 +53,7 @@ def samples_for_old(folder: Path) -> Path:
             copy.write_bytes(source.read_bytes())  # the fleet days' CSV files, as they are
             continue
         text = source.read_text(encoding="utf-8")
-        for old_key, new_key in RENAMED_KEYS.items():
+        for old_key, new_key in renamed.items():
             text = re.sub(rf"^{new_key}\b", old_key, text, flags=re.M)
         copy.write_text(text, encoding="utf-8")
     return target

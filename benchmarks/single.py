@@ -49,10 +49,10 @@ def main() -> None:
     import loadcheck as new
 
     with tempfile.TemporaryDirectory() as folder:
-        extract(args.old, Path(folder), "loadcheck_old")
+        package = extract(args.old, Path(folder), "loadcheck_old")
         sys.path.insert(0, folder)
         old: object = importlib.import_module("loadcheck_old")
-        old_samples = samples_for_old(Path(folder))
+        old_samples = samples_for_old(Path(folder), package)
         clock = time.process_time if args.cpu else time.perf_counter
         print(
             f"check_loading ({'CPU' if args.cpu else 'wall'} time), best of {args.repeat} x {args.runs} "

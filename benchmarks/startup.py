@@ -91,9 +91,11 @@ def _measure(args: argparse.Namespace, folder: Path) -> None:
         "check": (CHECK, ROOT),
     }
     if args.old:
-        compileall.compile_dir(str(extract(args.old, folder)), quiet=1)
+        package = extract(args.old, folder)
+        compileall.compile_dir(str(package), quiet=1)
         # the older code reads the sample with the keys renamed since under their old names
-        codes["old"] = (_check(samples_for_old(folder) / SAMPLE.relative_to(ROOT / "sample_aircraft")), folder)
+        old_sample = samples_for_old(folder, package) / SAMPLE.relative_to(ROOT / "sample_aircraft")
+        codes["old"] = (_check(old_sample), folder)
     for code, path in codes.values():
         _time(code, path)  # warm the file cache
     runs: dict[str, list[tuple[float, float]]] = {name: [] for name in codes}
