@@ -14,6 +14,7 @@ name; its command group is ``log``, or ``OLD_GROUP`` in a commit before it had t
 from __future__ import annotations
 
 import argparse
+import compileall
 import os
 import resource
 import subprocess
@@ -79,12 +80,16 @@ def main() -> None:
         db = Path(folder) / "records.sqlite3"
         _database(db, args.n)
         env = {**os.environ, "PYTHONPATH": os.pathsep.join([str(ROOT), folder, os.environ.get("PYTHONPATH", "")])}
+        # an installed package has its bytecode compiled at install time: compile both versions here too,
+        # since PYTHONDONTWRITEBYTECODE may be set (else every run would compile the changed modules again)
+        compileall.compile_dir(str(ROOT / "loadcheck"), quiet=1)
         cases = {"log list (now)": LIST.format(package="loadcheck", group="log")}
         if args.old:
             package = extract(args.old, Path(folder), "loadcheck_old")  # it lists the log; it reads no sample
             group = (
                 "log" if 'name="log")' in (package / "cli" / "dispatcher.py").read_text(encoding="utf-8") else OLD_GROUP
             )
+            compileall.compile_dir(str(package), quiet=1)
             cases[f"log list ({args.old})"] = LIST.format(package="loadcheck_old", group=group)
         best = dict.fromkeys(cases, (float("inf"), float("inf")))
         for _ in range(args.repeat):
