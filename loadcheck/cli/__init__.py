@@ -186,7 +186,14 @@ def main() -> None:
     words = [w for w in sys.argv[1:] if not w.startswith("-")]
     first = sys.argv[1] if len(sys.argv) > 1 else ""
     chosen = _just(words[0]) if words and first == words[0] else None
-    (chosen or app)(prog_name="loadcheck")
+    try:
+        (chosen or app)(prog_name="loadcheck")
+    finally:
+        # The process ends here. The interpreter's collections at exit would go over every
+        # object once more (about 5 % of a check's instructions) only to find what the
+        # operating system frees anyway: frozen, they are not traversed. Every file and the
+        # check log are closed by then (with blocks); the output streams are flushed at exit.
+        gc.freeze()
 
 
 if __name__ == "__main__":  # pragma: no cover
