@@ -6,7 +6,7 @@ A fresh check log of N records is written (each carries the full result of a rea
 check of a sample loading, as a fleet check records it). Then, alternating, each as a
 fresh interpreter (start-up included): ``log list`` as it is now, and, where ``--old``
 is given, the listing of that commit's code (extracted with ``git archive`` under another
-name; its command group is ``OLD_GROUP``, the name before the group was ``log``), for
+name; its command group is ``log``, or ``OLD_GROUP`` in a commit before it had that name), for
 5bdf416 one that read every stored inputs and result and laid out a rich table. Best wall and CPU time of
 ``--repeat`` runs; target: under 1 s at 100,000 records.
 """
@@ -14,18 +14,18 @@ name; its command group is ``OLD_GROUP``, the name before the group was ``log``)
 from __future__ import annotations
 
 import argparse
+import compileall
 import os
 import resource
 import subprocess
 import sys
-import tarfile
 import tempfile
 import time
-from io import BytesIO
 from pathlib import Path
 
-ROOT = Path(__file__).resolve().parent.parent
-OLD_GROUP = "records"  # rename.py: keep (the command group's name in the commits --old is meant for)
+from older import ROOT, extract
+
+OLD_GROUP = "records"  # rename.py: keep (the command group's name before it was log)
 LIST = (
     "import sys; sys.argv = ['loadcheck', '{group}', 'list', '--db', sys.argv[1]]\n"
     "from {package}.cli import main\n"
@@ -80,15 +80,17 @@ def main() -> None:
         db = Path(folder) / "records.sqlite3"
         _database(db, args.n)
         env = {**os.environ, "PYTHONPATH": os.pathsep.join([str(ROOT), folder, os.environ.get("PYTHONPATH", "")])}
+        # an installed package has its bytecode compiled at install time: compile both versions here too,
+        # since PYTHONDONTWRITEBYTECODE may be set (else every run would compile the changed modules again)
+        compileall.compile_dir(str(ROOT / "loadcheck"), quiet=1)
         cases = {"log list (now)": LIST.format(package="loadcheck", group="log")}
         if args.old:
-            archive = subprocess.run(
-                ["git", "-C", str(ROOT), "archive", args.old, "loadcheck"], capture_output=True, check=True
-            ).stdout
-            with tarfile.open(fileobj=BytesIO(archive)) as tar:
-                tar.extractall(folder, filter="data")
-            (Path(folder) / "loadcheck").rename(Path(folder) / "loadcheck_old")
-            cases[f"log list ({args.old})"] = LIST.format(package="loadcheck_old", group=OLD_GROUP)
+            package = extract(args.old, Path(folder), "loadcheck_old")  # it lists the log; it reads no sample
+            group = (
+                "log" if 'name="log")' in (package / "cli" / "dispatcher.py").read_text(encoding="utf-8") else OLD_GROUP
+            )
+            compileall.compile_dir(str(package), quiet=1)
+            cases[f"log list ({args.old})"] = LIST.format(package="loadcheck_old", group=group)
         best = dict.fromkeys(cases, (float("inf"), float("inf")))
         for _ in range(args.repeat):
             for name, code in cases.items():

@@ -15,16 +15,13 @@ from __future__ import annotations
 
 import argparse
 import importlib
-import re
-import subprocess
 import sys
-import tarfile
 import tempfile
 import time
-from io import BytesIO
 from pathlib import Path
 
-ROOT = Path(__file__).resolve().parent.parent
+from older import ROOT, extract, samples_for_old
+
 SAMPLES = [
     "trainer4/within.toml",
     "twin6/within.toml",
@@ -32,32 +29,6 @@ SAMPLES = [
     "tandem2/aft_heavy.toml",
     "heli2/solo_heavy_right.toml",
 ]
-
-
-def _old_package(commit: str, folder: Path) -> object:
-    archive = subprocess.run(
-        ["git", "-C", str(ROOT), "archive", commit, "loadcheck"], capture_output=True, check=True
-    ).stdout
-    with tarfile.open(fileobj=BytesIO(archive)) as tar:
-        tar.extractall(folder, filter="data")
-    (folder / "loadcheck").rename(folder / "loadcheck_old")
-    sys.path.insert(0, str(folder))
-    return importlib.import_module("loadcheck_old")
-
-
-def _samples_for_old(folder: Path) -> Path:
-    """The sample folder as the old code reads it: keys renamed since (``files.RENAMED_KEYS``) under their old names."""
-    from loadcheck.files import RENAMED_KEYS
-
-    target = folder / "samples_old"
-    for source in (ROOT / "sample_aircraft").rglob("*.toml"):
-        text = source.read_text(encoding="utf-8")
-        for old_key, new_key in RENAMED_KEYS.items():
-            text = re.sub(rf"^{new_key}\b", old_key, text, flags=re.M)
-        copy = target / source.relative_to(ROOT / "sample_aircraft")
-        copy.parent.mkdir(parents=True, exist_ok=True)
-        copy.write_text(text, encoding="utf-8")
-    return target
 
 
 def _best(check, aircraft, loading, runs: int, samples: bool, clock=time.perf_counter) -> float:
@@ -78,8 +49,10 @@ def main() -> None:
     import loadcheck as new
 
     with tempfile.TemporaryDirectory() as folder:
-        old: object = _old_package(args.old, Path(folder))
-        old_samples = _samples_for_old(Path(folder))
+        package = extract(args.old, Path(folder), "loadcheck_old")
+        sys.path.insert(0, folder)
+        old: object = importlib.import_module("loadcheck_old")
+        old_samples = samples_for_old(Path(folder), package)
         clock = time.process_time if args.cpu else time.perf_counter
         print(
             f"check_loading ({'CPU' if args.cpu else 'wall'} time), best of {args.repeat} x {args.runs} "

@@ -18,13 +18,12 @@ import resource
 import statistics
 import subprocess
 import sys
-import tarfile
 import tempfile
 import time
-from io import BytesIO
 from pathlib import Path
 
-ROOT = Path(__file__).resolve().parent.parent
+from older import ROOT, extract, samples_for_old
+
 SAMPLE = ROOT / "sample_aircraft" / "trainer4" / "within.toml"
 
 BARE = "import numpy, shapely, typer, rich; from pydantic import BaseModel"
@@ -37,12 +36,21 @@ MINIMAL_APP = BARE_WITH_MODEL + (
     "\nfrom rich.console import Console\napp = typer.Typer()\n@app.command()\ndef go(x: int = 1) -> None:\n"
     "    Console().print(M(x=x).x)\ntry:\n    app(['--x', '2'])\nexcept SystemExit:\n    pass"
 )
-CHECK = (
-    "import sys; sys.argv = ['loadcheck', 'check', %r, '--json'];"
-    "import loadcheck.cli as c\n"
-    "try:\n    c.main()\nexcept SystemExit:\n    pass\n"
-    "assert 'matplotlib' not in sys.modules and 'rich' not in sys.modules" % str(SAMPLE)
-)
+NEW_ONLY = "matplotlib", "rich"  # what a plain check --json of this checkout must not import
+
+
+def _check(sample: Path, unloaded: tuple[str, ...] = ()) -> str:
+    """A fresh interpreter's ``loadcheck check SAMPLE --json``: it must end in a verdict (exit 0 or 1,
+    never an input error timed as a check) without importing ``unloaded``."""
+    return (
+        f"import sys; sys.argv = ['loadcheck', 'check', {str(sample)!r}, '--json']\n"
+        "import loadcheck.cli as c\n"
+        "try:\n    c.main()\nexcept SystemExit as stop:\n    assert stop.code in (0, 1, None), stop.code\n"
+        f"assert not [m for m in {unloaded!r} if m in sys.modules]"
+    )
+
+
+CHECK = _check(SAMPLE, NEW_ONLY)
 
 
 _EMPTY = [str(ROOT)]  # the working folder of the timed interpreters: an empty one (set in _measure)
@@ -83,13 +91,11 @@ def _measure(args: argparse.Namespace, folder: Path) -> None:
         "check": (CHECK, ROOT),
     }
     if args.old:
-        archive = subprocess.run(
-            ["git", "-C", str(ROOT), "archive", args.old, "loadcheck"], capture_output=True, check=True
-        ).stdout
-        with tarfile.open(fileobj=BytesIO(archive)) as tar:
-            tar.extractall(folder, filter="data")
-        compileall.compile_dir(str(folder / "loadcheck"), quiet=1)
-        codes["old"] = (CHECK, folder)
+        package = extract(args.old, folder)
+        compileall.compile_dir(str(package), quiet=1)
+        # the older code reads the sample with the keys renamed since under their old names
+        old_sample = samples_for_old(folder, package) / SAMPLE.relative_to(ROOT / "sample_aircraft")
+        codes["old"] = (_check(old_sample), folder)
     for code, path in codes.values():
         _time(code, path)  # warm the file cache
     runs: dict[str, list[tuple[float, float]]] = {name: [] for name in codes}

@@ -332,3 +332,35 @@ def test_records_list_does_not_load_the_aircraft_models(db, tmp_path):
         [sys.executable, "-c", code, str(db)], capture_output=True, text=True, check=True, cwd=tmp_path
     )
     assert done.stderr.strip() == "0 []", done.stderr
+
+
+def test_listing_leaves_the_cycle_collector_as_it_found_it(db):
+    """The listing reads its rows with the cycle collector paused (issue 18: its passes over
+    100,000 row tuples freed nothing); enabled or disabled, it is left as it was."""
+    import gc
+
+    _record(db, "trainer4/within.toml")
+    _record(db, "trainer4/over_weight.toml")
+    with CheckLog(db) as log:
+        assert gc.isenabled()
+        rows = log.listing()
+        assert gc.isenabled()
+        gc.disable()
+        try:
+            assert log.listing(registration="DEMO-4T") == rows
+            assert not gc.isenabled()
+        finally:
+            gc.enable()
+    assert [(row[5], row[7]) for row in rows] == [(1, 1), (0, 1)]  # within, then over the weight limit; one leg each
+
+
+def test_a_plain_listing_refuses_columns_of_unequal_length():
+    import io
+
+    from loadcheck.render.listing import plain_columns
+
+    out = io.StringIO()
+    plain_columns(out, "t", ("A", "B"), [["1", "22"], ["x", ""]], right=(0,))
+    assert out.getvalue().splitlines() == ["t", " A  B", "--  -", " 1  x", "22"]
+    with pytest.raises(ValueError, match="as long"):
+        plain_columns(io.StringIO(), "t", ("A", "B"), [["1", "2"], ["x"]])

@@ -485,3 +485,68 @@ def test_unknown_export_format_is_an_input_error_naming_the_field():
         export_text([], "xml")
     (problem,) = raised.value.problems
     assert problem.field == "format" and problem.value == "xml" and "csv or jsonl" in (problem.expected or "")
+
+
+def test_check_json_imports_neither_rich_nor_the_check_log_nor_sqlite(tmp_path):
+    # start-up (issue 18 item 4): a check that records nothing asked the check log's module whether it
+    # records (loadcheck.checklog.log_path), importing sqlite3 and csv for nothing; rich is for tables only
+    code = (
+        "import sys; sys.argv = ['loadcheck', 'check', sys.argv[1], '--json']\n"
+        "import loadcheck.cli as cli\n"
+        "try:\n    cli.main()\nexcept SystemExit as stop:\n    code = stop.code\n"
+        "loaded = [m for m in ('rich', 'loadcheck.checklog', 'sqlite3', 'csv') if m in sys.modules]\n"
+        "print(code, loaded, file=sys.stderr)"
+    )
+    done = subprocess.run([sys.executable, "-c", code, WITHIN], capture_output=True, text=True, check=True)
+    assert done.stderr.strip() == "0 []", done.stderr
+    assert json.loads(done.stdout)["ok"] is True
+    logged = subprocess.run(  # with --log it is imported and records
+        [
+            sys.executable,
+            "-c",
+            code.replace("'--json']", "'--json', '--log', '--db', sys.argv[2]]"),
+            WITHIN,
+            str(tmp_path / "l.db"),
+        ],
+        capture_output=True,
+        text=True,
+        check=True,
+    )
+    assert "'loadcheck.checklog'" in logged.stderr and (tmp_path / "l.db").is_file()
+
+
+def test_the_cycle_collector_is_back_to_its_thresholds_after_the_first_collection():
+    # start-up (issue 18 item 4): no pass of the cycle collector over the start-up's objects, which all live on;
+    # from the first collection on (a long command) the process's usual thresholds hold
+    import gc
+
+    import loadcheck.cli as cli
+
+    usual = gc.get_threshold()
+    callbacks = list(gc.callbacks)
+    try:
+        gc.set_threshold(700, 10, 10)
+        cli._collect_after_start_up()
+        assert gc.get_threshold() == (cli._START_UP_OBJECTS, 10, 10)
+        gc.collect()
+        assert gc.get_threshold() == (700, 10, 10)
+        gc.set_threshold(0)  # collection disabled by the process: left alone
+        cli._collect_after_start_up()
+        assert gc.get_threshold()[0] == 0
+    finally:
+        gc.callbacks[:] = callbacks
+        gc.set_threshold(*usual)
+
+
+def test_the_console_entry_leaves_its_objects_to_the_exit_untraversed():
+    # start-up (issue 18 item 4): the interpreter's collections at exit went over every object once more
+    # (about 5 % of a check's instructions, valgrind); main() freezes them once the command is done
+    code = (
+        "import gc, sys; sys.argv = ['loadcheck', 'check', sys.argv[1], '--json']\n"
+        "import loadcheck.cli as cli\n"
+        "try:\n    cli.main()\nexcept SystemExit as stop:\n    code = stop.code\n"
+        "print(code, gc.get_freeze_count() > 10_000, file=sys.stderr)"
+    )
+    done = subprocess.run([sys.executable, "-c", code, WITHIN], capture_output=True, text=True, check=True)
+    assert done.stderr.strip() == "0 True", done.stderr
+    assert json.loads(done.stdout)["ok"] is True  # the output is whole

@@ -9,13 +9,13 @@ from __future__ import annotations
 
 import functools
 import os
-from collections.abc import Callable
+from collections.abc import Callable, Mapping
 from pathlib import Path
-from typing import TYPE_CHECKING, Annotated, Any, TypeVar, cast
+from typing import TYPE_CHECKING, Annotated, Any, NoReturn, ParamSpec, TypeVar
 
 import typer
 from pydantic import ValidationError
-from typer.core import TyperGroup, TyperOption
+from typer.core import TyperCommand, TyperGroup, TyperOption
 
 from .. import __version__
 from ..errors import InputError, LoadcheckError, Problem
@@ -58,7 +58,7 @@ DbOpt = Annotated[
 ]
 
 
-def _repeated_option(command: Any, args: list[str]) -> str | None:
+def _repeated_option(command: TyperCommand | TyperGroup, args: list[str]) -> str | None:
     """Why ``args`` cannot be used: an option that takes one value given more than once.
 
     click keeps the last of the values (``--taxi 1 --taxi 2`` gives 2); a value the user gave
@@ -105,7 +105,7 @@ _RENAMED_COMMANDS = {  # rename.py: keep (the command group before issue 21)
 }
 
 
-def _renamed_option(command: Any, args: list[str]) -> str | None:
+def _renamed_option(command: TyperCommand | TyperGroup, args: list[str]) -> str | None:
     """A hint for an option of an earlier release that ``command`` no longer takes (refused
     all the same: click would refuse it as unknown, without saying what it became)."""
     known = {
@@ -133,7 +133,7 @@ class _Group(TyperGroup):
         target, remaining = command, list(rest)
         while isinstance(target, TyperGroup) and remaining and not remaining[0].startswith("-"):
             target, remaining = target.get_command(ctx, remaining[0]), remaining[1:]
-        if target is not None:
+        if isinstance(target, (TyperCommand, TyperGroup)):  # every command here is typer's
             problem = _renamed_option(target, remaining) or _repeated_option(target, remaining)
             if problem:
                 _fail_input([problem])
@@ -156,7 +156,8 @@ app = typer.Typer(
     context_settings={"help_option_names": ["-h", "--help"]},
 )
 
-F = TypeVar("F", bound=Callable[..., Any])
+P = ParamSpec("P")
+R = TypeVar("R")
 T = TypeVar("T")
 
 
@@ -173,18 +174,18 @@ def _console(stderr: bool = False) -> Console:
     return Console(stderr=stderr, highlight=False, color_system=None if no_color else "auto", no_color=no_color)
 
 
-def _fail_input(lines: list[str]) -> None:
+def _fail_input(lines: list[str]) -> NoReturn:
     err = _console(stderr=True)
     for line in lines:
         err.print(f"error: {line}", markup=False, soft_wrap=True)
     raise typer.Exit(EXIT_INPUT)
 
 
-def input_errors(func: F) -> F:
+def input_errors(func: Callable[P, R]) -> Callable[P, R]:
     """Turn bad input into exit 2 with a plain message, never a traceback."""
 
     @functools.wraps(func)
-    def wrapper(*args: Any, **kwargs: Any) -> Any:
+    def wrapper(*args: P.args, **kwargs: P.kwargs) -> R:
         try:
             return func(*args, **kwargs)
         except LoadcheckError as error:
@@ -205,7 +206,7 @@ def input_errors(func: F) -> F:
                 ]
             )
 
-    return cast(F, wrapper)  # functools.wraps keeps the signature typer reads
+    return wrapper  # functools.wraps keeps the signature typer reads
 
 
 def _assignments(values: list[str], option: str) -> dict[str, str]:
@@ -308,7 +309,7 @@ def _inputs(
     category: str | None,
     *,
     fuel_to_plan: bool = False,
-    legs: dict[int, Any] | None = None,
+    legs: Mapping[int, Mapping[str, Mapping[str, object]]] | None = None,
     allow_trip: bool = False,
 ) -> CheckInputs:
     """Read the files and lay the options over them (loadcheck.files.load_check_inputs).
@@ -319,7 +320,7 @@ def _inputs(
     """
     from ..files import load_check_inputs
 
-    burn: dict[str, Any] = {}
+    burn: dict[str, str | list[str]] = {}
     for key, value in (("taxi", taxi), ("trip", trip), ("trip_time", trip_time), ("rate", rate), ("reserve", reserve)):
         if value is not None:
             burn[key] = value

@@ -25,7 +25,8 @@ UsersOpt = Annotated[
 
 
 def _store(users: Path | None) -> UserStore:
-    from ..web.users import UserStore, default_users_path
+    from ..userdata import default_users_path
+    from ..web.users import UserStore
 
     return UserStore(users if users is not None else default_users_path())
 
@@ -55,10 +56,10 @@ def serve(
     caution = bind_caution(host, allow_remote)
     import uvicorn
 
-    from ..checklog import default_path
+    from ..userdata import default_log_path
     from ..web import create_app
 
-    db = db or default_path()  # the command line's check log; the old variable, refused, stops here
+    db = db or default_log_path()  # the command line's check log; the old variable, refused, stops here
     application = create_app(fleet, db=db, users=users, https_only=False)
     err = _console(stderr=True)
     if caution:

@@ -131,7 +131,7 @@ def check(
     Exit status: 0 within limits, 1 a limit is exceeded (on any leg of a trip), 2 the input could not be used.
     """
     from ..check import check_loading
-    from ..checklog import log_path
+    from ..userdata import log_path
 
     record = log_path(to_log, db)
     inputs = _inputs(

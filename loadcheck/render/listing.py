@@ -10,8 +10,8 @@ meaning rests on colour).
 
 from __future__ import annotations
 
-from collections.abc import Sequence
-from typing import IO, Any
+from collections.abc import Iterable, Iterator, Sequence
+from typing import IO
 
 __all__ = ["PLAIN_ROWS", "plain_columns", "plain_listing", "use_plain"]
 
@@ -62,18 +62,18 @@ def plain_columns(
     """:func:`plain_listing` of cells given column by column (``columns[k]`` the cells of
     column ``k``, every column as long).
 
-    Each column is padded as a whole with the string methods and the lines are joined
-    with them, so that no Python code runs per row: 100,000 rows take a few tenths of a
-    second (docs/performance.md, "Records list and start-up").
+    Each line is one format string applied to the row's cells and the lines are joined
+    with the string methods, so that no Python code runs per row: 100,000 rows take about
+    a tenth of a second (docs/performance.md, "Records list and start-up").
     """
     import textwrap
-    from itertools import chain
-    from operator import methodcaller
 
     columns = [
         ["; ".join(cell.splitlines()) for cell in column] if "\n" in "\x00".join(column) else column
         for column in columns
     ]  # the test in C, the join only where a cell has several lines
+    if len({len(headers), len(columns)}) > 1 or len(set(map(len, columns))) > 1:
+        raise ValueError("plain_columns: one column for each header, every column as long")
     widths = [max(len(h), max(map(len, column), default=0)) for h, column in zip(headers, columns, strict=True)]
     shown = len(headers)
     if width is not None:
@@ -85,46 +85,43 @@ def plain_columns(
     last = shown - 1
     aligned = set(right)
 
-    def padded(k: int, cells: Sequence[str]) -> Any:
-        if k in aligned:
-            return map(methodcaller("rjust", widths[k]), cells)
-        return cells if k == last else map(methodcaller("ljust", widths[k]), cells)
-
-    def lines_of(cells: list[Sequence[str]]) -> Any:
-        return map(str.rstrip, map("  ".join, zip(*(padded(k, c) for k, c in enumerate(cells)), strict=True)))
+    def lines_of(cells: Sequence[Sequence[str]]) -> Iterator[str]:
+        # one format per row does the padding of all its cells in C; the last column is not padded
+        spec = [
+            "{:>%d}" % widths[k] if k in aligned else "{}" if k == last else "{:<%d}" % widths[k] for k in range(shown)
+        ]
+        return map(str.rstrip, map("  ".join(spec).format, *cells))
 
     out.write(title + "\n")
-    out.write(next(iter(lines_of([[h] for h in headers[:shown]]))) + "\n")
+    out.write(next(lines_of([[h] for h in headers[:shown]])) + "\n")
     out.write("  ".join("-" * w for w in widths[:shown]) + "\n")
     wrap = width if width is not None else 10**6
     # A column that does not fit goes on a line of its own under its row, "  Header: value";
     # empty cells are left out, and a line too long for the width is wrapped at spaces.
-    parts = [lines_of(columns[:shown])]
+    blocks: Iterable[str] = lines_of(columns[:shown])  # each row's line, then its cells that did not fit
     for k in range(shown, len(headers)):
         label = f"  {headers[k]}: "
+        extra: Iterable[str]
         if all(columns[k]) and len(label) + widths[k] <= wrap:
-            parts.append(map(label.__add__, columns[k]))
+            extra = map(f"\n{label}".__add__, columns[k])
         else:
-            parts.append(
-                [
-                    "\n".join(
-                        textwrap.wrap(
-                            f"{headers[k]}: {cell}",
-                            wrap,
-                            initial_indent="  ",
-                            subsequent_indent="    ",
-                            break_long_words=False,
-                            break_on_hyphens=False,
-                        )
+            extra = [
+                "\n"
+                + "\n".join(
+                    textwrap.wrap(
+                        f"{headers[k]}: {cell}",
+                        wrap,
+                        initial_indent="  ",
+                        subsequent_indent="    ",
+                        break_long_words=False,
+                        break_on_hyphens=False,
                     )
-                    if cell
-                    else None
-                    for cell in columns[k]
-                ]
-            )
-    lines = chain.from_iterable(zip(*parts, strict=True)) if len(parts) > 1 else parts[0]
-    if any(isinstance(part, list) for part in parts[1:]):
-        lines = (line for line in lines if line is not None)
-    text = "\n".join(lines)
+                )
+                if cell
+                else ""
+                for cell in columns[k]
+            ]
+        blocks = map(str.__add__, blocks, extra)
+    text = "\n".join(blocks)
     out.write(text + "\n" if text else "")
     out.flush()

@@ -18,6 +18,7 @@ from pathlib import Path
 from typing import Any, Literal, get_args
 
 from ..errors import FileFormatError, InputError, Problem
+from ..userdata import default_users_path  # the accounts file's default place, beside the check log's
 
 __all__ = ["MIN_PASSWORD", "ROLES", "Account", "Role", "UserStore", "default_users_path"]
 
@@ -28,16 +29,6 @@ MIN_PASSWORD = 10
 
 _NAME = re.compile(r"^[A-Za-z0-9][A-Za-z0-9._-]{0,39}$")
 _LOCK = threading.Lock()
-
-
-def default_users_path() -> Path:
-    """Where accounts go by default: $LOADCHECK_USERS, else the user data folder."""
-    explicit = os.environ.get("LOADCHECK_USERS")
-    if explicit:
-        return Path(explicit)
-    from platformdirs import user_data_path
-
-    return user_data_path("loadcheck", appauthor=False) / "users.json"
 
 
 @dataclass(frozen=True)
