@@ -185,4 +185,4 @@ def test_a_name_at_a_station_without_weight_is_refused(runner, tmp_path):
     leg = runner.invoke(
         app, ["check", str(_named_trip(tmp_path, 'front = "Alex"', 'front = "Kim"')), "--leg-load", "2:front=0"]
     )
-    assert leg.exit_code == 2 and "leg[0].names.front" in leg.stderr
+    assert leg.exit_code == 2 and "leg 2, names.front" in leg.stderr
