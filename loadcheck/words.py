@@ -110,17 +110,17 @@ def trip_leg_verdict(leg: str, limits: int, failed: list[str]) -> str:
     Examples
     --------
     >>> trip_leg_verdict("Leg 1", 0, ["Leg 2 (solo)"])
-    'Leg 1: WITHIN LIMITS; the trip is OUT OF LIMITS on Leg 2 (solo)'
+    'Leg 1 — WITHIN LIMITS; the trip is OUT OF LIMITS on Leg 2 (solo)'
     >>> trip_leg_verdict("Leg 2", 1, ["Leg 2"])
-    'Leg 2: OUT OF LIMITS: 1 limit exceeded'
+    'Leg 2 — OUT OF LIMITS: 1 limit exceeded'
     >>> trip_leg_verdict("Leg 1", 0, [])
-    'Leg 1: WITHIN LIMITS, as is every leg of the trip'
+    'Leg 1 — WITHIN LIMITS, as is every leg of the trip'
     """
     if limits:
-        return f"{leg}: {sheet_verdict(limits)}"
+        return f"{leg} — {sheet_verdict(limits)}"
     if not failed:
-        return f"{leg}: WITHIN LIMITS, as is every leg of the trip"
-    return f"{leg}: WITHIN LIMITS; the trip is OUT OF LIMITS on {', '.join(failed)}"
+        return f"{leg} — WITHIN LIMITS, as is every leg of the trip"
+    return f"{leg} — WITHIN LIMITS; the trip is OUT OF LIMITS on {', '.join(failed)}"
 
 
 def condition_words(name: str | None) -> str:

@@ -198,9 +198,9 @@ def test_a_failing_trips_leg_1_page_carried_a_bare_within_banner(runner, tmp_pat
     verdicts = re.findall(r"class=.verdict. id=.(?:trip-)?verdict.>([^<]*)<", html)
     assert verdicts == [
         "OUT OF LIMITS on Leg 2 (back to base, solo)",
-        "Leg 1: WITHIN LIMITS; the trip is OUT OF LIMITS on Leg 2 (back to base, solo)",
-        "Leg 2 (back to base, solo): OUT OF LIMITS: 1 limit exceeded",
+        "Leg 1 — WITHIN LIMITS; the trip is OUT OF LIMITS on Leg 2 (back to base, solo)",
+        "Leg 2 (back to base, solo) — OUT OF LIMITS: 1 limit exceeded",
     ]
     within = tmp_path / "within.html"
     assert runner.invoke(app, ["check", trip, "--sheet", str(within)]).exit_code == 0
-    assert "Leg 1: WITHIN LIMITS, as is every leg of the trip" in within.read_text()
+    assert "Leg 1 — WITHIN LIMITS, as is every leg of the trip" in within.read_text()
