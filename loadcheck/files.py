@@ -595,7 +595,9 @@ def load_check_inputs(
             notes.append(f"the loading names {named}, but {aircraft_path} was given and is used")
     try:
         trip = (
-            resolve_trip(loading, aircraft, category=overrides.get("category")) if allow_trip and loading.leg else None
+            resolve_trip(loading, aircraft, category=overrides.get("category"), fuel_to_plan=fuel_to_plan)
+            if allow_trip and loading.leg
+            else None
         )
         resolved = (
             trip.legs[0]

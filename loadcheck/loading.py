@@ -764,7 +764,8 @@ def require_usable(loading: ResolvedLoading, aircraft: Aircraft, *, burn_covered
                 "burn",
                 f"taxi and trip fuel ({loading.taxi + loading.trip:g} {units.fuel_volume}) exceed the fuel "
                 "the burn order can use",
-                expected=f"at most {loading.plan.burnable:g} {units.fuel_volume}",
+                expected=f"at most {loading.plan.burnable:g} {units.fuel_volume}: less taxi or trip fuel, more fuel "
+                "in the tanks the burn order uses, or a burn order with more tanks",
             )
         )
     if problems:
@@ -832,7 +833,9 @@ def landing_fuel(leg: ResolvedLoading) -> dict[str, float]:
     return leg.plan.quantities(leg.taxi + leg.trip)
 
 
-def resolve_trip(loading: Loading, aircraft: Aircraft, *, category: str | None = None) -> ResolvedTrip:
+def resolve_trip(
+    loading: Loading, aircraft: Aircraft, *, category: str | None = None, fuel_to_plan: bool = False
+) -> ResolvedTrip:
     """Resolve a loading of one or more legs against an aircraft.
 
     The first leg is the loading's own load, fuel and burn (:func:`resolve_loading`). Each
@@ -842,6 +845,10 @@ def resolve_trip(loading: Loading, aircraft: Aircraft, *, category: str | None =
     trip burned in the previous leg's burn order, :meth:`BurnPlan.quantities`) plus the fuel
     put in at the stop. The burn order is the previous leg's unless the leg gives one. The
     leg is then resolved exactly as a single loading (names, capacities, fuel for the burn).
+
+    With ``fuel_to_plan`` the fuel at the first engine start is what a planning answer will
+    choose (:func:`loadcheck.trip.trip_most_fuel`): as for a single loading, the fuel given need
+    not cover the legs' taxi and trip fuel (each answer is checked leg by leg at its own fuel).
 
     Returns
     -------
@@ -856,7 +863,9 @@ def resolve_trip(loading: Loading, aircraft: Aircraft, *, category: str | None =
         also fuel put in above a tank's usable capacity, or a level below what the tank
         already holds.
     """
-    first = resolve_loading(loading.model_copy(update={"leg": []}), aircraft, category=category)
+    first = resolve_loading(
+        loading.model_copy(update={"leg": []}), aircraft, category=category, fuel_to_plan=fuel_to_plan
+    )
     legs, stops = [first], []
     units = aircraft.units
     for index, leg in enumerate(loading.leg):
@@ -908,7 +917,7 @@ def resolve_trip(loading: Loading, aircraft: Aircraft, *, category: str | None =
             burn=leg.burn.model_copy(update={"order": order}),
         )
         try:
-            legs.append(resolve_loading(single, aircraft))
+            legs.append(resolve_loading(single, aircraft, fuel_to_plan=fuel_to_plan))
         except LoadcheckError as error:
             raise type(error)(
                 [Problem(leg_field(number, p.field), p.message, p.value, p.expected) for p in error.problems]

@@ -576,3 +576,21 @@ def test_trip_time_and_rate_replaced_the_files_trip_without_saying_so(runner):
     assert "note: leg 2: the trip fuel is --leg-burn 2:trip_time=1:00 x --leg-burn 2:rate=9" in " ".join(
         leg.stderr.split()
     )
+
+
+def test_plan_fuel_on_a_trip_refused_the_fuel_it_asks_for(runner):
+    # `plan fuel trip.toml --fuel main=5` was refused: "taxi and trip fuel exceed the fuel the burn order
+    # can use", although the fuel at the first engine start is what it asks for
+    trip = str(sample("heli2/trip_drop_off.toml"))
+    given = runner.invoke(app, ["plan", "fuel", trip, "--fuel", "main=5", "--json"])
+    as_file = runner.invoke(app, ["plan", "fuel", trip, "--json"])
+    assert given.exit_code == 0, given.output
+    assert json.loads(given.stdout)["answer"] == pytest.approx(json.loads(as_file.stdout)["answer"])
+    # a check of that fuel is refused, saying what to change
+    refused = runner.invoke(app, ["check", trip, "--fuel", "main=5"])
+    assert (
+        refused.exit_code == 2 and "exceed the fuel the burn order can use; expected at most 5 usgal" in refused.output
+    )
+    assert "less taxi or trip fuel, more fuel in the tanks the burn order uses, or a burn order with more tanks" in (
+        refused.output
+    )
