@@ -594,3 +594,17 @@ def test_plan_fuel_on_a_trip_refused_the_fuel_it_asks_for(runner):
     assert "less taxi or trip fuel, more fuel in the tanks the burn order uses, or a burn order with more tanks" in (
         refused.output
     )
+
+
+def test_a_fleet_trips_leg_problem_named_the_trips_first_row(runner, tmp_path):
+    # with a leg's problem named "leg 2, burn" (not leg[0].burn) the fleet check blamed line 2 (leg 1's row)
+    from .test_trip import trip_fleet
+
+    folder = trip_fleet(tmp_path / "fleet")
+    day = folder / "day.csv"
+    day.write_text(
+        "registration,reference,trip_id,leg,front,rear,main,taxi,trip\n"
+        "TEST-T,F1,A,1,180,0,30,1,10\nTEST-T,F1,A,2,180,0,,1,99\n"
+    )
+    result = runner.invoke(app, ["fleet", "check", str(folder), str(day), "--no-log"])
+    assert result.exit_code == 2 and f"{day}:3: leg 2, burn: taxi and trip fuel (100 usgal) exceed" in result.stderr
