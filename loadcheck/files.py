@@ -520,10 +520,10 @@ def _trip_replaced(
             continue
         option = {key: typed.get(f"{where}.{key}", f"{key} {given[key]!r}") for key in given}
         if "trip_time" in given and "trip" in file_burn and "trip" not in given:
-            rate = option["rate"] if "rate" in given else f"the file's rate {file_burn.get('rate')!r}"
+            rate = option["rate"] if "rate" in given else f"the file's rate = {file_burn.get('rate')!r}"
             out.append((where, f"{option['trip_time']} x {rate}", f"trip = {file_burn['trip']!r}"))
         elif "trip" in given and "trip_time" in file_burn:
-            file_rate = f" x rate {file_burn['rate']!r}" if "rate" in file_burn else ""
+            file_rate = f" x rate = {file_burn['rate']!r}" if "rate" in file_burn else ""
             out.append((where, option["trip"], f"trip_time = {file_burn['trip_time']!r}{file_rate}"))
     return out
 

@@ -121,3 +121,21 @@ def test_unknown_keys_name_the_closest_allowed_key():
     assert "burn.taxy: unknown field (did you mean 'taxi'?); got 1" in described
     assert "leg 2, burn.trp: unknown field (did you mean 'trip'?); got 3" in described
     assert "lod: unknown field (did you mean 'load'?)" in described
+
+
+def test_a_command_line_trip_over_a_files_trip_time_is_said(tmp_path):
+    # the file gives 1:30 at 8 US gal/h (12 US gal); --trip 10 replaces it: said, with the fuel used
+    loading = tmp_path / "timed.toml"
+    aircraft = Path(TRAINER_WITHIN).parent / "aircraft.toml"
+    loading.write_text(
+        f'format = 1\naircraft = "{aircraft}"\n[load]\nfront = 340\n[fuel]\nmains = "school"\n'
+        '[burn]\ntaxi = 1.2\ntrip_time = "1:30"\nrate = 8\n'
+    )
+    inputs = files_module.load_check_inputs(str(loading), None, command_line=True, burn={"trip": "10"})
+    assert inputs.loading.trip == pytest.approx(10.0)
+    assert inputs.notes == [
+        "the trip fuel is --trip 10 from the command line, 10 usgal; it replaces the loading file's "
+        "trip_time = '1:30' x rate = 8 (command-line values are laid over the file's)"
+    ]
+    timed = files_module.load_check_inputs(str(loading), None, command_line=True, burn={"trip_time": "2:00"})
+    assert timed.loading.trip == pytest.approx(16.0) and timed.notes == []  # the same form: laid over, no note
