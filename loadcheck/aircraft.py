@@ -28,7 +28,7 @@ from pydantic import (
 )
 
 from .envelope import AXES, Axis, EnvelopeShape, polygon_problem
-from .errors import Problem, UnitError, UnknownNameError
+from .errors import Problem, UnitError, UnknownNameError, spelling_hint
 from .filemodel import FileModel
 from .fuel import FuelGrade, default_density, density_problem, grade_name
 from .units import ArmUnit, MassUnit, VolumeUnit, canonical_unit, convert, parse_quantity, unit_kind
@@ -486,7 +486,11 @@ class Aircraft(_Model):
         chosen = name or self.categories[0]
         if chosen not in self.categories:
             raise UnknownNameError(
-                Problem("category", f"unknown category {chosen!r}", expected="one of " + ", ".join(self.categories))
+                Problem(
+                    "category",
+                    f"unknown category {chosen!r}{spelling_hint(chosen, self.categories)}",
+                    expected="one of " + ", ".join(self.categories),
+                )
             )
         return chosen
 

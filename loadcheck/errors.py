@@ -7,12 +7,14 @@ build their message from them, so the command line can print them without a trac
 
 from __future__ import annotations
 
+from collections.abc import Iterable
 from dataclasses import dataclass
 from pathlib import Path
 from typing import Any
 
 __all__ = [
     "FileFormatError",
+    "spelling_hint",
     "InputError",
     "LoadcheckError",
     "Problem",
@@ -27,7 +29,9 @@ class Problem:
 
     Attributes
     ----------
-    field : dotted path of the field, e.g. ``station[2].max_weight`` ("" for the whole file)
+    field : dotted path of the field, e.g. ``station[2].max_weight`` ("" for the whole file); a
+        field of a trip's later leg is ``leg 2, burn.taxi`` (loadcheck.loading.leg_field), a
+        value given on the command line is the option as typed, ``--load front=80``
     message : what is wrong, in plain words
     value : the offending value, if there is one
     expected : what would have been accepted, if that can be said briefly
@@ -69,9 +73,11 @@ class LoadcheckError(ValueError):
         return self
 
     def lines(self) -> list[str]:
-        """One line per problem, each prefixed with the file name where known."""
+        """One line per problem, each prefixed with the file name where known; a problem with
+        a command-line value (its field is the option as typed, ``--load front=80``) is the
+        command line's, never the file's."""
         prefix = f"{self.file}: " if self.file else ""
-        return [prefix + p.describe() for p in self.problems]
+        return [("" if p.field.startswith("--") else prefix) + p.describe() for p in self.problems]
 
     def _text(self) -> str:
         return "\n".join(self.lines())
@@ -91,3 +97,21 @@ class UnitError(LoadcheckError):
 
 class UnknownNameError(LoadcheckError):
     """A station, tank, category, fill level or registration that does not exist."""
+
+
+def spelling_hint(word: str, choices: Iterable[str]) -> str:
+    """`` (did you mean 'front'?)`` for a word close to one of ``choices``, else "".
+
+    The closest of ``choices`` by :func:`difflib.get_close_matches` (similarity ratio at least 0.6).
+
+    Examples
+    --------
+    >>> spelling_hint("max_takeof_weight", ["max_takeoff_weight", "max_landing_weight"])
+    " (did you mean 'max_takeoff_weight'?)"
+    >>> spelling_hint("zzz", ["front", "rear"])
+    ''
+    """
+    import difflib
+
+    close = difflib.get_close_matches(word, list(choices), n=1)
+    return f" (did you mean {close[0]!r}?)" if close else ""

@@ -14,25 +14,36 @@ from __future__ import annotations
 
 import os
 import re
+import shlex
 import stat
 import tempfile
 import tomllib
 from collections.abc import Mapping
 from dataclasses import dataclass, field
 from pathlib import Path
-from typing import Any, BinaryIO
+from typing import Any, BinaryIO, get_args
 
 from pydantic import BaseModel, ValidationError
 
 from .aircraft import Aircraft, Units
-from .errors import FileFormatError, InputError, LoadcheckError, Problem
-from .loading import Loading, ResolvedLoading, ResolvedTrip, apply_overrides, resolve_loading, resolve_trip
+from .errors import FileFormatError, InputError, LoadcheckError, Problem, spelling_hint
+from .loading import (
+    Loading,
+    ResolvedLoading,
+    ResolvedTrip,
+    apply_overrides,
+    leg_field,
+    leg_of_field,
+    resolve_loading,
+    resolve_trip,
+)
 
 __all__ = [
     "MAX_FILE_BYTES",
     "MAX_NESTING",
     "RENAMED_KEYS",
     "CheckInputs",
+    "allowed_keys",
     "encoding_problem",
     "file_kind",
     "load_aircraft",
@@ -46,6 +57,7 @@ __all__ = [
     "problems_from_validation",
     "read_text",
     "read_toml",
+    "typed_options",
     "validate_file",
     "write_atomic",
     "write_new_record",
@@ -222,7 +234,11 @@ _PATH_PREFIX = re.compile(r"^([A-Za-z_][\w.\[\]]*): (.+)$")
 
 
 def _field_path(location: tuple[Any, ...]) -> str:
-    """``("station", 2, "max_weight")`` -> ``station[2].max_weight``."""
+    """``("station", 2, "max_weight")`` -> ``station[2].max_weight``; a loading's later leg as the
+    user counts legs (:func:`~loadcheck.loading.leg_field`): ``("leg", 0, "burn", "taxi")`` ->
+    ``leg 2, burn.taxi``."""
+    if len(location) >= 2 and location[0] == "leg" and isinstance(location[1], int):
+        return leg_field(location[1] + 2, _field_path(location[2:]))
     text = ""
     for part in location:
         if isinstance(part, int):
@@ -238,25 +254,79 @@ RENAMED_KEYS = {
 """Keys of earlier file formats that now have another name: still refused as unknown, with the new name."""
 
 
-def problems_from_validation(error: ValidationError) -> list[Problem]:
+def _models(annotation: Any) -> list[type[BaseModel]]:
+    """The models a field's type holds: ``Station``, ``list[Station]``, ``dict[str, Leg]``, ``X | None``."""
+    if isinstance(annotation, type) and issubclass(annotation, BaseModel):
+        return [annotation]
+    return [model for arg in get_args(annotation) for model in _models(arg)]
+
+
+def _file_model(name: str) -> type[BaseModel] | None:
+    """The file model (loadcheck.filemodel.FileModel) of a ValidationError's title."""
+    from .filemodel import FileModel
+
+    pending: list[type[BaseModel]] = [FileModel]
+    while pending:
+        model = pending.pop()
+        if model.__name__ == name:
+            return model
+        pending += model.__subclasses__()
+    return None
+
+
+def allowed_keys(model: type[BaseModel], location: tuple[Any, ...]) -> list[str]:
+    """The keys a table takes at ``location`` (pydantic's error location of a key in it).
+
+    Examples
+    --------
+    >>> from loadcheck.loading import Loading
+    >>> allowed_keys(Loading, ("leg", 0, "burn", "taxy"))
+    ['taxi', 'trip', 'trip_time', 'rate', 'order', 'reserve']
+    """
+    current = [model]
+    for part in location[:-1]:
+        if isinstance(part, int):
+            continue  # an index into a list of tables: the same models
+        inner = [
+            found
+            for candidate in current
+            if (field := candidate.model_fields.get(str(part))) is not None
+            for found in _models(field.annotation)
+        ]
+        if inner:
+            current = inner
+    keys: list[str] = []
+    for candidate in current:
+        keys += [f.alias or name for name, f in candidate.model_fields.items() if (f.alias or name) not in keys]
+    return keys
+
+
+def problems_from_validation(error: ValidationError, model: type[BaseModel] | None = None) -> list[Problem]:
     """Turn a pydantic ValidationError into problems with dotted field paths.
 
     A union field is reported once, with its first reason. Whole-model checks (a group
     naming an unknown station) come as lines ``path: message``; each becomes a problem
-    of that path.
+    of that path. An unknown key names the allowed key it is closest to, where one is close
+    (:func:`~loadcheck.errors.spelling_hint` against the keys of ``model`` at that place;
+    default: the file model the error is of).
     """
+    model = model or _file_model(error.title)
     problems: list[Problem] = []
     seen: set[tuple[str, str]] = set()
     for item in error.errors(include_url=False):
         field = _field_path(tuple(item.get("loc", ())))
         kind = item.get("type")
         message = str(item.get("msg", "invalid value")).removeprefix("Value error, ")
+        expected = None
         if kind == "missing":
             message = "this field is required"
         elif kind == "extra_forbidden":
             loc = item.get("loc", ())
             new = RENAMED_KEYS.get(str(loc[-1])) if loc else None
-            message = f"unknown field (renamed: write {new})" if new else "unknown field (misspelt?)"
+            keys = allowed_keys(model, tuple(loc)) if loc and model else []
+            hint = spelling_hint(str(loc[-1]), keys)
+            message = f"unknown field (renamed: write {new})" if new else f"unknown field{hint or ' (misspelt?)'}"
+            expected = "a key of this table: " + ", ".join(keys) if keys and not (new or hint) else None
         if (field, message) in seen:
             continue
         seen.add((field, message))
@@ -266,7 +336,7 @@ def problems_from_validation(error: ValidationError) -> list[Problem]:
                 problems.append(Problem(match.group(1), match.group(2)) if match else Problem("", line))
             continue
         value = item.get("input") if kind not in ("missing", "model_type", "dict_type") else None
-        problems.append(Problem(field, message, None if isinstance(value, (dict, list)) else value))
+        problems.append(Problem(field, message, None if isinstance(value, (dict, list)) else value, expected))
     return problems
 
 
@@ -362,8 +432,109 @@ class CheckInputs:
         return self.trip is not None and len(self.trip.legs) > 1
 
 
+_BURN_OPTIONS = {
+    "taxi": "--taxi",
+    "trip": "--trip",
+    "trip_time": "--trip-time",
+    "rate": "--rate",
+    "order": "--order",
+    "reserve": "--reserve",
+}
+_LEG_OPTIONS = {"load": "--leg-load", "add_fuel": "--leg-fuel", "burn": "--leg-burn"}
+_TRIP_KEYS = ("taxi", "trip", "trip_time", "rate")  # what a problem of a whole burn table is about
+
+
+def _typed(value: Any) -> str:
+    return ",".join(map(str, value)) if isinstance(value, list) else str(value)
+
+
+def typed_options(overrides: Mapping[str, Any]) -> dict[str, str]:
+    """Each command-line value of ``overrides`` (as :func:`load_check_inputs` takes them) by its
+    loading field, written as the option the user typed.
+
+    Examples
+    --------
+    >>> typed_options({"load": {"hold": "20 kg"}, "burn": {"trip_time": "2:00"}})
+    {'load.hold': "--load 'hold=20 kg'", 'burn.trip_time': '--trip-time 2:00'}
+    >>> typed_options({"legs": {2: {"burn": {"trip": "9"}}}})
+    {'leg 2, burn.trip': '--leg-burn 2:trip=9'}
+    """
+    typed: dict[str, str] = {}
+    for table, option in (("load", "--load"), ("fuel", "--fuel")):
+        for name, value in (overrides.get(table) or {}).items():
+            typed[f"{table}.{name}"] = f"{option} {shlex.quote(f'{name}={_typed(value)}')}"
+    for key, value in (overrides.get("burn") or {}).items():
+        if key in _BURN_OPTIONS:
+            typed[f"burn.{key}"] = f"{_BURN_OPTIONS[key]} {shlex.quote(_typed(value))}"
+    if overrides.get("category") is not None:
+        typed["category"] = f"--category {shlex.quote(str(overrides['category']))}"
+    for number, tables in (overrides.get("legs") or {}).items():
+        for table, values in tables.items():
+            if table in _LEG_OPTIONS and isinstance(values, Mapping):
+                for name, value in values.items():
+                    text = shlex.quote(f"{number}:{name}={_typed(value)}")
+                    typed[leg_field(number, f"{table}.{name}")] = f"{_LEG_OPTIONS[table]} {text}"
+    return typed
+
+
+def _option_of(field: str, typed: Mapping[str, str]) -> str | None:
+    """The command-line option(s) a problem's field is about, as typed; None for the file's own value."""
+    if field in typed:
+        return typed[field]
+    for key, option in typed.items():
+        if field.startswith((key + ".", key + "[")):
+            return option
+    if field == "burn" or field.endswith(", burn"):  # the burn as a whole: its taxi and trip
+        given = [typed[f"{field}.{key}"] for key in _TRIP_KEYS if f"{field}.{key}" in typed]
+        return " ".join(given) or None
+    return None
+
+
+def _named_as_typed(error: LoadcheckError, typed: Mapping[str, str]) -> LoadcheckError:
+    """``error`` with every problem of a command-line value named by its option as typed
+    (``--load front=80: unknown station 'front'``): the option shows the value."""
+    problems = []
+    for problem in error.problems:
+        option = _option_of(problem.field, typed)
+        problems.append(problem if option is None else Problem(option, problem.message, None, problem.expected))
+    return type(error)(problems, file=error.file)
+
+
+def _trip_replaced(
+    data: Mapping[str, Any], overrides: Mapping[str, Any], typed: Mapping[str, str]
+) -> list[tuple[str, str, str]]:
+    """Where an override's trip fuel replaces the file's in its other form (a trip time and rate
+    for the file's trip, or a trip for its trip time): ``[(field of the burn, what the file
+    gave, what replaces it)]`` as words, one per burn table. Command-line values are laid over
+    the file's (docs/file-format.md, "Values given on the command line")."""
+    tables = [("burn", data.get("burn"), overrides.get("burn"))]
+    legs = data.get("leg")
+    for number, values in (overrides.get("legs") or {}).items():
+        index = number - 2
+        file_leg = legs[index] if isinstance(legs, list) and 0 <= index < len(legs) else None
+        if isinstance(file_leg, Mapping):
+            tables.append((leg_field(number, "burn"), file_leg.get("burn"), values.get("burn")))
+    out: list[tuple[str, str, str]] = []
+    for where, file_burn, given in tables:
+        if not isinstance(file_burn, Mapping) or not isinstance(given, Mapping):
+            continue
+        option = {key: typed.get(f"{where}.{key}", f"{key} {given[key]!r}") for key in given}
+        if "trip_time" in given and "trip" in file_burn and "trip" not in given:
+            rate = option["rate"] if "rate" in given else f"the file's rate = {file_burn.get('rate')!r}"
+            out.append((where, f"{option['trip_time']} x {rate}", f"trip = {file_burn['trip']!r}"))
+        elif "trip" in given and "trip_time" in file_burn:
+            file_rate = f" x rate = {file_burn['rate']!r}" if "rate" in file_burn else ""
+            out.append((where, option["trip"], f"trip_time = {file_burn['trip_time']!r}{file_rate}"))
+    return out
+
+
 def load_check_inputs(
-    aircraft_path: str | Path, loading_path: str | Path | None = None, *, allow_trip: bool = False, **overrides: Any
+    aircraft_path: str | Path,
+    loading_path: str | Path | None = None,
+    *,
+    allow_trip: bool = False,
+    command_line: bool = False,
+    **overrides: Any,
 ) -> CheckInputs:
     """Read an aircraft and a loading (file and/or overrides) and resolve one against the other.
 
@@ -372,7 +543,12 @@ def load_check_inputs(
     ``fuel_to_plan=True`` resolves a loading whose fuel a planning answer will choose
     (:func:`~loadcheck.loading.resolve_loading`). With ``allow_trip`` a loading of several
     legs is resolved leg by leg (``trip``; ``loading`` is its first leg); without it such a
-    loading is refused, so that no job checks a trip's first leg alone.
+    loading is refused, so that no job checks a trip's first leg alone. With ``command_line``
+    the overrides are command-line options: a problem with one is named by the option as the
+    user typed it, which shows the value (``--load front=80: unknown station 'front'``,
+    :func:`typed_options`). A trip fuel of the overrides that replaces the loading file's in
+    its other form (a trip time and rate for the file's trip, or a trip for its trip time) is
+    said in ``notes``.
 
     Raises
     ------
@@ -400,18 +576,28 @@ def load_check_inputs(
             ),
             file=aircraft_path,
         )
+    typed = typed_options(overrides)
+
+    def read_loading(path: str | Path | None) -> tuple[Loading, Path | None]:
+        try:
+            return load_loading(path, **overrides)
+        except LoadcheckError as error:
+            raise _named_as_typed(error, typed) if command_line else error from None
+
     if loading_path is None and file_kind(data) == "loading":
         loading_path = aircraft_path
-        loading, named = load_loading(loading_path, **overrides)
+        loading, named = read_loading(loading_path)
         aircraft = _named_aircraft(named, loading_path)
     else:
         aircraft = parse_aircraft(data, aircraft_path)
-        loading, named = load_loading(loading_path, **overrides)
+        loading, named = read_loading(loading_path)
         if named is not None and named.resolve() != Path(aircraft_path).resolve():
             notes.append(f"the loading names {named}, but {aircraft_path} was given and is used")
     try:
         trip = (
-            resolve_trip(loading, aircraft, category=overrides.get("category")) if allow_trip and loading.leg else None
+            resolve_trip(loading, aircraft, category=overrides.get("category"), fuel_to_plan=fuel_to_plan)
+            if allow_trip and loading.leg
+            else None
         )
         resolved = (
             trip.legs[0]
@@ -419,7 +605,19 @@ def load_check_inputs(
             else resolve_loading(loading, aircraft, category=overrides.get("category"), fuel_to_plan=fuel_to_plan)
         )
     except LoadcheckError as error:
-        raise error.with_file(loading_path if loading_path is not None else "command line") from None
+        error = error.with_file(loading_path if loading_path is not None else "command line")
+        raise _named_as_typed(error, typed) if command_line else error from None
+    if loading_path is not None:
+        legs = trip.legs if trip is not None else (resolved,)
+        volume = aircraft.units.fuel_volume
+        for where, given, replaced in _trip_replaced(read_toml(loading_path), overrides, typed):
+            number = leg_of_field(where)
+            trip_fuel = legs[number[0] - 1].trip if number is not None and number[0] <= len(legs) else resolved.trip
+            leg = f"leg {number[0]}: " if number is not None else ""
+            notes.append(
+                f"{leg}the trip fuel is {given} from the command line, {trip_fuel:g} {volume}; it replaces the "
+                f"loading file's {replaced} (command-line values are laid over the file's)"
+            )
     label = loading.label or (Path(loading_path).stem if loading_path is not None else None)
     return CheckInputs(aircraft, resolved, Path(loading_path) if loading_path else None, notes, label, loading, trip)
 
@@ -456,6 +654,9 @@ def _without(data: Mapping[str, Any], fields: list[str]) -> dict[str, Any]:
 
     result: dict[str, Any] = copy.deepcopy(dict(data))
     for dotted in fields:
+        leg = leg_of_field(dotted)
+        if leg is not None:  # leg 2, burn.taxi: the first [[leg]] table's burn.taxi
+            dotted = f"leg[{leg[0] - 2}]" + (f".{leg[1]}" if leg[1] else "")
         keys = [k for k in re.split(r"\.|\[(\d+)\]", dotted) if k]
         parent: Any = result
         try:

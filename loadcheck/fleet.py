@@ -798,10 +798,10 @@ def _check_chunk(rows: list[FlightRow]) -> list[tuple[dict[str, Any] | None, lis
 
 def _row_problem(row: FlightRow, problem: Problem) -> str:
     """A problem of a row's loading, named by its row: for a trip of a CSV, the row of the leg
-    the field belongs to (``leg[0]`` is leg 2), and the trip's rows where no leg is named."""
-    match = re.match(r"leg\[(\d+)\]", problem.field or "")
+    the field belongs to (``leg 2, burn``: loadcheck.loading.leg_field), and the trip's rows where no leg is named."""
+    match = re.match(r"leg (\d+)(?:,|$)", problem.field or "")
     if match:
-        return f"{row.where(int(match.group(1)) + 2)}: {problem.describe()}"
+        return f"{row.where(int(match.group(1)))}: {problem.describe()}"
     if row.loading is not None and row.loading.leg and row.trip is not None:
         return f"{row.where()}: trip {row.trip!r}: {problem.describe()}"
     return f"{row.where()}: {problem.describe()}"

@@ -16,6 +16,7 @@ that burns exactly that mass in the burn order, tank by tank at each tank's dens
 
 from __future__ import annotations
 
+import re
 import unicodedata
 from collections.abc import Mapping, Sequence
 from dataclasses import dataclass, field
@@ -24,10 +25,11 @@ from typing import Annotated, Any, Literal
 from pydantic import BeforeValidator, Field, field_validator, model_validator
 
 from .aircraft import Aircraft
-from .errors import InputError, LoadcheckError, Problem, UnknownNameError
+from .errors import InputError, LoadcheckError, Problem, UnknownNameError, spelling_hint
 from .filemodel import FileModel
 from .fuel import density_problem
 from .units import Quantity, convert, in_unit, parse_duration_hours, parse_quantity, parse_rate, unit_kind
+from .words import count
 
 __all__ = [
     "Burn",
@@ -41,6 +43,8 @@ __all__ = [
     "apply_overrides",
     "landing_fuel",
     "leg_assignments",
+    "leg_field",
+    "leg_of_field",
     "resolve_loading",
     "resolve_trip",
 ]
@@ -215,6 +219,33 @@ class Loading(_Model):
     )
 
 
+def leg_field(number: int, path: str = "") -> str:
+    """The field of a problem of a trip's leg, as the user counts legs (leg 1 is the loading itself).
+
+    Examples
+    --------
+    >>> leg_field(2, "burn.taxi"), leg_field(3)
+    ('leg 2, burn.taxi', 'leg 3')
+    """
+    return f"leg {number}, {path}" if path else f"leg {number}"
+
+
+_LEG_FIELD = re.compile(r"leg (\d+)(?:, (.*))?")
+
+
+def leg_of_field(field: str) -> tuple[int, str] | None:
+    """The leg number and the path within the leg of a field written by :func:`leg_field`; None
+    for a field of the loading itself.
+
+    Examples
+    --------
+    >>> leg_of_field("leg 2, add_fuel.main"), leg_of_field("burn.taxi")
+    ((2, 'add_fuel.main'), None)
+    """
+    match = _LEG_FIELD.fullmatch(field or "")
+    return None if match is None else (int(match.group(1)), match.group(2) or "")
+
+
 def apply_overrides(
     data: dict[str, Any],
     *,
@@ -229,13 +260,16 @@ def apply_overrides(
 
     ``names`` are people's names by station id (the ``[names]`` table). ``legs`` maps a leg
     number (2 for the first ``[[leg]]`` table) to its ``load``, ``add_fuel`` and ``burn``
-    values and, optionally, its ``label`` and ``names`` (see :func:`leg_assignments`); a leg
-    number one past the file's last leg adds a leg.
+    values and, optionally, its ``label`` and ``names`` (see :func:`leg_assignments`). A leg
+    number one past the trip's last leg adds a leg only with that leg's ``burn`` (every leg
+    has its own burn, as every ``[[leg]]`` table must): a station weight or fuel for a leg the
+    trip does not have is refused, never made into a new leg.
 
     Raises
     ------
     InputError
-        A leg number that skips a leg.
+        A leg number that skips a leg, or values for a leg the trip does not have without
+        that leg's burn; each problem's field is the value's (``leg 3, load.left``).
     """
     merged = {key: (dict(value) if isinstance(value, dict) else value) for key, value in data.items()}
     _lay_over(merged, {"load": load, "fuel": fuel, "burn": burn, "names": names})
@@ -246,24 +280,57 @@ def apply_overrides(
         tables = [dict(t) if isinstance(t, dict) else t for t in tables] if isinstance(tables, list) else tables
         if not isinstance(tables, list):  # a 'leg' of the wrong type is left for validation to report
             return merged
+        problems: list[Problem] = []
         for number in sorted(legs):
             index = number - 2
-            if index == len(tables):
-                tables.append({})
-            elif not 0 <= index < len(tables):
-                raise InputError(
+            has = f"the trip has {count(len(tables) + 1, 'leg')}" if tables else "the loading has one leg"
+            adding = (
+                f"a leg is added with its burn (--leg-burn {len(tables) + 2}:trip=AMOUNT on the command line, with its "
+                "taxi and reserve) or as a [[leg]] table in the loading file"
+            )
+            if index > len(tables):
+                problems += [
                     Problem(
-                        f"--leg-* {number}",
-                        f"leg {number} skips leg {len(tables) + 2}: describe every leg in order",
-                        value=number,
-                        expected=f"a leg from 2 to {len(tables) + 2}",
+                        where,
+                        f"leg {number} skips leg {len(tables) + 2}: {has}; describe every leg in order: {adding}",
+                        value=value,
                     )
-                )
+                    for where, value in _leg_values(number, legs[number])
+                ]
+                continue
+            if index == len(tables):
+                if "burn" not in legs[number]:
+                    problems += [
+                        Problem(
+                            where,
+                            f"{has}, so it has no leg {number}: {adding}",
+                            value=value,
+                            expected=(f"a leg from 2 to {len(tables) + 1}" if len(tables) > 1 else "leg 2")
+                            if tables
+                            else None,
+                        )
+                        for where, value in _leg_values(number, legs[number])
+                    ]
+                    continue
+                tables.append({})
             if isinstance(tables[index], dict):
                 tables[index] = {k: (dict(v) if isinstance(v, dict) else v) for k, v in tables[index].items()}
                 _lay_over(tables[index], legs[number])
+        if problems:
+            raise InputError(problems)
         merged["leg"] = tables
     return merged
+
+
+def _leg_values(number: int, tables: Mapping[str, Any]) -> list[tuple[str, Any]]:
+    """The field (:func:`leg_field`) and value of each value given for a leg."""
+    out: list[tuple[str, Any]] = []
+    for table, values in tables.items():
+        if isinstance(values, Mapping) and values:
+            out += [(leg_field(number, f"{table}.{name}"), value) for name, value in values.items()]
+        else:
+            out.append((leg_field(number, table), None if isinstance(values, Mapping) else values))
+    return out
 
 
 def _lay_over(merged: dict[str, Any], tables: Mapping[str, Any]) -> None:
@@ -511,7 +578,11 @@ def resolve_loading(
     for name, amount in loading.load.items():
         if name not in aircraft.station_by_id:
             unknown.append(
-                Problem(f"load.{name}", f"unknown station {name!r}", expected=_known(aircraft.station_by_id))
+                Problem(
+                    f"load.{name}",
+                    f"unknown station {name!r}{spelling_hint(name, aircraft.station_by_id)}",
+                    expected=_known(aircraft.station_by_id),
+                )
             )
             continue
         quantity = parse_quantity(amount)
@@ -521,7 +592,11 @@ def resolve_loading(
     for name, person in loading.names.items():
         if name not in aircraft.station_by_id:
             unknown.append(
-                Problem(f"names.{name}", f"unknown station {name!r}", expected=_known(aircraft.station_by_id))
+                Problem(
+                    f"names.{name}",
+                    f"unknown station {name!r}{spelling_hint(name, aircraft.station_by_id)}",
+                    expected=_known(aircraft.station_by_id),
+                )
             )
         elif not stations.get(name, 0.0) > 0:  # a name without a weight: a person left out of the sums
             problems.append(
@@ -555,7 +630,13 @@ def resolve_loading(
     for name, amount in loading.fuel.items():
         tank = aircraft.tank_by_id.get(name)
         if tank is None:
-            unknown.append(Problem(f"fuel.{name}", f"unknown tank {name!r}", expected=_known(aircraft.tank_by_id)))
+            unknown.append(
+                Problem(
+                    f"fuel.{name}",
+                    f"unknown tank {name!r}{spelling_hint(name, aircraft.tank_by_id)}",
+                    expected=_known(aircraft.tank_by_id),
+                )
+            )
             continue
         if isinstance(amount, str) and amount.strip().lower() == "full":
             fuel[name] = tank.usable
@@ -565,7 +646,14 @@ def resolve_loading(
             continue
         if _is_level_name(amount):
             levels = _known(dict.fromkeys(["full", *tank.levels]))
-            unknown.append(Problem(f"fuel.{name}", f"unknown fill level {amount!r} for tank {name!r}", expected=levels))
+            unknown.append(
+                Problem(
+                    f"fuel.{name}",
+                    f"unknown fill level {amount!r} for tank {name!r}"
+                    + spelling_hint(str(amount), ["full", *tank.levels]),
+                    expected=levels,
+                )
+            )
             continue
         quantity = parse_quantity(amount)
         volume = _to_volume(quantity, density[name], units.mass, units.fuel_volume)
@@ -676,7 +764,8 @@ def require_usable(loading: ResolvedLoading, aircraft: Aircraft, *, burn_covered
                 "burn",
                 f"taxi and trip fuel ({loading.taxi + loading.trip:g} {units.fuel_volume}) exceed the fuel "
                 "the burn order can use",
-                expected=f"at most {loading.plan.burnable:g} {units.fuel_volume}",
+                expected=f"at most {loading.plan.burnable:g} {units.fuel_volume}: less taxi or trip fuel, more fuel "
+                "in the tanks the burn order uses, or a burn order with more tanks",
             )
         )
     if problems:
@@ -744,7 +833,9 @@ def landing_fuel(leg: ResolvedLoading) -> dict[str, float]:
     return leg.plan.quantities(leg.taxi + leg.trip)
 
 
-def resolve_trip(loading: Loading, aircraft: Aircraft, *, category: str | None = None) -> ResolvedTrip:
+def resolve_trip(
+    loading: Loading, aircraft: Aircraft, *, category: str | None = None, fuel_to_plan: bool = False
+) -> ResolvedTrip:
     """Resolve a loading of one or more legs against an aircraft.
 
     The first leg is the loading's own load, fuel and burn (:func:`resolve_loading`). Each
@@ -755,6 +846,10 @@ def resolve_trip(loading: Loading, aircraft: Aircraft, *, category: str | None =
     put in at the stop. The burn order is the previous leg's unless the leg gives one. The
     leg is then resolved exactly as a single loading (names, capacities, fuel for the burn).
 
+    With ``fuel_to_plan`` the fuel at the first engine start is what a planning answer will
+    choose (:func:`loadcheck.trip.trip_most_fuel`): as for a single loading, the fuel given need
+    not cover the legs' taxi and trip fuel (each answer is checked leg by leg at its own fuel).
+
     Returns
     -------
     ResolvedTrip
@@ -763,24 +858,27 @@ def resolve_trip(loading: Loading, aircraft: Aircraft, *, category: str | None =
     Raises
     ------
     UnknownNameError, InputError
-        As :func:`resolve_loading`, with the field path of the leg (``leg[0]`` is leg 2);
+        As :func:`resolve_loading`, each problem of a later leg with the leg's number and the
+        path within the leg as its field (:func:`leg_field`: ``leg 2, burn.taxi``);
         also fuel put in above a tank's usable capacity, or a level below what the tank
         already holds.
     """
-    first = resolve_loading(loading.model_copy(update={"leg": []}), aircraft, category=category)
+    first = resolve_loading(
+        loading.model_copy(update={"leg": []}), aircraft, category=category, fuel_to_plan=fuel_to_plan
+    )
     legs, stops = [first], []
     units = aircraft.units
     for index, leg in enumerate(loading.leg):
-        where, number, previous = f"leg[{index}]", index + 2, legs[-1]
+        number, previous = index + 2, legs[-1]
         on_board = landing_fuel(previous)
-        stop, unknown = _stop_fuel(leg, aircraft, previous.density, where)
+        stop, unknown = _stop_fuel(leg, aircraft, previous.density, number)
         fuel = stop.apply(on_board)
         problems: list[Problem] = []
         for tank in aircraft.tank:
             if tank.id in stop.to and on_board[tank.id] > stop.to[tank.id] * (1 + 1e-9):
                 problems.append(
                     Problem(
-                        f"{where}.add_fuel.{tank.id}",
+                        leg_field(number, f"add_fuel.{tank.id}"),
                         f"the tank holds {on_board[tank.id]:g} "
                         f"{units.fuel_volume} at the landing of leg {number - 1}, more than the level",
                         value=leg.add_fuel[tank.id],
@@ -790,7 +888,7 @@ def resolve_trip(loading: Loading, aircraft: Aircraft, *, category: str | None =
             elif fuel[tank.id] > tank.usable * (1 + 1e-9):
                 problems.append(
                     Problem(
-                        f"{where}.add_fuel.{tank.id}",
+                        leg_field(number, f"add_fuel.{tank.id}"),
                         f"{on_board[tank.id]:g} {units.fuel_volume} on "
                         f"board at the landing of leg {number - 1} plus the fuel put in makes "
                         f"{fuel[tank.id]:g}, above the tank's usable capacity",
@@ -819,22 +917,17 @@ def resolve_trip(loading: Loading, aircraft: Aircraft, *, category: str | None =
             burn=leg.burn.model_copy(update={"order": order}),
         )
         try:
-            legs.append(resolve_loading(single, aircraft))
+            legs.append(resolve_loading(single, aircraft, fuel_to_plan=fuel_to_plan))
         except LoadcheckError as error:
             raise type(error)(
-                [
-                    Problem(
-                        f"{where}.{p.field}" if p.field else where, f"leg {number}: {p.message}", p.value, p.expected
-                    )
-                    for p in error.problems
-                ]
+                [Problem(leg_field(number, p.field), p.message, p.value, p.expected) for p in error.problems]
             ) from None
         stops.append(stop)
     return ResolvedTrip(tuple(legs), tuple(stops), (None, *(leg.label for leg in loading.leg)))
 
 
 def _stop_fuel(
-    leg: Leg, aircraft: Aircraft, density: Mapping[str, float], where: str
+    leg: Leg, aircraft: Aircraft, density: Mapping[str, float], number: int
 ) -> tuple[StopFuel, list[Problem]]:
     """The fuel a leg puts in at its stop, in the aircraft's units, and the unknown tank and
     level names found."""
@@ -845,7 +938,11 @@ def _stop_fuel(
         tank = aircraft.tank_by_id.get(name)
         if tank is None:
             unknown.append(
-                Problem(f"{where}.add_fuel.{name}", f"unknown tank {name!r}", expected=_known(aircraft.tank_by_id))
+                Problem(
+                    leg_field(number, f"add_fuel.{name}"),
+                    f"unknown tank {name!r}{spelling_hint(name, aircraft.tank_by_id)}",
+                    expected=_known(aircraft.tank_by_id),
+                )
             )
         elif isinstance(amount, str) and amount.strip().lower() == "full":
             to[name] = tank.usable
@@ -854,8 +951,9 @@ def _stop_fuel(
         elif _is_level_name(amount):
             unknown.append(
                 Problem(
-                    f"{where}.add_fuel.{name}",
-                    f"unknown fill level {amount!r} for tank {name!r}",
+                    leg_field(number, f"add_fuel.{name}"),
+                    f"unknown fill level {amount!r} for tank {name!r}"
+                    + spelling_hint(str(amount), ["full", *tank.levels]),
                     expected=_known(dict.fromkeys(["full", *tank.levels])),
                 )
             )

@@ -16,6 +16,8 @@ from .display import Direction, decimals, fmt, round_safe
 from .results import CheckResult
 
 __all__ = [
+    "sheet_verdict",
+    "trip_leg_verdict",
     "CONDITION_WORDS",
     "LIMIT_NAMES",
     "beyond",
@@ -81,6 +83,44 @@ def within_limits_text(warnings: int) -> str:
         "every limit holds at every condition and along the burn path; "
         f"{count(warnings, 'warning')} (see the findings)."
     )
+
+
+def sheet_verdict(limits: int) -> str:
+    """The verdict at the top of a load sheet: ``WITHIN LIMITS`` or how many limits are exceeded.
+
+    Examples
+    --------
+    >>> sheet_verdict(0), sheet_verdict(2)
+    ('WITHIN LIMITS', 'OUT OF LIMITS: 2 limits exceeded')
+    """
+    return "WITHIN LIMITS" if limits == 0 else f"OUT OF LIMITS: {count(limits, 'limit')} exceeded"
+
+
+def trip_leg_verdict(leg: str, limits: int, failed: list[str]) -> str:
+    """The verdict on a trip's leg page: the leg's own and, where the trip is out of limits, the
+    trip's, so that a leg within limits never reads as a bare "within limits" on a trip that
+    is not.
+
+    Parameters
+    ----------
+    leg : the leg's name ("Leg 1", "Leg 2 (solo)")
+    limits : limits the leg exceeds
+    failed : the names of the trip's legs out of limits
+
+    Examples
+    --------
+    >>> trip_leg_verdict("Leg 1", 0, ["Leg 2 (solo)"])
+    'Leg 1 — WITHIN LIMITS; the trip is OUT OF LIMITS on Leg 2 (solo)'
+    >>> trip_leg_verdict("Leg 2", 1, ["Leg 2"])
+    'Leg 2 — OUT OF LIMITS: 1 limit exceeded'
+    >>> trip_leg_verdict("Leg 1", 0, [])
+    'Leg 1 — WITHIN LIMITS, as is every leg of the trip'
+    """
+    if limits:
+        return f"{leg} — {sheet_verdict(limits)}"
+    if not failed:
+        return f"{leg} — WITHIN LIMITS, as is every leg of the trip"
+    return f"{leg} — WITHIN LIMITS; the trip is OUT OF LIMITS on {', '.join(failed)}"
 
 
 def condition_words(name: str | None) -> str:

@@ -142,7 +142,7 @@ def test_unknown_station_lists_the_known_ones():
 
 @pytest.mark.parametrize("value", ["-20", "nan", "inf"])
 def test_negative_or_nan_weight(value):
-    _assert_input_error(invoke("check", TRAINER, "--load", f"front={value}"), "load.front", value)
+    _assert_input_error(invoke("check", TRAINER, "--load", f"front={value}"), f"--load front={value}:")
 
 
 def test_negative_weight_in_a_file(tmp_path):
@@ -154,11 +154,11 @@ def test_negative_weight_in_a_file(tmp_path):
 def test_unknown_unit(tmp_path):
     text = Path(TRAINER).read_text().replace('mass = "lb"', 'mass = "lbm"')
     _assert_input_error(invoke("check", _bad(tmp_path, text)), "aircraft.toml", "units.mass", "lbm")
-    _assert_input_error(invoke("check", TRAINER, "--load", "front=20 kgs x"), "load.front")
+    _assert_input_error(invoke("check", TRAINER, "--load", "front=20 kgs x"), "--load 'front=20 kgs x':")
 
 
 def test_fuel_above_capacity():
-    _assert_input_error(invoke("check", TRAINER, "--fuel", "mains=55"), "fuel.mains", "usable capacity", "44")
+    _assert_input_error(invoke("check", TRAINER, "--fuel", "mains=55"), "--fuel mains=55:", "usable capacity", "44")
 
 
 def test_unknown_category():
@@ -166,7 +166,7 @@ def test_unknown_category():
 
 
 def test_unknown_fill_level():
-    _assert_input_error(invoke("check", TRAINER, "--fuel", "mains=brim"), "fuel.mains", "brim", "full, school")
+    _assert_input_error(invoke("check", TRAINER, "--fuel", "mains=brim"), "--fuel mains=brim:", "full, school")
 
 
 def test_binary_and_non_utf8_files(tmp_path):

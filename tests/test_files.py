@@ -8,10 +8,14 @@ permissions kept).
 
 from __future__ import annotations
 
+from pathlib import Path
+
 import pytest
 
 import loadcheck.files as files_module
 from loadcheck.errors import FileFormatError
+
+from .helpers import sample
 
 
 def test_write_atomic_refuses_a_folder(tmp_path):
@@ -39,3 +43,93 @@ def test_an_existing_file_keeps_its_permissions(tmp_path):
     os.chmod(path, 0o640)
     files_module.write_atomic(path, "new")
     assert path.stat().st_mode & 0o777 == 0o640 and path.read_text() == "new"
+
+
+# A value given on the command line is named by the option as typed, which shows the value
+# (docs/file-format.md, "Values given on the command line"); a library caller without
+# command_line (the desk's forms) keeps the loading's own field paths.
+TRAINER_WITHIN = str(sample("trainer4/within.toml"))
+HELI_TRIP = str(sample("heli2/trip_drop_off.toml"))
+
+
+def _command_line_problem(path: str, **overrides) -> list[str]:
+    from loadcheck.errors import LoadcheckError
+
+    with pytest.raises(LoadcheckError) as caught:
+        files_module.load_check_inputs(path, None, allow_trip=True, command_line=True, **overrides)
+    return caught.value.lines()
+
+
+@pytest.mark.parametrize(
+    "path, overrides, line",
+    [
+        (TRAINER_WITHIN, {"load": {"middle": "80"}}, "--load middle=80: unknown station 'middle'"),
+        (TRAINER_WITHIN, {"load": {"hold": "20 kgx"}}, "--load 'hold=20 kgx': unknown unit"),
+        (TRAINER_WITHIN, {"fuel": {"mains": "99"}}, "--fuel mains=99: 99 usgal is above the tank's usable capacity"),
+        (TRAINER_WITHIN, {"burn": {"taxi": "-1"}}, "--taxi -1: must not be negative"),
+        (TRAINER_WITHIN, {"burn": {"trip": "99"}}, "--trip 99: taxi and trip fuel (100.2 usgal) exceed"),
+        (TRAINER_WITHIN, {"burn": {"trip_time": "2:00"}}, "--trip-time 2:00: trip_time needs rate"),
+        (TRAINER_WITHIN, {"burn": {"trip_time": "1:00", "rate": "9 gal/h"}}, "--rate '9 gal/h': cannot read"),
+        (TRAINER_WITHIN, {"burn": {"reserve": "x"}}, "--reserve x: cannot read 'x'"),
+        (TRAINER_WITHIN, {"burn": {"order": ["aux", "mains"]}}, "--order aux,mains: unknown tank(s) 'aux'"),
+        (TRAINER_WITHIN, {"category": "aerobatic"}, "--category aerobatic: unknown category 'aerobatic'"),
+        (HELI_TRIP, {"legs": {2: {"load": {"nope": "3"}}}}, "--leg-load 2:nope=3: unknown station 'nope'"),
+        (HELI_TRIP, {"legs": {2: {"add_fuel": {"main": "99"}}}}, "--leg-fuel 2:main=99: 20.5 usgal on board"),
+        (HELI_TRIP, {"legs": {2: {"burn": {"trip": "99"}}}}, "--leg-burn 2:trip=99: taxi and trip fuel (99.5 usgal)"),
+    ],
+)
+def test_a_command_line_value_is_named_by_the_option_as_typed(path, overrides, line):
+    lines = _command_line_problem(path, **overrides)
+    assert lines[0].startswith(line), lines
+    assert not any(path in text or "load.middle" in text for text in lines), lines  # not the file's field
+
+
+def test_without_command_line_a_value_keeps_its_field_path():
+    from loadcheck.errors import UnknownNameError
+
+    with pytest.raises(UnknownNameError) as caught:
+        files_module.load_check_inputs(TRAINER_WITHIN, None, load={"middle": "80"})
+    assert caught.value.problems[0].field == "load.middle" and caught.value.problems[0].value is None
+    assert caught.value.lines()[0].startswith(f"{TRAINER_WITHIN}: load.middle: unknown station 'middle'")
+
+
+def test_a_files_own_value_stays_the_files_beside_a_command_line_one(tmp_path):
+    loading = tmp_path / "loading.toml"
+    loading.write_text(
+        f'format = 1\naircraft = "{Path(TRAINER_WITHIN).resolve().parent}/aircraft.toml"\n[load]\nfrnt = 3\n'
+    )
+    lines = _command_line_problem(str(loading), load={"middle": "80"})
+    assert f"{loading}: load.frnt: unknown station 'frnt' (did you mean 'front'?)" in lines[0] + lines[1]
+    assert any(line.startswith("--load middle=80: unknown station") for line in lines), lines
+
+
+def test_unknown_keys_name_the_closest_allowed_key():
+    from loadcheck.errors import InputError
+    from loadcheck.loading import Loading
+
+    assert files_module.allowed_keys(Loading, ("burn", "taxy")) == "taxi trip trip_time rate order reserve".split()
+    assert "add_fuel" in files_module.allowed_keys(Loading, ("leg", 0, "add_feul"))
+    with pytest.raises(InputError) as caught:
+        files_module.parse_loading({"lod": {}, "burn": {"taxy": 1}, "leg": [{"burn": {"trp": 3}}]}, "x.toml")
+    described = [p.describe() for p in caught.value.problems]
+    assert "burn.taxy: unknown field (did you mean 'taxi'?); got 1" in described
+    assert "leg 2, burn.trp: unknown field (did you mean 'trip'?); got 3" in described
+    assert "lod: unknown field (did you mean 'load'?)" in described
+
+
+def test_a_command_line_trip_over_a_files_trip_time_is_said(tmp_path):
+    # the file gives 1:30 at 8 US gal/h (12 US gal); --trip 10 replaces it: said, with the fuel used
+    loading = tmp_path / "timed.toml"
+    aircraft = Path(TRAINER_WITHIN).parent / "aircraft.toml"
+    loading.write_text(
+        f'format = 1\naircraft = "{aircraft}"\n[load]\nfront = 340\n[fuel]\nmains = "school"\n'
+        '[burn]\ntaxi = 1.2\ntrip_time = "1:30"\nrate = 8\n'
+    )
+    inputs = files_module.load_check_inputs(str(loading), None, command_line=True, burn={"trip": "10"})
+    assert inputs.loading.trip == pytest.approx(10.0)
+    assert inputs.notes == [
+        "the trip fuel is --trip 10 from the command line, 10 usgal; it replaces the loading file's "
+        "trip_time = '1:30' x rate = 8 (command-line values are laid over the file's)"
+    ]
+    timed = files_module.load_check_inputs(str(loading), None, command_line=True, burn={"trip_time": "2:00"})
+    assert timed.loading.trip == pytest.approx(16.0) and timed.notes == []  # the same form: laid over, no note

@@ -11,7 +11,7 @@ from __future__ import annotations
 import pytest
 
 from loadcheck.errors import InputError, UnknownNameError
-from loadcheck.loading import Loading, resolve_trip
+from loadcheck.loading import Loading, apply_overrides, leg_of_field, resolve_trip
 from loadcheck.trip import check_trip
 
 from .helpers import simple_aircraft
@@ -85,5 +85,35 @@ def test_a_level_below_the_fuel_on_board_is_refused():
 
 
 def test_a_leg_that_burns_more_than_it_carries_is_refused():
-    with pytest.raises(InputError, match=r"leg 2: taxi and trip fuel"):
+    with pytest.raises(InputError, match=r"^leg 2, burn: taxi and trip fuel"):
         resolve_trip(_trip({"burn": {"trip": 30}}), TWO_TANKS)
+
+
+def test_a_legs_problem_is_named_as_the_user_counts_legs():
+    # the field was leg[0].load.cargo (the array index of the first [[leg]] table) beside "leg 2: ..."
+    with pytest.raises(UnknownNameError) as caught:
+        resolve_trip(_trip({"load": {"cargo": 10}, "burn": {"trip": 5}}), TWO_TANKS)
+    problem = caught.value.problems[0]
+    assert problem.field == "leg 2, load.cargo" and problem.message.startswith("unknown station 'cargo'")
+    assert leg_of_field(problem.field) == (2, "load.cargo") and leg_of_field("load.cargo") is None
+    with pytest.raises(InputError) as over:
+        resolve_trip(_trip({"burn": {"trip": 5}}, {"add_fuel": {"mains": 99}, "burn": {"trip": 5}}), TWO_TANKS)
+    assert over.value.problems[0].field == "leg 3, add_fuel.mains"
+
+
+def test_values_for_a_leg_the_trip_does_not_have_are_refused_not_made_a_leg():
+    # --leg-load 3:... on a trip of 2 legs added an empty leg 3 (then "leg[1].burn: this field is required")
+    data = {"load": {"front": 170}, "leg": [{"burn": {"trip": 5}}]}
+    with pytest.raises(InputError) as caught:
+        apply_overrides(data, legs={3: {"load": {"front": "0"}, "add_fuel": {"mains": "5"}}})
+    fields = [p.field for p in caught.value.problems]
+    assert fields == ["leg 3, load.front", "leg 3, add_fuel.mains"]
+    message = caught.value.problems[0].message
+    assert "the trip has 2 legs, so it has no leg 3" in message and "--leg-burn 3:" in message
+    assert "[[leg]]" in message and caught.value.problems[0].expected == "leg 2"
+    with pytest.raises(InputError, match="the loading has one leg, so it has no leg 2"):
+        apply_overrides({}, legs={2: {"load": {"front": "0"}}})
+    added = apply_overrides(data, legs={3: {"load": {"front": "0"}, "burn": {"trip": "4"}}})  # its burn adds it
+    assert added["leg"][1] == {"load": {"front": "0"}, "burn": {"trip": "4"}}
+    with pytest.raises(InputError, match="leg 4 skips leg 3: the trip has 2 legs"):
+        apply_overrides(data, legs={4: {"burn": {"trip": "4"}}})

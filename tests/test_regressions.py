@@ -249,8 +249,7 @@ def test_a_rate_with_an_unknown_unit_names_the_rate_and_gives_rate_examples():
     trainer = str(SAMPLES / "trainer4" / "aircraft.toml")
     out = _refused(
         ["check", trainer, "--load", "front=170", "--trip-time", "1:00", "--rate", "9.5 gal/h"],
-        "burn.rate",
-        "'9.5 gal/h'",
+        "--rate '9.5 gal/h':",
         "unknown unit 'gal'",
         "'36 l/h'",
     )
@@ -389,11 +388,11 @@ def test_swapped_arguments_gave_ten_unrelated_errors(tmp_path):
 def test_fuel_level_starting_with_an_underscore_had_no_field_path():
     out = _refused(
         ["check", str(SAMPLES / "trainer4" / "aircraft.toml"), "--fuel", "mains=_school"],
-        "fuel.mains",
+        "--fuel mains=_school:",
         "unknown fill level '_school'",
         "full, school",
     )
-    assert "command line" in out
+    assert "command line:" not in out  # the option as typed, not a file named "command line"
 
 
 def test_a_header_only_csv_said_zero_flights_and_exit_0(tmp_path):
@@ -525,3 +524,87 @@ def test_true_where_a_number_belongs_is_refused(runner, tmp_path, where):
     (tmp_path / "loading.toml").write_text(tomlkit.dumps(loading))
     result = runner.invoke(app, ["check", str(tmp_path / "loading.toml")])
     assert result.exit_code == 2 and "expected a number" in result.output and "Traceback" not in result.output
+
+
+def test_a_command_line_value_was_blamed_on_the_loading_files_field(runner):
+    # `check within.toml --load middle=80` said "within.toml: load.middle: unknown station" and not the value
+    within = str(sample("trainer4/within.toml"))
+    result = runner.invoke(app, ["check", within, "--load", "middle=80"])
+    assert result.exit_code == 2 and "Traceback" not in result.output
+    assert "error: --load middle=80: unknown station 'middle'" in result.output
+    assert "within.toml" not in result.output and "load.middle" not in result.output
+    assert "error: --taxi -1: must not be negative" in runner.invoke(app, ["check", within, "--taxi", "-1"]).output
+    timed = runner.invoke(app, ["check", within, "--trip-time", "1:00", "--rate", "9 gal/h"])
+    assert timed.exit_code == 2 and "error: --rate '9 gal/h': cannot read '9 gal/h' as a fuel rate" in timed.output
+
+
+def test_a_legs_problem_read_leg_0_beside_leg_2(runner, tmp_path):
+    trip = tmp_path / "trip.toml"
+    text = sample("heli2/trip_drop_off.toml").read_text().replace("trip = 12", "trip = 99")
+    trip.write_text(text.replace('aircraft = "aircraft.toml"', f'aircraft = "{sample("heli2/aircraft.toml")}"'))
+    result = runner.invoke(app, ["check", str(trip)])
+    assert result.exit_code == 2 and f"{trip}: leg 2, burn: taxi and trip fuel (99.5 usgal) exceed" in result.output
+    assert "leg[" not in result.output and "leg 2: " not in result.output
+    option = runner.invoke(app, ["check", str(trip), "--leg-burn", "2:trip=98"])
+    assert "error: --leg-burn 2:trip=98: taxi and trip fuel (98.5 usgal) exceed" in option.output
+
+
+def test_leg_load_past_the_last_leg_silently_made_a_leg(runner):
+    trip = str(sample("heli2/trip_drop_off.toml"))  # two legs
+    result = runner.invoke(app, ["check", trip, "--leg-load", "3:left=0"])
+    assert result.exit_code == 2 and "Traceback" not in result.output
+    assert "error: --leg-load 3:left=0: the trip has 2 legs, so it has no leg 3" in result.output
+    assert "--leg-burn 3:trip=AMOUNT" in result.output and "[[leg]] table" in result.output
+    added = runner.invoke(app, ["check", trip, "--leg-load", "3:left=0", "--leg-burn", "3:trip=3", "--json"])
+    assert added.exit_code in (0, 1) and len(json.loads(added.output)["legs"]) == 3  # with its burn, a leg 3
+
+
+def test_trip_time_and_rate_replaced_the_files_trip_without_saying_so(runner):
+    # within.toml gives trip = 18 (US gal); --trip-time 1:30 --rate 8 is 1.5 h x 8 US gal/h = 12 US gal
+    # (trip fuel = flight time x burn rate, common practice), laid over the file's trip and said so
+    within = str(sample("trainer4/within.toml"))
+    result = runner.invoke(app, ["check", within, "--trip-time", "1:30", "--rate", "8", "--json"])
+    conditions = {c["condition"]: c for c in json.loads(result.stdout)["conditions"]}
+    assert conditions["takeoff"]["fuel"] - conditions["landing"]["fuel"] == pytest.approx(12.0)
+    note = " ".join(result.stderr.split())
+    assert "note: the trip fuel is --trip-time 1:30 x --rate 8 from the command line, 12 usgal" in note
+    assert "it replaces the loading file's trip = 18" in note
+    same = runner.invoke(app, ["check", within, "--trip", "12"])  # the same field given again: no note
+    assert "trip fuel is" not in same.stderr
+    trip = str(sample("heli2/trip_drop_off.toml"))
+    leg = runner.invoke(app, ["check", trip, "--leg-burn", "2:trip_time=1:00", "--leg-burn", "2:rate=9"])
+    assert "note: leg 2: the trip fuel is --leg-burn 2:trip_time=1:00 x --leg-burn 2:rate=9" in " ".join(
+        leg.stderr.split()
+    )
+
+
+def test_plan_fuel_on_a_trip_refused_the_fuel_it_asks_for(runner):
+    # `plan fuel trip.toml --fuel main=5` was refused: "taxi and trip fuel exceed the fuel the burn order
+    # can use", although the fuel at the first engine start is what it asks for
+    trip = str(sample("heli2/trip_drop_off.toml"))
+    given = runner.invoke(app, ["plan", "fuel", trip, "--fuel", "main=5", "--json"])
+    as_file = runner.invoke(app, ["plan", "fuel", trip, "--json"])
+    assert given.exit_code == 0, given.output
+    assert json.loads(given.stdout)["answer"] == pytest.approx(json.loads(as_file.stdout)["answer"])
+    # a check of that fuel is refused, saying what to change
+    refused = runner.invoke(app, ["check", trip, "--fuel", "main=5"])
+    assert (
+        refused.exit_code == 2 and "exceed the fuel the burn order can use; expected at most 5 usgal" in refused.output
+    )
+    assert "less taxi or trip fuel, more fuel in the tanks the burn order uses, or a burn order with more tanks" in (
+        refused.output
+    )
+
+
+def test_a_fleet_trips_leg_problem_named_the_trips_first_row(runner, tmp_path):
+    # with a leg's problem named "leg 2, burn" (not leg[0].burn) the fleet check blamed line 2 (leg 1's row)
+    from .test_trip import trip_fleet
+
+    folder = trip_fleet(tmp_path / "fleet")
+    day = folder / "day.csv"
+    day.write_text(
+        "registration,reference,trip_id,leg,front,rear,main,taxi,trip\n"
+        "TEST-T,F1,A,1,180,0,30,1,10\nTEST-T,F1,A,2,180,0,,1,99\n"
+    )
+    result = runner.invoke(app, ["fleet", "check", str(folder), str(day), "--no-log"])
+    assert result.exit_code == 2 and f"{day}:3: leg 2, burn: taxi and trip fuel (100 usgal) exceed" in result.stderr

@@ -185,4 +185,22 @@ def test_a_name_at_a_station_without_weight_is_refused(runner, tmp_path):
     leg = runner.invoke(
         app, ["check", str(_named_trip(tmp_path, 'front = "Alex"', 'front = "Kim"')), "--leg-load", "2:front=0"]
     )
-    assert leg.exit_code == 2 and "leg[0].names.front" in leg.stderr
+    assert leg.exit_code == 2 and "leg 2, names.front" in leg.stderr
+
+
+def test_a_failing_trips_leg_1_page_carried_a_bare_within_banner(runner, tmp_path):
+    # check --sheet on a trip whose leg 2 is out of limits: the leg 1 page said "WITHIN LIMITS" alone
+    sheet = tmp_path / "trip.html"
+    trip = str(sample("heli2/trip_drop_off.toml"))
+    result = runner.invoke(app, ["check", trip, "--leg-load", "2:right=300", "--sheet", str(sheet)])
+    assert result.exit_code == 1, result.output
+    html = sheet.read_text()
+    verdicts = re.findall(r"class=.verdict. id=.(?:trip-)?verdict.>([^<]*)<", html)
+    assert verdicts == [
+        "OUT OF LIMITS on Leg 2 (back to base, solo)",
+        "Leg 1 — WITHIN LIMITS; the trip is OUT OF LIMITS on Leg 2 (back to base, solo)",
+        "Leg 2 (back to base, solo) — OUT OF LIMITS: 1 limit exceeded",
+    ]
+    within = tmp_path / "within.html"
+    assert runner.invoke(app, ["check", trip, "--sheet", str(within)]).exit_code == 0
+    assert "Leg 1 — WITHIN LIMITS, as is every leg of the trip" in within.read_text()

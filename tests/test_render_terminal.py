@@ -3,6 +3,8 @@ its moment column, margins beside a finding."""
 
 from __future__ import annotations
 
+import re
+
 from loadcheck import check_loading
 from loadcheck.cli import app
 from loadcheck.display import fmt
@@ -89,3 +91,36 @@ def test_regression_every_condition_holds_beside_a_zero_fuel_warning(runner):
     assert "every condition, the burn path and every weight limit hold" not in verdict and "1 warning" in verdict
     within = runner.invoke(app, ["check", str(sample("trainer4/within.toml"))], env={"COLUMNS": "120"})
     assert "WITHIN LIMITS: every condition, the burn path and every weight limit hold." in within.output
+
+
+PLAN_COMMANDS = [
+    ["fuel", "trainer4/within.toml"],
+    ["fuel", "heli2/trip_drop_off.toml"],
+    ["stop", "heli2/trip_drop_off.toml", "--leg", "2"],
+    ["trip", "trainer4/within.toml", "--rate", "9.5", "--reserve", "8"],
+    ["payload", "trainer4/within.toml", "--station", "hold"],
+    ["leave", "twin6/within.toml", "--station", "row3", "--payload", "340"],
+    ["ballast", "tandem2/aft_heavy.toml"],
+    ["shift", "tandem2/aft_heavy.toml", "--from", "baggage", "--to", "front"],
+    ["table", "trainer4/within.toml", "--station", "rear"],
+]
+
+
+def test_plan_titles_wrapped_to_their_narrow_tables_at_80_columns(runner, monkeypatch):
+    # "ramp fuel within limits (usgal)" was broken over two lines above a one-column table of 22 columns,
+    # and plan table's header "Most ramp fuel (usgal)" over two lines of a table one column too wide
+    from loadcheck.render.terminal import Column, fitted_tables
+
+    monkeypatch.setenv("COLUMNS", "80")
+    for command in PLAN_COMMANDS:
+        out = runner.invoke(app, ["plan", command[0], str(sample(command[1])), *command[2:]]).stdout
+        assert all(len(line.rstrip()) <= 80 for line in out.splitlines()), (command, out)
+        assert not re.search(r"within\s*\n\s*limits|fuel\s*\n\s*\(usgal\)|limits\s*\n\s*\((usgal|lb|kg)\)", out), out
+        if command[0] != "table":
+            assert re.search(r"^\S.* within limits \((usgal|lb|kg)\)$", out, re.M), (command, out)  # a whole line
+    table = runner.invoke(app, ["plan", "table", str(sample("trainer4/within.toml")), "--station", "rear"]).stdout
+    assert "┃ Added at rear (lb) ┃ Most ramp fuel (usgal) ┃ Within limits (usgal) ┃" in table
+    text, table = fitted_tables(80, "ramp fuel of leg 1 within limits (usgal)", [Column("within limits")], [["1"]])
+    assert text.plain == "ramp fuel of leg 1 within limits (usgal)" and table.title is None
+    (short,) = fitted_tables(80, "Conditions", [Column("within limits")], [["1"]])
+    assert short.title == "Conditions"

@@ -856,11 +856,11 @@ def test_api_bad_leg_names_the_leg_and_records_nothing(desk: dict[str, Any]) -> 
     response = client.post("/api/check", json=body)
     assert response.status_code == 422
     problems = response.json()["problems"]
-    assert [p["field"] for p in problems] == ["leg[0].load.front"] and problems[0]["message"].startswith(
+    assert [p["field"] for p in problems] == ["leg 2, load.front"] and problems[0]["message"].startswith(
         "leg 2, load.front:"
     )
     unknown = client.post("/api/check", json={**body, "leg": [{"fuel": {"main": 5}, "burn": {}}]})
-    assert unknown.status_code == 422 and any(p["field"] == "leg[0].fuel" for p in unknown.json()["problems"])
+    assert unknown.status_code == 422 and any(p["field"] == "leg 2, fuel" for p in unknown.json()["problems"])
     assert (
         client.post("/api/plan/stop", json={**body, "leg": [], "stop": 2}).status_code == 422
     )  # no stop without a leg

@@ -338,6 +338,7 @@ def _inputs(
         fuel_to_plan=fuel_to_plan,
         legs=legs,
         allow_trip=allow_trip,
+        command_line=True,
     )
     for note in inputs.notes:
         _console(stderr=True).print(f"note: {note}", markup=False)

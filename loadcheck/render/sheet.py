@@ -17,6 +17,7 @@ from typing import TYPE_CHECKING, Any
 
 from ..display import fmt, unit_label
 from ..results import CheckResult
+from ..words import sheet_verdict, trip_leg_verdict
 
 if TYPE_CHECKING:
     from ..aircraft import Aircraft
@@ -116,6 +117,7 @@ def load_sheet_html(
     loading: ResolvedLoading | None = None,
     pilot: str | None = None,
     aircraft: Aircraft | None = None,
+    verdict: str | None = None,
 ) -> str:
     """The load sheet of a check as one HTML document, laid out to print on one page of
     A4 or US letter.
@@ -132,6 +134,8 @@ def load_sheet_html(
     pilot : the pilot in command named in the loading, if any
     aircraft : the aircraft checked; where its envelope is read as moment / 1000, the moment
         table and the conditions show that column too
+    verdict : the verdict line in place of the check's own (a trip's leg: the leg's and the
+        trip's, :func:`~loadcheck.words.trip_leg_verdict`)
 
     The page holds the aircraft, its data fingerprint, the verdict, the moment table with its
     total, the occupants' seats, the fuel plan with the fuel at each condition, the conditions
@@ -156,8 +160,7 @@ def load_sheet_html(
     from .terminal import moment_axis, scaled_moment, scaled_moment_header
 
     scaled = moment_axis(aircraft, result.category)
-    count = len(result.limits_exceeded)
-    verdict = "WITHIN LIMITS" if result.ok else f"OUT OF LIMITS: {count} {'limit' if count == 1 else 'limits'} exceeded"
+    verdict = verdict or sheet_verdict(len(result.limits_exceeded))
     parts = [
         "<!DOCTYPE html>",
         '<html lang="en"><head><meta charset="utf-8">',
@@ -622,7 +625,12 @@ def trip_sheet_html(
     resolved = list(trip_loading.legs) if trip_loading is not None else [None] * len(trip.legs)
     for name, leg, loading in zip(names, trip.legs, resolved, strict=True):
         section = load_sheet_html(
-            leg.check, None, loading_label=f"{loading_label or 'trip'}, {name.lower()}", when=when, loading=loading
+            leg.check,
+            None,
+            loading_label=f"{loading_label or 'trip'}, {name.lower()}",
+            when=when,
+            loading=loading,
+            verdict=trip_leg_verdict(name, len(leg.check.limits_exceeded), failed),
         )
         body = section[section.index("<body>") + 6 : section.index("<p class='caution'>")]
         body = (

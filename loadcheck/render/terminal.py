@@ -128,7 +128,8 @@ def fitted_tables(
     Parameters
     ----------
     width : console width [characters]
-    title : table title (wraps if longer than the table)
+    title : table title; one wider than the table is printed on a line of its own above it
+        (wrapping only at ``width``), never wrapped to the table's width
     columns : the columns, in the order they read
     rows : cells, one sequence per row
     total : an optional last row set apart by a rule and shown in bold
@@ -154,7 +155,11 @@ def fitted_tables(
             grow = min(spare, spans[block[k]][1] - widths[k])
             widths[k] += grow
             spare -= grow
-        table = Table(title=title if number == 0 else f"{title} (continued)", title_justify="left")
+        heading = title if number == 0 else f"{title} (continued)"
+        if cell_len(heading) > _outer(widths):  # a title wider than its table: on a line of its own, not
+            tables.append(Text(heading, style="italic"))  # wrapped to the table's few columns
+            heading = ""
+        table = Table(title=heading or None, title_justify="left")
         for j, w in zip(block, widths, strict=True):
             table.add_column(
                 columns[j].header,
@@ -656,7 +661,7 @@ def render_table(aircraft: Aircraft, rows: list[TableRow], station: str, console
         [
             Column(f"Added at {station} ({units.mass})", key=True),
             Column(f"Most ramp fuel ({units.fuel_volume})"),
-            Column(f"Ramp fuel within limits ({units.fuel_volume})"),
+            Column(f"Within limits ({units.fuel_volume})"),
         ],
         cells,
     )
