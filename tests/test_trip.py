@@ -529,3 +529,20 @@ def test_the_hand_worked_trip_of_the_test_aircraft(tmp_path):
     assert two.check.condition("landing").arm == pytest.approx(140920 / 1628)
     assert {f.condition for f in result.limits_exceeded} >= {"ramp", "takeoff", "landing"}
     assert all(f.leg == 2 for f in result.limits_exceeded)
+
+
+# -- regressions of the trip's words (desk round, 2026-12) ----------------------------------------
+
+
+def test_trip_output_repeated_the_margin_rounding_after_every_legs_own_note(runner):
+    """The trip output ended with "Margins are rounded down; ..." after each leg's conditions
+    table had said so in its own note: each leg's table says it, nothing says it again."""
+    from loadcheck.render.terminal import MARGIN_NOTE
+
+    shown = runner.invoke(app, ["check", str(sample("heli2/trip_drop_off.toml"))])
+    assert shown.exit_code == 0, shown.output
+    text = " ".join(shown.output.split())  # rich wraps the note at the terminal's width
+    assert "A trip of 2 legs" in text  # the sample trip: out to the field site, back solo
+    assert text.count(MARGIN_NOTE.split(". ")[0]) == 2 and text.count("rounded down") == 2
+    assert "Margins are rounded down" not in text
+
