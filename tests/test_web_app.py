@@ -1004,3 +1004,30 @@ def test_fleet_is_read_again_when_an_aircraft_file_changes(desk: dict[str, Any])
     page = client.get("/fleet").text
     assert "DEMO-4X" in page and "DEMO-4T" not in page
     assert client.get("/aircraft/DEMO-4T").status_code == 422
+
+
+# -- the desk renders the library's refusals and rules (desk round, 2026-12) ---------------------
+
+
+def test_desk_refused_a_stop_of_a_one_leg_loading_in_its_own_words(desk: dict[str, Any]) -> None:
+    """The desk refused a stop of a loading of one leg with its own check and words (the form and
+    the API each differently); it now asks the library job, ``fuel_to_add``, and shows its refusal."""
+    from html import escape
+
+    from loadcheck.errors import InputError
+    from loadcheck.trip import fuel_to_add
+
+    one_leg = {k: v for k, v in TRIP_LEG_2_AFT.items() if not k.startswith("leg")}
+    inputs = _trip_inputs(desk, one_leg)
+    assert inputs.trip is None and inputs.given is not None  # one leg: no trip resolved
+    with pytest.raises(InputError) as refused:
+        fuel_to_add(inputs.aircraft, inputs.given, 2)
+    (expected,) = refused.value.problems
+    client = _client(desk, "pia")
+    page = _post_check(client, {**one_leg, "stop": "2"}, "TEST-TRIP", action="stop")
+    assert page.status_code == 422 and escape(expected.message) in page.text, page.text
+    body = {"registration": "TEST-TRIP", "load": {"front": 340, "bags": 100}, "fuel": {"main": "full"}, "stop": 2}
+    api = client.post("/api/plan/stop", json={**body, "burn": {"taxi": 1, "trip": 20}})
+    assert api.status_code == 422
+    assert [(p["field"], p["message"]) for p in api.json()["problems"]] == [(expected.field, expected.describe())]
+    assert _records(desk) == []

@@ -321,12 +321,10 @@ def _inputs(desk: Desk, registration: str, overrides: dict[str, Any]) -> CheckIn
 
 def _trip_or_given(inputs: CheckInputs) -> Loading | ResolvedTrip:
     """The trip to plan a stop of; a loading of one leg (no trip resolved) as given, which
-    :func:`~loadcheck.trip.fuel_to_add` refuses naming its legs."""
-    if inputs.trip is not None:
-        return inputs.trip
-    if inputs.given is None:
-        raise InputError(Problem("leg", "the loading has one leg, so no stop"))
-    return inputs.given
+    :func:`~loadcheck.trip.fuel_to_add` refuses in its own words (as ``plan stop`` gives it)."""
+    trip = inputs.trip if inputs.trip is not None else inputs.given
+    assert trip is not None, "load_check_inputs keeps the loading as given"
+    return trip
 
 
 def _checked_result(inputs: CheckInputs) -> CheckResult | TripResult:
@@ -657,8 +655,6 @@ def create_app(
                 else most_fuel(inputs.aircraft, inputs.loading)
             )
         elif action == "stop":
-            if not inputs.is_trip:
-                raise InputError(Problem("stop", "the fuel to put in at a stop is asked of a trip: add a leg first"))
             leg = typed["stop"]
             if not leg.isdigit():
                 raise InputError(Problem("stop", "choose the leg the stop comes before", value=leg or None))
@@ -1018,8 +1014,6 @@ def create_app(
         _need(request, "pilot")
         try:
             inputs = _api_inputs(body)
-            if not inputs.is_trip:
-                raise InputError(Problem("leg", "the fuel to put in at a stop is asked of a trip of two legs or more"))
             return fuel_to_add(inputs.aircraft, _trip_or_given(inputs), body.stop).to_dict()
         except (LoadcheckError, ValidationError) as error:
             return _api_error(error)
