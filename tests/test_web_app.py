@@ -1031,3 +1031,40 @@ def test_desk_refused_a_stop_of_a_one_leg_loading_in_its_own_words(desk: dict[st
     assert api.status_code == 422
     assert [(p["field"], p["message"]) for p in api.json()["problems"]] == [(expected.field, expected.describe())]
     assert _records(desk) == []
+
+
+def test_a_trip_longer_than_the_form_is_checked_through_the_api_as_the_library_checks_it(
+    desk: dict[str, Any],
+) -> None:
+    """The form's MAX_LEGS guards the page's size; it is no rule of trips: the library takes a trip
+    of any number of legs, and so does POST /api/check (the form says where a longer trip goes)."""
+    from loadcheck.trip import check_trip
+    from loadcheck.web.app import MAX_LEGS
+
+    legs = MAX_LEGS + 3  # one circuit after another, 0.5 gal taxi and 1 gal each: 40 gal is plenty
+    body = {
+        "registration": "TEST-TRIP",
+        "load": {"front": 340},
+        "fuel": {"main": "full"},
+        "burn": {"taxi": 0.5, "trip": 1},
+        "leg": [{"label": f"circuit {n}", "burn": {"taxi": 0.5, "trip": 1}} for n in range(2, legs + 1)],
+    }
+    inputs = load_check_inputs(
+        desk["fleet"] / "trip_test.toml",
+        None,
+        allow_trip=True,
+        load=body["load"],
+        fuel=body["fuel"],
+        burn=body["burn"],
+        legs=dict(enumerate(body["leg"], start=2)),
+    )
+    expected = check_trip(inputs.aircraft, inputs.trip)
+    assert len(expected.legs) == legs and expected.ok  # the library takes the trip
+    client = _client(desk, "pia")
+    answer = client.post("/api/check", json=body)
+    assert answer.status_code == 200 and answer.json() == expected.to_dict()
+    # the form stops at MAX_LEGS and says where a longer trip is checked
+    full = _post_check(client, {"legs": str(MAX_LEGS)}, "TEST-TRIP", action="add_leg")
+    assert full.status_code == 200 and 'value="add_leg"' not in full.text and "POST /api/check" in full.text
+    crafted = _post_check(client, {"legs": str(legs)}, "TEST-TRIP", action="check")
+    assert crafted.status_code == 422 and "POST /api/check" in crafted.text

@@ -222,7 +222,13 @@ def _split_order(value: str) -> str | list[str]:
 
 _BURN_KEYS = ("taxi", "trip", "trip_time", "rate", "reserve", "order")
 MAX_LEGS = 12
-"""The most legs the check form takes (a trip of more legs is written as a loading file)."""
+"""The most legs the check form holds: a guard on the size of the web page, not a rule of trips.
+
+A trip has no most legs in the library (:func:`loadcheck.trip.check_trip`): the command line, the
+fleet CSV and ``POST /api/check`` take a trip of any number of legs. The form is rebuilt from its
+posted ``legs`` count, one block of fields per leg, so a crafted count (``legs=100000``) would
+have the desk build and check that many legs from one small request; the form stops at this many
+and says where a longer trip is checked."""
 
 
 def leg_count(form: Any) -> int:
@@ -231,11 +237,16 @@ def leg_count(form: Any) -> int:
     Raises
     ------
     HTTPException
-        422 for a count that is not a whole number from 1 to :data:`MAX_LEGS` (a form the desk did not make).
+        422 for a count that is not a whole number from 1 to :data:`MAX_LEGS` (a form the desk did not
+        make; the desk's own form never posts more).
     """
     raw = str(form.get("legs", "") or "1").strip()
     if not raw.isdigit() or not 1 <= int(raw) <= MAX_LEGS:
-        raise HTTPException(422, f"legs: {raw[:20]!r} is not a number of legs; expected 1 to {MAX_LEGS}")
+        raise HTTPException(
+            422,
+            f"legs: {raw[:20]!r} is not a number of legs this form holds; expected 1 to {MAX_LEGS} "
+            "(a longer trip is checked from a loading file or through POST /api/check)",
+        )
     return int(raw)
 
 
