@@ -655,8 +655,7 @@ def test_a_bad_value_in_a_leg_names_the_leg_and_field_keeps_everything_and_recor
         assert response.status_code == 422, key
         page = response.text
         problem = page[page.index('class="problem"') : page.index("</ul>", page.index('class="problem"'))]
-        field = key.split(".", 2)[2].replace("fuel.", "add_fuel.")
-        assert f"leg 2, {field}" in problem and escape_value(bad) in problem, key
+        assert escape_value(bad) in problem, key  # named as the library names it: the tests after the last one
         assert re.search(rf'class="field bad">\s*<label for="{re.escape(key)}"', page), key
         assert (
             f'value="{escape_value(bad)}"' in page and 'value="back solo"' in page and 'name="legs" value="2"' in page
@@ -845,6 +844,8 @@ def test_api_names_go_into_the_record_and_a_bad_one_is_refused(desk: dict[str, A
 
 
 def test_api_bad_leg_names_the_leg_and_records_nothing(desk: dict[str, Any]) -> None:
+    from loadcheck.web.app import form_key
+
     client = _client(desk, "pia")
     body = {
         "registration": "TEST-TRIP",
@@ -856,11 +857,9 @@ def test_api_bad_leg_names_the_leg_and_records_nothing(desk: dict[str, Any]) -> 
     response = client.post("/api/check", json=body)
     assert response.status_code == 422
     problems = response.json()["problems"]
-    assert [p["field"] for p in problems] == ["leg[0].load.front"] and problems[0]["message"].startswith(
-        "leg 2, load.front:"
-    )
+    assert [form_key(p["field"]) for p in problems] == ["leg.2.load.front"]  # the words: the tests at the end
     unknown = client.post("/api/check", json={**body, "leg": [{"fuel": {"main": 5}, "burn": {}}]})
-    assert unknown.status_code == 422 and any(p["field"] == "leg[0].fuel" for p in unknown.json()["problems"])
+    assert unknown.status_code == 422 and any(form_key(p["field"]) == "leg.2.fuel" for p in unknown.json()["problems"])
     assert (
         client.post("/api/plan/stop", json={**body, "leg": [], "stop": 2}).status_code == 422
     )  # no stop without a leg
@@ -888,13 +887,12 @@ def test_names_typed_on_the_form_show_beside_the_seat_and_go_into_the_record(des
 
 def test_a_bad_name_brings_the_form_back_with_the_field_named(desk: dict[str, Any]) -> None:
     client = _client(desk, "pia")
-    for key, field in (("names.rear", "names.rear"), ("leg.2.names.rear", "leg 2, names.rear")):
+    for key in ("names.rear", "leg.2.names.rear"):  # a leg's field in words: the tests at the end
         response = _post_check(
             client, {**TRIP_LEG_2_AFT, key: "Sam"}, "TEST-TRIP", route="record"
         )  # no one weighs in the rear
-        assert response.status_code == 422 and f"{field}:" in response.text and "carries no weight" in response.text, (
-            key
-        )
+        assert response.status_code == 422 and "carries no weight" in response.text, key
+        assert key != "names.rear" or "names.rear:" in response.text
         assert re.search(rf'class="field name bad">\s*<label for="{re.escape(key)}"', response.text), key
         assert f'name="{key}" value="Sam"' in response.text
     assert _records(desk) == []
@@ -1068,3 +1066,114 @@ def test_a_trip_longer_than_the_form_is_checked_through_the_api_as_the_library_c
     assert full.status_code == 200 and 'value="add_leg"' not in full.text and "POST /api/check" in full.text
     crafted = _post_check(client, {"legs": str(legs)}, "TEST-TRIP", action="check")
     assert crafted.status_code == 422 and "POST /api/check" in crafted.text
+
+
+def _library_problem(desk: dict[str, Any], values: dict[str, str]) -> list[Any]:
+    """The problems the library finds in the check form's values, read as the desk reads them."""
+    from loadcheck.errors import LoadcheckError
+    from loadcheck.files import load_aircraft
+    from loadcheck.web.app import _overrides
+
+    path = desk["fleet"] / "trip_test.toml"
+    _, overrides = _overrides(values, load_aircraft(path))
+    with pytest.raises(LoadcheckError) as refused:
+        load_check_inputs(path, None, allow_trip=True, **overrides)
+    return refused.value.problems
+
+
+# The check form's values of a bad leg 2 (TRIP_LEG_2_AFT with one field bad), refused by the
+# loading's model (a unit, a negative weight), by the aircraft (a level, a seat that carries no weight).
+BAD_LEG_2 = (
+    ("leg.2.burn.taxi", "1 furlong"),
+    ("leg.2.load.front", "-5"),
+    ("leg.2.fuel.main", "brimming"),
+    ("leg.2.names.rear", "Sam"),
+)
+
+
+def test_desk_rewrote_a_legs_problem_instead_of_showing_the_librarys(desk: dict[str, Any]) -> None:
+    """The desk renamed a leg's problems itself (``_leg_words``: ``leg[0].burn.taxi`` shown as
+    ``leg 2, burn.taxi``); the library names them, and the desk shows each problem as it comes,
+    on the form and in the API, with the form's field marked."""
+    from markupsafe import escape  # as the templates escape
+
+    client = _client(desk, "pia")
+    for key, bad in BAD_LEG_2:
+        values = {**TRIP_LEG_2_AFT, key: bad}
+        expected = _library_problem(desk, values)
+        response = _post_check(client, values, "TEST-TRIP", route="record")
+        assert response.status_code == 422, key
+        page = response.text
+        problems = page[page.index('class="problem"') : page.index("</ul>", page.index('class="problem"'))]
+        for problem in expected:
+            assert str(escape(problem.describe())) in problems, (key, problem)
+        assert re.search(rf'class="field( name)? bad">\s*<label for="{re.escape(key)}"', page), key
+    body = {
+        "registration": "TEST-TRIP",
+        "load": {"front": 340},
+        "fuel": {"main": "full"},
+        "record": True,
+        "leg": [{"load": {"front": -1}, "burn": {}}],
+    }
+    from loadcheck.errors import LoadcheckError
+
+    with pytest.raises(LoadcheckError) as refused:  # the API's body, as the library reads it
+        load_check_inputs(
+            desk["fleet"] / "trip_test.toml",
+            None,
+            allow_trip=True,
+            load=body["load"],
+            fuel=body["fuel"],
+            legs=dict(enumerate(body["leg"], start=2)),
+        )
+    expected = refused.value.problems
+    answer = client.post("/api/check", json=body)
+    assert answer.status_code == 422
+    assert [(p["field"], p["message"]) for p in answer.json()["problems"]] == [
+        (p.field, p.describe()) for p in expected
+    ]
+    assert _records(desk) == []
+
+
+def _library_names_legs_as_counted() -> bool:
+    """Whether the library names a leg's problem as the user counts legs, field ``leg 2, load.left``
+    (a value the loading's model refuses, and a name the aircraft does not know). The "bound"
+    engineer's change to loading.py, made in the same round, does; the test after this one is
+    for the merged code, an expected failure (strict) until the library names legs so."""
+    from loadcheck.errors import LoadcheckError
+
+    fields: list[str] = []
+    for legs in ({2: {"load": {"left": "-5"}}}, {2: {"load": {"nose": "1"}}}):
+        try:
+            load_check_inputs(SAMPLES / "heli2" / "trip_drop_off.toml", None, allow_trip=True, legs=legs)
+        except LoadcheckError as error:
+            fields += [p.field for p in error.problems]
+    return len(fields) >= 2 and all(f.startswith("leg 2, ") for f in fields)
+
+
+@pytest.mark.xfail(
+    not _library_names_legs_as_counted(),
+    reason="needs the library (loading.py, 'bound' branch) to name a leg's problem 'leg 2, <path>'",
+    strict=True,
+)
+def test_a_legs_problem_reads_leg_2_on_the_form_and_in_the_api(desk: dict[str, Any]) -> None:
+    """A bad value in the second leg reads "leg 2, burn.taxi: ..." (the leg as the user counts
+    them, then the path within it), with no "leg 2:" said twice, on the form and in the API."""
+    from markupsafe import escape  # as the templates escape
+
+    client = _client(desk, "pia")
+    for key, bad in BAD_LEG_2:
+        page = _post_check(client, {**TRIP_LEG_2_AFT, key: bad}, "TEST-TRIP", route="record").text
+        problems = page[page.index('class="problem"') : page.index("</ul>", page.index('class="problem"'))]
+        path = key.split(".", 2)[2].replace("fuel.", "add_fuel.")
+        assert f"leg 2, {path}: " in problems and str(escape(bad)) in problems, key
+        assert "leg 2: " not in problems and "leg[" not in problems, key
+    body = {
+        "registration": "TEST-TRIP",
+        "load": {"front": 340},
+        "fuel": {"main": "full"},
+        "leg": [{"load": {"front": -1}, "burn": {}}],
+    }
+    (problem,) = client.post("/api/check", json=body).json()["problems"]
+    assert problem["field"] == "leg 2, load.front" and problem["message"].startswith("leg 2, load.front: ")
+    assert "leg 2: " not in problem["message"]

@@ -18,7 +18,7 @@ import tempfile
 import threading
 import time
 from collections import OrderedDict
-from dataclasses import dataclass, replace
+from dataclasses import dataclass
 from pathlib import Path
 from typing import TYPE_CHECKING, Any
 
@@ -175,22 +175,12 @@ class Desk:
         return [
             {
                 "field": p.field,
-                "message": self.public(prefix + _leg_words(p).describe()),
+                "message": self.public(prefix + p.describe()),
                 "value": None if p.value is None else str(p.value),
                 "expected": p.expected,
             }
             for p in found
         ]
-
-
-def _leg_words(problem: Problem) -> Problem:
-    """A problem of a trip's leg named in words: field ``leg[0].burn.taxi`` reads ``leg 2, burn.taxi``."""
-    match = re.fullmatch(r"leg\[(\d+)\]\.?(.*)", problem.field or "")
-    if match is None:
-        return problem
-    number = int(match.group(1)) + 2
-    message = problem.message.removeprefix(f"leg {number}: ")
-    return replace(problem, field=f"leg {number}" + (f", {match.group(2)}" if match.group(2) else ""), message=message)
 
 
 def _account(request: Request) -> Account:
@@ -313,13 +303,25 @@ def _without_leg(typed: dict[str, str], number: int) -> dict[str, str]:
 
 
 def form_key(field: str) -> str:
-    """The check form's field for a library field path: ``leg[0].add_fuel.main`` is ``leg.2.fuel.main``."""
-    match = re.fullmatch(r"leg\[(\d+)\]\.?(.*)", field)
-    if match is None:
+    """The check form's field for a library field path, to mark it on the form.
+
+    A leg's problem is named as the user counts legs, ``leg 2, add_fuel.main``: that is the form's
+    ``leg.2.fuel.main``. A path by list index, ``leg[0].add_fuel.main`` (``leg[0]`` is leg 2), is
+    read too. Any other path is the form's field of that name.
+
+    Examples
+    --------
+    >>> form_key("leg 2, add_fuel.main"), form_key("leg 3"), form_key("leg[0].burn.taxi"), form_key("load.front")
+    ('leg.2.fuel.main', 'leg.3', 'leg.2.burn.taxi', 'load.front')
+    """
+    if match := re.fullmatch(r"leg (\d+)(?:, (.+))?", field):
+        number, rest = int(match.group(1)), match.group(2) or ""
+    elif match := re.fullmatch(r"leg\[(\d+)\]\.?(.*)", field):
+        number, rest = int(match.group(1)) + 2, match.group(2)
+    else:
         return field
-    rest = match.group(2)
     rest = "fuel" + rest[len("add_fuel") :] if rest.startswith("add_fuel") else rest
-    return f"leg.{int(match.group(1)) + 2}" + (f".{rest}" if rest else "")
+    return f"leg.{number}" + (f".{rest}" if rest else "")
 
 
 def _inputs(desk: Desk, registration: str, overrides: dict[str, Any]) -> CheckInputs:
