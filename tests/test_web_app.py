@@ -1068,17 +1068,28 @@ def test_a_trip_longer_than_the_form_is_checked_through_the_api_as_the_library_c
     assert crafted.status_code == 422 and "POST /api/check" in crafted.text
 
 
-def _library_problem(desk: dict[str, Any], values: dict[str, str]) -> list[Any]:
-    """The problems the library finds in the check form's values, read as the desk reads them."""
+def _library_problems(desk: dict[str, Any], **overrides: Any) -> list[Any]:
+    """The problems the library finds in a loading of TEST-TRIP given as ``load_check_inputs`` overrides."""
     from loadcheck.errors import LoadcheckError
+
+    with pytest.raises(LoadcheckError) as refused:
+        load_check_inputs(desk["fleet"] / "trip_test.toml", None, allow_trip=True, **overrides)
+    return refused.value.problems
+
+
+def _form_problems(desk: dict[str, Any], values: dict[str, str]) -> list[Any]:
+    """The problems the library finds in the check form's values, read as the desk reads them."""
     from loadcheck.files import load_aircraft
     from loadcheck.web.app import _overrides
 
-    path = desk["fleet"] / "trip_test.toml"
-    _, overrides = _overrides(values, load_aircraft(path))
-    with pytest.raises(LoadcheckError) as refused:
-        load_check_inputs(path, None, allow_trip=True, **overrides)
-    return refused.value.problems
+    _, overrides = _overrides(values, load_aircraft(desk["fleet"] / "trip_test.toml"))
+    return _library_problems(desk, **overrides)
+
+
+def _problems_shown(page: str) -> str:
+    """The list of problems a page shows."""
+    start = page.index('class="problem"')
+    return page[start : page.index("</ul>", start)]
 
 
 # The check form's values of a bad leg 2 (TRIP_LEG_2_AFT with one field bad), refused by the
@@ -1089,6 +1100,13 @@ BAD_LEG_2 = (
     ("leg.2.fuel.main", "brimming"),
     ("leg.2.names.rear", "Sam"),
 )
+# An API body whose leg 2 has a negative weight.
+API_BAD_LEG_2: dict[str, Any] = {
+    "registration": "TEST-TRIP",
+    "load": {"front": 340},
+    "fuel": {"main": "full"},
+    "leg": [{"load": {"front": -1}, "burn": {}}],
+}
 
 
 def test_desk_rewrote_a_legs_problem_instead_of_showing_the_librarys(desk: dict[str, Any]) -> None:
@@ -1100,34 +1118,17 @@ def test_desk_rewrote_a_legs_problem_instead_of_showing_the_librarys(desk: dict[
     client = _client(desk, "pia")
     for key, bad in BAD_LEG_2:
         values = {**TRIP_LEG_2_AFT, key: bad}
-        expected = _library_problem(desk, values)
+        expected = _form_problems(desk, values)
         response = _post_check(client, values, "TEST-TRIP", route="record")
         assert response.status_code == 422, key
-        page = response.text
-        problems = page[page.index('class="problem"') : page.index("</ul>", page.index('class="problem"'))]
         for problem in expected:
-            assert str(escape(problem.describe())) in problems, (key, problem)
-        assert re.search(rf'class="field( name)? bad">\s*<label for="{re.escape(key)}"', page), key
-    body = {
-        "registration": "TEST-TRIP",
-        "load": {"front": 340},
-        "fuel": {"main": "full"},
-        "record": True,
-        "leg": [{"load": {"front": -1}, "burn": {}}],
-    }
-    from loadcheck.errors import LoadcheckError
-
-    with pytest.raises(LoadcheckError) as refused:  # the API's body, as the library reads it
-        load_check_inputs(
-            desk["fleet"] / "trip_test.toml",
-            None,
-            allow_trip=True,
-            load=body["load"],
-            fuel=body["fuel"],
-            legs=dict(enumerate(body["leg"], start=2)),
-        )
-    expected = refused.value.problems
-    answer = client.post("/api/check", json=body)
+            assert str(escape(problem.describe())) in _problems_shown(response.text), (key, problem)
+        assert re.search(rf'class="field( name)? bad">\s*<label for="{re.escape(key)}"', response.text), key
+    body = API_BAD_LEG_2
+    expected = _library_problems(
+        desk, load=body["load"], fuel=body["fuel"], legs=dict(enumerate(body["leg"], start=2))
+    )  # the API's body, as the library reads it
+    answer = client.post("/api/check", json={**body, "record": True})
     assert answer.status_code == 422
     assert [(p["field"], p["message"]) for p in answer.json()["problems"]] == [
         (p.field, p.describe()) for p in expected
@@ -1163,18 +1164,11 @@ def test_a_legs_problem_reads_leg_2_on_the_form_and_in_the_api(desk: dict[str, A
 
     client = _client(desk, "pia")
     for key, bad in BAD_LEG_2:
-        page = _post_check(client, {**TRIP_LEG_2_AFT, key: bad}, "TEST-TRIP", route="record").text
-        problems = page[page.index('class="problem"') : page.index("</ul>", page.index('class="problem"'))]
+        problems = _problems_shown(_post_check(client, {**TRIP_LEG_2_AFT, key: bad}, "TEST-TRIP", route="record").text)
         path = key.split(".", 2)[2].replace("fuel.", "add_fuel.")
         assert f"leg 2, {path}: " in problems and str(escape(bad)) in problems, key
         assert "leg 2: " not in problems and "leg[" not in problems, key
-    body = {
-        "registration": "TEST-TRIP",
-        "load": {"front": 340},
-        "fuel": {"main": "full"},
-        "leg": [{"load": {"front": -1}, "burn": {}}],
-    }
-    (problem,) = client.post("/api/check", json=body).json()["problems"]
+    (problem,) = client.post("/api/check", json=API_BAD_LEG_2).json()["problems"]
     assert problem["field"] == "leg 2, load.front" and problem["message"].startswith("leg 2, load.front: ")
     assert "leg 2: " not in problem["message"]
 
