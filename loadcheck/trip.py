@@ -331,6 +331,29 @@ def _added(aircraft: Aircraft, on_board: dict[str, float], fill: list[str] | Non
     return out
 
 
+def _stop_legs(legs: int) -> str:
+    """The legs a stop comes before, in a trip of ``legs`` legs (2 or more): ``2``, ``2 or 3``, ``2 to 5``."""
+    return "2" if legs == 2 else "2 or 3" if legs == 3 else f"2 to {legs}"
+
+
+def _stops_words(legs: int) -> str:
+    """Where the stops of a trip of ``legs`` legs (2 or more) are, in words that read right for one stop or several.
+
+    Examples
+    --------
+    >>> _stops_words(2)
+    'the trip has 2 legs: its one stop comes before leg 2'
+    >>> _stops_words(3)
+    'the trip has 3 legs: its 2 stops come before legs 2 and 3'
+    >>> _stops_words(5)
+    'the trip has 5 legs: its 4 stops come before legs 2 to 5'
+    """
+    if legs == 2:
+        return "the trip has 2 legs: its one stop comes before leg 2"
+    before = "2 and 3" if legs == 3 else f"2 to {legs}"
+    return f"the trip has {legs} legs: its {legs - 1} stops come before legs {before}"
+
+
 def fuel_to_add(
     aircraft: Aircraft,
     trip: Loading | ResolvedTrip,
@@ -370,12 +393,7 @@ def fuel_to_add(
         )
     if not 2 <= leg <= len(resolved.legs):
         raise InputError(
-            Problem(
-                "leg",
-                f"the trip has {len(resolved.legs)} legs: a stop comes before legs 2 to {len(resolved.legs)}",
-                value=leg,
-                expected=f"2 to {len(resolved.legs)}",
-            )
+            Problem("leg", _stops_words(len(resolved.legs)), value=leg, expected=_stop_legs(len(resolved.legs)))
         )
     index = leg - 1
     before = resolved.legs[index - 1]

@@ -529,3 +529,34 @@ def test_the_hand_worked_trip_of_the_test_aircraft(tmp_path):
     assert two.check.condition("landing").arm == pytest.approx(140920 / 1628)
     assert {f.condition for f in result.limits_exceeded} >= {"ramp", "takeoff", "landing"}
     assert all(f.leg == 2 for f in result.limits_exceeded)
+
+
+# -- regressions of the trip's words (desk round, 2026-12) ----------------------------------------
+
+
+def test_trip_output_repeated_the_margin_rounding_after_every_legs_own_note(runner):
+    """The trip output ended with "Margins are rounded down; ..." after each leg's conditions
+    table had said so in its own note: each leg's table says it, nothing says it again."""
+    from loadcheck.render.terminal import MARGIN_NOTE
+
+    shown = runner.invoke(app, ["check", str(sample("heli2/trip_drop_off.toml"))])
+    assert shown.exit_code == 0, shown.output
+    text = " ".join(shown.output.split())  # rich wraps the note at the terminal's width
+    assert "A trip of 2 legs" in text  # the sample trip: out to the field site, back solo
+    assert text.count(MARGIN_NOTE.split(". ")[0]) == 2 and text.count("rounded down") == 2
+    assert "Margins are rounded down" not in text
+
+
+def test_plan_stop_past_the_last_leg_said_legs_2_to_2(runner, tmp_path):
+    """``plan stop --leg 3`` on a trip of two legs said "a stop comes before legs 2 to 2": the
+    words now read right for one stop and for several."""
+    path = str(sample("heli2/trip_drop_off.toml"))
+    two = runner.invoke(app, ["plan", "stop", path, "--leg", "3"])
+    assert two.exit_code == 2 and "legs 2 to 2" not in two.output
+    assert "the trip has 2 legs: its one stop comes before leg 2; got 3; expected 2" in " ".join(two.output.split())
+    three = runner.invoke(app, ["plan", "stop", path, "--leg", "4", "--leg-burn", "3:trip=5"])
+    assert three.exit_code == 2
+    assert "its 2 stops come before legs 2 and 3; got 4; expected 2 or 3" in " ".join(three.output.split())
+    four = runner.invoke(app, ["plan", "stop", path, "--leg", "1", "--leg-burn", "3:trip=5", "--leg-burn", "4:trip=5"])
+    assert four.exit_code == 2
+    assert "the trip has 4 legs: its 3 stops come before legs 2 to 4; got 1" in " ".join(four.output.split())

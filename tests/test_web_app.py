@@ -655,8 +655,7 @@ def test_a_bad_value_in_a_leg_names_the_leg_and_field_keeps_everything_and_recor
         assert response.status_code == 422, key
         page = response.text
         problem = page[page.index('class="problem"') : page.index("</ul>", page.index('class="problem"'))]
-        field = key.split(".", 2)[2].replace("fuel.", "add_fuel.")
-        assert f"leg 2, {field}" in problem and escape_value(bad) in problem, key
+        assert escape_value(bad) in problem, key  # named as the library names it: the tests after the last one
         assert re.search(rf'class="field bad">\s*<label for="{re.escape(key)}"', page), key
         assert (
             f'value="{escape_value(bad)}"' in page and 'value="back solo"' in page and 'name="legs" value="2"' in page
@@ -845,6 +844,8 @@ def test_api_names_go_into_the_record_and_a_bad_one_is_refused(desk: dict[str, A
 
 
 def test_api_bad_leg_names_the_leg_and_records_nothing(desk: dict[str, Any]) -> None:
+    from loadcheck.web.app import form_key
+
     client = _client(desk, "pia")
     body = {
         "registration": "TEST-TRIP",
@@ -861,6 +862,7 @@ def test_api_bad_leg_names_the_leg_and_records_nothing(desk: dict[str, Any]) -> 
     )
     unknown = client.post("/api/check", json={**body, "leg": [{"fuel": {"main": 5}, "burn": {}}]})
     assert unknown.status_code == 422 and any(p["field"] == "leg 2, fuel" for p in unknown.json()["problems"])
+    assert [form_key(p["field"]) for p in problems] == ["leg.2.load.front"]
     assert (
         client.post("/api/plan/stop", json={**body, "leg": [], "stop": 2}).status_code == 422
     )  # no stop without a leg
@@ -888,13 +890,12 @@ def test_names_typed_on_the_form_show_beside_the_seat_and_go_into_the_record(des
 
 def test_a_bad_name_brings_the_form_back_with_the_field_named(desk: dict[str, Any]) -> None:
     client = _client(desk, "pia")
-    for key, field in (("names.rear", "names.rear"), ("leg.2.names.rear", "leg 2, names.rear")):
+    for key in ("names.rear", "leg.2.names.rear"):  # a leg's field in words: the tests at the end
         response = _post_check(
             client, {**TRIP_LEG_2_AFT, key: "Sam"}, "TEST-TRIP", route="record"
         )  # no one weighs in the rear
-        assert response.status_code == 422 and f"{field}:" in response.text and "carries no weight" in response.text, (
-            key
-        )
+        assert response.status_code == 422 and "carries no weight" in response.text, key
+        assert key != "names.rear" or "names.rear:" in response.text
         assert re.search(rf'class="field name bad">\s*<label for="{re.escape(key)}"', response.text), key
         assert f'name="{key}" value="Sam"' in response.text
     assert _records(desk) == []
@@ -1004,3 +1005,203 @@ def test_fleet_is_read_again_when_an_aircraft_file_changes(desk: dict[str, Any])
     page = client.get("/fleet").text
     assert "DEMO-4X" in page and "DEMO-4T" not in page
     assert client.get("/aircraft/DEMO-4T").status_code == 422
+
+
+# -- the desk renders the library's refusals and rules (desk round, 2026-12) ---------------------
+
+
+def test_desk_refused_a_stop_of_a_one_leg_loading_in_its_own_words(desk: dict[str, Any]) -> None:
+    """The desk refused a stop of a loading of one leg with its own check and words (the form and
+    the API each differently); it now asks the library job, ``fuel_to_add``, and shows its refusal."""
+    from html import escape
+
+    from loadcheck.errors import InputError
+    from loadcheck.trip import fuel_to_add
+
+    one_leg = {k: v for k, v in TRIP_LEG_2_AFT.items() if not k.startswith("leg")}
+    inputs = _trip_inputs(desk, one_leg)
+    assert inputs.trip is None and inputs.given is not None  # one leg: no trip resolved
+    with pytest.raises(InputError) as refused:
+        fuel_to_add(inputs.aircraft, inputs.given, 2)
+    (expected,) = refused.value.problems
+    client = _client(desk, "pia")
+    page = _post_check(client, {**one_leg, "stop": "2"}, "TEST-TRIP", action="stop")
+    assert page.status_code == 422 and escape(expected.message) in page.text, page.text
+    body = {"registration": "TEST-TRIP", "load": {"front": 340, "bags": 100}, "fuel": {"main": "full"}, "stop": 2}
+    api = client.post("/api/plan/stop", json={**body, "burn": {"taxi": 1, "trip": 20}})
+    assert api.status_code == 422
+    assert [(p["field"], p["message"]) for p in api.json()["problems"]] == [(expected.field, expected.describe())]
+    assert _records(desk) == []
+
+
+def test_a_trip_longer_than_the_form_is_checked_through_the_api_as_the_library_checks_it(
+    desk: dict[str, Any],
+) -> None:
+    """The form's MAX_LEGS guards the page's size; it is no rule of trips: the library takes a trip
+    of any number of legs, and so does POST /api/check (the form says where a longer trip goes)."""
+    from loadcheck.trip import check_trip
+    from loadcheck.web.app import MAX_LEGS
+
+    legs = MAX_LEGS + 3  # one circuit after another, 0.5 gal taxi and 1 gal each: 40 gal is plenty
+    body = {
+        "registration": "TEST-TRIP",
+        "load": {"front": 340},
+        "fuel": {"main": "full"},
+        "burn": {"taxi": 0.5, "trip": 1},
+        "leg": [{"label": f"circuit {n}", "burn": {"taxi": 0.5, "trip": 1}} for n in range(2, legs + 1)],
+    }
+    inputs = load_check_inputs(
+        desk["fleet"] / "trip_test.toml",
+        None,
+        allow_trip=True,
+        load=body["load"],
+        fuel=body["fuel"],
+        burn=body["burn"],
+        legs=dict(enumerate(body["leg"], start=2)),
+    )
+    expected = check_trip(inputs.aircraft, inputs.trip)
+    assert len(expected.legs) == legs and expected.ok  # the library takes the trip
+    client = _client(desk, "pia")
+    answer = client.post("/api/check", json=body)
+    assert answer.status_code == 200 and answer.json() == expected.to_dict()
+    # the form stops at MAX_LEGS and says where a longer trip is checked
+    full = _post_check(client, {"legs": str(MAX_LEGS)}, "TEST-TRIP", action="add_leg")
+    assert full.status_code == 200 and 'value="add_leg"' not in full.text and "POST /api/check" in full.text
+    crafted = _post_check(client, {"legs": str(legs)}, "TEST-TRIP", action="check")
+    assert crafted.status_code == 422 and "POST /api/check" in crafted.text
+
+
+def _library_problems(desk: dict[str, Any], **overrides: Any) -> list[Any]:
+    """The problems the library finds in a loading of TEST-TRIP given as ``load_check_inputs`` overrides."""
+    from loadcheck.errors import LoadcheckError
+
+    with pytest.raises(LoadcheckError) as refused:
+        load_check_inputs(desk["fleet"] / "trip_test.toml", None, allow_trip=True, **overrides)
+    return refused.value.problems
+
+
+def _form_problems(desk: dict[str, Any], values: dict[str, str]) -> list[Any]:
+    """The problems the library finds in the check form's values, read as the desk reads them."""
+    from loadcheck.files import load_aircraft
+    from loadcheck.web.app import _overrides
+
+    _, overrides = _overrides(values, load_aircraft(desk["fleet"] / "trip_test.toml"))
+    return _library_problems(desk, **overrides)
+
+
+def _problems_shown(page: str) -> str:
+    """The list of problems a page shows."""
+    start = page.index('class="problem"')
+    return page[start : page.index("</ul>", start)]
+
+
+# The check form's values of a bad leg 2 (TRIP_LEG_2_AFT with one field bad), refused by the
+# loading's model (a unit, a negative weight), by the aircraft (a level, a seat that carries no weight).
+BAD_LEG_2 = (
+    ("leg.2.burn.taxi", "1 furlong"),
+    ("leg.2.load.front", "-5"),
+    ("leg.2.fuel.main", "brimming"),
+    ("leg.2.names.rear", "Sam"),
+)
+# An API body whose leg 2 has a negative weight.
+API_BAD_LEG_2: dict[str, Any] = {
+    "registration": "TEST-TRIP",
+    "load": {"front": 340},
+    "fuel": {"main": "full"},
+    "leg": [{"load": {"front": -1}, "burn": {}}],
+}
+
+
+def test_desk_rewrote_a_legs_problem_instead_of_showing_the_librarys(desk: dict[str, Any]) -> None:
+    """The desk renamed a leg's problems itself (``_leg_words``: ``leg[0].burn.taxi`` shown as
+    ``leg 2, burn.taxi``); the library names them, and the desk shows each problem as it comes,
+    on the form and in the API, with the form's field marked."""
+    from markupsafe import escape  # as the templates escape
+
+    client = _client(desk, "pia")
+    for key, bad in BAD_LEG_2:
+        values = {**TRIP_LEG_2_AFT, key: bad}
+        expected = _form_problems(desk, values)
+        response = _post_check(client, values, "TEST-TRIP", route="record")
+        assert response.status_code == 422, key
+        for problem in expected:
+            assert str(escape(problem.describe())) in _problems_shown(response.text), (key, problem)
+        assert re.search(rf'class="field( name)? bad">\s*<label for="{re.escape(key)}"', response.text), key
+    body = API_BAD_LEG_2
+    expected = _library_problems(
+        desk, load=body["load"], fuel=body["fuel"], legs=dict(enumerate(body["leg"], start=2))
+    )  # the API's body, as the library reads it
+    answer = client.post("/api/check", json={**body, "record": True})
+    assert answer.status_code == 422
+    assert [(p["field"], p["message"]) for p in answer.json()["problems"]] == [
+        (p.field, p.describe()) for p in expected
+    ]
+    assert _records(desk) == []
+
+
+def _library_names_legs_as_counted() -> bool:
+    """Whether the library names a leg's problem as the user counts legs, field ``leg 2, load.left``
+    (a value the loading's model refuses, and a name the aircraft does not know). The "bound"
+    engineer's change to loading.py, made in the same round, does; the test after this one is
+    for the merged code, an expected failure (strict) until the library names legs so."""
+    from loadcheck.errors import LoadcheckError
+
+    fields: list[str] = []
+    for legs in ({2: {"load": {"left": "-5"}}}, {2: {"load": {"nose": "1"}}}):
+        try:
+            load_check_inputs(SAMPLES / "heli2" / "trip_drop_off.toml", None, allow_trip=True, legs=legs)
+        except LoadcheckError as error:
+            fields += [p.field for p in error.problems]
+    return len(fields) >= 2 and all(f.startswith("leg 2, ") for f in fields)
+
+
+@pytest.mark.xfail(
+    not _library_names_legs_as_counted(),
+    reason="needs the library (loading.py, 'bound' branch) to name a leg's problem 'leg 2, <path>'",
+    strict=True,
+)
+def test_a_legs_problem_reads_leg_2_on_the_form_and_in_the_api(desk: dict[str, Any]) -> None:
+    """A bad value in the second leg reads "leg 2, burn.taxi: ..." (the leg as the user counts
+    them, then the path within it), with no "leg 2:" said twice, on the form and in the API."""
+    from markupsafe import escape  # as the templates escape
+
+    client = _client(desk, "pia")
+    for key, bad in BAD_LEG_2:
+        problems = _problems_shown(_post_check(client, {**TRIP_LEG_2_AFT, key: bad}, "TEST-TRIP", route="record").text)
+        path = key.split(".", 2)[2].replace("fuel.", "add_fuel.")
+        assert f"leg 2, {path}: " in problems and str(escape(bad)) in problems, key
+        assert "leg 2: " not in problems and "leg[" not in problems, key
+    (problem,) = client.post("/api/check", json=API_BAD_LEG_2).json()["problems"]
+    assert problem["field"] == "leg 2, load.front" and problem["message"].startswith("leg 2, load.front: ")
+    assert "leg 2: " not in problem["message"]
+
+
+def test_a_file_sent_in_a_text_field_was_read_as_its_description(desk: dict[str, Any]) -> None:
+    """The form's values were read as ``str(value)``: a file sent in place of a text field (a form
+    the desk did not make) became "UploadFile(filename=...)" and went on as the value typed. The
+    form is now read as starlette's FormData (texts and files) and a file there is refused."""
+    client = _client(desk, "pia")
+    csrf = csrf_of(client.get("/aircraft/DEMO-4T").text)
+    fields = {**WITHIN, "action": "check", "csrf": csrf}
+    del fields["load.front"]
+    response = client.post(
+        "/aircraft/DEMO-4T/record", data=fields, files={"load.front": ("front.txt", b"340", "text/plain")}
+    )
+    assert (
+        response.status_code == 422 and "load.front: a file was sent where the form has a text field" in response.text
+    )
+    assert "UploadFile" not in response.text and _records(desk) == []
+
+
+def test_the_desk_types_its_forms_and_answers_without_any() -> None:
+    """Issue 21: the desk's forms, overrides, problems and answers had some 30 ``Any``s; each now
+    has its type (FormData, Mapping, TypedDicts, the library's results, JSON values)."""
+    import ast
+
+    import loadcheck.web.app as desk_app
+
+    tree = ast.parse(Path(desk_app.__file__).read_text(encoding="utf-8"))
+    used = {n.id for n in ast.walk(tree) if isinstance(n, ast.Name)} | {
+        n.attr for n in ast.walk(tree) if isinstance(n, ast.Attribute)
+    }
+    assert "Any" not in used

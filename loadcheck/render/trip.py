@@ -52,9 +52,10 @@ def trip_verdict(result: TripResult) -> str:
 
 
 def render_trip(result: TripResult, console: Console, plots: Sequence[Sequence[str]] = ()) -> None:
-    """Print a trip: a header, then for each leg its moment table, conditions, burn path
-    and findings (each finding tagged with its leg and condition), then the trip's
-    verdict and last the caution. ``plots`` are text plots, one per leg, if given."""
+    """Print a trip: a header, then for each leg its moment table, conditions (with the
+    conditions table's own note on how margins are rounded), burn path and findings (each
+    finding tagged with its leg and condition), then the trip's verdict and last the
+    caution. ``plots`` are text plots, one per leg, if given."""
     info = result.aircraft
     header = info.name + (f" · {info.registration}" if info.registration else "")
     header += f" · {result.category} category · data {info.fingerprint}"
@@ -91,7 +92,6 @@ def render_trip(result: TripResult, console: Console, plots: Sequence[Sequence[s
         if index < len(plots):
             for text in plots[index]:
                 console.print(text, markup=False, highlight=False)
-    console.print(Text("Margins are rounded down; an excess is rounded up.", style="dim"))
     console.print(Panel(Text(trip_verdict(result), style=_OK_STYLE if result.ok else _LIMIT_STYLE), expand=False))
     console.print(caution_text(result.caution))
 

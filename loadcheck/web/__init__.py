@@ -9,13 +9,18 @@ and only when the desk is started; see docs/web.md.
 
 from __future__ import annotations
 
-from typing import Any
+from typing import TYPE_CHECKING
 
 __all__ = ["create_app"]
 
+if TYPE_CHECKING:
+    from fastapi import FastAPI
 
-def create_app(*args: Any, **kwargs: Any) -> Any:
-    """The desk's ASGI application (:func:`loadcheck.web.app.create_app`)."""
-    from .app import create_app as make
+    from .app import create_app  # the signature and the FastAPI answer, for the type checker
+else:
 
-    return make(*args, **kwargs)
+    def create_app(*args: object, **kwargs: object) -> FastAPI:
+        """The desk's ASGI application (:func:`loadcheck.web.app.create_app`); the web stack imported on first call."""
+        from .app import create_app as make
+
+        return make(*args, **kwargs)

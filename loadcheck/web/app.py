@@ -18,16 +18,19 @@ import tempfile
 import threading
 import time
 from collections import OrderedDict
-from dataclasses import dataclass, replace
+from collections.abc import Iterable, Mapping
+from dataclasses import dataclass
 from pathlib import Path
-from typing import TYPE_CHECKING, Any
+from typing import TYPE_CHECKING, TypedDict
 
 from fastapi import FastAPI, Form, HTTPException, Request, UploadFile
 from fastapi.exceptions import RequestValidationError
 from fastapi.responses import HTMLResponse, JSONResponse, PlainTextResponse, RedirectResponse, Response
 from fastapi.staticfiles import StaticFiles
 from fastapi.templating import Jinja2Templates
-from pydantic import BaseModel, ConfigDict, Field, ValidationError
+from pydantic import BaseModel, ConfigDict, Field, JsonValue, ValidationError
+from starlette.datastructures import FormData
+from starlette.datastructures import UploadFile as StarletteUpload
 from starlette.exceptions import HTTPException as StarletteHTTPException
 from starlette.middleware.sessions import SessionMiddleware
 
@@ -42,9 +45,11 @@ from .users import Account, UserStore
 if TYPE_CHECKING:
     from ..aircraft import Aircraft
     from ..checklog import LoggedCheck
+    from ..empty_record import Proposal
     from ..files import CheckInputs
     from ..fleet import Fleet
     from ..loading import Loading, ResolvedTrip
+    from ..planning import PlanResult
     from ..results import CheckResult, TripResult
 
 __all__ = ["MAX_LEGS", "CheckRequest", "PayloadRequest", "StopRequest", "create_app", "form_key", "leg_count"]
@@ -67,16 +72,18 @@ class CheckRequest(BaseModel):
     load: dict[str, str | float] = Field(
         default_factory=dict, description="mass per station: a number [mass unit] or with a unit"
     )
-    names: dict[str, Any] = Field(
+    names: dict[str, JsonValue] = Field(
         default_factory=dict,
         description="optional: who is at each station, a person's name per station id (the loading file's [names])",
     )
     fuel: dict[str, str | float] = Field(
         default_factory=dict, description="quantity per tank at engine start: volume, 'full', a level name"
     )
-    burn: dict[str, Any] = Field(default_factory=dict, description="taxi, trip or trip_time and rate, order, reserve")
+    burn: dict[str, JsonValue] = Field(
+        default_factory=dict, description="taxi, trip or trip_time and rate, order, reserve"
+    )
     category: str | None = Field(None, description="envelope category (default: the file's first)")
-    leg: list[dict[str, Any]] = Field(
+    leg: list[dict[str, JsonValue]] = Field(
         default_factory=list,
         description="the legs after the first, as the loading file's [[leg]] tables: label, load "
         "(new weight per station), add_fuel (fuel put in at the stop), burn",
@@ -96,13 +103,54 @@ class StopRequest(CheckRequest):
     stop: int = Field(description="the leg the stop comes before (2 or more)")
 
 
+class ProblemView(TypedDict):
+    """A library problem as a page or the API shows it (no paths of this machine in it)."""
+
+    field: str
+    message: str
+    value: str | None
+    expected: str | None
+
+
+FormValues = Mapping[str, str | StarletteUpload]
+"""A posted form as read (starlette's :class:`~starlette.datastructures.FormData`, or a plain dict of texts)."""
+
+JsonObject = dict[str, JsonValue]
+"""A JSON object of the API's answers: the command line's ``--json`` shapes (``to_dict`` of a result)."""
+
+_Signature = tuple[tuple[str, int, int, int], ...]
+"""The fleet folder's aircraft files as (path, inode, size, modification time [ns])."""
+
+
+class LegTables(TypedDict):
+    """A leg after the first as the form gives it to the library: a loading file's ``[[leg]]`` table."""
+
+    label: str | None
+    load: Mapping[str, str]
+    names: Mapping[str, str]
+    add_fuel: Mapping[str, str]
+    burn: Mapping[str, str | list[str]]
+
+
+class Overrides(TypedDict):
+    """A loading as the form or the API body gives it to :func:`~loadcheck.files.load_check_inputs`:
+    the loading file's tables, as typed (the library reads and checks every value)."""
+
+    load: Mapping[str, str | float]
+    names: Mapping[str, object]
+    fuel: Mapping[str, str | float]
+    burn: Mapping[str, object]
+    category: str | None
+    legs: Mapping[int, Mapping[str, object]]
+
+
 @dataclass
 class _Pending:
     """A mechanic's proposed record, waiting for confirmation."""
 
     user: str
     registration: str
-    proposal: Any
+    proposal: Proposal
     source: Path
     made: float
 
@@ -118,7 +166,7 @@ class Desk:
         self.pending: OrderedDict[str, _Pending] = OrderedDict()
         self.workdir = Path(tempfile.mkdtemp(prefix="loadcheck-desk-"))
         self.lock = threading.Lock()
-        self._fleet: tuple[Any, Fleet] | None = None
+        self._fleet: tuple[_Signature, Fleet] | None = None
 
     def fleet(self) -> Fleet:
         """The fleet as its files are now: read again whenever any aircraft file changed (name, inode, size, time)."""
@@ -159,7 +207,7 @@ class Desk:
             text = text.replace(str(folder) + "/", name + ": ").replace(str(folder), name)
         return text
 
-    def problems(self, error: Exception) -> list[dict[str, Any]]:
+    def problems(self, error: Exception) -> list[ProblemView]:
         """The problems of a library error, for a page or the API (no paths of this machine)."""
         if isinstance(error, ValidationError):
             from ..files import problems_from_validation
@@ -173,24 +221,14 @@ class Desk:
                 f"{error.file}: " if error.file and str(error.file) != "command line" else ""
             )  # a form is not the command line
         return [
-            {
-                "field": p.field,
-                "message": self.public(prefix + _leg_words(p).describe()),
-                "value": None if p.value is None else str(p.value),
-                "expected": p.expected,
-            }
+            ProblemView(
+                field=p.field,
+                message=self.public(prefix + p.describe()),
+                value=None if p.value is None else str(p.value),
+                expected=p.expected,
+            )
             for p in found
         ]
-
-
-def _leg_words(problem: Problem) -> Problem:
-    """A problem of a trip's leg named in words: field ``leg[0].burn.taxi`` reads ``leg 2, burn.taxi``."""
-    match = re.fullmatch(r"leg\[(\d+)\]\.?(.*)", problem.field or "")
-    if match is None:
-        return problem
-    number = int(match.group(1)) + 2
-    message = problem.message.removeprefix(f"leg {number}: ")
-    return replace(problem, field=f"leg {number}" + (f", {match.group(2)}" if match.group(2) else ""), message=message)
 
 
 def _account(request: Request) -> Account:
@@ -208,12 +246,26 @@ def _need(request: Request, role: str, *also: str) -> Account:
     return account
 
 
-async def _form(request: Request) -> Any:
+async def _form(request: Request) -> FormData:
     """The posted form, refused (403) without the session's CSRF token."""
     form = await request.form()
     if not csrf_ok(request.session, form.get("csrf")):
         raise HTTPException(403, "the form's security token is missing or out of date: reload the page and try again")
     return form
+
+
+def _text(form: FormValues, key: str) -> str:
+    """A text field of the form as posted ("" when it is not there).
+
+    Raises
+    ------
+    HTTPException
+        422 for a file sent in place of the text (a form the desk did not make): never read as text.
+    """
+    value = form.get(key, "")
+    if not isinstance(value, str):
+        raise HTTPException(422, f"{key}: a file was sent where the form has a text field")
+    return value
 
 
 def _split_order(value: str) -> str | list[str]:
@@ -222,24 +274,35 @@ def _split_order(value: str) -> str | list[str]:
 
 _BURN_KEYS = ("taxi", "trip", "trip_time", "rate", "reserve", "order")
 MAX_LEGS = 12
-"""The most legs the check form takes (a trip of more legs is written as a loading file)."""
+"""The most legs the check form holds: a guard on the size of the web page, not a rule of trips.
+
+A trip has no most legs in the library (:func:`loadcheck.trip.check_trip`): the command line, the
+fleet CSV and ``POST /api/check`` take a trip of any number of legs. The form is rebuilt from its
+posted ``legs`` count, one block of fields per leg, so a crafted count (``legs=100000``) would
+have the desk build and check that many legs from one small request; the form stops at this many
+and says where a longer trip is checked."""
 
 
-def leg_count(form: Any) -> int:
+def leg_count(form: FormValues) -> int:
     """The number of legs the form holds (its ``legs`` field; 1 without it).
 
     Raises
     ------
     HTTPException
-        422 for a count that is not a whole number from 1 to :data:`MAX_LEGS` (a form the desk did not make).
+        422 for a count that is not a whole number from 1 to :data:`MAX_LEGS` (a form the desk did not
+        make; the desk's own form never posts more).
     """
-    raw = str(form.get("legs", "") or "1").strip()
+    raw = _text(form, "legs").strip() or "1"
     if not raw.isdigit() or not 1 <= int(raw) <= MAX_LEGS:
-        raise HTTPException(422, f"legs: {raw[:20]!r} is not a number of legs; expected 1 to {MAX_LEGS}")
+        raise HTTPException(
+            422,
+            f"legs: {raw[:20]!r} is not a number of legs this form holds; expected 1 to {MAX_LEGS} "
+            "(a longer trip is checked from a loading file or through POST /api/check)",
+        )
     return int(raw)
 
 
-def _overrides(form: Any, aircraft: Any, legs: int | None = None) -> tuple[dict[str, str], dict[str, Any]]:
+def _overrides(form: FormValues, aircraft: Aircraft, legs: int | None = None) -> tuple[dict[str, str], Overrides]:
     """The form's values as typed (to show again) and as the library's overrides (empty fields left out).
 
     ``names.STATION`` is the person at a station (the loading file's ``[names]``). Leg ``n`` (2 or
@@ -250,10 +313,10 @@ def _overrides(form: Any, aircraft: Any, legs: int | None = None) -> tuple[dict[
     typed: dict[str, str] = {}
 
     def read(key: str) -> str:
-        typed[key] = value = str(form.get(key, "")).strip()
+        typed[key] = value = _text(form, key).strip()
         return value
 
-    def tables(prefix: str) -> tuple[dict[str, str], dict[str, str], dict[str, str], dict[str, Any]]:
+    def tables(prefix: str) -> tuple[dict[str, str], dict[str, str], dict[str, str], dict[str, str | list[str]]]:
         load = {s.id: v for s in aircraft.station if (v := read(f"{prefix}load.{s.id}"))}
         names = {s.id: v for s in aircraft.station if (v := read(f"{prefix}names.{s.id}"))}  # a person at a station
         fuel = {t.id: v for t in aircraft.tank if (v := read(f"{prefix}fuel.{t.id}"))}
@@ -263,28 +326,15 @@ def _overrides(form: Any, aircraft: Any, legs: int | None = None) -> tuple[dict[
     load, names, fuel, burn = tables("")
     count = leg_count(form) if legs is None else legs
     typed["legs"] = str(count)
-    further: dict[int, dict[str, Any]] = {}
+    further: dict[int, LegTables] = {}
     for number in range(2, count + 1):
         label = read(f"leg.{number}.label")
         leg_load, leg_names, added, leg_burn = tables(f"leg.{number}.")
-        further[number] = {
-            "label": label or None,
-            "load": leg_load,
-            "names": leg_names,
-            "add_fuel": added,
-            "burn": leg_burn,
-        }
-    typed["category"] = category = str(form.get("category", "")).strip()
-    typed["station"] = str(form.get("station", "")).strip()
-    typed["stop"] = str(form.get("stop", "")).strip()
-    return typed, {
-        "load": load,
-        "names": names,
-        "fuel": fuel,
-        "burn": burn,
-        "category": category or None,
-        "legs": further,
-    }
+        further[number] = LegTables(label=label or None, load=leg_load, names=leg_names, add_fuel=added, burn=leg_burn)
+    category = read("category")
+    read("station")
+    read("stop")
+    return typed, Overrides(load=load, names=names, fuel=fuel, burn=burn, category=category or None, legs=further)
 
 
 def _without_leg(typed: dict[str, str], number: int) -> dict[str, str]:
@@ -302,16 +352,28 @@ def _without_leg(typed: dict[str, str], number: int) -> dict[str, str]:
 
 
 def form_key(field: str) -> str:
-    """The check form's field for a library field path: ``leg[0].add_fuel.main`` is ``leg.2.fuel.main``."""
-    match = re.fullmatch(r"leg\[(\d+)\]\.?(.*)", field)
-    if match is None:
+    """The check form's field for a library field path, to mark it on the form.
+
+    A leg's problem is named as the user counts legs, ``leg 2, add_fuel.main``: that is the form's
+    ``leg.2.fuel.main``. A path by list index, ``leg[0].add_fuel.main`` (``leg[0]`` is leg 2), is
+    read too. Any other path is the form's field of that name.
+
+    Examples
+    --------
+    >>> form_key("leg 2, add_fuel.main"), form_key("leg 3"), form_key("leg[0].burn.taxi"), form_key("load.front")
+    ('leg.2.fuel.main', 'leg.3', 'leg.2.burn.taxi', 'load.front')
+    """
+    if match := re.fullmatch(r"leg (\d+)(?:, (.+))?", field):
+        number, rest = int(match.group(1)), match.group(2) or ""
+    elif match := re.fullmatch(r"leg\[(\d+)\]\.?(.*)", field):
+        number, rest = int(match.group(1)) + 2, match.group(2)
+    else:
         return field
-    rest = match.group(2)
     rest = "fuel" + rest[len("add_fuel") :] if rest.startswith("add_fuel") else rest
-    return f"leg.{int(match.group(1)) + 2}" + (f".{rest}" if rest else "")
+    return f"leg.{number}" + (f".{rest}" if rest else "")
 
 
-def _inputs(desk: Desk, registration: str, overrides: dict[str, Any]) -> CheckInputs:
+def _inputs(desk: Desk, registration: str, overrides: Overrides) -> CheckInputs:
     """The aircraft and the loading (one leg or a trip of several) resolved, as the command line reads them."""
     from ..files import load_check_inputs
 
@@ -321,12 +383,10 @@ def _inputs(desk: Desk, registration: str, overrides: dict[str, Any]) -> CheckIn
 
 def _trip_or_given(inputs: CheckInputs) -> Loading | ResolvedTrip:
     """The trip to plan a stop of; a loading of one leg (no trip resolved) as given, which
-    :func:`~loadcheck.trip.fuel_to_add` refuses naming its legs."""
-    if inputs.trip is not None:
-        return inputs.trip
-    if inputs.given is None:
-        raise InputError(Problem("leg", "the loading has one leg, so no stop"))
-    return inputs.given
+    :func:`~loadcheck.trip.fuel_to_add` refuses in its own words (as ``plan stop`` gives it)."""
+    trip = inputs.trip if inputs.trip is not None else inputs.given
+    assert trip is not None, "load_check_inputs keeps the loading as given"
+    return trip
 
 
 def _checked_result(inputs: CheckInputs) -> CheckResult | TripResult:
@@ -343,21 +403,23 @@ def _checked_result(inputs: CheckInputs) -> CheckResult | TripResult:
     return check_loading(inputs.aircraft, inputs.loading)
 
 
-def _chart_svg(inputs: CheckInputs, result: Any, *, compact: bool = False) -> str:
+def _chart_svg(inputs: CheckInputs, result: CheckResult | TripResult, *, compact: bool = False) -> str:
     """The envelope chart as SVG: a trip's with one path per leg (as ``check --chart`` draws them)."""
     from ..render.chart import check_figure, figure_svg, trip_figure
+    from ..results import TripResult
 
     with _CHART_LOCK:
-        if inputs.is_trip:
+        if isinstance(result, TripResult):
             return figure_svg(trip_figure(inputs.aircraft, result, inputs.label))
         return figure_svg(check_figure(inputs.aircraft, result, inputs.label, compact=compact))
 
 
-def _sheet(inputs: CheckInputs, result: Any) -> str:
+def _sheet(inputs: CheckInputs, result: CheckResult | TripResult) -> str:
     """The printable load sheet, made as ``check --sheet`` makes it (a trip's for a trip)."""
     from ..render.sheet import load_sheet_html, trip_sheet_html
+    from ..results import TripResult
 
-    if inputs.is_trip:
+    if isinstance(result, TripResult):
         return trip_sheet_html(result, _chart_svg(inputs, result), loading_label=inputs.label, trip_loading=inputs.trip)
     return load_sheet_html(
         result,
@@ -436,7 +498,7 @@ def create_app(
         version=__version__,
     )
 
-    def page(request: Request, template: str, status: int = 200, **context: Any) -> HTMLResponse:
+    def page(request: Request, template: str, status: int = 200, **context: object) -> HTMLResponse:
         account = None
         try:
             account = _account(request)
@@ -502,7 +564,7 @@ def create_app(
     @app.post("/signin", response_class=HTMLResponse)
     async def signin(request: Request) -> Response:
         form = await _form(request)
-        name, password = str(form.get("name", "")), str(form.get("password", ""))
+        name, password = _text(form, "name"), _text(form, "password")
         client = request.client.host if request.client else "unknown"
         keys = [f"name:{name}", f"client:{client}"]
         wait = desk.throttle.wait(keys)
@@ -551,7 +613,7 @@ def create_app(
     # -- the pilot: check a loading (one leg or a trip), plan, record, the load sheet ------------
 
     def _form_page(
-        request: Request, aircraft: Aircraft, typed: dict[str, str], problems: list[dict[str, Any]], status: int = 200
+        request: Request, aircraft: Aircraft, typed: dict[str, str], problems: list[ProblemView], status: int = 200
     ) -> Response:
         bad = {p["field"] for p in problems} | {form_key(p["field"]) for p in problems}
         legs = int(typed.get("legs", "1"))
@@ -574,8 +636,10 @@ def create_app(
         aircraft, _ = desk.aircraft_path(registration)
         return _form_page(request, aircraft, {}, [])
 
-    async def _checked(request: Request, registration: str) -> tuple[Any, Any, dict[str, str], Any, Any]:
-        """The form read and checked: (account, aircraft, typed values, inputs or None, problems or form)."""
+    async def _checked(
+        request: Request, registration: str
+    ) -> tuple[Account, Aircraft, dict[str, str], CheckInputs | None, list[ProblemView]]:
+        """The form read and checked: (account, aircraft, typed values, inputs or None, the library's problems)."""
         account = _need(request, "pilot")
         form = await _form(request)
         aircraft, _ = desk.aircraft_path(registration)
@@ -584,10 +648,10 @@ def create_app(
             inputs = _inputs(desk, registration, overrides)
         except (LoadcheckError, ValidationError) as error:
             return account, aircraft, typed, None, desk.problems(error)
-        return account, aircraft, typed, inputs, form
+        return account, aircraft, typed, inputs, []
 
     def _form_again(
-        request: Request, aircraft: Aircraft, typed: dict[str, str], problems: list[dict[str, Any]]
+        request: Request, aircraft: Aircraft, typed: dict[str, str], problems: list[ProblemView]
     ) -> Response:
         return _form_page(request, aircraft, typed, problems, 422)
 
@@ -599,7 +663,7 @@ def create_app(
         typed, _ = _overrides(form, aircraft)
         return _form_page(request, aircraft, typed, [])
 
-    def _legs_changed(request: Request, aircraft: Aircraft, form: Any, action: str) -> Response:
+    def _legs_changed(request: Request, aircraft: Aircraft, form: FormData, action: str) -> Response:
         """The form again with a leg added or one taken out, everything typed kept (nothing is checked)."""
         count = leg_count(form)
         if action == "add_leg":
@@ -613,22 +677,26 @@ def create_app(
 
     @app.post("/aircraft/{registration}/check", response_class=HTMLResponse)
     async def check(request: Request, registration: str) -> Response:
-        action = str((await request.form()).get("action", "check"))
+        action = _text(await request.form(), "action") or "check"
         if action == "add_leg" or action.startswith("remove_leg:"):
             _need(request, "pilot")
             form = await _form(request)
             aircraft, _ = desk.aircraft_path(registration)
             return _legs_changed(request, aircraft, form, action)
-        _, aircraft, typed, inputs, form = await _checked(request, registration)
+        _, aircraft, typed, inputs, problems = await _checked(request, registration)
         if inputs is None:
-            return _form_again(request, aircraft, typed, form)
+            return _form_again(request, aircraft, typed, problems)
         try:
             if action in ("fuel", "payload", "stop"):
                 return _plan_page(request, aircraft, typed, inputs, action)
             result = _checked_result(inputs)
         except (LoadcheckError, ValidationError) as error:
             return _form_again(request, aircraft, typed, desk.problems(error))
-        names = [leg.names for leg in inputs.trip.legs] if inputs.is_trip else [inputs.loading.names]
+        names = (
+            [leg.names for leg in inputs.trip.legs]
+            if inputs.is_trip and inputs.trip is not None
+            else [inputs.loading.names]
+        )
         return page(
             request,
             "result.html",
@@ -649,7 +717,7 @@ def create_app(
         from ..planning import most_fuel, most_payload
         from ..trip import fuel_to_add, trip_most_fuel
 
-        plan: Any
+        plan: PlanResult
         if action == "fuel":
             plan = (
                 trip_most_fuel(inputs.aircraft, inputs.trip)
@@ -657,8 +725,6 @@ def create_app(
                 else most_fuel(inputs.aircraft, inputs.loading)
             )
         elif action == "stop":
-            if not inputs.is_trip:
-                raise InputError(Problem("stop", "the fuel to put in at a stop is asked of a trip: add a leg first"))
             leg = typed["stop"]
             if not leg.isdigit():
                 raise InputError(Problem("stop", "choose the leg the stop comes before", value=leg or None))
@@ -681,9 +747,9 @@ def create_app(
     async def record(request: Request, registration: str) -> Response:
         from ..checklog import CheckLog, log_check
 
-        account, aircraft, typed, inputs, form = await _checked(request, registration)
+        account, aircraft, typed, inputs, problems = await _checked(request, registration)
         if inputs is None:
-            return _form_again(request, aircraft, typed, form)
+            return _form_again(request, aircraft, typed, problems)
         result = _checked_result(inputs)
         with CheckLog(desk.db) as log:
             record_id = log_check(log, inputs, result, source="web desk", version=__version__, pilot=account.name)
@@ -691,18 +757,20 @@ def create_app(
 
     @app.post("/aircraft/{registration}/sheet", response_class=HTMLResponse)
     async def sheet(request: Request, registration: str) -> Response:
-        _, aircraft, typed, inputs, form = await _checked(request, registration)
+        _, aircraft, typed, inputs, problems = await _checked(request, registration)
         if inputs is None:
-            return _form_again(request, aircraft, typed, form)
+            return _form_again(request, aircraft, typed, problems)
         return HTMLResponse(_sheet(inputs, _checked_result(inputs)))
 
     # -- the check log --------------------------------------------------------------------
 
-    def _visible(account: Account, records: Any) -> Any:
+    def _visible(account: Account, records: Iterable[LoggedCheck]) -> Iterable[LoggedCheck]:
         """Every record for a dispatcher; a pilot's own otherwise."""
         return records if account.has("dispatcher") else (r for r in records if r.pilot == account.name)
 
-    def _found(account: Account, registration: str | None, verdict: str | None, day: dt.date | None) -> list[Any]:
+    def _found(
+        account: Account, registration: str | None, verdict: str | None, day: dt.date | None
+    ) -> list[LoggedCheck]:
         from ..checklog import CheckLog
 
         if not desk.db.exists():
@@ -896,12 +964,12 @@ def create_app(
 
         account = _need(request, "mechanic")
         form = await _form(request)
-        token = str(form.get("token", ""))
+        token = _text(form, "token")
         with desk.lock:
             pending = desk.pending.get(token)
         if pending is None or pending.user != account.name or pending.registration != registration:
             raise HTTPException(404, "this proposed record is no longer waiting: enter the weighing or changes again")
-        note = str(form.get("note", "")).strip() or None
+        note = _text(form, "note").strip() or None
         try:
             make_current(
                 pending.proposal,
@@ -941,18 +1009,13 @@ def create_app(
     # -- the JSON API: the command line's JSON shapes --------------------------------------------
 
     def _api_inputs(body: CheckRequest) -> CheckInputs:
-        legs = {number: leg for number, leg in enumerate(body.leg, start=2)}
+        legs = dict(enumerate(body.leg, start=2))
         return _inputs(
             desk,
             body.registration,
-            {
-                "load": body.load,
-                "names": body.names,
-                "fuel": body.fuel,
-                "burn": body.burn,
-                "category": body.category,
-                "legs": legs,
-            },
+            Overrides(
+                load=body.load, names=body.names, fuel=body.fuel, burn=body.burn, category=body.category, legs=legs
+            ),
         )
 
     def _api_error(error: Exception) -> JSONResponse:
@@ -963,8 +1026,8 @@ def create_app(
         _account(request)
         return JSONResponse(app.openapi())
 
-    @app.get("/api/fleet")
-    def api_fleet(request: Request, max_age: int = 365) -> list[dict[str, Any]]:
+    @app.get("/api/fleet", response_model=None)
+    def api_fleet(request: Request, max_age: int = 365) -> list[JsonObject]:
         """The fleet listing (as ``fleet list --json``).
 
         Each aircraft's record date, useful load, fingerprint and problems.
@@ -974,8 +1037,8 @@ def create_app(
         _account(request)
         return [line.to_dict() for line in fleet_listing(desk.fleet(), max_age)]
 
-    @app.post("/api/check")
-    def api_check(request: Request, body: CheckRequest) -> Any:
+    @app.post("/api/check", response_model=None)
+    def api_check(request: Request, body: CheckRequest) -> JsonObject | JSONResponse:
         """Check a loading or a trip of several legs (the JSON of ``check --json``); with ``record``, record it
         and give its ``record_id``."""
         from ..checklog import CheckLog, log_check
@@ -994,8 +1057,8 @@ def create_app(
                 )
         return answer
 
-    @app.post("/api/plan/fuel")
-    def api_plan_fuel(request: Request, body: CheckRequest) -> Any:
+    @app.post("/api/plan/fuel", response_model=None)
+    def api_plan_fuel(request: Request, body: CheckRequest) -> JsonObject | JSONResponse:
         """The most fuel at engine start for this load, at the first engine start of a trip (the JSON of
         ``plan fuel --json``)."""
         from ..planning import most_fuel
@@ -1010,22 +1073,20 @@ def create_app(
         except (LoadcheckError, ValidationError) as error:
             return _api_error(error)
 
-    @app.post("/api/plan/stop")
-    def api_plan_stop(request: Request, body: StopRequest) -> Any:
+    @app.post("/api/plan/stop", response_model=None)
+    def api_plan_stop(request: Request, body: StopRequest) -> JsonObject | JSONResponse:
         """The fuel to put in at the stop before leg ``stop`` of a trip (the JSON of ``plan stop --json``)."""
         from ..trip import fuel_to_add
 
         _need(request, "pilot")
         try:
             inputs = _api_inputs(body)
-            if not inputs.is_trip:
-                raise InputError(Problem("leg", "the fuel to put in at a stop is asked of a trip of two legs or more"))
             return fuel_to_add(inputs.aircraft, _trip_or_given(inputs), body.stop).to_dict()
         except (LoadcheckError, ValidationError) as error:
             return _api_error(error)
 
-    @app.post("/api/plan/payload")
-    def api_plan_payload(request: Request, body: PayloadRequest) -> Any:
+    @app.post("/api/plan/payload", response_model=None)
+    def api_plan_payload(request: Request, body: PayloadRequest) -> JsonObject | JSONResponse:
         """The most payload at a station (the JSON of ``plan payload --json``)."""
         from ..planning import most_payload
 
@@ -1038,16 +1099,16 @@ def create_app(
         except (LoadcheckError, ValidationError) as error:
             return _api_error(error)
 
-    @app.get("/api/records")
+    @app.get("/api/records", response_model=None)
     def api_records(
         request: Request, registration: str | None = None, verdict: str | None = None, date: str | None = None
-    ) -> list[dict[str, Any]]:
+    ) -> list[JsonObject]:
         """Records of checks (a pilot's own; every pilot's for a dispatcher), without their inputs and results."""
         account = _account(request)
         return [r.summary() for r in _found(account, registration, verdict, _day(date if date is not None else ""))]
 
-    @app.get("/api/records/{record_id}")
-    def api_record(request: Request, record_id: int) -> dict[str, Any]:
+    @app.get("/api/records/{record_id}", response_model=None)
+    def api_record(request: Request, record_id: int) -> JsonObject:
         """One record with its inputs and result (as ``log export --format jsonl`` gives it)."""
         found = _record(_account(request), record_id)
         return {**found.summary(), "inputs": found.inputs, "result": found.result}

@@ -11,8 +11,9 @@ import ipaddress
 import secrets
 import threading
 import time
-from collections.abc import Awaitable, Callable, MutableMapping
-from typing import Any
+from collections.abc import MutableMapping
+
+from starlette.types import ASGIApp, Message, Receive, Scope, Send
 
 from ..errors import InputError, Problem
 
@@ -25,11 +26,6 @@ REMOTE_CAUTION = (
     "caution: the desk listens beyond this machine. Put it behind TLS (a reverse proxy with a certificate) "
     "and on a trusted network only: passwords and records travel in the clear otherwise."
 )
-
-Scope = MutableMapping[str, Any]
-Message = MutableMapping[str, Any]
-Receive = Callable[[], Awaitable[Message]]
-Send = Callable[[Message], Awaitable[None]]
 
 
 def bind_caution(host: str, allow_remote: bool) -> str | None:
@@ -60,7 +56,7 @@ def bind_caution(host: str, allow_remote: bool) -> str | None:
     return REMOTE_CAUTION
 
 
-def csrf_token(session: MutableMapping[str, Any]) -> str:
+def csrf_token(session: MutableMapping[str, object]) -> str:
     """The session's CSRF token (made on first use)."""
     token = session.get("csrf")
     if not isinstance(token, str):
@@ -69,7 +65,7 @@ def csrf_token(session: MutableMapping[str, Any]) -> str:
     return token
 
 
-def csrf_ok(session: MutableMapping[str, Any], sent: Any) -> bool:
+def csrf_ok(session: MutableMapping[str, object], sent: object) -> bool:
     """Whether a form carried the session's CSRF token (compared in constant time)."""
     token = session.get("csrf")
     return isinstance(token, str) and isinstance(sent, str) and hmac.compare_digest(token.encode(), sent.encode())
@@ -119,7 +115,7 @@ class SignInThrottle:
 class BodyLimit:
     """ASGI middleware: a request body above ``limit`` bytes is answered 413 and never reaches a route."""
 
-    def __init__(self, app: Callable[[Scope, Receive, Send], Awaitable[None]], limit: int = MAX_BODY_BYTES):
+    def __init__(self, app: ASGIApp, limit: int = MAX_BODY_BYTES):
         self.app, self.limit = app, limit
 
     async def __call__(self, scope: Scope, receive: Receive, send: Send) -> None:
