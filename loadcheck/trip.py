@@ -260,7 +260,7 @@ def _why_not(aircraft: Aircraft, trip: ResolvedTrip) -> str:
     try:
         found = check_trip(aircraft, trip, samples=False)
     except LoadcheckError as error:
-        return "; ".join(p.message for p in error.problems)
+        return "; ".join(p.describe() for p in error.problems)
     return "with this load and these legs: " + (_first_limit(found) or "no amount is within limits")
 
 
