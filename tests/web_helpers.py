@@ -7,6 +7,8 @@ import shutil
 from pathlib import Path
 from typing import TYPE_CHECKING, Any
 
+from .helpers import TRIP_AIRCRAFT
+
 if TYPE_CHECKING:
     from fastapi.testclient import TestClient
 
@@ -15,66 +17,18 @@ SAMPLES = ROOT / "sample_aircraft"
 PASSWORD = "a long test pass phrase"
 ACCOUNTS = {"pia": ["pilot"], "pat": ["pilot"], "dan": ["dispatcher"], "mo": ["mechanic"]}
 
-__all__ = ["ACCOUNTS", "PASSWORD", "SAMPLES", "TRIP_AIRCRAFT", "TRIP_LEG_2_AFT", "csrf_of", "make_desk", "sign_in"]
+__all__ = [
+    "ACCOUNTS",
+    "PASSWORD",
+    "SAMPLES",
+    "TRIP_AIRCRAFT",
+    "TRIP_LEG_2_AFT",
+    "copy_desk",
+    "csrf_of",
+    "make_desk",
+    "sign_in",
+]
 
-
-# A test aircraft of our own (invented; not a sample, not a real type) for the trip tests: a
-# rectangular envelope from 35 to 43 in, front seats well ahead of the empty CG, baggage far
-# aft. With two up front, 100 lb of bags and full fuel the first leg is inside; when one
-# front occupant gets off at the stop the CG moves aft past 43 in (the figures are the
-# library's: the tests compare the desk's pages with check_trip, never with numbers of their own).
-TRIP_AIRCRAFT = """\
-format = 1
-name = "Trip test aircraft (invented for the desk's tests)"
-registration = "TEST-TRIP"
-
-[units]
-mass = "lb"
-arm = "in"
-fuel_volume = "usgal"
-
-[empty]
-weight = 1000.0
-arm = 40.0
-date = 2026-11-01
-
-[limits]
-max_takeoff_weight = 1800
-
-[[station]]
-id = "front"
-label = "Front seats"
-kind = "seat"
-arm = 30.0
-max_weight = 400
-
-[[station]]
-id = "rear"
-label = "Rear seats"
-kind = "seat"
-arm = 70.0
-max_weight = 400
-
-[[station]]
-id = "bags"
-label = "Baggage"
-kind = "baggage"
-arm = 100.0
-max_weight = 100
-
-[[tank]]
-id = "main"
-label = "Main tank"
-arm = 45.0
-usable = 40.0
-fuel = "avgas"
-levels = { local = 25.0 }
-
-[[envelope]]
-category = "normal"
-axes = ["arm", "weight"]
-points = [[35, 900], [35, 1800], [43, 1800], [43, 900]]
-"""
 
 # The check form's fields of a two-leg trip of TRIP_AIRCRAFT whose second leg alone is aft of the envelope.
 TRIP_LEG_2_AFT = {
@@ -108,6 +62,15 @@ def make_desk(tmp: Path) -> tuple[Path, Path, Path]:
     for name, roles in ACCOUNTS.items():
         store.add(name, PASSWORD, roles)
     return fleet, tmp / "records.sqlite3", users
+
+
+def copy_desk(files: tuple[Path, Path, Path], root: Path) -> tuple[Path, Path, Path]:
+    """A copy under ``root`` of the desk's files that :func:`make_desk` made (the accounts'
+    hashes made once, not per test): the fleet folder, a check log path and the accounts file."""
+    fleet, db, users = files
+    shutil.copytree(fleet, root / "fleet")
+    shutil.copy2(users, root / users.name)
+    return root / "fleet", root / db.name, root / users.name
 
 
 def csrf_of(html: str) -> str:
