@@ -18,66 +18,6 @@ from loadcheck.files import parse_aircraft, read_toml
 
 SAMPLES = Path(__file__).resolve().parent.parent / "sample_aircraft"
 
-# The trip test aircraft (invented; not a sample, not a real type), the one of every trip test
-# (tests/test_trip.py, the desk's tests in tests/test_web_*.py, the load sheet's): empty
-# 1,000 lb at 40 in, front seats at 30 in well ahead of the empty CG, rear seats at 70 in,
-# baggage far aft at 100 in, one tank at 45 in; a rectangular envelope from 35 to 43 in,
-# 900 to 1,800 lb. A leg is inside with the front seats loaded, and moves aft past 43 in when
-# a front occupant gets off or the rear seats fill (tests/test_trip.py works a trip by hand;
-# the desk's tests compare its pages with check_trip, never with numbers of their own).
-TRIP_AIRCRAFT = """\
-format = 1
-name = "Trip test aircraft (invented for the desk's tests)"
-registration = "TEST-TRIP"
-
-[units]
-mass = "lb"
-arm = "in"
-fuel_volume = "usgal"
-
-[empty]
-weight = 1000.0
-arm = 40.0
-date = 2026-11-01
-
-[limits]
-max_takeoff_weight = 1800
-
-[[station]]
-id = "front"
-label = "Front seats"
-kind = "seat"
-arm = 30.0
-max_weight = 400
-
-[[station]]
-id = "rear"
-label = "Rear seats"
-kind = "seat"
-arm = 70.0
-max_weight = 400
-
-[[station]]
-id = "bags"
-label = "Baggage"
-kind = "baggage"
-arm = 100.0
-max_weight = 100
-
-[[tank]]
-id = "main"
-label = "Main tank"
-arm = 45.0
-usable = 40.0
-fuel = "avgas"
-levels = { local = 25.0 }
-
-[[envelope]]
-category = "normal"
-axes = ["arm", "weight"]
-points = [[35, 900], [35, 1800], [43, 1800], [43, 900]]
-"""
-
 
 def sample(name: str) -> Path:
     """Path of a file under sample_aircraft/."""

@@ -35,6 +35,3 @@ def test_plan_commands_for_a_trip(runner):
     data = json.loads(stop.output)
     assert stop.exit_code == 0 and data["feasible"] and data["trip"]["ok"] and len(data["trip"]["legs"]) == 2
     assert runner.invoke(app, ["plan", "stop", path, "--leg", "3"]).exit_code == 2
-
-
-# -- the fleet CSV: a trip id groups rows into one trip --------------------------------------

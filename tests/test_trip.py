@@ -31,7 +31,7 @@ from loadcheck.files import parse_aircraft
 from loadcheck.loading import Loading
 from loadcheck.trip import check_trip, fuel_to_add, trip_most_fuel
 
-from .helpers import TRIP_AIRCRAFT, examples, sample, simple_aircraft
+from .helpers import examples, sample, simple_aircraft
 
 # FAA-H-8083-1B (2016) ch. 8 p. 8-3: arms and weights as published; fuel 48 gal weighing
 # 288 lb, i.e. 6.0 lb/gal (avgas). Maximum gross weight 2,250 lb (published). Usable fuel
@@ -345,6 +345,8 @@ def test_the_sample_trip_is_within_limits_on_every_leg(runner, tmp_path):
     assert "WITHIN LIMITS on every leg" in html and "id='leg-2'" in html and html.count("CAUTION") == 1
 
 
+# -- the fleet CSV: a trip id groups rows into one trip --------------------------------------
+
 TRIP_CSV = """registration,reference,trip_id,left,right,bag_left,main,taxi,trip,reserve,label
 DEMO-H2,T1,A,170,185,15,full,0.5,11,4,field site and back
 DEMO-H2,,A,0,,0,5,0.5,12,4,"back to base, solo"
@@ -408,25 +410,59 @@ def test_a_trip_is_recorded_as_one_record_and_plots_every_leg(runner, tmp_path):
 
 # -- trips through the dispatcher's and the recording jobs (issue 16) --------------------------
 #
-# The trip test aircraft of every trip test (tests/helpers.py, TRIP_AIRCRAFT: lb, in, US gal),
-# written into tmp_path, so that the figures below can be worked by hand with the moment
-# method of FAA-H-8083-1B (2016) ch. 2 (moment = weight x arm; CG = total moment / total
-# weight). It is INVENTED: empty 1,000 lb at 40 in; front seats 30 in, rear seats 70 in (each
-# at most 400 lb), baggage 100 in; one tank at 45 in, 40 US gal of avgas at 6.0 lb/US gal
-# (common practice, ASTM D910 grade density as the trade uses it); maximum takeoff weight
-# 1,800 lb; CG 35 to 43 in from 900 to 1,800 lb.
+# A test aircraft of our own (lb, in, US gal), written into tmp_path, so that the figures
+# below can be worked by hand with the moment method of FAA-H-8083-1B (2016) ch. 2
+# (moment = weight x arm; CG = total moment / total weight). Its limits are INVENTED:
+# empty 1,000 lb at 80 in; front seats 70 in, rear seats 110 in (each at most 400 lb); one
+# tank at 90 in, 40 US gal of avgas at 6.0 lb/US gal (common practice, ASTM D910 grade
+# density as the trade uses it); maximum takeoff weight 1,800 lb; CG 74 to 86 in from
+# 1,000 to 1,800 lb.
 #
 # Trip "A": leg 1, the pilot (180 lb front), 30 gal, taxi 1, trip 10: ramp 1,360 lb,
-# 40,000 + 5,400 + 8,100 = 53,500 lb-in, CG 39.34 in (within); it lands with 19 gal. Leg 2:
-# two passengers board the rear seats (400 lb), no fuel put in, taxi 1, trip 10: ramp
-# 1,000 + 180 + 400 + 114 = 1,694 lb, 40,000 + 5,400 + 28,000 + 5,130 = 78,530 lb-in, CG
-# 46.36 in (aft of 43); takeoff 1,688 lb, 78,260 lb-in, 46.36 in; landing (8 gal, 48 lb)
-# 1,628 lb, 75,560 lb-in, 46.41 in: leg 2 alone is out of limits, aft, at every condition.
+# 108,800 lb-in, CG 80.00 in (within); it lands with 19 gal. Leg 2: two passengers board
+# the rear seats (400 lb), no fuel put in, taxi 1, trip 10: ramp 1,000 + 180 + 400 + 114 =
+# 1,694 lb, 80,000 + 12,600 + 44,000 + 10,260 = 146,860 lb-in, CG 86.69 in (aft of 86);
+# takeoff 1,688 lb, 146,320 lb-in, 86.68 in; landing (8 gal, 48 lb) 1,628 lb, 140,920 lb-in,
+# 86.56 in: leg 2 alone is out of limits, aft, at every condition.
+
+TRIP_AIRCRAFT = """format = 1
+name = "Trip test box (invented)"
+registration = "TEST-T"
+[units]
+mass = "lb"
+arm = "in"
+fuel_volume = "usgal"
+[empty]
+weight = 1000.0
+arm = 80.0
+date = 2026-11-01
+[limits]
+max_takeoff_weight = 1800
+[[station]]
+id = "front"
+kind = "seat"
+arm = 70.0
+max_weight = 400
+[[station]]
+id = "rear"
+kind = "seat"
+arm = 110.0
+max_weight = 400
+[[tank]]
+id = "main"
+arm = 90.0
+usable = 40.0
+fuel = "avgas"
+[[envelope]]
+category = "normal"
+axes = ["arm", "weight"]
+points = [[74.0, 1000], [74.0, 1800], [86.0, 1800], [86.0, 1000]]
+"""
 
 TRIP_DAY = """registration,reference,trip_id,leg,front,rear,main,taxi,trip
-TEST-TRIP,F1,A,1,180,0,30,1,10
-TEST-TRIP,,A,2,,400,,1,10
-TEST-TRIP,F2,,,180,0,20,1,5
+TEST-T,F1,A,1,180,0,30,1,10
+TEST-T,,A,2,,400,,1,10
+TEST-T,F2,,,180,0,20,1,5
 """
 
 TRIP_LOADING = """format = 1
@@ -461,10 +497,10 @@ def test_the_hand_worked_trip_of_the_test_aircraft(tmp_path):
     one, two = result.legs
     assert one.check.ok and not two.check.ok and not result.ok
     assert one.check.condition("ramp").weight == pytest.approx(1360.0)
-    assert one.check.condition("ramp").arm == pytest.approx(53500 / 1360)
-    assert two.check.condition("ramp").arm == pytest.approx(78530 / 1694)
-    assert two.check.condition("takeoff").arm == pytest.approx(78260 / 1688)
+    assert one.check.condition("ramp").arm == pytest.approx(108800 / 1360)
+    assert two.check.condition("ramp").arm == pytest.approx(146860 / 1694)
+    assert two.check.condition("takeoff").arm == pytest.approx(146320 / 1688)
     assert two.check.condition("landing").weight == pytest.approx(1628.0)
-    assert two.check.condition("landing").arm == pytest.approx(75560 / 1628)
+    assert two.check.condition("landing").arm == pytest.approx(140920 / 1628)
     assert {f.condition for f in result.limits_exceeded} >= {"ramp", "takeoff", "landing"}
     assert all(f.leg == 2 for f in result.limits_exceeded)

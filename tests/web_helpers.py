@@ -7,8 +7,6 @@ import shutil
 from pathlib import Path
 from typing import TYPE_CHECKING, Any
 
-from .helpers import TRIP_AIRCRAFT
-
 if TYPE_CHECKING:
     from fastapi.testclient import TestClient
 
@@ -29,6 +27,64 @@ __all__ = [
     "sign_in",
 ]
 
+
+# A test aircraft of our own (invented; not a sample, not a real type) for the trip tests: a
+# rectangular envelope from 35 to 43 in, front seats well ahead of the empty CG, baggage far
+# aft. With two up front, 100 lb of bags and full fuel the first leg is inside; when one
+# front occupant gets off at the stop the CG moves aft past 43 in (the figures are the
+# library's: the tests compare the desk's pages with check_trip, never with numbers of their own).
+TRIP_AIRCRAFT = """\
+format = 1
+name = "Trip test aircraft (invented for the desk's tests)"
+registration = "TEST-TRIP"
+
+[units]
+mass = "lb"
+arm = "in"
+fuel_volume = "usgal"
+
+[empty]
+weight = 1000.0
+arm = 40.0
+date = 2026-11-01
+
+[limits]
+max_takeoff_weight = 1800
+
+[[station]]
+id = "front"
+label = "Front seats"
+kind = "seat"
+arm = 30.0
+max_weight = 400
+
+[[station]]
+id = "rear"
+label = "Rear seats"
+kind = "seat"
+arm = 70.0
+max_weight = 400
+
+[[station]]
+id = "bags"
+label = "Baggage"
+kind = "baggage"
+arm = 100.0
+max_weight = 100
+
+[[tank]]
+id = "main"
+label = "Main tank"
+arm = 45.0
+usable = 40.0
+fuel = "avgas"
+levels = { local = 25.0 }
+
+[[envelope]]
+category = "normal"
+axes = ["arm", "weight"]
+points = [[35, 900], [35, 1800], [43, 1800], [43, 900]]
+"""
 
 # The check form's fields of a two-leg trip of TRIP_AIRCRAFT whose second leg alone is aft of the envelope.
 TRIP_LEG_2_AFT = {
