@@ -22,7 +22,14 @@ import pytest
 import loadcheck.files as files_module
 from loadcheck import load_aircraft
 from loadcheck.cli import app
-from loadcheck.empty_record import NOTE_CHARS, NotConfirmedError, OverrideNeededError, make_current, propose
+from loadcheck.empty_record import (
+    HISTORY_INPUTS_BYTES,
+    NOTE_CHARS,
+    NotConfirmedError,
+    OverrideNeededError,
+    make_current,
+    propose,
+)
 from loadcheck.files import MAX_FILE_BYTES, read_text
 
 from .helpers import app_runner, cell, record_sheet, sample
@@ -155,12 +162,13 @@ def test_a_long_note_does_not_make_the_aircraft_file_unreadable(runner, tmp_path
 
 def test_a_huge_readings_file_is_kept_as_its_digest(tmp_path):
     path = _trainer(tmp_path)
-    points = "".join(f"[[point]]\nlabel = 'scale {i} {'y' * 40}'\narm = 40.0\nreading = 0.1\n" for i in range(2000))
+    count = HISTORY_INPUTS_BYTES // 25  # points of about 100 bytes each: four times the bound the history keeps
+    points = "".join(f"[[point]]\nlabel = 'scale {i} {'y' * 40}'\narm = 40.0\nreading = 0.1\n" for i in range(count))
     huge = tmp_path / "huge.toml"
     huge.write_text((tmp_path / "weighing.toml").read_text() + points)
     assert _weigh(path, huge, "--write", "--yes", "--force").exit_code == 0
     (entry,) = load_aircraft(path).history
-    assert "abridged" in entry.inputs and entry.inputs["point_count"] == 2003 and len(entry.inputs["sha256"]) == 64
+    assert "abridged" in entry.inputs and entry.inputs["point_count"] == count + 3 and len(entry.inputs["sha256"]) == 64
     assert path.stat().st_size < 64 * 1024
 
 
