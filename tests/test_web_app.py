@@ -651,9 +651,9 @@ def test_a_trip_whose_leg_2_fails_says_so_first_and_shows_every_leg(reading_desk
 
 
 def test_a_bad_value_in_a_leg_names_the_leg_and_field_keeps_everything_and_records_nothing(
-    reading_desk: dict[str, Any],
+    desk: dict[str, Any],
 ) -> None:
-    client = _client(reading_desk, "pia")
+    client = _client(desk, "pia")
     for key, bad in (("leg.2.burn.taxi", "1 furlong"), ("leg.2.fuel.main", "brimming"), ("leg.2.load.front", "-5")):
         response = _post_check(client, {**TRIP_LEG_2_AFT, key: bad}, "TEST-TRIP", route="record")
         assert response.status_code == 422, key
@@ -665,7 +665,7 @@ def test_a_bad_value_in_a_leg_names_the_leg_and_field_keeps_everything_and_recor
         assert (
             f'value="{escape_value(bad)}"' in page and 'value="back solo"' in page and 'name="legs" value="2"' in page
         )
-    assert _records(reading_desk) == []
+    assert _records(desk) == []
 
 
 def escape_value(text: str) -> str:
@@ -848,8 +848,8 @@ def test_api_names_go_into_the_record_and_a_bad_one_is_refused(desk: dict[str, A
     assert len(_records(desk)) == 1
 
 
-def test_api_bad_leg_names_the_leg_and_records_nothing(reading_desk: dict[str, Any]) -> None:
-    client = _client(reading_desk, "pia")
+def test_api_bad_leg_names_the_leg_and_records_nothing(desk: dict[str, Any]) -> None:
+    client = _client(desk, "pia")
     body = {
         "registration": "TEST-TRIP",
         "load": {"front": 340},
@@ -868,7 +868,7 @@ def test_api_bad_leg_names_the_leg_and_records_nothing(reading_desk: dict[str, A
     assert (
         client.post("/api/plan/stop", json={**body, "leg": [], "stop": 2}).status_code == 422
     )  # no stop without a leg
-    assert _records(reading_desk) == []
+    assert _records(desk) == []
 
 
 def test_names_typed_on_the_form_show_beside_the_seat_and_go_into_the_record(desk: dict[str, Any]) -> None:
@@ -890,8 +890,8 @@ def test_names_typed_on_the_form_show_beside_the_seat_and_go_into_the_record(des
     assert inputs["names"] == {"front": "Alex <i>R</i>"} and inputs["leg"][0]["names"] == {"front": "Kim"}
 
 
-def test_a_bad_name_brings_the_form_back_with_the_field_named(reading_desk: dict[str, Any]) -> None:
-    client = _client(reading_desk, "pia")
+def test_a_bad_name_brings_the_form_back_with_the_field_named(desk: dict[str, Any]) -> None:
+    client = _client(desk, "pia")
     for key, field in (("names.rear", "names.rear"), ("leg.2.names.rear", "leg 2, names.rear")):
         response = _post_check(
             client, {**TRIP_LEG_2_AFT, key: "Sam"}, "TEST-TRIP", route="record"
@@ -901,7 +901,7 @@ def test_a_bad_name_brings_the_form_back_with_the_field_named(reading_desk: dict
         )
         assert re.search(rf'class="field name bad">\s*<label for="{re.escape(key)}"', response.text), key
         assert f'name="{key}" value="Sam"' in response.text
-    assert _records(reading_desk) == []
+    assert _records(desk) == []
 
 
 # -- the JSON API --------------------------------------------------------------------------------
