@@ -14,6 +14,7 @@ tries them first. DEVELOPERS.md, "Set up and test".
 
 from __future__ import annotations
 
+from collections.abc import Iterator
 from pathlib import Path
 from typing import Any
 
@@ -102,13 +103,56 @@ def oracle_cases(request: pytest.FixtureRequest) -> int:
     return ORACLE_CASES["long" if request.config.getoption("--long") else "short"]
 
 
-@pytest.fixture()
-def desk(tmp_path: Path) -> dict[str, Any]:
-    """A desk over a copy of the sample fleet (tests/web_helpers.make_desk): its app, fleet, database, accounts."""
-    from loadcheck.web import create_app
+@pytest.fixture(scope="session")
+def ureg() -> Any:
+    """pint's unit registry, built once (about a second each time: not at import, not per test)."""
+    import pint
 
+    return pint.UnitRegistry()
+
+
+@pytest.fixture(scope="session")
+def desk_files(tmp_path_factory: pytest.TempPathFactory) -> tuple[Path, Path, Path]:
+    """The desk's files made once (tests/web_helpers.make_desk: the fleet, where the check log
+    goes, the accounts with their hashes): each desk starts from a copy of them."""
     from .web_helpers import make_desk
 
-    fleet, db, users = make_desk(tmp_path)
+    return make_desk(tmp_path_factory.mktemp("desk-files"))
+
+
+def _desk_over(files: tuple[Path, Path, Path], root: Path) -> dict[str, Any]:
+    from loadcheck.web import create_app
+
+    from .web_helpers import copy_desk
+
+    fleet, db, users = copy_desk(files, root)
     app = create_app(fleet, db=db, users=users, secret="test secret")
     return {"app": app, "fleet": fleet, "db": db, "users": users}
+
+
+@pytest.fixture()
+def desk(tmp_path: Path, desk_files: tuple[Path, Path, Path]) -> dict[str, Any]:
+    """A desk of the test's own over a copy of the sample fleet (tests/web_helpers.make_desk): its
+    app, fleet, database, accounts. For a test that records, writes a file or signs in wrongly."""
+    return _desk_over(desk_files, tmp_path)
+
+
+@pytest.fixture(scope="session")
+def _shared_desk(tmp_path_factory: pytest.TempPathFactory, desk_files: tuple[Path, Path, Path]) -> dict[str, Any]:
+    return _desk_over(desk_files, tmp_path_factory.mktemp("shared-desk"))
+
+
+@pytest.fixture()
+def reading_desk(_shared_desk: dict[str, Any]) -> Iterator[dict[str, Any]]:
+    """The one desk of the session shared by the tests that only read (pages, checks, plans,
+    refusals): the same keys as ``desk``, built once. A test on it that records a check,
+    changes a file of the fleet or the accounts fails here after it: use ``desk`` for those."""
+    before = _files_state(_shared_desk)
+    yield _shared_desk
+    assert not _shared_desk["db"].exists(), "a test on reading_desk recorded a check: give it the desk fixture"
+    assert _files_state(_shared_desk) == before, "a test on reading_desk changed a file: give it the desk fixture"
+
+
+def _files_state(desk: dict[str, Any]) -> list[tuple[str, int, int]]:
+    paths = [*sorted(desk["fleet"].rglob("*")), desk["users"]]
+    return [(str(p), (info := p.stat()).st_size, info.st_mtime_ns) for p in paths if p.is_file()]

@@ -114,6 +114,39 @@ def app_runner() -> AppRunner:
     return AppRunner()
 
 
+def invoke(*args: str, **kwargs: Any) -> Result:
+    """``loadcheck ARGS...`` through the session's :class:`AppRunner`."""
+    from loadcheck.cli import app
+
+    return app_runner().invoke(app, list(args), **kwargs)
+
+
+def write_file(folder: Path, text: str | bytes, name: str = "aircraft.toml") -> str:
+    """Write ``text`` (or bytes) as ``folder/name``; return the path as a command-line argument."""
+    path = folder / name
+    if isinstance(text, bytes):
+        path.write_bytes(text)
+    else:
+        path.write_text(text)
+    return str(path)
+
+
+def assert_input_error(result: Result, *words: str) -> None:
+    """The command refused its input (exit 2) without a traceback, its message holding each of ``words``."""
+    assert result.exit_code == 2, result.output
+    assert "Traceback" not in result.output
+    for word in words:
+        assert word in result.output, result.output
+
+
+def logged_checks(db: Path) -> int:
+    """How many checks the check log ``db`` holds."""
+    from loadcheck.checklog import CheckLog
+
+    with CheckLog(db) as log:
+        return len(list(log.listing()))
+
+
 def checked_sample(name: str) -> tuple[Any, Any]:
     """A sample loading file's inputs (``load_check_inputs``) and its ``check_loading`` result."""
     from loadcheck import check_loading, load_check_inputs

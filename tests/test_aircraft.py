@@ -41,12 +41,6 @@ def test_unknown_unit_lists_choices():
     assert "units.mass" in text and "'lb' or 'kg'" in text and "stone" in text
 
 
-def test_misspelt_field_is_an_error_not_ignored():
-    data = sample_data("trainer4/aircraft.toml")
-    data["station"][0]["max_wieght"] = 400
-    assert "station[0].max_wieght" in _problems(data)
-
-
 @pytest.mark.parametrize("value", [-5, float("nan"), float("inf")])
 def test_negative_or_nan_station_limit(value):
     data = sample_data("trainer4/aircraft.toml")

@@ -2,7 +2,6 @@
 
 from __future__ import annotations
 
-import pint
 import pytest
 
 from loadcheck.fuel import (
@@ -13,8 +12,6 @@ from loadcheck.fuel import (
     density_range,
 )
 
-ureg = pint.UnitRegistry()
-
 
 def test_defaults_are_the_trade_values():
     # common practice: avgas 6.0 lb/US gal, jet fuel 6.7 lb/US gal (DESIGN.md)
@@ -22,23 +19,23 @@ def test_defaults_are_the_trade_values():
     assert FUEL_DENSITY_LB_PER_USGAL["jet"] == 6.7
 
 
-def _kg_per_m3(grade: str) -> float:
+def _kg_per_m3(ureg, grade: str) -> float:
     value = ureg.Quantity(FUEL_DENSITY_LB_PER_USGAL[grade], "pound / gallon")
     return float(value.to("kilogram / meter ** 3").magnitude)
 
 
-def test_jet_default_inside_astm_d1655_range():
+def test_jet_default_inside_astm_d1655_range(ureg):
     # ASTM D1655 (Jet A / Jet A-1): density at 15 degC 775 to 840 kg/m^3 (from memory)
-    assert 775.0 <= _kg_per_m3("jet") <= 840.0
+    assert 775.0 <= _kg_per_m3(ureg, "jet") <= 840.0
 
 
-def test_avgas_default_is_typical_avgas():
+def test_avgas_default_is_typical_avgas(ureg):
     # avgas (ASTM D910) is about 690-720 kg/m^3 at 15 degC (from memory; D910 sets no density limit)
-    assert 690.0 <= _kg_per_m3("avgas") <= 725.0
+    assert 690.0 <= _kg_per_m3(ureg, "avgas") <= 725.0
 
 
 @pytest.mark.parametrize("mass, volume", [("lb", "usgal"), ("kg", "l"), ("kg", "impgal"), ("lb", "l")])
-def test_default_density_in_any_units_agrees_with_pint(mass, volume):
+def test_default_density_in_any_units_agrees_with_pint(ureg, mass, volume):
     names = {"lb": "pound", "kg": "kilogram", "usgal": "gallon", "l": "liter", "impgal": "imperial_gallon"}
     expected = ureg.Quantity(6.0, "pound / gallon").to(f"{names[mass]} / {names[volume]}").magnitude
     assert default_density("avgas", mass, volume) == pytest.approx(expected, rel=1e-12)
@@ -47,7 +44,7 @@ def test_default_density_in_any_units_agrees_with_pint(mass, volume):
 @pytest.mark.parametrize(
     "mass, volume", [("lb", "usgal"), ("kg", "l"), ("kg", "impgal"), ("lb", "l"), ("lb", "impgal"), ("kg", "usgal")]
 )
-def test_the_plausible_density_range_in_any_units_agrees_with_pint(mass, volume):
+def test_the_plausible_density_range_in_any_units_agrees_with_pint(ureg, mass, volume):
     names = {"lb": "pound", "kg": "kilogram", "usgal": "gallon", "l": "liter", "impgal": "imperial_gallon"}
     low, high = density_range(mass, volume)
     for got, kg_per_l in ((low, DENSITY_RANGE_KG_PER_L[0]), (high, DENSITY_RANGE_KG_PER_L[1])):

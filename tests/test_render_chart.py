@@ -3,9 +3,11 @@ back from the SVG (never overlapping, never clipped)."""
 
 from __future__ import annotations
 
+import functools
 import re
 import xml.etree.ElementTree as ET
 from pathlib import Path
+from typing import Any
 
 import pytest
 
@@ -46,13 +48,21 @@ def _marker_positions(svg_text: str) -> dict[str, tuple[float, float]]:
     return found
 
 
-@pytest.mark.parametrize("name", ["twin6/leaves_path.toml", "trainer4/within.toml", "heli2/solo_heavy_right.toml"])
-def test_svg_points_sit_at_the_computed_coordinates(tmp_path, name):
+@functools.cache
+def _drawn(name: str) -> tuple[Any, Any, Any, str]:
+    """A sample loading's inputs, check result, chart and the chart's SVG: drawn once for every
+    test that reads it (the SVG is made before any test touches the figure)."""
+    from loadcheck.render.chart import figure_svg
+
     inputs, result = _inputs(name)
     figure = check_figure(inputs.aircraft, result, inputs.label)
-    path = tmp_path / "chart.svg"
-    save_figure(figure, path)
-    positions = _marker_positions(path.read_text())
+    return inputs, result, figure, figure_svg(figure)
+
+
+@pytest.mark.parametrize("name", ["twin6/leaves_path.toml", "trainer4/within.toml", "heli2/solo_heavy_right.toml"])
+def test_svg_points_sit_at_the_computed_coordinates(name):
+    inputs, result, figure, svg = _drawn(name)
+    positions = _marker_positions(svg)
     figure.set_dpi(72)  # the SVG backend draws at 72 dpi
     ax = figure.axes[0]
     envelope = inputs.aircraft.envelopes_for(result.category)[0]
@@ -228,12 +238,8 @@ CHART_SAMPLES = [
 
 @pytest.mark.parametrize("name", CHART_SAMPLES)
 def test_chart_text_never_overlaps_or_is_clipped_and_every_marker_shows(name):
-    from loadcheck.render.chart import figure_svg
-
-    inputs, result = _inputs(name)
-    texts, markers, (width, height), frames = _svg_layout(
-        figure_svg(check_figure(inputs.aircraft, result, inputs.label))
-    )
+    inputs, result, _, svg = _drawn(name)
+    texts, markers, (width, height), frames = _svg_layout(svg)
     assert len(frames) == len({e.axes for e in inputs.aircraft.envelopes_for(result.category)})
     page = (0.0, 0.0, width, height)
     for gid, box in texts.items():
@@ -276,8 +282,7 @@ def test_svg_reader_sees_an_overlap_when_there_is_one():
 
 
 def test_chart_title_names_the_registration_once_without_doubled_brackets():
-    inputs, result = _inputs("twin6/leaves_path.toml")
-    title = check_figure(inputs.aircraft, result, inputs.label).get_suptitle()
+    title = _drawn("twin6/leaves_path.toml")[2].get_suptitle()
     assert "DEMO-6P" in title and ") (" not in title
 
 

@@ -7,15 +7,11 @@ Sources named beside each check:
 
 from __future__ import annotations
 
-import json
-
 import numpy as np
 import pytest
 
 from loadcheck import load_aircraft
-from loadcheck.caution import MECHANIC_CAUTION
 from loadcheck.check import check_loading
-from loadcheck.cli import app
 from loadcheck.loading import BurnPlan, ResolvedLoading
 from loadcheck.schedule import loading_schedule
 
@@ -148,14 +144,3 @@ def test_schedule_answers_are_within_limits_and_maximal():
         plan = BurnPlan(full_fuel.fuel, None)
         trial = ResolvedLoading("normal", load, full_fuel.fuel, density, 0.0, plan.burnable, None, plan)
         assert not check_loading(aircraft, trial).ok
-
-
-def test_schedule_command_verdict_json_and_caution(runner):
-    out = runner.invoke(app, ["schedule", str(sample("twin6/aircraft.toml")), "--json"])
-    data = json.loads(out.stdout)
-    assert out.exit_code == (0 if data["ok"] else 1)
-    assert data["ok"] == all(case["ok"] and case["check"]["ok"] for case in data["cases"])
-    assert data["caution"] == MECHANIC_CAUTION and all(c["check"]["caution"] == MECHANIC_CAUTION for c in data["cases"])
-    text = runner.invoke(app, ["schedule", str(sample("twin6/aircraft.toml"))])
-    assert "With full fuel" in text.output and "fuel states checked" in text.output
-    assert text.exit_code == out.exit_code

@@ -163,21 +163,6 @@ def test_two_legs_the_second_alone_fails_aft_and_right():
     assert alone.to_dict() == second.to_dict()
 
 
-def test_the_trip_exits_1_naming_leg_2(runner, tmp_path):
-    path = _write_files(tmp_path)
-    shown = runner.invoke(app, ["check", str(path)])
-    assert shown.exit_code == 1, shown.output
-    assert "OUT OF LIMITS on leg 2 (solo)" in shown.output and "Leg 1: within limits" in shown.output
-    assert "leg 2 (solo): " in shown.output
-    assert shown.output.rstrip().endswith("decides whether to fly.")
-    data = json.loads(runner.invoke(app, ["check", str(path), "--json"]).output)
-    assert data["ok"] is False and [leg["ok"] for leg in data["legs"]] == [True, False]
-    assert data["legs"][1]["leg"] == 2 and data["legs"][1]["label"] == "solo"
-    assert {"conditions", "burn_path", "findings", "items", "units", "caution"} <= set(data["legs"][0])
-    assert {f["leg"] for f in data["findings"] if f["severity"] == "limit"} == {2}
-    assert data["caution"] and data["units"]["mass"] == "lb"
-
-
 def test_the_command_line_takes_legs(runner, tmp_path):
     path = _write_files(tmp_path, LOADING_FILE.split("[[leg]]")[0])
     same = runner.invoke(
@@ -358,16 +343,6 @@ def test_the_sample_trip_is_within_limits_on_every_leg(runner, tmp_path):
     assert 'id="leg-1-burn-path"' in svg and 'id="leg-2-burn-path"' in svg
     html = (tmp_path / "t.html").read_text()
     assert "WITHIN LIMITS on every leg" in html and "id='leg-2'" in html and html.count("CAUTION") == 1
-
-
-def test_plan_commands_for_a_trip(runner):
-    path = str(sample("heli2/trip_drop_off.toml"))
-    fuel = runner.invoke(app, ["plan", "fuel", path])
-    assert fuel.exit_code == 0 and "every leg" in fuel.output, fuel.output
-    stop = runner.invoke(app, ["plan", "stop", path, "--leg", "2", "--json"])
-    data = json.loads(stop.output)
-    assert stop.exit_code == 0 and data["feasible"] and data["trip"]["ok"] and len(data["trip"]["legs"]) == 2
-    assert runner.invoke(app, ["plan", "stop", path, "--leg", "3"]).exit_code == 2
 
 
 # -- the fleet CSV: a trip id groups rows into one trip --------------------------------------

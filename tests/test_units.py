@@ -6,7 +6,6 @@ from __future__ import annotations
 
 import math
 
-import pint
 import pytest
 from hypothesis import given
 from hypothesis import strategies as st
@@ -26,7 +25,6 @@ from loadcheck.units import (
     read_rate,
 )
 
-ureg = pint.UnitRegistry()
 PINT_NAMES = {
     "lb": "pound",
     "kg": "kilogram",
@@ -63,7 +61,7 @@ def test_constants_are_the_exact_nist_values():
         ("impgal", "usgal"),
     ],
 )
-def test_conversions_agree_with_pint(a, b):
+def test_conversions_agree_with_pint(ureg, a, b):
     expected = ureg.Quantity(123.456, PINT_NAMES[a]).to(PINT_NAMES[b]).magnitude
     assert convert(123.456, a, b) == pytest.approx(expected, rel=1e-12)
 

@@ -30,8 +30,8 @@ from .web_helpers import PASSWORD, SAMPLES, TRIP_LEG_2_AFT, WITHIN, _client, _po
 # -- signing in ----------------------------------------------------------------------------------
 
 
-def test_every_page_but_sign_in_needs_signing_in(desk: dict[str, Any]) -> None:
-    client = _client(desk)
+def test_every_page_but_sign_in_needs_signing_in(reading_desk: dict[str, Any]) -> None:
+    client = _client(reading_desk)
     assert client.get("/signin").status_code == 200
     for path in ("/", "/fleet", "/aircraft/DEMO-4T", "/records", "/records/1", "/records/export", "/mechanic/DEMO-4T"):
         response = client.get(path, follow_redirects=False)
@@ -55,29 +55,29 @@ def test_sign_in_and_out(desk: dict[str, Any]) -> None:
     assert client.get("/fleet", follow_redirects=False).status_code == 303
 
 
-def test_session_cookie_is_httponly_and_samesite(desk: dict[str, Any]) -> None:
-    response = sign_in(_client(desk), "pia")
+def test_session_cookie_is_httponly_and_samesite(reading_desk: dict[str, Any]) -> None:
+    response = sign_in(_client(reading_desk), "pia")
     cookie = response.headers["set-cookie"].lower()
     assert "httponly" in cookie and "samesite=strict" in cookie
 
 
-def test_api_takes_only_json_bodies(desk: dict[str, Any]) -> None:
+def test_api_takes_only_json_bodies(reading_desk: dict[str, Any]) -> None:
     """A cross-site form cannot post JSON: a form-encoded or text body is refused, nothing is recorded."""
-    client = _client(desk, "pia")
+    client = _client(reading_desk, "pia")
     body = json.dumps({"registration": "DEMO-4T", "load": {"front": 340}, "record": True})
     for kind in ("text/plain", "application/x-www-form-urlencoded"):
         response = client.post("/api/check", content=body, headers={"content-type": kind})
         assert response.status_code == 422, kind
-    assert _records(desk) == []
+    assert _records(reading_desk) == []
 
 
 # -- the fleet -----------------------------------------------------------------------------------
 
 
-def test_fleet_lists_every_aircraft_with_its_figures(desk: dict[str, Any]) -> None:
+def test_fleet_lists_every_aircraft_with_its_figures(reading_desk: dict[str, Any]) -> None:
     from loadcheck.files import load_aircraft
 
-    page = _client(desk, "pia").get("/fleet").text
+    page = _client(reading_desk, "pia").get("/fleet").text
     trainer = load_aircraft(SAMPLES / "trainer4" / "aircraft.toml")
     for reg in ("DEMO-4T", "DEMO-6P"):
         assert reg in page
@@ -106,19 +106,19 @@ def test_fleet_flags_an_invalid_file_and_an_undated_record(desk: dict[str, Any])
     assert str(desk["fleet"]) not in page  # no path of this machine
 
 
-def test_fleet_api_is_the_fleet_listing(desk: dict[str, Any]) -> None:
+def test_fleet_api_is_the_fleet_listing(reading_desk: dict[str, Any]) -> None:
     from loadcheck.fleet import fleet_listing, load_fleet
 
-    answer = _client(desk, "dan").get("/api/fleet").json()
-    expected = [line.to_dict() for line in fleet_listing(load_fleet(desk["fleet"]), 365)]
+    answer = _client(reading_desk, "dan").get("/api/fleet").json()
+    expected = [line.to_dict() for line in fleet_listing(load_fleet(reading_desk["fleet"]), 365)]
     assert answer == expected
 
 
 # -- the pilot: check, record, sheet, plan -------------------------------------------------------
 
 
-def test_check_form_lists_stations_tanks_and_burn(desk: dict[str, Any]) -> None:
-    page = _client(desk, "pia").get("/aircraft/DEMO-4T").text
+def test_check_form_lists_stations_tanks_and_burn(reading_desk: dict[str, Any]) -> None:
+    page = _client(reading_desk, "pia").get("/aircraft/DEMO-4T").text
     for words in (
         "Pilot and front passenger",
         "max 420.0 lb",
@@ -136,8 +136,8 @@ def test_check_form_lists_stations_tanks_and_burn(desk: dict[str, Any]) -> None:
         assert words in page, words
 
 
-def test_check_within_limits_leads_with_the_verdict_in_words(desk: dict[str, Any]) -> None:
-    response = _post_check(_client(desk, "pia"), WITHIN)
+def test_check_within_limits_leads_with_the_verdict_in_words(reading_desk: dict[str, Any]) -> None:
+    response = _post_check(_client(reading_desk, "pia"), WITHIN)
     assert response.status_code == 200
     page = response.text
     main = page[page.index("<main>") :]
@@ -156,10 +156,10 @@ def test_check_within_limits_leads_with_the_verdict_in_words(desk: dict[str, Any
     from loadcheck.display import fmt
 
     assert fmt(result.condition("takeoff").weight, "lb", with_unit=False) in page
-    assert _records(desk) == []  # checking records nothing
+    assert _records(reading_desk) == []  # checking records nothing
 
 
-def test_check_whose_burn_path_leaves_the_envelope_says_so(desk: dict[str, Any]) -> None:
+def test_check_whose_burn_path_leaves_the_envelope_says_so(reading_desk: dict[str, Any]) -> None:
     """sample twin6/leaves_path.toml: all four conditions inside, the burn path outside (the CLI's test of it)."""
     values = {
         "load.row1": "380",
@@ -173,7 +173,7 @@ def test_check_whose_burn_path_leaves_the_envelope_says_so(desk: dict[str, Any])
     }
     inputs = load_check_inputs(SAMPLES / "twin6" / "leaves_path.toml")
     expected = check_loading(inputs.aircraft, inputs.loading)
-    page = _post_check(_client(desk, "pia"), values, "DEMO-6P").text
+    page = _post_check(_client(reading_desk, "pia"), values, "DEMO-6P").text
     assert "Not within limits:" in page and "Within limits:" not in page
     assert expected.ok is False and expected.burn_path.ok is False
     from html import escape
@@ -183,19 +183,21 @@ def test_check_whose_burn_path_leaves_the_envelope_says_so(desk: dict[str, Any])
     assert escape(burn_path_summary(expected)) in page
 
 
-def test_a_bad_value_brings_the_form_back_with_the_field_named_and_nothing_recorded(desk: dict[str, Any]) -> None:
+def test_a_bad_value_brings_the_form_back_with_the_field_named_and_nothing_recorded(
+    reading_desk: dict[str, Any],
+) -> None:
     values = {**WITHIN, "load.rear": "160 stone", "burn.taxi": "1.2"}
-    response = _post_check(_client(desk, "pia"), values, route="record")
+    response = _post_check(_client(reading_desk, "pia"), values, route="record")
     assert response.status_code == 422
     page = response.text
     assert "load.rear" in page and "stone" in page
     assert 'value="160 stone"' in page and 'value="15 kg"' in page and 'value="1.2"' in page  # everything typed kept
     assert re.search(r'class="field bad">\s*<label for="load.rear"', page)
-    assert _records(desk) == []
+    assert _records(reading_desk) == []
 
 
-def test_an_unknown_level_is_refused_by_the_library(desk: dict[str, Any]) -> None:
-    page = _post_check(_client(desk, "pia"), {**WITHIN, "fuel.mains": "brimming"}).text
+def test_an_unknown_level_is_refused_by_the_library(reading_desk: dict[str, Any]) -> None:
+    page = _post_check(_client(reading_desk, "pia"), {**WITHIN, "fuel.mains": "brimming"}).text
     assert "brimming" in page and "nothing was recorded" in page
 
 
@@ -220,8 +222,8 @@ def test_record_a_check_once_with_the_pilot_and_the_same_result(desk: dict[str, 
     assert detail.status_code == 200 and "Within limits" in detail.text and record.fingerprint in detail.text
 
 
-def test_load_sheet_is_the_command_lines_sheet(desk: dict[str, Any]) -> None:
-    page = _post_check(_client(desk, "pia"), WITHIN, route="sheet").text
+def test_load_sheet_is_the_command_lines_sheet(reading_desk: dict[str, Any]) -> None:
+    page = _post_check(_client(reading_desk, "pia"), WITHIN, route="sheet").text
     assert "<svg" in page and "DEMO-4T" in page
     from html import escape
 
@@ -231,7 +233,7 @@ def test_load_sheet_is_the_command_lines_sheet(desk: dict[str, Any]) -> None:
 
 
 def test_load_sheet_has_the_fuel_plan_and_names_as_check_sheet_gives_them(
-    runner: AppRunner, desk: dict[str, Any], tmp_path: Path
+    runner: AppRunner, reading_desk: dict[str, Any], tmp_path: Path
 ) -> None:
     # regression: the desk's sheet of a single check left out the fuel plan (taxi, trip,
     # reserve, order) that check --sheet shows
@@ -239,7 +241,7 @@ def test_load_sheet_has_the_fuel_plan_and_names_as_check_sheet_gives_them(
     from loadcheck.cli import app
 
     values = {k: v for k, v in TRIP_LEG_2_AFT.items() if not k.startswith("leg")} | {"legs": "1", "names.front": "Alex"}
-    sheet = _post_check(_client(desk, "pia"), values, "TEST-TRIP", route="sheet").text
+    sheet = _post_check(_client(reading_desk, "pia"), values, "TEST-TRIP", route="sheet").text
     loading = tmp_path / "one.toml"
     loading.write_text(
         'format = 1\n[load]\nfront = "340"\nbags = "100"\n[names]\nfront = "Alex"\n[fuel]\nmain = "full"\n'
@@ -248,7 +250,7 @@ def test_load_sheet_has_the_fuel_plan_and_names_as_check_sheet_gives_them(
     cli_file = tmp_path / "one.html"
     assert (
         runner.invoke(
-            app, ["check", str(desk["fleet"] / "trip_test.toml"), str(loading), "--sheet", str(cli_file)]
+            app, ["check", str(reading_desk["fleet"] / "trip_test.toml"), str(loading), "--sheet", str(cli_file)]
         ).exit_code
         == 0
     )
@@ -263,10 +265,10 @@ def test_load_sheet_has_the_fuel_plan_and_names_as_check_sheet_gives_them(
     assert "id='fuel-plan'" in sheet and "Alex" in sheet
 
 
-def test_plan_most_fuel_is_the_library_answer(desk: dict[str, Any]) -> None:
+def test_plan_most_fuel_is_the_library_answer(reading_desk: dict[str, Any]) -> None:
     from loadcheck.planning import most_fuel
 
-    page = _post_check(_client(desk, "pia"), WITHIN, action="fuel").text
+    page = _post_check(_client(reading_desk, "pia"), WITHIN, action="fuel").text
     inputs = load_check_inputs(
         SAMPLES / "trainer4" / "aircraft.toml",
         None,
@@ -278,10 +280,10 @@ def test_plan_most_fuel_is_the_library_answer(desk: dict[str, Any]) -> None:
     assert answer.answer_display in page and "The loading at this answer" in page
 
 
-def test_plan_most_payload_at_a_station(desk: dict[str, Any]) -> None:
+def test_plan_most_payload_at_a_station(reading_desk: dict[str, Any]) -> None:
     from loadcheck.planning import most_payload
 
-    page = _post_check(_client(desk, "pia"), {**WITHIN, "station": "hold"}, action="payload").text
+    page = _post_check(_client(reading_desk, "pia"), {**WITHIN, "station": "hold"}, action="payload").text
     inputs = load_check_inputs(
         SAMPLES / "trainer4" / "aircraft.toml",
         None,
@@ -292,20 +294,20 @@ def test_plan_most_payload_at_a_station(desk: dict[str, Any]) -> None:
     assert most_payload(inputs.aircraft, inputs.loading, "hold").answer_display in page
 
 
-def test_plan_payload_at_an_unknown_station_is_refused(desk: dict[str, Any]) -> None:
-    response = _post_check(_client(desk, "pia"), {**WITHIN, "station": "roof"}, action="payload")
+def test_plan_payload_at_an_unknown_station_is_refused(reading_desk: dict[str, Any]) -> None:
+    response = _post_check(_client(reading_desk, "pia"), {**WITHIN, "station": "roof"}, action="payload")
     assert response.status_code == 422 and "roof" in response.text
 
 
-def test_change_the_loading_keeps_the_values(desk: dict[str, Any]) -> None:
-    page = _post_check(_client(desk, "pia"), WITHIN, route="edit").text
+def test_change_the_loading_keeps_the_values(reading_desk: dict[str, Any]) -> None:
+    page = _post_check(_client(reading_desk, "pia"), WITHIN, route="edit").text
     assert 'value="15 kg"' in page and 'value="school"' in page
 
 
-def test_unknown_registration_is_a_plain_page(desk: dict[str, Any]) -> None:
-    response = _client(desk, "pia").get("/aircraft/NOPE-1")
+def test_unknown_registration_is_a_plain_page(reading_desk: dict[str, Any]) -> None:
+    response = _client(reading_desk, "pia").get("/aircraft/NOPE-1")
     assert response.status_code in (404, 422) or "unknown registration" in response.text
-    assert "Traceback" not in response.text and str(desk["fleet"]) not in response.text
+    assert "Traceback" not in response.text and str(reading_desk["fleet"]) not in response.text
 
 
 # -- roles ---------------------------------------------------------------------------------------
@@ -381,13 +383,13 @@ def test_export_csv_and_jsonl(desk: dict[str, Any]) -> None:
     assert dan.get("/records/export?format=xls").status_code == 422
 
 
-def test_only_a_pilot_checks_and_only_a_mechanic_changes_aircraft_data(desk: dict[str, Any]) -> None:
-    dan, pia = _client(desk, "dan"), _client(desk, "pia")
+def test_only_a_pilot_checks_and_only_a_mechanic_changes_aircraft_data(reading_desk: dict[str, Any]) -> None:
+    dan, pia = _client(reading_desk, "dan"), _client(reading_desk, "pia")
     assert dan.get("/aircraft/DEMO-4T").status_code == 403
     assert dan.post("/api/check", json={"registration": "DEMO-4T"}).status_code == 403
     assert pia.get("/mechanic/DEMO-4T").status_code == 403
     token = csrf_of(pia.get("/fleet").text)
-    before = (desk["fleet"] / "trainer4" / "aircraft.toml").read_bytes()
+    before = (reading_desk["fleet"] / "trainer4" / "aircraft.toml").read_bytes()
     weighing = (SAMPLES / "trainer4" / "weighing.toml").read_text()
     assert (
         pia.post("/mechanic/DEMO-4T/propose", data={"kind": "weighing", "text": weighing, "csrf": token}).status_code
@@ -396,7 +398,7 @@ def test_only_a_pilot_checks_and_only_a_mechanic_changes_aircraft_data(desk: dic
     assert (
         pia.post("/mechanic/DEMO-4T/confirm", data={"token": "x", "confirm": "yes", "csrf": token}).status_code == 403
     )
-    assert (desk["fleet"] / "trainer4" / "aircraft.toml").read_bytes() == before
+    assert (reading_desk["fleet"] / "trainer4" / "aircraft.toml").read_bytes() == before
 
 
 # -- the mechanic --------------------------------------------------------------------------------
@@ -520,14 +522,16 @@ def test_a_note_with_markup_is_kept_as_text(desk: dict[str, Any]) -> None:
     assert "<script>" not in written.text and "&lt;script&gt;" in written.text  # the history shows the note as text
 
 
-def test_no_traceback_or_internal_path_reaches_a_page(desk: dict[str, Any], monkeypatch: pytest.MonkeyPatch) -> None:
+def test_no_traceback_or_internal_path_reaches_a_page(
+    reading_desk: dict[str, Any], monkeypatch: pytest.MonkeyPatch
+) -> None:
     import loadcheck.check
 
     def broken(*args: Any, **kwargs: Any) -> Any:
-        raise RuntimeError(f"bug in {desk['fleet']}/secret.py")
+        raise RuntimeError(f"bug in {reading_desk['fleet']}/secret.py")
 
     monkeypatch.setattr(loadcheck.check, "check_loading", broken)
-    client = TestClient(desk["app"], raise_server_exceptions=False)
+    client = TestClient(reading_desk["app"], raise_server_exceptions=False)
     assert sign_in(client, "pia").status_code == 303
     for response in (
         _post_check(client, WITHIN),
@@ -537,11 +541,11 @@ def test_no_traceback_or_internal_path_reaches_a_page(desk: dict[str, Any], monk
         assert (
             "Traceback" not in response.text
             and "secret.py" not in response.text
-            and str(desk["fleet"]) not in response.text
+            and str(reading_desk["fleet"]) not in response.text
         )
         assert "nothing was recorded" in response.text
     bad = client.get("/aircraft/NOPE-9")
-    assert "Traceback" not in bad.text and str(desk["fleet"]) not in bad.text
+    assert "Traceback" not in bad.text and str(reading_desk["fleet"]) not in bad.text
 
 
 # -- trips of several legs (issue 19 with issue 16) ----------------------------------------------
@@ -573,8 +577,8 @@ def _trip_result(desk: dict[str, Any], values: dict[str, str]) -> Any:
     return check_trip(inputs.aircraft, inputs.trip)
 
 
-def test_add_a_leg_keeps_everything_typed_and_checks_nothing(desk: dict[str, Any]) -> None:
-    client = _client(desk, "pia")
+def test_add_a_leg_keeps_everything_typed_and_checks_nothing(reading_desk: dict[str, Any]) -> None:
+    client = _client(reading_desk, "pia")
     first = {k: v for k, v in TRIP_LEG_2_AFT.items() if not k.startswith("leg") and k != "legs"}
     page = _post_check(client, first, "TEST-TRIP", action="add_leg")
     assert page.status_code == 200 and "Leg 2" in page.text and 'name="legs" value="2"' in page.text
@@ -592,7 +596,7 @@ def test_add_a_leg_keeps_everything_typed_and_checks_nothing(desk: dict[str, Any
         "leg.2.burn.order",
     ):
         assert f'name="{key}"' in page.text, key
-    assert "Within limits" not in page.text and "Not within limits" not in page.text and _records(desk) == []
+    assert "Within limits" not in page.text and "Not within limits" not in page.text and _records(reading_desk) == []
     # a third leg, then leg 2 taken out: leg 3's values become leg 2's, the rest stays as typed
     three = _post_check(
         client,
@@ -605,14 +609,14 @@ def test_add_a_leg_keeps_everything_typed_and_checks_nothing(desk: dict[str, Any
     assert 'name="load.front" value="340"' in three
 
 
-def test_a_trip_whose_leg_2_fails_says_so_first_and_shows_every_leg(desk: dict[str, Any]) -> None:
+def test_a_trip_whose_leg_2_fails_says_so_first_and_shows_every_leg(reading_desk: dict[str, Any]) -> None:
     from html import escape
 
     from loadcheck.display import fmt
 
-    expected = _trip_result(desk, TRIP_LEG_2_AFT)
+    expected = _trip_result(reading_desk, TRIP_LEG_2_AFT)
     assert expected.legs[0].check.ok and not expected.legs[1].check.ok and not expected.ok  # the scenario
-    response = _post_check(_client(desk, "pia"), TRIP_LEG_2_AFT, "TEST-TRIP")
+    response = _post_check(_client(reading_desk, "pia"), TRIP_LEG_2_AFT, "TEST-TRIP")
     assert response.status_code == 200
     page = response.text
     main = page[page.index("<main>") :]
@@ -643,7 +647,7 @@ def test_a_trip_whose_leg_2_fails_says_so_first_and_shows_every_leg(desk: dict[s
     assert (
         'id="leg-1-burn-path"' in page and 'id="leg-2-burn-path"' in page
     )  # the chart: one path per leg (trip_figure)
-    assert _records(desk) == []
+    assert _records(reading_desk) == []
 
 
 def test_a_bad_value_in_a_leg_names_the_leg_and_field_keeps_everything_and_records_nothing(
@@ -669,9 +673,9 @@ def escape_value(text: str) -> str:
     return escape(text)
 
 
-def test_markup_in_a_leg_is_shown_as_text(desk: dict[str, Any]) -> None:
+def test_markup_in_a_leg_is_shown_as_text(reading_desk: dict[str, Any]) -> None:
     markup = "<script>alert('leg')</script>"
-    client = _client(desk, "pia")
+    client = _client(reading_desk, "pia")
     for route in ("check", "sheet"):
         page = _post_check(client, {**TRIP_LEG_2_AFT, "leg.2.label": markup}, "TEST-TRIP", route=route).text
         assert "<script>alert" not in page, route
@@ -709,16 +713,16 @@ def test_a_recorded_trip_is_verified_by_the_dispatcher(desk: dict[str, Any]) -> 
 
 
 def test_trip_load_sheet_is_the_command_lines_trip_sheet(
-    runner: AppRunner, desk: dict[str, Any], tmp_path: Path
+    runner: AppRunner, reading_desk: dict[str, Any], tmp_path: Path
 ) -> None:
 
     from loadcheck.cli import app
 
-    sheet = _post_check(_client(desk, "pia"), TRIP_LEG_2_AFT, "TEST-TRIP", route="sheet").text
+    sheet = _post_check(_client(reading_desk, "pia"), TRIP_LEG_2_AFT, "TEST-TRIP", route="sheet").text
     cli_file = tmp_path / "trip.html"
     args = [
         "check",
-        str(desk["fleet"] / "trip_test.toml"),
+        str(reading_desk["fleet"] / "trip_test.toml"),
         "--load",
         "front=340",
         "--load",
@@ -752,17 +756,17 @@ def test_trip_load_sheet_is_the_command_lines_trip_sheet(
     assert sheet.count("<svg") == 1 and 'id="leg-2-burn-path"' in sheet
 
 
-def test_plan_a_trip_from_the_form_is_the_library_answer(desk: dict[str, Any]) -> None:
+def test_plan_a_trip_from_the_form_is_the_library_answer(reading_desk: dict[str, Any]) -> None:
     from html import escape
 
     from loadcheck.trip import fuel_to_add, trip_most_fuel
 
     within = {**TRIP_LEG_2_AFT, "leg.2.load.front": "340", "leg.2.load.bags": "0"}  # no one gets off; the bags do
-    inputs = _trip_inputs(desk, within)
+    inputs = _trip_inputs(reading_desk, within)
     most = trip_most_fuel(inputs.aircraft, inputs.trip)
     stop = fuel_to_add(inputs.aircraft, inputs.trip, 2)
     assert most.feasible and stop.feasible
-    client = _client(desk, "pia")
+    client = _client(reading_desk, "pia")
     page = _post_check(client, within, "TEST-TRIP", action="fuel").text
     assert escape(most.answer_display) in page and "every leg" in page and 'id="leg-2"' in page
     page = _post_check(client, {**within, "stop": "2"}, "TEST-TRIP", action="stop").text
@@ -771,7 +775,7 @@ def test_plan_a_trip_from_the_form_is_the_library_answer(desk: dict[str, Any]) -
     )  # the page capitalises its first letter
     refused = _post_check(client, within, "TEST-TRIP", action="payload")
     assert refused.status_code == 422 and "loading of one leg" in refused.text
-    assert _records(desk) == []
+    assert _records(reading_desk) == []
 
 
 def test_api_check_takes_legs_as_the_command_line_does(runner: AppRunner, desk: dict[str, Any]) -> None:
@@ -904,7 +908,7 @@ def test_a_bad_name_brings_the_form_back_with_the_field_named(desk: dict[str, An
 # -- the JSON API --------------------------------------------------------------------------------
 
 
-def test_api_check_is_the_command_lines_json(runner: AppRunner, desk: dict[str, Any]) -> None:
+def test_api_check_is_the_command_lines_json(runner: AppRunner, reading_desk: dict[str, Any]) -> None:
 
     from loadcheck.cli import app
 
@@ -915,10 +919,10 @@ def test_api_check_is_the_command_lines_json(runner: AppRunner, desk: dict[str, 
         "fuel": {"mains": 100, "aux": 40},
         "burn": {"taxi": 2, "trip": 90, "order": ["aux", "mains"]},
     }
-    answer = _client(desk, "pia").post("/api/check", json=body)
+    answer = _client(reading_desk, "pia").post("/api/check", json=body)
     assert answer.status_code == 200
     assert answer.json() == json.loads(cli.stdout)
-    assert _records(desk) == []
+    assert _records(reading_desk) == []
 
 
 def test_api_check_records_once_when_asked(desk: dict[str, Any]) -> None:
@@ -934,8 +938,8 @@ def test_api_check_records_once_when_asked(desk: dict[str, Any]) -> None:
     assert [r.id for r in records] == [answer["record_id"]] and records[0].pilot == "pia"
 
 
-def test_api_bad_value_names_the_field(desk: dict[str, Any]) -> None:
-    client = _client(desk, "pia")
+def test_api_bad_value_names_the_field(reading_desk: dict[str, Any]) -> None:
+    client = _client(reading_desk, "pia")
     response = client.post(
         "/api/check", json={"registration": "DEMO-4T", "load": {"front": "12 parsecs"}, "record": True}
     )
@@ -944,10 +948,10 @@ def test_api_bad_value_names_the_field(desk: dict[str, Any]) -> None:
     unknown = client.post("/api/check", json={"registration": "DEMO-4T", "weather": "fine"})
     assert unknown.status_code == 422 and "weather" in unknown.text
     assert client.post("/api/check", json={"registration": "NOPE"}).status_code == 422
-    assert _records(desk) == []
+    assert _records(reading_desk) == []
 
 
-def test_api_plans_are_the_command_lines_json(runner: AppRunner, desk: dict[str, Any]) -> None:
+def test_api_plans_are_the_command_lines_json(runner: AppRunner, reading_desk: dict[str, Any]) -> None:
 
     from loadcheck.cli import app
 
@@ -958,7 +962,7 @@ def test_api_plans_are_the_command_lines_json(runner: AppRunner, desk: dict[str,
         "fuel": {"mains": "school", "centre": 0},
         "burn": {"taxi": 1.2, "trip": 18, "reserve": 8},
     }
-    client = _client(desk, "pia")
+    client = _client(reading_desk, "pia")
     fuel = client.post("/api/plan/fuel", json=body).json()
     assert fuel == json.loads(runner.invoke(app, ["plan", "fuel", within, "--json"]).stdout)
     payload = client.post("/api/plan/payload", json={**body, "station": "hold"}).json()
@@ -974,8 +978,8 @@ def test_api_records_and_one_record(desk: dict[str, Any]) -> None:
     assert client.get("/api/records/999").status_code == 404
 
 
-def test_openapi_schema_documents_the_api(desk: dict[str, Any]) -> None:
-    schema = _client(desk, "pia").get("/api/openapi.json").json()
+def test_openapi_schema_documents_the_api(reading_desk: dict[str, Any]) -> None:
+    schema = _client(reading_desk, "pia").get("/api/openapi.json").json()
     for path in (
         "/api/check",
         "/api/plan/fuel",
@@ -988,8 +992,8 @@ def test_openapi_schema_documents_the_api(desk: dict[str, Any]) -> None:
     assert "CheckRequest" in schema["components"]["schemas"]
 
 
-def test_pages_link_no_outside_url(desk: dict[str, Any]) -> None:
-    client = _client(desk, "pia")
+def test_pages_link_no_outside_url(reading_desk: dict[str, Any]) -> None:
+    client = _client(reading_desk, "pia")
     for page in (client.get("/signin").text, client.get("/fleet").text, _post_check(client, WITHIN).text):
         assert not re.search(r'(src|href)="(https?:)?//', page)
 

@@ -3,7 +3,6 @@ tokens on every form, the body and upload limit, the loopback-only bind address.
 
 from __future__ import annotations
 
-from pathlib import Path
 from typing import Any
 
 import pytest
@@ -11,10 +10,8 @@ import pytest
 pytest.importorskip("fastapi")
 pytest.importorskip("argon2")
 
-from loadcheck.cli import app
 
-from .helpers import AppRunner
-from .web_helpers import PASSWORD, SAMPLES, WITHIN, _client, _records, csrf_of, sign_in
+from .web_helpers import PASSWORD, WITHIN, _client, _records, csrf_of, sign_in
 
 
 def test_repeated_failed_sign_ins_are_slowed(desk: dict[str, Any]) -> None:
@@ -85,32 +82,3 @@ def test_server_refuses_a_non_loopback_address_without_the_option() -> None:
             bind_caution(host, False)
         assert bind_caution(host, True) == REMOTE_CAUTION
     assert "TLS" in REMOTE_CAUTION and "trusted network" in REMOTE_CAUTION
-
-
-def test_serve_command_refuses_remote_and_prints_the_caution(
-    runner: AppRunner, tmp_path: Path, monkeypatch: pytest.MonkeyPatch
-) -> None:
-    import uvicorn
-
-    refused = runner.invoke(app, ["serve", str(SAMPLES), "--host", "0.0.0.0", "--users", str(tmp_path / "u.json")])
-    assert refused.exit_code == 2 and "--allow-remote" in refused.output
-    started: dict[str, Any] = {}
-    monkeypatch.setattr(uvicorn, "run", lambda app, **kw: started.update(kw))
-    allowed = runner.invoke(
-        app,
-        [
-            "serve",
-            str(SAMPLES),
-            "--host",
-            "0.0.0.0",
-            "--allow-remote",
-            "--users",
-            str(tmp_path / "u.json"),
-            "--db",
-            str(tmp_path / "r.sqlite3"),
-        ],
-    )
-    assert allowed.exit_code == 0 and "TLS" in allowed.output and started["host"] == "0.0.0.0"
-    monkeypatch.setattr(uvicorn, "run", lambda app, **kw: started.update(kw))
-    runner.invoke(app, ["serve", str(SAMPLES), "--users", str(tmp_path / "u.json")])
-    assert started["host"] == "127.0.0.1"

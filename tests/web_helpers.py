@@ -15,7 +15,17 @@ SAMPLES = ROOT / "sample_aircraft"
 PASSWORD = "a long test pass phrase"
 ACCOUNTS = {"pia": ["pilot"], "pat": ["pilot"], "dan": ["dispatcher"], "mo": ["mechanic"]}
 
-__all__ = ["ACCOUNTS", "PASSWORD", "SAMPLES", "TRIP_AIRCRAFT", "TRIP_LEG_2_AFT", "csrf_of", "make_desk", "sign_in"]
+__all__ = [
+    "ACCOUNTS",
+    "PASSWORD",
+    "SAMPLES",
+    "TRIP_AIRCRAFT",
+    "TRIP_LEG_2_AFT",
+    "copy_desk",
+    "csrf_of",
+    "make_desk",
+    "sign_in",
+]
 
 
 # A test aircraft of our own (invented; not a sample, not a real type) for the trip tests: a
@@ -108,6 +118,15 @@ def make_desk(tmp: Path) -> tuple[Path, Path, Path]:
     for name, roles in ACCOUNTS.items():
         store.add(name, PASSWORD, roles)
     return fleet, tmp / "records.sqlite3", users
+
+
+def copy_desk(files: tuple[Path, Path, Path], root: Path) -> tuple[Path, Path, Path]:
+    """A copy under ``root`` of the desk's files that :func:`make_desk` made (the accounts'
+    hashes made once, not per test): the fleet folder, a check log path and the accounts file."""
+    fleet, db, users = files
+    shutil.copytree(fleet, root / "fleet")
+    shutil.copy2(users, root / users.name)
+    return root / "fleet", root / db.name, root / users.name
 
 
 def csrf_of(html: str) -> str:

@@ -1,0 +1,147 @@
+"""The mechanic's commands (loadcheck/cli/mechanic.py): weigh, alter and history (asking before
+a write, --write and --yes, the record sheet, inputs refused with nothing written), extremes
+and schedule (exit status, JSON, the mechanic's caution). The jobs behind them are tested
+against AC 43.13-1B and FAA-H-8083-1B in tests/test_weighing.py, test_alterations.py,
+test_empty_record.py, test_extremes.py and test_schedule.py."""
+
+from __future__ import annotations
+
+import json
+
+import pytest
+
+import loadcheck.cli.mechanic as mechanic_cli
+from loadcheck import load_aircraft
+from loadcheck.caution import MECHANIC_CAUTION
+from loadcheck.cli import app
+
+from .helpers import sample
+from .test_empty_record import _trainer, _weigh
+
+# -- weigh, alter, history -----------------------------------------------------------------------
+
+
+@pytest.mark.parametrize("answer, written", [("n\n", False), ("y\n", True), ("\n", False)])
+def test_at_a_terminal_the_old_and_new_record_are_shown_and_asked(runner, tmp_path, monkeypatch, answer, written):
+    path = _trainer(tmp_path)
+    before = path.read_bytes()
+    monkeypatch.setattr(mechanic_cli, "_interactive", lambda: True)
+    result = runner.invoke(app, ["weigh", str(path), str(tmp_path / "weighing.toml"), "--write"], input=answer)
+    assert result.exit_code == 0, result.output
+    assert "Current and new empty-weight record" in result.output
+    assert (
+        "1,718.0 lb" in result.output
+        and "1,685.8 lb" in result.output
+        and "Make this the current record" in result.output
+    )
+    assert (path.read_bytes() != before) is written
+
+
+def test_options_without_write_are_refused(tmp_path):
+    path = _trainer(tmp_path)
+    result = _weigh(path, tmp_path / "weighing.toml", "--yes")
+    assert result.exit_code == 2 and "go with --write" in result.output
+
+
+# -- item 5: a bounded history ------------------------------------------------------------------
+
+
+def test_history_keeps_every_record_and_the_comments(runner, tmp_path):
+    path = _trainer(tmp_path)
+    original = load_aircraft(path)
+    assert runner.invoke(app, ["alter", str(path), str(tmp_path / "changes.toml"), "--write", "--yes"]).exit_code == 0
+    altered = load_aircraft(path)
+    assert runner.invoke(app, ["weigh", str(path), str(tmp_path / "weighing.toml"), "--write", "--yes"]).exit_code == 0
+    final = load_aircraft(path)
+    assert [h.reason for h in final.history] == ["alteration", "weighing"]
+    assert final.history[0].previous == original.empty
+    assert final.history[1].previous == altered.empty
+    assert "fairings" not in {e.id for e in final.equipment} and "com3" in {e.id for e in final.equipment}
+    text = path.read_text()
+    assert "# Four-seat nosewheel trainer: an aircraft of our own invention" in text
+    assert "meto_power_hp = 160   # maximum except takeoff" in text
+    listing = runner.invoke(app, ["history", str(path)])
+    assert listing.exit_code == 0 and "alteration" in listing.output and "weighing" in listing.output
+
+
+def test_without_write_nothing_changes(runner, tmp_path):
+    path = _trainer(tmp_path)
+    before = path.read_bytes()
+    assert runner.invoke(app, ["weigh", str(path), str(tmp_path / "weighing.toml")]).exit_code == 0
+    assert path.read_bytes() == before
+
+
+@pytest.mark.parametrize(
+    "command, text, words",
+    [
+        (
+            "weigh",
+            "[[point]]\nlabel = 'nose'\narm = -6.8\nreading = 10.0\ntare = 12.0\n",
+            "tare (12) is above the reading (10)",
+        ),
+        ("alter", "[[change]]\naction = 'remove'\nitem = 'ghost'\n", "unknown item 'ghost'"),
+        ("alter", "[[change]]\naction = 'relocate'\nitem = 'elt'\n", "needs its new_arm"),
+        ("weigh", "[[point]]\nlabel = 'nose'\nwheel = 'nose'\nreading = 10.0\n", "[geometry]"),
+        ("alter", "[[change]]\naction = 'install'\nitem = 'elt'\nweight = 1.0\narm = 2.0\n", "already installed"),
+    ],
+)
+def test_bad_mechanic_inputs_write_nothing(runner, tmp_path, command, text, words):
+    path = _trainer(tmp_path)
+    before = path.read_bytes()
+    bad = tmp_path / "bad.toml"
+    bad.write_text("format = 1\n" + text)
+    result = runner.invoke(app, [command, str(path), str(bad), "--write", "--yes"])
+    assert result.exit_code == 2, result.output
+    assert words in result.output and "Traceback" not in result.output
+    assert path.read_bytes() == before
+
+
+def test_mechanic_sheet(runner, tmp_path):
+    sheet = tmp_path / "record.html"
+    result = runner.invoke(
+        app,
+        ["weigh", str(sample("trainer4/aircraft.toml")), str(sample("trainer4/weighing.toml")), "--sheet", str(sheet)],
+    )
+    assert result.exit_code == 0
+    html = sheet.read_text()
+    for words in ("Certificate number", "Signature", "local aviation authority", "Most forward", "1,685.8"):
+        assert words in html
+    assert "http" not in html.replace("http-equiv", "")
+
+
+# -- extremes, schedule --------------------------------------------------------------------------
+
+
+def test_extremes_command_exit_status_follows_the_checks(runner):
+    result = runner.invoke(app, ["extremes", str(sample("tandem2/aircraft.toml"))])
+    assert result.exit_code == 0 and "Most forward loading" in result.output and "within limits" in result.output
+    failing = runner.invoke(app, ["extremes", str(sample("twin6/aircraft.toml"))])
+    assert failing.exit_code == 1 and "NOT within limits" in failing.output
+
+
+@pytest.mark.parametrize(
+    "option, value, words",
+    [
+        ("--occupant", "0", "--occupant"),
+        ("--occupant", "-5", "--occupant"),
+        ("--meto", "-100", "--meto"),
+        ("--meto", "0", "--meto"),
+    ],
+)
+def test_bad_occupant_and_power_are_refused_by_name(runner, option, value, words):
+    # issue 13: --occupant 0 silently used the default; -5 seated negative people;
+    # --meto -100 gave errors that did not name --meto
+    result = runner.invoke(app, ["extremes", str(sample("tandem2/aircraft.toml")), option, value])
+    assert result.exit_code == 2, result.output
+    assert words in result.output and "Traceback" not in result.output
+
+
+def test_schedule_command_verdict_json_and_caution(runner):
+    out = runner.invoke(app, ["schedule", str(sample("twin6/aircraft.toml")), "--json"])
+    data = json.loads(out.stdout)
+    assert out.exit_code == (0 if data["ok"] else 1)
+    assert data["ok"] == all(case["ok"] and case["check"]["ok"] for case in data["cases"])
+    assert data["caution"] == MECHANIC_CAUTION and all(c["check"]["caution"] == MECHANIC_CAUTION for c in data["cases"])
+    text = runner.invoke(app, ["schedule", str(sample("twin6/aircraft.toml"))])
+    assert "With full fuel" in text.output and "fuel states checked" in text.output
+    assert text.exit_code == out.exit_code

@@ -1,0 +1,172 @@
+"""The pilot's commands (loadcheck/cli/pilot.py) through typer's CliRunner: check (exit codes,
+JSON fields, options, the check log), validate, schema, plan. The trip's legs on the command
+line are in tests/test_trip.py, the terminal's layout in tests/test_terminal_width.py."""
+
+from __future__ import annotations
+
+import json
+from pathlib import Path
+
+import pytest
+
+from loadcheck.caution import PILOT_CAUTION
+from loadcheck.cli import app
+
+from .helpers import assert_input_error, invoke, logged_checks, sample, write_file
+
+TRAINER = str(sample("trainer4/aircraft.toml"))
+WITHIN = str(sample("trainer4/within.toml"))
+
+
+def test_check_within_limits_prints_tables_and_caution():
+    result = invoke("check", TRAINER, str(sample("trainer4/within.toml")))
+    assert result.exit_code == 0, result.output
+    assert "WITHIN LIMITS" in result.output
+    assert "2,423.9" in result.output  # takeoff weight
+    assert "CAUTION" in result.output and "pilot in command" in result.output
+
+
+def test_loading_file_alone_names_its_aircraft():
+    result = invoke("check", str(sample("twin6/leaves_path.toml")))
+    assert result.exit_code == 1
+    assert "leaves the envelope" in result.output
+
+
+def test_json_fields_follow_design():
+    result = invoke("check", str(sample("twin6/leaves_path.toml")), "--json")
+    assert result.exit_code == 1
+    data = json.loads(result.stdout)
+    assert set(data) >= {"ok", "category", "items", "conditions", "burn_path", "findings", "units", "caution"}
+    assert data["ok"] is False and data["category"] == "normal"
+    assert {"name", "weight", "arm", "moment"} <= set(data["items"][0])
+    assert [c["condition"] for c in data["conditions"]] == ["ramp", "takeoff", "landing", "zero_fuel"]
+    for condition in data["conditions"]:
+        assert {"condition", "weight", "arm", "moment", "mac_percent", "ok"} <= set(condition)
+    leave = data["burn_path"]["leaves_at"]
+    assert data["burn_path"]["ok"] is False
+    assert {"fuel_burned", "fuel_remaining", "weight", "arm"} <= set(leave)
+    assert {"code", "severity", "message"} <= set(data["findings"][0])
+    assert data["units"]["mass"] == "lb"
+    assert data["caution"] == PILOT_CAUTION
+
+
+def test_options_alone_and_on_top_of_a_file():
+    result = invoke(
+        "check",
+        TRAINER,
+        "--load",
+        "front=340",
+        "--load",
+        "rear=150",
+        "--fuel",
+        "mains=school",
+        "--taxi",
+        "1.2",
+        "--trip",
+        "18",
+        "--json",
+    )
+    assert result.exit_code == 0, result.output
+    data = json.loads(result.stdout)
+    assert data["conditions"][0]["fuel"] == 30.0
+    over = invoke("check", TRAINER, str(sample("trainer4/within.toml")), "--load", "rear=400", "--json")
+    assert over.exit_code == 1
+    assert any(f["code"] == "max_takeoff_weight" for f in json.loads(over.stdout)["findings"])
+
+
+def test_category_option():
+    result = invoke("check", TRAINER, str(sample("trainer4/utility_aft.toml")), "--category", "normal", "--json")
+    assert result.exit_code == 0
+    assert json.loads(result.stdout)["category"] == "normal"
+
+
+def test_trip_time_rate_order_reserve_options():
+    result = invoke(
+        "check",
+        str(sample("twin6/aircraft.toml")),
+        "--load",
+        "row1=380",
+        "--fuel",
+        "mains=full",
+        "--fuel",
+        "aux=40",
+        "--trip-time",
+        "1:30",
+        "--rate",
+        "30",
+        "--order",
+        "aux,mains",
+        "--reserve",
+        "100",
+        "--json",
+    )
+    data = json.loads(result.stdout)
+    assert result.exit_code == 0
+    assert data["conditions"][2]["fuel"] == pytest.approx(95.0)
+    assert any(f["code"] == "reserve" for f in data["findings"])
+
+
+def test_validate_reports_everything(tmp_path):
+    text = Path(TRAINER).read_text().replace("weight = 1718.0", "weight = -1").replace("usable = 44.0", "usable = 0")
+    bad = write_file(tmp_path, text)
+    result = invoke("validate", TRAINER, str(sample("twin6/within.toml")), bad)
+    assert result.exit_code == 2
+    assert "empty.weight" in result.output and "tank[0].usable" in result.output
+    assert "ok: " in result.output
+
+
+def test_validate_all_samples():
+    files = sorted(str(p) for p in sample("").glob("*/*.toml"))
+    result = invoke("validate", *files)
+    assert result.exit_code == 0, result.output
+
+
+def test_schema_is_json_schema():
+    result = invoke("schema")
+    data = json.loads(result.stdout)
+    assert data["aircraft"]["title"] == "Aircraft" and "envelope" in data["aircraft"]["properties"]
+    assert json.loads(invoke("schema", "loading").stdout)["title"] == "Loading"
+
+
+def test_check_records_in_the_check_log_only_with_log(runner, tmp_path, monkeypatch):
+    monkeypatch.delenv("LOADCHECK_LOG", raising=False)
+    db = tmp_path / "log.sqlite3"
+    assert runner.invoke(app, ["check", TRAINER, WITHIN]).exit_code == 0
+    assert not db.exists()
+    logged = runner.invoke(app, ["check", TRAINER, WITHIN, "--log", "--db", str(db)])
+    assert logged.exit_code == 0, logged.output
+    assert logged_checks(db) == 1
+    listed = runner.invoke(app, ["log", "list", "--db", str(db)])
+    assert listed.exit_code == 0 and "DEMO-4T" in listed.output
+
+
+def test_check_db_without_log_is_refused_not_ignored(runner, tmp_path):
+    db = tmp_path / "log.sqlite3"
+    result = runner.invoke(app, ["check", TRAINER, WITHIN, "--db", str(db)])
+    assert_input_error(result, "--db", "--log")
+    assert not db.exists()
+
+
+def test_check_log_without_db_uses_loadcheck_log(runner, tmp_path, monkeypatch):
+    db = tmp_path / "env.sqlite3"
+    monkeypatch.setenv("LOADCHECK_LOG", str(db))
+    assert runner.invoke(app, ["check", TRAINER, WITHIN, "--log"]).exit_code == 0
+    assert logged_checks(db) == 1
+
+
+def test_meto_power_under_its_old_key_is_refused_with_the_new_key(runner, tmp_path):
+    text = (
+        Path(TRAINER).read_text(encoding="utf-8").replace("meto_power_hp", "max_continuous_power_hp")
+    )  # rename.py: keep
+    path = tmp_path / "aircraft.toml"
+    path.write_text(text, encoding="utf-8")
+    result = runner.invoke(app, ["validate", str(path)])
+    assert_input_error(result, "max_continuous_power_hp", "meto_power_hp")  # rename.py: keep
+
+
+def test_plan_stop_of_a_loading_of_one_leg_was_an_internal_error(runner):
+    # regression (found typing the front end, issue 21): plan stop on a loading without [[leg]] tables passed
+    # no trip on and ended in "internal error (AttributeError ...)" instead of a field error
+    result = runner.invoke(app, ["plan", "stop", TRAINER, WITHIN, "--leg", "2"])
+    assert_input_error(result, "leg", "one leg")
+    assert "internal error" not in result.output
