@@ -156,3 +156,11 @@ def reading_desk(_shared_desk: dict[str, Any]) -> Iterator[dict[str, Any]]:
 def _files_state(desk: dict[str, Any]) -> list[tuple[str, int, int]]:
     paths = [*sorted(desk["fleet"].rglob("*")), desk["users"]]
     return [(str(p), (info := p.stat()).st_size, info.st_mtime_ns) for p in paths if p.is_file()]
+
+
+@pytest.fixture
+def db(tmp_path, monkeypatch):
+    """A check log in the test's folder, made the default one ($LOADCHECK_LOG)."""
+    path = tmp_path / "records.sqlite3"
+    monkeypatch.setenv("LOADCHECK_LOG", str(path))
+    return path

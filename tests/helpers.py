@@ -5,6 +5,7 @@ from __future__ import annotations
 
 import copy
 import functools
+import sqlite3
 from collections.abc import Sequence
 from pathlib import Path
 from typing import Any
@@ -216,3 +217,12 @@ def random_loadings(
     if zero_trip:
         trip[rng.uniform(size=n) < zero_trip] = 0.0
     return stations, fuel, taxi, trip
+
+
+def tamper_check_log(db: Path, statement: str, *args: object) -> None:
+    """Edit a record behind the triggers' back, as someone with the database file could."""
+    connection = sqlite3.connect(db)
+    connection.execute("DROP TRIGGER checks_never_rewritten")
+    connection.execute(statement, args)
+    connection.commit()
+    connection.close()

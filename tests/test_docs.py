@@ -98,13 +98,10 @@ NOT_MIRRORED = {
     "__main__.py": "python -m loadcheck: test_cli.py",
     "render/__init__.py": "re-exports only",
     "web/__init__.py": "re-exports only",
-    # modules whose tests are in files other engineers append to (move them here when those settle)
+    # modules tested through the outputs they serve
     "caution.py": "test_cli_pilot.py, test_cli_mechanic.py, test_terminal_width.py (the caution on each output)",
     "display.py": "test_render_terminal.py, test_terminal_width.py (numbers rounded as shown)",
     "errors.py": "test_bad_inputs.py (each error's file, field path, value and expectation)",
-    "results.py": "test_check.py, test_engine.py (results and their JSON form)",
-    "render/listing.py": "test_fleet.py, test_checklog.py (long listings)",
-    "render/checklog.py": "test_checklog.py",
 }
 """Modules of loadcheck/ without a test file of their own, and where their tests are."""
 
