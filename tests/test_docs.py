@@ -101,7 +101,6 @@ NOT_MIRRORED = {
     # modules tested through the outputs they serve
     "caution.py": "test_cli_pilot.py, test_cli_mechanic.py, test_terminal_width.py (the caution on each output)",
     "display.py": "test_render_terminal.py, test_terminal_width.py (numbers rounded as shown)",
-    "errors.py": "test_bad_inputs.py (each error's file, field path, value and expectation)",
 }
 """Modules of loadcheck/ without a test file of their own, and where their tests are."""
 
