@@ -19,7 +19,7 @@ from __future__ import annotations
 import re
 import unicodedata
 from collections.abc import Mapping, Sequence
-from dataclasses import dataclass, field
+from dataclasses import dataclass, field, replace
 from typing import Annotated, Any, Literal
 
 from pydantic import BeforeValidator, Field, field_validator, model_validator
@@ -527,6 +527,29 @@ class ResolvedLoading:
     plan: BurnPlan
     notes: list[str] = field(default_factory=list)
     names: dict[str, str] = field(default_factory=dict)
+
+    def but(
+        self,
+        *,
+        stations: dict[str, float] | None = None,
+        taxi: float | None = None,
+        trip: float | None = None,
+        reserve: float | None = None,
+    ) -> ResolvedLoading:
+        """The same loading with the amounts given changed (planning tries loadings this way).
+
+        Parameters
+        ----------
+        stations : mass per station id [mass unit]
+        taxi, trip, reserve : fuel [fuel volume unit]; reserve None keeps this loading's
+        """
+        return replace(
+            self,
+            stations=self.stations if stations is None else stations,
+            taxi=self.taxi if taxi is None else taxi,
+            trip=self.trip if trip is None else trip,
+            reserve=self.reserve if reserve is None else reserve,
+        )
 
 
 def resolve_loading(

@@ -170,10 +170,6 @@ def _ok(result: Evaluation) -> np.ndarray:
 # -- helpers -------------------------------------------------------------------------------
 
 
-def _with(loading: ResolvedLoading, **changes: object) -> ResolvedLoading:
-    return replace(loading, **changes)  # type: ignore[arg-type]
-
-
 def _with_fuel(loading: ResolvedLoading, fuel: dict[str, float]) -> ResolvedLoading:
     return replace(loading, fuel=fuel, plan=BurnPlan(fuel, loading.plan.order))
 
@@ -301,7 +297,7 @@ def _fuel_loading(
     row = _distribute(aircraft, base, fill, np.array([total]))[0]
     fuelled = _with_fuel(loading, {t.id: float(row[i]) for i, t in enumerate(aircraft.tank)})
     if burn_to is not None:
-        fuelled = _with(fuelled, taxi=0.0, trip=max(0.0, fuelled.plan.burnable - burn_to))
+        fuelled = fuelled.but(taxi=0.0, trip=max(0.0, fuelled.plan.burnable - burn_to))
     return fuelled
 
 
@@ -484,7 +480,7 @@ def longest_trip(
         aircraft,
         pairs,
         unit,
-        at=lambda v: _with(fuelled, trip=v, reserve=reserve),
+        at=lambda v: fuelled.but(trip=v, reserve=reserve),
         question=f"longest trip with {fuel.answer_display} at engine start, landing with at least {reserve:g} {unit}",
         variable="trip fuel",
         direction="down",
@@ -495,7 +491,7 @@ def longest_trip(
         ),
         governing=_beyond(
             (top, "the fuel on board less taxi fuel and reserve"),
-            lambda v: _with(fuelled, trip=min(fuelled.plan.burnable - fuelled.taxi, v + 2 * step)),
+            lambda v: fuelled.but(trip=min(fuelled.plan.burnable - fuelled.taxi, v + 2 * step)),
             aircraft,
         ),
     )
@@ -533,7 +529,7 @@ def most_payload(aircraft: Aircraft, loading: ResolvedLoading, station: str) -> 
     pairs = feasible_intervals(lambda x: _ok(evaluate_arrays(aircraft, base, stations=rows(x))), 0.0, top, _GRID_STEP)
 
     def at(value: float) -> ResolvedLoading:
-        return _with(loading, stations={**loading.stations, station: value})
+        return loading.but(stations={**loading.stations, station: value})
 
     return _answer(
         aircraft,
@@ -571,7 +567,7 @@ def fuel_to_leave(
     if not payload >= 0:
         raise InputError(Problem("payload", "must not be negative", value=payload))
     order = _fill_order(aircraft, loading, fill)
-    with_payload = _with(loading, stations={**loading.stations, station: payload})
+    with_payload = loading.but(stations={**loading.stations, station: payload})
     fuel = most_fuel(aircraft, with_payload, fill=fill)
     unit = aircraft.units.fuel_volume
     now = sum(loading.fuel.values())
@@ -630,7 +626,7 @@ def least_ballast(aircraft: Aircraft, loading: ResolvedLoading, station: str | N
         aircraft,
         pairs,
         aircraft.units.mass,
-        lambda v: _with(loading, stations={**loading.stations, station: already + v}),
+        lambda v: loading.but(stations={**loading.stations, station: already + v}),
         f"least ballast at {aircraft.station[index].name}",
         f"ballast at {station}",
         "up",
@@ -674,7 +670,7 @@ def weight_shift(
             source: available - value,
             target_station: loading.stations.get(target_station, 0.0) + value,
         }
-        return _with(loading, stations=stations)
+        return loading.but(stations=stations)
 
     if target_arm is not None:
         now = check_loading(aircraft, loading).condition(condition)
@@ -795,7 +791,7 @@ def fuel_payload_table(
     rows = []
     for payload in np.linspace(0.0, max(0.0, top), max(2, steps)):
         answer = most_fuel(
-            aircraft, _with(loading, stations={**loading.stations, station: already + float(payload)}), fill=fill
+            aircraft, loading.but(stations={**loading.stations, station: already + float(payload)}), fill=fill
         )
         rows.append(
             TableRow(

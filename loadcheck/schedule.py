@@ -70,10 +70,6 @@ class ScheduleResult(Result):
     caution: str = MECHANIC_CAUTION
 
 
-def _with(loading: ResolvedLoading, **changes: object) -> ResolvedLoading:
-    return replace(loading, **changes)  # type: ignore[arg-type]
-
-
 def _placard(aircraft: Aircraft, category: str, stations: dict[str, float], fuel: dict[str, float]) -> ResolvedLoading:
     """A loading that burns every drop of its fuel, tanks together: its check covers every
     fuel state from engine start down to zero usable fuel."""
@@ -89,7 +85,7 @@ def _minimum_stations(aircraft: Aircraft) -> dict[str, float]:
 
 
 def _add(loading: ResolvedLoading, station: str, weight: float) -> ResolvedLoading:
-    return _with(loading, stations={**loading.stations, station: loading.stations.get(station, 0.0) + weight})
+    return loading.but(stations={**loading.stations, station: loading.stations.get(station, 0.0) + weight})
 
 
 def _refuel(aircraft: Aircraft, loading: ResolvedLoading, total: float) -> ResolvedLoading:
@@ -128,8 +124,7 @@ def _fill_baggage(aircraft: Aircraft, loading: ResolvedLoading) -> ResolvedLoadi
         answer = most_payload(aircraft, loading, station.id)
         if answer.feasible and answer.answer is not None:
             low = answer.intervals[-1].low
-            loading = _with(
-                loading,
+            loading = loading.but(
                 stations={
                     **loading.stations,
                     station.id: safe_value(low, answer.answer, aircraft.units.mass, "down")[0],

@@ -110,7 +110,7 @@ def test_most_fuel_and_most_payload_are_checked_and_maximal(seed):
     payload = P.most_payload(aircraft, loading, station)
     _carries_its_check(payload)
     if payload.feasible and payload.governing_code != "capacity":
-        heavier = P._with(loading, stations={**loading.stations, station: payload.answer + TOLERANCE})
+        heavier = loading.but(stations={**loading.stations, station: payload.answer + TOLERANCE})
         assert not _ok(aircraft, heavier)
 
 
@@ -126,7 +126,7 @@ def test_least_amounts_leave_and_shift_are_checked_and_minimal(seed):
     _carries_its_check(ballast)
     if ballast.feasible and ballast.answer > TOLERANCE:
         already = loading.stations.get(station, 0.0)
-        lighter = P._with(loading, stations={**loading.stations, station: already + ballast.answer - TOLERANCE})
+        lighter = loading.but(stations={**loading.stations, station: already + ballast.answer - TOLERANCE})
         assert not _ok(aircraft, lighter)
     leave = P.fuel_to_leave(aircraft, loading, station, rng.uniform(0, 200))
     _carries_its_check(leave)

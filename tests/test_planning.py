@@ -99,7 +99,7 @@ def test_most_payload_agrees_with_brute_force(v, station):
     )
     answer = P.most_payload(TWIN, loading, station)
     top = TWIN.station_by_id[station].max_weight
-    make = lambda x: P._with(loading, stations={**loading.stations, station: x})  # noqa: E731
+    make = lambda x: loading.but(stations={**loading.stations, station: x})  # noqa: E731
     feasible = _brute(TWIN, make, 0.0, top, 201)
     if answer.answer is None:
         assert not feasible
@@ -159,7 +159,7 @@ def test_ballast_brings_the_tandem_within_limits():
     inputs = load_check_inputs(sample("tandem2/aft_heavy.toml"))
     answer = P.least_ballast(inputs.aircraft, inputs.loading)
     assert answer.feasible and answer.check.ok
-    less = P._with(inputs.loading, stations={**inputs.loading.stations, "ballast": answer.answer - 0.2})
+    less = inputs.loading.but(stations={**inputs.loading.stations, "ballast": answer.answer - 0.2})
     assert not check_loading(inputs.aircraft, less).ok
     # ballast aft of the CG cannot help an aft CG
     wrong = P.least_ballast(inputs.aircraft, inputs.loading, "baggage")
@@ -179,7 +179,7 @@ def test_longest_trip_and_fuel_to_leave():
     assert leave.feasible and leave.answer > 0
     lighter = P._fuel_loading(
         inputs.aircraft,
-        P._with(inputs.loading, stations={**inputs.loading.stations, "rear": 220.0}),
+        inputs.loading.but(stations={**inputs.loading.stations, "rear": 220.0}),
         None,
         sum(inputs.loading.fuel.values()) - leave.answer,
     )
@@ -261,7 +261,7 @@ def test_plan_leave_answers_fuel_left_behind_not_ramp_fuel():
     ramp = answer.check.condition("ramp")
     assert ramp.weight <= aircraft.limits.ramp
     assert ramp.fuel == pytest.approx(now - float(answer.answer_display.split()[0]), abs=1e-6)
-    with_payload = P._with(loading, stations={**loading.stations, "row3": 300.0})
+    with_payload = loading.but(stations={**loading.stations, "row3": 300.0})
     for interval in answer.intervals:  # every amount the answer allows leaving behind is within limits
         for leave in (interval.low, interval.high, 0.5 * (interval.low + interval.high)):
             assert _ok(aircraft, P._fuel_loading(aircraft, with_payload, ["mains", "aux"], now - leave))
@@ -314,7 +314,7 @@ def _toml_of(aircraft) -> str:
 def test_plan_reason_for_a_station_over_its_maximum_is_that_station():
     # regression: a station over its own maximum was reported as five "limited by" reasons
     inputs = load_check_inputs(sample("twin6/within.toml"))
-    loading = P._with(inputs.loading, stations={**inputs.loading.stations, "row3": 405.0})
+    loading = inputs.loading.but(stations={**inputs.loading.stations, "row3": 405.0})
     answer = P.most_fuel(inputs.aircraft, loading)
     assert not answer.feasible
     assert answer.governing.count(";") == 0 and "exceeds the maximum 400.0 lb by 5.0 lb" in answer.governing
@@ -373,8 +373,7 @@ def test_plan_table_chart_shows_only_the_fuel_each_row_allows():
         if row.most is not None:
             answer = P.most_fuel(
                 inputs.aircraft,
-                P._with(
-                    inputs.loading,
+                inputs.loading.but(
                     stations={
                         **inputs.loading.stations,
                         "rear": inputs.loading.stations.get("rear", 0.0) + row.payload,

@@ -15,7 +15,7 @@ import re
 from html import escape
 from typing import TYPE_CHECKING, Any
 
-from ..display import fmt, unit_label
+from ..display import Direction, fmt, unit_label
 from ..results import CheckResult
 from ..words import sheet_verdict, trip_leg_verdict
 
@@ -89,10 +89,10 @@ ul.findings { margin: .1em 0; padding-left: 1.3em; }
 """
 
 
-def _n(value: float | None, unit: str, direction: str = "nearest") -> str:
+def _n(value: float | None, unit: str, direction: Direction = "nearest") -> str:
     if value is None:
         return ""
-    return escape(fmt(value, unit, direction, with_unit=False))  # type: ignore[arg-type]
+    return escape(fmt(value, unit, direction, with_unit=False))
 
 
 def _cells(cells: list[str], numeric_from: int = 1, attrs: str = "") -> str:
