@@ -98,9 +98,6 @@ NOT_MIRRORED = {
     "__main__.py": "python -m loadcheck: test_cli.py",
     "render/__init__.py": "re-exports only",
     "web/__init__.py": "re-exports only",
-    # modules tested through the outputs they serve
-    "caution.py": "test_cli_pilot.py, test_cli_mechanic.py, test_terminal_width.py (the caution on each output)",
-    "display.py": "test_render_terminal.py, test_terminal_width.py (numbers rounded as shown)",
 }
 """Modules of loadcheck/ without a test file of their own, and where their tests are."""
 
