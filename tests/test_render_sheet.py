@@ -204,3 +204,22 @@ def test_a_failing_trips_leg_1_page_carried_a_bare_within_banner(runner, tmp_pat
     within = tmp_path / "within.html"
     assert runner.invoke(app, ["check", trip, "--sheet", str(within)]).exit_code == 0
     assert "Leg 1 — WITHIN LIMITS, as is every leg of the trip" in within.read_text()
+
+
+def test_regression_sheet_condition_rows_read_within_beside_a_burn_path_limit(runner, tmp_path):
+    # outside review item 2: the sheet of twin6/leaves_path (out of limits: the CG leaves the envelope
+    # during the burn) read "within" in every condition row's Result column. The row gives the
+    # condition's own state, "inside", under the same heading as the terminal; the sheet's verdict
+    # is the loading's.
+    from loadcheck.render.terminal import CONDITION_STATE_HEADING
+
+    path = tmp_path / "sheet.html"
+    result = runner.invoke(app, ["check", str(sample("twin6/leaves_path.toml")), "--sheet", str(path)])
+    assert result.exit_code == 1
+    parser = _Collect()
+    parser.feed(path.read_text())
+    assert set(parser.rows) == {"ramp", "takeoff", "landing", "zero_fuel"}
+    for condition, cells in parser.rows.items():
+        assert "inside" in cells and not any("within" in cell for cell in cells), (condition, cells)
+    text = " ".join(parser.text)
+    assert CONDITION_STATE_HEADING in text and "OUT OF LIMITS" in text.upper()

@@ -3,7 +3,10 @@ its moment column, margins beside a finding."""
 
 from __future__ import annotations
 
+import json
 import re
+
+import pytest
 
 from loadcheck import check_loading
 from loadcheck.cli import app
@@ -124,3 +127,107 @@ def test_plan_titles_wrapped_to_their_narrow_tables_at_80_columns(runner, monkey
     assert text.plain == "ramp fuel of leg 1 within limits (usgal)" and table.title is None
     (short,) = fitted_tables(80, "Conditions", [Column("within limits")], [["1"]])
     assert short.title == "Conditions"
+
+
+# -- every answer that proposes a loading shows the loading it checked (outside review, 2026-12-02) ----
+
+CHECKED_ANSWERS = [["plan", *c] for c in PLAN_COMMANDS if c[0] != "table"] + [
+    ["schedule", "tandem2/aircraft.toml"],
+    ["extremes", "tandem2/aircraft.toml"],
+    ["extremes", "twin6/aircraft.toml"],
+]
+
+
+def _checks(answer: dict) -> list[dict]:
+    """The checks an answer's JSON carries: a plan's, each leg of a trip plan's, each case's or extreme's."""
+    if "cases" in answer:
+        return [case["check"] for case in answer["cases"]]
+    if "forward" in answer:
+        return [answer["forward"]["check"], answer["rearward"]["check"]]
+    if answer.get("trip") is not None:
+        return [leg for leg in answer["trip"]["legs"]]
+    return [answer["check"]]
+
+
+def _flat(text: str) -> str:
+    return " ".join(text.split())
+
+
+@pytest.mark.parametrize("command", CHECKED_ANSWERS, ids=lambda c: " ".join(c[:3]))
+def test_regression_planning_schedule_and_extremes_left_out_the_checked_loading(runner, command):
+    # outside review item 1 (safety): `plan fuel trainer4/within.toml` printed only "ramp fuel: 34.3 usgal"
+    # though the loading it checked puts 26.95 usgal in the mains and 7.35 in the centre tank (the fill
+    # order), and `plan ballast` printed "within limits" with no finding text under an OUTSIDE (warning)
+    # row. Each must show what `check` shows of that loading: every station's weight and every tank's
+    # fuel (the moment table), the burn-path line, the findings and the verdict sentence. Common practice:
+    # a pilot loads from the figures that were checked, and reads the findings beside the verdict.
+    from loadcheck.words import within_limits_text
+
+    name = 2 if command[0] == "plan" else 1  # the sample file's place in the command
+    args = [*command[:name], str(sample(command[name])), *command[name + 1 :]]
+    answer = json.loads(runner.invoke(app, [*args, "--json"]).stdout)
+    out = runner.invoke(app, args, env={"COLUMNS": "200"}).stdout
+    flat = _flat(out)
+    checks = _checks(answer)
+    assert out.count("Moment table (engine start)") == len(checks), out
+    assert out.count("Fuel burn, takeoff to landing:") == len(checks), out
+    assert "The loading at this answer is within limits." not in out
+    for check in checks:
+        units = check["units"]
+        for item in check["items"]:
+            label = item["name"]
+            if item.get("fuel_volume") is not None:
+                label += f" ({fmt(item['fuel_volume'], units['fuel_volume'])})"
+            assert f"│ {label} │ {fmt(item['weight'], units['mass'], with_unit=False)} │" in flat, (label, out)
+        for finding in check["findings"]:
+            assert _flat(finding["message"]) in flat, (finding, out)
+        if "leg" in check:  # a trip plan: each leg as `check` shows a trip's leg, then the trip's verdict
+            continue
+        warnings = sum(f["severity"] == "warning" for f in check["findings"])
+        limits = sum(f["severity"] == "limit" for f in check["findings"])
+        verdict = (
+            f"WITHIN LIMITS: {within_limits_text(warnings)}"
+            if check["ok"]
+            else f"OUT OF LIMITS: {limits} {'limit' if limits == 1 else 'limits'} exceeded."
+        )
+        assert verdict in flat, (verdict, out)
+    if answer.get("trip") is not None:
+        assert ("WITHIN LIMITS on every leg" if answer["trip"]["ok"] else "OUT OF LIMITS on") in flat
+    narrow = runner.invoke(app, args, env={"COLUMNS": "80"}).stdout
+    assert all(len(line.rstrip()) <= 80 for line in narrow.splitlines()), narrow
+
+
+def test_regression_plan_ballast_hid_the_zero_fuel_warning_that_check_prints(runner):
+    # outside review item 1: `plan ballast tandem2/aft_heavy.toml` showed "Zero fuel ... OUTSIDE (warning)"
+    # then "The loading at this answer is within limits." with no finding, while `check --load ballast=...`
+    # of the same loading prints the warning, the burn-path line and the verdict. The answer must print
+    # exactly what check prints from the burn-path line to the caution.
+    loading = str(sample("tandem2/aft_heavy.toml"))
+    answer = json.loads(runner.invoke(app, ["plan", "ballast", loading, "--json"]).stdout)
+    plan = runner.invoke(app, ["plan", "ballast", loading], env={"COLUMNS": "80"}).stdout
+    check = runner.invoke(
+        app, ["check", loading, "--load", f"ballast={answer['answer']!r}"], env={"COLUMNS": "80"}
+    ).stdout
+    tail = check[check.index("Fuel burn, takeoff to landing:") : check.index("CAUTION:")]
+    assert "WARNING zero fuel CG" in tail and "WITHIN LIMITS:" in tail and "1 warning" in tail
+    assert tail in plan, (tail, plan)
+
+
+def test_regression_condition_rows_read_within_beside_a_burn_path_limit(runner):
+    # outside review item 2: in `check twin6/leaves_path.toml` every condition row's "Result" read "within"
+    # beside the finding that the CG leaves the envelope during the burn (the loading is out of limits).
+    # A condition's own state is now "inside"/"OUTSIDE" under a heading that says what it is; "within"
+    # is said only of the loading, once, in its verdict.
+    from loadcheck.render.terminal import CONDITION_STATE_HEADING, condition_verdict
+
+    result = runner.invoke(app, ["check", str(sample("twin6/leaves_path.toml"))], env={"COLUMNS": "200"})
+    assert result.exit_code == 1
+    out = result.output
+    rows = [line for line in out.splitlines() if re.match(r"│ (Ramp|Takeoff|Landing|Zero fuel) ", line)]
+    assert len(rows) == 4 and all("│ inside " in row and "within" not in row for row in rows), rows
+    assert f"┃ {CONDITION_STATE_HEADING} " in out and "┃ Result " not in out
+    assert "LIMIT the CG leaves the envelope during the fuel burn" in out and "OUT OF LIMITS" in out
+    _, check = _inputs("twin6/leaves_path.toml")
+    assert not check.ok and all(condition_verdict(c, check) == ("inside", "ok") for c in check.conditions)
+    _, warned = _inputs("tandem2/aft_ballast.toml")  # the zero-fuel CG checked only as a warning
+    assert condition_verdict(warned.condition("zero_fuel"), warned) == ("OUTSIDE (warning)", "warning")

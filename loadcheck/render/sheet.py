@@ -292,7 +292,15 @@ def _fuel_plan(result: CheckResult, loading: ResolvedLoading | None) -> str:
 
 
 def _conditions(result: CheckResult, scaled: Any = None) -> str:
-    from .terminal import EDGE_NOTE, MARGIN_NOTE, condition_verdict, scaled_moment, scaled_moment_header, weight_margin
+    from .terminal import (
+        CONDITION_STATE_HEADING,
+        EDGE_NOTE,
+        MARGIN_NOTE,
+        condition_verdict,
+        scaled_moment,
+        scaled_moment_header,
+        weight_margin,
+    )
 
     units = result.units
     mac = any(c.mac_percent is not None for c in result.conditions)
@@ -301,7 +309,7 @@ def _conditions(result: CheckResult, scaled: Any = None) -> str:
     head += ["CG (% MAC)"] if mac else []
     head += [scaled_moment_header(scaled, units.moment)] if scaled is not None else []
     head += [f"Lateral CG ({units.arm}, + right)"] if lateral else []
-    head += ["Result", f"CG margin forward ({units.arm})", f"CG margin aft ({units.arm})"]
+    head += [CONDITION_STATE_HEADING, f"CG margin forward ({units.arm})", f"CG margin aft ({units.arm})"]
     head += [f"Lateral margin left ({units.arm})", f"Lateral margin right ({units.arm})"] if lateral else []
     head += [f"Weight margin ({units.mass})"]
     out = ["<h2>Conditions</h2><table id='conditions'>", _head(head)]

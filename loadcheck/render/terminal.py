@@ -34,6 +34,7 @@ if TYPE_CHECKING:  # the aircraft models (pydantic, numpy, shapely) are not load
 __all__ = [
     "EDGE_NOTE",
     "MARGIN_NOTE",
+    "CONDITION_STATE_HEADING",
     "Column",
     "condition_verdict",
     "moment_axis",
@@ -41,6 +42,7 @@ __all__ = [
     "scaled_moment_header",
     "weight_margin",
     "caution_text",
+    "checked_loading",
     "fitted_tables",
     "render_aircraft",
     "render_alteration",
@@ -313,12 +315,22 @@ def _margin(value: float | None, unit: str) -> str:
     return "" if value is None else fmt(value, unit, "down", with_unit=False)
 
 
+CONDITION_STATE_HEADING = "Envelope and weight limits"
+"""Heading of the column giving each condition's own state (:func:`condition_verdict`)."""
+
+
 def condition_verdict(c: Condition, result: CheckResult) -> tuple[str, str]:
-    """A condition's result in words and its severity (``ok``, ``warning`` or ``limit``): within,
-    within with a warning, outside only against a warning (the zero-fuel CG), or outside."""
+    """A condition's state against the envelope and the weight limits, in words, and its severity
+    (``ok``, ``warning`` or ``limit``): inside, inside with a warning, outside only against a
+    warning (the zero-fuel CG), or outside.
+
+    The words are "inside" / "OUTSIDE", never "within": a condition can be inside while the
+    loading is out of limits (the CG leaving the envelope during the burn), and the loading's
+    verdict is said once, by :func:`checked_loading`.
+    """
     mine = [f for f in result.findings if f.condition == c.condition]
     if c.ok:
-        return ("within (warning)", "warning") if any(f.severity == "warning" for f in mine) else ("within", "ok")
+        return ("inside (warning)", "warning") if any(f.severity == "warning" for f in mine) else ("inside", "ok")
     if all(f.severity == "warning" for f in mine):
         return "OUTSIDE (warning)", "warning"
     return "OUTSIDE", "limit"
@@ -368,7 +380,7 @@ def _conditions_table(result: CheckResult, console: Console, aircraft: Aircraft 
         columns.append(Column(scaled_moment_header(scaled, units.moment)))
     if lateral:
         columns.append(Column(f"Lateral CG ({units.arm})"))
-    columns.append(Column("Result", numeric=False))
+    columns.append(Column(CONDITION_STATE_HEADING, numeric=False))
     columns += [Column(f"CG margin forward ({units.arm})"), Column(f"CG margin aft ({units.arm})")]
     if lateral:
         columns += [Column(f"Lateral margin left ({units.arm})"), Column(f"Lateral margin right ({units.arm})")]
@@ -434,6 +446,21 @@ def _verdict(result: CheckResult) -> Text:
     return Text(f"OUT OF LIMITS: {count} {'limit' if count == 1 else 'limits'} exceeded.", style=_LIMIT_STYLE)
 
 
+def checked_loading(result: CheckResult, console: Console, aircraft: Aircraft | None = None) -> None:
+    """Print a checked loading as ``check`` shows it: the moment table (every station's weight and
+    every tank's fuel), the conditions, the burn-path line, the findings and the verdict.
+
+    Every output that proposes or reports a loading (a planning answer, a schedule case, an
+    extreme) prints it through here, so that a pilot can load what was checked and reads
+    the same findings and verdict as ``check`` gives for that loading.
+    """
+    _moment_table(result, console, aircraft)
+    _conditions_table(result, console, aircraft)
+    console.print(_burn_line(result))
+    _findings(result, console)
+    console.print(Panel(_verdict(result), expand=False))
+
+
 def render_check(
     result: CheckResult, console: Console, plot: Sequence[str] = (), aircraft: Aircraft | None = None
 ) -> None:
@@ -449,11 +476,7 @@ def render_check(
     if info.empty_weight_date:
         header += f" · empty weight of {info.empty_weight_date}"
     console.print(header, markup=False)
-    _moment_table(result, console, aircraft)
-    _conditions_table(result, console, aircraft)
-    console.print(_burn_line(result))
-    _findings(result, console)
-    console.print(Panel(_verdict(result), expand=False))
+    checked_loading(result, console, aircraft)
     for line in plot:
         console.print(line, markup=False, highlight=False, overflow="fold")
     console.print(caution_text(result.caution))
@@ -636,14 +659,8 @@ def render_plan(result: PlanResult, console: Console) -> None:
         )
         console.print(Text("Stretches are rounded inward: the ends shown are within limits.", style="dim"))
     if result.check is not None:
-        _conditions_table(result.check, console)
-        verdict = (
-            "The loading at this answer is within limits." if result.check.ok else "The loading is NOT within limits:"
-        )
-        console.print(Text(verdict, style=_OK_STYLE if result.check.ok else _LIMIT_STYLE))
-        limits = [f for f in result.check.findings if f.severity == "limit"]
-        if limits:
-            _lines(console, [(Text("  LIMIT", style=_LIMIT_STYLE), Text(f.message)) for f in limits])
+        console.print(Text("The loading checked at this answer", style="bold"))
+        checked_loading(result.check, console)
     console.print(caution_text(result.caution))
 
 
@@ -904,8 +921,7 @@ def render_extremes(result: Any, console: Console) -> None:
         for note in case.notes:
             console.print(f"  {note}", markup=False)
         console.print(f"  fuel states checked: {case.fuel_states}", markup=False)
-        _moment_table(case.check, console)
-        _conditions_table(case.check, console)
+        checked_loading(case.check, console)
         ramp = case.check.condition("ramp")
         words = "within limits" if case.ok else "NOT within limits"
         console.print(
@@ -915,9 +931,6 @@ def render_extremes(result: Any, console: Console) -> None:
                 style=_OK_STYLE if case.ok else _LIMIT_STYLE,
             )
         )
-        limits = [f for f in case.check.findings if f.severity == "limit"]
-        if limits:
-            _lines(console, [(Text("  LIMIT", style=_LIMIT_STYLE), Text(f.message)) for f in limits])
     console.print(caution_text(result.caution))
 
 
@@ -941,13 +954,7 @@ def render_schedule(result: Any, aircraft: Aircraft, console: Console) -> None:
         )
         console.print(f"  fuel: {fuel or 'none'}", markup=False)
         console.print(f"  fuel states checked: {case.fuel_states}", markup=False)
-        _conditions_table(case.check, console, aircraft)
-        console.print(
-            Text("  within limits" if case.ok else "  NOT within limits", style=_OK_STYLE if case.ok else _LIMIT_STYLE)
-        )
-        limits = [f for f in case.check.findings if f.severity == "limit"]
-        if limits:
-            _lines(console, [(Text("  LIMIT", style=_LIMIT_STYLE), Text(f.message)) for f in limits])
+        checked_loading(case.check, console, aircraft)
     console.print(caution_text(result.caution))
 
 

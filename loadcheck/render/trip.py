@@ -63,6 +63,14 @@ def render_trip(result: TripResult, console: Console, plots: Sequence[Sequence[s
         header += f" · empty weight of {info.empty_weight_date}"
     console.print(Text(header, style="bold"))
     console.print(Text(f"A trip of {len(result.legs)} legs; each leg is checked as a single loading.", style="bold"))
+    _legs(result, console, plots)
+    console.print(Panel(Text(trip_verdict(result), style=_OK_STYLE if result.ok else _LIMIT_STYLE), expand=False))
+    console.print(caution_text(result.caution))
+
+
+def _legs(result: TripResult, console: Console, plots: Sequence[Sequence[str]] = ()) -> None:
+    """Each leg as ``check`` shows a loading: its verdict, fuel, moment table, conditions, burn
+    path and findings (tagged with the leg), and its text plot if given."""
     units = result.units
     for index, leg in enumerate(result.legs):
         check = leg.check
@@ -92,8 +100,6 @@ def render_trip(result: TripResult, console: Console, plots: Sequence[Sequence[s
         if index < len(plots):
             for text in plots[index]:
                 console.print(text, markup=False, highlight=False)
-    console.print(Panel(Text(trip_verdict(result), style=_OK_STYLE if result.ok else _LIMIT_STYLE), expand=False))
-    console.print(caution_text(result.caution))
 
 
 def render_trip_plan(plan: TripPlan, console: Console) -> None:
@@ -114,12 +120,11 @@ def render_trip_plan(plan: TripPlan, console: Console) -> None:
         )
         console.print(Text("Stretches are rounded inward: the ends shown are within limits.", style="dim"))
     if plan.trip is not None:
-        for leg in plan.trip.legs:
-            console.print(Text(f"{_leg_title(leg)} at this answer", style="bold"))
-            _conditions_table(leg.check, console)
-        console.print(Text(trip_verdict(plan.trip), style=_OK_STYLE if plan.trip.ok else _LIMIT_STYLE))
-        if plan.trip.limits_exceeded:
-            _lines(console, [(Text("  LIMIT", style=_LIMIT_STYLE), Text(f.message)) for f in plan.trip.limits_exceeded])
+        console.print(Text("The loading checked at this answer, leg by leg", style="bold"))
+        _legs(plan.trip, console)
+        console.print(
+            Panel(Text(trip_verdict(plan.trip), style=_OK_STYLE if plan.trip.ok else _LIMIT_STYLE), expand=False)
+        )
     console.print(caution_text(plan.caution))
 
 
