@@ -640,7 +640,8 @@ def render_aircraft(aircraft: Aircraft, console: Console, caution: str, warnings
 
 
 def render_plan(result: PlanResult, console: Console) -> None:
-    """Print a planning answer: the answer, every feasible stretch, what limits it, the check at it."""
+    """Print a planning answer: the answer, every feasible stretch, what limits it, and the loading
+    checked at it as ``check`` shows it (:func:`checked_loading`)."""
     console.print(Text(result.question[:1].upper() + result.question[1:], style="bold"))
     style = _OK_STYLE if result.feasible else _LIMIT_STYLE
     console.print(Text(f"{result.variable}: {result.answer_display}", style=style))
