@@ -10,12 +10,18 @@ gallon per maximum-except-takeoff horsepower (METO), AC 43.13-1B 10-2 p (figures
 10-11 show both checks).
 
 The limits used to sort the items are the envelope's most forward and most rearward arm
-(common practice where the limits vary with weight). Items on the worse side are put at
-their maximum farthest-first, each within the room its station groups leave; every other
-station carries its minimum weight. Each extreme is a placard-type answer: it is checked in
-full (:func:`~loadcheck.check.check_loading`) as a flight that burns from the fuel it
-states down to the minimum fuel for balance (or to zero usable fuel where none is named),
-every tank burning in proportion to its fuel, and its verdict is that check's verdict.
+(common practice where the limits vary with weight). The pilot is always aboard and is
+seated first, at the standard occupant weight (never below the seat's minimum weight);
+where the pilot's seat itself lies on the worse side of the limit that weight is the
+heaviest the method puts there ("items ahead of the forward limit at their maximum", with
+occupants at the standard weight as in figures 10-10 and 10-11), capped at the seat's
+maximum weight. The other items on the worse side are then put at their maximum
+farthest-first (seats: as many standard occupants as fit), each within the room its
+station groups leave; every other station carries its minimum weight. Each extreme is a
+placard-type answer: it is checked in full (:func:`~loadcheck.check.check_loading`) as a
+flight that burns from the fuel it states down to the minimum fuel for balance (or to zero
+usable fuel where none is named), every tank burning in proportion to its fuel, and its
+verdict is that check's verdict.
 """
 
 from __future__ import annotations
@@ -138,6 +144,21 @@ def _limits(aircraft: Aircraft, category: str) -> tuple[float, float]:
     return min(arms), max(arms)
 
 
+def _seat_note(name: str, people: int, aboard: int, occupant: float, total: float, mass: str, beyond: str) -> str:
+    """How a seat station on the worse side of the limit was loaded, in words."""
+    others = people - aboard
+    plural = "s" if others > 1 else ""
+    if aboard and not others:
+        heaviest = "at the station's maximum " if total < occupant - 1e-9 else ""
+        return f"{name}: the pilot {heaviest}({fmt(total, mass)}), {beyond} limit"
+    what = f"{others} occupant{plural} at {occupant:g} {mass}"
+    if aboard:
+        what = f"the pilot and {what}"
+    if people > 1 or not math.isclose(total, people * occupant):
+        what += f" ({fmt(total, mass)})"
+    return f"{name}: {what}, {beyond} limit"
+
+
 def _case(
     aircraft: Aircraft,
     category: str,
@@ -160,33 +181,41 @@ def _case(
     pilot = min(pilots, key=lambda s: s.arm) if side == "forward" else max(pilots, key=lambda s: s.arm)
     stations: dict[str, float] = {s.id: s.min_weight for s in aircraft.station if s.min_weight}
     beyond = "ahead of the forward" if side == "forward" else "behind the rearward"
+    # the pilot is always aboard (AC 43.13-1B figures 10-10, 10-11): seated first, so that
+    # items farther beyond the limit cannot take the room a required pilot needs
+    pilot_room = load_room(aircraft, stations, pilot.id)
+    have = stations.get(pilot.id, 0.0)
+    stations[pilot.id] = max(have, min(occupant, have + pilot_room) if worse(pilot.arm) else occupant)
     # the items that make the case worse, farthest beyond the limit first
     for station in sorted((s for s in aircraft.station if worse(s.arm)), key=lambda s: -abs(s.arm - limit)):
         room = load_room(aircraft, stations, station.id)
+        have = stations.get(station.id, 0.0)
         if station.kind == "seat":
             count = station.seats or 1
-            people = min(count, int(room // occupant)) if math.isfinite(room) else count
-            add = people * occupant - stations.get(station.id, 0.0) if people else 0.0
-            add = max(0.0, add)
+            if station.id == pilot.id:  # the pilot's weight is already in; the others fill the room left
+                aboard = 1
+                others = min(count - 1, int(room // occupant)) if math.isfinite(room) else count - 1
+                people, total = 1 + others, have + others * occupant
+            else:
+                aboard = 0
+                people = min(count, int((have + room) // occupant)) if math.isfinite(room) else count
+                total = max(have, people * occupant)
             if people:
-                stations[station.id] = stations.get(station.id, 0.0) + add
-                notes.append(
-                    f"{station.name}: {people} occupant{'s' if people > 1 else ''} at {occupant:g} {mass} "
-                    f"({fmt(stations[station.id], mass)}), {beyond} limit"
-                )
+                stations[station.id] = total
+                notes.append(_seat_note(station.name, people, aboard, occupant, stations[station.id], mass, beyond))
         else:
             if not math.isfinite(room) or room <= 0:
                 if not math.isfinite(room):
                     notes.append(f"{station.name}: no maximum weight given, left at its minimum")
                 continue
-            stations[station.id] = stations.get(station.id, 0.0) + room
+            stations[station.id] = have + room
             capped = station.max_weight is None or stations[station.id] < station.max_weight - 1e-9
             what = "as much as its station group allows" if capped else "at its maximum"
             notes.append(f"{station.name}: {what} ({fmt(stations[station.id], mass)}), {beyond} limit")
-    if stations.get(pilot.id, 0.0) < occupant and not worse(pilot.arm):
-        stations[pilot.id] = max(occupant, stations.get(pilot.id, 0.0))
+    if not worse(pilot.arm):
+        others = any(stations.get(s.id, 0.0) > 0 for s in seats if s.id != pilot.id)
         notes.append(
-            f"{pilot.name}: the pilot alone ({fmt(stations[pilot.id], mass)}), in the "
+            f"{pilot.name}: the pilot{'' if others else ' alone'} ({fmt(stations[pilot.id], mass)}), in the "
             f"{'farthest-forward' if side == 'forward' else 'most rearward'} seat with controls"
         )
     for station in aircraft.station:

@@ -139,3 +139,77 @@ def _loading_of(check, aircraft):
     stations = {i.id: i.weight for i in check.items if i.id in aircraft.station_by_id}
     fuel = {i.id: i.fuel_volume for i in check.items if i.id in aircraft.tank_by_id}
     return Loading(load=stations, fuel=fuel, burn={"taxi": 0.0, "trip": ramp.fuel - landing.fuel})
+
+
+def _pilot_ahead_of_the_forward_limit(front_max: float = 250.0):
+    """A single-seat front (the required pilot's seat, minimum 120 lb) at +30 in, ahead of the
+    +35 in forward limit; a 50 lb nose locker at +10 in; a rear seat at +70 in behind the
+    +48 in rearward limit; 120 hp METO (minimum fuel for balance 10 US gal). Invented."""
+    return simple_aircraft(
+        station=[
+            {"id": "locker", "arm": 10.0, "kind": "baggage", "max_weight": 50.0},
+            {
+                "id": "front",
+                "arm": 30.0,
+                "kind": "seat",
+                "controls": True,
+                "min_weight": 120.0,
+                "max_weight": front_max,
+            },
+            {"id": "rear", "arm": 70.0, "kind": "seat"},
+        ],
+        meto_power_hp=120,
+    )
+
+
+def test_forward_extreme_seats_a_pilot_ahead_of_the_limit_at_the_heavy_weight():
+    # regression: the pilot's seat (ahead of the forward limit) kept its 120 lb minimum, because
+    # the room left above that minimum (130 lb) was less than one 170 lb occupant, and no note
+    # named the pilot. AC 43.13-1B 10-17, figure 10-10: items ahead of the forward limit at
+    # their maximum, the pilot aboard at the 170 lb standard occupant.
+    aircraft = _pilot_ahead_of_the_forward_limit()
+    case = extremes(aircraft).forward
+    load = {i.id: i.weight for i in case.check.items}
+    assert load["front"] == pytest.approx(170.0) and load["locker"] == pytest.approx(50.0)
+    assert "rear" not in load or load["rear"] == 0.0
+    # worked by hand, zero usable fuel: empty 1,000 lb x 40 in = 40,000 in-lb;
+    # pilot 170 lb x 30 in = 5,100 in-lb; locker 50 lb x 10 in = 500 in-lb;
+    # 1,000 + 170 + 50 = 1,220 lb; 40,000 + 5,100 + 500 = 45,600 in-lb; CG 45,600 / 1,220 = 37.377 in
+    zero = case.check.condition("zero_fuel")
+    assert zero.weight == pytest.approx(1220.0)
+    assert zero.arm == pytest.approx(45600.0 / 1220.0)
+    # at engine start, plus the minimum fuel for balance: 120 hp / 12 = 10 US gal (AC 43.13-1B 10-2 p)
+    # x 6 lb/US gal (avgas, common practice) = 60 lb x 45 in = 2,700 in-lb;
+    # 1,280 lb, 48,300 in-lb, CG 48,300 / 1,280 = 37.734 in
+    ramp = case.check.condition("ramp")
+    assert ramp.weight == pytest.approx(1280.0)
+    assert ramp.arm == pytest.approx(48300.0 / 1280.0)
+    # a lighter pilot (the 120 lb minimum) would put the CG aft of this: 45,600 - 50 x 30 = 44,100 in-lb
+    # over 1,170 lb = 37.692 in at zero fuel, so the heavy pilot is the more forward case
+    assert zero.arm < 44100.0 / 1170.0
+    assert "front: the pilot (170.0 lb), ahead of the forward limit" in case.notes
+    assert case.ok == case.check.ok
+
+
+def test_forward_extreme_pilot_seat_below_a_standard_occupant_is_at_its_maximum():
+    # a pilot's seat ahead of the forward limit whose maximum (150 lb) is below the 170 lb
+    # standard occupant: the pilot is there at that maximum, the heaviest it allows
+    # (AC 43.13-1B 10-17: items ahead of the forward limit at their maximum), never above it
+    aircraft = _pilot_ahead_of_the_forward_limit(front_max=150.0)
+    case = extremes(aircraft).forward
+    assert {i.id: i.weight for i in case.check.items}["front"] == pytest.approx(150.0)
+    assert "front: the pilot at the station's maximum (150.0 lb), ahead of the forward limit" in case.notes
+    assert not any(f.code == "station_max" for f in case.check.findings)
+
+
+def test_extreme_notes_say_one_occupant_once_and_the_pilot_not_alone_beside_a_passenger():
+    # regression: "Rear seat: 1 occupant at 77 kg (77.0 kg)" and "the pilot alone" while a
+    # rear occupant was also aboard (tandem2's rearward extreme)
+    case = extremes(_pilot_ahead_of_the_forward_limit()).rearward
+    assert "rear: 1 occupant at 170 lb, behind the rearward limit" in case.notes
+    pilot = [n for n in case.notes if n.startswith("front:")]
+    assert pilot == ["front: the pilot (170.0 lb), in the most rearward seat with controls"]
+    tandem = extremes(load_aircraft(sample("tandem2/aircraft.toml")))
+    notes = " ".join(tandem.rearward.notes + tandem.forward.notes)
+    assert "(77.0 kg), behind" not in notes and "alone" not in notes
+    assert "Front seat (pilot): the pilot (77.0 kg), ahead of the forward limit" in tandem.forward.notes
