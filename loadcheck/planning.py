@@ -15,6 +15,11 @@ Answers are shown rounded in the safe direction (never more fuel or payload than
 never less ballast or shift than needed), with more digits where the rounded figure would
 leave the stretch within limits.
 
+The reserve: a fuel figure an answer gives (a stretch, its most, its least) also lands with
+at least the loading's reserve, by the check's own rule (:func:`~loadcheck.check.below_reserve`),
+so the check at it gives no reserve warning; the file's reserve is used unless the caller
+gives another.
+
 One verdict: every answer carries the full check (:func:`~loadcheck.check.check_loading`)
 of the loading it proposes, at the figure shown, and is feasible only where that check
 finds the loading within limits.
