@@ -59,9 +59,22 @@ from .words import (
     weight_limit_message,
 )
 
-__all__ = ["WEIGHT_TOLERANCE", "check_loading", "check_many"]
+__all__ = ["WEIGHT_TOLERANCE", "below_reserve", "check_loading", "check_many"]
 
 _SAMPLES = 40  # evenly spaced points along the burn path for drawing it, besides where it leaves
+
+
+def below_reserve(landing_fuel: Any, reserve: float) -> Any:
+    """True where landing fuel is below the reserve (the check's reserve warning), for a number or an array.
+
+    Parameters
+    ----------
+    landing_fuel : fuel on board at landing [fuel volume unit], a float or an (N,) array
+    reserve : the fuel to land with [fuel volume unit]
+
+    The comparison allows the engine's weight tolerance, as every weight rule does (common practice).
+    """
+    return landing_fuel < reserve * (1 - WEIGHT_TOLERANCE)
 
 
 def check_loading(
@@ -185,7 +198,7 @@ def _explain(
         if not rows.loads_ok[i]:
             findings.extend(_load_findings(aircraft, resolved, found, i))
         landing_fuel = conditions[2].fuel
-        if resolved.reserve is not None and landing_fuel < resolved.reserve * (1 - WEIGHT_TOLERANCE):
+        if resolved.reserve is not None and below_reserve(landing_fuel, resolved.reserve):
             findings.append(
                 Finding(
                     code="reserve",

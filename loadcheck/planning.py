@@ -15,6 +15,11 @@ Answers are shown rounded in the safe direction (never more fuel or payload than
 never less ballast or shift than needed), with more digits where the rounded figure would
 leave the stretch within limits.
 
+The reserve: a fuel figure an answer gives (a stretch, its most, its least) also lands with
+at least the loading's reserve, by the check's own rule (:func:`~loadcheck.check.below_reserve`),
+so the check at it gives no reserve warning; the file's reserve is used unless the caller
+gives another.
+
 One verdict: every answer carries the full check (:func:`~loadcheck.check.check_loading`)
 of the loading it proposes, at the figure shown, and is feasible only where that check
 finds the loading within limits.
@@ -34,7 +39,7 @@ import numpy as np
 
 from .aircraft import Aircraft
 from .caution import PILOT_CAUTION
-from .check import check_loading
+from .check import below_reserve, check_loading
 from .display import decimals, fmt, round_safe
 from .engine import Evaluation, LoadingArrays, evaluate_arrays, loading_arrays
 from .errors import InputError, LoadcheckError, Problem, UnknownNameError
@@ -163,8 +168,11 @@ def feasible_intervals(
     return intervals
 
 
-def _ok(result: Evaluation) -> np.ndarray:
-    return result.ok
+def _ok(result: Evaluation, reserve: float | None = None) -> np.ndarray:
+    """Within limits, and, with a reserve, landing with at least it (no reserve warning of the check)."""
+    if reserve is None:
+        return result.ok
+    return result.ok & ~below_reserve(result.fuel["landing"].sum(axis=1), reserve)
 
 
 # -- helpers -------------------------------------------------------------------------------
@@ -222,6 +230,18 @@ def _why_not(aircraft: Aircraft, loading: ResolvedLoading, varies: str | None = 
         return "; ".join(f.message for f in fixed)
     words = sorted({limit_words(f) for f in check.findings if f.severity == "limit"})
     return "with this load and trip: " + ("; ".join(words) if words else "no amount is within limits")
+
+
+def _why_not_fuel(aircraft: Aircraft, loading: ResolvedLoading, within: bool) -> str:
+    """Why no ramp fuel is within limits and lands with the loading's reserve; ``within``: some
+    ramp fuel is within limits, only none of it lands with the reserve."""
+    if within and loading.reserve is not None:
+        unit = aircraft.units.fuel_volume
+        return (
+            f"no ramp fuel within limits lands with the loading's reserve of {fmt(loading.reserve, unit)} "
+            f"after taxi and trip of {fmt(loading.taxi + loading.trip, unit)}"
+        )
+    return _why_not(aircraft, loading)
 
 
 def safe_value(low: float, high: float, unit: str, direction: Literal["up", "down"]) -> tuple[float, str]:
@@ -389,7 +409,8 @@ def _beyond(
 def most_fuel(
     aircraft: Aircraft, loading: ResolvedLoading, *, fill: Sequence[str] | None = None, burn_to: float | None = None
 ) -> PlanResult:
-    """The largest ramp fuel for which the whole flight is within limits.
+    """The largest ramp fuel for which the whole flight is within limits and, where the loading
+    gives a reserve, lands with at least it (no reserve warning in the check at any figure given).
 
     Fuel goes into the tanks in ``fill`` order (default: the reverse of the burn order, or
     every tank in proportion to its capacity when they burn together); taxi and trip fuel
@@ -406,14 +427,21 @@ def most_fuel(
     capacity = _fuel_capacity(aircraft, order)
     step = _GRID_STEP / _mean_density(aircraft, loading)
 
-    def ok(x: np.ndarray) -> np.ndarray:
+    def ok(x: np.ndarray, reserve: float | None = loading.reserve) -> np.ndarray:
         fuel = _distribute(aircraft, base, order, x)
         if burn_to is None:
-            return _ok(evaluate_arrays(aircraft, base, fuel=fuel))
+            return _ok(evaluate_arrays(aircraft, base, fuel=fuel), reserve)
         trip = np.maximum(0.0, x - burn_to)
-        return _ok(evaluate_arrays(aircraft, base, fuel=fuel, taxi=np.zeros(len(x)), trip=trip))
+        return _ok(evaluate_arrays(aircraft, base, fuel=fuel, taxi=np.zeros(len(x)), trip=trip), reserve)
 
     pairs = feasible_intervals(ok, 0.0, capacity, step) if aircraft.tank else []
+
+    def why_not() -> str:
+        if not aircraft.tank:
+            return "this aircraft has no fuel tanks"
+        within = loading.reserve is not None and bool(feasible_intervals(lambda x: ok(x, None), 0.0, capacity, step))
+        return _why_not_fuel(aircraft, loading, within)
+
     unit = aircraft.units.fuel_volume
     result = _answer(
         aircraft,
@@ -423,7 +451,7 @@ def most_fuel(
         question="most fuel at engine start with this load",
         variable="ramp fuel",
         direction="down",
-        why_not=lambda: "this aircraft has no fuel tanks" if not aircraft.tank else _why_not(aircraft, loading),
+        why_not=why_not,
         governing=_beyond(
             (capacity, "the tanks' usable capacity"),
             lambda v: _fuel_loading(aircraft, loading, order, min(capacity, v + 2 * step), burn_to),
@@ -441,29 +469,38 @@ def longest_trip(
     loading: ResolvedLoading,
     *,
     rate: float,
-    reserve: float = 0.0,
+    reserve: float | None = None,
     fill: Sequence[str] | None = None,
 ) -> PlanResult:
-    """The longest trip the most fuel allows, landing with ``reserve`` left.
+    """The longest trip the most fuel allows, landing with a reserve left.
 
     Parameters
     ----------
     rate : fuel used per hour [fuel volume unit / h]
-    reserve : fuel to land with [fuel volume unit]
+    reserve : fuel to land with [fuel volume unit]; None: the loading's reserve, or none
+        (0) where the loading gives none. A reserve given here replaces the loading's.
 
     Returns
     -------
     PlanResult
-        ``variable`` is trip fuel [fuel volume unit]; ``extra`` gives the time.
+        ``variable`` is trip fuel [fuel volume unit]; ``extra`` gives the time and the
+        reserve landed with and where it came from.
     """
     if not rate > 0:
         raise InputError(Problem("rate", "must be above zero", value=rate))
+    if reserve is None:
+        source = "the loading's reserve" if loading.reserve is not None else "no reserve given"
+        reserve = loading.reserve if loading.reserve is not None else 0.0
+    else:
+        source = "the reserve asked for"
     if not reserve >= 0:
         raise InputError(Problem("reserve", "must not be negative", value=reserve))
-    fuel = most_fuel(aircraft, loading, fill=fill)
+    loading = loading.but(reserve=reserve)
     unit = aircraft.units.fuel_volume
+    landing_words = f"landing with at least {fmt(reserve, unit)} ({source})"
+    fuel = most_fuel(aircraft, loading, fill=fill)
     if fuel.answer is None or fuel.check is None:
-        return replace(fuel, question="longest trip", variable="trip fuel")
+        return replace(fuel, question=f"longest trip, {landing_words}", variable="trip fuel")
     fuelled = _fuel_loading(
         aircraft,
         loading,
@@ -481,7 +518,7 @@ def longest_trip(
         pairs,
         unit,
         at=lambda v: fuelled.but(trip=v, reserve=reserve),
-        question=f"longest trip with {fuel.answer_display} at engine start, landing with at least {reserve:g} {unit}",
+        question=f"longest trip with {fuel.answer_display} at engine start, {landing_words}",
         variable="trip fuel",
         direction="down",
         why_not=lambda: (
@@ -499,9 +536,14 @@ def longest_trip(
         shown = safe_value(result.intervals[-1].low, result.answer, unit, "down")[0]
         minutes = int(np.floor(shown / rate * 60.0 + 1e-9))
         return replace(
-            result, extra={"ramp fuel": fuel.answer_display, "time at the rate": f"{minutes // 60}:{minutes % 60:02d}"}
+            result,
+            extra={
+                "ramp fuel": fuel.answer_display,
+                "time at the rate": f"{minutes // 60}:{minutes % 60:02d}",
+                "reserve landed with": f"{fmt(reserve, unit)} ({source})",
+            },
         )
-    return result
+    return replace(result, extra={"reserve landed with": f"{fmt(reserve, unit)} ({source})"})
 
 
 def _station_rows(base: LoadingArrays, index: int, offset: float = 0.0) -> Callable[[np.ndarray], np.ndarray]:
@@ -747,11 +789,12 @@ def weight_shift(
 class TableRow(Result):
     """Allowed ramp fuel for one payload: payload [mass unit]; intervals of ramp fuel
     [fuel volume unit]; most, the largest allowed (None where none is), the figure whose
-    loading was checked in full."""
+    loading was checked in full; check, that check (at the figure shown), None where none is."""
 
     payload: float
     intervals: list[Interval]
     most: float | None
+    check: CheckResult | None = None
 
 
 @dataclass(frozen=True, kw_only=True, slots=True)
@@ -798,6 +841,7 @@ def fuel_payload_table(
                 payload=float(payload),
                 intervals=answer.intervals if answer.feasible else [],
                 most=answer.answer if answer.feasible else None,
+                check=answer.check if answer.feasible else None,
             )
         )
     units: dict[str, str] = {"mass": aircraft.units.mass, "fuel_volume": aircraft.units.fuel_volume}

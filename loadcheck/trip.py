@@ -30,7 +30,7 @@ import numpy as np
 
 from .aircraft import Aircraft
 from .caution import PILOT_CAUTION
-from .check import check_loading
+from .check import below_reserve, check_loading
 from .engine import evaluate, loading_arrays
 from .errors import InputError, LoadcheckError, Problem
 from .loading import BurnPlan, Loading, ResolvedTrip, StopFuel, landing_fuel, resolve_trip
@@ -168,6 +168,8 @@ def _legs_ok(aircraft: Aircraft, trip: ResolvedTrip, start: int, fuel: np.ndarra
             density=rows.density,
         )
         ok &= found.ok
+        if leg.reserve is not None:  # lands with at least its reserve: no reserve warning in its check
+            ok &= ~below_reserve(found.fuel["landing"].sum(axis=1), leg.reserve)
         if index + 1 < len(trip.legs):
             landed = {t: found.fuel["landing"][:, i] for i, t in enumerate(ids)}
             stop = trip.stops[index]
@@ -181,9 +183,13 @@ def _legs_ok(aircraft: Aircraft, trip: ResolvedTrip, start: int, fuel: np.ndarra
 class TripPlan(PlanResult):
     """A planning answer for a trip: a :class:`~loadcheck.planning.PlanResult` whose check is
     the trip's (``trip``, every leg at the figure shown); its own ``check`` stays None.
-    ``extra["least"]`` is the least of the variable that keeps every leg within limits."""
+    ``least`` is the least of the variable that keeps every leg within limits and lands each
+    leg with at least its reserve, as shown (rounded up) [fuel volume unit], ``least_trip``
+    the trip's check at that figure; ``extra["least"]`` shows it where it is above zero."""
 
     trip: TripResult | None = None
+    least: float | None = None
+    least_trip: TripResult | None = None
 
 
 def _first_limit(result: TripResult) -> str | None:
@@ -240,8 +246,12 @@ def _plan(
         except LoadcheckError:
             governing = None
     extra = {}
-    if pairs[0][0] > 0:
-        extra["least"] = safe_value(pairs[0][0], pairs[0][1], unit, "up")[1]
+    least, least_text = safe_value(pairs[0][0], pairs[0][1], unit, "up")
+    least_trip = check_trip(aircraft, at(least), samples=False)
+    if not least_trip.ok:  # never offer a figure the check rejects
+        extra["least"] = "none the check finds within limits: " + (_first_limit(least_trip) or "")
+    elif pairs[0][0] > 0:
+        extra["least"] = least_text
     return TripPlan(
         question=question,
         variable=variable,
@@ -253,6 +263,8 @@ def _plan(
         governing=governing,
         trip=check,
         extra=extra,
+        least=least if least_trip.ok else None,
+        least_trip=least_trip,
     )
 
 
@@ -261,7 +273,13 @@ def _why_not(aircraft: Aircraft, trip: ResolvedTrip) -> str:
         found = check_trip(aircraft, trip, samples=False)
     except LoadcheckError as error:
         return "; ".join(p.describe() for p in error.problems)
-    return "with this load and these legs: " + (_first_limit(found) or "no amount is within limits")
+    reserves = [f.message for f in found.findings if f.code == "reserve"]
+    reason = _first_limit(found) or (
+        "no fuel within limits lands every leg with its reserve (" + "; ".join(reserves) + ")"
+        if reserves
+        else "no amount is within limits"
+    )
+    return "with this load and these legs: " + reason
 
 
 def trip_most_fuel(
@@ -278,7 +296,8 @@ def trip_most_fuel(
     -------
     TripPlan
         ``variable`` is the first leg's ramp fuel [fuel volume unit]; ``extra["least"]``
-        the least fuel that keeps every leg within limits, where it is above zero.
+        the least fuel that keeps every leg within limits and lands each with its reserve,
+        where it is above zero (``least`` and ``least_trip``: that figure and its check).
     """
     resolved = _resolved_for_plan(aircraft, trip, category, 1)
     first = resolved.legs[0]
@@ -373,8 +392,9 @@ def fuel_to_add(
     -------
     TripPlan
         ``answer`` the most fuel that may be put in [fuel volume unit]; ``extra["least"]``
-        the least that keeps every leg within limits (enough for the legs' burns), where
-        above zero; ``intervals`` every stretch within limits.
+        the least that keeps every leg within limits and lands each with its reserve
+        (enough for the legs' burns), where above zero (``least`` and ``least_trip``: that
+        figure and its check); ``intervals`` every stretch within limits.
 
     Raises
     ------

@@ -170,3 +170,21 @@ def test_plan_stop_of_a_loading_of_one_leg_was_an_internal_error(runner):
     result = runner.invoke(app, ["plan", "stop", TRAINER, WITHIN, "--leg", "2"])
     assert_input_error(result, "leg", "one leg")
     assert "internal error" not in result.output
+
+
+def test_plan_trip_reserve_default_replaced_the_loading_s_reserve(runner):
+    # regression (outside review): --reserve defaulted to 0 and silently replaced the file's reserve = 8, so the
+    # longest trip landed with "at least 0 usgal"; fail closed: the file's value is used unless --reserve is given
+    file = str(sample("trainer4/within.toml"))  # [burn] reserve = 8, taxi = 1.2
+    plain = json.loads(runner.invoke(app, ["plan", "trip", file, "--rate", "9", "--json"]).stdout)
+    assert "landing with at least 8.0 usgal (the loading's reserve)" in plain["question"]
+    assert plain["extra"]["reserve landed with"] == "8.0 usgal (the loading's reserve)"
+    landing = next(c for c in plain["check"]["conditions"] if c["condition"] == "landing")
+    assert landing["fuel"] >= 8.0 - 1e-6  # the check at the figure shown lands with the reserve
+    assert not any(f["code"] == "reserve" for f in plain["check"]["findings"])
+    asked = json.loads(runner.invoke(app, ["plan", "trip", file, "--rate", "9", "--reserve", "5", "--json"]).stdout)
+    assert asked["extra"]["reserve landed with"] == "5.0 usgal (the reserve asked for)"
+    # 3 usgal less reserve is 3 usgal more trip fuel from the same ramp fuel (rounded down to 0.1 usgal)
+    assert asked["answer"] - plain["answer"] == pytest.approx(3.0, abs=0.11)
+    words = runner.invoke(app, ["plan", "trip", file, "--rate", "9"]).stdout
+    assert "(the loading's reserve)" in words and "at least 0 " not in words

@@ -175,11 +175,12 @@ def test_longest_trip_and_fuel_to_leave():
     assert trip.answer == pytest.approx(shown - inputs.loading.taxi - 8.0, abs=0.02)
     minutes = int(trip.answer / 9.5 * 60)  # rounded down: never more time than the fuel gives
     assert trip.extra["time at the rate"] == f"{minutes // 60}:{minutes % 60:02d}"
-    leave = P.fuel_to_leave(inputs.aircraft, inputs.loading, "rear", 220.0)
+    # 195 lb: with 220 lb the fuel within limits no longer lands with the loading's reserve of 8 usgal
+    leave = P.fuel_to_leave(inputs.aircraft, inputs.loading, "rear", 195.0)
     assert leave.feasible and leave.answer > 0
     lighter = P._fuel_loading(
         inputs.aircraft,
-        inputs.loading.but(stations={**inputs.loading.stations, "rear": 220.0}),
+        inputs.loading.but(stations={**inputs.loading.stations, "rear": 195.0}),
         None,
         sum(inputs.loading.fuel.values()) - leave.answer,
     )
@@ -252,16 +253,17 @@ def test_plan_table_and_chart(runner, tmp_path):
 def test_plan_leave_answers_fuel_left_behind_not_ramp_fuel():
     # regression: the stretches labelled "fuel left behind" were stretches of ramp fuel;
     # leaving behind what a stretch allowed put the aircraft over its maximum ramp weight
+    # (200 lb: with 300 lb no fuel within limits lands with the loading's reserve)
     inputs = load_check_inputs(sample("twin6/within.toml"))
     aircraft, loading = inputs.aircraft, inputs.loading
     now = sum(loading.fuel.values())
-    answer = P.fuel_to_leave(aircraft, loading, "row3", 300.0)
+    answer = P.fuel_to_leave(aircraft, loading, "row3", 200.0)
     assert answer.feasible and answer.check.ok
     assert all(0.0 <= i.low <= i.high <= now for i in answer.intervals)
     ramp = answer.check.condition("ramp")
     assert ramp.weight <= aircraft.limits.ramp
     assert ramp.fuel == pytest.approx(now - float(answer.answer_display.split()[0]), abs=1e-6)
-    with_payload = loading.but(stations={**loading.stations, "row3": 300.0})
+    with_payload = loading.but(stations={**loading.stations, "row3": 200.0})
     for interval in answer.intervals:  # every amount the answer allows leaving behind is within limits
         for leave in (interval.low, interval.high, 0.5 * (interval.low + interval.high)):
             assert _ok(aircraft, P._fuel_loading(aircraft, with_payload, ["mains", "aux"], now - leave))
@@ -381,3 +383,26 @@ def test_plan_table_chart_shows_only_the_fuel_each_row_allows():
                 ),
             )
             assert answer.feasible and answer.check.ok and answer.answer == pytest.approx(row.most)
+
+
+def test_plan_table_stretches_started_at_zero_landing_fuel_against_the_reserve():
+    # regression (outside review): plan table trainer4/within.toml --station rear gave stretches of ramp fuel
+    # whose low end landed with 0 usgal against the loading's reserve of 8 usgal; each row's low end now covers
+    # taxi, trip and reserve (1.2 + 18 + 8 = 27.2 usgal, the file's [burn]), and each row carries its check
+    inputs = load_check_inputs(sample("trainer4/within.toml"))
+    loading = inputs.loading
+    table = P.fuel_payload_table(inputs.aircraft, loading, "rear", steps=3)
+    floor = loading.taxi + loading.trip + loading.reserve
+    assert floor == pytest.approx(27.2)
+    rows = [r for r in table.rows if r.most is not None]
+    assert rows
+    for row in rows:
+        assert row.intervals[0].low >= floor - 0.01
+        assert row.check is not None and row.check.ok
+        assert not any(f.code == "reserve" for f in row.check.findings)
+    # the low end itself: a loading just above it lands with the reserve, one 0.2 usgal below warns
+    low = rows[0].intervals[0].low
+    at = check_loading(inputs.aircraft, P._fuel_loading(inputs.aircraft, loading, None, low + 0.05))
+    assert not any(f.code == "reserve" for f in at.findings)
+    under = check_loading(inputs.aircraft, P._fuel_loading(inputs.aircraft, loading, None, low - 0.2))
+    assert any(f.code == "reserve" for f in under.findings)

@@ -102,7 +102,7 @@ PLAN_COMMANDS = [
     ["stop", "heli2/trip_drop_off.toml", "--leg", "2"],
     ["trip", "trainer4/within.toml", "--rate", "9.5", "--reserve", "8"],
     ["payload", "trainer4/within.toml", "--station", "hold"],
-    ["leave", "twin6/within.toml", "--station", "row3", "--payload", "340"],
+    ["leave", "twin6/within.toml", "--station", "row3", "--payload", "200"],
     ["ballast", "tandem2/aft_heavy.toml"],
     ["shift", "tandem2/aft_heavy.toml", "--from", "baggage", "--to", "front"],
     ["table", "trainer4/within.toml", "--station", "rear"],

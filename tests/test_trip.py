@@ -535,3 +535,38 @@ def test_plan_stop_past_the_last_leg_said_legs_2_to_2(runner, tmp_path):
     four = runner.invoke(app, ["plan", "stop", path, "--leg", "1", "--leg-burn", "3:trip=5", "--leg-burn", "4:trip=5"])
     assert four.exit_code == 2
     assert "the trip has 4 legs: its 3 stops come before legs 2 to 4; got 1" in " ".join(four.output.split())
+
+
+def test_trip_least_fuel_landed_below_the_reserve():
+    # regression (outside review): plan fuel on heli2/trip_drop_off.toml gave "least that keeps every leg within
+    # limits: 19.0 usgal", but at 19 usgal leg 2 lands with 0.0 usgal against the file's reserve of 4 (the check's
+    # reserve warning). The least now lands every leg with its reserve, and the answer carries its check.
+    inputs = load_check_inputs(sample("heli2/trip_drop_off.toml"), allow_trip=True, fuel_to_plan=True)
+    plan = trip_most_fuel(inputs.aircraft, inputs.trip)
+    assert plan.feasible and plan.least is not None and plan.least_trip is not None
+    assert plan.least_trip.ok and not any(f.code == "reserve" for f in plan.least_trip.findings)
+    assert plan.extra["least"] == f"{plan.least:.1f} usgal" and plan.least > 19.0
+    reserves = [leg.reserve for leg in inputs.trip.legs]
+    for leg, reserve in zip(plan.least_trip.legs, reserves, strict=True):
+        assert reserve is None or leg.check.condition("landing").fuel >= reserve - 1e-6
+    # 0.2 usgal less than the least: the check of that trip warns that a leg lands below its reserve
+    # (or finds a limit), so the least is the least (common practice: a reserve is fuel landed with)
+    below = check_trip(inputs.aircraft, _first_fuel(inputs, plan.least - 0.2), samples=False)
+    assert not below.ok or any(f.code == "reserve" for f in below.findings)
+    # the stop's answer too: the least fuel put in lands every later leg with its reserve
+    stop = fuel_to_add(inputs.aircraft, inputs.trip, 2)
+    assert stop.least_trip is not None and not any(f.code == "reserve" for f in stop.least_trip.findings)
+
+
+def _first_fuel(inputs, total):
+    """The trip with ``total`` ramp fuel at the first engine start, in the plan's fill order."""
+    import numpy as np
+
+    from loadcheck.engine import loading_arrays
+    from loadcheck.planning import _distribute, _fill_order
+    from loadcheck.trip import trip_legs
+
+    aircraft, trip = inputs.aircraft, inputs.trip
+    first = trip.legs[0]
+    row = _distribute(aircraft, loading_arrays(aircraft, first), _fill_order(aircraft, first, None), np.array([total]))
+    return trip_legs(aircraft, trip, 0, {t.id: float(row[0][i]) for i, t in enumerate(aircraft.tank)})

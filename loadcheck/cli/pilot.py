@@ -510,7 +510,12 @@ def plan_trip(
     category: CategoryOpt = None,
     fill: FillOpt = None,
     rate: Annotated[str | None, typer.Option(metavar="AMOUNT", help="Fuel used per hour [fuel volume unit].")] = None,
-    reserve: Annotated[str, typer.Option(metavar="AMOUNT", help="Fuel to land with [fuel volume unit].")] = "0",
+    reserve: Annotated[
+        str | None,
+        typer.Option(
+            metavar="AMOUNT", help="Fuel to land with [fuel volume unit] (default: the loading's reserve, else none)."
+        ),
+    ] = None,
     json_out: JsonOpt = False,
 ) -> None:
     """The longest trip the most fuel allows at a burn rate, landing with a reserve.
@@ -531,7 +536,7 @@ def plan_trip(
         inputs.aircraft,
         inputs.loading,
         rate=read_rate(_need(rate, "--rate"), volume, "--rate"),
-        reserve=read_amount(reserve, volume, "--reserve"),
+        reserve=None if reserve is None else read_amount(reserve, volume, "--reserve"),
         fill=_fill(fill),
     )
     _answer(result, json_out)
