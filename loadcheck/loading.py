@@ -34,9 +34,9 @@ from .words import count
 __all__ = [
     "Burn",
     "BurnPlan",
-    "MAX_NAME_LENGTH",
     "Leg",
     "Loading",
+    "MAX_NAME_LENGTH",
     "ResolvedLoading",
     "ResolvedTrip",
     "StopFuel",
@@ -47,6 +47,7 @@ __all__ = [
     "leg_of_field",
     "resolve_loading",
     "resolve_trip",
+    "unknown_station",
 ]
 
 Amount = Annotated[float | str, Field(union_mode="left_to_right")]
@@ -600,13 +601,7 @@ def resolve_loading(
     stations: dict[str, float] = {}
     for name, amount in loading.load.items():
         if name not in aircraft.station_by_id:
-            unknown.append(
-                Problem(
-                    f"load.{name}",
-                    f"unknown station {name!r}{spelling_hint(name, aircraft.station_by_id)}",
-                    expected=_known(aircraft.station_by_id),
-                )
-            )
+            unknown.append(unknown_station(f"load.{name}", name, aircraft))
             continue
         quantity = parse_quantity(amount)
         stations[name] = quantity.value if quantity.unit is None else convert(quantity.value, quantity.unit, units.mass)
@@ -614,13 +609,7 @@ def resolve_loading(
     names: dict[str, str] = {}
     for name, person in loading.names.items():
         if name not in aircraft.station_by_id:
-            unknown.append(
-                Problem(
-                    f"names.{name}",
-                    f"unknown station {name!r}{spelling_hint(name, aircraft.station_by_id)}",
-                    expected=_known(aircraft.station_by_id),
-                )
-            )
+            unknown.append(unknown_station(f"names.{name}", name, aircraft))
         elif not stations.get(name, 0.0) > 0:  # a name without a weight: a person left out of the sums
             problems.append(
                 Problem(
@@ -989,6 +978,15 @@ def _stop_fuel(
 
 def _known(names: Mapping[str, Any]) -> str:
     return "one of " + ", ".join(names) if names else "none is defined"
+
+
+def unknown_station(field: str, name: str, aircraft: Aircraft) -> Problem:
+    """The problem of a station id the aircraft does not have, with a spelling hint and the ids it has."""
+    return Problem(
+        field,
+        f"unknown station {name!r}{spelling_hint(name, aircraft.station_by_id)}",
+        expected=_known(aircraft.station_by_id),
+    )
 
 
 def _to_volume(quantity: Quantity, density: float, mass_unit: str, volume_unit: str) -> float:

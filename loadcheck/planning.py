@@ -43,7 +43,7 @@ from .check import below_reserve, check_loading
 from .display import decimals, fmt, round_safe
 from .engine import Evaluation, LoadingArrays, evaluate_arrays, loading_arrays
 from .errors import InputError, LoadcheckError, Problem, UnknownNameError
-from .loading import BurnPlan, ResolvedLoading
+from .loading import BurnPlan, ResolvedLoading, unknown_station
 from .results import CheckResult, Finding, Result
 from .words import LIMIT_NAMES, condition_words, stretch_text
 
@@ -185,7 +185,7 @@ def _with_fuel(loading: ResolvedLoading, fuel: dict[str, float]) -> ResolvedLoad
 def _station(aircraft: Aircraft, station: str) -> int:
     ids = [s.id for s in aircraft.station]
     if station not in ids:
-        raise UnknownNameError(Problem("station", f"unknown station {station!r}", expected="one of " + ", ".join(ids)))
+        raise UnknownNameError(unknown_station("station", station, aircraft))
     return ids.index(station)
 
 

@@ -406,3 +406,16 @@ def test_plan_table_stretches_started_at_zero_landing_fuel_against_the_reserve()
     assert not any(f.code == "reserve" for f in at.findings)
     under = check_loading(inputs.aircraft, P._fuel_loading(inputs.aircraft, loading, None, low - 0.2))
     assert any(f.code == "reserve" for f in under.findings)
+
+
+def test_regression_a_misspelt_planning_station_got_no_spelling_hint():
+    # `plan payload --station frnt` said "unknown station 'frnt'" where a check's --load frnt=80 says
+    # "(did you mean 'front'?)": both now come from loading.unknown_station
+    from loadcheck.errors import UnknownNameError
+
+    inputs = load_check_inputs(sample("trainer4/within.toml"))
+    with pytest.raises(UnknownNameError) as error:
+        P.most_payload(inputs.aircraft, inputs.loading, "frnt")
+    (problem,) = error.value.problems
+    assert problem.field == "station" and "did you mean 'front'?" in problem.message
+    assert problem.expected == "one of front, rear, hold"
