@@ -315,8 +315,9 @@ def _margin(value: float | None, unit: str) -> str:
     return "" if value is None else fmt(value, unit, "down", with_unit=False)
 
 
-CONDITION_STATE_HEADING = "Envelope and weight limits"
-"""Heading of the column giving each condition's own state (:func:`condition_verdict`)."""
+CONDITION_STATE_HEADING = "Limits"
+"""Heading of the column giving each condition's own state against the envelope and the weight limits
+(:func:`condition_verdict`)."""
 
 
 def condition_verdict(c: Condition, result: CheckResult) -> tuple[str, str]:
