@@ -64,19 +64,27 @@ class _SignInNeeded(Exception):
 
 
 class CheckRequest(BaseModel):
-    """A loading for the API: the same fields as a loading file's ``[load]``, ``[fuel]`` and ``[burn]``."""
+    """A loading for the API: the same fields as a loading file's ``[load]``, ``[fuel]`` and ``[burn]``.
 
-    model_config = ConfigDict(extra="forbid")
+    The loading's tables are taken as JSON gives them (``JsonValue``: nothing converted here) and
+    handed to :func:`~loadcheck.files.load_check_inputs`, the command line's job, so that every
+    boundary rule is the library's, said in its words: a ``true`` where a weight goes is refused
+    as in a loading file (pydantic's lax mode would read it as 1), so is NaN or an infinity
+    (Python's ``json`` reads ``NaN`` and ``Infinity``). The desk's own fields are strict: a
+    ``record`` of ``"yes"`` or ``1``, a ``stop`` of ``"2"`` or ``true`` is refused, never read.
+    """
+
+    model_config = ConfigDict(extra="forbid", strict=True)
 
     registration: str = Field(description="the aircraft, by registration, in the desk's fleet")
-    load: dict[str, str | float] = Field(
+    load: dict[str, JsonValue] = Field(
         default_factory=dict, description="mass per station: a number [mass unit] or with a unit"
     )
     names: dict[str, JsonValue] = Field(
         default_factory=dict,
         description="optional: who is at each station, a person's name per station id (the loading file's [names])",
     )
-    fuel: dict[str, str | float] = Field(
+    fuel: dict[str, JsonValue] = Field(
         default_factory=dict, description="quantity per tank at engine start: volume, 'full', a level name"
     )
     burn: dict[str, JsonValue] = Field(
@@ -136,9 +144,9 @@ class Overrides(TypedDict):
     """A loading as the form or the API body gives it to :func:`~loadcheck.files.load_check_inputs`:
     the loading file's tables, as typed (the library reads and checks every value)."""
 
-    load: Mapping[str, str | float]
+    load: Mapping[str, object]
     names: Mapping[str, object]
-    fuel: Mapping[str, str | float]
+    fuel: Mapping[str, object]
     burn: Mapping[str, object]
     category: str | None
     legs: Mapping[int, Mapping[str, object]]
@@ -529,8 +537,12 @@ def create_app(
             {"field": ".".join(str(p) for p in e.get("loc", ()) if p != "body"), "message": e.get("msg", "")}
             for e in error.errors()
         ]
-        if request.url.path.startswith("/api/"):
-            return JSONResponse({"problems": problems}, status_code=422)
+        if request.url.path.startswith("/api/"):  # the library's problems' shape, with the value as sent
+            said = [
+                Problem(p["field"], p["message"], None if e.get("type") == "missing" else e.get("input"))
+                for p, e in zip(problems, error.errors(), strict=True)
+            ]
+            return JSONResponse({"problems": desk.problems(InputError(said))}, status_code=422)
         return page(
             request,
             "message.html",

@@ -1,0 +1,169 @@
+"""The desk's JSON API boundary, its plan-fuel job and the words of its conditions and mechanic pages.
+
+The rules checked here are the library's own, reached the one way the command line reaches
+them (loadcheck/files.load_check_inputs over a loading's raw values): each test compares the
+desk's answer with the library's or the command line's for the same values, never with words
+or numbers of its own. The outside sources the rules come from are named beside each check:
+RFC 8259 (The JavaScript Object Notation (JSON) Data Interchange Format, December 2017),
+TOML v1.0.0 (toml.io, "Keys" and "Table"), and the project's rule "fail closed at the boundary"
+(common practice: a value is used as given or refused, never converted or guessed).
+"""
+
+from __future__ import annotations
+
+import json
+import math
+from pathlib import Path
+from typing import Any
+
+import pytest
+
+pytest.importorskip("fastapi")
+pytest.importorskip("argon2")
+
+from loadcheck.errors import LoadcheckError
+from loadcheck.files import load_check_inputs
+
+from .helpers import assert_input_error, invoke
+from .web_helpers import SAMPLES, _client, _records
+
+TRAINER = SAMPLES / "trainer4" / "aircraft.toml"
+BODY: dict[str, Any] = {
+    "registration": "DEMO-4T",
+    "load": {"front": 340, "rear": 160, "hold": "15 kg"},
+    "fuel": {"mains": "school", "centre": 0},
+    "burn": {"taxi": 1.2, "trip": 18, "reserve": 8},
+}
+ROUTES = {"check": {}, "plan/fuel": {}, "plan/payload": {"station": "hold"}, "plan/stop": {"stop": 2}}
+
+
+def _library_words(**overrides: Any) -> list[str]:
+    """The library's problems (as the desk shows them: no file) for a loading of these raw values."""
+    with pytest.raises(LoadcheckError) as refused:
+        load_check_inputs(TRAINER, None, allow_trip=True, **{**_tables(BODY), **overrides})
+    return [p.describe() for p in refused.value.problems]
+
+
+def _tables(body: dict[str, Any]) -> dict[str, Any]:
+    return {key: body[key] for key in ("load", "fuel", "burn")}
+
+
+def _with(table: str, key: str, value: object) -> dict[str, Any]:
+    return {**BODY, table: {**BODY[table], key: value}}
+
+
+# -- booleans, JSON strings, NaN and infinities --------------------------------------------------
+
+
+@pytest.mark.parametrize(
+    ("table", "key", "value"),
+    [("load", "front", True), ("load", "rear", False), ("fuel", "mains", True), ("burn", "taxi", True)],
+)
+def test_regression_api_refuses_a_boolean_weight_or_fuel_in_the_librarys_words(
+    desk: dict[str, Any], tmp_path: Path, table: str, key: str, value: bool
+) -> None:
+    """A ``true`` where a weight or fuel goes was read as 1 (pydantic's lax mode) and checked "ok":
+    every API route now refuses it as a loading file and the command line do (fail closed;
+    loadcheck/filemodel.py's rule), with the same words, and records nothing."""
+    client = _client(desk, "pia")
+    body = _with(table, key, value)
+    expected = _library_words(**{table: body[table]})
+    assert expected and all("true or false" in words for words in expected)
+    for route, extra in ROUTES.items():
+        response = client.post(f"/api/{route}", json={**body, **extra, "record": route == "check"})
+        assert response.status_code == 422, (route, response.text)
+        assert [p["message"] for p in response.json()["problems"]] == expected, route
+    assert _records(desk) == []
+    # the same value in a loading file is refused by the command line in the same words
+    loading = tmp_path / "loading.toml"
+    text = json.dumps(value)  # true / false, as TOML writes them too
+    tables = {**_tables(BODY), table: {**BODY[table], key: text}}
+    loading.write_text(
+        'format = 1\naircraft = "'
+        + str(TRAINER)
+        + '"\n'
+        + "".join(f"[{name}]\n" + "".join(f"{k} = {_toml(v)}\n" for k, v in t.items()) for name, t in tables.items()),
+        encoding="utf-8",
+    )
+    assert_input_error(invoke(*["check", str(loading)]), *expected)
+
+
+def _toml(value: object) -> str:
+    return value if value in ("true", "false") else json.dumps(value)  # type: ignore[return-value]
+
+
+@pytest.mark.parametrize("constant", ["NaN", "Infinity", "-Infinity"])
+@pytest.mark.parametrize(("table", "key"), [("load", "front"), ("fuel", "mains"), ("burn", "trip")])
+def test_regression_api_refuses_nan_and_infinity_in_the_librarys_words(
+    reading_desk: dict[str, Any], constant: str, table: str, key: str
+) -> None:
+    """RFC 8259 section 6 has no NaN or infinity, but Python's ``json`` reads them: the desk hands
+    them to the library, which refuses a number that is not finite, naming the field."""
+    client = _client(reading_desk, "pia")
+    number = {"NaN": math.nan, "Infinity": math.inf, "-Infinity": -math.inf}[constant]
+    expected = _library_words(**{table: {**BODY[table], key: number}})
+    assert any(f"{table}.{key}" in words and "finite" in words for words in expected)
+    text = json.dumps(_with(table, key, "HERE")).replace('"HERE"', constant)
+    for route, extra in ROUTES.items():
+        body = text[:-1] + "".join(f", {json.dumps(k)}: {json.dumps(v)}" for k, v in extra.items()) + "}"
+        response = client.post(f"/api/{route}", content=body, headers={"content-type": "application/json"})
+        assert response.status_code == 422, (route, response.text)
+        assert [p["message"] for p in response.json()["problems"]] == expected, route
+
+
+def test_regression_api_reads_a_weight_as_text_as_the_command_line_does(reading_desk: dict[str, Any]) -> None:
+    """A weight given as a JSON string is the library's to read, as ``--load front=340`` is (a
+    string with or without a unit): the same check as the command line's, never a guess of the desk's."""
+    client = _client(reading_desk, "pia")
+    body = {**BODY, "load": {"front": "340", "rear": "160", "hold": "15 kg"}}
+    answer = client.post("/api/check", json=body).json()
+    cli = invoke(
+        *[
+            "check",
+            str(TRAINER),
+            "--load",
+            "front=340",
+            "--load",
+            "rear=160",
+            "--load",
+            "hold=15 kg",
+            "--fuel",
+            "mains=school",
+            "--fuel",
+            "centre=0",
+            "--taxi",
+            "1.2",
+            "--trip",
+            "18",
+            "--reserve",
+            "8",
+            "--json",
+        ],
+    )
+    assert json.loads(cli.stdout) == answer
+
+
+@pytest.mark.parametrize(
+    ("field", "value", "route"),
+    [
+        ("record", "yes", "check"),
+        ("record", 1, "check"),
+        ("record", "true", "check"),
+        ("stop", "2", "plan/stop"),
+        ("stop", True, "plan/stop"),
+        ("stop", 2.0, "plan/stop"),
+    ],
+)
+def test_regression_api_desk_fields_take_only_their_json_type(
+    desk: dict[str, Any], field: str, value: object, route: str
+) -> None:
+    """The desk's own fields were read in pydantic's lax mode (``"record": "yes"`` recorded,
+    ``"stop": true`` was leg 1): a value of another JSON type is refused, naming the field and
+    the value as sent, and nothing is recorded (fail closed, common practice)."""
+    client = _client(desk, "pia")
+    response = client.post(f"/api/{route}", json={**BODY, field: value})
+    assert response.status_code == 422
+    [problem] = response.json()["problems"]
+    assert problem["field"] == field and problem["value"] == str(value) and repr(value) in problem["message"]
+    assert _records(desk) == []
+    assert client.post("/api/check", json={**BODY, "record": True}).json()["record_id"] >= 1  # the JSON type is taken
