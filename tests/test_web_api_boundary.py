@@ -167,3 +167,57 @@ def test_regression_api_desk_fields_take_only_their_json_type(
     assert problem["field"] == field and problem["value"] == str(value) and repr(value) in problem["message"]
     assert _records(desk) == []
     assert client.post("/api/check", json={**BODY, "record": True}).json()["record_id"] >= 1  # the JSON type is taken
+
+
+# -- a key given twice ----------------------------------------------------------------------------
+
+
+@pytest.mark.parametrize(
+    ("text", "field", "first", "second"),
+    [
+        ('"load": {"front": 170, "rear": 160, "front": 10}', "load.front", "170", "10"),
+        ('"load": {"front": 340}, "registration": "DEMO-6P"', "registration", '"DEMO-4T"', '"DEMO-6P"'),
+        ('"load": {"front": 340}, "burn": {"trip": 18, "trip": 1}', "burn.trip", "18", "1"),
+        (
+            '"load": {"front": 340}, "leg": [{"burn": {"trip": 5}, "load": {"rear": 0, "rear": 90}}]',
+            "leg[0].load.rear",
+            "0",
+            "90",
+        ),
+        ('"load": {"front": 340}, "fuel": {"mains": "school"}, "fuel": {"mains": "full"}', "fuel", "{...}", "{...}"),
+    ],
+)
+def test_regression_api_refuses_a_key_given_twice(
+    desk: dict[str, Any], tmp_path: Path, text: str, field: str, first: str, second: str
+) -> None:
+    """Python's ``json`` keeps the last of a key given twice (``"front": 170, "front": 10`` was
+    checked with 10, "ok"); RFC 8259 section 4 leaves duplicate names to the reader and TOML
+    v1.0.0 ("Keys": defining a key multiple times is invalid) refuses them: the desk refuses
+    them at any depth, naming the key by its path and both values, and records nothing."""
+    client = _client(desk, "pia")
+    body = '{"registration": "DEMO-4T", ' + text + ', "record": true}'
+    for route in ("check", "plan/fuel"):
+        response = client.post(f"/api/{route}", content=body, headers={"content-type": "application/json"})
+        assert response.status_code == 422, response.text
+        [problem] = response.json()["problems"]
+        assert problem["field"] == field and f"({first}, then {second})" in problem["message"], problem
+    assert _records(desk) == []
+    # the same in a loading file: the library refuses it too (the TOML reader's rule)
+    loading = tmp_path / "twice.toml"
+    loading.write_text(f'format = 1\naircraft = "{TRAINER}"\n[load]\nfront = 170\nfront = 10\n', encoding="utf-8")
+    assert_input_error(invoke(*["check", str(loading)]), "TOML")
+
+
+def test_regression_api_body_that_is_not_json_is_refused_with_where(reading_desk: dict[str, Any]) -> None:
+    """A body that is not JSON (RFC 8259 section 2) is refused with the reader's words and where."""
+    client = _client(reading_desk, "pia")
+    response = client.post(
+        "/api/check",
+        content='{"registration": "DEMO-4T", "load": {"front": 1',
+        headers={"content-type": "application/json"},
+    )
+    assert response.status_code == 422
+    [problem] = response.json()["problems"]
+    assert "not JSON" in problem["message"] and "line 1, column" in problem["message"]
+    deep = "[" * 100_000 + "]" * 100_000  # more nesting than a reader can follow: refused, never a traceback
+    assert client.post("/api/check", content=deep, headers={"content-type": "application/json"}).status_code == 422
