@@ -13,6 +13,7 @@ from __future__ import annotations
 
 import json
 import math
+from html import escape
 from pathlib import Path
 from typing import Any
 
@@ -25,7 +26,7 @@ from loadcheck.errors import LoadcheckError
 from loadcheck.files import load_check_inputs
 
 from .helpers import assert_input_error, invoke
-from .web_helpers import SAMPLES, _client, _records
+from .web_helpers import SAMPLES, _client, _post_check, _records
 
 TRAINER = SAMPLES / "trainer4" / "aircraft.toml"
 BODY: dict[str, Any] = {
@@ -221,3 +222,40 @@ def test_regression_api_body_that_is_not_json_is_refused_with_where(reading_desk
     assert "not JSON" in problem["message"] and "line 1, column" in problem["message"]
     deep = "[" * 100_000 + "]" * 100_000  # more nesting than a reader can follow: refused, never a traceback
     assert client.post("/api/check", content=deep, headers={"content-type": "application/json"}).status_code == 422
+
+
+# -- the most fuel without fuel given ----------------------------------------------------------------
+
+
+def test_regression_plan_fuel_without_fuel_is_the_command_lines_answer(reading_desk: dict[str, Any]) -> None:
+    """docs/planning.md: ``plan fuel`` needs no fuel given (the answer chooses it). The desk
+    refused a loading with no fuel ("taxi and trip fuel exceed the fuel the burn order can
+    use"); the API and the form now give the command line's answer for the same values."""
+    client = _client(reading_desk, "pia")
+    body = {"registration": "DEMO-4T", "load": {"front": 340, "rear": 160}, "burn": {"taxi": 1.2, "trip": 18}}
+    cli = invoke(
+        *[
+            "plan",
+            "fuel",
+            str(TRAINER),
+            "--load",
+            "front=340",
+            "--load",
+            "rear=160",
+            "--taxi",
+            "1.2",
+            "--trip",
+            "18",
+            "--json",
+        ]
+    )
+    expected = json.loads(cli.stdout)
+    assert expected["feasible"] and expected["answer"] > 0
+    assert client.post("/api/plan/fuel", json=body).json() == expected
+    form = _post_check(
+        client, {"load.front": "340", "load.rear": "160", "burn.taxi": "1.2", "burn.trip": "18"}, action="fuel"
+    )
+    assert form.status_code == 200 and escape(expected["answer_display"]) in form.text
+    # a check of the same loading still needs its fuel: only the planning answer chooses it
+    check = _post_check(client, {"load.front": "340", "load.rear": "160", "burn.taxi": "1.2", "burn.trip": "18"})
+    assert check.status_code == 422 and "burn" in check.text

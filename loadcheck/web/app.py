@@ -488,12 +488,15 @@ def form_key(field: str) -> str:
     return f"leg.{number}" + (f".{rest}" if rest else "")
 
 
-def _inputs(desk: Desk, registration: str, overrides: Overrides) -> CheckInputs:
-    """The aircraft and the loading (one leg or a trip of several) resolved, as the command line reads them."""
+def _inputs(desk: Desk, registration: str, overrides: Overrides, *, fuel_to_plan: bool = False) -> CheckInputs:
+    """The aircraft and the loading (one leg or a trip of several) resolved, as the command line reads them.
+
+    ``fuel_to_plan`` for the most fuel: the answer chooses the fuel, so the fuel given (none, or
+    too little for taxi and trip) is not refused, as ``plan fuel`` reads it."""
     from ..files import load_check_inputs
 
     _, path = desk.aircraft_path(registration)
-    return load_check_inputs(path, None, allow_trip=True, **overrides)
+    return load_check_inputs(path, None, allow_trip=True, fuel_to_plan=fuel_to_plan, **overrides)
 
 
 def _trip_or_given(inputs: CheckInputs) -> Loading | ResolvedTrip:
@@ -756,15 +759,16 @@ def create_app(
         return _form_page(request, aircraft, {}, [])
 
     async def _checked(
-        request: Request, registration: str
+        request: Request, registration: str, *, fuel_to_plan: bool = False
     ) -> tuple[Account, Aircraft, dict[str, str], CheckInputs | None, list[ProblemView]]:
-        """The form read and checked: (account, aircraft, typed values, inputs or None, the library's problems)."""
+        """The form read and checked: (account, aircraft, typed values, inputs or None, the library's problems);
+        ``fuel_to_plan`` for the most fuel (:func:`_inputs`)."""
         account = _need(request, "pilot")
         form = await _form(request)
         aircraft, _ = desk.aircraft_path(registration)
         typed, overrides = _overrides(form, aircraft)
         try:
-            inputs = _inputs(desk, registration, overrides)
+            inputs = _inputs(desk, registration, overrides, fuel_to_plan=fuel_to_plan)
         except (LoadcheckError, ValidationError) as error:
             return account, aircraft, typed, None, desk.problems(error)
         return account, aircraft, typed, inputs, []
@@ -802,7 +806,7 @@ def create_app(
             form = await _form(request)
             aircraft, _ = desk.aircraft_path(registration)
             return _legs_changed(request, aircraft, form, action)
-        _, aircraft, typed, inputs, problems = await _checked(request, registration)
+        _, aircraft, typed, inputs, problems = await _checked(request, registration, fuel_to_plan=action == "fuel")
         if inputs is None:
             return _form_again(request, aircraft, typed, problems)
         try:
@@ -1133,7 +1137,7 @@ def create_app(
     async def _body_refused(request: Request, error: _BodyRefused) -> Response:
         return JSONResponse({"problems": desk.problems(InputError(error.problems))}, status_code=422)
 
-    def _api_inputs(body: CheckRequest) -> CheckInputs:
+    def _api_inputs(body: CheckRequest, *, fuel_to_plan: bool = False) -> CheckInputs:
         legs = dict(enumerate(body.leg, start=2))
         return _inputs(
             desk,
@@ -1141,6 +1145,7 @@ def create_app(
             Overrides(
                 load=body.load, names=body.names, fuel=body.fuel, burn=body.burn, category=body.category, legs=legs
             ),
+            fuel_to_plan=fuel_to_plan,
         )
 
     def _api_error(error: Exception) -> JSONResponse:
@@ -1191,7 +1196,7 @@ def create_app(
 
         _need(request, "pilot")
         try:
-            inputs = _api_inputs(body)
+            inputs = _api_inputs(body, fuel_to_plan=True)  # as plan fuel: the answer chooses the fuel
             if inputs.is_trip and inputs.trip is not None:
                 return trip_most_fuel(inputs.aircraft, inputs.trip).to_dict()
             return most_fuel(inputs.aircraft, inputs.loading).to_dict()
