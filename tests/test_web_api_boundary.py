@@ -26,7 +26,7 @@ from loadcheck.errors import LoadcheckError
 from loadcheck.files import load_check_inputs
 
 from .helpers import assert_input_error, invoke
-from .web_helpers import SAMPLES, WITHIN, _client, _post_check, _records
+from .web_helpers import SAMPLES, WITHIN, _client, _post_check, _records, csrf_of
 
 TRAINER = SAMPLES / "trainer4" / "aircraft.toml"
 BODY: dict[str, Any] = {
@@ -285,3 +285,34 @@ def test_regression_conditions_table_says_the_terminals_words_not_within(reading
         assert cell in table, (c.condition, table)
     within = _post_check(_client(reading_desk, "pia"), WITHIN).text
     assert within.count('<td class="ok" data-condition=') == 4 and ">inside<" in within
+
+
+# -- the mechanic's page without an empty-weight CG range ---------------------------------------------
+
+
+def test_regression_proposal_says_no_cg_range_when_the_aircraft_file_gives_none(reading_desk: dict[str, Any]) -> None:
+    """The sample trainer's file gives no ``cg_range``: the proposal page said the new record was
+    "inside the empty-weight CG range". It now says the file gives none (as the record sheet
+    does, render/sheet.py), and names the range where the file gives one (sample tandem2)."""
+    from loadcheck.empty_record import propose
+
+    trainer = propose(TRAINER, SAMPLES / "trainer4" / "weighing.toml", "weighing").result
+    assert trainer.cg_range is None and not trainer.warnings and not trainer.refusals
+    mo = _client(reading_desk, "mo")
+    page = mo.get("/mechanic/DEMO-4T").text
+    weighing = (SAMPLES / "trainer4" / "weighing.toml").read_text(encoding="utf-8")
+    shown = mo.post("/mechanic/DEMO-4T/propose", data={"kind": "weighing", "text": weighing, "csrf": csrf_of(page)})
+    assert shown.status_code == 200
+    assert "CG range" in shown.text and "inside the empty-weight CG range" not in shown.text
+    assert "gives no empty-weight CG range" in shown.text
+    tandem = SAMPLES / "tandem2" / "aircraft.toml"
+    changes = 'format = 1\naircraft = "aircraft.toml"\ndate = 2026-11-29\ndescription = "a placard"\n'
+    changes += '[[change]]\naction = "install"\nitem = "placard"\nweight = 0.1\narm = 312.0\n'
+    page = mo.get("/mechanic/DEMO-2T").text
+    shown = mo.post("/mechanic/DEMO-2T/propose", data={"kind": "alteration", "text": changes, "csrf": csrf_of(page)})
+    from loadcheck.files import load_aircraft
+
+    low, high = load_aircraft(tandem).empty.cg_range or (math.nan, math.nan)
+    from loadcheck.display import fmt
+
+    assert f"inside the empty-weight CG range ({fmt(low, 'mm')} to {fmt(high, 'mm')})" in shown.text, shown.text
