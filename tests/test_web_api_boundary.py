@@ -170,6 +170,25 @@ def test_regression_api_desk_fields_take_only_their_json_type(
     assert client.post("/api/check", json={**BODY, "record": True}).json()["record_id"] >= 1  # the JSON type is taken
 
 
+def test_regression_api_names_an_unknown_field_as_a_loading_file_does(reading_desk: dict[str, Any]) -> None:
+    """A misspelt field of the body is refused in the library's words for an unknown key of a
+    loading file (loadcheck/files.problems_from_validation: the key it is closest to), not the
+    framework's; a query value is named by its parameter and value (fail closed, common practice)."""
+    from loadcheck.files import parse_loading
+
+    client = _client(reading_desk, "pia")
+    with pytest.raises(LoadcheckError) as refused:
+        parse_loading({"lod": {"front": 340}})
+    [expected] = refused.value.problems
+    response = client.post("/api/check", json={"registration": "DEMO-4T", "lod": {"front": 340}})
+    assert response.status_code == 422
+    [problem] = response.json()["problems"]
+    assert problem["field"] == "lod" and problem["message"] == expected.describe() and "'load'" in expected.message
+    query = client.get("/api/fleet?max_age=soon")
+    assert query.status_code == 422 and query.json()["problems"][0]["field"] == "max_age"
+    assert "'soon'" in query.json()["problems"][0]["message"]
+
+
 # -- a key given twice ----------------------------------------------------------------------------
 
 

@@ -206,14 +206,44 @@ class _ApiRequest(Request):
         return self._json
 
 
+def _request_problems(error: RequestValidationError, model: object) -> list[Problem]:
+    """The problems of a request the API's models refuse, in the library's words.
+
+    The body is validated again by its model and the error read by
+    :func:`~loadcheck.files.problems_from_validation`, as a loading file's is: each field named
+    with its value, an unknown one with the key it is closest to (``lod``: ``load``). A query
+    value (``?max_age=``) is named by its parameter.
+    """
+    from ..files import problems_from_validation
+
+    if isinstance(model, type) and issubclass(model, BaseModel):
+        try:
+            model.model_validate(error.body)
+        except ValidationError as refused:
+            return problems_from_validation(refused, model)
+    return [
+        Problem(
+            ".".join(str(p) for p in e.get("loc", ())[1:]),
+            str(e.get("msg", "invalid value")),
+            None if e.get("type") == "missing" else e.get("input"),
+        )
+        for e in error.errors()
+    ]
+
+
 class _ApiRoute(APIRoute):
-    """A route of the JSON API: its body read by :func:`api_json` (FastAPI's custom route class)."""
+    """A route of the JSON API (FastAPI's custom route class): its body read by :func:`api_json`,
+    a value its models refuse said in the library's words (:func:`_request_problems`)."""
 
     def get_route_handler(self) -> Callable[[Request], Coroutine[object, object, Response]]:
         handler = super().get_route_handler()
+        model = self.body_field.field_info.annotation if self.body_field is not None else None
 
         async def read(request: Request) -> Response:
-            return await handler(_ApiRequest(request.scope, request.receive))
+            try:
+                return await handler(_ApiRequest(request.scope, request.receive))
+            except RequestValidationError as error:
+                raise _BodyRefused(_request_problems(error, model)) from None
 
         return read
 
@@ -650,12 +680,8 @@ def create_app(
             {"field": ".".join(str(p) for p in e.get("loc", ()) if p != "body"), "message": e.get("msg", "")}
             for e in error.errors()
         ]
-        if request.url.path.startswith("/api/"):  # the library's problems' shape, with the value as sent
-            said = [
-                Problem(p["field"], p["message"], None if e.get("type") == "missing" else e.get("input"))
-                for p, e in zip(problems, error.errors(), strict=True)
-            ]
-            return JSONResponse({"problems": desk.problems(InputError(said))}, status_code=422)
+        if request.url.path.startswith("/api/"):
+            return JSONResponse({"problems": problems}, status_code=422)
         return page(
             request,
             "message.html",
