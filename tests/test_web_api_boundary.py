@@ -26,7 +26,7 @@ from loadcheck.errors import LoadcheckError
 from loadcheck.files import load_check_inputs
 
 from .helpers import assert_input_error, invoke
-from .web_helpers import SAMPLES, WITHIN, _client, _post_check, _records, csrf_of
+from .web_helpers import SAMPLES, _client, _post_check, _records, csrf_of
 
 TRAINER = SAMPLES / "trainer4" / "aircraft.toml"
 BODY: dict[str, Any] = {
@@ -278,32 +278,6 @@ def test_regression_plan_fuel_without_fuel_is_the_command_lines_answer(reading_d
     # a check of the same loading still needs its fuel: only the planning answer chooses it
     check = _post_check(client, {"load.front": "340", "load.rear": "160", "burn.taxi": "1.2", "burn.trip": "18"})
     assert check.status_code == 422 and "burn" in check.text
-
-
-# -- the conditions table's words -------------------------------------------------------------------
-
-
-def test_regression_conditions_table_says_the_terminals_words_not_within(reading_desk: dict[str, Any]) -> None:
-    """sample trainer4/over_weight.toml: three conditions over the maximum weights and the zero-fuel
-    condition outside with a warning. The desk's conditions table said "within" beside LIMIT
-    findings; each cell now is the terminal's words (render/terminal.condition_verdict: OUTSIDE,
-    OUTSIDE (warning)) under its heading, as ``check`` prints them."""
-    from loadcheck.check import check_loading
-    from loadcheck.render.terminal import CONDITION_STATE_HEADING, condition_verdict
-
-    inputs = load_check_inputs(SAMPLES / "trainer4" / "over_weight.toml")
-    result = check_loading(inputs.aircraft, inputs.loading)
-    words = [condition_verdict(c, result) for c in result.conditions]
-    assert not result.ok and ("OUTSIDE (warning)", "warning") in words and ("OUTSIDE", "limit") in words
-    values = {"load.front": "380", "load.rear": "340", "load.hold": "60", "fuel.mains": "full", "fuel.centre": "full"}
-    page = _post_check(_client(reading_desk, "pia"), {**values, "burn.taxi": "1.2", "burn.trip": "25"}).text
-    table = page[page.index("Conditions and margins") : page.index("Fuel burn")]
-    assert f"<th>{CONDITION_STATE_HEADING}</th>" in table and ">within<" not in table and "Result" not in table
-    for c, (state, severity) in zip(result.conditions, words, strict=True):
-        cell = f'<td class="{severity}" data-condition="{c.condition}"><strong>{escape(state)}</strong></td>'
-        assert cell in table, (c.condition, table)
-    within = _post_check(_client(reading_desk, "pia"), WITHIN).text
-    assert within.count('<td class="ok" data-condition=') == 4 and ">inside<" in within
 
 
 # -- the mechanic's page without an empty-weight CG range ---------------------------------------------

@@ -635,9 +635,6 @@ def create_app(
     app.mount("/static", StaticFiles(directory=_HERE / "static"), name="static")
     templates = Jinja2Templates(directory=str(_HERE / "templates"))
     env = templates.env
-    from ..render.terminal import CONDITION_STATE_HEADING, condition_verdict  # the terminal's words of a condition
-
-    env.globals.update(CONDITION_STATE_HEADING=CONDITION_STATE_HEADING, condition_verdict=condition_verdict)
     env.globals.update(
         fmt=fmt,
         condition_words=condition_words,
