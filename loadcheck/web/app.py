@@ -11,6 +11,8 @@ problems, with the field named and everything typed kept.
 from __future__ import annotations
 
 import datetime as dt
+import functools
+import json
 import re
 import secrets
 import shutil
@@ -18,7 +20,7 @@ import tempfile
 import threading
 import time
 from collections import OrderedDict
-from collections.abc import Iterable, Mapping
+from collections.abc import Callable, Coroutine, Iterable, Mapping
 from dataclasses import dataclass
 from pathlib import Path
 from typing import TYPE_CHECKING, TypedDict
@@ -26,6 +28,7 @@ from typing import TYPE_CHECKING, TypedDict
 from fastapi import FastAPI, Form, HTTPException, Request, UploadFile
 from fastapi.exceptions import RequestValidationError
 from fastapi.responses import HTMLResponse, JSONResponse, PlainTextResponse, RedirectResponse, Response
+from fastapi.routing import APIRoute, APIRouter
 from fastapi.staticfiles import StaticFiles
 from fastapi.templating import Jinja2Templates
 from pydantic import BaseModel, ConfigDict, Field, JsonValue, ValidationError
@@ -64,19 +67,27 @@ class _SignInNeeded(Exception):
 
 
 class CheckRequest(BaseModel):
-    """A loading for the API: the same fields as a loading file's ``[load]``, ``[fuel]`` and ``[burn]``."""
+    """A loading for the API: the same fields as a loading file's ``[load]``, ``[fuel]`` and ``[burn]``.
 
-    model_config = ConfigDict(extra="forbid")
+    The loading's tables are taken as JSON gives them (``JsonValue``: nothing converted here) and
+    handed to :func:`~loadcheck.files.load_check_inputs`, the command line's job, so that every
+    boundary rule is the library's, said in its words: a ``true`` where a weight goes is refused
+    as in a loading file (pydantic's lax mode would read it as 1), so is NaN or an infinity
+    (Python's ``json`` reads ``NaN`` and ``Infinity``). The desk's own fields are strict: a
+    ``record`` of ``"yes"`` or ``1``, a ``stop`` of ``"2"`` or ``true`` is refused, never read.
+    """
+
+    model_config = ConfigDict(extra="forbid", strict=True)
 
     registration: str = Field(description="the aircraft, by registration, in the desk's fleet")
-    load: dict[str, str | float] = Field(
+    load: dict[str, JsonValue] = Field(
         default_factory=dict, description="mass per station: a number [mass unit] or with a unit"
     )
     names: dict[str, JsonValue] = Field(
         default_factory=dict,
         description="optional: who is at each station, a person's name per station id (the loading file's [names])",
     )
-    fuel: dict[str, str | float] = Field(
+    fuel: dict[str, JsonValue] = Field(
         default_factory=dict, description="quantity per tank at engine start: volume, 'full', a level name"
     )
     burn: dict[str, JsonValue] = Field(
@@ -101,6 +112,140 @@ class StopRequest(CheckRequest):
     """A trip and the leg before whose stop the fuel to put in is asked for."""
 
     stop: int = Field(description="the leg the stop comes before (2 or more)")
+
+
+class _BodyRefused(HTTPException):
+    """An API body that is not read: not JSON, or a key given twice in one of its objects."""
+
+    def __init__(self, problems: list[Problem]):
+        super().__init__(422, "; ".join(p.describe() for p in problems))
+        self.problems = problems
+
+
+class _Pairs(list[tuple[str, object]]):
+    """A JSON object's members in the order sent, every one kept (``object_pairs_hook``)."""
+
+
+def _json_shown(value: object) -> str:
+    return "{...}" if isinstance(value, _Pairs) else "[...]" if isinstance(value, list) else json.dumps(value)
+
+
+def api_json(body: bytes) -> object:
+    """The data of an API body, refused where a JSON reader would drop or guess something.
+
+    A key given twice in one object is refused at any depth (Python's ``json``, as most
+    readers, keeps the last and drops the first without a word: ``{"front": 170, "front": 10}``
+    would be checked with 10; RFC 8259 section 4 leaves duplicate names to the reader, and a
+    TOML file or the command line refuses them). ``NaN`` and ``Infinity``, which Python's
+    ``json`` reads though RFC 8259 section 6 has no such numbers, are kept for the library to
+    refuse in its words, naming the field.
+
+    Raises
+    ------
+    _BodyRefused
+        422: the body is not JSON, nests too deeply, or gives a key twice (each named by its
+        path in the body, ``load.front`` or ``leg[0].burn.trip``, with both values).
+
+    Examples
+    --------
+    >>> api_json(b'{"load": {"front": 170, "rear": [1, {"a": null}]}}')
+    {'load': {'front': 170, 'rear': [1, {'a': None}]}}
+    >>> api_json(b'{"load": {"front": 170, "front": 10}}')  # doctest: +ELLIPSIS
+    Traceback (most recent call last):
+    ...
+    loadcheck.web.app._BodyRefused: 422: load.front: given twice in one JSON object (170, then 10); give each ...
+    """
+    try:
+        parsed = json.loads(body, object_pairs_hook=_Pairs)
+    except RecursionError:
+        raise _BodyRefused([Problem("", "the request body nests too deeply to be a loading")]) from None
+    except json.JSONDecodeError as error:
+        where = f"at line {error.lineno}, column {error.colno}"
+        raise _BodyRefused([Problem("", f"the request body is not JSON: {error.msg} {where}")]) from None
+    except ValueError as error:  # bytes that are no Unicode text
+        raise _BodyRefused([Problem("", f"the request body is not JSON text: {error}")]) from None
+    problems: list[Problem] = []
+    out: list[object] = []
+    pending: list[tuple[object, str, Callable[[object], None]]] = [(parsed, "", out.append)]
+    while pending:  # made plain from the top down (no recursion), so that each key is named by its path
+        value, path, put = pending.pop()
+        if isinstance(value, _Pairs):
+            table: dict[str, object] = {}
+            first: dict[str, object] = {}
+            for key, item in value:
+                where = f"{path}.{key}" if path else key
+                if key in first:
+                    problems.append(
+                        Problem(
+                            where,
+                            f"given twice in one JSON object ({_json_shown(first[key])}, then {_json_shown(item)}); "
+                            "give each key once (a JSON reader would keep the last and drop the first)",
+                        )
+                    )
+                    continue
+                first[key] = table[key] = item
+                pending.append((item, where, functools.partial(table.__setitem__, key)))
+            put(table)
+        elif isinstance(value, list):
+            items: list[object] = list(value)
+            pending.extend((v, f"{path}[{i}]", functools.partial(items.__setitem__, i)) for i, v in enumerate(value))
+            put(items)
+        else:
+            put(value)
+    if problems:
+        raise _BodyRefused(sorted(problems, key=lambda p: p.field))
+    return out[0]
+
+
+class _ApiRequest(Request):
+    """A request whose JSON body is read by :func:`api_json`."""
+
+    async def json(self) -> object:
+        if not hasattr(self, "_json"):
+            self._json = api_json(await self.body())
+        return self._json
+
+
+def _request_problems(error: RequestValidationError, model: object) -> list[Problem]:
+    """The problems of a request the API's models refuse, in the library's words.
+
+    The body is validated again by its model and the error read by
+    :func:`~loadcheck.files.problems_from_validation`, as a loading file's is: each field named
+    with its value, an unknown one with the key it is closest to (``lod``: ``load``). A query
+    value (``?max_age=``) is named by its parameter.
+    """
+    from ..files import problems_from_validation
+
+    if isinstance(model, type) and issubclass(model, BaseModel):
+        try:
+            model.model_validate(error.body)
+        except ValidationError as refused:
+            return problems_from_validation(refused, model)
+    return [
+        Problem(
+            ".".join(str(p) for p in e.get("loc", ())[1:]),
+            str(e.get("msg", "invalid value")),
+            None if e.get("type") == "missing" else e.get("input"),
+        )
+        for e in error.errors()
+    ]
+
+
+class _ApiRoute(APIRoute):
+    """A route of the JSON API (FastAPI's custom route class): its body read by :func:`api_json`,
+    a value its models refuse said in the library's words (:func:`_request_problems`)."""
+
+    def get_route_handler(self) -> Callable[[Request], Coroutine[object, object, Response]]:
+        handler = super().get_route_handler()
+        model = self.body_field.field_info.annotation if self.body_field is not None else None
+
+        async def read(request: Request) -> Response:
+            try:
+                return await handler(_ApiRequest(request.scope, request.receive))
+            except RequestValidationError as error:
+                raise _BodyRefused(_request_problems(error, model)) from None
+
+        return read
 
 
 class ProblemView(TypedDict):
@@ -136,9 +281,9 @@ class Overrides(TypedDict):
     """A loading as the form or the API body gives it to :func:`~loadcheck.files.load_check_inputs`:
     the loading file's tables, as typed (the library reads and checks every value)."""
 
-    load: Mapping[str, str | float]
+    load: Mapping[str, object]
     names: Mapping[str, object]
-    fuel: Mapping[str, str | float]
+    fuel: Mapping[str, object]
     burn: Mapping[str, object]
     category: str | None
     legs: Mapping[int, Mapping[str, object]]
@@ -373,12 +518,15 @@ def form_key(field: str) -> str:
     return f"leg.{number}" + (f".{rest}" if rest else "")
 
 
-def _inputs(desk: Desk, registration: str, overrides: Overrides) -> CheckInputs:
-    """The aircraft and the loading (one leg or a trip of several) resolved, as the command line reads them."""
+def _inputs(desk: Desk, registration: str, overrides: Overrides, *, fuel_to_plan: bool = False) -> CheckInputs:
+    """The aircraft and the loading (one leg or a trip of several) resolved, as the command line reads them.
+
+    ``fuel_to_plan`` for the most fuel: the answer chooses the fuel, so the fuel given (none, or
+    too little for taxi and trip) is not refused, as ``plan fuel`` reads it."""
     from ..files import load_check_inputs
 
     _, path = desk.aircraft_path(registration)
-    return load_check_inputs(path, None, allow_trip=True, **overrides)
+    return load_check_inputs(path, None, allow_trip=True, fuel_to_plan=fuel_to_plan, **overrides)
 
 
 def _trip_or_given(inputs: CheckInputs) -> Loading | ResolvedTrip:
@@ -637,15 +785,16 @@ def create_app(
         return _form_page(request, aircraft, {}, [])
 
     async def _checked(
-        request: Request, registration: str
+        request: Request, registration: str, *, fuel_to_plan: bool = False
     ) -> tuple[Account, Aircraft, dict[str, str], CheckInputs | None, list[ProblemView]]:
-        """The form read and checked: (account, aircraft, typed values, inputs or None, the library's problems)."""
+        """The form read and checked: (account, aircraft, typed values, inputs or None, the library's problems);
+        ``fuel_to_plan`` for the most fuel (:func:`_inputs`)."""
         account = _need(request, "pilot")
         form = await _form(request)
         aircraft, _ = desk.aircraft_path(registration)
         typed, overrides = _overrides(form, aircraft)
         try:
-            inputs = _inputs(desk, registration, overrides)
+            inputs = _inputs(desk, registration, overrides, fuel_to_plan=fuel_to_plan)
         except (LoadcheckError, ValidationError) as error:
             return account, aircraft, typed, None, desk.problems(error)
         return account, aircraft, typed, inputs, []
@@ -683,7 +832,7 @@ def create_app(
             form = await _form(request)
             aircraft, _ = desk.aircraft_path(registration)
             return _legs_changed(request, aircraft, form, action)
-        _, aircraft, typed, inputs, problems = await _checked(request, registration)
+        _, aircraft, typed, inputs, problems = await _checked(request, registration, fuel_to_plan=action == "fuel")
         if inputs is None:
             return _form_again(request, aircraft, typed, problems)
         try:
@@ -1008,7 +1157,13 @@ def create_app(
 
     # -- the JSON API: the command line's JSON shapes --------------------------------------------
 
-    def _api_inputs(body: CheckRequest) -> CheckInputs:
+    api = APIRouter(route_class=_ApiRoute)  # each body read by api_json: no key given twice
+
+    @app.exception_handler(_BodyRefused)
+    async def _body_refused(request: Request, error: _BodyRefused) -> Response:
+        return JSONResponse({"problems": desk.problems(InputError(error.problems))}, status_code=422)
+
+    def _api_inputs(body: CheckRequest, *, fuel_to_plan: bool = False) -> CheckInputs:
         legs = dict(enumerate(body.leg, start=2))
         return _inputs(
             desk,
@@ -1016,17 +1171,18 @@ def create_app(
             Overrides(
                 load=body.load, names=body.names, fuel=body.fuel, burn=body.burn, category=body.category, legs=legs
             ),
+            fuel_to_plan=fuel_to_plan,
         )
 
     def _api_error(error: Exception) -> JSONResponse:
         return JSONResponse({"problems": desk.problems(error)}, status_code=422)
 
-    @app.get("/api/openapi.json", include_in_schema=False)
+    @api.get("/api/openapi.json", include_in_schema=False)
     def openapi(request: Request) -> JSONResponse:
         _account(request)
         return JSONResponse(app.openapi())
 
-    @app.get("/api/fleet", response_model=None)
+    @api.get("/api/fleet", response_model=None)
     def api_fleet(request: Request, max_age: int = 365) -> list[JsonObject]:
         """The fleet listing (as ``fleet list --json``).
 
@@ -1037,7 +1193,7 @@ def create_app(
         _account(request)
         return [line.to_dict() for line in fleet_listing(desk.fleet(), max_age)]
 
-    @app.post("/api/check", response_model=None)
+    @api.post("/api/check", response_model=None)
     def api_check(request: Request, body: CheckRequest) -> JsonObject | JSONResponse:
         """Check a loading or a trip of several legs (the JSON of ``check --json``); with ``record``, record it
         and give its ``record_id``."""
@@ -1057,7 +1213,7 @@ def create_app(
                 )
         return answer
 
-    @app.post("/api/plan/fuel", response_model=None)
+    @api.post("/api/plan/fuel", response_model=None)
     def api_plan_fuel(request: Request, body: CheckRequest) -> JsonObject | JSONResponse:
         """The most fuel at engine start for this load, at the first engine start of a trip (the JSON of
         ``plan fuel --json``)."""
@@ -1066,14 +1222,14 @@ def create_app(
 
         _need(request, "pilot")
         try:
-            inputs = _api_inputs(body)
+            inputs = _api_inputs(body, fuel_to_plan=True)  # as plan fuel: the answer chooses the fuel
             if inputs.is_trip and inputs.trip is not None:
                 return trip_most_fuel(inputs.aircraft, inputs.trip).to_dict()
             return most_fuel(inputs.aircraft, inputs.loading).to_dict()
         except (LoadcheckError, ValidationError) as error:
             return _api_error(error)
 
-    @app.post("/api/plan/stop", response_model=None)
+    @api.post("/api/plan/stop", response_model=None)
     def api_plan_stop(request: Request, body: StopRequest) -> JsonObject | JSONResponse:
         """The fuel to put in at the stop before leg ``stop`` of a trip (the JSON of ``plan stop --json``)."""
         from ..trip import fuel_to_add
@@ -1085,7 +1241,7 @@ def create_app(
         except (LoadcheckError, ValidationError) as error:
             return _api_error(error)
 
-    @app.post("/api/plan/payload", response_model=None)
+    @api.post("/api/plan/payload", response_model=None)
     def api_plan_payload(request: Request, body: PayloadRequest) -> JsonObject | JSONResponse:
         """The most payload at a station (the JSON of ``plan payload --json``)."""
         from ..planning import most_payload
@@ -1099,7 +1255,7 @@ def create_app(
         except (LoadcheckError, ValidationError) as error:
             return _api_error(error)
 
-    @app.get("/api/records", response_model=None)
+    @api.get("/api/records", response_model=None)
     def api_records(
         request: Request, registration: str | None = None, verdict: str | None = None, date: str | None = None
     ) -> list[JsonObject]:
@@ -1107,10 +1263,11 @@ def create_app(
         account = _account(request)
         return [r.summary() for r in _found(account, registration, verdict, _day(date if date is not None else ""))]
 
-    @app.get("/api/records/{record_id}", response_model=None)
+    @api.get("/api/records/{record_id}", response_model=None)
     def api_record(request: Request, record_id: int) -> JsonObject:
         """One record with its inputs and result (as ``log export --format jsonl`` gives it)."""
         found = _record(_account(request), record_id)
         return {**found.summary(), "inputs": found.inputs, "result": found.result}
 
+    app.include_router(api)
     return app
