@@ -88,6 +88,7 @@ CROSS_CUTTING = {
     "test_samples.py": "every sample loading shows what its name says",
     "test_sheet_print.py": "the load sheet printed through a headless browser",
     "test_terminal_width.py": "every command's output at 60, 80 and 120 columns and piped",
+    "test_web_api_boundary.py": "the desk's JSON API boundary, plan fuel and page words against the library's",
     "test_web_browser.py": "the desk in a real browser",
     "test_writes.py": "every file any command writes is written whole or not at all",
 }
