@@ -182,10 +182,11 @@ def _with_fuel(loading: ResolvedLoading, fuel: dict[str, float]) -> ResolvedLoad
     return replace(loading, fuel=fuel, plan=BurnPlan(fuel, loading.plan.order))
 
 
-def _station(aircraft: Aircraft, station: str) -> int:
+def _station(aircraft: Aircraft, station: str, field: str = "station") -> int:
+    """The index of a station; an unknown one is refused, the problem named by the job's parameter ``field``."""
     ids = [s.id for s in aircraft.station]
     if station not in ids:
-        raise UnknownNameError(unknown_station("station", station, aircraft))
+        raise UnknownNameError(unknown_station(field, station, aircraft))
     return ids.index(station)
 
 
@@ -699,12 +700,14 @@ def weight_shift(
     condition, the burn path). Without it: the least weight to move that brings every
     condition within limits.
     """
-    i, j = _station(aircraft, source), _station(aircraft, target_station)
+    i, j = _station(aircraft, source, "source"), _station(aircraft, target_station, "target_station")
     units = aircraft.units
     available = loading.stations.get(source, 0.0)
     distance = aircraft.station[j].arm - aircraft.station[i].arm
     if distance == 0:
-        raise InputError(Problem("to", "the two stations have the same arm: moving weight does not move the CG"))
+        raise InputError(
+            Problem("target_station", "the two stations have the same arm: moving weight does not move the CG")
+        )
 
     def at(value: float) -> ResolvedLoading:
         stations = {

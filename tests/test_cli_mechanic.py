@@ -15,7 +15,7 @@ from loadcheck import load_aircraft
 from loadcheck.caution import MECHANIC_CAUTION
 from loadcheck.cli import app
 
-from .helpers import sample
+from .helpers import assert_input_error, invoke, sample
 from .test_empty_record import _trainer, _weigh
 
 # -- weigh, alter, history -----------------------------------------------------------------------
@@ -145,3 +145,16 @@ def test_schedule_command_verdict_json_and_caution(runner):
     text = runner.invoke(app, ["schedule", str(sample("twin6/aircraft.toml"))])
     assert "With full fuel" in text.output and "fuel states checked" in text.output
     assert text.exit_code == out.exit_code
+
+
+# DESIGN.md, "Fail closed": a refused option is named as the user typed it, with its value.
+@pytest.mark.parametrize("command", ["schedule", "extremes"])
+def test_regression_schedule_and_extremes_name_the_category_as_typed(command):
+    result = invoke(command, str(sample("trainer4/aircraft.toml")), "--category", "aerobatic")
+    assert_input_error(result, "--category aerobatic: unknown category 'aerobatic'")
+    assert "error: category:" not in result.output
+
+
+def test_regression_extremes_names_the_occupant_as_typed():
+    result = invoke("extremes", str(sample("trainer4/aircraft.toml")), "--occupant", "0")
+    assert_input_error(result, "--occupant 0: must be a weight above zero")

@@ -4,15 +4,13 @@ from __future__ import annotations
 
 import json
 import sys
-from collections.abc import Callable, Iterator
-from contextlib import contextmanager
-from dataclasses import replace
+from collections.abc import Callable
 from pathlib import Path
 from typing import Annotated, Any, Literal
 
 import typer
 
-from ..errors import InputError, LoadcheckError, Problem
+from ..errors import InputError, Problem
 from .common import (
     EXIT_LIMIT,
     EXIT_OK,
@@ -22,6 +20,7 @@ from .common import (
     _fail_input,
     app,
     input_errors,
+    options_as_typed,
 )
 
 # -- the mechanic's commands -----------------------------------------------------------------
@@ -117,16 +116,6 @@ def _new_empty_weight(
     where = f" (through the link, to {target})" if target != aircraft else ""
     err.print(f"new empty-weight record written to {aircraft}{where}; the old one is in its history", markup=False)
     raise typer.Exit(EXIT_OK)
-
-
-@contextmanager
-def _options_named(options: dict[str, str]) -> Iterator[None]:
-    """Name this command's options in the library's input errors (the library names its parameters)."""
-    try:
-        yield
-    except LoadcheckError as error:
-        problems = [replace(p, field=options.get(p.field, p.field)) for p in error.problems]
-        raise type(error)(problems, error.file) from None
 
 
 @app.command(short_help="Empty weight and CG from scale readings.")
@@ -245,7 +234,12 @@ def extremes(
 
     data = load_aircraft(aircraft)
     weight = None if occupant is None else read_amount(occupant, data.units.mass, "--occupant")
-    with _options_named({"occupant_weight": "--occupant", "meto_hp": "--meto"}):
+    named = {
+        "category": ("--category", category),
+        "occupant_weight": ("--occupant", occupant),
+        "meto_hp": ("--meto", meto),
+    }
+    with options_as_typed(named):
         result = compute(data, category=category, occupant_weight=weight, meto_hp=meto)
     if json_out:
         typer.echo(result.to_json())
@@ -282,7 +276,7 @@ def schedule(
 
     data = load_aircraft(aircraft)
     weight = None if occupant is None else read_amount(occupant, data.units.mass, "--occupant")
-    with _options_named({"occupant_weight": "--occupant"}):
+    with options_as_typed({"category": ("--category", category), "occupant_weight": ("--occupant", occupant)}):
         result = loading_schedule(data, category=category, occupant_weight=weight)
     if json_out:
         typer.echo(result.to_json())
