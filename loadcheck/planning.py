@@ -31,9 +31,9 @@ CG change / distance moved.
 
 from __future__ import annotations
 
-from collections.abc import Callable, Sequence
+from collections.abc import Callable, Iterable, Sequence
 from dataclasses import dataclass, field, replace
-from typing import Literal
+from typing import Literal, TypeVar
 
 import numpy as np
 
@@ -61,6 +61,8 @@ __all__ = [
     "fuel_payload_table",
     "MASS_TOLERANCE",
     "feasible_intervals",
+    "binding_limits",
+    "limit_amount_words",
     "limit_words",
     "safe_value",
 ]
@@ -203,9 +205,40 @@ def limit_words(finding: Finding) -> str:
     return LIMIT_NAMES.get(finding.code, finding.code)
 
 
-def _first_limit(check: CheckResult) -> tuple[str | None, str | None]:
-    finding = next((f for f in check.findings if f.severity == "limit"), None)
-    return (limit_words(finding), finding.code) if finding else (None, None)
+_UPPER_SIDES = ("aft", "above", "right")  # limits a value must stay below
+
+
+def limit_amount_words(finding: Finding) -> str:
+    """The limit a finding is about with its amount ("maximum takeoff weight 2,450.0 lb").
+
+    The amount is rounded to the safe side (docs/computation.md, "Rounding"): an upper limit
+    (aft, above, right) down, a lower one up, so that it never shows more room than there is.
+    """
+    words = limit_words(finding)
+    if finding.limit is None or finding.unit is None:
+        return words
+    direction: Literal["up", "down"] = "down" if finding.side in _UPPER_SIDES else "up"
+    return f"{words} {fmt(finding.limit, finding.unit, direction)}"
+
+
+F = TypeVar("F", bound=Finding)
+
+
+def binding_limits(findings: Iterable[F], describe: Callable[[F], str] = limit_amount_words) -> str:
+    """The limits a check's findings exceed, each once, in the check's order (its findings'),
+    as ``describe`` words them (default: the limit and its amount), joined by "; "."""
+    return "; ".join(dict.fromkeys(describe(f) for f in findings if f.severity == "limit"))
+
+
+def _limits_past(check: CheckResult) -> tuple[str | None, str | None]:
+    """What the check just past an answer exceeds: the limits with their amounts, and the first's code."""
+    first = next((f for f in check.findings if f.severity == "limit"), None)
+    return (binding_limits(check.findings), first.code) if first else (None, None)
+
+
+def _exceeded(check: CheckResult) -> str:
+    """The sentences of every limit a check finds exceeded (with the amounts), in the check's order."""
+    return binding_limits(check.findings, lambda f: f.message)
 
 
 _LOAD_CODES = ("station_max", "station_min", "group_max", "group_min")
@@ -229,8 +262,7 @@ def _why_not(aircraft: Aircraft, loading: ResolvedLoading, varies: str | None = 
     ]
     if fixed:
         return "; ".join(f.message for f in fixed)
-    words = sorted({limit_words(f) for f in check.findings if f.severity == "limit"})
-    return "with this load and trip: " + ("; ".join(words) if words else "no amount is within limits")
+    return "with this load and trip: " + (_exceeded(check) or "no amount is within limits")
 
 
 def _why_not_fuel(aircraft: Aircraft, loading: ResolvedLoading, within: bool) -> str:
@@ -359,7 +391,6 @@ def _answer(
     shown, text = safe_value(low, high, unit, direction)
     check = check_loading(aircraft, at(shown))
     if not check.ok:  # never bless a loading the check rejects
-        words = sorted({limit_words(f) for f in check.limits_exceeded})
         return PlanResult(
             question=question,
             variable=variable,
@@ -368,7 +399,7 @@ def _answer(
             intervals=_intervals(pairs),
             answer=None,
             answer_display="no amount is within limits",
-            governing="; ".join(words),
+            governing=_exceeded(check),
             check=check,
         )
     limit, code = governing(high if direction == "down" else low, check)
@@ -397,7 +428,7 @@ def _beyond(
         if past is None:
             return None, None
         try:
-            return _first_limit(check_loading(aircraft, past(best)))
+            return _limits_past(check_loading(aircraft, past(best)))
         except LoadcheckError:
             return None, None
 
@@ -743,11 +774,9 @@ def weight_shift(
             return refuse(f"it needs {fmt(moved, units.mass, 'up')} but {source} holds {fmt(available, units.mass)}")
         check = check_loading(aircraft, at(max(0.0, min(moved, available))))
         if not check.ok:
-            reasons = [f.message for f in check.limits_exceeded if f.code in _LOAD_CODES]
-            reasons = reasons or sorted({limit_words(f) for f in check.limits_exceeded})
             return refuse(
                 f"moving {fmt(moved, units.mass)} puts the CG at the target, but the loading is then not "
-                "within limits: " + "; ".join(reasons),
+                "within limits: " + _exceeded(check),
                 check,
             )
         return PlanResult(

@@ -216,3 +216,20 @@ def test_regression_plan_refusals_name_the_option_as_typed(args, named):
     assert_input_error(result, named)
     for field in ("error: station:", "error: fill:", "error: rate:", "error: reserve:", "error: leg:", "error: to:"):
         assert field not in result.output
+
+
+def test_regression_trip_most_fuel_is_limited_by_the_legs_limits_with_amounts():
+    """plan fuel on a trip said "limited by: leg 1: maximum ramp weight" (a name, no amount); with no
+    amount within limits it now quotes the check's finding sentences, each with its leg."""
+    trip = str(sample("heli2/trip_drop_off.toml"))
+    heavy = ["--load", "left=250", "--load", "right=250", "--load", "bag_left=35", "--load", "bag_right=35"]
+    none_fits = invoke("plan", "fuel", trip, *heavy, "--json")
+    assert none_fits.exit_code == 1, none_fits.output
+    governing = json.loads(none_fits.stdout)["governing"]
+    checked = json.loads(invoke("check", trip, *heavy, "--json").stdout)
+    sentences = [f["message"] for f in checked["findings"] if f["severity"] == "limit"]
+    assert governing == "with this load and these legs: " + "; ".join(sentences)
+    stops = invoke("plan", "fuel", trip, "--load", "left=240", "--load", "right=240", "--json")
+    assert stops.exit_code == 0, stops.output
+    # heli2/aircraft.toml: max_takeoff_weight = 1620 (the ramp weight defaults to it)
+    assert json.loads(stops.stdout)["governing"].startswith("leg 1: maximum ramp weight 1,620.0 lb")

@@ -419,3 +419,25 @@ def test_regression_a_misspelt_planning_station_got_no_spelling_hint():
     (problem,) = error.value.problems
     assert problem.field == "station" and "did you mean 'front'?" in problem.message
     assert problem.expected == "one of front, rear, hold"
+
+
+def test_regression_no_fuel_answer_is_limited_by_the_checks_sentences_in_its_order():
+    """An over-weight loading: "limited by" gave the limits' names sorted, without amounts. It now
+    gives each limit the loading's own check exceeds, as the check words it (with the amounts), in
+    the check's order (RULES.md: one engine, one verdict)."""
+    inputs = load_check_inputs(sample("trainer4/over_weight.toml"), fuel_to_plan=True)
+    answer = P.most_fuel(inputs.aircraft, inputs.loading)
+    assert not answer.feasible
+    exceeded = [f.message for f in check_loading(inputs.aircraft, inputs.loading).findings if f.severity == "limit"]
+    assert len(exceeded) > 1
+    assert answer.governing == "with this load and trip: " + "; ".join(exceeded)
+
+
+def test_regression_most_fuel_is_limited_by_the_limit_with_its_amount():
+    """trainer4/within.toml's most fuel stops at the maximum takeoff weight: "limited by" names it with
+    its amount from the aircraft file, not its name alone."""
+    inputs = load_check_inputs(sample("trainer4/within.toml"), fuel_to_plan=True)
+    answer = P.most_fuel(inputs.aircraft, inputs.loading)
+    assert answer.feasible and answer.governing is not None
+    first = answer.governing.split("; ")[0]
+    assert first == f"maximum takeoff weight {inputs.aircraft.limits.max_takeoff_weight:,.1f} lb"
