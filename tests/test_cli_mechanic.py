@@ -158,3 +158,26 @@ def test_regression_schedule_and_extremes_name_the_category_as_typed(command):
 def test_regression_extremes_names_the_occupant_as_typed():
     result = invoke("extremes", str(sample("trainer4/aircraft.toml")), "--occupant", "0")
     assert_input_error(result, "--occupant 0: must be a weight above zero")
+
+
+def test_regression_write_without_a_terminal_says_what_to_do_naming_what_was_typed(runner, tmp_path, monkeypatch):
+    """alter --write </dev/null named --yes (which was not typed) as the field; it now names --write
+    and says plainly what to do (DESIGN.md, "Fail closed": name the option as typed)."""
+    path = _trainer(tmp_path)
+    before = path.read_bytes()
+    monkeypatch.setattr(mechanic_cli, "_interactive", lambda: False)
+    result = runner.invoke(app, ["alter", str(path), str(tmp_path / "changes.toml"), "--write"])
+    assert_input_error(result, "error: --write: nothing was written", "run the command in a terminal", "add --yes")
+    assert "error: --yes" not in result.output
+    assert path.read_bytes() == before
+
+
+def test_regression_sheet_says_a_sheet_was_written_not_the_record(runner, tmp_path):
+    path = _trainer(tmp_path)
+    before = path.read_bytes()
+    sheet = tmp_path / "record.html"
+    result = runner.invoke(app, ["alter", str(path), str(tmp_path / "changes.toml"), "--sheet", str(sheet)])
+    assert result.exit_code == 0, result.output
+    assert f"record sheet written (to print and sign): {sheet}\n" in result.stderr  # one line, the path whole
+    assert "record written" not in result.stderr
+    assert sheet.exists() and path.read_bytes() == before

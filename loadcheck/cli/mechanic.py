@@ -82,7 +82,7 @@ def _new_empty_weight(
         written, left_out = write_record_sheet(sheet, proposal)
         if left_out:
             err.print(f"note: the extreme checks were left out of the record: {left_out}", markup=False)
-        err.print(f"record written: {written}", markup=False)
+        err.print(f"record sheet written (to print and sign): {written}", markup=False, soft_wrap=True)
     if json_out:
         typer.echo(json.dumps(proposal.to_dict(), indent=2))
     else:
@@ -94,9 +94,10 @@ def _new_empty_weight(
         if not _interactive():
             raise InputError(
                 Problem(
-                    "--yes",
-                    "standard input is not a terminal, so nobody can confirm the new record: "
-                    "give --yes to write it; nothing was written",
+                    "--write",
+                    "nothing was written: the new record must be confirmed, and standard input is not a "
+                    "terminal, so nobody can answer the question; run the command in a terminal to be asked, "
+                    "or add --yes to confirm it on the command line",
                 )
             )
         from ..render.terminal import render_comparison
@@ -114,7 +115,11 @@ def _new_empty_weight(
             lines.append("give --force with --write to write it anyway (the override is kept in the history)")
         _fail_input(lines)
     where = f" (through the link, to {target})" if target != aircraft else ""
-    err.print(f"new empty-weight record written to {aircraft}{where}; the old one is in its history", markup=False)
+    err.print(
+        f"new empty-weight record written to {aircraft}{where}; the old one is in its history",
+        markup=False,
+        soft_wrap=True,
+    )
     raise typer.Exit(EXIT_OK)
 
 
