@@ -39,6 +39,7 @@ from ..caution import MECHANIC_CAUTION, PILOT_CAUTION
 from ..display import fmt
 from ..errors import InputError, LoadcheckError, Problem
 from ..words import burn_path_summary, condition_words, stretch_text, within_limits_text
+from .form import FORM_FIELDS, refuse_unknown
 from .security import MAX_BODY_BYTES, BodyLimit, SignInThrottle, csrf_ok, csrf_token
 from .users import Account, UserStore
 
@@ -246,11 +247,16 @@ def _need(request: Request, role: str, *also: str) -> Account:
     return account
 
 
-async def _form(request: Request) -> FormData:
-    """The posted form, refused (403) without the session's CSRF token."""
+async def _form(request: Request, *fields: str) -> FormData:
+    """The posted form, refused (403) without the session's CSRF token; with ``fields``, also
+    refused (422) for a field that is not one of them (loadcheck.web.form.refuse_unknown). A
+    form whose fields depend on the aircraft (the check form) is read without ``fields`` and
+    checked by :func:`_overrides`, which knows them."""
     form = await request.form()
     if not csrf_ok(request.session, form.get("csrf")):
         raise HTTPException(403, "the form's security token is missing or out of date: reload the page and try again")
+    if fields:
+        refuse_unknown(form, fields)
     return form
 
 
@@ -334,6 +340,7 @@ def _overrides(form: FormValues, aircraft: Aircraft, legs: int | None = None) ->
     category = read("category")
     read("station")
     read("stop")
+    refuse_unknown(form, typed)
     return typed, Overrides(load=load, names=names, fuel=fuel, burn=burn, category=category or None, legs=further)
 
 
@@ -563,7 +570,7 @@ def create_app(
 
     @app.post("/signin", response_class=HTMLResponse)
     async def signin(request: Request) -> Response:
-        form = await _form(request)
+        form = await _form(request, "name", "password")
         name, password = _text(form, "name"), _text(form, "password")
         client = request.client.host if request.client else "unknown"
         keys = [f"name:{name}", f"client:{client}"]
@@ -591,7 +598,7 @@ def create_app(
 
     @app.post("/signout")
     async def signout(request: Request) -> Response:
-        await _form(request)
+        await _form(request, *FORM_FIELDS)
         request.session.clear()
         return RedirectResponse("/signin", status_code=303)
 
@@ -867,7 +874,7 @@ def create_app(
         from ..checklog import CheckLog, verify
 
         account = _need(request, "dispatcher")
-        await _form(request)
+        await _form(request, *FORM_FIELDS)
         found = _record(account, record_id)
         with CheckLog(desk.db) as log:
             verification = verify(log, record_id)
@@ -905,15 +912,11 @@ def create_app(
         kind: str = Form("weighing"),
         text: str = Form(""),
         upload: UploadFile | None = None,
-        csrf: str = Form(""),
     ) -> Response:
         from ..empty_record import history, propose
 
         account = _need(request, "mechanic")
-        if not csrf_ok(request.session, csrf):
-            raise HTTPException(
-                403, "the form's security token is missing or out of date: reload the page and try again"
-            )
+        await _form(request, "kind", "text", "upload")
         aircraft, path = desk.aircraft_path(registration)
         uploaded = upload is not None and bool(upload.filename)
         content = (await upload.read()) if upload is not None and uploaded else text.encode("utf-8")
@@ -963,7 +966,7 @@ def create_app(
         from ..empty_record import history, make_current
 
         account = _need(request, "mechanic")
-        form = await _form(request)
+        form = await _form(request, "token", "confirm", "override", "note")
         token = _text(form, "token")
         with desk.lock:
             pending = desk.pending.get(token)
