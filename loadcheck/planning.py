@@ -801,7 +801,12 @@ def weight_shift(
     pairs = feasible_intervals(
         lambda x: _ok(evaluate_arrays(aircraft, base, stations=rows(x))), 0.0, available, _GRID_STEP
     )
-    reason = f"moving up to all {fmt(available, units.mass)} from {source} is not enough"
+    empty = available <= 0.0
+    reason = (
+        f"{source} is empty: it holds no weight to move"
+        if empty
+        else f"moving up to all {fmt(available, units.mass)} from {source} is not enough"
+    )
     answer = _answer(
         aircraft,
         pairs,
@@ -812,8 +817,8 @@ def weight_shift(
         "up",
         lambda: reason,
     )
-    if not answer.feasible:
-        return replace(answer, answer_display=f"no amount can: {reason}")
+    if not answer.feasible:  # the reason said once; "limited by" is what is still exceeded with all of it moved
+        return replace(answer, answer_display=f"no amount can: {reason}", governing=_why_not(aircraft, at(available)))
     return answer
 
 

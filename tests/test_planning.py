@@ -441,3 +441,17 @@ def test_regression_most_fuel_is_limited_by_the_limit_with_its_amount():
     assert answer.feasible and answer.governing is not None
     first = answer.governing.split("; ")[0]
     assert first == f"maximum takeoff weight {inputs.aircraft.limits.max_takeoff_weight:,.1f} lb"
+
+
+def test_regression_shift_from_an_empty_station_says_so_once():
+    """plan shift from an empty station said "moving up to all 0.0 kg ... is not enough" twice (answer and
+    "limited by"); it now says once that the station is empty, and "limited by" gives what the loading's own
+    check exceeds (tandem2/aft_heavy.toml carries no ballast and is aft of its envelope)."""
+    inputs = load_check_inputs(sample("tandem2/aft_heavy.toml"))
+    assert inputs.loading.stations.get("ballast", 0.0) == 0.0
+    answer = P.weight_shift(inputs.aircraft, inputs.loading, "ballast", "front")
+    assert not answer.feasible
+    assert answer.answer_display == "no amount can: ballast is empty: it holds no weight to move"
+    assert "not enough" not in answer.answer_display and "empty" not in (answer.governing or "")
+    check = check_loading(inputs.aircraft, inputs.loading)
+    assert answer.governing == "with this load and trip: " + "; ".join(f.message for f in check.limits_exceeded)
