@@ -181,3 +181,11 @@ def test_regression_sheet_says_a_sheet_was_written_not_the_record(runner, tmp_pa
     assert f"record sheet written (to print and sign): {sheet}\n" in result.stderr  # one line, the path whole
     assert "record written" not in result.stderr
     assert sheet.exists() and path.read_bytes() == before
+
+
+def test_regression_weigh_shows_the_sign_of_every_change(runner):
+    """trainer4/weighing.toml gives 1,685.8 lb against the current 1,718.0 lb: -32.2 lb, so the useful
+    load grows by +32.2 lb (useful load = maximum takeoff weight - empty weight, FAA-H-8083-1B chapter 1)."""
+    result = runner.invoke(app, ["weigh", str(sample("trainer4/aircraft.toml")), str(sample("trainer4/weighing.toml"))])
+    text = " ".join(result.output.split())
+    assert "Change from the current record: weight -32.2 lb, CG -0.19 in; useful load 764.2 lb (+32.2 lb)" in text

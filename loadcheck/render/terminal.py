@@ -852,9 +852,9 @@ def render_weighing(result: Any, units: Any, console: Console) -> None:
 
 def _changes_line(result: Any, units: Any, console: Console) -> None:
     console.print(
-        f"Change from the current record: weight {fmt(result.change_weight, units.mass)}, CG "
-        f"{fmt(result.change_arm, units.arm)}; "
-        f"useful load {fmt(result.useful_load, units.mass)} ({fmt(result.change_useful_load, units.mass)})",
+        f"Change from the current record: weight {fmt(result.change_weight, units.mass, signed=True)}, CG "
+        f"{fmt(result.change_arm, units.arm, signed=True)}; useful load {fmt(result.useful_load, units.mass)} "
+        f"({fmt(result.change_useful_load, units.mass, signed=True)})",
         markup=False,
     )
 
@@ -887,8 +887,8 @@ def render_alteration(result: Any, units: Any, console: Console) -> None:
                 fmt(line.weight, units.mass, with_unit=False),
                 fmt(line.arm, units.arm, with_unit=False),
                 "" if line.new_arm is None else fmt(line.new_arm, units.arm, with_unit=False),
-                fmt(line.weight_change, units.mass, with_unit=False),
-                fmt(line.moment_change, units.moment, with_unit=False),
+                fmt(line.weight_change, units.mass, with_unit=False, signed=True),
+                fmt(line.moment_change, units.moment, with_unit=False, signed=True),
             ]
             for line in result.lines
         ],
@@ -897,14 +897,7 @@ def render_alteration(result: Any, units: Any, console: Console) -> None:
         "Empty-weight record", [("Current record", result.previous), ("After the changes", result.new)], units, console
     )
     _changes_line(result, units, console)
-    n = result.negligible
-    verdict = {True: "negligible", False: "not negligible", None: "cannot be judged"}[n.overall]
-    console.print(
-        f"AC 43.13-1B 10-2 c: the change is {verdict} (weight: {'yes' if n.weight else 'no'}, "
-        f"{n.weight_threshold}; CG: {'cannot be judged' if n.cg is None else ('yes' if n.cg else 'no')}, "
-        f"{n.cg_threshold})",
-        markup=False,
-    )
+    console.print(result.negligible.text, markup=False)
     _warnings_and_refusals(result, console)
     console.print(caution_text(result.caution))
 
