@@ -702,7 +702,7 @@ def least_ballast(aircraft: Aircraft, loading: ResolvedLoading, station: str | N
         aircraft.units.mass,
         lambda v: loading.but(stations={**loading.stations, station: already + v}),
         f"least ballast at {aircraft.station[index].name}",
-        f"ballast at {station}",
+        "ballast" if station == "ballast" else f"ballast at {station}",  # never "ballast at ballast"
         "up",
         lambda: reason,
     )

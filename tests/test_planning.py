@@ -209,7 +209,7 @@ def test_impossible_requests():
             "no solution",
         ),
         (["plan", "fuel", "twin6/two_stretches.toml"], 0, "more than one stretch"),
-        (["plan", "ballast", "tandem2/aft_heavy.toml"], 0, "ballast at ballast"),
+        (["plan", "ballast", "tandem2/aft_heavy.toml"], 0, "Least ballast at Firewall ballast box"),
         (["plan", "payload", "trainer4/within.toml"], 2, "--station"),
     ],
 )
@@ -455,3 +455,13 @@ def test_regression_shift_from_an_empty_station_says_so_once():
     assert "not enough" not in answer.answer_display and "empty" not in (answer.governing or "")
     check = check_loading(inputs.aircraft, inputs.loading)
     assert answer.governing == "with this load and trip: " + "; ".join(f.message for f in check.limits_exceeded)
+
+
+def test_regression_ballast_at_a_station_named_ballast_is_not_said_twice(runner):
+    """tandem2's ballast station has the id "ballast": the answer read "ballast at ballast: 14.5 kg"."""
+    result = runner.invoke(app, ["plan", "ballast", str(sample("tandem2/aft_heavy.toml"))])
+    assert result.exit_code == 0, result.output
+    assert "ballast at ballast" not in result.output
+    assert "\nballast: " in result.output  # the answer's line, "ballast: 14.5 kg"
+    other = runner.invoke(app, ["plan", "ballast", str(sample("tandem2/aft_heavy.toml")), "--station", "front"])
+    assert "ballast at front" in other.output
