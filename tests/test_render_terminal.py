@@ -231,3 +231,29 @@ def test_regression_condition_rows_read_within_beside_a_burn_path_limit(runner):
     assert not check.ok and all(condition_verdict(c, check) == ("inside", "ok") for c in check.conditions)
     _, warned = _inputs("tandem2/aft_ballast.toml")  # the zero-fuel CG checked only as a warning
     assert condition_verdict(warned.condition("zero_fuel"), warned) == ("OUTSIDE (warning)", "warning")
+
+
+@pytest.mark.parametrize("name", ["twin6/within.toml", "heli2/dual.toml"])
+def test_regression_item_names_take_the_room_they_need_and_no_number_is_cut(runner, monkeypatch, name):
+    """twin6's and heli2's moment tables wrapped every item name one word per line at 80 columns while the
+    number columns took the room for their headers. Names now get the room first (a header wraps sooner
+    than a name); at 80 and 60 columns every figure of the table is still printed whole."""
+    inputs, result = _inputs(name)
+    units = result.units
+    for width in ("80", "60"):
+        monkeypatch.setenv("COLUMNS", width)
+        out = runner.invoke(app, ["check", str(sample(name))]).stdout
+        assert all(len(line.rstrip()) <= int(width) for line in out.splitlines())
+        for item in result.items:
+            for value, unit in ((item.weight, units.mass), (item.arm, units.arm), (item.moment, units.moment)):
+                assert re.search(rf"(?<![\d,.]){re.escape(fmt(value, unit, with_unit=False))}(?![\d,])", out), (
+                    width,
+                    item.name,
+                    value,
+                )
+        if width == "80":
+            rows = [line for line in out.splitlines() if line.startswith("│")]
+            for item in result.items:
+                whole = item.name + (f" ({fmt(item.fuel_volume, units.fuel_volume)})" if item.fuel_volume else "")
+                if len(whole) <= 27:  # the room left beside the numbers at 80 columns (the widest sample table)
+                    assert any(f"│ {whole} " in row for row in rows), (item.name, out)

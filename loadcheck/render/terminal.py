@@ -101,15 +101,17 @@ def _longest_word(text: str) -> int:
     return max((cell_len(word) for word in text.split()), default=0)
 
 
-def _span(column: Column, cells: Sequence[Cell]) -> tuple[int, int]:
-    """Narrowest and natural width of a column's text (padding and borders not included)."""
+def _span(column: Column, cells: Sequence[Cell]) -> tuple[int, int, int]:
+    """Narrowest width of a column's text, the width its cells need unwrapped, and its natural
+    width with the header unwrapped too (padding and borders not included)."""
     lines = [line for cell in cells for line in _plain(cell).split("\n")]
-    natural = max([cell_len(column.header)] + [cell_len(line) for line in lines])
     if column.numeric:
         narrowest = max([_longest_word(column.header)] + [cell_len(line) for line in lines])
     else:
         narrowest = max([_longest_word(column.header)] + [_longest_word(line) for line in lines])
-    return max(narrowest, 1), max(natural, 1)
+    body = max([narrowest] + [cell_len(line) for line in lines])
+    natural = max(body, cell_len(column.header))
+    return max(narrowest, 1), max(body, 1), max(natural, 1)
 
 
 def _outer(widths: Sequence[int]) -> int:
@@ -153,10 +155,13 @@ def fitted_tables(
     for number, block in enumerate(blocks):
         widths = [spans[j][0] for j in block]
         spare = width - _outer(widths)
-        for k in sorted(range(len(block)), key=lambda k: spans[block[k]][1] - spans[block[k]][0]):
-            grow = min(spare, spans[block[k]][1] - widths[k])
-            widths[k] += grow
-            spare -= grow
+        # the room left goes first to the cells (an item name on one line), then to the headers;
+        # within each, to the columns that need the least more first
+        for need in (1, 2):
+            for k in sorted(range(len(block)), key=lambda k: spans[block[k]][need] - widths[k]):
+                grow = min(spare, spans[block[k]][need] - widths[k])
+                widths[k] += grow
+                spare -= grow
         heading = title if number == 0 else f"{title} (continued)"
         if cell_len(heading) > _outer(widths):  # a title wider than its table: on a line of its own, not
             tables.append(Text(heading, style="italic"))  # wrapped to the table's few columns
