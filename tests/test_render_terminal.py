@@ -238,7 +238,7 @@ def test_regression_item_names_take_the_room_they_need_and_no_number_is_cut(runn
     """twin6's and heli2's moment tables wrapped every item name one word per line at 80 columns while the
     number columns took the room for their headers. Names now get the room first (a header wraps sooner
     than a name); at 80 and 60 columns every figure of the table is still printed whole."""
-    inputs, result = _inputs(name)
+    _, result = _inputs(name)
     units = result.units
     for width in ("80", "60"):
         monkeypatch.setenv("COLUMNS", width)
