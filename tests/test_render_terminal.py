@@ -257,3 +257,25 @@ def test_regression_item_names_take_the_room_they_need_and_no_number_is_cut(runn
                 whole = item.name + (f" ({fmt(item.fuel_volume, units.fuel_volume)})" if item.fuel_volume else "")
                 if len(whole) <= 27:  # the room left beside the numbers at 80 columns (the widest sample table)
                     assert any(f"│ {whole} " in row for row in rows), (item.name, out)
+
+
+def test_regression_a_margin_shown_as_zero_is_on_the_edge_not_beyond_it(runner, monkeypatch):
+    """schedule showed "0.0 (edge)" where docs/cli.md says (edge) marks a margin below zero: twin6's full-fuel
+    case takes off at exactly its maximum takeoff weight (5,500 lb, the aircraft file), so its weight margin is
+    zero to within floating-point noise and the condition is inside (limits are inclusive, DESIGN.md). A
+    margin shown as 0.0 now carries no mark; one shown below zero still does (the test above)."""
+    from loadcheck.files import load_aircraft
+    from loadcheck.render.terminal import weight_margin
+    from loadcheck.schedule import loading_schedule
+
+    aircraft = load_aircraft(sample("twin6/aircraft.toml"))
+    result = loading_schedule(aircraft)
+    takeoffs = [case.check.condition("takeoff") for case in result.cases]
+    at_maximum = [t for t in takeoffs if abs(t.weight - aircraft.limits.max_takeoff_weight) < 1e-6]
+    assert at_maximum and all(t.ok for t in at_maximum)
+    for case in result.cases:
+        shown, marked = weight_margin(case.check.condition("takeoff"), case.check)
+        assert marked == shown.startswith("-")
+    monkeypatch.setenv("COLUMNS", "120")
+    out = runner.invoke(app, ["schedule", str(sample("twin6/aircraft.toml"))]).stdout
+    assert "0.0 (edge)" not in out and "(edge)" not in out

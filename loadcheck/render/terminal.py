@@ -359,10 +359,13 @@ EDGE_NOTE = (
 
 
 def weight_margin(c: Condition, result: CheckResult) -> tuple[str, bool]:
-    """The weight margin as shown, and whether it is marked "(edge)": below zero with no maximum
-    weight exceeded, so the envelope's edge at this CG sets it (a CG matter, not an overweight one)."""
+    """The weight margin as shown, and whether it is marked "(edge)": shown below zero with no
+    maximum weight exceeded, so the envelope's edge at this CG sets it (a CG matter, not an
+    overweight one). A margin that shows as zero is no mark: the point is on the limit, which
+    holds (limits are inclusive, docs/computation.md), whatever noise far below the display
+    precision its figure carries."""
     text = _margin(c.margins.weight, result.units.mass)
-    if c.margins.weight is None or c.margins.weight >= 0:
+    if c.margins.weight is None or not text.startswith("-"):
         return text, False
     weight_finding = any(f.code in _WEIGHT_CODES and f.condition == c.condition for f in result.findings)
     return (text, False) if weight_finding else (f"{text} (edge)", True)
