@@ -279,3 +279,14 @@ def test_regression_a_margin_shown_as_zero_is_on_the_edge_not_beyond_it(runner, 
     monkeypatch.setenv("COLUMNS", "120")
     out = runner.invoke(app, ["schedule", str(sample("twin6/aircraft.toml"))]).stdout
     assert "0.0 (edge)" not in out and "(edge)" not in out
+
+
+def test_regression_show_gives_the_fill_levels_unit(runner, monkeypatch):
+    """show printed "Levels: standard 70" (no unit). trainer4's aircraft file gives mains levels
+    { school = 30 } in its fuel volume unit, US gallons."""
+    monkeypatch.setenv("COLUMNS", "120")
+    out = runner.invoke(app, ["show", str(sample("trainer4/aircraft.toml"))]).stdout
+    assert "Levels (usgal)" in out and "school 30.0" in out
+    monkeypatch.setenv("COLUMNS", "30")  # the tanks' table in blocks: the levels' block keeps its unit
+    narrow = runner.invoke(app, ["show", str(sample("trainer4/aircraft.toml"))]).stdout
+    assert "┃ Levels (usgal) ┃" in narrow and "school 30.0" in narrow

@@ -608,7 +608,7 @@ def render_aircraft(aircraft: Aircraft, console: Console, caution: str, warnings
                     fmt(t.usable, units.fuel_volume, with_unit=False),
                     fmt(aircraft.usable_fuel_weight(t), units.mass, with_unit=False),
                     f"{t.fuel}\n{density}" if t.fuel else density,
-                    "\n".join(f"{k} {v:g}" for k, v in t.levels.items()),
+                    "\n".join(f"{k} {fmt(v, units.fuel_volume, with_unit=False)}" for k, v in t.levels.items()),
                 ]
             )
         _print_table(
@@ -621,7 +621,7 @@ def render_aircraft(aircraft: Aircraft, console: Console, caution: str, warnings
                 Column(f"Usable ({units.fuel_volume})"),
                 Column(f"Usable ({units.mass})"),
                 Column("Fuel and density"),
-                Column("Levels"),
+                Column(f"Levels ({units.fuel_volume})"),
             ],
             rows,
         )
