@@ -290,3 +290,30 @@ def test_regression_show_gives_the_fill_levels_unit(runner, monkeypatch):
     monkeypatch.setenv("COLUMNS", "30")  # the tanks' table in blocks: the levels' block keeps its unit
     narrow = runner.invoke(app, ["show", str(sample("trainer4/aircraft.toml"))]).stdout
     assert "┃ Levels (usgal) ┃" in narrow and "school 30.0" in narrow
+
+
+def test_regression_the_desk_shows_the_terminals_units_and_condition_states(reading_desk, runner, monkeypatch):
+    """The desk wrote the moment unit as kg*mm (the terminal: kg·mm, SI Brochure 5.4.6) and each condition's
+    state as "within", the loading's verdict word; it now uses the terminal's helpers (unit_label,
+    condition_verdict) and its one rounding rule (fmt): the same figures, units and words."""
+    pytest.importorskip("fastapi")
+    from .web_helpers import _client, _post_check
+
+    values = {"load.front": "58", "load.rear": "110", "load.baggage": "20", "fuel.wing": "30"}
+    values |= {"burn.taxi": "1", "burn.trip": "10"}
+    page = _post_check(_client(reading_desk, "pia"), values, "DEMO-2T").text
+    text = re.sub(r"\s+", " ", re.sub(r"<[^>]+>", " ", page))
+    assert "Moment (kg·mm)" in text and "kg*mm" not in text
+    monkeypatch.setenv("COLUMNS", "200")
+    args = ["check", str(sample("tandem2/aircraft.toml"))]
+    for key, value in values.items():
+        table, name = key.split(".")
+        args += {"load": ["--load"], "fuel": ["--fuel"], "burn": [f"--{name}"]}[table] + (
+            [f"{name}={value}"] if table != "burn" else [value]
+        )
+    out = runner.invoke(app, args)
+    rows = {line.split("│")[1].strip(): line for line in out.stdout.splitlines() if line.startswith("│")}
+    for condition in ("Ramp", "Takeoff", "Landing"):
+        cg, state = [cell.strip() for cell in rows[condition].split("│")][4], "OUTSIDE"
+        assert re.search(rf"{condition.lower()} [\d.,]+ [\d.,]+ {cg} {state} ", text), (condition, cg, text)
+    assert " within " not in text.split("Conditions and margins")[1].split("Margins are")[0]

@@ -36,7 +36,7 @@ from starlette.middleware.sessions import SessionMiddleware
 
 from .. import __version__
 from ..caution import MECHANIC_CAUTION, PILOT_CAUTION
-from ..display import fmt
+from ..display import fmt, unit_label
 from ..errors import InputError, LoadcheckError, Problem
 from ..words import burn_path_summary, condition_words, stretch_text, within_limits_text
 from .form import FORM_FIELDS, refuse_unknown
@@ -494,8 +494,15 @@ def create_app(
     app.mount("/static", StaticFiles(directory=_HERE / "static"), name="static")
     templates = Jinja2Templates(directory=str(_HERE / "templates"))
     env = templates.env
+    from ..render.terminal import CONDITION_STATE_HEADING, EDGE_NOTE, condition_verdict, weight_margin
+
     env.globals.update(
         fmt=fmt,
+        unit_label=unit_label,
+        condition_verdict=condition_verdict,
+        weight_margin=weight_margin,
+        CONDITION_STATE_HEADING=CONDITION_STATE_HEADING,
+        EDGE_NOTE=EDGE_NOTE,
         condition_words=condition_words,
         burn_path_summary=burn_path_summary,
         stretch_text=stretch_text,
