@@ -317,3 +317,21 @@ def test_regression_the_desk_shows_the_terminals_units_and_condition_states(read
         cg, state = [cell.strip() for cell in rows[condition].split("│")][4], "OUTSIDE"
         assert re.search(rf"{condition.lower()} [\d.,]+ [\d.,]+ {cg} {state} ", text), (condition, cg, text)
     assert " within " not in text.split("Conditions and margins")[1].split("Margins are")[0]
+
+
+def test_regression_a_recorded_checks_page_gives_each_condition_state_in_the_terminals_words(desk):
+    """The record page said "within" of each condition (the loading's verdict word, DESIGN.md); it now says
+    inside / OUTSIDE as the terminal does, by the same function, from the record's JSON."""
+    pytest.importorskip("fastapi")
+    from .web_helpers import _client, _post_check
+
+    client = _client(desk, "pia")
+    values = {"load.front": "58", "load.rear": "110", "load.baggage": "20", "fuel.wing": "30"}
+    recorded = _post_check(client, {**values, "burn.taxi": "1", "burn.trip": "10"}, "DEMO-2T", route="record")
+    assert recorded.status_code == 303, recorded.text
+    page = client.get(recorded.headers["location"]).text
+    table = page.split("Conditions")[1].split("</table>")[0]
+    cells = re.findall(r"<td>(?:<strong>)?(inside|OUTSIDE|within|outside)[^<]*", table)
+    # tandem2/aft_heavy's figures: ramp, takeoff and landing aft of the envelope, zero fuel a warning
+    assert cells == ["OUTSIDE", "OUTSIDE", "OUTSIDE", "OUTSIDE"], table
+    assert "OUTSIDE (warning)" in table and "within" not in table

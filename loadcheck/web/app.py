@@ -21,7 +21,8 @@ from collections import OrderedDict
 from collections.abc import Iterable, Mapping
 from dataclasses import dataclass
 from pathlib import Path
-from typing import TYPE_CHECKING, TypedDict
+from types import SimpleNamespace
+from typing import TYPE_CHECKING, Any, TypedDict, cast
 
 from fastapi import FastAPI, Form, HTTPException, Request, UploadFile
 from fastapi.exceptions import RequestValidationError
@@ -496,10 +497,20 @@ def create_app(
     env = templates.env
     from ..render.terminal import CONDITION_STATE_HEADING, EDGE_NOTE, condition_verdict, weight_margin
 
+    def recorded_state(condition: Mapping[str, Any], result: Mapping[str, Any]) -> tuple[str, str]:
+        """A recorded condition's state (the check log keeps the result as its JSON), in the words of
+        :func:`~loadcheck.render.terminal.condition_verdict`, by that same function."""
+        findings = [SimpleNamespace(**f) for f in result.get("findings", []) if isinstance(f, Mapping)]
+        return condition_verdict(
+            cast(Any, SimpleNamespace(condition=condition.get("condition"), ok=bool(condition.get("ok")))),
+            cast(Any, SimpleNamespace(findings=findings)),
+        )
+
     env.globals.update(
         fmt=fmt,
         unit_label=unit_label,
         condition_verdict=condition_verdict,
+        recorded_state=recorded_state,
         weight_margin=weight_margin,
         CONDITION_STATE_HEADING=CONDITION_STATE_HEADING,
         EDGE_NOTE=EDGE_NOTE,
