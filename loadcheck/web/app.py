@@ -22,7 +22,7 @@ from collections.abc import Iterable, Mapping
 from dataclasses import dataclass
 from pathlib import Path
 from types import SimpleNamespace
-from typing import TYPE_CHECKING, Any, TypedDict, cast
+from typing import TYPE_CHECKING, TypedDict, cast
 
 from fastapi import FastAPI, Form, HTTPException, Request, UploadFile
 from fastapi.exceptions import RequestValidationError
@@ -52,7 +52,7 @@ if TYPE_CHECKING:
     from ..fleet import Fleet
     from ..loading import Loading, ResolvedTrip
     from ..planning import PlanResult
-    from ..results import CheckResult, TripResult
+    from ..results import CheckResult, Condition, TripResult
 
 __all__ = ["MAX_LEGS", "CheckRequest", "PayloadRequest", "StopRequest", "create_app", "form_key", "leg_count"]
 
@@ -497,13 +497,14 @@ def create_app(
     env = templates.env
     from ..render.terminal import CONDITION_STATE_HEADING, EDGE_NOTE, condition_verdict, weight_margin
 
-    def recorded_state(condition: Mapping[str, Any], result: Mapping[str, Any]) -> tuple[str, str]:
+    def recorded_state(condition: Mapping[str, object], result: Mapping[str, object]) -> tuple[str, str]:
         """A recorded condition's state (the check log keeps the result as its JSON), in the words of
         :func:`~loadcheck.render.terminal.condition_verdict`, by that same function."""
-        findings = [SimpleNamespace(**f) for f in result.get("findings", []) if isinstance(f, Mapping)]
+        found = result.get("findings")
+        findings = [SimpleNamespace(**f) for f in found if isinstance(f, Mapping)] if isinstance(found, list) else []
         return condition_verdict(
-            cast(Any, SimpleNamespace(condition=condition.get("condition"), ok=bool(condition.get("ok")))),
-            cast(Any, SimpleNamespace(findings=findings)),
+            cast("Condition", SimpleNamespace(condition=condition.get("condition"), ok=bool(condition.get("ok")))),
+            cast("CheckResult", SimpleNamespace(findings=findings)),
         )
 
     env.globals.update(
