@@ -35,7 +35,7 @@ def test_alter_warns_when_the_new_cg_leaves_the_empty_weight_cg_range(runner, tm
     path = _trainer_with_range(tmp_path, "[37.1, 38.0]")
     result = alter(load_aircraft(path), Changes.model_validate(sample_data("trainer4/changes.toml")))
     assert result.new.arm < 37.1
-    assert any("outside the empty-weight CG range 37.1 to 38" in w for w in result.warnings)
+    assert any("outside the empty-weight CG range 37.10 in to 38.00 in (forward of it by" in w for w in result.warnings)
     shown = runner.invoke(
         app, ["alter", str(path), str(tmp_path / "changes.toml"), "--sheet", str(tmp_path / "r.html")]
     )
