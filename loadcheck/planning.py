@@ -554,7 +554,7 @@ def longest_trip(
         variable="trip fuel",
         direction="down",
         why_not=lambda: (
-            f"the fuel on board less taxi fuel does not cover the reserve of {reserve:g} {unit}"
+            f"the fuel on board less taxi fuel does not cover the reserve of {fmt(reserve, unit)}"
             if top < 0
             else _why_not(aircraft, fuelled)
         ),
@@ -660,12 +660,12 @@ def fuel_to_leave(
             f"with that payload no ramp fuel that covers taxi and trip ({fmt(loading.taxi + loading.trip, unit)}) "
             f"is within limits: {fuel.governing}"
             if not fuel.intervals
-            else f"the fuel taken would have to be more than the {now:,.1f} {unit} in the loading: "
+            else f"the fuel taken would have to be more than the {fmt(now, unit)} in the loading: "
             "with that payload the ramp fuel within limits is "
             + ", ".join(stretch_text(i.low, i.high, unit) for i in fuel.intervals)
         ),
     )
-    extra = {"ramp fuel in the loading": f"{now:,.1f} {unit}"}
+    extra = {"ramp fuel in the loading": fmt(now, unit)}
     if result.feasible and result.check is not None:
         taken = result.check.condition("ramp").fuel
         extra["fuel taken"] = fmt(taken, unit)
