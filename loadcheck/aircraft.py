@@ -102,11 +102,24 @@ def _quantity_reader(kind: str, unit_field: str) -> Any:
 
 
 _QUANTITY_SCHEMA = WithJsonSchema({"anyOf": [{"type": "number"}, {"type": "string"}]})
-Mass = Annotated[float, _quantity_reader("mass", "mass"), _QUANTITY_SCHEMA]
+
+PLAUSIBLE = 1e7
+"""The largest magnitude of a mass, an arm or a fuel volume in an aircraft file, in its own units: ten
+million (10 km in mm, over 4,500 t in lb) is beyond any aircraft, and a figure beyond it (a mistyped
+exponent) would overflow the moments rather than be checked."""
+
+
+def _plausible(value: float) -> float:
+    if abs(value) > PLAUSIBLE:
+        raise ValueError(f"{value:g} is beyond any aircraft: at most {PLAUSIBLE:,.0f} in the file's units")
+    return value
+
+
+Mass = Annotated[float, _quantity_reader("mass", "mass"), AfterValidator(_plausible), _QUANTITY_SCHEMA]
 """A mass [aircraft mass unit]; a string with a unit is converted."""
-Arm = Annotated[float, _quantity_reader("length", "arm"), _QUANTITY_SCHEMA]
+Arm = Annotated[float, _quantity_reader("length", "arm"), AfterValidator(_plausible), _QUANTITY_SCHEMA]
 """A distance from the datum [aircraft arm unit]; a string with a unit is converted."""
-Volume = Annotated[float, _quantity_reader("volume", "fuel_volume"), _QUANTITY_SCHEMA]
+Volume = Annotated[float, _quantity_reader("volume", "fuel_volume"), AfterValidator(_plausible), _QUANTITY_SCHEMA]
 """A fuel volume [aircraft fuel volume unit]; a string with a unit is converted."""
 
 

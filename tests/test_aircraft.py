@@ -220,3 +220,16 @@ def test_regression_self_crossing_envelope_is_said_in_words_in_the_aircrafts_uni
         "the flaps down envelope is not usable: its edges cross each other near CG 400 mm, weight 550.0 kg"
     )
     assert "Self-intersection" not in problem.message
+
+
+def test_regression_an_arm_beyond_any_aircraft_is_refused_not_overflowed():
+    """tests/test_fuzz.py found a station arm of 1.5e306 in accepted and extremes ending in an internal
+    error (the moments overflow to infinity); such a figure is refused at the boundary, naming the field."""
+    data = sample_data("trainer4/aircraft.toml")
+    data["station"][2]["arm"] = 1.4980776123852632e306
+    with pytest.raises(InputError) as caught:
+        parse_aircraft(data)
+    (problem,) = caught.value.problems
+    assert problem.field == "station[2].arm" and "beyond any aircraft" in problem.message
+    data["station"][2]["arm"] = 9_999_999.0  # large, but within the bound: used as given
+    assert parse_aircraft(data).station[2].arm == 9_999_999.0
