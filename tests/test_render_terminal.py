@@ -335,3 +335,14 @@ def test_regression_a_recorded_checks_page_gives_each_condition_state_in_the_ter
     # tandem2/aft_heavy's figures: ramp, takeoff and landing aft of the envelope, zero fuel a warning
     assert cells == ["OUTSIDE", "OUTSIDE", "OUTSIDE", "OUTSIDE"], table
     assert "OUTSIDE (warning)" in table and "within" not in table
+
+
+def test_regression_a_wrapped_note_keeps_its_indent(runner, monkeypatch):
+    """extremes and schedule printed their notes indented by two, but a note wrapped at 60 columns went on
+    at the margin ("limit" alone under "  Left seat: ..."), reading as a heading of its own."""
+    monkeypatch.setenv("COLUMNS", "60")
+    out = runner.invoke(app, ["extremes", str(sample("heli2/aircraft.toml"))]).stdout.splitlines()
+    start = next(i for i, line in enumerate(out) if line.startswith("  Left seat"))
+    end = next(i for i, line in enumerate(out) if line.startswith("  fuel states checked"))
+    assert end > start + 1 and all(line.startswith("  ") for line in out[start:end]), out[start:end]
+    assert any(line.strip() == "limit" for line in out[start:end])  # the wrap this test is about happens

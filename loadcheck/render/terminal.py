@@ -19,6 +19,7 @@ from typing import TYPE_CHECKING, Any
 
 from rich.cells import cell_len
 from rich.console import Console
+from rich.padding import Padding
 from rich.panel import Panel
 from rich.table import Table
 from rich.text import Text
@@ -235,6 +236,11 @@ def _print_table(
 ) -> None:
     for table in fitted_tables(console.width, title, columns, rows, total):
         console.print(table)
+
+
+def _indented(console: Console, text: str) -> None:
+    """A note under a heading, indented by two, its wrapped lines too (never back at the margin)."""
+    console.print(Padding(Text(text), (0, 0, 0, 2), expand=False))
 
 
 def _lines(console: Console, tag_rows: Sequence[tuple[Text, Text]]) -> None:
@@ -922,8 +928,8 @@ def render_extremes(result: Any, console: Console) -> None:
             )
         )
         for note in case.notes:
-            console.print(f"  {note}", markup=False)
-        console.print(f"  fuel states checked: {case.fuel_states}", markup=False)
+            _indented(console, note)
+        _indented(console, f"fuel states checked: {case.fuel_states}")
         checked_loading(case.check, console)
         ramp = case.check.condition("ramp")
         words = "within limits" if case.ok else "NOT within limits"
@@ -943,20 +949,20 @@ def render_schedule(result: Any, aircraft: Aircraft, console: Console) -> None:
     for case in result.cases:
         console.print(Text(case.question[:1].upper() + case.question[1:], style="bold"))
         for note in case.notes:
-            console.print(f"  {note}", markup=False)
+            _indented(console, note)
         seats = ", ".join(f"{aircraft.station_by_id[s].name}: {n}" for s, n in case.occupants.items()) or "none"
-        console.print(f"  occupants: {seats}", markup=False)
+        _indented(console, f"occupants: {seats}")
         other = [
             f"{aircraft.station_by_id[s].name} {fmt(w, units.mass, 'down')}"
             for s, w in case.load.items()
             if aircraft.station_by_id[s].kind != "seat" and w > 0
         ]
-        console.print(f"  baggage, cargo and fixed items: {', '.join(other) or 'none'}", markup=False)
+        _indented(console, f"baggage, cargo and fixed items: {', '.join(other) or 'none'}")
         fuel = ", ".join(
             f"{aircraft.tank_by_id[t].name} {fmt(q, units.fuel_volume, 'down')}" for t, q in case.fuel.items()
         )
-        console.print(f"  fuel: {fuel or 'none'}", markup=False)
-        console.print(f"  fuel states checked: {case.fuel_states}", markup=False)
+        _indented(console, f"fuel: {fuel or 'none'}")
+        _indented(console, f"fuel states checked: {case.fuel_states}")
         checked_loading(case.check, console, aircraft)
     console.print(caution_text(result.caution))
 
