@@ -131,6 +131,8 @@ def _model(annotation: Any) -> tuple[type[BaseModel] | None, bool]:
     """The model a field holds, and whether it holds a list of them."""
     origin = typing.get_origin(annotation)
     for arg in (annotation, *typing.get_args(annotation)):
+        if typing.get_origin(arg) is typing.Annotated:  # a model with a validator of its place
+            arg = typing.get_args(arg)[0]
         if isinstance(arg, type) and issubclass(arg, BaseModel):
             return arg, origin is list
     return None, False

@@ -12,12 +12,14 @@ from __future__ import annotations
 import datetime as dt
 import hashlib
 import json
+from collections.abc import Callable
 from functools import cached_property
 from itertools import pairwise
 from typing import Annotated, Any, Literal
 
 import numpy as np
 from pydantic import (
+    AfterValidator,
     BeforeValidator,
     Field,
     PrivateAttr,
@@ -27,6 +29,7 @@ from pydantic import (
     model_validator,
 )
 
+from .display import fmt
 from .envelope import AXES, Axis, EnvelopeShape, polygon_problem
 from .errors import Problem, UnitError, UnknownNameError, spelling_hint
 from .filemodel import FileModel
@@ -99,11 +102,24 @@ def _quantity_reader(kind: str, unit_field: str) -> Any:
 
 
 _QUANTITY_SCHEMA = WithJsonSchema({"anyOf": [{"type": "number"}, {"type": "string"}]})
-Mass = Annotated[float, _quantity_reader("mass", "mass"), _QUANTITY_SCHEMA]
+
+PLAUSIBLE = 1e7
+"""The largest magnitude of a mass, an arm or a fuel volume in an aircraft file, in its own units: ten
+million (10 km in mm, over 4,500 t in lb) is beyond any aircraft, and a figure beyond it (a mistyped
+exponent) would overflow the moments rather than be checked."""
+
+
+def _plausible(value: float) -> float:
+    if abs(value) > PLAUSIBLE:
+        raise ValueError(f"{value:g} is beyond any aircraft: at most {PLAUSIBLE:,.0f} in the file's units")
+    return value
+
+
+Mass = Annotated[float, _quantity_reader("mass", "mass"), AfterValidator(_plausible), _QUANTITY_SCHEMA]
 """A mass [aircraft mass unit]; a string with a unit is converted."""
-Arm = Annotated[float, _quantity_reader("length", "arm"), _QUANTITY_SCHEMA]
+Arm = Annotated[float, _quantity_reader("length", "arm"), AfterValidator(_plausible), _QUANTITY_SCHEMA]
 """A distance from the datum [aircraft arm unit]; a string with a unit is converted."""
-Volume = Annotated[float, _quantity_reader("volume", "fuel_volume"), _QUANTITY_SCHEMA]
+Volume = Annotated[float, _quantity_reader("volume", "fuel_volume"), AfterValidator(_plausible), _QUANTITY_SCHEMA]
 """A fuel volume [aircraft fuel volume unit]; a string with a unit is converted."""
 
 
@@ -339,10 +355,23 @@ class Envelope(_Model):
             raise ValueError(f"the two axes must differ (both are {self.axes[0]!r})")
         if "weight" not in self.axes and set(self.axes) != {"arm", "lateral_arm"}:
             raise ValueError("an envelope needs a weight axis, or the axes lateral_arm and arm")
-        problem = polygon_problem(self.points)
-        if problem:
-            raise ValueError(f"the envelope polygon is not usable: {problem}")
-        return self
+        return self  # the polygon is checked by the aircraft, which knows the units (_usable_polygon)
+
+    @property
+    def subject(self) -> str:
+        """The envelope in words: its label, else its category ("the normal-category envelope")."""
+        return f"the {self.label or self.category + '-category'} envelope".replace("envelope envelope", "envelope")
+
+    def point_words(self, units: Units) -> Callable[[float, float], str]:
+        """A function that words a point of this envelope's axes in the aircraft's units
+        ("CG 40.90 in, weight 1,975.0 lb")."""
+
+        def one(axis: Axis, value: float) -> str:
+            unit = {"mass": units.mass, "arm": units.arm, "percent": "%MAC", "moment": units.moment}[AXES[axis].unit]
+            scaled = f" (/ {self.moment_scale:g})" if AXES[axis].unit == "moment" and self.moment_scale != 1 else ""
+            return f"{_AXIS_WORDS[axis]} {fmt(value, unit)}{scaled}"
+
+        return lambda x, y: f"{one(self.axes[0], x)}, {one(self.axes[1], y)}"
 
     @property
     def is_lateral(self) -> bool:
@@ -354,6 +383,27 @@ class Envelope(_Model):
         """The prepared geometry (built by the aircraft, which knows the MAC)."""
         assert self._shape is not None, "envelope geometry is built by Aircraft validation"
         return self._shape
+
+
+_AXIS_WORDS: dict[str, str] = {
+    "weight": "weight",
+    "arm": "CG",
+    "mac": "CG",
+    "moment": "moment",
+    "lateral_arm": "lateral CG",
+    "lateral_moment": "lateral moment",
+}
+
+
+def _usable_polygon(envelope: Envelope, info: ValidationInfo) -> Envelope:
+    """An envelope of the aircraft whose corners make a usable polygon (:func:`~loadcheck.envelope.polygon_problem`);
+    a problem names the envelope and, where the edges cross, the point near which they do in the aircraft's units."""
+    units = info.data.get("units")
+    describe = envelope.point_words(units) if isinstance(units, Units) else None
+    problem = polygon_problem(envelope.points, describe)
+    if problem:
+        raise ValueError(f"{envelope.subject} is not usable: {problem}")
+    return envelope
 
 
 class HistoryEntry(_Model):
@@ -398,7 +448,7 @@ class Aircraft(_Model):
     station: list[Station] = Field(default_factory=list)
     station_group: list[StationGroup] = Field(default_factory=list)
     tank: list[Tank] = Field(default_factory=list)
-    envelope: list[Envelope] = Field(min_length=1)
+    envelope: list[Annotated[Envelope, AfterValidator(_usable_polygon)]] = Field(min_length=1)
     history: list[HistoryEntry] = Field(default_factory=list)
     equipment: list[EquipmentItem] = Field(default_factory=list, description="installed equipment list")
     rotorcraft: bool = Field(False, description="true for a helicopter or gyroplane (negligible-change rule)")

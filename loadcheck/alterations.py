@@ -14,7 +14,7 @@ maximum allowable CG range (rotorcraft).
 from __future__ import annotations
 
 import datetime as dt
-from dataclasses import dataclass, field
+from dataclasses import dataclass, field, replace
 from typing import Any, Literal
 
 from pydantic import Field, model_validator
@@ -26,6 +26,7 @@ from .filemodel import FileModel
 from .results import Result
 from .units import convert
 from .weighing import EmptyWeightRecord, Refusal, record_checks
+from .words import negligible_cg_words, negligible_text, negligible_weight_words
 
 __all__ = ["Change", "Changes", "ChangeLine", "AlterResult", "alter", "negligible_weight_lb", "Negligible"]
 
@@ -92,6 +93,7 @@ class Negligible(Result):
     cg: bool | None
     weight_threshold: str
     cg_threshold: str
+    text: str = ""  # the verdict as one plain sentence (loadcheck.words.negligible_text)
 
     @property
     def overall(self) -> bool | None:
@@ -139,11 +141,15 @@ def negligible_weight_lb(empty_weight_lb: float) -> float:
 
 
 def _negligible(aircraft: Aircraft, weight_change: float, arm_change: float) -> Negligible:
+    """AC 43.13-1B 10-2 c for a change of the empty weight [mass unit] and of its CG [arm unit]."""
     units = aircraft.units
     empty_lb = convert(aircraft.empty.weight, units.mass, "lb")
+    change_lb = convert(weight_change, units.mass, "lb")
     limit_lb = negligible_weight_lb(empty_lb)
-    weight_ok = abs(convert(weight_change, units.mass, "lb")) <= limit_lb + 1e-12
+    weight_ok = bool(abs(change_lb) <= limit_lb + 1e-12)
     weight_words = f"{limit_lb:g} lb or less (empty weight {empty_lb:,.0f} lb)"
+    weight_clause = negligible_weight_words(weight_change, units.mass, change_lb, limit_lb, empty_lb)
+    cg: bool | None
     if aircraft.rotorcraft:
         arms = [
             a
@@ -152,34 +158,27 @@ def _negligible(aircraft: Aircraft, weight_change: float, arm_change: float) -> 
             for a in e.shape.corners[:, e.axes.index("arm")]
         ]
         if not arms:
-            return Negligible(
-                weight=weight_ok,
-                cg=None,
-                weight_threshold=weight_words,
-                cg_threshold="0.2 % of the CG range: no arm-weight envelope gives the range",
+            cg, cg_words = None, "0.2 % of the CG range: no arm-weight envelope gives the range"
+            cg_clause = negligible_cg_words(
+                arm_change, units.arm, "0.2 % of the CG range", None, "no arm-weight envelope gives the range"
             )
-        cg_range = float(max(arms) - min(arms))
-        threshold = 0.002 * cg_range
-        return Negligible(
-            weight=bool(weight_ok),
-            cg=bool(abs(arm_change) < threshold),
-            weight_threshold=weight_words,
-            cg_threshold=f"less than 0.2 % of the {cg_range:g} {units.arm} CG range ({threshold:.4f} {units.arm})",
-        )
-    if aircraft.mac is None:
-        return Negligible(
-            weight=weight_ok,
-            cg=None,
-            weight_threshold=weight_words,
-            cg_threshold="0.05 % MAC: the aircraft file gives no MAC, so this cannot be judged",
-        )
-    threshold = 0.0005 * aircraft.mac.length
-    return Negligible(
-        weight=bool(weight_ok),
-        cg=bool(abs(arm_change) < threshold),
-        weight_threshold=weight_words,
-        cg_threshold=f"less than 0.05 % MAC ({threshold:.4f} {units.arm})",
-    )
+        else:
+            cg_range = float(max(arms) - min(arms))
+            threshold = 0.002 * cg_range
+            rule = f"0.2 % of the {cg_range:g} {units.arm} CG range"
+            cg = bool(abs(arm_change) < threshold)
+            cg_words = f"less than {rule} ({threshold:.4f} {units.arm})"
+            cg_clause = negligible_cg_words(arm_change, units.arm, rule, threshold)
+    elif aircraft.mac is None:
+        cg, cg_words = None, "0.05 % MAC: the aircraft file gives no MAC, so this cannot be judged"
+        cg_clause = negligible_cg_words(arm_change, units.arm, "0.05 % MAC", None, "the aircraft file gives no MAC")
+    else:
+        threshold = 0.0005 * aircraft.mac.length
+        cg = bool(abs(arm_change) < threshold)
+        cg_words = f"less than 0.05 % MAC ({threshold:.4f} {units.arm})"
+        cg_clause = negligible_cg_words(arm_change, units.arm, "0.05 % MAC", threshold)
+    result = Negligible(weight=weight_ok, cg=cg, weight_threshold=weight_words, cg_threshold=cg_words)
+    return replace(result, text=negligible_text(result.overall, weight_clause, cg_clause))
 
 
 def alter(aircraft: Aircraft, changes: Changes) -> AlterResult:

@@ -74,9 +74,18 @@ def unit_label(unit: str) -> str:
 
 
 def fmt(
-    value: float, unit: str, direction: Direction = "nearest", *, with_unit: bool = True, places: int | None = None
+    value: float,
+    unit: str,
+    direction: Direction = "nearest",
+    *,
+    with_unit: bool = True,
+    places: int | None = None,
+    signed: bool = False,
 ) -> str:
     """Format a value for display with its unit's precision (or ``places``) and thousands separators.
+
+    ``signed`` writes a change: ``+`` before a figure above zero as shown, ``-`` below (a figure
+    that shows as zero has no sign: nothing changed at that precision).
 
     Examples
     --------
@@ -86,9 +95,13 @@ def fmt(
     '0.33 in'
     >>> fmt(104337.0, "lb*in")
     '104,337 lb·in'
+    >>> fmt(4.2, "lb", signed=True), fmt(-18.0, "lb", signed=True), fmt(0.04, "lb", signed=True)
+    ('+4.2 lb', '-18.0 lb', '0.0 lb')
     """
     places = decimals(unit) if places is None else places
     text = f"{round_safe(value, places, direction):,.{places}f}"
     if text.startswith("-") and float(text.replace(",", "")) == 0.0:
         text = text[1:]
+    if signed and not text.startswith("-") and float(text.replace(",", "")) != 0.0:
+        text = "+" + text
     return f"{text} {unit_label(unit)}" if with_unit else text

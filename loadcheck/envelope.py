@@ -37,6 +37,7 @@ piece at its middle: an exact test of the curve, not sampling.
 from __future__ import annotations
 
 import itertools
+import re
 from collections.abc import Callable, Sequence
 from dataclasses import dataclass
 from typing import TYPE_CHECKING, Literal
@@ -116,11 +117,23 @@ AXES: dict[str, AxisSpec] = {
 """Every envelope axis: its numerator in W, M and L, its denominator, its name (FAA-H-8083-1B chapter 2)."""
 
 
-def polygon_problem(points: Sequence[Sequence[float]]) -> str | None:
+_GEOS_REASON = re.compile(r"^(?P<what>.*?)\s*\[(?P<x>\S+) (?P<y>\S+)\]$")
+
+
+def polygon_problem(
+    points: Sequence[Sequence[float]], describe: Callable[[float, float], str] | None = None
+) -> str | None:
     """Why a list of corners is not a usable envelope polygon, or None when it is.
 
-    The ring is closed automatically (repeating the first corner is allowed). The reason
-    for an invalid shape is the one shapely/GEOS gives (``is_valid_reason``).
+    The ring is closed automatically (repeating the first corner is allowed). An invalid shape
+    is found by shapely/GEOS (``is_valid``) and said in words: edges that cross or touch are
+    said so, near the point GEOS gives, which ``describe`` words in the axes' units
+    (default: the two numbers, x then y).
+
+    Examples
+    --------
+    >>> polygon_problem([[0, 0], [1, 1], [1, 0], [0, 1]]).split(":")[0]  # a bow tie
+    'its edges cross each other near (0.5, 0.5)'
     """
     corners = [tuple(map(float, p)) for p in points]
     if len(corners) > 1 and corners[0] == corners[-1]:
@@ -129,7 +142,23 @@ def polygon_problem(points: Sequence[Sequence[float]]) -> str | None:
         return "it needs at least three distinct corners"
     polygon = shapely.Polygon(corners)
     if not polygon.is_valid:
-        return str(shapely.is_valid_reason(polygon))
+        reason = str(shapely.is_valid_reason(polygon))
+        match = _GEOS_REASON.match(reason)
+        if match is None:
+            return f"its corners do not make a simple polygon ({reason})"
+        try:
+            x, y = float(match["x"]), float(match["y"])
+        except ValueError:
+            return f"its corners do not make a simple polygon ({reason})"
+        near = describe(x, y) if describe is not None else f"({x:g}, {y:g})"
+        what = match["what"].lower()
+        if "self-intersection" in what:
+            how = "touch each other at" if what.startswith("ring") else "cross each other near"
+            return (
+                f"its edges {how} {near}: list the corners in order around the envelope, "
+                "so that each edge meets only the next"
+            )
+        return f"its corners do not make a simple polygon ({match['what'].lower()} near {near})"
     if polygon.area <= 0:
         return "its corners enclose no area"
     return None

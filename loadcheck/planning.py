@@ -31,9 +31,9 @@ CG change / distance moved.
 
 from __future__ import annotations
 
-from collections.abc import Callable, Sequence
+from collections.abc import Callable, Iterable, Sequence
 from dataclasses import dataclass, field, replace
-from typing import Literal
+from typing import Literal, TypeVar
 
 import numpy as np
 
@@ -61,6 +61,8 @@ __all__ = [
     "fuel_payload_table",
     "MASS_TOLERANCE",
     "feasible_intervals",
+    "binding_limits",
+    "limit_amount_words",
     "limit_words",
     "safe_value",
 ]
@@ -182,10 +184,11 @@ def _with_fuel(loading: ResolvedLoading, fuel: dict[str, float]) -> ResolvedLoad
     return replace(loading, fuel=fuel, plan=BurnPlan(fuel, loading.plan.order))
 
 
-def _station(aircraft: Aircraft, station: str) -> int:
+def _station(aircraft: Aircraft, station: str, field: str = "station") -> int:
+    """The index of a station; an unknown one is refused, the problem named by the job's parameter ``field``."""
     ids = [s.id for s in aircraft.station]
     if station not in ids:
-        raise UnknownNameError(unknown_station("station", station, aircraft))
+        raise UnknownNameError(unknown_station(field, station, aircraft))
     return ids.index(station)
 
 
@@ -202,9 +205,40 @@ def limit_words(finding: Finding) -> str:
     return LIMIT_NAMES.get(finding.code, finding.code)
 
 
-def _first_limit(check: CheckResult) -> tuple[str | None, str | None]:
-    finding = next((f for f in check.findings if f.severity == "limit"), None)
-    return (limit_words(finding), finding.code) if finding else (None, None)
+_UPPER_SIDES = ("aft", "above", "right")  # limits a value must stay below
+
+
+def limit_amount_words(finding: Finding) -> str:
+    """The limit a finding is about with its amount ("maximum takeoff weight 2,450.0 lb").
+
+    The amount is rounded to the safe side (docs/computation.md, "Rounding"): an upper limit
+    (aft, above, right) down, a lower one up, so that it never shows more room than there is.
+    """
+    words = limit_words(finding)
+    if finding.limit is None or finding.unit is None:
+        return words
+    direction: Literal["up", "down"] = "down" if finding.side in _UPPER_SIDES else "up"
+    return f"{words} {fmt(finding.limit, finding.unit, direction)}"
+
+
+F = TypeVar("F", bound=Finding)
+
+
+def binding_limits(findings: Iterable[F], describe: Callable[[F], str] = limit_amount_words) -> str:
+    """The limits a check's findings exceed, each once, in the check's order (its findings'),
+    as ``describe`` words them (default: the limit and its amount), joined by "; "."""
+    return "; ".join(dict.fromkeys(describe(f) for f in findings if f.severity == "limit"))
+
+
+def _limits_past(check: CheckResult) -> tuple[str | None, str | None]:
+    """What the check just past an answer exceeds: the limits with their amounts, and the first's code."""
+    first = next((f for f in check.findings if f.severity == "limit"), None)
+    return (binding_limits(check.findings), first.code) if first else (None, None)
+
+
+def _exceeded(check: CheckResult) -> str:
+    """The sentences of every limit a check finds exceeded (with the amounts), in the check's order."""
+    return binding_limits(check.findings, lambda f: f.message)
 
 
 _LOAD_CODES = ("station_max", "station_min", "group_max", "group_min")
@@ -228,8 +262,7 @@ def _why_not(aircraft: Aircraft, loading: ResolvedLoading, varies: str | None = 
     ]
     if fixed:
         return "; ".join(f.message for f in fixed)
-    words = sorted({limit_words(f) for f in check.findings if f.severity == "limit"})
-    return "with this load and trip: " + ("; ".join(words) if words else "no amount is within limits")
+    return "with this load and trip: " + (_exceeded(check) or "no amount is within limits")
 
 
 def _why_not_fuel(aircraft: Aircraft, loading: ResolvedLoading, within: bool) -> str:
@@ -358,7 +391,6 @@ def _answer(
     shown, text = safe_value(low, high, unit, direction)
     check = check_loading(aircraft, at(shown))
     if not check.ok:  # never bless a loading the check rejects
-        words = sorted({limit_words(f) for f in check.limits_exceeded})
         return PlanResult(
             question=question,
             variable=variable,
@@ -367,7 +399,7 @@ def _answer(
             intervals=_intervals(pairs),
             answer=None,
             answer_display="no amount is within limits",
-            governing="; ".join(words),
+            governing=_exceeded(check),
             check=check,
         )
     limit, code = governing(high if direction == "down" else low, check)
@@ -396,7 +428,7 @@ def _beyond(
         if past is None:
             return None, None
         try:
-            return _first_limit(check_loading(aircraft, past(best)))
+            return _limits_past(check_loading(aircraft, past(best)))
         except LoadcheckError:
             return None, None
 
@@ -522,7 +554,7 @@ def longest_trip(
         variable="trip fuel",
         direction="down",
         why_not=lambda: (
-            f"the fuel on board less taxi fuel does not cover the reserve of {reserve:g} {unit}"
+            f"the fuel on board less taxi fuel does not cover the reserve of {fmt(reserve, unit)}"
             if top < 0
             else _why_not(aircraft, fuelled)
         ),
@@ -628,12 +660,12 @@ def fuel_to_leave(
             f"with that payload no ramp fuel that covers taxi and trip ({fmt(loading.taxi + loading.trip, unit)}) "
             f"is within limits: {fuel.governing}"
             if not fuel.intervals
-            else f"the fuel taken would have to be more than the {now:,.1f} {unit} in the loading: "
+            else f"the fuel taken would have to be more than the {fmt(now, unit)} in the loading: "
             "with that payload the ramp fuel within limits is "
             + ", ".join(stretch_text(i.low, i.high, unit) for i in fuel.intervals)
         ),
     )
-    extra = {"ramp fuel in the loading": f"{now:,.1f} {unit}"}
+    extra = {"ramp fuel in the loading": fmt(now, unit)}
     if result.feasible and result.check is not None:
         taken = result.check.condition("ramp").fuel
         extra["fuel taken"] = fmt(taken, unit)
@@ -670,7 +702,7 @@ def least_ballast(aircraft: Aircraft, loading: ResolvedLoading, station: str | N
         aircraft.units.mass,
         lambda v: loading.but(stations={**loading.stations, station: already + v}),
         f"least ballast at {aircraft.station[index].name}",
-        f"ballast at {station}",
+        "ballast" if station == "ballast" else f"ballast at {station}",  # never "ballast at ballast"
         "up",
         lambda: reason,
     )
@@ -699,12 +731,14 @@ def weight_shift(
     condition, the burn path). Without it: the least weight to move that brings every
     condition within limits.
     """
-    i, j = _station(aircraft, source), _station(aircraft, target_station)
+    i, j = _station(aircraft, source, "source"), _station(aircraft, target_station, "target_station")
     units = aircraft.units
     available = loading.stations.get(source, 0.0)
     distance = aircraft.station[j].arm - aircraft.station[i].arm
     if distance == 0:
-        raise InputError(Problem("to", "the two stations have the same arm: moving weight does not move the CG"))
+        raise InputError(
+            Problem("target_station", "the two stations have the same arm: moving weight does not move the CG")
+        )
 
     def at(value: float) -> ResolvedLoading:
         stations = {
@@ -740,11 +774,9 @@ def weight_shift(
             return refuse(f"it needs {fmt(moved, units.mass, 'up')} but {source} holds {fmt(available, units.mass)}")
         check = check_loading(aircraft, at(max(0.0, min(moved, available))))
         if not check.ok:
-            reasons = [f.message for f in check.limits_exceeded if f.code in _LOAD_CODES]
-            reasons = reasons or sorted({limit_words(f) for f in check.limits_exceeded})
             return refuse(
                 f"moving {fmt(moved, units.mass)} puts the CG at the target, but the loading is then not "
-                "within limits: " + "; ".join(reasons),
+                "within limits: " + _exceeded(check),
                 check,
             )
         return PlanResult(
@@ -769,7 +801,12 @@ def weight_shift(
     pairs = feasible_intervals(
         lambda x: _ok(evaluate_arrays(aircraft, base, stations=rows(x))), 0.0, available, _GRID_STEP
     )
-    reason = f"moving up to all {fmt(available, units.mass)} from {source} is not enough"
+    empty = available <= 0.0
+    reason = (
+        f"{source} is empty: it holds no weight to move"
+        if empty
+        else f"moving up to all {fmt(available, units.mass)} from {source} is not enough"
+    )
     answer = _answer(
         aircraft,
         pairs,
@@ -780,8 +817,8 @@ def weight_shift(
         "up",
         lambda: reason,
     )
-    if not answer.feasible:
-        return replace(answer, answer_display=f"no amount can: {reason}")
+    if not answer.feasible:  # the reason said once; "limited by" is what is still exceeded with all of it moved
+        return replace(answer, answer_display=f"no amount can: {reason}", governing=_why_not(aircraft, at(available)))
     return answer
 
 

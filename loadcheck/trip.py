@@ -42,8 +42,9 @@ from .planning import (
     _fill_order,
     _fuel_capacity,
     _mean_density,
+    binding_limits,
     feasible_intervals,
-    limit_words,
+    limit_amount_words,
     safe_value,
 )
 from .results import TripFinding, TripLeg, TripResult
@@ -192,11 +193,14 @@ class TripPlan(PlanResult):
     least_trip: TripResult | None = None
 
 
-def _first_limit(result: TripResult) -> str | None:
-    finding = next((f for f in result.findings if f.severity == "limit"), None)
-    if finding is None:
-        return None
-    return f"{leg_name(finding.leg, finding.label)}: " + limit_words(finding)
+def _limits_past(result: TripResult) -> str | None:
+    """What the trip's check just past an answer exceeds: each leg's limits with their amounts."""
+    return binding_limits(result.findings, lambda f: f"{leg_name(f.leg, f.label)}: {limit_amount_words(f)}") or None
+
+
+def _exceeded(result: TripResult) -> str | None:
+    """The sentences of every limit the trip's check finds exceeded, leg by leg, in its order."""
+    return binding_limits(result.findings, lambda f: f.message) or None
 
 
 def _plan(
@@ -235,21 +239,21 @@ def _plan(
             intervals=intervals,
             answer=None,
             answer_display="no amount keeps every leg within limits",
-            governing=_first_limit(check),
+            governing=_exceeded(check),
             trip=check,
         )
     if high >= ceiling - 1e-9 * max(1.0, ceiling):
         governing: str | None = "the tanks' usable capacity"
     else:
         try:
-            governing = _first_limit(check_trip(aircraft, at(min(ceiling, high + 2 * step)), samples=False))
+            governing = _limits_past(check_trip(aircraft, at(min(ceiling, high + 2 * step)), samples=False))
         except LoadcheckError:
             governing = None
     extra = {}
     least, least_text = safe_value(pairs[0][0], pairs[0][1], unit, "up")
     least_trip = check_trip(aircraft, at(least), samples=False)
     if not least_trip.ok:  # never offer a figure the check rejects
-        extra["least"] = "none the check finds within limits: " + (_first_limit(least_trip) or "")
+        extra["least"] = "none the check finds within limits: " + (_exceeded(least_trip) or "")
     elif pairs[0][0] > 0:
         extra["least"] = least_text
     return TripPlan(
@@ -274,7 +278,7 @@ def _why_not(aircraft: Aircraft, trip: ResolvedTrip) -> str:
     except LoadcheckError as error:
         return "; ".join(p.describe() for p in error.problems)
     reserves = [f.message for f in found.findings if f.code == "reserve"]
-    reason = _first_limit(found) or (
+    reason = _exceeded(found) or (
         "no fuel within limits lands every leg with its reserve (" + "; ".join(reserves) + ")"
         if reserves
         else "no amount is within limits"

@@ -22,9 +22,11 @@ from pydantic import Field, model_validator
 
 from .aircraft import Aircraft, Arm, Mass, Volume
 from .caution import MECHANIC_CAUTION
+from .display import fmt
 from .errors import InputError, Problem, UnknownNameError
 from .filemodel import FileModel
 from .results import Result
+from .words import beyond
 
 __all__ = [
     "Readings",
@@ -238,9 +240,12 @@ def _outside_cg_range(aircraft: Aircraft, arm: float, what: str) -> str | None:
     if cg_range is None or cg_range[0] <= arm <= cg_range[1]:
         return None
     unit = aircraft.units.arm
+    aft = arm > cg_range[1]
+    shown, bound, excess = beyond(arm, cg_range[1] if aft else cg_range[0], unit)  # the excess never hidden
+    low, high = (fmt(cg_range[0], unit), bound) if aft else (bound, fmt(cg_range[1], unit))
     return (
-        f"{what} {arm:.2f} {unit} is outside the empty-weight CG range {cg_range[0]:g} to {cg_range[1]:g} {unit}: "
-        "check the inputs and the arms"
+        f"{what} {shown} is outside the empty-weight CG range {low} to {high} ({'aft' if aft else 'forward'} "
+        f"of it by {excess}): check the inputs and the arms"
     )
 
 
@@ -278,8 +283,8 @@ def record_checks(aircraft: Aircraft, new: EmptyWeightRecord) -> tuple[list[str]
                 code="no_useful_load",
                 overridable=False,
                 message=(
-                    f"the new empty weight {new.weight:,.1f} {units.mass} reaches the maximum takeoff weight "
-                    f"{limit:,.1f} {units.mass} (useful load {limit - new.weight:,.1f} {units.mass}): "
+                    f"the new empty weight {fmt(new.weight, units.mass)} reaches the maximum takeoff weight "
+                    f"{fmt(limit, units.mass)} (useful load {fmt(limit - new.weight, units.mass, 'down')}): "
                     "a misread scale or a wrong unit? Such a record is never written"
                 ),
             )
@@ -291,8 +296,8 @@ def record_checks(aircraft: Aircraft, new: EmptyWeightRecord) -> tuple[list[str]
                 code="cg_outside_envelopes",
                 overridable=True,
                 message=(
-                    f"the new empty-weight CG {new.arm:.2f} {units.arm} lies outside every envelope's arm span "
-                    f"({span[0]:g} to {span[1]:g} {units.arm}): check the readings and the arms"
+                    f"the new empty-weight CG {fmt(new.arm, units.arm)} lies outside every envelope's arm span "
+                    f"({fmt(span[0], units.arm)} to {fmt(span[1], units.arm)}): check the readings and the arms"
                 ),
             )
         )
@@ -303,8 +308,8 @@ def record_checks(aircraft: Aircraft, new: EmptyWeightRecord) -> tuple[list[str]
                 code="implausible_change",
                 overridable=True,
                 message=(
-                    f"the new empty weight {new.weight:,.1f} {units.mass} differs from the current record "
-                    f"{current:,.1f} {units.mass} by more than {PLAUSIBLE_CHANGE:.0%}: check the inputs"
+                    f"the new empty weight {fmt(new.weight, units.mass)} differs from the current record "
+                    f"{fmt(current, units.mass)} by more than {PLAUSIBLE_CHANGE:.0%}: check the inputs"
                 ),
             )
         )
@@ -354,7 +359,7 @@ def weigh(aircraft: Aircraft, readings: Readings) -> WeighResult:
     empty = aircraft.empty
     notes: list[str] = []
     if not lateral and aircraft.has_lateral and not readings.keep_lateral_arm:
-        kept = "none" if empty.lateral_arm is None else f"{empty.lateral_arm:g} {aircraft.units.arm}"
+        kept = "none" if empty.lateral_arm is None else fmt(empty.lateral_arm, aircraft.units.arm)
         raise InputError(
             Problem(
                 "point",
@@ -369,7 +374,7 @@ def weigh(aircraft: Aircraft, readings: Readings) -> WeighResult:
             else "the readings give no lateral arms"
         )
         notes.append(
-            f"the lateral CG was not measured: the current record's {empty.lateral_arm:g} {aircraft.units.arm} "
+            f"the lateral CG was not measured: the current record's {fmt(empty.lateral_arm, aircraft.units.arm)} "
             f"is kept ({why})"
         )
     points = []

@@ -16,6 +16,9 @@ from .display import Direction, decimals, fmt, round_safe
 from .results import CheckResult
 
 __all__ = [
+    "negligible_cg_words",
+    "negligible_text",
+    "negligible_weight_words",
     "sheet_verdict",
     "trip_leg_verdict",
     "CONDITION_WORDS",
@@ -355,3 +358,58 @@ def burn_path_summary(result: CheckResult) -> str:
         f"({fmt(leave.fuel_remaining_volume, units.fuel_volume)} remaining; "
         f"{fmt(leave.weight, units.mass)} at CG {fmt(leave.arm, units.arm)})."
     )
+
+
+def negligible_weight_words(change: float, unit: str, change_lb: float, limit_lb: float, empty_lb: float) -> str:
+    """The weight half of the negligible-change rule (AC 43.13-1B 10-2 c) as a plain clause:
+    the change [``unit``, and lb where the aircraft is in another unit] against the negligible
+    change for the empty weight [lb].
+
+    Examples
+    --------
+    >>> negligible_weight_words(-13.8, "lb", -13.8, 1.0, 1718.0)
+    'the weight changes by -13.8 lb, more than the 1 lb that is negligible at an empty weight of 1,718 lb'
+    >>> negligible_weight_words(0.3, "kg", 0.661, 1.0, 1300.0)
+    'the weight changes by +0.3 kg (+0.66 lb), no more than the 1 lb that is negligible at an empty weight of 1,300 lb'
+    """
+    within = abs(change_lb) <= limit_lb + 1e-12
+    near = abs(abs(change_lb) - limit_lb) < 0.1  # two decimals, so that the figure shows which side it is on
+    shown = fmt(change, unit, places=2 if near and unit == "lb" else None, signed=True)
+    if unit != "lb":
+        shown += f" ({fmt(change_lb, 'lb', places=2, signed=True)})"
+    how = "no more than" if within else "more than"
+    return (
+        f"the weight changes by {shown}, {how} the {limit_lb:g} lb that is negligible "
+        f"at an empty weight of {empty_lb:,.0f} lb"
+    )
+
+
+def negligible_cg_words(change: float, unit: str, rule: str, threshold: float | None, why_not: str = "") -> str:
+    """The CG half of the negligible-change rule (AC 43.13-1B 10-2 c) as a plain clause: the CG
+    change [arm unit] against ``rule`` ("0.05 % MAC") whose value is ``threshold`` [arm unit]; with
+    no threshold, why the rule cannot be applied.
+
+    Examples
+    --------
+    >>> negligible_cg_words(-0.2, "in", "0.05 % MAC", 0.03025)
+    'the CG moves -0.20 in, not less than 0.05 % MAC (0.0302 in)'
+    """
+    if threshold is None:
+        return f"the CG rule ({rule}) cannot be applied: {why_not}"
+    how = "less than" if abs(change) < threshold else "not less than"
+    moved = fmt(
+        change, unit, places=max(decimals(unit), 4) if abs(change) < 10.0 ** -decimals(unit) else None, signed=True
+    )
+    return f"the CG moves {moved}, {how} {rule} ({fmt(threshold, unit, 'down', places=4)})"
+
+
+def negligible_text(overall: bool | None, weight: str, cg: str) -> str:
+    """The negligible-change verdict (AC 43.13-1B 10-2 c) as one plain sentence.
+
+    Examples
+    --------
+    >>> negligible_text(False, "the weight changes by -13.8 lb", "the CG moves -0.20 in")
+    'AC 43.13-1B 10-2 c: the change is not negligible: the weight changes by -13.8 lb, and the CG moves -0.20 in.'
+    """
+    verdict = {True: "negligible", False: "not negligible", None: "cannot be judged"}[overall]
+    return f"AC 43.13-1B 10-2 c: the change is {verdict}: {weight}, and {cg}."

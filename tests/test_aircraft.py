@@ -203,3 +203,33 @@ def test_every_category_must_limit_the_fore_and_aft_cg():
     both = {**lateral, "axes": ["lateral_arm", "arm"], "points": [[-2, 35], [-2, 48], [2, 48], [2, 35]]}
     aircraft = simple_aircraft(empty={"weight": 1000.0, "arm": 40.0, "lateral_arm": 0.0}, envelope=[box, both])
     assert aircraft.categories == ["normal", "utility"]  # a lateral_arm-arm envelope limits both
+
+
+def test_regression_self_crossing_envelope_is_said_in_words_in_the_aircrafts_units():
+    """validate showed shapely's raw text ("Self-intersection[42.75 2222.09]"); it now says which envelope,
+    that its edges cross, and near which point, in the aircraft's units."""
+    data = sample_data("tandem2/aircraft.toml")  # kg and mm
+    data["envelope"][1]["label"] = "flaps down"
+    # a bow tie: the edges (300, 400)-(500, 700) and (500, 400)-(300, 700) cross at their midpoint (400, 550)
+    data["envelope"][1]["points"] = [[300.0, 400.0], [500.0, 700.0], [500.0, 400.0], [300.0, 700.0]]
+    with pytest.raises(InputError) as caught:
+        parse_aircraft(data)
+    (problem,) = caught.value.problems
+    assert problem.field == "envelope[1]"
+    assert problem.message.startswith(
+        "the flaps down envelope is not usable: its edges cross each other near CG 400 mm, weight 550.0 kg"
+    )
+    assert "Self-intersection" not in problem.message
+
+
+def test_regression_an_arm_beyond_any_aircraft_is_refused_not_overflowed():
+    """tests/test_fuzz.py found a station arm of 1.5e306 in accepted and extremes ending in an internal
+    error (the moments overflow to infinity); such a figure is refused at the boundary, naming the field."""
+    data = sample_data("trainer4/aircraft.toml")
+    data["station"][2]["arm"] = 1.4980776123852632e306
+    with pytest.raises(InputError) as caught:
+        parse_aircraft(data)
+    (problem,) = caught.value.problems
+    assert problem.field == "station[2].arm" and "beyond any aircraft" in problem.message
+    data["station"][2]["arm"] = 9_999_999.0  # large, but within the bound: used as given
+    assert parse_aircraft(data).station[2].arm == 9_999_999.0

@@ -35,7 +35,7 @@ def test_alter_warns_when_the_new_cg_leaves_the_empty_weight_cg_range(runner, tm
     path = _trainer_with_range(tmp_path, "[37.1, 38.0]")
     result = alter(load_aircraft(path), Changes.model_validate(sample_data("trainer4/changes.toml")))
     assert result.new.arm < 37.1
-    assert any("outside the empty-weight CG range 37.1 to 38" in w for w in result.warnings)
+    assert any("outside the empty-weight CG range 37.10 in to 38.00 in (forward of it by" in w for w in result.warnings)
     shown = runner.invoke(
         app, ["alter", str(path), str(tmp_path / "changes.toml"), "--sheet", str(tmp_path / "r.html")]
     )
@@ -135,3 +135,32 @@ def test_alteration_arithmetic_and_negligible():
     assert tiny.negligible.weight and tiny.negligible.cg and tiny.negligible.overall
     with pytest.raises(UnknownNameError, match="unknown item 'ghost'"):
         alter(aircraft, Changes.model_validate({"change": [{"action": "remove", "item": "ghost"}]}))
+
+
+def test_regression_negligible_verdict_reads_as_a_plain_sentence(runner):
+    """The 10-2 c line read "weight: no, 1 lb or less (empty weight 1,718 lb)"; it is now one sentence
+    giving each change against its threshold. AC 43.13-1B 10-2 c: 1 lb or less at an empty weight
+    under 5,000 lb, a CG change of less than 0.05 % MAC (trainer4's MAC is 55.0 in: 0.0275 in)."""
+    result = runner.invoke(app, ["alter", str(sample("trainer4/aircraft.toml")), str(sample("trainer4/changes.toml"))])
+    text = " ".join(result.output.split())
+    # changes.toml: +4.2 lb (installed) - 18.0 lb (fairings, from the equipment list) = -13.8 lb
+    assert (
+        "AC 43.13-1B 10-2 c: the change is not negligible: the weight changes by -13.8 lb, more than the 1 lb "
+        "that is negligible at an empty weight of 1,718 lb, and the CG moves -0.20 in, not less than 0.05 % MAC "
+        "(0.0275 in)." in text
+    )
+    assert "weight: no" not in text
+
+
+def test_regression_every_change_of_an_alteration_carries_its_sign(runner):
+    """weigh and alter printed a gain without a + sign. Moments by FAA-H-8083-1B chapter 2 (weight x arm):
+    the radio +4.2 lb x 14.8 in = +62 lb-in, the fairings -18.0 lb x 48.0 in = -864 lb-in, the ELT
+    2.4 lb x (118.0 - 140.0) in = -53 lb-in (its weight unchanged: 0.0, no sign)."""
+    result = runner.invoke(app, ["alter", str(sample("trainer4/aircraft.toml")), str(sample("trainer4/changes.toml"))])
+    rows = {line.split("│")[1].strip(): line for line in result.output.splitlines() if line.count("│") > 5}
+    assert "+4.2" in rows["install"] and "+62" in rows["install"]
+    assert "-18.0" in rows["remove"] and "-864" in rows["remove"]
+    assert "-53" in rows["relocate"] and "+0.0" not in rows["relocate"]
+    text = " ".join(result.output.split())
+    # the useful load grows by what the empty weight loses
+    assert "Change from the current record: weight -13.8 lb, CG -0.20 in; useful load 745.8 lb (+13.8 lb)" in text

@@ -15,7 +15,7 @@ from loadcheck import load_aircraft
 from loadcheck.caution import MECHANIC_CAUTION
 from loadcheck.cli import app
 
-from .helpers import sample
+from .helpers import assert_input_error, invoke, sample
 from .test_empty_record import _trainer, _weigh
 
 # -- weigh, alter, history -----------------------------------------------------------------------
@@ -145,3 +145,47 @@ def test_schedule_command_verdict_json_and_caution(runner):
     text = runner.invoke(app, ["schedule", str(sample("twin6/aircraft.toml"))])
     assert "With full fuel" in text.output and "fuel states checked" in text.output
     assert text.exit_code == out.exit_code
+
+
+# DESIGN.md, "Fail closed": a refused option is named as the user typed it, with its value.
+@pytest.mark.parametrize("command", ["schedule", "extremes"])
+def test_regression_schedule_and_extremes_name_the_category_as_typed(command):
+    result = invoke(command, str(sample("trainer4/aircraft.toml")), "--category", "aerobatic")
+    assert_input_error(result, "--category aerobatic: unknown category 'aerobatic'")
+    assert "error: category:" not in result.output
+
+
+def test_regression_extremes_names_the_occupant_as_typed():
+    result = invoke("extremes", str(sample("trainer4/aircraft.toml")), "--occupant", "0")
+    assert_input_error(result, "--occupant 0: must be a weight above zero")
+
+
+def test_regression_write_without_a_terminal_says_what_to_do_naming_what_was_typed(runner, tmp_path, monkeypatch):
+    """alter --write </dev/null named --yes (which was not typed) as the field; it now names --write
+    and says plainly what to do (DESIGN.md, "Fail closed": name the option as typed)."""
+    path = _trainer(tmp_path)
+    before = path.read_bytes()
+    monkeypatch.setattr(mechanic_cli, "_interactive", lambda: False)
+    result = runner.invoke(app, ["alter", str(path), str(tmp_path / "changes.toml"), "--write"])
+    assert_input_error(result, "error: --write: nothing was written", "run the command in a terminal", "add --yes")
+    assert "error: --yes" not in result.output
+    assert path.read_bytes() == before
+
+
+def test_regression_sheet_says_a_sheet_was_written_not_the_record(runner, tmp_path):
+    path = _trainer(tmp_path)
+    before = path.read_bytes()
+    sheet = tmp_path / "record.html"
+    result = runner.invoke(app, ["alter", str(path), str(tmp_path / "changes.toml"), "--sheet", str(sheet)])
+    assert result.exit_code == 0, result.output
+    assert f"record sheet written (to print and sign): {sheet}\n" in result.stderr  # one line, the path whole
+    assert "record written" not in result.stderr
+    assert sheet.exists() and path.read_bytes() == before
+
+
+def test_regression_weigh_shows_the_sign_of_every_change(runner):
+    """trainer4/weighing.toml gives 1,685.8 lb against the current 1,718.0 lb: -32.2 lb, so the useful
+    load grows by +32.2 lb (useful load = maximum takeoff weight - empty weight, FAA-H-8083-1B chapter 1)."""
+    result = runner.invoke(app, ["weigh", str(sample("trainer4/aircraft.toml")), str(sample("trainer4/weighing.toml"))])
+    text = " ".join(result.output.split())
+    assert "Change from the current record: weight -32.2 lb, CG -0.19 in; useful load 764.2 lb (+32.2 lb)" in text

@@ -188,3 +188,48 @@ def test_plan_trip_reserve_default_replaced_the_loading_s_reserve(runner):
     assert asked["answer"] - plain["answer"] == pytest.approx(3.0, abs=0.11)
     words = runner.invoke(app, ["plan", "trip", file, "--rate", "9"]).stdout
     assert "(the loading's reserve)" in words and "at least 0 " not in words
+
+
+# The rule behind these (DESIGN.md, "Fail closed"; RULES.md): a refused value is named by the option as the
+# user typed it, with its value, never by the library job's parameter.
+@pytest.mark.parametrize(
+    ("args", "named"),
+    [
+        (["plan", "payload", WITHIN, "--station", "aft_bag"], "--station aft_bag: unknown station 'aft_bag'"),
+        (["plan", "table", WITHIN, "--station", "aft_bag"], "--station aft_bag: unknown station 'aft_bag'"),
+        (["plan", "leave", WITHIN, "--station", "aft_bag", "--payload", "10"], "--station aft_bag: unknown"),
+        (["plan", "ballast", str(sample("tandem2/aft_heavy.toml")), "--station", "aft_bag"], "--station aft_bag:"),
+        (["plan", "ballast", WITHIN], "--station: this aircraft declares no ballast station"),
+        (
+            ["plan", "shift", str(sample("tandem2/aft_heavy.toml")), "--from", "aft_bag", "--to", "front"],
+            "--from aft_bag:",
+        ),
+        (["plan", "shift", str(sample("tandem2/aft_heavy.toml")), "--from", "baggage", "--to", "fornt"], "--to fornt:"),
+        (["plan", "fuel", WITHIN, "--fill", "aux"], "--fill aux: unknown tank(s) aux"),
+        (["plan", "trip", WITHIN, "--rate", "-3"], "--rate -3: must be above zero"),
+        (["plan", "trip", WITHIN, "--rate", "9", "--reserve", "-1"], "--reserve -1: must not be negative"),
+        (["plan", "stop", str(sample("heli2/trip_drop_off.toml")), "--leg", "7"], "--leg 7: the trip has 2 legs"),
+    ],
+)
+def test_regression_plan_refusals_name_the_option_as_typed(args, named):
+    result = invoke(*args)
+    assert_input_error(result, named)
+    for field in ("error: station:", "error: fill:", "error: rate:", "error: reserve:", "error: leg:", "error: to:"):
+        assert field not in result.output
+
+
+def test_regression_trip_most_fuel_is_limited_by_the_legs_limits_with_amounts():
+    """plan fuel on a trip said "limited by: leg 1: maximum ramp weight" (a name, no amount); with no
+    amount within limits it now quotes the check's finding sentences, each with its leg."""
+    trip = str(sample("heli2/trip_drop_off.toml"))
+    heavy = ["--load", "left=250", "--load", "right=250", "--load", "bag_left=35", "--load", "bag_right=35"]
+    none_fits = invoke("plan", "fuel", trip, *heavy, "--json")
+    assert none_fits.exit_code == 1, none_fits.output
+    governing = json.loads(none_fits.stdout)["governing"]
+    checked = json.loads(invoke("check", trip, *heavy, "--json").stdout)
+    sentences = [f["message"] for f in checked["findings"] if f["severity"] == "limit"]
+    assert governing == "with this load and these legs: " + "; ".join(sentences)
+    stops = invoke("plan", "fuel", trip, "--load", "left=240", "--load", "right=240", "--json")
+    assert stops.exit_code == 0, stops.output
+    # heli2/aircraft.toml: max_takeoff_weight = 1620 (the ramp weight defaults to it)
+    assert json.loads(stops.stdout)["governing"].startswith("leg 1: maximum ramp weight 1,620.0 lb")

@@ -268,7 +268,7 @@ def test_a_lateral_envelope_needs_lateral_readings_or_an_explicit_statement(runn
     assert aircraft.read_bytes() == before
     readings.write_text(readings.read_text().replace("format = 1\n", "format = 1\nkeep_lateral_arm = true\n"))
     kept = runner.invoke(app, ["weigh", str(aircraft), str(readings)])
-    assert kept.exit_code == 0 and "the lateral CG was not measured" in kept.output and "0.4 in is kept" in kept.output
+    assert kept.exit_code == 0 and "the lateral CG was not measured" in kept.output and "0.40 in is kept" in kept.output
 
 
 # -- item 9: comments -------------------------------------------------------------------------------

@@ -45,7 +45,10 @@ def test_sloped_edge_point_inside_despite_rounding():
 
 def test_polygon_problem_reasons():
     assert polygon_problem(SQUARE) is None
-    assert "Self-intersection" in polygon_problem([[0, 0], [1, 1], [1, 0], [0, 1]])
+    # a bow tie: its two crossing edges (0,0)-(1,1) and (1,0)-(0,1) meet at (0.5, 0.5) (plane geometry)
+    assert polygon_problem([[0, 0], [1, 1], [1, 0], [0, 1]]).startswith("its edges cross each other near (0.5, 0.5)")
+    # a ring that touches itself at a corner: (1, 0) lies on the edge (0, 0)-(2, 0)
+    assert polygon_problem([[0, 0], [2, 0], [2, 2], [1, 0], [0, 2]]).startswith("its edges touch each other at (1, 0)")
     assert polygon_problem([[0, 0], [1, 1], [2, 2]]) is not None
     assert "three" in polygon_problem([[0, 0], [1, 1], [0, 0]])
 

@@ -209,7 +209,7 @@ def test_impossible_requests():
             "no solution",
         ),
         (["plan", "fuel", "twin6/two_stretches.toml"], 0, "more than one stretch"),
-        (["plan", "ballast", "tandem2/aft_heavy.toml"], 0, "ballast at ballast"),
+        (["plan", "ballast", "tandem2/aft_heavy.toml"], 0, "Least ballast at Firewall ballast box"),
         (["plan", "payload", "trainer4/within.toml"], 2, "--station"),
     ],
 )
@@ -419,3 +419,49 @@ def test_regression_a_misspelt_planning_station_got_no_spelling_hint():
     (problem,) = error.value.problems
     assert problem.field == "station" and "did you mean 'front'?" in problem.message
     assert problem.expected == "one of front, rear, hold"
+
+
+def test_regression_no_fuel_answer_is_limited_by_the_checks_sentences_in_its_order():
+    """An over-weight loading: "limited by" gave the limits' names sorted, without amounts. It now
+    gives each limit the loading's own check exceeds, as the check words it (with the amounts), in
+    the check's order (RULES.md: one engine, one verdict)."""
+    inputs = load_check_inputs(sample("trainer4/over_weight.toml"), fuel_to_plan=True)
+    answer = P.most_fuel(inputs.aircraft, inputs.loading)
+    assert not answer.feasible
+    exceeded = [f.message for f in check_loading(inputs.aircraft, inputs.loading).findings if f.severity == "limit"]
+    assert len(exceeded) > 1
+    assert answer.governing == "with this load and trip: " + "; ".join(exceeded)
+
+
+def test_regression_most_fuel_is_limited_by_the_limit_with_its_amount():
+    """trainer4/within.toml's most fuel stops at the maximum takeoff weight: "limited by" names it with
+    its amount from the aircraft file, not its name alone."""
+    inputs = load_check_inputs(sample("trainer4/within.toml"), fuel_to_plan=True)
+    answer = P.most_fuel(inputs.aircraft, inputs.loading)
+    assert answer.feasible and answer.governing is not None
+    first = answer.governing.split("; ")[0]
+    assert first == f"maximum takeoff weight {inputs.aircraft.limits.max_takeoff_weight:,.1f} lb"
+
+
+def test_regression_shift_from_an_empty_station_says_so_once():
+    """plan shift from an empty station said "moving up to all 0.0 kg ... is not enough" twice (answer and
+    "limited by"); it now says once that the station is empty, and "limited by" gives what the loading's own
+    check exceeds (tandem2/aft_heavy.toml carries no ballast and is aft of its envelope)."""
+    inputs = load_check_inputs(sample("tandem2/aft_heavy.toml"))
+    assert inputs.loading.stations.get("ballast", 0.0) == 0.0
+    answer = P.weight_shift(inputs.aircraft, inputs.loading, "ballast", "front")
+    assert not answer.feasible
+    assert answer.answer_display == "no amount can: ballast is empty: it holds no weight to move"
+    assert "not enough" not in answer.answer_display and "empty" not in (answer.governing or "")
+    check = check_loading(inputs.aircraft, inputs.loading)
+    assert answer.governing == "with this load and trip: " + "; ".join(f.message for f in check.limits_exceeded)
+
+
+def test_regression_ballast_at_a_station_named_ballast_is_not_said_twice(runner):
+    """tandem2's ballast station has the id "ballast": the answer read "ballast at ballast: 14.5 kg"."""
+    result = runner.invoke(app, ["plan", "ballast", str(sample("tandem2/aft_heavy.toml"))])
+    assert result.exit_code == 0, result.output
+    assert "ballast at ballast" not in result.output
+    assert "\nballast: " in result.output  # the answer's line, "ballast: 14.5 kg"
+    other = runner.invoke(app, ["plan", "ballast", str(sample("tandem2/aft_heavy.toml")), "--station", "front"])
+    assert "ballast at front" in other.output

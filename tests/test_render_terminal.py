@@ -231,3 +231,118 @@ def test_regression_condition_rows_read_within_beside_a_burn_path_limit(runner):
     assert not check.ok and all(condition_verdict(c, check) == ("inside", "ok") for c in check.conditions)
     _, warned = _inputs("tandem2/aft_ballast.toml")  # the zero-fuel CG checked only as a warning
     assert condition_verdict(warned.condition("zero_fuel"), warned) == ("OUTSIDE (warning)", "warning")
+
+
+@pytest.mark.parametrize("name", ["twin6/within.toml", "heli2/dual.toml"])
+def test_regression_item_names_take_the_room_they_need_and_no_number_is_cut(runner, monkeypatch, name):
+    """twin6's and heli2's moment tables wrapped every item name one word per line at 80 columns while the
+    number columns took the room for their headers. Names now get the room first (a header wraps sooner
+    than a name); at 80 and 60 columns every figure of the table is still printed whole."""
+    _, result = _inputs(name)
+    units = result.units
+    for width in ("80", "60"):
+        monkeypatch.setenv("COLUMNS", width)
+        out = runner.invoke(app, ["check", str(sample(name))]).stdout
+        assert all(len(line.rstrip()) <= int(width) for line in out.splitlines())
+        for item in result.items:
+            for value, unit in ((item.weight, units.mass), (item.arm, units.arm), (item.moment, units.moment)):
+                assert re.search(rf"(?<![\d,.]){re.escape(fmt(value, unit, with_unit=False))}(?![\d,])", out), (
+                    width,
+                    item.name,
+                    value,
+                )
+        if width == "80":
+            rows = [line for line in out.splitlines() if line.startswith("│")]
+            for item in result.items:
+                whole = item.name + (f" ({fmt(item.fuel_volume, units.fuel_volume)})" if item.fuel_volume else "")
+                if len(whole) <= 27:  # the room left beside the numbers at 80 columns (the widest sample table)
+                    assert any(f"│ {whole} " in row for row in rows), (item.name, out)
+
+
+def test_regression_a_margin_shown_as_zero_is_on_the_edge_not_beyond_it(runner, monkeypatch):
+    """schedule showed "0.0 (edge)" where docs/cli.md says (edge) marks a margin below zero: twin6's full-fuel
+    case takes off at exactly its maximum takeoff weight (5,500 lb, the aircraft file), so its weight margin is
+    zero to within floating-point noise and the condition is inside (limits are inclusive, DESIGN.md). A
+    margin shown as 0.0 now carries no mark; one shown below zero still does (the test above)."""
+    from loadcheck.files import load_aircraft
+    from loadcheck.render.terminal import weight_margin
+    from loadcheck.schedule import loading_schedule
+
+    aircraft = load_aircraft(sample("twin6/aircraft.toml"))
+    result = loading_schedule(aircraft)
+    takeoffs = [case.check.condition("takeoff") for case in result.cases]
+    at_maximum = [t for t in takeoffs if abs(t.weight - aircraft.limits.max_takeoff_weight) < 1e-6]
+    assert at_maximum and all(t.ok for t in at_maximum)
+    for case in result.cases:
+        shown, marked = weight_margin(case.check.condition("takeoff"), case.check)
+        assert marked == shown.startswith("-")
+    monkeypatch.setenv("COLUMNS", "120")
+    out = runner.invoke(app, ["schedule", str(sample("twin6/aircraft.toml"))]).stdout
+    assert "0.0 (edge)" not in out and "(edge)" not in out
+
+
+def test_regression_show_gives_the_fill_levels_unit(runner, monkeypatch):
+    """show printed "Levels: standard 70" (no unit). trainer4's aircraft file gives mains levels
+    { school = 30 } in its fuel volume unit, US gallons."""
+    monkeypatch.setenv("COLUMNS", "120")
+    out = runner.invoke(app, ["show", str(sample("trainer4/aircraft.toml"))]).stdout
+    assert "Levels (usgal)" in out and "school 30.0" in out
+    monkeypatch.setenv("COLUMNS", "30")  # the tanks' table in blocks: the levels' block keeps its unit
+    narrow = runner.invoke(app, ["show", str(sample("trainer4/aircraft.toml"))]).stdout
+    assert "┃ Levels (usgal) ┃" in narrow and "school 30.0" in narrow
+
+
+def test_regression_the_desk_shows_the_terminals_units_and_condition_states(reading_desk, runner, monkeypatch):
+    """The desk wrote the moment unit as kg*mm (the terminal: kg·mm, SI Brochure 5.4.6) and each condition's
+    state as "within", the loading's verdict word; it now uses the terminal's helpers (unit_label,
+    condition_verdict) and its one rounding rule (fmt): the same figures, units and words."""
+    pytest.importorskip("fastapi")
+    from .web_helpers import _client, _post_check
+
+    values = {"load.front": "58", "load.rear": "110", "load.baggage": "20", "fuel.wing": "30"}
+    values |= {"burn.taxi": "1", "burn.trip": "10"}
+    page = _post_check(_client(reading_desk, "pia"), values, "DEMO-2T").text
+    text = re.sub(r"\s+", " ", re.sub(r"<[^>]+>", " ", page))
+    assert "Moment (kg·mm)" in text and "kg*mm" not in text
+    monkeypatch.setenv("COLUMNS", "200")
+    args = ["check", str(sample("tandem2/aircraft.toml"))]
+    for key, value in values.items():
+        table, name = key.split(".")
+        args += {"load": ["--load"], "fuel": ["--fuel"], "burn": [f"--{name}"]}[table] + (
+            [f"{name}={value}"] if table != "burn" else [value]
+        )
+    out = runner.invoke(app, args)
+    rows = {line.split("│")[1].strip(): line for line in out.stdout.splitlines() if line.startswith("│")}
+    for condition in ("Ramp", "Takeoff", "Landing"):
+        cg, state = [cell.strip() for cell in rows[condition].split("│")][4], "OUTSIDE"
+        assert re.search(rf"{condition.lower()} [\d.,]+ [\d.,]+ {cg} {state} ", text), (condition, cg, text)
+    assert " within " not in text.split("Conditions and margins")[1].split("Margins are")[0]
+
+
+def test_regression_a_recorded_checks_page_gives_each_condition_state_in_the_terminals_words(desk):
+    """The record page said "within" of each condition (the loading's verdict word, DESIGN.md); it now says
+    inside / OUTSIDE as the terminal does, by the same function, from the record's JSON."""
+    pytest.importorskip("fastapi")
+    from .web_helpers import _client, _post_check
+
+    client = _client(desk, "pia")
+    values = {"load.front": "58", "load.rear": "110", "load.baggage": "20", "fuel.wing": "30"}
+    recorded = _post_check(client, {**values, "burn.taxi": "1", "burn.trip": "10"}, "DEMO-2T", route="record")
+    assert recorded.status_code == 303, recorded.text
+    page = client.get(recorded.headers["location"]).text
+    table = page.split("Conditions")[1].split("</table>")[0]
+    cells = re.findall(r"<td>(?:<strong>)?(inside|OUTSIDE|within|outside)[^<]*", table)
+    # tandem2/aft_heavy's figures: ramp, takeoff and landing aft of the envelope, zero fuel a warning
+    assert cells == ["OUTSIDE", "OUTSIDE", "OUTSIDE", "OUTSIDE"], table
+    assert "OUTSIDE (warning)" in table and "within" not in table
+
+
+def test_regression_a_wrapped_note_keeps_its_indent(runner, monkeypatch):
+    """extremes and schedule printed their notes indented by two, but a note wrapped at 60 columns went on
+    at the margin ("limit" alone under "  Left seat: ..."), reading as a heading of its own."""
+    monkeypatch.setenv("COLUMNS", "60")
+    out = runner.invoke(app, ["extremes", str(sample("heli2/aircraft.toml"))]).stdout.splitlines()
+    start = next(i for i, line in enumerate(out) if line.startswith("  Left seat"))
+    end = next(i for i, line in enumerate(out) if line.startswith("  fuel states checked"))
+    assert end > start + 1 and all(line.startswith("  ") for line in out[start:end]), out[start:end]
+    assert any(line.strip() == "limit" for line in out[start:end])  # the wrap this test is about happens

@@ -19,3 +19,17 @@ def test_text_plot_marks_every_condition(runner):
     out = runner.invoke(app, ["check", str(sample("trainer4/within.toml")), "--plot"])
     assert "R ramp" in out.output
     assert out.output.index("R ramp") < out.output.index("CAUTION")  # the caution stays last
+
+
+def test_regression_no_mark_hides_another_unsaid():
+    """heli2's dual loading puts ramp and takeoff in one character: R was hidden under T. Every condition
+    mark is now drawn or listed under the one drawn in its place."""
+    inputs, result = _inputs("heli2/dual.toml")
+    lines = text_plot(inputs.aircraft, result, width=100)
+    said = [line.strip() for line in lines if "under" in line and "(the same character)" in line]
+    assert "R is under T (the same character)" in said
+    grids = [line for line in lines if line.startswith(" " * 11 + "|")]
+    drawn = "".join(grids)
+    under = " ".join(said)
+    for mark in "RTLZ":
+        assert mark in drawn or f"{mark} is under" in under or f"{mark} and" in under, mark

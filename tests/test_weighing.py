@@ -194,3 +194,20 @@ def test_faa_h_8083_1b_empty_weight_cg_formulas(gear, datum, d, other, length, t
     assert abs(result.as_weighed.arm - published) <= 0.1
     assert round(result.as_weighed.arm, 1) == published
     assert result.formula_cg == pytest.approx(result.as_weighed.arm)
+
+
+def test_regression_a_weighings_warnings_round_as_its_tables_do(tmp_path):
+    """The CG-range warning printed "398.84 mm" beside a table showing 399 mm (mm are shown whole,
+    docs/computation.md "Rounding"); every figure of the warnings and refusals now goes through the one
+    display rule, and the excess past the range is said. Invented readings: 200 + 200 kg at the datum and
+    31.9 kg at 5,400 mm give a CG of 31.9 x 5400 / 431.9 = 398.8 mm (FAA-H-8083-1B chapter 3, sum of
+    moments over the sum of weights), aft of tandem2's empty-weight CG range 240 to 380 mm by 18.8 mm."""
+
+    aircraft = load_aircraft(sample("tandem2/aircraft.toml"))
+    points = [{"label": "left", "arm": 0.0, "reading": 200.0}, {"label": "right", "arm": 0.0, "reading": 200.0}]
+    points.append({"label": "tail", "arm": 5400.0, "reading": 31.9})
+    result = weigh(aircraft, Readings.model_validate({"format": 1, "point": points}))
+    assert result.new.arm == pytest.approx(31.9 * 5400 / 431.9)
+    (warning,) = result.warnings
+    assert warning.startswith("the new empty-weight CG 399 mm is outside the empty-weight CG range 240 mm to 380 mm")
+    assert "(aft of it by 19 mm)" in warning and "398.84" not in warning

@@ -9,7 +9,9 @@ from __future__ import annotations
 
 import functools
 import os
-from collections.abc import Callable, Mapping
+import shlex
+from collections.abc import Callable, Iterator, Mapping
+from contextlib import contextmanager
 from pathlib import Path
 from typing import TYPE_CHECKING, Annotated, Any, NoReturn, ParamSpec, TypeVar
 
@@ -44,6 +46,7 @@ __all__ = [
     "TripTimeOpt",
     "app",
     "input_errors",
+    "options_as_typed",
 ]
 
 EXIT_OK, EXIT_LIMIT, EXIT_INPUT = 0, 1, 2
@@ -207,6 +210,28 @@ def input_errors(func: Callable[P, R]) -> Callable[P, R]:
             )
 
     return wrapper  # functools.wraps keeps the signature typer reads
+
+
+@contextmanager
+def options_as_typed(options: Mapping[str, tuple[str, object | None]]) -> Iterator[None]:
+    """Name a library job's parameters in its input errors by the options as the user typed them.
+
+    ``options`` maps each parameter the job names in its problems (``station``, ``fill``,
+    ``rate``, ``leg``, ``category`` ...) to ``(option, value as typed)``; a problem about one is
+    named ``--station aft_bag`` as ``load_check_inputs(command_line=True)`` names the loading's
+    options (loadcheck.files), by the same rule. A parameter the user did not give (value None)
+    is named by its bare option, the option to give.
+    """
+    from ..files import _named_as_typed
+
+    typed = {
+        field: option if value is None else f"{option} {shlex.quote(str(value))}"
+        for field, (option, value) in options.items()
+    }
+    try:
+        yield
+    except LoadcheckError as error:
+        raise _named_as_typed(error, typed) from None
 
 
 def _assignments(values: list[str], option: str) -> dict[str, str]:

@@ -4,15 +4,13 @@ from __future__ import annotations
 
 import json
 import sys
-from collections.abc import Callable, Iterator
-from contextlib import contextmanager
-from dataclasses import replace
+from collections.abc import Callable
 from pathlib import Path
 from typing import Annotated, Any, Literal
 
 import typer
 
-from ..errors import InputError, LoadcheckError, Problem
+from ..errors import InputError, Problem
 from .common import (
     EXIT_LIMIT,
     EXIT_OK,
@@ -22,6 +20,7 @@ from .common import (
     _fail_input,
     app,
     input_errors,
+    options_as_typed,
 )
 
 # -- the mechanic's commands -----------------------------------------------------------------
@@ -83,7 +82,7 @@ def _new_empty_weight(
         written, left_out = write_record_sheet(sheet, proposal)
         if left_out:
             err.print(f"note: the extreme checks were left out of the record: {left_out}", markup=False)
-        err.print(f"record written: {written}", markup=False)
+        err.print(f"record sheet written (to print and sign): {written}", markup=False, soft_wrap=True)
     if json_out:
         typer.echo(json.dumps(proposal.to_dict(), indent=2))
     else:
@@ -95,9 +94,10 @@ def _new_empty_weight(
         if not _interactive():
             raise InputError(
                 Problem(
-                    "--yes",
-                    "standard input is not a terminal, so nobody can confirm the new record: "
-                    "give --yes to write it; nothing was written",
+                    "--write",
+                    "nothing was written: the new record must be confirmed, and standard input is not a "
+                    "terminal, so nobody can answer the question; run the command in a terminal to be asked, "
+                    "or add --yes to confirm it on the command line",
                 )
             )
         from ..render.terminal import render_comparison
@@ -115,18 +115,12 @@ def _new_empty_weight(
             lines.append("give --force with --write to write it anyway (the override is kept in the history)")
         _fail_input(lines)
     where = f" (through the link, to {target})" if target != aircraft else ""
-    err.print(f"new empty-weight record written to {aircraft}{where}; the old one is in its history", markup=False)
+    err.print(
+        f"new empty-weight record written to {aircraft}{where}; the old one is in its history",
+        markup=False,
+        soft_wrap=True,
+    )
     raise typer.Exit(EXIT_OK)
-
-
-@contextmanager
-def _options_named(options: dict[str, str]) -> Iterator[None]:
-    """Name this command's options in the library's input errors (the library names its parameters)."""
-    try:
-        yield
-    except LoadcheckError as error:
-        problems = [replace(p, field=options.get(p.field, p.field)) for p in error.problems]
-        raise type(error)(problems, error.file) from None
 
 
 @app.command(short_help="Empty weight and CG from scale readings.")
@@ -245,7 +239,12 @@ def extremes(
 
     data = load_aircraft(aircraft)
     weight = None if occupant is None else read_amount(occupant, data.units.mass, "--occupant")
-    with _options_named({"occupant_weight": "--occupant", "meto_hp": "--meto"}):
+    named = {
+        "category": ("--category", category),
+        "occupant_weight": ("--occupant", occupant),
+        "meto_hp": ("--meto", meto),
+    }
+    with options_as_typed(named):
         result = compute(data, category=category, occupant_weight=weight, meto_hp=meto)
     if json_out:
         typer.echo(result.to_json())
@@ -282,7 +281,7 @@ def schedule(
 
     data = load_aircraft(aircraft)
     weight = None if occupant is None else read_amount(occupant, data.units.mass, "--occupant")
-    with _options_named({"occupant_weight": "--occupant"}):
+    with options_as_typed({"category": ("--category", category), "occupant_weight": ("--occupant", occupant)}):
         result = loading_schedule(data, category=category, occupant_weight=weight)
     if json_out:
         typer.echo(result.to_json())

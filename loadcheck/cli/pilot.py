@@ -32,6 +32,7 @@ from .common import (
     _need,
     app,
     input_errors,
+    options_as_typed,
 )
 
 if TYPE_CHECKING:
@@ -440,11 +441,15 @@ def plan_fuel(
         legs=_legs(leg_load, leg_fuel, leg_burn),
         allow_trip=True,
     )
-    if inputs.is_trip and inputs.trip is not None:
-        from ..trip import trip_most_fuel
+    from ..trip import trip_most_fuel
 
-        _answer(trip_most_fuel(inputs.aircraft, inputs.trip, fill=_fill(fill)), json_out)
-    _answer(most_fuel(inputs.aircraft, inputs.loading, fill=_fill(fill)), json_out)
+    with options_as_typed({"fill": ("--fill", fill)}):
+        result = (
+            trip_most_fuel(inputs.aircraft, inputs.trip, fill=_fill(fill))
+            if inputs.is_trip and inputs.trip is not None
+            else most_fuel(inputs.aircraft, inputs.loading, fill=_fill(fill))
+        )
+    _answer(result, json_out)
 
 
 @plan_app.command("stop", short_help="Fuel to put in at a stop of a trip.")
@@ -495,7 +500,9 @@ def plan_stop(
     )
     # a loading of one leg (no trip resolved) goes as given: fuel_to_add refuses it, naming its legs
     trip_data = inputs.trip if inputs.trip is not None else _need(inputs.given, "LOADING")
-    _answer(fuel_to_add(inputs.aircraft, trip_data, _need(leg, "--leg"), fill=_fill(fill)), json_out)
+    with options_as_typed({"leg": ("--leg", leg), "fill": ("--fill", fill)}):
+        result = fuel_to_add(inputs.aircraft, trip_data, _need(leg, "--leg"), fill=_fill(fill))
+    _answer(result, json_out)
 
 
 @plan_app.command("trip", short_help="The longest trip at a burn rate.")
@@ -532,13 +539,14 @@ def plan_trip(
 
     inputs = _inputs(aircraft, loading, load, fuel, taxi, None, None, None, order, None, category, fuel_to_plan=True)
     volume = inputs.aircraft.units.fuel_volume
-    result = longest_trip(
-        inputs.aircraft,
-        inputs.loading,
-        rate=read_rate(_need(rate, "--rate"), volume, "--rate"),
-        reserve=None if reserve is None else read_amount(reserve, volume, "--reserve"),
-        fill=_fill(fill),
-    )
+    with options_as_typed({"rate": ("--rate", rate), "reserve": ("--reserve", reserve), "fill": ("--fill", fill)}):
+        result = longest_trip(
+            inputs.aircraft,
+            inputs.loading,
+            rate=read_rate(_need(rate, "--rate"), volume, "--rate"),
+            reserve=None if reserve is None else read_amount(reserve, volume, "--reserve"),
+            fill=_fill(fill),
+        )
     _answer(result, json_out)
 
 
@@ -571,7 +579,9 @@ def plan_payload(
     from ..planning import most_payload
 
     inputs = _inputs(aircraft, loading, load, fuel, taxi, trip, trip_time, rate, order, reserve, category)
-    _answer(most_payload(inputs.aircraft, inputs.loading, _need(station, "--station")), json_out)
+    with options_as_typed({"station": ("--station", station)}):
+        result = most_payload(inputs.aircraft, inputs.loading, _need(station, "--station"))
+    _answer(result, json_out)
 
 
 @plan_app.command("leave", short_help="Fuel to leave behind for a payload.")
@@ -609,9 +619,10 @@ def plan_leave(
 
     inputs = _inputs(aircraft, loading, load, fuel, taxi, trip, trip_time, rate, order, reserve, category)
     weight = read_amount(_need(payload, "--payload"), inputs.aircraft.units.mass, "--payload")
-    _answer(
-        fuel_to_leave(inputs.aircraft, inputs.loading, _need(station, "--station"), weight, fill=_fill(fill)), json_out
-    )
+    named = {"station": ("--station", station), "payload": ("--payload", payload), "fill": ("--fill", fill)}
+    with options_as_typed(named):
+        result = fuel_to_leave(inputs.aircraft, inputs.loading, _need(station, "--station"), weight, fill=_fill(fill))
+    _answer(result, json_out)
 
 
 @plan_app.command("ballast", short_help="The least ballast that is enough.")
@@ -642,7 +653,9 @@ def plan_ballast(
     from ..planning import least_ballast
 
     inputs = _inputs(aircraft, loading, load, fuel, taxi, trip, trip_time, rate, order, reserve, category)
-    _answer(least_ballast(inputs.aircraft, inputs.loading, station), json_out)
+    with options_as_typed({"station": ("--station", station)}):
+        result = least_ballast(inputs.aircraft, inputs.loading, station)
+    _answer(result, json_out)
 
 
 @plan_app.command("shift", short_help="Weight to move between stations.")
@@ -697,9 +710,17 @@ def plan_shift(
         )
     inputs = _inputs(aircraft, loading, load, fuel, taxi, trip, trip_time, rate, order, reserve, category)
     arm = None if target is None else read_amount(target, inputs.aircraft.units.arm, "--target")
-    result = weight_shift(
-        inputs.aircraft, inputs.loading, _need(source, "--from"), _need(to, "--to"), target_arm=arm, condition=chosen
-    )
+    with options_as_typed(
+        {"source": ("--from", source), "target_station": ("--to", to), "target_arm": ("--target", target)}
+    ):
+        result = weight_shift(
+            inputs.aircraft,
+            inputs.loading,
+            _need(source, "--from"),
+            _need(to, "--to"),
+            target_arm=arm,
+            condition=chosen,
+        )
     _answer(result, json_out)
 
 
@@ -738,7 +759,8 @@ def plan_table(
         aircraft, loading, load, fuel, taxi, trip, trip_time, rate, order, reserve, category, fuel_to_plan=True
     )
     name = _need(station, "--station")
-    table = fuel_payload_table(inputs.aircraft, inputs.loading, name, steps=steps, fill=_fill(fill))
+    with options_as_typed({"station": ("--station", station), "steps": ("--steps", steps), "fill": ("--fill", fill)}):
+        table = fuel_payload_table(inputs.aircraft, inputs.loading, name, steps=steps, fill=_fill(fill))
     if chart is not None:
         from ..render.chart import fuel_payload_figure, save_figure
 

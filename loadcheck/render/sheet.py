@@ -490,16 +490,19 @@ def mechanic_sheet_html(
             _table(
                 ["Action", "Item", f"Weight ({m})", f"Arm ({a})", f"New arm ({a})", f"Moment change ({mo})"],
                 [
-                    [c.action, c.label, n(c.weight, m), n(c.arm, a), n(c.new_arm, a), n(c.moment_change, mo)]
+                    [
+                        c.action,
+                        c.label,
+                        n(c.weight, m),
+                        n(c.arm, a),
+                        n(c.new_arm, a),
+                        fmt(c.moment_change, mo, with_unit=False, signed=True),
+                    ]
                     for c in result.lines
                 ],
             )
         )
-        verdict = {True: "negligible", False: "not negligible", None: "cannot be judged"}[result.negligible.overall]
-        parts.append(
-            f"<p>AC 43.13-1B 10-2 c: the change is {escape(verdict)} ({escape(result.negligible.weight_threshold)}; "
-            f"{escape(result.negligible.cg_threshold)}).</p>"
-        )
+        parts.append(f"<p>{escape(result.negligible.text)}</p>")
 
     parts.append("<h2>Empty-weight record: previous and new</h2>")
     if comparison is not None:
@@ -510,7 +513,7 @@ def mechanic_sheet_html(
                 cells.append(value if isinstance(value, str) else ("" if value is None else fmt(value, row.unit)))
             change = ""
             if isinstance(row.current, (int, float)) and isinstance(row.new, (int, float)):
-                change = fmt(row.new - row.current, row.unit)
+                change = fmt(row.new - row.current, row.unit, signed=True)
             rows.append([row.quantity, *cells, change])
         head = ["", "Previous record", "New record", "Change"]
         if weighing:

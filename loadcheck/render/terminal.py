@@ -19,6 +19,7 @@ from typing import TYPE_CHECKING, Any
 
 from rich.cells import cell_len
 from rich.console import Console
+from rich.padding import Padding
 from rich.panel import Panel
 from rich.table import Table
 from rich.text import Text
@@ -101,15 +102,17 @@ def _longest_word(text: str) -> int:
     return max((cell_len(word) for word in text.split()), default=0)
 
 
-def _span(column: Column, cells: Sequence[Cell]) -> tuple[int, int]:
-    """Narrowest and natural width of a column's text (padding and borders not included)."""
+def _span(column: Column, cells: Sequence[Cell]) -> tuple[int, int, int]:
+    """Narrowest width of a column's text, the width its cells need unwrapped, and its natural
+    width with the header unwrapped too (padding and borders not included)."""
     lines = [line for cell in cells for line in _plain(cell).split("\n")]
-    natural = max([cell_len(column.header)] + [cell_len(line) for line in lines])
     if column.numeric:
         narrowest = max([_longest_word(column.header)] + [cell_len(line) for line in lines])
     else:
         narrowest = max([_longest_word(column.header)] + [_longest_word(line) for line in lines])
-    return max(narrowest, 1), max(natural, 1)
+    body = max([narrowest] + [cell_len(line) for line in lines])
+    natural = max(body, cell_len(column.header))
+    return max(narrowest, 1), max(body, 1), max(natural, 1)
 
 
 def _outer(widths: Sequence[int]) -> int:
@@ -153,10 +156,13 @@ def fitted_tables(
     for number, block in enumerate(blocks):
         widths = [spans[j][0] for j in block]
         spare = width - _outer(widths)
-        for k in sorted(range(len(block)), key=lambda k: spans[block[k]][1] - spans[block[k]][0]):
-            grow = min(spare, spans[block[k]][1] - widths[k])
-            widths[k] += grow
-            spare -= grow
+        # the room left goes first to the cells (an item name on one line), then to the headers;
+        # within each, to the columns that need the least more first
+        for need in (1, 2):
+            for k in sorted(range(len(block)), key=lambda k: spans[block[k]][need] - widths[k]):
+                grow = min(spare, spans[block[k]][need] - widths[k])
+                widths[k] += grow
+                spare -= grow
         heading = title if number == 0 else f"{title} (continued)"
         if cell_len(heading) > _outer(widths):  # a title wider than its table: on a line of its own, not
             tables.append(Text(heading, style="italic"))  # wrapped to the table's few columns
@@ -230,6 +236,11 @@ def _print_table(
 ) -> None:
     for table in fitted_tables(console.width, title, columns, rows, total):
         console.print(table)
+
+
+def _indented(console: Console, text: str) -> None:
+    """A note under a heading, indented by two, its wrapped lines too (never back at the margin)."""
+    console.print(Padding(Text(text), (0, 0, 0, 2), expand=False))
 
 
 def _lines(console: Console, tag_rows: Sequence[tuple[Text, Text]]) -> None:
@@ -354,10 +365,13 @@ EDGE_NOTE = (
 
 
 def weight_margin(c: Condition, result: CheckResult) -> tuple[str, bool]:
-    """The weight margin as shown, and whether it is marked "(edge)": below zero with no maximum
-    weight exceeded, so the envelope's edge at this CG sets it (a CG matter, not an overweight one)."""
+    """The weight margin as shown, and whether it is marked "(edge)": shown below zero with no
+    maximum weight exceeded, so the envelope's edge at this CG sets it (a CG matter, not an
+    overweight one). A margin that shows as zero is no mark: the point is on the limit, which
+    holds (limits are inclusive, docs/computation.md), whatever noise far below the display
+    precision its figure carries."""
     text = _margin(c.margins.weight, result.units.mass)
-    if c.margins.weight is None or c.margins.weight >= 0:
+    if c.margins.weight is None or not text.startswith("-"):
         return text, False
     weight_finding = any(f.code in _WEIGHT_CODES and f.condition == c.condition for f in result.findings)
     return (text, False) if weight_finding else (f"{text} (edge)", True)
@@ -600,7 +614,7 @@ def render_aircraft(aircraft: Aircraft, console: Console, caution: str, warnings
                     fmt(t.usable, units.fuel_volume, with_unit=False),
                     fmt(aircraft.usable_fuel_weight(t), units.mass, with_unit=False),
                     f"{t.fuel}\n{density}" if t.fuel else density,
-                    "\n".join(f"{k} {v:g}" for k, v in t.levels.items()),
+                    "\n".join(f"{k} {fmt(v, units.fuel_volume, with_unit=False)}" for k, v in t.levels.items()),
                 ]
             )
         _print_table(
@@ -613,7 +627,7 @@ def render_aircraft(aircraft: Aircraft, console: Console, caution: str, warnings
                 Column(f"Usable ({units.fuel_volume})"),
                 Column(f"Usable ({units.mass})"),
                 Column("Fuel and density"),
-                Column("Levels"),
+                Column(f"Levels ({units.fuel_volume})"),
             ],
             rows,
         )
@@ -852,9 +866,9 @@ def render_weighing(result: Any, units: Any, console: Console) -> None:
 
 def _changes_line(result: Any, units: Any, console: Console) -> None:
     console.print(
-        f"Change from the current record: weight {fmt(result.change_weight, units.mass)}, CG "
-        f"{fmt(result.change_arm, units.arm)}; "
-        f"useful load {fmt(result.useful_load, units.mass)} ({fmt(result.change_useful_load, units.mass)})",
+        f"Change from the current record: weight {fmt(result.change_weight, units.mass, signed=True)}, CG "
+        f"{fmt(result.change_arm, units.arm, signed=True)}; useful load {fmt(result.useful_load, units.mass)} "
+        f"({fmt(result.change_useful_load, units.mass, signed=True)})",
         markup=False,
     )
 
@@ -887,8 +901,8 @@ def render_alteration(result: Any, units: Any, console: Console) -> None:
                 fmt(line.weight, units.mass, with_unit=False),
                 fmt(line.arm, units.arm, with_unit=False),
                 "" if line.new_arm is None else fmt(line.new_arm, units.arm, with_unit=False),
-                fmt(line.weight_change, units.mass, with_unit=False),
-                fmt(line.moment_change, units.moment, with_unit=False),
+                fmt(line.weight_change, units.mass, with_unit=False, signed=True),
+                fmt(line.moment_change, units.moment, with_unit=False, signed=True),
             ]
             for line in result.lines
         ],
@@ -897,14 +911,7 @@ def render_alteration(result: Any, units: Any, console: Console) -> None:
         "Empty-weight record", [("Current record", result.previous), ("After the changes", result.new)], units, console
     )
     _changes_line(result, units, console)
-    n = result.negligible
-    verdict = {True: "negligible", False: "not negligible", None: "cannot be judged"}[n.overall]
-    console.print(
-        f"AC 43.13-1B 10-2 c: the change is {verdict} (weight: {'yes' if n.weight else 'no'}, "
-        f"{n.weight_threshold}; CG: {'cannot be judged' if n.cg is None else ('yes' if n.cg else 'no')}, "
-        f"{n.cg_threshold})",
-        markup=False,
-    )
+    console.print(result.negligible.text, markup=False)
     _warnings_and_refusals(result, console)
     console.print(caution_text(result.caution))
 
@@ -921,8 +928,8 @@ def render_extremes(result: Any, console: Console) -> None:
             )
         )
         for note in case.notes:
-            console.print(f"  {note}", markup=False)
-        console.print(f"  fuel states checked: {case.fuel_states}", markup=False)
+            _indented(console, note)
+        _indented(console, f"fuel states checked: {case.fuel_states}")
         checked_loading(case.check, console)
         ramp = case.check.condition("ramp")
         words = "within limits" if case.ok else "NOT within limits"
@@ -942,20 +949,20 @@ def render_schedule(result: Any, aircraft: Aircraft, console: Console) -> None:
     for case in result.cases:
         console.print(Text(case.question[:1].upper() + case.question[1:], style="bold"))
         for note in case.notes:
-            console.print(f"  {note}", markup=False)
+            _indented(console, note)
         seats = ", ".join(f"{aircraft.station_by_id[s].name}: {n}" for s, n in case.occupants.items()) or "none"
-        console.print(f"  occupants: {seats}", markup=False)
+        _indented(console, f"occupants: {seats}")
         other = [
             f"{aircraft.station_by_id[s].name} {fmt(w, units.mass, 'down')}"
             for s, w in case.load.items()
             if aircraft.station_by_id[s].kind != "seat" and w > 0
         ]
-        console.print(f"  baggage, cargo and fixed items: {', '.join(other) or 'none'}", markup=False)
+        _indented(console, f"baggage, cargo and fixed items: {', '.join(other) or 'none'}")
         fuel = ", ".join(
             f"{aircraft.tank_by_id[t].name} {fmt(q, units.fuel_volume, 'down')}" for t, q in case.fuel.items()
         )
-        console.print(f"  fuel: {fuel or 'none'}", markup=False)
-        console.print(f"  fuel states checked: {case.fuel_states}", markup=False)
+        _indented(console, f"fuel: {fuel or 'none'}")
+        _indented(console, f"fuel states checked: {case.fuel_states}")
         checked_loading(case.check, console, aircraft)
     console.print(caution_text(result.caution))
 

@@ -3,7 +3,8 @@
 Characters only: the envelope outline in ``#`` (other categories are not drawn), the burn
 path in ``.``, the conditions as ``R`` (ramp), ``T`` (takeoff), ``L`` (landing), ``Z``
 (zero fuel), ``X`` where the path leaves. Resolution is one character: the tables above
-it carry the numbers. The picture is drawn for the width it is given (the console's), and
+it carry the numbers; marks that fall in one character are said under the legend ("R is under
+T"), so that no mark hides another unsaid. The picture is drawn for the width it is given (the console's), and
 the words around it wrap to that width.
 """
 
@@ -72,11 +73,18 @@ def _panel(envelope: Envelope, result: CheckResult, width: int, height: int, lin
             put(ax + (bx - ax) * k / steps, ay + (by - ay) * k / steps, "#")
     for x, y in path:
         put(x, y, ".")
+    marks: dict[tuple[int, int], list[str]] = {}  # the marks that fall in each character cell, in drawing order
     leave = result.burn_path.leaves_at
     if leave is not None:
-        put(*_xy(envelope, leave.weight, leave.arm, leave.lateral_arm), "X")
+        marks.setdefault(cell(*_xy(envelope, leave.weight, leave.arm, leave.lateral_arm)), []).append("X")
     for name, (x, y) in points.items():
-        put(x, y, _MARKS[name])
+        marks.setdefault(cell(x, y), []).append(_MARKS[name])
+    hidden: list[str] = []  # no mark hides another unsaid: the ones under the mark shown are listed
+    for (row, col), here in marks.items():
+        grid[row][col] = here[-1]
+        if len(here) > 1:
+            under = " and ".join(here[:-1])
+            hidden.append(f"{under} {'is' if len(here) == 2 else 'are'} under {here[-1]} (the same character)")
     x_name, y_name = (
         f"moment / {envelope.moment_scale:g}" if axis == "moment" and envelope.moment_scale != 1 else axis
         for axis in envelope.axes
@@ -98,4 +106,5 @@ def _panel(envelope: Envelope, result: CheckResult, width: int, height: int, lin
             legend = " " * _LEFT
         legend += ("  " if legend.strip() else "") + entry
     rows.append(legend)
+    rows += [" " * _LEFT + line for text in hidden for line in textwrap.wrap(text, max(20, line_width - _LEFT))]
     return rows

@@ -23,7 +23,8 @@ from collections import OrderedDict
 from collections.abc import Callable, Coroutine, Iterable, Mapping
 from dataclasses import dataclass
 from pathlib import Path
-from typing import TYPE_CHECKING, TypedDict
+from types import SimpleNamespace
+from typing import TYPE_CHECKING, TypedDict, cast
 
 from fastapi import FastAPI, Form, HTTPException, Request, UploadFile
 from fastapi.exceptions import RequestValidationError
@@ -39,9 +40,10 @@ from starlette.middleware.sessions import SessionMiddleware
 
 from .. import __version__
 from ..caution import MECHANIC_CAUTION, PILOT_CAUTION
-from ..display import fmt
+from ..display import fmt, unit_label
 from ..errors import InputError, LoadcheckError, Problem
 from ..words import burn_path_summary, condition_words, stretch_text, within_limits_text
+from .form import FORM_FIELDS, refuse_unknown
 from .security import MAX_BODY_BYTES, BodyLimit, SignInThrottle, csrf_ok, csrf_token
 from .users import Account, UserStore
 
@@ -53,7 +55,7 @@ if TYPE_CHECKING:
     from ..fleet import Fleet
     from ..loading import Loading, ResolvedTrip
     from ..planning import PlanResult
-    from ..results import CheckResult, TripResult
+    from ..results import CheckResult, Condition, TripResult
 
 __all__ = ["MAX_LEGS", "CheckRequest", "PayloadRequest", "StopRequest", "create_app", "form_key", "leg_count"]
 
@@ -391,11 +393,16 @@ def _need(request: Request, role: str, *also: str) -> Account:
     return account
 
 
-async def _form(request: Request) -> FormData:
-    """The posted form, refused (403) without the session's CSRF token."""
+async def _form(request: Request, *fields: str) -> FormData:
+    """The posted form, refused (403) without the session's CSRF token; with ``fields``, also
+    refused (422) for a field that is not one of them (loadcheck.web.form.refuse_unknown). A
+    form whose fields depend on the aircraft (the check form) is read without ``fields`` and
+    checked by :func:`_overrides`, which knows them."""
     form = await request.form()
     if not csrf_ok(request.session, form.get("csrf")):
         raise HTTPException(403, "the form's security token is missing or out of date: reload the page and try again")
+    if fields:
+        refuse_unknown(form, fields)
     return form
 
 
@@ -479,6 +486,7 @@ def _overrides(form: FormValues, aircraft: Aircraft, legs: int | None = None) ->
     category = read("category")
     read("station")
     read("stop")
+    refuse_unknown(form, typed)
     return typed, Overrides(load=load, names=names, fuel=fuel, burn=burn, category=category or None, legs=further)
 
 
@@ -635,8 +643,26 @@ def create_app(
     app.mount("/static", StaticFiles(directory=_HERE / "static"), name="static")
     templates = Jinja2Templates(directory=str(_HERE / "templates"))
     env = templates.env
+    from ..render.terminal import CONDITION_STATE_HEADING, EDGE_NOTE, condition_verdict, weight_margin
+
+    def recorded_state(condition: Mapping[str, object], result: Mapping[str, object]) -> tuple[str, str]:
+        """A recorded condition's state (the check log keeps the result as its JSON), in the words of
+        :func:`~loadcheck.render.terminal.condition_verdict`, by that same function."""
+        found = result.get("findings")
+        findings = [SimpleNamespace(**f) for f in found if isinstance(f, Mapping)] if isinstance(found, list) else []
+        return condition_verdict(
+            cast("Condition", SimpleNamespace(condition=condition.get("condition"), ok=bool(condition.get("ok")))),
+            cast("CheckResult", SimpleNamespace(findings=findings)),
+        )
+
     env.globals.update(
         fmt=fmt,
+        unit_label=unit_label,
+        condition_verdict=condition_verdict,
+        recorded_state=recorded_state,
+        weight_margin=weight_margin,
+        CONDITION_STATE_HEADING=CONDITION_STATE_HEADING,
+        EDGE_NOTE=EDGE_NOTE,
         condition_words=condition_words,
         burn_path_summary=burn_path_summary,
         stretch_text=stretch_text,
@@ -711,7 +737,7 @@ def create_app(
 
     @app.post("/signin", response_class=HTMLResponse)
     async def signin(request: Request) -> Response:
-        form = await _form(request)
+        form = await _form(request, "name", "password")
         name, password = _text(form, "name"), _text(form, "password")
         client = request.client.host if request.client else "unknown"
         keys = [f"name:{name}", f"client:{client}"]
@@ -739,7 +765,7 @@ def create_app(
 
     @app.post("/signout")
     async def signout(request: Request) -> Response:
-        await _form(request)
+        await _form(request, *FORM_FIELDS)
         request.session.clear()
         return RedirectResponse("/signin", status_code=303)
 
@@ -1016,7 +1042,7 @@ def create_app(
         from ..checklog import CheckLog, verify
 
         account = _need(request, "dispatcher")
-        await _form(request)
+        await _form(request, *FORM_FIELDS)
         found = _record(account, record_id)
         with CheckLog(desk.db) as log:
             verification = verify(log, record_id)
@@ -1054,15 +1080,11 @@ def create_app(
         kind: str = Form("weighing"),
         text: str = Form(""),
         upload: UploadFile | None = None,
-        csrf: str = Form(""),
     ) -> Response:
         from ..empty_record import history, propose
 
         account = _need(request, "mechanic")
-        if not csrf_ok(request.session, csrf):
-            raise HTTPException(
-                403, "the form's security token is missing or out of date: reload the page and try again"
-            )
+        await _form(request, "kind", "text", "upload")
         aircraft, path = desk.aircraft_path(registration)
         uploaded = upload is not None and bool(upload.filename)
         content = (await upload.read()) if upload is not None and uploaded else text.encode("utf-8")
@@ -1112,7 +1134,7 @@ def create_app(
         from ..empty_record import history, make_current
 
         account = _need(request, "mechanic")
-        form = await _form(request)
+        form = await _form(request, "token", "confirm", "override", "note")
         token = _text(form, "token")
         with desk.lock:
             pending = desk.pending.get(token)

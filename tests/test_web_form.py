@@ -1,0 +1,116 @@
+"""The desk's posted forms (loadcheck/web/form.py): a field the desk's own form does not have is
+refused (422), never ignored, and the desk's own forms (every field their pages carry, buttons and
+security tokens included) still go through.
+
+The rule is the project's: fail closed at the boundary, a value the user gave is used or refused,
+never dropped (DESIGN.md, "Fail closed"; RULES.md)."""
+
+from __future__ import annotations
+
+import re
+from typing import Any
+
+import pytest
+
+pytest.importorskip("fastapi")
+pytest.importorskip("argon2")
+
+from .web_helpers import TRIP_LEG_2_AFT, WITHIN, _client, _post_check, _records, csrf_of
+
+_FIELD = re.compile(r'<(?:input|select|textarea|button)\b[^>]*\bname="([^"]+)"')
+
+
+def _own_fields(html: str, action: str) -> list[str]:
+    """The field names of the page's form that posts to ``action`` (the page's own markup)."""
+    start = html.index(f'action="{action}"')
+    end = html.index("</form>", start)
+    return list(dict.fromkeys(_FIELD.findall(html[start:end])))
+
+
+def test_regression_a_crafted_field_of_the_check_form_is_refused(reading_desk: dict[str, Any]) -> None:
+    """load.ghost (a station DEMO-4T lacks) was dropped and the loading checked without it."""
+    client = _client(reading_desk, "pia")
+    response = _post_check(client, {**WITHIN, "load.ghost": "80"})
+    assert response.status_code == 422
+    assert "this form has no field &#39;load.ghost&#39;" in response.text  # the page escapes the quotes
+    assert "nothing was checked" in response.text and "WITHIN LIMITS" not in response.text
+
+
+@pytest.mark.parametrize("route", ["sheet", "edit"])
+def test_regression_the_result_pages_forms_refuse_a_crafted_field(reading_desk: dict[str, Any], route: str) -> None:
+    client = _client(reading_desk, "pia")
+    response = _post_check(client, {**WITHIN, "fuel.tip": "10"}, route=route)
+    assert response.status_code == 422 and "fuel.tip" in response.text
+
+
+def test_regression_recording_with_a_crafted_field_records_nothing(desk: dict[str, Any]) -> None:
+    client = _client(desk, "pia")
+    response = _post_check(client, {**WITHIN, "names.ghost": "Kim"}, route="record")
+    assert response.status_code == 422 and "names.ghost" in response.text
+    assert _records(desk) == []
+
+
+def test_regression_many_crafted_fields_are_named_five_at_the_most(reading_desk: dict[str, Any]) -> None:
+    client = _client(reading_desk, "pia")
+    extra = {f"x{n}": "1" for n in range(8)}
+    response = _post_check(client, {**WITHIN, **extra})
+    assert response.status_code == 422 and "and 3 more" in response.text
+
+
+def test_the_check_forms_own_fields_go_through(reading_desk: dict[str, Any]) -> None:
+    """Every field the check page's form carries (its buttons, the security token, the leg count,
+    the planning choices), posted as a browser would: a result, not a refusal."""
+    client = _client(reading_desk, "pia")
+    page = client.get("/aircraft/DEMO-4T").text
+    fields = _own_fields(page, "/aircraft/DEMO-4T/check")
+    assert {"csrf", "action", "legs", "category", "station", "load.front", "names.front"} <= set(fields)
+    data = {name: WITHIN.get(name, "") for name in fields}
+    response = client.post(
+        "/aircraft/DEMO-4T/check", data={**data, "csrf": csrf_of(page), "action": "check"}, follow_redirects=False
+    )
+    assert response.status_code == 200, response.text
+    result = response.text
+    for route in ("sheet", "edit"):
+        hidden = re.findall(r'type="hidden" name="([^"]+)" value="([^"]*)"', result[result.index(f"/{route}") :])
+        posted = client.post(f"/aircraft/DEMO-4T/{route}", data=dict(hidden), follow_redirects=False)
+        assert posted.status_code == 200, (route, posted.text)
+
+
+def test_a_trip_forms_own_fields_go_through(reading_desk: dict[str, Any]) -> None:
+    client = _client(reading_desk, "pia")
+    page = _post_check(client, TRIP_LEG_2_AFT, "TEST-TRIP", route="edit").text  # the form again, with leg 2
+    fields = _own_fields(page, "/aircraft/TEST-TRIP/check")
+    assert {"leg.2.label", "leg.2.load.front", "leg.2.fuel.main", "leg.2.burn.trip", "stop"} <= set(fields)
+    data = {name: TRIP_LEG_2_AFT.get(name, "") for name in fields}
+    for action in ("check", "fuel", "add_leg", "remove_leg:2"):
+        response = client.post(
+            "/aircraft/TEST-TRIP/check", data={**data, "csrf": csrf_of(page), "action": action}, follow_redirects=False
+        )
+        assert response.status_code == 200, (action, response.text)
+
+
+def test_regression_sign_in_and_out_refuse_a_crafted_field(reading_desk: dict[str, Any]) -> None:
+    from .web_helpers import PASSWORD
+
+    client = _client(reading_desk)
+    token = csrf_of(client.get("/signin").text)
+    crafted = client.post(
+        "/signin", data={"name": "pia", "password": PASSWORD, "csrf": token, "admin": "yes"}, follow_redirects=False
+    )
+    assert crafted.status_code == 422 and "admin" in crafted.text
+    signed = _client(reading_desk, "pia")
+    page = signed.get("/fleet").text
+    assert signed.post("/signout", data={"csrf": csrf_of(page), "all": "1"}, follow_redirects=False).status_code == 422
+    assert signed.post("/signout", data={"csrf": csrf_of(page)}, follow_redirects=False).status_code == 303
+
+
+def test_regression_the_mechanics_form_refuses_a_crafted_field(reading_desk: dict[str, Any]) -> None:
+    client = _client(reading_desk, "mo")
+    page = client.get("/mechanic/DEMO-4T").text
+    assert set(_own_fields(page, "/mechanic/DEMO-4T/propose")) == {"csrf", "kind", "upload", "text"}
+    response = client.post(
+        "/mechanic/DEMO-4T/propose",
+        data={"kind": "weighing", "text": "", "csrf": csrf_of(page), "force": "yes"},
+        follow_redirects=False,
+    )
+    assert response.status_code == 422 and "force" in response.text
