@@ -151,8 +151,8 @@ def test_regression_a_category_with_a_trailing_space_was_a_second_category():
 
 
 def test_a_zero_fuel_limit_above_the_takeoff_limit_is_refused():
-    # the zero-fuel weight is the takeoff weight less its fuel, so it never exceeds it (FAA-H-8083-1B
-    # chapter 1, zero fuel weight; common practice): such a limit could never hold a loading back
+    # the zero-fuel weight is the aircraft's weight without usable fuel (FAA-H-8083-1B glossary, "zero fuel
+    # weight", from memory), so it never exceeds the takeoff weight: such a limit could never hold a loading back
     data = sample_data("trainer4/aircraft.toml")
     data["limits"]["max_zero_fuel_weight"] = data["limits"]["max_takeoff_weight"] + 1
     assert "could never limit" in _problems(data)
