@@ -46,6 +46,7 @@ RULES: dict[str, str] = {
     "empty.cg_range": "`[forward, aft]`",
     "limits.max_takeoff_weight": "> 0",
     "limits.max_ramp_weight": "at least the max takeoff weight",
+    "limits.max_zero_fuel_weight": "at most the max takeoff weight (a higher one could never limit)",
     "limits.min_flight_weight": "below the max takeoff weight; checked at takeoff and landing",
     "mac.leading_edge_arm": "with `length`, gives the CG in percent of MAC",
     "mac.length": "> 0",
@@ -58,7 +59,7 @@ RULES: dict[str, str] = {
     "station_group.stations": "ids of stations of this file",
     "station_group.max_weight": "at least one of `max_weight`, `min_weight`",
     "tank.id": "as for stations",
-    "tank.arm": "required unless `arm_table` is given",
+    "tank.arm": "required unless `arm_table` is given; not both",
     "tank.usable": "> 0",
     "tank.fuel": "default densities: avgas and mogas 6.0 lb/US gal, jet 6.7 lb/US gal (loadcheck/fuel.py)",
     "tank.density": "> 0; one of `fuel` and `density` is required; `density` wins",
@@ -66,7 +67,8 @@ RULES: dict[str, str] = {
     "tank.arm_table": "`[[quantity, arm], ...]`, at least 2 points, quantities strictly increasing "
     "within 0 to `usable`; "
     "the end arm is held beyond the ends",
-    "envelope.category": "the first category in the file is the default; envelopes sharing one must all hold",
+    "envelope.category": "the first category in the file is the default; envelopes sharing one must all hold; "
+    "no spaces at its start or end, and one spelling (names differing only in letter case are refused)",
     "envelope.axes": "two different ones; one must be `weight`, unless the pair is `lateral_arm` and `arm`",
     "envelope.points": "at least 3 distinct corners enclosing an area, not crossing itself; the ring closes itself",
     "envelope.moment_scale": "> 0, e.g. 1000",

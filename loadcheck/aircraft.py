@@ -205,6 +205,13 @@ class Limits(_Model):
                 f"max_landing_weight ({self.max_landing_weight:g}) is above max_takeoff_weight "
                 f"({self.max_takeoff_weight:g})"
             )
+        if self.max_zero_fuel_weight is not None and self.max_zero_fuel_weight > self.max_takeoff_weight:
+            # the zero-fuel weight never exceeds the takeoff weight, so such a limit could never hold
+            # anything back: a figure typed wrong, refused rather than carried as a limit that is not one
+            raise ValueError(
+                f"max_zero_fuel_weight ({self.max_zero_fuel_weight:g}) is above max_takeoff_weight "
+                f"({self.max_takeoff_weight:g}), so it could never limit a loading: check the figure"
+            )
         if self.min_flight_weight is not None and self.min_flight_weight >= self.max_takeoff_weight:
             raise ValueError("min_flight_weight is not below max_takeoff_weight")
         return self
@@ -305,6 +312,9 @@ class Tank(_Model):
             raise ValueError("give the fuel grade (fuel = 'avgas' or 'jet') or its density")
         if self.arm is None and self.arm_table is None:
             raise ValueError("give the tank's arm or its arm_table")
+        if self.arm is not None and self.arm_table is not None:
+            # one of the two would be left unused: refused, never chosen for the user
+            raise ValueError("give the tank's arm or its arm_table, not both")
         for name, quantity in self.levels.items():
             if quantity > self.usable:
                 raise ValueError(f"level {name!r} ({quantity}) is above the usable capacity ({self.usable})")
@@ -348,6 +358,15 @@ class Envelope(_Model):
         1.0, gt=0, description="a moment or lateral_moment axis is read as moment / moment_scale"
     )
     _shape: EnvelopeShape | None = PrivateAttr(None)
+
+    @field_validator("category")
+    @classmethod
+    def _category_as_written(cls, name: str) -> str:
+        # 'normal ' would be a category of its own, and its envelope would hold no loading checked
+        # as 'normal': refused, never trimmed for the user
+        if name != name.strip():
+            raise ValueError(f"the category has spaces at its start or end; write {name.strip()!r}")
+        return name
 
     @model_validator(mode="after")
     def _valid_polygon(self) -> Envelope:
@@ -484,7 +503,14 @@ class Aircraft(_Model):
             or any(s.lateral_arm is not None for s in self.station)
             or any(t.lateral_arm is not None for t in self.tank)
         )
+        spelled: dict[str, str] = {}
         for index, envelope in enumerate(self.envelope):
+            first = spelled.setdefault(envelope.category.casefold(), envelope.category)
+            if first != envelope.category:
+                problems.append(
+                    f"envelope[{index}].category: {envelope.category!r} differs from {first!r} only in letter "
+                    "case; spell each category one way (they would be two categories)"
+                )
             if "mac" in envelope.axes and self.mac is None:
                 problems.append(f"envelope[{index}].axes: a 'mac' axis needs the aircraft's [mac] table")
             if envelope.is_lateral and not has_lateral:

@@ -776,6 +776,6 @@ def verify_current(records: Iterable[LoggedCheck], fleet: Fleet) -> CurrentVerif
         checks=checks,
         fleet=str(fleet.folder),
         status=status,
-        changed=sum(1 for c in checks if c.data_changed),
+        changed=sum(1 for c in checks if c.data_changed and c.current_fingerprint is not None),
         now_out_of_limits=worse,
     )

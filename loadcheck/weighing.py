@@ -98,6 +98,9 @@ class ReadingItem(_Model):
         if self.tank is not None:
             if self.fuel is None:
                 raise ValueError("a fuel item names its tank and its quantity (fuel = ...)")
+            if self.weight is not None:
+                # the tank's density gives a fuel item's weight: a weight given beside it would be left unused
+                raise ValueError("a fuel item gives its tank and quantity, not a weight (the density gives it)")
         elif self.weight is None or self.arm is None:
             raise ValueError("give the item's weight and arm (or, for fuel, its tank and quantity)")
         return self
@@ -326,6 +329,17 @@ def _item(aircraft: Aircraft, item: ReadingItem, where: str) -> tuple[float, flo
                 )
             )
         assert item.fuel is not None
+        if item.fuel > tank.usable:
+            # the unusable fuel is part of the basic empty weight (FAA-H-8083-1B, from memory): the fuel
+            # taken off is usable fuel, at most what the tank holds
+            units = aircraft.units
+            raise InputError(
+                Problem(
+                    f"{where}.fuel",
+                    f"{item.fuel:g} {units.fuel_volume} is above the usable capacity of tank {tank.id!r}",
+                    expected=f"at most {tank.usable:g} {units.fuel_volume}",
+                )
+            )
         weight = item.fuel * aircraft.density(tank)
         arm = item.arm if item.arm is not None else tank.arm_at(item.fuel)
         return weight, arm, item.lateral_arm if item.lateral_arm is not None else (tank.lateral_arm or 0.0)

@@ -130,8 +130,34 @@ def test_level_above_capacity():
 )
 def test_bad_arm_tables(table, words):
     data = sample_data("trainer4/aircraft.toml")
+    del data["tank"][0]["arm"]
     data["tank"][0]["arm_table"] = table
     assert words in _problems(data)
+
+
+def test_regression_a_tank_with_both_arm_and_arm_table_used_the_table_without_a_word():
+    data = sample_data("trainer4/aircraft.toml")
+    data["tank"][0]["arm_table"] = [[0, 43], [20, 44], [30, 45]]  # beside its arm = 44.0
+    assert "not both" in _problems(data)
+
+
+def test_regression_a_category_with_a_trailing_space_was_a_second_category():
+    # 'utility ' beside 'utility' made an envelope no loading checked as 'utility' was held to
+    data = sample_data("trainer4/aircraft.toml")
+    data["envelope"][1]["category"] = "utility "
+    assert "spaces at its start or end" in _problems(data)
+    data["envelope"][1]["category"] = "NORMAL"
+    assert "only in letter case" in _problems(data)
+
+
+def test_a_zero_fuel_limit_above_the_takeoff_limit_is_refused():
+    # the zero-fuel weight is the aircraft's weight without usable fuel (FAA-H-8083-1B glossary, "zero fuel
+    # weight", from memory), so it never exceeds the takeoff weight: such a limit could never hold a loading back
+    data = sample_data("trainer4/aircraft.toml")
+    data["limits"]["max_zero_fuel_weight"] = data["limits"]["max_takeoff_weight"] + 1
+    assert "could never limit" in _problems(data)
+    data["limits"]["max_zero_fuel_weight"] = data["limits"]["max_takeoff_weight"]
+    assert parse_aircraft(data, "test.toml").limits.max_zero_fuel_weight == data["limits"]["max_takeoff_weight"]
 
 
 def test_arm_table_interpolates():

@@ -147,6 +147,20 @@ def test_current_mode_a_record_whose_aircraft_is_gone_exits_2(runner, db, tmp_pa
     assert "unknown registration 'DEMO-6P'" in check["problem"] and "current_ok" not in check
 
 
+def test_regression_a_record_whose_aircraft_is_gone_was_counted_as_changed_data(runner, db, tmp_path):
+    # its aircraft is not in the fleet: nothing is known of its data; the summary says it could not be
+    # checked, and at 80 columns no cell or heading is cut short
+    fleet = _fleet_copy(tmp_path)
+    _record(db, "twin6/within.toml")
+    _record(db, "trainer4/within.toml")
+    result = runner.invoke(app, ["log", "verify", "--current", str(fleet)], env={"COLUMNS": "80"})
+    assert result.exit_code == 2
+    assert "not in the fleet" in result.output and "CANNOT BE CHECKED" in result.output
+    assert "0 made with aircraft data that has changed since" in result.output
+    assert "1 could not be checked with the current data" in result.output
+    assert "…" not in result.output and "DEMO-6P" in result.output
+
+
 def test_verify_needs_an_id_without_current(runner, db):
     _record(db, "trainer4/within.toml")
     result = runner.invoke(app, ["log", "verify"])

@@ -19,6 +19,7 @@ from hypothesis import given, settings
 from hypothesis import strategies as st
 
 from loadcheck import load_aircraft
+from loadcheck.errors import InputError
 from loadcheck.files import parse_aircraft
 from loadcheck.weighing import Readings, weigh
 
@@ -140,6 +141,31 @@ def test_readings_with_units_and_fuel_item():
     assert result.corrections[0].weight == pytest.approx(
         2 * 3.785411784 * aircraft.density(aircraft.tank_by_id["wing"])
     )
+
+
+def test_regression_fuel_aboard_above_the_tanks_capacity_gave_an_empty_weight():
+    # usable fuel taken off can be at most what the tank holds; the unusable fuel is part of the
+    # basic empty weight (FAA-H-8083-1B, from memory)
+    aircraft = load_aircraft(sample("tandem2/aircraft.toml"))
+    usable = aircraft.tank_by_id["wing"].usable
+    point = [{"label": "mains", "arm": 0.0, "reading": 400.0}]
+    over = {"point": point, "on_board": [{"label": "fuel", "tank": "wing", "fuel": usable + 0.1}]}
+    with pytest.raises(InputError, match=r"on_board\[0\]\.fuel: .* above the usable capacity of tank 'wing'"):
+        weigh(aircraft, Readings.model_validate(over))
+    full = {"point": point, "on_board": [{"label": "fuel", "tank": "wing", "fuel": usable}]}
+    assert weigh(aircraft, Readings.model_validate(full)).corrections[0].weight == pytest.approx(
+        usable * aircraft.density(aircraft.tank_by_id["wing"])
+    )
+
+
+def test_regression_a_fuel_items_weight_was_dropped_for_its_tanks_density():
+    with pytest.raises(ValueError, match="not a weight"):
+        Readings.model_validate(
+            {
+                "point": [{"label": "mains", "arm": 0.0, "reading": 400.0}],
+                "on_board": [{"label": "fuel", "tank": "wing", "fuel": 5.0, "weight": 30.0}],
+            }
+        )
 
 
 # -- the published empty-weight CG formulas (issue 16) -----------------------------------------

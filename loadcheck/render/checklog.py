@@ -8,10 +8,9 @@ from pathlib import Path
 from typing import TYPE_CHECKING
 
 from rich.console import Console
-from rich.table import Table
 
 from .listing import plain_columns, use_plain
-from .terminal import caution_text
+from .terminal import Column, _print_table, caution_text
 
 if TYPE_CHECKING:
     from ..checklog import CurrentVerification, Listed
@@ -47,8 +46,6 @@ def render_check_log(path: Path, records: Sequence[Listed], caution: str, consol
     if use_plain(len(columns[0])):
         plain_columns(console.file, title, heads, columns, right=(0,), width=console.width)
     else:  # laid out for the width, nothing cut
-        from .terminal import Column, _print_table
-
         table = [Column("Id", key=True)] + [Column(h, numeric=False) for h in heads[1:-1]] + [Column("Data")]
         _print_table(console, title, table, [list(row) for row in zip(*columns, strict=True)])
     console.print(caution_text(caution))
@@ -56,44 +53,38 @@ def render_check_log(path: Path, records: Sequence[Listed], caution: str, consol
 
 def render_current_verification(outcome: CurrentVerification, console: Console) -> None:
     """Print each recorded check with the verdict then and now, the data changes, then the caution."""
-    table = Table(title=f"Recorded checks against the current data of {outcome.fleet}", title_justify="left")
-    for column in (
-        "Id",
-        "Checked (UTC)",
-        "Registration",
-        "Reference",
-        "Aircraft data",
-        "Recorded",
-        "With current data",
-    ):
-        table.add_column(column)
+    rows = []
     for check in outcome.checks:
-        data = "changed since" if check.data_changed else "unchanged"
+        if check.current_fingerprint is None:
+            data = "not in the fleet"
+        else:
+            data = "changed since" if check.data_changed else "unchanged"
         if check.current_ok is None:
             now = "CANNOT BE CHECKED"
         else:
             now = "within limits" if check.current_ok else "OUT OF LIMITS"
             if check.now_out_of_limits:
                 now += " (was within)"
-        table.add_row(
-            str(check.record_id),
-            check.checked_at[:19],
-            check.registration or "",
-            check.reference or "",
-            data,
-            "within limits" if check.recorded_ok else "OUT OF LIMITS",
-            now,
+        recorded = "within limits" if check.recorded_ok else "OUT OF LIMITS"
+        checked = check.checked_at[:19]
+        rows.append(
+            [str(check.record_id), checked, check.registration or "", check.reference or "", data, recorded, now]
         )
-    console.print(table)
+    heads = ("Checked (UTC)", "Registration", "Reference", "Aircraft data", "Recorded", "With current data")
+    # laid out for the width, nothing cut (the log's own listing does the same)
+    columns = [Column("Id", key=True)] + [Column(h, numeric=h == "Checked (UTC)") for h in heads]
+    _print_table(console, f"Recorded checks against the current data of {outcome.fleet}", columns, rows)
     for check in outcome.checks:
         if check.problem:
             console.print(f"record {check.record_id}: {check.problem}", markup=False)
         elif check.current_ok is False:
             for finding in check.current_findings:
                 console.print(f"record {check.record_id}: LIMIT {finding}", markup=False)
+    unchecked = sum(1 for check in outcome.checks if check.current_ok is None)
     console.print(
         f"{len(outcome.checks)} record(s); {outcome.changed} made with aircraft data that has changed since; "
-        f"{outcome.now_out_of_limits} recorded within limits and now out of limits",
+        f"{outcome.now_out_of_limits} recorded within limits and now out of limits"
+        + (f"; {unchecked} could not be checked with the current data" if unchecked else ""),
         markup=False,
     )
     console.print(caution_text(outcome.caution))
