@@ -528,13 +528,15 @@ def test_plan_stop_past_the_last_leg_said_legs_2_to_2(runner, tmp_path):
     path = str(sample("heli2/trip_drop_off.toml"))
     two = runner.invoke(app, ["plan", "stop", path, "--leg", "3"])
     assert two.exit_code == 2 and "legs 2 to 2" not in two.output
-    assert "the trip has 2 legs: its one stop comes before leg 2; got 3; expected 2" in " ".join(two.output.split())
+    assert "--leg 3: the trip has 2 legs: its one stop comes before leg 2; expected 2" in " ".join(two.output.split())
     three = runner.invoke(app, ["plan", "stop", path, "--leg", "4", "--leg-burn", "3:trip=5"])
     assert three.exit_code == 2
-    assert "its 2 stops come before legs 2 and 3; got 4; expected 2 or 3" in " ".join(three.output.split())
+    assert "--leg 4: the trip has 3 legs: its 2 stops come before legs 2 and 3; expected 2 or 3" in " ".join(
+        three.output.split()
+    )
     four = runner.invoke(app, ["plan", "stop", path, "--leg", "1", "--leg-burn", "3:trip=5", "--leg-burn", "4:trip=5"])
     assert four.exit_code == 2
-    assert "the trip has 4 legs: its 3 stops come before legs 2 to 4; got 1" in " ".join(four.output.split())
+    assert "--leg 1: the trip has 4 legs: its 3 stops come before legs 2 to 4" in " ".join(four.output.split())
 
 
 def test_trip_least_fuel_landed_below_the_reserve():
