@@ -114,3 +114,13 @@ def test_regression_the_mechanics_form_refuses_a_crafted_field(reading_desk: dic
         follow_redirects=False,
     )
     assert response.status_code == 422 and "force" in response.text
+
+
+@pytest.mark.parametrize("route", ["check", "record"])
+def test_regression_a_field_posted_twice_was_read_with_its_last_value(desk: dict[str, Any], route: str) -> None:
+    """load.front posted as 170 then 10 was checked with 10 (starlette keeps the last value), within limits."""
+    client = _client(desk, "pia")
+    response = _post_check(client, {**WITHIN, "load.front": ["170", "10"]}, route=route)  # type: ignore[dict-item]
+    assert response.status_code == 422
+    assert "gives the field &#39;load.front&#39; more than once" in response.text
+    assert "WITHIN LIMITS" not in response.text and _records(desk) == []

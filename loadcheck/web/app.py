@@ -43,7 +43,7 @@ from ..caution import MECHANIC_CAUTION, PILOT_CAUTION
 from ..display import fmt, unit_label
 from ..errors import InputError, LoadcheckError, Problem
 from ..words import burn_path_summary, condition_words, stretch_text, within_limits_text
-from .form import FORM_FIELDS, refuse_unknown
+from .form import FORM_FIELDS, refuse_repeated, refuse_unknown
 from .security import MAX_BODY_BYTES, BodyLimit, SignInThrottle, csrf_ok, csrf_token
 from .users import Account, UserStore
 
@@ -395,12 +395,14 @@ def _need(request: Request, role: str, *also: str) -> Account:
 
 async def _form(request: Request, *fields: str) -> FormData:
     """The posted form, refused (403) without the session's CSRF token; with ``fields``, also
-    refused (422) for a field that is not one of them (loadcheck.web.form.refuse_unknown). A
+    refused (422) for a field that is not one of them (loadcheck.web.form.refuse_unknown), and always
+    for a field posted twice (refuse_repeated). A
     form whose fields depend on the aircraft (the check form) is read without ``fields`` and
     checked by :func:`_overrides`, which knows them."""
     form = await request.form()
     if not csrf_ok(request.session, form.get("csrf")):
         raise HTTPException(403, "the form's security token is missing or out of date: reload the page and try again")
+    refuse_repeated(form.multi_items())
     if fields:
         refuse_unknown(form, fields)
     return form

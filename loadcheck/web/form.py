@@ -7,11 +7,12 @@ read in part: a field the desk ignored would be a value the user gave and the ch
 
 from __future__ import annotations
 
-from collections.abc import Iterable, Mapping
+from collections import Counter
+from collections.abc import Iterable, Mapping, Sequence
 
 from fastapi import HTTPException
 
-__all__ = ["FORM_FIELDS", "refuse_unknown"]
+__all__ = ["FORM_FIELDS", "refuse_repeated", "refuse_unknown"]
 
 FORM_FIELDS = ("csrf", "action")
 """Fields every form of the desk may post: its security token and the button pressed."""
@@ -51,5 +52,43 @@ def refuse_unknown(form: Mapping[str, object], fields: Iterable[str]) -> None:
     raise HTTPException(
         422,
         f"this form has no field {names}: nothing was checked, recorded or changed; "
+        "reload the page and use the desk's own form",
+    )
+
+
+def refuse_repeated(items: Sequence[tuple[str, object]]) -> None:
+    """Refuse a form that posts one field more than once.
+
+    The desk's forms post each field once; a crafted form that posts ``load.front`` twice would
+    otherwise be read with one of its values and the other left out (starlette keeps the last).
+
+    Parameters
+    ----------
+    items : the posted fields in order, as ``(name, value)`` pairs (starlette's ``FormData.multi_items()``)
+
+    Raises
+    ------
+    HTTPException
+        422, naming the repeated fields (each cut to 40 characters, five at the most) and saying
+        that nothing was done.
+
+    Examples
+    --------
+    >>> refuse_repeated([("csrf", "t"), ("load.front", "170")])
+    >>> refuse_repeated([("load.front", "170"), ("load.front", "10")])  # doctest: +ELLIPSIS
+    Traceback (most recent call last):
+    ...
+    fastapi.exceptions.HTTPException: 422: this form gives the field 'load.front' more than once: nothing was ...
+    """
+    counts = Counter(name for name, _ in items)
+    repeated = sorted(name for name, count in counts.items() if count > 1)
+    if not repeated:
+        return
+    names = ", ".join(repr(name[:_CUT]) for name in repeated[:_SHOWN])
+    if len(repeated) > _SHOWN:
+        names += f" and {len(repeated) - _SHOWN} more"
+    raise HTTPException(
+        422,
+        f"this form gives the field {names} more than once: nothing was checked, recorded or changed; "
         "reload the page and use the desk's own form",
     )
