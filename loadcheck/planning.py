@@ -318,6 +318,31 @@ def _fill_order(aircraft: Aircraft, loading: ResolvedLoading, fill: Sequence[str
     return list(reversed(loading.plan.order))  # the tank burned last is filled first
 
 
+def fill_words(aircraft: Aircraft, order: Sequence[str] | None, fill: Sequence[str] | None) -> str | None:
+    """The order fuel goes into the tanks in a fuel answer, in words; None for one tank or none.
+
+    An answer holds for this way of filling only (another may allow more or less fuel), so
+    every fuel answer says it. ``order`` is :func:`_fill_order`'s, ``fill`` the order asked for.
+
+    Examples
+    --------
+    >>> from loadcheck import load_aircraft
+    >>> twin = load_aircraft("sample_aircraft/twin6/aircraft.toml")
+    >>> fill_words(twin, ["mains", "aux"], None)
+    'mains, then aux (the reverse of the burn order)'
+    """
+    if len(aircraft.tank) < 2:
+        return None
+    if order is None:
+        return "every tank in proportion to its capacity (the tanks burn together)"
+    return ", then ".join(order) + (" (as asked)" if fill is not None else " (the reverse of the burn order)")
+
+
+def _with_fill(result: PlanResult, words: str | None) -> PlanResult:
+    """The answer with the way its fuel goes into the tanks among its further figures."""
+    return result if words is None else replace(result, extra={**result.extra, "fill order": words})
+
+
 def _distribute(aircraft: Aircraft, base: LoadingArrays, fill: list[str] | None, totals: np.ndarray) -> np.ndarray:
     """Fuel per tank (N, T) for total ramp fuel values, in the fill order."""
     usable = np.array([t.usable for t in aircraft.tank])
@@ -492,8 +517,8 @@ def most_fuel(
     )
     if result.feasible and result.check is not None:
         mass = result.check.condition("ramp").fuel_weight
-        return replace(result, extra={"ramp fuel weight": fmt(mass, aircraft.units.mass, "down")})
-    return result
+        result = replace(result, extra={"ramp fuel weight": fmt(mass, aircraft.units.mass, "down")})
+    return _with_fill(result, fill_words(aircraft, order, fill))
 
 
 def longest_trip(
@@ -564,10 +589,11 @@ def longest_trip(
             aircraft,
         ),
     )
+    words = fill_words(aircraft, _fill_order(aircraft, loading, fill), fill)
     if result.feasible and result.answer is not None:
         shown = safe_value(result.intervals[-1].low, result.answer, unit, "down")[0]
         minutes = int(np.floor(shown / rate * 60.0 + 1e-9))
-        return replace(
+        result = replace(
             result,
             extra={
                 "ramp fuel": fuel.answer_display,
@@ -575,7 +601,8 @@ def longest_trip(
                 "reserve landed with": f"{fmt(reserve, unit)} ({source})",
             },
         )
-    return replace(result, extra={"reserve landed with": f"{fmt(reserve, unit)} ({source})"})
+        return _with_fill(result, words)
+    return _with_fill(replace(result, extra={"reserve landed with": f"{fmt(reserve, unit)} ({source})"}), words)
 
 
 def _station_rows(base: LoadingArrays, index: int, offset: float = 0.0) -> Callable[[np.ndarray], np.ndarray]:
@@ -669,8 +696,7 @@ def fuel_to_leave(
     if result.feasible and result.check is not None:
         taken = result.check.condition("ramp").fuel
         extra["fuel taken"] = fmt(taken, unit)
-        extra["fill order"] = ", ".join(order) if order else "every tank in proportion to its capacity"
-    return replace(result, extra=extra)
+    return _with_fill(replace(result, extra=extra), fill_words(aircraft, order, fill))
 
 
 def least_ballast(aircraft: Aircraft, loading: ResolvedLoading, station: str | None = None) -> PlanResult:

@@ -44,6 +44,7 @@ from .planning import (
     _mean_density,
     binding_limits,
     feasible_intervals,
+    fill_words,
     limit_amount_words,
     safe_value,
 )
@@ -272,6 +273,11 @@ def _plan(
     )
 
 
+def _with_fill(plan: TripPlan, words: str | None) -> TripPlan:
+    """The answer with the way its fuel goes into the tanks among its further figures."""
+    return plan if words is None else replace(plan, extra={**plan.extra, "fill order": words})
+
+
 def _why_not(aircraft: Aircraft, trip: ResolvedTrip) -> str:
     try:
         found = check_trip(aircraft, trip, samples=False)
@@ -322,7 +328,7 @@ def trip_most_fuel(
         if ids
         else []
     )
-    return _plan(
+    plan = _plan(
         aircraft,
         pairs,
         "most fuel at the first engine start that keeps every leg within limits",
@@ -332,6 +338,7 @@ def trip_most_fuel(
         step,
         lambda: "this aircraft has no fuel tanks" if not ids else _why_not(aircraft, resolved),
     )
+    return _with_fill(plan, fill_words(aircraft, order, fill))
 
 
 def _added(aircraft: Aircraft, on_board: dict[str, float], fill: list[str] | None, totals: np.ndarray) -> np.ndarray:
@@ -446,7 +453,7 @@ def fuel_to_add(
         if ids and earlier
         else []
     )
-    return _plan(
+    plan = _plan(
         aircraft,
         pairs,
         f"fuel to put in at the stop before {leg_name(leg, resolved.labels[index] if resolved.labels else None)}",
@@ -456,3 +463,4 @@ def fuel_to_add(
         step,
         lambda: "this aircraft has no fuel tanks" if not ids else _why_not(aircraft, resolved),
     )
+    return _with_fill(plan, fill_words(aircraft, order, fill))

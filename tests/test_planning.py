@@ -465,3 +465,16 @@ def test_regression_ballast_at_a_station_named_ballast_is_not_said_twice(runner)
     assert "\nballast: " in result.output  # the answer's line, "ballast: 14.5 kg"
     other = runner.invoke(app, ["plan", "ballast", str(sample("tandem2/aft_heavy.toml")), "--station", "front"])
     assert "ballast at front" in other.output
+
+
+def test_regression_a_fuel_answer_did_not_say_how_its_fuel_goes_into_the_tanks():
+    """An outside trial read "no amount is within limits" where another way of filling the tanks was
+    within limits: the answer holds for one fill order only, so it says which (common practice: a
+    fuel answer for a multi-tank aircraft is read with its tank sequence)."""
+    inputs = load_check_inputs(sample("twin6/within.toml"))
+    twin, loading = inputs.aircraft, inputs.loading
+    assert P.most_fuel(twin, loading).extra["fill order"] == "mains, then aux (the reverse of the burn order)"
+    assert P.most_fuel(twin, loading, fill=["aux", "mains"]).extra["fill order"] == "aux, then mains (as asked)"
+    assert P.fill_words(twin, None, None).startswith("every tank in proportion")  # the tanks burn together
+    one = load_check_inputs(sample("tandem2/solo.toml"))
+    assert "fill order" not in P.most_fuel(one.aircraft, one.loading).extra  # one tank: nothing to say
