@@ -852,12 +852,15 @@ def weight_shift(
 class TableRow(Result):
     """Allowed ramp fuel for one payload: payload [mass unit]; intervals of ramp fuel
     [fuel volume unit]; most, the largest allowed (None where none is), the figure whose
-    loading was checked in full; check, that check (at the figure shown), None where none is."""
+    loading was checked in full; check, that check (at the figure shown), None where none is;
+    limited_by, what stops the row's fuel going further or, where no fuel is within limits, what
+    its check finds exceeded (:func:`most_fuel`'s ``governing``, in the check's words)."""
 
     payload: float
     intervals: list[Interval]
     most: float | None
     check: CheckResult | None = None
+    limited_by: str | None = None
 
 
 @dataclass(frozen=True, kw_only=True, slots=True)
@@ -905,6 +908,7 @@ def fuel_payload_table(
                 intervals=answer.intervals if answer.feasible else [],
                 most=answer.answer if answer.feasible else None,
                 check=answer.check if answer.feasible else None,
+                limited_by=answer.governing,
             )
         )
     units: dict[str, str] = {"mass": aircraft.units.mass, "fuel_volume": aircraft.units.fuel_volume}

@@ -478,3 +478,20 @@ def test_regression_a_fuel_answer_did_not_say_how_its_fuel_goes_into_the_tanks()
     assert P.fill_words(twin, None, None).startswith("every tank in proportion")  # the tanks burn together
     one = load_check_inputs(sample("tandem2/solo.toml"))
     assert "fill order" not in P.most_fuel(one.aircraft, one.loading).extra  # one tank: nothing to say
+
+
+def test_regression_a_plan_table_row_reading_none_did_not_say_why(runner):
+    """Each row is plan fuel at that payload: its "limited by" is plan fuel's, in the check's words,
+    in the text and the JSON (a row without fuel named no reason)."""
+    path = sample("trainer4/within.toml")
+    table = json.loads(
+        runner.invoke(app, ["plan", "table", str(path), "--station", "rear", "--steps", "3", "--json"]).stdout
+    )
+    inputs = load_check_inputs(path)
+    for row in table["rows"]:
+        loading = inputs.loading.but(stations={**inputs.loading.stations, "rear": 160.0 + row["payload"]})
+        assert row["limited_by"] == P.most_fuel(inputs.aircraft, loading).governing
+    text = runner.invoke(app, ["plan", "table", str(path), "--station", "rear", "--steps", "3"], env={"COLUMNS": "200"})
+    said = " ".join(text.output.split())
+    assert "Limited by, row by row" in said
+    assert all(" ".join(row["limited_by"].split()) in said for row in table["rows"])

@@ -698,6 +698,18 @@ def render_table(aircraft: Aircraft, rows: list[TableRow], station: str, console
         ],
         cells,
     )
+    # what each row's check found: the limit that stops its fuel, or why no fuel is within limits
+    console.print(Text("Limited by, row by row", style="bold"))
+    for row in rows:
+        if row.limited_by:
+            console.print(f"{fmt(row.payload, units.mass)}: {row.limited_by}", markup=False)
+    console.print(
+        Text(
+            "Each row's most ramp fuel is the figure whose loading passed the full check (plan fuel with that "
+            "weight added shows it); between rows nothing is claimed.",
+            style="dim",
+        )
+    )
     from ..caution import PILOT_CAUTION
 
     console.print(caution_text(PILOT_CAUTION))
