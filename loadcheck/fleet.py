@@ -52,8 +52,14 @@ __all__ = [
     "AircraftSummary",
     "fleet_listing",
     "record_age_days",
+    "RECORD_AGE_DAYS",
     "default_workers",
 ]
+
+RECORD_AGE_DAYS = 1095
+"""Age [days] past which the fleet listing flags an empty-weight record: 36 months, the period
+within which 14 CFR 125.91(b) requires an actual weighing (quoted in AC 120-27E, paragraph 1 b),
+and a common re-weighing period of operators' programmes; a school sets its own with --max-age."""
 
 MAX_CSV_BYTES = 50 * 1024 * 1024
 """Largest loadings CSV read [bytes] (about half a million flights)."""
@@ -943,8 +949,21 @@ class AircraftSummary:
         return {k: getattr(self, k) for k in self.__dataclass_fields__}
 
 
-def fleet_listing(fleet: Fleet, max_age_days: int, today: dt.date | None = None) -> list[AircraftSummary]:
-    """The fleet, aircraft by aircraft, with every problem flagged."""
+def fleet_listing(fleet: Fleet, max_age_days: int | None = None, today: dt.date | None = None) -> list[AircraftSummary]:
+    """The fleet, aircraft by aircraft, with every problem flagged.
+
+    ``max_age_days``: an empty-weight record older than this many days is flagged (at least 1;
+    None, as the command line and the desk give when none is asked for: :data:`RECORD_AGE_DAYS`).
+
+    Raises
+    ------
+    InputError
+        For a ``max_age_days`` below 1.
+    """
+    if max_age_days is None:
+        max_age_days = RECORD_AGE_DAYS
+    if not max_age_days >= 1:
+        raise InputError(Problem("max_age", "must be at least 1 day", value=max_age_days))
     duplicates = fleet.duplicates
     lines = []
     for entry in fleet.entries:

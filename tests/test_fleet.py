@@ -18,6 +18,7 @@ import pytest
 from loadcheck import check_loading, load_aircraft
 from loadcheck.checklog import CheckLog, results_match
 from loadcheck.cli import app
+from loadcheck.errors import InputError
 from loadcheck.fleet import check_flights, load_fleet, read_loadings
 from loadcheck.loading import Loading
 
@@ -685,3 +686,17 @@ def test_the_trip_line_reads_whole_at_80_columns(runner, tmp_path):
     cells = [line.split("│")[3].strip() for line in lines if line.count("│") == 7]
     assert cells[:2] == ["OUT", "(trip A, 2 legs)"]
     assert "leg 1: within" in cells and "leg 2: OUT" in cells
+
+
+def test_regression_the_desk_and_fleet_list_flagged_record_age_differently(runner, tmp_path):
+    """fleet list flagged records older than 1,095 days, the desk older than 365: one default, the
+    library's (36 months: 14 CFR 125.91(b), quoted in AC 120-27E paragraph 1 b)."""
+    from loadcheck.fleet import RECORD_AGE_DAYS, fleet_listing, load_fleet
+
+    assert RECORD_AGE_DAYS == 1095
+    fleet = load_fleet(SAMPLES)
+    assert fleet_listing(fleet) == fleet_listing(fleet, RECORD_AGE_DAYS)
+    help_text = " ".join(runner.invoke(app, ["fleet", "list", "--help"]).output.split())
+    assert f"default: {RECORD_AGE_DAYS:,}" in help_text
+    with pytest.raises(InputError, match="max_age: must be at least 1 day"):
+        fleet_listing(fleet, 0)

@@ -110,7 +110,7 @@ def test_fleet_api_is_the_fleet_listing(reading_desk: dict[str, Any]) -> None:
     from loadcheck.fleet import fleet_listing, load_fleet
 
     answer = _client(reading_desk, "dan").get("/api/fleet").json()
-    expected = [line.to_dict() for line in fleet_listing(load_fleet(reading_desk["fleet"]), 365)]
+    expected = [line.to_dict() for line in fleet_listing(load_fleet(reading_desk["fleet"]))]
     assert answer == expected
 
 

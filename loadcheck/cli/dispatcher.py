@@ -51,8 +51,14 @@ def fleet_list(
         Path, typer.Argument(metavar="FOLDER", help="Folder of aircraft files (sub-folders searched too).")
     ],
     max_age: Annotated[
-        int, typer.Option(min=1, metavar="DAYS", help="Flag empty-weight records older than this many days.")
-    ] = 1095,
+        int | None,
+        typer.Option(
+            min=1,
+            metavar="DAYS",
+            help="Flag empty-weight records older than this many days (default: 1,095, 36 months).",
+            show_default=False,
+        ),
+    ] = None,
     json_out: JsonOpt = False,
 ) -> None:
     """Each aircraft: registration, empty weight, record date, useful load, data fingerprint, problems.

@@ -779,12 +779,13 @@ def create_app(
     # -- the fleet -------------------------------------------------------------------------------
 
     @app.get("/fleet", response_class=HTMLResponse)
-    def fleet_page(request: Request, max_age: int = 365) -> Response:
+    def fleet_page(request: Request, max_age: int | None = None) -> Response:
         _account(request)
-        from ..fleet import fleet_listing
+        from ..fleet import RECORD_AGE_DAYS, fleet_listing
 
         lines = fleet_listing(desk.fleet(), max_age)
-        return page(request, "fleet.html", title="Fleet", lines=lines, max_age=max_age, public=desk.public)
+        shown = RECORD_AGE_DAYS if max_age is None else max_age
+        return page(request, "fleet.html", title="Fleet", lines=lines, max_age=shown, public=desk.public)
 
     # -- the pilot: check a loading (one leg or a trip), plan, record, the load sheet ------------
 
@@ -1207,7 +1208,7 @@ def create_app(
         return JSONResponse(app.openapi())
 
     @api.get("/api/fleet", response_model=None)
-    def api_fleet(request: Request, max_age: int = 365) -> list[JsonObject]:
+    def api_fleet(request: Request, max_age: int | None = None) -> list[JsonObject]:
         """The fleet listing (as ``fleet list --json``).
 
         Each aircraft's record date, useful load, fingerprint and problems.
