@@ -732,6 +732,8 @@ def resolve_loading(
             trip = hours * in_unit(rate, units.fuel_volume)
     else:
         trip = volume_of(burn.trip, taxi)
+    if burn.taxi is None:  # never a silent zero: a leg added on the command line with only its trip, say
+        notes.append("no taxi fuel given; takeoff is checked at the engine-start fuel")
     if burn.trip is None and burn.trip_time is None:
         notes.append("no trip fuel given; landing is checked at the takeoff fuel")
     reserve = None if burn.reserve is None else volume_of(burn.reserve, taxi + trip)

@@ -233,3 +233,15 @@ def test_regression_trip_most_fuel_is_limited_by_the_legs_limits_with_amounts():
     assert stops.exit_code == 0, stops.output
     # heli2/aircraft.toml: max_takeoff_weight = 1620 (the ramp weight defaults to it)
     assert json.loads(stops.stdout)["governing"].startswith("leg 1: maximum ramp weight 1,620.0 lb")
+
+
+def test_regression_a_leg_added_on_the_command_line_took_taxi_zero_without_a_word(runner):
+    """--leg-burn 3:trip=5 on a trip of two legs adds leg 3 with its trip only: its taxi is then 0
+    (as for any burn without taxi), and the check says so beside the leg instead of silently."""
+    path = str(sample("heli2/trip_drop_off.toml"))
+    result = runner.invoke(app, ["check", path, "--leg-burn", "3:trip=5", "--json"])
+    legs = json.loads(result.stdout)["legs"]
+    added = [f["message"] for f in legs[2]["findings"] if f["code"] == "assumption"]
+    assert "no taxi fuel given; takeoff is checked at the engine-start fuel" in added
+    given = [f["message"] for f in legs[1]["findings"] if f["code"] == "assumption"]
+    assert not any("taxi" in note for note in given)  # leg 2 gives its taxi
