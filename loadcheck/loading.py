@@ -155,11 +155,13 @@ class Burn(_Model):
     @model_validator(mode="after")
     def _trip_given_once(self) -> Burn:
         if self.trip is not None and self.trip_time is not None:
-            raise ValueError("give trip or trip_time with rate, not both")
+            raise ValueError("give the trip fuel or a trip time with a fuel rate, not both")
         if self.trip_time is not None and self.rate is None:
-            raise ValueError("trip_time needs rate (fuel per hour)")
+            raise ValueError("a trip time needs a fuel rate (fuel per hour) to give the trip fuel")
         if self.rate is not None and self.trip_time is None:
-            raise ValueError("rate is used only with trip_time")
+            raise ValueError(
+                "a fuel rate is used only with a trip time: give the trip time too, or the trip fuel alone"
+            )
         return self
 
 

@@ -190,7 +190,7 @@ def test_loading_syntax_errors():
         Loading(load={"front": float("nan")})
     with pytest.raises(ValueError, match="expected a mass"):
         Loading(load={"front": "3 usgal"})
-    with pytest.raises(ValueError, match="trip_time needs rate"):
+    with pytest.raises(ValueError, match="a trip time needs a fuel rate"):
         Loading(burn={"trip_time": "1:00"})
 
 

@@ -245,3 +245,17 @@ def test_regression_a_leg_added_on_the_command_line_took_taxi_zero_without_a_wor
     assert "no taxi fuel given; takeoff is checked at the engine-start fuel" in added
     given = [f["message"] for f in legs[1]["findings"] if f["code"] == "assumption"]
     assert not any("taxi" in note for note in given)  # leg 2 gives its taxi
+
+
+@pytest.mark.parametrize(
+    "option, words",
+    [
+        (["--rate", "9"], "--rate 9: a fuel rate is used only with a trip time"),
+        (["--trip-time", "1:30"], "--trip-time 1:30: a trip time needs a fuel rate"),
+    ],
+)
+def test_regression_a_rate_or_trip_time_alone_was_refused_in_the_files_field_names(runner, option, words):
+    """'--rate 9: rate is used only with trip_time' named a file field after the option the user typed."""
+    result = runner.invoke(app, ["check", str(sample("trainer4/within.toml")), *option])
+    assert result.exit_code == 2 and words in " ".join(result.output.split())
+    assert "trip_time" not in result.output

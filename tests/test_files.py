@@ -68,7 +68,7 @@ def _command_line_problem(path: str, **overrides) -> list[str]:
         (TRAINER_WITHIN, {"fuel": {"mains": "99"}}, "--fuel mains=99: 99 usgal is above the tank's usable capacity"),
         (TRAINER_WITHIN, {"burn": {"taxi": "-1"}}, "--taxi -1: must not be negative"),
         (TRAINER_WITHIN, {"burn": {"trip": "99"}}, "--trip 99: taxi and trip fuel (100.2 usgal) exceed"),
-        (TRAINER_WITHIN, {"burn": {"trip_time": "2:00"}}, "--trip-time 2:00: trip_time needs rate"),
+        (TRAINER_WITHIN, {"burn": {"trip_time": "2:00"}}, "--trip-time 2:00: a trip time needs a fuel rate"),
         (TRAINER_WITHIN, {"burn": {"trip_time": "1:00", "rate": "9 gal/h"}}, "--rate '9 gal/h': cannot read"),
         (TRAINER_WITHIN, {"burn": {"reserve": "x"}}, "--reserve x: cannot read 'x'"),
         (TRAINER_WITHIN, {"burn": {"order": ["aux", "mains"]}}, "--order aux,mains: unknown tank(s) 'aux'"),
