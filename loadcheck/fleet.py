@@ -35,7 +35,7 @@ from .aircraft import RESERVED_IDS, Aircraft
 from .check import check_many
 from .errors import FileFormatError, InputError, LoadcheckError, Problem
 from .files import encoding_problem, file_kind, open_regular, parse_aircraft, parse_loading, read_toml
-from .loading import Loading, resolve_loading
+from .loading import Loading, burn_order, resolve_loading
 
 __all__ = [
     "AircraftFile",
@@ -568,9 +568,7 @@ def _csv_cells(
         elif role == "text":
             data[name] = value
         elif role == "order":
-            data["burn"]["order"] = (
-                "together" if value == "together" else [t.strip() for t in re.split(r"[;|/ ]+", value) if t.strip()]
-            )
+            data["burn"]["order"] = burn_order(value, "order", "csv")
         elif role == "burn":
             data["burn"][name] = _typed(value, unit)
         elif aircraft is not None:

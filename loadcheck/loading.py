@@ -46,12 +46,57 @@ __all__ = [
     "leg_field",
     "leg_of_field",
     "resolve_loading",
+    "tank_list",
+    "burn_order",
     "resolve_trip",
     "unknown_station",
 ]
 
 Amount = Annotated[float | str, Field(union_mode="left_to_right")]
 """A number in the aircraft's unit, or a string with a unit (``"20 kg"``)."""
+
+
+_LIST_SEPARATORS = {",": r"\s*,\s*", "csv": r"\s*[;|/]\s*|\s+"}
+
+
+def tank_list(text: str, field: str, separators: Literal[",", "csv"] = ",", *, with_value: bool = True) -> list[str]:
+    """Tank ids from a list as typed (``--order aux,mains``, ``--fill``; in a CSV cell ``aux;mains``,
+    ``aux mains``), every entry as given: an empty one (two separators together, or one at an end)
+    is refused, never dropped.
+
+    Raises
+    ------
+    InputError
+        For an empty entry, naming ``field`` and (``with_value``) the text as typed; an option
+        named with its value (``--order aux,,mains``) is given ``with_value=False``.
+
+    Examples
+    --------
+    >>> tank_list("aux, mains", "--order")
+    ['aux', 'mains']
+    >>> tank_list("aux mains", "order", "csv")
+    ['aux', 'mains']
+    """
+    names = re.split(_LIST_SEPARATORS[separators], text.strip())
+    if not all(names):
+        raise InputError(
+            Problem(
+                field,
+                "the list of tanks has an empty entry (two separators together, or one at an end)",
+                value=text if with_value else None,
+                expected="tank ids separated by commas, e.g. aux,mains"
+                if separators == ","
+                else "tank ids separated by ';', '|', '/' or spaces",
+            )
+        )
+    return names
+
+
+def burn_order(
+    text: str, field: str, separators: Literal[",", "csv"] = ",", *, with_value: bool = True
+) -> Literal["together"] | list[str]:
+    """A burn order as typed: ``together``, or the tanks in the order they are burned (:func:`tank_list`)."""
+    return "together" if text.strip() == "together" else tank_list(text, field, separators, with_value=with_value)
 
 
 def _check_amount(value: Any, kinds: tuple[str, ...]) -> Any:
@@ -407,7 +452,7 @@ def leg_assignments(option: str, values: Sequence[str]) -> dict[int, dict[str, d
             problems.append(Problem(f"{option} {leg}:{name}", "given twice; give it once", value=value))
             continue
         if table == "burn" and name == "order":
-            entries[name] = "together" if amount == "together" else [t.strip() for t in amount.split(",") if t.strip()]
+            entries[name] = burn_order(amount, f"{option} {leg}:{name}")
         else:
             entries[name] = amount
     if problems:

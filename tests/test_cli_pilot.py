@@ -259,3 +259,15 @@ def test_regression_a_rate_or_trip_time_alone_was_refused_in_the_files_field_nam
     result = runner.invoke(app, ["check", str(sample("trainer4/within.toml")), *option])
     assert result.exit_code == 2 and words in " ".join(result.output.split())
     assert "trip_time" not in result.output
+
+
+@pytest.mark.parametrize(
+    "option",
+    [["--order", "aux,,mains"], ["--order", "mains,"], ["--leg-burn", "2:order=aux,,mains"]],
+)
+def test_regression_an_empty_entry_in_a_list_of_tanks_was_dropped(runner, option):
+    """--order aft,,wing was read as aft,wing: an entry typed empty is refused, never dropped."""
+    path = "twin6/within.toml" if option[0] == "--order" else "heli2/trip_drop_off.toml"
+    result = runner.invoke(app, ["check", str(sample(path)), *option])
+    assert result.exit_code == 2 and "the list of tanks has an empty entry" in result.output
+    assert runner.invoke(app, ["check", str(sample("twin6/within.toml")), "--order", "aux, mains"]).exit_code in (0, 1)

@@ -344,15 +344,14 @@ def _inputs(
     admits a trip.
     """
     from ..files import load_check_inputs
+    from ..loading import burn_order
 
     burn: dict[str, str | list[str]] = {}
     for key, value in (("taxi", taxi), ("trip", trip), ("trip_time", trip_time), ("rate", rate), ("reserve", reserve)):
         if value is not None:
             burn[key] = value
     if order is not None:
-        burn["order"] = (
-            "together" if order.strip() == "together" else [t.strip() for t in order.split(",") if t.strip()]
-        )
+        burn["order"] = burn_order(order, f"--order {shlex.quote(order)}", with_value=False)
     inputs = load_check_inputs(
         aircraft,
         loading,

@@ -375,7 +375,11 @@ FillOpt = Annotated[
 
 
 def _fill(fill: str | None) -> list[str] | None:
-    return None if fill is None else [t.strip() for t in fill.split(",") if t.strip()]
+    import shlex
+
+    from ..loading import tank_list
+
+    return None if fill is None else tank_list(fill, f"--fill {shlex.quote(fill)}", with_value=False)
 
 
 def _answer(result: Any, json_out: bool) -> None:

@@ -42,6 +42,7 @@ from .. import __version__
 from ..caution import MECHANIC_CAUTION, PILOT_CAUTION
 from ..display import fmt, unit_label
 from ..errors import InputError, LoadcheckError, Problem
+from ..loading import burn_order
 from ..words import burn_path_summary, condition_words, stretch_text, within_limits_text
 from .form import FORM_FIELDS, refuse_repeated, refuse_unknown
 from .security import MAX_BODY_BYTES, BodyLimit, SignInThrottle, csrf_ok, csrf_token
@@ -422,10 +423,6 @@ def _text(form: FormValues, key: str) -> str:
     return value
 
 
-def _split_order(value: str) -> str | list[str]:
-    return "together" if value.strip() == "together" else [t.strip() for t in value.split(",") if t.strip()]
-
-
 _BURN_KEYS = ("taxi", "trip", "trip_time", "rate", "reserve", "order")
 MAX_LEGS = 12
 """The most legs the check form holds: a guard on the size of the web page, not a rule of trips.
@@ -474,7 +471,11 @@ def _overrides(form: FormValues, aircraft: Aircraft, legs: int | None = None) ->
         load = {s.id: v for s in aircraft.station if (v := read(f"{prefix}load.{s.id}"))}
         names = {s.id: v for s in aircraft.station if (v := read(f"{prefix}names.{s.id}"))}  # a person at a station
         fuel = {t.id: v for t in aircraft.tank if (v := read(f"{prefix}fuel.{t.id}"))}
-        burn = {k: _split_order(v) if k == "order" else v for k in _BURN_KEYS if (v := read(f"{prefix}burn.{k}"))}
+        burn = {
+            k: burn_order(v, f"{prefix}burn.order") if k == "order" else v
+            for k in _BURN_KEYS
+            if (v := read(f"{prefix}burn.{k}"))
+        }
         return load, names, fuel, burn
 
     load, names, fuel, burn = tables("")
