@@ -26,7 +26,7 @@ import numpy as np
 import shapely
 
 from .aircraft import Aircraft, Envelope
-from .balance import moment_items
+from .balance import moment_tables
 from .caution import PILOT_CAUTION
 from .engine import CONDITIONS, WEIGHT_TOLERANCE, Evaluation, envelope_state, evaluate, path_states
 from .engine import _tables as engine_tables
@@ -187,6 +187,7 @@ def _explain(
     once = _Once.all(aircraft, category)
     # many rows: every slice a finding outside an envelope is told on, cut together (as the margins are)
     cuts = _outside_cuts(shapes, found, tables.allowance) if len(loadings) > _ONE_BY_ONE else None
+    tables_of_items = moment_tables(aircraft, stations, fuel, density)
     for i, resolved in enumerate(loadings):
         findings: list[Finding] = []
         conditions = [
@@ -217,7 +218,7 @@ def _explain(
             ok=ok,
             category=resolved.category,
             aircraft=info,
-            items=moment_items(aircraft, resolved),
+            items=tables_of_items[i],
             conditions=conditions,
             burn_path=burn_path,
             findings=findings,
@@ -336,9 +337,44 @@ def _condition(
     margins: Margins,
     cuts: dict[tuple[str, int], dict[int, _Cut | None]] | None = None,
 ) -> Condition:
-    units = aircraft.units
     name = once.name
     weight, moment, lateral = rows.weight[name][i], rows.moment[name][i], rows.lateral[name][i]
+    ok = rows.condition_ok[name][i]
+    if not ok:  # within every limit of this condition (the engine's condition_ok): nothing to say
+        _condition_findings(aircraft, rows, i, shapes, once, findings, cuts, weight, moment, lateral)
+    arm = moment / weight
+    return Condition(
+        condition=name,
+        weight=weight,
+        arm=arm,
+        moment=moment,
+        lateral_arm=lateral / weight if once.has_lateral else None,
+        lateral_moment=lateral if once.has_lateral else None,
+        mac_percent=aircraft.mac.percent(arm) if aircraft.mac else None,
+        fuel=rows.fuel[name][i],
+        fuel_weight=rows.fuel_weight[name][i],
+        max_weight=once.weight_limit,
+        ok=ok,
+        margins=margins,
+    )
+
+
+def _condition_findings(
+    aircraft: Aircraft,
+    rows: _Rows,
+    i: int,
+    shapes: Sequence[EnvelopeShape],
+    once: _Once,
+    findings: list[Finding],
+    cuts: dict[tuple[str, int], dict[int, _Cut | None]] | None,
+    weight: float,
+    moment: float,
+    lateral: float,
+) -> None:
+    """The findings of one condition of row ``i`` that the engine found outside a limit: each
+    weight limit, the minimum flight weight, each envelope."""
+    units = aircraft.units
+    name = once.name
     for (code, limit), good in zip(once.table, rows.weight_ok[name], strict=True):
         if not good[i]:
             findings.append(
@@ -377,21 +413,6 @@ def _condition(
                     aircraft, shape, label, name, *tested, once.severity, allowance=once.allowance, cut=cut
                 )
             )
-    arm = moment / weight
-    return Condition(
-        condition=name,
-        weight=weight,
-        arm=arm,
-        moment=moment,
-        lateral_arm=lateral / weight if once.has_lateral else None,
-        lateral_moment=lateral if once.has_lateral else None,
-        mac_percent=aircraft.mac.percent(arm) if aircraft.mac else None,
-        fuel=rows.fuel[name][i],
-        fuel_weight=rows.fuel_weight[name][i],
-        max_weight=once.weight_limit,
-        ok=rows.condition_ok[name][i],
-        margins=margins,
-    )
 
 
 def _pick(intervals: list[tuple[float, float]], value: float) -> tuple[float, float]:

@@ -58,8 +58,11 @@ def _holds_boolean(value: Any) -> bool:
     pending = [value]
     while pending:
         item = pending.pop()
-        if item is True or item is False:  # bool has no subclasses: isinstance(item, bool)
+        kind = type(item)
+        if kind is bool:  # bool has no subclasses: isinstance(item, bool)
             return True
+        if kind is str or kind is float or kind is int:  # the usual leaves, passed over at once
+            continue
         if isinstance(item, dict):
             pending.extend(item.values())
         elif isinstance(item, (list, tuple)):
