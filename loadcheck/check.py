@@ -28,7 +28,7 @@ import shapely
 from .aircraft import Aircraft, Envelope
 from .balance import moment_tables
 from .caution import PILOT_CAUTION
-from .engine import CONDITIONS, WEIGHT_TOLERANCE, Evaluation, envelope_state, evaluate, path_states
+from .engine import CONDITIONS, WEIGHT_TOLERANCE, Evaluation, envelope_state, evaluate, path_states_many
 from .engine import _tables as engine_tables
 from .envelope import EnvelopeShape, Vary
 from .loading import Loading, ResolvedLoading, require_usable, resolve_loading
@@ -188,14 +188,13 @@ def _explain(
     # many rows: every slice a finding outside an envelope is told on, cut together (as the margins are)
     cuts = _outside_cuts(shapes, found, tables.allowance) if len(loadings) > _ONE_BY_ONE else None
     tables_of_items = moment_tables(aircraft, stations, fuel, density)
+    paths = _path_points(aircraft, loadings, found, category, samples, (stations, fuel, density))
     for i, resolved in enumerate(loadings):
         findings: list[Finding] = []
         conditions = [
             _condition(aircraft, rows, i, shapes, fixed, findings, margins[fixed.name][i], cuts) for fixed in once
         ]
-        burn_path = _burn_path(
-            aircraft, resolved, found, i, conditions, findings, samples, (stations[i], fuel[i], density)
-        )
+        burn_path = _burn_path(aircraft, resolved, found, i, conditions, findings, samples, paths.get(i))
         if not rows.loads_ok[i]:
             findings.extend(_load_findings(aircraft, resolved, found, i))
         landing_fuel = conditions[2].fuel
@@ -830,41 +829,57 @@ def _outside_finding(
 # -- burn path --------------------------------------------------------------------------
 
 
-def _burn_path(
+_PathPoints = tuple[list[float], list[float], dict[float, tuple[float, float, float, float]], int | None]
+"""What the explanation of one loading's burn path reads: the sample marks, the stretch ends,
+the state (weight, moment, lateral moment, fuel on board) at each of them and at the middle of
+the first stretch outside, and the index in the aircraft file of the first envelope that middle
+lies outside (None where the path stays inside)."""
+
+
+def _path_points(
     aircraft: Aircraft,
-    resolved: ResolvedLoading,
+    loadings: Sequence[ResolvedLoading],
     found: Evaluation,
-    i: int,
-    conditions: Sequence[Condition],
-    findings: list[Finding],
+    category: str,
     with_samples: bool,
     arrays: tuple[np.ndarray, np.ndarray, np.ndarray],
-) -> BurnPath:
-    """The burn path explained: samples for drawing, where it leaves, each stretch outside.
+) -> dict[int, _PathPoints]:
+    """The states along the burn path that :func:`_burn_path` tells of, for every loading whose path
+    is explained (it leaves an envelope, or its samples are drawn), found together: one
+    :func:`~loadcheck.engine.path_states_many` call, one containment call per envelope.
 
-    ``arrays``: the loading's stations (S,), fuel (T,) and densities (T,) as the engine had them."""
+    ``arrays``: the stations (N, S), fuel (N, T) and densities (T,) the engine was given; the
+    loadings share one burn order (:func:`check_many` groups them so)."""
     assert found.path_outside is not None
-    stretches = found.path_outside[i]
-    if not stretches and not with_samples:  # inside all the way, nothing to draw
-        return BurnPath(ok=bool(found.burn_path_ok[i]), samples=[])
-    start, end = resolved.taxi, resolved.taxi + resolved.trip
-    takeoff = conditions[1]
-    takeoff_in = bool(found.envelope_ok["takeoff"][i])
-    landing_in = bool(found.envelope_ok["landing"][i])
-    ok = bool(found.burn_path_ok[i])
-    units = aircraft.units
-    lateral = engine_tables(aircraft).has_lateral
-
-    marks = [start + (end - start) * k / _SAMPLES for k in range(_SAMPLES + 1)] if with_samples and end > start else []
-    ends = [b for stretch in stretches for b in stretch]
-    middle = [0.5 * (stretches[0][0] + stretches[0][1])] if stretches else []
-    points = sorted(set(marks + ends)) + middle
-    if points:
-        weights, moments, laterals, quantities = path_states(
-            aircraft, arrays[0], arrays[1], np.array(points), order=resolved.plan.order, density=arrays[2]
+    chosen: list[int] = []
+    plans: list[tuple[list[float], list[float], list[float]]] = []
+    for i, resolved in enumerate(loadings):
+        stretches = found.path_outside[i]
+        if not stretches and not with_samples:  # inside all the way, nothing to draw
+            continue
+        start, end = resolved.taxi, resolved.taxi + resolved.trip
+        marks = (
+            [start + (end - start) * k / _SAMPLES for k in range(_SAMPLES + 1)] if with_samples and end > start else []
         )
-    state = (
-        dict(
+        ends = [b for stretch in stretches for b in stretch]
+        middle = [0.5 * (stretches[0][0] + stretches[0][1])] if stretches else []
+        chosen.append(i)
+        plans.append((marks, ends, sorted(set(marks + ends)) + middle))
+    if not chosen:
+        return {}
+    order = loadings[chosen[0]].plan.order
+    states = path_states_many(
+        aircraft,
+        arrays[0][chosen],
+        arrays[1][chosen],
+        [np.array(points) for _, _, points in plans],
+        order=order,
+        density=arrays[2],
+    )
+    out: dict[int, _PathPoints] = {}
+    middles: list[tuple[int, tuple[float, float, float, float]]] = []
+    for i, (marks, ends, points), (weights, moments, laterals, quantities) in zip(chosen, plans, states, strict=True):
+        state = dict(
             zip(
                 points,
                 zip(
@@ -873,9 +888,50 @@ def _burn_path(
                 strict=True,
             )
         )
-        if points
-        else {}
-    )
+        if found.path_outside[i]:
+            middles.append((i, state[points[-1]]))
+        out[i] = (marks, ends, state, None)
+    if middles:  # the first envelope of the category each first stretch's middle lies outside
+        w, m, lat = (np.array([mid[k] for _, mid in middles]) for k in range(3))
+        left: list[int | None] = [None] * len(middles)
+        for index, envelope in enumerate(aircraft.envelope):
+            if envelope.category != category:
+                continue
+            outside = (~np.asarray(envelope.shape.covers(w, m, lat), dtype=bool)).tolist()
+            left = [index if here is None and away else here for here, away in zip(left, outside, strict=True)]
+        for (i, _), first_left in zip(middles, left, strict=True):
+            marks, ends, state, _ = out[i]
+            out[i] = (marks, ends, state, first_left)
+    return out
+
+
+def _burn_path(
+    aircraft: Aircraft,
+    resolved: ResolvedLoading,
+    found: Evaluation,
+    i: int,
+    conditions: Sequence[Condition],
+    findings: list[Finding],
+    with_samples: bool,
+    points: _PathPoints | None,
+) -> BurnPath:
+    """The burn path explained: samples for drawing, where it leaves, each stretch outside.
+
+    ``points``: the loading's states along its path (:func:`_path_points`; None where its path
+    is inside all the way and not drawn)."""
+    assert found.path_outside is not None
+    stretches = found.path_outside[i]
+    if points is None:  # inside all the way, nothing to draw
+        return BurnPath(ok=bool(found.burn_path_ok[i]), samples=[])
+    marks, ends, state, left = points
+    start, end = resolved.taxi, resolved.taxi + resolved.trip
+    takeoff = conditions[1]
+    takeoff_in = bool(found.envelope_ok["takeoff"][i])
+    landing_in = bool(found.envelope_ok["landing"][i])
+    ok = bool(found.burn_path_ok[i])
+    units = aircraft.units
+    lateral = engine_tables(aircraft).has_lateral
+
     top = takeoff.weight
     samples = (
         [
@@ -893,15 +949,6 @@ def _burn_path(
         for b, e in stretches
     ]
     first = state[stretches[0][0]]
-    w_mid, m_mid, l_mid, _ = state[middle[0]]
-    left = next(
-        (
-            i
-            for i, e in enumerate(aircraft.envelope)
-            if e.category == resolved.category and not e.shape.covers(w_mid, m_mid, l_mid)
-        ),
-        None,
-    )
     payload_weight = float(found.weight["zero_fuel"][i])
     leaves = LeavePoint(
         fuel_burned=takeoff.weight - first[0],
