@@ -55,18 +55,20 @@ def _booleans_in_numbers(annotation: Any, value: Any) -> bool:
 def _holds_boolean(value: Any) -> bool:
     """True where ``value`` holds a boolean anywhere (in a table or a list, at any depth): a
     quick look, with no field types, that lets most data skip :func:`_booleans_in_numbers`."""
+    if value is True or value is False:
+        return True
     pending = [value]
     while pending:
         item = pending.pop()
-        kind = type(item)
-        if kind is bool:  # bool has no subclasses: isinstance(item, bool)
-            return True
-        if kind is str or kind is float or kind is int:  # the usual leaves, passed over at once
-            continue
-        if isinstance(item, dict):
-            pending.extend(item.values())
-        elif isinstance(item, (list, tuple)):
-            pending.extend(item)
+        values = item.values() if isinstance(item, dict) else item if isinstance(item, (list, tuple)) else ()
+        for inner in values:
+            kind = type(inner)
+            if kind is str or kind is float or kind is int:  # the usual leaves, passed over at once
+                continue
+            if kind is bool:  # bool has no subclasses: isinstance(inner, bool)
+                return True
+            if isinstance(inner, (dict, list, tuple)):
+                pending.append(inner)
     return False
 
 

@@ -27,7 +27,7 @@ import time
 from collections import deque
 from collections.abc import Iterable, Iterator
 from dataclasses import dataclass, field
-from functools import cached_property
+from functools import cached_property, lru_cache
 from pathlib import Path
 from typing import Any
 
@@ -348,12 +348,13 @@ def _stream_rows(
     count = 0
     pending: list[_RawRow] = []
     roles = _roles(columns, unknown)
+    fixed = _fixed_columns(columns)
     try:
         for record in reader:
             if not any(cell.strip() for cell in record):
                 continue
             count += 1
-            raw = _csv_cells(path, reader.line_num, columns, record, fleet, unknown, roles)
+            raw = _csv_cells(path, reader.line_num, columns, record, fleet, unknown, roles, fixed)
             if pending and raw.trip is not None and raw.trip == pending[0].trip:
                 pending.append(raw)
                 continue
@@ -511,6 +512,11 @@ def _roles(columns: list[tuple[str, str | None]], unknown: set[str]) -> list[tup
     return roles
 
 
+def _fixed_columns(columns: list[tuple[str, str | None]]) -> list[tuple[int, str]]:
+    """The place and name of each column that is not a loading value (:data:`_NOT_AMOUNTS`)."""
+    return [(index, name) for index, (name, _) in enumerate(columns) if name in _NOT_AMOUNTS]
+
+
 def _csv_cells(
     path: Path,
     line: int,
@@ -519,13 +525,19 @@ def _csv_cells(
     fleet: Fleet,
     unknown: set[str],
     roles: list[tuple[int, str, str | None, str]] | None = None,
+    fixed: list[tuple[int, str]] | None = None,
 ) -> _RawRow:
+    """One CSV row read into loading-file values; ``roles`` (:func:`_roles`) and ``fixed``
+    (:func:`_fixed_columns`) are the header's, found once for the file where given."""
     where = f"{path}:{line}"
     problems: list[str] = []
     if len(record) != len(columns):
         problems.append(f"{where}: {len(record)} cells where the header has {len(columns)} columns")
     cells = [cell.strip() for cell in record[: len(columns)]]  # a row of other length: said above
-    given = {name: cells[index] for index, (name, _) in enumerate(columns[: len(cells)]) if name in _NOT_AMOUNTS}
+    count = len(cells)
+    given = {
+        name: cells[index] for index, name in (fixed if fixed is not None else _fixed_columns(columns)) if index < count
+    }
     registration = given.get("registration") or None
     reference = given.get("reference") or None
     pilot = given.get("pilot") or None
@@ -552,7 +564,7 @@ def _csv_cells(
         else:
             leg = int(leg_text)
     for index, name, unit, role in roles if roles is not None else _roles(columns, unknown):
-        if index >= len(cells):
+        if index >= count:
             break
         value = cells[index]
         if not value:
@@ -583,6 +595,7 @@ def _csv_cells(
 _DECIMAL = re.compile(r"[0-9]+(?:\.[0-9]*)?|\.[0-9]+")
 
 
+@lru_cache(maxsize=4096)  # a day repeats its amounts; the answer is a number or a text (immutable)
 def _typed(value: str, unit: str | None) -> float | str:
     """A cell's amount as a loading file holds it: a plain decimal number (``190``, ``1.2``) as a
     number, as in a TOML file, so that the check log stores the same inputs whatever the source;
