@@ -115,6 +115,16 @@ def _seal(
     return hashlib.sha256(json.dumps(fields, separators=(",", ":")).encode("utf-8")).hexdigest()
 
 
+def _stored_json(data: Any, default: Any = None) -> str:
+    """A record's inputs or result as the JSON text stored: compact, written by orjson (about ten
+    times quicker than the json module on a check's result; the same numbers, read back by
+    ``json.loads``). The seal is over the text as stored, so how it was written does not matter
+    to verification; NaN and infinities never reach a record (refused at the boundary)."""
+    import orjson
+
+    return orjson.dumps(data, default=default).decode()
+
+
 _SCHEMA = """
 CREATE TABLE IF NOT EXISTS aircraft_data (
     fingerprint TEXT PRIMARY KEY,
@@ -287,8 +297,8 @@ class CheckLog:
                     result.get("category"),
                     int(bool(result.get("ok"))),
                     fingerprint,
-                    json.dumps(record["inputs"], separators=(",", ":"), default=str),
-                    json.dumps(result, separators=(",", ":")),
+                    _stored_json(record["inputs"], default=str),
+                    _stored_json(result),
                     record.get("version", ""),
                 )
                 cursor = self._db.execute(
