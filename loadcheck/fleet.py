@@ -330,7 +330,7 @@ def _read_header(
     ]
     file_problems = [
         f"{path}: unknown column {name!r}: not a station or tank of any fleet aircraft, nor one of "
-        f"{', '.join(RESERVED_COLUMNS)}; rows with a value in it are refused"
+        f"{', '.join((*RESERVED_COLUMNS, TRIP_COLUMN, LEG_COLUMN))}; rows with a value in it are refused"
         for name in unknown
     ]
     return columns, file_problems, set(unknown)

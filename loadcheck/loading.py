@@ -673,8 +673,7 @@ def resolve_loading(
             problems.append(
                 Problem(
                     f"fuel.{name}",
-                    f"{volume:g} {units.fuel_volume} is above the tank's usable capacity",
-                    value=amount,
+                    _over_capacity(amount, quantity, volume, units.fuel_volume),
                     expected=f"at most {tank.usable:g} {units.fuel_volume}",
                 )
             )
@@ -987,6 +986,18 @@ def unknown_station(field: str, name: str, aircraft: Aircraft) -> Problem:
         f"unknown station {name!r}{spelling_hint(name, aircraft.station_by_id)}",
         expected=_known(aircraft.station_by_id),
     )
+
+
+def _over_capacity(amount: float | str, quantity: Quantity, volume: float, volume_unit: str) -> str:
+    """Why a tank's fuel at engine start is refused, with the amount said once, as given: a
+    number in the fuel volume unit (``60 usgal is above ...``), a quantity in that unit as
+    typed (``60 usgal``), another unit as typed with its volume (``300 lb is 50 usgal, above ...``)."""
+    if quantity.unit is None:
+        return f"{quantity.value:.15g} {volume_unit} is above the tank's usable capacity"
+    typed = str(amount).strip()
+    if quantity.unit == volume_unit:
+        return f"{typed} is above the tank's usable capacity"
+    return f"{typed} is {volume:.15g} {volume_unit}, above the tank's usable capacity"
 
 
 def _to_volume(quantity: Quantity, density: float, mass_unit: str, volume_unit: str) -> float:

@@ -685,3 +685,24 @@ def test_the_trip_line_reads_whole_at_80_columns(runner, tmp_path):
     cells = [line.split("│")[3].strip() for line in lines if line.count("│") == 7]
     assert cells[:2] == ["OUT", "(trip A, 2 legs)"]
     assert "leg 1: within" in cells and "leg 2: OUT" in cells
+
+
+def test_an_unknown_column_names_every_column_the_csv_reads(runner, records, tmp_path):
+    # the list of the CSV's own columns left out trip_id and leg, which it reads (docs/fleet.md, "Trips")
+    day = tmp_path / "day.csv"
+    day.write_text("registration,reference,bag9\nDEMO-4T,R1,\n")
+    result = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(day), "--no-log"])
+    assert result.exit_code == 2 and "unknown column 'bag9'" in result.output
+    listed = result.output.split("nor one of ", 1)[1].split(";", 1)[0].replace("\n", " ")
+    assert {"registration", "reference", "pilot", "taxi", "trip", "order", "trip_id", "leg"} <= {
+        name.strip() for name in listed.split(",")
+    }
+
+
+def test_a_fleet_refusal_over_capacity_says_the_amount_once(runner, records):
+    # line 28 of the sample day asks 60 US gal of a 44 US gal tank; the refusal said "60 usgal ... got 60.0"
+    result = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(DAY), "--json", "--no-log"])
+    refused = next(line for line in _json_lines(result.stdout) if line["line"] == 28)
+    assert refused["input_error"] == [
+        f"{DAY}:28: fuel.mains: 60 usgal is above the tank's usable capacity; expected at most 44 usgal"
+    ]
