@@ -569,7 +569,18 @@ def _csv_cells(
         value = cells[index]
         if not value:
             continue
-        if role == "unknown":
+        if role == "aircraft":  # the usual cell: a station's weight or a tank's fuel
+            if aircraft is None:
+                continue
+            table = _placement(aircraft).get(name)
+            if table is not None:
+                data[table][name] = _typed(value, unit)
+            else:
+                problems.append(
+                    f"{where}: column {name!r} is not a station or tank of {registration} "
+                    f"(its stations: {', '.join(aircraft.station_by_id)}; tanks: {', '.join(aircraft.tank_by_id)})"
+                )
+        elif role == "unknown":
             problems.append(f"{where}: value {value!r} in unknown column {name!r}")
         elif role == "text":
             data[name] = value
@@ -579,17 +590,23 @@ def _csv_cells(
             )
         elif role == "burn":
             data["burn"][name] = _typed(value, unit)
-        elif aircraft is not None:
-            if name in aircraft.station_by_id:
-                data["load"][name] = _typed(value, unit)
-            elif name in aircraft.tank_by_id:
-                data["fuel"][name] = _typed(value, unit)
-            else:
-                problems.append(
-                    f"{where}: column {name!r} is not a station or tank of {registration} "
-                    f"(its stations: {', '.join(aircraft.station_by_id)}; tanks: {', '.join(aircraft.tank_by_id)})"
-                )
     return _RawRow(where, line, str(path), registration, reference, pilot, trip, data, problems, leg)
+
+
+def _placement(aircraft: Aircraft) -> dict[str, str]:
+    """Where a cell of each of the aircraft's station and tank columns goes in a loading file
+    (``load`` or ``fuel``; a station first, as the ids are read), found once for an aircraft."""
+    kept = _PLACEMENT.get(id(aircraft))
+    if kept is not None and kept[0] is aircraft:
+        return kept[1]
+    placement = dict.fromkeys(aircraft.tank_by_id, "fuel") | dict.fromkeys(aircraft.station_by_id, "load")
+    if len(_PLACEMENT) >= 64:
+        _PLACEMENT.clear()
+    _PLACEMENT[id(aircraft)] = (aircraft, placement)
+    return placement
+
+
+_PLACEMENT: dict[int, tuple[Aircraft, dict[str, str]]] = {}
 
 
 _DECIMAL = re.compile(r"[0-9]+(?:\.[0-9]*)?|\.[0-9]+")

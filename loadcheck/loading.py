@@ -592,11 +592,13 @@ def resolve_loading(
     problems: list[Problem] = []
     unknown: list[Problem] = []
 
-    chosen = category or loading.category or aircraft.categories[0]
-    try:
-        aircraft.category(chosen)
-    except UnknownNameError as error:
-        unknown += error.problems
+    categories = aircraft.categories
+    chosen = category or loading.category or categories[0]
+    if chosen not in categories:
+        try:
+            aircraft.category(chosen)  # the refusal, with the categories there are
+        except UnknownNameError as error:
+            unknown += error.problems
 
     stations: dict[str, float] = {}
     for name, amount in loading.load.items():
