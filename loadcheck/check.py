@@ -189,11 +189,24 @@ def _explain(
     cuts = _outside_cuts(shapes, found, tables.allowance) if len(loadings) > _ONE_BY_ONE else None
     tables_of_items = moment_tables(aircraft, stations, fuel, density)
     paths = _path_points(aircraft, loadings, found, category, samples, (stations, fuel, density))
+    by_row = list(zip(*(_conditions(aircraft, rows, fixed, margins[fixed.name]) for fixed in once), strict=True))
     for i, resolved in enumerate(loadings):
         findings: list[Finding] = []
-        conditions = [
-            _condition(aircraft, rows, i, shapes, fixed, findings, margins[fixed.name][i], cuts) for fixed in once
-        ]
+        conditions = list(by_row[i])
+        for fixed, condition in zip(once, conditions, strict=True):
+            if not condition.ok:  # outside a limit of this condition (the engine's condition_ok): say which
+                _condition_findings(
+                    aircraft,
+                    rows,
+                    i,
+                    shapes,
+                    fixed,
+                    findings,
+                    cuts,
+                    condition.weight,
+                    condition.moment,
+                    rows.lateral[fixed.name][i],
+                )
         burn_path = _burn_path(aircraft, resolved, found, i, conditions, findings, samples, paths.get(i))
         if not rows.loads_ok[i]:
             findings.extend(_load_findings(aircraft, resolved, found, i))
@@ -326,36 +339,52 @@ _ONCE: dict[tuple[int, str], tuple[Aircraft, list[_Once]]] = {}
 _ONCE_KEPT = 64
 
 
-def _condition(
-    aircraft: Aircraft,
-    rows: _Rows,
-    i: int,
-    shapes: Sequence[EnvelopeShape],
-    once: _Once,
-    findings: list[Finding],
-    margins: Margins,
-    cuts: dict[tuple[str, int], dict[int, _Cut | None]] | None = None,
-) -> Condition:
+def _conditions(aircraft: Aircraft, rows: _Rows, once: _Once, margins: Sequence[Margins]) -> list[Condition]:
+    """One condition of every row: its weight, CG, moment, fuel, the engine's verdict and its margins.
+
+    The findings of a condition outside a limit are :func:`_condition_findings`'."""
     name = once.name
-    weight, moment, lateral = rows.weight[name][i], rows.moment[name][i], rows.lateral[name][i]
-    ok = rows.condition_ok[name][i]
-    if not ok:  # within every limit of this condition (the engine's condition_ok): nothing to say
-        _condition_findings(aircraft, rows, i, shapes, once, findings, cuts, weight, moment, lateral)
-    arm = moment / weight
-    return Condition(
-        condition=name,
-        weight=weight,
-        arm=arm,
-        moment=moment,
-        lateral_arm=lateral / weight if once.has_lateral else None,
-        lateral_moment=lateral if once.has_lateral else None,
-        mac_percent=aircraft.mac.percent(arm) if aircraft.mac else None,
-        fuel=rows.fuel[name][i],
-        fuel_weight=rows.fuel_weight[name][i],
-        max_weight=once.weight_limit,
-        ok=ok,
-        margins=margins,
+    weights, moments, laterals = rows.weight[name], rows.moment[name], rows.lateral[name]
+    arms = [moment / weight for moment, weight in zip(moments, weights, strict=True)]
+    n = len(arms)
+    lateral_arms = (
+        [lateral / weight for lateral, weight in zip(laterals, weights, strict=True)]
+        if once.has_lateral
+        else [None] * n
     )
+    mac = aircraft.mac
+    percent = list(map(mac.percent, arms)) if mac else [None] * n
+    lateral_moments = laterals if once.has_lateral else [None] * n
+    limit = once.weight_limit
+    return [
+        Condition(
+            condition=name,
+            weight=weight,
+            arm=arm,
+            moment=moment,
+            lateral_arm=lateral_arm,
+            lateral_moment=lateral_moment,
+            mac_percent=mac_percent,
+            fuel=fuel,
+            fuel_weight=fuel_weight,
+            max_weight=limit,
+            ok=ok,
+            margins=margin,
+        )
+        for weight, arm, moment, lateral_arm, lateral_moment, mac_percent, fuel, fuel_weight, ok, margin in zip(
+            weights,
+            arms,
+            moments,
+            lateral_arms,
+            lateral_moments,
+            percent,
+            rows.fuel[name],
+            rows.fuel_weight[name],
+            rows.condition_ok[name],
+            margins,
+            strict=True,
+        )
+    ]
 
 
 def _condition_findings(
@@ -556,18 +585,21 @@ def _margins(
                     keep(name, "weight", _room_to(shape, k, top, allowance) - found.weight[name])
     out: dict[str, list[Margins]] = {}
     for name in CONDITIONS:
-        columns = [values[name][key].tolist() for key in _MARGIN_KEYS]
-        out[name] = [  # NaN (no envelope gives that limit) as None
-            Margins(
-                forward=f if f == f else None,
-                aft=a if a == a else None,
-                left=lt if lt == lt else None,
-                right=r if r == r else None,
-                weight=w if w == w else None,
-            )
-            for f, a, lt, r, w in zip(*columns, strict=True)
+        columns = [_none_for_nan(values[name][key]) for key in _MARGIN_KEYS]
+        out[name] = [
+            Margins(forward=f, aft=a, left=lt, right=r, weight=w) for f, a, lt, r, w in zip(*columns, strict=True)
         ]
     return out
+
+
+def _none_for_nan(column: np.ndarray) -> list[float | None]:
+    """A column of margins as Python numbers, NaN (no envelope gives that limit) as None."""
+    missing = np.isnan(column)
+    if not missing.any():
+        return column.tolist()  # type: ignore[no-any-return]
+    if missing.all():
+        return [None] * len(column)
+    return np.where(missing, np.array(None, dtype=object), column).tolist()  # type: ignore[no-any-return]
 
 
 def _slice_lines(
