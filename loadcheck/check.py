@@ -783,9 +783,10 @@ def _outside_finding(
     """
     units = aircraft.units
     arm, lateral = moment / weight, lateral_moment / weight
-    value = lateral if shape.is_lateral else arm
-    sides = ("left", "right") if shape.is_lateral else ("forward", "aft")
-    vary: Vary = "lateral" if shape.is_lateral else "arm"
+    is_lateral = shape.is_lateral
+    value = lateral if is_lateral else arm
+    sides = ("left", "right") if is_lateral else ("forward", "aft")
+    vary: Vary = "lateral" if is_lateral else "arm"
 
     def across(at_weight: float) -> tuple[str, float, float] | None:
         if cut is False:
@@ -836,13 +837,11 @@ def _outside_finding(
             side, excess, limit = found
             unit = units.arm
             if side == "outside":
-                text = envelope_gap_message(name, label, shape.is_lateral, value, limit, weight, units.arm, units.mass)
+                text = envelope_gap_message(name, label, is_lateral, value, limit, weight, units.arm, units.mass)
             else:
-                text = envelope_side_message(
-                    name, label, shape.is_lateral, side, value, limit, weight, units.arm, units.mass
-                )
+                text = envelope_side_message(name, label, is_lateral, side, value, limit, weight, units.arm, units.mass)
         else:
-            text = envelope_point_message(name, label, shape.is_lateral, weight, value, units.arm, units.mass)
+            text = envelope_point_message(name, label, is_lateral, weight, value, units.arm, units.mass)
     if severity == "warning":
         text += ZERO_FUEL_WARNING
     return Finding(

@@ -61,15 +61,16 @@ def _holds_boolean(value: Any) -> bool:
     while pending:
         item = pending.pop()
         values = item.values() if isinstance(item, dict) else item if isinstance(item, (list, tuple)) else ()
-        for inner in values:
-            kind = type(inner)
-            if kind is str or kind is float or kind is int:  # the usual leaves, passed over at once
-                continue
-            if kind is bool:  # bool has no subclasses: isinstance(inner, bool)
-                return True
-            if isinstance(inner, (dict, list, tuple)):
-                pending.append(inner)
+        kinds = set(map(type, values))  # bool has no subclasses: its type is bool
+        if bool in kinds:
+            return True
+        if kinds - _LEAVES:  # a table or a list inside (or any other value: looked into where it is one)
+            pending.extend(inner for inner in values if isinstance(inner, (dict, list, tuple)))
     return False
+
+
+_LEAVES = frozenset({str, float, int, type(None)})
+"""The usual values of a table, passed over at once by :func:`_holds_boolean`."""
 
 
 class FileModel(BaseModel):
