@@ -344,40 +344,28 @@ def _conditions(aircraft: Aircraft, rows: _Rows, once: _Once, margins: Sequence[
 
     The findings of a condition outside a limit are :func:`_condition_findings`'."""
     name = once.name
-    weights, moments, laterals = rows.weight[name], rows.moment[name], rows.lateral[name]
-    arms = [moment / weight for moment, weight in zip(moments, weights, strict=True)]
-    n = len(arms)
-    lateral_arms = (
-        [lateral / weight for lateral, weight in zip(laterals, weights, strict=True)]
-        if once.has_lateral
-        else [None] * n
-    )
+    has_lateral = once.has_lateral
     mac = aircraft.mac
-    percent = list(map(mac.percent, arms)) if mac else [None] * n
-    lateral_moments = laterals if once.has_lateral else [None] * n
     limit = once.weight_limit
     return [
         Condition(
             condition=name,
             weight=weight,
-            arm=arm,
+            arm=(arm := moment / weight),
             moment=moment,
-            lateral_arm=lateral_arm,
-            lateral_moment=lateral_moment,
-            mac_percent=mac_percent,
+            lateral_arm=lateral / weight if has_lateral else None,
+            lateral_moment=lateral if has_lateral else None,
+            mac_percent=mac.percent(arm) if mac else None,
             fuel=fuel,
             fuel_weight=fuel_weight,
             max_weight=limit,
             ok=ok,
             margins=margin,
         )
-        for weight, arm, moment, lateral_arm, lateral_moment, mac_percent, fuel, fuel_weight, ok, margin in zip(
-            weights,
-            arms,
-            moments,
-            lateral_arms,
-            lateral_moments,
-            percent,
+        for weight, moment, lateral, fuel, fuel_weight, ok, margin in zip(
+            rows.weight[name],
+            rows.moment[name],
+            rows.lateral[name],
             rows.fuel[name],
             rows.fuel_weight[name],
             rows.condition_ok[name],

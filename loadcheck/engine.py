@@ -957,9 +957,11 @@ def path_states_many(
     stations = np.asarray(stations, dtype=float)
     fuel = np.asarray(fuel, dtype=float)
     counts = [len(points) for points in burned]
-    flat = np.concatenate(burned).astype(float) if burned else np.empty(0)
-    owner = np.repeat(np.arange(len(counts)), counts)
-    q = tank_quantities(fuel[owner], flat[:, None], order_index)[:, 0, :]  # (P, T), every point of every loading
+    if len(burned) == 1:  # one loading (the single check): its points as one row, (K, T)
+        q = tank_quantities(fuel, np.asarray(burned[0], dtype=float)[None, :], order_index)[0]
+    else:  # every point of every loading, one row each, (P, T)
+        flat = np.concatenate(burned).astype(float) if burned else np.empty(0)
+        q = tank_quantities(fuel[np.repeat(np.arange(len(counts)), counts)], flat[:, None], order_index)[:, 0, :]
     mass = q * rho
     fuel_weight = mass.sum(axis=1)
     fuel_moment = (mass * _tank_arms(aircraft, q)).sum(axis=1)
