@@ -707,12 +707,13 @@ def resolve_loading(
 
     plan = BurnPlan(fuel, order)
     burn = loading.burn
-    given = [(name, getattr(burn, name)) for name in ("taxi", "trip", "rate", "reserve")]
-    masses = [name for name, amount in given if amount is not None and _is_mass(amount, name == "rate")]
-    if masses and not aircraft.tank:
-        raise InputError(
-            [Problem(f"burn.{name}", "a fuel mass cannot be burned: the aircraft has no tanks") for name in masses]
-        )
+    if not aircraft.tank:  # a fuel mass needs a tank's density to be burned
+        given = [(name, getattr(burn, name)) for name in ("taxi", "trip", "rate", "reserve")]
+        masses = [name for name, amount in given if amount is not None and _is_mass(amount, name == "rate")]
+        if masses:
+            raise InputError(
+                [Problem(f"burn.{name}", "a fuel mass cannot be burned: the aircraft has no tanks") for name in masses]
+            )
 
     def volume_of(amount: float | str | None, after: float = 0.0) -> float:
         """A fuel amount as the volume burned from ``after`` on [fuel volume unit]."""
