@@ -752,10 +752,10 @@ class Flight:
             head |= {"trip_id": self.row.trip, "lines": list(self.row.lines)}
         if self.result is None:
             return {**head, "ok": False, "input_error": self.problems}
-        body = dict(self.result)
+        head.update(self.result)  # a key of both keeps its place and takes the result's value, as {**head, **result}
         if self.record_id is not None:
-            body["record"] = self.record_id
-        return {**head, **body}
+            head["record"] = self.record_id
+        return head
 
 
 def _brief(result: dict[str, Any]) -> dict[str, Any]:
