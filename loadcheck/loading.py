@@ -16,6 +16,7 @@ that burns exactly that mass in the burn order, tank by tank at each tank's dens
 
 from __future__ import annotations
 
+import math
 import re
 import unicodedata
 from collections.abc import Mapping, Sequence
@@ -56,6 +57,8 @@ Amount = Annotated[float | str, Field(union_mode="left_to_right")]
 
 def _check_amount(value: Any, kinds: tuple[str, ...]) -> Any:
     """Syntax check of an amount: a non-negative finite number with a unit of ``kinds``."""
+    if type(value) is float and 0.0 <= value < math.inf:  # a plain number that holds: the usual amount
+        return value
     quantity = parse_quantity(value)
     if quantity.value < 0:
         raise ValueError("must not be negative")
@@ -604,6 +607,9 @@ def resolve_loading(
     for name, amount in loading.load.items():
         if name not in aircraft.station_by_id:
             unknown.append(unknown_station(f"load.{name}", name, aircraft))
+            continue
+        if type(amount) is float and math.isfinite(amount):  # a plain number: already in the mass unit
+            stations[name] = amount
             continue
         quantity = parse_quantity(amount)
         stations[name] = quantity.value if quantity.unit is None else convert(quantity.value, quantity.unit, units.mass)
