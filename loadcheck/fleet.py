@@ -277,7 +277,7 @@ def _scattered_trips(path: Path, trip_at: int) -> dict[str, list[int]]:
         try:
             next(reader, None)
             for record in reader:
-                if not any(cell.strip() for cell in record):
+                if not "".join(record).strip():  # a row of empty cells (or of spaces) is no flight
                     continue
                 trip = record[trip_at].strip() if trip_at < len(record) else ""
                 if trip and trip != current:
@@ -351,7 +351,7 @@ def _stream_rows(
     fixed = _fixed_columns(columns)
     try:
         for record in reader:
-            if not any(cell.strip() for cell in record):
+            if not "".join(record).strip():  # a row of empty cells (or of spaces) is no flight
                 continue
             count += 1
             raw = _csv_cells(path, reader.line_num, columns, record, fleet, unknown, roles, fixed)
