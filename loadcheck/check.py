@@ -223,8 +223,9 @@ def _explain(
                     limit=resolved.reserve,
                 )
             )
-        findings.extend(Finding(code="assumption", severity="warning", message=note) for note in resolved.notes)
-        ok = not any(f.severity == "limit" for f in findings)
+        if resolved.notes:
+            findings.extend(Finding(code="assumption", severity="warning", message=note) for note in resolved.notes)
+        ok = not findings or not any(f.severity == "limit" for f in findings)
         assert ok == rows.ok[i], "the explanation must carry the engine's verdict"
         yield CheckResult(
             ok=ok,
