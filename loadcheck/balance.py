@@ -10,11 +10,13 @@ lateral arms right of the centreline, looking forward, in the aircraft's arm uni
 
 from __future__ import annotations
 
+import numpy as np
+
 from .aircraft import Aircraft
 from .loading import ResolvedLoading
 from .results import Item
 
-__all__ = ["moment_items"]
+__all__ = ["moment_items", "moment_tables"]
 
 
 def _item(
@@ -43,44 +45,55 @@ def _item(
 def moment_items(aircraft: Aircraft, loading: ResolvedLoading) -> list[Item]:
     """The moment table at engine start: empty weight, each loaded station, each tank.
 
-    Lateral arms are given where the aircraft limits the lateral CG.
+    Lateral arms are given where the aircraft limits the lateral CG. This is
+    :func:`moment_tables` of one loading.
+    """
+    stations = np.array([[loading.stations.get(s.id, 0.0) for s in aircraft.station]], dtype=float)
+    fuel = np.array([[loading.fuel[t.id] for t in aircraft.tank]], dtype=float)
+    density = np.array([loading.density[t.id] for t in aircraft.tank], dtype=float)
+    return moment_tables(aircraft, stations.reshape(1, -1), fuel.reshape(1, -1), density)[0]
+
+
+def moment_tables(aircraft: Aircraft, stations: np.ndarray, fuel: np.ndarray, density: np.ndarray) -> list[list[Item]]:
+    """The moment table of each of N loadings at engine start (:func:`moment_items`'s lines).
+
+    Parameters
+    ----------
+    aircraft : the aircraft
+    stations : (N, S) weight per station, ``aircraft.station`` order [mass unit]
+    fuel : (N, T) quantity per tank at engine start, ``aircraft.tank`` order [fuel volume unit]
+    density : (T,) fuel density per tank [mass unit per fuel volume unit]
+
+    Returns
+    -------
+    list of list of Item
+        Per loading: the empty weight, each station with a weight other than zero, each
+        tank holding fuel (its weight = volume * density, its arm at that volume).
     """
     lateral = aircraft.has_lateral
     empty = aircraft.empty
-    items = [
-        _item(
-            "empty",
-            "Basic empty weight",
-            "empty",
-            empty.weight,
-            empty.arm,
-            (empty.lateral_arm or 0.0) if lateral else None,
-        )
-    ]
-    for station in aircraft.station:
-        if loading.stations.get(station.id, 0.0) != 0.0:
-            items.append(
-                _item(
-                    station.id,
-                    station.name,
-                    station.kind,
-                    loading.stations[station.id],
-                    station.arm,
-                    (station.lateral_arm or 0.0) if lateral else None,
-                )
-            )
-    for tank in aircraft.tank:
-        volume = loading.fuel[tank.id]
-        if volume > 0:
-            items.append(
-                _item(
-                    tank.id,
-                    tank.name,
-                    "fuel",
-                    volume * loading.density[tank.id],
-                    float(tank.arm_at(volume)),
-                    (tank.lateral_arm or 0.0) if lateral else None,
-                    volume,
-                )
-            )
-    return items
+    first = _item(
+        "empty", "Basic empty weight", "empty", empty.weight, empty.arm, (empty.lateral_arm or 0.0) if lateral else None
+    )
+    fixed = [(s.id, s.name, s.kind, s.arm, (s.lateral_arm or 0.0) if lateral else None) for s in aircraft.station]
+    tanks = [(t.id, t.name, (t.lateral_arm or 0.0) if lateral else None) for t in aircraft.tank]
+    n = len(stations)
+    weights = stations.tolist()
+    volumes = fuel.tolist()
+    fuel_weights = (fuel * density).tolist() if tanks else [[] for _ in range(n)]
+    # each tank's arm at each loading's volume, one call per tank (Tank.arm_at)
+    columns = [np.asarray(t.arm_at(fuel[:, j]), dtype=float).tolist() for j, t in enumerate(aircraft.tank)]
+    arms = [list(row) for row in zip(*columns, strict=True)] if columns else [[] for _ in range(n)]
+    out = []
+    for i in range(n):
+        items = [first]
+        for (id_, name, kind, arm, lateral_arm), weight in zip(fixed, weights[i], strict=True):
+            if weight != 0.0:
+                items.append(_item(id_, name, kind, weight, arm, lateral_arm))
+        for (id_, name, lateral_arm), volume, weight, arm in zip(
+            tanks, volumes[i], fuel_weights[i], arms[i], strict=True
+        ):
+            if volume > 0:
+                items.append(_item(id_, name, "fuel", weight, arm, lateral_arm, volume))
+        out.append(items)
+    return out

@@ -26,9 +26,9 @@ import numpy as np
 import shapely
 
 from .aircraft import Aircraft, Envelope
-from .balance import moment_items
+from .balance import moment_tables
 from .caution import PILOT_CAUTION
-from .engine import CONDITIONS, WEIGHT_TOLERANCE, Evaluation, envelope_state, evaluate, path_states
+from .engine import CONDITIONS, WEIGHT_TOLERANCE, Evaluation, envelope_state, evaluate, path_states_many
 from .engine import _tables as engine_tables
 from .envelope import EnvelopeShape, Vary
 from .loading import Loading, ResolvedLoading, require_usable, resolve_loading
@@ -187,14 +187,27 @@ def _explain(
     once = _Once.all(aircraft, category)
     # many rows: every slice a finding outside an envelope is told on, cut together (as the margins are)
     cuts = _outside_cuts(shapes, found, tables.allowance) if len(loadings) > _ONE_BY_ONE else None
+    tables_of_items = moment_tables(aircraft, stations, fuel, density)
+    paths = _path_points(aircraft, loadings, found, category, samples, (stations, fuel, density))
+    by_row = list(zip(*(_conditions(aircraft, rows, fixed, margins[fixed.name]) for fixed in once), strict=True))
     for i, resolved in enumerate(loadings):
         findings: list[Finding] = []
-        conditions = [
-            _condition(aircraft, rows, i, shapes, fixed, findings, margins[fixed.name][i], cuts) for fixed in once
-        ]
-        burn_path = _burn_path(
-            aircraft, resolved, found, i, conditions, findings, samples, (stations[i], fuel[i], density)
-        )
+        conditions = list(by_row[i])
+        for fixed, condition in zip(once, conditions, strict=True):
+            if not condition.ok:  # outside a limit of this condition (the engine's condition_ok): say which
+                _condition_findings(
+                    aircraft,
+                    rows,
+                    i,
+                    shapes,
+                    fixed,
+                    findings,
+                    cuts,
+                    condition.weight,
+                    condition.moment,
+                    rows.lateral[fixed.name][i],
+                )
+        burn_path = _burn_path(aircraft, resolved, found, i, conditions, findings, samples, paths.get(i))
         if not rows.loads_ok[i]:
             findings.extend(_load_findings(aircraft, resolved, found, i))
         landing_fuel = conditions[2].fuel
@@ -210,14 +223,15 @@ def _explain(
                     limit=resolved.reserve,
                 )
             )
-        findings.extend(Finding(code="assumption", severity="warning", message=note) for note in resolved.notes)
-        ok = not any(f.severity == "limit" for f in findings)
+        if resolved.notes:
+            findings.extend(Finding(code="assumption", severity="warning", message=note) for note in resolved.notes)
+        ok = not findings or not any(f.severity == "limit" for f in findings)
         assert ok == rows.ok[i], "the explanation must carry the engine's verdict"
         yield CheckResult(
             ok=ok,
             category=resolved.category,
             aircraft=info,
-            items=moment_items(aircraft, resolved),
+            items=tables_of_items[i],
             conditions=conditions,
             burn_path=burn_path,
             findings=findings,
@@ -326,19 +340,58 @@ _ONCE: dict[tuple[int, str], tuple[Aircraft, list[_Once]]] = {}
 _ONCE_KEPT = 64
 
 
-def _condition(
+def _conditions(aircraft: Aircraft, rows: _Rows, once: _Once, margins: Sequence[Margins]) -> list[Condition]:
+    """One condition of every row: its weight, CG, moment, fuel, the engine's verdict and its margins.
+
+    The findings of a condition outside a limit are :func:`_condition_findings`'."""
+    name = once.name
+    has_lateral = once.has_lateral
+    mac = aircraft.mac
+    limit = once.weight_limit
+    return [
+        Condition(
+            condition=name,
+            weight=weight,
+            arm=(arm := moment / weight),
+            moment=moment,
+            lateral_arm=lateral / weight if has_lateral else None,
+            lateral_moment=lateral if has_lateral else None,
+            mac_percent=mac.percent(arm) if mac else None,
+            fuel=fuel,
+            fuel_weight=fuel_weight,
+            max_weight=limit,
+            ok=ok,
+            margins=margin,
+        )
+        for weight, moment, lateral, fuel, fuel_weight, ok, margin in zip(
+            rows.weight[name],
+            rows.moment[name],
+            rows.lateral[name],
+            rows.fuel[name],
+            rows.fuel_weight[name],
+            rows.condition_ok[name],
+            margins,
+            strict=True,
+        )
+    ]
+
+
+def _condition_findings(
     aircraft: Aircraft,
     rows: _Rows,
     i: int,
     shapes: Sequence[EnvelopeShape],
     once: _Once,
     findings: list[Finding],
-    margins: Margins,
-    cuts: dict[tuple[str, int], dict[int, _Cut | None]] | None = None,
-) -> Condition:
+    cuts: dict[tuple[str, int], dict[int, _Cut | None]] | None,
+    weight: float,
+    moment: float,
+    lateral: float,
+) -> None:
+    """The findings of one condition of row ``i`` that the engine found outside a limit: each
+    weight limit, the minimum flight weight, each envelope."""
     units = aircraft.units
     name = once.name
-    weight, moment, lateral = rows.weight[name][i], rows.moment[name][i], rows.lateral[name][i]
     for (code, limit), good in zip(once.table, rows.weight_ok[name], strict=True):
         if not good[i]:
             findings.append(
@@ -377,21 +430,6 @@ def _condition(
                     aircraft, shape, label, name, *tested, once.severity, allowance=once.allowance, cut=cut
                 )
             )
-    arm = moment / weight
-    return Condition(
-        condition=name,
-        weight=weight,
-        arm=arm,
-        moment=moment,
-        lateral_arm=lateral / weight if once.has_lateral else None,
-        lateral_moment=lateral if once.has_lateral else None,
-        mac_percent=aircraft.mac.percent(arm) if aircraft.mac else None,
-        fuel=rows.fuel[name][i],
-        fuel_weight=rows.fuel_weight[name][i],
-        max_weight=once.weight_limit,
-        ok=rows.condition_ok[name][i],
-        margins=margins,
-    )
 
 
 def _pick(intervals: list[tuple[float, float]], value: float) -> tuple[float, float]:
@@ -536,18 +574,21 @@ def _margins(
                     keep(name, "weight", _room_to(shape, k, top, allowance) - found.weight[name])
     out: dict[str, list[Margins]] = {}
     for name in CONDITIONS:
-        columns = [values[name][key].tolist() for key in _MARGIN_KEYS]
-        out[name] = [  # NaN (no envelope gives that limit) as None
-            Margins(
-                forward=f if f == f else None,
-                aft=a if a == a else None,
-                left=lt if lt == lt else None,
-                right=r if r == r else None,
-                weight=w if w == w else None,
-            )
-            for f, a, lt, r, w in zip(*columns, strict=True)
+        columns = [_none_for_nan(values[name][key]) for key in _MARGIN_KEYS]
+        out[name] = [
+            Margins(forward=f, aft=a, left=lt, right=r, weight=w) for f, a, lt, r, w in zip(*columns, strict=True)
         ]
     return out
+
+
+def _none_for_nan(column: np.ndarray) -> list[float | None]:
+    """A column of margins as Python numbers, NaN (no envelope gives that limit) as None."""
+    missing = np.isnan(column)
+    if not missing.any():
+        return column.tolist()  # type: ignore[no-any-return]
+    if missing.all():
+        return [None] * len(column)
+    return np.where(missing, np.array(None, dtype=object), column).tolist()  # type: ignore[no-any-return]
 
 
 def _slice_lines(
@@ -731,9 +772,10 @@ def _outside_finding(
     """
     units = aircraft.units
     arm, lateral = moment / weight, lateral_moment / weight
-    value = lateral if shape.is_lateral else arm
-    sides = ("left", "right") if shape.is_lateral else ("forward", "aft")
-    vary: Vary = "lateral" if shape.is_lateral else "arm"
+    is_lateral = shape.is_lateral
+    value = lateral if is_lateral else arm
+    sides = ("left", "right") if is_lateral else ("forward", "aft")
+    vary: Vary = "lateral" if is_lateral else "arm"
 
     def across(at_weight: float) -> tuple[str, float, float] | None:
         if cut is False:
@@ -784,13 +826,11 @@ def _outside_finding(
             side, excess, limit = found
             unit = units.arm
             if side == "outside":
-                text = envelope_gap_message(name, label, shape.is_lateral, value, limit, weight, units.arm, units.mass)
+                text = envelope_gap_message(name, label, is_lateral, value, limit, weight, units.arm, units.mass)
             else:
-                text = envelope_side_message(
-                    name, label, shape.is_lateral, side, value, limit, weight, units.arm, units.mass
-                )
+                text = envelope_side_message(name, label, is_lateral, side, value, limit, weight, units.arm, units.mass)
         else:
-            text = envelope_point_message(name, label, shape.is_lateral, weight, value, units.arm, units.mass)
+            text = envelope_point_message(name, label, is_lateral, weight, value, units.arm, units.mass)
     if severity == "warning":
         text += ZERO_FUEL_WARNING
     return Finding(
@@ -809,41 +849,57 @@ def _outside_finding(
 # -- burn path --------------------------------------------------------------------------
 
 
-def _burn_path(
+_PathPoints = tuple[list[float], list[float], dict[float, tuple[float, float, float, float]], int | None]
+"""What the explanation of one loading's burn path reads: the sample marks, the stretch ends,
+the state (weight, moment, lateral moment, fuel on board) at each of them and at the middle of
+the first stretch outside, and the index in the aircraft file of the first envelope that middle
+lies outside (None where the path stays inside)."""
+
+
+def _path_points(
     aircraft: Aircraft,
-    resolved: ResolvedLoading,
+    loadings: Sequence[ResolvedLoading],
     found: Evaluation,
-    i: int,
-    conditions: Sequence[Condition],
-    findings: list[Finding],
+    category: str,
     with_samples: bool,
     arrays: tuple[np.ndarray, np.ndarray, np.ndarray],
-) -> BurnPath:
-    """The burn path explained: samples for drawing, where it leaves, each stretch outside.
+) -> dict[int, _PathPoints]:
+    """The states along the burn path that :func:`_burn_path` tells of, for every loading whose path
+    is explained (it leaves an envelope, or its samples are drawn), found together: one
+    :func:`~loadcheck.engine.path_states_many` call, one containment call per envelope.
 
-    ``arrays``: the loading's stations (S,), fuel (T,) and densities (T,) as the engine had them."""
+    ``arrays``: the stations (N, S), fuel (N, T) and densities (T,) the engine was given; the
+    loadings share one burn order (:func:`check_many` groups them so)."""
     assert found.path_outside is not None
-    stretches = found.path_outside[i]
-    if not stretches and not with_samples:  # inside all the way, nothing to draw
-        return BurnPath(ok=bool(found.burn_path_ok[i]), samples=[])
-    start, end = resolved.taxi, resolved.taxi + resolved.trip
-    takeoff = conditions[1]
-    takeoff_in = bool(found.envelope_ok["takeoff"][i])
-    landing_in = bool(found.envelope_ok["landing"][i])
-    ok = bool(found.burn_path_ok[i])
-    units = aircraft.units
-    lateral = engine_tables(aircraft).has_lateral
-
-    marks = [start + (end - start) * k / _SAMPLES for k in range(_SAMPLES + 1)] if with_samples and end > start else []
-    ends = [b for stretch in stretches for b in stretch]
-    middle = [0.5 * (stretches[0][0] + stretches[0][1])] if stretches else []
-    points = sorted(set(marks + ends)) + middle
-    if points:
-        weights, moments, laterals, quantities = path_states(
-            aircraft, arrays[0], arrays[1], np.array(points), order=resolved.plan.order, density=arrays[2]
+    chosen: list[int] = []
+    plans: list[tuple[list[float], list[float], list[float]]] = []
+    for i, resolved in enumerate(loadings):
+        stretches = found.path_outside[i]
+        if not stretches and not with_samples:  # inside all the way, nothing to draw
+            continue
+        start, end = resolved.taxi, resolved.taxi + resolved.trip
+        marks = (
+            [start + (end - start) * k / _SAMPLES for k in range(_SAMPLES + 1)] if with_samples and end > start else []
         )
-    state = (
-        dict(
+        ends = [b for stretch in stretches for b in stretch]
+        middle = [0.5 * (stretches[0][0] + stretches[0][1])] if stretches else []
+        chosen.append(i)
+        plans.append((marks, ends, sorted(set(marks + ends)) + middle))
+    if not chosen:
+        return {}
+    order = loadings[chosen[0]].plan.order
+    states = path_states_many(
+        aircraft,
+        arrays[0][chosen],
+        arrays[1][chosen],
+        [np.array(points) for _, _, points in plans],
+        order=order,
+        density=arrays[2],
+    )
+    out: dict[int, _PathPoints] = {}
+    middles: list[tuple[int, tuple[float, float, float, float]]] = []
+    for i, (marks, ends, points), (weights, moments, laterals, quantities) in zip(chosen, plans, states, strict=True):
+        state = dict(
             zip(
                 points,
                 zip(
@@ -852,9 +908,50 @@ def _burn_path(
                 strict=True,
             )
         )
-        if points
-        else {}
-    )
+        if found.path_outside[i]:
+            middles.append((i, state[points[-1]]))
+        out[i] = (marks, ends, state, None)
+    if middles:  # the first envelope of the category each first stretch's middle lies outside
+        w, m, lat = (np.array([mid[k] for _, mid in middles]) for k in range(3))
+        left: list[int | None] = [None] * len(middles)
+        for index, envelope in enumerate(aircraft.envelope):
+            if envelope.category != category:
+                continue
+            outside = (~np.asarray(envelope.shape.covers(w, m, lat), dtype=bool)).tolist()
+            left = [index if here is None and away else here for here, away in zip(left, outside, strict=True)]
+        for (i, _), first_left in zip(middles, left, strict=True):
+            marks, ends, state, _ = out[i]
+            out[i] = (marks, ends, state, first_left)
+    return out
+
+
+def _burn_path(
+    aircraft: Aircraft,
+    resolved: ResolvedLoading,
+    found: Evaluation,
+    i: int,
+    conditions: Sequence[Condition],
+    findings: list[Finding],
+    with_samples: bool,
+    points: _PathPoints | None,
+) -> BurnPath:
+    """The burn path explained: samples for drawing, where it leaves, each stretch outside.
+
+    ``points``: the loading's states along its path (:func:`_path_points`; None where its path
+    is inside all the way and not drawn)."""
+    assert found.path_outside is not None
+    stretches = found.path_outside[i]
+    if points is None:  # inside all the way, nothing to draw
+        return BurnPath(ok=bool(found.burn_path_ok[i]), samples=[])
+    marks, ends, state, left = points
+    start, end = resolved.taxi, resolved.taxi + resolved.trip
+    takeoff = conditions[1]
+    takeoff_in = bool(found.envelope_ok["takeoff"][i])
+    landing_in = bool(found.envelope_ok["landing"][i])
+    ok = bool(found.burn_path_ok[i])
+    units = aircraft.units
+    lateral = engine_tables(aircraft).has_lateral
+
     top = takeoff.weight
     samples = (
         [
@@ -872,15 +969,6 @@ def _burn_path(
         for b, e in stretches
     ]
     first = state[stretches[0][0]]
-    w_mid, m_mid, l_mid, _ = state[middle[0]]
-    left = next(
-        (
-            i
-            for i, e in enumerate(aircraft.envelope)
-            if e.category == resolved.category and not e.shape.covers(w_mid, m_mid, l_mid)
-        ),
-        None,
-    )
     payload_weight = float(found.weight["zero_fuel"][i])
     leaves = LeavePoint(
         fuel_burned=takeoff.weight - first[0],

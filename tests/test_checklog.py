@@ -10,12 +10,14 @@ import sqlite3
 from pathlib import Path
 
 import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
 
 from loadcheck.checklog import CheckLog, verify, verify_current
 from loadcheck.cli import app
 from loadcheck.fleet import load_fleet
 
-from .helpers import app_runner, sample, tamper_check_log
+from .helpers import app_runner, examples, sample, tamper_check_log
 
 SAMPLES = Path(sample("trainer4/aircraft.toml")).parent.parent
 
@@ -316,3 +318,32 @@ def test_listing_leaves_the_cycle_collector_as_it_found_it(db):
         finally:
             gc.enable()
     assert [(row[5], row[7]) for row in rows] == [(1, 1), (0, 1)]  # within, then over the weight limit; one leg each
+
+
+# The seal is SHA-256 over json.dumps(fields, separators=(",", ":")) (the form records were sealed
+# with from the start); the quicker writer must give those bytes exactly, or a record sealed before
+# would no longer verify. The json module's output is the reference (Python standard library).
+_SEAL_TEXTS = [
+    "".join(chr(c) for c in range(128)),  # every ASCII character, DEL and the control characters included
+    'a "quoted" \\ back\\slash / slash',
+    "DEMO-4T",
+    "Zürich, 42 °",  # not ASCII: written by the json module
+    "\x7f",
+    "",
+]
+
+
+@pytest.mark.parametrize("text", _SEAL_TEXTS)
+def test_the_seal_text_is_json_dumps_byte_for_byte(text):
+    from loadcheck.checklog import _seal_text
+
+    fields = ["2026-12-02T07:00:00.000000+00:00", text, None, 1, 0, '{"ok":true,"x":[1.5e-07,2]}']
+    assert _seal_text(fields) == json.dumps(fields, separators=(",", ":")).encode("utf-8")
+
+
+@given(st.lists(st.one_of(st.none(), st.integers(0, 1), st.text(st.characters(max_codepoint=0x7F))), max_size=11))
+@settings(max_examples=examples(100))
+def test_the_seal_text_of_any_ascii_fields_is_json_dumps(fields):
+    from loadcheck.checklog import _seal_text
+
+    assert _seal_text(fields) == json.dumps(fields, separators=(",", ":")).encode("utf-8")

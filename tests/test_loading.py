@@ -117,3 +117,22 @@ def test_values_for_a_leg_the_trip_does_not_have_are_refused_not_made_a_leg():
     assert added["leg"][1] == {"load": {"front": "0"}, "burn": {"trip": "4"}}
     with pytest.raises(InputError, match="leg 4 skips leg 3: the trip has 2 legs"):
         apply_overrides(data, legs={4: {"burn": {"trip": "4"}}})
+
+
+@pytest.mark.parametrize(
+    "amount, said",
+    [
+        (60, "fuel.mains: 60 usgal is above the tank's usable capacity; expected at most 40 usgal"),
+        (60.5, "fuel.mains: 60.5 usgal is above the tank's usable capacity; expected at most 40 usgal"),
+        ("60 usgal", "fuel.mains: 60 usgal is above the tank's usable capacity; expected at most 40 usgal"),
+        # 300 lb / 6.0 lb per US gal (avgas, common practice) = 50 US gal
+        ("300 lb", "fuel.mains: 300 lb is 50 usgal, above the tank's usable capacity; expected at most 40 usgal"),
+    ],
+)
+def test_fuel_above_the_usable_capacity_is_said_once_as_given(amount, said):
+    # the refusal said the amount twice, the second time as a float ("60 usgal ...; got 60.0")
+    from loadcheck.loading import resolve_loading
+
+    with pytest.raises(InputError) as caught:
+        resolve_loading(Loading(fuel={"mains": amount, "aux": 0}), TWO_TANKS)
+    assert [p.describe() for p in caught.value.problems] == [said]
