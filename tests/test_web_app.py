@@ -616,6 +616,11 @@ def test_a_trip_whose_leg_2_fails_says_so_first_and_shows_every_leg(reading_desk
 
     expected = _trip_result(reading_desk, TRIP_LEG_2_AFT)
     assert expected.legs[0].check.ok and not expected.legs[1].check.ok and not expected.ok  # the scenario
+    takeoff = [leg.check.condition("takeoff") for leg in expected.legs]  # worked by hand in tests/web_helpers.py
+    assert [(c.weight, c.moment) for c in takeoff] == [
+        (pytest.approx(1674), pytest.approx(142860)),
+        (pytest.approx(1408), pytest.approx(122320)),
+    ]
     response = _post_check(_client(reading_desk, "pia"), TRIP_LEG_2_AFT, "TEST-T")
     assert response.status_code == 200
     page = response.text
