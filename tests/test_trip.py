@@ -512,14 +512,7 @@ def test_trip_least_fuel_landed_below_the_reserve():
 
 
 def _first_fuel(inputs, total):
-    """The trip with ``total`` ramp fuel at the first engine start, in the plan's fill order."""
-    import numpy as np
-
-    from loadcheck.engine import loading_arrays
-    from loadcheck.planning import _distribute, _fill_order
-    from loadcheck.trip import trip_legs
-
-    aircraft, trip = inputs.aircraft, inputs.trip
-    first = trip.legs[0]
-    row = _distribute(aircraft, loading_arrays(aircraft, first), _fill_order(aircraft, first, None), np.array([total]))
-    return trip_legs(aircraft, trip, 0, {t.id: float(row[0][i]) for i, t in enumerate(aircraft.tank)})
+    """The trip with ``total`` ramp fuel at the first engine start, read as ``check --fuel main=TOTAL``
+    reads it (the sample's one tank, so no fill order to choose)."""
+    assert [t.id for t in inputs.aircraft.tank] == ["main"]
+    return load_check_inputs(sample("heli2/trip_drop_off.toml"), allow_trip=True, fuel={"main": f"{total!r}"}).trip

@@ -551,22 +551,30 @@ def test_no_traceback_or_internal_path_reaches_a_page(
 # -- trips of several legs (issue 19 with issue 16) ----------------------------------------------
 
 
-def _trip_inputs(desk: dict[str, Any], values: dict[str, str]) -> Any:
-    """The library's reading of the check form's trip fields (the same overrides the command line's --leg-* give)."""
-    legs: dict[int, Any] = {}
+def _form_overrides(values: dict[str, str]) -> tuple[dict[str, dict[str, str]], dict[int, dict[str, Any]]]:
+    """The check form's fields read by the test, as ``load_check_inputs`` overrides: ``TABLE.KEY`` of
+    the first leg and ``leg.N.TABLE.KEY`` (``leg.N.fuel`` is fuel put in at the stop, ``add_fuel``) or
+    ``leg.N.label`` of leg N, as docs/web.md describes the form; empty fields left out. The desk's own
+    reading of the form (``loadcheck.web.app._overrides``) is what the tests check against this."""
+    first: dict[str, dict[str, str]] = {"load": {}, "names": {}, "fuel": {}, "burn": {}}
+    legs: dict[int, dict[str, Any]] = {}
     for key, value in values.items():
         parts = key.split(".")
-        if parts[0] == "leg" and value:
-            table = {"load": "load", "fuel": "add_fuel", "burn": "burn"}.get(parts[2])
-            leg = legs.setdefault(int(parts[1]), {})
-            if table is None:
-                leg[parts[2]] = value
-            else:
-                leg.setdefault(table, {})[parts[3]] = value
-    first = {
-        table: {k.split(".", 1)[1]: v for k, v in values.items() if k.startswith(table + ".") and v}
-        for table in ("load", "fuel", "burn")
-    }
+        if not value:
+            continue
+        if parts[0] == "leg" and len(parts) == 3:
+            legs.setdefault(int(parts[1]), {})[parts[2]] = value
+        elif parts[0] == "leg":
+            table = "add_fuel" if parts[2] == "fuel" else parts[2]
+            legs.setdefault(int(parts[1]), {}).setdefault(table, {})[parts[3]] = value
+        elif parts[0] in first:
+            first[parts[0]][parts[1]] = value
+    return {table: fields for table, fields in first.items() if fields}, legs
+
+
+def _trip_inputs(desk: dict[str, Any], values: dict[str, str]) -> Any:
+    """The library's reading of the check form's trip fields (the same overrides the command line's --leg-* give)."""
+    first, legs = _form_overrides(values)
     return load_check_inputs(desk["fleet"] / "trip_test.toml", None, allow_trip=True, legs=legs, **first)
 
 
@@ -1090,12 +1098,9 @@ def _library_problems(desk: dict[str, Any], **overrides: Any) -> list[Any]:
 
 
 def _form_problems(desk: dict[str, Any], values: dict[str, str]) -> list[Any]:
-    """The problems the library finds in the check form's values, read as the desk reads them."""
-    from loadcheck.files import load_aircraft
-    from loadcheck.web.app import _overrides
-
-    _, overrides = _overrides(values, load_aircraft(desk["fleet"] / "trip_test.toml"))
-    return _library_problems(desk, **overrides)
+    """The problems the library finds in the check form's values (read by the test, ``_form_overrides``)."""
+    first, legs = _form_overrides(values)
+    return _library_problems(desk, legs=legs, **first)
 
 
 def _problems_shown(page: str) -> str:
