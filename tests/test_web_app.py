@@ -554,8 +554,8 @@ def test_no_traceback_or_internal_path_reaches_a_page(
 def _form_overrides(values: dict[str, str]) -> tuple[dict[str, dict[str, str]], dict[int, dict[str, Any]]]:
     """The check form's fields read by the test, as ``load_check_inputs`` overrides: ``TABLE.KEY`` of
     the first leg and ``leg.N.TABLE.KEY`` (``leg.N.fuel`` is fuel put in at the stop, ``add_fuel``) or
-    ``leg.N.label`` of leg N, as docs/web.md describes the form; empty fields left out. The desk's own
-    reading of the form (``loadcheck.web.app._overrides``) is what the tests check against this."""
+    ``leg.N.label`` of leg N, the loading file's tables by the form's field names; empty fields left
+    out. The desk's own reading of the form (``loadcheck.web.app._overrides``) is what is under test."""
     first: dict[str, dict[str, str]] = {"load": {}, "names": {}, "fuel": {}, "burn": {}}
     legs: dict[int, dict[str, Any]] = {}
     for key, value in values.items():
