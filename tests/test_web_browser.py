@@ -81,6 +81,9 @@ def _shot(page: Any, name: str) -> None:
 
 
 def _no_sideways_scroll(page: Any) -> None:
+    # after a click that follows a link the new page may be committed but not yet parsed (no
+    # documentElement: seen once on a busy machine); measure it once it has loaded
+    page.wait_for_load_state("load")
     overflow = page.evaluate("document.documentElement.scrollWidth - document.documentElement.clientWidth")
     assert overflow <= 0, f"{page.url} scrolls sideways by {overflow} px at 360 px"
 
