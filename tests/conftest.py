@@ -16,16 +16,18 @@ from __future__ import annotations
 
 from collections.abc import Iterator
 from pathlib import Path
-from typing import Any
+from typing import TYPE_CHECKING, Any
 
 import platformdirs
 import pytest
 from hypothesis import HealthCheck, is_hypothesis_test, settings
 from hypothesis.database import DirectoryBasedExampleDatabase
 
-from loadcheck import Aircraft, load_aircraft
+if TYPE_CHECKING:  # the library and tests/helpers (numpy, the command tree) load in the first fixture that needs
+    # them: xdist's controller, which runs no test, never imports them
+    from loadcheck import Aircraft
 
-from .helpers import AppRunner, app_runner, sample
+    from .helpers import AppRunner
 
 LONG_FACTOR = 10
 """How many times the examples of each property and fuzz test ``--long`` runs."""
@@ -79,22 +81,32 @@ def pytest_collection_modifyitems(config: pytest.Config, items: list[pytest.Item
 @pytest.fixture(scope="session")
 def runner() -> AppRunner:
     """The command-line runner, its command tree built once for the session."""
+    from .helpers import app_runner
+
     return app_runner()
+
+
+def _sample_aircraft(name: str) -> Aircraft:
+    from loadcheck import load_aircraft
+
+    from .helpers import sample
+
+    return load_aircraft(sample(f"{name}/aircraft.toml"))
 
 
 @pytest.fixture(scope="session")
 def trainer() -> Aircraft:
-    return load_aircraft(sample("trainer4/aircraft.toml"))
+    return _sample_aircraft("trainer4")
 
 
 @pytest.fixture(scope="session")
 def tandem() -> Aircraft:
-    return load_aircraft(sample("tandem2/aircraft.toml"))
+    return _sample_aircraft("tandem2")
 
 
 @pytest.fixture(scope="session")
 def twin() -> Aircraft:
-    return load_aircraft(sample("twin6/aircraft.toml"))
+    return _sample_aircraft("twin6")
 
 
 @pytest.fixture(scope="session")

@@ -226,3 +226,99 @@ def tamper_check_log(db: Path, statement: str, *args: object) -> None:
     connection.execute(statement, args)
     connection.commit()
     connection.close()
+
+
+# -- the trip test aircraft -------------------------------------------------------------------
+#
+# TEST-T, the one test aircraft of the trip tests (tests/test_trip.py, the fleet's and the
+# check log's trips) and of the desk's (tests/web_helpers.py: its fleet holds it as
+# trip_test.toml). Invented (not a sample, not a real type), in lb, in and US gal, so that
+# its figures can be worked by hand with the moment method of FAA-H-8083-1B (2016) ch. 2
+# (moment = weight x arm; CG = total moment / total weight). Its limits are INVENTED:
+# empty 1,000 lb at 80 in; front seats 70 in, rear seats 110 in (each at most 400 lb);
+# baggage far aft at 180 in (at most 100 lb); one tank at 90 in, 40 US gal of avgas at
+# 6.0 lb/US gal (common practice, ASTM D910 grade density as the trade uses it), its fill
+# level `local` 25 US gal; maximum takeoff weight 1,800 lb; CG 74 to 86 in from 1,000 to
+# 1,800 lb.
+#
+# Trip "A" (TRIP_DAY, TRIP_LOADING): leg 1, the pilot (180 lb front), 30 gal, taxi 1, trip
+# 10: ramp 1,360 lb, 108,800 lb-in, CG 80.00 in (within); it lands with 19 gal. Leg 2: two
+# passengers board the rear seats (400 lb), no fuel put in, taxi 1, trip 10: ramp 1,000 +
+# 180 + 400 + 114 = 1,694 lb, 80,000 + 12,600 + 44,000 + 10,260 = 146,860 lb-in, CG 86.69 in
+# (aft of 86); takeoff 1,688 lb, 146,320 lb-in, 86.68 in; landing (8 gal, 48 lb) 1,628 lb,
+# 140,920 lb-in, 86.56 in: leg 2 alone is out of limits, aft, at every condition.
+
+TRIP_AIRCRAFT = """format = 1
+name = "Trip test aircraft (invented for the tests)"
+registration = "TEST-T"
+[units]
+mass = "lb"
+arm = "in"
+fuel_volume = "usgal"
+[empty]
+weight = 1000.0
+arm = 80.0
+date = 2026-11-01
+[limits]
+max_takeoff_weight = 1800
+[[station]]
+id = "front"
+label = "Front seats"
+kind = "seat"
+arm = 70.0
+max_weight = 400
+[[station]]
+id = "rear"
+label = "Rear seats"
+kind = "seat"
+arm = 110.0
+max_weight = 400
+[[station]]
+id = "bags"
+label = "Baggage"
+kind = "baggage"
+arm = 180.0
+max_weight = 100
+[[tank]]
+id = "main"
+label = "Main tank"
+arm = 90.0
+usable = 40.0
+fuel = "avgas"
+levels = { local = 25.0 }
+[[envelope]]
+category = "normal"
+axes = ["arm", "weight"]
+points = [[74.0, 1000], [74.0, 1800], [86.0, 1800], [86.0, 1000]]
+"""
+
+TRIP_DAY = """registration,reference,trip_id,leg,front,rear,main,taxi,trip
+TEST-T,F1,A,1,180,0,30,1,10
+TEST-T,,A,2,,400,,1,10
+TEST-T,F2,,,180,0,20,1,5
+"""
+
+TRIP_LOADING = """format = 1
+aircraft = "aircraft.toml"
+[load]
+front = 180
+rear = 0
+[fuel]
+main = 30
+[burn]
+taxi = 1
+trip = 10
+[[leg]]
+load = { rear = 400 }
+burn = { taxi = 1, trip = 10 }
+"""
+
+
+def trip_fleet(folder: Path) -> Path:
+    """Write TEST-T (``TRIP_AIRCRAFT``), the day (trip "A", whose leg 2 fails, then a single
+    flight) and trip "A" as a loading file into ``folder``; return the folder."""
+    folder.mkdir(parents=True, exist_ok=True)
+    (folder / "aircraft.toml").write_text(TRIP_AIRCRAFT)
+    (folder / "day.csv").write_text(TRIP_DAY)
+    (folder / "trip.toml").write_text(TRIP_LOADING)
+    return folder

@@ -195,24 +195,34 @@ def test_unknown_export_format_is_an_input_error_naming_the_field():
     assert problem.field == "format" and problem.value == "xml" and "csv or jsonl" in (problem.expected or "")
 
 
-def test_check_json_imports_neither_rich_nor_the_check_log_nor_sqlite(tmp_path):
+# `check within.toml --json` in a process of its own, once for the start-up tests below: its exit status, which of
+# the modules it need not import it did import, whether main() froze the start-up's objects (gc.freeze)
+_CHECK_JSON = (
+    "import gc, sys; sys.argv = ['loadcheck', 'check', sys.argv[1], '--json']\n"
+    "import loadcheck.cli as cli\n"
+    "try:\n    cli.main()\nexcept SystemExit as stop:\n    code = stop.code\n"
+    "loaded = [m for m in ('rich', 'loadcheck.checklog', 'sqlite3', 'csv') if m in sys.modules]\n"
+    "print(code, loaded, file=sys.stderr)\n"
+    "print(code, gc.get_freeze_count() > 10_000, file=sys.stderr)"
+)
+
+
+@pytest.fixture(scope="module")
+def check_json_run() -> subprocess.CompletedProcess[str]:
+    """One ``check within.toml --json`` run through ``cli.main()`` in a new process (``_CHECK_JSON``)."""
+    return subprocess.run([sys.executable, "-c", _CHECK_JSON, WITHIN], capture_output=True, text=True, check=True)
+
+
+def test_check_json_imports_neither_rich_nor_the_check_log_nor_sqlite(check_json_run, tmp_path):
     # start-up (issue 18 item 4): a check that records nothing asked the check log's module whether it
     # records (loadcheck.checklog.log_path), importing sqlite3 and csv for nothing; rich is for tables only
-    code = (
-        "import sys; sys.argv = ['loadcheck', 'check', sys.argv[1], '--json']\n"
-        "import loadcheck.cli as cli\n"
-        "try:\n    cli.main()\nexcept SystemExit as stop:\n    code = stop.code\n"
-        "loaded = [m for m in ('rich', 'loadcheck.checklog', 'sqlite3', 'csv') if m in sys.modules]\n"
-        "print(code, loaded, file=sys.stderr)"
-    )
-    done = subprocess.run([sys.executable, "-c", code, WITHIN], capture_output=True, text=True, check=True)
-    assert done.stderr.strip() == "0 []", done.stderr
-    assert json.loads(done.stdout)["ok"] is True
+    assert check_json_run.stderr.splitlines()[0] == "0 []", check_json_run.stderr
+    assert json.loads(check_json_run.stdout)["ok"] is True
     logged = subprocess.run(  # with --log it is imported and records
         [
             sys.executable,
             "-c",
-            code.replace("'--json']", "'--json', '--log', '--db', sys.argv[2]]"),
+            _CHECK_JSON.replace("'--json']", "'--json', '--log', '--db', sys.argv[2]]"),
             WITHIN,
             str(tmp_path / "l.db"),
         ],
@@ -246,15 +256,8 @@ def test_the_cycle_collector_is_back_to_its_thresholds_after_the_first_collectio
         gc.set_threshold(*usual)
 
 
-def test_the_console_entry_leaves_its_objects_to_the_exit_untraversed():
+def test_the_console_entry_leaves_its_objects_to_the_exit_untraversed(check_json_run):
     # start-up (issue 18 item 4): the interpreter's collections at exit went over every object once more
     # (about 5 % of a check's instructions, valgrind); main() freezes them once the command is done
-    code = (
-        "import gc, sys; sys.argv = ['loadcheck', 'check', sys.argv[1], '--json']\n"
-        "import loadcheck.cli as cli\n"
-        "try:\n    cli.main()\nexcept SystemExit as stop:\n    code = stop.code\n"
-        "print(code, gc.get_freeze_count() > 10_000, file=sys.stderr)"
-    )
-    done = subprocess.run([sys.executable, "-c", code, WITHIN], capture_output=True, text=True, check=True)
-    assert done.stderr.strip() == "0 True", done.stderr
-    assert json.loads(done.stdout)["ok"] is True  # the output is whole
+    assert check_json_run.stderr.splitlines()[1] == "0 True", check_json_run.stderr
+    assert json.loads(check_json_run.stdout)["ok"] is True  # the output is whole

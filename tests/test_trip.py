@@ -31,7 +31,7 @@ from loadcheck.files import parse_aircraft
 from loadcheck.loading import Loading
 from loadcheck.trip import check_trip, fuel_to_add, trip_most_fuel
 
-from .helpers import examples, sample, simple_aircraft
+from .helpers import examples, sample, simple_aircraft, trip_fleet
 
 # FAA-H-8083-1B (2016) ch. 8 p. 8-3: arms and weights as published; fuel 48 gal weighing
 # 288 lb, i.e. 6.0 lb/gal (avgas). Maximum gross weight 2,250 lb (published). Usable fuel
@@ -410,85 +410,8 @@ def test_a_trip_is_recorded_as_one_record_and_plots_every_leg(runner, tmp_path):
 
 # -- trips through the dispatcher's and the recording jobs (issue 16) --------------------------
 #
-# A test aircraft of our own (lb, in, US gal), written into tmp_path, so that the figures
-# below can be worked by hand with the moment method of FAA-H-8083-1B (2016) ch. 2
-# (moment = weight x arm; CG = total moment / total weight). Its limits are INVENTED:
-# empty 1,000 lb at 80 in; front seats 70 in, rear seats 110 in (each at most 400 lb); one
-# tank at 90 in, 40 US gal of avgas at 6.0 lb/US gal (common practice, ASTM D910 grade
-# density as the trade uses it); maximum takeoff weight 1,800 lb; CG 74 to 86 in from
-# 1,000 to 1,800 lb.
-#
-# Trip "A": leg 1, the pilot (180 lb front), 30 gal, taxi 1, trip 10: ramp 1,360 lb,
-# 108,800 lb-in, CG 80.00 in (within); it lands with 19 gal. Leg 2: two passengers board
-# the rear seats (400 lb), no fuel put in, taxi 1, trip 10: ramp 1,000 + 180 + 400 + 114 =
-# 1,694 lb, 80,000 + 12,600 + 44,000 + 10,260 = 146,860 lb-in, CG 86.69 in (aft of 86);
-# takeoff 1,688 lb, 146,320 lb-in, 86.68 in; landing (8 gal, 48 lb) 1,628 lb, 140,920 lb-in,
-# 86.56 in: leg 2 alone is out of limits, aft, at every condition.
-
-TRIP_AIRCRAFT = """format = 1
-name = "Trip test box (invented)"
-registration = "TEST-T"
-[units]
-mass = "lb"
-arm = "in"
-fuel_volume = "usgal"
-[empty]
-weight = 1000.0
-arm = 80.0
-date = 2026-11-01
-[limits]
-max_takeoff_weight = 1800
-[[station]]
-id = "front"
-kind = "seat"
-arm = 70.0
-max_weight = 400
-[[station]]
-id = "rear"
-kind = "seat"
-arm = 110.0
-max_weight = 400
-[[tank]]
-id = "main"
-arm = 90.0
-usable = 40.0
-fuel = "avgas"
-[[envelope]]
-category = "normal"
-axes = ["arm", "weight"]
-points = [[74.0, 1000], [74.0, 1800], [86.0, 1800], [86.0, 1000]]
-"""
-
-TRIP_DAY = """registration,reference,trip_id,leg,front,rear,main,taxi,trip
-TEST-T,F1,A,1,180,0,30,1,10
-TEST-T,,A,2,,400,,1,10
-TEST-T,F2,,,180,0,20,1,5
-"""
-
-TRIP_LOADING = """format = 1
-aircraft = "aircraft.toml"
-[load]
-front = 180
-rear = 0
-[fuel]
-main = 30
-[burn]
-taxi = 1
-trip = 10
-[[leg]]
-load = { rear = 400 }
-burn = { taxi = 1, trip = 10 }
-"""
-
-
-def trip_fleet(folder):
-    """Write the test aircraft, the day (a trip whose leg 2 fails, then a single flight) and
-    the trip as a loading file into ``folder``; return the folder."""
-    folder.mkdir(parents=True, exist_ok=True)
-    (folder / "aircraft.toml").write_text(TRIP_AIRCRAFT)
-    (folder / "day.csv").write_text(TRIP_DAY)
-    (folder / "trip.toml").write_text(TRIP_LOADING)
-    return folder
+# The trip test aircraft TEST-T (tests/helpers.TRIP_AIRCRAFT, its limits invented) and trip
+# "A" on it, both worked by hand there with the moment method of FAA-H-8083-1B (2016) ch. 2.
 
 
 def test_the_hand_worked_trip_of_the_test_aircraft(tmp_path):
@@ -504,6 +427,36 @@ def test_the_hand_worked_trip_of_the_test_aircraft(tmp_path):
     assert two.check.condition("landing").arm == pytest.approx(140920 / 1628)
     assert {f.condition for f in result.limits_exceeded} >= {"ramp", "takeoff", "landing"}
     assert all(f.leg == 2 for f in result.limits_exceeded)
+
+
+def test_the_desks_hand_worked_trip_of_the_test_aircraft(tmp_path):
+    """The desk's trip (tests/web_helpers.TRIP_LEG_2_AFT) as a loading file of TEST-T: the
+    figures worked by hand beside it (FAA-H-8083-1B (2016) ch. 2 moment method): leg 1
+    within, leg 2 aft of 86 in at every condition once a front occupant gets off."""
+    folder = trip_fleet(tmp_path / "fleet")
+    (folder / "desk_trip.toml").write_text(
+        'format = 1\naircraft = "aircraft.toml"\n[load]\nfront = 340\nbags = 100\n[fuel]\nmain = "full"\n'
+        '[burn]\ntaxi = 1\ntrip = 20\n[[leg]]\nlabel = "back solo"\nload = { front = 170 }\n'
+        "add_fuel = { main = 5 }\nburn = { taxi = 1, trip = 10 }\n"
+    )
+    inputs = load_check_inputs(folder / "desk_trip.toml", allow_trip=True)
+    result = check_trip(inputs.aircraft, inputs.trip)
+    one, two = (leg.check for leg in result.legs)
+    assert one.ok and not two.ok and not result.ok
+    by_hand = {  # (leg, condition): (weight [lb], moment [lb-in]), worked in tests/web_helpers.py
+        (1, "ramp"): (1680, 143400),
+        (1, "takeoff"): (1674, 142860),
+        (1, "landing"): (1554, 132060),
+        (2, "ramp"): (1414, 122860),
+        (2, "takeoff"): (1408, 122320),
+        (2, "landing"): (1348, 116920),
+    }
+    for (leg, name), (weight, moment) in by_hand.items():
+        condition = result.legs[leg - 1].check.condition(name)
+        assert condition.weight == pytest.approx(weight) and condition.moment == pytest.approx(moment), (leg, name)
+        assert (condition.arm <= 86.0) == (leg == 1), (leg, name, condition.arm)
+    assert {f.condition for f in result.limits_exceeded} >= {"ramp", "takeoff", "landing"}
+    assert all(f.leg == 2 and f.side == "aft" for f in result.limits_exceeded if f.code == "envelope")
 
 
 # -- regressions of the trip's words (desk round, 2026-12) ----------------------------------------
@@ -561,14 +514,7 @@ def test_trip_least_fuel_landed_below_the_reserve():
 
 
 def _first_fuel(inputs, total):
-    """The trip with ``total`` ramp fuel at the first engine start, in the plan's fill order."""
-    import numpy as np
-
-    from loadcheck.engine import loading_arrays
-    from loadcheck.planning import _distribute, _fill_order
-    from loadcheck.trip import trip_legs
-
-    aircraft, trip = inputs.aircraft, inputs.trip
-    first = trip.legs[0]
-    row = _distribute(aircraft, loading_arrays(aircraft, first), _fill_order(aircraft, first, None), np.array([total]))
-    return trip_legs(aircraft, trip, 0, {t.id: float(row[0][i]) for i, t in enumerate(aircraft.tank)})
+    """The trip with ``total`` ramp fuel at the first engine start, read as ``check --fuel main=TOTAL``
+    reads it (the sample's one tank, so no fill order to choose)."""
+    assert [t.id for t in inputs.aircraft.tank] == ["main"]
+    return load_check_inputs(sample("heli2/trip_drop_off.toml"), allow_trip=True, fuel={"main": f"{total!r}"}).trip

@@ -241,7 +241,7 @@ def test_load_sheet_has_the_fuel_plan_and_names_as_check_sheet_gives_them(
     from loadcheck.cli import app
 
     values = {k: v for k, v in TRIP_LEG_2_AFT.items() if not k.startswith("leg")} | {"legs": "1", "names.front": "Alex"}
-    sheet = _post_check(_client(reading_desk, "pia"), values, "TEST-TRIP", route="sheet").text
+    sheet = _post_check(_client(reading_desk, "pia"), values, "TEST-T", route="sheet").text
     loading = tmp_path / "one.toml"
     loading.write_text(
         'format = 1\n[load]\nfront = "340"\nbags = "100"\n[names]\nfront = "Alex"\n[fuel]\nmain = "full"\n'
@@ -551,22 +551,30 @@ def test_no_traceback_or_internal_path_reaches_a_page(
 # -- trips of several legs (issue 19 with issue 16) ----------------------------------------------
 
 
-def _trip_inputs(desk: dict[str, Any], values: dict[str, str]) -> Any:
-    """The library's reading of the check form's trip fields (the same overrides the command line's --leg-* give)."""
-    legs: dict[int, Any] = {}
+def _form_overrides(values: dict[str, str]) -> tuple[dict[str, dict[str, str]], dict[int, dict[str, Any]]]:
+    """The check form's fields read by the test, as ``load_check_inputs`` overrides: ``TABLE.KEY`` of
+    the first leg and ``leg.N.TABLE.KEY`` (``leg.N.fuel`` is fuel put in at the stop, ``add_fuel``) or
+    ``leg.N.label`` of leg N, the loading file's tables by the form's field names; empty fields left
+    out. The desk's own reading of the form (``loadcheck.web.app._overrides``) is what is under test."""
+    first: dict[str, dict[str, str]] = {"load": {}, "names": {}, "fuel": {}, "burn": {}}
+    legs: dict[int, dict[str, Any]] = {}
     for key, value in values.items():
         parts = key.split(".")
-        if parts[0] == "leg" and value:
-            table = {"load": "load", "fuel": "add_fuel", "burn": "burn"}.get(parts[2])
-            leg = legs.setdefault(int(parts[1]), {})
-            if table is None:
-                leg[parts[2]] = value
-            else:
-                leg.setdefault(table, {})[parts[3]] = value
-    first = {
-        table: {k.split(".", 1)[1]: v for k, v in values.items() if k.startswith(table + ".") and v}
-        for table in ("load", "fuel", "burn")
-    }
+        if not value:
+            continue
+        if parts[0] == "leg" and len(parts) == 3:
+            legs.setdefault(int(parts[1]), {})[parts[2]] = value
+        elif parts[0] == "leg":
+            table = "add_fuel" if parts[2] == "fuel" else parts[2]
+            legs.setdefault(int(parts[1]), {}).setdefault(table, {})[parts[3]] = value
+        elif parts[0] in first:
+            first[parts[0]][parts[1]] = value
+    return {table: fields for table, fields in first.items() if fields}, legs
+
+
+def _trip_inputs(desk: dict[str, Any], values: dict[str, str]) -> Any:
+    """The library's reading of the check form's trip fields (the same overrides the command line's --leg-* give)."""
+    first, legs = _form_overrides(values)
     return load_check_inputs(desk["fleet"] / "trip_test.toml", None, allow_trip=True, legs=legs, **first)
 
 
@@ -580,7 +588,7 @@ def _trip_result(desk: dict[str, Any], values: dict[str, str]) -> Any:
 def test_add_a_leg_keeps_everything_typed_and_checks_nothing(reading_desk: dict[str, Any]) -> None:
     client = _client(reading_desk, "pia")
     first = {k: v for k, v in TRIP_LEG_2_AFT.items() if not k.startswith("leg") and k != "legs"}
-    page = _post_check(client, first, "TEST-TRIP", action="add_leg")
+    page = _post_check(client, first, "TEST-T", action="add_leg")
     assert page.status_code == 200 and "Leg 2" in page.text and 'name="legs" value="2"' in page.text
     for key, value in first.items():
         assert f'name="{key}" value="{value}"' in page.text, key
@@ -601,7 +609,7 @@ def test_add_a_leg_keeps_everything_typed_and_checks_nothing(reading_desk: dict[
     three = _post_check(
         client,
         {**TRIP_LEG_2_AFT, "legs": "3", "leg.3.load.bags": "0", "leg.3.burn.trip": "7"},
-        "TEST-TRIP",
+        "TEST-T",
         action="remove_leg:2",
     ).text
     assert 'name="legs" value="2"' in three and 'name="leg.2.load.bags" value="0"' in three
@@ -616,7 +624,12 @@ def test_a_trip_whose_leg_2_fails_says_so_first_and_shows_every_leg(reading_desk
 
     expected = _trip_result(reading_desk, TRIP_LEG_2_AFT)
     assert expected.legs[0].check.ok and not expected.legs[1].check.ok and not expected.ok  # the scenario
-    response = _post_check(_client(reading_desk, "pia"), TRIP_LEG_2_AFT, "TEST-TRIP")
+    takeoff = [leg.check.condition("takeoff") for leg in expected.legs]  # worked by hand in tests/web_helpers.py
+    assert [(c.weight, c.moment) for c in takeoff] == [
+        (pytest.approx(1674), pytest.approx(142860)),
+        (pytest.approx(1408), pytest.approx(122320)),
+    ]
+    response = _post_check(_client(reading_desk, "pia"), TRIP_LEG_2_AFT, "TEST-T")
     assert response.status_code == 200
     page = response.text
     main = page[page.index("<main>") :]
@@ -655,7 +668,7 @@ def test_a_bad_value_in_a_leg_names_the_leg_and_field_keeps_everything_and_recor
 ) -> None:
     client = _client(desk, "pia")
     for key, bad in (("leg.2.burn.taxi", "1 furlong"), ("leg.2.fuel.main", "brimming"), ("leg.2.load.front", "-5")):
-        response = _post_check(client, {**TRIP_LEG_2_AFT, key: bad}, "TEST-TRIP", route="record")
+        response = _post_check(client, {**TRIP_LEG_2_AFT, key: bad}, "TEST-T", route="record")
         assert response.status_code == 422, key
         page = response.text
         problem = page[page.index('class="problem"') : page.index("</ul>", page.index('class="problem"'))]
@@ -677,23 +690,23 @@ def test_markup_in_a_leg_is_shown_as_text(reading_desk: dict[str, Any]) -> None:
     markup = "<script>alert('leg')</script>"
     client = _client(reading_desk, "pia")
     for route in ("check", "sheet"):
-        page = _post_check(client, {**TRIP_LEG_2_AFT, "leg.2.label": markup}, "TEST-TRIP", route=route).text
+        page = _post_check(client, {**TRIP_LEG_2_AFT, "leg.2.label": markup}, "TEST-T", route=route).text
         assert "<script>alert" not in page, route
         assert "&lt;script&gt;alert(" in page, route
-    form = _post_check(client, {**TRIP_LEG_2_AFT, "leg.2.label": markup, "leg.2.burn.taxi": "x"}, "TEST-TRIP").text
+    form = _post_check(client, {**TRIP_LEG_2_AFT, "leg.2.label": markup, "leg.2.burn.taxi": "x"}, "TEST-T").text
     assert "<script>alert" not in form and "&lt;script&gt;" in form
 
 
 def test_record_a_trip_through_the_recording_job(desk: dict[str, Any]) -> None:
     client = _client(desk, "pia")
-    response = _post_check(client, TRIP_LEG_2_AFT, "TEST-TRIP", route="record")
+    response = _post_check(client, TRIP_LEG_2_AFT, "TEST-T", route="record")
     assert response.status_code == 303
     records = _records(desk)
     assert len(records) == 1
     record = records[0]
     expected = _trip_result(desk, TRIP_LEG_2_AFT)
     assert record.result == json.loads(json.dumps(expected.to_dict())) and record.ok is False
-    assert record.pilot == "pia" and record.source == "web desk" and record.registration == "TEST-TRIP"
+    assert record.pilot == "pia" and record.source == "web desk" and record.registration == "TEST-T"
     assert [leg["label"] for leg in record.inputs["leg"]] == ["back solo"]
     assert record.inputs["leg"][0]["load"] == {"front": "170"} and record.inputs["leg"][0]["add_fuel"] == {"main": "5"}
     detail = client.get(response.headers["location"]).text
@@ -704,7 +717,7 @@ def test_record_a_trip_through_the_recording_job(desk: dict[str, Any]) -> None:
 
 
 def test_a_recorded_trip_is_verified_by_the_dispatcher(desk: dict[str, Any]) -> None:
-    assert _post_check(_client(desk, "pia"), TRIP_LEG_2_AFT, "TEST-TRIP", route="record").status_code == 303
+    assert _post_check(_client(desk, "pia"), TRIP_LEG_2_AFT, "TEST-T", route="record").status_code == 303
     dan = _client(desk, "dan")
     record_id = _records(desk)[0].id
     page = dan.get(f"/records/{record_id}").text
@@ -718,7 +731,7 @@ def test_trip_load_sheet_is_the_command_lines_trip_sheet(
 
     from loadcheck.cli import app
 
-    sheet = _post_check(_client(reading_desk, "pia"), TRIP_LEG_2_AFT, "TEST-TRIP", route="sheet").text
+    sheet = _post_check(_client(reading_desk, "pia"), TRIP_LEG_2_AFT, "TEST-T", route="sheet").text
     cli_file = tmp_path / "trip.html"
     args = [
         "check",
@@ -767,13 +780,13 @@ def test_plan_a_trip_from_the_form_is_the_library_answer(reading_desk: dict[str,
     stop = fuel_to_add(inputs.aircraft, inputs.trip, 2)
     assert most.feasible and stop.feasible
     client = _client(reading_desk, "pia")
-    page = _post_check(client, within, "TEST-TRIP", action="fuel").text
+    page = _post_check(client, within, "TEST-T", action="fuel").text
     assert escape(most.answer_display) in page and "every leg" in page and 'id="leg-2"' in page
-    page = _post_check(client, {**within, "stop": "2"}, "TEST-TRIP", action="stop").text
+    page = _post_check(client, {**within, "stop": "2"}, "TEST-T", action="stop").text
     assert (
         escape(stop.question[1:]) in page and escape(stop.answer_display) in page
     )  # the page capitalises its first letter
-    refused = _post_check(client, within, "TEST-TRIP", action="payload")
+    refused = _post_check(client, within, "TEST-T", action="payload")
     assert refused.status_code == 422 and "loading of one leg" in refused.text
     assert _records(reading_desk) == []
 
@@ -808,7 +821,7 @@ def test_api_check_takes_legs_as_the_command_line_does(runner: AppRunner, desk: 
     cli = runner.invoke(app, args)
     assert cli.exit_code == 1
     body = {
-        "registration": "TEST-TRIP",
+        "registration": "TEST-T",
         "load": {"front": 340, "bags": 100},
         "fuel": {"main": "full"},
         "burn": {"taxi": 1, "trip": 20},
@@ -828,7 +841,7 @@ def test_api_check_takes_legs_as_the_command_line_does(runner: AppRunner, desk: 
 def test_api_names_go_into_the_record_and_a_bad_one_is_refused(desk: dict[str, Any]) -> None:
     client = _client(desk, "pia")
     body = {
-        "registration": "TEST-TRIP",
+        "registration": "TEST-T",
         "load": {"front": 340, "bags": 100},
         "fuel": {"main": "full"},
         "burn": {"taxi": 1, "trip": 20},
@@ -852,7 +865,7 @@ def test_api_bad_leg_names_the_leg_and_records_nothing(desk: dict[str, Any]) -> 
 
     client = _client(desk, "pia")
     body = {
-        "registration": "TEST-TRIP",
+        "registration": "TEST-T",
         "load": {"front": 340},
         "fuel": {"main": "full"},
         "record": True,
@@ -875,19 +888,19 @@ def test_api_bad_leg_names_the_leg_and_records_nothing(desk: dict[str, Any]) -> 
 
 def test_names_typed_on_the_form_show_beside_the_seat_and_go_into_the_record(desk: dict[str, Any]) -> None:
     client = _client(desk, "pia")
-    form = client.get("/aircraft/TEST-TRIP").text
+    form = client.get("/aircraft/TEST-T").text
     assert (
         'name="names.front"' in form and 'name="names.rear"' in form and 'name="names.bags"' not in form
     )  # seats only
     values = {**TRIP_LEG_2_AFT, "names.front": "Alex <i>R</i>", "leg.2.names.front": "Kim"}
-    page = _post_check(client, values, "TEST-TRIP").text
+    page = _post_check(client, values, "TEST-T").text
     leg_1 = page[page.index('id="leg-1"') : page.index('id="leg-2"', page.index('id="leg-1"') + 1)]
     leg_2 = page[page.rindex('<section class="leg" id="leg-2">') : page.index('<figure class="chart">')]
     assert '<span class="who">· Alex &lt;i&gt;R&lt;/i&gt;</span>' in leg_1 and "<i>R</i>" not in page
     assert '<span class="who">· Kim</span>' in leg_2 and "Alex" not in leg_2
-    sheet = _post_check(client, values, "TEST-TRIP", route="sheet").text
+    sheet = _post_check(client, values, "TEST-T", route="sheet").text
     assert "Alex &lt;i&gt;R&lt;/i&gt;" in sheet and "Kim" in sheet and "<i>R</i>" not in sheet
-    assert _post_check(client, values, "TEST-TRIP", route="record").status_code == 303
+    assert _post_check(client, values, "TEST-T", route="record").status_code == 303
     inputs = _records(desk)[0].inputs
     assert inputs["names"] == {"front": "Alex <i>R</i>"} and inputs["leg"][0]["names"] == {"front": "Kim"}
 
@@ -896,7 +909,7 @@ def test_a_bad_name_brings_the_form_back_with_the_field_named(desk: dict[str, An
     client = _client(desk, "pia")
     for key in ("names.rear", "leg.2.names.rear"):  # a leg's field in words: the tests at the end
         response = _post_check(
-            client, {**TRIP_LEG_2_AFT, key: "Sam"}, "TEST-TRIP", route="record"
+            client, {**TRIP_LEG_2_AFT, key: "Sam"}, "TEST-T", route="record"
         )  # no one weighs in the rear
         assert response.status_code == 422 and "carries no weight" in response.text, key
         assert key != "names.rear" or "names.rear:" in response.text
@@ -1029,9 +1042,9 @@ def test_desk_refused_a_stop_of_a_one_leg_loading_in_its_own_words(desk: dict[st
         fuel_to_add(inputs.aircraft, inputs.given, 2)
     (expected,) = refused.value.problems
     client = _client(desk, "pia")
-    page = _post_check(client, {**one_leg, "stop": "2"}, "TEST-TRIP", action="stop")
+    page = _post_check(client, {**one_leg, "stop": "2"}, "TEST-T", action="stop")
     assert page.status_code == 422 and escape(expected.message) in page.text, page.text
-    body = {"registration": "TEST-TRIP", "load": {"front": 340, "bags": 100}, "fuel": {"main": "full"}, "stop": 2}
+    body = {"registration": "TEST-T", "load": {"front": 340, "bags": 100}, "fuel": {"main": "full"}, "stop": 2}
     api = client.post("/api/plan/stop", json={**body, "burn": {"taxi": 1, "trip": 20}})
     assert api.status_code == 422
     assert [(p["field"], p["message"]) for p in api.json()["problems"]] == [(expected.field, expected.describe())]
@@ -1048,7 +1061,7 @@ def test_a_trip_longer_than_the_form_is_checked_through_the_api_as_the_library_c
 
     legs = MAX_LEGS + 3  # one circuit after another, 0.5 gal taxi and 1 gal each: 40 gal is plenty
     body = {
-        "registration": "TEST-TRIP",
+        "registration": "TEST-T",
         "load": {"front": 340},
         "fuel": {"main": "full"},
         "burn": {"taxi": 0.5, "trip": 1},
@@ -1069,14 +1082,14 @@ def test_a_trip_longer_than_the_form_is_checked_through_the_api_as_the_library_c
     answer = client.post("/api/check", json=body)
     assert answer.status_code == 200 and answer.json() == expected.to_dict()
     # the form stops at MAX_LEGS and says where a longer trip is checked
-    full = _post_check(client, {"legs": str(MAX_LEGS)}, "TEST-TRIP", action="add_leg")
+    full = _post_check(client, {"legs": str(MAX_LEGS)}, "TEST-T", action="add_leg")
     assert full.status_code == 200 and 'value="add_leg"' not in full.text and "POST /api/check" in full.text
-    crafted = _post_check(client, {"legs": str(legs)}, "TEST-TRIP", action="check")
+    crafted = _post_check(client, {"legs": str(legs)}, "TEST-T", action="check")
     assert crafted.status_code == 422 and "POST /api/check" in crafted.text
 
 
 def _library_problems(desk: dict[str, Any], **overrides: Any) -> list[Any]:
-    """The problems the library finds in a loading of TEST-TRIP given as ``load_check_inputs`` overrides."""
+    """The problems the library finds in a loading of TEST-T given as ``load_check_inputs`` overrides."""
     from loadcheck.errors import LoadcheckError
 
     with pytest.raises(LoadcheckError) as refused:
@@ -1085,12 +1098,9 @@ def _library_problems(desk: dict[str, Any], **overrides: Any) -> list[Any]:
 
 
 def _form_problems(desk: dict[str, Any], values: dict[str, str]) -> list[Any]:
-    """The problems the library finds in the check form's values, read as the desk reads them."""
-    from loadcheck.files import load_aircraft
-    from loadcheck.web.app import _overrides
-
-    _, overrides = _overrides(values, load_aircraft(desk["fleet"] / "trip_test.toml"))
-    return _library_problems(desk, **overrides)
+    """The problems the library finds in the check form's values (read by the test, ``_form_overrides``)."""
+    first, legs = _form_overrides(values)
+    return _library_problems(desk, legs=legs, **first)
 
 
 def _problems_shown(page: str) -> str:
@@ -1109,7 +1119,7 @@ BAD_LEG_2 = (
 )
 # An API body whose leg 2 has a negative weight.
 API_BAD_LEG_2: dict[str, Any] = {
-    "registration": "TEST-TRIP",
+    "registration": "TEST-T",
     "load": {"front": 340},
     "fuel": {"main": "full"},
     "leg": [{"load": {"front": -1}, "burn": {}}],
@@ -1126,7 +1136,7 @@ def test_desk_rewrote_a_legs_problem_instead_of_showing_the_librarys(desk: dict[
     for key, bad in BAD_LEG_2:
         values = {**TRIP_LEG_2_AFT, key: bad}
         expected = _form_problems(desk, values)
-        response = _post_check(client, values, "TEST-TRIP", route="record")
+        response = _post_check(client, values, "TEST-T", route="record")
         assert response.status_code == 422, key
         for problem in expected:
             assert str(escape(problem.describe())) in _problems_shown(response.text), (key, problem)
@@ -1171,7 +1181,7 @@ def test_a_legs_problem_reads_leg_2_on_the_form_and_in_the_api(desk: dict[str, A
 
     client = _client(desk, "pia")
     for key, bad in BAD_LEG_2:
-        problems = _problems_shown(_post_check(client, {**TRIP_LEG_2_AFT, key: bad}, "TEST-TRIP", route="record").text)
+        problems = _problems_shown(_post_check(client, {**TRIP_LEG_2_AFT, key: bad}, "TEST-T", route="record").text)
         path = key.split(".", 2)[2].replace("fuel.", "add_fuel.")
         assert f"leg 2, {path}: " in problems and str(escape(bad)) in problems, key
         assert "leg 2: " not in problems and "leg[" not in problems, key

@@ -7,6 +7,8 @@ import shutil
 from pathlib import Path
 from typing import TYPE_CHECKING, Any
 
+from .helpers import TRIP_AIRCRAFT
+
 if TYPE_CHECKING:
     from fastapi.testclient import TestClient
 
@@ -28,65 +30,21 @@ __all__ = [
 ]
 
 
-# A test aircraft of our own (invented; not a sample, not a real type) for the trip tests: a
-# rectangular envelope from 35 to 43 in, front seats well ahead of the empty CG, baggage far
-# aft. With two up front, 100 lb of bags and full fuel the first leg is inside; when one
-# front occupant gets off at the stop the CG moves aft past 43 in (the figures are the
-# library's: the tests compare the desk's pages with check_trip, never with numbers of their own).
-TRIP_AIRCRAFT = """\
-format = 1
-name = "Trip test aircraft (invented for the desk's tests)"
-registration = "TEST-TRIP"
-
-[units]
-mass = "lb"
-arm = "in"
-fuel_volume = "usgal"
-
-[empty]
-weight = 1000.0
-arm = 40.0
-date = 2026-11-01
-
-[limits]
-max_takeoff_weight = 1800
-
-[[station]]
-id = "front"
-label = "Front seats"
-kind = "seat"
-arm = 30.0
-max_weight = 400
-
-[[station]]
-id = "rear"
-label = "Rear seats"
-kind = "seat"
-arm = 70.0
-max_weight = 400
-
-[[station]]
-id = "bags"
-label = "Baggage"
-kind = "baggage"
-arm = 100.0
-max_weight = 100
-
-[[tank]]
-id = "main"
-label = "Main tank"
-arm = 45.0
-usable = 40.0
-fuel = "avgas"
-levels = { local = 25.0 }
-
-[[envelope]]
-category = "normal"
-axes = ["arm", "weight"]
-points = [[35, 900], [35, 1800], [43, 1800], [43, 900]]
-"""
-
-# The check form's fields of a two-leg trip of TRIP_AIRCRAFT whose second leg alone is aft of the envelope.
+# The desk's fleet holds the trip test aircraft TEST-T (tests/helpers.TRIP_AIRCRAFT, invented,
+# its figures worked by hand there) as trip_test.toml.
+#
+# The check form's fields of a two-leg trip of TEST-T whose second leg alone is aft of the
+# envelope (74 to 86 in), worked by hand with the moment method of FAA-H-8083-1B (2016) ch. 2
+# (moment = weight x arm; CG = moment / weight; avgas 6.0 lb/US gal, common practice):
+#   leg 1: two up front 340 lb at 70 in, bags 100 lb at 180 in, full fuel 40 gal (240 lb) at 90 in:
+#     ramp     1,000 + 340 + 100 + 240 = 1,680 lb; 80,000 + 23,800 + 18,000 + 21,600 = 143,400 lb-in; CG 85.36 in
+#     takeoff  (39 gal) 1,674 lb, 142,860 lb-in, CG 85.34 in; landing (19 gal) 1,554 lb, 132,060 lb-in, CG 84.98 in
+#     within at every condition;
+#   leg 2: one front occupant gets off (170 lb), 5 gal put in (19 + 5 = 24 gal, 144 lb):
+#     ramp     1,000 + 170 + 100 + 144 = 1,414 lb; 80,000 + 11,900 + 18,000 + 12,960 = 122,860 lb-in; CG 86.89 in
+#     takeoff  (23 gal) 1,408 lb, 122,320 lb-in, CG 86.88 in; landing (13 gal) 1,348 lb, 116,920 lb-in, CG 86.74 in
+#     aft of 86 in at every condition.
+# tests/test_trip.py checks these figures through check_trip; the desk's tests compare its pages with the library.
 TRIP_LEG_2_AFT = {
     "load.front": "340",
     "load.bags": "100",
@@ -103,7 +61,8 @@ TRIP_LEG_2_AFT = {
 
 
 def make_desk(tmp: Path) -> tuple[Path, Path, Path]:
-    """A fleet folder (copy of the samples and TRIP_AIRCRAFT), a check log path and an accounts file with ACCOUNTS."""
+    """A fleet folder (copy of the samples and the trip test aircraft TRIP_AIRCRAFT as trip_test.toml), a
+    check log path and an accounts file with ACCOUNTS."""
     from argon2 import PasswordHasher
 
     from loadcheck.web.users import UserStore
