@@ -78,13 +78,13 @@ def test_the_check_forms_own_fields_go_through(reading_desk: dict[str, Any]) -> 
 
 def test_a_trip_forms_own_fields_go_through(reading_desk: dict[str, Any]) -> None:
     client = _client(reading_desk, "pia")
-    page = _post_check(client, TRIP_LEG_2_AFT, "TEST-TRIP", route="edit").text  # the form again, with leg 2
-    fields = _own_fields(page, "/aircraft/TEST-TRIP/check")
+    page = _post_check(client, TRIP_LEG_2_AFT, "TEST-T", route="edit").text  # the form again, with leg 2
+    fields = _own_fields(page, "/aircraft/TEST-T/check")
     assert {"leg.2.label", "leg.2.load.front", "leg.2.fuel.main", "leg.2.burn.trip", "stop"} <= set(fields)
     data = {name: TRIP_LEG_2_AFT.get(name, "") for name in fields}
     for action in ("check", "fuel", "add_leg", "remove_leg:2"):
         response = client.post(
-            "/aircraft/TEST-TRIP/check", data={**data, "csrf": csrf_of(page), "action": action}, follow_redirects=False
+            "/aircraft/TEST-T/check", data={**data, "csrf": csrf_of(page), "action": action}, follow_redirects=False
         )
         assert response.status_code == 200, (action, response.text)
 
