@@ -44,16 +44,8 @@ def refuse_unknown(form: Mapping[str, object], fields: Iterable[str]) -> None:
     fastapi.exceptions.HTTPException: 422: this form has no field 'nmae': nothing was checked, recorded or changed; ...
     """
     unknown = sorted(set(form.keys()) - set(fields) - set(FORM_FIELDS))
-    if not unknown:
-        return
-    names = ", ".join(repr(name[:_CUT]) for name in unknown[:_SHOWN])
-    if len(unknown) > _SHOWN:
-        names += f" and {len(unknown) - _SHOWN} more"
-    raise HTTPException(
-        422,
-        f"this form has no field {names}: nothing was checked, recorded or changed; "
-        "reload the page and use the desk's own form",
-    )
+    if unknown:
+        _refuse("this form has no field {}", unknown)
 
 
 def refuse_repeated(items: Sequence[tuple[str, object]]) -> None:
@@ -82,13 +74,16 @@ def refuse_repeated(items: Sequence[tuple[str, object]]) -> None:
     """
     counts = Counter(name for name, _ in items)
     repeated = sorted(name for name, count in counts.items() if count > 1)
-    if not repeated:
-        return
-    names = ", ".join(repr(name[:_CUT]) for name in repeated[:_SHOWN])
-    if len(repeated) > _SHOWN:
-        names += f" and {len(repeated) - _SHOWN} more"
+    if repeated:
+        _refuse("this form gives the field {} more than once", repeated)
+
+
+def _refuse(what: str, names: list[str]) -> None:
+    """422 naming ``names`` in ``what`` (each cut to 40 characters, five at the most); nothing was done."""
+    named = ", ".join(repr(name[:_CUT]) for name in names[:_SHOWN])
+    if len(names) > _SHOWN:
+        named += f" and {len(names) - _SHOWN} more"
     raise HTTPException(
         422,
-        f"this form gives the field {names} more than once: nothing was checked, recorded or changed; "
-        "reload the page and use the desk's own form",
+        what.format(named) + ": nothing was checked, recorded or changed; reload the page and use the desk's own form",
     )
