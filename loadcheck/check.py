@@ -28,8 +28,17 @@ import shapely
 from .aircraft import Aircraft, Envelope
 from .balance import moment_tables
 from .caution import PILOT_CAUTION
-from .engine import CONDITIONS, WEIGHT_TOLERANCE, Evaluation, envelope_state, evaluate, path_states_many
+from .engine import (
+    CONDITIONS,
+    MIN_FLIGHT_WEIGHT_CONDITIONS,
+    WEIGHT_TOLERANCE,
+    Evaluation,
+    envelope_state,
+    evaluate,
+    path_states_many,
+)
 from .engine import _tables as engine_tables
+from .envelope import TOLERANCE as ENVELOPE_TOLERANCE
 from .envelope import EnvelopeShape, Vary
 from .loading import Loading, ResolvedLoading, require_usable, resolve_loading
 from .results import (
@@ -183,7 +192,7 @@ def _explain(
     )
     units_info = UnitsInfo(mass=units.mass, arm=units.arm, fuel_volume=units.fuel_volume, moment=units.moment)
     rows = _Rows(found)
-    margins = _margins(shapes, found, tables.weights, tables.allowance)
+    margins = _margins(shapes, found, tables.weights, tables.allowance, aircraft.limits.min_flight_weight)
     once = _Once.all(aircraft, category)
     # many rows: every slice a finding outside an envelope is told on, cut together (as the margins are)
     cuts = _outside_cuts(shapes, found, tables.allowance) if len(loadings) > _ONE_BY_ONE else None
@@ -455,6 +464,7 @@ def _margins_one(
     states: Sequence[tuple[float, float, float]],
     weight_limits: Sequence[float | None],
     allowance: float,
+    minimum: float | None = None,
 ) -> list[Margins]:
     """The margins of one loading at each condition (``states``: weight, moment, lateral
     moment in CONDITIONS order), from :meth:`EnvelopeShape.slices`: every slice of an
@@ -469,6 +479,8 @@ def _margins_one(
         limit = weight_limits[k]
         if limit is not None:
             keep(k, "weight", limit - weight)
+        if _below_minimum(k, weight, minimum):
+            keep(k, "weight", weight - minimum)  # type: ignore[operator]
     for shape in shapes:
         lines: list[tuple[float, float, float, Vary]] = []
         held: list[tuple[int, str, float]] = []  # per line: condition, what it gives, the value held
@@ -485,6 +497,8 @@ def _margins_one(
                 held.append((k, "weight", w))
         for (k, what, value), intervals in zip(held, shape.slices(lines), strict=True):
             if not intervals:
+                if what == "weight":  # no weight at all is inside at this CG
+                    keep(k, "weight", _room_outside(shape, k, states[k][0], allowance))
                 continue
             lo, hi = _pick(intervals, value)
             if what == "lateral":
@@ -494,8 +508,30 @@ def _margins_one(
                 keep(k, "forward", value - lo)
                 keep(k, "aft", hi - value)
             else:
-                keep(k, "weight", _room_to(shape, k, hi, allowance) - states[k][0])
+                room = _room_to(shape, k, hi, allowance) - states[k][0]
+                keep(k, "weight", min(room, value - lo) if value < lo - _weight_noise(shape) else room)
     return [Margins(**v) for v in values]
+
+
+def _weight_noise(shape: EnvelopeShape) -> float:
+    """How far below an envelope's weight slice a weight may lie and still count as on it:
+    the containment tolerance of :data:`loadcheck.envelope.TOLERANCE` on the weight axis [mass unit]."""
+    band = shape.weight_range
+    return 0.0 if band is None else ENVELOPE_TOLERANCE * max(band[1] - band[0], 1.0)
+
+
+def _room_outside(shape: EnvelopeShape, k: int, weight: Any, allowance: float) -> Any:
+    """The weight margin an envelope gives where no weight is inside it at the CG tested:
+    never positive, since no weight is allowed at that CG; negative by how far the weight is
+    above the envelope's top (with the ramp allowance at ramp) where it is [mass unit]."""
+    top = shape.max_weight
+    if isinstance(weight, np.ndarray):
+        return (
+            np.full(weight.shape, np.nan)
+            if top is None
+            else np.minimum(_room_to(shape, k, top, allowance) - weight, 0.0)
+        )
+    return 0.0 if top is None else min(_room_to(shape, k, top, allowance) - weight, 0.0)
 
 
 def _room_to(shape: EnvelopeShape, k: int, high: Any, allowance: float) -> Any:
@@ -513,8 +549,21 @@ def _room_to(shape: EnvelopeShape, k: int, high: Any, allowance: float) -> Any:
     )
 
 
+def _below_minimum(k: int, weight: Any, minimum: float | None) -> Any:
+    """Where the weight at condition ``k`` (CONDITIONS order) is below the minimum flight
+    weight, which holds at takeoff and landing (:data:`loadcheck.engine.MIN_FLIGHT_WEIGHT_CONDITIONS`),
+    with the engine's tolerance; the weight margin there is minus the weight short of it."""
+    if minimum is None or CONDITIONS[k] not in MIN_FLIGHT_WEIGHT_CONDITIONS:
+        return False
+    return weight < minimum * (1 - WEIGHT_TOLERANCE)
+
+
 def _margins(
-    shapes: Sequence[EnvelopeShape], found: Evaluation, weights: dict[str, list[tuple[str, float]]], allowance: float
+    shapes: Sequence[EnvelopeShape],
+    found: Evaluation,
+    weights: dict[str, list[tuple[str, float]]],
+    allowance: float,
+    minimum: float | None = None,
 ) -> dict[str, list[Margins]]:
     """The margins of every loading at every condition (see :class:`~loadcheck.results.Margins`).
 
@@ -530,7 +579,8 @@ def _margins(
             for name in CONDITIONS
         ]
         per_row = [
-            _margins_one(shapes, [(w[i], m[i], lat[i]) for w, m, lat in states], limits, allowance) for i in range(n)
+            _margins_one(shapes, [(w[i], m[i], lat[i]) for w, m, lat in states], limits, allowance, minimum)
+            for i in range(n)
         ]
         return {name: [row[k] for row in per_row] for k, name in enumerate(CONDITIONS)}
     values = {name: {key: np.full(n, np.nan) for key in _MARGIN_KEYS} for name in CONDITIONS}
@@ -543,6 +593,9 @@ def _margins(
         weight_limit = min((value for _, value in weights[name]), default=None)
         if weight_limit is not None:
             keep(name, "weight", weight_limit - found.weight[name])
+        below = _below_minimum(CONDITIONS.index(name), found.weight[name], minimum)
+        if np.any(below):
+            keep(name, "weight", np.where(below, found.weight[name] - minimum, np.nan))  # type: ignore[operator]
     for shape in shapes:
         tested = [
             envelope_state(
@@ -569,9 +622,15 @@ def _margins(
                 keep(name, first, np.where(found_here, held[part] - lo[part], np.nan))
                 keep(name, second, np.where(found_here, hi[part] - held[part], np.nan))
             if upright:
-                top = hi[4 * n + k * n : 4 * n + (k + 1) * n]
-                if (~np.isnan(top)).any():
-                    keep(name, "weight", _room_to(shape, k, top, allowance) - found.weight[name])
+                part = slice(4 * n + k * n, 4 * n + (k + 1) * n)
+                top, bottom, tested_weight = hi[part], lo[part], w[k * n : (k + 1) * n]
+                weight = found.weight[name]
+                with np.errstate(invalid="ignore"):
+                    room = _room_to(shape, k, top, allowance) - weight
+                    room = np.where(
+                        tested_weight < bottom - _weight_noise(shape), np.minimum(room, tested_weight - bottom), room
+                    )
+                keep(name, "weight", np.where(np.isnan(top), _room_outside(shape, k, weight, allowance), room))
     out: dict[str, list[Margins]] = {}
     for name in CONDITIONS:
         columns = [_none_for_nan(values[name][key]) for key in _MARGIN_KEYS]

@@ -146,8 +146,11 @@ class Margins(Result):
 
     forward/aft: CG to the forward/aft limit at this weight [arm unit]; left/right: lateral
     CG to the lateral limits [arm unit]; weight: to the lower of the weight limit and the
-    longitudinal envelope's top at this CG [mass unit]. None where no envelope gives that
-    limit.
+    longitudinal envelope's top at this CG [mass unit], never above zero where the point is
+    outside the envelope's weight range at this CG (below its bottom there: minus the weight
+    short of it; no weight inside at this CG: zero, or minus the excess over the envelope's
+    top; below the minimum flight weight at takeoff or landing: minus the weight short of
+    it). None where no envelope gives that limit.
     """
 
     forward: float | None = None

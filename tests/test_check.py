@@ -206,3 +206,97 @@ def test_margins_on_simple_box():
     assert ramp.margins.forward == pytest.approx(ramp.arm - 35.0)
     assert ramp.margins.aft == pytest.approx(48.0 - ramp.arm)
     assert ramp.margins.weight == pytest.approx(2000.0 - ramp.weight)
+
+
+# regression (outside trial): where the vertical line at the CG missed the envelope, only the
+# maximum weight counted, so a point above the envelope's top showed a positive weight margin
+# beside the finding that it is above the top. The figures are worked by hand (FAA-H-8083-1B,
+# chapter 2: CG = total moment / total weight) on the test box: empty 1000 lb at 40 in, front
+# seat at 35 in, rear at 70 in, baggage at 95 in, envelope 35-48 in from 1200 to 2000 lb,
+# maximum takeoff weight 2600 lb.
+_OUTSIDE_CASES = [
+    # load, weight [lb], CG [in], weight margin [lb]
+    ({"rear": 1000, "bag": 100}, 2100.0, 119500 / 2100, -100.0),  # aft of the box and 100 lb above its top
+    ({"rear": 400, "bag": 100}, 1500.0, 77500 / 1500, 0.0),  # aft of the box: no weight inside at that CG
+    ({"front": 100}, 1100.0, 43500 / 1100, -100.0),  # inside in CG, 100 lb below the box's bottom
+    ({"front": 500}, 1500.0, 57500 / 1500, 500.0),  # inside: 500 lb to the box's top
+]
+
+
+def _outside_box():
+    return simple_aircraft(
+        limits={"max_takeoff_weight": 2600.0},
+        envelope=[
+            {
+                "category": "normal",
+                "axes": ["arm", "weight"],
+                "points": [[35, 1200], [35, 2000], [48, 2000], [48, 1200]],
+            }
+        ],
+    )
+
+
+def test_a_weight_margin_was_positive_beside_a_point_above_the_envelopes_top():
+    from loadcheck.check import check_many
+    from loadcheck.loading import resolve_loading
+
+    aircraft = _outside_box()
+    loadings = [Loading(load=load, fuel={"main": 0}) for load, *_ in _OUTSIDE_CASES]
+    one_by_one = [check_loading(aircraft, loading) for loading in loadings]
+    together = check_many(aircraft, [resolve_loading(loading, aircraft) for loading in loadings])  # the array path
+    for (_, weight, cg, margin), single, batch in zip(_OUTSIDE_CASES, one_by_one, together, strict=True):
+        for condition in ("ramp", "takeoff", "landing", "zero_fuel"):
+            c = single.condition(condition)
+            assert c.weight == pytest.approx(weight) and c.arm == pytest.approx(cg)
+            assert c.margins.weight == pytest.approx(margin, abs=1e-9)
+            assert batch.condition(condition).margins == c.margins
+            if not c.ok:
+                assert c.margins.weight <= 0
+            assert single.to_dict()["conditions"][0]["margins"]["weight"] == pytest.approx(margin, abs=1e-9)
+
+
+def test_a_zero_weight_margin_outside_the_envelope_is_marked_not_read_as_on_the_limit():
+    from loadcheck.render.terminal import weight_margin
+
+    aircraft = _outside_box()
+    check = check_loading(aircraft, Loading(load={"rear": 400, "bag": 100}, fuel={"main": 0}))
+    shown, marked = weight_margin(check.condition("takeoff"), check)
+    assert marked and shown.endswith("(edge)")
+    inside = check_loading(aircraft, Loading(load={"front": 500}, fuel={"main": 0}))
+    assert weight_margin(inside.condition("takeoff"), inside) == ("500.0", False)
+
+
+@pytest.mark.parametrize("name", ["trainer4", "twin6", "tandem2", "heli2"])
+def test_no_margin_is_positive_beside_a_condition_outside_its_limits(name):
+    # invariant (docs/computation.md, Margins): a condition inside its envelope and weight
+    # limits has no margin below zero, and one outside them has no weight margin above zero
+    # (where every envelope is longitudinal: a lateral one alone may put it outside)
+    from loadcheck.check import check_many
+    from loadcheck.loading import resolve_loading
+
+    from .helpers import random_loadings
+
+    aircraft = parse_aircraft(sample_data(f"{name}/aircraft.toml"))
+    stations, fuel, taxi, trip = random_loadings(aircraft, 80, seed=7, over=1.3)
+    loadings = [
+        resolve_loading(
+            Loading(
+                load={s.id: float(stations[i, j]) for j, s in enumerate(aircraft.station)},
+                fuel={t.id: float(fuel[i, j]) for j, t in enumerate(aircraft.tank)},
+                burn={"taxi": float(taxi[i]), "trip": float(trip[i])},
+            ),
+            aircraft,
+        )
+        for i in range(len(taxi))
+    ]
+    lateral = aircraft.has_lateral if hasattr(aircraft, "has_lateral") else any(e.is_lateral for e in aircraft.envelope)
+    outside = 0
+    for result in check_many(aircraft, loadings):
+        for c in result.conditions:
+            values = [v for v in (c.margins.forward, c.margins.aft, c.margins.left, c.margins.right, c.margins.weight)]
+            if c.ok:
+                assert all(v is None or v >= -1e-6 for v in values), (c.condition, c)
+            elif not lateral:
+                outside += 1
+                assert c.margins.weight is not None and c.margins.weight <= 1e-9, (c.condition, c)
+    assert lateral or outside  # the random loadings reach outside the limits

@@ -359,19 +359,21 @@ MARGIN_NOTE = (
     "to the maximum weight or to the envelope's top edge at that CG, whichever is lower."
 )
 EDGE_NOTE = (
-    "(edge): the envelope's edge at that CG sets this margin; no maximum weight is exceeded (the CG findings "
-    "say what is)."
+    "(edge): the envelope's edge at that CG sets this margin (0 where no weight at all is inside the envelope "
+    "at that CG); no maximum weight is exceeded (the CG findings say what is)."
 )
 
 
 def weight_margin(c: Condition, result: CheckResult) -> tuple[str, bool]:
     """The weight margin as shown, and whether it is marked "(edge)": shown below zero with no
     maximum weight exceeded, so the envelope's edge at this CG sets it (a CG matter, not an
-    overweight one). A margin that shows as zero is no mark: the point is on the limit, which
-    holds (limits are inclusive, docs/computation.md), whatever noise far below the display
-    precision its figure carries."""
+    overweight one), or zero at a condition outside the envelope (no weight at all is inside
+    at that CG). A margin that shows as zero at a condition inside is no mark: the point is on
+    the limit, which holds (limits are inclusive, docs/computation.md), whatever noise far below
+    the display precision its figure carries."""
     text = _margin(c.margins.weight, result.units.mass)
-    if c.margins.weight is None or not text.startswith("-"):
+    outside_with_no_room = not c.ok and c.margins.weight is not None and c.margins.weight <= 0
+    if c.margins.weight is None or not (text.startswith("-") or outside_with_no_room):
         return text, False
     weight_finding = any(f.code in _WEIGHT_CODES and f.condition == c.condition for f in result.findings)
     return (text, False) if weight_finding else (f"{text} (edge)", True)
