@@ -30,7 +30,6 @@ from .balance import moment_tables
 from .caution import PILOT_CAUTION
 from .engine import (
     CONDITIONS,
-    MIN_FLIGHT_WEIGHT_CONDITIONS,
     WEIGHT_TOLERANCE,
     Evaluation,
     envelope_state,
@@ -464,7 +463,7 @@ def _margins_one(
     states: Sequence[tuple[float, float, float]],
     weight_limits: Sequence[float | None],
     allowance: float,
-    minimum: float | None = None,
+    short: Sequence[float] = (),
 ) -> list[Margins]:
     """The margins of one loading at each condition (``states``: weight, moment, lateral
     moment in CONDITIONS order), from :meth:`EnvelopeShape.slices`: every slice of an
@@ -479,8 +478,8 @@ def _margins_one(
         limit = weight_limits[k]
         if limit is not None:
             keep(k, "weight", limit - weight)
-        if _below_minimum(k, weight, minimum):
-            keep(k, "weight", weight - minimum)  # type: ignore[operator]
+        if short and short[k] == short[k]:  # not NaN: below the minimum flight weight
+            keep(k, "weight", short[k])
     for shape in shapes:
         lines: list[tuple[float, float, float, Vary]] = []
         held: list[tuple[int, str, float]] = []  # per line: condition, what it gives, the value held
@@ -549,15 +548,6 @@ def _room_to(shape: EnvelopeShape, k: int, high: Any, allowance: float) -> Any:
     )
 
 
-def _below_minimum(k: int, weight: Any, minimum: float | None) -> Any:
-    """Where the weight at condition ``k`` (CONDITIONS order) is below the minimum flight
-    weight, which holds at takeoff and landing (:data:`loadcheck.engine.MIN_FLIGHT_WEIGHT_CONDITIONS`),
-    with the engine's tolerance; the weight margin there is minus the weight short of it."""
-    if minimum is None or CONDITIONS[k] not in MIN_FLIGHT_WEIGHT_CONDITIONS:
-        return False
-    return weight < minimum * (1 - WEIGHT_TOLERANCE)
-
-
 def _margins(
     shapes: Sequence[EnvelopeShape],
     found: Evaluation,
@@ -572,6 +562,10 @@ def _margins(
     compare the two, row for row.
     """
     n = len(found.ok)
+    # below the minimum flight weight, as the engine found it: minus the weight short of it
+    short = {
+        name: np.where(found.min_weight_ok[name], np.nan, found.weight[name] - (minimum or 0.0)) for name in CONDITIONS
+    }
     if n <= _ONE_BY_ONE:
         limits = [min((value for _, value in weights[name]), default=None) for name in CONDITIONS]
         states = [
@@ -579,7 +573,13 @@ def _margins(
             for name in CONDITIONS
         ]
         per_row = [
-            _margins_one(shapes, [(w[i], m[i], lat[i]) for w, m, lat in states], limits, allowance, minimum)
+            _margins_one(
+                shapes,
+                [(w[i], m[i], lat[i]) for w, m, lat in states],
+                limits,
+                allowance,
+                [float(short[name][i]) for name in CONDITIONS],
+            )
             for i in range(n)
         ]
         return {name: [row[k] for row in per_row] for k, name in enumerate(CONDITIONS)}
@@ -593,9 +593,8 @@ def _margins(
         weight_limit = min((value for _, value in weights[name]), default=None)
         if weight_limit is not None:
             keep(name, "weight", weight_limit - found.weight[name])
-        below = _below_minimum(CONDITIONS.index(name), found.weight[name], minimum)
-        if np.any(below):
-            keep(name, "weight", np.where(below, found.weight[name] - minimum, np.nan))  # type: ignore[operator]
+        if not np.isnan(short[name]).all():
+            keep(name, "weight", short[name])
     for shape in shapes:
         tested = [
             envelope_state(
