@@ -327,10 +327,7 @@ class _Once:
     @classmethod
     def of(cls, aircraft: Aircraft, envelopes: Sequence[Envelope], name: str, table: list[tuple[str, float]]) -> _Once:
         tables = engine_tables(aircraft)
-        labels = [
-            f"the {envelope.label or envelope.category + '-category'} envelope".replace("envelope envelope", "envelope")
-            for envelope in envelopes
-        ]
+        labels = [envelope.subject for envelope in envelopes]
         zero_fuel_warning = name == "zero_fuel" and aircraft.limits.zero_fuel_cg == "warning"
         return cls(
             name=name,  # type: ignore[arg-type]
@@ -907,11 +904,11 @@ def _outside_finding(
 # -- burn path --------------------------------------------------------------------------
 
 
-_PathPoints = tuple[list[float], list[float], dict[float, tuple[float, float, float, float]], int | None]
+_PathPoints = tuple[list[float], list[float], dict[float, tuple[float, float, float, float]], list[int | None]]
 """What the explanation of one loading's burn path reads: the sample marks, the stretch ends,
 the state (weight, moment, lateral moment, fuel on board) at each of them and at the middle of
-the first stretch outside, and the index in the aircraft file of the first envelope that middle
-lies outside (None where the path stays inside)."""
+each stretch outside, and for each stretch the index in the aircraft file of the first envelope
+its middle lies outside (an empty list where the path stays inside)."""
 
 
 def _path_points(
@@ -940,9 +937,9 @@ def _path_points(
             [start + (end - start) * k / _SAMPLES for k in range(_SAMPLES + 1)] if with_samples and end > start else []
         )
         ends = [b for stretch in stretches for b in stretch]
-        middle = [0.5 * (stretches[0][0] + stretches[0][1])] if stretches else []
+        middles = [0.5 * (begin + finish) for begin, finish in stretches]
         chosen.append(i)
-        plans.append((marks, ends, sorted(set(marks + ends)) + middle))
+        plans.append((marks, ends, sorted(set(marks + ends)) + middles))
     if not chosen:
         return {}
     order = loadings[chosen[0]].plan.order
@@ -955,7 +952,7 @@ def _path_points(
         density=arrays[2],
     )
     out: dict[int, _PathPoints] = {}
-    middles: list[tuple[int, tuple[float, float, float, float]]] = []
+    middles: list[tuple[int, tuple[float, float, float, float]]] = []  # (loading, state) of every stretch's middle
     for i, (marks, ends, points), (weights, moments, laterals, quantities) in zip(chosen, plans, states, strict=True):
         state = dict(
             zip(
@@ -966,10 +963,10 @@ def _path_points(
                 strict=True,
             )
         )
-        if found.path_outside[i]:
-            middles.append((i, state[points[-1]]))
-        out[i] = (marks, ends, state, None)
-    if middles:  # the first envelope of the category each first stretch's middle lies outside
+        count = len(found.path_outside[i])
+        middles.extend((i, state[point]) for point in points[len(points) - count :])
+        out[i] = (marks, ends, state, [])
+    if middles:  # the first envelope of the category each stretch's middle lies outside
         w, m, lat = (np.array([mid[k] for _, mid in middles]) for k in range(3))
         left: list[int | None] = [None] * len(middles)
         for index, envelope in enumerate(aircraft.envelope):
@@ -977,9 +974,8 @@ def _path_points(
                 continue
             outside = (~np.asarray(envelope.shape.covers(w, m, lat), dtype=bool)).tolist()
             left = [index if here is None and away else here for here, away in zip(left, outside, strict=True)]
-        for (i, _), first_left in zip(middles, left, strict=True):
-            marks, ends, state, _ = out[i]
-            out[i] = (marks, ends, state, first_left)
+        for (i, _), stretch_left in zip(middles, left, strict=True):
+            out[i][3].append(stretch_left)
     return out
 
 
@@ -1036,13 +1032,15 @@ def _burn_path(
         lateral_arm=first[2] / first[0] if lateral else None,
         fuel_burned_volume=stretches[0][0] - start,
         fuel_remaining_volume=first[3],
-        envelope=left,
+        envelope=left[0],
+        subject=_envelope_subject(aircraft, left[0]),
     )
     scale = max(1.0, end)
-    for (begin, finish), excursion in zip(stretches, excursions, strict=True):
+    for (begin, finish), excursion, envelope in zip(stretches, excursions, left, strict=True):
         if (not takeoff_in and begin - start <= 1e-9 * scale) or (not landing_in and end - finish <= 1e-9 * scale):
             continue  # the same excursion is already reported at takeoff or landing
-        w, m, _, on_board = state[begin]
+        w, m, lat, on_board = state[begin]
+        subject = _envelope_subject(aircraft, envelope)
         findings.append(
             Finding(
                 code="burn_path",
@@ -1056,12 +1054,20 @@ def _burn_path(
                     units.mass,
                     units.arm,
                     units.fuel_volume,
+                    lateral_arm=lat / w if lateral else None,
+                    envelope=subject,
                 ),
                 excess=excursion.to_burned - excursion.from_burned,
                 unit=units.mass,
+                subject=subject,
             )
         )
     return BurnPath(ok=False, leaves_at=leaves, excursions=excursions, samples=samples)
+
+
+def _envelope_subject(aircraft: Aircraft, index: int | None) -> str | None:
+    """The envelope a stretch of the burn path leaves, in words (None where it is not known)."""
+    return None if index is None else aircraft.envelope[index].subject
 
 
 # -- stations and groups ------------------------------------------------------------------

@@ -190,7 +190,8 @@ class LeavePoint(Result):
 
     Attributes: fuel_burned since takeoff and fuel_remaining on board [mass unit];
     weight [mass unit]; arm [arm unit]; the same fuel amounts as volumes
-    [fuel volume unit]; envelope, the index in the aircraft file of the envelope it leaves.
+    [fuel volume unit]; envelope, the index in the aircraft file of the envelope it leaves,
+    and subject, that envelope in words.
     """
 
     fuel_burned: float
@@ -201,6 +202,7 @@ class LeavePoint(Result):
     fuel_burned_volume: float
     fuel_remaining_volume: float
     envelope: int | None = None
+    subject: str | None = None
 
 
 @dataclass(frozen=True, kw_only=True, slots=True)

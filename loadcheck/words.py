@@ -25,6 +25,7 @@ __all__ = [
     "LIMIT_NAMES",
     "beyond",
     "burn_path_message",
+    "burn_path_sentence",
     "burn_path_summary",
     "within_limits_text",
     "condition_words",
@@ -284,12 +285,27 @@ def burn_path_message(
     mass_unit: str,
     arm_unit: str,
     volume_unit: str,
+    *,
+    lateral_arm: float | None = None,
+    envelope: str | None = None,
 ) -> str:
-    """Where the CG leaves the envelope during the burn and until when it stays out."""
+    """Where the CG leaves an envelope during the burn and until when it stays out.
+
+    ``lateral_arm`` [arm unit], given for an aircraft with lateral limits, is said beside the CG;
+    ``envelope`` names the envelope left ("the utility-category envelope"), else "the envelope".
+
+    Examples
+    --------
+    >>> burn_path_message(10.0, 25.0, 2000.0, 40.0, 30.0, "lb", "in", "usgal", lateral_arm=-1.5,
+    ...                   envelope="the lateral envelope")  # doctest: +NORMALIZE_WHITESPACE
+    'the CG leaves the lateral envelope during the fuel burn after 10.0 lb of fuel is burned
+    (at 2,000.0 lb, CG 40.00 in, lateral CG -1.50 in, 30.0 usgal on board) and stays out until 25.0 lb is burned'
+    """
+    lateral = "" if lateral_arm is None else f", lateral CG {fmt(lateral_arm, arm_unit)}"
     return (
-        f"the CG leaves the envelope during the fuel burn after {fmt(from_burned, mass_unit, 'down')} of fuel "
-        "is burned "
-        f"(at {fmt(weight, mass_unit)}, CG {fmt(arm, arm_unit)}, {fmt(on_board, volume_unit)} on board) "
+        f"the CG leaves {envelope or 'the envelope'} during the fuel burn after {fmt(from_burned, mass_unit, 'down')} "
+        "of fuel is burned "
+        f"(at {fmt(weight, mass_unit)}, CG {fmt(arm, arm_unit)}{lateral}, {fmt(on_board, volume_unit)} on board) "
         f"and stays out until {fmt(to_burned, mass_unit, 'up')} is burned"
     )
 
@@ -332,18 +348,23 @@ def stretch_text(low: float, high: float, unit: str) -> str:
 
 
 def burn_path_summary(result: CheckResult) -> str:
-    """The fuel burn from takeoff to landing in one sentence.
+    """The fuel burn from takeoff to landing in one sentence, with its heading."""
+    return "Fuel burn, takeoff to landing: " + burn_path_sentence(result)
+
+
+def burn_path_sentence(result: CheckResult) -> str:
+    """The fuel burn from takeoff to landing in one sentence ("the CG stays inside ...").
 
     A path that starts outside (takeoff already out of the envelope) is said to be outside
-    from takeoff, not to "leave after 0 burned".
+    from takeoff, not to "leave after 0 burned". Where the path leaves, the envelope it leaves
+    is named and, for an aircraft with lateral limits, the lateral CG given.
     """
     path, units = result.burn_path, result.units
-    head = "Fuel burn, takeoff to landing: "
     if path.ok:
-        return head + "the CG stays inside the envelope all the way."
+        return "the CG stays inside the envelope all the way."
     leave = path.leaves_at
     if leave is None:
-        return head + "the takeoff point is already outside the envelope."
+        return "the takeoff point is already outside the envelope."
     takeoff_out = not result.condition("takeoff").ok
     if takeoff_out and leave.fuel_burned_volume <= 1e-9 * max(1.0, leave.fuel_remaining_volume):
         first = path.excursions[0] if path.excursions else None
@@ -352,11 +373,12 @@ def burn_path_summary(result: CheckResult) -> str:
             if first is not None and first.to_burned > first.from_burned
             else ""
         )
-        return head + f"the CG is outside the envelope from takeoff{until}."
-    return head + (
-        f"the CG leaves the envelope after {fmt(leave.fuel_burned, units.mass, 'down')} burned "
+        return f"the CG is outside the envelope from takeoff{until}."
+    lateral = "" if leave.lateral_arm is None else f", lateral CG {fmt(leave.lateral_arm, units.arm)}"
+    return (
+        f"the CG leaves {leave.subject or 'the envelope'} after {fmt(leave.fuel_burned, units.mass, 'down')} burned "
         f"({fmt(leave.fuel_remaining_volume, units.fuel_volume)} remaining; "
-        f"{fmt(leave.weight, units.mass)} at CG {fmt(leave.arm, units.arm)})."
+        f"{fmt(leave.weight, units.mass)} at CG {fmt(leave.arm, units.arm)}{lateral})."
     )
 
 

@@ -29,7 +29,7 @@ def test_check_within_limits_prints_tables_and_caution():
 def test_loading_file_alone_names_its_aircraft():
     result = invoke("check", str(sample("twin6/leaves_path.toml")))
     assert result.exit_code == 1
-    assert "leaves the envelope" in result.output
+    assert "leaves the normal-category envelope" in result.output
 
 
 def test_json_fields_follow_design():

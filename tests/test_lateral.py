@@ -207,3 +207,56 @@ def test_mirroring_every_lateral_arm_mirrors_a_trips_lateral_results(pilot, pass
     assert sorted((f.leg, f.code, f.condition, flip.get(f.side, f.side)) for f in a.findings) == sorted(
         (f.leg, f.code, f.condition, f.side) for f in b.findings
     )
+
+
+def _notched_lateral_aircraft():
+    """An invented aircraft whose burn path leaves a lateral envelope and comes back: the pilot
+    sits right (+10 in), the only tank is left (-10 in), every fore-and-aft arm is 40 in, and the
+    lateral envelope's right limit has a notch down to 0 in at 1,350 lb."""
+    return simple_aircraft(
+        empty={"weight": 1000.0, "arm": 40.0, "lateral_arm": 0.0},
+        station=[{"id": "seat", "arm": 40.0, "lateral_arm": 10.0, "kind": "seat"}],
+        tank=[{"id": "main", "arm": 40.0, "lateral_arm": -10.0, "usable": 50.0, "fuel": "avgas"}],
+        envelope=[
+            {"category": "normal", "axes": ["arm", "weight"], "points": [[35, 900], [35, 2000], [48, 2000], [48, 900]]},
+            {
+                "category": "normal",
+                "label": "lateral",
+                "axes": ["lateral_arm", "weight"],
+                "points": [[-2, 900], [-2, 2000], [2, 2000], [2, 1450], [0, 1350], [2, 1250], [2, 900]],
+            },
+        ],
+    )
+
+
+def test_regression_a_burn_path_leaving_a_lateral_envelope_was_told_in_fore_and_aft_words_only():
+    """The finding said "the CG leaves the envelope ... CG 40.00 in" where the path leaves the lateral
+    envelope: it named no envelope and gave no lateral CG, so a pilot could not tell which limit or
+    which way. Worked by hand with the moment method (FAA-H-8083-1B, ch. 2; lateral CG likewise, ch. 7),
+    avgas at 6.0 lb/US gal (common practice): with f lb of fuel on board the weight is W = 1,200 + f and
+    the lateral moment 2,000 - 10 f, so the lateral CG is (14,000 - 10 W) / W. It meets the notch's upper
+    edge x = (W - 1,350) / 50 where W^2 - 850 W - 700,000 = 0 and its lower edge x = (1,350 - W) / 50
+    where W^2 - 1,850 W + 700,000 = 0."""
+    aircraft = _notched_lateral_aircraft()
+    loading = Loading(load={"seat": 200.0}, fuel={"main": 50.0}, burn={"taxi": 0.0, "trip": 40.0})
+    result = check_loading(aircraft, loading)
+    assert result.condition("takeoff").ok and result.condition("landing").ok and not result.ok
+    leaves_w = (850 + (850**2 + 4 * 700_000) ** 0.5) / 2  # 1,363.42 lb
+    back_w = (1850 + (1850**2 - 4 * 700_000) ** 0.5) / 2  # 1,319.49 lb
+    leave = result.burn_path.leaves_at
+    assert leave is not None and leave.weight == pytest.approx(leaves_w, abs=0.01)
+    assert leave.lateral_arm == pytest.approx((14_000 - 10 * leaves_w) / leaves_w, abs=1e-3)
+    assert leave.envelope == 1 and leave.subject == "the lateral envelope"
+    (excursion,) = result.burn_path.excursions
+    assert excursion.from_burned == pytest.approx(1500 - leaves_w, abs=0.01)
+    assert excursion.to_burned == pytest.approx(1500 - back_w, abs=0.01)
+    (finding,) = [f for f in result.findings if f.code == "burn_path"]
+    assert finding.subject == "the lateral envelope"
+    assert finding.message == (
+        "the CG leaves the lateral envelope during the fuel burn after 136.5 lb of fuel is burned "
+        "(at 1,363.4 lb, CG 40.00 in, lateral CG 0.27 in, 27.2 usgal on board) and stays out until 180.6 lb is burned"
+    )
+    from loadcheck.words import burn_path_summary
+
+    assert "leaves the lateral envelope after 136.5 lb burned" in burn_path_summary(result)
+    assert "lateral CG 0.27 in" in burn_path_summary(result)

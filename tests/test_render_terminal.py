@@ -226,7 +226,7 @@ def test_regression_condition_rows_read_within_beside_a_burn_path_limit(runner):
     rows = [line for line in out.splitlines() if re.match(r"│ (Ramp|Takeoff|Landing|Zero fuel) ", line)]
     assert len(rows) == 4 and all("│ inside " in row and "within" not in row for row in rows), rows
     assert f"┃ {CONDITION_STATE_HEADING} " in out and "┃ Result " not in out
-    assert "LIMIT the CG leaves the envelope during the fuel burn" in out and "OUT OF LIMITS" in out
+    assert "LIMIT the CG leaves the normal-category envelope during the fuel burn" in out and "OUT OF LIMITS" in out
     _, check = _inputs("twin6/leaves_path.toml")
     assert not check.ok and all(condition_verdict(c, check) == ("inside", "ok") for c in check.conditions)
     _, warned = _inputs("tandem2/aft_ballast.toml")  # the zero-fuel CG checked only as a warning

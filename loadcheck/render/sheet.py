@@ -17,7 +17,7 @@ from typing import TYPE_CHECKING, Any
 
 from ..display import Direction, fmt, unit_label
 from ..results import CheckResult
-from ..words import sheet_verdict, trip_leg_verdict
+from ..words import burn_path_sentence, sheet_verdict, trip_leg_verdict
 
 if TYPE_CHECKING:
     from ..aircraft import Aircraft
@@ -225,19 +225,10 @@ def load_sheet_html(
     parts.append("</div></div>")
     parts.append(_conditions(result, scaled))
 
-    path = result.burn_path
+    sentence = burn_path_sentence(result)
     parts.append("<h2>Fuel burn, takeoff to landing</h2>")
-    if path.ok:
-        parts.append("<p>The CG stays inside the envelope all the way.</p>")
-    elif path.leaves_at is not None:
-        leave = path.leaves_at
-        parts.append(
-            f"<p class='limit'>The CG leaves the envelope after {escape(fmt(leave.fuel_burned, units.mass, 'down'))} "
-            f"burned ({escape(fmt(leave.fuel_remaining_volume, units.fuel_volume))} remaining), at "
-            f"{escape(fmt(leave.weight, units.mass))} and CG {escape(fmt(leave.arm, units.arm))}.</p>"
-        )
-    else:
-        parts.append("<p class='limit'>The takeoff point is outside the envelope.</p>")
+    style = "" if result.burn_path.ok else " class='limit'"
+    parts.append(f"<p{style}>{escape(sentence[0].upper() + sentence[1:])}</p>")
 
     parts.append("<h2>Findings</h2>")
     if result.findings:
