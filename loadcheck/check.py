@@ -937,9 +937,9 @@ def _path_points(
             [start + (end - start) * k / _SAMPLES for k in range(_SAMPLES + 1)] if with_samples and end > start else []
         )
         ends = [b for stretch in stretches for b in stretch]
-        middles = [0.5 * (begin + finish) for begin, finish in stretches]
+        halfway = [0.5 * (begin + finish) for begin, finish in stretches]
         chosen.append(i)
-        plans.append((marks, ends, sorted(set(marks + ends)) + middles))
+        plans.append((marks, ends, sorted(set(marks + ends)) + halfway))
     if not chosen:
         return {}
     order = loadings[chosen[0]].plan.order
