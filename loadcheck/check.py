@@ -489,6 +489,7 @@ def _margins_one(
             else:
                 lines.append((w, arm, lateral_arm, "arm"))
                 held.append((k, "arm", arm))
+            if shape.weight_range is not None:  # a lateral envelope drawn against weight limits it too
                 lines.append((w, arm, lateral_arm, "weight"))
                 held.append((k, "weight", w))
         for (k, what, value), intervals in zip(held, shape.slices(lines), strict=True):
@@ -605,8 +606,8 @@ def _margins(
         arm, lateral_arm = m / w, lat / w
         vary: Vary = "lateral" if shape.is_lateral else "arm"
         lines = [(vary, w, arm, lateral_arm)]
-        upright = not shape.is_lateral
-        if upright:  # the weight margin, at every condition
+        weighed = shape.weight_range is not None  # every longitudinal envelope, a lateral one drawn against weight
+        if weighed:  # the weight margin, at every condition
             lines.append(("weight", w, arm, lateral_arm))
         lo, hi, _, _ = _slices(shape, lines)
         held = lateral_arm if shape.is_lateral else arm
@@ -617,7 +618,7 @@ def _margins(
             if found_here.any():
                 keep(name, first, np.where(found_here, held[part] - lo[part], np.nan))
                 keep(name, second, np.where(found_here, hi[part] - held[part], np.nan))
-            if upright:
+            if weighed:
                 part = slice(4 * n + k * n, 4 * n + (k + 1) * n)
                 top, bottom, tested_weight = hi[part], lo[part], w[k * n : (k + 1) * n]
                 weight = found.weight[name]

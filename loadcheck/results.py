@@ -145,9 +145,10 @@ class Margins(Result):
     """Room left to each limit at a condition; negative where the limit is exceeded.
 
     forward/aft: CG to the forward/aft limit at this weight [arm unit]; left/right: lateral
-    CG to the lateral limits [arm unit]; weight: to the lower of the weight limit and the
-    longitudinal envelope's top at this CG [mass unit], never above zero where the point is
-    outside the envelope's weight range at this CG (below its bottom there: minus the weight
+    CG to the lateral limits [arm unit]; weight: to the lower of the weight limit and each
+    envelope's top at this CG (a lateral envelope drawn against weight: at this lateral CG)
+    [mass unit], never above zero where the point is
+    outside an envelope's weight range at this CG (below its bottom there: minus the weight
     short of it; no weight inside at this CG: zero, or minus the excess over the envelope's
     top; below the minimum flight weight at takeoff or landing: minus the weight short of
     it). None where no envelope gives that limit.

@@ -270,7 +270,7 @@ def test_a_zero_weight_margin_outside_the_envelope_is_marked_not_read_as_on_the_
 def test_no_margin_is_positive_beside_a_condition_outside_its_limits(name):
     # invariant (docs/computation.md, Margins): a condition inside its envelope and weight
     # limits has no margin below zero, and one outside them has no weight margin above zero
-    # (where every envelope is longitudinal: a lateral one alone may put it outside)
+    # (a lateral envelope drawn against weight limits the weight too; every sample's is)
     from loadcheck.check import check_many
     from loadcheck.loading import resolve_loading
 
@@ -289,14 +289,48 @@ def test_no_margin_is_positive_beside_a_condition_outside_its_limits(name):
         )
         for i in range(len(taxi))
     ]
-    lateral = aircraft.has_lateral if hasattr(aircraft, "has_lateral") else any(e.is_lateral for e in aircraft.envelope)
     outside = 0
     for result in check_many(aircraft, loadings):
         for c in result.conditions:
             values = [v for v in (c.margins.forward, c.margins.aft, c.margins.left, c.margins.right, c.margins.weight)]
             if c.ok:
                 assert all(v is None or v >= -1e-6 for v in values), (c.condition, c)
-            elif not lateral:
+            else:
                 outside += 1
                 assert c.margins.weight is not None and c.margins.weight <= 1e-9, (c.condition, c)
-    assert lateral or outside  # the random loadings reach outside the limits
+    assert outside  # the random loadings reach outside the limits
+
+
+def test_regression_a_weight_above_a_lateral_envelopes_top_showed_a_positive_weight_margin():
+    """Only the longitudinal envelopes gave a weight margin, so a weight above a lateral envelope's
+    top (the lateral envelope narrowing as weight grows) showed room to the maximum weight beside the
+    finding that the point is outside. Worked by hand (moment method, FAA-H-8083-1B ch. 2; lateral CG
+    likewise, ch. 7): the right seat at +10 in and a centre load at 0 give a lateral CG of
+    10 x right / W; the lateral envelope's right edge runs from (3 in, 1,500 lb) to (1 in, 1,900 lb), so
+    at a lateral CG of 2 in its top is 1,700 lb and its right limit at 1,650 lb is 3 - 150/200 = 2.25 in."""
+    aircraft = simple_aircraft(
+        empty={"weight": 1000.0, "arm": 40.0, "lateral_arm": 0.0},
+        station=[
+            {"id": "right", "arm": 40.0, "lateral_arm": 10.0, "kind": "seat"},
+            {"id": "centre", "arm": 40.0, "lateral_arm": 0.0, "kind": "baggage"},
+        ],
+        tank=[{"id": "main", "arm": 40.0, "lateral_arm": 0.0, "usable": 40.0, "fuel": "avgas"}],
+        envelope=[
+            {"category": "normal", "axes": ["arm", "weight"], "points": [[35, 900], [35, 2000], [48, 2000], [48, 900]]},
+            {
+                "category": "normal",
+                "label": "lateral",
+                "axes": ["lateral_arm", "weight"],
+                "points": [[-3, 900], [-3, 1500], [-1, 1900], [1, 1900], [3, 1500], [3, 900]],
+            },
+        ],
+    )
+    for right, centre, weight_margin, right_margin in ((360.0, 440.0, -100.0, None), (330.0, 320.0, 50.0, 0.25)):
+        result = check_loading(aircraft, Loading(load={"right": right, "centre": centre}, fuel={"main": 0.0}))
+        takeoff = result.condition("takeoff")
+        assert takeoff.weight == pytest.approx(1000 + right + centre)
+        assert takeoff.lateral_arm == pytest.approx(2.0)
+        assert takeoff.ok == (weight_margin > 0)
+        assert takeoff.margins.weight == pytest.approx(weight_margin, abs=1e-6)
+        if right_margin is not None:
+            assert takeoff.margins.right == pytest.approx(right_margin, abs=1e-6)
