@@ -34,7 +34,7 @@ from .envelope import AXES, Axis, EnvelopeShape, polygon_problem
 from .errors import Problem, UnitError, UnknownNameError, spelling_hint
 from .filemodel import FileModel
 from .fuel import FuelGrade, default_density, density_problem, grade_name
-from .units import ArmUnit, MassUnit, VolumeUnit, canonical_unit, convert, parse_quantity, unit_kind
+from .units import MAX_MAGNITUDE, ArmUnit, MassUnit, VolumeUnit, canonical_unit, convert, parse_quantity, unit_kind
 
 __all__ = [
     "RESERVED_IDS",
@@ -103,15 +103,12 @@ def _quantity_reader(kind: str, unit_field: str) -> Any:
 
 _QUANTITY_SCHEMA = WithJsonSchema({"anyOf": [{"type": "number"}, {"type": "string"}]})
 
-PLAUSIBLE = 1e7
-"""The largest magnitude of a mass, an arm or a fuel volume in an aircraft file, in its own units: ten
-million (10 km in mm, over 4,500 t in lb) is beyond any aircraft, and a figure beyond it (a mistyped
-exponent) would overflow the moments rather than be checked."""
-
 
 def _plausible(value: float) -> float:
-    if abs(value) > PLAUSIBLE:
-        raise ValueError(f"{value:g} is beyond any aircraft: at most {PLAUSIBLE:,.0f} in the file's units")
+    """A mass, arm or fuel volume in the file's units within :data:`loadcheck.units.MAX_MAGNITUDE`
+    (after conversion from the unit written: a figure that grows past it in the file's units)."""
+    if abs(value) > MAX_MAGNITUDE:
+        raise ValueError(f"{value:g} is beyond any aircraft: at most {MAX_MAGNITUDE:,.0f} in the file's units")
     return value
 
 

@@ -29,7 +29,16 @@ from .aircraft import Aircraft
 from .errors import InputError, LoadcheckError, Problem, UnknownNameError, spelling_hint
 from .filemodel import FileModel
 from .fuel import density_problem
-from .units import Quantity, convert, in_unit, parse_duration_hours, parse_quantity, parse_rate, unit_kind
+from .units import (
+    MAX_MAGNITUDE,
+    Quantity,
+    convert,
+    in_unit,
+    parse_duration_hours,
+    parse_quantity,
+    parse_rate,
+    unit_kind,
+)
 from .words import count
 
 __all__ = [
@@ -102,7 +111,7 @@ def burn_order(
 
 def _check_amount(value: Any, kinds: tuple[str, ...]) -> Any:
     """Syntax check of an amount: a non-negative finite number with a unit of ``kinds``."""
-    if type(value) is float and 0.0 <= value < math.inf:  # a plain number that holds: the usual amount
+    if type(value) is float and 0.0 <= value <= MAX_MAGNITUDE:  # a plain number that holds: the usual amount
         return value
     quantity = parse_quantity(value)
     if quantity.value < 0:

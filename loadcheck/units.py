@@ -28,6 +28,7 @@ __all__ = [
     "L_PER_IMPGAL",
     "L_PER_USGAL",
     "MASS_UNITS",
+    "MAX_MAGNITUDE",
     "MM_PER_IN",
     "VOLUME_UNITS",
     "ArmUnit",
@@ -147,6 +148,22 @@ def unit_kind(unit: str) -> str:
     raise UnitError(f"unknown unit {unit!r}")
 
 
+MAX_MAGNITUDE = 1e7
+"""The largest magnitude of any amount read (a mass, a length, a fuel volume, a rate per hour, a
+duration in hours), in the unit it is written in: ten million (10 km in mm, over 4,500 t in lb) is
+beyond any aircraft, and a figure beyond it (a mistyped exponent) would overflow the moments or print
+hundreds of digits rather than be checked. Common practice: no aircraft figure comes near it."""
+
+
+def _bounded(value: float, typed: object) -> float:
+    """``value`` if it is finite and within :data:`MAX_MAGNITUDE`; else the refusal, with the value as typed."""
+    if not math.isfinite(value):
+        raise UnitError(f"{typed!r} is not a finite number")
+    if abs(value) > MAX_MAGNITUDE:
+        raise UnitError(f"{typed!r} is beyond any aircraft: at most {MAX_MAGNITUDE:,.0f} in the unit given")
+    return value
+
+
 def parse_quantity(text: str | float | int) -> Quantity:
     """Read a number, optionally followed by a unit.
 
@@ -162,7 +179,8 @@ def parse_quantity(text: str | float | int) -> Quantity:
     Raises
     ------
     UnitError
-        If the text is not a finite number with an optional known unit.
+        If the text is not a finite number with an optional known unit, or its magnitude is
+        above :data:`MAX_MAGNITUDE`.
 
     Examples
     --------
@@ -173,10 +191,11 @@ def parse_quantity(text: str | float | int) -> Quantity:
     """
     kind = type(text)
     if kind is float or kind is int or (kind is not bool and isinstance(text, (int, float))):
-        value = float(text)
-        if not math.isfinite(value):
-            raise UnitError(f"{text!r} is not a finite number")
-        return Quantity(value, None)
+        try:
+            value = float(text)
+        except OverflowError:  # an integer too large for a float (a JSON or Python caller's)
+            value = 2 * MAX_MAGNITUDE if text > 0 else -2 * MAX_MAGNITUDE  # beyond the bound: refused as such
+        return Quantity(_bounded(value, text), None)
     if kind is str:
         return _parse_text(text)
     if kind is bool:
@@ -189,10 +208,8 @@ def _read_quantity(text: str, typed: object) -> Quantity:
     match = _QUANTITY_RE.match(text)
     if not match:
         raise UnitError(f"cannot read {typed!r} as a number with an optional unit (e.g. '20 kg')")
-    value = float(match.group(1))
+    value = _bounded(float(match.group(1)), typed)
     unit = canonical_unit(match.group(2)) if match.group(2) else None
-    if not math.isfinite(value):
-        raise UnitError(f"{typed!r} is not a finite number")
     return Quantity(value, unit)
 
 
@@ -261,7 +278,10 @@ def parse_duration_hours(text: str | float | int) -> float:
     if isinstance(text, bool) or not isinstance(text, (str, int, float)):
         raise UnitError(f"expected a duration such as '2:15', '2.25 h' or a number of hours, got {text!r}")
     if isinstance(text, (int, float)):
-        hours = float(text)
+        try:
+            hours = float(text)
+        except OverflowError:
+            hours = math.inf
     elif match := _DURATION_RE.match(text):
         hours = int(match.group(1)) + int(match.group(2)) / 60.0
     elif match := _DURATION_UNIT_RE.match(text):
@@ -271,7 +291,7 @@ def parse_duration_hours(text: str | float | int) -> float:
         raise UnitError(f"cannot read {text!r} as a duration (e.g. '2:15', '2.25 h', '135 min')")
     if not math.isfinite(hours) or hours < 0:
         raise UnitError(f"duration {text!r} must be a finite, non-negative time")
-    return hours
+    return _bounded(hours, text)
 
 
 _PER_HOUR_RE = re.compile(r"^(.*?)\s*(?:/\s*(?:h|hr|hrs|hour)|per\s+hour)\s*$", re.I)

@@ -15,6 +15,7 @@ from loadcheck.units import (
     KG_PER_LB,
     L_PER_IMPGAL,
     L_PER_USGAL,
+    MAX_MAGNITUDE,
     MM_PER_IN,
     Quantity,
     canonical_unit,
@@ -151,3 +152,26 @@ def test_read_rate_converts_a_volume_and_refuses_a_mass():
     assert read_rate("36 l/h", "usgal") == pytest.approx(36 / 3.785411784, rel=1e-15)
     with pytest.raises(UnitError, match="--rate: a mass per hour cannot be used here"):
         read_rate("60 lb/h", "usgal", "--rate")
+
+
+@pytest.mark.parametrize("typed", [1e300, -2e7, 10**400, "1e300 lb", "1.0000001e7 mm", "-1e8 in", "99999999999"])
+def test_regression_a_mistyped_exponent_was_read_and_checked_with_hundreds_of_digits(typed):
+    """`front = 1e300` was taken: the moment table printed a weight of 301 digits and the moments
+    overflowed. Every amount read is bounded by MAX_MAGNITUDE (ten million in the unit written;
+    common practice: no aircraft figure comes near it), a Python integer too large for a float
+    included, and the refusal names the value as typed."""
+    with pytest.raises(UnitError, match="beyond any aircraft") as refused:
+        parse_quantity(typed)
+    assert repr(typed)[:20] in str(refused.value)
+
+
+@pytest.mark.parametrize("typed", [MAX_MAGNITUDE, -MAX_MAGNITUDE, "1e7 mm", "9999999 lb"])
+def test_amounts_up_to_the_bound_are_read_as_given(typed):
+    quantity = parse_quantity(typed)
+    assert abs(quantity.value) <= MAX_MAGNITUDE and abs(quantity.value) >= 9_999_999
+
+
+@pytest.mark.parametrize("typed", [1e300, "2e7 h", 10**400], ids=["1e300", "2e7 h", "10**400"])
+def test_a_duration_beyond_any_flight_is_refused(typed):
+    with pytest.raises(UnitError):
+        parse_duration_hours(typed)
