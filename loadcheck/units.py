@@ -193,8 +193,8 @@ def parse_quantity(text: str | float | int) -> Quantity:
     if kind is float or kind is int or (kind is not bool and isinstance(text, (int, float))):
         try:
             value = float(text)
-        except OverflowError:  # an integer too large for a float (a JSON or Python caller's)
-            value = 2 * MAX_MAGNITUDE if text > 0 else -2 * MAX_MAGNITUDE  # beyond the bound: refused as such
+        except OverflowError:  # an integer too large for a float (a JSON or Python caller's): beyond the bound
+            value = 2 * MAX_MAGNITUDE if isinstance(text, int) and text > 0 else -2 * MAX_MAGNITUDE
         return Quantity(_bounded(value, text), None)
     if kind is str:
         return _parse_text(text)
