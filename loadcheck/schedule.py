@@ -211,7 +211,7 @@ def loading_schedule(
             "with full fuel: occupants and baggage",
             _fill_baggage(aircraft, seated),
             counts,
-            [f"occupants at {occupant:g} {mass} each", *fixed_note],
+            [f"occupants at {fmt(occupant, mass)} each", *fixed_note],
         )
     )
 
@@ -221,7 +221,7 @@ def loading_schedule(
     for station_id in seat_order(aircraft):
         counts[station_id] = aircraft.station_by_id[station_id].seats or 1
         everyone = _add(everyone, station_id, counts[station_id] * occupant)
-    notes = [f"every seat filled at {occupant:g} {mass}", *fixed_note]
+    notes = [f"every seat filled at {fmt(occupant, mass)}", *fixed_note]
     fuelled = _most_fuel(aircraft, everyone)
     if fuelled is None:
         notes.append("no fuel load is within limits with every seat filled")

@@ -144,3 +144,16 @@ def test_schedule_answers_are_within_limits_and_maximal():
         plan = BurnPlan(full_fuel.fuel, None)
         trial = ResolvedLoading("normal", load, full_fuel.fuel, density, 0.0, plan.burnable, None, plan)
         assert not check_loading(aircraft, trial).ok
+
+
+def test_regression_schedule_notes_show_the_occupant_at_display_precision():
+    # a 170 lb occupant on a kg aircraft read "occupants at 77.1107 kg each": the weight goes
+    # through loadcheck.display.fmt (0.1 kg), as every other mass the schedule shows
+    from loadcheck.display import fmt
+    from loadcheck.units import convert
+
+    occupant = convert(170.0, "lb", "kg")  # 77.11070 kg (1 lb = 0.45359237 kg exactly, NIST SP 811 B.8)
+    schedule = loading_schedule(load_aircraft(sample("tandem2/aircraft.toml")), occupant_weight=occupant)
+    notes = [note for case in schedule.cases for note in case.notes]
+    assert f"occupants at {fmt(occupant, 'kg')} each" in notes and "every seat filled at 77.1 kg" in notes
+    assert not [n for n in notes if "77.11" in n]
