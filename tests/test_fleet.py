@@ -5,6 +5,7 @@ from __future__ import annotations
 import csv
 import json
 import os
+import re
 import shutil
 import signal
 import sqlite3
@@ -740,3 +741,18 @@ def test_a_fleet_refusal_over_capacity_says_the_amount_once(runner, records):
     assert refused["input_error"] == [
         f"{DAY}:28: fuel.mains: 60 usgal is above the tank's usable capacity; expected at most 44 usgal"
     ]
+
+
+def test_regression_the_fleet_docs_give_the_chunk_the_code_uses():
+    # docs/fleet.md said "chunks of 256" long after loadcheck.fleet.CHUNK became 1,024; and
+    # DEVELOPERS.md's list of commands left out benchmarks/fleet_stages.py
+    from loadcheck.fleet import CHUNK
+
+    root = SAMPLES.parent
+    text = " ".join((root / "docs" / "fleet.md").read_text(encoding="utf-8").split())
+    assert f"chunks of {CHUNK:,} (`loadcheck.fleet.CHUNK`)" in text
+    stated = re.findall(r"chunks of ([\d,]+\d)", text)  # every chunk size the page states
+    assert stated and {int(n.replace(",", "")) for n in stated} == {CHUNK}, stated
+    developers = (root / "DEVELOPERS.md").read_text(encoding="utf-8")
+    listed = [line.split()[1] for line in developers.splitlines() if line.startswith("python benchmarks/")]
+    assert "benchmarks/fleet_stages.py" in listed and (root / "benchmarks" / "fleet_stages.py").is_file()
