@@ -151,7 +151,7 @@ def _seat_note(name: str, people: int, aboard: int, occupant: float, total: floa
     if aboard and not others:
         heaviest = "at the station's maximum " if total < occupant - 1e-9 else ""
         return f"{name}: the pilot {heaviest}({fmt(total, mass)}), {beyond} limit"
-    what = f"{others} occupant{plural} at {occupant:g} {mass}"
+    what = f"{others} occupant{plural} at {fmt(occupant, mass)}"
     if aboard:
         what = f"the pilot and {what}"
     if people > 1 or not math.isclose(total, people * occupant):
@@ -247,7 +247,7 @@ def _case(
         for tank in partial:
             fuel[tank.id] = min(tank.usable, min_fuel * tank.usable / capacity)
         notes.append(
-            f"minimum fuel for balance, {min_fuel:.2f} {units.fuel_volume} (METO/12 US gal), in "
+            f"minimum fuel for balance, {fmt(min_fuel, units.fuel_volume, 'up')} (METO/12 US gal), in "
             f"{', '.join(t.name for t in partial)}"
         )
     density = {t.id: aircraft.density(t) for t in aircraft.tank}

@@ -88,6 +88,13 @@ def _add(loading: ResolvedLoading, station: str, weight: float) -> ResolvedLoadi
     return loading.but(stations={**loading.stations, station: loading.stations.get(station, 0.0) + weight})
 
 
+def _occupy(aircraft: Aircraft, loading: ResolvedLoading, station: str, count: int, occupant: float) -> ResolvedLoading:
+    """``count`` occupants in a seat station: their weight, or the station's minimum where that is
+    more (a minimum crew weight is met by the occupants, not added to them) [mass unit]."""
+    least = aircraft.station_by_id[station].min_weight or 0.0
+    return loading.but(stations={**loading.stations, station: max(least, count * occupant)})
+
+
 def _refuel(aircraft: Aircraft, loading: ResolvedLoading, total: float) -> ResolvedLoading:
     """The same stations with ``total`` fuel, tanks in proportion to capacity, burning it all."""
     capacity = sum(t.usable for t in aircraft.tank)
@@ -108,7 +115,7 @@ def _seat(
     first = not pilot_aboard
     for station_id in seat_order(aircraft):
         for _ in range(aircraft.station_by_id[station_id].seats or 1):
-            trial = _add(loading, station_id, occupant)
+            trial = _occupy(aircraft, loading, station_id, counts.get(station_id, 0) + 1, occupant)
             if not first and not check_loading(aircraft, trial).ok:
                 return loading, counts
             loading, first = trial, False
@@ -147,6 +154,9 @@ def _case(
     aircraft: Aircraft, question: str, loading: ResolvedLoading, occupants: dict[str, int], notes: list[str]
 ) -> ScheduleCase:
     check = replace(check_loading(aircraft, loading), caution=MECHANIC_CAUTION)
+    at_minimum = [aircraft.station_by_id[s].name for s in _minimum_stations(aircraft) if s not in occupants]
+    if at_minimum:  # a seat's occupants meet its minimum (_occupy): only the stations left at theirs
+        notes = [*notes, f"stations at their minimum weight: {', '.join(at_minimum)}"]
     volume = aircraft.units.fuel_volume
     start = sum(loading.fuel.values())
     states = (
@@ -195,11 +205,6 @@ def loading_schedule(
     occupant = standard_occupant(aircraft, occupant_weight)
     mass = aircraft.units.mass
     fixed = _minimum_stations(aircraft)
-    fixed_note = (
-        [f"stations at their minimum weight: {', '.join(aircraft.station_by_id[s].name for s in fixed)}"]
-        if fixed
-        else []
-    )
     cases = []
 
     # 1. full fuel: occupants, then baggage
@@ -211,7 +216,7 @@ def loading_schedule(
             "with full fuel: occupants and baggage",
             _fill_baggage(aircraft, seated),
             counts,
-            [f"occupants at {occupant:g} {mass} each", *fixed_note],
+            [f"occupants at {fmt(occupant, mass)} each"],
         )
     )
 
@@ -220,8 +225,8 @@ def loading_schedule(
     counts = {}
     for station_id in seat_order(aircraft):
         counts[station_id] = aircraft.station_by_id[station_id].seats or 1
-        everyone = _add(everyone, station_id, counts[station_id] * occupant)
-    notes = [f"every seat filled at {occupant:g} {mass}", *fixed_note]
+        everyone = _occupy(aircraft, everyone, station_id, counts[station_id], occupant)
+    notes = [f"every seat filled at {fmt(occupant, mass)}"]
     fuelled = _most_fuel(aircraft, everyone)
     if fuelled is None:
         notes.append("no fuel load is within limits with every seat filled")
@@ -239,8 +244,8 @@ def loading_schedule(
             if room > 0:
                 bags = _add(bags, station.id, room)
     pilot = seat_order(aircraft)[:1]
-    with_pilot = _add(bags, pilot[0], occupant) if pilot else bags
-    notes = ["baggage at each station's maximum (within group limits); the pilot aboard", *fixed_note]
+    with_pilot = _occupy(aircraft, bags, pilot[0], 1, occupant) if pilot else bags
+    notes = ["baggage at each station's maximum (within group limits); the pilot aboard"]
     fuelled = _most_fuel(aircraft, with_pilot)
     if fuelled is None:
         notes.append("no fuel load is within limits with maximum baggage")

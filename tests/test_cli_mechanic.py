@@ -189,3 +189,19 @@ def test_regression_weigh_shows_the_sign_of_every_change(runner):
     result = runner.invoke(app, ["weigh", str(sample("trainer4/aircraft.toml")), str(sample("trainer4/weighing.toml"))])
     text = " ".join(result.output.split())
     assert "Change from the current record: weight -32.2 lb, CG -0.19 in; useful load 764.2 lb (+32.2 lb)" in text
+
+
+@pytest.mark.parametrize("command", ["schedule", "extremes", "history"])
+def test_regression_a_loading_given_for_the_aircraft_file_is_named_as_such(command):
+    # a loading file given as AIRCRAFT was read as an aircraft and refused field by field
+    # ("name: this field is required", "load: unknown field"); it is now said plainly
+    given = sample("trainer4/within.toml")
+    result = invoke(command, str(given))
+    assert_input_error(
+        result,
+        f"{given}: this is a loading file, not an aircraft file: {command} needs the aircraft file",
+        f"this loading names {sample('trainer4/aircraft.toml')}",
+    )
+    assert "this field is required" not in result.output and "unknown field" not in result.output
+    readings = invoke(command, str(sample("trainer4/weighing.toml")))
+    assert_input_error(readings, "this is a readings file, not an aircraft file")

@@ -103,7 +103,7 @@ def test_extremes_name_the_occupants_not_a_maximum():
         meto_power_hp=100,
     )
     notes = " ".join(extremes(aircraft, occupant_weight=77.0).rearward.notes)
-    assert "2 occupants at 77 kg (154.0 kg)" in notes and "maximum (154" not in notes
+    assert "2 occupants at 77.0 kg (154.0 kg)" in notes and "maximum (154" not in notes
 
 
 def test_each_extreme_holds_over_the_fuel_range_it_states():
@@ -206,10 +206,32 @@ def test_extreme_notes_say_one_occupant_once_and_the_pilot_not_alone_beside_a_pa
     # regression: "Rear seat: 1 occupant at 77 kg (77.0 kg)" and "the pilot alone" while a
     # rear occupant was also aboard (tandem2's rearward extreme)
     case = extremes(_pilot_ahead_of_the_forward_limit()).rearward
-    assert "rear: 1 occupant at 170 lb, behind the rearward limit" in case.notes
+    assert "rear: 1 occupant at 170.0 lb, behind the rearward limit" in case.notes
     pilot = [n for n in case.notes if n.startswith("front:")]
     assert pilot == ["front: the pilot (170.0 lb), in the most rearward seat with controls"]
     tandem = extremes(load_aircraft(sample("tandem2/aircraft.toml")))
     notes = " ".join(tandem.rearward.notes + tandem.forward.notes)
     assert "(77.0 kg), behind" not in notes and "alone" not in notes
     assert "Front seat (pilot): the pilot (77.0 kg), ahead of the forward limit" in tandem.forward.notes
+
+
+def test_regression_extreme_notes_show_figures_at_display_precision():
+    # a 170 lb occupant on a kg aircraft read "1 occupant at 77.1107 kg" and the minimum fuel
+    # "25.24 l": every figure goes through loadcheck.display.fmt (0.1 kg, 0.1 l), the minimum
+    # fuel rounded up, so that the fuel range stated never reaches below the one checked
+    import re
+
+    from loadcheck.display import fmt
+    from loadcheck.units import convert
+
+    tandem = load_aircraft(sample("tandem2/aircraft.toml"))
+    occupant = convert(170.0, "lb", "kg")  # 77.11070 kg (1 lb = 0.45359237 kg exactly, NIST SP 811 B.8)
+    result = extremes(tandem, occupant_weight=occupant)
+    notes = result.forward.notes + result.rearward.notes
+    assert any(f"occupant at {fmt(occupant, 'kg')}" in n for n in notes) and "77.1 kg" == fmt(occupant, "kg")
+    fuel = next(n for n in notes if n.startswith("minimum fuel for balance"))
+    shown = float(re.search(r"balance, ([\d.,]+) l", fuel).group(1))
+    assert shown >= minimum_fuel(tandem, tandem.meto_power_hp) and shown == pytest.approx(
+        minimum_fuel(tandem, tandem.meto_power_hp), abs=0.1
+    )
+    assert not [n for n in notes if re.search(r"\d\.\d\d", n)], notes  # no figure past 0.1 kg or 0.1 l

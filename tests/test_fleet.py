@@ -5,6 +5,7 @@ from __future__ import annotations
 import csv
 import json
 import os
+import re
 import shutil
 import signal
 import sqlite3
@@ -715,6 +716,24 @@ def test_an_unknown_column_names_every_column_the_csv_reads(runner, records, tmp
     }
 
 
+def test_regression_an_unknown_empty_column_is_in_the_summary_and_the_json(runner, tmp_path):
+    # an unknown column with no value in it made the exit status 2 while the closing line said
+    # "0 could not be used" and the JSON Lines held only flights: the words now say why
+    day = tmp_path / "day.csv"
+    day.write_text("registration,reference,front,mains,bag9\nDEMO-4T,R1,170,20,\n")
+    table = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(day), "--no-log"], env={"COLUMNS": "250"})
+    assert table.exit_code == 2
+    assert "0 could not be used; 1 problem with the loadings file" in table.stdout
+    lines = _json_lines(runner.invoke(app, ["fleet", "check", str(SAMPLES), str(day), "--no-log", "--json"]).stdout)
+    assert lines[0]["ok"] is False and "unknown column 'bag9'" in lines[0]["input_error"][0]
+    assert "line" not in lines[0] and lines[0]["source"] == str(day)
+    assert [line["line"] for line in lines[1:]] == [2] and "input_error" not in lines[1]
+    # a file with no problem of its own says nothing of it
+    day.write_text("registration,reference,front,mains\nDEMO-4T,R1,170,20\n")
+    clean = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(day), "--no-log"], env={"COLUMNS": "250"})
+    assert "loadings file" not in clean.stdout and "0 could not be used." in clean.stdout
+
+
 def test_a_fleet_refusal_over_capacity_says_the_amount_once(runner, records):
     # line 28 of the sample day asks 60 US gal of a 44 US gal tank; the refusal said "60 usgal ... got 60.0"
     result = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(DAY), "--json", "--no-log"])
@@ -722,3 +741,18 @@ def test_a_fleet_refusal_over_capacity_says_the_amount_once(runner, records):
     assert refused["input_error"] == [
         f"{DAY}:28: fuel.mains: 60 usgal is above the tank's usable capacity; expected at most 44 usgal"
     ]
+
+
+def test_regression_the_fleet_docs_give_the_chunk_the_code_uses():
+    # docs/fleet.md said "chunks of 256" long after loadcheck.fleet.CHUNK became 1,024; and
+    # DEVELOPERS.md's list of commands left out benchmarks/fleet_stages.py
+    from loadcheck.fleet import CHUNK
+
+    root = SAMPLES.parent
+    text = " ".join((root / "docs" / "fleet.md").read_text(encoding="utf-8").split())
+    assert f"chunks of {CHUNK:,} (`loadcheck.fleet.CHUNK`)" in text
+    stated = re.findall(r"chunks of ([\d,]+\d)", text)  # every chunk size the page states
+    assert stated and {int(n.replace(",", "")) for n in stated} == {CHUNK}, stated
+    developers = (root / "DEVELOPERS.md").read_text(encoding="utf-8")
+    listed = [line.split()[1] for line in developers.splitlines() if line.startswith("python benchmarks/")]
+    assert "benchmarks/fleet_stages.py" in listed and (root / "benchmarks" / "fleet_stages.py").is_file()

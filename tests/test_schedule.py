@@ -144,3 +144,33 @@ def test_schedule_answers_are_within_limits_and_maximal():
         plan = BurnPlan(full_fuel.fuel, None)
         trial = ResolvedLoading("normal", load, full_fuel.fuel, density, 0.0, plan.burnable, None, plan)
         assert not check_loading(aircraft, trial).ok
+
+
+def test_regression_schedule_notes_show_the_occupant_at_display_precision():
+    # a 170 lb occupant on a kg aircraft read "occupants at 77.1107 kg each": the weight goes
+    # through loadcheck.display.fmt (0.1 kg), as every other mass the schedule shows
+    from loadcheck.display import fmt
+    from loadcheck.units import convert
+
+    occupant = convert(170.0, "lb", "kg")  # 77.11070 kg (1 lb = 0.45359237 kg exactly, NIST SP 811 B.8)
+    schedule = loading_schedule(load_aircraft(sample("tandem2/aircraft.toml")), occupant_weight=occupant)
+    notes = [note for case in schedule.cases for note in case.notes]
+    assert f"occupants at {fmt(occupant, 'kg')} each" in notes and "every seat filled at 77.1 kg" in notes
+    assert not [n for n in notes if "77.11" in n]
+
+
+def test_regression_a_seats_minimum_weight_is_met_by_its_occupant_not_added_to_it():
+    # tandem2's pilot seat has min_weight 55 kg: the schedule put the seat at its minimum and then
+    # seated the 77 kg pilot on top (132 kg, over the seat's 110 kg maximum), so every case read
+    # NOT within limits. A minimum crew weight is met by the crew (common practice): the seat holds
+    # the occupants' weight, or its minimum where that is more
+    tandem = load_aircraft(sample("tandem2/aircraft.toml"))
+    seat = tandem.station_by_id["front"]
+    assert seat.min_weight == 55.0 and seat.max_weight == 110.0
+    schedule = loading_schedule(tandem, occupant_weight=77.0)
+    for case in schedule.cases:
+        assert case.occupants["front"] == 1 and case.load["front"] == pytest.approx(77.0)
+        assert case.ok == case.check.ok and not any(f.code == "station_max" for f in case.check.findings)
+        assert not any("minimum weight: Front seat" in note for note in case.notes)
+    light = loading_schedule(tandem, occupant_weight=50.0)  # a pilot lighter than the minimum: ballast to 55 kg
+    assert all(case.load["front"] == pytest.approx(55.0) for case in light.cases)

@@ -107,11 +107,38 @@ def test_fleet_flags_an_invalid_file_and_an_undated_record(desk: dict[str, Any])
 
 
 def test_fleet_api_is_the_fleet_listing(reading_desk: dict[str, Any]) -> None:
+    # the library's listing, each file named relative to the desk's fleet folder (docs/web.md)
     from loadcheck.fleet import fleet_listing, load_fleet
 
     answer = _client(reading_desk, "dan").get("/api/fleet").json()
-    expected = [line.to_dict() for line in fleet_listing(load_fleet(reading_desk["fleet"]))]
+    fleet = reading_desk["fleet"]
+    expected = [
+        line.to_dict() | {"file": Path(line.file).relative_to(fleet).as_posix()}
+        for line in fleet_listing(load_fleet(fleet))
+    ]
     assert answer == expected
+
+
+def test_regression_the_fleet_api_gave_the_servers_paths(desk: dict[str, Any]) -> None:
+    # /api/fleet returned each file as the server's absolute path, and so did the problems of a
+    # file that does not validate and of a registration in two files
+    fleet = desk["fleet"]
+    (fleet / "broken.toml").write_text(
+        'format = 1\nname = "x"\nregistration = "BROKEN-1"\n[units]\nmass = "lb"\narm = "in"\nfuel_volume = "usgal"\n'
+    )
+    (fleet / "copy").mkdir()
+    (fleet / "copy" / "again.toml").write_text((fleet / "trainer4" / "aircraft.toml").read_text())
+    answer = _client(desk, "dan").get("/api/fleet").json()
+    text = json.dumps(answer)
+    assert str(fleet) not in text and str(fleet.resolve()) not in text
+    files = {line["file"] for line in answer}
+    assert {"trainer4/aircraft.toml", "broken.toml", "copy/again.toml"} <= files
+    broken = next(line for line in answer if line["registration"] == "BROKEN-1")
+    assert broken["problems"] and not broken["usable"]
+    twice = [line for line in answer if line["registration"] == "DEMO-4T"]
+    assert len(twice) == 2 and all(
+        any("copy/again.toml" in p or "trainer4/aircraft.toml" in p for p in line["problems"]) for line in twice
+    )
 
 
 # -- the pilot: check, record, sheet, plan -------------------------------------------------------

@@ -106,7 +106,8 @@ def fleet_check(
     """Check a day of loadings against the fleet; record every check in the check log (--no-log: do not).
 
     Exit status: 0 every flight within limits, 1 a flight is out of limits, 2 a row could not
-    be used (the other rows are still checked and reported) or there was nothing to check.
+    be used (the other rows are still checked and reported), the file has a problem of its own
+    (an unknown column) or there was nothing to check.
 
     Example:
 
@@ -136,6 +137,8 @@ def fleet_check(
             if out is not None
             else (lambda line: sys.stdout.write(orjson.dumps(line, option=orjson.OPT_APPEND_NEWLINE).decode()))
         )
+        if file_problems:  # the file's own problems first, so that the lines say why the exit status is 2
+            write_line({"source": str(loadings), "ok": False, "input_error": file_problems})
     counts = {"checked": 0, "out": 0, "bad": 0}
     show_progress = err.is_terminal and not json_out and not os.environ.get("NO_COLOR")  # a bar is escape codes
     say = (
@@ -170,7 +173,7 @@ def fleet_check(
     if not json_out:
         from ..render.terminal import render_fleet
 
-        render_fleet(flights, _console())
+        render_fleet(flights, _console(), file_problems)
     if log is not None:
         err.print(f"{counts['checked'] - counts['bad']} check(s) recorded in the check log {log.path}", markup=False)
     if counts["bad"] or file_problems:

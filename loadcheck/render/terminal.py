@@ -1000,13 +1000,16 @@ def _flight_result(result: dict[str, Any]) -> tuple[Text, str]:
     return Text("within", style=_OK_STYLE), ""
 
 
-def render_fleet(flights: list[Any], console: Console) -> None:
+def render_fleet(flights: list[Any], console: Console, file_problems: Sequence[str] = ()) -> None:
     """One row per flight: line, registration, the verdict and under it the first finding,
     reference, takeoff and landing weight over CG (the verdict and its reason come first, so
     that they stay beside the flight's name however narrow the terminal).
 
     A flight within limits but with warnings (fuel below the reserve, an assumption made)
-    says so in its result and shows the first warning.
+    says so in its result and shows the first warning. ``file_problems`` are the problems of
+    the loadings file as a whole (an unknown column, :func:`loadcheck.fleet.read_loadings`):
+    printed to standard error before the table, and counted in the closing line, since they
+    make the exit status 2 however the flights went.
     """
     rows: list[list[Cell]] = []
     warned = 0
@@ -1075,7 +1078,13 @@ def render_fleet(flights: list[Any], console: Console) -> None:
     console.print(
         f"{len(flights)} {'flight' if len(flights) == 1 else 'flights'}: {within} within limits"
         + (f" ({warned} with warnings)" if warned else "")
-        + f", {out} out of limits, {bad} could not be used.",
+        + f", {out} out of limits, {bad} could not be used"
+        + (
+            f"; {len(file_problems)} {'problem' if len(file_problems) == 1 else 'problems'} with the loadings file"
+            " (the errors above)."
+            if file_problems
+            else "."
+        ),
         markup=False,
     )
     from ..caution import PILOT_CAUTION

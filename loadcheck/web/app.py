@@ -1210,14 +1210,25 @@ def create_app(
 
     @api.get("/api/fleet", response_model=None)
     def api_fleet(request: Request, max_age: int | None = None) -> list[JsonObject]:
-        """The fleet listing (as ``fleet list --json``).
+        """The fleet listing (as ``fleet list --json``), with no path of this machine in it.
 
-        Each aircraft's record date, useful load, fingerprint and problems.
+        Each aircraft's file (named relative to the desk's fleet folder), record date, useful
+        load, fingerprint and problems (their paths as the fleet page shows them).
         """
         from ..fleet import fleet_listing
 
         _account(request)
-        return [line.to_dict() for line in fleet_listing(desk.fleet(), max_age)]
+
+        def named(path: str) -> str:  # as its user knows it: trainer4/aircraft.toml, not the server's path
+            try:
+                return Path(path).relative_to(desk.fleet_dir).as_posix()
+            except ValueError:  # not under the folder as given (load_fleet searches only it): its name alone
+                return Path(path).name
+
+        return [
+            line.to_dict() | {"file": named(line.file), "problems": [desk.public(p) for p in line.problems]}
+            for line in fleet_listing(desk.fleet(), max_age)
+        ]
 
     @api.post("/api/check", response_model=None)
     def api_check(request: Request, body: CheckRequest) -> JsonObject | JSONResponse:
