@@ -369,7 +369,9 @@ def load_aircraft_for_update(path: str | Path) -> tuple[Aircraft, bytes]:
     longer holds them.
     """
     text = read_text(path)
-    return parse_aircraft(parse_toml(text, path), path), text.encode("utf-8")
+    data = parse_toml(text, path)
+    _refuse_other_kinds(data, path)
+    return parse_aircraft(data, path), text.encode("utf-8")
 
 
 def load_aircraft(path: str | Path) -> Aircraft:
@@ -378,9 +380,29 @@ def load_aircraft(path: str | Path) -> Aircraft:
     Raises
     ------
     FileFormatError, InputError
-        Naming the file, every bad field and its value.
+        Naming the file, every bad field and its value; a file of another kind (a loading,
+        readings, changes: :func:`file_kind`) refused as such, not with the aircraft fields it lacks.
     """
-    return parse_aircraft(read_toml(path), path)
+    data = read_toml(path)
+    _refuse_other_kinds(data, path)
+    return parse_aircraft(data, path)
+
+
+def _refuse_other_kinds(data: Mapping[str, Any], path: str | Path) -> None:
+    """Refuse a loading, readings or changes file given where an aircraft file goes, naming the
+    aircraft file a loading names (relative to the loading's folder)."""
+    kind = file_kind(data)
+    if kind in ("aircraft", "unknown"):
+        return
+    named = data.get("aircraft") if kind == "loading" and isinstance(data.get("aircraft"), str) else None
+    raise InputError(
+        Problem(
+            "",
+            f"this is a {kind} file, not an aircraft file: give the aircraft file here"
+            + (f"; this loading names {Path(path).parent / named}" if named else ""),
+        ),
+        file=path,
+    )
 
 
 def parse_loading(data: Mapping[str, Any], file: str | Path | None = None) -> Loading:

@@ -191,17 +191,23 @@ def test_regression_weigh_shows_the_sign_of_every_change(runner):
     assert "Change from the current record: weight -32.2 lb, CG -0.19 in; useful load 764.2 lb (+32.2 lb)" in text
 
 
-@pytest.mark.parametrize("command", ["schedule", "extremes", "history"])
+@pytest.mark.parametrize(
+    "command",
+    [["schedule"], ["extremes"], ["history"], ["weigh", "trainer4/weighing.toml"], ["alter", "trainer4/changes.toml"]],
+    ids=lambda c: c[0],
+)
 def test_regression_a_loading_given_for_the_aircraft_file_is_named_as_such(command):
     # a loading file given as AIRCRAFT was read as an aircraft and refused field by field
     # ("name: this field is required", "load: unknown field"); it is now said plainly
+    # (files.load_aircraft and load_aircraft_for_update, so every command that reads an aircraft file)
     given = sample("trainer4/within.toml")
-    result = invoke(command, str(given))
+    rest = [str(sample(name)) for name in command[1:]]
+    result = invoke(command[0], str(given), *rest)
     assert_input_error(
         result,
-        f"{given}: this is a loading file, not an aircraft file: {command} needs the aircraft file",
+        f"{given}: this is a loading file, not an aircraft file: give the aircraft file here",
         f"this loading names {sample('trainer4/aircraft.toml')}",
     )
     assert "this field is required" not in result.output and "unknown field" not in result.output
-    readings = invoke(command, str(sample("trainer4/weighing.toml")))
+    readings = invoke(command[0], str(sample("trainer4/weighing.toml")), *rest)
     assert_input_error(readings, "this is a readings file, not an aircraft file")

@@ -6,7 +6,7 @@ import json
 import sys
 from collections.abc import Callable
 from pathlib import Path
-from typing import TYPE_CHECKING, Annotated, Any, Literal
+from typing import Annotated, Any, Literal
 
 import typer
 
@@ -22,9 +22,6 @@ from .common import (
     input_errors,
     options_as_typed,
 )
-
-if TYPE_CHECKING:
-    from ..aircraft import Aircraft
 
 # -- the mechanic's commands -----------------------------------------------------------------
 
@@ -53,34 +50,6 @@ MetoOpt = Annotated[
     float | None,
     typer.Option(metavar="HP", help="Maximum-except-takeoff power [hp] for the minimum fuel (default: the file's)."),
 ]
-
-
-def _aircraft_file(path: Path, command: str) -> Aircraft:
-    """The aircraft of an aircraft file; another kind of file (a loading, readings, changes, told
-    apart by :func:`loadcheck.files.file_kind`) is refused saying that ``command`` needs the
-    aircraft file, rather than with the aircraft fields the file lacks.
-
-    Raises
-    ------
-    InputError
-        For a file of another kind, naming it (and the aircraft file a loading names).
-    """
-    from ..files import file_kind, parse_aircraft, read_toml
-
-    data = read_toml(path)
-    kind = file_kind(data)
-    if kind not in ("aircraft", "unknown"):
-        named = data.get("aircraft") if kind == "loading" and isinstance(data.get("aircraft"), str) else None
-        raise InputError(
-            Problem(
-                "",
-                f"this is a {kind} file, not an aircraft file: {command} needs the aircraft file (AIRCRAFT)"
-                + (f"; this loading names {path.parent / named}" if named else ""),
-            ),
-            file=path,
-        )
-    aircraft: Aircraft = parse_aircraft(data, path)
-    return aircraft
 
 
 def _interactive() -> bool:
@@ -234,8 +203,9 @@ def history(
         sample_aircraft/trainer4/aircraft.toml
     """
     from ..empty_record import history as listing
+    from ..files import load_aircraft
 
-    result = listing(_aircraft_file(aircraft, "history"))
+    result = listing(load_aircraft(aircraft))
     if json_out:
         typer.echo(result.to_json())
     else:
@@ -264,9 +234,10 @@ def extremes(
         sample_aircraft/tandem2/aircraft.toml
     """
     from ..extremes import extremes as compute
+    from ..files import load_aircraft
     from ..units import read_amount
 
-    data = _aircraft_file(aircraft, "extremes")
+    data = load_aircraft(aircraft)
     weight = None if occupant is None else read_amount(occupant, data.units.mass, "--occupant")
     named = {
         "category": ("--category", category),
@@ -304,10 +275,11 @@ def schedule(
       loadcheck schedule \\
         sample_aircraft/twin6/aircraft.toml
     """
+    from ..files import load_aircraft
     from ..schedule import loading_schedule
     from ..units import read_amount
 
-    data = _aircraft_file(aircraft, "schedule")
+    data = load_aircraft(aircraft)
     weight = None if occupant is None else read_amount(occupant, data.units.mass, "--occupant")
     with options_as_typed({"category": ("--category", category), "occupant_weight": ("--occupant", occupant)}):
         result = loading_schedule(data, category=category, occupant_weight=weight)
