@@ -556,7 +556,7 @@ class Aircraft(_Model):
         UnknownNameError
             For a category no envelope has, listing the known ones (fail closed).
         """
-        chosen = name or self.categories[0]
+        chosen = self.categories[0] if name is None else name
         if chosen not in self.categories:
             raise UnknownNameError(
                 Problem(

@@ -652,7 +652,9 @@ def resolve_loading(
     unknown: list[Problem] = []
 
     categories = aircraft.categories
-    chosen = category or loading.category or categories[0]
+    # a category given, even an empty one, is used as given (and refused where it is not one of the
+    # aircraft's): only a category not given at all takes the loading's, then the aircraft's first
+    chosen = category if category is not None else loading.category if loading.category is not None else categories[0]
     if chosen not in categories:
         try:
             aircraft.category(chosen)  # the refusal, with the categories there are

@@ -309,3 +309,28 @@ def test_regression_proposal_says_no_cg_range_when_the_aircraft_file_gives_none(
     from loadcheck.display import fmt
 
     assert f"inside the empty-weight CG range ({fmt(low, 'mm')} to {fmt(high, 'mm')})" in shown.text, shown.text
+
+
+def test_regression_an_empty_category_was_replaced_by_the_aircrafts_first(desk: dict[str, Any], tmp_path: Path) -> None:
+    """`check utility_aft.toml --category ""` checked the utility loading under the normal category and said
+    WITHIN LIMITS, exit 0 (an empty text was taken as "not given"). A category given, even empty, is now
+    used as given and refused as an unknown category (fail closed, common practice) on the command line,
+    in a loading file, through every API route and the form; nothing is recorded."""
+    utility = SAMPLES / "trainer4" / "utility_aft.toml"
+    assert invoke("check", str(utility)).exit_code == 1  # out of limits in its own (utility) category
+    for args in (["check", str(utility)], ["plan", "fuel", str(utility)], ["schedule", str(TRAINER)]):
+        assert_input_error(invoke(*args, "--category", ""), "--category ''", "unknown category ''", "normal, utility")
+    loading = tmp_path / "empty_category.toml"
+    loading.write_text(utility.read_text(encoding="utf-8").replace('category = "utility"', 'category = ""'))
+    assert 'category = ""' in loading.read_text()
+    loading.write_text(loading.read_text().replace('aircraft = "aircraft.toml"', f'aircraft = "{TRAINER}"'))
+    assert_input_error(invoke("check", str(loading)), "category: unknown category ''")
+    client = _client(desk, "pia")
+    for route, extra in ROUTES.items():
+        response = client.post(f"/api/{route}", json={**BODY, **extra, "category": "", "record": route == "check"})
+        assert response.status_code == 422, (route, response.text)
+        assert any("unknown category ''" in p["message"] for p in response.json()["problems"]), route
+    form = {"load.front": "340", "fuel.mains": "school", "category": ""}
+    response = _post_check(client, form)
+    assert response.status_code == 422 and "unknown category" in response.text and "WITHIN LIMITS" not in response.text
+    assert _records(desk) == []

@@ -27,6 +27,15 @@ def _own_fields(html: str, action: str) -> list[str]:
     return list(dict.fromkeys(_FIELD.findall(html[start:end])))
 
 
+def _selected(html: str, name: str) -> str:
+    """What a browser sends for the page's ``<select name=...>``: the option marked selected, else the
+    first (HTML Living Standard, "The select element": a select always has a value to send)."""
+    start = html.index(f'name="{name}"')
+    block = html[start : html.index("</select>", start)]
+    options = re.findall(r'<option value="([^"]*)"( selected)?', block)
+    return next((value for value, chosen in options if chosen), options[0][0])
+
+
 def test_regression_a_crafted_field_of_the_check_form_is_refused(reading_desk: dict[str, Any]) -> None:
     """load.ghost (a station DEMO-4T lacks) was dropped and the loading checked without it."""
     client = _client(reading_desk, "pia")
@@ -64,7 +73,7 @@ def test_the_check_forms_own_fields_go_through(reading_desk: dict[str, Any]) -> 
     page = client.get("/aircraft/DEMO-4T").text
     fields = _own_fields(page, "/aircraft/DEMO-4T/check")
     assert {"csrf", "action", "legs", "category", "station", "load.front", "names.front"} <= set(fields)
-    data = {name: WITHIN.get(name, "") for name in fields}
+    data = {name: WITHIN.get(name, "") for name in fields} | {"category": _selected(page, "category")}
     response = client.post(
         "/aircraft/DEMO-4T/check", data={**data, "csrf": csrf_of(page), "action": "check"}, follow_redirects=False
     )
@@ -81,7 +90,7 @@ def test_a_trip_forms_own_fields_go_through(reading_desk: dict[str, Any]) -> Non
     page = _post_check(client, TRIP_LEG_2_AFT, "TEST-T", route="edit").text  # the form again, with leg 2
     fields = _own_fields(page, "/aircraft/TEST-T/check")
     assert {"leg.2.label", "leg.2.load.front", "leg.2.fuel.main", "leg.2.burn.trip", "stop"} <= set(fields)
-    data = {name: TRIP_LEG_2_AFT.get(name, "") for name in fields}
+    data = {name: TRIP_LEG_2_AFT.get(name, "") for name in fields} | {"category": _selected(page, "category")}
     for action in ("check", "fuel", "add_leg", "remove_leg:2"):
         response = client.post(
             "/aircraft/TEST-T/check", data={**data, "csrf": csrf_of(page), "action": action}, follow_redirects=False

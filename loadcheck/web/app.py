@@ -490,7 +490,8 @@ def _overrides(form: FormValues, aircraft: Aircraft, legs: int | None = None) ->
     read("station")
     read("stop")
     refuse_unknown(form, typed)
-    return typed, Overrides(load=load, names=names, fuel=fuel, burn=burn, category=category or None, legs=further)
+    chosen = category if "category" in form else None  # sent empty (no such choice on the form): refused as given
+    return typed, Overrides(load=load, names=names, fuel=fuel, burn=burn, category=chosen, legs=further)
 
 
 def _without_leg(typed: dict[str, str], number: int) -> dict[str, str]:
