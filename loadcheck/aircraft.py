@@ -68,10 +68,12 @@ RESERVED_IDS = (
     "rate",
     "order",
     "reserve",
+    "trip_id",
+    "leg",
 )
 """Names a station or tank may not take (in any letter case): they are the fleet CSV's own
 columns (docs/fleet.md), so a station called ``pilot`` would be read as the pilot's name
-and its weight lost."""
+and its weight lost, and one called ``leg`` would make every CSV with its column a trip."""
 
 
 class _Model(FileModel):

@@ -66,7 +66,8 @@ MAX_CSV_BYTES = 50 * 1024 * 1024
 """Largest loadings CSV read [bytes] (about half a million flights)."""
 
 RESERVED_COLUMNS = RESERVED_IDS
-"""CSV columns that are not station or tank ids (an aircraft file may not use them as ids)."""
+"""CSV columns that are not station or tank ids (an aircraft file may not use them as ids);
+:data:`TRIP_COLUMN` and :data:`LEG_COLUMN` among them."""
 
 TRIP_COLUMN = "trip_id"
 """CSV column grouping rows into one trip: the rows with one trip id are the legs of one trip,
@@ -332,12 +333,10 @@ def _read_header(
             f"{TRIP_COLUMN!r} column saying which trip each row belongs to",
             file=path,
         )
-    unknown = [
-        n for n in names if n and n not in RESERVED_COLUMNS and n not in known and n not in (TRIP_COLUMN, LEG_COLUMN)
-    ]
+    unknown = [n for n in names if n and n not in RESERVED_COLUMNS and n not in known]
     file_problems = [
         f"{path}: unknown column {name!r}: not a station or tank of any fleet aircraft, nor one of "
-        f"{', '.join((*RESERVED_COLUMNS, TRIP_COLUMN, LEG_COLUMN))}; rows with a value in it are refused"
+        f"{', '.join(RESERVED_COLUMNS)}; rows with a value in it are refused"
         for name in unknown
     ]
     return columns, file_problems, set(unknown)

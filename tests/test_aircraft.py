@@ -201,12 +201,17 @@ def test_a_tank_density_no_fuel_has_is_refused(density):
         simple_aircraft(tank=[{"id": "main", "arm": 45.0, "usable": 40.0, "density": density}])
 
 
-@pytest.mark.parametrize("name", ["pilot", "Date", "RESERVE", "trip_time", "order", "label", "registration"])
+@pytest.mark.parametrize(
+    "name", ["pilot", "Date", "RESERVE", "trip_time", "order", "label", "registration", "trip_id", "Leg"]
+)
 def test_a_station_or_tank_may_not_take_a_fleet_csv_column_name(name):
+    # trip_id and leg were left out: an aircraft with a station 'leg' passed validate, then fleet check
+    # read every CSV with a 'leg' column as a trip's legs (an outside trial's find)
     from loadcheck.aircraft import RESERVED_IDS
-    from loadcheck.fleet import RESERVED_COLUMNS
+    from loadcheck.fleet import LEG_COLUMN, RESERVED_COLUMNS, TRIP_COLUMN
 
     assert RESERVED_COLUMNS == RESERVED_IDS and name.lower() in RESERVED_IDS
+    assert {TRIP_COLUMN, LEG_COLUMN} <= set(RESERVED_IDS)
     with pytest.raises(InputError, match=rf"station\[0\].id: {name!r} is a reserved name"):
         simple_aircraft(station=[{"id": name, "arm": 35.0}])
     with pytest.raises(InputError, match=rf"tank\[0\].id: {name!r} is a reserved name"):
