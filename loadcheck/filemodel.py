@@ -10,7 +10,7 @@
 from __future__ import annotations
 
 import types
-from typing import Annotated, Any, Union, get_args, get_origin
+from typing import Annotated, Any, Literal, Union, get_args, get_origin
 
 from pydantic import BaseModel, ConfigDict, model_validator
 
@@ -18,7 +18,8 @@ __all__ = ["FileModel"]
 
 
 def _takes_number(annotation: Any) -> bool:
-    """True where a field's type accepts a number but not a boolean."""
+    """True where a field's type accepts a number but not a boolean (a ``Literal[1]`` included:
+    pydantic would take ``true`` for 1 there too)."""
     if annotation is bool:
         return False
     if annotation in (int, float):
@@ -26,30 +27,41 @@ def _takes_number(annotation: Any) -> bool:
     origin = get_origin(annotation)
     if origin is Annotated:
         return _takes_number(get_args(annotation)[0])
+    if origin is Literal:
+        return any(type(a) in (int, float) for a in get_args(annotation))
     if origin in (Union, types.UnionType):
         options = get_args(annotation)
         return any(_takes_number(a) for a in options) and bool not in options
     return False
 
 
-def _booleans_in_numbers(annotation: Any, value: Any) -> bool:
-    """True where ``value`` holds a boolean at a place ``annotation`` wants a number."""
+def _boolean_places(annotation: Any, value: Any, place: str) -> list[str]:
+    """Where ``value`` (at ``place``) holds a boolean at a place ``annotation`` wants a number, as
+    the user reads them: ``load.front``, ``points[0][1]``. A table of another file model is left to
+    that model's own check, which pydantic places (``burn``, ``station[2]``)."""
     if isinstance(value, bool):
-        return _takes_number(annotation)
+        return [place] if _takes_number(annotation) else []
     origin = get_origin(annotation)
     if origin is Annotated:
-        return _booleans_in_numbers(get_args(annotation)[0], value)
+        return _boolean_places(get_args(annotation)[0], value, place)
     if origin in (Union, types.UnionType):
-        return any(_booleans_in_numbers(a, value) for a in get_args(annotation) if a is not type(None))
+        for option in get_args(annotation):
+            if option is not type(None) and (found := _boolean_places(option, value, place)):
+                return found
+        return []
     if isinstance(value, (list, tuple)) and origin in (list, tuple):
         args = [a for a in get_args(annotation) if a is not Ellipsis]
         if not args:
-            return False
-        return any(_booleans_in_numbers(args[i] if i < len(args) else args[-1], v) for i, v in enumerate(value))
+            return []
+        return [
+            found
+            for i, v in enumerate(value)
+            for found in _boolean_places(args[i] if i < len(args) else args[-1], v, f"{place}[{i}]")
+        ]
     if isinstance(value, dict) and origin is dict:
         inner = get_args(annotation)[1] if len(get_args(annotation)) == 2 else Any
-        return any(_booleans_in_numbers(inner, v) for v in value.values())
-    return False
+        return [found for k, v in value.items() for found in _boolean_places(inner, v, f"{place}.{k}")]
+    return []
 
 
 def _holds_boolean(value: Any) -> bool:
@@ -82,11 +94,18 @@ class FileModel(BaseModel):
     @classmethod
     def _no_booleans_for_numbers(cls, data: Any) -> Any:
         if isinstance(data, dict) and _holds_boolean(data):  # no true/false anywhere: none where a number goes
-            bad = [
-                key
-                for name, field in cls.model_fields.items()
-                if (key := field.alias or name) in data and _booleans_in_numbers(field.annotation, data[key])
-            ]
-            if bad:
-                raise ValueError(f"{', '.join(bad)}: expected a number, got true or false")
+            bad = cls.boolean_places(data)
+            if bad:  # a line per place: each is its own problem (loadcheck.files.problems_from_validation)
+                raise ValueError("\n".join(f"{place}: expected a number, got true or false" for place in bad))
         return data
+
+    @classmethod
+    def boolean_places(cls, data: dict[str, Any]) -> list[str]:
+        """Every place of ``data`` (a table of this model) where a boolean stands for a number
+        (``format``, ``load.front``)."""
+        return [
+            found
+            for name, field in cls.model_fields.items()
+            if (key := field.alias or name) in data
+            for found in _boolean_places(field.annotation, data[key], key)
+        ]

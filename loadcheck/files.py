@@ -330,10 +330,17 @@ def problems_from_validation(error: ValidationError, model: type[BaseModel] | No
         if (field, message) in seen:
             continue
         seen.add((field, message))
-        if not field:
+        if not field or (kind == "value_error" and _PATH_PREFIX.match(message.partition("\n")[0])):
+            # a table's own check, a line per problem naming its place in the table: at the top as
+            # it is; inside a table after the table's place (burn + "taxi: ..." -> burn.taxi)
+            loc = tuple(item.get("loc", ()))
             for line in message.splitlines():
                 match = _PATH_PREFIX.match(line)
-                problems.append(Problem(match.group(1), match.group(2)) if match else Problem("", line))
+                if not match:
+                    problems.append(Problem(field, line))
+                    continue
+                inner = tuple(int(p) if p.isdigit() else p for p in re.findall(r"[^.\[\]]+", match.group(1)))
+                problems.append(Problem(_field_path(loc + inner) if loc else match.group(1), match.group(2)))
             continue
         value = item.get("input") if kind not in ("missing", "model_type", "dict_type") else None
         problems.append(Problem(field, message, None if isinstance(value, (dict, list)) else value, expected))

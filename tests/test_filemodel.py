@@ -12,3 +12,38 @@ def test_misspelt_field_is_an_error_not_ignored():
     data = sample_data("trainer4/aircraft.toml")
     data["station"][0]["max_wieght"] = 400
     assert "station[0].max_wieght" in _problems(data)
+
+
+def _loading_problems(data: dict) -> list[tuple[str, str]]:
+    import pytest
+
+    from loadcheck.errors import InputError
+    from loadcheck.files import parse_loading
+
+    with pytest.raises(InputError) as refused:
+        parse_loading(data)
+    return [(p.field, p.message) for p in refused.value.problems]
+
+
+def test_regression_a_boolean_for_a_number_was_named_by_its_table_alone_and_format_true_was_taken():
+    """`[load] front = true` said "load: expected a number" (which station?), `[burn] taxi = true` said
+    "burn: taxi: ...", and `format = true` was taken as format 1 (pydantic reads true as 1). TOML v1.0.0
+    ("Boolean") makes true/false a type of its own: each place is now named as the user reads it, one
+    problem per place, format included (fail closed, common practice)."""
+    base = {"load": {"front": 170.0}, "fuel": {"mains": 20.0}}
+    expected = "expected a number, got true or false"
+    assert _loading_problems({**base, "format": True}) == [("format", expected)]
+    assert _loading_problems({**base, "load": {"front": True, "rear": False}}) == [
+        ("load.front", expected),
+        ("load.rear", expected),
+    ]
+    assert _loading_problems({**base, "fuel": {"mains": True}}) == [("fuel.mains", expected)]
+    assert _loading_problems({**base, "burn": {"taxi": True, "trip": False}}) == [
+        ("burn.taxi", expected),
+        ("burn.trip", expected),
+    ]
+    assert _loading_problems({**base, "leg": [{"load": {"front": False}}]}) == [("leg 2, load.front", expected)]
+    aircraft = sample_data("trainer4/aircraft.toml")
+    assert "format" in _problems({**aircraft, "format": True})
+    aircraft["station"][0]["arm"] = True
+    assert "station[0].arm" in _problems(aircraft)
