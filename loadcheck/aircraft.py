@@ -48,12 +48,26 @@ __all__ = [
     "StationGroup",
     "StationKind",
     "Tank",
+    "registration_key",
     "Units",
 ]
 
 StationKind = Literal["seat", "baggage", "cargo", "ballast", "other"]
 
 _ID_PATTERN = r"^[A-Za-z0-9_][A-Za-z0-9_.-]*$"
+
+
+def registration_key(registration: str) -> str:
+    """A registration as it is compared: without case, spaces or hyphens (``g-abcd`` is ``GABCD``;
+    common practice: the hyphen after a nationality mark is written or left out, as on the aircraft).
+
+    Examples
+    --------
+    >>> registration_key("g-abcd") == registration_key("GABCD") == registration_key("G ABCD")
+    True
+    """
+    return "".join(ch for ch in registration.upper() if ch.isalnum())
+
 
 RESERVED_IDS = (
     "registration",

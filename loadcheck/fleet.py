@@ -32,7 +32,7 @@ from functools import cached_property, lru_cache
 from pathlib import Path
 from typing import Any
 
-from .aircraft import RESERVED_IDS, Aircraft
+from .aircraft import RESERVED_IDS, Aircraft, registration_key
 from .check import check_many
 from .errors import FileFormatError, InputError, LoadcheckError, Problem
 from .files import encoding_problem, file_kind, open_regular, parse_aircraft, parse_loading, read_toml
@@ -99,21 +99,22 @@ class Fleet:
 
     @cached_property
     def duplicates(self) -> dict[str, list[Path]]:
-        """Registrations found in more than one file."""
+        """Registrations found in more than one file, by :func:`~loadcheck.aircraft.registration_key`
+        (``G-ABCD`` in one file and ``gabcd`` in another are one aircraft in two files)."""
         seen: dict[str, list[Path]] = {}
         for entry in self.entries:
             if entry.registration:
-                seen.setdefault(entry.registration, []).append(entry.path)
-        return {reg: paths for reg, paths in seen.items() if len(paths) > 1}
+                seen.setdefault(registration_key(entry.registration), []).append(entry.path)
+        return {key: paths for key, paths in seen.items() if len(paths) > 1}
 
     @cached_property
     def _usable(self) -> dict[str, Aircraft]:
-        """The usable aircraft by registration (not one found in two files)."""
+        """The usable aircraft by registration key (not one found in two files)."""
         duplicates = self.duplicates
         return {
-            e.registration: e.aircraft
+            key: e.aircraft
             for e in self.entries
-            if e.registration and e.aircraft is not None and e.registration not in duplicates
+            if e.registration and e.aircraft is not None and (key := registration_key(e.registration)) not in duplicates
         }
 
     def aircraft(self, registration: str) -> Aircraft:
@@ -125,13 +126,14 @@ class Fleet:
             Unknown registration (the known ones listed), one found in two files, or one
             whose file does not validate.
         """
-        usable = self._usable.get(registration)
+        key = registration_key(registration)  # as a loading's registration is compared with its aircraft's
+        usable = self._usable.get(key)
         if usable is not None:  # a fleet day asks once a row
             return usable
-        if registration in self.duplicates:
-            files = ", ".join(str(p) for p in self.duplicates[registration])
+        if key in self.duplicates:
+            files = ", ".join(str(p) for p in self.duplicates[key])
             raise InputError(Problem("registration", f"{registration!r} is in more than one fleet file ({files})"))
-        entry = next((e for e in self.entries if e.registration == registration), None)
+        entry = next((e for e in self.entries if e.registration and registration_key(e.registration) == key), None)
         if entry is None:
             known = ", ".join(sorted(e.registration for e in self.entries if e.registration)) or "none"
             raise InputError(
@@ -942,7 +944,9 @@ def check_flights(
                                 "fingerprint": aircraft.fingerprint,
                                 "inputs": row.loading.model_dump(mode="json", exclude_none=True),
                                 "result": result,
-                                "registration": row.registration,
+                                # the aircraft's own, as `check --log` records it and `log verify` compares it
+                                # (the row may write it in another case, or without its hyphen)
+                                "registration": aircraft.registration or row.registration,
                                 "reference": row.reference,
                                 "pilot": row.pilot,
                                 "source": f"{row.source}:{','.join(map(str, row.lines or (row.line,)))}",
@@ -1006,8 +1010,9 @@ def fleet_listing(fleet: Fleet, max_age_days: int | None = None, today: dt.date 
     lines = []
     for entry in fleet.entries:
         flags = list(entry.problems)
-        if entry.registration in duplicates:
-            others = ", ".join(str(p) for p in duplicates[entry.registration] if p != entry.path)
+        key = registration_key(entry.registration) if entry.registration else None
+        if key in duplicates:
+            others = ", ".join(str(p) for p in duplicates[key] if p != entry.path)
             flags.append(f"registration also in {others}")
         a = entry.aircraft
         age = record_age_days(a, today) if a is not None else None
@@ -1026,7 +1031,7 @@ def fleet_listing(fleet: Fleet, max_age_days: int | None = None, today: dt.date 
                 fingerprint=a.fingerprint if a else None,
                 mass_unit=a.units.mass if a else None,
                 problems=flags,
-                usable=a is not None and entry.registration not in duplicates,
+                usable=a is not None and key not in duplicates,
             )
         )
     return lines

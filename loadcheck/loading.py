@@ -25,7 +25,7 @@ from typing import Annotated, Any, Literal
 
 from pydantic import BeforeValidator, Field, field_validator, model_validator
 
-from .aircraft import Aircraft
+from .aircraft import Aircraft, registration_key
 from .errors import InputError, LoadcheckError, Problem, UnknownNameError, spelling_hint
 from .filemodel import FileModel
 from .fuel import density_problem
@@ -693,7 +693,7 @@ def resolve_loading(
             problems.append(Problem("fuel_density", problem, value=loading.fuel_density))
     notes: list[str] = []
     if loading.registration and aircraft.registration:
-        if _registration_key(loading.registration) != _registration_key(aircraft.registration):
+        if registration_key(loading.registration) != registration_key(aircraft.registration):
             problems.append(
                 Problem(
                     "registration",
@@ -1081,8 +1081,3 @@ def _to_volume(quantity: Quantity, density: float, mass_unit: str, volume_unit: 
 def _is_mass(amount: float | str, rate: bool = False) -> bool:
     quantity = parse_rate(amount) if rate else parse_quantity(amount)
     return quantity.unit is not None and unit_kind(quantity.unit) == "mass"
-
-
-def _registration_key(registration: str) -> str:
-    """A registration compared without case, spaces or hyphens (``g-abcd`` is ``GABCD``)."""
-    return "".join(ch for ch in registration.upper() if ch.isalnum())

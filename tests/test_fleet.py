@@ -756,3 +756,40 @@ def test_regression_the_fleet_docs_give_the_chunk_the_code_uses():
     developers = (root / "DEVELOPERS.md").read_text(encoding="utf-8")
     listed = [line.split()[1] for line in developers.splitlines() if line.startswith("python benchmarks/")]
     assert "benchmarks/fleet_stages.py" in listed and (root / "benchmarks" / "fleet_stages.py").is_file()
+
+
+def test_regression_a_registration_was_matched_exactly_by_the_fleet_but_loosely_against_a_loading(
+    runner, records, tmp_path
+):
+    """`fleet check` refused "demo-4t" and "DEMO 4T" as unknown registrations, while a loading's
+    registration is compared with its aircraft's without case, spaces or hyphens: one comparison
+    now (aircraft.registration_key; common practice: the hyphen after the nationality mark is
+    written or left out). The rows are checked as DEMO-4T, equal to the single check, recorded under
+    the aircraft's own registration (so that `log verify` reproduces them); two files whose
+    registrations differ only so are one aircraft in two files."""
+    day = tmp_path / "day.csv"
+    day.write_text("registration,reference,front,mains,taxi,trip\ndemo-4t,R1,170,30,1,10\nDEMO 4T,R2,170,30,1,10\n")
+    result = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(day), "--json"])
+    assert result.exit_code == 0, result.output
+    single = check_loading(
+        load_aircraft(sample("trainer4/aircraft.toml")),
+        Loading(load={"front": 170}, fuel={"mains": 30}, burn={"taxi": 1, "trip": 10}),
+    ).to_dict()
+    lines = _json_lines(result.stdout)
+    assert [line["registration"] for line in lines] == ["demo-4t", "DEMO 4T"]  # each row as typed
+    assert all(line["conditions"] == single["conditions"] for line in lines)
+    with CheckLog(records) as log:
+        stored = list(log.find())
+    assert [r.registration for r in stored] == ["DEMO-4T", "DEMO-4T"]
+    for record in stored:
+        verified = runner.invoke(app, ["log", "verify", str(record.id), "--db", str(records)])
+        assert verified.exit_code == 0 and "reproduced" in verified.output, verified.output
+    fleet = tmp_path / "fleet"
+    fleet.mkdir()
+    shutil.copy(sample("trainer4/aircraft.toml"), fleet / "a.toml")
+    (fleet / "b.toml").write_text(
+        sample("trainer4/aircraft.toml").read_text(encoding="utf-8").replace('"DEMO-4T"', '"demo4t"')
+    )
+    assert 'registration = "demo4t"' in (fleet / "b.toml").read_text()
+    refused = runner.invoke(app, ["fleet", "check", str(fleet), str(day)])
+    assert refused.exit_code == 2 and "in more than one fleet file" in refused.output
