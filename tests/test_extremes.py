@@ -235,3 +235,18 @@ def test_regression_extreme_notes_show_figures_at_display_precision():
         minimum_fuel(tandem, tandem.meto_power_hp), abs=0.1
     )
     assert not [n for n in notes if re.search(r"\d\.\d\d", n)], notes  # no figure past 0.1 kg or 0.1 l
+
+
+def test_without_the_meto_power_a_side_that_needs_the_minimum_fuel_is_refused_not_guessed():
+    """The minimum fuel for balance is METO/12 US gal (AC 43.13-1B, 10-2 p): with no METO power given,
+    a side whose tank carries that minimum is refused naming meto_power_hp (never a guessed fuel);
+    the AC's example aircraft (fig. 10-10 to 10-14, tank at +22 in between its CG limits) needs it on
+    both sides."""
+    data = ac_example_aircraft().model_dump(mode="json", exclude_none=True)
+    data.pop("meto_power_hp")
+    from loadcheck.files import parse_aircraft
+
+    with pytest.raises(InputError) as refused:
+        extremes(parse_aircraft(data))
+    (problem,) = refused.value.problems
+    assert problem.field == "meto_power_hp" and "maximum-except-takeoff power" in problem.message
