@@ -137,3 +137,16 @@ def test_every_test_file_is_a_modules_or_a_listed_suite():
     developers = (ROOT / "DEVELOPERS.md").read_text(encoding="utf-8")
     unlisted = [name for name in CROSS_CUTTING if name not in developers]
     assert not unlisted, f"DEVELOPERS.md's tests section does not name {unlisted}"
+
+
+def test_every_unit_spelling_read_is_documented():
+    """Each spelling units.canonical_unit folds to a unit (`kgs`, `pounds`) is listed in
+    docs/file-format.md, so none is read without the user being able to know it (fail closed:
+    common practice, a value is used as documented or refused)."""
+    from loadcheck.units import _ALIASES, canonical_unit
+
+    text = (ROOT / "docs" / "file-format.md").read_text(encoding="utf-8")
+    head = text[: text.index("## Aircraft file")]
+    for spelling, unit in _ALIASES.items():
+        assert f"`{spelling}`" in head, spelling
+        assert canonical_unit(spelling.upper()) == unit  # "in any letter case", as the page says
