@@ -763,8 +763,9 @@ def _exceeded_along(
     unit: str,
 ) -> str | None:
     """What each amount moved from 0 to ``top`` exceeds, stretch by stretch, in the check's words
-    ("moving 0.0 to 187.2 lb: left limit at takeoff -2.75 in; moving 187.3 to 245.0 lb: maximum of
-    Right seat 250.0 lb"): where no amount is within limits, what limits the move.
+    ("moving 0.0 to 187.2 lb: left limit at takeoff -2.75 in. Moving 187.3 to 245.0 lb: maximum of
+    right 250.0 lb", each stretch's ends rounded inward): where no amount is within limits, what limits
+    the move.
 
     The engine gives every limit's verdict on the search's grid; each stretch of one set of verdicts
     is named by the full check (:func:`~loadcheck.check.check_loading`) of the loading at its middle.
@@ -791,7 +792,10 @@ def _exceeded_along(
             runs.append((float(xs[first]), float(xs[last]), words))
     if len(runs) == 1:
         return f"moving any amount up to all {fmt(top, unit)}: {runs[0][2]}"
-    return "; ".join(f"moving {stretch_text(low, high, unit)}: {words}" for low, high, words in runs)
+    return ". ".join(
+        f"{'Moving' if n else 'moving'} {stretch_text(low, high, unit)}: {words}"
+        for n, (low, high, words) in enumerate(runs)
+    )
 
 
 def shift_moves(aircraft: Aircraft, source: str, target_station: str) -> str | None:
@@ -949,8 +953,8 @@ def weight_shift(
     reason = (
         f"{source} is empty: it holds no weight to move"
         if empty
-        else f"moving up to all {fmt(available, units.mass)} from {source} is not enough"
-        + ("" if moves is None else f" (the move moves {moves})")
+        else f"no amount moved from {source}, up to all {fmt(available, units.mass)} it holds, brings the loading "
+        "within limits" + ("" if moves is None else f" (the move moves {moves})")
     )
 
     def below(least: float, _check: CheckResult) -> tuple[str | None, str | None]:
