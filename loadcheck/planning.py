@@ -954,7 +954,7 @@ def weight_shift(
         f"{source} is empty: it holds no weight to move"
         if empty
         else f"no amount moved from {source}, up to all {fmt(available, units.mass)} it holds, brings the loading "
-        "within limits" + ("" if moves is None else f" (the move moves {moves})")
+        "within limits"
     )
 
     def below(least: float, _check: CheckResult) -> tuple[str | None, str | None]:
