@@ -58,6 +58,7 @@ __all__ = [
     "fuel_to_leave",
     "least_ballast",
     "weight_shift",
+    "shift_moves",
     "fuel_payload_table",
     "MASS_TOLERANCE",
     "feasible_intervals",
@@ -739,6 +740,95 @@ def least_ballast(aircraft: Aircraft, loading: ResolvedLoading, station: str | N
     return answer
 
 
+def _limit_states(result: Evaluation) -> np.ndarray:
+    """Every verdict of every rule the engine gives, one column each, (N, K): two loadings with the same
+    row exceed the same limits."""
+    columns: list[np.ndarray] = [result.valid, result.burn_path_ok]
+    for name in sorted(result.condition_ok):
+        columns += [result.condition_ok[name], result.min_weight_ok[name], *result.envelope_inside[name]]
+        columns += list(result.weight_ok[name])
+    columns += [result.limit_ok[name] for name in sorted(result.limit_ok)]
+    states = np.column_stack(columns)
+    return np.concatenate([states, result.load_exceeded.reshape(len(states), -1)], axis=1)
+
+
+_MAX_RUNS = 8  # stretches of one set of limits exceeded named in a shift that no amount brings within limits
+
+
+def _exceeded_along(
+    aircraft: Aircraft,
+    ok_rows: Callable[[np.ndarray], Evaluation],
+    at: Callable[[float], ResolvedLoading],
+    top: float,
+    unit: str,
+) -> str | None:
+    """What each amount moved from 0 to ``top`` exceeds, stretch by stretch, in the check's words
+    ("moving 0.0 to 187.2 lb: left limit at takeoff -2.75 in. Moving 187.3 to 245.0 lb: maximum of
+    right 250.0 lb", each stretch's ends rounded inward): where no amount is within limits, what limits
+    the move.
+
+    The engine gives every limit's verdict on the search's grid; each stretch of one set of verdicts
+    is named by the full check (:func:`~loadcheck.check.check_loading`) of the loading at its middle.
+    None where the verdicts change more than a few times along the way (the loading's own check and
+    the one with all of it moved then say what is exceeded).
+    """
+    count = int(min(_MAX_GRID, max(3, np.ceil(top / _GRID_STEP) + 1)))
+    xs = np.linspace(0.0, top, count)
+    states = _limit_states(ok_rows(xs))
+    changes = np.nonzero(np.any(states[1:] != states[:-1], axis=1))[0]
+    if len(changes) + 1 > _MAX_RUNS:
+        return None
+    starts = np.concatenate([[0], changes + 1])
+    ends = np.concatenate([changes, [count - 1]])
+    runs: list[tuple[float, float, str]] = []
+    for first, last in zip(starts, ends, strict=True):
+        try:
+            words = binding_limits(check_loading(aircraft, at(float(xs[(first + last) // 2]))).findings)
+        except LoadcheckError as error:
+            words = "; ".join(p.message for p in error.problems)
+        if runs and runs[-1][2] == words:
+            runs[-1] = (runs[-1][0], float(xs[last]), words)
+        else:
+            runs.append((float(xs[first]), float(xs[last]), words))
+    if len(runs) == 1:
+        return f"moving any amount up to all {fmt(top, unit)}: {runs[0][2]}"
+    return ". ".join(
+        f"{'Moving' if n else 'moving'} {stretch_text(low, high, unit)}: {words}"
+        for n, (low, high, words) in enumerate(runs)
+    )
+
+
+def shift_moves(aircraft: Aircraft, source: str, target_station: str) -> str | None:
+    """Which CG a move between two stations moves, in words, where it is not both (or, without
+    lateral data, not the CG): None where the stations differ in arm (and in lateral arm, where the
+    aircraft gives lateral arms).
+
+    Moving weight w over a distance d moves the CG by w x d / total weight (FAA-H-8083-1B chapter 2,
+    weight shift), along each axis on its own: stations at the same arm but different lateral arms
+    move the lateral CG only.
+
+    Examples
+    --------
+    >>> from loadcheck import load_aircraft
+    >>> heli = load_aircraft("sample_aircraft/heli2/aircraft.toml")
+    >>> shift_moves(heli, "left", "right")
+    'the lateral CG only: both stations are at arm 74.00 in'
+    """
+    units = aircraft.units
+    a, b = aircraft.station_by_id[source], aircraft.station_by_id[target_station]
+    lateral = (a.lateral_arm or 0.0) != (b.lateral_arm or 0.0)
+    if a.arm != b.arm:
+        if aircraft.has_lateral and not lateral:
+            return f"the CG fore and aft only: both stations are at lateral arm {fmt(a.lateral_arm or 0.0, units.arm)}"
+        return None
+    if lateral:
+        return f"the lateral CG only: both stations are at arm {fmt(a.arm, units.arm)}"
+    where = f"arm {fmt(a.arm, units.arm)}"
+    if aircraft.has_lateral:
+        where += f" and lateral arm {fmt(a.lateral_arm or 0.0, units.arm)}"
+    return f"neither CG: both stations are at {where}; only the stations' loads change"
+
+
 def weight_shift(
     aircraft: Aircraft,
     loading: ResolvedLoading,
@@ -754,17 +844,33 @@ def weight_shift(
     published relation weight moved = total weight x CG change / distance moved
     (FAA-H-8083-1B chapter 2); the answer is feasible only where the loading after the move
     passes the full check (every station and group limit at both ends of the move, every
-    condition, the burn path). Without it: the least weight to move that brings every
-    condition within limits.
+    condition, the burn path, the lateral limits). Without it: the least weight to move that
+    brings every condition within limits, searched with the engine on every amount from 0 to
+    all the source holds, so every limit the move changes counts: the CG fore and aft, the
+    lateral CG (stations side by side, at the same arm, move only it), the stations' and
+    groups' own limits. ``extra["the move moves"]`` says which CG the move moves where it is
+    not both (:func:`shift_moves`); an answer not found names what each amount moved exceeds.
+
+    Raises
+    ------
+    InputError
+        The source and target are one station; or, with ``target_arm``, the two stations
+        have the same arm (moving weight between them does not move the CG fore and aft).
     """
     i, j = _station(aircraft, source, "source"), _station(aircraft, target_station, "target_station")
+    if i == j:
+        raise InputError(
+            Problem(
+                "target_station",
+                f"{target_station} is also the source: weight moved within one station moves nothing",
+                value=target_station,
+                expected="another station",
+            )
+        )
     units = aircraft.units
     available = loading.stations.get(source, 0.0)
     distance = aircraft.station[j].arm - aircraft.station[i].arm
-    if distance == 0:
-        raise InputError(
-            Problem("target_station", "the two stations have the same arm: moving weight does not move the CG")
-        )
+    moves = shift_moves(aircraft, source, target_station)
 
     def at(value: float) -> ResolvedLoading:
         stations = {
@@ -775,6 +881,20 @@ def weight_shift(
         return loading.but(stations=stations)
 
     if target_arm is not None:
+        if distance == 0:
+            raise InputError(
+                Problem(
+                    "target_station",
+                    "the two stations have the same arm, so no amount moved between them puts the CG at a target "
+                    f"arm: moving weight between them moves {moves}"
+                    + (
+                        "; without a target, the least weight that brings the loading within limits is found"
+                        if moves is not None and moves.startswith("the lateral")
+                        else ""
+                    ),
+                    value=target_station,
+                )
+            )
         now = check_loading(aircraft, loading).condition(condition)
         moved = now.weight * (target_arm - now.arm) / distance
         question = (
@@ -824,15 +944,25 @@ def weight_shift(
         out[:, j] += x
         return out
 
-    pairs = feasible_intervals(
-        lambda x: _ok(evaluate_arrays(aircraft, base, stations=rows(x))), 0.0, available, _GRID_STEP
-    )
+    def evaluate(x: np.ndarray) -> Evaluation:
+        return evaluate_arrays(aircraft, base, stations=rows(x))
+
+    pairs = feasible_intervals(lambda x: _ok(evaluate(x)), 0.0, available, _GRID_STEP)
     empty = available <= 0.0
+    moves_extra = {} if moves is None else {"the move moves": moves}
     reason = (
         f"{source} is empty: it holds no weight to move"
         if empty
-        else f"moving up to all {fmt(available, units.mass)} from {source} is not enough"
+        else f"no amount moved from {source}, up to all {fmt(available, units.mass)} it holds, brings the loading "
+        "within limits"
     )
+
+    def below(least: float, _check: CheckResult) -> tuple[str | None, str | None]:
+        """What the loading with a little less moved exceeds: what makes the least amount needed."""
+        if least <= 0:
+            return None, None
+        return _limits_past(check_loading(aircraft, at(max(0.0, least - 2 * _GRID_STEP))))
+
     answer = _answer(
         aircraft,
         pairs,
@@ -842,10 +972,23 @@ def weight_shift(
         "weight moved",
         "up",
         lambda: reason,
+        governing=below,
     )
-    if not answer.feasible:  # the reason said once; "limited by" is what is still exceeded with all of it moved
-        return replace(answer, answer_display=f"no amount can: {reason}", governing=_why_not(aircraft, at(available)))
-    return answer
+    if not answer.feasible:  # the reason said once; "limited by" is what each amount moved still exceeds
+        along = None if empty else _exceeded_along(aircraft, evaluate, at, available, units.mass)
+        return replace(
+            answer,
+            answer_display=f"no amount can: {reason}",
+            governing=along if along is not None else _why_not(aircraft, at(available)),
+            extra={**answer.extra, **moves_extra},
+        )
+    extra = {**answer.extra, **moves_extra}
+    first = answer.intervals[0]
+    if first.high < available - 1e-9 * max(1.0, available):
+        past, _code = _limits_past(check_loading(aircraft, at(min(available, first.high + 2 * _GRID_STEP))))
+        if past:
+            extra["limited above by"] = f"{past} (moving more than {fmt(first.high, units.mass, 'down')})"
+    return replace(answer, extra=extra)
 
 
 @dataclass(frozen=True, kw_only=True, slots=True)

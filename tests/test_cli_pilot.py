@@ -271,3 +271,56 @@ def test_regression_an_empty_entry_in_a_list_of_tanks_was_dropped(runner, option
     result = runner.invoke(app, ["check", str(sample(path)), *option])
     assert result.exit_code == 2 and "the list of tanks has an empty entry" in result.output
     assert runner.invoke(app, ["check", str(sample("twin6/within.toml")), "--order", "aux, mains"]).exit_code in (0, 1)
+
+
+HELI2 = str(sample("heli2/aircraft.toml"))
+
+
+def test_regression_plan_shift_between_seats_side_by_side_was_refused_as_moving_nothing(runner, tmp_path):
+    """An outside trial: plan shift --from left --to right on heli2 (seats side by side, arm 74 in,
+    lateral arms -13 and +13 in) exited 2 with "moving weight does not move the CG"; the lateral CG moves.
+
+    The loading (invented, written here): 230 lb in the left seat, 32 usgal of avgas (192 lb) in the
+    tank at lateral arm -11.5 in, empty 962 lb at lateral arm +0.4 in (heli2/aircraft.toml). At engine
+    start 1,384 lb, lateral moment 384.8 - 2,990 - 2,208 = -4,813.2 lb-in, lateral CG -3.4777 in; the left
+    limit at 1,384 lb is -3.0 + 0.8 x 34 / 270 = -2.8993 in. Weight moved = total weight x CG change /
+    distance moved (FAA-H-8083-1B chapter 2, weight shift, from memory) = 1,384 x 0.5785 / 26 = 30.79 lb,
+    shown rounded up (30.8 lb)."""
+    loading = write_file(
+        tmp_path,
+        'format = 1\n[load]\nleft = 230\n[fuel]\nmain = "full"\n[burn]\ntaxi = 0.5\ntrip = 20\n',
+        "left_heavy.toml",
+    )
+    args = ["plan", "shift", HELI2, loading, "--from", "left", "--to", "right"]
+    text = runner.invoke(app, args, env={"COLUMNS": "200"})
+    assert text.exit_code == 0, text.output
+    assert "weight moved: 30.8 lb" in text.output
+    assert "the move moves: the lateral CG only: both stations are at arm 74.00 in" in text.output
+    assert "does not move the CG" not in text.output and "WITHIN LIMITS" in text.output
+    answer = json.loads(runner.invoke(app, [*args, "--json"]).stdout)
+    assert answer["feasible"] and answer["check"]["ok"]
+    assert answer["answer"] == pytest.approx(1384 * (-3.0 + 0.8 * 34 / 270 + 4813.2 / 1384) / 26, abs=0.1)
+
+
+def test_plan_shift_that_fixes_the_lateral_cg_only_past_a_lockers_maximum_says_so_and_exits_1(runner, tmp_path):
+    """heli2's lockers side by side (arm 112 in, lateral arms -19 and +19 in, maximum 35 lb each): 245 lb in
+    the left seat, 35 lb in the left locker, 30 lb in the right one, full fuel. At engine start 1,464 lb,
+    lateral moment 384.8 - 3,185 - 665 + 570 - 2,208 = -5,103.2 lb-in, lateral CG -3.4858 in; the left limit
+    at 1,464 lb is -3.0 + 0.8 x 114 / 270 = -2.6622 in, so 1,464 x 0.8236 / 38 = 31.73 lb must move
+    (FAA-H-8083-1B chapter 2, weight shift, from memory), but the right locker takes 5 lb more: no amount
+    can (exit 1), and the answer says what each amount exceeds (the search's grid is 0.05 lb, its ends
+    rounded inward: from 31.75 lb, "31.8", only the locker's maximum)."""
+    loading = write_file(
+        tmp_path,
+        'format = 1\n[load]\nleft = 245\nbag_left = 35\nbag_right = 30\n[fuel]\nmain = "full"\n'
+        "[burn]\ntaxi = 0.5\ntrip = 20\n",
+        "lockers.toml",
+    )
+    args = ["plan", "shift", HELI2, loading, "--from", "bag_left", "--to", "bag_right", "--json"]
+    result = runner.invoke(app, args)
+    assert result.exit_code == 1, result.output
+    answer = json.loads(result.stdout)
+    assert not answer["feasible"] and "answer" not in answer  # no figure proposed
+    assert answer["governing"].startswith("moving 0.0 to 5.0 lb: left limit at ramp -2.66 in")
+    assert answer["governing"].endswith("Moving 31.8 to 35.0 lb: maximum of bag_right 35.0 lb")
+    assert answer["extra"]["the move moves"].startswith("the lateral CG only")

@@ -20,7 +20,7 @@ from loadcheck.errors import InputError, UnknownNameError
 from loadcheck.files import parse_aircraft
 from loadcheck.loading import Loading, resolve_loading
 
-from .helpers import examples, sample
+from .helpers import examples, sample, simple_aircraft
 
 TRAINER = load_check_inputs(sample("trainer4/within.toml")).aircraft
 TWIN = load_check_inputs(sample("twin6/within.toml")).aircraft
@@ -495,3 +495,134 @@ def test_regression_a_plan_table_row_reading_none_did_not_say_why(runner):
     said = " ".join(text.output.split())
     assert "Limited by, row by row" in said
     assert all(" ".join(row["limited_by"].split()) in said for row in table["rows"])
+
+
+# -- weight shift between stations side by side (lateral limits) ---------------------------------
+
+
+def _side_by_side(right_max: float) -> tuple:
+    """An invented aircraft (tests/helpers.simple_aircraft) with two seats side by side at arm 35 in,
+    lateral arms -10 in (left) and +10 in (right, maximum ``right_max`` lb), a seat behind the left one
+    (arm 70 in, lateral arm -10 in), and a lateral envelope -1.0 to +1.0 in from 900 to 2,000 lb; the
+    loading: 200 lb in the left seat, no fuel (every condition the same: 1,200 lb)."""
+    aircraft = simple_aircraft(
+        station=[
+            {"id": "left", "arm": 35.0, "lateral_arm": -10.0, "kind": "seat"},
+            {"id": "right", "arm": 35.0, "lateral_arm": 10.0, "kind": "seat", "max_weight": right_max},
+            {"id": "aft_left", "arm": 70.0, "lateral_arm": -10.0, "kind": "seat"},
+        ],
+        envelope=[
+            {
+                "category": "normal",
+                "axes": ["arm", "weight"],
+                "points": [[35.0, 900], [35.0, 2000], [48.0, 2000], [48.0, 900]],
+            },
+            {
+                "category": "normal",
+                "axes": ["lateral_arm", "weight"],
+                "points": [[-1.0, 900], [-1.0, 2000], [1.0, 2000], [1.0, 900]],
+            },
+        ],
+    )
+    return aircraft, resolve_loading(Loading(load={"left": 200}), aircraft)
+
+
+def test_regression_a_shift_between_seats_side_by_side_said_it_does_not_move_the_cg():
+    """An outside trial: plan shift --from left --to right on stations at one arm but opposite lateral arms
+    said "the two stations have the same arm: moving weight does not move the CG"; the lateral CG moves.
+
+    Worked by hand with the weight-shift relation, weight moved = total weight x CG change / distance
+    moved (FAA-H-8083-1B chapter 2, weight shift, from memory), along the lateral axis: 1,200 lb at lateral
+    CG (200 x -10) / 1,200 = -1.667 in; the left limit -1.0 in is 0.667 in away and the seats 20 in apart,
+    so 1,200 x 0.667 / 20 = 40.0 lb; the right limit +1.0 in is 2.667 in away: 1,200 x 2.667 / 20 =
+    160.0 lb at most. The CG fore and aft stays at (1,000 x 40 + 200 x 35) / 1,200 = 39.17 in."""
+    aircraft, loading = _side_by_side(right_max=250.0)
+    assert not check_loading(aircraft, loading).ok
+    answer = P.weight_shift(aircraft, loading, "left", "right")
+    assert answer.feasible and answer.check is not None and answer.check.ok
+    assert answer.answer == pytest.approx(1200 * (2 / 3) / 20, abs=P.MASS_TOLERANCE)
+    assert [(i.low, i.high) for i in answer.intervals] == [
+        (pytest.approx(40.0, abs=P.MASS_TOLERANCE), pytest.approx(1200 * (8 / 3) / 20, abs=P.MASS_TOLERANCE))
+    ]
+    takeoff = answer.check.condition("takeoff")
+    assert takeoff.lateral_arm == pytest.approx(-1.0, abs=0.01)
+    assert takeoff.arm == pytest.approx((1000 * 40 + 200 * 35) / 1200)
+    assert answer.extra["the move moves"] == "the lateral CG only: both stations are at arm 35.00 in"
+    # what makes 40 lb needed: the left limit at every condition of the flight (no fuel: one weight)
+    assert (
+        answer.governing
+        == "left limit at ramp -1.00 in; left limit at takeoff -1.00 in; left limit at landing -1.00 in"
+    )
+    assert P.shift_moves(aircraft, "left", "aft_left") == (
+        "the CG fore and aft only: both stations are at lateral arm -10.00 in"
+    )
+
+
+def test_a_shift_that_brings_the_lateral_cg_in_but_fills_the_seat_says_what_limits_it():
+    """The same loading with the right seat's maximum 100 lb: 40.0 lb (worked above) brings the lateral CG
+    to the left limit, and more than 100 lb moved exceeds the seat's maximum before the right limit
+    (160.0 lb) is reached, so the stretch is 40.0 to 100.0 lb and says what stops it there."""
+    aircraft, loading = _side_by_side(right_max=100.0)
+    answer = P.weight_shift(aircraft, loading, "left", "right")
+    assert answer.feasible and answer.check is not None and answer.check.ok
+    assert answer.answer == pytest.approx(40.0, abs=P.MASS_TOLERANCE)
+    assert answer.intervals[0].high == pytest.approx(100.0, abs=1e-6)
+    assert answer.extra["limited above by"] == "maximum of right 100.0 lb (moving more than 100.0 lb)"
+
+
+def test_a_shift_no_amount_of_which_is_within_limits_names_what_each_amount_exceeds():
+    """The right seat's maximum 30 lb: the lateral CG needs 40.0 lb moved (worked above), the seat takes
+    30 lb, so no amount can; up to 30.0 lb the left limit is what is exceeded, from 40.0 lb to 160.0 lb the
+    seat's maximum alone (the lateral CG within -1.0 to +1.0 in), past 160.0 lb both it and the right limit."""
+    aircraft, loading = _side_by_side(right_max=30.0)
+    answer = P.weight_shift(aircraft, loading, "left", "right")
+    assert not answer.feasible and answer.answer is None
+    assert answer.extra["the move moves"].startswith("the lateral CG only")
+    left = "left limit at ramp -1.00 in; left limit at takeoff -1.00 in; left limit at landing -1.00 in"
+    right = "right limit at ramp 1.00 in; right limit at takeoff 1.00 in; right limit at landing 1.00 in"
+    seat = "maximum of right 30.0 lb"
+    # each stretch's ends are amounts of the search's grid (0.05 lb), rounded inward
+    assert answer.governing == (
+        f"moving 0.0 to 30.0 lb: {left}. Moving 30.1 to 39.9 lb: {left}; {seat}. Moving 40.0 to 160.0 lb: {seat}. "
+        f"Moving 160.1 to 200.0 lb: {right}; {seat}"
+    )
+
+
+def test_a_shift_between_stations_at_one_arm_and_lateral_arm_moves_neither_cg():
+    """Two stations at arm 35 in, no lateral arms: moving weight moves neither CG, only the stations' loads.
+    200 lb in a seat of maximum 150 lb: 200 - 150 = 50.0 lb moved to the other seat brings it within
+    limits, the CG unchanged at (1,000 x 40 + 200 x 35) / 1,200 = 39.17 in. With 700 lb in the rear
+    seat the CG is (40,000 + 7,000 + 49,000) / 1,900 = 50.53 in, aft of 48 in, whatever is moved."""
+    aircraft = simple_aircraft(
+        station=[
+            {"id": "front", "arm": 35.0, "kind": "seat", "max_weight": 150.0},
+            {"id": "front2", "arm": 35.0, "kind": "seat"},
+            {"id": "rear", "arm": 70.0, "kind": "seat"},
+        ]
+    )
+    loading = resolve_loading(Loading(load={"front": 200}), aircraft)
+    answer = P.weight_shift(aircraft, loading, "front", "front2")
+    assert answer.feasible and answer.check is not None and answer.check.ok
+    assert answer.answer == pytest.approx(200 - 150, abs=P.MASS_TOLERANCE)
+    assert answer.check.condition("takeoff").arm == pytest.approx((1000 * 40 + 200 * 35) / 1200)
+    assert (
+        answer.extra["the move moves"]
+        == "neither CG: both stations are at arm 35.00 in; only the stations' loads change"
+    )
+    aft = resolve_loading(Loading(load={"front": 200, "rear": 700}), aircraft)
+    assert check_loading(aircraft, aft).condition("takeoff").arm == pytest.approx(96000 / 1900)
+    none = P.weight_shift(aircraft, aft, "front", "front2")
+    assert not none.feasible and none.extra["the move moves"].startswith("neither CG")
+    assert "aft limit" in (none.governing or "")
+
+
+def test_a_shift_to_a_target_arm_between_stations_side_by_side_is_refused_in_words_that_are_true():
+    """A target CG fore and aft cannot be reached by moving weight between stations at one arm: the
+    refusal says the move moves the lateral CG only, never that it does not move the CG; one station as
+    both source and target is refused as such."""
+    aircraft, loading = _side_by_side(right_max=250.0)
+    with pytest.raises(InputError, match="moves the lateral CG only") as refused:
+        P.weight_shift(aircraft, loading, "left", "right", target_arm=40.0)
+    assert "does not move the CG" not in str(refused.value)
+    with pytest.raises(InputError, match="left is also the source"):
+        P.weight_shift(aircraft, loading, "left", "left")
