@@ -34,6 +34,7 @@ from loadcheck.schedule import loading_schedule
 
 from .helpers import examples
 from .test_oracle import random_case
+from .test_planning import _filled
 
 TOLERANCE = 2 * P.MASS_TOLERANCE  # [mass unit]: past a stated maximum by this much is out of limits
 
@@ -102,9 +103,10 @@ def test_most_fuel_and_most_payload_are_checked_and_maximal(seed):
     fuel = P.most_fuel(aircraft, loading)
     _carries_its_check(fuel)
     if fuel.feasible and fuel.governing_code != "capacity":
-        order = P._fill_order(aircraft, loading, None)
+        # the default fill (docs/planning.md): the tank burned last first, or all in proportion
+        order = None if loading.plan.order is None else list(reversed(loading.plan.order))
         density = float(np.mean([loading.density[t.id] for t in aircraft.tank]))
-        more = P._fuel_loading(aircraft, loading, order, fuel.answer + TOLERANCE / density)
+        more = _filled(aircraft, loading, order, fuel.answer + TOLERANCE / density)
         assert not _ok(aircraft, more)
     station = random.Random(seed).choice(aircraft.station).id
     payload = P.most_payload(aircraft, loading, station)

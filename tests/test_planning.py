@@ -5,6 +5,7 @@ from __future__ import annotations
 
 import json
 import tempfile
+from dataclasses import replace
 from pathlib import Path
 
 import numpy as np
@@ -18,7 +19,7 @@ from loadcheck.cli import app
 from loadcheck.display import round_safe
 from loadcheck.errors import InputError, UnknownNameError
 from loadcheck.files import parse_aircraft
-from loadcheck.loading import Loading, resolve_loading
+from loadcheck.loading import BurnPlan, Loading, resolve_loading
 
 from .helpers import examples, sample, simple_aircraft
 
@@ -31,6 +32,24 @@ def _ok(aircraft, loading) -> bool:
         return check_loading(aircraft, loading).ok
     except ValueError:
         return False
+
+
+def _filled(aircraft, loading, fill, total):
+    """``loading`` with ``total`` ramp fuel [fuel volume unit], put in as docs/planning.md says a fuel
+    answer fills the tanks: each tank of ``fill`` full before the next, the other tanks keeping their
+    fuel; with no order, every tank in proportion to its usable capacity. Written from the docs, not
+    from planning's own filling, so that the brute-force checks test the answers against an
+    independent filling."""
+    fuel = dict(loading.fuel)
+    if fill is None:
+        capacity = sum(t.usable for t in aircraft.tank)
+        fuel = {t.id: min(total, capacity) * t.usable / capacity for t in aircraft.tank}
+    else:
+        left = total
+        for name in fill:
+            fuel[name] = min(max(left, 0.0), aircraft.tank_by_id[name].usable)
+            left -= fuel[name]
+    return replace(loading, fuel=fuel, plan=BurnPlan(fuel, loading.plan.order))
 
 
 def _brute(aircraft, make, low, high, n=301):
@@ -62,7 +81,7 @@ def test_most_fuel_agrees_with_brute_force_and_is_never_unsafe(v):
         TRAINER,
     )
     answer = P.most_fuel(TRAINER, loading)
-    fill = lambda x: P._fuel_loading(TRAINER, loading, None, x)  # noqa: E731
+    fill = lambda x: _filled(TRAINER, loading, None, x)  # noqa: E731
     feasible = _brute(TRAINER, fill, 0.0, 56.0)
     if not feasible:
         grid_step = 56.0 / 300
@@ -115,7 +134,7 @@ def test_two_stretches_of_fuel_on_the_non_convex_envelope():
     assert len(answer.intervals) == 2
     (a, b), (c, d) = ((i.low, i.high) for i in answer.intervals)
     assert a < b < c < d
-    fill = lambda x: P._fuel_loading(inputs.aircraft, inputs.loading, ["mains", "aux"], x)  # noqa: E731
+    fill = lambda x: _filled(inputs.aircraft, inputs.loading, ["mains", "aux"], x)  # noqa: E731
     for x in (a, b, c, d, (a + b) / 2, (c + d) / 2):
         assert _ok(inputs.aircraft, fill(x))
     gap = check_loading(inputs.aircraft, fill((b + c) / 2))
@@ -178,7 +197,7 @@ def test_longest_trip_and_fuel_to_leave():
     # 195 lb: with 220 lb the fuel within limits no longer lands with the loading's reserve of 8 usgal
     leave = P.fuel_to_leave(inputs.aircraft, inputs.loading, "rear", 195.0)
     assert leave.feasible and leave.answer > 0
-    lighter = P._fuel_loading(
+    lighter = _filled(
         inputs.aircraft,
         inputs.loading.but(stations={**inputs.loading.stations, "rear": 195.0}),
         None,
@@ -266,9 +285,9 @@ def test_plan_leave_answers_fuel_left_behind_not_ramp_fuel():
     with_payload = loading.but(stations={**loading.stations, "row3": 200.0})
     for interval in answer.intervals:  # every amount the answer allows leaving behind is within limits
         for leave in (interval.low, interval.high, 0.5 * (interval.low + interval.high)):
-            assert _ok(aircraft, P._fuel_loading(aircraft, with_payload, ["mains", "aux"], now - leave))
+            assert _ok(aircraft, _filled(aircraft, with_payload, ["mains", "aux"], now - leave))
     # leaving less than the answer is not enough
-    assert not _ok(aircraft, P._fuel_loading(aircraft, with_payload, ["mains", "aux"], now - answer.answer + 0.2))
+    assert not _ok(aircraft, _filled(aircraft, with_payload, ["mains", "aux"], now - answer.answer + 0.2))
 
 
 def test_plan_shift_to_a_target_respects_the_seat_maximum(runner):
@@ -402,9 +421,9 @@ def test_plan_table_stretches_started_at_zero_landing_fuel_against_the_reserve()
         assert not any(f.code == "reserve" for f in row.check.findings)
     # the low end itself: a loading just above it lands with the reserve, one 0.2 usgal below warns
     low = rows[0].intervals[0].low
-    at = check_loading(inputs.aircraft, P._fuel_loading(inputs.aircraft, loading, None, low + 0.05))
+    at = check_loading(inputs.aircraft, _filled(inputs.aircraft, loading, None, low + 0.05))
     assert not any(f.code == "reserve" for f in at.findings)
-    under = check_loading(inputs.aircraft, P._fuel_loading(inputs.aircraft, loading, None, low - 0.2))
+    under = check_loading(inputs.aircraft, _filled(inputs.aircraft, loading, None, low - 0.2))
     assert any(f.code == "reserve" for f in under.findings)
 
 
