@@ -287,7 +287,10 @@ def _conditions(result: CheckResult, scaled: Any = None) -> str:
         CONDITION_STATE_HEADING,
         EDGE_NOTE,
         MARGIN_NOTE,
+        NO_RANGE_NOTE,
+        cg_margin,
         condition_verdict,
+        no_cg_range,
         scaled_moment,
         scaled_moment_header,
         weight_margin,
@@ -321,8 +324,12 @@ def _conditions(result: CheckResult, scaled: Any = None) -> str:
                 escape(fmt(scaled_moment(scaled, c.weight, c.moment), units.moment, with_unit=False, places=1))
             )
         cells += [_n(c.lateral_arm, units.arm)] if lateral else []
-        cells += [verdict, _n(c.margins.forward, units.arm, "down"), _n(c.margins.aft, units.arm, "down")]
-        cells += [_n(c.margins.left, units.arm, "down"), _n(c.margins.right, units.arm, "down")] if lateral else []
+        cells += [verdict, escape(cg_margin(c.margins.forward, units.arm)), escape(cg_margin(c.margins.aft, units.arm))]
+        cells += (
+            [escape(cg_margin(c.margins.left, units.arm)), escape(cg_margin(c.margins.right, units.arm))]
+            if lateral
+            else []
+        )
         cells += [escape(margin)]
         result_at = 4 + mac + (scaled is not None) + lateral
         row = "".join(
@@ -330,7 +337,8 @@ def _conditions(result: CheckResult, scaled: Any = None) -> str:
             for i, cell in enumerate(cells)
         )
         out.append(f"<tr id='condition-{c.condition}'>{row}</tr>")
-    out.append(f"</table><p class='note'>{escape(MARGIN_NOTE + (' ' + EDGE_NOTE if edge else ''))}</p>")
+    notes = MARGIN_NOTE + (" " + EDGE_NOTE if edge else "") + (" " + NO_RANGE_NOTE if no_cg_range(result) else "")
+    out.append(f"</table><p class='note'>{escape(notes)}</p>")
     return "".join(out)
 
 

@@ -35,6 +35,7 @@ if TYPE_CHECKING:  # the aircraft models (pydantic, numpy, shapely) are not load
 __all__ = [
     "EDGE_NOTE",
     "MARGIN_NOTE",
+    "NO_RANGE_NOTE",
     "CONDITION_STATE_HEADING",
     "Column",
     "condition_verdict",
@@ -326,6 +327,29 @@ def _margin(value: float | None, unit: str) -> str:
     return "" if value is None else fmt(value, unit, "down", with_unit=False)
 
 
+NO_RANGE = "—"
+"""A CG margin cell where the envelope has no CG range at the condition's weight (:func:`cg_margin`)."""
+NO_RANGE_NOTE = (
+    "—: the envelope has no CG range at that weight (the weight is above its top or below its bottom), so "
+    "there is no CG margin; the weight margin says how far."
+)
+
+
+def cg_margin(value: float | None, unit: str) -> str:
+    """A CG margin (fore and aft, or lateral) as shown: rounded down, or :data:`NO_RANGE` where none
+    is given (the envelope's slice at that weight is empty: every longitudinal category has an
+    envelope, so a missing CG margin means the weight is outside the envelope's weights; the
+    margins' rule is docs/computation.md, "Margins")."""
+    return NO_RANGE if value is None else fmt(value, unit, "down", with_unit=False)
+
+
+def no_cg_range(result: CheckResult) -> bool:
+    """True where some condition shows :data:`NO_RANGE` (so :data:`NO_RANGE_NOTE` is said)."""
+    lateral = any(c.lateral_arm is not None for c in result.conditions)
+    keys = ("forward", "aft", "left", "right") if lateral else ("forward", "aft")
+    return any(getattr(c.margins, key) is None for c in result.conditions for key in keys)
+
+
 CONDITION_STATE_HEADING = "Limits"
 """Heading of the column giving each condition's own state against the envelope and the weight limits
 (:func:`condition_verdict`)."""
@@ -418,9 +442,9 @@ def _conditions_table(result: CheckResult, console: Console, aircraft: Aircraft 
         if lateral:
             row.append("" if c.lateral_arm is None else fmt(c.lateral_arm, units.arm, with_unit=False))
         row.append(_result_cell(c, result))
-        row += [_margin(c.margins.forward, units.arm), _margin(c.margins.aft, units.arm)]
+        row += [cg_margin(c.margins.forward, units.arm), cg_margin(c.margins.aft, units.arm)]
         if lateral:
-            row += [_margin(c.margins.left, units.arm), _margin(c.margins.right, units.arm)]
+            row += [cg_margin(c.margins.left, units.arm), cg_margin(c.margins.right, units.arm)]
         weight, marked = weight_margin(c, result)
         edge = edge or marked
         row.append(weight)
@@ -431,6 +455,8 @@ def _conditions_table(result: CheckResult, console: Console, aircraft: Aircraft 
         notes += " Lateral figures are + right of the centre line."
     if edge:
         notes += " " + EDGE_NOTE
+    if no_cg_range(result):
+        notes += " " + NO_RANGE_NOTE
     console.print(Text(notes, style="dim"))
 
 

@@ -647,7 +647,15 @@ def create_app(
     app.mount("/static", StaticFiles(directory=_HERE / "static"), name="static")
     templates = Jinja2Templates(directory=str(_HERE / "templates"))
     env = templates.env
-    from ..render.terminal import CONDITION_STATE_HEADING, EDGE_NOTE, condition_verdict, weight_margin
+    from ..render.terminal import (
+        CONDITION_STATE_HEADING,
+        EDGE_NOTE,
+        NO_RANGE_NOTE,
+        cg_margin,
+        condition_verdict,
+        no_cg_range,
+        weight_margin,
+    )
 
     def recorded_state(condition: Mapping[str, object], result: Mapping[str, object]) -> tuple[str, str]:
         """A recorded condition's state (the check log keeps the result as its JSON), in the words of
@@ -665,8 +673,11 @@ def create_app(
         condition_verdict=condition_verdict,
         recorded_state=recorded_state,
         weight_margin=weight_margin,
+        cg_margin=cg_margin,
+        no_cg_range=no_cg_range,
         CONDITION_STATE_HEADING=CONDITION_STATE_HEADING,
         EDGE_NOTE=EDGE_NOTE,
+        NO_RANGE_NOTE=NO_RANGE_NOTE,
         condition_words=condition_words,
         burn_path_summary=burn_path_summary,
         stretch_text=stretch_text,
