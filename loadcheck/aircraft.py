@@ -531,6 +531,19 @@ class Aircraft(_Model):
                     f"envelope[{index}].axes: a lateral envelope needs lateral arms, "
                     "and no empty weight, station or tank gives one"
                 )
+        if any(envelope.is_lateral for envelope in self.envelope) and has_lateral:
+            # a lateral limit checked with a lateral arm guessed as the centreline would be a guess
+            # beside a limit: every item gives its own (0 on the centreline), never taken as 0
+            unit = self.units.arm
+            missing = [("empty", self.empty.lateral_arm)]
+            missing += [(f"station[{i}]", s.lateral_arm) for i, s in enumerate(self.station)]
+            missing += [(f"tank[{i}]", t.lateral_arm) for i, t in enumerate(self.tank)]
+            problems += [
+                f"{where}.lateral_arm: this aircraft limits the lateral CG (a lateral envelope), so every "
+                f"item gives its lateral arm [{unit}, + right]: 0 for one on the centreline"
+                for where, arm in missing
+                if arm is None
+            ]
         problems += _boundary_problems(self)
         if problems:
             raise ValueError("\n".join(problems))

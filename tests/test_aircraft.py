@@ -229,10 +229,18 @@ def test_every_category_must_limit_the_fore_and_aft_cg():
         "axes": ["arm", "weight"],
         "points": [[35.0, 900], [35.0, 2000], [48.0, 2000], [48.0, 900]],
     }
+    centred = {  # every item on the centreline, said (a lateral limit needs every lateral arm)
+        "empty": {"weight": 1000.0, "arm": 40.0, "lateral_arm": 0.0},
+        "station": [
+            {"id": "front", "arm": 35.0, "lateral_arm": 0.0, "kind": "seat"},
+            {"id": "rear", "arm": 70.0, "lateral_arm": 0.0, "kind": "seat"},
+        ],
+        "tank": [{"id": "main", "arm": 45.0, "lateral_arm": 0.0, "usable": 40.0, "fuel": "avgas"}],
+    }
     with pytest.raises(InputError, match=r"envelope\[1\].category: category 'utility' has only lateral envelopes"):
-        simple_aircraft(empty={"weight": 1000.0, "arm": 40.0, "lateral_arm": 0.0}, envelope=[box, lateral])
+        simple_aircraft(**centred, envelope=[box, lateral])
     both = {**lateral, "axes": ["lateral_arm", "arm"], "points": [[-2, 35], [-2, 48], [2, 48], [2, 35]]}
-    aircraft = simple_aircraft(empty={"weight": 1000.0, "arm": 40.0, "lateral_arm": 0.0}, envelope=[box, both])
+    aircraft = simple_aircraft(**centred, envelope=[box, both])
     assert aircraft.categories == ["normal", "utility"]  # a lateral_arm-arm envelope limits both
 
 
@@ -264,3 +272,26 @@ def test_regression_an_arm_beyond_any_aircraft_is_refused_not_overflowed():
     assert problem.field == "station[2].arm" and "beyond any aircraft" in problem.message
     data["station"][2]["arm"] = 9_999_999.0  # large, but within the bound: used as given
     assert parse_aircraft(data).station[2].arm == 9_999_999.0
+
+
+def test_regression_a_lateral_limit_took_an_items_missing_lateral_arm_as_the_centreline():
+    """An aircraft with a lateral envelope whose baggage station and tank gave no lateral arm was checked
+    with both on the centreline, a guess beside a limit (an outside trial's find, in the mechanic's
+    commands; the aircraft file is where it starts). Every item now gives its own lateral arm, 0 for
+    one on the centreline (fail closed, common practice); an aircraft without lateral limits needs none."""
+    lateral = {
+        "category": "normal",
+        "axes": ["lateral_arm", "weight"],
+        "points": [[-2, 900], [-2, 2000], [2, 2000], [2, 900]],
+    }
+    box = {"category": "normal", "axes": ["arm", "weight"], "points": [[35, 900], [35, 2000], [48, 2000], [48, 900]]}
+    with pytest.raises(InputError) as refused:
+        simple_aircraft(
+            empty={"weight": 1000.0, "arm": 40.0, "lateral_arm": 0.0},
+            station=[{"id": "left", "arm": 35.0, "lateral_arm": -10.0}, {"id": "bag", "arm": 95.0}],
+            envelope=[box, lateral],
+        )
+    fields = [p.field for p in refused.value.problems]
+    assert fields == ["station[1].lateral_arm", "tank[0].lateral_arm"], fields
+    assert all("0 for one on the centreline" in p.message for p in refused.value.problems)
+    assert simple_aircraft(station=[{"id": "bag", "arm": 95.0}]).has_lateral is False  # no lateral limit: none needed

@@ -327,6 +327,7 @@ def test_a_lateral_envelope_settles_paths_as_the_exact_test_does(monkeypatch):
     # lateral CG against weight (FAA-H-8083-1B chapter 8, figure 8-3 draws one), a tank off the centreline
     lateral = [[-3.0, 900.0], [-3.0, 1500.0], [-1.0, 2000.0], [2.0, 2000.0], [3.0, 1500.0], [3.0, 900.0]]
     aircraft = simple_aircraft(
+        empty={"weight": 1000.0, "arm": 40.0, "lateral_arm": 0.0},
         station=[
             {"id": "left", "arm": 38.0, "lateral_arm": -14.0, "kind": "seat"},
             {"id": "right", "arm": 38.0, "lateral_arm": 14.0, "kind": "seat"},

@@ -525,6 +525,8 @@ def _side_by_side(right_max: float) -> tuple:
     (arm 70 in, lateral arm -10 in), and a lateral envelope -1.0 to +1.0 in from 900 to 2,000 lb; the
     loading: 200 lb in the left seat, no fuel (every condition the same: 1,200 lb)."""
     aircraft = simple_aircraft(
+        empty={"weight": 1000.0, "arm": 40.0, "lateral_arm": 0.0},
+        tank=[{"id": "main", "arm": 45.0, "lateral_arm": 0.0, "usable": 40.0, "fuel": "avgas"}],
         station=[
             {"id": "left", "arm": 35.0, "lateral_arm": -10.0, "kind": "seat"},
             {"id": "right", "arm": 35.0, "lateral_arm": 10.0, "kind": "seat", "max_weight": right_max},
