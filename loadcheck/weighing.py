@@ -347,6 +347,54 @@ def _item(aircraft: Aircraft, item: ReadingItem, where: str) -> tuple[float, flo
     return item.weight, item.arm, item.lateral_arm or 0.0
 
 
+def _require_lateral_arms(aircraft: Aircraft, readings: Readings, lateral: bool) -> None:
+    """Refuse readings that leave a lateral arm to be guessed on an aircraft that limits the lateral CG.
+
+    Where the aircraft has a lateral envelope, the readings measure the lateral CG (each
+    weighing point gives its lateral arm, and so does each item taken off or put on, a fuel
+    item through its tank) or say explicitly that the current lateral CG is kept
+    (``keep_lateral_arm``). A lateral arm left out is never taken as the centreline.
+
+    Raises
+    ------
+    InputError
+        Naming every point and item whose lateral arm is missing.
+    """
+    if not aircraft.has_lateral:
+        return
+    if not lateral:
+        if readings.keep_lateral_arm:
+            return
+        empty = aircraft.empty
+        kept = "none" if empty.lateral_arm is None else fmt(empty.lateral_arm, aircraft.units.arm)
+        raise InputError(
+            Problem(
+                "point",
+                "this aircraft has a lateral envelope, and no weighing point gives its lateral_arm: give each "
+                f"point's lateral_arm, or state keep_lateral_arm = true to keep the current lateral CG ({kept})",
+            )
+        )
+    why = "this aircraft limits the lateral CG (it has a lateral envelope), so its lateral arm is needed"
+    centreline = f"its lateral arm ({aircraft.units.arm}, + right): 0 for one on the centreline"
+    problems = [
+        Problem(f"point[{index}].lateral_arm", f"point {p.label!r} gives no lateral arm: {why}", expected=centreline)
+        for index, p in enumerate(readings.point)
+        if p.lateral_arm is None
+    ]
+    for name, items in (("on_board", readings.on_board), ("missing", readings.missing)):
+        for index, item in enumerate(items):
+            if item.lateral_arm is None and item.tank is None:
+                problems.append(
+                    Problem(
+                        f"{name}[{index}].lateral_arm",
+                        f"item {item.label!r} gives no lateral arm: {why}",
+                        expected=centreline,
+                    )
+                )
+    if problems:
+        raise InputError(problems)
+
+
 def weigh(aircraft: Aircraft, readings: Readings) -> WeighResult:
     """Compute the basic empty weight and CG from scale readings.
 
@@ -372,15 +420,7 @@ def weigh(aircraft: Aircraft, readings: Readings) -> WeighResult:
     lateral = any(p.lateral_arm is not None for p in readings.point)
     empty = aircraft.empty
     notes: list[str] = []
-    if not lateral and aircraft.has_lateral and not readings.keep_lateral_arm:
-        kept = "none" if empty.lateral_arm is None else fmt(empty.lateral_arm, aircraft.units.arm)
-        raise InputError(
-            Problem(
-                "point",
-                "this aircraft has a lateral envelope, and no weighing point gives its lateral_arm: give each "
-                f"point's lateral_arm, or state keep_lateral_arm = true to keep the current lateral CG ({kept})",
-            )
-        )
+    _require_lateral_arms(aircraft, readings, lateral)
     if not lateral and empty.lateral_arm is not None:
         why = (
             "as the readings state (keep_lateral_arm)"

@@ -211,3 +211,32 @@ def test_regression_a_loading_given_for_the_aircraft_file_is_named_as_such(comma
     assert "this field is required" not in result.output and "unknown field" not in result.output
     readings = invoke(command[0], str(sample("trainer4/weighing.toml")), *rest)
     assert_input_error(readings, "this is a readings file, not an aircraft file")
+
+
+# -- an aircraft that limits the lateral CG: a lateral arm left out is refused, never taken as 0 -------
+
+
+def _heli_copy(tmp_path):
+    import shutil
+
+    shutil.copy(sample("heli2/aircraft.toml"), tmp_path / "aircraft.toml")
+    return tmp_path / "aircraft.toml"
+
+
+def test_weigh_refuses_a_point_without_its_lateral_arm_on_a_lateral_aircraft(tmp_path):
+    # invented readings on heli2 (a lateral envelope): the second point's lateral arm is left out;
+    # it was taken as 0 (on the centreline) and the lateral CG so made was written into the record
+    aircraft = _heli_copy(tmp_path)
+    readings = tmp_path / "readings.toml"
+    readings.write_text(
+        "format = 1\n"
+        "[[point]]\nlabel = 'front'\narm = 84.0\nlateral_arm = 0.0\nreading = 320.0\n"
+        "[[point]]\nlabel = 'rear left'\narm = 107.0\nreading = 322.0\n"
+        "[[point]]\nlabel = 'rear right'\narm = 107.0\nlateral_arm = 18.0\nreading = 318.0\n"
+    )
+    before = aircraft.read_bytes()
+    result = invoke("weigh", str(aircraft), str(readings), "--write", "--yes")
+    assert_input_error(
+        result, "point[1].lateral_arm", "limits the lateral CG", "so its lateral arm is needed", "0 for one on the"
+    )
+    assert aircraft.read_bytes() == before
