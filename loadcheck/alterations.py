@@ -25,7 +25,7 @@ from .errors import InputError, Problem, UnknownNameError
 from .filemodel import FileModel
 from .results import Result
 from .units import convert
-from .weighing import EmptyWeightRecord, Refusal, record_checks
+from .weighing import EmptyWeightRecord, Refusal, lateral_arm_needed, record_checks
 from .words import negligible_cg_words, negligible_text, negligible_weight_words
 
 __all__ = ["Change", "Changes", "ChangeLine", "AlterResult", "alter", "negligible_weight_lb", "Negligible"]
@@ -190,7 +190,8 @@ def alter(aircraft: Aircraft, changes: Changes) -> AlterResult:
         A removed or relocated item that is not in the equipment list (the message lists
         the items there), or an installed item whose id is already there.
     InputError
-        When the changes leave no empty weight.
+        When the changes leave no empty weight, or an item installed on an aircraft that
+        limits the lateral CG gives no lateral arm.
 
     References
     ----------
@@ -199,6 +200,7 @@ def alter(aircraft: Aircraft, changes: Changes) -> AlterResult:
     equipment: dict[str, dict[str, Any]] = {e.id: e.model_dump() for e in aircraft.equipment}
     lines: list[ChangeLine] = []
     problems: list[Problem] = []
+    lateral_problems: list[Problem] = []
     empty = aircraft.empty
     weight, moment = empty.weight, empty.moment
     lateral = empty.weight * (empty.lateral_arm or 0.0)
@@ -209,6 +211,12 @@ def alter(aircraft: Aircraft, changes: Changes) -> AlterResult:
             if change.item in equipment:
                 problems.append(
                     Problem(where, f"item {change.item!r} is already installed; remove or relocate it instead")
+                )
+                continue
+            if aircraft.has_lateral and change.lateral_arm is None:
+                # never taken as the centreline: the new lateral CG would rest on a guess
+                lateral_problems.append(
+                    lateral_arm_needed(aircraft, f"change[{index}].lateral_arm", f"installed item {change.item!r}")
                 )
                 continue
             assert change.weight is not None and change.arm is not None
@@ -278,7 +286,9 @@ def alter(aircraft: Aircraft, changes: Changes) -> AlterResult:
         moment += dm
         lateral += dl
     if problems:
-        raise UnknownNameError(problems)
+        raise UnknownNameError(problems + lateral_problems)
+    if lateral_problems:
+        raise InputError(lateral_problems)
     if weight <= 0:
         raise InputError(Problem("change", "the changes leave no empty weight"))
     previous = EmptyWeightRecord(weight=empty.weight, arm=empty.arm, moment=empty.moment, lateral_arm=empty.lateral_arm)

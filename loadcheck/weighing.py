@@ -41,6 +41,7 @@ __all__ = [
     "PLAUSIBLE_CHANGE",
     "weigh",
     "point_arm",
+    "lateral_arm_needed",
     "record_checks",
     "current_record_warnings",
 ]
@@ -347,6 +348,23 @@ def _item(aircraft: Aircraft, item: ReadingItem, where: str) -> tuple[float, flo
     return item.weight, item.arm, item.lateral_arm or 0.0
 
 
+def lateral_arm_needed(aircraft: Aircraft, where: str, what: str) -> Problem:
+    """The problem of a lateral arm left out on an aircraft that limits the lateral CG.
+
+    Parameters
+    ----------
+    aircraft : the aircraft (for its arm unit)
+    where : the field, e.g. ``point[1].lateral_arm`` or ``change[0].lateral_arm``
+    what : the point or item, e.g. ``point 'rear left'``
+    """
+    return Problem(
+        where,
+        f"{what} gives no lateral arm: this aircraft limits the lateral CG (it has a lateral envelope), "
+        "so its lateral arm is needed",
+        expected=f"its lateral arm ({aircraft.units.arm}, + right): 0 for one on the centreline",
+    )
+
+
 def _require_lateral_arms(aircraft: Aircraft, readings: Readings, lateral: bool) -> None:
     """Refuse readings that leave a lateral arm to be guessed on an aircraft that limits the lateral CG.
 
@@ -374,23 +392,15 @@ def _require_lateral_arms(aircraft: Aircraft, readings: Readings, lateral: bool)
                 f"point's lateral_arm, or state keep_lateral_arm = true to keep the current lateral CG ({kept})",
             )
         )
-    why = "this aircraft limits the lateral CG (it has a lateral envelope), so its lateral arm is needed"
-    centreline = f"its lateral arm ({aircraft.units.arm}, + right): 0 for one on the centreline"
     problems = [
-        Problem(f"point[{index}].lateral_arm", f"point {p.label!r} gives no lateral arm: {why}", expected=centreline)
+        lateral_arm_needed(aircraft, f"point[{index}].lateral_arm", f"point {p.label!r}")
         for index, p in enumerate(readings.point)
         if p.lateral_arm is None
     ]
     for name, items in (("on_board", readings.on_board), ("missing", readings.missing)):
         for index, item in enumerate(items):
             if item.lateral_arm is None and item.tank is None:
-                problems.append(
-                    Problem(
-                        f"{name}[{index}].lateral_arm",
-                        f"item {item.label!r} gives no lateral arm: {why}",
-                        expected=centreline,
-                    )
-                )
+                problems.append(lateral_arm_needed(aircraft, f"{name}[{index}].lateral_arm", f"item {item.label!r}"))
     if problems:
         raise InputError(problems)
 

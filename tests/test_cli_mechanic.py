@@ -240,3 +240,14 @@ def test_weigh_refuses_a_point_without_its_lateral_arm_on_a_lateral_aircraft(tmp
         result, "point[1].lateral_arm", "limits the lateral CG", "so its lateral arm is needed", "0 for one on the"
     )
     assert aircraft.read_bytes() == before
+
+
+def test_alter_refuses_an_installed_item_without_its_lateral_arm_on_a_lateral_aircraft(tmp_path):
+    # an invented cargo hook on heli2 (a lateral envelope) without a lateral arm: it was taken as 0
+    aircraft = _heli_copy(tmp_path)
+    changes = tmp_path / "changes.toml"
+    changes.write_text("format = 1\n[[change]]\naction = 'install'\nitem = 'hook'\nweight = 6.0\narm = 105.0\n")
+    before = aircraft.read_bytes()
+    result = invoke("alter", str(aircraft), str(changes), "--write", "--yes")
+    assert_input_error(result, "change[0].lateral_arm", "limits the lateral CG", "0 for one on the centreline")
+    assert aircraft.read_bytes() == before
