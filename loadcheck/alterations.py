@@ -25,7 +25,7 @@ from .errors import InputError, Problem, UnknownNameError
 from .filemodel import FileModel
 from .results import Result
 from .units import convert
-from .weighing import EmptyWeightRecord, Refusal, lateral_arm_needed, record_checks
+from .weighing import EmptyWeightRecord, Refusal, lateral_arm_needed, lateral_change, record_checks
 from .words import negligible_cg_words, negligible_text, negligible_weight_words
 
 __all__ = ["Change", "Changes", "ChangeLine", "AlterResult", "alter", "negligible_weight_lb", "Negligible"]
@@ -108,7 +108,8 @@ class AlterResult(Result):
     """The outcome of equipment changes (not yet the record: writing makes it so).
 
     ``date``, ``description`` and ``by`` come from the changes file; ``warnings`` and
-    ``refusals`` are those of :func:`~loadcheck.weighing.record_checks`.
+    ``refusals`` are those of :func:`~loadcheck.weighing.record_checks`; ``change_lateral_arm``
+    is the new lateral CG less the current record's [arm unit], where both have one.
     """
 
     aircraft: str
@@ -128,6 +129,7 @@ class AlterResult(Result):
     description: str | None = None
     by: str | None = None
     cg_range: tuple[float, float] | None = None
+    change_lateral_arm: float | None = None
     caution: str = MECHANIC_CAUTION
 
 
@@ -308,6 +310,7 @@ def alter(aircraft: Aircraft, changes: Changes) -> AlterResult:
         new=new,
         change_weight=weight - empty.weight,
         change_arm=new.arm - empty.arm,
+        change_lateral_arm=lateral_change(new, previous),
         change_useful_load=useful - aircraft.useful_load,
         useful_load=useful,
         negligible=_negligible(aircraft, weight - empty.weight, new.arm - empty.arm),

@@ -42,6 +42,7 @@ __all__ = [
     "weigh",
     "point_arm",
     "lateral_arm_needed",
+    "lateral_change",
     "record_checks",
     "current_record_warnings",
 ]
@@ -203,7 +204,9 @@ class WeighResult(Result):
 
     ``date``, ``weighed_by``, ``note`` and ``geometry`` come from the readings;
     ``cg_range`` is the aircraft's empty-weight CG range [arm unit], where it gives one;
-    ``refusals`` say why the record is not written without an override.
+    ``refusals`` say why the record is not written without an override;
+    ``change_lateral_arm`` is the new lateral CG less the current record's [arm unit], where
+    both have one.
     """
 
     aircraft: str
@@ -225,7 +228,15 @@ class WeighResult(Result):
     note: str | None = None
     geometry: dict[str, Any] | None = None
     cg_range: tuple[float, float] | None = None
+    change_lateral_arm: float | None = None
     caution: str = MECHANIC_CAUTION
+
+
+def lateral_change(new: EmptyWeightRecord, previous: EmptyWeightRecord) -> float | None:
+    """The change of the lateral CG from ``previous`` to ``new`` [arm unit]; None unless both have one."""
+    if new.lateral_arm is None or previous.lateral_arm is None:
+        return None
+    return new.lateral_arm - previous.lateral_arm
 
 
 def _longitudinal_span(aircraft: Aircraft) -> tuple[float, float] | None:
@@ -504,6 +515,7 @@ def weigh(aircraft: Aircraft, readings: Readings) -> WeighResult:
         previous=previous,
         change_weight=new.weight - empty.weight,
         change_arm=new.arm - empty.arm,
+        change_lateral_arm=lateral_change(new, previous),
         useful_load=useful,
         change_useful_load=useful - aircraft.useful_load,
         warnings=notes + warnings + record_warnings,
