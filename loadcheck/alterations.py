@@ -269,7 +269,8 @@ def alter(aircraft: Aircraft, changes: Changes) -> AlterResult:
                 equipment[change.item] = {
                     **item,
                     "arm": new_arm,
-                    "lateral_arm": new_lat if new_lat else item.get("lateral_arm"),
+                    # a new lateral arm of 0 (moved onto the centreline) is kept as given
+                    "lateral_arm": item.get("lateral_arm") if change.new_lateral_arm is None else new_lat,
                 }
                 dw, dm, dl = 0.0, w * (new_arm - a), w * (new_lat - la)
                 lines.append(

@@ -185,3 +185,20 @@ def test_an_item_installed_on_a_lateral_aircraft_needs_its_lateral_arm():
     assert result.new.arm == pytest.approx(96252.8 / 968.0)
     assert result.new.lateral_arm == pytest.approx(444.8 / 968.0)
     assert {"id": "hook", "weight": 6.0, "arm": 105.0, "lateral_arm": 10.0} in result.equipment
+
+
+def test_regression_an_item_relocated_onto_the_centreline_kept_its_old_lateral_arm_in_the_list():
+    """new_lateral_arm = 0.0 was read as "not given": the moment used 0 but the equipment list written
+    with --write kept the old 6.0 in. Invented: an ELT of 2.4 lb at 140.0 in, 6.0 in right, moved onto the
+    centreline on an aircraft of 1,000 lb on the centreline; lateral CG (0 + 2.4 x (0 - 6.0)) / 1,000 =
+    -0.0144 in (FAA-H-8083-1B chapter 2, relocated weight: weight x distance moved)."""
+    from .helpers import simple_aircraft
+
+    aircraft = simple_aircraft(
+        empty={"weight": 1000.0, "arm": 40.0, "lateral_arm": 0.0},
+        equipment=[{"id": "elt", "weight": 2.4, "arm": 140.0, "lateral_arm": 6.0}],
+    )
+    moved = Changes.model_validate({"change": [{"action": "relocate", "item": "elt", "new_lateral_arm": 0.0}]})
+    result = alter(aircraft, moved)
+    assert result.new.lateral_arm == pytest.approx(2.4 * (0.0 - 6.0) / 1000.0)
+    assert {"id": "elt", "weight": 2.4, "arm": 140.0, "lateral_arm": 0.0} in result.equipment
