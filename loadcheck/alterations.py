@@ -192,8 +192,9 @@ def alter(aircraft: Aircraft, changes: Changes) -> AlterResult:
         A removed or relocated item that is not in the equipment list (the message lists
         the items there), or an installed item whose id is already there.
     InputError
-        When the changes leave no empty weight, or an item installed on an aircraft that
-        limits the lateral CG gives no lateral arm.
+        When the changes leave no empty weight, or on an aircraft that limits the lateral CG,
+        when an item installed gives no lateral arm, or one removed or moved sideways has
+        none in the equipment list.
 
     References
     ----------
@@ -247,6 +248,17 @@ def alter(aircraft: Aircraft, changes: Changes) -> AlterResult:
                 problems.append(Problem(where, f"unknown item {change.item!r} to {change.action}", expected=known))
                 continue
             item = equipment[change.item]
+            moves_sideways = change.action == "remove" or change.new_lateral_arm is not None
+            if aircraft.has_lateral and moves_sideways and item.get("lateral_arm") is None:
+                # its lateral moment would rest on a guess of the centreline
+                lateral_problems.append(
+                    lateral_arm_needed(
+                        aircraft,
+                        f"change[{index}].item",
+                        f"item {change.item!r} (to {change.action}) of the aircraft file's [[equipment]] list",
+                    )
+                )
+                continue
             w, a, la = float(item["weight"]), float(item["arm"]), float(item.get("lateral_arm") or 0.0)
             label = change.label or item.get("label") or change.item
             if change.action == "remove":

@@ -202,3 +202,25 @@ def test_regression_an_item_relocated_onto_the_centreline_kept_its_old_lateral_a
     result = alter(aircraft, moved)
     assert result.new.lateral_arm == pytest.approx(2.4 * (0.0 - 6.0) / 1000.0)
     assert {"id": "elt", "weight": 2.4, "arm": 140.0, "lateral_arm": 0.0} in result.equipment
+
+
+@pytest.mark.parametrize(
+    "change",
+    [{"action": "remove", "item": "winch"}, {"action": "relocate", "item": "winch", "new_lateral_arm": 4.0}],
+    ids=["remove", "relocate"],
+)
+def test_an_item_without_a_lateral_arm_in_the_list_is_not_moved_sideways_on_a_lateral_aircraft(change):
+    """heli2 (a lateral envelope) with an invented winch of 12.0 lb at 100.0 in and no lateral arm in its
+    equipment list: removing it or moving it sideways took its lateral arm as 0. A fore-and-aft move
+    needs none: the lateral moment does not change (FAA-H-8083-1B chapter 2: weight x distance moved),
+    12.0 x (90.0 - 100.0) = -120 lb-in."""
+    data = sample_data("heli2/aircraft.toml")
+    data["equipment"] = [{"id": "winch", "weight": 12.0, "arm": 100.0}]
+    aircraft = parse_aircraft(data)
+    with pytest.raises(InputError, match=r"change\[0\]\.item: item 'winch' .* gives no lateral arm"):
+        alter(aircraft, Changes.model_validate({"change": [change]}))
+    aft = alter(
+        aircraft, Changes.model_validate({"change": [{"action": "relocate", "item": "winch", "new_arm": 90.0}]})
+    )
+    assert aft.new.moment == pytest.approx(aircraft.empty.moment - 120.0)
+    assert aft.new.lateral_arm == pytest.approx(aircraft.empty.lateral_arm)
