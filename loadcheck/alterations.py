@@ -25,7 +25,7 @@ from .errors import InputError, Problem, UnknownNameError
 from .filemodel import FileModel
 from .results import Result
 from .units import convert
-from .weighing import EmptyWeightRecord, Refusal, record_checks
+from .weighing import EmptyWeightRecord, Refusal, lateral_arm_needed, lateral_change, record_checks
 from .words import negligible_cg_words, negligible_text, negligible_weight_words
 
 __all__ = ["Change", "Changes", "ChangeLine", "AlterResult", "alter", "negligible_weight_lb", "Negligible"]
@@ -108,7 +108,8 @@ class AlterResult(Result):
     """The outcome of equipment changes (not yet the record: writing makes it so).
 
     ``date``, ``description`` and ``by`` come from the changes file; ``warnings`` and
-    ``refusals`` are those of :func:`~loadcheck.weighing.record_checks`.
+    ``refusals`` are those of :func:`~loadcheck.weighing.record_checks`; ``change_lateral_arm``
+    is the new lateral CG less the current record's [arm unit], where both have one.
     """
 
     aircraft: str
@@ -128,6 +129,7 @@ class AlterResult(Result):
     description: str | None = None
     by: str | None = None
     cg_range: tuple[float, float] | None = None
+    change_lateral_arm: float | None = None
     caution: str = MECHANIC_CAUTION
 
 
@@ -190,7 +192,9 @@ def alter(aircraft: Aircraft, changes: Changes) -> AlterResult:
         A removed or relocated item that is not in the equipment list (the message lists
         the items there), or an installed item whose id is already there.
     InputError
-        When the changes leave no empty weight.
+        When the changes leave no empty weight, or on an aircraft that limits the lateral CG,
+        when an item installed gives no lateral arm, or one removed or moved sideways has
+        none in the equipment list.
 
     References
     ----------
@@ -199,6 +203,7 @@ def alter(aircraft: Aircraft, changes: Changes) -> AlterResult:
     equipment: dict[str, dict[str, Any]] = {e.id: e.model_dump() for e in aircraft.equipment}
     lines: list[ChangeLine] = []
     problems: list[Problem] = []
+    lateral_problems: list[Problem] = []
     empty = aircraft.empty
     weight, moment = empty.weight, empty.moment
     lateral = empty.weight * (empty.lateral_arm or 0.0)
@@ -209,6 +214,12 @@ def alter(aircraft: Aircraft, changes: Changes) -> AlterResult:
             if change.item in equipment:
                 problems.append(
                     Problem(where, f"item {change.item!r} is already installed; remove or relocate it instead")
+                )
+                continue
+            if aircraft.has_lateral and change.lateral_arm is None:
+                # never taken as the centreline: the new lateral CG would rest on a guess
+                lateral_problems.append(
+                    lateral_arm_needed(aircraft, f"change[{index}].lateral_arm", f"installed item {change.item!r}")
                 )
                 continue
             assert change.weight is not None and change.arm is not None
@@ -237,6 +248,17 @@ def alter(aircraft: Aircraft, changes: Changes) -> AlterResult:
                 problems.append(Problem(where, f"unknown item {change.item!r} to {change.action}", expected=known))
                 continue
             item = equipment[change.item]
+            moves_sideways = change.action == "remove" or change.new_lateral_arm is not None
+            if aircraft.has_lateral and moves_sideways and item.get("lateral_arm") is None:
+                # its lateral moment would rest on a guess of the centreline
+                lateral_problems.append(
+                    lateral_arm_needed(
+                        aircraft,
+                        f"change[{index}].item",
+                        f"item {change.item!r} (to {change.action}) of the aircraft file's [[equipment]] list",
+                    )
+                )
+                continue
             w, a, la = float(item["weight"]), float(item["arm"]), float(item.get("lateral_arm") or 0.0)
             label = change.label or item.get("label") or change.item
             if change.action == "remove":
@@ -259,7 +281,8 @@ def alter(aircraft: Aircraft, changes: Changes) -> AlterResult:
                 equipment[change.item] = {
                     **item,
                     "arm": new_arm,
-                    "lateral_arm": new_lat if new_lat else item.get("lateral_arm"),
+                    # a new lateral arm of 0 (moved onto the centreline) is kept as given
+                    "lateral_arm": item.get("lateral_arm") if change.new_lateral_arm is None else new_lat,
                 }
                 dw, dm, dl = 0.0, w * (new_arm - a), w * (new_lat - la)
                 lines.append(
@@ -278,7 +301,9 @@ def alter(aircraft: Aircraft, changes: Changes) -> AlterResult:
         moment += dm
         lateral += dl
     if problems:
-        raise UnknownNameError(problems)
+        raise UnknownNameError(problems + lateral_problems)
+    if lateral_problems:
+        raise InputError(lateral_problems)
     if weight <= 0:
         raise InputError(Problem("change", "the changes leave no empty weight"))
     previous = EmptyWeightRecord(weight=empty.weight, arm=empty.arm, moment=empty.moment, lateral_arm=empty.lateral_arm)
@@ -298,6 +323,7 @@ def alter(aircraft: Aircraft, changes: Changes) -> AlterResult:
         new=new,
         change_weight=weight - empty.weight,
         change_arm=new.arm - empty.arm,
+        change_lateral_arm=lateral_change(new, previous),
         change_useful_load=useful - aircraft.useful_load,
         useful_load=useful,
         negligible=_negligible(aircraft, weight - empty.weight, new.arm - empty.arm),

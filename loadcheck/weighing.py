@@ -41,6 +41,8 @@ __all__ = [
     "PLAUSIBLE_CHANGE",
     "weigh",
     "point_arm",
+    "lateral_arm_needed",
+    "lateral_change",
     "record_checks",
     "current_record_warnings",
 ]
@@ -202,7 +204,9 @@ class WeighResult(Result):
 
     ``date``, ``weighed_by``, ``note`` and ``geometry`` come from the readings;
     ``cg_range`` is the aircraft's empty-weight CG range [arm unit], where it gives one;
-    ``refusals`` say why the record is not written without an override.
+    ``refusals`` say why the record is not written without an override;
+    ``change_lateral_arm`` is the new lateral CG less the current record's [arm unit], where
+    both have one.
     """
 
     aircraft: str
@@ -224,7 +228,15 @@ class WeighResult(Result):
     note: str | None = None
     geometry: dict[str, Any] | None = None
     cg_range: tuple[float, float] | None = None
+    change_lateral_arm: float | None = None
     caution: str = MECHANIC_CAUTION
+
+
+def lateral_change(new: EmptyWeightRecord, previous: EmptyWeightRecord) -> float | None:
+    """The change of the lateral CG from ``previous`` to ``new`` [arm unit]; None unless both have one."""
+    if new.lateral_arm is None or previous.lateral_arm is None:
+        return None
+    return new.lateral_arm - previous.lateral_arm
 
 
 def _longitudinal_span(aircraft: Aircraft) -> tuple[float, float] | None:
@@ -347,6 +359,63 @@ def _item(aircraft: Aircraft, item: ReadingItem, where: str) -> tuple[float, flo
     return item.weight, item.arm, item.lateral_arm or 0.0
 
 
+def lateral_arm_needed(aircraft: Aircraft, where: str, what: str) -> Problem:
+    """The problem of a lateral arm left out on an aircraft that limits the lateral CG.
+
+    Parameters
+    ----------
+    aircraft : the aircraft (for its arm unit)
+    where : the field, e.g. ``point[1].lateral_arm`` or ``change[0].lateral_arm``
+    what : the point or item, e.g. ``point 'rear left'``
+    """
+    return Problem(
+        where,
+        f"{what} gives no lateral arm: this aircraft limits the lateral CG (it has a lateral envelope), "
+        "so its lateral arm is needed",
+        expected=f"its lateral arm ({aircraft.units.arm}, + right): 0 for one on the centreline",
+    )
+
+
+def _require_lateral_arms(aircraft: Aircraft, readings: Readings, lateral: bool) -> None:
+    """Refuse readings that leave a lateral arm to be guessed on an aircraft that limits the lateral CG.
+
+    Where the aircraft has a lateral envelope, the readings measure the lateral CG (each
+    weighing point gives its lateral arm, and so does each item taken off or put on, a fuel
+    item through its tank) or say explicitly that the current lateral CG is kept
+    (``keep_lateral_arm``). A lateral arm left out is never taken as the centreline.
+
+    Raises
+    ------
+    InputError
+        Naming every point and item whose lateral arm is missing.
+    """
+    if not aircraft.has_lateral:
+        return
+    if not lateral:
+        if readings.keep_lateral_arm:
+            return
+        empty = aircraft.empty
+        kept = "none" if empty.lateral_arm is None else fmt(empty.lateral_arm, aircraft.units.arm)
+        raise InputError(
+            Problem(
+                "point",
+                "this aircraft has a lateral envelope, and no weighing point gives its lateral_arm: give each "
+                f"point's lateral_arm, or state keep_lateral_arm = true to keep the current lateral CG ({kept})",
+            )
+        )
+    problems = [
+        lateral_arm_needed(aircraft, f"point[{index}].lateral_arm", f"point {p.label!r}")
+        for index, p in enumerate(readings.point)
+        if p.lateral_arm is None
+    ]
+    for name, items in (("on_board", readings.on_board), ("missing", readings.missing)):
+        for index, item in enumerate(items):
+            if item.lateral_arm is None and item.tank is None:
+                problems.append(lateral_arm_needed(aircraft, f"{name}[{index}].lateral_arm", f"item {item.label!r}"))
+    if problems:
+        raise InputError(problems)
+
+
 def weigh(aircraft: Aircraft, readings: Readings) -> WeighResult:
     """Compute the basic empty weight and CG from scale readings.
 
@@ -372,15 +441,7 @@ def weigh(aircraft: Aircraft, readings: Readings) -> WeighResult:
     lateral = any(p.lateral_arm is not None for p in readings.point)
     empty = aircraft.empty
     notes: list[str] = []
-    if not lateral and aircraft.has_lateral and not readings.keep_lateral_arm:
-        kept = "none" if empty.lateral_arm is None else fmt(empty.lateral_arm, aircraft.units.arm)
-        raise InputError(
-            Problem(
-                "point",
-                "this aircraft has a lateral envelope, and no weighing point gives its lateral_arm: give each "
-                f"point's lateral_arm, or state keep_lateral_arm = true to keep the current lateral CG ({kept})",
-            )
-        )
+    _require_lateral_arms(aircraft, readings, lateral)
     if not lateral and empty.lateral_arm is not None:
         why = (
             "as the readings state (keep_lateral_arm)"
@@ -454,6 +515,7 @@ def weigh(aircraft: Aircraft, readings: Readings) -> WeighResult:
         previous=previous,
         change_weight=new.weight - empty.weight,
         change_arm=new.arm - empty.arm,
+        change_lateral_arm=lateral_change(new, previous),
         useful_load=useful,
         change_useful_load=useful - aircraft.useful_load,
         warnings=notes + warnings + record_warnings,

@@ -15,7 +15,7 @@ import pytest
 from loadcheck import load_aircraft
 from loadcheck.alterations import Changes, alter, negligible_weight_lb
 from loadcheck.cli import app
-from loadcheck.errors import UnknownNameError
+from loadcheck.errors import InputError, UnknownNameError
 from loadcheck.files import parse_aircraft
 from loadcheck.weighing import current_record_warnings
 
@@ -66,7 +66,7 @@ def test_alter_json_on_a_rotorcraft(runner, tmp_path, aircraft_file):
     changes = tmp_path / "changes.toml"
     changes.write_text(
         'format = 1\ndate = 2026-11-30\ndescription = "cargo hook"\n'
-        "[[change]]\naction = 'install'\nitem = 'hook'\nweight = 6.0\narm = 105.0\n"
+        "[[change]]\naction = 'install'\nitem = 'hook'\nweight = 6.0\narm = 105.0\nlateral_arm = 0.0\n"
     )
     result = runner.invoke(app, ["alter", str(sample(aircraft_file)), str(changes), "--json"])
     assert result.exit_code == 0, result.output
@@ -81,7 +81,11 @@ def test_rotorcraft_negligible_cg_rule_gives_plain_booleans():
     tiny = alter(
         aircraft,
         Changes.model_validate(
-            {"change": [{"action": "install", "item": "p", "weight": 0.2, "arm": aircraft.empty.arm}]}
+            {
+                "change": [
+                    {"action": "install", "item": "p", "weight": 0.2, "arm": aircraft.empty.arm, "lateral_arm": 0.0}
+                ]
+            }
         ),
     )
     assert type(tiny.negligible.cg) is bool and type(tiny.negligible.weight) is bool
@@ -164,3 +168,59 @@ def test_regression_every_change_of_an_alteration_carries_its_sign(runner):
     text = " ".join(result.output.split())
     # the useful load grows by what the empty weight loses
     assert "Change from the current record: weight -13.8 lb, CG -0.20 in; useful load 745.8 lb (+13.8 lb)" in text
+
+
+def test_an_item_installed_on_a_lateral_aircraft_needs_its_lateral_arm():
+    """heli2 limits the lateral CG (empty 962.0 lb at 99.40 in, 0.40 in right). An invented cargo hook,
+    6.0 lb at 105.0 in, installed without a lateral arm was taken as on the centreline; it is refused.
+    Given 10.0 in right, by the moment method (FAA-H-8083-1B chapter 2, added weight): weight 968.0 lb,
+    CG (962 x 99.4 + 6 x 105) / 968 = 96,252.8 / 968 = 99.435 in, lateral CG (962 x 0.4 + 6 x 10) / 968
+    = 444.8 / 968 = 0.4595 in."""
+    aircraft = load_aircraft(sample("heli2/aircraft.toml"))
+    hook = {"action": "install", "item": "hook", "weight": 6.0, "arm": 105.0}
+    with pytest.raises(InputError, match=r"change\[0\]\.lateral_arm: installed item 'hook' gives no lateral arm"):
+        alter(aircraft, Changes.model_validate({"change": [hook]}))
+    result = alter(aircraft, Changes.model_validate({"change": [{**hook, "lateral_arm": 10.0}]}))
+    assert result.new.weight == pytest.approx(968.0)
+    assert result.new.arm == pytest.approx(96252.8 / 968.0)
+    assert result.new.lateral_arm == pytest.approx(444.8 / 968.0)
+    assert {"id": "hook", "weight": 6.0, "arm": 105.0, "lateral_arm": 10.0} in result.equipment
+
+
+def test_regression_an_item_relocated_onto_the_centreline_kept_its_old_lateral_arm_in_the_list():
+    """new_lateral_arm = 0.0 was read as "not given": the moment used 0 but the equipment list written
+    with --write kept the old 6.0 in. Invented: an ELT of 2.4 lb at 140.0 in, 6.0 in right, moved onto the
+    centreline on an aircraft of 1,000 lb on the centreline; lateral CG (0 + 2.4 x (0 - 6.0)) / 1,000 =
+    -0.0144 in (FAA-H-8083-1B chapter 2, relocated weight: weight x distance moved)."""
+    from .helpers import simple_aircraft
+
+    aircraft = simple_aircraft(
+        empty={"weight": 1000.0, "arm": 40.0, "lateral_arm": 0.0},
+        equipment=[{"id": "elt", "weight": 2.4, "arm": 140.0, "lateral_arm": 6.0}],
+    )
+    moved = Changes.model_validate({"change": [{"action": "relocate", "item": "elt", "new_lateral_arm": 0.0}]})
+    result = alter(aircraft, moved)
+    assert result.new.lateral_arm == pytest.approx(2.4 * (0.0 - 6.0) / 1000.0)
+    assert {"id": "elt", "weight": 2.4, "arm": 140.0, "lateral_arm": 0.0} in result.equipment
+
+
+@pytest.mark.parametrize(
+    "change",
+    [{"action": "remove", "item": "winch"}, {"action": "relocate", "item": "winch", "new_lateral_arm": 4.0}],
+    ids=["remove", "relocate"],
+)
+def test_an_item_without_a_lateral_arm_in_the_list_is_not_moved_sideways_on_a_lateral_aircraft(change):
+    """heli2 (a lateral envelope) with an invented winch of 12.0 lb at 100.0 in and no lateral arm in its
+    equipment list: removing it or moving it sideways took its lateral arm as 0. A fore-and-aft move
+    needs none: the lateral moment does not change (FAA-H-8083-1B chapter 2: weight x distance moved),
+    12.0 x (90.0 - 100.0) = -120 lb-in."""
+    data = sample_data("heli2/aircraft.toml")
+    data["equipment"] = [{"id": "winch", "weight": 12.0, "arm": 100.0}]
+    aircraft = parse_aircraft(data)
+    with pytest.raises(InputError, match=r"change\[0\]\.item: item 'winch' .* gives no lateral arm"):
+        alter(aircraft, Changes.model_validate({"change": [change]}))
+    aft = alter(
+        aircraft, Changes.model_validate({"change": [{"action": "relocate", "item": "winch", "new_arm": 90.0}]})
+    )
+    assert aft.new.moment == pytest.approx(aircraft.empty.moment - 120.0)
+    assert aft.new.lateral_arm == pytest.approx(aircraft.empty.lateral_arm)

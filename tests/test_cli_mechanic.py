@@ -211,3 +211,88 @@ def test_regression_a_loading_given_for_the_aircraft_file_is_named_as_such(comma
     assert "this field is required" not in result.output and "unknown field" not in result.output
     readings = invoke(command[0], str(sample("trainer4/weighing.toml")), *rest)
     assert_input_error(readings, "this is a readings file, not an aircraft file")
+
+
+# -- an aircraft that limits the lateral CG: a lateral arm left out is refused, never taken as 0 -------
+
+
+def _heli_copy(tmp_path):
+    import shutil
+
+    shutil.copy(sample("heli2/aircraft.toml"), tmp_path / "aircraft.toml")
+    return tmp_path / "aircraft.toml"
+
+
+def test_weigh_refuses_a_point_without_its_lateral_arm_on_a_lateral_aircraft(tmp_path):
+    # invented readings on heli2 (a lateral envelope): the second point's lateral arm is left out;
+    # it was taken as 0 (on the centreline) and the lateral CG so made was written into the record
+    aircraft = _heli_copy(tmp_path)
+    readings = tmp_path / "readings.toml"
+    readings.write_text(
+        "format = 1\n"
+        "[[point]]\nlabel = 'front'\narm = 84.0\nlateral_arm = 0.0\nreading = 320.0\n"
+        "[[point]]\nlabel = 'rear left'\narm = 107.0\nreading = 322.0\n"
+        "[[point]]\nlabel = 'rear right'\narm = 107.0\nlateral_arm = 18.0\nreading = 318.0\n"
+    )
+    before = aircraft.read_bytes()
+    result = invoke("weigh", str(aircraft), str(readings), "--write", "--yes")
+    assert_input_error(
+        result, "point[1].lateral_arm", "limits the lateral CG", "so its lateral arm is needed", "0 for one on the"
+    )
+    assert aircraft.read_bytes() == before
+
+
+def test_alter_refuses_an_installed_item_without_its_lateral_arm_on_a_lateral_aircraft(tmp_path):
+    # an invented cargo hook on heli2 (a lateral envelope) without a lateral arm: it was taken as 0
+    aircraft = _heli_copy(tmp_path)
+    changes = tmp_path / "changes.toml"
+    changes.write_text("format = 1\n[[change]]\naction = 'install'\nitem = 'hook'\nweight = 6.0\narm = 105.0\n")
+    before = aircraft.read_bytes()
+    result = invoke("alter", str(aircraft), str(changes), "--write", "--yes")
+    assert_input_error(result, "change[0].lateral_arm", "limits the lateral CG", "0 for one on the centreline")
+    assert aircraft.read_bytes() == before
+
+
+def test_weigh_shows_the_new_lateral_cg_and_its_change(tmp_path):
+    """The lateral CG that --write puts into the record was shown only in --json. Invented readings on heli2
+    (current record 962.0 lb, lateral CG +0.40 in): 320 lb on the centreline, 322 lb 18.0 in left and 317 lb
+    18.0 in right, and a 20 lb battery missing, 8.0 in right. Sum of lateral moments over the sum of weights
+    (FAA-H-8083-1B chapter 2, moment method; chapter 3, weighing): as weighed (-5,796 + 5,706) / 959 =
+    -0.094 in; new (-90 + 160) / 979 = +0.0715 in; change 0.0715 - 0.40 = -0.3285 in."""
+    aircraft = _heli_copy(tmp_path)
+    readings = tmp_path / "readings.toml"
+    readings.write_text(
+        "format = 1\n"
+        "[[point]]\nlabel = 'front'\narm = 84.0\nlateral_arm = 0.0\nreading = 320.0\n"
+        "[[point]]\nlabel = 'rear left'\narm = 107.0\nlateral_arm = -18.0\nreading = 322.0\n"
+        "[[point]]\nlabel = 'rear right'\narm = 107.0\nlateral_arm = 18.0\nreading = 317.0\n"
+        "[[missing]]\nlabel = 'battery'\nweight = 20.0\narm = 60.0\nlateral_arm = 8.0\n"
+    )
+    result = invoke("weigh", str(aircraft), str(readings))
+    assert result.exit_code == 0, result.output
+    text = " ".join(result.output.split())
+    assert "Lateral CG (+ right): as weighed -0.09 in, new 0.07 in, current record 0.40 in; change -0.33 in" in text
+    rows = {line.split("│")[1].strip(): line for line in result.output.splitlines() if line.count("│") > 5}
+    assert "-18.00" in rows["rear left"] and "18.00" in rows["rear right"] and "8.00" in rows["battery"]
+    data = json.loads(invoke("weigh", str(aircraft), str(readings), "--json").stdout)
+    assert data["change_lateral_arm"] == pytest.approx(70.0 / 979.0 - 0.4)
+    plain = invoke("weigh", str(sample("trainer4/aircraft.toml")), str(sample("trainer4/weighing.toml")))
+    assert plain.exit_code == 0 and "Lateral CG" not in plain.output  # no lateral arms: nothing to show
+
+
+def test_alter_shows_the_new_lateral_cg_and_its_change(tmp_path):
+    """An invented cargo hook on heli2, 6.0 lb at 105.0 in, 10.0 in right: lateral CG (962 x 0.40 + 6 x 10)
+    / 968 = 444.8 / 968 = +0.4595 in, a change of +0.0595 in (FAA-H-8083-1B chapter 2, added weight)."""
+    aircraft = _heli_copy(tmp_path)
+    changes = tmp_path / "changes.toml"
+    changes.write_text(
+        "format = 1\n[[change]]\naction = 'install'\nitem = 'hook'\nweight = 6.0\narm = 105.0\nlateral_arm = 10.0\n"
+    )
+    result = invoke("alter", str(aircraft), str(changes))
+    assert result.exit_code == 0, result.output
+    text = " ".join(result.output.split())
+    assert "Lateral CG (+ right): current record 0.40 in, after the changes 0.46 in; change +0.06 in" in text
+    data = json.loads(invoke("alter", str(aircraft), str(changes), "--json").stdout)
+    assert data["change_lateral_arm"] == pytest.approx(444.8 / 968.0 - 0.4)
+    plain = invoke("alter", str(sample("trainer4/aircraft.toml")), str(sample("trainer4/changes.toml")))
+    assert plain.exit_code == 0 and "Lateral CG" not in plain.output

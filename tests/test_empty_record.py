@@ -245,6 +245,7 @@ def _heli(tmp_path: Path, lateral: str) -> tuple[Path, Path]:
         'format = 1\ndate = 2026-11-30\nweighed_by = "hangar 2"\n'
         + lateral
         + "[[point]]\nlabel = 'front'\narm = 60.0\nreading = 300.0\n"
+        + ("lateral_arm = 0.0\n" if not lateral else "")  # on the centreline: said, never guessed
         + "[[point]]\nlabel = 'rear left'\narm = 127.0\nreading = 295.0\n"
         + ("lateral_arm = -20.0\n" if not lateral else "")
         + "[[point]]\nlabel = 'rear right'\narm = 127.0\nreading = 290.0\n"
@@ -261,7 +262,8 @@ def test_a_lateral_envelope_needs_lateral_readings_or_an_explicit_statement(runn
 
     new = json.loads(measured.stdout)["new"]
     assert new["lateral_arm"] == pytest.approx((290 - 295) * 20 / 885)
-    readings.write_text(readings.read_text().replace("lateral_arm = -20.0\n", "").replace("lateral_arm = 20.0\n", ""))
+    for line in ("lateral_arm = 0.0\n", "lateral_arm = -20.0\n", "lateral_arm = 20.0\n"):
+        readings.write_text(readings.read_text().replace(line, ""))
     before = aircraft.read_bytes()
     silent = runner.invoke(app, ["weigh", str(aircraft), str(readings), "--write", "--yes"])
     assert silent.exit_code == 2 and "lateral envelope" in silent.output and "keep_lateral_arm" in silent.output
@@ -316,7 +318,7 @@ def test_the_weighing_record_shows_the_lateral_cg(tmp_path):
     readings = tmp_path / "readings.toml"
     readings.write_text(
         "format = 1\ndate = 2026-11-30\nweighed_by = 'hangar 2'\n"
-        "[[point]]\nlabel = 'front'\narm = 60.0\nreading = 300.0\n"
+        "[[point]]\nlabel = 'front'\narm = 60.0\nlateral_arm = 0.0\nreading = 300.0\n"
         "[[point]]\nlabel = 'rear left'\narm = 127.0\nlateral_arm = -20.0\nreading = 295.0\n"
         "[[point]]\nlabel = 'rear right'\narm = 127.0\nlateral_arm = 20.0\nreading = 290.0\n"
     )

@@ -237,3 +237,47 @@ def test_regression_a_weighings_warnings_round_as_its_tables_do(tmp_path):
     (warning,) = result.warnings
     assert warning.startswith("the new empty-weight CG 399 mm is outside the empty-weight CG range 240 mm to 380 mm")
     assert "(aft of it by 19 mm)" in warning and "398.84" not in warning
+
+
+# -- an aircraft that limits the lateral CG: no lateral arm is guessed ---------------------------
+# Invented readings on the sample heli2 (a lateral envelope; empty 962.0 lb, lateral CG +0.40 in):
+# a centreline point 320 lb at 84.0 in, left 322 lb at 107.0 in, 18.0 in left; right 318 lb at
+# 107.0 in, 18.0 in right. Sum of moments over sum of weights (FAA-H-8083-1B chapter 2, moment
+# method; chapter 3, weighing): W = 960 lb, CG = (320 x 84 + 640 x 107) / 960 = 95,360 / 960 =
+# 99.33 in; lateral CG = (322 x -18 + 318 x 18) / 960 = -72 / 960 = -0.075 in.
+
+
+def _heli_points(front_lateral=None):
+    front = {"label": "front", "arm": 84.0, "reading": 320.0}
+    if front_lateral is not None:
+        front["lateral_arm"] = front_lateral
+    return [
+        front,
+        {"label": "rear left", "arm": 107.0, "lateral_arm": -18.0, "reading": 322.0},
+        {"label": "rear right", "arm": 107.0, "lateral_arm": 18.0, "reading": 318.0},
+    ]
+
+
+def test_a_lateral_aircraft_refuses_a_weighing_point_without_its_lateral_arm():
+    aircraft = load_aircraft(sample("heli2/aircraft.toml"))
+    with pytest.raises(InputError, match=r"point\[0\]\.lateral_arm: point 'front' gives no lateral arm: .*lateral CG"):
+        weigh(aircraft, Readings.model_validate({"point": _heli_points()}))
+    result = weigh(aircraft, Readings.model_validate({"point": _heli_points(0.0)}))
+    assert result.new.weight == pytest.approx(960.0)
+    assert result.new.arm == pytest.approx(95360.0 / 960.0)
+    assert result.new.lateral_arm == pytest.approx(-72.0 / 960.0)
+
+
+@pytest.mark.parametrize("table", ["on_board", "missing"])
+def test_a_lateral_aircraft_refuses_a_correction_without_its_lateral_arm(table):
+    # a 20 lb item at 60.0 in: taken off (on board when weighed) or put on (missing), 8.0 in right
+    aircraft = load_aircraft(sample("heli2/aircraft.toml"))
+    item = {"label": "battery", "weight": 20.0, "arm": 60.0}
+    with pytest.raises(InputError, match=rf"{table}\[0\]\.lateral_arm: item 'battery' gives no lateral arm"):
+        weigh(aircraft, Readings.model_validate({"point": _heli_points(0.0), table: [item]}))
+    result = weigh(
+        aircraft, Readings.model_validate({"point": _heli_points(0.0), table: [{**item, "lateral_arm": 8.0}]})
+    )
+    sign = -1.0 if table == "on_board" else 1.0
+    assert result.new.weight == pytest.approx(960.0 + sign * 20.0)
+    assert result.new.lateral_arm == pytest.approx((-72.0 + sign * 20.0 * 8.0) / (960.0 + sign * 20.0))

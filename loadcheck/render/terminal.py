@@ -835,7 +835,11 @@ def _warnings_and_refusals(result: Any, console: Console) -> None:
 
 
 def render_weighing(result: Any, units: Any, console: Console) -> None:
-    """Print a weighing: points, as-weighed, corrections, new record, change."""
+    """Print a weighing: points, as-weighed, corrections, new record, change.
+
+    Where the points or the records give a lateral CG, the lateral arms are shown in the
+    tables and the new lateral CG with its change from the current record on a line of its own.
+    """
     console.print(
         Text(
             f"Weighing of {result.aircraft}" + (f" · {result.registration}" if result.registration else ""),
@@ -843,6 +847,14 @@ def render_weighing(result: Any, units: Any, console: Console) -> None:
         )
     )
     moment = unit_label(units.moment)
+    lateral_points = any(p.lateral_arm is not None for p in result.points)
+    lateral_column = [Column(f"Lateral arm ({units.arm}, + right)")] if lateral_points else []
+
+    def lateral_cell(arm: float | None) -> list[str]:
+        if not lateral_points:
+            return []
+        return ["" if arm is None else fmt(arm, units.arm, with_unit=False)]
+
     _print_table(
         console,
         "Weighing points",
@@ -852,6 +864,7 @@ def render_weighing(result: Any, units: Any, console: Console) -> None:
             Column(f"Tare ({units.mass})"),
             Column(f"Net ({units.mass})"),
             Column(f"Arm ({units.arm})"),
+            *lateral_column,
             Column(f"Moment ({moment})"),
         ],
         [
@@ -861,6 +874,7 @@ def render_weighing(result: Any, units: Any, console: Console) -> None:
                 fmt(p.tare, units.mass, with_unit=False),
                 fmt(p.net, units.mass, with_unit=False),
                 fmt(p.arm, units.arm, with_unit=False),
+                *lateral_cell(p.lateral_arm),
                 fmt(p.moment, units.moment, with_unit=False),
             ]
             for p in result.points
@@ -880,6 +894,7 @@ def render_weighing(result: Any, units: Any, console: Console) -> None:
                 Column("", numeric=False),
                 Column(f"Weight ({units.mass})"),
                 Column(f"Arm ({units.arm})"),
+                *lateral_column,
                 Column(f"Moment ({moment})"),
             ],
             [
@@ -888,6 +903,7 @@ def render_weighing(result: Any, units: Any, console: Console) -> None:
                     c.action,
                     fmt(c.weight, units.mass, with_unit=False),
                     fmt(c.arm, units.arm, with_unit=False),
+                    *lateral_cell(c.lateral_arm),
                     fmt(c.moment, units.moment, with_unit=False),
                 ]
                 for c in result.corrections
@@ -900,6 +916,23 @@ def render_weighing(result: Any, units: Any, console: Console) -> None:
     ]
     _record_table("Empty-weight record", rows, units, console)
     _changes_line(result, units, console)
+    if result.new.lateral_arm is not None or result.previous.lateral_arm is not None:
+        shown = (
+            []
+            if result.as_weighed.lateral_arm is None
+            else [f"as weighed {fmt(result.as_weighed.lateral_arm, units.arm)}"]
+        )
+        shown.append("new " + ("none" if result.new.lateral_arm is None else fmt(result.new.lateral_arm, units.arm)))
+        shown.append(
+            "current record "
+            + ("none" if result.previous.lateral_arm is None else fmt(result.previous.lateral_arm, units.arm))
+        )
+        change = (
+            ""
+            if result.change_lateral_arm is None
+            else f"; change {fmt(result.change_lateral_arm, units.arm, signed=True)}"
+        )
+        console.print(f"Lateral CG (+ right): {', '.join(shown)}{change}", markup=False)
     _warnings_and_refusals(result, console)
     console.print(caution_text(result.caution))
 
@@ -951,6 +984,17 @@ def render_alteration(result: Any, units: Any, console: Console) -> None:
         "Empty-weight record", [("Current record", result.previous), ("After the changes", result.new)], units, console
     )
     _changes_line(result, units, console)
+    if result.new.lateral_arm is not None or result.previous.lateral_arm is not None:
+        shown = [
+            f"{name} " + ("none" if record.lateral_arm is None else fmt(record.lateral_arm, units.arm))
+            for name, record in (("current record", result.previous), ("after the changes", result.new))
+        ]
+        change = (
+            ""
+            if result.change_lateral_arm is None
+            else f"; change {fmt(result.change_lateral_arm, units.arm, signed=True)}"
+        )
+        console.print(f"Lateral CG (+ right): {', '.join(shown)}{change}", markup=False)
     console.print(result.negligible.text, markup=False)
     _warnings_and_refusals(result, console)
     console.print(caution_text(result.caution))
