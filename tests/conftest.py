@@ -78,6 +78,24 @@ def pytest_collection_modifyitems(config: pytest.Config, items: list[pytest.Item
             item.add_marker(skip)
 
 
+def pytest_collection_finish(session: pytest.Session) -> None:
+    """Freeze what collection made (the modules, the tests, the library's tables): the cycle
+    collector's full passes during the run then go over the tests' own objects only, not over
+    these every time (about 3 % of the run's CPU). Nothing of it is garbage: it lives to the end."""
+    import gc
+
+    gc.freeze()
+
+
+@pytest.hookimpl(trylast=True)
+def pytest_unconfigure(config: pytest.Config) -> None:
+    """Freeze everything once the run is over: the interpreter's collections at exit then skip the
+    session's objects (about 1.5 s of CPU in each xdist worker, at the end of the run's wall time)."""
+    import gc
+
+    gc.freeze()
+
+
 @pytest.fixture(scope="session")
 def runner() -> AppRunner:
     """The command-line runner, its command tree built once for the session."""
