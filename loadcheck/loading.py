@@ -26,7 +26,7 @@ from typing import Annotated, Any, Literal
 from pydantic import BeforeValidator, Field, field_validator, model_validator
 
 from .aircraft import Aircraft, registration_key
-from .errors import InputError, LoadcheckError, Problem, UnknownNameError, spelling_hint
+from .errors import InputError, LoadcheckError, Problem, UnitError, UnknownNameError, spelling_hint
 from .filemodel import FileModel
 from .fuel import density_problem
 from .units import (
@@ -791,7 +791,10 @@ def resolve_loading(
     taxi = volume_of(burn.taxi)
     if burn.trip_time is not None:
         hours = parse_duration_hours(burn.trip_time)
-        rate = parse_rate(burn.rate if burn.rate is not None else 0.0)
+        try:
+            rate = parse_rate(burn.rate if burn.rate is not None else 0.0, units.fuel_volume)
+        except UnitError as error:  # read in the aircraft's units: a rate its fuel unit makes ambiguous
+            raise InputError([Problem("burn.rate", p.message, burn.rate) for p in error.problems]) from None
         if rate.unit is not None and unit_kind(rate.unit) == "mass":
             trip = plan.volume_for_mass(convert(hours * rate.value, rate.unit, units.mass), density, taxi)
         else:

@@ -299,7 +299,7 @@ _RATE_WORDS = {"gph": "usgal", "lph": "l", "pph": "lb"}  # common practice: gph 
 _RATE_WORD_RE = re.compile(r"^(.*?)\s*(gph|lph|pph)\s*$", re.I)
 
 
-def parse_rate(text: str | float | int) -> Quantity:
+def parse_rate(text: str | float | int, volume_unit: str | None = None) -> Quantity:
     """Read a fuel burn rate: the amount used in one hour.
 
     Accepts a number (fuel volume unit per hour), a quantity per hour (``"36 l/h"``,
@@ -315,7 +315,10 @@ def parse_rate(text: str | float | int) -> Quantity:
     Raises
     ------
     UnitError
-        If the text is not a rate.
+        If the text is not a rate; or, given the aircraft's ``volume_unit`` and that unit is the
+        imperial gallon, for ``gph``, which US usage reads as US gallons and a pilot of an
+        aircraft fuelled in imperial gallons may mean as imperial ones (20 % apart): such a
+        rate is written with its gallon instead (``impgal/h``, ``usgal/h``).
 
     Examples
     --------
@@ -325,6 +328,11 @@ def parse_rate(text: str | float | int) -> Quantity:
     original = text
     if isinstance(text, str):
         words = _RATE_WORD_RE.match(text)
+        if words and words.group(2).lower() == "gph" and volume_unit == "impgal":
+            raise UnitError(
+                f"{original!r}: gph is read as US gallons per hour, but this aircraft's fuel is in imperial "
+                f"gallons (20 % apart): write '{words.group(1)} impgal/h' or '{words.group(1)} usgal/h'"
+            )
         if words:
             text = f"{words.group(1)} {_RATE_WORDS[words.group(2).lower()]}"
         else:
@@ -357,7 +365,7 @@ def read_rate(text: str | float, unit: str, field: str = "") -> float:
     """
 
     def read() -> float:
-        quantity = parse_rate(text)
+        quantity = parse_rate(text, unit)
         if quantity.unit is not None and unit_kind(quantity.unit) == "mass":
             raise UnitError(
                 f"a mass per hour cannot be used here: give the rate as a fuel volume per hour (e.g. '9.5 {unit}/h')"

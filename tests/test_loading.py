@@ -136,3 +136,27 @@ def test_fuel_above_the_usable_capacity_is_said_once_as_given(amount, said):
     with pytest.raises(InputError) as caught:
         resolve_loading(Loading(fuel={"mains": amount, "aux": 0}), TWO_TANKS)
     assert [p.describe() for p in caught.value.problems] == [said]
+
+
+def test_regression_gph_was_read_as_us_gallons_for_an_aircraft_fuelled_in_imperial_gallons():
+    """`rate = "9.5 gph"` is US gallons per hour (common practice in US usage), but for an aircraft whose
+    fuel is in imperial gallons a pilot may mean imperial ones: read as US gallons, the trip fuel came
+    out 17 % low (1 US gal = 3.785411784 L, 1 imp gal = 4.54609 L; NIST SP 811 B.8), and a reserve
+    warning could be missed. There it is refused, asking for the gallon; elsewhere gph is read as before."""
+    from loadcheck.loading import resolve_loading
+
+    imperial = simple_aircraft(units={"mass": "lb", "arm": "in", "fuel_volume": "impgal"})
+    timed = {"load": {"front": 180}, "fuel": {"main": 30}}
+    with pytest.raises(InputError) as refused:
+        resolve_loading(Loading(**timed, burn={"trip_time": "1:00", "rate": "9.5 gph"}), imperial)
+    (problem,) = refused.value.problems
+    assert problem.field == "burn.rate" and "'9.5 impgal/h' or '9.5 usgal/h'" in problem.message
+    said = resolve_loading(Loading(**timed, burn={"trip_time": "1:00", "rate": "9.5 impgal/h"}), imperial)
+    assert said.trip == pytest.approx(9.5)
+    us = resolve_loading(Loading(**timed, burn={"trip_time": "1:00", "rate": "9.5 usgal/h"}), imperial)
+    assert us.trip == pytest.approx(9.5 * 3.785411784 / 4.54609)
+    assert resolve_loading(Loading(**timed, burn={"trip_time": "1:00", "rate": "9.5 gph"}), _us_box()).trip == 9.5
+
+
+def _us_box():  # the US-gallon test box
+    return simple_aircraft()

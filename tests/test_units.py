@@ -175,3 +175,12 @@ def test_amounts_up_to_the_bound_are_read_as_given(typed):
 def test_a_duration_beyond_any_flight_is_refused(typed):
     with pytest.raises(UnitError):
         parse_duration_hours(typed)
+
+
+def test_gph_for_a_rate_in_imperial_gallons_is_refused_naming_the_option():
+    # the command line's rate (plan trip --rate) is read into the aircraft's fuel unit: the same rule
+    # as a loading's burn.rate (tests/test_loading.py), named by the option as typed
+    with pytest.raises(UnitError) as refused:
+        read_rate("9.5 gph", "impgal", "--rate")
+    assert refused.value.problems[0].field == "--rate" and "imperial" in refused.value.problems[0].message
+    assert read_rate("9.5 gph", "usgal", "--rate") == pytest.approx(9.5)
