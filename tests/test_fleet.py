@@ -370,7 +370,7 @@ def test_rows_stream_in_bounded_memory(tmp_path, monkeypatch):
     monkeypatch.setattr(fleet_module, "_check_chunk", lambda rows: [(None, ["not checked"])] * len(rows))
     fleet = load_fleet(SAMPLES)
     peaks = {}
-    small, large = 2 * fleet_module.CHUNK, 8 * fleet_module.CHUNK  # past the first chunk either way
+    small, large = 4 * fleet_module.CHUNK, 16 * fleet_module.CHUNK  # past the first chunks either way
     for count in (small, large):
         day = _write_day(tmp_path / f"day{count}.csv", count)
         pulled = 0
