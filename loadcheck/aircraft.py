@@ -58,8 +58,10 @@ _ID_PATTERN = r"^[A-Za-z0-9_][A-Za-z0-9_.-]*$"
 
 
 def registration_key(registration: str) -> str:
-    """A registration as it is compared: without case, spaces or hyphens (``g-abcd`` is ``GABCD``;
-    common practice: the hyphen after a nationality mark is written or left out, as on the aircraft).
+    """A registration as it is compared: its letters and digits alone, in capitals (``g-abcd`` and
+    ``G ABCD`` are ``GABCD``; common practice: the hyphen after a nationality mark is written or left
+    out, as on the aircraft). A text with no letter or digit has an empty key and matches nothing
+    (:meth:`loadcheck.fleet.Fleet.aircraft` refuses it).
 
     Examples
     --------

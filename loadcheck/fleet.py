@@ -114,7 +114,10 @@ class Fleet:
         return {
             key: e.aircraft
             for e in self.entries
-            if e.registration and e.aircraft is not None and (key := registration_key(e.registration)) not in duplicates
+            if e.registration
+            and e.aircraft is not None
+            and (key := registration_key(e.registration))
+            and key not in duplicates
         }
 
     def aircraft(self, registration: str) -> Aircraft:
@@ -127,6 +130,10 @@ class Fleet:
             whose file does not validate.
         """
         key = registration_key(registration)  # as a loading's registration is compared with its aircraft's
+        if not key:  # "-" or "...": no letter or digit, so no aircraft's (never matched to one alike)
+            raise InputError(
+                Problem("registration", f"{registration!r} is not a registration: it has no letter or digit")
+            )
         usable = self._usable.get(key)
         if usable is not None:  # a fleet day asks once a row
             return usable

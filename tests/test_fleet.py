@@ -793,3 +793,16 @@ def test_regression_a_registration_was_matched_exactly_by_the_fleet_but_loosely_
     assert 'registration = "demo4t"' in (fleet / "b.toml").read_text()
     refused = runner.invoke(app, ["fleet", "check", str(fleet), str(day)])
     assert refused.exit_code == 2 and "in more than one fleet file" in refused.output
+
+
+def test_a_registration_with_no_letter_or_digit_matches_no_aircraft(runner, records, tmp_path):
+    """With registrations compared by their letters and digits alone, "-" would have an empty key; it is
+    refused as no registration, never matched to another file's punctuation (fail closed, common practice)."""
+    fleet = load_fleet(SAMPLES)
+    for typed in ("-", "...", " - "):
+        with pytest.raises(InputError, match="is not a registration: it has no letter or digit"):
+            fleet.aircraft(typed)
+    day = tmp_path / "day.csv"
+    day.write_text("registration,front,mains\n-,170,30\n")
+    result = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(day), "--no-log"])
+    assert result.exit_code == 2 and "day.csv:2" in result.output and "no letter or digit" in result.output
