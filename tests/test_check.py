@@ -305,7 +305,7 @@ def test_regression_a_weight_above_a_lateral_envelopes_top_showed_a_positive_wei
     """Only the longitudinal envelopes gave a weight margin, so a weight above a lateral envelope's
     top (the lateral envelope narrowing as weight grows) showed room to the maximum weight beside the
     finding that the point is outside. Worked by hand (moment method, FAA-H-8083-1B ch. 2; lateral CG
-    likewise, ch. 7): the right seat at +10 in and a centre load at 0 give a lateral CG of
+    likewise, ch. 7, from memory): the right seat at +10 in and a centre load at 0 give a lateral CG of
     10 x right / W; the lateral envelope's right edge runs from (3 in, 1,500 lb) to (1 in, 1,900 lb), so
     at a lateral CG of 2 in its top is 1,700 lb and its right limit at 1,650 lb is 3 - 150/200 = 2.25 in."""
     aircraft = simple_aircraft(

@@ -232,7 +232,7 @@ def _notched_lateral_aircraft():
 def test_regression_a_burn_path_leaving_a_lateral_envelope_was_told_in_fore_and_aft_words_only():
     """The finding said "the CG leaves the envelope ... CG 40.00 in" where the path leaves the lateral
     envelope: it named no envelope and gave no lateral CG, so a pilot could not tell which limit or
-    which way. Worked by hand with the moment method (FAA-H-8083-1B, ch. 2; lateral CG likewise, ch. 7),
+    which way. Worked by hand with the moment method (FAA-H-8083-1B, ch. 2; lateral CG likewise, ch. 7, from memory),
     avgas at 6.0 lb/US gal (common practice): with f lb of fuel on board the weight is W = 1,200 + f and
     the lateral moment 2,000 - 10 f, so the lateral CG is (14,000 - 10 W) / W. It meets the notch's upper
     edge x = (W - 1,350) / 50 where W^2 - 850 W - 700,000 = 0 and its lower edge x = (1,350 - W) / 50
