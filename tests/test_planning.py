@@ -647,3 +647,33 @@ def test_a_shift_to_a_target_arm_between_stations_side_by_side_is_refused_in_wor
     assert "does not move the CG" not in str(refused.value)
     with pytest.raises(InputError, match="left is also the source"):
         P.weight_shift(aircraft, loading, "left", "left")
+
+
+@pytest.mark.parametrize(
+    ("path", "source", "target", "arm", "condition"),
+    [
+        ("tandem2/aft_heavy.toml", "rear", "ballast", 430.0, "landing"),  # a target on the aft limit
+        ("trainer4/within.toml", "hold", "rear", 40.4799, "takeoff"),  # it needs all the hold holds
+    ],
+)
+def test_regression_a_target_shift_showed_a_rounded_amount_the_check_rejects(path, source, target, arm, condition):
+    """The amount a target shift gives is the amount its check was made of: shown 9.6 kg failed
+    the check (landing CG 430.09 mm aft of 430.00), and 33.1 lb was more than the 33.05 lb the
+    hold held. Weight-shift relation: FAA-H-8083-1B, chapter 2 (from memory)."""
+    inputs = load_check_inputs(sample(path))
+    shift = P.weight_shift(inputs.aircraft, inputs.loading, source, target, target_arm=arm, condition=condition)
+    if shift.feasible:
+        held = inputs.loading.stations.get(source, 0.0)
+        assert shift.answer <= held
+        moved = inputs.loading.but(
+            stations={
+                **inputs.loading.stations,
+                source: held - shift.answer,
+                target: inputs.loading.stations.get(target, 0.0) + shift.answer,
+            }
+        )
+        assert check_loading(inputs.aircraft, moved).ok and shift.check.ok
+        assert shift.answer == round(shift.answer, 1)  # the figure shown is the one checked
+        assert shift.answer_display.startswith(f"{shift.answer:,.1f} ")
+    else:
+        assert shift.answer is None
