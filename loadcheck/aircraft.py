@@ -32,7 +32,7 @@ from pydantic import (
 from .display import fmt
 from .envelope import AXES, Axis, EnvelopeShape, polygon_problem
 from .errors import Problem, UnitError, UnknownNameError, spelling_hint
-from .filemodel import FileModel
+from .filemodel import FileModel, Flag
 from .fuel import FuelGrade, default_density, density_problem, grade_name
 from .units import MAX_MAGNITUDE, ArmUnit, MassUnit, VolumeUnit, canonical_unit, convert, parse_quantity, unit_kind
 
@@ -257,7 +257,7 @@ class Station(_Model):
     max_weight: Mass | None = Field(None, ge=0, description="[mass unit]")
     min_weight: Mass | None = Field(None, ge=0, description="[mass unit]")
     seats: int | None = Field(None, ge=1, le=50, description="number of seats (seat stations), for the extreme checks")
-    controls: bool = Field(False, description="a pilot's seat: equipped with flight controls")
+    controls: Flag = Field(False, description="a pilot's seat: equipped with flight controls")
 
     @property
     def name(self) -> str:
@@ -485,7 +485,7 @@ class Aircraft(_Model):
     envelope: list[Annotated[Envelope, AfterValidator(_usable_polygon)]] = Field(min_length=1)
     history: list[HistoryEntry] = Field(default_factory=list)
     equipment: list[EquipmentItem] = Field(default_factory=list, description="installed equipment list")
-    rotorcraft: bool = Field(False, description="true for a helicopter or gyroplane (negligible-change rule)")
+    rotorcraft: Flag = Field(False, description="true for a helicopter or gyroplane (negligible-change rule)")
     standard_occupant_weight: Mass | None = Field(
         None, gt=0, description="weight per occupant for the extreme-loading checks [mass unit]"
     )

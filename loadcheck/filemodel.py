@@ -5,6 +5,8 @@
 - A TOML ``true``/``false`` where a number is expected is refused: pydantic would read
   ``true`` as 1.0, so ``arm = true`` would become an arm of 1 (fail closed: a value is used
   as given or refused, never guessed).
+- A yes/no field takes only a TOML ``true`` or ``false`` (:data:`Flag`): pydantic would read
+  ``1``, ``"yes"`` or ``"on"`` as true, a guess at what the user meant.
 """
 
 from __future__ import annotations
@@ -12,9 +14,12 @@ from __future__ import annotations
 import types
 from typing import Annotated, Any, Literal, Union, get_args, get_origin
 
-from pydantic import BaseModel, ConfigDict, model_validator
+from pydantic import BaseModel, ConfigDict, Strict, model_validator
 
-__all__ = ["FileModel"]
+__all__ = ["FileModel", "Flag"]
+
+Flag = Annotated[bool, Strict()]
+"""A yes/no field: ``true`` or ``false`` only, never a number or a text read as one."""
 
 
 def _takes_number(annotation: Any) -> bool:

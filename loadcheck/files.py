@@ -320,6 +320,8 @@ def problems_from_validation(error: ValidationError, model: type[BaseModel] | No
         expected = None
         if kind == "missing":
             message = "this field is required"
+        elif kind == "bool_type":  # a Flag given as a number or a text (loadcheck.filemodel.Flag)
+            message, expected = "a yes/no field", "true or false (a TOML boolean, unquoted)"
         elif kind == "extra_forbidden":
             loc = item.get("loc", ())
             new = RENAMED_KEYS.get(str(loc[-1])) if loc else None

@@ -24,7 +24,7 @@ from .aircraft import Aircraft, Arm, Mass, Volume
 from .caution import MECHANIC_CAUTION
 from .display import fmt
 from .errors import InputError, Problem, UnknownNameError
-from .filemodel import FileModel
+from .filemodel import FileModel, Flag
 from .results import Result
 from .words import beyond
 
@@ -116,7 +116,7 @@ class Readings(_Model):
     date: dt.date | None = None
     weighed_by: str | None = None
     note: str | None = None
-    keep_lateral_arm: bool = Field(False, description="no lateral readings: keep the current record's lateral CG")
+    keep_lateral_arm: Flag = Field(False, description="no lateral readings: keep the current record's lateral CG")
     geometry: Geometry | None = None
     point: list[WeighingPoint] = Field(min_length=1)
     on_board: list[ReadingItem] = Field(default_factory=list, description="aboard, not part of the empty weight")

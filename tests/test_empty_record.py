@@ -268,7 +268,11 @@ def test_a_lateral_envelope_needs_lateral_readings_or_an_explicit_statement(runn
     silent = runner.invoke(app, ["weigh", str(aircraft), str(readings), "--write", "--yes"])
     assert silent.exit_code == 2 and "lateral envelope" in silent.output and "keep_lateral_arm" in silent.output
     assert aircraft.read_bytes() == before
-    readings.write_text(readings.read_text().replace("format = 1\n", "format = 1\nkeep_lateral_arm = true\n"))
+    stated = readings.read_text()
+    readings.write_text(stated.replace("format = 1\n", 'format = 1\nkeep_lateral_arm = "yes"\n'))
+    guessed = runner.invoke(app, ["weigh", str(aircraft), str(readings)])  # a text is not a TOML true
+    assert guessed.exit_code == 2 and "keep_lateral_arm: a yes/no field; got 'yes'" in guessed.output
+    readings.write_text(stated.replace("format = 1\n", "format = 1\nkeep_lateral_arm = true\n"))
     kept = runner.invoke(app, ["weigh", str(aircraft), str(readings)])
     assert kept.exit_code == 0 and "the lateral CG was not measured" in kept.output and "0.40 in is kept" in kept.output
 

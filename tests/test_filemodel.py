@@ -4,6 +4,8 @@ is tests/test_regressions.py::test_true_where_a_number_belongs_is_refused."""
 
 from __future__ import annotations
 
+import pytest
+
 from .helpers import sample_data
 from .test_aircraft import _problems
 
@@ -47,3 +49,27 @@ def test_regression_a_boolean_for_a_number_was_named_by_its_table_alone_and_form
     assert "format" in _problems({**aircraft, "format": True})
     aircraft["station"][0]["arm"] = True
     assert "station[0].arm" in _problems(aircraft)
+
+
+@pytest.mark.parametrize("value", [1, 0, "yes", "true", "on", 1.0])
+def test_regression_a_yes_no_field_took_1_or_yes_for_true(value: object) -> None:
+    """``controls = 1`` and ``controls = "yes"`` were read as true (pydantic's lax mode reads 1,
+    "yes", "on" and "true" as a boolean): a guess at what the user meant. TOML v1.0.0 ("Boolean")
+    has true and false of their own; anything else in a yes/no field is refused, naming the field
+    and the value as given (fail closed, common practice)."""
+    aircraft = sample_data("tandem2/aircraft.toml")
+    aircraft["station"][0]["controls"] = value
+    said = _problems(aircraft)
+    assert f"station[0].controls: a yes/no field; got {value!r}" in said and "true or false" in said
+    aircraft = sample_data("heli2/aircraft.toml")
+    aircraft["rotorcraft"] = value
+    assert f"rotorcraft: a yes/no field; got {value!r}" in _problems(aircraft)
+
+
+def test_a_yes_no_field_takes_true_and_false() -> None:
+    from loadcheck.files import parse_aircraft
+
+    aircraft = sample_data("tandem2/aircraft.toml")
+    for value in (True, False):
+        aircraft["station"][0]["controls"] = value
+        assert parse_aircraft(aircraft).station[0].controls is value
