@@ -27,6 +27,7 @@ from __future__ import annotations
 
 import datetime as dt
 import hashlib
+from collections.abc import Callable
 from dataclasses import dataclass, field
 from functools import cached_property
 from pathlib import Path
@@ -242,14 +243,14 @@ def propose(aircraft_path: str | Path, source_path: str | Path, kind: Kind) -> P
 
     aircraft_path, source_path = Path(aircraft_path), Path(source_path)
     aircraft, original = load_aircraft_for_update(aircraft_path)
+    from .alterations import alter
+    from .weighing import weigh
+
+    compute: Callable[[Aircraft, Any], Result]
     if kind == "weighing":
-        from .weighing import weigh as compute
-
-        parsed = load_readings(source_path, aircraft)
+        compute, parsed = weigh, load_readings(source_path, aircraft)
     else:
-        from .alterations import alter as compute  # type: ignore[assignment]
-
-        parsed = load_changes(source_path, aircraft)
+        compute, parsed = alter, load_changes(source_path, aircraft)
     try:
         result = compute(aircraft, parsed)
     except LoadcheckError as error:

@@ -11,6 +11,7 @@ import os
 import re
 import sys
 import types
+from collections.abc import Callable
 
 _START_UP_OBJECTS = 100_000
 """Objects a command may create before the cycle collector's first pass (start-up: the
@@ -118,16 +119,16 @@ def _plain_argument_help() -> None:
             name = name if self.required else f"[{name}]"
             return name + ("..." if self.nargs != 1 else "")
 
-        argument._usage_display_name = usage  # type: ignore[method-assign]
+        _replace(argument, _usage_display_name=usage)
     if hasattr(argument, "display_type_rich"):
-        argument.display_type_rich = lambda self, ctx: None  # type: ignore[method-assign]
+        _replace(argument, display_type_rich=lambda self, ctx: None)
     option = typer.core.TyperOption
     shown = option.display_type_rich if hasattr(option, "display_type_rich") else None
     if shown is not None:
         words = {"str": "TEXT", "int": "INTEGER", "float": "NUMBER", "path": "PATH"}
 
-        def option_type(self: typer.core.TyperOption, ctx: object) -> str | None:
-            text = shown(self, ctx)  # type: ignore[arg-type]
+        def option_type(self: typer.core.TyperOption, ctx: typer.Context) -> str | None:
+            text = shown(self, ctx)
             if self.metavar is not None or text is None:
                 return text
             match = re.fullmatch(
@@ -135,7 +136,14 @@ def _plain_argument_help() -> None:
             )  # '<path>', '<list[str]>' as 'PATH', 'TEXT'
             return text if match is None else words.get(match.group(1), match.group(1).upper())
 
-        option.display_type_rich = option_type  # type: ignore[method-assign]
+        _replace(option, display_type_rich=option_type)
+
+
+def _replace(cls: type, **methods: Callable[..., object]) -> None:
+    """Put ``methods`` in place of a typer class's own (help display only: typer offers no hook for
+    it; :func:`_plain_argument_help` checks that each exists first)."""
+    for name, method in methods.items():
+        setattr(cls, name, method)
 
 
 _plain_argument_help()

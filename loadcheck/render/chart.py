@@ -33,6 +33,7 @@ from ..results import CheckResult
 
 if TYPE_CHECKING:
     from matplotlib.axes import Axes
+    from matplotlib.backends.backend_agg import FigureCanvasAgg, RendererAgg
     from matplotlib.figure import Figure
 
 __all__ = [
@@ -188,11 +189,13 @@ def _limit_name(ax: Axes, words: str, value: float, code: str, vertical: bool, s
     )
 
 
-def _spread_limit_names(ax: Axes, vertical: bool, renderer: Any) -> None:
+def _spread_limit_names(ax: Axes, vertical: bool, renderer: RendererAgg) -> None:
     """Move apart, along the frame, the names of weight limits that lie close together."""
+    from matplotlib.text import Annotation
+
     names = sorted(
-        (t for t in ax.texts if (t.get_gid() or "").startswith("limitname-")),
-        key=lambda t: t.xy[0] if vertical else t.xy[1],  # type: ignore[attr-defined]
+        (t for t in ax.texts if isinstance(t, Annotation) and (t.get_gid() or "").startswith("limitname-")),
+        key=lambda t: t.xy[0] if vertical else t.xy[1],
     )
     scale = ax.figure.dpi / 72.0
     previous_end: float | None = None
@@ -201,7 +204,7 @@ def _spread_limit_names(ax: Axes, vertical: bool, renderer: Any) -> None:
         start, end = (box.x0, box.x1) if vertical else (box.y0, box.y1)
         shift = 0.0 if previous_end is None else max(0.0, previous_end + 1.5 - start)
         if shift:
-            value = text.xy[0] if vertical else text.xy[1]  # type: ignore[attr-defined]
+            value = text.xy[0] if vertical else text.xy[1]
             words, gid = text.get_text(), text.get_gid() or ""
             text.remove()
             text = _limit_name(ax, words, value, gid, vertical, shift / scale)
@@ -297,7 +300,7 @@ def _inside(box: Any, frame: Any, pad: float = 2.0) -> bool:
 
 
 def _place(
-    figure: Figure,
+    canvas: FigureCanvasAgg,
     ax: Axes,
     labels: Sequence[_Label],
     limits: Sequence[tuple[float, str, str]],
@@ -310,9 +313,9 @@ def _place(
     from matplotlib.text import Text
     from matplotlib.transforms import Bbox
 
-    renderer = figure.canvas.get_renderer()  # type: ignore[attr-defined]
+    renderer = canvas.get_renderer()
     frame = ax.get_window_extent(renderer)
-    scale = figure.dpi / 72.0
+    scale = canvas.figure.dpi / 72.0
     markers = []
     for label in labels:
         px, py = ax.transData.transform(label.point)
@@ -401,7 +404,7 @@ def _figure(aircraft: Aircraft, category: str, title: str, result: CheckResult |
         raise InputError(Problem("category", f"no envelope for category {category!r}"))
     width, height = (4.6, 3.6) if compact else (6.4, 5.6)  # [in]
     figure = Figure(figsize=(width * len(panels), height), layout="constrained")
-    FigureCanvasAgg(figure)  # measures text, to place the labels
+    canvas = FigureCanvasAgg(figure)  # measures text, to place the labels
     placing = []
     for index, panel in enumerate(panels):
         ax = figure.add_subplot(1, len(panels), index + 1)
@@ -423,7 +426,7 @@ def _figure(aircraft: Aircraft, category: str, title: str, result: CheckResult |
     figure.draw_without_rendering()  # lay out once, then keep that layout while labels are placed
     figure.set_layout_engine("none")
     for ax, labels, limits, vertical, tag in placing:
-        _place(figure, ax, labels, limits, vertical, tag)
+        _place(canvas, ax, labels, limits, vertical, tag)
     return figure
 
 
