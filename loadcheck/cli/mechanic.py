@@ -4,9 +4,8 @@ from __future__ import annotations
 
 import json
 import sys
-from collections.abc import Callable
 from pathlib import Path
-from typing import Annotated, Any, Literal
+from typing import Annotated, Literal
 
 import typer
 
@@ -61,7 +60,6 @@ def _new_empty_weight(
     aircraft: Path,
     source: Path,
     kind: Literal["weighing", "alteration"],
-    render: Callable[[Any, Any, Any], None],
     write: bool,
     yes: bool,
     force: bool,
@@ -86,6 +84,9 @@ def _new_empty_weight(
     if json_out:
         typer.echo(json.dumps(proposal.to_dict(), indent=2))
     else:
+        from ..render.terminal import render_alteration, render_weighing
+
+        render = render_weighing if kind == "weighing" else render_alteration
         render(proposal.result, proposal.aircraft.units, _console())
     if not write:
         raise typer.Exit(EXIT_OK)
@@ -151,9 +152,7 @@ def weigh(
         sample_aircraft/trainer4/aircraft.toml \\
         sample_aircraft/trainer4/weighing.toml
     """
-    from ..render.terminal import render_weighing
-
-    _new_empty_weight(aircraft, readings, "weighing", render_weighing, write, yes, force, by, why, sheet, json_out)
+    _new_empty_weight(aircraft, readings, "weighing", write, yes, force, by, why, sheet, json_out)
 
 
 @app.command(short_help="Empty weight after equipment changes.")
@@ -183,9 +182,7 @@ def alter(
         sample_aircraft/trainer4/aircraft.toml \\
         sample_aircraft/trainer4/changes.toml
     """
-    from ..render.terminal import render_alteration
-
-    _new_empty_weight(aircraft, changes, "alteration", render_alteration, write, yes, force, by, why, sheet, json_out)
+    _new_empty_weight(aircraft, changes, "alteration", write, yes, force, by, why, sheet, json_out)
 
 
 @app.command(short_help="The empty-weight records, oldest first.")

@@ -38,6 +38,7 @@ from .common import (
 if TYPE_CHECKING:
     from ..files import CheckInputs
     from ..loading import ResolvedTrip
+    from ..planning import PlanResult
     from ..results import CheckResult, ConditionName, TripResult
 
 LegLoadOpt = Annotated[
@@ -64,11 +65,11 @@ LegBurnOpt = Annotated[
 ]
 
 
-def _legs(leg_load: list[str], leg_fuel: list[str], leg_burn: list[str]) -> dict[int, Any]:
+def _legs(leg_load: list[str], leg_fuel: list[str], leg_burn: list[str]) -> dict[int, dict[str, dict[str, Any]]]:
     """The legs' options as loading-file values (loadcheck.loading.leg_assignments)."""
     from ..loading import leg_assignments
 
-    legs: dict[int, Any] = {}
+    legs: dict[int, dict[str, dict[str, Any]]] = {}
     for option, values in (("--leg-load", leg_load), ("--leg-fuel", leg_fuel), ("--leg-burn", leg_burn)):
         for number, tables in leg_assignments(option, values).items():
             legs.setdefault(number, {}).update(tables)
@@ -382,11 +383,13 @@ def _fill(fill: str | None) -> list[str] | None:
     return None if fill is None else tank_list(fill, f"--fill {shlex.quote(fill)}", with_value=False)
 
 
-def _answer(result: Any, json_out: bool) -> None:
+def _answer(result: PlanResult, json_out: bool) -> None:
     """Print a planning answer (a trip's too) and exit with its verdict."""
+    from ..trip import TripPlan
+
     if json_out:
         typer.echo(result.to_json())
-    elif hasattr(result, "trip"):
+    elif isinstance(result, TripPlan):
         from ..render.trip import render_trip_plan
 
         render_trip_plan(result, _console())

@@ -15,10 +15,13 @@ import re
 import threading
 from dataclasses import dataclass
 from pathlib import Path
-from typing import Any, Literal, get_args
+from typing import TYPE_CHECKING, Any, Literal, get_args
 
 from ..errors import FileFormatError, InputError, Problem
 from ..userdata import default_users_path  # the accounts file's default place, beside the check log's
+
+if TYPE_CHECKING:
+    from argon2 import PasswordHasher
 
 __all__ = ["MIN_PASSWORD", "ROLES", "Account", "Role", "UserStore", "default_users_path"]
 
@@ -43,7 +46,7 @@ class Account:
         return role in self.roles
 
 
-def _hasher() -> Any:
+def _hasher() -> PasswordHasher:
     from argon2 import PasswordHasher
 
     return PasswordHasher()
@@ -60,7 +63,7 @@ class UserStore:
         parameters it was made with
     """
 
-    def __init__(self, path: str | Path, hasher: Any = None):
+    def __init__(self, path: str | Path, hasher: PasswordHasher | None = None):
         self.path = Path(path)
         self._dummy: str | None = None
         self._made_with = hasher
