@@ -12,9 +12,10 @@
 from __future__ import annotations
 
 import types
-from typing import Annotated, Any, Literal, Union, get_args, get_origin
+from typing import Annotated, Any, Literal, Self, Union, get_args, get_origin
 
-from pydantic import BaseModel, ConfigDict, Strict, model_validator
+from pydantic import BaseModel, ConfigDict, ModelWrapValidatorHandler, Strict, ValidationError, model_validator
+from pydantic_core import InitErrorDetails, PydanticCustomError
 
 __all__ = ["FileModel", "Flag"]
 
@@ -40,10 +41,10 @@ def _takes_number(annotation: Any) -> bool:
     return False
 
 
-def _boolean_places(annotation: Any, value: Any, place: str) -> list[str]:
+def _boolean_places(annotation: Any, value: Any, place: tuple[str | int, ...]) -> list[tuple[str | int, ...]]:
     """Where ``value`` (at ``place``) holds a boolean at a place ``annotation`` wants a number, as
-    the user reads them: ``load.front``, ``points[0][1]``. A table of another file model is left to
-    that model's own check, which pydantic places (``burn``, ``station[2]``)."""
+    pydantic locates errors: ``("load", "front")``, ``("points", 0, 1)``. A table of another file
+    model is left to that model's own check, which pydantic places (``burn``, ``station[2]``)."""
     if isinstance(value, bool):
         return [place] if _takes_number(annotation) else []
     origin = get_origin(annotation)
@@ -61,11 +62,11 @@ def _boolean_places(annotation: Any, value: Any, place: str) -> list[str]:
         return [
             found
             for i, v in enumerate(value)
-            for found in _boolean_places(args[i] if i < len(args) else args[-1], v, f"{place}[{i}]")
+            for found in _boolean_places(args[i] if i < len(args) else args[-1], v, (*place, i))
         ]
     if isinstance(value, dict) and origin is dict:
         inner = get_args(annotation)[1] if len(get_args(annotation)) == 2 else Any
-        return [found for k, v in value.items() for found in _boolean_places(inner, v, f"{place}.{k}")]
+        return [found for k, v in value.items() for found in _boolean_places(inner, v, (*place, k))]
     return []
 
 
@@ -95,22 +96,50 @@ class FileModel(BaseModel):
 
     model_config = ConfigDict(extra="forbid", frozen=True, allow_inf_nan=False)
 
-    @model_validator(mode="before")
+    @model_validator(mode="wrap")
     @classmethod
-    def _no_booleans_for_numbers(cls, data: Any) -> Any:
-        if isinstance(data, dict) and _holds_boolean(data):  # no true/false anywhere: none where a number goes
-            bad = cls.boolean_places(data)
-            if bad:  # a line per place: each is its own problem (loadcheck.files.problems_from_validation)
-                raise ValueError("\n".join(f"{place}: expected a number, got true or false" for place in bad))
-        return data
+    def _no_booleans_for_numbers(cls, data: Any, handler: ModelWrapValidatorHandler[Self]) -> Self:
+        """Refuse a boolean where a number goes, beside every other problem of the table (one
+        pass: the user sees them all at once, not one stage after another)."""
+        if not (isinstance(data, dict) and _holds_boolean(data)):  # no true/false anywhere: none where a number goes
+            return handler(data)
+        bad = cls.boolean_places(data)
+        if not bad:
+            return handler(data)
+        errors: list[InitErrorDetails] = [
+            {"type": _BOOLEAN_FOR_NUMBER, "loc": place, "input": _at(data, place)} for place in bad
+        ]
+        try:
+            handler(data)
+        except ValidationError as refused:  # the table's other problems, as pydantic found them
+            errors += [
+                {
+                    "type": PydanticCustomError(e["type"], e["msg"].replace("{", "{{").replace("}", "}}")),
+                    "loc": e["loc"],
+                    "input": e["input"],
+                }
+                for e in refused.errors(include_url=False)
+                if e["loc"] not in bad  # a boolean's place: said once, in the words above
+            ]
+        raise ValidationError.from_exception_data(cls.__name__, errors)
 
     @classmethod
-    def boolean_places(cls, data: dict[str, Any]) -> list[str]:
+    def boolean_places(cls, data: dict[str, Any]) -> list[tuple[str | int, ...]]:
         """Every place of ``data`` (a table of this model) where a boolean stands for a number
-        (``format``, ``load.front``)."""
+        (``("format",)``, ``("load", "front")``)."""
         return [
             found
             for name, field in cls.model_fields.items()
             if (key := field.alias or name) in data
-            for found in _boolean_places(field.annotation, data[key], key)
+            for found in _boolean_places(field.annotation, data[key], (key,))
         ]
+
+
+_BOOLEAN_FOR_NUMBER = PydanticCustomError("boolean_for_number", "expected a number, got true or false")
+
+
+def _at(data: Any, place: tuple[str | int, ...]) -> Any:
+    """The value of ``data`` at ``place`` (a path of keys and indexes)."""
+    for key in place:
+        data = data[key]
+    return data

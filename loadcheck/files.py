@@ -344,7 +344,7 @@ def problems_from_validation(error: ValidationError, model: type[BaseModel] | No
                 inner = tuple(int(p) if p.isdigit() else p for p in re.findall(r"[^.\[\]]+", match.group(1)))
                 problems.append(Problem(_field_path(loc + inner) if loc else match.group(1), match.group(2)))
             continue
-        value = item.get("input") if kind not in ("missing", "model_type", "dict_type") else None
+        value = item.get("input") if kind not in ("missing", "model_type", "dict_type", "boolean_for_number") else None
         problems.append(Problem(field, message, None if isinstance(value, (dict, list)) else value, expected))
     return problems
 

@@ -44,11 +44,27 @@ def test_regression_a_boolean_for_a_number_was_named_by_its_table_alone_and_form
         ("burn.taxi", expected),
         ("burn.trip", expected),
     ]
-    assert _loading_problems({**base, "leg": [{"load": {"front": False}}]}) == [("leg 2, load.front", expected)]
+    assert _loading_problems({**base, "leg": [{"load": {"front": False}}]}) == [
+        ("leg 2, load.front", expected),
+        ("leg 2, burn", "this field is required"),  # said beside it (below: no stages)
+    ]
     aircraft = sample_data("trainer4/aircraft.toml")
     assert "format" in _problems({**aircraft, "format": True})
     aircraft["station"][0]["arm"] = True
     assert "station[0].arm" in _problems(aircraft)
+
+
+def test_regression_a_boolean_for_a_number_hid_every_other_problem_of_the_file() -> None:
+    """``format = true`` beside ``[burn] reserve = true`` and ``taxi = "abc"`` said only "format:
+    ...": the true/false rule refused the file before its fields were read, so the user fixed one
+    problem to be shown the next. Every problem of the file is now said at once, each once."""
+    expected = "expected a number, got true or false"
+    said = _loading_problems(
+        {"format": True, "load": {"front": True}, "fuel": {"mains": 20.0}, "burn": {"reserve": True, "taxi": "abc"}}
+    )
+    assert said[:3] == [("format", expected), ("load.front", expected), ("burn.reserve", expected)]
+    assert [field for field, _ in said] == ["format", "load.front", "burn.reserve", "burn.taxi"]
+    assert "cannot read 'abc' as a number" in said[3][1]
 
 
 @pytest.mark.parametrize("value", [1, 0, "yes", "true", "on", 1.0])
