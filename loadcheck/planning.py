@@ -753,6 +753,7 @@ def _limit_states(result: Evaluation) -> np.ndarray:
 
 
 _MAX_RUNS = 8  # stretches of one set of limits exceeded named in a shift that no amount brings within limits
+_MAX_STATES = 4 * _MAX_RUNS  # stretches of one set of verdicts looked at (a full check each) to find them
 
 
 def _exceeded_along(
@@ -769,27 +770,38 @@ def _exceeded_along(
 
     The engine gives every limit's verdict on the search's grid; each stretch of one set of verdicts
     is named by the full check (:func:`~loadcheck.check.check_loading`) of the loading at its middle.
-    None where the verdicts change more than a few times along the way (the loading's own check and
-    the one with all of it moved then say what is exceeded).
+    Where that makes more than a few stretches, each limit is named once whatever the condition
+    ("left limit; maximum of bag_right"), joining the stretches it makes alike. None where the
+    stretches are still too many (the loading's own check and the one with all of it moved then say
+    what is exceeded).
     """
     count = int(min(_MAX_GRID, max(3, np.ceil(top / _GRID_STEP) + 1)))
     xs = np.linspace(0.0, top, count)
     states = _limit_states(ok_rows(xs))
     changes = np.nonzero(np.any(states[1:] != states[:-1], axis=1))[0]
-    if len(changes) + 1 > _MAX_RUNS:
+    if len(changes) + 1 > _MAX_STATES:
         return None
     starts = np.concatenate([[0], changes + 1])
     ends = np.concatenate([changes, [count - 1]])
-    runs: list[tuple[float, float, str]] = []
+    fine: list[tuple[float, float, str]] = []  # each limit with its amount and condition
+    coarse: list[tuple[float, float, str]] = []  # each limit once, whatever the condition
     for first, last in zip(starts, ends, strict=True):
         try:
-            words = binding_limits(check_loading(aircraft, at(float(xs[(first + last) // 2]))).findings)
+            findings = check_loading(aircraft, at(float(xs[(first + last) // 2]))).findings
+            words = (
+                binding_limits(findings),
+                binding_limits(findings, lambda f: limit_words(replace(f, condition=None))),
+            )
         except LoadcheckError as error:
-            words = "; ".join(p.message for p in error.problems)
-        if runs and runs[-1][2] == words:
-            runs[-1] = (runs[-1][0], float(xs[last]), words)
-        else:
-            runs.append((float(xs[first]), float(xs[last]), words))
+            words = ("; ".join(p.message for p in error.problems),) * 2
+        for runs, said in zip((fine, coarse), words, strict=True):
+            if runs and runs[-1][2] == said:
+                runs[-1] = (runs[-1][0], float(xs[last]), said)
+            else:
+                runs.append((float(xs[first]), float(xs[last]), said))
+    runs = fine if len(fine) <= _MAX_RUNS else coarse
+    if len(runs) > _MAX_RUNS:
+        return None
     if len(runs) == 1:
         return f"moving any amount up to all {fmt(top, unit)}: {runs[0][2]}"
     return ". ".join(

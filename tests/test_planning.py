@@ -609,6 +609,44 @@ def test_a_shift_no_amount_of_which_is_within_limits_names_what_each_amount_exce
     )
 
 
+def test_regression_a_shift_with_many_stretches_named_only_what_moving_all_of_it_exceeds():
+    """heli2 heavy_left, left -> bag_right: "limited by" named the locker's maximum alone (the check of
+    all 245 lb moved), not the lateral and aft limits that make every amount fail, because the limits'
+    verdicts changed ten times along the move. With more stretches than are named one by one, each limit
+    is now named once whatever the condition, the stretches it makes alike joined.
+
+    Worked by hand (weight moved = total weight x CG change / distance moved, FAA-H-8083-1B chapter 2,
+    weight shift, from memory, along the lateral axis; avgas 6.0 lb/US gal, common practice): the
+    side-by-side aircraft above with 250 lb in the left seat (minimum 100 lb), the right seat's maximum
+    30 lb and 30 gal (180 lb) at lateral arm -5 in, taxi 5 gal and trip 20 gal: ramp 1,430 lb, lateral
+    moment -2,500 - 900 = -3,400 in-lb, so the ramp CG reaches the left limit -1.0 in at (3,400 - 1,430)
+    / 20 = 98.5 lb moved (takeoff: (3,250 - 1,400) / 20 = 92.5 lb; landing: (2,650 - 1,280) / 20 =
+    68.5 lb); the landing CG reaches the right limit +1.0 in at (1,280 + 2,650) / 20 = 196.5 lb; more than
+    150 lb moved leaves less than the left seat's minimum. Eight stretches of limits with their amounts
+    (ramp, takeoff and landing part ways), five of limits named once."""
+    aircraft, _ = _side_by_side(right_max=30.0)
+    seats = [
+        {**s.model_dump(exclude_none=True), "min_weight": 100.0} if s.id == "left" else s.model_dump(exclude_none=True)
+        for s in aircraft.station
+        if s.id != "aft_left"
+    ]
+    tank = [{**aircraft.tank[0].model_dump(exclude_none=True), "lateral_arm": -5.0}]
+    data = {**aircraft.model_dump(mode="json", exclude_none=True), "station": seats, "tank": tank}
+    aircraft = parse_aircraft(data)
+    loading = resolve_loading(Loading(load={"left": 250}, fuel={"main": 30}, burn={"taxi": 5, "trip": 20}), aircraft)
+    answer = P.weight_shift(aircraft, loading, "left", "right")
+    assert not answer.feasible
+    assert answer.governing == (
+        "moving 0.0 to 30.0 lb: left limit. Moving 30.1 to 98.4 lb: left limit; maximum of right. "
+        "Moving 98.5 to 150.0 lb: maximum of right. Moving 150.1 to 196.5 lb: minimum of left; maximum of right. "
+        "Moving 196.6 to 250.0 lb: right limit; minimum of left; maximum of right"
+    )
+    heli = load_check_inputs(sample("heli2/heavy_left.toml"))
+    said = P.weight_shift(heli.aircraft, heli.loading, "left", "bag_right").governing or ""
+    assert said.startswith("moving 0.0 to ") and "left limit at ramp" in said and "aft limit at ramp" in said
+    assert "maximum of bag_right 35.0 lb" in said
+
+
 def test_a_shift_between_stations_at_one_arm_and_lateral_arm_moves_neither_cg():
     """Two stations at arm 35 in, no lateral arms: moving weight moves neither CG, only the stations' loads.
     200 lb in a seat of maximum 150 lb: 200 - 150 = 50.0 lb moved to the other seat brings it within
