@@ -313,6 +313,15 @@ def _fill_order(aircraft: Aircraft, loading: ResolvedLoading, fill: Sequence[str
                     "fill", f"unknown tank(s) {', '.join(unknown)}", expected="one of " + ", ".join(aircraft.tank_by_id)
                 )
             )
+        repeated = sorted({t for t in fill if list(fill).count(t) > 1})
+        if repeated:  # a tank filled twice would count its fuel twice
+            raise InputError(
+                Problem(
+                    "fill",
+                    f"tank(s) named twice in the fill order: {', '.join(repeated)}",
+                    expected="each tank once, e.g. " + ",".join(aircraft.tank_by_id),
+                )
+            )
         return list(fill)
     if loading.plan.order is None:
         return None
@@ -336,7 +345,12 @@ def fill_words(aircraft: Aircraft, order: Sequence[str] | None, fill: Sequence[s
         return None
     if order is None:
         return "every tank in proportion to its capacity (the tanks burn together)"
-    return ", then ".join(order) + (" (as asked)" if fill is not None else " (the reverse of the burn order)")
+    kept = [t.id for t in aircraft.tank if t.id not in order]
+    return (
+        ", then ".join(order)
+        + (" (as asked)" if fill is not None else " (the reverse of the burn order)")
+        + (f"; {', '.join(kept)} as loaded" if kept else "")
+    )
 
 
 def _with_fill(result: PlanResult, words: str | None) -> PlanResult:
@@ -345,7 +359,8 @@ def _with_fill(result: PlanResult, words: str | None) -> PlanResult:
 
 
 def _distribute(aircraft: Aircraft, base: LoadingArrays, fill: list[str] | None, totals: np.ndarray) -> np.ndarray:
-    """Fuel per tank (N, T) for total ramp fuel values, in the fill order."""
+    """Fuel per tank (N, T) for total ramp fuel values [fuel volume unit]: the tanks of the fill
+    order filled in turn with what the tanks left out of it do not already hold (as loaded)."""
     usable = np.array([t.usable for t in aircraft.tank])
     ids = [t.id for t in aircraft.tank]
     out = np.tile(base.fuel, (len(totals), 1))
@@ -353,7 +368,7 @@ def _distribute(aircraft: Aircraft, base: LoadingArrays, fill: list[str] | None,
         if usable.size:
             out[:] = np.minimum(totals[:, None] / usable.sum(), 1.0) * usable
         return out
-    remaining = totals.copy()
+    remaining = totals - _fuel_range(aircraft, base, fill)[0]
     for tank in fill:
         index = ids.index(tank)
         take = np.clip(remaining, 0.0, usable[index])
@@ -362,9 +377,13 @@ def _distribute(aircraft: Aircraft, base: LoadingArrays, fill: list[str] | None,
     return out
 
 
-def _fuel_capacity(aircraft: Aircraft, fill: list[str] | None) -> float:
-    tanks = aircraft.tank if fill is None else [aircraft.tank_by_id[t] for t in fill]
-    return sum(t.usable for t in tanks)
+def _fuel_range(aircraft: Aircraft, base: LoadingArrays, fill: list[str] | None) -> tuple[float, float]:
+    """The least and most ramp fuel a fill order can give [fuel volume unit]: the fuel of the tanks
+    left out of it, as loaded, and that with every tank of the order full."""
+    if fill is None:
+        return 0.0, sum(t.usable for t in aircraft.tank)
+    kept = sum(float(base.fuel[i]) for i, t in enumerate(aircraft.tank) if t.id not in fill)
+    return kept, kept + sum(aircraft.tank_by_id[t].usable for t in fill)
 
 
 def _fuel_loading(
@@ -482,7 +501,7 @@ def most_fuel(
     """
     order = _fill_order(aircraft, loading, fill)
     base = loading_arrays(aircraft, loading)
-    capacity = _fuel_capacity(aircraft, order)
+    least, capacity = _fuel_range(aircraft, base, order)
     step = _GRID_STEP / _mean_density(aircraft, loading)
 
     def ok(x: np.ndarray, reserve: float | None = loading.reserve) -> np.ndarray:
@@ -492,12 +511,12 @@ def most_fuel(
         trip = np.maximum(0.0, x - burn_to)
         return _ok(evaluate_arrays(aircraft, base, fuel=fuel, taxi=np.zeros(len(x)), trip=trip), reserve)
 
-    pairs = feasible_intervals(ok, 0.0, capacity, step) if aircraft.tank else []
+    pairs = feasible_intervals(ok, least, capacity, step) if aircraft.tank else []
 
     def why_not() -> str:
         if not aircraft.tank:
             return "this aircraft has no fuel tanks"
-        within = loading.reserve is not None and bool(feasible_intervals(lambda x: ok(x, None), 0.0, capacity, step))
+        within = loading.reserve is not None and bool(feasible_intervals(lambda x: ok(x, None), least, capacity, step))
         return _why_not_fuel(aircraft, loading, within)
 
     unit = aircraft.units.fuel_volume

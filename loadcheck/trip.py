@@ -40,7 +40,7 @@ from .planning import (
     PlanResult,
     _distribute,
     _fill_order,
-    _fuel_capacity,
+    _fuel_range,
     _mean_density,
     binding_limits,
     feasible_intervals,
@@ -313,7 +313,7 @@ def trip_most_fuel(
     first = resolved.legs[0]
     order = _fill_order(aircraft, first, fill)
     base = loading_arrays(aircraft, first)
-    capacity = _fuel_capacity(aircraft, order)
+    least, capacity = _fuel_range(aircraft, base, order)
     step = _GRID_STEP / _mean_density(aircraft, first)
     ids = [t.id for t in aircraft.tank]
 
@@ -323,7 +323,7 @@ def trip_most_fuel(
 
     pairs = (
         feasible_intervals(
-            lambda x: _legs_ok(aircraft, resolved, 0, _distribute(aircraft, base, order, x)), 0.0, capacity, step
+            lambda x: _legs_ok(aircraft, resolved, 0, _distribute(aircraft, base, order, x)), least, capacity, step
         )
         if ids
         else []

@@ -715,3 +715,46 @@ def test_regression_a_target_shift_showed_a_rounded_amount_the_check_rejects(pat
         assert shift.answer_display.startswith(f"{shift.answer:,.1f} ")
     else:
         assert shift.answer is None
+
+
+# -- the fill order of a fuel answer ------------------------------------------------------------------
+
+
+def test_regression_a_tank_named_twice_in_the_fill_order_counted_its_fuel_twice(runner):
+    """An outside trial: ``plan fuel within.toml --fill mains,mains`` answered 78.3 US gal "within limits"
+    (the aircraft holds 56 usable) while the loading it checked held 34.3: the tank was filled twice
+    over. A tank named twice is refused, as it is in a burn order (fail closed, common practice)."""
+    inputs = load_check_inputs(sample("trainer4/within.toml"))
+    with pytest.raises(InputError, match="tank\\(s\\) named twice in the fill order: mains"):
+        P.most_fuel(inputs.aircraft, inputs.loading, fill=["mains", "mains"])
+    for command in (["plan", "fuel"], ["plan", "trip", "--rate", "8"], ["plan", "table", "--station", "hold"]):
+        said = runner.invoke(app, [*command, str(sample("trainer4/within.toml")), "--fill", "mains,mains"])
+        assert said.exit_code == 2 and "named twice in the fill order" in said.output
+
+
+@pytest.mark.parametrize("fill", [None, ["centre"], ["mains"], ["centre", "mains"], ["mains", "centre"]])
+def test_regression_a_fill_of_some_tanks_answered_their_fuel_as_the_ramp_fuel(fill):
+    """``plan fuel within.toml --fill centre`` said "ramp fuel: 4.3 usgal" beside a check whose ramp fuel
+    was 34.3 (the mains keep the loading's 30.0 US gal): the figure was the centre tank's alone. The ramp
+    fuel of a fuel answer is the fuel at engine start of the loading it checked, whatever the fill order;
+    the tanks left out of the order keep their fuel as loaded, so no less than it is offered.
+
+    Worked by hand: the answer is limited by the maximum takeoff weight 2,450 lb (the aircraft file),
+    so ramp fuel = (2,450 lb + taxi 1.2 US gal x 6.0 lb/US gal - zero-fuel weight) / 6.0 lb/US gal
+    (avgas 6.0 lb/US gal, common practice; FAA-H-8083-1B chapter 2 sums weights this way)."""
+    inputs = load_check_inputs(sample("trainer4/within.toml"))
+    answer = P.most_fuel(inputs.aircraft, inputs.loading, fill=fill)
+    assert answer.feasible and answer.check is not None and answer.check.ok and answer.answer is not None
+    ramp = answer.check.condition("ramp")
+    assert f"{ramp.fuel:.1f} usgal" == answer.answer_display  # the figure shown is the loading checked
+    zero_fuel = answer.check.condition("zero_fuel").weight
+    if fill is None or "centre" in fill:  # room left in a tank of the order: the weight limit decides
+        assert answer.answer == pytest.approx((2450 + 1.2 * 6.0 - zero_fuel) / 6.0, abs=P.MASS_TOLERANCE / 6.0)
+    kept = 30.0 if fill == ["centre"] else 0.0  # the mains' school fill, as loaded
+    # no less than what lands with the reserve: taxi 1.2 + trip 18 + reserve 8 = 27.2 US gal
+    assert answer.intervals[0].low == pytest.approx(max(kept, 1.2 + 18 + 8), abs=0.05)
+    if fill == ["centre"]:
+        assert answer.extra["fill order"] == "centre (as asked); mains as loaded"
+        trip = P.longest_trip(inputs.aircraft, inputs.loading, rate=8.0, fill=fill)
+        assert trip.check is not None and trip.extra["ramp fuel"] == answer.answer_display
+        assert trip.check.condition("ramp").fuel == pytest.approx(ramp.fuel, abs=0.05)
