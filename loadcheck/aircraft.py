@@ -280,6 +280,14 @@ class StationGroup(_Model):
     max_weight: Mass | None = Field(None, ge=0, description="[mass unit]")
     min_weight: Mass | None = Field(None, ge=0, description="[mass unit]")
 
+    @field_validator("stations")
+    @classmethod
+    def _each_once(cls, value: list[str]) -> list[str]:
+        repeated = sorted({s for s in value if value.count(s) > 1})
+        if repeated:  # a typo for another station, most likely: that one would be left out of the limit
+            raise ValueError(f"station(s) named twice in the group: {', '.join(repeated)}")
+        return value
+
     @model_validator(mode="after")
     def _has_limit(self) -> StationGroup:
         if self.max_weight is None and self.min_weight is None:
@@ -492,6 +500,16 @@ class Aircraft(_Model):
     meto_power_hp: float | None = Field(
         None, gt=0, description="maximum except takeoff power, for the minimum fuel for balance [hp]"
     )
+
+    @field_validator("registration")
+    @classmethod
+    def _addressable(cls, value: str | None) -> str | None:
+        if value is not None and not registration_key(value):  # "  " or "-" would match no aircraft, or every one
+            raise ValueError(
+                f"{value!r} has no letter or digit, so no loading or fleet row can name this aircraft; "
+                "give its registration or leave the key out"
+            )
+        return value
 
     @model_validator(mode="after")
     def _cross_references(self) -> Aircraft:

@@ -295,3 +295,22 @@ def test_regression_a_lateral_limit_took_an_items_missing_lateral_arm_as_the_cen
     assert fields == ["station[1].lateral_arm", "tank[0].lateral_arm"], fields
     assert all("0 for one on the centreline" in p.message for p in refused.value.problems)
     assert simple_aircraft(station=[{"id": "bag", "arm": 95.0}]).has_lateral is False  # no lateral limit: none needed
+
+
+def test_regression_a_station_named_twice_in_a_group_was_counted_once():
+    """An outside trial: ``stations = ["rear", "rear"]`` (a typo for ``["rear", "hold"]``) was taken as
+    ``["rear"]``: the hold was left out of the combined limit without a word. A station named twice in
+    a group is refused, as a station id given twice is (fail closed, common practice)."""
+    data = sample_data("trainer4/aircraft.toml")
+    data["station_group"][0]["stations"] = ["rear", "rear"]
+    assert "station_group[0].stations: station(s) named twice in the group: rear" in _problems(data)
+
+
+@pytest.mark.parametrize("registration", ["  ", "-", ""])
+def test_regression_a_registration_of_spaces_passed_as_an_ordinary_aircraft(registration):
+    """An outside trial: ``registration = "  "`` passed ``fleet list`` with "Problems: none" and a blank
+    registration (registrations are compared by their letters and digits alone, ``registration_key``):
+    a registration with no letter or digit is refused in the aircraft file (fail closed, common practice)."""
+    data = sample_data("trainer4/aircraft.toml")
+    data["registration"] = registration
+    assert "registration: " in _problems(data) and "has no letter or digit" in _problems(data)
