@@ -257,7 +257,10 @@ class Station(_Model):
     max_weight: Mass | None = Field(None, ge=0, description="[mass unit]")
     min_weight: Mass | None = Field(None, ge=0, description="[mass unit]")
     seats: int | None = Field(None, ge=1, le=50, description="number of seats (seat stations), for the extreme checks")
-    controls: Flag = Field(False, description="a pilot's seat: equipped with flight controls")
+    controls: Flag = Field(
+        False,
+        description="a pilot's seat: equipped with flight controls (no weight at any such seat is warned)",
+    )
 
     @property
     def name(self) -> str:
@@ -586,6 +589,11 @@ class Aircraft(_Model):
     def station_by_id(self) -> dict[str, Station]:
         """Stations by id."""
         return {s.id: s for s in self.station}
+
+    @cached_property
+    def control_seats(self) -> tuple[str, ...]:
+        """Ids of the seats equipped with flight controls (``controls = true``), in file order."""
+        return tuple(s.id for s in self.station if s.controls)
 
     @cached_property
     def tank_by_id(self) -> dict[str, Tank]:

@@ -160,3 +160,29 @@ def test_regression_gph_was_read_as_us_gallons_for_an_aircraft_fuelled_in_imperi
 
 def _us_box():  # the US-gallon test box
     return simple_aircraft()
+
+
+def test_regression_no_weight_at_the_pilots_seat_was_within_limits_without_a_word():
+    """An outside trial: a fleet row with the front seat's cell blank, an API body without ``load`` and a
+    blank form field all said "Within limits" with no finding, while a blank tank cell warns "taken as
+    empty". Every flight carries its pilot at a seat with flight controls (``controls = true``): where no
+    such seat holds any weight, the check says so as a warning (the verdict is the limits'; common
+    practice)."""
+    from loadcheck import check_loading, load_aircraft
+    from loadcheck.loading import resolve_loading
+
+    from .helpers import sample
+
+    trainer = load_aircraft(sample("trainer4/aircraft.toml"))
+    assert trainer.control_seats == ("front",)
+    said = "no weight at front, the seat(s) with flight controls: a flight needs its pilot's weight there"
+    for load in ({"rear": 100.0}, {"front": 0.0, "rear": 100.0}):
+        result = check_loading(trainer, Loading(load=load, fuel={"mains": 20.0, "centre": 0.0}))
+        assert [f.message for f in result.findings if f.message.startswith("no weight at")] == [said]
+        assert result.ok  # a warning: the limits decide the verdict
+    assert said not in resolve_loading(Loading(load={"front": 80.0}, fuel={"mains": 20.0}), trainer).notes
+    heli = load_aircraft(sample("heli2/aircraft.toml"))  # two seats with controls: either one will do
+    assert heli.control_seats == ("left", "right")
+    assert not any("flight controls" in n for n in resolve_loading(Loading(load={"right": 80.0}), heli).notes)
+    assert any("no weight at left or right" in n for n in resolve_loading(Loading(load={"bag_left": 9.0}), heli).notes)
+    assert simple_aircraft().control_seats == ()  # no seat said to have controls: nothing to say
