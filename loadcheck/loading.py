@@ -248,7 +248,7 @@ class Leg(_Model):
     )
     burn: Burn = Field(
         description="this leg's taxi, trip (or trip_time and rate) and reserve; the burn order "
-        "is the previous leg's unless given"
+        "and the reserve are the previous leg's unless given (reserve = 0 drops it)"
     )
 
 
@@ -929,7 +929,7 @@ def resolve_trip(
     gives it a new one (and keeps its occupant's name unless the leg changes its weight or
     names someone else there), and each tank holds what it held at the previous landing (taxi and
     trip burned in the previous leg's burn order, :meth:`BurnPlan.quantities`) plus the fuel
-    put in at the stop. The burn order is the previous leg's unless the leg gives one. The
+    put in at the stop. The burn order and the reserve are the previous leg's unless the leg gives them. The
     leg is then resolved exactly as a single loading (names, capacities, fuel for the burn).
 
     With ``fuel_to_plan`` the fuel at the first engine start is what a planning answer will
@@ -1000,7 +1000,7 @@ def resolve_trip(
             load={**previous.stations, **leg.load},
             names={**kept, **leg.names},
             fuel=fuel,
-            burn=leg.burn.model_copy(update={"order": order}),
+            burn=leg.burn.model_copy(update={"order": order, **_reserve_kept(leg.burn, previous)}),
         )
         try:
             legs.append(resolve_loading(single, aircraft, fuel_to_plan=fuel_to_plan))
@@ -1010,6 +1010,14 @@ def resolve_trip(
             ) from None
         stops.append(stop)
     return ResolvedTrip(tuple(legs), tuple(stops), (None, *(leg.label for leg in loading.leg)))
+
+
+def _reserve_kept(burn: Burn, previous: ResolvedLoading) -> dict[str, float]:
+    """A leg that gives no reserve keeps the previous leg's (the pilot's reserve holds for every
+    landing of the trip, as the burn order does; ``reserve = 0`` there drops it): the field to set."""
+    if "reserve" in burn.model_fields_set or previous.reserve is None:
+        return {}
+    return {"reserve": previous.reserve}
 
 
 def _stop_fuel(

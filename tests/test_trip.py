@@ -518,3 +518,22 @@ def _first_fuel(inputs, total):
     reads it (the sample's one tank, so no fill order to choose)."""
     assert [t.id for t in inputs.aircraft.tank] == ["main"]
     return load_check_inputs(sample("heli2/trip_drop_off.toml"), allow_trip=True, fuel={"main": f"{total!r}"}).trip
+
+
+def test_regression_the_loadings_reserve_stopped_at_the_first_landing():
+    """An outside trial: ``check within.toml --leg-burn 2:trip=5`` landed leg 2 with 5.8 US gal, below the
+    file's ``reserve = 8``, without a word: the reserve held for leg 1 alone. A pilot's reserve holds
+    for every landing of the trip, as the burn order does, unless a leg gives its own (``reserve = 0``
+    drops it). Worked by hand: 30.0 US gal (school fill) - taxi 1.2 - trip 18 = 10.8 landed after leg 1;
+    leg 2 burns 5 (no taxi given): 5.8 landed, 2.2 below 8.0."""
+    from loadcheck.loading import leg_assignments
+
+    path = sample("trainer4/within.toml")
+    inputs = load_check_inputs(path, allow_trip=True, legs=leg_assignments("--leg-burn", ["2:trip=5"]))
+    assert inputs.trip is not None
+    result = check_trip(inputs.aircraft, inputs.trip)
+    [below] = [f for f in result.findings if "below the reserve" in f.message]
+    assert below.message.startswith("leg 2: landing fuel 5.8 usgal is below the reserve of 8.0 usgal by 2.2")
+    dropped = load_check_inputs(path, allow_trip=True, legs=leg_assignments("--leg-burn", ["2:trip=5", "2:reserve=0"]))
+    assert dropped.trip is not None
+    assert not any("below the reserve" in f.message for f in check_trip(dropped.aircraft, dropped.trip).findings)
