@@ -15,6 +15,7 @@ from __future__ import annotations
 
 import math
 import re
+import sys
 from collections.abc import Callable
 from dataclasses import dataclass
 from functools import lru_cache
@@ -208,7 +209,12 @@ def _read_quantity(text: str, typed: object) -> Quantity:
     match = _QUANTITY_RE.match(text)
     if not match:
         raise UnitError(f"cannot read {typed!r} as a number with an optional unit (e.g. '20 kg')")
-    value = _bounded(float(match.group(1)), typed)
+    number = match.group(1)
+    value = _bounded(float(number), typed)
+    if 0 < abs(value) < sys.float_info.min or (
+        value == 0 and any(ch.isdecimal() and int(ch) for ch in re.split("[eE]", number)[0])
+    ):  # below the smallest normal float: read as 0 or with digits lost, another figure than the one typed
+        raise UnitError(f"{typed!r} is too small to be read as written: write 0, or the figure without the exponent")
     unit = canonical_unit(match.group(2)) if match.group(2) else None
     return Quantity(value, unit)
 

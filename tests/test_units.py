@@ -184,3 +184,17 @@ def test_gph_for_a_rate_in_imperial_gallons_is_refused_naming_the_option():
         read_rate("9.5 gph", "impgal", "--rate")
     assert refused.value.problems[0].field == "--rate" and "imperial" in refused.value.problems[0].message
     assert read_rate("9.5 gph", "usgal", "--rate") == pytest.approx(9.5)
+
+
+@pytest.mark.parametrize("text", ["1e-400", "1e-400 kg", "5e-324", "1e-310 lb"])
+def test_regression_a_figure_below_the_smallest_float_was_read_as_zero(text):
+    """An outside trial: ``front = "1e-400"`` was read as 0 (the station vanished from the moment
+    table) while ``1e300`` is refused: a figure that a float cannot hold as typed (below the smallest
+    normal double, 2.2e-308, IEEE 754-2019 binary64, from memory) is refused, never replaced."""
+    with pytest.raises(UnitError, match="too small to be read as written"):
+        parse_quantity(text)
+
+
+@pytest.mark.parametrize("text", ["0", "0.0", "0e5", "-0", "1e-300", "٠"])
+def test_zero_and_small_normal_figures_are_read(text):
+    assert parse_quantity(text).value == float(text)  # Python reads the Arabic-Indic zero too
