@@ -324,3 +324,14 @@ def test_plan_shift_that_fixes_the_lateral_cg_only_past_a_lockers_maximum_says_s
     assert answer["governing"].startswith("moving 0.0 to 5.0 lb: left limit at ramp -2.66 in")
     assert answer["governing"].endswith("Moving 31.8 to 35.0 lb: maximum of bag_right 35.0 lb")
     assert answer["extra"]["the move moves"].startswith("the lateral CG only")
+
+
+def test_regression_plan_trip_refused_a_reserve_given_as_a_mass(runner):
+    """An outside trial: ``plan trip --reserve "5 kg"`` was refused ("cannot convert kg (mass) to usgal")
+    while ``check --reserve "5 kg"`` takes it: one rule now reads both, the loading's (a mass is turned
+    into fuel at the tanks' density). Worked by hand: 5 kg / 0.45359237 kg/lb (NIST SP 811 appendix B.8)
+    = 11.02 lb, at avgas 6.0 lb/US gal (common practice) 1.84 US gal."""
+    path = str(sample("trainer4/within.toml"))
+    said = runner.invoke(app, ["plan", "trip", path, "--rate", "8", "--reserve", "5 kg", "--json"])
+    assert said.exit_code == 0, said.output
+    assert json.loads(said.stdout)["extra"]["reserve landed with"] == "1.8 usgal (the reserve asked for)"

@@ -542,16 +542,17 @@ def plan_trip(
         --reserve 8
     """
     from ..planning import longest_trip
-    from ..units import read_amount, read_rate
+    from ..units import read_rate
 
-    inputs = _inputs(aircraft, loading, load, fuel, taxi, None, None, None, order, None, category, fuel_to_plan=True)
+    # the reserve is read as the loading's own (a volume, or a mass at the tanks' density), and asked for
+    inputs = _inputs(aircraft, loading, load, fuel, taxi, None, None, None, order, reserve, category, fuel_to_plan=True)
     volume = inputs.aircraft.units.fuel_volume
-    with options_as_typed({"rate": ("--rate", rate), "reserve": ("--reserve", reserve), "fill": ("--fill", fill)}):
+    with options_as_typed({"rate": ("--rate", rate), "fill": ("--fill", fill)}):
         result = longest_trip(
             inputs.aircraft,
             inputs.loading,
             rate=read_rate(_need(rate, "--rate"), volume, "--rate"),
-            reserve=None if reserve is None else read_amount(reserve, volume, "--reserve"),
+            reserve=None if reserve is None else inputs.loading.reserve,
             fill=_fill(fill),
         )
     _answer(result, json_out)
