@@ -35,10 +35,10 @@ from .caution import MECHANIC_CAUTION
 from .check import check_loading
 from .display import fmt
 from .engine import load_room
-from .errors import InputError, Problem
+from .errors import InputError, Problem, UnitError
 from .loading import BurnPlan, ResolvedLoading
 from .results import CheckResult, Result
-from .units import convert
+from .units import convert, parse_quantity
 
 __all__ = [
     "STANDARD_OCCUPANT_LB",
@@ -106,29 +106,35 @@ def seat_order(aircraft: Aircraft) -> list[str]:
     return [s.id for s in pilots] + [s.id for s in seats if s not in pilots]
 
 
-def minimum_fuel(aircraft: Aircraft, meto_hp: float) -> float:
+def minimum_fuel(aircraft: Aircraft, meto_hp: float | str) -> float:
     """Minimum fuel for balance: METO hp / 12 US gallons, in the aircraft's fuel volume unit.
 
-    AC 43.13-1B paragraph 10-2 p.
+    AC 43.13-1B paragraph 10-2 p. ``meto_hp`` [hp] is a number or a text of one, as typed.
 
     Raises
     ------
     InputError
-        For a power that is not a finite number above zero.
+        For a power that is not a finite number above zero, or a text with a unit.
 
     Examples
     --------
     >>> # 165 hp -> 13.75 US gal (AC 43.13-1B figure 10-10)
     """
-    if not (math.isfinite(meto_hp) and meto_hp > 0):
+    typed = meto_hp
+    try:
+        quantity = parse_quantity(typed)
+    except UnitError:
+        quantity = None
+    if quantity is None or quantity.unit is not None or not quantity.value > 0:
         raise InputError(
             Problem(
                 "meto_hp",
-                "the maximum-except-takeoff power must be above zero",
-                value=meto_hp,
-                expected="horsepower, e.g. 165",
+                "the maximum-except-takeoff power must be a number above zero, in horsepower",
+                value=typed,
+                expected="horsepower as a bare number, e.g. 165",
             )
         )
+    meto_hp = quantity.value
     return convert(meto_hp / 12.0, "usgal", aircraft.units.fuel_volume)
 
 
@@ -274,7 +280,7 @@ def extremes(
     *,
     category: str | None = None,
     occupant_weight: float | None = None,
-    meto_hp: float | None = None,
+    meto_hp: float | str | None = None,
 ) -> ExtremesResult:
     """The most forward and most rearward loadings the stations permit, each checked in full.
 

@@ -7,6 +7,7 @@ test_empty_record.py, test_extremes.py and test_schedule.py."""
 from __future__ import annotations
 
 import json
+import shlex
 
 import pytest
 
@@ -296,3 +297,14 @@ def test_alter_shows_the_new_lateral_cg_and_its_change(tmp_path):
     assert data["change_lateral_arm"] == pytest.approx(444.8 / 968.0 - 0.4)
     plain = invoke("alter", str(sample("trainer4/aircraft.toml")), str(sample("trainer4/changes.toml")))
     assert plain.exit_code == 0 and "Lateral CG" not in plain.output
+
+
+@pytest.mark.parametrize("typed", ["0", "160 hp", "abc", "-5"])
+def test_regression_meto_was_named_as_read_or_refused_in_the_frameworks_words(runner, typed):
+    """An outside trial: ``extremes --meto 0`` was named "--meto 0.0" (the value as read, not as typed) and
+    ``--meto "160 hp"`` gave the command-line framework's "Input should be a valid number". The power is
+    read by the library (loadcheck.extremes.minimum_fuel) and refused, naming the option as typed."""
+    said = runner.invoke(app, ["extremes", str(sample("trainer4/aircraft.toml")), "--meto", typed])
+    assert said.exit_code == 2
+    assert f"--meto {shlex.quote(typed)}: the maximum-except-takeoff power must be a number above zero" in said.output
+    assert "Input should be" not in said.output

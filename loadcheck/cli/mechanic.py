@@ -46,7 +46,7 @@ OccupantOpt = Annotated[
     typer.Option(metavar="WEIGHT", help="Standard occupant weight (default: the aircraft file's, else 170 lb)."),
 ]
 MetoOpt = Annotated[
-    float | None,
+    str | None,
     typer.Option(metavar="HP", help="Maximum-except-takeoff power [hp] for the minimum fuel (default: the file's)."),
 ]
 
