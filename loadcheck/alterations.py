@@ -25,7 +25,7 @@ from .errors import InputError, Problem, UnknownNameError
 from .filemodel import FileModel
 from .results import Result
 from .units import convert
-from .weighing import EmptyWeightRecord, Refusal, lateral_arm_needed, lateral_change, record_checks
+from .weighing import EmptyWeightRecord, Refusal, date_checks, lateral_arm_needed, lateral_change, record_checks
 from .words import negligible_cg_words, negligible_text, negligible_weight_words
 
 __all__ = ["Change", "Changes", "ChangeLine", "AlterResult", "alter", "negligible_weight_lb", "Negligible"]
@@ -183,8 +183,15 @@ def _negligible(aircraft: Aircraft, weight_change: float, arm_change: float) -> 
     return replace(result, text=negligible_text(result.overall, weight_clause, cg_clause))
 
 
-def alter(aircraft: Aircraft, changes: Changes) -> AlterResult:
+def alter(aircraft: Aircraft, changes: Changes, now: dt.datetime | None = None) -> AlterResult:
     """Apply equipment changes to the empty-weight record (in memory).
+
+    Parameters
+    ----------
+    aircraft : the aircraft with its current record and equipment list
+    changes : the items installed, removed or relocated
+    now : the moment the changes' date is checked against (default the system clock;
+        :func:`~loadcheck.weighing.date_checks`)
 
     Raises
     ------
@@ -315,6 +322,7 @@ def alter(aircraft: Aircraft, changes: Changes) -> AlterResult:
     )
     useful = aircraft.limits.max_takeoff_weight - weight
     warnings, refusals = record_checks(aircraft, new)
+    refusals += date_checks(aircraft, changes.date, "changes", now)
     return AlterResult(
         aircraft=aircraft.name,
         registration=aircraft.registration,

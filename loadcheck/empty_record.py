@@ -203,7 +203,7 @@ class Proposal:
                 quantity="record date",
                 unit="",
                 current=None if current_date is None else str(current_date),
-                new=str(self.date) if self.date is not None else "unchanged",
+                new=str(self.date) if self.date is not None else "missing (the date field of the file)",
             )
         )
         return rows
@@ -229,10 +229,11 @@ class Proposal:
         return {**self.result.to_dict(), "kind": self.kind, "comparison": [r.to_dict() for r in self.comparison()]}
 
 
-def propose(aircraft_path: str | Path, source_path: str | Path, kind: Kind) -> Proposal:
+def propose(aircraft_path: str | Path, source_path: str | Path, kind: Kind, now: dt.datetime | None = None) -> Proposal:
     """Compute a new empty-weight record from a readings file (``weighing``) or a changes file (``alteration``).
 
-    Nothing is written.
+    Nothing is written. ``now`` is the moment the file's date is checked against (default the
+    system clock; :func:`~loadcheck.weighing.date_checks`).
 
     Raises
     ------
@@ -246,13 +247,13 @@ def propose(aircraft_path: str | Path, source_path: str | Path, kind: Kind) -> P
     from .alterations import alter
     from .weighing import weigh
 
-    compute: Callable[[Aircraft, Any], Result]
+    compute: Callable[[Aircraft, Any, dt.datetime | None], Result]
     if kind == "weighing":
         compute, parsed = weigh, load_readings(source_path, aircraft)
     else:
         compute, parsed = alter, load_changes(source_path, aircraft)
     try:
-        result = compute(aircraft, parsed)
+        result = compute(aircraft, parsed, now)
     except LoadcheckError as error:
         raise error.with_file(source_path) from None
     return Proposal(kind, aircraft_path, source_path, aircraft, original, parsed, result)
@@ -299,13 +300,13 @@ def make_current(
     where = proposal.source_path
     if not proposal.overridable:
         raise OverrideNeededError(
-            [Problem("empty", f"not written: {r.message}") for r in refusals if not r.overridable],
+            [Problem(r.field or "empty", f"not written: {r.message}") for r in refusals if not r.overridable],
             overridable=False,
             file=where,
         )
     if refusals and not override:
         raise OverrideNeededError(
-            [Problem("empty", f"not written: {r.message}") for r in refusals]
+            [Problem(r.field or "empty", f"not written: {r.message}") for r in refusals]
             + [Problem("empty", "an explicit override writes it anyway, and is kept in the history")],
             overridable=True,
             file=where,

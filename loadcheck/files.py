@@ -989,13 +989,19 @@ def write_new_record(
     ------
     FileFormatError
         The file changed since it was read, the result would not be a valid or readable
-        aircraft file, or it could not be written (it is unchanged).
+        aircraft file, it could not be written (it is unchanged), or ``date`` is None (the
+        new record is never given the old record's date).
     """
     import datetime as dt
 
     import tomlkit
 
     path = Path(path)
+    if date is None:  # the replaced record's date is never carried over to the new one
+        raise FileFormatError(
+            "a new empty-weight record needs its own date (the weighing's or the changes'); nothing was written",
+            file=path,
+        )
     target = write_target(path)
     doc = tomlkit.parse(original.decode("utf-8"))
     previous = _plain(dict(doc["empty"].unwrap()))
@@ -1014,8 +1020,7 @@ def write_new_record(
     _set_value(empty, "arm", round(arm, 4))
     if lateral_arm is not None:
         _set_value(empty, "lateral_arm", round(lateral_arm, 4))
-    if date is not None:
-        _set_value(empty, "date", date)
+    _set_value(empty, "date", date)
     _append_entry(doc, "history", entry)
     if equipment is not None:
         _replace_list(doc, "equipment", [_plain(item) for item in equipment])

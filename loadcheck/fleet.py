@@ -37,6 +37,7 @@ from .check import check_many
 from .errors import FileFormatError, InputError, LoadcheckError, Problem
 from .files import encoding_problem, file_kind, open_regular, parse_aircraft, parse_loading, read_toml
 from .loading import Loading, burn_order, resolve_loading
+from .weighing import latest_date
 
 __all__ = [
     "AircraftFile",
@@ -1003,6 +1004,8 @@ def fleet_listing(fleet: Fleet, max_age_days: int | None = None, today: dt.date 
 
     ``max_age_days``: an empty-weight record older than this many days is flagged (at least 1;
     None, as the command line and the desk give when none is asked for: :data:`RECORD_AGE_DAYS`).
+    A record dated after today is flagged too: after ``today`` where it is given, else after
+    the latest date anywhere on Earth (:func:`~loadcheck.weighing.latest_date`).
 
     Raises
     ------
@@ -1025,6 +1028,8 @@ def fleet_listing(fleet: Fleet, max_age_days: int | None = None, today: dt.date 
         age = record_age_days(a, today) if a is not None else None
         if a is not None and age is None:
             flags.append("the empty-weight record is not dated")
+        elif a is not None and a.empty.date is not None and a.empty.date > (today or latest_date()):
+            flags.append(f"the empty-weight record is dated {a.empty.date.isoformat()}, after today: check its date")
         elif age is not None and age > max_age_days:
             flags.append(f"empty-weight record is {age} days old (more than {max_age_days})")
         lines.append(

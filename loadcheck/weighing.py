@@ -44,6 +44,9 @@ __all__ = [
     "lateral_arm_needed",
     "lateral_change",
     "record_checks",
+    "date_checks",
+    "latest_date",
+    "EARLIEST_ZONE",
     "current_record_warnings",
 ]
 
@@ -51,6 +54,38 @@ PLAUSIBLE_CHANGE = 0.10
 """Largest change of empty weight written without an override, as a fraction of the current
 record (common practice: a weighing or an ordinary alteration moves the empty weight by a few
 per cent; ten per cent or more is a misread scale, a wrong unit or a major alteration)."""
+
+
+EARLIEST_ZONE = dt.timedelta(hours=14)
+"""How far the earliest time zone on Earth is ahead of UTC [hours]: UTC+14, the Line Islands of
+Kiribati (from memory). A date is today somewhere on Earth until it is over there."""
+
+
+def latest_date(now: dt.datetime | None = None) -> dt.date:
+    """The latest date that is today somewhere on Earth: the date at UTC+14.
+
+    It is the UTC date, or the day after it once UTC is past 10:00, so a record dated today
+    where the aircraft was weighed is accepted in any time zone, and a date no place on Earth
+    has reached yet is not.
+
+    Parameters
+    ----------
+    now : the moment to read the date at (an aware datetime; a naive one is taken as UTC);
+        default the system clock. Tests set it.
+
+    Examples
+    --------
+    >>> import datetime as dt
+    >>> latest_date(dt.datetime(2026, 12, 3, 8, 0, tzinfo=dt.UTC)).isoformat()
+    '2026-12-03'
+    >>> latest_date(dt.datetime(2026, 12, 3, 10, 0, tzinfo=dt.UTC)).isoformat()
+    '2026-12-04'
+    """
+    if now is None:
+        now = dt.datetime.now(dt.UTC)
+    elif now.tzinfo is None:
+        now = now.replace(tzinfo=dt.UTC)
+    return (now.astimezone(dt.UTC) + EARLIEST_ZONE).date()
 
 
 class _Model(FileModel):
@@ -189,13 +224,17 @@ class Refusal(Result):
     """A reason a new empty-weight record is not written as it stands.
 
     ``overridable`` is False where the record could never be read back (an empty weight
-    that reaches the maximum takeoff weight); True where an explicit override, kept in the
-    history, may write it.
+    that reaches the maximum takeoff weight) or has no true date (none given, or one that
+    has not come yet); True where an explicit override, kept in the history, may write it.
     """
 
-    code: Literal["no_useful_load", "cg_outside_envelopes", "implausible_change"]
+    code: Literal[
+        "no_useful_load", "cg_outside_envelopes", "implausible_change", "no_date", "future_date", "date_before_current"
+    ]
     message: str
     overridable: bool
+    field: str | None = None
+    """The field of the readings or changes file at fault, where it is one (``date``)."""
 
 
 @dataclass(frozen=True, kw_only=True, slots=True)
@@ -331,6 +370,76 @@ def record_checks(aircraft: Aircraft, new: EmptyWeightRecord) -> tuple[list[str]
     return warnings, refusals
 
 
+def date_checks(
+    aircraft: Aircraft, date: dt.date | None, source: Literal["readings", "changes"], now: dt.datetime | None = None
+) -> list[Refusal]:
+    """The refusals of a new record's date: missing, after today, or before the current record's.
+
+    The date of the weighing or of the changes becomes the record's date, which every later
+    check prints ("empty weight of ..."), so it is used as given or the record is refused:
+
+    - no date: never written (the current record's date is not carried over to the new one);
+    - a date after :func:`latest_date` (today somewhere on Earth: at most one day ahead of the
+      UTC date, at UTC+14): never written, a date that has not come is a typing error;
+    - a date before the current record's: written only with an explicit override (the new
+      record would look older than the one it replaces; the override is for a current
+      record whose own date is the one wrong).
+
+    The weight and balance record is kept with the date of the weighing or of the change
+    (14 CFR 43.9 (a) (2), the date the work was completed; FAA-H-8083-1B chapter 2, the
+    current weight and balance record; from memory).
+
+    Parameters
+    ----------
+    aircraft : the aircraft with its current record
+    date : the readings' or the changes' ``date``
+    source : which file it comes from, to name it: ``readings`` or ``changes``
+    now : the moment the check is made (default the system clock); see :func:`latest_date`
+    """
+    what, file = ("weighing", "readings file") if source == "readings" else ("changes", "changes file")
+    if date is None:
+        return [
+            Refusal(
+                code="no_date",
+                overridable=False,
+                field="date",
+                message=(
+                    f"the {file} gives no date (its date field): a record is never written without the date of "
+                    f"the {what}, which becomes the record's date; add date = YYYY-MM-DD to the {file}"
+                ),
+            )
+        ]
+    latest = latest_date(now)
+    if date > latest:
+        return [
+            Refusal(
+                code="future_date",
+                overridable=False,
+                field="date",
+                message=(
+                    f"the date of the {what}, {date.isoformat()} (the {file}'s date field), has not come yet: "
+                    f"it is {latest.isoformat()} at the latest anywhere on Earth; a record is never written "
+                    "with a date after today: check the date"
+                ),
+            )
+        ]
+    current = aircraft.empty.date
+    if current is not None and date < current:
+        return [
+            Refusal(
+                code="date_before_current",
+                overridable=True,
+                field="date",
+                message=(
+                    f"the date of the {what}, {date.isoformat()} (the {file}'s date field), is before the "
+                    f"current record's date {current.isoformat()}: the new record would look older than the one "
+                    "it replaces; check the date (an override is for a current record whose own date is wrong)"
+                ),
+            )
+        ]
+    return []
+
+
 def _item(aircraft: Aircraft, item: ReadingItem, where: str) -> tuple[float, float, float]:
     if item.tank is not None:
         tank = aircraft.tank_by_id.get(item.tank)
@@ -416,13 +525,15 @@ def _require_lateral_arms(aircraft: Aircraft, readings: Readings, lateral: bool)
         raise InputError(problems)
 
 
-def weigh(aircraft: Aircraft, readings: Readings) -> WeighResult:
+def weigh(aircraft: Aircraft, readings: Readings, now: dt.datetime | None = None) -> WeighResult:
     """Compute the basic empty weight and CG from scale readings.
 
     Parameters
     ----------
     aircraft : the aircraft, with its current empty-weight record (for the comparison)
     readings : the weighing points and corrections
+    now : the moment the readings' date is checked against (default the system clock;
+        :func:`date_checks`)
 
     Returns
     -------
@@ -504,6 +615,7 @@ def weigh(aircraft: Aircraft, readings: Readings) -> WeighResult:
     )
     previous = EmptyWeightRecord(weight=empty.weight, arm=empty.arm, moment=empty.moment, lateral_arm=empty.lateral_arm)
     record_warnings, refusals = record_checks(aircraft, new)
+    refusals += date_checks(aircraft, readings.date, "readings", now)
     useful = aircraft.limits.max_takeoff_weight - new.weight
     return WeighResult(
         aircraft=aircraft.name,

@@ -6,6 +6,7 @@ Sources: AC 43.13-1B (1998) chapter 10, paragraph 10-2 c (negligible change).
 
 from __future__ import annotations
 
+import datetime as dt
 import json
 import shutil
 from pathlib import Path
@@ -96,7 +97,10 @@ def test_an_alteration_that_leaves_no_useful_load_is_refused():
     aircraft = parse_aircraft({**sample_data("trainer4/aircraft.toml")})
     big = alter(
         aircraft,
-        Changes.model_validate({"change": [{"action": "install", "item": "tank", "weight": 800.0, "arm": 40.0}]}),
+        Changes.model_validate(
+            {"date": "2026-11-29", "change": [{"action": "install", "item": "tank", "weight": 800.0, "arm": 40.0}]}
+        ),
+        now=dt.datetime(2026, 12, 3, 8, 0, tzinfo=dt.UTC),
     )
     assert [r.code for r in big.refusals] == ["no_useful_load", "implausible_change"]
     assert not big.refusals[0].overridable and big.refusals[1].overridable
@@ -224,3 +228,16 @@ def test_an_item_without_a_lateral_arm_in_the_list_is_not_moved_sideways_on_a_la
     )
     assert aft.new.moment == pytest.approx(aircraft.empty.moment - 120.0)
     assert aft.new.lateral_arm == pytest.approx(aircraft.empty.lateral_arm)
+
+
+def test_regression_the_changes_date_was_not_checked():
+    # changes without a date kept the replaced record's date once written; after today or before the current
+    # record (2026-02-09) they were written without a word (14 CFR 43.9 (a) (2), from memory)
+    aircraft = parse_aircraft({**sample_data("trainer4/aircraft.toml")})
+    data = sample_data("trainer4/changes.toml")
+    now = dt.datetime(2026, 12, 3, 8, 0, tzinfo=dt.UTC)
+    for date, code in ((None, "no_date"), ("2030-01-01", "future_date"), ("2020-01-01", "date_before_current")):
+        result = alter(aircraft, Changes.model_validate({**data, "date": date}), now=now)
+        assert [(r.code, r.field) for r in result.refusals] == [(code, "date")], date
+        assert "the changes file" in result.refusals[0].message
+    assert alter(aircraft, Changes.model_validate(data), now=now).refusals == []

@@ -50,13 +50,14 @@ def test_options_without_write_are_refused(tmp_path):
 def test_history_keeps_every_record_and_the_comments(runner, tmp_path):
     path = _trainer(tmp_path)
     original = load_aircraft(path)
-    assert runner.invoke(app, ["alter", str(path), str(tmp_path / "changes.toml"), "--write", "--yes"]).exit_code == 0
-    altered = load_aircraft(path)
+    # in the order of their dates (weighed 2026-11-28, altered 2026-11-29): an earlier date needs --force
     assert runner.invoke(app, ["weigh", str(path), str(tmp_path / "weighing.toml"), "--write", "--yes"]).exit_code == 0
+    weighed = load_aircraft(path)
+    assert runner.invoke(app, ["alter", str(path), str(tmp_path / "changes.toml"), "--write", "--yes"]).exit_code == 0
     final = load_aircraft(path)
-    assert [h.reason for h in final.history] == ["alteration", "weighing"]
+    assert [h.reason for h in final.history] == ["weighing", "alteration"]
     assert final.history[0].previous == original.empty
-    assert final.history[1].previous == altered.empty
+    assert final.history[1].previous == weighed.empty
     assert "fairings" not in {e.id for e in final.equipment} and "com3" in {e.id for e in final.equipment}
     text = path.read_text()
     assert "# Four-seat nosewheel trainer: an aircraft of our own invention" in text

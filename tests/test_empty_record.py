@@ -10,8 +10,11 @@ useful load = maximum weight - empty weight).
 
 from __future__ import annotations
 
+import datetime as dt
 import errno
+import json
 import os
+import re
 import shutil
 import subprocess
 import tomllib
@@ -30,6 +33,7 @@ from loadcheck.empty_record import (
     make_current,
     propose,
 )
+from loadcheck.errors import LoadcheckError
 from loadcheck.files import MAX_FILE_BYTES, read_text
 
 from .helpers import app_runner, cell, record_sheet, sample
@@ -436,3 +440,130 @@ def test_file_changed_between_read_and_write_is_refused(runner, tmp_path, monkey
     assert result.exit_code == 2 and "changed since it was read" in result.output
     assert path.read_text().endswith("# edited by someone else\n")
     assert "[[history]]" not in path.read_text()
+
+
+# -- the record's date: used as given or refused --------------------------------------------------
+# The weight and balance record carries the date of the weighing or of the change (14 CFR 43.9 (a)
+# (2), the date the work was completed; FAA-H-8083-1B chapter 2, the current record; from memory).
+
+
+def _undated(tmp_path: Path, name: str) -> Path:
+    """The sample readings or changes file with its ``date =`` line left out."""
+    path = tmp_path / f"undated_{name}"
+    lines = (tmp_path / name).read_text().splitlines(keepends=True)
+    path.write_text("".join(line for line in lines if not line.startswith("date =")))
+    return path
+
+
+@pytest.mark.parametrize("command, name", [("weigh", "weighing.toml"), ("alter", "changes.toml")])
+def test_regression_a_record_without_its_date_kept_the_replaced_records_date(tmp_path, command, name):
+    # `weigh/alter --write --yes` without `date =` wrote a new [empty] with the old date 2026-02-09
+    path = _trainer(tmp_path)
+    before = path.read_bytes()
+    source = _undated(tmp_path, name)
+    runner = app_runner()
+    written = runner.invoke(app, [command, str(path), str(source), "--write", "--yes"])
+    file_words = "readings file" if command == "weigh" else "changes file"
+    assert written.exit_code == 2, written.output
+    said = " ".join(written.output.split())
+    assert f"date: not written: the {file_words} gives no date (its date field)" in said
+    assert f"add date = YYYY-MM-DD to the {file_words}" in said
+    assert "--force" not in said  # no override writes an undated record
+    assert path.read_bytes() == before
+    # without --write the proposal is shown, says the date is missing, and never gives the old one as the new
+    shown = runner.invoke(app, [command, str(path), str(source), "--json"])
+    assert shown.exit_code == 0, shown.output
+    data = json.loads(shown.stdout)
+    assert "date" not in data  # None is left out of the JSON
+    assert [r["code"] for r in data["refusals"]] == ["no_date"] and data["refusals"][0]["field"] == "date"
+    (row,) = [r for r in data["comparison"] if r["quantity"] == "record date"]
+    assert row == {**row, "current": "2026-02-09", "new": "missing (the date field of the file)"}
+    text = " ".join(runner.invoke(app, [command, str(path), str(source)]).output.split())
+    assert "NEVER WRITTEN" in text and "gives no date" in text
+    sheet = tmp_path / "sheet.html"
+    assert runner.invoke(app, [command, str(path), str(source), "--sheet", str(sheet)]).exit_code == 0
+    html = sheet.read_text()
+    assert "missing (the date field of the file)" in html and "gives no date" in html
+    assert html.count("2026-02-09") == 1  # the current record's date, once, in the comparison
+
+
+def test_regression_the_library_write_carried_the_old_date_over(tmp_path):
+    # write_new_record kept [empty] date when given none: the library refuses it too, whatever the caller
+    path = _trainer(tmp_path)
+    original = path.read_bytes()
+    with pytest.raises(LoadcheckError, match="needs its own date"):
+        files_module.write_new_record(
+            path, original, weight=1700.0, arm=40.0, lateral_arm=None, date=None, reason="weighing", inputs={}
+        )
+    assert path.read_bytes() == original
+
+
+def test_regression_a_future_date_was_written(tmp_path):
+    # date = 2030-01-01 became the current record; the latest date anywhere on Earth is the check
+    path = _trainer(tmp_path)
+    before = path.read_bytes()
+    ahead = (dt.datetime.now(dt.UTC) + dt.timedelta(days=2)).date().isoformat()
+    for command, name in (("weigh", "weighing.toml"), ("alter", "changes.toml")):
+        source = tmp_path / f"ahead_{name}"
+        source.write_text(re.sub(r"(?m)^date = \S+", f"date = {ahead}", (tmp_path / name).read_text()))
+        result = _run(command, path, source, "--write", "--yes", "--force")
+        said = " ".join(result.output.split())
+        assert result.exit_code == 2 and "date: not written: the date of the " in said, said
+        assert f"{ahead} (the " in said and "has not come yet" in said
+    assert path.read_bytes() == before
+
+
+def test_a_date_is_accepted_while_it_is_today_somewhere_on_earth(tmp_path):
+    # UTC+14 (Line Islands, Kiribati; from memory) is the earliest zone: 2026-12-04 is today there from
+    # 2026-12-03 10:00 UTC; the day after is not today anywhere
+    path = _trainer(tmp_path)
+    for day, hour, codes in (
+        ("2026-12-03", 0, []),
+        ("2026-12-04", 9, ["future_date"]),
+        ("2026-12-04", 10, []),
+        ("2026-12-05", 23, ["future_date"]),
+    ):
+        source = tmp_path / "readings.toml"
+        source.write_text(re.sub(r"(?m)^date = \S+", f"date = {day}", (tmp_path / "weighing.toml").read_text()))
+        now = dt.datetime(2026, 12, 3, hour, 0, 59, tzinfo=dt.UTC)
+        proposal = propose(path, source, "weighing", now=now)
+        assert [r.code for r in proposal.result.refusals] == codes, (day, hour)
+    # a clock given in a local zone is read as the same instant
+    source.write_text(re.sub(r"(?m)^date = \S+", "date = 2026-12-04", (tmp_path / "weighing.toml").read_text()))
+    later = dt.datetime(2026, 12, 3, 12, 0, tzinfo=dt.timezone(dt.timedelta(hours=2)))  # 10:00 UTC
+    assert propose(path, source, "weighing", now=later).result.refusals == []
+
+
+def test_regression_an_earlier_date_replaced_the_current_record_without_a_word(tmp_path):
+    # date = 2020-01-01 replaced the record of 2026-02-09 silently; now it needs --force, kept in the history
+    path = _trainer(tmp_path)
+    before = path.read_bytes()
+    source = tmp_path / "readings.toml"
+    source.write_text(re.sub(r"(?m)^date = \S+", "date = 2020-01-01", (tmp_path / "weighing.toml").read_text()))
+    refused = _weigh(path, source, "--write", "--yes")
+    said = " ".join(refused.output.split())
+    assert refused.exit_code == 2 and path.read_bytes() == before
+    assert (
+        "date: not written: the date of the weighing, 2020-01-01 (the readings file's date field), is before "
+        "the current record's date 2026-02-09" in said
+    )
+    assert "give --force with --write to write it anyway" in said
+    forced = _weigh(path, source, "--write", "--yes", "--force")
+    assert forced.exit_code == 0, forced.output
+    written = load_aircraft(path)
+    assert str(written.empty.date) == "2020-01-01"
+    assert any(o.startswith("date_before_current: ") for o in written.history[-1].overrides)
+    assert str(written.history[-1].previous.date) == "2026-02-09"
+
+
+def test_the_same_date_as_the_current_record_is_written(tmp_path):
+    # a second weighing on the day of the first is ordinary (common practice: weighed again after a fix)
+    path = _trainer(tmp_path)
+    source = tmp_path / "readings.toml"
+    source.write_text(re.sub(r"(?m)^date = \S+", "date = 2026-02-09", (tmp_path / "weighing.toml").read_text()))
+    assert _weigh(path, source, "--write", "--yes").exit_code == 0
+    assert str(load_aircraft(path).empty.date) == "2026-02-09"
+
+
+def _run(command: str, path: Path, source: Path, *options: str):
+    return app_runner().invoke(app, [command, str(path), str(source), *options])

@@ -806,3 +806,20 @@ def test_a_registration_with_no_letter_or_digit_matches_no_aircraft(runner, reco
     day.write_text("registration,front,mains\n-,170,30\n")
     result = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(day), "--no-log"])
     assert result.exit_code == 2 and "day.csv:2" in result.output and "no letter or digit" in result.output
+
+
+def test_regression_fleet_list_did_not_flag_a_record_dated_in_the_future(tmp_path):
+    # an [empty] date = 2030-01-01 (a typing error, or a weighing that has not happened) passed unflagged
+    import datetime as dt
+
+    from loadcheck.fleet import fleet_listing
+
+    folder = tmp_path / "fleet"
+    folder.mkdir()
+    text = (SAMPLES / "trainer4" / "aircraft.toml").read_text()
+    assert "date = 2026-02-09" in text
+    (folder / "ahead.toml").write_text(text.replace("date = 2026-02-09", "date = 2030-01-01"))
+    (line,) = fleet_listing(load_fleet(folder), today=dt.date(2026, 12, 3))
+    assert "the empty-weight record is dated 2030-01-01, after today: check its date" in line.problems
+    (today,) = fleet_listing(load_fleet(folder), today=dt.date(2030, 1, 1))
+    assert not any("after today" in p for p in today.problems)

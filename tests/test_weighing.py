@@ -281,3 +281,25 @@ def test_a_lateral_aircraft_refuses_a_correction_without_its_lateral_arm(table):
     sign = -1.0 if table == "on_board" else 1.0
     assert result.new.weight == pytest.approx(960.0 + sign * 20.0)
     assert result.new.lateral_arm == pytest.approx((-72.0 + sign * 20.0 * 8.0) / (960.0 + sign * 20.0))
+
+
+def test_regression_the_readings_date_was_not_checked():
+    # a weighing without a date, or dated after today or before the current record (2026-02-09), was
+    # proposed with no refusal; the record carries the date of the work (14 CFR 43.9 (a) (2), from memory)
+    import datetime as dt
+
+    aircraft = load_aircraft(sample("trainer4/aircraft.toml"))
+    data = sample_data("trainer4/weighing.toml")
+    now = dt.datetime(2026, 12, 3, 8, 0, tzinfo=dt.UTC)  # the latest date on Earth is 2026-12-03 until 10:00 UTC
+    expected = {
+        None: ("no_date", False),
+        "2030-01-01": ("future_date", False),
+        "2026-12-04": ("future_date", False),
+        "2020-01-01": ("date_before_current", True),
+    }
+    for date, (code, overridable) in expected.items():
+        readings = Readings.model_validate({**data, "date": date})
+        (refusal,) = weigh(aircraft, readings, now=now).refusals
+        assert (refusal.code, refusal.overridable, refusal.field) == (code, overridable, "date"), date
+    for date in ("2026-12-03", "2026-02-09"):
+        assert weigh(aircraft, Readings.model_validate({**data, "date": date}), now=now).refusals == []
