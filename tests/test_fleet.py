@@ -806,3 +806,17 @@ def test_a_registration_with_no_letter_or_digit_matches_no_aircraft(runner, reco
     day.write_text("registration,front,mains\n-,170,30\n")
     result = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(day), "--no-log"])
     assert result.exit_code == 2 and "day.csv:2" in result.output and "no letter or digit" in result.output
+
+
+def test_fleet_entry_is_the_file_of_the_aircraft_the_fleet_finds() -> None:
+    """Fleet.entry finds a registration as Fleet.aircraft does (registration_key; common practice:
+    written with or without the hyphen, in either case) and gives that aircraft's file; it refuses
+    as Fleet.aircraft refuses."""
+    from loadcheck.errors import InputError
+    from loadcheck.fleet import load_fleet
+
+    fleet = load_fleet(SAMPLES)
+    entry = fleet.entry("demo 4t")
+    assert entry.aircraft is fleet.aircraft("DEMO-4T") and entry.path == SAMPLES / "trainer4" / "aircraft.toml"
+    with pytest.raises(InputError, match="unknown registration 'NOPE-1'"):
+        fleet.entry("NOPE-1")

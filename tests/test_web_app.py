@@ -1246,3 +1246,58 @@ def test_the_desk_types_its_forms_and_answers_without_any() -> None:
         n.attr for n in ast.walk(tree) if isinstance(n, ast.Attribute)
     }
     assert "Any" not in used
+
+
+# -- registrations as the fleet compares them ----------------------------------------------------
+
+
+@pytest.mark.parametrize("spelt", ["demo-4t", "DEMO4T", "demo 4t"])
+def test_regression_pages_of_a_registration_spelt_otherwise_were_an_internal_error(
+    reading_desk: dict[str, Any], spelt: str
+) -> None:
+    """The check form, a check and the mechanic's page of ``demo-4t`` are DEMO-4T's, as the command line
+    finds it (loadcheck.aircraft.registration_key; common practice: a registration is written with or
+    without its hyphen, in either case), where each gave 500 "Internal error"."""
+    pia = _client(reading_desk, "pia")
+    form = pia.get(f"/aircraft/{spelt}")
+    assert form.status_code == 200 and "Check a loading: DEMO-4T" in form.text
+    checked = _post_check(pia, WITHIN, registration=spelt)
+    exact = _post_check(pia, WITHIN)
+    assert checked.status_code == exact.status_code == 200
+    assert _without_chart(checked.text) == _without_chart(exact.text)
+    mechanic = _client(reading_desk, "mo").get(f"/mechanic/{spelt}")
+    assert mechanic.status_code == 200 and "Empty-weight record: DEMO-4T" in mechanic.text
+
+
+def _without_chart(page: str) -> str:
+    """A result page without its chart (whose SVG ids differ each drawing) and its security token."""
+    return re.sub(r"<svg.*?</svg>", "", page, flags=re.S).replace(csrf_of(page), "")
+
+
+def test_a_pages_unknown_registration_is_refused_naming_it(reading_desk: dict[str, Any]) -> None:
+    """An unknown registration is the fleet's refusal (422, named), on the pilot's and the mechanic's pages."""
+    for client, path in (
+        (_client(reading_desk, "pia"), "/aircraft/NOPE-1"),
+        (_client(reading_desk, "mo"), "/mechanic/NOPE-1"),
+    ):
+        response = client.get(path)
+        assert response.status_code == 422 and "unknown registration &#39;NOPE-1&#39;" in response.text, path
+
+
+def test_regression_a_proposal_made_under_another_spelling_is_confirmed(desk: dict[str, Any]) -> None:
+    """A proposal made at /mechanic/demo4t is confirmed through its page's form (posted to the
+    aircraft's own spelling, DEMO-4T): one aircraft, compared as the fleet compares registrations."""
+    from loadcheck.files import load_aircraft
+
+    mo = _client(desk, "mo")
+    page = mo.get("/mechanic/demo4t").text
+    shown = mo.post(
+        "/mechanic/demo4t/propose",
+        data={"kind": "weighing", "text": (SAMPLES / "trainer4" / "weighing.toml").read_text(), "csrf": csrf_of(page)},
+    )
+    assert shown.status_code == 200, shown.text
+    action = re.search(r'<form method="post" action="([^"]+/confirm)"', shown.text).group(1)  # type: ignore[union-attr]
+    token = re.search(r'name="token" value="([^"]+)"', shown.text).group(1)  # type: ignore[union-attr]
+    written = mo.post(action, data={"token": token, "confirm": "yes", "csrf": csrf_of(shown.text)})
+    assert written.status_code == 200 and "Written:" in written.text
+    assert load_aircraft(desk["fleet"] / "trainer4" / "aircraft.toml").empty.weight != 1718.0

@@ -39,6 +39,7 @@ from starlette.exceptions import HTTPException as StarletteHTTPException
 from starlette.middleware.sessions import SessionMiddleware
 
 from .. import __version__
+from ..aircraft import registration_key
 from ..caution import MECHANIC_CAUTION, PILOT_CAUTION
 from ..display import fmt, unit_label
 from ..errors import InputError, LoadcheckError, Problem
@@ -339,10 +340,9 @@ class Desk:
 
     def aircraft_path(self, registration: str) -> tuple[Aircraft, Path]:
         """The usable aircraft of a registration and its file (the fleet read afresh: a new record shows at once)."""
-        fleet = self.fleet()
-        aircraft = fleet.aircraft(registration)
-        entry = next(e for e in fleet.entries if e.registration == registration)
-        return aircraft, entry.path
+        entry = self.fleet().entry(registration)  # the library's one registration comparison, as the command line's
+        assert entry.aircraft is not None, "Fleet.entry gives a usable aircraft's file"
+        return entry.aircraft, entry.path
 
     def public(self, text: str) -> str:
         """A message as a page may show it: no folder of this machine in it."""
@@ -891,7 +891,7 @@ def create_app(
         return page(
             request,
             "result.html",
-            title=f"Result: {registration}",
+            title=f"Result: {aircraft.registration}",
             aircraft=aircraft,
             result=result,
             typed=typed,
@@ -1082,7 +1082,7 @@ def create_app(
         return page(
             request,
             "mechanic.html",
-            title=f"Empty-weight record: {registration}",
+            title=f"Empty-weight record: {aircraft.registration}",
             aircraft=aircraft,
             history=history(aircraft),
             problems=[],
@@ -1123,7 +1123,7 @@ def create_app(
                 request,
                 "mechanic.html",
                 422,
-                title=f"Empty-weight record: {registration}",
+                title=f"Empty-weight record: {aircraft.registration}",
                 aircraft=aircraft,
                 history=history(aircraft),
                 problems=desk.problems(error),
@@ -1137,7 +1137,7 @@ def create_app(
         return page(
             request,
             "proposal.html",
-            title=f"New empty-weight record: {registration}",
+            title=f"New empty-weight record: {aircraft.registration}",
             aircraft=aircraft,
             proposal=proposal,
             token=token,
@@ -1154,7 +1154,11 @@ def create_app(
         token = _text(form, "token")
         with desk.lock:
             pending = desk.pending.get(token)
-        if pending is None or pending.user != account.name or pending.registration != registration:
+        if (
+            pending is None
+            or pending.user != account.name
+            or registration_key(pending.registration) != registration_key(registration)
+        ):  # compared as the fleet compares registrations: /mechanic/demo4t/confirm is DEMO-4T's
             raise HTTPException(404, "this proposed record is no longer waiting: enter the weighing or changes again")
         note = _text(form, "note").strip() or None
         try:
@@ -1171,7 +1175,7 @@ def create_app(
                 request,
                 "proposal.html",
                 409,
-                title=f"New empty-weight record: {registration}",
+                title=f"New empty-weight record: {aircraft.registration}",
                 aircraft=aircraft,
                 proposal=pending.proposal,
                 token=token,
@@ -1185,7 +1189,7 @@ def create_app(
         return page(
             request,
             "mechanic.html",
-            title=f"Empty-weight record: {registration}",
+            title=f"Empty-weight record: {aircraft.registration}",
             aircraft=aircraft,
             history=history(aircraft),
             problems=[],
