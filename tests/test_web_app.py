@@ -10,6 +10,7 @@ from __future__ import annotations
 
 import json
 import re
+from html import escape
 from pathlib import Path
 from typing import Any
 
@@ -1301,3 +1302,60 @@ def test_regression_a_proposal_made_under_another_spelling_is_confirmed(desk: di
     written = mo.post(action, data={"token": token, "confirm": "yes", "csrf": csrf_of(shown.text)})
     assert written.status_code == 200 and "Written:" in written.text
     assert load_aircraft(desk["fleet"] / "trainer4" / "aircraft.toml").empty.weight != 1718.0
+
+
+# -- the check log's filters: fail closed ------------------------------------------------------
+
+
+def _three_records(desk: dict[str, Any]) -> TestClient:
+    """Two checks within limits and one out (over the front seats' 420 lb), all DEMO-4T's; the dispatcher's client."""
+    pia = _client(desk, "pia")
+    _post_check(pia, WITHIN, route="record")
+    _post_check(pia, {**WITHIN, "load.rear": "150"}, route="record")
+    _post_check(pia, {**WITHIN, "load.front": "700"}, route="record")
+    return _client(desk, "dan")
+
+
+@pytest.mark.parametrize("path", ["/api/records", "/records", "/records/export"])
+def test_regression_an_unknown_verdict_listed_every_record(desk: dict[str, Any], path: str) -> None:
+    """``?verdict=WITHIN`` and ``?verdict=bogus`` listed every record, those out of limits included:
+    refused (422) in the library's words naming the verdicts (fail closed, DESIGN.md)."""
+    dan = _three_records(desk)
+    for word in ("WITHIN", "bogus"):
+        response = dan.get(f"{path}?verdict={word}&date=")
+        assert response.status_code == 422, (path, word, response.text)
+        words = f"verdict: unknown verdict {word!r}; expected within or out"
+        if path.startswith("/api/"):
+            assert [p["message"] for p in response.json()["problems"]] == [words]
+        else:
+            assert escape(words, quote=True).replace("&#x27;", "&#39;") in response.text
+    assert dan.get(f"{path}?verdict=&date=").status_code == 200  # the form's own "any": no filter
+
+
+@pytest.mark.parametrize("path", ["/api/records", "/records", "/records/export"])
+def test_regression_a_repeated_or_unknown_filter_was_read_in_part(desk: dict[str, Any], path: str) -> None:
+    """``verdict=within&verdict=out`` was read as ``out`` (the last) and ``colour=red`` ignored: both
+    refused (422), naming the parameter, nothing listed (common practice: a filter the user gave is
+    applied or refused, never left out)."""
+    dan = _three_records(desk)
+    repeated = dan.get(f"{path}?verdict=within&verdict=out")
+    assert repeated.status_code == 422
+    assert "gives the parameter &#39;verdict&#39; more than once" in repeated.text.replace("'", "&#39;")
+    unknown = dan.get(f"{path}?colour=red")
+    assert unknown.status_code == 422
+    assert "takes no parameter &#39;colour&#39;: nothing was listed" in unknown.text.replace("'", "&#39;")
+
+
+def test_regression_the_registration_filter_was_exact(desk: dict[str, Any]) -> None:
+    """``?registration=demo4t`` gave [] where DEMO-4T has records: the check log's query compares
+    registrations as the fleet does (loadcheck.aircraft.registration_key), for the desk and ``log list`` alike."""
+    dan = _three_records(desk)
+    every = dan.get("/api/records?date=").json()
+    assert len(every) == 3
+    for spelt in ("demo4t", "demo 4t", "DEMO-4T"):
+        assert dan.get("/api/records", params={"registration": spelt, "date": ""}).json() == every, spelt
+    out = dan.get("/api/records?registration=demo4t&verdict=out&date=").json()
+    assert [r["ok"] for r in out] == [False]
+    page = dan.get("/records?registration=demo4t&date=").text
+    assert len(re.findall(r'href="/records/\d+"', page)) == 3
+    assert '<option value="demo4t" selected>demo4t</option>' in page  # the filter shown as given

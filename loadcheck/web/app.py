@@ -45,7 +45,7 @@ from ..display import fmt, unit_label
 from ..errors import InputError, LoadcheckError, Problem
 from ..loading import burn_order
 from ..words import burn_path_summary, condition_words, stretch_text, within_limits_text
-from .form import FORM_FIELDS, refuse_repeated, refuse_unknown
+from .form import FORM_FIELDS, refuse_query, refuse_repeated, refuse_unknown
 from .security import MAX_BODY_BYTES, BodyLimit, SignInThrottle, csrf_ok, csrf_token
 from .users import Account, UserStore
 
@@ -959,18 +959,29 @@ def create_app(
         """Every record for a dispatcher; a pilot's own otherwise."""
         return records if account.has("dispatcher") else (r for r in records if r.pilot == account.name)
 
+    _FILTERS = ("registration", "verdict", "date")
+
     def _found(
         account: Account, registration: str | None, verdict: str | None, day: dt.date | None
     ) -> list[LoggedCheck]:
-        from ..checklog import CheckLog
+        """The records the filters select, by the check log's own query (the command line's ``log list``):
+        the registration compared as the fleet compares it, the verdict ``within`` or ``out`` (any other
+        refused in the library's words), an empty one (the form's "every aircraft", "any") no filter.
 
+        Raises
+        ------
+        LoadcheckError
+            The library's refusal of a filter (422).
+        """
+        from ..checklog import CheckLog, verdict_ok
+
+        if verdict:
+            verdict_ok(verdict)  # refused before the log is looked for: a bad filter is refused on an empty log too
         if not desk.db.exists():
             return []
         with CheckLog(desk.db) as log:
-            records = list(_visible(account, log.find(since=day, until=day, registration=registration or None)))
-        if verdict in ("within", "out"):
-            records = [r for r in records if r.ok == (verdict == "within")]
-        return records
+            found = log.find(since=day, until=day, registration=registration or None, verdict=verdict or None)
+            return list(_visible(account, found))
 
     def _day(date: str | None) -> dt.date | None:
         if date is None:
@@ -987,9 +998,14 @@ def create_app(
         request: Request, registration: str | None = None, verdict: str | None = None, date: str | None = None
     ) -> Response:
         account = _account(request)
+        refuse_query(request.query_params.multi_items(), _FILTERS)
         day = _day(date)
         records = _found(account, registration, verdict, day)
         registrations = sorted(e.registration for e in desk.fleet().entries if e.registration)
+        if (
+            registration and registration not in registrations
+        ):  # shown chosen as given (``demo4t``), not as "every aircraft"
+            registrations.append(registration)
         return page(
             request,
             "records.html",
@@ -1028,6 +1044,7 @@ def create_app(
         from ..checklog import export_text
 
         account = _account(request)
+        refuse_query(request.query_params.multi_items(), ("format", *_FILTERS))
         if format not in ("csv", "jsonl"):
             raise HTTPException(422, f"format: {format!r} is not an export format; expected csv or jsonl")
         text = export_text(_found(account, registration, verdict, _day(date)), format)
@@ -1314,6 +1331,7 @@ def create_app(
     ) -> list[JsonObject]:
         """Records of checks (a pilot's own; every pilot's for a dispatcher), without their inputs and results."""
         account = _account(request)
+        refuse_query(request.query_params.multi_items(), _FILTERS)
         return [r.summary() for r in _found(account, registration, verdict, _day(date if date is not None else ""))]
 
     @api.get("/api/records/{record_id}", response_model=None)
