@@ -1359,3 +1359,17 @@ def test_regression_the_registration_filter_was_exact(desk: dict[str, Any]) -> N
     page = dan.get("/records?registration=demo4t&date=").text
     assert len(re.findall(r'href="/records/\d+"', page)) == 3
     assert '<option value="demo4t" selected>demo4t</option>' in page  # the filter shown as given
+
+
+@pytest.mark.parametrize("path", ["/fleet", "/api/fleet"])
+def test_regression_the_fleet_listing_read_a_repeated_or_unknown_parameter_in_part(
+    reading_desk: dict[str, Any], path: str
+) -> None:
+    """``?max_age=30&max_age=5000`` was read as 5000 (the last) and ``?max_ag=30`` ignored (every record
+    then judged by 36 months): both refused (422, named; common practice: a filter given is applied or refused)."""
+    client = _client(reading_desk, "pia")
+    assert client.get(f"{path}?max_age=30").status_code == 200
+    repeated = client.get(f"{path}?max_age=30&max_age=5000")
+    assert repeated.status_code == 422 and "more than once" in repeated.text
+    unknown = client.get(f"{path}?max_ag=30")
+    assert unknown.status_code == 422 and "takes no parameter" in unknown.text and "max_age" in unknown.text

@@ -794,6 +794,7 @@ def create_app(
     @app.get("/fleet", response_class=HTMLResponse)
     def fleet_page(request: Request, max_age: int | None = None) -> Response:
         _account(request)
+        refuse_query(request.query_params.multi_items(), ("max_age",))
         from ..fleet import RECORD_AGE_DAYS, fleet_listing
 
         lines = fleet_listing(desk.fleet(), max_age)
@@ -1251,6 +1252,7 @@ def create_app(
         from ..fleet import fleet_listing
 
         _account(request)
+        refuse_query(request.query_params.multi_items(), ("max_age",))
 
         def named(path: str) -> str:  # as its user knows it: trainer4/aircraft.toml, not the server's path
             try:
