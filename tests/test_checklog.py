@@ -14,8 +14,8 @@ from hypothesis import given, settings
 from hypothesis import strategies as st
 
 from loadcheck.checklog import CheckLog, verify, verify_current
-from loadcheck.errors import InputError
 from loadcheck.cli import app
+from loadcheck.errors import InputError
 from loadcheck.fleet import load_fleet
 
 from .helpers import app_runner, examples, sample, tamper_check_log
