@@ -58,6 +58,7 @@ if TYPE_CHECKING:
 __all__ = [
     "CurrentCheck",
     "CurrentVerification",
+    "VERDICTS",
     "Listed",
     "LoggedCheck",
     "CheckLog",
@@ -83,6 +84,27 @@ results (kilobytes each)."""
 
 Listed = tuple[int, str, str | None, str | None, str | None, int, str, int]
 """One record as a listing shows it (:meth:`CheckLog.listing`)."""
+
+VERDICTS = {"within": True, "out": False}
+"""The verdicts a listing is filtered by, and the stored ``ok`` of each: ``within`` limits, ``out`` of limits."""
+
+
+def verdict_ok(verdict: str) -> bool:
+    """The stored ``ok`` of a verdict a listing is filtered by (:data:`VERDICTS`), the word as written.
+
+    Raises
+    ------
+    InputError
+        Any other word (``WITHIN``, ``bogus``): refused naming the verdicts, never read as no filter.
+
+    Examples
+    --------
+    >>> verdict_ok("out")
+    False
+    """
+    if verdict not in VERDICTS:
+        raise InputError(Problem("verdict", f"unknown verdict {verdict!r}", expected=" or ".join(VERDICTS)))
+    return VERDICTS[verdict]
 
 
 def _seal(
@@ -373,17 +395,39 @@ class CheckLog:
         return data
 
     def find(
-        self, *, since: dt.date | None = None, until: dt.date | None = None, registration: str | None = None
+        self,
+        *,
+        since: dt.date | None = None,
+        until: dt.date | None = None,
+        registration: str | None = None,
+        verdict: str | None = None,
     ) -> Iterator[LoggedCheck]:
-        """Records in order, between two dates (inclusive, UTC) and/or for one registration."""
-        for row in self._select(_COLUMNS, since, until, registration):
-            yield self._row(row)
+        """Records in order, between two dates (inclusive, UTC), for one registration and/or of one verdict.
+
+        ``registration`` is compared as the fleet compares registrations
+        (:func:`~loadcheck.aircraft.registration_key`: ``demo4t`` finds the records of ``DEMO-4T``); one
+        with no letter or digit is refused. ``verdict`` is ``within`` or ``out`` (:func:`verdict_ok`;
+        any other word refused). The filters are checked when this is called, before any record is read.
+
+        Raises
+        ------
+        InputError
+            A registration with no letter or digit, or an unknown verdict.
+        """
+        cursor = self._select(_COLUMNS, since, until, registration, verdict)
+        return (self._row(row) for row in cursor)
 
     def listing(
-        self, *, since: dt.date | None = None, until: dt.date | None = None, registration: str | None = None
+        self,
+        *,
+        since: dt.date | None = None,
+        until: dt.date | None = None,
+        registration: str | None = None,
+        verdict: str | None = None,
     ) -> list[Listed]:
         """What a listing shows of each record, in order, without reading its result:
-        (id, checked_at, registration, reference, pilot, ok (1 or 0), fingerprint, legs); the filters of :meth:`find`.
+        (id, checked_at, registration, reference, pilot, ok (1 or 0), fingerprint, legs); the filters
+        (and refusals) of :meth:`find`.
 
         ``legs`` is the number of legs of the loading recorded: 1 for a single loading (and for
         a record made before trips were recorded), the legs of a trip. Read from the covering
@@ -392,12 +436,47 @@ class CheckLog:
         the listing's time), is paused while they are read.
         """
         with _no_cycle_collection():
-            return self._select(_LISTED.replace("legs", "coalesce(legs, 1)"), since, until, registration).fetchall()
+            return self._select(
+                _LISTED.replace("legs", "coalesce(legs, 1)"), since, until, registration, verdict
+            ).fetchall()
+
+    def _spellings(self, registration: str) -> list[str]:
+        """Every registration text stored whose :func:`~loadcheck.aircraft.registration_key` is the
+        given one's (``DEMO-4T`` and ``demo4t`` alike, where records hold both).
+
+        The stored texts are few (one or two an aircraft): they are read by skipping along the index
+        ``checks_by_registration`` (a seek per distinct text, not a pass over every record), keyed here
+        by the library's one rule, and the records then selected by ``registration IN (...)`` on that index.
+        """
+        from .aircraft import registration_key
+
+        key = registration_key(registration)
+        if not key:  # as Fleet.aircraft refuses it: no letter or digit matches no aircraft's
+            raise InputError(
+                Problem("registration", f"{registration!r} is not a registration: it has no letter or digit")
+            )
+        stored = self._db.execute(
+            "WITH RECURSIVE texts(text) AS ("
+            " SELECT min(registration) FROM checks"
+            " UNION ALL SELECT (SELECT min(registration) FROM checks WHERE registration > text)"
+            " FROM texts WHERE text IS NOT NULL)"
+            " SELECT text FROM texts WHERE text IS NOT NULL"
+        )
+        return [text for (text,) in stored if registration_key(text) == key]
 
     def _select(
-        self, columns: str, since: dt.date | None, until: dt.date | None, registration: str | None
+        self,
+        columns: str,
+        since: dt.date | None,
+        until: dt.date | None,
+        registration: str | None,
+        verdict: str | None = None,
     ) -> sqlite3.Cursor:
-        clauses, args = [], []
+        clauses: list[str] = []
+        args: list[Any] = []
+        if verdict is not None:
+            clauses.append("ok = ?")
+            args.append(int(verdict_ok(verdict)))
         if since is not None:
             clauses.append("checked_at >= ?")
             args.append(since.isoformat())
@@ -405,8 +484,9 @@ class CheckLog:
             clauses.append("checked_at < ?")
             args.append((until + dt.timedelta(days=1)).isoformat())
         if registration is not None:
-            clauses.append("registration = ?")
-            args.append(registration)
+            spellings = self._spellings(registration)
+            clauses.append(f"registration IN ({', '.join('?' * len(spellings))})" if spellings else "0")
+            args.extend(spellings)
         where = f" WHERE {' AND '.join(clauses)}" if clauses else ""
         return self._db.execute(f"SELECT {columns} FROM checks{where} ORDER BY id", args)
 

@@ -151,6 +151,18 @@ class Fleet:
             raise InputError(Problem("registration", f"the file of {registration!r} ({entry.path}) does not validate"))
         return entry.aircraft
 
+    def entry(self, registration: str) -> AircraftFile:
+        """The file of the usable aircraft of a registration, found as :meth:`aircraft` finds it
+        (by :func:`~loadcheck.aircraft.registration_key`: ``demo 4t`` is ``DEMO-4T``'s file).
+
+        Raises
+        ------
+        InputError
+            As :meth:`aircraft` does.
+        """
+        aircraft = self.aircraft(registration)
+        return next(e for e in self.entries if e.aircraft is aircraft)  # the one entry that holds it
+
     @cached_property
     def station_and_tank_ids(self) -> set[str]:
         """Every station and tank id of any usable aircraft."""

@@ -15,6 +15,7 @@ from hypothesis import strategies as st
 
 from loadcheck.checklog import CheckLog, verify, verify_current
 from loadcheck.cli import app
+from loadcheck.errors import InputError
 from loadcheck.fleet import load_fleet
 
 from .helpers import app_runner, examples, sample, tamper_check_log
@@ -318,6 +319,64 @@ def test_listing_leaves_the_cycle_collector_as_it_found_it(db):
         finally:
             gc.enable()
     assert [(row[5], row[7]) for row in rows] == [(1, 1), (0, 1)]  # within, then over the weight limit; one leg each
+
+
+# -- the filters of a listing: fail closed ------------------------------------------------------
+
+
+def _logged(log: CheckLog, registration: str | None, ok: bool) -> int:
+    """A record of a registration as stored (the text given), within limits or not."""
+    return log.add(
+        aircraft_data={"name": "test"},
+        fingerprint="f" * 64,
+        inputs={"load": {}},
+        result={"ok": ok, "category": "normal"},
+        registration=registration,
+    )
+
+
+def test_regression_the_registration_filter_was_exact_where_the_fleet_ignores_case_spaces_and_hyphens(db):
+    """``demo4t`` lists DEMO-4T's records (and those stored as ``demo 4t`` by an older file), as the
+    fleet finds the aircraft (loadcheck.aircraft.registration_key; common practice: a registration is
+    written with or without its hyphen, in either case): the exact filter gave none."""
+    with CheckLog(db) as log:
+        ids = [_logged(log, text, True) for text in ("DEMO-4T", "DEMO-6P", "demo 4t", None, "DEMO-4TX")]
+        for spelt in ("demo4t", "DEMO-4T", " Demo 4-T"):
+            assert [r.id for r in log.find(registration=spelt)] == [ids[0], ids[2]], spelt
+            assert [row[0] for row in log.listing(registration=spelt)] == [ids[0], ids[2]], spelt
+        assert log.listing(registration="NOPE-1") == []
+        with pytest.raises(InputError, match="'-' is not a registration: it has no letter or digit"):
+            log.find(registration="-")
+
+
+def test_regression_an_unknown_verdict_listed_every_record(db):
+    """The verdict filter is ``within`` or ``out``, in the library's query; any other word (``WITHIN``,
+    ``bogus``) is refused naming them (fail closed, DESIGN.md), where the desk listed every record."""
+    with CheckLog(db) as log:
+        within, out = _logged(log, "DEMO-4T", True), _logged(log, "DEMO-4T", False)
+        assert [r.id for r in log.find(verdict="within")] == [within]
+        assert [row[0] for row in log.listing(verdict="out", registration="demo4t")] == [out]
+        for word in ("WITHIN", "bogus", ""):
+            with pytest.raises(InputError) as refused:
+                log.listing(verdict=word)
+            assert [p.describe() for p in refused.value.problems] == [
+                f"verdict: unknown verdict {word!r}; expected within or out"
+            ]
+            with pytest.raises(InputError):
+                log.find(verdict=word)  # refused when called, before a record is read
+
+
+def test_regression_log_list_of_another_spelling_printed_nothing(runner, db):
+    """``log list --registration demo4t`` lists DEMO-4T's records (it printed none, exit 0); an unknown
+    ``--verdict`` exits 2 in the library's words."""
+    _record(db, "trainer4/within.toml")
+    over = _record(db, "trainer4/over_weight.toml")
+    listed = runner.invoke(app, ["log", "list", "--registration", "demo4t"])
+    assert listed.exit_code == 0 and "DEMO-4T" in listed.output and "OUT OF LIMITS" in listed.output
+    out = runner.invoke(app, ["log", "export", "--registration", "demo 4t", "--verdict", "out"])
+    assert out.exit_code == 0 and [json.loads(line)["id"] for line in out.stdout.splitlines()] == [over]
+    refused = runner.invoke(app, ["log", "list", "--verdict", "WITHIN"])
+    assert refused.exit_code == 2 and "verdict: unknown verdict 'WITHIN'; expected within or out" in refused.output
 
 
 # The seal is SHA-256 over json.dumps(fields, separators=(",", ":")) (the form records were sealed

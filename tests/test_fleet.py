@@ -823,3 +823,17 @@ def test_regression_fleet_list_did_not_flag_a_record_dated_in_the_future(tmp_pat
     assert "the empty-weight record is dated 2030-01-01, after today: check its date" in line.problems
     (today,) = fleet_listing(load_fleet(folder), today=dt.date(2030, 1, 1))
     assert not any("after today" in p for p in today.problems)
+
+
+def test_fleet_entry_is_the_file_of_the_aircraft_the_fleet_finds() -> None:
+    """Fleet.entry finds a registration as Fleet.aircraft does (registration_key; common practice:
+    written with or without the hyphen, in either case) and gives that aircraft's file; it refuses
+    as Fleet.aircraft refuses."""
+    from loadcheck.errors import InputError
+    from loadcheck.fleet import load_fleet
+
+    fleet = load_fleet(SAMPLES)
+    entry = fleet.entry("demo 4t")
+    assert entry.aircraft is fleet.aircraft("DEMO-4T") and entry.path == SAMPLES / "trainer4" / "aircraft.toml"
+    with pytest.raises(InputError, match="unknown registration 'NOPE-1'"):
+        fleet.entry("NOPE-1")

@@ -334,3 +334,28 @@ def test_regression_an_empty_category_was_replaced_by_the_aircrafts_first(desk: 
     response = _post_check(client, form)
     assert response.status_code == 422 and "unknown category" in response.text and "WITHIN LIMITS" not in response.text
     assert _records(desk) == []
+
+
+# -- registrations as the fleet compares them ----------------------------------------------------
+
+
+@pytest.mark.parametrize("spelt", ["demo 4t", "DEMO4T", "demo-4t", " DEMO-4T"])
+def test_regression_api_check_of_a_registration_spelt_otherwise_was_an_internal_error(
+    reading_desk: dict[str, Any], spelt: str
+) -> None:
+    """``demo 4t`` is DEMO-4T, as the command line and the fleet find it (loadcheck.aircraft.registration_key;
+    common practice: a registration is written with or without its hyphen, in either case): the same
+    answer as the file's own spelling, where the desk gave 500 "Internal error"."""
+    client = _client(reading_desk, "pia")
+    exact = client.post("/api/check", json=BODY)
+    other = client.post("/api/check", json={**BODY, "registration": spelt})
+    assert other.status_code == exact.status_code == 200, other.text
+    assert other.json() == exact.json()
+
+
+def test_api_check_of_an_unknown_registration_names_it(reading_desk: dict[str, Any]) -> None:
+    """An unknown registration is refused in the fleet's words (422, the registration named), never a 500."""
+    response = _client(reading_desk, "pia").post("/api/check", json={**BODY, "registration": "NOPE-1"})
+    assert response.status_code == 422, response.text
+    [problem] = response.json()["problems"]
+    assert problem["field"] == "registration" and "unknown registration 'NOPE-1'" in problem["message"]

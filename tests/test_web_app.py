@@ -10,6 +10,7 @@ from __future__ import annotations
 
 import json
 import re
+from html import escape
 from pathlib import Path
 from typing import Any
 
@@ -1246,3 +1247,129 @@ def test_the_desk_types_its_forms_and_answers_without_any() -> None:
         n.attr for n in ast.walk(tree) if isinstance(n, ast.Attribute)
     }
     assert "Any" not in used
+
+
+# -- registrations as the fleet compares them ----------------------------------------------------
+
+
+@pytest.mark.parametrize("spelt", ["demo-4t", "DEMO4T", "demo 4t"])
+def test_regression_pages_of_a_registration_spelt_otherwise_were_an_internal_error(
+    reading_desk: dict[str, Any], spelt: str
+) -> None:
+    """The check form, a check and the mechanic's page of ``demo-4t`` are DEMO-4T's, as the command line
+    finds it (loadcheck.aircraft.registration_key; common practice: a registration is written with or
+    without its hyphen, in either case), where each gave 500 "Internal error"."""
+    pia = _client(reading_desk, "pia")
+    form = pia.get(f"/aircraft/{spelt}")
+    assert form.status_code == 200 and "Check a loading: DEMO-4T" in form.text
+    checked = _post_check(pia, WITHIN, registration=spelt)
+    exact = _post_check(pia, WITHIN)
+    assert checked.status_code == exact.status_code == 200
+    assert _without_chart(checked.text) == _without_chart(exact.text)
+    mechanic = _client(reading_desk, "mo").get(f"/mechanic/{spelt}")
+    assert mechanic.status_code == 200 and "Empty-weight record: DEMO-4T" in mechanic.text
+
+
+def _without_chart(page: str) -> str:
+    """A result page without its chart (whose SVG ids differ each drawing) and its security token."""
+    return re.sub(r"<svg.*?</svg>", "", page, flags=re.S).replace(csrf_of(page), "")
+
+
+def test_a_pages_unknown_registration_is_refused_naming_it(reading_desk: dict[str, Any]) -> None:
+    """An unknown registration is the fleet's refusal (422, named), on the pilot's and the mechanic's pages."""
+    for client, path in (
+        (_client(reading_desk, "pia"), "/aircraft/NOPE-1"),
+        (_client(reading_desk, "mo"), "/mechanic/NOPE-1"),
+    ):
+        response = client.get(path)
+        assert response.status_code == 422 and "unknown registration &#39;NOPE-1&#39;" in response.text, path
+
+
+def test_regression_a_proposal_made_under_another_spelling_is_confirmed(desk: dict[str, Any]) -> None:
+    """A proposal made at /mechanic/demo4t is confirmed through its page's form (posted to the
+    aircraft's own spelling, DEMO-4T): one aircraft, compared as the fleet compares registrations."""
+    from loadcheck.files import load_aircraft
+
+    mo = _client(desk, "mo")
+    page = mo.get("/mechanic/demo4t").text
+    shown = mo.post(
+        "/mechanic/demo4t/propose",
+        data={"kind": "weighing", "text": (SAMPLES / "trainer4" / "weighing.toml").read_text(), "csrf": csrf_of(page)},
+    )
+    assert shown.status_code == 200, shown.text
+    action = re.search(r'<form method="post" action="([^"]+/confirm)"', shown.text).group(1)  # type: ignore[union-attr]
+    token = re.search(r'name="token" value="([^"]+)"', shown.text).group(1)  # type: ignore[union-attr]
+    written = mo.post(action, data={"token": token, "confirm": "yes", "csrf": csrf_of(shown.text)})
+    assert written.status_code == 200 and "Written:" in written.text
+    assert load_aircraft(desk["fleet"] / "trainer4" / "aircraft.toml").empty.weight != 1718.0
+
+
+# -- the check log's filters: fail closed ------------------------------------------------------
+
+
+def _three_records(desk: dict[str, Any]) -> TestClient:
+    """Two checks within limits and one out (over the front seats' 420 lb), all DEMO-4T's; the dispatcher's client."""
+    pia = _client(desk, "pia")
+    _post_check(pia, WITHIN, route="record")
+    _post_check(pia, {**WITHIN, "load.rear": "150"}, route="record")
+    _post_check(pia, {**WITHIN, "load.front": "700"}, route="record")
+    return _client(desk, "dan")
+
+
+@pytest.mark.parametrize("path", ["/api/records", "/records", "/records/export"])
+def test_regression_an_unknown_verdict_listed_every_record(desk: dict[str, Any], path: str) -> None:
+    """``?verdict=WITHIN`` and ``?verdict=bogus`` listed every record, those out of limits included:
+    refused (422) in the library's words naming the verdicts (fail closed, DESIGN.md)."""
+    dan = _three_records(desk)
+    for word in ("WITHIN", "bogus"):
+        response = dan.get(f"{path}?verdict={word}&date=")
+        assert response.status_code == 422, (path, word, response.text)
+        words = f"verdict: unknown verdict {word!r}; expected within or out"
+        if path.startswith("/api/"):
+            assert [p["message"] for p in response.json()["problems"]] == [words]
+        else:
+            assert escape(words, quote=True).replace("&#x27;", "&#39;") in response.text
+    assert dan.get(f"{path}?verdict=&date=").status_code == 200  # the form's own "any": no filter
+
+
+@pytest.mark.parametrize("path", ["/api/records", "/records", "/records/export"])
+def test_regression_a_repeated_or_unknown_filter_was_read_in_part(desk: dict[str, Any], path: str) -> None:
+    """``verdict=within&verdict=out`` was read as ``out`` (the last) and ``colour=red`` ignored: both
+    refused (422), naming the parameter, nothing listed (common practice: a filter the user gave is
+    applied or refused, never left out)."""
+    dan = _three_records(desk)
+    repeated = dan.get(f"{path}?verdict=within&verdict=out")
+    assert repeated.status_code == 422
+    assert "gives the parameter &#39;verdict&#39; more than once" in repeated.text.replace("'", "&#39;")
+    unknown = dan.get(f"{path}?colour=red")
+    assert unknown.status_code == 422
+    assert "takes no parameter &#39;colour&#39;: nothing was listed" in unknown.text.replace("'", "&#39;")
+
+
+def test_regression_the_registration_filter_was_exact(desk: dict[str, Any]) -> None:
+    """``?registration=demo4t`` gave [] where DEMO-4T has records: the check log's query compares
+    registrations as the fleet does (loadcheck.aircraft.registration_key), for the desk and ``log list`` alike."""
+    dan = _three_records(desk)
+    every = dan.get("/api/records?date=").json()
+    assert len(every) == 3
+    for spelt in ("demo4t", "demo 4t", "DEMO-4T"):
+        assert dan.get("/api/records", params={"registration": spelt, "date": ""}).json() == every, spelt
+    out = dan.get("/api/records?registration=demo4t&verdict=out&date=").json()
+    assert [r["ok"] for r in out] == [False]
+    page = dan.get("/records?registration=demo4t&date=").text
+    assert len(re.findall(r'href="/records/\d+"', page)) == 3
+    assert '<option value="demo4t" selected>demo4t</option>' in page  # the filter shown as given
+
+
+@pytest.mark.parametrize("path", ["/fleet", "/api/fleet"])
+def test_regression_the_fleet_listing_read_a_repeated_or_unknown_parameter_in_part(
+    reading_desk: dict[str, Any], path: str
+) -> None:
+    """``?max_age=30&max_age=5000`` was read as 5000 (the last) and ``?max_ag=30`` ignored (every record
+    then judged by 36 months): both refused (422, named; common practice: a filter given is applied or refused)."""
+    client = _client(reading_desk, "pia")
+    assert client.get(f"{path}?max_age=30").status_code == 200
+    repeated = client.get(f"{path}?max_age=30&max_age=5000")
+    assert repeated.status_code == 422 and "more than once" in repeated.text
+    unknown = client.get(f"{path}?max_ag=30")
+    assert unknown.status_code == 422 and "takes no parameter" in unknown.text and "max_age" in unknown.text

@@ -194,7 +194,21 @@ def _date(text: str | None, option: str) -> dt.date | None:
 
 SinceOpt = Annotated[str | None, typer.Option(metavar="DATE", help="From this date (YYYY-MM-DD, UTC).")]
 UntilOpt = Annotated[str | None, typer.Option(metavar="DATE", help="To this date, inclusive.")]
-RegOpt = Annotated[str | None, typer.Option("--registration", "-r", metavar="REGISTRATION", help="Only this aircraft.")]
+RegOpt = Annotated[
+    str | None,
+    typer.Option(
+        "--registration",
+        "-r",
+        metavar="REGISTRATION",
+        help="Only this aircraft (compared without case, spaces or hyphens: demo4t is DEMO-4T).",
+    ),
+]
+VerdictOpt = Annotated[
+    str | None,
+    typer.Option(
+        metavar="within|out", help="Only checks within limits, or only those out of limits.", show_default=False
+    ),
+]
 
 
 def _log(db: Path | None) -> CheckLog:
@@ -208,7 +222,13 @@ def _log(db: Path | None) -> CheckLog:
 
 @log_app.command("list", short_help="List recorded checks.")
 @input_errors
-def log_list(db: DbOpt = None, since: SinceOpt = None, until: UntilOpt = None, registration: RegOpt = None) -> None:
+def log_list(
+    db: DbOpt = None,
+    since: SinceOpt = None,
+    until: UntilOpt = None,
+    registration: RegOpt = None,
+    verdict: VerdictOpt = None,
+) -> None:
     """List recorded checks.
 
     Example:
@@ -222,7 +242,9 @@ def log_list(db: DbOpt = None, since: SinceOpt = None, until: UntilOpt = None, r
 
     with _log(db) as log:
         records = list(
-            log.listing(since=_date(since, "--since"), until=_date(until, "--until"), registration=registration)
+            log.listing(
+                since=_date(since, "--since"), until=_date(until, "--until"), registration=registration, verdict=verdict
+            )
         )
     render_check_log(log.path, records, PILOT_CAUTION, _console())
 
@@ -243,6 +265,7 @@ def log_export(
     since: SinceOpt = None,
     until: UntilOpt = None,
     registration: RegOpt = None,
+    verdict: VerdictOpt = None,
     format: Annotated[
         Literal["csv", "jsonl"],
         typer.Option(metavar="csv|jsonl", help="csv (one line per record) or jsonl (everything)."),
@@ -265,7 +288,10 @@ def log_export(
 
     with _log(db) as log:
         text = export_text(
-            log.find(since=_date(since, "--since"), until=_date(until, "--until"), registration=registration), format
+            log.find(
+                since=_date(since, "--since"), until=_date(until, "--until"), registration=registration, verdict=verdict
+            ),
+            format,
         )
     if out is None:
         typer.echo(text, nl=False)

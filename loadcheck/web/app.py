@@ -39,12 +39,13 @@ from starlette.exceptions import HTTPException as StarletteHTTPException
 from starlette.middleware.sessions import SessionMiddleware
 
 from .. import __version__
+from ..aircraft import registration_key
 from ..caution import MECHANIC_CAUTION, PILOT_CAUTION
 from ..display import fmt, unit_label
 from ..errors import InputError, LoadcheckError, Problem
 from ..loading import burn_order
 from ..words import burn_path_summary, condition_words, stretch_text, within_limits_text
-from .form import FORM_FIELDS, refuse_repeated, refuse_unknown
+from .form import FORM_FIELDS, refuse_query, refuse_repeated, refuse_unknown
 from .security import MAX_BODY_BYTES, BodyLimit, SignInThrottle, csrf_ok, csrf_token
 from .users import Account, UserStore
 
@@ -339,10 +340,9 @@ class Desk:
 
     def aircraft_path(self, registration: str) -> tuple[Aircraft, Path]:
         """The usable aircraft of a registration and its file (the fleet read afresh: a new record shows at once)."""
-        fleet = self.fleet()
-        aircraft = fleet.aircraft(registration)
-        entry = next(e for e in fleet.entries if e.registration == registration)
-        return aircraft, entry.path
+        entry = self.fleet().entry(registration)  # the library's one registration comparison, as the command line's
+        assert entry.aircraft is not None, "Fleet.entry gives a usable aircraft's file"
+        return entry.aircraft, entry.path
 
     def public(self, text: str) -> str:
         """A message as a page may show it: no folder of this machine in it."""
@@ -794,6 +794,7 @@ def create_app(
     @app.get("/fleet", response_class=HTMLResponse)
     def fleet_page(request: Request, max_age: int | None = None) -> Response:
         _account(request)
+        refuse_query(request.query_params.multi_items(), ("max_age",))
         from ..fleet import RECORD_AGE_DAYS, fleet_listing
 
         lines = fleet_listing(desk.fleet(), max_age)
@@ -891,7 +892,7 @@ def create_app(
         return page(
             request,
             "result.html",
-            title=f"Result: {registration}",
+            title=f"Result: {aircraft.registration}",
             aircraft=aircraft,
             result=result,
             typed=typed,
@@ -959,18 +960,29 @@ def create_app(
         """Every record for a dispatcher; a pilot's own otherwise."""
         return records if account.has("dispatcher") else (r for r in records if r.pilot == account.name)
 
+    _FILTERS = ("registration", "verdict", "date")
+
     def _found(
         account: Account, registration: str | None, verdict: str | None, day: dt.date | None
     ) -> list[LoggedCheck]:
-        from ..checklog import CheckLog
+        """The records the filters select, by the check log's own query (the command line's ``log list``):
+        the registration compared as the fleet compares it, the verdict ``within`` or ``out`` (any other
+        refused in the library's words), an empty one (the form's "every aircraft", "any") no filter.
 
+        Raises
+        ------
+        LoadcheckError
+            The library's refusal of a filter (422).
+        """
+        from ..checklog import CheckLog, verdict_ok
+
+        if verdict:
+            verdict_ok(verdict)  # refused before the log is looked for: a bad filter is refused on an empty log too
         if not desk.db.exists():
             return []
         with CheckLog(desk.db) as log:
-            records = list(_visible(account, log.find(since=day, until=day, registration=registration or None)))
-        if verdict in ("within", "out"):
-            records = [r for r in records if r.ok == (verdict == "within")]
-        return records
+            found = log.find(since=day, until=day, registration=registration or None, verdict=verdict or None)
+            return list(_visible(account, found))
 
     def _day(date: str | None) -> dt.date | None:
         if date is None:
@@ -987,9 +999,14 @@ def create_app(
         request: Request, registration: str | None = None, verdict: str | None = None, date: str | None = None
     ) -> Response:
         account = _account(request)
+        refuse_query(request.query_params.multi_items(), _FILTERS)
         day = _day(date)
         records = _found(account, registration, verdict, day)
         registrations = sorted(e.registration for e in desk.fleet().entries if e.registration)
+        if (
+            registration and registration not in registrations
+        ):  # shown chosen as given (``demo4t``), not as "every aircraft"
+            registrations.append(registration)
         return page(
             request,
             "records.html",
@@ -1028,6 +1045,7 @@ def create_app(
         from ..checklog import export_text
 
         account = _account(request)
+        refuse_query(request.query_params.multi_items(), ("format", *_FILTERS))
         if format not in ("csv", "jsonl"):
             raise HTTPException(422, f"format: {format!r} is not an export format; expected csv or jsonl")
         text = export_text(_found(account, registration, verdict, _day(date)), format)
@@ -1082,7 +1100,7 @@ def create_app(
         return page(
             request,
             "mechanic.html",
-            title=f"Empty-weight record: {registration}",
+            title=f"Empty-weight record: {aircraft.registration}",
             aircraft=aircraft,
             history=history(aircraft),
             problems=[],
@@ -1123,7 +1141,7 @@ def create_app(
                 request,
                 "mechanic.html",
                 422,
-                title=f"Empty-weight record: {registration}",
+                title=f"Empty-weight record: {aircraft.registration}",
                 aircraft=aircraft,
                 history=history(aircraft),
                 problems=desk.problems(error),
@@ -1137,7 +1155,7 @@ def create_app(
         return page(
             request,
             "proposal.html",
-            title=f"New empty-weight record: {registration}",
+            title=f"New empty-weight record: {aircraft.registration}",
             aircraft=aircraft,
             proposal=proposal,
             token=token,
@@ -1154,7 +1172,11 @@ def create_app(
         token = _text(form, "token")
         with desk.lock:
             pending = desk.pending.get(token)
-        if pending is None or pending.user != account.name or pending.registration != registration:
+        if (
+            pending is None
+            or pending.user != account.name
+            or registration_key(pending.registration) != registration_key(registration)
+        ):  # compared as the fleet compares registrations: /mechanic/demo4t/confirm is DEMO-4T's
             raise HTTPException(404, "this proposed record is no longer waiting: enter the weighing or changes again")
         note = _text(form, "note").strip() or None
         try:
@@ -1171,7 +1193,7 @@ def create_app(
                 request,
                 "proposal.html",
                 409,
-                title=f"New empty-weight record: {registration}",
+                title=f"New empty-weight record: {aircraft.registration}",
                 aircraft=aircraft,
                 proposal=pending.proposal,
                 token=token,
@@ -1185,7 +1207,7 @@ def create_app(
         return page(
             request,
             "mechanic.html",
-            title=f"Empty-weight record: {registration}",
+            title=f"Empty-weight record: {aircraft.registration}",
             aircraft=aircraft,
             history=history(aircraft),
             problems=[],
@@ -1230,6 +1252,7 @@ def create_app(
         from ..fleet import fleet_listing
 
         _account(request)
+        refuse_query(request.query_params.multi_items(), ("max_age",))
 
         def named(path: str) -> str:  # as its user knows it: trainer4/aircraft.toml, not the server's path
             try:
@@ -1310,6 +1333,7 @@ def create_app(
     ) -> list[JsonObject]:
         """Records of checks (a pilot's own; every pilot's for a dispatcher), without their inputs and results."""
         account = _account(request)
+        refuse_query(request.query_params.multi_items(), _FILTERS)
         return [r.summary() for r in _found(account, registration, verdict, _day(date if date is not None else ""))]
 
     @api.get("/api/records/{record_id}", response_model=None)
