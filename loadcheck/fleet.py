@@ -90,6 +90,11 @@ class AircraftFile:
     problems: list[str] = field(default_factory=list)
 
 
+_SPELLINGS_KEPT = 1024
+"""Registration texts :meth:`Fleet.aircraft` keeps the aircraft of (a day with more spellings
+than that finds the others by their key each time)."""
+
+
 @dataclass(frozen=True)
 class Fleet:
     """The aircraft of a folder, by registration."""
@@ -120,6 +125,12 @@ class Fleet:
             and key not in duplicates
         }
 
+    @cached_property
+    def _by_text(self) -> dict[str, Aircraft]:
+        """The usable aircraft found so far by the text a row gave its registration in (each
+        found by its key, :meth:`aircraft`; a refused text is not kept)."""
+        return {}
+
     def aircraft(self, registration: str) -> Aircraft:
         """The usable aircraft of a registration.
 
@@ -129,13 +140,18 @@ class Fleet:
             Unknown registration (the known ones listed), one found in two files, or one
             whose file does not validate.
         """
+        known = self._by_text.get(registration)
+        if known is not None:  # a fleet day asks once or twice a row, mostly in the same few spellings
+            return known
         key = registration_key(registration)  # as a loading's registration is compared with its aircraft's
         if not key:  # "-" or "...": no letter or digit, so no aircraft's (never matched to one alike)
             raise InputError(
                 Problem("registration", f"{registration!r} is not a registration: it has no letter or digit")
             )
         usable = self._usable.get(key)
-        if usable is not None:  # a fleet day asks once a row
+        if usable is not None:
+            if len(self._by_text) < _SPELLINGS_KEPT:
+                self._by_text[registration] = usable
             return usable
         if key in self.duplicates:
             files = ", ".join(str(p) for p in self.duplicates[key])

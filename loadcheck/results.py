@@ -9,8 +9,8 @@ start-up of a command-line check within its budget (benchmarks/startup.py).
 from __future__ import annotations
 
 import json
-from dataclasses import dataclass, field, fields
-from typing import Any, Literal
+from dataclasses import MISSING, dataclass, field, fields
+from typing import Any, Literal, TypeVar
 
 __all__ = [
     "AircraftInfo",
@@ -119,6 +119,47 @@ def _converter(cls: type) -> Any:
     return convert
 
 
+_R = TypeVar("_R", bound=type)
+
+
+def _quick_init(cls: _R) -> _R:
+    """The class's ``__init__`` written again to set each field's slot directly, as one function.
+
+    The ``__init__`` a frozen dataclass gets sets each field through ``object.__setattr__``,
+    looked up by name on every call; this one calls each slot's own setter, found once, which
+    takes well under half the time (a fleet check builds about fifty results a flight). The
+    arguments, their defaults and default factories and the order the fields are set in are the
+    dataclass's own, and the instance stays frozen (assigning to a field afterwards is refused
+    as before). For the slotted, keyword-only dataclasses of this module, without
+    ``__post_init__``.
+    """
+    assert "__post_init__" not in cls.__dict__ and "__slots__" in cls.__dict__
+    scope: dict[str, Any] = {"_FACTORY": object()}
+    params, lines = [], []
+    for f in fields(cls):
+        name = f.name
+        slot = next(k.__dict__[name] for k in cls.__mro__ if name in k.__dict__)  # a member descriptor
+        scope[f"_set_{name}"] = slot.__set__  # the slot's own setter
+        if f.default is not MISSING:
+            scope[f"_default_{name}"] = f.default
+            params.append(f"{name}=_default_{name}")
+        elif f.default_factory is not MISSING:
+            scope[f"_factory_{name}"] = f.default_factory
+            params.append(f"{name}=_FACTORY")
+            lines.append(f"    if {name} is _FACTORY: {name} = _factory_{name}()")
+        else:
+            params.append(name)
+        lines.append(f"    _set_{name}(self, {name})")
+    code = f"def __init__(self, *, {', '.join(params)}):\n" + "\n".join(lines or ["    pass"])
+    exec(code, scope)  # code written here from the class's own field names
+    init = scope["__init__"]
+    init.__qualname__ = f"{cls.__qualname__}.__init__"
+    init.__doc__ = cls.__init__.__doc__
+    type.__setattr__(cls, "__init__", init)
+    return cls
+
+
+@_quick_init
 @dataclass(frozen=True, kw_only=True, slots=True)
 class Item(Result):
     """One line of the moment table.
@@ -140,6 +181,7 @@ class Item(Result):
     fuel_volume: float | None = None
 
 
+@_quick_init
 @dataclass(frozen=True, kw_only=True, slots=True)
 class Margins(Result):
     """Room left to each limit at a condition; negative where the limit is exceeded.
@@ -161,6 +203,7 @@ class Margins(Result):
     weight: float | None = None
 
 
+@_quick_init
 @dataclass(frozen=True, kw_only=True, slots=True)
 class Condition(Result):
     """One of ramp, takeoff, landing, zero fuel.
@@ -185,6 +228,7 @@ class Condition(Result):
     margins: Margins
 
 
+@_quick_init
 @dataclass(frozen=True, kw_only=True, slots=True)
 class LeavePoint(Result):
     """Where the fuel-burn path first leaves the envelope.
@@ -206,6 +250,7 @@ class LeavePoint(Result):
     subject: str | None = None
 
 
+@_quick_init
 @dataclass(frozen=True, kw_only=True, slots=True)
 class Excursion(Result):
     """A stretch of the burn path outside the envelope: fuel burned since takeoff where it
@@ -215,6 +260,7 @@ class Excursion(Result):
     to_burned: float
 
 
+@_quick_init
 @dataclass(frozen=True, kw_only=True, slots=True)
 class PathSample(Result):
     """A point of the fuel-burn path, for drawing it: fuel burned since takeoff and
@@ -226,6 +272,7 @@ class PathSample(Result):
     lateral_arm: float | None = None
 
 
+@_quick_init
 @dataclass(frozen=True, kw_only=True, slots=True)
 class BurnPath(Result):
     """The fuel-burn path from takeoff to landing.
@@ -241,6 +288,7 @@ class BurnPath(Result):
     samples: list[PathSample] = field(default_factory=list, metadata={"drawing": True})
 
 
+@_quick_init
 @dataclass(frozen=True, kw_only=True, slots=True)
 class Finding(Result):
     """A limit exceeded (severity ``limit``) or something to note (``warning``).
@@ -263,6 +311,7 @@ class Finding(Result):
     subject: str | None = None
 
 
+@_quick_init
 @dataclass(frozen=True, kw_only=True, slots=True)
 class AircraftInfo(Result):
     """Which aircraft data was used."""
@@ -273,6 +322,7 @@ class AircraftInfo(Result):
     empty_weight_date: str | None = None
 
 
+@_quick_init
 @dataclass(frozen=True, kw_only=True, slots=True)
 class UnitsInfo(Result):
     """Units of every number in the result."""
@@ -283,6 +333,7 @@ class UnitsInfo(Result):
     moment: str
 
 
+@_quick_init
 @dataclass(frozen=True, kw_only=True, slots=True)
 class CheckResult(Result):
     """The answer to "is this loading within limits?" (DESIGN.md, "Results")."""
@@ -310,6 +361,7 @@ class CheckResult(Result):
 # -- trips of several legs (docs/file-format.md, "Trips of several legs") ---------------------
 
 
+@_quick_init
 @dataclass(frozen=True, kw_only=True, slots=True)
 class TripLeg(Result):
     """One leg of a trip: its number (from 1), its label, and its full single check.
@@ -330,6 +382,7 @@ class TripLeg(Result):
         return head | self.check.to_dict()
 
 
+@_quick_init
 @dataclass(frozen=True, kw_only=True, slots=True)
 class TripFinding(Finding):
     """A finding of one leg: the leg's :class:`Finding`, naming the leg (number and label)."""
@@ -338,6 +391,7 @@ class TripFinding(Finding):
     label: str | None = None
 
 
+@_quick_init
 @dataclass(frozen=True, kw_only=True, slots=True)
 class TripResult(Result):
     """The answer to "is every leg of this trip within limits?".
