@@ -140,9 +140,9 @@ class Fleet:
             Unknown registration (the known ones listed), one found in two files, or one
             whose file does not validate.
         """
-        known = self._by_text.get(registration)
-        if known is not None:  # a fleet day asks once or twice a row, mostly in the same few spellings
-            return known
+        seen = self._by_text.get(registration)
+        if seen is not None:  # a fleet day asks once or twice a row, mostly in the same few spellings
+            return seen
         key = registration_key(registration)  # as a loading's registration is compared with its aircraft's
         if not key:  # "-" or "...": no letter or digit, so no aircraft's (never matched to one alike)
             raise InputError(

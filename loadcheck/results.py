@@ -154,7 +154,6 @@ def _quick_init(cls: _R) -> _R:
     exec(code, scope)  # code written here from the class's own field names
     init = scope["__init__"]
     init.__qualname__ = f"{cls.__qualname__}.__init__"
-    init.__doc__ = cls.__init__.__doc__
     type.__setattr__(cls, "__init__", init)
     return cls
 
