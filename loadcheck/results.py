@@ -9,7 +9,7 @@ start-up of a command-line check within its budget (benchmarks/startup.py).
 from __future__ import annotations
 
 import json
-from dataclasses import MISSING, dataclass, field, fields
+from dataclasses import MISSING, dataclass, field, fields, is_dataclass
 from typing import Any, Literal, TypeVar
 
 __all__ = [
@@ -77,46 +77,96 @@ def _converter(cls: type) -> Any:
     (its own ``to_dict``); a list converted item by item; any other value taken as it is. A
     field whose annotation names a plain type of this module (``float``, ``str | None``,
     ``list[Finding]``) skips the type tests its values cannot need; any other annotation gets
-    the general rule (:func:`_plain`).
+    the general rule (:func:`_plain`). A field holding a result of this module's class it names
+    (or a list of them) has that class's conversion written in place (:func:`_convert_lines`),
+    where the value is of exactly that class; a value of any other class is converted by its
+    own ``to_dict``, as before.
     """
     convert = _CONVERTERS.get(cls)
     if convert is not None:
         return convert
-    results = {name for name, value in globals().items() if isinstance(value, type) and issubclass(value, Result)}
     lines = [
         "def to_dict(self):",
         "    if self.__class__ is not cls:",  # a subclass gets its own conversion (its own fields)
         "        return Result.to_dict(self)",
-        "    out = {}",
     ]
-    drawing = {f.name for f in fields(cls) if f.metadata.get("drawing")}  # type: ignore[arg-type]
-    for f in fields(cls):  # type: ignore[arg-type]
-        if f.name in drawing:
+    scope: dict[str, Any] = {"cls": cls, "Result": Result, "_plain": _plain}
+    _convert_lines(cls, "self", "out", 1, lines, scope, (cls,))
+    lines.append("    return out")
+    exec("\n".join(lines), scope)  # code written here from the classes' own field names
+    convert = scope["to_dict"]
+    convert.__doc__ = Result.to_dict.__doc__
+    _CONVERTERS[cls] = convert
+    return convert
+
+
+def _written_in_place(name: str, within: tuple[type, ...]) -> type | None:
+    """The result class of this module an annotation names, where its conversion can be written
+    in place: the generated one (the class has no ``to_dict`` of its own), not one already
+    being written (no class holds itself)."""
+    found = globals().get(name)
+    if not (isinstance(found, type) and issubclass(found, Result)):
+        return None
+    if "to_dict" in found.__dict__ and found.__dict__["to_dict"] is not _CONVERTERS.get(found):
+        return None
+    return None if found in within else found
+
+
+def _convert_lines(
+    cls: type, source: str, target: str, depth: int, lines: list[str], scope: dict[str, Any], within: tuple[type, ...]
+) -> None:
+    """The statements that convert ``source`` (a variable holding a ``cls`` exactly) into a new
+    dictionary ``target``, at ``depth`` (indentation and variable names); see :func:`_converter`."""
+    assert is_dataclass(cls)
+    results = {name for name, value in globals().items() if isinstance(value, type) and issubclass(value, Result)}
+    pad = "    " * depth
+    v = f"v{depth}"
+    lines.append(f"{pad}{target} = {{}}")
+    for f in fields(cls):
+        if f.metadata.get("drawing"):
             continue
         kind = f.type if isinstance(f.type, str) else ""
         options = [part.strip() for part in kind.split("|")]
         options = [o for o in options if o != "None"]
         one = options[0] if len(options) == 1 else ""
         item = one[5:-1] if one.startswith("list[") and one.endswith("]") else ""
+        lines.append(f"{pad}{v} = {source}.{f.name}")
+        lines.append(f"{pad}if {v} is not None:")
+        inner = pad + "    "
+        key = f"{target}[{f.name!r}]"
         if one in _SCALARS:
-            value = "v"
+            lines.append(f"{inner}{key} = {v}")
         elif one in results:
-            value = "v.to_dict()"
+            held = _written_in_place(one, within)
+            if held is None:
+                lines.append(f"{inner}{key} = {v}.to_dict()")
+                continue
+            scope[held.__name__] = held
+            made = f"o{depth + 1}"
+            lines.append(f"{inner}if {v}.__class__ is {held.__name__}:")
+            _convert_lines(held, v, made, depth + 2, lines, scope, (*within, held))
+            lines.append(f"{inner}    {key} = {made}")
+            lines.append(f"{inner}else:")
+            lines.append(f"{inner}    {key} = {v}.to_dict()")
         elif item in results:
-            value = "[x.to_dict() for x in v]"
+            held = _written_in_place(item, within)
+            if held is None:
+                lines.append(f"{inner}{key} = [x.to_dict() for x in {v}]")
+                continue
+            scope[held.__name__] = held
+            x, made, many = f"x{depth}", f"o{depth + 2}", f"l{depth}"
+            lines.append(f"{inner}{many} = []")
+            lines.append(f"{inner}for {x} in {v}:")
+            lines.append(f"{inner}    if {x}.__class__ is {held.__name__}:")
+            _convert_lines(held, x, made, depth + 3, lines, scope, (*within, held))
+            lines.append(f"{inner}        {many}.append({made})")
+            lines.append(f"{inner}    else:")
+            lines.append(f"{inner}        {many}.append({x}.to_dict())")
+            lines.append(f"{inner}{key} = {many}")
         elif item in _SCALARS:
-            value = "list(v)"
+            lines.append(f"{inner}{key} = list({v})")
         else:
-            value = "_plain(v)"
-        lines.append(f"    v = self.{f.name}")
-        lines.append(f"    if v is not None: out[{f.name!r}] = {value}")
-    lines.append("    return out")
-    scope: dict[str, Any] = {"cls": cls, "Result": Result, "_plain": _plain}
-    exec("\n".join(lines), scope)  # code written here from the class's own field names
-    convert = scope["to_dict"]
-    convert.__doc__ = Result.to_dict.__doc__
-    _CONVERTERS[cls] = convert
-    return convert
+            lines.append(f"{inner}{key} = _plain({v})")
 
 
 _R = TypeVar("_R", bound=type)
