@@ -560,7 +560,8 @@ def _csv_cells(
 ) -> _RawRow:
     """One CSV row read into loading-file values; ``roles`` (:func:`_roles`) and ``fixed``
     (:func:`_fixed_columns`) are the header's, found once for the file where given."""
-    where = f"{path}:{line}"
+    source = str(path)
+    where = f"{source}:{line}"
     problems: list[str] = []
     if len(record) != len(columns):
         problems.append(f"{where}: {len(record)} cells where the header has {len(columns)} columns")
@@ -580,6 +581,7 @@ def _csv_cells(
             aircraft = fleet.aircraft(registration)
         except LoadcheckError as error:
             problems += [f"{where}: {p.describe()}" for p in error.problems]
+    placement = _placement(aircraft) if aircraft is not None else {}
     data: dict[str, Any] = {"load": {}, "fuel": {}, "burn": {}}
     trip = given.get(TRIP_COLUMN) or None
     leg_text = given.get(LEG_COLUMN, "")
@@ -603,7 +605,7 @@ def _csv_cells(
         if role == "aircraft":  # the usual cell: a station's weight or a tank's fuel
             if aircraft is None:
                 continue
-            table = _placement(aircraft).get(name)
+            table = placement.get(name)
             if table is not None:
                 data[table][name] = _typed(value, unit)
             else:
@@ -619,7 +621,7 @@ def _csv_cells(
             data["burn"]["order"] = burn_order(value, "order", "csv")
         elif role == "burn":
             data["burn"][name] = _typed(value, unit)
-    return _RawRow(where, line, str(path), registration, reference, pilot, trip, data, problems, leg)
+    return _RawRow(where, line, source, registration, reference, pilot, trip, data, problems, leg)
 
 
 def _placement(aircraft: Aircraft) -> dict[str, str]:
