@@ -48,7 +48,7 @@ class Result:
         cls = type(self)
         convert = _converter(cls)
         if "to_dict" not in cls.__dict__:  # a class with its own to_dict keeps it (it may call this one)
-            cls.to_dict = convert  # type: ignore[method-assign]
+            type.__setattr__(cls, "to_dict", convert)  # the class's method from now on
         return convert(self)
 
     def to_json(self, indent: int | None = 2) -> str:
