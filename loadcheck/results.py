@@ -121,10 +121,31 @@ def _convert_lines(
     results = {name for name, value in globals().items() if isinstance(value, type) and issubclass(value, Result)}
     pad = "    " * depth
     v = f"v{depth}"
-    lines.append(f"{pad}{target} = {{}}")
-    for f in fields(cls):
-        if f.metadata.get("drawing"):
-            continue
+    kept = [f for f in fields(cls) if not f.metadata.get("drawing")]
+    # the leading fields of plain types that are never None by their annotation: one dictionary
+    # display for all of them where none is None (it is made at its size at once), else each
+    # one tested as the other fields are
+    leading = 0
+    for f in kept:
+        kind = f.type if isinstance(f.type, str) else ""
+        if kind.strip() not in _SCALARS:
+            break
+        leading += 1
+    if leading >= 2:
+        early = [f"r{depth}_{k}" for k in range(leading)]
+        lines.extend(f"{pad}{name} = {source}.{f.name}" for name, f in zip(early, kept, strict=False))
+        lines.append(f"{pad}if {' and '.join(f'{name} is not None' for name in early)}:")
+        pairs = ", ".join(f"{f.name!r}: {name}" for name, f in zip(early, kept, strict=False))
+        lines.append(f"{pad}    {target} = {{{pairs}}}")
+        lines.append(f"{pad}else:")
+        lines.append(f"{pad}    {target} = {{}}")
+        for name, f in zip(early, kept, strict=False):
+            lines.append(f"{pad}    if {name} is not None:")
+            lines.append(f"{pad}        {target}[{f.name!r}] = {name}")
+    else:
+        leading = 0
+        lines.append(f"{pad}{target} = {{}}")
+    for f in kept[leading:]:
         kind = f.type if isinstance(f.type, str) else ""
         options = [part.strip() for part in kind.split("|")]
         options = [o for o in options if o != "None"]
