@@ -8,7 +8,12 @@ them) go through the stages of ``fleet check`` one at a time, in one process: re
 ``--per-call`` rows of one aircraft at a time (a chunk of 1,024 flights gives each of the four
 sample aircraft about 256, a chunk of 256 about 64 to 85), the result's JSON form
 (``to_dict``) and the JSON line (orjson). Each figure is the best of ``--repeat`` runs of the
-stage, in microseconds of CPU (``time.process_time``) a row. With ``--old COMMIT`` the package
+stage, in microseconds of CPU (``time.process_time``) a row, with the cycle collector held off
+while the stage runs (``gc.disable``): its passes over the earlier stages' 10,000 rows and
+results, which a fleet check never holds at once (it goes by chunks, with what exists before it
+frozen), doubled some figures from run to run; a whole fleet check of 10,000 rows takes the same
+CPU with the collector on or off (docs/performance.md). ``--collected`` times it as before
+2026-12-03). With ``--old COMMIT`` the package
 as it was at that commit is timed the same way in its own interpreter, one after the other, so
 that the two can be read side by side; only the ratios mean much on a shared machine.
 """
@@ -25,22 +30,25 @@ from pathlib import Path
 from older import ROOT, extract
 
 STAGES = r"""
-import sys, time
+import gc, sys, time
 import orjson
 from loadcheck.check import check_many
 from loadcheck.fleet import load_fleet, read_loadings
 from loadcheck.loading import resolve_loading
 
-day, repeat, per_calls = sys.argv[1], int(sys.argv[2]), [int(n) for n in sys.argv[3:]]
+day, repeat, QUIET, per_calls = sys.argv[1], int(sys.argv[2]), sys.argv[3] == "1", [int(n) for n in sys.argv[4:]]
 fleet = load_fleet(FLEET)
 
 
 def best(stage, count):
     fastest = float("inf")
     for _ in range(repeat):
+        if QUIET:  # no cycle collection while the stage runs (what it makes is freed by reference counting)
+            gc.disable()
         start = time.process_time()
         stage()
         fastest = min(fastest, (time.process_time() - start) / count * 1e6)
+        gc.enable()
     return fastest
 
 
@@ -93,6 +101,11 @@ def main() -> None:
     parser.add_argument("--per-call", type=int, nargs="+", default=[85, 256])
     parser.add_argument("--repeat", type=int, default=3)
     parser.add_argument("--old", metavar="COMMIT", help="also time the package as it was at this commit")
+    parser.add_argument(
+        "--collected",
+        action="store_true",
+        help="leave the cycle collector on during each stage (the figures before 2026-12-03)",
+    )
     args = parser.parse_args()
     code = STAGES.replace("FLEET", repr(str(ROOT / "sample_aircraft")))
     with tempfile.TemporaryDirectory() as folder:
@@ -103,7 +116,8 @@ def main() -> None:
         for name, path in packages.items():
             print(f"{name}: us of CPU a row, best of {args.repeat}, {args.n:,} rows", flush=True)
             env = {**os.environ, "PYTHONPATH": str(path)}
-            command = [sys.executable, "-c", code, str(day), str(args.repeat), *map(str, args.per_call)]
+            command = [sys.executable, "-c", code, str(day), str(args.repeat), str(int(not args.collected))]
+            command += [str(n) for n in args.per_call]
             subprocess.run(command, check=True, env=env, cwd="/")
 
 

@@ -75,10 +75,17 @@ def moment_tables(aircraft: Aircraft, stations: np.ndarray, fuel: np.ndarray, de
     first = _item(
         "empty", "Basic empty weight", "empty", empty.weight, empty.arm, (empty.lateral_arm or 0.0) if lateral else None
     )
+    n = len(stations)
+    # every line's moment = weight * arm (and its lateral moment) a column at a time: the same
+    # products, element by element, as _item makes of one line
+    station_arms = np.array([s.arm for s in aircraft.station], dtype=float)
+    station_laterals = np.array([s.lateral_arm or 0.0 for s in aircraft.station], dtype=float)
+    weights = stations.tolist()
+    moments = (stations * station_arms).tolist()
+    no_lateral: list[list[float | None]] = [[None] * len(aircraft.station)] * n
+    lateral_moments = (stations * station_laterals).tolist() if lateral else no_lateral
     fixed = [(s.id, s.name, s.kind, s.arm, (s.lateral_arm or 0.0) if lateral else None) for s in aircraft.station]
     tanks = [(t.id, t.name, (t.lateral_arm or 0.0) if lateral else None) for t in aircraft.tank]
-    n = len(stations)
-    weights = stations.tolist()
     volumes = fuel.tolist()
     fuel_weights = (fuel * density).tolist() if tanks else [[] for _ in range(n)]
     # each tank's arm at each loading's volume, one call per tank (Tank.arm_at)
@@ -87,9 +94,22 @@ def moment_tables(aircraft: Aircraft, stations: np.ndarray, fuel: np.ndarray, de
     out = []
     for i in range(n):
         items = [first]
-        for (id_, name, kind, arm, lateral_arm), weight in zip(fixed, weights[i], strict=True):
+        for (id_, name, kind, arm, lateral_arm), weight, moment, lateral_moment in zip(
+            fixed, weights[i], moments[i], lateral_moments[i], strict=True
+        ):
             if weight != 0.0:
-                items.append(_item(id_, name, kind, weight, arm, lateral_arm))
+                items.append(
+                    Item(
+                        id=id_,
+                        name=name,
+                        kind=kind,
+                        weight=weight,
+                        arm=arm,
+                        moment=moment,
+                        lateral_arm=lateral_arm,
+                        lateral_moment=lateral_moment,
+                    )
+                )
         for (id_, name, lateral_arm), volume, weight, arm in zip(
             tanks, volumes[i], fuel_weights[i], arms[i], strict=True
         ):

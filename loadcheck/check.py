@@ -20,7 +20,7 @@ from __future__ import annotations
 
 from collections.abc import Iterator, Sequence
 from dataclasses import dataclass
-from typing import Any
+from typing import Any, Literal, TypeGuard
 
 import numpy as np
 import shapely
@@ -143,7 +143,7 @@ def check_many(aircraft: Aircraft, loadings: Sequence[ResolvedLoading], *, sampl
         require_usable(resolved, aircraft)  # a loading resolved by hand is held to the same rules
         key = (resolved.plan.order, resolved.category, tuple(resolved.density[t] for t in tables.tank_ids))
         groups.setdefault(key, []).append(index)
-    results: list[CheckResult | None] = [None] * len(loadings)
+    results: dict[int, CheckResult] = {}  # by the loading's place
     for (order, category, density), members in groups.items():
         chosen = [loadings[i] for i in members]
         n = len(chosen)
@@ -164,7 +164,7 @@ def check_many(aircraft: Aircraft, loadings: Sequence[ResolvedLoading], *, sampl
         )
         for k, result in enumerate(_explain(aircraft, chosen, found, category, samples, stations, fuel, rho)):
             results[members[k]] = result
-    return results  # type: ignore[return-value]
+    return [results[index] for index in range(len(loadings))]
 
 
 def _explain(
@@ -326,11 +326,12 @@ class _Once:
 
     @classmethod
     def of(cls, aircraft: Aircraft, envelopes: Sequence[Envelope], name: str, table: list[tuple[str, float]]) -> _Once:
+        assert _is_condition(name)
         tables = engine_tables(aircraft)
         labels = [envelope.subject for envelope in envelopes]
         zero_fuel_warning = name == "zero_fuel" and aircraft.limits.zero_fuel_cg == "warning"
         return cls(
-            name=name,  # type: ignore[arg-type]
+            name=name,
             table=table,
             weight_limit=min((value for _, value in table), default=None),
             minimum=aircraft.limits.min_flight_weight,
@@ -339,6 +340,11 @@ class _Once:
             allowance=tables.allowance,
             has_lateral=tables.has_lateral,
         )
+
+
+def _is_condition(name: str) -> TypeGuard[ConditionName]:
+    """True for the name of one of the four conditions (:data:`~loadcheck.engine.CONDITIONS`)."""
+    return name in CONDITIONS
 
 
 _ONCE: dict[tuple[int, str], tuple[Aircraft, list[_Once]]] = {}
@@ -429,7 +435,7 @@ def _condition_findings(
     for k, (label, shape, inside) in enumerate(zip(once.labels, shapes, rows.inside[name], strict=True)):
         if not inside[i]:
             tested = envelope_state(shape, name, weight, moment, lateral, allowance=once.allowance)
-            cut = False if cuts is None else cuts[(name, k)][i]
+            cut: _Cut | Literal[False] | None = False if cuts is None else cuts[(name, k)][i]
             findings.append(
                 _outside_finding(
                     aircraft, shape, label, name, *tested, once.severity, allowance=once.allowance, cut=cut
@@ -640,11 +646,12 @@ def _margins(
 def _none_for_nan(column: np.ndarray) -> list[float | None]:
     """A column of margins as Python numbers, NaN (no envelope gives that limit) as None."""
     missing = np.isnan(column)
-    if not missing.any():
-        return column.tolist()  # type: ignore[no-any-return]
     if missing.all():
         return [None] * len(column)
-    return np.where(missing, np.array(None, dtype=object), column).tolist()  # type: ignore[no-any-return]
+    numbers: list[float | None] = (
+        np.where(missing, np.array(None, dtype=object), column) if missing.any() else column
+    ).tolist()  # floats, and None where missing
+    return numbers
 
 
 def _slice_lines(
@@ -744,7 +751,12 @@ def _slices(
         np.where(inside, high, -np.inf).max(axis=1, initial=-np.inf),
         np.where(lone, points, -np.inf).max(axis=1, initial=-np.inf),
     )
-    return tuple(np.where(none, np.nan, v) for v in (lo, hi, first, last))  # type: ignore[return-value]
+    return (
+        np.where(none, np.nan, lo),
+        np.where(none, np.nan, hi),
+        np.where(none, np.nan, first),
+        np.where(none, np.nan, last),
+    )
 
 
 _Cut = tuple[float, float, float, float]
@@ -810,7 +822,7 @@ def _outside_finding(
     severity: Severity,
     *,
     allowance: float = 0.0,
-    cut: _Cut | bool | None = False,
+    cut: _Cut | Literal[False] | None = False,
 ) -> Finding:
     """Say in plain words where a point outside an envelope lies, and by how much.
 
@@ -838,7 +850,7 @@ def _outside_finding(
             intervals = shape.slice(at_weight, arm, lateral, vary)
             found = (intervals[0][0], intervals[-1][1], *_pick(intervals, value)) if intervals else None
         else:
-            found = cut  # type: ignore[assignment]
+            found = cut
         if found is None:
             return None
         low, high, lo, hi = found

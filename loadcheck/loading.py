@@ -612,6 +612,28 @@ class ResolvedLoading:
         )
 
 
+def _per_aircraft(aircraft: Aircraft) -> tuple[list[str], dict[str, float], str | None]:
+    """What :func:`resolve_loading` reads of the aircraft alone, found once for it (an aircraft
+    model is immutable): its categories, each tank's own density (``Aircraft.density``, by tank
+    id, in tank order) and its registration as compared (``registration_key``)."""
+    kept = _PER_AIRCRAFT.get(id(aircraft))
+    if kept is not None and kept[0] is aircraft:
+        return kept[1]
+    registration = aircraft.registration
+    found = (
+        aircraft.categories,
+        {t.id: aircraft.density(t) for t in aircraft.tank},
+        registration_key(registration) if registration else None,
+    )
+    if len(_PER_AIRCRAFT) >= 64:
+        _PER_AIRCRAFT.clear()
+    _PER_AIRCRAFT[id(aircraft)] = (aircraft, found)
+    return found
+
+
+_PER_AIRCRAFT: dict[int, tuple[Aircraft, tuple[list[str], dict[str, float], str | None]]] = {}
+
+
 def resolve_loading(
     loading: Loading, aircraft: Aircraft, *, category: str | None = None, fuel_to_plan: bool = False
 ) -> ResolvedLoading:
@@ -651,7 +673,7 @@ def resolve_loading(
     problems: list[Problem] = []
     unknown: list[Problem] = []
 
-    categories = aircraft.categories
+    categories, own_density, own_key = _per_aircraft(aircraft)
     # a category given, even an empty one, is used as given (and refused where it is not one of the
     # aircraft's): only a category not given at all takes the loading's, then the aircraft's first
     chosen = category if category is not None else loading.category if loading.category is not None else categories[0]
@@ -693,7 +715,7 @@ def resolve_loading(
             problems.append(Problem("fuel_density", problem, value=loading.fuel_density))
     notes: list[str] = []
     if loading.registration and aircraft.registration:
-        if registration_key(loading.registration) != registration_key(aircraft.registration):
+        if registration_key(loading.registration) != own_key:
             problems.append(
                 Problem(
                     "registration",
@@ -703,8 +725,8 @@ def resolve_loading(
             )
     elif loading.registration:
         notes.append(f"the loading is for {loading.registration!r}; the aircraft file gives no registration to compare")
-    density = {t.id: loading.fuel_density or aircraft.density(t) for t in aircraft.tank}
-    fuel: dict[str, float] = {t.id: 0.0 for t in aircraft.tank}
+    density = dict(own_density) if not loading.fuel_density else dict.fromkeys(own_density, loading.fuel_density)
+    fuel: dict[str, float] = dict.fromkeys(own_density, 0.0)
     for name, amount in loading.fuel.items():
         tank = aircraft.tank_by_id.get(name)
         if tank is None:
