@@ -285,7 +285,8 @@ def _csv_rows(path: Path, fleet: Fleet) -> tuple[Iterator[FlightRow], list[str]]
         if problem:
             raise FileFormatError(problem, file=path)
         text = io.TextIOWrapper(buffered, encoding="utf-8-sig", newline="")
-        reader = csv.reader(text)
+        # strict: text after a closing quote ("1"70) is an error, never joined into another figure (170)
+        reader = csv.reader(text, strict=True)
         try:
             header = next(reader)
         except StopIteration:
@@ -679,7 +680,25 @@ def _bare_number(text: str) -> bool:
     return True
 
 
-def _folder_rows(folder: Path) -> Iterator[FlightRow]:
+def _named_aircraft_problem(path: Path, loading: Loading, fleet: Fleet) -> str | None:
+    """Where a loading file names both its aircraft file and a registration, and the fleet's file of
+    that registration is another: the contradiction (the single check refuses it as well)."""
+    if loading.aircraft is None or loading.registration is None:
+        return None
+    try:
+        entry = fleet.entry(loading.registration)
+    except LoadcheckError:
+        return None  # an unknown registration is the row's own problem, said where the row is checked
+    named = (path.parent / loading.aircraft).resolve()
+    if named == Path(entry.path).resolve():
+        return None
+    return (
+        f"{path}: this loading names the aircraft file {loading.aircraft!r}, but its registration "
+        f"{loading.registration!r} is the fleet's {entry.path}: give the one aircraft it is for"
+    )
+
+
+def _folder_rows(folder: Path, fleet: Fleet) -> Iterator[FlightRow]:
     count = 0
     for index, path in enumerate(sorted(folder.rglob("*.toml")), start=1):
         try:
@@ -688,15 +707,12 @@ def _folder_rows(folder: Path) -> Iterator[FlightRow]:
                 continue
             loading = parse_loading(data, path)
             registration, reference, pilot = loading.registration, loading.reference or path.stem, loading.pilot
-            row = FlightRow(
-                index,
-                str(path),
-                registration,
-                reference,
-                pilot,
-                loading,
-                [] if registration else [f"{path}: a fleet loading file names its aircraft by registration = ..."],
+            problem = (
+                _named_aircraft_problem(path, loading, fleet)
+                if registration
+                else f"{path}: a fleet loading file names its aircraft by registration = ..."
             )
+            row = FlightRow(index, str(path), registration, reference, pilot, loading, [problem] if problem else [])
         except LoadcheckError as error:
             row = FlightRow(index, str(path), None, path.stem, None, None, error.lines())
         count += 1
@@ -726,7 +742,7 @@ def read_loadings(source: str | Path, fleet: Fleet) -> tuple[Iterator[FlightRow]
     """
     source = Path(source)
     if source.is_dir():
-        return _folder_rows(source), []
+        return _folder_rows(source, fleet), []
     return _csv_rows(source, fleet)
 
 

@@ -837,3 +837,33 @@ def test_fleet_entry_is_the_file_of_the_aircraft_the_fleet_finds() -> None:
     assert entry.aircraft is fleet.aircraft("DEMO-4T") and entry.path == SAMPLES / "trainer4" / "aircraft.toml"
     with pytest.raises(InputError, match="unknown registration 'NOPE-1'"):
         fleet.entry("NOPE-1")
+
+
+def test_regression_a_loading_file_naming_another_aircraft_file_was_checked_by_its_registration(runner, tmp_path):
+    """An outside trial: a loading file in a fleet folder with ``registration = "DEMO-4T"`` and
+    ``aircraft = ".../twin6/aircraft.toml"`` (DEMO-6P) was checked as DEMO-4T, within limits, while the
+    single check refuses the same file. The row is refused, naming both; a file naming the fleet's own
+    file of its registration is checked as before (fail closed, common practice)."""
+    day = tmp_path / "day"
+    day.mkdir()
+    loading = (
+        'format = 1\naircraft = "{}"\nregistration = "DEMO-4T"\n[load]\nfront = 170\n[fuel]\nmains = 20\ncentre = 0\n'
+    )
+    (day / "a.toml").write_text(loading.format((SAMPLES / "twin6" / "aircraft.toml").resolve().as_posix()))
+    said = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(day), "--no-log", "--json"])
+    assert said.exit_code == 2
+    assert "names the aircraft file" in said.output and "but its registration 'DEMO-4T' is the fleet's" in said.output
+    (day / "a.toml").write_text(loading.format((SAMPLES / "trainer4" / "aircraft.toml").resolve().as_posix()))
+    assert runner.invoke(app, ["fleet", "check", str(SAMPLES), str(day), "--no-log"]).exit_code == 0
+
+
+def test_regression_text_after_a_closing_quote_was_joined_into_another_figure(runner, tmp_path):
+    """An outside trial: the cell ``"1"70`` was read as 170 and ``"170"5`` as 1,705 lb (Python's csv module
+    joins the pieces unless strict). RFC 4180 section 2 (rules 5 to 7): a quoted field ends at its closing
+    quote; text after it is refused, naming the line."""
+    day = tmp_path / "day.csv"
+    day.write_text('registration,front,rear,hold,mains,centre\nDEMO-4T,"1"70,30,0,30,0\n')
+    said = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(day), "--no-log"])
+    assert said.exit_code == 2 and "CSV error at line 2" in said.output
+    day.write_text('registration,front,rear,hold,mains,centre\nDEMO-4T,"170",30,0,30,0\n')
+    assert runner.invoke(app, ["fleet", "check", str(SAMPLES), str(day), "--no-log"]).exit_code == 0
