@@ -240,6 +240,7 @@ class FlightRow:
     problems: list[str] = field(default_factory=list)
     trip: str | None = None  # the trip id of a CSV whose rows are legs of one trip (TRIP_COLUMN)
     lines: tuple[int, ...] = ()  # the CSV lines of a trip's rows, leg by leg (a trip of a CSV only)
+    date: str | None = None  # the date cell of a CSV row (YYYY-MM-DD), shown with the flight
 
     def where(self, leg: int = 1) -> str:
         """``file:line`` of the row of leg ``leg`` (the first row where not known)."""
@@ -432,6 +433,7 @@ class _RawRow:
     data: dict[str, Any]
     problems: list[str]
     leg: int | None = None
+    date: str | None = None  # the row's date cell, a calendar date (YYYY-MM-DD) as written
 
 
 def _lines_text(lines: Iterable[int]) -> str:
@@ -501,6 +503,7 @@ def _joined(rows: list[_RawRow], scattered: dict[str, list[int]] | None = None) 
             for name, value in (
                 ("reference", row.reference),
                 ("pilot", row.pilot),
+                ("date", row.date),
                 ("category", row.data.get("category")),
             ):
                 given = first.data.get(name) if name == "category" else getattr(first, name)
@@ -528,6 +531,7 @@ def _joined(rows: list[_RawRow], scattered: dict[str, list[int]] | None = None) 
         problems,
         first.trip,
         tuple(row.line for row in rows) if first.trip is not None else (),
+        first.date,
     )
 
 
@@ -587,6 +591,11 @@ def _csv_cells(
     registration = given.get("registration") or None
     reference = given.get("reference") or None
     pilot = given.get("pilot") or None
+    date = given.get("date") or None
+    if date is not None and not _calendar_date(date):
+        problems.append(
+            f"{where}: date {date!r} is not a calendar date: write it YYYY-MM-DD (ISO 8601), e.g. 2026-12-03"
+        )
     if registration is None:
         problems.append(f"{where}: no registration")
     aircraft = None
@@ -635,7 +644,18 @@ def _csv_cells(
             data["burn"]["order"] = burn_order(value, "order", "csv")
         elif role == "burn":
             data["burn"][name] = _typed(value, unit)
-    return _RawRow(where, line, source, registration, reference, pilot, trip, data, problems, leg)
+    return _RawRow(where, line, source, registration, reference, pilot, trip, data, problems, leg, date)
+
+
+def _calendar_date(text: str) -> bool:
+    """True where ``text`` is a calendar date written YYYY-MM-DD (ISO 8601; 2026-02-31 is not one)."""
+    if not re.fullmatch(r"[0-9]{4}-[0-9]{2}-[0-9]{2}", text):
+        return False
+    try:
+        dt.date.fromisoformat(text)
+    except ValueError:
+        return False
+    return True
 
 
 def _placement(aircraft: Aircraft) -> dict[str, str]:
@@ -787,6 +807,7 @@ class Flight:
             self.row.problems,
             self.row.trip,
             self.row.lines,
+            self.row.date,
         )
         result = None
         if self.result is not None:
@@ -808,6 +829,8 @@ class Flight:
             "reference": self.row.reference,
             "pilot": self.row.pilot,
         }
+        if self.row.date is not None:
+            head["date"] = self.row.date
         if self.row.trip is not None:
             head |= {"trip_id": self.row.trip, "lines": list(self.row.lines)}
         if self.result is None:

@@ -867,3 +867,18 @@ def test_regression_text_after_a_closing_quote_was_joined_into_another_figure(ru
     assert said.exit_code == 2 and "CSV error at line 2" in said.output
     day.write_text('registration,front,rear,hold,mains,centre\nDEMO-4T,"170",30,0,30,0\n')
     assert runner.invoke(app, ["fleet", "check", str(SAMPLES), str(day), "--no-log"]).exit_code == 0
+
+
+@pytest.mark.parametrize("written", ["31/02/2026", "not-a-date", "2026-02-31", "2026-2-3"])
+def test_regression_the_date_column_took_any_text_and_was_thrown_away(runner, tmp_path, written):
+    """An outside trial: the CSV ``date`` column, documented as kept with the row, took ``31/02/2026`` and
+    ``not-a-date`` unchecked and was in no output. A date is a calendar date written YYYY-MM-DD (ISO 8601,
+    as the loading and aircraft files write dates, TOML v1.0.0 "Local Date"), refused otherwise, and is
+    shown with the flight in the JSON Lines."""
+    day = tmp_path / "day.csv"
+    day.write_text(f"registration,date,front,rear,hold,mains,centre\nDEMO-4T,{written},170,30,0,30,0\n")
+    said = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(day), "--no-log", "--json"])
+    assert said.exit_code == 2 and f"date {written!r} is not a calendar date" in said.output
+    day.write_text("registration,date,front,rear,hold,mains,centre\nDEMO-4T,2026-12-03,170,30,0,30,0\n")
+    said = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(day), "--no-log", "--json"])
+    assert said.exit_code == 0 and json.loads(said.stdout.splitlines()[0])["date"] == "2026-12-03"
