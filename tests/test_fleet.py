@@ -882,3 +882,19 @@ def test_regression_the_date_column_took_any_text_and_was_thrown_away(runner, tm
     day.write_text("registration,date,front,rear,hold,mains,centre\nDEMO-4T,2026-12-03,170,30,0,30,0\n")
     said = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(day), "--no-log", "--json"])
     assert said.exit_code == 0 and json.loads(said.stdout.splitlines()[0])["date"] == "2026-12-03"
+
+
+@pytest.mark.parametrize("enabled", [True, False])
+def test_a_fleet_check_leaves_the_cycle_collector_as_it_found_it(runner, enabled):
+    """Each chunk is checked with the cycle collector held off (loadcheck.fleet._check_chunk); it is set
+    back as found, on or off, for a program that calls the library (common practice)."""
+    import gc
+
+    was = gc.isenabled()
+    try:
+        gc.enable() if enabled else gc.disable()
+        said = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(SAMPLES / "fleet_day.csv"), "--no-log"])
+        assert said.exit_code == 2, said.output  # the sample day holds rows with input errors, on purpose
+        assert gc.isenabled() is enabled
+    finally:
+        gc.enable() if was else gc.disable()
