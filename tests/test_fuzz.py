@@ -367,7 +367,9 @@ def days_of_one_aircraft(draw):
                 row.append(draw(st.sampled_from(["", "full", f"{usable[column] / 2:g}", "0"])))
             elif column in ("taxi", "trip", "reserve"):
                 row.append(draw(st.sampled_from(["", "0", "1", "2 lb"])))
-            elif column in ("reference", "pilot", "date", "label"):
+            elif column == "date":  # a calendar date, YYYY-MM-DD (another text is the row's own error)
+                row.append(draw(st.sampled_from(["", "2026-12-01", "2024-02-29"])))
+            elif column in ("reference", "pilot", "label"):
                 row.append(draw(st.sampled_from(["", "R1", "A. Pilot", "2026-12-01"])))
             else:
                 row.append(draw(st.sampled_from(["", "0", "55", "80.5", "20 kg"])))
