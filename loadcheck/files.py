@@ -26,7 +26,7 @@ from typing import Any, BinaryIO, get_args
 from pydantic import BaseModel, ValidationError
 
 from .aircraft import Aircraft, Units
-from .errors import FileFormatError, InputError, LoadcheckError, Problem, spelling_hint
+from .errors import FileFormatError, InputError, LoadcheckError, Problem, UnitError, spelling_hint
 from .loading import (
     Loading,
     ResolvedLoading,
@@ -202,10 +202,14 @@ def parse_toml(text: str, path: str | Path) -> dict[str, Any]:
     FileFormatError
         With the parser's message (line and column), or the nesting found.
     """
+    from .units import float_as_written
+
     try:
-        data = tomllib.loads(text)
+        data = tomllib.loads(text, parse_float=float_as_written)
     except tomllib.TOMLDecodeError as error:
         raise FileFormatError(f"TOML syntax error: {error}", file=path) from None
+    except UnitError as error:  # a float written too small to be held as written
+        raise FileFormatError(str(error), file=path) from None
     except RecursionError:
         raise FileFormatError(
             f"tables or arrays nested too deeply (loadcheck's files nest at most {MAX_NESTING} levels)", file=path

@@ -24,6 +24,7 @@ from typing import Literal
 from .errors import UnitError
 
 __all__ = [
+    "float_as_written",
     "ARM_UNITS",
     "KG_PER_LB",
     "L_PER_IMPGAL",
@@ -204,17 +205,32 @@ def parse_quantity(text: str | float | int) -> Quantity:
     return _read_quantity(str(text), text)
 
 
+def float_as_written(number: str, typed: object = None) -> float:
+    """The float of a decimal text, refused where a float cannot hold it as written: below the
+    smallest normal double (IEEE 754 binary64, about 2.2e-308, from memory) it would be read as 0
+    or with digits lost, another figure than the one typed. Also TOML's float reader
+    (:func:`loadcheck.files.parse_toml`), so a bare ``1e-400`` in a file is refused too.
+
+    Raises
+    ------
+    UnitError
+        Naming ``typed`` (default ``number``) as given.
+    """
+    value = float(number)
+    if 0 < abs(value) < sys.float_info.min or (
+        value == 0 and any(ch.isdecimal() and int(ch) for ch in re.split("[eE]", number)[0])
+    ):
+        shown = number if typed is None else typed
+        raise UnitError(f"{shown!r} is too small to be read as written: write 0, or the figure without the exponent")
+    return value
+
+
 def _read_quantity(text: str, typed: object) -> Quantity:
     """:func:`parse_quantity` of a text; ``typed`` is the value as given, for the messages."""
     match = _QUANTITY_RE.match(text)
     if not match:
         raise UnitError(f"cannot read {typed!r} as a number with an optional unit (e.g. '20 kg')")
-    number = match.group(1)
-    value = _bounded(float(number), typed)
-    if 0 < abs(value) < sys.float_info.min or (
-        value == 0 and any(ch.isdecimal() and int(ch) for ch in re.split("[eE]", number)[0])
-    ):  # below the smallest normal float: read as 0 or with digits lost, another figure than the one typed
-        raise UnitError(f"{typed!r} is too small to be read as written: write 0, or the figure without the exponent")
+    value = _bounded(float_as_written(match.group(1), typed), typed)
     unit = canonical_unit(match.group(2)) if match.group(2) else None
     return Quantity(value, unit)
 

@@ -133,3 +133,16 @@ def test_a_command_line_trip_over_a_files_trip_time_is_said(tmp_path):
     ]
     timed = files_module.load_check_inputs(str(loading), None, command_line=True, burn={"trip_time": "2:00"})
     assert timed.loading.trip == pytest.approx(16.0) and timed.notes == []  # the same form: laid over, no note
+
+
+def test_regression_a_bare_toml_float_below_the_smallest_double_was_read_as_zero():
+    """The final review: ``rear = 1e-400`` written unquoted was 0.0 to the TOML reader before loadcheck saw
+    it, so the seat's weight vanished (the quoted ``"1e-400"`` was refused). The TOML reader now takes
+    its floats through the same rule (loadcheck.units.float_as_written; IEEE 754 binary64's smallest
+    normal double, about 2.2e-308, from memory): refused, naming the figure as written."""
+    from loadcheck.errors import FileFormatError
+    from loadcheck.files import parse_toml
+
+    with pytest.raises(FileFormatError, match="'1e-400' is too small to be read as written"):
+        parse_toml("[load]\nrear = 1e-400\n", "day.toml")
+    assert parse_toml("[load]\nrear = 0.0\nfront = 1e-300\n", "day.toml")["load"] == {"rear": 0.0, "front": 1e-300}
