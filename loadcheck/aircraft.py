@@ -34,6 +34,7 @@ from .envelope import AXES, Axis, EnvelopeShape, polygon_problem
 from .errors import Problem, UnitError, UnknownNameError, spelling_hint
 from .filemodel import FileModel, Flag
 from .fuel import FuelGrade, default_density, density_problem, grade_name
+from .registration import registration_key
 from .units import MAX_MAGNITUDE, ArmUnit, MassUnit, VolumeUnit, canonical_unit, convert, parse_quantity, unit_kind
 
 __all__ = [
@@ -55,20 +56,6 @@ __all__ = [
 StationKind = Literal["seat", "baggage", "cargo", "ballast", "other"]
 
 _ID_PATTERN = r"^[A-Za-z0-9_][A-Za-z0-9_.-]*$"
-
-
-def registration_key(registration: str) -> str:
-    """A registration as it is compared: its letters and digits alone, in capitals (``g-abcd`` and
-    ``G ABCD`` are ``GABCD``; common practice: the hyphen after a nationality mark is written or left
-    out, as on the aircraft). A text with no letter or digit has an empty key and matches nothing
-    (:meth:`loadcheck.fleet.Fleet.aircraft` refuses it).
-
-    Examples
-    --------
-    >>> registration_key("g-abcd") == registration_key("GABCD") == registration_key("G ABCD")
-    True
-    """
-    return "".join(ch for ch in registration.upper() if ch.isalnum())
 
 
 RESERVED_IDS = (

@@ -42,6 +42,7 @@ from typing import TYPE_CHECKING, Any
 
 from .caution import PILOT_CAUTION
 from .errors import FileFormatError, InputError, LoadcheckError, Problem
+from .registration import registration_key, required_key
 from .results import Result
 
 # where the log is and whether a command records (loadcheck.userdata, light enough for a start-up), under
@@ -448,13 +449,7 @@ class CheckLog:
         ``checks_by_registration`` (a seek per distinct text, not a pass over every record), keyed here
         by the library's one rule, and the records then selected by ``registration IN (...)`` on that index.
         """
-        from .aircraft import registration_key
-
-        key = registration_key(registration)
-        if not key:  # as Fleet.aircraft refuses it: no letter or digit matches no aircraft's
-            raise InputError(
-                Problem("registration", f"{registration!r} is not a registration: it has no letter or digit")
-            )
+        key = required_key(registration)  # as Fleet.aircraft finds an aircraft
         stored = self._db.execute(
             "WITH RECURSIVE texts(text) AS ("
             " SELECT min(registration) FROM checks"

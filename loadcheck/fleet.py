@@ -32,11 +32,12 @@ from functools import cached_property, lru_cache
 from pathlib import Path
 from typing import Any
 
-from .aircraft import RESERVED_IDS, Aircraft, registration_key
+from .aircraft import RESERVED_IDS, Aircraft
 from .check import check_many
 from .errors import FileFormatError, InputError, LoadcheckError, Problem
 from .files import encoding_problem, file_kind, open_regular, parse_aircraft, parse_loading, read_toml
 from .loading import Loading, burn_order, resolve_loading
+from .registration import registration_key, required_key
 from .weighing import latest_date
 
 __all__ = [
@@ -144,11 +145,7 @@ class Fleet:
         seen = self._by_text.get(registration)
         if seen is not None:  # a fleet day asks once or twice a row, mostly in the same few spellings
             return seen
-        key = registration_key(registration)  # as a loading's registration is compared with its aircraft's
-        if not key:  # "-" or "...": no letter or digit, so no aircraft's (never matched to one alike)
-            raise InputError(
-                Problem("registration", f"{registration!r} is not a registration: it has no letter or digit")
-            )
+        key = required_key(registration)  # as a loading's registration is compared with its aircraft's
         usable = self._usable.get(key)
         if usable is not None:
             if len(self._by_text) < _SPELLINGS_KEPT:

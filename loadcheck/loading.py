@@ -25,10 +25,11 @@ from typing import Annotated, Any, Literal
 
 from pydantic import BeforeValidator, Field, field_validator, model_validator
 
-from .aircraft import Aircraft, registration_key
+from .aircraft import Aircraft
 from .errors import InputError, LoadcheckError, Problem, UnitError, UnknownNameError, spelling_hint
 from .filemodel import FileModel
 from .fuel import density_problem
+from .registration import registration_key
 from .units import (
     MAX_MAGNITUDE,
     Quantity,

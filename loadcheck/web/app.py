@@ -39,11 +39,11 @@ from starlette.exceptions import HTTPException as StarletteHTTPException
 from starlette.middleware.sessions import SessionMiddleware
 
 from .. import __version__
-from ..aircraft import registration_key
 from ..caution import MECHANIC_CAUTION, PILOT_CAUTION
 from ..display import fmt, unit_label
 from ..errors import InputError, LoadcheckError, Problem
 from ..loading import burn_order
+from ..registration import registration_key
 from ..words import burn_path_summary, condition_words, stretch_text, within_limits_text
 from .form import FORM_FIELDS, refuse_query, refuse_repeated, refuse_unknown
 from .security import MAX_BODY_BYTES, BodyLimit, SignInThrottle, csrf_ok, csrf_token
