@@ -63,6 +63,7 @@ from .words import (
     envelope_side_message,
     envelope_weight_message,
     load_limit_message,
+    no_pilot_message,
     reserve_message,
     weight_limit_message,
 )
@@ -230,6 +231,10 @@ def _explain(
                     unit=units.fuel_volume,
                     limit=resolved.reserve,
                 )
+            )
+        if aircraft.control_seats and not any(resolved.stations.get(s, 0.0) > 0 for s in aircraft.control_seats):
+            findings.append(
+                Finding(code="no_pilot", severity="warning", message=no_pilot_message(aircraft.control_seats))
             )
         if resolved.notes:
             findings.extend(Finding(code="assumption", severity="warning", message=note) for note in resolved.notes)

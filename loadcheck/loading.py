@@ -772,9 +772,6 @@ def resolve_loading(
         notes.append(f"no fuel given for {', '.join(missing)}; taken as empty")
     elif aircraft.tank and not loading.fuel and not fuel_to_plan:
         notes.append("no fuel given; every tank taken as empty")
-    if aircraft.control_seats and not any(stations.get(s, 0.0) > 0 for s in aircraft.control_seats):
-        seats = " or ".join(aircraft.control_seats)
-        notes.append(f"no weight at {seats}, the seat(s) with flight controls: a flight needs its pilot's weight there")
 
     order: tuple[str, ...] | None = None
     if isinstance(loading.burn.order, list):

@@ -12,6 +12,8 @@ several front ends.
 
 from __future__ import annotations
 
+from collections.abc import Sequence
+
 from .display import Direction, decimals, fmt, round_safe
 from .results import CheckResult
 
@@ -322,6 +324,25 @@ def reserve_message(landing_fuel: float, reserve: float, unit: str) -> str:
     """Landing fuel below the reserve, by how much."""
     value, bound, short = beyond(landing_fuel, reserve, unit)
     return f"landing fuel {value} is below the reserve of {bound} by {short}"
+
+
+def no_pilot_message(seats: Sequence[str]) -> str:
+    """No weight at any seat with flight controls, ids in file order (a flight carries its pilot
+    at one of them; common practice).
+
+    Examples
+    --------
+    >>> no_pilot_message(["front"])
+    "no weight at front, the seat with flight controls: a flight needs its pilot's weight there"
+    >>> no_pilot_message(["left", "right"])
+    "no weight at left or right, the seats with flight controls: a flight needs its pilot's weight at one of them"
+    """
+    if len(seats) == 1:
+        return f"no weight at {seats[0]}, the seat with flight controls: a flight needs its pilot's weight there"
+    return (
+        f"no weight at {', '.join(seats[:-1])} or {seats[-1]}, the seats with flight controls: "
+        "a flight needs its pilot's weight at one of them"
+    )
 
 
 def stretch_text(low: float, high: float, unit: str) -> str:
