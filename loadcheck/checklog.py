@@ -75,7 +75,7 @@ __all__ = [
 
 _COLUMNS = (
     "id, checked_at, registration, reference, pilot, source, category, ok, fingerprint, inputs, result, version, "
-    "seal, legs"
+    "seal, legs, flight_date"
 )
 
 _LISTED = "id, checked_at, registration, reference, pilot, ok, fingerprint, legs"
@@ -120,8 +120,11 @@ def _seal(
     inputs: str,
     result: str,
     version: str,
+    flight_date: str | None = None,
 ) -> str:
-    """SHA-256 over a record's stored fields, as stored (the JSON texts byte for byte)."""
+    """SHA-256 over a record's stored fields, as stored (the JSON texts byte for byte); the flight's
+    date is sealed where the record has one (a record made before dates were recorded has none, and
+    its seal is over the other fields alone, as it was made)."""
     fields = [
         checked_at,
         registration,
@@ -135,6 +138,8 @@ def _seal(
         result,
         version,
     ]
+    if flight_date is not None:
+        fields.append(flight_date)
     return hashlib.sha256(_seal_text(fields)).hexdigest()
 
 
@@ -181,7 +186,8 @@ CREATE TABLE IF NOT EXISTS checks (
     result TEXT NOT NULL,
     version TEXT NOT NULL,
     seal TEXT,
-    legs INTEGER
+    legs INTEGER,
+    flight_date TEXT
 );
 CREATE INDEX IF NOT EXISTS checks_by_registration ON checks(registration, checked_at);
 CREATE INDEX IF NOT EXISTS checks_by_time ON checks(checked_at);
@@ -215,6 +221,7 @@ class LoggedCheck:
     seal: str | None = None
     stored: tuple[Any, ...] = ()  # the row as stored, for the seal
     legs: int | None = None  # legs of the loading recorded (None: recorded before trips were, one leg)
+    flight_date: str | None = None  # the flight's date as the dispatcher gave it (YYYY-MM-DD), sealed
 
     def summary(self) -> dict[str, Any]:
         """The record without its inputs and result, for listings."""
@@ -227,6 +234,7 @@ class LoggedCheck:
                 "reference",
                 "pilot",
                 "source",
+                "flight_date",
                 "category",
                 "ok",
                 "fingerprint",
@@ -270,6 +278,8 @@ class CheckLog:
                 self._db.execute("ALTER TABLE checks ADD COLUMN seal TEXT")
             if "legs" not in columns:  # made before trips were recorded: every record is one leg (NULL)
                 self._db.execute("ALTER TABLE checks ADD COLUMN legs INTEGER")
+            if "flight_date" not in columns:  # made before flight dates were recorded: none has one (NULL)
+                self._db.execute("ALTER TABLE checks ADD COLUMN flight_date TEXT")
             self._db.execute(f"CREATE INDEX IF NOT EXISTS checks_listing ON checks({_LISTED})")
             self._db.execute("COMMIT")
         except sqlite3.Error:
@@ -307,7 +317,8 @@ class CheckLog:
 
         Each record has ``aircraft_data`` (or a function giving it: called only the first
         time a fingerprint is recorded), ``fingerprint``, ``inputs``, ``result`` and
-        optionally ``registration``, ``reference``, ``pilot``, ``source``, ``version``.
+        optionally ``registration``, ``reference``, ``pilot``, ``source``, ``version`` and
+        ``flight_date`` (the flight's date, YYYY-MM-DD: a fleet row's ``date``).
         Either every record is written or none is.
         """
         now = dt.datetime.now(dt.UTC).isoformat(timespec="microseconds")
@@ -338,11 +349,12 @@ class CheckLog:
                     _stored_json(result),
                     record.get("version", ""),
                 )
+                flight_date = record.get("flight_date")
                 cursor = self._db.execute(
                     "INSERT INTO checks (checked_at, registration, reference, pilot, source, category, ok, "
-                    "fingerprint, "
-                    "inputs, result, version, seal, legs) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)",
-                    (*values, _seal(*values), legs),
+                    "fingerprint, inputs, result, version, seal, legs, flight_date) "
+                    "VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)",
+                    (*values, _seal(*values, flight_date), legs, flight_date),
                 )
                 ids.append(int(cursor.lastrowid or 0))
             self._db.execute("COMMIT")
@@ -370,8 +382,9 @@ class CheckLog:
             result=json.loads(row[10]),
             version=row[11],
             seal=row[12],
-            stored=tuple(row[1:12]),
+            stored=(*row[1:12], row[14]),
             legs=row[13],
+            flight_date=row[14],
         )
 
     def get(self, record_id: int) -> LoggedCheck:
@@ -580,6 +593,7 @@ _CSV_HEAD = [
     "legs",
     "leg",
     "leg_ok",
+    "flight_date",
 ]
 
 
@@ -613,8 +627,8 @@ def _csv_lines(record: LoggedCheck) -> list[list[Any]]:
 
     legs = record.result.get("legs")
     if legs is None:
-        return [head + figures(record.result) + [1, "", ""]]
-    return [head + figures(leg) + [len(legs), leg["leg"], bool(leg["ok"])] for leg in legs]
+        return [head + figures(record.result) + [1, "", "", record.flight_date or ""]]
+    return [head + figures(leg) + [len(legs), leg["leg"], bool(leg["ok"]), record.flight_date or ""] for leg in legs]
 
 
 def export_text(records: Iterable[LoggedCheck], format: str) -> str:
@@ -743,7 +757,7 @@ def verify(log: CheckLog, record_id: int) -> Verification:
     elif _seal(*record.stored) != record.seal:
         differences.append(
             "the stored fields do not match the record's seal: a field (time, registration, reference, "
-            "pilot, source, category, verdict, inputs, result or version) was changed after recording"
+            "pilot, source, flight date, category, verdict, inputs, result or version) was changed after recording"
         )
     return Verification(
         record_id=record_id,

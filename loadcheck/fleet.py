@@ -1042,6 +1042,7 @@ def check_flights(
                                 "pilot": row.pilot,
                                 "source": f"{row.source}:{','.join(map(str, row.lines or (row.line,)))}",
                                 "version": version,
+                                "flight_date": row.date,
                             },
                         )
                     )

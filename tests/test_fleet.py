@@ -884,6 +884,39 @@ def test_regression_the_date_column_took_any_text_and_was_thrown_away(runner, tm
     assert said.exit_code == 0 and json.loads(said.stdout.splitlines()[0])["date"] == "2026-12-03"
 
 
+def test_regression_the_flight_date_of_a_row_was_not_in_its_record(runner, tmp_path):
+    """A final review: a fleet row's ``date`` was shown in the JSON Lines but left out of the check log
+    and the table, so the record of a check said when it was checked, never for which day's flight. It
+    is now a sealed field of the record (``log show``, both exports), under the reference in the table,
+    and an edit to it is found by ``log verify``; a row without a date records none (common practice:
+    a loading record names its flight and date)."""
+    from loadcheck.checklog import CheckLog
+
+    from .helpers import tamper_check_log
+
+    day, db = tmp_path / "day.csv", tmp_path / "log.sqlite3"
+    day.write_text(
+        "registration,reference,date,front,rear,hold,mains,centre\n"
+        "DEMO-4T,F1,2026-12-03,170,30,0,30,0\nDEMO-4T,F2,,170,30,0,30,0\n"
+    )
+    table = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(day), "--db", str(db)])
+    assert table.exit_code == 0, table.output
+    assert re.search(r"Reference .*\n.* date ", table.output) and "2026-12-03" in table.output
+    with CheckLog(db) as log:
+        dated, undated = log.find()
+    assert (dated.reference, dated.flight_date, undated.flight_date) == ("F1", "2026-12-03", None)
+    shown = json.loads(runner.invoke(app, ["log", "show", str(dated.id), "--db", str(db)]).stdout)
+    assert shown["flight_date"] == "2026-12-03"
+    exported = runner.invoke(app, ["log", "export", "--format", "csv", "--db", str(db)]).stdout.splitlines()
+    assert exported[0].endswith(",flight_date") and exported[1].endswith(",2026-12-03")
+    for record in (dated, undated):
+        said = runner.invoke(app, ["log", "verify", str(record.id), "--db", str(db)])
+        assert said.exit_code == 0 and "every stored field matches" in said.output, said.output
+    tamper_check_log(db, "UPDATE checks SET flight_date = ? WHERE id = ?", "2026-12-04", dated.id)
+    said = runner.invoke(app, ["log", "verify", str(dated.id), "--db", str(db)])
+    assert said.exit_code == 1 and "seal" in said.output
+
+
 @pytest.mark.parametrize("enabled", [True, False])
 def test_a_fleet_check_leaves_the_cycle_collector_as_it_found_it(runner, enabled):
     """Each chunk is checked with the cycle collector held off (loadcheck.fleet._check_chunk); it is set

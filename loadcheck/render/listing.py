@@ -72,6 +72,7 @@ def plain_columns(
         ["; ".join(cell.splitlines()) for cell in column] if "\n" in "\x00".join(column) else column
         for column in columns
     ]  # the test in C, the join only where a cell has several lines
+    headers = [" ".join(h.splitlines()) for h in headers]  # a table's two-line header on one line
     if len({len(headers), len(columns)}) > 1 or len(set(map(len, columns))) > 1:
         raise ValueError("plain_columns: one column for each header, every column as long")
     widths = [max(len(h), max(map(len, column), default=0)) for h, column in zip(headers, columns, strict=True)]

@@ -1070,6 +1070,11 @@ def _flight_result(result: dict[str, Any]) -> tuple[Text, str]:
     return Text("within", style=_OK_STYLE), ""
 
 
+def flight_reference(row: Any) -> str:
+    """A fleet row's reference, with the flight's date under it where the row gives one."""
+    return (row.reference or "") + (f"\n{row.date}" if row.date else "")
+
+
 def render_fleet(flights: list[Any], console: Console, file_problems: Sequence[str] = ()) -> None:
     """One row per flight: line, registration, the verdict and under it the first finding,
     reference, takeoff and landing weight over CG (the verdict and its reason come first, so
@@ -1093,7 +1098,7 @@ def render_fleet(flights: list[Any], console: Console, file_problems: Sequence[s
                     lines,
                     row.registration or "",
                     verdict + Text("\n" + "\n".join(flight.problems)),
-                    row.reference or "",
+                    flight_reference(row),
                     "",
                     "",
                 ]
@@ -1116,7 +1121,7 @@ def render_fleet(flights: list[Any], console: Console, file_problems: Sequence[s
                 str(row.line),
                 row.registration or "",
                 verdict + Text(f"\n{first}" if first else ""),
-                row.reference or "",
+                flight_reference(row),
                 f"{fmt(takeoff['weight'], units['mass'])}\n{fmt(takeoff['arm'], units['arm'])}",
                 f"{fmt(landing['weight'], units['mass'])}\n{fmt(landing['arm'], units['arm'])}",
             ]
@@ -1125,7 +1130,7 @@ def render_fleet(flights: list[Any], console: Console, file_problems: Sequence[s
         Column("Line", key=True),
         Column("Aircraft", numeric=False, key=True),
         Column("Result and first finding", numeric=False),
-        Column("Reference", numeric=False),
+        Column("Reference\ndate" if any(f.row.date for f in flights) else "Reference", numeric=False),
         Column("Takeoff"),  # weight over CG, each with its unit: a header no wider than "2,450.0 lb"
         Column("Landing"),  # leaves the spare width to the result (a trip's verdict kept on its lines)
     ]

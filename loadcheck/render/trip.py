@@ -26,6 +26,7 @@ from .terminal import (
     _moment_table,
     _print_table,
     caution_text,
+    flight_reference,
 )
 
 if TYPE_CHECKING:
@@ -148,7 +149,7 @@ def fleet_trip_rows(flight: Any) -> list[list[str | Text]]:
             f"{lines[0]}-{lines[-1]}" if len(lines) > 1 else str(lines[0]),
             row.registration or "",
             verdict + Text(f"\n({trip}{len(result['legs'])} legs)" + (f"\n{first}" if first else "")),
-            row.reference or "",
+            flight_reference(row),
             "",
             "",
         ]
