@@ -26,6 +26,7 @@ from typing import Any, BinaryIO, get_args
 from pydantic import BaseModel, ValidationError
 
 from .aircraft import Aircraft, Units
+from .display import fmt
 from .errors import FileFormatError, InputError, LoadcheckError, Problem, UnitError, spelling_hint
 from .loading import (
     Loading,
@@ -653,8 +654,31 @@ def load_check_inputs(
                 f"{leg}the trip fuel is {given} from the command line, {trip_fuel:g} {volume}; it replaces the "
                 f"loading file's {replaced} (command-line values are laid over the file's)"
             )
+    notes += _own_reserves(loading, trip, overrides, aircraft.units.fuel_volume)
     label = loading.label or (Path(loading_path).stem if loading_path is not None else None)
     return CheckInputs(aircraft, resolved, Path(loading_path) if loading_path else None, notes, label, loading, trip)
+
+
+def _own_reserves(loading: Loading, trip: ResolvedTrip | None, overrides: Mapping[str, Any], volume: str) -> list[str]:
+    """A note for each later leg of a trip whose own reserve is used where a reserve was also given
+    over the file (``--reserve``): that reserve is the first leg's, kept by every leg that gives none
+    (loadcheck.loading.resolve_trip), so a leg's own differs from it without a word otherwise."""
+    given = (overrides.get("burn") or {}).get("reserve")
+    if trip is None or given is None:
+        return []
+    first = trip.legs[0].reserve
+    typed = overrides.get("legs") or {}  # a leg's own reserve typed beside it (--leg-burn 2:reserve=...)
+    notes = []
+    for number, (leg, checked) in enumerate(zip(loading.leg, trip.legs[1:], strict=True), start=2):
+        if "reserve" in (typed.get(number) or {}).get("burn", {}):
+            continue
+        if "reserve" in leg.burn.model_fields_set and checked.reserve != first:
+            own = "none" if checked.reserve is None else fmt(checked.reserve, volume)
+            notes.append(
+                f"leg {number}: the leg's own reserve in the loading file ({own}) is used there, not the reserve "
+                f"given over the file ({given}): that one holds for the first leg and for each leg that gives none"
+            )
+    return notes
 
 
 def _named_aircraft(named: Path | None, loading_path: str | Path) -> Aircraft:

@@ -537,3 +537,25 @@ def test_regression_the_loadings_reserve_stopped_at_the_first_landing():
     dropped = load_check_inputs(path, allow_trip=True, legs=leg_assignments("--leg-burn", ["2:trip=5", "2:reserve=0"]))
     assert dropped.trip is not None
     assert not any("below the reserve" in f.message for f in check_trip(dropped.aircraft, dropped.trip).findings)
+
+
+def test_regression_a_legs_own_reserve_won_over_the_command_line_reserve_without_a_word():
+    """A final review: ``check trip_drop_off.toml --reserve 6`` checked leg 2 against the file's own
+    ``reserve = 4`` and said nothing, so the pilot believed both landings held 6 US gal. The leg's own
+    reserve is used (the file says so for that leg) and a note says which reserve each leg is held to;
+    where both are the same, or the leg's reserve is typed beside it (``--leg-burn 2:reserve=...``),
+    nothing is said (common practice: the pilot's stated reserve governs each landing)."""
+    from loadcheck.loading import leg_assignments
+
+    path = sample("heli2/trip_drop_off.toml")
+    inputs = load_check_inputs(path, allow_trip=True, burn={"reserve": "6"})
+    assert inputs.trip is not None and [leg.reserve for leg in inputs.trip.legs] == [6.0, 4.0]
+    assert inputs.notes == [
+        "leg 2: the leg's own reserve in the loading file (4.0 usgal) is used there, not the reserve given "
+        "over the file (6): that one holds for the first leg and for each leg that gives none"
+    ]
+    assert not load_check_inputs(path, allow_trip=True, burn={"reserve": "4"}).notes
+    typed = load_check_inputs(
+        path, allow_trip=True, burn={"reserve": "6"}, legs=leg_assignments("--leg-burn", ["2:reserve=5"])
+    )
+    assert typed.trip is not None and typed.trip.legs[1].reserve == 5.0 and not typed.notes
