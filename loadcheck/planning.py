@@ -535,10 +535,15 @@ def most_fuel(
             aircraft,
         ),
     )
+    extra: dict[str, str] = {}
     if result.feasible and result.check is not None:
-        mass = result.check.condition("ramp").fuel_weight
-        result = replace(result, extra={"ramp fuel weight": fmt(mass, aircraft.units.mass, "down")})
-    return _with_fill(result, fill_words(aircraft, order, fill))
+        extra["ramp fuel weight"] = fmt(result.check.condition("ramp").fuel_weight, aircraft.units.mass, "down")
+    kept = [t.id for t in aircraft.tank if order is not None and t.id not in order]
+    if kept and least > 0:  # the stretches start at the kept tanks' fuel, not at a least fuel the limits set
+        extra["fuel kept as loaded"] = (
+            f"{fmt(least, unit)} in {', '.join(kept)}, so no ramp fuel of this fill order is less"
+        )
+    return _with_fill(replace(result, extra={**result.extra, **extra}), fill_words(aircraft, order, fill))
 
 
 def longest_trip(

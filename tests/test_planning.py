@@ -755,6 +755,10 @@ def test_regression_a_fill_of_some_tanks_answered_their_fuel_as_the_ramp_fuel(fi
     assert answer.intervals[0].low == pytest.approx(max(kept, 1.2 + 18 + 8), abs=0.05)
     if fill == ["centre"]:
         assert answer.extra["fill order"] == "centre (as asked); mains as loaded"
+        # the stretch "30.0 to 34.3 usgal" starts at the mains' fuel, which the answer says (a final review)
+        assert answer.extra["fuel kept as loaded"] == "30.0 usgal in mains, so no ramp fuel of this fill order is less"
+    else:
+        assert "fuel kept as loaded" not in answer.extra  # every tank is in the fill order, or the kept one is empty
         trip = P.longest_trip(inputs.aircraft, inputs.loading, rate=8.0, fill=fill)
         assert trip.check is not None and trip.extra["ramp fuel"] == answer.answer_display
         assert trip.check.condition("ramp").fuel == pytest.approx(ramp.fuel, abs=0.05)
