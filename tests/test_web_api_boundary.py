@@ -112,6 +112,28 @@ def test_regression_api_refuses_nan_and_infinity_in_the_librarys_words(
         assert [p["message"] for p in response.json()["problems"]] == expected, route
 
 
+@pytest.mark.parametrize("number", ["1e-400", "-2.5e-330", "1e400", "-1.0E+999"])
+@pytest.mark.parametrize(("table", "key"), [("load", "front"), ("fuel", "mains"), ("burn", "trip")])
+def test_regression_api_read_a_number_no_float_holds_as_zero_or_infinite(
+    reading_desk: dict[str, Any], number: str, table: str, key: str
+) -> None:
+    """A final review: Python's ``json`` reads ``1e-400`` as 0.0 and ``1e400`` as infinity, so a JSON
+    weight of ``1e-400`` was checked as nothing and ``1e400`` was refused as "got inf", a figure the
+    user never sent. RFC 8259 section 6 leaves the range of numbers to the reader; the desk now hands
+    such a number to the library as written, which refuses it as it refuses ``--load front=1e-400``
+    (IEEE 754 binary64 holds no normal number below about 2.2e-308 or above 1.8e308, from memory)."""
+    client = _client(reading_desk, "pia")
+    expected = _library_words(**{table: {**BODY[table], key: number}})
+    assert any(f"{table}.{key}" in words and number in words for words in expected), expected
+    text = json.dumps(_with(table, key, "HERE")).replace('"HERE"', number)
+    assert float(number) in (0.0, math.inf, -math.inf) and json.loads(text)  # the reader's own reading
+    for route, extra in ROUTES.items():
+        body = text[:-1] + "".join(f", {json.dumps(k)}: {json.dumps(v)}" for k, v in extra.items()) + "}"
+        response = client.post(f"/api/{route}", content=body, headers={"content-type": "application/json"})
+        assert response.status_code == 422, (route, response.text)
+        assert [p["message"] for p in response.json()["problems"]] == expected, route
+
+
 def test_regression_api_reads_a_weight_as_text_as_the_command_line_does(reading_desk: dict[str, Any]) -> None:
     """A weight given as a JSON string is the library's to read, as ``--load front=340`` is (a
     string with or without a unit): the same check as the command line's, never a guess of the desk's."""

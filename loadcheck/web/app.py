@@ -13,6 +13,7 @@ from __future__ import annotations
 import datetime as dt
 import functools
 import json
+import math
 import re
 import secrets
 import shutil
@@ -44,6 +45,7 @@ from ..display import fmt, unit_label
 from ..errors import InputError, LoadcheckError, Problem
 from ..loading import burn_order
 from ..registration import registration_key
+from ..units import float_as_written
 from ..words import burn_path_summary, condition_words, stretch_text, within_limits_text
 from .form import FORM_FIELDS, refuse_query, refuse_repeated, refuse_unknown
 from .security import MAX_BODY_BYTES, BodyLimit, SignInThrottle, csrf_ok, csrf_token
@@ -134,6 +136,18 @@ def _json_shown(value: object) -> str:
     return "{...}" if isinstance(value, _Pairs) else "[...]" if isinstance(value, list) else json.dumps(value)
 
 
+def _json_number(text: str) -> float | str:
+    """A JSON number with a fraction or exponent, as the library reads one typed (RFC 8259 section 6
+    leaves the range to the reader): its float where a float holds it as written, else its text,
+    which the library refuses naming the field, as it refuses ``--load front=1e-400`` (never 0 or
+    an infinity in its place; :func:`loadcheck.units.float_as_written`)."""
+    try:
+        value = float_as_written(text)
+    except LoadcheckError:
+        return text
+    return value if math.isfinite(value) else text
+
+
 def api_json(body: bytes) -> object:
     """The data of an API body, refused where a JSON reader would drop or guess something.
 
@@ -142,7 +156,8 @@ def api_json(body: bytes) -> object:
     would be checked with 10; RFC 8259 section 4 leaves duplicate names to the reader, and a
     TOML file or the command line refuses them). ``NaN`` and ``Infinity``, which Python's
     ``json`` reads though RFC 8259 section 6 has no such numbers, are kept for the library to
-    refuse in its words, naming the field.
+    refuse in its words, naming the field; so is a number no float holds as written
+    (:func:`_json_number`: ``1e-400`` would be read as 0, ``1e400`` as infinite).
 
     Raises
     ------
@@ -160,7 +175,7 @@ def api_json(body: bytes) -> object:
     loadcheck.web.app._BodyRefused: 422: load.front: given twice in one JSON object (170, then 10); give each ...
     """
     try:
-        parsed = json.loads(body, object_pairs_hook=_Pairs)
+        parsed = json.loads(body, object_pairs_hook=_Pairs, parse_float=_json_number)
     except RecursionError:
         raise _BodyRefused([Problem("", "the request body nests too deeply to be a loading")]) from None
     except json.JSONDecodeError as error:
