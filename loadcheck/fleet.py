@@ -376,7 +376,13 @@ def _read_header(
         f"{', '.join(RESERVED_COLUMNS)}; rows with a value in it are refused"
         for name in unknown
     ]
-    return columns, file_problems, set(unknown)
+    file_problems += [
+        f"{path}: column {index + 1} has no name in the header: name it or delete it; rows with a value "
+        "in it are refused"
+        for index, name in enumerate(names)
+        if not name
+    ]  # as an unknown column is: nothing typed under it may be dropped
+    return columns, file_problems, set(unknown) | ({""} if "" in names else set())
 
 
 def _stream_rows(
@@ -634,7 +640,8 @@ def _csv_cells(
                     f"(its stations: {', '.join(aircraft.station_by_id)}; tanks: {', '.join(aircraft.tank_by_id)})"
                 )
         elif role == "unknown":
-            problems.append(f"{where}: value {value!r} in unknown column {name!r}")
+            column = f"unknown column {name!r}" if name else f"column {index + 1}, which has no name in the header"
+            problems.append(f"{where}: value {value!r} in {column}")
         elif role == "text":
             data[name] = value
         elif role == "order":

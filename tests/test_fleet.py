@@ -869,6 +869,37 @@ def test_regression_text_after_a_closing_quote_was_joined_into_another_figure(ru
     assert runner.invoke(app, ["fleet", "check", str(SAMPLES), str(day), "--no-log"]).exit_code == 0
 
 
+def test_regression_a_column_with_no_name_was_passed_over_without_a_word(runner, tmp_path):
+    """An outside trial: a header whose last cell is blank (``...,centre, ``) gave exit 0 and no word, while
+    an unknown column is a problem of the file (docs/fleet.md). A column with no name is one too, named by
+    its place; a value under it refuses its row (fail closed: nothing typed is dropped)."""
+    day = tmp_path / "day.csv"
+    day.write_text("registration,front,rear,hold,mains,centre, \nDEMO-4T,170,30,0,30,0,\n")
+    said = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(day), "--no-log", "--json"])
+    assert said.exit_code == 2 and "column 7 has no name in the header" in said.stderr
+    first, flight = (json.loads(line) for line in said.stdout.splitlines())
+    assert "line" not in first and "column 7 has no name" in first["input_error"][0]
+    assert flight["ok"] is True  # the row itself had nothing under it
+    day.write_text("registration,front,rear,hold,mains,centre,\nDEMO-4T,170,30,0,30,0,5\n")
+    said = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(day), "--no-log", "--json"])
+    row = json.loads(said.stdout.splitlines()[1])
+    assert row["input_error"] == [f"{day}:2: value '5' in column 7, which has no name in the header"]
+
+
+@pytest.mark.parametrize("broken", ['DEMO-4T,"170,30,0,30,0\n', "DEMO-4T,17\x000,30,0,30,0\n"])
+def test_regression_a_file_that_went_wrong_further_on_printed_no_json_line(runner, tmp_path, broken):
+    """An outside trial: under ``--json`` a CSV error after the header (a quote left open, a NUL byte)
+    printed nothing on standard output, though docs/fleet.md promises a problem of the file as one object
+    with no ``line``. It now ends the lines with that object, as the file's other problems are given."""
+    day = tmp_path / "day.csv"
+    day.write_text("registration,front,rear,hold,mains,centre\nDEMO-4T,170,30,0,30,0\n" + broken)
+    said = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(day), "--no-log", "--json"])
+    assert said.exit_code == 2
+    *_, last = (json.loads(line) for line in said.stdout.splitlines())
+    assert last["ok"] is False and last["source"] == str(day) and "line" not in last
+    assert last["input_error"] and all(text in said.stderr for text in last["input_error"])
+
+
 @pytest.mark.parametrize("written", ["31/02/2026", "not-a-date", "2026-02-31", "2026-2-3"])
 def test_regression_the_date_column_took_any_text_and_was_thrown_away(runner, tmp_path, written):
     """An outside trial: the CSV ``date`` column, documented as kept with the row, took ``31/02/2026`` and

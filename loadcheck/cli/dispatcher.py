@@ -11,7 +11,7 @@ from typing import TYPE_CHECKING, Annotated, Literal
 import typer
 
 from .. import __version__
-from ..errors import InputError, Problem
+from ..errors import InputError, LoadcheckError, Problem
 from .common import (
     EXIT_INPUT,
     EXIT_LIMIT,
@@ -122,12 +122,6 @@ def fleet_check(
 
     path = log_path(log_checks, db)  # before any work: --db without logging, or the old variable, refused here
     fleet = load_fleet(folder)
-    rows, file_problems = read_loadings(loadings, fleet)
-    err = _console(stderr=True)
-    for problem in file_problems:
-        err.print(f"error: {problem}", markup=False, soft_wrap=True)
-    log = CheckLog(path) if path is not None else None
-    flights = []  # for the table only: one brief line per flight; JSON Lines are streamed
     if json_out:
         import orjson  # JSON Lines as UTF-8 bytes, about four times faster than the json module
 
@@ -137,8 +131,25 @@ def fleet_check(
             if out is not None
             else (lambda line: sys.stdout.write(orjson.dumps(line, option=orjson.OPT_APPEND_NEWLINE).decode()))
         )
-        if file_problems:  # the file's own problems first, so that the lines say why the exit status is 2
-            write_line({"source": str(loadings), "ok": False, "input_error": file_problems})
+
+    def file_refused(problems: list[str]) -> None:
+        """A problem of the file as a whole, as one JSON line with no ``line`` (docs/fleet.md)."""
+        if json_out:
+            write_line({"source": str(loadings), "ok": False, "input_error": problems})
+            sys.stdout.flush()
+
+    try:
+        rows, file_problems = read_loadings(loadings, fleet)
+    except LoadcheckError as error:  # not a CSV file at all (binary, no header): nothing to check
+        file_refused(error.lines())
+        raise
+    err = _console(stderr=True)
+    for problem in file_problems:
+        err.print(f"error: {problem}", markup=False, soft_wrap=True)
+    log = CheckLog(path) if path is not None else None
+    flights = []  # for the table only: one brief line per flight; JSON Lines are streamed
+    if file_problems:  # the file's own problems first, so that the lines say why the exit status is 2
+        file_refused(file_problems)
     counts = {"checked": 0, "out": 0, "bad": 0}
     show_progress = err.is_terminal and not json_out and not os.environ.get("NO_COLOR")  # a bar is escape codes
     say = (
@@ -167,6 +178,9 @@ def fleet_check(
                     progress.advance(task)
             sys.stdout.flush()
             err.file.flush()
+        except LoadcheckError as error:  # the file went wrong further on (docs/fleet.md): said as a file problem
+            file_refused(error.lines())
+            raise
         finally:
             if log is not None:
                 log.close()
