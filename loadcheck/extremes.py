@@ -264,13 +264,15 @@ def _case(
     check = replace(check_loading(aircraft, loading), caution=MECHANIC_CAUTION)
     start = plan.burnable
     volume = units.fuel_volume
+    # the range stated lies within the range checked (its top rounded down, its foot up), and the
+    # minimum fuel reads as in the note above (rounded up): one figure for one amount
     if start <= down_to + 1e-9:
-        states = f"at {fmt(start, volume)} of fuel" if start > 0 else "with no usable fuel"
+        states = f"at {fmt(start, volume, 'up')} of fuel" if start > 0 else "with no usable fuel"
     else:
         end = "the minimum fuel for balance" if min_fuel is not None else "zero usable fuel"
         states = (
-            f"from {fmt(start, volume)} at engine start down to {end} ({fmt(down_to, volume)}), every tank "
-            "burning in proportion to its fuel"
+            f"from {fmt(start, volume, 'down')} at engine start down to {end} ({fmt(down_to, volume, 'up')}), "
+            "every tank burning in proportion to its fuel"
         )
     return ExtremeCase(side=side, ok=check.ok, limit_arm=limit, notes=notes, fuel_states=states, check=check)
 

@@ -250,3 +250,24 @@ def test_without_the_meto_power_a_side_that_needs_the_minimum_fuel_is_refused_no
         extremes(parse_aircraft(data))
     (problem,) = refused.value.problems
     assert problem.field == "meto_power_hp" and "maximum-except-takeoff power" in problem.message
+
+
+@pytest.mark.parametrize("plane", ["tandem2", "trainer4", "twin6", "heli2"])
+def test_regression_the_minimum_fuel_read_as_two_figures(plane):
+    """An outside trial: ``extremes --meto 100`` said "minimum fuel for balance, 8.4 usgal" and then
+    "fuel states checked: at 8.3 usgal" for the one amount 100/12 = 8.333 US gal (AC 43.13-1B 10-2 p).
+    The states say the same figure as the note (rounded up), and the range they state lies within the
+    range checked: its top rounded down, its foot up."""
+    import re
+
+    aircraft = load_aircraft(sample(f"{plane}/aircraft.toml"))
+    result = extremes(aircraft)
+    cases = [c for c in (result.forward, result.rearward) if any(n.startswith("minimum fuel") for n in c.notes)]
+    assert cases  # every sample has a tank on the better side of a limit, loaded to the minimum fuel
+    for case in cases:
+        [note] = [n for n in case.notes if n.startswith("minimum fuel for balance")]
+        figure = re.search(r"balance, ([\d.,]+ \w+)", note).group(1)
+        assert figure in case.fuel_states, (note, case.fuel_states)
+        [checked] = re.findall(r"\(([\d.,]+) \w+\)|at ([\d.,]+) \w+ of fuel", case.fuel_states)
+        foot = float((checked[0] or checked[1]).replace(",", ""))
+        assert foot >= minimum_fuel(aircraft, aircraft.meto_power_hp) - 1e-9
