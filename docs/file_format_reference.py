@@ -170,7 +170,8 @@ def rows(model: type[BaseModel], path: str = "", table: str = "", seen: tuple[ty
             shown = "none"
         else:
             shown = f"`{str(default).lower() if isinstance(default, bool) else default}`"
-        out.append((dotted, place, _words(info.annotation), shown, _meaning(info.description, dotted)))
+        kind = typing.Annotated[info.annotation, *info.metadata] if info.metadata else info.annotation
+        out.append((dotted, place, _words(kind), shown, _meaning(info.description, dotted)))
     return out
 
 

@@ -137,10 +137,14 @@ def _unit_name(value: Any) -> Any:
 class Units(_Model):
     """The units every number of an aircraft file is written in."""
 
-    mass: Annotated[MassUnit, BeforeValidator(_unit_name)] = Field(description="mass unit: lb or kg")
-    arm: Annotated[ArmUnit, BeforeValidator(_unit_name)] = Field(description="arm unit: in, mm, cm or m")
+    mass: Annotated[MassUnit, BeforeValidator(_unit_name)] = Field(
+        description="mass unit: lb or kg (another spelling of one, `lbs` or `LB`, is read as it)"
+    )
+    arm: Annotated[ArmUnit, BeforeValidator(_unit_name)] = Field(
+        description="arm unit: in, mm, cm or m (`IN` or `inch` is read as `in`)"
+    )
     fuel_volume: Annotated[VolumeUnit, BeforeValidator(_unit_name)] = Field(
-        description="fuel volume unit: usgal, impgal or l"
+        description="fuel volume unit: usgal, impgal or l (`US gal` or `L` is read as one)"
     )
 
     @property

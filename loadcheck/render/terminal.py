@@ -380,7 +380,8 @@ def _result_cell(c: Condition, result: CheckResult) -> Text:
 MARGIN_NOTE = (
     "Margins: room left to each limit at that condition (below zero: exceeded), rounded down; an excess is "
     "rounded up. The CG margins are measured along the CG axis at that weight; the weight margin is the room "
-    "to the maximum weight or to the envelope's top edge at that CG, whichever is lower."
+    "to the maximum weight or to the envelope's boundary straight above the point (its top edge, or a sloping "
+    "side edge, of any envelope: the lateral one too), whichever is lower."
 )
 EDGE_NOTE = (
     "(edge): the envelope's edge at that CG sets this margin (0 where no weight at all is inside the envelope "
