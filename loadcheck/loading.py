@@ -1100,7 +1100,7 @@ def _over_capacity(amount: float | str, quantity: Quantity, volume: float, volum
     typed = str(amount).strip()
     if quantity.unit == volume_unit:
         return f"{typed} is above the tank's usable capacity"
-    return f"{typed} is {volume:.15g} {volume_unit}, above the tank's usable capacity"
+    return f"{typed} is {volume:.6g} {volume_unit}, above the tank's usable capacity"
 
 
 def _to_volume(quantity: Quantity, density: float, mass_unit: str, volume_unit: str) -> float:

@@ -127,6 +127,8 @@ def test_values_for_a_leg_the_trip_does_not_have_are_refused_not_made_a_leg():
         ("60 usgal", "fuel.mains: 60 usgal is above the tank's usable capacity; expected at most 40 usgal"),
         # 300 lb / 6.0 lb per US gal (avgas, common practice) = 50 US gal
         ("300 lb", "fuel.mains: 300 lb is 50 usgal, above the tank's usable capacity; expected at most 40 usgal"),
+        # an outside trial: 250 lb / 6.0 = 41.666... was said with 15 digits; six significant are plenty
+        ("250 lb", "fuel.mains: 250 lb is 41.6667 usgal, above the tank's usable capacity; expected at most 40 usgal"),
     ],
 )
 def test_fuel_above_the_usable_capacity_is_said_once_as_given(amount, said):
