@@ -495,6 +495,13 @@ class Aircraft(_Model):
         None, gt=0, description="maximum except takeoff power, for the minimum fuel for balance [hp]"
     )
 
+    @field_validator("name")
+    @classmethod
+    def _named(cls, value: str) -> str:
+        if not value.strip():  # "   " would head every table and record with nothing
+            raise ValueError("the aircraft's name is blank: give the name printed on its tables and records")
+        return value
+
     @field_validator("registration")
     @classmethod
     def _addressable(cls, value: str | None) -> str | None:
@@ -515,9 +522,16 @@ class Aircraft(_Model):
         for index, name in enumerate(equipment_ids):
             if equipment_ids.index(name) != index:
                 problems.append(f"equipment[{index}].id: {name!r} is used twice")
+        folded: dict[str, str] = {}
         for where, index, name in named:
             if name in seen:
                 problems.append(f"{where}[{index}].id: {name!r} is used twice (also a {seen[name]})")
+            elif folded.setdefault(name.casefold(), name) != name:  # as categories are: one spelling each
+                problems.append(
+                    f"{where}[{index}].id: {name!r} differs from {folded[name.casefold()]!r} only in letter case; "
+                    "give stations and tanks ids that differ in more than case (a loading or a fleet column "
+                    "written the other way would name the other one)"
+                )
             seen[name] = where
         stations = {s.id for s in self.station}
         for index, group in enumerate(self.station_group):

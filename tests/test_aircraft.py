@@ -314,3 +314,26 @@ def test_regression_a_registration_of_spaces_passed_as_an_ordinary_aircraft(regi
     data = sample_data("trainer4/aircraft.toml")
     data["registration"] = registration
     assert "registration: " in _problems(data) and "has no letter or digit" in _problems(data)
+
+
+@pytest.mark.parametrize(("where", "other"), [("station", 1), ("tank", 0)])
+def test_regression_ids_differing_only_in_letter_case_passed(where, other):
+    """An outside trial: station ids ``Front`` and ``front`` could stand side by side in one aircraft,
+    though categories differing only in case are refused: a loading's ``front`` or a fleet column
+    ``Front`` would name one where the other was meant. Ids of stations and tanks that differ only in
+    letter case are refused (fail closed, common practice)."""
+    data = sample_data("trainer4/aircraft.toml")
+    first = data["station"][0]["id"]
+    twin = {**data[where][other], "id": first.upper()}
+    data[where].append(twin)
+    index = len(data[where]) - 1
+    assert f"{where}[{index}].id: {first.upper()!r} differs from {first!r} only in letter case" in _problems(data)
+
+
+@pytest.mark.parametrize("name", ["   ", "\t"])
+def test_regression_a_blank_aircraft_name_passed(name):
+    """An outside trial: ``name = "   "`` passed validate (``aircraft '   '``) though it heads every table
+    and record; a blank registration is refused already. A blank name is refused too (common practice)."""
+    data = sample_data("trainer4/aircraft.toml")
+    data["name"] = name
+    assert "name: " in _problems(data) and "name is blank" in _problems(data)
