@@ -302,6 +302,15 @@ def _csv_rows(path: Path, fleet: Fleet) -> tuple[Iterator[FlightRow], list[str]]
     return _stream_rows(path, text, reader, columns, fleet, unknown, scattered), file_problems
 
 
+def _numbered(reader: Any) -> Iterator[tuple[int, list[str]]]:
+    """Each record of a csv reader with the line it starts on (a quoted cell may hold line breaks,
+    so a record can span lines; the reader's ``line_num`` is the line it ends on)."""
+    first = reader.line_num + 1
+    for record in reader:
+        yield first, record
+        first = reader.line_num + 1
+
+
 def _scattered_trips(path: Path, trip_at: int) -> dict[str, list[int]]:
     """Trip ids whose rows do not all come one after another: each with the line where each
     of its runs of rows begins.
@@ -321,15 +330,15 @@ def _scattered_trips(path: Path, trip_at: int) -> dict[str, list[int]]:
         reader = csv.reader(text)
         try:
             next(reader, None)
-            for record in reader:
+            for line, record in _numbered(reader):
                 if not "".join(record).strip():  # a row of empty cells (or of spaces) is no flight
                     continue
                 trip = record[trip_at].strip() if trip_at < len(record) else ""
                 if trip and trip != current:
                     if trip in starts:
-                        scattered.setdefault(trip, [starts[trip]]).append(reader.line_num)
+                        scattered.setdefault(trip, [starts[trip]]).append(line)
                     else:
-                        starts[trip] = reader.line_num
+                        starts[trip] = line
                 current = trip or None
         except csv.Error:
             pass
@@ -399,11 +408,11 @@ def _stream_rows(
     roles = _roles(columns, unknown)
     fixed = _fixed_columns(columns)
     try:
-        for record in reader:
+        for line, record in _numbered(reader):
             if not "".join(record).strip():  # a row of empty cells (or of spaces) is no flight
                 continue
             count += 1
-            raw = _csv_cells(path, reader.line_num, columns, record, fleet, unknown, roles, fixed)
+            raw = _csv_cells(path, line, columns, record, fleet, unknown, roles, fixed)
             if pending and raw.trip is not None and raw.trip == pending[0].trip:
                 pending.append(raw)
                 continue

@@ -886,6 +886,19 @@ def test_regression_a_column_with_no_name_was_passed_over_without_a_word(runner,
     assert row["input_error"] == [f"{day}:2: value '5' in column 7, which has no name in the header"]
 
 
+def test_regression_a_row_spanning_two_lines_was_named_by_its_last(runner, tmp_path):
+    """An outside trial: a row whose quoted cell holds a line break (RFC 4180 section 2, rule 6) was
+    reported by the line it ends on; a spreadsheet user looks for the line it starts on."""
+    day = tmp_path / "day.csv"
+    day.write_text(
+        'registration,reference,front,rear,hold,mains,centre\nDEMO-4T,"two\nlines",heavy,30,0,30,0\n'
+        "DEMO-4T,next,heavy,30,0,30,0\n"
+    )
+    said = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(day), "--no-log", "--json"])
+    assert [json.loads(line)["line"] for line in said.stdout.splitlines()] == [2, 4]
+    assert f"{day}:2: load.front" in said.stderr and f"{day}:4: load.front" in said.stderr
+
+
 @pytest.mark.parametrize("broken", ['DEMO-4T,"170,30,0,30,0\n', "DEMO-4T,17\x000,30,0,30,0\n"])
 def test_regression_a_file_that_went_wrong_further_on_printed_no_json_line(runner, tmp_path, broken):
     """An outside trial: under ``--json`` a CSV error after the header (a quote left open, a NUL byte)
