@@ -493,6 +493,35 @@ def test_mechanic_bad_readings_come_back_with_the_field_and_nothing_written(desk
     assert (desk["fleet"] / "trainer4" / "aircraft.toml").read_bytes() == before
 
 
+def test_mechanic_upload_and_typed_text_together_are_refused_and_neither_is_read(desk: dict[str, Any]) -> None:
+    # trial 9, finding 1: the upload was used and the typed-in readings dropped without a word
+    before = (desk["fleet"] / "trainer4" / "aircraft.toml").read_bytes()
+    weighing = (SAMPLES / "trainer4" / "weighing.toml").read_text()
+    typed = weighing.replace("reading = 541.0", "reading = 551.0")  # other readings than the file's
+    mo = _client(desk, "mo")
+    response = mo.post(
+        "/mechanic/DEMO-4T/propose",
+        data={"kind": "weighing", "text": typed, "csrf": csrf_of(mo.get("/mechanic/DEMO-4T").text)},
+        files={"upload": ("readings.toml", weighing.encode(), "application/toml")},
+    )
+    assert response.status_code == 422
+    assert "upload, text: the form gives an uploaded file and typed text: give one" in response.text
+    assert "nothing was written" in response.text and "Current and new empty-weight record" not in response.text
+    assert 'name="token"' not in response.text  # no proposal waits to be confirmed
+    assert "reading = 551.0" in response.text  # what was typed is kept in the box
+    assert not desk["app"].state.desk.pending
+    assert (desk["fleet"] / "trainer4" / "aircraft.toml").read_bytes() == before
+    # either one alone is still read (a box of blanks beside the upload is not typed text)
+    assert _propose(mo, weighing, upload=True).status_code == 200
+    alone = mo.post(
+        "/mechanic/DEMO-4T/propose",
+        data={"kind": "weighing", "text": " \r\n", "csrf": csrf_of(mo.get("/mechanic/DEMO-4T").text)},
+        files={"upload": ("readings.toml", weighing.encode(), "application/toml")},
+    )
+    assert alone.status_code == 200 and "Current and new empty-weight record" in alone.text
+    assert _propose(mo, typed).status_code == 200
+
+
 def test_a_proposal_is_confirmed_only_by_the_mechanic_who_made_it(desk: dict[str, Any], tmp_path: Path) -> None:
     from argon2 import PasswordHasher
 

@@ -47,7 +47,7 @@ from ..loading import burn_order
 from ..registration import registration_key
 from ..units import float_as_written
 from ..words import burn_path_summary, condition_words, stretch_text, within_limits_text
-from .form import FORM_FIELDS, refuse_query, refuse_repeated, refuse_unknown
+from .form import FORM_FIELDS, one_source, refuse_query, refuse_repeated, refuse_unknown
 from .security import MAX_BODY_BYTES, BodyLimit, SignInThrottle, csrf_ok, csrf_token
 from .users import Account, UserStore
 
@@ -1135,7 +1135,25 @@ def create_app(
         account = _need(request, "mechanic")
         await _form(request, "kind", "text", "upload")
         aircraft, path = desk.aircraft_path(registration)
+
+        def refused(error: LoadcheckError | ValidationError, typed: str) -> Response:
+            """The page again with the problems and what was typed (or uploaded) in the box."""
+            return page(
+                request,
+                "mechanic.html",
+                422,
+                title=f"Empty-weight record: {aircraft.registration}",
+                aircraft=aircraft,
+                history=history(aircraft),
+                problems=desk.problems(error),
+                typed={"kind": kind, "text": typed},
+            )
+
         uploaded = upload is not None and bool(upload.filename)
+        try:
+            one_source(uploaded, text)  # both given: refused, neither read (never the upload over the typed text)
+        except InputError as error:
+            return refused(error, text)
         content = (await upload.read()) if upload is not None and uploaded else text.encode("utf-8")
         token = secrets.token_urlsafe(16)
         # the history names the file the record was made from: the upload's own name where it is a plain one
@@ -1152,16 +1170,7 @@ def create_app(
             proposal = propose(path, source, "alteration" if kind == "alteration" else "weighing")
         except (LoadcheckError, ValidationError) as error:
             shutil.rmtree(source.parent, ignore_errors=True)
-            return page(
-                request,
-                "mechanic.html",
-                422,
-                title=f"Empty-weight record: {aircraft.registration}",
-                aircraft=aircraft,
-                history=history(aircraft),
-                problems=desk.problems(error),
-                typed={"kind": kind, "text": content.decode("utf-8", "replace")},
-            )
+            return refused(error, content.decode("utf-8", "replace"))
         with desk.lock:
             desk.pending[token] = _Pending(account.name, registration, proposal, source, time.monotonic())
             while len(desk.pending) > _MAX_PENDING:
