@@ -66,6 +66,7 @@ __all__ = [
     "Verification",
     "default_path",
     "export_text",
+    "filters_ok",
     "log_check",
     "log_path",
     "results_match",
@@ -106,6 +107,43 @@ def verdict_ok(verdict: str) -> bool:
     if verdict not in VERDICTS:
         raise InputError(Problem("verdict", f"unknown verdict {verdict!r}", expected=" or ".join(VERDICTS)))
     return VERDICTS[verdict]
+
+
+def filters_ok(registration: str | None, verdict: str | None) -> None:
+    """Refuse the filters of a listing that the check log does not take; ``None`` is no filter.
+
+    The one rule of :meth:`CheckLog.find` and :meth:`CheckLog.listing` (which apply it before any
+    record is read), for a front end that has no log to look in yet: a registration with no letter
+    or digit (``""``, ``-``: :func:`~loadcheck.registration.required_key`) and a verdict other than
+    ``within`` or ``out`` (:func:`verdict_ok`, ``""`` included) are refused, never read as no filter.
+
+    Parameters
+    ----------
+    registration : the registration to list the records of, as typed (``None``: every aircraft)
+    verdict : ``within`` or ``out`` (``None``: any verdict)
+
+    Raises
+    ------
+    InputError
+        Naming the field (``registration``, ``verdict``) in the words of the command line's refusal.
+
+    Examples
+    --------
+    >>> filters_ok("demo4t", "out")
+    >>> filters_ok(None, None)
+    >>> filters_ok("", None)
+    Traceback (most recent call last):
+    ...
+    loadcheck.errors.InputError: registration: '' is not a registration: it has no letter or digit
+    >>> filters_ok(None, "")
+    Traceback (most recent call last):
+    ...
+    loadcheck.errors.InputError: verdict: unknown verdict ''; expected within or out
+    """
+    if verdict is not None:
+        verdict_ok(verdict)
+    if registration is not None:
+        required_key(registration)
 
 
 def _seal(
@@ -480,6 +518,7 @@ class CheckLog:
         registration: str | None,
         verdict: str | None = None,
     ) -> sqlite3.Cursor:
+        filters_ok(registration, verdict)  # both refused before anything is read
         clauses: list[str] = []
         args: list[Any] = []
         if verdict is not None:

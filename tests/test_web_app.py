@@ -493,6 +493,35 @@ def test_mechanic_bad_readings_come_back_with_the_field_and_nothing_written(desk
     assert (desk["fleet"] / "trainer4" / "aircraft.toml").read_bytes() == before
 
 
+def test_mechanic_upload_and_typed_text_together_are_refused_and_neither_is_read(desk: dict[str, Any]) -> None:
+    # trial 9, finding 1: the upload was used and the typed-in readings dropped without a word
+    before = (desk["fleet"] / "trainer4" / "aircraft.toml").read_bytes()
+    weighing = (SAMPLES / "trainer4" / "weighing.toml").read_text()
+    typed = weighing.replace("reading = 541.0", "reading = 551.0")  # other readings than the file's
+    mo = _client(desk, "mo")
+    response = mo.post(
+        "/mechanic/DEMO-4T/propose",
+        data={"kind": "weighing", "text": typed, "csrf": csrf_of(mo.get("/mechanic/DEMO-4T").text)},
+        files={"upload": ("readings.toml", weighing.encode(), "application/toml")},
+    )
+    assert response.status_code == 422
+    assert "upload, text: the form gives an uploaded file and typed text: give one" in response.text
+    assert "nothing was written" in response.text and "Current and new empty-weight record" not in response.text
+    assert 'name="token"' not in response.text  # no proposal waits to be confirmed
+    assert "reading = 551.0" in response.text  # what was typed is kept in the box
+    assert not desk["app"].state.desk.pending
+    assert (desk["fleet"] / "trainer4" / "aircraft.toml").read_bytes() == before
+    # either one alone is still read (a box of blanks beside the upload is not typed text)
+    assert _propose(mo, weighing, upload=True).status_code == 200
+    alone = mo.post(
+        "/mechanic/DEMO-4T/propose",
+        data={"kind": "weighing", "text": " \r\n", "csrf": csrf_of(mo.get("/mechanic/DEMO-4T").text)},
+        files={"upload": ("readings.toml", weighing.encode(), "application/toml")},
+    )
+    assert alone.status_code == 200 and "Current and new empty-weight record" in alone.text
+    assert _propose(mo, typed).status_code == 200
+
+
 def test_a_proposal_is_confirmed_only_by_the_mechanic_who_made_it(desk: dict[str, Any], tmp_path: Path) -> None:
     from argon2 import PasswordHasher
 
@@ -1329,7 +1358,54 @@ def test_regression_an_unknown_verdict_listed_every_record(desk: dict[str, Any],
             assert [p["message"] for p in response.json()["problems"]] == [words]
         else:
             assert escape(words, quote=True).replace("&#x27;", "&#39;") in response.text
-    assert dan.get(f"{path}?verdict=&date=").status_code == 200  # the form's own "any": no filter
+    # the records page's own form sends "any" blank: not filled in there; the API and the export refuse it
+    # as log list does (test_regression_an_empty_filter_listed_every_record)
+    assert dan.get(f"{path}?verdict=&date=").status_code == (200 if path == "/records" else 422)
+
+
+@pytest.mark.parametrize("path", ["/api/records", "/records/export"])
+@pytest.mark.parametrize("option", ["registration", "verdict"])
+def test_regression_an_empty_filter_listed_every_record(
+    runner: AppRunner, desk: dict[str, Any], path: str, option: str
+) -> None:
+    """``/api/records?registration=`` and ``?verdict=`` listed every record, where ``log list --registration ""``
+    and ``--verdict ""`` are refused (exit 2): one rule (docs/fleet.md, "Filters"), the library's
+    (checklog.filters_ok), refused with 422 in the command line's own words, nothing listed (trial 9, finding 6)."""
+    from loadcheck.cli import app
+
+    dan = _three_records(desk)
+    command = runner.invoke(app, ["log", "list", "--db", str(desk["db"]), f"--{option}", ""])
+    assert command.exit_code == 2
+    words = {"registration": "'' is not a registration: it has no letter or digit", "verdict": "unknown verdict ''"}
+    assert words[option] in command.output
+    response = dan.get(f"{path}?{option}=&date=")
+    assert response.status_code == 422, response.text
+    if path.startswith("/api/"):
+        [problem] = response.json()["problems"]
+        assert problem["field"] == option and words[option] in problem["message"]
+    else:
+        assert escape(words[option], quote=True).replace("&#x27;", "&#39;") in response.text
+        assert "DEMO-4T" not in response.text  # nothing exported
+    # refused on an empty log too: the rule does not wait for a record to be read
+    desk["db"].unlink()
+    assert dan.get(f"{path}?{option}=").status_code == 422
+
+
+def test_the_records_pages_own_form_sends_blank_filters_and_they_mean_not_filled_in(desk: dict[str, Any]) -> None:
+    """The Checks page's form posts "every aircraft" and "any" as blank fields: there (and only there) a
+    blank is no filter; its export links leave them out, so they go through the export's one rule."""
+    dan = _three_records(desk)
+    form = dan.get("/records").text
+    assert '<option value="">every aircraft</option>' in form and '<option value="" selected>any</option>' in form
+    page = dan.get("/records?registration=&verdict=&date=").text
+    assert len(re.findall(r'href="/records/\d+"', page)) == 3
+    links = re.findall(r'href="(/records/export\?[^"]+)"', page)
+    assert len(links) == 2 and all("registration=" not in link and "verdict=" not in link for link in links)
+    csv_text = dan.get(links[0].replace("&amp;", "&"))
+    assert csv_text.status_code == 200 and len(csv_text.text.strip().splitlines()) == 1 + 3
+    chosen = dan.get("/records?registration=DEMO-4T&verdict=out&date=").text
+    assert "registration=DEMO-4T&amp;verdict=out&amp;date=" in chosen  # a filter chosen is exported with it
+    assert dan.get("/records?registration=%20&date=").status_code == 422  # a blank of spaces is not the form's
 
 
 @pytest.mark.parametrize("path", ["/api/records", "/records", "/records/export"])

@@ -47,7 +47,7 @@ from ..loading import burn_order
 from ..registration import registration_key
 from ..units import float_as_written
 from ..words import burn_path_summary, condition_words, stretch_text, within_limits_text
-from .form import FORM_FIELDS, refuse_query, refuse_repeated, refuse_unknown
+from .form import FORM_FIELDS, one_source, refuse_query, refuse_repeated, refuse_unknown
 from .security import MAX_BODY_BYTES, BodyLimit, SignInThrottle, csrf_ok, csrf_token
 from .users import Account, UserStore
 
@@ -981,23 +981,32 @@ def create_app(
         account: Account, registration: str | None, verdict: str | None, day: dt.date | None
     ) -> list[LoggedCheck]:
         """The records the filters select, by the check log's own query (the command line's ``log list``):
-        the registration compared as the fleet compares it, the verdict ``within`` or ``out`` (any other
-        refused in the library's words), an empty one (the form's "every aircraft", "any") no filter.
+        the registration compared as the fleet compares it, the verdict ``within`` or ``out``; ``None`` is
+        no filter, and any other value, an empty one included, is refused in the library's words
+        (:func:`loadcheck.checklog.filters_ok`), as ``log list --verdict ""`` is.
 
         Raises
         ------
         LoadcheckError
             The library's refusal of a filter (422).
         """
-        from ..checklog import CheckLog, verdict_ok
+        from ..checklog import CheckLog, filters_ok
 
-        if verdict:
-            verdict_ok(verdict)  # refused before the log is looked for: a bad filter is refused on an empty log too
+        filters_ok(registration, verdict)  # refused before the log is looked for: on an empty log too
         if not desk.db.exists():
             return []
         with CheckLog(desk.db) as log:
-            found = log.find(since=day, until=day, registration=registration or None, verdict=verdict or None)
+            found = log.find(since=day, until=day, registration=registration, verdict=verdict)
             return list(_visible(account, found))
+
+    def _filled(value: str | None) -> str | None:
+        """A field of the records page's own filter form: ``None`` (not filled in) where it was sent blank.
+
+        Only for that form, whose selects send ``""`` for "every aircraft" and "any"; every other value
+        goes to the library as sent (``" "`` is refused there). The API and the export take a filter
+        as the command line does: an empty one is refused (:func:`loadcheck.checklog.filters_ok`).
+        """
+        return None if value == "" else value
 
     def _day(date: str | None) -> dt.date | None:
         if date is None:
@@ -1016,6 +1025,8 @@ def create_app(
         account = _account(request)
         refuse_query(request.query_params.multi_items(), _FILTERS)
         day = _day(date)
+        # this page's own filter form posts a field left at "every aircraft" or "any" blank: not filled in
+        registration, verdict = _filled(registration), _filled(verdict)
         records = _found(account, registration, verdict, day)
         registrations = sorted(e.registration for e in desk.fleet().entries if e.registration)
         if (
@@ -1135,7 +1146,25 @@ def create_app(
         account = _need(request, "mechanic")
         await _form(request, "kind", "text", "upload")
         aircraft, path = desk.aircraft_path(registration)
+
+        def refused(error: LoadcheckError | ValidationError, typed: str) -> Response:
+            """The page again with the problems and what was typed (or uploaded) in the box."""
+            return page(
+                request,
+                "mechanic.html",
+                422,
+                title=f"Empty-weight record: {aircraft.registration}",
+                aircraft=aircraft,
+                history=history(aircraft),
+                problems=desk.problems(error),
+                typed={"kind": kind, "text": typed},
+            )
+
         uploaded = upload is not None and bool(upload.filename)
+        try:
+            one_source(uploaded, text)  # both given: refused, neither read (never the upload over the typed text)
+        except InputError as error:
+            return refused(error, text)
         content = (await upload.read()) if upload is not None and uploaded else text.encode("utf-8")
         token = secrets.token_urlsafe(16)
         # the history names the file the record was made from: the upload's own name where it is a plain one
@@ -1152,16 +1181,7 @@ def create_app(
             proposal = propose(path, source, "alteration" if kind == "alteration" else "weighing")
         except (LoadcheckError, ValidationError) as error:
             shutil.rmtree(source.parent, ignore_errors=True)
-            return page(
-                request,
-                "mechanic.html",
-                422,
-                title=f"Empty-weight record: {aircraft.registration}",
-                aircraft=aircraft,
-                history=history(aircraft),
-                problems=desk.problems(error),
-                typed={"kind": kind, "text": content.decode("utf-8", "replace")},
-            )
+            return refused(error, content.decode("utf-8", "replace"))
         with desk.lock:
             desk.pending[token] = _Pending(account.name, registration, proposal, source, time.monotonic())
             while len(desk.pending) > _MAX_PENDING:

@@ -12,7 +12,9 @@ from collections.abc import Iterable, Mapping, Sequence
 
 from fastapi import HTTPException
 
-__all__ = ["FORM_FIELDS", "refuse_query", "refuse_repeated", "refuse_unknown"]
+from ..errors import InputError, Problem
+
+__all__ = ["FORM_FIELDS", "one_source", "refuse_query", "refuse_repeated", "refuse_unknown"]
 
 FORM_FIELDS = ("csrf", "action")
 """Fields every form of the desk may post: its security token and the button pressed."""
@@ -113,6 +115,44 @@ def refuse_query(items: Sequence[tuple[str, str]], parameters: Iterable[str]) ->
     repeated = sorted(name for name, count in counts.items() if count > 1)
     if repeated:
         _refuse("this address gives the parameter {} more than once", repeated, ": nothing was listed; give each once")
+
+
+def one_source(uploaded: bool, text: str, upload_field: str = "upload", text_field: str = "text") -> None:
+    """Refuse a form that gives a file both as an upload and as typed text.
+
+    A form that says "upload the file, or type it here" reads one of them; given both, reading
+    either would drop the other (the readings a mechanic typed in, or the file chosen), so the
+    form is refused and neither is read (DESIGN.md, "Fail closed"). Typed text that is only
+    blanks is not a value given (a browser posts the empty box with every form).
+
+    Parameters
+    ----------
+    uploaded : whether the form carries a chosen file in ``upload_field``
+    text : the form's ``text_field`` as posted
+    upload_field, text_field : the two fields' names, as the form posts them
+
+    Raises
+    ------
+    InputError
+        naming both fields, for a form that gives both; the page shows it as it shows a problem of
+        the file, with what was typed kept.
+
+    Examples
+    --------
+    >>> one_source(True, "")
+    >>> one_source(False, "format = 1")
+    >>> one_source(True, "format = 1")  # doctest: +ELLIPSIS
+    Traceback (most recent call last):
+    ...
+    loadcheck.errors.InputError: upload, text: the form gives an uploaded file and typed text: give one; ...
+    """
+    if uploaded and text.strip():
+        raise InputError(
+            Problem(
+                f"{upload_field}, {text_field}",
+                "the form gives an uploaded file and typed text: give one; neither was read, nothing was written",
+            )
+        )
 
 
 _FORM_TAIL = ": nothing was checked, recorded or changed; reload the page and use the desk's own form"
