@@ -521,6 +521,14 @@ class CheckLog:
         filters_ok(registration, verdict)  # both refused before anything is read
         clauses: list[str] = []
         args: list[Any] = []
+        if since is not None and until is not None and until < since:  # no day is in it: said, not listed empty
+            raise InputError(
+                Problem(
+                    "until",
+                    f"{until.isoformat()} is before the first day, {since.isoformat()}",
+                    expected="a day on or after it",
+                )
+            )
         if verdict is not None:
             clauses.append("ok = ?")
             args.append(int(verdict_ok(verdict)))

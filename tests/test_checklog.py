@@ -406,3 +406,16 @@ def test_the_seal_text_of_any_ascii_fields_is_json_dumps(fields):
     from loadcheck.checklog import _seal_text
 
     assert _seal_text(fields) == json.dumps(fields, separators=(",", ":")).encode("utf-8")
+
+
+def test_regression_a_span_ending_before_it_starts_listed_nothing_without_a_word(runner, db):
+    """An outside trial: ``log list --since 2026-12-03 --until 2026-12-02`` listed nothing and exited 0, as
+    if no check had been recorded. No day lies in such a span: it is refused, naming both days (common
+    practice: a filter that cannot match is a typing error, not an empty answer)."""
+    _record(db, "trainer4/within.toml")
+    for command in ("list", "export"):
+        said = runner.invoke(app, ["log", command, "--since", "2026-12-03", "--until", "2026-12-02", "--db", str(db)])
+        assert said.exit_code == 2, said.output
+        assert "until: 2026-12-02 is before the first day, 2026-12-03" in said.output
+    same_day = runner.invoke(app, ["log", "list", "--since", "2026-12-03", "--until", "2026-12-03", "--db", str(db)])
+    assert same_day.exit_code == 0
