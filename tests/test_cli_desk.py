@@ -43,3 +43,21 @@ def test_serve_command_refuses_remote_and_prints_the_caution(
     monkeypatch.setattr(uvicorn, "run", lambda app, **kw: started.update(kw))
     runner.invoke(app, ["serve", str(SAMPLES), "--users", str(tmp_path / "u.json")])
     assert started["host"] == "127.0.0.1"
+
+
+def test_regression_a_missing_web_extra_stopped_with_an_internal_error(runner, tmp_path, monkeypatch):
+    """A trial of the install: with ``pip install .`` alone, ``users add`` and ``serve`` stopped with
+    "internal error (ModuleNotFoundError ...) Please report it". They now say what to install (exit 2)."""
+    import importlib.util
+
+    found = importlib.util.find_spec
+    monkeypatch.setattr(importlib.util, "find_spec", lambda name, *a: None if name == "argon2" else found(name, *a))
+    for command in (
+        ["users", "add", "robin", "--role", "pilot", "--password-stdin", "--users", str(tmp_path / "u")],
+        ["serve", str(tmp_path), "--users", str(tmp_path / "u")],
+    ):
+        said = runner.invoke(app, command, input="a long pass phrase\n")
+        assert said.exit_code == 2, said.output
+        assert "the desk needs the web extra, and argon2-cffi is not installed" in said.output
+        assert "internal error" not in said.output
+    assert not (tmp_path / "u").exists()

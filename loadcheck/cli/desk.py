@@ -24,9 +24,38 @@ UsersOpt = Annotated[
 ]
 
 
+_WEB_MODULES = {
+    "fastapi": "fastapi",
+    "jinja2": "jinja2",
+    "uvicorn": "uvicorn",
+    "argon2": "argon2-cffi",
+    "multipart": "python-multipart",
+    "itsdangerous": "itsdangerous",
+}
+"""The modules the desk imports, by the distribution of the ``web`` extra (pyproject.toml) giving each."""
+
+
+def _web_installed() -> None:
+    """Refuse a desk command, naming what to install, where the ``web`` extra is missing (it stopped
+    with an "internal error" of a module not found)."""
+    from importlib.util import find_spec
+
+    missing = [package for module, package in _WEB_MODULES.items() if find_spec(module) is None]
+    if missing:
+        raise InputError(
+            Problem(
+                "",
+                f"the desk needs the web extra, and {', '.join(missing)} {'is' if len(missing) == 1 else 'are'} "
+                'not installed: from the repository, pip install -e ".[web]"',
+            )
+        )
+
+
 def _store(users: Path | None) -> UserStore:
     from ..userdata import default_users_path
     from ..web.users import UserStore
+
+    _web_installed()
 
     return UserStore(users if users is not None else default_users_path())
 
@@ -51,6 +80,7 @@ def serve(
 
       loadcheck serve sample_aircraft --port 8400
     """
+    _web_installed()
     from ..web.security import bind_caution
 
     caution = bind_caution(host, allow_remote)
