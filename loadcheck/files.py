@@ -51,6 +51,7 @@ __all__ = [
     "load_aircraft_for_update",
     "load_check_inputs",
     "load_loading",
+    "named_elsewhere",
     "open_regular",
     "parse_aircraft",
     "parse_loading",
@@ -627,7 +628,7 @@ def load_check_inputs(
     else:
         aircraft = parse_aircraft(data, aircraft_path)
         loading, named = read_loading(loading_path)
-        if named is not None and named.resolve() != Path(aircraft_path).resolve():
+        if named is not None and named_elsewhere(named, ".", aircraft_path) is not None:
             notes.append(f"the loading names {named}, but {aircraft_path} was given and is used")
     try:
         trip = (
@@ -679,6 +680,28 @@ def _own_reserves(loading: Loading, trip: ResolvedTrip | None, overrides: Mappin
                 f"given over the file ({given}): that one holds for the first leg and for each leg that gives none"
             )
     return notes
+
+
+def named_elsewhere(named: str | Path | None, relative_to: str | Path, given: str | Path) -> Path | None:
+    """The aircraft file that a loading, readings or changes file names (its ``aircraft`` key, read
+    relative to the folder ``relative_to``) where it is not the aircraft file ``given``; None where
+    the file names none, or names the one given.
+
+    One rule for every job that is given an aircraft file beside a file naming one (the check, the
+    fleet, weigh and alter): the two are compared as resolved paths, so one file reached by two
+    paths (``./a.toml``, a symlink) is the same aircraft, and a copy elsewhere is another.
+
+    Examples
+    --------
+    >>> named_elsewhere("aircraft.toml", "fleet/trainer", "fleet/trainer/./aircraft.toml") is None
+    True
+    >>> str(named_elsewhere("other.toml", "fleet/trainer", "fleet/trainer/aircraft.toml"))
+    'fleet/trainer/other.toml'
+    """
+    if not named:
+        return None
+    path = Path(relative_to) / named
+    return None if path.resolve() == Path(given).resolve() else path
 
 
 def _named_aircraft(named: Path | None, loading_path: str | Path) -> Aircraft:
