@@ -60,6 +60,8 @@ __all__ = [
     "read_text",
     "read_toml",
     "typed_options",
+    "Validated",
+    "validate",
     "validate_file",
     "write_atomic",
     "write_new_record",
@@ -792,10 +794,59 @@ def _validate_loading(path: str | Path, data: Mapping[str, Any]) -> str:
     return f"loading for {aircraft.name!r}{legs}"
 
 
-def validate_file(path: str | Path) -> str:
-    """Validate one aircraft or loading file; return a one-line summary.
+@dataclass(frozen=True)
+class Validated:
+    """What :func:`validate` found of one file.
 
-    A loading that names its aircraft is resolved against it (names, capacities).
+    Attributes
+    ----------
+    path : the file as given
+    kind : what it holds (:func:`file_kind`; ``unknown`` where it could not be read)
+    summary : the one-line summary of :func:`validate_file`, where the file validates
+    problems : one line per problem (file name first, :meth:`LoadcheckError.lines`), where it does not
+    """
+
+    path: str
+    kind: str
+    summary: str | None = None
+    problems: list[str] = field(default_factory=list)
+
+    @property
+    def ok(self) -> bool:
+        """True when the file validates."""
+        return self.summary is not None
+
+    @property
+    def caution(self) -> str:
+        """The caution that goes with the file: the mechanic's for a readings or changes file, the
+        pilot's for the others (DESIGN.md, "Cautions")."""
+        from .caution import MECHANIC_CAUTION, PILOT_CAUTION
+
+        return MECHANIC_CAUTION if self.kind in ("readings", "changes") else PILOT_CAUTION
+
+
+def validate(path: str | Path) -> Validated:
+    """:func:`validate_file` of one file, its problems collected rather than raised, with the file's kind
+    (for the caution that goes with it)."""
+    kind = "unknown"
+    try:
+        data = read_toml(path)
+        kind = file_kind(data)
+        return Validated(str(path), kind, summary=_validate_data(path, data, kind))
+    except LoadcheckError as error:
+        return Validated(str(path), kind, problems=error.lines())
+    except ValidationError as error:  # a model built past the file's own validation (a new record's aircraft)
+        return Validated(str(path), kind, problems=InputError(problems_from_validation(error), file=path).lines())
+
+
+def validate_file(path: str | Path) -> str:
+    """Validate one aircraft, loading, readings or changes file; return a one-line summary.
+
+    A loading that names its aircraft is resolved against it (names, capacities). A readings or
+    changes file that names its aircraft is given to the job that ``weigh`` or ``alter`` runs
+    (:func:`~loadcheck.empty_record.propose`: the new record is computed, never written), so a file
+    that validates is one that job accepts; the summary says the new record's warnings and why it
+    would not be written as it stands.
 
     Raises
     ------
@@ -803,7 +854,11 @@ def validate_file(path: str | Path) -> str:
         Listing every problem found in the file.
     """
     data = read_toml(path)
-    kind = file_kind(data)
+    return _validate_data(path, data, file_kind(data))
+
+
+def _validate_data(path: str | Path, data: Mapping[str, Any], kind: str) -> str:
+    """:func:`validate_file` of a file already read, of the ``kind`` found."""
     if kind == "aircraft":
         aircraft = parse_aircraft(data, path)
         from .weighing import current_record_warnings
@@ -828,9 +883,16 @@ def validate_file(path: str | Path) -> str:
 
             _validate(Readings if kind == "readings" else Changes, data, path)
             return f"{kind} (names no aircraft, so tanks, equipment and units were not checked)"
-        aircraft = load_aircraft(Path(path).parent / str(named))
-        (load_readings if kind == "readings" else load_changes)(path, aircraft)
-        return f"{kind} for {aircraft.name!r}"
+        from .empty_record import propose
+
+        proposal = propose(Path(path).parent / str(named), path, "weighing" if kind == "readings" else "alteration")
+        result = proposal.result
+        notes = [f"WARNING: {w}" for w in result.warnings] + [
+            f"WARNING: the new record would not be written {'without an override' if r.overridable else 'at all'}: "
+            f"{r.message}"
+            for r in result.refusals
+        ]
+        return "; ".join([f"{kind} for {proposal.aircraft.name!r}", *notes])
     raise InputError(
         "cannot tell what this file is: no [units]/[empty]/[[envelope]] (aircraft), no [load]/[fuel]/[burn] "
         "(loading), no [[point]] (readings) and no [[change]] (changes)",
