@@ -1084,7 +1084,8 @@ def write_new_record(
     """Make a new empty-weight record current and keep the old one in ``[[history]]``.
 
     The file keeps its comments and layout (tomlkit), except the trailing comments of the
-    values replaced. The history entry holds when (``recorded``), why (``reason``,
+    values replaced. ``weight``, ``arm`` and ``lateral_arm`` are written at full precision (each
+    float's repr, read back exactly), never rounded. The history entry holds when (``recorded``), why (``reason``,
     ``note``), who (``by``), the overrides given, the inputs (bounded by the caller; see
     :mod:`loadcheck.empty_record`) and the previous record. It is written atomically
     (:func:`write_atomic`, through a symlink to its target), and only if the file still
@@ -1125,14 +1126,14 @@ def write_new_record(
     entry.update(_plain({"by": by, "note": note}))
     if overrides:
         entry["overrides"] = list(overrides)
-    entry.update(
-        {"new_weight": round(weight, 4), "new_arm": round(arm, 4), "previous": previous, "inputs": _plain(dict(inputs))}
-    )
+    # the figures at full precision (a float's repr, which TOML reads back exactly): the record written
+    # is the one shown and confirmed, and the next check uses the same moment (DESIGN.md, full precision)
+    entry.update({"new_weight": weight, "new_arm": arm, "previous": previous, "inputs": _plain(dict(inputs))})
     empty = doc["empty"]
-    _set_value(empty, "weight", round(weight, 4))
-    _set_value(empty, "arm", round(arm, 4))
+    _set_value(empty, "weight", weight)
+    _set_value(empty, "arm", arm)
     if lateral_arm is not None:
-        _set_value(empty, "lateral_arm", round(lateral_arm, 4))
+        _set_value(empty, "lateral_arm", lateral_arm)
     _set_value(empty, "date", date)
     _append_entry(doc, "history", entry)
     if equipment is not None:

@@ -611,3 +611,25 @@ def test_regression_weigh_and_alter_wrote_one_aircrafts_record_into_anothers(run
     result = runner.invoke(app, [command, str(target), str(tmp_path / name), "--write", "--yes"])
     assert_input_error(result, "aircraft:", str(path), str(target))
     assert target.read_bytes() == before
+
+
+# -- the record written is the one shown (trial 9, item 9) ------------------------------------------
+
+
+@pytest.mark.parametrize(
+    "command, kind, name", [("weigh", "weighing", "weighing.toml"), ("alter", "alteration", "changes.toml")]
+)
+def test_regression_the_written_record_was_rounded_to_4_decimals(runner, tmp_path, command, kind, name):
+    path = _trainer(tmp_path)
+    shown = propose(path, tmp_path / name, kind).result.new
+    shown_json = json.loads(runner.invoke(app, [command, str(path), str(tmp_path / name), "--json"]).stdout)["new"]
+    assert runner.invoke(app, [command, str(path), str(tmp_path / name), "--write", "--yes"]).exit_code == 0
+    written = tomllib.loads(path.read_text())
+    # exactly: the figures shown and confirmed are the figures written (a float's repr reads back exactly)
+    assert written["empty"]["weight"] == shown.weight == shown_json["weight"]
+    assert written["empty"]["arm"] == shown.arm == shown_json["arm"]
+    assert written["history"][-1]["new_weight"] == shown.weight and written["history"][-1]["new_arm"] == shown.arm
+    assert round(shown.arm, 4) != shown.arm or round(shown.weight, 4) != shown.weight  # the rounding would show
+    now = load_aircraft(path).empty
+    assert (now.weight, now.arm) == (shown.weight, shown.arm)
+    assert now.moment == pytest.approx(shown.moment, rel=1e-12)  # weight x arm against the sum of moments: float noise
