@@ -204,16 +204,25 @@ def parse_toml(text: str, path: str | Path) -> dict[str, Any]:
     Raises
     ------
     FileFormatError
-        With the parser's message (line and column), or the nesting found.
+        With the parser's message (line and column), or the nesting found; for a float no float
+        holds as written (``1e-400``, :func:`~loadcheck.units.float_as_written`), naming its field
+        (``point[2].reading``), as every other refusal of a value does.
     """
     from .units import float_as_written
 
+    unheld: list[_Unheld] = []
+
+    def read_float(number: str) -> Any:
+        try:
+            return float_as_written(number)
+        except UnitError as error:  # kept for now: refused below, once its field is known
+            unheld.append(_Unheld(number, "; ".join(p.message for p in error.problems)))
+            return unheld[-1]
+
     try:
-        data = tomllib.loads(text, parse_float=float_as_written)
+        data = tomllib.loads(text, parse_float=read_float)
     except tomllib.TOMLDecodeError as error:
         raise FileFormatError(f"TOML syntax error: {error}", file=path) from None
-    except UnitError as error:  # a float written too small to be held as written
-        raise FileFormatError(str(error), file=path) from None
     except RecursionError:
         raise FileFormatError(
             f"tables or arrays nested too deeply (loadcheck's files nest at most {MAX_NESTING} levels)", file=path
@@ -223,7 +232,34 @@ def parse_toml(text: str, path: str | Path) -> dict[str, Any]:
             f"tables or arrays nested more than {MAX_NESTING} levels deep; loadcheck's files nest a few levels",
             file=path,
         )
+    if unheld:
+        raise FileFormatError(
+            [Problem(_field_path(where), found.message) for where, found in _unheld_fields(data)], file=path
+        )
     return data
+
+
+class _Unheld:
+    """A float a TOML file writes that no float holds as written (:func:`~loadcheck.units.float_as_written`),
+    kept in its place while the file is parsed so that its refusal can name its field."""
+
+    __slots__ = ("message", "number")
+
+    def __init__(self, number: str, message: str):
+        self.number, self.message = number, message
+
+
+def _unheld_fields(data: Any) -> list[tuple[tuple[Any, ...], _Unheld]]:
+    """Where the :class:`_Unheld` floats of parsed data are (key and index paths), in file order."""
+    found: list[tuple[tuple[Any, ...], _Unheld]] = []
+    stack: list[tuple[tuple[Any, ...], Any]] = [((), data)]
+    while stack:
+        where, value = stack.pop()
+        if isinstance(value, _Unheld):
+            found.append((where, value))
+        children = value.items() if isinstance(value, dict) else enumerate(value) if isinstance(value, list) else ()
+        stack.extend(reversed([((*where, key), child) for key, child in children]))
+    return found
 
 
 def read_toml(path: str | Path) -> dict[str, Any]:
