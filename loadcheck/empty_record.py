@@ -229,21 +229,52 @@ class Proposal:
         return {**self.result.to_dict(), "kind": self.kind, "comparison": [r.to_dict() for r in self.comparison()]}
 
 
-def propose(aircraft_path: str | Path, source_path: str | Path, kind: Kind, now: dt.datetime | None = None) -> Proposal:
+def propose(
+    aircraft_path: str | Path,
+    source_path: str | Path,
+    kind: Kind,
+    now: dt.datetime | None = None,
+    *,
+    relative_to: str | Path | None = None,
+) -> Proposal:
     """Compute a new empty-weight record from a readings file (``weighing``) or a changes file (``alteration``).
 
     Nothing is written. ``now`` is the moment the file's date is checked against (default the
-    system clock; :func:`~loadcheck.weighing.date_checks`).
+    system clock; :func:`~loadcheck.weighing.date_checks`). A readings or changes file that names
+    its aircraft (``aircraft = "..."``) is refused for any other aircraft file: a weighing or an
+    alteration record belongs to the aircraft weighed or changed, and is never written into
+    another's (FAA-H-8083-1B chapter 3, from memory; common practice). The name is read relative to
+    ``relative_to`` (default the file's own folder; a front end that keeps the file elsewhere, as
+    the desk keeps an upload, gives the folder it stands for) and compared as
+    :func:`~loadcheck.files.named_elsewhere` compares a loading's.
 
     Raises
     ------
     LoadcheckError
-        Naming the file and every problem found in it.
+        Naming the file and every problem found in it; an ``InputError`` at ``aircraft`` for a file
+        that names another aircraft file.
     """
-    from .files import load_aircraft_for_update, load_changes, load_readings
+    from .files import load_aircraft_for_update, load_changes, load_readings, named_elsewhere, read_toml
 
     aircraft_path, source_path = Path(aircraft_path), Path(source_path)
     aircraft, original = load_aircraft_for_update(aircraft_path)
+    named = read_toml(source_path).get("aircraft")
+    if isinstance(named, str):  # any other type is refused by the file's model, naming the field
+        other = named_elsewhere(named, source_path.parent if relative_to is None else relative_to, aircraft_path)
+        if other is not None:
+            what, record, done = (
+                ("readings", "a weighing", "weighed") if kind == "weighing" else ("changes", "an alteration", "changed")
+            )
+            raise InputError(
+                Problem(
+                    "aircraft",
+                    f"these {what} are for the aircraft file {other}, but the aircraft file given is "
+                    f"{aircraft_path}: {record} record belongs to the aircraft {done}, so nothing is "
+                    "computed for another; give the aircraft file the file names (or correct its aircraft key)",
+                    value=named,
+                ),
+                file=source_path,
+            )
     from .alterations import alter
     from .weighing import weigh
 

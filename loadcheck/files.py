@@ -51,6 +51,7 @@ __all__ = [
     "load_aircraft_for_update",
     "load_check_inputs",
     "load_loading",
+    "named_elsewhere",
     "open_regular",
     "parse_aircraft",
     "parse_loading",
@@ -59,6 +60,8 @@ __all__ = [
     "read_text",
     "read_toml",
     "typed_options",
+    "Validated",
+    "validate",
     "validate_file",
     "write_atomic",
     "write_new_record",
@@ -201,16 +204,25 @@ def parse_toml(text: str, path: str | Path) -> dict[str, Any]:
     Raises
     ------
     FileFormatError
-        With the parser's message (line and column), or the nesting found.
+        With the parser's message (line and column), or the nesting found; for a float no float
+        holds as written (``1e-400``, :func:`~loadcheck.units.float_as_written`), naming its field
+        (``point[2].reading``), as every other refusal of a value does.
     """
     from .units import float_as_written
 
+    unheld: list[_Unheld] = []
+
+    def read_float(number: str) -> Any:
+        try:
+            return float_as_written(number)
+        except UnitError as error:  # kept for now: refused below, once its field is known
+            unheld.append(_Unheld(number, "; ".join(p.message for p in error.problems)))
+            return unheld[-1]
+
     try:
-        data = tomllib.loads(text, parse_float=float_as_written)
+        data = tomllib.loads(text, parse_float=read_float)
     except tomllib.TOMLDecodeError as error:
         raise FileFormatError(f"TOML syntax error: {error}", file=path) from None
-    except UnitError as error:  # a float written too small to be held as written
-        raise FileFormatError(str(error), file=path) from None
     except RecursionError:
         raise FileFormatError(
             f"tables or arrays nested too deeply (loadcheck's files nest at most {MAX_NESTING} levels)", file=path
@@ -220,7 +232,34 @@ def parse_toml(text: str, path: str | Path) -> dict[str, Any]:
             f"tables or arrays nested more than {MAX_NESTING} levels deep; loadcheck's files nest a few levels",
             file=path,
         )
+    if unheld:
+        raise FileFormatError(
+            [Problem(_field_path(where), found.message) for where, found in _unheld_fields(data)], file=path
+        )
     return data
+
+
+class _Unheld:
+    """A float a TOML file writes that no float holds as written (:func:`~loadcheck.units.float_as_written`),
+    kept in its place while the file is parsed so that its refusal can name its field."""
+
+    __slots__ = ("message", "number")
+
+    def __init__(self, number: str, message: str):
+        self.number, self.message = number, message
+
+
+def _unheld_fields(data: Any) -> list[tuple[tuple[Any, ...], _Unheld]]:
+    """Where the :class:`_Unheld` floats of parsed data are (key and index paths), in file order."""
+    found: list[tuple[tuple[Any, ...], _Unheld]] = []
+    stack: list[tuple[tuple[Any, ...], Any]] = [((), data)]
+    while stack:
+        where, value = stack.pop()
+        if isinstance(value, _Unheld):
+            found.append((where, value))
+        children = value.items() if isinstance(value, dict) else enumerate(value) if isinstance(value, list) else ()
+        stack.extend(reversed([((*where, key), child) for key, child in children]))
+    return found
 
 
 def read_toml(path: str | Path) -> dict[str, Any]:
@@ -627,7 +666,7 @@ def load_check_inputs(
     else:
         aircraft = parse_aircraft(data, aircraft_path)
         loading, named = read_loading(loading_path)
-        if named is not None and named.resolve() != Path(aircraft_path).resolve():
+        if named is not None and named_elsewhere(named, ".", aircraft_path) is not None:
             notes.append(f"the loading names {named}, but {aircraft_path} was given and is used")
     try:
         trip = (
@@ -679,6 +718,28 @@ def _own_reserves(loading: Loading, trip: ResolvedTrip | None, overrides: Mappin
                 f"given over the file ({given}): that one holds for the first leg and for each leg that gives none"
             )
     return notes
+
+
+def named_elsewhere(named: str | Path | None, relative_to: str | Path, given: str | Path) -> Path | None:
+    """The aircraft file that a loading, readings or changes file names (its ``aircraft`` key, read
+    relative to the folder ``relative_to``) where it is not the aircraft file ``given``; None where
+    the file names none, or names the one given.
+
+    One rule for every job that is given an aircraft file beside a file naming one (the check, the
+    fleet, weigh and alter): the two are compared as resolved paths, so one file reached by two
+    paths (``./a.toml``, a symlink) is the same aircraft, and a copy elsewhere is another.
+
+    Examples
+    --------
+    >>> named_elsewhere("aircraft.toml", "fleet/trainer", "fleet/trainer/./aircraft.toml") is None
+    True
+    >>> str(named_elsewhere("other.toml", "fleet/trainer", "fleet/trainer/aircraft.toml"))
+    'fleet/trainer/other.toml'
+    """
+    if not named:
+        return None
+    path = Path(relative_to) / named
+    return None if path.resolve() == Path(given).resolve() else path
 
 
 def _named_aircraft(named: Path | None, loading_path: str | Path) -> Aircraft:
@@ -769,10 +830,59 @@ def _validate_loading(path: str | Path, data: Mapping[str, Any]) -> str:
     return f"loading for {aircraft.name!r}{legs}"
 
 
-def validate_file(path: str | Path) -> str:
-    """Validate one aircraft or loading file; return a one-line summary.
+@dataclass(frozen=True)
+class Validated:
+    """What :func:`validate` found of one file.
 
-    A loading that names its aircraft is resolved against it (names, capacities).
+    Attributes
+    ----------
+    path : the file as given
+    kind : what it holds (:func:`file_kind`; ``unknown`` where it could not be read)
+    summary : the one-line summary of :func:`validate_file`, where the file validates
+    problems : one line per problem (file name first, :meth:`LoadcheckError.lines`), where it does not
+    """
+
+    path: str
+    kind: str
+    summary: str | None = None
+    problems: list[str] = field(default_factory=list)
+
+    @property
+    def ok(self) -> bool:
+        """True when the file validates."""
+        return self.summary is not None
+
+    @property
+    def caution(self) -> str:
+        """The caution that goes with the file: the mechanic's for a readings or changes file, the
+        pilot's for the others (DESIGN.md, "Cautions")."""
+        from .caution import MECHANIC_CAUTION, PILOT_CAUTION
+
+        return MECHANIC_CAUTION if self.kind in ("readings", "changes") else PILOT_CAUTION
+
+
+def validate(path: str | Path) -> Validated:
+    """:func:`validate_file` of one file, its problems collected rather than raised, with the file's kind
+    (for the caution that goes with it)."""
+    kind = "unknown"
+    try:
+        data = read_toml(path)
+        kind = file_kind(data)
+        return Validated(str(path), kind, summary=_validate_data(path, data, kind))
+    except LoadcheckError as error:
+        return Validated(str(path), kind, problems=error.lines())
+    except ValidationError as error:  # a model built past the file's own validation (a new record's aircraft)
+        return Validated(str(path), kind, problems=InputError(problems_from_validation(error), file=path).lines())
+
+
+def validate_file(path: str | Path) -> str:
+    """Validate one aircraft, loading, readings or changes file; return a one-line summary.
+
+    A loading that names its aircraft is resolved against it (names, capacities). A readings or
+    changes file that names its aircraft is given to the job that ``weigh`` or ``alter`` runs
+    (:func:`~loadcheck.empty_record.propose`: the new record is computed, never written), so a file
+    that validates is one that job accepts; the summary says the new record's warnings and why it
+    would not be written as it stands.
 
     Raises
     ------
@@ -780,7 +890,11 @@ def validate_file(path: str | Path) -> str:
         Listing every problem found in the file.
     """
     data = read_toml(path)
-    kind = file_kind(data)
+    return _validate_data(path, data, file_kind(data))
+
+
+def _validate_data(path: str | Path, data: Mapping[str, Any], kind: str) -> str:
+    """:func:`validate_file` of a file already read, of the ``kind`` found."""
     if kind == "aircraft":
         aircraft = parse_aircraft(data, path)
         from .weighing import current_record_warnings
@@ -805,9 +919,16 @@ def validate_file(path: str | Path) -> str:
 
             _validate(Readings if kind == "readings" else Changes, data, path)
             return f"{kind} (names no aircraft, so tanks, equipment and units were not checked)"
-        aircraft = load_aircraft(Path(path).parent / str(named))
-        (load_readings if kind == "readings" else load_changes)(path, aircraft)
-        return f"{kind} for {aircraft.name!r}"
+        from .empty_record import propose
+
+        proposal = propose(Path(path).parent / str(named), path, "weighing" if kind == "readings" else "alteration")
+        result = proposal.result
+        notes = [f"WARNING: {w}" for w in result.warnings] + [
+            f"WARNING: the new record would not be written {'without an override' if r.overridable else 'at all'}: "
+            f"{r.message}"
+            for r in result.refusals
+        ]
+        return "; ".join([f"{kind} for {proposal.aircraft.name!r}", *notes])
     raise InputError(
         "cannot tell what this file is: no [units]/[empty]/[[envelope]] (aircraft), no [load]/[fuel]/[burn] "
         "(loading), no [[point]] (readings) and no [[change]] (changes)",
@@ -999,7 +1120,8 @@ def write_new_record(
     """Make a new empty-weight record current and keep the old one in ``[[history]]``.
 
     The file keeps its comments and layout (tomlkit), except the trailing comments of the
-    values replaced. The history entry holds when (``recorded``), why (``reason``,
+    values replaced. ``weight``, ``arm`` and ``lateral_arm`` are written at full precision (each
+    float's repr, read back exactly), never rounded. The history entry holds when (``recorded``), why (``reason``,
     ``note``), who (``by``), the overrides given, the inputs (bounded by the caller; see
     :mod:`loadcheck.empty_record`) and the previous record. It is written atomically
     (:func:`write_atomic`, through a symlink to its target), and only if the file still
@@ -1040,14 +1162,14 @@ def write_new_record(
     entry.update(_plain({"by": by, "note": note}))
     if overrides:
         entry["overrides"] = list(overrides)
-    entry.update(
-        {"new_weight": round(weight, 4), "new_arm": round(arm, 4), "previous": previous, "inputs": _plain(dict(inputs))}
-    )
+    # the figures at full precision (a float's repr, which TOML reads back exactly): the record written
+    # is the one shown and confirmed, and the next check uses the same moment (DESIGN.md, full precision)
+    entry.update({"new_weight": weight, "new_arm": arm, "previous": previous, "inputs": _plain(dict(inputs))})
     empty = doc["empty"]
-    _set_value(empty, "weight", round(weight, 4))
-    _set_value(empty, "arm", round(arm, 4))
+    _set_value(empty, "weight", weight)
+    _set_value(empty, "arm", arm)
     if lateral_arm is not None:
-        _set_value(empty, "lateral_arm", round(lateral_arm, 4))
+        _set_value(empty, "lateral_arm", lateral_arm)
     _set_value(empty, "date", date)
     _append_entry(doc, "history", entry)
     if equipment is not None:

@@ -35,7 +35,7 @@ from typing import Any
 from .aircraft import RESERVED_IDS, Aircraft
 from .check import check_many
 from .errors import FileFormatError, InputError, LoadcheckError, Problem
-from .files import encoding_problem, file_kind, open_regular, parse_aircraft, parse_loading, read_toml
+from .files import encoding_problem, file_kind, named_elsewhere, open_regular, parse_aircraft, parse_loading, read_toml
 from .loading import Loading, burn_order, resolve_loading
 from .registration import registration_key, required_key
 from .weighing import latest_date
@@ -722,8 +722,7 @@ def _named_aircraft_problem(path: Path, loading: Loading, fleet: Fleet) -> str |
         entry = fleet.entry(loading.registration)
     except LoadcheckError:
         return None  # an unknown registration is the row's own problem, said where the row is checked
-    named = (path.parent / loading.aircraft).resolve()
-    if named == Path(entry.path).resolve():
+    if named_elsewhere(loading.aircraft, path.parent, entry.path) is None:
         return None
     return (
         f"{path}: this loading names the aircraft file {loading.aircraft!r}, but its registration "

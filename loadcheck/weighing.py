@@ -113,7 +113,12 @@ class WeighingPoint(_Model):
 
     @model_validator(mode="after")
     def _placed(self) -> WeighingPoint:
-        if (self.wheel is None) == (self.arm is None):
+        if self.wheel is not None and self.arm is not None:
+            raise ValueError(
+                f"both the point's arm ({self.arm:g}) and its wheel ({self.wheel!r}) are given: give only one, "
+                "the arm, or the wheel with a [geometry] table that gives its arm"
+            )
+        if self.wheel is None and self.arm is None:
             raise ValueError("give the point's arm, or its wheel (main, nose or tail) with a [geometry] table")
         if self.tare > self.reading:
             raise ValueError(f"the tare ({self.tare:g}) is above the reading ({self.reading:g})")

@@ -36,7 +36,7 @@ from loadcheck.empty_record import (
 from loadcheck.errors import LoadcheckError
 from loadcheck.files import MAX_FILE_BYTES, read_text
 
-from .helpers import app_runner, cell, record_sheet, sample
+from .helpers import app_runner, assert_input_error, cell, record_sheet, sample
 
 
 def _trainer(tmp_path: Path) -> Path:
@@ -567,3 +567,69 @@ def test_the_same_date_as_the_current_record_is_written(tmp_path):
 
 def _run(command: str, path: Path, source: Path, *options: str):
     return app_runner().invoke(app, [command, str(path), str(source), *options])
+
+
+# -- the aircraft a readings or changes file names (trial 9, item 2) -------------------------------
+# A weighing or alteration record belongs to the aircraft weighed or changed (FAA-H-8083-1B
+# chapter 3, from memory; common practice): a file naming another aircraft file is refused.
+
+
+@pytest.mark.parametrize("kind, name", [("weighing", "weighing.toml"), ("alteration", "changes.toml")])
+def test_regression_a_file_naming_another_aircraft_was_computed_for_the_one_given(tmp_path, kind, name):
+    path = _trainer(tmp_path)
+    other = tmp_path / "other.toml"  # a copy is another aircraft file: the file names aircraft.toml
+    shutil.copy(path, other)
+    with pytest.raises(LoadcheckError, match=r"aircraft: these (readings|changes) are for the aircraft file") as error:
+        propose(other, tmp_path / name, kind)
+    assert error.value.file == str(tmp_path / name)
+    assert str(tmp_path / "aircraft.toml") in str(error.value) and str(other) in str(error.value)
+
+
+@pytest.mark.parametrize("kind, name", [("weighing", "weighing.toml"), ("alteration", "changes.toml")])
+def test_the_aircraft_named_is_the_one_given_by_any_path(tmp_path, monkeypatch, kind, name):
+    _trainer(tmp_path)
+    (tmp_path / "sub").mkdir()
+    monkeypatch.chdir(tmp_path / "sub")
+    assert propose(Path("../aircraft.toml"), tmp_path / name, kind).result.new.weight > 0
+    source = tmp_path / "sub" / name  # named relative to its own folder
+    text = (tmp_path / name).read_text()
+    source.write_text(text.replace('aircraft = "aircraft.toml"', 'aircraft = "../aircraft.toml"'))
+    assert propose(tmp_path / "aircraft.toml", source, kind).result.new.weight > 0
+    # read against another folder (the desk's upload stands for a file beside the aircraft file)
+    assert propose(tmp_path / "aircraft.toml", source, kind, relative_to=tmp_path / "sub").result.new.weight > 0
+    with pytest.raises(LoadcheckError, match="these"):
+        propose(tmp_path / "aircraft.toml", source, kind, relative_to=tmp_path)
+
+
+@pytest.mark.parametrize("command, name", [("weigh", "weighing.toml"), ("alter", "changes.toml")])
+def test_regression_weigh_and_alter_wrote_one_aircrafts_record_into_anothers(runner, tmp_path, command, name):
+    path = _trainer(tmp_path)
+    other = sample("tandem2/aircraft.toml")
+    target = tmp_path / "tandem.toml"
+    shutil.copy(other, target)
+    before = target.read_bytes()
+    result = runner.invoke(app, [command, str(target), str(tmp_path / name), "--write", "--yes"])
+    assert_input_error(result, "aircraft:", str(path), str(target))
+    assert target.read_bytes() == before
+
+
+# -- the record written is the one shown (trial 9, item 9) ------------------------------------------
+
+
+@pytest.mark.parametrize(
+    "command, kind, name", [("weigh", "weighing", "weighing.toml"), ("alter", "alteration", "changes.toml")]
+)
+def test_regression_the_written_record_was_rounded_to_4_decimals(runner, tmp_path, command, kind, name):
+    path = _trainer(tmp_path)
+    shown = propose(path, tmp_path / name, kind).result.new
+    shown_json = json.loads(runner.invoke(app, [command, str(path), str(tmp_path / name), "--json"]).stdout)["new"]
+    assert runner.invoke(app, [command, str(path), str(tmp_path / name), "--write", "--yes"]).exit_code == 0
+    written = tomllib.loads(path.read_text())
+    # exactly: the figures shown and confirmed are the figures written (a float's repr reads back exactly)
+    assert written["empty"]["weight"] == shown.weight == shown_json["weight"]
+    assert written["empty"]["arm"] == shown.arm == shown_json["arm"]
+    assert written["history"][-1]["new_weight"] == shown.weight and written["history"][-1]["new_arm"] == shown.arm
+    assert round(shown.arm, 4) != shown.arm or round(shown.weight, 4) != shown.weight  # the rounding would show
+    now = load_aircraft(path).empty
+    assert (now.weight, now.arm) == (shown.weight, shown.arm)
+    assert now.moment == pytest.approx(shown.moment, rel=1e-12)  # weight x arm against the sum of moments: float noise

@@ -15,7 +15,7 @@ import pytest
 import loadcheck.files as files_module
 from loadcheck.errors import FileFormatError
 
-from .helpers import sample
+from .helpers import assert_input_error, invoke, sample
 
 
 def test_write_atomic_refuses_a_folder(tmp_path):
@@ -146,3 +146,26 @@ def test_regression_a_bare_toml_float_below_the_smallest_double_was_read_as_zero
     with pytest.raises(FileFormatError, match="'1e-400' is too small to be read as written"):
         parse_toml("[load]\nrear = 1e-400\n", "day.toml")
     assert parse_toml("[load]\nrear = 0.0\nfront = 1e-300\n", "day.toml")["load"] == {"rear": 0.0, "front": 1e-300}
+
+
+def test_regression_a_bare_float_below_the_smallest_double_was_refused_without_its_field(tmp_path):
+    """Trial 9, item 12: ``reading = 1e-400`` was refused as ``wb.toml: '1e-400' is too small ...``, while
+    every other refusal of a readings value names its field (``point[2].reading``). The field is
+    named for every kind of file, a later leg as the user counts legs, an array's item by its index."""
+    from loadcheck.errors import FileFormatError
+    from loadcheck.files import parse_toml
+
+    with pytest.raises(FileFormatError) as error:
+        parse_toml("[[point]]\nreading = 1.0\n[[point]]\nreading = 2.0\n[[point]]\nreading = 1e-400\n", "wb.toml")
+    assert error.value.lines() == [
+        "wb.toml: point[2].reading: '1e-400' is too small to be read as written: write 0, or the figure "
+        "without the exponent"
+    ]
+    text = "[load]\nrear = 1e-400\n[[leg]]\nburn = { taxi = 1e-999 }\n[[envelope]]\npoints = [[1.0, 2e-400]]\n"
+    with pytest.raises(FileFormatError) as error:
+        parse_toml(text, "x.toml")
+    assert [p.field for p in error.value.problems] == ["load.rear", "leg 2, burn.taxi", "envelope[0].points[0][1]"]
+    readings = tmp_path / "w.toml"
+    readings.write_text(sample("trainer4/weighing.toml").read_text().replace("reading = 541.0", "reading = 5e-324"))
+    result = invoke("weigh", str(sample("trainer4/aircraft.toml")), str(readings))
+    assert_input_error(result, "w.toml: point[0].reading: '5e-324' is too small")

@@ -448,7 +448,9 @@ def test_mechanic_weighing_needs_confirmation_then_writes_with_history(desk: dic
     from loadcheck.files import load_aircraft
 
     aircraft_file = desk["fleet"] / "trainer4" / "aircraft.toml"
-    expected = propose(aircraft_file, SAMPLES / "trainer4" / "weighing.toml", "weighing").result.new
+    # the sample's aircraft key read as beside the desk's copy, as the desk reads an upload's
+    weighing = SAMPLES / "trainer4" / "weighing.toml"
+    expected = propose(aircraft_file, weighing, "weighing", relative_to=aircraft_file.parent).result.new
     mo = _client(desk, "mo")
     shown = _propose(mo, (SAMPLES / "trainer4" / "weighing.toml").read_text(), upload=True)
     assert shown.status_code == 200
@@ -520,6 +522,21 @@ def test_mechanic_upload_and_typed_text_together_are_refused_and_neither_is_read
     )
     assert alone.status_code == 200 and "Current and new empty-weight record" in alone.text
     assert _propose(mo, typed).status_code == 200
+
+
+def test_regression_the_desk_took_readings_naming_another_aircraft(desk: dict[str, Any]) -> None:
+    """The mechanic's page calls the library's job, which refuses a file naming another aircraft file
+    (trial 9, item 2; FAA-H-8083-1B chapter 3, from memory: the record of the aircraft weighed); its
+    name is read as beside the aircraft file the page is for."""
+    aircraft_file = desk["fleet"] / "trainer4" / "aircraft.toml"
+    before = aircraft_file.read_bytes()
+    named = 'aircraft = "../tandem2/aircraft.toml"'
+    for kind, name in (("weighing", "weighing.toml"), ("alteration", "changes.toml")):
+        text = (SAMPLES / "trainer4" / name).read_text().replace('aircraft = "aircraft.toml"', named)
+        response = _propose(_client(desk, "mo"), text, kind=kind)
+        assert response.status_code == 422 and "are for the aircraft file" in response.text
+        assert "tandem2" in response.text and str(desk["fleet"]) not in response.text
+    assert aircraft_file.read_bytes() == before
 
 
 def test_a_proposal_is_confirmed_only_by_the_mechanic_who_made_it(desk: dict[str, Any], tmp_path: Path) -> None:

@@ -303,3 +303,25 @@ def test_regression_the_readings_date_was_not_checked():
         assert (refusal.code, refusal.overridable, refusal.field) == (code, overridable, "date"), date
     for date in ("2026-12-03", "2026-02-09"):
         assert weigh(aircraft, Readings.model_validate({**data, "date": date}), now=now).refusals == []
+
+
+def test_regression_a_point_with_both_an_arm_and_a_wheel_read_as_if_neither_was_given(tmp_path):
+    """Trial 9, item 12: ``arm = 170.0`` with ``wheel = "tail"`` was refused with "give the point's arm,
+    or its wheel ...". Both given is its own refusal, naming both; neither given keeps its words."""
+    from .helpers import assert_input_error, invoke
+
+    data = sample_data("trainer4/weighing.toml")
+    data["point"][1]["arm"] = 170.0
+    with pytest.raises(
+        ValueError, match=r"both the point's arm \(170\) and its wheel \('main'\) are given: give only one"
+    ):
+        Readings.model_validate(data)
+    del data["point"][1]["arm"], data["point"][1]["wheel"]
+    with pytest.raises(ValueError, match="give the point's arm, or its wheel"):
+        Readings.model_validate(data)
+    text = sample("trainer4/weighing.toml").read_text().replace('wheel = "nose"', 'wheel = "nose"\narm = -6.8', 1)
+    text = text.replace('aircraft = "aircraft.toml"\n', "")  # kept away from its aircraft file
+    readings = tmp_path / "w.toml"
+    readings.write_text(text)
+    result = invoke("weigh", str(sample("trainer4/aircraft.toml")), str(readings))
+    assert_input_error(result, "point[0]: both the point's arm (-6.8) and its wheel ('nose') are given")

@@ -99,7 +99,8 @@ def _linked_trainer(tmp_path):
     versions = tmp_path / "versions"
     versions.mkdir()
     shutil.copy(sample("trainer4/aircraft.toml"), versions / "v7.toml")
-    shutil.copy(sample("trainer4/weighing.toml"), tmp_path / "weighing.toml")
+    text = sample("trainer4/weighing.toml").read_text()  # the readings name the aircraft by its link
+    (tmp_path / "weighing.toml").write_text(text.replace('aircraft = "aircraft.toml"', 'aircraft = "current.toml"'))
     link = tmp_path / "current.toml"
     os.symlink(os.path.join("versions", "v7.toml"), link)
     return link, versions / "v7.toml"

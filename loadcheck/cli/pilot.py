@@ -9,7 +9,7 @@ from typing import TYPE_CHECKING, Annotated, Any, Literal
 import typer
 
 from .. import __version__
-from ..errors import InputError, LoadcheckError, Problem
+from ..errors import InputError, Problem
 from .common import (
     EXIT_INPUT,
     EXIT_LIMIT,
@@ -305,34 +305,30 @@ def validate(
         list[Path], typer.Argument(metavar="FILES", help="Aircraft and loading files to check.", show_default=False)
     ],
 ) -> None:
-    """Check aircraft and loading files and report every problem at once.
+    """Check aircraft, loading, readings and changes files and report every problem at once.
 
     A loading file that names its aircraft is checked against it too (station, tank and
-    level names, capacities).
+    level names, capacities); a readings or changes file that names its aircraft is computed
+    as weigh or alter computes it (nothing is written).
 
     Example:
 
     \b
       loadcheck validate sample_aircraft/*/*.toml
     """
-    from ..files import validate_file
-
-    console = _console()
-    failed = False
-    for path in files:
-        try:
-            summary = validate_file(path)
-        except LoadcheckError as error:
-            failed = True
-            for line in error.lines():
-                _console(stderr=True).print(f"error: {line}", markup=False, soft_wrap=True)
-            continue
-        console.print(f"ok: {path}: {summary}", markup=False)
-    from ..caution import PILOT_CAUTION
+    from ..files import validate as validate_one
     from ..render.terminal import caution_text
 
-    console.print(caution_text(PILOT_CAUTION))
-    raise typer.Exit(EXIT_INPUT if failed else EXIT_OK)
+    console = _console()
+    found = [validate_one(path) for path in files]
+    for path, each in zip(files, found, strict=True):
+        if each.ok:
+            console.print(f"ok: {path}: {each.summary}", markup=False)
+        for line in each.problems:
+            _console(stderr=True).print(f"error: {line}", markup=False, soft_wrap=True)
+    for caution in dict.fromkeys(each.caution for each in found):  # each that applies, once
+        console.print(caution_text(caution))
+    raise typer.Exit(EXIT_OK if all(each.ok for each in found) else EXIT_INPUT)
 
 
 @app.command(short_help="JSON Schema of the files, for editors.")

@@ -1178,7 +1178,10 @@ def create_app(
         source = desk.workdir / token / name
         source.write_bytes(content)
         try:
-            proposal = propose(path, source, "alteration" if kind == "alteration" else "weighing")
+            # the file's aircraft key is read as beside the aircraft file it is entered for
+            proposal = propose(
+                path, source, "alteration" if kind == "alteration" else "weighing", relative_to=path.parent
+            )
         except (LoadcheckError, ValidationError) as error:
             shutil.rmtree(source.parent, ignore_errors=True)
             return refused(error, content.decode("utf-8", "replace"))
