@@ -234,7 +234,11 @@ def _explain(
             )
         if aircraft.control_seats and not any(resolved.stations.get(s, 0.0) > 0 for s in aircraft.control_seats):
             findings.append(
-                Finding(code="no_pilot", severity="warning", message=no_pilot_message(aircraft.control_seats))
+                Finding(
+                    code="no_pilot",
+                    severity="warning",
+                    message=no_pilot_message([aircraft.station_by_id[s].name for s in aircraft.control_seats]),
+                )
             )
         if resolved.notes:
             findings.extend(Finding(code="assumption", severity="warning", message=note) for note in resolved.notes)

@@ -327,22 +327,19 @@ def reserve_message(landing_fuel: float, reserve: float, unit: str) -> str:
 
 
 def no_pilot_message(seats: Sequence[str]) -> str:
-    """No weight at any seat with flight controls, ids in file order (a flight carries its pilot
-    at one of them; common practice).
+    """No weight at any seat with flight controls, named as in the moment table, in file order (a
+    flight carries its pilot at one of them; common practice).
 
     Examples
     --------
-    >>> no_pilot_message(["front"])
-    "no weight at front, the seat with flight controls: a flight needs its pilot's weight there"
-    >>> no_pilot_message(["left", "right"])
-    "no weight at left or right, the seats with flight controls: a flight needs its pilot's weight at one of them"
+    >>> no_pilot_message(["Pilot and front passenger"])
+    "no weight at the seat with flight controls (Pilot and front passenger): a flight needs its pilot's weight there"
+    >>> no_pilot_message(["Left seat", "Right seat"])
+    "no weight at any seat with flight controls (Left seat, Right seat): a flight needs its pilot's weight at one"
     """
     if len(seats) == 1:
-        return f"no weight at {seats[0]}, the seat with flight controls: a flight needs its pilot's weight there"
-    return (
-        f"no weight at {', '.join(seats[:-1])} or {seats[-1]}, the seats with flight controls: "
-        "a flight needs its pilot's weight at one of them"
-    )
+        return f"no weight at the seat with flight controls ({seats[0]}): a flight needs its pilot's weight there"
+    return f"no weight at any seat with flight controls ({', '.join(seats)}): a flight needs its pilot's weight at one"
 
 
 def stretch_text(low: float, high: float, unit: str) -> str:

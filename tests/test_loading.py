@@ -176,7 +176,10 @@ def test_regression_no_weight_at_the_pilots_seat_was_within_limits_without_a_wor
 
     trainer = load_aircraft(sample("trainer4/aircraft.toml"))
     assert trainer.control_seats == ("front",)
-    said = "no weight at front, the seat with flight controls: a flight needs its pilot's weight there"
+    said = (
+        "no weight at the seat with flight controls (Pilot and front passenger): "
+        "a flight needs its pilot's weight there"
+    )
     for load in ({"rear": 100.0}, {"front": 0.0, "rear": 100.0}):
         result = check_loading(trainer, Loading(load=load, fuel={"mains": 20.0, "centre": 0.0}))
         assert [(f.code, f.severity, f.message) for f in result.findings if f.code == "no_pilot"] == [
@@ -191,6 +194,7 @@ def test_regression_no_weight_at_the_pilots_seat_was_within_limits_without_a_wor
     assert [
         f.message for f in check_loading(heli, Loading(load={"bag_left": 9.0})).findings if f.code == "no_pilot"
     ] == [
-        "no weight at left or right, the seats with flight controls: a flight needs its pilot's weight at one of them"
+        "no weight at any seat with flight controls (Left seat, Right seat (solo from here)): "
+        "a flight needs its pilot's weight at one"
     ]
     assert simple_aircraft().control_seats == ()  # no seat said to have controls: nothing to say
