@@ -23,7 +23,7 @@ from pydantic import Field, model_validator
 from .aircraft import Aircraft, Arm, Mass, Volume
 from .caution import MECHANIC_CAUTION
 from .display import fmt
-from .errors import InputError, Problem, UnknownNameError
+from .errors import InputError, LoadcheckError, Problem, UnknownNameError
 from .filemodel import FileModel, Flag
 from .results import Result
 from .words import beyond
@@ -557,7 +557,11 @@ def weigh(aircraft: Aircraft, readings: Readings, now: dt.datetime | None = None
     lateral = any(p.lateral_arm is not None for p in readings.point)
     empty = aircraft.empty
     notes: list[str] = []
-    _require_lateral_arms(aircraft, readings, lateral)
+    problems: list[Problem] = []  # every problem of the readings with this aircraft, said together
+    try:
+        _require_lateral_arms(aircraft, readings, lateral)
+    except LoadcheckError as error:
+        problems += error.problems
     if not lateral and empty.lateral_arm is not None:
         why = (
             "as the readings state (keep_lateral_arm)"
@@ -585,7 +589,9 @@ def weigh(aircraft: Aircraft, readings: Readings, now: dt.datetime | None = None
         )
     weight = sum(p.net for p in points)
     if weight <= 0:
-        raise InputError(Problem("point", "the net weights add up to nothing: check the readings and tares"))
+        raise InputError(
+            [*problems, Problem("point", "the net weights add up to nothing: check the readings and tares")]
+        )
     moment = sum(p.moment for p in points)
     lateral_moment = sum(p.net * (p.lateral_arm or 0.0) for p in points)
     as_weighed = EmptyWeightRecord(
@@ -596,7 +602,11 @@ def weigh(aircraft: Aircraft, readings: Readings, now: dt.datetime | None = None
     corrections = []
     for label, items, sign in (("on_board", readings.on_board, -1.0), ("missing", readings.missing, 1.0)):
         for index, item in enumerate(items):
-            w, a, lat = _item(aircraft, item, f"{label}[{index}]")
+            try:
+                w, a, lat = _item(aircraft, item, f"{label}[{index}]")
+            except LoadcheckError as error:
+                problems += error.problems
+                continue
             corrections.append(
                 Correction(
                     label=item.label,
@@ -610,6 +620,8 @@ def weigh(aircraft: Aircraft, readings: Readings, now: dt.datetime | None = None
             weight += sign * w
             moment += sign * w * a
             lateral_moment += sign * w * lat
+    if problems:
+        raise InputError(problems)
     if weight <= 0:
         raise InputError(Problem("on_board", "taking off the items aboard leaves no weight: check the corrections"))
     new = EmptyWeightRecord(

@@ -283,6 +283,20 @@ def test_a_lateral_aircraft_refuses_a_correction_without_its_lateral_arm(table):
     assert result.new.lateral_arm == pytest.approx((-72.0 + sign * 20.0 * 8.0) / (960.0 + sign * 20.0))
 
 
+def test_regression_a_weighing_said_its_first_problem_only():
+    """An outside trial: readings with no lateral arm on a lateral aircraft and a fuel item of a tank the
+    aircraft does not have were refused for the lateral arm alone; the unknown tank came only on the next
+    try. Every problem of the readings with this aircraft is said at once, as validate says a file's."""
+    aircraft = load_aircraft(sample("heli2/aircraft.toml"))
+    readings = Readings.model_validate(
+        {"point": _heli_points(), "on_board": [{"label": "fuel", "tank": "wing", "fuel": 5.0}]}
+    )
+    with pytest.raises(InputError) as refused:
+        weigh(aircraft, readings)
+    fields = [p.field for p in refused.value.problems]
+    assert "point[0].lateral_arm" in fields and "on_board[0].tank" in fields, fields
+
+
 def test_regression_the_readings_date_was_not_checked():
     # a weighing without a date, or dated after today or before the current record (2026-02-09), was
     # proposed with no refusal; the record carries the date of the work (14 CFR 43.9 (a) (2), from memory)
