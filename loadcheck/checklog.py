@@ -595,6 +595,8 @@ def log_check(
     int
         The new record's id.
     """
+    from .loading import recorded_inputs
+
     given = inputs.given
     if given is None:
         raise InputError(Problem("inputs", "holds no loading as given, so there is nothing to record"))
@@ -610,7 +612,7 @@ def log_check(
     return log.add(
         aircraft_data=inputs.aircraft.model_dump(mode="json"),
         fingerprint=inputs.aircraft.fingerprint,
-        inputs=given.model_dump(mode="json", exclude_none=True),
+        inputs=recorded_inputs(given),
         result=data,
         registration=inputs.aircraft.registration,
         reference=given.reference or given.label,

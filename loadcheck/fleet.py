@@ -36,7 +36,7 @@ from .aircraft import RESERVED_IDS, Aircraft
 from .check import check_many
 from .errors import FileFormatError, InputError, LoadcheckError, Problem
 from .files import encoding_problem, file_kind, named_elsewhere, open_regular, parse_aircraft, parse_loading, read_toml
-from .loading import Loading, burn_order, resolve_loading
+from .loading import Loading, burn_order, recorded_inputs, resolve_loading
 from .registration import registration_key, required_key
 from .weighing import latest_date
 
@@ -1048,7 +1048,7 @@ def check_flights(
                             {
                                 "aircraft_data": (lambda a=aircraft: a.model_dump(mode="json")),
                                 "fingerprint": aircraft.fingerprint,
-                                "inputs": row.loading.model_dump(mode="json", exclude_none=True),
+                                "inputs": recorded_inputs(row.loading),
                                 "result": result,
                                 # the aircraft's own, as `check --log` records it and `log verify` compares it
                                 # (the row may write it in another case, or without its hyphen)

@@ -43,6 +43,7 @@ from .units import (
 from .words import count
 
 __all__ = [
+    "recorded_inputs",
     "Burn",
     "BurnPlan",
     "Leg",
@@ -278,6 +279,17 @@ class Loading(_Model):
     leg: list[Leg] = Field(
         default_factory=list, description="the legs after the first, in the order flown (a trip); none: one leg"
     )
+
+
+def recorded_inputs(loading: Loading) -> dict[str, Any]:
+    """A loading as a check log records it, to be checked again from the record (``log verify``):
+    the fields given and only those, as JSON data.
+
+    A field left out is not written with its default: a leg's burn ``order`` and ``reserve`` left
+    out are the previous leg's when the trip is resolved (:func:`resolve_trip`), so a default written
+    in their place (``order = "together"``) would make the record another trip than the one checked.
+    """
+    return loading.model_dump(mode="json", exclude_unset=True, exclude_none=True)
 
 
 def leg_field(number: int, path: str = "") -> str:

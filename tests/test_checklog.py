@@ -419,3 +419,91 @@ def test_regression_a_span_ending_before_it_starts_listed_nothing_without_a_word
         assert "until: 2026-12-02 is before the first day, 2026-12-03" in said.output
     same_day = runner.invoke(app, ["log", "list", "--since", "2026-12-03", "--until", "2026-12-03", "--db", str(db)])
     assert same_day.exit_code == 0
+
+
+SIDE_BY_SIDE = """format = 1
+name = "Invented side-by-side test aircraft"
+registration = "TST-L2"
+[units]
+mass = "lb"
+arm = "in"
+fuel_volume = "usgal"
+[empty]
+weight = 1400.0
+arm = 40.0
+lateral_arm = 0.0
+[limits]
+max_takeoff_weight = 2300
+[[station]]
+id = "left"
+kind = "seat"
+arm = 38.0
+lateral_arm = -12.0
+max_weight = 250
+controls = true
+[[station]]
+id = "right"
+kind = "seat"
+arm = 38.0
+lateral_arm = 12.0
+max_weight = 250
+controls = true
+[[tank]]
+id = "ltank"
+arm = 44.0
+lateral_arm = -60.0
+usable = 25
+fuel = "avgas"
+[[tank]]
+id = "rtank"
+arm = 44.0
+lateral_arm = 60.0
+usable = 25
+fuel = "avgas"
+[[envelope]]
+category = "normal"
+axes = ["arm", "weight"]
+points = [[35.0, 1400], [35.0, 2300], [45.0, 2300], [45.0, 1400]]
+[[envelope]]
+category = "normal"
+axes = ["lateral_arm", "weight"]
+points = [[-1.5, 1400], [-1.5, 2300], [1.5, 2300], [1.5, 1400]]
+"""
+
+
+def test_regression_a_recorded_trip_lost_the_burn_order_its_leg_kept(runner, tmp_path):
+    """An outside trial: a trip whose leg 2 keeps leg 1's burn order (docs/file-format.md, "Trips of several
+    legs") was recorded with the order's default, ``together``, so ``log verify`` recomputed another trip
+    and called the out-of-limits record "within limits". The record holds the fields given and only those.
+
+    Worked by hand (FAA-H-8083-1B chapter 2, moments; avgas 6.0 lb/US gal, common practice): leg 1 burns
+    6.5 US gal from ltank (24 -> 17.5); leg 2 puts in 5 (22.5) and burns 8.5 from ltank again: landing
+    ltank 14, rtank 15 at 1,400 + 200 + 29 x 6 = 1,774 lb; lateral moment 200 x 12 - 84 x 60 + 90 x 60 =
+    2,760 lb-in, lateral CG 1.556 in, right of the 1.5 in limit. Burned together instead, it would land
+    inside (0.18 in)."""
+    (tmp_path / "side.toml").write_text(SIDE_BY_SIDE)
+    trip = tmp_path / "trip.toml"
+    trip.write_text(
+        'format = 1\naircraft = "side.toml"\n[load]\nleft = 180\nright = 200\n[fuel]\nltank = 24\nrtank = 15\n'
+        '[burn]\ntaxi = 0.5\ntrip = 6\norder = ["ltank", "rtank"]\n'
+        "[[leg]]\nload = { left = 0 }\nadd_fuel = { ltank = 5 }\nburn = { taxi = 0.5, trip = 8 }\n"
+    )
+    db = tmp_path / "log.sqlite3"
+    checked = runner.invoke(app, ["check", str(trip), "--log", "--db", str(db), "--json"])
+    assert checked.exit_code == 1, checked.output
+    landing = json.loads(checked.stdout)["legs"][1]["conditions"][2]
+    assert landing["lateral_arm"] == pytest.approx(2760 / 1774, abs=1e-9)
+    day = tmp_path / "day.csv"
+    day.write_text(
+        "registration,trip_id,leg,left,right,ltank,rtank,taxi,trip,order\n"
+        "TST-L2,T1,1,180,200,24,15,0.5,6,ltank;rtank\nTST-L2,T1,2,0,,5,,0.5,8,\n"
+    )
+    fleet = runner.invoke(app, ["fleet", "check", str(tmp_path), str(day), "--db", str(db)])
+    assert fleet.exit_code == 1, fleet.output
+    with CheckLog(db) as log:
+        records = list(log.find())
+    assert len(records) == 2
+    for record in records:
+        assert "order" not in record.inputs["leg"][0].get("burn", {})  # left out: the previous leg's
+        said = runner.invoke(app, ["log", "verify", str(record.id), "--db", str(db)])
+        assert said.exit_code == 0 and "reproduced; the same result (out of limits)" in said.output, said.output
