@@ -31,6 +31,7 @@ CG change / distance moved.
 
 from __future__ import annotations
 
+import math
 from collections.abc import Callable, Iterable, Sequence
 from dataclasses import dataclass, field, replace
 from typing import Literal, TypeVar
@@ -580,15 +581,16 @@ def longest_trip(
     loading = loading.but(reserve=reserve)
     unit = aircraft.units.fuel_volume
     landing_words = f"landing with at least {fmt(reserve, unit)} ({source})"
-    fuel = most_fuel(aircraft, loading, fill=fill)
-    if fuel.answer is None or fuel.check is None:
-        return replace(fuel, question=f"longest trip, {landing_words}", variable="trip fuel")
-    fuelled = _fuel_loading(
-        aircraft,
-        loading,
-        _fill_order(aircraft, loading, fill),
-        safe_value(fuel.intervals[-1].low, fuel.answer, unit, "down")[0],
-    )
+    order = _fill_order(aircraft, loading, fill)
+    fuel = most_fuel(aircraft, loading, fill=fill)  # with the loading's own trip: one candidate among many
+    ramp = _longest_trip_fuel(aircraft, loading, order, reserve, fuel)
+    if ramp is None:
+        if fuel.answer is None or fuel.check is None:
+            return replace(fuel, question=f"longest trip, {landing_words}", variable="trip fuel")
+        ramp = safe_value(fuel.intervals[-1].low, fuel.answer, unit, "down")[0]
+    if fuel.answer is None or not math.isclose(ramp, safe_value(fuel.intervals[-1].low, fuel.answer, unit, "down")[0]):
+        fuel = replace(fuel, answer=ramp, answer_display=safe_value(ramp, ramp, unit, "down")[1])
+    fuelled = _fuel_loading(aircraft, loading, order, ramp)
     base = loading_arrays(aircraft, fuelled)
     top = fuelled.plan.burnable - fuelled.taxi - reserve
     step = _GRID_STEP / _mean_density(aircraft, loading)
@@ -628,6 +630,70 @@ def longest_trip(
         )
         return _with_fill(result, words)
     return _with_fill(replace(result, extra={"reserve landed with": f"{fmt(reserve, unit)} ({source})"}), words)
+
+
+_TRIP_GRID = 201
+"""Ramp fuel values and trip fuel values tried, each, by :func:`_longest_trip_fuel` (a grid of
+201 x 201 loadings, evaluated together by the batch engine)."""
+
+
+def _longest_trip_fuel(
+    aircraft: Aircraft, loading: ResolvedLoading, order: list[str] | None, reserve: float, fuel: PlanResult
+) -> float | None:
+    """The ramp fuel [fuel volume unit] that allows the longest trip, landing with ``reserve``; None
+    where no ramp fuel allows any trip.
+
+    The trip the loading gives is not the question's: it is the unknown. Every ramp fuel of the fill
+    order (a grid over its range, and the most fuel at the loading's own trip, ``fuel``) is tried with
+    every trip it can fly (a grid from none to its fuel less taxi and reserve), all checked by the
+    engine; the ramp fuel whose longest trip within limits is the longest is taken, and the grid is
+    then drawn again, finer, around it (on a tie, the most-fuel answer at the loading's trip, else the
+    most fuel). The trip itself is then found to the planner's precision at that fuel
+    (:func:`longest_trip`).
+    """
+    base = loading_arrays(aircraft, loading)
+    least, capacity = _fuel_range(aircraft, base, order)
+    if not aircraft.tank or capacity <= least:
+        return None
+    given = None
+    if fuel.answer is not None and fuel.intervals:
+        given = safe_value(fuel.intervals[-1].low, fuel.answer, aircraft.units.fuel_volume, "down")[0]
+    uses = np.array([base.order is None or t.id in base.order for t in aircraft.tank], dtype=float)
+    fractions = np.linspace(0.0, 1.0, _TRIP_GRID)
+
+    def longest(candidates: np.ndarray) -> np.ndarray:
+        """The longest trip within limits of each ramp fuel (-1 where none is)."""
+        per_fuel = _distribute(aircraft, base, order, candidates)
+        room = per_fuel @ uses - base.taxi - reserve  # the most trip fuel each ramp fuel holds
+        trips = np.clip(room, 0.0, None)[:, None] * fractions[None, :]
+        n, m = trips.shape
+        found = evaluate_arrays(aircraft, base, fuel=np.repeat(per_fuel, m, axis=0), trip=trips.reshape(-1))
+        ok = _ok(found, reserve).reshape(n, m) & (room >= 0)[:, None]
+        return np.where(ok, trips, -1.0).max(axis=1)
+
+    low, high = least, capacity
+    best_fuel, best_trip, step = None, -1.0, capacity - least
+    for _ in range(2):  # a grid over the range, then a finer one around the best of it
+        candidates = np.linspace(low, high, _TRIP_GRID)
+        trips = longest(candidates)
+        step = (high - low) / (_TRIP_GRID - 1)
+        if trips.max() > best_trip + 1e-12:
+            k = int(np.nonzero(trips >= trips.max() - 1e-9 * max(1.0, trips.max()))[0].max())
+            best_fuel, best_trip = float(candidates[k]), float(trips[k])
+        if best_fuel is None:
+            return None
+        low, high = max(least, best_fuel - step), min(capacity, best_fuel + step)
+    if best_fuel is None:
+        return None
+    # the figure said is the one flown: the best fuel rounded down to the display precision, where that
+    # still allows a trip within limits (else the best fuel itself)
+    shown = safe_value(least, best_fuel, aircraft.units.fuel_volume, "down")[0]
+    reach = float(longest(np.array([shown]))[0])
+    if reach < 0:
+        shown, reach = best_fuel, best_trip
+    if given is not None and float(longest(np.array([given]))[0]) >= reach - 1e-9 * max(1.0, reach):
+        return given  # the most fuel at the loading's own trip flies as far: the answer plan fuel gives
+    return shown
 
 
 def _station_rows(base: LoadingArrays, index: int, offset: float = 0.0) -> Callable[[np.ndarray], np.ndarray]:

@@ -757,8 +757,37 @@ def test_regression_a_fill_of_some_tanks_answered_their_fuel_as_the_ramp_fuel(fi
         assert answer.extra["fill order"] == "centre (as asked); mains as loaded"
         # the stretch "30.0 to 34.3 usgal" starts at the mains' fuel, which the answer says (a final review)
         assert answer.extra["fuel kept as loaded"] == "30.0 usgal in mains, so no ramp fuel of this fill order is less"
-    else:
-        assert "fuel kept as loaded" not in answer.extra  # every tank is in the fill order, or the kept one is empty
         trip = P.longest_trip(inputs.aircraft, inputs.loading, rate=8.0, fill=fill)
         assert trip.check is not None and trip.extra["ramp fuel"] == answer.answer_display
         assert trip.check.condition("ramp").fuel == pytest.approx(ramp.fuel, abs=0.05)
+    else:
+        assert "fuel kept as loaded" not in answer.extra  # every tank is in the fill order, or the kept one is empty
+
+
+@pytest.mark.parametrize("given_trip", ["0", "18", "45"])
+def test_regression_the_longest_trip_was_answered_from_the_trip_the_file_gives(given_trip):
+    """An outside trial: ``plan trip`` on a loading whose own trip was long (more than any fuel within
+    limits can carry past the reserve) said "no amount is within limits", for a false reason, where the
+    same load with a shorter trip in the file had an answer. The trip is the question's unknown: the
+    answer is the same whatever trip the file gives.
+
+    Worked by hand on the sample trainer (FAA-H-8083-1B chapter 2, sums of weights; avgas 6.0 lb/US gal,
+    common practice): the ramp fuel is held by the maximum takeoff weight, 2,450 lb, at the file's taxi
+    of 1.2 US gal, and the trip is what it holds past taxi and the reserve of 8 US gal."""
+    path = sample("trainer4/within.toml")
+    inputs = load_check_inputs(path, burn={"trip": given_trip}, fuel_to_plan=True)
+    trip = P.longest_trip(inputs.aircraft, inputs.loading, rate=9.5, reserve=8.0)
+    assert trip.feasible and trip.check is not None and trip.check.ok and trip.answer is not None
+    ramp = trip.check.condition("ramp")
+    zero_fuel = trip.check.condition("zero_fuel").weight
+    most = (2450 + 1.2 * 6.0 - zero_fuel) / 6.0
+    assert trip.extra["ramp fuel"] == f"{ramp.fuel:.1f} usgal" and ramp.fuel == pytest.approx(most, abs=0.1)
+    assert ramp.fuel <= most + 1e-9  # the takeoff weight holds
+    assert trip.answer == pytest.approx(ramp.fuel - 1.2 - 8.0, abs=0.01)
+    reference = P.longest_trip(*_trainer_within(), rate=9.5, reserve=8.0)
+    assert trip.answer == pytest.approx(reference.answer) and trip.extra == reference.extra
+
+
+def _trainer_within():
+    inputs = load_check_inputs(sample("trainer4/within.toml"))
+    return inputs.aircraft, inputs.loading
