@@ -822,6 +822,11 @@ def least_ballast(aircraft: Aircraft, loading: ResolvedLoading, station: str | N
         "ballast" if station == "ballast" else f"ballast at {station}",  # never "ballast at ballast"
         "up",
         lambda: reason,
+        governing=_beyond(  # what a little less ballast exceeds (none where none is needed)
+            None,
+            lambda v: loading.but(stations={**loading.stations, station: already + max(0.0, v - 2 * _GRID_STEP)}),
+            aircraft,
+        ),
     )
     if not answer.feasible:
         return replace(

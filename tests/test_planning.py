@@ -791,3 +791,25 @@ def test_regression_the_longest_trip_was_answered_from_the_trip_the_file_gives(g
 def _trainer_within():
     inputs = load_check_inputs(sample("trainer4/within.toml"))
     return inputs.aircraft, inputs.loading
+
+
+def test_regression_plan_ballast_said_no_limit_that_set_it():
+    """An outside trial: ``plan ballast`` gave its answer with no "limited by" and no ``governing`` in the
+    JSON, though docs/planning.md says every answer found names each limit the check just past it
+    exceeds. For the least ballast, that is the check with a little less: its own limit findings."""
+    inputs = load_check_inputs(sample("tandem2/aft_heavy.toml"))
+    answer = P.least_ballast(inputs.aircraft, inputs.loading)
+    assert answer.feasible and answer.answer is not None and answer.answer > 0 and answer.check is not None
+    assert answer.check.ok
+    station = next(s.id for s in inputs.aircraft.station if s.kind == "ballast")
+    less = inputs.loading.but(stations={**inputs.loading.stations, station: answer.answer - 0.1})
+    short = check_loading(inputs.aircraft, less)
+    assert not short.ok and answer.governing is not None
+    assert answer.governing_code in {f.code for f in short.findings if f.severity == "limit"}
+    none_needed = P.least_ballast(*_loaded("tandem2/solo.toml"))
+    assert none_needed.answer == 0 and none_needed.governing is None
+
+
+def _loaded(name):
+    inputs = load_check_inputs(sample(name))
+    return inputs.aircraft, inputs.loading
