@@ -246,8 +246,11 @@ def _exceeded(check: CheckResult) -> str:
 _LOAD_CODES = ("station_max", "station_min", "group_max", "group_min")
 
 
-def _why_not(aircraft: Aircraft, loading: ResolvedLoading, varies: str | None = None) -> str:
-    """Why no value of the variable brings a loading within limits, from the loading's own check.
+def _why_not(
+    aircraft: Aircraft, loading: ResolvedLoading, varies: str | None = None, state: str = "with this load and trip"
+) -> str:
+    """Why no value of the variable brings a loading within limits, from the loading's own check
+    (``state`` says which loading that is: the loading as given, or with the variable at one end).
 
     A station or group limit that the variable does not change is the whole reason
     ("Rear seats: 255.0 kg exceeds the maximum 250.0 kg by 5.0 kg"); otherwise the limits the
@@ -264,7 +267,7 @@ def _why_not(aircraft: Aircraft, loading: ResolvedLoading, varies: str | None = 
     ]
     if fixed:
         return "; ".join(f.message for f in fixed)
-    return "with this load and trip: " + (_exceeded(check) or "no amount is within limits")
+    return f"{state}: " + (_exceeded(check) or "no amount is within limits")
 
 
 def _why_not_fuel(aircraft: Aircraft, loading: ResolvedLoading, within: bool) -> str:
@@ -731,7 +734,9 @@ def most_payload(aircraft: Aircraft, loading: ResolvedLoading, station: str) -> 
         question=f"most weight at {aircraft.station[index].name}",
         variable=f"weight at {station}",
         direction="down",
-        why_not=lambda: _why_not(aircraft, at(0.0), station),
+        why_not=lambda: _why_not(
+            aircraft, at(0.0), station, f"with nothing at {aircraft.station[index].name} and the rest as given"
+        ),
         governing=_beyond(
             (limit, f"the station's maximum of {fmt(limit, aircraft.units.mass)}") if limit is not None else None,
             lambda v: at(v + 2 * _GRID_STEP),

@@ -192,6 +192,7 @@ class TripPlan(PlanResult):
     trip: TripResult | None = None
     least: float | None = None
     least_trip: TripResult | None = None
+    reserves: bool = False  # some leg gives a reserve to land with (the least lands each leg with its own)
 
 
 def _limits_past(result: TripResult) -> str | None:
@@ -270,6 +271,7 @@ def _plan(
         extra=extra,
         least=least if least_trip.ok else None,
         least_trip=least_trip,
+        reserves=any((leg.reserve or 0.0) > 0 for leg in at(least).legs),
     )
 
 

@@ -813,3 +813,17 @@ def test_regression_plan_ballast_said_no_limit_that_set_it():
 def _loaded(name):
     inputs = load_check_inputs(sample(name))
     return inputs.aircraft, inputs.loading
+
+
+def test_regression_no_payload_answer_quoted_another_loading_as_this_one():
+    """An outside trial: ``plan payload --station left`` with no amount within limits said "with this load
+    and trip: landing lateral CG 4.31 in ...", a figure of the check with the left seat emptied, while the
+    loading as given lands at 3.07 in. The words now say which loading they quote (common practice: a
+    figure is named with the loading it belongs to)."""
+    inputs = load_check_inputs(sample("trainer4/over_weight.toml"))
+    answer = P.most_payload(inputs.aircraft, inputs.loading, "hold")
+    assert not answer.feasible and answer.governing is not None
+    name = inputs.aircraft.station_by_id["hold"].name
+    emptied = inputs.loading.but(stations={**inputs.loading.stations, "hold": 0.0})
+    exceeded = [f.message for f in check_loading(inputs.aircraft, emptied).findings if f.severity == "limit"]
+    assert answer.governing == f"with nothing at {name} and the rest as given: " + "; ".join(exceeded)

@@ -559,3 +559,19 @@ def test_regression_a_legs_own_reserve_won_over_the_command_line_reserve_without
         path, allow_trip=True, burn={"reserve": "6"}, legs=leg_assignments("--leg-burn", ["2:reserve=5"])
     )
     assert typed.trip is not None and typed.trip.legs[1].reserve == 5.0 and not typed.notes
+
+
+def test_regression_plan_stop_said_each_leg_lands_with_its_reserve_where_none_was_given():
+    """An outside trial: ``plan stop`` said "the least that keeps every leg within limits and lands each
+    with its reserve" for a trip that gave no reserve (its sheet said "Reserve none given"). The reserve
+    clause is said where some leg gives one, and only there (common practice: say no limit not set)."""
+    from loadcheck.loading import leg_assignments
+
+    path = sample("heli2/trip_drop_off.toml")  # reserve = 4 on both legs
+    given = load_check_inputs(path, allow_trip=True)
+    assert given.trip is not None and fuel_to_add(given.aircraft, given.trip, 2).reserves
+    dropped = load_check_inputs(
+        path, allow_trip=True, burn={"reserve": "0"}, legs=leg_assignments("--leg-burn", ["2:reserve=0"])
+    )
+    assert dropped.trip is not None and not any(leg.reserve for leg in dropped.trip.legs)  # 0: none to land with
+    assert not fuel_to_add(dropped.aircraft, dropped.trip, 2).reserves

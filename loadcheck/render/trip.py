@@ -111,10 +111,8 @@ def render_trip_plan(plan: TripPlan, console: Console) -> None:
     if plan.governing:
         console.print(f"limited by: {plan.governing}", markup=False)
     if "least" in plan.extra:
-        console.print(
-            f"least that keeps every leg within limits and lands each with its reserve: {plan.extra['least']}",
-            markup=False,
-        )
+        reserves = " and lands each with its reserve" if plan.reserves else ""
+        console.print(f"least that keeps every leg within limits{reserves}: {plan.extra['least']}", markup=False)
     if plan.intervals:
         _print_table(
             console,
