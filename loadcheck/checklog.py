@@ -69,6 +69,7 @@ __all__ = [
     "filters_ok",
     "log_check",
     "log_path",
+    "first_difference",
     "results_match",
     "verify",
     "verify_current",
@@ -700,15 +701,48 @@ def export_text(records: Iterable[LoggedCheck], format: str) -> str:
 
 def results_match(a: object, b: object, rel: float = 1e-9) -> bool:
     """Whether two JSON results are the same, numbers within a relative tolerance."""
+    return first_difference(a, b, rel) is None
+
+
+def first_difference(a: object, b: object, rel: float = 1e-9, path: str = "") -> str | None:
+    """Where two JSON results first differ, and how (``findings[2].code: 'assumption', now 'no_pilot'``);
+    None where they are the same, numbers within a relative tolerance (:func:`results_match`).
+
+    Examples
+    --------
+    >>> first_difference({"ok": True, "w": [1.0, 2.0]}, {"ok": True, "w": [1.0, 2.5]})
+    'w[1]: 2.0, now 2.5'
+    >>> first_difference({"a": 1}, {"a": 1.0 + 1e-12}) is None
+    True
+    """
+    where = path or "the result"
     if isinstance(a, dict) and isinstance(b, dict):
-        return a.keys() == b.keys() and all(results_match(a[k], b[k], rel) for k in a)
+        if a.keys() != b.keys():
+            gone, new = sorted(set(a) - set(b)), sorted(set(b) - set(a))
+            return f"{where}: " + "; ".join(
+                [*(f"{k!r} recorded, not recomputed" for k in gone), *(f"{k!r} recomputed, not recorded" for k in new)]
+                or ["its keys are in another order"]
+            )
+        for k in a:
+            found = first_difference(a[k], b[k], rel, f"{path}.{k}" if path else str(k))
+            if found is not None:
+                return found
+        return None
     if isinstance(a, list) and isinstance(b, list):
-        return len(a) == len(b) and all(results_match(x, y, rel) for x, y in zip(a, b, strict=True))
+        if len(a) != len(b):
+            return f"{where}: {len(a)} recorded, {len(b)} now"
+        for i, (x, y) in enumerate(zip(a, b, strict=True)):
+            found = first_difference(x, y, rel, f"{path}[{i}]")
+            if found is not None:
+                return found
+        return None
     if isinstance(a, bool) or isinstance(b, bool):
-        return a == b
-    if isinstance(a, (int, float)) and isinstance(b, (int, float)):
-        return math.isclose(a, b, rel_tol=rel, abs_tol=1e-12)
-    return bool(a == b)
+        same = a == b
+    elif isinstance(a, (int, float)) and isinstance(b, (int, float)):
+        same = math.isclose(a, b, rel_tol=rel, abs_tol=1e-12)
+    else:
+        same = bool(a == b)
+    return None if same else f"{where}: {json.dumps(a)}, now {json.dumps(b)}"
 
 
 # -- verification ------------------------------------------------------------------------------
@@ -774,8 +808,9 @@ def verify(log: CheckLog, record_id: int) -> Verification:
             f"the recorded aircraft data gives the fingerprint {aircraft.fingerprint}, "
             f"not the recorded {record.fingerprint}"
         )
-    if not results_match(record.result, again):
-        differences.append("the stored result differs from the recomputed one")
+    difference = first_difference(record.result, again)
+    if difference is not None:
+        differences.append(f"the stored result differs from the recomputed one, first at {difference}")
     if record.ok != bool(again.get("ok")):
         differences.append(
             f"the stored verdict ({'within' if record.ok else 'out of'} limits) is not the recomputed one "

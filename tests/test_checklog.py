@@ -507,3 +507,19 @@ def test_regression_a_recorded_trip_lost_the_burn_order_its_leg_kept(runner, tmp
         assert "order" not in record.inputs["leg"][0].get("burn", {})  # left out: the previous leg's
         said = runner.invoke(app, ["log", "verify", str(record.id), "--db", str(db)])
         assert said.exit_code == 0 and "reproduced; the same result (out of limits)" in said.output, said.output
+
+
+def test_verify_says_where_the_stored_result_differs(runner, db):
+    """A record whose stored result differs from the recomputed one said only that it differed; a
+    record made by an earlier version (whose words or finding codes have changed since) could not be
+    told from an edited one. Verify now names the first field that differs, with both values."""
+    record_id = _record(db, "trainer4/over_weight.toml")
+    with CheckLog(db) as log:
+        stored = log.get(record_id).result
+    stored["findings"][0]["message"] = "an older wording"
+    tamper_check_log(db, "UPDATE checks SET result = ? WHERE id = ?", json.dumps(stored), record_id)
+    said = json.loads(runner.invoke(app, ["log", "verify", str(record_id), "--json"]).stdout)
+    [difference] = [d for d in said["differences"] if "stored result differs" in d]
+    assert difference.startswith(
+        'the stored result differs from the recomputed one, first at findings[0].message: "an older wording", now "'
+    )
