@@ -693,31 +693,28 @@ def load_check_inputs(
                 f"{leg}the trip fuel is {given} from the command line, {trip_fuel:g} {volume}; it replaces the "
                 f"loading file's {replaced} (command-line values are laid over the file's)"
             )
-    notes += _own_reserves(loading, trip, overrides, aircraft.units.fuel_volume)
+    notes += _own_reserves(trip, overrides, aircraft.units.fuel_volume)
     label = loading.label or (Path(loading_path).stem if loading_path is not None else None)
     return CheckInputs(aircraft, resolved, Path(loading_path) if loading_path else None, notes, label, loading, trip)
 
 
-def _own_reserves(loading: Loading, trip: ResolvedTrip | None, overrides: Mapping[str, Any], volume: str) -> list[str]:
-    """A note for each later leg of a trip whose own reserve is used where a reserve was also given
-    over the file (``--reserve``): that reserve is the first leg's, kept by every leg that gives none
-    (loadcheck.loading.resolve_trip), so a leg's own differs from it without a word otherwise."""
+def _own_reserves(trip: ResolvedTrip | None, overrides: Mapping[str, Any], volume: str) -> list[str]:
+    """A note for each later leg of a trip held to another reserve than the one given over the file
+    (``--reserve``, the first leg's), said from the resolved trip (each leg's reserve as
+    :func:`~loadcheck.loading.resolve_trip` set it: its own, else the leg before's), so that a pilot
+    who typed one reserve is told where a landing is held to another."""
     given = (overrides.get("burn") or {}).get("reserve")
     if trip is None or given is None:
         return []
+    typed = overrides.get("legs") or {}  # a leg's reserve typed beside it (--leg-burn 2:reserve=...)
     first = trip.legs[0].reserve
-    typed = overrides.get("legs") or {}  # a leg's own reserve typed beside it (--leg-burn 2:reserve=...)
-    notes = []
-    for number, (leg, checked) in enumerate(zip(loading.leg, trip.legs[1:], strict=True), start=2):
-        if "reserve" in (typed.get(number) or {}).get("burn", {}):
-            continue
-        if "reserve" in leg.burn.model_fields_set and checked.reserve != first:
-            own = "none" if checked.reserve is None else fmt(checked.reserve, volume)
-            notes.append(
-                f"leg {number}: the leg's own reserve in the loading file ({own}) is used there, not the reserve "
-                f"given over the file ({given}): that one holds for the first leg and for each leg that gives none"
-            )
-    return notes
+    return [
+        f"leg {number}: held to a reserve of {'none' if checked.reserve is None else fmt(checked.reserve, volume)}, "
+        f"not the reserve given over the file ({given}), which is leg 1's: a leg keeps the reserve of the leg "
+        "before it unless it gives its own"
+        for number, checked in enumerate(trip.legs[1:], start=2)
+        if checked.reserve != first and "reserve" not in (typed.get(number) or {}).get("burn", {})
+    ]
 
 
 def named_elsewhere(named: str | Path | None, relative_to: str | Path, given: str | Path) -> Path | None:

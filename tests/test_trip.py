@@ -18,6 +18,7 @@ handbook finds.
 from __future__ import annotations
 
 import json
+from pathlib import Path
 
 import pytest
 import tomlkit
@@ -27,7 +28,7 @@ from hypothesis import strategies as st
 from loadcheck import check_loading, load_check_inputs
 from loadcheck.cli import app
 from loadcheck.errors import InputError
-from loadcheck.files import parse_aircraft
+from loadcheck.files import parse_aircraft, read_toml
 from loadcheck.loading import Loading
 from loadcheck.trip import check_trip, fuel_to_add, trip_most_fuel
 
@@ -539,7 +540,7 @@ def test_regression_the_loadings_reserve_stopped_at_the_first_landing():
     assert not any("below the reserve" in f.message for f in check_trip(dropped.aircraft, dropped.trip).findings)
 
 
-def test_regression_a_legs_own_reserve_won_over_the_command_line_reserve_without_a_word():
+def test_regression_a_legs_own_reserve_won_over_the_command_line_reserve_without_a_word(tmp_path):
     """A final review: ``check trip_drop_off.toml --reserve 6`` checked leg 2 against the file's own
     ``reserve = 4`` and said nothing, so the pilot believed both landings held 6 US gal. The leg's own
     reserve is used (the file says so for that leg) and a note says which reserve each leg is held to;
@@ -550,15 +551,27 @@ def test_regression_a_legs_own_reserve_won_over_the_command_line_reserve_without
     path = sample("heli2/trip_drop_off.toml")
     inputs = load_check_inputs(path, allow_trip=True, burn={"reserve": "6"})
     assert inputs.trip is not None and [leg.reserve for leg in inputs.trip.legs] == [6.0, 4.0]
-    assert inputs.notes == [
-        "leg 2: the leg's own reserve in the loading file (4.0 usgal) is used there, not the reserve given "
-        "over the file (6): that one holds for the first leg and for each leg that gives none"
-    ]
+    said = (
+        "not the reserve given over the file ({}), which is leg 1's: a leg keeps the reserve of the leg before it "
+        "unless it gives its own"
+    )
+    assert inputs.notes == ["leg 2: held to a reserve of 4.0 usgal, " + said.format(6)]
     assert not load_check_inputs(path, allow_trip=True, burn={"reserve": "4"}).notes
     typed = load_check_inputs(
         path, allow_trip=True, burn={"reserve": "6"}, legs=leg_assignments("--leg-burn", ["2:reserve=5"])
     )
     assert typed.trip is not None and typed.trip.legs[1].reserve == 5.0 and not typed.notes
+    # a review: three legs, only the middle one giving a reserve: leg 3 keeps leg 2's (10), and says so
+    data = read_toml(path)
+    data["leg"] = [
+        {**data["leg"][0], "burn": {"taxi": 0.5, "trip": 5, "reserve": 10}},
+        {"burn": {"taxi": 0.5, "trip": 3}},
+    ]
+    three = tmp_path / "three.toml"
+    three.write_text(tomlkit.dumps({**data, "aircraft": str(Path(path).parent / "aircraft.toml")}))
+    held = load_check_inputs(three, allow_trip=True, burn={"reserve": "2"})
+    assert held.trip is not None and [leg.reserve for leg in held.trip.legs] == [2.0, 10.0, 10.0]
+    assert held.notes == [f"leg {n}: held to a reserve of 10.0 usgal, " + said.format(2) for n in (2, 3)]
 
 
 def test_regression_plan_stop_said_each_leg_lands_with_its_reserve_where_none_was_given():
