@@ -920,10 +920,14 @@ def _validate_data(path: str | Path, data: Mapping[str, Any], kind: str) -> str:
 
         proposal = propose(Path(path).parent / str(named), path, "weighing" if kind == "readings" else "alteration")
         result = proposal.result
+        never = [r for r in result.refusals if not r.overridable]
+        if never:  # no override writes it: the file cannot be used for a new record as it stands
+            raise InputError(
+                [Problem(r.field or "", f"the new record could never be written: {r.message}") for r in never],
+                file=path,
+            )
         notes = [f"WARNING: {w}" for w in result.warnings] + [
-            f"WARNING: the new record would not be written {'without an override' if r.overridable else 'at all'}: "
-            f"{r.message}"
-            for r in result.refusals
+            f"WARNING: the new record would not be written without an override: {r.message}" for r in result.refusals
         ]
         return "; ".join([f"{kind} for {proposal.aircraft.name!r}", *notes])
     raise InputError(

@@ -158,6 +158,21 @@ def test_validate_says_why_the_new_record_would_not_be_written(tmp_path):
     assert Path(TRAINER).read_text() == sample("trainer4/aircraft.toml").read_text()  # nothing written
 
 
+def test_regression_validate_said_ok_for_readings_whose_record_could_never_be_written(tmp_path):
+    """A review: readings dated 2099 were "ok" with a warning and exit 0, while ``weigh --write --yes``
+    refuses them outright (a record is never written with a date after today; 14 CFR 43.9 (a)(2), from
+    memory: the record carries the date the work was done). A reason no override lifts makes the file
+    fail validate; an overridable one stays a warning (the test above)."""
+    aircraft = write_file(tmp_path, Path(TRAINER).read_text(), "aircraft.toml")  # a copy: weigh may write
+    readings = _named(tmp_path, "weighing.toml", aircraft, "date = 2026-", "date = 2099-")
+    assert "date = 2099-" in Path(readings).read_text()
+    result = invoke("validate", readings)
+    assert_input_error(result, "date: the new record could never be written", "has not come yet")
+    assert "ok:" not in result.output
+    assert_input_error(invoke("weigh", aircraft, readings, "--write", "--yes"), "has not come yet")
+    assert Path(aircraft).read_text() == Path(TRAINER).read_text()
+
+
 def test_validate_ends_with_the_caution_of_each_kind_of_file_once(tmp_path):
     from loadcheck.caution import MECHANIC_CAUTION
 
