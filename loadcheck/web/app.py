@@ -13,7 +13,6 @@ from __future__ import annotations
 import datetime as dt
 import functools
 import json
-import math
 import re
 import secrets
 import shutil
@@ -45,7 +44,7 @@ from ..display import fmt, unit_label
 from ..errors import InputError, LoadcheckError, Problem
 from ..loading import burn_order
 from ..registration import registration_key
-from ..units import float_as_written
+from ..units import parse_quantity
 from ..words import burn_path_summary, condition_words, stretch_text, within_limits_text
 from .form import FORM_FIELDS, one_source, refuse_query, refuse_repeated, refuse_unknown
 from .security import MAX_BODY_BYTES, BodyLimit, SignInThrottle, csrf_ok, csrf_token
@@ -136,16 +135,33 @@ def _json_shown(value: object) -> str:
     return "{...}" if isinstance(value, _Pairs) else "[...]" if isinstance(value, list) else json.dumps(value)
 
 
-def _json_number(text: str) -> float | str:
-    """A JSON number with a fraction or exponent, as the library reads one typed (RFC 8259 section 6
-    leaves the range to the reader): its float where a float holds it as written, else its text,
-    which the library refuses naming the field, as it refuses ``--load front=1e-400`` (never 0 or
-    an infinity in its place; :func:`loadcheck.units.float_as_written`)."""
+class _Unheld:
+    """A JSON number no float holds as written, kept in its place while the body is read, so that
+    its refusal names its field (:func:`api_json`)."""
+
+    __slots__ = ("message", "text")
+
+    def __init__(self, text: str, message: str):
+        self.text, self.message = text, message
+
+
+def _json_number(text: str) -> object:
+    """A JSON number as the library reads one typed (RFC 8259 section 6 leaves the range to the
+    reader): its value where a float holds it as written, else an :class:`_Unheld` with the
+    library's words for it (``'1e400' is not a finite number``, ``'1e-400' is too small ...``:
+    :func:`loadcheck.units.parse_quantity`), never 0 or an infinity in its place. An integer
+    beyond any float (more than 308 digits) is one too."""
     try:
-        value = float_as_written(text)
-    except LoadcheckError:
-        return text
-    return value if math.isfinite(value) else text
+        value = parse_quantity(text).value
+    except LoadcheckError as error:
+        return _Unheld(text, "; ".join(p.message for p in error.problems))
+    return int(text) if text.lstrip("-").isdigit() else value
+
+
+def _json_integer(text: str) -> object:
+    """A JSON integer: as Python reads it where a float can hold it (every figure loadcheck takes is
+    one), else as :func:`_json_number` refuses it."""
+    return int(text) if len(text.lstrip("-")) <= 308 else _json_number(text)
 
 
 def api_json(body: bytes) -> object:
@@ -156,8 +172,9 @@ def api_json(body: bytes) -> object:
     would be checked with 10; RFC 8259 section 4 leaves duplicate names to the reader, and a
     TOML file or the command line refuses them). ``NaN`` and ``Infinity``, which Python's
     ``json`` reads though RFC 8259 section 6 has no such numbers, are kept for the library to
-    refuse in its words, naming the field; so is a number no float holds as written
-    (:func:`_json_number`: ``1e-400`` would be read as 0, ``1e400`` as infinite).
+    refuse in its words, naming the field. A number no float holds as written (``1e-400``, which
+    Python's ``json`` reads as 0, ``1e400``, which it reads as infinite: :func:`_json_number`) is
+    refused here, naming its field in the library's words.
 
     Raises
     ------
@@ -175,7 +192,7 @@ def api_json(body: bytes) -> object:
     loadcheck.web.app._BodyRefused: 422: load.front: given twice in one JSON object (170, then 10); give each ...
     """
     try:
-        parsed = json.loads(body, object_pairs_hook=_Pairs, parse_float=_json_number)
+        parsed = json.loads(body, object_pairs_hook=_Pairs, parse_float=_json_number, parse_int=_json_integer)
     except RecursionError:
         raise _BodyRefused([Problem("", "the request body nests too deeply to be a loading")]) from None
     except json.JSONDecodeError as error:
@@ -209,6 +226,8 @@ def api_json(body: bytes) -> object:
             items: list[object] = list(value)
             pending.extend((v, f"{path}[{i}]", functools.partial(items.__setitem__, i)) for i, v in enumerate(value))
             put(items)
+        elif isinstance(value, _Unheld):  # refused here, at its place: no job may read it as a text
+            problems.append(Problem(path, value.message, value=value.text))  # as the library says it
         else:
             put(value)
     if problems:
