@@ -22,7 +22,7 @@ from pydantic import Field, model_validator
 from .aircraft import Aircraft, Arm, Mass
 from .caution import MECHANIC_CAUTION
 from .errors import InputError, Problem, UnknownNameError
-from .filemodel import FileModel
+from .filemodel import AircraftKey, FileModel
 from .results import Result
 from .units import convert
 from .weighing import EmptyWeightRecord, Refusal, date_checks, lateral_arm_needed, lateral_change, record_checks
@@ -64,7 +64,7 @@ class Changes(_Model):
     """A changes file: what was installed, removed or relocated (docs/mechanic.md)."""
 
     format: Literal[1] = 1
-    aircraft: str | None = None
+    aircraft: AircraftKey | None = None
     date: dt.date | None = None
     description: str | None = None
     by: str | None = Field(None, description="who made the changes")

@@ -259,7 +259,7 @@ def propose(
     aircraft_path, source_path = Path(aircraft_path), Path(source_path)
     aircraft, original = load_aircraft_for_update(aircraft_path)
     named = read_toml(source_path).get("aircraft")
-    if isinstance(named, str):  # any other type is refused by the file's model, naming the field
+    if isinstance(named, str) and named.strip():  # another type, or a blank, is refused by the file's model
         other = named_elsewhere(named, source_path.parent if relative_to is None else relative_to, aircraft_path)
         if other is not None:
             what, record, done = (

@@ -14,13 +14,32 @@ from __future__ import annotations
 import types
 from typing import Annotated, Any, Literal, Self, Union, get_args, get_origin
 
-from pydantic import BaseModel, ConfigDict, ModelWrapValidatorHandler, Strict, ValidationError, model_validator
+from pydantic import (
+    AfterValidator,
+    BaseModel,
+    ConfigDict,
+    ModelWrapValidatorHandler,
+    Strict,
+    ValidationError,
+    model_validator,
+)
 from pydantic_core import InitErrorDetails, PydanticCustomError
 
-__all__ = ["FileModel", "Flag"]
+__all__ = ["AircraftKey", "FileModel", "Flag"]
 
 Flag = Annotated[bool, Strict()]
 """A yes/no field: ``true`` or ``false`` only, never a number or a text read as one."""
+
+
+def _names_a_file(value: str) -> str:
+    if not value.strip():
+        raise ValueError("names no file: give the aircraft file (relative to this file), or leave the key out")
+    return value
+
+
+AircraftKey = Annotated[str, AfterValidator(_names_a_file)]
+"""The ``aircraft`` key of a loading, readings or changes file: a file's path, never blank (a blank
+key names nothing, and would be passed over where an aircraft file is also given)."""
 
 
 def _takes_number(annotation: Any) -> bool:

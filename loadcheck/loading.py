@@ -27,7 +27,7 @@ from pydantic import BeforeValidator, Field, field_validator, model_validator
 
 from .aircraft import Aircraft
 from .errors import InputError, LoadcheckError, Problem, UnitError, UnknownNameError, spelling_hint
-from .filemodel import FileModel
+from .filemodel import AircraftKey, FileModel
 from .fuel import density_problem
 from .registration import registration_key
 from .units import (
@@ -258,7 +258,7 @@ class Loading(_Model):
     """A loading file (DESIGN.md, 'Loading file'); with ``leg`` tables, a trip of several legs."""
 
     format: Literal[1] = 1
-    aircraft: str | None = Field(None, description="aircraft file, relative to this file")
+    aircraft: AircraftKey | None = Field(None, description="aircraft file, relative to this file")
     category: str | None = None
     label: str | None = Field(None, description="free text: flight, booking reference")
     registration: str | None = Field(None, description="the aircraft, by registration, in a fleet")

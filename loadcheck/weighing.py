@@ -24,7 +24,7 @@ from .aircraft import Aircraft, Arm, Mass, Volume
 from .caution import MECHANIC_CAUTION
 from .display import fmt
 from .errors import InputError, LoadcheckError, Problem, UnknownNameError
-from .filemodel import FileModel, Flag
+from .filemodel import AircraftKey, FileModel, Flag
 from .results import Result
 from .words import beyond
 
@@ -152,7 +152,7 @@ class Readings(_Model):
     """A readings file: the weighing points and the corrections (docs/mechanic.md)."""
 
     format: Literal[1] = 1
-    aircraft: str | None = None
+    aircraft: AircraftKey | None = None
     date: dt.date | None = None
     weighed_by: str | None = None
     note: str | None = None

@@ -169,3 +169,25 @@ def test_regression_a_bare_float_below_the_smallest_double_was_refused_without_i
     readings.write_text(sample("trainer4/weighing.toml").read_text().replace("reading = 541.0", "reading = 5e-324"))
     result = invoke("weigh", str(sample("trainer4/aircraft.toml")), str(readings))
     assert_input_error(result, "w.toml: point[0].reading: '5e-324' is too small")
+
+
+@pytest.mark.parametrize(
+    ("sample_file", "command"),
+    [("trainer4/within.toml", "check"), ("trainer4/weighing.toml", "weigh"), ("trainer4/changes.toml", "alter")],
+)
+def test_regression_a_blank_aircraft_key_was_passed_over(tmp_path, sample_file, command):
+    """A review: ``aircraft = ""`` in a readings or changes file got past the rule that refuses a file
+    naming another aircraft (weigh ran against any aircraft file without a word), and in a loading given
+    beside its aircraft file it was passed over. A blank key names nothing: it is refused, naming the
+    key (fail closed: a value given is used as given or refused)."""
+    from loadcheck.cli import app
+
+    from .helpers import app_runner
+
+    text = sample(sample_file).read_text()
+    assert 'aircraft = "aircraft.toml"' in text
+    blank = tmp_path / Path(sample_file).name
+    blank.write_text(text.replace('aircraft = "aircraft.toml"', 'aircraft = "  "'))
+    said = app_runner().invoke(app, [command, str(sample("trainer4/aircraft.toml")), str(blank)])
+    assert said.exit_code == 2, said.output
+    assert "aircraft: names no file" in said.output
