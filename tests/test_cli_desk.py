@@ -48,10 +48,16 @@ def test_serve_command_refuses_remote_and_prints_the_caution(
 def test_regression_a_missing_web_extra_stopped_with_an_internal_error(runner, tmp_path, monkeypatch):
     """A trial of the install: with ``pip install .`` alone, ``users add`` and ``serve`` stopped with
     "internal error (ModuleNotFoundError ...) Please report it". They now say what to install (exit 2)."""
-    import importlib.util
+    import importlib.metadata
 
-    found = importlib.util.find_spec
-    monkeypatch.setattr(importlib.util, "find_spec", lambda name, *a: None if name == "argon2" else found(name, *a))
+    found = importlib.metadata.version
+
+    def version(name: str) -> str:
+        if name == "argon2-cffi":
+            raise importlib.metadata.PackageNotFoundError(name)
+        return found(name)
+
+    monkeypatch.setattr(importlib.metadata, "version", version)
     for command in (
         ["users", "add", "robin", "--role", "pilot", "--password-stdin", "--users", str(tmp_path / "u")],
         ["serve", str(tmp_path), "--users", str(tmp_path / "u")],

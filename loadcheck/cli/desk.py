@@ -24,23 +24,25 @@ UsersOpt = Annotated[
 ]
 
 
-_WEB_MODULES = {
-    "fastapi": "fastapi",
-    "jinja2": "jinja2",
-    "uvicorn": "uvicorn",
-    "argon2": "argon2-cffi",
-    "multipart": "python-multipart",
-    "itsdangerous": "itsdangerous",
-}
-"""The modules the desk imports, by the distribution of the ``web`` extra (pyproject.toml) giving each."""
-
-
 def _web_installed() -> None:
-    """Refuse a desk command, naming what to install, where the ``web`` extra is missing (it stopped
-    with an "internal error" of a module not found)."""
-    from importlib.util import find_spec
+    """Refuse a desk command, naming what to install, where a package of the ``web`` extra is missing
+    (the command stopped with an "internal error" of a module not found). The packages are the
+    extra's own, as the installed package's metadata lists them (pyproject.toml, one list)."""
+    import importlib.metadata as metadata
+    import re
 
-    missing = [package for module, package in _WEB_MODULES.items() if find_spec(module) is None]
+    try:
+        wanted = [r for r in metadata.requires("loadcheck") or () if re.search(r"""extra\s*==\s*["']web["']""", r)]
+    except metadata.PackageNotFoundError:  # run from a source tree that was never installed: nothing to tell
+        return
+    missing = []
+    for requirement in wanted:
+        name = re.match(r"[A-Za-z0-9._-]+", requirement)
+        try:
+            if name is not None:
+                metadata.version(name.group(0))
+        except metadata.PackageNotFoundError:
+            missing.append(name.group(0) if name is not None else requirement)
     if missing:
         raise InputError(
             Problem(
