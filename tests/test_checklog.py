@@ -523,3 +523,40 @@ def test_verify_says_where_the_stored_result_differs(runner, db):
     assert difference.startswith(
         'the stored result differs from the recomputed one, first at findings[0].message: "an older wording", now "'
     )
+
+
+def test_a_log_made_before_flight_dates_were_recorded_is_opened_and_verified(runner, tmp_path):
+    """A review: no test opened a check log made before the flight_date column. A log with a sealed
+    record of that version (its seal over the fields of then) gets the column on first use, its record
+    has no flight date and still verifies, and new records are dated and sealed with it."""
+    import hashlib
+
+    from loadcheck.checklog import _seal_text
+
+    path = tmp_path / "old.sqlite3"
+    first = _record(path, "trainer4/within.toml")
+    connection = sqlite3.connect(path)  # the table as the earlier version made it: no flight_date column
+    connection.executescript(
+        "DROP TRIGGER checks_never_rewritten; DROP TRIGGER checks_never_deleted; "
+        "ALTER TABLE checks DROP COLUMN flight_date;"
+    )
+    columns = [row[1] for row in connection.execute("PRAGMA table_info(checks)")]
+    assert "flight_date" not in columns and "seal" in columns
+    stored = connection.execute(
+        "SELECT checked_at, registration, reference, pilot, source, category, ok, fingerprint, inputs, result, "
+        "version, seal FROM checks WHERE id = ?",
+        (first,),
+    ).fetchone()
+    connection.close()
+    assert hashlib.sha256(_seal_text(list(stored[:11]))).hexdigest() == stored[11]  # sealed as it was then
+    said = runner.invoke(app, ["log", "verify", str(first), "--db", str(path)])
+    assert said.exit_code == 0 and "every stored field matches" in said.output, said.output
+    with CheckLog(path) as log:
+        assert log.get(first).flight_date is None
+    day = tmp_path / "day.csv"
+    day.write_text("registration,date,front,rear,hold,mains,centre\nDEMO-4T,2026-12-03,170,30,0,30,0\n")
+    assert runner.invoke(app, ["fleet", "check", str(SAMPLES), str(day), "--db", str(path)]).exit_code == 0
+    with CheckLog(path) as log:
+        dated = list(log.find())[-1]
+    assert dated.flight_date == "2026-12-03"
+    assert runner.invoke(app, ["log", "verify", str(dated.id), "--db", str(path)]).exit_code == 0
