@@ -15,7 +15,7 @@ import re
 from html import escape
 from typing import TYPE_CHECKING, Any
 
-from ..display import Direction, fmt, unit_label
+from ..display import Direction, fmt
 from ..results import CheckResult
 from ..words import burn_path_sentence, sheet_verdict, trip_leg_verdict
 
@@ -146,7 +146,6 @@ def load_sheet_html(
     info = result.aircraft
     when = when or dt.datetime.now().astimezone()
     title = f"Load sheet: {info.name}" + (f" · {info.registration}" if info.registration else "")
-    moment = unit_label(units.moment)
     meta = [
         ("Registration", info.registration or ""),
         ("Category", result.category),
@@ -157,9 +156,9 @@ def load_sheet_html(
     ]
     if pilot:
         meta.append(("Pilot in command", pilot))
-    from .terminal import moment_axis, scaled_moment, scaled_moment_header
+    from .terminal import moment_table_columns, moment_table_figures
 
-    scaled = moment_axis(aircraft, result.category)
+    heads, scaled, lateral = moment_table_columns(result, aircraft)
     verdict = verdict or sheet_verdict(len(result.limits_exceeded))
     parts = [
         "<!DOCTYPE html>",
@@ -173,38 +172,29 @@ def load_sheet_html(
         f"<p class='verdict' id='verdict'>{escape(verdict)}</p>",
         "<div class='cols'><div>",
         "<h2>Moment table (engine start)</h2><table id='moments'>",
-        _head(
-            ["Item", f"Weight ({units.mass})", f"Arm ({units.arm})", f"Moment ({moment})"]
-            + ([scaled_moment_header(scaled, units.moment)] if scaled is not None else [])
-        ),
+        _head(["Item", *heads]),
     ]
 
-    def scaled_cell(weight: float, value: float) -> list[str]:
-        if scaled is None:
-            return []
-        return [escape(fmt(scaled_moment(scaled, weight, value), units.moment, with_unit=False, places=1))]
+    def figures(weight: float, arm: float, mom: float, lat: float | None, lat_mom: float | None) -> list[str]:
+        return [escape(f) for f in moment_table_figures(result, scaled, lateral, weight, arm, mom, lat, lat_mom)]
 
     people = loading.names if loading is not None else {}
     for item in result.items:
         name = item.name + (f" ({fmt(item.fuel_volume, units.fuel_volume)})" if item.fuel_volume is not None else "")
         cell = escape(name) + (f" <span class='who'>· {escape(people[item.id])}</span>" if item.id in people else "")
         parts.append(
-            _cells(
-                [cell, _n(item.weight, units.mass), _n(item.arm, units.arm), _n(item.moment, units.moment)]
-                + scaled_cell(item.weight, item.moment)
-            )
+            _cells([cell, *figures(item.weight, item.arm, item.moment, item.lateral_arm, item.lateral_moment)])
         )
     ramp = result.condition("ramp")
     parts.append(
         _cells(
-            ["Total at ramp", _n(ramp.weight, units.mass), _n(ramp.arm, units.arm), _n(ramp.moment, units.moment)]
-            + scaled_cell(ramp.weight, ramp.moment),
+            ["Total at ramp", *figures(ramp.weight, ramp.arm, ramp.moment, ramp.lateral_arm, ramp.lateral_moment)],
             attrs=" class='total' id='total'",
         )
     )
     parts.append(
         "</table><p class='note'>Each figure is rounded on its own; the total is the sum of the unrounded "
-        "figures.</p></div><div>"
+        "figures." + (" Lateral figures are + right of the centre line." if lateral else "") + "</p></div><div>"
     )
     seats = [i for i in result.items if i.kind == "seat"]
     parts.append("<h2>Occupants</h2>")

@@ -40,6 +40,8 @@ __all__ = [
     "Column",
     "condition_verdict",
     "moment_axis",
+    "moment_table_columns",
+    "moment_table_figures",
     "scaled_moment",
     "scaled_moment_header",
     "weight_margin",
@@ -277,34 +279,77 @@ def scaled_moment_header(envelope: Any, moment_unit: str) -> str:
     return f"Moment / {envelope.moment_scale:g} ({unit_label(moment_unit)})"
 
 
-def _moment_table(result: CheckResult, console: Console, aircraft: Aircraft | None = None) -> None:
+def moment_table_columns(result: CheckResult, aircraft: Aircraft | None = None) -> tuple[list[str], Any, bool]:
+    """The headings of the moment table's figure columns, with the scaled-moment envelope (or None)
+    and whether the lateral columns are there: the terminal's table and the load sheet's share them.
+
+    Parameters
+    ----------
+    result : the check
+    aircraft : the aircraft checked; where its envelope is read as moment / 1000, that column is there
+
+    Returns
+    -------
+    headings : weight [mass unit], arm [arm unit], moment [moment unit], then the scaled moment and the
+        lateral arm and moment [arm unit, moment unit] where the check has them
+    scaled : the envelope read on a scaled moment axis, or None
+    lateral : True where the check computed lateral arms (FAA-H-8083-1B ch. 8, lateral balance)
+    """
     units = result.units
     lateral = any(i.lateral_arm is not None for i in result.items)
     scaled = moment_axis(aircraft, result.category)
     moment = unit_label(units.moment)
-    columns = [
-        Column("Item", numeric=False, key=True),
-        Column(f"Weight ({units.mass})"),
-        Column(f"Arm ({units.arm})"),
-        Column(f"Moment ({moment})"),
+    heads = [f"Weight ({units.mass})", f"Arm ({units.arm})", f"Moment ({moment})"]
+    if scaled is not None:
+        heads.append(scaled_moment_header(scaled, units.moment))
+    if lateral:
+        heads += [f"Lateral arm ({units.arm})", f"Lateral moment ({moment})"]
+    return heads, scaled, lateral
+
+
+def moment_table_figures(
+    result: CheckResult,
+    scaled: Any,
+    lateral: bool,
+    weight: float,
+    arm: float,
+    mom: float,
+    lat: float | None,
+    lat_mom: float | None,
+) -> list[str]:
+    """One row's figures of the moment table, in the columns of :func:`moment_table_columns`.
+
+    Parameters
+    ----------
+    result : the check (for its units)
+    scaled : the scaled-moment envelope, or None
+    lateral : whether the lateral columns are there
+    weight : [mass unit]
+    arm : [arm unit]
+    mom : moment [moment unit]
+    lat : lateral arm, + right [arm unit]; none (0) for an item on the centre line
+    lat_mom : lateral moment [moment unit]
+    """
+    units = result.units
+    row = [
+        fmt(weight, units.mass, with_unit=False),
+        fmt(arm, units.arm, with_unit=False),
+        fmt(mom, units.moment, with_unit=False),
     ]
     if scaled is not None:
-        columns.append(Column(scaled_moment_header(scaled, units.moment)))
+        row.append(fmt(scaled_moment(scaled, weight, mom), units.moment, with_unit=False, places=1))
     if lateral:
-        columns += [Column(f"Lateral arm ({units.arm})"), Column(f"Lateral moment ({moment})")]
+        row += [fmt(lat or 0.0, units.arm, with_unit=False), fmt(lat_mom or 0.0, units.moment, with_unit=False)]
+    return row
+
+
+def _moment_table(result: CheckResult, console: Console, aircraft: Aircraft | None = None) -> None:
+    units = result.units
+    heads, scaled, lateral = moment_table_columns(result, aircraft)
+    columns = [Column("Item", numeric=False, key=True), *(Column(h) for h in heads)]
 
     def cells(name: str, weight: float, arm: float, mom: float, lat: float | None, lat_mom: float | None) -> list[Cell]:
-        row: list[Cell] = [
-            name,
-            fmt(weight, units.mass, with_unit=False),
-            fmt(arm, units.arm, with_unit=False),
-            fmt(mom, units.moment, with_unit=False),
-        ]
-        if scaled is not None:
-            row.append(fmt(scaled_moment(scaled, weight, mom), units.moment, with_unit=False, places=1))
-        if lateral:
-            row += [fmt(lat or 0.0, units.arm, with_unit=False), fmt(lat_mom or 0.0, units.moment, with_unit=False)]
-        return row
+        return [name, *moment_table_figures(result, scaled, lateral, weight, arm, mom, lat, lat_mom)]
 
     rows = []
     for item in result.items:
