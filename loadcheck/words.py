@@ -15,7 +15,7 @@ from __future__ import annotations
 from collections.abc import Sequence
 
 from .display import Direction, decimals, fmt, round_safe
-from .results import CheckResult
+from .results import CheckResult, StationChange, Stop, UnitsInfo, Uplift
 
 __all__ = [
     "negligible_cg_words",
@@ -40,7 +40,11 @@ __all__ = [
     "envelope_weight_message",
     "load_limit_message",
     "reserve_message",
+    "given_fuel_words",
+    "station_change_words",
+    "stop_lines",
     "stretch_text",
+    "uplift_words",
     "weight_limit_message",
 ]
 
@@ -453,3 +457,68 @@ def negligible_text(overall: bool | None, weight: str, cg: str) -> str:
     """
     verdict = {True: "negligible", False: "not negligible", None: "cannot be judged"}[overall]
     return f"AC 43.13-1B 10-2 c: the change is {verdict}: {weight}, and {cg}."
+
+
+def uplift_words(uplift: Uplift, units: UnitsInfo) -> str:
+    """The fuel put into one tank at a stop, as the refueller works to it: the volume that goes
+    in and its mass, the amount as the loading gives it where that is other words, and what the
+    tank then holds.
+
+    Examples
+    --------
+    >>> units = UnitsInfo(mass="lb", arm="in", fuel_volume="usgal", moment="lb*in")
+    >>> uplift_words(Uplift(tank="main", name="Main", volume=5.0, weight=30.0, on_board=25.5, given=5.0), units)
+    'Main: 5.0 usgal put in (30.0 lb), 25.5 usgal on board after'
+    >>> uplift_words(Uplift(tank="main", name="Main", volume=11.5, weight=69.0, on_board=32.0, given="full"), units)
+    'Main: 11.5 usgal put in (69.0 lb), as given "full", 32.0 usgal on board after'
+    """
+    given = uplift.given
+    said = "" if given is None or given == uplift.volume else f", as given {given_fuel_words(uplift, units)}"
+    return (
+        f"{uplift.name}: {fmt(uplift.volume, units.fuel_volume)} put in ({fmt(uplift.weight, units.mass)}){said}, "
+        f"{fmt(uplift.on_board, units.fuel_volume)} on board after"
+    )
+
+
+def given_fuel_words(uplift: Uplift, units: UnitsInfo) -> str:
+    """The fuel put in at a stop as the loading gives it: a number with the fuel volume unit it is
+    in, other amounts quoted as written; empty where a planning answer chose the fuel.
+
+    Examples
+    --------
+    >>> units = UnitsInfo(mass="lb", arm="in", fuel_volume="usgal", moment="lb*in")
+    >>> given_fuel_words(Uplift(tank="t", name="T", volume=5.0, weight=30.0, on_board=9.0, given=5.0), units)
+    '5 usgal'
+    >>> given_fuel_words(Uplift(tank="t", name="T", volume=5.0, weight=30.0, on_board=9.0, given="30 lb"), units)
+    '"30 lb"'
+    """
+    given = uplift.given
+    if given is None:
+        return ""
+    return f'"{given}"' if isinstance(given, str) else f"{given:g} {units.fuel_volume}"
+
+
+def station_change_words(change: StationChange, unit: str) -> str:
+    """A station whose load changes at a stop, from and to.
+
+    Examples
+    --------
+    >>> station_change_words(StationChange(station="left", name="Left seat", from_weight=170.0, to_weight=0.0), "lb")
+    'Left seat: from 170.0 lb to 0.0 lb'
+    """
+    return f"{change.name}: from {fmt(change.from_weight, unit)} to {fmt(change.to_weight, unit)}"
+
+
+def stop_lines(stop: Stop, units: UnitsInfo) -> tuple[str, str]:
+    """What changes at the stop before a leg, in two lines: the fuel put in, tank by tank, and the
+    stations whose load changes; each says "none" where nothing does.
+
+    Examples
+    --------
+    >>> units = UnitsInfo(mass="lb", arm="in", fuel_volume="usgal", moment="lb*in")
+    >>> stop_lines(Stop(fuel=[], stations=[]), units)
+    ('fuel put in at the stop: none', 'load changed at the stop: none')
+    """
+    fuel = "; ".join(uplift_words(u, units) for u in stop.fuel) or "none"
+    stations = "; ".join(station_change_words(c, units.mass) for c in stop.stations) or "none"
+    return f"fuel put in at the stop: {fuel}", f"load changed at the stop: {stations}"

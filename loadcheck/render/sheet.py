@@ -17,7 +17,7 @@ from typing import TYPE_CHECKING, Any
 
 from ..display import Direction, fmt
 from ..results import CheckResult
-from ..words import burn_path_sentence, sheet_verdict, trip_leg_verdict
+from ..words import burn_path_sentence, given_fuel_words, sheet_verdict, trip_leg_verdict
 
 if TYPE_CHECKING:
     from ..aircraft import Aircraft
@@ -55,6 +55,7 @@ _SHEET_STYLE = """
 body { font-family: "DejaVu Sans", Arial, Helvetica, sans-serif; font-size: 9pt; color: #111; margin: 1.5em; }
 h1 { font-size: 13pt; margin: 0 0 .15em 0; }
 h2 { font-size: 9.5pt; margin: .55em 0 .2em 0; border-bottom: 1px solid #999; }
+h3 { font-size: 9pt; margin: .3em 0 .1em 0; }
 table { border-collapse: collapse; margin: .1em 0; }
 th, td { border: 1px solid #999; padding: .05em .35em; vertical-align: top; }
 th { font-weight: 600; background: #f0f0f0; }
@@ -329,6 +330,38 @@ def _conditions(result: CheckResult, scaled: Any = None) -> str:
         out.append(f"<tr id='condition-{c.condition}'>{row}</tr>")
     notes = MARGIN_NOTE + (" " + EDGE_NOTE if edge else "") + (" " + NO_RANGE_NOTE if no_cg_range(result) else "")
     out.append(f"</table><p class='note'>{escape(notes)}</p>")
+    return "".join(out)
+
+
+def _stop_tables(number: int, stop: Any, units: Any) -> str:
+    """What changes at the stop before a leg: the fuel put in, tank by tank (as given and as it
+    goes in), and the stations whose load changes, from and to."""
+    volume, mass = units.fuel_volume, units.mass
+    out = ["<div class='cols'><div><h3>Fuel put in at the stop</h3>"]
+    if stop.fuel:
+        out.append(
+            f"<table id='stop-fuel-{number}'>"
+            + _head(["Tank", "As given", f"Put in ({volume})", f"Put in ({mass})", f"On board after ({volume})"])
+        )
+        for u in stop.fuel:
+            given = given_fuel_words(u, units)
+            out.append(
+                _cells(
+                    [escape(u.name), escape(given), _n(u.volume, volume), _n(u.weight, mass), _n(u.on_board, volume)],
+                    numeric_from=2,
+                )
+            )
+        out.append("</table>")
+    else:
+        out.append(f"<p id='stop-fuel-{number}'>None.</p>")
+    out.append("</div><div><h3>Load changed at the stop</h3>")
+    if stop.stations:
+        out.append(f"<table id='stop-load-{number}'>" + _head(["Station", f"From ({mass})", f"To ({mass})"]))
+        out += [_cells([escape(c.name), _n(c.from_weight, mass), _n(c.to_weight, mass)]) for c in stop.stations]
+        out.append("</table>")
+    else:
+        out.append(f"<p id='stop-load-{number}'>None.</p>")
+    out.append("</div></div>")
     return "".join(out)
 
 
@@ -634,7 +667,10 @@ def trip_sheet_html(
         )
         body = section[section.index("<body>") + 6 : section.index("<p class='caution'>")]
         body = (
-            body[: body.index("<h1>")] + f"<h2 id='leg-{leg.leg}'>{escape(name)}</h2>" + body[body.index("</h1>") + 5 :]
+            body[: body.index("<h1>")]
+            + f"<h2 id='leg-{leg.leg}'>{escape(name)}</h2>"
+            + ("" if leg.stop is None else _stop_tables(leg.leg, leg.stop, trip.units))
+            + body[body.index("</h1>") + 5 :]
         )
         parts.append(f"<section class='leg'>{body}</section>")
     if chart_svg:

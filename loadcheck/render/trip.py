@@ -16,7 +16,7 @@ from rich.text import Text
 
 from ..display import fmt
 from ..results import TripLeg, TripResult
-from ..words import count, stretch_text
+from ..words import count, stop_lines, stretch_text
 from .terminal import (
     Column,
     _burn_line,
@@ -70,13 +70,17 @@ def render_trip(result: TripResult, console: Console, plots: Sequence[Sequence[s
 
 
 def _legs(result: TripResult, console: Console, plots: Sequence[Sequence[str]] = ()) -> None:
-    """Each leg as ``check`` shows a loading: its verdict, fuel, moment table, conditions, burn
+    """Each leg as ``check`` shows a loading: its verdict, what changed at the stop before it
+    (the fuel put in and the stations whose load changed), fuel, moment table, conditions, burn
     path and findings (tagged with the leg), and its text plot if given."""
     units = result.units
     for index, leg in enumerate(result.legs):
         check = leg.check
         state = "within limits" if check.ok else "OUT OF LIMITS"
         console.print(Text(f"{_leg_title(leg)}: {state}", style=_OK_STYLE if check.ok else _LIMIT_STYLE))
+        if leg.stop is not None:
+            for line in stop_lines(leg.stop, units):
+                console.print(line, markup=False)
         ramp, landing = check.condition("ramp"), check.condition("landing")
         console.print(
             f"fuel at engine start {fmt(ramp.fuel, units.fuel_volume)}, at landing "
