@@ -327,10 +327,22 @@ class LeavePoint(Result):
 @dataclass(frozen=True, kw_only=True, slots=True)
 class Excursion(Result):
     """A stretch of the burn path outside the envelope: fuel burned since takeoff where it
-    leaves and where it returns [mass unit]."""
+    leaves and where it returns [mass unit].
+
+    ``from_takeoff``: the path is already outside at takeoff (it does not leave: it starts
+    out); ``to_landing``: it is still outside at landing (it does not come back in).
+    ``leaves`` and ``returns`` are the points where it leaves and where it comes back inside
+    (fuel burned and weight [mass unit], CG and lateral CG [arm unit]), None where it starts or
+    ends outside; ``envelope`` is the index in the aircraft file of the envelope it leaves.
+    """
 
     from_burned: float
     to_burned: float
+    from_takeoff: bool = False
+    to_landing: bool = False
+    leaves: PathSample | None = None
+    returns: PathSample | None = None
+    envelope: int | None = None
 
 
 @_quick_init
