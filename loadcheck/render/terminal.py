@@ -39,6 +39,8 @@ __all__ = [
     "CONDITION_STATE_HEADING",
     "Column",
     "condition_verdict",
+    "LATERAL_CELL_NOTE",
+    "fleet_condition_cell",
     "moment_axis",
     "moment_table_columns",
     "moment_table_figures",
@@ -1121,9 +1123,36 @@ def flight_reference(row: Any) -> str:
     return (row.reference or "") + (f"\n{row.date}" if row.date else "")
 
 
+LATERAL_CELL_NOTE = "lat.: the lateral CG, + right of the centre line, under the fore-and-aft CG."
+
+
+def fleet_condition_cell(condition: dict[str, Any], units: dict[str, str]) -> str:
+    r"""A condition in the fleet table: weight over CG and, for an aircraft with lateral arms, the
+    lateral CG under them (as the single check's conditions table shows it), each with its unit.
+
+    Parameters
+    ----------
+    condition : a condition of a check's JSON form (``weight`` [mass unit], ``arm`` and
+        ``lateral_arm``? [arm unit])
+    units : the check's JSON ``units``
+
+    Examples
+    --------
+    >>> units = {"mass": "lb", "arm": "in"}
+    >>> fleet_condition_cell({"weight": 1774.0, "arm": 40.17, "lateral_arm": 1.556}, units)
+    '1,774.0 lb\n40.17 in\nlat. 1.56 in'
+    >>> fleet_condition_cell({"weight": 2450.0, "arm": 88.1}, units)
+    '2,450.0 lb\n88.10 in'
+    """
+    cell = f"{fmt(condition['weight'], units['mass'])}\n{fmt(condition['arm'], units['arm'])}"
+    lateral = condition.get("lateral_arm")
+    return cell if lateral is None else f"{cell}\nlat. {fmt(lateral, units['arm'])}"
+
+
 def render_fleet(flights: list[Any], console: Console, file_problems: Sequence[str] = ()) -> None:
     """One row per flight: line, registration, the verdict and under it the first finding,
-    reference, takeoff and landing weight over CG (the verdict and its reason come first, so
+    reference, takeoff and landing weight over CG, and under them the lateral CG for an aircraft
+    with lateral arms (:func:`fleet_condition_cell`; the verdict and its reason come first, so
     that they stay beside the flight's name however narrow the terminal).
 
     A flight within limits but with warnings (fuel below the reserve, an assumption made)
@@ -1168,8 +1197,8 @@ def render_fleet(flights: list[Any], console: Console, file_problems: Sequence[s
                 row.registration or "",
                 verdict + Text(f"\n{first}" if first else ""),
                 flight_reference(row),
-                f"{fmt(takeoff['weight'], units['mass'])}\n{fmt(takeoff['arm'], units['arm'])}",
-                f"{fmt(landing['weight'], units['mass'])}\n{fmt(landing['arm'], units['arm'])}",
+                fleet_condition_cell(takeoff, units),
+                fleet_condition_cell(landing, units),
             ]
         )
     columns = [
@@ -1193,6 +1222,8 @@ def render_fleet(flights: list[Any], console: Console, file_problems: Sequence[s
         )
     else:
         _print_table(console, "Flights", columns, rows)
+    if any("\nlat. " in _plain(c) for r in rows for c in r[4:]):
+        console.print(Text(LATERAL_CELL_NOTE, style="dim"))
     out = sum(1 for f in flights if f.result is not None and not f.ok)
     bad = sum(1 for f in flights if f.result is None)
     within = len(flights) - out - bad

@@ -26,6 +26,7 @@ from .terminal import (
     _moment_table,
     _print_table,
     caution_text,
+    fleet_condition_cell,
     flight_reference,
 )
 
@@ -140,7 +141,8 @@ def fleet_trip_rows(flight: Any) -> list[list[str | Text]]:
     """The rows of a trip in the fleet check's table (loadcheck.render.terminal.render_fleet):
     the trip's verdict and its first finding (which names its leg and condition), then one row
     per leg with its CSV line, its verdict and first finding (named by leg), its takeoff and
-    landing weight and CG. ``flight`` is a :class:`loadcheck.fleet.Flight` of a trip."""
+    landing weight and CG (and lateral CG, :func:`~loadcheck.render.terminal.fleet_condition_cell`).
+    ``flight`` is a :class:`loadcheck.fleet.Flight` of a trip."""
     from ..trip import leg_name
 
     row, result = flight.row, flight.result
@@ -170,8 +172,8 @@ def fleet_trip_rows(flight: Any) -> list[list[str | Text]]:
                 row.registration or "",
                 Text(f"{name}: ") + verdict + Text(f"\n{name}: {first}" if first else ""),
                 name,
-                f"{fmt(takeoff['weight'], units['mass'])}\n{fmt(takeoff['arm'], units['arm'])}",
-                f"{fmt(landing['weight'], units['mass'])}\n{fmt(landing['arm'], units['arm'])}",
+                fleet_condition_cell(takeoff, units),
+                fleet_condition_cell(landing, units),
             ]
         )
     return rows
