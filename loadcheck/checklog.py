@@ -696,12 +696,28 @@ def export_text(records: Iterable[LoggedCheck], format: str) -> str:
     return buffer.getvalue()
 
 
-def results_match(a: object, b: object, rel: float = 1e-9) -> bool:
-    """Whether two JSON results are the same, numbers within a relative tolerance."""
+def results_match(a: object, b: object, rel: float = 1e-9, *, newer_fields: bool = False) -> bool:
+    """Whether two JSON results are the same, numbers within a relative tolerance.
+
+    With ``newer_fields``, ``a`` is a stored result and ``b`` the same check recomputed: ``b``
+    may hold fields ``a`` has none of (fields results gained after the record was written, such
+    as a trip leg's ``stop``); every field ``a`` holds is compared.
+
+    Examples
+    --------
+    >>> results_match({"ok": True}, {"ok": True, "stop": {}}), results_match({"ok": True}, {"ok": True, "stop": {}},
+    ...                                                                       newer_fields=True)
+    (False, True)
+    >>> results_match({"ok": True, "x": 1.0}, {"ok": True}, newer_fields=True)  # a stored field is never skipped
+    False
+    """
     if isinstance(a, dict) and isinstance(b, dict):
-        return a.keys() == b.keys() and all(results_match(a[k], b[k], rel) for k in a)
+        same_keys = a.keys() <= b.keys() if newer_fields else a.keys() == b.keys()
+        return same_keys and all(results_match(a[k], b[k], rel, newer_fields=newer_fields) for k in a)
     if isinstance(a, list) and isinstance(b, list):
-        return len(a) == len(b) and all(results_match(x, y, rel) for x, y in zip(a, b, strict=True))
+        return len(a) == len(b) and all(
+            results_match(x, y, rel, newer_fields=newer_fields) for x, y in zip(a, b, strict=True)
+        )
     if isinstance(a, bool) or isinstance(b, bool):
         return a == b
     if isinstance(a, (int, float)) and isinstance(b, (int, float)):
@@ -752,7 +768,8 @@ def _check_again(aircraft: Aircraft, inputs: dict[str, Any], where: str) -> Chec
 def verify(log: CheckLog, record_id: int) -> Verification:
     """Recompute a recorded check from its stored inputs and aircraft data and compare every stored field.
 
-    Compared: the result (numbers within a relative 1e-9), the aircraft data's fingerprint,
+    Compared: the result (every stored field; numbers within a relative 1e-9; a field results
+    gained after the record was written is not in it, so not compared), the aircraft data's fingerprint,
     the stored verdict (``ok``), category and registration against the recomputed ones, and
     the seal over all stored fields (time, reference, pilot and source included).
 
@@ -772,7 +789,7 @@ def verify(log: CheckLog, record_id: int) -> Verification:
             f"the recorded aircraft data gives the fingerprint {aircraft.fingerprint}, "
             f"not the recorded {record.fingerprint}"
         )
-    if not results_match(record.result, again):
+    if not results_match(record.result, again, newer_fields=True):  # a record predates fields added since
         differences.append("the stored result differs from the recomputed one")
     if record.ok != bool(again.get("ok")):
         differences.append(

@@ -419,3 +419,16 @@ def test_regression_a_span_ending_before_it_starts_listed_nothing_without_a_word
         assert "until: 2026-12-02 is before the first day, 2026-12-03" in said.output
     same_day = runner.invoke(app, ["log", "list", "--since", "2026-12-03", "--until", "2026-12-03", "--db", str(db)])
     assert same_day.exit_code == 0
+
+
+def test_regression_a_record_written_before_results_gained_a_field_still_verifies():
+    # results gained fields (a trip leg's "stop", an excursion's "from_takeoff"...): a record
+    # written before holds none of them, and every field it does hold is still compared
+    from loadcheck.checklog import results_match
+
+    stored = {"ok": False, "legs": [{"leg": 1, "ok": True}, {"leg": 2, "ok": False}]}
+    again = {"ok": False, "legs": [{"leg": 1, "ok": True}, {"leg": 2, "stop": {"fuel": []}, "ok": False}]}
+    assert results_match(stored, again, newer_fields=True) and not results_match(stored, again)
+    changed = {"ok": False, "legs": [{"leg": 1, "ok": True}, {"leg": 2, "stop": {"fuel": []}, "ok": True}]}
+    assert not results_match(stored, changed, newer_fields=True)
+    assert not results_match(again, stored, newer_fields=True)  # a stored field missing from the recompute
