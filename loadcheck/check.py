@@ -1040,10 +1040,27 @@ def _burn_path(
     if not stretches:
         return BurnPath(ok=ok, samples=samples)
 
-    excursions = [
-        Excursion(from_burned=takeoff.weight - state[b][0], to_burned=takeoff.weight - state[e][0])
-        for b, e in stretches
-    ]
+    scale = max(1.0, end)
+
+    def point(at: float) -> PathSample:
+        w, m, lat, _ = state[at]
+        return PathSample(fuel_burned=top - w, weight=w, arm=m / w, lateral_arm=lat / w if lateral else None)
+
+    excursions = []
+    for (b, e), envelope in zip(stretches, left, strict=True):
+        from_takeoff = b - start <= 1e-9 * scale  # outside at takeoff: the path starts out, it does not leave
+        to_landing = end - e <= 1e-9 * scale  # outside at landing: it does not come back in
+        excursions.append(
+            Excursion(
+                from_burned=takeoff.weight - state[b][0],
+                to_burned=takeoff.weight - state[e][0],
+                from_takeoff=from_takeoff,
+                to_landing=to_landing,
+                leaves=None if from_takeoff else point(b),
+                returns=None if to_landing else point(e),
+                envelope=envelope,
+            )
+        )
     first = state[stretches[0][0]]
     payload_weight = float(found.weight["zero_fuel"][i])
     leaves = LeavePoint(
@@ -1057,9 +1074,8 @@ def _burn_path(
         envelope=left[0],
         subject=_envelope_subject(aircraft, left[0]),
     )
-    scale = max(1.0, end)
-    for (begin, finish), excursion, envelope in zip(stretches, excursions, left, strict=True):
-        if (not takeoff_in and begin - start <= 1e-9 * scale) or (not landing_in and end - finish <= 1e-9 * scale):
+    for (begin, _), excursion, envelope in zip(stretches, excursions, left, strict=True):
+        if (not takeoff_in and excursion.from_takeoff) or (not landing_in and excursion.to_landing):
             continue  # the same excursion is already reported at takeoff or landing
         w, m, lat, on_board = state[begin]
         subject = _envelope_subject(aircraft, envelope)
@@ -1078,6 +1094,7 @@ def _burn_path(
                     units.fuel_volume,
                     lateral_arm=lat / w if lateral else None,
                     envelope=subject,
+                    to_landing=excursion.to_landing,
                 ),
                 excess=excursion.to_burned - excursion.from_burned,
                 unit=units.mass,

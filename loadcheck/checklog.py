@@ -699,14 +699,30 @@ def export_text(records: Iterable[LoggedCheck], format: str) -> str:
     return buffer.getvalue()
 
 
-def results_match(a: object, b: object, rel: float = 1e-9) -> bool:
-    """Whether two JSON results are the same, numbers within a relative tolerance."""
-    return first_difference(a, b, rel) is None
+def results_match(a: object, b: object, rel: float = 1e-9, *, newer_fields: bool = False) -> bool:
+    """Whether two JSON results are the same, numbers within a relative tolerance.
+
+    With ``newer_fields``, ``a`` is a stored result and ``b`` the same check recomputed: ``b``
+    may hold fields ``a`` has none of (fields results gained after the record was written, such
+    as a trip leg's ``stop``); every field ``a`` holds is compared.
+
+    Examples
+    --------
+    >>> results_match({"ok": True}, {"ok": True, "stop": {}}), results_match({"ok": True}, {"ok": True, "stop": {}},
+    ...                                                                       newer_fields=True)
+    (False, True)
+    >>> results_match({"ok": True, "x": 1.0}, {"ok": True}, newer_fields=True)  # a stored field is never skipped
+    False
+    """
+    return first_difference(a, b, rel, newer_fields=newer_fields) is None
 
 
-def first_difference(a: object, b: object, rel: float = 1e-9, path: str = "") -> str | None:
-    """Where two JSON results first differ, and how (``findings[2].code: 'assumption', now 'no_pilot'``);
-    None where they are the same, numbers within a relative tolerance (:func:`results_match`).
+def first_difference(
+    a: object, b: object, rel: float = 1e-9, path: str = "", *, newer_fields: bool = False
+) -> str | None:
+    """Where two JSON results first differ, and how (``findings[2].code: "assumption", now "no_pilot"``);
+    None where they are the same, numbers within a relative tolerance (:func:`results_match`, whose
+    ``newer_fields`` this takes too).
 
     Examples
     --------
@@ -717,14 +733,16 @@ def first_difference(a: object, b: object, rel: float = 1e-9, path: str = "") ->
     """
     where = path or "the result"
     if isinstance(a, dict) and isinstance(b, dict):
-        if a.keys() != b.keys():
-            gone, new = sorted(set(a) - set(b)), sorted(set(b) - set(a))
+        gone, new = sorted(set(a) - set(b)), sorted(set(b) - set(a))
+        if gone or (new and not newer_fields):
             return f"{where}: " + "; ".join(
-                [*(f"{k!r} recorded, not recomputed" for k in gone), *(f"{k!r} recomputed, not recorded" for k in new)]
-                or ["its keys are in another order"]
+                [
+                    *(f"{k!r} recorded, not recomputed" for k in gone),
+                    *(f"{k!r} recomputed, not recorded" for k in ([] if newer_fields else new)),
+                ]
             )
         for k in a:
-            found = first_difference(a[k], b[k], rel, f"{path}.{k}" if path else str(k))
+            found = first_difference(a[k], b[k], rel, f"{path}.{k}" if path else str(k), newer_fields=newer_fields)
             if found is not None:
                 return found
         return None
@@ -732,7 +750,7 @@ def first_difference(a: object, b: object, rel: float = 1e-9, path: str = "") ->
         if len(a) != len(b):
             return f"{where}: {len(a)} recorded, {len(b)} now"
         for i, (x, y) in enumerate(zip(a, b, strict=True)):
-            found = first_difference(x, y, rel, f"{path}[{i}]")
+            found = first_difference(x, y, rel, f"{path}[{i}]", newer_fields=newer_fields)
             if found is not None:
                 return found
         return None
@@ -788,7 +806,8 @@ def _check_again(aircraft: Aircraft, inputs: dict[str, Any], where: str) -> Chec
 def verify(log: CheckLog, record_id: int) -> Verification:
     """Recompute a recorded check from its stored inputs and aircraft data and compare every stored field.
 
-    Compared: the result (numbers within a relative 1e-9), the aircraft data's fingerprint,
+    Compared: the result (every stored field; numbers within a relative 1e-9; a field results
+    gained after the record was written is not in it, so not compared), the aircraft data's fingerprint,
     the stored verdict (``ok``), category and registration against the recomputed ones, and
     the seal over all stored fields (time, reference, pilot and source included).
 
@@ -808,7 +827,7 @@ def verify(log: CheckLog, record_id: int) -> Verification:
             f"the recorded aircraft data gives the fingerprint {aircraft.fingerprint}, "
             f"not the recorded {record.fingerprint}"
         )
-    difference = first_difference(record.result, again)
+    difference = first_difference(record.result, again, newer_fields=True)  # a record predates fields added since
     if difference is not None:
         differences.append(f"the stored result differs from the recomputed one, first at {difference}")
     if record.ok != bool(again.get("ok")):

@@ -807,8 +807,8 @@ class Flight:
 
     def brief(self) -> Flight:
         """This flight with only what a one-line summary shows (verdict, units, each condition's
-        weight and CG, each finding's code, severity and words; for a trip, those of each leg),
-        for holding many flights at once."""
+        weight, CG and lateral CG where the aircraft has lateral arms, each finding's code,
+        severity and words; for a trip, those of each leg), for holding many flights at once."""
         row = FlightRow(
             self.row.line,
             self.row.source,
@@ -859,7 +859,10 @@ def _brief(result: dict[str, Any]) -> dict[str, Any]:
         "ok": result["ok"],
         "category": result.get("category"),
         "units": result["units"],
-        "conditions": [{k: c[k] for k in ("condition", "weight", "arm")} for c in result.get("conditions", ())],
+        "conditions": [
+            {k: c[k] for k in ("condition", "weight", "arm", "lateral_arm") if k in c}
+            for c in result.get("conditions", ())
+        ],
         "findings": [{k: f[k] for k in ("code", "severity", "message", "leg") if k in f} for f in result["findings"]],
     }
 

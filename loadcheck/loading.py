@@ -898,10 +898,13 @@ class StopFuel:
     ----------
     to : tanks filled up to a quantity (``full`` or a level) [fuel volume unit]
     added : tanks given a volume on top of what they hold [fuel volume unit]
+    given : each tank's amount as the loading gives it (a number in the fuel volume unit,
+        ``"30 lb"``, ``"full"``, a level name); empty where a planning answer chose the fuel
     """
 
     to: Mapping[str, float] = field(default_factory=dict)
     added: Mapping[str, float] = field(default_factory=dict)
+    given: Mapping[str, float | str] = field(default_factory=dict)
 
     def apply(self, on_board: Mapping[str, Any]) -> dict[str, Any]:
         """Fuel in each tank after the stop, from what it held at landing.
@@ -1059,9 +1062,12 @@ def _stop_fuel(
     level names found."""
     to: dict[str, float] = {}
     added: dict[str, float] = {}
+    given: dict[str, float | str] = {}
     unknown: list[Problem] = []
     for name, amount in leg.add_fuel.items():
         tank = aircraft.tank_by_id.get(name)
+        if tank is not None:
+            given[name] = _as_given(amount)
         if tank is None:
             unknown.append(
                 Problem(
@@ -1087,7 +1093,17 @@ def _stop_fuel(
             added[name] = _to_volume(
                 parse_quantity(amount), density[name], aircraft.units.mass, aircraft.units.fuel_volume
             )
-    return StopFuel(to, added), unknown
+    return StopFuel(to, added, given), unknown
+
+
+def _as_given(amount: float | str) -> float | str:
+    """A fuel amount as the user gave it, said one way whichever front end it came through: a
+    plain number (``5`` or ``"5"``) as a number [fuel volume unit], any other text as written."""
+    if isinstance(amount, str) and not _is_level_name(amount):
+        quantity = parse_quantity(amount)
+        if quantity.unit is None:
+            return quantity.value
+    return amount.strip() if isinstance(amount, str) else float(amount)
 
 
 def _known(names: Mapping[str, Any]) -> str:

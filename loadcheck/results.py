@@ -25,10 +25,13 @@ __all__ = [
     "LeavePoint",
     "Margins",
     "Severity",
+    "StationChange",
+    "Stop",
     "TripFinding",
     "TripLeg",
     "TripResult",
     "UnitsInfo",
+    "Uplift",
 ]
 
 ConditionName = Literal["ramp", "takeoff", "landing", "zero_fuel"]
@@ -324,10 +327,22 @@ class LeavePoint(Result):
 @dataclass(frozen=True, kw_only=True, slots=True)
 class Excursion(Result):
     """A stretch of the burn path outside the envelope: fuel burned since takeoff where it
-    leaves and where it returns [mass unit]."""
+    leaves and where it returns [mass unit].
+
+    ``from_takeoff``: the path is already outside at takeoff (it does not leave: it starts
+    out); ``to_landing``: it is still outside at landing (it does not come back in).
+    ``leaves`` and ``returns`` are the points where it leaves and where it comes back inside
+    (fuel burned and weight [mass unit], CG and lateral CG [arm unit]), None where it starts or
+    ends outside; ``envelope`` is the index in the aircraft file of the envelope it leaves.
+    """
 
     from_burned: float
     to_burned: float
+    from_takeoff: bool = False
+    to_landing: bool = False
+    leaves: PathSample | None = None
+    returns: PathSample | None = None
+    envelope: int | None = None
 
 
 @_quick_init
@@ -433,22 +448,68 @@ class CheckResult(Result):
 
 @_quick_init
 @dataclass(frozen=True, kw_only=True, slots=True)
-class TripLeg(Result):
-    """One leg of a trip: its number (from 1), its label, and its full single check.
+class Uplift(Result):
+    """Fuel put into one tank at a stop: the refueller's instruction.
 
-    Its JSON form is the check's own fields (those of :class:`CheckResult`) with ``leg``
-    and ``label`` added.
+    ``given`` is the amount as the loading gives it (a number in the fuel volume unit, a
+    quantity such as ``"30 lb"``, ``"full"`` or a level name), None where a planning answer
+    chose it; ``volume`` is the fuel that goes in, resolved against what the tank held at the
+    previous landing [fuel volume unit]; ``weight`` is its mass [mass unit]; ``on_board`` is
+    what the tank holds after it, at the leg's engine start [fuel volume unit].
+    """
+
+    tank: str
+    name: str
+    volume: float
+    weight: float
+    on_board: float
+    given: float | str | None = None
+
+
+@_quick_init
+@dataclass(frozen=True, kw_only=True, slots=True)
+class StationChange(Result):
+    """A station whose load changes at a stop: its weight on the previous leg and on this one
+    [mass unit] (0 where nothing is there)."""
+
+    station: str
+    name: str
+    from_weight: float
+    to_weight: float
+
+
+@_quick_init
+@dataclass(frozen=True, kw_only=True, slots=True)
+class Stop(Result):
+    """What changes at the stop before a leg: the fuel put in, tank by tank (``fuel``, empty
+    where none), and the stations whose load changes (``stations``, empty where none)."""
+
+    fuel: list[Uplift]
+    stations: list[StationChange]
+
+
+@_quick_init
+@dataclass(frozen=True, kw_only=True, slots=True)
+class TripLeg(Result):
+    """One leg of a trip: its number (from 1), its label, what changed at the stop before it
+    (``stop``: None for the first leg), and its full single check.
+
+    Its JSON form is the check's own fields (those of :class:`CheckResult`) with ``leg``,
+    ``label`` and ``stop`` added.
     """
 
     leg: int
     label: str | None = None
+    stop: Stop | None = None
     check: CheckResult
 
     def to_dict(self) -> dict[str, Any]:
-        """The check's JSON fields, with the leg's number and label."""
+        """The check's JSON fields, with the leg's number, label and stop."""
         head: dict[str, Any] = {"leg": self.leg}
         if self.label is not None:
             head["label"] = self.label
+        if self.stop is not None:
+            head["stop"] = self.stop.to_dict()
         return head | self.check.to_dict()
 
 

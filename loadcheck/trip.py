@@ -33,7 +33,7 @@ from .caution import PILOT_CAUTION
 from .check import below_reserve, check_loading
 from .engine import evaluate, loading_arrays
 from .errors import InputError, LoadcheckError, Problem
-from .loading import BurnPlan, Loading, ResolvedTrip, StopFuel, landing_fuel, resolve_trip
+from .loading import BurnPlan, Loading, ResolvedLoading, ResolvedTrip, StopFuel, landing_fuel, resolve_trip
 from .planning import (
     _GRID_STEP,
     Interval,
@@ -48,9 +48,9 @@ from .planning import (
     limit_amount_words,
     safe_value,
 )
-from .results import TripFinding, TripLeg, TripResult
+from .results import StationChange, Stop, TripFinding, TripLeg, TripResult, Uplift
 
-__all__ = ["TripPlan", "check_trip", "fuel_to_add", "leg_name", "trip_legs", "trip_most_fuel"]
+__all__ = ["TripPlan", "check_trip", "fuel_to_add", "leg_name", "stop_changes", "trip_legs", "trip_most_fuel"]
 
 
 def leg_name(number: int, label: str | None = None) -> str:
@@ -111,7 +111,10 @@ def check_trip(
     labels = resolved.labels or (None,) * len(resolved.legs)
     for number, (leg, label) in enumerate(zip(resolved.legs, labels, strict=True), start=1):
         check = check_loading(aircraft, leg, samples=samples)
-        legs.append(TripLeg(leg=number, label=label, check=check))
+        stop = (
+            None if number == 1 else stop_changes(aircraft, resolved.legs[number - 2], leg, resolved.stops[number - 2])
+        )
+        legs.append(TripLeg(leg=number, label=label, stop=stop, check=check))
         findings += [
             TripFinding(
                 leg=number,
@@ -138,6 +141,61 @@ def check_trip(
         units=first.units,
         caution=PILOT_CAUTION,
     )
+
+
+def stop_changes(aircraft: Aircraft, previous: ResolvedLoading, leg: ResolvedLoading, fuel: StopFuel) -> Stop:
+    """What changes at the stop between two legs: the fuel put in, tank by tank, and each
+    station whose load changes.
+
+    Parameters
+    ----------
+    aircraft : the aircraft
+    previous : the leg before the stop, as resolved
+    leg : the leg after it, as resolved (its fuel at engine start is ``fuel`` applied to what
+        ``previous`` landed with, :func:`loadcheck.loading.landing_fuel`)
+    fuel : the fuel put in at the stop
+
+    Returns
+    -------
+    Stop
+        Each tank the stop puts fuel in (as given, where the loading gives it): the volume that
+        goes in [fuel volume unit] (a volume added is that volume; a fill to ``full`` or a level
+        is the level less what the tank held at the previous landing), its mass at the tank's
+        density [mass unit] and what the tank then holds [fuel volume unit]; each station whose
+        weight differs between the legs, from and to [mass unit].
+    """
+    landed = landing_fuel(previous)
+    uplift = []
+    for tank in aircraft.tank:
+        if tank.id in fuel.added:
+            volume = fuel.added[tank.id]
+        elif tank.id in fuel.to:
+            volume = leg.fuel[tank.id] - landed[tank.id]
+        else:
+            continue
+        if tank.id not in fuel.given and volume == 0.0:
+            continue  # a tank a planning answer puts nothing in
+        uplift.append(
+            Uplift(
+                tank=tank.id,
+                name=tank.name,
+                volume=volume,
+                weight=volume * leg.density[tank.id],
+                on_board=leg.fuel[tank.id],
+                given=fuel.given.get(tank.id),
+            )
+        )
+    stations = [
+        StationChange(
+            station=station.id,
+            name=station.name,
+            from_weight=previous.stations.get(station.id, 0.0),
+            to_weight=leg.stations.get(station.id, 0.0),
+        )
+        for station in aircraft.station
+        if previous.stations.get(station.id, 0.0) != leg.stations.get(station.id, 0.0)
+    ]
+    return Stop(fuel=uplift, stations=stations)
 
 
 def trip_legs(aircraft: Aircraft, trip: ResolvedTrip, start: int, fuel: dict[str, float]) -> ResolvedTrip:

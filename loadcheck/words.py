@@ -15,7 +15,7 @@ from __future__ import annotations
 from collections.abc import Sequence
 
 from .display import Direction, decimals, fmt, round_safe
-from .results import CheckResult
+from .results import CheckResult, StationChange, Stop, UnitsInfo, Uplift
 
 __all__ = [
     "negligible_cg_words",
@@ -29,6 +29,7 @@ __all__ = [
     "burn_path_message",
     "burn_path_sentence",
     "burn_path_summary",
+    "excursion_end_words",
     "within_limits_text",
     "condition_words",
     "count",
@@ -40,7 +41,11 @@ __all__ = [
     "envelope_weight_message",
     "load_limit_message",
     "reserve_message",
+    "given_fuel_words",
+    "station_change_words",
+    "stop_lines",
     "stretch_text",
+    "uplift_words",
     "weight_limit_message",
 ]
 
@@ -278,6 +283,22 @@ ZERO_FUEL_WARNING = " (a warning: the zero-fuel CG is not a limit for this aircr
 """Added to a zero-fuel envelope finding where the zero-fuel CG is not a limit."""
 
 
+def excursion_end_words(to_burned: float, to_landing: bool, mass_unit: str) -> str:
+    """Until when the burn path stays outside: to landing where it is still outside there, else
+    until the fuel burned where it comes back inside, rounded up (the stretch outside is never
+    shown shorter than it is). The one place this is said (:func:`burn_path_message`,
+    :func:`burn_path_sentence`).
+
+    Examples
+    --------
+    >>> excursion_end_words(28.24, False, "kg"), excursion_end_words(180.0, True, "lb")
+    ('until 28.3 kg is burned, where it comes back inside', 'to landing')
+    """
+    if to_landing:
+        return "to landing"
+    return f"until {fmt(to_burned, mass_unit, 'up')} is burned, where it comes back inside"
+
+
 def burn_path_message(
     from_burned: float,
     to_burned: float,
@@ -290,25 +311,28 @@ def burn_path_message(
     *,
     lateral_arm: float | None = None,
     envelope: str | None = None,
+    to_landing: bool = False,
 ) -> str:
     """Where the CG leaves an envelope during the burn and until when it stays out.
 
     ``lateral_arm`` [arm unit], given for an aircraft with lateral limits, is said beside the CG;
-    ``envelope`` names the envelope left ("the utility-category envelope"), else "the envelope".
+    ``envelope`` names the envelope left ("the utility-category envelope"), else "the envelope";
+    ``to_landing``: the path is still outside at landing (:func:`excursion_end_words`).
 
     Examples
     --------
     >>> burn_path_message(10.0, 25.0, 2000.0, 40.0, 30.0, "lb", "in", "usgal", lateral_arm=-1.5,
     ...                   envelope="the lateral envelope")  # doctest: +NORMALIZE_WHITESPACE
     'the CG leaves the lateral envelope during the fuel burn after 10.0 lb of fuel is burned
-    (at 2,000.0 lb, CG 40.00 in, lateral CG -1.50 in, 30.0 usgal on board) and stays out until 25.0 lb is burned'
+    (at 2,000.0 lb, CG 40.00 in, lateral CG -1.50 in, 30.0 usgal on board) and stays out until 25.0 lb is burned,
+    where it comes back inside'
     """
     lateral = "" if lateral_arm is None else f", lateral CG {fmt(lateral_arm, arm_unit)}"
     return (
         f"the CG leaves {envelope or 'the envelope'} during the fuel burn after {fmt(from_burned, mass_unit, 'down')} "
         "of fuel is burned "
         f"(at {fmt(weight, mass_unit)}, CG {fmt(arm, arm_unit)}{lateral}, {fmt(on_board, volume_unit)} on board) "
-        f"and stays out until {fmt(to_burned, mass_unit, 'up')} is burned"
+        f"and stays out {excursion_end_words(to_burned, to_landing, mass_unit)}"
     )
 
 
@@ -374,30 +398,41 @@ def burn_path_sentence(result: CheckResult) -> str:
     """The fuel burn from takeoff to landing in one sentence ("the CG stays inside ...").
 
     A path that starts outside (takeoff already out of the envelope) is said to be outside
-    from takeoff, not to "leave after 0 burned". Where the path leaves, the envelope it leaves
-    is named and, for an aircraft with lateral limits, the lateral CG given.
+    from takeoff, not to "leave after 0 burned"; one still outside at landing is said to be
+    outside to landing, not "until" the whole trip's fuel is burned; where it comes back
+    inside, that is said (:func:`excursion_end_words`). Where the path leaves, the envelope it
+    leaves is named and, for an aircraft with lateral limits, the lateral CG given; each later
+    stretch outside is said after it.
     """
     path, units = result.burn_path, result.units
     if path.ok:
         return "the CG stays inside the envelope all the way."
     leave = path.leaves_at
-    if leave is None:
+    if leave is None or not path.excursions:
         return "the takeoff point is already outside the envelope."
-    takeoff_out = not result.condition("takeoff").ok
-    if takeoff_out and leave.fuel_burned_volume <= 1e-9 * max(1.0, leave.fuel_remaining_volume):
-        first = path.excursions[0] if path.excursions else None
-        until = (
-            f" and stays outside until {fmt(first.to_burned, units.mass, 'up')} is burned"
-            if first is not None and first.to_burned > first.from_burned
-            else ""
+    first, *later = path.excursions
+    if first.from_takeoff:
+        span = (
+            "the whole way, from takeoff to landing"
+            if first.to_landing
+            else f"from takeoff {excursion_end_words(first.to_burned, False, units.mass)}"
         )
-        return f"the CG is outside the envelope from takeoff{until}."
-    lateral = "" if leave.lateral_arm is None else f", lateral CG {fmt(leave.lateral_arm, units.arm)}"
-    return (
-        f"the CG leaves {leave.subject or 'the envelope'} after {fmt(leave.fuel_burned, units.mass, 'down')} burned "
-        f"({fmt(leave.fuel_remaining_volume, units.fuel_volume)} remaining; "
-        f"{fmt(leave.weight, units.mass)} at CG {fmt(leave.arm, units.arm)}{lateral})."
-    )
+        text = f"the CG is outside the envelope {span}"
+    else:
+        lateral = "" if leave.lateral_arm is None else f", lateral CG {fmt(leave.lateral_arm, units.arm)}"
+        text = (
+            f"the CG leaves {leave.subject or 'the envelope'} "
+            f"after {fmt(leave.fuel_burned, units.mass, 'down')} burned "
+            f"({fmt(leave.fuel_remaining_volume, units.fuel_volume)} remaining; "
+            f"{fmt(leave.weight, units.mass)} at CG {fmt(leave.arm, units.arm)}{lateral}) and is outside from there "
+            + excursion_end_words(first.to_burned, first.to_landing, units.mass)
+        )
+    for excursion in later:
+        text += (
+            f"; it is outside again from {fmt(excursion.from_burned, units.mass, 'down')} burned "
+            + excursion_end_words(excursion.to_burned, excursion.to_landing, units.mass)
+        )
+    return text + "."
 
 
 def negligible_weight_words(change: float, unit: str, change_lb: float, limit_lb: float, empty_lb: float) -> str:
@@ -453,3 +488,68 @@ def negligible_text(overall: bool | None, weight: str, cg: str) -> str:
     """
     verdict = {True: "negligible", False: "not negligible", None: "cannot be judged"}[overall]
     return f"AC 43.13-1B 10-2 c: the change is {verdict}: {weight}, and {cg}."
+
+
+def uplift_words(uplift: Uplift, units: UnitsInfo) -> str:
+    """The fuel put into one tank at a stop, as the refueller works to it: the volume that goes
+    in and its mass, the amount as the loading gives it where that is other words, and what the
+    tank then holds.
+
+    Examples
+    --------
+    >>> units = UnitsInfo(mass="lb", arm="in", fuel_volume="usgal", moment="lb*in")
+    >>> uplift_words(Uplift(tank="main", name="Main", volume=5.0, weight=30.0, on_board=25.5, given=5.0), units)
+    'Main: 5.0 usgal put in (30.0 lb), 25.5 usgal on board after'
+    >>> uplift_words(Uplift(tank="main", name="Main", volume=11.5, weight=69.0, on_board=32.0, given="full"), units)
+    'Main: 11.5 usgal put in (69.0 lb), as given "full", 32.0 usgal on board after'
+    """
+    given = uplift.given
+    said = "" if given is None or given == uplift.volume else f", as given {given_fuel_words(uplift, units)}"
+    return (
+        f"{uplift.name}: {fmt(uplift.volume, units.fuel_volume)} put in ({fmt(uplift.weight, units.mass)}){said}, "
+        f"{fmt(uplift.on_board, units.fuel_volume)} on board after"
+    )
+
+
+def given_fuel_words(uplift: Uplift, units: UnitsInfo) -> str:
+    """The fuel put in at a stop as the loading gives it: a number with the fuel volume unit it is
+    in, other amounts quoted as written; empty where a planning answer chose the fuel.
+
+    Examples
+    --------
+    >>> units = UnitsInfo(mass="lb", arm="in", fuel_volume="usgal", moment="lb*in")
+    >>> given_fuel_words(Uplift(tank="t", name="T", volume=5.0, weight=30.0, on_board=9.0, given=5.0), units)
+    '5 usgal'
+    >>> given_fuel_words(Uplift(tank="t", name="T", volume=5.0, weight=30.0, on_board=9.0, given="30 lb"), units)
+    '"30 lb"'
+    """
+    given = uplift.given
+    if given is None:
+        return ""
+    return f'"{given}"' if isinstance(given, str) else f"{given:g} {units.fuel_volume}"
+
+
+def station_change_words(change: StationChange, unit: str) -> str:
+    """A station whose load changes at a stop, from and to.
+
+    Examples
+    --------
+    >>> station_change_words(StationChange(station="left", name="Left seat", from_weight=170.0, to_weight=0.0), "lb")
+    'Left seat: from 170.0 lb to 0.0 lb'
+    """
+    return f"{change.name}: from {fmt(change.from_weight, unit)} to {fmt(change.to_weight, unit)}"
+
+
+def stop_lines(stop: Stop, units: UnitsInfo) -> tuple[str, str]:
+    """What changes at the stop before a leg, in two lines: the fuel put in, tank by tank, and the
+    stations whose load changes; each says "none" where nothing does.
+
+    Examples
+    --------
+    >>> units = UnitsInfo(mass="lb", arm="in", fuel_volume="usgal", moment="lb*in")
+    >>> stop_lines(Stop(fuel=[], stations=[]), units)
+    ('fuel put in at the stop: none', 'load changed at the stop: none')
+    """
+    fuel = "; ".join(uplift_words(u, units) for u in stop.fuel) or "none"
+    stations = "; ".join(station_change_words(c, units.mass) for c in stop.stations) or "none"
+    return f"fuel put in at the stop: {fuel}", f"load changed at the stop: {stations}"

@@ -560,3 +560,16 @@ def test_a_log_made_before_flight_dates_were_recorded_is_opened_and_verified(run
         dated = list(log.find())[-1]
     assert dated.flight_date == "2026-12-03"
     assert runner.invoke(app, ["log", "verify", str(dated.id), "--db", str(path)]).exit_code == 0
+
+
+def test_regression_a_record_written_before_results_gained_a_field_still_verifies():
+    # results gained fields (a trip leg's "stop", an excursion's "from_takeoff"...): a record
+    # written before holds none of them, and every field it does hold is still compared
+    from loadcheck.checklog import results_match
+
+    stored = {"ok": False, "legs": [{"leg": 1, "ok": True}, {"leg": 2, "ok": False}]}
+    again = {"ok": False, "legs": [{"leg": 1, "ok": True}, {"leg": 2, "stop": {"fuel": []}, "ok": False}]}
+    assert results_match(stored, again, newer_fields=True) and not results_match(stored, again)
+    changed = {"ok": False, "legs": [{"leg": 1, "ok": True}, {"leg": 2, "stop": {"fuel": []}, "ok": True}]}
+    assert not results_match(stored, changed, newer_fields=True)
+    assert not results_match(again, stored, newer_fields=True)  # a stored field missing from the recompute

@@ -19,6 +19,7 @@ import pytest
 from loadcheck import check_loading, load_aircraft
 from loadcheck.checklog import CheckLog, results_match
 from loadcheck.cli import app
+from loadcheck.display import fmt
 from loadcheck.errors import InputError
 from loadcheck.fleet import check_flights, load_fleet, read_loadings
 from loadcheck.loading import Loading
@@ -975,3 +976,54 @@ def test_a_fleet_check_leaves_the_cycle_collector_as_it_found_it(runner, enabled
         assert gc.isenabled() is enabled
     finally:
         gc.enable() if was else gc.disable()
+
+
+def test_regression_the_fleet_table_showed_only_the_fore_and_aft_cg_of_an_aircraft_with_lateral_arms(runner, tmp_path):
+    # trial 10, finding 13: a trip out of lateral limits showed "40.27 in" only; the single check's
+    # conditions table shows the lateral CG too. Rows of DEMO-H2 (lateral arms) from the samples:
+    # the trip of sample_aircraft/heli2/trip_drop_off.toml, then a single flight
+    from .test_trip import TRIP_CSV
+
+    day = tmp_path / "day.csv"
+    day.write_text(TRIP_CSV)
+    table = runner.invoke(app, ["fleet", "check", str(sample("")), str(day), "--no-log"], env={"COLUMNS": "200"})
+    assert table.exit_code == 0, table.output
+    text = table.stdout
+    trip = json.loads(runner.invoke(app, ["check", str(sample("heli2/trip_drop_off.toml")), "--json"]).stdout)
+    for leg in trip["legs"]:  # every leg's takeoff and landing lateral CG, as the check computes them
+        for c in leg["conditions"]:
+            if c["condition"] in ("takeoff", "landing"):
+                assert f"lat. {fmt(c['lateral_arm'], 'in')}" in text
+    single = json.loads(
+        runner.invoke(
+            app,
+            [
+                "check",
+                str(sample("heli2/aircraft.toml")),
+                "--load",
+                "left=170",
+                "--load",
+                "right=190",
+                "--fuel",
+                "main=full",
+                "--taxi",
+                "0.5",
+                "--trip",
+                "20",
+                "--json",
+            ],
+        ).stdout
+    )
+    landing = next(c for c in single["conditions"] if c["condition"] == "landing")
+    assert f"lat. {fmt(landing['lateral_arm'], 'in')}" in text
+    assert "lat.: the lateral CG, + right of the centre line" in text
+
+
+def test_the_fleet_table_of_an_aircraft_without_lateral_arms_shows_no_lateral_cg(runner, tmp_path):
+    from .test_trip import trip_fleet
+
+    folder = trip_fleet(tmp_path / "fleet")
+    text = runner.invoke(
+        app, ["fleet", "check", str(folder), str(folder / "day.csv"), "--no-log"], env={"COLUMNS": "200"}
+    ).stdout
+    assert "lat." not in text

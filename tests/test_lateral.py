@@ -254,7 +254,8 @@ def test_regression_a_burn_path_leaving_a_lateral_envelope_was_told_in_fore_and_
     assert finding.subject == "the lateral envelope"
     assert finding.message == (
         "the CG leaves the lateral envelope during the fuel burn after 136.5 lb of fuel is burned "
-        "(at 1,363.4 lb, CG 40.00 in, lateral CG 0.27 in, 27.2 usgal on board) and stays out until 180.6 lb is burned"
+        "(at 1,363.4 lb, CG 40.00 in, lateral CG 0.27 in, 27.2 usgal on board) and stays out until 180.6 lb is burned, "
+        "where it comes back inside"
     )
     from loadcheck.words import burn_path_summary
 

@@ -13,7 +13,9 @@ import pytest
 
 from loadcheck import load_check_inputs
 from loadcheck.cli import app
+from loadcheck.display import fmt
 from loadcheck.render.chart import check_figure, envelope_figure, save_figure
+from loadcheck.words import burn_path_sentence
 
 from .helpers import checked_sample as _inputs
 from .helpers import sample
@@ -42,7 +44,7 @@ def _marker_positions(svg_text: str) -> dict[str, tuple[float, float]]:
     found = {}
     for group in root.iter(f"{SVG}g"):
         gid = group.get("id", "")
-        if gid.startswith(("point-", "leaves-at")):
+        if gid.startswith(("point-", "leaves-at", "returns-at")):
             use = next(group.iter(f"{SVG}use"))
             found[gid] = (float(use.get("x")), float(use.get("y")))
     return found
@@ -72,7 +74,8 @@ def test_svg_points_sit_at_the_computed_coordinates(name):
         sx, sy = positions[f"point-{condition.condition}"]
         assert sx == pytest.approx(px, abs=0.01)
         assert sy == pytest.approx(figure.bbox.height - py, abs=0.01)
-    assert any(k.startswith("leaves-at") for k in positions) == (not result.burn_path.ok)
+    leaving = any(e.leaves is not None for e in result.burn_path.excursions)
+    assert any(k.startswith("leaves-at") for k in positions) == leaving
 
 
 def test_envelope_chart_alone_and_other_categories(tmp_path):
@@ -172,7 +175,7 @@ def _svg_layout(svg_text: str):
         if element.tag == f"{SVG}g":
             if gid.startswith(("text_", "label-", "limitname-")):
                 text_id = gid
-            if gid.startswith(("point-", "leaves-at")):
+            if gid.startswith(("point-", "leaves-at", "returns-at")):
                 point_id = gid
             if gid.startswith("axes_"):  # its first patch is the plot's background: the frame
                 path = next(element.iter(f"{SVG}path"))
@@ -260,11 +263,13 @@ def test_chart_text_never_overlaps_or_is_clipped_and_every_marker_shows(name):
     drawn = [gid for gid, _ in markers]
     for condition in result.conditions:
         assert f"point-{condition.condition}" in drawn
-    filled = [(gid, box) for gid, box in markers if not gid.startswith("leaves-at")]
+    filled = [(gid, box) for gid, box in markers if not gid.startswith(("leaves-at", "returns-at"))]
     for i, (gid, box) in enumerate(filled):
         for later, cover in filled[i + 1 :]:
             assert not _within(box, cover, pad=0.0), f"{gid} is hidden under {later}"
-    assert any(g.startswith("leaves-at") for g in drawn) == (result.burn_path.leaves_at is not None)
+    excursions = result.burn_path.excursions
+    assert any(g.startswith("leaves-at") for g in drawn) == any(e.leaves is not None for e in excursions)
+    assert any(g.startswith("returns-at") for g in drawn) == any(e.returns is not None for e in excursions)
 
 
 def test_svg_reader_sees_an_overlap_when_there_is_one():
@@ -314,3 +319,193 @@ def test_envelope_and_fuel_payload_charts_have_no_overlapping_or_clipped_text(na
         for i, a in enumerate(names):
             for b in names[i + 1 :]:
                 assert _shared(texts[a], texts[b]) < 0.5, f"{a} and {b} overlap"
+
+
+# -- a path that starts outside, comes back in, or stays out to landing (trial 10, finding 9) ------
+# The trial's invented aircraft, rebuilt here: a cargo twin in kg/m/l whose envelope is on moment /
+# 1000, and a six-seat single in lb/in/usgal with a forward limit that moves aft with weight.
+
+_CARGO = """format = 1
+name = "Invented cargo twin"
+[units]
+mass = "kg"
+arm = "m"
+fuel_volume = "l"
+[empty]
+weight = 3000.0
+arm = 5.00
+[limits]
+max_takeoff_weight = 5200
+max_ramp_weight = 5230
+max_landing_weight = 5000
+[[station]]
+id = "crew"
+kind = "seat"
+arm = 2.50
+controls = true
+[[station]]
+id = "hold_b"
+kind = "cargo"
+arm = 5.20
+[[station]]
+id = "hold_c"
+kind = "cargo"
+arm = 7.40
+[[tank]]
+id = "wing"
+arm = 5.60
+usable = 800
+fuel = "jet"
+[[tank]]
+id = "ferry"
+arm = 6.50
+usable = 300
+fuel = "jet"
+[[envelope]]
+category = "normal"
+axes = ["moment", "weight"]
+moment_scale = 1000
+points = [[14.40, 3000], [23.0, 5230], [27.8, 5230], [16.2, 3000]]
+"""
+
+_CARGO_AFT = """format = 1
+aircraft = "cargo.toml"
+[load]
+crew = 70
+hold_b = 600
+hold_c = 400
+[fuel]
+wing = 800
+ferry = 300
+[burn]
+taxi = 20
+trip = 450
+order = ["ferry", "wing"]
+"""
+
+_SIX = """format = 1
+name = "Invented six-seat single"
+[units]
+mass = "lb"
+arm = "in"
+fuel_volume = "usgal"
+[empty]
+weight = 2100.0
+arm = 84.0
+[limits]
+max_takeoff_weight = 3400
+[[station]]
+id = "row1"
+kind = "seat"
+arm = 80.0
+controls = true
+[[station]]
+id = "nose"
+kind = "baggage"
+arm = 20.0
+[[tank]]
+id = "mains"
+arm = 93.0
+usable = 60
+fuel = "avgas"
+[[envelope]]
+category = "normal"
+axes = ["arm", "weight"]
+points = [[82.0, 2100], [82.0, 2600], [88.0, 3400], [97.0, 3400], [97.0, 2100]]
+"""
+
+_SIX_FWD = """format = 1
+aircraft = "six.toml"
+[load]
+row1 = 400
+nose = 100
+[fuel]
+mains = 60
+[burn]
+taxi = 1.5
+trip = 30
+"""
+
+
+def _trial_case(tmp_path: Path, aircraft: tuple[str, str], loading: str):
+    (tmp_path / aircraft[0]).write_text(aircraft[1])
+    (tmp_path / "loading.toml").write_text(loading)
+    inputs = load_check_inputs(tmp_path / "loading.toml")
+    from loadcheck import check_loading
+    from loadcheck.render.chart import figure_svg
+
+    result = check_loading(inputs.aircraft, inputs.loading)
+    figure = check_figure(inputs.aircraft, result, inputs.label)
+    return inputs, result, figure, figure_svg(figure)
+
+
+def _label_texts(svg: str) -> dict[str, str]:
+    """The words of each label of the chart, by its element id (matplotlib's SVG writes each
+    text's words as a comment before its glyphs)."""
+    return {
+        gid: re.search(r"<!-- (.*?) -->", svg[svg.index(f'id="{gid}"') :], re.S).group(1)
+        for gid in re.findall(r'id="(label-[^"]+)"', svg)
+    }
+
+
+def test_a_path_that_starts_outside_and_comes_back_in_is_outside_from_takeoff_and_marked_where_it_returns(tmp_path):
+    inputs, result, figure, svg = _trial_case(tmp_path, ("cargo.toml", _CARGO), _CARGO_AFT)
+    # Worked by hand: jet fuel 6.7 lb/usgal (common practice) = 6.7 x 0.45359237 / 3.785411784 kg/l
+    # (NIST SP 811 exact factors). Takeoff: 20 l of taxi out of the ferry tank first.
+    rho = 6.7 * 0.45359237 / 3.785411784
+    weight = 3000 + 70 + 600 + 400 + (1100 - 20) * rho
+    moment = 3000 * 5.0 + 70 * 2.5 + 600 * 5.2 + 400 * 7.4 + (280 * 6.5 + 800 * 5.6) * rho
+    # the aft edge, (16.2, 3000) to (27.8, 5230) in moment/1000 and weight; burning b kg from the
+    # ferry tank (6.5 m) moves the point to (moment - 6.5 b, weight - b): it crosses the edge at
+    slope = (27.8 - 16.2) / (5230 - 3000)
+    burned = (moment / 1000 - 16.2 - (weight - 3000) * slope) / (6.5 / 1000 - slope)
+    assert 0 < burned < 280 * rho  # back inside while the ferry tank still feeds
+    (excursion,) = result.burn_path.excursions
+    assert excursion.from_takeoff and not excursion.to_landing and excursion.leaves is None
+    assert excursion.to_burned == pytest.approx(burned, abs=1e-3)
+    assert excursion.returns is not None and excursion.returns.weight == pytest.approx(weight - burned, abs=1e-3)
+    # the words: outside from takeoff, back inside at the figure rounded up; never "leaves" at takeoff
+    sentence = burn_path_sentence(result)
+    assert sentence == (
+        f"the CG is outside the envelope from takeoff until {fmt(burned, 'kg', 'up')} is burned, "
+        "where it comes back inside."
+    )
+    # the drawing: no "path leaves" ring at takeoff; a mark where it comes back in, at that point
+    positions = _marker_positions(svg)
+    assert not any(k.startswith("leaves-at") for k in positions)
+    figure.set_dpi(72)
+    ax = figure.axes[0]
+    x, y = inputs.aircraft.envelopes_for(result.category)[0].shape.coords(weight - burned, moment - 6.5 * burned, 0.0)
+    px, py = ax.transData.transform((float(x), float(y)))
+    sx, sy = positions["returns-at"]
+    assert sx == pytest.approx(px, abs=0.05) and sy == pytest.approx(figure.bbox.height - py, abs=0.05)
+    labels = _label_texts(svg)
+    assert "path back inside" in labels["label-returns-at"]
+    assert "outside from takeoff" in labels["label-takeoff"]
+
+
+def test_a_path_outside_from_takeoff_to_landing_is_said_so_not_until_the_whole_trip_is_burned(tmp_path):
+    _, result, _, svg = _trial_case(tmp_path, ("six.toml", _SIX), _SIX_FWD)
+    # by hand: takeoff 2100 + 400 + 100 + 58.5 x 6 = 2951 lb, moment 176,400 + 32,000 + 2,000 +
+    # 351 x 93 = 243,043 lb-in, CG 82.36 in; the forward limit at 2951 lb is 82 + 6 x 351 / 800 =
+    # 84.63 in: outside; landing 2771 lb, CG (243,043 - 180 x 93) / 2771 = 81.67 in, limit 83.29 in:
+    # outside; the limit moves aft 0.0075 in/lb while burning fuel at 93 in moves the CG forward.
+    (excursion,) = result.burn_path.excursions
+    assert excursion.from_takeoff and excursion.to_landing
+    assert excursion.leaves is None and excursion.returns is None
+    sentence = burn_path_sentence(result)
+    assert sentence == "the CG is outside the envelope the whole way, from takeoff to landing."
+    assert "until" not in sentence and "180.0" not in sentence
+    positions = _marker_positions(svg)
+    assert not any(k.startswith(("leaves-at", "returns-at")) for k in positions)
+    assert "outside from takeoff" in _label_texts(svg)["label-takeoff"]
+
+
+def test_a_path_that_leaves_and_comes_back_has_both_marked():
+    _, result, _, svg = _drawn("twin6/leaves_path.toml")
+    positions = _marker_positions(svg)
+    first = result.burn_path.excursions[0]
+    assert first.leaves is not None and first.returns is not None
+    assert "leaves-at" in positions and "returns-at" in positions
+    assert first.leaves.fuel_burned == pytest.approx(result.burn_path.leaves_at.fuel_burned)
+    assert "where it comes back inside" in burn_path_sentence(result)

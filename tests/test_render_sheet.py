@@ -223,3 +223,43 @@ def test_regression_sheet_condition_rows_read_within_beside_a_burn_path_limit(ru
         assert "inside" in cells and not any("within" in cell for cell in cells), (condition, cells)
     text = " ".join(parser.text)
     assert CONDITION_STATE_HEADING in text and "OUT OF LIMITS" in text.upper()
+
+
+def _moment_rows(html: str) -> dict[str, list[str]]:
+    """The moment table's rows by item name: the head row under "Item", each cell's text."""
+    table = html[html.index("id='moments'") : html.index("</table>", html.index("id='moments'"))]
+    rows = {}
+    for row in re.findall(r"<tr[^>]*>(.*?)</tr>", table, re.S):
+        cells = [" ".join(re.sub(r"<[^>]+>", " ", c).split()) for c in re.findall(r"<t[hd][^>]*>(.*?)</t[hd]>", row)]
+        rows[cells[0]] = cells[1:]
+    return rows
+
+
+def test_regression_sheet_dropped_the_lateral_arm_and_moment_columns(runner, tmp_path):
+    # trial 10, finding 5: the terminal's moment table had the lateral arm and moment, the sheet not.
+    # A signed sheet shows its working: the lateral moments are worked item by item, as fore and aft
+    # (FAA-H-8083-1B, chapter 8, lateral balance: moment = weight x lateral arm).
+    path = tmp_path / "sheet.html"
+    result = runner.invoke(app, ["check", str(sample("heli2/dual.toml")), "--sheet", str(path)])
+    assert result.exit_code == 0
+    rows = _moment_rows(path.read_text())
+    assert rows["Item"] == ["Weight (lb)", "Arm (in)", "Moment (lb·in)", "Lateral arm (in)", "Lateral moment (lb·in)"]
+    # hand-worked from sample_aircraft/heli2/aircraft.toml and dual.toml
+    assert rows["Left seat"] == ["170.0", "74.00", "12,580", "-13.00", "-2,210"]  # 170 x -13
+    assert rows["Left side locker"][3:] == ["-19.00", "-190"]  # 10 x -19
+    assert rows["Basic empty weight"][3:] == ["0.40", "385"]  # 962 x 0.4 = 384.8
+    # 32 usgal x 6.0 lb/usgal = 192 lb at -11.5 in: -2,208
+    assert next(v for k, v in rows.items() if k.startswith("Saddle tank"))[3:] == ["-11.50", "-2,208"]
+    # total: 384.8 - 2210 + 2470 - 190 - 2208 = -1753.2 lb·in over 1,524 lb = -1.15 in
+    assert rows["Total at ramp"] == ["1,524.0", "93.41", "142,352", "-1.15", "-1,753"]
+    # and the figures are the check's, as the terminal shows them
+    _, check = _inputs("heli2/dual.toml")
+    ramp = check.condition("ramp")
+    assert rows["Total at ramp"][3] == fmt(ramp.lateral_arm, "in", with_unit=False)
+    assert rows["Total at ramp"][4] == fmt(ramp.lateral_moment, "lb*in", with_unit=False)
+
+
+def test_sheet_of_an_aircraft_without_lateral_arms_has_no_lateral_columns(runner, tmp_path):
+    path = tmp_path / "sheet.html"
+    runner.invoke(app, ["check", str(sample("twin6/within.toml")), "--sheet", str(path)])
+    assert not any("Lateral" in h for h in _moment_rows(path.read_text())["Item"])

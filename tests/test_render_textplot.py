@@ -33,3 +33,18 @@ def test_regression_no_mark_hides_another_unsaid():
     under = " ".join(said)
     for mark in "RTLZ":
         assert mark in drawn or f"{mark} is under" in under or f"{mark} and" in under, mark
+
+
+def test_regression_text_plot_marks_no_leave_at_a_takeoff_already_outside_and_marks_the_return(tmp_path):
+    # trial 10, finding 9 (the chart's twin here): the path of this loading starts outside at takeoff
+    # and comes back in, so no X (it does not leave) and one O where it returns
+    from .test_render_chart import _CARGO, _CARGO_AFT, _trial_case
+
+    inputs, result, _, _ = _trial_case(tmp_path, ("cargo.toml", _CARGO), _CARGO_AFT)
+    (excursion,) = result.burn_path.excursions
+    assert excursion.from_takeoff and excursion.returns is not None
+    rows = text_plot(inputs.aircraft, result, 60)
+    picture = "\n".join(r for r in rows if r.strip().startswith("|"))
+    said = "\n".join(rows)
+    assert "X" not in picture and "X is under" not in said and "under X" not in said
+    assert "O" in picture or "O is under" in said  # the return lies one character from takeoff here

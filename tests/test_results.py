@@ -49,7 +49,7 @@ def test_the_json_form_holds_every_field_by_its_rule(name):
 
 def test_the_json_form_of_a_trip_names_each_leg(tmp_path):
     # a subclass with fields of its own (TripFinding) converts them; a class with its own
-    # to_dict (TripLeg: the leg's number and label, then its check's fields) keeps it
+    # to_dict (TripLeg: the leg's number, label and stop, then its check's fields) keeps it
     from loadcheck.trip import check_trip
 
     from .test_trip import trip_fleet
@@ -60,4 +60,6 @@ def test_the_json_form_of_a_trip_names_each_leg(tmp_path):
     assert all(f["leg"] == finding.leg for f, finding in zip(data["findings"], result.findings, strict=True))
     assert data["findings"] == _json_form(result.findings)
     for leg, shown in zip(result.legs, data["legs"], strict=True):
-        assert list(shown)[:1] == ["leg"] and shown == {"leg": leg.leg, **_json_form(leg.check)}
+        stop = {} if leg.stop is None else {"stop": _json_form(leg.stop)}
+        assert list(shown)[:1] == ["leg"] and shown == {"leg": leg.leg, **stop, **_json_form(leg.check)}
+    assert "stop" not in data["legs"][0] and all("stop" in leg for leg in data["legs"][1:])

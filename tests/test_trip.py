@@ -18,6 +18,7 @@ handbook finds.
 from __future__ import annotations
 
 import json
+import re
 from pathlib import Path
 
 import pytest
@@ -588,3 +589,115 @@ def test_regression_plan_stop_said_each_leg_lands_with_its_reserve_where_none_wa
     )
     assert dropped.trip is not None and not any(leg.reserve for leg in dropped.trip.legs)  # 0: none to land with
     assert not fuel_to_add(dropped.aircraft, dropped.trip, 2).reserves
+
+
+# -- what changes at a stop: the fuel put in and the load changed (trial 10, finding 6) ------------
+# Hand-worked on sample_aircraft/heli2/trip_drop_off.toml with sample_aircraft/heli2/aircraft.toml:
+# leg 1 starts full (32.0 usgal usable), burns taxi 0.5 + trip 11 = 11.5 usgal and lands with
+# 20.5 usgal; leg 2 puts in 5 usgal of avgas at 6.0 lb/usgal (DESIGN.md's default density,
+# common practice) = 30.0 lb, so the tank holds 25.5 usgal; the left seat goes from 170 to 0 lb
+# and the left side locker from 15 to 0 lb. Filling up to "full" instead puts in 32.0 - 20.5 =
+# 11.5 usgal = 69.0 lb.
+
+_DROP_OFF_STOP = {
+    "fuel": [
+        {"tank": "main", "name": "Saddle tank (left)", "volume": 5.0, "weight": 30.0, "on_board": 25.5, "given": 5.0}
+    ],
+    "stations": [
+        {"station": "left", "name": "Left seat", "from_weight": 170.0, "to_weight": 0.0},
+        {"station": "bag_left", "name": "Left side locker", "from_weight": 15.0, "to_weight": 0.0},
+    ],
+}
+
+
+def _same(got, expected) -> bool:
+    """Nested dictionaries and lists equal, floats within 1e-9 (the figures are exact sums of
+    exact inputs, so only floating-point noise is allowed)."""
+    if isinstance(expected, dict):
+        return isinstance(got, dict) and got.keys() == expected.keys() and all(_same(got[k], expected[k]) for k in got)
+    if isinstance(expected, list):
+        return isinstance(got, list) and len(got) == len(expected) and all(map(_same, got, expected))
+    if isinstance(expected, float):
+        return got == pytest.approx(expected, abs=1e-9)
+    return bool(got == expected)
+
+
+def _drop_off(tmp_path, add_fuel: str | None = None):
+    text = sample("heli2/trip_drop_off.toml").read_text()
+    if add_fuel is not None:
+        text = text.replace("add_fuel = { main = 5 }", f"add_fuel = {{ main = {add_fuel} }}")
+        assert add_fuel in text
+    path = tmp_path / "trip.toml"
+    path.write_text(text.replace('aircraft = "aircraft.toml"', f'aircraft = "{sample("heli2/aircraft.toml")}"'))
+    return path
+
+
+def test_each_leg_after_the_first_carries_the_fuel_put_in_and_the_load_changed_at_its_stop(tmp_path):
+    inputs = load_check_inputs(_drop_off(tmp_path), allow_trip=True)
+    assert inputs.trip is not None
+    result = check_trip(inputs.aircraft, inputs.trip)
+    assert result.legs[0].stop is None
+    stop = result.legs[1].stop
+    assert stop is not None and _same(stop.to_dict(), _DROP_OFF_STOP)
+    # the uplift agrees with the check's own fuel: leg 2's start is leg 1's landing plus the uplift
+    landed = result.legs[0].check.condition("landing").fuel
+    assert result.legs[1].check.condition("ramp").fuel == pytest.approx(landed + stop.fuel[0].volume)
+
+
+def test_a_fill_to_full_at_a_stop_is_said_as_given_and_as_the_volume_that_goes_in(runner, tmp_path):
+    result = runner.invoke(app, ["check", str(_drop_off(tmp_path, '"full"')), "--json"])
+    assert result.exit_code in (0, 1), result.output
+    leg2 = json.loads(result.output)["legs"][1]
+    full = {"tank": "main", "name": "Saddle tank (left)", "volume": 11.5, "weight": 69.0, "on_board": 32.0}
+    assert leg2["stop"]["fuel"] == [{**full, "given": "full"}]
+    assert "stop" not in json.loads(result.output)["legs"][0]
+    text = runner.invoke(app, ["check", str(_drop_off(tmp_path, '"full"'))]).output
+    assert 'Saddle tank (left): 11.5 usgal put in (69.0 lb), as given "full", 32.0 usgal on board after' in " ".join(
+        text.split()
+    )
+
+
+def test_the_trips_json_text_and_sheet_state_the_stop(runner, tmp_path):
+    trip = str(sample("heli2/trip_drop_off.toml"))
+    data = json.loads(runner.invoke(app, ["check", trip, "--json"]).output)
+    assert _same(data["legs"][1]["stop"], _DROP_OFF_STOP)
+    text = " ".join(runner.invoke(app, ["check", trip]).output.split())
+    assert "fuel put in at the stop: Saddle tank (left): 5.0 usgal put in (30.0 lb), 25.5 usgal on board after" in text
+    assert "load changed at the stop: Left seat: from 170.0 lb to 0.0 lb; Left side locker: from 15.0 lb to 0.0 lb" in (
+        text
+    )
+    sheet = tmp_path / "trip.html"
+    assert runner.invoke(app, ["check", trip, "--sheet", str(sheet)]).exit_code == 0
+    html = sheet.read_text()
+
+    def table(tag_id: str) -> str:
+        start = html.index(f"id='{tag_id}'")
+        return " ".join(re.sub(r"<[^>]+>", " ", html[start : html.index("</table>", start)]).split())
+
+    assert "Saddle tank (left) 5 usgal 5.0 30.0 25.5" in table("stop-fuel-2")
+    assert "Left seat 170.0 0.0" in table("stop-load-2") and "Left side locker 15.0 0.0" in table("stop-load-2")
+    assert "id='stop-fuel-1'" not in html
+
+
+def test_a_planned_stop_carries_the_fuel_the_answer_puts_in(tmp_path):
+    inputs = load_check_inputs(_drop_off(tmp_path), allow_trip=True)
+    assert inputs.given is not None
+    plan = fuel_to_add(inputs.aircraft, inputs.given, 2)
+    assert plan.trip is not None
+    stop = plan.trip.legs[1].stop
+    assert stop is not None
+    (uplift,) = stop.fuel
+    # the answer is the most that may be put in: the volume going in is the answer, chosen, not given
+    assert uplift.given is None
+    assert uplift.volume == pytest.approx(plan.answer, abs=0.05)
+    assert uplift.on_board == pytest.approx(20.5 + uplift.volume)
+
+
+def test_fuel_put_in_as_a_mass_or_a_typed_number_is_said_as_given(runner):
+    # 30 lb of avgas at 6.0 lb/usgal (common practice) is 5.0 usgal; "5" typed on the command line
+    # is the number 5 in the fuel volume unit, as 5 in the file is
+    trip = str(sample("heli2/trip_drop_off.toml"))
+    for typed, as_given in (("30 lb", "30 lb"), ("5", 5.0)):
+        out = runner.invoke(app, ["check", trip, "--leg-fuel", f"2:main={typed}", "--json"]).output
+        (uplift,) = json.loads(out)["legs"][1]["stop"]["fuel"]
+        assert uplift["given"] == as_given and uplift["volume"] == pytest.approx(5.0, abs=1e-9)

@@ -3,7 +3,9 @@
 Meaning never rests on colour alone: each condition has its own marker shape and a text
 label, the chosen category's envelope is a solid outline with a light fill, other
 categories are dashed and faint, weight limits are dotted lines with their names, and
-the burn path is a solid dark line with the point where it leaves ringed. Colours come
+the burn path is a solid dark line with each point where it leaves ringed and each point
+where it comes back inside marked by a hollow diamond (a path outside at takeoff is labelled
+as outside from takeoff: it does not leave there). Colours come
 from a palette chosen to stay distinct for colour-blind readers and to stay readable in
 greyscale print.
 
@@ -29,7 +31,7 @@ from typing import TYPE_CHECKING, Any
 from ..aircraft import Aircraft, Envelope
 from ..display import unit_label
 from ..errors import InputError, Problem
-from ..results import CheckResult
+from ..results import CheckResult, Condition
 
 if TYPE_CHECKING:
     from matplotlib.axes import Axes
@@ -249,26 +251,58 @@ def _draw_loading(ax: Axes, envelope: Envelope, result: CheckResult, indices: se
             gid=f"point-{condition.condition}{tag}",
         )
         labels.append(
-            _Label(f"{words}{'' if condition.ok else ' (outside)'}", (x, y), size, f"label-{condition.condition}{tag}")
+            _Label(_point_words(condition, words, result, indices), (x, y), size, f"label-{condition.condition}{tag}")
         )
-    leave = result.burn_path.leaves_at
-    if leave is not None and (leave.envelope is None or leave.envelope in indices):
-        x, y = _coords(envelope, leave.weight, leave.arm, leave.lateral_arm)
-        ax.plot(
-            [x],
-            [y],
-            marker="o",
-            markersize=_LEAVE_SIZE,
-            markerfacecolor="none",
-            markeredgecolor="#CC0000",
-            markeredgewidth=2.2,
-            linestyle="none",
-            zorder=5,
-            label="path leaves the envelope (ring)",
-            gid=f"leaves-at{tag}",
-        )
-        labels.append(_Label("path leaves", (x, y), _LEAVE_SIZE, f"label-leaves-at{tag}"))
+    in_legend: set[str] = set()
+    for k, excursion in enumerate(result.burn_path.excursions):
+        if excursion.envelope is not None and excursion.envelope not in indices:
+            continue  # drawn in the panel of the envelope it leaves
+        suffix = "" if k == 0 else f"-{k + 1}"
+        for point, (words, legend, marker, colour, gid) in (
+            (excursion.leaves, _LEAVES),
+            (excursion.returns, _RETURNS),
+        ):
+            if point is None:  # starts outside at takeoff, or is still outside at landing
+                continue
+            x, y = _coords(envelope, point.weight, point.arm, point.lateral_arm)
+            ax.plot(
+                [x],
+                [y],
+                marker=marker,
+                markersize=_LEAVE_SIZE,
+                markerfacecolor="none",
+                markeredgecolor=colour,
+                markeredgewidth=2.2,
+                linestyle="none",
+                zorder=5,
+                label=None if gid in in_legend else legend,
+                gid=f"{gid}{tag}{suffix}",
+            )
+            in_legend.add(gid)
+            labels.append(_Label(words, (x, y), _LEAVE_SIZE, f"label-{gid}{tag}{suffix}"))
     return labels
+
+
+_LEAVES = ("path leaves", "path leaves the envelope (ring)", "o", "#CC0000", "leaves-at")
+_RETURNS = ("path back inside", "path comes back inside (diamond)", "D", "#0072B2", "returns-at")
+"""The marks where the burn path leaves an envelope and where it comes back inside: the label
+beside the point, the legend's words, the hollow marker, its colour and the element id."""
+
+
+def _point_words(condition: Condition, words: str, result: CheckResult, indices: set[int]) -> str:
+    """A condition's label: its name, "(outside)" where it is out of limits, and at takeoff where the
+    burn path starts outside this panel's envelope, that it is outside from takeoff (it does not leave)."""
+    if condition.ok:
+        return words
+    first = result.burn_path.excursions[0] if result.burn_path.excursions else None
+    if (
+        condition.condition == "takeoff"
+        and first is not None
+        and first.from_takeoff
+        and (first.envelope is None or first.envelope in indices)
+    ):
+        return f"{words} (outside: path outside from takeoff)"
+    return f"{words} (outside)"
 
 
 class _Label:

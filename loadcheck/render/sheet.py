@@ -15,9 +15,9 @@ import re
 from html import escape
 from typing import TYPE_CHECKING, Any
 
-from ..display import Direction, fmt, unit_label
+from ..display import Direction, fmt
 from ..results import CheckResult
-from ..words import burn_path_sentence, sheet_verdict, trip_leg_verdict
+from ..words import burn_path_sentence, given_fuel_words, sheet_verdict, trip_leg_verdict
 
 if TYPE_CHECKING:
     from ..aircraft import Aircraft
@@ -55,6 +55,7 @@ _SHEET_STYLE = """
 body { font-family: "DejaVu Sans", Arial, Helvetica, sans-serif; font-size: 9pt; color: #111; margin: 1.5em; }
 h1 { font-size: 13pt; margin: 0 0 .15em 0; }
 h2 { font-size: 9.5pt; margin: .55em 0 .2em 0; border-bottom: 1px solid #999; }
+h3 { font-size: 9pt; margin: .3em 0 .1em 0; }
 table { border-collapse: collapse; margin: .1em 0; }
 th, td { border: 1px solid #999; padding: .05em .35em; vertical-align: top; }
 th { font-weight: 600; background: #f0f0f0; }
@@ -146,7 +147,6 @@ def load_sheet_html(
     info = result.aircraft
     when = when or dt.datetime.now().astimezone()
     title = f"Load sheet: {info.name}" + (f" · {info.registration}" if info.registration else "")
-    moment = unit_label(units.moment)
     meta = [
         ("Registration", info.registration or ""),
         ("Category", result.category),
@@ -157,9 +157,9 @@ def load_sheet_html(
     ]
     if pilot:
         meta.append(("Pilot in command", pilot))
-    from .terminal import moment_axis, scaled_moment, scaled_moment_header
+    from .terminal import moment_table_columns, moment_table_figures
 
-    scaled = moment_axis(aircraft, result.category)
+    heads, scaled, lateral = moment_table_columns(result, aircraft)
     verdict = verdict or sheet_verdict(len(result.limits_exceeded))
     parts = [
         "<!DOCTYPE html>",
@@ -173,38 +173,29 @@ def load_sheet_html(
         f"<p class='verdict' id='verdict'>{escape(verdict)}</p>",
         "<div class='cols'><div>",
         "<h2>Moment table (engine start)</h2><table id='moments'>",
-        _head(
-            ["Item", f"Weight ({units.mass})", f"Arm ({units.arm})", f"Moment ({moment})"]
-            + ([scaled_moment_header(scaled, units.moment)] if scaled is not None else [])
-        ),
+        _head(["Item", *heads]),
     ]
 
-    def scaled_cell(weight: float, value: float) -> list[str]:
-        if scaled is None:
-            return []
-        return [escape(fmt(scaled_moment(scaled, weight, value), units.moment, with_unit=False, places=1))]
+    def figures(weight: float, arm: float, mom: float, lat: float | None, lat_mom: float | None) -> list[str]:
+        return [escape(f) for f in moment_table_figures(result, scaled, lateral, weight, arm, mom, lat, lat_mom)]
 
     people = loading.names if loading is not None else {}
     for item in result.items:
         name = item.name + (f" ({fmt(item.fuel_volume, units.fuel_volume)})" if item.fuel_volume is not None else "")
         cell = escape(name) + (f" <span class='who'>· {escape(people[item.id])}</span>" if item.id in people else "")
         parts.append(
-            _cells(
-                [cell, _n(item.weight, units.mass), _n(item.arm, units.arm), _n(item.moment, units.moment)]
-                + scaled_cell(item.weight, item.moment)
-            )
+            _cells([cell, *figures(item.weight, item.arm, item.moment, item.lateral_arm, item.lateral_moment)])
         )
     ramp = result.condition("ramp")
     parts.append(
         _cells(
-            ["Total at ramp", _n(ramp.weight, units.mass), _n(ramp.arm, units.arm), _n(ramp.moment, units.moment)]
-            + scaled_cell(ramp.weight, ramp.moment),
+            ["Total at ramp", *figures(ramp.weight, ramp.arm, ramp.moment, ramp.lateral_arm, ramp.lateral_moment)],
             attrs=" class='total' id='total'",
         )
     )
     parts.append(
         "</table><p class='note'>Each figure is rounded on its own; the total is the sum of the unrounded "
-        "figures.</p></div><div>"
+        "figures." + (" Lateral figures are + right of the centre line." if lateral else "") + "</p></div><div>"
     )
     seats = [i for i in result.items if i.kind == "seat"]
     parts.append("<h2>Occupants</h2>")
@@ -339,6 +330,38 @@ def _conditions(result: CheckResult, scaled: Any = None) -> str:
         out.append(f"<tr id='condition-{c.condition}'>{row}</tr>")
     notes = MARGIN_NOTE + (" " + EDGE_NOTE if edge else "") + (" " + NO_RANGE_NOTE if no_cg_range(result) else "")
     out.append(f"</table><p class='note'>{escape(notes)}</p>")
+    return "".join(out)
+
+
+def _stop_tables(number: int, stop: Any, units: Any) -> str:
+    """What changes at the stop before a leg: the fuel put in, tank by tank (as given and as it
+    goes in), and the stations whose load changes, from and to."""
+    volume, mass = units.fuel_volume, units.mass
+    out = ["<div class='cols'><div><h3>Fuel put in at the stop</h3>"]
+    if stop.fuel:
+        out.append(
+            f"<table id='stop-fuel-{number}'>"
+            + _head(["Tank", "As given", f"Put in ({volume})", f"Put in ({mass})", f"On board after ({volume})"])
+        )
+        for u in stop.fuel:
+            given = given_fuel_words(u, units)
+            out.append(
+                _cells(
+                    [escape(u.name), escape(given), _n(u.volume, volume), _n(u.weight, mass), _n(u.on_board, volume)],
+                    numeric_from=2,
+                )
+            )
+        out.append("</table>")
+    else:
+        out.append(f"<p id='stop-fuel-{number}'>None.</p>")
+    out.append("</div><div><h3>Load changed at the stop</h3>")
+    if stop.stations:
+        out.append(f"<table id='stop-load-{number}'>" + _head(["Station", f"From ({mass})", f"To ({mass})"]))
+        out += [_cells([escape(c.name), _n(c.from_weight, mass), _n(c.to_weight, mass)]) for c in stop.stations]
+        out.append("</table>")
+    else:
+        out.append(f"<p id='stop-load-{number}'>None.</p>")
+    out.append("</div></div>")
     return "".join(out)
 
 
@@ -644,7 +667,10 @@ def trip_sheet_html(
         )
         body = section[section.index("<body>") + 6 : section.index("<p class='caution'>")]
         body = (
-            body[: body.index("<h1>")] + f"<h2 id='leg-{leg.leg}'>{escape(name)}</h2>" + body[body.index("</h1>") + 5 :]
+            body[: body.index("<h1>")]
+            + f"<h2 id='leg-{leg.leg}'>{escape(name)}</h2>"
+            + ("" if leg.stop is None else _stop_tables(leg.leg, leg.stop, trip.units))
+            + body[body.index("</h1>") + 5 :]
         )
         parts.append(f"<section class='leg'>{body}</section>")
     if chart_svg:

@@ -39,7 +39,11 @@ __all__ = [
     "CONDITION_STATE_HEADING",
     "Column",
     "condition_verdict",
+    "LATERAL_CELL_NOTE",
+    "fleet_condition_cell",
     "moment_axis",
+    "moment_table_columns",
+    "moment_table_figures",
     "scaled_moment",
     "scaled_moment_header",
     "weight_margin",
@@ -277,34 +281,77 @@ def scaled_moment_header(envelope: Any, moment_unit: str) -> str:
     return f"Moment / {envelope.moment_scale:g} ({unit_label(moment_unit)})"
 
 
-def _moment_table(result: CheckResult, console: Console, aircraft: Aircraft | None = None) -> None:
+def moment_table_columns(result: CheckResult, aircraft: Aircraft | None = None) -> tuple[list[str], Any, bool]:
+    """The headings of the moment table's figure columns, with the scaled-moment envelope (or None)
+    and whether the lateral columns are there: the terminal's table and the load sheet's share them.
+
+    Parameters
+    ----------
+    result : the check
+    aircraft : the aircraft checked; where its envelope is read as moment / 1000, that column is there
+
+    Returns
+    -------
+    headings : weight [mass unit], arm [arm unit], moment [moment unit], then the scaled moment and the
+        lateral arm and moment [arm unit, moment unit] where the check has them
+    scaled : the envelope read on a scaled moment axis, or None
+    lateral : True where the check computed lateral arms (FAA-H-8083-1B ch. 8, lateral balance)
+    """
     units = result.units
     lateral = any(i.lateral_arm is not None for i in result.items)
     scaled = moment_axis(aircraft, result.category)
     moment = unit_label(units.moment)
-    columns = [
-        Column("Item", numeric=False, key=True),
-        Column(f"Weight ({units.mass})"),
-        Column(f"Arm ({units.arm})"),
-        Column(f"Moment ({moment})"),
+    heads = [f"Weight ({units.mass})", f"Arm ({units.arm})", f"Moment ({moment})"]
+    if scaled is not None:
+        heads.append(scaled_moment_header(scaled, units.moment))
+    if lateral:
+        heads += [f"Lateral arm ({units.arm})", f"Lateral moment ({moment})"]
+    return heads, scaled, lateral
+
+
+def moment_table_figures(
+    result: CheckResult,
+    scaled: Any,
+    lateral: bool,
+    weight: float,
+    arm: float,
+    mom: float,
+    lat: float | None,
+    lat_mom: float | None,
+) -> list[str]:
+    """One row's figures of the moment table, in the columns of :func:`moment_table_columns`.
+
+    Parameters
+    ----------
+    result : the check (for its units)
+    scaled : the scaled-moment envelope, or None
+    lateral : whether the lateral columns are there
+    weight : [mass unit]
+    arm : [arm unit]
+    mom : moment [moment unit]
+    lat : lateral arm, + right [arm unit]; none (0) for an item on the centre line
+    lat_mom : lateral moment [moment unit]
+    """
+    units = result.units
+    row = [
+        fmt(weight, units.mass, with_unit=False),
+        fmt(arm, units.arm, with_unit=False),
+        fmt(mom, units.moment, with_unit=False),
     ]
     if scaled is not None:
-        columns.append(Column(scaled_moment_header(scaled, units.moment)))
+        row.append(fmt(scaled_moment(scaled, weight, mom), units.moment, with_unit=False, places=1))
     if lateral:
-        columns += [Column(f"Lateral arm ({units.arm})"), Column(f"Lateral moment ({moment})")]
+        row += [fmt(lat or 0.0, units.arm, with_unit=False), fmt(lat_mom or 0.0, units.moment, with_unit=False)]
+    return row
+
+
+def _moment_table(result: CheckResult, console: Console, aircraft: Aircraft | None = None) -> None:
+    units = result.units
+    heads, scaled, lateral = moment_table_columns(result, aircraft)
+    columns = [Column("Item", numeric=False, key=True), *(Column(h) for h in heads)]
 
     def cells(name: str, weight: float, arm: float, mom: float, lat: float | None, lat_mom: float | None) -> list[Cell]:
-        row: list[Cell] = [
-            name,
-            fmt(weight, units.mass, with_unit=False),
-            fmt(arm, units.arm, with_unit=False),
-            fmt(mom, units.moment, with_unit=False),
-        ]
-        if scaled is not None:
-            row.append(fmt(scaled_moment(scaled, weight, mom), units.moment, with_unit=False, places=1))
-        if lateral:
-            row += [fmt(lat or 0.0, units.arm, with_unit=False), fmt(lat_mom or 0.0, units.moment, with_unit=False)]
-        return row
+        return [name, *moment_table_figures(result, scaled, lateral, weight, arm, mom, lat, lat_mom)]
 
     rows = []
     for item in result.items:
@@ -1076,9 +1123,36 @@ def flight_reference(row: Any) -> str:
     return (row.reference or "") + (f"\n{row.date}" if row.date else "")
 
 
+LATERAL_CELL_NOTE = "lat.: the lateral CG, + right of the centre line, under the fore-and-aft CG."
+
+
+def fleet_condition_cell(condition: dict[str, Any], units: dict[str, str]) -> str:
+    r"""A condition in the fleet table: weight over CG and, for an aircraft with lateral arms, the
+    lateral CG under them (as the single check's conditions table shows it), each with its unit.
+
+    Parameters
+    ----------
+    condition : a condition of a check's JSON form (``weight`` [mass unit], ``arm`` and
+        ``lateral_arm``? [arm unit])
+    units : the check's JSON ``units``
+
+    Examples
+    --------
+    >>> units = {"mass": "lb", "arm": "in"}
+    >>> fleet_condition_cell({"weight": 1774.0, "arm": 40.17, "lateral_arm": 1.556}, units)
+    '1,774.0 lb\n40.17 in\nlat. 1.56 in'
+    >>> fleet_condition_cell({"weight": 2450.0, "arm": 88.1}, units)
+    '2,450.0 lb\n88.10 in'
+    """
+    cell = f"{fmt(condition['weight'], units['mass'])}\n{fmt(condition['arm'], units['arm'])}"
+    lateral = condition.get("lateral_arm")
+    return cell if lateral is None else f"{cell}\nlat. {fmt(lateral, units['arm'])}"
+
+
 def render_fleet(flights: list[Any], console: Console, file_problems: Sequence[str] = ()) -> None:
     """One row per flight: line, registration, the verdict and under it the first finding,
-    reference, takeoff and landing weight over CG (the verdict and its reason come first, so
+    reference, takeoff and landing weight over CG, and under them the lateral CG for an aircraft
+    with lateral arms (:func:`fleet_condition_cell`; the verdict and its reason come first, so
     that they stay beside the flight's name however narrow the terminal).
 
     A flight within limits but with warnings (fuel below the reserve, an assumption made)
@@ -1123,8 +1197,8 @@ def render_fleet(flights: list[Any], console: Console, file_problems: Sequence[s
                 row.registration or "",
                 verdict + Text(f"\n{first}" if first else ""),
                 flight_reference(row),
-                f"{fmt(takeoff['weight'], units['mass'])}\n{fmt(takeoff['arm'], units['arm'])}",
-                f"{fmt(landing['weight'], units['mass'])}\n{fmt(landing['arm'], units['arm'])}",
+                fleet_condition_cell(takeoff, units),
+                fleet_condition_cell(landing, units),
             ]
         )
     columns = [
@@ -1148,6 +1222,8 @@ def render_fleet(flights: list[Any], console: Console, file_problems: Sequence[s
         )
     else:
         _print_table(console, "Flights", columns, rows)
+    if any("\nlat. " in _plain(c) for r in rows for c in r[4:]):
+        console.print(Text(LATERAL_CELL_NOTE, style="dim"))
     out = sum(1 for f in flights if f.result is not None and not f.ok)
     bad = sum(1 for f in flights if f.result is None)
     within = len(flights) - out - bad

@@ -2,8 +2,9 @@
 
 Characters only: the envelope outline in ``#`` (other categories are not drawn), the burn
 path in ``.``, the conditions as ``R`` (ramp), ``T`` (takeoff), ``L`` (landing), ``Z``
-(zero fuel), ``X`` where the path leaves. Resolution is one character: the tables above
-it carry the numbers; marks that fall in one character are said under the legend ("R is under
+(zero fuel), ``X`` where the path leaves, ``O`` where it comes back inside (a path outside
+at takeoff has no ``X`` there: it does not leave). Resolution is one character: the tables
+above it carry the numbers; marks that fall in one character are said under the legend ("R is under
 T"), so that no mark hides another unsaid. The picture is drawn for the width it is given (the console's), and
 the words around it wrap to that width.
 """
@@ -20,7 +21,7 @@ __all__ = ["text_plot"]
 _MARKS = {"ramp": "R", "takeoff": "T", "landing": "L", "zero_fuel": "Z"}
 
 
-_LEGEND = ("R ramp", "T takeoff", "L landing", "Z zero fuel", ". burn path", "X leaves")
+_LEGEND = ("R ramp", "T takeoff", "L landing", "Z zero fuel", ". burn path", "X leaves", "O back inside")
 _LEFT = 12  # the y labels and the left frame: "{label:>10} +"
 _MIN_GRID = 20
 
@@ -74,9 +75,10 @@ def _panel(envelope: Envelope, result: CheckResult, width: int, height: int, lin
     for x, y in path:
         put(x, y, ".")
     marks: dict[tuple[int, int], list[str]] = {}  # the marks that fall in each character cell, in drawing order
-    leave = result.burn_path.leaves_at
-    if leave is not None:
-        marks.setdefault(cell(*_xy(envelope, leave.weight, leave.arm, leave.lateral_arm)), []).append("X")
+    for excursion in result.burn_path.excursions:  # a path outside at takeoff does not leave there
+        for point, mark in ((excursion.leaves, "X"), (excursion.returns, "O")):
+            if point is not None:
+                marks.setdefault(cell(*_xy(envelope, point.weight, point.arm, point.lateral_arm)), []).append(mark)
     for name, (x, y) in points.items():
         marks.setdefault(cell(x, y), []).append(_MARKS[name])
     hidden: list[str] = []  # no mark hides another unsaid: the ones under the mark shown are listed

@@ -16,7 +16,7 @@ from rich.text import Text
 
 from ..display import fmt
 from ..results import TripLeg, TripResult
-from ..words import count, stretch_text
+from ..words import count, stop_lines, stretch_text
 from .terminal import (
     Column,
     _burn_line,
@@ -26,6 +26,7 @@ from .terminal import (
     _moment_table,
     _print_table,
     caution_text,
+    fleet_condition_cell,
     flight_reference,
 )
 
@@ -70,13 +71,17 @@ def render_trip(result: TripResult, console: Console, plots: Sequence[Sequence[s
 
 
 def _legs(result: TripResult, console: Console, plots: Sequence[Sequence[str]] = ()) -> None:
-    """Each leg as ``check`` shows a loading: its verdict, fuel, moment table, conditions, burn
+    """Each leg as ``check`` shows a loading: its verdict, what changed at the stop before it
+    (the fuel put in and the stations whose load changed), fuel, moment table, conditions, burn
     path and findings (tagged with the leg), and its text plot if given."""
     units = result.units
     for index, leg in enumerate(result.legs):
         check = leg.check
         state = "within limits" if check.ok else "OUT OF LIMITS"
         console.print(Text(f"{_leg_title(leg)}: {state}", style=_OK_STYLE if check.ok else _LIMIT_STYLE))
+        if leg.stop is not None:
+            for line in stop_lines(leg.stop, units):
+                console.print(line, markup=False)
         ramp, landing = check.condition("ramp"), check.condition("landing")
         console.print(
             f"fuel at engine start {fmt(ramp.fuel, units.fuel_volume)}, at landing "
@@ -134,7 +139,8 @@ def fleet_trip_rows(flight: Any) -> list[list[str | Text]]:
     """The rows of a trip in the fleet check's table (loadcheck.render.terminal.render_fleet):
     the trip's verdict and its first finding (which names its leg and condition), then one row
     per leg with its CSV line, its verdict and first finding (named by leg), its takeoff and
-    landing weight and CG. ``flight`` is a :class:`loadcheck.fleet.Flight` of a trip."""
+    landing weight and CG (and lateral CG, :func:`~loadcheck.render.terminal.fleet_condition_cell`).
+    ``flight`` is a :class:`loadcheck.fleet.Flight` of a trip."""
     from ..trip import leg_name
 
     row, result = flight.row, flight.result
@@ -164,8 +170,8 @@ def fleet_trip_rows(flight: Any) -> list[list[str | Text]]:
                 row.registration or "",
                 Text(f"{name}: ") + verdict + Text(f"\n{name}: {first}" if first else ""),
                 name,
-                f"{fmt(takeoff['weight'], units['mass'])}\n{fmt(takeoff['arm'], units['arm'])}",
-                f"{fmt(landing['weight'], units['mass'])}\n{fmt(landing['arm'], units['arm'])}",
+                fleet_condition_cell(takeoff, units),
+                fleet_condition_cell(landing, units),
             ]
         )
     return rows
