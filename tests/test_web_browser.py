@@ -173,8 +173,9 @@ def test_mechanic_records_a_weighing_and_the_next_check_uses_it(browser: Any, se
     from loadcheck.display import fmt
     from loadcheck.empty_record import propose
 
-    expected = propose(
-        server["fleet"] / "trainer4" / "aircraft.toml", SAMPLES / "trainer4" / "weighing.toml", "weighing"
+    aircraft_file = server["fleet"] / "trainer4" / "aircraft.toml"
+    expected = propose(  # the readings' aircraft key read beside the desk's copy, as the desk reads an upload
+        aircraft_file, SAMPLES / "trainer4" / "weighing.toml", "weighing", relative_to=aircraft_file.parent
     ).result.new
     mechanic = _page(browser, server, "mo", width=360)
     mechanic.click("a[href='/mechanic/DEMO-4T']")
