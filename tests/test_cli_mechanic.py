@@ -309,3 +309,23 @@ def test_regression_meto_was_named_as_read_or_refused_in_the_frameworks_words(ru
     assert said.exit_code == 2
     assert f"--meto {shlex.quote(typed)}: the maximum-except-takeoff power must be a number above zero" in said.output
     assert "Input should be" not in said.output
+
+
+def test_regression_schedule_fuel_did_not_add_up_to_the_fuel_checked(runner):
+    """An outside trial: the schedule said "fuel: mains 34.9 usgal, aux 11.6 usgal" (46.5) beside "from
+    46.6 usgal at engine start" and a moment table of 35.0: each tank's most is rounded down, the total
+    and the tables are not. The line now says its figures are each rounded down, and each is the tank's
+    fuel checked rounded down to 0.1 (common practice: a most is rounded down)."""
+    import re
+
+    plane = str(sample("twin6/aircraft.toml"))
+    cases = json.loads(runner.invoke(app, ["schedule", plane, "--json"]).stdout)["cases"]
+    text = " ".join(runner.invoke(app, ["schedule", plane]).output.split())
+    lines = re.findall(r"fuel \(each tank rounded down\): (.*?) fuel states checked", text)
+    assert len(lines) == len(cases) >= 1
+    for line, case in zip(lines, cases, strict=True):
+        shown = [float(x.replace(",", "")) for x in re.findall(r"([\d,]+\.\d) usgal", line)]
+        checked = list(case["fuel"].values())
+        assert len(shown) == len(checked)
+        for figure, amount in zip(shown, checked, strict=True):
+            assert figure <= amount + 1e-9 and amount - figure < 0.1 + 1e-9, (figure, amount)

@@ -1089,11 +1089,12 @@ def render_schedule(result: Any, aircraft: Aircraft, console: Console) -> None:
             for s, w in case.load.items()
             if aircraft.station_by_id[s].kind != "seat" and w > 0
         ]
-        _indented(console, f"baggage, cargo and fixed items: {', '.join(other) or 'none'}")
+        # the most of each a case may carry, rounded down (the tables round to the nearest figure)
+        _indented(console, f"baggage, cargo and fixed items (each rounded down): {', '.join(other) or 'none'}")
         fuel = ", ".join(
             f"{aircraft.tank_by_id[t].name} {fmt(q, units.fuel_volume, 'down')}" for t, q in case.fuel.items()
         )
-        _indented(console, f"fuel: {fuel or 'none'}")
+        _indented(console, f"fuel (each tank rounded down): {fuel or 'none'}")
         _indented(console, f"fuel states checked: {case.fuel_states}")
         checked_loading(case.check, console, aircraft)
     console.print(caution_text(result.caution))
