@@ -345,6 +345,9 @@ def _search(aircraft: Aircraft, category: str, occupant: float, min_fuel: float 
     pilots = _pilot_seats(aircraft)
     fuel_states, orders_cut = _fuel_loads(aircraft, min_fuel)
     base = _station_loads(aircraft, occupant, pilots)
+    if len(pilots) == 1:  # the pilot is always aboard: the one pilot's seat takes no load without the pilot
+        k = aircraft.station.index(pilots[0])
+        base[k] = [w for w in base[k] if w >= _pilot_weight(pilots[0], occupant) * (1 - 1e-12)]
     groups, weights = _shared_limits(aircraft, min_fuel)
     grouped, groups_cut = _fill_loads(aircraft, base, groups, 2)
     filled, weights_cut = _fill_loads(aircraft, grouped, weights, 1)
@@ -367,7 +370,11 @@ def _search(aircraft: Aircraft, category: str, occupant: float, min_fuel: float 
             f"search bound: {room * len(fuel_states):,} of {total * len(fuel_states):,} candidate loadings "
             "searched; the answer may not be the extreme"
         )
-    rows = np.array(list(itertools.islice(itertools.product(*loads), room)), dtype=float).reshape(
+    # a cut search takes combinations spread evenly over all of them, not the first ones
+    sizes = [len(v) for v in loads]
+    picked = np.unique(np.linspace(0, total - 1, min(total, room)).round().astype(np.int64))
+    digits = np.unravel_index(picked, sizes) if sizes else ()
+    rows = np.array([np.asarray(v, dtype=float)[d] for v, d in zip(loads, digits, strict=True)]).T.reshape(
         -1, len(aircraft.station)
     )
     index = {s.id: i for i, s in enumerate(aircraft.station)}
@@ -375,6 +382,8 @@ def _search(aircraft: Aircraft, category: str, occupant: float, min_fuel: float 
     for pilot in pilots:
         seated |= rows[:, index[pilot.id]] >= _pilot_weight(pilot, occupant) * (1 - 1e-12)
     rows = rows[seated]
+    if not len(rows):
+        raise InputError(Problem("station", "no loading searched seats the pilot: the search bound cut them all"))
     fuel = np.array(fuel_states, dtype=float).reshape(len(fuel_states), len(aircraft.tank))
     stations = np.repeat(rows, len(fuel), axis=0)
     fuels = np.tile(fuel, (len(rows), 1))
@@ -420,13 +429,18 @@ def _side_margin(check: CheckResult, side: Side, zero_fuel_limit: bool) -> float
 
 
 def _shortlist(weights: np.ndarray, values: np.ndarray, rows: np.ndarray) -> np.ndarray:
-    """Of the rows of each weight, the one with the least value (the first of equals)."""
+    """Of the rows of each weight, those with the least value (every one of equals: they may
+    differ on another limit)."""
     if not len(rows):
         return rows
     w = np.round(weights[rows], 6)
-    order = np.lexsort((rows, values[rows], w))
-    keep = np.ones(len(order), dtype=bool)
-    keep[1:] = w[order][1:] != w[order][:-1]
+    v = values[rows]
+    order = np.lexsort((rows, v, w))
+    start = np.ones(len(order), dtype=bool)
+    start[1:] = w[order][1:] != w[order][:-1]
+    first = np.maximum.accumulate(np.where(start, np.arange(len(order)), 0))
+    least = v[order][first]
+    keep = v[order] <= least + 1e-9 * np.maximum(1.0, np.abs(least))
     return np.sort(rows[order[keep]])
 
 
@@ -442,14 +456,17 @@ def _pick(aircraft: Aircraft, category: str, found: _Search, side: Side) -> tupl
         values = (found.lateral_arm if lateral else found.arm)[condition] * _TOWARD[side]
         chosen.append(_shortlist(found.weight[condition], values, rows))
     short = np.unique(np.concatenate(chosen))
-    best: tuple[float, int] | None = None
+    best: tuple[float, int, bool] | None = None  # margin, row, within every limit
     for start in range(0, len(short), _CHUNK):
         part = short[start : start + _CHUNK]
         checks = check_many(aircraft, [_static(aircraft, category, found.stations[i], found.fuel[i]) for i in part])
         for i, check in zip(part, checks, strict=True):
             margin = _side_margin(check, side, zero_fuel_limit)
-            if margin is not None and (best is None or margin < best[0] - 1e-9):
-                best = (margin, int(i))
+            if margin is None:
+                continue
+            # the least margin; of equal margins, one out of some other limit first (fail closed)
+            if best is None or margin < best[0] - 1e-9 or (margin <= best[0] + 1e-9 and best[2] and not check.ok):
+                best = (margin, int(i), check.ok)
     if best is None:
         return int(rows[0]), None, len(short)
     return best[1], best[0], len(short)

@@ -570,3 +570,42 @@ def test_property_no_permitted_grid_loading_has_less_margin_than_the_extreme(dat
         found = case.check.condition("ramp").margins
         reported = found.forward if case.side == "forward" else found.aft
         assert _brute_force_margins(aircraft, case.side) >= reported - 1e-6, case.side
+
+
+def test_regression_a_cut_search_still_seats_the_pilot_and_says_it_was_cut():
+    # a search past SEARCH_BOUND took the first combinations, every one with the pilot's seat
+    # empty, and stopped on an empty list; it now takes combinations spread over all of them and
+    # says that the bound cut it (AC 43.13-1B 10-17: the pilot always aboard; common practice)
+    stations = [{"id": "front", "arm": 80.0, "kind": "seat", "seats": 2, "max_weight": 400.0, "controls": True}]
+    stations += [
+        {"id": f"row{i}", "arm": 90.0 + 10 * i, "kind": "seat", "seats": 3, "max_weight": 600.0} for i in range(4)
+    ]
+    stations += [{"id": f"hold{i}", "arm": 20.0 + 30 * i, "kind": "baggage", "max_weight": 100.0} for i in range(6)]
+    aircraft = simple_aircraft(
+        empty={"weight": 3000.0, "arm": 90.0},
+        limits={"max_takeoff_weight": 8000.0},
+        meto_power_hp=300,
+        station=stations,
+        tank=[{"id": f"tank{i}", "arm": 85.0 + 5 * i, "usable": 40.0, "fuel": "avgas"} for i in range(4)],
+        envelope=[
+            {
+                "category": "normal",
+                "axes": ["arm", "weight"],
+                "points": [[70, 2000], [70, 8000], [120, 8000], [120, 2000]],
+            }
+        ],
+    )
+    result = extremes(aircraft)
+    for case in result.cases:
+        assert any(n.startswith("search bound:") and "may not be the extreme" in n for n in case.notes)
+        assert {i.id: i.weight for i in case.check.items}["front"] >= 170.0
+        assert case.ok == case.check.ok
+
+
+def test_of_equal_margins_the_extreme_is_one_out_of_another_limit():
+    # heli2 (invented sample): the pilot in the left or the right seat gives the same rearward CG
+    # (the seats share one arm); with the left saddle tank full, the left seat is also left of the
+    # lateral limit. Of equal margins the one out of limits is reported (fail closed; common practice)
+    aircraft = load_aircraft(sample("heli2/aircraft.toml"))
+    case = extremes(aircraft, meto_hp=150).rearward
+    assert not case.ok and any(f.code.startswith("envelope") or "lateral" in f.message for f in case.check.findings)
