@@ -21,11 +21,18 @@ seats and baggage or a lateral limit defeats it. So each case here is found by a
 - every combination is evaluated by the engine (:func:`~loadcheck.engine.evaluate`, in
   chunks); a combination is permitted where it keeps every station, group and weight limit;
   the permitted ones are checked (:func:`~loadcheck.check.check_many`, after keeping, for
-  each weight, the one farthest toward the side) and the one with the least margin to
-  that side's limit at its own weight is the extreme (a negative margin: out of limits).
+  each weight, those farthest toward the side) and the one with the least margin to that
+  side's limit at its own weight is the extreme (a negative margin: out of limits); of
+  equal margins, one out of another limit is taken (fail closed).
 
-At most :data:`SEARCH_BOUND` combinations are searched; where that bound cuts the search
-the case's notes say so. Each extreme is a placard-type answer: it is checked in full
+The least margin lies at such a corner of the loads where the margin, along any line of
+loadings, is monotone or concave: a CG limit fixed or moving away from the CG as weight
+grows (a forward limit that moves aft with weight, bending aft). A limit that moves toward
+the CG with weight can have its least margin at a partial load the search does not try.
+At most :data:`SEARCH_BOUND` combinations are searched; where that bound cuts the search,
+it takes combinations spread evenly over all of them and the case's notes say so.
+
+Each extreme is a placard-type answer: it is checked in full
 (:func:`~loadcheck.check.check_loading`) as a flight that burns from the fuel it states
 down to the minimum fuel for balance, every tank burning in proportion to its fuel, and
 its verdict is that check's verdict.
