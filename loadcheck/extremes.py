@@ -1,54 +1,77 @@
 """Weight and balance extreme conditions (AC 43.13-1B chapter 10, paragraph 10-17).
 
-The most forward loading puts at their maximum the items of useful load that lie ahead of
-the forward CG limit and leaves out (or at their minimum) those behind it, with the pilot
-in the farthest-forward seat that has flight controls; the most rearward loading puts at
-their maximum the items behind the rearward limit and leaves out those ahead of it, with
-the pilot in the most rearward seat with controls. Fuel: full where the tank lies on the
-side of the limit that makes the case worse, else the minimum fuel for balance, 1/12 US
-gallon per maximum-except-takeoff horsepower (METO), AC 43.13-1B 10-2 p (figures 10-10 and
-10-11 show both checks).
+The most forward loading is the loading the aircraft's limits permit that comes closest to
+(or goes past) the forward CG limit at its own weight; the most rearward loading the same
+for the rearward limit; and where the category has a lateral envelope, the most left and
+most right loadings the same for the lateral limits. AC 43.13-1B 10-17 (figures 10-10 and
+10-11) builds them by loading the items ahead of (behind) the limit to their maximum; that
+sort needs one limit arm, and a limit that moves with weight, a station group shared by
+seats and baggage or a lateral limit defeats it. So each case here is found by a search:
 
-The limits used to sort the items are the envelope's most forward and most rearward arm
-(common practice where the limits vary with weight). The pilot is always aboard and is
-seated first, at the standard occupant weight (never below the seat's minimum weight);
-where the pilot's seat itself lies on the worse side of the limit that weight is the
-heaviest the method puts there ("items ahead of the forward limit at their maximum", with
-occupants at the standard weight as in figures 10-10 and 10-11), capped at the seat's
-maximum weight. The other items on the worse side are then put at their maximum
-farthest-first (seats: as many standard occupants as fit), each within the room its
-station groups leave; every other station carries its minimum weight. Each extreme is a
-placard-type answer: it is checked in full (:func:`~loadcheck.check.check_loading`) as a
-flight that burns from the fuel it states down to the minimum fuel for balance (or to zero
-usable fuel where none is named), every tank burning in proportion to its fuel, and its
-verdict is that check's verdict.
+- every station takes each of a few loads: its minimum, its maximum, and for a seat every
+  whole number of standard occupants that fits (``seats = N``); the pilot's seat with
+  flight controls (``controls = true``, else the first seat) always holds at least one
+  occupant (at the standard weight, or the seat's maximum where that is less);
+- where a station group (or the maximum zero-fuel or takeoff weight) limits several
+  stations together, a baggage, cargo or other station also takes what the group leaves
+  after every load of the others ("fill the rest");
+- fuel: every choice of tanks filled full, and the minimum fuel for balance (1/12 US
+  gallon per maximum-except-takeoff horsepower, AC 43.13-1B 10-2 p) less what those hold
+  put tank by tank in every order of the other tanks;
+- every combination is evaluated by the engine (:func:`~loadcheck.engine.evaluate`, in
+  chunks); a combination is permitted where it keeps every station, group and weight limit;
+  the permitted ones are checked (:func:`~loadcheck.check.check_many`, after keeping, for
+  each weight, those farthest toward the side) and the one with the least margin to that
+  side's limit at its own weight is the extreme (a negative margin: out of limits); of
+  equal margins, one out of another limit is taken (fail closed).
+
+The least margin lies at such a corner of the loads where the margin, along any line of
+loadings, is monotone or concave: a CG limit fixed or moving away from the CG as weight
+grows (a forward limit that moves aft with weight, bending aft). A limit that moves toward
+the CG with weight can have its least margin at a partial load the search does not try.
+At most :data:`SEARCH_BOUND` combinations are searched; where that bound cuts the search,
+it takes combinations spread evenly over all of them and the case's notes say so.
+
+Each extreme is a placard-type answer: it is checked in full
+(:func:`~loadcheck.check.check_loading`) as a flight that burns from the fuel it states
+down to the minimum fuel for balance, every tank burning in proportion to its fuel, and
+its verdict is that check's verdict.
 """
 
 from __future__ import annotations
 
+import itertools
 import math
+from collections.abc import Sequence
 from dataclasses import dataclass, replace
 from typing import Literal
 
-from .aircraft import Aircraft
+import numpy as np
+
+from .aircraft import Aircraft, Station
 from .caution import MECHANIC_CAUTION
-from .check import check_loading
+from .check import check_loading, check_many
 from .display import fmt
-from .engine import load_room
+from .engine import evaluate
 from .errors import InputError, Problem, UnitError
 from .loading import BurnPlan, ResolvedLoading
-from .results import CheckResult, Result
+from .results import CheckResult, ConditionName, Result
 from .units import convert, parse_quantity
 
 __all__ = [
+    "SEARCH_BOUND",
     "STANDARD_OCCUPANT_LB",
     "ExtremeCase",
     "ExtremesResult",
+    "Side",
     "extremes",
     "minimum_fuel",
     "seat_order",
     "standard_occupant",
 ]
+
+Side = Literal["forward", "rearward", "left", "right"]
+"""The side of an extreme loading: the CG limit it comes closest to."""
 
 STANDARD_OCCUPANT_LB = 170.0
 """Standard occupant weight used by AC 43.13-1B figures 10-10 and 10-11 [lb]."""
@@ -58,10 +81,12 @@ STANDARD_OCCUPANT_LB = 170.0
 class ExtremeCase(Result):
     """One extreme loading: which side, how it was built, the fuel range covered, and its check.
 
-    ``ok`` is the full check's verdict over the fuel range in ``fuel_states``.
+    ``ok`` is the full check's verdict over the fuel range in ``fuel_states``. ``limit_arm`` is
+    the side's limit at the loading's ramp weight: a CG arm for forward and rearward, a
+    lateral arm for left and right [arm unit].
     """
 
-    side: Literal["forward", "rearward"]
+    side: Side
     ok: bool
     limit_arm: float
     notes: list[str]
@@ -71,7 +96,10 @@ class ExtremeCase(Result):
 
 @dataclass(frozen=True, kw_only=True, slots=True)
 class ExtremesResult(Result):
-    """Both extreme checks; ``ok`` when both are within limits."""
+    """The extreme checks; ``ok`` when every one is within limits.
+
+    ``left`` and ``right`` are there where the category has a lateral envelope, else None.
+    """
 
     aircraft: str
     category: str
@@ -80,7 +108,14 @@ class ExtremesResult(Result):
     ok: bool
     forward: ExtremeCase
     rearward: ExtremeCase
+    left: ExtremeCase | None = None
+    right: ExtremeCase | None = None
     caution: str = MECHANIC_CAUTION
+
+    @property
+    def cases(self) -> list[ExtremeCase]:
+        """Every extreme checked: forward, rearward, then left and right where there are."""
+        return [c for c in (self.forward, self.rearward, self.left, self.right) if c is not None]
 
 
 def standard_occupant(aircraft: Aircraft, given: float | None = None) -> float:
@@ -138,130 +173,467 @@ def minimum_fuel(aircraft: Aircraft, meto_hp: float | str) -> float:
     return convert(meto_hp / 12.0, "usgal", aircraft.units.fuel_volume)
 
 
-def _limits(aircraft: Aircraft, category: str) -> tuple[float, float]:
-    arms = []
-    for envelope in aircraft.envelopes_for(category):
-        if envelope.is_lateral:
-            continue
-        lo, hi = envelope.shape.arm_range()
-        arms += [lo, hi]
-    if not arms:
-        raise InputError(Problem("envelope", f"no longitudinal envelope in category {category!r}"))
-    return min(arms), max(arms)
+SEARCH_BOUND = 200_000
+"""At most this many candidate loadings are searched for one aircraft [count]."""
+
+_CHUNK = 20_000
+"""Candidate loadings given to the engine at once [count]."""
+
+_FILL_COMBOS = 4_096
+"""At most this many loads of the other stations are combined into one station's "fill the rest" loads [count]."""
+
+_ORDERS = 5_040
+"""At most this many orders of the tanks are tried for the minimum fuel (7 tanks) [count]."""
+
+_MARGIN = {"forward": "forward", "rearward": "aft", "left": "left", "right": "right"}
+_TOWARD = {"forward": 1.0, "rearward": -1.0, "left": 1.0, "right": -1.0}
+_BEYOND = {
+    "forward": "ahead of the forward",
+    "rearward": "behind the rearward",
+    "left": "left of the left",
+    "right": "right of the right",
+}
+_FARTHEST = {"forward": "farthest-forward", "rearward": "most rearward", "left": "leftmost", "right": "rightmost"}
 
 
-def _seat_note(name: str, people: int, aboard: int, occupant: float, total: float, mass: str, beyond: str) -> str:
-    """How a seat station on the worse side of the limit was loaded, in words."""
+def _lateral(value: float | None) -> float:
+    return 0.0 if value is None else value
+
+
+def _pilot_seats(aircraft: Aircraft) -> list[Station]:
+    """The seats a pilot may sit in: those with flight controls, else the first seat."""
+    seats = [s for s in aircraft.station if s.kind == "seat"]
+    pilots = [s for s in seats if s.controls] or seats[:1]
+    if not pilots:
+        raise InputError(Problem("station", "the aircraft has no seat station for the pilot"))
+    return pilots
+
+
+def _pilot_weight(station: Station, occupant: float) -> float:
+    """The least a seat holds with the pilot aboard [mass unit]: one standard occupant, or the
+    seat's maximum where that is less."""
+    return occupant if station.max_weight is None else min(occupant, station.max_weight)
+
+
+def _station_loads(aircraft: Aircraft, occupant: float, pilots: Sequence[Station]) -> list[list[float]]:
+    """The loads each station takes in the search: minimum, maximum, whole occupants [mass unit]."""
+    loads = []
+    for station in aircraft.station:
+        least = station.min_weight or 0.0
+        most = station.max_weight
+        found = {least}
+        if station.kind == "seat":
+            for count in range(1, (station.seats or 1) + 1):
+                weight = max(count * occupant, least)
+                if most is not None and weight > most * (1 + 1e-12):
+                    if count == 1 and station in pilots:  # the pilot at the seat's maximum
+                        found.add(most)
+                    break
+                found.add(weight)
+        elif most is not None:
+            found.add(most)
+        loads.append(sorted(found))
+    return loads
+
+
+def _shared_limits(
+    aircraft: Aircraft, min_fuel: float | None
+) -> tuple[list[tuple[tuple[int, ...], float]], list[tuple[tuple[int, ...], float]]]:
+    """Limits shared by several stations [mass unit]: each station group's maximum; and the
+    weight left for all the stations under the maximum zero-fuel weight and (with the
+    minimum fuel) under the maximum takeoff weight."""
+    index = {s.id: i for i, s in enumerate(aircraft.station)}
+    groups = [
+        (tuple(index[m] for m in g.stations), g.max_weight) for g in aircraft.station_group if g.max_weight is not None
+    ]
+    every = tuple(range(len(aircraft.station)))
+    empty = aircraft.empty.weight
+    weights = []
+    if aircraft.limits.max_zero_fuel_weight is not None:
+        weights.append((every, aircraft.limits.max_zero_fuel_weight - empty))
+    fuel_mass = min((aircraft.density(t) for t in aircraft.tank), default=0.0) * (min_fuel or 0.0)
+    weights.append((every, aircraft.limits.max_takeoff_weight - empty - fuel_mass))
+    return groups, weights
+
+
+def _fill_loads(
+    aircraft: Aircraft, loads: list[list[float]], shared: Sequence[tuple[tuple[int, ...], float]], rounds: int
+) -> tuple[list[list[float]], bool]:
+    """Add to each baggage, cargo or other station what a shared limit leaves after the other
+    stations' loads ("fill the rest"), ``rounds`` times over (a fill may make room for another).
+
+    Returns the loads and whether :data:`_FILL_COMBOS` left some fills out.
+    """
+    cut = False
+    for _ in range(rounds):
+        grown = [set(v) for v in loads]
+        for members, limit in shared:
+            for j in members:
+                station = aircraft.station[j]
+                if station.kind == "seat":
+                    continue
+                others = [loads[i] for i in members if i != j]
+                if math.prod(len(o) for o in others) > _FILL_COMBOS:
+                    cut = True
+                    continue
+                least = station.min_weight or 0.0
+                most = math.inf if station.max_weight is None else station.max_weight
+                for combo in itertools.product(*others):
+                    rest = limit - sum(combo)
+                    if least < rest < most:
+                        grown[j].add(rest)
+        loads = [sorted(v) for v in grown]
+    return loads, cut
+
+
+def _fuel_loads(aircraft: Aircraft, min_fuel: float | None) -> tuple[list[tuple[float, ...]], bool]:
+    """The fuel states searched: each choice of full tanks, and the rest of the minimum fuel
+    put tank by tank in each order of the other tanks [fuel volume unit].
+
+    Returns the states and whether :data:`_ORDERS` left some orders out.
+
+    Raises
+    ------
+    InputError
+        Where the aircraft has tanks and no minimum fuel for balance is known.
+    """
+    tanks = aircraft.tank
+    if not tanks:
+        return [()], False
+    if min_fuel is None:
+        raise InputError(
+            Problem(
+                "meto_power_hp",
+                "the minimum fuel for balance needs the engine's "
+                "maximum-except-takeoff power: give meto_power_hp in the aircraft file",
+            )
+        )
+    states: dict[tuple[float, ...], None] = {}
+    cut = False
+    count = len(tanks)
+    for size in range(count + 1):
+        for full in itertools.combinations(range(count), size):
+            base = [tanks[i].usable if i in full else 0.0 for i in range(count)]
+            need = min_fuel - sum(base)
+            rest = [i for i in range(count) if i not in full]
+            if need <= 1e-12 or not rest:
+                states[tuple(base)] = None
+                continue
+            for k, order in enumerate(itertools.permutations(rest)):
+                if k >= _ORDERS:
+                    cut = True
+                    break
+                state, left = list(base), need
+                for i in order:
+                    state[i] = min(tanks[i].usable, left)
+                    left -= state[i]
+                    if left <= 1e-12:
+                        break
+                states[tuple(state)] = None
+    return list(states), cut
+
+
+@dataclass(frozen=True)
+class _Search:
+    """The candidate loadings and the engine's verdicts on them."""
+
+    stations: np.ndarray  # (N, S) [mass unit]
+    fuel: np.ndarray  # (N, T) [fuel volume unit]
+    permitted: np.ndarray  # (N,) every station, group and weight limit kept
+    weight: dict[str, np.ndarray]  # ramp and zero fuel [mass unit]
+    arm: dict[str, np.ndarray]  # [arm unit]
+    lateral_arm: dict[str, np.ndarray]  # [arm unit]
+    notes: list[str]
+    enumerated: int
+
+
+def _search(aircraft: Aircraft, category: str, occupant: float, min_fuel: float | None) -> _Search:
+    """Enumerate the candidate loadings (at most :data:`SEARCH_BOUND`) and evaluate them with the engine."""
+    pilots = _pilot_seats(aircraft)
+    fuel_states, orders_cut = _fuel_loads(aircraft, min_fuel)
+    base = _station_loads(aircraft, occupant, pilots)
+    if len(pilots) == 1:  # the pilot is always aboard: the one pilot's seat takes no load without the pilot
+        k = aircraft.station.index(pilots[0])
+        base[k] = [w for w in base[k] if w >= _pilot_weight(pilots[0], occupant) * (1 - 1e-12)]
+    groups, weights = _shared_limits(aircraft, min_fuel)
+    grouped, groups_cut = _fill_loads(aircraft, base, groups, 2)
+    filled, weights_cut = _fill_loads(aircraft, grouped, weights, 1)
+    room = max(1, SEARCH_BOUND // len(fuel_states))
+    notes: list[str] = []
+    if orders_cut:
+        notes.append(f"search bound: the minimum fuel was put in the first {_ORDERS:,} orders of the tanks only")
+    loads = filled
+    if math.prod(len(v) for v in filled) > room:
+        loads, weights_cut = grouped, True
+    if math.prod(len(v) for v in loads) > room:
+        loads, groups_cut = base, groups_cut or base != grouped
+    if groups_cut:
+        notes.append("search bound: some loads that fill a station group to its maximum were left out")
+    if weights_cut:
+        notes.append("search bound: some loads that fill the stations up to a weight limit were left out")
+    total = math.prod(len(v) for v in loads)
+    if total > room:
+        notes.append(
+            f"search bound: {room * len(fuel_states):,} of {total * len(fuel_states):,} candidate loadings "
+            "searched; the answer may not be the extreme"
+        )
+    # a cut search takes combinations spread evenly over all of them, not the first ones
+    sizes = [len(v) for v in loads]
+    picked = np.unique(np.linspace(0, total - 1, min(total, room)).round().astype(np.int64))
+    digits = np.unravel_index(picked, sizes) if sizes else ()
+    rows = np.array([np.asarray(v, dtype=float)[d] for v, d in zip(loads, digits, strict=True)]).T.reshape(
+        -1, len(aircraft.station)
+    )
+    index = {s.id: i for i, s in enumerate(aircraft.station)}
+    seated = np.zeros(len(rows), dtype=bool)
+    for pilot in pilots:
+        seated |= rows[:, index[pilot.id]] >= _pilot_weight(pilot, occupant) * (1 - 1e-12)
+    rows = rows[seated]
+    if not len(rows):
+        raise InputError(Problem("station", "no loading searched seats the pilot: the search bound cut them all"))
+    fuel = np.array(fuel_states, dtype=float).reshape(len(fuel_states), len(aircraft.tank))
+    stations = np.repeat(rows, len(fuel), axis=0)
+    fuels = np.tile(fuel, (len(rows), 1))
+    n = len(stations)
+    density = np.array([aircraft.density(t) for t in aircraft.tank], dtype=float)
+    permitted = np.zeros(n, dtype=bool)
+    weight = {c: np.zeros(n) for c in ("ramp", "zero_fuel")}
+    arm = {c: np.zeros(n) for c in ("ramp", "zero_fuel")}
+    lateral = {c: np.zeros(n) for c in ("ramp", "zero_fuel")}
+    for start in range(0, n, _CHUNK):
+        part = slice(start, min(n, start + _CHUNK))
+        size = part.stop - part.start
+        found = evaluate(
+            aircraft, stations[part], fuels[part], np.zeros(size), np.zeros(size), category=category, density=density
+        )
+        kept = found.valid.copy()
+        for holds in found.limit_ok.values():
+            kept &= holds
+        permitted[part] = kept
+        for c in weight:
+            weight[c][part] = found.weight[c]
+            arm[c][part] = found.arm[c]
+            lateral[c][part] = found.lateral_arm[c]
+    return _Search(stations, fuels, permitted, weight, arm, lateral, notes, n)
+
+
+def _static(aircraft: Aircraft, category: str, stations: np.ndarray, fuel: np.ndarray) -> ResolvedLoading:
+    """A candidate as a loading at one fuel state (no taxi, no trip)."""
+    full = {t.id: float(fuel[k]) for k, t in enumerate(aircraft.tank)}
+    load = {s.id: float(stations[k]) for k, s in enumerate(aircraft.station) if stations[k] != 0.0}
+    density = {t.id: aircraft.density(t) for t in aircraft.tank}
+    return ResolvedLoading(category, load, full, density, 0.0, 0.0, None, BurnPlan(full, None))
+
+
+def _side_margin(check: CheckResult, side: Side, zero_fuel_limit: bool) -> float | None:
+    """The least margin of a checked loading to that side's limit at its own weight [arm unit]."""
+    names: tuple[ConditionName, ...] = ("ramp", "takeoff", "landing")
+    if zero_fuel_limit:
+        names += ("zero_fuel",)
+    found = [getattr(check.condition(n).margins, _MARGIN[side]) for n in names]
+    margins = [m for m in found if m is not None]
+    return min(margins) if margins else None
+
+
+def _shortlist(weights: np.ndarray, values: np.ndarray, rows: np.ndarray) -> np.ndarray:
+    """Of the rows of each weight, those with the least value (every one of equals: they may
+    differ on another limit)."""
+    if not len(rows):
+        return rows
+    w = np.round(weights[rows], 6)
+    v = values[rows]
+    order = np.lexsort((rows, v, w))
+    start = np.ones(len(order), dtype=bool)
+    start[1:] = w[order][1:] != w[order][:-1]
+    first = np.maximum.accumulate(np.where(start, np.arange(len(order)), 0))
+    least = v[order][first]
+    keep = v[order] <= least + 1e-9 * np.maximum(1.0, np.abs(least))
+    return np.sort(rows[order[keep]])
+
+
+def _pick(aircraft: Aircraft, category: str, found: _Search, side: Side) -> tuple[int, float | None, int]:
+    """The candidate of least margin to the side's limit: its row, margin and the number of candidates checked."""
+    zero_fuel_limit = aircraft.limits.zero_fuel_cg == "limit"
+    rows = np.flatnonzero(found.permitted)
+    if not len(rows):  # nothing permitted: the lightest candidate, which the check refuses (fail closed)
+        return int(np.argmin(found.weight["ramp"])), None, 0
+    lateral = side in ("left", "right")
+    chosen = []
+    for condition in ("ramp", "zero_fuel") if zero_fuel_limit else ("ramp",):
+        values = (found.lateral_arm if lateral else found.arm)[condition] * _TOWARD[side]
+        chosen.append(_shortlist(found.weight[condition], values, rows))
+    short = np.unique(np.concatenate(chosen))
+    best: tuple[float, int, bool] | None = None  # margin, row, within every limit
+    for start in range(0, len(short), _CHUNK):
+        part = short[start : start + _CHUNK]
+        checks = check_many(aircraft, [_static(aircraft, category, found.stations[i], found.fuel[i]) for i in part])
+        for i, check in zip(part, checks, strict=True):
+            margin = _side_margin(check, side, zero_fuel_limit)
+            if margin is None:
+                continue
+            # the least margin; of equal margins, one out of some other limit first (fail closed)
+            if best is None or margin < best[0] - 1e-9 or (margin <= best[0] + 1e-9 and best[2] and not check.ok):
+                best = (margin, int(i), check.ok)
+    if best is None:
+        return int(rows[0]), None, len(short)
+    return best[1], best[0], len(short)
+
+
+def _seat_note(name: str, people: int, aboard: int, occupant: float, total: float, mass: str, where: str) -> str:
+    """How a seat station was loaded, in words."""
     others = people - aboard
     plural = "s" if others > 1 else ""
     if aboard and not others:
         heaviest = "at the station's maximum " if total < occupant - 1e-9 else ""
-        return f"{name}: the pilot {heaviest}({fmt(total, mass)}), {beyond} limit"
+        return f"{name}: the pilot {heaviest}({fmt(total, mass)}), {where}"
     what = f"{others} occupant{plural} at {fmt(occupant, mass)}"
     if aboard:
         what = f"the pilot and {what}"
     if people > 1 or not math.isclose(total, people * occupant):
         what += f" ({fmt(total, mass)})"
-    return f"{name}: {what}, {beyond} limit"
+    return f"{name}: {what}, {where}"
+
+
+def _limit_at_weight(aircraft: Aircraft, category: str, check: CheckResult, side: Side) -> float:
+    """The side's limit at the loading's ramp weight: its CG less (or plus) the margin [arm unit];
+    where the envelope gives no CG range at that weight, its most forward (rearward) arm, or
+    the centreline for a lateral limit."""
+    ramp = check.condition("ramp")
+    margin = getattr(ramp.margins, _MARGIN[side])
+    at = _lateral(ramp.lateral_arm) if side in ("left", "right") else ramp.arm
+    if margin is not None:
+        return at - margin if _TOWARD[side] > 0 else at + margin
+    if side in ("left", "right"):
+        return 0.0
+    arms = [a for e in aircraft.envelopes_for(category) if not e.is_lateral for a in e.shape.arm_range()]
+    if not arms:
+        raise InputError(Problem("envelope", f"no longitudinal envelope in category {category!r}"))
+    return min(arms) if side == "forward" else max(arms)
+
+
+def _notes(
+    aircraft: Aircraft,
+    side: Side,
+    limit: float,
+    stations: dict[str, float],
+    fuel: dict[str, float],
+    occupant: float,
+    min_fuel: float | None,
+) -> list[str]:
+    """How the extreme loading is made up, station by station and tank by tank, in words."""
+    units = aircraft.units
+    mass = units.mass
+    lateral = side in ("left", "right")
+    toward = _TOWARD[side]
+
+    def position(arm: float, lateral_arm: float | None) -> float:
+        return _lateral(lateral_arm) if lateral else arm
+
+    def beyond(where: float) -> bool:
+        return (where - limit) * toward < 0
+
+    words = _BEYOND[side]
+    moving = f"not {words} limit at this weight, but loading it leaves less margin to that limit"
+    pilots = _pilot_seats(aircraft)
+    seated = [p for p in pilots if stations.get(p.id, 0.0) >= _pilot_weight(p, occupant) * (1 - 1e-12)]
+    pilot = min(seated, key=lambda s: toward * position(s.arm, s.lateral_arm)) if seated else None
+    extreme_seat = min(pilots, key=lambda s: toward * position(s.arm, s.lateral_arm))
+    notes: list[str] = []
+    loaded = sorted(
+        (s for s in aircraft.station),
+        key=lambda s: toward * (position(s.arm, s.lateral_arm) - limit),
+    )
+    seats_taken = [s for s in aircraft.station if s.kind == "seat" and stations.get(s.id, 0.0) > 0]
+    for station in loaded:
+        weight = stations.get(station.id, 0.0)
+        least = station.min_weight or 0.0
+        where = position(station.arm, station.lateral_arm)
+        suffix = f"{words} limit" if beyond(where) else moving
+        if station.kind == "seat" and weight >= _pilot_weight(station, occupant) * (1 - 1e-12):
+            aboard = 1 if station is pilot else 0
+            people = max(1, round(weight / occupant)) if weight >= occupant * (1 - 1e-12) else 1
+            if aboard and people == 1 and not beyond(where):
+                alone = "" if any(s is not station for s in seats_taken) else " alone"
+                seat = f"the {_FARTHEST[side]} seat" if station is extreme_seat else "a seat"
+                notes.append(f"{station.name}: the pilot{alone} ({fmt(weight, mass)}), in {seat} with controls")
+            else:
+                notes.append(_seat_note(station.name, people, aboard, occupant, weight, mass, suffix))
+        elif weight > least + 1e-9:
+            full = station.max_weight is not None and weight >= station.max_weight * (1 - 1e-12)
+            what = "at its maximum" if full else "as much as its station group or the weight limits allow"
+            notes.append(f"{station.name}: {what} ({fmt(weight, mass)}), {suffix}")
+        elif least:
+            notes.append(f"{station.name}: at its minimum ({fmt(least, mass)})")
+        elif station.max_weight is None and station.kind != "seat" and beyond(where):
+            notes.append(f"{station.name}: no maximum weight given, left at its minimum")
+    volume = units.fuel_volume
+    total = sum(fuel.values())
+    at_minimum = min_fuel is not None and total <= min_fuel + 1e-9
+    for tank in aircraft.tank:
+        quantity = fuel.get(tank.id, 0.0)
+        if quantity >= tank.usable * (1 - 1e-12) and not at_minimum:
+            where = position(float(tank.arm_at(tank.usable)), tank.lateral_arm)
+            lies = f", the tank lies {words} limit" if beyond(where) else ""
+            notes.append(f"{tank.name}: full ({fmt(tank.usable, volume)}){lies}")
+    if min_fuel is not None and aircraft.tank:
+        holding = [
+            t for t in aircraft.tank if fuel.get(t.id, 0.0) > 0 and (at_minimum or fuel[t.id] < t.usable * (1 - 1e-12))
+        ]
+        if at_minimum and len(holding) == 1:  # one figure for one amount: the tank holds all of it
+            spread = holding[0].name
+        else:
+            spread = ", ".join(
+                f"{t.name} {'full, ' if fuel[t.id] >= t.usable * (1 - 1e-12) else ''}{fmt(fuel[t.id], volume)}"
+                for t in holding
+            )
+        if at_minimum:
+            notes.append(f"minimum fuel for balance, {fmt(min_fuel, volume, 'up')} (METO/12 US gal), in {spread}")
+        elif holding:
+            notes.append(
+                f"with the full tanks, the rest of the minimum fuel for balance "
+                f"({fmt(min_fuel, volume, 'up')}, METO/12 US gal): {spread}"
+            )
+        else:
+            notes.append(
+                f"the full tanks hold the minimum fuel for balance ({fmt(min_fuel, volume, 'up')}, "
+                "METO/12 US gal) and more; the others are empty"
+            )
+    return notes
 
 
 def _case(
     aircraft: Aircraft,
     category: str,
-    side: Literal["forward", "rearward"],
-    limit: float,
+    side: Side,
+    found: _Search,
     occupant: float,
     min_fuel: float | None,
 ) -> ExtremeCase:
-    notes: list[str] = []
+    row, _, checked = _pick(aircraft, category, found, side)
     units = aircraft.units
-    mass = units.mass
-
-    def worse(arm: float) -> bool:
-        return arm < limit if side == "forward" else arm > limit
-
-    seats = [s for s in aircraft.station if s.kind == "seat"]
-    pilots = [s for s in seats if s.controls] or seats[:1]
-    if not pilots:
-        raise InputError(Problem("station", "the aircraft has no seat station for the pilot"))
-    pilot = min(pilots, key=lambda s: s.arm) if side == "forward" else max(pilots, key=lambda s: s.arm)
-    stations: dict[str, float] = {s.id: s.min_weight for s in aircraft.station if s.min_weight}
-    beyond = "ahead of the forward" if side == "forward" else "behind the rearward"
-    # the pilot is always aboard (AC 43.13-1B figures 10-10, 10-11): seated first, so that
-    # items farther beyond the limit cannot take the room a required pilot needs
-    pilot_room = load_room(aircraft, stations, pilot.id)
-    have = stations.get(pilot.id, 0.0)
-    stations[pilot.id] = max(have, min(occupant, have + pilot_room) if worse(pilot.arm) else occupant)
-    # the items that make the case worse, farthest beyond the limit first
-    for station in sorted((s for s in aircraft.station if worse(s.arm)), key=lambda s: -abs(s.arm - limit)):
-        room = load_room(aircraft, stations, station.id)
-        have = stations.get(station.id, 0.0)
-        if station.kind == "seat":
-            count = station.seats or 1
-            if station.id == pilot.id:  # the pilot's weight is already in; the others fill the room left
-                aboard = 1
-                others = min(count - 1, int(room // occupant)) if math.isfinite(room) else count - 1
-                people, total = 1 + others, have + others * occupant
-            else:
-                aboard = 0
-                people = min(count, int((have + room) // occupant)) if math.isfinite(room) else count
-                total = max(have, people * occupant)
-            if people:
-                stations[station.id] = total
-                notes.append(_seat_note(station.name, people, aboard, occupant, stations[station.id], mass, beyond))
-        else:
-            if not math.isfinite(room) or room <= 0:
-                if not math.isfinite(room):
-                    notes.append(f"{station.name}: no maximum weight given, left at its minimum")
-                continue
-            stations[station.id] = have + room
-            capped = station.max_weight is None or stations[station.id] < station.max_weight - 1e-9
-            what = "as much as its station group allows" if capped else "at its maximum"
-            notes.append(f"{station.name}: {what} ({fmt(stations[station.id], mass)}), {beyond} limit")
-    if not worse(pilot.arm):
-        others = any(stations.get(s.id, 0.0) > 0 for s in seats if s.id != pilot.id)
-        notes.append(
-            f"{pilot.name}: the pilot{'' if others else ' alone'} ({fmt(stations[pilot.id], mass)}), in the "
-            f"{'farthest-forward' if side == 'forward' else 'most rearward'} seat with controls"
-        )
-    for station in aircraft.station:
-        least = station.min_weight or 0.0
-        if (
-            least
-            and stations.get(station.id, 0.0) <= least + 1e-9
-            and not worse(station.arm)
-            and station.id != pilot.id
-        ):
-            notes.append(f"{station.name}: at its minimum ({fmt(least, mass)})")
-
-    fuel: dict[str, float] = {}
-    partial = [t for t in aircraft.tank if not worse(float(t.arm_at(t.usable)))]
-    for tank in aircraft.tank:
-        if worse(float(tank.arm_at(tank.usable))):
-            fuel[tank.id] = tank.usable
-            notes.append(f"{tank.name}: full ({fmt(tank.usable, units.fuel_volume)}), the tank lies {beyond} limit")
-    if partial:
-        if min_fuel is None:
-            raise InputError(
-                Problem(
-                    "meto_power_hp",
-                    "the minimum fuel for balance needs the engine's "
-                    "maximum-except-takeoff power: give meto_power_hp in the aircraft file",
-                )
-            )
-        capacity = sum(t.usable for t in partial)
-        for tank in partial:
-            fuel[tank.id] = min(tank.usable, min_fuel * tank.usable / capacity)
-        notes.append(
-            f"minimum fuel for balance, {fmt(min_fuel, units.fuel_volume, 'up')} (METO/12 US gal), in "
-            f"{', '.join(t.name for t in partial)}"
-        )
+    stations = {
+        s.id: float(found.stations[row, k]) for k, s in enumerate(aircraft.station) if found.stations[row, k] != 0.0
+    }
+    full = {t.id: float(found.fuel[row, k]) for k, t in enumerate(aircraft.tank)}
     density = {t.id: aircraft.density(t) for t in aircraft.tank}
-    full = {t.id: fuel.get(t.id, 0.0) for t in aircraft.tank}
     plan = BurnPlan(full, None)
     down_to = min(min_fuel if min_fuel is not None else 0.0, plan.burnable)
     loading = ResolvedLoading(category, stations, full, density, 0.0, plan.burnable - down_to, None, plan)
     check = replace(check_loading(aircraft, loading), caution=MECHANIC_CAUTION)
+    limit = _limit_at_weight(aircraft, category, check, side)
+    notes = _notes(aircraft, side, limit, stations, full, occupant, min_fuel)
+    permitted = int(found.permitted.sum())
+    if permitted:
+        notes.append(
+            f"found by a search of {found.enumerated:,} candidate loadings ({permitted:,} within the station, group "
+            f"and weight limits, {checked:,} checked): the least margin to the {side} limit at its own weight"
+        )
+    else:
+        notes.append(
+            f"none of the {found.enumerated:,} candidate loadings, each with the pilot aboard and the minimum fuel, "
+            "is within the station, group and weight limits: the lightest is shown"
+        )
+    notes += found.notes
     start = plan.burnable
     volume = units.fuel_volume
     # the range stated lies within the range checked (its top rounded down, its foot up), and the
@@ -306,15 +678,22 @@ def extremes(
     occupant = standard_occupant(aircraft, occupant_weight)
     hp = meto_hp if meto_hp is not None else aircraft.meto_power_hp
     min_fuel = minimum_fuel(aircraft, hp) if hp is not None else None
-    forward_limit, rear_limit = _limits(aircraft, chosen)
-    forward = _case(aircraft, chosen, "forward", forward_limit, occupant, min_fuel)
-    rearward = _case(aircraft, chosen, "rearward", rear_limit, occupant, min_fuel)
+    envelopes = aircraft.envelopes_for(chosen)
+    if not any(not e.is_lateral for e in envelopes):
+        raise InputError(Problem("envelope", f"no longitudinal envelope in category {chosen!r}"))
+    found = _search(aircraft, chosen, occupant, min_fuel)
+    sides: list[Side] = ["forward", "rearward"]
+    if any(e.is_lateral for e in envelopes):
+        sides += ["left", "right"]
+    cases = {side: _case(aircraft, chosen, side, found, occupant, min_fuel) for side in sides}
     return ExtremesResult(
         aircraft=aircraft.name,
         category=chosen,
         occupant_weight=occupant,
         minimum_fuel=min_fuel,
-        ok=forward.ok and rearward.ok,
-        forward=forward,
-        rearward=rearward,
+        ok=all(c.ok for c in cases.values()),
+        forward=cases["forward"],
+        rearward=cases["rearward"],
+        left=cases.get("left"),
+        right=cases.get("right"),
     )

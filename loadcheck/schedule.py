@@ -13,6 +13,11 @@ its fuel. So each case is built and checked as a flight that burns all of its fu
 then covers the stated fuel, the whole burn and the zero-fuel state as limits. Stations
 with a minimum weight (a fixed item such as engine oil listed as a station) carry it in
 every case. The case's verdict is that check's verdict.
+
+The cases are built without regard to side: where the aircraft has a lateral envelope, each
+case's lateral CG is checked for its own loading only, and each case says so
+(:data:`LATERAL_NOTE`); the loadings farthest left and right are the lateral extremes of
+:func:`loadcheck.extremes.extremes`.
 """
 
 from __future__ import annotations
@@ -29,7 +34,14 @@ from .loading import BurnPlan, ResolvedLoading
 from .planning import most_fuel, most_payload, safe_value
 from .results import CheckResult, Result
 
-__all__ = ["ScheduleCase", "ScheduleResult", "loading_schedule"]
+__all__ = ["LATERAL_NOTE", "ScheduleCase", "ScheduleResult", "loading_schedule"]
+
+LATERAL_NOTE = (
+    "lateral CG: checked for this loading only, as it seats its occupants and burns its fuel (every tank in "
+    "proportion); a loading heavy on one side (one occupant, fuel in one tank) is not a case of the schedule: "
+    "the loadings farthest left and right are checked by `loadcheck extremes`"
+)
+"""The note of every schedule case of an aircraft with a lateral envelope: what the case covers of the lateral CG."""
 
 
 @dataclass(frozen=True, kw_only=True, slots=True)
@@ -165,6 +177,8 @@ def _case(
         if start > 0
         else "with no usable fuel"
     )
+    if any(e.is_lateral for e in aircraft.envelopes_for(loading.category)):
+        notes = [*notes, LATERAL_NOTE]
     if not check.ok:
         notes = [*notes, "this loading is NOT within limits over that fuel range: see the findings"]
     return ScheduleCase(

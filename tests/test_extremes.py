@@ -271,3 +271,341 @@ def test_regression_the_minimum_fuel_read_as_two_figures(plane):
         [checked] = re.findall(r"\(([\d.,]+) \w+\)|at ([\d.,]+) \w+ of fuel", case.fuel_states)
         foot = float((checked[0] or checked[1]).replace(",", ""))
         assert foot >= minimum_fuel(aircraft, aircraft.meto_power_hp) - 1e-9
+
+
+# -- the search (trial 10, findings 2, 3 and 8) ------------------------------------------------
+#
+# AC 43.13-1B 10-17 loads the items ahead of (behind) the limit to their maximum; with a limit
+# that moves with weight, a group limit shared by seats and baggage, or a lateral limit, that
+# sort is not the worst loading the limits permit. The extreme is the permitted loading with the
+# least margin to the limit at its own weight (FAA-H-8083-1B chapter 4, adverse-loading checks:
+# common practice). Every aircraft below is invented.
+
+
+def _sloping_forward_limit():
+    """Empty 2,000 lb at 84.0 in; front seats at 80 in (2, controls, 400 lb), nose baggage at
+    20 in (100 lb), a mid pod at 85 in (200 lb), rear seats at 120 in (2, 400 lb); mains at
+    93 in (60 US gal), aux at 118 in (20 US gal); 300 hp METO; forward limit 81.8 in up to
+    2,600 lb, then aft to 86.0 in at 3,300 lb; aft limit 95 in."""
+    return simple_aircraft(
+        empty={"weight": 2000.0, "arm": 84.0},
+        limits={"max_takeoff_weight": 3300.0},
+        meto_power_hp=300,
+        station=[
+            {"id": "front", "arm": 80.0, "kind": "seat", "seats": 2, "max_weight": 400.0, "controls": True},
+            {"id": "nose", "arm": 20.0, "kind": "baggage", "max_weight": 100.0},
+            {"id": "pod", "arm": 85.0, "kind": "baggage", "max_weight": 200.0},
+            {"id": "rear", "arm": 120.0, "kind": "seat", "seats": 2, "max_weight": 400.0},
+        ],
+        tank=[
+            {"id": "mains", "arm": 93.0, "usable": 60.0, "fuel": "avgas"},
+            {"id": "aux", "arm": 118.0, "usable": 20.0, "fuel": "avgas"},
+        ],
+        envelope=[
+            {
+                "category": "normal",
+                "axes": ["arm", "weight"],
+                "points": [[81.8, 2000], [81.8, 2600], [86.0, 3300], [95.0, 3300], [95.0, 2000]],
+            }
+        ],
+    )
+
+
+def test_regression_forward_extreme_under_a_sloping_limit_loads_the_mid_station_and_the_forward_tank():
+    # trial 10 finding 2. The old sort (against the most forward arm, 81.8 in) loaded only the
+    # front seats and the nose, and spread the 25 US gal minimum fuel 18.75/6.25 over mains and aux:
+    # 2,000 + 340 + 100 + 150 = 2,590 lb; 168,000 + 27,200 + 2,000 + 10,462.5 + 4,425 = 212,087.5 in-lb;
+    # CG 81.887 in, inside the 81.8 in limit at 2,590 lb: "within limits".
+    # Worked by hand, the worst permitted loading: two in front (340 lb x 80 = 27,200), nose 100 lb
+    # x 20 = 2,000, pod 200 lb x 85 = 17,000, mains full (60 US gal x 6 lb = 360 lb x 93 = 33,480):
+    # 3,000 lb, 247,680 in-lb, CG 82.56 in; the forward limit at 3,000 lb is
+    # 81.8 + (3,000 - 2,600) / (3,300 - 2,600) x 4.2 = 84.2 in: out by 1.64 in. (AC 43.13-1B 10-17;
+    # FAA-H-8083-1B ch. 4; the sloping limit: common practice.)
+    case = extremes(_sloping_forward_limit()).forward
+    load = {i.id: i.weight for i in case.check.items}
+    assert load["front"] == pytest.approx(340.0) and load["nose"] == pytest.approx(100.0)
+    assert load["pod"] == pytest.approx(200.0) and "rear" not in load
+    ramp = case.check.condition("ramp")
+    assert ramp.weight == pytest.approx(3000.0)
+    assert ramp.moment == pytest.approx(247680.0)
+    assert ramp.arm == pytest.approx(247680.0 / 3000.0)
+    assert case.limit_arm == pytest.approx(84.2)
+    assert ramp.margins.forward == pytest.approx(247680.0 / 3000.0 - 84.2)
+    assert not case.ok and not case.check.ok
+    assert any(n.startswith("pod: at its maximum (200.0 lb), not ahead of the forward limit") for n in case.notes)
+
+
+def test_forward_extreme_puts_the_minimum_fuel_in_the_forward_tank():
+    # trial 10 finding 2, the smaller case: without the pod and with mains limited to the minimum
+    # fuel (25 US gal), the 25 US gal all in mains (93 in) is more forward than spread with aux
+    # (118 in). Worked by hand: 2,000 + 340 + 100 + 150 = 2,590 lb; 168,000 + 27,200 + 2,000 +
+    # 25 x 6 x 93 = 13,950 -> 211,150 in-lb, CG 81.525 in, forward of 81.8 in by 0.275 in
+    # (AC 43.13-1B 10-2 p, 10-17: common practice for the tank order).
+    aircraft = simple_aircraft(
+        **{
+            **_sloping_forward_limit().model_dump(mode="json", exclude_none=True),
+            "station": [
+                s
+                for s in _sloping_forward_limit().model_dump(mode="json", exclude_none=True)["station"]
+                if s["id"] != "pod"
+            ],
+            "tank": [
+                {"id": "mains", "arm": 93.0, "usable": 25.0, "fuel": "avgas"},
+                {"id": "aux", "arm": 118.0, "usable": 20.0, "fuel": "avgas"},
+            ],
+        }
+    )
+    case = extremes(aircraft).forward
+    ramp = case.check.condition("ramp")
+    assert {i.id: i.fuel_volume for i in case.check.items if i.id in ("mains", "aux")} == {"mains": 25.0}
+    assert ramp.weight == pytest.approx(2590.0) and ramp.arm == pytest.approx(211150.0 / 2590.0)
+    assert case.limit_arm == pytest.approx(81.8) and not case.ok
+    assert "minimum fuel for balance, 25.0 usgal (METO/12 US gal), in mains" in case.notes
+
+
+def test_regression_rearward_extreme_under_a_group_limit_seats_two_and_fills_the_rest():
+    # trial 10 finding 3. Row 3 (140 in, 2 seats, 340 lb) and aft baggage (165 in, 120 lb) share a
+    # 400 lb group limit. The old sort filled the baggage first (120 lb), so one occupant (170 lb)
+    # fitted in row 3: 2,000 + 170 + 170 + 120 + 150 (25 US gal at 93 in) = 2,610 lb,
+    # 168,000 + 13,600 + 23,800 + 19,800 + 13,950 = 239,150 in-lb, CG 91.63 in: inside 92.5 in.
+    # Worked by hand, two in row 3 and the group's rest (60 lb) in the baggage: 2,720 lb,
+    # 168,000 + 13,600 + 47,600 + 9,900 + 13,950 = 253,050 in-lb, CG 93.03 in: aft of 92.5 in
+    # (AC 43.13-1B 10-17; FAA-H-8083-1B ch. 4; group limits: common practice).
+    aircraft = simple_aircraft(
+        empty={"weight": 2000.0, "arm": 84.0},
+        limits={"max_takeoff_weight": 3300.0},
+        meto_power_hp=300,
+        station=[
+            {"id": "front", "arm": 80.0, "kind": "seat", "seats": 2, "max_weight": 400.0, "controls": True},
+            {"id": "row3", "arm": 140.0, "kind": "seat", "seats": 2, "max_weight": 340.0},
+            {"id": "aft", "arm": 165.0, "kind": "baggage", "max_weight": 120.0},
+        ],
+        station_group=[{"label": "row 3 and aft baggage", "stations": ["row3", "aft"], "max_weight": 400.0}],
+        tank=[{"id": "mains", "arm": 93.0, "usable": 60.0, "fuel": "avgas"}],
+        envelope=[
+            {
+                "category": "normal",
+                "axes": ["arm", "weight"],
+                "points": [[80.0, 2000], [80.0, 3300], [92.5, 3300], [92.5, 2000]],
+            }
+        ],
+    )
+    case = extremes(aircraft).rearward
+    load = {i.id: i.weight for i in case.check.items}
+    assert load["row3"] == pytest.approx(340.0) and load["aft"] == pytest.approx(60.0)
+    assert load["front"] == pytest.approx(170.0)
+    ramp = case.check.condition("ramp")
+    assert ramp.weight == pytest.approx(2720.0) and ramp.moment == pytest.approx(253050.0)
+    assert ramp.arm == pytest.approx(253050.0 / 2720.0)
+    assert not case.ok and not any(f.code == "group_max" for f in case.check.findings)
+    assert "row3: 2 occupants at 170.0 lb (340.0 lb), behind the rearward limit" in case.notes
+
+
+def _side_by_side():
+    """Empty 1,400 lb at 40 in, lateral 0; seats at 38 in, lateral -12 (left) and +12 (right), both
+    with controls, 250 lb each; baggage at 70 in on the centre line (100 lb); tanks at 44 in,
+    lateral -60 and +60, 25 US gal each; 180 hp METO (15 US gal); CG 35 to 45 in, lateral
+    -1.5 to +1.5 in, up to 2,300 lb."""
+    return simple_aircraft(
+        empty={"weight": 1400.0, "arm": 40.0, "lateral_arm": 0.0},
+        limits={"max_takeoff_weight": 2300.0},
+        meto_power_hp=180,
+        station=[
+            {"id": "left", "arm": 38.0, "lateral_arm": -12.0, "kind": "seat", "max_weight": 250.0, "controls": True},
+            {"id": "right", "arm": 38.0, "lateral_arm": 12.0, "kind": "seat", "max_weight": 250.0, "controls": True},
+            {"id": "bag", "arm": 70.0, "lateral_arm": 0.0, "kind": "baggage", "max_weight": 100.0},
+        ],
+        tank=[
+            {"id": "ltank", "arm": 44.0, "lateral_arm": -60.0, "usable": 25.0, "fuel": "avgas"},
+            {"id": "rtank", "arm": 44.0, "lateral_arm": 60.0, "usable": 25.0, "fuel": "avgas"},
+        ],
+        envelope=[
+            {
+                "category": "normal",
+                "axes": ["arm", "weight"],
+                "points": [[35, 1400], [35, 2300], [45, 2300], [45, 1400]],
+            },
+            {
+                "category": "normal",
+                "axes": ["lateral_arm", "weight"],
+                "points": [[-1.5, 1400], [-1.5, 2300], [1.5, 2300], [1.5, 1400]],
+            },
+        ],
+    )
+
+
+def test_regression_a_lateral_envelope_gets_left_and_right_extremes():
+    # trial 10 finding 8: both old extremes sat the pilot on the left and split the minimum fuel
+    # 7.5/7.5, lateral CG -2,040 / 1,660 = -1.23 in, and said "within limits". Worked by hand, the
+    # pilot alone on the left (170 lb x -12 = -2,040 lb-in) with the left tank full (150 lb x -60 =
+    # -9,000 lb-in): 1,720 lb, lateral moment -11,040 lb-in, lateral CG -6.42 in, left of -1.5 in by
+    # 4.92 in (FAA-H-8083-1B chapter 8, lateral balance: common practice).
+    result = extremes(_side_by_side())
+    assert result.left is not None and result.right is not None
+    for case, sign in ((result.left, -1.0), (result.right, 1.0)):
+        ramp = case.check.condition("ramp")
+        assert ramp.weight == pytest.approx(1720.0)
+        assert ramp.lateral_moment == pytest.approx(sign * 11040.0)
+        assert ramp.lateral_arm == pytest.approx(sign * 11040.0 / 1720.0)
+        assert case.limit_arm == pytest.approx(sign * 1.5)
+        assert not case.ok and not case.check.ok
+    assert {i.id for i in result.left.check.items} >= {"left", "ltank"}
+    assert not result.ok
+    data = result.to_dict()
+    assert data["left"]["side"] == "left" and data["right"]["ok"] is False
+    # an aircraft without a lateral envelope has no lateral cases
+    plain = extremes(ac_example_aircraft())
+    assert plain.left is None and plain.right is None and "left" not in plain.to_dict()
+
+
+def test_terminal_shows_the_lateral_cases_and_the_summary_reads_as_the_table():
+    # trial 10 finding 11: the summary line and the tables give one figure, rounded one way
+    # (loadcheck.display.fmt; common practice)
+    from rich.console import Console
+
+    from loadcheck.display import fmt
+    from loadcheck.render.terminal import render_extremes
+
+    result = extremes(_side_by_side())
+    console = Console(width=200, record=True, color_system=None)
+    render_extremes(result, console)
+    text = console.export_text()
+    assert "Loading farthest left" in text and "Loading farthest right" in text
+    lateral = fmt(result.left.check.condition("ramp").lateral_arm, "in")
+    assert f"left extreme: 1,720.0 lb at lateral CG {lateral}: NOT within limits" in text
+    section = text.split("Loading farthest left")[1]
+    ramp_row = next(line for line in section.splitlines() if line.startswith("│ Ramp"))
+    assert lateral.removesuffix(" in") in ramp_row
+    forward = fmt(result.forward.check.condition("ramp").arm, "in")
+    assert f"forward extreme: {fmt(result.forward.check.condition('ramp').weight, 'lb')} at CG {forward}" in text
+
+
+# -- a property: no permitted loading of a brute-force grid has less margin ---------------------
+
+
+def _small_aircraft(draw):
+    from hypothesis import strategies as st
+
+    arm = st.floats(25.0, 60.0)
+    slope = draw(st.floats(0.0, 4.0))  # the forward limit moves aft with weight (common practice)
+    forward, aft = draw(st.floats(33.0, 38.0)), draw(st.floats(44.0, 50.0))
+    group = draw(st.sampled_from([None, 60.0, 90.0]))
+    data = {
+        "empty": {"weight": 1000.0, "arm": draw(st.floats(38.0, 42.0))},
+        "limits": {"max_takeoff_weight": 3000.0},
+        "meto_power_hp": draw(st.sampled_from([60, 120, 180])),
+        "station": [
+            {
+                "id": "pilot_seat",
+                "arm": draw(arm),
+                "kind": "seat",
+                "seats": draw(st.sampled_from([1, 2])),
+                "controls": True,
+            },
+            {"id": "back", "arm": draw(arm), "kind": "seat", "seats": draw(st.sampled_from([1, 2]))},
+            {"id": "bag_a", "arm": draw(st.floats(5.0, 100.0)), "kind": "baggage", "max_weight": 60.0},
+            {"id": "bag_b", "arm": draw(st.floats(5.0, 100.0)), "kind": "baggage", "max_weight": 40.0},
+        ],
+        "tank": [
+            {"id": "one", "arm": draw(arm), "usable": 20.0, "fuel": "avgas"},
+            {"id": "two", "arm": draw(arm), "usable": 20.0, "fuel": "avgas"},
+        ],
+        "envelope": [
+            {
+                "category": "normal",
+                "axes": ["arm", "weight"],
+                "points": [[forward, 800], [forward, 1300], [forward + slope, 3000], [aft, 3000], [aft, 800]],
+            }
+        ],
+    }
+    if group is not None:
+        data["station_group"] = [{"label": "Baggage", "stations": ["bag_a", "bag_b"], "max_weight": group}]
+    return simple_aircraft(**data)
+
+
+def _brute_force_margins(aircraft, side):
+    """The least margin to a side's limit of every loading on a grid the limits permit: whole occupants
+    (the pilot aboard), baggage in steps of a quarter of each hold's maximum, fuel in 5 US gal steps,
+    at least the minimum fuel for balance; each checked by check_many (no taxi, no trip)."""
+    import itertools
+
+    from loadcheck.check import check_many
+    from loadcheck.loading import BurnPlan, ResolvedLoading
+
+    st = aircraft.station_by_id
+    group = aircraft.station_group[0].max_weight if aircraft.station_group else None
+    least = minimum_fuel(aircraft, aircraft.meto_power_hp)
+    loadings = []
+    for pilot, back, a, b, one, two in itertools.product(
+        range(1, st["pilot_seat"].seats + 1), range(st["back"].seats + 1), range(5), range(5), range(5), range(5)
+    ):
+        bags = (a * 15.0, b * 10.0)
+        fuel = {"one": one * 5.0, "two": two * 5.0}
+        if (group is not None and sum(bags) > group) or sum(fuel.values()) < least - 1e-9:
+            continue
+        stations = {"pilot_seat": pilot * 170.0, "back": back * 170.0, "bag_a": bags[0], "bag_b": bags[1]}
+        density = {"one": 6.0, "two": 6.0}
+        loadings.append(ResolvedLoading("normal", stations, fuel, density, 0.0, 0.0, None, BurnPlan(fuel, None)))
+    key = {"forward": "forward", "rearward": "aft"}[side]
+    return min(getattr(c.condition("ramp").margins, key) for c in check_many(aircraft, loadings))
+
+
+from hypothesis import given, settings  # noqa: E402
+from hypothesis import strategies as _st  # noqa: E402
+
+from .helpers import examples  # noqa: E402
+
+
+@settings(max_examples=examples(20))
+@given(_st.data())
+def test_property_no_permitted_grid_loading_has_less_margin_than_the_extreme(data):
+    # the search's claim (AC 43.13-1B 10-17, the worst loading the limits permit): on a small aircraft
+    # whose forward limit moves aft with weight (or not at all), a brute-force grid of permitted
+    # loadings never comes closer to a limit than the extreme found. The margin is linear-fractional
+    # or concave along any line of loadings here, so the least lies at a corner of the loads the
+    # search tries (common practice; docs/mechanic.md).
+    aircraft = _small_aircraft(data.draw)
+    result = extremes(aircraft)
+    for case in (result.forward, result.rearward):
+        found = case.check.condition("ramp").margins
+        reported = found.forward if case.side == "forward" else found.aft
+        assert _brute_force_margins(aircraft, case.side) >= reported - 1e-6, case.side
+
+
+def test_regression_a_cut_search_still_seats_the_pilot_and_says_it_was_cut():
+    # a search past SEARCH_BOUND took the first combinations, every one with the pilot's seat
+    # empty, and stopped on an empty list; it now takes combinations spread over all of them and
+    # says that the bound cut it (AC 43.13-1B 10-17: the pilot always aboard; common practice)
+    stations = [{"id": "front", "arm": 80.0, "kind": "seat", "seats": 2, "max_weight": 400.0, "controls": True}]
+    stations += [
+        {"id": f"row{i}", "arm": 90.0 + 10 * i, "kind": "seat", "seats": 3, "max_weight": 600.0} for i in range(4)
+    ]
+    stations += [{"id": f"hold{i}", "arm": 20.0 + 30 * i, "kind": "baggage", "max_weight": 100.0} for i in range(6)]
+    aircraft = simple_aircraft(
+        empty={"weight": 3000.0, "arm": 90.0},
+        limits={"max_takeoff_weight": 8000.0},
+        meto_power_hp=300,
+        station=stations,
+        tank=[{"id": f"tank{i}", "arm": 85.0 + 5 * i, "usable": 40.0, "fuel": "avgas"} for i in range(4)],
+        envelope=[
+            {
+                "category": "normal",
+                "axes": ["arm", "weight"],
+                "points": [[70, 2000], [70, 8000], [120, 8000], [120, 2000]],
+            }
+        ],
+    )
+    result = extremes(aircraft)
+    for case in result.cases:
+        assert any(n.startswith("search bound:") and "may not be the extreme" in n for n in case.notes)
+        assert {i.id: i.weight for i in case.check.items}["front"] >= 170.0
+        assert case.ok == case.check.ok
+
+
+def test_of_equal_margins_the_extreme_is_one_out_of_another_limit():
+    # heli2 (invented sample): the pilot in the left or the right seat gives the same rearward CG
+    # (the seats share one arm); with the left saddle tank full, the left seat is also left of the
+    # lateral limit. Of equal margins the one out of limits is reported (fail closed; common practice)
+    aircraft = load_aircraft(sample("heli2/aircraft.toml"))
+    case = extremes(aircraft, meto_hp=150).rearward
+    assert not case.ok and any(f.code.startswith("envelope") or "lateral" in f.message for f in case.check.findings)

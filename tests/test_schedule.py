@@ -174,3 +174,19 @@ def test_regression_a_seats_minimum_weight_is_met_by_its_occupant_not_added_to_i
         assert not any("minimum weight: Front seat" in note for note in case.notes)
     light = loading_schedule(tandem, occupant_weight=50.0)  # a pilot lighter than the minimum: ballast to 55 kg
     assert all(case.load["front"] == pytest.approx(55.0) for case in light.cases)
+
+
+def test_regression_schedule_says_the_lateral_axis_is_checked_by_extremes():
+    # trial 10 finding 8: on a side-by-side aircraft with a lateral envelope every schedule case is
+    # symmetric (both seats, tanks burning in proportion), so it never loads one side; each case
+    # says its lateral CG is checked for that loading only, and that the lateral extremes are
+    # extremes' (FAA-H-8083-1B chapter 8, lateral balance: common practice)
+    from loadcheck.schedule import LATERAL_NOTE
+
+    from .test_extremes import _side_by_side
+
+    for case in loading_schedule(_side_by_side()).cases:
+        assert LATERAL_NOTE in case.notes
+        assert "loadcheck extremes" in LATERAL_NOTE and "one side" in LATERAL_NOTE
+    # an aircraft without a lateral envelope says nothing of it
+    assert not any(LATERAL_NOTE in c.notes for c in loading_schedule(ac_example_aircraft()).cases)

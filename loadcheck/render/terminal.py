@@ -1049,12 +1049,20 @@ def render_alteration(result: Any, units: Any, console: Console) -> None:
 
 
 def render_extremes(result: Any, console: Console) -> None:
-    """Print the forward and rearward extreme loadings, each with its moment table, fuel range and verdict."""
+    """Print each extreme loading (forward, rearward, and left and right where the aircraft has a
+    lateral envelope), each with its moment table, fuel range and verdict."""
     console.print(Text(f"Weight and balance extremes of {result.aircraft} ({result.category} category)", style="bold"))
-    for case in (result.forward, result.rearward):
+    titles = {
+        "forward": "Most forward loading",
+        "rearward": "Most rearward loading",
+        "left": "Loading farthest left",
+        "right": "Loading farthest right",
+    }
+    for case in result.cases:
+        lateral = case.side in ("left", "right")
         console.print(
             Text(
-                f"Most {case.side} loading (sorted against the {case.side} limit "
+                f"{titles[case.side]} (the {'lateral ' if lateral else ''}{case.side} limit at its weight: "
                 f"{fmt(case.limit_arm, case.check.units.arm)})",
                 style="bold",
             )
@@ -1065,10 +1073,14 @@ def render_extremes(result: Any, console: Console) -> None:
         checked_loading(case.check, console)
         ramp = case.check.condition("ramp")
         words = "within limits" if case.ok else "NOT within limits"
+        where = (
+            f"lateral CG {fmt(ramp.lateral_arm or 0.0, case.check.units.arm)}"
+            if lateral
+            else (f"CG {fmt(ramp.arm, case.check.units.arm)}")
+        )
         console.print(
             Text(
-                f"{case.side} extreme: {fmt(ramp.weight, case.check.units.mass)} at CG "
-                f"{fmt(ramp.arm, case.check.units.arm)}: {words}",
+                f"{case.side} extreme: {fmt(ramp.weight, case.check.units.mass)} at {where}: {words}",
                 style=_OK_STYLE if case.ok else _LIMIT_STYLE,
             )
         )
