@@ -315,7 +315,8 @@ def test_the_weighing_record_shows_what_a_signer_needs(tmp_path):
     assert "Previous record</th><th>As weighed</th><th>New record</th>" in html
     assert "1,718.0 lb" in html and "1,685.8 lb" in html and "2026-02-09" in html  # previous and new
     assert "Empty-weight CG range: not given" in html
-    assert "Most forward" in html and "Most rearward" in html and "Sorted against" in html
+    assert "Most forward" in html and "Most rearward" in html and "Limit at its weight" in html
+    assert "Most left" not in html  # the trainer has no lateral envelope
     for words in ("Name", "Certificate number", "Signature", "Date", "local aviation authority"):
         assert words in html[html.index("class='caution'") :]
     assert "http" not in html.replace("http-equiv", "")
@@ -335,6 +336,18 @@ def test_the_weighing_record_shows_the_lateral_cg(tmp_path):
     row = row[: row.index("</tr>")]
     assert "0.40 in" in row and "-0.11 in" in row  # previous 0.4 in; new (290 - 295) x 20 / 885
     assert "Lateral arm (in, + right)" in html
+    # the extreme loadings the record's signer sees are every one extremes checks: left and right too
+    # (FAA-H-8083-1B chapter 8, lateral balance), each with its lateral CG and the lateral limit it meets
+    from loadcheck import load_aircraft
+    from loadcheck.extremes import extremes
+
+    cases = extremes(load_aircraft(tmp_path / "aircraft.toml")).cases
+    assert [c.side for c in cases][2:] == ["left", "right"]
+    table = html[html.index("class='extremes'") :]
+    table = table[: table.index("</table>")]
+    for case in cases:
+        assert f"Most {case.side}" in table
+    assert "Left: weight (lb)" in html and "Right: weight (lb)" in html
 
 
 def _printer() -> str | None:

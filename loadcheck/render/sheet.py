@@ -569,28 +569,32 @@ def mechanic_sheet_html(
     if extremes is None:
         parts.append(f"<p class='limit'>Not computed: {escape(left_out or 'not asked for')}.</p>")
     else:
+        cases = extremes.cases  # forward and rearward, and left and right where a lateral envelope limits
         summary = []
-        for case in (extremes.forward, extremes.rearward):
+        for case in cases:
             ramp = case.check.condition("ramp")
+            lateral = case.side in ("left", "right")
             summary.append(
                 [
                     f"Most {case.side}",
                     n(ramp.weight, m),
-                    n(ramp.arm, a),
-                    n(case.limit_arm, a),
+                    n(ramp.lateral_arm if lateral else ramp.arm, a) + (" lateral" if lateral else ""),
+                    n(case.limit_arm, a) + (" lateral" if lateral else ""),
                     "within limits" if case.ok else "NOT within limits",
                 ]
             )
         parts.append(
-            _table(["Loading", f"Weight ({m})", f"CG ({a})", f"Sorted against ({a})", "Result"], summary, "extremes")
+            _table(
+                ["Loading", f"Weight ({m})", f"CG ({a})", f"Limit at its weight ({a})", "Result"], summary, "extremes"
+            )
         )
-        states = [getattr(case, "fuel_states", None) for case in (extremes.forward, extremes.rearward)]
+        states = [getattr(case, "fuel_states", None) for case in cases]
         if any(states):
             parts.append(
                 f"<p>Fuel states covered: {escape('; '.join(str(s) for s in dict.fromkeys(states) if s))}.</p>"
             )
-        names = list(dict.fromkeys(i.name for case in (extremes.forward, extremes.rearward) for i in case.check.items))
-        by_side = [{i.name: i for i in case.check.items} for case in (extremes.forward, extremes.rearward)]
+        names = list(dict.fromkeys(i.name for case in cases for i in case.check.items))
+        by_side = [{i.name: i for i in case.check.items} for case in cases]
         rows = []
         for name in names:
             row = [name]
@@ -598,10 +602,11 @@ def mechanic_sheet_html(
                 item = side.get(name)
                 row += ["", ""] if item is None else [n(item.weight, m), n(item.arm, a)]
             rows.append(row)
-        parts.append(
-            _table(["Item", f"Forward: weight ({m})", f"arm ({a})", f"Rearward: weight ({m})", f"arm ({a})"], rows)
-        )
-        for case in (extremes.forward, extremes.rearward):
+        heads = ["Item"]
+        for case in cases:
+            heads += [f"{case.side.capitalize()}: weight ({m})", f"arm ({a})"]
+        parts.append(_table(heads, rows))
+        for case in cases:
             for finding in case.check.findings:
                 if finding.severity == "limit" and finding.condition in ("ramp", "takeoff", None):
                     parts.append(f"<p class='limit'>Most {case.side}: LIMIT {escape(finding.message)}</p>")
