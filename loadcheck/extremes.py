@@ -92,11 +92,15 @@ class ExtremeCase(Result):
     notes: list[str]
     fuel_states: str
     check: CheckResult
+    complete: bool = True
+    """False where a search bound left candidate loadings out: the loading shown is then the worst
+    of those searched, not established as the extreme, and the aircraft's verdict is not "within
+    limits" (fail closed)."""
 
 
 @dataclass(frozen=True, kw_only=True, slots=True)
 class ExtremesResult(Result):
-    """The extreme checks; ``ok`` when every one is within limits.
+    """The extreme checks; ``ok`` when every one is within limits and its search was complete.
 
     ``left`` and ``right`` are there where the category has a lateral envelope, else None.
     """
@@ -231,17 +235,25 @@ def _station_loads(aircraft: Aircraft, occupant: float, pilots: Sequence[Station
                     break
                 found.add(weight)
         elif most is not None:
-            found.add(most)
+            # the maximum, and its quarters: where a limit moves toward the load as weight grows, the
+            # least margin can lie at a part load (a grid, not a proof: see the search's docstring)
+            found |= {least + (most - least) * k / _PART_LOADS for k in range(1, _PART_LOADS + 1)}
         loads.append(sorted(found))
     return loads
 
 
+_PART_LOADS = 4
+"""A baggage, cargo or other station with a maximum is tried at its minimum and at each quarter of
+the way to its maximum."""
+
+
 def _shared_limits(
-    aircraft: Aircraft, min_fuel: float | None
+    aircraft: Aircraft, fuel_states: Sequence[tuple[float, ...]]
 ) -> tuple[list[tuple[tuple[int, ...], float]], list[tuple[tuple[int, ...], float]]]:
     """Limits shared by several stations [mass unit]: each station group's maximum; and the
-    weight left for all the stations under the maximum zero-fuel weight and (with the
-    minimum fuel) under the maximum takeoff weight."""
+    weight left for all the stations under the maximum zero-fuel weight and, for each fuel state
+    searched (a full tank on the worse side leaves less for the payload than the minimum fuel),
+    under the maximum takeoff weight."""
     index = {s.id: i for i, s in enumerate(aircraft.station)}
     groups = [
         (tuple(index[m] for m in g.stations), g.max_weight) for g in aircraft.station_group if g.max_weight is not None
@@ -251,8 +263,14 @@ def _shared_limits(
     weights = []
     if aircraft.limits.max_zero_fuel_weight is not None:
         weights.append((every, aircraft.limits.max_zero_fuel_weight - empty))
-    fuel_mass = min((aircraft.density(t) for t in aircraft.tank), default=0.0) * (min_fuel or 0.0)
-    weights.append((every, aircraft.limits.max_takeoff_weight - empty - fuel_mass))
+    masses = sorted(
+        {
+            round(sum(aircraft.density(t) * q for t, q in zip(aircraft.tank, state, strict=True)), 9)
+            for state in fuel_states
+        }
+        or {0.0}
+    )
+    weights += [(every, aircraft.limits.max_takeoff_weight - empty - mass) for mass in masses]
     return groups, weights
 
 
@@ -355,7 +373,7 @@ def _search(aircraft: Aircraft, category: str, occupant: float, min_fuel: float 
     if len(pilots) == 1:  # the pilot is always aboard: the one pilot's seat takes no load without the pilot
         k = aircraft.station.index(pilots[0])
         base[k] = [w for w in base[k] if w >= _pilot_weight(pilots[0], occupant) * (1 - 1e-12)]
-    groups, weights = _shared_limits(aircraft, min_fuel)
+    groups, weights = _shared_limits(aircraft, fuel_states)
     grouped, groups_cut = _fill_loads(aircraft, base, groups, 2)
     filled, weights_cut = _fill_loads(aircraft, grouped, weights, 1)
     room = max(1, SEARCH_BOUND // len(fuel_states))
@@ -646,7 +664,10 @@ def _case(
             f"from {fmt(start, volume, 'down')} at engine start down to {end} ({fmt(down_to, volume, 'up')}), "
             "every tank burning in proportion to its fuel"
         )
-    return ExtremeCase(side=side, ok=check.ok, limit_arm=limit, notes=notes, fuel_states=states, check=check)
+    complete = not any(note.startswith("search bound") for note in found.notes)
+    return ExtremeCase(
+        side=side, ok=check.ok, limit_arm=limit, notes=notes, fuel_states=states, check=check, complete=complete
+    )
 
 
 def extremes(
@@ -691,7 +712,7 @@ def extremes(
         category=chosen,
         occupant_weight=occupant,
         minimum_fuel=min_fuel,
-        ok=all(c.ok for c in cases.values()),
+        ok=all(c.ok and c.complete for c in cases.values()),  # a search cut short establishes no extreme
         forward=cases["forward"],
         rearward=cases["rearward"],
         left=cases.get("left"),

@@ -609,3 +609,105 @@ def test_of_equal_margins_the_extreme_is_one_out_of_another_limit():
     aircraft = load_aircraft(sample("heli2/aircraft.toml"))
     case = extremes(aircraft, meto_hp=150).rearward
     assert not case.ok and any(f.code.startswith("envelope") or "lateral" in f.message for f in case.check.findings)
+
+
+REVIEW_D = """format = 1
+name = "Invented aft-tank tourer (review)"
+meto_power_hp = 180
+[units]
+mass = "lb"
+arm = "in"
+fuel_volume = "usgal"
+[empty]
+weight = 1500.0
+arm = 40.0
+[limits]
+max_takeoff_weight = 2350
+[[station]]
+id = "front"
+kind = "seat"
+arm = 37.0
+max_weight = 400
+seats = 2
+controls = true
+[[station]]
+id = "rear"
+kind = "seat"
+arm = 65.0
+max_weight = 400
+seats = 2
+[[station]]
+id = "bag"
+kind = "baggage"
+arm = 90.0
+max_weight = 200
+[[tank]]
+id = "wing"
+arm = 42.0
+usable = 20.0
+fuel = "avgas"
+[[tank]]
+id = "aft"
+arm = 80.0
+usable = 30.0
+fuel = "avgas"
+[[envelope]]
+category = "normal"
+axes = ["arm", "weight"]
+points = [[36.0, 1500], [36.0, 2350], [49.8, 2350], [49.8, 1500]]
+"""
+
+
+def test_regression_the_payload_under_the_mtow_was_filled_for_the_minimum_fuel_only(tmp_path):
+    """A review: with the aft tank behind the aft limit (so filled, AC 43.13-1B 10-17), the baggage that the
+    maximum takeoff weight leaves was worked out for the minimum fuel only, so the worst loading was never
+    tried and extremes said "within limits". Worked by hand (FAA-H-8083-1B chapter 2; avgas 6.0 lb/US gal,
+    common practice): pilot 170 + two rear 340 + bag 160 (what 2,350 lb leaves) + aft tank 180 lb =
+    2,350 lb; moment 60,000 + 6,290 + 22,100 + 14,400 + 14,400 = 117,190 lb-in; CG 49.87 in, aft of 49.8."""
+    path = tmp_path / "d.toml"
+    path.write_text(REVIEW_D)
+    aircraft = load_aircraft(path)
+    result = extremes(aircraft)
+    assert not result.ok and not result.rearward.ok
+    ramp = result.rearward.check.condition("ramp")
+    assert ramp.arm >= 117190 / 2350 - 1e-9 and ramp.weight <= 2350 + 1e-9
+
+
+def test_regression_a_part_load_beyond_a_limit_that_moves_toward_it_was_missed(tmp_path):
+    """A review: an aft limit that moves aft with weight (42.4 in at 1,400 lb to 47.4 in at 2,300 lb) puts the
+    least margin at a part cargo load, which the search (cargo at 0 or 400 lb) never tried. Worked by hand:
+    pilot 170 + cargo 100 + the minimum fuel 120 hp / 12 = 10 US gal (60 lb; AC 43.13-1B 10-2 p) = 1,730 lb;
+    moment 61,600 + 6,800 + 5,400 + 2,760 = 76,560 lb-in, CG 44.254 in; the aft limit there is
+    42.4 + 5.0 x 330 / 900 = 44.233 in."""
+    text = (
+        'format = 1\nname = "Invented cargo single (review)"\nmeto_power_hp = 120\n'
+        '[units]\nmass = "lb"\narm = "in"\nfuel_volume = "usgal"\n[empty]\nweight = 1400.0\narm = 44.0\n'
+        "[limits]\nmax_takeoff_weight = 2300\n"
+        '[[station]]\nid = "seat1"\nkind = "seat"\narm = 40.0\nmax_weight = 250\ncontrols = true\n'
+        '[[station]]\nid = "pax"\nkind = "seat"\narm = 40.0\nmax_weight = 250\n'
+        '[[station]]\nid = "cargo"\nkind = "cargo"\narm = 54.0\nmax_weight = 400\n'
+        '[[station]]\nid = "nose"\nkind = "baggage"\narm = 30.0\nmax_weight = 80\n'
+        '[[tank]]\nid = "main"\narm = 46.0\nusable = 40.0\nfuel = "avgas"\n'
+        '[[envelope]]\ncategory = "normal"\naxes = ["arm", "weight"]\n'
+        "points = [[38.0, 1400], [38.0, 2300], [47.4, 2300], [42.4, 1400]]\n"
+    )
+    path = tmp_path / "b.toml"
+    path.write_text(text)
+    result = extremes(load_aircraft(path))
+    assert not result.ok and not result.rearward.ok
+    assert 76560 / 1730 > 42.4 + 5.0 * 330 / 900  # the hand-worked loading is out by 0.021 in
+
+
+def test_a_search_cut_by_its_bound_establishes_no_extreme(monkeypatch):
+    """A review: a search the bound cut said "the answer may not be the extreme" and still "within limits",
+    exit 0. Candidates left out may be out of limits: a cut search fails closed (the aircraft's verdict is
+    not ok), and says so beside the loading it found (common practice: an unproven check is no check)."""
+    import loadcheck.extremes as module
+
+    trainer = load_aircraft(sample("trainer4/aircraft.toml"))
+    whole = extremes(trainer)
+    assert whole.ok and all(c.complete for c in whole.cases)
+    monkeypatch.setattr(module, "SEARCH_BOUND", 20)
+    cut = extremes(trainer)
+    assert any(n.startswith("search bound") for n in cut.forward.notes)
+    assert not cut.ok and not all(c.complete for c in cut.cases)

@@ -580,7 +580,9 @@ def mechanic_sheet_html(
                     n(ramp.weight, m),
                     n(ramp.lateral_arm if lateral else ramp.arm, a) + (" lateral" if lateral else ""),
                     n(case.limit_arm, a) + (" lateral" if lateral else ""),
-                    "within limits" if case.ok else "NOT within limits",
+                    ("within limits" if case.complete else "NOT ESTABLISHED (search cut)")
+                    if case.ok
+                    else "NOT within limits",
                 ]
             )
         parts.append(

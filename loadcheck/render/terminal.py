@@ -1072,7 +1072,11 @@ def render_extremes(result: Any, console: Console) -> None:
         _indented(console, f"fuel states checked: {case.fuel_states}")
         checked_loading(case.check, console)
         ramp = case.check.condition("ramp")
-        words = "within limits" if case.ok else "NOT within limits"
+        words = (
+            ("within limits" if case.complete else "within limits for this loading, but NOT ESTABLISHED as the extreme")
+            if case.ok
+            else "NOT within limits"
+        )
         where = (
             f"lateral CG {fmt(ramp.lateral_arm or 0.0, case.check.units.arm)}"
             if lateral
@@ -1081,7 +1085,7 @@ def render_extremes(result: Any, console: Console) -> None:
         console.print(
             Text(
                 f"{case.side} extreme: {fmt(ramp.weight, case.check.units.mass)} at {where}: {words}",
-                style=_OK_STYLE if case.ok else _LIMIT_STYLE,
+                style=_OK_STYLE if case.ok and case.complete else _LIMIT_STYLE,
             )
         )
     console.print(caution_text(result.caution))
