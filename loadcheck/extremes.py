@@ -219,8 +219,11 @@ def _pilot_weight(station: Station, occupant: float) -> float:
     return occupant if station.max_weight is None else min(occupant, station.max_weight)
 
 
-def _station_loads(aircraft: Aircraft, occupant: float, pilots: Sequence[Station]) -> list[list[float]]:
-    """The loads each station takes in the search: minimum, maximum, whole occupants [mass unit]."""
+def _station_loads(
+    aircraft: Aircraft, occupant: float, pilots: Sequence[Station], parts: bool = True
+) -> list[list[float]]:
+    """The loads each station takes in the search: minimum, maximum, whole occupants, and (with
+    ``parts``) each quarter of a baggage, cargo or other station's maximum [mass unit]."""
     loads = []
     for station in aircraft.station:
         least = station.min_weight or 0.0
@@ -237,7 +240,9 @@ def _station_loads(aircraft: Aircraft, occupant: float, pilots: Sequence[Station
         elif most is not None:
             # the maximum, and its quarters: where a limit moves toward the load as weight grows, the
             # least margin can lie at a part load (a grid, not a proof: see the search's docstring)
-            found |= {least + (most - least) * k / _PART_LOADS for k in range(1, _PART_LOADS + 1)}
+            found |= {
+                least + (most - least) * k / _PART_LOADS for k in range(1, _PART_LOADS + 1) if parts or k == _PART_LOADS
+            }
         loads.append(sorted(found))
     return loads
 
@@ -369,15 +374,20 @@ def _search(aircraft: Aircraft, category: str, occupant: float, min_fuel: float 
     """Enumerate the candidate loadings (at most :data:`SEARCH_BOUND`) and evaluate them with the engine."""
     pilots = _pilot_seats(aircraft)
     fuel_states, orders_cut = _fuel_loads(aircraft, min_fuel)
-    base = _station_loads(aircraft, occupant, pilots)
-    if len(pilots) == 1:  # the pilot is always aboard: the one pilot's seat takes no load without the pilot
-        k = aircraft.station.index(pilots[0])
-        base[k] = [w for w in base[k] if w >= _pilot_weight(pilots[0], occupant) * (1 - 1e-12)]
     groups, weights = _shared_limits(aircraft, fuel_states)
-    grouped, groups_cut = _fill_loads(aircraft, base, groups, 2)
-    filled, weights_cut = _fill_loads(aircraft, grouped, weights, 1)
     room = max(1, SEARCH_BOUND // len(fuel_states))
     notes: list[str] = []
+    for parts in (True, False):  # the part loads first; without them where the search would be too large
+        base = _station_loads(aircraft, occupant, pilots, parts)
+        if len(pilots) == 1:  # the pilot is always aboard: the one pilot's seat takes no load without the pilot
+            k = aircraft.station.index(pilots[0])
+            base[k] = [w for w in base[k] if w >= _pilot_weight(pilots[0], occupant) * (1 - 1e-12)]
+        grouped, groups_cut = _fill_loads(aircraft, base, groups, 2)
+        filled, weights_cut = _fill_loads(aircraft, grouped, weights, 1)
+        if math.prod(len(v) for v in filled) <= room:
+            break
+    if not parts:
+        notes.append("search bound: the part loads of baggage, cargo and other stations were left out")
     if orders_cut:
         notes.append(f"search bound: the minimum fuel was put in the first {_ORDERS:,} orders of the tanks only")
     loads = filled
