@@ -19,7 +19,7 @@ import stat
 import tempfile
 import tomllib
 from collections.abc import Mapping
-from dataclasses import dataclass, field
+from dataclasses import dataclass, field, replace
 from pathlib import Path
 from typing import Any, BinaryIO, get_args
 
@@ -571,7 +571,16 @@ def _named_as_typed(error: LoadcheckError, typed: Mapping[str, str]) -> Loadchec
     problems = []
     for problem in error.problems:
         option = _option_of(problem.field, typed)
-        problems.append(problem if option is None else Problem(option, problem.message, None, problem.expected))
+        if option is not None:
+            problems.append(Problem(option, problem.message, None, problem.expected))
+            continue
+        # a problem of the file's that a typed value brings about names that value as typed too
+        # (names.rear: ... expected a weight at load.rear (--load rear=0), where --load rear=0 emptied it)
+        expected = problem.expected
+        for path, shown in typed.items():
+            if expected is not None:
+                expected = re.sub(rf"(?<![\w.]){re.escape(path)}(?![\w.])", f"{path} ({shown})", expected)
+        problems.append(problem if expected == problem.expected else replace(problem, expected=expected))
     return type(error)(problems, file=error.file)
 
 

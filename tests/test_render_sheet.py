@@ -186,6 +186,8 @@ def test_a_name_at_a_station_without_weight_is_refused(runner, tmp_path):
         app, ["check", str(_named_trip(tmp_path, 'front = "Alex"', 'front = "Kim"')), "--leg-load", "2:front=0"]
     )
     assert leg.exit_code == 2 and "leg 2, names.front" in leg.stderr
+    # an outside trial: the refusal blamed the file alone; the value typed that emptied the seat is named too
+    assert "expected a weight at load.front (--load front=0)" in " ".join(result.stderr.split())
 
 
 def test_a_failing_trips_leg_1_page_carried_a_bare_within_banner(runner, tmp_path):
