@@ -211,7 +211,7 @@ def history(
         render_history(result, _console())
 
 
-@app.command(short_help="Most forward and most rearward loadings.")
+@app.command(short_help="Extreme loadings: forward, rearward, lateral.")
 @input_errors
 def extremes(
     aircraft: Annotated[Path, typer.Argument(metavar="AIRCRAFT", help="Aircraft file (TOML).")],
@@ -220,9 +220,10 @@ def extremes(
     meto: MetoOpt = None,
     json_out: JsonOpt = False,
 ) -> None:
-    """The most forward and most rearward loadings the stations permit (AC 43.13-1B 10-17), each checked.
+    """The worst loadings the limits permit (AC 43.13-1B 10-17): most forward and most rearward, and
+    farthest left and right where a lateral envelope limits, each found by a search and checked.
 
-    Exit status: 0 both within limits, 1 one is not, 2 bad input.
+    Exit status: 0 every case within limits and its search complete, 1 one is not, 2 bad input.
 
     Example:
 

@@ -152,10 +152,9 @@ def _json_number(text: str) -> object:
     :func:`loadcheck.units.parse_quantity`), never 0 or an infinity in its place. An integer
     beyond any float (more than 308 digits) is one too."""
     try:
-        value = parse_quantity(text).value
+        return parse_quantity(text).value
     except LoadcheckError as error:
         return _Unheld(text, "; ".join(p.message for p in error.problems))
-    return int(text) if text.lstrip("-").isdigit() else value
 
 
 def _json_integer(text: str) -> object:
