@@ -38,7 +38,7 @@ from collections.abc import Callable, Iterable, Iterator
 from contextlib import contextmanager
 from dataclasses import dataclass
 from pathlib import Path
-from typing import TYPE_CHECKING, Any
+from typing import TYPE_CHECKING, Any, NamedTuple
 
 from .caution import PILOT_CAUTION
 from .errors import FileFormatError, InputError, LoadcheckError, Problem
@@ -61,6 +61,7 @@ __all__ = [
     "CurrentVerification",
     "VERDICTS",
     "Listed",
+    "Stored",
     "LoggedCheck",
     "CheckLog",
     "Verification",
@@ -71,6 +72,7 @@ __all__ = [
     "log_path",
     "first_difference",
     "results_match",
+    "stored",
     "verify",
     "verify_current",
 ]
@@ -204,6 +206,31 @@ def _stored_json(data: Any, default: Any = None) -> str:
     import orjson
 
     return orjson.dumps(data, default=default).decode()
+
+
+class Stored(NamedTuple):
+    """A check as the log stores it: its result's JSON text and what is read off the result beside it.
+
+    Made by :func:`stored`, in the process that checked the flight (a fleet check's worker), so
+    that the text written to the log and the line printed are the one serialization."""
+
+    result: str  # the result's JSON text (:func:`_stored_json`)
+    ok: bool  # the result's verdict
+    category: str | None  # the result's envelope category
+    inputs: str | None = None  # the inputs' JSON text, where they are to be recorded
+    legs: int = 1  # the number of legs of the inputs (1 for a single loading)
+
+
+def stored(result: dict[str, Any], inputs: dict[str, Any] | None = None) -> Stored:
+    """``result`` (a check's JSON form) and ``inputs`` (:func:`~loadcheck.loading.recorded_inputs`;
+    None where not recorded) as the log stores them."""
+    return Stored(
+        _stored_json(result),
+        bool(result.get("ok")),
+        result.get("category"),
+        None if inputs is None else _stored_json(inputs, default=str),
+        1 + len((inputs or {}).get("leg") or ()),
+    )
 
 
 _SCHEMA = """
@@ -355,7 +382,8 @@ class CheckLog:
         """Append records in one transaction; return their ids.
 
         Each record has ``aircraft_data`` (or a function giving it: called only the first
-        time a fingerprint is recorded), ``fingerprint``, ``inputs``, ``result`` and
+        time a fingerprint is recorded), ``fingerprint``, ``inputs`` and ``result`` (or
+        ``stored``, the two as :func:`stored` gives them, inputs included) and
         optionally ``registration``, ``reference``, ``pilot``, ``source``, ``version`` and
         ``flight_date`` (the flight's date, YYYY-MM-DD: a fleet row's ``date``).
         Either every record is written or none is.
@@ -373,19 +401,20 @@ class CheckLog:
                         "INSERT OR IGNORE INTO aircraft_data (fingerprint, data) VALUES (?, ?)",
                         (fingerprint, json.dumps(data, sort_keys=True, separators=(",", ":"))),
                     )
-                result = record["result"]
-                legs = 1 + len(record["inputs"].get("leg") or ())
+                kept = record.get("stored") or stored(record["result"], record["inputs"])
+                if kept.inputs is None:
+                    raise ValueError("a record needs the inputs of its check")
                 values = (
                     now,
                     record.get("registration"),
                     record.get("reference"),
                     record.get("pilot"),
                     record.get("source"),
-                    result.get("category"),
-                    int(bool(result.get("ok"))),
+                    kept.category,
+                    int(kept.ok),
                     fingerprint,
-                    _stored_json(record["inputs"], default=str),
-                    _stored_json(result),
+                    kept.inputs,
+                    kept.result,
                     record.get("version", ""),
                 )
                 flight_date = record.get("flight_date")
@@ -393,7 +422,7 @@ class CheckLog:
                     "INSERT INTO checks (checked_at, registration, reference, pilot, source, category, ok, "
                     "fingerprint, inputs, result, version, seal, legs, flight_date) "
                     "VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)",
-                    (*values, _seal(*values, flight_date), legs, flight_date),
+                    (*values, _seal(*values, flight_date), kept.legs, flight_date),
                 )
                 ids.append(int(cursor.lastrowid or 0))
             self._db.execute("COMMIT")

@@ -16,6 +16,7 @@ grow with the number of rows and the cost grows linearly with it. How a chunk is
 from __future__ import annotations
 
 import csv
+import dataclasses
 import datetime as dt
 import gc
 import io
@@ -32,8 +33,11 @@ from functools import cached_property, lru_cache
 from pathlib import Path
 from typing import Any
 
+import orjson
+
 from .aircraft import RESERVED_IDS, Aircraft
 from .check import check_many
+from .checklog import Stored, stored
 from .errors import FileFormatError, InputError, LoadcheckError, Problem
 from .files import encoding_problem, file_kind, named_elsewhere, open_regular, parse_aircraft, parse_loading, read_toml
 from .loading import Loading, burn_order, recorded_inputs, resolve_loading
@@ -295,11 +299,70 @@ def _csv_rows(path: Path, fleet: Fleet) -> tuple[Iterator[FlightRow], list[str]]
             raise FileFormatError(f"not UTF-8 text (bad byte in the header, {error.reason})", file=path) from None
         columns, file_problems, unknown = _read_header(path, header, fleet)
         names = [name for name, _ in columns]
-        scattered = _scattered_trips(path, names.index(TRIP_COLUMN)) if TRIP_COLUMN in names else {}
+        trip_at = names.index(TRIP_COLUMN) if TRIP_COLUMN in names else None
+        reading = _CsvReading(
+            path,
+            columns,
+            unknown,
+            _roles(columns, unknown),
+            _fixed_columns(columns),
+            _scattered_trips(path, trip_at) if trip_at is not None else {},
+            trip_at,
+        )
     except BaseException:
         buffered.close()
         raise
-    return _stream_rows(path, text, reader, columns, fleet, unknown, scattered), file_problems
+    return _CsvRows(reading, fleet, _stream_units(reading, text, reader)), file_problems
+
+
+_Unit = list[tuple[int, list[str]]]
+"""The records of one flight as the csv module reads them, each with the line it starts on: one
+row, or the consecutive rows of one trip id."""
+
+
+@dataclass(frozen=True)
+class _CsvReading:
+    """What reading a CSV file's rows takes from its header, found once for the file."""
+
+    path: Path
+    columns: list[tuple[str, str | None]]
+    unknown: set[str]
+    roles: list[tuple[int, str, str | None, str]]  # :func:`_roles`
+    fixed: list[tuple[int, str]]  # :func:`_fixed_columns`
+    scattered: dict[str, list[int]]  # :func:`_scattered_trips`
+    trip_at: int | None  # the place of the trip id column
+
+    def trip(self, record: list[str]) -> str | None:
+        """The trip id of a record, as :func:`_csv_cells` reads it (None: not a trip's row)."""
+        at = self.trip_at
+        if at is None or at >= min(len(record), len(self.columns)):
+            return None
+        return record[at].strip() or None
+
+    def flight(self, unit: _Unit, fleet: Fleet) -> FlightRow:
+        """One flight read from its records (the one place a CSV row becomes a flight)."""
+        return _joined(
+            [
+                _csv_cells(self.path, line, self.columns, record, fleet, self.unknown, self.roles, self.fixed)
+                for line, record in unit
+            ],
+            self.scattered,
+        )
+
+
+class _CsvRows(Iterator[FlightRow]):
+    """The flights of a CSV file, read one at a time; or, through :meth:`units`, their records
+    unread, for :func:`check_flights` to read where it checks them (in a worker process)."""
+
+    def __init__(self, reading: _CsvReading, fleet: Fleet, units: Iterator[_Unit]):
+        self.reading, self._fleet, self._units = reading, fleet, units
+
+    def __next__(self) -> FlightRow:
+        return self.reading.flight(next(self._units), self._fleet)
+
+    def units(self) -> Iterator[_Unit]:
+        """The records of each flight not yet read (the same stream: read one way only)."""
+        return self._units
 
 
 def _numbered(reader: Any) -> Iterator[tuple[int, list[str]]]:
@@ -394,33 +457,26 @@ def _read_header(
     return columns, file_problems, set(unknown) | ({""} if "" in names else set())
 
 
-def _stream_rows(
-    path: Path,
-    text: io.TextIOWrapper,
-    reader: Any,
-    columns: list[tuple[str, str | None]],
-    fleet: Fleet,
-    unknown: set[str],
-    scattered: dict[str, list[int]],
-) -> Iterator[FlightRow]:
+def _stream_units(reading: _CsvReading, text: io.TextIOWrapper, reader: Any) -> Iterator[_Unit]:
+    """The records of each flight, in order, as they are read (a trip's consecutive rows together)."""
+    path = reading.path
     count = 0
-    pending: list[_RawRow] = []
-    roles = _roles(columns, unknown)
-    fixed = _fixed_columns(columns)
+    pending: _Unit = []
+    pending_trip: str | None = None
     try:
         for line, record in _numbered(reader):
             if not "".join(record).strip():  # a row of empty cells (or of spaces) is no flight
                 continue
             count += 1
-            raw = _csv_cells(path, line, columns, record, fleet, unknown, roles, fixed)
-            if pending and raw.trip is not None and raw.trip == pending[0].trip:
-                pending.append(raw)
+            trip = reading.trip(record)
+            if pending and trip is not None and trip == pending_trip:
+                pending.append((line, record))
                 continue
             if pending:
-                yield _joined(pending, scattered)
-            pending = [raw]
+                yield pending
+            pending, pending_trip = [(line, record)], trip
         if pending:
-            yield _joined(pending, scattered)
+            yield pending
     except csv.Error as error:
         raise FileFormatError(f"CSV error at line {reader.line_num}: {error}", file=path) from None
     except UnicodeDecodeError as error:
@@ -503,11 +559,6 @@ def _joined(rows: list[_RawRow], scattered: dict[str, list[int]] | None = None) 
     problems = [p for row in rows for p in row.problems]
     if first.trip is not None:
         problems += _trip_problems(rows, scattered or {})
-        if problems:
-            problems.append(
-                f"{first.source}: trip {first.trip!r} ({_lines_text(r.line for r in rows)}) is not checked: "
-                "a trip with a problem in any of its rows is refused whole, so none of its legs is checked"
-            )
     data = first.data
     if len(rows) > 1:
         legs = []
@@ -527,6 +578,11 @@ def _joined(rows: list[_RawRow], scattered: dict[str, list[int]] | None = None) 
             leg = {"load": row.data["load"], "add_fuel": row.data["fuel"], "burn": row.data["burn"]}
             legs.append(leg | ({"label": row.data["label"]} if "label" in row.data else {}))
         data = data | {"leg": legs}
+    if first.trip is not None and problems:  # said last, after every problem of its rows
+        problems.append(
+            f"{first.source}: trip {first.trip!r} ({_lines_text(r.line for r in rows)}) is not checked: "
+            "a trip with a problem in any of its rows is refused whole, so none of its legs is checked"
+        )
     loading = None
     if not problems:
         try:
@@ -654,7 +710,10 @@ def _csv_cells(
         elif role == "text":
             data[name] = value
         elif role == "order":
-            data["burn"]["order"] = burn_order(value, "order", "csv")
+            try:
+                data["burn"]["order"] = burn_order(value, "order", "csv")
+            except LoadcheckError as error:  # a problem of this row, not of the file: the other rows are checked
+                problems += [f"{where}: {p.describe()}" for p in error.problems]
         elif role == "burn":
             data["burn"][name] = _typed(value, unit)
     return _RawRow(where, line, source, registration, reference, pilot, trip, data, problems, leg, date)
@@ -780,17 +839,22 @@ def read_loadings(source: str | Path, fleet: Fleet) -> tuple[Iterator[FlightRow]
 
 @dataclass(frozen=True)
 class Flight:
-    """The outcome of one flight: the check's JSON form, or the reasons it could not be made."""
+    """The outcome of one flight: the check as the log stores it, or the reasons it could not be made."""
 
     row: FlightRow
-    result: dict[str, Any] | None
+    stored: Stored | None  # the check's JSON text and verdict (checklog.stored); None: not checked
     problems: list[str]
     record_id: int | None = None
+
+    @cached_property
+    def result(self) -> dict[str, Any] | None:
+        """The check's JSON form (that of ``check --json``; of a trip, ``legs`` and the trip's ``ok``)."""
+        return None if self.stored is None else orjson.loads(self.stored.result)
 
     @property
     def ok(self) -> bool:
         """Checked and within limits."""
-        return self.result is not None and bool(self.result["ok"])
+        return self.stored is not None and self.stored.ok
 
     @property
     def is_trip(self) -> bool:
@@ -821,19 +885,19 @@ class Flight:
             self.row.lines,
             self.row.date,
         )
-        result = None
-        if self.result is not None:
+        kept = None
+        if self.stored is not None and self.result is not None:
             result = _brief(self.result)
             if self.is_trip:
                 result["legs"] = [
                     _brief(leg) | {"leg": leg["leg"], "label": leg.get("label")} for leg in self.result["legs"]
                 ]
                 del result["conditions"]
-        return Flight(row, result, self.problems, self.record_id)
+            kept = self.stored._replace(result=orjson.dumps(result).decode(), inputs=None)
+        return Flight(row, kept, self.problems, self.record_id)
 
-    def to_dict(self) -> dict[str, Any]:
-        """The JSON Lines object: the fields of ``check --json`` (of a trip: ``legs`` and the trip's
-        ``ok``) and where the flight came from (a trip's ``trip_id`` and the ``lines`` of its legs)."""
+    def _head(self) -> dict[str, Any]:
+        """Where the flight came from: the fields a JSON line gives before the check's."""
         head: dict[str, Any] = {
             "line": self.row.line,
             "source": self.row.source,
@@ -845,12 +909,29 @@ class Flight:
             head["date"] = self.row.date
         if self.row.trip is not None:
             head |= {"trip_id": self.row.trip, "lines": list(self.row.lines)}
+        return head
+
+    def to_dict(self) -> dict[str, Any]:
+        """The JSON Lines object: the fields of ``check --json`` (of a trip: ``legs`` and the trip's
+        ``ok``) and where the flight came from (a trip's ``trip_id`` and the ``lines`` of its legs)."""
+        head = self._head()
         if self.result is None:
             return {**head, "ok": False, "input_error": self.problems}
         head.update(self.result)  # a key of both keeps its place and takes the result's value, as {**head, **result}
         if self.record_id is not None:
             head["record"] = self.record_id
         return head
+
+    def json_line(self) -> bytes:
+        """:meth:`to_dict` as one line of JSON (UTF-8, newline at the end), written from the stored
+        text of the check as it is: the record and the line are one serialization."""
+        if self.stored is None:
+            return orjson.dumps(self.to_dict(), option=orjson.OPT_APPEND_NEWLINE)
+        head = orjson.dumps(self._head())
+        tail = self.stored.result.encode()
+        if self.record_id is not None:
+            tail = b'%s,"record":%d}' % (tail[:-1], self.record_id)
+        return b"%s,%s\n" % (head[:-1], tail[1:])
 
 
 def _brief(result: dict[str, Any]) -> dict[str, Any]:
@@ -878,20 +959,32 @@ PARENT_POLL = 0.2
 """How often a worker process looks whether its parent is still alive [s]."""
 
 _FLEET: Fleet | None = None  # the fleet, inherited by worker processes
+_READING: _CsvReading | None = None  # how the CSV being checked is read, inherited by worker processes
+_RECORDING = False  # the checks are recorded: their inputs are stored with them (inherited by workers)
 
 
 def default_workers() -> int:
-    """Processes a fleet check uses unless told: one.
+    """Processes a fleet check uses unless told: two where the machine gives this process two
+    cores or more, else one.
 
-    Measured (docs/performance.md, benchmarks/fleet.py): with the rows of each chunk
-    checked together, handing chunks to a second process costs about what it saves (the
-    results are pickled back), so one process is the default; ``--workers 2`` is there for
-    a machine with idle cores.
+    Measured (docs/performance.md, benchmarks/fleet.py): a worker is given each flight's CSV
+    records as read and sends back the check's stored JSON text, so little crosses between the
+    processes, and two workers about halve the wall time of a long day. Workers start only once
+    a second chunk of flights comes: a short day is checked in this process alone.
     """
-    return 1
+    try:
+        cores = len(os.sched_getaffinity(0))
+    except AttributeError:  # not on every platform
+        cores = os.cpu_count() or 1
+    return 2 if cores >= 2 else 1
 
 
-def _check_chunk(rows: list[FlightRow]) -> list[tuple[dict[str, Any] | None, list[str]]]:
+def _outcome(row: FlightRow, result: dict[str, Any]) -> Stored:
+    """A checked flight's result as the log stores it, with its inputs where they are recorded."""
+    return stored(result, recorded_inputs(row.loading) if _RECORDING and row.loading is not None else None)
+
+
+def _check_chunk(rows: list[FlightRow]) -> list[tuple[Stored | None, list[str]]]:
     """Check a chunk of rows (the one place that decides how a row is checked).
 
     Each usable row is resolved against its aircraft; the rows of each aircraft are then
@@ -913,10 +1006,10 @@ def _check_chunk(rows: list[FlightRow]) -> list[tuple[dict[str, Any] | None, lis
             gc.enable()
 
 
-def _checked_rows(rows: list[FlightRow]) -> list[tuple[dict[str, Any] | None, list[str]]]:
+def _checked_rows(rows: list[FlightRow]) -> list[tuple[Stored | None, list[str]]]:
     """:func:`_check_chunk`'s work (there, with the cycle collector held off)."""
     assert _FLEET is not None
-    out: list[tuple[dict[str, Any] | None, list[str]]] = [(None, [])] * len(rows)
+    out: list[tuple[Stored | None, list[str]]] = [(None, [])] * len(rows)
     by_aircraft: dict[str, tuple[Aircraft, list[int], list[Any]]] = {}
     for index, row in enumerate(rows):
         if row.problems or row.loading is None or row.registration is None:
@@ -927,7 +1020,7 @@ def _checked_rows(rows: list[FlightRow]) -> list[tuple[dict[str, Any] | None, li
             if row.loading.leg:  # a trip: every leg checked as a single loading is (check_trip)
                 from .trip import check_trip
 
-                out[index] = (check_trip(aircraft, row.loading, samples=False).to_dict(), [])
+                out[index] = (_outcome(row, check_trip(aircraft, row.loading, samples=False).to_dict()), [])
                 continue
             resolved = resolve_loading(row.loading, aircraft)
         except LoadcheckError as error:
@@ -938,8 +1031,24 @@ def _checked_rows(rows: list[FlightRow]) -> list[tuple[dict[str, Any] | None, li
         group[2].append(resolved)
     for aircraft, indices, resolved_rows in by_aircraft.values():
         for index, result in zip(indices, check_many(aircraft, resolved_rows, samples=False), strict=True):
-            out[index] = (result.to_dict(), [])
+            out[index] = (_outcome(rows[index], result.to_dict()), [])
     return out
+
+
+def _check_rows(rows: list[FlightRow]) -> list[tuple[FlightRow, tuple[Stored | None, list[str]]]]:
+    """Each row of a chunk with its outcome (:func:`_check_chunk`)."""
+    return list(zip(rows, _check_chunk(rows), strict=True))
+
+
+def _check_units(units: list[_Unit]) -> list[tuple[FlightRow, tuple[Stored | None, list[str]]]]:
+    """A worker's job: read each flight of a chunk from its CSV records, check the chunk
+    (:func:`_check_chunk`) and give back each row, without its loading model (the stored
+    inputs carry it), with its outcome."""
+    assert _FLEET is not None and _READING is not None
+    rows = [_READING.flight(unit, _FLEET) for unit in units]
+    return [
+        (dataclasses.replace(row, loading=None), outcome) for row, outcome in zip(rows, _check_chunk(rows), strict=True)
+    ]
 
 
 def _row_problem(row: FlightRow, problem: Problem) -> str:
@@ -968,30 +1077,40 @@ def _end_with_parent(parent: int) -> None:
     threading.Thread(target=watch, name="loadcheck-parent-watch", daemon=True).start()
 
 
-def _chunks(rows: Iterable[FlightRow]) -> Iterator[list[FlightRow]]:
-    iterator = iter(rows)
+def _chunks(items: Iterable[Any]) -> Iterator[list[Any]]:
+    iterator = iter(items)
     while chunk := list(itertools.islice(iterator, CHUNK)):
         yield chunk
 
 
-def _checked(chunks: Iterator[list[FlightRow]], workers: int) -> Iterator[tuple[list[FlightRow], list[Any]]]:
-    """Each chunk with its outcomes, in order; at most ``workers * IN_FLIGHT`` chunks held.
+def _checked(
+    rows: Iterable[FlightRow], workers: int
+) -> Iterator[list[tuple[FlightRow, tuple[Stored | None, list[str]]]]]:
+    """Each chunk's rows with their outcomes, in order; at most ``workers * IN_FLIGHT`` chunks held.
 
-    Worker processes (forked, where the platform can) start only once a second chunk
-    comes, and end with their parent.
+    With more than one worker, worker processes (forked, where the platform can) start only
+    once a second chunk comes, and end with their parent. The rows of a CSV file are handed
+    to them as the csv module read them (:func:`_check_units`), and come back without their
+    loading models: reading and checking are both done where the flight is checked.
     """
+    global _READING
+    import multiprocessing
+
+    parallel = workers > 1 and "fork" in multiprocessing.get_all_start_methods()
+    job: Any = _check_rows
+    chunks: Iterator[list[Any]]
+    if parallel and isinstance(rows, _CsvRows):
+        _READING, job, chunks = rows.reading, _check_units, _chunks(rows.units())
+    else:
+        chunks = _chunks(rows)
     first = next(chunks, None)
     if first is None:
         return
-    second = next(chunks, None) if workers > 1 else None
-    import multiprocessing
-
-    if second is None or "fork" not in multiprocessing.get_all_start_methods():
-        yield first, _check_chunk(first)
-        if second is not None:
-            yield second, _check_chunk(second)
+    second = next(chunks, None) if parallel else None
+    if second is None:  # one process, or only one chunk: checked here, as a worker would
+        yield job(first)
         for chunk in chunks:
-            yield chunk, _check_chunk(chunk)
+            yield job(chunk)
         return
     from concurrent.futures import ProcessPoolExecutor
 
@@ -1002,17 +1121,16 @@ def _checked(chunks: Iterator[list[FlightRow]], workers: int) -> Iterator[tuple[
         initargs=(os.getpid(),),
     )
     try:
-        pending: deque[tuple[list[FlightRow], Any]] = deque()
+        pending: deque[Any] = deque()
         for chunk in itertools.chain((first, second), chunks):
-            pending.append((chunk, pool.submit(_check_chunk, chunk)))
+            pending.append(pool.submit(job, chunk))
             if len(pending) >= workers * IN_FLIGHT:
-                done, future = pending.popleft()
-                yield done, future.result()
+                yield pending.popleft().result()
         while pending:
-            done, future = pending.popleft()
-            yield done, future.result()
+            yield pending.popleft().result()
     finally:
         pool.shutdown(wait=True, cancel_futures=True)
+        _READING = None
 
 
 def check_flights(
@@ -1027,8 +1145,8 @@ def check_flights(
     the checks go (a few chunks ahead), so a day of any length is checked in bounded
     memory; worker processes end when their parent does, even when it is killed.
     """
-    global _FLEET
-    _FLEET = fleet
+    global _FLEET, _RECORDING
+    _FLEET, _RECORDING = fleet, log is not None
     # What exists before the check (the modules, the fleet's models) is set apart from the cycle
     # collector while it runs (gc.freeze): a chunk's thousands of rows and results, alive until
     # the chunk is reported, made its collections go over all of that again and again (about a
@@ -1037,12 +1155,12 @@ def check_flights(
     if freezing:
         gc.freeze()
     try:
-        for chunk, results in _checked(_chunks(rows), workers):
-            ids: list[int | None] = [None] * len(chunk)
+        for checked in _checked(rows, workers):
+            ids: list[int | None] = [None] * len(checked)
             if log is not None:
                 entries = []
-                for index, (row, (result, _)) in enumerate(zip(chunk, results, strict=True)):
-                    if result is None or row.loading is None or row.registration is None:
+                for index, (row, (kept, _)) in enumerate(checked):
+                    if kept is None or row.registration is None:
                         continue
                     aircraft = fleet.aircraft(row.registration)
                     entries.append(
@@ -1051,8 +1169,7 @@ def check_flights(
                             {
                                 "aircraft_data": (lambda a=aircraft: a.model_dump(mode="json")),
                                 "fingerprint": aircraft.fingerprint,
-                                "inputs": recorded_inputs(row.loading),
-                                "result": result,
+                                "stored": kept,  # the inputs as given (loading.recorded_inputs) and the result
                                 # the aircraft's own, as `check --log` records it and `log verify` compares it
                                 # (the row may write it in another case, or without its hyphen)
                                 "registration": aircraft.registration or row.registration,
@@ -1066,10 +1183,10 @@ def check_flights(
                     )
                 for (index, _), record_id in zip(entries, log.add_many([e for _, e in entries]), strict=True):
                     ids[index] = record_id
-            for row, (result, problems), record_id in zip(chunk, results, ids, strict=True):
-                yield Flight(row, result, problems, record_id)
+            for (row, (kept, problems)), record_id in zip(checked, ids, strict=True):
+                yield Flight(row, kept, problems, record_id)
     finally:
-        _FLEET = None
+        _FLEET, _RECORDING = None, False
         if freezing:
             gc.unfreeze()
 

@@ -1027,3 +1027,90 @@ def test_the_fleet_table_of_an_aircraft_without_lateral_arms_shows_no_lateral_cg
         app, ["fleet", "check", str(folder), str(folder / "day.csv"), "--no-log"], env={"COLUMNS": "200"}
     ).stdout
     assert "lat." not in text
+
+
+# -- issue 18: the second core, with the CSV records read where they are checked ---------------------
+
+
+def _day_with_trips(path: Path, copies: int) -> Path:
+    """The sample day (input errors and warnings among its rows) ``copies`` times over, with a
+    ``trip_id`` column: every ninth row is followed by a second leg of its trip (the same cells:
+    the same loads, its fuel put in again at the stop), every 27th with another pilot on that
+    leg (refused whole: a trip's rows must agree), so that every kind of flight crosses to the workers."""
+    with open(DAY, newline="") as handle:
+        reader = csv.DictReader(handle)
+        rows, fields = list(reader), list(reader.fieldnames or [])
+    with open(path, "w", newline="") as out:
+        writer = csv.DictWriter(out, fieldnames=[*fields, "trip_id"])
+        writer.writeheader()
+        for copy in range(copies):
+            for i, row in enumerate(rows):
+                if i % 9 or not row["registration"]:
+                    writer.writerow(row | {"trip_id": ""})
+                    continue
+                trip = f"T{copy}-{i}"
+                writer.writerow(row | {"trip_id": trip})
+                writer.writerow(row | {"trip_id": trip} | ({"pilot": "Another"} if i % 27 == 0 else {}))
+    return path
+
+
+def _records(path: Path) -> list[tuple]:
+    """Every record of a check log, without its time (and so its seal) and id."""
+    with sqlite3.connect(path) as db:
+        return db.execute(
+            "SELECT registration, reference, pilot, source, category, ok, fingerprint, inputs, result, "
+            "version, legs, flight_date FROM checks ORDER BY id"
+        ).fetchall()
+
+
+def test_two_workers_give_every_flight_and_record_one_process_gives(tmp_path, monkeypatch):
+    # the second core: the workers read each flight from its CSV records and send back the
+    # stored check; every line and every record must be the one a single process makes
+    from loadcheck import fleet as fleet_module
+
+    monkeypatch.setattr(fleet_module, "CHUNK", 16)  # many chunks, so that the workers start
+    day = _day_with_trips(tmp_path / "day.csv", 3)
+    fleet = load_fleet(SAMPLES)
+    flights, lines = {}, {}
+    for workers in (1, 2):
+        with CheckLog(tmp_path / f"{workers}.db") as log:
+            rows, problems = read_loadings(day, fleet)
+            assert problems == []
+            flights[workers] = list(check_flights(fleet, rows, log, "test", workers=workers))
+        lines[workers] = [flight.json_line() for flight in flights[workers]]
+    one, two = flights[1], flights[2]
+    assert all(f.row.loading is None for f in two) and any(f.row.loading is not None for f in one)  # crossed
+    assert lines[1] == lines[2]
+    assert _records(tmp_path / "1.db") == _records(tmp_path / "2.db")
+    assert [f.problems for f in one] == [f.problems for f in two]
+    kinds = {(f.stored is None, f.ok, f.is_trip, bool(f.warnings)) for f in one}
+    assert {(True, False, False, False), (False, True, False, False), (False, False, False, False)} <= kinds
+    assert any(f.is_trip for f in one) and any(f.warnings for f in one)
+    assert any("trip" in p and "is not checked" in p for f in one for p in f.problems)
+
+
+def test_a_json_line_is_the_flights_json_form(tmp_path):
+    # the line is written from the stored text of the check; it must be the flight's to_dict
+    day = _day_with_trips(tmp_path / "day.csv", 1)
+    fleet = load_fleet(SAMPLES)
+    with CheckLog(tmp_path / "log.db") as log:
+        recorded = list(check_flights(fleet, read_loadings(day, fleet)[0], log, "test"))
+    flights = recorded + list(check_flights(fleet, read_loadings(day, fleet)[0]))
+    assert any(f.record_id for f in flights) and any(f.is_trip for f in flights)
+    for flight in flights:
+        assert flight.json_line().endswith(b"\n")
+        assert json.loads(flight.json_line()) == flight.to_dict()
+        assert list(json.loads(flight.json_line())) == list(flight.to_dict())  # the same keys, in order
+
+
+def test_a_bad_burn_order_cell_is_a_problem_of_its_row(runner, tmp_path):
+    # a burn order cell with an empty entry ended the whole file with one problem naming no line,
+    # and the other rows were not checked; it is that row's problem, said with its line
+    day = tmp_path / "day.csv"
+    day.write_text("registration,reference,front,mains,order\nDEMO-4T,A,170,20,\nDEMO-4T,B,170,20,a;;b\n")
+    result = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(day), "--json", "--no-log"])
+    assert result.exit_code == 2, result.output
+    first, second = _json_lines(result.stdout)
+    assert first["line"] == 2 and first["ok"] is True and "conditions" in first
+    assert second["line"] == 3 and second["ok"] is False
+    assert any(p.startswith(f"{day}:3: order:") and "empty entry" in p for p in second["input_error"])
