@@ -191,10 +191,16 @@ def _seal_text(fields: list[Any]) -> bytes:
     writing other characters as they are, where the json module escapes them), about five times
     quicker on a record's fields; otherwise the json module writes them.
     """
-    if all(type(f) is not str or (f.isascii() and "\x7f" not in f) for f in fields):
-        import orjson
+    import orjson
 
-        return orjson.dumps(fields)
+    try:
+        text = orjson.dumps(fields)
+    except orjson.JSONEncodeError:  # a lone surrogate (a command-line byte that is not UTF-8): json escapes it
+        text = b"\x80"
+    # orjson writes a character past ASCII, and DEL, as it is (the json module escapes them), so
+    # its text is ASCII without DEL exactly where every text of the fields is: looked at once, in C
+    if text.isascii() and b"\x7f" not in text:
+        return text
     return json.dumps(fields, separators=(",", ":")).encode("utf-8")
 
 

@@ -389,6 +389,8 @@ _SEAL_TEXTS = [
     "Zürich, 42 °",  # not ASCII: written by the json module
     "\x7f",
     "",
+    "\udcff",  # a lone surrogate (a command-line byte that is not UTF-8): orjson refuses it, json escapes it
+    "\u2028 \U0001f6e9",  # a line separator and a character past the BMP
 ]
 
 
