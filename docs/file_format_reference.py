@@ -58,12 +58,13 @@ RULES: dict[str, str] = {
     "station_group.id": "optional short name, used in findings and in the JSON `subject`",
     "station_group.stations": "ids of stations of this file",
     "station_group.max_weight": "at least one of `max_weight`, `min_weight`",
-    "tank.id": "as for stations",
+    "tank.id": "as for stations; not `together` (the burn order's word for every tank burned together)",
     "tank.arm": "required unless `arm_table` is given; not both",
     "tank.usable": "> 0",
     "tank.fuel": "default densities: avgas and mogas 6.0 lb/US gal, jet 6.7 lb/US gal (loadcheck/fuel.py)",
     "tank.density": "> 0; one of `fuel` and `density` is required; `density` wins",
-    "tank.levels": "each 0 to `usable`; `full` is built in",
+    "tank.levels": "each 0 to `usable`; `full` is built in; a name is a word: one that reads as an amount "
+    "(`12`, `5 l`) or differs from another only in letter case is refused",
     "tank.arm_table": "`[[quantity, arm], ...]`, at least 2 points, quantities strictly increasing "
     "within 0 to `usable`; "
     "the end arm is held beyond the ends",

@@ -316,11 +316,20 @@ class Tank(_Model):
     @field_validator("levels")
     @classmethod
     def _level_names(cls, levels: dict[str, float]) -> dict[str, float]:
+        seen: dict[str, str] = {}
         for name, quantity in levels.items():
             if name.lower() == "full":
                 raise ValueError("'full' is built in and cannot be redefined as a level")
             if quantity < 0:
                 raise ValueError(f"level {name!r} is negative ({quantity})")
+            if _reads_as_amount(name):  # fail closed: "12" typed must be 12, never a level of another amount
+                raise ValueError(
+                    f"level {name!r} reads as an amount of fuel, so a loading's {name!r} could mean either; "
+                    "name the level with a word (e.g. 'tabs', 'half')"
+                )
+            other = seen.setdefault(name.lower(), name)
+            if other != name:
+                raise ValueError(f"levels {other!r} and {name!r} differ only in letter case; give them other names")
         return levels
 
     @model_validator(mode="after")
@@ -671,6 +680,19 @@ class Aircraft(_Model):
         return hashlib.sha256(canonical.encode()).hexdigest()[:16]
 
 
+def _reads_as_amount(text: str) -> bool:
+    """True where ``text`` reads as an amount (``12``, ``5 l``, ``3.5 usgal``): no name for a level."""
+    try:
+        parse_quantity(text)
+    except (UnitError, ValueError):
+        return False
+    return True
+
+
+BURN_TOGETHER = "together"
+"""The burn order's keyword for every tank burned together (loadcheck.loading.burn_order): no tank id."""
+
+
 def _boundary_problems(aircraft: Aircraft) -> list[str]:
     """Rules that keep a value from being misread later: ids that a fleet CSV would read
     as its own columns, a category with no fore-and-aft CG limit, a fuel density no fuel
@@ -685,6 +707,12 @@ def _boundary_problems(aircraft: Aircraft) -> list[str]:
                 f"{where}[{index}].id: {name!r} is a reserved name (a column of the fleet CSV: "
                 f"{', '.join(RESERVED_IDS)}), so its {'weight' if where == 'station' else 'fuel'} could be read as "
                 f"something else; choose another id, e.g. {name + '_' + where!r}"
+            )
+    for index, tank in enumerate(aircraft.tank):
+        if tank.id.lower() == BURN_TOGETHER:
+            problems.append(
+                f"tank[{index}].id: {tank.id!r} is the burn order's word for every tank burned together, so "
+                f"an order naming this tank alone would be read as that; choose another id, e.g. {tank.id + '_tank'!r}"
             )
     for category in aircraft.categories:
         envelopes = aircraft.envelopes_for(category)

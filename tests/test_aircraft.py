@@ -337,3 +337,31 @@ def test_regression_a_blank_aircraft_name_passed(name):
     data = sample_data("trainer4/aircraft.toml")
     data["name"] = name
     assert "name: " in _problems(data) and "name is blank" in _problems(data)
+
+
+@pytest.mark.parametrize("name", ["12", "12.0", "5 l", "3 usgal", " 7 ", ".5"])
+def test_a_level_name_that_reads_as_an_amount_is_refused(name):
+    # an outside trial's find: a level "12" (3 gal) took the place of the 12 gal typed as fuel = "12",
+    # and the check said within limits where 12 gal is out; the TOML number 12 and the fleet CSV cell
+    # were read as 12 gal. A name that reads as an amount would always be ambiguous (fail closed)
+    data = sample_data("trainer4/aircraft.toml")
+    data["tank"][0]["levels"] = {name: 3}
+    assert "reads as an amount of fuel" in _problems(data)
+
+
+def test_level_names_that_differ_only_in_case_are_refused():
+    # as station and tank ids are: 'HALF' and 'half' in one file, one of them unreachable as typed
+    data = sample_data("trainer4/aircraft.toml")
+    data["tank"][0]["levels"] = {"half": 20, "HALF": 10}
+    assert "differ only in letter case" in _problems(data)
+    data["tank"][0]["levels"] = {"half": 20, "tabs": 10, "1e999x": 5}  # words (and a text no amount reads as)
+    parse_aircraft(data, "test.toml")
+
+
+@pytest.mark.parametrize("name", ["together", "Together", "TOGETHER"])
+def test_a_tank_may_not_take_the_burn_orders_keyword(name):
+    # an outside trial's find: a tank 'together' could not be burned alone from the command line, the
+    # CSV or the desk: the order 'together' is always read as every tank burned together
+    with pytest.raises(InputError, match=rf"tank\[0\].id: {name!r} is the burn order's word"):
+        simple_aircraft(tank=[{"id": name, "arm": 45.0, "usable": 40.0, "fuel": "avgas"}])
+    simple_aircraft(station=[{"id": "together", "arm": 35.0}])  # a station of that name is never a burn order
