@@ -307,7 +307,7 @@ def _csv_rows(path: Path, fleet: Fleet) -> tuple[Iterator[FlightRow], list[str]]
             unknown,
             _roles(columns, unknown),
             _fixed_columns(columns),
-            _scattered_trips(path, trip_at) if trip_at is not None else {},
+            *(_scattered_trips(path, trip_at) if trip_at is not None else ({}, {})),
             trip_at,
         )
     except BaseException:
@@ -331,6 +331,7 @@ class _CsvReading:
     roles: list[tuple[int, str, str | None, str]]  # :func:`_roles`
     fixed: list[tuple[int, str]]  # :func:`_fixed_columns`
     scattered: dict[str, list[int]]  # :func:`_scattered_trips`
+    clashes: dict[str, list[tuple[str, int]]]  # the trip ids differing only in case (the same)
     trip_at: int | None  # the place of the trip id column
 
     def trip(self, record: list[str]) -> str | None:
@@ -348,6 +349,7 @@ class _CsvReading:
                 for line, record in unit
             ],
             self.scattered,
+            self.clashes,
         )
 
 
@@ -375,9 +377,11 @@ def _numbered(reader: Any) -> Iterator[tuple[int, list[str]]]:
         first = reader.line_num + 1
 
 
-def _scattered_trips(path: Path, trip_at: int) -> dict[str, list[int]]:
+def _scattered_trips(path: Path, trip_at: int) -> tuple[dict[str, list[int]], dict[str, list[tuple[str, int]]]]:
     """Trip ids whose rows do not all come one after another: each with the line where each
-    of its runs of rows begins.
+    of its runs of rows begins; and trip ids that differ from another only in letter case: each
+    with the other spellings and the line each begins at (``A`` and ``a`` are refused, not taken
+    as one trip or as two: either could be what was meant).
 
     A quick first pass over the file, reading only the trip id of each row, so that every
     part of such a trip is refused, the first part too (it would otherwise be checked
@@ -406,7 +410,16 @@ def _scattered_trips(path: Path, trip_at: int) -> dict[str, list[int]]:
                 current = trip or None
         except csv.Error:
             pass
-    return scattered
+    spellings: dict[str, list[str]] = {}
+    for trip in starts:
+        spellings.setdefault(trip.casefold(), []).append(trip)
+    clashes = {
+        trip: [(other, starts[other]) for other in alike if other != trip]
+        for alike in spellings.values()
+        if len(alike) > 1
+        for trip in alike
+    }
+    return scattered, clashes
 
 
 def _read_header(
@@ -441,6 +454,15 @@ def _read_header(
         raise FileFormatError(
             f"the column {LEG_COLUMN!r} numbers the legs of a trip, but the header has no "
             f"{TRIP_COLUMN!r} column saying which trip each row belongs to",
+            file=path,
+        )
+    unitless = [
+        f"{name} [{unit}]" for name, unit in columns if unit is not None and name in (*_NOT_AMOUNTS, *_TEXT_COLUMNS)
+    ]
+    if unitless:  # a unit there would be dropped without a word: the author meant something it cannot say
+        raise FileFormatError(
+            f"column(s) {', '.join(map(repr, unitless))}: a unit on a column that holds no amount; "
+            "write the column name alone",
             file=path,
         )
     unknown = [n for n in names if n and n not in RESERVED_COLUMNS and n not in known]
@@ -503,6 +525,7 @@ class _RawRow:
     problems: list[str]
     leg: int | None = None
     date: str | None = None  # the row's date cell, a calendar date (YYYY-MM-DD) as written
+    leg_given: bool = False  # the row's leg cell holds something (a leg number, or a text refused as none)
 
 
 def _lines_text(lines: Iterable[int]) -> str:
@@ -513,7 +536,9 @@ def _lines_text(lines: Iterable[int]) -> str:
     )
 
 
-def _trip_problems(rows: list[_RawRow], scattered: dict[str, list[int]]) -> list[str]:
+def _trip_problems(
+    rows: list[_RawRow], scattered: dict[str, list[int]], clashes: dict[str, list[tuple[str, int]]]
+) -> list[str]:
     """Why the rows of one trip id do not make one trip (fail closed: the whole trip is then
     refused): rows of the trip id elsewhere in the file, a second aircraft, legs missing,
     repeated or out of order where the rows number them."""
@@ -525,6 +550,12 @@ def _trip_problems(rows: list[_RawRow], scattered: dict[str, list[int]]) -> list
             f"{first.source}: trip {trip!r} is given in parts, with other flights between them (parts "
             f"beginning at {_lines_text(scattered[trip])}): the rows of one trip come one after another"
         )
+    if trip in clashes:
+        others = ", ".join(f"{other!r} (line {line})" for other, line in clashes[trip])
+        problems.append(
+            f"{first.where}: trip id {trip!r} differs from trip id {others} only in letter case: write them "
+            "alike where the rows are one trip, or give another trip id"
+        )
     for row in rows[1:]:
         if row.registration is not None and first.registration is not None and row.registration != first.registration:
             problems.append(
@@ -534,10 +565,11 @@ def _trip_problems(rows: list[_RawRow], scattered: dict[str, list[int]]) -> list
     if any(row.leg is not None for row in rows):
         for expected, row in enumerate(rows, start=1):
             if row.leg is None:
-                problems.append(
-                    f"{row.where}: no {LEG_COLUMN} number, where other rows of trip {trip!r} give one: "
-                    "number every leg of a trip or none"
-                )
+                if not row.leg_given:  # a leg cell that holds no number is said where it is read
+                    problems.append(
+                        f"{row.where}: no {LEG_COLUMN} number, where other rows of trip {trip!r} give one: "
+                        "number every leg of a trip or none"
+                    )
             elif row.leg != expected and expected == 1:
                 problems.append(
                     f"{row.where}: leg {row.leg} of trip {trip!r}, but no leg 1 of that trip comes before "
@@ -551,7 +583,11 @@ def _trip_problems(rows: list[_RawRow], scattered: dict[str, list[int]]) -> list
     return problems
 
 
-def _joined(rows: list[_RawRow], scattered: dict[str, list[int]] | None = None) -> FlightRow:
+def _joined(
+    rows: list[_RawRow],
+    scattered: dict[str, list[int]] | None = None,
+    clashes: dict[str, list[tuple[str, int]]] | None = None,
+) -> FlightRow:
     """One flight from one row, or one trip from the consecutive rows of one trip id: the first
     row is the first leg; each later row is the next leg, its station cells the new weights,
     its tank cells the fuel put in at the stop, its burn cells the leg's own burn. A trip
@@ -559,7 +595,7 @@ def _joined(rows: list[_RawRow], scattered: dict[str, list[int]] | None = None) 
     first = rows[0]
     problems = [p for row in rows for p in row.problems]
     if first.trip is not None:
-        problems += _trip_problems(rows, scattered or {})
+        problems += _trip_problems(rows, scattered or {}, clashes or {})
     data = first.data
     if len(rows) > 1:
         legs = []
@@ -604,6 +640,9 @@ def _joined(rows: list[_RawRow], scattered: dict[str, list[int]] | None = None) 
     )
 
 
+_TEXT_COLUMNS = ("category", "label", "order")
+"""Loading columns that hold a text, not an amount (no unit may be given in their header)."""
+
 _NOT_AMOUNTS = ("registration", "reference", "pilot", "date", TRIP_COLUMN, LEG_COLUMN)
 """Columns that are not a station, tank or burn value of the loading (read apart, or not at all)."""
 
@@ -618,10 +657,10 @@ def _roles(columns: list[tuple[str, str | None]], unknown: set[str]) -> list[tup
             continue
         if name in unknown:
             role = "unknown"
-        elif name in ("category", "label"):
-            role = "text"
         elif name == "order":
             role = "order"
+        elif name in _TEXT_COLUMNS:
+            role = "text"
         elif name in RESERVED_COLUMNS:
             role = "burn"
         else:
@@ -717,7 +756,7 @@ def _csv_cells(
                 problems += [f"{where}: {p.describe()}" for p in error.problems]
         elif role == "burn":
             data["burn"][name] = _typed(value, unit)
-    return _RawRow(where, line, source, registration, reference, pilot, trip, data, problems, leg, date)
+    return _RawRow(where, line, source, registration, reference, pilot, trip, data, problems, leg, date, bool(leg_text))
 
 
 def _calendar_date(text: str) -> bool:

@@ -1114,3 +1114,41 @@ def test_a_bad_burn_order_cell_is_a_problem_of_its_row(runner, tmp_path):
     assert first["line"] == 2 and first["ok"] is True and "conditions" in first
     assert second["line"] == 3 and second["ok"] is False
     assert any(p.startswith(f"{day}:3: order:") and "empty entry" in p for p in second["input_error"])
+
+
+def test_trip_ids_that_differ_only_in_letter_case_are_refused(runner, tmp_path):
+    # an outside trial's find: 'A' then 'a' were two flights, silently; the second row's blank cells
+    # (unchanged, as a leg) became 0 kg and its fuel put in at the stop became the fuel at engine start
+    day = tmp_path / "day.csv"
+    day.write_text(
+        "registration,reference,trip_id,front,mains,taxi,trip\n"
+        "DEMO-4T,T9,A,170,20,1,5\nDEMO-4T,,a,,10,1,5\nDEMO-4T,T10,B,170,20,1,5\n"
+    )
+    result = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(day), "--json", "--no-log"])
+    assert result.exit_code == 2, result.output
+    first, second, third = _json_lines(result.stdout)
+    assert "input_error" in first and "input_error" in second and third["ok"] is True
+    assert any("trip id 'A' differs from trip id 'a' (line 3) only in letter case" in p for p in first["input_error"])
+    assert any("trip id 'a' differs from trip id 'A' (line 2) only in letter case" in p for p in second["input_error"])
+
+
+def test_an_unreadable_leg_number_is_said_once(runner, tmp_path):
+    # '2.0' was refused as no leg number, then also told "no leg number, where other rows give one"
+    day = tmp_path / "day.csv"
+    day.write_text("registration,reference,trip_id,leg,front,mains\nDEMO-4T,A,T1,1,170,20\nDEMO-4T,,T1,2.0,170,\n")
+    result = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(day), "--json", "--no-log"])
+    assert result.exit_code == 2
+    (line,) = _json_lines(result.stdout)
+    words = line["input_error"]
+    assert any("leg '2.0' is not a leg number" in p for p in words), words
+    assert not any("no leg number" in p or "leg None" in p for p in words), words
+    assert any("is not checked" in p for p in words)
+
+
+@pytest.mark.parametrize("column", ["reference [kg]", "pilot [lb]", "order [l]", "label [kg]", "trip_id [l]"])
+def test_a_unit_on_a_column_that_holds_no_amount_is_refused(runner, tmp_path, column):
+    # 'reference [kg]' was read, its unit dropped without a word
+    day = tmp_path / "day.csv"
+    day.write_text(f"registration,{column},front,mains\nDEMO-4T,x,170,20\n")
+    result = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(day), "--no-log"])
+    assert result.exit_code == 2 and f"'{column}': a unit on a column that holds no amount" in result.output
