@@ -675,7 +675,19 @@ def load_check_inputs(
     else:
         aircraft = parse_aircraft(data, aircraft_path)
         loading, named = read_loading(loading_path)
-        if named is not None and named_elsewhere(named, ".", aircraft_path) is not None:
+        other = named_elsewhere(named, ".", aircraft_path)
+        if other is not None and _another_aircraft(other, aircraft):  # which is meant is not guessed
+            raise InputError(
+                Problem(
+                    "aircraft",
+                    f"the loading names the aircraft file {named}, but {aircraft_path} was given: two aircraft "
+                    f"for one check (an old copy would give the wrong empty weight); check the loading alone to "
+                    f"use the one it names, or leave its aircraft key out to check it with {aircraft_path}",
+                    value=str(named),
+                ),
+                file=loading_path,
+            )
+        if other is not None:
             notes.append(f"the loading names {named}, but {aircraft_path} was given and is used")
     try:
         trip = (
@@ -724,6 +736,16 @@ def _own_reserves(trip: ResolvedTrip | None, overrides: Mapping[str, Any], volum
         for number, checked in enumerate(trip.legs[1:], start=2)
         if checked.reserve != first and "reserve" not in (typed.get(number) or {}).get("burn", {})
     ]
+
+
+def _another_aircraft(path: Path, aircraft: Aircraft) -> bool:
+    """True where ``path`` is an aircraft file of other data than ``aircraft`` (another fingerprint:
+    another aircraft, or another empty-weight record of it); False for a copy of the same data and
+    for a file that is not there or cannot be read as an aircraft (the one given is then used)."""
+    try:
+        return parse_aircraft(read_toml(path), path).fingerprint != aircraft.fingerprint
+    except LoadcheckError:
+        return False
 
 
 def named_elsewhere(named: str | Path | None, relative_to: str | Path, given: str | Path) -> Path | None:

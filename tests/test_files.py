@@ -191,3 +191,22 @@ def test_regression_a_blank_aircraft_key_was_passed_over(tmp_path, sample_file, 
     said = app_runner().invoke(app, [command, str(sample("trainer4/aircraft.toml")), str(blank)])
     assert said.exit_code == 2, said.output
     assert "aircraft: names no file" in said.output
+
+
+def test_a_loading_naming_another_aircraft_than_the_one_given_is_refused(tmp_path):
+    # an outside trial's find: `check OTHER.toml LOADING` used OTHER (25 kg lighter) with a note on
+    # stderr only, while the loading names its own aircraft file: a pilot with an old copy got a
+    # verdict for the wrong empty weight. Two aircraft of different data for one check: refused.
+    from loadcheck.errors import InputError
+    from loadcheck.files import load_check_inputs
+
+    loading = sample("trainer4/within.toml")
+    lighter = tmp_path / "aircraft.toml"
+    text = sample("trainer4/aircraft.toml").read_text()
+    lighter.write_text(text)
+    same = load_check_inputs(lighter, loading)  # a copy of the same data: the same answer, with a note
+    assert any("was given and is used" in note for note in same.notes)
+    lighter.write_text(text.replace("weight = 1718", "weight = 1693", 1))
+    assert "weight = 1693" in lighter.read_text()
+    with pytest.raises(InputError, match="two aircraft for one check"):
+        load_check_inputs(lighter, loading)
