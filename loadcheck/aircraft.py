@@ -262,7 +262,19 @@ class Station(_Model):
     def _min_below_max(self) -> Station:
         if self.min_weight is not None and self.max_weight is not None and self.min_weight > self.max_weight:
             raise ValueError("min_weight is above max_weight")
+        if self.kind in _NO_SEAT:  # a field a station of this kind cannot use would be read all the same
+            given = [name for name, used in (("seats", self.seats is not None), ("controls", self.controls)) if used]
+            if given:
+                raise ValueError(
+                    f"{' and '.join(given)} given on a {self.kind} station, which is no seat: give it "
+                    "kind = 'seat' (or 'other'), or leave it out"
+                )
         return self
+
+
+_NO_SEAT = ("baggage", "cargo", "ballast")
+"""Station kinds that are never a seat: ``seats`` and ``controls`` are refused there (a baggage
+station with ``controls = true`` would count as the pilot's seat for the no-pilot warning)."""
 
 
 class StationGroup(_Model):
@@ -400,6 +412,12 @@ class Envelope(_Model):
             raise ValueError(f"the two axes must differ (both are {self.axes[0]!r})")
         if "weight" not in self.axes and set(self.axes) != {"arm", "lateral_arm"}:
             raise ValueError("an envelope needs a weight axis, or the axes lateral_arm and arm")
+        if self.moment_scale != 1 and not any(AXES[axis].unit == "moment" for axis in self.axes):
+            # the author meant a moment envelope: its points would be read as arms, a guess
+            raise ValueError(
+                f"moment_scale = {self.moment_scale:g} on an envelope with no moment axis (axes "
+                f"{', '.join(self.axes)}): give the moment axis, or leave moment_scale out"
+            )
         return self  # the polygon is checked by the aircraft, which knows the units (_usable_polygon)
 
     @property

@@ -365,3 +365,23 @@ def test_a_tank_may_not_take_the_burn_orders_keyword(name):
     with pytest.raises(InputError, match=rf"tank\[0\].id: {name!r} is the burn order's word"):
         simple_aircraft(tank=[{"id": name, "arm": 45.0, "usable": 40.0, "fuel": "avgas"}])
     simple_aircraft(station=[{"id": "together", "arm": 35.0}])  # a station of that name is never a burn order
+
+
+@pytest.mark.parametrize("kind", ["baggage", "cargo", "ballast"])
+@pytest.mark.parametrize("field, value", [("controls", True), ("seats", 2)])
+def test_seat_fields_on_a_station_that_is_no_seat_are_refused(kind, field, value):
+    # an outside trial's find: controls = true on a baggage station made 10 kg of baggage count as
+    # the pilot (no no-pilot warning with the front seat empty); seats = 3 on baggage was accepted
+    with pytest.raises(InputError, match=rf"{field} given on a {kind} station, which is no seat"):
+        simple_aircraft(station=[{"id": "s", "arm": 35.0, "kind": kind, field: value}])
+    simple_aircraft(station=[{"id": "s", "arm": 35.0, "kind": "seat", field: value}])
+
+
+def test_a_moment_scale_on_an_envelope_with_no_moment_axis_is_refused():
+    # an outside trial's find: moment_scale = 100 on an arm/weight envelope was dropped without a word;
+    # its author meant a moment envelope, and the points were read as arms
+    data = sample_data("trainer4/aircraft.toml")
+    data["envelope"][0]["moment_scale"] = 100
+    assert "moment_scale = 100 on an envelope with no moment axis" in _problems(data)
+    data["envelope"][0]["moment_scale"] = 1  # the default, written out: nothing is dropped
+    parse_aircraft(data, "test.toml")
