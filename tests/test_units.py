@@ -198,3 +198,15 @@ def test_regression_a_figure_below_the_smallest_float_was_read_as_zero(text):
 @pytest.mark.parametrize("text", ["0", "0.0", "0e5", "-0", "1e-300", "٠"])
 def test_zero_and_small_normal_figures_are_read(text):
     assert parse_quantity(text).value == float(text)  # Python reads the Arabic-Indic zero too
+
+
+@pytest.mark.parametrize("text", ["1.5", " 2 ", "90", ".5"])
+def test_a_duration_typed_as_a_bare_number_says_how_to_write_it(text):
+    # an outside trial's find: --trip-time 1.5 was refused as "cannot read '1.5' as a duration" with no
+    # word that the unit was missing; hours or minutes is not guessed (a file's TOML number is hours,
+    # as file-format.md says), so the refusal now says what to write
+    from loadcheck.units import UnitError, parse_duration_hours
+
+    with pytest.raises(UnitError, match=r"could be hours or minutes; write '.+ h' or '.+ min'"):
+        parse_duration_hours(text)
+    assert parse_duration_hours(f"{text} h") == pytest.approx(float(text))  # with its unit: read
