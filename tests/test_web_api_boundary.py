@@ -404,3 +404,26 @@ def test_api_check_of_an_unknown_registration_names_it(reading_desk: dict[str, A
     assert response.status_code == 422, response.text
     [problem] = response.json()["problems"]
     assert problem["field"] == "registration" and "unknown registration 'NOPE-1'" in problem["message"]
+
+
+@pytest.mark.parametrize(
+    ("body", "path"),
+    [
+        (_with("burn", "taxi", None), "burn.taxi"),
+        ({**BODY, "category": None}, "category"),
+        (_with("load", "rear", None), "load.rear"),
+        (_with("fuel", "centre", None), "fuel.centre"),
+    ],
+)
+def test_regression_api_a_null_is_refused_at_its_place(
+    reading_desk: dict[str, Any], body: dict[str, Any], path: str
+) -> None:
+    """An outside trial's find: ``"burn": {"taxi": null}`` and ``"category": null`` were taken as not
+    given (within limits, 200) while ``"load": {"rear": null}`` was refused: one rule now, a null is
+    refused naming its place (a field left out is not given)."""
+    client = _client(reading_desk, "pia")
+    for route, extra in ROUTES.items():
+        response = client.post(f"/api/{route}", json={**body, **extra})
+        assert response.status_code == 422, (route, response.text)
+        problems = response.json()["problems"]
+        assert [p["field"] for p in problems] == [path] and "null is not a value" in problems[0]["message"], problems

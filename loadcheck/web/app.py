@@ -173,7 +173,9 @@ def api_json(body: bytes) -> object:
     ``json`` reads though RFC 8259 section 6 has no such numbers, are kept for the library to
     refuse in its words, naming the field. A number no float holds as written (``1e-400``, which
     Python's ``json`` reads as 0, ``1e400``, which it reads as infinite: :func:`_json_number`) is
-    refused here, naming its field in the library's words.
+    refused here, naming its field in the library's words. A ``null`` is refused at its place: a
+    field left out is not given, and a null had been read as that in some fields and refused in
+    others.
 
     Raises
     ------
@@ -183,8 +185,8 @@ def api_json(body: bytes) -> object:
 
     Examples
     --------
-    >>> api_json(b'{"load": {"front": 170, "rear": [1, {"a": null}]}}')
-    {'load': {'front': 170, 'rear': [1, {'a': None}]}}
+    >>> api_json(b'{"load": {"front": 170, "rear": [1, {"a": 2}]}}')
+    {'load': {'front': 170, 'rear': [1, {'a': 2}]}}
     >>> api_json(b'{"load": {"front": 170, "front": 10}}')  # doctest: +ELLIPSIS
     Traceback (most recent call last):
     ...
@@ -227,6 +229,8 @@ def api_json(body: bytes) -> object:
             put(items)
         elif isinstance(value, _Unheld):  # refused here, at its place: no job may read it as a text
             problems.append(Problem(path, value.message, value=value.text))  # as the library says it
+        elif value is None:  # one rule for every field: a null was read as "not given" in some, refused in others
+            problems.append(Problem(path, "null is not a value: leave the field out where it is not given"))
         else:
             put(value)
     if problems:
