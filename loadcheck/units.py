@@ -208,7 +208,8 @@ def parse_quantity(text: str | float | int) -> Quantity:
 def float_as_written(number: str, typed: object = None) -> float:
     """The float of a decimal text, refused where a float cannot hold it as written: below the
     smallest normal double (IEEE 754 binary64, about 2.2e-308, from memory) it would be read as 0
-    or with digits lost, another figure than the one typed. Also TOML's float reader
+    or with digits lost, another figure than the one typed; above the largest (about 1.8e308), as
+    infinity. Also TOML's float reader
     (:func:`loadcheck.files.parse_toml`), so a bare ``1e-400`` in a file is refused too.
 
     Raises
@@ -217,6 +218,8 @@ def float_as_written(number: str, typed: object = None) -> float:
         Naming ``typed`` (default ``number``) as given.
     """
     value = float(number)
+    if math.isinf(value) and any(ch.isdecimal() for ch in number):  # 1e400: no float holds it (not TOML's inf)
+        raise UnitError(f"{number if typed is None else typed!r} is not a finite number")
     if 0 < abs(value) < sys.float_info.min or (
         value == 0 and any(ch.isdecimal() and int(ch) for ch in re.split("[eE]", number)[0])
     ):

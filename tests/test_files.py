@@ -210,3 +210,19 @@ def test_a_loading_naming_another_aircraft_than_the_one_given_is_refused(tmp_pat
     assert "weight = 1693" in lighter.read_text()
     with pytest.raises(InputError, match="two aircraft for one check"):
         load_check_inputs(lighter, loading)
+
+
+def test_a_bare_toml_float_beyond_the_largest_double_is_named_as_written():
+    # an outside trial's find: `weight = 1e400` in an aircraft file was refused as "Input should be a
+    # finite number; got inf", a figure never written; file-format.md promises the value as typed, as
+    # the CSV and the command line say it (IEEE 754 binary64's largest double is about 1.8e308, from memory)
+    from loadcheck.errors import FileFormatError
+    from loadcheck.files import parse_toml
+
+    with pytest.raises(FileFormatError) as error:
+        parse_toml("[empty]\nweight = 1e400\narm = -2.5E+999\n", "aircraft.toml")
+    assert sorted(error.value.lines()) == [
+        "aircraft.toml: empty.arm: '-2.5E+999' is not a finite number",
+        "aircraft.toml: empty.weight: '1e400' is not a finite number",
+    ]
+    assert parse_toml("[empty]\nweight = 1e300\n", "aircraft.toml")["empty"] == {"weight": 1e300}
