@@ -17,7 +17,6 @@ check the chunks, the rows of a CSV file are read in the workers (:func:`_check_
 from __future__ import annotations
 
 import csv
-import dataclasses
 import datetime as dt
 import gc
 import io
@@ -243,6 +242,22 @@ class FlightRow:
     trip: str | None = None  # the trip id of a CSV whose rows are legs of one trip (TRIP_COLUMN)
     lines: tuple[int, ...] = ()  # the CSV lines of a trip's rows, leg by leg (a trip of a CSV only)
     date: str | None = None  # the date cell of a CSV row (YYYY-MM-DD), shown with the flight
+
+    def without_loading(self) -> FlightRow:
+        """This row without its loading model (the flight's check and stored inputs carry it): what
+        is held of a flight once checked, and what a worker sends back."""
+        return FlightRow(
+            self.line,
+            self.source,
+            self.registration,
+            self.reference,
+            self.pilot,
+            None,
+            self.problems,
+            self.trip,
+            self.lines,
+            self.date,
+        )
 
     def where(self, leg: int = 1) -> str:
         """``file:line`` of the row of leg ``leg`` (the first row where not known)."""
@@ -913,18 +928,7 @@ class Flight:
         """This flight with only what a one-line summary shows (verdict, units, each condition's
         weight, CG and lateral CG where the aircraft has lateral arms, each finding's code,
         severity and words; for a trip, those of each leg), for holding many flights at once."""
-        row = FlightRow(
-            self.row.line,
-            self.row.source,
-            self.row.registration,
-            self.row.reference,
-            self.row.pilot,
-            None,
-            self.row.problems,
-            self.row.trip,
-            self.row.lines,
-            self.row.date,
-        )
+        row = self.row.without_loading()
         kept = None
         if self.stored is not None and self.result is not None:
             result = _brief(self.result)
@@ -1087,9 +1091,7 @@ def _check_units(units: list[_Unit]) -> list[tuple[FlightRow, tuple[Stored | Non
     inputs carry it), with its outcome."""
     assert _FLEET is not None and _READING is not None
     rows = [_READING.flight(unit, _FLEET) for unit in units]
-    return [
-        (dataclasses.replace(row, loading=None), outcome) for row, outcome in zip(rows, _check_chunk(rows), strict=True)
-    ]
+    return [(row.without_loading(), outcome) for row, outcome in zip(rows, _check_chunk(rows), strict=True)]
 
 
 def _row_problem(row: FlightRow, problem: Problem) -> str:
