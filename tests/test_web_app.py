@@ -1466,3 +1466,30 @@ def test_regression_the_fleet_listing_read_a_repeated_or_unknown_parameter_in_pa
     assert repeated.status_code == 422 and "more than once" in repeated.text
     unknown = client.get(f"{path}?max_ag=30")
     assert unknown.status_code == 422 and "takes no parameter" in unknown.text and "max_age" in unknown.text
+
+
+def test_the_desks_moment_table_has_the_terminals_columns(reading_desk: dict[str, Any]) -> None:
+    # an outside trial's find: the desk's result page had no moment / 1000 column for an aircraft
+    # whose envelope reads the moment scaled (docs/cli.md: the moment table shows that column), nor
+    # the lateral columns; the terminal, the load sheet and the desk now share one list of columns
+    from html import escape
+
+    from loadcheck.render.terminal import moment_table_columns
+
+    cases = [
+        (
+            "twin6/within.toml",
+            "DEMO-6P",
+            {"load.row1": "380", "fuel.mains": "full", "burn.taxi": "2", "burn.trip": "30"},
+        ),
+        ("heli2/solo_heavy_right.toml", "DEMO-H2", {"load.right": "245", "load.bag_right": "35", "fuel.main": "full"}),
+    ]
+    client = _client(reading_desk, "pia")
+    for loading, registration, values in cases:
+        inputs = load_check_inputs(SAMPLES / loading)
+        heads, scaled, lateral = moment_table_columns(check_loading(inputs.aircraft, inputs.loading), inputs.aircraft)
+        assert (scaled is not None) if registration == "DEMO-6P" else lateral, heads
+        page = _post_check(client, values, registration).text
+        assert "Moment table" in page, page[-2000:]
+        for head in heads:
+            assert f"<th>{escape(head)}</th>" in page, (registration, head)

@@ -690,6 +690,8 @@ def create_app(
         NO_RANGE_NOTE,
         cg_margin,
         condition_verdict,
+        moment_table_columns,
+        moment_table_figures,
         no_cg_range,
         weight_margin,
     )
@@ -708,6 +710,8 @@ def create_app(
         fmt=fmt,
         unit_label=unit_label,
         condition_verdict=condition_verdict,
+        moment_table_columns=moment_table_columns,
+        moment_table_figures=moment_table_figures,
         recorded_state=recorded_state,
         weight_margin=weight_margin,
         cg_margin=cg_margin,
