@@ -827,3 +827,214 @@ def test_regression_no_payload_answer_quoted_another_loading_as_this_one():
     emptied = inputs.loading.but(stations={**inputs.loading.stations, "hold": 0.0})
     exceeded = [f.message for f in check_loading(inputs.aircraft, emptied).findings if f.severity == "limit"]
     assert answer.governing == f"with nothing at {name} and the rest as given: " + "; ".join(exceeded)
+
+
+# -- an outside trial's invented aircraft (trial 11): the reason given, the check carried, the rounding ---------
+
+_GULL = """
+format = 1
+name = "Gull tandem (trial invention)"
+registration = "TR-GUL"
+[units]
+mass = "kg"
+arm = "cm"
+fuel_volume = "impgal"
+[empty]
+weight = 455.0
+arm = 42.0
+[limits]
+max_takeoff_weight = 720
+max_landing_weight = 700
+min_flight_weight = 500
+[[station]]
+id = "p1"
+kind = "seat"
+arm = -20.0
+min_weight = 60
+max_weight = 115
+controls = true
+[[station]]
+id = "p2"
+kind = "seat"
+arm = 75.0
+max_weight = 115
+[[station]]
+id = "locker"
+kind = "baggage"
+arm = 140.0
+max_weight = 15
+[[tank]]
+id = "fus"
+arm = 60.0
+usable = 12.0
+density = 3.27
+[[envelope]]
+category = "normal"
+axes = ["arm", "weight"]
+points = [[20, 500], [20, 720], [40, 720], [48, 500]]
+"""
+
+_HAULER = """
+format = 1
+name = "Hauler three-tank (trial invention)"
+registration = "TR-HAU"
+[units]
+mass = "kg"
+arm = "m"
+fuel_volume = "l"
+[empty]
+weight = 1500.0
+arm = 2.50
+[limits]
+max_takeoff_weight = 2600
+max_ramp_weight = 2615
+max_landing_weight = 2500
+max_zero_fuel_weight = 2300
+[mac]
+leading_edge_arm = 2.0
+length = 1.6
+[[station]]
+id = "crew"
+kind = "seat"
+arm = 1.6
+max_weight = 200
+controls = true
+[[station]]
+id = "cab1"
+kind = "cargo"
+arm = 2.8
+max_weight = 400
+[[station]]
+id = "cab2"
+kind = "cargo"
+arm = 3.6
+max_weight = 400
+[[station_group]]
+label = "Cabin floor"
+stations = ["cab1", "cab2"]
+max_weight = 600
+[[tank]]
+id = "fwd"
+arm = 2.0
+usable = 150.0
+density = 0.72
+[[tank]]
+id = "wings"
+arm = 2.6
+usable = 400.0
+density = 0.72
+[[tank]]
+id = "aft"
+arm = 3.4
+usable = 120.0
+density = 0.72
+[[envelope]]
+category = "normal"
+axes = ["moment", "weight"]
+moment_scale = 100
+points = [[36.0, 1500], [52.0, 2000], [62.4, 2600], [70.2, 2600], [65.0, 2000], [40.5, 1500]]
+[[envelope]]
+category = "normal"
+axes = ["mac", "weight"]
+points = [[10, 1500], [10, 2600], [40, 2600], [40, 1500]]
+"""
+
+
+def _trial_aircraft(text: str):
+    import tomllib
+
+    return parse_aircraft(tomllib.loads(text))
+
+
+GULL = _trial_aircraft(_GULL)
+HAULER = _trial_aircraft(_HAULER)
+
+
+def test_regression_no_fuel_within_limits_named_taxi_and_trip_where_the_aft_limit_stops_it():
+    """Trial 11, finding 6: with p1 60, p2 115 and no fuel given, ``plan fuel`` said "taxi and trip fuel
+    (6.3 impgal) exceed the fuel the burn order can use", the fuel the answer replaces, not a reason.
+    Worked by hand (FAA-H-8083-1B chapter 2: moment = weight x arm, CG = sum of moments / sum of weights):
+    the least fuel that covers taxi 0.3 and trip 6 is 6.3 imp gal x 3.27 kg = 20.60 kg; ramp 650.60 kg,
+    moment 19,110 - 1,200 + 8,625 + 1,236.06 = 27,771.06 kg·cm, CG 42.685 cm; the aft limit there is
+    48 - 8 x 150.60 / 220 = 42.524 cm, so the aft limit is what stops it (and more fuel, at 60 cm, aft of
+    that CG, only moves the CG further aft: full, 669.24 kg at 43.168 cm against 41.846 cm)."""
+    loading = resolve_loading(
+        Loading(load={"p1": 60, "p2": 115, "locker": 0}, burn={"taxi": 0.3, "trip": 6}), GULL, fuel_to_plan=True
+    )
+    least = P._fuel_loading(GULL, loading, None, 6.3)
+    ramp = check_loading(GULL, least).condition("ramp")
+    assert ramp.weight == pytest.approx(650.601, abs=1e-3) and ramp.arm == pytest.approx(42.6852, abs=1e-4)
+    answer = P.most_fuel(GULL, loading)
+    assert not answer.feasible and answer.governing is not None
+    assert "exceed the fuel the burn order" not in answer.governing
+    assert answer.governing.startswith("any ramp fuel from 6.3 to 12.0 impgal: aft limit at ramp")
+    assert answer.governing_code == "envelope"
+
+
+def test_regression_no_fuel_within_limits_named_taxi_and_trip_where_a_group_is_over_its_maximum():
+    """Trial 11, finding 6: cab1 300 + cab2 320 = 620 kg on a 600 kg cabin floor (sum of weights, FAA-H-8083-1B
+    chapter 2): no fuel changes that, so it is the one reason given (docs/planning.md), not "taxi and trip
+    fuel (260 l) exceed the fuel the burn order can use"; the same in each ``plan table`` row."""
+    loading = resolve_loading(
+        Loading(load={"crew": 180, "cab1": 300, "cab2": 320}, burn={"taxi": 10, "trip": 250, "order": ["aft", "fwd", "wings"]}),
+        HAULER,
+        fuel_to_plan=True,
+    )
+    answer = P.most_fuel(HAULER, loading)
+    assert not answer.feasible
+    assert answer.governing == "Cabin floor: 620.0 kg exceeds the maximum 600.0 kg by 20.0 kg"
+    assert answer.governing_code == "group_max"
+    table = P.fuel_payload_table(HAULER, loading.but(stations={"crew": 180, "cab1": 300, "cab2": 0}), "cab2", steps=3)
+    assert [row.limited_by for row in table.rows][-1] == "Cabin floor: 700.0 kg exceeds the maximum 600.0 kg by 100.0 kg"
+    assert all("exceed the fuel the burn order" not in (row.limited_by or "") for row in table.rows)
+
+
+def test_regression_plan_trip_carried_a_no_trip_fuel_warning_beside_the_trip_it_checked():
+    """Trial 11, finding 7: the check ``plan trip`` carries said "no trip fuel given" beside its 498.6 l trip,
+    one finding more than the check of that loading. Worked by hand (FAA-H-8083-1B chapter 2): full tanks
+    670 l x 0.72 = 482.4 kg, ramp 2,562.4 kg; taxi 10 and trip 498.6 l burn aft 120, fwd 150 and 238.6 l of
+    the wings, which land with 161.4 l (116.21 kg): 2,196.21 kg, moment 5,238 + 302.14 = 5,540.14 kg·m,
+    CG 2.5226 m, on the forward edge (52.0 + 10.4 x 196.21 / 600) x 100 / 2,196.21 = 2.5226 m. It lands with
+    161.4 l, not with the 45 l reserve, and says both."""
+    order = ["aft", "fwd", "wings"]
+    loading = resolve_loading(
+        Loading(load={"crew": 180, "cab1": 300, "cab2": 100}, burn={"taxi": 10, "order": order}),
+        HAULER,
+        fuel_to_plan=True,
+    )
+    answer = P.longest_trip(HAULER, loading, rate=120, reserve=45)
+    assert answer.feasible and answer.answer_display == "498.6 l" and answer.check is not None
+    given = resolve_loading(
+        Loading(
+            load={"crew": 180, "cab1": 300, "cab2": 100},
+            fuel={"fwd": "full", "wings": "full", "aft": "full"},
+            burn={"taxi": 10, "trip": 498.6, "reserve": 45, "order": order},
+        ),
+        HAULER,
+    )
+    plain = check_loading(HAULER, given)
+    assert answer.check.to_json() == plain.to_json()
+    assert [f.code for f in answer.check.findings] == ["envelope"]  # the zero-fuel warning alone
+    landing = answer.check.condition("landing")
+    assert landing.fuel == pytest.approx(161.4, abs=1e-6) and landing.arm == pytest.approx(2.5226, abs=1e-4)
+    assert answer.extra["lands with"] == "161.4 l"
+    assert answer.extra["reserve"] == "45.0 l (the reserve asked for)"
+    assert "reserve landed with" not in answer.extra
+
+
+def test_regression_a_shift_to_a_target_cg_rounded_the_weight_down_and_fell_short_of_the_target():
+    """Trial 11, finding 9: moving 36.6 kg from p2 to p1 put the takeoff CG at 40.0046 cm, aft of the 40 cm
+    asked. Worked by hand (weight moved = total weight x CG change / distance moved, FAA-H-8083-1B
+    chapter 2): takeoff 455 + 62 + 115 + 15 + 11.7 x 3.27 = 685.259 kg, moment 30,890.54 kg·cm, CG 45.0786 cm;
+    the seats are 95 cm apart, so w = 685.259 x 5.0786 / 95 = 36.633 kg, shown as 36.7 kg (the least weight
+    that reaches the CG, rounded up as least ballast is): (30,890.54 - 36.7 x 95) / 685.259 = 39.991 cm."""
+    loading = resolve_loading(
+        Loading(load={"p1": 62, "p2": 115, "locker": 15}, fuel={"fus": "full"}, burn={"taxi": 0.3, "trip": 3}), GULL
+    )
+    answer = P.weight_shift(GULL, loading, "p2", "p1", target_arm=40.0)
+    assert answer.feasible and answer.answer == pytest.approx(36.7) and answer.answer_display == "36.7 kg"
+    assert answer.check is not None
+    takeoff = answer.check.condition("takeoff")
+    assert takeoff.arm == pytest.approx((30890.54 - 36.7 * 95) / 685.259, abs=1e-4)
+    assert takeoff.arm <= 40.0
+    assert answer.check.to_json() == check_loading(GULL, loading.but(stations={"p1": 98.7, "p2": 78.3, "locker": 15})).to_json()
