@@ -1030,11 +1030,10 @@ def weight_shift(
             return refuse("moving weight that way moves the CG away from the target")
         if moved > available + 1e-9:
             return refuse(f"it needs {fmt(moved, units.mass, 'up')} but {source} holds {fmt(available, units.mass)}")
-        # the amount shown is the amount checked: rounded to the shown step, never above what the source holds
-        moved = round_safe(moved, 1, "nearest")
-        if moved > available:
-            moved = round_safe(available, 1, "down")
-        check = check_loading(aircraft, at(max(0.0, moved)))
+        # the amount shown is the amount checked: the least weight that reaches the CG, rounded up (the
+        # safe direction, as least ballast is), with more digits where that would pass what the source holds
+        moved, shown = safe_value(max(0.0, moved), max(0.0, moved, available), units.mass, "up")
+        check = check_loading(aircraft, at(moved))
         if not check.ok:
             return refuse(
                 f"moving {fmt(moved, units.mass)} puts the CG at the target, but the loading is then not "
@@ -1048,7 +1047,7 @@ def weight_shift(
             feasible=True,
             intervals=[Interval(low=moved, high=moved)],
             answer=moved,
-            answer_display=f"{moved:,.1f} {units.mass}",
+            answer_display=shown,
             check=check,
             extra={"resulting CG": fmt(check.condition(condition).arm, units.arm)},
         )
