@@ -403,6 +403,17 @@ def _fuel_loading(
     return fuelled
 
 
+_NO_TRIP_NOTE = "no trip fuel given"
+"""How the note a loading with no trip carries begins (:func:`loadcheck.loading.resolve_loading`)."""
+
+
+def _trip_found(loading: ResolvedLoading, trip: float) -> ResolvedLoading:
+    """The loading with a trip fuel an answer found [fuel volume unit], as ``check`` reads it with that
+    trip given: without the loading's note that no trip was given (one engine, one verdict)."""
+    notes = [note for note in loading.notes if not note.startswith(_NO_TRIP_NOTE)]
+    return replace(loading.but(trip=trip), notes=notes)
+
+
 def _mean_density(aircraft: Aircraft, loading: ResolvedLoading) -> float:
     values = [loading.density[t.id] for t in aircraft.tank]
     return float(np.mean(values)) if values else 1.0
@@ -569,8 +580,10 @@ def longest_trip(
     Returns
     -------
     PlanResult
-        ``variable`` is trip fuel [fuel volume unit]; ``extra`` gives the time and the
-        reserve landed with and where it came from.
+        ``variable`` is trip fuel [fuel volume unit]; ``extra`` gives the time, the fuel the
+        answer lands with (``lands with``) and the reserve (``reserve``) and where it came from.
+        ``check`` is the check of the loading with the trip found, as ``check`` gives it with that
+        trip fuel: no note that no trip was given.
     """
     if not rate > 0:
         raise InputError(Problem("rate", "must be above zero", value=rate))
@@ -604,7 +617,7 @@ def longest_trip(
         aircraft,
         pairs,
         unit,
-        at=lambda v: fuelled.but(trip=v, reserve=reserve),
+        at=lambda v: _trip_found(fuelled, v),
         question=f"longest trip with {fuel.answer_display} at engine start, {landing_words}",
         variable="trip fuel",
         direction="down",
@@ -615,7 +628,7 @@ def longest_trip(
         ),
         governing=_beyond(
             (top, "the fuel on board less taxi fuel and reserve"),
-            lambda v: fuelled.but(trip=min(fuelled.plan.burnable - fuelled.taxi, v + 2 * step)),
+            lambda v: _trip_found(fuelled, min(fuelled.plan.burnable - fuelled.taxi, v + 2 * step)),
             aircraft,
         ),
     )
@@ -623,16 +636,12 @@ def longest_trip(
     if result.feasible and result.answer is not None:
         shown = safe_value(result.intervals[-1].low, result.answer, unit, "down")[0]
         minutes = int(np.floor(shown / rate * 60.0 + 1e-9))
-        result = replace(
-            result,
-            extra={
-                "ramp fuel": fuel.answer_display,
-                "time at the rate": f"{minutes // 60}:{minutes % 60:02d}",
-                "reserve landed with": f"{fmt(reserve, unit)} ({source})",
-            },
-        )
+        extra = {"ramp fuel": fuel.answer_display, "time at the rate": f"{minutes // 60}:{minutes % 60:02d}"}
+        if result.check is not None:  # the fuel the answer lands with, which the reserve is not
+            extra["lands with"] = fmt(result.check.condition("landing").fuel, unit, "down")
+        result = replace(result, extra={**extra, "reserve": f"{fmt(reserve, unit)} ({source})"})
         return _with_fill(result, words)
-    return _with_fill(replace(result, extra={"reserve landed with": f"{fmt(reserve, unit)} ({source})"}), words)
+    return _with_fill(replace(result, extra={"reserve": f"{fmt(reserve, unit)} ({source})"}), words)
 
 
 _TRIP_GRID = 201
