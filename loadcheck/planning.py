@@ -270,16 +270,59 @@ def _why_not(
     return f"{state}: " + (_exceeded(check) or "no amount is within limits")
 
 
-def _why_not_fuel(aircraft: Aircraft, loading: ResolvedLoading, within: bool) -> str:
-    """Why no ramp fuel is within limits and lands with the loading's reserve; ``within``: some
-    ramp fuel is within limits, only none of it lands with the reserve."""
-    if within and loading.reserve is not None:
-        unit = aircraft.units.fuel_volume
-        return (
-            f"no ramp fuel within limits lands with the loading's reserve of {fmt(loading.reserve, unit)} "
-            f"after taxi and trip of {fmt(loading.taxi + loading.trip, unit)}"
+def _first_limit(check: CheckResult) -> str | None:
+    """The code of the first limit a check finds exceeded, in the check's order; None where none is."""
+    return next((f.code for f in check.findings if f.severity == "limit"), None)
+
+
+def _why_no_fuel(
+    aircraft: Aircraft,
+    at: Callable[[float], ResolvedLoading],
+    evaluate: Callable[[np.ndarray], Evaluation],
+    covers: Callable[[np.ndarray], np.ndarray],
+    least: float,
+    capacity: float,
+    step: float,
+) -> tuple[str, str | None]:
+    """Why no ramp fuel of the fill order (``least`` to ``capacity`` [fuel volume unit]) is within limits,
+    and the first limit's finding code: from the full check of the candidate loadings (``at``), never of
+    the loading's own fuel, which the answer replaces.
+
+    Only the fuel that covers taxi and trip (``covers``) can be checked: where none does, the check's
+    refusal of the fullest is the reason. A station or group limit, which no fuel changes, is then the
+    one reason (at the least fuel that covers the burn); else what each ramp fuel from that least to the
+    capacity exceeds, stretch by stretch (:func:`_exceeded_along`), or, where the stretches are too many,
+    what the check at that least exceeds.
+    """
+    unit = aircraft.units.fuel_volume
+    covered = feasible_intervals(covers, least, capacity, step)
+    if not covered:
+        return _why_not(aircraft, at(capacity)), None
+    start = covered[0][0]
+    try:
+        check = check_loading(aircraft, at(start))
+    except LoadcheckError as error:
+        return "; ".join(p.message for p in error.problems), None
+    fixed = [f for f in check.findings if f.severity == "limit" and f.code in _LOAD_CODES]
+    if fixed:
+        return "; ".join(f.message for f in fixed), fixed[0].code
+    along = _exceeded_along(
+        aircraft,
+        evaluate,
+        at,
+        capacity,
+        unit,
+        low=start,
+        lead="ramp fuel",
+        whole=f"any ramp fuel from {stretch_text(start, capacity, unit)}",
+    )
+    if along is None:
+        along = f"at the least ramp fuel that covers taxi and trip, {fmt(start, unit, 'up')}: " + (
+            _exceeded(check) or "no amount is within limits"
         )
-    return _why_not(aircraft, loading)
+    elif start > least + 1e-9 * max(1.0, capacity):
+        along += f". Less ramp fuel than {fmt(start, unit, 'up')} does not cover taxi and trip"
+    return along, _first_limit(check)
 
 
 def safe_value(low: float, high: float, unit: str, direction: Literal["up", "down"]) -> tuple[float, str]:
@@ -431,12 +474,15 @@ def _answer(
     question: str,
     variable: str,
     direction: Literal["up", "down"],
-    why_not: Callable[[], str],
+    why_not: Callable[[], str | tuple[str, str | None]],
     governing: Callable[[float, CheckResult], tuple[str | None, str | None]] = lambda _v, _c: (None, None),
 ) -> PlanResult:
     """An answer at the best end of the stretches within limits, carrying the full check of
-    the loading at the figure shown; infeasible unless that check finds it within limits."""
+    the loading at the figure shown; infeasible unless that check finds it within limits.
+    ``why_not`` gives the reason where no value is within limits, alone or with its finding code."""
     if not pairs:
+        reason = why_not()
+        text, code = reason if isinstance(reason, tuple) else (reason, None)
         return PlanResult(
             question=question,
             variable=variable,
@@ -445,7 +491,8 @@ def _answer(
             intervals=[],
             answer=None,
             answer_display="no amount is within limits",
-            governing=why_not(),
+            governing=text,
+            governing_code=code,
         )
     low, high = pairs[-1] if direction == "down" else pairs[0]
     shown, text = safe_value(low, high, unit, direction)
@@ -460,6 +507,7 @@ def _answer(
             answer=None,
             answer_display="no amount is within limits",
             governing=_exceeded(check),
+            governing_code=_first_limit(check),
             check=check,
         )
     limit, code = governing(high if direction == "down" else low, check)
@@ -519,27 +567,45 @@ def most_fuel(
     least, capacity = _fuel_range(aircraft, base, order)
     step = _GRID_STEP / _mean_density(aircraft, loading)
 
-    def ok(x: np.ndarray, reserve: float | None = loading.reserve) -> np.ndarray:
+    def evaluate(x: np.ndarray) -> Evaluation:
         fuel = _distribute(aircraft, base, order, x)
         if burn_to is None:
-            return _ok(evaluate_arrays(aircraft, base, fuel=fuel), reserve)
+            return evaluate_arrays(aircraft, base, fuel=fuel)
         trip = np.maximum(0.0, x - burn_to)
-        return _ok(evaluate_arrays(aircraft, base, fuel=fuel, taxi=np.zeros(len(x)), trip=trip), reserve)
+        return evaluate_arrays(aircraft, base, fuel=fuel, taxi=np.zeros(len(x)), trip=trip)
+
+    def ok(x: np.ndarray, reserve: float | None = loading.reserve) -> np.ndarray:
+        return _ok(evaluate(x), reserve)
+
+    def covers(x: np.ndarray) -> np.ndarray:
+        """Ramp fuel whose tanks of the burn order hold its taxi and trip (a burn down to a fuel left always)."""
+        if burn_to is not None:
+            return np.ones(len(x), dtype=bool)
+        uses = np.array([base.order is None or t.id in base.order for t in aircraft.tank], dtype=float)
+        burn = loading.taxi + loading.trip
+        return _distribute(aircraft, base, order, x) @ uses >= burn - 1e-9 * max(1.0, burn)
 
     pairs = feasible_intervals(ok, least, capacity, step) if aircraft.tank else []
-
-    def why_not() -> str:
-        if not aircraft.tank:
-            return "this aircraft has no fuel tanks"
-        within = loading.reserve is not None and bool(feasible_intervals(lambda x: ok(x, None), least, capacity, step))
-        return _why_not_fuel(aircraft, loading, within)
-
     unit = aircraft.units.fuel_volume
+
+    def at(value: float) -> ResolvedLoading:
+        return _fuel_loading(aircraft, loading, order, value, burn_to)
+
+    def why_not() -> tuple[str, str | None]:
+        if not aircraft.tank:
+            return "this aircraft has no fuel tanks", None
+        if loading.reserve is not None and feasible_intervals(lambda x: ok(x, None), least, capacity, step):
+            return (
+                f"no ramp fuel within limits lands with the loading's reserve of {fmt(loading.reserve, unit)} "
+                f"after taxi and trip of {fmt(loading.taxi + loading.trip, unit)}"
+            ), "reserve"
+        return _why_no_fuel(aircraft, at, evaluate, covers, least, capacity, step)
+
     result = _answer(
         aircraft,
         pairs,
         unit,
-        at=lambda v: _fuel_loading(aircraft, loading, order, v, burn_to),
+        at=at,
         question="most fuel at engine start with this load",
         variable="ramp fuel",
         direction="down",
@@ -871,11 +937,16 @@ def _exceeded_along(
     at: Callable[[float], ResolvedLoading],
     top: float,
     unit: str,
+    *,
+    low: float = 0.0,
+    lead: str = "moving",
+    whole: str | None = None,
 ) -> str | None:
-    """What each amount moved from 0 to ``top`` exceeds, stretch by stretch, in the check's words
+    """What each amount from ``low`` to ``top`` exceeds, stretch by stretch, in the check's words
     ("moving 0.0 to 187.2 lb: left limit at takeoff -2.75 in. Moving 187.3 to 245.0 lb: maximum of
     right 250.0 lb", each stretch's ends rounded inward): where no amount is within limits, what limits
-    the move.
+    the move (or, with ``lead`` "ramp fuel", the fuel). ``whole`` leads the words where one set of
+    limits holds all the way (default: "moving any amount up to all" ``top``).
 
     The engine gives every limit's verdict on the search's grid; each stretch of one set of verdicts
     is named by the full check (:func:`~loadcheck.check.check_loading`) of the loading at its middle.
@@ -884,8 +955,8 @@ def _exceeded_along(
     stretches are still too many (the loading's own check and the one with all of it moved then say
     what is exceeded).
     """
-    count = int(min(_MAX_GRID, max(3, np.ceil(top / _GRID_STEP) + 1)))
-    xs = np.linspace(0.0, top, count)
+    count = int(min(_MAX_GRID, max(3, np.ceil((top - low) / _GRID_STEP) + 1)))
+    xs = np.linspace(low, top, count)
     states = _limit_states(ok_rows(xs))
     changes = np.nonzero(np.any(states[1:] != states[:-1], axis=1))[0]
     if len(changes) + 1 > _MAX_STATES:
@@ -912,10 +983,10 @@ def _exceeded_along(
     if len(runs) > _MAX_RUNS:
         return None
     if len(runs) == 1:
-        return f"moving any amount up to all {fmt(top, unit)}: {runs[0][2]}"
+        return f"{whole or f'moving any amount up to all {fmt(top, unit)}'}: {runs[0][2]}"
     return ". ".join(
-        f"{'Moving' if n else 'moving'} {stretch_text(low, high, unit)}: {words}"
-        for n, (low, high, words) in enumerate(runs)
+        f"{lead[0].upper() + lead[1:] if n else lead} {stretch_text(start, end, unit)}: {words}"
+        for n, (start, end, words) in enumerate(runs)
     )
 
 
