@@ -248,9 +248,10 @@ _LOAD_CODES = ("station_max", "station_min", "group_max", "group_min")
 
 def _why_not(
     aircraft: Aircraft, loading: ResolvedLoading, varies: str | None = None, state: str = "with this load and trip"
-) -> str:
+) -> tuple[str, str | None]:
     """Why no value of the variable brings a loading within limits, from the loading's own check
-    (``state`` says which loading that is: the loading as given, or with the variable at one end).
+    (``state`` says which loading that is: the loading as given, or with the variable at one end),
+    and the finding code of the first limit named (None where the check refuses the loading).
 
     A station or group limit that the variable does not change is the whole reason
     ("Rear seats: 255.0 kg exceeds the maximum 250.0 kg by 5.0 kg"); otherwise the limits the
@@ -259,15 +260,15 @@ def _why_not(
     try:
         check = check_loading(aircraft, loading)
     except LoadcheckError as error:
-        return "; ".join(p.message for p in error.problems)
+        return "; ".join(p.message for p in error.problems), None
     fixed = [
         f
         for f in check.findings
         if f.severity == "limit" and f.code in _LOAD_CODES and (varies is None or f.subject != varies)
     ]
     if fixed:
-        return "; ".join(f.message for f in fixed)
-    return f"{state}: " + (_exceeded(check) or "no amount is within limits")
+        return "; ".join(f.message for f in fixed), fixed[0].code
+    return f"{state}: " + (_exceeded(check) or "no amount is within limits"), _first_limit(check)
 
 
 def _first_limit(check: CheckResult) -> str | None:
@@ -282,7 +283,6 @@ def _why_no_fuel(
     covers: Callable[[np.ndarray], np.ndarray],
     least: float,
     capacity: float,
-    step: float,
 ) -> tuple[str, str | None]:
     """Why no ramp fuel of the fill order (``least`` to ``capacity`` [fuel volume unit]) is within limits,
     and the first limit's finding code: from the full check of the candidate loadings (``at``), never of
@@ -295,10 +295,18 @@ def _why_no_fuel(
     what the check at that least exceeds.
     """
     unit = aircraft.units.fuel_volume
-    covered = feasible_intervals(covers, least, capacity, step)
-    if not covered:
-        return _why_not(aircraft, at(capacity)), None
-    start = covered[0][0]
+    if not covers(np.array([capacity]))[0]:
+        return _why_not(aircraft, at(capacity))
+    # more fuel covers more (the fill order only adds fuel): the least that covers, by bisection to the
+    # last digits, so that the figure said is the threshold itself (260.0 l, not 260.1)
+    low, start = least, capacity
+    if covers(np.array([least]))[0]:
+        start = least
+    for _ in range(200):
+        if start - low <= 1e-12 * max(1.0, capacity):
+            break
+        mid = 0.5 * (low + start)
+        low, start = (low, mid) if covers(np.array([mid]))[0] else (mid, start)
     try:
         check = check_loading(aircraft, at(start))
     except LoadcheckError as error:
@@ -599,7 +607,7 @@ def most_fuel(
                 f"no ramp fuel within limits lands with the loading's reserve of {fmt(loading.reserve, unit)} "
                 f"after taxi and trip of {fmt(loading.taxi + loading.trip, unit)}"
             ), "reserve"
-        return _why_no_fuel(aircraft, at, evaluate, covers, least, capacity, step)
+        return _why_no_fuel(aircraft, at, evaluate, covers, least, capacity)
 
     result = _answer(
         aircraft,
@@ -909,9 +917,8 @@ def least_ballast(aircraft: Aircraft, loading: ResolvedLoading, station: str | N
         ),
     )
     if not answer.feasible:
-        return replace(
-            answer, answer_display=f"no amount can: {reason}", governing=_why_not(aircraft, loading, station)
-        )
+        governing, code = _why_not(aircraft, loading, station)
+        return replace(answer, answer_display=f"no amount can: {reason}", governing=governing, governing_code=code)
     return answer
 
 
@@ -1171,10 +1178,16 @@ def weight_shift(
     )
     if not answer.feasible:  # the reason said once; "limited by" is what each amount moved still exceeds
         along = None if empty else _exceeded_along(aircraft, evaluate, at, available, units.mass)
+        governing, code = (
+            (along, _first_limit(check_loading(aircraft, at(0.0))))
+            if along is not None
+            else _why_not(aircraft, at(available))
+        )
         return replace(
             answer,
             answer_display=f"no amount can: {reason}",
-            governing=along if along is not None else _why_not(aircraft, at(available)),
+            governing=governing,
+            governing_code=code,
             extra={**answer.extra, **moves_extra},
         )
     extra = {**answer.extra, **moves_extra}
@@ -1192,13 +1205,15 @@ class TableRow(Result):
     [fuel volume unit]; most, the largest allowed (None where none is), the figure whose
     loading was checked in full; check, that check (at the figure shown), None where none is;
     limited_by, what stops the row's fuel going further or, where no fuel is within limits, what
-    its check finds exceeded (:func:`most_fuel`'s ``governing``, in the check's words)."""
+    its check finds exceeded (:func:`most_fuel`'s ``governing``, in the check's words);
+    limited_by_code, the finding code of its first limit (``governing_code``)."""
 
     payload: float
     intervals: list[Interval]
     most: float | None
     check: CheckResult | None = None
     limited_by: str | None = None
+    limited_by_code: str | None = None
 
 
 @dataclass(frozen=True, kw_only=True, slots=True)
@@ -1247,6 +1262,7 @@ def fuel_payload_table(
                 most=answer.answer if answer.feasible else None,
                 check=answer.check if answer.feasible else None,
                 limited_by=answer.governing,
+                limited_by_code=answer.governing_code,
             )
         )
     units: dict[str, str] = {"mass": aircraft.units.mass, "fuel_volume": aircraft.units.fuel_volume}

@@ -1004,6 +1004,7 @@ def test_regression_no_fuel_within_limits_named_taxi_and_trip_where_a_group_is_o
     table = P.fuel_payload_table(HAULER, loading.but(stations={"crew": 180, "cab1": 300, "cab2": 0}), "cab2", steps=3)
     last = table.rows[-1]  # 300 + 400 kg on the floor, hand-worked as above
     assert last.limited_by == "Cabin floor: 700.0 kg exceeds the maximum 600.0 kg by 100.0 kg"
+    assert last.limited_by_code == "group_max"
     assert all("exceed the fuel the burn order" not in (row.limited_by or "") for row in table.rows)
 
 
@@ -1057,3 +1058,19 @@ def test_regression_a_shift_to_a_target_cg_rounded_the_weight_down_and_fell_shor
     assert takeoff.arm <= 40.0
     moved = loading.but(stations={"p1": 98.7, "p2": 78.3, "locker": 15})  # 62 + 36.7 and 115 - 36.7
     assert answer.check.to_json() == check_loading(GULL, moved).to_json()
+
+
+def test_an_answer_with_no_amount_within_limits_gives_the_code_of_the_limit_it_names_first():
+    """``governing_code`` beside ``governing`` where no amount is within limits (trial 11, finding 6: there was
+    none): the finding code of the first limit the words name, from the same check (common practice: a
+    machine-readable reason beside the words). The over-weight trainer: its 1,718 lb empty, 380 + 340 lb in
+    the seats and full fuel (56 US gal x 6.0 lb, common practice) make 2,774 lb with nothing in the hold,
+    over the 2,462 lb ramp maximum (sums of weights, FAA-H-8083-1B chapter 2), so neither bags nor ballast
+    help."""
+    inputs = load_check_inputs(sample("trainer4/over_weight.toml"))
+    payload = P.most_payload(inputs.aircraft, inputs.loading, "hold")
+    emptied = check_loading(inputs.aircraft, inputs.loading.but(stations={**inputs.loading.stations, "hold": 0.0}))
+    assert not payload.feasible and payload.governing_code == emptied.limits_exceeded[0].code
+    ballast = P.least_ballast(inputs.aircraft, inputs.loading, "hold")
+    own = check_loading(inputs.aircraft, inputs.loading)
+    assert not ballast.feasible and ballast.governing_code == own.limits_exceeded[0].code == "max_ramp_weight"
