@@ -449,19 +449,22 @@ def _fuel_loading(
     base = loading_arrays(aircraft, loading)
     row = _distribute(aircraft, base, fill, np.array([total]))[0]
     fuelled = _with_fuel(loading, {t.id: float(row[i]) for i, t in enumerate(aircraft.tank)})
-    if burn_to is not None:
-        fuelled = fuelled.but(taxi=0.0, trip=max(0.0, fuelled.plan.burnable - burn_to))
+    if burn_to is not None:  # the taxi and trip are the answer's: given, as check reads them given
+        fuelled = _trip_found(fuelled.but(taxi=0.0), max(0.0, fuelled.plan.burnable - burn_to), taxi=True)
     return fuelled
 
 
 _NO_TRIP_NOTE = "no trip fuel given"
-"""How the note a loading with no trip carries begins (:func:`loadcheck.loading.resolve_loading`)."""
+_NO_TAXI_NOTE = "no taxi fuel given"
+"""How the notes a loading with no trip or no taxi carries begin (:func:`loadcheck.loading.resolve_loading`)."""
 
 
-def _trip_found(loading: ResolvedLoading, trip: float) -> ResolvedLoading:
-    """The loading with a trip fuel an answer found [fuel volume unit], as ``check`` reads it with that
-    trip given: without the loading's note that no trip was given (one engine, one verdict)."""
-    notes = [note for note in loading.notes if not note.startswith(_NO_TRIP_NOTE)]
+def _trip_found(loading: ResolvedLoading, trip: float, *, taxi: bool = False) -> ResolvedLoading:
+    """The loading with a trip fuel an answer found [fuel volume unit] (and, with ``taxi``, its taxi
+    fuel too), as ``check`` reads it with that trip given: without the loading's note that none was
+    given (one engine, one verdict)."""
+    dropped = (_NO_TRIP_NOTE, _NO_TAXI_NOTE) if taxi else (_NO_TRIP_NOTE,)
+    notes = [note for note in loading.notes if not note.startswith(dropped)]
     return replace(loading.but(trip=trip), notes=notes)
 
 

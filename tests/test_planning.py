@@ -1074,3 +1074,18 @@ def test_an_answer_with_no_amount_within_limits_gives_the_code_of_the_limit_it_n
     ballast = P.least_ballast(inputs.aircraft, inputs.loading, "hold")
     own = check_loading(inputs.aircraft, inputs.loading)
     assert not ballast.feasible and ballast.governing_code == own.limits_exceeded[0].code == "max_ramp_weight"
+
+
+def test_a_burn_down_to_a_fuel_left_carries_the_check_of_its_taxi_and_trip_as_given():
+    """``most_fuel(..., burn_to=0)`` (a placard's whole fuel range, common practice) chooses the taxi (none)
+    and the trip (all the fuel); its check said "no taxi fuel given" and "no trip fuel given" beside them,
+    as plan trip's did (trial 11, finding 7). It is now the check of the loading with that taxi and trip
+    given, finding for finding. Hand-worked (FAA-H-8083-1B chapter 2): 455 + 80 + 80 kg and 12 imp gal x
+    3.27 = 39.24 kg make 654.24 kg at (19,110 - 1,600 + 6,000 + 2,354.4) / 654.24 = 25,864.4 / 654.24 = 39.533 cm."""
+    loading = resolve_loading(Loading(load={"p1": 80, "p2": 80}), GULL, fuel_to_plan=True)
+    answer = P.most_fuel(GULL, loading, burn_to=0.0)
+    assert answer.feasible and answer.answer_display == "12.0 impgal" and answer.check is not None
+    given = resolve_loading(Loading(load={"p1": 80, "p2": 80}, fuel={"fus": 12}, burn={"taxi": 0, "trip": 12}), GULL)
+    assert answer.check.to_json() == check_loading(GULL, given).to_json()
+    assert not answer.check.findings
+    assert answer.check.condition("ramp").arm == pytest.approx(25864.4 / 654.24)
