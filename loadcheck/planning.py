@@ -283,6 +283,7 @@ def _why_no_fuel(
     covers: Callable[[np.ndarray], np.ndarray],
     least: float,
     capacity: float,
+    step: float,
 ) -> tuple[str, str | None]:
     """Why no ramp fuel of the fill order (``least`` to ``capacity`` [fuel volume unit]) is within limits,
     and the first limit's finding code: from the full check of the candidate loadings (``at``), never of
@@ -292,7 +293,7 @@ def _why_no_fuel(
     refusal of the fullest is the reason. A station or group limit, which no fuel changes, is then the
     one reason (at the least fuel that covers the burn); else what each ramp fuel from that least to the
     capacity exceeds, stretch by stretch (:func:`_exceeded_along`), or, where the stretches are too many,
-    what the check at that least exceeds.
+    what the check at that least exceeds. ``step`` is the search's grid step [fuel volume unit].
     """
     unit = aircraft.units.fuel_volume
     if not covers(np.array([capacity]))[0]:
@@ -321,6 +322,7 @@ def _why_no_fuel(
         capacity,
         unit,
         low=start,
+        step=step,
         lead="ramp fuel",
         whole=f"any ramp fuel from {stretch_text(start, capacity, unit)}",
     )
@@ -610,7 +612,7 @@ def most_fuel(
                 f"no ramp fuel within limits lands with the loading's reserve of {fmt(loading.reserve, unit)} "
                 f"after taxi and trip of {fmt(loading.taxi + loading.trip, unit)}"
             ), "reserve"
-        return _why_no_fuel(aircraft, at, evaluate, covers, least, capacity)
+        return _why_no_fuel(aircraft, at, evaluate, covers, least, capacity, step)
 
     result = _answer(
         aircraft,
@@ -949,6 +951,7 @@ def _exceeded_along(
     unit: str,
     *,
     low: float = 0.0,
+    step: float = _GRID_STEP,
     lead: str = "moving",
     whole: str | None = None,
 ) -> str | None:
@@ -956,7 +959,8 @@ def _exceeded_along(
     ("moving 0.0 to 187.2 lb: left limit at takeoff -2.75 in. Moving 187.3 to 245.0 lb: maximum of
     right 250.0 lb", each stretch's ends rounded inward): where no amount is within limits, what limits
     the move (or, with ``lead`` "ramp fuel", the fuel). ``whole`` leads the words where one set of
-    limits holds all the way (default: "moving any amount up to all" ``top``).
+    limits holds all the way (default: "moving any amount up to all" ``top``). ``step`` is the search's
+    grid step in the variable's unit (default: the mass grid step).
 
     The engine gives every limit's verdict on the search's grid; each stretch of one set of verdicts
     is named by the full check (:func:`~loadcheck.check.check_loading`) of the loading at its middle.
@@ -965,7 +969,7 @@ def _exceeded_along(
     stretches are still too many (the loading's own check and the one with all of it moved then say
     what is exceeded).
     """
-    count = int(min(_MAX_GRID, max(3, np.ceil((top - low) / _GRID_STEP) + 1)))
+    count = int(min(_MAX_GRID, max(3, np.ceil((top - low) / step) + 1)))
     xs = np.linspace(low, top, count)
     states = _limit_states(ok_rows(xs))
     changes = np.nonzero(np.any(states[1:] != states[:-1], axis=1))[0]
