@@ -331,7 +331,8 @@ def _why_no_fuel(
             _exceeded(check) or "no amount is within limits"
         )
     elif start > least + 1e-9 * max(1.0, capacity):
-        along += f". Less ramp fuel than {fmt(start, unit, 'up')} does not cover taxi and trip"
+        # rounded down: every ramp fuel below the figure said is short of taxi and trip
+        along += f". Less ramp fuel than {fmt(start, unit, 'down')} does not cover taxi and trip"
     return along, _first_limit(check)
 
 

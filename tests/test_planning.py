@@ -1089,3 +1089,16 @@ def test_a_burn_down_to_a_fuel_left_carries_the_check_of_its_taxi_and_trip_as_gi
     assert answer.check.to_json() == check_loading(GULL, given).to_json()
     assert not answer.check.findings
     assert answer.check.condition("ramp").arm == pytest.approx(25864.4 / 654.24)
+
+
+def test_the_least_fuel_that_covers_taxi_and_trip_is_said_on_the_true_side():
+    """Taxi 0.3 and trip 6.03 imp gal need 6.33 imp gal (common practice: taxi and trip come out of the
+    tanks): "less ramp fuel than 6.3 impgal does not cover" is true, "than 6.4" would not be (6.35 covers);
+    the stretch itself starts at 6.4, rounded inward."""
+    loading = resolve_loading(
+        Loading(load={"p1": 60, "p2": 115}, burn={"taxi": 0.3, "trip": 6.03}), GULL, fuel_to_plan=True
+    )
+    answer = P.most_fuel(GULL, loading)
+    assert not answer.feasible and answer.governing is not None
+    assert answer.governing.startswith("ramp fuel 6.4 to ")
+    assert answer.governing.endswith("Less ramp fuel than 6.3 impgal does not cover taxi and trip")
