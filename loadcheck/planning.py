@@ -248,9 +248,10 @@ _LOAD_CODES = ("station_max", "station_min", "group_max", "group_min")
 
 def _why_not(
     aircraft: Aircraft, loading: ResolvedLoading, varies: str | None = None, state: str = "with this load and trip"
-) -> str:
+) -> tuple[str, str | None]:
     """Why no value of the variable brings a loading within limits, from the loading's own check
-    (``state`` says which loading that is: the loading as given, or with the variable at one end).
+    (``state`` says which loading that is: the loading as given, or with the variable at one end),
+    and the finding code of the first limit named (None where the check refuses the loading).
 
     A station or group limit that the variable does not change is the whole reason
     ("Rear seats: 255.0 kg exceeds the maximum 250.0 kg by 5.0 kg"); otherwise the limits the
@@ -259,27 +260,80 @@ def _why_not(
     try:
         check = check_loading(aircraft, loading)
     except LoadcheckError as error:
-        return "; ".join(p.message for p in error.problems)
+        return "; ".join(p.message for p in error.problems), None
     fixed = [
         f
         for f in check.findings
         if f.severity == "limit" and f.code in _LOAD_CODES and (varies is None or f.subject != varies)
     ]
     if fixed:
-        return "; ".join(f.message for f in fixed)
-    return f"{state}: " + (_exceeded(check) or "no amount is within limits")
+        return "; ".join(f.message for f in fixed), fixed[0].code
+    return f"{state}: " + (_exceeded(check) or "no amount is within limits"), _first_limit(check)
 
 
-def _why_not_fuel(aircraft: Aircraft, loading: ResolvedLoading, within: bool) -> str:
-    """Why no ramp fuel is within limits and lands with the loading's reserve; ``within``: some
-    ramp fuel is within limits, only none of it lands with the reserve."""
-    if within and loading.reserve is not None:
-        unit = aircraft.units.fuel_volume
-        return (
-            f"no ramp fuel within limits lands with the loading's reserve of {fmt(loading.reserve, unit)} "
-            f"after taxi and trip of {fmt(loading.taxi + loading.trip, unit)}"
+def _first_limit(check: CheckResult) -> str | None:
+    """The code of the first limit a check finds exceeded, in the check's order; None where none is."""
+    return next((f.code for f in check.findings if f.severity == "limit"), None)
+
+
+def _why_no_fuel(
+    aircraft: Aircraft,
+    at: Callable[[float], ResolvedLoading],
+    evaluate: Callable[[np.ndarray], Evaluation],
+    covers: Callable[[np.ndarray], np.ndarray],
+    least: float,
+    capacity: float,
+    step: float,
+) -> tuple[str, str | None]:
+    """Why no ramp fuel of the fill order (``least`` to ``capacity`` [fuel volume unit]) is within limits,
+    and the first limit's finding code: from the full check of the candidate loadings (``at``), never of
+    the loading's own fuel, which the answer replaces.
+
+    Only the fuel that covers taxi and trip (``covers``) can be checked: where none does, the check's
+    refusal of the fullest is the reason. A station or group limit, which no fuel changes, is then the
+    one reason (at the least fuel that covers the burn); else what each ramp fuel from that least to the
+    capacity exceeds, stretch by stretch (:func:`_exceeded_along`), or, where the stretches are too many,
+    what the check at that least exceeds. ``step`` is the search's grid step [fuel volume unit].
+    """
+    unit = aircraft.units.fuel_volume
+    if not covers(np.array([capacity]))[0]:
+        return _why_not(aircraft, at(capacity))
+    # more fuel covers more (the fill order only adds fuel): the least that covers, by bisection to the
+    # last digits, so that the figure said is the threshold itself (260.0 l, not 260.1)
+    low, start = least, capacity
+    if covers(np.array([least]))[0]:
+        start = least
+    for _ in range(200):
+        if start - low <= 1e-12 * max(1.0, capacity):
+            break
+        mid = 0.5 * (low + start)
+        low, start = (low, mid) if covers(np.array([mid]))[0] else (mid, start)
+    try:
+        check = check_loading(aircraft, at(start))
+    except LoadcheckError as error:
+        return "; ".join(p.message for p in error.problems), None
+    fixed = [f for f in check.findings if f.severity == "limit" and f.code in _LOAD_CODES]
+    if fixed:
+        return "; ".join(f.message for f in fixed), fixed[0].code
+    along = _exceeded_along(
+        aircraft,
+        evaluate,
+        at,
+        capacity,
+        unit,
+        low=start,
+        step=step,
+        lead="ramp fuel",
+        whole=f"any ramp fuel from {stretch_text(start, capacity, unit)}",
+    )
+    if along is None:
+        along = f"at the least ramp fuel that covers taxi and trip, {fmt(start, unit, 'up')}: " + (
+            _exceeded(check) or "no amount is within limits"
         )
-    return _why_not(aircraft, loading)
+    elif start > least + 1e-9 * max(1.0, capacity):
+        # rounded down: every ramp fuel below the figure said is short of taxi and trip
+        along += f". Less ramp fuel than {fmt(start, unit, 'down')} does not cover taxi and trip"
+    return along, _first_limit(check)
 
 
 def safe_value(low: float, high: float, unit: str, direction: Literal["up", "down"]) -> tuple[float, str]:
@@ -398,9 +452,23 @@ def _fuel_loading(
     base = loading_arrays(aircraft, loading)
     row = _distribute(aircraft, base, fill, np.array([total]))[0]
     fuelled = _with_fuel(loading, {t.id: float(row[i]) for i, t in enumerate(aircraft.tank)})
-    if burn_to is not None:
-        fuelled = fuelled.but(taxi=0.0, trip=max(0.0, fuelled.plan.burnable - burn_to))
+    if burn_to is not None:  # the taxi and trip are the answer's: given, as check reads them given
+        fuelled = _trip_found(fuelled.but(taxi=0.0), max(0.0, fuelled.plan.burnable - burn_to), taxi=True)
     return fuelled
+
+
+_NO_TRIP_NOTE = "no trip fuel given"
+_NO_TAXI_NOTE = "no taxi fuel given"
+"""How the notes a loading with no trip or no taxi carries begin (:func:`loadcheck.loading.resolve_loading`)."""
+
+
+def _trip_found(loading: ResolvedLoading, trip: float, *, taxi: bool = False) -> ResolvedLoading:
+    """The loading with a trip fuel an answer found [fuel volume unit] (and, with ``taxi``, its taxi
+    fuel too), as ``check`` reads it with that trip given: without the loading's note that none was
+    given (one engine, one verdict)."""
+    dropped = (_NO_TRIP_NOTE, _NO_TAXI_NOTE) if taxi else (_NO_TRIP_NOTE,)
+    notes = [note for note in loading.notes if not note.startswith(dropped)]
+    return replace(loading.but(trip=trip), notes=notes)
 
 
 def _mean_density(aircraft: Aircraft, loading: ResolvedLoading) -> float:
@@ -420,12 +488,15 @@ def _answer(
     question: str,
     variable: str,
     direction: Literal["up", "down"],
-    why_not: Callable[[], str],
+    why_not: Callable[[], str | tuple[str, str | None]],
     governing: Callable[[float, CheckResult], tuple[str | None, str | None]] = lambda _v, _c: (None, None),
 ) -> PlanResult:
     """An answer at the best end of the stretches within limits, carrying the full check of
-    the loading at the figure shown; infeasible unless that check finds it within limits."""
+    the loading at the figure shown; infeasible unless that check finds it within limits.
+    ``why_not`` gives the reason where no value is within limits, alone or with its finding code."""
     if not pairs:
+        reason = why_not()
+        text, code = reason if isinstance(reason, tuple) else (reason, None)
         return PlanResult(
             question=question,
             variable=variable,
@@ -434,7 +505,8 @@ def _answer(
             intervals=[],
             answer=None,
             answer_display="no amount is within limits",
-            governing=why_not(),
+            governing=text,
+            governing_code=code,
         )
     low, high = pairs[-1] if direction == "down" else pairs[0]
     shown, text = safe_value(low, high, unit, direction)
@@ -449,6 +521,7 @@ def _answer(
             answer=None,
             answer_display="no amount is within limits",
             governing=_exceeded(check),
+            governing_code=_first_limit(check),
             check=check,
         )
     limit, code = governing(high if direction == "down" else low, check)
@@ -508,27 +581,45 @@ def most_fuel(
     least, capacity = _fuel_range(aircraft, base, order)
     step = _GRID_STEP / _mean_density(aircraft, loading)
 
-    def ok(x: np.ndarray, reserve: float | None = loading.reserve) -> np.ndarray:
+    def evaluate(x: np.ndarray) -> Evaluation:
         fuel = _distribute(aircraft, base, order, x)
         if burn_to is None:
-            return _ok(evaluate_arrays(aircraft, base, fuel=fuel), reserve)
+            return evaluate_arrays(aircraft, base, fuel=fuel)
         trip = np.maximum(0.0, x - burn_to)
-        return _ok(evaluate_arrays(aircraft, base, fuel=fuel, taxi=np.zeros(len(x)), trip=trip), reserve)
+        return evaluate_arrays(aircraft, base, fuel=fuel, taxi=np.zeros(len(x)), trip=trip)
+
+    def ok(x: np.ndarray, reserve: float | None = loading.reserve) -> np.ndarray:
+        return _ok(evaluate(x), reserve)
+
+    def covers(x: np.ndarray) -> np.ndarray:
+        """Ramp fuel whose tanks of the burn order hold its taxi and trip (a burn down to a fuel left always)."""
+        if burn_to is not None:
+            return np.ones(len(x), dtype=bool)
+        uses = np.array([base.order is None or t.id in base.order for t in aircraft.tank], dtype=float)
+        burn = loading.taxi + loading.trip
+        return _distribute(aircraft, base, order, x) @ uses >= burn - 1e-9 * max(1.0, burn)
 
     pairs = feasible_intervals(ok, least, capacity, step) if aircraft.tank else []
-
-    def why_not() -> str:
-        if not aircraft.tank:
-            return "this aircraft has no fuel tanks"
-        within = loading.reserve is not None and bool(feasible_intervals(lambda x: ok(x, None), least, capacity, step))
-        return _why_not_fuel(aircraft, loading, within)
-
     unit = aircraft.units.fuel_volume
+
+    def at(value: float) -> ResolvedLoading:
+        return _fuel_loading(aircraft, loading, order, value, burn_to)
+
+    def why_not() -> tuple[str, str | None]:
+        if not aircraft.tank:
+            return "this aircraft has no fuel tanks", None
+        if loading.reserve is not None and feasible_intervals(lambda x: ok(x, None), least, capacity, step):
+            return (
+                f"no ramp fuel within limits lands with the loading's reserve of {fmt(loading.reserve, unit)} "
+                f"after taxi and trip of {fmt(loading.taxi + loading.trip, unit)}"
+            ), "reserve"
+        return _why_no_fuel(aircraft, at, evaluate, covers, least, capacity, step)
+
     result = _answer(
         aircraft,
         pairs,
         unit,
-        at=lambda v: _fuel_loading(aircraft, loading, order, v, burn_to),
+        at=at,
         question="most fuel at engine start with this load",
         variable="ramp fuel",
         direction="down",
@@ -569,8 +660,10 @@ def longest_trip(
     Returns
     -------
     PlanResult
-        ``variable`` is trip fuel [fuel volume unit]; ``extra`` gives the time and the
-        reserve landed with and where it came from.
+        ``variable`` is trip fuel [fuel volume unit]; ``extra`` gives the time, the fuel the
+        answer lands with (``lands with``) and the reserve (``reserve``) and where it came from.
+        ``check`` is the check of the loading with the trip found, as ``check`` gives it with that
+        trip fuel: no note that no trip was given.
     """
     if not rate > 0:
         raise InputError(Problem("rate", "must be above zero", value=rate))
@@ -604,7 +697,7 @@ def longest_trip(
         aircraft,
         pairs,
         unit,
-        at=lambda v: fuelled.but(trip=v, reserve=reserve),
+        at=lambda v: _trip_found(fuelled, v),
         question=f"longest trip with {fuel.answer_display} at engine start, {landing_words}",
         variable="trip fuel",
         direction="down",
@@ -615,7 +708,7 @@ def longest_trip(
         ),
         governing=_beyond(
             (top, "the fuel on board less taxi fuel and reserve"),
-            lambda v: fuelled.but(trip=min(fuelled.plan.burnable - fuelled.taxi, v + 2 * step)),
+            lambda v: _trip_found(fuelled, min(fuelled.plan.burnable - fuelled.taxi, v + 2 * step)),
             aircraft,
         ),
     )
@@ -623,16 +716,12 @@ def longest_trip(
     if result.feasible and result.answer is not None:
         shown = safe_value(result.intervals[-1].low, result.answer, unit, "down")[0]
         minutes = int(np.floor(shown / rate * 60.0 + 1e-9))
-        result = replace(
-            result,
-            extra={
-                "ramp fuel": fuel.answer_display,
-                "time at the rate": f"{minutes // 60}:{minutes % 60:02d}",
-                "reserve landed with": f"{fmt(reserve, unit)} ({source})",
-            },
-        )
+        extra = {"ramp fuel": fuel.answer_display, "time at the rate": f"{minutes // 60}:{minutes % 60:02d}"}
+        if result.check is not None:  # the fuel the answer lands with, which the reserve is not
+            extra["lands with"] = fmt(result.check.condition("landing").fuel, unit, "down")
+        result = replace(result, extra={**extra, "reserve": f"{fmt(reserve, unit)} ({source})"})
         return _with_fill(result, words)
-    return _with_fill(replace(result, extra={"reserve landed with": f"{fmt(reserve, unit)} ({source})"}), words)
+    return _with_fill(replace(result, extra={"reserve": f"{fmt(reserve, unit)} ({source})"}), words)
 
 
 _TRIP_GRID = 201
@@ -834,9 +923,8 @@ def least_ballast(aircraft: Aircraft, loading: ResolvedLoading, station: str | N
         ),
     )
     if not answer.feasible:
-        return replace(
-            answer, answer_display=f"no amount can: {reason}", governing=_why_not(aircraft, loading, station)
-        )
+        governing, code = _why_not(aircraft, loading, station)
+        return replace(answer, answer_display=f"no amount can: {reason}", governing=governing, governing_code=code)
     return answer
 
 
@@ -862,11 +950,18 @@ def _exceeded_along(
     at: Callable[[float], ResolvedLoading],
     top: float,
     unit: str,
+    *,
+    low: float = 0.0,
+    step: float = _GRID_STEP,
+    lead: str = "moving",
+    whole: str | None = None,
 ) -> str | None:
-    """What each amount moved from 0 to ``top`` exceeds, stretch by stretch, in the check's words
+    """What each amount from ``low`` to ``top`` exceeds, stretch by stretch, in the check's words
     ("moving 0.0 to 187.2 lb: left limit at takeoff -2.75 in. Moving 187.3 to 245.0 lb: maximum of
     right 250.0 lb", each stretch's ends rounded inward): where no amount is within limits, what limits
-    the move.
+    the move (or, with ``lead`` "ramp fuel", the fuel). ``whole`` leads the words where one set of
+    limits holds all the way (default: "moving any amount up to all" ``top``). ``step`` is the search's
+    grid step in the variable's unit (default: the mass grid step).
 
     The engine gives every limit's verdict on the search's grid; each stretch of one set of verdicts
     is named by the full check (:func:`~loadcheck.check.check_loading`) of the loading at its middle.
@@ -875,8 +970,8 @@ def _exceeded_along(
     stretches are still too many (the loading's own check and the one with all of it moved then say
     what is exceeded).
     """
-    count = int(min(_MAX_GRID, max(3, np.ceil(top / _GRID_STEP) + 1)))
-    xs = np.linspace(0.0, top, count)
+    count = int(min(_MAX_GRID, max(3, np.ceil((top - low) / step) + 1)))
+    xs = np.linspace(low, top, count)
     states = _limit_states(ok_rows(xs))
     changes = np.nonzero(np.any(states[1:] != states[:-1], axis=1))[0]
     if len(changes) + 1 > _MAX_STATES:
@@ -903,10 +998,10 @@ def _exceeded_along(
     if len(runs) > _MAX_RUNS:
         return None
     if len(runs) == 1:
-        return f"moving any amount up to all {fmt(top, unit)}: {runs[0][2]}"
+        return f"{whole or f'moving any amount up to all {fmt(top, unit)}'}: {runs[0][2]}"
     return ". ".join(
-        f"{'Moving' if n else 'moving'} {stretch_text(low, high, unit)}: {words}"
-        for n, (low, high, words) in enumerate(runs)
+        f"{lead[0].upper() + lead[1:] if n else lead} {stretch_text(start, end, unit)}: {words}"
+        for n, (start, end, words) in enumerate(runs)
     )
 
 
@@ -1030,11 +1125,10 @@ def weight_shift(
             return refuse("moving weight that way moves the CG away from the target")
         if moved > available + 1e-9:
             return refuse(f"it needs {fmt(moved, units.mass, 'up')} but {source} holds {fmt(available, units.mass)}")
-        # the amount shown is the amount checked: rounded to the shown step, never above what the source holds
-        moved = round_safe(moved, 1, "nearest")
-        if moved > available:
-            moved = round_safe(available, 1, "down")
-        check = check_loading(aircraft, at(max(0.0, moved)))
+        # the amount shown is the amount checked: the least weight that reaches the CG, rounded up (the
+        # safe direction, as least ballast is), with more digits where that would pass what the source holds
+        moved, shown = safe_value(max(0.0, moved), max(0.0, moved, available), units.mass, "up")
+        check = check_loading(aircraft, at(moved))
         if not check.ok:
             return refuse(
                 f"moving {fmt(moved, units.mass)} puts the CG at the target, but the loading is then not "
@@ -1048,7 +1142,7 @@ def weight_shift(
             feasible=True,
             intervals=[Interval(low=moved, high=moved)],
             answer=moved,
-            answer_display=f"{moved:,.1f} {units.mass}",
+            answer_display=shown,
             check=check,
             extra={"resulting CG": fmt(check.condition(condition).arm, units.arm)},
         )
@@ -1092,10 +1186,16 @@ def weight_shift(
     )
     if not answer.feasible:  # the reason said once; "limited by" is what each amount moved still exceeds
         along = None if empty else _exceeded_along(aircraft, evaluate, at, available, units.mass)
+        governing, code = (
+            (along, _first_limit(check_loading(aircraft, at(0.0))))
+            if along is not None
+            else _why_not(aircraft, at(available))
+        )
         return replace(
             answer,
             answer_display=f"no amount can: {reason}",
-            governing=along if along is not None else _why_not(aircraft, at(available)),
+            governing=governing,
+            governing_code=code,
             extra={**answer.extra, **moves_extra},
         )
     extra = {**answer.extra, **moves_extra}
@@ -1113,13 +1213,15 @@ class TableRow(Result):
     [fuel volume unit]; most, the largest allowed (None where none is), the figure whose
     loading was checked in full; check, that check (at the figure shown), None where none is;
     limited_by, what stops the row's fuel going further or, where no fuel is within limits, what
-    its check finds exceeded (:func:`most_fuel`'s ``governing``, in the check's words)."""
+    its check finds exceeded (:func:`most_fuel`'s ``governing``, in the check's words);
+    limited_by_code, the finding code of its first limit (``governing_code``)."""
 
     payload: float
     intervals: list[Interval]
     most: float | None
     check: CheckResult | None = None
     limited_by: str | None = None
+    limited_by_code: str | None = None
 
 
 @dataclass(frozen=True, kw_only=True, slots=True)
@@ -1168,6 +1270,7 @@ def fuel_payload_table(
                 most=answer.answer if answer.feasible else None,
                 check=answer.check if answer.feasible else None,
                 limited_by=answer.governing,
+                limited_by_code=answer.governing_code,
             )
         )
     units: dict[str, str] = {"mass": aircraft.units.mass, "fuel_volume": aircraft.units.fuel_volume}

@@ -244,12 +244,12 @@ def test_plan_trip_reserve_default_replaced_the_loading_s_reserve(runner):
     file = str(sample("trainer4/within.toml"))  # [burn] reserve = 8, taxi = 1.2
     plain = json.loads(runner.invoke(app, ["plan", "trip", file, "--rate", "9", "--json"]).stdout)
     assert "landing with at least 8.0 usgal (the loading's reserve)" in plain["question"]
-    assert plain["extra"]["reserve landed with"] == "8.0 usgal (the loading's reserve)"
+    assert plain["extra"]["reserve"] == "8.0 usgal (the loading's reserve)"
     landing = next(c for c in plain["check"]["conditions"] if c["condition"] == "landing")
     assert landing["fuel"] >= 8.0 - 1e-6  # the check at the figure shown lands with the reserve
     assert not any(f["code"] == "reserve" for f in plain["check"]["findings"])
     asked = json.loads(runner.invoke(app, ["plan", "trip", file, "--rate", "9", "--reserve", "5", "--json"]).stdout)
-    assert asked["extra"]["reserve landed with"] == "5.0 usgal (the reserve asked for)"
+    assert asked["extra"]["reserve"] == "5.0 usgal (the reserve asked for)"
     # 3 usgal less reserve is 3 usgal more trip fuel from the same ramp fuel (rounded down to 0.1 usgal)
     assert asked["answer"] - plain["answer"] == pytest.approx(3.0, abs=0.11)
     words = runner.invoke(app, ["plan", "trip", file, "--rate", "9"]).stdout
@@ -400,4 +400,30 @@ def test_regression_plan_trip_refused_a_reserve_given_as_a_mass(runner):
     path = str(sample("trainer4/within.toml"))
     said = runner.invoke(app, ["plan", "trip", path, "--rate", "8", "--reserve", "5 kg", "--json"])
     assert said.exit_code == 0, said.output
-    assert json.loads(said.stdout)["extra"]["reserve landed with"] == "1.8 usgal (the reserve asked for)"
+    assert json.loads(said.stdout)["extra"]["reserve"] == "1.8 usgal (the reserve asked for)"
+
+
+def test_regression_plan_trip_s_check_had_one_finding_more_than_check_of_its_loading(tmp_path):
+    """Trial 11, finding 7: ``plan trip`` carried "no trip fuel given" beside the 498.6 l trip it checked, so its
+    words, JSON and findings differed from ``check`` of the same loading with that trip; and "reserve landed
+    with: 45.0 l" read as the landing fuel where it lands with 161.4 l (670 l full less taxi 10 and trip
+    498.6, sums of FAA-H-8083-1B chapter 2). The check carried is now ``check``'s, finding for finding."""
+    from .test_planning import _HAULER
+
+    aircraft = write_file(tmp_path, _HAULER)
+    common = ["-l", "crew=180", "-l", "cab1=300", "-l", "cab2=100", "--taxi", "10", "--order", "aft,fwd,wings"]
+    planned = invoke("plan", "trip", aircraft, *common, "--rate", "120", "--reserve", "45", "--json")
+    assert planned.exit_code == 0, planned.output
+    answer = json.loads(planned.stdout)
+    assert answer["answer_display"] == "498.6 l"
+    assert answer["extra"]["lands with"] == "161.4 l"
+    assert answer["extra"]["reserve"] == "45.0 l (the reserve asked for)"
+    full = ["-f", "fwd=full", "-f", "wings=full", "-f", "aft=full"]
+    checked = invoke("check", aircraft, *common, *full, "--trip", "498.6", "--reserve", "45", "--json")
+    assert checked.exit_code == planned.exit_code == 0
+    plain = json.loads(checked.stdout)
+    assert answer["check"]["findings"] == plain["findings"] and len(plain["findings"]) == 1
+    assert answer["check"]["conditions"] == plain["conditions"]
+    words = invoke("plan", "trip", aircraft, *common, "--rate", "120", "--reserve", "45").output
+    assert "no trip fuel given" not in words and "lands with: 161.4 l" in words
+    assert "reserve: 45.0 l (the reserve asked for)" in words and "reserve landed with" not in words
