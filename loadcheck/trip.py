@@ -31,6 +31,7 @@ import numpy as np
 from .aircraft import Aircraft
 from .caution import PILOT_CAUTION
 from .check import below_reserve, check_loading
+from .display import fmt
 from .engine import evaluate, loading_arrays
 from .errors import InputError, LoadcheckError, Problem
 from .loading import BurnPlan, Loading, ResolvedLoading, ResolvedTrip, StopFuel, landing_fuel, resolve_trip
@@ -352,6 +353,43 @@ def _why_not(aircraft: Aircraft, trip: ResolvedTrip) -> str:
     return "with this load and these legs: " + reason
 
 
+def _why_no_trip_fuel(
+    aircraft: Aircraft, trip: ResolvedTrip, at: Callable[[float], ResolvedTrip], least: float, capacity: float
+) -> str:
+    """Why no ramp fuel of the fill order (``least`` to ``capacity`` [fuel volume unit]) keeps every leg
+    within limits: from the trip's full check at the ramp fuels the answer tries, never at the first
+    leg's own fuel, which the answer replaces (a fuel too little for the burn is no reason then).
+
+    The ramp fuels are tried on a grid from ``least`` to ``capacity``; the least one whose trip can be
+    checked (every leg's taxi and trip covered, every stop's fuel taken) gives the reason, and full tanks
+    too where theirs differs. Where none can be checked, the refusal at full tanks is the reason."""
+    unit = aircraft.units.fuel_volume
+    checked: list[tuple[float, TripResult]] = []
+    refusal = ""
+    for total in np.linspace(least, capacity, 41):
+        try:
+            checked.append((float(total), check_trip(aircraft, at(float(total)), samples=False)))
+        except LoadcheckError as error:
+            refusal = "; ".join(p.describe() for p in error.problems)
+    if not checked:
+        return refusal or _why_not(aircraft, trip)
+
+    def reason(found: TripResult) -> str:
+        reserves = [f.message for f in found.findings if f.code == "reserve"]
+        return _exceeded(found) or (
+            "no fuel within limits lands every leg with its reserve (" + "; ".join(reserves) + ")"
+            if reserves
+            else "no amount is within limits"
+        )
+
+    first, found = checked[0]
+    words = f"with this load and these legs, at {fmt(first, unit, 'up')} of ramp fuel: {reason(found)}"
+    last, full = checked[-1]
+    if last > first and reason(full) != reason(found):
+        words += f"; at {fmt(last, unit, 'down')}: {reason(full)}"
+    return words
+
+
 def trip_most_fuel(
     aircraft: Aircraft, trip: Loading | ResolvedTrip, *, fill: Sequence[str] | None = None, category: str | None = None
 ) -> TripPlan:
@@ -396,7 +434,9 @@ def trip_most_fuel(
         capacity,
         at,
         step,
-        lambda: "this aircraft has no fuel tanks" if not ids else _why_not(aircraft, resolved),
+        lambda: (
+            "this aircraft has no fuel tanks" if not ids else _why_no_trip_fuel(aircraft, resolved, at, least, capacity)
+        ),
     )
     return _with_fill(plan, fill_words(aircraft, order, fill))
 

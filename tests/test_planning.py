@@ -1102,3 +1102,24 @@ def test_the_least_fuel_that_covers_taxi_and_trip_is_said_on_the_true_side():
     assert not answer.feasible and answer.governing is not None
     assert answer.governing.startswith("ramp fuel 6.4 to ")
     assert answer.governing.endswith("Less ramp fuel than 6.3 impgal does not cover taxi and trip")
+
+
+def test_regression_a_trips_no_fuel_reason_named_the_first_legs_own_too_little_fuel():
+    """Trial 11, finding 6 left for trips: for a trip whose first leg gives 1 imp gal against taxi 0.3 and
+    trip 6, ``plan fuel`` said "taxi and trip fuel (6.3 impgal) exceed the fuel the burn order can use":
+    the fuel the answer replaces. The reason is the trip's check at the ramp fuels tried: at the least that
+    covers the burn, 6.3 imp gal, leg 1 is 650.60 kg at 42.685 cm against the 42.524 cm aft limit (worked by
+    hand in the single-leg case above, FAA-H-8083-1B chapter 2)."""
+    from loadcheck.trip import trip_most_fuel
+
+    trip = Loading(
+        load={"p1": 60, "p2": 115},
+        fuel={"fus": 1},
+        burn={"taxi": 0.3, "trip": 6},
+        leg=[{"load": {"p2": 0, "locker": 15}, "add_fuel": {"fus": "full"}, "burn": {"taxi": 0.3, "trip": 4}}],
+    )
+    answer = trip_most_fuel(GULL, trip)
+    assert not answer.feasible and answer.governing is not None
+    assert "exceed the fuel the burn order" not in answer.governing, answer.governing
+    assert answer.governing.startswith("with this load and these legs, at 6.3 impgal of ramp fuel: leg 1: ramp CG")
+    assert "aft of the aft limit" in answer.governing and "(42.5 cm at 650.6 kg)" in answer.governing
