@@ -286,7 +286,9 @@ def test_regression_plan_refusals_name_the_option_as_typed(args, named):
 
 def test_regression_trip_most_fuel_is_limited_by_the_legs_limits_with_amounts():
     """plan fuel on a trip said "limited by: leg 1: maximum ramp weight" (a name, no amount); with no
-    amount within limits it now quotes the check's finding sentences, each with its leg."""
+    amount within limits it now quotes the check's finding sentences, each with its leg: of the trip at
+    the ramp fuels the answer tries (trial 11), here the least that covers the burn and full tanks, the
+    file's own fuel (``main = "full"``: 32 US gal)."""
     trip = str(sample("heli2/trip_drop_off.toml"))
     heavy = ["--load", "left=250", "--load", "right=250", "--load", "bag_left=35", "--load", "bag_right=35"]
     none_fits = invoke("plan", "fuel", trip, *heavy, "--json")
@@ -294,7 +296,8 @@ def test_regression_trip_most_fuel_is_limited_by_the_legs_limits_with_amounts():
     governing = json.loads(none_fits.stdout)["governing"]
     checked = json.loads(invoke("check", trip, *heavy, "--json").stdout)
     sentences = [f["message"] for f in checked["findings"] if f["severity"] == "limit"]
-    assert governing == "with this load and these legs: " + "; ".join(sentences)
+    assert governing.startswith("with this load and these legs, at ") and "of ramp fuel: leg 1: " in governing
+    assert governing.endswith("; at 32.0 usgal: " + "; ".join(sentences)), governing
     stops = invoke("plan", "fuel", trip, "--load", "left=240", "--load", "right=240", "--json")
     assert stops.exit_code == 0, stops.output
     # heli2/aircraft.toml: max_takeoff_weight = 1620 (the ramp weight defaults to it)
