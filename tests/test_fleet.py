@@ -1152,3 +1152,28 @@ def test_a_unit_on_a_column_that_holds_no_amount_is_refused(runner, tmp_path, co
     day.write_text(f"registration,{column},front,mains\nDEMO-4T,x,170,20\n")
     result = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(day), "--no-log"])
     assert result.exit_code == 2 and f"'{column}': a unit on a column that holds no amount" in result.output
+
+
+def test_rows_stream_in_bounded_memory_with_workers(tmp_path, monkeypatch):
+    # the same bound where workers read the CSV records (loadcheck.fleet._check_units): this process
+    # holds a few chunks of records and of answers, whatever the number of rows
+    import tracemalloc
+
+    from loadcheck import fleet as fleet_module
+
+    monkeypatch.setattr(fleet_module, "_check_chunk", lambda rows: [(None, ["not checked"])] * len(rows))
+    fleet = load_fleet(SAMPLES)
+    peaks = {}
+    small, large = 4 * fleet_module.CHUNK, 16 * fleet_module.CHUNK
+    for count in (small, large):
+        day = _write_day(tmp_path / f"day{count}.csv", count)
+        rows, _ = read_loadings(day, fleet)
+        tracemalloc.start()
+        seen = 0
+        for flight in check_flights(fleet, rows, workers=2):
+            assert flight.row.loading is None and flight.problems == ["not checked"]  # read in a worker
+            seen += 1
+        peaks[count] = tracemalloc.get_traced_memory()[1]
+        tracemalloc.stop()
+        assert seen == count
+    assert peaks[large] < 1.5 * peaks[small], peaks  # four times the rows, not four times the memory
