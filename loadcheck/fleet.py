@@ -1165,10 +1165,15 @@ def _checked(
     )
     try:
         pending: deque[Any] = deque()
-        for chunk in itertools.chain((first, second), chunks):
-            pending.append(pool.submit(job, chunk))
-            if len(pending) >= workers * IN_FLIGHT:
+        try:
+            for chunk in itertools.chain((first, second), chunks):
+                pending.append(pool.submit(job, chunk))
+                if len(pending) >= workers * IN_FLIGHT:
+                    yield pending.popleft().result()
+        except LoadcheckError:  # the file went wrong further on: the chunks read before it are reported first
+            while pending:
                 yield pending.popleft().result()
+            raise
         while pending:
             yield pending.popleft().result()
     finally:
