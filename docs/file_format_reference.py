@@ -73,6 +73,8 @@ RULES: dict[str, str] = {
     "no spaces at its start or end, and one spelling (names differing only in letter case are refused)",
     "envelope.axes": "two different ones; one must be `weight`, unless the pair is `lateral_arm` and `arm`",
     "envelope.points": "at least 3 distinct corners enclosing an area, not crossing itself; the ring closes itself",
+    "envelope.label": "its name in findings (`the longitudinal envelope`); without one, `the normal-category "
+    "envelope`, naming its axes where its category has another envelope without a label",
     "envelope.moment_scale": "> 0, e.g. 1000; only on an envelope with a moment axis",
     "history": "written by `weigh --write` and `alter --write`; the old record is kept, never changed",
     "equipment": "items that `alter` may remove or relocate; `alter --write` keeps it current",

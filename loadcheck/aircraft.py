@@ -396,6 +396,7 @@ class Envelope(_Model):
         1.0, gt=0, description="a moment or lateral_moment axis is read as moment / moment_scale"
     )
     _shape: EnvelopeShape | None = PrivateAttr(None)
+    _named: str | None = PrivateAttr(None)  # its subject where its category has other unlabelled envelopes
 
     @field_validator("category")
     @classmethod
@@ -422,7 +423,11 @@ class Envelope(_Model):
 
     @property
     def subject(self) -> str:
-        """The envelope in words: its label, else its category ("the normal-category envelope")."""
+        """The envelope in words: its label, else its category ("the normal-category envelope"), with its
+        axes where the category has another envelope without a label ("the normal-category envelope of
+        lateral CG and weight"): two limits are never told in the same words."""
+        if self._named is not None:
+            return self._named
         return f"the {self.label or self.category + '-category'} envelope".replace("envelope envelope", "envelope")
 
     def point_words(self, units: Units) -> Callable[[float, float], str]:
@@ -456,6 +461,29 @@ _AXIS_WORDS: dict[str, str] = {
     "lateral_arm": "lateral CG",
     "lateral_moment": "lateral moment",
 }
+
+
+_AXIS_NAMES = _AXIS_WORDS | {"mac": "CG in %MAC"}
+"""An envelope's axes in words, where its subject names them (:func:`_name_alike`)."""
+
+
+def _name_alike(envelopes: list[Envelope]) -> None:
+    """Give the envelopes without a label that share a category a subject naming their axes (and, where
+    the axes are the same too, their place in the file), so that a finding says which one it is about."""
+    unlabelled: dict[str, list[tuple[int, Envelope]]] = {}
+    for index, envelope in enumerate(envelopes):
+        if envelope.label is None:
+            unlabelled.setdefault(envelope.category, []).append((index, envelope))
+    for category, alike in unlabelled.items():
+        if len(alike) < 2:
+            continue
+        named = {
+            index: f"the {category}-category envelope of {_AXIS_NAMES[e.axes[0]]} and {_AXIS_NAMES[e.axes[1]]}"
+            for index, e in alike
+        }
+        for index, envelope in alike:
+            same = [i for i in named if named[i] == named[index]]
+            envelope._named = named[index] + (f" (envelope {index + 1} of the file)" if len(same) > 1 else "")
 
 
 def _usable_polygon(envelope: Envelope, info: ValidationInfo) -> Envelope:
@@ -604,6 +632,7 @@ class Aircraft(_Model):
             raise ValueError("\n".join(problems))
         for envelope in self.envelope:
             envelope._shape = EnvelopeShape(envelope.axes, envelope.points, envelope.moment_scale, self.mac)
+        _name_alike(self.envelope)
         return self
 
     @model_validator(mode="after")

@@ -385,3 +385,35 @@ def test_a_moment_scale_on_an_envelope_with_no_moment_axis_is_refused():
     assert "moment_scale = 100 on an envelope with no moment axis" in _problems(data)
     data["envelope"][0]["moment_scale"] = 1  # the default, written out: nothing is dropped
     parse_aircraft(data, "test.toml")
+
+
+def test_envelopes_of_one_category_without_labels_are_told_apart_in_words():
+    # an outside trial's find: with a longitudinal and a lateral envelope of one category, neither
+    # labelled, a weight finding was printed twice word for word ("... below the normal-category
+    # envelope ..."), and the reader could not tell which envelope each line was about
+    two = simple_aircraft(
+        station=[{"id": "front", "arm": 35.0, "lateral_arm": 0.0}],
+        tank=[{"id": "main", "arm": 45.0, "lateral_arm": 0.0, "usable": 40.0, "fuel": "avgas"}],
+        empty={"weight": 1200.0, "arm": 38.0, "lateral_arm": 0.0},
+        envelope=[
+            {
+                "category": "normal",
+                "axes": ["arm", "weight"],
+                "points": [[30, 1000], [45, 1000], [45, 2000], [30, 2000]],
+            },
+            {
+                "category": "normal",
+                "axes": ["lateral_arm", "weight"],
+                "points": [[-4, 1000], [4, 1000], [4, 2000], [-4, 2000]],
+            },
+            {
+                "category": "utility",
+                "axes": ["arm", "weight"],
+                "points": [[30, 1000], [40, 1000], [40, 2000], [30, 2000]],
+            },
+        ],
+    )
+    normal, lateral, utility = (e.subject for e in two.envelope)
+    assert normal == "the normal-category envelope of CG and weight"
+    assert lateral == "the normal-category envelope of lateral CG and weight"
+    assert utility == "the utility-category envelope"  # alone in its category: its words as before
