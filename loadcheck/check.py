@@ -695,15 +695,18 @@ def _slices(
     parts = [_slice_lines(shape, *line) for line in lines]
     ax, ay, dx, dy, value, flat = (np.concatenate([p[j] for p in parts]) for j in range(6))
     scale = np.maximum(np.abs(dx), np.abs(dy))
+    # what every edge's test reads of the lines alone, found once for all edges
+    parallel, on_edge, unflat = 1e-14 * scale, 1e-12 * scale, ~flat
     columns = []
     with np.errstate(divide="ignore", invalid="ignore"):
         for x1, y1, ex, ey in shape._edge_list:
             wx, wy = x1 - ax, y1 - ay
             denom = dx * ey - dy * ex
-            crossing = np.abs(denom) > 1e-14 * scale
-            t = (wx * dy - wy * dx) / denom
+            crossing = np.abs(denom) > parallel
+            across = wx * dy - wy * dx  # the line's offset from the edge's start (crossing and along alike)
+            t = across / denom
             columns.append(np.where(crossing & (t >= -1e-12) & (t <= 1 + 1e-12), (wx * ey - wy * ex) / denom, np.nan))
-            along = ~crossing & (np.abs(wx * dy - wy * dx) <= 1e-12 * scale) & ~flat
+            along = ~crossing & (np.abs(across) <= on_edge) & unflat
             if along.any():  # the line runs along this edge: cut at both its ends
                 norm = dx * dx + dy * dy
                 columns.append(np.where(along, (wx * dx + wy * dy) / norm, np.nan))
@@ -715,6 +718,11 @@ def _slices(
     if repeated.any():
         points = np.sort(np.where(repeated, np.nan, points), axis=1)
     cut = np.isfinite(points)
+    # sorted, each line's NaNs come last: the columns that are NaN on every line hold no cut
+    # (no stretch, no point, an infinite gap), nothing the rest reads, and are left out
+    width = min(max(int((~np.isnan(points)).sum(axis=1).max(initial=0)), 2), points.shape[1])
+    if width < points.shape[1]:
+        points, cut = points[:, :width], cut[:, :width]
     low, high = points[:, :-1], points[:, 1:]
     stretch = cut[:, :-1] & cut[:, 1:]
     mids = 0.5 * (low + high)
