@@ -740,34 +740,36 @@ def _slices(
     after = np.zeros(cut.shape, dtype=bool)
     after[:, :-1] = inside
     lone = touch & ~before & ~after
+    any_lone = bool(lone.any())  # a line touching the envelope at a lone point: rare
     v = value[:, None]
     gap_stretch = np.where(inside, np.maximum(np.maximum(low - v, v - high), 0.0), np.inf)
-    gap_lone = np.where(lone, np.maximum(np.maximum(points - v, v - points), 0.0), np.inf)
-    nearest = np.minimum(gap_stretch.min(axis=1, initial=np.inf), gap_lone.min(axis=1, initial=np.inf))
+    nearest = gap_stretch.min(axis=1, initial=np.inf)
+    if any_lone:
+        gap_lone = np.where(lone, np.maximum(np.maximum(points - v, v - points), 0.0), np.inf)
+        nearest = np.minimum(nearest, gap_lone.min(axis=1, initial=np.inf))
     at_stretch = np.where(gap_stretch == nearest[:, None], low, np.inf)
-    at_lone = np.where(gap_lone == nearest[:, None], points, np.inf)
-    k_stretch, k_lone = at_stretch.argmin(axis=1), at_lone.argmin(axis=1)
+    k_stretch = at_stretch.argmin(axis=1)
     rows = np.arange(len(ax))
-    use_lone = at_lone[rows, k_lone] < at_stretch[rows, k_stretch]
     # the merged run of inside stretches around the chosen one
     index = np.arange(inside.shape[1])
     starts = inside & ~before[:, :-1]
     ends = inside & ~after[:, 1:]
     run_start = np.maximum.accumulate(np.where(starts, index, -1), axis=1)
     run_end = np.minimum.accumulate(np.where(ends, index, inside.shape[1])[:, ::-1], axis=1)[:, ::-1]
-    lo = np.where(use_lone, points[rows, k_lone], points[rows, np.clip(run_start[rows, k_stretch], 0, None)])
-    hi = np.where(
-        use_lone, points[rows, k_lone], points[rows, np.clip(run_end[rows, k_stretch] + 1, None, points.shape[1] - 1)]
-    )
+    lo = points[rows, np.clip(run_start[rows, k_stretch], 0, None)]
+    hi = points[rows, np.clip(run_end[rows, k_stretch] + 1, None, points.shape[1] - 1)]
+    first = np.where(inside, low, np.inf).min(axis=1, initial=np.inf)
+    last = np.where(inside, high, -np.inf).max(axis=1, initial=-np.inf)
+    if any_lone:  # a lone point may be the nearest part inside, and either end of the extent
+        at_lone = np.where(gap_lone == nearest[:, None], points, np.inf)
+        k_lone = at_lone.argmin(axis=1)
+        use_lone = at_lone[rows, k_lone] < at_stretch[rows, k_stretch]
+        lo = np.where(use_lone, points[rows, k_lone], lo)
+        hi = np.where(use_lone, points[rows, k_lone], hi)
+        first = np.minimum(first, np.where(lone, points, np.inf).min(axis=1, initial=np.inf))
+        last = np.maximum(last, np.where(lone, points, -np.inf).max(axis=1, initial=-np.inf))
+    # with no lone point, a line with no part inside has an infinite gap: said as none below
     none = ~np.isfinite(nearest) | flat
-    first = np.minimum(
-        np.where(inside, low, np.inf).min(axis=1, initial=np.inf),
-        np.where(lone, points, np.inf).min(axis=1, initial=np.inf),
-    )
-    last = np.maximum(
-        np.where(inside, high, -np.inf).max(axis=1, initial=-np.inf),
-        np.where(lone, points, -np.inf).max(axis=1, initial=-np.inf),
-    )
     return (
         np.where(none, np.nan, lo),
         np.where(none, np.nan, hi),
