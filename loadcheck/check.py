@@ -199,6 +199,11 @@ def _explain(
     tables_of_items = moment_tables(aircraft, stations, fuel, density)
     paths = _path_points(aircraft, loadings, found, category, samples, (stations, fuel, density))
     by_row = list(zip(*(_conditions(aircraft, rows, fixed, margins[fixed.name]) for fixed in once), strict=True))
+    seats = aircraft.control_seats
+    # a weight at a seat with flight controls, every row at once (the engine's stations array)
+    piloted: list[bool] = (
+        np.any(stations[:, [tables.station_ids.index(s) for s in seats]] > 0, axis=1).tolist() if seats else []
+    )
     for i, resolved in enumerate(loadings):
         findings: list[Finding] = []
         conditions = list(by_row[i])
@@ -232,12 +237,12 @@ def _explain(
                     limit=resolved.reserve,
                 )
             )
-        if aircraft.control_seats and not any(resolved.stations.get(s, 0.0) > 0 for s in aircraft.control_seats):
+        if seats and not piloted[i]:
             findings.append(
                 Finding(
                     code="no_pilot",
                     severity="warning",
-                    message=no_pilot_message([aircraft.station_by_id[s].name for s in aircraft.control_seats]),
+                    message=no_pilot_message([aircraft.station_by_id[s].name for s in seats]),
                 )
             )
         if resolved.notes:
