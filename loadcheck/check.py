@@ -267,12 +267,19 @@ class _Rows:
 
     def __init__(self, found: Evaluation):
         # every row stacked and converted at once (two numpy calls for the numbers, two for the flags)
-        numbers: list[list[float]] = np.array(
+        stacked = np.array(
             [found.weight[k] for k in CONDITIONS]
             + [found.moment[k] for k in CONDITIONS]
             + [found.lateral_moment[k] for k in CONDITIONS]
             + [found.fuel_weight[k] for k in CONDITIONS]
-        ).tolist()
+        )
+        # the CG and lateral CG of every condition and row (moment / weight, element by element;
+        # a weight is never zero: the empty weight is above zero and no load is negative)
+        self.arm_array = stacked[4:8] / stacked[0:4]
+        arms: list[list[float]] = np.concatenate([self.arm_array, stacked[8:12] / stacked[0:4]]).tolist()
+        self.arm = dict(zip(CONDITIONS, arms[0:4], strict=True))
+        self.lateral_arm = dict(zip(CONDITIONS, arms[4:8], strict=True))
+        numbers: list[list[float]] = stacked.tolist()
         self.weight = dict(zip(CONDITIONS, numbers[0:4], strict=True))
         self.moment = dict(zip(CONDITIONS, numbers[4:8], strict=True))
         self.lateral = dict(zip(CONDITIONS, numbers[8:12], strict=True))
@@ -373,25 +380,30 @@ def _conditions(aircraft: Aircraft, rows: _Rows, once: _Once, margins: Sequence[
     has_lateral = once.has_lateral
     mac = aircraft.mac
     limit = once.weight_limit
+    n = len(margins)
+    percents = mac.percent(rows.arm_array[CONDITIONS.index(name)]).tolist() if mac else [None] * n
     return [
         Condition(
             condition=name,
             weight=weight,
-            arm=(arm := moment / weight),
+            arm=arm,
             moment=moment,
-            lateral_arm=lateral / weight if has_lateral else None,
+            lateral_arm=lateral_arm if has_lateral else None,
             lateral_moment=lateral if has_lateral else None,
-            mac_percent=mac.percent(arm) if mac else None,
+            mac_percent=percent,
             fuel=fuel,
             fuel_weight=fuel_weight,
             max_weight=limit,
             ok=ok,
             margins=margin,
         )
-        for weight, moment, lateral, fuel, fuel_weight, ok, margin in zip(
+        for weight, moment, arm, lateral, lateral_arm, percent, fuel, fuel_weight, ok, margin in zip(
             rows.weight[name],
             rows.moment[name],
+            rows.arm[name],
             rows.lateral[name],
+            rows.lateral_arm[name],
+            percents,
             rows.fuel[name],
             rows.fuel_weight[name],
             rows.condition_ok[name],
