@@ -229,8 +229,8 @@ class Mac(_Model):
     leading_edge_arm: Arm = Field(description="arm of the MAC's leading edge [arm unit]")
     length: Arm = Field(gt=0, description="length of the MAC [arm unit]")
 
-    def percent(self, arm: float) -> float:
-        """CG position in percent of MAC: 100 * (arm - LEMAC) / MAC.
+    def percent(self, arm: Any) -> Any:
+        """CG position in percent of MAC: 100 * (arm - LEMAC) / MAC, of an arm or of an array of them.
 
         FAA-H-8083-1B chapter 2 (percent of MAC formula).
         """

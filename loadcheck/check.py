@@ -199,6 +199,11 @@ def _explain(
     tables_of_items = moment_tables(aircraft, stations, fuel, density)
     paths = _path_points(aircraft, loadings, found, category, samples, (stations, fuel, density))
     by_row = list(zip(*(_conditions(aircraft, rows, fixed, margins[fixed.name]) for fixed in once), strict=True))
+    seats = aircraft.control_seats
+    # a weight at a seat with flight controls, every row at once (the engine's stations array)
+    piloted: list[bool] = (
+        np.any(stations[:, [tables.station_ids.index(s) for s in seats]] > 0, axis=1).tolist() if seats else []
+    )
     for i, resolved in enumerate(loadings):
         findings: list[Finding] = []
         conditions = list(by_row[i])
@@ -232,12 +237,12 @@ def _explain(
                     limit=resolved.reserve,
                 )
             )
-        if aircraft.control_seats and not any(resolved.stations.get(s, 0.0) > 0 for s in aircraft.control_seats):
+        if seats and not piloted[i]:
             findings.append(
                 Finding(
                     code="no_pilot",
                     severity="warning",
-                    message=no_pilot_message([aircraft.station_by_id[s].name for s in aircraft.control_seats]),
+                    message=no_pilot_message([aircraft.station_by_id[s].name for s in seats]),
                 )
             )
         if resolved.notes:
@@ -262,12 +267,19 @@ class _Rows:
 
     def __init__(self, found: Evaluation):
         # every row stacked and converted at once (two numpy calls for the numbers, two for the flags)
-        numbers: list[list[float]] = np.array(
+        stacked = np.array(
             [found.weight[k] for k in CONDITIONS]
             + [found.moment[k] for k in CONDITIONS]
             + [found.lateral_moment[k] for k in CONDITIONS]
             + [found.fuel_weight[k] for k in CONDITIONS]
-        ).tolist()
+        )
+        # the CG and lateral CG of every condition and row (moment / weight, element by element;
+        # a weight is never zero: the empty weight is above zero and no load is negative)
+        self.arm_array = stacked[4:8] / stacked[0:4]
+        arms: list[list[float]] = np.concatenate([self.arm_array, stacked[8:12] / stacked[0:4]]).tolist()
+        self.arm = dict(zip(CONDITIONS, arms[0:4], strict=True))
+        self.lateral_arm = dict(zip(CONDITIONS, arms[4:8], strict=True))
+        numbers: list[list[float]] = stacked.tolist()
         self.weight = dict(zip(CONDITIONS, numbers[0:4], strict=True))
         self.moment = dict(zip(CONDITIONS, numbers[4:8], strict=True))
         self.lateral = dict(zip(CONDITIONS, numbers[8:12], strict=True))
@@ -368,25 +380,30 @@ def _conditions(aircraft: Aircraft, rows: _Rows, once: _Once, margins: Sequence[
     has_lateral = once.has_lateral
     mac = aircraft.mac
     limit = once.weight_limit
+    n = len(margins)
+    percents = mac.percent(rows.arm_array[CONDITIONS.index(name)]).tolist() if mac else [None] * n
     return [
         Condition(
             condition=name,
             weight=weight,
-            arm=(arm := moment / weight),
+            arm=arm,
             moment=moment,
-            lateral_arm=lateral / weight if has_lateral else None,
+            lateral_arm=lateral_arm if has_lateral else None,
             lateral_moment=lateral if has_lateral else None,
-            mac_percent=mac.percent(arm) if mac else None,
+            mac_percent=percent,
             fuel=fuel,
             fuel_weight=fuel_weight,
             max_weight=limit,
             ok=ok,
             margins=margin,
         )
-        for weight, moment, lateral, fuel, fuel_weight, ok, margin in zip(
+        for weight, moment, arm, lateral, lateral_arm, percent, fuel, fuel_weight, ok, margin in zip(
             rows.weight[name],
             rows.moment[name],
+            rows.arm[name],
             rows.lateral[name],
+            rows.lateral_arm[name],
+            percents,
             rows.fuel[name],
             rows.fuel_weight[name],
             rows.condition_ok[name],
@@ -695,15 +712,18 @@ def _slices(
     parts = [_slice_lines(shape, *line) for line in lines]
     ax, ay, dx, dy, value, flat = (np.concatenate([p[j] for p in parts]) for j in range(6))
     scale = np.maximum(np.abs(dx), np.abs(dy))
+    # what every edge's test reads of the lines alone, found once for all edges
+    parallel, on_edge, unflat = 1e-14 * scale, 1e-12 * scale, ~flat
     columns = []
     with np.errstate(divide="ignore", invalid="ignore"):
         for x1, y1, ex, ey in shape._edge_list:
             wx, wy = x1 - ax, y1 - ay
             denom = dx * ey - dy * ex
-            crossing = np.abs(denom) > 1e-14 * scale
-            t = (wx * dy - wy * dx) / denom
+            crossing = np.abs(denom) > parallel
+            across = wx * dy - wy * dx  # the line's offset from the edge's start (crossing and along alike)
+            t = across / denom
             columns.append(np.where(crossing & (t >= -1e-12) & (t <= 1 + 1e-12), (wx * ey - wy * ex) / denom, np.nan))
-            along = ~crossing & (np.abs(wx * dy - wy * dx) <= 1e-12 * scale) & ~flat
+            along = ~crossing & (np.abs(across) <= on_edge) & unflat
             if along.any():  # the line runs along this edge: cut at both its ends
                 norm = dx * dx + dy * dy
                 columns.append(np.where(along, (wx * dx + wy * dy) / norm, np.nan))
@@ -715,6 +735,11 @@ def _slices(
     if repeated.any():
         points = np.sort(np.where(repeated, np.nan, points), axis=1)
     cut = np.isfinite(points)
+    # sorted, each line's NaNs come last: the columns that are NaN on every line hold no cut
+    # (no stretch, no point, an infinite gap), nothing the rest reads, and are left out
+    width = min(max(int((~np.isnan(points)).sum(axis=1).max(initial=0)), 2), points.shape[1])
+    if width < points.shape[1]:
+        points, cut = points[:, :width], cut[:, :width]
     low, high = points[:, :-1], points[:, 1:]
     stretch = cut[:, :-1] & cut[:, 1:]
     mids = 0.5 * (low + high)
@@ -732,34 +757,36 @@ def _slices(
     after = np.zeros(cut.shape, dtype=bool)
     after[:, :-1] = inside
     lone = touch & ~before & ~after
+    any_lone = bool(lone.any())  # a line touching the envelope at a lone point: rare
     v = value[:, None]
     gap_stretch = np.where(inside, np.maximum(np.maximum(low - v, v - high), 0.0), np.inf)
-    gap_lone = np.where(lone, np.maximum(np.maximum(points - v, v - points), 0.0), np.inf)
-    nearest = np.minimum(gap_stretch.min(axis=1, initial=np.inf), gap_lone.min(axis=1, initial=np.inf))
+    nearest = gap_stretch.min(axis=1, initial=np.inf)
+    if any_lone:
+        gap_lone = np.where(lone, np.maximum(np.maximum(points - v, v - points), 0.0), np.inf)
+        nearest = np.minimum(nearest, gap_lone.min(axis=1, initial=np.inf))
     at_stretch = np.where(gap_stretch == nearest[:, None], low, np.inf)
-    at_lone = np.where(gap_lone == nearest[:, None], points, np.inf)
-    k_stretch, k_lone = at_stretch.argmin(axis=1), at_lone.argmin(axis=1)
+    k_stretch = at_stretch.argmin(axis=1)
     rows = np.arange(len(ax))
-    use_lone = at_lone[rows, k_lone] < at_stretch[rows, k_stretch]
     # the merged run of inside stretches around the chosen one
     index = np.arange(inside.shape[1])
     starts = inside & ~before[:, :-1]
     ends = inside & ~after[:, 1:]
     run_start = np.maximum.accumulate(np.where(starts, index, -1), axis=1)
     run_end = np.minimum.accumulate(np.where(ends, index, inside.shape[1])[:, ::-1], axis=1)[:, ::-1]
-    lo = np.where(use_lone, points[rows, k_lone], points[rows, np.clip(run_start[rows, k_stretch], 0, None)])
-    hi = np.where(
-        use_lone, points[rows, k_lone], points[rows, np.clip(run_end[rows, k_stretch] + 1, None, points.shape[1] - 1)]
-    )
+    lo = points[rows, np.clip(run_start[rows, k_stretch], 0, None)]
+    hi = points[rows, np.clip(run_end[rows, k_stretch] + 1, None, points.shape[1] - 1)]
+    first = np.where(inside, low, np.inf).min(axis=1, initial=np.inf)
+    last = np.where(inside, high, -np.inf).max(axis=1, initial=-np.inf)
+    if any_lone:  # a lone point may be the nearest part inside, and either end of the extent
+        at_lone = np.where(gap_lone == nearest[:, None], points, np.inf)
+        k_lone = at_lone.argmin(axis=1)
+        use_lone = at_lone[rows, k_lone] < at_stretch[rows, k_stretch]
+        lo = np.where(use_lone, points[rows, k_lone], lo)
+        hi = np.where(use_lone, points[rows, k_lone], hi)
+        first = np.minimum(first, np.where(lone, points, np.inf).min(axis=1, initial=np.inf))
+        last = np.maximum(last, np.where(lone, points, -np.inf).max(axis=1, initial=-np.inf))
+    # with no lone point, a line with no part inside has an infinite gap: said as none below
     none = ~np.isfinite(nearest) | flat
-    first = np.minimum(
-        np.where(inside, low, np.inf).min(axis=1, initial=np.inf),
-        np.where(lone, points, np.inf).min(axis=1, initial=np.inf),
-    )
-    last = np.maximum(
-        np.where(inside, high, -np.inf).max(axis=1, initial=-np.inf),
-        np.where(lone, points, -np.inf).max(axis=1, initial=-np.inf),
-    )
     return (
         np.where(none, np.nan, lo),
         np.where(none, np.nan, hi),

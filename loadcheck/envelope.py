@@ -209,14 +209,15 @@ class EnvelopeShape:
         self.convex = self._locator.convex
         column = corners[:, axes.index("weight")] if "weight" in axes else None
         self._weight_range = None if column is None else (float(column.min()), float(column.max()))
+        self._is_lateral = any(AXES[a].lateral for a in axes)
         shapely.prepare(self.covering)
 
     # -- coordinates ----------------------------------------------------------------
 
     @property
     def is_lateral(self) -> bool:
-        """True where an axis limits the lateral CG."""
-        return any(AXES[a].lateral for a in self.axes)
+        """True where an axis limits the lateral CG (found once, with the shape)."""
+        return self._is_lateral
 
     @property
     def max_weight(self) -> float | None:

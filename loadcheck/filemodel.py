@@ -91,18 +91,32 @@ def _boolean_places(annotation: Any, value: Any, place: tuple[str | int, ...]) -
 
 def _holds_boolean(value: Any) -> bool:
     """True where ``value`` holds a boolean anywhere (in a table or a list, at any depth): a
-    quick look, with no field types, that lets most data skip :func:`_booleans_in_numbers`."""
-    if value is True or value is False:
-        return True
+    quick look, with no field types, that lets most data skip :meth:`FileModel.boolean_places`.
+
+    A plain table, list or tuple (what a TOML or CSV reader gives) is told by its exact type at
+    once, a subclass of one by ``isinstance``; a value of any other type holds nothing to look into.
+    """
     pending = [value]
     while pending:
         item = pending.pop()
-        values = item.values() if isinstance(item, dict) else item if isinstance(item, (list, tuple)) else ()
-        kinds = set(map(type, values))  # bool has no subclasses: its type is bool
+        kind = type(item)
+        if kind is dict:
+            values: Any = item.values()
+        elif kind is list or kind is tuple:
+            values = item
+        elif kind is bool:  # bool has no subclasses: its type is bool
+            return True
+        elif isinstance(item, dict):
+            values = item.values()
+        elif isinstance(item, (list, tuple)):
+            values = item
+        else:
+            continue
+        kinds = set(map(type, values))
         if bool in kinds:
             return True
-        if kinds - _LEAVES:  # a table or a list inside (or any other value: looked into where it is one)
-            pending.extend(inner for inner in values if isinstance(inner, (dict, list, tuple)))
+        if not kinds <= _LEAVES:  # a table or a list inside (or any other value: looked into where it is one)
+            pending += [inner for inner in values if type(inner) not in _LEAVES]
     return False
 
 

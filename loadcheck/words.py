@@ -159,21 +159,25 @@ def beyond(value: float, limit: float, unit: str) -> tuple[str, str, str]:
     above = value > limit
     away: Direction = "up" if above else "down"
     towards: Direction = "down" if above else "up"
-    places = decimals(unit)
+    places = most = decimals(unit)
+    most += _EXTRA_DIGITS
     excess = abs(value - limit)
-    while excess < 10.0**-places * (1 - 1e-6) and places < decimals(unit) + _EXTRA_DIGITS and excess > 0:
+    while excess < 10.0**-places * (1 - 1e-6) and places < most and excess > 0:
         places += 1
     shown_value = round_safe(value, places, away)
     shown_limit = round_safe(limit, places, towards)
     shown_excess = round_safe(abs(shown_value - shown_limit), places, "nearest")
+    spec = f",.{places}f"
+    return _shown(shown_value, spec, unit), _shown(shown_limit, spec, unit), _shown(shown_excess, spec, unit)
 
-    def text(number: float) -> str:
-        out = f"{number:,.{places}f}"
-        if out.startswith("-") and float(out.replace(",", "")) == 0.0:
-            out = out[1:]
-        return f"{out} {unit}"
 
-    return text(shown_value), text(shown_limit), text(shown_excess)
+def _shown(number: float, spec: str, unit: str) -> str:
+    """A number of :func:`beyond` written with ``spec`` (thousands separators, its places) and its
+    unit; a negative figure that shows as zero loses its sign."""
+    out = format(number, spec)
+    if out[0] == "-" and float(out.replace(",", "")) == 0.0:
+        out = out[1:]
+    return f"{out} {unit}"
 
 
 def weight_limit_message(condition: str, weight: float, code: str, limit: float, unit: str) -> str:
