@@ -31,6 +31,7 @@ END = "<!-- end of field reference -->"
 # Rules the descriptions do not carry, by field path (dotted, lists as their table name).
 RULES: dict[str, str] = {
     "format": "must be 1",
+    "registration": "with a letter or digit (a blank or `-` names no aircraft: leave the key out)",
     "units": "the units of every plain number in the file",
     "empty": "the current basic empty-weight record",
     "limits": "the weight limits",

@@ -32,7 +32,7 @@ from pydantic import (
 from .display import fmt
 from .envelope import AXES, Axis, EnvelopeShape, polygon_problem
 from .errors import Problem, UnitError, UnknownNameError, spelling_hint
-from .filemodel import FileModel, Flag
+from .filemodel import FileModel, Flag, Registration
 from .fuel import FuelGrade, default_density, density_problem, grade_name
 from .registration import registration_key
 from .units import MAX_MAGNITUDE, ArmUnit, MassUnit, VolumeUnit, canonical_unit, convert, parse_quantity, unit_kind
@@ -531,7 +531,7 @@ class Aircraft(_Model):
 
     format: Literal[1] = 1
     name: str = Field(min_length=1)
-    registration: str | None = None
+    registration: Registration | None = None
     units: Units
     empty: EmptyWeight
     limits: Limits

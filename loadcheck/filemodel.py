@@ -25,7 +25,9 @@ from pydantic import (
 )
 from pydantic_core import InitErrorDetails, PydanticCustomError
 
-__all__ = ["AircraftKey", "FileModel", "Flag"]
+from .registration import registration_key
+
+__all__ = ["AircraftKey", "FileModel", "Flag", "Registration"]
 
 Flag = Annotated[bool, Strict()]
 """A yes/no field: ``true`` or ``false`` only, never a number or a text read as one."""
@@ -36,6 +38,18 @@ def _names_a_file(value: str) -> str:
         raise ValueError("names no file: give the aircraft file (relative to this file), or leave the key out")
     return value
 
+
+def _names_an_aircraft(value: str) -> str:
+    if not registration_key(value):
+        raise ValueError(
+            f"{value!r} is not a registration: it has no letter or digit; give the registration, or leave the key out"
+        )
+    return value
+
+
+Registration = Annotated[str, AfterValidator(_names_an_aircraft)]
+"""A registration written in a file: with a letter or digit (``registration_key``). A blank one names
+no aircraft, and was passed over as if none were given."""
 
 AircraftKey = Annotated[str, AfterValidator(_names_a_file)]
 """The ``aircraft`` key of a loading, readings or changes file: a file's path, never blank (a blank

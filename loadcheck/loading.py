@@ -27,7 +27,7 @@ from pydantic import BeforeValidator, Field, field_validator, model_validator
 
 from .aircraft import Aircraft
 from .errors import InputError, LoadcheckError, Problem, UnitError, UnknownNameError, spelling_hint
-from .filemodel import AircraftKey, FileModel
+from .filemodel import AircraftKey, FileModel, Registration
 from .fuel import density_problem
 from .registration import registration_key
 from .units import (
@@ -261,7 +261,7 @@ class Loading(_Model):
     aircraft: AircraftKey | None = Field(None, description="aircraft file, relative to this file")
     category: str | None = None
     label: str | None = Field(None, description="free text: flight, booking reference")
-    registration: str | None = Field(None, description="the aircraft, by registration, in a fleet")
+    registration: Registration | None = Field(None, description="the aircraft, by registration, in a fleet")
     reference: str | None = Field(None, description="flight or booking reference")
     pilot: str | None = Field(None, description="the pilot in command")
     fuel_density: float | None = Field(None, gt=0, description="overrides every tank [mass unit / volume unit]")

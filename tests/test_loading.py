@@ -14,7 +14,7 @@ from loadcheck.errors import InputError, UnknownNameError
 from loadcheck.loading import Loading, apply_overrides, leg_of_field, resolve_trip
 from loadcheck.trip import check_trip
 
-from .helpers import simple_aircraft
+from .helpers import sample_data, simple_aircraft
 
 # -- fuel carried over and added ------------------------------------------------------------
 
@@ -198,3 +198,20 @@ def test_regression_no_weight_at_the_pilots_seat_was_within_limits_without_a_wor
         "a flight needs its pilot's weight at one"
     ]
     assert simple_aircraft().control_seats == ()  # no seat said to have controls: nothing to say
+
+
+@pytest.mark.parametrize("written", ["", "   ", "-", "..."])
+def test_a_registration_with_no_letter_or_digit_is_refused_in_a_file(written):
+    # an outside trial's find: registration = "" in a loading file was taken as no registration (the check
+    # went on, within limits), while '-' was refused as a mismatch and the log filters refuse both; a
+    # registration names an aircraft or is left out (the aircraft file's own key too)
+    from loadcheck.errors import InputError
+    from loadcheck.files import parse_aircraft, parse_loading
+
+    with pytest.raises(InputError, match="is not a registration: it has no letter or digit"):
+        parse_loading({"registration": written, "load": {"front": 170}}, "day.toml")
+    data = sample_data("trainer4/aircraft.toml")
+    data["registration"] = written
+    with pytest.raises(InputError, match="is not a registration: it has no letter or digit"):
+        parse_aircraft(data, "aircraft.toml")
+    assert parse_loading({"registration": "g-abcd"}, "day.toml").registration == "g-abcd"  # as written
