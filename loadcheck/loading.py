@@ -104,6 +104,13 @@ def tank_list(text: str, field: str, separators: Literal[",", "csv"] = ",", *, w
     return names
 
 
+NO_TAXI_NOTE = "no taxi fuel given; takeoff is checked at the engine-start fuel"
+"""The note of a loading that gives no taxi fuel (an answer that finds its taxi fuel drops it)."""
+
+NO_TRIP_NOTE = "no trip fuel given; landing is checked at the takeoff fuel"
+"""The note of a loading that gives no trip fuel (an answer that finds its trip fuel drops it)."""
+
+
 def burn_order(
     text: str, field: str, separators: Literal[",", "csv"] = ",", *, with_value: bool = True
 ) -> Literal["together"] | list[str]:
@@ -837,9 +844,9 @@ def resolve_loading(
     else:
         trip = volume_of(burn.trip, taxi)
     if burn.taxi is None:  # never a silent zero: a leg added on the command line with only its trip, say
-        notes.append("no taxi fuel given; takeoff is checked at the engine-start fuel")
+        notes.append(NO_TAXI_NOTE)
     if burn.trip is None and burn.trip_time is None:
-        notes.append("no trip fuel given; landing is checked at the takeoff fuel")
+        notes.append(NO_TRIP_NOTE)
     reserve = None if burn.reserve is None else volume_of(burn.reserve, taxi + trip)
     resolved = ResolvedLoading(chosen, stations, fuel, density, taxi, trip, reserve, plan, notes, names)
     require_usable(resolved, aircraft, burn_covered=not fuel_to_plan)

@@ -44,7 +44,7 @@ from .check import below_reserve, check_loading
 from .display import decimals, fmt, round_safe
 from .engine import Evaluation, LoadingArrays, evaluate_arrays, loading_arrays
 from .errors import InputError, LoadcheckError, Problem, UnknownNameError
-from .loading import BurnPlan, ResolvedLoading, unknown_station
+from .loading import NO_TAXI_NOTE, NO_TRIP_NOTE, BurnPlan, ResolvedLoading, unknown_station
 from .results import CheckResult, Finding, Result
 from .words import LIMIT_NAMES, condition_words, stretch_text
 
@@ -457,17 +457,12 @@ def _fuel_loading(
     return fuelled
 
 
-_NO_TRIP_NOTE = "no trip fuel given"
-_NO_TAXI_NOTE = "no taxi fuel given"
-"""How the notes a loading with no trip or no taxi carries begin (:func:`loadcheck.loading.resolve_loading`)."""
-
-
 def _trip_found(loading: ResolvedLoading, trip: float, *, taxi: bool = False) -> ResolvedLoading:
     """The loading with a trip fuel an answer found [fuel volume unit] (and, with ``taxi``, its taxi
     fuel too), as ``check`` reads it with that trip given: without the loading's note that none was
     given (one engine, one verdict)."""
-    dropped = (_NO_TRIP_NOTE, _NO_TAXI_NOTE) if taxi else (_NO_TRIP_NOTE,)
-    notes = [note for note in loading.notes if not note.startswith(dropped)]
+    dropped = (NO_TRIP_NOTE, NO_TAXI_NOTE) if taxi else (NO_TRIP_NOTE,)
+    notes = [note for note in loading.notes if note not in dropped]
     return replace(loading.but(trip=trip), notes=notes)
 
 
