@@ -13,9 +13,10 @@ seats and baggage or a lateral limit defeats it. So each case here is found by a
   flight controls (``controls = true``, else the first seat) always holds the pilot: one
   standard occupant (or the seat's maximum where that is less), and also the seat's
   ``min_weight`` where that is below the standard occupant (a lighter pilot the seat permits);
-- where a station group (or the maximum zero-fuel or takeoff weight) limits several
-  stations together, a baggage, cargo or other station also takes what the group leaves
-  after every load of the others ("fill the rest");
+- where a station group limits several stations together, a baggage, cargo or other
+  station also takes what the group leaves after every load of the others ("fill the rest";
+  what a weight limit leaves is a load of the lines below, worked out for each loading's own
+  fuel state);
 - fuel: every choice of tanks filled full, and the minimum fuel for balance (1/12 US
   gallon per maximum-except-takeoff horsepower, AC 43.13-1B 10-2 p) less what those hold
   put tank by tank in every order of the other tanks;
@@ -268,31 +269,14 @@ def _station_loads(aircraft: Aircraft, occupant: float, pilots: Sequence[Station
     return loads
 
 
-def _shared_limits(
-    aircraft: Aircraft, fuel_states: Sequence[tuple[float, ...]]
-) -> tuple[list[tuple[tuple[int, ...], float]], list[tuple[tuple[int, ...], float]]]:
-    """Limits shared by several stations [mass unit]: each station group's maximum; and the
-    weight left for all the stations under the maximum zero-fuel weight and, for each fuel state
-    searched (a full tank on the worse side leaves less for the payload than the minimum fuel),
-    under the maximum takeoff weight."""
+def _group_limits(aircraft: Aircraft) -> list[tuple[tuple[int, ...], float]]:
+    """Each station group's maximum, with the indices of its stations [mass unit]. (What a weight
+    limit leaves is tried along the lines from every permitted loading, for its own fuel state:
+    :func:`_targets`.)"""
     index = {s.id: i for i, s in enumerate(aircraft.station)}
-    groups = [
+    return [
         (tuple(index[m] for m in g.stations), g.max_weight) for g in aircraft.station_group if g.max_weight is not None
     ]
-    every = tuple(range(len(aircraft.station)))
-    empty = aircraft.empty.weight
-    weights = []
-    if aircraft.limits.max_zero_fuel_weight is not None:
-        weights.append((every, aircraft.limits.max_zero_fuel_weight - empty))
-    masses = sorted(
-        {
-            round(sum(aircraft.density(t) * q for t, q in zip(aircraft.tank, state, strict=True)), 9)
-            for state in fuel_states
-        }
-        or {0.0}
-    )
-    weights += [(every, aircraft.limits.max_takeoff_weight - empty - mass) for mass in masses]
-    return groups, weights
 
 
 def _fill_loads(
@@ -663,7 +647,7 @@ def _search(aircraft: Aircraft, category: str, occupant: float, min_fuel: float 
     along the lines) and evaluate them with the engine."""
     pilots = _pilot_seats(aircraft)
     fuel_states, orders_cut = _fuel_loads(aircraft, min_fuel)
-    groups, weights = _shared_limits(aircraft, fuel_states)
+    groups = _group_limits(aircraft)
     room = max(1, SEARCH_BOUND // len(fuel_states))
     notes: list[str] = []
     base = _station_loads(aircraft, occupant, pilots)
@@ -671,18 +655,13 @@ def _search(aircraft: Aircraft, category: str, occupant: float, min_fuel: float 
         k = aircraft.station.index(pilots[0])
         base[k] = [w for w in base[k] if w >= _pilot_weight(pilots[0], occupant) * (1 - 1e-12)]
     grouped, groups_cut = _fill_loads(aircraft, base, groups, 2)
-    filled, weights_cut = _fill_loads(aircraft, grouped, weights, 1)
     if orders_cut:
         notes.append(f"search bound: the minimum fuel was put in the first {_ORDERS:,} orders of the tanks only")
-    loads = filled
-    if math.prod(len(v) for v in filled) > room:
-        loads, weights_cut = grouped, True
+    loads = grouped
     if math.prod(len(v) for v in loads) > room:
         loads, groups_cut = base, groups_cut or base != grouped
     if groups_cut:
         notes.append("search bound: some loads that fill a station group to its maximum were left out")
-    if weights_cut:
-        notes.append("search bound: some loads that fill the stations up to a weight limit were left out")
     total = math.prod(len(v) for v in loads)
     if total > room:
         notes.append(

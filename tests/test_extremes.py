@@ -491,7 +491,8 @@ def test_terminal_shows_the_lateral_cases_and_the_summary_reads_as_the_table():
 def _small_aircraft(draw):
     """A small invented aircraft (lb, in, US gal): a pilot's seat (maybe with a minimum below the 170 lb
     standard occupant), a back seat, two holds (maybe under one group limit), two tanks; forward and aft
-    limits that each bend once, at any weight, toward or away from the CG (a kinked or sloping limit)."""
+    limits that each bend once, at any weight, toward or away from the CG (a kinked or sloping limit), drawn
+    on arm or on moment/1000 against weight, the zero-fuel CG a limit or not."""
     from hypothesis import strategies as st
 
     arm = st.floats(25.0, 60.0)
@@ -500,6 +501,8 @@ def _small_aircraft(draw):
     front = [forward, forward + draw(st.floats(-2.0, 3.0)), forward + draw(st.floats(-2.0, 3.0))]
     rear = [aft, aft + draw(st.floats(-3.0, 2.0)), aft + draw(st.floats(-3.0, 2.0))]
     group = draw(st.sampled_from([None, 60.0, 90.0]))
+    moment_axis = draw(st.booleans())
+    zero_fuel_limit = draw(st.booleans())
     pilot = {
         "id": "pilot_seat",
         "arm": draw(arm),
@@ -512,7 +515,10 @@ def _small_aircraft(draw):
         pilot["min_weight"] = least
     data = {
         "empty": {"weight": 1000.0, "arm": draw(st.floats(38.0, 42.0))},
-        "limits": {"max_takeoff_weight": draw(st.sampled_from([3000.0, 1700.0]))},
+        "limits": {
+            "max_takeoff_weight": draw(st.sampled_from([3000.0, 1700.0])),
+            "zero_fuel_cg": "limit" if zero_fuel_limit else "warning",
+        },
         "meto_power_hp": draw(st.sampled_from([60, 120, 180])),
         "station": [
             pilot,
@@ -524,27 +530,34 @@ def _small_aircraft(draw):
             {"id": "one", "arm": draw(arm), "usable": 20.0, "fuel": "avgas"},
             {"id": "two", "arm": draw(arm), "usable": 20.0, "fuel": "avgas"},
         ],
-        "envelope": [
+    }
+    corners = [[front[0], 800.0], [front[1], bends[0]], [front[2], 3000.0]]
+    corners += [[rear[2], 3000.0], [rear[1], bends[1]], [rear[0], 800.0]]
+    if moment_axis:  # the same corners on moment/1000 (the edges between them are straight in moment)
+        data["envelope"] = [
             {
                 "category": "normal",
-                "axes": ["arm", "weight"],
-                "points": [[front[0], 800], [front[1], bends[0]], [front[2], 3000]]
-                + [[rear[2], 3000], [rear[1], bends[1]], [rear[0], 800]],
+                "axes": ["moment", "weight"],
+                "moment_scale": 1000,
+                "points": [[x * w / 1000, w] for x, w in corners],
             }
-        ],
-    }
+        ]
+    else:
+        data["envelope"] = [{"category": "normal", "axes": ["arm", "weight"], "points": corners}]
     if group is not None:
         data["station_group"] = [{"label": "Baggage", "stations": ["bag_a", "bag_b"], "max_weight": group}]
-    return simple_aircraft(**data), ([800.0, bends[0], 3000.0], front), ([800.0, bends[1], 3000.0], rear)
+    limits = ([800.0, bends[0], 3000.0], front), ([800.0, bends[1], 3000.0], rear)
+    return simple_aircraft(**data), limits, moment_axis
 
 
-def _brute_force_margins(aircraft, forward_limit, aft_limit):
+def _brute_force_margins(aircraft, forward_limit, aft_limit, moment_axis):
     """The least forward and aft margins of every loading on a fine grid the limits permit: the pilot aboard
     (at the seat's minimum or whole 170 lb occupants), whole occupants in the back, baggage in 2 lb steps,
     each tank in 2 US gal steps, at least the minimum fuel for balance (AC 43.13-1B 10-2 p), avgas at
     6.0 lb/US gal (common practice). CG = total moment / total weight (FAA-H-8083-1B chapter 2); each limit
     at the loading's weight by straight lines between the corners drawn (an oracle apart from loadcheck's
-    envelope code)."""
+    envelope code; on a moment axis the moment limit is straight between corners, the arm limit that moment
+    over the weight). The zero-fuel state counts where its CG is a limit."""
     import numpy as np
 
     st = aircraft.station_by_id
@@ -569,10 +582,23 @@ def _brute_force_margins(aircraft, forward_limit, aft_limit):
     keep = (weight <= aircraft.limits.max_takeoff_weight) & (one + two >= least - 1e-9)
     if group is not None:
         keep &= a + c <= group
-    cg = moment[keep] / weight[keep]
-    forward = cg - np.interp(weight[keep], *forward_limit)
-    aft = np.interp(weight[keep], *aft_limit) - cg
-    return float(forward.min()), float(aft.min())
+    fuel_weight = 6.0 * (one + two)
+    fuel_moment = 6.0 * (one * tank["one"].arm + two * tank["two"].arm)
+    states = [(weight[keep], moment[keep])]
+    if aircraft.limits.zero_fuel_cg == "limit":
+        states.append((weight[keep] - fuel_weight[keep], moment[keep] - fuel_moment[keep]))
+    forward, aft = math.inf, math.inf
+    for w, m in states:
+
+        def limit(at, corners, w=w):
+            weights, arms = corners
+            if not moment_axis:
+                return np.interp(at, weights, arms)
+            return np.interp(at, weights, np.array(arms) * np.array(weights)) / at
+
+        forward = min(forward, float((m / w - limit(w, forward_limit)).min()))
+        aft = min(aft, float((limit(w, aft_limit) - m / w).min()))
+    return forward, aft
 
 
 from hypothesis import given, settings  # noqa: E402
@@ -589,13 +615,14 @@ def test_property_no_permitted_grid_loading_has_less_margin_than_the_extreme(dat
     # loadings never comes closer to a limit than the extreme found. Along one station's load the margin
     # is smooth between the loads that bring the loading to a corner weight or a weight limit, so its least
     # lies at a range end, at such a load, or at an edge's critical point (docs/mechanic.md; common practice)
-    aircraft, forward_limit, aft_limit = _small_aircraft(data.draw)
+    aircraft, (forward_limit, aft_limit), moment_axis = _small_aircraft(data.draw)
     result = extremes(aircraft)
-    grid = dict(zip(("forward", "rearward"), _brute_force_margins(aircraft, forward_limit, aft_limit), strict=True))
-    for case in (result.forward, result.rearward):
-        found = case.check.condition("ramp").margins
-        reported = found.forward if case.side == "forward" else found.aft
-        assert reported <= grid[case.side] + 1e-6, case.side
+    grid = _brute_force_margins(aircraft, forward_limit, aft_limit, moment_axis)
+    names = ["ramp", "zero_fuel"] if aircraft.limits.zero_fuel_cg == "limit" else ["ramp"]
+    for case, least in zip((result.forward, result.rearward), grid, strict=True):
+        margins = [case.check.condition(n).margins for n in names]
+        reported = min(m.forward if case.side == "forward" else m.aft for m in margins)
+        assert reported <= least + 1e-6, case.side
         assert case.complete
 
 
