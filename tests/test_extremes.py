@@ -958,3 +958,34 @@ def test_a_part_load_at_a_limit_that_slopes_toward_the_cg_is_found_in_closed_for
     assert ramp.margins.aft < 0 and not case.ok
     cargo = next(n for n in case.notes if n.startswith("cargo:"))
     assert "least margin to the sloping limit between 1,400.0 lb and 2,300.0 lb" in cargo
+
+
+def test_a_tank_at_what_the_maximum_takeoff_weight_leaves_says_so():
+    """trainer4 (invented sample): behind the aft limit the rear seats (2 x 170 lb), the hold (what the
+    420 lb group leaves, 80 lb) and the centre tank (12 US gal, 72 lb at 6.0 lb/US gal, common practice)
+    are full; the mains at 44 in take what the 2,450 lb maximum takeoff weight leaves:
+    (2,450 - 1,718 - 170 - 340 - 80 - 72) / 6 = 11.67 US gal. Worked by hand (FAA-H-8083-1B chapter 2):
+    63,909.6 + 6,545 + 23,800 + 7,360 + 4,752 + 3,080 = 109,446.6 lb in over 2,450 lb = 44.672 in, inside the
+    45.2 in aft limit at 2,450 lb. The old words said "as much as its station group or the weight limits
+    allow" of any part load (trial 11 finding 1)."""
+    case = extremes(load_aircraft(sample("trainer4/aircraft.toml"))).rearward
+    ramp = case.check.condition("ramp")
+    assert ramp.weight == pytest.approx(2450.0) and ramp.moment == pytest.approx(109446.6)
+    assert {i.id: i.fuel_volume for i in case.check.items if i.id == "mains"}["mains"] == pytest.approx(70 / 6)
+    assert case.ok and ramp.margins.aft == pytest.approx(45.2 - 109446.6 / 2450)
+    assert "Main tanks (wings): 11.7 usgal, as much as the maximum takeoff weight (2,450.0 lb) allows" in case.notes
+    assert any(n.startswith("Baggage hold: 80.0 lb, what the maximum of its station group") for n in case.notes)
+    assert not any("weight limits allow" in n for n in case.notes)
+
+
+def test_a_search_cut_along_the_lines_establishes_no_extreme(monkeypatch, tmp_path):
+    """The loads along the lines are bounded too (LINE_BOUND): where the bound cuts them, the case says so and
+    establishes no extreme (fail closed; common practice)."""
+    import loadcheck.extremes as module
+
+    from .helpers import write_file
+
+    monkeypatch.setattr(module, "LINE_BOUND", 1)
+    result = extremes(load_aircraft(write_file(tmp_path, KINK)))
+    assert any(n.startswith("search bound:") for n in result.forward.notes)
+    assert not result.forward.complete and not result.ok
