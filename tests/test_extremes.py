@@ -492,7 +492,7 @@ def _small_aircraft(draw):
     """A small invented aircraft (lb, in, US gal): a pilot's seat (maybe with a minimum below the 170 lb
     standard occupant), a back seat, two holds (maybe under one group limit), two tanks; forward and aft
     limits that each bend once, at any weight, toward or away from the CG (a kinked or sloping limit), drawn
-    on arm or on moment/1000 against weight, the zero-fuel CG a limit or not."""
+    on arm, % MAC or moment/1000 against weight, the zero-fuel CG a limit or not."""
     from hypothesis import strategies as st
 
     arm = st.floats(25.0, 60.0)
@@ -501,7 +501,8 @@ def _small_aircraft(draw):
     front = [forward, forward + draw(st.floats(-2.0, 3.0)), forward + draw(st.floats(-2.0, 3.0))]
     rear = [aft, aft + draw(st.floats(-3.0, 2.0)), aft + draw(st.floats(-3.0, 2.0))]
     group = draw(st.sampled_from([None, 60.0, 90.0]))
-    moment_axis = draw(st.booleans())
+    axis = draw(st.sampled_from(["arm", "mac", "moment"]))
+    moment_axis = axis == "moment"
     zero_fuel_limit = draw(st.booleans())
     pilot = {
         "id": "pilot_seat",
@@ -541,6 +542,11 @@ def _small_aircraft(draw):
                 "moment_scale": 1000,
                 "points": [[x * w / 1000, w] for x, w in corners],
             }
+        ]
+    elif axis == "mac":  # % MAC = 100 (CG - LEMAC) / MAC (FAA-H-8083-1B chapter 2): straight in CG too
+        data["mac"] = {"leading_edge_arm": 20.0, "length": 40.0}
+        data["envelope"] = [
+            {"category": "normal", "axes": ["mac", "weight"], "points": [[100 * (x - 20) / 40, w] for x, w in corners]}
         ]
     else:
         data["envelope"] = [{"category": "normal", "axes": ["arm", "weight"], "points": corners}]
