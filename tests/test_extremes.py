@@ -995,3 +995,93 @@ def test_a_search_cut_along_the_lines_establishes_no_extreme(monkeypatch, tmp_pa
     result = extremes(load_aircraft(write_file(tmp_path, KINK)))
     assert any(n.startswith("search bound:") for n in result.forward.notes)
     assert not result.forward.complete and not result.ok
+
+
+def _small_side_by_side(draw):
+    """A small invented side-by-side (lb, in, US gal): two seats with controls 12 in left and right, a
+    locker left and a locker right, a tank in each wing; a lateral envelope whose left and right limits
+    each bend once, at any weight, toward or away from the centre line."""
+    from hypothesis import strategies as st
+
+    bends = draw(st.floats(900.0, 1900.0)), draw(st.floats(900.0, 1900.0))
+    near, far = draw(st.floats(1.5, 3.0)), draw(st.floats(1.5, 3.0))
+    left = [-near + draw(st.floats(-0.5, 0.5)) * k for k in (0, 1, 2)]
+    right = [far + draw(st.floats(-0.5, 0.5)) * k for k in (0, 1, 2)]
+    seat = {"arm": 38.0, "kind": "seat", "max_weight": 250.0, "controls": True}
+    aircraft = simple_aircraft(
+        empty={"weight": 1000.0, "arm": 40.0, "lateral_arm": draw(st.floats(-0.5, 0.5))},
+        limits={"max_takeoff_weight": draw(st.sampled_from([2300.0, 1400.0]))},
+        meto_power_hp=draw(st.sampled_from([60, 120])),
+        station=[
+            {"id": "lseat", "lateral_arm": -12.0, **seat},
+            {"id": "rseat", "lateral_arm": 12.0, **seat},
+            {
+                "id": "llock",
+                "arm": 60.0,
+                "lateral_arm": -draw(st.floats(5.0, 40.0)),
+                "kind": "baggage",
+                "max_weight": 50.0,
+            },
+            {
+                "id": "rlock",
+                "arm": 60.0,
+                "lateral_arm": draw(st.floats(5.0, 40.0)),
+                "kind": "baggage",
+                "max_weight": 40.0,
+            },
+        ],
+        tank=[
+            {"id": "ltank", "arm": 44.0, "lateral_arm": -draw(st.floats(20.0, 80.0)), "usable": 20.0, "fuel": "avgas"},
+            {"id": "rtank", "arm": 44.0, "lateral_arm": draw(st.floats(20.0, 80.0)), "usable": 20.0, "fuel": "avgas"},
+        ],
+        envelope=[
+            {"category": "normal", "axes": ["arm", "weight"], "points": [[20, 800], [20, 2300], [60, 2300], [60, 800]]},
+            {
+                "category": "normal",
+                "axes": ["lateral_arm", "weight"],
+                "points": [[left[0], 800], [left[1], bends[0]], [left[2], 2300]]
+                + [[right[2], 2300], [right[1], bends[1]], [right[0], 800]],
+            },
+        ],
+    )
+    return aircraft, ([800.0, bends[0], 2300.0], left), ([800.0, bends[1], 2300.0], right)
+
+
+@settings(max_examples=examples(10), deadline=None)
+@given(_st.data())
+def test_property_no_permitted_grid_loading_is_farther_left_or_right_than_the_lateral_extremes(data):
+    # the lateral extremes (FAA-H-8083-1B chapter 8, lateral balance: common practice): a fine brute-force grid
+    # of permitted loadings (the pilot in either seat or both, 170 lb, lockers in 2 lb steps, each tank in
+    # 2 US gal steps, at least the minimum fuel for balance, AC 43.13-1B 10-2 p; avgas 6.0 lb/US gal, common
+    # practice) never comes closer to a lateral limit than the extreme found. Lateral CG = lateral moment /
+    # weight; each limit at the weight by straight lines between the corners drawn (an oracle apart from
+    # loadcheck's envelope code)
+    import numpy as np
+
+    aircraft, left_limit, right_limit = _small_side_by_side(data.draw)
+    result = extremes(aircraft)
+    st, tank = aircraft.station_by_id, aircraft.tank_by_id
+    seats = [(170.0, 0.0), (0.0, 170.0), (170.0, 170.0)]
+    grid = np.meshgrid(
+        np.arange(3), np.arange(0, 50.1, 2.0), np.arange(0, 40.1, 2.0), np.arange(0, 20.1, 2.0), np.arange(0, 20.1, 2.0)
+    )
+    k, a, b, one, two = (g.ravel() for g in grid)
+    ls, rs = np.array([s[0] for s in seats])[k], np.array([s[1] for s in seats])[k]
+    weight = 1000.0 + ls + rs + a + b + 6.0 * (one + two)
+    lateral = (
+        1000.0 * aircraft.empty.lateral_arm
+        + 12.0 * (rs - ls)
+        + a * st["llock"].lateral_arm
+        + b * st["rlock"].lateral_arm
+        + 6.0 * (one * tank["ltank"].lateral_arm + two * tank["rtank"].lateral_arm)
+    )
+    keep = (weight <= aircraft.limits.max_takeoff_weight) & (
+        one + two >= minimum_fuel(aircraft, aircraft.meto_power_hp) - 1e-9
+    )
+    at = lateral[keep] / weight[keep]
+    least_left = float((at - np.interp(weight[keep], *left_limit)).min())
+    least_right = float((np.interp(weight[keep], *right_limit) - at).min())
+    assert result.left is not None and result.right is not None
+    assert result.left.check.condition("ramp").margins.left <= least_left + 1e-6
+    assert result.right.check.condition("ramp").margins.right <= least_right + 1e-6
+    assert result.left.complete and result.right.complete
