@@ -282,8 +282,9 @@ def _group_limits(aircraft: Aircraft) -> list[tuple[tuple[int, ...], float]]:
 def _fill_loads(
     aircraft: Aircraft, loads: list[list[float]], shared: Sequence[tuple[tuple[int, ...], float]], rounds: int
 ) -> tuple[list[list[float]], bool]:
-    """Add to each baggage, cargo or other station what a shared limit leaves after the other
-    stations' loads ("fill the rest"), ``rounds`` times over (a fill may make room for another).
+    """Add to each baggage, cargo or other station what a station group's maximum (``shared``: its
+    stations and maximum) leaves after the other stations' loads ("fill the rest"), ``rounds``
+    times over (a fill may make room for another).
 
     Returns the loads and whether :data:`_FILL_COMBOS` left some fills out.
     """
@@ -592,6 +593,22 @@ def _line_low(line: _Line, state: _State, min_fuel: float | None) -> np.ndarray:
     return np.maximum(line.low, min_fuel - others)
 
 
+def _row_ids(rows: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """Equal rows get equal ids (exact comparison; a sort of the columns, as np.unique(axis=0)
+    does, but without its slow row view): the id of each row, and one row index of each id."""
+    if not len(rows):
+        return np.zeros(0, dtype=np.int64), np.zeros(0, dtype=np.int64)
+    if not rows.shape[1]:
+        return np.zeros(len(rows), dtype=np.int64), np.zeros(1, dtype=np.int64)
+    order = np.lexsort(rows.T[::-1])
+    ordered = rows[order]
+    new = np.ones(len(rows), dtype=bool)
+    new[1:] = (ordered[1:] != ordered[:-1]).any(axis=1)
+    ids = np.empty(len(rows), dtype=np.int64)
+    ids[order] = np.cumsum(new) - 1
+    return ids, order[new]
+
+
 def _line_loads(
     aircraft: Aircraft,
     category: str,
@@ -613,8 +630,9 @@ def _line_loads(
         return weight, weight * found[f"arm.{condition}"][kept], weight * found[f"lateral.{condition}"][kept]
 
     state = _State(*of("ramp"), *of("zero_fuel"), stations, fuels)
-    picked_stations: list[np.ndarray] = []
-    picked_fuels: list[np.ndarray] = []
+    width = stations.shape[1]
+    base = np.round(np.concatenate([stations, fuels], axis=1), 9)
+    picks: list[tuple[int, np.ndarray, np.ndarray]] = []  # column, base row, new value
     for line in _lines(aircraft):
         loads, _ = _targets(aircraft, category, line, state)
         if not loads.shape[1]:
@@ -627,18 +645,25 @@ def _line_loads(
         if not len(row):
             continue
         values = np.clip(loads[row, col], low[row, 0], line.high)
-        new_stations, new_fuels = stations[row].copy(), fuels[row].copy()
-        (new_fuels if line.tank else new_stations)[:, line.column] = values
-        picked_stations.append(new_stations)
-        picked_fuels.append(new_fuels)
-    width = stations.shape[1]
-    if not picked_stations:
+        column = width + line.column if line.tank else line.column
+        # base loadings that differ only in this quantity give the same candidate: keep one of each
+        rest, _ = _row_ids(np.delete(base, column, axis=1))
+        _, first = _row_ids(np.stack([rest[row].astype(float), np.round(values, 9)], axis=1))
+        picks.append((column, row[first], values[first]))
+    total = sum(len(r) for _, r, _ in picks)
+    if not total:
         return np.zeros((0, width)), np.zeros((0, fuels.shape[1])), False
-    both = np.concatenate([np.concatenate(picked_stations), np.concatenate(picked_fuels)], axis=1)
-    both = np.unique(np.round(both, 9), axis=0)
-    cut = len(both) > LINE_BOUND
-    if cut:  # spread evenly over all of them
-        both = both[np.unique(np.linspace(0, len(both) - 1, LINE_BOUND).round().astype(np.int64))]
+    cut = total > LINE_BOUND
+    keep = np.unique(np.linspace(0, total - 1, min(total, LINE_BOUND)).round().astype(np.int64))  # spread evenly
+    chosen, start = [], 0
+    for column, row, values in picks:
+        mine = keep[(keep >= start) & (keep < start + len(row))] - start
+        start += len(row)
+        rows = base[row[mine]].copy()
+        rows[:, column] = values[mine]
+        chosen.append(rows)
+    both = np.round(np.concatenate(chosen), 9)
+    both = both[np.sort(_row_ids(both)[1])]
     return both[:, :width], both[:, width:], cut
 
 
