@@ -10,27 +10,44 @@ seats and baggage or a lateral limit defeats it. So each case here is found by a
 
 - every station takes each of a few loads: its minimum, its maximum, and for a seat every
   whole number of standard occupants that fits (``seats = N``); the pilot's seat with
-  flight controls (``controls = true``, else the first seat) always holds at least one
-  occupant (at the standard weight, or the seat's maximum where that is less);
-- where a station group (or the maximum zero-fuel or takeoff weight) limits several
-  stations together, a baggage, cargo or other station also takes what the group leaves
-  after every load of the others ("fill the rest");
+  flight controls (``controls = true``, else the first seat) always holds the pilot: one
+  standard occupant (or the seat's maximum where that is less), and also the seat's
+  ``min_weight`` where that is below the standard occupant (a lighter pilot the seat permits);
+- where a station group limits several stations together, a baggage, cargo or other
+  station also takes what the group leaves after every load of the others ("fill the rest";
+  what a weight limit leaves is a load of the lines below, worked out for each loading's own
+  fuel state);
 - fuel: every choice of tanks filled full, and the minimum fuel for balance (1/12 US
   gallon per maximum-except-takeoff horsepower, AC 43.13-1B 10-2 p) less what those hold
   put tank by tank in every order of the other tanks;
-- every combination is evaluated by the engine (:func:`~loadcheck.engine.evaluate`, in
-  chunks); a combination is permitted where it keeps every station, group and weight limit;
+- lines: from every one of those loadings the limits permit, each baggage, cargo or other
+  station (and each tank) is moved alone, the rest held, to each load where the least margin
+  can lie between its ends (:func:`_targets`): the load that brings the loading to a corner
+  weight of any envelope of the category (at every fuel state; at zero fuel too where the
+  zero-fuel CG is a limit), to a weight limit, or to what its station group leaves, and the
+  load at which the margin to a sloping edge is least, in closed form;
+- every candidate is evaluated by the engine (:func:`~loadcheck.engine.evaluate`, in
+  chunks); a candidate is permitted where it keeps every station, group and weight limit;
   the permitted ones are checked (:func:`~loadcheck.check.check_many`, after keeping, for
   each weight, those farthest toward the side) and the one with the least margin to that
   side's limit at its own weight is the extreme (a negative margin: out of limits); of
   equal margins, one out of another limit is taken (fail closed).
 
-The least margin lies at such a corner of the loads where the margin, along any line of
-loadings, is monotone or concave: a CG limit fixed or moving away from the CG as weight
-grows (a forward limit that moves aft with weight, bending aft). A limit that moves toward
-the CG with weight can have its least margin at a partial load the search does not try.
-At most :data:`SEARCH_BOUND` combinations are searched; where that bound cuts the search,
-it takes combinations spread evenly over all of them and the case's notes say so.
+Why those loads: along one quantity m (the rest held) the loading's CG is
+CG(m) = (M0 + a m) / (W0 + m) (FAA-H-8083-1B chapter 2). The limit at a weight is one edge of
+the envelope between two corner weights, so the margin is smooth between the loads that bring
+the weight to a corner's weight (or cut the range at a weight limit); on an edge linear in the
+weight u = W0 + m (an arm, % MAC or lateral arm axis) it is a + c / u - p - q u, least or most
+where u^2 = -c / q, and on a moment axis it is monotone. A least margin along a line therefore
+lies at a range end, at a corner weight or weight limit, or at that point; and where the limits
+permit a region of loadings, its least margin lies on such a line from a loading of the base
+(the loads of two stations traded at one weight move the CG linearly). Seats hold whole
+occupants (AC 43.13-1B 10-17), so a seat is not varied along a line; a tank whose arm moves with
+its quantity is tried at its table's quantities, not at a closed-form point. An envelope whose
+slice at one weight holds more than one stretch of CG is outside this argument.
+At most :data:`SEARCH_BOUND` combinations, and :data:`LINE_BOUND` loadings along the lines,
+are searched; where a bound cuts the search, it takes candidates spread evenly over all of
+them, the case's notes say so, and the case establishes no extreme (``complete`` False).
 
 Each extreme is a placard-type answer: it is checked in full
 (:func:`~loadcheck.check.check_loading`) as a flight that burns from the fuel it states
@@ -52,13 +69,15 @@ from .aircraft import Aircraft, Station
 from .caution import MECHANIC_CAUTION
 from .check import check_loading, check_many
 from .display import fmt
-from .engine import evaluate
+from .engine import evaluate, ramp_allowance, weight_limits
+from .envelope import AXES
 from .errors import InputError, Problem, UnitError
 from .loading import BurnPlan, ResolvedLoading
 from .results import CheckResult, ConditionName, Result
 from .units import convert, parse_quantity
 
 __all__ = [
+    "LINE_BOUND",
     "SEARCH_BOUND",
     "STANDARD_OCCUPANT_LB",
     "ExtremeCase",
@@ -213,17 +232,24 @@ def _pilot_seats(aircraft: Aircraft) -> list[Station]:
     return pilots
 
 
-def _pilot_weight(station: Station, occupant: float) -> float:
-    """The least a seat holds with the pilot aboard [mass unit]: one standard occupant, or the
-    seat's maximum where that is less."""
+def _occupant_weight(station: Station, occupant: float) -> float:
+    """One standard occupant in a seat, or the seat's maximum where that is less [mass unit]."""
     return occupant if station.max_weight is None else min(occupant, station.max_weight)
 
 
-def _station_loads(
-    aircraft: Aircraft, occupant: float, pilots: Sequence[Station], parts: bool = True
-) -> list[list[float]]:
-    """The loads each station takes in the search: minimum, maximum, whole occupants, and (with
-    ``parts``) each quarter of a baggage, cargo or other station's maximum [mass unit]."""
+def _pilot_weight(station: Station, occupant: float) -> float:
+    """The least a seat holds with the pilot aboard [mass unit]: the seat's minimum weight where
+    that is above zero and below one standard occupant (a lighter pilot the seat permits), else one
+    standard occupant, or the seat's maximum where that is less."""
+    least = station.min_weight or 0.0
+    heavy = _occupant_weight(station, occupant)
+    return least if 0.0 < least < heavy else heavy
+
+
+def _station_loads(aircraft: Aircraft, occupant: float, pilots: Sequence[Station]) -> list[list[float]]:
+    """The loads each station takes in the base of the search: its minimum, its maximum, and for a
+    seat every whole number of occupants that fits (the pilot's seat: also the pilot at the seat's
+    maximum where one occupant is above it) [mass unit]. Part loads come from :func:`_line_loads`."""
     loads = []
     for station in aircraft.station:
         least = station.min_weight or 0.0
@@ -238,52 +264,27 @@ def _station_loads(
                     break
                 found.add(weight)
         elif most is not None:
-            # the maximum, and its quarters: where a limit moves toward the load as weight grows, the
-            # least margin can lie at a part load (a grid, not a proof: see the search's docstring)
-            found |= {
-                least + (most - least) * k / _PART_LOADS for k in range(1, _PART_LOADS + 1) if parts or k == _PART_LOADS
-            }
+            found.add(most)
         loads.append(sorted(found))
     return loads
 
 
-_PART_LOADS = 4
-"""A baggage, cargo or other station with a maximum is tried at its minimum and at each quarter of
-the way to its maximum."""
-
-
-def _shared_limits(
-    aircraft: Aircraft, fuel_states: Sequence[tuple[float, ...]]
-) -> tuple[list[tuple[tuple[int, ...], float]], list[tuple[tuple[int, ...], float]]]:
-    """Limits shared by several stations [mass unit]: each station group's maximum; and the
-    weight left for all the stations under the maximum zero-fuel weight and, for each fuel state
-    searched (a full tank on the worse side leaves less for the payload than the minimum fuel),
-    under the maximum takeoff weight."""
+def _group_limits(aircraft: Aircraft) -> list[tuple[tuple[int, ...], float]]:
+    """Each station group's maximum, with the indices of its stations [mass unit]. (What a weight
+    limit leaves is tried along the lines from every permitted loading, for its own fuel state:
+    :func:`_targets`.)"""
     index = {s.id: i for i, s in enumerate(aircraft.station)}
-    groups = [
+    return [
         (tuple(index[m] for m in g.stations), g.max_weight) for g in aircraft.station_group if g.max_weight is not None
     ]
-    every = tuple(range(len(aircraft.station)))
-    empty = aircraft.empty.weight
-    weights = []
-    if aircraft.limits.max_zero_fuel_weight is not None:
-        weights.append((every, aircraft.limits.max_zero_fuel_weight - empty))
-    masses = sorted(
-        {
-            round(sum(aircraft.density(t) * q for t, q in zip(aircraft.tank, state, strict=True)), 9)
-            for state in fuel_states
-        }
-        or {0.0}
-    )
-    weights += [(every, aircraft.limits.max_takeoff_weight - empty - mass) for mass in masses]
-    return groups, weights
 
 
 def _fill_loads(
     aircraft: Aircraft, loads: list[list[float]], shared: Sequence[tuple[tuple[int, ...], float]], rounds: int
 ) -> tuple[list[list[float]], bool]:
-    """Add to each baggage, cargo or other station what a shared limit leaves after the other
-    stations' loads ("fill the rest"), ``rounds`` times over (a fill may make room for another).
+    """Add to each baggage, cargo or other station what a station group's maximum (``shared``: its
+    stations and maximum) leaves after the other stations' loads ("fill the rest"), ``rounds``
+    times over (a fill may make room for another).
 
     Returns the loads and whether :data:`_FILL_COMBOS` left some fills out.
     """
@@ -370,35 +371,322 @@ class _Search:
     enumerated: int
 
 
+def _evaluate(aircraft: Aircraft, category: str, stations: np.ndarray, fuels: np.ndarray) -> dict[str, np.ndarray]:
+    """The engine's verdict on candidate loadings (no taxi, no trip), in chunks: which keep every
+    station, group and weight limit, and their ramp and zero-fuel weight, arm and lateral arm."""
+    n = len(stations)
+    density = np.array([aircraft.density(t) for t in aircraft.tank], dtype=float)
+    out = {"permitted": np.zeros(n, dtype=bool)}
+    for c in ("ramp", "zero_fuel"):
+        out |= {f"weight.{c}": np.zeros(n), f"arm.{c}": np.zeros(n), f"lateral.{c}": np.zeros(n)}
+    for start in range(0, n, _CHUNK):
+        part = slice(start, min(n, start + _CHUNK))
+        size = part.stop - part.start
+        found = evaluate(
+            aircraft, stations[part], fuels[part], np.zeros(size), np.zeros(size), category=category, density=density
+        )
+        kept = found.valid.copy()
+        for holds in found.limit_ok.values():
+            kept &= holds
+        out["permitted"][part] = kept
+        for c in ("ramp", "zero_fuel"):
+            out[f"weight.{c}"][part] = found.weight[c]
+            out[f"arm.{c}"][part] = found.arm[c]
+            out[f"lateral.{c}"][part] = found.lateral_arm[c]
+    return out
+
+
+LINE_BOUND = 400_000
+"""At most this many candidate loadings along the lines (one station's load or one tank's fuel
+varied alone, the rest held) are searched [count]."""
+
+
+@dataclass(frozen=True)
+class _Line:
+    """A quantity the search varies alone, every other load held: a station's load or a tank's fuel.
+
+    ``per_unit`` is 1 for a station, the fuel density for a tank [mass unit per unit of the
+    quantity]; ``arm`` is None for a tank whose arm moves with its quantity [arm unit]; ``low`` and
+    ``high`` are its range [mass unit or fuel volume unit] (a tank's foot is raised per loading to
+    keep the minimum fuel for balance).
+    """
+
+    column: int
+    tank: bool
+    name: str
+    per_unit: float
+    arm: float | None
+    lateral: float
+    low: float
+    high: float
+
+
+def _lines(aircraft: Aircraft) -> list[_Line]:
+    """Every station with a range of loads that is not a seat (a seat holds whole occupants), and every tank."""
+    lines = []
+    for k, s in enumerate(aircraft.station):
+        least = s.min_weight or 0.0
+        most = math.inf if s.max_weight is None else s.max_weight
+        if s.kind != "seat" and most > least:
+            lines.append(_Line(k, False, s.name, 1.0, s.arm, _lateral(s.lateral_arm), least, most))
+    for k, t in enumerate(aircraft.tank):
+        arm = None if t.arm_table else float(t.arm_at(t.usable))
+        lines.append(_Line(k, True, t.name, aircraft.density(t), arm, _lateral(t.lateral_arm), 0.0, t.usable))
+    return lines
+
+
+@dataclass(frozen=True)
+class _State:
+    """Rows of loadings at one fuel state: weight, moment and lateral moment with the fuel, and
+    without it (zero fuel), and each row's station loads and fuel [mass unit, mass unit x arm unit]."""
+
+    weight: np.ndarray
+    moment: np.ndarray
+    lateral: np.ndarray
+    zero_weight: np.ndarray
+    zero_moment: np.ndarray
+    zero_lateral: np.ndarray
+    stations: np.ndarray
+    fuel: np.ndarray
+
+
+def _targets(aircraft: Aircraft, category: str, line: _Line, state: _State) -> tuple[np.ndarray, list[str]]:
+    """The loads of one line where, the rest held, the least margin to a CG limit can lie [line's unit].
+
+    Along one quantity x (others held) the loading is W = W0 + m, M = M0 + a m (m = x times the
+    mass per unit; a the arm), so its CG is CG(m) = (M0 + a m) / (W0 + m) (FAA-H-8083-1B chapter 2:
+    CG = total moment / total weight). The limit at the loading's weight is one edge of the envelope
+    between two of its corners' weights; so the margin is smooth between the loads that bring the
+    weight to a corner's weight (of every envelope of the category) or to a weight limit, and it
+    lies at a range end, at such a load, or where its slope is zero on an edge. On an edge of an
+    envelope whose CG axis is an arm (or % MAC, or a lateral arm) against weight, the limit is linear
+    in the weight u = W0 + m: X(u) = p + q u, and the margin CG(u) - X(u) = a + c / u - p - q u with
+    c = M0 - a W0; its slope -c / u^2 - q is zero at u^2 = -c / q (where -c / q > 0). On a moment
+    axis the limit is X(u) = p + r / u and the margin (a - p) + (c - r) / u has no such point. An
+    envelope on arm and lateral arm changes edge where the held coordinate reaches a corner's.
+
+    Returns
+    -------
+    loads : (N, K) the load of each row at each target, NaN where the row has none [line's unit]
+    what : K words, what each target is
+    """
+    units = aircraft.units
+    mass = units.mass
+    m_now = (state.fuel if line.tank else state.stations)[:, line.column] * line.per_unit
+    w0, m0, l0 = state.weight - m_now, state.moment - m_now * (line.arm or 0.0), state.lateral - m_now * line.lateral
+    z0 = state.zero_weight - m_now
+    zm0, zl0 = state.zero_moment - m_now * (line.arm or 0.0), state.zero_lateral - m_now * line.lateral
+    zero_limit = aircraft.limits.zero_fuel_cg == "limit" and not line.tank
+    columns: list[np.ndarray] = []
+    what: list[str] = []
+
+    def add(mass_added: np.ndarray, words: str) -> None:
+        columns.append(np.asarray(mass_added, dtype=float) / line.per_unit)
+        what.append(words)
+
+    if line.tank:
+        for knot in aircraft.tank[line.column].arm_knots():
+            add(np.full(len(w0), knot * line.per_unit), "a quantity of its arm table")
+    else:
+        station = aircraft.station[line.column]
+        index = {s.id: i for i, s in enumerate(aircraft.station)}
+        for group in aircraft.station_group:
+            if station.id not in group.stations:
+                continue
+            others = sum((state.stations[:, index[m]] for m in group.stations if m != station.id), np.zeros(len(w0)))
+            for bound, side in ((group.max_weight, "maximum"), (group.min_weight, "minimum")):
+                if bound is not None:
+                    add(bound - others, f"what the {side} of its station group ({group.label}) leaves")
+    limits = aircraft.limits
+    table = weight_limits(aircraft)
+    named = {
+        "max_ramp_weight": "maximum ramp weight",
+        "max_takeoff_weight": "maximum takeoff weight",
+        "max_landing_weight": "maximum landing weight",
+        "max_zero_fuel_weight": "maximum zero-fuel weight",
+    }
+    seen: set[float] = set()
+    for condition in ("ramp", "takeoff", "landing"):
+        for code, value in table[condition]:
+            if value not in seen:
+                seen.add(value)
+                add(value - w0, f"as much as the {named[code]} ({fmt(value, mass)}) allows")
+    if limits.min_flight_weight is not None:
+        add(
+            limits.min_flight_weight - w0,
+            f"the load that brings the loading to the minimum flight weight ({fmt(limits.min_flight_weight, mass)})",
+        )
+    if not line.tank:
+        for code, value in table["zero_fuel"]:
+            add(value - z0, f"as much as the {named[code]} ({fmt(value, mass)}) allows")
+    allowance = ramp_allowance(aircraft)
+    shapes = [e.shape for e in aircraft.envelopes_for(category)]
+    corners = sorted({float(c[s.axes.index("weight")]) for s in shapes if "weight" in s.axes for c in s.corners})
+    for corner in corners:
+        add(corner - w0, f"the load that brings the loading to the envelope's corner weight ({fmt(corner, mass)})")
+        if zero_limit:
+            add(
+                corner - z0,
+                f"the load that brings the zero-fuel weight to the envelope's corner weight ({fmt(corner, mass)})",
+            )
+    for shape in shapes:
+        top = shape.max_weight
+        if top is not None and allowance > 0:
+            add(
+                top + allowance - w0,
+                f"the load that brings the loading to the envelope's top and the ramp allowance "
+                f"({fmt(top + allowance, mass)})",
+            )
+    if line.arm is not None:
+        for shape in shapes:
+            if "weight" not in shape.axes:
+                for x_c, y_c in shape.corners:
+                    # arm and lateral arm: where the held coordinate (CG or lateral CG) reaches a corner's
+                    arm_c, lat_c = (x_c, y_c) if shape.axes[0] == "arm" else (y_c, x_c)
+                    with np.errstate(divide="ignore", invalid="ignore"):
+                        add(
+                            (lat_c * w0 - l0) / (line.lateral - lat_c),
+                            "the load that brings the lateral CG to a corner of the envelope",
+                        )
+                        add(
+                            (arm_c * w0 - m0) / (line.arm - arm_c),
+                            "the load that brings the CG to a corner of the envelope",
+                        )
+                continue
+            k_w = shape.axes.index("weight")
+            axis = AXES[shape.axes[1 - k_w]]
+            if not axis.per_weight:  # a moment axis: the margin is monotone between corner weights
+                continue
+            _, b, c = axis.coefficients(shape.moment_scale, shape.mac)
+            scale = c if axis.lateral else b
+            ring = shape.corners
+            for (v1, u1), (v2, u2) in zip(
+                ring[:, [1 - k_w, k_w]], np.roll(ring, -1, axis=0)[:, [1 - k_w, k_w]], strict=True
+            ):
+                if u1 == u2 or v1 == v2:
+                    continue
+                q = (v2 - v1) / (u2 - u1) / scale  # the limit's slope [arm unit per mass unit]
+                low_u, high_u = min(u1, u2), max(u1, u2)
+                words = (
+                    f"the load of least margin to the sloping {'lateral ' if axis.lateral else ''}limit "
+                    f"between {fmt(low_u, mass)} and {fmt(high_u, mass)}"
+                )
+                rows = [(w0, (l0 - line.lateral * w0) if axis.lateral else (m0 - line.arm * w0))]
+                if zero_limit:
+                    rows.append((z0, (zl0 - line.lateral * z0) if axis.lateral else (zm0 - line.arm * z0)))
+                for base, offset in rows:
+                    square = -offset / q
+                    with np.errstate(invalid="ignore"):
+                        u = np.where(square > 0, np.sqrt(np.maximum(square, 0.0)), np.nan)
+                    u = np.where((u >= low_u) & (u <= high_u), u, np.nan)
+                    add(u - base, words)
+    if not columns:
+        return np.zeros((len(w0), 0)), []
+    return np.stack(columns, axis=1), what
+
+
+def _line_low(line: _Line, state: _State, min_fuel: float | None) -> np.ndarray:
+    """Each row's least quantity of the line: a tank keeps the minimum fuel for balance with the others [unit]."""
+    if not line.tank or min_fuel is None:
+        return np.full(len(state.weight), line.low)
+    others = state.fuel.sum(axis=1) - state.fuel[:, line.column]
+    return np.maximum(line.low, min_fuel - others)
+
+
+def _row_ids(rows: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """Equal rows get equal ids (exact comparison; a sort of the columns, as np.unique(axis=0)
+    does, but without its slow row view): the id of each row, and one row index of each id."""
+    if not len(rows):
+        return np.zeros(0, dtype=np.int64), np.zeros(0, dtype=np.int64)
+    if not rows.shape[1]:
+        return np.zeros(len(rows), dtype=np.int64), np.zeros(1, dtype=np.int64)
+    order = np.lexsort(rows.T[::-1])
+    ordered = rows[order]
+    new = np.ones(len(rows), dtype=bool)
+    new[1:] = (ordered[1:] != ordered[:-1]).any(axis=1)
+    ids = np.empty(len(rows), dtype=np.int64)
+    ids[order] = np.cumsum(new) - 1
+    return ids, order[new]
+
+
+def _line_loads(
+    aircraft: Aircraft,
+    category: str,
+    stations: np.ndarray,
+    fuels: np.ndarray,
+    found: dict[str, np.ndarray],
+    kept: np.ndarray,
+    min_fuel: float | None,
+) -> tuple[np.ndarray, np.ndarray, bool]:
+    """Candidate loadings along each line from the permitted base loadings: one quantity moved to each
+    of its :func:`_targets` within its range, the rest held.
+
+    Returns the stations (M, S) and fuel (M, T) of the new candidates and whether :data:`LINE_BOUND`
+    cut them.
+    """
+
+    def of(condition: str) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+        weight = found[f"weight.{condition}"][kept]
+        return weight, weight * found[f"arm.{condition}"][kept], weight * found[f"lateral.{condition}"][kept]
+
+    state = _State(*of("ramp"), *of("zero_fuel"), stations, fuels)
+    width = stations.shape[1]
+    base = np.round(np.concatenate([stations, fuels], axis=1), 9)
+    picks: list[tuple[int, np.ndarray, np.ndarray]] = []  # column, base row, new value
+    for line in _lines(aircraft):
+        loads, _ = _targets(aircraft, category, line, state)
+        if not loads.shape[1]:
+            continue
+        low = _line_low(line, state, min_fuel)[:, None]
+        noise = 1e-9 * max(1.0, line.high if math.isfinite(line.high) else 1.0)
+        with np.errstate(invalid="ignore"):
+            inside = np.isfinite(loads) & (loads >= low - noise) & (loads <= line.high + noise)
+        row, col = np.nonzero(inside)
+        if not len(row):
+            continue
+        values = np.clip(loads[row, col], low[row, 0], line.high)
+        column = width + line.column if line.tank else line.column
+        # base loadings that differ only in this quantity give the same candidate: keep one of each
+        rest, _ = _row_ids(np.delete(base, column, axis=1))
+        _, first = _row_ids(np.stack([rest[row].astype(float), np.round(values, 9)], axis=1))
+        picks.append((column, row[first], values[first]))
+    total = sum(len(r) for _, r, _ in picks)
+    if not total:
+        return np.zeros((0, width)), np.zeros((0, fuels.shape[1])), False
+    cut = total > LINE_BOUND
+    keep = np.unique(np.linspace(0, total - 1, min(total, LINE_BOUND)).round().astype(np.int64))  # spread evenly
+    chosen, start = [], 0
+    for column, row, values in picks:
+        mine = keep[(keep >= start) & (keep < start + len(row))] - start
+        start += len(row)
+        rows = base[row[mine]].copy()
+        rows[:, column] = values[mine]
+        chosen.append(rows)
+    both = np.round(np.concatenate(chosen), 9)
+    both = both[np.sort(_row_ids(both)[1])]
+    return both[:, :width], both[:, width:], cut
+
+
 def _search(aircraft: Aircraft, category: str, occupant: float, min_fuel: float | None) -> _Search:
-    """Enumerate the candidate loadings (at most :data:`SEARCH_BOUND`) and evaluate them with the engine."""
+    """Enumerate the candidate loadings (at most :data:`SEARCH_BOUND` in the base, :data:`LINE_BOUND`
+    along the lines) and evaluate them with the engine."""
     pilots = _pilot_seats(aircraft)
     fuel_states, orders_cut = _fuel_loads(aircraft, min_fuel)
-    groups, weights = _shared_limits(aircraft, fuel_states)
+    groups = _group_limits(aircraft)
     room = max(1, SEARCH_BOUND // len(fuel_states))
     notes: list[str] = []
-    for parts in (True, False):  # the part loads first; without them where the search would be too large
-        base = _station_loads(aircraft, occupant, pilots, parts)
-        if len(pilots) == 1:  # the pilot is always aboard: the one pilot's seat takes no load without the pilot
-            k = aircraft.station.index(pilots[0])
-            base[k] = [w for w in base[k] if w >= _pilot_weight(pilots[0], occupant) * (1 - 1e-12)]
-        grouped, groups_cut = _fill_loads(aircraft, base, groups, 2)
-        filled, weights_cut = _fill_loads(aircraft, grouped, weights, 1)
-        if math.prod(len(v) for v in filled) <= room:
-            break
-    if not parts:
-        notes.append("search bound: the part loads of baggage, cargo and other stations were left out")
+    base = _station_loads(aircraft, occupant, pilots)
+    if len(pilots) == 1:  # the pilot is always aboard: the one pilot's seat takes no load without the pilot
+        k = aircraft.station.index(pilots[0])
+        base[k] = [w for w in base[k] if w >= _pilot_weight(pilots[0], occupant) * (1 - 1e-12)]
+    grouped, groups_cut = _fill_loads(aircraft, base, groups, 2)
     if orders_cut:
         notes.append(f"search bound: the minimum fuel was put in the first {_ORDERS:,} orders of the tanks only")
-    loads = filled
-    if math.prod(len(v) for v in filled) > room:
-        loads, weights_cut = grouped, True
+    loads = grouped
     if math.prod(len(v) for v in loads) > room:
         loads, groups_cut = base, groups_cut or base != grouped
     if groups_cut:
         notes.append("search bound: some loads that fill a station group to its maximum were left out")
-    if weights_cut:
-        notes.append("search bound: some loads that fill the stations up to a weight limit were left out")
     total = math.prod(len(v) for v in loads)
     if total > room:
         notes.append(
@@ -422,27 +710,33 @@ def _search(aircraft: Aircraft, category: str, occupant: float, min_fuel: float 
     fuel = np.array(fuel_states, dtype=float).reshape(len(fuel_states), len(aircraft.tank))
     stations = np.repeat(rows, len(fuel), axis=0)
     fuels = np.tile(fuel, (len(rows), 1))
-    n = len(stations)
-    density = np.array([aircraft.density(t) for t in aircraft.tank], dtype=float)
-    permitted = np.zeros(n, dtype=bool)
-    weight = {c: np.zeros(n) for c in ("ramp", "zero_fuel")}
-    arm = {c: np.zeros(n) for c in ("ramp", "zero_fuel")}
-    lateral = {c: np.zeros(n) for c in ("ramp", "zero_fuel")}
-    for start in range(0, n, _CHUNK):
-        part = slice(start, min(n, start + _CHUNK))
-        size = part.stop - part.start
-        found = evaluate(
-            aircraft, stations[part], fuels[part], np.zeros(size), np.zeros(size), category=category, density=density
+    found = _evaluate(aircraft, category, stations, fuels)
+    # along each line from a permitted base loading: the loads where the least margin can lie between its ends
+    kept = found["permitted"]
+    more_stations, more_fuels, lines_cut = _line_loads(
+        aircraft, category, stations[kept], fuels[kept], found, kept, min_fuel
+    )
+    if lines_cut:
+        notes.append(
+            f"search bound: {LINE_BOUND:,} of the part loads along one station or tank were searched; the answer may "
+            "not be the extreme"
         )
-        kept = found.valid.copy()
-        for holds in found.limit_ok.values():
-            kept &= holds
-        permitted[part] = kept
-        for c in weight:
-            weight[c][part] = found.weight[c]
-            arm[c][part] = found.arm[c]
-            lateral[c][part] = found.lateral_arm[c]
-    return _Search(stations, fuels, permitted, weight, arm, lateral, notes, n)
+    if len(more_stations):
+        more = _evaluate(aircraft, category, more_stations, more_fuels)
+        stations = np.concatenate([stations, more_stations])
+        fuels = np.concatenate([fuels, more_fuels])
+        found = {key: np.concatenate([found[key], more[key]]) for key in found}
+    n = len(stations)
+    return _Search(
+        stations,
+        fuels,
+        found["permitted"],
+        {c: found[f"weight.{c}"] for c in ("ramp", "zero_fuel")},
+        {c: found[f"arm.{c}"] for c in ("ramp", "zero_fuel")},
+        {c: found[f"lateral.{c}"] for c in ("ramp", "zero_fuel")},
+        notes,
+        n,
+    )
 
 
 def _static(aircraft: Aircraft, category: str, stations: np.ndarray, fuel: np.ndarray) -> ResolvedLoading:
@@ -507,19 +801,51 @@ def _pick(aircraft: Aircraft, category: str, found: _Search, side: Side) -> tupl
     return best[1], best[0], len(short)
 
 
-def _seat_note(name: str, people: int, aboard: int, occupant: float, total: float, mass: str, where: str) -> str:
+def _seat_note(
+    name: str, people: int, aboard: int, occupant: float, total: float, least: float, mass: str, where: str
+) -> str:
     """How a seat station was loaded, in words."""
     others = people - aboard
     plural = "s" if others > 1 else ""
     if aboard and not others:
-        heaviest = "at the station's maximum " if total < occupant - 1e-9 else ""
-        return f"{name}: the pilot {heaviest}({fmt(total, mass)}), {where}"
+        lighter = ""
+        if total < occupant - 1e-9:
+            lighter = "at the seat's minimum weight " if math.isclose(total, least) else "at the station's maximum "
+        return f"{name}: the pilot {lighter}({fmt(total, mass)}), {where}"
     what = f"{others} occupant{plural} at {fmt(occupant, mass)}"
     if aboard:
         what = f"the pilot and {what}"
     if people > 1 or not math.isclose(total, people * occupant):
         what += f" ({fmt(total, mass)})"
     return f"{name}: {what}, {where}"
+
+
+def _load_words(aircraft: Aircraft, category: str, check: CheckResult, loading: ResolvedLoading) -> dict[str, str]:
+    """What each part load of the loading is (a station's load or a tank's fuel strictly inside its
+    range), by the target of :func:`_targets` it equals: ``{station or tank id: words}``."""
+    ramp, zero = check.condition("ramp"), check.condition("zero_fuel")
+    state = _State(
+        np.array([ramp.weight]),
+        np.array([ramp.moment]),
+        np.array([ramp.lateral_moment or 0.0]),
+        np.array([zero.weight]),
+        np.array([zero.moment]),
+        np.array([zero.lateral_moment or 0.0]),
+        np.array([[loading.stations.get(s.id, 0.0) for s in aircraft.station]]),
+        np.array([[loading.fuel.get(t.id, 0.0) for t in aircraft.tank]]),
+    )
+    words = {}
+    for line in _lines(aircraft):
+        item = aircraft.tank[line.column] if line.tank else aircraft.station[line.column]
+        value = float((state.fuel if line.tank else state.stations)[0, line.column])
+        if not line.low + 1e-9 < value < line.high * (1 - 1e-12):
+            continue
+        loads, what = _targets(aircraft, category, line, state)
+        for load, text in zip(loads[0], what, strict=True):
+            if math.isfinite(load) and math.isclose(load, value, rel_tol=1e-6, abs_tol=1e-6):
+                words[item.id] = text
+                break
+    return words
 
 
 def _limit_at_weight(aircraft: Aircraft, category: str, check: CheckResult, side: Side) -> float:
@@ -547,8 +873,10 @@ def _notes(
     fuel: dict[str, float],
     occupant: float,
     min_fuel: float | None,
+    parts: dict[str, str],
 ) -> list[str]:
-    """How the extreme loading is made up, station by station and tank by tank, in words."""
+    """How the extreme loading is made up, station by station and tank by tank, in words; ``parts``
+    says what each part load is (:func:`_load_words`)."""
     units = aircraft.units
     mass = units.mass
     lateral = side in ("left", "right")
@@ -562,6 +890,7 @@ def _notes(
 
     words = _BEYOND[side]
     moving = f"not {words} limit at this weight, but loading it leaves less margin to that limit"
+    least_here = f"not {words} limit at this weight, but this load leaves the least margin to that limit"
     pilots = _pilot_seats(aircraft)
     seated = [p for p in pilots if stations.get(p.id, 0.0) >= _pilot_weight(p, occupant) * (1 - 1e-12)]
     pilot = min(seated, key=lambda s: toward * position(s.arm, s.lateral_arm)) if seated else None
@@ -577,19 +906,30 @@ def _notes(
         least = station.min_weight or 0.0
         where = position(station.arm, station.lateral_arm)
         suffix = f"{words} limit" if beyond(where) else moving
-        if station.kind == "seat" and weight >= _pilot_weight(station, occupant) * (1 - 1e-12):
+        aboard_from = _pilot_weight(station, occupant) if station in pilots else _occupant_weight(station, occupant)
+        if station.kind == "seat" and weight >= aboard_from * (1 - 1e-12):
             aboard = 1 if station is pilot else 0
             people = max(1, round(weight / occupant)) if weight >= occupant * (1 - 1e-12) else 1
             if aboard and people == 1 and not beyond(where):
                 alone = "" if any(s is not station for s in seats_taken) else " alone"
                 seat = f"the {_FARTHEST[side]} seat" if station is extreme_seat else "a seat"
-                notes.append(f"{station.name}: the pilot{alone} ({fmt(weight, mass)}), in {seat} with controls")
+                lighter = (
+                    " at the seat's minimum weight" if weight < occupant - 1e-9 and math.isclose(weight, least) else ""
+                )
+                notes.append(
+                    f"{station.name}: the pilot{alone}{lighter} ({fmt(weight, mass)}), in {seat} with controls"
+                )
             else:
-                notes.append(_seat_note(station.name, people, aboard, occupant, weight, mass, suffix))
+                notes.append(_seat_note(station.name, people, aboard, occupant, weight, least, mass, suffix))
         elif weight > least + 1e-9:
             full = station.max_weight is not None and weight >= station.max_weight * (1 - 1e-12)
-            what = "at its maximum" if full else "as much as its station group or the weight limits allow"
-            notes.append(f"{station.name}: {what} ({fmt(weight, mass)}), {suffix}")
+            if full:
+                notes.append(f"{station.name}: at its maximum ({fmt(weight, mass)}), {suffix}")
+            else:
+                what = parts.get(station.id, "a part load the search tried")
+                notes.append(
+                    f"{station.name}: {fmt(weight, mass)}, {what}, {f'{words} limit' if beyond(where) else least_here}"
+                )
         elif least:
             notes.append(f"{station.name}: at its minimum ({fmt(least, mass)})")
         elif station.max_weight is None and station.kind != "seat" and beyond(where):
@@ -597,12 +937,16 @@ def _notes(
     volume = units.fuel_volume
     total = sum(fuel.values())
     at_minimum = min_fuel is not None and total <= min_fuel + 1e-9
+    partial = [t for t in aircraft.tank if 0.0 < fuel.get(t.id, 0.0) < t.usable * (1 - 1e-12)]
     for tank in aircraft.tank:
         quantity = fuel.get(tank.id, 0.0)
         if quantity >= tank.usable * (1 - 1e-12) and not at_minimum:
             where = position(float(tank.arm_at(tank.usable)), tank.lateral_arm)
             lies = f", the tank lies {words} limit" if beyond(where) else ""
             notes.append(f"{tank.name}: full ({fmt(tank.usable, volume)}){lies}")
+        elif tank in partial and not at_minimum:
+            what = parts.get(tank.id, "a part load the search tried")
+            notes.append(f"{tank.name}: {fmt(quantity, volume)}, {what}")
     if min_fuel is not None and aircraft.tank:
         holding = [
             t for t in aircraft.tank if fuel.get(t.id, 0.0) > 0 and (at_minimum or fuel[t.id] < t.usable * (1 - 1e-12))
@@ -616,10 +960,9 @@ def _notes(
             )
         if at_minimum:
             notes.append(f"minimum fuel for balance, {fmt(min_fuel, volume, 'up')} (METO/12 US gal), in {spread}")
-        elif holding:
+        elif partial:
             notes.append(
-                f"with the full tanks, the rest of the minimum fuel for balance "
-                f"({fmt(min_fuel, volume, 'up')}, METO/12 US gal): {spread}"
+                f"the fuel is more than the minimum fuel for balance ({fmt(min_fuel, volume, 'up')}, METO/12 US gal)"
             )
         else:
             notes.append(
@@ -649,7 +992,9 @@ def _case(
     loading = ResolvedLoading(category, stations, full, density, 0.0, plan.burnable - down_to, None, plan)
     check = replace(check_loading(aircraft, loading), caution=MECHANIC_CAUTION)
     limit = _limit_at_weight(aircraft, category, check, side)
-    notes = _notes(aircraft, side, limit, stations, full, occupant, min_fuel)
+    notes = _notes(
+        aircraft, side, limit, stations, full, occupant, min_fuel, _load_words(aircraft, category, check, loading)
+    )
     permitted = int(found.permitted.sum())
     if permitted:
         notes.append(

@@ -14,6 +14,11 @@ then covers the stated fuel, the whole burn and the zero-fuel state as limits. S
 with a minimum weight (a fixed item such as engine oil listed as a station) carry it in
 every case. The case's verdict is that check's verdict.
 
+A placard's figure reads as a maximum, so each case also gives, for every baggage and cargo
+station, the stretches of its load within limits with the rest of the case as given (the
+planning answer, :func:`loadcheck.planning.most_payload`), and says so in a note where they are
+not one stretch from the station's minimum.
+
 The cases are built without regard to side: where the aircraft has a lateral envelope, each
 case's lateral CG is checked for its own loading only, and each case says so
 (:data:`LATERAL_NOTE`); the loadings farthest left and right are the lateral extremes of
@@ -31,8 +36,9 @@ from .display import fmt
 from .engine import load_room
 from .extremes import seat_order, standard_occupant
 from .loading import BurnPlan, ResolvedLoading
-from .planning import most_fuel, most_payload, safe_value
+from .planning import Interval, most_fuel, most_payload, safe_value
 from .results import CheckResult, Result
+from .words import stretch_text
 
 __all__ = ["LATERAL_NOTE", "ScheduleCase", "ScheduleResult", "loading_schedule"]
 
@@ -58,6 +64,10 @@ class ScheduleCase(Result):
     fuel_states : the fuel states the answer was checked at, in words
     check : the full check of the case, burning all its fuel
     notes : how the case was built
+    load_stretches : for each baggage or cargo station, the stretches (low, high) of its load within
+        limits with the rest of the case as given (:func:`loadcheck.planning.most_payload`) [mass unit]
+    not_one_stretch : the stations among those whose loads within limits are not one stretch from
+        their minimum: a smaller load than the case's is not always within limits (a note says which are)
     """
 
     question: str
@@ -68,6 +78,8 @@ class ScheduleCase(Result):
     fuel_states: str
     check: CheckResult
     notes: list[str] = field(default_factory=list)
+    load_stretches: dict[str, list[tuple[float, float]]] = field(default_factory=dict)
+    not_one_stretch: list[str] = field(default_factory=list)
 
 
 @dataclass(frozen=True, kw_only=True, slots=True)
@@ -162,6 +174,47 @@ def _most_fuel(aircraft: Aircraft, loading: ResolvedLoading) -> ResolvedLoading 
     )
 
 
+def _load_stretches(aircraft: Aircraft, loading: ResolvedLoading) -> dict[str, list[Interval]]:
+    """The stretches of each baggage or cargo station's load within limits, the rest of the case's
+    loading as given: the planning answer's (:func:`loadcheck.planning.most_payload`) [mass unit]."""
+    return {
+        s.id: list(most_payload(aircraft, loading, s.id).intervals)
+        for s in aircraft.station
+        if s.kind in ("baggage", "cargo")
+    }
+
+
+def _one_stretch(aircraft: Aircraft, station_id: str, found: list[Interval]) -> bool:
+    """True where a station's loads within limits are one stretch from its minimum (0 or its ``min_weight``)."""
+    least = aircraft.station_by_id[station_id].min_weight or 0.0
+    return len(found) == 1 and found[0].low <= least + 1e-6 * max(1.0, found[0].high)
+
+
+def _stretch_notes(aircraft: Aircraft, apart: dict[str, list[Interval]]) -> list[str]:
+    """Words for each station whose loads within limits are not one stretch from its minimum: a
+    placard "up to" that load would be read as allowing every smaller load."""
+    mass = aircraft.units.mass
+    notes = []
+    for station_id, found in apart.items():
+        name = aircraft.station_by_id[station_id].name
+        if not found:
+            notes.append(f"{name}: no load is within limits with the rest of this case as given")
+            continue
+        within = " and ".join(stretch_text(i.low, i.high, mass) for i in found)
+        if len(found) == 1:
+            shown = safe_value(found[0].low, found[0].high, mass, "up")[1]
+            notes.append(
+                f"{name}: at least {shown} with the rest of this case as given; a smaller load is NOT within "
+                f"limits (within limits: {within})"
+            )
+        else:
+            notes.append(
+                f"{name}: with the rest of this case as given, only these loads are within limits: {within}; "
+                "a load between them is NOT"
+            )
+    return notes
+
+
 def _case(
     aircraft: Aircraft, question: str, loading: ResolvedLoading, occupants: dict[str, int], notes: list[str]
 ) -> ScheduleCase:
@@ -177,6 +230,9 @@ def _case(
         if start > 0
         else "with no usable fuel"
     )
+    stretches = _load_stretches(aircraft, loading)
+    apart = {k: v for k, v in stretches.items() if not _one_stretch(aircraft, k, v)}
+    notes = [*notes, *_stretch_notes(aircraft, apart)]
     if any(e.is_lateral for e in aircraft.envelopes_for(loading.category)):
         notes = [*notes, LATERAL_NOTE]
     if not check.ok:
@@ -190,6 +246,8 @@ def _case(
         fuel_states=states,
         check=check,
         notes=notes,
+        load_stretches={k: [(i.low, i.high) for i in v] for k, v in stretches.items()},
+        not_one_stretch=list(apart),
     )
 
 

@@ -190,3 +190,80 @@ def test_regression_schedule_says_the_lateral_axis_is_checked_by_extremes():
         assert "loadcheck extremes" in LATERAL_NOTE and "one side" in LATERAL_NOTE
     # an aircraft without a lateral envelope says nothing of it
     assert not any(LATERAL_NOTE in c.notes for c in loading_schedule(ac_example_aircraft()).cases)
+
+
+# -- trial 11 finding 3: a case's load that is not one stretch from zero ------------------------
+
+
+def test_regression_a_schedule_case_names_the_stretches_of_a_hold_with_a_gap(tmp_path):
+    """Trial 11 finding 3: on the kinked freighter (tests/test_extremes.py, KINK) the schedule said "hold 400.0
+    kg" with full fuel and nothing of the loads in between that are out of limits. Worked by hand
+    (FAA-H-8083-1B chapter 2), pilot 100 kg at 1.6 m, full fuel 14.4 kg at 2.5 m: the rest weighs 1,614.4 kg
+    with 3,946 kg m; with h kg in the hold (3.2 m) the ramp CG is (3,946 + 3.2 h) / (1,614.4 + h). Below
+    1,850 kg the forward limit is 2.0 + 0.555 (W - 1,500) / 350 m, so the gap opens where
+    350 (3,946 + 3.2 h) = (763.492 + 0.555 h)(1,614.4 + h), h = 223.78 kg; above it the limit is 2.555 m, so
+    the gap closes at h = (2.555 x 1,614.4 - 3,946) / (3.2 - 2.555) = 277.20 kg."""
+    import json
+
+    from .helpers import invoke, write_file
+    from .test_extremes import KINK
+
+    path = write_file(tmp_path, KINK)
+    result = loading_schedule(load_aircraft(path))
+    full_fuel = result.cases[0]
+    roots = np.roots([0.555, 0.555 * 1614.4 + 763.492 - 350 * 3.2, 763.492 * 1614.4 - 350 * 3946])
+    opens = float(next(r.real for r in roots if 0 < r.real < 400))
+    closes = (2.555 * 1614.4 - 3946) / (3.2 - 2.555)
+    (low, first), (second, high) = full_fuel.load_stretches["hold"]
+    assert low == pytest.approx(0.0) and high == pytest.approx(400.0)
+    assert first == pytest.approx(opens, abs=0.01) and second == pytest.approx(closes, abs=0.01)
+    assert full_fuel.not_one_stretch == ["hold"] and full_fuel.load["hold"] == pytest.approx(400.0)
+    note = next(n for n in full_fuel.notes if n.startswith("hold:"))
+    assert "0.0 to 223.7 kg and 277.2 to 400.0 kg" in note and "NOT" in note
+    # the case's loading itself is within limits, and the hand-worked load in the gap is not
+    assert full_fuel.ok
+    assert not _static_with(load_aircraft(path), full_fuel, hold=235.6)
+    text = " ".join(invoke("schedule", path).stdout.split())  # the terminal wraps its lines
+    assert "hold 400.0 kg (NOT every smaller load: see the note above)" in text
+    assert "only these loads are within limits: 0.0 to 223.7 kg and 277.2 to 400.0 kg" in text
+    data = json.loads(invoke("schedule", path, "--json").stdout)
+    assert data["cases"][0]["not_one_stretch"] == ["hold"]
+    assert data["cases"][0]["load_stretches"]["hold"][1][0] == pytest.approx(closes, abs=0.01)
+
+
+def _static_with(aircraft, case, **load) -> bool:
+    """The case's loading with other station loads, flown until its tanks are dry: within limits?"""
+    fuel = dict(case.fuel)
+    density = {t.id: aircraft.density(t) for t in aircraft.tank}
+    plan = BurnPlan(fuel, None)
+    loading = ResolvedLoading(case.check.category, {**case.load, **load}, fuel, density, 0.0, plan.burnable, None, plan)
+    return check_loading(aircraft, loading).ok
+
+
+def test_a_schedule_case_says_the_least_baggage_where_less_is_out_of_limits():
+    """Invented: empty 1,000 lb at 36 in, the pilot's seat at 20 in, baggage at 95 in (100 lb), the tank on the
+    35 in forward limit (its fuel moves the CG toward the limit, never across it). With the pilot alone the CG
+    is (36,000 + 3,400) / 1,170 = 33.68 in, forward of 35 in; baggage b brings it to the limit where
+    39,400 + 95 b = 35 (1,170 + b), b = 1,550 / 60 = 25.83 lb (FAA-H-8083-1B chapter 2)."""
+    aircraft = simple_aircraft(
+        station=[
+            {"id": "front", "arm": 20.0, "kind": "seat", "controls": True},
+            {"id": "bag", "arm": 95.0, "kind": "baggage", "max_weight": 100.0},
+        ],
+        empty={"weight": 1000.0, "arm": 36.0},
+        tank=[{"id": "main", "arm": 35.0, "usable": 40.0, "fuel": "avgas"}],
+    )
+    full_fuel = loading_schedule(aircraft).cases[0]
+    [(low, high)] = full_fuel.load_stretches["bag"]
+    assert low == pytest.approx(1550 / 60, abs=0.01) and high == pytest.approx(100.0)
+    assert full_fuel.not_one_stretch == ["bag"] and full_fuel.ok
+    assert "bag: at least 25.9 lb with the rest of this case as given" in " ".join(full_fuel.notes)
+    assert not _static_with(aircraft, full_fuel, bag=25.0) and _static_with(aircraft, full_fuel, bag=25.9)
+
+
+def test_a_schedule_case_from_zero_says_nothing_of_stretches():
+    # the published example (AC 43.13-1B figure 10-12): every baggage load up to the 100 lb maximum is
+    # within limits with full fuel and three aboard, so no stretch note
+    full_fuel = loading_schedule(ac_example_aircraft()).cases[0]
+    assert full_fuel.not_one_stretch == [] and full_fuel.load_stretches["bag"][0][0] == pytest.approx(0.0)
+    assert not any("within limits:" in n for n in full_fuel.notes)

@@ -1102,6 +1102,7 @@ def render_schedule(result: Any, aircraft: Aircraft, console: Console) -> None:
         _indented(console, f"occupants: {seats}")
         other = [
             f"{aircraft.station_by_id[s].name} {fmt(w, units.mass, 'down')}"
+            + (" (NOT every smaller load: see the note above)" if s in case.not_one_stretch else "")
             for s, w in case.load.items()
             if aircraft.station_by_id[s].kind != "seat" and w > 0
         ]
