@@ -329,3 +329,30 @@ def test_regression_schedule_fuel_did_not_add_up_to_the_fuel_checked(runner):
         assert len(shown) == len(checked)
         for figure, amount in zip(shown, checked, strict=True):
             assert figure <= amount + 1e-9 and amount - figure < 0.1 + 1e-9, (figure, amount)
+
+
+def test_a_record_sheet_whose_extremes_are_out_of_limits_says_so_on_the_terminal_too(tmp_path):
+    # trial 11, finding 1: the weighing's record sheet said "Most forward ... NOT within limits" (the
+    # extremes of the new record) while the terminal only said "record sheet written": a limit finding
+    # told in one place only. The invented kinked freighter of tests/test_extremes.py, weighed as it is.
+    from .helpers import invoke, write_file
+    from .test_extremes import KINK
+
+    write_file(tmp_path, KINK, "kink.toml")
+    readings = write_file(
+        tmp_path,
+        'format = 1\naircraft = "kink.toml"\ndate = 2026-11-22\n[[point]]\nlabel = "all"\narm = 2.5\nreading = 1500\n',
+        "kw.toml",
+    )
+    ran = invoke("weigh", str(tmp_path / "kink.toml"), readings, "--sheet", str(tmp_path / "kw.html"))
+    assert ran.exit_code == 0, ran.output
+    assert "NOT within limits" in (tmp_path / "kw.html").read_text()
+    assert "extreme checks with the new record are NOT all within limits" in ran.stderr
+    ok = invoke(
+        "weigh",
+        str(sample("trainer4/aircraft.toml")),
+        str(sample("trainer4/weighing.toml")),
+        "--sheet",
+        str(tmp_path / "t.html"),
+    )
+    assert ok.exit_code == 0 and "NOT all within limits" not in ok.stderr

@@ -81,6 +81,14 @@ def _new_empty_weight(
         if left_out:
             err.print(f"note: the extreme checks were left out of the record: {left_out}", markup=False)
         err.print(f"record sheet written (to print and sign): {written}", markup=False, soft_wrap=True)
+        checks = proposal.extremes[0]
+        if checks is not None and not checks.ok:  # the sheet says so: never only there
+            err.print(
+                "warning: the record sheet's extreme checks with the new record are NOT all within limits "
+                "(or not established); see loadcheck extremes for each",
+                markup=False,
+                soft_wrap=True,
+            )
     if json_out:
         typer.echo(json.dumps(proposal.to_dict(), indent=2))
     else:
