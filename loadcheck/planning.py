@@ -939,6 +939,41 @@ _MAX_RUNS = 8  # stretches of one set of limits exceeded named in a shift that n
 _MAX_STATES = 4 * _MAX_RUNS  # stretches of one set of verdicts looked at (a full check each) to find them
 
 
+def _limits_met(aircraft: Aircraft, at: Callable[[float], ResolvedLoading], x: float) -> tuple[object, ...]:
+    """Which limits the full check of the loading at ``x`` finds exceeded (each finding's code,
+    condition, side and subject: not its amounts), or its refusal's words."""
+    try:
+        findings = check_loading(aircraft, at(x)).findings
+    except LoadcheckError as error:
+        return ("; ".join(p.message for p in error.problems),)
+    return tuple((f.code, f.condition, f.side, f.subject) for f in findings if f.severity == "limit")
+
+
+def _split_by_limits(
+    aircraft: Aircraft, at: Callable[[float], ResolvedLoading], xs: np.ndarray, stretches: list[tuple[int, int]]
+) -> list[tuple[int, int]] | None:
+    """The stretches of one set of engine verdicts (places in ``xs``), each split again where the full
+    check finds other limits exceeded at its two ends (one verdict per envelope cannot tell its aft edge
+    from its top): by bisection, to the grid point. None where that makes too many stretches."""
+    out: list[tuple[int, int]] = []
+    pending = list(reversed(stretches))
+    while pending:
+        first, last = pending.pop()
+        start = _limits_met(aircraft, at, float(xs[first]))
+        if first == last or _limits_met(aircraft, at, float(xs[last])) == start:
+            out.append((first, last))
+        else:
+            low, high = first, last  # start's limits at low; other limits at high
+            while high - low > 1:
+                mid = (low + high) // 2
+                low, high = (mid, high) if _limits_met(aircraft, at, float(xs[mid])) == start else (low, mid)
+            out.append((first, low))
+            pending.append((high, last))
+        if len(out) > _MAX_STATES:
+            return None
+    return out
+
+
 def _exceeded_along(
     aircraft: Aircraft,
     ok_rows: Callable[[np.ndarray], Evaluation],
@@ -973,9 +1008,12 @@ def _exceeded_along(
         return None
     starts = np.concatenate([[0], changes + 1])
     ends = np.concatenate([changes, [count - 1]])
+    pieces = _split_by_limits(aircraft, at, xs, list(zip(starts.tolist(), ends.tolist(), strict=True)))
+    if pieces is None:
+        return None
     fine: list[tuple[float, float, str]] = []  # each limit with its amount and condition
     coarse: list[tuple[float, float, str]] = []  # each limit once, whatever the condition
-    for first, last in zip(starts, ends, strict=True):
+    for first, last in pieces:
         try:
             findings = check_loading(aircraft, at(float(xs[(first + last) // 2]))).findings
             words = (

@@ -1123,3 +1123,31 @@ def test_regression_a_trips_no_fuel_reason_named_the_first_legs_own_too_little_f
     assert "exceed the fuel the burn order" not in answer.governing, answer.governing
     assert answer.governing.startswith("with this load and these legs, at 6.3 impgal of ramp fuel: leg 1: ramp CG")
     assert "aft of the aft limit" in answer.governing and "(42.5 cm at 650.6 kg)" in answer.governing
+
+
+def test_regression_a_stretch_of_ramp_fuel_was_named_by_one_verdict_per_envelope():
+    """A review of trial 11's fix: with one inside/outside verdict per envelope, an aft-edge and a top-edge
+    exceedance looked alike, so ``plan fuel`` of trainer4/utility_aft.toml said "ramp fuel 6.2 to 44.8
+    usgal: envelope's top ..." where from 6.2 to about 18 usgal (the loading's own 10 usgal among them)
+    ``check`` finds the aft limit exceeded and the weight below the top. Each stretch is now split where
+    the full check finds other limits at its two ends; every stretch named must be what the check finds
+    at its ends (sum of moments, FAA-H-8083-1B chapter 2, by the check itself)."""
+    import re
+
+    inputs = load_check_inputs(sample("trainer4/utility_aft.toml"), fuel_to_plan=True)
+    answer = P.most_fuel(inputs.aircraft, inputs.loading)
+    assert not answer.feasible and answer.governing is not None
+    stretches = re.findall(r"[Rr]amp fuel ([0-9.]+) to ([0-9.]+) usgal: ([^.]*(?:\.[0-9][^.]*)*)", answer.governing)
+    assert stretches, answer.governing
+    low, high, words = stretches[0]
+    assert float(low) <= 10 <= float(high) and "aft limit at ramp" in words and "envelope's top" not in words
+    loading = inputs.loading
+    for low, high, words in stretches:
+        for fuel in (float(low), float(high)):
+            findings = check_loading(inputs.aircraft, P._fuel_loading(inputs.aircraft, loading, None, fuel)).findings
+            said = {
+                ("aft limit" if f.side == "aft" else "top")
+                for f in findings
+                if f.severity == "limit" and f.code == "envelope"
+            }
+            assert ("aft limit" in said) == ("aft limit" in words), (low, high, fuel, words)
