@@ -1160,12 +1160,30 @@ def weight_shift(
             return refuse(f"it needs {fmt(moved, units.mass, 'up')} but {source} holds {fmt(available, units.mass)}")
         # the amount shown is the amount checked: the least weight that reaches the CG, rounded up (the
         # safe direction, as least ballast is), with more digits where that would pass what the source holds
-        moved, shown = safe_value(max(0.0, moved), max(0.0, moved, available), units.mass, "up")
+        exact = max(0.0, moved)
+        moved, shown = safe_value(exact, max(exact, available), units.mass, "up")
         check = check_loading(aircraft, at(moved))
+        places = decimals(units.mass)
+        while not check.ok and moved > exact and places < decimals(units.mass) + 3:
+            # rounded up past a limit the move goes toward (a target on that limit): fewer digits cut off
+            places += 1
+            closer = min(max(exact, available), round_safe(exact, places, "up"))
+            moved, shown, check = closer, f"{closer:,.{places}f} {units.mass}", check_loading(aircraft, at(closer))
+        short = None
+        if not check.ok and moved > exact:  # no figure rounded up holds: the closest below, short of the target
+            under = round_safe(exact, places, "down")
+            tried = check_loading(aircraft, at(under))
+            if tried.ok:
+                moved, shown, check = under, f"{under:,.{places}f} {units.mass}", tried
+                short = (
+                    "the CG falls short of the target by the rounding: any amount more, rounded up, passes a "
+                    "limit the move goes toward"
+                )
         if not check.ok:
+            reached = fmt(check.condition(condition).arm, units.arm)
             return refuse(
-                f"moving {fmt(moved, units.mass)} puts the CG at the target, but the loading is then not "
-                "within limits: " + _exceeded(check),
+                f"moving {fmt(moved, units.mass)} puts the {condition_words(condition)} CG at {reached}, but the "
+                "loading is then not within limits: " + _exceeded(check),
                 check,
             )
         return PlanResult(
@@ -1177,7 +1195,7 @@ def weight_shift(
             answer=moved,
             answer_display=shown,
             check=check,
-            extra={"resulting CG": fmt(check.condition(condition).arm, units.arm)},
+            extra={"resulting CG": fmt(check.condition(condition).arm, units.arm)} | ({"note": short} if short else {}),
         )
     base = loading_arrays(aircraft, loading)
 

@@ -1151,3 +1151,61 @@ def test_regression_a_stretch_of_ramp_fuel_was_named_by_one_verdict_per_envelope
                 if f.severity == "limit" and f.code == "envelope"
             }
             assert ("aft limit" in said) == ("aft limit" in words), (low, high, fuel, words)
+
+
+_SHIFT_140 = """format = 1
+name = "Invented shift test (review 11)"
+[units]
+mass = "kg"
+arm = "cm"
+fuel_volume = "l"
+[empty]
+weight = 400.0
+arm = 150.0
+[limits]
+max_takeoff_weight = 700
+[[station]]
+id = "fwd"
+kind = "seat"
+arm = 100.0
+max_weight = 200
+[[station]]
+id = "aft"
+arm = 200.0
+max_weight = 200
+[[tank]]
+id = "t"
+arm = 150.0
+usable = 50.0
+density = 0.72
+[[envelope]]
+category = "normal"
+axes = ["arm", "weight"]
+points = [[140.0, 400], [140.0, 700], [200.0, 700], [200.0, 400]]
+"""
+
+
+@pytest.mark.parametrize(
+    ("aft", "shown", "short"),
+    [
+        # 400 x 150 + 80 x 100 + 30.05 x 200 = 74,010 kg cm at 510.05 kg; moving m from 200 to 100 cm takes
+        # 100 m off the moment: m = (74,010 - 140 x 510.05) / 100 = 26.03 kg exactly, the CG then 140.0 cm
+        (30.05, "26.03 kg", False),
+        # 30.05003: m = (74,010.006 - 71,407.0042) / 100 = 26.030018 kg; 26.0301 passes the 140 cm limit
+        # (CG 139.99998 cm), 26.0300 is inside (140.000006 cm): the closest below, said to fall short
+        (30.05003, "26.0300 kg", True),
+    ],
+)
+def test_regression_a_target_shift_onto_the_limit_it_moves_toward_was_refused(aft, shown, short):
+    """A review of trial 11's rounding up: a target on the forward limit, moved toward, was refused ("no
+    solution: moving 26.1 kg puts the CG at the target") though 26.03 kg reaches it within limits; the
+    least amount that reaches the target within limits is found with more digits, else the closest
+    below it with a note (the moment method of FAA-H-8083-1B chapter 2, worked beside each case)."""
+    aircraft = _trial_aircraft(_SHIFT_140)
+    loading = resolve_loading(
+        Loading(load={"fwd": 80, "aft": aft}, fuel={"t": 0}, burn={"taxi": 0, "trip": 0}), aircraft
+    )
+    answer = P.weight_shift(aircraft, loading, "aft", "fwd", target_arm=140.0)
+    assert answer.feasible and answer.answer_display == shown and answer.check is not None and answer.check.ok
+    assert answer.check.condition("takeoff").arm >= 140.0 - 1e-9
+    assert ("note" in answer.extra) is short
