@@ -312,11 +312,8 @@ def parse_duration_hours(text: str | float | int) -> float:
     elif match := _DURATION_UNIT_RE.match(text):
         number = float(match.group(1))
         hours = number if match.group(2).lower().startswith("h") else number / 60.0
-    elif _DURATION_UNIT_RE.match(f"{text} h"):  # a bare number as text: hours or minutes is not guessed
-        raise UnitError(
-            f"cannot read {text!r} as a duration: a number typed alone could be hours or minutes; "
-            f"write {text.strip() + ' h'!r} or {text.strip() + ' min'!r} (or hours:minutes, e.g. '2:15')"
-        )
+    elif match := _DURATION_UNIT_RE.match(f"{text} h"):  # a number alone is hours, as a file's number is
+        hours = float(match.group(1))
     else:
         raise UnitError(f"cannot read {text!r} as a duration (e.g. '2:15', '2.25 h', '135 min')")
     if not math.isfinite(hours) or hours < 0:
