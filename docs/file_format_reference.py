@@ -66,7 +66,8 @@ RULES: dict[str, str] = {
     "tank.fuel": "default densities: avgas and mogas 6.0 lb/US gal, jet 6.7 lb/US gal (loadcheck/fuel.py)",
     "tank.density": "> 0; one of `fuel` and `density` is required; `density` wins",
     "tank.levels": "each 0 to `usable`; `full` is built in; a name is a word: one that reads as an amount "
-    "(`12`, `5 l`) or differs from another only in letter case is refused",
+    "(`12`, `5 l`), begins with a digit, a sign or a point (a loading reads such a text as an amount), or "
+    "differs from another only in letter case is refused",
     "tank.arm_table": "`[[quantity, arm], ...]`, at least 2 points, quantities strictly increasing "
     "within 0 to `usable`; "
     "the end arm is held beyond the ends",

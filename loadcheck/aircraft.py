@@ -35,7 +35,17 @@ from .errors import Problem, UnitError, UnknownNameError, spelling_hint
 from .filemodel import FileModel, Flag, Registration
 from .fuel import FuelGrade, default_density, density_problem, grade_name
 from .registration import registration_key
-from .units import MAX_MAGNITUDE, ArmUnit, MassUnit, VolumeUnit, canonical_unit, convert, parse_quantity, unit_kind
+from .units import (
+    MAX_MAGNITUDE,
+    ArmUnit,
+    MassUnit,
+    VolumeUnit,
+    canonical_unit,
+    convert,
+    names_a_level,
+    parse_quantity,
+    unit_kind,
+)
 
 __all__ = [
     "RESERVED_IDS",
@@ -336,8 +346,13 @@ class Tank(_Model):
                 raise ValueError(f"level {name!r} is negative ({quantity})")
             if _reads_as_amount(name):  # fail closed: "12" typed must be 12, never a level of another amount
                 raise ValueError(
-                    f"level {name!r} reads as an amount of fuel, so a loading's {name!r} could mean either; "
+                    f"level {name!r} reads as an amount, so a loading's {name!r} could mean either; "
                     "name the level with a word (e.g. 'tabs', 'half')"
+                )
+            if not names_a_level(name):  # a loading reads it as an amount: the level could never be used
+                raise ValueError(
+                    f"level {name!r} begins with a digit, a sign or a point, so a loading reads it as an amount "
+                    "and never as this level; name the level with a word (e.g. 'tabs', 'half')"
                 )
             other = seen.setdefault(name.lower(), name)
             if other != name:
@@ -756,7 +771,7 @@ def _boundary_problems(aircraft: Aircraft) -> list[str]:
                 f"something else; choose another id, e.g. {name + '_' + where!r}"
             )
     for index, tank in enumerate(aircraft.tank):
-        if tank.id.lower() == BURN_TOGETHER:
+        if tank.id == BURN_TOGETHER:
             problems.append(
                 f"tank[{index}].id: {tank.id!r} is the burn order's word for every tank burned together, so "
                 f"an order naming this tank alone would be read as that; choose another id, e.g. {tank.id + '_tank'!r}"

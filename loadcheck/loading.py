@@ -25,7 +25,7 @@ from typing import Annotated, Any, Literal
 
 from pydantic import BeforeValidator, Field, field_validator, model_validator
 
-from .aircraft import Aircraft
+from .aircraft import BURN_TOGETHER, Aircraft
 from .errors import InputError, LoadcheckError, Problem, UnitError, UnknownNameError, spelling_hint
 from .filemodel import AircraftKey, FileModel, Registration
 from .fuel import density_problem
@@ -35,6 +35,7 @@ from .units import (
     Quantity,
     convert,
     in_unit,
+    names_a_level,
     parse_duration_hours,
     parse_quantity,
     parse_rate,
@@ -115,7 +116,7 @@ def burn_order(
     text: str, field: str, separators: Literal[",", "csv"] = ",", *, with_value: bool = True
 ) -> Literal["together"] | list[str]:
     """A burn order as typed: ``together``, or the tanks in the order they are burned (:func:`tank_list`)."""
-    return "together" if text.strip() == "together" else tank_list(text, field, separators, with_value=with_value)
+    return "together" if text.strip() == BURN_TOGETHER else tank_list(text, field, separators, with_value=with_value)
 
 
 def _check_amount(value: Any, kinds: tuple[str, ...]) -> Any:
@@ -140,14 +141,9 @@ def _fuel_amount(value: Any) -> Any:
 
 def _fuel_start(value: Any) -> Any:
     """A tank's fuel at engine start: an amount, ``full`` or a fill-level name."""
-    if _is_level_name(value):
+    if names_a_level(value):
         return value.strip()  # 'full' or a level name, looked up against the tank later
     return _fuel_amount(value)
-
-
-def _is_level_name(value: Any) -> bool:
-    """True for text that is not a number: ``full`` or a fill-level name."""
-    return isinstance(value, str) and bool(value.strip()) and value.strip()[0] not in "0123456789.+-"
 
 
 def _fuel_rate(value: Any) -> Any:
@@ -764,7 +760,7 @@ def resolve_loading(
         if isinstance(amount, str) and amount in tank.levels:
             fuel[name] = tank.levels[amount]
             continue
-        if _is_level_name(amount):
+        if names_a_level(amount):
             levels = _known(dict.fromkeys(["full", *tank.levels]))
             unknown.append(
                 Problem(
@@ -1087,7 +1083,7 @@ def _stop_fuel(
             to[name] = tank.usable
         elif isinstance(amount, str) and amount in tank.levels:
             to[name] = tank.levels[amount]
-        elif _is_level_name(amount):
+        elif names_a_level(amount):
             unknown.append(
                 Problem(
                     leg_field(number, f"add_fuel.{name}"),
@@ -1106,7 +1102,7 @@ def _stop_fuel(
 def _as_given(amount: float | str) -> float | str:
     """A fuel amount as the user gave it, said one way whichever front end it came through: a
     plain number (``5`` or ``"5"``) as a number [fuel volume unit], any other text as written."""
-    if isinstance(amount, str) and not _is_level_name(amount):
+    if isinstance(amount, str) and not names_a_level(amount):
         quantity = parse_quantity(amount)
         if quantity.unit is None:
             return quantity.value

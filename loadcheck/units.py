@@ -40,6 +40,7 @@ __all__ = [
     "canonical_unit",
     "convert",
     "in_unit",
+    "names_a_level",
     "parse_duration_hours",
     "parse_quantity",
     "parse_rate",
@@ -203,6 +204,22 @@ def parse_quantity(text: str | float | int) -> Quantity:
     if kind is bool:
         raise UnitError(f"expected a number, got {text!r}")
     return _read_quantity(str(text), text)
+
+
+def names_a_level(text: object) -> bool:
+    """True for a text read as ``full`` or a tank's fill-level name, not as an amount: its first
+    character is no digit (of any script Unicode counts as decimal), sign or point. One rule for the
+    loading that reads it and the aircraft file that names its levels.
+
+    Examples
+    --------
+    >>> names_a_level("tabs"), names_a_level("12"), names_a_level("-low"), names_a_level("１２")
+    (True, False, False, False)
+    """
+    if not isinstance(text, str) or not text.strip():
+        return False
+    first = text.strip()[0]
+    return not (first.isdecimal() or first in ".+-")
 
 
 def float_as_written(number: str, typed: object = None) -> float:
