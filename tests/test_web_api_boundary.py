@@ -427,3 +427,14 @@ def test_regression_api_a_null_is_refused_at_its_place(
         assert response.status_code == 422, (route, response.text)
         problems = response.json()["problems"]
         assert [p["field"] for p in problems] == [path] and "null is not a value" in problems[0]["message"], problems
+
+
+def test_the_published_schema_declares_no_null_the_api_refuses(reading_desk: dict[str, Any]) -> None:
+    """A review: since a null is refused, ``/api/openapi.json`` still said ``category`` (and every load,
+    fuel and burn value) could be null, so a client made from the schema would send what is refused."""
+    client = _client(reading_desk, "pia")
+    schema = client.get("/api/openapi.json").json()
+    request = schema["components"]["schemas"]["CheckRequest"]["properties"]
+    assert request["category"]["type"] == "string" and "anyOf" not in request["category"]
+    for table in ("load", "fuel", "burn", "names"):
+        assert request[table]["additionalProperties"] == {"not": {"type": "null"}}, table

@@ -24,7 +24,7 @@ from collections.abc import Callable, Coroutine, Iterable, Mapping
 from dataclasses import dataclass
 from pathlib import Path
 from types import SimpleNamespace
-from typing import TYPE_CHECKING, TypedDict, cast
+from typing import TYPE_CHECKING, Annotated, TypedDict, cast
 
 from fastapi import FastAPI, Form, HTTPException, Request, UploadFile
 from fastapi.exceptions import RequestValidationError
@@ -32,7 +32,7 @@ from fastapi.responses import HTMLResponse, JSONResponse, PlainTextResponse, Red
 from fastapi.routing import APIRoute, APIRouter
 from fastapi.staticfiles import StaticFiles
 from fastapi.templating import Jinja2Templates
-from pydantic import BaseModel, ConfigDict, Field, JsonValue, ValidationError
+from pydantic import BaseModel, ConfigDict, Field, JsonValue, ValidationError, WithJsonSchema
 from starlette.datastructures import FormData
 from starlette.datastructures import UploadFile as StarletteUpload
 from starlette.exceptions import HTTPException as StarletteHTTPException
@@ -71,6 +71,10 @@ class _SignInNeeded(Exception):
     """The request has no signed-in account."""
 
 
+_Value = Annotated[JsonValue, WithJsonSchema({"not": {"type": "null"}})]
+"""A loading value as JSON gives it, for the library to read; never null (refused by :func:`api_json`)."""
+
+
 class CheckRequest(BaseModel):
     """A loading for the API: the same fields as a loading file's ``[load]``, ``[fuel]`` and ``[burn]``.
 
@@ -85,21 +89,23 @@ class CheckRequest(BaseModel):
     model_config = ConfigDict(extra="forbid", strict=True)
 
     registration: str = Field(description="the aircraft, by registration, in the desk's fleet")
-    load: dict[str, JsonValue] = Field(
+    load: dict[str, _Value] = Field(
         default_factory=dict, description="mass per station: a number [mass unit] or with a unit"
     )
-    names: dict[str, JsonValue] = Field(
+    names: dict[str, _Value] = Field(
         default_factory=dict,
         description="optional: who is at each station, a person's name per station id (the loading file's [names])",
     )
-    fuel: dict[str, JsonValue] = Field(
+    fuel: dict[str, _Value] = Field(
         default_factory=dict, description="quantity per tank at engine start: volume, 'full', a level name"
     )
-    burn: dict[str, JsonValue] = Field(
+    burn: dict[str, _Value] = Field(
         default_factory=dict, description="taxi, trip or trip_time and rate, order, reserve"
     )
-    category: str | None = Field(None, description="envelope category (default: the file's first)")
-    leg: list[dict[str, JsonValue]] = Field(
+    category: Annotated[str | None, WithJsonSchema({"type": "string"})] = Field(
+        None, description="envelope category (default: the file's first); left out, never null"
+    )
+    leg: list[dict[str, _Value]] = Field(
         default_factory=list,
         description="the legs after the first, as the loading file's [[leg]] tables: label, load "
         "(new weight per station), add_fuel (fuel put in at the stop), burn",
