@@ -829,7 +829,9 @@ def _bare_number(text: str) -> bool:
 
 def _named_aircraft_problem(path: Path, loading: Loading, fleet: Fleet) -> str | None:
     """Where a loading file names both its aircraft file and a registration, and the fleet's file of
-    that registration is another: the contradiction (the single check refuses it as well)."""
+    that registration is another file: the contradiction. Stricter than the single check, which
+    takes a copy of the same data (``files._another_aircraft``): a fleet is one folder, and a loading
+    that names a file outside it is refused whatever that file holds."""
     if loading.aircraft is None or loading.registration is None:
         return None
     try:
@@ -847,6 +849,19 @@ def _named_aircraft_problem(path: Path, loading: Loading, fleet: Fleet) -> str |
 def _folder_rows(folder: Path, fleet: Fleet) -> Iterator[FlightRow]:
     count = 0
     for index, path in enumerate(sorted(folder.rglob("*.toml")), start=1):
+        shown = str(path).encode("utf-8", "surrogateescape").decode("utf-8", "backslashreplace")
+        if shown != str(path):  # a name with bytes that are not UTF-8: no text can name it in a report
+            count += 1
+            yield FlightRow(
+                index,
+                shown,
+                None,
+                None,
+                None,
+                None,
+                [f"{shown}: the file's name is not UTF-8 text, so it cannot be reported; rename the file"],
+            )
+            continue
         try:
             data = read_toml(path)
             if file_kind(data) != "loading":

@@ -1204,3 +1204,25 @@ def test_the_chunks_read_before_a_file_goes_wrong_are_checked_recorded_and_repor
     assert [line["line"] for line in lines[:-1]] == list(range(2, 38)) and "line" not in lines[-1]
     with CheckLog(db) as log:
         assert sorted(r.reference for r in log.find()) == sorted(f"R{i}" for i in range(36))
+
+
+def test_a_loading_file_whose_name_is_not_utf8_is_a_row_problem(runner, tmp_path):
+    # a review: a folder of loadings holding `w\xff.toml` ended `fleet check --json` with "internal error
+    # (TypeError: str is not valid UTF-8: surrogates not allowed)"; it is that file's problem, said with
+    # its name shown escaped, and the other files are still checked
+    import os
+
+    folder = tmp_path / "day"
+    folder.mkdir()
+    text = sample("trainer4/within.toml").read_text().replace('aircraft = "aircraft.toml"', 'registration = "DEMO-4T"')
+    (folder / "good.toml").write_text(text)
+    try:
+        with open(os.path.join(os.fsencode(folder), b"w\xff.toml"), "w") as handle:
+            handle.write(text)
+    except (OSError, UnicodeError):
+        pytest.skip("this file system takes no file name that is not UTF-8")
+    said = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(folder), "--json", "--no-log"])
+    assert said.exit_code == 2, said.output
+    good, bad = _json_lines(said.stdout)  # in the order of their names
+    assert bad["source"].endswith("w\\xff.toml") and "not UTF-8 text" in bad["input_error"][0]
+    assert good["ok"] is True and good["source"].endswith("good.toml")
