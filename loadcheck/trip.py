@@ -37,6 +37,7 @@ from .errors import InputError, LoadcheckError, Problem
 from .loading import BurnPlan, Loading, ResolvedLoading, ResolvedTrip, StopFuel, landing_fuel, resolve_trip
 from .planning import (
     _GRID_STEP,
+    _LOAD_CODES,
     Interval,
     PlanResult,
     _distribute,
@@ -383,6 +384,9 @@ def _why_no_trip_fuel(
         )
 
     first, found = checked[0]
+    fixed = [f for f in found.findings if f.severity == "limit" and f.code in _LOAD_CODES]
+    if fixed:  # a station or group over its own limit: no fuel changes it, so it is the one reason
+        return "; ".join(f.message for f in fixed)
     words = f"with this load and these legs, at {fmt(first, unit, 'up')} of ramp fuel: {reason(found)}"
     last, full = checked[-1]
     if last > first and reason(full) != reason(found):

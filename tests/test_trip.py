@@ -701,3 +701,16 @@ def test_fuel_put_in_as_a_mass_or_a_typed_number_is_said_as_given(runner):
         out = runner.invoke(app, ["check", trip, "--leg-fuel", f"2:main={typed}", "--json"]).output
         (uplift,) = json.loads(out)["legs"][1]["stop"]["fuel"]
         assert uplift["given"] == as_given and uplift["volume"] == pytest.approx(5.0, abs=1e-9)
+
+
+def test_a_trips_no_fuel_reason_for_a_station_over_its_maximum_is_that_limit_alone():
+    # a review: "with this load and these legs, at 19.2 usgal of ramp fuel: leg 1: Left side locker: 60.0 lb
+    # exceeds the maximum 35.0 lb" named a ramp fuel for a limit no fuel changes; as for a single leg
+    # (docs/planning.md), a station or group over its own limit is the one reason given
+    from loadcheck.files import load_check_inputs
+
+    inputs = load_check_inputs(sample("heli2/trip_drop_off.toml"), None, allow_trip=True, load={"bag_left": 60})
+    assert inputs.trip is not None
+    answer = trip_most_fuel(inputs.aircraft, inputs.trip)
+    assert not answer.feasible
+    assert answer.governing == "leg 1: Left side locker: 60.0 lb exceeds the maximum 35.0 lb by 25.0 lb"
