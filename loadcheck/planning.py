@@ -677,7 +677,17 @@ def longest_trip(
     ramp = _longest_trip_fuel(aircraft, loading, order, reserve, fuel)
     if ramp is None:
         if fuel.answer is None or fuel.check is None:
-            return replace(fuel, question=f"longest trip, {landing_words}", variable="trip fuel")
+            # no ramp fuel with any trip: the reason is the shortest trip's (none at all), not the loading's
+            # own trip, which plays no part in this answer
+            shortest = most_fuel(aircraft, _trip_found(loading, 0.0), fill=fill)
+            why = shortest.governing if shortest.answer is None else fuel.governing
+            return replace(
+                fuel,
+                question=f"longest trip, {landing_words}",
+                variable="trip fuel",
+                governing=f"even with no trip fuel: {why}" if shortest.answer is None and why else why,
+                governing_code=shortest.governing_code if shortest.answer is None else fuel.governing_code,
+            )
         ramp = safe_value(fuel.intervals[-1].low, fuel.answer, unit, "down")[0]
     if fuel.answer is None or not math.isclose(ramp, safe_value(fuel.intervals[-1].low, fuel.answer, unit, "down")[0]):
         fuel = replace(fuel, answer=ramp, answer_display=safe_value(ramp, ramp, unit, "down")[1])

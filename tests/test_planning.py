@@ -1209,3 +1209,15 @@ def test_regression_a_target_shift_onto_the_limit_it_moves_toward_was_refused(af
     assert answer.feasible and answer.answer_display == shown and answer.check is not None and answer.check.ok
     assert answer.check.condition("takeoff").arm >= 140.0 - 1e-9
     assert ("note" in answer.extra) is short
+
+
+def test_regression_plan_trip_with_no_answer_gave_the_reason_of_the_loadings_own_trip():
+    """A review: ``plan trip`` of twin6/zero_fuel_heavy.toml (over its maximum zero-fuel weight, whatever the
+    fuel) said "... Less ramp fuel than 37.0 usgal does not cover taxi and trip": the loading's own trip,
+    which plays no part where the trip is the answer. The reason is now the shortest trip's (none)."""
+    inputs = load_check_inputs(sample("twin6/zero_fuel_heavy.toml"), fuel_to_plan=True)
+    answer = P.longest_trip(inputs.aircraft, inputs.loading, rate=30.0)
+    assert not answer.feasible and answer.governing is not None
+    assert answer.governing.startswith("even with no trip fuel: ") and "37.0" not in answer.governing
+    assert "maximum zero-fuel weight 5,000.0 lb" in answer.governing  # sample_aircraft/twin6/aircraft.toml
+    assert answer.governing_code is not None
