@@ -474,6 +474,31 @@ class CheckLog:
             raise InputError(Problem("ID", f"no record {record_id} in {self.path}"))
         return self._row(row)
 
+    def missing_ids(self) -> list[tuple[int, int]]:
+        """The record ids the log has given out and no longer holds, as stretches (first, last).
+
+        Ids are given by SQLite's AUTOINCREMENT, which never gives one twice and leaves no gap (an
+        insert rolled back takes its id back with it), and a record is never deleted (a trigger
+        refuses it): a missing id is a record removed from the file by other means."""
+        ids = [row[0] for row in self._db.execute("SELECT id FROM checks ORDER BY id")]
+        top = self._db.execute("SELECT seq FROM sqlite_sequence WHERE name = 'checks'").fetchone()
+        last = max(int(top[0]) if top and top[0] is not None else 0, ids[-1] if ids else 0)
+        gaps, expected = [], 1
+        for present in [*ids, last + 1]:
+            if present > expected:
+                gaps.append((expected, present - 1))
+            expected = present + 1
+        return gaps
+
+    def sealed_beside(self, record_id: int, checked_at: str) -> bool:
+        """True where a record before this one, or one of its own batch (the same time), carries a seal:
+        the version that wrote this record sealed every record, so it had a seal."""
+        row = self._db.execute(
+            "SELECT 1 FROM checks WHERE seal IS NOT NULL AND (id < ? OR checked_at = ?) LIMIT 1",
+            (record_id, checked_at),
+        ).fetchone()
+        return row is not None
+
     def aircraft_data(self, fingerprint: str) -> dict[str, Any]:
         """The canonical aircraft data recorded under a fingerprint."""
         row = self._db.execute("SELECT data FROM aircraft_data WHERE fingerprint = ?", (fingerprint,)).fetchone()
@@ -887,7 +912,18 @@ def verify(log: CheckLog, record_id: int) -> Verification:
     if given is not None and given != record.registration:
         differences.append(f"the stored registration {record.registration!r} is not the loading's {given!r}")
     notes = []
-    if record.seal is None:
+    for first, last in log.missing_ids():
+        which = f"record {first} is" if first == last else f"records {first} to {last} are"
+        differences.append(
+            f"the log has been altered: {which} missing (ids are never given twice and records are never "
+            "deleted, so they were removed from the file)"
+        )
+    if record.seal is None and log.sealed_beside(record.id, record.checked_at):
+        differences.append(
+            "the record's seal was removed: records before it (or of its own batch) are sealed, so the version "
+            "that wrote it sealed it; its time, reference, pilot and source may have been changed"
+        )
+    elif record.seal is None:
         notes.append(
             "this record has no seal (recorded by an earlier version): its time, reference, pilot and source "
             "cannot be verified"

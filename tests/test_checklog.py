@@ -575,3 +575,48 @@ def test_regression_a_record_written_before_results_gained_a_field_still_verifie
     changed = {"ok": False, "legs": [{"leg": 1, "ok": True}, {"leg": 2, "stop": {"fuel": []}, "ok": True}]}
     assert not results_match(stored, changed, newer_fields=True)
     assert not results_match(again, stored, newer_fields=True)  # a stored field missing from the recompute
+
+
+def _sample_day_log(runner, tmp_path) -> Path:
+    """A check log of the sample day's usable rows, recorded by fleet check (several records, one batch)."""
+    db = tmp_path / "log.db"
+    runner.invoke(
+        app, ["fleet", "check", str(sample("trainer4").parent), str(sample("fleet_day.csv")), "--db", str(db)]
+    )
+    with CheckLog(db) as log:
+        assert len(list(log.find())) >= 5
+    return db
+
+
+def test_a_seal_cleared_among_sealed_records_is_found(runner, tmp_path):
+    # trial 12: with its seal set to NULL, a record's pilot, reference and time could be changed and
+    # `log verify` still said every stored field matches, with a note that the record was from "an earlier
+    # version"; records before it (and of its batch) are sealed, so the version that wrote it sealed it
+    db = _sample_day_log(runner, tmp_path)
+    tamper_check_log(
+        db, "UPDATE checks SET seal = NULL, pilot = 'Mallory', checked_at = '2026-11-01T08:00:00' WHERE id = 4"
+    )
+    with CheckLog(db) as log:
+        found = verify(log, 4)
+        assert any("seal was removed" in d for d in found.differences), found
+        assert verify(log, 3).differences == []  # the records beside it are untouched
+    said = runner.invoke(app, ["log", "verify", "4", "--db", str(db)])
+    assert said.exit_code == 1 and "seal was removed" in said.output
+
+
+def test_a_record_deleted_from_the_file_is_found(runner, tmp_path):
+    # trial 12: a record deleted behind the triggers' back went unnoticed; ids are never given twice
+    # (SQLite AUTOINCREMENT) and records are never deleted, so a missing id is a record removed
+    db = _sample_day_log(runner, tmp_path)
+    connection = sqlite3.connect(db)
+    connection.execute("DROP TRIGGER checks_never_deleted")
+    connection.execute("DELETE FROM checks WHERE id IN (2, 3)")
+    last = connection.execute("SELECT max(id) FROM checks").fetchone()[0]
+    connection.execute("DELETE FROM checks WHERE id = ?", (last,))  # the last one too: sqlite_sequence keeps its id
+    connection.commit()
+    connection.close()
+    with CheckLog(db) as log:
+        assert log.missing_ids() == [(2, 3), (last, last)]
+        found = verify(log, 1)
+        assert any("records 2 to 3 are missing" in d for d in found.differences), found
+        assert any(f"record {last} is missing" in d for d in found.differences), found
