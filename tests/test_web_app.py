@@ -1493,3 +1493,24 @@ def test_the_desks_moment_table_has_the_terminals_columns(reading_desk: dict[str
         assert "Moment table" in page, page[-2000:]
         for head in heads:
             assert f"<th>{escape(head)}</th>" in page, (registration, head)
+
+
+def test_record_this_check_refuses_where_the_aircraft_data_changed_since_the_check_shown(desk: dict[str, Any]) -> None:
+    # trial 12, finding 6: "Record this check" checked the loading again with the aircraft file as it was
+    # then and recorded that, without a word, though the file had changed since the check the pilot read
+    # (other figures recorded than shown); the result page's button now names the data of the check shown
+    import re
+
+    client = _client(desk, "pia")
+    form = client.get("/aircraft/DEMO-4T")
+    shown = client.post("/aircraft/DEMO-4T/check", data={**WITHIN, "action": "check", "csrf": csrf_of(form.text)})
+    data = re.search(r'name="data" value="([0-9a-f]+)"', shown.text)
+    assert data is not None
+    aircraft = next(p for p in desk["fleet"].rglob("*.toml") if 'registration = "DEMO-4T"' in p.read_text())
+    aircraft.write_text(aircraft.read_text().replace("arm = 37.2", "arm = 37.4", 1))  # a mechanic's write
+    posted = {**WITHIN, "data": data.group(1), "action": "check", "csrf": csrf_of(form.text)}
+    refused = client.post("/aircraft/DEMO-4T/record", data=posted, follow_redirects=False)
+    assert refused.status_code == 422 and "the aircraft data changed since the check shown" in refused.text
+    assert _records(desk) == []
+    unnamed = client.post("/aircraft/DEMO-4T/record", data={k: v for k, v in posted.items() if k != "data"})
+    assert unnamed.status_code == 422 and "does not say which aircraft data" in unnamed.text and _records(desk) == []

@@ -134,9 +134,18 @@ def _post_check(
     route: str = "check",
 ) -> Any:
     form = client.get(f"/aircraft/{registration}")
+    extra: dict[str, str] = {}
+    if route == "record" and "data" not in values:  # as the result page's button: the data of the check shown
+        shown = client.post(
+            f"/aircraft/{registration}/check",
+            data={**values, "action": "check", "csrf": csrf_of(form.text)},
+            follow_redirects=False,
+        )
+        found = re.search(r'name="data" value="([0-9a-f]+)"', shown.text)
+        extra = {"data": found.group(1)} if found else {}
     return client.post(
         f"/aircraft/{registration}/{route}",
-        data={**values, "action": action, "csrf": csrf_of(form.text)},
+        data={**values, **extra, "action": action, "csrf": csrf_of(form.text)},
         follow_redirects=False,
     )
 

@@ -496,7 +496,9 @@ def leg_count(form: FormValues) -> int:
     return int(raw)
 
 
-def _overrides(form: FormValues, aircraft: Aircraft, legs: int | None = None) -> tuple[dict[str, str], Overrides]:
+def _overrides(
+    form: FormValues, aircraft: Aircraft, legs: int | None = None, also: tuple[str, ...] = ()
+) -> tuple[dict[str, str], Overrides]:
     """The form's values as typed (to show again) and as the library's overrides (empty fields left out).
 
     ``names.STATION`` is the person at a station (the loading file's ``[names]``). Leg ``n`` (2 or
@@ -532,7 +534,7 @@ def _overrides(form: FormValues, aircraft: Aircraft, legs: int | None = None) ->
     category = read("category")
     read("station")
     read("stop")
-    refuse_unknown(form, typed)
+    refuse_unknown(form, [*typed, *also])  # ``also``: the route's own fields besides the loading's
     chosen = category if "category" in form else None  # sent empty (no such choice on the form): refused as given
     return typed, Overrides(load=load, names=names, fuel=fuel, burn=burn, category=chosen, legs=further)
 
@@ -875,14 +877,14 @@ def create_app(
         return _form_page(request, aircraft, {}, [])
 
     async def _checked(
-        request: Request, registration: str, *, fuel_to_plan: bool = False
+        request: Request, registration: str, *, fuel_to_plan: bool = False, also: tuple[str, ...] = ()
     ) -> tuple[Account, Aircraft, dict[str, str], CheckInputs | None, list[ProblemView]]:
         """The form read and checked: (account, aircraft, typed values, inputs or None, the library's problems);
-        ``fuel_to_plan`` for the most fuel (:func:`_inputs`)."""
+        ``fuel_to_plan`` for the most fuel (:func:`_inputs`); ``also``, the route's own fields."""
         account = _need(request, "pilot")
         form = await _form(request)
         aircraft, _ = desk.aircraft_path(registration)
-        typed, overrides = _overrides(form, aircraft)
+        typed, overrides = _overrides(form, aircraft, also=also)
         try:
             inputs = _inputs(desk, registration, overrides, fuel_to_plan=fuel_to_plan)
         except (LoadcheckError, ValidationError) as error:
@@ -986,9 +988,21 @@ def create_app(
     async def record(request: Request, registration: str) -> Response:
         from ..checklog import CheckLog, log_check
 
-        account, aircraft, typed, inputs, problems = await _checked(request, registration)
+        account, aircraft, typed, inputs, problems = await _checked(request, registration, also=("data",))
         if inputs is None:
             return _form_again(request, aircraft, typed, problems)
+        shown = (await request.form()).get("data")
+        if shown != inputs.aircraft.fingerprint:  # the record must be of the check the pilot read
+            why = (
+                "the form does not say which aircraft data the check shown was made with"
+                if not shown
+                else f"the aircraft data changed since the check shown (it was made with data {shown}, the "
+                f"aircraft file now holds {inputs.aircraft.fingerprint})"
+            )
+            problem = Problem(
+                "data", f"nothing was recorded: {why}; check the loading again and read it before recording"
+            )
+            return _form_again(request, aircraft, typed, desk.problems(InputError(problem)))
         result = _checked_result(inputs)
         with CheckLog(desk.db) as log:
             record_id = log_check(log, inputs, result, source="web desk", version=__version__, pilot=account.name)
