@@ -133,3 +133,26 @@ def test_regression_a_field_posted_twice_was_read_with_its_last_value(desk: dict
     assert response.status_code == 422
     assert "gives the field &#39;load.front&#39; more than once" in response.text
     assert "WITHIN LIMITS" not in response.text and _records(desk) == []
+
+
+def test_the_check_form_takes_its_category_as_sent_and_refuses_a_button_it_has_not(desk) -> None:
+    # trial 12, finding 5: a crafted form's category 'utility ' was trimmed and checked as utility (the
+    # command line and the API refuse it); an unknown action word, or none, was taken for "check"; and a
+    # form with no category field was checked in the default category, then its "Record this check" sent
+    # category="" and was refused
+    from .web_helpers import WITHIN, _client, _records, csrf_of
+
+    client = _client(desk, "pia")
+    token = csrf_of(client.get("/aircraft/DEMO-4T").text)
+    trimmed = client.post(
+        "/aircraft/DEMO-4T/check", data={**WITHIN, "category": "utility ", "action": "check", "csrf": token}
+    )
+    assert trimmed.status_code == 422 and "unknown category &#39;utility &#39;" in trimmed.text  # as the library says
+    for action in ("bogus", "CHECK", ""):
+        refused = client.post("/aircraft/DEMO-4T/check", data={**WITHIN, "action": action, "csrf": token})
+        assert refused.status_code == 422, action
+    without = client.post("/aircraft/DEMO-4T/check", data={**WITHIN, "action": "check", "csrf": token})
+    assert (
+        without.status_code == 200 and 'name="category"' not in without.text.split("/record", 1)[1].split("</form>")[0]
+    )
+    assert _records(desk) == []

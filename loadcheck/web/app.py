@@ -531,7 +531,9 @@ def _overrides(
         label = read(f"leg.{number}.label")
         leg_load, leg_names, added, leg_burn = tables(f"leg.{number}.")
         further[number] = LegTables(label=label or None, load=leg_load, names=leg_names, add_fuel=added, burn=leg_burn)
-    category = read("category")
+    category = _text(form, "category")  # as sent, never trimmed: 'utility ' is no category
+    if "category" in form:  # a form without the field is sent on without it (the default category), not as ""
+        typed["category"] = category
     read("station")
     read("stop")
     refuse_unknown(form, [*typed, *also])  # ``also``: the route's own fields besides the loading's
@@ -918,7 +920,14 @@ def create_app(
 
     @app.post("/aircraft/{registration}/check", response_class=HTMLResponse)
     async def check(request: Request, registration: str) -> Response:
-        action = _text(await request.form(), "action") or "check"
+        _need(request, "pilot")
+        action = _text(await _form(request), "action")  # after the session and its form token are checked
+        if action not in ("check", "fuel", "payload", "stop", "add_leg") and not re.fullmatch(
+            r"remove_leg:[0-9]+", action
+        ):  # a button this form does not have: never taken for another
+            raise HTTPException(
+                422, f"action: the form has no button {action[:40]!r}" if action else "action: no button was pressed"
+            )
         if action == "add_leg" or action.startswith("remove_leg:"):
             _need(request, "pilot")
             form = await _form(request)
