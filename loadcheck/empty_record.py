@@ -421,7 +421,7 @@ def make_current(
 
 def write_record_sheet(
     path: str | Path, proposal: Proposal, when: dt.datetime | None = None
-) -> tuple[Path, str | None]:
+) -> tuple[Path, list[CategoryExtremes]]:
     """Write the printable record to sign (HTML), with the extreme-loading checks of the new record.
 
     Returns

@@ -21,6 +21,7 @@ from ..words import burn_path_sentence, given_fuel_words, sheet_verdict, trip_le
 
 if TYPE_CHECKING:
     from ..aircraft import Aircraft
+    from ..empty_record import CategoryExtremes
     from ..loading import ResolvedLoading, ResolvedTrip
 
 __all__ = ["load_sheet_html", "mechanic_sheet_html", "trip_sheet_html"]
@@ -416,7 +417,7 @@ def _case_words(case: Any) -> str:
     return "within limits" if case.complete else "NOT ESTABLISHED (search cut)"
 
 
-def _extremes_html(extremes: list[Any] | None, m: str, a: str) -> list[str]:
+def _extremes_html(extremes: list[CategoryExtremes] | None, m: str, a: str) -> list[str]:
     """The record's extreme-loading section: a verdict naming the categories not all within
     limits, one summary row per category and side, and each category's loads and limit findings."""
     if not extremes:
@@ -498,7 +499,7 @@ def mechanic_sheet_html(
     result: Any,
     units: Any,
     *,
-    extremes: Any = None,
+    extremes: list[CategoryExtremes] | None = None,
     source: str | None = None,
     when: dt.datetime | None = None,
     comparison: list[Any] | None = None,
