@@ -54,7 +54,9 @@ __all__ = [
     "OverrideNeededError",
     "Proposal",
     "history",
+    "categories_words",
     "make_current",
+    "not_computed",
     "propose",
     "write_record_sheet",
 ]
@@ -144,6 +146,22 @@ class CategoryExtremes(Result):
     complete: bool
     checks: ExtremesResult | None = None
     not_computed: str | None = None
+
+
+def not_computed(entries: list[CategoryExtremes]) -> dict[str, list[str]]:
+    """Why extreme checks could not be made, each reason with the categories it stopped, in order."""
+    found: dict[str, list[str]] = {}
+    for entry in entries:
+        if entry.not_computed is not None:
+            found.setdefault(entry.not_computed, []).append(entry.category)
+    return found
+
+
+def categories_words(names: list[str]) -> str:
+    """``the utility category`` or ``the normal and utility categories``."""
+    if len(names) == 1:
+        return f"the {names[0]} category"
+    return f"the {', '.join(names[:-1])} and {names[-1]} categories"
 
 
 class Proposal:

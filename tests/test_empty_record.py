@@ -65,7 +65,11 @@ def test_a_mistyped_reading_that_leaves_no_useful_load_is_never_written(tmp_path
     shown = _weigh(path, bad, "--sheet", str(tmp_path / "record.html"))
     assert shown.exit_code == 0 and "NEVER WRITTEN" in shown.output
     html = (tmp_path / "record.html").read_text()
-    assert "NEVER WRITTEN" in html and "Not computed: the new record does not make a valid aircraft" in html
+    assert "NEVER WRITTEN" in html
+    # the checks of every category need a valid aircraft; each category is named
+    assert "Not computed in the normal and utility categories: the new record does not make a valid aircraft" in html
+    assert "NOT all within limits (or not established) in the normal and utility categories" in html
+    assert "note: the extreme checks of the normal and utility categories could not be made" in shown.stderr
     for options in (["--write", "--yes"], ["--write", "--yes", "--force"]):
         result = _weigh(path, bad, *options)
         assert result.exit_code == 2, result.output
@@ -347,7 +351,7 @@ def test_the_weighing_record_shows_the_lateral_cg(tmp_path):
     table = table[: table.index("</table>")]
     for case in cases:
         assert f"Most {case.side}" in table
-    assert "Left: weight (lb)" in html and "Right: weight (lb)" in html
+    assert "normal, left (lb at in)" in html and "normal, right (lb at in)" in html
 
 
 # -- the extremes of every category with the new record (trial 12, finding 3) ---------------------
@@ -530,7 +534,11 @@ def test_regression_the_record_sheet_checked_the_first_category_only(tmp_path):
     }
     assert rows == expected  # every category, each row named by its category
     assert "Utility category, most forward: LIMIT ramp CG 28.5 cm is forward" in html
-    assert "<h3>Normal category</h3>" in html and "<h3>Utility category</h3>" in html
+    items = html[html.index("class='extreme-items'") :]
+    heads = re.findall(r"<th>([^<]*)</th>", items[: items.index("</tr>")])
+    assert heads == ["Item"] + [
+        f"{c}, {side} (kg at cm)" for c in ("normal", "utility") for side in ("forward", "rearward")
+    ]
 
 
 def test_a_record_sheet_with_every_category_within_limits_says_so_for_each(tmp_path):

@@ -77,20 +77,21 @@ def _new_empty_weight(
     proposal = propose(aircraft, source, kind)
     err = _console(stderr=True)
     if sheet is not None:
+        from ..empty_record import categories_words, not_computed
+
         written, checks = write_record_sheet(sheet, proposal)
-        for entry in checks:
-            if entry.not_computed:
-                err.print(
-                    f"note: the {entry.category} category's extreme checks could not be made: {entry.not_computed}",
-                    markup=False,
-                    soft_wrap=True,
-                )
+        for reason, names in not_computed(checks).items():
+            err.print(
+                f"note: the extreme checks of {categories_words(names)} could not be made: {reason}",
+                markup=False,
+                soft_wrap=True,
+            )
         err.print(f"record sheet written (to print and sign): {written}", markup=False, soft_wrap=True)
         failed = proposal.extremes_not_ok
         if failed:  # the sheet says so: never only there
             err.print(
                 "warning: the record sheet's extreme checks with the new record are NOT all within limits "
-                f"(or not established) in the {', '.join(failed)} {'category' if len(failed) == 1 else 'categories'}; "
+                f"(or not established) in {categories_words(failed)}; "
                 f"see loadcheck extremes {aircraft} --category {failed[0]}"
                 + ("" if len(failed) == 1 else " (and each other one)"),
                 markup=False,

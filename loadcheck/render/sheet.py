@@ -392,6 +392,8 @@ body.record { font-size: 9pt; margin: 1em; }
 body.record h1 { font-size: 12pt; }
 body.record h2 { font-size: 10pt; margin: .6em 0 .2em 0; }
 body.record h3 { font-size: 9pt; margin: .3em 0 .1em 0; }
+.extreme-items td { white-space: nowrap; }
+body.record p { margin: .3em 0; }
 body.record th, body.record td { padding: .05em .4em; }
 .cols { display: flex; gap: 1.5em; flex-wrap: wrap; align-items: flex-start; }
 .sign { margin-top: .6em; }
@@ -420,17 +422,20 @@ def _case_words(case: Any) -> str:
 def _extremes_html(extremes: list[CategoryExtremes] | None, m: str, a: str) -> list[str]:
     """The record's extreme-loading section: a verdict naming the categories not all within
     limits, one summary row per category and side, and each category's loads and limit findings."""
+    from ..empty_record import categories_words, not_computed
+
     if not extremes:
         return ["<p class='limit' id='extremes-verdict'>Not computed: no category to check.</p>"]
     failed = [entry.category for entry in extremes if not entry.ok]
     every = ", ".join(entry.category for entry in extremes)
     verdict = (
-        f"NOT all within limits (or not established) in the {', '.join(failed)} "
-        f"{'category' if len(failed) == 1 else 'categories'}; checked: {every}"
+        f"NOT all within limits (or not established) in {categories_words(failed)}; checked: {every}"
         if failed
         else f"Within limits in every category of the aircraft: {every}"
     )
     parts = [f"<p class='limit' id='extremes-verdict'>{escape(verdict)}.</p>"]
+    for reason, names in not_computed(extremes).items():
+        parts.append(f"<p class='limit'>Not computed in {escape(categories_words(names))}: {escape(reason)}.</p>")
 
     def n(value: float | None, unit: str) -> str:
         return "" if value is None else fmt(value, unit, with_unit=False)
@@ -438,7 +443,6 @@ def _extremes_html(extremes: list[CategoryExtremes] | None, m: str, a: str) -> l
     summary = []
     for entry in extremes:
         if entry.checks is None:
-            summary.append([entry.category, "", "", "", "", f"NOT COMPUTED: {entry.not_computed}"])
             continue
         for case in entry.checks.cases:  # forward and rearward, and left and right where a lateral envelope limits
             ramp = case.check.condition("ramp")
@@ -453,6 +457,8 @@ def _extremes_html(extremes: list[CategoryExtremes] | None, m: str, a: str) -> l
                     _case_words(case),
                 ]
             )
+    if not summary:
+        return parts
     parts.append(
         _table(
             ["Category", "Loading", f"Weight ({m})", f"CG ({a})", f"Limit at its weight ({a})", "Result"],
@@ -460,38 +466,34 @@ def _extremes_html(extremes: list[CategoryExtremes] | None, m: str, a: str) -> l
             "extremes",
         )
     )
-    tables = []
-    for entry in extremes:
-        if entry.checks is None:
-            continue
-        cases = entry.checks.cases
-        states = list(dict.fromkeys(str(case.fuel_states) for case in cases if case.fuel_states))
-        names = list(dict.fromkeys(i.name for case in cases for i in case.check.items))
-        by_side = [{i.name: i for i in case.check.items} for case in cases]
-        rows = []
-        for name in names:
-            row = [name]
-            for side in by_side:
-                item = side.get(name)
-                row += ["", ""] if item is None else [n(item.weight, m), n(item.arm, a)]
-            rows.append(row)
-        heads = ["Item"]
-        for case in cases:
-            heads += [f"{case.side.capitalize()}: weight ({m})", f"arm ({a})"]
-        block = [f"<div><h3>{escape(entry.category.capitalize())} category</h3>"]
-        if states:
-            block.append(f"<p>Fuel states covered: {escape('; '.join(states))}.</p>")
-        block.append(_table(heads, rows))
-        for case in cases:
-            for finding in case.check.findings:
-                if finding.severity == "limit" and finding.condition in ("ramp", "takeoff", None):
-                    block.append(
-                        f"<p class='limit'>{escape(entry.category.capitalize())} category, most {case.side}: "
-                        f"LIMIT {escape(finding.message)}</p>"
-                    )
-        tables.append("\n".join(block) + "</div>")
-    if tables:
-        parts.append("<div class='cols'>" + "\n".join(tables) + "</div>")
+    shown = [(entry.category, case) for entry in extremes if entry.checks is not None for case in entry.checks.cases]
+    if not shown:
+        return parts
+    states: dict[str, list[str]] = {}
+    for category, case in shown:
+        if case.fuel_states:
+            states.setdefault(str(case.fuel_states), []).append(f"{category} {case.side}")
+    if states:
+        covered = "; ".join(f"{state} ({', '.join(where)})" for state, where in states.items())
+        parts.append(f"<p>Fuel states covered: {escape(covered)}.</p>")
+    names = list(dict.fromkeys(i.name for _, case in shown for i in case.check.items))
+    by_case = [{i.name: i for i in case.check.items} for _, case in shown]
+    rows = []
+    for name in names:
+        row = [name]
+        for items in by_case:
+            item = items.get(name)
+            row.append("" if item is None else f"{n(item.weight, m)} at {n(item.arm, a)}")
+        rows.append(row)
+    heads = ["Item"] + [f"{category}, {case.side} ({m} at {a})" for category, case in shown]
+    parts.append(_table(heads, rows, "extreme-items"))
+    for category, case in shown:
+        for finding in case.check.findings:
+            if finding.severity == "limit" and finding.condition in ("ramp", "takeoff", None):
+                parts.append(
+                    f"<p class='limit'>{escape(category.capitalize())} category, most {case.side}: "
+                    f"LIMIT {escape(finding.message)}</p>"
+                )
     return parts
 
 
