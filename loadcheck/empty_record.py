@@ -31,7 +31,7 @@ from collections.abc import Callable
 from dataclasses import dataclass, field
 from functools import cached_property
 from pathlib import Path
-from typing import Any, Literal
+from typing import TYPE_CHECKING, Any, Literal
 
 from pydantic import ValidationError
 
@@ -40,8 +40,12 @@ from .caution import MECHANIC_CAUTION
 from .errors import InputError, LoadcheckError, Problem
 from .results import Result
 
+if TYPE_CHECKING:
+    from .extremes import ExtremesResult
+
 __all__ = [
     "HISTORY_INPUTS_BYTES",
+    "CategoryExtremes",
     "ComparisonRow",
     "NOTE_CHARS",
     "HistoryListing",
@@ -50,7 +54,9 @@ __all__ = [
     "OverrideNeededError",
     "Proposal",
     "history",
+    "categories_words",
     "make_current",
+    "not_computed",
     "propose",
     "write_record_sheet",
 ]
@@ -123,6 +129,39 @@ class ComparisonRow(Result):
     unit: str
     current: float | str | None
     new: float | str | None
+
+
+@dataclass(frozen=True, kw_only=True, slots=True)
+class CategoryExtremes(Result):
+    """The extreme-loading checks (AC 43.13-1B 10-17) of one category with the new record.
+
+    ``checks`` is :func:`loadcheck.extremes.extremes` of the category, or None with
+    ``not_computed`` saying why it could not be made. ``ok`` is the checks' own ``ok`` (every
+    extreme within limits and established); ``complete`` is True where every extreme's search
+    was complete. Checks not made are neither (fail closed).
+    """
+
+    category: str
+    ok: bool
+    complete: bool
+    checks: ExtremesResult | None = None
+    not_computed: str | None = None
+
+
+def not_computed(entries: list[CategoryExtremes]) -> dict[str, list[str]]:
+    """Why extreme checks could not be made, each reason with the categories it stopped, in order."""
+    found: dict[str, list[str]] = {}
+    for entry in entries:
+        if entry.not_computed is not None:
+            found.setdefault(entry.not_computed, []).append(entry.category)
+    return found
+
+
+def categories_words(names: list[str]) -> str:
+    """``the utility category`` or ``the normal and utility categories``."""
+    if len(names) == 1:
+        return f"the {names[0]} category"
+    return f"the {', '.join(names[:-1])} and {names[-1]} categories"
 
 
 class Proposal:
@@ -209,24 +248,50 @@ class Proposal:
         return rows
 
     @cached_property
-    def extremes(self) -> tuple[Any, str | None]:
-        """The extreme-loading checks (AC 43.13-1B 10-17) with the new record, or None and why not."""
+    def extremes(self) -> list[CategoryExtremes]:
+        """The extreme-loading checks (AC 43.13-1B 10-17) with the new record, one per category
+        of the aircraft, in the file's order: each is :func:`loadcheck.extremes.extremes` of that
+        category, or why it could not be made."""
         from .extremes import extremes
 
         result = self.result
         try:
-            return extremes(self.aircraft.with_empty(result.new.weight, result.new.arm, result.new.lateral_arm)), None
-        except LoadcheckError as error:
-            return None, "; ".join(p.describe() for p in error.problems)
+            aircraft = self.aircraft.with_empty(result.new.weight, result.new.arm, result.new.lateral_arm)
         except ValidationError as error:  # the new record does not make a valid aircraft
             from .files import problems_from_validation
 
             reasons = "; ".join(p.describe() for p in problems_from_validation(error))
-            return None, f"the new record does not make a valid aircraft ({reasons})"
+            why = f"the new record does not make a valid aircraft ({reasons})"
+            return [
+                CategoryExtremes(category=name, ok=False, complete=False, not_computed=why)
+                for name in self.aircraft.categories
+            ]
+        found = []
+        for name in aircraft.categories:
+            try:
+                checks = extremes(aircraft, category=name)
+            except LoadcheckError as error:
+                why = "; ".join(p.describe() for p in error.problems)
+                found.append(CategoryExtremes(category=name, ok=False, complete=False, not_computed=why))
+                continue
+            complete = all(case.complete for case in checks.cases)
+            found.append(CategoryExtremes(category=name, ok=checks.ok, complete=complete, checks=checks))
+        return found
+
+    @property
+    def extremes_not_ok(self) -> list[str]:
+        """The categories whose extreme checks with the new record are not all within limits,
+        or not established, or could not be made."""
+        return [entry.category for entry in self.extremes if not entry.ok]
 
     def to_dict(self) -> dict[str, Any]:
-        """The result as JSON data, with the comparison."""
-        return {**self.result.to_dict(), "kind": self.kind, "comparison": [r.to_dict() for r in self.comparison()]}
+        """The result as JSON data, with the comparison and the extreme checks of each category."""
+        return {
+            **self.result.to_dict(),
+            "kind": self.kind,
+            "comparison": [r.to_dict() for r in self.comparison()],
+            "extremes": [entry.to_dict() for entry in self.extremes],
+        }
 
 
 def propose(
@@ -374,13 +439,14 @@ def make_current(
 
 def write_record_sheet(
     path: str | Path, proposal: Proposal, when: dt.datetime | None = None
-) -> tuple[Path, str | None]:
+) -> tuple[Path, list[CategoryExtremes]]:
     """Write the printable record to sign (HTML), with the extreme-loading checks of the new record.
 
     Returns
     -------
-    (Path, str or None)
-        The file written, and why the extreme checks were left out, where they were.
+    (Path, list of CategoryExtremes)
+        The file written, and the extreme checks it shows, one per category
+        (:attr:`Proposal.extremes`).
 
     Raises
     ------
@@ -397,7 +463,7 @@ def write_record_sheet(
         raise InputError(
             Problem("sheet", "the record is an HTML file", value=str(path), expected="a name ending in .html")
         )
-    checks, left_out = proposal.extremes
+    checks = proposal.extremes
     write_atomic(
         path,
         mechanic_sheet_html(
@@ -407,10 +473,9 @@ def write_record_sheet(
             source=str(proposal.source_path),
             when=when,
             comparison=proposal.comparison(),
-            left_out=left_out,
         ),
     )
-    return path, left_out
+    return path, checks
 
 
 @dataclass(frozen=True, kw_only=True, slots=True)

@@ -65,7 +65,11 @@ def test_a_mistyped_reading_that_leaves_no_useful_load_is_never_written(tmp_path
     shown = _weigh(path, bad, "--sheet", str(tmp_path / "record.html"))
     assert shown.exit_code == 0 and "NEVER WRITTEN" in shown.output
     html = (tmp_path / "record.html").read_text()
-    assert "NEVER WRITTEN" in html and "Not computed: the new record does not make a valid aircraft" in html
+    assert "NEVER WRITTEN" in html
+    # the checks of every category need a valid aircraft; each category is named
+    assert "Not computed in the normal and utility categories: the new record does not make a valid aircraft" in html
+    assert "NOT all within limits (or not established) in the normal and utility categories" in html
+    assert "note: the extreme checks of the normal and utility categories could not be made" in shown.stderr
     for options in (["--write", "--yes"], ["--write", "--yes", "--force"]):
         result = _weigh(path, bad, *options)
         assert result.exit_code == 2, result.output
@@ -347,7 +351,211 @@ def test_the_weighing_record_shows_the_lateral_cg(tmp_path):
     table = table[: table.index("</table>")]
     for case in cases:
         assert f"Most {case.side}" in table
-    assert "Left: weight (lb)" in html and "Right: weight (lb)" in html
+    assert "normal, left (lb at in)" in html and "normal, right (lb at in)" in html
+
+
+# -- the extremes of every category with the new record (trial 12, finding 3) ---------------------
+
+HERON_U = """\
+format = 1
+name = "Heron utility two-seater (invented for trial 12)"
+registration = "TX-HR4"
+meto_power_hp = 120
+standard_occupant_weight = "80 kg"
+
+[units]
+mass = "kg"
+arm = "cm"
+fuel_volume = "l"
+
+[empty]
+weight = 520.0
+arm = 30.0
+lateral_arm = 0.5
+date = 2026-05-01
+cg_range = [20.0, 40.0]
+
+[limits]
+max_takeoff_weight = 800
+max_landing_weight = 780
+
+[[station]]
+id = "p1"
+label = "Left seat"
+kind = "seat"
+arm = 20.0
+lateral_arm = -25.0
+max_weight = 120
+controls = true
+
+[[station]]
+id = "p2"
+label = "Right seat"
+kind = "seat"
+arm = 20.0
+lateral_arm = 25.0
+max_weight = 120
+
+[[station]]
+id = "bag"
+label = "Baggage shelf"
+kind = "baggage"
+arm = 110.0
+lateral_arm = 10.0
+max_weight = 40
+
+[[station]]
+id = "pod"
+label = "Belly pod"
+kind = "cargo"
+arm = 60.0
+lateral_arm = 0.0
+max_weight = 60
+
+[[station_group]]
+id = "aftload"
+label = "Shelf and pod"
+stations = ["bag", "pod"]
+max_weight = 70
+
+[[tank]]
+id = "wing"
+label = "Wing tank"
+usable = 90
+fuel = "mogas"
+lateral_arm = -5.0
+arm_table = [[0, 40.0], [45, 45.0], [90, 38.0]]
+
+[[envelope]]
+category = "normal"
+label = "longitudinal"
+axes = ["arm", "weight"]
+points = [[18.0, 550], [26.0, 700], [28.0, 800], [44.0, 800], [48.0, 650], [48.0, 550]]
+
+
+[[envelope]]
+category = "utility"
+axes = ["arm", "weight"]
+points = [[22.0, 550], [29.0, 720], [40.0, 720], [40.0, 550]]
+
+[[equipment]]
+id = "radio"
+label = "Radio"
+weight = 2.5
+arm = 0.0
+lateral_arm = 0.0
+"""
+"""An outside trial's invented side-by-side two-seater (kg, cm, L; trial 12's heron_u.toml): its
+utility category's forward edge runs from 22 cm at 550 kg to 29 cm at its top of 720 kg."""
+
+HERON_U_CHANGES = """\
+format = 1
+aircraft = "heron_u.toml"
+date = 2026-11-30
+description = "placard added"
+[[change]]
+action = "install"
+item = "placard"
+label = "Placard"
+weight = 0.1
+arm = 30.0
+lateral_arm = 0.0
+"""
+
+
+def heron_u(folder: Path) -> tuple[Path, Path]:
+    """The trial's aircraft and its changes file (a 0.1 kg placard at 30 cm), written in ``folder``."""
+    (folder / "heron_u.toml").write_text(HERON_U)
+    (folder / "alt_u.toml").write_text(HERON_U_CHANGES)
+    return folder / "heron_u.toml", folder / "alt_u.toml"
+
+
+def tandem_all_within(folder: Path) -> tuple[Path, Path]:
+    """The sample tandem trainer with each seat's maximum at the standard occupant (77 kg, so that
+    whole occupants are every load a seat permits) and a roomier aerobatic envelope, so that the
+    extremes of both its categories are within limits; and a changes file (a 0.2 kg placard)."""
+    text = sample("tandem2/aircraft.toml").read_text()
+    assert text.count("max_weight = 110") == 2 and "[335, 630], [350, 450]" in text
+    text = text.replace("max_weight = 110", "max_weight = 77").replace(
+        "[335, 630], [350, 450]", "[440, 630], [450, 450]"
+    )
+    (folder / "aircraft.toml").write_text(text)
+    (folder / "changes.toml").write_text(
+        'format = 1\ndate = 2026-11-30\ndescription = "placard"\n'
+        '[[change]]\naction = "install"\nitem = "placard"\nweight = 0.2\narm = 300.0\n'
+    )
+    return folder / "aircraft.toml", folder / "changes.toml"
+
+
+def extremes_rows(html: str) -> list[list[str]]:
+    """The cells of the record sheet's extremes summary table, a list a row (head row left out)."""
+    table = html[html.index("class='extremes'") :]
+    table = table[: table.index("</table>")]
+    return [re.findall(r"<td[^>]*>([^<]*)</td>", row) for row in table.split("<tr>")[2:]]
+
+
+def test_regression_the_record_sheet_checked_the_first_category_only(tmp_path):
+    # trial 12, finding 3: the record to sign said "Most forward ... within limits" for the normal
+    # category alone, unnamed, while `loadcheck extremes -c utility` found the utility forward extreme
+    # out of limits. Hand-worked (FAA-H-8083-1B chapter 2): the new empty record is 520.1 kg at
+    # 30.0 cm (15,603 kg cm: 15,600 + a 0.1 kg placard at 30 cm); two 80 kg occupants at 20 cm
+    # (3,200) and 39.9 kg of fuel (55.5 L at 0.71892 kg/L, 6.0 lb/US gal) at its table's arm
+    # 45 - 7 x 10.5 / 45 = 43.367 cm (1,730.3) make 720.0 kg at 20,533.3 / 720 = 28.52 cm, forward
+    # of the utility limit there (29.0 cm at 720 kg) by 0.48 cm. The weights permit it (utility top
+    # 720 kg; seats at most 120 kg).
+    from loadcheck.extremes import extremes
+
+    aircraft, changes = heron_u(tmp_path)
+    proposal = propose(aircraft, changes, "alteration")
+    assert [e.category for e in proposal.extremes] == ["normal", "utility"]
+    utility = proposal.extremes[1]
+    assert not utility.ok and utility.complete and utility.checks is not None
+    forward = utility.checks.forward
+    ramp = forward.check.condition("ramp")
+    assert not forward.ok and ramp.weight == pytest.approx(720.0, abs=0.05)
+    assert ramp.arm == pytest.approx(28.52, abs=0.01) and forward.limit_arm == pytest.approx(29.0, abs=0.01)
+    # each category's checks are the one extremes job's, with the new record
+    record = proposal.result.new
+    assert record.weight == pytest.approx(520.1) and record.arm == pytest.approx(30.0)
+    new = load_aircraft(aircraft).with_empty(record.weight, record.arm, record.lateral_arm)
+    for entry in proposal.extremes:
+        assert entry.checks is not None and entry.checks.to_dict() == extremes(new, category=entry.category).to_dict()
+    assert proposal.extremes_not_ok == ["utility"]
+
+    html = record_sheet(tmp_path, "alter", aircraft, changes)
+    verdict = cell(html, "extremes-verdict")
+    assert "NOT all within limits" in verdict and "utility category" in verdict and "normal, utility" in verdict
+    rows = {(r[0], r[1]): r[-1] for r in extremes_rows(html)}
+    assert rows[("utility", "Most forward")] == "NOT within limits"  # never "within limits" beside it
+    expected = {
+        (e.category, f"Most {c.side}"): ("within limits" if c.ok else "NOT within limits")
+        for e in proposal.extremes
+        for c in e.checks.cases  # type: ignore[union-attr]
+    }
+    assert rows == expected  # every category, each row named by its category
+    assert "Utility category, most forward: LIMIT ramp CG 28.5 cm is forward" in html
+    items = html[html.index("class='extreme-items'") :]
+    heads = re.findall(r"<th>([^<]*)</th>", items[: items.index("</tr>")])
+    assert heads == ["Item"] + [
+        f"{c}, {side} (kg at cm)" for c in ("normal", "utility") for side in ("forward", "rearward")
+    ]
+
+
+def test_a_record_sheet_with_every_category_within_limits_says_so_for_each(tmp_path):
+    # the verdict of each category is that category's extremes (loadcheck.extremes.extremes), common practice
+    aircraft, changes = tandem_all_within(tmp_path)
+    proposal = propose(aircraft, changes, "alteration")
+    assert [e.category for e in proposal.extremes] == ["normal", "aerobatic"]
+    assert all(e.ok and e.complete for e in proposal.extremes) and not proposal.extremes_not_ok
+    html = record_sheet(tmp_path, "alter", aircraft, changes)
+    assert cell(html, "extremes-verdict") == "Within limits in every category of the aircraft: normal, aerobatic."
+    rows = extremes_rows(html)
+    assert [(r[0], r[1], r[-1]) for r in rows] == [
+        (category, f"Most {side}", "within limits")
+        for category in ("normal", "aerobatic")
+        for side in ("forward", "rearward")
+    ]
+    assert "NOT" not in html[html.index("Extreme loadings") : html.index("class='caution'")]
 
 
 def _printer() -> str | None:

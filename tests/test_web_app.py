@@ -432,15 +432,67 @@ def test_only_a_pilot_checks_and_only_a_mechanic_changes_aircraft_data(reading_d
 # -- the mechanic --------------------------------------------------------------------------------
 
 
-def _propose(client: TestClient, text: str, kind: str = "weighing", upload: bool = False) -> Any:
-    page = client.get("/mechanic/DEMO-4T").text
+def _propose(
+    client: TestClient, text: str, kind: str = "weighing", upload: bool = False, registration: str = "DEMO-4T"
+) -> Any:
+    page = client.get(f"/mechanic/{registration}").text
     if upload:
         return client.post(
-            "/mechanic/DEMO-4T/propose",
+            f"/mechanic/{registration}/propose",
             data={"kind": kind, "csrf": csrf_of(page)},
             files={"upload": ("readings.toml", text.encode(), "application/toml")},
         )
-    return client.post("/mechanic/DEMO-4T/propose", data={"kind": kind, "text": text, "csrf": csrf_of(page)})
+    return client.post(f"/mechanic/{registration}/propose", data={"kind": kind, "text": text, "csrf": csrf_of(page)})
+
+
+def _extremes_items(page: str) -> dict[str, list[str]]:
+    """The proposal page's extreme loadings: each category's list items, as text."""
+    found = {}
+    for category, items in re.findall(r'<ul class="extremes" data-category="([^"]+)">(.*?)</ul>', page, re.S):
+        found[category] = [re.sub(r"<[^>]+>", "", item).strip() for item in re.findall(r"<li>(.*?)</li>", items, re.S)]
+    return found
+
+
+def test_regression_the_mechanic_page_showed_the_first_categorys_extremes_only(desk: dict[str, Any]) -> None:
+    # trial 12, finding 3: the proposal page said "Most forward loading ...: within limits" for the
+    # normal category alone, unnamed; the trial's aircraft has its utility forward extreme out of
+    # limits (720.0 kg at 28.52 cm against 29.0 cm, hand-worked in tests/test_empty_record.py)
+    from .test_empty_record import HERON_U, HERON_U_CHANGES
+
+    (desk["fleet"] / "heron_u.toml").write_text(HERON_U)
+    shown = _propose(_client(desk, "mo"), HERON_U_CHANGES, kind="alteration", registration="TX-HR4")
+    assert shown.status_code == 200, shown.text
+    page = shown.text
+    verdict = re.sub(r"<[^>]+>", "", page[page.index('id="extremes-verdict">') :].split("</p>")[0])
+    assert "Not all within limits (or not established) in the utility category" in verdict
+    assert "checked: normal, utility" in verdict
+    items = _extremes_items(page)
+    assert list(items) == ["normal", "utility"]
+    forward = items["utility"][0]
+    assert forward.startswith("Utility category, most forward loading: 720.0 kg at CG 28.5 cm:")
+    assert "not within limits" in forward and "Limit: ramp CG 28.5 cm is forward" in forward
+    assert all(item.startswith("Normal category, most ") for item in items["normal"])
+
+
+def test_the_mechanic_page_with_every_category_within_limits_says_so_for_each(
+    desk: dict[str, Any], tmp_path: Path
+) -> None:
+    from .test_empty_record import tandem_all_within
+
+    aircraft, changes = tandem_all_within(tmp_path)
+    target = desk["fleet"] / "tandem2" / "aircraft.toml"  # DEMO-2T, as the variant
+    target.write_text(aircraft.read_text())
+    shown = _propose(_client(desk, "mo"), changes.read_text(), kind="alteration", registration="DEMO-2T")
+    assert shown.status_code == 200, shown.text
+    page = shown.text
+    assert "Within limits in every category of the aircraft</strong>; checked: normal, aerobatic." in page
+    items = _extremes_items(page)
+    assert list(items) == ["normal", "aerobatic"]
+    for category, lines in items.items():
+        assert len(lines) == 2
+        for line, side in zip(lines, ("forward", "rearward"), strict=True):
+            assert line.startswith(f"{category.capitalize()} category, most {side} loading:")
+            assert "within limits" in line and "not within" not in line and "Limit:" not in line
 
 
 def test_mechanic_weighing_needs_confirmation_then_writes_with_history(desk: dict[str, Any]) -> None:

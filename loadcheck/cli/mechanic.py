@@ -77,15 +77,23 @@ def _new_empty_weight(
     proposal = propose(aircraft, source, kind)
     err = _console(stderr=True)
     if sheet is not None:
-        written, left_out = write_record_sheet(sheet, proposal)
-        if left_out:
-            err.print(f"note: the extreme checks were left out of the record: {left_out}", markup=False)
+        from ..empty_record import categories_words, not_computed
+
+        written, checks = write_record_sheet(sheet, proposal)
+        for reason, names in not_computed(checks).items():
+            err.print(
+                f"note: the extreme checks of {categories_words(names)} could not be made: {reason}",
+                markup=False,
+                soft_wrap=True,
+            )
         err.print(f"record sheet written (to print and sign): {written}", markup=False, soft_wrap=True)
-        checks = proposal.extremes[0]
-        if checks is not None and not checks.ok:  # the sheet says so: never only there
+        failed = proposal.extremes_not_ok
+        if failed:  # the sheet says so: never only there
             err.print(
                 "warning: the record sheet's extreme checks with the new record are NOT all within limits "
-                "(or not established); see loadcheck extremes for each",
+                f"(or not established) in {categories_words(failed)}; "
+                f"see loadcheck extremes {aircraft} --category {failed[0]}"
+                + ("" if len(failed) == 1 else " (and each other one)"),
                 markup=False,
                 soft_wrap=True,
             )

@@ -21,6 +21,7 @@ from ..words import burn_path_sentence, given_fuel_words, sheet_verdict, trip_le
 
 if TYPE_CHECKING:
     from ..aircraft import Aircraft
+    from ..empty_record import CategoryExtremes
     from ..loading import ResolvedLoading, ResolvedTrip
 
 __all__ = ["load_sheet_html", "mechanic_sheet_html", "trip_sheet_html"]
@@ -390,6 +391,9 @@ _RECORD_STYLE = """
 body.record { font-size: 9pt; margin: 1em; }
 body.record h1 { font-size: 12pt; }
 body.record h2 { font-size: 10pt; margin: .6em 0 .2em 0; }
+body.record h3 { font-size: 9pt; margin: .3em 0 .1em 0; }
+.extreme-items td { white-space: nowrap; }
+body.record p { margin: .3em 0; }
 body.record th, body.record td { padding: .05em .4em; }
 .cols { display: flex; gap: 1.5em; flex-wrap: wrap; align-items: flex-start; }
 .sign { margin-top: .6em; }
@@ -408,15 +412,99 @@ def _geometry_words(geometry: dict[str, Any], arm: str) -> str:
     )
 
 
+def _case_words(case: Any) -> str:
+    """A case's verdict as ``loadcheck extremes`` gives it (render_extremes), shortened for a cell."""
+    if not case.ok:
+        return "NOT within limits"
+    return "within limits" if case.complete else "NOT ESTABLISHED (search cut)"
+
+
+def _extremes_html(extremes: list[CategoryExtremes] | None, m: str, a: str) -> list[str]:
+    """The record's extreme-loading section: a verdict naming the categories not all within
+    limits, one summary row per category and side, and each category's loads and limit findings."""
+    from ..empty_record import categories_words, not_computed
+
+    if not extremes:
+        return ["<p class='limit' id='extremes-verdict'>Not computed: no category to check.</p>"]
+    failed = [entry.category for entry in extremes if not entry.ok]
+    every = ", ".join(entry.category for entry in extremes)
+    verdict = (
+        f"NOT all within limits (or not established) in {categories_words(failed)}; checked: {every}"
+        if failed
+        else f"Within limits in every category of the aircraft: {every}"
+    )
+    parts = [f"<p class='limit' id='extremes-verdict'>{escape(verdict)}.</p>"]
+    for reason, names in not_computed(extremes).items():
+        parts.append(f"<p class='limit'>Not computed in {escape(categories_words(names))}: {escape(reason)}.</p>")
+
+    def n(value: float | None, unit: str) -> str:
+        return "" if value is None else fmt(value, unit, with_unit=False)
+
+    summary = []
+    for entry in extremes:
+        if entry.checks is None:
+            continue
+        for case in entry.checks.cases:  # forward and rearward, and left and right where a lateral envelope limits
+            ramp = case.check.condition("ramp")
+            lateral = case.side in ("left", "right")
+            summary.append(
+                [
+                    entry.category,
+                    f"Most {case.side}",
+                    n(ramp.weight, m),
+                    n(ramp.lateral_arm if lateral else ramp.arm, a) + (" lateral" if lateral else ""),
+                    n(case.limit_arm, a) + (" lateral" if lateral else ""),
+                    _case_words(case),
+                ]
+            )
+    if not summary:
+        return parts
+    parts.append(
+        _table(
+            ["Category", "Loading", f"Weight ({m})", f"CG ({a})", f"Limit at its weight ({a})", "Result"],
+            summary,
+            "extremes",
+        )
+    )
+    shown = [(entry.category, case) for entry in extremes if entry.checks is not None for case in entry.checks.cases]
+    if not shown:
+        return parts
+    states: dict[str, list[str]] = {}
+    for category, case in shown:
+        if case.fuel_states:
+            states.setdefault(str(case.fuel_states), []).append(f"{category} {case.side}")
+    if states:
+        covered = "; ".join(f"{state} ({', '.join(where)})" for state, where in states.items())
+        parts.append(f"<p>Fuel states covered: {escape(covered)}.</p>")
+    names = list(dict.fromkeys(i.name for _, case in shown for i in case.check.items))
+    by_case = [{i.name: i for i in case.check.items} for _, case in shown]
+    rows = []
+    for name in names:
+        row = [name]
+        for items in by_case:
+            item = items.get(name)
+            row.append("" if item is None else f"{n(item.weight, m)} at {n(item.arm, a)}")
+        rows.append(row)
+    heads = ["Item"] + [f"{category}, {case.side} ({m} at {a})" for category, case in shown]
+    parts.append(_table(heads, rows, "extreme-items"))
+    for category, case in shown:
+        for finding in case.check.findings:
+            if finding.severity == "limit" and finding.condition in ("ramp", "takeoff", None):
+                parts.append(
+                    f"<p class='limit'>{escape(category.capitalize())} category, most {case.side}: "
+                    f"LIMIT {escape(finding.message)}</p>"
+                )
+    return parts
+
+
 def mechanic_sheet_html(
     result: Any,
     units: Any,
     *,
-    extremes: Any = None,
+    extremes: list[CategoryExtremes] | None = None,
     source: str | None = None,
     when: dt.datetime | None = None,
     comparison: list[Any] | None = None,
-    left_out: str | None = None,
 ) -> str:
     """A printable record of a weighing or an equipment change, for the mechanic to sign.
 
@@ -424,7 +512,8 @@ def mechanic_sheet_html(
     the points with their lateral arms, the corrections; changes: their date, description,
     who made them and each change), the previous and the new record side by side (weight,
     CG, lateral CG, moment, useful load, date), the empty-weight CG range, the warnings and
-    refusals, the extreme-loading checks (AC 43.13-1B 10-17) with the new record, the caution
+    refusals, the extreme-loading checks (AC 43.13-1B 10-17) with the new record in each
+    category, each named by its category, the caution
     that the record is made and signed under the local authority's rules, and blank lines for
     name, certificate number, signature and date. Laid out to fit one page of A4 or US letter.
 
@@ -432,11 +521,11 @@ def mechanic_sheet_html(
     ----------
     result : a :class:`~loadcheck.weighing.WeighResult` or :class:`~loadcheck.alterations.AlterResult`
     units : the aircraft's units
-    extremes : the :class:`~loadcheck.extremes.ExtremesResult` with the new record, if any
+    extremes : the :attr:`loadcheck.empty_record.Proposal.extremes` of the new record, one
+        :class:`~loadcheck.empty_record.CategoryExtremes` per category
     source : the readings or changes file
     when : time of the computation (default: now, local time)
     comparison : the rows of :meth:`loadcheck.empty_record.Proposal.comparison`
-    left_out : why the extreme checks are not there, where they are not
     """
     when = when or dt.datetime.now().astimezone()
     weighing = hasattr(result, "points")
@@ -566,52 +655,7 @@ def mechanic_sheet_html(
         parts.append(f"<p class='limit'>{head_words}: {escape(refusal.message)}</p>")
 
     parts.append("<h2>Extreme loadings with the new record (AC 43.13-1B 10-17)</h2>")
-    if extremes is None:
-        parts.append(f"<p class='limit'>Not computed: {escape(left_out or 'not asked for')}.</p>")
-    else:
-        cases = extremes.cases  # forward and rearward, and left and right where a lateral envelope limits
-        summary = []
-        for case in cases:
-            ramp = case.check.condition("ramp")
-            lateral = case.side in ("left", "right")
-            summary.append(
-                [
-                    f"Most {case.side}",
-                    n(ramp.weight, m),
-                    n(ramp.lateral_arm if lateral else ramp.arm, a) + (" lateral" if lateral else ""),
-                    n(case.limit_arm, a) + (" lateral" if lateral else ""),
-                    ("within limits" if case.complete else "NOT ESTABLISHED (search cut)")
-                    if case.ok
-                    else "NOT within limits",
-                ]
-            )
-        parts.append(
-            _table(
-                ["Loading", f"Weight ({m})", f"CG ({a})", f"Limit at its weight ({a})", "Result"], summary, "extremes"
-            )
-        )
-        states = [getattr(case, "fuel_states", None) for case in cases]
-        if any(states):
-            parts.append(
-                f"<p>Fuel states covered: {escape('; '.join(str(s) for s in dict.fromkeys(states) if s))}.</p>"
-            )
-        names = list(dict.fromkeys(i.name for case in cases for i in case.check.items))
-        by_side = [{i.name: i for i in case.check.items} for case in cases]
-        rows = []
-        for name in names:
-            row = [name]
-            for side in by_side:
-                item = side.get(name)
-                row += ["", ""] if item is None else [n(item.weight, m), n(item.arm, a)]
-            rows.append(row)
-        heads = ["Item"]
-        for case in cases:
-            heads += [f"{case.side.capitalize()}: weight ({m})", f"arm ({a})"]
-        parts.append(_table(heads, rows))
-        for case in cases:
-            for finding in case.check.findings:
-                if finding.severity == "limit" and finding.condition in ("ramp", "takeoff", None):
-                    parts.append(f"<p class='limit'>Most {case.side}: LIMIT {escape(finding.message)}</p>")
+    parts += _extremes_html(extremes, m, a)
     parts += [
         f"<p class='caution'>CAUTION: {escape(result.caution)}</p>",
         "<table class='sign' id='signature'>",

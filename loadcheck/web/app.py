@@ -716,8 +716,11 @@ def create_app(
             cast("CheckResult", SimpleNamespace(findings=findings)),
         )
 
+    from ..empty_record import categories_words
+
     env.globals.update(
         fmt=fmt,
+        categories_words=categories_words,
         unit_label=unit_label,
         condition_verdict=condition_verdict,
         moment_table_columns=moment_table_columns,
