@@ -42,8 +42,9 @@ where u^2 = -c / q, and on a moment axis it is monotone. A least margin along a 
 lies at a range end, at a corner weight or weight limit, or at that point; and where the limits
 permit a region of loadings, its least margin lies on such a line from a loading of the base
 (the loads of two stations traded at one weight move the CG linearly). Seats hold whole
-occupants (AC 43.13-1B 10-17), so a seat is not varied along a line; a tank whose arm moves with
-its quantity is tried at its table's quantities, not at a closed-form point. An envelope whose
+occupants (AC 43.13-1B 10-17), so a seat is not varied along a line. A tank whose arm moves with
+its quantity (an arm table) is straight on each piece of its table, and its margin's least or most
+point on a piece is closed form too (:func:`_stationary_weights`). An envelope whose
 slice at one weight holds more than one stretch of CG is outside this argument.
 At most :data:`SEARCH_BOUND` combinations, and :data:`LINE_BOUND` loadings along the lines,
 are searched; where a bound cuts the search, it takes candidates spread evenly over all of
@@ -59,18 +60,18 @@ from __future__ import annotations
 
 import itertools
 import math
-from collections.abc import Sequence
+from collections.abc import Callable, Sequence
 from dataclasses import dataclass, replace
 from typing import Literal
 
 import numpy as np
 
-from .aircraft import Aircraft, Station
+from .aircraft import Aircraft, Station, Tank
 from .caution import MECHANIC_CAUTION
 from .check import check_loading, check_many
 from .display import fmt
 from .engine import evaluate, ramp_allowance, weight_limits
-from .envelope import AXES
+from .envelope import AXES, EnvelopeShape
 from .errors import InputError, Problem, UnitError
 from .loading import BurnPlan, ResolvedLoading
 from .results import CheckResult, ConditionName, Result
@@ -472,8 +473,11 @@ def _targets(aircraft: Aircraft, category: str, line: _Line, state: _State) -> t
     """
     units = aircraft.units
     mass = units.mass
-    m_now = (state.fuel if line.tank else state.stations)[:, line.column] * line.per_unit
-    w0, m0, l0 = state.weight - m_now, state.moment - m_now * (line.arm or 0.0), state.lateral - m_now * line.lateral
+    now = (state.fuel if line.tank else state.stations)[:, line.column]
+    m_now = now * line.per_unit
+    # the line's own moment now: at its fixed arm, or at its arm table's arm for the quantity it holds
+    own = m_now * (line.arm if line.arm is not None else aircraft.tank[line.column].arm_at(now))
+    w0, m0, l0 = state.weight - m_now, state.moment - own, state.lateral - m_now * line.lateral
     z0 = state.zero_weight - m_now
     zm0, zl0 = state.zero_moment - m_now * (line.arm or 0.0), state.zero_lateral - m_now * line.lateral
     zero_limit = aircraft.limits.zero_fuel_cg == "limit" and not line.tank
@@ -537,7 +541,9 @@ def _targets(aircraft: Aircraft, category: str, line: _Line, state: _State) -> t
                 f"the load that brings the loading to the envelope's top and the ramp allowance "
                 f"({fmt(top + allowance, mass)})",
             )
-    if line.arm is not None:
+    if line.arm is None:
+        _table_targets(aircraft.tank[line.column], line, shapes, w0, m0, l0, add, mass)
+    else:
         for shape in shapes:
             if "weight" not in shape.axes:
                 for x_c, y_c in shape.corners:
@@ -583,6 +589,140 @@ def _targets(aircraft: Aircraft, category: str, line: _Line, state: _State) -> t
     if not columns:
         return np.zeros((len(w0), 0)), []
     return np.stack(columns, axis=1), what
+
+
+def _table_pieces(tank: Tank) -> list[tuple[float, float, float, float]]:
+    """The straight pieces of a tank's arm table over its usable range: (from, to, alpha, beta), the arm
+    a(q) = alpha + beta q on each [fuel volume unit, arm unit, arm unit per fuel volume unit]; beyond the
+    table's ends the end arm holds (:meth:`~loadcheck.aircraft.Tank.arm_at`)."""
+    assert tank.arm_table is not None
+    table = tank.arm_table
+    pieces = []
+    if table[0][0] > 0:
+        pieces.append((0.0, table[0][0], table[0][1], 0.0))
+    for (q1, a1), (q2, a2) in itertools.pairwise(table):
+        beta = (a2 - a1) / (q2 - q1)
+        pieces.append((q1, q2, a1 - beta * q1, beta))
+    if table[-1][0] < tank.usable:
+        pieces.append((table[-1][0], tank.usable, table[-1][1], 0.0))
+    return pieces
+
+
+def _stationary_weights(
+    density: float, w0: np.ndarray, n0: np.ndarray, alpha: float, beta: float, slope: float, moment: float
+) -> np.ndarray:
+    """The weight u = W0 + rho q at which the margin to one straight limit is least or most, as a tank's fuel
+    q goes in at the arm a(q) = alpha + beta q (NaN where there is no such point) [mass unit].
+
+    The tank holds rho q at a(q), so the loading's moment is N0 + rho (alpha q + beta q^2) over W = W0 + rho q,
+    and its CG that over W (FAA-H-8083-1B chapter 2: CG = total moment / total weight). Against a limit
+    whose moment at weight W is t + p W + s W^2 (an arm limit p + s W: t = 0; a moment limit t + p W: s = 0),
+    the margin is (N - t - p W - s W^2) / W; its slope in q is zero where
+    (N' - p rho - 2 s rho W) W - rho (N - t - p W - s W^2) = 0, that is, divided by rho,
+    (beta rho - s rho^2) q^2 + 2 W0 (beta - s rho) q + (alpha W0 - N0 - s W0^2 + t) = 0 (p drops out).
+    Divided by (beta - s rho) and times rho, (rho q + W0)^2 = W0^2 - rho C / (beta - s rho), with C the
+    constant term: u^2 = W0^2 - rho C / (beta - s rho). Where beta = s rho the margin is monotone (or
+    constant) in q. With beta = 0 (a fixed arm) this is u^2 = (alpha W0 - N0 + t) / s, the closed form of
+    :func:`_targets`; with beta = 0 and s = 0 (a fixed arm against a moment limit) there is no such point.
+    """
+    lead = beta - slope * density
+    if lead == 0.0:
+        return np.full(len(w0), np.nan)
+    constant = alpha * w0 - n0 - slope * w0**2 + moment
+    square = w0**2 - density * constant / lead
+    with np.errstate(invalid="ignore"):
+        return np.where(square > 0, np.sqrt(np.maximum(square, 0.0)), np.nan)
+
+
+def _table_targets(
+    tank: Tank,
+    line: _Line,
+    shapes: Sequence[EnvelopeShape],
+    w0: np.ndarray,
+    m0: np.ndarray,
+    l0: np.ndarray,
+    add: Callable[[np.ndarray, str], None],
+    mass: str,
+) -> None:
+    """The fuel quantities of a tank with an arm table where, the rest held (weight ``w0``, moment ``m0``,
+    lateral moment ``l0`` without the tank), the margin to a straight limit is least or most inside one
+    piece of its table (:func:`_stationary_weights`), and where an envelope on arm and lateral arm has a
+    corner's CG; each given to ``add`` as the mass it adds [mass unit]."""
+    rho = line.per_unit
+    pieces = _table_pieces(tank)
+
+    def within(u: np.ndarray, low: float, high: float) -> np.ndarray:
+        return np.where((u >= w0 + rho * low) & (u <= w0 + rho * high), u, np.nan)
+
+    for shape in shapes:
+        if "weight" not in shape.axes:
+            for x_c, y_c in shape.corners:
+                arm_c, lat_c = (x_c, y_c) if shape.axes[0] == "arm" else (y_c, x_c)
+                with np.errstate(divide="ignore", invalid="ignore"):
+                    add(
+                        (lat_c * w0 - l0) / (line.lateral - lat_c),
+                        "the load that brings the lateral CG to a corner of the envelope",
+                    )
+                for low, high, alpha, beta in pieces:
+                    # CG = arm_c: rho beta q^2 + rho (alpha - arm_c) q + (M0 - arm_c W0) = 0
+                    for q in _roots(rho * beta, rho * (alpha - arm_c), m0 - arm_c * w0):
+                        q = np.where((q >= low) & (q <= high), q, np.nan)
+                        add(rho * q, "the quantity that brings the CG to a corner of the envelope")
+            ring = shape.corners
+            k_arm = 0 if shape.axes[0] == "arm" else 1
+            for one, two in zip(ring, np.roll(ring, -1, axis=0), strict=True):
+                (x1, y1), (x2, y2) = (one[k_arm], one[1 - k_arm]), (two[k_arm], two[1 - k_arm])
+                for low, high, alpha, beta in pieces:
+                    if y1 != y2:  # an arm limit x = p + s y: the margin (M - s L) / W - p
+                        s = (x2 - x1) / (y2 - y1)
+                        u = _stationary_weights(rho, w0, m0 - s * l0, alpha - s * line.lateral, beta, 0.0, 0.0)
+                        add(within(u, low, high) - w0, "the quantity of least margin to a sloping limit")
+                    if x1 != x2:  # a lateral limit y = p + s x: the margin (L - s M) / W - p
+                        s = (y2 - y1) / (x2 - x1)
+                        u = _stationary_weights(rho, w0, l0 - s * m0, line.lateral - s * alpha, -s * beta, 0.0, 0.0)
+                        add(within(u, low, high) - w0, "the quantity of least margin to a sloping lateral limit")
+            continue
+        k_w = shape.axes.index("weight")
+        axis = AXES[shape.axes[1 - k_w]]
+        a0, b, c = axis.coefficients(shape.moment_scale, shape.mac)
+        scale = c if axis.lateral else b
+        ring = shape.corners
+        for (v1, u1), (v2, u2) in zip(
+            ring[:, [1 - k_w, k_w]], np.roll(ring, -1, axis=0)[:, [1 - k_w, k_w]], strict=True
+        ):
+            if u1 == u2:
+                continue
+            k = (v2 - v1) / (u2 - u1)
+            v0 = v1 - k * u1
+            # the limit in the axis is v0 + k u; in arm (per weight): (v0 - a0 + k u) / scale, an arm limit
+            # p + s u; in moment: (v0 - a0 + k u) / scale, a moment limit t + p u
+            slope, moment = (k / scale, 0.0) if axis.per_weight else (0.0, (v0 - a0) / scale)
+            low_u, high_u = min(u1, u2), max(u1, u2)
+            words = (
+                f"the quantity of least margin to the {'lateral ' if axis.lateral else ''}limit between "
+                f"{fmt(low_u, mass)} and {fmt(high_u, mass)}"
+            )
+            if axis.lateral:  # the tank's lateral arm is fixed: one piece over its whole range
+                parts = [(0.0, tank.usable, line.lateral, 0.0)]
+                n0 = l0
+            else:
+                parts, n0 = pieces, m0
+            for low, high, alpha, beta in parts:
+                u = _stationary_weights(rho, w0, n0, alpha, beta, slope, moment)
+                u = np.where((u >= low_u) & (u <= high_u), u, np.nan)
+                add(within(u, low, high) - w0, words)
+
+
+def _roots(a: float, b: float, c: np.ndarray) -> list[np.ndarray]:
+    """The real roots of a x^2 + b x + c = 0, row by row (NaN where none) [x's unit]."""
+    if a == 0.0:
+        if b == 0.0:
+            return []
+        return [-c / b]
+    disc = b * b - 4.0 * a * c
+    with np.errstate(invalid="ignore"):
+        root = np.where(disc >= 0, np.sqrt(np.maximum(disc, 0.0)), np.nan)
+    return [(-b - root) / (2.0 * a), (-b + root) / (2.0 * a)]
 
 
 def _line_low(line: _Line, state: _State, min_fuel: float | None) -> np.ndarray:

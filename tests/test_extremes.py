@@ -1085,3 +1085,50 @@ def test_property_no_permitted_grid_loading_is_farther_left_or_right_than_the_la
     assert result.left.check.condition("ramp").margins.left <= least_left + 1e-6
     assert result.right.check.condition("ramp").margins.right <= least_right + 1e-6
     assert result.left.complete and result.right.complete
+
+
+_HERON_AFT = (
+    'format = 1\nname = "Invented two-seater (trial 12)"\nmeto_power_hp = 120\nstandard_occupant_weight = "80 kg"\n'
+    '[units]\nmass = "kg"\narm = "cm"\nfuel_volume = "l"\n[empty]\nweight = 520.0\narm = 30.0\n'
+    "[limits]\nmax_takeoff_weight = 800\nmax_landing_weight = 780\n"
+    '[[station]]\nid = "p1"\nkind = "seat"\narm = 20.0\nmax_weight = 120\ncontrols = true\n'
+    '[[station]]\nid = "p2"\nkind = "seat"\narm = 20.0\nmax_weight = 120\n'
+    '[[station]]\nid = "bag"\nkind = "baggage"\narm = 110.0\nmax_weight = 40\n'
+    '[[station]]\nid = "pod"\nkind = "cargo"\narm = 60.0\nmax_weight = 60\n'
+    '[[station_group]]\nid = "aftload"\nlabel = "Shelf and pod"\nstations = ["bag", "pod"]\nmax_weight = 70\n'
+    '[[tank]]\nid = "wing"\nusable = 90\nfuel = "mogas"\narm_table = [[0, 40.0], [45, 45.0], [90, 38.0]]\n'
+    '[[envelope]]\ncategory = "utility"\naxes = ["arm", "weight"]\n'
+    "points = [[22.0, 550], [27.0, 720], [35.395, 720], [35.395, 550]]\n"
+)
+
+
+def test_regression_the_aft_most_fuel_inside_a_piece_of_the_arm_table_was_missed(tmp_path):
+    """Trial 12 finding 1: a tank with an arm table (45 L at 45 cm, 90 L at 38 cm) was tried only at its
+    table's quantities, so the aft-most fuel state inside the piece was missed (utility aft limit 35.395 cm).
+    Worked by hand (FAA-H-8083-1B chapter 2, CG = total moment / total weight): pilot 80 kg, baggage 40 kg,
+    pod 30 kg (the group's 70 kg), 53.4 L of mogas at 0.71896 kg/L (6.0 lb/US gal, common practice) =
+    38.392 kg at 45 - 7 x 8.4 / 45 = 43.693 cm; W = 708.392 kg, M = 25,077.5 kg-cm, CG 35.4006 cm, aft of
+    35.395 cm. On the piece a(q) = 52 - 7 q / 45, the margin to the vertical limit is least where
+    (beta rho) q^2 + 2 W0 beta q + (alpha W0 - M0) = 0 with W0 = 670 kg, M0 = 23,400 kg-cm."""
+    path = tmp_path / "heron_aft.toml"
+    path.write_text(_HERON_AFT)
+    aircraft = load_aircraft(path)
+    rho = aircraft.density(aircraft.tank[0])
+    # 6.0 lb/US gal (common practice) with NIST's exact 0.45359237 kg/lb and 3.785411784 L/US gal
+    assert rho == pytest.approx(6.0 * 0.45359237 / 3.785411784)
+    fuel = 53.4 * rho
+    arm = 45 - 7 * 8.4 / 45
+    weight, moment = 520 + 80 + 40 + 30 + fuel, 15600 + 1600 + 4400 + 1800 + fuel * arm
+    assert weight == pytest.approx(708.392, abs=1e-3) and moment == pytest.approx(25077.5, abs=0.05)
+    assert moment / weight == pytest.approx(35.4006, abs=1e-4) and moment / weight > 35.395
+    # the closed form's root: the aft-most quantity of that loading
+    beta, alpha, w0, m0 = -7 / 45, 52.0, 670.0, 23400.0
+    a, b, c = beta * rho, 2 * w0 * beta, alpha * w0 - m0
+    q = (-b - math.sqrt(b * b - 4 * a * c)) / (2 * a)
+    assert 53.0 < q < 53.6
+    result = extremes(aircraft, category="utility")
+    rear = result.rearward
+    assert not result.ok and not rear.ok and rear.complete
+    ramp = rear.check.condition("ramp")
+    assert ramp.arm > 35.4006 - 1e-4  # at least as far aft as the hand-worked loading
+    assert any(n.startswith(f"wing: {q:.1f} l, the quantity of least margin") for n in rear.notes), rear.notes
