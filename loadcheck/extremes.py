@@ -1146,6 +1146,17 @@ def _case(
             f"none of the {found.enumerated:,} candidate loadings, each with the pilot aboard and the minimum fuel, "
             "is within the station, group and weight limits: the lightest is shown"
         )
+    heavier = [
+        st.name
+        for st in aircraft.station
+        if st.kind == "seat" and (st.max_weight is None or st.max_weight > (st.seats or 1) * occupant * (1 + 1e-12))
+    ]
+    if heavier:  # the search's convention said where it is read, never only in the docs
+        notes.append(
+            f"occupants are at the standard weight ({fmt(occupant, aircraft.units.mass)} each), as AC 43.13-1B "
+            "10-17 takes them: "
+            f"a heavier occupant, which the maximum of {', '.join(heavier)} permits, is not covered by this check"
+        )
     notes += found.notes
     start = plan.burnable
     volume = units.fuel_volume
