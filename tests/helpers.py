@@ -322,3 +322,53 @@ def trip_fleet(folder: Path) -> Path:
     (folder / "day.csv").write_text(TRIP_DAY)
     (folder / "trip.toml").write_text(TRIP_LOADING)
     return folder
+
+
+# -- trial 11's invented tandem ---------------------------------------------------------------
+#
+# An outside trial's invention (not a sample, not a real type), in kg, cm and imperial gallons: a
+# tandem two-seater whose aft limit slopes from 48 cm at 500 kg to 40 cm at 720 kg, the forward limit
+# fixed at 20 cm; the extremes' and the planning's trial-11 tests work their figures by hand on it.
+TRIAL_GULL = """format = 1
+name = "Invented tandem (trial 11)"
+registration = "TR-GUL"
+meto_power_hp = 60
+standard_occupant_weight = 80
+[units]
+mass = "kg"
+arm = "cm"
+fuel_volume = "impgal"
+[empty]
+weight = 455.0
+arm = 42.0
+[limits]
+max_takeoff_weight = 720
+max_landing_weight = 700
+min_flight_weight = 500
+[[station]]
+id = "p1"
+kind = "seat"
+arm = -20.0
+min_weight = 60
+max_weight = 115
+controls = true
+[[station]]
+id = "p2"
+kind = "seat"
+arm = 75.0
+max_weight = 115
+[[station]]
+id = "locker"
+kind = "baggage"
+arm = 140.0
+max_weight = 15
+[[tank]]
+id = "fus"
+arm = 60.0
+usable = 12.0
+density = 3.27
+[[envelope]]
+category = "normal"
+axes = ["arm", "weight"]
+points = [[20, 500], [20, 720], [40, 720], [48, 500]]
+"""

@@ -18,7 +18,7 @@ from loadcheck.check import check_loading
 from loadcheck.errors import InputError
 from loadcheck.extremes import extremes, minimum_fuel
 
-from .helpers import ac_example_aircraft, sample, simple_aircraft
+from .helpers import TRIAL_GULL, ac_example_aircraft, sample, simple_aircraft
 
 
 def test_ac_43_13_1b_figures_10_10_and_10_11():
@@ -868,50 +868,6 @@ def test_regression_the_forward_extreme_at_an_envelope_corner_weight_between_two
     assert invoke("extremes", path).exit_code == 1
 
 
-GULL = """format = 1
-name = "Invented tandem (trial 11)"
-meto_power_hp = 60
-standard_occupant_weight = 80
-[units]
-mass = "kg"
-arm = "cm"
-fuel_volume = "impgal"
-[empty]
-weight = 455.0
-arm = 42.0
-[limits]
-max_takeoff_weight = 720
-max_landing_weight = 700
-min_flight_weight = 500
-[[station]]
-id = "p1"
-kind = "seat"
-arm = -20.0
-min_weight = 60
-max_weight = 115
-controls = true
-[[station]]
-id = "p2"
-kind = "seat"
-arm = 75.0
-max_weight = 115
-[[station]]
-id = "locker"
-kind = "baggage"
-arm = 140.0
-max_weight = 15
-[[tank]]
-id = "fus"
-arm = 60.0
-usable = 12.0
-density = 3.27
-[[envelope]]
-category = "normal"
-axes = ["arm", "weight"]
-points = [[20, 500], [20, 720], [40, 720], [48, 500]]
-"""
-
-
 def test_regression_the_rearward_extreme_seats_the_lightest_pilot_the_seat_permits(tmp_path):
     """Trial 11 finding 1 (second case): the front seat, ahead of the aft limit, has a 60 kg minimum below the
     80 kg standard occupant; the search put the pilot at 80 kg only and said "within limits". Worked by hand
@@ -920,7 +876,7 @@ def test_regression_the_rearward_extreme_seats_the_lightest_pilot_the_seat_permi
     48 - 8 x 149.24 / 220 = 42.57 cm: aft of it by 1.12 cm."""
     from .helpers import invoke, write_file
 
-    path = write_file(tmp_path, GULL)
+    path = write_file(tmp_path, TRIAL_GULL)
     case = extremes(load_aircraft(path)).rearward
     load = {i.id: i.weight for i in case.check.items}
     assert load["p1"] == pytest.approx(60.0) and load["p2"] == pytest.approx(80.0)

@@ -21,7 +21,7 @@ from loadcheck.errors import InputError, UnknownNameError
 from loadcheck.files import parse_aircraft
 from loadcheck.loading import BurnPlan, Loading, resolve_loading
 
-from .helpers import examples, sample, simple_aircraft
+from .helpers import TRIAL_GULL, examples, sample, simple_aircraft
 
 TRAINER = load_check_inputs(sample("trainer4/within.toml")).aircraft
 TWIN = load_check_inputs(sample("twin6/within.toml")).aircraft
@@ -843,49 +843,6 @@ def test_regression_no_payload_answer_quoted_another_loading_as_this_one():
 
 # -- an outside trial's invented aircraft (trial 11): the reason given, the check carried, the rounding ---------
 
-_GULL = """
-format = 1
-name = "Gull tandem (trial invention)"
-registration = "TR-GUL"
-[units]
-mass = "kg"
-arm = "cm"
-fuel_volume = "impgal"
-[empty]
-weight = 455.0
-arm = 42.0
-[limits]
-max_takeoff_weight = 720
-max_landing_weight = 700
-min_flight_weight = 500
-[[station]]
-id = "p1"
-kind = "seat"
-arm = -20.0
-min_weight = 60
-max_weight = 115
-controls = true
-[[station]]
-id = "p2"
-kind = "seat"
-arm = 75.0
-max_weight = 115
-[[station]]
-id = "locker"
-kind = "baggage"
-arm = 140.0
-max_weight = 15
-[[tank]]
-id = "fus"
-arm = 60.0
-usable = 12.0
-density = 3.27
-[[envelope]]
-category = "normal"
-axes = ["arm", "weight"]
-points = [[20, 500], [20, 720], [40, 720], [48, 500]]
-"""
-
 _HAULER = """
 format = 1
 name = "Hauler three-tank (trial invention)"
@@ -958,7 +915,7 @@ def _trial_aircraft(text: str):
     return parse_aircraft(tomllib.loads(text))
 
 
-GULL = _trial_aircraft(_GULL)
+GULL = _trial_aircraft(TRIAL_GULL)
 HAULER = _trial_aircraft(_HAULER)
 
 
