@@ -546,14 +546,9 @@ def _targets(aircraft: Aircraft, category: str, line: _Line, state: _State) -> t
     else:
         for shape in shapes:
             if "weight" not in shape.axes:
-                for x_c, y_c in shape.corners:
-                    # arm and lateral arm: where the held coordinate (CG or lateral CG) reaches a corner's
-                    arm_c, lat_c = (x_c, y_c) if shape.axes[0] == "arm" else (y_c, x_c)
+                # arm and lateral arm: where the held coordinate (CG or lateral CG) reaches a corner's
+                for arm_c in _lateral_corner_loads(shape, w0, l0, line.lateral, add):
                     with np.errstate(divide="ignore", invalid="ignore"):
-                        add(
-                            (lat_c * w0 - l0) / (line.lateral - lat_c),
-                            "the load that brings the lateral CG to a corner of the envelope",
-                        )
                         add(
                             (arm_c * w0 - m0) / (line.arm - arm_c),
                             "the load that brings the CG to a corner of the envelope",
@@ -634,6 +629,27 @@ def _stationary_weights(
         return np.where(square > 0, np.sqrt(np.maximum(square, 0.0)), np.nan)
 
 
+def _lateral_corner_loads(
+    shape: EnvelopeShape,
+    w0: np.ndarray,
+    l0: np.ndarray,
+    lateral: float,
+    add: Callable[[np.ndarray, str], None],
+) -> list[float]:
+    """For an envelope on arm and lateral arm: give ``add`` the load at lateral arm ``lateral`` [arm unit]
+    that brings the lateral CG to each corner's (the rest of the loading of weight ``w0`` [mass unit] and
+    lateral moment ``l0``), and return each corner's arm, for the caller's loads that bring the CG there."""
+    arms = []
+    for x_c, y_c in shape.corners:
+        arm_c, lat_c = (x_c, y_c) if shape.axes[0] == "arm" else (y_c, x_c)
+        with np.errstate(divide="ignore", invalid="ignore"):
+            add(
+                (lat_c * w0 - l0) / (lateral - lat_c), "the load that brings the lateral CG to a corner of the envelope"
+            )
+        arms.append(float(arm_c))
+    return arms
+
+
 def _table_targets(
     tank: Tank,
     line: _Line,
@@ -656,13 +672,7 @@ def _table_targets(
 
     for shape in shapes:
         if "weight" not in shape.axes:
-            for x_c, y_c in shape.corners:
-                arm_c, lat_c = (x_c, y_c) if shape.axes[0] == "arm" else (y_c, x_c)
-                with np.errstate(divide="ignore", invalid="ignore"):
-                    add(
-                        (lat_c * w0 - l0) / (line.lateral - lat_c),
-                        "the load that brings the lateral CG to a corner of the envelope",
-                    )
+            for arm_c in _lateral_corner_loads(shape, w0, l0, line.lateral, add):
                 for low, high, alpha, beta in pieces:
                     # CG = arm_c: rho beta q^2 + rho (alpha - arm_c) q + (M0 - arm_c W0) = 0
                     for q in _roots(rho * beta, rho * (alpha - arm_c), m0 - arm_c * w0):
