@@ -5,7 +5,9 @@ Run on demand:  python benchmarks/fleet_stages.py [--n 10000] [--per-call 85 256
 The rows of sample_aircraft/fleet_day.csv repeated to N rows (as benchmarks/fleet.py writes
 them) go through the stages of ``fleet check`` one at a time, in one process: reading the rows
 (``read_loadings``: the cells and ``parse_loading``), ``resolve_loading``, ``check_many`` on
-``--per-call`` rows of one aircraft at a time (a chunk of 1,024 flights gives each of the four
+``--per-call`` rows of one aircraft at a time (and, where the package has them, what the fleet
+check does instead: ``check_columns``, and ``result_texts`` writing each result's JSON from the
+columns) (a chunk of 1,024 flights gives each of the four
 sample aircraft about 256, a chunk of 256 about 64 to 85), the result's JSON form
 (``to_dict``) and the JSON line (orjson). Each figure is the best of ``--repeat`` runs of the
 stage, in microseconds of CPU (``time.process_time``) a row, with the cycle collector held off
@@ -74,6 +76,11 @@ by_aircraft = {}
 for aircraft, one in resolved:
     by_aircraft.setdefault(id(aircraft), (aircraft, []))[1].append(one)
 results = []
+try:  # the results written from the engine's columns (2026-12-04 on); before, objects for each row
+    from loadcheck.check import check_columns
+    from loadcheck.result_json import result_texts
+except ImportError:
+    check_columns = None
 for per_call in per_calls:
     def check():
         out = []
@@ -82,6 +89,17 @@ for per_call in per_calls:
                 out += check_many(aircraft, loadings[at : at + per_call])
         results[:] = out
     print(f"check_many, {per_call:4d} rows a call  {best(check, len(resolved)):7.1f}")
+    if check_columns is not None:
+        chunks = []
+        def columns():
+            chunks.clear()
+            for aircraft, loadings in by_aircraft.values():
+                for at in range(0, len(loadings), per_call):
+                    placed = check_columns(aircraft, loadings[at : at + per_call])
+                    chunks.extend({id(c): c for c, _ in placed}.values())
+        print(f"check_columns, {per_call:4d} a call   {best(columns, len(resolved)):7.1f}")
+        written = best(lambda: [result_texts(c) for c in chunks], len(resolved))
+        print(f"result_texts, {per_call:4d} a call    {written:7.1f}")
 print(f"to_dict                      {best(lambda: [r.to_dict() for r in results], len(results)):7.1f}")
 lines = [r.to_dict() for r in results]
 print(f"orjson line                  {best(lambda: [orjson.dumps(d) for d in lines], len(lines)):7.1f}")

@@ -14,7 +14,7 @@ import numpy as np
 
 from .aircraft import Aircraft
 from .loading import ResolvedLoading
-from .results import Item
+from .results import Item, ItemColumns
 
 __all__ = ["moment_items", "moment_tables"]
 
@@ -51,11 +51,11 @@ def moment_items(aircraft: Aircraft, loading: ResolvedLoading) -> list[Item]:
     stations = np.array([[loading.stations.get(s.id, 0.0) for s in aircraft.station]], dtype=float)
     fuel = np.array([[loading.fuel[t.id] for t in aircraft.tank]], dtype=float)
     density = np.array([loading.density[t.id] for t in aircraft.tank], dtype=float)
-    return moment_tables(aircraft, stations.reshape(1, -1), fuel.reshape(1, -1), density)[0]
+    return moment_tables(aircraft, stations.reshape(1, -1), fuel.reshape(1, -1), density).table(0)
 
 
-def moment_tables(aircraft: Aircraft, stations: np.ndarray, fuel: np.ndarray, density: np.ndarray) -> list[list[Item]]:
-    """The moment table of each of N loadings at engine start (:func:`moment_items`'s lines).
+def moment_tables(aircraft: Aircraft, stations: np.ndarray, fuel: np.ndarray, density: np.ndarray) -> ItemColumns:
+    """The moment table of each of N loadings at engine start (:func:`moment_items`'s lines), by column.
 
     Parameters
     ----------
@@ -66,9 +66,10 @@ def moment_tables(aircraft: Aircraft, stations: np.ndarray, fuel: np.ndarray, de
 
     Returns
     -------
-    list of list of Item
-        Per loading: the empty weight, each station with a weight other than zero, each
-        tank holding fuel (its weight = volume * density, its arm at that volume).
+    ItemColumns
+        ``table(i)`` is loading ``i``'s: the empty weight, each station with a weight other
+        than zero, each tank holding fuel (its weight = volume * density, its arm at that
+        volume).
     """
     lateral = aircraft.has_lateral
     empty = aircraft.empty
@@ -80,40 +81,24 @@ def moment_tables(aircraft: Aircraft, stations: np.ndarray, fuel: np.ndarray, de
     # products, element by element, as _item makes of one line
     station_arms = np.array([s.arm for s in aircraft.station], dtype=float)
     station_laterals = np.array([s.lateral_arm or 0.0 for s in aircraft.station], dtype=float)
-    weights = stations.tolist()
-    moments = (stations * station_arms).tolist()
     no_lateral: list[list[float | None]] = [[None] * len(aircraft.station)] * n
-    lateral_moments = (stations * station_laterals).tolist() if lateral else no_lateral
-    fixed = [(s.id, s.name, s.kind, s.arm, (s.lateral_arm or 0.0) if lateral else None) for s in aircraft.station]
-    tanks = [(t.id, t.name, (t.lateral_arm or 0.0) if lateral else None) for t in aircraft.tank]
-    volumes = fuel.tolist()
-    fuel_weights = (fuel * density).tolist() if tanks else [[] for _ in range(n)]
+    fuel_weights = fuel * density
     # each tank's arm at each loading's volume, one call per tank (Tank.arm_at)
-    columns = [np.asarray(t.arm_at(fuel[:, j]), dtype=float).tolist() for j, t in enumerate(aircraft.tank)]
-    arms = [list(row) for row in zip(*columns, strict=True)] if columns else [[] for _ in range(n)]
-    out = []
-    for i in range(n):
-        items = [first]
-        for (id_, name, kind, arm, lateral_arm), weight, moment, lateral_moment in zip(
-            fixed, weights[i], moments[i], lateral_moments[i], strict=True
-        ):
-            if weight != 0.0:
-                items.append(
-                    Item(
-                        id=id_,
-                        name=name,
-                        kind=kind,
-                        weight=weight,
-                        arm=arm,
-                        moment=moment,
-                        lateral_arm=lateral_arm,
-                        lateral_moment=lateral_moment,
-                    )
-                )
-        for (id_, name, lateral_arm), volume, weight, arm in zip(
-            tanks, volumes[i], fuel_weights[i], arms[i], strict=True
-        ):
-            if volume > 0:
-                items.append(_item(id_, name, "fuel", weight, arm, lateral_arm, volume))
-        out.append(items)
-    return out
+    arms = np.array(
+        [np.asarray(t.arm_at(fuel[:, j]), dtype=float) for j, t in enumerate(aircraft.tank)], dtype=float
+    ).T.reshape(n, len(aircraft.tank))
+    tank_laterals = np.array([t.lateral_arm or 0.0 for t in aircraft.tank], dtype=float)
+    no_fuel_lateral: list[list[float | None]] = [[None] * len(aircraft.tank)] * n
+    return ItemColumns(
+        empty=first,
+        stations=[(s.id, s.name, s.kind, s.arm, (s.lateral_arm or 0.0) if lateral else None) for s in aircraft.station],
+        weights=stations.tolist(),
+        moments=(stations * station_arms).tolist(),
+        lateral_moments=(stations * station_laterals).tolist() if lateral else no_lateral,
+        tanks=[(t.id, t.name, (t.lateral_arm or 0.0) if lateral else None) for t in aircraft.tank],
+        volumes=fuel.tolist(),
+        fuel_weights=fuel_weights.tolist(),
+        arms=arms.tolist(),
+        fuel_moments=(fuel_weights * arms).tolist(),
+        fuel_lateral_moments=(fuel_weights * tank_laterals).tolist() if lateral else no_fuel_lateral,
+    )

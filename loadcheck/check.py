@@ -18,7 +18,7 @@ empty), which are warnings.
 
 from __future__ import annotations
 
-from collections.abc import Iterator, Sequence
+from collections.abc import Sequence
 from dataclasses import dataclass
 from typing import Any, Literal, TypeGuard
 
@@ -44,13 +44,14 @@ from .results import (
     AircraftInfo,
     BurnPath,
     CheckResult,
-    Condition,
+    ConditionColumns,
     ConditionName,
     Excursion,
     Finding,
     LeavePoint,
     Margins,
     PathSample,
+    ResultColumns,
     Severity,
     UnitsInfo,
 )
@@ -68,7 +69,7 @@ from .words import (
     weight_limit_message,
 )
 
-__all__ = ["WEIGHT_TOLERANCE", "below_reserve", "check_loading", "check_many"]
+__all__ = ["WEIGHT_TOLERANCE", "below_reserve", "check_columns", "check_loading", "check_many"]
 
 _SAMPLES = 40  # evenly spaced points along the burn path for drawing it, besides where it leaves
 
@@ -138,13 +139,23 @@ def check_many(aircraft: Aircraft, loadings: Sequence[ResolvedLoading], *, sampl
         When a loading resolved by hand is one no flight can have
         (:func:`~loadcheck.loading.require_usable`).
     """
+    return [columns.result(k) for columns, k in check_columns(aircraft, loadings, samples=samples)]
+
+
+def check_columns(
+    aircraft: Aircraft, loadings: Sequence[ResolvedLoading], *, samples: bool = False
+) -> list[tuple[ResultColumns, int]]:
+    """:func:`check_many`'s results by column: for each loading, in order, the columns that hold
+    its result and its place in them (``columns.result(k)`` is the loading's result;
+    :func:`loadcheck.result_json.result_texts` writes the JSON form of all of them from the
+    columns, for the fleet check)."""
     tables = engine_tables(aircraft)
     groups: dict[tuple[Any, ...], list[int]] = {}
     for index, resolved in enumerate(loadings):
         require_usable(resolved, aircraft)  # a loading resolved by hand is held to the same rules
         key = (resolved.plan.order, resolved.category, tuple(resolved.density[t] for t in tables.tank_ids))
         groups.setdefault(key, []).append(index)
-    results: dict[int, CheckResult] = {}  # by the loading's place
+    placed: list[tuple[ResultColumns, int] | None] = [None] * len(loadings)
     for (order, category, density), members in groups.items():
         chosen = [loadings[i] for i in members]
         n = len(chosen)
@@ -163,9 +174,10 @@ def check_many(aircraft: Aircraft, loadings: Sequence[ResolvedLoading], *, sampl
             density=rho,
             explain=True,
         )
-        for k, result in enumerate(_explain(aircraft, chosen, found, category, samples, stations, fuel, rho)):
-            results[members[k]] = result
-    return [results[index] for index in range(len(loadings))]
+        columns = _explain(aircraft, chosen, found, category, samples, stations, fuel, rho)
+        for k, index in enumerate(members):
+            placed[index] = (columns, k)
+    return [p for p in placed if p is not None]
 
 
 def _explain(
@@ -177,38 +189,32 @@ def _explain(
     stations: np.ndarray,
     fuel: np.ndarray,
     density: np.ndarray,
-) -> Iterator[CheckResult]:
-    """The result of each loading from its row of the engine's arrays: the explanation of the verdict.
+) -> ResultColumns:
+    """The results of the loadings from the engine's arrays, by column: the explanation of the verdicts.
 
     ``stations`` (N, S), ``fuel`` (N, T) and ``density`` (T,) are the arrays the engine was given."""
     units = aircraft.units
     tables = engine_tables(aircraft)
     shapes = tables.envelopes[category][1]
-    info = AircraftInfo(
-        name=aircraft.name,
-        registration=aircraft.registration,
-        fingerprint=aircraft.fingerprint,
-        empty_weight_date=aircraft.empty.date.isoformat() if aircraft.empty.date else None,
-    )
-    units_info = UnitsInfo(mass=units.mass, arm=units.arm, fuel_volume=units.fuel_volume, moment=units.moment)
     rows = _Rows(found)
     margins = _margins(shapes, found, tables.weights, tables.allowance, aircraft.limits.min_flight_weight)
     once = _Once.all(aircraft, category)
     # many rows: every slice a finding outside an envelope is told on, cut together (as the margins are)
     cuts = _outside_cuts(shapes, found, tables.allowance) if len(loadings) > _ONE_BY_ONE else None
-    tables_of_items = moment_tables(aircraft, stations, fuel, density)
     paths = _path_points(aircraft, loadings, found, category, samples, (stations, fuel, density))
-    by_row = list(zip(*(_conditions(aircraft, rows, fixed, margins[fixed.name]) for fixed in once), strict=True))
     seats = aircraft.control_seats
     # a weight at a seat with flight controls, every row at once (the engine's stations array)
     piloted: list[bool] = (
         np.any(stations[:, [tables.station_ids.index(s) for s in seats]] > 0, axis=1).tolist() if seats else []
     )
+    oks: list[bool] = []
+    burn_paths: list[BurnPath] = []
+    all_findings: list[list[Finding]] = []
     for i, resolved in enumerate(loadings):
         findings: list[Finding] = []
-        conditions = list(by_row[i])
-        for fixed, condition in zip(once, conditions, strict=True):
-            if not condition.ok:  # outside a limit of this condition (the engine's condition_ok): say which
+        for fixed in once:
+            name = fixed.name
+            if not rows.condition_ok[name][i]:  # outside a limit of this condition (the engine's): say which
                 _condition_findings(
                     aircraft,
                     rows,
@@ -217,14 +223,16 @@ def _explain(
                     fixed,
                     findings,
                     cuts,
-                    condition.weight,
-                    condition.moment,
-                    rows.lateral[fixed.name][i],
+                    rows.weight[name][i],
+                    rows.moment[name][i],
+                    rows.lateral[name][i],
                 )
-        burn_path = _burn_path(aircraft, resolved, found, i, conditions, findings, samples, paths.get(i))
+        burn_paths.append(
+            _burn_path(aircraft, resolved, found, i, rows.weight["takeoff"][i], findings, samples, paths.get(i))
+        )
         if not rows.loads_ok[i]:
             findings.extend(_load_findings(aircraft, resolved, found, i))
-        landing_fuel = conditions[2].fuel
+        landing_fuel = rows.fuel["landing"][i]
         if resolved.reserve is not None and below_reserve(landing_fuel, resolved.reserve):
             findings.append(
                 Finding(
@@ -249,17 +257,24 @@ def _explain(
             findings.extend(Finding(code="assumption", severity="warning", message=note) for note in resolved.notes)
         ok = not findings or not any(f.severity == "limit" for f in findings)
         assert ok == rows.ok[i], "the explanation must carry the engine's verdict"
-        yield CheckResult(
-            ok=ok,
-            category=resolved.category,
-            aircraft=info,
-            items=tables_of_items[i],
-            conditions=conditions,
-            burn_path=burn_path,
-            findings=findings,
-            units=units_info,
-            caution=PILOT_CAUTION,
-        )
+        oks.append(ok)
+        all_findings.append(findings)
+    return ResultColumns(
+        aircraft=AircraftInfo(
+            name=aircraft.name,
+            registration=aircraft.registration,
+            fingerprint=aircraft.fingerprint,
+            empty_weight_date=aircraft.empty.date.isoformat() if aircraft.empty.date else None,
+        ),
+        units=UnitsInfo(mass=units.mass, arm=units.arm, fuel_volume=units.fuel_volume, moment=units.moment),
+        caution=PILOT_CAUTION,
+        category=[resolved.category for resolved in loadings],
+        ok=oks,
+        items=moment_tables(aircraft, stations, fuel, density),
+        conditions=[_conditions(aircraft, rows, fixed, margins[fixed.name]) for fixed in once],
+        burn_path=burn_paths,
+        findings=all_findings,
+    )
 
 
 class _Rows:
@@ -372,45 +387,29 @@ _ONCE: dict[tuple[int, str], tuple[Aircraft, list[_Once]]] = {}
 _ONCE_KEPT = 64
 
 
-def _conditions(aircraft: Aircraft, rows: _Rows, once: _Once, margins: Sequence[Margins]) -> list[Condition]:
-    """One condition of every row: its weight, CG, moment, fuel, the engine's verdict and its margins.
+def _conditions(
+    aircraft: Aircraft, rows: _Rows, once: _Once, margins: dict[str, list[float | None]]
+) -> ConditionColumns:
+    """One condition of every row, by column: its weight, CG, moment, fuel, the engine's verdict
+    and its margins (``margins``: a column per :class:`~loadcheck.results.Margins` field).
 
     The findings of a condition outside a limit are :func:`_condition_findings`'."""
     name = once.name
-    has_lateral = once.has_lateral
     mac = aircraft.mac
-    limit = once.weight_limit
-    n = len(margins)
-    percents = mac.percent(rows.arm_array[CONDITIONS.index(name)]).tolist() if mac else [None] * n
-    return [
-        Condition(
-            condition=name,
-            weight=weight,
-            arm=arm,
-            moment=moment,
-            lateral_arm=lateral_arm if has_lateral else None,
-            lateral_moment=lateral if has_lateral else None,
-            mac_percent=percent,
-            fuel=fuel,
-            fuel_weight=fuel_weight,
-            max_weight=limit,
-            ok=ok,
-            margins=margin,
-        )
-        for weight, moment, arm, lateral, lateral_arm, percent, fuel, fuel_weight, ok, margin in zip(
-            rows.weight[name],
-            rows.moment[name],
-            rows.arm[name],
-            rows.lateral[name],
-            rows.lateral_arm[name],
-            percents,
-            rows.fuel[name],
-            rows.fuel_weight[name],
-            rows.condition_ok[name],
-            margins,
-            strict=True,
-        )
-    ]
+    return ConditionColumns(
+        condition=name,
+        weight=rows.weight[name],
+        arm=rows.arm[name],
+        moment=rows.moment[name],
+        lateral_arm=rows.lateral_arm[name] if once.has_lateral else None,
+        lateral_moment=rows.lateral[name] if once.has_lateral else None,
+        mac_percent=mac.percent(rows.arm_array[CONDITIONS.index(name)]).tolist() if mac else None,
+        fuel=rows.fuel[name],
+        fuel_weight=rows.fuel_weight[name],
+        max_weight=once.weight_limit,
+        ok=rows.condition_ok[name],
+        margins=margins,
+    )
 
 
 def _condition_findings(
@@ -584,8 +583,9 @@ def _margins(
     weights: dict[str, list[tuple[str, float]]],
     allowance: float,
     minimum: float | None = None,
-) -> dict[str, list[Margins]]:
-    """The margins of every loading at every condition (see :class:`~loadcheck.results.Margins`).
+) -> dict[str, dict[str, list[float | None]]]:
+    """The margins of every loading at every condition, a column for each of
+    :class:`~loadcheck.results.Margins`' fields (None where no envelope gives that limit).
 
     A few loadings are cut one slice at a time (:func:`_margins_one`, plain floats); many
     are cut together (the same arithmetic on arrays). The fleet check's agreement tests
@@ -612,7 +612,10 @@ def _margins(
             )
             for i in range(n)
         ]
-        return {name: [row[k] for row in per_row] for k, name in enumerate(CONDITIONS)}
+        return {
+            name: {key: [getattr(row[k], key) for row in per_row] for key in _MARGIN_KEYS}
+            for k, name in enumerate(CONDITIONS)
+        }
     values = {name: {key: np.full(n, np.nan) for key in _MARGIN_KEYS} for name in CONDITIONS}
 
     def keep(name: str, key: str, value: np.ndarray) -> None:
@@ -660,13 +663,7 @@ def _margins(
                         tested_weight < bottom - _weight_noise(shape), np.minimum(room, tested_weight - bottom), room
                     )
                 keep(name, "weight", np.where(np.isnan(top), _room_outside(shape, k, weight, allowance), room))
-    out: dict[str, list[Margins]] = {}
-    for name in CONDITIONS:
-        columns = [_none_for_nan(values[name][key]) for key in _MARGIN_KEYS]
-        out[name] = [
-            Margins(forward=f, aft=a, left=lt, right=r, weight=w) for f, a, lt, r, w in zip(*columns, strict=True)
-        ]
-    return out
+    return {name: {key: _none_for_nan(values[name][key]) for key in _MARGIN_KEYS} for name in CONDITIONS}
 
 
 def _none_for_nan(column: np.ndarray) -> list[float | None]:
@@ -1033,14 +1030,15 @@ def _burn_path(
     resolved: ResolvedLoading,
     found: Evaluation,
     i: int,
-    conditions: Sequence[Condition],
+    takeoff_weight: float,
     findings: list[Finding],
     with_samples: bool,
     points: _PathPoints | None,
 ) -> BurnPath:
     """The burn path explained: samples for drawing, where it leaves, each stretch outside.
 
-    ``points``: the loading's states along its path (:func:`_path_points`; None where its path
+    ``takeoff_weight``: the loading's weight at takeoff [mass unit]; ``points``: its states
+    along its path (:func:`_path_points`; None where its path
     is inside all the way and not drawn)."""
     assert found.path_outside is not None
     stretches = found.path_outside[i]
@@ -1048,14 +1046,13 @@ def _burn_path(
         return BurnPath(ok=bool(found.burn_path_ok[i]), samples=[])
     marks, ends, state, left = points
     start, end = resolved.taxi, resolved.taxi + resolved.trip
-    takeoff = conditions[1]
     takeoff_in = bool(found.envelope_ok["takeoff"][i])
     landing_in = bool(found.envelope_ok["landing"][i])
     ok = bool(found.burn_path_ok[i])
     units = aircraft.units
     lateral = engine_tables(aircraft).has_lateral
 
-    top = takeoff.weight
+    top = takeoff_weight
     samples = (
         [
             PathSample(fuel_burned=top - w, weight=w, arm=m / w, lateral_arm=lat / w if lateral else None)
@@ -1079,8 +1076,8 @@ def _burn_path(
         to_landing = end - e <= 1e-9 * scale  # outside at landing: it does not come back in
         excursions.append(
             Excursion(
-                from_burned=takeoff.weight - state[b][0],
-                to_burned=takeoff.weight - state[e][0],
+                from_burned=top - state[b][0],
+                to_burned=top - state[e][0],
                 from_takeoff=from_takeoff,
                 to_landing=to_landing,
                 leaves=None if from_takeoff else point(b),
@@ -1091,7 +1088,7 @@ def _burn_path(
     first = state[stretches[0][0]]
     payload_weight = float(found.weight["zero_fuel"][i])
     leaves = LeavePoint(
-        fuel_burned=takeoff.weight - first[0],
+        fuel_burned=top - first[0],
         fuel_remaining=first[0] - payload_weight,
         weight=first[0],
         arm=first[1] / first[0],

@@ -230,10 +230,17 @@ class Stored(NamedTuple):
 def stored(result: dict[str, Any], inputs: dict[str, Any] | None = None) -> Stored:
     """``result`` (a check's JSON form) and ``inputs`` (:func:`~loadcheck.loading.recorded_inputs`;
     None where not recorded) as the log stores them."""
+    return stored_text(_stored_json(result), bool(result.get("ok")), result.get("category"), inputs)
+
+
+def stored_text(result: str, ok: bool, category: str | None, inputs: dict[str, Any] | None = None) -> Stored:
+    """A check as the log stores it, from its result's JSON text as :func:`_stored_json` writes it
+    (:func:`loadcheck.result_json.result_texts` writes the same text) and the verdict and category
+    read off that result; ``inputs`` as :func:`stored` takes them."""
     return Stored(
-        _stored_json(result),
-        bool(result.get("ok")),
-        result.get("category"),
+        result,
+        ok,
+        category,
         None if inputs is None else _stored_json(inputs, default=str),
         1 + len((inputs or {}).get("leg") or ()),
     )

@@ -36,12 +36,13 @@ from typing import Any
 import orjson
 
 from .aircraft import RESERVED_IDS, Aircraft
-from .check import check_many
-from .checklog import Stored, stored
+from .check import check_columns
+from .checklog import Stored, stored, stored_text
 from .errors import FileFormatError, InputError, LoadcheckError, Problem
 from .files import encoding_problem, file_kind, named_elsewhere, open_regular, parse_aircraft, parse_loading, read_toml
 from .loading import Loading, burn_order, recorded_inputs, resolve_loading
 from .registration import registration_key, required_key
+from .result_json import result_texts
 from .weighing import latest_date
 
 __all__ = [
@@ -1048,7 +1049,7 @@ def _check_chunk(rows: list[FlightRow]) -> list[tuple[Stored | None, list[str]]]
     """Check a chunk of rows (the one place that decides how a row is checked).
 
     Each usable row is resolved against its aircraft; the rows of each aircraft are then
-    checked together (:func:`~loadcheck.check.check_many`: the engine once for all of
+    checked together (:func:`~loadcheck.check.check_columns`: the engine once for all of
     them, each result the one :func:`~loadcheck.check.check_loading` gives for its row).
     """
     # No pass of the cycle collector while a chunk is checked: its rows, results and their JSON
@@ -1090,8 +1091,16 @@ def _checked_rows(rows: list[FlightRow]) -> list[tuple[Stored | None, list[str]]
         group[1].append(index)
         group[2].append(resolved)
     for aircraft, indices, resolved_rows in by_aircraft.values():
-        for index, result in zip(indices, check_many(aircraft, resolved_rows, samples=False), strict=True):
-            out[index] = (_outcome(rows[index], result.to_dict()), [])
+        # each result's JSON text written from the chunk's columns (result_json: the text of
+        # result.to_dict(), byte for byte), not from objects built for each row
+        written: dict[int, list[bytes]] = {}
+        for index, (columns, k) in zip(indices, check_columns(aircraft, resolved_rows, samples=False), strict=True):
+            texts = written.get(id(columns))
+            if texts is None:
+                texts = written[id(columns)] = result_texts(columns)
+            row = rows[index]
+            inputs = recorded_inputs(row.loading) if _RECORDING and row.loading is not None else None
+            out[index] = (stored_text(texts[k].decode(), columns.ok[k], columns.category[k], inputs), [])
     return out
 
 

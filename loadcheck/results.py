@@ -16,12 +16,15 @@ __all__ = [
     "AircraftInfo",
     "BurnPath",
     "PathSample",
+    "ResultColumns",
     "CheckResult",
     "Condition",
+    "ConditionColumns",
     "ConditionName",
     "Excursion",
     "Finding",
     "Item",
+    "ItemColumns",
     "LeavePoint",
     "Margins",
     "Severity",
@@ -441,6 +444,158 @@ class CheckResult(Result):
     def limits_exceeded(self) -> list[Finding]:
         """Findings of severity ``limit``."""
         return [f for f in self.findings if f.severity == "limit"]
+
+
+# -- many results by column (a fleet check's chunk) ------------------------------------------
+
+
+@dataclass(frozen=True, slots=True)
+class ItemColumns:
+    """The moment tables of N loadings by column (:func:`loadcheck.balance.moment_tables`).
+
+    ``empty`` is the first line of every table. ``stations`` are the fixed parts of each
+    station's line in ``aircraft.station`` order (id, name, kind, arm [arm unit], lateral arm
+    [arm unit] or None); ``weights``, ``moments`` and ``lateral_moments`` are (N, S) lists
+    [mass unit; mass unit * arm unit] (lateral moments None where the aircraft has no lateral
+    limits). ``tanks`` are each tank's id, name and lateral arm or None; ``volumes`` [fuel volume
+    unit], ``fuel_weights`` [mass unit] and ``arms`` [arm unit, at that volume] are (N, T) lists.
+    A table lists the empty weight, each station with a weight other than zero and each tank
+    holding fuel (volume above zero); its moment is weight * arm (FAA-H-8083-1B chapter 2).
+    """
+
+    empty: Item
+    stations: list[tuple[str, str, str, float, float | None]]
+    weights: list[list[float]]
+    moments: list[list[float]]
+    lateral_moments: list[list[float | None]]
+    tanks: list[tuple[str, str, float | None]]
+    volumes: list[list[float]]
+    fuel_weights: list[list[float]]
+    arms: list[list[float]]
+    fuel_moments: list[list[float]]
+    fuel_lateral_moments: list[list[float | None]]
+
+    def table(self, i: int) -> list[Item]:
+        """The moment table of loading ``i``."""
+        items = [self.empty]
+        for (id_, name, kind, arm, lateral_arm), weight, moment, lateral_moment in zip(
+            self.stations, self.weights[i], self.moments[i], self.lateral_moments[i], strict=True
+        ):
+            if weight != 0.0:
+                items.append(
+                    Item(
+                        id=id_,
+                        name=name,
+                        kind=kind,
+                        weight=weight,
+                        arm=arm,
+                        moment=moment,
+                        lateral_arm=lateral_arm,
+                        lateral_moment=lateral_moment,
+                    )
+                )
+        for (id_, name, lateral_arm), volume, weight, arm, moment, lateral_moment in zip(
+            self.tanks,
+            self.volumes[i],
+            self.fuel_weights[i],
+            self.arms[i],
+            self.fuel_moments[i],
+            self.fuel_lateral_moments[i],
+            strict=True,
+        ):
+            if volume > 0:
+                items.append(
+                    Item(
+                        id=id_,
+                        name=name,
+                        kind="fuel",
+                        weight=weight,
+                        arm=arm,
+                        moment=moment,
+                        lateral_arm=lateral_arm,
+                        lateral_moment=lateral_moment,
+                        fuel_volume=volume,
+                    )
+                )
+        return items
+
+
+@dataclass(frozen=True, slots=True)
+class ConditionColumns:
+    """One condition of N loadings by column (each list one value a loading; see :class:`Condition`).
+
+    ``lateral_arm``, ``lateral_moment`` and ``mac_percent`` are None where the aircraft has no
+    lateral limits or no MAC; ``margins`` holds a column for each of :class:`Margins`' fields,
+    None in a column where no envelope gives that limit.
+    """
+
+    condition: ConditionName
+    weight: list[float]
+    arm: list[float]
+    moment: list[float]
+    lateral_arm: list[float] | None
+    lateral_moment: list[float] | None
+    mac_percent: list[float] | None
+    fuel: list[float]
+    fuel_weight: list[float]
+    max_weight: float | None
+    ok: list[bool]
+    margins: dict[str, list[float | None]]
+
+    def at(self, i: int) -> Condition:
+        """The condition of loading ``i``."""
+        return Condition(
+            condition=self.condition,
+            weight=self.weight[i],
+            arm=self.arm[i],
+            moment=self.moment[i],
+            lateral_arm=None if self.lateral_arm is None else self.lateral_arm[i],
+            lateral_moment=None if self.lateral_moment is None else self.lateral_moment[i],
+            mac_percent=None if self.mac_percent is None else self.mac_percent[i],
+            fuel=self.fuel[i],
+            fuel_weight=self.fuel_weight[i],
+            max_weight=self.max_weight,
+            ok=self.ok[i],
+            margins=Margins(**{key: column[i] for key, column in self.margins.items()}),
+        )
+
+
+@dataclass(frozen=True, slots=True)
+class ResultColumns:
+    """The results of N checks of one aircraft by column: what :class:`CheckResult` holds,
+    the numbers as columns and each loading's verdict, burn path and findings as its own.
+
+    Made by :func:`loadcheck.check.check_columns`; :meth:`result` is loading ``i``'s
+    :class:`CheckResult`, and :func:`loadcheck.result_json.result_texts` writes every
+    loading's JSON form straight from the columns (the same text as ``result(i).to_dict()``).
+    """
+
+    aircraft: AircraftInfo
+    units: UnitsInfo
+    caution: str
+    category: list[str]
+    ok: list[bool]
+    items: ItemColumns
+    conditions: list[ConditionColumns]  # in CONDITIONS order
+    burn_path: list[BurnPath]
+    findings: list[list[Finding]]
+
+    def __len__(self) -> int:
+        return len(self.ok)
+
+    def result(self, i: int) -> CheckResult:
+        """The result of loading ``i``."""
+        return CheckResult(
+            ok=self.ok[i],
+            category=self.category[i],
+            aircraft=self.aircraft,
+            items=self.items.table(i),
+            conditions=[condition.at(i) for condition in self.conditions],
+            burn_path=self.burn_path[i],
+            findings=self.findings[i],
+            units=self.units,
+            caution=self.caution,
+        )
 
 
 # -- trips of several legs (docs/file-format.md, "Trips of several legs") ---------------------

@@ -219,6 +219,39 @@ def random_loadings(
     return stations, fuel, taxi, trip
 
 
+def random_resolved_loadings(
+    aircraft: Aircraft, count: int, seed: int, order: Sequence[str] | None = None, reserve: float | None = None
+) -> list[Any]:
+    """Random loadings of an aircraft as loading files give them, resolved; those it refuses left out.
+
+    Each station is loaded in four of five loadings, uniform up to 1.1 times its maximum (200
+    where it has none), so some exceed a limit on purpose (a seat with flight controls is left
+    empty now and then); each tank uniform up to its usable fuel; taxi fuel up to 2, trip fuel a
+    uniform share of the rest of the fuel the burn order uses; ``reserve`` as given.
+    """
+    from loadcheck.errors import LoadcheckError
+    from loadcheck.loading import Loading, resolve_loading
+
+    rng = np.random.default_rng(seed)
+    out = []
+    for _ in range(count):
+        load = {
+            s.id: float(rng.uniform(0, (s.max_weight or 200) * 1.1)) for s in aircraft.station if rng.random() < 0.8
+        }
+        fuel = {t.id: float(rng.uniform(0, t.usable)) for t in aircraft.tank}
+        burnable = sum(fuel.values()) if order is None else sum(fuel[t] for t in order)
+        taxi = min(float(rng.uniform(0, 2)), burnable)
+        trip = float((burnable - taxi) * rng.uniform(0, 1))
+        burn: dict[str, Any] = {"taxi": taxi, "trip": trip, "order": list(order) if order else "together"}
+        if reserve is not None:
+            burn["reserve"] = reserve
+        try:
+            out.append(resolve_loading(Loading(load=load, fuel=fuel, burn=burn), aircraft))
+        except LoadcheckError:
+            continue
+    return out
+
+
 def tamper_check_log(db: Path, statement: str, *args: object) -> None:
     """Edit a record behind the triggers' back, as someone with the database file could."""
     connection = sqlite3.connect(db)

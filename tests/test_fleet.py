@@ -24,7 +24,7 @@ from loadcheck.errors import InputError
 from loadcheck.fleet import check_flights, load_fleet, read_loadings
 from loadcheck.loading import Loading
 
-from .helpers import SAMPLES, sample
+from .helpers import SAMPLES, random_resolved_loadings, sample
 
 DAY = sample("fleet_day.csv")
 
@@ -412,31 +412,6 @@ def test_a_flight_within_limits_carries_its_warnings(runner, records, tmp_path):
 # -- issue 18: the dispatcher's day at engine speed ------------------------------------------
 
 
-def _random_loadings(aircraft, count: int, seed: int, order=None):
-    """Random loadings of an aircraft (some out of limits), resolved; those it refuses left out."""
-    import numpy as np
-
-    from loadcheck.errors import LoadcheckError
-    from loadcheck.loading import resolve_loading
-
-    rng = np.random.default_rng(seed)
-    out = []
-    for _ in range(count):
-        load = {
-            s.id: float(rng.uniform(0, (s.max_weight or 200) * 1.1)) for s in aircraft.station if rng.random() < 0.8
-        }
-        fuel = {t.id: float(rng.uniform(0, t.usable)) for t in aircraft.tank}
-        burnable = sum(fuel.values()) if order is None else sum(fuel[t] for t in order)
-        taxi = min(float(rng.uniform(0, 2)), burnable)
-        trip = float((burnable - taxi) * rng.uniform(0, 1))
-        burn = {"taxi": taxi, "trip": trip, "order": list(order) if order else "together"}
-        try:
-            out.append(resolve_loading(Loading(load=load, fuel=fuel, burn=burn), aircraft))
-        except LoadcheckError:
-            continue
-    return out
-
-
 @pytest.mark.parametrize(
     "name, order",
     [("trainer4", None), ("twin6", ("aux", "mains")), ("twin6", None), ("tandem2", None), ("heli2", None)],
@@ -449,7 +424,7 @@ def test_batch_results_equal_single_checks_on_random_loadings(name, order):
     from loadcheck.check import check_many
 
     aircraft = load_aircraft(sample(f"{name}/aircraft.toml"))
-    loadings = _random_loadings(aircraft, 150, seed=18, order=order)
+    loadings = random_resolved_loadings(aircraft, 150, seed=18, order=order)
     assert len(loadings) >= 100
     many = check_many(aircraft, loadings)
     assert {r.ok for r in many} == {True, False}  # both verdicts are exercised
