@@ -789,6 +789,77 @@ def test_a_trip_whose_leg_2_fails_says_so_first_and_shows_every_leg(reading_desk
     assert _records(reading_desk) == []
 
 
+# The rule of the loading file for a leg (docs/file-format.md, "Trips of several legs": every
+# [[leg]] table has its own burn, and a leg is added on the command line only with its burn): a
+# [[leg]] with nothing in it is refused ("leg 2, burn: this field is required"), never checked as a
+# leg that burns nothing. The desk's form and API follow it.
+LEG_1_ONLY = {k: v for k, v in TRIP_LEG_2_AFT.items() if not k.startswith("leg")}
+
+
+def test_library_refuses_a_leg_table_with_nothing_in_it(tmp_path: Path) -> None:
+    """The rule the desk follows: the loading file's [[leg]] with nothing in it (no burn) is refused."""
+    from loadcheck.errors import LoadcheckError
+
+    trip = tmp_path / "trip.toml"
+    trip.write_text(
+        f'format = 1\naircraft = "{(SAMPLES / "heli2" / "aircraft.toml").as_posix()}"\n'
+        '[load]\nright = 185\n[fuel]\nmain = "full"\n[burn]\ntaxi = 0.5\ntrip = 11\n\n[[leg]]\n',
+        encoding="utf-8",
+    )
+    with pytest.raises(LoadcheckError, match=r"leg 2, burn: this field is required"):
+        load_check_inputs(trip, None, allow_trip=True)
+
+
+def test_form_leg_asked_for_with_nothing_given_is_refused_not_checked_as_an_empty_leg(desk: dict[str, Any]) -> None:
+    """Regression: ``legs=2`` with no leg-2 field was checked as a trip whose leg 2 burns nothing
+    (a warning only); now refused (422), the form again with the leg named, everything typed kept."""
+    client = _client(desk, "pia")
+    for values, route, action in (
+        ({**LEG_1_ONLY, "legs": "2"}, "check", "check"),
+        ({**LEG_1_ONLY, "legs": "2"}, "check", "fuel"),
+        ({**LEG_1_ONLY, "legs": "2"}, "check", "stop"),
+        ({**LEG_1_ONLY, "legs": "2"}, "sheet", "check"),
+        ({**LEG_1_ONLY, "legs": "2"}, "record", "check"),
+        ({**LEG_1_ONLY, "legs": "3", "leg.2.burn.trip": "10"}, "check", "check"),  # leg 3 empty
+        ({**LEG_1_ONLY, "legs": "2", "leg.2.load.front": "170"}, "check", "check"),  # a change, no burn
+    ):
+        response = _post_check(client, values, "TEST-T", action=action, route=route)
+        assert response.status_code == 422, (values, route, action)
+        page = response.text
+        number = values["legs"]
+        shown = page[page.index('class="problem"') : page.index("</ul>", page.index('class="problem"'))]
+        assert f"leg {number}, burn: no fuel used is given for leg {number}" in shown, shown
+        assert "trip fuel" in shown and "0 for a leg that burns none" in shown
+        assert "Within limits" not in page and "Not within limits" not in page
+        assert f'name="legs" value="{number}"' in page and 'name="load.front" value="340"' in page
+        if "leg.2.load.front" in values:
+            assert 'name="leg.2.load.front" value="170"' in page  # what was typed is kept
+    assert _records(desk) == []
+    # a leg that burns nothing, said so, is checked: the refusal is of a leg with no burn given
+    said = _post_check(client, {**LEG_1_ONLY, "legs": "2", "leg.2.burn.trip": "0", "leg.2.burn.taxi": "0"}, "TEST-T")
+    assert said.status_code == 200 and "Leg 2" in said.text
+
+
+def test_api_leg_with_nothing_given_is_refused_not_dropped(desk: dict[str, Any]) -> None:
+    """Regression: ``leg: [{}]`` in POST /api/check was checked as a loading of one leg (the leg given
+    dropped) and a leg without its burn refused in the command line's words; both are refused (422)
+    naming the leg's burn, as the loading file's [[leg]] without its burn is. An explicit empty burn
+    (the file's ``burn = {}``) is a burn given, taken as the library takes it."""
+    client = _client(desk, "pia")
+    body = {"registration": "TEST-T", "load": {"front": 340}, "fuel": {"main": "full"}, "burn": {"taxi": 1, "trip": 10}}
+    for route in ("/api/check", "/api/plan/fuel", "/api/plan/stop"):
+        for leg in ({}, {"label": "back solo"}, {"load": {"front": 170}}):
+            extra = {"stop": 2} if route.endswith("stop") else {}
+            answer = client.post(route, json={**body, **extra, "leg": [{"burn": {"trip": 5}}, leg], "record": True})
+            assert answer.status_code == 422, (route, leg)
+            problems = answer.json()["problems"]
+            assert [p["field"] for p in problems] == ["leg 3, burn"], problems
+            assert problems[0]["message"].startswith("leg 3, burn: no fuel used is given for leg 3")
+    assert _records(desk) == []
+    given = client.post("/api/check", json={**body, "leg": [{"burn": {}}]})
+    assert given.status_code == 200 and len(given.json()["legs"]) == 2
+
+
 def test_a_bad_value_in_a_leg_names_the_leg_and_field_keeps_everything_and_records_nothing(
     desk: dict[str, Any],
 ) -> None:
