@@ -949,7 +949,7 @@ def render_weighing(result: Any, units: Any, console: Console) -> None:
                 [
                     c.label,
                     c.action,
-                    fmt(c.weight, units.mass, with_unit=False),
+                    fmt(c.weight, units.mass, with_unit=False, nonzero=True),
                     fmt(c.arm, units.arm, with_unit=False),
                     *lateral_cell(c.lateral_arm),
                     fmt(c.moment, units.moment, with_unit=False),
@@ -1019,7 +1019,7 @@ def render_alteration(result: Any, units: Any, console: Console) -> None:
             [
                 line.action,
                 line.label,
-                fmt(line.weight, units.mass, with_unit=False),
+                fmt(line.weight, units.mass, with_unit=False, nonzero=True),  # a light item is never shown as 0.0
                 fmt(line.arm, units.arm, with_unit=False),
                 "" if line.new_arm is None else fmt(line.new_arm, units.arm, with_unit=False),
                 fmt(line.weight_change, units.mass, with_unit=False, signed=True),
