@@ -547,6 +547,25 @@ def test_mechanic_bad_readings_come_back_with_the_field_and_nothing_written(desk
     assert (desk["fleet"] / "trainer4" / "aircraft.toml").read_bytes() == before
 
 
+def test_regression_a_kind_the_mechanics_form_has_not_was_read_as_a_weighing(desk: dict[str, Any]) -> None:
+    """``kind=alterations`` (or none) was worked out as scale readings: a choice the form does not have
+    is refused (422), never taken for one it has; nothing waits to be confirmed, nothing is written."""
+    before = (desk["fleet"] / "trainer4" / "aircraft.toml").read_bytes()
+    changes = (SAMPLES / "trainer4" / "changes.toml").read_text()
+    mo = _client(desk, "mo")
+    for kind in ("alterations", "Alteration", "", None):
+        data = {"text": changes, "csrf": csrf_of(mo.get("/mechanic/DEMO-4T").text)}
+        response = mo.post("/mechanic/DEMO-4T/propose", data=data if kind is None else {**data, "kind": kind})
+        assert response.status_code == 422, kind
+        from markupsafe import escape as shown  # as the templates escape
+
+        assert ("no choice was made" if not kind else shown(f"the form has no choice {kind!r}")) in response.text, kind
+        assert "Current and new empty-weight record" not in response.text
+    assert not desk["app"].state.desk.pending
+    assert (desk["fleet"] / "trainer4" / "aircraft.toml").read_bytes() == before
+    assert _propose(mo, changes, kind="alteration").status_code == 200  # the form's own choices go through
+
+
 def test_mechanic_upload_and_typed_text_together_are_refused_and_neither_is_read(desk: dict[str, Any]) -> None:
     # trial 9, finding 1: the upload was used and the typed-in readings dropped without a word
     before = (desk["fleet"] / "trainer4" / "aircraft.toml").read_bytes()

@@ -1236,7 +1236,7 @@ def create_app(
     async def propose_page(
         request: Request,
         registration: str,
-        kind: str = Form("weighing"),
+        kind: str = Form(""),
         text: str = Form(""),
         upload: UploadFile | None = None,
     ) -> Response:
@@ -1244,6 +1244,16 @@ def create_app(
 
         account = _need(request, "mechanic")
         await _form(request, "kind", "text", "upload")
+        if kind not in (
+            "weighing",
+            "alteration",
+        ):  # never taken for one of them: the file would be read as the wrong kind
+            raise HTTPException(
+                422,
+                (f"kind: the form has no choice {kind[:40]!r}" if kind else "kind: no choice was made")
+                + ": nothing was worked out or written; choose scale readings (weighing) or equipment changes "
+                "(alteration)",
+            )
         aircraft, path = desk.aircraft_path(registration)
 
         def refused(error: LoadcheckError | ValidationError, typed: str) -> Response:
