@@ -35,6 +35,7 @@ def test_at_a_terminal_the_old_and_new_record_are_shown_and_asked(runner, tmp_pa
         and "1,685.8 lb" in result.output
         and "Make this the current record" in result.output
     )
+    assert "-32.2 lb" in next(line for line in result.output.splitlines() if "│ empty weight" in line)  # its change
     assert (path.read_bytes() != before) is written
 
 

@@ -536,6 +536,27 @@ def test_mechanic_alteration_typed_in(desk: dict[str, Any]) -> None:
     assert "AC 43.13-1B 10-2 c" in page and "Current and new empty-weight record" in page
 
 
+def test_regression_the_desks_new_record_showed_a_light_change_as_none(desk: dict[str, Any]) -> None:
+    """A placard of 0.021 kg installed at 1,500 mm on tandem2 (invented): current and new record both
+    show 418.0 kg, and the page gave no change, so the mechanic confirmed a record that looked the same.
+    Each line shows its change, never as zero unless it is (FAA-H-8083-1B chapter 2, added weight:
+    new moment = old moment + 0.021 x 1,500 kg-mm); the date has none."""
+    changes = (
+        "format = 1\ndate = 2026-11-01\n[[change]]\naction = 'install'\nitem = 'placard'\nlabel = 'Placard'\n"
+        "weight = 0.021\narm = 1500.0\n"
+    )
+    page = _propose(_client(desk, "mo"), changes, kind="alteration", registration="DEMO-2T").text
+    table = page[page.index('<table class="compare">') : page.index("</table>", page.index('<table class="compare">'))]
+    rows = {
+        cells[0]: cells[1:]
+        for cells in (re.findall(r"<td>(.*?)</td>", row, re.S) for row in re.findall(r"<tr>(.*?)</tr>", table, re.S))
+        if cells
+    }
+    assert rows["empty weight"] == ["418.0 kg", "418.0 kg", "+0.02 kg"], rows
+    assert rows["empty-weight moment"][2] == "+32 kg·mm" and rows["useful load"][2] == "-0.02 kg"
+    assert rows["empty-weight CG"][2] == "+0.1 mm" and rows["record date"][2] == ""
+
+
 def test_mechanic_bad_readings_come_back_with_the_field_and_nothing_written(desk: dict[str, Any]) -> None:
     before = (desk["fleet"] / "trainer4" / "aircraft.toml").read_bytes()
     text = (SAMPLES / "trainer4" / "weighing.toml").read_text().replace("reading = 541.0", "reading = -541.0")

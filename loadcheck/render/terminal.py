@@ -857,18 +857,20 @@ def render_history(listing: Any, console: Console) -> None:
 
 
 def render_comparison(rows: list[Any], console: Console) -> None:
-    """Print the current and the new record side by side (before confirming a write)."""
+    """Print the current and the new record side by side (before confirming a write), with each change
+    (never shown as zero unless it is: :func:`~loadcheck.display.fmt` with ``signed``)."""
     cells = [
         [
             row.quantity,
             *(c if isinstance(c, str) else ("" if c is None else fmt(c, row.unit)) for c in (row.current, row.new)),
+            "" if row.change is None else fmt(row.change, row.unit, signed=True),
         ]
         for row in rows
     ]
     _print_table(
         console,
         "Current and new empty-weight record",
-        [Column("", numeric=False, key=True), Column("Current"), Column("New")],
+        [Column("", numeric=False, key=True), Column("Current"), Column("New"), Column("Change")],
         cells,
     )
 
