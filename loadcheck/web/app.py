@@ -624,8 +624,8 @@ def _inputs(desk: Desk, registration: str, overrides: Overrides, *, fuel_to_plan
     burn is refused first (:func:`_refuse_legs_without_burn`)."""
     from ..files import load_check_inputs
 
-    _refuse_legs_without_burn(overrides["legs"])
     _, path = desk.aircraft_path(registration)
+    _refuse_legs_without_burn(overrides["legs"])
     return load_check_inputs(path, None, allow_trip=True, fuel_to_plan=fuel_to_plan, **overrides)
 
 
