@@ -5,7 +5,10 @@ Routes parse a form or a JSON body, call one library job (the same as the comman
 :func:`~loadcheck.planning.most_fuel`, :func:`~loadcheck.checklog.log_check`,
 :func:`~loadcheck.empty_record.propose` ...) and render its result. They hold no
 arithmetic and no validation of their own; a bad value comes back as the library's
-problems, with the field named and everything typed kept.
+problems, with the field named and everything typed kept. The one rule checked here is one
+the form would otherwise get round: a leg asked for is refused without its burn, as a loading
+file's ``[[leg]]`` is (:func:`_refuse_legs_without_burn`), since the form, not the user, would
+make up the empty one.
 """
 
 from __future__ import annotations
