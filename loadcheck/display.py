@@ -12,7 +12,7 @@ from __future__ import annotations
 import math
 from typing import Literal
 
-__all__ = ["DECIMALS", "decimals", "fmt", "round_safe", "unit_label"]
+__all__ = ["DECIMALS", "EXTRA_DIGITS", "NOISE", "decimals", "fmt", "round_safe", "unit_label"]
 
 Direction = Literal["nearest", "up", "down"]
 
@@ -29,6 +29,19 @@ DECIMALS: dict[str, int] = {
     "%MAC": 1,
 }
 """Decimal places shown per unit."""
+
+
+EXTRA_DIGITS = 3
+"""The most digits shown beyond a unit's places where a figure that is not zero would show as zero
+(a change of +0.021 kg is ``+0.02 kg``, never ``0.0 kg``); the same three as an excess over a limit
+(:func:`loadcheck.words.beyond`)."""
+
+NOISE = 1e-6
+"""Below this fraction of a figure's display step (0.1 lb, 0.01 in, 1 lb·in), a change is taken as
+floating-point noise and shows as zero, with no sign: a sum that comes back to where it started
+(1,710.0 + 4.2 - 4.2 lb is 1,710.0000000000002 lb) is no change. Far below any change a scale or an
+equipment list gives (a millionth of 0.1 lb is 45 micrograms) and far above the noise of figures
+of the size weight and balance handles (a moment of 10⁸ kg·mm carries noise of about 10⁻⁸)."""
 
 
 def decimals(unit: str) -> int:
@@ -81,11 +94,17 @@ def fmt(
     with_unit: bool = True,
     places: int | None = None,
     signed: bool = False,
+    nonzero: bool = False,
 ) -> str:
     """Format a value for display with its unit's precision (or ``places``) and thousands separators.
 
-    ``signed`` writes a change: ``+`` before a figure above zero as shown, ``-`` below (a figure
-    that shows as zero has no sign: nothing changed at that precision).
+    ``signed`` writes a change: ``+`` before a figure above zero, ``-`` below. A change is never
+    shown as zero unless it is (``nonzero``): where it would round to zero at the unit's places, up
+    to :data:`EXTRA_DIGITS` more are shown, and a change smaller still is shown at the last of them
+    rounded away from zero (``+0.0001 lb``: there is a change, of at most that), as an excess over a
+    limit is. Only zero, or floating-point noise below :data:`NOISE` of the display step, shows as
+    zero, with no sign. ``nonzero`` alone does the same for a figure without a sign (the weight of an
+    item installed: 0.021 kg is ``0.02 kg``).
 
     Examples
     --------
@@ -95,10 +114,20 @@ def fmt(
     '0.33 in'
     >>> fmt(104337.0, "lb*in")
     '104,337 lb·in'
-    >>> fmt(4.2, "lb", signed=True), fmt(-18.0, "lb", signed=True), fmt(0.04, "lb", signed=True)
+    >>> fmt(4.2, "lb", signed=True), fmt(-18.0, "lb", signed=True), fmt(0.0, "lb", signed=True)
     ('+4.2 lb', '-18.0 lb', '0.0 lb')
+    >>> fmt(0.021, "kg", signed=True), fmt(-0.004, "in", signed=True), fmt(0.00001, "lb", signed=True)
+    ('+0.02 kg', '-0.004 in', '+0.0001 lb')
+    >>> fmt(1710.0 + 4.2 - 4.2 - 1710.0, "lb", signed=True), fmt(0.021, "kg", nonzero=True)
+    ('0.0 lb', '0.02 kg')
     """
     places = decimals(unit) if places is None else places
+    if (signed or nonzero) and abs(value) >= NOISE * 10.0**-places:
+        most = places + EXTRA_DIGITS
+        while places < most and round_safe(value, places, direction) == 0.0:
+            places += 1
+        if round_safe(value, places, direction) == 0.0:  # smaller than the last digit shown: away from zero
+            direction = "up" if value > 0 else "down"
     text = f"{round_safe(value, places, direction):,.{places}f}"
     if text.startswith("-") and float(text.replace(",", "")) == 0.0:
         text = text[1:]

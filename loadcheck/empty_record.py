@@ -123,12 +123,22 @@ def _bounded_inputs(source: Path, parsed: Any) -> dict[str, Any]:
 
 @dataclass(frozen=True, kw_only=True, slots=True)
 class ComparisonRow(Result):
-    """One line of the old-and-new comparison shown before writing [aircraft units]."""
+    """One line of the old-and-new comparison shown before writing [aircraft units]; ``change`` is
+    ``new - current`` where both are figures (None for the date, or a figure one record lacks)."""
 
     quantity: str
     unit: str
     current: float | str | None
     new: float | str | None
+    change: float | None = None
+
+
+def _row(quantity: str, unit: str, current: float | str | None, new: float | str | None) -> ComparisonRow:
+    """A line of the comparison, with its change where both records give a figure."""
+    change = None
+    if isinstance(current, (int, float)) and isinstance(new, (int, float)):
+        change = float(new - current)
+    return ComparisonRow(quantity=quantity, unit=unit, current=current, new=new, change=change)
 
 
 @dataclass(frozen=True, kw_only=True, slots=True)
@@ -221,28 +231,20 @@ class Proposal:
         units = self.aircraft.units
         old, new = self.result.previous, self.result.new
         rows = [
-            ComparisonRow(quantity="empty weight", unit=units.mass, current=old.weight, new=new.weight),
-            ComparisonRow(quantity="empty-weight CG", unit=units.arm, current=old.arm, new=new.arm),
-            ComparisonRow(quantity="empty-weight moment", unit=units.moment, current=old.moment, new=new.moment),
+            _row("empty weight", units.mass, old.weight, new.weight),
+            _row("empty-weight CG", units.arm, old.arm, new.arm),
+            _row("empty-weight moment", units.moment, old.moment, new.moment),
         ]
         if old.lateral_arm is not None or new.lateral_arm is not None:
-            rows.append(
-                ComparisonRow(
-                    quantity="lateral CG (+ right)", unit=units.arm, current=old.lateral_arm, new=new.lateral_arm
-                )
-            )
-        rows.append(
-            ComparisonRow(
-                quantity="useful load", unit=units.mass, current=self.aircraft.useful_load, new=self.result.useful_load
-            )
-        )
+            rows.append(_row("lateral CG (+ right)", units.arm, old.lateral_arm, new.lateral_arm))
+        rows.append(_row("useful load", units.mass, self.aircraft.useful_load, self.result.useful_load))
         current_date = self.aircraft.empty.date
         rows.append(
-            ComparisonRow(
-                quantity="record date",
-                unit="",
-                current=None if current_date is None else str(current_date),
-                new=str(self.date) if self.date is not None else "missing (the date field of the file)",
+            _row(
+                "record date",
+                "",
+                None if current_date is None else str(current_date),
+                str(self.date) if self.date is not None else "missing (the date field of the file)",
             )
         )
         return rows

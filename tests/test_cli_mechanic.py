@@ -35,6 +35,7 @@ def test_at_a_terminal_the_old_and_new_record_are_shown_and_asked(runner, tmp_pa
         and "1,685.8 lb" in result.output
         and "Make this the current record" in result.output
     )
+    assert "-32.2 lb" in next(line for line in result.output.splitlines() if "│ empty weight" in line)  # its change
     assert (path.read_bytes() != before) is written
 
 
@@ -298,6 +299,40 @@ def test_alter_shows_the_new_lateral_cg_and_its_change(tmp_path):
     assert data["change_lateral_arm"] == pytest.approx(444.8 / 968.0 - 0.4)
     plain = invoke("alter", str(sample("trainer4/aircraft.toml")), str(sample("trainer4/changes.toml")))
     assert plain.exit_code == 0 and "Lateral CG" not in plain.output
+
+
+def test_regression_alter_printed_a_light_item_as_no_change(tmp_path):
+    """A placard of 0.021 kg installed at 1,500 mm on tandem2 (invented) printed "weight 0.0 kg":
+    a change that is not zero is shown with its sign and the digits it needs, on the terminal and
+    the record sheet alike; the JSON keeps the exact figures. New moment = old moment + 0.021 x 1,500
+    kg-mm, new CG = new moment / new weight (FAA-H-8083-1B chapter 2, added weight)."""
+    import shutil
+
+    shutil.copy(sample("tandem2/aircraft.toml"), tmp_path / "aircraft.toml")
+    aircraft = tmp_path / "aircraft.toml"
+    empty = load_aircraft(aircraft).empty
+    changes = tmp_path / "changes.toml"
+    changes.write_text(
+        "format = 1\ndate = 2026-11-01\n[[change]]\naction = 'install'\nitem = 'placard'\nlabel = 'Placard'\n"
+        "weight = 0.021\narm = 1500.0\n"
+    )
+    new_arm = (empty.moment + 0.021 * 1500.0) / (empty.weight + 0.021)
+    assert new_arm - empty.arm == pytest.approx(0.0597, abs=5e-5)  # shows as +0.1 mm (mm: whole numbers)
+    sheet = tmp_path / "record.html"
+    result = invoke("alter", str(aircraft), str(changes), "--sheet", str(sheet))
+    assert result.exit_code == 0, result.output
+    text = " ".join(result.output.split())
+    assert "Change from the current record: weight +0.02 kg, CG +0.1 mm;" in text, text
+    assert "(-0.02 kg)" in text and "weight 0.0 kg" not in text and "(0.0 kg)" not in text
+    assert "the weight changes by +0.02 kg (+0.05 lb)" in text  # the negligible-change words
+    row = next(line for line in result.output.splitlines() if "Placard" in line)
+    assert row.split("│")[3].strip() == "0.02" and row.split("│")[6].strip() == "+0.02", row  # weight, change
+    html = " ".join(sheet.read_text().split())
+    for shown in ("+0.02 kg", "+0.1 mm"):
+        assert f"<td>{shown}</td>" in html, shown
+    data = json.loads(invoke("alter", str(aircraft), str(changes), "--json").stdout)
+    assert data["change_weight"] == (empty.weight + 0.021) - empty.weight  # exact, as computed
+    assert data["lines"][0]["weight_change"] == 0.021 and data["change_arm"] == pytest.approx(new_arm - empty.arm)
 
 
 @pytest.mark.parametrize("typed", ["0", "160 hp", "abc", "-5"])

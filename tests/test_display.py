@@ -50,3 +50,28 @@ def test_the_shown_figure_has_thousands_separators_its_unit_and_no_negative_zero
     assert fmt(1.23456, "in", places=4) == "1.2346 in"
     assert unit_label("kg*m") == "kg\u00b7m" and unit_label("lb") == "lb"
     assert not math.isnan(round_safe(1e15, 2, "up"))
+
+
+@pytest.mark.parametrize(
+    "value, unit, kwargs, shown",
+    [
+        (0.021, "kg", {"signed": True}, "+0.02 kg"),  # regression: was '0.0 kg' (alter, a light placard)
+        (-0.021, "kg", {"signed": True}, "-0.02 kg"),
+        (0.004, "in", {"signed": True}, "+0.004 in"),
+        (-0.0597, "mm", {"signed": True}, "-0.1 mm"),  # mm shows whole numbers: one more digit
+        (0.4, "lb*in", {"signed": True}, "+0.4 lb·in"),
+        (0.00001, "lb", {"signed": True}, "+0.0001 lb"),  # below the last digit shown: away from zero
+        (-0.00001, "lb", {"signed": True}, "-0.0001 lb"),
+        (4.2, "lb", {"signed": True}, "+4.2 lb"),  # at the unit's places, as before
+        (0.0, "lb", {"signed": True}, "0.0 lb"),  # no change: zero, no sign
+        (1710.0 + 4.2 - 4.2 - 1710.0, "lb", {"signed": True}, "0.0 lb"),  # floating-point noise is no change
+        (0.021, "kg", {"nonzero": True}, "0.02 kg"),  # an item's weight
+        (0.021, "kg", {}, "0.0 kg"),  # a neutral figure still rounds to nearest at the unit's places
+    ],
+)
+def test_regression_a_change_that_is_not_zero_never_shows_as_zero(value, unit, kwargs, shown):
+    """A change of +0.021 kg printed as 'weight 0.0 kg'. A change shows its sign and enough digits
+    (up to three more than the unit's, as an excess over a limit does, docs/computation.md
+    "Rounding") to be seen; common practice, no published figure."""
+    assert value != 0.0 or shown.startswith("0")
+    assert fmt(value, unit, **kwargs) == shown

@@ -243,6 +243,59 @@ def test_an_inline_equipment_list_stays_inline(runner, tmp_path):
     assert "[[equipment]]" not in path.read_text()
 
 
+def _history_layout_tidy() -> bool:
+    """Whether the record's writer (loadcheck.files.write_new_record) leaves one blank line before a
+    ``[[history]]`` table it appends; the test after this one is an expected failure (strict) until
+    it does: files.py was not this branch's to change."""
+    import tempfile
+
+    with tempfile.TemporaryDirectory() as folder:
+        path = Path(folder) / "aircraft.toml"
+        shutil.copy(sample("trainer4/aircraft.toml"), path)
+        files_module.write_new_record(
+            path,
+            path.read_bytes(),
+            weight=1700.0,
+            arm=37.0,
+            lateral_arm=None,
+            date=dt.date(2026, 11, 28),
+            reason="weighing",
+            inputs={},
+        )
+        return "\n\n[[history]]\n" in path.read_text(encoding="utf-8")
+
+
+@pytest.mark.xfail(
+    not _history_layout_tidy(),
+    strict=True,
+    reason="needs loadcheck/files.py (write_new_record) to leave one blank line before an appended [[history]]",
+)
+def test_regression_an_appended_history_table_had_no_blank_line_before_it(runner, tmp_path):
+    """After ``weigh --write`` and ``alter --write`` the aircraft file had ``[[history]]`` straight
+    under the last ``[[equipment]]`` line. Each ``[[history]]`` table has one blank line before it,
+    the file reads back to the same bytes (a second read and write changes nothing), and no value
+    changes: the history holds what was written (common practice for a tidy TOML file; no
+    published figure)."""
+    import tomlkit
+
+    path = _trainer(tmp_path)
+    assert runner.invoke(app, ["weigh", str(path), str(tmp_path / "weighing.toml"), "--write", "--yes"]).exit_code == 0
+    assert runner.invoke(app, ["alter", str(path), str(tmp_path / "changes.toml"), "--write", "--yes"]).exit_code == 0
+    text = path.read_text(encoding="utf-8")
+    lines = text.splitlines()
+    headers = [i for i, line in enumerate(lines) if line == "[[history]]"]
+    assert len(headers) == 2
+    for i in headers:
+        assert lines[i - 1] == "" and lines[i - 2] != "", lines[i - 3 : i + 1]  # one blank line, not two
+    assert tomlkit.dumps(tomlkit.parse(text)) == text  # byte-stable on a second read and write
+    data = tomllib.loads(text)
+    assert [h["reason"] for h in data["history"]] == ["weighing", "alteration"]
+    assert (
+        data["history"][0]["previous"]["weight"] == 1718.0
+        and data["history"][1]["new_weight"] == data["empty"]["weight"]
+    )
+
+
 # -- item 7: lateral CG ------------------------------------------------------------------------------
 
 

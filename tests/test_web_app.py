@@ -536,6 +536,27 @@ def test_mechanic_alteration_typed_in(desk: dict[str, Any]) -> None:
     assert "AC 43.13-1B 10-2 c" in page and "Current and new empty-weight record" in page
 
 
+def test_regression_the_desks_new_record_showed_a_light_change_as_none(desk: dict[str, Any]) -> None:
+    """A placard of 0.021 kg installed at 1,500 mm on tandem2 (invented): current and new record both
+    show 418.0 kg, and the page gave no change, so the mechanic confirmed a record that looked the same.
+    Each line shows its change, never as zero unless it is (FAA-H-8083-1B chapter 2, added weight:
+    new moment = old moment + 0.021 x 1,500 kg-mm); the date has none."""
+    changes = (
+        "format = 1\ndate = 2026-11-01\n[[change]]\naction = 'install'\nitem = 'placard'\nlabel = 'Placard'\n"
+        "weight = 0.021\narm = 1500.0\n"
+    )
+    page = _propose(_client(desk, "mo"), changes, kind="alteration", registration="DEMO-2T").text
+    table = page[page.index('<table class="compare">') : page.index("</table>", page.index('<table class="compare">'))]
+    rows = {
+        cells[0]: cells[1:]
+        for cells in (re.findall(r"<td>(.*?)</td>", row, re.S) for row in re.findall(r"<tr>(.*?)</tr>", table, re.S))
+        if cells
+    }
+    assert rows["empty weight"] == ["418.0 kg", "418.0 kg", "+0.02 kg"], rows
+    assert rows["empty-weight moment"][2] == "+32 kg·mm" and rows["useful load"][2] == "-0.02 kg"
+    assert rows["empty-weight CG"][2] == "+0.1 mm" and rows["record date"][2] == ""
+
+
 def test_mechanic_bad_readings_come_back_with_the_field_and_nothing_written(desk: dict[str, Any]) -> None:
     before = (desk["fleet"] / "trainer4" / "aircraft.toml").read_bytes()
     text = (SAMPLES / "trainer4" / "weighing.toml").read_text().replace("reading = 541.0", "reading = -541.0")
@@ -545,6 +566,25 @@ def test_mechanic_bad_readings_come_back_with_the_field_and_nothing_written(desk
     assert "typed-in.toml" in response.text  # the source named as the mechanic knows it
     assert "/tmp" not in response.text and str(desk["fleet"]) not in response.text
     assert (desk["fleet"] / "trainer4" / "aircraft.toml").read_bytes() == before
+
+
+def test_regression_a_kind_the_mechanics_form_has_not_was_read_as_a_weighing(desk: dict[str, Any]) -> None:
+    """``kind=alterations`` (or none) was worked out as scale readings: a choice the form does not have
+    is refused (422), never taken for one it has; nothing waits to be confirmed, nothing is written."""
+    before = (desk["fleet"] / "trainer4" / "aircraft.toml").read_bytes()
+    changes = (SAMPLES / "trainer4" / "changes.toml").read_text()
+    mo = _client(desk, "mo")
+    for kind in ("alterations", "Alteration", "", None):
+        data = {"text": changes, "csrf": csrf_of(mo.get("/mechanic/DEMO-4T").text)}
+        response = mo.post("/mechanic/DEMO-4T/propose", data=data if kind is None else {**data, "kind": kind})
+        assert response.status_code == 422, kind
+        from markupsafe import escape as shown  # as the templates escape
+
+        assert ("no choice was made" if not kind else shown(f"the form has no choice {kind!r}")) in response.text, kind
+        assert "Current and new empty-weight record" not in response.text
+    assert not desk["app"].state.desk.pending
+    assert (desk["fleet"] / "trainer4" / "aircraft.toml").read_bytes() == before
+    assert _propose(mo, changes, kind="alteration").status_code == 200  # the form's own choices go through
 
 
 def test_mechanic_upload_and_typed_text_together_are_refused_and_neither_is_read(desk: dict[str, Any]) -> None:
@@ -787,6 +827,77 @@ def test_a_trip_whose_leg_2_fails_says_so_first_and_shows_every_leg(reading_desk
         'id="leg-1-burn-path"' in page and 'id="leg-2-burn-path"' in page
     )  # the chart: one path per leg (trip_figure)
     assert _records(reading_desk) == []
+
+
+# The rule of the loading file for a leg (docs/file-format.md, "Trips of several legs": every
+# [[leg]] table has its own burn, and a leg is added on the command line only with its burn): a
+# [[leg]] with nothing in it is refused ("leg 2, burn: this field is required"), never checked as a
+# leg that burns nothing. The desk's form and API follow it.
+LEG_1_ONLY = {k: v for k, v in TRIP_LEG_2_AFT.items() if not k.startswith("leg")}
+
+
+def test_library_refuses_a_leg_table_with_nothing_in_it(tmp_path: Path) -> None:
+    """The rule the desk follows: the loading file's [[leg]] with nothing in it (no burn) is refused."""
+    from loadcheck.errors import LoadcheckError
+
+    trip = tmp_path / "trip.toml"
+    trip.write_text(
+        f'format = 1\naircraft = "{(SAMPLES / "heli2" / "aircraft.toml").as_posix()}"\n'
+        '[load]\nright = 185\n[fuel]\nmain = "full"\n[burn]\ntaxi = 0.5\ntrip = 11\n\n[[leg]]\n',
+        encoding="utf-8",
+    )
+    with pytest.raises(LoadcheckError, match=r"leg 2, burn: this field is required"):
+        load_check_inputs(trip, None, allow_trip=True)
+
+
+def test_form_leg_asked_for_with_nothing_given_is_refused_not_checked_as_an_empty_leg(desk: dict[str, Any]) -> None:
+    """Regression: ``legs=2`` with no leg-2 field was checked as a trip whose leg 2 burns nothing
+    (a warning only); now refused (422), the form again with the leg named, everything typed kept."""
+    client = _client(desk, "pia")
+    for values, route, action in (
+        ({**LEG_1_ONLY, "legs": "2"}, "check", "check"),
+        ({**LEG_1_ONLY, "legs": "2"}, "check", "fuel"),
+        ({**LEG_1_ONLY, "legs": "2"}, "check", "stop"),
+        ({**LEG_1_ONLY, "legs": "2"}, "sheet", "check"),
+        ({**LEG_1_ONLY, "legs": "2"}, "record", "check"),
+        ({**LEG_1_ONLY, "legs": "3", "leg.2.burn.trip": "10"}, "check", "check"),  # leg 3 empty
+        ({**LEG_1_ONLY, "legs": "2", "leg.2.load.front": "170"}, "check", "check"),  # a change, no burn
+    ):
+        response = _post_check(client, values, "TEST-T", action=action, route=route)
+        assert response.status_code == 422, (values, route, action)
+        page = response.text
+        number = values["legs"]
+        shown = page[page.index('class="problem"') : page.index("</ul>", page.index('class="problem"'))]
+        assert f"leg {number}, burn: no fuel used is given for leg {number}" in shown, shown
+        assert "trip fuel" in shown and "0 for a leg that burns none" in shown
+        assert "Within limits" not in page and "Not within limits" not in page
+        assert f'name="legs" value="{number}"' in page and 'name="load.front" value="340"' in page
+        if "leg.2.load.front" in values:
+            assert 'name="leg.2.load.front" value="170"' in page  # what was typed is kept
+    assert _records(desk) == []
+    # a leg that burns nothing, said so, is checked: the refusal is of a leg with no burn given
+    said = _post_check(client, {**LEG_1_ONLY, "legs": "2", "leg.2.burn.trip": "0", "leg.2.burn.taxi": "0"}, "TEST-T")
+    assert said.status_code == 200 and "Leg 2" in said.text
+
+
+def test_api_leg_with_nothing_given_is_refused_not_dropped(desk: dict[str, Any]) -> None:
+    """Regression: ``leg: [{}]`` in POST /api/check was checked as a loading of one leg (the leg given
+    dropped) and a leg without its burn refused in the command line's words; both are refused (422)
+    naming the leg's burn, as the loading file's [[leg]] without its burn is. An explicit empty burn
+    (the file's ``burn = {}``) is a burn given, taken as the library takes it."""
+    client = _client(desk, "pia")
+    body = {"registration": "TEST-T", "load": {"front": 340}, "fuel": {"main": "full"}, "burn": {"taxi": 1, "trip": 10}}
+    for route in ("/api/check", "/api/plan/fuel", "/api/plan/stop"):
+        for leg in ({}, {"label": "back solo"}, {"load": {"front": 170}}):
+            extra = {"stop": 2} if route.endswith("stop") else {}
+            answer = client.post(route, json={**body, **extra, "leg": [{"burn": {"trip": 5}}, leg], "record": True})
+            assert answer.status_code == 422, (route, leg)
+            problems = answer.json()["problems"]
+            assert [p["field"] for p in problems] == ["leg 3, burn"], problems
+            assert problems[0]["message"].startswith("leg 3, burn: no fuel used is given for leg 3")
+    assert _records(desk) == []
+    given = client.post("/api/check", json={**body, "leg": [{"burn": {}}]})
+    assert given.status_code == 200 and len(given.json()["legs"]) == 2
 
 
 def test_a_bad_value_in_a_leg_names_the_leg_and_field_keeps_everything_and_records_nothing(

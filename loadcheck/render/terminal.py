@@ -857,18 +857,20 @@ def render_history(listing: Any, console: Console) -> None:
 
 
 def render_comparison(rows: list[Any], console: Console) -> None:
-    """Print the current and the new record side by side (before confirming a write)."""
+    """Print the current and the new record side by side (before confirming a write), with each change
+    (never shown as zero unless it is: :func:`~loadcheck.display.fmt` with ``signed``)."""
     cells = [
         [
             row.quantity,
             *(c if isinstance(c, str) else ("" if c is None else fmt(c, row.unit)) for c in (row.current, row.new)),
+            "" if row.change is None else fmt(row.change, row.unit, signed=True),
         ]
         for row in rows
     ]
     _print_table(
         console,
         "Current and new empty-weight record",
-        [Column("", numeric=False, key=True), Column("Current"), Column("New")],
+        [Column("", numeric=False, key=True), Column("Current"), Column("New"), Column("Change")],
         cells,
     )
 
@@ -949,7 +951,7 @@ def render_weighing(result: Any, units: Any, console: Console) -> None:
                 [
                     c.label,
                     c.action,
-                    fmt(c.weight, units.mass, with_unit=False),
+                    fmt(c.weight, units.mass, with_unit=False, nonzero=True),
                     fmt(c.arm, units.arm, with_unit=False),
                     *lateral_cell(c.lateral_arm),
                     fmt(c.moment, units.moment, with_unit=False),
@@ -1019,7 +1021,7 @@ def render_alteration(result: Any, units: Any, console: Console) -> None:
             [
                 line.action,
                 line.label,
-                fmt(line.weight, units.mass, with_unit=False),
+                fmt(line.weight, units.mass, with_unit=False, nonzero=True),  # a light item is never shown as 0.0
                 fmt(line.arm, units.arm, with_unit=False),
                 "" if line.new_arm is None else fmt(line.new_arm, units.arm, with_unit=False),
                 fmt(line.weight_change, units.mass, with_unit=False, signed=True),

@@ -5,7 +5,10 @@ Routes parse a form or a JSON body, call one library job (the same as the comman
 :func:`~loadcheck.planning.most_fuel`, :func:`~loadcheck.checklog.log_check`,
 :func:`~loadcheck.empty_record.propose` ...) and render its result. They hold no
 arithmetic and no validation of their own; a bad value comes back as the library's
-problems, with the field named and everything typed kept.
+problems, with the field named and everything typed kept. The one rule checked here is one
+the form would otherwise get round: a leg asked for is refused without its burn, as a loading
+file's ``[[leg]]`` is (:func:`_refuse_legs_without_burn`), since the form, not the user, would
+make up the empty one.
 """
 
 from __future__ import annotations
@@ -24,7 +27,7 @@ from collections.abc import Callable, Coroutine, Iterable, Mapping
 from dataclasses import dataclass
 from pathlib import Path
 from types import SimpleNamespace
-from typing import TYPE_CHECKING, Annotated, TypedDict, cast
+from typing import TYPE_CHECKING, Annotated, NotRequired, TypedDict, cast
 
 from fastapi import FastAPI, Form, HTTPException, Request, UploadFile
 from fastapi.exceptions import RequestValidationError
@@ -315,13 +318,14 @@ _Signature = tuple[tuple[str, int, int, int], ...]
 
 
 class LegTables(TypedDict):
-    """A leg after the first as the form gives it to the library: a loading file's ``[[leg]]`` table."""
+    """A leg after the first as the form gives it to the library: a loading file's ``[[leg]]`` table
+    (its ``burn`` only where a field of the leg's fuel used was typed: the form never makes one up)."""
 
     label: str | None
     load: Mapping[str, str]
     names: Mapping[str, str]
     add_fuel: Mapping[str, str]
-    burn: Mapping[str, str | list[str]]
+    burn: NotRequired[Mapping[str, str | list[str]]]
 
 
 class Overrides(TypedDict):
@@ -530,7 +534,9 @@ def _overrides(
     for number in range(2, count + 1):
         label = read(f"leg.{number}.label")
         leg_load, leg_names, added, leg_burn = tables(f"leg.{number}.")
-        further[number] = LegTables(label=label or None, load=leg_load, names=leg_names, add_fuel=added, burn=leg_burn)
+        further[number] = LegTables(label=label or None, load=leg_load, names=leg_names, add_fuel=added)
+        if leg_burn:  # no field of the leg's fuel used typed: no burn, refused as such (_refuse_legs_without_burn)
+            further[number]["burn"] = leg_burn
     category = _text(form, "category")  # as sent, never trimmed: 'utility ' is no category
     if "category" in form:  # a form without the field is sent on without it (the default category), not as ""
         typed["category"] = category
@@ -577,14 +583,52 @@ def form_key(field: str) -> str:
     return f"leg.{number}" + (f".{rest}" if rest else "")
 
 
+def _refuse_legs_without_burn(legs: Mapping[int, Mapping[str, object]]) -> None:
+    """Refuse a leg after the first given without its burn (its fuel used), on the form or in an API body.
+
+    The loading file's rule (docs/file-format.md, "Trips of several legs"): every ``[[leg]]`` table
+    has its own ``burn``, and a ``[[leg]]`` with nothing in it is refused (``leg 2, burn: this field is
+    required``); on the command line a leg is added only with its ``--leg-burn``. A leg the form or
+    the body asks for with nothing given for it would otherwise be checked as a leg that burns
+    nothing, or left out (:func:`~loadcheck.loading.apply_overrides` adds no leg for an empty table),
+    so it is refused here, where the form's legs come in. A burn given empty (the API's
+    ``"burn": {}``, a file's ``burn = {}``) is a burn given: the library takes it, with its warnings.
+
+    Raises
+    ------
+    InputError
+        One problem per such leg, field ``leg N, burn`` (the library's way of naming a leg's field,
+        :func:`~loadcheck.loading.leg_field`), saying what to give; nothing is checked or recorded.
+    """
+    from ..loading import leg_field
+
+    missing = [number for number, tables in sorted(legs.items()) if "burn" not in tables]
+    if missing:
+        raise InputError(
+            [
+                Problem(
+                    leg_field(number, "burn"),
+                    f"no fuel used is given for leg {number}"
+                    + ("" if legs[number] and any(legs[number].values()) else ", nor anything else")
+                    + ": give its taxi and its trip fuel (or a trip time with a rate per hour), 0 for a leg that "
+                    "burns none, or take the leg out; every leg after the first has its own, as each [[leg]] "
+                    "table of a loading file has its burn; nothing was checked or recorded",
+                )
+                for number in missing
+            ]
+        )
+
+
 def _inputs(desk: Desk, registration: str, overrides: Overrides, *, fuel_to_plan: bool = False) -> CheckInputs:
     """The aircraft and the loading (one leg or a trip of several) resolved, as the command line reads them.
 
     ``fuel_to_plan`` for the most fuel: the answer chooses the fuel, so the fuel given (none, or
-    too little for taxi and trip) is not refused, as ``plan fuel`` reads it."""
+    too little for taxi and trip) is not refused, as ``plan fuel`` reads it. A leg given without its
+    burn is refused first (:func:`_refuse_legs_without_burn`)."""
     from ..files import load_check_inputs
 
     _, path = desk.aircraft_path(registration)
+    _refuse_legs_without_burn(overrides["legs"])
     return load_check_inputs(path, None, allow_trip=True, fuel_to_plan=fuel_to_plan, **overrides)
 
 
@@ -1195,7 +1239,7 @@ def create_app(
     async def propose_page(
         request: Request,
         registration: str,
-        kind: str = Form("weighing"),
+        kind: str = Form(""),
         text: str = Form(""),
         upload: UploadFile | None = None,
     ) -> Response:
@@ -1203,6 +1247,16 @@ def create_app(
 
         account = _need(request, "mechanic")
         await _form(request, "kind", "text", "upload")
+        if kind not in (
+            "weighing",
+            "alteration",
+        ):  # never taken for one of them: the file would be read as the wrong kind
+            raise HTTPException(
+                422,
+                (f"kind: the form has no choice {kind[:40]!r}" if kind else "kind: no choice was made")
+                + ": nothing was worked out or written; choose scale readings (weighing) or equipment changes "
+                "(alteration)",
+            )
         aircraft, path = desk.aircraft_path(registration)
 
         def refused(error: LoadcheckError | ValidationError, typed: str) -> Response:
