@@ -1133,6 +1133,13 @@ def _replace_list(doc: Any, key: str, items: list[dict[str, Any]]) -> None:
     doc[key] = table
 
 
+def _tidy_history(text: str) -> str:
+    """``text`` with one blank line before each ``[[history]]`` table (an appended one came right
+    after the table before it); ``text`` as it is where that would change any value."""
+    tidy = re.sub(r"\n+(?=\[\[history\]\]\n)", "\n\n", text)
+    return tidy if tidy == text or tomllib.loads(tidy) == tomllib.loads(text) else text
+
+
 def write_new_record(
     path: str | Path,
     original: bytes,
@@ -1206,7 +1213,7 @@ def write_new_record(
     _append_entry(doc, "history", entry)
     if equipment is not None:
         _replace_list(doc, "equipment", [_plain(item) for item in equipment])
-    text = tomlkit.dumps(doc)
+    text = _tidy_history(tomlkit.dumps(doc))
     size = len(text.encode("utf-8"))
     if size > MAX_FILE_BYTES:
         raise FileFormatError(

@@ -243,33 +243,6 @@ def test_an_inline_equipment_list_stays_inline(runner, tmp_path):
     assert "[[equipment]]" not in path.read_text()
 
 
-def _history_layout_tidy() -> bool:
-    """Whether the record's writer (loadcheck.files.write_new_record) leaves one blank line before a
-    ``[[history]]`` table it appends; the test after this one is an expected failure (strict) until
-    it does: files.py was not this branch's to change."""
-    import tempfile
-
-    with tempfile.TemporaryDirectory() as folder:
-        path = Path(folder) / "aircraft.toml"
-        shutil.copy(sample("trainer4/aircraft.toml"), path)
-        files_module.write_new_record(
-            path,
-            path.read_bytes(),
-            weight=1700.0,
-            arm=37.0,
-            lateral_arm=None,
-            date=dt.date(2026, 11, 28),
-            reason="weighing",
-            inputs={},
-        )
-        return "\n\n[[history]]\n" in path.read_text(encoding="utf-8")
-
-
-@pytest.mark.xfail(
-    not _history_layout_tidy(),
-    strict=True,
-    reason="needs loadcheck/files.py (write_new_record) to leave one blank line before an appended [[history]]",
-)
 def test_regression_an_appended_history_table_had_no_blank_line_before_it(runner, tmp_path):
     """After ``weigh --write`` and ``alter --write`` the aircraft file had ``[[history]]`` straight
     under the last ``[[equipment]]`` line. Each ``[[history]]`` table has one blank line before it,
