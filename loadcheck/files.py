@@ -703,6 +703,21 @@ def load_check_inputs(
     except LoadcheckError as error:
         error = error.with_file(loading_path if loading_path is not None else "command line")
         raise _named_as_typed(error, typed) if command_line else error from None
+    # fail closed: a value given is used or refused, never set aside (after the values' own problems)
+    if fuel_to_plan and overrides.get("fuel"):
+        refused = InputError(
+            [
+                Problem(
+                    f"fuel.{name}",
+                    "fuel given here would not be used: this answer chooses the fuel at engine start; "
+                    "give no fuel (a fill order says which tanks the answer fills first)",
+                )
+                for name in overrides["fuel"]
+            ],
+            file="command line",
+        )
+        raise _named_as_typed(refused, typed) if command_line else refused
+
     if loading_path is not None:
         legs = trip.legs if trip is not None else (resolved,)
         volume = aircraft.units.fuel_volume
@@ -715,6 +730,9 @@ def load_check_inputs(
                 f"loading file's {replaced} (command-line values are laid over the file's)"
             )
     notes += _own_reserves(trip, overrides, aircraft.units.fuel_volume)
+    if fuel_to_plan and loading.fuel:  # the file's fuel at engine start: the answer chooses it instead
+        given = ", ".join(f"{name} {_typed(value)}" for name, value in loading.fuel.items())
+        notes.append(f"the loading file's fuel at engine start ({given}) is not used: this answer chooses the fuel")
     label = loading.label or (Path(loading_path).stem if loading_path is not None else None)
     return CheckInputs(aircraft, resolved, Path(loading_path) if loading_path else None, notes, label, loading, trip)
 

@@ -296,16 +296,26 @@ def test_load_sheet_has_the_fuel_plan_and_names_as_check_sheet_gives_them(
 def test_plan_most_fuel_is_the_library_answer(reading_desk: dict[str, Any]) -> None:
     from loadcheck.planning import most_fuel
 
-    page = _post_check(_client(reading_desk, "pia"), WITHIN, action="fuel").text
+    client = _client(reading_desk, "pia")
+    no_fuel = {name: value for name, value in WITHIN.items() if not name.startswith("fuel.")}
+    page = _post_check(client, no_fuel, action="fuel").text
     inputs = load_check_inputs(
         SAMPLES / "trainer4" / "aircraft.toml",
         None,
         load={"front": "340", "rear": "160", "hold": "15 kg"},
-        fuel={"mains": "school", "centre": "0"},
         burn={"taxi": "1.2", "trip": "18", "reserve": "8"},
+        fuel_to_plan=True,
     )
     answer = most_fuel(inputs.aircraft, inputs.loading)
     assert answer.answer_display in page and "The loading at this answer" in page
+    # trial 13: fuel typed in the form was set aside without a word by "Most fuel", which chooses the
+    # fuel; it is refused, each field named, as plan fuel refuses --fuel (fail closed)
+    typed = _post_check(client, WITHIN, action="fuel")
+    assert typed.status_code == 422
+    for name in ("fuel.mains", "fuel.centre"):
+        assert f"{name}: fuel given here would not be used: this answer chooses the fuel at engine start" in (
+            " ".join(typed.text.split())
+        )
 
 
 def test_plan_most_payload_at_a_station(reading_desk: dict[str, Any]) -> None:
@@ -1017,7 +1027,8 @@ def test_plan_a_trip_from_the_form_is_the_library_answer(reading_desk: dict[str,
     stop = fuel_to_add(inputs.aircraft, inputs.trip, 2)
     assert most.feasible and stop.feasible
     client = _client(reading_desk, "pia")
-    page = _post_check(client, within, "TEST-T", action="fuel").text
+    # the most fuel chooses the fuel at the first engine start: none is given for it (leg 2's uplift is)
+    page = _post_check(client, {k: v for k, v in within.items() if k != "fuel.main"}, "TEST-T", action="fuel").text
     assert escape(most.answer_display) in page and "every leg" in page and 'id="leg-2"' in page
     page = _post_check(client, {**within, "stop": "2"}, "TEST-T", action="stop").text
     assert (
@@ -1213,8 +1224,17 @@ def test_api_plans_are_the_command_lines_json(runner: AppRunner, reading_desk: d
         "burn": {"taxi": 1.2, "trip": 18, "reserve": 8},
     }
     client = _client(reading_desk, "pia")
-    fuel = client.post("/api/plan/fuel", json=body).json()
-    assert fuel == json.loads(runner.invoke(app, ["plan", "fuel", within, "--json"]).stdout)
+    no_fuel = {key: value for key, value in body.items() if key != "fuel"}  # the answer chooses the fuel
+    fuel = client.post("/api/plan/fuel", json=no_fuel).json()
+    aircraft = str(SAMPLES / "trainer4" / "aircraft.toml")
+    options = ["--load", "front=340", "--load", "rear=160", "--load", "hold=15 kg"]
+    options += ["--taxi", "1.2", "--trip", "18", "--reserve", "8", "--json"]
+    assert fuel == json.loads(runner.invoke(app, ["plan", "fuel", aircraft, *options]).stdout)
+    refused = client.post("/api/plan/fuel", json=body)  # fuel given, that the answer would not use
+    assert refused.status_code == 422 and {p["field"] for p in refused.json()["problems"]} == {
+        "fuel.mains",
+        "fuel.centre",
+    }
     payload = client.post("/api/plan/payload", json={**body, "station": "hold"}).json()
     assert payload == json.loads(runner.invoke(app, ["plan", "payload", within, "--station", "hold", "--json"]).stdout)
     assert client.post("/api/plan/payload", json=body).status_code == 422  # no station
