@@ -986,6 +986,25 @@ def _validate_data(path: str | Path, data: Mapping[str, Any], kind: str) -> str:
     )
 
 
+AIRCRAFT_ONLY_KEYS = (
+    "name",
+    "units",
+    "empty",
+    "limits",
+    "mac",
+    "station",
+    "station_group",
+    "tank",
+    "envelope",
+    "history",
+    "equipment",
+    "rotorcraft",
+    "standard_occupant_weight",
+    "meto_power_hp",
+)
+"""Top-level keys of an aircraft file that no loading, readings or changes file has."""
+
+
 def file_kind(data: Mapping[str, Any]) -> str:
     """Guess what a TOML file holds: ``aircraft``, ``loading``, ``readings``, ``changes`` or ``unknown``."""
     if "units" in data or "envelope" in data or "empty" in data:

@@ -39,7 +39,16 @@ from .aircraft import RESERVED_IDS, Aircraft
 from .check import check_columns
 from .checklog import Stored, stored, stored_text
 from .errors import FileFormatError, InputError, LoadcheckError, Problem
-from .files import encoding_problem, file_kind, named_elsewhere, open_regular, parse_aircraft, parse_loading, read_toml
+from .files import (
+    AIRCRAFT_ONLY_KEYS,
+    encoding_problem,
+    file_kind,
+    named_elsewhere,
+    open_regular,
+    parse_aircraft,
+    parse_loading,
+    read_toml,
+)
 from .loading import Loading, burn_order, recorded_inputs, resolve_loading
 from .registration import registration_key, required_key
 from .result_json import result_texts
@@ -194,6 +203,10 @@ class Fleet:
 def load_fleet(folder: str | Path) -> Fleet:
     """Read every aircraft file under a folder (loadings and other files are passed over).
 
+    A file that is none of the known kinds but holds a table or key only an aircraft file has
+    (``name``, ``[limits]``, ``[[station]]``, ...; its ``[units]`` misspelt, say) is read as an
+    aircraft file, so that it is flagged as one that does not validate rather than passed over.
+
     Raises
     ------
     FileFormatError
@@ -214,8 +227,9 @@ def load_fleet(folder: str | Path) -> Fleet:
         except LoadcheckError as error:
             entries.append(AircraftFile(path, None, None, error.lines()))
             continue
-        if file_kind(data) != "aircraft":
-            continue
+        kind = file_kind(data)
+        if kind != "aircraft" and not (kind == "unknown" and any(key in data for key in AIRCRAFT_ONLY_KEYS)):
+            continue  # a loading, readings or changes file; one with an aircraft's tables misspelt is flagged
         registration = data.get("registration") if isinstance(data.get("registration"), str) else None
         try:
             aircraft = parse_aircraft(data, path)
@@ -847,6 +861,11 @@ def _named_aircraft_problem(path: Path, loading: Loading, fleet: Fleet) -> str |
     )
 
 
+_NOT_LOADINGS = ("aircraft", "readings", "changes")
+"""The kinds of file (:func:`~loadcheck.files.file_kind`) a folder of loadings may hold beside them
+and passes over: every other TOML file there is read as a flight's loading."""
+
+
 def _folder_rows(folder: Path, fleet: Fleet) -> Iterator[FlightRow]:
     count = 0
     for index, path in enumerate(sorted(folder.rglob("*.toml")), start=1):
@@ -865,8 +884,10 @@ def _folder_rows(folder: Path, fleet: Fleet) -> Iterator[FlightRow]:
             continue
         try:
             data = read_toml(path)
-            if file_kind(data) != "loading":
+            if file_kind(data) in _NOT_LOADINGS:
                 continue
+            # a loading, or a file that is none of the other kinds (tables misspelt, `[loads]`; no table
+            # at all): read as a loading, so that its problems are reported, never passed over in silence
             loading = parse_loading(data, path)
             registration, reference, pilot = loading.registration, loading.reference or path.stem, loading.pilot
             problem = (

@@ -157,6 +157,59 @@ def test_folder_of_loading_files(runner, records, tmp_path):
     assert "registration" in " ".join(lines[1]["input_error"])
 
 
+def test_regression_a_loading_file_with_misspelt_tables_was_passed_over_in_silence(runner, records, tmp_path):
+    # trial 13: a day's file with `[loads]` (or `[Load]`, or only a label and a pilot, or nothing) was
+    # not taken for a loading and was skipped: "1 flight: 1 within limits", exit 0, a flight never
+    # checked nor reported. Every TOML file of the day that is not an aircraft, readings or changes
+    # file is now read as a loading, its problems reported on its row (fail closed)
+    folder = tmp_path / "day"
+    folder.mkdir()
+    (folder / "a_ok.toml").write_text(
+        'registration = "DEMO-2T"\nreference = "F1"\n[load]\nfront = 80\n[fuel]\nwing = "full"\n'
+    )
+    (folder / "b_plural.toml").write_text(
+        'registration = "DEMO-2T"\nreference = "R99"\npilot = "Kim"\n[loads]\nfront = 80\n[fuels]\nwing = 20\n'
+    )
+    (folder / "c_capitals.toml").write_text('registration = "DEMO-2T"\nreference = "R98"\n[Load]\nfront = 80\n')
+    (folder / "d_label_only.toml").write_text('label = "evening flight"\npilot = "Kim"\n')
+    (folder / "e_empty.toml").write_text("")
+    shutil.copy(sample("trainer4/aircraft.toml"), folder / "f_aircraft.toml")  # an aircraft file: passed over
+    result = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(folder), "--json", "--no-log"])
+    assert result.exit_code == 2, result.output
+    lines = {Path(line["source"]).name: line for line in _json_lines(result.stdout)}
+    assert set(lines) == {"a_ok.toml", "b_plural.toml", "c_capitals.toml", "d_label_only.toml", "e_empty.toml"}
+    assert lines["a_ok.toml"]["ok"] is True
+    problems = {name: " ".join(line.get("input_error") or []) for name, line in lines.items()}
+    assert "loads" in problems["b_plural.toml"] and "fuels" in problems["b_plural.toml"]
+    assert "Load" in problems["c_capitals.toml"]
+    assert "registration" in problems["d_label_only.toml"] and "registration" in problems["e_empty.toml"]
+    table = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(folder), "--no-log"])
+    assert table.exit_code == 2 and "4 could not be used" in " ".join(table.output.split())
+
+
+def test_regression_an_aircraft_file_with_misspelt_tables_was_left_out_of_the_fleet_list(runner, tmp_path):
+    # trial 13: `[unit]`, `[empty_weight]` and `[[envelopes]]` for `[units]`, `[empty]` and `[[envelope]]`:
+    # the file was not taken for an aircraft file and `fleet list` left it out without a flag
+    text = sample("trainer4/aircraft.toml").read_text()
+    for right, wrong in (("[units]", "[unit]"), ("[empty]", "[empty_weight]"), ("[[envelope]]", "[[envelopes]]")):
+        assert right in text
+        text = text.replace(right, wrong)
+    (tmp_path / "misspelt.toml").write_text(text)
+    shutil.copy(sample("tandem2/aircraft.toml"), tmp_path / "good.toml")
+    result = runner.invoke(app, ["fleet", "list", str(tmp_path), "--json"])
+    assert result.exit_code == 2, result.output
+    entries = {Path(a["file"]).name: a for a in json.loads(result.stdout)["aircraft"]}
+    assert set(entries) == {"misspelt.toml", "good.toml"}
+    assert any("unit" in p for p in entries["misspelt.toml"]["problems"])
+
+
+def test_the_keys_only_an_aircraft_file_has_are_the_aircraft_models_less_the_loadings():
+    from loadcheck.aircraft import Aircraft
+    from loadcheck.files import AIRCRAFT_ONLY_KEYS
+
+    assert set(AIRCRAFT_ONLY_KEYS) == set(Aircraft.model_fields) - set(Loading.model_fields)
+
+
 def test_record_survives_an_edit_and_verify_reproduces_it(runner, tmp_path, records):
     shutil.copytree(sample("trainer4"), tmp_path / "trainer4")
     aircraft = tmp_path / "trainer4" / "aircraft.toml"
