@@ -1018,6 +1018,22 @@ def file_kind(data: Mapping[str, Any]) -> str:
     return "unknown"
 
 
+def reads_as(data: Mapping[str, Any], path: str | Path, kind: str) -> bool:
+    """True where ``data`` (read from ``path``) validates as a file of ``kind``: ``aircraft``,
+    ``readings`` or ``changes`` (the models alone, not the aircraft a readings or changes file names)."""
+    try:
+        if kind == "aircraft":
+            parse_aircraft(data, path)
+        else:
+            from .alterations import Changes
+            from .weighing import Readings
+
+            _validate(Readings if kind == "readings" else Changes, data, path)
+    except LoadcheckError:
+        return False
+    return True
+
+
 def write_target(path: str | Path) -> Path:
     """The file a write to ``path`` must replace: the path itself, or where its symlinks lead.
 

@@ -27,7 +27,7 @@ import re
 import threading
 import time
 from collections import deque
-from collections.abc import Iterable, Iterator
+from collections.abc import Iterable, Iterator, Mapping
 from dataclasses import dataclass, field
 from functools import cached_property, lru_cache
 from pathlib import Path
@@ -48,6 +48,7 @@ from .files import (
     parse_aircraft,
     parse_loading,
     read_toml,
+    reads_as,
 )
 from .loading import Loading, burn_order, recorded_inputs, resolve_loading
 from .registration import registration_key, required_key
@@ -203,9 +204,10 @@ class Fleet:
 def load_fleet(folder: str | Path) -> Fleet:
     """Read every aircraft file under a folder (loadings and other files are passed over).
 
-    A file that is none of the known kinds but holds a table or key only an aircraft file has
-    (``name``, ``[limits]``, ``[[station]]``, ...; its ``[units]`` misspelt, say) is read as an
-    aircraft file, so that it is flagged as one that does not validate rather than passed over.
+    A file that is none of the known kinds but holds two tables or keys or more that only an
+    aircraft file has (``name``, ``[limits]``, ``[[station]]``, ...; its ``[units]`` misspelt, say)
+    is read as an aircraft file, so that it is flagged as one that does not validate rather than
+    passed over (one such key alone, a notes file's ``name``, is not taken for an aircraft).
 
     Raises
     ------
@@ -221,14 +223,14 @@ def load_fleet(folder: str | Path) -> Fleet:
     if not folder.is_dir():
         raise FileFormatError("not a folder of aircraft files", file=folder)
     entries = []
-    for path in sorted(folder.rglob("*.toml")):
+    for path in toml_files(folder):
         try:
             data = read_toml(path)
         except LoadcheckError as error:
             entries.append(AircraftFile(path, None, None, error.lines()))
             continue
         kind = file_kind(data)
-        if kind != "aircraft" and not (kind == "unknown" and any(key in data for key in AIRCRAFT_ONLY_KEYS)):
+        if kind != "aircraft" and not (kind == "unknown" and sum(key in data for key in AIRCRAFT_ONLY_KEYS) >= 2):
             continue  # a loading, readings or changes file; one with an aircraft's tables misspelt is flagged
         registration = data.get("registration") if isinstance(data.get("registration"), str) else None
         try:
@@ -861,14 +863,25 @@ def _named_aircraft_problem(path: Path, loading: Loading, fleet: Fleet) -> str |
     )
 
 
-_NOT_LOADINGS = ("aircraft", "readings", "changes")
-"""The kinds of file (:func:`~loadcheck.files.file_kind`) a folder of loadings may hold beside them
-and passes over: every other TOML file there is read as a flight's loading."""
+def toml_files(folder: Path) -> list[Path]:
+    """Every TOML file under ``folder``, its sub-folders too, in order: ``.toml`` in any case
+    (``DAY.TOML``), so that none is passed over for the case of its name."""
+    return sorted(path for path in folder.rglob("*") if path.suffix.lower() == ".toml" and path.is_file())
+
+
+def _is_other_kind(data: Mapping[str, Any], path: Path) -> bool:
+    """True where a file of a folder of loadings is an aircraft, readings or changes file, which
+    the day passes over: it is taken for one (:func:`~loadcheck.files.file_kind`) *and* reads as
+    one (:func:`~loadcheck.files.reads_as`). A loading that holds one of their tables (``[units]``,
+    ``[[point]]``) is no such file: it is read as a loading, and its problems reported."""
+    kind = file_kind(data)
+    return kind in ("aircraft", "readings", "changes") and reads_as(data, path, kind)
 
 
 def _folder_rows(folder: Path, fleet: Fleet) -> Iterator[FlightRow]:
     count = 0
-    for index, path in enumerate(sorted(folder.rglob("*.toml")), start=1):
+    fleet_files = {entry.path for entry in fleet.entries}  # the fleet's own files, when the folders are one
+    for index, path in enumerate(toml_files(folder), start=1):
         shown = str(path).encode("utf-8", "surrogateescape").decode("utf-8", "backslashreplace")
         if shown != str(path):  # a name with bytes that are not UTF-8: no text can name it in a report
             count += 1
@@ -884,10 +897,11 @@ def _folder_rows(folder: Path, fleet: Fleet) -> Iterator[FlightRow]:
             continue
         try:
             data = read_toml(path)
-            if file_kind(data) in _NOT_LOADINGS:
+            if path in fleet_files or _is_other_kind(data, path):
                 continue
-            # a loading, or a file that is none of the other kinds (tables misspelt, `[loads]`; no table
-            # at all): read as a loading, so that its problems are reported, never passed over in silence
+            # a loading, or a file that is none of the other kinds (tables misspelt, `[loads]`; a loading
+            # with an aircraft's table in it; no table at all): read as a loading, so that its problems
+            # are reported, never passed over in silence
             loading = parse_loading(data, path)
             registration, reference, pilot = loading.registration, loading.reference or path.stem, loading.pilot
             problem = (

@@ -174,17 +174,36 @@ def test_regression_a_loading_file_with_misspelt_tables_was_passed_over_in_silen
     (folder / "d_label_only.toml").write_text('label = "evening flight"\npilot = "Kim"\n')
     (folder / "e_empty.toml").write_text("")
     shutil.copy(sample("trainer4/aircraft.toml"), folder / "f_aircraft.toml")  # an aircraft file: passed over
+    shutil.copy(sample("trainer4/weighing.toml"), folder / "g_readings.toml")  # a readings file: passed over
+    # review 13: a loading holding an aircraft's or a readings file's table was taken for one and passed
+    # over, and a file named .TOML was not read at all
+    flight = 'registration = "DEMO-4T"\nreference = "{}"\n[load]\nfront = 400\nrear = 400\n[fuel]\nmains = 10\n'
+    (folder / "h_units.toml").write_text(flight.format("UNITS1") + '[units]\nmass = "kg"\n')
+    (folder / "i_point.toml").write_text(flight.format("POINT1") + "[[point]]\nname = 'nose'\nreading = 1\n")
+    (folder / "J_UPPER.TOML").write_text(flight.format("UPPER1"))
     result = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(folder), "--json", "--no-log"])
     assert result.exit_code == 2, result.output
     lines = {Path(line["source"]).name: line for line in _json_lines(result.stdout)}
-    assert set(lines) == {"a_ok.toml", "b_plural.toml", "c_capitals.toml", "d_label_only.toml", "e_empty.toml"}
+    assert set(lines) == {
+        "a_ok.toml",
+        "b_plural.toml",
+        "c_capitals.toml",
+        "d_label_only.toml",
+        "e_empty.toml",
+        "h_units.toml",
+        "i_point.toml",
+        "J_UPPER.TOML",
+    }
+    assert "units" in " ".join(lines["h_units.toml"]["input_error"])
+    assert "point" in " ".join(lines["i_point.toml"]["input_error"])
+    assert lines["J_UPPER.TOML"]["ok"] is False and not lines["J_UPPER.TOML"].get("input_error")  # checked: over
     assert lines["a_ok.toml"]["ok"] is True
     problems = {name: " ".join(line.get("input_error") or []) for name, line in lines.items()}
     assert "loads" in problems["b_plural.toml"] and "fuels" in problems["b_plural.toml"]
     assert "Load" in problems["c_capitals.toml"]
     assert "registration" in problems["d_label_only.toml"] and "registration" in problems["e_empty.toml"]
     table = runner.invoke(app, ["fleet", "check", str(SAMPLES), str(folder), "--no-log"])
-    assert table.exit_code == 2 and "4 could not be used" in " ".join(table.output.split())
+    assert table.exit_code == 2 and "6 could not be used" in " ".join(table.output.split())
 
 
 def test_regression_an_aircraft_file_with_misspelt_tables_was_left_out_of_the_fleet_list(runner, tmp_path):
@@ -201,6 +220,11 @@ def test_regression_an_aircraft_file_with_misspelt_tables_was_left_out_of_the_fl
     entries = {Path(a["file"]).name: a for a in json.loads(result.stdout)["aircraft"]}
     assert set(entries) == {"misspelt.toml", "good.toml"}
     assert any("unit" in p for p in entries["misspelt.toml"]["problems"])
+    # review 13: one key an aircraft file has (a notes file's name) does not make an aircraft file, else
+    # its registration would be "in two fleet files" and every flight of it refused
+    (tmp_path / "notes.toml").write_text('name = "Spring fleet notes"\nregistration = "DEMO-2T"\n')
+    listed = json.loads(runner.invoke(app, ["fleet", "list", str(tmp_path), "--json"]).stdout)["aircraft"]
+    assert {Path(a["file"]).name for a in listed} == {"misspelt.toml", "good.toml"}
 
 
 def test_the_keys_only_an_aircraft_file_has_are_the_aircraft_models_less_the_loadings():
