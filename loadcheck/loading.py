@@ -359,31 +359,32 @@ def apply_overrides(
         problems: list[Problem] = []
         for number in sorted(legs):
             index = number - 2
+            # source-neutral words: the remedy names the leg's burn by its field (leg_field), which the
+            # command line names by its option (loadcheck.cli.common) and the desk by its form field
             has = f"the trip has {count(len(tables) + 1, 'leg')}" if tables else "the loading has one leg"
-            adding = (
-                f"a leg is added with its burn (--leg-burn {len(tables) + 2}:trip=AMOUNT on the command line, with its "
-                "taxi and reserve) or as a [[leg]] table in the loading file"
-            )
+            next_burn = leg_field(len(tables) + 2, "burn")
             if index > len(tables):
                 problems += [
                     Problem(
                         where,
-                        f"leg {number} skips leg {len(tables) + 2}: {has}; describe every leg in order: {adding}",
+                        f"leg {number} skips leg {len(tables) + 2}: {has}; every leg is given in order, "
+                        "each after the first with its own burn (its taxi and trip fuel)",
                         value=value,
+                        expected=f"{next_burn} first",
                     )
                     for where, value in _leg_values(number, legs[number])
                 ]
                 continue
             if index == len(tables):
                 if "burn" not in legs[number]:
+                    existing = (f"a leg from 2 to {len(tables) + 1}" if len(tables) > 1 else "leg 2") if tables else ""
                     problems += [
                         Problem(
                             where,
-                            f"{has}, so it has no leg {number}: {adding}",
+                            f"{has}, so it has no leg {number}: a leg after the first is added only with its own "
+                            "burn (its taxi and trip fuel)",
                             value=value,
-                            expected=(f"a leg from 2 to {len(tables) + 1}" if len(tables) > 1 else "leg 2")
-                            if tables
-                            else None,
+                            expected=f"{next_burn} as well" + (f", or {existing}" if existing else ""),
                         )
                         for where, value in _leg_values(number, legs[number])
                     ]
