@@ -243,3 +243,50 @@ def test_regression_a_leg_without_its_burn_was_refused_in_command_line_words_fro
         assert problem.expected == expected
         assert "--" not in problem.describe() and "command line" not in problem.describe()
         assert "loading file" not in problem.describe()
+
+
+# -- fill-level names: one rule for the built-in level and the tank's own ----------------------
+
+
+@pytest.mark.parametrize(
+    "typed, volume",
+    [("full", 40.0), ("FULL", 40.0), (" Full ", 40.0), ("local", 25.0), ("LOCAL", 25.0), (" Local ", 25.0)],
+)
+def test_regression_a_named_level_was_matched_in_its_letter_case_where_full_was_not(typed, volume):
+    # trial 13 D5: 'FULL' was read as the built-in level, 'TABS' refused for the tank's level 'tabs':
+    # every level name is now matched without regard to letter case or the spaces around it, at engine
+    # start and at a stop alike (the aircraft file refuses levels differing only in case, so no doubt)
+    from loadcheck.loading import resolve_loading
+
+    start = Loading.model_validate({"load": {"front": 180}, "fuel": {"mains": typed}, "burn": {"taxi": 0, "trip": 0}})
+    assert resolve_loading(start, TWO_TANKS).fuel["mains"] == volume
+    trip = resolve_trip(
+        _trip({"add_fuel": {"mains": typed}, "burn": {"trip": 5}}, fuel={"aux": 10, "mains": 20}), TWO_TANKS
+    )
+    assert trip.legs[1].fuel["mains"] == volume
+
+
+@pytest.mark.parametrize("field", ["fuel", "add_fuel"])
+def test_an_unknown_level_in_any_case_is_refused_with_the_levels_the_tank_has(field):
+    from loadcheck.loading import resolve_loading
+
+    with pytest.raises(UnknownNameError) as caught:
+        if field == "fuel":
+            resolve_loading(Loading.model_validate({"fuel": {"mains": "LOCL"}}), TWO_TANKS)
+        else:
+            resolve_trip(_trip({"add_fuel": {"mains": "LOCL"}, "burn": {"trip": 5}}), TWO_TANKS)
+    problem = caught.value.problems[0]
+    assert problem.field == ("fuel.mains" if field == "fuel" else "leg 2, add_fuel.mains")
+    assert problem.message == "unknown fill level 'LOCL' for tank 'mains' (did you mean 'local'?)"
+    assert problem.expected == "one of full, local"
+
+
+def test_levels_whose_names_differ_only_in_surrounding_spaces_are_never_chosen_between():
+    # fail closed: 'tabs' and ' tabs' in one tank would both be the level typed 'tabs'
+    from loadcheck.loading import resolve_loading
+
+    aircraft = simple_aircraft(
+        tank=[{"id": "mains", "arm": 45.0, "usable": 40.0, "fuel": "avgas", "levels": {"tabs": 25.0, " tabs": 20.0}}]
+    )
+    with pytest.raises(UnknownNameError, match=r"fill level 'tabs' matches 'tabs' and ' tabs' of tank 'mains'"):
+        resolve_loading(Loading.model_validate({"fuel": {"mains": "tabs"}}), aircraft)
