@@ -264,7 +264,11 @@ class Loading(_Model):
     format: Literal[1] = 1
     aircraft: AircraftKey | None = Field(None, description="aircraft file, relative to this file")
     category: str | None = None
-    label: str | None = Field(None, description="free text: flight, booking reference")
+    label: str | None = Field(
+        None,
+        description="free text naming the loading (the load sheet's 'Loading'); a flight or booking reference "
+        "is given as reference",
+    )
     registration: Registration | None = Field(None, description="the aircraft, by registration, in a fleet")
     reference: str | None = Field(None, description="flight or booking reference")
     pilot: str | None = Field(None, description="the pilot in command")
