@@ -25,7 +25,7 @@ from typing import Annotated, Any, Literal
 
 from pydantic import BeforeValidator, Field, field_validator, model_validator
 
-from .aircraft import BURN_TOGETHER, Aircraft
+from .aircraft import BURN_TOGETHER, Aircraft, Tank
 from .errors import InputError, LoadcheckError, Problem, UnitError, UnknownNameError, spelling_hint
 from .filemodel import AircraftKey, FileModel, Registration
 from .fuel import density_problem
@@ -35,6 +35,7 @@ from .units import (
     Quantity,
     convert,
     in_unit,
+    level_key,
     names_a_level,
     parse_duration_hours,
     parse_quantity,
@@ -249,7 +250,7 @@ class Leg(_Model):
     add_fuel: dict[str, FuelStart] = Field(
         default_factory=dict,
         description="fuel put into each tank at the stop: a quantity added [fuel volume unit] or '120 lb', "
-        "'full', or a level name (filled up to it); tanks not named get none",
+        "'full', or a level name in any letter case (filled up to it); tanks not named get none",
     )
     burn: Burn = Field(
         description="this leg's taxi, trip (or trip_time and rate) and reserve; the burn order "
@@ -263,7 +264,11 @@ class Loading(_Model):
     format: Literal[1] = 1
     aircraft: AircraftKey | None = Field(None, description="aircraft file, relative to this file")
     category: str | None = None
-    label: str | None = Field(None, description="free text: flight, booking reference")
+    label: str | None = Field(
+        None,
+        description="free text naming the loading (the load sheet's 'Loading'); a flight or booking reference "
+        "is given as reference",
+    )
     registration: Registration | None = Field(None, description="the aircraft, by registration, in a fleet")
     reference: str | None = Field(None, description="flight or booking reference")
     pilot: str | None = Field(None, description="the pilot in command")
@@ -276,7 +281,8 @@ class Loading(_Model):
     )
     fuel: dict[str, FuelStart] = Field(
         default_factory=dict,
-        description="quantity per tank at engine start: number [fuel volume unit], 'full', a level, '120 lb'",
+        description="quantity per tank at engine start: number [fuel volume unit], 'full', a level, '120 lb'; "
+        "a level name in any letter case",
     )
     burn: Burn = Field(default_factory=Burn)
     leg: list[Leg] = Field(
@@ -359,31 +365,32 @@ def apply_overrides(
         problems: list[Problem] = []
         for number in sorted(legs):
             index = number - 2
+            # source-neutral words: the remedy names the leg's burn by its field (leg_field), which the
+            # command line names by its option (loadcheck.cli.common) and the desk by its form field
             has = f"the trip has {count(len(tables) + 1, 'leg')}" if tables else "the loading has one leg"
-            adding = (
-                f"a leg is added with its burn (--leg-burn {len(tables) + 2}:trip=AMOUNT on the command line, with its "
-                "taxi and reserve) or as a [[leg]] table in the loading file"
-            )
+            next_burn = leg_field(len(tables) + 2, "burn")
             if index > len(tables):
                 problems += [
                     Problem(
                         where,
-                        f"leg {number} skips leg {len(tables) + 2}: {has}; describe every leg in order: {adding}",
+                        f"leg {number} skips leg {len(tables) + 2}: {has}; every leg is given in order, "
+                        "each after the first with its own burn (its taxi and trip fuel)",
                         value=value,
+                        expected=f"{next_burn} first",
                     )
                     for where, value in _leg_values(number, legs[number])
                 ]
                 continue
             if index == len(tables):
                 if "burn" not in legs[number]:
+                    existing = (f"a leg from 2 to {len(tables) + 1}" if len(tables) > 1 else "leg 2") if tables else ""
                     problems += [
                         Problem(
                             where,
-                            f"{has}, so it has no leg {number}: {adding}",
+                            f"{has}, so it has no leg {number}: a leg after the first is added only with its own "
+                            "burn (its taxi and trip fuel)",
                             value=value,
-                            expected=(f"a leg from 2 to {len(tables) + 1}" if len(tables) > 1 else "leg 2")
-                            if tables
-                            else None,
+                            expected=f"{next_burn} as well" + (f", or {existing}" if existing else ""),
                         )
                         for where, value in _leg_values(number, legs[number])
                     ]
@@ -754,22 +761,12 @@ def resolve_loading(
                 )
             )
             continue
-        if isinstance(amount, str) and amount.strip().lower() == "full":
-            fuel[name] = tank.usable
+        level = _fill_level(tank, amount, f"fuel.{name}")
+        if isinstance(level, Problem):
+            unknown.append(level)
             continue
-        if isinstance(amount, str) and amount in tank.levels:
-            fuel[name] = tank.levels[amount]
-            continue
-        if names_a_level(amount):
-            levels = _known(dict.fromkeys(["full", *tank.levels]))
-            unknown.append(
-                Problem(
-                    f"fuel.{name}",
-                    f"unknown fill level {amount!r} for tank {name!r}"
-                    + spelling_hint(str(amount), ["full", *tank.levels]),
-                    expected=levels,
-                )
-            )
+        if level is not None:
+            fuel[name] = level
             continue
         quantity = parse_quantity(amount)
         volume = _to_volume(quantity, density[name], units.mass, units.fuel_volume)
@@ -1079,24 +1076,37 @@ def _stop_fuel(
                     expected=_known(aircraft.tank_by_id),
                 )
             )
-        elif isinstance(amount, str) and amount.strip().lower() == "full":
-            to[name] = tank.usable
-        elif isinstance(amount, str) and amount in tank.levels:
-            to[name] = tank.levels[amount]
-        elif names_a_level(amount):
-            unknown.append(
-                Problem(
-                    leg_field(number, f"add_fuel.{name}"),
-                    f"unknown fill level {amount!r} for tank {name!r}"
-                    + spelling_hint(str(amount), ["full", *tank.levels]),
-                    expected=_known(dict.fromkeys(["full", *tank.levels])),
-                )
-            )
+        elif isinstance(level := _fill_level(tank, amount, leg_field(number, f"add_fuel.{name}")), Problem):
+            unknown.append(level)
+        elif level is not None:
+            to[name] = level
         else:
             added[name] = _to_volume(
                 parse_quantity(amount), density[name], aircraft.units.mass, aircraft.units.fuel_volume
             )
     return StopFuel(to, added, given), unknown
+
+
+def _fill_level(tank: Tank, amount: object, field: str) -> float | Problem | None:
+    """The quantity [fuel volume unit] that ``full`` or one of ``tank``'s level names stands for,
+    matched by :func:`~loadcheck.units.level_key` (letter case and surrounding spaces aside, for the
+    built-in level and the tank's own alike); None for an amount; the problem, at ``field``, of a
+    level name the tank does not have."""
+    if not names_a_level(amount):
+        return None
+    levels = {"full": tank.usable, **tank.levels}
+    key = level_key(str(amount))
+    matches = [level for level in levels if level_key(level) == key]
+    if len(matches) == 1:
+        return levels[matches[0]]
+    if matches:  # names differing only in the spaces around them (the file refuses a difference of case)
+        return Problem(
+            field,
+            f"fill level {amount!r} matches {' and '.join(map(repr, matches))} of tank {tank.id!r}, whose names "
+            "differ only in the spaces around them; give the tank's levels other names in the aircraft file",
+        )
+    hint = spelling_hint(key, {level_key(level): level for level in levels})
+    return Problem(field, f"unknown fill level {amount!r} for tank {tank.id!r}{hint}", expected=_known(levels))
 
 
 def _as_given(amount: float | str) -> float | str:

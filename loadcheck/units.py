@@ -40,6 +40,7 @@ __all__ = [
     "canonical_unit",
     "convert",
     "in_unit",
+    "level_key",
     "names_a_level",
     "parse_duration_hours",
     "parse_quantity",
@@ -220,6 +221,21 @@ def names_a_level(text: object) -> bool:
         return False
     first = text.strip()[0]
     return not (first.isdecimal() or first in ".+-")
+
+
+def level_key(name: str) -> str:
+    """The form in which a fill-level name is matched: the built-in ``full`` and a tank's own level
+    names alike, without regard to letter case or to spaces around it (``FULL``, ``Tabs``, ``tabs``
+    are one level). One rule for every loading (file, command line, CSV, desk): an aircraft file
+    refuses two levels of a tank whose names differ only in letter case, and a level named ``full``
+    in any case (loadcheck.aircraft), so a name matches one level at most.
+
+    Examples
+    --------
+    >>> level_key(" TABS "), level_key("Full")
+    ('tabs', 'full')
+    """
+    return name.strip().lower()
 
 
 def float_as_written(number: str, typed: object = None) -> float:

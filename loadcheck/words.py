@@ -483,15 +483,23 @@ def negligible_cg_words(change: float, unit: str, rule: str, threshold: float | 
 
 
 def negligible_text(overall: bool | None, weight: str, cg: str) -> str:
-    """The negligible-change verdict (AC 43.13-1B 10-2 c) as one plain sentence.
+    """The negligible-change verdict (AC 43.13-1B 10-2 c) as one plain sentence: ``overall`` True
+    (negligible), False (not negligible) or None (the CG rule cannot be applied, so whether the
+    change is negligible cannot be judged).
 
     Examples
     --------
     >>> negligible_text(False, "the weight changes by -13.8 lb", "the CG moves -0.20 in")
     'AC 43.13-1B 10-2 c: the change is not negligible: the weight changes by -13.8 lb, and the CG moves -0.20 in.'
+    >>> negligible_text(None, "the weight changes by +0.4 lb", "the CG rule cannot be applied")  # doctest: +ELLIPSIS
+    'AC 43.13-1B 10-2 c: whether the change is negligible cannot be judged: the weight ... cannot be applied.'
     """
-    verdict = {True: "negligible", False: "not negligible", None: "cannot be judged"}[overall]
-    return f"AC 43.13-1B 10-2 c: the change is {verdict}: {weight}, and {cg}."
+    verdict = {
+        True: "the change is negligible",
+        False: "the change is not negligible",
+        None: "whether the change is negligible cannot be judged",
+    }[overall]
+    return f"AC 43.13-1B 10-2 c: {verdict}: {weight}, and {cg}."
 
 
 def uplift_words(uplift: Uplift, units: UnitsInfo) -> str:

@@ -430,3 +430,29 @@ def test_regression_plan_trip_s_check_had_one_finding_more_than_check_of_its_loa
     words = invoke("plan", "trip", aircraft, *common, "--rate", "120", "--reserve", "45").output
     assert "no trip fuel given" not in words and "lands with: 161.4 l" in words
     assert "reserve: 45.0 l (the reserve asked for)" in words and "reserve landed with" not in words
+
+
+@pytest.mark.parametrize(
+    "options, words",
+    [
+        (
+            ["--leg-load", "2:front=100"],
+            "--leg-load 2:front=100: the loading has one leg, so it has no leg 2: a leg after the first is added "
+            "only with its own burn (its taxi and trip fuel); expected --leg-burn 2:trip=AMOUNT (or a [[leg]] "
+            "table in a loading file) as well",
+        ),
+        (
+            ["--leg-burn", "3:trip=5"],
+            "--leg-burn 3:trip=5: leg 3 skips leg 2: the loading has one leg; every leg is given in order, each "
+            "after the first with its own burn (its taxi and trip fuel); expected --leg-burn 2:trip=AMOUNT (or a "
+            "[[leg]] table in a loading file) first",
+        ),
+    ],
+)
+def test_regression_the_command_line_names_the_leg_burn_option_the_library_leaves_out(options, words):
+    """The library's refusal of a leg without its burn named ``--leg-burn`` whatever the source (a
+    file, the desk); it now names the leg's burn by its field, and the command line, where the leg
+    option was typed, names the option to give instead."""
+    result = invoke("check", str(sample("trainer4/within.toml")), *options)
+    assert_input_error(result, words)
+    assert "leg 2, burn" not in result.output

@@ -109,8 +109,8 @@ def test_values_for_a_leg_the_trip_does_not_have_are_refused_not_made_a_leg():
     fields = [p.field for p in caught.value.problems]
     assert fields == ["leg 3, load.front", "leg 3, add_fuel.mains"]
     message = caught.value.problems[0].message
-    assert "the trip has 2 legs, so it has no leg 3" in message and "--leg-burn 3:" in message
-    assert "[[leg]]" in message and caught.value.problems[0].expected == "leg 2"
+    assert "the trip has 2 legs, so it has no leg 3" in message and "--leg-burn" not in message
+    assert caught.value.problems[0].expected == "leg 3, burn as well, or leg 2"
     with pytest.raises(InputError, match="the loading has one leg, so it has no leg 2"):
         apply_overrides({}, legs={2: {"load": {"front": "0"}}})
     added = apply_overrides(data, legs={3: {"load": {"front": "0"}, "burn": {"trip": "4"}}})  # its burn adds it
@@ -215,3 +215,78 @@ def test_a_registration_with_no_letter_or_digit_is_refused_in_a_file(written):
     with pytest.raises(InputError, match="is not a registration: it has no letter or digit"):
         parse_aircraft(data, "aircraft.toml")
     assert parse_loading({"registration": "g-abcd"}, "day.toml").registration == "g-abcd"  # as written
+
+
+@pytest.mark.parametrize(
+    "data, legs, said, expected",
+    [
+        ({}, {2: {"load": {"front": "0"}}}, "the loading has one leg, so it has no leg 2", "leg 2, burn as well"),
+        (
+            {"leg": [{"burn": {"trip": 5}}, {"burn": {"trip": 5}}]},
+            {4: {"add_fuel": {"mains": "5"}}},
+            "the trip has 3 legs, so it has no leg 4",
+            "leg 4, burn as well, or a leg from 2 to 3",
+        ),
+        ({}, {3: {"burn": {"trip": "4"}}}, "leg 3 skips leg 2: the loading has one leg", "leg 2, burn first"),
+    ],
+)
+def test_regression_a_leg_without_its_burn_was_refused_in_command_line_words_from_any_source(
+    data, legs, said, expected
+):
+    # the refusal named `--leg-burn N:trip=AMOUNT on the command line` and "the loading file" for a
+    # loading given by the library or the desk (no option typed, maybe no file): the words are now the
+    # loading's own, the leg's burn named by its field (the command line names its option itself)
+    with pytest.raises(InputError) as caught:
+        apply_overrides(data, legs=legs)
+    for problem in caught.value.problems:
+        assert said in problem.message and "with its own burn (its taxi and trip fuel)" in problem.message
+        assert problem.expected == expected
+        assert "--" not in problem.describe() and "command line" not in problem.describe()
+        assert "loading file" not in problem.describe()
+
+
+# -- fill-level names: one rule for the built-in level and the tank's own ----------------------
+
+
+@pytest.mark.parametrize(
+    "typed, volume",
+    [("full", 40.0), ("FULL", 40.0), (" Full ", 40.0), ("local", 25.0), ("LOCAL", 25.0), (" Local ", 25.0)],
+)
+def test_regression_a_named_level_was_matched_in_its_letter_case_where_full_was_not(typed, volume):
+    # trial 13 D5: 'FULL' was read as the built-in level, 'TABS' refused for the tank's level 'tabs':
+    # every level name is now matched without regard to letter case or the spaces around it, at engine
+    # start and at a stop alike (the aircraft file refuses levels differing only in case, so no doubt)
+    from loadcheck.loading import resolve_loading
+
+    start = Loading.model_validate({"load": {"front": 180}, "fuel": {"mains": typed}, "burn": {"taxi": 0, "trip": 0}})
+    assert resolve_loading(start, TWO_TANKS).fuel["mains"] == volume
+    trip = resolve_trip(
+        _trip({"add_fuel": {"mains": typed}, "burn": {"trip": 5}}, fuel={"aux": 10, "mains": 20}), TWO_TANKS
+    )
+    assert trip.legs[1].fuel["mains"] == volume
+
+
+@pytest.mark.parametrize("field", ["fuel", "add_fuel"])
+def test_an_unknown_level_in_any_case_is_refused_with_the_levels_the_tank_has(field):
+    from loadcheck.loading import resolve_loading
+
+    with pytest.raises(UnknownNameError) as caught:
+        if field == "fuel":
+            resolve_loading(Loading.model_validate({"fuel": {"mains": "LOCL"}}), TWO_TANKS)
+        else:
+            resolve_trip(_trip({"add_fuel": {"mains": "LOCL"}, "burn": {"trip": 5}}), TWO_TANKS)
+    problem = caught.value.problems[0]
+    assert problem.field == ("fuel.mains" if field == "fuel" else "leg 2, add_fuel.mains")
+    assert problem.message == "unknown fill level 'LOCL' for tank 'mains' (did you mean 'local'?)"
+    assert problem.expected == "one of full, local"
+
+
+def test_levels_whose_names_differ_only_in_surrounding_spaces_are_never_chosen_between():
+    # fail closed: 'tabs' and ' tabs' in one tank would both be the level typed 'tabs'
+    from loadcheck.loading import resolve_loading
+
+    aircraft = simple_aircraft(
+        tank=[{"id": "mains", "arm": 45.0, "usable": 40.0, "fuel": "avgas", "levels": {"tabs": 25.0, " tabs": 20.0}}]
+    )
+    with pytest.raises(UnknownNameError, match=r"fill level 'tabs' matches 'tabs' and ' tabs' of tank 'mains'"):
+        resolve_loading(Loading.model_validate({"fuel": {"mains": "tabs"}}), aircraft)

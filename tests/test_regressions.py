@@ -632,3 +632,35 @@ def test_a_fleet_trips_leg_problem_named_the_trips_first_row(runner, tmp_path):
     )
     result = runner.invoke(app, ["fleet", "check", str(folder), str(day), "--no-log"])
     assert result.exit_code == 2 and f"{day}:3: leg 2, burn: taxi and trip fuel (100 usgal) exceed" in result.stderr
+
+
+def test_regression_a_named_level_in_another_letter_case_was_refused_where_full_was_read(runner, tmp_path, desk):
+    # trial 13 D5: `--fuel main=FULL` was read as full, `--fuel main=TABS` refused for the tank's level
+    # 'tabs' (the fleet CSV too). One rule, the library's (loadcheck.units.level_key): a level name is
+    # matched without regard to letter case, the built-in and the tank's own alike, on the command line,
+    # in a CSV and at the desk. trainer4 (invented): mains usable 44 usgal, level school = 30 usgal
+    from .web_helpers import _client
+
+    aircraft = str(sample("trainer4/aircraft.toml"))
+    fuel = {}
+    for typed in ("school", "SCHOOL", "School", "full", "FULL"):
+        result = runner.invoke(app, ["check", aircraft, "--load", "front=170", "--fuel", f"mains={typed}", "--json"])
+        assert result.exit_code == 0, result.output
+        fuel[typed] = json.loads(result.stdout)["conditions"][0]["fuel"]
+    assert fuel["school"] == fuel["SCHOOL"] == fuel["School"] == 30.0 and fuel["full"] == fuel["FULL"] == 44.0
+    refused = runner.invoke(app, ["check", aircraft, "--fuel", "mains=SCHOL"])
+    assert refused.exit_code == 2 and "--fuel mains=SCHOL: unknown fill level 'SCHOL' for tank 'mains'" in (
+        refused.output
+    )
+    day = tmp_path / "day.csv"
+    day.write_text("registration,reference,front,mains\nDEMO-4T,R1,170,SCHOOL\nDEMO-4T,R2,170,school\n")
+    checked = runner.invoke(app, ["fleet", "check", str(sample(".")), str(day), "--json", "--no-log"])
+    lines = [json.loads(line) for line in checked.stdout.splitlines() if line.startswith("{")]
+    assert checked.exit_code == 0, checked.output
+    assert [line["conditions"][0]["fuel"] for line in lines] == [30.0, 30.0]
+    client = _client(desk, "pia")
+    answer = client.post(
+        "/api/check", json={"registration": "DEMO-4T", "load": {"front": 170}, "fuel": {"mains": "SCHOOL"}}
+    )
+    assert answer.status_code == 200, answer.text
+    assert answer.json()["conditions"][0]["fuel"] == 30.0

@@ -265,3 +265,32 @@ def test_sheet_of_an_aircraft_without_lateral_arms_has_no_lateral_columns(runner
     path = tmp_path / "sheet.html"
     runner.invoke(app, ["check", str(sample("twin6/within.toml")), "--sheet", str(path)])
     assert not any("Lateral" in h for h in _moment_rows(path.read_text())["Item"])
+
+
+def test_regression_the_record_sheets_changes_table_showed_a_light_placard_as_nothing(tmp_path):
+    """A placard of 0.021 kg installed at 1,500 mm on tandem2 (invented; kg, mm): the record sheet's
+    Changes table showed its weight as ``0.0`` (a non-zero weight shown as none), and the Moment change
+    heading read ``kg*mm`` where every figure of the sheet writes ``kg·mm`` (SI Brochure, 9th edition,
+    5.4.6: a product of units with a middle dot). Moment change = 0.021 kg x 1,500 mm = +31.5 kg·mm
+    (FAA-H-8083-1B chapter 2: moment = weight x arm)."""
+    import shutil
+
+    from .helpers import record_sheet
+
+    shutil.copy(sample("tandem2/aircraft.toml"), tmp_path / "aircraft.toml")
+    changes = tmp_path / "changes.toml"
+    changes.write_text(
+        "format = 1\ndate = 2026-11-01\n[[change]]\naction = 'install'\nitem = 'placard'\nlabel = 'Placard'\n"
+        "weight = 0.021\narm = 1500.0\n"
+    )
+    html = record_sheet(tmp_path, "alter", tmp_path / "aircraft.toml", changes)
+    row = re.search(r"<tr><td>install</td><td>Placard</td>(.*?)</tr>", html)
+    assert row is not None, html
+    cells = re.findall(r"<td[^>]*>(.*?)</td>", row.group(1))
+    assert cells[0] == "0.02", cells  # the weight, with the digits it needs (0.0 before)
+    assert cells[-1] == "+32", cells  # 31.500000000000004 kg·mm to whole kg·mm
+    assert "Moment change (kg·mm)" in html
+    assert "kg*mm" not in html
+    # the weighing record's points and corrections write the moment unit the same way
+    weighing = record_sheet(tmp_path, "weigh", sample("trainer4/aircraft.toml"), sample("trainer4/weighing.toml"))
+    assert "Moment (lb·in)" in weighing and "lb*in" not in weighing

@@ -9,9 +9,11 @@ from __future__ import annotations
 
 import functools
 import os
+import re
 import shlex
 from collections.abc import Callable, Iterator, Mapping
 from contextlib import contextmanager
+from dataclasses import replace
 from pathlib import Path
 from typing import TYPE_CHECKING, Annotated, Any, NoReturn, ParamSpec, TypeVar
 
@@ -352,21 +354,48 @@ def _inputs(
             burn[key] = value
     if order is not None:
         burn["order"] = burn_order(order, f"--order {shlex.quote(order)}", with_value=False)
-    inputs = load_check_inputs(
-        aircraft,
-        loading,
-        load=_assignments(load, "--load"),
-        fuel=_assignments(fuel, "--fuel"),
-        burn=burn,
-        category=category,
-        fuel_to_plan=fuel_to_plan,
-        legs=legs,
-        allow_trip=allow_trip,
-        command_line=True,
-    )
+    try:
+        inputs = load_check_inputs(
+            aircraft,
+            loading,
+            load=_assignments(load, "--load"),
+            fuel=_assignments(fuel, "--fuel"),
+            burn=burn,
+            category=category,
+            fuel_to_plan=fuel_to_plan,
+            legs=legs,
+            allow_trip=allow_trip,
+            command_line=True,
+        )
+    except LoadcheckError as error:
+        raise _leg_burn_named(error) from None
     for note in inputs.notes:
         _console(stderr=True).print(f"note: {note}", markup=False)
     return inputs
+
+
+_LEG_BURN = re.compile(r"(?<![\w.])leg (\d+), burn(?![\w.])")
+
+
+def _leg_burn_named(error: LoadcheckError) -> LoadcheckError:
+    """``error`` with the leg burn that a typed leg option's problem asks for (``expected leg 3, burn as
+    well``: loadcheck.loading.apply_overrides names it by its field, whatever the source) named as the
+    command line gives it: ``--leg-burn 3:trip=AMOUNT (or a [[leg]] table in a loading file)``. Only the
+    problems of a ``--leg-*`` option typed are touched; a problem of the file's own legs keeps its words.
+    """
+    problems = [
+        replace(
+            problem,
+            expected=_LEG_BURN.sub(
+                lambda leg: f"--leg-burn {leg[1]}:trip=AMOUNT (or a [[leg]] table in a loading file)",
+                problem.expected,
+            ),
+        )
+        if problem.field.startswith("--leg-") and problem.expected
+        else problem
+        for problem in error.problems
+    ]
+    return error if problems == error.problems else type(error)(problems, file=error.file)
 
 
 def _need(value: T | None, option: str) -> T:

@@ -15,7 +15,7 @@ import re
 from html import escape
 from typing import TYPE_CHECKING, Any
 
-from ..display import Direction, fmt
+from ..display import Direction, fmt, unit_label
 from ..results import CheckResult
 from ..words import burn_path_sentence, given_fuel_words, sheet_verdict, trip_leg_verdict
 
@@ -533,9 +533,10 @@ def mechanic_sheet_html(
     if result.registration:
         title += f" ({result.registration})"
     m, a, mo = units.mass, units.arm, units.moment
+    moment_heading = unit_label(mo)  # lb·in, as every figure's unit and the load sheet write it
 
-    def n(value: float | None, unit: str) -> str:
-        return "" if value is None else fmt(value, unit, with_unit=False)
+    def n(value: float | None, unit: str, *, nonzero: bool = False) -> str:
+        return "" if value is None else fmt(value, unit, with_unit=False, nonzero=nonzero)
 
     meta = [("Aircraft", result.aircraft), ("Registration", result.registration or "")]
     if weighing:
@@ -570,7 +571,7 @@ def mechanic_sheet_html(
         parts.append("<h2>Weighing points</h2>")
         if result.geometry is not None:
             parts.append(f"<p id='geometry'>Geometry: {escape(_geometry_words(result.geometry, a))}.</p>")
-        head = ["Point", f"Reading ({m})", f"Tare ({m})", f"Net ({m})", f"Arm ({a})", f"Moment ({mo})"]
+        head = ["Point", f"Reading ({m})", f"Tare ({m})", f"Net ({m})", f"Arm ({a})", f"Moment ({moment_heading})"]
         head += [f"Lateral arm ({a}, + right)"] if lateral else []
         parts.append(
             _table(
@@ -591,7 +592,7 @@ def mechanic_sheet_html(
             parts.append("<h2>Corrections</h2>")
             parts.append(
                 _table(
-                    ["Item", "", f"Weight ({m})", f"Arm ({a})", f"Moment ({mo})"],
+                    ["Item", "", f"Weight ({m})", f"Arm ({a})", f"Moment ({moment_heading})"],
                     [[c.label, c.action, n(c.weight, m), n(c.arm, a), n(c.moment, mo)] for c in result.corrections],
                 )
             )
@@ -599,12 +600,19 @@ def mechanic_sheet_html(
         parts.append("<h2>Changes</h2>")
         parts.append(
             _table(
-                ["Action", "Item", f"Weight ({m})", f"Arm ({a})", f"New arm ({a})", f"Moment change ({mo})"],
+                [
+                    "Action",
+                    "Item",
+                    f"Weight ({m})",
+                    f"Arm ({a})",
+                    f"New arm ({a})",
+                    f"Moment change ({moment_heading})",
+                ],
                 [
                     [
                         c.action,
                         c.label,
-                        n(c.weight, m),
+                        n(c.weight, m, nonzero=True),  # a light item's weight never shows as 0.0
                         n(c.arm, a),
                         n(c.new_arm, a),
                         fmt(c.moment_change, mo, with_unit=False, signed=True),
