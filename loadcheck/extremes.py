@@ -311,9 +311,13 @@ def _fill_loads(
     return loads, cut
 
 
-def _fuel_loads(aircraft: Aircraft, min_fuel: float | None) -> tuple[list[tuple[float, ...]], bool]:
+def _fuel_loads(
+    aircraft: Aircraft, min_fuel: float | None, fixed: dict[int, float] | None = None
+) -> tuple[list[tuple[float, ...]], bool]:
     """The fuel states searched: each choice of full tanks, and the rest of the minimum fuel
-    put tank by tank in each order of the other tanks [fuel volume unit].
+    put tank by tank in each order of the other tanks [fuel volume unit]. A tank in ``fixed``
+    (its index: its quantity) holds that quantity in every state; a state whose other tanks
+    cannot make up the minimum fuel is then left out (it is not a loading the search permits).
 
     Returns the states and whether :data:`_ORDERS` left some orders out.
 
@@ -336,13 +340,16 @@ def _fuel_loads(aircraft: Aircraft, min_fuel: float | None) -> tuple[list[tuple[
     states: dict[tuple[float, ...], None] = {}
     cut = False
     count = len(tanks)
-    for size in range(count + 1):
-        for full in itertools.combinations(range(count), size):
-            base = [tanks[i].usable if i in full else 0.0 for i in range(count)]
+    held = fixed or {}
+    free = [i for i in range(count) if i not in held]
+    for size in range(len(free) + 1):
+        for full in itertools.combinations(free, size):
+            base = [held[i] if i in held else tanks[i].usable if i in full else 0.0 for i in range(count)]
             need = min_fuel - sum(base)
-            rest = [i for i in range(count) if i not in full]
+            rest = [i for i in free if i not in full]
             if need <= 1e-12 or not rest:
-                states[tuple(base)] = None
+                if need <= 1e-12 or not held:
+                    states[tuple(base)] = None
                 continue
             for k, order in enumerate(itertools.permutations(rest)):
                 if k >= _ORDERS:
@@ -354,7 +361,8 @@ def _fuel_loads(aircraft: Aircraft, min_fuel: float | None) -> tuple[list[tuple[
                     left -= state[i]
                     if left <= 1e-12:
                         break
-                states[tuple(state)] = None
+                if left <= 1e-12 or not held:
+                    states[tuple(state)] = None
     return list(states), cut
 
 
@@ -759,6 +767,37 @@ def _row_ids(rows: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
     return ids, order[new]
 
 
+NOISE = 1e-9
+"""A load a target puts this little outside its range (a fraction of the range's larger end, at least one unit)
+is float noise, not a load outside the range: it is taken at the range's end [fraction]."""
+
+
+def _inward(loads: np.ndarray, low: np.ndarray, high: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """The targets of a line that lie in their row's range [low, high], each clamped into it [line's unit].
+
+    A target can carry float noise: the load that brings the loading to a corner weight of 720 kg is the
+    corner less the rest of the loading, and the loading then weighs 720.0000000000514 kg, or the load is a
+    hair above the station's maximum. Such a target, within :data:`NOISE` of its range, is kept and moved to
+    the range's end (never outward, never dropped); a target farther outside is not a permitted load.
+
+    Returns the row and column of each target kept, and its load, inside its range.
+
+    Examples
+    --------
+    >>> rows, cols, loads = _inward(np.array([[120.0000000000514, -1e-13, 150.0, np.nan]]),
+    ...                             np.zeros((1, 4)), np.full((1, 4), 120.0))
+    >>> cols.tolist(), loads.tolist()
+    ([0, 1], [120.0, 0.0])
+    """
+    finite_high = np.where(np.isfinite(high), np.abs(high), 1.0)
+    noise = NOISE * np.maximum(1.0, np.maximum(finite_high, np.abs(low)))
+    with np.errstate(invalid="ignore"):
+        inside = np.isfinite(loads) & (loads >= low - noise) & (loads <= high + noise)
+    row, col = np.nonzero(inside)
+    values = np.minimum(np.maximum(loads[row, col], low[row, col]), high[row, col])
+    return row, col, values
+
+
 def _line_loads(
     aircraft: Aircraft,
     category: str,
@@ -781,23 +820,20 @@ def _line_loads(
 
     state = _State(*of("ramp"), *of("zero_fuel"), stations, fuels)
     width = stations.shape[1]
-    base = np.round(np.concatenate([stations, fuels], axis=1), 9)
+    base = np.concatenate([stations, fuels], axis=1)
+    keys = np.round(base, 9)  # equal candidates are found by their loads to 9 decimals; the loads stay as they are
     picks: list[tuple[int, np.ndarray, np.ndarray]] = []  # column, base row, new value
     for line in _lines(aircraft):
         loads, _ = _targets(aircraft, category, line, state)
         if not loads.shape[1]:
             continue
-        low = _line_low(line, state, min_fuel)[:, None]
-        noise = 1e-9 * max(1.0, line.high if math.isfinite(line.high) else 1.0)
-        with np.errstate(invalid="ignore"):
-            inside = np.isfinite(loads) & (loads >= low - noise) & (loads <= line.high + noise)
-        row, col = np.nonzero(inside)
+        low = np.broadcast_to(_line_low(line, state, min_fuel)[:, None], loads.shape)
+        row, _, values = _inward(loads, low, np.full(loads.shape, line.high))
         if not len(row):
             continue
-        values = np.clip(loads[row, col], low[row, 0], line.high)
         column = width + line.column if line.tank else line.column
         # base loadings that differ only in this quantity give the same candidate: keep one of each
-        rest, _ = _row_ids(np.delete(base, column, axis=1))
+        rest, _ = _row_ids(np.delete(keys, column, axis=1))
         _, first = _row_ids(np.stack([rest[row].astype(float), np.round(values, 9)], axis=1))
         picks.append((column, row[first], values[first]))
     total = sum(len(r) for _, r, _ in picks)
@@ -812,9 +848,121 @@ def _line_loads(
         rows = base[row[mine]].copy()
         rows[:, column] = values[mine]
         chosen.append(rows)
-    both = np.round(np.concatenate(chosen), 9)
-    both = both[np.sort(_row_ids(both)[1])]
+    both = np.concatenate(chosen)
+    both = both[np.sort(_row_ids(np.round(both, 9))[1])]
     return both[:, :width], both[:, width:], cut
+
+
+TRADE_BOUND = 200_000
+"""At most this many candidate loadings with a tank with an arm table held at one of its trade quantities
+(:func:`_held_quantities`) are searched, before the lines from them [count]."""
+
+
+def _held_quantities(aircraft: Aircraft, column: int) -> list[tuple[float, str]]:
+    """The quantities of a tank with an arm table at which the search holds it while the rest of the loading
+    is searched again (:func:`_trade_loads`), each with words saying what it is [fuel volume unit].
+
+    Traded against another item at one weight W (the tank's fuel mass up by rho dq, the other's down as
+    much), the loading's moment changes by rho (a(q) + q a'(q) - a_j) dq, a_j the other item's arm
+    (FAA-H-8083-1B chapter 2: moment = weight x arm). On a piece of the table a(q) = alpha + beta q, so the
+    tank's moment rho (alpha q + beta q^2) has the slope rho (alpha + 2 beta q), and at one weight the CG is
+    least or most where alpha + 2 beta q = a_j: q = (a_j - alpha) / (2 beta). The weight, and with it the
+    limit, is the same all along the trade, so this holds against any edge of any envelope drawn against
+    weight. These quantities, one for each item at a fixed arm that can move (a station that is not a seat,
+    a tank without an arm table) and each piece of the table with beta not zero, and the table's own
+    quantities (where the slope jumps), are the quantities at which the tank can sit at a least margin
+    with another item traded against it; the rest of that loading is then a loading of items at fixed
+    arms, which the base and the lines search."""
+    tank = aircraft.tank[column]
+    found: dict[float, str] = {}
+    for knot in tank.arm_knots():
+        if 0.0 < knot < tank.usable:
+            found.setdefault(float(knot), "a quantity of its arm table, with the rest of the loading searched again")
+    partners = [
+        (line.name, line.arm)
+        for line in _lines(aircraft)
+        if line.arm is not None and not (line.tank and line.column == column)
+    ]
+    for low, high, alpha, beta in _table_pieces(tank):
+        if beta == 0.0:
+            continue
+        for name, arm in partners:
+            q = (arm - alpha) / (2.0 * beta)
+            if low < q < high:
+                found.setdefault(
+                    q,
+                    f"the quantity where its fuel's moment per {aircraft.units.mass} added equals the arm of "
+                    f"{name} ({fmt(arm, aircraft.units.arm)}), traded against it at one weight",
+                )
+    return sorted(found.items())
+
+
+def _trade_loads(
+    aircraft: Aircraft, category: str, rows: np.ndarray, min_fuel: float | None
+) -> tuple[np.ndarray, np.ndarray, dict[str, np.ndarray], list[str]]:
+    """Candidate loadings with each tank with an arm table held at each of its :func:`_held_quantities`:
+    every station row of the base (``rows``) with every fuel state that holds it there
+    (:func:`_fuel_loads`), and the lines from those the limits permit (:func:`_line_loads`).
+
+    Why it cannot miss what the base and the lines would find with that quantity given: take a least-margin
+    loading; hold the tank's quantity at its value there and it is a least-margin loading of the rest, whose
+    items have fixed arms (one tank with an arm table) or are held. Where another item can be traded
+    against the tank at that weight, both ways, the margin is stationary in the trade, so the quantity is
+    one of :func:`_held_quantities` (or a table quantity, where the slope jumps). Where none can, the
+    tank moves only with the weight, along its own line from a loading of the base, which
+    :func:`_targets` solves in closed form. With two tanks with arm tables traded against each other the
+    stationary quantity depends on their total, which is not searched.
+
+    Returns the stations (M, S) and fuel (M, T) of the candidates, the engine's verdict on them
+    (:func:`_evaluate`) and notes where a bound cut them.
+    """
+    width, tanks = rows.shape[1], len(aircraft.tank)
+    notes: list[str] = []
+    blocks: list[tuple[np.ndarray, np.ndarray]] = []
+    orders_cut = False
+    for k, tank in enumerate(aircraft.tank):
+        if not tank.arm_table:
+            continue
+        for quantity, _ in _held_quantities(aircraft, k):
+            states, cut = _fuel_loads(aircraft, min_fuel, {k: quantity})
+            orders_cut |= cut
+            if not states:
+                continue
+            fuel = np.array(states, dtype=float).reshape(len(states), tanks)
+            blocks.append((np.repeat(rows, len(fuel), axis=0), np.tile(fuel, (len(rows), 1))))
+    empty = _evaluate(aircraft, category, np.zeros((0, width)), np.zeros((0, tanks)))
+    if not blocks:
+        return np.zeros((0, width)), np.zeros((0, tanks)), empty, notes
+    if orders_cut:
+        notes.append(
+            f"search bound: with a tank held at a trade quantity, the minimum fuel was put in the first {_ORDERS:,} "
+            "orders of the other tanks only"
+        )
+    stations = np.concatenate([b[0] for b in blocks])
+    fuels = np.concatenate([b[1] for b in blocks])
+    if len(stations) > TRADE_BOUND:  # spread evenly over all of them, and say so
+        keep = np.unique(np.linspace(0, len(stations) - 1, TRADE_BOUND).round().astype(np.int64))
+        notes.append(
+            f"search bound: {len(keep):,} of {len(stations):,} loadings with a tank with an arm table held at a "
+            "trade quantity searched; the answer may not be the extreme"
+        )
+        stations, fuels = stations[keep], fuels[keep]
+    found = _evaluate(aircraft, category, stations, fuels)
+    kept = found["permitted"]
+    more_stations, more_fuels, lines_cut = _line_loads(
+        aircraft, category, stations[kept], fuels[kept], found, kept, min_fuel
+    )
+    if lines_cut:
+        notes.append(
+            f"search bound: {LINE_BOUND:,} of the part loads along one station or tank from a tank held at a trade "
+            "quantity were searched; the answer may not be the extreme"
+        )
+    if len(more_stations):
+        more = _evaluate(aircraft, category, more_stations, more_fuels)
+        stations = np.concatenate([stations, more_stations])
+        fuels = np.concatenate([fuels, more_fuels])
+        found = {key: np.concatenate([found[key], more[key]]) for key in found}
+    return stations, fuels, found, notes
 
 
 def _search(aircraft: Aircraft, category: str, occupant: float, min_fuel: float | None) -> _Search:
@@ -876,6 +1024,14 @@ def _search(aircraft: Aircraft, category: str, occupant: float, min_fuel: float 
         stations = np.concatenate([stations, more_stations])
         fuels = np.concatenate([fuels, more_fuels])
         found = {key: np.concatenate([found[key], more[key]]) for key in found}
+    # a tank with an arm table traded against another item at one weight: held at each quantity where that
+    # trade can leave the least margin, the rest searched again
+    held_stations, held_fuels, held, held_notes = _trade_loads(aircraft, category, rows, min_fuel)
+    notes += held_notes
+    if len(held_stations):
+        stations = np.concatenate([stations, held_stations])
+        fuels = np.concatenate([fuels, held_fuels])
+        found = {key: np.concatenate([found[key], held[key]]) for key in found}
     n = len(stations)
     return _Search(
         stations,
