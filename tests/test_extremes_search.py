@@ -41,9 +41,10 @@ _NO_SHRINK = [Phase.explicit, Phase.reuse, Phase.generate, Phase.target]
 the reference), and the regression tests below keep the ones found, worked by hand."""
 
 
-def _draw_aircraft(draw):
+def _draw_aircraft(draw, tables=1):
     """A small invented aircraft (lb, in, US gal): a pilot's seat, a back seat, two holds (maybe under one
-    group limit), a main tank with a three-point arm table and an auxiliary tank at a fixed arm; forward
+    group limit), a main tank with a three-point arm table and an auxiliary tank at a fixed arm (with
+    ``tables=2``, with an arm table of its own); forward
     and aft limits that each bend once (sloping edges), a maximum takeoff weight that may bind."""
     arm = st.floats(25.0, 60.0)
     knot = draw(st.floats(4.0, 26.0))
@@ -76,6 +77,13 @@ def _draw_aircraft(draw):
             }
         ],
     }
+    if tables > 1:  # the aux tank's arm moves with its fuel too
+        spec["tank"][1] = {
+            "id": "aux",
+            "usable": 20.0,
+            "fuel": "avgas",
+            "arm_table": [[0.0, draw(arm)], [20.0, draw(arm)]],
+        }
     if group is not None:
         spec["station_group"] = [{"label": "Baggage", "stations": ["bag_a", "bag_b"], "max_weight": group}]
     limits = ([800.0, bends[0], 2100.0], front), ([800.0, bends[1], 2100.0], rear)
@@ -97,7 +105,8 @@ class Reference:
         st_ = {s["id"]: s for s in spec["station"]}
         self.arms = np.array([st_["pilot_seat"]["arm"], st_["back"]["arm"], st_["bag_a"]["arm"], st_["bag_b"]["arm"]])
         self.table = np.array(spec["tank"][0]["arm_table"])
-        self.aux_arm = spec["tank"][1]["arm"]
+        aux = spec["tank"][1]
+        self.aux_table = np.array(aux["arm_table"] if "arm_table" in aux else [[0.0, aux["arm"]], [20.0, aux["arm"]]])
         self.group = spec["station_group"][0]["max_weight"] if spec.get("station_group") else math.inf
         self.mtow = spec["limits"]["max_takeoff_weight"]
         self.min_fuel = min_fuel
@@ -116,7 +125,7 @@ class Reference:
             + a * self.arms[2]
             + b * self.arms[3]
             + AVGAS * q1 * main_arm
-            + AVGAS * q2 * self.aux_arm
+            + AVGAS * q2 * np.interp(q2, self.aux_table[:, 0], self.aux_table[:, 1])
         )
         return weight, moment
 
@@ -215,7 +224,7 @@ def test_property_the_search_finds_a_least_margin_no_larger_than_a_brute_force_r
     # moves with its fuel (FAA-H-8083-1B chapter 2, CG = total moment / total weight): no permitted loading
     # the reference visits comes closer to a limit than the extreme found, and where the reference finds a
     # permitted loading outside the envelope, the extremes are not within limits
-    spec, limits = _draw_aircraft(data.draw)
+    spec, limits = _draw_aircraft(data.draw, data.draw(st.sampled_from([1, 2])))
     result, found = _compare(spec, limits)
     for case, (least, where) in zip((result.forward, result.rearward), found, strict=True):
         if where is None:
