@@ -338,3 +338,56 @@ def test_regression_no_candidate_of_the_search_lies_outside_its_range_after_roun
     highs = np.array([np.inf, 20 / 0.45359237, 30.0])
     lows = np.array([0.0, 0.0, 1 / 3])
     assert (found.stations <= highs).all() and (found.stations >= lows).all()
+
+
+def _two_wing_tanks(arms, meto_hp):
+    """An invented aircraft: 1,000 lb at 40 in empty, the pilot (170 lb) at 30 in, a hold behind (50 lb at 90 in),
+    two tanks of 10 US gal with one arm table (``arms``: at 0 and at 10 US gal), a vertical forward limit at
+    35 in."""
+    table = [[0.0, arms[0]], [10.0, arms[1]]]
+    return simple_aircraft(
+        meto_power_hp=meto_hp,
+        station=[
+            {"id": "pilot_seat", "arm": 30.0, "kind": "seat", "controls": True},
+            {"id": "hold", "arm": 90.0, "kind": "baggage", "max_weight": 50.0},
+        ],
+        tank=[
+            {"id": "left", "usable": 10.0, "fuel": "avgas", "arm_table": table},
+            {"id": "right", "usable": 10.0, "fuel": "avgas", "arm_table": table},
+        ],
+        envelope=[
+            {"category": "normal", "axes": ["arm", "weight"], "points": [[35, 900], [35, 2000], [48, 2000], [48, 900]]}
+        ],
+    )
+
+
+def test_regression_two_arm_table_tanks_sharing_the_minimum_fuel_are_tried_at_the_split_of_least_cg():
+    # worked by hand (FAA-H-8083-1B chapter 2; avgas 6.0 lb/US gal, common practice): tanks aft of the CG, their
+    # arm 50 + q in at q US gal; the minimum fuel 120 / 12 = 10 US gal (AC 43.13-1B 10-2 p) split q and 10 - q:
+    # fuel moment 6 (q (50 + q) + (10 - q) (60 - q)) = 6 (2 q^2 - 20 q + 600), least at q = 5 (3,300 lb-in; all
+    # in one tank 3,600): W = 1,230 lb, M = 40,000 + 5,100 + 3,300 = 48,400 lb-in, CG 39.34959 in
+    aircraft = _two_wing_tanks((50.0, 60.0), 120)
+    forward = extremes(aircraft).forward
+    ramp = forward.check.condition("ramp")
+    assert ramp.weight == pytest.approx(1230.0)
+    assert ramp.margins.forward == pytest.approx(48400 / 1230 - 35, abs=1e-6)
+    assert forward.check.ok and forward.complete
+
+
+def test_regression_two_arm_table_tanks_filled_together_are_tried_where_the_cg_is_least():
+    # worked by hand (FAA-H-8083-1B chapter 2; avgas 6.0 lb/US gal): tanks ahead of the CG, arm 25 + q in; with
+    # q US gal in each (the ray where trading them at one weight is stationary: 25 + 2 q = 25 + 2 q), W = 1,170 +
+    # 12 q, M = 45,100 + 300 q + 12 q^2; the CG is least where (300 + 24 q) W - 12 M = 0, 144 q^2 + 28,080 q -
+    # 190,200 = 0, q = 6.553 US gal each (CG 38.1065 in); the minimum fuel (60 / 12 = 5 US gal) is less
+    aircraft = _two_wing_tanks((25.0, 35.0), 60)
+    q = (-28080 + math.sqrt(28080**2 + 4 * 144 * 190200)) / (2 * 144)
+    assert q == pytest.approx(6.553, abs=1e-3)
+    least = (45100 + 300 * q + 12 * q * q) / (1170 + 12 * q)
+    assert least == pytest.approx(38.1065, abs=1e-4)
+    for other in (5.0, 6.0, 7.0):  # either side of it, the CG is farther aft
+        assert (45100 + 300 * other + 12 * other**2) / (1170 + 12 * other) > least
+    forward = extremes(aircraft).forward
+    ramp = forward.check.condition("ramp")
+    assert ramp.margins.forward == pytest.approx(least - 35, abs=1e-6)
+    assert ramp.weight == pytest.approx(1170 + 12 * q, abs=1e-6)
+    assert forward.complete
