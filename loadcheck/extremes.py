@@ -957,9 +957,10 @@ def _held_quantities(aircraft: Aircraft, column: int) -> list[tuple[float, str]]
 def _trade_loads(
     aircraft: Aircraft, category: str, rows: np.ndarray, min_fuel: float | None
 ) -> tuple[np.ndarray, np.ndarray, dict[str, np.ndarray], list[str]]:
-    """Candidate loadings with each tank with an arm table held at each of its :func:`_held_quantities`:
-    every station row of the base (``rows``) with every fuel state that holds it there
-    (:func:`_fuel_loads`), and the lines from those the limits permit (:func:`_line_loads`).
+    """Candidate loadings with each tank with an arm table held at each of its :func:`_held_quantities` (and
+    with several such tanks, each free or held, in every combination): every station row of the base
+    (``rows``) with every fuel state that holds them there (:func:`_fuel_loads`), and the lines from those
+    the limits permit (:func:`_line_loads`).
 
     Why it cannot miss what the base and the lines would find with that quantity given: take a least-margin
     loading; hold the tank's quantity at its value there and it is a least-margin loading of the rest, whose
@@ -977,16 +978,20 @@ def _trade_loads(
     notes: list[str] = []
     blocks: list[tuple[np.ndarray, np.ndarray]] = []
     orders_cut = False
-    for k, tank in enumerate(aircraft.tank):
-        if not tank.arm_table:
+    # each tank with an arm table free or held at one of its quantities, at least one held: two such tanks can
+    # each be traded against one item at a fixed arm at once
+    tabled = [k for k, t in enumerate(aircraft.tank) if t.arm_table]
+    choices = [[None] + [q for q, _ in _held_quantities(aircraft, k)] for k in tabled]
+    for combo in itertools.product(*choices):
+        fixed = {k: q for k, q in zip(tabled, combo, strict=True) if q is not None}
+        if not fixed:
             continue
-        for quantity, _ in _held_quantities(aircraft, k):
-            states, cut = _fuel_loads(aircraft, min_fuel, {k: quantity})
-            orders_cut |= cut
-            if not states:
-                continue
-            fuel = np.array(states, dtype=float).reshape(len(states), tanks)
-            blocks.append((np.repeat(rows, len(fuel), axis=0), np.tile(fuel, (len(rows), 1))))
+        states, cut = _fuel_loads(aircraft, min_fuel, fixed)
+        orders_cut |= cut
+        if not states:
+            continue
+        fuel = np.array(states, dtype=float).reshape(len(states), tanks)
+        blocks.append((np.repeat(rows, len(fuel), axis=0), np.tile(fuel, (len(rows), 1))))
     empty = _evaluate(aircraft, category, np.zeros((0, width)), np.zeros((0, tanks)))
     if not blocks:
         return np.zeros((0, width)), np.zeros((0, tanks)), empty, notes
@@ -1328,6 +1333,12 @@ def _load_words(aircraft: Aircraft, category: str, check: CheckResult, loading: 
             if math.isfinite(load) and math.isclose(load, value, rel_tol=1e-6, abs_tol=1e-6):
                 words[item.id] = text
                 break
+        else:
+            if line.tank and line.arm is None:  # held where a trade at one weight leaves the least margin
+                for load, text in _held_quantities(aircraft, line.column):
+                    if math.isclose(load, value, rel_tol=1e-6, abs_tol=1e-6):
+                        words[item.id] = text
+                        break
     return words
 
 

@@ -391,3 +391,9 @@ def test_regression_two_arm_table_tanks_filled_together_are_tried_where_the_cg_i
     assert ramp.margins.forward == pytest.approx(least - 35, abs=1e-6)
     assert ramp.weight == pytest.approx(1170 + 12 * q, abs=1e-6)
     assert forward.complete
+
+
+def test_the_notes_say_how_the_minimum_fuel_is_split_between_the_tanks():
+    # the regression aircraft above: 1/3 US gal in the main tank, the rest of the 5 US gal in the aux
+    forward = extremes(_traded_at_minimum_fuel()).forward
+    assert "minimum fuel for balance, 5.0 usgal (METO/12 US gal), in main 0.3 usgal, aux 4.7 usgal" in forward.notes
