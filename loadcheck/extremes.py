@@ -26,6 +26,11 @@ seats and baggage or a lateral limit defeats it. So each case here is found by a
   weight of any envelope of the category (at every fuel state; at zero fuel too where the
   zero-fuel CG is a limit), to a weight limit, or to what its station group leaves, and the
   load at which the margin to a sloping edge is least, in closed form;
+- trades: a tank with an arm table is held at each quantity where trading it against another item at
+  one weight can leave the least margin (:func:`_held_quantities`, closed form) and the rest of the
+  loading searched again from there (:func:`_trade_loads`); two such tanks are also tried at each split
+  of the minimum fuel where their moment is least or most (:func:`_pair_splits`) and along the ray where
+  trading them against each other is stationary (:func:`_ray_loads`);
 - every candidate is evaluated by the engine (:func:`~loadcheck.engine.evaluate`, in
   chunks); a candidate is permitted where it keeps every station, group and weight limit;
   the permitted ones are checked (:func:`~loadcheck.check.check_many`, after keeping, for
@@ -44,8 +49,11 @@ permit a region of loadings, its least margin lies on such a line from a loading
 (the loads of two stations traded at one weight move the CG linearly). Seats hold whole
 occupants (AC 43.13-1B 10-17), so a seat is not varied along a line. A tank whose arm moves with
 its quantity (an arm table) is straight on each piece of its table, and its margin's least or most
-point on a piece is closed form too (:func:`_stationary_weights`). An envelope whose
-slice at one weight holds more than one stretch of CG is outside this argument.
+point on a piece is closed form too (:func:`_stationary_weights`). Traded against another item at one
+weight such a tank's moment is not linear, so the argument for two loads traded at one weight fails for it;
+the trades above put back what it misses (the argument is in :func:`_trade_loads`). An envelope whose
+slice at one weight holds more than one stretch of CG is outside this argument, and so are a tank with an
+arm table traded against two or more items at once and an envelope on arm and lateral arm with such a tank.
 At most :data:`SEARCH_BOUND` combinations, and :data:`LINE_BOUND` loadings along the lines,
 are searched; where a bound cuts the search, it takes candidates spread evenly over all of
 them, the case's notes say so, and the case establishes no extreme (``complete`` False).
@@ -79,8 +87,10 @@ from .units import convert, parse_quantity
 
 __all__ = [
     "LINE_BOUND",
+    "NOISE",
     "SEARCH_BOUND",
     "STANDARD_OCCUPANT_LB",
+    "TRADE_BOUND",
     "ExtremeCase",
     "ExtremesResult",
     "Side",
@@ -311,9 +321,13 @@ def _fill_loads(
     return loads, cut
 
 
-def _fuel_loads(aircraft: Aircraft, min_fuel: float | None) -> tuple[list[tuple[float, ...]], bool]:
+def _fuel_loads(
+    aircraft: Aircraft, min_fuel: float | None, fixed: dict[int, float] | None = None
+) -> tuple[list[tuple[float, ...]], bool]:
     """The fuel states searched: each choice of full tanks, and the rest of the minimum fuel
-    put tank by tank in each order of the other tanks [fuel volume unit].
+    put tank by tank in each order of the other tanks [fuel volume unit]. A tank in ``fixed``
+    (its index: its quantity) holds that quantity in every state; a state whose other tanks
+    cannot make up the minimum fuel is then left out (it is not a loading the search permits).
 
     Returns the states and whether :data:`_ORDERS` left some orders out.
 
@@ -336,13 +350,16 @@ def _fuel_loads(aircraft: Aircraft, min_fuel: float | None) -> tuple[list[tuple[
     states: dict[tuple[float, ...], None] = {}
     cut = False
     count = len(tanks)
-    for size in range(count + 1):
-        for full in itertools.combinations(range(count), size):
-            base = [tanks[i].usable if i in full else 0.0 for i in range(count)]
+    held = fixed or {}
+    free = [i for i in range(count) if i not in held]
+    for size in range(len(free) + 1):
+        for full in itertools.combinations(free, size):
+            base = [held[i] if i in held else tanks[i].usable if i in full else 0.0 for i in range(count)]
             need = min_fuel - sum(base)
-            rest = [i for i in range(count) if i not in full]
+            rest = [i for i in free if i not in full]
             if need <= 1e-12 or not rest:
-                states[tuple(base)] = None
+                if need <= 1e-12 or not held:
+                    states[tuple(base)] = None
                 continue
             for k, order in enumerate(itertools.permutations(rest)):
                 if k >= _ORDERS:
@@ -354,8 +371,45 @@ def _fuel_loads(aircraft: Aircraft, min_fuel: float | None) -> tuple[list[tuple[
                     left -= state[i]
                     if left <= 1e-12:
                         break
-                states[tuple(state)] = None
+                if left <= 1e-12 or not held:
+                    states[tuple(state)] = None
+            # two tanks with arm tables sharing the rest of the minimum fuel, the others empty
+            for i, j in itertools.combinations([r for r in rest if tanks[r].arm_table], 2):
+                if not math.isclose(aircraft.density(tanks[i]), aircraft.density(tanks[j]), rel_tol=1e-12):
+                    continue
+                for q_i, q_j in _pair_splits(tanks[i], tanks[j], need):
+                    state = list(base)
+                    state[i], state[j] = q_i, q_j
+                    states[tuple(state)] = None
     return list(states), cut
+
+
+def _pair_splits(one: Tank, two: Tank, total: float) -> list[tuple[float, float]]:
+    """The splits of a total quantity between two tanks with arm tables (of one fuel density) at which the
+    loading's CG is least or most, the total held [fuel volume unit].
+
+    With q in the first tank and total - q in the second, at the arms a1(q) = alpha1 + beta1 q and
+    a2 = alpha2 + beta2 (total - q) on one piece of each table, the fuel's moment rho (alpha1 q + beta1 q^2 +
+    alpha2 (total - q) + beta2 (total - q)^2) has the slope rho (alpha1 + 2 beta1 q - alpha2 - 2 beta2 (total -
+    q)), zero where q = (alpha2 - alpha1 + 2 beta2 total) / (2 (beta1 + beta2)) (FAA-H-8083-1B chapter 2:
+    moment = weight x arm); the weight is the same all along, so is the limit. Each such split inside both
+    pieces and both tanks, and each split at a table quantity of either tank (where a slope jumps), is given.
+    """
+    found: dict[tuple[float, float], None] = {}
+    for knot in one.arm_knots():
+        if 0.0 <= knot <= one.usable and 0.0 <= total - knot <= two.usable:
+            found[(float(knot), total - float(knot))] = None
+    for knot in two.arm_knots():
+        if 0.0 <= knot <= two.usable and 0.0 <= total - knot <= one.usable:
+            found[(total - float(knot), float(knot))] = None
+    for low1, high1, alpha1, beta1 in _table_pieces(one):
+        for low2, high2, alpha2, beta2 in _table_pieces(two):
+            if beta1 + beta2 == 0.0:
+                continue
+            q = (alpha2 - alpha1 + 2.0 * beta2 * total) / (2.0 * (beta1 + beta2))
+            if low1 <= q <= high1 and low2 <= total - q <= high2:
+                found[(q, total - q)] = None
+    return list(found)
 
 
 @dataclass(frozen=True)
@@ -692,27 +746,12 @@ def _table_targets(
                         u = _stationary_weights(rho, w0, l0 - s * m0, line.lateral - s * alpha, -s * beta, 0.0, 0.0)
                         add(within(u, low, high) - w0, "the quantity of least margin to a sloping lateral limit")
             continue
-        k_w = shape.axes.index("weight")
-        axis = AXES[shape.axes[1 - k_w]]
-        a0, b, c = axis.coefficients(shape.moment_scale, shape.mac)
-        scale = c if axis.lateral else b
-        ring = shape.corners
-        for (v1, u1), (v2, u2) in zip(
-            ring[:, [1 - k_w, k_w]], np.roll(ring, -1, axis=0)[:, [1 - k_w, k_w]], strict=True
-        ):
-            if u1 == u2:
-                continue
-            k = (v2 - v1) / (u2 - u1)
-            v0 = v1 - k * u1
-            # the limit in the axis is v0 + k u; in arm (per weight): (v0 - a0 + k u) / scale, an arm limit
-            # p + s u; in moment: (v0 - a0 + k u) / scale, a moment limit t + p u
-            slope, moment = (k / scale, 0.0) if axis.per_weight else (0.0, (v0 - a0) / scale)
-            low_u, high_u = min(u1, u2), max(u1, u2)
+        for lateral, slope, moment, low_u, high_u in _weight_edges(shape):
             words = (
-                f"the quantity of least margin to the {'lateral ' if axis.lateral else ''}limit between "
+                f"the quantity of least margin to the {'lateral ' if lateral else ''}limit between "
                 f"{fmt(low_u, mass)} and {fmt(high_u, mass)}"
             )
-            if axis.lateral:  # the tank's lateral arm is fixed: one piece over its whole range
+            if lateral:  # the tank's lateral arm is fixed: one piece over its whole range
                 parts = [(0.0, tank.usable, line.lateral, 0.0)]
                 n0 = l0
             else:
@@ -721,6 +760,29 @@ def _table_targets(
                 u = _stationary_weights(rho, w0, n0, alpha, beta, slope, moment)
                 u = np.where((u >= low_u) & (u <= high_u), u, np.nan)
                 add(within(u, low, high) - w0, words)
+
+
+def _weight_edges(shape: EnvelopeShape) -> list[tuple[bool, float, float, float, float]]:
+    """Each edge of an envelope drawn against weight that is not level, as a limit on the loading's moment
+    (or lateral moment) at weight W of t + p W + s W^2: (lateral, s, t, from weight, to weight) [arm unit per
+    mass unit, mass unit x arm unit, mass unit, mass unit] (p drops out of :func:`_stationary_weights`).
+
+    The limit in the axis is v0 + k u at weight u; in arm (an axis per weight): (v0 - a0 + k u) / scale, an
+    arm limit p + s u; in moment: (v0 - a0 + k u) / scale, a moment limit t + p u."""
+    k_w = shape.axes.index("weight")
+    axis = AXES[shape.axes[1 - k_w]]
+    a0, b, c = axis.coefficients(shape.moment_scale, shape.mac)
+    scale = c if axis.lateral else b
+    ring = shape.corners
+    edges = []
+    for (v1, u1), (v2, u2) in zip(ring[:, [1 - k_w, k_w]], np.roll(ring, -1, axis=0)[:, [1 - k_w, k_w]], strict=True):
+        if u1 == u2:
+            continue
+        k = (v2 - v1) / (u2 - u1)
+        v0 = v1 - k * u1
+        slope, moment = (k / scale, 0.0) if axis.per_weight else (0.0, (v0 - a0) / scale)
+        edges.append((axis.lateral, float(slope), float(moment), float(min(u1, u2)), float(max(u1, u2))))
+    return edges
 
 
 def _roots(a: float, b: float, c: np.ndarray) -> list[np.ndarray]:
@@ -759,6 +821,37 @@ def _row_ids(rows: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
     return ids, order[new]
 
 
+NOISE = 1e-9
+"""A load a target puts this little outside its range (a fraction of the range's larger end, at least one unit)
+is float noise, not a load outside the range: it is taken at the range's end [fraction]."""
+
+
+def _inward(loads: np.ndarray, low: np.ndarray, high: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """The targets of a line that lie in their row's range [low, high], each clamped into it [line's unit].
+
+    A target can carry float noise: the load that brings the loading to a corner weight of 720 kg is the
+    corner less the rest of the loading, and the loading then weighs 720.0000000000514 kg, or the load is a
+    hair above the station's maximum. Such a target, within :data:`NOISE` of its range, is kept and moved to
+    the range's end (never outward, never dropped); a target farther outside is not a permitted load.
+
+    Returns the row and column of each target kept, and its load, inside its range.
+
+    Examples
+    --------
+    >>> rows, cols, loads = _inward(np.array([[120.0000000000514, -1e-13, 150.0, np.nan]]),
+    ...                             np.zeros((1, 4)), np.full((1, 4), 120.0))
+    >>> cols.tolist(), loads.tolist()
+    ([0, 1], [120.0, 0.0])
+    """
+    finite_high = np.where(np.isfinite(high), np.abs(high), 1.0)
+    noise = NOISE * np.maximum(1.0, np.maximum(finite_high, np.abs(low)))
+    with np.errstate(invalid="ignore"):
+        inside = np.isfinite(loads) & (loads >= low - noise) & (loads <= high + noise)
+    row, col = np.nonzero(inside)
+    values = np.minimum(np.maximum(loads[row, col], low[row, col]), high[row, col])
+    return row, col, values
+
+
 def _line_loads(
     aircraft: Aircraft,
     category: str,
@@ -781,23 +874,20 @@ def _line_loads(
 
     state = _State(*of("ramp"), *of("zero_fuel"), stations, fuels)
     width = stations.shape[1]
-    base = np.round(np.concatenate([stations, fuels], axis=1), 9)
+    base = np.concatenate([stations, fuels], axis=1)
+    keys = np.round(base, 9)  # equal candidates are found by their loads to 9 decimals; the loads stay as they are
     picks: list[tuple[int, np.ndarray, np.ndarray]] = []  # column, base row, new value
     for line in _lines(aircraft):
         loads, _ = _targets(aircraft, category, line, state)
         if not loads.shape[1]:
             continue
-        low = _line_low(line, state, min_fuel)[:, None]
-        noise = 1e-9 * max(1.0, line.high if math.isfinite(line.high) else 1.0)
-        with np.errstate(invalid="ignore"):
-            inside = np.isfinite(loads) & (loads >= low - noise) & (loads <= line.high + noise)
-        row, col = np.nonzero(inside)
+        low = np.broadcast_to(_line_low(line, state, min_fuel)[:, None], loads.shape)
+        row, _, values = _inward(loads, low, np.full(loads.shape, line.high))
         if not len(row):
             continue
-        values = np.clip(loads[row, col], low[row, 0], line.high)
         column = width + line.column if line.tank else line.column
         # base loadings that differ only in this quantity give the same candidate: keep one of each
-        rest, _ = _row_ids(np.delete(base, column, axis=1))
+        rest, _ = _row_ids(np.delete(keys, column, axis=1))
         _, first = _row_ids(np.stack([rest[row].astype(float), np.round(values, 9)], axis=1))
         picks.append((column, row[first], values[first]))
     total = sum(len(r) for _, r, _ in picks)
@@ -812,8 +902,233 @@ def _line_loads(
         rows = base[row[mine]].copy()
         rows[:, column] = values[mine]
         chosen.append(rows)
-    both = np.round(np.concatenate(chosen), 9)
-    both = both[np.sort(_row_ids(both)[1])]
+    both = np.concatenate(chosen)
+    both = both[np.sort(_row_ids(np.round(both, 9))[1])]
+    return both[:, :width], both[:, width:], cut
+
+
+TRADE_BOUND = 200_000
+"""At most this many candidate loadings with a tank with an arm table held at one of its trade quantities
+(:func:`_held_quantities`) are searched, before the lines from them [count]."""
+
+
+def _held_quantities(aircraft: Aircraft, column: int) -> list[tuple[float, str]]:
+    """The quantities of a tank with an arm table at which the search holds it while the rest of the loading
+    is searched again (:func:`_trade_loads`), each with words saying what it is [fuel volume unit].
+
+    Traded against another item at one weight W (the tank's fuel mass up by rho dq, the other's down as
+    much), the loading's moment changes by rho (a(q) + q a'(q) - a_j) dq, a_j the other item's arm
+    (FAA-H-8083-1B chapter 2: moment = weight x arm). On a piece of the table a(q) = alpha + beta q, so the
+    tank's moment rho (alpha q + beta q^2) has the slope rho (alpha + 2 beta q), and at one weight the CG is
+    least or most where alpha + 2 beta q = a_j: q = (a_j - alpha) / (2 beta). The weight, and with it the
+    limit, is the same all along the trade, so this holds against any edge of any envelope drawn against
+    weight. These quantities, one for each item at a fixed arm that can move (a station that is not a seat,
+    a tank without an arm table) and each piece of the table with beta not zero, and the table's own
+    quantities (where the slope jumps), are the quantities at which the tank can sit at a least margin
+    with another item traded against it; the rest of that loading is then a loading of items at fixed
+    arms, which the base and the lines search."""
+    tank = aircraft.tank[column]
+    found: dict[float, str] = {}
+    for knot in tank.arm_knots():
+        if 0.0 < knot < tank.usable:
+            found.setdefault(float(knot), "a quantity of its arm table, with the rest of the loading searched again")
+    partners = [
+        (line.name, line.arm)
+        for line in _lines(aircraft)
+        if line.arm is not None and not (line.tank and line.column == column)
+    ]
+    for k, other in enumerate(aircraft.tank):  # a flat piece of another tank's table is a fixed arm there
+        if k != column and other.arm_table:
+            partners += [(other.name, alpha) for _, _, alpha, beta in _table_pieces(other) if beta == 0.0]
+    for low, high, alpha, beta in _table_pieces(tank):
+        if beta == 0.0:
+            continue
+        for name, arm in partners:
+            q = (arm - alpha) / (2.0 * beta)
+            if low < q < high:
+                found.setdefault(
+                    q,
+                    f"the quantity where its fuel's moment per {aircraft.units.mass} added equals the arm of "
+                    f"{name} ({fmt(arm, aircraft.units.arm)}), traded against it at one weight",
+                )
+    return sorted(found.items())
+
+
+def _trade_loads(
+    aircraft: Aircraft, category: str, rows: np.ndarray, min_fuel: float | None
+) -> tuple[np.ndarray, np.ndarray, dict[str, np.ndarray], list[str]]:
+    """Candidate loadings with each tank with an arm table held at each of its :func:`_held_quantities` (and
+    with several such tanks, each free or held, in every combination): every station row of the base
+    (``rows``) with every fuel state that holds them there (:func:`_fuel_loads`), and the lines from those
+    the limits permit (:func:`_line_loads`).
+
+    Why it cannot miss what the base and the lines would find with that quantity given: take a least-margin
+    loading; hold the tank's quantity at its value there and it is a least-margin loading of the rest, whose
+    items have fixed arms (one tank with an arm table) or are held. Where another item can be traded
+    against the tank at that weight, both ways, the margin is stationary in the trade, so the quantity is
+    one of :func:`_held_quantities` (or a table quantity, where the slope jumps). Where none can, the
+    tank moves only with the weight, along its own line from a loading of the base, which
+    :func:`_targets` solves in closed form. With two tanks with arm tables traded against each other the
+    stationary quantity depends on their total, which is not searched.
+
+    Returns the stations (M, S) and fuel (M, T) of the candidates, the engine's verdict on them
+    (:func:`_evaluate`) and notes where a bound cut them.
+    """
+    width, tanks = rows.shape[1], len(aircraft.tank)
+    notes: list[str] = []
+    blocks: list[tuple[np.ndarray, np.ndarray]] = []
+    orders_cut = False
+    # each tank with an arm table free or held at one of its quantities, at least one held: two such tanks can
+    # each be traded against one item at a fixed arm at once
+    tabled = [k for k, t in enumerate(aircraft.tank) if t.arm_table]
+    choices = [[None] + [q for q, _ in _held_quantities(aircraft, k)] for k in tabled]
+    for combo in itertools.product(*choices):
+        fixed = {k: q for k, q in zip(tabled, combo, strict=True) if q is not None}
+        if not fixed:
+            continue
+        states, cut = _fuel_loads(aircraft, min_fuel, fixed)
+        orders_cut |= cut
+        if not states:
+            continue
+        fuel = np.array(states, dtype=float).reshape(len(states), tanks)
+        blocks.append((np.repeat(rows, len(fuel), axis=0), np.tile(fuel, (len(rows), 1))))
+    empty = _evaluate(aircraft, category, np.zeros((0, width)), np.zeros((0, tanks)))
+    if not blocks:
+        return np.zeros((0, width)), np.zeros((0, tanks)), empty, notes
+    if orders_cut:
+        notes.append(
+            f"search bound: with a tank held at a trade quantity, the minimum fuel was put in the first {_ORDERS:,} "
+            "orders of the other tanks only"
+        )
+    stations = np.concatenate([b[0] for b in blocks])
+    fuels = np.concatenate([b[1] for b in blocks])
+    if len(stations) > TRADE_BOUND:  # spread evenly over all of them, and say so
+        keep = np.unique(np.linspace(0, len(stations) - 1, TRADE_BOUND).round().astype(np.int64))
+        notes.append(
+            f"search bound: {len(keep):,} of {len(stations):,} loadings with a tank with an arm table held at a "
+            "trade quantity searched; the answer may not be the extreme"
+        )
+        stations, fuels = stations[keep], fuels[keep]
+    found = _evaluate(aircraft, category, stations, fuels)
+    kept = found["permitted"]
+    more_stations, more_fuels, lines_cut = _line_loads(
+        aircraft, category, stations[kept], fuels[kept], found, kept, min_fuel
+    )
+    if lines_cut:
+        notes.append(
+            f"search bound: {LINE_BOUND:,} of the part loads along one station or tank from a tank held at a trade "
+            "quantity were searched; the answer may not be the extreme"
+        )
+    if len(more_stations):
+        more = _evaluate(aircraft, category, more_stations, more_fuels)
+        stations = np.concatenate([stations, more_stations])
+        fuels = np.concatenate([fuels, more_fuels])
+        found = {key: np.concatenate([found[key], more[key]]) for key in found}
+    return stations, fuels, found, notes
+
+
+def _ray_loads(
+    aircraft: Aircraft,
+    category: str,
+    stations: np.ndarray,
+    fuels: np.ndarray,
+    found: dict[str, np.ndarray],
+    kept: np.ndarray,
+    min_fuel: float | None,
+) -> tuple[np.ndarray, np.ndarray, bool]:
+    """Candidate loadings where two tanks with arm tables are traded against each other at one weight, from
+    the permitted base loadings (``kept``): both tanks' fuel set along the ray where the trade is stationary,
+    at each weight where the least margin along that ray can lie, the rest held [mass unit, fuel volume unit].
+
+    Traded at one weight (rho1 dq1 = -rho2 dq2), the moment changes by rho1 (a1 + q1 a1' - a2 - q2 a2') dq1
+    (FAA-H-8083-1B chapter 2), zero where alpha1 + 2 beta1 q1 = alpha2 + 2 beta2 q2 on a piece of each table:
+    the ray q2 = c0 + c1 q1, c1 = beta1 / beta2, c0 = (alpha1 - alpha2) / (2 beta2). A least-margin loading
+    with both tanks free to trade lies on it. Along it the fuel weighs rho2 c0 + (rho1 + rho2 c1) q1 and its
+    moment is quadratic in q1, as one tank with an arm table is (:func:`_stationary_weights`, with the
+    equivalent alpha and beta); so its least margin lies where the ray meets a piece's end (a table quantity,
+    :func:`_held_quantities`), a tank's end or the minimum fuel (:func:`_pair_splits`), a corner weight or
+    weight limit, or the closed-form point of an edge: the last two are given here.
+
+    Returns the stations (M, S) and fuel (M, T) of the candidates, and whether :data:`LINE_BOUND` cut them
+    (spread evenly over all of them).
+    """
+    tanks = aircraft.tank
+    width = stations.shape[1]
+    tabled = [k for k, t in enumerate(tanks) if t.arm_table]
+    if len(tabled) < 2 or not kept.any():
+        return np.zeros((0, width)), np.zeros((0, len(tanks))), False
+    base_s, base_f = stations[kept], fuels[kept]
+    weight = found["weight.ramp"][kept]
+    moment, lateral = weight * found["arm.ramp"][kept], weight * found["lateral.ramp"][kept]
+    shapes = [e.shape for e in aircraft.envelopes_for(category)]
+    edges = [edge for shape in shapes if "weight" in shape.axes for edge in _weight_edges(shape)]
+    table = weight_limits(aircraft)
+    levels = {value for condition in ("ramp", "takeoff", "landing") for _, value in table[condition]}
+    if aircraft.limits.min_flight_weight is not None:
+        levels.add(aircraft.limits.min_flight_weight)
+    allowance = ramp_allowance(aircraft)
+    for shape in shapes:
+        if "weight" in shape.axes:
+            levels |= {float(c[shape.axes.index("weight")]) for c in shape.corners}
+            if shape.max_weight is not None and allowance > 0:
+                levels.add(shape.max_weight + allowance)
+    out_s, out_f = [], []
+    for i, j in itertools.combinations(tabled, 2):
+        one, two = tanks[i], tanks[j]
+        r1, r2 = aircraft.density(one), aircraft.density(two)
+        lat1, lat2 = _lateral(one.lateral_arm), _lateral(two.lateral_arm)
+        q1, q2 = base_f[:, i], base_f[:, j]
+        w0 = weight - r1 * q1 - r2 * q2
+        n0 = moment - r1 * q1 * one.arm_at(q1) - r2 * q2 * two.arm_at(q2)
+        l0 = lateral - (r1 * q1 * lat1 + r2 * q2 * lat2)
+        others = base_f.sum(axis=1) - q1 - q2
+        # base loadings that differ only in these two tanks give the same rays: keep one of each
+        _, first = _row_ids(np.round(np.delete(np.concatenate([base_s, base_f], axis=1), [width + i, width + j], 1), 9))
+        w0, n0, l0, others = w0[first], n0[first], l0[first], others[first]
+        for low1, high1, alpha1, beta1 in _table_pieces(one):
+            for low2, high2, alpha2, beta2 in _table_pieces(two):
+                if beta2 == 0.0 or beta1 == 0.0:  # one tank's quantity is fixed by the other's arm: held
+                    continue
+                c1, c0 = beta1 / beta2, (alpha1 - alpha2) / (2.0 * beta2)
+                rho = r1 + r2 * c1
+                if rho == 0.0:  # the ray keeps one weight
+                    continue
+                ends = sorted(((low2 - c0) / c1, (high2 - c0) / c1))
+                t_low, t_high = max(low1, ends[0]), min(high1, ends[1])
+                if t_low > t_high:
+                    continue
+                w00 = w0 + r2 * c0
+                n00 = n0 + r2 * c0 * (alpha2 + beta2 * c0)
+                alpha = (r1 * alpha1 + r2 * c1 * (alpha2 + 2.0 * beta2 * c0)) / rho
+                beta = (r1 * beta1 + r2 * beta2 * c1 * c1) / rho
+                columns = [(level - w00) / rho for level in sorted(levels)]
+                for is_lateral, slope, limit_moment, low_u, high_u in edges:
+                    if is_lateral:
+                        lat = (r1 * lat1 + r2 * c1 * lat2) / rho
+                        u = _stationary_weights(rho, w00, l0 + r2 * c0 * lat2, lat, 0.0, slope, limit_moment)
+                    else:
+                        u = _stationary_weights(rho, w00, n00, alpha, beta, slope, limit_moment)
+                    columns.append(np.where((u >= low_u) & (u <= high_u), (u - w00) / rho, np.nan))
+                loads = np.stack([np.broadcast_to(c, w00.shape) for c in columns], axis=1)
+                row, _, t = _inward(loads, np.full(loads.shape, t_low), np.full(loads.shape, t_high))
+                q2_new = np.minimum(np.maximum(c0 + c1 * t, low2), high2)
+                total = others[row] + t + q2_new
+                if min_fuel is not None:
+                    keep = total >= min_fuel * (1 - NOISE)
+                    row, t, q2_new = row[keep], t[keep], q2_new[keep]
+                if not len(row):
+                    continue
+                fuel = base_f[first][row].copy()
+                fuel[:, i], fuel[:, j] = t, q2_new
+                out_s.append(base_s[first][row])
+                out_f.append(fuel)
+    if not out_s:
+        return np.zeros((0, width)), np.zeros((0, len(tanks))), False
+    both = np.concatenate([np.concatenate(out_s), np.concatenate(out_f)], axis=1)
+    both = both[np.sort(_row_ids(np.round(both, 9))[1])]
+    cut = len(both) > LINE_BOUND
+    if cut:
+        both = both[np.unique(np.linspace(0, len(both) - 1, LINE_BOUND).round().astype(np.int64))]
     return both[:, :width], both[:, width:], cut
 
 
@@ -876,6 +1191,29 @@ def _search(aircraft: Aircraft, category: str, occupant: float, min_fuel: float 
         stations = np.concatenate([stations, more_stations])
         fuels = np.concatenate([fuels, more_fuels])
         found = {key: np.concatenate([found[key], more[key]]) for key in found}
+    # two tanks with arm tables traded against each other at one weight, along the ray where that trade is
+    # stationary, from the base
+    ray_stations, ray_fuels, rays_cut = _ray_loads(
+        aircraft, category, stations, fuels, found, found["permitted"], min_fuel
+    )
+    if rays_cut:
+        notes.append(
+            f"search bound: {LINE_BOUND:,} of the loadings with two tanks with arm tables traded against each other "
+            "were searched; the answer may not be the extreme"
+        )
+    if len(ray_stations):
+        ray = _evaluate(aircraft, category, ray_stations, ray_fuels)
+        stations = np.concatenate([stations, ray_stations])
+        fuels = np.concatenate([fuels, ray_fuels])
+        found = {key: np.concatenate([found[key], ray[key]]) for key in found}
+    # a tank with an arm table traded against another item at one weight: held at each quantity where that
+    # trade can leave the least margin, the rest searched again
+    held_stations, held_fuels, held, held_notes = _trade_loads(aircraft, category, rows, min_fuel)
+    notes += held_notes
+    if len(held_stations):
+        stations = np.concatenate([stations, held_stations])
+        fuels = np.concatenate([fuels, held_fuels])
+        found = {key: np.concatenate([found[key], held[key]]) for key in found}
     n = len(stations)
     return _Search(
         stations,
@@ -995,6 +1333,12 @@ def _load_words(aircraft: Aircraft, category: str, check: CheckResult, loading: 
             if math.isfinite(load) and math.isclose(load, value, rel_tol=1e-6, abs_tol=1e-6):
                 words[item.id] = text
                 break
+        else:
+            if line.tank and line.arm is None:  # held where a trade at one weight leaves the least margin
+                for load, text in _held_quantities(aircraft, line.column):
+                    if math.isclose(load, value, rel_tol=1e-6, abs_tol=1e-6):
+                        words[item.id] = text
+                        break
     return words
 
 
