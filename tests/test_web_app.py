@@ -10,7 +10,7 @@ from __future__ import annotations
 
 import json
 import re
-from html import escape
+from html import escape, unescape
 from pathlib import Path
 from typing import Any
 
@@ -811,7 +811,7 @@ def test_a_trip_whose_leg_2_fails_says_so_first_and_shows_every_leg(reading_desk
     main = page[page.index("<main>") :]
     verdict = re.search(r'<p class="verdict out" role="status">(.*?)</p>', main, re.S)
     assert verdict and main.index(verdict.group(0)) < main.index('id="leg-1"')
-    words = re.sub(r"<[^>]+>|\s+", " ", verdict.group(1))
+    words = " ".join(re.sub(r"<[^>]+>", " ", verdict.group(1)).split())
     assert "Not within limits on leg 2 (back solo)" in words and "leg 1" not in words
     assert "Within limits" not in main  # never beside a limit finding
     assert (
@@ -1697,3 +1697,60 @@ def test_record_this_check_refuses_where_the_aircraft_data_changed_since_the_che
     assert _records(desk) == []
     unnamed = client.post("/aircraft/DEMO-4T/record", data={k: v for k, v in posted.items() if k != "data"})
     assert unnamed.status_code == 422 and "does not say which aircraft data" in unnamed.text and _records(desk) == []
+
+
+# -- trial 13 D3 and D4: a trip's warnings, and what changes at each stop, on the desk ------------
+#
+# The trip of tests/test_trip.WARNED_TRIP on the check form of TEST-T (worked by hand there with
+# the moment method of FAA-H-8083-1B (2016) ch. 2): within limits on both legs, each landing with
+# 19 gal below its reserve of 20 gal (a warning each); at the stop a passenger boards the front
+# seats (180 -> 340 lb) and the tank is filled "full": 21 gal (126 lb) put in, 40 gal on board.
+TRIP_WARNED = {
+    "load.front": "180",
+    "fuel.main": "30",
+    "burn.taxi": "1",
+    "burn.trip": "10",
+    "burn.reserve": "20",
+    "legs": "2",
+    "leg.2.label": "two up",
+    "leg.2.load.front": "340",
+    "leg.2.fuel.main": "full",
+    "leg.2.burn.taxi": "1",
+    "leg.2.burn.trip": "20",
+    "leg.2.burn.reserve": "20",
+}
+
+
+def _words(html: str) -> str:
+    """A page's words: inline tags dropped, other tags and runs of white space each made one space."""
+    inline = re.sub(r"</?(?:a|strong|span|code|b|em)\b[^>]*>", "", html)
+    return " ".join(unescape(re.sub(r"<[^>]+>", " ", inline)).split())
+
+
+def _leg_section(page: str, leg: int) -> str:
+    start = page.index(f'<section class="leg" id="leg-{leg}">')
+    return page[start : page.index("</section>", start)]
+
+
+def test_regression_the_desks_trip_verdict_dropped_the_warnings_of_its_legs(reading_desk: dict[str, Any]) -> None:
+    """Trial 13 D3: "Within limits on every leg (2 legs): every condition, burn path and weight limit
+    of each leg holds." over two legs landing below their reserves. The trip's verdict now says the
+    warnings in all, and each leg's verdict its own, in the single check's words."""
+    from loadcheck.words import within_limits_text
+
+    expected = _trip_result(reading_desk, TRIP_WARNED)
+    assert expected.ok and [[f.code for f in leg.check.findings] for leg in expected.legs] == [["reserve"], ["reserve"]]
+    response = _post_check(_client(reading_desk, "pia"), TRIP_WARNED, "TEST-T")
+    assert response.status_code == 200
+    main = response.text[response.text.index("<main>") :]
+    verdict = re.search(r'<p class="verdict ok" role="status">(.*?)</p>', main, re.S)
+    assert verdict and main.index(verdict.group(0)) < main.index('id="leg-1"')
+    assert _words(verdict.group(1)) == f"Within limits on every leg (2 legs): {within_limits_text(2)}"
+    for leg in (1, 2):
+        section = _words(_leg_section(main, leg))
+        assert f"Leg {leg}: within limits: {within_limits_text(1)}" in section
+        assert "landing fuel 19.0 usgal is below the reserve of 20.0 usgal by 1.0 usgal" in section
+    listed = _words(main[main.index('<ul class="small">') : main.index('<section class="leg"')])
+    assert f"Leg 1: within limits: {within_limits_text(1)}" in listed
+    assert f"Leg 2 (two up): within limits: {within_limits_text(1)}" in listed
+    assert within_limits_text(0) not in _words(main)  # never "every condition ... holds" over a warning

@@ -761,6 +761,7 @@ def create_app(
         )
 
     from ..empty_record import categories_words
+    from ..trip import leg_verdict_text, trip_verdict_text
 
     env.globals.update(
         fmt=fmt,
@@ -780,6 +781,8 @@ def create_app(
         burn_path_summary=burn_path_summary,
         stretch_text=stretch_text,
         within_limits_text=within_limits_text,
+        leg_verdict_text=leg_verdict_text,
+        trip_verdict_text=trip_verdict_text,
         PILOT_CAUTION=PILOT_CAUTION,
         MECHANIC_CAUTION=MECHANIC_CAUTION,
         version=__version__,
