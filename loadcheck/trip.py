@@ -50,14 +50,77 @@ from .planning import (
     limit_amount_words,
     safe_value,
 )
-from .results import StationChange, Stop, TripFinding, TripLeg, TripResult, Uplift
+from .results import CheckResult, StationChange, Stop, TripFinding, TripLeg, TripResult, Uplift
+from .words import count, within_limits_text
 
-__all__ = ["TripPlan", "check_trip", "fuel_to_add", "leg_name", "stop_changes", "trip_legs", "trip_most_fuel"]
+__all__ = [
+    "TripPlan",
+    "check_trip",
+    "fuel_to_add",
+    "leg_name",
+    "leg_verdict_text",
+    "stop_changes",
+    "trip_legs",
+    "trip_most_fuel",
+    "trip_verdict_text",
+]
 
 
 def leg_name(number: int, label: str | None = None) -> str:
     """A leg in words: ``leg 2`` or ``leg 2 (back to base)``."""
     return f"leg {number}" + (f" ({label})" if label else "")
+
+
+def _warnings(check: CheckResult) -> int:
+    """How many findings of a check are warnings."""
+    return sum(f.severity == "warning" for f in check.findings)
+
+
+def leg_verdict_text(check: CheckResult) -> str:
+    """What a leg's check finds, in the single check's words: within limits, what holds and its
+    warnings (:func:`loadcheck.words.within_limits_text`); out of limits, how many limits it exceeds.
+    The front end puts its own "within limits" or "out of limits" before it.
+
+    Examples
+    --------
+    >>> from types import SimpleNamespace as Found
+    >>> leg_verdict_text(Found(ok=True, findings=[Found(severity="warning")], limits_exceeded=[]))
+    'every limit holds at every condition and along the burn path; 1 warning (see the findings).'
+    >>> leg_verdict_text(Found(ok=False, findings=[Found(severity="limit")] * 2, limits_exceeded=[0, 0]))
+    '2 limits exceeded.'
+    """
+    if check.ok:
+        return within_limits_text(_warnings(check))
+    return f"{count(len(check.limits_exceeded), 'limit')} exceeded."
+
+
+def trip_verdict_text(result: TripResult) -> str:
+    """The trip's verdict after its "within limits" or "out of limits": within limits, on every leg,
+    what holds and the warnings of every leg together (:func:`loadcheck.words.within_limits_text`,
+    the single check's words); out of limits, each leg out of limits with how many limits it
+    exceeds. Each leg's own warnings are in its verdict (:func:`leg_verdict_text`).
+
+    Examples
+    --------
+    >>> from types import SimpleNamespace as Found
+    >>> warned = Found(ok=True, findings=[Found(severity="warning")] * 2, limits_exceeded=[])
+    >>> clean = Found(ok=True, findings=[], limits_exceeded=[])
+    >>> legs = [Found(leg=1, label=None, check=clean), Found(leg=2, label="home", check=warned)]
+    >>> trip_verdict_text(Found(ok=True, legs=legs, failed_legs=[])).endswith("; 2 warnings (see the findings).")
+    True
+    >>> out = Found(ok=False, findings=[], limits_exceeded=[0])
+    >>> legs = [Found(leg=1, label=None, check=warned), Found(leg=2, label="home", check=out)]
+    >>> trip_verdict_text(Found(ok=False, legs=legs, failed_legs=legs[1:]))
+    'on leg 2 (home): 1 limit exceeded.'
+    """
+    if result.ok:
+        warnings = sum(_warnings(leg.check) for leg in result.legs)
+        return f"on every leg ({len(result.legs)} legs): {within_limits_text(warnings)}"
+    failed = "; ".join(
+        f"{leg_name(leg.leg, leg.label)}: {count(len(leg.check.limits_exceeded), 'limit')} exceeded"
+        for leg in result.failed_legs
+    )
+    return f"on {failed}."
 
 
 def _resolved(aircraft: Aircraft, trip: Loading | ResolvedTrip, category: str | None) -> ResolvedTrip:

@@ -714,3 +714,65 @@ def test_a_trips_no_fuel_reason_for_a_station_over_its_maximum_is_that_limit_alo
     answer = trip_most_fuel(inputs.aircraft, inputs.trip)
     assert not answer.feasible
     assert answer.governing == "leg 1: Left side locker: 60.0 lb exceeds the maximum 35.0 lb by 25.0 lb"
+
+
+# -- trial 13 D3: a trip's verdict carries the warnings of each leg and of the trip -----------------
+#
+# A trip of TEST-T (tests/helpers.TRIP_AIRCRAFT, limits invented) within limits on both legs, each
+# landing below its reserve (a warning, not a limit: docs/file-format.md and DESIGN.md "landing fuel
+# against a reserve ... a warning"). Worked by hand with the moment method of FAA-H-8083-1B (2016)
+# ch. 2 (avgas 6.0 lb/US gal, common practice):
+#   leg 1: pilot 180 lb at 70 in, 30 gal (180 lb) at 90 in: ramp 1,360 lb, 108,800 lb-in, CG 80.00 in;
+#     lands with 30 - 1 - 10 = 19 gal, 1 gal below its reserve of 20 gal: 1 warning;
+#   stop: a passenger boards the front seats (180 -> 340 lb), the tank filled "full": 40 - 19 = 21 gal
+#     (126 lb) put in, 40 gal on board;
+#   leg 2: ramp 1,000 + 340 + 240 = 1,580 lb, 80,000 + 23,800 + 21,600 = 125,400 lb-in, CG 79.37 in;
+#     lands with 40 - 1 - 20 = 19 gal, 1 gal below its reserve of 20 gal: 1 warning;
+#   zero fuel 1,180 lb at 78.47 in (leg 1) and 1,340 lb at 77.46 in (leg 2): inside 74 to 86 in.
+# So: within limits on every leg, 1 warning on each leg, 2 warnings in all.
+WARNED_TRIP = """format = 1
+aircraft = "aircraft.toml"
+[load]
+front = 180
+[fuel]
+main = 30
+[burn]
+taxi = 1
+trip = 10
+reserve = 20
+[[leg]]
+label = "two up"
+load = { front = 340 }
+add_fuel = { main = "full" }
+burn = { taxi = 1, trip = 20, reserve = 20 }
+"""
+
+
+def warned_trip(tmp_path: Path) -> Path:
+    """TEST-T and WARNED_TRIP written into ``tmp_path``; the loading file's path."""
+    folder = trip_fleet(tmp_path / "fleet")
+    (folder / "warned_trip.toml").write_text(WARNED_TRIP)
+    return folder / "warned_trip.toml"
+
+
+def test_regression_a_trips_verdict_dropped_the_warnings_of_its_legs(tmp_path):
+    """Trial 13 D3: the trip's verdict said "every condition, burn path and limit holds" over a leg
+    landing below its reserve; it now says each leg's warnings and the trip's, in the single
+    check's words (loadcheck.words.within_limits_text)."""
+    from loadcheck.trip import leg_verdict_text, trip_verdict_text
+    from loadcheck.words import within_limits_text
+
+    inputs = load_check_inputs(warned_trip(tmp_path), allow_trip=True)
+    result = check_trip(inputs.aircraft, inputs.trip)
+    one, two = result.legs
+    assert result.ok and one.check.ok and two.check.ok  # within limits: a reserve is a warning
+    assert one.check.condition("ramp").moment == pytest.approx(108800)  # by hand above
+    assert two.check.condition("ramp").weight == pytest.approx(1580)
+    assert two.check.condition("ramp").moment == pytest.approx(125400)
+    for leg in (one, two):
+        assert [(f.code, f.severity) for f in leg.check.findings] == [("reserve", "warning")]
+        assert leg.check.condition("landing").fuel == pytest.approx(19.0)
+        assert leg_verdict_text(leg.check) == within_limits_text(1)
+    assert "; 1 warning (see the findings)." in leg_verdict_text(one.check)
+    assert trip_verdict_text(result) == f"on every leg (2 legs): {within_limits_text(2)}"
+    assert "2 warnings (see the findings)" in trip_verdict_text(result)

@@ -10,7 +10,7 @@ from __future__ import annotations
 
 import json
 import re
-from html import escape
+from html import escape, unescape
 from pathlib import Path
 from typing import Any
 
@@ -811,7 +811,7 @@ def test_a_trip_whose_leg_2_fails_says_so_first_and_shows_every_leg(reading_desk
     main = page[page.index("<main>") :]
     verdict = re.search(r'<p class="verdict out" role="status">(.*?)</p>', main, re.S)
     assert verdict and main.index(verdict.group(0)) < main.index('id="leg-1"')
-    words = re.sub(r"<[^>]+>|\s+", " ", verdict.group(1))
+    words = " ".join(re.sub(r"<[^>]+>", " ", verdict.group(1)).split())
     assert "Not within limits on leg 2 (back solo)" in words and "leg 1" not in words
     assert "Within limits" not in main  # never beside a limit finding
     assert (
@@ -1697,3 +1697,170 @@ def test_record_this_check_refuses_where_the_aircraft_data_changed_since_the_che
     assert _records(desk) == []
     unnamed = client.post("/aircraft/DEMO-4T/record", data={k: v for k, v in posted.items() if k != "data"})
     assert unnamed.status_code == 422 and "does not say which aircraft data" in unnamed.text and _records(desk) == []
+
+
+# -- trial 13 D3 and D4: a trip's warnings, and what changes at each stop, on the desk ------------
+#
+# The trip of tests/test_trip.WARNED_TRIP on the check form of TEST-T (worked by hand there with
+# the moment method of FAA-H-8083-1B (2016) ch. 2): within limits on both legs, each landing with
+# 19 gal below its reserve of 20 gal (a warning each); at the stop a passenger boards the front
+# seats (180 -> 340 lb) and the tank is filled "full": 21 gal (126 lb) put in, 40 gal on board.
+TRIP_WARNED = {
+    "load.front": "180",
+    "fuel.main": "30",
+    "burn.taxi": "1",
+    "burn.trip": "10",
+    "burn.reserve": "20",
+    "legs": "2",
+    "leg.2.label": "two up",
+    "leg.2.load.front": "340",
+    "leg.2.fuel.main": "full",
+    "leg.2.burn.taxi": "1",
+    "leg.2.burn.trip": "20",
+    "leg.2.burn.reserve": "20",
+}
+
+
+def _words(html: str) -> str:
+    """A page's words: inline tags dropped, other tags and runs of white space each made one space."""
+    inline = re.sub(r"</?(?:a|strong|span|code|b|em)\b[^>]*>", "", html)
+    return " ".join(unescape(re.sub(r"<[^>]+>", " ", inline)).split())
+
+
+def _leg_section(page: str, leg: int) -> str:
+    start = page.index(f'<section class="leg" id="leg-{leg}">')
+    return page[start : page.index("</section>", start)]
+
+
+def test_regression_the_desks_trip_verdict_dropped_the_warnings_of_its_legs(reading_desk: dict[str, Any]) -> None:
+    """Trial 13 D3: "Within limits on every leg (2 legs): every condition, burn path and weight limit
+    of each leg holds." over two legs landing below their reserves. The trip's verdict now says the
+    warnings in all, and each leg's verdict its own, in the single check's words."""
+    from loadcheck.words import within_limits_text
+
+    expected = _trip_result(reading_desk, TRIP_WARNED)
+    assert expected.ok and [[f.code for f in leg.check.findings] for leg in expected.legs] == [["reserve"], ["reserve"]]
+    response = _post_check(_client(reading_desk, "pia"), TRIP_WARNED, "TEST-T")
+    assert response.status_code == 200
+    main = response.text[response.text.index("<main>") :]
+    verdict = re.search(r'<p class="verdict ok" role="status">(.*?)</p>', main, re.S)
+    assert verdict and main.index(verdict.group(0)) < main.index('id="leg-1"')
+    assert _words(verdict.group(1)) == f"Within limits on every leg (2 legs): {within_limits_text(2)}"
+    for leg in (1, 2):
+        section = _words(_leg_section(main, leg))
+        assert f"Leg {leg}: within limits: {within_limits_text(1)}" in section
+        assert "landing fuel 19.0 usgal is below the reserve of 20.0 usgal by 1.0 usgal" in section
+    listed = _words(main[main.index('<ul class="small">') : main.index('<section class="leg"')])
+    assert f"Leg 1: within limits: {within_limits_text(1)}" in listed
+    assert f"Leg 2 (two up): within limits: {within_limits_text(1)}" in listed
+    assert within_limits_text(0) not in _words(main)  # never "every condition ... holds" over a warning
+
+
+def test_regression_the_desks_trip_did_not_show_the_fuel_put_in_nor_the_load_changed_at_a_stop(
+    reading_desk: dict[str, Any],
+) -> None:
+    """Trial 13 D4: the desk's trip result showed neither the fuel put in at a stop (a pilot who typed
+    "full" was never told how much fuel that is) nor the load changed there. Leg 2 now shows both, from
+    the result's own stop (the figures the command line's "fuel put in at the stop" line gives)."""
+    from loadcheck.display import fmt
+
+    expected = _trip_result(reading_desk, TRIP_WARNED)
+    stop = expected.legs[1].stop
+    assert stop is not None and expected.legs[0].stop is None
+    [uplift] = stop.fuel
+    assert (uplift.volume, uplift.weight, uplift.on_board, uplift.given) == (
+        pytest.approx(21.0),
+        pytest.approx(126.0),
+        pytest.approx(40.0),
+        "full",
+    )  # by hand: 40 - 19 gal at 6.0 lb/gal
+    page = _post_check(_client(reading_desk, "pia"), TRIP_WARNED, "TEST-T").text
+    assert "At the stop before this leg" not in _leg_section(page, 1)
+    leg_2 = _leg_section(page, 2)
+    assert leg_2.index("At the stop before this leg") < leg_2.index("Moment table")
+    fuel = re.search(r'<table class="figures" id="stop-2-fuel">(.*?)</table>', leg_2, re.S)
+    load = re.search(r'<table class="figures" id="stop-2-load">(.*?)</table>', leg_2, re.S)
+    assert fuel and load
+    assert 'Main tank "full" 21.0 126.0 40.0' in _words(fuel.group(1))
+    assert [fmt(uplift.volume, "usgal"), fmt(uplift.weight, "lb")] == ["21.0 usgal", "126.0 lb"]
+    assert "Front seats 180.0 340.0" in _words(load.group(1))
+    assert [(c.name, c.from_weight, c.to_weight) for c in stop.stations] == [("Front seats", 180.0, 340.0)]
+
+
+def test_a_stop_with_no_fuel_put_in_says_so_on_the_desk(reading_desk: dict[str, Any]) -> None:
+    """A stop that puts no fuel in and changes no load says "none" for each (as the command line's
+    "fuel put in at the stop: none")."""
+    values = {k: v for k, v in TRIP_WARNED.items() if k not in ("leg.2.load.front", "leg.2.fuel.main")}
+    values["leg.2.burn.trip"] = "5"
+    page = _post_check(_client(reading_desk, "pia"), values, "TEST-T").text
+    leg_2 = _words(_leg_section(page, 2))
+    assert "Fuel put in at the stop None put in." in leg_2 and "Load changed at the stop None changed." in leg_2
+
+
+def test_the_desk_and_the_command_line_agree_on_a_trip(
+    runner: AppRunner, reading_desk: dict[str, Any], tmp_path: Path
+) -> None:
+    """The desk's trip and the command line's check of the same loading file: the same result (JSON),
+    and every leg's figures on the desk page are the command line's, its stop's too."""
+    from loadcheck.cli import app
+    from loadcheck.display import fmt
+
+    from .test_trip import WARNED_TRIP
+
+    loading = tmp_path / "warned.toml"
+    loading.write_text(
+        WARNED_TRIP.replace('"aircraft.toml"', json.dumps((reading_desk["fleet"] / "trip_test.toml").as_posix()))
+    )
+    shown = runner.invoke(app, ["check", str(loading), "--json"])
+    assert shown.exit_code == 0, shown.output
+    cli = json.loads(shown.output)
+    assert _trip_result(reading_desk, TRIP_WARNED).to_dict() == cli  # the desk reads the form as this file
+    terminal = " ".join(runner.invoke(app, ["check", str(loading)]).output.replace("│", " ").split())
+    page = _post_check(_client(reading_desk, "pia"), TRIP_WARNED, "TEST-T").text
+    units = cli["units"]
+    for leg in cli["legs"]:
+        section = _words(_leg_section(page, leg["leg"]))
+        for c in leg["conditions"]:
+            figures = [
+                fmt(c["fuel"], units["fuel_volume"]),
+                fmt(c["weight"], units["mass"]),
+                fmt(c["arm"], units["arm"]),
+            ]
+            row = " ".join(f.rsplit(" ", 1)[0] for f in figures)
+            assert row in section, (leg["leg"], c["condition"], row)
+            assert row in terminal, (leg["leg"], c["condition"], row)
+        for f in leg["findings"]:
+            assert f["message"] in section and f["message"] in terminal
+    for line in (
+        'fuel put in at the stop: Main tank: 21.0 usgal put in (126.0 lb), as given "full", 40.0 usgal on board after',
+        "load changed at the stop: Front seats: from 180.0 lb to 340.0 lb",
+    ):
+        assert line in terminal, line
+
+
+def test_a_planned_stop_on_the_desk_shows_the_fuel_the_answer_puts_in(reading_desk: dict[str, Any]) -> None:
+    """The fuel-to-put-in answer for a stop shows, on leg 2 of the trip checked at the answer, the fuel
+    that answer puts in (the plan's figure, no amount given for it) with its mass, from the answer's
+    own check (loadcheck.trip.fuel_to_add)."""
+    from loadcheck.display import fmt
+    from loadcheck.trip import fuel_to_add
+
+    within = {**TRIP_LEG_2_AFT, "leg.2.load.front": "340", "leg.2.load.bags": "0"}  # as the plan test above
+    inputs = _trip_inputs(reading_desk, within)
+    answer = fuel_to_add(inputs.aircraft, inputs.trip, 2)
+    assert answer.feasible and answer.trip is not None
+    stop = answer.trip.legs[1].stop
+    assert stop is not None and [u.given for u in stop.fuel] == [None]
+    page = _post_check(_client(reading_desk, "pia"), {**within, "stop": "2"}, "TEST-T", action="stop").text
+    fuel = re.search(r'<table class="figures" id="stop-2-fuel">(.*?)</table>', _leg_section(page, 2), re.S)
+    assert fuel
+    [uplift] = stop.fuel
+    row = " ".join(
+        [
+            "Main tank the plan's figure",
+            fmt(uplift.volume, "usgal", with_unit=False),
+            fmt(uplift.weight, "lb", with_unit=False),
+            fmt(uplift.on_board, "usgal", with_unit=False),
+        ]
+    )
+    assert row in _words(fuel.group(1))

@@ -16,7 +16,7 @@ from rich.text import Text
 
 from ..display import fmt
 from ..results import TripLeg, TripResult
-from ..words import count, stop_lines, stretch_text
+from ..words import stop_lines, stretch_text
 from .terminal import (
     Column,
     _burn_line,
@@ -43,14 +43,11 @@ def _leg_title(leg: TripLeg) -> str:
 
 
 def trip_verdict(result: TripResult) -> str:
-    """The trip's verdict in words, naming every leg out of limits."""
-    if result.ok:
-        return f"WITHIN LIMITS on every leg ({len(result.legs)} legs): every condition, burn path and limit holds."
-    failed = "; ".join(
-        f"{_leg_title(leg).lower()}: {count(len(leg.check.limits_exceeded), 'limit')} exceeded"
-        for leg in result.failed_legs
-    )
-    return f"OUT OF LIMITS on {failed}."
+    """The trip's verdict in words: within limits with every leg's warnings together, or naming
+    every leg out of limits (:func:`loadcheck.trip.trip_verdict_text`)."""
+    from ..trip import trip_verdict_text
+
+    return ("WITHIN LIMITS " if result.ok else "OUT OF LIMITS ") + trip_verdict_text(result)
 
 
 def render_trip(result: TripResult, console: Console, plots: Sequence[Sequence[str]] = ()) -> None:
@@ -74,11 +71,14 @@ def _legs(result: TripResult, console: Console, plots: Sequence[Sequence[str]] =
     """Each leg as ``check`` shows a loading: its verdict, what changed at the stop before it
     (the fuel put in and the stations whose load changed), fuel, moment table, conditions, burn
     path and findings (tagged with the leg), and its text plot if given."""
+    from ..trip import leg_verdict_text
+
     units = result.units
     for index, leg in enumerate(result.legs):
         check = leg.check
         state = "within limits" if check.ok else "OUT OF LIMITS"
-        console.print(Text(f"{_leg_title(leg)}: {state}", style=_OK_STYLE if check.ok else _LIMIT_STYLE))
+        style = _OK_STYLE if check.ok else _LIMIT_STYLE
+        console.print(Text(f"{_leg_title(leg)}: {state}: {leg_verdict_text(check)}", style=style))
         if leg.stop is not None:
             for line in stop_lines(leg.stop, units):
                 console.print(line, markup=False)

@@ -48,7 +48,7 @@ from ..errors import InputError, LoadcheckError, Problem
 from ..loading import burn_order
 from ..registration import registration_key
 from ..units import parse_quantity
-from ..words import burn_path_summary, condition_words, stretch_text, within_limits_text
+from ..words import burn_path_summary, condition_words, given_fuel_words, stretch_text, within_limits_text
 from .form import FORM_FIELDS, one_source, refuse_query, refuse_repeated, refuse_unknown
 from .security import MAX_BODY_BYTES, BodyLimit, SignInThrottle, csrf_ok, csrf_token
 from .users import Account, UserStore
@@ -761,6 +761,7 @@ def create_app(
         )
 
     from ..empty_record import categories_words
+    from ..trip import leg_verdict_text, trip_verdict_text
 
     env.globals.update(
         fmt=fmt,
@@ -780,6 +781,9 @@ def create_app(
         burn_path_summary=burn_path_summary,
         stretch_text=stretch_text,
         within_limits_text=within_limits_text,
+        leg_verdict_text=leg_verdict_text,
+        trip_verdict_text=trip_verdict_text,
+        given_fuel_words=given_fuel_words,
         PILOT_CAUTION=PILOT_CAUTION,
         MECHANIC_CAUTION=MECHANIC_CAUTION,
         version=__version__,
