@@ -683,7 +683,7 @@ def log_check(
         inputs=recorded_inputs(given),
         result=data,
         registration=inputs.aircraft.registration,
-        reference=given.reference or given.label,
+        reference=given.reference,  # as given: a label is not taken for a reference (it is in the inputs)
         pilot=given.pilot or pilot,
         source=source,
         version=version,

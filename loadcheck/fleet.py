@@ -903,7 +903,7 @@ def _folder_rows(folder: Path, fleet: Fleet) -> Iterator[FlightRow]:
             # with an aircraft's table in it; no table at all): read as a loading, so that its problems
             # are reported, never passed over in silence
             loading = parse_loading(data, path)
-            registration, reference, pilot = loading.registration, loading.reference or path.stem, loading.pilot
+            registration, reference, pilot = loading.registration, loading.reference, loading.pilot
             problem = (
                 _named_aircraft_problem(path, loading, fleet)
                 if registration

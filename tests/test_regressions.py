@@ -664,3 +664,29 @@ def test_regression_a_named_level_in_another_letter_case_was_refused_where_full_
     )
     assert answer.status_code == 200, answer.text
     assert answer.json()["conditions"][0]["fuel"] == 30.0
+
+
+def test_regression_a_loadings_label_or_file_name_was_recorded_as_its_reference(runner, tmp_path):
+    # trial 13 D6: `check --log` stored a loading's label as the record's reference where none was given,
+    # and a fleet folder's loading file without a reference was recorded under its file name: guessed
+    # values in a record a dispatcher searches by reference. The reference is what was given, or none
+    # (the label is in the stored inputs; the file in the record's source)
+    import sqlite3
+
+    db = tmp_path / "records.sqlite3"
+    loading = tmp_path / "evening.toml"
+    loading.write_text(
+        'label = "evening circuit"\n[load]\nfront = 170\n[fuel]\nmains = "school"\n[burn]\ntaxi = 1\ntrip = 10\n'
+    )
+    aircraft = str(sample("trainer4/aircraft.toml"))
+    logged = runner.invoke(app, ["check", aircraft, str(loading), "--log", "--db", str(db)])
+    assert logged.exit_code == 0, logged.output
+    day = tmp_path / "day"
+    day.mkdir()
+    (day / "flight_b.toml").write_text('registration = "DEMO-4T"\n[load]\nfront = 170\n[fuel]\nmains = "school"\n')
+    fleet = runner.invoke(app, ["fleet", "check", str(sample("trainer4")), str(day), "--db", str(db)])
+    assert fleet.exit_code == 0, fleet.output
+    with sqlite3.connect(db) as connection:
+        rows = connection.execute("SELECT reference, source, inputs FROM checks ORDER BY id").fetchall()
+    assert [reference for reference, _, _ in rows] == [None, None]
+    assert "evening circuit" in rows[0][2] and rows[1][1].startswith(str(day / "flight_b.toml"))
