@@ -1187,9 +1187,11 @@ def _replace_list(doc: Any, key: str, items: list[dict[str, Any]]) -> None:
 
 
 def _tidy_history(text: str) -> str:
-    """``text`` with one blank line before each ``[[history]]`` table (an appended one came right
-    after the table before it); ``text`` as it is where that would change any value."""
-    tidy = re.sub(r"\n+(?=\[\[history\]\]\n)", "\n\n", text)
+    """``text`` with a blank line before each ``[[history]]`` table that has none: the one just
+    appended came right after the table before it, and rebuilding the equipment list takes the blank
+    line from the first entry; a table with blank lines before it keeps them as written, and ``text``
+    is kept as it is where the change would alter any value."""
+    tidy = re.sub(r"(?<=[^\n])\n(?=\[\[history\]\]\n)", "\n\n", text)
     return tidy if tidy == text or tomllib.loads(tidy) == tomllib.loads(text) else text
 
 

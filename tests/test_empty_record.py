@@ -269,6 +269,17 @@ def test_regression_an_appended_history_table_had_no_blank_line_before_it(runner
     )
 
 
+def test_the_history_tidy_adds_a_blank_line_only_where_there_is_none():
+    # review 13: the tidy re-spaced every [[history]] of the record, entries nobody touched among them;
+    # it adds a blank line only before a table that has none, and never where a value would change
+    from loadcheck.files import _tidy_history
+
+    text = "a = 1\n[[history]]\nx = 1\n\n\n[[history]]\nx = 2\n[[history]]\nx = 3\n"
+    assert _tidy_history(text) == "a = 1\n\n[[history]]\nx = 1\n\n\n[[history]]\nx = 2\n\n[[history]]\nx = 3\n"
+    inside = 'a = """\n[[history]]\n"""\n'  # a string's line: blank line would change its value
+    assert _tidy_history(inside) == inside
+
+
 # -- item 7: lateral CG ------------------------------------------------------------------------------
 
 
