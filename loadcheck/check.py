@@ -177,6 +177,7 @@ def check_columns(
         columns = _explain(aircraft, chosen, found, category, samples, stations, fuel, rho)
         for k, index in enumerate(members):
             placed[index] = (columns, k)
+    assert all(p is not None for p in placed), "every loading is in one group"
     return [p for p in placed if p is not None]
 
 

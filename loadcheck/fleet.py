@@ -1075,9 +1075,14 @@ def default_workers() -> int:
     return 2 if cores >= 2 else 1
 
 
+def _inputs_of(row: FlightRow) -> dict[str, Any] | None:
+    """The inputs of a checked flight as the log records them; None where nothing is recorded."""
+    return recorded_inputs(row.loading) if _RECORDING and row.loading is not None else None
+
+
 def _outcome(row: FlightRow, result: dict[str, Any]) -> Stored:
     """A checked flight's result as the log stores it, with its inputs where they are recorded."""
-    return stored(result, recorded_inputs(row.loading) if _RECORDING and row.loading is not None else None)
+    return stored(result, _inputs_of(row))
 
 
 def _check_chunk(rows: list[FlightRow]) -> list[tuple[Stored | None, list[str]]]:
@@ -1133,9 +1138,10 @@ def _checked_rows(rows: list[FlightRow]) -> list[tuple[Stored | None, list[str]]
             texts = written.get(id(columns))
             if texts is None:
                 texts = written[id(columns)] = result_texts(columns)
-            row = rows[index]
-            inputs = recorded_inputs(row.loading) if _RECORDING and row.loading is not None else None
-            out[index] = (stored_text(texts[k].decode(), columns.ok[k], columns.category[k], inputs), [])
+            out[index] = (
+                stored_text(texts[k].decode(), columns.ok[k], columns.category[k], _inputs_of(rows[index])),
+                [],
+            )
     return out
 
 

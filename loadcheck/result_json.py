@@ -176,6 +176,10 @@ def _condition_texts(condition: ConditionColumns, n: int) -> list[bytes]:
     for name in ("weight", "arm", "moment", "lateral_arm", "lateral_moment", "mac_percent", "fuel", "fuel_weight"):
         values = getattr(condition, name)
         if values is not None:
+            # a column is given whole or not at all (the aircraft's lateral limits, its MAC): a None in
+            # one would be written null where the result leaves the field out, so it is refused here
+            if None in values:
+                raise ValueError(f"a {name} column of the results holds None; the text cannot leave it out")
             template.append(b"," + _key(name) + b"%b")
             columns.append(_tokens(values))
     if condition.max_weight is not None:
