@@ -641,6 +641,7 @@ def load_check_inputs(
     """
     notes: list[str] = []
     fuel_to_plan = bool(overrides.pop("fuel_to_plan", False))
+    stop_to_plan: int | None = overrides.pop("stop_to_plan", None)
     data = read_toml(aircraft_path)
     if loading_path is not None and file_kind(data) == "loading":
         second = file_kind(read_toml(loading_path))
@@ -717,6 +718,20 @@ def load_check_inputs(
             file="command line",
         )
         raise _named_as_typed(refused, typed) if command_line else refused
+    typed_stop = ((overrides.get("legs") or {}).get(stop_to_plan) or {}).get("add_fuel") or {}
+    if stop_to_plan is not None and typed_stop:  # the same for the fuel put in at the stop planned
+        refused = InputError(
+            [
+                Problem(
+                    leg_field(stop_to_plan, f"add_fuel.{name}"),
+                    f"fuel given here would not be used: this answer chooses the fuel put in at the stop "
+                    f"before leg {stop_to_plan}; give none for that stop",
+                )
+                for name in typed_stop
+            ],
+            file="command line",
+        )
+        raise _named_as_typed(refused, typed) if command_line else refused
 
     if loading_path is not None:
         legs = trip.legs if trip is not None else (resolved,)
@@ -733,6 +748,15 @@ def load_check_inputs(
     if fuel_to_plan and loading.fuel:  # the file's fuel at engine start: the answer chooses it instead
         given = ", ".join(f"{name} {_typed(value)}" for name, value in loading.fuel.items())
         notes.append(f"the loading file's fuel at engine start ({given}) is not used: this answer chooses the fuel")
+    planned_leg = None
+    if stop_to_plan is not None and 2 <= stop_to_plan <= len(loading.leg) + 1:
+        planned_leg = loading.leg[stop_to_plan - 2]
+    if planned_leg is not None and planned_leg.add_fuel:  # the file's fuel at that stop: the answer chooses it
+        given = ", ".join(f"{name} {_typed(value)}" for name, value in planned_leg.add_fuel.items())
+        notes.append(
+            f"the loading file's fuel put in at the stop before leg {stop_to_plan} ({given}) is not used: "
+            "this answer chooses it"
+        )
     label = loading.label or (Path(loading_path).stem if loading_path is not None else None)
     return CheckInputs(aircraft, resolved, Path(loading_path) if loading_path else None, notes, label, loading, trip)
 

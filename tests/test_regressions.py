@@ -690,3 +690,20 @@ def test_regression_a_loadings_label_or_file_name_was_recorded_as_its_reference(
         rows = connection.execute("SELECT reference, source, inputs FROM checks ORDER BY id").fetchall()
     assert [reference for reference, _, _ in rows] == [None, None]
     assert "evening circuit" in rows[0][2] and rows[1][1].startswith(str(day / "flight_b.toml"))
+
+
+def test_regression_plan_stop_set_the_typed_fuel_of_its_own_stop_aside(runner, tmp_path):
+    # review 13: `plan stop --leg 2 --leg-fuel 2:main=3` gave the same answer as without the option, the
+    # typed fuel for the stop asked about replaced without a word (the file's add_fuel too). The typed
+    # fuel is refused, naming the option; the file's is said to be replaced; another stop's is used
+    trip = str(sample("heli2/trip_drop_off.toml"))
+    typed = runner.invoke(app, ["plan", "stop", trip, "--leg", "2", "--leg-fuel", "2:main=3"])
+    assert typed.exit_code == 2
+    assert "--leg-fuel 2:main=3: fuel given here would not be used: this answer chooses the fuel put in at" in (
+        " ".join(typed.output.split())
+    )
+    from_file = runner.invoke(app, ["plan", "stop", trip, "--leg", "2"])
+    assert from_file.exit_code in (0, 1), from_file.output
+    assert "the loading file's fuel put in at the stop before leg 2 (main 5.0) is not used" in " ".join(
+        from_file.output.split()
+    )

@@ -32,7 +32,7 @@ def test_plan_commands_for_a_trip(runner):
     fuel = runner.invoke(app, ["plan", "fuel", path])
     assert fuel.exit_code == 0 and "every leg" in fuel.output, fuel.output
     stop = runner.invoke(app, ["plan", "stop", path, "--leg", "2", "--json"])
-    data = json.loads(stop.output)
+    data = json.loads(stop.stdout)  # a note on standard error: the file's fuel at that stop is the answer's
     assert stop.exit_code == 0 and data["feasible"] and data["trip"]["ok"] and len(data["trip"]["legs"]) == 2
     assert runner.invoke(app, ["plan", "stop", path, "--leg", "3"]).exit_code == 2
 

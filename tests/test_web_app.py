@@ -1030,10 +1030,15 @@ def test_plan_a_trip_from_the_form_is_the_library_answer(reading_desk: dict[str,
     # the most fuel chooses the fuel at the first engine start: none is given for it (leg 2's uplift is)
     page = _post_check(client, {k: v for k, v in within.items() if k != "fuel.main"}, "TEST-T", action="fuel").text
     assert escape(most.answer_display) in page and "every leg" in page and 'id="leg-2"' in page
-    page = _post_check(client, {**within, "stop": "2"}, "TEST-T", action="stop").text
+    unplanned = {k: v for k, v in within.items() if k != "leg.2.fuel.main"}  # the answer chooses the stop's fuel
+    page = _post_check(client, {**unplanned, "stop": "2"}, "TEST-T", action="stop").text
     assert (
         escape(stop.question[1:]) in page and escape(stop.answer_display) in page
     )  # the page capitalises its first letter
+    typed = _post_check(client, {**within, "stop": "2"}, "TEST-T", action="stop")
+    assert typed.status_code == 422 and "would not be used: this answer chooses the fuel put in at the stop" in (
+        " ".join(typed.text.split())
+    )
     refused = _post_check(client, within, "TEST-T", action="payload")
     assert refused.status_code == 422 and "loading of one leg" in refused.text
     assert _records(reading_desk) == []
@@ -1081,8 +1086,13 @@ def test_api_check_takes_legs_as_the_command_line_does(runner: AppRunner, desk: 
     assert _records(desk) == []
     recorded = client.post("/api/check", json={**body, "record": True}).json()
     assert [r.id for r in _records(desk)] == [recorded["record_id"]] and len(recorded["legs"]) == 2
-    stop = client.post("/api/plan/stop", json={**body, "stop": 2})
-    cli_stop = runner.invoke(app, ["plan", "stop", *args[1:-1], "--leg", "2", "--json"])
+    # the fuel put in at the stop planned is the answer's: none is given for it (the typed is refused)
+    refused = client.post("/api/plan/stop", json={**body, "stop": 2})
+    assert refused.status_code == 422 and [p["field"] for p in refused.json()["problems"]] == ["leg 2, add_fuel.main"]
+    unplanned = [{"load": {"front": 170}, "burn": {"taxi": 1, "trip": 10}}]
+    stop = client.post("/api/plan/stop", json={**body, "leg": unplanned, "stop": 2})
+    at = args.index("--leg-fuel")
+    cli_stop = runner.invoke(app, ["plan", "stop", *args[1:at], *args[at + 2 : -1], "--leg", "2", "--json"])
     assert stop.status_code == 200 and stop.json() == json.loads(cli_stop.stdout)
 
 
@@ -1851,7 +1861,8 @@ def test_a_planned_stop_on_the_desk_shows_the_fuel_the_answer_puts_in(reading_de
     assert answer.feasible and answer.trip is not None
     stop = answer.trip.legs[1].stop
     assert stop is not None and [u.given for u in stop.fuel] == [None]
-    page = _post_check(_client(reading_desk, "pia"), {**within, "stop": "2"}, "TEST-T", action="stop").text
+    unplanned = {k: v for k, v in within.items() if k != "leg.2.fuel.main"}  # the answer chooses the stop's fuel
+    page = _post_check(_client(reading_desk, "pia"), {**unplanned, "stop": "2"}, "TEST-T", action="stop").text
     fuel = re.search(r'<table class="figures" id="stop-2-fuel">(.*?)</table>', _leg_section(page, 2), re.S)
     assert fuel
     [uplift] = stop.fuel

@@ -336,13 +336,15 @@ def _inputs(
     category: str | None,
     *,
     fuel_to_plan: bool = False,
+    stop_to_plan: int | None = None,
     legs: Mapping[int, Mapping[str, Mapping[str, object]]] | None = None,
     allow_trip: bool = False,
 ) -> CheckInputs:
     """Read the files and lay the options over them (loadcheck.files.load_check_inputs).
 
     ``fuel_to_plan``: the answer chooses the fuel, so the fuel given need not cover taxi and
-    trip; ``legs`` are the legs' options (loadcheck.loading.leg_assignments); ``allow_trip``
+    trip; ``stop_to_plan``: the answer chooses the fuel put in at the stop before that leg;
+    ``legs`` are the legs' options (loadcheck.loading.leg_assignments); ``allow_trip``
     admits a trip.
     """
     from ..files import load_check_inputs
@@ -363,6 +365,7 @@ def _inputs(
             burn=burn,
             category=category,
             fuel_to_plan=fuel_to_plan,
+            stop_to_plan=stop_to_plan,
             legs=legs,
             allow_trip=allow_trip,
             command_line=True,

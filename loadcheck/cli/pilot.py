@@ -498,6 +498,7 @@ def plan_stop(
         order,
         reserve,
         category,
+        stop_to_plan=leg,
         legs=_legs(leg_load, leg_fuel, leg_burn),
         allow_trip=True,
     )

@@ -619,7 +619,9 @@ def _refuse_legs_without_burn(legs: Mapping[int, Mapping[str, object]]) -> None:
         )
 
 
-def _inputs(desk: Desk, registration: str, overrides: Overrides, *, fuel_to_plan: bool = False) -> CheckInputs:
+def _inputs(
+    desk: Desk, registration: str, overrides: Overrides, *, fuel_to_plan: bool = False, stop_to_plan: int | None = None
+) -> CheckInputs:
     """The aircraft and the loading (one leg or a trip of several) resolved, as the command line reads them.
 
     ``fuel_to_plan`` for the most fuel: the answer chooses the fuel, so the fuel given (none, or
@@ -629,7 +631,9 @@ def _inputs(desk: Desk, registration: str, overrides: Overrides, *, fuel_to_plan
 
     _, path = desk.aircraft_path(registration)
     _refuse_legs_without_burn(overrides["legs"])
-    return load_check_inputs(path, None, allow_trip=True, fuel_to_plan=fuel_to_plan, **overrides)
+    return load_check_inputs(
+        path, None, allow_trip=True, fuel_to_plan=fuel_to_plan, stop_to_plan=stop_to_plan, **overrides
+    )
 
 
 def _trip_or_given(inputs: CheckInputs) -> Loading | ResolvedTrip:
@@ -938,8 +942,15 @@ def create_app(
         form = await _form(request)
         aircraft, _ = desk.aircraft_path(registration)
         typed, overrides = _overrides(form, aircraft, also=also)
+        stop = typed.get("stop", "") if _text(form, "action") == "stop" else ""
         try:
-            inputs = _inputs(desk, registration, overrides, fuel_to_plan=fuel_to_plan)
+            inputs = _inputs(
+                desk,
+                registration,
+                overrides,
+                fuel_to_plan=fuel_to_plan,
+                stop_to_plan=int(stop) if stop.isdigit() else None,
+            )
         except (LoadcheckError, ValidationError) as error:
             return account, aircraft, typed, None, desk.problems(error)
         return account, aircraft, typed, inputs, []
@@ -1377,7 +1388,7 @@ def create_app(
     async def _body_refused(request: Request, error: _BodyRefused) -> Response:
         return JSONResponse({"problems": desk.problems(InputError(error.problems))}, status_code=422)
 
-    def _api_inputs(body: CheckRequest, *, fuel_to_plan: bool = False) -> CheckInputs:
+    def _api_inputs(body: CheckRequest, *, fuel_to_plan: bool = False, stop_to_plan: int | None = None) -> CheckInputs:
         legs = dict(enumerate(body.leg, start=2))
         return _inputs(
             desk,
@@ -1386,6 +1397,7 @@ def create_app(
                 load=body.load, names=body.names, fuel=body.fuel, burn=body.burn, category=body.category, legs=legs
             ),
             fuel_to_plan=fuel_to_plan,
+            stop_to_plan=stop_to_plan,
         )
 
     def _api_error(error: Exception) -> JSONResponse:
@@ -1462,7 +1474,7 @@ def create_app(
 
         _need(request, "pilot")
         try:
-            inputs = _api_inputs(body)
+            inputs = _api_inputs(body, stop_to_plan=body.stop)  # the answer chooses that stop's fuel
             return fuel_to_add(inputs.aircraft, _trip_or_given(inputs), body.stop).to_dict()
         except (LoadcheckError, ValidationError) as error:
             return _api_error(error)
