@@ -492,7 +492,7 @@ def test_regression_ballast_at_a_station_named_ballast_is_not_said_twice(runner)
     result = runner.invoke(app, ["plan", "ballast", str(sample("tandem2/aft_heavy.toml"))])
     assert result.exit_code == 0, result.output
     assert "ballast at ballast" not in result.output
-    assert "\nballast: " in result.output  # the answer's line, "ballast: 14.5 kg"
+    assert "\ntotal ballast: " in result.output  # the answer's line, "total ballast: 14.5 kg" (the box's whole weight)
     other = runner.invoke(app, ["plan", "ballast", str(sample("tandem2/aft_heavy.toml")), "--station", "front"])
     assert "ballast at front" in other.output
 
