@@ -572,7 +572,7 @@ def _at_station(result: PlanResult, station: str, given: float, direction: Liter
     unit, places = result.unit, _places(result.answer_display)
     have = fmt(given, unit, places=places)
     if abs(added) <= 1e-9 * max(1.0, given):
-        words = f"all of it in the loading: none to add"
+        words = "all of it in the loading: none to add"
     elif added > 0:
         words = f"{have} in the loading and {fmt(added, unit, direction, places=places, nonzero=True)} more"
     else:
@@ -992,7 +992,7 @@ def least_ballast(aircraft: Aircraft, loading: ResolvedLoading, station: str | N
         governing, code = _why_not(aircraft, loading, station)
         answer = replace(answer, answer_display=f"no amount can: {reason}", governing=governing, governing_code=code)
     if already > 0 and pairs and pairs[0][0] <= already:  # the stretch starts at the loading's ballast
-        kept = f"{fmt(already, aircraft.units.mass)} in the loading, so no answer is less (less may also be within limits)"
+        kept = f"{fmt(already, aircraft.units.mass)} in the loading, so no answer is less (less may also do)"
         answer = replace(answer, extra={**answer.extra, "ballast kept as loaded": kept})
     return _at_station(answer, station, already, "up")
 
