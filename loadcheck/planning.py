@@ -911,6 +911,9 @@ def fuel_to_leave(
     unit = aircraft.units.fuel_volume
     now = sum(loading.fuel.values())
     question = f"fuel to leave behind to carry {fmt(payload, aircraft.units.mass)} at {station}"
+    given = loading.stations.get(station, 0.0)
+    if given > 0:  # the payload is the station's whole weight, in place of the loading's
+        question += f" in all (in place of the {fmt(given, aircraft.units.mass)} in the loading there)"
     # fuel left behind = ramp fuel in the loading less the ramp fuel taken, within [0, now]
     pairs = sorted((max(0.0, now - i.high), now - i.low) for i in fuel.intervals if i.low <= now)
     result = _answer(
@@ -1269,7 +1272,9 @@ def weight_shift(
             answer=moved,
             answer_display=shown,
             check=check,
-            extra={"resulting CG": fmt(check.condition(condition).arm, units.arm)} | ({"note": short} if short else {}),
+            extra={"resulting CG": fmt(check.condition(condition).arm, units.arm)}
+            | ({"note": short} if short else {})
+            | _after_move(check, source, target_station, units.mass),
         )
     base = loading_arrays(aircraft, loading)
 
@@ -1329,7 +1334,17 @@ def weight_shift(
         past, _code = _limits_past(check_loading(aircraft, at(min(available, first.high + 2 * _GRID_STEP))))
         if past:
             extra["limited above by"] = f"{past} (moving more than {fmt(first.high, units.mass, 'down')})"
+    if answer.check is not None:
+        extra |= _after_move(answer.check, source, target_station, units.mass)
     return replace(answer, extra=extra)
+
+
+def _after_move(check: CheckResult, source: str, target: str, unit: str) -> dict[str, str]:
+    """What each station of a move holds in the loading checked: the weight moved is an amount, not
+    a station's whole weight, so the answer also says the two stations' weights to load [mass unit]."""
+    held = {item.id: item.weight for item in check.items}
+    words = f"{fmt(held.get(source, 0.0), unit)} at {source}, {fmt(held.get(target, 0.0), unit)} at {target}"
+    return {"after the move": words}
 
 
 @dataclass(frozen=True, kw_only=True, slots=True)
