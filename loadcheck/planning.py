@@ -969,8 +969,9 @@ def least_ballast(aircraft: Aircraft, loading: ResolvedLoading, station: str | N
     pairs = feasible_intervals(
         lambda x: _ok(evaluate_arrays(aircraft, base, stations=rows(x))), already, max(already, top), _GRID_STEP
     )
+    start = f"from the {fmt(already, aircraft.units.mass)} in the loading " if already > 0 else ""
     reason = (
-        f"no weight up to the station's maximum ({fmt(top, aircraft.units.mass)}) at {station} "
+        f"no weight {start}up to the station's maximum ({fmt(top, aircraft.units.mass)}) at {station} "
         "brings every condition within limits"
     )
 

@@ -1391,3 +1391,14 @@ def test_regression_plan_payload_says_what_the_loading_has_at_the_station():
     over = P.most_payload(aircraft, _ballast_loading(aircraft, box=45.0, cargo=700.0), "cargo")
     assert over.answer_display == "614.0 lb (700.0 lb in the loading: 86.0 lb less)"
     assert over.added == pytest.approx(-86.0) and _station_weight(over.check, "cargo") == pytest.approx(614.0)
+
+
+def test_regression_no_ballast_answer_says_it_searched_from_the_loadings_ballast():
+    """With ballast in the loading the search starts there (the loading's ballast stays), but the
+    refusal said "no weight up to the station's maximum", as if from none. tandem2/aft_heavy.toml is aft
+    of its envelope; ballast at the tail-side baggage station cannot help it."""
+    aircraft, loading = _loaded("tandem2/aft_heavy.toml")
+    loading = loading.but(stations={**loading.stations, "baggage": 20.0})
+    answer = P.least_ballast(aircraft, loading, "baggage")
+    assert not answer.feasible and answer.given == 20.0 and answer.added is None
+    assert "no weight from the 20.0 kg in the loading up to the station's maximum" in answer.answer_display
