@@ -97,7 +97,13 @@ class PlanResult(Result):
     intervals : every feasible stretch of the variable [unit]
     answer : the value to use (the most fuel or payload, the least ballast or shift),
         at full precision, on the safe side of the boundary [unit]
-    answer_display : the answer rounded in the safe direction, with its unit
+    answer_display : the answer rounded in the safe direction, with its unit; for a station's
+        weight (payload, ballast) where the loading as given has some there, followed by what it
+        has and what the answer adds or takes off ("3.1 lb (1.0 lb in the loading and 2.1 lb more)")
+    given : for an answer that is a station's weight (payload, ballast), the weight the loading
+        as given has at that station; None for other answers [unit]
+    added : for such an answer found, the figure checked less ``given``: the weight to put in
+        (below zero: to take out) to load what the answer says; None otherwise [unit]
     governing : the limit that stops the answer going further, in words
     governing_code : its finding code
     check : the check of the loading at the answer
@@ -111,6 +117,8 @@ class PlanResult(Result):
     intervals: list[Interval]
     answer: float | None
     answer_display: str
+    given: float | None = None
+    added: float | None = None
     governing: str | None = None
     governing_code: str | None = None
     check: CheckResult | None = None
@@ -485,10 +493,13 @@ def _answer(
     direction: Literal["up", "down"],
     why_not: Callable[[], str | tuple[str, str | None]],
     governing: Callable[[float, CheckResult], tuple[str | None, str | None]] = lambda _v, _c: (None, None),
+    floor: float | None = None,
 ) -> PlanResult:
     """An answer at the best end of the stretches within limits, carrying the full check of
     the loading at the figure shown; infeasible unless that check finds it within limits.
-    ``why_not`` gives the reason where no value is within limits, alone or with its finding code."""
+    ``why_not`` gives the reason where no value is within limits, alone or with its finding code.
+    ``floor``, for a least answer: the value the loading as given has (the search starts there);
+    where it is within limits, it is the answer itself, not rounded up past what the loading has."""
     if not pairs:
         reason = why_not()
         text, code = reason if isinstance(reason, tuple) else (reason, None)
@@ -504,7 +515,10 @@ def _answer(
             governing_code=code,
         )
     low, high = pairs[-1] if direction == "down" else pairs[0]
-    shown, text = safe_value(low, high, unit, direction)
+    if direction == "up" and floor is not None and low <= floor:
+        shown, text = floor, fmt(floor, unit)
+    else:
+        shown, text = safe_value(low, high, unit, direction)
     check = check_loading(aircraft, at(shown))
     if not check.ok:  # never bless a loading the check rejects
         return PlanResult(
@@ -532,6 +546,39 @@ def _answer(
         governing_code=code,
         check=check,
     )
+
+
+def _places(text: str) -> int:
+    """The decimal places of the figure that starts a text ("3.05 lb": 2)."""
+    figure = text.split()[0]
+    return len(figure.partition(".")[2])
+
+
+def _at_station(result: PlanResult, station: str, given: float, direction: Literal["up", "down"]) -> PlanResult:
+    """A station's-weight answer (payload, ballast: the station's whole weight) with what the loading
+    as given has there (``given``) and what the answer puts in or takes out (``added``), said beside the
+    figure where the loading has some there ("3.1 lb (1.0 lb in the loading and 2.1 lb more)").
+
+    The figure is the station's weight in the check the answer carries, so what the pilot is told to
+    load is what was checked; the weight to put in is rounded as the answer is (``direction``: up for a
+    least, down for a most), a weight to take out the other way, at the answer's places.
+    """
+    if not result.feasible or result.check is None:
+        return replace(result, given=given)
+    total = next((item.weight for item in result.check.items if item.id == station), 0.0)
+    added = total - given
+    if given <= 0.0:
+        return replace(result, given=given, added=added)
+    unit, places = result.unit, _places(result.answer_display)
+    have = fmt(given, unit, places=places)
+    if abs(added) <= 1e-9 * max(1.0, given):
+        words = "all of it in the loading: none to add"
+    elif added > 0:
+        words = f"{have} in the loading and {fmt(added, unit, direction, places=places, nonzero=True)} more"
+    else:
+        out: Literal["up", "down"] = "up" if direction == "down" else "down"
+        words = f"{have} in the loading: {fmt(-added, unit, out, places=places, nonzero=True)} less"
+    return replace(result, given=given, added=added, answer_display=f"{result.answer_display} ({words})")
 
 
 def _beyond(
@@ -820,7 +867,7 @@ def most_payload(aircraft: Aircraft, loading: ResolvedLoading, station: str) -> 
     def at(value: float) -> ResolvedLoading:
         return loading.but(stations={**loading.stations, station: value})
 
-    return _answer(
+    answer = _answer(
         aircraft,
         pairs,
         aircraft.units.mass,
@@ -837,6 +884,7 @@ def most_payload(aircraft: Aircraft, loading: ResolvedLoading, station: str) -> 
             aircraft,
         ),
     )
+    return _at_station(answer, station, loading.stations.get(station, 0.0), "down")
 
 
 def fuel_to_leave(
@@ -863,6 +911,9 @@ def fuel_to_leave(
     unit = aircraft.units.fuel_volume
     now = sum(loading.fuel.values())
     question = f"fuel to leave behind to carry {fmt(payload, aircraft.units.mass)} at {station}"
+    given = loading.stations.get(station, 0.0)
+    if given > 0:  # the payload is the station's whole weight, in place of the loading's
+        question += f" in all (in place of the {fmt(given, aircraft.units.mass)} in the loading there)"
     # fuel left behind = ramp fuel in the loading less the ramp fuel taken, within [0, now]
     pairs = sorted((max(0.0, now - i.high), now - i.low) for i in fuel.intervals if i.low <= now)
     result = _answer(
@@ -892,7 +943,17 @@ def fuel_to_leave(
 def least_ballast(aircraft: Aircraft, loading: ResolvedLoading, station: str | None = None) -> PlanResult:
     """The least ballast at a station that brings every condition within limits.
 
-    ``station`` defaults to the aircraft's ballast station (kind ``ballast``).
+    ``station`` defaults to the aircraft's ballast station (kind ``ballast``). The answer is the
+    station's whole weight, never less than the loading as given has there (the ballast already in
+    it stays): ``given`` is that weight and ``added`` what to put in on top of it, both said beside
+    the figure where the loading has some (``answer_display``: "3.1 lb (1.0 lb in the loading and
+    2.1 lb more)"); where the loading's own ballast is enough, the answer is that, with none to add.
+
+    Returns
+    -------
+    PlanResult
+        ``variable`` is the ballast at the station, in all [mass unit]; ``check`` is the check of
+        the loading with that weight there.
     """
     if station is None:
         ballast = [s.id for s in aircraft.station if s.kind == "ballast"]
@@ -904,33 +965,40 @@ def least_ballast(aircraft: Aircraft, loading: ResolvedLoading, station: str | N
     limit = aircraft.station[index].max_weight
     top = limit if limit is not None else aircraft.limits.ramp
     already = loading.stations.get(station, 0.0)
-    rows = _station_rows(base, index, already)
+    rows = _station_rows(base, index)
     pairs = feasible_intervals(
-        lambda x: _ok(evaluate_arrays(aircraft, base, stations=rows(x))), 0.0, max(0.0, top - already), _GRID_STEP
+        lambda x: _ok(evaluate_arrays(aircraft, base, stations=rows(x))), already, max(already, top), _GRID_STEP
     )
+    start = f"from the {fmt(already, aircraft.units.mass)} in the loading " if already > 0 else ""
     reason = (
-        f"no weight up to the station's maximum ({fmt(top, aircraft.units.mass)}) at {station} "
+        f"no weight {start}up to the station's maximum ({fmt(top, aircraft.units.mass)}) at {station} "
         "brings every condition within limits"
     )
+
+    def at(value: float) -> ResolvedLoading:
+        return loading.but(stations={**loading.stations, station: value})
+
     answer = _answer(
         aircraft,
         pairs,
         aircraft.units.mass,
-        lambda v: loading.but(stations={**loading.stations, station: already + v}),
+        at,
         f"least ballast at {aircraft.station[index].name}",
-        "ballast" if station == "ballast" else f"ballast at {station}",  # never "ballast at ballast"
+        "total ballast" if station == "ballast" else f"total ballast at {station}",  # never "ballast at ballast"
         "up",
         lambda: reason,
         governing=_beyond(  # what a little less ballast exceeds (none where none is needed)
-            None,
-            lambda v: loading.but(stations={**loading.stations, station: already + max(0.0, v - 2 * _GRID_STEP)}),
-            aircraft,
+            None, lambda v: at(max(already, v - 2 * _GRID_STEP)), aircraft
         ),
+        floor=already,
     )
     if not answer.feasible:
         governing, code = _why_not(aircraft, loading, station)
-        return replace(answer, answer_display=f"no amount can: {reason}", governing=governing, governing_code=code)
-    return answer
+        answer = replace(answer, answer_display=f"no amount can: {reason}", governing=governing, governing_code=code)
+    if already > 0 and pairs and pairs[0][0] <= already:  # the stretch starts at the loading's ballast
+        kept = f"{fmt(already, aircraft.units.mass)} in the loading, so no answer is less (less may also do)"
+        answer = replace(answer, extra={**answer.extra, "ballast kept as loaded": kept})
+    return _at_station(answer, station, already, "up")
 
 
 def _limit_states(result: Evaluation) -> np.ndarray:
@@ -1205,7 +1273,9 @@ def weight_shift(
             answer=moved,
             answer_display=shown,
             check=check,
-            extra={"resulting CG": fmt(check.condition(condition).arm, units.arm)} | ({"note": short} if short else {}),
+            extra={"resulting CG": fmt(check.condition(condition).arm, units.arm)}
+            | ({"note": short} if short else {})
+            | _after_move(check, source, target_station, units.mass),
         )
     base = loading_arrays(aircraft, loading)
 
@@ -1265,7 +1335,17 @@ def weight_shift(
         past, _code = _limits_past(check_loading(aircraft, at(min(available, first.high + 2 * _GRID_STEP))))
         if past:
             extra["limited above by"] = f"{past} (moving more than {fmt(first.high, units.mass, 'down')})"
+    if answer.check is not None:
+        extra |= _after_move(answer.check, source, target_station, units.mass)
     return replace(answer, extra=extra)
+
+
+def _after_move(check: CheckResult, source: str, target: str, unit: str) -> dict[str, str]:
+    """What each station of a move holds in the loading checked: the weight moved is an amount, not
+    a station's whole weight, so the answer also says the two stations' weights to load [mass unit]."""
+    held = {item.id: item.weight for item in check.items}
+    words = f"{fmt(held.get(source, 0.0), unit)} at {source}, {fmt(held.get(target, 0.0), unit)} at {target}"
+    return {"after the move": words}
 
 
 @dataclass(frozen=True, kw_only=True, slots=True)

@@ -126,9 +126,9 @@ def test_least_amounts_leave_and_shift_are_checked_and_minimal(seed):
     station = rng.choice(aircraft.station).id
     ballast = P.least_ballast(aircraft, loading, station)
     _carries_its_check(ballast)
-    if ballast.feasible and ballast.answer > TOLERANCE:
-        already = loading.stations.get(station, 0.0)
-        lighter = loading.but(stations={**loading.stations, station: already + ballast.answer - TOLERANCE})
+    already = loading.stations.get(station, 0.0)
+    if ballast.feasible and ballast.answer > already + TOLERANCE:  # the answer is the station's whole weight
+        lighter = loading.but(stations={**loading.stations, station: ballast.answer - TOLERANCE})
         assert not _ok(aircraft, lighter)
     leave = P.fuel_to_leave(aircraft, loading, station, rng.uniform(0, 200))
     _carries_its_check(leave)

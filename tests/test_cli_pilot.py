@@ -456,3 +456,16 @@ def test_regression_the_command_line_names_the_leg_burn_option_the_library_leave
     result = invoke("check", str(sample("trainer4/within.toml")), *options)
     assert_input_error(result, words)
     assert "leg 2, burn" not in result.output
+
+
+def test_regression_plan_ballast_says_the_box_total_as_docs_planning_shows_it():
+    """docs/planning.md ("A station's whole weight"): with 5 kg already in tandem2's ballast box the answer
+    read as a weight to add; it is the box's whole weight, the figure in the moment table of the loading
+    checked, with what the loading has and what to add beside it."""
+    result = invoke("plan", "ballast", str(sample("tandem2/aft_heavy.toml")), "--load", "ballast=5")
+    assert result.exit_code == 0, result.output
+    assert "total ballast: 14.5 kg (5.0 kg in the loading and 9.5 kg more)" in result.output
+    row = next(line for line in result.output.splitlines() if line.startswith("│ Firewall ballast box"))
+    assert row.split("│")[2].strip() == "14.5"
+    doc = (Path(__file__).parents[1] / "docs" / "planning.md").read_text(encoding="utf-8")
+    assert "total ballast: 14.5 kg (5.0 kg in the loading and 9.5 kg more)" in doc

@@ -346,3 +346,42 @@ def test_regression_a_wrapped_note_keeps_its_indent(runner, monkeypatch):
     end = next(i for i, line in enumerate(out) if line.startswith("  fuel states checked"))
     assert end > start + 1 and all(line.startswith("  ") for line in out[start:end]), out[start:end]
     assert any(line.strip() == "limit" for line in out[start:end])  # the wrap this test is about happens
+
+
+def test_regression_a_weight_margin_short_of_a_notch_is_not_called_exceeded():
+    """Trial 13, D11: in a notch of a non-convex envelope a weight margin below zero (edge) is the weight
+    SHORT of the part of the envelope above the point, but the note said "below zero: exceeded", which
+    reads as that much too heavy; taking it off leaves the point in the notch. The notes now say that an
+    (edge) margin below zero does not say which way to go, and that it can be the weight short.
+
+    Invented aircraft (tests/helpers.py simple_aircraft) with a notch in its aft edge, (48, 1600) to
+    (44, 1400) to (48, 1200). By hand (sum of moments, FAA-H-8083-1B chapter 2): 1,000 lb at 40 in,
+    200 lb at 35, 200 lb at 70, 60 lb at 95: W = 1,460 lb, M = 66,700 lb.in, CG = 45.685 in. At that CG
+    the envelope holds weights up to 1,400 - 84.2 = 1,315.8 lb and from 1,400 + 84.2 = 1,484.2 lb; the
+    point is in the notch, 24.2 lb short of the part above (margin -24.2), and aft of the aft limit at
+    its weight, 44 + 60 / 50 = 45.2 in, by 0.485 in."""
+    from rich.console import Console
+
+    from loadcheck.loading import Loading, resolve_loading
+    from loadcheck.render.terminal import EDGE_NOTE, MARGIN_NOTE, render_check
+
+    from .helpers import simple_aircraft
+
+    notch = [[35.0, 900], [35.0, 2000], [48.0, 2000], [48.0, 1600], [44.0, 1400], [48.0, 1200], [48.0, 900]]
+    aircraft = simple_aircraft(envelope=[{"category": "normal", "axes": ["arm", "weight"], "points": notch}])
+    loading = Loading(load={"front": 200, "rear": 200, "bag": 60}, fuel={"main": 0}, burn={"taxi": 0, "trip": 0})
+    check = check_loading(aircraft, resolve_loading(loading, aircraft))
+    takeoff = check.condition("takeoff")
+    cg = 66700.0 / 1460.0
+    assert takeoff.weight == pytest.approx(1460.0) and takeoff.arm == pytest.approx(cg)
+    assert takeoff.margins.weight == pytest.approx(1460.0 - (1400.0 + (cg - 44.0) * 50.0))  # -24.2: short
+    assert takeoff.margins.aft == pytest.approx((44.0 + 60.0 / 50.0) - cg)  # -0.485
+    console = Console(width=200, record=True, color_system=None)
+    render_check(check, console)
+    printed = console.export_text()
+    text = " ".join(printed.split())
+    row = next(line for line in printed.splitlines() if line.startswith("│ Takeoff"))
+    assert "-24.3 (edge)" in row  # rounded down, as every margin
+    assert "(below zero: exceeded)" not in text and "unless marked otherwise" in MARGIN_NOTE
+    assert "the weight short of the part of the envelope above it" in text
+    assert "taking the weight off does not bring it inside" in text and "which way to go" in EDGE_NOTE
