@@ -1009,22 +1009,31 @@ def _trade_loads(
             "trade quantity searched; the answer may not be the extreme"
         )
         stations, fuels = stations[keep], fuels[keep]
-    found = _evaluate(aircraft, category, stations, fuels)
-    kept = found["permitted"]
-    more_stations, more_fuels, lines_cut = _line_loads(
-        aircraft, category, stations[kept], fuels[kept], found, kept, min_fuel
-    )
-    if lines_cut:
+    stations, fuels, found, cut = _with_line_loads(aircraft, category, stations, fuels, min_fuel)
+    if cut:
         notes.append(
             f"search bound: {LINE_BOUND:,} of the part loads along one station or tank from a tank held at a trade "
             "quantity were searched; the answer may not be the extreme"
         )
+    return stations, fuels, found, notes
+
+
+def _with_line_loads(
+    aircraft: Aircraft, category: str, stations: np.ndarray, fuels: np.ndarray, min_fuel: float | None
+) -> tuple[np.ndarray, np.ndarray, dict[str, np.ndarray], bool]:
+    """The loadings (``stations`` (N, S) [mass unit], ``fuels`` (N, T) [fuel volume unit]) evaluated,
+    with the part loads along each line from every permitted one (:func:`_line_loads`: where the
+    least margin can lie between a line's ends) added and evaluated too; and whether the line bound
+    cut those part loads."""
+    found = _evaluate(aircraft, category, stations, fuels)
+    kept = found["permitted"]
+    more_stations, more_fuels, cut = _line_loads(aircraft, category, stations[kept], fuels[kept], found, kept, min_fuel)
     if len(more_stations):
         more = _evaluate(aircraft, category, more_stations, more_fuels)
         stations = np.concatenate([stations, more_stations])
         fuels = np.concatenate([fuels, more_fuels])
         found = {key: np.concatenate([found[key], more[key]]) for key in found}
-    return stations, fuels, found, notes
+    return stations, fuels, found, cut
 
 
 def _ray_loads(
@@ -1175,22 +1184,13 @@ def _search(aircraft: Aircraft, category: str, occupant: float, min_fuel: float 
     fuel = np.array(fuel_states, dtype=float).reshape(len(fuel_states), len(aircraft.tank))
     stations = np.repeat(rows, len(fuel), axis=0)
     fuels = np.tile(fuel, (len(rows), 1))
-    found = _evaluate(aircraft, category, stations, fuels)
     # along each line from a permitted base loading: the loads where the least margin can lie between its ends
-    kept = found["permitted"]
-    more_stations, more_fuels, lines_cut = _line_loads(
-        aircraft, category, stations[kept], fuels[kept], found, kept, min_fuel
-    )
-    if lines_cut:
+    stations, fuels, found, cut = _with_line_loads(aircraft, category, stations, fuels, min_fuel)
+    if cut:
         notes.append(
             f"search bound: {LINE_BOUND:,} of the part loads along one station or tank were searched; the answer may "
             "not be the extreme"
         )
-    if len(more_stations):
-        more = _evaluate(aircraft, category, more_stations, more_fuels)
-        stations = np.concatenate([stations, more_stations])
-        fuels = np.concatenate([fuels, more_fuels])
-        found = {key: np.concatenate([found[key], more[key]]) for key in found}
     # two tanks with arm tables traded against each other at one weight, along the ray where that trade is
     # stationary, from the base
     ray_stations, ray_fuels, rays_cut = _ray_loads(

@@ -711,7 +711,7 @@ def load_check_inputs(
                 Problem(
                     f"fuel.{name}",
                     "fuel given here would not be used: this answer chooses the fuel at engine start; "
-                    "give no fuel (a fill order says which tanks the answer fills first)",
+                    "give none (to check the fuel on board, check the loading with it)",
                 )
                 for name in overrides["fuel"]
             ],
