@@ -642,6 +642,7 @@ def load_check_inputs(
     notes: list[str] = []
     fuel_to_plan = bool(overrides.pop("fuel_to_plan", False))
     stop_to_plan: int | None = overrides.pop("stop_to_plan", None)
+    station_to_plan: str | None = overrides.pop("station_to_plan", None)
     data = read_toml(aircraft_path)
     if loading_path is not None and file_kind(data) == "loading":
         second = file_kind(read_toml(loading_path))
@@ -729,6 +730,18 @@ def load_check_inputs(
                 )
                 for name in typed_stop
             ],
+            file="command line",
+        )
+        raise _named_as_typed(refused, typed) if command_line else refused
+
+    typed_station = (overrides.get("load") or {}).get(station_to_plan) if station_to_plan is not None else None
+    if typed_station is not None:  # the weight the answer puts at that station in place of the one typed
+        refused = InputError(
+            Problem(
+                f"load.{station_to_plan}",
+                "weight given here would not be used: this answer puts the payload asked about at this "
+                "station in its place; give none for it (or give the whole weight as the payload)",
+            ),
             file="command line",
         )
         raise _named_as_typed(refused, typed) if command_line else refused

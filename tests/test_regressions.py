@@ -707,3 +707,17 @@ def test_regression_plan_stop_set_the_typed_fuel_of_its_own_stop_aside(runner, t
     assert "the loading file's fuel put in at the stop before leg 2 (main 5.0) is not used" in " ".join(
         from_file.output.split()
     )
+
+
+def test_regression_plan_leave_set_a_typed_weight_at_its_station_aside(runner):
+    # review 13: `plan leave --station hold --payload 30 --load hold=100` carried 30 lb at the hold, the
+    # typed 100 lb dropped without a word (and on top or instead was not said). The typed weight is
+    # refused, naming the option; the loading file's weight there is said to be replaced (fix-plan13)
+    within = str(sample("trainer4/within.toml"))
+    typed = runner.invoke(app, ["plan", "leave", within, "--station", "hold", "--payload", "30", "--load", "hold=100"])
+    assert typed.exit_code == 2
+    assert "--load hold=100: weight given here would not be used" in " ".join(typed.output.split())
+    from_file = runner.invoke(app, ["plan", "leave", within, "--station", "hold", "--payload", "30"])
+    assert from_file.exit_code in (0, 1) and "in place of the 33.1 lb in the loading there" in " ".join(
+        from_file.output.split()
+    )

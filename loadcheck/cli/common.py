@@ -337,6 +337,7 @@ def _inputs(
     *,
     fuel_to_plan: bool = False,
     stop_to_plan: int | None = None,
+    station_to_plan: str | None = None,
     legs: Mapping[int, Mapping[str, Mapping[str, object]]] | None = None,
     allow_trip: bool = False,
 ) -> CheckInputs:
@@ -344,6 +345,7 @@ def _inputs(
 
     ``fuel_to_plan``: the answer chooses the fuel, so the fuel given need not cover taxi and
     trip; ``stop_to_plan``: the answer chooses the fuel put in at the stop before that leg;
+    ``station_to_plan``: the answer puts its payload at that station, in place of its weight;
     ``legs`` are the legs' options (loadcheck.loading.leg_assignments); ``allow_trip``
     admits a trip.
     """
@@ -366,6 +368,7 @@ def _inputs(
             category=category,
             fuel_to_plan=fuel_to_plan,
             stop_to_plan=stop_to_plan,
+            station_to_plan=station_to_plan,
             legs=legs,
             allow_trip=allow_trip,
             command_line=True,

@@ -622,7 +622,9 @@ def plan_leave(
     from ..planning import fuel_to_leave
     from ..units import read_amount
 
-    inputs = _inputs(aircraft, loading, load, fuel, taxi, trip, trip_time, rate, order, reserve, category)
+    inputs = _inputs(
+        aircraft, loading, load, fuel, taxi, trip, trip_time, rate, order, reserve, category, station_to_plan=station
+    )
     weight = read_amount(_need(payload, "--payload"), inputs.aircraft.units.mass, "--payload")
     named = {"station": ("--station", station), "payload": ("--payload", payload), "fill": ("--fill", fill)}
     with options_as_typed(named):
