@@ -383,5 +383,5 @@ def test_regression_a_weight_margin_short_of_a_notch_is_not_called_exceeded():
     row = next(line for line in printed.splitlines() if line.startswith("│ Takeoff"))
     assert "-24.3 (edge)" in row  # rounded down, as every margin
     assert "(below zero: exceeded)" not in text and "unless marked otherwise" in MARGIN_NOTE
-    assert "the weight short of the part of the envelope above it" in text
+    assert "weight short of the part of the envelope above it" in text
     assert "taking the weight off does not bring it inside" in text and "which way to go" in EDGE_NOTE

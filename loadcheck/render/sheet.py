@@ -70,7 +70,7 @@ tr.total td { font-weight: bold; border-top: 2px solid #111; }
 .limit { font-weight: bold; }
 .who { font-style: italic; }
 ul.findings { margin: .1em 0; padding-left: 1.3em; }
-.note { font-size: 8pt; color: #333; margin: .15em 0; }
+.note { font-size: 7.5pt; color: #333; margin: .15em 0; }
 .chart { break-inside: avoid; page-break-inside: avoid; }
 .chart svg { display: block; width: 100%; height: 82mm; }
 .caution { margin: .5em 0 0 0; font-style: italic; border-top: 1px solid #999; padding-top: .3em; }

@@ -425,19 +425,17 @@ def _result_cell(c: Condition, result: CheckResult) -> Text:
 
 
 MARGIN_NOTE = (
-    "Margins: room left to each limit at that condition, rounded down; below zero, the limit is exceeded by "
-    "that much (rounded up), unless marked otherwise. The CG margins are measured along the CG "
-    "axis at that weight; the weight margin is the room to the maximum weight or to the envelope's boundary "
-    "straight above the point (its top edge, or a sloping side edge, of any envelope: the lateral one too), "
-    "whichever is lower."
+    "Margins: room left to each limit at that condition, rounded down; below zero, the excess, rounded up, "
+    "unless marked otherwise. CG margins run along the CG axis at that weight; the weight margin is the room "
+    "to the maximum weight or to the envelope's boundary straight above the point (its top edge, or a "
+    "sloping side edge, of any envelope: the lateral one too), whichever is lower."
 )
 EDGE_NOTE = (
-    "(edge): not an excess, and no maximum weight is exceeded; the envelope's edge straight above or below "
-    "the point at that CG sets this margin, and it does not say which way to go. Below zero it is either the "
-    "weight over an edge above the point, or the weight short of the part of the envelope above it (a point "
-    "below the envelope's bottom at that CG, or in a notch of its side: there the loading is too light for "
-    "that part, and taking the weight off does not bring it inside). 0 where no weight at all is inside the "
-    "envelope at that CG. The findings say which limit is exceeded and by how much, and so which way to go."
+    "(edge): set by the envelope's edge straight above or below the point at that CG; no maximum weight is "
+    "exceeded, and it does not say which way to go: below zero it is the weight over an edge above, or the "
+    "weight short of the part of the envelope above it (below its bottom, or in a notch), where taking the "
+    "weight off does not bring it inside; 0: no weight at that CG is inside. The findings say which limit "
+    "is exceeded."
 )
 
 
