@@ -4,6 +4,7 @@ the occupants' names."""
 from __future__ import annotations
 
 import re
+from html import unescape
 from html.parser import HTMLParser
 from pathlib import Path
 
@@ -199,7 +200,7 @@ def test_a_failing_trips_leg_1_page_carried_a_bare_within_banner(runner, tmp_pat
     html = sheet.read_text()
     verdicts = re.findall(r"class=.verdict. id=.(?:trip-)?verdict.>([^<]*)<", html)
     assert verdicts == [
-        "OUT OF LIMITS on Leg 2 (back to base, solo)",
+        "OUT OF LIMITS on leg 2 (back to base, solo): 1 limit exceeded.",  # the terminal's words (render.trip)
         "Leg 1 — WITHIN LIMITS; the trip is OUT OF LIMITS on Leg 2 (back to base, solo)",
         "Leg 2 (back to base, solo) — OUT OF LIMITS: 1 limit exceeded",
     ]
@@ -294,3 +295,20 @@ def test_regression_the_record_sheets_changes_table_showed_a_light_placard_as_no
     # the weighing record's points and corrections write the moment unit the same way
     weighing = record_sheet(tmp_path, "weigh", sample("trainer4/aircraft.toml"), sample("trainer4/weighing.toml"))
     assert "Moment (lb·in)" in weighing and "lb*in" not in weighing
+
+
+def test_regression_a_trips_load_sheet_said_within_limits_over_a_legs_warning():
+    # trial 13 D3, left by fix-trip13 on the load sheet: a trip's sheet said "WITHIN LIMITS on every leg"
+    # and "within limits" on a leg landing below its reserve; it says the warning as the terminal does
+    from loadcheck.render.sheet import trip_sheet_html
+    from loadcheck.render.trip import trip_verdict
+    from loadcheck.trip import check_trip
+
+    inputs = load_check_inputs(sample("heli2/trip_drop_off.toml"), allow_trip=True, burn={"reserve": "60"})
+    trip = check_trip(inputs.aircraft, inputs.trip)
+    assert trip.ok and any(f.code == "reserve" for f in trip.legs[0].check.findings)
+    html = trip_sheet_html(trip, trip_loading=inputs.trip)
+    verdict = html[html.index('id="trip-verdict">') : html.index("</p>", html.index('id="trip-verdict">'))]
+    assert trip_verdict(trip) in unescape(verdict) and "1 warning (see the findings)" in verdict
+    row = html[html.index("<td>Leg 1</td>") : html.index("</tr>", html.index("<td>Leg 1</td>"))]
+    assert "within limits: every limit holds" in row and "1 warning" in row

@@ -702,15 +702,20 @@ def trip_sheet_html(
     title = rest[rest.index("<h1>") + 4 : rest.index("</h1>")]
     names = [f"Leg {leg.leg}" + (f" ({leg.label})" if leg.label else "") for leg in trip.legs]
     failed = [name for name, leg in zip(names, trip.legs, strict=True) if not leg.check.ok]
-    verdict = "WITHIN LIMITS on every leg" if trip.ok else "OUT OF LIMITS on " + ", ".join(failed)
+    from ..trip import leg_verdict_text
+    from .trip import trip_verdict
+
+    # the trip's and each leg's verdict in the terminal's words: the warnings of a leg within limits
+    # (a landing below its reserve) are said, not left under a bare "within limits"
     parts = [
         head + "<body>",
         f"<h1>{title}: a trip of {len(trip.legs)} legs</h1>",
-        f'<p class="verdict" id="trip-verdict">{escape(verdict)}</p>',
+        f'<p class="verdict" id="trip-verdict">{escape(trip_verdict(trip))}</p>',
         "<table><tr><th>Leg</th><th>Result</th></tr>",
     ]
     parts += [
-        f"<tr><td>{escape(name)}</td><td>{'within limits' if leg.check.ok else 'OUT OF LIMITS'}</td></tr>"
+        f"<tr><td>{escape(name)}</td><td>{'within limits' if leg.check.ok else 'OUT OF LIMITS'}: "
+        f"{escape(leg_verdict_text(leg.check))}</td></tr>"
         for name, leg in zip(names, trip.legs, strict=True)
     ]
     parts.append("</table>")
