@@ -706,46 +706,10 @@ def load_check_inputs(
         error = error.with_file(loading_path if loading_path is not None else "command line")
         raise _named_as_typed(error, typed) if command_line else error from None
     # fail closed: a value given is used or refused, never set aside (after the values' own problems)
-    if fuel_to_plan and overrides.get("fuel"):
-        refused = InputError(
-            [
-                Problem(
-                    f"fuel.{name}",
-                    "fuel given here would not be used: this answer chooses the fuel at engine start; "
-                    "give none (to check the fuel on board, check the loading with it)",
-                )
-                for name in overrides["fuel"]
-            ],
-            file="command line",
-        )
+    set_aside = _set_aside(overrides, fuel_to_plan, stop_to_plan, station_to_plan)
+    if set_aside:
+        refused = InputError(set_aside, file="command line")
         raise _named_as_typed(refused, typed) if command_line else refused
-    typed_stop = ((overrides.get("legs") or {}).get(stop_to_plan) or {}).get("add_fuel") or {}
-    if stop_to_plan is not None and typed_stop:  # the same for the fuel put in at the stop planned
-        refused = InputError(
-            [
-                Problem(
-                    leg_field(stop_to_plan, f"add_fuel.{name}"),
-                    f"fuel given here would not be used: this answer chooses the fuel put in at the stop "
-                    f"before leg {stop_to_plan}; give none for that stop",
-                )
-                for name in typed_stop
-            ],
-            file="command line",
-        )
-        raise _named_as_typed(refused, typed) if command_line else refused
-
-    typed_station = (overrides.get("load") or {}).get(station_to_plan) if station_to_plan is not None else None
-    if typed_station is not None:  # the weight the answer puts at that station in place of the one typed
-        refused = InputError(
-            Problem(
-                f"load.{station_to_plan}",
-                "weight given here would not be used: this answer puts the payload asked about at this "
-                "station in its place; give none for it (or give the whole weight as the payload)",
-            ),
-            file="command line",
-        )
-        raise _named_as_typed(refused, typed) if command_line else refused
-
     if loading_path is not None:
         legs = trip.legs if trip is not None else (resolved,)
         volume = aircraft.units.fuel_volume
@@ -772,6 +736,42 @@ def load_check_inputs(
         )
     label = loading.label or (Path(loading_path).stem if loading_path is not None else None)
     return CheckInputs(aircraft, resolved, Path(loading_path) if loading_path else None, notes, label, loading, trip)
+
+
+def _set_aside(
+    overrides: Mapping[str, Any], fuel_to_plan: bool, stop_to_plan: int | None, station_to_plan: str | None
+) -> list[Problem]:
+    """A problem for each value of ``overrides`` that the planning answer asked for would set aside:
+    fuel at engine start where it chooses that fuel (``fuel_to_plan``), fuel put in at the stop before
+    leg ``stop_to_plan`` where it chooses that, and the weight at ``station_to_plan`` where it puts
+    its payload there in that weight's place."""
+    problems = [
+        Problem(
+            f"fuel.{name}",
+            "fuel given here would not be used: this answer chooses the fuel at engine start; "
+            "give none (to check the fuel on board, check the loading with it)",
+        )
+        for name in (overrides.get("fuel") or {} if fuel_to_plan else {})
+    ]
+    if stop_to_plan is not None:
+        at_stop = ((overrides.get("legs") or {}).get(stop_to_plan) or {}).get("add_fuel") or {}
+        problems += [
+            Problem(
+                leg_field(stop_to_plan, f"add_fuel.{name}"),
+                f"fuel given here would not be used: this answer chooses the fuel put in at the stop "
+                f"before leg {stop_to_plan}; give none for that stop",
+            )
+            for name in at_stop
+        ]
+    if station_to_plan is not None and station_to_plan in (overrides.get("load") or {}):
+        problems.append(
+            Problem(
+                f"load.{station_to_plan}",
+                "weight given here would not be used: this answer puts the payload asked about at this "
+                "station in its place; give none for it (or give the whole weight as the payload)",
+            )
+        )
+    return problems
 
 
 def _own_reserves(trip: ResolvedTrip | None, overrides: Mapping[str, Any], volume: str) -> list[str]:
@@ -1023,23 +1023,9 @@ def _validate_data(path: str | Path, data: Mapping[str, Any], kind: str) -> str:
     )
 
 
-AIRCRAFT_ONLY_KEYS = (
-    "name",
-    "units",
-    "empty",
-    "limits",
-    "mac",
-    "station",
-    "station_group",
-    "tank",
-    "envelope",
-    "history",
-    "equipment",
-    "rotorcraft",
-    "standard_occupant_weight",
-    "meto_power_hp",
-)
-"""Top-level keys of an aircraft file that no loading, readings or changes file has."""
+AIRCRAFT_ONLY_KEYS = tuple(name for name in Aircraft.model_fields if name not in Loading.model_fields)
+"""Top-level keys of an aircraft file that a loading file has not (no readings or changes file has them
+either: tests/test_fleet.py)."""
 
 
 def file_kind(data: Mapping[str, Any]) -> str:
